@@ -1,0 +1,29 @@
+package trapmap.physics.conversion;
+
+import trapmap.shared.check.Checks;
+
+/** How the excess carrier density of a pixel is known. */
+public sealed interface Injection permits Injection.Fixed, Injection.Generation {
+
+    /** The same excess carrier density Δn at every pixel, cm^-3. */
+    record Fixed(double excessPerCm3) implements Injection {
+        public Fixed {
+            Checks.inRange(excessPerCm3, 1e6, 1e19, "injection", "cm^-3");
+        }
+    }
+
+    /** A uniform steady-state generation rate G; each pixel has Δn = G·τ_eff. */
+    record Generation(double ratePerCm3PerS) implements Injection {
+        public Generation {
+            Checks.inRange(ratePerCm3PerS, 1e10, 1e24, "generation", "cm^-3 s^-1");
+        }
+    }
+
+    static Injection fixed(double excessPerCm3) {
+        return new Fixed(excessPerCm3);
+    }
+
+    static Injection generation(double ratePerCm3PerS) {
+        return new Generation(ratePerCm3PerS);
+    }
+}

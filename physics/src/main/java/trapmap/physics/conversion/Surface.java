@@ -1,0 +1,34 @@
+package trapmap.physics.conversion;
+
+import trapmap.physics.recombination.SurfaceModel;
+import trapmap.shared.check.Checks;
+
+/**
+ * Surface passivation of a wafer: thickness and an equal recombination velocity on both surfaces.
+ *
+ * @param thicknessUm wafer thickness W, µm
+ * @param srvCmPerS   surface recombination velocity S, cm/s (0 = ideal surfaces)
+ * @param model       surface-lifetime model
+ */
+public record Surface(double thicknessUm, double srvCmPerS, SurfaceModel model) {
+    /** Ideal surfaces: no surface recombination term. */
+    public static final Surface IDEAL = new Surface(Double.NaN, 0, SurfaceModel.SPROUL);
+
+    public Surface {
+        Checks.notNull(model, "surface model");
+        if (srvCmPerS != 0 || !Double.isNaN(thicknessUm)) {
+            Checks.inRange(thicknessUm, 1, 5000, "thickness", "um");
+            Checks.inRange(srvCmPerS, 0, 1e7, "surfaceRecombinationVelocity", "cm/s");
+        }
+    }
+
+    /** Sproul-approximated surfaces of velocity {@code srvCmPerS} on a wafer {@code thicknessUm} thick. */
+    public static Surface sproul(double thicknessUm, double srvCmPerS) {
+        return new Surface(thicknessUm, srvCmPerS, SurfaceModel.SPROUL);
+    }
+
+    /** True when there is no surface term. */
+    public boolean ideal() {
+        return srvCmPerS == 0;
+    }
+}
