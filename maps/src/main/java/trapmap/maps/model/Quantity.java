@@ -1,0 +1,68 @@
+package trapmap.maps.model;
+
+import java.util.Locale;
+
+/** What the samples of a map mean, with the unit they are stored in. */
+public enum Quantity {
+    EFFECTIVE_LIFETIME("effective-lifetime", "µs", true),
+    PL_COUNTS("pl-counts", "counts", false),
+    INJECTION("injection", "cm^-3", true),
+    TRAP_DENSITY("trap-density", "cm^-3", true),
+    TRAP_DENSITY_MIN("density-min", "cm^-3", true),
+    TRAP_DENSITY_MAX("density-max", "cm^-3", true),
+    OCCUPANCY("occupancy", "", false),
+    SRH_LIFETIME("srh-lifetime", "µs", true),
+    LIFETIME_AT_REFERENCE("lifetime-at-reference", "µs", true),
+    IRON_DENSITY("iron-density", "cm^-3", true),
+    NORMALISED_DENSITY("normalised-density", "1/µs", false),
+    STATUS("status", "", false),
+    DIFFERENCE("difference", "", false),
+    RATIO("ratio", "", true),
+    RELATIVE_CHANGE("relative-change", "", false),
+    FRACTION("fraction", "", false),
+    UNKNOWN("unknown", "", false);
+
+    private final String key;
+    private final String unit;
+    private final boolean logarithmic;
+
+    Quantity(String key, String unit, boolean logarithmic) {
+        this.key = key;
+        this.unit = unit;
+        this.logarithmic = logarithmic;
+    }
+
+    /** Short name used in files and on the command line, e.g. {@code trap-density}. */
+    public String key() {
+        return key;
+    }
+
+    /** Unit of the stored samples ({@code ""} for dimensionless). */
+    public String unit() {
+        return unit;
+    }
+
+    /** True when the quantity spans decades, so that log scales and log bins suit it. */
+    public boolean logarithmic() {
+        return logarithmic;
+    }
+
+    /**
+     * The quantity with this key (case-insensitive).
+     *
+     * @throws IllegalArgumentException listing the known keys
+     */
+    public static Quantity ofKey(String key) {
+        String k = key.trim().toLowerCase(Locale.ROOT);
+        for (Quantity q : values()) {
+            if (q.key.equals(k)) {
+                return q;
+            }
+        }
+        StringBuilder known = new StringBuilder();
+        for (Quantity q : values()) {
+            known.append(known.length() == 0 ? "" : ", ").append(q.key);
+        }
+        throw new IllegalArgumentException("unknown quantity '" + key + "' (known: " + known + ")");
+    }
+}

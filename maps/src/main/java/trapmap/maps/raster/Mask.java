@@ -1,0 +1,96 @@
+package trapmap.maps.raster;
+
+import java.util.BitSet;
+import java.util.function.IntPredicate;
+
+/** A set of pixels of a raster of known size, for statistics, regions and exclusions. Immutable. */
+public final class Mask {
+    private final int width;
+    private final int height;
+    private final BitSet bits;
+
+    private Mask(int width, int height, BitSet bits) {
+        this.width = width;
+        this.height = height;
+        this.bits = bits;
+    }
+
+    /** The pixels whose index satisfies {@code test}. */
+    public static Mask of(int width, int height, IntPredicate test) {
+        BitSet b = new BitSet(width * height);
+        for (int i = 0, n = width * height; i < n; i++) {
+            if (test.test(i)) {
+                b.set(i);
+            }
+        }
+        return new Mask(width, height, b);
+    }
+
+    /** Every pixel. */
+    public static Mask all(int width, int height) {
+        BitSet b = new BitSet(width * height);
+        b.set(0, width * height);
+        return new Mask(width, height, b);
+    }
+
+    /** The pixels of {@code raster} that hold data (not NaN). */
+    public static Mask valid(FloatRaster raster) {
+        float[] s = raster.samples();
+        return of(raster.width(), raster.height(), i -> s[i] == s[i]);
+    }
+
+    public int width() {
+        return width;
+    }
+
+    public int height() {
+        return height;
+    }
+
+    public boolean contains(int x, int y) {
+        return x >= 0 && y >= 0 && x < width && y < height && bits.get(y * width + x);
+    }
+
+    /** True when pixel index {@code i} (row-major) is in the mask. */
+    public boolean containsIndex(int i) {
+        return bits.get(i);
+    }
+
+    /** Number of pixels in the mask. */
+    public int count() {
+        return bits.cardinality();
+    }
+
+    public Mask and(Mask other) {
+        checkSize(other);
+        BitSet b = (BitSet) bits.clone();
+        b.and(other.bits);
+        return new Mask(width, height, b);
+    }
+
+    public Mask or(Mask other) {
+        checkSize(other);
+        BitSet b = (BitSet) bits.clone();
+        b.or(other.bits);
+        return new Mask(width, height, b);
+    }
+
+    /** The pixels not in this mask. */
+    public Mask not() {
+        BitSet b = (BitSet) bits.clone();
+        b.flip(0, width * height);
+        return new Mask(width, height, b);
+    }
+
+    /** Index of the next pixel in the mask at or after {@code from}, or -1. */
+    public int nextIndex(int from) {
+        return bits.nextSetBit(from);
+    }
+
+    private void checkSize(Mask o) {
+        if (o.width != width || o.height != height) {
+            throw new IllegalArgumentException("mask " + o.width + "x" + o.height + " does not match " + width + "x"
+                    + height);
+        }
+    }
+}
