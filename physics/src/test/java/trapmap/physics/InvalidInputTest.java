@@ -7,7 +7,6 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.stream.Stream;
 import org.assertj.core.api.ThrowableAssert.ThrowingCallable;
-import org.junit.jupiter.api.Disabled;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.Arguments;
@@ -207,14 +206,13 @@ class InvalidInputTest {
         assertThat(RadiativeCoefficient.relative(0, 300)).isEqualTo(1.0);
     }
 
-    // One cross-section without the other: the exception carries field "sigma" and unit cm^2; its message words the
-    // field as "capture cross-sections" (no unit in the text)
+    // One cross-section without the other: the exception names the missing cross-section (sigma_n) and cm^2
     @Test
     void oneCrossSectionMissing() {
         assertThatThrownBy(() -> new Defect("x", "x", TrapLevel.fromIntrinsic(0), NAN, 1e-15, 5,
                 ThermalVelocityModel.FIXED, "", null)).isInstanceOf(InvalidValueException.class)
-                .hasMessageContaining("cross-section")
-                .satisfies(e -> assertThat(((InvalidValueException) e).field()).isEqualTo("sigma"))
+                .hasMessageContaining("cross-section").hasMessageContaining("cm^2")
+                .satisfies(e -> assertThat(((InvalidValueException) e).field()).isEqualTo("sigma_n"))
                 .satisfies(e -> assertThat(((InvalidValueException) e).unit()).isEqualTo("cm^2"));
     }
 
@@ -227,11 +225,6 @@ class InvalidInputTest {
 
     // Negative or zero cross-sections must be reported under the cross-section's own field and unit.
     @Test
-    @Disabled("Defect's compact constructor checks captureRatio = sigma_n/sigma_p before the cross-section ranges:"
-            + " Defect.of(..., sigma_n = -1e-15, sigma_p = 1e-15, ...) fails with 'captureRatio must be > 0 but was"
-            + " -1.0' (field captureRatio, unit ''), sigma_n = 0 with '... but was 0.0', sigma_p = 0 with"
-            + " '... but was Infinity', and one NaN sigma with '... but was NaN' instead of 'needs both capture"
-            + " cross-sections or neither'")
     void negativeOrZeroCrossSectionsNameTheirField() {
         assertThatThrownBy(() -> Defect.of("x", "x", TrapLevel.fromIntrinsic(0), NAN, 1e-15,
                 ThermalVelocityModel.FIXED, "", null)).isInstanceOf(InvalidValueException.class)

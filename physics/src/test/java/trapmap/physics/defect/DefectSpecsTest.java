@@ -7,7 +7,6 @@ import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.function.Consumer;
-import org.junit.jupiter.api.Disabled;
 import org.junit.jupiter.api.Test;
 import trapmap.physics.material.ThermalVelocityModel;
 import trapmap.shared.error.InvalidValueException;
@@ -165,10 +164,6 @@ class DefectSpecsTest {
 
     // A negative or zero cross-section must be reported under its own field and unit.
     @Test
-    @Disabled("Defect's constructor checks captureRatio = sigma_n/sigma_p before the cross-sections: sigma_n_cm2 ="
-            + " -5e-15 is reported as 'captureRatio must be > 0 but was -1.67', sigma_n = 0 as 'captureRatio ... 0.0'"
-            + " and sigma_p = 0 as 'captureRatio ... Infinity' (field captureRatio, no unit) instead of naming the"
-            + " cross-section and cm^2")
     void negativeOrZeroCrossSectionNamesItsField() {
         rejects(with(x -> {
             x.put("sigma_n_cm2", -5e-15);
@@ -187,9 +182,6 @@ class DefectSpecsTest {
     // A non-finite cross-section (possible from JSON/YAML readers that accept NaN/Infinity) must be reported under
     // its own field and unit.
     @Test
-    @Disabled("DefectSpecs.fromMap builds Range.of(sigma) before validating sigma: a NaN/Infinity sigma_n_cm2 is"
-            + " reported as 'min must be a finite number' (field 'min', no unit) instead of naming sigma_n_cm2 and"
-            + " cm^2")
     void nonFiniteCrossSectionNamesItsField() {
         rejects(with(x -> {
             x.put("sigma_n_cm2", Double.NaN);
@@ -204,18 +196,12 @@ class DefectSpecsTest {
     // A spread reaching outside the values a level or cross-section may take must be rejected when the description
     // is read, not accepted and then fail (or silently give nonsense bounds) during conversion.
     @Test
-    @Disabled("DefectSpecs.fromMap accepts spread.energy_ev [-0.5, 0.3] for an E_c-referenced level (valid range"
-            + " 0..1.2 eV); the error only appears when TrapDensityConverter builds the bounds, as 'energy must be in"
-            + " [0.0, 1.2] eV' without the spread field")
     void energySpreadOutsideTheLevelRangeIsRejected() {
         Map<String, Object> spec = with(x -> spread(x).put("energy_ev", List.of(-0.5, 0.3)));
         rejects(spec, "spread.energy_ev", "eV");
     }
 
     @Test
-    @Disabled("DefectSpecs.fromMap accepts spread.sigma_n_cm2 [2.5e-15, 1.0] although a cross-section must lie in"
-            + " [1e-25, 1e-10] cm^2 (the range Defect enforces for the nominal value); SrhBounds then computes the"
-            + " lower density bound with sigma_n = 1 cm^2 and no error is raised anywhere")
     void crossSectionSpreadOutsideTheValidRangeIsRejected() {
         rejects(with(x -> spread(x).put("sigma_n_cm2", List.of(2.5e-15, 1.0))), "spread.sigma_n_cm2", "cm^2");
     }

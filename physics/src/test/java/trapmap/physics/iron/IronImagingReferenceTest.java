@@ -10,7 +10,6 @@ import static trapmap.physics.ReferenceSets.interstitialIronSetB;
 import static trapmap.physics.ReferenceSets.ironBoronSetA;
 import static trapmap.physics.ReferenceSets.ironBoronSetB;
 
-import org.junit.jupiter.api.Disabled;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
@@ -143,10 +142,6 @@ class IronImagingReferenceTest {
     // IronResult documents INVALID for "Δn at the crossover where the method has no signal": there C = 1/(χ_Fei − χ_FeB)
     // diverges, so no finite iron density can be claimed.
     @Test
-    @Disabled("IronImaging.evaluate only returns INVALID when C is not finite; at the solver's crossover C is finite"
-            + " but huge (set B, N_A 1e16, dn = 1.1648e14: C = -1.07e26 us cm^-3), so (20 us, 10 us) gives"
-            + " BELOW_LIMIT with a 'detection limit' of 5.4e23 cm^-3 (1e-9 below the crossover: OK, 1.7e21 cm^-3),"
-            + " contrary to IronResult's documented INVALID at the crossover")
     void crossoverInjectionIsInvalid() {
         IronImaging fe = setB(1e16, fixedVelocities());
         IronResult r = fe.evaluate(20, 10, fe.crossoverPerCm3());
