@@ -20,6 +20,7 @@ import trapmap.physics.recombination.RadiativeCoefficient;
 import trapmap.physics.recombination.SrhRecombination;
 import trapmap.physics.recombination.SurfaceModel;
 import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.units.Units;
 
 /**
  * One {@code calc} case: effective lifetime → equivalent trap density of one defect, with everything the conversion
@@ -94,6 +95,9 @@ final class Calculation {
                 : new Surface(q.thicknessUm(), q.srvCmPerS() == null ? 0 : q.srvCmPerS(), model);
         Injection injection = q.injectionCm3() != null ? Injection.fixed(q.injectionCm3())
                 : Injection.generation(q.generationCm3PerS());
+        if (q.generationCm3PerS() != null) {
+            checkSteadyStateInjection(q.generationCm3PerS(), q.lifetimeUs());
+        }
         double reference = q.referenceInjectionCm3() == null ? Double.NaN : q.referenceInjectionCm3();
         Conditions conditions = new Conditions(q.doping().doping(), silicon, injection, surface,
                 RadiativeCoefficient.TRUPKE_2003_CM3_PER_S, Conditions.DEFAULT_RESOLUTION, reference);
@@ -151,6 +155,19 @@ final class Calculation {
         m.put("caution", CAUTION);
         assert m.keySet().equals(new java.util.LinkedHashSet<>(FIELDS)) : m.keySet();
         return m;
+    }
+
+    /** Δn = G·τ_eff must lie in the range accepted for a fixed injection. */
+    private static void checkSteadyStateInjection(double generation, double lifetimeUs) {
+        double dn = generation * lifetimeUs * Units.S_PER_US;
+        try {
+            Injection.fixed(dn);
+        } catch (InvalidValueException e) {
+            String rule = Flags.message(e).replaceFirst("^--injection ", "").replaceFirst(" \\(got [^)]*\\)$", "");
+            throw new InputException("--generation " + Format.exact(generation) + " cm^-3 s^-1 with --lifetime-us "
+                    + Format.exact(lifetimeUs) + " µs gives Δn = G·τ_eff = " + Format.number(dn) + " cm^-3, but Δn "
+                    + rule, e);
+        }
     }
 
     /** The result without the optional fields that do not apply, for a JSON answer. */

@@ -1,5 +1,7 @@
 package trapmap.cli;
 
+import java.math.BigDecimal;
+import java.math.MathContext;
 import java.util.Locale;
 
 /** Number formatting for messages and tables. */
@@ -14,11 +16,7 @@ final class Format {
         }
         double a = Math.abs(v);
         if (v == 0 || (a >= 1e-3 && a < 1e5)) {
-            String s = String.format(Locale.ROOT, "%.4g", v);
-            if (s.contains("e")) {
-                return scientific(s);
-            }
-            return stripZeros(s);
+            return new BigDecimal(v).round(new MathContext(4)).stripTrailingZeros().toPlainString();
         }
         return scientific(String.format(Locale.ROOT, "%.3e", v));
     }

@@ -60,6 +60,10 @@ class InvalidInputTest {
                 bad(calc("--injection"), "trapmap calc: --injection", "--generation", "required"),
                 bad(calc("--injection", "--generation", "1e5"), "trapmap calc: --generation must be in",
                         "cm^-3 s^-1"),
+                bad(new String[] {"calc", "--lifetime-us", "1000", "--doping", "p:1e16", "--generation", "1e24",
+                    "--defect", "fe-i"},
+                        "trapmap calc: --generation 1e24 cm^-3 s^-1 with --lifetime-us 1000 µs gives Δn = G·τ_eff"
+                                + " = 1e21 cm^-3, but Δn must be in [1e6, 1e19] cm^-3"),
                 bad(calc("", "--srv", "10"), "trapmap calc: --srv needs --thickness-um", "µm"),
                 bad(calc("", "--thickness-um", "180", "--srv", "-1"), "trapmap calc: --srv must be >= 0 cm/s"),
                 bad(calc("", "--temperature", "600"), "trapmap calc: --temperature must be in [77, 500] K (got 600)"),
