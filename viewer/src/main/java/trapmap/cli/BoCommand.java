@@ -34,11 +34,11 @@ final class BoCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
-    @Option(names = "--degraded-us", paramLabel = "<µs>", converter = Quantity.Lifetime.class, order = 1,
+    @Option(names = "--degraded-us", required = true, paramLabel = "<µs>", converter = Quantity.Lifetime.class, order = 1,
             description = "Effective lifetime after light-induced degradation in µs. No default; required.")
     Double degradedUs;
 
-    @Option(names = "--annealed-us", paramLabel = "<µs>", converter = Quantity.Lifetime.class, order = 2,
+    @Option(names = "--annealed-us", required = true, paramLabel = "<µs>", converter = Quantity.Lifetime.class, order = 2,
             description = "Effective lifetime after annealing (or regeneration) in µs, measured at the same injection."
                     + " No default; required.")
     Double annealedUs;
@@ -48,12 +48,6 @@ final class BoCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        if (degradedUs == null) {
-            throw Flags.required("--degraded-us");
-        }
-        if (annealedUs == null) {
-            throw Flags.required("--annealed-us");
-        }
         double nt = BoronOxygen.normalisedDensityPerUs(degradedUs, annealedUs);
         Defect bo = DefectLibrary.byId("bo-lid");
         List<String> warnings = new ArrayList<>();

@@ -1,7 +1,9 @@
 package trapmap.cli;
 
 import java.io.PrintWriter;
+import java.util.ArrayList;
 import java.util.List;
+import java.util.Objects;
 import picocli.CommandLine;
 import picocli.CommandLine.IExecutionExceptionHandler;
 import picocli.CommandLine.IParameterExceptionHandler;
@@ -62,8 +64,18 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
             return Flags.message(ive);
         }
         if (ex instanceof MissingParameterException mp) {
-            List<ArgSpec> missing = mp.getMissing();
-            String f = flag != null ? flag : missing == null || missing.isEmpty() ? null : flagOf(missing.get(0));
+            List<String> missing = new ArrayList<>();
+            if (mp.getMissing() != null) {
+                mp.getMissing().forEach(a -> missing.add(flagOf(a)));
+            }
+            missing.removeIf(Objects::isNull);
+            if (!missing.isEmpty() && String.valueOf(ex.getMessage()).startsWith("Missing required option")) {
+                String f = missing.get(0);
+                String also = missing.size() == 1 ? ""
+                        : " (also missing: " + String.join(", ", missing.subList(1, missing.size())) + ")";
+                return f + " is required: " + Flags.expected(f) + also;
+            }
+            String f = flag != null ? flag : missing.isEmpty() ? null : missing.get(0);
             if (f != null) {
                 return f + " needs a value: " + Flags.expected(f);
             }

@@ -41,19 +41,19 @@ final class IronCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
-    @Option(names = "--before-us", paramLabel = "<µs>", converter = Quantity.Lifetime.class, order = 1,
+    @Option(names = "--before-us", required = true, paramLabel = "<µs>", converter = Quantity.Lifetime.class, order = 1,
             description = "Effective lifetime before dissociation (iron paired as FeB) in µs. No default; required.")
     Double beforeUs;
 
-    @Option(names = "--after-us", paramLabel = "<µs>", converter = Quantity.Lifetime.class, order = 2,
+    @Option(names = "--after-us", required = true, paramLabel = "<µs>", converter = Quantity.Lifetime.class, order = 2,
             description = "Effective lifetime after dissociation (interstitial Fe_i) in µs. No default; required.")
     Double afterUs;
 
-    @Option(names = "--doping", paramLabel = "<type:value>", converter = DopingValue.Converter.class, order = 3,
+    @Option(names = "--doping", required = true, paramLabel = "<type:value>", converter = DopingValue.Converter.class, order = 3,
             description = Help.DOPING + " Must be p-type.")
     DopingValue doping;
 
-    @Option(names = "--injection", paramLabel = "<cm^-3>", converter = Quantity.Density.class, order = 4,
+    @Option(names = "--injection", required = true, paramLabel = "<cm^-3>", converter = Quantity.Density.class, order = 4,
             description = "Excess carrier density Δn in cm^-3 of both measurements, 1e6-1e19. No default; required.")
     Double injection;
 
@@ -70,18 +70,6 @@ final class IronCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        if (beforeUs == null) {
-            throw Flags.required("--before-us");
-        }
-        if (afterUs == null) {
-            throw Flags.required("--after-us");
-        }
-        if (doping == null) {
-            throw Flags.required("--doping");
-        }
-        if (injection == null) {
-            throw Flags.required("--injection");
-        }
         double t = temperature == null ? Calculation.DEFAULT_TEMPERATURE_K : temperature;
         ThermalVelocityModel model = vth == null ? ThermalVelocityModel.FIXED : vth;
         Silicon silicon = Silicon.at(t, model);

@@ -31,23 +31,23 @@ final class PlCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
-    @Option(names = "--counts", paramLabel = "<counts>", converter = Quantity.Counts.class, order = 1,
+    @Option(names = "--counts", required = true, paramLabel = "<counts>", converter = Quantity.Counts.class, order = 1,
             description = "PL signal of the sample in counts (> 0). No default; required.")
     Double counts;
 
-    @Option(names = "--reference-counts", paramLabel = "<counts>", converter = Quantity.Counts.class, order = 2,
+    @Option(names = "--reference-counts", required = true, paramLabel = "<counts>", converter = Quantity.Counts.class, order = 2,
             description = "PL signal of the reference in counts (> 0). No default; required.")
     Double referenceCounts;
 
-    @Option(names = "--reference-lifetime-us", paramLabel = "<µs>", converter = Quantity.Lifetime.class, order = 3,
+    @Option(names = "--reference-lifetime-us", required = true, paramLabel = "<µs>", converter = Quantity.Lifetime.class, order = 3,
             description = "Known effective lifetime of the reference in µs. No default; required.")
     Double referenceLifetimeUs;
 
-    @Option(names = "--generation", paramLabel = "<cm^-3 s^-1>", converter = Quantity.Generation.class, order = 4,
+    @Option(names = "--generation", required = true, paramLabel = "<cm^-3 s^-1>", converter = Quantity.Generation.class, order = 4,
             description = "Generation rate G in cm^-3 s^-1 of both measurements. No default; required.")
     Double generation;
 
-    @Option(names = "--doping", paramLabel = "<type:value>", converter = DopingValue.Converter.class, order = 5,
+    @Option(names = "--doping", required = true, paramLabel = "<type:value>", converter = DopingValue.Converter.class, order = 5,
             description = Help.DOPING)
     DopingValue doping;
 
@@ -56,21 +56,6 @@ final class PlCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        if (counts == null) {
-            throw Flags.required("--counts");
-        }
-        if (referenceCounts == null) {
-            throw Flags.required("--reference-counts");
-        }
-        if (referenceLifetimeUs == null) {
-            throw Flags.required("--reference-lifetime-us");
-        }
-        if (generation == null) {
-            throw Flags.required("--generation");
-        }
-        if (doping == null) {
-            throw Flags.required("--doping");
-        }
         double n = doping.doping().densityPerCm3();
         PlCalibration cal = PlCalibration.fromReference(referenceCounts, referenceLifetimeUs, generation, n);
         double dn = cal.injectionPerCm3(counts);

@@ -85,6 +85,8 @@ class InvalidInputTest {
                         "trapmap calc iron: --before-us is required", "µs"),
                 bad(new String[] {"calc", "iron", "--before-us", "20", "--after-us", "8", "--doping", "p:1e16",
                     "--injection", "1e20"}, "trapmap calc iron: --injection must be in", "cm^-3"),
+                bad(new String[] {"calc", "iron", "--doping", "p:1e16"}, "trapmap calc iron: --before-us is required",
+                        "µs", "also missing: --after-us, --injection"),
                 bad(new String[] {"calc", "bo", "--degraded-us", "-40", "--annealed-us", "300"},
                         "trapmap calc bo: --degraded-us must be > 0 µs (got -40)"),
                 bad(new String[] {"calc", "pl", "--counts", "1", "--reference-counts", "1", "--reference-lifetime-us",
