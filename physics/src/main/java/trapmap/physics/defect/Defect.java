@@ -21,6 +21,11 @@ public record Defect(String id, String name, TrapLevel level, double electronCro
                      double holeCrossSectionCm2, double captureRatio, ThermalVelocityModel velocityConvention,
                      String source, ParameterSpread spread) {
 
+    /** Smallest capture cross-section accepted, cm². */
+    public static final double MIN_CROSS_SECTION_CM2 = 1e-25;
+    /** Largest capture cross-section accepted, cm². */
+    public static final double MAX_CROSS_SECTION_CM2 = 1e-10;
+
     public Defect {
         Checks.notNull(id, "id");
         if (!id.matches("[a-z0-9][a-z0-9_.-]{0,39}")) {
@@ -29,21 +34,23 @@ public record Defect(String id, String name, TrapLevel level, double electronCro
         }
         Checks.notNull(level, "level");
         Checks.notNull(velocityConvention, "velocityConvention");
-        Checks.positive(captureRatio, "captureRatio", "");
         boolean hasSigmaN = !Double.isNaN(electronCrossSectionCm2);
         boolean hasSigmaP = !Double.isNaN(holeCrossSectionCm2);
         if (hasSigmaN != hasSigmaP) {
-            throw new InvalidValueException("sigma", "cm^2",
-                    "defect '" + id + "' needs both capture cross-sections or neither");
+            throw new InvalidValueException(hasSigmaN ? "sigma_p" : "sigma_n", "cm^2", "defect '" + id
+                    + "' needs both capture cross-sections sigma_n and sigma_p (cm^2) or neither");
         }
         if (hasSigmaN) {
-            Checks.inRange(electronCrossSectionCm2, 1e-25, 1e-10, "sigma_n", "cm^2");
-            Checks.inRange(holeCrossSectionCm2, 1e-25, 1e-10, "sigma_p", "cm^2");
+            Checks.inRange(electronCrossSectionCm2, MIN_CROSS_SECTION_CM2, MAX_CROSS_SECTION_CM2, "sigma_n", "cm^2");
+            Checks.inRange(holeCrossSectionCm2, MIN_CROSS_SECTION_CM2, MAX_CROSS_SECTION_CM2, "sigma_p", "cm^2");
+            Checks.positive(captureRatio, "captureRatio", "");
             double k = electronCrossSectionCm2 / holeCrossSectionCm2;
             if (Math.abs(k - captureRatio) > 1e-9 * k) {
                 throw new InvalidValueException("captureRatio", "", "defect '" + id + "': captureRatio " + captureRatio
                         + " differs from sigma_n/sigma_p = " + k);
             }
+        } else {
+            Checks.positive(captureRatio, "captureRatio", "");
         }
         source = source == null ? "" : source;
     }

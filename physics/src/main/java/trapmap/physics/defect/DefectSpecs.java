@@ -5,6 +5,7 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
 import trapmap.physics.material.ThermalVelocityModel;
+import trapmap.shared.check.Checks;
 import trapmap.shared.error.InvalidValueException;
 
 /**
@@ -33,9 +34,9 @@ public final class DefectSpecs {
      */
     public static Defect fromMap(Map<String, ?> spec, String origin) {
         unknownKeys(spec, KEYS, origin, "");
-        String id = text(spec, "id", origin, true);
-        String name = text(spec, "name", origin, false);
-        String source = text(spec, "source", origin, true);
+        String id = text(spec, "id", "", origin, true);
+        String name = text(spec, "name", "", origin, false);
+        String source = text(spec, "source", "", origin, true);
         Object levelObj = spec.get("level");
         if (!(levelObj instanceof Map)) {
             throw error(origin, "level", "", "is required: an object with reference (Ec, Ev or Ei) and energy_ev");
@@ -43,23 +44,28 @@ public final class DefectSpecs {
         @SuppressWarnings("unchecked")
         Map<String, ?> level = (Map<String, ?>) levelObj;
         unknownKeys(level, LEVEL_KEYS, origin, "level.");
-        EnergyReference ref = reference(text(level, "reference", origin, true), origin);
-        double energy = number(level, "energy_ev", "eV", origin, true, Double.NaN);
-        double g = number(level, "degeneracy", "", origin, false, 1.0);
-        double sn = number(spec, "sigma_n_cm2", "cm^2", origin, true, Double.NaN);
-        double sp = number(spec, "sigma_p_cm2", "cm^2", origin, true, Double.NaN);
-        String vth = text(spec, "vth_convention", origin, false);
+        EnergyReference ref = reference(text(level, "reference", "level.", origin, true), origin);
+        double energy = number(level, "energy_ev", "level.", "eV", origin, true, Double.NaN);
+        double g = number(level, "degeneracy", "level.", "", origin, false, 1.0);
+        double sn = number(spec, "sigma_n_cm2", "", "cm^2", origin, true, Double.NaN);
+        double sp = number(spec, "sigma_p_cm2", "", "cm^2", origin, true, Double.NaN);
+        String vth = text(spec, "vth_convention", "", origin, false);
         ThermalVelocityModel convention = vth == null ? ThermalVelocityModel.FIXED : velocity(vth, origin);
         try {
             TrapLevel trap = new TrapLevel(ref, energy, g);
-            ParameterSpread spread = spread(spec.get("spread"), energy, sn, sp, origin);
+            Checks.inRange(sn, Defect.MIN_CROSS_SECTION_CM2, Defect.MAX_CROSS_SECTION_CM2, "sigma_n_cm2", "cm^2");
+            Checks.inRange(sp, Defect.MIN_CROSS_SECTION_CM2, Defect.MAX_CROSS_SECTION_CM2, "sigma_p_cm2", "cm^2");
+            ParameterSpread spread = spread(spec.get("spread"), trap, sn, sp, origin);
             return Defect.of(id, name == null ? id : name, trap, sn, sp, convention, source, spread);
         } catch (InvalidValueException e) {
-            throw new InvalidValueException(e.field(), e.unit(), origin + ": " + e.getMessage());
+            String field = e.field().equals("energy") || e.field().equals("degeneracy") ? "level." + e.field()
+                    + (e.field().equals("energy") ? "_ev" : "") : e.field();
+            throw new InvalidValueException(field, e.unit(), origin + ": " + e.getMessage());
         }
     }
 
-    private static ParameterSpread spread(Object o, double e, double sn, double sp, String origin) {
+    private static ParameterSpread spread(Object o, TrapLevel level, double sn, double sp, String origin) {
+        double e = level.energyEv();
         if (o == null) {
             return new ParameterSpread(Range.of(e), Range.of(sn), Range.of(sp), "no spread given");
         }
@@ -69,14 +75,19 @@ public final class DefectSpecs {
         @SuppressWarnings("unchecked")
         Map<String, ?> m = (Map<String, ?>) o;
         unknownKeys(m, SPREAD_KEYS, origin, "spread.");
-        Range er = range(m, "energy_ev", "eV", e, origin);
-        Range nr = range(m, "sigma_n_cm2", "cm^2", sn, origin);
-        Range pr = range(m, "sigma_p_cm2", "cm^2", sp, origin);
+        boolean fromMidgap = level.reference() == EnergyReference.INTRINSIC;
+        Range er = range(m, "energy_ev", "eV", e, fromMidgap ? -TrapLevel.MAX_ENERGY_EV / 2 : 0,
+                fromMidgap ? TrapLevel.MAX_ENERGY_EV / 2 : TrapLevel.MAX_ENERGY_EV, origin);
+        Range nr = range(m, "sigma_n_cm2", "cm^2", sn, Defect.MIN_CROSS_SECTION_CM2, Defect.MAX_CROSS_SECTION_CM2,
+                origin);
+        Range pr = range(m, "sigma_p_cm2", "cm^2", sp, Defect.MIN_CROSS_SECTION_CM2, Defect.MAX_CROSS_SECTION_CM2,
+                origin);
         Object note = m.get("note");
         return new ParameterSpread(er, nr, pr, note == null ? "user-defined" : note.toString());
     }
 
-    private static Range range(Map<String, ?> m, String key, String unit, double nominal, String origin) {
+    private static Range range(Map<String, ?> m, String key, String unit, double nominal, double lowest,
+                               double highest, String origin) {
         Object v = m.get(key);
         if (v == null) {
             return Range.of(nominal);
@@ -91,8 +102,9 @@ public final class DefectSpecs {
             throw error(origin, "spread." + key, unit, "[" + lo + ", " + hi + "] " + unit
                     + " must contain the nominal value " + nominal);
         }
-        if (!unit.equals("eV") && !(lo > 0)) {
-            throw error(origin, "spread." + key, unit, "minimum must be > 0 " + unit);
+        if (!(lo >= lowest && hi <= highest)) {
+            throw error(origin, "spread." + key, unit, "[" + lo + ", " + hi + "] " + unit + " must lie within ["
+                    + lowest + ", " + highest + "] " + unit);
         }
         return new Range(lo, hi);
     }
@@ -125,31 +137,32 @@ public final class DefectSpecs {
         }
     }
 
-    private static String text(Map<String, ?> m, String key, String origin, boolean required) {
+    private static String text(Map<String, ?> m, String key, String prefix, String origin, boolean required) {
         Object v = m.get(key);
         if (v == null) {
             if (required) {
-                throw error(origin, key, "", "is required");
+                throw error(origin, prefix + key, "", "is required");
             }
             return null;
         }
         if (!(v instanceof String) || ((String) v).isBlank()) {
-            throw error(origin, key, "", "must be a non-empty text");
+            throw error(origin, prefix + key, "", "must be a non-empty text");
         }
         return (String) v;
     }
 
-    private static double number(Map<String, ?> m, String key, String unit, String origin, boolean required,
-                                 double fallback) {
+    private static double number(Map<String, ?> m, String key, String prefix, String unit, String origin,
+                                 boolean required, double fallback) {
         Object v = m.get(key);
         if (v == null) {
             if (required) {
-                throw error(origin, key, unit, "is required (a number in " + (unit.isEmpty() ? "no unit" : unit) + ")");
+                throw error(origin, prefix + key, unit, "is required (a number in " + (unit.isEmpty() ? "no unit"
+                        : unit) + ")");
             }
             return fallback;
         }
         if (!(v instanceof Number)) {
-            throw error(origin, key, unit, "must be a number" + (unit.isEmpty() ? "" : " in " + unit)
+            throw error(origin, prefix + key, unit, "must be a number" + (unit.isEmpty() ? "" : " in " + unit)
                     + " but was '" + v + "'");
         }
         return ((Number) v).doubleValue();

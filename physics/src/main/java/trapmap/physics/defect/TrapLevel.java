@@ -19,12 +19,15 @@ import trapmap.shared.check.Checks;
  */
 public record TrapLevel(EnergyReference reference, double energyEv, double degeneracy) {
 
+    /** Largest level energy accepted from a band edge, eV (about the silicon band gap). */
+    public static final double MAX_ENERGY_EV = 1.2;
+
     public TrapLevel {
         Checks.notNull(reference, "reference");
         if (reference == EnergyReference.INTRINSIC) {
-            Checks.inRange(energyEv, -0.6, 0.6, "energy", "eV");
+            Checks.inRange(energyEv, -MAX_ENERGY_EV / 2, MAX_ENERGY_EV / 2, "energy", "eV");
         } else {
-            Checks.inRange(energyEv, 0, 1.2, "energy", "eV");
+            Checks.inRange(energyEv, 0, MAX_ENERGY_EV, "energy", "eV");
         }
         Checks.positive(degeneracy, "degeneracy", "");
     }

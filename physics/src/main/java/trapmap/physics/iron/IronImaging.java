@@ -25,9 +25,15 @@ import trapmap.shared.units.Units;
  * with χ the SRH recombination rate per unit trap density of each state at the pixel's Δn. Assumes complete
  * dissociation, all other recombination unchanged, and the same Δn in both measurements. C diverges at the
  * crossover injection where both states give the same lifetime and changes sign above it; results within a factor
- * 2 of the crossover carry {@link ConversionWarning#NEAR_IRON_CROSSOVER}.
+ * 2 of the crossover carry {@link ConversionWarning#NEAR_IRON_CROSSOVER}, and within ±10 % of it the method has no
+ * usable signal and the result is {@link PixelStatus#INVALID}.
  */
 public final class IronImaging {
+    /** Within this factor of the crossover the method has no signal: the result is INVALID. */
+    public static final double NO_SIGNAL_FACTOR = 1.1;
+    /** Within this factor of the crossover results carry a warning. */
+    public static final double WARNING_FACTOR = 2.0;
+
     private final SrhRecombination interstitial;
     private final SrhRecombination pair;
     private final double crossoverPerCm3;
@@ -70,11 +76,13 @@ public final class IronImaging {
         Set<ConversionWarning> warnings = EnumSet.noneOf(ConversionWarning.class);
         double c = prefactorSCm3(dn);
         double cUs = c * Units.US_PER_S;
-        if (!Double.isNaN(crossoverPerCm3) && dn > crossoverPerCm3 / 2 && dn < crossoverPerCm3 * 2) {
+        double distance = Double.isNaN(crossoverPerCm3) ? Double.POSITIVE_INFINITY
+                : Math.abs(Math.log(dn / crossoverPerCm3));
+        if (distance < Math.log(WARNING_FACTOR)) {
             warnings.add(ConversionWarning.NEAR_IRON_CROSSOVER);
         }
         if (!(beforeUs > 0) || !(afterUs > 0) || Double.isInfinite(beforeUs) || Double.isInfinite(afterUs)
-                || !Double.isFinite(c)) {
+                || !Double.isFinite(c) || distance < Math.log(NO_SIGNAL_FACTOR)) {
             return new IronResult(PixelStatus.INVALID, Double.NaN, cUs, crossoverPerCm3, warnings);
         }
         double fe = cUs * (1.0 / afterUs - 1.0 / beforeUs);

@@ -8,7 +8,8 @@ import trapmap.physics.conversion.PixelStatus;
  * Interstitial iron from one before/after FeB-dissociation pair.
  *
  * @param status            {@code OK}; {@code BELOW_LIMIT} (no iron detectable: the density is the detection limit);
- *                          {@code INVALID} (bad lifetimes, or Δn at the crossover where the method has no signal)
+ *                          {@code INVALID} (bad lifetimes, or Δn within ±10 % of the crossover where the method
+ *                          has no signal)
  * @param ironPerCm3        [Fe_i], cm^-3
  * @param prefactorUsCm3    C(Δn, N_A, T), µs·cm^-3
  * @param crossoverPerCm3   Δn at which Fe_i and FeB give equal lifetimes, cm^-3 (NaN when there is none)

@@ -1,0 +1,96 @@
+package trapmap.cli;
+
+import java.io.PrintWriter;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Objects;
+import picocli.CommandLine;
+import picocli.CommandLine.IExecutionExceptionHandler;
+import picocli.CommandLine.IParameterExceptionHandler;
+import picocli.CommandLine.Model.ArgSpec;
+import picocli.CommandLine.Model.OptionSpec;
+import picocli.CommandLine.MissingParameterException;
+import picocli.CommandLine.ParameterException;
+import picocli.CommandLine.ParseResult;
+import picocli.CommandLine.UnmatchedArgumentException;
+import trapmap.shared.error.InvalidValueException;
+
+/**
+ * Turns every failure into exactly one line on stderr, {@code <command>: <message>}, that names the flag and what
+ * it expects; never a stack trace, never the usage text. Invalid input exits with {@link Exit#INVALID_INPUT}. An
+ * unexpected exception exits with {@link Exit#INTERNAL_ERROR}; its stack trace is printed only when the environment
+ * variable {@code TRAPMAP_DEBUG} is set.
+ */
+final class ErrorHandler implements IParameterExceptionHandler, IExecutionExceptionHandler {
+
+    @Override
+    public int handleParseException(ParameterException ex, String[] args) {
+        CommandLine cmd = ex.getCommandLine();
+        print(cmd, describe(ex));
+        return Exit.INVALID_INPUT;
+    }
+
+    @Override
+    public int handleExecutionException(Exception ex, CommandLine cmd, ParseResult parseResult) {
+        if (ex instanceof InputException) {
+            print(cmd, ex.getMessage());
+            return Exit.INVALID_INPUT;
+        }
+        if (ex instanceof InvalidValueException ive) {
+            print(cmd, Flags.message(ive));
+            return Exit.INVALID_INPUT;
+        }
+        print(cmd, "internal error: " + ex + " (set TRAPMAP_DEBUG=1 for details)");
+        if (System.getenv("TRAPMAP_DEBUG") != null) {
+            ex.printStackTrace(cmd.getErr());
+        }
+        return Exit.INTERNAL_ERROR;
+    }
+
+    private static void print(CommandLine cmd, String message) {
+        PrintWriter err = cmd.getErr();
+        err.println(cmd.getCommandSpec().qualifiedName() + ": " + Flags.oneLine(message));
+        err.flush();
+    }
+
+    /** One line for a parse failure, naming the flag and what it expects. */
+    static String describe(ParameterException ex) {
+        String flag = flagOf(ex.getArgSpec());
+        Throwable cause = ex.getCause();
+        if (flag != null && cause instanceof Quantity.BadValue) {
+            return flag + " " + cause.getMessage();
+        }
+        if (flag != null && cause instanceof InvalidValueException ive) {
+            return Flags.message(ive);
+        }
+        if (ex instanceof MissingParameterException mp) {
+            List<String> missing = new ArrayList<>();
+            if (mp.getMissing() != null) {
+                mp.getMissing().forEach(a -> missing.add(flagOf(a)));
+            }
+            missing.removeIf(Objects::isNull);
+            if (!missing.isEmpty() && String.valueOf(ex.getMessage()).startsWith("Missing required option")) {
+                String f = missing.get(0);
+                String also = missing.size() == 1 ? ""
+                        : " (also missing: " + String.join(", ", missing.subList(1, missing.size())) + ")";
+                return f + " is required: " + Flags.expected(f) + also;
+            }
+            String f = flag != null ? flag : missing.isEmpty() ? null : missing.get(0);
+            if (f != null) {
+                return f + " needs a value: " + Flags.expected(f);
+            }
+        }
+        String help = " (see '" + ex.getCommandLine().getCommandSpec().qualifiedName() + " --help')";
+        if (ex instanceof UnmatchedArgumentException u) {
+            List<String> suggestions = u.getSuggestions();
+            String first = Flags.oneLine(u.getMessage());
+            return suggestions.isEmpty() ? first + help
+                    : first + "; did you mean " + String.join(" or ", suggestions) + "?" + help;
+        }
+        return Flags.oneLine(ex.getMessage()) + help;
+    }
+
+    private static String flagOf(ArgSpec arg) {
+        return arg instanceof OptionSpec o ? o.longestName() : null;
+    }
+}

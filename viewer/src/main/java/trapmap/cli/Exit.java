@@ -1,0 +1,16 @@
+package trapmap.cli;
+
+/** Exit codes of the command line. */
+final class Exit {
+    /** Done. */
+    static final int OK = 0;
+    /** A cases file was processed but some of its rows failed. */
+    static final int SOME_CASES_FAILED = 1;
+    /** Invalid input: bad or missing flag values, unusable input files. Nothing was computed. */
+    static final int INVALID_INPUT = 2;
+    /** An unexpected internal error. */
+    static final int INTERNAL_ERROR = 3;
+
+    private Exit() {
+    }
+}

@@ -1,0 +1,101 @@
+package trapmap.cli;
+
+import static java.util.Map.entry;
+
+import java.util.Map;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+import trapmap.shared.error.InvalidValueException;
+
+/**
+ * What each flag expects, and which flag a physics field belongs to, so that every error message names the flag the
+ * user typed and the unit it is read in.
+ */
+final class Flags {
+    /** What a flag expects, for "needs a value" and "is required" messages. */
+    private static final Map<String, String> EXPECTED = Map.ofEntries(
+            entry("--lifetime-us", "an effective lifetime in µs"),
+            entry("--doping", DopingValue.EXPECTED),
+            entry("--injection", "an excess carrier density Δn in cm^-3"),
+            entry("--generation", "a generation rate G in cm^-3 s^-1"),
+            entry("--defect", "a defect id (list them with 'trapmap defects')"),
+            entry("--defect-file", "a JSON file of user-defined defects"),
+            entry("--temperature", "a temperature in K"),
+            entry("--thickness-um", "a wafer thickness in µm"),
+            entry("--srv", "a surface recombination velocity in cm/s"),
+            entry("--surface-model", "sproul or exact"),
+            entry("--vth", "fixed or green"),
+            entry("--reference-injection", "an excess carrier density in cm^-3"),
+            entry("--cases", "a CSV file of cases"),
+            entry("--out", "the CSV file to write"),
+            entry("--before-us", "the lifetime before FeB dissociation in µs"),
+            entry("--after-us", "the lifetime after FeB dissociation in µs"),
+            entry("--degraded-us", "the degraded lifetime in µs"),
+            entry("--annealed-us", "the annealed (or regenerated) lifetime in µs"),
+            entry("--counts", "the PL signal in counts"),
+            entry("--reference-counts", "the reference PL signal in counts"),
+            entry("--reference-lifetime-us", "the reference effective lifetime in µs"));
+
+    /** Field names used by the physics checks, with the flag the value came from. */
+    private static final Map<String, String> PHYSICS_FIELDS = Map.ofEntries(
+            entry("injection", "--injection"),
+            entry("generation", "--generation"),
+            entry("doping", "--doping"),
+            entry("doping type", "--doping"),
+            entry("resistivity", "--doping"),
+            entry("dopantDensity", "--doping"),
+            entry("temperature", "--temperature"),
+            entry("thickness", "--thickness-um"),
+            entry("surfaceRecombinationVelocity", "--srv"),
+            entry("referenceInjection", "--reference-injection"),
+            entry("defect", "--defect"),
+            entry("degradedLifetime", "--degraded-us"),
+            entry("annealedLifetime", "--annealed-us"),
+            entry("referenceCounts", "--reference-counts"),
+            entry("referenceLifetime", "--reference-lifetime-us"));
+
+    private static final Pattern DECIMAL = Pattern.compile("(?<![\\w.])-?\\d+\\.\\d+(E-?\\d+)?(?![\\w.])");
+
+    private Flags() {
+    }
+
+    /** What {@code flag} expects, e.g. {@code a wafer thickness in µm}. */
+    static String expected(String flag) {
+        return EXPECTED.getOrDefault(flag, "a value");
+    }
+
+    /** {@code "--x is required: <what it expects>"}. */
+    static InputException required(String flag) {
+        return new InputException(flag + " is required: " + expected(flag));
+    }
+
+    /**
+     * A one-line message for a physics range error, in terms of the flag: {@code thickness must be in [1.0, 5000.0]
+     * um but was 0.5} becomes {@code --thickness-um must be in [1, 5000] µm (got 0.5)}.
+     */
+    static String message(InvalidValueException e) {
+        String field = e.field() == null ? "" : e.field();
+        String flag = PHYSICS_FIELDS.get(field);
+        String msg = oneLine(e.getMessage());
+        msg = msg.replaceAll(" but was (\\S+)$", " (got $1)");
+        Matcher m = DECIMAL.matcher(msg);
+        StringBuilder sb = new StringBuilder();
+        while (m.find()) {
+            m.appendReplacement(sb, Matcher.quoteReplacement(Format.exact(Double.parseDouble(m.group()))));
+        }
+        m.appendTail(sb);
+        msg = sb.toString().replaceAll("\\bum\\b", "µm").replaceAll("\\bus\\b", "µs").replace("ohm*cm", "Ω·cm");
+        if (flag == null) {
+            return msg;
+        }
+        if (!field.isEmpty() && msg.startsWith(field + " ")) {
+            return flag + msg.substring(field.length());
+        }
+        return flag + ": " + msg;
+    }
+
+    /** {@code s} on one line. */
+    static String oneLine(String s) {
+        return s == null ? "" : s.replaceAll("\\s*\\R\\s*", " ").trim();
+    }
+}

@@ -1,0 +1,91 @@
+package trapmap.cli;
+
+import com.fasterxml.jackson.core.JsonProcessingException;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import java.io.UncheckedIOException;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+
+/** JSON and aligned-text output. JSON never holds NaN or infinities: such values are written as {@code null}. */
+final class Output {
+    private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+
+    private Output() {
+    }
+
+    /** A finite number, or null for NaN and infinities (JSON has no representation for them). */
+    static Double num(double v) {
+        return Double.isFinite(v) ? v : null;
+    }
+
+    /** {@code value} as indented JSON. */
+    static String json(Object value) {
+        try {
+            return JSON.writeValueAsString(value);
+        } catch (JsonProcessingException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+
+    /** A result value as one CSV cell: numbers in full precision, lists joined by "; ", null as empty. */
+    static String cell(Object value) {
+        if (value == null) {
+            return "";
+        }
+        if (value instanceof List<?> list) {
+            List<String> parts = new ArrayList<>();
+            list.forEach(o -> parts.add(String.valueOf(o)));
+            return String.join("; ", parts);
+        }
+        return String.valueOf(value);
+    }
+
+    /** Two aligned columns: labels, then value and unit. */
+    static final class Table {
+        private final List<String[]> rows = new ArrayList<>();
+        private final List<String> notes = new ArrayList<>();
+
+        /** A row; {@code value} null is skipped. */
+        Table row(String label, String value, String unit) {
+            if (value != null) {
+                rows.add(new String[] {label, unit == null || unit.isEmpty() ? value : value + " " + unit});
+            }
+            return this;
+        }
+
+        /** A numeric row from a result map (skipped when the key is absent); null shown as {@code nullText}. */
+        Table number(Map<String, Object> result, String key, String label, String unit, String nullText) {
+            if (!result.containsKey(key)) {
+                return this;
+            }
+            Object v = result.get(key);
+            if (v == null) {
+                return nullText == null ? this : row(label, nullText, "");
+            }
+            return row(label, Format.number(((Number) v).doubleValue()), unit);
+        }
+
+        /** A free text line printed after the rows. */
+        Table note(String line) {
+            notes.add(line);
+            return this;
+        }
+
+        String render() {
+            int width = 0;
+            for (String[] r : rows) {
+                width = Math.max(width, r[0].length());
+            }
+            StringBuilder sb = new StringBuilder();
+            for (String[] r : rows) {
+                sb.append(String.format("%-" + width + "s  %s%n", r[0], r[1]));
+            }
+            for (String n : notes) {
+                sb.append(n).append(System.lineSeparator());
+            }
+            return sb.toString();
+        }
+    }
+}

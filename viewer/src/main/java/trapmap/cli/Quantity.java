@@ -1,0 +1,121 @@
+package trapmap.cli;
+
+import java.util.regex.Pattern;
+import picocli.CommandLine.ITypeConverter;
+import picocli.CommandLine.TypeConversionException;
+
+/**
+ * The numeric kinds of input the commands take, each with its unit and sign rule. Parsing is strict (plain decimal
+ * or scientific notation, no NaN, no hexadecimal) and every failure says what was expected, in which unit, and what
+ * was given. The nested converters plug these into picocli options; cases files use {@link #parse} directly.
+ */
+enum Quantity {
+    LIFETIME_US("µs", true),
+    DENSITY_CM3("cm^-3", true),
+    GENERATION("cm^-3 s^-1", true),
+    THICKNESS_UM("µm", true),
+    SRV_CM_S("cm/s", false),
+    TEMPERATURE_K("K", true),
+    COUNTS("counts", true);
+
+    private static final Pattern NUMBER = Pattern.compile("[+-]?(\\d+\\.?\\d*|\\.\\d+)([eE][+-]?\\d+)?");
+
+    private final String unit;
+    private final boolean strictlyPositive;
+
+    Quantity(String unit, boolean strictlyPositive) {
+        this.unit = unit;
+        this.strictlyPositive = strictlyPositive;
+    }
+
+    String unit() {
+        return unit;
+    }
+
+    /**
+     * The value of {@code text}.
+     *
+     * @throws BadValue with the rule and the text, e.g. {@code must be > 0 µs (got -5)}
+     */
+    double parse(String text) {
+        double v = number(text, unit);
+        if (strictlyPositive && !(v > 0)) {
+            throw new BadValue("must be > 0 " + unit + " (got " + text.trim() + ")");
+        }
+        if (!strictlyPositive && !(v >= 0)) {
+            throw new BadValue("must be >= 0 " + unit + " (got " + text.trim() + ")");
+        }
+        return v;
+    }
+
+    /** A finite number in {@code unit}. */
+    static double number(String text, String unit) {
+        String t = text == null ? "" : text.trim();
+        if (!NUMBER.matcher(t).matches()) {
+            throw new BadValue("must be a number in " + unit + " (got '" + t + "')");
+        }
+        double v = Double.parseDouble(t);
+        if (!Double.isFinite(v)) {
+            throw new BadValue("must be a finite number in " + unit + " (got '" + t + "')");
+        }
+        return v;
+    }
+
+    /** A value that does not fit its option; the message is the rule, without the flag. */
+    static final class BadValue extends TypeConversionException {
+        private static final long serialVersionUID = 1L;
+
+        BadValue(String rule) {
+            super(rule);
+        }
+    }
+
+    static final class Lifetime implements ITypeConverter<Double> {
+        @Override
+        public Double convert(String value) {
+            return LIFETIME_US.parse(value);
+        }
+    }
+
+    static final class Density implements ITypeConverter<Double> {
+        @Override
+        public Double convert(String value) {
+            return DENSITY_CM3.parse(value);
+        }
+    }
+
+    static final class Generation implements ITypeConverter<Double> {
+        @Override
+        public Double convert(String value) {
+            return GENERATION.parse(value);
+        }
+    }
+
+    static final class Thickness implements ITypeConverter<Double> {
+        @Override
+        public Double convert(String value) {
+            return THICKNESS_UM.parse(value);
+        }
+    }
+
+    static final class Srv implements ITypeConverter<Double> {
+        @Override
+        public Double convert(String value) {
+            return SRV_CM_S.parse(value);
+        }
+    }
+
+    static final class Temperature implements ITypeConverter<Double> {
+        @Override
+        public Double convert(String value) {
+            return TEMPERATURE_K.parse(value);
+        }
+    }
+
+    static final class Counts implements ITypeConverter<Double> {
+        @Override
+        public Double convert(String value) {
+            return COUNTS.parse(value);
+        }
+    }
+}

@@ -1,0 +1,56 @@
+package trapmap.cli;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.ValueSource;
+import picocli.CommandLine;
+import picocli.CommandLine.Model.OptionSpec;
+
+/** Every option's help names its unit (when it has one) and its default. */
+class HelpTest {
+    private static final Set<String> STANDARD = Set.of("--help", "--version");
+    private static final Set<String> UNITS = Set.of("µs", "µm", "K", "cm^-3", "cm^-3 s^-1", "cm/s", "counts");
+
+    private static CommandLine command(String path) {
+        CommandLine cl = TrapmapCommand.commandLine(new PrintWriter(new StringWriter()),
+                new PrintWriter(new StringWriter()));
+        for (String name : path.split(" ")) {
+            Map<String, CommandLine> subs = cl.getSubcommands();
+            cl = subs.get(name);
+        }
+        return cl;
+    }
+
+    @ParameterizedTest
+    @ValueSource(strings = {"calc", "calc iron", "calc bo", "calc pl", "defects"})
+    void everyOptionHasItsUnitAndDefault(String path) {
+        CommandLine cl = command(path);
+        List<String> args = new ArrayList<>(List.of(path.split(" ")));
+        args.add("--help");
+        Cli.Run r = Cli.run(args.toArray(String[]::new));
+        assertThat(r.code()).isZero();
+        String help = r.out().replaceAll("\\s+", " ");
+        for (OptionSpec o : cl.getCommandSpec().options()) {
+            String name = o.longestName();
+            if (STANDARD.contains(name)) {
+                continue;
+            }
+            assertThat(r.out()).as("help of " + path).contains(name);
+            String description = String.join(" ", o.description());
+            assertThat(description).as(name + " states its default").containsIgnoringCase("default");
+            assertThat(help).as(name + " description is printed").contains(description.substring(0, 40)
+                    .replaceAll("\\s+", " "));
+            String label = o.paramLabel().replaceAll("[<>]", "");
+            if (UNITS.contains(label)) {
+                assertThat(description).as(name + " states its unit").contains(label);
+            }
+        }
+    }
+}
