@@ -15,15 +15,16 @@ import trapmap.physics.material.Doping;
  * @param generationPerCm3PerS steady-state generation rate, cm^-3 s^-1
  * @param srvCmPerS           surface recombination velocity (both surfaces), cm/s
  * @param photonFluxPerCm2PerS excitation photon flux of a PL image, cm^-2 s^-1
+ * @param plCalibration       PL calibration constant A of I = A·Δn·(Δn + N_dop), counts·cm^6
  * @param extra               further labelled facts (passivation, wafer history, time since dissociation…)
  */
 public record MeasurementConditions(Doping doping, Double thicknessUm, Double temperatureK, Double injectionPerCm3,
                                     Double generationPerCm3PerS, Double srvCmPerS, Double photonFluxPerCm2PerS,
-                                    Map<String, String> extra) {
+                                    Double plCalibration, Map<String, String> extra) {
 
     /** Nothing known. */
     public static final MeasurementConditions UNKNOWN =
-            new MeasurementConditions(null, null, null, null, null, null, null, Map.of());
+            new MeasurementConditions(null, null, null, null, null, null, null, null, Map.of());
 
     public MeasurementConditions {
         extra = Map.copyOf(extra == null ? Map.of() : extra);
@@ -38,7 +39,28 @@ public record MeasurementConditions(Doping doping, Double thicknessUm, Double te
         return new MeasurementConditions(pick(override.doping, doping), pick(override.thicknessUm, thicknessUm),
                 pick(override.temperatureK, temperatureK), pick(override.injectionPerCm3, injectionPerCm3),
                 pick(override.generationPerCm3PerS, generationPerCm3PerS), pick(override.srvCmPerS, srvCmPerS),
-                pick(override.photonFluxPerCm2PerS, photonFluxPerCm2PerS), merged);
+                pick(override.photonFluxPerCm2PerS, photonFluxPerCm2PerS), pick(override.plCalibration, plCalibration),
+                merged);
+    }
+
+    public MeasurementConditions withThickness(Double um) {
+        return new MeasurementConditions(doping, um, temperatureK, injectionPerCm3, generationPerCm3PerS, srvCmPerS,
+                photonFluxPerCm2PerS, plCalibration, extra);
+    }
+
+    public MeasurementConditions withSrv(Double cmPerS) {
+        return new MeasurementConditions(doping, thicknessUm, temperatureK, injectionPerCm3, generationPerCm3PerS,
+                cmPerS, photonFluxPerCm2PerS, plCalibration, extra);
+    }
+
+    public MeasurementConditions withTemperature(Double kelvin) {
+        return new MeasurementConditions(doping, thicknessUm, kelvin, injectionPerCm3, generationPerCm3PerS,
+                srvCmPerS, photonFluxPerCm2PerS, plCalibration, extra);
+    }
+
+    public MeasurementConditions withPlCalibration(Double countsCm6) {
+        return new MeasurementConditions(doping, thicknessUm, temperatureK, injectionPerCm3, generationPerCm3PerS,
+                srvCmPerS, photonFluxPerCm2PerS, countsCm6, extra);
     }
 
     private static <T> T pick(T preferred, T fallback) {
@@ -47,16 +69,16 @@ public record MeasurementConditions(Doping doping, Double thicknessUm, Double te
 
     public MeasurementConditions withDoping(Doping d) {
         return new MeasurementConditions(d, thicknessUm, temperatureK, injectionPerCm3, generationPerCm3PerS,
-                srvCmPerS, photonFluxPerCm2PerS, extra);
+                srvCmPerS, photonFluxPerCm2PerS, plCalibration, extra);
     }
 
     public MeasurementConditions withInjection(Double perCm3) {
         return new MeasurementConditions(doping, thicknessUm, temperatureK, perCm3, generationPerCm3PerS, srvCmPerS,
-                photonFluxPerCm2PerS, extra);
+                photonFluxPerCm2PerS, plCalibration, extra);
     }
 
     public MeasurementConditions withGeneration(Double perCm3PerS) {
         return new MeasurementConditions(doping, thicknessUm, temperatureK, injectionPerCm3, perCm3PerS, srvCmPerS,
-                photonFluxPerCm2PerS, extra);
+                photonFluxPerCm2PerS, plCalibration, extra);
     }
 }

@@ -1,0 +1,166 @@
+package trapmap.maps.process;
+
+import java.util.EnumMap;
+import java.util.EnumSet;
+import java.util.Map;
+import java.util.Set;
+import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.model.ProcessingStep;
+import trapmap.maps.model.Quantity;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.physics.conversion.Conditions;
+import trapmap.physics.conversion.ConversionOutput;
+import trapmap.physics.conversion.ConversionWarning;
+import trapmap.physics.conversion.Injection;
+import trapmap.physics.conversion.Surface;
+import trapmap.physics.conversion.TrapDensityConverter;
+import trapmap.physics.defect.Defect;
+import trapmap.physics.material.Silicon;
+import trapmap.physics.pl.PlCalibration;
+import trapmap.physics.recombination.RadiativeCoefficient;
+import trapmap.shared.error.InvalidValueException;
+
+/**
+ * Converts a lifetime or PL map into trap-density, bound, occupancy, SRH-lifetime, injection, harmonised-lifetime
+ * and status maps of one defect, through the physics array API. The map's conditions must already hold everything
+ * (sidecar values overridden by the user's); missing ones are refused with the field and unit named.
+ */
+public final class MapConversion {
+    private MapConversion() {
+    }
+
+    /** The converted maps, one per {@link Quantity}, and the union of the warnings of all pixels. */
+    public record Result(Map<Quantity, WaferMap> maps, Set<ConversionWarning> warnings, String defectId) {
+        public Result {
+            maps = Map.copyOf(maps);
+            warnings = Set.copyOf(warnings);
+        }
+
+        /**
+         * The map of {@code q}.
+         *
+         * @throws IllegalArgumentException when the conversion made none (e.g. no reference injection)
+         */
+        public WaferMap get(Quantity q) {
+            WaferMap m = maps.get(q);
+            if (m == null) {
+                throw new IllegalArgumentException("the conversion produced no " + q.key() + " map"
+                        + (q == Quantity.LIFETIME_AT_REFERENCE ? " (give a reference injection)" : ""));
+            }
+            return m;
+        }
+    }
+
+    /**
+     * Physics conditions from map conditions.
+     *
+     * @throws InvalidValueException naming the missing or contradictory field
+     */
+    public static Conditions physicsConditions(MeasurementConditions c, ConversionSettings s) {
+        if (c.doping() == null) {
+            throw new InvalidValueException("doping", "cm^-3", "doping is unknown: give it as p:<cm^-3>, n:<cm^-3> or"
+                    + " p:<ohm*cm> in the sidecar or on the command line");
+        }
+        if ((c.injectionPerCm3() == null) == (c.generationPerCm3PerS() == null)) {
+            throw new InvalidValueException("injection", "cm^-3", c.injectionPerCm3() == null
+                    ? "neither an injection level (cm^-3) nor a generation rate (cm^-3 s^-1) is known"
+                    : "both an injection level and a generation rate are given; keep one");
+        }
+        Injection injection = c.injectionPerCm3() != null ? Injection.fixed(c.injectionPerCm3())
+                : Injection.generation(c.generationPerCm3PerS());
+        Surface surface = Surface.IDEAL;
+        if (c.srvCmPerS() != null) {
+            if (c.thicknessUm() == null) {
+                throw new InvalidValueException("thickness", "um", "a surface recombination velocity needs the"
+                        + " wafer thickness (um)");
+            }
+            surface = new Surface(c.thicknessUm(), c.srvCmPerS(), s.surfaceModel());
+        }
+        double t = c.temperatureK() == null ? 300 : c.temperatureK();
+        return new Conditions(c.doping(), Silicon.at(t, s.velocities()), injection, surface,
+                RadiativeCoefficient.TRUPKE_2003_CM3_PER_S, s.detectionResolution(), s.referenceInjectionPerCm3());
+    }
+
+    /**
+     * An effective-lifetime map (µs) from a PL-counts map: Δn = (−N_dop + sqrt(N_dop² + 4I/A))/2, τ = Δn/G.
+     * Needs the calibration constant A, the doping and the generation rate in the map's conditions.
+     */
+    public static WaferMap lifetimeFromPl(WaferMap pl) {
+        MeasurementConditions c = pl.conditions();
+        if (c.plCalibration() == null) {
+            throw new InvalidValueException("plCalibration", "counts*cm^6", "the PL calibration constant is unknown");
+        }
+        if (c.doping() == null) {
+            throw new InvalidValueException("doping", "cm^-3", "doping is unknown");
+        }
+        if (c.generationPerCm3PerS() == null) {
+            throw new InvalidValueException("generation", "cm^-3 s^-1", "a PL map needs its generation rate");
+        }
+        PlCalibration cal = new PlCalibration(c.plCalibration(), c.doping().densityPerCm3());
+        double g = c.generationPerCm3PerS();
+        FloatRaster tau = pl.raster().map(counts -> counts != counts ? Double.NaN : cal.lifetimeUs(counts, g));
+        return pl.derive(tau, Quantity.EFFECTIVE_LIFETIME, ProcessingStep.of("pl-to-lifetime",
+                "calibration_counts_cm6", Double.toString(c.plCalibration()), "generation_cm3_s", Double.toString(g),
+                "doping_cm3", Double.toString(c.doping().densityPerCm3())));
+    }
+
+    /** Converts with all available processors. */
+    public static Result convert(WaferMap map, Defect defect, ConversionSettings settings) {
+        return convert(map, defect, settings, Runtime.getRuntime().availableProcessors());
+    }
+
+    /**
+     * Converts an effective-lifetime (µs) or PL-counts map.
+     *
+     * @throws InvalidValueException for missing conditions, an unsuitable defect or a map of another quantity
+     */
+    public static Result convert(WaferMap map, Defect defect, ConversionSettings settings, int threads) {
+        WaferMap lifetime = switch (map.quantity()) {
+            case EFFECTIVE_LIFETIME -> map;
+            case PL_COUNTS -> lifetimeFromPl(map);
+            default -> throw new InvalidValueException("quantity", "", "a " + map.quantity().key()
+                    + " map cannot be converted; expected an effective-lifetime or PL-counts map");
+        };
+        Conditions conditions = physicsConditions(lifetime.conditions(), settings);
+        TrapDensityConverter converter = new TrapDensityConverter(conditions, defect);
+        int n = lifetime.raster().size();
+        boolean reference = !Double.isNaN(settings.referenceInjectionPerCm3());
+        ConversionOutput out = new ConversionOutput(new float[n], new float[n], new float[n], new float[n],
+                new float[n], new float[n], reference ? new float[n] : null, new byte[n], new byte[n]);
+        converter.convert(lifetime.raster().samples(), lifetime.width(), out, threads);
+
+        ProcessingStep step = ProcessingStep.of("convert", "defect", defect.id(), "doping",
+                conditions.doping().toString(), "injection", conditions.injection().toString(), "surface",
+                conditions.surface().ideal() ? "ideal" : conditions.surface().toString(), "temperature_k",
+                Double.toString(conditions.silicon().temperatureK()), "vth", settings.velocities().name(),
+                "reference_injection_cm3", Double.toString(settings.referenceInjectionPerCm3()));
+        Map<Quantity, WaferMap> maps = new EnumMap<>(Quantity.class);
+        int w = lifetime.width();
+        int h = lifetime.height();
+        maps.put(Quantity.TRAP_DENSITY, lifetime.derive(FloatRaster.wrap(w, h, out.trapDensity), Quantity.TRAP_DENSITY,
+                step));
+        maps.put(Quantity.TRAP_DENSITY_MIN, lifetime.derive(FloatRaster.wrap(w, h, out.trapDensityMin),
+                Quantity.TRAP_DENSITY_MIN, step));
+        maps.put(Quantity.TRAP_DENSITY_MAX, lifetime.derive(FloatRaster.wrap(w, h, out.trapDensityMax),
+                Quantity.TRAP_DENSITY_MAX, step));
+        maps.put(Quantity.OCCUPANCY, lifetime.derive(FloatRaster.wrap(w, h, out.occupancy), Quantity.OCCUPANCY, step));
+        maps.put(Quantity.SRH_LIFETIME, lifetime.derive(FloatRaster.wrap(w, h, out.srhLifetimeUs),
+                Quantity.SRH_LIFETIME, step));
+        maps.put(Quantity.INJECTION, lifetime.derive(FloatRaster.wrap(w, h, out.injection), Quantity.INJECTION, step));
+        if (reference) {
+            maps.put(Quantity.LIFETIME_AT_REFERENCE, lifetime.derive(FloatRaster.wrap(w, h, out.lifetimeAtReferenceUs),
+                    Quantity.LIFETIME_AT_REFERENCE, step));
+        }
+        float[] status = new float[n];
+        int warningBits = 0;
+        for (int i = 0; i < n; i++) {
+            status[i] = out.status[i];
+            warningBits |= out.warnings[i];
+        }
+        maps.put(Quantity.STATUS, lifetime.derive(FloatRaster.wrap(w, h, status), Quantity.STATUS, step));
+        Set<ConversionWarning> warnings = EnumSet.noneOf(ConversionWarning.class);
+        warnings.addAll(ConversionWarning.fromMask(warningBits));
+        return new Result(maps, warnings, defect.id());
+    }
+}

@@ -1,0 +1,99 @@
+package trapmap.maps.process;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+import java.util.Map;
+import java.util.Random;
+import org.assertj.core.data.Percentage;
+import org.junit.jupiter.api.Test;
+import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.model.Provenance;
+import trapmap.maps.model.Quantity;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.PixelGrid;
+import trapmap.physics.conversion.PixelResult;
+import trapmap.physics.conversion.PixelStatus;
+import trapmap.physics.conversion.TrapDensityConverter;
+import trapmap.physics.defect.DefectLibrary;
+import trapmap.physics.material.Doping;
+import trapmap.physics.pl.PlCalibration;
+import trapmap.shared.error.InvalidValueException;
+
+class MapConversionTest {
+    private static final MeasurementConditions CONDITIONS = new MeasurementConditions(Doping.pType(1e16), 180.0,
+            300.0, 1e14, null, 10.0, null, null, Map.of());
+
+    private static WaferMap lifetimeMap(int w, int h, long seed, MeasurementConditions c) {
+        Random r = new Random(seed);
+        float[] s = new float[w * h];
+        for (int i = 0; i < s.length; i++) {
+            s[i] = (float) Math.pow(10, r.nextDouble() * 3);
+        }
+        s[0] = Float.NaN;
+        s[1] = -3;
+        return new WaferMap(FloatRaster.wrap(w, h, s), PixelGrid.centred(w, h, 0.5), Quantity.EFFECTIVE_LIFETIME,
+                "w1", c, Provenance.of("test"));
+    }
+
+    @Test
+    void everyPixelEqualsTheSinglePixelConversion() {
+        WaferMap map = lifetimeMap(7, 3, 11, CONDITIONS);
+        MapConversion.Result result = MapConversion.convert(map, DefectLibrary.byId("fe-i"),
+                ConversionSettings.DEFAULTS.withReferenceInjection(1e15), 2);
+        TrapDensityConverter single = new TrapDensityConverter(
+                MapConversion.physicsConditions(CONDITIONS, ConversionSettings.DEFAULTS.withReferenceInjection(1e15)),
+                DefectLibrary.byId("fe-i"));
+        float[] tau = map.raster().samples();
+        for (int i = 2; i < tau.length; i++) {
+            PixelResult p = single.convert(tau[i]);
+            assertThat(result.get(Quantity.TRAP_DENSITY).raster().samples()[i])
+                    .isEqualTo((float) p.trapDensityPerCm3());
+            assertThat(result.get(Quantity.OCCUPANCY).raster().samples()[i]).isEqualTo((float) p.occupancy());
+            assertThat(result.get(Quantity.LIFETIME_AT_REFERENCE).raster().samples()[i])
+                    .isEqualTo((float) p.lifetimeAtReferenceUs());
+            assertThat(result.get(Quantity.STATUS).raster().samples()[i]).isEqualTo(p.status().code());
+        }
+        assertThat(result.get(Quantity.STATUS).raster().samples()[0]).isEqualTo(PixelStatus.NO_DATA.code());
+        assertThat(result.get(Quantity.STATUS).raster().samples()[1]).isEqualTo(PixelStatus.INVALID.code());
+        assertThat(result.get(Quantity.TRAP_DENSITY).provenance().steps()).hasSize(1);
+        assertThat(result.get(Quantity.TRAP_DENSITY).provenance().steps().get(0).parameters())
+                .containsEntry("defect", "fe-i");
+    }
+
+    @Test
+    void plCountsAreCalibratedIntoLifetimeFirst() {
+        // Steady state: τ_eff = Δn/G with Δn from I = A·Δn·(Δn + N_dop) (physics reference Part 2 §8.1).
+        PlCalibration cal = PlCalibration.fromReference(8000, 50, 1e19, 1e16);
+        MeasurementConditions c = new MeasurementConditions(Doping.pType(1e16), null, null, null, 1e19, null, null,
+                cal.constant(), Map.of());
+        float[] counts = {8000, 12000, 0, Float.NaN};
+        WaferMap pl = new WaferMap(FloatRaster.wrap(2, 2, counts), PixelGrid.centred(2, 2, 1), Quantity.PL_COUNTS,
+                "pl", c, Provenance.of("test"));
+        WaferMap tau = MapConversion.lifetimeFromPl(pl);
+        assertThat((double) tau.raster().get(0, 0)).isCloseTo(50, Percentage.withPercentage(1e-4));
+        assertThat((double) tau.raster().get(1, 0)).isCloseTo(cal.lifetimeUs(12000, 1e19),
+                Percentage.withPercentage(1e-5));
+        assertThat(tau.raster().get(1, 1)).isNaN();
+        MapConversion.Result r = MapConversion.convert(pl, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS, 1);
+        assertThat(r.get(Quantity.INJECTION).raster().get(0, 0)).isCloseTo(5e14f, Percentage.withPercentage(1e-4));
+    }
+
+    @Test
+    void missingConditionsNameTheField() {
+        MeasurementConditions noDoping = CONDITIONS.withDoping(null);
+        assertThatThrownBy(() -> MapConversion.convert(lifetimeMap(2, 2, 1, noDoping), DefectLibrary.byId("fe-i"),
+                ConversionSettings.DEFAULTS)).isInstanceOf(InvalidValueException.class)
+                .hasMessageContaining("doping");
+        MeasurementConditions both = CONDITIONS.withGeneration(1e19);
+        assertThatThrownBy(() -> MapConversion.physicsConditions(both, ConversionSettings.DEFAULTS))
+                .isInstanceOf(InvalidValueException.class).hasMessageContaining("generation");
+        MeasurementConditions srvOnly = CONDITIONS.withThickness(null);
+        assertThatThrownBy(() -> MapConversion.physicsConditions(srvOnly, ConversionSettings.DEFAULTS))
+                .isInstanceOf(InvalidValueException.class).hasMessageContaining("thickness");
+        assertThatThrownBy(() -> MapConversion.convert(lifetimeMap(2, 2, 1, CONDITIONS), DefectLibrary.byId("bo-lid"),
+                ConversionSettings.DEFAULTS)).isInstanceOf(InvalidValueException.class)
+                .hasMessageContaining("normalised density");
+    }
+}
