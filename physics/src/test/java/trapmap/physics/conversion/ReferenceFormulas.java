@@ -18,8 +18,8 @@ final class ReferenceFormulas {
     /**
      * Richter et al., PRB 86, 165202 (2012), eq. (18) with Table II:
      * 1/τ_intr = (n p − n_i²)/Δn · [2.5e-31 g_eeh n0 + 8.5e-32 g_ehh p0 + 3.0e-29 Δn^0.92 + B_rel B_low],
-     * in 1/s. The carrier factor (n p − n_i²)/Δn is evaluated literally but in 34-digit decimal arithmetic, with the
-     * minority density n_i²/majority: in double precision it cancels catastrophically when n_i² ≫ Δn (n0 + p0)
+     * in 1/s. The carrier factor (n p − n_i²)/Δn is evaluated literally but in 34-digit decimal arithmetic, with
+     * the minority density n_i²/majority: in double precision it cancels catastrophically when n_i² ≫ Δn (n0 + p0)
      * (hot, lightly doped wafers at low injection).
      */
     static double intrinsicRatePerS(Doping doping, Silicon silicon, double bLow, double dn) {
