@@ -29,10 +29,11 @@ import trapmap.shared.units.Units;
  * <p>
  * Everything that depends only on the wafer is computed once in the constructor, including the coefficients a, b of
  * K for the nominal defect and both bounds, which share the denominator n0 + p0 + Δn. A pixel then costs a few
- * arithmetic operations (fixed injection) or, for fixed generation, the intrinsic rate (two logarithms, two
- * exponentials, see {@link IntrinsicLifetime}) and one division per rational term. The rearranged forms agree with
- * the literal ones to a few units in the last place. The single-pixel and array paths run the same kernel, so their
- * results agree exactly (array results are the single-pixel values rounded to float). Immutable and thread-safe.
+ * arithmetic operations (fixed injection) or, for fixed generation, the intrinsic rate (two powers by table and
+ * series, two square roots, see {@link IntrinsicLifetime}) and one division per rational term. The rearranged forms
+ * agree with the literal ones to a few units in the last place. The single-pixel and array paths run the same
+ * kernel, so their results agree exactly (array results are the single-pixel values rounded to float). Immutable and
+ * thread-safe.
  */
 public final class TrapDensityConverter {
     private final Conditions conditions;
@@ -208,10 +209,17 @@ public final class TrapDensityConverter {
             float t = tau[i];
             if (t != t) { // NaN: no data
                 storeNoData(out, i);
-            } else {
-                evaluate(t, px);
-                store(out, i, px);
+                continue;
             }
+            // evaluate(t, px), with its stages called here: each is small enough for the JIT compiler to inline into
+            // this loop, which it may decline for evaluate as a whole once that is compiled on its own.
+            if (valid(t)) {
+                injectionStage(t, px);
+                rateStage(t, px);
+            } else {
+                invalid(px);
+            }
+            store(out, i, px);
         }
     }
 
@@ -308,19 +316,36 @@ public final class TrapDensityConverter {
         }
     }
 
-    /** The kernel shared by both paths: fills {@code px} for an effective lifetime of {@code tauUs} µs. */
+    /**
+     * The kernel shared by both paths: fills {@code px} for an effective lifetime of {@code tauUs} µs. The array
+     * loop runs the same stages.
+     */
     private void evaluate(double tauUs, Pixel px) {
-        if (!(tauUs > 0) || tauUs == Double.POSITIVE_INFINITY) {
+        if (valid(tauUs)) {
+            injectionStage(tauUs, px);
+            rateStage(tauUs, px);
+        } else {
             invalid(px);
-            return;
         }
-        double tauS = tauUs * Units.S_PER_US;
+    }
+
+    /** Finite and positive: a lifetime the kernel converts ({@link PixelStatus#INVALID} otherwise). */
+    private static boolean valid(double tauUs) {
+        return tauUs > 0 && tauUs != Double.POSITIVE_INFINITY;
+    }
+
+    /** Stage 1: Δn and the terms that depend on it. */
+    private void injectionStage(double tauUs, Pixel px) {
         if (fixedInjection) {
             px.copyInjectionTerms(fixedTerms);
         } else {
-            injectionTerms(injectionParameter * tauS, px);
+            injectionTerms(injectionParameter * (tauUs * Units.S_PER_US), px);
         }
-        double dn = px.dn;
+    }
+
+    /** Stage 2: the SRH rate and everything derived from it. */
+    private void rateStage(double tauUs, Pixel px) {
+        double tauS = tauUs * Units.S_PER_US;
         double intrinsicRate = px.intrinsicRate;
         double srhRate = 1.0 / tauS - intrinsicRate - surfaceRatePerS;
         int warn = baseWarnings;
@@ -336,7 +361,7 @@ public final class TrapDensityConverter {
             rate = detectionResolution * (intrinsicRate + surfaceRatePerS);
         }
         double nt = px.k * rate;
-        if (srhRate > 0 && nt > trapDensityLimitFactor * Math.min(dn, dopingPerCm3)) {
+        if (srhRate > 0 && nt > trapDensityLimitFactor * Math.min(px.dn, dopingPerCm3)) {
             warn |= ConversionWarning.TRAP_DENSITY_NOT_SMALL.bit();
         }
         if (surfaceRatePerS * tauS > 0.5) {

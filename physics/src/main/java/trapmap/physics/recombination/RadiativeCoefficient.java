@@ -35,23 +35,24 @@ public final class RadiativeCoefficient {
      * b1 = 2 [1.5e18 + (1e7 − 1.5e18)/(1 + (T/550)^3)]
      * b3 = 2 [4e18 + (1e9 − 4e18)/(1 + (T/365)^3.54)]
      * </pre>
-     * Per carrier density the powers are evaluated without {@code Math.pow}, which costs several times a logarithm or
-     * an exponential: ((n+p)/b1)^0.54 = exp(0.54·(ln(n+p) − ln b1)) from a logarithm the caller may share, and
-     * x^1.25 = x·√√x. Both agree with the powers to a few units in the last place.
+     * Per carrier density the powers are evaluated without {@code Math.pow}: ((n+p)/b1)^0.54 =
+     * (n+p)^0.54·b1^−0.54 with {@link IntrinsicLifetime.Power}, and x^1.25 = x·√√x with x = (n+p)/b3. Both agree
+     * with the powers to a few units in the last place.
      */
     static final class Screening {
-        private static final double B2 = 0.54;
+        private static final IntrinsicLifetime.Power B2_POWER = new IntrinsicLifetime.Power(0.54);
 
         private final double bMin;
         /** 1 − b_min. */
         private final double bSpan;
-        private final double logB1;
+        /** b1^−0.54. */
+        private final double b1Factor;
         private final double invB3;
 
         private Screening(double bMin, double b1, double b3) {
             this.bMin = bMin;
             this.bSpan = 1.0 - bMin;
-            this.logB1 = Math.log(b1);
+            this.b1Factor = Math.pow(b1, -0.54);
             this.invB3 = 1.0 / b3;
         }
 
@@ -64,13 +65,8 @@ public final class RadiativeCoefficient {
 
         /** B_rel at n + p = {@code np} (> 0). */
         double relative(double np) {
-            return relative(np, Math.log(np));
-        }
-
-        /** B_rel at n + p = {@code np} (> 0), given {@code logNp} = ln(np). */
-        double relative(double np, double logNp) {
             double x3 = np * invB3;
-            return bMin + bSpan / (1 + Math.exp(B2 * (logNp - logB1)) + x3 * Math.sqrt(Math.sqrt(x3)));
+            return bMin + bSpan / (1 + B2_POWER.of(np) * b1Factor + x3 * Math.sqrt(Math.sqrt(x3)));
         }
     }
 }
