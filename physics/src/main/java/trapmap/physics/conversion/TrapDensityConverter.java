@@ -36,6 +36,8 @@ import trapmap.shared.units.Units;
  * thread-safe.
  */
 public final class TrapDensityConverter {
+    /** Δn/N_dop above which low-injection approximations (the surface diffusivity) are flagged. */
+    private static final double LOW_INJECTION_LIMIT = 0.1;
     private final Conditions conditions;
     private final Defect defect;
     private final IntrinsicLifetime intrinsic;
@@ -176,7 +178,9 @@ public final class TrapDensityConverter {
     }
 
     /**
-     * Converts a row-major raster of effective lifetimes (µs; NaN = no data) in parallel over rows.
+     * Converts a row-major raster of effective lifetimes (µs) in parallel over rows. A NaN sample is a pixel without
+     * data (outside the wafer or masked) and gets {@link PixelStatus#NO_DATA}; every other sample gets exactly the
+     * single-pixel result of {@link #convert(double)} (where a NaN lifetime is {@link PixelStatus#INVALID}).
      *
      * @param width   raster width in pixels; the length must be a multiple of it
      * @param threads number of threads (1 runs on the calling thread)
@@ -364,8 +368,13 @@ public final class TrapDensityConverter {
         if (srhRate > 0 && nt > trapDensityLimitFactor * Math.min(px.dn, dopingPerCm3)) {
             warn |= ConversionWarning.TRAP_DENSITY_NOT_SMALL.bit();
         }
-        if (surfaceRatePerS * tauS > 0.5) {
-            warn |= ConversionWarning.SURFACE_LIMITED.bit();
+        if (surfaceRatePerS > 0) {
+            if (surfaceRatePerS * tauS > 0.5) {
+                warn |= ConversionWarning.SURFACE_LIMITED.bit();
+            }
+            if (px.dn > LOW_INJECTION_LIMIT * dopingPerCm3) {
+                warn |= ConversionWarning.SURFACE_LOW_INJECTION_DIFFUSIVITY.bit();
+            }
         }
         px.nt = nt;
         px.ntMin = px.kMin * rate;
