@@ -45,11 +45,6 @@ final class Calculation {
     static final Set<String> OPTIONAL = Set.of("lifetime_at_reference_us", "reference_injection_cm3",
             "generation_cm3_s", "resistivity_ohm_cm");
 
-    /** Warning code of the check this command adds to the conversion's own. */
-    static final String LOW_INJECTION_CODE = "SURFACE_LOW_INJECTION_DIFFUSIVITY";
-    static final String LOW_INJECTION_MESSAGE = "injection above 0.1 x doping: the surface term uses the"
-            + " low-injection minority-carrier diffusivity";
-
     private Calculation() {
     }
 
@@ -112,10 +107,6 @@ final class Calculation {
                 warnings.add(w.message());
                 codes.add(w.name());
             }
-        }
-        if (!surface.ideal() && r.injectionPerCm3() > 0.1 * q.doping().doping().densityPerCm3()) {
-            warnings.add(LOW_INJECTION_MESSAGE);
-            codes.add(LOW_INJECTION_CODE);
         }
 
         Map<String, Object> m = new LinkedHashMap<>();

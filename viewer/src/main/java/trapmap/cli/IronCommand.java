@@ -82,9 +82,7 @@ final class IronCommand implements Callable<Integer> {
         List<String> warnings = new ArrayList<>();
         List<String> codes = new ArrayList<>();
         for (ConversionWarning w : ConversionWarning.values()) {
-            boolean velocity = w == ConversionWarning.VELOCITY_CONVENTION && (model != feI.velocityConvention()
-                    || model != feB.velocityConvention());
-            if (r.warnings().contains(w) || velocity) {
+            if (r.warnings().contains(w)) {
                 warnings.add(w.message());
                 codes.add(w.name());
             }

@@ -17,7 +17,13 @@ public enum ConversionWarning {
     /** Δn within a factor 2 of the Fe_i/FeB crossover: the iron signal vanishes there. */
     NEAR_IRON_CROSSOVER("injection within a factor 2 of the Fe_i/FeB crossover: iron signal vanishes"),
     /** The thermal velocities used differ from the convention the cross-sections were published with. */
-    VELOCITY_CONVENTION("thermal velocities differ from the convention the cross-sections were published with");
+    VELOCITY_CONVENTION("thermal velocities differ from the convention the cross-sections were published with"),
+    /**
+     * Δn &gt; 0.1·N_dop while the surface term uses the low-injection minority-carrier diffusivity (the ambipolar
+     * diffusivity is lower at high injection, so τ_surf is then underestimated).
+     */
+    SURFACE_LOW_INJECTION_DIFFUSIVITY("injection above 0.1 x doping: the surface term uses the low-injection"
+            + " minority-carrier diffusivity");
 
     private final String message;
 

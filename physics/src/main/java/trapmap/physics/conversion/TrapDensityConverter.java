@@ -17,52 +17,60 @@ import trapmap.shared.units.Units;
  * Δn = fixed, or G·τ_eff
  * 1/τ_SRH = 1/τ_eff − 1/τ_intr(Δn) − 1/τ_surf
  * N_t = K(Δn)/τ_SRH   (exact SRH inverse, see {@link SrhRecombination})
+ * K(Δn) = [(n0 + n1 + Δn)/c_p + (p0 + p1 + Δn)/c_n]/(n0 + p0 + Δn) = (a + b·Δn)/(n0 + p0 + Δn),
+ *         a = (n0 + n1)/c_p + (p0 + p1)/c_n,  b = 1/c_p + 1/c_n
+ * f_t(Δn) = (c_n n + c_p p1)/[c_n (n + n1) + c_p (p + p1)]
+ *         = (c_n n0 + c_p p1 + c_n Δn)/[c_n (n0 + n1) + c_p (p0 + p1) + (c_n + c_p) Δn]
  * </pre>
  * The surface term uses the low-injection minority-carrier diffusivity of Klaassen's mobility at the wafer's doping,
  * so it is one number per wafer. When 1/τ_SRH ≤ 0 the pixel is {@link PixelStatus#BELOW_LIMIT} and the reported
  * density is the detection limit: the density whose SRH rate δ·(1/τ_intr + 1/τ_surf) would lower the lifetime that
  * intrinsic and surface recombination alone allow by the relative resolution δ.
  * <p>
- * Everything that depends only on the wafer is computed once in the constructor; a pixel then costs a few
- * arithmetic operations (fixed injection) or three powers (fixed generation). The single-pixel and array paths run
- * the same kernel, so their results agree exactly (array results are the single-pixel values rounded to float).
- * Immutable and thread-safe.
+ * Everything that depends only on the wafer is computed once in the constructor, including the coefficients a, b of
+ * K for the nominal defect and both bounds, which share the denominator n0 + p0 + Δn. A pixel then costs a few
+ * arithmetic operations (fixed injection) or, for fixed generation, the intrinsic rate (two powers by table and
+ * series, two square roots, see {@link IntrinsicLifetime}) and one division per rational term. The rearranged forms
+ * agree with the literal ones to a few units in the last place. The single-pixel and array paths run the same
+ * kernel, so their results agree exactly (array results are the single-pixel values rounded to float). Immutable and
+ * thread-safe.
  */
 public final class TrapDensityConverter {
-    private static final int STATUS = 0;
-    private static final int DN = 1;
-    private static final int TAU_INTR = 2;
-    private static final int TAU_SRH = 3;
-    private static final int NT = 4;
-    private static final int NT_MIN = 5;
-    private static final int NT_MAX = 6;
-    private static final int FT = 7;
-    private static final int TAU_REF = 8;
-    private static final int WARN = 9;
-    private static final int SLOTS = 10;
-
+    /** Δn/N_dop above which low-injection approximations (the surface diffusivity) are flagged. */
+    private static final double LOW_INJECTION_LIMIT = 0.1;
     private final Conditions conditions;
     private final Defect defect;
     private final IntrinsicLifetime intrinsic;
     private final SrhRecombination srh;
-    private final SrhBounds bounds;
     /** 1/τ_surf, 1/s (0 for ideal surfaces). */
     private final double surfaceRatePerS;
     private final boolean fixedInjection;
     /** Δn for fixed injection, or G (cm^-3 s^-1) for fixed generation. */
     private final double injectionParameter;
+    private final double detectionResolution;
+    /** N_t above this fraction of min(Δn, N_dop) raises {@link ConversionWarning#TRAP_DENSITY_NOT_SMALL}. */
     private final double trapDensityLimitFactor;
+    private final double dopingPerCm3;
     private final int baseWarnings;
-    // Per-wafer values at the fixed injection (unused for fixed generation).
-    private final double fixedIntrinsicRate;
-    private final double fixedK;
-    private final double fixedKMin;
-    private final double fixedKMax;
-    private final double fixedOccupancy;
+    // Per-wafer coefficients of the SRH terms (see the class comment).
+    /** n0 + p0, cm^-3. */
+    private final double sumN0P0;
+    private final double kA;
+    private final double kB;
+    private final double kMinA;
+    private final double kMinB;
+    private final double kMaxA;
+    private final double kMaxB;
+    private final double ftNumA;
+    private final double ftNumB;
+    private final double ftDenA;
+    private final double ftDenB;
+    /** The injection terms at the fixed injection (null for fixed generation). */
+    private final Pixel fixedTerms;
     // Reference injection for harmonised lifetimes.
     private final boolean hasReference;
     private final double referenceIntrinsicRate;
-    private final double referenceK;
+    private final double inverseReferenceK;
 
     /**
      * @throws trapmap.shared.error.InvalidValueException when the defect has no absolute cross-sections
@@ -74,7 +82,7 @@ public final class TrapDensityConverter {
         this.intrinsic = IntrinsicLifetime.richter2012(conditions.doping(), conditions.silicon(),
                 conditions.radiativeCm3PerS());
         this.srh = SrhRecombination.of(defect, conditions.doping(), conditions.silicon());
-        this.bounds = SrhBounds.of(defect, conditions.doping(), conditions.silicon());
+        SrhBounds bounds = SrhBounds.of(defect, conditions.doping(), conditions.silicon());
         Surface surface = conditions.surface();
         if (surface.ideal()) {
             surfaceRatePerS = 0;
@@ -87,7 +95,9 @@ public final class TrapDensityConverter {
         fixedInjection = inj instanceof Injection.Fixed;
         injectionParameter = fixedInjection ? ((Injection.Fixed) inj).excessPerCm3()
                 : ((Injection.Generation) inj).ratePerCm3PerS();
+        detectionResolution = conditions.detectionResolution();
         trapDensityLimitFactor = 0.1;
+        dopingPerCm3 = conditions.doping().densityPerCm3();
         int warn = 0;
         if (intrinsic.outsideValidatedTemperature()) {
             warn |= ConversionWarning.TEMPERATURE_NOT_300K.bit();
@@ -96,25 +106,70 @@ public final class TrapDensityConverter {
             warn |= ConversionWarning.VELOCITY_CONVENTION.bit();
         }
         baseWarnings = warn;
-        double dn = fixedInjection ? injectionParameter : Double.NaN;
-        fixedIntrinsicRate = fixedInjection ? intrinsic.rateConstantPerS(dn) : Double.NaN;
-        fixedK = fixedInjection ? srh.lifetimeDensityProductSCm3(dn) : Double.NaN;
-        fixedKMin = fixedInjection ? bounds.lower().lifetimeDensityProductSCm3(dn) : Double.NaN;
-        fixedKMax = fixedInjection ? bounds.upper().lifetimeDensityProductSCm3(dn) : Double.NaN;
-        fixedOccupancy = fixedInjection ? srh.occupancy(dn) : Double.NaN;
+
+        sumN0P0 = srh.n0PerCm3() + srh.p0PerCm3();
+        kA = kOffset(srh);
+        kB = kSlope(srh);
+        kMinA = kOffset(bounds.lower());
+        kMinB = kSlope(bounds.lower());
+        kMaxA = kOffset(bounds.upper());
+        kMaxB = kSlope(bounds.upper());
+        double cn = srh.electronCaptureCm3PerS();
+        double cp = srh.holeCaptureCm3PerS();
+        ftNumA = cn * srh.n0PerCm3() + cp * srh.p1PerCm3();
+        ftNumB = cn;
+        ftDenA = cn * (srh.n0PerCm3() + srh.n1PerCm3()) + cp * (srh.p0PerCm3() + srh.p1PerCm3());
+        ftDenB = cn + cp;
+
+        if (fixedInjection) {
+            fixedTerms = new Pixel();
+            injectionTerms(injectionParameter, fixedTerms);
+        } else {
+            fixedTerms = null;
+        }
         double ref = conditions.referenceInjectionPerCm3();
         hasReference = !Double.isNaN(ref);
         referenceIntrinsicRate = hasReference ? intrinsic.rateConstantPerS(ref) : Double.NaN;
-        referenceK = hasReference ? srh.lifetimeDensityProductSCm3(ref) : Double.NaN;
+        inverseReferenceK = hasReference ? 1.0 / lifetimeDensityProduct(ref) : Double.NaN;
+    }
+
+    /** a = (n0 + n1)/c_p + (p0 + p1)/c_n of K = (a + b·Δn)/(n0 + p0 + Δn), s·cm^-6. */
+    private static double kOffset(SrhRecombination s) {
+        return (s.n0PerCm3() + s.n1PerCm3()) / s.holeCaptureCm3PerS()
+                + (s.p0PerCm3() + s.p1PerCm3()) / s.electronCaptureCm3PerS();
+    }
+
+    /** b = 1/c_p + 1/c_n of K = (a + b·Δn)/(n0 + p0 + Δn), s·cm^-3. */
+    private static double kSlope(SrhRecombination s) {
+        return 1.0 / s.holeCaptureCm3PerS() + 1.0 / s.electronCaptureCm3PerS();
+    }
+
+    /**
+     * The injection-dependent terms of the kernel at {@code dn} into {@code px}: Δn, 1/τ_intr, K of the nominal
+     * defect and both bounds, f_t. Once per wafer for fixed injection, per pixel for fixed generation.
+     */
+    private void injectionTerms(double dn, Pixel px) {
+        double inverseSum = 1.0 / (sumN0P0 + dn);
+        px.dn = dn;
+        px.intrinsicRate = intrinsic.rateConstantPerS(dn);
+        px.k = (kA + kB * dn) * inverseSum;
+        px.kMin = (kMinA + kMinB * dn) * inverseSum;
+        px.kMax = (kMaxA + kMaxB * dn) * inverseSum;
+        px.occupancy = (ftNumA + ftNumB * dn) / (ftDenA + ftDenB * dn);
+    }
+
+    /** K(Δn) of the nominal defect, s·cm^-3 (N_t = K/τ_SRH), as in {@link #injectionTerms}. */
+    private double lifetimeDensityProduct(double dn) {
+        return (kA + kB * dn) * (1.0 / (sumN0P0 + dn));
     }
 
     /** Converts one pixel's effective lifetime (µs). */
     public PixelResult convert(double effectiveLifetimeUs) {
-        double[] s = new double[SLOTS];
-        evaluate(effectiveLifetimeUs, s);
-        return new PixelResult(PixelStatus.ofCode((int) s[STATUS]), s[DN], effectiveLifetimeUs, s[TAU_INTR],
-                surfaceLifetimeUs(), s[TAU_SRH], s[NT], s[NT_MIN], s[NT_MAX], s[FT], s[TAU_REF],
-                ConversionWarning.fromMask((int) s[WARN]));
+        Pixel px = new Pixel();
+        evaluate(effectiveLifetimeUs, px);
+        return new PixelResult(PixelStatus.ofCode(px.status), px.dn, effectiveLifetimeUs,
+                Units.US_PER_S / px.intrinsicRate, surfaceLifetimeUs(), px.srhLifetimeUs, px.nt, px.ntMin, px.ntMax,
+                px.occupancy, px.lifetimeAtReferenceUs, ConversionWarning.fromMask(px.warnings));
     }
 
     /** Converts a raster with all available processors. */
@@ -123,7 +178,9 @@ public final class TrapDensityConverter {
     }
 
     /**
-     * Converts a row-major raster of effective lifetimes (µs; NaN = no data) in parallel over rows.
+     * Converts a row-major raster of effective lifetimes (µs) in parallel over rows. A NaN sample is a pixel without
+     * data (outside the wafer or masked) and gets {@link PixelStatus#NO_DATA}; every other sample gets exactly the
+     * single-pixel result of {@link #convert(double)} (where a NaN lifetime is {@link PixelStatus#INVALID}).
      *
      * @param width   raster width in pixels; the length must be a multiple of it
      * @param threads number of threads (1 runs on the calling thread)
@@ -151,115 +208,200 @@ public final class TrapDensityConverter {
     }
 
     private void convertRows(float[] tau, int width, ConversionOutput out, int rowFrom, int rowTo) {
-        double[] s = new double[SLOTS];
+        Pixel px = new Pixel();
         for (int i = rowFrom * width, end = rowTo * width; i < end; i++) {
             float t = tau[i];
             if (t != t) { // NaN: no data
-                store(out, i, Float.NaN, PixelStatus.NO_DATA.code(), (byte) 0, null);
+                storeNoData(out, i);
                 continue;
             }
-            evaluate(t, s);
-            store(out, i, Float.NaN, (byte) s[STATUS], (byte) s[WARN], s);
+            // evaluate(t, px), with its stages called here: each is small enough for the JIT compiler to inline into
+            // this loop, which it may decline for evaluate as a whole once that is compiled on its own.
+            if (valid(t)) {
+                injectionStage(t, px);
+                rateStage(t, px);
+            } else {
+                invalid(px);
+            }
+            store(out, i, px);
         }
     }
 
-    private static void store(ConversionOutput out, int i, float nan, byte status, byte warn, double[] s) {
+    private static void store(ConversionOutput out, int i, Pixel px) {
         if (out.trapDensity != null) {
-            out.trapDensity[i] = s == null ? nan : (float) s[NT];
+            out.trapDensity[i] = (float) px.nt;
         }
         if (out.trapDensityMin != null) {
-            out.trapDensityMin[i] = s == null ? nan : (float) s[NT_MIN];
+            out.trapDensityMin[i] = (float) px.ntMin;
         }
         if (out.trapDensityMax != null) {
-            out.trapDensityMax[i] = s == null ? nan : (float) s[NT_MAX];
+            out.trapDensityMax[i] = (float) px.ntMax;
         }
         if (out.occupancy != null) {
-            out.occupancy[i] = s == null ? nan : (float) s[FT];
+            out.occupancy[i] = (float) px.occupancy;
         }
         if (out.srhLifetimeUs != null) {
-            out.srhLifetimeUs[i] = s == null ? nan : (float) s[TAU_SRH];
+            out.srhLifetimeUs[i] = (float) px.srhLifetimeUs;
         }
         if (out.injection != null) {
-            out.injection[i] = s == null ? nan : (float) s[DN];
+            out.injection[i] = (float) px.dn;
         }
         if (out.lifetimeAtReferenceUs != null) {
-            out.lifetimeAtReferenceUs[i] = s == null ? nan : (float) s[TAU_REF];
+            out.lifetimeAtReferenceUs[i] = (float) px.lifetimeAtReferenceUs;
         }
         if (out.status != null) {
-            out.status[i] = status;
+            out.status[i] = px.status;
         }
         if (out.warnings != null) {
-            out.warnings[i] = warn;
+            out.warnings[i] = px.warnings;
         }
     }
 
-    /** The kernel shared by both paths; writes the slots of {@code s}. */
-    private void evaluate(double tauUs, double[] s) {
-        if (!(tauUs > 0) || tauUs == Double.POSITIVE_INFINITY) {
-            s[STATUS] = PixelStatus.INVALID.code();
-            for (int k = 1; k < SLOTS - 1; k++) {
-                s[k] = Double.NaN;
-            }
-            s[WARN] = 0;
-            return;
+    private static void storeNoData(ConversionOutput out, int i) {
+        float nan = Float.NaN;
+        if (out.trapDensity != null) {
+            out.trapDensity[i] = nan;
         }
-        double tauS = tauUs * Units.S_PER_US;
+        if (out.trapDensityMin != null) {
+            out.trapDensityMin[i] = nan;
+        }
+        if (out.trapDensityMax != null) {
+            out.trapDensityMax[i] = nan;
+        }
+        if (out.occupancy != null) {
+            out.occupancy[i] = nan;
+        }
+        if (out.srhLifetimeUs != null) {
+            out.srhLifetimeUs[i] = nan;
+        }
+        if (out.injection != null) {
+            out.injection[i] = nan;
+        }
+        if (out.lifetimeAtReferenceUs != null) {
+            out.lifetimeAtReferenceUs[i] = nan;
+        }
+        if (out.status != null) {
+            out.status[i] = PixelStatus.NO_DATA.code();
+        }
+        if (out.warnings != null) {
+            out.warnings[i] = 0;
+        }
+    }
+
+    /** The kernel's working values and results for one pixel; each worker reuses one instance. */
+    private static final class Pixel {
+        // Injection terms.
+        /** Δn, cm^-3. */
         double dn;
+        /** 1/τ_intr, 1/s. */
         double intrinsicRate;
+        /** K of the nominal defect and of the bounds, s·cm^-3. */
         double k;
         double kMin;
         double kMax;
-        double ft;
-        if (fixedInjection) {
-            dn = injectionParameter;
-            intrinsicRate = fixedIntrinsicRate;
-            k = fixedK;
-            kMin = fixedKMin;
-            kMax = fixedKMax;
-            ft = fixedOccupancy;
-        } else {
-            dn = injectionParameter * tauS;
-            intrinsicRate = intrinsic.rateConstantPerS(dn);
-            k = srh.lifetimeDensityProductSCm3(dn);
-            kMin = bounds.lower().lifetimeDensityProductSCm3(dn);
-            kMax = bounds.upper().lifetimeDensityProductSCm3(dn);
-            ft = srh.occupancy(dn);
+        /** f_t. */
+        double occupancy;
+        // Results.
+        byte status;
+        byte warnings;
+        double srhLifetimeUs;
+        double nt;
+        double ntMin;
+        double ntMax;
+        double lifetimeAtReferenceUs;
+
+        void copyInjectionTerms(Pixel from) {
+            dn = from.dn;
+            intrinsicRate = from.intrinsicRate;
+            k = from.k;
+            kMin = from.kMin;
+            kMax = from.kMax;
+            occupancy = from.occupancy;
         }
+    }
+
+    /**
+     * The kernel shared by both paths: fills {@code px} for an effective lifetime of {@code tauUs} µs. The array
+     * loop runs the same stages.
+     */
+    private void evaluate(double tauUs, Pixel px) {
+        if (valid(tauUs)) {
+            injectionStage(tauUs, px);
+            rateStage(tauUs, px);
+        } else {
+            invalid(px);
+        }
+    }
+
+    /** Finite and positive: a lifetime the kernel converts ({@link PixelStatus#INVALID} otherwise). */
+    private static boolean valid(double tauUs) {
+        return tauUs > 0 && tauUs != Double.POSITIVE_INFINITY;
+    }
+
+    /** Stage 1: Δn and the terms that depend on it. */
+    private void injectionStage(double tauUs, Pixel px) {
+        if (fixedInjection) {
+            px.copyInjectionTerms(fixedTerms);
+        } else {
+            injectionTerms(injectionParameter * (tauUs * Units.S_PER_US), px);
+        }
+    }
+
+    /** Stage 2: the SRH rate and everything derived from it. */
+    private void rateStage(double tauUs, Pixel px) {
+        double tauS = tauUs * Units.S_PER_US;
+        double intrinsicRate = px.intrinsicRate;
         double srhRate = 1.0 / tauS - intrinsicRate - surfaceRatePerS;
         int warn = baseWarnings;
-        double nt;
+        double rate;
         if (srhRate > 0) {
-            s[STATUS] = PixelStatus.OK.code();
-            s[TAU_SRH] = Units.US_PER_S / srhRate;
-            nt = k * srhRate;
-            s[NT_MIN] = kMin * srhRate;
-            s[NT_MAX] = kMax * srhRate;
-            if (nt > trapDensityLimitFactor * Math.min(dn, conditions.doping().densityPerCm3())) {
-                warn |= ConversionWarning.TRAP_DENSITY_NOT_SMALL.bit();
-            }
+            px.status = PixelStatus.OK.code();
+            px.srhLifetimeUs = Units.US_PER_S / srhRate;
+            rate = srhRate;
         } else {
-            s[STATUS] = PixelStatus.BELOW_LIMIT.code();
-            s[TAU_SRH] = Double.POSITIVE_INFINITY;
+            px.status = PixelStatus.BELOW_LIMIT.code();
+            px.srhLifetimeUs = Double.POSITIVE_INFINITY;
             // The SRH rate that would lower the limit lifetime 1/(1/τ_intr + 1/τ_surf) by the resolution δ.
-            double limitRate = conditions.detectionResolution() * (intrinsicRate + surfaceRatePerS);
-            nt = k * limitRate;
-            s[NT_MIN] = kMin * limitRate;
-            s[NT_MAX] = kMax * limitRate;
+            rate = detectionResolution * (intrinsicRate + surfaceRatePerS);
         }
-        if (surfaceRatePerS * tauS > 0.5) {
-            warn |= ConversionWarning.SURFACE_LIMITED.bit();
+        double nt = px.k * rate;
+        if (srhRate > 0 && nt > trapDensityLimitFactor * Math.min(px.dn, dopingPerCm3)) {
+            warn |= ConversionWarning.TRAP_DENSITY_NOT_SMALL.bit();
         }
-        s[NT] = nt;
-        s[DN] = dn;
-        s[TAU_INTR] = Units.US_PER_S / intrinsicRate;
-        s[FT] = ft;
+        if (surfaceRatePerS > 0) {
+            if (surfaceRatePerS * tauS > 0.5) {
+                warn |= ConversionWarning.SURFACE_LIMITED.bit();
+            }
+            if (px.dn > LOW_INJECTION_LIMIT * dopingPerCm3) {
+                warn |= ConversionWarning.SURFACE_LOW_INJECTION_DIFFUSIVITY.bit();
+            }
+        }
+        px.nt = nt;
+        px.ntMin = px.kMin * rate;
+        px.ntMax = px.kMax * rate;
         if (hasReference) {
-            double refSrhRate = srhRate > 0 ? nt / referenceK : 0;
-            s[TAU_REF] = Units.US_PER_S / (refSrhRate + referenceIntrinsicRate + surfaceRatePerS);
+            double refSrhRate = srhRate > 0 ? nt * inverseReferenceK : 0;
+            px.lifetimeAtReferenceUs = Units.US_PER_S / (refSrhRate + referenceIntrinsicRate + surfaceRatePerS);
         } else {
-            s[TAU_REF] = Double.NaN;
+            px.lifetimeAtReferenceUs = Double.NaN;
         }
-        s[WARN] = warn;
+        px.warnings = (byte) warn;
+    }
+
+    private static void invalid(Pixel px) {
+        px.status = PixelStatus.INVALID.code();
+        px.warnings = 0;
+        px.dn = Double.NaN;
+        px.intrinsicRate = Double.NaN;
+        px.k = Double.NaN;
+        px.kMin = Double.NaN;
+        px.kMax = Double.NaN;
+        px.srhLifetimeUs = Double.NaN;
+        px.nt = Double.NaN;
+        px.ntMin = Double.NaN;
+        px.ntMax = Double.NaN;
+        px.occupancy = Double.NaN;
+        px.lifetimeAtReferenceUs = Double.NaN;
     }
 
     /** Surface-limited lifetime, µs (infinite for ideal surfaces). */
@@ -274,7 +416,7 @@ public final class TrapDensityConverter {
     public double lifetimeAtInjectionUs(double ntPerCm3, double dnPerCm3) {
         Checks.nonNegative(ntPerCm3, "trapDensity", "cm^-3");
         Checks.positive(dnPerCm3, "injection", "cm^-3");
-        double rate = ntPerCm3 / srh.lifetimeDensityProductSCm3(dnPerCm3) + intrinsic.rateConstantPerS(dnPerCm3)
+        double rate = ntPerCm3 / lifetimeDensityProduct(dnPerCm3) + intrinsic.rateConstantPerS(dnPerCm3)
                 + surfaceRatePerS;
         return Units.US_PER_S / rate;
     }

@@ -38,6 +38,8 @@ public final class IronImaging {
     private final SrhRecombination pair;
     private final double crossoverPerCm3;
     private final double resolution;
+    /** Warnings that hold for every pixel (velocity convention). */
+    private final Set<ConversionWarning> baseWarnings;
 
     /** Iron imaging with the library's fe-i and fe-b parameter sets. */
     public IronImaging(Doping doping, Silicon silicon) {
@@ -58,6 +60,9 @@ public final class IronImaging {
         this.pair = SrhRecombination.of(ironBoron, doping, silicon);
         this.resolution = Checks.inRange(resolution, 1e-6, 1, "detectionResolution", "");
         this.crossoverPerCm3 = findCrossover();
+        this.baseWarnings = silicon.velocityModel() == interstitialIron.velocityConvention()
+                && silicon.velocityModel() == ironBoron.velocityConvention()
+                ? EnumSet.noneOf(ConversionWarning.class) : EnumSet.of(ConversionWarning.VELOCITY_CONVENTION);
     }
 
     /** C(Δn), s·cm^-3; [Fe_i] = C·(1/τ_after − 1/τ_before) with lifetimes in s. */
@@ -74,6 +79,7 @@ public final class IronImaging {
     public IronResult evaluate(double beforeUs, double afterUs, double dn) {
         Checks.positive(dn, "injection", "cm^-3");
         Set<ConversionWarning> warnings = EnumSet.noneOf(ConversionWarning.class);
+        warnings.addAll(baseWarnings);
         double c = prefactorSCm3(dn);
         double cUs = c * Units.US_PER_S;
         double distance = Double.isNaN(crossoverPerCm3) ? Double.POSITIVE_INFINITY

@@ -27,8 +27,35 @@ public final class RadiativeCoefficient {
         return Math.pow(10, ((-2.28765176 * x + 17.94655444) * x - 47.53455728) * x + 28.07323491);
     }
 
-    /** Temperature-dependent constants of B_rel, computed once per map. */
-    record Screening(double bMin, double b1, double b3) {
+    /**
+     * Temperature-dependent constants of B_rel, computed once per map:
+     * <pre>
+     * B_rel(n+p) = b_min + (1 − b_min)/(1 + ((n+p)/b1)^0.54 + ((n+p)/b3)^1.25)
+     * b_min = 0.2 − 0.2/(1 + (T/320)^2.5)
+     * b1 = 2 [1.5e18 + (1e7 − 1.5e18)/(1 + (T/550)^3)]
+     * b3 = 2 [4e18 + (1e9 − 4e18)/(1 + (T/365)^3.54)]
+     * </pre>
+     * Per carrier density the powers are evaluated without {@code Math.pow}: ((n+p)/b1)^0.54 =
+     * (n+p)^0.54·b1^−0.54 with {@link IntrinsicLifetime.Power}, and x^1.25 = x·√√x with x = (n+p)/b3. Both agree
+     * with the powers to a few units in the last place.
+     */
+    static final class Screening {
+        private static final IntrinsicLifetime.Power B2_POWER = new IntrinsicLifetime.Power(0.54);
+
+        private final double bMin;
+        /** 1 − b_min. */
+        private final double bSpan;
+        /** b1^−0.54. */
+        private final double b1Factor;
+        private final double invB3;
+
+        private Screening(double bMin, double b1, double b3) {
+            this.bMin = bMin;
+            this.bSpan = 1.0 - bMin;
+            this.b1Factor = Math.pow(b1, -0.54);
+            this.invB3 = 1.0 / b3;
+        }
+
         static Screening at(double t) {
             double bMin = 0.2 + (0.0 - 0.2) / (1 + Math.pow(t / 320.0, 2.5));
             double b1 = 2 * (1.5e18 + (1e7 - 1.5e18) / (1 + Math.pow(t / 550.0, 3)));
@@ -36,8 +63,10 @@ public final class RadiativeCoefficient {
             return new Screening(bMin, b1, b3);
         }
 
+        /** B_rel at n + p = {@code np} (> 0). */
         double relative(double np) {
-            return bMin + (1.0 - bMin) / (1 + Math.pow(np / b1, 0.54) + Math.pow(np / b3, 1.25));
+            double x3 = np * invB3;
+            return bMin + bSpan / (1 + B2_POWER.of(np) * b1Factor + x3 * Math.sqrt(Math.sqrt(x3)));
         }
     }
 }
