@@ -31,6 +31,7 @@ import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.PixelGrid;
+import trapmap.shared.units.LifetimeUnit;
 
 /**
  * CSV maps, read with commons-csv. Two layouts are recognised from the first line that is not a comment:
@@ -246,6 +247,7 @@ final class CsvMaps {
         int iy = -1;
         int iv = -1;
         String columnUnit = null;
+        double factor = 1;
         Points pts = new Points();
         int headerLine = offset + 1;
         boolean first = true;
@@ -277,6 +279,7 @@ final class CsvMaps {
                                 String.join(String.valueOf(delimiter), r.toList())) + "' has no column " + missing
                                 + "; a point list needs x_mm, y_mm and value");
                     }
+                    factor = lifetimeFactor(meta, columnUnit);
                     continue;
                 }
                 int needed = Math.max(ix, Math.max(iy, iv)) + 1;
@@ -290,7 +293,7 @@ final class CsvMaps {
                 }
                 double x = coordinate(r.get(ix), name, line, "x_mm", delimiter);
                 double y = coordinate(r.get(iy), name, line, "y_mm", delimiter);
-                float v = value(r.get(iv), name, line, unitForMessages(meta, columnUnit), delimiter);
+                float v = value(r.get(iv), name, line, unitForMessages(meta, columnUnit), delimiter, factor);
                 pts.add(x, y, v, line);
             }
         } catch (UncheckedIOException | IllegalStateException e) {
@@ -316,6 +319,7 @@ final class CsvMaps {
         List<ProcessingStep> steps = new ArrayList<>();
         steps.add(ProcessingStep.of("read", "file", source, "format", "csv point list", "points",
                 Integer.toString(pts.n)));
+        boolean converted = factor != 1;
         PixelGrid grid;
         float[] samples;
         Double pitch = meta.pixelPitchMm();
@@ -329,7 +333,7 @@ final class CsvMaps {
         }
         Placement place = place(pts, pitch, meta, header);
         double fill = place.offGrid >= 0 ? 0 : pts.n / ((double) place.width * place.height);
-        boolean sparse = !pitchGiven && pts.n > 1 && fill < MIN_FILL;
+        boolean sparse = place.offGrid < 0 && !pitchGiven && pts.n > 1 && fill < MIN_FILL;
         if (place.offGrid >= 0 || sparse) {
             if (options.csvResampling() == ReadOptions.Resampling.OFF) {
                 String advice = "; the points look scattered — read them with CSV resampling on (ReadOptions"
@@ -348,7 +352,7 @@ final class CsvMaps {
             }
             double p = Double.isNaN(options.resamplePitchMm()) ? (pitchGiven ? pitch : estimatePitch(pts, options))
                     : options.resamplePitchMm();
-            return resample(pts, p, name, embedded, steps, options);
+            return resample(pts, p, name, embedded, steps, options, converted);
         }
         long pixels = (long) place.width * place.height;
         if (pixels > options.maxPixels()) {
@@ -373,7 +377,8 @@ final class CsvMaps {
             samples[k] = pts.v[i];
         }
         grid = new PixelGrid(place.width, place.height, pitch, place.cx, place.cy);
-        return new MapBuilder.Raw(samples, place.width, place.height, false, embedded, null, grid, steps);
+        return new MapBuilder.Raw(samples, place.width, place.height, false, embedded, null, grid, steps,
+                converted);
     }
 
     /** The unit values are taken in: as given, else the quantity's, else µs (what the reader will assume). */
@@ -548,7 +553,7 @@ final class CsvMaps {
     }
 
     private static MapBuilder.Raw resample(Points p, double pitch, String name, Sidecar embedded,
-                                           List<ProcessingStep> steps, ReadOptions options)
+                                           List<ProcessingStep> steps, ReadOptions options, boolean converted)
             throws MapFormatException {
         double xmin = Double.POSITIVE_INFINITY;
         double xmax = Double.NEGATIVE_INFINITY;
@@ -636,7 +641,7 @@ final class CsvMaps {
         steps.add(ProcessingStep.of("resample", "method", nearest ? "nearest" : "inverse-distance", "pitch_mm",
                 num(pitch), "radius_mm", num(radius), "points", Integer.toString(p.n)));
         PixelGrid grid = new PixelGrid(w, h, pitch, -xmin / pitch + 0.0, ymax / pitch + 0.0);
-        return new MapBuilder.Raw(out, w, h, false, embedded, null, grid, steps);
+        return new MapBuilder.Raw(out, w, h, false, embedded, null, grid, steps, converted);
     }
 
     // ---------------------------------------------------------------------------------------------------- grids
@@ -651,6 +656,7 @@ final class CsvMaps {
         boolean trailing = false;
         int firstLine = offset + 1;
         String unit = unitForMessages(meta, null);
+        double factor = lifetimeFactor(meta, null);
         try {
             for (CSVRecord r : parser) {
                 int line = offset + (int) parser.getCurrentLineNumber();
@@ -677,7 +683,7 @@ final class CsvMaps {
                             Math.max((long) s.length * 2, (long) n + width)));
                 }
                 for (int i = 0; i < width; i++) {
-                    s[n++] = value(r.get(i), name, line, unit, delimiter);
+                    s[n++] = value(r.get(i), name, line, unit, delimiter, factor);
                 }
                 rows++;
             }
@@ -689,7 +695,8 @@ final class CsvMaps {
         }
         List<ProcessingStep> steps = new ArrayList<>();
         steps.add(ProcessingStep.of("read", "file", source, "format", "csv grid", "size", width + "x" + rows));
-        return new MapBuilder.Raw(Arrays.copyOf(s, n), width, rows, false, header.meta, null, null, steps);
+        return new MapBuilder.Raw(Arrays.copyOf(s, n), width, rows, false, header.meta, null, null, steps,
+                factor != 1);
     }
 
     private static MapFormatException malformed(RuntimeException e, CSVParser parser, int offset, String name) {
@@ -719,7 +726,23 @@ final class CsvMaps {
         return v;
     }
 
-    private static float value(String text, String name, int line, String unit, char delimiter)
+    /**
+     * The factor that takes the values to µs when they are lifetimes in another unit (applied while parsing, to the
+     * decimal text, so that 0.001 s gives exactly 1000 µs), else 1. Undecidable units are left to {@link MapBuilder}.
+     */
+    private static double lifetimeFactor(Sidecar meta, String columnUnit) {
+        String unit = meta.unit() != null ? meta.unit() : columnUnit;
+        if (unit == null || (meta.quantity() != null && !MapBuilder.isLifetime(meta.quantity()))) {
+            return 1;
+        }
+        try {
+            return LifetimeUnit.parse(unit).toMicroseconds(1);
+        } catch (IllegalArgumentException e) {
+            return 1;
+        }
+    }
+
+    private static float value(String text, String name, int line, String unit, char delimiter, double factor)
             throws MapFormatException {
         String t = number(text, delimiter);
         if (t.isEmpty() || isNaN(t)) {
@@ -729,7 +752,7 @@ final class CsvMaps {
             throw new MapFormatException(name, "line " + line, "value '" + abbreviate(text) + "' is not a number",
                     unitLabel(unit));
         }
-        float v = Float.parseFloat(t);
+        float v = factor == 1 ? Float.parseFloat(t) : (float) (Double.parseDouble(t) * factor);
         if (Float.isInfinite(v)) {
             throw new MapFormatException(name, "line " + line, "value '" + abbreviate(text) + "' is beyond the"
                     + " 32-bit float range", unitLabel(unit));

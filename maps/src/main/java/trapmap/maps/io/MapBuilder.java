@@ -38,9 +38,10 @@ final class MapBuilder {
      * @param headerPitchMm  pitch from format-specific header fields, or null
      * @param grid           a grid fixed by the reader (CSV point lists), or null
      * @param readSteps      steps describing the read (format, page, decoder, resampling)
+     * @param inMicroseconds true when the reader already converted lifetimes to µs (CSV: from the decimal text)
      */
     record Raw(float[] samples, int width, int height, boolean integer, Sidecar embedded, Double headerPitchMm,
-               PixelGrid grid, List<ProcessingStep> readSteps) {
+               PixelGrid grid, List<ProcessingStep> readSteps, boolean inMicroseconds) {
     }
 
     /**
@@ -130,7 +131,10 @@ final class MapBuilder {
                 }
                 double factor = lu.toMicroseconds(1);
                 if (factor != 1) {
-                    transform(s, raw.width(), name, "unit", "converting " + lu.symbol() + " to µs", v -> v * factor);
+                    if (!raw.inMicroseconds()) {
+                        transform(s, raw.width(), name, "unit", "converting " + lu.symbol() + " to µs",
+                                v -> v * factor);
+                    }
                     steps.add(ProcessingStep.of("convert-unit", "from", lu.symbol(), "to", "µs", "factor",
                             Sidecar.fmt(factor)));
                 }

@@ -223,7 +223,7 @@ public final class MapFiles {
                             + p.xResolution() + ", Y " + p.yResolution() + " per unit); the X resolution is used"));
                 }
                 MapBuilder.Raw raw = new MapBuilder.Raw(d.samples(), p.width(), p.height(), p.type().integer(),
-                        d.embedded(), p.pitchMm(), null, steps);
+                        d.embedded(), p.pitchMm(), null, steps, false);
                 maps.add(MapBuilder.build(raw, name, source, stem, sidecar, sidecarName, i, pages.size(), options));
             }
         } else {

@@ -373,8 +373,8 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
         }
 
         String describe() {
-            return openLow && max == Double.MAX_VALUE ? "must be > " + fmt(min) : "must be in [" + fmt(min) + ", "
-                    + fmt(max) + "]";
+            return openLow && max == Double.MAX_VALUE ? "must be > " + fmt(min) : "must be in " + (openLow ? "(" : "[")
+                    + fmt(min) + ", " + fmt(max) + "]";
         }
     }
 
@@ -573,9 +573,10 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
             }
             double v = n.doubleValue();
             if (!r.accepts(v)) {
-                String shown = Double.isFinite(v) ? fmt(v) : abbreviate(n.toString());
-                String rule = Double.isFinite(v) ? r.describe() : "must be a finite number";
-                throw fail(path, rule + " but was " + shown, r.unit());
+                if (!Double.isFinite(v)) {
+                    throw fail(path, "must be a finite number but is beyond the range of numbers", r.unit());
+                }
+                throw fail(path, r.describe() + " but was " + fmt(v), r.unit());
             }
             return v;
         }
