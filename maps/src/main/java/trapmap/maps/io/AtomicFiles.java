@@ -1,0 +1,65 @@
+package trapmap.maps.io;
+
+import java.io.IOException;
+import java.nio.channels.FileChannel;
+import java.nio.file.AtomicMoveNotSupportedException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+import java.nio.file.StandardOpenOption;
+import java.nio.file.attribute.PosixFilePermission;
+import java.nio.file.attribute.PosixFilePermissions;
+import java.util.Set;
+
+/**
+ * Writes a file so that readers see either the old content or the complete new one: the content goes to a
+ * temporary file in the target's directory, which is flushed to disk and then renamed over the target in one
+ * step. On failure the temporary file is removed and the target is untouched.
+ */
+final class AtomicFiles {
+    private static final Set<PosixFilePermission> DEFAULT_PERMISSIONS = PosixFilePermissions.fromString("rw-r--r--");
+
+    /** Writes the content of a file at a given path. */
+    @FunctionalInterface
+    interface Content {
+        void writeTo(Path file) throws IOException;
+    }
+
+    private AtomicFiles() {
+    }
+
+    static void write(Path target, Content content) throws IOException {
+        Path abs = target.toAbsolutePath();
+        Path dir = abs.getParent();
+        Path tmp = Files.createTempFile(dir, "." + abs.getFileName() + ".", ".tmp");
+        boolean done = false;
+        try {
+            content.writeTo(tmp);
+            try (FileChannel ch = FileChannel.open(tmp, StandardOpenOption.WRITE)) {
+                ch.force(true);
+            }
+            permissions(tmp, abs);
+            try {
+                Files.move(tmp, abs, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
+            } catch (AtomicMoveNotSupportedException e) {
+                Files.move(tmp, abs, StandardCopyOption.REPLACE_EXISTING);
+            }
+            done = true;
+        } finally {
+            if (!done) {
+                Files.deleteIfExists(tmp);
+            }
+        }
+    }
+
+    /** Temporary files are private; give the new file the target's permissions, or rw-r--r--. */
+    private static void permissions(Path tmp, Path target) {
+        try {
+            Set<PosixFilePermission> p = Files.exists(target) ? Files.getPosixFilePermissions(target)
+                    : DEFAULT_PERMISSIONS;
+            Files.setPosixFilePermissions(tmp, p);
+        } catch (UnsupportedOperationException | IOException e) {
+            // not a POSIX file system: keep the defaults
+        }
+    }
+}

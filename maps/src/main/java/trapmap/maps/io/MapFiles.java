@@ -1,0 +1,235 @@
+package trapmap.maps.io;
+
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.file.Files;
+import java.nio.file.NoSuchFileException;
+import java.nio.file.Path;
+import java.nio.file.attribute.BasicFileAttributes;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import trapmap.maps.model.ProcessingStep;
+import trapmap.maps.model.WaferMap;
+
+/**
+ * Reads and writes wafer maps. The format follows the file name extension:
+ * <ul>
+ *   <li>{@code .tif}, {@code .tiff} — TIFF, read and written. Reads 32-bit float, 16-bit unsigned and 8-bit unsigned
+ *       greyscale, uncompressed, LZW, Deflate or PackBits, one map per page; integer samples are scaled by the
+ *       sidecar's {@code scale}/{@code offset} or, without them, read as PL counts. Writes 32-bit float with all the
+ *       map's metadata embedded, so that a written map reads back equal (samples bit for bit, grid, quantity, wafer
+ *       id, conditions and provenance).</li>
+ *   <li>{@code .csv} (also {@code .txt}, {@code .tsv}) — point lists {@code x_mm,y_mm,value} or plain grids of
+ *       numbers, read; point lists written (see {@link CsvMaps}).</li>
+ *   <li>{@code .png} — written only: an 8-bit picture of the map, not quantitative (see {@link PngStyle}).</li>
+ * </ul>
+ * A sidecar {@code <name>.json} beside a map is read with it (schema in {@link Sidecar}). Lifetime maps are
+ * converted to µs; when nothing says the unit, µs is assumed and the provenance says so.
+ *
+ * <p>Reading never changes the input files. Every reading failure — missing, truncated, malformed, unsupported or
+ * above the limits of {@link ReadOptions} — is a {@link MapFormatException} naming file, place and unit; limits are
+ * checked from headers before memory is allocated. Writing is atomic: a temporary file in the same directory is
+ * renamed over the target.
+ */
+public final class MapFiles {
+
+    /** File formats by extension. */
+    public enum Format { TIFF, CSV, PNG }
+
+    private MapFiles() {
+    }
+
+    /** The maps in {@code file} (one per page of a multi-page TIFF), with the default limits. */
+    public static List<WaferMap> read(Path file) throws MapFormatException {
+        return read(file, ReadOptions.DEFAULTS);
+    }
+
+    /**
+     * The maps in {@code file}, one per page (a multi-page TIFF gives several, e.g. before and after a treatment).
+     *
+     * @throws MapFormatException for any reason the file cannot be read, naming file, place and unit
+     */
+    public static List<WaferMap> read(Path file, ReadOptions options) throws MapFormatException {
+        String name = file.toString();
+        try {
+            return readChecked(file, name, options);
+        } catch (MapFormatException e) {
+            throw e;
+        } catch (IOException e) {
+            throw new MapFormatException(name, null, "cannot be read (" + e.getMessage() + ")", "", e);
+        } catch (RuntimeException e) {
+            throw new MapFormatException(name, null, "unexpected failure while reading (" + e + ")", "", e);
+        } catch (OutOfMemoryError e) {
+            throw new MapFormatException(name, null, "not enough memory to read the file; give Java more memory"
+                    + " (-Xmx) or lower ReadOptions.maxPixels", "", e);
+        }
+    }
+
+    /** The one map in {@code file}, with the default limits. */
+    public static WaferMap readSingle(Path file) throws MapFormatException {
+        return readSingle(file, ReadOptions.DEFAULTS);
+    }
+
+    /**
+     * The one map in {@code file}.
+     *
+     * @throws MapFormatException also when the file holds more than one page
+     */
+    public static WaferMap readSingle(Path file, ReadOptions options) throws MapFormatException {
+        List<WaferMap> maps = read(file, options);
+        if (maps.size() != 1) {
+            throw new MapFormatException(file.toString(), null, "holds " + maps.size() + " maps (pages) where one"
+                    + " is expected");
+        }
+        return maps.get(0);
+    }
+
+    /** Writes {@code map} in the format of the file name's extension, with default options. */
+    public static void write(WaferMap map, Path file) throws IOException {
+        writeAll(List.of(map), file, WriteOptions.DEFAULTS);
+    }
+
+    public static void write(WaferMap map, Path file, WriteOptions options) throws IOException {
+        writeAll(List.of(map), file, options);
+    }
+
+    /**
+     * Writes maps into one file: several pages for TIFF; CSV and PNG hold exactly one map.
+     *
+     * @throws MapFormatException for an extension trapmap cannot write or too many maps for the format
+     * @throws IOException        when the file cannot be written (the target is then unchanged)
+     */
+    public static void writeAll(List<WaferMap> maps, Path file, WriteOptions options) throws IOException {
+        String name = file.toString();
+        if (maps.isEmpty()) {
+            throw new IllegalArgumentException(name + ": no maps to write");
+        }
+        Format f = formatOf(file);
+        if (f == null) {
+            throw new MapFormatException(name, null, "unsupported file type '" + extension(file) + "' for writing;"
+                    + " use .tif, .tiff, .csv or .png");
+        }
+        if (f != Format.TIFF && maps.size() != 1) {
+            throw new MapFormatException(name, null, "a " + f.name() + " file holds one map, not " + maps.size()
+                    + "; write several maps to a multi-page .tif");
+        }
+        List<WaferMap> copy = List.copyOf(maps);
+        switch (f) {
+            case TIFF -> AtomicFiles.write(file, tmp -> {
+                if (options.tiffCompression() == WriteOptions.TiffCompression.NONE) {
+                    FastTiffWriter.write(copy, tmp);
+                } else {
+                    TiffMaps.writeWithImageIo(copy, tmp, options.tiffCompression());
+                }
+            });
+            case CSV -> AtomicFiles.write(file, tmp -> CsvMaps.write(copy.get(0), tmp));
+            case PNG -> AtomicFiles.write(file, tmp -> PngMaps.write(copy.get(0), tmp, options.png()));
+            default -> throw new IllegalStateException(f.name());
+        }
+    }
+
+    /** The sidecar file of a map: {@code w07.tif} → {@code w07.json} in the same directory. */
+    public static Path sidecarOf(Path file) {
+        String n = file.getFileName().toString();
+        return file.resolveSibling(stem(n) + ".json");
+    }
+
+    /** The format of a file name's extension, or null when trapmap has none for it. */
+    public static Format formatOf(Path file) {
+        switch (extension(file)) {
+            case ".tif": case ".tiff": return Format.TIFF;
+            case ".csv": case ".txt": case ".tsv": return Format.CSV;
+            case ".png": return Format.PNG;
+            default: return null;
+        }
+    }
+
+    private static String extension(Path file) {
+        Path fn = file.getFileName();
+        String n = fn == null ? "" : fn.toString();
+        int dot = n.lastIndexOf('.');
+        return dot <= 0 ? "" : n.substring(dot).toLowerCase(Locale.ROOT);
+    }
+
+    private static String stem(String fileName) {
+        int dot = fileName.lastIndexOf('.');
+        return dot <= 0 ? fileName : fileName.substring(0, dot);
+    }
+
+    private static List<WaferMap> readChecked(Path file, String name, ReadOptions options) throws IOException {
+        BasicFileAttributes attrs;
+        try {
+            attrs = Files.readAttributes(file, BasicFileAttributes.class);
+        } catch (NoSuchFileException e) {
+            throw new MapFormatException(name, null, "no such file", "", e);
+        }
+        if (attrs.isDirectory()) {
+            throw new MapFormatException(name, null, "is a directory, not a map file");
+        }
+        if (!attrs.isRegularFile()) {
+            throw new MapFormatException(name, null, "is not a regular file");
+        }
+        long size = attrs.size();
+        if (size > options.maxFileBytes()) {
+            throw new MapFormatException(name, null, "is " + size + " bytes, more than the limit of "
+                    + options.maxFileBytes() + " bytes (ReadOptions.maxFileBytes)");
+        }
+        if (size == 0) {
+            throw new MapFormatException(name, null, "is empty");
+        }
+        byte[] head = new byte[8];
+        int got;
+        try (InputStream in = Files.newInputStream(file)) {
+            got = in.readNBytes(head, 0, head.length);
+        }
+        Format f = formatOf(file);
+        boolean tiffMagic = TiffHeader.looksLikeTiff(java.util.Arrays.copyOf(head, got));
+        if (f == Format.PNG || (got >= 4 && (head[0] & 0xFF) == 0x89 && head[1] == 'P' && head[2] == 'N'
+                && head[3] == 'G')) {
+            throw new MapFormatException(name, null, "is a PNG picture; pictures are not quantitative, so maps are"
+                    + " read from TIFF or CSV files");
+        }
+        if (f == null) {
+            if (!tiffMagic) {
+                throw new MapFormatException(name, null, "unsupported file type '" + extension(file) + "'; maps are"
+                        + " read from .tif, .tiff and .csv files");
+            }
+            f = Format.TIFF;
+        }
+        if (f == Format.CSV && tiffMagic) {
+            f = Format.TIFF;
+        }
+        Path sidecarPath = sidecarOf(file);
+        Sidecar sidecar = null;
+        String sidecarName = sidecarPath.toString();
+        if (!extension(file).equals(".json") && Files.isRegularFile(sidecarPath)) {
+            sidecar = Sidecar.read(sidecarPath);
+        }
+        String source = file.getFileName().toString();
+        String stem = stem(source);
+        List<WaferMap> maps = new ArrayList<>();
+        if (f == Format.TIFF) {
+            List<TiffMaps.Decoded> pages = TiffMaps.read(file, name, size, options);
+            for (int i = 0; i < pages.size(); i++) {
+                TiffMaps.Decoded d = pages.get(i);
+                TiffHeader.Page p = d.page();
+                List<ProcessingStep> steps = new ArrayList<>();
+                steps.add(ProcessingStep.of("read", "file", source, "format", "tiff", "page", (i + 1) + " of "
+                        + pages.size(), "samples", p.type().label, "compression", p.compressionName(), "decoder",
+                        d.decoder()));
+                if (p.nonSquare()) {
+                    steps.add(ProcessingStep.of("warning", "file", source, "message", "pixels are not square (X "
+                            + p.xResolution() + ", Y " + p.yResolution() + " per unit); the X resolution is used"));
+                }
+                MapBuilder.Raw raw = new MapBuilder.Raw(d.samples(), p.width(), p.height(), p.type().integer(),
+                        d.embedded(), p.pitchMm(), null, steps, false);
+                maps.add(MapBuilder.build(raw, name, source, stem, sidecar, sidecarName, i, pages.size(), options));
+            }
+        } else {
+            MapBuilder.Raw raw = CsvMaps.read(file, name, source, sidecar, options);
+            maps.add(MapBuilder.build(raw, name, source, stem, sidecar, sidecarName, 0, 1, options));
+        }
+        return List.copyOf(maps);
+    }
+}

@@ -1,0 +1,128 @@
+package trapmap.maps.io;
+
+import java.awt.image.BufferedImage;
+import java.io.IOException;
+import java.nio.file.Path;
+import java.util.Arrays;
+import java.util.Iterator;
+import javax.imageio.IIOImage;
+import javax.imageio.ImageIO;
+import javax.imageio.ImageWriter;
+import javax.imageio.stream.FileImageOutputStream;
+import javax.imageio.stream.ImageOutputStream;
+import trapmap.maps.model.WaferMap;
+import trapmap.shared.error.InvalidValueException;
+
+/**
+ * Draws maps as 8-bit RGBA pictures (PNG). Not quantitative: for reports and quick looks. The colour range is the
+ * style's, or by default the 1st to 99th percentile of the valid pixels (estimated from at most 2²⁰ evenly spaced
+ * valid pixels); values outside are drawn with the end colours. Pixels without data, and pixels ≤ 0 on a log scale,
+ * are transparent.
+ */
+final class PngMaps {
+    private static final int SAMPLE_LIMIT = 1 << 20;
+
+    private PngMaps() {
+    }
+
+    /** True when {@code style} draws {@code map} on a log scale. */
+    static boolean logScale(WaferMap map, PngStyle style) {
+        return style.scale() == PngStyle.Scale.LOG
+                || (style.scale() == PngStyle.Scale.AUTO && map.quantity().logarithmic());
+    }
+
+    /** The picture of a map (TYPE_INT_ARGB). */
+    static BufferedImage render(WaferMap map, PngStyle style) {
+        boolean log = logScale(map, style);
+        double[] range = range(map.raster().samples(), log, style);
+        double lo = log ? Math.log10(range[0]) : range[0];
+        double hi = log ? Math.log10(range[1]) : range[1];
+        double span = hi - lo;
+        int w = map.width();
+        int h = map.height();
+        float[] s = map.raster().samples();
+        int[] argb = new int[w * h];
+        for (int i = 0; i < argb.length; i++) {
+            float v = s[i];
+            if (!valid(v, log)) {
+                continue; // transparent
+            }
+            double t = span > 0 ? ((log ? Math.log10(v) : v) - lo) / span : 0.5;
+            argb[i] = 0xFF000000 | style.colours().rgbAt(t);
+        }
+        BufferedImage img = new BufferedImage(w, h, BufferedImage.TYPE_INT_ARGB);
+        img.setRGB(0, 0, w, h, argb, 0, w);
+        return img;
+    }
+
+    /** The colour range [min, max] in data units. */
+    static double[] range(float[] s, boolean log, PngStyle style) {
+        double min = style.min();
+        double max = style.max();
+        if (log && ((!Double.isNaN(min) && !(min > 0)) || (!Double.isNaN(max) && !(max > 0)))) {
+            throw new InvalidValueException("range", "", "a log scale needs a colour range above 0 but was ["
+                    + min + ", " + max + "]");
+        }
+        if (Double.isNaN(min) || Double.isNaN(max)) {
+            double[] p = percentiles(s, log);
+            min = Double.isNaN(min) ? p[0] : min;
+            max = Double.isNaN(max) ? p[1] : max;
+        }
+        if (!(max >= min)) {
+            max = min;
+        }
+        return new double[] {min, max};
+    }
+
+    private static boolean valid(float v, boolean log) {
+        return Float.isFinite(v) && (!log || v > 0);
+    }
+
+    /** 1st and 99th percentile of the valid samples; {1, 1} when there are none. */
+    private static double[] percentiles(float[] s, boolean log) {
+        int valid = 0;
+        for (float v : s) {
+            if (valid(v, log)) {
+                valid++;
+            }
+        }
+        if (valid == 0) {
+            return new double[] {1, 1};
+        }
+        int stride = Math.max(1, (valid + SAMPLE_LIMIT - 1) / SAMPLE_LIMIT);
+        float[] pick = new float[(valid + stride - 1) / stride];
+        int n = 0;
+        int k = 0;
+        for (float v : s) {
+            if (valid(v, log)) {
+                if (k++ % stride == 0 && n < pick.length) {
+                    pick[n++] = v;
+                }
+            }
+        }
+        Arrays.sort(pick, 0, n);
+        return new double[] {pick[(int) Math.floor(0.01 * (n - 1))], pick[(int) Math.ceil(0.99 * (n - 1))]};
+    }
+
+    static void write(WaferMap map, Path target, PngStyle style) throws IOException {
+        BufferedImage img = render(map, style);
+        ImageWriter writer = null;
+        for (Iterator<ImageWriter> it = ImageIO.getImageWritersByFormatName("png"); it.hasNext();) {
+            ImageWriter w = it.next();
+            if (writer == null && w.getClass().getName().startsWith("com.sun.imageio.plugins.png")) {
+                writer = w;
+            } else {
+                w.dispose();
+            }
+        }
+        if (writer == null) {
+            throw new IOException("the JDK PNG writer is not available in this Java runtime");
+        }
+        try (ImageOutputStream out = new FileImageOutputStream(target.toFile())) {
+            writer.setOutput(out);
+            writer.write(new IIOImage(img, null, null));
+        } finally {
+            writer.dispose();
+        }
+    }
+}

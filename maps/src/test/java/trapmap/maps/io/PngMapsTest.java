@@ -1,0 +1,142 @@
+package trapmap.maps.io;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+import java.awt.image.BufferedImage;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import javax.imageio.ImageIO;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.model.Provenance;
+import trapmap.maps.model.Quantity;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.PixelGrid;
+
+class PngMapsTest {
+    @TempDir
+    Path dir;
+
+    private static WaferMap ramp(Quantity q, int w, float from, float to) {
+        float[] s = new float[w * 2];
+        for (int x = 0; x < w; x++) {
+            s[x] = from + (to - from) * x / (w - 1);
+            s[w + x] = x == 0 ? Float.NaN : s[x];
+        }
+        return new WaferMap(FloatRaster.wrap(w, 2, s), PixelGrid.centred(w, 2, 1), q, "r",
+                MeasurementConditions.UNKNOWN, Provenance.of("ramp"));
+    }
+
+    @Test
+    void writtenPngDecodesWithTransparentNoData() throws Exception {
+        WaferMap m = ramp(Quantity.OCCUPANCY, 101, 0, 1);
+        Path f = dir.resolve("map.png");
+        MapFiles.write(m, f);
+
+        BufferedImage img = ImageIO.read(f.toFile());
+        assertThat(img.getWidth()).isEqualTo(101);
+        assertThat(img.getHeight()).isEqualTo(2);
+        assertThat(img.getRGB(0, 1) >>> 24).isZero(); // NaN: transparent
+        assertThat(img.getRGB(1, 1) >>> 24).isEqualTo(255);
+        // 1st..99th percentile range: the ends take the first and last colours
+        assertThat(img.getRGB(0, 0) & 0xFFFFFF).isEqualTo(ColourMap.BLUE_YELLOW.rgb(0));
+        assertThat(img.getRGB(100, 0) & 0xFFFFFF).isEqualTo(ColourMap.BLUE_YELLOW.rgb(255));
+    }
+
+    @Test
+    void greyScaleWithAFixedRange() throws Exception {
+        WaferMap m = ramp(Quantity.OCCUPANCY, 11, 0, 1);
+        Path f = dir.resolve("grey.png");
+        MapFiles.write(m, f, WriteOptions.DEFAULTS.withPng(new PngStyle(ColourMap.GREY, PngStyle.Scale.LINEAR, 0,
+                2)));
+
+        BufferedImage img = ImageIO.read(f.toFile());
+        assertThat(img.getRGB(0, 0) & 0xFF).isZero();
+        assertThat(img.getRGB(10, 0) & 0xFF).isEqualTo(128); // 1 of [0, 2]
+    }
+
+    @Test
+    void logarithmicQuantitiesAreDrawnOnALogScaleByDefault() {
+        // 1 .. 1000 µs, a decade every third of the way
+        float[] s = {1, 10, 100, 1000};
+        WaferMap m = new WaferMap(FloatRaster.wrap(4, 1, s), PixelGrid.centred(4, 1, 1),
+                Quantity.EFFECTIVE_LIFETIME, "", MeasurementConditions.UNKNOWN, Provenance.of(""));
+        BufferedImage img = PngMaps.render(m, PngStyle.DEFAULT.withColours(ColourMap.GREY).withRange(1, 1000));
+        assertThat(img.getRGB(1, 0) & 0xFF).isEqualTo(85);
+        assertThat(img.getRGB(2, 0) & 0xFF).isEqualTo(170);
+    }
+
+    @Test
+    void nonPositiveValuesAreTransparentOnALogScale() {
+        WaferMap m = new WaferMap(FloatRaster.wrap(3, 1, new float[] {-1, 0, 5}), PixelGrid.centred(3, 1, 1),
+                Quantity.TRAP_DENSITY, "", MeasurementConditions.UNKNOWN, Provenance.of(""));
+        BufferedImage img = PngMaps.render(m, PngStyle.DEFAULT);
+        assertThat(img.getRGB(0, 0) >>> 24).isZero();
+        assertThat(img.getRGB(1, 0) >>> 24).isZero();
+        assertThat(img.getRGB(2, 0) >>> 24).isEqualTo(255);
+    }
+
+    @Test
+    void mapWithoutDataGivesATransparentPicture() throws Exception {
+        WaferMap m = new WaferMap(FloatRaster.filled(3, 3, Float.NaN), PixelGrid.centred(3, 3, 1),
+                Quantity.EFFECTIVE_LIFETIME, "", MeasurementConditions.UNKNOWN, Provenance.of(""));
+        Path f = dir.resolve("empty.png");
+        MapFiles.write(m, f);
+        assertThat(ImageIO.read(f.toFile()).getRGB(1, 1) >>> 24).isZero();
+    }
+
+    @Test
+    void logScaleRefusesARangeReachingZero() {
+        WaferMap m = ramp(Quantity.TRAP_DENSITY, 5, 1, 5);
+        assertThatThrownBy(() -> PngMaps.render(m, PngStyle.DEFAULT.withRange(0, 10)))
+                .hasMessageContaining("a log scale needs a colour range above 0");
+    }
+
+    @Test
+    void blueYellowLightnessRisesSteadily() {
+        double last = -1;
+        for (int i = 0; i < 256; i += 5) {
+            double l = lightness(ColourMap.BLUE_YELLOW.rgb(i));
+            assertThat(l).isGreaterThan(last);
+            last = l;
+        }
+        assertThat(lightness(ColourMap.BLUE_YELLOW.rgb(0))).isLessThan(20);
+        assertThat(lightness(ColourMap.BLUE_YELLOW.rgb(255))).isGreaterThan(85);
+        int first = ColourMap.BLUE_YELLOW.rgb(0);
+        int end = ColourMap.BLUE_YELLOW.rgb(255);
+        assertThat(first & 0xFF).isGreaterThan(first >> 16 & 0xFF); // blue end
+        assertThat(end >> 16 & 0xFF).isGreaterThan(end & 0xFF); // yellow end
+    }
+
+    @Test
+    void greyIsLinearInCodeValues() {
+        assertThat(ColourMap.GREY.rgb(0)).isZero();
+        assertThat(ColourMap.GREY.rgb(128)).isEqualTo(0x808080);
+        assertThat(ColourMap.GREY.rgb(255)).isEqualTo(0xFFFFFF);
+    }
+
+    /** CIE L* of an sRGB colour. */
+    private static double lightness(int rgb) {
+        double y = 0.2126 * lin(rgb >> 16 & 0xFF) + 0.7152 * lin(rgb >> 8 & 0xFF) + 0.0722 * lin(rgb & 0xFF);
+        return y > 216.0 / 24389 ? 116 * Math.cbrt(y) - 16 : 24389.0 / 27 * y;
+    }
+
+    private static double lin(int c) {
+        double v = c / 255.0;
+        return v <= 0.04045 ? v / 12.92 : Math.pow((v + 0.055) / 1.055, 2.4);
+    }
+
+    @Test
+    void pngIsNotReadAsAMap() throws Exception {
+        Path f = dir.resolve("p.png");
+        MapFiles.write(ramp(Quantity.OCCUPANCY, 3, 0, 1), f);
+        Files.copy(f, dir.resolve("p.tif"));
+        assertThatThrownBy(() -> MapFiles.read(f)).isInstanceOf(MapFormatException.class)
+                .hasMessage(f + ": is a PNG picture; pictures are not quantitative, so maps are read from TIFF or CSV"
+                        + " files");
+        assertThatThrownBy(() -> MapFiles.read(dir.resolve("p.tif"))).hasMessageContaining("is a PNG picture");
+    }
+}
