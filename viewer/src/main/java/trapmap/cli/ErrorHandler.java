@@ -13,6 +13,7 @@ import picocli.CommandLine.MissingParameterException;
 import picocli.CommandLine.ParameterException;
 import picocli.CommandLine.ParseResult;
 import picocli.CommandLine.UnmatchedArgumentException;
+import trapmap.maps.io.MapFormatException;
 import trapmap.shared.error.InvalidValueException;
 
 /**
@@ -39,6 +40,14 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
         if (ex instanceof InvalidValueException ive) {
             print(cmd, Flags.message(ive));
             return Exit.INVALID_INPUT;
+        }
+        if (ex instanceof MapFormatException) {
+            print(cmd, ex.getMessage());
+            return Exit.INVALID_INPUT;
+        }
+        if (ex instanceof MapInput.OutputException) {
+            print(cmd, ex.getMessage());
+            return Exit.INTERNAL_ERROR;
         }
         print(cmd, "internal error: " + ex + " (set TRAPMAP_DEBUG=1 for details)");
         if (System.getenv("TRAPMAP_DEBUG") != null) {

@@ -1,0 +1,142 @@
+package trapmap.cli;
+
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import trapmap.maps.io.MapFormatException;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.process.MapConversion;
+import trapmap.physics.conversion.ConversionWarning;
+import trapmap.physics.conversion.PixelStatus;
+import trapmap.physics.defect.Defect;
+
+/** {@code trapmap convert}: a lifetime or PL map to a trap-density (or related) map of one defect. */
+@Command(name = "convert", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
+        usageHelpAutoWidth = true,
+        header = "Converts a lifetime or PL map into a trap-density, occupancy, SRH-lifetime, bound or status map.",
+        description = {
+            "Reads MAP (TIFF, CSV; conditions from its sidecar <name>.json, overridden by the flags), converts every",
+            "pixel through the SRH model for the chosen defect and writes the chosen quantity to -o (.tif, .csv as",
+            "x_mm,y_mm,value, or .png picture). Status codes in status maps: 0 OK, 1 BELOW_LIMIT (density is the",
+            "detection limit), 2 INVALID, 3 NO_DATA.",
+            ""},
+        footer = {"", "Caution: " + Calculation.CAUTION, "", Help.EXIT_CODES})
+final class ConvertCommand implements Callable<Integer> {
+    /** Output quantities by their command-line names. */
+    static final Map<String, trapmap.maps.model.Quantity> QUANTITIES = quantities();
+
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "MAP", description = "Effective-lifetime (µs) or PL-counts map file.")
+    Path input;
+
+    @Option(names = {"-o", "--output"}, paramLabel = "<file>", required = true,
+            description = "Output file: .tif/.tiff (float, metadata embedded), .csv (x_mm,y_mm,value) or .png.")
+    Path output;
+
+    @Option(names = "--defect", paramLabel = "<id>", required = true,
+            description = "Defect id (list with 'trapmap defects') or one from --defect-file.")
+    String defect;
+
+    @Option(names = "--defect-file", paramLabel = "<file.json>", description = Help.DEFECT_FILE)
+    Path defectFile;
+
+    @Option(names = "--quantity", paramLabel = "<name>", defaultValue = "trap-density",
+            description = "What to write: trap-density (cm^-3), density-min, density-max (cm^-3, over the defect's"
+                    + " published parameter spread), occupancy (f_t), srh-lifetime (µs), injection (cm^-3), status,"
+                    + " lifetime-at-reference (µs; needs --reference-injection). Default: trap-density.")
+    String quantity;
+
+    @Option(names = "--page", paramLabel = "<n>", defaultValue = "1",
+            description = "Page of a multi-page TIFF to convert, from 1. Default: 1.")
+    int page;
+
+    @Option(names = "--json", description = "Print a JSON summary of the conversion instead of text.")
+    boolean json;
+
+    @Mixin
+    MapConditionOptions conditions;
+
+    @Override
+    public Integer call() throws MapFormatException {
+        trapmap.maps.model.Quantity wanted = QUANTITIES.get(quantity.trim().toLowerCase(Locale.ROOT));
+        if (wanted == null) {
+            throw new InputException("--quantity '" + quantity + "' is not one of " + String.join(", ",
+                    QUANTITIES.keySet()));
+        }
+        if (wanted == trapmap.maps.model.Quantity.LIFETIME_AT_REFERENCE && conditions.referenceInjection == null) {
+            throw new InputException("--quantity lifetime-at-reference needs --reference-injection (Δn in cm^-3)");
+        }
+        Defect d = DefectCatalog.load(defectFile).find(defect);
+        WaferMap map = MapInput.page(input, page);
+        WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
+        MapConversion.Result result = MapConversion.convert(withConditions, d, conditions.settings());
+        WaferMap out = result.get(wanted);
+        MapInput.write(out, output);
+        report(result, out);
+        return Exit.OK;
+    }
+
+    private void report(MapConversion.Result result, WaferMap out) {
+        int[] counts = new int[PixelStatus.values().length];
+        float[] status = result.get(trapmap.maps.model.Quantity.STATUS).raster().samples();
+        for (float s : status) {
+            counts[(int) s]++;
+        }
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("input", input.toString());
+        m.put("output", output.toString());
+        m.put("quantity", out.quantity().key());
+        m.put("unit", out.quantity().unit());
+        m.put("width", out.width());
+        m.put("height", out.height());
+        m.put("defect", result.defectId());
+        Map<String, Integer> byStatus = new LinkedHashMap<>();
+        for (PixelStatus s : PixelStatus.values()) {
+            byStatus.put(s.name(), counts[s.code()]);
+        }
+        m.put("pixels_by_status", byStatus);
+        List<String> warnings = new ArrayList<>();
+        for (ConversionWarning w : result.warnings()) {
+            warnings.add(w.name() + ": " + w.message());
+        }
+        m.put("warnings", warnings);
+        m.put("caution", Calculation.CAUTION);
+        PrintWriter stdout = spec.commandLine().getOut();
+        if (json) {
+            stdout.println(Output.json(m));
+        } else {
+            stdout.printf(Locale.ROOT, "wrote %s: %s (%s) of %s, %d x %d pixels%n", output,
+                    out.quantity().key(), out.quantity().unit().isEmpty() ? "no unit" : out.quantity().unit(),
+                    result.defectId(), out.width(), out.height());
+            stdout.println("pixels: " + byStatus);
+            warnings.forEach(w -> stdout.println("warning: " + w));
+            stdout.println("caution: " + Calculation.CAUTION);
+        }
+        stdout.flush();
+    }
+
+    private static Map<String, trapmap.maps.model.Quantity> quantities() {
+        Map<String, trapmap.maps.model.Quantity> m = new LinkedHashMap<>();
+        for (trapmap.maps.model.Quantity q : List.of(trapmap.maps.model.Quantity.TRAP_DENSITY,
+                trapmap.maps.model.Quantity.TRAP_DENSITY_MIN, trapmap.maps.model.Quantity.TRAP_DENSITY_MAX,
+                trapmap.maps.model.Quantity.OCCUPANCY, trapmap.maps.model.Quantity.SRH_LIFETIME,
+                trapmap.maps.model.Quantity.INJECTION, trapmap.maps.model.Quantity.STATUS,
+                trapmap.maps.model.Quantity.LIFETIME_AT_REFERENCE)) {
+            m.put(q.key(), q);
+        }
+        return java.util.Collections.unmodifiableMap(m);
+    }
+}

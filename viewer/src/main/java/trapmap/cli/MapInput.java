@@ -1,0 +1,53 @@
+package trapmap.cli;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import trapmap.maps.io.MapFiles;
+import trapmap.maps.io.MapFormatException;
+import trapmap.maps.model.WaferMap;
+
+/** Reading maps for the map commands: one page of a file, with messages that name the file. */
+final class MapInput {
+    private MapInput() {
+    }
+
+    /**
+     * Page {@code page} (1-based) of {@code file}.
+     *
+     * @throws MapFormatException when the file is missing, unreadable or has no such page
+     */
+    static WaferMap page(Path file, int page) throws MapFormatException {
+        if (!Files.isRegularFile(file)) {
+            throw new MapFormatException(file.toString(), "", "no such file");
+        }
+        List<WaferMap> pages = MapFiles.read(file);
+        if (page < 1 || page > pages.size()) {
+            throw new MapFormatException(file.toString(), "", "has " + pages.size() + " page"
+                    + (pages.size() == 1 ? "" : "s") + ", so --page " + page + " does not exist");
+        }
+        return pages.get(page - 1);
+    }
+
+    /** Writes {@code map} to {@code file} (format from the extension); wraps failures in one-line messages. */
+    static void write(WaferMap map, Path file) {
+        if (MapFiles.formatOf(file) == null) {
+            throw new InputException("-o " + file + ": unsupported output type; use .tif, .tiff, .csv or .png");
+        }
+        try {
+            MapFiles.write(map, file);
+        } catch (IOException e) {
+            throw new OutputException(file + ": cannot write: " + Flags.oneLine(e.getMessage()), e);
+        }
+    }
+
+    /** Writing an output failed (disk full, no permission): not the user's input, exit code 3. */
+    static final class OutputException extends RuntimeException {
+        private static final long serialVersionUID = 1L;
+
+        OutputException(String message, Throwable cause) {
+            super(message, cause);
+        }
+    }
+}
