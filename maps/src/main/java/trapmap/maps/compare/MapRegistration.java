@@ -1,0 +1,106 @@
+package trapmap.maps.compare;
+
+import java.util.Locale;
+import trapmap.maps.model.ProcessingStep;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.PixelGrid;
+import trapmap.shared.check.Checks;
+import trapmap.shared.progress.ProgressListener;
+
+/**
+ * Registers an "after" map B of a wafer onto a "before" map A of the same wafer, from the data alone, and resamples
+ * B onto A's grid. The maps may come from different tools: B may be mirrored, turned by quarter turns and a few
+ * degrees, shifted, and have another pixel pitch (pitches are taken from the {@link PixelGrid}s, so all results are
+ * in mm). A lifetime map can be registered against a density map: the contrast of B is then inverted.
+ *
+ * <p>The search works at reduced resolution (about 256 pixels across for the exhaustive stages, at most
+ * {@link RegistrationOptions#refineSizePx()} for the refinement), so that its cost hardly grows with the map size;
+ * only the overlap count and {@link #apply} touch every pixel. See {@link RegistrationSearch} for the stages.
+ * The score is a normalised cross-correlation of the log samples: above about 0.8 the placement is reliable,
+ * below about 0.5 it should not be trusted (different wafers, or too little texture to lock on to).
+ */
+public final class MapRegistration {
+    private MapRegistration() {
+    }
+
+    /** Searches with {@link RegistrationOptions#DEFAULTS}. */
+    public static Registration register(WaferMap before, WaferMap after) {
+        return register(before, after, RegistrationOptions.DEFAULTS, ProgressListener.NONE);
+    }
+
+    /**
+     * Finds the placement of {@code after} on {@code before}. A mirror is reported as {@code flipX} (never
+     * {@code flipY}) with the turn in (−180°, 180°]; {@link Registration#canonical()} gives the smallest turn.
+     *
+     * @throws trapmap.shared.error.InvalidValueException when a map is flat or the maps do not overlap
+     * @throws java.util.concurrent.CancellationException when the thread is interrupted
+     */
+    public static Registration register(WaferMap before, WaferMap after, RegistrationOptions options,
+                                        ProgressListener progress) {
+        return search(before, after, options, progress).search();
+    }
+
+    /**
+     * Refines a known or guessed placement locally (turn and shift; the mirror is kept) without the exhaustive
+     * search, e.g. when the tools' conventions fix the orientation. With {@code maxRotationDeg} 0 only the shift
+     * is refined.
+     */
+    public static Registration refine(WaferMap before, WaferMap after, Registration start,
+                                      RegistrationOptions options) {
+        Checks.notNull(start, "registration");
+        return search(before, after, options, ProgressListener.NONE).refine(start);
+    }
+
+    /** {@code r} as given, with its score and overlap filled in. */
+    public static Registration evaluate(WaferMap before, WaferMap after, Registration r) {
+        Checks.notNull(r, "registration");
+        return search(before, after, RegistrationOptions.DEFAULTS, ProgressListener.NONE).evaluate(r);
+    }
+
+    /** Registers with the defaults and resamples. */
+    public static WaferMap align(WaferMap before, WaferMap after) {
+        return apply(before, after, register(before, after));
+    }
+
+    /**
+     * {@code after} resampled onto {@code before}'s grid through {@code r} (NaN-aware bilinear, see
+     * {@link Resampling}): a map of the after quantity, wafer and conditions, with the before map's grid and a
+     * {@code register} step in its history. Pixels of A that fall outside B's data are NaN.
+     */
+    public static WaferMap apply(WaferMap before, WaferMap after, Registration r) {
+        Checks.notNull(before, "before");
+        Checks.notNull(after, "after");
+        Checks.notNull(r, "registration");
+        PixelMapping m = PixelMapping.of(before.grid(), after.grid(), r);
+        FloatRaster aligned = Resampling.resample(after.raster(), m, before.width(), before.height());
+        ProcessingStep step = ProcessingStep.of("register",
+                "onto", before.waferId().isEmpty() ? before.provenance().source() : before.waferId(),
+                "flip_x", Boolean.toString(r.flipX()),
+                "flip_y", Boolean.toString(r.flipY()),
+                "rotation_deg", format(r.rotationDeg()),
+                "shift_x_mm", format(r.shiftXMm()),
+                "shift_y_mm", format(r.shiftYMm()),
+                "score", Double.isNaN(r.score()) ? "not evaluated" : format(r.score()),
+                "overlap_px", Integer.toString(r.overlapPixels()),
+                "pitch_mm", format(after.grid().pitchMm()) + " -> " + format(before.grid().pitchMm()),
+                "resampling", "bilinear, NaN-aware");
+        return new WaferMap(aligned, before.grid(), after.quantity(), after.waferId(), after.conditions(),
+                after.provenance().then(step));
+    }
+
+    private static RegistrationSearch search(WaferMap before, WaferMap after, RegistrationOptions options,
+                                             ProgressListener progress) {
+        Checks.notNull(before, "before");
+        Checks.notNull(after, "after");
+        Checks.notNull(options, "options");
+        Checks.notNull(progress, "progress");
+        boolean invert = Improvement.opposite(before.quantity(), after.quantity());
+        return new RegistrationSearch(new Pyramid(before.raster(), before.grid(), false),
+                new Pyramid(after.raster(), after.grid(), invert), options, progress);
+    }
+
+    private static String format(double v) {
+        return String.format(Locale.ROOT, "%.4f", v);
+    }
+}
