@@ -14,11 +14,19 @@ import trapmap.shared.progress.ProgressListener;
  * degrees, shifted, and have another pixel pitch (pitches are taken from the {@link PixelGrid}s, so all results are
  * in mm). A lifetime map can be registered against a density map: the contrast of B is then inverted.
  *
- * <p>The search works at reduced resolution (about 256 pixels across for the exhaustive stages, at most
- * {@link RegistrationOptions#refineSizePx()} for the refinement), so that its cost hardly grows with the map size;
- * only the overlap count and {@link #apply} touch every pixel. See {@link RegistrationSearch} for the stages.
- * The score is a normalised cross-correlation of the log samples: above about 0.8 the placement is reliable,
- * below about 0.5 it should not be trusted (different wafers, or too little texture to lock on to).
+ * <p>Stages: both maps are log-transformed (when positive), standardised and edge-tapered at reduced resolution;
+ * the eight mirror/quarter-turn placements are phase-correlated on a square canvas of
+ * {@link RegistrationOptions#coarseSizePx()} pixels and the strongest peaks judged by normalised cross-correlation
+ * (NCC); fine turns within ±{@link RegistrationOptions#maxRotationDeg()} are scanned the same way; turn and shift
+ * are then refined together by maximising the NCC with a downhill simplex on finer levels, up to
+ * {@link RegistrationOptions#refineSizePx()} pixels across. The cost therefore hardly grows with the map size;
+ * only the overlap count and {@link #apply} touch every pixel.
+ *
+ * <p>The score is the NCC of the fine structure of the log samples (local mean removed) at the refinement level:
+ * in tests on synthetic wafers, same-wafer pairs with a few percent pixel noise score about 0.95–0.99 (about 0.6
+ * at 40 % noise, still correctly placed) and maps of different wafers below 0.3. Treat a score below about 0.5 as
+ * a failed registration (different wafers, too little texture to lock on to, or a change so strong that the
+ * patterns differ).
  */
 public final class MapRegistration {
     private MapRegistration() {
@@ -64,9 +72,11 @@ public final class MapRegistration {
     }
 
     /**
-     * {@code after} resampled onto {@code before}'s grid through {@code r} (NaN-aware bilinear, see
-     * {@link Resampling}): a map of the after quantity, wafer and conditions, with the before map's grid and a
-     * {@code register} step in its history. Pixels of A that fall outside B's data are NaN.
+     * {@code after} resampled onto {@code before}'s grid through {@code r}: a map of the after quantity, wafer and
+     * conditions, with the before map's grid and a {@code register} step in its history. Sampling is bilinear and
+     * NaN-aware: neighbours without data drop out and the rest are renormalised; a pixel gets data when those with
+     * data carry at least half the weight, so pixels of A that fall outside B's data are NaN and a placement that
+     * maps pixel centres onto pixel centres copies samples exactly.
      */
     public static WaferMap apply(WaferMap before, WaferMap after, Registration r) {
         Checks.notNull(before, "before");
