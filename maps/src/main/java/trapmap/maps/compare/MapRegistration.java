@@ -6,6 +6,7 @@ import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.shared.check.Checks;
+import trapmap.shared.error.InvalidValueException;
 import trapmap.shared.progress.ProgressListener;
 
 /**
@@ -29,6 +30,9 @@ import trapmap.shared.progress.ProgressListener;
  * patterns differ).
  */
 public final class MapRegistration {
+    /** Shortest side a map must have to be registered from its data, pixels. */
+    private static final int MIN_SIDE_PX = 8;
+
     private MapRegistration() {
     }
 
@@ -105,9 +109,18 @@ public final class MapRegistration {
         Checks.notNull(after, "after");
         Checks.notNull(options, "options");
         Checks.notNull(progress, "progress");
+        requireSize(before, "before");
+        requireSize(after, "after");
         boolean invert = Improvement.opposite(before.quantity(), after.quantity());
         return new RegistrationSearch(new Pyramid(before.raster(), before.grid(), false),
                 new Pyramid(after.raster(), after.grid(), invert), options, progress);
+    }
+
+    private static void requireSize(WaferMap m, String which) {
+        if (Math.min(m.width(), m.height()) < MIN_SIDE_PX) {
+            throw new InvalidValueException(which, "px", "the " + which + " map is " + m.width() + "x" + m.height()
+                    + " px; registration needs at least " + MIN_SIDE_PX + "x" + MIN_SIDE_PX + " px");
+        }
     }
 
     private static String format(double v) {

@@ -39,10 +39,6 @@ final class PhaseCorrelation {
         }
     }
 
-    double pitchMm() {
-        return canvas.pitchMm();
-    }
-
     /**
      * Up to {@code count} shifts (mm) of the after level under {@code placement} (its shift ignored), strongest
      * correlation peak first, each refined to a fraction of a canvas pixel.

@@ -10,7 +10,7 @@ import trapmap.maps.raster.PixelGrid;
  * 2^k × 2^k pixels (in the map's own unit). The levels used for correlation are log-transformed when the map is
  * (almost) all positive, so that a step that multiplies lifetimes changes levels but not contrast; the contrast
  * can be inverted (lifetime against density). Levels are built on demand and a 4096² map is never copied at full
- * size.
+ * size. Not thread-safe: one pyramid per registration.
  */
 final class Pyramid {
     /** Share of positive samples above which a map is compared on a log scale. */
@@ -51,10 +51,6 @@ final class Pyramid {
 
     FloatRaster raster() {
         return raster;
-    }
-
-    boolean logScale() {
-        return log;
     }
 
     /** Pitch of level k, mm. */
@@ -209,14 +205,12 @@ final class Pyramid {
         final int validCount;
         /** Root-mean-square distance of the data from the wafer centre, mm. */
         final double rmsRadiusMm;
-        /** Largest |x| or |y| of the data, mm. */
-        final double extentMm;
         final boolean textured;
         private float[] detail;
         private float[] detailWeight;
 
         private Level(PixelGrid grid, float[] value, float[] weight, float[] tapered, boolean[] valid, int validCount,
-                      double rmsRadiusMm, double extentMm, boolean textured) {
+                      double rmsRadiusMm, boolean textured) {
             this.grid = grid;
             this.width = grid.width();
             this.height = grid.height();
@@ -227,7 +221,6 @@ final class Pyramid {
             this.valueWeight = interleave(value, weight);
             this.validCount = validCount;
             this.rmsRadiusMm = rmsRadiusMm;
-            this.extentMm = extentMm;
             this.textured = textured;
         }
 
@@ -239,7 +232,6 @@ final class Pyramid {
             double sum2 = 0;
             int n = 0;
             double r2 = 0;
-            double extent = 0;
             for (int y = 0; y < h; y++) {
                 for (int x = 0; x < w; x++) {
                     float v = smooth[y * w + x];
@@ -250,7 +242,6 @@ final class Pyramid {
                         double xm = g.xMm(x);
                         double ym = g.yMm(y);
                         r2 += xm * xm + ym * ym;
-                        extent = Math.max(extent, Math.max(Math.abs(xm), Math.abs(ym)));
                     }
                 }
             }
@@ -270,7 +261,7 @@ final class Pyramid {
                     tapered[i] = value[i] * weight[i];
                 }
             }
-            return new Level(g, value, weight, tapered, valid, n, n == 0 ? 0 : Math.sqrt(r2 / n), extent, textured);
+            return new Level(g, value, weight, tapered, valid, n, n == 0 ? 0 : Math.sqrt(r2 / n), textured);
         }
 
         /**
@@ -278,7 +269,7 @@ final class Pyramid {
          * 5×5 pixels), 0 where there is no data: the fine structure (grain boundaries, small clusters) without the
          * wafer-scale trends (edge zones, gradients, uneven process response). Built on first use.
          */
-        synchronized float[] detail() {
+        float[] detail() {
             if (detail == null) {
                 int r = Math.max(2, (int) Math.round(0.025 * Math.max(width, height)));
                 double[] sat = new double[(width + 1) * (height + 1)];
@@ -323,7 +314,7 @@ final class Pyramid {
         }
 
         /** {@link #detail()} and weight interleaved like {@link #valueWeight}. */
-        synchronized float[] detailWeight() {
+        float[] detailWeight() {
             if (detailWeight == null) {
                 detailWeight = interleave(detail(), weight);
             }

@@ -1,6 +1,7 @@
 package trapmap.maps.compare;
 
 import java.util.concurrent.CancellationException;
+import java.util.function.ToDoubleFunction;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.shared.error.InvalidValueException;
 import trapmap.shared.progress.ProgressListener;
@@ -126,6 +127,10 @@ final class RegistrationSearch {
         for (int k = first; k >= last; k--) {
             Pyramid.Level a = before.level(k);
             Pyramid.Level b = after.level(after.levelNear(before.pitchMm(k)));
+            if (k == first) {
+                requireTexture(a, "before");
+                requireTexture(b, "after");
+            }
             r = simplex(a, b, r, k == last ? 0.02 : 0.05, k == first ? 1.0 : 0.6);
             checkCancelled();
         }
@@ -155,7 +160,7 @@ final class RegistrationSearch {
         double degPerUnit = Math.toDegrees(p / Math.max(a.rmsRadiusMm, 4 * p));
         boolean turn = options.maxRotationDeg() > 0;
         double minOverlap = minOverlap(a, b);
-        java.util.function.ToDoubleFunction<double[]> f = u -> {
+        ToDoubleFunction<double[]> f = u -> {
             Correlation.Result c = Correlation.weighted(a, b, Registration.explicit(r0.flipX(), r0.flipY(),
                     r0.rotationDeg() + (turn ? u[2] * degPerUnit : 0), u[0] * p, u[1] * p));
             return c.pixels() >= minOverlap ? -c.ncc() : Double.NaN;

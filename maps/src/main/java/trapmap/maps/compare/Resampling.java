@@ -15,11 +15,7 @@ final class Resampling {
     private Resampling() {
     }
 
-    /** The value of {@code r} at pixel coordinates (x, y), or NaN. */
-    static float sample(FloatRaster r, double x, double y) {
-        return sample(r.samples(), r.width(), r.height(), x, y);
-    }
-
+    /** The value of the w×h samples {@code s} at pixel coordinates (x, y), or NaN. */
     static float sample(float[] s, int w, int h, double x, double y) {
         if (!(x > -1 && y > -1 && x < w && y < h)) {
             return Float.NaN;

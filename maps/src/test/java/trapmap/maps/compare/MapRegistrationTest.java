@@ -229,6 +229,17 @@ class MapRegistrationTest {
     }
 
     @Test
+    void aTinyMapIsRefusedNamingIt() {
+        WaferMap tiny = new WaferMap(FloatRaster.filled(5, 40, 10f), PixelGrid.centred(5, 40, 0.5),
+                Quantity.EFFECTIVE_LIFETIME, "tiny", MeasurementConditions.UNKNOWN, Provenance.of("test"));
+        assertThatThrownBy(() -> MapRegistration.register(tiny, BEFORE))
+                .isInstanceOfSatisfying(InvalidValueException.class, e -> {
+                    assertThat(e.field()).isEqualTo("before");
+                    assertThat(e.unit()).isEqualTo("px");
+                });
+    }
+
+    @Test
     void progressIsReportedToTheEnd() {
         List<String> messages = new ArrayList<>();
         long[] last = new long[2];
