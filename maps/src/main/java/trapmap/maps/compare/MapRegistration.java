@@ -1,0 +1,129 @@
+package trapmap.maps.compare;
+
+import java.util.Locale;
+import trapmap.maps.model.ProcessingStep;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.PixelGrid;
+import trapmap.shared.check.Checks;
+import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.progress.ProgressListener;
+
+/**
+ * Registers an "after" map B of a wafer onto a "before" map A of the same wafer, from the data alone, and resamples
+ * B onto A's grid. The maps may come from different tools: B may be mirrored, turned by quarter turns and a few
+ * degrees, shifted, and have another pixel pitch (pitches are taken from the {@link PixelGrid}s, so all results are
+ * in mm). A lifetime map can be registered against a density map: the contrast of B is then inverted.
+ *
+ * <p>Stages: both maps are log-transformed (when positive), standardised and edge-tapered at reduced resolution;
+ * the eight mirror/quarter-turn placements are phase-correlated on a square canvas of
+ * {@link RegistrationOptions#coarseSizePx()} pixels and the strongest peaks judged by normalised cross-correlation
+ * (NCC); fine turns within ±{@link RegistrationOptions#maxRotationDeg()} are scanned the same way; turn and shift
+ * are then refined together by maximising the NCC with a downhill simplex on finer levels, up to
+ * {@link RegistrationOptions#refineSizePx()} pixels across. The cost therefore hardly grows with the map size;
+ * only the overlap count and {@link #apply} touch every pixel.
+ *
+ * <p>The score is the NCC of the fine structure of the log samples (local mean removed) at the refinement level:
+ * in tests on synthetic wafers, same-wafer pairs with a few percent pixel noise score about 0.95–0.99 (about 0.6
+ * at 40 % noise, still correctly placed) and maps of different wafers below 0.3. Treat a score below about 0.5 as
+ * a failed registration (different wafers, too little texture to lock on to, or a change so strong that the
+ * patterns differ).
+ */
+public final class MapRegistration {
+    /** Shortest side a map must have to be registered from its data, pixels. */
+    private static final int MIN_SIDE_PX = 8;
+
+    private MapRegistration() {
+    }
+
+    /** Searches with {@link RegistrationOptions#DEFAULTS}. */
+    public static Registration register(WaferMap before, WaferMap after) {
+        return register(before, after, RegistrationOptions.DEFAULTS, ProgressListener.NONE);
+    }
+
+    /**
+     * Finds the placement of {@code after} on {@code before}. A mirror is reported as {@code flipX} (never
+     * {@code flipY}) with the turn in (−180°, 180°]; {@link Registration#canonical()} gives the smallest turn.
+     *
+     * @throws trapmap.shared.error.InvalidValueException when a map is flat or the maps do not overlap
+     * @throws java.util.concurrent.CancellationException when the thread is interrupted
+     */
+    public static Registration register(WaferMap before, WaferMap after, RegistrationOptions options,
+                                        ProgressListener progress) {
+        return search(before, after, options, progress).search();
+    }
+
+    /**
+     * Refines a known or guessed placement locally (turn and shift; the mirror is kept) without the exhaustive
+     * search, e.g. when the tools' conventions fix the orientation. With {@code maxRotationDeg} 0 only the shift
+     * is refined.
+     */
+    public static Registration refine(WaferMap before, WaferMap after, Registration start,
+                                      RegistrationOptions options) {
+        Checks.notNull(start, "registration");
+        return search(before, after, options, ProgressListener.NONE).refine(start);
+    }
+
+    /** {@code r} as given, with its score and overlap filled in. */
+    public static Registration evaluate(WaferMap before, WaferMap after, Registration r) {
+        Checks.notNull(r, "registration");
+        return search(before, after, RegistrationOptions.DEFAULTS, ProgressListener.NONE).evaluate(r);
+    }
+
+    /** Registers with the defaults and resamples. */
+    public static WaferMap align(WaferMap before, WaferMap after) {
+        return apply(before, after, register(before, after));
+    }
+
+    /**
+     * {@code after} resampled onto {@code before}'s grid through {@code r}: a map of the after quantity, wafer and
+     * conditions, with the before map's grid and a {@code register} step in its history. Sampling is bilinear and
+     * NaN-aware: neighbours without data drop out and the rest are renormalised; a pixel gets data when those with
+     * data carry at least half the weight, so pixels of A that fall outside B's data are NaN and a placement that
+     * maps pixel centres onto pixel centres copies samples exactly.
+     */
+    public static WaferMap apply(WaferMap before, WaferMap after, Registration r) {
+        Checks.notNull(before, "before");
+        Checks.notNull(after, "after");
+        Checks.notNull(r, "registration");
+        PixelMapping m = PixelMapping.of(before.grid(), after.grid(), r);
+        FloatRaster aligned = Resampling.resample(after.raster(), m, before.width(), before.height());
+        ProcessingStep step = ProcessingStep.of("register",
+                "onto", before.waferId().isEmpty() ? before.provenance().source() : before.waferId(),
+                "flip_x", Boolean.toString(r.flipX()),
+                "flip_y", Boolean.toString(r.flipY()),
+                "rotation_deg", format(r.rotationDeg()),
+                "shift_x_mm", format(r.shiftXMm()),
+                "shift_y_mm", format(r.shiftYMm()),
+                "score", Double.isNaN(r.score()) ? "not evaluated" : format(r.score()),
+                "overlap_px", Integer.toString(r.overlapPixels()),
+                "pitch_mm", format(after.grid().pitchMm()) + " -> " + format(before.grid().pitchMm()),
+                "resampling", "bilinear, NaN-aware");
+        return new WaferMap(aligned, before.grid(), after.quantity(), after.waferId(), after.conditions(),
+                after.provenance().then(step));
+    }
+
+    private static RegistrationSearch search(WaferMap before, WaferMap after, RegistrationOptions options,
+                                             ProgressListener progress) {
+        Checks.notNull(before, "before");
+        Checks.notNull(after, "after");
+        Checks.notNull(options, "options");
+        Checks.notNull(progress, "progress");
+        requireSize(before, "before");
+        requireSize(after, "after");
+        boolean invert = Improvement.opposite(before.quantity(), after.quantity());
+        return new RegistrationSearch(new Pyramid(before.raster(), before.grid(), false),
+                new Pyramid(after.raster(), after.grid(), invert), options, progress);
+    }
+
+    private static void requireSize(WaferMap m, String which) {
+        if (Math.min(m.width(), m.height()) < MIN_SIDE_PX) {
+            throw new InvalidValueException(which, "px", "the " + which + " map is " + m.width() + "x" + m.height()
+                    + " px; registration needs at least " + MIN_SIDE_PX + "x" + MIN_SIDE_PX + " px");
+        }
+    }
+
+    private static String format(double v) {
+        return String.format(Locale.ROOT, "%.4f", v);
+    }
+}
