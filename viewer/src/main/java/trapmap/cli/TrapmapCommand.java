@@ -9,10 +9,10 @@ import picocli.CommandLine.Command;
 
 /**
  * The {@code trapmap} command line: the root command and the entry point of the application jar. Sub-commands:
- * {@code calc} (with {@code iron}, {@code bo}, {@code pl}), {@code defects} and {@code convert}.
+ * {@code calc} (with {@code iron}, {@code bo}, {@code pl}), {@code defects}, {@code convert} and {@code compare}.
  */
 @Command(name = "trapmap", mixinStandardHelpOptions = true, version = TrapmapCommand.VERSION, usageHelpAutoWidth = true,
-        subcommands = {CalcCommand.class, DefectsCommand.class, ConvertCommand.class},
+        subcommands = {CalcCommand.class, DefectsCommand.class, ConvertCommand.class, CompareCommand.class},
         description = {"Converts minority-carrier lifetimes of silicon wafers into equivalent SRH trap densities.",
             ""},
         footer = {"", "Run 'trapmap <command> --help' for the options of a command.", "", Help.EXIT_CODES})

@@ -1,0 +1,207 @@
+package trapmap.cli;
+
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.util.LinkedHashMap;
+import java.util.Locale;
+import java.util.Map;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import trapmap.maps.compare.Comparison;
+import trapmap.maps.compare.MapComparison;
+import trapmap.maps.compare.MapRegistration;
+import trapmap.maps.compare.PairedStatistics;
+import trapmap.maps.compare.Registration;
+import trapmap.maps.compare.RegistrationOptions;
+import trapmap.maps.io.MapFormatException;
+import trapmap.maps.model.Quantity;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.process.MapConversion;
+import trapmap.physics.defect.Defect;
+
+/** {@code trapmap compare}: two maps of the same wafer before and after a process step. */
+@Command(name = "compare", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
+        usageHelpAutoWidth = true,
+        header = "Registers two maps of one wafer (before/after a process step) and compares them pixel by pixel.",
+        description = {
+            "Finds how AFTER lies on BEFORE (mirror, quarter turns, a small turn and a shift, from the data), resamples",
+            "AFTER onto BEFORE's grid, and writes the difference, ratio, relative-change or reduction map. With",
+            "--defect both maps are first converted to trap densities (conditions from each sidecar, overridden by",
+            "the flags), so the reduction map is the per-pixel gettering efficiency 1 − N_after/N_before.",
+            ""},
+        footer = {"", Help.EXIT_CODES})
+final class CompareCommand implements Callable<Integer> {
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "BEFORE", description = "Map before the process step.")
+    Path beforeFile;
+
+    @Parameters(index = "1", paramLabel = "AFTER", description = "Map after the process step.")
+    Path afterFile;
+
+    @Option(names = "--quantity", paramLabel = "<name>", defaultValue = "ratio",
+            description = "Map to write: difference (after − before, in the maps' unit), ratio (after/before),"
+                    + " relative-change ((after − before)/before) or reduction (1 − after/before; density maps)."
+                    + " Default: ratio.")
+    String quantity;
+
+    @Option(names = {"-o", "--output"}, paramLabel = "<file>",
+            description = "Output map: .tif, .csv (x_mm,y_mm,value) or .png. Default: none (statistics only).")
+    Path output;
+
+    @Option(names = "--no-registration", description = "Take the maps as already aligned (same grid).")
+    boolean noRegistration;
+
+    @Option(names = "--max-rotation-deg", paramLabel = "<deg>", defaultValue = "5",
+            description = "Largest small turn searched besides mirrors and quarter turns, in degrees. Default: 5.")
+    double maxRotationDeg;
+
+    @Option(names = "--tolerance", paramLabel = "<fraction>", defaultValue = "0.05",
+            description = "Relative change within which a pixel counts as unchanged (0.05 = ±5 %, common"
+                    + " practice). Default: 0.05.")
+    double tolerance;
+
+    @Option(names = "--defect", paramLabel = "<id>",
+            description = "Convert both maps to trap densities of this defect first. Default: compare as read.")
+    String defect;
+
+    @Option(names = "--defect-file", paramLabel = "<file.json>", description = Help.DEFECT_FILE)
+    Path defectFile;
+
+    @Option(names = "--json", description = "Print one JSON object with the registration and paired statistics.")
+    boolean json;
+
+    @Mixin
+    MapConditionOptions conditions;
+
+    @Override
+    public Integer call() throws MapFormatException {
+        String kind = quantity.trim().toLowerCase(Locale.ROOT);
+        if (!kind.equals("difference") && !kind.equals("ratio") && !kind.equals("relative-change")
+                && !kind.equals("reduction")) {
+            throw new InputException("--quantity '" + quantity + "' is not one of difference, ratio, relative-change,"
+                    + " reduction");
+        }
+        if (!(tolerance >= 0 && tolerance <= 1)) {
+            throw new InputException("--tolerance must be a fraction in [0, 1] (got " + tolerance + ")");
+        }
+        if (!(maxRotationDeg >= 0 && maxRotationDeg <= 45)) {
+            throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + maxRotationDeg + ")");
+        }
+        WaferMap before = MapInput.page(beforeFile, 1);
+        WaferMap after = MapInput.page(afterFile, 1);
+        if (defect != null) {
+            Defect d = DefectCatalog.load(defectFile).find(defect);
+            before = toDensity(before, d);
+            after = toDensity(after, d);
+        }
+        if (before.quantity() != after.quantity()) {
+            throw new InputException(afterFile + " holds " + after.quantity().key() + " but " + beforeFile + " holds "
+                    + before.quantity().key() + "; compare maps of one quantity (or use --defect)");
+        }
+        Registration registration;
+        WaferMap aligned;
+        if (noRegistration) {
+            if (before.width() != after.width() || before.height() != after.height()) {
+                throw new InputException("--no-registration needs maps of one size, but " + beforeFile + " is "
+                        + before.width() + "x" + before.height() + " px and " + afterFile + " is " + after.width()
+                        + "x" + after.height() + " px");
+            }
+            registration = MapRegistration.evaluate(before, after, Registration.identity());
+            aligned = after.withGrid(before.grid());
+        } else {
+            registration = MapRegistration.register(before, after,
+                    RegistrationOptions.DEFAULTS.withMaxRotation(maxRotationDeg), trapmap.shared.progress
+                            .ProgressListener.NONE);
+            aligned = MapRegistration.apply(before, after, registration);
+        }
+        Comparison c = MapComparison.compare(before, aligned, null, tolerance,
+                trapmap.maps.compare.Improvement.of(before.quantity()));
+        if (output != null) {
+            WaferMap out = switch (kind) {
+                case "difference" -> c.difference();
+                case "relative-change" -> c.relativeChange();
+                case "reduction" -> {
+                    if (c.reduction() == null) {
+                        throw new InputException("--quantity reduction needs density maps (trap or iron density);"
+                                + " these hold " + before.quantity().key() + " (use --defect)");
+                    }
+                    yield c.reduction();
+                }
+                default -> c.ratio();
+            };
+            MapInput.write(out, output);
+        }
+        print(registration, c.statistics());
+        return Exit.OK;
+    }
+
+    private WaferMap toDensity(WaferMap map, Defect d) {
+        WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
+        return MapConversion.convert(withConditions, d, conditions.settings()).get(Quantity.TRAP_DENSITY);
+    }
+
+    private void print(Registration r, PairedStatistics s) {
+        Map<String, Object> reg = new LinkedHashMap<>();
+        reg.put("flip_x", r.flipX());
+        reg.put("flip_y", r.flipY());
+        reg.put("rotation_deg", Output.num(r.rotationDeg()));
+        reg.put("shift_x_mm", Output.num(r.shiftXMm()));
+        reg.put("shift_y_mm", Output.num(r.shiftYMm()));
+        reg.put("score", Output.num(r.score()));
+        reg.put("overlap_pixels", r.overlapPixels());
+        Map<String, Object> p = new LinkedHashMap<>();
+        p.put("quantity", s.quantity().key());
+        p.put("unit", s.unit());
+        p.put("count", s.count());
+        p.put("mean_difference", Output.num(s.meanDifference()));
+        p.put("median_difference", Output.num(s.medianDifference()));
+        p.put("mean_ratio", Output.num(s.meanRatio()));
+        p.put("median_ratio", Output.num(s.medianRatio()));
+        p.put("harmonic_mean_before", Output.num(s.harmonicMeanBefore()));
+        p.put("harmonic_mean_after", Output.num(s.harmonicMeanAfter()));
+        p.put("improved_fraction", Output.num(s.improvedFraction()));
+        p.put("unchanged_fraction", Output.num(s.unchangedFraction()));
+        p.put("degraded_fraction", Output.num(s.degradedFraction()));
+        p.put("median_reduction", Output.num(s.medianReduction()));
+        p.put("relative_tolerance", s.relativeTolerance());
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("before", beforeFile.toString());
+        m.put("after", afterFile.toString());
+        m.put("registration", reg);
+        m.put("paired", p);
+        if (output != null) {
+            m.put("output", output.toString());
+        }
+        PrintWriter out = spec.commandLine().getOut();
+        if (json) {
+            out.println(Output.json(m));
+        } else {
+            Output.Table t = new Output.Table();
+            t.row("registration", (r.flipX() ? "mirrored, " : "") + Format.number(r.rotationDeg()) + "°, shift ("
+                    + Format.number(r.shiftXMm()) + ", " + Format.number(r.shiftYMm()) + ") mm", "");
+            t.number(reg, "score", "registration score (0..1)", "", "n/a");
+            t.number(p, "count", "pixels compared", "", null);
+            t.number(p, "median_ratio", "median ratio after/before", "", "n/a");
+            t.number(p, "mean_difference", "mean difference after − before", s.unit(), "n/a");
+            t.number(p, "harmonic_mean_before", "harmonic mean before", s.unit(), "n/a");
+            t.number(p, "harmonic_mean_after", "harmonic mean after", s.unit(), "n/a");
+            t.number(p, "improved_fraction", "improved fraction", "", "n/a");
+            t.number(p, "unchanged_fraction", "unchanged fraction (±" + Format.number(100 * tolerance) + " %)", "",
+                    "n/a");
+            t.number(p, "degraded_fraction", "degraded fraction", "", "n/a");
+            t.number(p, "median_reduction", "median reduction 1 − after/before", "", null);
+            if (output != null) {
+                t.row("wrote", output.toString(), "");
+            }
+            out.print(t.render());
+        }
+        out.flush();
+    }
+}

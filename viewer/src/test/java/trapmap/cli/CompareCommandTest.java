@@ -1,0 +1,122 @@
+package trapmap.cli;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import java.nio.file.Path;
+import java.util.Map;
+import java.util.Random;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import trapmap.maps.io.MapFiles;
+import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.model.Provenance;
+import trapmap.maps.model.Quantity;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.PixelGrid;
+import trapmap.physics.material.Doping;
+
+class CompareCommandTest {
+    private static final int N = 96;
+    private static final double PITCH_MM = 0.5;
+
+    @TempDir
+    Path dir;
+
+    /** A textured disk: smooth random blobs of lifetime 20-200 µs, NaN outside; not mirror-symmetric. */
+    private static float[] texture(long seed) {
+        Random r = new Random(seed);
+        int blobs = 40;
+        double[][] b = new double[blobs][4];
+        for (double[] x : b) {
+            x[0] = r.nextDouble() * N;
+            x[1] = r.nextDouble() * N;
+            x[2] = 2 + r.nextDouble() * 6;
+            x[3] = r.nextDouble() * 2 - 1;
+        }
+        float[] s = new float[N * N];
+        double c = (N - 1) / 2.0;
+        for (int y = 0; y < N; y++) {
+            for (int x = 0; x < N; x++) {
+                if (Math.hypot(x - c, y - c) > 44) {
+                    s[y * N + x] = Float.NaN;
+                    continue;
+                }
+                double v = 0;
+                for (double[] k : b) {
+                    double d2 = (x - k[0]) * (x - k[0]) + (y - k[1]) * (y - k[1]);
+                    v += k[3] * Math.exp(-d2 / (2 * k[2] * k[2]));
+                }
+                s[y * N + x] = (float) (60 * Math.exp(0.8 * v));
+            }
+        }
+        return s;
+    }
+
+    private Path write(String name, float[] samples) throws Exception {
+        WaferMap m = new WaferMap(FloatRaster.wrap(N, N, samples), PixelGrid.centred(N, N, PITCH_MM),
+                Quantity.EFFECTIVE_LIFETIME, name, new MeasurementConditions(Doping.pType(1e16), null, null, 1e14,
+                        null, null, null, null, Map.of()), Provenance.of("test"));
+        Path f = dir.resolve(name + ".tif");
+        MapFiles.write(m, f);
+        return f;
+    }
+
+    @Test
+    void findsTheMirrorAndShiftAndTheGain() throws Exception {
+        float[] before = texture(5);
+        float[] after = new float[N * N];
+        int shiftPx = 3; // mirrored left-right, then moved 3 px (1.5 mm) to the right; lifetimes ×1.5
+        java.util.Arrays.fill(after, Float.NaN);
+        for (int y = 0; y < N; y++) {
+            for (int x = 0; x < N; x++) {
+                int xs = N - 1 - x + shiftPx;
+                if (xs >= 0 && xs < N) {
+                    after[y * N + xs] = 1.5f * before[y * N + x];
+                }
+            }
+        }
+        Path b = write("before", before);
+        Path a = write("after", after);
+        Path out = dir.resolve("ratio.tif");
+        JsonNode j = Cli.json("compare", b.toString(), a.toString(), "-o", out.toString(), "--json");
+        JsonNode reg = j.get("registration");
+        assertThat(reg.get("flip_x").asBoolean() ^ reg.get("flip_y").asBoolean()).isTrue();
+        assertThat(reg.get("score").asDouble()).isGreaterThan(0.9);
+        assertThat(j.get("paired").get("median_ratio").asDouble()).isCloseTo(1.5, within(0.03));
+        assertThat(j.get("paired").get("count").asInt()).isGreaterThan(5000);
+        WaferMap ratio = MapFiles.readSingle(out);
+        assertThat(ratio.quantity()).isEqualTo(Quantity.RATIO);
+    }
+
+    @Test
+    void densityComparisonGivesTheGetteringReduction() throws Exception {
+        float[] before = texture(9);
+        float[] after = new float[before.length];
+        for (int i = 0; i < before.length; i++) {
+            after[i] = before[i] * 4; // longer lifetime after gettering: fewer traps
+        }
+        Path b = write("b", before);
+        Path a = write("a", after);
+        JsonNode j = Cli.json("compare", b.toString(), a.toString(), "--defect", "fe-i", "--no-registration",
+                "--quantity", "reduction", "-o", dir.resolve("red.tif").toString(), "--json");
+        double median = j.get("paired").get("median_reduction").asDouble();
+        // N_t ∝ 1/τ_SRH; with τ_intr ≫ τ at these lifetimes, four times the lifetime is about 75 % fewer traps.
+        assertThat(median).isCloseTo(0.75, within(0.02));
+        assertThat(j.get("paired").get("quantity").asText()).isEqualTo("trap-density");
+    }
+
+    @Test
+    void mapsOfDifferentQuantitiesAreRefused() throws Exception {
+        Path b = write("x", texture(1));
+        WaferMap other = new WaferMap(FloatRaster.wrap(N, N, texture(2)), PixelGrid.centred(N, N, PITCH_MM),
+                Quantity.TRAP_DENSITY, "y", MeasurementConditions.UNKNOWN, Provenance.of("test"));
+        Path a = dir.resolve("y.tif");
+        MapFiles.write(other, a);
+        Cli.Run r = Cli.run("compare", b.toString(), a.toString());
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.errLines()).hasSize(1).first().asString().contains("trap-density");
+    }
+}
