@@ -357,7 +357,7 @@ public final class OutlineDetection {
         double[] p = start;
         for (int round = 0; round < TRIM_ROUNDS; round++) {
             p = fitShape(x, y, use, p, shapeOf);
-            WaferShape shape = shapeOf.apply(p);
+            WaferShape.Prepared shape = shapeOf.apply(p).prepared();
             double[] res = new double[n];
             for (int i = 0; i < n; i++) {
                 res[i] = shape.distanceToEdgeMm(x[i], y[i]);
@@ -373,8 +373,9 @@ public final class OutlineDetection {
     private static double clippedCost(WaferShape shape, double[] x, double[] y, double pitch) {
         double cap = 9 * pitch * pitch;
         double sum = 0;
+        WaferShape.Prepared p = shape.prepared();
         for (int i = 0; i < x.length; i++) {
-            double d = shape.distanceToEdgeMm(x[i], y[i]);
+            double d = p.distanceToEdgeMm(x[i], y[i]);
             sum += Math.min(d * d, cap);
         }
         return sum;
@@ -456,9 +457,10 @@ public final class OutlineDetection {
     }
 
     private static double[] distances(WaferShape shape, double[] x, double[] y, int[] idx) {
+        WaferShape.Prepared p = shape.prepared();
         double[] d = new double[idx.length];
         for (int i = 0; i < idx.length; i++) {
-            d[i] = shape.distanceToEdgeMm(x[idx[i]], y[idx[i]]);
+            d[i] = p.distanceToEdgeMm(x[idx[i]], y[idx[i]]);
         }
         return d;
     }
@@ -541,9 +543,10 @@ public final class OutlineDetection {
     private static FitQuality quality(OutlineFit.Model model, WaferShape shape, double[][] pts, Mask filled,
                                       PixelGrid grid) {
         int n = pts[0].length;
+        WaferShape.Prepared p = shape.prepared();
         double[] res = new double[n];
         for (int i = 0; i < n; i++) {
-            res[i] = shape.distanceToEdgeMm(pts[0][i], pts[1][i]);
+            res[i] = p.distanceToEdgeMm(pts[0][i], pts[1][i]);
         }
         double limit = Math.max(3 * robustSigma(res, null), grid.pitchMm());
         double sum2 = 0;
@@ -559,7 +562,7 @@ public final class OutlineDetection {
         long valid = 0;
         for (int i = 0, size = w * grid.height(); i < size; i++) {
             boolean data = filled.containsIndex(i);
-            boolean inside = shape.contains(grid.xMm(i % w), grid.yMm(i / w));
+            boolean inside = p.contains(grid.xMm(i % w), grid.yMm(i / w));
             valid += data ? 1 : 0;
             wrong += data != inside ? 1 : 0;
         }

@@ -72,41 +72,35 @@ public record RoundWafer(double diameterMm, Fiducial fiducial, double fiducialAn
 
     /** Distance from the centre to a flat (its chord), mm; NaN without a flat. */
     public double flatDistanceMm() {
-        if (fiducial instanceof Fiducial.Flat f) {
-            double r = radiusMm();
-            double c = f.lengthMm() / 2;
-            return Math.sqrt(r * r - c * c);
-        }
-        return Double.NaN;
+        return new Frame(this).flatD;
     }
 
     @Override
     public boolean contains(double xMm, double yMm) {
-        Local p = local(xMm, yMm);
-        return containsLocal(p.u, p.v);
+        return prepared().contains(xMm, yMm);
     }
 
     @Override
     public double distanceToEdgeMm(double xMm, double yMm) {
-        Local p = local(xMm, yMm);
-        double d = unsignedDistanceLocal(Math.abs(p.u), p.v);
-        return containsLocal(p.u, p.v) ? d : -d;
+        return prepared().distanceToEdgeMm(xMm, yMm);
+    }
+
+    @Override
+    public Prepared prepared() {
+        return new Frame(this);
     }
 
     @Override
     public double areaMm2() {
         double r = radiusMm();
         double disk = Math.PI * r * r;
-        if (fiducial instanceof Fiducial.Flat f) {
-            double c = f.lengthMm() / 2;
-            double d = Math.sqrt(r * r - c * c);
-            return disk - segmentArea(r, d, c);
+        Frame f = new Frame(this);
+        if (fiducial instanceof Fiducial.Flat flat) {
+            return disk - segmentArea(r, f.flatD, flat.lengthMm() / 2);
         }
-        if (fiducial instanceof Fiducial.Notch n) {
-            double[] p1 = notchCorner(n);
-            double apexY = -r + n.depthMm();
-            double triangle = p1[0] * (apexY - p1[1]);
-            return disk - triangle - segmentArea(r, -p1[1], p1[0]);
+        if (fiducial instanceof Fiducial.Notch) {
+            double triangle = f.cornerX * (f.apexY - f.cornerY);
+            return disk - triangle - segmentArea(r, -f.cornerY, f.cornerX);
         }
         return disk;
     }
@@ -126,68 +120,102 @@ public record RoundWafer(double diameterMm, Fiducial fiducial, double fiducialAn
                 centreYMm);
     }
 
-    // ---- local frame: centre at the origin, fiducial on the −v axis ----
+    /**
+     * The wafer in its local frame (centre at the origin, fiducial on the −v axis) with every derived constant
+     * computed once. The outline is mirror-symmetric about the v axis, so distances are taken for u ≥ 0.
+     */
+    private static final class Frame implements Prepared {
+        private final double cx;
+        private final double cy;
+        private final double cos;
+        private final double sin;
+        private final double r;
+        private final int kind; // 0 none, 1 flat, 2 notch
+        private final double flatHalf;
+        private final double flatD;
+        private final double apexY;
+        private final double cotHalf;
+        private final double cornerX;
+        private final double cornerY;
 
-    private record Local(double u, double v) {
-    }
+        Frame(RoundWafer w) {
+            cx = w.centreXMm;
+            cy = w.centreYMm;
+            double turn = Math.toRadians(w.fiducialAngleDeg - BOTTOM_DEG);
+            cos = Math.cos(turn);
+            sin = Math.sin(turn);
+            r = w.radiusMm();
+            if (w.fiducial instanceof Fiducial.Flat f) {
+                kind = 1;
+                flatHalf = f.lengthMm() / 2;
+                flatD = Math.sqrt(r * r - flatHalf * flatHalf);
+                apexY = cotHalf = cornerX = cornerY = Double.NaN;
+            } else if (w.fiducial instanceof Fiducial.Notch n) {
+                kind = 2;
+                flatHalf = flatD = Double.NaN;
+                double half = Math.toRadians(n.openingAngleDeg() / 2);
+                apexY = -r + n.depthMm();
+                cotHalf = 1 / Math.tan(half);
+                // where the right-hand side of the V (direction (sin, −cos) of the half angle) meets the circle
+                double ux = Math.sin(half);
+                double uy = -Math.cos(half);
+                double b = apexY * uy;
+                double t = -b + Math.sqrt(b * b - apexY * apexY + r * r);
+                cornerX = t * ux;
+                cornerY = apexY + t * uy;
+            } else {
+                kind = 0;
+                flatHalf = flatD = apexY = cotHalf = cornerX = cornerY = Double.NaN;
+            }
+        }
 
-    private Local local(double xMm, double yMm) {
-        double dx = xMm - centreXMm;
-        double dy = yMm - centreYMm;
-        double turn = Math.toRadians(fiducialAngleDeg - BOTTOM_DEG);
-        double c = Math.cos(turn);
-        double s = Math.sin(turn);
-        return new Local(c * dx + s * dy, -s * dx + c * dy);
-    }
+        @Override
+        public boolean contains(double xMm, double yMm) {
+            double dx = xMm - cx;
+            double dy = yMm - cy;
+            return containsLocal(cos * dx + sin * dy, -sin * dx + cos * dy);
+        }
 
-    private boolean containsLocal(double u, double v) {
-        double r = radiusMm();
-        if (u * u + v * v > r * r) {
-            return false;
+        @Override
+        public double distanceToEdgeMm(double xMm, double yMm) {
+            double dx = xMm - cx;
+            double dy = yMm - cy;
+            double u = cos * dx + sin * dy;
+            double v = -sin * dx + cos * dy;
+            double d = unsignedDistance(Math.abs(u), v);
+            return containsLocal(u, v) ? d : -d;
         }
-        if (fiducial instanceof Fiducial.Flat) {
-            return v >= -flatDistanceMm();
-        }
-        if (fiducial instanceof Fiducial.Notch n) {
-            double half = Math.toRadians(n.openingAngleDeg() / 2);
-            double apexY = -r + n.depthMm();
-            return v >= apexY - Math.abs(u) / Math.tan(half);
-        }
-        return true;
-    }
 
-    /** Distance to the outline for a point folded onto u ≥ 0 (the shape is mirror-symmetric about the v axis). */
-    private double unsignedDistanceLocal(double u, double v) {
-        double r = radiusMm();
-        double rho = Math.hypot(u, v);
-        if (fiducial instanceof Fiducial.Flat f) {
-            double c = f.lengthMm() / 2;
-            double d = flatDistanceMm();
-            double toFlat = u <= c ? Math.abs(v + d) : Math.hypot(u - c, v + d);
-            // the arc runs counter-clockwise from the flat's end (c, −d) to the top (0, r)
-            double toArc = c * v + d * u >= 0 ? Math.abs(rho - r) : Math.hypot(u - c, v + d);
-            return Math.min(toFlat, toArc);
+        private boolean containsLocal(double u, double v) {
+            if (u * u + v * v > r * r) {
+                return false;
+            }
+            if (kind == 1) {
+                return v >= -flatD;
+            }
+            if (kind == 2) {
+                return v >= apexY - Math.abs(u) * cotHalf;
+            }
+            return true;
         }
-        if (fiducial instanceof Fiducial.Notch n) {
-            double[] p1 = notchCorner(n);
-            double apexY = -r + n.depthMm();
-            double toSide = segmentDistance(u, v, 0, apexY, p1[0], p1[1]);
-            double toArc = p1[0] * v - p1[1] * u >= 0 ? Math.abs(rho - r) : Math.hypot(u - p1[0], v - p1[1]);
-            return Math.min(toSide, toArc);
-        }
-        return Math.abs(rho - r);
-    }
 
-    /** Where the right-hand side of the notch meets the circle (u > 0, local frame). */
-    private double[] notchCorner(Fiducial.Notch n) {
-        double r = radiusMm();
-        double half = Math.toRadians(n.openingAngleDeg() / 2);
-        double ux = Math.sin(half);
-        double uy = -Math.cos(half);
-        double apexY = -r + n.depthMm();
-        double b = apexY * uy; // apex · direction
-        double t = -b + Math.sqrt(b * b - apexY * apexY + r * r);
-        return new double[] {t * ux, apexY + t * uy};
+        private double unsignedDistance(double u, double v) {
+            double rho = Math.hypot(u, v);
+            if (kind == 1) {
+                double toFlat = u <= flatHalf ? Math.abs(v + flatD) : Math.hypot(u - flatHalf, v + flatD);
+                // the arc runs counter-clockwise from the flat's end (c, −d) to the top (0, r)
+                double toArc = flatHalf * v + flatD * u >= 0 ? Math.abs(rho - r)
+                        : Math.hypot(u - flatHalf, v + flatD);
+                return Math.min(toFlat, toArc);
+            }
+            if (kind == 2) {
+                double toSide = segmentDistance(u, v, 0, apexY, cornerX, cornerY);
+                double toArc = cornerX * v - cornerY * u >= 0 ? Math.abs(rho - r)
+                        : Math.hypot(u - cornerX, v - cornerY);
+                return Math.min(toSide, toArc);
+            }
+            return Math.abs(rho - r);
+        }
     }
 
     /** Area of the circular segment beyond a chord at distance d from the centre with half-length c. */

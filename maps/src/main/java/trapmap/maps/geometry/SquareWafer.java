@@ -77,15 +77,17 @@ public record SquareWafer(double sideMm, double diagonalMm, double rotationDeg, 
 
     @Override
     public boolean contains(double xMm, double yMm) {
-        double[] p = local(xMm, yMm);
-        return containsLocal(p[0], p[1]);
+        return prepared().contains(xMm, yMm);
     }
 
     @Override
     public double distanceToEdgeMm(double xMm, double yMm) {
-        double[] p = local(xMm, yMm);
-        double d = unsignedDistanceLocal(p[0], p[1]);
-        return containsLocal(p[0], p[1]) ? d : -d;
+        return prepared().distanceToEdgeMm(xMm, yMm);
+    }
+
+    @Override
+    public Prepared prepared() {
+        return new Frame(this);
     }
 
     @Override
@@ -115,42 +117,71 @@ public record SquareWafer(double sideMm, double diagonalMm, double rotationDeg, 
         return Math.sqrt(r * r - h * h);
     }
 
-    private double[] local(double xMm, double yMm) {
-        double dx = xMm - centreXMm;
-        double dy = yMm - centreYMm;
-        double t = Math.toRadians(rotationDeg);
-        double c = Math.cos(t);
-        double s = Math.sin(t);
-        return new double[] {c * dx + s * dy, -s * dx + c * dy};
-    }
+    /**
+     * The wafer in its local frame (sides parallel to the axes) with every derived constant computed once. The
+     * outline has the symmetry of the square, so distances are taken after folding onto 0 ≤ v ≤ u.
+     */
+    private static final class Frame implements Prepared {
+        private final double cx;
+        private final double cy;
+        private final double cos;
+        private final double sin;
+        private final double h;
+        private final double r;
+        private final double yc;
+        private final boolean full;
 
-    private boolean containsLocal(double u, double v) {
-        double h = sideMm / 2;
-        if (Math.abs(u) > h || Math.abs(v) > h) {
-            return false;
+        Frame(SquareWafer w) {
+            cx = w.centreXMm;
+            cy = w.centreYMm;
+            double t = Math.toRadians(w.rotationDeg);
+            cos = Math.cos(t);
+            sin = Math.sin(t);
+            h = w.sideMm / 2;
+            r = w.diagonalMm / 2;
+            full = w.isFullSquare();
+            yc = w.straightHalf();
         }
-        double r = diagonalMm / 2;
-        return isFullSquare() || u * u + v * v <= r * r;
-    }
 
-    /** Distance to the outline; the shape has the symmetry of the square, so fold onto 0 ≤ v ≤ u first. */
-    private double unsignedDistanceLocal(double u0, double v0) {
-        double u = Math.abs(u0);
-        double v = Math.abs(v0);
-        if (v > u) {
-            double t = u;
-            u = v;
-            v = t;
+        @Override
+        public boolean contains(double xMm, double yMm) {
+            double dx = xMm - cx;
+            double dy = yMm - cy;
+            return containsLocal(cos * dx + sin * dy, -sin * dx + cos * dy);
         }
-        double h = sideMm / 2;
-        double yc = straightHalf();
-        double toSide = v <= yc ? Math.abs(u - h) : Math.hypot(u - h, v - yc);
-        if (isFullSquare()) {
-            return toSide;
+
+        @Override
+        public double distanceToEdgeMm(double xMm, double yMm) {
+            double dx = xMm - cx;
+            double dy = yMm - cy;
+            double u = cos * dx + sin * dy;
+            double v = -sin * dx + cos * dy;
+            double d = unsignedDistance(u, v);
+            return containsLocal(u, v) ? d : -d;
         }
-        double r = diagonalMm / 2;
-        // the corner arc runs counter-clockwise from (h, yc) to the diagonal
-        double toArc = h * v - yc * u >= 0 ? Math.abs(Math.hypot(u, v) - r) : Math.hypot(u - h, v - yc);
-        return Math.min(toSide, toArc);
+
+        private boolean containsLocal(double u, double v) {
+            if (Math.abs(u) > h || Math.abs(v) > h) {
+                return false;
+            }
+            return full || u * u + v * v <= r * r;
+        }
+
+        private double unsignedDistance(double u0, double v0) {
+            double u = Math.abs(u0);
+            double v = Math.abs(v0);
+            if (v > u) {
+                double t = u;
+                u = v;
+                v = t;
+            }
+            double toSide = v <= yc ? Math.abs(u - h) : Math.hypot(u - h, v - yc);
+            if (full) {
+                return toSide;
+            }
+            // the corner arc runs counter-clockwise from (h, yc) to the diagonal
+            double toArc = h * v - yc * u >= 0 ? Math.abs(Math.hypot(u, v) - r) : Math.hypot(u - h, v - yc);
+            return Math.min(toSide, toArc);
+        }
     }
 }

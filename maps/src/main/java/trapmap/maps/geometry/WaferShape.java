@@ -20,6 +20,12 @@ public sealed interface WaferShape permits RoundWafer, SquareWafer {
      */
     double distanceToEdgeMm(double xMm, double yMm);
 
+    /**
+     * The same outline with its derived constants (rotation, fiducial geometry) computed once: use it in loops over
+     * many points.
+     */
+    Prepared prepared();
+
     /** Nominal area enclosed by the outline, mm². */
     double areaMm2();
 
@@ -51,6 +57,7 @@ public sealed interface WaferShape permits RoundWafer, SquareWafer {
         double cy = centreYMm();
         double reach = boundingRadiusMm() - edgeExclusionMm;
         double reach2 = reach < 0 ? -1 : reach * reach;
+        Prepared p = prepared();
         return Mask.of(w, grid.height(), i -> {
             double x = grid.xMm(i % w);
             double y = grid.yMm(i / w);
@@ -59,7 +66,16 @@ public sealed interface WaferShape permits RoundWafer, SquareWafer {
             if (dx * dx + dy * dy > reach2) {
                 return false;
             }
-            return contains(x, y) && distanceToEdgeMm(x, y) >= edgeExclusionMm;
+            return p.distanceToEdgeMm(x, y) >= edgeExclusionMm;
         });
+    }
+
+    /** Point queries on a shape whose derived constants are already computed (see {@link #prepared()}). */
+    interface Prepared {
+        /** As {@link WaferShape#contains(double, double)}. */
+        boolean contains(double xMm, double yMm);
+
+        /** As {@link WaferShape#distanceToEdgeMm(double, double)}. */
+        double distanceToEdgeMm(double xMm, double yMm);
     }
 }
