@@ -28,13 +28,26 @@ public final class DistanceTransform {
         double[] out = new double[n];
         int[] v = new int[n];
         double[] z = new double[n + 1];
-        for (int x = 0; x < w; x++) {
+        // columns in blocks, so that each pass over the rows reads whole cache lines
+        int block = 16;
+        double[][] cols = new double[block][h];
+        for (int x0 = 0; x0 < w; x0 += block) {
+            int bw = Math.min(block, w - x0);
             for (int y = 0; y < h; y++) {
-                f[y] = sq[y * w + x];
+                int row = y * w + x0;
+                for (int b = 0; b < bw; b++) {
+                    cols[b][y] = sq[row + b];
+                }
             }
-            transform1d(f, h, out, v, z);
+            for (int b = 0; b < bw; b++) {
+                transform1d(cols[b], h, out, v, z);
+                System.arraycopy(out, 0, cols[b], 0, h);
+            }
             for (int y = 0; y < h; y++) {
-                sq[y * w + x] = out[y];
+                int row = y * w + x0;
+                for (int b = 0; b < bw; b++) {
+                    sq[row + b] = cols[b][y];
+                }
             }
         }
         float[] result = new float[w * h];
