@@ -55,4 +55,9 @@ public record PixelGrid(int width, int height, double pitchMm, double centreXPx,
     public PixelGrid withPitch(double mm) {
         return new PixelGrid(width, height, mm, centreXPx, centreYPx);
     }
+
+    /** The same raster and pitch with the wafer centre at pixel ({@code xPx}, {@code yPx}). */
+    public PixelGrid withCentre(double xPx, double yPx) {
+        return new PixelGrid(width, height, pitchMm, xPx, yPx);
+    }
 }

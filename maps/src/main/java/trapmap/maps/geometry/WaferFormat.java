@@ -1,0 +1,263 @@
+package trapmap.maps.geometry;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import trapmap.shared.check.Checks;
+
+/**
+ * Standard wafer formats with their nominal dimensions and tolerances.
+ *
+ * <p>Sources (each format names its own in {@link #source()}):
+ * <ul>
+ *   <li>Round IC wafers: SEMI M1 (Specification for polished single crystal silicon wafers). Diameters, their
+ *       tolerances and the primary-flat lengths of 100, 125 and 150 mm were checked against two public tabulations of
+ *       SEMI M1: the "silicon wafer flats" specification table of siliconwafer.org and the flat table of the GDWCalc
+ *       die-per-wafer tool (which cites SEMI M1-0302). The 200 mm flat length (57.5 mm) and the notch geometry
+ *       (depth 1.00 +0.25/−0.00 mm, opening angle 90° +5°/−1°) are from memory; the SEMI text itself could not be
+ *       consulted.</li>
+ *   <li>Solar wafers: sides and pseudo-square diameters as tabulated in public trade overviews (pv-manufacturing.org
+ *       "wafer sizes" for M0/M2; a format table of tamrons.com for M2, G1, M6 and G12 with their areas; TaiyangNews
+ *       on the 182 mm M10 proposal of 2020). M10's 247 mm diameter and all solar tolerances (±0.25 mm, quoted for
+ *       G12 in the 2020 210 mm proposal) are from memory or common practice; SEMI PV22 itself could not be
+ *       consulted.</li>
+ * </ul>
+ */
+public enum WaferFormat {
+    ROUND_100_FLAT("round-100-flat", Kind.ROUND, 100, sym(0.5), Fiducial.flat(32.5), sym(2.5), null, Src.M1),
+    ROUND_125_FLAT("round-125-flat", Kind.ROUND, 125, sym(0.5), Fiducial.flat(42.5), sym(2.5), null, Src.M1),
+    ROUND_150_FLAT("round-150-flat", Kind.ROUND, 150, sym(0.2), Fiducial.flat(57.5), sym(2.5), null, Src.M1),
+    ROUND_200_FLAT("round-200-flat", Kind.ROUND, 200, sym(0.2), Fiducial.flat(57.5), sym(2.5), null,
+            Src.M1_MEMORY_FLAT),
+    ROUND_200_NOTCH("round-200-notch", Kind.ROUND, 200, sym(0.2), Fiducial.notch(1.0, 90),
+            new Tolerance(0, 0.25), new Tolerance(1, 5), Src.M1_MEMORY_NOTCH),
+    ROUND_300_NOTCH("round-300-notch", Kind.ROUND, 300, sym(0.2), Fiducial.notch(1.0, 90),
+            new Tolerance(0, 0.25), new Tolerance(1, 5), Src.M1_MEMORY_NOTCH),
+
+    M0("m0", 156.0, 200, Src.TRADE),
+    M2("m2", 156.75, 210, Src.TRADE),
+    G1("g1", 158.75, 223, Src.TRADE),
+    M6("m6", 166.0, 223, Src.TRADE),
+    M10("m10", 182.0, 247, Src.TRADE_M10),
+    G12("g12", 210.0, 295, Src.TRADE),
+
+    SQUARE_156("square-156", 156.0, Src.SQUARE),
+    SQUARE_156_75("square-156.75", 156.75, Src.SQUARE),
+    SQUARE_158_75("square-158.75", 158.75, Src.SQUARE),
+    SQUARE_166("square-166", 166.0, Src.SQUARE),
+    SQUARE_182("square-182", 182.0, Src.SQUARE),
+    SQUARE_210("square-210", 210.0, Src.SQUARE);
+
+    /** Family of outline. */
+    public enum Kind {
+        /** Round wafer with a flat or notch (SEMI M1). */
+        ROUND,
+        /** Mono solar wafer: square with corners on the ingot circle. */
+        PSEUDO_SQUARE,
+        /** Square with sharp corners (cast or cut-square mono). */
+        FULL_SQUARE
+    }
+
+    private static final class Src {
+        static final String M1 = "SEMI M1 (via public tabulations: siliconwafer.org flats table; GDWCalc, SEMI M1-0302)";
+        static final String M1_MEMORY_FLAT = "SEMI M1 diameter (via siliconwafer.org); flat length from memory";
+        static final String M1_MEMORY_NOTCH = "SEMI M1 diameter (via siliconwafer.org); notch depth and angle from"
+                + " memory";
+        static final String TRADE = "trade format tables (pv-manufacturing.org, tamrons.com); tolerances from"
+                + " memory; SEMI PV22 not consulted";
+        static final String TRADE_M10 = "side: TaiyangNews (2020 M10 proposal); Ø247 mm and tolerances from memory;"
+                + " SEMI PV22 not consulted";
+        static final String SQUARE = "side as the pseudo-square format of the same size; sharp corners; tolerance"
+                + " from memory";
+    }
+
+    private static final double SOLAR_TOLERANCE_MM = 0.25;
+
+    private final String id;
+    private final Kind kind;
+    private final double sizeMm;
+    private final Tolerance sizeTolerance;
+    private final double diagonalMm;
+    private final Tolerance diagonalTolerance;
+    private final Fiducial fiducial;
+    private final Tolerance fiducialTolerance;
+    private final Tolerance notchAngleToleranceDeg;
+    private final String source;
+
+    /** Round formats. */
+    WaferFormat(String id, Kind kind, double diameterMm, Tolerance diameterTolerance, Fiducial fiducial,
+                Tolerance fiducialTolerance, Tolerance notchAngleToleranceDeg, String source) {
+        this.id = id;
+        this.kind = kind;
+        this.sizeMm = diameterMm;
+        this.sizeTolerance = diameterTolerance;
+        this.diagonalMm = diameterMm;
+        this.diagonalTolerance = diameterTolerance;
+        this.fiducial = fiducial;
+        this.fiducialTolerance = fiducialTolerance;
+        this.notchAngleToleranceDeg = notchAngleToleranceDeg;
+        this.source = source;
+    }
+
+    /** Pseudo-square formats. */
+    WaferFormat(String id, double sideMm, double diameterMm, String source) {
+        this(id, Kind.PSEUDO_SQUARE, sideMm, diameterMm, source);
+    }
+
+    /** Full-square formats. */
+    WaferFormat(String id, double sideMm, String source) {
+        this(id, Kind.FULL_SQUARE, sideMm, sideMm * Math.sqrt(2), source);
+    }
+
+    WaferFormat(String id, Kind kind, double sideMm, double diagonalMm, String source) {
+        this.id = id;
+        this.kind = kind;
+        this.sizeMm = sideMm;
+        this.sizeTolerance = sym(SOLAR_TOLERANCE_MM);
+        this.diagonalMm = diagonalMm;
+        this.diagonalTolerance = sym(SOLAR_TOLERANCE_MM);
+        this.fiducial = Fiducial.NONE;
+        this.fiducialTolerance = null;
+        this.notchAngleToleranceDeg = null;
+        this.source = source;
+    }
+
+    private static Tolerance sym(double mm) {
+        return Tolerance.symmetric(mm);
+    }
+
+    /** Short name used in files and on the command line, e.g. {@code round-150-flat}, {@code m10}. */
+    public String id() {
+        return id;
+    }
+
+    public Kind kind() {
+        return kind;
+    }
+
+    /** Diameter of a round wafer or side of a square one, mm. */
+    public double sizeMm() {
+        return sizeMm;
+    }
+
+    public Tolerance sizeTolerance() {
+        return sizeTolerance;
+    }
+
+    /** Corner-to-corner diameter, mm: the pseudo-square diameter, a·√2 for a full square, the diameter if round. */
+    public double diagonalMm() {
+        return diagonalMm;
+    }
+
+    public Tolerance diagonalTolerance() {
+        return diagonalTolerance;
+    }
+
+    /** Flat, notch or none (square formats). */
+    public Fiducial fiducial() {
+        return fiducial;
+    }
+
+    /** Tolerance of the flat length or of the notch depth, mm; null without a fiducial. */
+    public Tolerance fiducialTolerance() {
+        return fiducialTolerance;
+    }
+
+    /** Tolerance of the notch opening angle, degrees; null without a notch. */
+    public Tolerance notchAngleToleranceDeg() {
+        return notchAngleToleranceDeg;
+    }
+
+    /** Where the dimensions come from, and which of them are from memory. */
+    public String source() {
+        return source;
+    }
+
+    /** The nominal outline, centred, fiducial at the bottom (270°), sides parallel to the axes. */
+    public WaferShape shape() {
+        return shape(RoundWafer.BOTTOM_DEG);
+    }
+
+    /**
+     * The nominal outline, centred; {@code orientationDeg} is the fiducial direction of a round wafer
+     * (counter-clockwise from +x, 270 = bottom) or the turn of a square one from its default (270 = no turn).
+     */
+    public WaferShape shape(double orientationDeg) {
+        Checks.finite(orientationDeg, "orientation", "deg");
+        if (kind == Kind.ROUND) {
+            return new RoundWafer(sizeMm, fiducial, orientationDeg, 0, 0);
+        }
+        return new SquareWafer(sizeMm, diagonalMm, orientationDeg - RoundWafer.BOTTOM_DEG, 0, 0);
+    }
+
+    /**
+     * The format with this id (case-insensitive; {@code m12} is accepted for {@code g12}).
+     *
+     * @throws IllegalArgumentException listing the known ids
+     */
+    public static WaferFormat byId(String id) {
+        Checks.notNull(id, "waferFormat");
+        String k = id.trim().toLowerCase(Locale.ROOT);
+        if (k.equals("m12")) {
+            k = "g12";
+        }
+        for (WaferFormat f : values()) {
+            if (f.id.equals(k)) {
+                return f;
+            }
+        }
+        throw new IllegalArgumentException("unknown wafer format '" + id + "' (known: " + String.join(", ", ids())
+                + ")");
+    }
+
+    /** Every id, in declaration order. */
+    public static List<String> ids() {
+        List<String> out = new ArrayList<>();
+        for (WaferFormat f : values()) {
+            out.add(f.id);
+        }
+        return out;
+    }
+
+    /**
+     * The standard format closest to {@code shape}: for a round shape the nearest diameter (preferring formats with
+     * the same kind of fiducial when the shape has one), for a square shape the smallest of the larger of the side
+     * and diagonal deviations among the pseudo- and full-square formats.
+     */
+    public static FormatMatch closestTo(WaferShape shape) {
+        Checks.notNull(shape, "shape");
+        WaferFormat best = null;
+        double bestDev = Double.POSITIVE_INFINITY;
+        if (shape instanceof RoundWafer r) {
+            boolean anySameMark = false;
+            for (WaferFormat f : values()) {
+                anySameMark |= f.kind == Kind.ROUND && f.fiducial.kind().equals(r.fiducial().kind());
+            }
+            for (WaferFormat f : values()) {
+                if (f.kind != Kind.ROUND || anySameMark && !f.fiducial.kind().equals(r.fiducial().kind())) {
+                    continue;
+                }
+                double dev = Math.abs(r.diameterMm() - f.sizeMm);
+                if (dev < bestDev) {
+                    bestDev = dev;
+                    best = f;
+                }
+            }
+            return new FormatMatch(best, bestDev, best.sizeTolerance.accepts(best.sizeMm, r.diameterMm()));
+        }
+        SquareWafer s = (SquareWafer) shape;
+        for (WaferFormat f : values()) {
+            if (f.kind == Kind.ROUND) {
+                continue;
+            }
+            double dev = Math.max(Math.abs(s.sideMm() - f.sizeMm), Math.abs(s.diagonalMm() - f.diagonalMm));
+            if (dev < bestDev) {
+                bestDev = dev;
+                best = f;
+            }
+        }
+        boolean within = best.sizeTolerance.accepts(best.sizeMm, s.sideMm())
+                && best.diagonalTolerance.accepts(best.diagonalMm, s.diagonalMm());
+        return new FormatMatch(best, bestDev, within);
+    }
+}

@@ -1,0 +1,81 @@
+package trapmap.maps.geometry;
+
+import trapmap.maps.raster.Mask;
+import trapmap.maps.raster.PixelGrid;
+import trapmap.shared.check.Checks;
+
+/**
+ * The outline of a wafer in wafer coordinates (mm, x to the right, y upwards, as {@link PixelGrid} defines them).
+ * A shape may sit off the grid's wafer centre (a fitted outline does): {@link #centreXMm()}, {@link #centreYMm()}.
+ * Implementations are immutable.
+ */
+public sealed interface WaferShape permits RoundWafer, SquareWafer {
+
+    /** True when the point lies inside the wafer or on its edge. */
+    boolean contains(double xMm, double yMm);
+
+    /**
+     * Euclidean distance from the point to the nearest point of the outline, mm: positive inside, negative outside,
+     * zero on the edge. Exact for every shape here, including near a notch or a pseudo-square corner.
+     */
+    double distanceToEdgeMm(double xMm, double yMm);
+
+    /**
+     * The same outline with its derived constants (rotation, fiducial geometry) computed once: use it in loops over
+     * many points.
+     */
+    Prepared prepared();
+
+    /** Nominal area enclosed by the outline, mm². */
+    double areaMm2();
+
+    /** Radius of a circle about the shape centre that encloses the whole outline, mm. */
+    double boundingRadiusMm();
+
+    /** Shape centre in wafer coordinates, mm. */
+    double centreXMm();
+
+    /** Shape centre in wafer coordinates, mm. */
+    double centreYMm();
+
+    /** The same outline with its centre at ({@code xMm}, {@code yMm}). */
+    WaferShape movedTo(double xMm, double yMm);
+
+    /** One-line description with the dimensions, e.g. {@code round Ø150.00 mm, flat 57.50 mm at 270.0°}. */
+    String describe();
+
+    /**
+     * The pixels of {@code grid} whose centre lies inside the outline and at least {@code edgeExclusionMm} from it.
+     *
+     * @param edgeExclusionMm width of the excluded rim, mm (0 keeps every pixel whose centre is inside)
+     * @throws trapmap.shared.error.InvalidValueException when the exclusion is negative or not finite
+     */
+    default Mask mask(PixelGrid grid, double edgeExclusionMm) {
+        Checks.nonNegative(edgeExclusionMm, "edgeExclusion", "mm");
+        int w = grid.width();
+        double cx = centreXMm();
+        double cy = centreYMm();
+        double reach = boundingRadiusMm() - edgeExclusionMm;
+        double reach2 = reach < 0 ? -1 : reach * reach;
+        Prepared p = prepared();
+        return Mask.of(w, grid.height(), i -> {
+            double x = grid.xMm(i % w);
+            double y = grid.yMm(i / w);
+            double dx = x - cx;
+            double dy = y - cy;
+            if (dx * dx + dy * dy > reach2) {
+                return false;
+            }
+            return p.distanceToEdgeMm(x, y) >= edgeExclusionMm;
+        });
+    }
+
+    /** Point queries on a shape whose derived constants are already computed (see {@link #prepared()}). */
+    interface Prepared {
+        /** As {@link WaferShape#contains(double, double)}. */
+        boolean contains(double xMm, double yMm);
+
+        /** As {@link WaferShape#distanceToEdgeMm(double, double)}. */
+        double distanceToEdgeMm(double xMm, double yMm);
+    }
+}

@@ -1,0 +1,259 @@
+package trapmap.maps.stats;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.Mask;
+import trapmap.maps.raster.PixelGrid;
+import trapmap.shared.check.Checks;
+
+/**
+ * Summary statistics of the samples of a map inside a mask. NaN pixels ("no data") are never counted.
+ *
+ * <p><b>Which average answers which question.</b> The arithmetic mean is what a photoconductance measurement of the
+ * whole wafer reports under uniform generation with no lateral coupling (each region holds Δn_i = G·τ_i). A
+ * finished cell is close to equipotential instead: Δn is about the same everywhere, the local recombination rate is
+ * Δn/τ_i, and the cell behaves as if its lifetime were 1/⟨1/τ⟩, the <b>harmonic mean</b>. The harmonic mean is
+ * dominated by the bad regions: a poor area cannot be compensated by a good one, which is why it ranks wafers by
+ * device performance better than the arithmetic or geometric mean and is the default "device-relevant" average for
+ * lifetime maps. The geometric mean (the mean of the logarithm) suits quantities that span decades, such as trap
+ * densities, for which it is the centre of a log-scale histogram.
+ *
+ * <p><b>Non-positive values.</b> The harmonic and geometric means are defined for positive values only. Pixels ≤ 0
+ * are left out of those two means and counted in {@link #nonPositiveCount()}; they still count everywhere else
+ * (arithmetic mean, percentiles, extremes, area fractions). With no positive pixel both means are NaN.
+ *
+ * <p><b>Percentiles</b> are estimated by linear interpolation between order statistics, Hyndman and Fan's type 7
+ * (the default of R, NumPy and spreadsheet PERCENTILE.INC; Commons Math {@code Percentile.EstimationType.R_7}):
+ * with the n counted values sorted as x₀ ≤ … ≤ x_{n−1}, h = (n − 1)·p/100 and
+ * P(p) = x_⌊h⌋ + (h − ⌊h⌋)·(x_⌊h⌋+1 − x_⌊h⌋). The median is P(50).
+ *
+ * <p><b>Cost.</b> One pass over the pixels gives count, mean and variance (Welford's update), extremes, the sums for
+ * the harmonic and geometric means (Σ ln x as the logarithm of a rescaled running product) and the threshold counts,
+ * while copying the counted values into one float array; the percentiles then come from two more passes over that
+ * array (a radix count, then gathering the few buckets that hold the wanted ranks), with no full sort. No boxing;
+ * a 16-megapixel map needs one extra 64 MB float array.
+ *
+ * @param count             counted pixels (in the mask and not NaN)
+ * @param areaMm2           their area, mm²
+ * @param mean              arithmetic mean
+ * @param harmonicMean      n₊ / Σ(1/x) over the n₊ positive values
+ * @param geometricMean     exp(Σ ln x / n₊) over the positive values
+ * @param nonPositiveCount  pixels ≤ 0, left out of the harmonic and geometric means
+ * @param median            P(50)
+ * @param min               smallest value
+ * @param max               largest value
+ * @param standardDeviation sample standard deviation (divisor n − 1); NaN for fewer than two pixels
+ * @param percentiles       the requested percentiles, in the order asked
+ * @param areaFractions     the requested thresholds with the fractions above and below, in the order asked
+ */
+public record MapStatistics(int count, double areaMm2, double mean, double harmonicMean, double geometricMean,
+                            int nonPositiveCount, double median, double min, double max, double standardDeviation,
+                            List<PercentileValue> percentiles, List<AreaFraction> areaFractions) {
+
+    /**
+     * A percentile.
+     *
+     * @param percent p in [0, 100]
+     * @param value   P(p), type-7 estimate
+     */
+    public record PercentileValue(double percent, double value) {
+    }
+
+    /**
+     * How much of the counted area lies strictly below and strictly above a threshold (pixels equal to it are in
+     * neither).
+     *
+     * @param threshold     the threshold, in the unit of the map
+     * @param countBelow    pixels with value &lt; threshold
+     * @param countAbove    pixels with value &gt; threshold
+     * @param fractionBelow countBelow / count
+     * @param fractionAbove countAbove / count
+     * @param areaBelowMm2  area below, mm²
+     * @param areaAboveMm2  area above, mm²
+     */
+    public record AreaFraction(double threshold, int countBelow, int countAbove, double fractionBelow,
+                               double fractionAbove, double areaBelowMm2, double areaAboveMm2) {
+    }
+
+    public MapStatistics {
+        percentiles = List.copyOf(percentiles);
+        areaFractions = List.copyOf(areaFractions);
+    }
+
+    /** Statistics of a map over {@code mask} (null: the whole map). */
+    public static MapStatistics of(WaferMap map, Mask mask, StatisticsRequest request) {
+        Checks.notNull(map, "map");
+        return of(map.raster(), mask, map.grid(), request);
+    }
+
+    /**
+     * Statistics of {@code raster} over {@code mask} (null: every pixel); {@code grid} gives the pixel area.
+     *
+     * @throws IllegalArgumentException when the sizes of raster, mask and grid differ
+     */
+    public static MapStatistics of(FloatRaster raster, Mask mask, PixelGrid grid, StatisticsRequest request) {
+        Checks.notNull(raster, "raster");
+        Checks.notNull(grid, "grid");
+        Checks.notNull(request, "request");
+        checkSizes(raster, mask, grid);
+        float[] s = raster.samples();
+        double[] thresholds = request.thresholds().stream().mapToDouble(Double::doubleValue).toArray();
+        int[] below = new int[thresholds.length];
+        int[] above = new int[thresholds.length];
+        float[] values = new float[mask == null ? s.length : mask.count()];
+
+        int n = 0;
+        int nonPositive = 0;
+        double mean = 0;
+        double m2 = 0;
+        double min = Double.POSITIVE_INFINITY;
+        double max = Double.NEGATIVE_INFINITY;
+        double reciprocalSum = 0;
+        // Σ ln x kept as ln(product) + binaryExponent·ln 2: one multiplication per pixel instead of a logarithm
+        double product = 1;
+        long binaryExponent = 0;
+        int i = mask == null ? 0 : mask.nextIndex(0);
+        while (i >= 0 && i < s.length) {
+            float f = s[i];
+            if (f == f) {
+                double v = f;
+                values[n++] = f;
+                double delta = v - mean;
+                mean += delta / n;
+                m2 += delta * (v - mean);
+                if (v < min) {
+                    min = v;
+                }
+                if (v > max) {
+                    max = v;
+                }
+                if (v > 0) {
+                    reciprocalSum += 1 / v;
+                    product *= v;
+                    if (product > 1e250 || product < 1e-250) {
+                        int e = Math.getExponent(product);
+                        product = Math.scalb(product, -e);
+                        binaryExponent += e;
+                    }
+                } else {
+                    nonPositive++;
+                }
+                for (int k = 0; k < thresholds.length; k++) {
+                    if (v < thresholds[k]) {
+                        below[k]++;
+                    } else if (v > thresholds[k]) {
+                        above[k]++;
+                    }
+                }
+            }
+            i = mask == null ? i + 1 : mask.nextIndex(i + 1);
+        }
+
+        double pixelArea = grid.pixelAreaMm2();
+        int positive = n - nonPositive;
+        double logSum = Math.log(product) + binaryExponent * Math.log(2);
+        List<AreaFraction> fractions = new ArrayList<>();
+        for (int k = 0; k < thresholds.length; k++) {
+            fractions.add(new AreaFraction(thresholds[k], below[k], above[k], n == 0 ? Double.NaN
+                    : (double) below[k] / n, n == 0 ? Double.NaN : (double) above[k] / n, below[k] * pixelArea,
+                    above[k] * pixelArea));
+        }
+        double[] asked = request.percents().stream().mapToDouble(Double::doubleValue).toArray();
+        double[] wanted = Arrays.copyOf(asked, asked.length + 1);
+        wanted[asked.length] = 50;
+        double[] estimates = percentiles(values, n, wanted);
+        List<PercentileValue> pv = new ArrayList<>();
+        for (int k = 0; k < asked.length; k++) {
+            pv.add(new PercentileValue(asked[k], estimates[k]));
+        }
+        return new MapStatistics(n, n * pixelArea, n == 0 ? Double.NaN : mean,
+                positive == 0 ? Double.NaN : positive / reciprocalSum,
+                positive == 0 ? Double.NaN : Math.exp(logSum / positive), nonPositive,
+                estimates[asked.length], n == 0 ? Double.NaN : min, n == 0 ? Double.NaN : max,
+                n < 2 ? Double.NaN : Math.sqrt(m2 / (n - 1)), pv, fractions);
+    }
+
+    /** Type-7 percentiles of values[0..n) (possibly reordered), in the order of {@code percents}. */
+    static double[] percentiles(float[] values, int n, double[] percents) {
+        double[] out = new double[percents.length];
+        if (n == 0) {
+            Arrays.fill(out, Double.NaN);
+            return out;
+        }
+        // the two order statistics around each h = (n − 1)·p/100, as one ascending list of distinct ranks
+        int[] lower = new int[percents.length];
+        double[] frac = new double[percents.length];
+        int[] wanted = new int[2 * percents.length];
+        for (int k = 0; k < percents.length; k++) {
+            double h = (n - 1) * percents[k] / 100.0;
+            lower[k] = (int) Math.floor(h);
+            frac[k] = h - lower[k];
+            wanted[2 * k] = lower[k];
+            wanted[2 * k + 1] = Math.min(lower[k] + 1, n - 1);
+        }
+        int[] ranks = Arrays.stream(wanted).sorted().distinct().toArray();
+        double[] at = Selection.ranks(values, n, ranks);
+        for (int k = 0; k < percents.length; k++) {
+            double lo = at[Arrays.binarySearch(ranks, lower[k])];
+            double hi = at[Arrays.binarySearch(ranks, Math.min(lower[k] + 1, n - 1))];
+            out[k] = frac[k] > 0 ? lo + frac[k] * (hi - lo) : lo;
+        }
+        return out;
+    }
+
+    /**
+     * The estimate of {@code percent} if it was requested (or 50).
+     *
+     * @throws IllegalArgumentException when it was not
+     */
+    public double percentile(double percent) {
+        if (percent == 50) {
+            return median;
+        }
+        for (PercentileValue p : percentiles) {
+            if (p.percent() == percent) {
+                return p.value();
+            }
+        }
+        throw new IllegalArgumentException("percentile " + percent + " % was not requested (have: "
+                + percentiles.stream().map(p -> String.valueOf(p.percent())).toList() + ")");
+    }
+
+    /**
+     * The area fractions of {@code threshold} if it was requested.
+     *
+     * @throws IllegalArgumentException when it was not
+     */
+    public AreaFraction areaFraction(double threshold) {
+        for (AreaFraction a : areaFractions) {
+            if (a.threshold() == threshold) {
+                return a;
+            }
+        }
+        throw new IllegalArgumentException("threshold " + threshold + " was not requested");
+    }
+
+    /** Pixels that entered the harmonic and geometric means. */
+    public int positiveCount() {
+        return count - nonPositiveCount;
+    }
+
+    /** Standard deviation over the mean (NaN when the mean is 0 or unknown). */
+    public double coefficientOfVariation() {
+        return mean == 0 ? Double.NaN : standardDeviation / mean;
+    }
+
+    static void checkSizes(FloatRaster raster, Mask mask, PixelGrid grid) {
+        if (grid.width() != raster.width() || grid.height() != raster.height()) {
+            throw new IllegalArgumentException("grid " + grid.width() + "x" + grid.height() + " does not match raster "
+                    + raster.width() + "x" + raster.height());
+        }
+        if (mask != null && (mask.width() != raster.width() || mask.height() != raster.height())) {
+            throw new IllegalArgumentException("mask " + mask.width() + "x" + mask.height() + " does not match raster "
+                    + raster.width() + "x" + raster.height());
+        }
+    }
+}

@@ -1,0 +1,133 @@
+package trapmap.maps.stats;
+
+import java.util.Arrays;
+
+/**
+ * Order statistics of float arrays without a full sort, for percentiles: a radix pre-pass and in-place selection
+ * (Hoare partitioning with a median-of-three pivot).
+ */
+final class Selection {
+    private static final int SMALL = 16;
+    private static final int BUCKETS = 1 << 16;
+
+    private Selection() {
+    }
+
+    /**
+     * The values of ranks {@code ranks} (0-based, ascending, each &lt; n) among values[0..n), NaN-free.
+     *
+     * <p>One pass sorts the values into 65 536 buckets by the top 16 bits of their order-preserving integer key (sign,
+     * exponent and seven mantissa bits), a second gathers only the buckets that hold a wanted rank, and those few are
+     * sorted. When the wanted buckets hold a large share of the data (a nearly constant map) the ranks are selected in
+     * place instead, which reorders {@code values}.
+     */
+    static double[] ranks(float[] values, int n, int[] ranks) {
+        double[] out = new double[ranks.length];
+        int[] count = new int[BUCKETS];
+        for (int i = 0; i < n; i++) {
+            count[bucket(values[i])]++;
+        }
+        int[] start = new int[BUCKETS + 1];
+        for (int b = 0; b < BUCKETS; b++) {
+            start[b + 1] = start[b] + count[b];
+        }
+        int[] slotOfBucket = new int[BUCKETS];
+        java.util.Arrays.fill(slotOfBucket, -1);
+        int[] bucketOfRank = new int[ranks.length];
+        int slots = 0;
+        long gathered = 0;
+        int b = 0;
+        for (int r = 0; r < ranks.length; r++) {
+            while (start[b + 1] <= ranks[r]) {
+                b++;
+            }
+            bucketOfRank[r] = b;
+            if (slotOfBucket[b] < 0) {
+                slotOfBucket[b] = slots++;
+                gathered += count[b];
+            }
+        }
+        if (gathered > Math.max(1 << 16, n / 4)) {
+            int from = 0;
+            for (int r = 0; r < ranks.length; r++) {
+                out[r] = select(values, from, n - 1, ranks[r]);
+                from = ranks[r];
+            }
+            return out;
+        }
+        float[][] bins = new float[slots][];
+        int[] fill = new int[slots];
+        for (int bb = 0; bb < BUCKETS; bb++) {
+            if (slotOfBucket[bb] >= 0) {
+                bins[slotOfBucket[bb]] = new float[count[bb]];
+            }
+        }
+        for (int i = 0; i < n; i++) {
+            int slot = slotOfBucket[bucket(values[i])];
+            if (slot >= 0) {
+                bins[slot][fill[slot]++] = values[i];
+            }
+        }
+        for (float[] bin : bins) {
+            Arrays.sort(bin);
+        }
+        for (int r = 0; r < ranks.length; r++) {
+            int bb = bucketOfRank[r];
+            out[r] = bins[slotOfBucket[bb]][ranks[r] - start[bb]];
+        }
+        return out;
+    }
+
+    /** Bucket of a float: the top 16 bits of its order-preserving key (negative values reversed, then offset). */
+    private static int bucket(float f) {
+        int bits = Float.floatToRawIntBits(f);
+        int key = bits ^ ((bits >> 31) & 0x7fffffff);
+        return (key >> 16) + (BUCKETS >> 1);
+    }
+
+    /**
+     * The k-th smallest value (0-based) of {@code a[lo..hi]} (inclusive). Afterwards a[lo..k) ≤ a[k] ≤ a(k..hi], so
+     * a later call for a larger k may start at this k. Expected O(hi − lo); falls back to sorting the remaining range
+     * if partitioning keeps going badly.
+     */
+    static float select(float[] a, int lo, int hi, int k) {
+        int rounds = 0;
+        while (hi > lo) {
+            if (hi - lo < SMALL || ++rounds > 64) {
+                Arrays.sort(a, lo, hi + 1);
+                return a[k];
+            }
+            int mid = (lo + hi) >>> 1;
+            float x = median(a[lo], a[mid], a[hi]);
+            int i = lo;
+            int j = hi;
+            do {
+                while (a[i] < x) {
+                    i++;
+                }
+                while (x < a[j]) {
+                    j--;
+                }
+                if (i <= j) {
+                    float t = a[i];
+                    a[i] = a[j];
+                    a[j] = t;
+                    i++;
+                    j--;
+                }
+            } while (i <= j);
+            if (k <= j) {
+                hi = j;
+            } else if (k >= i) {
+                lo = i;
+            } else {
+                return a[k];
+            }
+        }
+        return a[k];
+    }
+
+    private static float median(float a, float b, float c) {
+        return Math.max(Math.min(a, b), Math.min(Math.max(a, b), c));
+    }
+}
