@@ -1,0 +1,273 @@
+package trapmap.cli;
+
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import trapmap.maps.compare.Improvement;
+import trapmap.maps.geometry.OutlineDetection;
+import trapmap.maps.geometry.OutlineFit;
+import trapmap.maps.geometry.WaferFormat;
+import trapmap.maps.geometry.WaferShape;
+import trapmap.maps.io.MapFormatException;
+import trapmap.maps.model.Quantity;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.process.MapConversion;
+import trapmap.maps.raster.Mask;
+import trapmap.maps.region.Region;
+import trapmap.maps.region.RegionCriteria;
+import trapmap.maps.region.RegionTable;
+import trapmap.maps.region.ThresholdRegions;
+import trapmap.maps.stats.MapStatistics;
+import trapmap.maps.stats.StatisticsRequest;
+import trapmap.physics.defect.Defect;
+
+/** {@code trapmap stats}: statistics, area fractions and flagged regions of one map. */
+@Command(name = "stats", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
+        usageHelpAutoWidth = true,
+        header = "Statistics, threshold area fractions and the table of flagged regions of a map.",
+        description = {
+            "Summarises MAP over the wafer (less an edge exclusion): count, mean, harmonic mean (the device-relevant",
+            "average of a lifetime map), geometric mean, median, percentiles, min, max, standard deviation. With",
+            "--threshold it adds the area fractions on each side and the flagged regions (8-connected), largest",
+            "first. With --defect the map is first converted to that defect's trap density.",
+            ""},
+        footer = {"", Help.EXIT_CODES})
+final class StatsCommand implements Callable<Integer> {
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "MAP", description = "Map file (TIFF or CSV, with optional sidecar).")
+    Path input;
+
+    @Option(names = "--page", paramLabel = "<n>", defaultValue = "1", description = "Page of a multi-page TIFF.")
+    int page;
+
+    @Option(names = "--threshold", paramLabel = "<value>",
+            description = "Threshold in the map's unit for area fractions and flagged regions. Default: none.")
+    Double threshold;
+
+    @Option(names = "--flag", paramLabel = "above|below",
+            description = "Which side of the threshold is flagged. Default: below for lifetimes, above for"
+                    + " densities.")
+    String flag;
+
+    @Option(names = "--min-area-mm2", paramLabel = "<mm²>", defaultValue = "0",
+            description = "Smallest flagged region reported, mm². Default: 0.")
+    double minAreaMm2;
+
+    @Option(names = "--edge-exclusion-mm", paramLabel = "<mm>", defaultValue = "0",
+            description = "Band along the wafer edge left out, mm. Default: 0.")
+    double edgeExclusionMm;
+
+    @Option(names = "--wafer", paramLabel = "<format>",
+            description = "Wafer outline: a standard format id (round-150-flat, round-300-notch, m2, m10, g12,"
+                    + " square-156.75, ...). Default: fitted to the map's data.")
+    String wafer;
+
+    @Option(names = "--defect", paramLabel = "<id>",
+            description = "Convert the map to this defect's trap density first. Default: summarise as read.")
+    String defect;
+
+    @Option(names = "--defect-file", paramLabel = "<file.json>", description = Help.DEFECT_FILE)
+    Path defectFile;
+
+    @Option(names = "--json", description = "Print one JSON object.")
+    boolean json;
+
+    @Mixin
+    MapConditionOptions conditions;
+
+    @Override
+    public Integer call() throws MapFormatException {
+        if (!(edgeExclusionMm >= 0 && edgeExclusionMm <= 50)) {
+            throw new InputException("--edge-exclusion-mm must be in [0, 50] mm (got " + edgeExclusionMm + ")");
+        }
+        if (!(minAreaMm2 >= 0) || Double.isInfinite(minAreaMm2)) {
+            throw new InputException("--min-area-mm2 must be >= 0 mm² (got " + minAreaMm2 + ")");
+        }
+        if (threshold != null && !Double.isFinite(threshold)) {
+            throw new InputException("--threshold must be a finite number in the map's unit");
+        }
+        WaferMap map = MapInput.page(input, page);
+        if (defect != null) {
+            Defect d = DefectCatalog.load(defectFile).find(defect);
+            WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
+            map = MapConversion.convert(withConditions, d, conditions.settings()).get(Quantity.TRAP_DENSITY);
+        }
+        Map<String, Object> outline = new LinkedHashMap<>();
+        WaferShape shape = shape(map, outline);
+        Mask valid = Mask.valid(map.raster());
+        Mask mask = shape == null ? valid : valid.and(shape.mask(map.grid(), edgeExclusionMm));
+        StatisticsRequest request = threshold == null
+                ? StatisticsRequest.of(new double[] {5, 95})
+                : StatisticsRequest.of(new double[] {5, 95}, threshold);
+        MapStatistics s = MapStatistics.of(map, mask, request);
+
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("file", input.toString());
+        m.put("quantity", map.quantity().key());
+        m.put("unit", map.quantity().unit());
+        m.put("edge_exclusion_mm", edgeExclusionMm);
+        m.put("outline", outline);
+        m.put("count", s.count());
+        m.put("area_mm2", Output.num(s.areaMm2()));
+        m.put("mean", Output.num(s.mean()));
+        m.put("harmonic_mean", Output.num(s.harmonicMean()));
+        m.put("geometric_mean", Output.num(s.geometricMean()));
+        m.put("median", Output.num(s.median()));
+        m.put("p5", Output.num(s.percentiles().get(0).value()));
+        m.put("p95", Output.num(s.percentiles().get(1).value()));
+        m.put("min", Output.num(s.min()));
+        m.put("max", Output.num(s.max()));
+        m.put("std", Output.num(s.standardDeviation()));
+        m.put("non_positive_count", s.nonPositiveCount());
+        if (threshold != null) {
+            RegionCriteria.Side side = side(map.quantity());
+            MapStatistics.AreaFraction f = s.areaFraction(threshold);
+            Map<String, Object> t = new LinkedHashMap<>();
+            t.put("value", threshold);
+            t.put("flagged_side", side.name().toLowerCase(Locale.ROOT));
+            t.put("fraction_below", Output.num(f.fractionBelow()));
+            t.put("fraction_above", Output.num(f.fractionAbove()));
+            t.put("area_below_mm2", Output.num(f.areaBelowMm2()));
+            t.put("area_above_mm2", Output.num(f.areaAboveMm2()));
+            t.put("flagged_fraction", Output.num(side == RegionCriteria.Side.ABOVE ? f.fractionAbove()
+                    : f.fractionBelow()));
+            m.put("threshold", t);
+            RegionTable regions = ThresholdRegions.find(map, mask, new RegionCriteria(threshold, side, minAreaMm2),
+                    shape);
+            m.put("regions", regionRows(regions));
+        }
+        print(m);
+        return Exit.OK;
+    }
+
+    private WaferShape shape(WaferMap map, Map<String, Object> outline) {
+        if (wafer != null) {
+            WaferFormat f;
+            try {
+                f = WaferFormat.byId(wafer);
+            } catch (IllegalArgumentException e) {
+                throw new InputException("--wafer '" + wafer + "' is not a known format (" + String.join(", ",
+                        WaferFormat.ids()) + ")");
+            }
+            outline.put("source", "format");
+            outline.put("format", f.id());
+            return f.shape();
+        }
+        try {
+            OutlineFit fit = OutlineDetection.fit(map.raster(), map.grid());
+            outline.put("source", "fitted");
+            outline.put("model", fit.model().name().toLowerCase(Locale.ROOT));
+            outline.put("description", fit.shape().describe());
+            outline.put("rms_residual_mm", Output.num(fit.quality().rmsResidualMm()));
+            outline.put("closest_format", fit.closestFormat() == null ? null : fit.closestFormat().format().id());
+            return fit.shape();
+        } catch (RuntimeException e) {
+            if (edgeExclusionMm > 0) {
+                throw new InputException("--edge-exclusion-mm needs the wafer outline, which could not be fitted to "
+                        + input + " (" + Flags.oneLine(e.getMessage()) + "); give --wafer <format>");
+            }
+            outline.put("source", "none");
+            outline.put("note", "outline not fitted: " + Flags.oneLine(e.getMessage()));
+            return null;
+        }
+    }
+
+    private RegionCriteria.Side side(Quantity q) {
+        if (flag != null) {
+            switch (flag.trim().toLowerCase(Locale.ROOT)) {
+                case "above": return RegionCriteria.Side.ABOVE;
+                case "below": return RegionCriteria.Side.BELOW;
+                default: throw new InputException("--flag must be above or below (got '" + flag + "')");
+            }
+        }
+        return Improvement.forQuantity(q).map(i -> i == Improvement.HIGHER_IS_BETTER ? RegionCriteria.Side.BELOW
+                : RegionCriteria.Side.ABOVE).orElseThrow(() -> new InputException("--flag above|below is needed:"
+                        + " a " + q.key() + " map has no preferred direction"));
+    }
+
+    private static List<Map<String, Object>> regionRows(RegionTable table) {
+        List<Region> sorted = new ArrayList<>(table.regions());
+        sorted.sort((a, b) -> Double.compare(b.areaMm2(), a.areaMm2()));
+        List<Map<String, Object>> rows = new ArrayList<>();
+        for (Region r : sorted) {
+            Map<String, Object> row = new LinkedHashMap<>();
+            row.put("id", r.id());
+            row.put("area_mm2", r.areaMm2());
+            row.put("pixels", r.pixelCount());
+            row.put("centroid_x_mm", r.centroidXMm());
+            row.put("centroid_y_mm", r.centroidYMm());
+            row.put("min_x_mm", r.bounds().minXMm());
+            row.put("min_y_mm", r.bounds().minYMm());
+            row.put("max_x_mm", r.bounds().maxXMm());
+            row.put("max_y_mm", r.bounds().maxYMm());
+            row.put("peak", Output.num(r.peakValue()));
+            row.put("peak_x_mm", r.peakXMm());
+            row.put("peak_y_mm", r.peakYMm());
+            row.put("mean", Output.num(r.meanValue()));
+            row.put("edge_distance_mm", Output.num(r.edgeDistanceMm()));
+            rows.add(row);
+        }
+        return rows;
+    }
+
+    @SuppressWarnings("unchecked")
+    private void print(Map<String, Object> m) {
+        PrintWriter out = spec.commandLine().getOut();
+        if (json) {
+            out.println(Output.json(m));
+            out.flush();
+            return;
+        }
+        String unit = (String) m.get("unit");
+        Output.Table t = new Output.Table();
+        t.row("map", m.get("file") + " (" + m.get("quantity") + ")", "");
+        Map<String, Object> outline = (Map<String, Object>) m.get("outline");
+        t.row("wafer outline", String.valueOf(outline.getOrDefault("description", outline.getOrDefault("format",
+                outline.get("source")))), "");
+        t.number(m, "count", "pixels", "", null);
+        t.number(m, "area_mm2", "area", "mm²", null);
+        t.number(m, "mean", "mean", unit, "n/a");
+        t.number(m, "harmonic_mean", "harmonic mean", unit, "n/a");
+        t.number(m, "geometric_mean", "geometric mean", unit, "n/a");
+        t.number(m, "median", "median", unit, "n/a");
+        t.number(m, "p5", "5th percentile", unit, "n/a");
+        t.number(m, "p95", "95th percentile", unit, "n/a");
+        t.number(m, "min", "min", unit, "n/a");
+        t.number(m, "max", "max", unit, "n/a");
+        t.number(m, "std", "standard deviation", unit, "n/a");
+        if (m.containsKey("threshold")) {
+            Map<String, Object> th = (Map<String, Object>) m.get("threshold");
+            t.number(th, "flagged_fraction", "flagged fraction (" + th.get("flagged_side") + " "
+                    + Format.number((Double) th.get("value")) + " " + unit + ")", "", "n/a");
+            List<Map<String, Object>> regions = (List<Map<String, Object>>) m.get("regions");
+            t.row("flagged regions", Integer.toString(regions.size()), "");
+            int shown = 0;
+            for (Map<String, Object> r : regions) {
+                if (shown++ == 10) {
+                    t.note("  … " + (regions.size() - 10) + " more (use --json for all)");
+                    break;
+                }
+                t.note(String.format(Locale.ROOT, "  #%-3s %9s mm² at (%s, %s) mm, peak %s %s, %s mm from edge",
+                        r.get("id"), Format.number((Double) r.get("area_mm2")),
+                        Format.number((Double) r.get("centroid_x_mm")), Format.number((Double) r.get("centroid_y_mm")),
+                        r.get("peak") == null ? "n/a" : Format.number((Double) r.get("peak")), unit,
+                        r.get("edge_distance_mm") == null ? "n/a" : Format.number((Double) r.get("edge_distance_mm"))));
+            }
+        }
+        out.print(t.render());
+        out.flush();
+    }
+}

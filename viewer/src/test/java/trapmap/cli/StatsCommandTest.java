@@ -1,0 +1,93 @@
+package trapmap.cli;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import java.nio.file.Path;
+import org.apache.commons.math3.stat.descriptive.DescriptiveStatistics;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import trapmap.maps.io.MapFiles;
+import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.model.Provenance;
+import trapmap.maps.model.Quantity;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.PixelGrid;
+
+class StatsCommandTest {
+    private static final int N = 201;
+    private static final double PITCH_MM = 0.5;
+
+    @TempDir
+    Path dir;
+
+    /** A 100 mm round wafer at 0.5 mm pitch: 80 µs with a 5 mm radius spot of 4 µs centred at (20, −10) mm. */
+    private Path wafer() throws Exception {
+        float[] s = new float[N * N];
+        PixelGrid g = PixelGrid.centred(N, N, PITCH_MM);
+        for (int y = 0; y < N; y++) {
+            for (int x = 0; x < N; x++) {
+                double xm = g.xMm(x);
+                double ym = g.yMm(y);
+                double v = Math.hypot(xm, ym) > 50 ? Float.NaN : Math.hypot(xm - 20, ym + 10) <= 5 ? 4 : 80;
+                s[y * N + x] = (float) v;
+            }
+        }
+        WaferMap m = new WaferMap(FloatRaster.wrap(N, N, s), g, Quantity.EFFECTIVE_LIFETIME, "round",
+                MeasurementConditions.UNKNOWN, Provenance.of("test"));
+        Path f = dir.resolve("round.tif");
+        MapFiles.write(m, f);
+        return f;
+    }
+
+    @Test
+    void statisticsAgreeWithCommonsMathAndTheSpotIsLocated() throws Exception {
+        Path f = wafer();
+        JsonNode j = Cli.json("stats", f.toString(), "--threshold", "10", "--json");
+        DescriptiveStatistics ref = new DescriptiveStatistics();
+        for (float v : MapFiles.readSingle(f).raster().samples()) {
+            if (!Float.isNaN(v)) {
+                ref.addValue(v);
+            }
+        }
+        assertThat(j.get("count").asInt()).isEqualTo((int) ref.getN());
+        assertThat(j.get("mean").asDouble()).isCloseTo(ref.getMean(), within(1e-9));
+        assertThat(j.get("std").asDouble()).isCloseTo(ref.getStandardDeviation(), within(1e-9));
+        assertThat(j.get("geometric_mean").asDouble()).isCloseTo(ref.getGeometricMean(), within(1e-9));
+        double harmonic = ref.getN() / java.util.Arrays.stream(ref.getValues()).map(v -> 1 / v).sum();
+        assertThat(j.get("harmonic_mean").asDouble()).isCloseTo(harmonic, within(1e-9));
+        assertThat(j.get("outline").get("source").asText()).isEqualTo("fitted");
+        JsonNode regions = j.get("regions");
+        assertThat(regions).hasSize(1);
+        assertThat(regions.get(0).get("centroid_x_mm").asDouble()).isCloseTo(20, within(0.25));
+        assertThat(regions.get(0).get("centroid_y_mm").asDouble()).isCloseTo(-10, within(0.25));
+        assertThat(regions.get(0).get("area_mm2").asDouble()).isCloseTo(Math.PI * 25, within(3.0));
+        assertThat(regions.get(0).get("edge_distance_mm").asDouble()).isCloseTo(50 - Math.hypot(20, 10) - 5,
+                within(1.0));
+        assertThat(j.get("threshold").get("flagged_fraction").asDouble())
+                .isCloseTo(regions.get(0).get("pixels").asDouble() / j.get("count").asDouble(), within(1e-12));
+    }
+
+    @Test
+    void edgeExclusionShrinksTheCountedArea() throws Exception {
+        Path f = wafer();
+        JsonNode all = Cli.json("stats", f.toString(), "--json");
+        JsonNode inner = Cli.json("stats", f.toString(), "--edge-exclusion-mm", "5", "--json");
+        double expected = Math.PI * 45 * 45 / (Math.PI * 50 * 50);
+        assertThat(inner.get("area_mm2").asDouble() / all.get("area_mm2").asDouble()).isCloseTo(expected,
+                within(0.02));
+    }
+
+    @Test
+    void badOptionsGiveOneLine() throws Exception {
+        Path f = wafer();
+        Cli.Run r = Cli.run("stats", f.toString(), "--edge-exclusion-mm", "-1");
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.errLines()).hasSize(1).first().asString().contains("--edge-exclusion-mm");
+        Cli.Run w = Cli.run("stats", f.toString(), "--wafer", "round-99");
+        assertThat(w.code()).isEqualTo(2);
+        assertThat(w.errLines()).hasSize(1).first().asString().contains("--wafer");
+    }
+}
