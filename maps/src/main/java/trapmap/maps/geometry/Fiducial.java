@@ -1,6 +1,7 @@
 package trapmap.maps.geometry;
 
 import trapmap.shared.check.Checks;
+import trapmap.shared.error.InvalidValueException;
 
 /**
  * The orientation mark on the rim of a round wafer: none, a primary flat or a V-shaped notch. Dimensions only; where
@@ -57,7 +58,7 @@ public sealed interface Fiducial permits Fiducial.None, Fiducial.Flat, Fiducial.
         public Notch {
             Checks.positive(depthMm, "notchDepth", "mm");
             if (!(openingAngleDeg > 0 && openingAngleDeg < 180)) {
-                throw new trapmap.shared.error.InvalidValueException("notchAngle", "deg",
+                throw new InvalidValueException("notchAngle", "deg",
                         "notchAngle must be in (0, 180) deg but was " + openingAngleDeg);
             }
         }

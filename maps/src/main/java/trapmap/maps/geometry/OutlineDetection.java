@@ -13,6 +13,7 @@ import org.apache.commons.math3.linear.QRDecomposition;
 import org.apache.commons.math3.linear.RealMatrix;
 import org.apache.commons.math3.linear.RealVector;
 import org.apache.commons.math3.util.Pair;
+import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
@@ -50,6 +51,12 @@ public final class OutlineDetection {
     private OutlineDetection() {
     }
 
+    /** The outline of the valid pixels of a map, in its grid's wafer coordinates. */
+    public static OutlineFit fit(WaferMap map) {
+        Checks.notNull(map, "map");
+        return fit(map.raster(), map.grid());
+    }
+
     /**
      * The outline of the valid pixels of {@code raster}.
      *
@@ -70,8 +77,8 @@ public final class OutlineDetection {
         Mask filled = DataOutline.filled(valid);
         double[][] pts = DataOutline.edgePointsMm(filled, grid);
         if (pts[0].length < MIN_EDGE_POINTS) {
-            throw new IllegalArgumentException("too little valid data to fit a wafer outline: " + pts[0].length
-                    + " edge points (need " + MIN_EDGE_POINTS + ")");
+            throw new IllegalArgumentException("the wafer outline is not visible in the map: only " + pts[0].length
+                    + " edge points between valid and missing data (need " + MIN_EDGE_POINTS + ")");
         }
         double pitch = grid.pitchMm();
 

@@ -179,6 +179,6 @@ class OutlineDetectionTest {
         FloatRaster r = FloatRaster.filled(5, 5, Float.NaN);
         r.samples()[12] = 1;
         assertThatThrownBy(() -> OutlineDetection.fit(r, grid)).isInstanceOf(IllegalArgumentException.class)
-                .hasMessageContaining("edge points");
+                .hasMessageContaining("edge points").hasMessageContaining("not visible");
     }
 }

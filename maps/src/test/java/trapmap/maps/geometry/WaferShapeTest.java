@@ -30,13 +30,14 @@ class WaferShapeTest {
     /** Outline by bisection of {@link WaferShape#contains} along rays from the centre (all shapes are star-shaped). */
     private static double[][] sampledOutline(WaferShape s, int n) {
         double[][] pts = new double[2][n];
+        WaferShape.Prepared p = s.prepared();
         for (int k = 0; k < n; k++) {
             double t = 2 * Math.PI * k / n;
             double lo = 0;
             double hi = s.boundingRadiusMm() * 1.01;
             for (int it = 0; it < 60; it++) {
                 double mid = (lo + hi) / 2;
-                if (s.contains(s.centreXMm() + mid * Math.cos(t), s.centreYMm() + mid * Math.sin(t))) {
+                if (p.contains(s.centreXMm() + mid * Math.cos(t), s.centreYMm() + mid * Math.sin(t))) {
                     lo = mid;
                 } else {
                     hi = mid;
