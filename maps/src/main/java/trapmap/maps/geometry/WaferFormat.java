@@ -11,14 +11,13 @@ import trapmap.shared.check.Checks;
  * <p>Sources (each format names its own in {@link #source()}):
  * <ul>
  *   <li>Round IC wafers: SEMI M1 (Specification for polished single crystal silicon wafers). Diameters, their
- *       tolerances and the primary-flat lengths of 100, 125 and 150 mm were checked against two public tabulations of
- *       SEMI M1: the "silicon wafer flats" specification table of siliconwafer.org and the flat table of the GDWCalc
- *       die-per-wafer tool (which cites SEMI M1-0302). The 200 mm flat length (57.5 mm) and the notch geometry
+ *       tolerances and the primary-flat lengths of 100, 125 and 150 mm were checked against two independent public
+ *       tabulations of SEMI M1 (one citing SEMI M1-0302). The 200 mm flat length (57.5 mm) and the notch geometry
  *       (depth 1.00 +0.25/−0.00 mm, opening angle 90° +5°/−1°) are from memory; the SEMI text itself could not be
  *       consulted.</li>
- *   <li>Solar wafers: sides and pseudo-square diameters as tabulated in public trade overviews (pv-manufacturing.org
- *       "wafer sizes" for M0/M2; a format table of tamrons.com for M2, G1, M6 and G12 with their areas; TaiyangNews
- *       on the 182 mm M10 proposal of 2020). M10's 247 mm diameter and all solar tolerances (±0.25 mm, quoted for
+ *   <li>Solar wafers: sides and pseudo-square diameters as tabulated in public educational and trade overviews of
+ *       wafer formats (M0/M2; M2, G1, M6 and G12 with their areas; the 182 mm M10 proposal of 2020). M10's 247 mm
+ *       diameter and all solar tolerances (±0.25 mm, quoted for
  *       G12 in the 2020 210 mm proposal) are from memory or common practice; SEMI PV22 itself could not be
  *       consulted.</li>
  * </ul>
@@ -59,13 +58,13 @@ public enum WaferFormat {
     }
 
     private static final class Src {
-        static final String M1 = "SEMI M1 (via public tabulations: siliconwafer.org flats table; GDWCalc, SEMI M1-0302)";
-        static final String M1_MEMORY_FLAT = "SEMI M1 diameter (via siliconwafer.org); flat length from memory";
-        static final String M1_MEMORY_NOTCH = "SEMI M1 diameter (via siliconwafer.org); notch depth and angle from"
+        static final String M1 = "SEMI M1 (via two public tabulations, one citing SEMI M1-0302)";
+        static final String M1_MEMORY_FLAT = "SEMI M1 diameter (via a public tabulation); flat length from memory";
+        static final String M1_MEMORY_NOTCH = "SEMI M1 diameter (via a public tabulation); notch depth and angle from"
                 + " memory";
-        static final String TRADE = "trade format tables (pv-manufacturing.org, tamrons.com); tolerances from"
+        static final String TRADE = "public wafer-format tables (educational and trade overviews); tolerances from"
                 + " memory; SEMI PV22 not consulted";
-        static final String TRADE_M10 = "side: TaiyangNews (2020 M10 proposal); Ø247 mm and tolerances from memory;"
+        static final String TRADE_M10 = "side: trade press on the 2020 M10 proposal; Ø247 mm and tolerances from memory;"
                 + " SEMI PV22 not consulted";
         static final String SQUARE = "side as the pseudo-square format of the same size; sharp corners; tolerance"
                 + " from memory";

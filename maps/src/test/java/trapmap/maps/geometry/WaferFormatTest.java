@@ -11,8 +11,8 @@ import org.junit.jupiter.api.Test;
 class WaferFormatTest {
 
     /*
-     * SEMI M1 round wafers. Diameters with tolerances and the 100/125/150 mm flat lengths: SEMI M1 as tabulated on
-     * siliconwafer.org ("silicon wafer flats") and in the GDWCalc tool (citing SEMI M1-0302). The 200 mm flat and
+     * SEMI M1 round wafers. Diameters with tolerances and the 100/125/150 mm flat lengths: SEMI M1 as tabulated in
+     * two independent public summaries (one citing SEMI M1-0302). The 200 mm flat and
      * the notch (depth 1.00 +0.25/−0.00 mm, angle 90° +5°/−1°): from memory.
      */
     @ParameterizedTest
@@ -51,8 +51,8 @@ class WaferFormatTest {
     }
 
     /*
-     * Solar formats: side and pseudo-square diameter from public trade tables (pv-manufacturing.org "wafer sizes"
-     * for M0/M2; tamrons.com format table for M2, G1, M6, G12; TaiyangNews for the 182 mm M10 side). M10's 247 mm
+     * Solar formats: side and pseudo-square diameter from public wafer-format tables (an educational overview for
+     * M0/M2; a trade format table for M2, G1, M6, G12; trade press for the 182 mm M10 side). M10's 247 mm
      * diameter: from memory (common practice). SEMI PV22 itself was not consulted.
      */
     @ParameterizedTest
@@ -73,7 +73,7 @@ class WaferFormatTest {
     }
 
     /*
-     * Wafer areas: G1 25 199, M6 27 415 and G12 44 096 mm² from the tamrons.com trade table; M10 330.15 cm² from
+     * Wafer areas: G1 25 199, M6 27 415 and G12 44 096 mm² from a public trade format table; M10 330.15 cm² from
      * memory. These are areas of the square-and-circle intersection, so they check the geometry as well.
      */
     @ParameterizedTest
