@@ -49,7 +49,8 @@ import trapmap.shared.units.LifetimeUnit;
  *       commas, semicolons (then a decimal comma is accepted), tabs or runs of spaces; an empty cell or
  *       {@code NaN} means no data.</li>
  * </ul>
- * Comment lines start with {@code #}. Those before the first data line may carry metadata as {@code # key=value}:
+ * Fields may be enclosed in double quotes, which are removed; a field cannot hold the delimiter or a line break, so
+ * every record is one line (at most {@link #MAX_LINE_CHARS} characters). Comment lines start with {@code #}. Those before the first data line may carry metadata as {@code # key=value}:
  * every top-level scalar field of the sidecar schema ({@code unit}, {@code quantity}, {@code wafer_id},
  * {@code pixel_pitch_mm}, {@code centre_x_px}, ...), every field of its {@code conditions} ({@code doping=p:1e16},
  * {@code thickness_um=180}, ...), and for point lists {@code width} and {@code height} (pixels; with the centre and
@@ -84,7 +85,7 @@ final class CsvMaps {
             List<String> comments = new ArrayList<>();
             String first = null;
             int consumed = 0;
-            for (String line = in.readLine(); line != null; line = in.readLine()) {
+            for (String line = readLine(in, name, 1); line != null; line = readLine(in, name, consumed + 2)) {
                 consumed++;
                 String t = stripBom(line, consumed).trim();
                 if (t.isEmpty() || t.startsWith("#")) {
@@ -102,13 +103,15 @@ final class CsvMaps {
             Sidecar meta = sidecar == null ? header.meta : header.meta.overriddenBy(sidecar);
             char delimiter = delimiter(first);
             boolean pointList = isHeader(split(first, delimiter), delimiter);
-            Reader rest = new ConcatReader(new StringReader(first + "\n"), in);
+            Reader rest = new LineLimitReader(new ConcatReader(new StringReader(first + "\n"), in), offset);
             if (delimiter == ' ') {
                 rest = new WhitespaceReader(rest);
                 delimiter = '\t';
             }
+            // No quote handling: a record is one line, so the line limit bounds every record (quotes are stripped
+            // from single fields below).
             CSVFormat format = CSVFormat.DEFAULT.builder().setDelimiter(delimiter).setCommentMarker('#')
-                    .setIgnoreEmptyLines(true).setIgnoreSurroundingSpaces(true).setTrim(true).get();
+                    .setQuote(null).setIgnoreEmptyLines(true).setIgnoreSurroundingSpaces(true).setTrim(true).get();
             try (CSVParser parser = CSVParser.parse(rest, format)) {
                 return pointList
                         ? points(parser, offset, name, source, header, meta, sidecar, options, delimiter)
@@ -122,10 +125,55 @@ final class CsvMaps {
             if (e.getCause() instanceof CharacterCodingException c) {
                 throw new MapFormatException(name, null, "is not UTF-8 text", "", c);
             }
+            if (e.getCause() instanceof LineTooLong t) {
+                throw tooLong(name, t.line);
+            }
             throw new MapFormatException(name, null, "cannot be read as CSV (" + e.getMessage() + ")", "", e);
         } catch (IOException e) {
             throw new MapFormatException(name, null, "cannot be read (" + e.getMessage() + ")", "", e);
         }
+    }
+
+    /** Longest line accepted, characters: far beyond any row of a map, small enough to hold safely. */
+    static final int MAX_LINE_CHARS = 4 << 20;
+
+    /** Signals a line beyond {@link #MAX_LINE_CHARS}. */
+    private static final class LineTooLong extends IOException {
+        private static final long serialVersionUID = 1L;
+        final long line;
+
+        LineTooLong(long line) {
+            super("line " + line + " is longer than " + MAX_LINE_CHARS + " characters");
+            this.line = line;
+        }
+    }
+
+    private static MapFormatException tooLong(String name, long line) {
+        return new MapFormatException(name, "line " + line, "is longer than " + MAX_LINE_CHARS + " characters; this"
+                + " is not a map in CSV form");
+    }
+
+    /** The next line without its terminator, or null at the end; refuses lines beyond {@link #MAX_LINE_CHARS}. */
+    private static String readLine(BufferedReader in, String name, int lineNumber) throws IOException {
+        StringBuilder b = new StringBuilder();
+        int c = in.read();
+        if (c < 0) {
+            return null;
+        }
+        while (c >= 0 && c != '\n' && c != '\r') {
+            if (b.length() >= MAX_LINE_CHARS) {
+                throw tooLong(name, lineNumber);
+            }
+            b.append((char) c);
+            c = in.read();
+        }
+        if (c == '\r') {
+            in.mark(1);
+            if (in.read() != '\n') {
+                in.reset();
+            }
+        }
+        return b.toString();
     }
 
     private static String stripBom(String line, int lineNumber) {
@@ -704,6 +752,9 @@ final class CsvMaps {
         if (cause instanceof CharacterCodingException) {
             return new MapFormatException(name, null, "is not UTF-8 text", "", e);
         }
+        if (cause instanceof LineTooLong t) {
+            return tooLong(name, t.line);
+        }
         String m = cause.getMessage() == null ? cause.getClass().getSimpleName() : cause.getMessage();
         return new MapFormatException(name, "line " + (offset + parser.getCurrentLineNumber() + 1),
                 "malformed CSV (" + abbreviate(MapFormatException.oneLine(m)) + ")", "", e);
@@ -896,6 +947,40 @@ final class CsvMaps {
         public void close() throws IOException {
             first.close();
             second.close();
+        }
+    }
+
+    /** Refuses lines longer than {@link #MAX_LINE_CHARS}, counting lines after {@code offset} earlier ones. */
+    private static final class LineLimitReader extends Reader {
+        private final Reader in;
+        private long line;
+        private int length;
+        private boolean afterCr;
+
+        LineLimitReader(Reader in, int offset) {
+            this.in = in;
+            this.line = offset + 1;
+        }
+
+        @Override
+        public int read(char[] buf, int off, int len) throws IOException {
+            int n = in.read(buf, off, len);
+            for (int i = off; i < off + Math.max(n, 0); i++) {
+                char c = buf[i];
+                if (c == '\r' || (c == '\n' && !afterCr)) {
+                    line++;
+                    length = 0;
+                } else if (c != '\n' && ++length > MAX_LINE_CHARS) {
+                    throw new LineTooLong(line);
+                }
+                afterCr = c == '\r';
+            }
+            return n;
+        }
+
+        @Override
+        public void close() throws IOException {
+            in.close();
         }
     }
 

@@ -103,9 +103,8 @@ final class MapBuilder {
         }
 
         String unitOrigin = sidecar != null && sidecar.unit() != null ? sidecarName : name;
-        String quantityOrigin = sidecar != null && sidecar.quantity() != null ? sidecarName : name;
         Quantity quantity = meta.quantity();
-        String unit = meta.unit() == null || meta.unit().isBlank() && meta.quantity() == null ? null : meta.unit();
+        String unit = meta.unit() == null || (meta.unit().isBlank() && meta.quantity() == null) ? null : meta.unit();
         if (quantity == null && unit != null) {
             quantity = quantityOfUnit(unit, unitOrigin);
         }

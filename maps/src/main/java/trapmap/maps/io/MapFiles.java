@@ -20,8 +20,12 @@ import trapmap.maps.model.WaferMap;
  *       sidecar's {@code scale}/{@code offset} or, without them, read as PL counts. Writes 32-bit float with all the
  *       map's metadata embedded, so that a written map reads back equal (samples bit for bit, grid, quantity, wafer
  *       id, conditions and provenance).</li>
- *   <li>{@code .csv} (also {@code .txt}, {@code .tsv}) — point lists {@code x_mm,y_mm,value} or plain grids of
- *       numbers, read; point lists written (see {@link CsvMaps}).</li>
+ *   <li>{@code .csv} (also {@code .txt}, {@code .tsv}) — read: point lists with a header {@code x_mm,y_mm,value}
+ *       (the points must lie on a regular grid, whose pitch is inferred, unless
+ *       {@link ReadOptions#csvResampling()} is on) or plain grids of numbers (one image row per line, separated by
+ *       commas, semicolons, tabs or spaces; empty or {@code NaN} = no data); {@code # key=value} comment lines
+ *       before the data may carry the sidecar's fields. Written: point lists of the valid pixels under comment
+ *       lines with quantity, unit, pitch, centre, size and conditions.</li>
  *   <li>{@code .png} — written only: an 8-bit picture of the map, not quantitative (see {@link PngStyle}).</li>
  * </ul>
  * A sidecar {@code <name>.json} beside a map is read with it (schema in {@link Sidecar}). Lifetime maps are

@@ -24,6 +24,10 @@ final class TiffHeader {
     static final int MAX_PAGES = 4096;
     /** Most entries in one IFD. */
     static final int MAX_ENTRIES = 4096;
+    /** Most strips or tiles of one image. */
+    static final int MAX_BLOCKS = 1 << 20;
+    /** Longest ImageDescription read, bytes. */
+    static final int MAX_DESCRIPTION_BYTES = 16 << 20;
 
     static final int NEW_SUBFILE_TYPE = 254;
     static final int IMAGE_WIDTH = 256;
@@ -382,6 +386,7 @@ final class TiffHeader {
         if (counts == null) {
             throw new MapFormatException(file, where, tagName(STRIP_BYTE_COUNTS) + " is missing");
         }
+        checkBlockCount("strips", strips, offsets, where);
         long[] off = values(offsets, strips, where);
         long[] cnt = values(counts, strips, where);
         long rowBytes = (long) w * type.bytes;
@@ -408,10 +413,18 @@ final class TiffHeader {
             throw new MapFormatException(file, where, tagName(offsets == null ? TILE_OFFSETS : TILE_BYTE_COUNTS)
                     + " is missing");
         }
+        checkBlockCount("tiles", tiles, offsets, where);
         long[] off = values(offsets, tiles, where);
         long[] cnt = values(counts, tiles, where);
         for (int i = 0; i < tiles; i++) {
             checkBlock("tile", i, off[i], cnt[i], tw * th * type.bytes, compression, offsets, where);
+        }
+    }
+
+    private void checkBlockCount(String what, long n, Entry tag, String where) throws MapFormatException {
+        if (n > MAX_BLOCKS) {
+            throw new MapFormatException(file, where + ", " + tagName(tag.tag) + " at byte " + tag.entryPos,
+                    "the image is split into " + n + " " + what + "; at most " + MAX_BLOCKS + " are supported");
         }
     }
 
@@ -497,8 +510,9 @@ final class TiffHeader {
         if (e == null || (e.type != 2 && e.type != 1 && e.type != 7) || e.count == 0) {
             return null;
         }
-        if (e.count > Integer.MAX_VALUE - 16) {
-            return null;
+        if (e.count > MAX_DESCRIPTION_BYTES) {
+            throw new MapFormatException(file, where + ", " + tagName(e.tag) + " at byte " + e.entryPos, "holds "
+                    + e.count + " bytes; at most " + MAX_DESCRIPTION_BYTES + " are read");
         }
         int len = (int) e.count;
         byte[] raw = read(len <= 4 ? e.valuePos : u32(read(e.valuePos, 4), 0), len);

@@ -312,10 +312,22 @@ class CsvMapsTest {
     }
 
     @Test
-    void unbalancedQuotesAreMalformed() throws Exception {
-        Path f = file("q.csv", "x,y,value\n0,0,\"1\n");
-        assertThatThrownBy(() -> MapFiles.read(f)).isInstanceOf(MapFormatException.class)
-                .hasMessageContaining("malformed CSV");
+    void quotedFieldsAreAcceptedAndStrayQuotesAreNoNumbers() throws Exception {
+        WaferMap m = MapFiles.readSingle(file("q.csv", "\"x_mm\",\"y_mm\",\"value\"\n\"0\",0,\"1.5\"\n"));
+        assertThat(m.raster().samples()).containsExactly(1.5f);
+        Path f = file("q2.csv", "x,y,value\n0,0,\"1\n1,0,2\n");
+        assertThatThrownBy(() -> MapFiles.read(f)).hasMessage(f + ": line 2: value '\"1' is not a number (µs)");
+    }
+
+    @Test
+    void overlongLinesAreRefusedWithoutReadingThemWhole() throws Exception {
+        String row = "1,".repeat(CsvMaps.MAX_LINE_CHARS / 2 + 10);
+        Path first = file("long1.csv", row + "\n");
+        assertThatThrownBy(() -> MapFiles.read(first)).hasMessage(first + ": line 1: is longer than "
+                + CsvMaps.MAX_LINE_CHARS + " characters; this is not a map in CSV form");
+        Path later = file("long2.csv", "# c\n1,2\n\n" + row + "\n");
+        assertThatThrownBy(() -> MapFiles.read(later)).hasMessage(later + ": line 4: is longer than "
+                + CsvMaps.MAX_LINE_CHARS + " characters; this is not a map in CSV form");
     }
 
     @Test
