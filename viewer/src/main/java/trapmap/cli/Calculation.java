@@ -1,12 +1,10 @@
 package trapmap.cli;
 
-import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
 import trapmap.physics.conversion.Conditions;
-import trapmap.physics.conversion.ConversionWarning;
 import trapmap.physics.conversion.Injection;
 import trapmap.physics.conversion.PixelResult;
 import trapmap.physics.conversion.PixelStatus;
@@ -100,14 +98,8 @@ final class Calculation {
         PixelResult r = converter.convert(q.lifetimeUs());
         SrhRecombination srh = converter.srh();
 
-        List<String> warnings = new ArrayList<>();
-        List<String> codes = new ArrayList<>();
-        for (ConversionWarning w : ConversionWarning.values()) {
-            if (r.warnings().contains(w)) {
-                warnings.add(w.message());
-                codes.add(w.name());
-            }
-        }
+        List<String> warnings = Output.warningMessages(r.warnings());
+        List<String> codes = Output.warningCodes(r.warnings());
 
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("status", r.status().name());

@@ -1,7 +1,6 @@
 package trapmap.cli;
 
 import java.io.PrintWriter;
-import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -10,7 +9,6 @@ import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
-import trapmap.physics.conversion.ConversionWarning;
 import trapmap.physics.conversion.Injection;
 import trapmap.physics.conversion.PixelStatus;
 import trapmap.physics.defect.Defect;
@@ -79,14 +77,8 @@ final class IronCommand implements Callable<Integer> {
         Defect feI = DefectLibrary.byId("fe-i");
         Defect feB = DefectLibrary.byId("fe-b");
 
-        List<String> warnings = new ArrayList<>();
-        List<String> codes = new ArrayList<>();
-        for (ConversionWarning w : ConversionWarning.values()) {
-            if (r.warnings().contains(w)) {
-                warnings.add(w.message());
-                codes.add(w.name());
-            }
-        }
+        List<String> warnings = Output.warningMessages(r.warnings());
+        List<String> codes = Output.warningCodes(r.warnings());
 
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("status", r.status().name());

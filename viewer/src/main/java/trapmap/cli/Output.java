@@ -7,12 +7,35 @@ import java.io.UncheckedIOException;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
+import trapmap.physics.conversion.ConversionWarning;
 
 /** JSON and aligned-text output. JSON never holds NaN or infinities: such values are written as {@code null}. */
 final class Output {
     private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
 
     private Output() {
+    }
+
+    /** The messages of {@code warnings}, in declaration order. */
+    static List<String> warningMessages(java.util.Set<ConversionWarning> warnings) {
+        List<String> out = new ArrayList<>();
+        for (ConversionWarning w : ConversionWarning.values()) {
+            if (warnings.contains(w)) {
+                out.add(w.message());
+            }
+        }
+        return out;
+    }
+
+    /** The codes (enum names) of {@code warnings}, in declaration order. */
+    static List<String> warningCodes(java.util.Set<ConversionWarning> warnings) {
+        List<String> out = new ArrayList<>();
+        for (ConversionWarning w : ConversionWarning.values()) {
+            if (warnings.contains(w)) {
+                out.add(w.name());
+            }
+        }
+        return out;
     }
 
     /** A finite number, or null for NaN and infinities (JSON has no representation for them). */

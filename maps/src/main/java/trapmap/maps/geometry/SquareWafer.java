@@ -76,16 +76,6 @@ public record SquareWafer(double sideMm, double diagonalMm, double rotationDeg, 
     }
 
     @Override
-    public boolean contains(double xMm, double yMm) {
-        return prepared().contains(xMm, yMm);
-    }
-
-    @Override
-    public double distanceToEdgeMm(double xMm, double yMm) {
-        return prepared().distanceToEdgeMm(xMm, yMm);
-    }
-
-    @Override
     public Prepared prepared() {
         return new Frame(this);
     }

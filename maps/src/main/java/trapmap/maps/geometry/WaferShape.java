@@ -12,13 +12,17 @@ import trapmap.shared.check.Checks;
 public sealed interface WaferShape permits RoundWafer, SquareWafer {
 
     /** True when the point lies inside the wafer or on its edge. */
-    boolean contains(double xMm, double yMm);
+    default boolean contains(double xMm, double yMm) {
+        return prepared().contains(xMm, yMm);
+    }
 
     /**
      * Euclidean distance from the point to the nearest point of the outline, mm: positive inside, negative outside,
      * zero on the edge. Exact for every shape here, including near a notch or a pseudo-square corner.
      */
-    double distanceToEdgeMm(double xMm, double yMm);
+    default double distanceToEdgeMm(double xMm, double yMm) {
+        return prepared().distanceToEdgeMm(xMm, yMm);
+    }
 
     /**
      * The same outline with its derived constants (rotation, fiducial geometry) computed once: use it in loops over

@@ -99,7 +99,7 @@ public final class DefectFiles {
             JsonNode node = entries.get(i);
             if (!node.isObject()) {
                 throw new DefectFileException(origin, null, "", where + ": must be a JSON object but is "
-                        + kind(node), null);
+                        + Sidecar.kind(node), null);
             }
             Defect d = build(JSON.convertValue(node, MAP), where, origin);
             if (isBuiltIn(d.id())) {
@@ -142,7 +142,7 @@ public final class DefectFiles {
             JsonNode arr = root.get("defects");
             if (!arr.isArray()) {
                 throw new DefectFileException(origin, "defects", "", origin + ": field 'defects' must be an array"
-                        + " of defect objects but is " + kind(arr), null);
+                        + " of defect objects but is " + Sidecar.kind(arr), null);
             }
             arr.forEach(list::add);
         } else if (root.isArray()) {
@@ -150,7 +150,8 @@ public final class DefectFiles {
         } else if (root.isObject()) {
             list.add(root);
         } else {
-            throw new DefectFileException(origin, null, "", origin + ": holds " + kind(root) + "; " + SHAPE, null);
+            throw new DefectFileException(origin, null, "", origin + ": holds " + Sidecar.kind(root) + "; " + SHAPE,
+                    null);
         }
         if (list.isEmpty()) {
             throw new DefectFileException(origin, null, "", origin + ": contains no defects; " + SHAPE, null);
@@ -179,25 +180,6 @@ public final class DefectFiles {
 
     private static boolean isBuiltIn(String id) {
         return DefectLibrary.all().stream().anyMatch(d -> d.id().equals(id));
-    }
-
-    private static String kind(JsonNode n) {
-        if (n.isArray()) {
-            return "an array";
-        }
-        if (n.isObject()) {
-            return "an object";
-        }
-        if (n.isNumber()) {
-            return "a number";
-        }
-        if (n.isTextual()) {
-            return "a text";
-        }
-        if (n.isBoolean()) {
-            return "a boolean";
-        }
-        return "null";
     }
 
     private static String oneLine(String s) {
