@@ -1,0 +1,82 @@
+package trapmap.cli;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.stream.Stream;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import trapmap.maps.demo.DemoScenario;
+import trapmap.maps.io.MapFiles;
+
+class DemoCommandTest {
+    @Test
+    void writesTheSetAndListsIt(@TempDir Path dir) throws IOException {
+        Path out = dir.resolve("demo");
+        Cli.Run r = Cli.run("demo", "--out", out.toString());
+        assertThat(r.err()).isEmpty();
+        assertThat(r.code()).isZero();
+        assertThat(r.out()).contains("truth.json").contains("README.md").contains("LOT-A01-W01.tif")
+                .contains("wrote 36 files");
+        assertThat(Files.exists(out.resolve(DemoScenario.TRUTH))).isTrue();
+        assertThat(MapFiles.readSingle(out.resolve("MON-200-W01.tif")).waferId()).isEqualTo("MON-200-W01");
+        try (Stream<Path> s = Files.list(out)) {
+            assertThat(s.filter(p -> p.getFileName().toString().endsWith(".tmp")).count()).isZero();
+        }
+    }
+
+    @Test
+    void runningTwiceGivesByteIdenticalFiles(@TempDir Path dir) throws IOException {
+        Path a = dir.resolve("a");
+        Path b = dir.resolve("b");
+        assertThat(Cli.run("demo", "--out", a.toString()).code()).isZero();
+        assertThat(Cli.run("demo", "--out", b.toString()).code()).isZero();
+        List<Path> files;
+        try (Stream<Path> s = Files.list(a)) {
+            files = s.sorted().toList();
+        }
+        assertThat(files).hasSize(36);
+        for (Path p : files) {
+            assertThat(Files.readAllBytes(b.resolve(p.getFileName()))).isEqualTo(Files.readAllBytes(p));
+        }
+    }
+
+    @Test
+    void refusesANonEmptyFolderWithoutForce(@TempDir Path dir) throws IOException {
+        Path keep = dir.resolve("notes.txt");
+        Files.writeString(keep, "mine");
+        Cli.Run r = Cli.run("demo", "--out", dir.toString());
+        assertThat(r.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(r.errLines()).hasSize(1);
+        assertThat(r.err()).contains("--out").contains("not empty").contains("--force");
+        try (Stream<Path> s = Files.list(dir)) {
+            assertThat(s.count()).isEqualTo(1);
+        }
+
+        Cli.Run forced = Cli.run("demo", "--out", dir.toString(), "--force");
+        assertThat(forced.code()).isZero();
+        assertThat(Files.readString(keep)).isEqualTo("mine");
+        assertThat(Files.exists(dir.resolve("README.md"))).isTrue();
+    }
+
+    @Test
+    void refusesAFileAsOutput(@TempDir Path dir) throws IOException {
+        Path file = dir.resolve("x.tif");
+        Files.writeString(file, "x");
+        Cli.Run r = Cli.run("demo", "--out", file.toString());
+        assertThat(r.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(r.errLines()).hasSize(1);
+        assertThat(r.err()).contains("is a file");
+    }
+
+    @Test
+    void missingOutIsAnInputError() {
+        Cli.Run r = Cli.run("demo");
+        assertThat(r.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(r.errLines()).hasSize(1);
+        assertThat(r.err()).contains("--out");
+    }
+}
