@@ -15,6 +15,7 @@ import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.io.MapFiles;
+import trapmap.maps.io.Sidecar;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
@@ -84,6 +85,18 @@ class DemoScenarioTest {
             }
             assertThat(m.raster().sameSamples(f.map().raster())).isTrue();
             assertThat(truth).containsKey(f.file());
+        }
+    }
+
+    @Test
+    void everySidecarAloneCarriesTheMapsConditions() throws IOException {
+        for (DemoFile f : DemoScenario.build()) {
+            Sidecar side = Sidecar.read(dir.resolve(f.stem() + ".json"));
+            assertThat(side.warnings()).as(f.file()).isEmpty();
+            assertThat(side.waferId()).isEqualTo(f.map().waferId());
+            assertThat(side.quantity()).isEqualTo(f.map().quantity());
+            assertThat(side.pixelPitchMm()).isEqualTo(f.map().grid().pitchMm());
+            assertThat(side.conditions()).isEqualTo(f.map().conditions());
         }
     }
 
