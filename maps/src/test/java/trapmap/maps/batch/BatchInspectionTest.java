@@ -298,4 +298,40 @@ class BatchInspectionTest {
                 "worst_region_y_mm", "worst_region_peak", "error");
         assertThat(Map.of()).isEmpty();
     }
+
+    @Test
+    void interruptingTheCallerCancelsAndLeavesThePartialTableForResume() throws Exception {
+        Path in = maps();
+        Path out = dir.resolve("out");
+        java.util.concurrent.CountDownLatch reading = new java.util.concurrent.CountDownLatch(1);
+        java.util.concurrent.CountDownLatch never = new java.util.concurrent.CountDownLatch(1);
+        BatchInspection b = new BatchInspection(rules(SPOT_RULES), f -> {
+            if (f.getFileName().toString().equals("w2.tif")) {
+                reading.countDown();
+                try {
+                    never.await();
+                } catch (InterruptedException e) {
+                    throw new java.io.InterruptedIOException("cancelled");
+                }
+            }
+            return MapFiles.readSingle(f);
+        });
+        java.util.concurrent.atomic.AtomicReference<Throwable> thrown = new java.util.concurrent.atomic.AtomicReference<>();
+        Thread t = new Thread(() -> {
+            try {
+                b.run(list(in), out, options(1, false));
+            } catch (Throwable e) {
+                thrown.set(e);
+            }
+        });
+        t.start();
+        reading.await();
+        t.interrupt();
+        t.join(10_000);
+        assertThat(t.isAlive()).isFalse();
+        assertThat(thrown.get()).isInstanceOf(InterruptedException.class);
+        assertThat(Files.exists(out.resolve(BatchInspection.CSV_NAME))).isFalse();
+        assertThat(csv(out.resolve(BatchInspection.PARTIAL_NAME))).extracting(r -> r.get("wafer_id"))
+                .containsExactly("w1");
+    }
 }
