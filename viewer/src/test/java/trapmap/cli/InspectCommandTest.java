@@ -139,6 +139,7 @@ class InspectCommandTest {
                 "--out", out);
         assertThat(missingRules.code()).isEqualTo(2);
         assertThat(missingRules.errLines()).hasSize(1);
+        assertThat(missingRules.err()).contains("none.json: no such rules file");
 
         Cli.Run threads = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out", out,
                 "--threads", "0");

@@ -143,8 +143,10 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         String text;
         try {
             text = Files.readString(file);
+        } catch (java.nio.file.NoSuchFileException e) {
+            throw new RulesException(name + ": no such rules file");
         } catch (IOException e) {
-            throw new RulesException(name + ": cannot read the rules file (" + e.getMessage() + ")");
+            throw new RulesException(name + ": cannot read the rules file (" + e + ")");
         }
         return parse(text, name);
     }
