@@ -19,6 +19,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.geometry.OutlineDetection;
 import trapmap.maps.io.MapFiles;
+import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.stats.MapStatistics;
@@ -216,6 +217,15 @@ class BatchInspectionTest {
         double clean = Double.parseDouble(rows.get(0).get("trap_density_p95_cm3"));
         double low = Double.parseDouble(rows.get(3).get("trap_density_p95_cm3"));
         assertThat(clean).isPositive().isLessThan(low);
+        WaferMap w1 = MapFiles.readSingle(in.resolve("w1.tif"));
+        WaferMap density = trapmap.maps.process.MapConversion.convert(w1.withConditions(
+                        MeasurementConditions.UNKNOWN.withDoping(trapmap.physics.material.Doping.pType(1e16))
+                                .withInjection(1e14)), trapmap.physics.defect.DefectLibrary.byId("fe-i"),
+                trapmap.maps.process.ConversionSettings.DEFAULTS).get(trapmap.maps.model.Quantity.TRAP_DENSITY);
+        Mask mask = Mask.valid(w1.raster()).and(OutlineDetection.fit(w1).shape().mask(w1.grid(), 0))
+                .and(Mask.valid(density.raster()));
+        assertThat(clean).isEqualTo(MapStatistics.of(density, mask, StatisticsRequest.of(new double[] {95}))
+                .percentile(95));
         assertThat(rows.get(1).get("status")).isEqualTo("fail");
         assertThat(Math.hypot(Double.parseDouble(rows.get(1).get("worst_region_x_mm")) - 20,
                 Double.parseDouble(rows.get(1).get("worst_region_y_mm")) + 10)).isLessThan(2);
