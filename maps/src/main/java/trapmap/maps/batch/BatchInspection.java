@@ -37,7 +37,8 @@ import trapmap.shared.progress.ProgressListener;
  *       the batch is complete; an interrupted batch leaves the partial file, which a resumed run reads too.</li>
  *   <li>{@code results.json}: the same rows and a summary, written to a temporary file and moved at the end.</li>
  *   <li>{@code recurrence-FAMILY.tif} / {@code .png}: the fraction of the wafers of one family flagged at each
- *       position ({@link RecurrenceMap}); wafers kept from a resumed run are not re-read and so not in it.</li>
+ *       position ({@link RecurrenceMap}); wafers kept from a resumed run enter it through their footprints in
+ *       {@code footprints.csv} (written like {@code results.csv}), without being read again.</li>
  *   <li>{@code thumbnails/FILE.png} (optional): each map with its flagged regions outlined.</li>
  * </ul>
  *
@@ -49,6 +50,7 @@ public final class BatchInspection {
     public static final String CSV_NAME = "results.csv";
     public static final String PARTIAL_NAME = "results.csv.partial";
     public static final String JSON_NAME = "results.json";
+    public static final String FOOTPRINTS_NAME = "footprints.csv";
     public static final String THUMBNAIL_DIR = "thumbnails";
 
     /**
@@ -116,10 +118,15 @@ public final class BatchInspection {
         List<String> columns = columns(rules);
         Path csv = outDir.resolve(CSV_NAME);
         Path partial = outDir.resolve(PARTIAL_NAME);
+        Path footprints = outDir.resolve(FOOTPRINTS_NAME);
+        Path footprintsPartial = outDir.resolve(FOOTPRINTS_NAME + ".partial");
         Map<String, Map<String, String>> kept = new LinkedHashMap<>();
+        Map<String, Footprint> keptFootprints = new LinkedHashMap<>();
         if (options.resume()) {
             readRows(csv, kept);
             readRows(partial, kept);
+            FootprintStore.read(footprints, keptFootprints, BatchInspection::key);
+            FootprintStore.read(footprintsPartial, keptFootprints, BatchInspection::key);
         }
         List<Path> todo = new ArrayList<>();
         int skipped = 0;
@@ -140,14 +147,26 @@ public final class BatchInspection {
             return t;
         });
         Path tmpPartial = outDir.resolve(PARTIAL_NAME + ".new");
+        Path tmpFootprints = outDir.resolve(FOOTPRINTS_NAME + ".new");
         try (BufferedWriter w = Files.newBufferedWriter(tmpPartial, StandardCharsets.UTF_8);
              CSVPrinter out = new CSVPrinter(w, CSVFormat.DEFAULT.builder().setHeader(columns.toArray(
-                     String[]::new)).build())) {
+                     String[]::new)).build());
+             BufferedWriter fw = Files.newBufferedWriter(tmpFootprints, StandardCharsets.UTF_8);
+             CSVPrinter fout = new CSVPrinter(fw, CSVFormat.DEFAULT.builder().setHeader(
+                     FootprintStore.COLUMNS).build())) {
             for (Map<String, String> row : rows) {
                 print(out, columns, row);
+                Footprint f = keptFootprints.get(key(row.get("file")));
+                if (f != null) {
+                    recurrence.add(f);
+                    fout.printRecord(FootprintStore.record(row.get("file"), f));
+                }
             }
             out.flush();
+            fout.flush();
             Files.move(tmpPartial, partial, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+            Files.move(tmpFootprints, footprintsPartial, StandardCopyOption.REPLACE_EXISTING,
+                    StandardCopyOption.ATOMIC_MOVE);
             Deque<Future<WaferResult>> pending = new ArrayDeque<>();
             Iterator<Path> next = todo.iterator();
             int done = 0;
@@ -165,6 +184,8 @@ public final class BatchInspection {
                 }
                 if (r.footprint() != null) {
                     recurrence.add(r.footprint());
+                    fout.printRecord(FootprintStore.record(r.file(), r.footprint()));
+                    fout.flush();
                 }
                 Map<String, String> row = row(r);
                 rows.add(row);
@@ -178,7 +199,10 @@ public final class BatchInspection {
         } finally {
             pool.shutdownNow();
             Files.deleteIfExists(tmpPartial);
+            Files.deleteIfExists(tmpFootprints);
         }
+        Files.move(footprintsPartial, footprints, StandardCopyOption.REPLACE_EXISTING,
+                StandardCopyOption.ATOMIC_MOVE);
         Files.move(partial, csv, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
 
         int pass = 0;

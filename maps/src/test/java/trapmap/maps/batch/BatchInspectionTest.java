@@ -344,4 +344,24 @@ class BatchInspectionTest {
         assertThat(csv(out.resolve(BatchInspection.PARTIAL_NAME))).extracting(r -> r.get("wafer_id"))
                 .containsExactly("w1");
     }
+
+    @Test
+    void aResumedBatchKeepsTheKeptWafersInTheRecurrenceMap() throws Exception {
+        Path in = Files.createDirectories(dir.resolve("in"));
+        SyntheticWafers.spot(in, "r1", 80, 20, -10, 5, 4);
+        SyntheticWafers.spot(in, "r2", 80, 20, -10, 5, 4);
+        SyntheticWafers.clean(in, "r3", 80);
+        SyntheticWafers.clean(in, "r4", 80);
+        Path out = dir.resolve("out");
+        new BatchInspection(rules(SPOT_RULES)).run(list(in).subList(0, 3), out, options(2, false));
+        AtomicInteger reads = new AtomicInteger();
+        BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES), f -> {
+            reads.incrementAndGet();
+            return MapFiles.readSingle(f);
+        }).run(list(in), out, options(2, true));
+        assertThat(reads.get()).isEqualTo(1);
+        Path tif = s.recurrence().stream().filter(p -> p.toString().endsWith(".tif")).findFirst().orElseThrow();
+        assertThat(value(MapFiles.readSingle(tif), 20, -10)).isEqualTo(0.5f);
+        assertThat(Files.exists(out.resolve(BatchInspection.FOOTPRINTS_NAME + ".partial"))).isFalse();
+    }
 }
