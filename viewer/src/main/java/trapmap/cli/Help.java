@@ -14,7 +14,7 @@ final class Help {
     static final String DEFECT_FILE = "JSON file of user-defined defects: one object, an array, or"
             + " {\"defects\": [...]}; fields id, name, source, level {reference Ec|Ev|Ei, energy_ev, degeneracy},"
             + " sigma_n_cm2, sigma_p_cm2, vth_convention fixed|green, spread. Default: none.";
-    static final String EXIT_CODES = "Exit codes: 0 done; 1 some rows of a cases file failed; 2 invalid input"
+    static final String EXIT_CODES = "Exit codes: 0 done; 1 some rows of a cases file failed (inspect: some wafers did not pass); 2 invalid input"
             + " (one line on stderr names the flag); 3 internal error.";
     static final String MODELS = "Models (defaults): n_i = 9.65e9 cm^-3 at 300 K (Altermatt et al., JAP 93, 1598"
             + " (2003)) with the Sproul & Green (1991) temperature form; N_c, N_v of Green, JAP 67, 2944 (1990);"

@@ -9,11 +9,11 @@ import picocli.CommandLine.Command;
 
 /**
  * The {@code trapmap} command line: the root command and the entry point of the application jar. Sub-commands:
- * {@code calc} (with {@code iron}, {@code bo}, {@code pl}), {@code defects}, {@code convert}, {@code stats}, {@code compare} and {@code demo}.
+ * {@code calc} (with {@code iron}, {@code bo}, {@code pl}), {@code defects}, {@code convert}, {@code stats}, {@code compare}, {@code inspect} and {@code demo}.
  */
 @Command(name = "trapmap", mixinStandardHelpOptions = true, version = TrapmapCommand.VERSION, usageHelpAutoWidth = true,
         subcommands = {CalcCommand.class, DefectsCommand.class, ConvertCommand.class, StatsCommand.class, CompareCommand.class,
-            DemoCommand.class},
+            InspectCommand.class, DemoCommand.class},
         description = {"Converts minority-carrier lifetimes of silicon wafers into equivalent SRH trap densities.",
             ""},
         footer = {"", "Run 'trapmap <command> --help' for the options of a command.", "", Help.EXIT_CODES})
@@ -23,7 +23,7 @@ public final class TrapmapCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        throw new InputException("missing command: calc, convert, stats, compare, demo or defects (see 'trapmap --help')");
+        throw new InputException("missing command: calc, convert, stats, compare, inspect, demo or defects (see 'trapmap --help')");
     }
 
     /** A command line for {@code trapmap} that writes to {@code out} and {@code err}, with one-line errors. */

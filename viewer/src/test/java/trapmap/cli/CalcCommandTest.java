@@ -199,6 +199,6 @@ class CalcCommandTest {
     void noCommandIsAOneLineError() {
         Cli.Run r = Cli.run();
         assertThat(r.code()).isEqualTo(2);
-        assertThat(r.errLines()).containsExactly("trapmap: missing command: calc, convert, stats, compare, demo or defects (see 'trapmap --help')");
+        assertThat(r.errLines()).containsExactly("trapmap: missing command: calc, convert, stats, compare, inspect, demo or defects (see 'trapmap --help')");
     }
 }

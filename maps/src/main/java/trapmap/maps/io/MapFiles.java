@@ -133,6 +133,21 @@ public final class MapFiles {
         }
     }
 
+    /**
+     * Parses a doping in the sidecar's notation: {@code p:1e16} (net density, cm^-3) or {@code p:1.5ohmcm}
+     * (resistivity at 23 °C, Ω·cm, ASTM F723).
+     *
+     * @throws IllegalArgumentException saying what is expected
+     */
+    public static trapmap.physics.material.Doping parseDoping(String text) {
+        return Sidecar.parseDoping(text);
+    }
+
+    /** A picture of the map in the colours {@link #write} uses for PNG files (headless {@code java.awt.image}). */
+    public static java.awt.image.BufferedImage picture(WaferMap map, PngStyle style) {
+        return PngMaps.render(map, style);
+    }
+
     /** The sidecar file of a map: {@code w07.tif} → {@code w07.json} in the same directory. */
     public static Path sidecarOf(Path file) {
         String n = file.getFileName().toString();

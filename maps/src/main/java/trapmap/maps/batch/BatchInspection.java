@@ -1,0 +1,321 @@
+package trapmap.maps.batch;
+
+import com.fasterxml.jackson.databind.ObjectMapper;
+import com.fasterxml.jackson.databind.SerializationFeature;
+import java.io.BufferedWriter;
+import java.io.IOException;
+import java.io.Reader;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardCopyOption;
+import java.util.ArrayDeque;
+import java.util.ArrayList;
+import java.util.Deque;
+import java.util.Iterator;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
+import org.apache.commons.csv.CSVFormat;
+import org.apache.commons.csv.CSVParser;
+import org.apache.commons.csv.CSVPrinter;
+import org.apache.commons.csv.CSVRecord;
+import trapmap.maps.io.MapFiles;
+import trapmap.maps.model.WaferMap;
+import trapmap.shared.progress.ProgressListener;
+
+/**
+ * Inspects many wafer maps against one set of {@link Rules} and writes the results into an output folder:
+ *
+ * <ul>
+ *   <li>{@code results.csv}: one row per wafer, in input order (rows kept from a resumed run first). The rows are
+ *       written and flushed one by one to {@code results.csv.partial}, which is moved onto {@code results.csv} when
+ *       the batch is complete; an interrupted batch leaves the partial file, which a resumed run reads too.</li>
+ *   <li>{@code results.json}: the same rows and a summary, written to a temporary file and moved at the end.</li>
+ *   <li>{@code recurrence-FAMILY.tif} / {@code .png}: the fraction of the wafers of one family flagged at each
+ *       position ({@link RecurrenceMap}); wafers kept from a resumed run enter it through their footprints in
+ *       {@code footprints.csv} (written like {@code results.csv}), without being read again.</li>
+ *   <li>{@code thumbnails/FILE.png} (optional): each map with its flagged regions outlined.</li>
+ * </ul>
+ *
+ * <p>Memory is bounded: a fixed pool of {@code threads} workers each holds one map at a time, and at most
+ * {@code 2·threads} finished results wait to be written. A file that cannot be read or evaluated gives an
+ * {@code error} row and the batch goes on. Interrupting the calling thread cancels the batch.
+ */
+public final class BatchInspection {
+    public static final String CSV_NAME = "results.csv";
+    public static final String PARTIAL_NAME = "results.csv.partial";
+    public static final String JSON_NAME = "results.json";
+    public static final String FOOTPRINTS_NAME = "footprints.csv";
+    public static final String THUMBNAIL_DIR = "thumbnails";
+
+    /**
+     * @param threads    number of workers (≥ 1)
+     * @param resume     skip files already listed in an existing results file and keep their rows
+     * @param thumbnails write a thumbnail per wafer
+     * @param progress   told after each wafer (done, total, file name)
+     */
+    public record Options(int threads, boolean resume, boolean thumbnails, ProgressListener progress) {
+        public Options {
+            if (threads < 1) {
+                throw new IllegalArgumentException("threads must be >= 1 but was " + threads);
+            }
+            progress = progress == null ? ProgressListener.NONE : progress;
+        }
+    }
+
+    /**
+     * What a batch did.
+     *
+     * @param pass       wafers that passed (including kept rows)
+     * @param fail       wafers that failed
+     * @param error      files that could not be inspected
+     * @param skipped    files skipped because a resumed results file lists them
+     * @param csv        the results table
+     * @param json       the results as JSON
+     * @param recurrence the recurrence maps written (TIFF and PNG)
+     */
+    public record Summary(int pass, int fail, int error, int skipped, Path csv, Path json, List<Path> recurrence) {
+        public int total() {
+            return pass + fail + error;
+        }
+
+        /** Passed over inspected wafers (errors included), NaN when there are none. */
+        public double yield() {
+            return total() == 0 ? Double.NaN : (double) pass / total();
+        }
+    }
+
+    private final Rules rules;
+    private final WaferInspection inspection;
+
+    public BatchInspection(Rules rules) {
+        this(rules, MapFiles::readSingle);
+    }
+
+    /** With another map reader (a test counting the reads). */
+    public BatchInspection(Rules rules, WaferInspection.MapReader reader) {
+        this.rules = rules;
+        this.inspection = new WaferInspection(rules, reader);
+    }
+
+    /** The CSV columns for these rules. */
+    public static List<String> columns(Rules rules) {
+        List<String> c = new ArrayList<>(List.of("file", "wafer_id", "status", "grade"));
+        rules.figures().forEach(f -> c.add(f.name()));
+        c.addAll(List.of("failed_rules", "worst_region_area_mm2", "worst_region_x_mm", "worst_region_y_mm",
+                "worst_region_peak", "error"));
+        return c;
+    }
+
+    /** Runs the batch over {@code files} and writes the results into {@code outDir}. */
+    public Summary run(List<Path> files, Path outDir, Options options) throws IOException, InterruptedException {
+        Files.createDirectories(outDir);
+        List<String> columns = columns(rules);
+        Path csv = outDir.resolve(CSV_NAME);
+        Path partial = outDir.resolve(PARTIAL_NAME);
+        Path footprints = outDir.resolve(FOOTPRINTS_NAME);
+        Path footprintsPartial = outDir.resolve(FOOTPRINTS_NAME + ".partial");
+        Map<String, Map<String, String>> kept = new LinkedHashMap<>();
+        Map<String, Footprint> keptFootprints = new LinkedHashMap<>();
+        if (options.resume()) {
+            readRows(csv, kept);
+            readRows(partial, kept);
+            FootprintStore.read(footprints, keptFootprints, BatchInspection::key);
+            FootprintStore.read(footprintsPartial, keptFootprints, BatchInspection::key);
+        }
+        List<Path> todo = new ArrayList<>();
+        int skipped = 0;
+        for (Path f : files) {
+            if (kept.containsKey(key(f.toString()))) {
+                skipped++;
+            } else {
+                todo.add(f);
+            }
+        }
+        Path thumbs = options.thumbnails() ? Files.createDirectories(outDir.resolve(THUMBNAIL_DIR)) : null;
+        List<Map<String, String>> rows = new ArrayList<>(kept.values());
+        RecurrenceMap recurrence = new RecurrenceMap();
+        int threads = Math.max(1, Math.min(options.threads(), todo.size()));
+        ExecutorService pool = Executors.newFixedThreadPool(threads, r -> {
+            Thread t = new Thread(r, "inspect");
+            t.setDaemon(true);
+            return t;
+        });
+        Path tmpPartial = outDir.resolve(PARTIAL_NAME + ".new");
+        Path tmpFootprints = outDir.resolve(FOOTPRINTS_NAME + ".new");
+        try (BufferedWriter w = Files.newBufferedWriter(tmpPartial, StandardCharsets.UTF_8);
+             CSVPrinter out = new CSVPrinter(w, CSVFormat.DEFAULT.builder().setHeader(columns.toArray(
+                     String[]::new)).build());
+             BufferedWriter fw = Files.newBufferedWriter(tmpFootprints, StandardCharsets.UTF_8);
+             CSVPrinter fout = new CSVPrinter(fw, CSVFormat.DEFAULT.builder().setHeader(
+                     FootprintStore.COLUMNS).build())) {
+            for (Map<String, String> row : rows) {
+                print(out, columns, row);
+                Footprint f = keptFootprints.get(key(row.get("file")));
+                if (f != null) {
+                    recurrence.add(f);
+                    fout.printRecord(FootprintStore.record(row.get("file"), f));
+                }
+            }
+            out.flush();
+            fout.flush();
+            Files.move(tmpPartial, partial, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+            Files.move(tmpFootprints, footprintsPartial, StandardCopyOption.REPLACE_EXISTING,
+                    StandardCopyOption.ATOMIC_MOVE);
+            Deque<Future<WaferResult>> pending = new ArrayDeque<>();
+            Iterator<Path> next = todo.iterator();
+            int done = 0;
+            while (next.hasNext() || !pending.isEmpty()) {
+                while (next.hasNext() && pending.size() < 2 * threads) {
+                    Path f = next.next();
+                    Path thumb = thumbs == null ? null : thumbs.resolve(f.getFileName() + ".png");
+                    pending.add(pool.submit(() -> inspection.inspect(f, thumb)));
+                }
+                WaferResult r;
+                try {
+                    r = pending.removeFirst().get();
+                } catch (ExecutionException e) {
+                    throw new IllegalStateException("inspection failed unexpectedly", e.getCause());
+                }
+                if (r.footprint() != null) {
+                    recurrence.add(r.footprint());
+                    fout.printRecord(FootprintStore.record(r.file(), r.footprint()));
+                    fout.flush();
+                }
+                Map<String, String> row = row(r);
+                rows.add(row);
+                print(out, columns, row);
+                out.flush();
+                options.progress().progress(++done, todo.size(), r.file());
+                if (Thread.currentThread().isInterrupted()) {
+                    throw new InterruptedException("batch inspection cancelled");
+                }
+            }
+        } finally {
+            pool.shutdownNow();
+            Files.deleteIfExists(tmpPartial);
+            Files.deleteIfExists(tmpFootprints);
+        }
+        Files.move(footprintsPartial, footprints, StandardCopyOption.REPLACE_EXISTING,
+                StandardCopyOption.ATOMIC_MOVE);
+        Files.move(partial, csv, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+
+        int pass = 0;
+        int fail = 0;
+        int error = 0;
+        for (Map<String, String> row : rows) {
+            switch (row.getOrDefault("status", "")) {
+                case "pass" -> pass++;
+                case "fail" -> fail++;
+                default -> error++;
+            }
+        }
+        List<Path> written = new ArrayList<>();
+        for (Map.Entry<String, WaferMap> e : recurrence.maps().entrySet()) {
+            String stem = "recurrence-" + e.getKey().replaceAll("[^A-Za-z0-9._-]", "_");
+            for (String ext : List.of(".tif", ".png")) {
+                Path p = outDir.resolve(stem + ext);
+                MapFiles.write(e.getValue(), p);
+                written.add(p);
+            }
+        }
+        Summary summary = new Summary(pass, fail, error, skipped, csv, outDir.resolve(JSON_NAME), written);
+        writeJson(summary, columns, rows);
+        return summary;
+    }
+
+    private static String key(String file) {
+        return Path.of(file).toAbsolutePath().normalize().toString();
+    }
+
+    private static void readRows(Path file, Map<String, Map<String, String>> into) throws IOException {
+        if (!Files.isRegularFile(file)) {
+            return;
+        }
+        try (Reader r = Files.newBufferedReader(file, StandardCharsets.UTF_8);
+             CSVParser p = CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).build().parse(r)) {
+            for (CSVRecord rec : p) {
+                if (!rec.isConsistent() || !rec.isMapped("file") || rec.get("file").isEmpty()) {
+                    continue; // a row cut short by an interruption
+                }
+                into.put(key(rec.get("file")), new LinkedHashMap<>(rec.toMap()));
+            }
+        }
+    }
+
+    private static void print(CSVPrinter out, List<String> columns, Map<String, String> row) throws IOException {
+        List<String> values = new ArrayList<>(columns.size());
+        for (String c : columns) {
+            values.add(row.getOrDefault(c, ""));
+        }
+        out.printRecord(values);
+    }
+
+    /** The CSV row of a result; numbers in Java's shortest round-trip notation, NaN as an empty cell. */
+    static Map<String, String> row(WaferResult r) {
+        Map<String, String> m = new LinkedHashMap<>();
+        m.put("file", r.file());
+        m.put("wafer_id", r.waferId());
+        m.put("status", r.status().key());
+        m.put("grade", r.grade());
+        r.figures().forEach((k, v) -> m.put(k, num(v)));
+        m.put("failed_rules", String.join(";", r.failed()));
+        if (r.worstRegion() != null) {
+            m.put("worst_region_area_mm2", num(r.worstRegion().areaMm2()));
+            m.put("worst_region_x_mm", num(r.worstRegion().centroidXMm()));
+            m.put("worst_region_y_mm", num(r.worstRegion().centroidYMm()));
+            m.put("worst_region_peak", num(r.worstRegion().peakValue()));
+        }
+        m.put("error", r.error());
+        return m;
+    }
+
+    private static String num(double v) {
+        return Double.isFinite(v) ? Double.toString(v) : "";
+    }
+
+    private void writeJson(Summary s, List<String> columns, List<Map<String, String>> rows) throws IOException {
+        Map<String, Object> root = new LinkedHashMap<>();
+        Map<String, Object> sum = new LinkedHashMap<>();
+        sum.put("pass", s.pass());
+        sum.put("fail", s.fail());
+        sum.put("error", s.error());
+        sum.put("skipped", s.skipped());
+        sum.put("yield", Double.isNaN(s.yield()) ? null : s.yield());
+        root.put("summary", sum);
+        List<Map<String, Object>> wafers = new ArrayList<>();
+        for (Map<String, String> row : rows) {
+            Map<String, Object> w = new LinkedHashMap<>();
+            for (String c : columns) {
+                String v = row.getOrDefault(c, "");
+                w.put(c, numeric(c) ? number(v) : v);
+            }
+            wafers.add(w);
+        }
+        root.put("wafers", wafers);
+        Path target = s.json();
+        Path tmp = target.resolveSibling(JSON_NAME + ".tmp");
+        new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValue(tmp.toFile(), root);
+        Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+    }
+
+    private static boolean numeric(String column) {
+        return !List.of("file", "wafer_id", "status", "grade", "failed_rules", "error").contains(column);
+    }
+
+    private static Object number(String v) {
+        if (v.isEmpty()) {
+            return null;
+        }
+        try {
+            return Double.valueOf(v);
+        } catch (NumberFormatException e) {
+            return v;
+        }
+    }
+}

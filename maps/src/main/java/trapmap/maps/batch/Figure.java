@@ -1,0 +1,81 @@
+package trapmap.maps.batch;
+
+import java.util.Locale;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
+
+/**
+ * A figure of merit of one wafer, named as in the rules file and the results' columns.
+ *
+ * <ul>
+ *   <li>{@code harmonic_mean_lifetime_us}, {@code median_lifetime_us}, {@code pNN_lifetime_us}: lifetime
+ *       statistics over the evaluated area (the wafer less the edge exclusion), µs</li>
+ *   <li>{@code trap_density_pNN_cm3}: percentile of the trap-density map, cm^-3</li>
+ *   <li>{@code flagged_area_fraction}: area of the flagged regions (at least the flag's minimum area) over the
+ *       evaluated area</li>
+ *   <li>{@code largest_region_mm2}: area of the largest flagged region, 0 when none, mm²</li>
+ *   <li>{@code edge_to_centre_ratio}: harmonic-mean lifetime in the band of {@code edge_band_mm} along the inner
+ *       border of the evaluated area over the harmonic-mean lifetime inside it</li>
+ * </ul>
+ *
+ * @param name    the figure's name
+ * @param kind    what it measures
+ * @param percent the percentile for percentile kinds, NaN otherwise
+ */
+public record Figure(String name, Kind kind, double percent) {
+
+    /** What a figure measures. */
+    public enum Kind {
+        HARMONIC_MEAN_LIFETIME, MEDIAN_LIFETIME, LIFETIME_PERCENTILE, TRAP_DENSITY_PERCENTILE,
+        FLAGGED_AREA_FRACTION, LARGEST_REGION, EDGE_TO_CENTRE_RATIO
+    }
+
+    private static final Pattern LIFETIME_P = Pattern.compile("p(\\d{1,2}(?:\\.\\d+)?)_lifetime_us");
+    private static final Pattern DENSITY_P = Pattern.compile("trap_density_p(\\d{1,2}(?:\\.\\d+)?)_cm3");
+
+    /** The figure of a name; IllegalArgumentException listing the names when unknown. */
+    public static Figure parse(String name) {
+        switch (name) {
+            case "harmonic_mean_lifetime_us": return new Figure(name, Kind.HARMONIC_MEAN_LIFETIME, Double.NaN);
+            case "median_lifetime_us": return new Figure(name, Kind.MEDIAN_LIFETIME, Double.NaN);
+            case "flagged_area_fraction": return new Figure(name, Kind.FLAGGED_AREA_FRACTION, Double.NaN);
+            case "largest_region_mm2": return new Figure(name, Kind.LARGEST_REGION, Double.NaN);
+            case "edge_to_centre_ratio": return new Figure(name, Kind.EDGE_TO_CENTRE_RATIO, Double.NaN);
+            default: break;
+        }
+        Matcher m = LIFETIME_P.matcher(name);
+        if (m.matches()) {
+            return new Figure(name, Kind.LIFETIME_PERCENTILE, percent(m.group(1), name));
+        }
+        m = DENSITY_P.matcher(name);
+        if (m.matches()) {
+            return new Figure(name, Kind.TRAP_DENSITY_PERCENTILE, percent(m.group(1), name));
+        }
+        throw new IllegalArgumentException("unknown figure; expected harmonic_mean_lifetime_us, median_lifetime_us,"
+                + " pNN_lifetime_us, trap_density_pNN_cm3, flagged_area_fraction, largest_region_mm2 or"
+                + " edge_to_centre_ratio");
+    }
+
+    private static double percent(String digits, String name) {
+        double p = Double.parseDouble(digits);
+        if (!(p > 0 && p < 100)) {
+            throw new IllegalArgumentException("percentile of " + name + " must be in (0, 100)");
+        }
+        return p;
+    }
+
+    /** The unit of the figure's values ("" for ratios). */
+    public String unit() {
+        return switch (kind) {
+            case HARMONIC_MEAN_LIFETIME, MEDIAN_LIFETIME, LIFETIME_PERCENTILE -> "us";
+            case TRAP_DENSITY_PERCENTILE -> "cm^-3";
+            case LARGEST_REGION -> "mm²";
+            default -> "";
+        };
+    }
+
+    @Override
+    public String toString() {
+        return name.toLowerCase(Locale.ROOT);
+    }
+}

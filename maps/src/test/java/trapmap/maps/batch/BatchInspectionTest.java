@@ -1,0 +1,367 @@
+package trapmap.maps.batch;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+import java.awt.image.BufferedImage;
+import java.io.Reader;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.atomic.AtomicInteger;
+import javax.imageio.ImageIO;
+import org.apache.commons.csv.CSVFormat;
+import org.apache.commons.csv.CSVParser;
+import org.apache.commons.csv.CSVRecord;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import trapmap.maps.geometry.OutlineDetection;
+import trapmap.maps.io.MapFiles;
+import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.Mask;
+import trapmap.maps.stats.MapStatistics;
+import trapmap.maps.stats.StatisticsRequest;
+import trapmap.shared.progress.ProgressListener;
+
+class BatchInspectionTest {
+    @TempDir
+    Path dir;
+
+    private static final String SPOT_RULES = """
+            {"edge_exclusion_mm": 2,
+             "flag": {"quantity": "lifetime", "threshold": 10, "min_area_mm2": 1},
+             "limits": {"flagged_area_fraction": {"max": 0.001}, "p5_lifetime_us": {"min": 5}},
+             "grades": [{"grade": "A", "when": {"median_lifetime_us": {"min": 60}}},
+                        {"grade": "B", "when": {"median_lifetime_us": {"min": 30}}},
+                        {"grade": "C"}]}
+            """;
+
+    private static Rules rules(String json) throws RulesException {
+        return Rules.parse(json, "rules.json");
+    }
+
+    private static BatchInspection.Options options(int threads, boolean resume) {
+        return new BatchInspection.Options(threads, resume, false, ProgressListener.NONE);
+    }
+
+    private static List<CSVRecord> csv(Path file) throws Exception {
+        try (Reader r = Files.newBufferedReader(file);
+             CSVParser p = CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).build().parse(r)) {
+            return new ArrayList<>(p.getRecords());
+        }
+    }
+
+    private Path maps() throws Exception {
+        Path in = Files.createDirectories(dir.resolve("in"));
+        SyntheticWafers.clean(in, "w1", 80);
+        SyntheticWafers.spot(in, "w2", 80, 20, -10, 5, 4);
+        SyntheticWafers.clean(in, "w3", 40);
+        SyntheticWafers.clean(in, "w4", 20);
+        return in;
+    }
+
+    private static List<Path> list(Path in) throws Exception {
+        try (var s = Files.list(in)) {
+            return s.filter(p -> !p.toString().endsWith(".json")).sorted().toList();
+        }
+    }
+
+    @Test
+    void plantedSpotFailsWithItsRegionAtThePlantedPositionAndCleanWafersPass() throws Exception {
+        Path in = maps();
+        BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES)).run(list(in), dir.resolve("out"),
+                options(2, false));
+        List<CSVRecord> rows = csv(s.csv());
+        assertThat(rows).extracting(r -> r.get("wafer_id")).containsExactly("w1", "w2", "w3", "w4");
+        assertThat(rows).extracting(r -> r.get("status")).containsExactly("pass", "fail", "pass", "pass");
+        CSVRecord spot = rows.get(1);
+        assertThat(spot.get("failed_rules")).isEqualTo("flagged_area_fraction");
+        assertThat(Math.hypot(Double.parseDouble(spot.get("worst_region_x_mm")) - 20,
+                Double.parseDouble(spot.get("worst_region_y_mm")) + 10)).isLessThan(2);
+        assertThat(Double.parseDouble(spot.get("worst_region_area_mm2"))).isCloseTo(Math.PI * 25, within(5.0));
+        assertThat(Double.parseDouble(spot.get("worst_region_peak"))).isEqualTo(4);
+        assertThat(rows.get(0).get("worst_region_x_mm")).isEmpty();
+        assertThat(Double.parseDouble(rows.get(0).get("flagged_area_fraction"))).isZero();
+        assertThat(s.pass()).isEqualTo(3);
+        assertThat(s.fail()).isEqualTo(1);
+        assertThat(s.yield()).isEqualTo(0.75);
+        assertThat(Files.exists(dir.resolve("out").resolve(BatchInspection.PARTIAL_NAME))).isFalse();
+    }
+
+    @Test
+    void gradesFollowTheFirstMatchingThresholds() throws Exception {
+        Path in = maps();
+        BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES)).run(list(in), dir.resolve("out"),
+                options(1, false));
+        assertThat(csv(s.csv())).extracting(r -> r.get("grade")).containsExactly("A", "A", "B", "C");
+    }
+
+    @Test
+    void corruptTruncatedAndEmptyFilesBecomeErrorRowsAndTheBatchGoesOn() throws Exception {
+        Path in = maps();
+        byte[] good = Files.readAllBytes(in.resolve("w1.tif"));
+        Files.write(in.resolve("a-truncated.tif"), java.util.Arrays.copyOf(good, 300));
+        Files.write(in.resolve("b-empty.tif"), new byte[0]);
+        Files.writeString(in.resolve("c-garbage.csv"), "x_mm,y_mm,value\n1,2\nnot,a,number\n");
+        BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES)).run(list(in), dir.resolve("out"),
+                options(2, false));
+        List<CSVRecord> rows = csv(s.csv());
+        assertThat(rows).hasSize(7);
+        for (CSVRecord r : rows.subList(0, 3)) {
+            assertThat(r.get("status")).isEqualTo("error");
+            assertThat(r.get("error")).isNotBlank().doesNotContain("\n").contains(r.get("file"));
+            assertThat(r.get("grade")).isEmpty();
+        }
+        assertThat(rows.subList(3, 7)).extracting(r -> r.get("status")).containsExactly("pass", "fail", "pass",
+                "pass");
+        assertThat(s.error()).isEqualTo(3);
+        var json = new com.fasterxml.jackson.databind.ObjectMapper().readTree(s.json().toFile());
+        assertThat(json.get("summary").get("error").asInt()).isEqualTo(3);
+        assertThat(json.get("wafers")).hasSize(7);
+        assertThat(json.get("wafers").get(4).get("worst_region_peak").asDouble()).isEqualTo(4);
+    }
+
+    @Test
+    void figuresEqualMapStatisticsOverTheSameArea() throws Exception {
+        Path in = maps();
+        BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES)).run(list(in), dir.resolve("out"),
+                options(2, false));
+        List<CSVRecord> rows = csv(s.csv());
+        for (CSVRecord r : rows) {
+            WaferMap m = MapFiles.readSingle(Path.of(r.get("file")));
+            Mask mask = Mask.valid(m.raster()).and(OutlineDetection.fit(m).shape().mask(m.grid(), 2));
+            MapStatistics ref = MapStatistics.of(m, mask, StatisticsRequest.of(new double[] {5}));
+            assertThat(Double.parseDouble(r.get("harmonic_mean_lifetime_us"))).isEqualTo(ref.harmonicMean());
+            assertThat(Double.parseDouble(r.get("median_lifetime_us"))).isEqualTo(ref.median());
+            assertThat(Double.parseDouble(r.get("p5_lifetime_us"))).isEqualTo(ref.percentile(5));
+        }
+    }
+
+    @Test
+    void resumeReadsOnlyFilesNotYetListedAndKeepsTheEarlierRows() throws Exception {
+        Path in = maps();
+        AtomicInteger reads = new AtomicInteger();
+        WaferInspection.MapReader counting = f -> {
+            reads.incrementAndGet();
+            return MapFiles.readSingle(f);
+        };
+        Path out = dir.resolve("out");
+        List<Path> first = list(in).subList(0, 3);
+        new BatchInspection(rules(SPOT_RULES), counting).run(first, out, options(2, false));
+        assertThat(reads.get()).isEqualTo(3);
+        reads.set(0);
+        BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES), counting).run(list(in), out,
+                options(2, true));
+        assertThat(reads.get()).isEqualTo(1);
+        assertThat(s.skipped()).isEqualTo(3);
+        assertThat(csv(s.csv())).extracting(r -> r.get("wafer_id")).containsExactly("w1", "w2", "w3", "w4");
+        reads.set(0);
+        new BatchInspection(rules(SPOT_RULES), counting).run(list(in), out, options(2, true));
+        assertThat(reads.get()).isZero();
+    }
+
+    @Test
+    void resumeAlsoKeepsTheRowsOfAnInterruptedRun() throws Exception {
+        Path in = maps();
+        Path out = dir.resolve("out");
+        BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES)).run(list(in).subList(0, 2), out,
+                options(1, false));
+        Files.move(s.csv(), out.resolve(BatchInspection.PARTIAL_NAME));
+        AtomicInteger reads = new AtomicInteger();
+        new BatchInspection(rules(SPOT_RULES), f -> {
+            reads.incrementAndGet();
+            return MapFiles.readSingle(f);
+        }).run(list(in), out, options(1, true));
+        assertThat(reads.get()).isEqualTo(2);
+        assertThat(csv(out.resolve(BatchInspection.CSV_NAME))).hasSize(4);
+    }
+
+    @Test
+    void recurrenceIsTheFractionOfWafersFlaggedAtEachPosition() throws Exception {
+        Path in = Files.createDirectories(dir.resolve("in"));
+        SyntheticWafers.spot(in, "r1", 80, 20, -10, 5, 4);
+        SyntheticWafers.spot(in, "r2", 80, 20, -10, 5, 4);
+        SyntheticWafers.clean(in, "r3", 80);
+        SyntheticWafers.spot(in, "r4", 80, -25, 15, 4, 4);
+        BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES)).run(list(in), dir.resolve("out"),
+                options(2, false));
+        assertThat(s.recurrence()).hasSize(2);
+        Path tif = s.recurrence().stream().filter(p -> p.toString().endsWith(".tif")).findFirst().orElseThrow();
+        WaferMap r = MapFiles.readSingle(tif);
+        assertThat(r.quantity()).isEqualTo(trapmap.maps.model.Quantity.FRACTION);
+        assertThat(value(r, 20, -10)).isEqualTo(0.5f);
+        assertThat(value(r, -25, 15)).isEqualTo(0.25f);
+        assertThat(value(r, 0, 0)).isZero();
+        assertThat(value(r, -30, -30)).isZero();
+        assertThat(Files.size(s.recurrence().get(1))).isPositive();
+    }
+
+    private static float value(WaferMap m, double xMm, double yMm) {
+        return m.raster().get((int) Math.round(m.grid().xPx(xMm)), (int) Math.round(m.grid().yPx(yMm)));
+    }
+
+    @Test
+    void trapDensityFiguresUseTheRulesConditionsAndMissingConditionsGiveAnErrorRow() throws Exception {
+        Path in = maps();
+        String json = """
+                {"conditions": {"doping": "p:1e16", "injection_cm3": 1e14}, "defect": "fe-i",
+                 "flag": {"quantity": "trap-density", "threshold": 1e12, "min_area_mm2": 1},
+                 "limits": {"trap_density_p95_cm3": {"max": 1e12}, "flagged_area_fraction": {"max": 0.001}}}
+                """;
+        BatchInspection.Summary s = new BatchInspection(rules(json)).run(list(in), dir.resolve("out"),
+                options(2, false));
+        List<CSVRecord> rows = csv(s.csv());
+        double clean = Double.parseDouble(rows.get(0).get("trap_density_p95_cm3"));
+        double low = Double.parseDouble(rows.get(3).get("trap_density_p95_cm3"));
+        assertThat(clean).isPositive().isLessThan(low);
+        WaferMap w1 = MapFiles.readSingle(in.resolve("w1.tif"));
+        WaferMap density = trapmap.maps.process.MapConversion.convert(w1.withConditions(
+                        MeasurementConditions.UNKNOWN.withDoping(trapmap.physics.material.Doping.pType(1e16))
+                                .withInjection(1e14)), trapmap.physics.defect.DefectLibrary.byId("fe-i"),
+                trapmap.maps.process.ConversionSettings.DEFAULTS).get(trapmap.maps.model.Quantity.TRAP_DENSITY);
+        Mask mask = Mask.valid(w1.raster()).and(OutlineDetection.fit(w1).shape().mask(w1.grid(), 0))
+                .and(Mask.valid(density.raster()));
+        assertThat(clean).isEqualTo(MapStatistics.of(density, mask, StatisticsRequest.of(new double[] {95}))
+                .percentile(95));
+        assertThat(rows.get(1).get("status")).isEqualTo("fail");
+        assertThat(Math.hypot(Double.parseDouble(rows.get(1).get("worst_region_x_mm")) - 20,
+                Double.parseDouble(rows.get(1).get("worst_region_y_mm")) + 10)).isLessThan(2);
+
+        String noDoping = json.replace("\"doping\": \"p:1e16\", ", "");
+        BatchInspection.Summary e = new BatchInspection(rules(noDoping)).run(list(in), dir.resolve("out2"),
+                options(2, false));
+        assertThat(csv(e.csv())).allSatisfy(r -> {
+            assertThat(r.get("status")).isEqualTo("error");
+            assertThat(r.get("error")).containsIgnoringCase("doping");
+        });
+    }
+
+    @Test
+    void thumbnailsOutlineTheFlaggedRegion() throws Exception {
+        Path in = maps();
+        Path out = dir.resolve("out");
+        new BatchInspection(rules(SPOT_RULES)).run(list(in), out,
+                new BatchInspection.Options(2, false, true, ProgressListener.NONE));
+        BufferedImage spot = ImageIO.read(out.resolve("thumbnails").resolve("w2.tif.png").toFile());
+        BufferedImage clean = ImageIO.read(out.resolve("thumbnails").resolve("w1.tif.png").toFile());
+        assertThat(spot.getWidth()).isLessThanOrEqualTo(WaferInspection.THUMBNAIL_PX);
+        assertThat(count(spot, WaferInspection.OUTLINE_ARGB)).isPositive();
+        assertThat(count(clean, WaferInspection.OUTLINE_ARGB)).isZero();
+        // the outline sits on the circle of radius 5 mm around (20, -10) mm: 0.5 mm pixels, centre (100, 100)
+        int cx = 100 + 40;
+        int cy = 100 + 20;
+        assertThat(spot.getRGB(cx, cy)).isNotEqualTo(WaferInspection.OUTLINE_ARGB);
+        assertThat(spot.getRGB(cx + 10, cy)).isEqualTo(WaferInspection.OUTLINE_ARGB);
+    }
+
+    private static int count(BufferedImage img, int argb) {
+        int n = 0;
+        for (int y = 0; y < img.getHeight(); y++) {
+            for (int x = 0; x < img.getWidth(); x++) {
+                n += img.getRGB(x, y) == argb ? 1 : 0;
+            }
+        }
+        return n;
+    }
+
+    @Test
+    void edgeToCentreRatioComparesTheEdgeBandWithTheCentre() throws Exception {
+        Path in = Files.createDirectories(dir.resolve("in"));
+        WaferMap m = SyntheticWafers.map("ring", 100, 0, 0, 0, 100);
+        float[] s = m.raster().samples();
+        for (int i = 0; i < s.length; i++) {
+            double x = m.grid().xMm(i % SyntheticWafers.N);
+            double y = m.grid().yMm(i / SyntheticWafers.N);
+            if (!Float.isNaN(s[i]) && Math.hypot(x, y) > 40) {
+                s[i] = 50;
+            }
+        }
+        SyntheticWafers.write(in, "ring", m);
+        Rules r = rules("{\"edge_band_mm\": 10, \"flag\": {\"quantity\": \"lifetime\", \"threshold\": 1},"
+                + " \"limits\": {\"edge_to_centre_ratio\": {\"min\": 0.8}}}");
+        BatchInspection.Summary sum = new BatchInspection(r).run(list(in), dir.resolve("out"), options(1, false));
+        CSVRecord row = csv(sum.csv()).get(0);
+        assertThat(Double.parseDouble(row.get("edge_to_centre_ratio"))).isCloseTo(0.5, within(0.02));
+        assertThat(row.get("status")).isEqualTo("fail");
+    }
+
+    @Test
+    void progressCountsEveryWafer() throws Exception {
+        Path in = maps();
+        List<Long> seen = new java.util.concurrent.CopyOnWriteArrayList<>();
+        new BatchInspection(rules(SPOT_RULES)).run(list(in), dir.resolve("out"),
+                new BatchInspection.Options(3, false, false, (done, total, msg) -> {
+                    assertThat(total).isEqualTo(4);
+                    seen.add(done);
+                }));
+        assertThat(seen).containsExactly(1L, 2L, 3L, 4L);
+    }
+
+    @Test
+    void columnsNameEachFigureOfTheRules() throws Exception {
+        assertThat(BatchInspection.columns(rules(SPOT_RULES))).containsExactly("file", "wafer_id", "status", "grade",
+                "harmonic_mean_lifetime_us", "median_lifetime_us", "flagged_area_fraction", "p5_lifetime_us",
+                "largest_region_mm2", "failed_rules", "worst_region_area_mm2", "worst_region_x_mm",
+                "worst_region_y_mm", "worst_region_peak", "error");
+        assertThat(Map.of()).isEmpty();
+    }
+
+    @Test
+    void interruptingTheCallerCancelsAndLeavesThePartialTableForResume() throws Exception {
+        Path in = maps();
+        Path out = dir.resolve("out");
+        java.util.concurrent.CountDownLatch reading = new java.util.concurrent.CountDownLatch(1);
+        java.util.concurrent.CountDownLatch never = new java.util.concurrent.CountDownLatch(1);
+        BatchInspection b = new BatchInspection(rules(SPOT_RULES), f -> {
+            if (f.getFileName().toString().equals("w2.tif")) {
+                reading.countDown();
+                try {
+                    never.await();
+                } catch (InterruptedException e) {
+                    throw new java.io.InterruptedIOException("cancelled");
+                }
+            }
+            return MapFiles.readSingle(f);
+        });
+        java.util.concurrent.atomic.AtomicReference<Throwable> thrown = new java.util.concurrent.atomic.AtomicReference<>();
+        Thread t = new Thread(() -> {
+            try {
+                b.run(list(in), out, options(1, false));
+            } catch (Throwable e) {
+                thrown.set(e);
+            }
+        });
+        t.start();
+        reading.await();
+        t.interrupt();
+        t.join(10_000);
+        assertThat(t.isAlive()).isFalse();
+        assertThat(thrown.get()).isInstanceOf(InterruptedException.class);
+        assertThat(Files.exists(out.resolve(BatchInspection.CSV_NAME))).isFalse();
+        assertThat(csv(out.resolve(BatchInspection.PARTIAL_NAME))).extracting(r -> r.get("wafer_id"))
+                .containsExactly("w1");
+    }
+
+    @Test
+    void aResumedBatchKeepsTheKeptWafersInTheRecurrenceMap() throws Exception {
+        Path in = Files.createDirectories(dir.resolve("in"));
+        SyntheticWafers.spot(in, "r1", 80, 20, -10, 5, 4);
+        SyntheticWafers.spot(in, "r2", 80, 20, -10, 5, 4);
+        SyntheticWafers.clean(in, "r3", 80);
+        SyntheticWafers.clean(in, "r4", 80);
+        Path out = dir.resolve("out");
+        new BatchInspection(rules(SPOT_RULES)).run(list(in).subList(0, 3), out, options(2, false));
+        AtomicInteger reads = new AtomicInteger();
+        BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES), f -> {
+            reads.incrementAndGet();
+            return MapFiles.readSingle(f);
+        }).run(list(in), out, options(2, true));
+        assertThat(reads.get()).isEqualTo(1);
+        Path tif = s.recurrence().stream().filter(p -> p.toString().endsWith(".tif")).findFirst().orElseThrow();
+        assertThat(value(MapFiles.readSingle(tif), 20, -10)).isEqualTo(0.5f);
+        assertThat(Files.exists(out.resolve(BatchInspection.FOOTPRINTS_NAME + ".partial"))).isFalse();
+    }
+}

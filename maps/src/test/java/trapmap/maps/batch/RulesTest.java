@@ -1,0 +1,109 @@
+package trapmap.maps.batch;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+import java.nio.file.Path;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.CsvSource;
+import trapmap.maps.model.MeasurementConditions;
+import trapmap.physics.material.Doping;
+
+class RulesTest {
+    private static final String FLAG = "\"flag\": {\"quantity\": \"lifetime\", \"threshold\": 10}";
+
+    private static Rules parse(String json) throws RulesException {
+        return Rules.parse(json, "r.json");
+    }
+
+    @Test
+    void exampleRulesFileParses() throws Exception {
+        Rules r = Rules.read(Path.of("..", "demo-data", "rules-example.json"));
+        assertThat(r.defectId()).isEqualTo("fe-i");
+        assertThat(r.grades()).extracting(Rules.Grade::grade).containsExactly("A", "B", "C");
+        assertThat(r.figures()).extracting(Figure::name).contains("harmonic_mean_lifetime_us",
+                "p5_lifetime_us", "trap_density_p95_cm3", "flagged_area_fraction", "largest_region_mm2",
+                "edge_to_centre_ratio");
+    }
+
+    @Test
+    void minimalRulesNeedOnlyAFlag() throws Exception {
+        Rules r = parse("{" + FLAG + "}");
+        assertThat(r.flag().threshold()).isEqualTo(10);
+        assertThat(r.edgeExclusionMm()).isZero();
+        assertThat(r.waferFormat()).isNull();
+        assertThat(r.needsTrapDensity()).isFalse();
+    }
+
+    @ParameterizedTest(name = "{1}")
+    @CsvSource(delimiter = '|', value = {
+        "{'flag': {'quantity': 'lifetime', 'threshold': 10}, 'colour': 1}|field 'colour': unknown key",
+        "{}|field 'flag': is required",
+        "{'flag': {'quantity': 'iron', 'threshold': 10}}|field 'flag.quantity'",
+        "{'flag': {'quantity': 'lifetime'}}|field 'flag.threshold': is required (us)",
+        "{'flag': {'quantity': 'lifetime', 'threshold': -3}}|field 'flag.threshold': must be in",
+        "{'flag': {'quantity': 'lifetime', 'threshold': '10'}}|field 'flag.threshold': must be a number",
+        "{'flag': {'quantity': 'lifetime', 'threshold': 10, 'min_area_mm2': -1}}|field 'flag.min_area_mm2'",
+        "{'flag': {'quantity': 'lifetime', 'threshold': 10, 'area': 1}}|field 'flag.area': unknown key",
+        "{'flag': {'quantity': 'trap-density', 'threshold': 1e11}}|field 'defect': is required",
+        "{'defect': 'unobtainium', 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'defect': unknown defect",
+        "{'edge_exclusion_mm': 80, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'edge_exclusion_mm': must be in [0, 50] but was 80 (mm)",
+        "{'wafer': 'round-7', 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'wafer'",
+        "{'conditions': {'doping': 'x:3'}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.doping'",
+        "{'conditions': {'thickness_um': 0}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.thickness_um': must be in [1, 5000] but was 0 (um)",
+        "{'conditions': {'srv_cm_s': -1}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.srv_cm_s'",
+        "{'conditions': {'temperature_k': 1000}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.temperature_k'",
+        "{'conditions': {'injection_cm3': 1e14, 'generation_cm3_s': 1e19}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.generation_cm3_s'",
+        "{'conditions': {'override': 'yes'}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.override'",
+        "{'conditions': {'pressure': 1}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.pressure': unknown key",
+        "{'limits': {'mean_lifetime_us': {'min': 1}}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'limits.mean_lifetime_us': unknown figure",
+        "{'limits': {'median_lifetime_us': {}}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'limits.median_lifetime_us': needs min, max or both (us)",
+        "{'limits': {'median_lifetime_us': {'min': 5, 'max': 1}}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'limits.median_lifetime_us.min'",
+        "{'limits': {'median_lifetime_us': {'least': 5}}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'limits.median_lifetime_us.least': unknown key",
+        "{'limits': {'trap_density_p95_cm3': {'max': 1e11}}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'defect': is required",
+        "{'limits': {'p100_lifetime_us': {'min': 1}}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'limits.p100_lifetime_us'",
+        "{'grades': {'grade': 'A'}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'grades': must be an array",
+        "{'grades': [{'when': {}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'grades[0].grade': is required",
+        "{'grades': [{'grade': 'A'}, {'grade': 'A'}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'grades[1].grade'",
+        "{'grades': [{'grade': 'A', 'when': {'x': {'min': 1}}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'grades[0].when.x': unknown figure",
+        "{'edge_band_mm': 0, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'edge_band_mm'",
+    })
+    void invalidRulesNameTheField(String json, String expected) {
+        assertThatThrownBy(() -> parse(json.replace('\'', '"')))
+                .isInstanceOf(RulesException.class)
+                .hasMessageStartingWith("r.json: ")
+                .hasMessageContaining(expected);
+    }
+
+    @Test
+    void invalidJsonGivesLineAndColumn() {
+        assertThatThrownBy(() -> parse("{\n  \"flag\": {,}\n}")).isInstanceOf(RulesException.class)
+                .hasMessageContaining("line 2").hasMessageContaining("not valid JSON");
+    }
+
+    @Test
+    void sidecarConditionsWinUnlessOverride() throws Exception {
+        String c = "\"conditions\": {\"doping\": \"p:1e16\", \"thickness_um\": 180, \"injection_cm3\": 1e14%s}, ";
+        Rules fill = parse("{" + c.formatted("") + FLAG + "}");
+        Rules over = parse("{" + c.formatted(", \"override\": true") + FLAG + "}");
+        MeasurementConditions file = MeasurementConditions.UNKNOWN.withThickness(200.0).withGeneration(1e19);
+        MeasurementConditions a = fill.applyTo(file);
+        assertThat(a.thicknessUm()).isEqualTo(200.0);
+        assertThat(a.generationPerCm3PerS()).isEqualTo(1e19);
+        assertThat(a.injectionPerCm3()).isNull();
+        assertThat(a.doping()).isEqualTo(Doping.pType(1e16));
+        MeasurementConditions b = over.applyTo(file);
+        assertThat(b.thicknessUm()).isEqualTo(180.0);
+        assertThat(b.injectionPerCm3()).isEqualTo(1e14);
+        assertThat(b.generationPerCm3PerS()).isNull();
+    }
+
+    @Test
+    void limitsWithNaNFail() {
+        Rules.Limit l = new Rules.Limit(Figure.parse("median_lifetime_us"), 1, Double.NaN);
+        assertThat(l.holds(2)).isTrue();
+        assertThat(l.holds(0.5)).isFalse();
+        assertThat(l.holds(Double.NaN)).isFalse();
+    }
+}

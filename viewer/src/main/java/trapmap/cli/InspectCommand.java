@@ -1,0 +1,155 @@
+package trapmap.cli;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.concurrent.Callable;
+import java.util.stream.Stream;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import trapmap.maps.batch.BatchInspection;
+import trapmap.maps.batch.Rules;
+import trapmap.maps.batch.RulesException;
+import trapmap.shared.progress.ProgressListener;
+
+/** {@code trapmap inspect}: pass/fail, grades and flagged regions of many wafer maps against a rules file. */
+@Command(name = "inspect", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
+        usageHelpAutoWidth = true,
+        header = "Inspects a batch of wafer maps against a rules file.",
+        description = {
+            "Evaluates every map (a folder: all .tif, .tiff and .csv files in it, by name) against RULES.json:",
+            "figures over the wafer less the edge exclusion, flagged regions, pass/fail and grade. Writes",
+            "results.csv and results.json (one row per wafer, in input order), recurrence maps of the flagged",
+            "positions per wafer format and, with --thumbnails, a small picture per wafer with its flagged",
+            "regions outlined. A file that cannot be read gives an 'error' row; the batch goes on.",
+            ""},
+        footer = {"", "Exit codes: 0 all wafers pass; 1 some wafers fail or could not be read; 2 invalid input"
+                + " (rules file, options, no input files); 3 internal error."})
+final class InspectCommand implements Callable<Integer> {
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(index = "0..*", arity = "1..*", paramLabel = "FOLDER|FILES",
+            description = "A folder of maps, or map files (TIFF or CSV, with optional sidecars).")
+    List<Path> inputs;
+
+    @Option(names = "--rules", required = true, paramLabel = "<RULES.json>",
+            description = "Inspection rules (schema in the README, 'Batch inspection').")
+    Path rulesFile;
+
+    @Option(names = "--out", required = true, paramLabel = "<DIR>", description = "Folder for the results.")
+    Path out;
+
+    @Option(names = "--threads", paramLabel = "<n>",
+            description = "Maps inspected at once (each worker holds one map). Default: the number of processors.")
+    Integer threads;
+
+    @Option(names = "--resume", description = "Skip files already listed in DIR/results.csv and keep their rows.")
+    boolean resume;
+
+    @Option(names = "--thumbnails", description = "Write DIR/thumbnails/FILE.png with the flagged regions outlined.")
+    boolean thumbnails;
+
+    @Option(names = "--json", description = "Print the summary as one JSON object.")
+    boolean json;
+
+    @Override
+    public Integer call() throws IOException, InterruptedException {
+        int n = threads == null ? Runtime.getRuntime().availableProcessors() : threads;
+        if (n < 1 || n > 256) {
+            throw new InputException("--threads must be in [1, 256] (got " + n + ")");
+        }
+        Rules rules;
+        try {
+            rules = Rules.read(rulesFile);
+        } catch (RulesException e) {
+            throw new InputException("--rules " + e.getMessage());
+        }
+        List<Path> files = files(inputs, out);
+        if (files.isEmpty()) {
+            throw new InputException("no map files (.tif, .tiff, .csv) in " + inputs);
+        }
+        if (Files.exists(out) && !Files.isDirectory(out)) {
+            throw new InputException("--out " + out + " is a file; give a folder");
+        }
+        PrintWriter err = spec.commandLine().getErr();
+        ProgressListener progress = System.console() != null ? bar(err) : lines(err);
+        BatchInspection.Summary s = new BatchInspection(rules).run(files, out,
+                new BatchInspection.Options(n, resume, thumbnails, progress));
+        if (System.console() != null) {
+            err.println();
+            err.flush();
+        }
+        PrintWriter o = spec.commandLine().getOut();
+        if (json) {
+            Map<String, Object> m = new LinkedHashMap<>();
+            m.put("pass", s.pass());
+            m.put("fail", s.fail());
+            m.put("error", s.error());
+            m.put("skipped", s.skipped());
+            m.put("yield", Output.num(s.yield()));
+            m.put("results_csv", s.csv().toString());
+            m.put("results_json", s.json().toString());
+            m.put("recurrence", s.recurrence().stream().map(Path::toString).toList());
+            o.println(Output.json(m));
+        } else {
+            o.printf(Locale.ROOT, "%d wafers: %d pass, %d fail, %d error; yield %s%s; results in %s and %s%n",
+                    s.total(), s.pass(), s.fail(), s.error(),
+                    Double.isNaN(s.yield()) ? "n/a" : String.format(Locale.ROOT, "%.1f %%", 100 * s.yield()),
+                    s.skipped() > 0 ? " (" + s.skipped() + " kept from the previous run)" : "", s.csv(), s.json());
+        }
+        o.flush();
+        return s.pass() == s.total() ? Exit.OK : Exit.SOME_WAFERS_NOT_PASSED;
+    }
+
+    /** The map files of the inputs: folders expand to their .tif/.tiff/.csv files by name; DIR's own files never. */
+    static List<Path> files(List<Path> inputs, Path outDir) throws IOException {
+        Path outAbs = outDir.toAbsolutePath().normalize();
+        List<Path> files = new ArrayList<>();
+        for (Path in : inputs) {
+            if (Files.isDirectory(in)) {
+                try (Stream<Path> s = Files.list(in)) {
+                    s.filter(Files::isRegularFile).filter(InspectCommand::isMap)
+                            .filter(p -> !p.toAbsolutePath().normalize().startsWith(outAbs))
+                            .sorted((a, b) -> a.getFileName().toString().compareTo(b.getFileName().toString()))
+                            .forEach(files::add);
+                }
+            } else if (Files.exists(in)) {
+                files.add(in);
+            } else {
+                throw new InputException("input " + in + " does not exist");
+            }
+        }
+        return files;
+    }
+
+    private static boolean isMap(Path p) {
+        String n = p.getFileName().toString().toLowerCase(Locale.ROOT);
+        return n.endsWith(".tif") || n.endsWith(".tiff") || n.endsWith(".csv");
+    }
+
+    private static ProgressListener bar(PrintWriter err) {
+        return (done, total, message) -> {
+            int width = 30;
+            int filled = total == 0 ? width : (int) (width * done / total);
+            err.print("\r[" + "#".repeat(filled) + " ".repeat(width - filled) + "] " + done + "/" + total);
+            err.flush();
+        };
+    }
+
+    private static ProgressListener lines(PrintWriter err) {
+        return (done, total, message) -> {
+            err.println("inspect: " + done + "/" + total + " " + message);
+            err.flush();
+        };
+    }
+}

@@ -1,0 +1,160 @@
+package trapmap.cli;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import trapmap.maps.io.MapFiles;
+import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.model.Provenance;
+import trapmap.maps.model.Quantity;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.PixelGrid;
+
+class InspectCommandTest {
+    private static final int N = 161;
+    private static final double PITCH_MM = 0.5;
+
+    @TempDir
+    Path dir;
+
+    private static final String RULES = """
+            {"edge_exclusion_mm": 1,
+             "flag": {"quantity": "lifetime", "threshold": 10, "min_area_mm2": 1},
+             "limits": {"flagged_area_fraction": {"max": 0.001}},
+             "grades": [{"grade": "A", "when": {"median_lifetime_us": {"min": 60}}}, {"grade": "B"}]}
+            """;
+
+    /** An 80 mm round wafer of 80 µs; with a spot, a 4 µs disc of 4 mm radius at (15, 10) mm. */
+    private Path wafer(Path folder, String name, boolean spot) throws Exception {
+        float[] s = new float[N * N];
+        PixelGrid g = PixelGrid.centred(N, N, PITCH_MM);
+        for (int y = 0; y < N; y++) {
+            for (int x = 0; x < N; x++) {
+                double xm = g.xMm(x);
+                double ym = g.yMm(y);
+                s[y * N + x] = Math.hypot(xm, ym) > 40 ? Float.NaN
+                        : spot && Math.hypot(xm - 15, ym - 10) <= 4 ? 4f : 80f;
+            }
+        }
+        Path f = folder.resolve(name + ".tif");
+        MapFiles.write(new WaferMap(FloatRaster.wrap(N, N, s), g, Quantity.EFFECTIVE_LIFETIME, name,
+                MeasurementConditions.UNKNOWN, Provenance.of("test")), f);
+        return f;
+    }
+
+    private Path rules(String json) throws Exception {
+        Path r = dir.resolve("rules.json");
+        Files.writeString(r, json);
+        return r;
+    }
+
+    private Path folder(boolean withSpot) throws Exception {
+        Path in = Files.createDirectories(dir.resolve("in"));
+        wafer(in, "w1", false);
+        wafer(in, "w2", withSpot);
+        Files.writeString(in.resolve("w1.json"), "{\"wafer_id\": \"w1\"}");
+        Files.writeString(in.resolve("notes.txt"), "not a map");
+        return in;
+    }
+
+    @Test
+    void allPassingExitsZeroWithASummaryAndProgressLines() throws Exception {
+        Path in = folder(false);
+        Path out = dir.resolve("out");
+        Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out", out.toString(),
+                "--threads", "2");
+        assertThat(r.code()).isZero();
+        assertThat(r.out()).contains("2 wafers: 2 pass, 0 fail, 0 error; yield 100.0 %")
+                .contains(out.resolve("results.csv").toString());
+        assertThat(r.errLines()).containsExactly("inspect: 1/2 " + in.resolve("w1.tif"),
+                "inspect: 2/2 " + in.resolve("w2.tif"));
+        List<String> csv = Files.readAllLines(out.resolve("results.csv"));
+        assertThat(csv).hasSize(3);
+        assertThat(csv.get(0)).startsWith("file,wafer_id,status,grade,");
+        assertThat(Files.exists(out.resolve("results.json"))).isTrue();
+    }
+
+    @Test
+    void aFailingWaferExitsOne() throws Exception {
+        Path in = folder(true);
+        Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out",
+                dir.resolve("out").toString(), "--json");
+        assertThat(r.code()).isEqualTo(1);
+        JsonNode j = Cli.parse(r.out());
+        assertThat(j.get("pass").asInt()).isEqualTo(1);
+        assertThat(j.get("fail").asInt()).isEqualTo(1);
+        assertThat(j.get("yield").asDouble()).isEqualTo(0.5);
+        assertThat(j.get("recurrence")).hasSize(2);
+    }
+
+    @Test
+    void anUnreadableFileExitsOneAndTheOthersAreInspected() throws Exception {
+        Path in = folder(false);
+        Files.write(in.resolve("w3.tif"), new byte[] {1, 2, 3});
+        Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out",
+                dir.resolve("out").toString());
+        assertThat(r.code()).isEqualTo(1);
+        assertThat(r.out()).contains("3 wafers: 2 pass, 0 fail, 1 error");
+    }
+
+    @Test
+    void resumeSkipsListedFiles() throws Exception {
+        Path in = folder(false);
+        Path out = dir.resolve("out");
+        Cli.run("inspect", in.resolve("w1.tif").toString(), "--rules", rules(RULES).toString(), "--out",
+                out.toString());
+        Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out", out.toString(),
+                "--resume");
+        assertThat(r.code()).isZero();
+        assertThat(r.out()).contains("2 wafers: 2 pass").contains("(1 kept from the previous run)");
+        assertThat(r.errLines()).containsExactly("inspect: 1/1 " + in.resolve("w2.tif"));
+    }
+
+    @Test
+    void usageErrorsExitTwoWithOneLine() throws Exception {
+        Path in = folder(false);
+        String out = dir.resolve("out").toString();
+        Cli.Run badRules = Cli.run("inspect", in.toString(), "--rules", rules("{\"flag\": {\"quantity\":"
+                + " \"lifetime\", \"threshold\": -1}}").toString(), "--out", out);
+        assertThat(badRules.code()).isEqualTo(2);
+        assertThat(badRules.errLines()).hasSize(1);
+        assertThat(badRules.err()).contains("flag.threshold").contains("(us)");
+
+        Cli.Run noOut = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString());
+        assertThat(noOut.code()).isEqualTo(2);
+        assertThat(noOut.err()).contains("--out");
+
+        Path empty = Files.createDirectories(dir.resolve("empty"));
+        Cli.Run noFiles = Cli.run("inspect", empty.toString(), "--rules", rules(RULES).toString(), "--out", out);
+        assertThat(noFiles.code()).isEqualTo(2);
+        assertThat(noFiles.err()).contains("no map files");
+
+        Cli.Run missingRules = Cli.run("inspect", in.toString(), "--rules", dir.resolve("none.json").toString(),
+                "--out", out);
+        assertThat(missingRules.code()).isEqualTo(2);
+        assertThat(missingRules.errLines()).hasSize(1);
+        assertThat(missingRules.err()).contains("none.json: no such rules file");
+
+        Cli.Run threads = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out", out,
+                "--threads", "0");
+        assertThat(threads.code()).isEqualTo(2);
+        assertThat(threads.err()).contains("--threads");
+        assertThat(Files.exists(dir.resolve("out"))).isFalse();
+    }
+
+    @Test
+    void foldersListMapFilesByNameWithoutSidecarsOrTheOutputFolder() throws Exception {
+        Path in = folder(false);
+        Files.writeString(in.resolve("a.csv"), "x");
+        Path out = Files.createDirectories(in.resolve("out"));
+        Files.writeString(out.resolve("results.csv"), "file");
+        assertThat(InspectCommand.files(List.of(in), out)).containsExactly(in.resolve("a.csv"),
+                in.resolve("w1.tif"), in.resolve("w2.tif"));
+    }
+}
