@@ -19,9 +19,7 @@ import trapmap.maps.compare.PairedStatistics;
 import trapmap.maps.compare.Registration;
 import trapmap.maps.compare.RegistrationOptions;
 import trapmap.maps.io.MapFormatException;
-import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
-import trapmap.maps.process.MapConversion;
 import trapmap.physics.defect.Defect;
 
 /** {@code trapmap compare}: two maps of the same wafer before and after a process step. */
@@ -67,12 +65,8 @@ final class CompareCommand implements Callable<Integer> {
                     + " practice). Default: 0.05.")
     double tolerance;
 
-    @Option(names = "--defect", paramLabel = "<id>",
-            description = "Convert both maps to trap densities of this defect first. Default: compare as read.")
-    String defect;
-
-    @Option(names = "--defect-file", paramLabel = "<file.json>", description = Help.DEFECT_FILE)
-    Path defectFile;
+    @Mixin
+    DensityOption density;
 
     @Option(names = "--json", description = "Print one JSON object with the registration and paired statistics.")
     boolean json;
@@ -96,11 +90,9 @@ final class CompareCommand implements Callable<Integer> {
         }
         WaferMap before = MapInput.page(beforeFile, 1);
         WaferMap after = MapInput.page(afterFile, 1);
-        if (defect != null) {
-            Defect d = DefectCatalog.load(defectFile).find(defect);
-            before = toDensity(before, d);
-            after = toDensity(after, d);
-        }
+        Defect d = density.defectOrNull();
+        before = DensityOption.apply(before, d, conditions);
+        after = DensityOption.apply(after, d, conditions);
         if (before.quantity() != after.quantity()) {
             throw new InputException(afterFile + " holds " + after.quantity().key() + " but " + beforeFile + " holds "
                     + before.quantity().key() + "; compare maps of one quantity (or use --defect)");
@@ -140,11 +132,6 @@ final class CompareCommand implements Callable<Integer> {
         }
         print(registration, c.statistics());
         return Exit.OK;
-    }
-
-    private WaferMap toDensity(WaferMap map, Defect d) {
-        WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
-        return MapConversion.convert(withConditions, d, conditions.settings()).get(Quantity.TRAP_DENSITY);
     }
 
     private void print(Registration r, PairedStatistics s) {

@@ -22,7 +22,6 @@ import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.io.MapFormatException;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
-import trapmap.maps.process.MapConversion;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.region.Region;
 import trapmap.maps.region.RegionCriteria;
@@ -30,7 +29,6 @@ import trapmap.maps.region.RegionTable;
 import trapmap.maps.region.ThresholdRegions;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
-import trapmap.physics.defect.Defect;
 
 /** {@code trapmap stats}: statistics, area fractions and flagged regions of one map. */
 @Command(name = "stats", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
@@ -75,12 +73,8 @@ final class StatsCommand implements Callable<Integer> {
                     + " square-156.75, ...). Default: fitted to the map's data.")
     String wafer;
 
-    @Option(names = "--defect", paramLabel = "<id>",
-            description = "Convert the map to this defect's trap density first. Default: summarise as read.")
-    String defect;
-
-    @Option(names = "--defect-file", paramLabel = "<file.json>", description = Help.DEFECT_FILE)
-    Path defectFile;
+    @Mixin
+    DensityOption density;
 
     @Option(names = "--json", description = "Print one JSON object.")
     boolean json;
@@ -100,11 +94,7 @@ final class StatsCommand implements Callable<Integer> {
             throw new InputException("--threshold must be a finite number in the map's unit");
         }
         WaferMap map = MapInput.page(input, page);
-        if (defect != null) {
-            Defect d = DefectCatalog.load(defectFile).find(defect);
-            WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
-            map = MapConversion.convert(withConditions, d, conditions.settings()).get(Quantity.TRAP_DENSITY);
-        }
+        map = DensityOption.apply(map, density.defectOrNull(), conditions);
         Map<String, Object> outline = new LinkedHashMap<>();
         WaferShape shape = shape(map, outline);
         Mask valid = Mask.valid(map.raster());

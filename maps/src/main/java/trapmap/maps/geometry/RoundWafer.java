@@ -114,11 +114,7 @@ public record RoundWafer(double diameterMm, Fiducial fiducial, double fiducialAn
      * The wafer in its local frame (centre at the origin, fiducial on the −v axis) with every derived constant
      * computed once. The outline is mirror-symmetric about the v axis, so distances are taken for u ≥ 0.
      */
-    private static final class Frame implements Prepared {
-        private final double cx;
-        private final double cy;
-        private final double cos;
-        private final double sin;
+    private static final class Frame extends LocalFrame {
         private final double r;
         private final int kind; // 0 none, 1 flat, 2 notch
         private final double flatHalf;
@@ -129,11 +125,7 @@ public record RoundWafer(double diameterMm, Fiducial fiducial, double fiducialAn
         private final double cornerY;
 
         Frame(RoundWafer w) {
-            cx = w.centreXMm;
-            cy = w.centreYMm;
-            double turn = Math.toRadians(w.fiducialAngleDeg - BOTTOM_DEG);
-            cos = Math.cos(turn);
-            sin = Math.sin(turn);
+            super(w.centreXMm, w.centreYMm, Math.toRadians(w.fiducialAngleDeg - BOTTOM_DEG));
             r = w.radiusMm();
             if (w.fiducial instanceof Fiducial.Flat f) {
                 kind = 1;
@@ -160,23 +152,7 @@ public record RoundWafer(double diameterMm, Fiducial fiducial, double fiducialAn
         }
 
         @Override
-        public boolean contains(double xMm, double yMm) {
-            double dx = xMm - cx;
-            double dy = yMm - cy;
-            return containsLocal(cos * dx + sin * dy, -sin * dx + cos * dy);
-        }
-
-        @Override
-        public double distanceToEdgeMm(double xMm, double yMm) {
-            double dx = xMm - cx;
-            double dy = yMm - cy;
-            double u = cos * dx + sin * dy;
-            double v = -sin * dx + cos * dy;
-            double d = unsignedDistance(Math.abs(u), v);
-            return containsLocal(u, v) ? d : -d;
-        }
-
-        private boolean containsLocal(double u, double v) {
+        boolean containsLocal(double u, double v) {
             if (u * u + v * v > r * r) {
                 return false;
             }
@@ -189,7 +165,9 @@ public record RoundWafer(double diameterMm, Fiducial fiducial, double fiducialAn
             return true;
         }
 
-        private double unsignedDistance(double u, double v) {
+        @Override
+        double unsignedDistance(double u0, double v) {
+            double u = Math.abs(u0); // the outline is mirror-symmetric about the v axis
             double rho = Math.hypot(u, v);
             if (kind == 1) {
                 double toFlat = u <= flatHalf ? Math.abs(v + flatD) : Math.hypot(u - flatHalf, v + flatD);

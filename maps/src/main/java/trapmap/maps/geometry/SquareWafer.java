@@ -111,22 +111,14 @@ public record SquareWafer(double sideMm, double diagonalMm, double rotationDeg, 
      * The wafer in its local frame (sides parallel to the axes) with every derived constant computed once. The
      * outline has the symmetry of the square, so distances are taken after folding onto 0 ≤ v ≤ u.
      */
-    private static final class Frame implements Prepared {
-        private final double cx;
-        private final double cy;
-        private final double cos;
-        private final double sin;
+    private static final class Frame extends LocalFrame {
         private final double h;
         private final double r;
         private final double yc;
         private final boolean full;
 
         Frame(SquareWafer w) {
-            cx = w.centreXMm;
-            cy = w.centreYMm;
-            double t = Math.toRadians(w.rotationDeg);
-            cos = Math.cos(t);
-            sin = Math.sin(t);
+            super(w.centreXMm, w.centreYMm, Math.toRadians(w.rotationDeg));
             h = w.sideMm / 2;
             r = w.diagonalMm / 2;
             full = w.isFullSquare();
@@ -134,30 +126,15 @@ public record SquareWafer(double sideMm, double diagonalMm, double rotationDeg, 
         }
 
         @Override
-        public boolean contains(double xMm, double yMm) {
-            double dx = xMm - cx;
-            double dy = yMm - cy;
-            return containsLocal(cos * dx + sin * dy, -sin * dx + cos * dy);
-        }
-
-        @Override
-        public double distanceToEdgeMm(double xMm, double yMm) {
-            double dx = xMm - cx;
-            double dy = yMm - cy;
-            double u = cos * dx + sin * dy;
-            double v = -sin * dx + cos * dy;
-            double d = unsignedDistance(u, v);
-            return containsLocal(u, v) ? d : -d;
-        }
-
-        private boolean containsLocal(double u, double v) {
+        boolean containsLocal(double u, double v) {
             if (Math.abs(u) > h || Math.abs(v) > h) {
                 return false;
             }
             return full || u * u + v * v <= r * r;
         }
 
-        private double unsignedDistance(double u0, double v0) {
+        @Override
+        double unsignedDistance(double u0, double v0) {
             double u = Math.abs(u0);
             double v = Math.abs(v0);
             if (v > u) {

@@ -451,6 +451,19 @@ final class CsvMaps {
         int[] line = new int[1024];
         int n;
 
+        /** {min x, max x, min y, max y} of the points, mm. */
+        double[] bounds() {
+            double[] b = {Double.POSITIVE_INFINITY, Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY,
+                Double.NEGATIVE_INFINITY};
+            for (int i = 0; i < n; i++) {
+                b[0] = Math.min(b[0], x[i]);
+                b[1] = Math.max(b[1], x[i]);
+                b[2] = Math.min(b[2], y[i]);
+                b[3] = Math.max(b[3], y[i]);
+            }
+            return b;
+        }
+
         void add(double px, double py, float pv, int l) {
             if (n == x.length) {
                 int c = x.length * 2;
@@ -584,16 +597,11 @@ final class CsvMaps {
     }
 
     private static double estimatePitch(Points p, ReadOptions options) {
-        double xmin = Double.POSITIVE_INFINITY;
-        double xmax = Double.NEGATIVE_INFINITY;
-        double ymin = Double.POSITIVE_INFINITY;
-        double ymax = Double.NEGATIVE_INFINITY;
-        for (int i = 0; i < p.n; i++) {
-            xmin = Math.min(xmin, p.x[i]);
-            xmax = Math.max(xmax, p.x[i]);
-            ymin = Math.min(ymin, p.y[i]);
-            ymax = Math.max(ymax, p.y[i]);
-        }
+        double[] box = p.bounds();
+        double xmin = box[0];
+        double xmax = box[1];
+        double ymin = box[2];
+        double ymax = box[3];
         double area = (xmax - xmin) * (ymax - ymin);
         double pitch = area > 0 ? Math.sqrt(area / p.n)
                 : p.n > 1 ? Math.max(xmax - xmin, ymax - ymin) / (p.n - 1) : Double.NaN;
@@ -603,16 +611,11 @@ final class CsvMaps {
     private static MapBuilder.Raw resample(Points p, double pitch, String name, Sidecar embedded,
                                            List<ProcessingStep> steps, ReadOptions options, boolean converted)
             throws MapFormatException {
-        double xmin = Double.POSITIVE_INFINITY;
-        double xmax = Double.NEGATIVE_INFINITY;
-        double ymin = Double.POSITIVE_INFINITY;
-        double ymax = Double.NEGATIVE_INFINITY;
-        for (int i = 0; i < p.n; i++) {
-            xmin = Math.min(xmin, p.x[i]);
-            xmax = Math.max(xmax, p.x[i]);
-            ymin = Math.min(ymin, p.y[i]);
-            ymax = Math.max(ymax, p.y[i]);
-        }
+        double[] box = p.bounds();
+        double xmin = box[0];
+        double xmax = box[1];
+        double ymin = box[2];
+        double ymax = box[3];
         double cols = Math.rint((xmax - xmin) / pitch) + 1;
         double rows = Math.rint((ymax - ymin) / pitch) + 1;
         if (!(cols * rows <= options.maxPixels())) {
