@@ -1,0 +1,19 @@
+package trapmap.viewer.ui.canvas;
+
+import trapmap.maps.io.ColourMap;
+
+/**
+ * How values become colours: colour map, linear or logarithmic scale, and the value range mapped onto it (in the
+ * displayed quantity's unit). Values below {@code low} take the first colour, above {@code high} the last.
+ */
+public record DisplayStyle(ColourMap colours, boolean logarithmic, double low, double high) {
+    public DisplayStyle {
+        if (colours == null) {
+            throw new IllegalArgumentException("colour map is required");
+        }
+        if (!(high > low) || (logarithmic && !(low > 0))) {
+            throw new IllegalArgumentException("range must satisfy low < high (and low > 0 on a log scale), got "
+                    + low + " .. " + high);
+        }
+    }
+}
