@@ -353,13 +353,12 @@ public final class ViewerModel {
         if (old != null && old.analysis().sameResults(a)) {
             return old;
         }
-        MapConversion.Result reuse = old != null && old.analysis().sameConversion(a) ? old.conversion() : null;
         try {
             Defect d = defects.byId(a.defectId());
             if (a.defectId() != null && d == null) {
                 throw new IllegalArgumentException("unknown defect '" + a.defectId() + "'");
             }
-            WaferAnalysis r = WaferAnalyzer.analyse(w.map, a, d, reuse, cancelled);
+            WaferAnalysis r = WaferAnalyzer.analyse(w.map, a, d, old, cancelled);
             w.result = r;
             w.error = null;
             fire(Change.RESULTS);

@@ -59,14 +59,17 @@ public final class WaferAnalyzer {
      * @param read       the map as read
      * @param analysis   settings
      * @param defect     the defect of {@code analysis.defectId()}, or null
-     * @param conversion an earlier conversion for the same conditions and defect, or null to convert here
+     * @param previous   earlier results of the same map, or null: its conversion is reused for the same conditions
+     *                   and defect, its outline for the same conditions
      * @param cancelled  polled between the steps; when it turns true a {@link CancellationException} is thrown
      */
-    public static WaferAnalysis analyse(WaferMap read, Analysis analysis, Defect defect,
-                                        MapConversion.Result conversion, BooleanSupplier cancelled) {
-        WaferMap lifetime = lifetime(read, analysis.conditions());
+    public static WaferAnalysis analyse(WaferMap read, Analysis analysis, Defect defect, WaferAnalysis previous,
+                                        BooleanSupplier cancelled) {
+        boolean sameLifetime = previous != null && previous.analysis().conditions().equals(analysis.conditions());
+        WaferMap lifetime = sameLifetime ? previous.lifetime() : lifetime(read, analysis.conditions());
         check(cancelled);
-        MapConversion.Result conv = conversion;
+        MapConversion.Result conv = previous != null && previous.analysis().sameConversion(analysis)
+                ? previous.conversion() : null;
         if (conv == null && defect != null && defect.hasAbsoluteCrossSections()) {
             conv = convert(lifetime, defect);
         }
@@ -83,10 +86,14 @@ public final class WaferAnalyzer {
         }
 
         WaferShape shape;
-        try {
-            shape = OutlineDetection.fit(lifetime.raster(), lifetime.grid()).shape();
-        } catch (RuntimeException e) {
-            shape = null;
+        if (sameLifetime) {
+            shape = previous.shape();
+        } else {
+            try {
+                shape = OutlineDetection.fit(lifetime.raster(), lifetime.grid()).shape();
+            } catch (RuntimeException e) {
+                shape = null;
+            }
         }
         check(cancelled);
         Mask mask = Mask.valid(lifetime.raster());
