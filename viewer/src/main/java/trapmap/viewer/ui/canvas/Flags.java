@@ -72,26 +72,77 @@ final class Flags {
     }
 
     /**
+     * Copies bits [{@code start}, {@code start + len}) of a bit set's words into {@code out} so that bit 0 of
+     * {@code out[0]} is bit {@code start}; returns false when they are all clear.
+     */
+    static boolean extract(long[] words, long start, int len, long[] out) {
+        int n = (len + 63) >>> 6;
+        long any = 0;
+        for (int i = 0; i < n; i++) {
+            long bit = start + 64L * i;
+            int wi = (int) (bit >>> 6);
+            int sh = (int) (bit & 63);
+            long lo = wi < words.length ? words[wi] >>> sh : 0;
+            long hi = sh == 0 || wi + 1 >= words.length ? 0 : words[wi + 1] << (64 - sh);
+            long v = lo | hi;
+            int rest = len - 64 * i;
+            if (rest < 64) {
+                v &= (1L << rest) - 1;
+            }
+            out[i] = v;
+            any |= v;
+        }
+        return any != 0;
+    }
+
+    /**
      * Fraction of flagged map pixels in each level-{@code level} pixel of the block at ({@code x0}, {@code y0}) of
-     * {@code w}×{@code h} level pixels; false when none is flagged (then {@code out} is left unspecified).
+     * {@code w}×{@code h} level pixels (one entry of a flagged-fraction pyramid); false when none is flagged (then
+     * {@code out} is left unspecified). Reads each map row of the block once, 64 pixels at a time.
      */
     static boolean fractions(long[] words, int mapWidth, int mapHeight, int level, int x0, int y0, int w, int h,
                              float[] out) {
         int f = 1 << level;
+        int mx0 = x0 * f;
+        int mx1 = Math.min(mapWidth, (x0 + w) * f);
+        int len = mx1 - mx0;
+        long[] row = new long[(len + 63) >>> 6];
+        int[] counts = new int[w];
         boolean any = false;
         for (int y = 0; y < h; y++) {
             int my0 = (y0 + y) * f;
             int my1 = Math.min(mapHeight, my0 + f);
-            for (int x = 0; x < w; x++) {
-                int mx0 = (x0 + x) * f;
-                int mx1 = Math.min(mapWidth, mx0 + f);
-                int count = 0;
-                for (int my = my0; my < my1; my++) {
-                    count += countBits(words, (long) my * mapWidth + mx0, mx1 - mx0);
+            java.util.Arrays.fill(counts, 0);
+            boolean rowAny = false;
+            for (int my = my0; my < my1; my++) {
+                if (!extract(words, (long) my * mapWidth + mx0, len, row)) {
+                    continue;
                 }
-                float frac = count == 0 ? 0 : (float) count / ((my1 - my0) * (mx1 - mx0));
-                out[y * w + x] = frac;
-                any |= count != 0;
+                rowAny = true;
+                if (f < 64) {
+                    long mask = (1L << f) - 1;
+                    for (int k = 0; k < w; k++) {
+                        int b = k * f;
+                        long word = row[b >>> 6];
+                        if (word != 0) {
+                            counts[k] += Long.bitCount((word >>> (b & 63)) & mask);
+                        }
+                    }
+                } else {
+                    int per = f >>> 6;
+                    for (int k = 0; k < w; k++) {
+                        int c = 0;
+                        for (int j = k * per, end = Math.min(row.length, j + per); j < end; j++) {
+                            c += Long.bitCount(row[j]);
+                        }
+                        counts[k] += c;
+                    }
+                }
+            }
+            for (int k = 0; k < w; k++) {
+                int cw = Math.min(f, mapWidth - (x0 + k) * f);
+                out[y * w + k] = rowAny ? (float) counts[k] / (cw * (my1 - my0)) : 0;
+                any |= rowAny && counts[k] != 0;
             }
         }
         return any;
