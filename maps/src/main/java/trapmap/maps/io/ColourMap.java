@@ -8,7 +8,8 @@ package trapmap.maps.io;
  * difference between neighbouring entries is the same along the whole map (up to 8-bit rounding); they are then
  * converted to sRGB. Every anchor and every point between them lies inside the sRGB gamut, so nothing is clipped.
  * On the sequential maps the anchors' lightness L* rises strictly, so lightness grows steadily with the value and a
- * picture stays readable in grey print; on the {@link #DIVERGING} map lightness is symmetric about the centre.
+ * picture stays readable in grey print. On the {@link #DIVERGING} map lightness is symmetric about the centre: its
+ * two halves have mirrored anchor lightness and equal segment lengths in L*a*b*, so the centre anchor falls midway.
  *
  * <ul>
  *   <li>{@link #GREY}: black to white, linear in sRGB code values.</li>
@@ -54,9 +55,9 @@ public enum ColourMap {
                 {50, 6, -42},
                 {70, -2, -24},
                 {94, 0, 0},
-                {70, 30, 24},
-                {50, 52, 34},
-                {30, 44, 32},
+                {70, 20, 13.5},
+                {50, 36, 24.8},
+                {30, 44, 36.7},
             }, true);
 
     private final String displayName;
