@@ -78,8 +78,10 @@ public class ColourBar extends JComponent {
             long last = (long) Math.floor(high / step + 1e-9);
             if (last - first + 1 <= maxTicks) {
                 double[] t = new double[(int) Math.max(0, last - first + 1)];
+                // whole numbers of the step's last decimal, divided once, so 3 × 0.1 gives 0.3
+                double scale = Math.pow(10, Math.max(0, -Math.floor(Math.log10(step) + 1e-9)));
                 for (int i = 0; i < t.length; i++) {
-                    double v = (first + i) * step;
+                    double v = Math.round((first + i) * step * scale) / scale;
                     t[i] = v == 0 ? 0 : v; // no -0
                 }
                 return t;
@@ -194,7 +196,7 @@ public class ColourBar extends JComponent {
                 g.fillRect(x, top + y, BAR_WIDTH, 1);
             }
             g.setColor(text);
-            g.drawRect(x, top, BAR_WIDTH, h);
+            g.drawRect(x - 1, top - 1, BAR_WIDTH + 1, h + 2);
             // end arrows: values beyond the range take the end colours
             int mid = x + BAR_WIDTH / 2;
             g.fillPolygon(new int[] {mid - 4, mid + 4, mid}, new int[] {top - 2, top - 2, top - 6}, 3);

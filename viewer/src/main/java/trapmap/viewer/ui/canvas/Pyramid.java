@@ -7,9 +7,9 @@ import java.util.stream.IntStream;
 import trapmap.maps.raster.FloatRaster;
 
 /**
- * Samples of one map at halving resolutions: level 0 is the map itself, level k+1 holds the mean of the valid
- * (non-NaN) samples of each 2×2 block of level k (NaN when the block has none; a block on an odd edge has fewer
- * samples). Level k pixel (x, y) covers map pixels [x·2^k, (x+1)·2^k) × [y·2^k, (y+1)·2^k). Levels are added as they
+ * Samples of one map at halving resolutions: level 0 is the map itself, each pixel of level k holds the mean of the
+ * valid (non-NaN) map samples in its 2^k × 2^k block (NaN when the block has none; blocks on an odd edge are
+ * smaller). Level k pixel (x, y) covers map pixels [x·2^k, (x+1)·2^k) × [y·2^k, (y+1)·2^k). Levels are added as they
  * are built, so a reader on another thread sees a growing, never changing, list.
  */
 final class Pyramid {
@@ -54,16 +54,26 @@ final class Pyramid {
 
     /** Builds the missing levels (rows in parallel), stopping early when {@code cancelled} becomes true. */
     void build(AtomicBoolean cancelled) {
+        int[] counts = null; // valid map pixels behind each pixel of the last level (null: level 0, one each)
         while (!complete() && !cancelled.get()) {
-            Level next = downsample(levels.get(levels.size() - 1));
+            Level fine = levels.get(levels.size() - 1);
+            int[] coarseCounts = new int[((fine.width() + 1) / 2) * ((fine.height() + 1) / 2)];
+            Level next = downsample(fine, counts, coarseCounts);
+            counts = coarseCounts;
             List<Level> grown = new ArrayList<>(levels);
             grown.add(next);
             levels = List.copyOf(grown);
         }
     }
 
-    /** The next coarser level: mean of the valid samples of each 2×2 block. */
-    static Level downsample(Level fine) {
+    /**
+     * The next coarser level: in each 2×2 block, the mean of the valid map pixels behind it (each fine pixel's mean
+     * weighted by its count of valid map pixels), so every level holds exact means of the map's valid samples.
+     *
+     * @param counts    valid map pixels behind each fine pixel; null for level 0 (one for each valid sample)
+     * @param outCounts receives the counts of the coarse pixels
+     */
+    static Level downsample(Level fine, int[] counts, int[] outCounts) {
         int fw = fine.width();
         int fh = fine.height();
         int w = (fw + 1) / 2;
@@ -78,26 +88,19 @@ final class Pyramid {
                 int x1 = Math.min(x0 + 1, fw - 1);
                 double sum = 0;
                 int n = 0;
-                float v;
-                if ((v = src[y0 * fw + x0]) == v) {
-                    sum += v;
-                    n++;
-                }
-                if (x1 != x0 && (v = src[y0 * fw + x1]) == v) {
-                    sum += v;
-                    n++;
-                }
-                if (y1 != y0) {
-                    if ((v = src[y1 * fw + x0]) == v) {
-                        sum += v;
-                        n++;
-                    }
-                    if (x1 != x0 && (v = src[y1 * fw + x1]) == v) {
-                        sum += v;
-                        n++;
+                for (int yy = y0; yy <= y1; yy++) {
+                    for (int xx = x0; xx <= x1; xx++) {
+                        int i = yy * fw + xx;
+                        float v = src[i];
+                        if (v == v) {
+                            int c = counts == null ? 1 : counts[i];
+                            sum += (double) v * c;
+                            n += c;
+                        }
                     }
                 }
                 out[y * w + x] = n == 0 ? Float.NaN : (float) (sum / n);
+                outCounts[y * w + x] = n;
             }
         });
         return new Level(fine.index() + 1, w, h, out);
