@@ -58,7 +58,17 @@ import org.apache.commons.csv.CSVPrinter;
 import trapmap.maps.io.ColourMap;
 import trapmap.maps.region.Region;
 import trapmap.physics.defect.Defect;
+import trapmap.maps.process.ConversionSettings;
+import trapmap.maps.profile.LineProfile;
+import trapmap.maps.profile.RadialProfile;
+import trapmap.viewer.ui.canvas.ColourBar;
 import trapmap.viewer.ui.canvas.DisplayStyle;
+import trapmap.viewer.ui.charts.ChartExport;
+import trapmap.viewer.ui.charts.HistogramView;
+import trapmap.viewer.ui.charts.InjectionCurve;
+import trapmap.viewer.ui.charts.InjectionCurveView;
+import trapmap.viewer.ui.charts.LineProfileView;
+import trapmap.viewer.ui.charts.RadialProfileView;
 import trapmap.viewer.ui.canvas.MapCanvas;
 import trapmap.viewer.ui.model.Analysis;
 import trapmap.viewer.ui.model.DisplayedQuantity;
@@ -92,6 +102,14 @@ public final class ViewerWindow extends JFrame {
     private final RecentFiles recent;
     private final MapCanvas canvas = new MapCanvas();
     private final JPanel colourBarHolder = new JPanel(new BorderLayout());
+    private final ColourBar colourBar = new ColourBar();
+    private final HistogramView histogram = new HistogramView();
+    private final LineProfileView lineView = new LineProfileView();
+    private final RadialProfileView radialView = new RadialProfileView();
+    private final InjectionCurveView injectionView = new InjectionCurveView();
+    private WaferAnalysis chartedResult;
+    private double chartedThreshold = Double.NaN;
+    private LineProfile chartedLine;
     private final GalleryPanel gallery;
     private final PhysicsPanel physics;
     private final ThresholdPanel threshold;
@@ -179,7 +197,18 @@ public final class ViewerWindow extends JFrame {
         pack();
         SwingUtilities.invokeLater(() -> {
             centreSplit.setDividerLocation(0.72);
-            right.setDividerLocation(0.56);
+            right.setDividerLocation(0.6);
+        });
+        colourBar.setName("colourBar");
+        setColourBar(colourBar);
+        charts.setChart(0, histogram);
+        charts.setChart(1, lineView);
+        charts.setChart(2, radialView);
+        charts.setChart(3, injectionView);
+        charts.addChangeListener(e -> {
+            if (charts.getSelectedIndex() == 3) {
+                showInjection(lastProbe);
+            }
         });
         updateTitle();
         updateUndo();
@@ -298,7 +327,11 @@ public final class ViewerWindow extends JFrame {
             canvas.setOutline(r.shape(), r.analysis().edgeExclusionMm());
         }
         canvas.setStyle(style);
+        DisplayedQuantity q = r.analysis().quantity();
+        colourBar.setStyle(style);
+        colourBar.setLabel(q.symbol() + (q.unit().isEmpty() ? "" : " (" + q.unit() + ")"));
         physics.showRange(range[0], range[1]);
+        showCharts(r);
         ProfileLine l = a.line();
         canvas.setLine(l == null ? null : new Line2D.Double(l.x0Mm(), l.y0Mm(), l.x1Mm(), l.y1Mm()));
         if (l != null) {
@@ -316,10 +349,65 @@ public final class ViewerWindow extends JFrame {
         shownResult = r;
         status.setFrameMillis(canvas.lastFrameMillis());
         if (!r.warnings().isEmpty()) {
-            status.setMessage("cautions: " + r.warnings());
+            status.setMessage("caution: " + r.warnings().stream().map(x -> x.name().toLowerCase(Locale.ROOT)
+                    .replace('_', ' ')).sorted().collect(java.util.stream.Collectors.joining(", ")) + " pixels");
         } else if (w.error() == null) {
             status.setMessage(r.pass() ? "pass" : "fail: flagged area above " + String.format(Locale.ROOT, "%.1f %%",
                     a.threshold().maxFlaggedFraction() * 100));
+        }
+    }
+
+    /** Histogram and radial profile (computed in the background) and the line profile of the shown results. */
+    private void showCharts(WaferAnalysis r) {
+        double t = r.analysis().threshold().value();
+        if (r != chartedResult || t != chartedThreshold) {
+            chartedResult = r;
+            chartedThreshold = t;
+            new SwingWorker<Object[], Void>() {
+                @Override
+                protected Object[] doInBackground() {
+                    HistogramView.Data h = HistogramView.compute(r.displayed(), r.mask(), t);
+                    RadialProfile rp = RadialProfile.of(r.displayed(), r.mask(), Math.max(1.0,
+                            2 * r.displayed().grid().pitchMm()));
+                    double[] spread = RadialProfileView.ringStandardDeviations(r.displayed(), r.mask(), rp);
+                    return new Object[] {h, rp, spread};
+                }
+
+                @Override
+                protected void done() {
+                    try {
+                        Object[] o = get();
+                        if (chartedResult == r) {
+                            histogram.show((HistogramView.Data) o[0]);
+                            radialView.show((RadialProfile) o[1], r.displayed().quantity(), (double[]) o[2]);
+                        }
+                    } catch (Exception e) {
+                        status.setMessage("charts: " + e.getMessage());
+                    }
+                }
+            }.execute();
+        }
+        LineProfile lp = model.lineProfile();
+        if (lp != null && (chartedLine == null || lp.lengthMm() != chartedLine.lengthMm()
+                || lp.bandWidthMm() != chartedLine.bandWidthMm() || lp.xMm(0) != chartedLine.xMm(0)
+                || r != chartedResult)) {
+            lineView.show(lp, r.displayed().quantity());
+        }
+        chartedLine = lp;
+    }
+
+    /** The injection curve of the probed pixel, when its tab is shown. */
+    private void showInjection(MapCanvas.Probe p) {
+        ViewerModel.OpenWafer w = model.selected();
+        Defect d = model.defect();
+        if (p == null || w == null || w.result() == null || d == null || charts.getSelectedIndex() != 3) {
+            return;
+        }
+        try {
+            injectionView.show(InjectionCurve.at(w.result().lifetime(), p.xPx(), p.yPx(), d,
+                    ConversionSettings.DEFAULTS));
+        } catch (RuntimeException e) {
+            status.setMessage("injection curve: " + e.getMessage());
         }
     }
 
@@ -349,7 +437,7 @@ public final class ViewerWindow extends JFrame {
             return;
         }
         int first = Math.max(0, model.selectedIndex());
-        status.setProgress(0, "analysing");
+        status.setProgress(0, "0 %");
         worker = new SwingWorker<>() {
             @Override
             protected Void doInBackground() {
@@ -383,7 +471,7 @@ public final class ViewerWindow extends JFrame {
         };
         worker.addPropertyChangeListener(e -> {
             if ("progress".equals(e.getPropertyName())) {
-                status.setProgress((Integer) e.getNewValue(), "analysing " + e.getNewValue() + " %");
+                status.setProgress((Integer) e.getNewValue(), e.getNewValue() + " %");
             }
         });
         worker.execute();
@@ -400,6 +488,7 @@ public final class ViewerWindow extends JFrame {
         try {
             var r = model.probe(p.xPx(), p.yPx());
             status.setReadout(r == null ? "" : r.describe());
+            showInjection(p);
         } catch (RuntimeException e) {
             status.setReadout("x " + p.xMm() + " mm, y " + p.yMm() + " mm: " + e.getMessage());
         }
@@ -620,7 +709,7 @@ public final class ViewerWindow extends JFrame {
         if (paths.isEmpty()) {
             return;
         }
-        status.setProgress(0, "reading maps");
+        status.setProgress(0, "reading");
         new SwingWorker<ViewerModel.OpenOutcome, Void>() {
             @Override
             protected ViewerModel.OpenOutcome doInBackground() {
@@ -850,7 +939,28 @@ public final class ViewerWindow extends JFrame {
     }
 
     private void exportChart() {
-        status.setMessage("chart export is not available in this build");
+        org.jfree.chart.JFreeChart chart = switch (charts.getSelectedIndex()) {
+            case 0 -> histogram.chart();
+            case 1 -> lineView.chart();
+            case 2 -> radialView.chart();
+            default -> injectionView.chart();
+        };
+        ViewerModel.OpenWafer w = model.selected();
+        if (chart == null || w == null) {
+            status.setMessage("the open chart tab has no chart yet");
+            return;
+        }
+        String tab = charts.getTitleAt(charts.getSelectedIndex()).toLowerCase(Locale.ROOT).replace(' ', '-');
+        Path p = askSave(w.name() + "-" + tab + ".png", "png", "PNG pictures");
+        if (p == null) {
+            return;
+        }
+        try {
+            ChartExport.writePng(chart, p, 1200, 700);
+            status.setMessage("chart saved to " + p);
+        } catch (IOException | RuntimeException e) {
+            error("Chart not saved", e);
+        }
     }
 
     private void report() {

@@ -33,7 +33,7 @@ public final class StatusBar extends JPanel {
         right.add(message);
         frame.setToolTipText("Paint time of the last map frame, ms");
         right.add(frame);
-        progress.setPreferredSize(new Dimension(140, progress.getPreferredSize().height));
+        progress.setPreferredSize(new Dimension(120, 18));
         progress.setStringPainted(true);
         progress.setToolTipText("Progress of the conversion and analysis of the open wafers");
         progress.setVisible(false);

@@ -62,10 +62,7 @@ public final class ThresholdPanel extends JPanel {
                 + " in the field below");
         f.wide(slider);
         value.setName("thresholdValue");
-        f.row("Value", value, null, "Threshold in the displayed quantity's unit; Enter applies");
-        JPanel u = new JPanel(new java.awt.FlowLayout(java.awt.FlowLayout.RIGHT, 0, 0));
-        u.add(unit);
-        f.wide(u);
+        f.rowWithUnit("Value", value, unit, "Threshold in the displayed quantity's unit; Enter applies");
         side.setName("thresholdSide");
         f.row("Flag pixels", side, null, "Flag pixels below the threshold (lifetimes) or above it (trap densities)");
         f.row("Smallest region", minArea, "mm²", "Connected flagged groups smaller than this area are not counted, mm²");
