@@ -14,15 +14,16 @@ import picocli.CommandLine.Spec;
 @Command(name = "view", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, usageHelpAutoWidth = true,
         header = "Opens wafer maps in the desktop viewer.",
         description = {
-            "Opens the given maps (TIFF or CSV with their sidecars) and folders of maps in the viewer window;",
-            "without FILES, the bundled demonstration set. Needs a display. Returns when the window is closed.",
+            "Opens the given maps (TIFF or CSV with their sidecars) and folders of maps in the viewer window, or",
+            "one saved session (.json); without FILES, the bundled demonstration set. Needs a display. Returns",
+            "when the window is closed.",
             ""},
         footer = {"", "Exit codes: 0 closed normally; 2 no display or a file that does not exist."})
 final class ViewCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
-    @Parameters(index = "0..*", arity = "0..*", paramLabel = "FILES", description = "Map files or folders of maps.")
+    @Parameters(index = "0..*", arity = "0..*", paramLabel = "FILES", description = "Map files, folders of maps, or one session file.")
     List<Path> files;
 
     @Override

@@ -28,7 +28,8 @@ public final class ViewerApp {
     }
 
     /**
-     * Opens the viewer on {@code files} (maps or folders) and returns when its window is closed.
+     * Opens the viewer on {@code files} (maps or folders, or one session {@code .json} file) and returns when its
+     * window is closed.
      *
      * @throws java.awt.HeadlessException when there is no display
      */
@@ -65,7 +66,12 @@ public final class ViewerApp {
                     : RecentFiles.inPreferences(PREFERENCES));
             w.setLocationByPlatform(true);
             w.setVisible(true);
-            w.open(files);
+            if (files.size() == 1 && files.get(0).getFileName().toString().toLowerCase(java.util.Locale.ROOT)
+                    .endsWith(".json")) {
+                w.loadSession(files.get(0));
+            } else {
+                w.open(files);
+            }
             ref.set(w);
         };
         if (SwingUtilities.isEventDispatchThread()) {

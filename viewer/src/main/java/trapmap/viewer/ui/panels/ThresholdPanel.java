@@ -78,6 +78,15 @@ public final class ThresholdPanel extends JPanel {
         table.setName("regionTable");
         table.setSelectionMode(ListSelectionModel.SINGLE_SELECTION);
         table.setAutoCreateRowSorter(true);
+        table.setDefaultRenderer(Double.class, new javax.swing.table.DefaultTableCellRenderer() {
+            private static final long serialVersionUID = 1L;
+
+            @Override
+            protected void setValue(Object v) {
+                setHorizontalAlignment(RIGHT);
+                setText(v instanceof Double d ? Units.number(d) : String.valueOf(v));
+            }
+        });
         table.setToolTipText("Flagged regions: area mm², centroid in wafer mm (x right, y up), peak value; click a row"
                 + " to zoom there");
         table.getSelectionModel().addListSelectionListener(e -> {
@@ -275,7 +284,7 @@ public final class ThresholdPanel extends JPanel {
                 case 1 -> round(g.areaMm2(), 1);
                 case 2 -> round(g.centroidXMm(), 1);
                 case 3 -> round(g.centroidYMm(), 1);
-                default -> Double.valueOf(Units.number(g.peakValue()).replace("–", "NaN"));
+                default -> g.peakValue();
             };
         }
 
