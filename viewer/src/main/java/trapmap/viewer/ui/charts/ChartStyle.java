@@ -3,6 +3,9 @@ package trapmap.viewer.ui.charts;
 import java.awt.BasicStroke;
 import java.awt.Color;
 import java.awt.Font;
+import java.text.FieldPosition;
+import java.text.NumberFormat;
+import java.text.ParsePosition;
 import org.jfree.chart.JFreeChart;
 import org.jfree.chart.axis.LogAxis;
 import org.jfree.chart.axis.NumberAxis;
@@ -10,7 +13,7 @@ import org.jfree.chart.axis.ValueAxis;
 import org.jfree.chart.plot.XYPlot;
 
 /** The common look of the viewer's charts: white plot, light grid, readable fonts, log axes with decade labels. */
-final class ChartStyle {
+public final class ChartStyle {
     static final Color GRID = new Color(0xDDDDDD);
     static final Color BARS = new Color(0x3A6EA5);
     static final Color MARKER = new Color(0xC2185B);
@@ -20,6 +23,24 @@ final class ChartStyle {
     static final Font SUBTITLE = new Font(Font.SANS_SERIF, Font.PLAIN, 11);
     static final Font AXIS = new Font(Font.SANS_SERIF, Font.PLAIN, 11);
     static final Font TICKS = new Font(Font.SANS_SERIF, Font.PLAIN, 10);
+
+    /** Tick labels of three significant digits ({@link Labels#compact}): 150, 2.5e12. */
+    public static final NumberFormat TICK_FORMAT = new NumberFormat() {
+        @Override
+        public StringBuffer format(double number, StringBuffer toAppendTo, FieldPosition pos) {
+            return toAppendTo.append(Labels.compact(number));
+        }
+
+        @Override
+        public StringBuffer format(long number, StringBuffer toAppendTo, FieldPosition pos) {
+            return toAppendTo.append(Labels.compact(number));
+        }
+
+        @Override
+        public Number parse(String source, ParsePosition parsePosition) {
+            return null;
+        }
+    };
 
     private ChartStyle() {
     }
@@ -58,11 +79,12 @@ final class ChartStyle {
     }
 
     /** A base-10 logarithmic axis labelled at decades, e.g. 10¹², 10¹³. */
-    static LogAxis logAxis(String label) {
+    public static LogAxis logAxis(String label) {
         LogAxis a = new LogAxis(label);
         a.setBase(10);
         a.setSmallestValue(1e-300);
         a.setMinorTickMarksVisible(true);
+        a.setNumberFormatOverride(TICK_FORMAT);
         return a;
     }
 

@@ -79,11 +79,11 @@ public class HistogramView extends JPanel {
             }
             if (!Double.isNaN(threshold) && !s.areaFractions().isEmpty()) {
                 MapStatistics.AreaFraction a = s.areaFraction(threshold);
-                String t = Labels.number(threshold, quantity.unit());
-                r.add(new Row("below " + t, Labels.number(a.areaBelowMm2()) + " (" + Labels.percent(a.fractionBelow())
-                        + ")", "mm²"));
-                r.add(new Row("above " + t, Labels.number(a.areaAboveMm2()) + " (" + Labels.percent(a.fractionAbove())
-                        + ")", "mm²"));
+                r.add(new Row("threshold", Labels.number(threshold), u));
+                r.add(new Row("area below threshold (" + Labels.percent(a.fractionBelow()) + ")",
+                        Labels.number(a.areaBelowMm2()), "mm²"));
+                r.add(new Row("area above threshold (" + Labels.percent(a.fractionAbove()) + ")",
+                        Labels.number(a.areaAboveMm2()), "mm²"));
             }
             return r;
         }

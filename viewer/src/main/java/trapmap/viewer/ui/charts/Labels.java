@@ -1,5 +1,7 @@
 package trapmap.viewer.ui.charts;
 
+import java.math.BigDecimal;
+import java.math.MathContext;
 import java.util.Locale;
 import trapmap.maps.model.Quantity;
 
@@ -57,10 +59,19 @@ public final class Labels {
     }
 
     /**
-     * A number with about four significant digits: plain for 0.01 ≤ |v| &lt; 1e5, otherwise in the form 2.35e14;
-     * "n/a" for NaN, "∞" for infinity.
+     * A number with four significant digits: plain for 0.01 ≤ |v| &lt; 1e5, otherwise in the form 2.35e14; "n/a" for
+     * NaN, "∞" for infinity.
      */
     public static String number(double v) {
+        return significant(v, 4);
+    }
+
+    /** A number with three significant digits, as {@link #number(double)}: for axis ticks. */
+    public static String compact(double v) {
+        return significant(v, 3);
+    }
+
+    private static String significant(double v, int digits) {
         if (Double.isNaN(v)) {
             return "n/a";
         }
@@ -70,19 +81,15 @@ public final class Labels {
         if (v == 0) {
             return "0";
         }
-        double a = Math.abs(v);
+        BigDecimal r = new BigDecimal(v).round(new MathContext(digits)).stripTrailingZeros();
+        double a = Math.abs(r.doubleValue());
         if (a >= 0.01 && a < 1e5) {
-            String s = String.format(Locale.ROOT, "%.4g", v);
-            if (s.contains(".") && !s.contains("e")) {
-                s = s.replaceAll("0+$", "").replaceAll("\\.$", "");
-            }
-            return s;
+            return r.toPlainString();
         }
-        String s = String.format(Locale.ROOT, "%.3e", v);
-        String[] parts = s.split("e");
-        String mantissa = parts[0].replaceAll("0+$", "").replaceAll("\\.$", "");
-        int exponent = Integer.parseInt(parts[1]);
-        return mantissa + "e" + exponent;
+        String mantissa = r.unscaledValue().abs().toString();
+        int exponent = mantissa.length() - 1 - r.scale();
+        String m = mantissa.length() == 1 ? mantissa : mantissa.charAt(0) + "." + mantissa.substring(1);
+        return (r.signum() < 0 ? "-" : "") + m + "e" + exponent;
     }
 
     /** A number followed by its unit (no unit: the number alone). */
