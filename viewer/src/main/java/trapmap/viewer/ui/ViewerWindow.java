@@ -61,6 +61,7 @@ import trapmap.physics.defect.Defect;
 import trapmap.maps.process.ConversionSettings;
 import trapmap.maps.profile.LineProfile;
 import trapmap.maps.profile.RadialProfile;
+import trapmap.viewer.report.WaferReport;
 import trapmap.viewer.ui.canvas.ColourBar;
 import trapmap.viewer.ui.canvas.DisplayStyle;
 import trapmap.viewer.ui.charts.ChartExport;
@@ -963,8 +964,60 @@ public final class ViewerWindow extends JFrame {
         }
     }
 
+    /** The report page of a wafer's results as shown: style, mask, flags, outline, conditions, defect, notes. */
+    static WaferReport.Content reportContent(ViewerModel.OpenWafer w, WaferAnalysis r, DisplayStyle style,
+                                             Defect defect) {
+        Analysis a = r.analysis();
+        List<String> notes = new ArrayList<>();
+        notes.add(String.format(Locale.ROOT, "%s: flagged regions cover %s of the evaluated area (%d regions; pixels %s"
+                + " %s %s, regions of at least %s mm²); pass up to %s", r.pass() ? "PASS" : "FAIL",
+                trapmap.viewer.ui.model.Units.percent(r.flaggedFraction()), r.regions().size(),
+                a.threshold().side().name().toLowerCase(Locale.ROOT), trapmap.viewer.ui.model.Units.number(
+                a.threshold().value()), a.quantity().unit(), trapmap.viewer.ui.model.Units.number(
+                a.threshold().minAreaMm2()), trapmap.viewer.ui.model.Units.percent(a.threshold()
+                .maxFlaggedFraction())));
+        notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f µs, median %.1f µs over %.0f mm² (edge"
+                + " exclusion %s mm)", r.lifetimeStats().harmonicMean(), r.lifetimeStats().median(),
+                r.lifetimeStats().areaMm2(), trapmap.viewer.ui.model.Units.number(a.edgeExclusionMm())));
+        r.warnings().forEach(x -> notes.add("caution: " + x.name().toLowerCase(Locale.ROOT).replace('_', ' ')));
+        return WaferReport.Content.of(r.displayed(), w.path().toString()).withStyle(style)
+                .withStatisticsMask(r.mask()).withFlags(a.threshold().value(), r.flagged(), r.regions())
+                .withOutline(r.shape(), a.edgeExclusionMm()).withConditions(r.lifetime().conditions())
+                .withDefect(a.quantity() == DisplayedQuantity.LIFETIME ? null : defect).withNotes(notes);
+    }
+
     private void report() {
-        status.setMessage("wafer reports are not available in this build");
+        ViewerModel.OpenWafer w = model.selected();
+        WaferAnalysis r = w == null ? null : w.result();
+        if (r == null || canvas.style() == null) {
+            status.setMessage("no results to report yet");
+            return;
+        }
+        Path p = askSave(w.name() + "-report.pdf", "pdf", "PDF documents");
+        if (p == null) {
+            return;
+        }
+        WaferReport.Content page = reportContent(w, r, canvas.style(), model.defects().byId(r.analysis()
+                .defectId()));
+        status.setProgress(0, "report");
+        new SwingWorker<Void, Void>() {
+            @Override
+            protected Void doInBackground() throws IOException {
+                WaferReport.write(page, p);
+                return null;
+            }
+
+            @Override
+            protected void done() {
+                status.setProgress(-1, null);
+                try {
+                    get();
+                    status.setMessage("report saved to " + p);
+                } catch (Exception e) {
+                    error("Report not written", e);
+                }
+            }
+        }.execute();
     }
 
     private void compare(boolean iron) {
