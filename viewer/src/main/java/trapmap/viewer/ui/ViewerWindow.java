@@ -851,22 +851,6 @@ public final class ViewerWindow extends JFrame {
         return p;
     }
 
-    /** Writes bytes atomically: a temporary file beside the target, then a rename. */
-    static void writeAtomically(Path target, byte[] bytes) throws IOException {
-        Path dir = target.toAbsolutePath().getParent();
-        Path tmp = Files.createTempFile(dir, "." + target.getFileName(), ".tmp");
-        try {
-            Files.write(tmp, bytes);
-            try {
-                Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
-            } catch (AtomicMoveNotSupportedException e) {
-                Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING);
-            }
-        } finally {
-            Files.deleteIfExists(tmp);
-        }
-    }
-
     /** The map view as shown, as a picture (canvas and colour bar side by side). */
     public BufferedImage viewImage() {
         int w = Math.max(1, canvas.getWidth());
@@ -898,27 +882,11 @@ public final class ViewerWindow extends JFrame {
         try {
             java.io.ByteArrayOutputStream out = new java.io.ByteArrayOutputStream();
             ImageIO.write(viewImage(), "png", out);
-            writeAtomically(p, out.toByteArray());
+            ViewerExports.writeAtomically(p, out.toByteArray());
             status.setMessage("view saved to " + p);
         } catch (IOException e) {
             error("View not saved", e);
         }
-    }
-
-    /** The flagged regions of a result as CSV text (units in the column names). */
-    public static String regionsCsv(WaferAnalysis r) throws IOException {
-        String unit = r.analysis().quantity().quantity().unit().replace("µs", "us");
-        String suffix = unit.isEmpty() ? "" : "_" + unit.replace("^-3", "-3").replace(" ", "");
-        StringWriter sw = new StringWriter();
-        try (CSVPrinter csv = new CSVPrinter(sw, CSVFormat.DEFAULT.builder().setRecordSeparator("\n").get())) {
-            csv.printRecord("id", "area_mm2", "centroid_x_mm", "centroid_y_mm", "peak" + suffix, "peak_x_mm",
-                    "peak_y_mm", "mean" + suffix, "edge_distance_mm");
-            for (Region g : r.regions().regions()) {
-                csv.printRecord(g.id(), g.areaMm2(), g.centroidXMm(), g.centroidYMm(), g.peakValue(), g.peakXMm(),
-                        g.peakYMm(), g.meanValue(), g.edgeDistanceMm());
-            }
-        }
-        return sw.toString();
     }
 
     private void exportRegions() {
@@ -932,7 +900,7 @@ public final class ViewerWindow extends JFrame {
             return;
         }
         try {
-            writeAtomically(p, regionsCsv(w.result()).getBytes(StandardCharsets.UTF_8));
+            ViewerExports.writeAtomically(p, ViewerExports.regionsCsv(w.result()).getBytes(StandardCharsets.UTF_8));
             status.setMessage(w.result().regions().size() + " regions saved to " + p);
         } catch (IOException e) {
             error("Regions not saved", e);
@@ -964,28 +932,6 @@ public final class ViewerWindow extends JFrame {
         }
     }
 
-    /** The report page of a wafer's results as shown: style, mask, flags, outline, conditions, defect, notes. */
-    static WaferReport.Content reportContent(ViewerModel.OpenWafer w, WaferAnalysis r, DisplayStyle style,
-                                             Defect defect) {
-        Analysis a = r.analysis();
-        List<String> notes = new ArrayList<>();
-        notes.add(String.format(Locale.ROOT, "%s: flagged regions cover %s of the evaluated area (%d regions; pixels %s"
-                + " %s %s, regions of at least %s mm²); pass up to %s", r.pass() ? "PASS" : "FAIL",
-                trapmap.viewer.ui.model.Units.percent(r.flaggedFraction()), r.regions().size(),
-                a.threshold().side().name().toLowerCase(Locale.ROOT), trapmap.viewer.ui.model.Units.number(
-                a.threshold().value()), a.quantity().unit(), trapmap.viewer.ui.model.Units.number(
-                a.threshold().minAreaMm2()), trapmap.viewer.ui.model.Units.percent(a.threshold()
-                .maxFlaggedFraction())));
-        notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f µs, median %.1f µs over %.0f mm² (edge"
-                + " exclusion %s mm)", r.lifetimeStats().harmonicMean(), r.lifetimeStats().median(),
-                r.lifetimeStats().areaMm2(), trapmap.viewer.ui.model.Units.number(a.edgeExclusionMm())));
-        r.warnings().forEach(x -> notes.add("caution: " + x.name().toLowerCase(Locale.ROOT).replace('_', ' ')));
-        return WaferReport.Content.of(r.displayed(), w.path().toString()).withStyle(style)
-                .withStatisticsMask(r.mask()).withFlags(a.threshold().value(), r.flagged(), r.regions())
-                .withOutline(r.shape(), a.edgeExclusionMm()).withConditions(r.lifetime().conditions())
-                .withDefect(a.quantity() == DisplayedQuantity.LIFETIME ? null : defect).withNotes(notes);
-    }
-
     private void report() {
         ViewerModel.OpenWafer w = model.selected();
         WaferAnalysis r = w == null ? null : w.result();
@@ -997,7 +943,7 @@ public final class ViewerWindow extends JFrame {
         if (p == null) {
             return;
         }
-        WaferReport.Content page = reportContent(w, r, canvas.style(), model.defects().byId(r.analysis()
+        WaferReport.Content page = ViewerExports.reportContent(w, r, canvas.style(), model.defects().byId(r.analysis()
                 .defectId()));
         status.setProgress(0, "report");
         new SwingWorker<Void, Void>() {

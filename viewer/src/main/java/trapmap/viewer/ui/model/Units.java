@@ -17,8 +17,9 @@ public final class Units {
     }
 
     /**
-     * A number with about four significant digits: plain between 0.01 and 99 999, otherwise in scientific notation
-     * ({@code 3.2e11}); NaN prints as "–".
+     * A number with three or four significant digits and no trailing zeros: plain between 0.01 and 99 999
+     * ({@code 4}, {@code 16.5}, {@code 183.3}), otherwise in scientific notation ({@code 3e11}, {@code 1.65e11});
+     * NaN prints as "–".
      */
     public static String number(double v) {
         if (Double.isNaN(v)) {
@@ -32,10 +33,20 @@ public final class Units {
             return "0";
         }
         if (a >= 0.01 && a < 1e5) {
-            String s = String.format(Locale.ROOT, a >= 100 ? "%.1f" : a >= 1 ? "%.3g" : "%.3g", v);
-            return s.contains("e") ? String.format(Locale.ROOT, "%.2f", v) : s;
+            String s = String.format(Locale.ROOT, a >= 100 ? "%.1f" : "%.3g", v);
+            if (s.contains("e")) {
+                s = String.format(Locale.ROOT, "%.2f", v);
+            }
+            return trim(s);
         }
-        return String.format(Locale.ROOT, "%.2e", v).replace("e+0", "e").replace("e+", "e").replace("e-0", "e-");
+        String s = String.format(Locale.ROOT, "%.2e", v);
+        int e = s.indexOf('e');
+        return trim(s.substring(0, e)) + s.substring(e).replace("e+0", "e").replace("e+", "e").replace("e-0", "e-");
+    }
+
+    /** Drops trailing zeros after a decimal point: 4.00 → 4, 2.50 → 2.5. */
+    private static String trim(String s) {
+        return s.contains(".") ? s.replaceAll("0+$", "").replaceAll("\\.$", "") : s;
     }
 
     /** A number followed by its unit, e.g. {@code 3.20e11 cm⁻³}. */
