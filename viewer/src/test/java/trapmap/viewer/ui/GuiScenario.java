@@ -22,7 +22,7 @@ import trapmap.viewer.ui.model.WaferAnalysis;
  * The real window on a display (run in its own JVM by {@link ViewerWindowGuiTest}): opens the demonstration folder,
  * selects one wafer, types a threshold into the threshold field, waits for the analysis and prints the number of
  * rows of the region table beside the count {@link ThresholdRegions} gives for that threshold:
- * {@code GUI-RESULT wafers=17 table=N expected=N threshold=35.0 fraction=…}. Exit status 0 when it got that far.
+ * {@code GUI-RESULT wafers=17 table=N expected=N model=N threshold=120.0 …}. Exit status 0 when it got that far.
  */
 public final class GuiScenario {
     private GuiScenario() {
