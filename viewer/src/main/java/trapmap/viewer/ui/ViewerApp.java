@@ -66,6 +66,9 @@ public final class ViewerApp {
                     : RecentFiles.inPreferences(PREFERENCES));
             w.setLocationByPlatform(true);
             w.setVisible(true);
+            w.toFront();
+            w.canvas().setFocusable(true);
+            w.canvas().requestFocusInWindow();
             if (files.size() == 1 && files.get(0).getFileName().toString().toLowerCase(java.util.Locale.ROOT)
                     .endsWith(".json")) {
                 w.loadSession(files.get(0));
