@@ -70,6 +70,17 @@ public final class GuiScenario {
             WaferAnalysis r = m.selected().result();
             int expected = ThresholdRegions.find(r.lifetime(), r.mask(), RegionCriteria.below(threshold,
                     r.analysis().threshold().minAreaMm2()), r.shape()).size();
+            // Edit ▸ Undo through the menu item: back to the default threshold, and the table follows
+            double before = onEdt(() -> {
+                javax.swing.JMenuItem undo = findMenuItem(w.getJMenuBar(), "Undo threshold");
+                undo.doClick();
+                return m.analysis().threshold().value();
+            });
+            waitFor("the undone threshold analysed", () -> w.idle() && m.upToDate(m.selectedIndex())
+                    && w.thresholdPanel().regionRows() == m.selected().result().regions().size());
+            int undoneRows = onEdt(() -> w.thresholdPanel().regionRows());
+            System.out.printf(Locale.ROOT, "GUI-UNDO threshold=%s table=%d model=%d%n", before, undoneRows,
+                    m.selected().result().regions().size());
             System.out.printf(Locale.ROOT, "GUI-RESULT wafers=%d table=%d expected=%d model=%d threshold=%s"
                     + " fraction=%.6f title=%s summary=%s%n", m.size(), table, expected, r.regions().size(),
                     r.analysis().threshold().value(), r.flaggedFraction(), title,
@@ -82,6 +93,19 @@ public final class GuiScenario {
             t.printStackTrace(System.out);
             System.exit(1);
         }
+    }
+
+    private static javax.swing.JMenuItem findMenuItem(javax.swing.JMenuBar bar, String text) {
+        for (int i = 0; i < bar.getMenuCount(); i++) {
+            javax.swing.JMenu menu = bar.getMenu(i);
+            for (int k = 0; k < menu.getItemCount(); k++) {
+                javax.swing.JMenuItem item = menu.getItem(k);
+                if (item != null && text.equals(item.getText())) {
+                    return item;
+                }
+            }
+        }
+        throw new IllegalStateException("no menu item '" + text + "'");
     }
 
     private static boolean allUpToDate(ViewerModel m) {

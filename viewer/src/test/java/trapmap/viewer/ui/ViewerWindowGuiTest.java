@@ -65,6 +65,11 @@ class ViewerWindowGuiTest {
                     .isEqualTo(Integer.parseInt(m.group(4))).isGreaterThan(1);
             assertThat(Double.parseDouble(m.group(5))).isEqualTo(120.0);
             assertThat(out).contains("title=trapmap — LOT-A01-W05.tif");
+            Matcher u = Pattern.compile("GUI-UNDO threshold=([0-9.]+) table=(\\d+) model=(\\d+)").matcher(out);
+            assertThat(u.find()).as("undo line in:%n%s", out).isTrue();
+            assertThat(Double.parseDouble(u.group(1))).as("threshold after Edit ▸ Undo").isEqualTo(20.0);
+            assertThat(u.group(2)).isEqualTo(u.group(3));
+            assertThat(Integer.parseInt(u.group(2))).as("fewer regions at 20 µs than at 120 µs").isLessThan(table);
         } finally {
             if (xvfb != null) {
                 xvfb.destroy();

@@ -105,8 +105,21 @@ public final class GalleryPanel extends JPanel {
         return true;
     }
 
+    /** The lifetime picture of a wafer; cached once its lifetime map is known (a PL map needs its analysis). */
     private Image thumbnail(ViewerModel.OpenWafer w) {
-        return thumbs.computeIfAbsent(w, k -> {
+        Image cached = thumbs.get(w);
+        if (cached != null) {
+            return cached;
+        }
+        Image img = render(w);
+        if (w.result() != null) {
+            thumbs.put(w, img);
+        }
+        return img;
+    }
+
+    private static Image render(ViewerModel.OpenWafer k) {
+        {
             WaferAnalysis r = k.result();
             BufferedImage full = MapFiles.picture(r != null ? r.lifetime() : k.map(), PngStyle.DEFAULT);
             double s = (double) THUMB / Math.max(full.getWidth(), full.getHeight());
@@ -118,7 +131,7 @@ public final class GalleryPanel extends JPanel {
             g.drawImage(full, 0, 0, tw, th, null);
             g.dispose();
             return t;
-        });
+        }
     }
 
     /** One wafer card. */
