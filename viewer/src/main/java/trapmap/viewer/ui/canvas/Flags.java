@@ -28,12 +28,15 @@ final class Flags {
             int to = Math.min(n, from + CHUNK);
             for (int base = from; base < to; base += 64) {
                 int end = Math.min(to, base + 64);
+                // branch-free comparisons (false for NaN): noisy maps would defeat branch prediction
                 long word = 0;
-                for (int i = base; i < end; i++) {
-                    float v = s[i];
-                    boolean hit = above ? v > threshold : v < threshold; // false for NaN
-                    if (hit) {
-                        word |= 1L << (i - base);
+                if (above) {
+                    for (int i = base; i < end; i++) {
+                        word |= (s[i] > threshold ? 1L : 0L) << (i - base);
+                    }
+                } else {
+                    for (int i = base; i < end; i++) {
+                        word |= (s[i] < threshold ? 1L : 0L) << (i - base);
                     }
                 }
                 if (word != 0 && mask != null) {

@@ -94,6 +94,7 @@ public class MapCanvas extends JComponent {
     static final Color OUTLINE_COLOUR = new Color(0xF0F0F0);
     static final Color OUTLINE_SHADOW = new Color(0x202020);
     static final Color LINE_COLOUR = new Color(0xFFFFFF);
+    static final Color GRID_COLOUR = new Color(0x8A8A8A);
 
     private static final ExecutorService PYRAMID_BUILDER = Executors.newSingleThreadExecutor(r -> {
         Thread t = new Thread(r, "trapmap-map-pyramid");
@@ -110,6 +111,7 @@ public class MapCanvas extends JComponent {
     private double edgeExclusionMm;
     private Path2D.Double outlineMm;
     private Path2D.Double exclusionMm;
+    private OutlineImage outlineImage;
     private Line2D lineMm;
     private boolean lineTool;
     private Consumer<Probe> probeListener = p -> { };
@@ -665,7 +667,7 @@ public class MapCanvas extends JComponent {
 
     private void drawPixelGrid(Graphics2D g) {
         int[] v = visiblePixels();
-        g.setColor(new Color(128, 128, 128, 70));
+        g.setColor(GRID_COLOUR);
         int top = iy(screenY(v[1]));
         int bottom = iy(screenY(v[3]));
         int left = ix(screenX(v[0]));
@@ -714,11 +716,7 @@ public class MapCanvas extends JComponent {
         g.setRenderingHint(RenderingHints.KEY_STROKE_CONTROL, RenderingHints.VALUE_STROKE_PURE);
         AffineTransform t = mmToScreen();
         if (outlineMm != null) {
-            drawHaloed(g, t.createTransformedShape(outlineMm), new BasicStroke(1.5f), OUTLINE_COLOUR);
-        }
-        if (exclusionMm != null) {
-            drawHaloed(g, t.createTransformedShape(exclusionMm), new BasicStroke(1.2f, BasicStroke.CAP_BUTT,
-                    BasicStroke.JOIN_ROUND, 10, new float[] {6, 4}, 0), OUTLINE_COLOUR);
+            drawOutline(g, t);
         }
         if (lineMm != null) {
             drawProfileLine(g, t, lineMm);
@@ -727,6 +725,47 @@ public class MapCanvas extends JComponent {
             drawProfileLine(g, t, new Line2D.Double(lineStartMm[0], lineStartMm[1], lineEndMm[0], lineEndMm[1]));
         }
         drawScaleBar(g);
+    }
+
+    /**
+     * Wafer edge and edge-exclusion line. Stroking the 1440-point polygons with antialiasing costs several ms, so
+     * while the whole outline is on or near the screen it is drawn once per zoom into an image that panning only
+     * moves (by whole pixels); zoomed in, only the visible part is stroked directly.
+     */
+    private void drawOutline(Graphics2D g, AffineTransform t) {
+        java.awt.Rectangle b = t.createTransformedShape(outlineMm).getBounds();
+        b.grow(4, 4);
+        if ((long) b.width * b.height > (long) getWidth() * getHeight()) {
+            strokeOutline(g, t);
+            return;
+        }
+        double ox = t.getTranslateX();
+        double oy = t.getTranslateY();
+        OutlineImage c = outlineImage;
+        if (c == null || c.scale() != t.getScaleX() || c.edge() != outlineMm || c.exclusion() != exclusionMm) {
+            BufferedImage img = new BufferedImage(b.width, b.height, BufferedImage.TYPE_INT_ARGB);
+            Graphics2D ig = img.createGraphics();
+            ig.setRenderingHints(g.getRenderingHints());
+            AffineTransform local = new AffineTransform(t);
+            local.preConcatenate(AffineTransform.getTranslateInstance(-b.x, -b.y));
+            strokeOutline(ig, local);
+            ig.dispose();
+            c = new OutlineImage(img, t.getScaleX(), outlineMm, exclusionMm, ox, oy, b.x, b.y);
+            outlineImage = c;
+        }
+        g.drawImage(c.image(), c.x() + (int) Math.round(ox - c.ox()), c.y() + (int) Math.round(oy - c.oy()), null);
+    }
+
+    private record OutlineImage(BufferedImage image, double scale, Path2D edge, Path2D exclusion, double ox,
+                                double oy, int x, int y) {
+    }
+
+    private void strokeOutline(Graphics2D g, AffineTransform t) {
+        drawHaloed(g, t.createTransformedShape(outlineMm), new BasicStroke(1.5f), OUTLINE_COLOUR);
+        if (exclusionMm != null) {
+            drawHaloed(g, t.createTransformedShape(exclusionMm), new BasicStroke(1.2f, BasicStroke.CAP_BUTT,
+                    BasicStroke.JOIN_ROUND, 10, new float[] {6, 4}, 0), OUTLINE_COLOUR);
+        }
     }
 
     private static void drawHaloed(Graphics2D g, Shape s, Stroke stroke, Color c) {

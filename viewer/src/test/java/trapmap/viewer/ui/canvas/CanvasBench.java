@@ -1,18 +1,22 @@
 package trapmap.viewer.ui.canvas;
 
 import java.awt.Graphics2D;
+import java.awt.geom.Line2D;
 import java.awt.image.BufferedImage;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.BitSet;
 import java.util.List;
 import java.util.Locale;
+import trapmap.maps.geometry.Fiducial;
+import trapmap.maps.geometry.RoundWafer;
 import trapmap.maps.io.ColourMap;
 import trapmap.maps.model.WaferMap;
 
 /**
- * Frame times of {@link MapCanvas} painting a synthetic 4096² wafer map into a 1600×1000 off-screen image through
- * its real paint path (run by {@code scripts/bench-viewer}). Prints median and 95th percentile per scenario:
+ * Frame times of {@link MapCanvas} painting a synthetic 4096² wafer map, with wafer outline, edge-exclusion line and
+ * profile line, into a 1600×1000 off-screen image through its real paint path (run by {@code scripts/bench-viewer}).
+ * Prints median, 95th percentile and maximum per scenario:
  * <ul>
  *   <li>zoom: 24 frames from the fitted view to 64 screen pixels per map pixel about off-centre points, with an
  *       empty tile cache (cold) and then again (warm);</li>
@@ -36,6 +40,8 @@ public final class CanvasBench {
         canvas.setSize(W, H);
         canvas.setMap(map);
         canvas.awaitPyramid();
+        canvas.setOutline(RoundWafer.of(156, new Fiducial.Notch(1, 90)), 3);
+        canvas.setLine(new Line2D.Double(-60, -10, 50, 40));
     }
 
     public static void main(String[] args) {
@@ -43,8 +49,8 @@ public final class CanvasBench {
         int rounds = args.length > 1 ? Integer.parseInt(args[1]) : 3;
         long t0 = System.nanoTime();
         WaferMap map = SyntheticMaps.wafer(n);
-        System.out.printf(Locale.ROOT, "map %dx%d generated in %.0f ms; view %dx%d; %d cores%n", n, n,
-                (System.nanoTime() - t0) / 1e6, W, H, Runtime.getRuntime().availableProcessors());
+        System.out.printf(Locale.ROOT, "map %dx%d generated in %.0f ms; view %dx%d; %d cores; load average %.1f%n", n,
+                n, (System.nanoTime() - t0) / 1e6, W, H, Runtime.getRuntime().availableProcessors(), load());
         long p0 = System.nanoTime();
         CanvasBench b = new CanvasBench(map);
         System.out.printf(Locale.ROOT, "pyramid built in %.0f ms (first run, includes JIT warm-up)%n",
@@ -56,6 +62,12 @@ public final class CanvasBench {
             }
             b.run(report, r);
         }
+        System.out.printf(Locale.ROOT, "load average at the end %.1f (above the core count, other programs share the"
+                + " cores and the times grow accordingly)%n", load());
+    }
+
+    private static double load() {
+        return java.lang.management.ManagementFactory.getOperatingSystemMXBean().getSystemLoadAverage();
     }
 
     private void run(boolean report, int round) {
