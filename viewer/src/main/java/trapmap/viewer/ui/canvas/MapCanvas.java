@@ -107,8 +107,6 @@ public class MapCanvas extends JComponent {
     private DisplayStyle style;
     private BitSet flagged;
     private long[] flaggedWords;
-    private WaferShape outline;
-    private double edgeExclusionMm;
     private Path2D.Double outlineMm;
     private Path2D.Double exclusionMm;
     private OutlineImage outlineImage;
@@ -125,7 +123,8 @@ public class MapCanvas extends JComponent {
     private final TileCache<BufferedImage> tiles = new TileCache<>(TILE_CACHE_BYTES);
     private final TileCache<BufferedImage> tints = new TileCache<>(TINT_CACHE_BYTES);
     private static final BufferedImage NO_TINT = new BufferedImage(1, 1, BufferedImage.TYPE_INT_ARGB);
-    private boolean fitPending;
+    /** A fit or zoom asked for before the component had a size, done at the first frame. */
+    private Runnable pendingView;
     private int tilesColoured;
     private int deferredTiles;
 
@@ -184,7 +183,7 @@ public class MapCanvas extends JComponent {
             pyramidDone = CompletableFuture.runAsync(() -> p.build(cancel), PYRAMID_BUILDER)
                     .whenComplete((v, e) -> SwingUtilities.invokeLater(this::repaint));
             if (old == null || old.width() != map.width() || old.height() != map.height()) {
-                fitPending = true;
+                pendingView = this::fit;
             }
         }
         if (flagged != null && map != null && flagged.length() > map.width() * map.height()) {
@@ -225,8 +224,6 @@ public class MapCanvas extends JComponent {
      * no exclusion line); a null shape clears both.
      */
     public void setOutline(WaferShape shape, double edgeExclusionMm) {
-        this.outline = shape;
-        this.edgeExclusionMm = edgeExclusionMm;
         outlineMm = shape == null ? null : OutlinePath.trace(shape, 0);
         exclusionMm = shape == null || !(edgeExclusionMm > 0) ? null : OutlinePath.trace(shape, edgeExclusionMm);
         repaint();
@@ -255,16 +252,16 @@ public class MapCanvas extends JComponent {
         this.lineListener = l == null ? x -> { } : l;
     }
 
-    /** Whole map visible and centred. */
+    /** Whole map visible and centred (at the first frame if the canvas has no size yet). */
     public void fit() {
         if (map == null) {
             return;
         }
         if (getWidth() <= 0 || getHeight() <= 0) {
-            fitPending = true;
+            pendingView = this::fit;
             return;
         }
-        fitPending = false;
+        pendingView = null;
         viewport.set(fitZoom(), map.width() / 2.0, map.height() / 2.0);
     }
 
@@ -273,11 +270,16 @@ public class MapCanvas extends JComponent {
         zoomAbout(factor, getWidth() / 2.0, getHeight() / 2.0);
     }
 
-    /** Shows the given rectangle in map millimetres, with a small margin. */
+    /** Shows the given rectangle in map millimetres, with a small margin (at the first frame if not yet shown). */
     public void zoomToMm(double minXMm, double minYMm, double maxXMm, double maxYMm) {
-        if (map == null || getWidth() <= 0 || getHeight() <= 0) {
+        if (map == null) {
             return;
         }
+        if (getWidth() <= 0 || getHeight() <= 0) {
+            pendingView = () -> zoomToMm(minXMm, minYMm, maxXMm, maxYMm);
+            return;
+        }
+        pendingView = null;
         PixelGrid g = map.grid();
         double x0 = g.xPx(Math.min(minXMm, maxXMm)) + 0.5;
         double x1 = g.xPx(Math.max(minXMm, maxXMm)) + 0.5;
@@ -400,9 +402,10 @@ public class MapCanvas extends JComponent {
     @Override
     protected void paintComponent(Graphics g) {
         long t0 = System.nanoTime();
-        if (fitPending && map != null && getWidth() > 0 && getHeight() > 0) {
-            fitPending = false;
-            viewport.set(fitZoom(), map.width() / 2.0, map.height() / 2.0);
+        if (pendingView != null && map != null && getWidth() > 0 && getHeight() > 0) {
+            Runnable r = pendingView;
+            pendingView = null;
+            r.run();
         }
         Graphics2D g2 = (Graphics2D) g.create();
         try {

@@ -14,13 +14,15 @@ import trapmap.maps.model.WaferMap;
 
 /**
  * A window with one canvas and its colour bar on a synthetic map, for looking at the canvas by eye.
- * Arguments: map side (default 2048), colour map name (default BLUE_YELLOW), zoom factor over the fitted view.
+ * Arguments: map side (default 2048), colour map name (default BLUE_YELLOW), zoom factor over the fitted view or
+ * {@code spotN} to show N mm about the darkest planted spot.
  */
 public final class CanvasPreview {
     public static void main(String[] args) {
         int n = args.length > 0 ? Integer.parseInt(args[0]) : 2048;
         ColourMap colours = args.length > 1 ? ColourMap.valueOf(args[1]) : ColourMap.BLUE_YELLOW;
-        double zoom = args.length > 2 ? Double.parseDouble(args[2]) : 1;
+        double zoom = args.length > 2 && !args[2].startsWith("spot") ? Double.parseDouble(args[2]) : 1;
+        double spotMm = args.length > 2 && args[2].startsWith("spot") ? Double.parseDouble(args[2].substring(4)) : 0;
         WaferMap map = SyntheticMaps.wafer(n);
         BitSet flagged = MapCanvas.flag(map.raster(), null, 150, false);
         SwingUtilities.invokeLater(() -> {
@@ -42,7 +44,10 @@ public final class CanvasPreview {
             f.setSize(1200, 900);
             f.setDefaultCloseOperation(JFrame.EXIT_ON_CLOSE);
             f.setVisible(true);
-            if (zoom != 1) {
+            if (spotMm > 0) {
+                SwingUtilities.invokeLater(() -> canvas.zoomToMm(30 - spotMm, -20 - spotMm, 30 + spotMm,
+                        -20 + spotMm));
+            } else if (zoom != 1) {
                 SwingUtilities.invokeLater(() -> {
                     canvas.fit();
                     canvas.zoomBy(zoom);

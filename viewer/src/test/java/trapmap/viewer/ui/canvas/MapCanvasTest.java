@@ -466,6 +466,18 @@ class MapCanvasTest {
     }
 
     @Test
+    void aZoomAskedForBeforeTheCanvasHasASizeHappensAtTheFirstFrame() {
+        MapCanvas c = new MapCanvas();
+        c.setMap(SyntheticMaps.wafer(400));
+        c.setStyle(LINEAR_0_63);
+        c.awaitPyramid();
+        c.zoomToMm(10, -5, 30, 15);
+        c.setSize(600, 400);
+        paint(c);
+        assertThat(c.viewport().zoom()).isCloseTo(0.9 * 400 / 50, within(1e-9));
+    }
+
+    @Test
     void waferOutlineIsTracedAtTheEdgeAndTheExclusionInside() {
         RoundWafer disk = RoundWafer.disk(150);
         java.awt.geom.PathIterator it = OutlinePath.trace(disk, 0).getPathIterator(null);
