@@ -357,7 +357,7 @@ class MapCanvasTest {
         c.viewport().set(1, 1024, 1024); // level 0, 7 × 5 tiles visible
         BufferedImage img = paint(c);
         assertThat(c.deferredTiles()).isGreaterThan(0);
-        assertThat(c.tilesColoured()).isLessThanOrEqualTo(MapCanvas.NEW_TILES_PER_FRAME + 10);
+        assertThat(c.tilesColoured()).isLessThanOrEqualTo(TileLayer.NEW_TILES_PER_FRAME + 10);
         assertThat(at(img, 2, 2)).as("stand-in drawn, not background").isNotEqualTo(MapCanvas.BACKGROUND.getRGB()
                 & 0xFFFFFF);
         int frames = 1;
@@ -382,7 +382,7 @@ class MapCanvasTest {
         c.setFlagged(flagged);
         c.viewport().set(40, 4, 4);
         BufferedImage img = paint(c);
-        int flag = MapCanvas.FLAG_COLOUR.getRGB() & 0xFFFFFF;
+        int flag = Overlays.FLAG_COLOUR.getRGB() & 0xFFFFFF;
         // pixel (6, 5) = 46 is flagged and its left neighbour 45 is not: an edge on its left side, none inside
         assertThat(at(img, c.screenX(6) + 0.5, c.screenY(5) + 20)).isEqualTo(flag);
         assertThat(at(img, c.screenX(6) + 20, c.screenY(5) + 20)).isNotEqualTo(flag);
@@ -514,10 +514,10 @@ class MapCanvasTest {
 
     @Test
     void scaleBarLengthsAreRound() {
-        assertThat(MapCanvas.niceLength(37)).isEqualTo(20.0);
-        assertThat(MapCanvas.niceLength(7.3)).isEqualTo(5.0);
-        assertThat(MapCanvas.niceLength(0.13)).isCloseTo(0.1, within(1e-12));
-        assertThat(MapCanvas.formatMm(20)).isEqualTo("20 mm");
-        assertThat(MapCanvas.formatMm(0.5)).isEqualTo("500 µm");
+        assertThat(Overlays.niceLength(37)).isEqualTo(20.0);
+        assertThat(Overlays.niceLength(7.3)).isEqualTo(5.0);
+        assertThat(Overlays.niceLength(0.13)).isCloseTo(0.1, within(1e-12));
+        assertThat(Overlays.formatMm(20)).isEqualTo("20 mm");
+        assertThat(Overlays.formatMm(0.5)).isEqualTo("500 µm");
     }
 }
