@@ -22,7 +22,8 @@ import trapmap.maps.model.WaferMap;
  *       empty tile cache (cold) and then again (warm);</li>
  *   <li>pan: 60 frames of 40-screen-pixel steps at several zooms (tiles coloured as they come into view);</li>
  *   <li>threshold: flag all pixels below a threshold ({@link MapCanvas#flag}) and repaint, at the fitted view
- *       (tint) and zoomed in (outlines), for 20 thresholds; flag alone is shown too.</li>
+ *       (tint) and zoomed in (outlines), for 20 thresholds; flag alone is shown too;</li>
+ *   <li>worst case for the flag overlays: half the pixels flagged at random, small pans at four zooms.</li>
  * </ul>
  * Arguments: map side (default 4096), rounds (default 3; the first is a warm-up and not reported).
  */
@@ -84,6 +85,7 @@ public final class CanvasBench {
         double[] flagOnly = new double[20];
         double[] thresholdFit = thresholds(false, flagOnly);
         double[] thresholdZoomed = thresholds(true, null);
+        double[] noisy = noisyFlags();
         if (report) {
             print("zoom, cold tile cache", cold);
             print("  same, until the view is in full detail", coldComplete);
@@ -93,6 +95,7 @@ public final class CanvasBench {
             print("flag() alone, 16 MP", flagOnly);
             print("threshold: flag + repaint, fitted (tint)", thresholdFit);
             print("threshold: flag + repaint, zoomed (outlines)", thresholdZoomed);
+            print("half the pixels flagged at random, warm", noisy);
         }
     }
 
@@ -153,6 +156,30 @@ public final class CanvasBench {
         }
         canvas.setFlagged(null);
         return t;
+    }
+
+    /** Worst case for the flag overlays: every pixel flagged with probability 1/2, frames at several zooms. */
+    private double[] noisyFlags() {
+        BitSet noisy = new BitSet(map.width() * map.height());
+        java.util.SplittableRandom rnd = new java.util.SplittableRandom(17);
+        for (int i = 0; i < map.width() * map.height(); i++) {
+            if (rnd.nextBoolean()) {
+                noisy.set(i);
+            }
+        }
+        canvas.setFlagged(noisy);
+        List<Double> t = new ArrayList<>();
+        for (double zoomOverFit : new double[] {1, 4, 17, 50}) {
+            canvas.fit();
+            canvas.zoomBy(zoomOverFit);
+            paint();
+            for (int i = 0; i < 5; i++) {
+                canvas.panBy(3, 2);
+                t.add(paint());
+            }
+        }
+        canvas.setFlagged(null);
+        return t.stream().mapToDouble(Double::doubleValue).toArray();
     }
 
     private double paint() {

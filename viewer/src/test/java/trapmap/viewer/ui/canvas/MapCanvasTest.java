@@ -250,16 +250,25 @@ class MapCanvasTest {
         }
         FloatRaster r = FloatRaster.wrap(w, h, s);
         Mask mask = Mask.of(w, h, i -> (i * 7919) % 5 != 0);
-        for (boolean above : new boolean[] {true, false}) {
-            for (Mask m : new Mask[] {null, mask}) {
-                BitSet expected = new BitSet();
-                for (int i = 0; i < s.length; i++) {
-                    boolean hit = above ? s[i] > 42.5 : s[i] < 42.5;
-                    if (hit && (m == null || m.containsIndex(i))) {
-                        expected.set(i);
+        s[7] = 42.5f;
+        s[8] = Math.nextUp(42.3f);
+        s[9] = 42.3f;
+        s[10] = Float.POSITIVE_INFINITY;
+        s[11] = Float.intBitsToFloat(0xFFC00000); // NaN with the sign bit set
+        // thresholds exactly representable as float, between two floats, and beyond the float range
+        for (double threshold : new double[] {42.5, 42.3, (double) 42.3f, 1e300, -1e300, Double.POSITIVE_INFINITY}) {
+            for (boolean above : new boolean[] {true, false}) {
+                for (Mask m : new Mask[] {null, mask}) {
+                    BitSet expected = new BitSet();
+                    for (int i = 0; i < s.length; i++) {
+                        boolean hit = above ? s[i] > threshold : s[i] < threshold;
+                        if (hit && (m == null || m.containsIndex(i))) {
+                            expected.set(i);
+                        }
                     }
+                    assertThat(MapCanvas.flag(r, m, threshold, above)).as("%s %s", threshold, above)
+                            .isEqualTo(expected);
                 }
-                assertThat(MapCanvas.flag(r, m, 42.5, above)).isEqualTo(expected);
             }
         }
     }
