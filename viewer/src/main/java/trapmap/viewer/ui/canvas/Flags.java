@@ -21,6 +21,21 @@ final class Flags {
         }
         float[] s = r.samples();
         int n = s.length;
+        if (!Double.isFinite(threshold)) {
+            BitSet b = new BitSet(n);
+            for (int i = 0; i < n; i++) {
+                if (above ? s[i] > threshold : s[i] < threshold) {
+                    if (mask == null || mask.containsIndex(i)) {
+                        b.set(i);
+                    }
+                }
+            }
+            return b;
+        }
+        // for a float v: v > t exactly when v ≥ the smallest float above t, v < t when v ≤ the largest float below
+        float f = (float) threshold;
+        float up = f > threshold ? f : Math.nextUp(f);
+        float down = f < threshold ? f : Math.nextDown(f);
         long[] words = new long[(n + 63) >>> 6];
         int chunks = (n + CHUNK - 1) / CHUNK;
         IntStream.range(0, chunks).parallel().forEach(c -> {
@@ -28,12 +43,15 @@ final class Flags {
             int to = Math.min(n, from + CHUNK);
             for (int base = from; base < to; base += 64) {
                 int end = Math.min(to, base + 64);
+                // branch-free float comparisons (false for NaN): noisy maps would defeat branch prediction
                 long word = 0;
-                for (int i = base; i < end; i++) {
-                    float v = s[i];
-                    boolean hit = above ? v > threshold : v < threshold; // false for NaN
-                    if (hit) {
-                        word |= 1L << (i - base);
+                if (above) {
+                    for (int i = base; i < end; i++) {
+                        word |= (s[i] >= up ? 1L : 0L) << (i - base);
+                    }
+                } else {
+                    for (int i = base; i < end; i++) {
+                        word |= (s[i] <= down ? 1L : 0L) << (i - base);
                     }
                 }
                 if (word != 0 && mask != null) {

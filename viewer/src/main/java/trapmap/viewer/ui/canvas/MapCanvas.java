@@ -1,16 +1,12 @@
 package trapmap.viewer.ui.canvas;
 
-import java.awt.BasicStroke;
 import java.awt.Color;
 import java.awt.Cursor;
 import java.awt.Dimension;
-import java.awt.Font;
 import java.awt.FontMetrics;
 import java.awt.Graphics;
 import java.awt.Graphics2D;
 import java.awt.RenderingHints;
-import java.awt.Shape;
-import java.awt.Stroke;
 import java.awt.event.ActionEvent;
 import java.awt.event.KeyEvent;
 import java.awt.event.MouseAdapter;
@@ -18,11 +14,7 @@ import java.awt.event.MouseEvent;
 import java.awt.event.MouseWheelEvent;
 import java.awt.geom.AffineTransform;
 import java.awt.geom.Line2D;
-import java.awt.geom.Path2D;
-import java.awt.image.BufferedImage;
-import java.util.ArrayList;
 import java.util.BitSet;
-import java.util.List;
 import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
@@ -34,6 +26,7 @@ import javax.swing.JComponent;
 import javax.swing.KeyStroke;
 import javax.swing.SwingUtilities;
 import trapmap.maps.geometry.WaferShape;
+import trapmap.maps.io.ColourMap;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
@@ -73,27 +66,14 @@ public class MapCanvas extends JComponent {
     public record Probe(int xPx, int yPx, double xMm, double yMm, double value) {
     }
 
-    /** Side of a cached tile, level pixels. */
-    static final int TILE = 256;
     /** Screen pixels per map pixel from which flagged pixels are outlined rather than tinted. */
     static final double OUTLINE_ZOOM = 4;
-    /** Screen pixels per map pixel from which the faint pixel grid is drawn. */
+    /** Screen pixels per map pixel from which the pixel grid is drawn. */
     static final double GRID_ZOOM = 16;
     /** Largest zoom, screen pixels per map pixel. */
     static final double MAX_ZOOM = 512;
-    /** Most tiles coloured in one frame (about 6 ms on two cores); the rest follow in the next frames. */
-    static final int NEW_TILES_PER_FRAME = 24;
-    /** Memory for coloured tiles. */
-    static final long TILE_CACHE_BYTES = 96L << 20;
-    /** Memory for flagged-fraction tint tiles. */
-    static final long TINT_CACHE_BYTES = 48L << 20;
-
+    /** Canvas background outside the map. */
     static final Color BACKGROUND = new Color(0xB4B7BC);
-    static final Color FLAG_COLOUR = new Color(0xFF2E9A);
-    static final Color FLAG_COLOUR_ON_HEAT = new Color(0x00E5FF);
-    static final Color OUTLINE_COLOUR = new Color(0xF0F0F0);
-    static final Color OUTLINE_SHADOW = new Color(0x202020);
-    static final Color LINE_COLOUR = new Color(0xFFFFFF);
 
     private static final ExecutorService PYRAMID_BUILDER = Executors.newSingleThreadExecutor(r -> {
         Thread t = new Thread(r, "trapmap-map-pyramid");
@@ -102,14 +82,12 @@ public class MapCanvas extends JComponent {
     });
 
     private final Viewport viewport;
+    private final TileLayer layer = new TileLayer();
+    private final Overlays overlays = new Overlays();
     private WaferMap map;
     private DisplayStyle style;
+    private Colouring colouring;
     private BitSet flagged;
-    private long[] flaggedWords;
-    private WaferShape outline;
-    private double edgeExclusionMm;
-    private Path2D.Double outlineMm;
-    private Path2D.Double exclusionMm;
     private Line2D lineMm;
     private boolean lineTool;
     private Consumer<Probe> probeListener = p -> { };
@@ -119,13 +97,8 @@ public class MapCanvas extends JComponent {
     private Pyramid pyramid;
     private CompletableFuture<Void> pyramidDone = CompletableFuture.completedFuture(null);
     private AtomicBoolean pyramidCancel = new AtomicBoolean();
-    private Colouring colouring;
-    private final TileCache<BufferedImage> tiles = new TileCache<>(TILE_CACHE_BYTES);
-    private final TileCache<BufferedImage> tints = new TileCache<>(TINT_CACHE_BYTES);
-    private static final BufferedImage NO_TINT = new BufferedImage(1, 1, BufferedImage.TYPE_INT_ARGB);
-    private boolean fitPending;
-    private int tilesColoured;
-    private int deferredTiles;
+    /** A fit or zoom asked for before the component had a size, done at the first frame. */
+    private Runnable pendingView;
 
     private double[] dragStart;
     private double[] lineStartMm;
@@ -169,8 +142,6 @@ public class MapCanvas extends JComponent {
         WaferMap old = this.map;
         this.map = map;
         pyramidCancel.set(true);
-        tiles.clear();
-        tints.clear();
         if (map == null) {
             pyramid = null;
             pyramidDone = CompletableFuture.completedFuture(null);
@@ -178,11 +149,12 @@ public class MapCanvas extends JComponent {
             Pyramid p = new Pyramid(map.raster());
             AtomicBoolean cancel = new AtomicBoolean();
             pyramid = p;
+            layer.setPyramid(p, map.width(), map.height());
             pyramidCancel = cancel;
             pyramidDone = CompletableFuture.runAsync(() -> p.build(cancel), PYRAMID_BUILDER)
                     .whenComplete((v, e) -> SwingUtilities.invokeLater(this::repaint));
             if (old == null || old.width() != map.width() || old.height() != map.height()) {
-                fitPending = true;
+                pendingView = this::fit;
             }
         }
         if (flagged != null && map != null && flagged.length() > map.width() * map.height()) {
@@ -203,7 +175,11 @@ public class MapCanvas extends JComponent {
         }
         this.style = style;
         colouring = style == null ? null : new Colouring(style);
-        tiles.clear();
+        layer.setColouring(colouring);
+        int rgb = flagColour().getRGB() & 0xFFFFFF;
+        if (rgb != layer.flagRgb()) {
+            setFlagged(flagged);
+        }
         repaint();
     }
 
@@ -212,9 +188,8 @@ public class MapCanvas extends JComponent {
      * pixel edges when zoomed in. The set is read, not copied: pass a new set rather than changing this one.
      */
     public void setFlagged(BitSet flagged) {
-        this.flagged = flagged;
-        this.flaggedWords = flagged == null || flagged.isEmpty() ? null : flagged.toLongArray();
-        tints.clear();
+        this.flagged = flagged == null || flagged.isEmpty() ? null : flagged;
+        layer.setFlags(this.flagged == null ? null : this.flagged.toLongArray(), flagColour().getRGB() & 0xFFFFFF);
         repaint();
     }
 
@@ -223,10 +198,8 @@ public class MapCanvas extends JComponent {
      * no exclusion line); a null shape clears both.
      */
     public void setOutline(WaferShape shape, double edgeExclusionMm) {
-        this.outline = shape;
-        this.edgeExclusionMm = edgeExclusionMm;
-        outlineMm = shape == null ? null : OutlinePath.trace(shape, 0);
-        exclusionMm = shape == null || !(edgeExclusionMm > 0) ? null : OutlinePath.trace(shape, edgeExclusionMm);
+        overlays.setOutline(shape == null ? null : OutlinePath.trace(shape, 0),
+                shape == null || !(edgeExclusionMm > 0) ? null : OutlinePath.trace(shape, edgeExclusionMm));
         repaint();
     }
 
@@ -253,16 +226,16 @@ public class MapCanvas extends JComponent {
         this.lineListener = l == null ? x -> { } : l;
     }
 
-    /** Whole map visible and centred. */
+    /** Whole map visible and centred (at the first frame if the canvas has no size yet). */
     public void fit() {
         if (map == null) {
             return;
         }
         if (getWidth() <= 0 || getHeight() <= 0) {
-            fitPending = true;
+            pendingView = this::fit;
             return;
         }
-        fitPending = false;
+        pendingView = null;
         viewport.set(fitZoom(), map.width() / 2.0, map.height() / 2.0);
     }
 
@@ -271,11 +244,16 @@ public class MapCanvas extends JComponent {
         zoomAbout(factor, getWidth() / 2.0, getHeight() / 2.0);
     }
 
-    /** Shows the given rectangle in map millimetres, with a small margin. */
+    /** Shows the given rectangle in map millimetres, with a small margin (at the first frame if not yet shown). */
     public void zoomToMm(double minXMm, double minYMm, double maxXMm, double maxYMm) {
-        if (map == null || getWidth() <= 0 || getHeight() <= 0) {
+        if (map == null) {
             return;
         }
+        if (getWidth() <= 0 || getHeight() <= 0) {
+            pendingView = () -> zoomToMm(minXMm, minYMm, maxXMm, maxYMm);
+            return;
+        }
+        pendingView = null;
         PixelGrid g = map.grid();
         double x0 = g.xPx(Math.min(minXMm, maxXMm)) + 0.5;
         double x1 = g.xPx(Math.max(minXMm, maxXMm)) + 0.5;
@@ -305,22 +283,27 @@ public class MapCanvas extends JComponent {
 
     // ---- view maths -------------------------------------------------------------------------------------------
 
+    /** The current view as a transform between map pixels and component pixels. */
+    ViewTransform view() {
+        return ViewTransform.of(viewport, getWidth(), getHeight());
+    }
+
     /** Screen x of map-pixel coordinate {@code mx} (0 = left edge of the first pixel). */
     double screenX(double mx) {
-        return (mx - viewport.centreX()) * viewport.zoom() + getWidth() / 2.0;
+        return view().screenX(mx);
     }
 
     double screenY(double my) {
-        return (my - viewport.centreY()) * viewport.zoom() + getHeight() / 2.0;
+        return view().screenY(my);
     }
 
     /** Map-pixel coordinate under screen x. */
     double mapX(double sx) {
-        return viewport.centreX() + (sx - getWidth() / 2.0) / viewport.zoom();
+        return view().mapX(sx);
     }
 
     double mapY(double sy) {
-        return viewport.centreY() + (sy - getHeight() / 2.0) / viewport.zoom();
+        return view().mapY(sy);
     }
 
     double fitZoom() {
@@ -382,6 +365,12 @@ public class MapCanvas extends JComponent {
         return new Probe(x, y, g.xMm(x), g.yMm(y), map.raster().get(x, y));
     }
 
+    /** The flag colour for the current colour map. */
+    private Color flagColour() {
+        return style != null && style.colours() == ColourMap.HEAT ? Overlays.FLAG_COLOUR_ON_HEAT
+                : Overlays.FLAG_COLOUR;
+    }
+
     /** Transform from wafer millimetres to screen pixels for the current view. */
     AffineTransform mmToScreen() {
         PixelGrid g = map.grid();
@@ -398,9 +387,10 @@ public class MapCanvas extends JComponent {
     @Override
     protected void paintComponent(Graphics g) {
         long t0 = System.nanoTime();
-        if (fitPending && map != null && getWidth() > 0 && getHeight() > 0) {
-            fitPending = false;
-            viewport.set(fitZoom(), map.width() / 2.0, map.height() / 2.0);
+        if (pendingView != null && map != null && getWidth() > 0 && getHeight() > 0) {
+            Runnable r = pendingView;
+            pendingView = null;
+            r.run();
         }
         Graphics2D g2 = (Graphics2D) g.create();
         try {
@@ -409,7 +399,7 @@ public class MapCanvas extends JComponent {
             if (map == null || colouring == null) {
                 drawMessage(g2, map == null ? "No map" : "No colour scale");
             } else {
-                drawMap(g2);
+                drawMap(g2, view());
             }
         } finally {
             g2.dispose();
@@ -417,379 +407,41 @@ public class MapCanvas extends JComponent {
         lastFrameMillis = (System.nanoTime() - t0) / 1e6;
     }
 
-    private void drawMap(Graphics2D g) {
-        double z = viewport.zoom();
-        deferredTiles = 0;
-        int level = levelFor(z, pyramid.levelCount());
-        Pyramid.Level lv = pyramid.level(level);
+    private void drawMap(Graphics2D g, ViewTransform v) {
+        double z = v.zoom();
+        // on a scaled (high-density) screen one component pixel spans several device pixels
+        double device = Math.max(1, Math.abs(g.getTransform().getScaleX()));
+        Pyramid.Level lv = pyramid.level(levelFor(z * device, pyramid.levelCount()));
         if (lv == null) {
             g.setColor(new Color(colouring.noData()));
-            g.fillRect(ix(screenX(0)), iy(screenY(0)), ix(screenX(map.width())) - ix(screenX(0)),
-                    iy(screenY(map.height())) - iy(screenY(0)));
+            g.fillRect(v.edgeX(0), v.edgeY(0), v.edgeX(map.width()) - v.edgeX(0),
+                    v.edgeY(map.height()) - v.edgeY(0));
             drawMessage(g, "Preparing view…");
             return;
         }
         g.setRenderingHint(RenderingHints.KEY_INTERPOLATION, RenderingHints.VALUE_INTERPOLATION_NEAREST_NEIGHBOR);
         g.setRenderingHint(RenderingHints.KEY_RENDERING, RenderingHints.VALUE_RENDER_SPEED);
-        int f = lv.scale();
-        // visible range in level pixels
-        int lx0 = Math.max(0, (int) Math.floor(mapX(0) / f));
-        int ly0 = Math.max(0, (int) Math.floor(mapY(0) / f));
-        int lx1 = Math.min(lv.width(), (int) Math.ceil(mapX(getWidth()) / f));
-        int ly1 = Math.min(lv.height(), (int) Math.ceil(mapY(getHeight()) / f));
-        if (lx0 >= lx1 || ly0 >= ly1) {
-            drawOverlays(g);
-            return;
-        }
-        int tx0 = lx0 / TILE;
-        int tx1 = (lx1 - 1) / TILE;
-        int ty0 = ly0 / TILE;
-        int ty1 = (ly1 - 1) / TILE;
-        BufferedImage[][] imgs = colourTiles(lv, tx0, ty0, tx1, ty1);
-        boolean tint = flaggedWords != null && z < OUTLINE_ZOOM;
-        BufferedImage[][] tintImgs = tint ? tintTiles(lv, tx0, ty0, tx1, ty1) : null;
-        for (int ty = ty0; ty <= ty1; ty++) {
-            for (int tx = tx0; tx <= tx1; tx++) {
-                BufferedImage img = imgs[ty - ty0][tx - tx0];
-                if (img == null) {
-                    drawStandIn(g, lv, tx, ty, lx0, ly0, lx1, ly1);
-                } else {
-                    drawTile(g, img, lv, tx, ty, lx0, ly0, lx1, ly1);
-                }
-            }
-        }
-        if (tint) {
-            for (int ty = ty0; ty <= ty1; ty++) {
-                for (int tx = tx0; tx <= tx1; tx++) {
-                    BufferedImage t = tintImgs[ty - ty0][tx - tx0];
-                    if (t != NO_TINT) {
-                        drawTile(g, t, lv, tx, ty, lx0, ly0, lx1, ly1);
-                    }
-                }
-            }
+        if (layer.draw(g, v, lv, flagged != null && z < OUTLINE_ZOOM) > 0) {
+            repaint(); // the tiles left for later frames
         }
         if (z >= GRID_ZOOM) {
-            drawPixelGrid(g);
+            Overlays.drawPixelGrid(g, v, map.width(), map.height());
         }
-        if (flaggedWords != null && z >= OUTLINE_ZOOM) {
-            drawFlagOutlines(g);
+        if (flagged != null && z >= OUTLINE_ZOOM) {
+            Overlays.drawFlagOutlines(g, v, flagged, map.width(), map.height(), new Color(layer.flagRgb()));
         }
-        drawOverlays(g);
-    }
-
-    /** Draws the part of tile ({@code tx}, {@code ty}) inside the visible level-pixel range. */
-    private void drawTile(Graphics2D g, BufferedImage img, Pyramid.Level lv, int tx, int ty, int lx0, int ly0,
-                          int lx1, int ly1) {
-        int f = lv.scale();
-        int sx0 = Math.max(lx0, tx * TILE);
-        int sy0 = Math.max(ly0, ty * TILE);
-        int sx1 = Math.min(lx1, tx * TILE + img.getWidth());
-        int sy1 = Math.min(ly1, ty * TILE + img.getHeight());
-        int dx0 = ix(screenX((double) sx0 * f));
-        int dy0 = iy(screenY((double) sy0 * f));
-        int dx1 = ix(screenX((double) sx1 * f));
-        int dy1 = iy(screenY((double) sy1 * f));
-        g.drawImage(img, dx0, dy0, dx1, dy1, sx0 - tx * TILE, sy0 - ty * TILE, sx1 - tx * TILE, sy1 - ty * TILE,
-                null);
-    }
-
-    private static int ix(double x) {
-        return (int) Math.floor(x + 0.5);
-    }
-
-    private static int iy(double y) {
-        return (int) Math.floor(y + 0.5);
-    }
-
-    /**
-     * The coloured tiles of the range. Missing tiles are coloured in parallel, nearest the view centre first, at
-     * most {@link #NEW_TILES_PER_FRAME} per frame; the others stay null (drawn from a coarser level) and another
-     * frame is asked for.
-     */
-    private BufferedImage[][] colourTiles(Pyramid.Level lv, int tx0, int ty0, int tx1, int ty1) {
-        BufferedImage[][] out = new BufferedImage[ty1 - ty0 + 1][tx1 - tx0 + 1];
-        List<int[]> missing = new ArrayList<>();
-        for (int ty = ty0; ty <= ty1; ty++) {
-            for (int tx = tx0; tx <= tx1; tx++) {
-                BufferedImage img = tiles.get(TileCache.key(lv.index(), tx, ty));
-                if (img == null) {
-                    missing.add(new int[] {tx, ty});
-                } else {
-                    out[ty - ty0][tx - tx0] = img;
-                }
-            }
-        }
-        deferredTiles = Math.max(0, missing.size() - NEW_TILES_PER_FRAME);
-        if (deferredTiles > 0) {
-            double cx = mapX(getWidth() / 2.0) / lv.scale() / TILE - 0.5;
-            double cy = mapY(getHeight() / 2.0) / lv.scale() / TILE - 0.5;
-            missing.sort(java.util.Comparator.comparingDouble(t -> Math.hypot(t[0] - cx, t[1] - cy)));
-            missing = missing.subList(0, NEW_TILES_PER_FRAME);
-            repaint();
-        }
-        Colouring c = colouring;
-        BufferedImage[] made = missing.parallelStream().map(t -> colourTile(c, lv, t[0], t[1]))
-                .toArray(BufferedImage[]::new);
-        for (int i = 0; i < made.length; i++) {
-            int[] t = missing.get(i);
-            out[t[1] - ty0][t[0] - tx0] = made[i];
-            tiles.put(TileCache.key(lv.index(), t[0], t[1]), made[i], 4L * made[i].getWidth() * made[i].getHeight());
-        }
-        tilesColoured += made.length;
-        return out;
-    }
-
-    /**
-     * Draws the visible part of tile ({@code tx}, {@code ty}) of {@code lv}, not yet coloured, from the first coarser
-     * level whose covering tiles are cached (the coarsest level, one small tile, is coloured when needed).
-     */
-    private void drawStandIn(Graphics2D g, Pyramid.Level lv, int tx, int ty, int lx0, int ly0, int lx1, int ly1) {
-        int f = lv.scale();
-        int sx0 = Math.max(lx0, tx * TILE);
-        int sy0 = Math.max(ly0, ty * TILE);
-        int sx1 = Math.min(lx1, tx * TILE + TILE);
-        int sy1 = Math.min(ly1, ty * TILE + TILE);
-        int dx0 = ix(screenX((double) sx0 * f));
-        int dy0 = iy(screenY((double) sy0 * f));
-        Shape clip = g.getClip();
-        g.clipRect(dx0, dy0, ix(screenX((double) sx1 * f)) - dx0, iy(screenY((double) sy1 * f)) - dy0);
-        int top = pyramid.levelCount() - 1;
-        for (int k = lv.index() + 1; k <= top && pyramid.level(k) != null; k++) {
-            Pyramid.Level c = pyramid.level(k);
-            int d = k - lv.index();
-            int cx0 = sx0 >> d;
-            int cy0 = sy0 >> d;
-            int cx1 = Math.min(c.width(), ((sx1 - 1) >> d) + 1);
-            int cy1 = Math.min(c.height(), ((sy1 - 1) >> d) + 1);
-            List<BufferedImage> found = new ArrayList<>();
-            List<int[]> at = new ArrayList<>();
-            for (int cty = cy0 / TILE; cty <= (cy1 - 1) / TILE; cty++) {
-                for (int ctx = cx0 / TILE; ctx <= (cx1 - 1) / TILE; ctx++) {
-                    long key = TileCache.key(k, ctx, cty);
-                    BufferedImage img = tiles.get(key);
-                    if (img == null && k == top) {
-                        img = colourTile(colouring, c, ctx, cty);
-                        tiles.put(key, img, 4L * img.getWidth() * img.getHeight());
-                    }
-                    if (img != null) {
-                        found.add(img);
-                        at.add(new int[] {ctx, cty});
-                    }
-                }
-            }
-            int needed = ((cy1 - 1) / TILE - cy0 / TILE + 1) * ((cx1 - 1) / TILE - cx0 / TILE + 1);
-            if (found.size() == needed) {
-                for (int i = 0; i < needed; i++) {
-                    drawTile(g, found.get(i), c, at.get(i)[0], at.get(i)[1], cx0, cy0, cx1, cy1);
-                }
-                break;
-            }
-        }
-        g.setClip(clip);
-    }
-
-    static BufferedImage colourTile(Colouring c, Pyramid.Level lv, int tx, int ty) {
-        int x0 = tx * TILE;
-        int y0 = ty * TILE;
-        int w = Math.min(TILE, lv.width() - x0);
-        int h = Math.min(TILE, lv.height() - y0);
-        int[] px = new int[w * h];
-        c.colourise(lv.samples(), lv.width(), x0, y0, w, h, px);
-        BufferedImage img = new BufferedImage(w, h, BufferedImage.TYPE_INT_RGB);
-        img.getRaster().setDataElements(0, 0, w, h, px);
-        return img;
-    }
-
-    /** The tint tiles of the range ({@link #NO_TINT} where nothing is flagged), computing missing ones in parallel. */
-    private BufferedImage[][] tintTiles(Pyramid.Level lv, int tx0, int ty0, int tx1, int ty1) {
-        BufferedImage[][] out = new BufferedImage[ty1 - ty0 + 1][tx1 - tx0 + 1];
-        List<int[]> missing = new ArrayList<>();
-        for (int ty = ty0; ty <= ty1; ty++) {
-            for (int tx = tx0; tx <= tx1; tx++) {
-                BufferedImage img = tints.get(TileCache.key(lv.index(), tx, ty));
-                if (img == null) {
-                    missing.add(new int[] {tx, ty});
-                } else {
-                    out[ty - ty0][tx - tx0] = img;
-                }
-            }
-        }
-        long[] words = flaggedWords;
-        int mw = map.width();
-        int mh = map.height();
-        int rgb = flagColour().getRGB() & 0xFFFFFF;
-        BufferedImage[] made = missing.parallelStream().map(t -> tintTile(words, mw, mh, lv, t[0], t[1], rgb))
-                .toArray(BufferedImage[]::new);
-        for (int i = 0; i < made.length; i++) {
-            int[] t = missing.get(i);
-            out[t[1] - ty0][t[0] - tx0] = made[i];
-            long bytes = made[i] == NO_TINT ? 64 : 4L * made[i].getWidth() * made[i].getHeight();
-            tints.put(TileCache.key(lv.index(), t[0], t[1]), made[i], bytes);
-        }
-        return out;
-    }
-
-    private static BufferedImage tintTile(long[] words, int mw, int mh, Pyramid.Level lv, int tx, int ty, int rgb) {
-        int x0 = tx * TILE;
-        int y0 = ty * TILE;
-        int w = Math.min(TILE, lv.width() - x0);
-        int h = Math.min(TILE, lv.height() - y0);
-        float[] frac = new float[w * h];
-        if (!Flags.fractions(words, mw, mh, lv.index(), x0, y0, w, h, frac)) {
-            return NO_TINT;
-        }
-        int[] px = new int[w * h];
-        for (int i = 0; i < px.length; i++) {
-            // any flagged pixel shows; a fully flagged block is strongly tinted
-            px[i] = frac[i] == 0 ? 0 : ((int) (90 + 130 * frac[i]) << 24) | rgb;
-        }
-        BufferedImage img = new BufferedImage(w, h, BufferedImage.TYPE_INT_ARGB);
-        img.getRaster().setDataElements(0, 0, w, h, px);
-        return img;
-    }
-
-    private Color flagColour() {
-        return style != null && style.colours() == trapmap.maps.io.ColourMap.HEAT ? FLAG_COLOUR_ON_HEAT
-                : FLAG_COLOUR;
-    }
-
-    /** Visible map-pixel range [x0, x1) × [y0, y1) as {x0, y0, x1, y1}. */
-    private int[] visiblePixels() {
-        return new int[] {
-            Math.max(0, (int) Math.floor(mapX(0))),
-            Math.max(0, (int) Math.floor(mapY(0))),
-            Math.min(map.width(), (int) Math.ceil(mapX(getWidth()))),
-            Math.min(map.height(), (int) Math.ceil(mapY(getHeight()))),
-        };
-    }
-
-    private void drawPixelGrid(Graphics2D g) {
-        int[] v = visiblePixels();
-        g.setColor(new Color(128, 128, 128, 70));
-        int top = iy(screenY(v[1]));
-        int bottom = iy(screenY(v[3]));
-        int left = ix(screenX(v[0]));
-        int right = ix(screenX(v[2]));
-        for (int x = v[0]; x <= v[2]; x++) {
-            g.fillRect(ix(screenX(x)), top, 1, bottom - top);
-        }
-        for (int y = v[1]; y <= v[3]; y++) {
-            g.fillRect(left, iy(screenY(y)), right - left, 1);
-        }
-    }
-
-    /** Pixel-edge outlines of the flagged regions: an edge wherever a flagged pixel meets an unflagged one. */
-    private void drawFlagOutlines(Graphics2D g) {
-        int[] v = visiblePixels();
-        int w = map.width();
-        int h = map.height();
-        BitSet b = flagged;
-        double z = viewport.zoom();
-        int t = z >= 12 ? 2 : 1;
-        g.setColor(flagColour());
-        for (int y = v[1]; y < v[3]; y++) {
-            int sy0 = iy(screenY(y));
-            int sy1 = iy(screenY(y + 1));
-            for (int x = b.nextSetBit(y * w + v[0]) - y * w; x >= 0 && x < v[2]; x = b.nextSetBit(y * w + x + 1) - y * w) {
-                int sx0 = ix(screenX(x));
-                int sx1 = ix(screenX(x + 1));
-                if (x == 0 || !b.get(y * w + x - 1)) {
-                    g.fillRect(sx0, sy0, t, sy1 - sy0);
-                }
-                if (x == w - 1 || !b.get(y * w + x + 1)) {
-                    g.fillRect(sx1 - t, sy0, t, sy1 - sy0);
-                }
-                if (y == 0 || !b.get((y - 1) * w + x)) {
-                    g.fillRect(sx0, sy0, sx1 - sx0, t);
-                }
-                if (y == h - 1 || !b.get((y + 1) * w + x)) {
-                    g.fillRect(sx0, sy1 - t, sx1 - sx0, t);
-                }
-            }
-        }
-    }
-
-    private void drawOverlays(Graphics2D g) {
         g.setRenderingHint(RenderingHints.KEY_ANTIALIASING, RenderingHints.VALUE_ANTIALIAS_ON);
         g.setRenderingHint(RenderingHints.KEY_STROKE_CONTROL, RenderingHints.VALUE_STROKE_PURE);
         AffineTransform t = mmToScreen();
-        if (outlineMm != null) {
-            drawHaloed(g, t.createTransformedShape(outlineMm), new BasicStroke(1.5f), OUTLINE_COLOUR);
-        }
-        if (exclusionMm != null) {
-            drawHaloed(g, t.createTransformedShape(exclusionMm), new BasicStroke(1.2f, BasicStroke.CAP_BUTT,
-                    BasicStroke.JOIN_ROUND, 10, new float[] {6, 4}, 0), OUTLINE_COLOUR);
-        }
+        overlays.drawOutline(g, t, getWidth(), getHeight());
         if (lineMm != null) {
-            drawProfileLine(g, t, lineMm);
+            Overlays.drawProfileLine(g, t, lineMm);
         }
         if (lineStartMm != null && lineEndMm != null) {
-            drawProfileLine(g, t, new Line2D.Double(lineStartMm[0], lineStartMm[1], lineEndMm[0], lineEndMm[1]));
+            Overlays.drawProfileLine(g, t, new Line2D.Double(lineStartMm[0], lineStartMm[1], lineEndMm[0],
+                    lineEndMm[1]));
         }
-        drawScaleBar(g);
-    }
-
-    private static void drawHaloed(Graphics2D g, Shape s, Stroke stroke, Color c) {
-        BasicStroke b = (BasicStroke) stroke;
-        g.setStroke(new BasicStroke(b.getLineWidth() + 2, b.getEndCap(), b.getLineJoin(), b.getMiterLimit(),
-                b.getDashArray(), b.getDashPhase()));
-        g.setColor(new Color(OUTLINE_SHADOW.getRGB() & 0xFFFFFF | 0x90000000, true));
-        g.draw(s);
-        g.setStroke(stroke);
-        g.setColor(c);
-        g.draw(s);
-    }
-
-    private static void drawProfileLine(Graphics2D g, AffineTransform t, Line2D mm) {
-        Shape s = t.createTransformedShape(mm);
-        drawHaloed(g, s, new BasicStroke(2f, BasicStroke.CAP_ROUND, BasicStroke.JOIN_ROUND), LINE_COLOUR);
-        double[] p = {mm.getX1(), mm.getY1(), mm.getX2(), mm.getY2()};
-        t.transform(p, 0, p, 0, 2);
-        g.setColor(LINE_COLOUR);
-        g.fillOval((int) Math.round(p[0]) - 4, (int) Math.round(p[1]) - 4, 8, 8);
-        g.setColor(OUTLINE_SHADOW);
-        g.drawOval((int) Math.round(p[0]) - 4, (int) Math.round(p[1]) - 4, 8, 8);
-        g.drawOval((int) Math.round(p[2]) - 4, (int) Math.round(p[3]) - 4, 8, 8);
-    }
-
-    /** A bar of a round length in mm, about 100 screen pixels long, in the lower left corner. */
-    private void drawScaleBar(Graphics2D g) {
-        double pxPerMm = viewport.zoom() / map.grid().pitchMm();
-        double mm = niceLength(100 / pxPerMm);
-        int len = (int) Math.round(mm * pxPerMm);
-        if (len < 10 || len > getWidth() - 30) {
-            return;
-        }
-        String label = formatMm(mm);
-        g.setFont(getFont() != null ? getFont().deriveFont(Font.PLAIN, 12f) : new Font(Font.SANS_SERIF, Font.PLAIN, 12));
-        FontMetrics fm = g.getFontMetrics();
-        int x = 12;
-        int y = getHeight() - 14;
-        int boxW = Math.max(len, fm.stringWidth(label)) + 12;
-        g.setColor(new Color(255, 255, 255, 200));
-        g.fillRoundRect(x - 6, y - fm.getAscent() - 12, boxW, fm.getAscent() + 20, 6, 6);
-        g.setColor(Color.BLACK);
-        g.fillRect(x, y - 4, len, 4);
-        g.fillRect(x, y - 8, 1, 8);
-        g.fillRect(x + len - 1, y - 8, 1, 8);
-        g.drawString(label, x, y - 10);
-    }
-
-    /** The largest 1, 2 or 5 × 10^k not above {@code v}. */
-    static double niceLength(double v) {
-        double p = Math.pow(10, Math.floor(Math.log10(v)));
-        double m = v / p;
-        return (m >= 5 ? 5 : m >= 2 ? 2 : 1) * p;
-    }
-
-    static String formatMm(double mm) {
-        if (mm >= 1) {
-            return String.format(java.util.Locale.ROOT, "%.0f mm", mm);
-        }
-        if (mm >= 0.001) {
-            return String.format(java.util.Locale.ROOT, "%.0f µm", mm * 1000);
-        }
-        return String.format(java.util.Locale.ROOT, "%.2g mm", mm);
+        Overlays.drawScaleBar(g, z / map.grid().pitchMm(), getWidth(), getHeight(), getFont());
     }
 
     private void drawMessage(Graphics2D g, String text) {
@@ -808,16 +460,12 @@ public class MapCanvas extends JComponent {
 
     /** Number of tiles coloured since the canvas was made (cache misses). */
     int tilesColoured() {
-        return tilesColoured;
+        return layer.tilesColoured();
     }
 
     /** Visible tiles the last frame drew from a coarser level because they were not coloured yet. */
     int deferredTiles() {
-        return deferredTiles;
-    }
-
-    int cachedTiles() {
-        return tiles.size();
+        return layer.deferredTiles();
     }
 
     // ---- input ------------------------------------------------------------------------------------------------

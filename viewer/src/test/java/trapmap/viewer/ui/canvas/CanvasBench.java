@@ -1,24 +1,29 @@
 package trapmap.viewer.ui.canvas;
 
 import java.awt.Graphics2D;
+import java.awt.geom.Line2D;
 import java.awt.image.BufferedImage;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.BitSet;
 import java.util.List;
 import java.util.Locale;
+import trapmap.maps.geometry.Fiducial;
+import trapmap.maps.geometry.RoundWafer;
 import trapmap.maps.io.ColourMap;
 import trapmap.maps.model.WaferMap;
 
 /**
- * Frame times of {@link MapCanvas} painting a synthetic 4096² wafer map into a 1600×1000 off-screen image through
- * its real paint path (run by {@code scripts/bench-viewer}). Prints median and 95th percentile per scenario:
+ * Frame times of {@link MapCanvas} painting a synthetic 4096² wafer map, with wafer outline, edge-exclusion line and
+ * profile line, into a 1600×1000 off-screen image through its real paint path (run by {@code scripts/bench-viewer}).
+ * Prints median, 95th percentile and maximum per scenario:
  * <ul>
  *   <li>zoom: 24 frames from the fitted view to 64 screen pixels per map pixel about off-centre points, with an
  *       empty tile cache (cold) and then again (warm);</li>
  *   <li>pan: 60 frames of 40-screen-pixel steps at several zooms (tiles coloured as they come into view);</li>
  *   <li>threshold: flag all pixels below a threshold ({@link MapCanvas#flag}) and repaint, at the fitted view
- *       (tint) and zoomed in (outlines), for 20 thresholds; flag alone is shown too.</li>
+ *       (tint) and zoomed in (outlines), for 20 thresholds; flag alone is shown too;</li>
+ *   <li>worst case for the flag overlays: half the pixels flagged at random, small pans at four zooms.</li>
  * </ul>
  * Arguments: map side (default 4096), rounds (default 3; the first is a warm-up and not reported).
  */
@@ -36,6 +41,8 @@ public final class CanvasBench {
         canvas.setSize(W, H);
         canvas.setMap(map);
         canvas.awaitPyramid();
+        canvas.setOutline(RoundWafer.of(156, new Fiducial.Notch(1, 90)), 3);
+        canvas.setLine(new Line2D.Double(-60, -10, 50, 40));
     }
 
     public static void main(String[] args) {
@@ -43,8 +50,8 @@ public final class CanvasBench {
         int rounds = args.length > 1 ? Integer.parseInt(args[1]) : 3;
         long t0 = System.nanoTime();
         WaferMap map = SyntheticMaps.wafer(n);
-        System.out.printf(Locale.ROOT, "map %dx%d generated in %.0f ms; view %dx%d; %d cores%n", n, n,
-                (System.nanoTime() - t0) / 1e6, W, H, Runtime.getRuntime().availableProcessors());
+        System.out.printf(Locale.ROOT, "map %dx%d generated in %.0f ms; view %dx%d; %d cores; load average %.1f%n", n,
+                n, (System.nanoTime() - t0) / 1e6, W, H, Runtime.getRuntime().availableProcessors(), load());
         long p0 = System.nanoTime();
         CanvasBench b = new CanvasBench(map);
         System.out.printf(Locale.ROOT, "pyramid built in %.0f ms (first run, includes JIT warm-up)%n",
@@ -56,6 +63,12 @@ public final class CanvasBench {
             }
             b.run(report, r);
         }
+        System.out.printf(Locale.ROOT, "load average at the end %.1f (above the core count, other programs share the"
+                + " cores and the times grow accordingly)%n", load());
+    }
+
+    private static double load() {
+        return java.lang.management.ManagementFactory.getOperatingSystemMXBean().getSystemLoadAverage();
     }
 
     private void run(boolean report, int round) {
@@ -72,6 +85,7 @@ public final class CanvasBench {
         double[] flagOnly = new double[20];
         double[] thresholdFit = thresholds(false, flagOnly);
         double[] thresholdZoomed = thresholds(true, null);
+        double[] noisy = noisyFlags();
         if (report) {
             print("zoom, cold tile cache", cold);
             print("  same, until the view is in full detail", coldComplete);
@@ -81,6 +95,7 @@ public final class CanvasBench {
             print("flag() alone, 16 MP", flagOnly);
             print("threshold: flag + repaint, fitted (tint)", thresholdFit);
             print("threshold: flag + repaint, zoomed (outlines)", thresholdZoomed);
+            print("half the pixels flagged at random, warm", noisy);
         }
     }
 
@@ -141,6 +156,30 @@ public final class CanvasBench {
         }
         canvas.setFlagged(null);
         return t;
+    }
+
+    /** Worst case for the flag overlays: every pixel flagged with probability 1/2, frames at several zooms. */
+    private double[] noisyFlags() {
+        BitSet noisy = new BitSet(map.width() * map.height());
+        java.util.SplittableRandom rnd = new java.util.SplittableRandom(17);
+        for (int i = 0; i < map.width() * map.height(); i++) {
+            if (rnd.nextBoolean()) {
+                noisy.set(i);
+            }
+        }
+        canvas.setFlagged(noisy);
+        List<Double> t = new ArrayList<>();
+        for (double zoomOverFit : new double[] {1, 4, 17, 50}) {
+            canvas.fit();
+            canvas.zoomBy(zoomOverFit);
+            paint();
+            for (int i = 0; i < 5; i++) {
+                canvas.panBy(3, 2);
+                t.add(paint());
+            }
+        }
+        canvas.setFlagged(null);
+        return t.stream().mapToDouble(Double::doubleValue).toArray();
     }
 
     private double paint() {

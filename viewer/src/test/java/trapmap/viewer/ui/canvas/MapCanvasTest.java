@@ -250,16 +250,25 @@ class MapCanvasTest {
         }
         FloatRaster r = FloatRaster.wrap(w, h, s);
         Mask mask = Mask.of(w, h, i -> (i * 7919) % 5 != 0);
-        for (boolean above : new boolean[] {true, false}) {
-            for (Mask m : new Mask[] {null, mask}) {
-                BitSet expected = new BitSet();
-                for (int i = 0; i < s.length; i++) {
-                    boolean hit = above ? s[i] > 42.5 : s[i] < 42.5;
-                    if (hit && (m == null || m.containsIndex(i))) {
-                        expected.set(i);
+        s[7] = 42.5f;
+        s[8] = Math.nextUp(42.3f);
+        s[9] = 42.3f;
+        s[10] = Float.POSITIVE_INFINITY;
+        s[11] = Float.intBitsToFloat(0xFFC00000); // NaN with the sign bit set
+        // thresholds exactly representable as float, between two floats, and beyond the float range
+        for (double threshold : new double[] {42.5, 42.3, (double) 42.3f, 1e300, -1e300, Double.POSITIVE_INFINITY}) {
+            for (boolean above : new boolean[] {true, false}) {
+                for (Mask m : new Mask[] {null, mask}) {
+                    BitSet expected = new BitSet();
+                    for (int i = 0; i < s.length; i++) {
+                        boolean hit = above ? s[i] > threshold : s[i] < threshold;
+                        if (hit && (m == null || m.containsIndex(i))) {
+                            expected.set(i);
+                        }
                     }
+                    assertThat(MapCanvas.flag(r, m, threshold, above)).as("%s %s", threshold, above)
+                            .isEqualTo(expected);
                 }
-                assertThat(MapCanvas.flag(r, m, 42.5, above)).isEqualTo(expected);
             }
         }
     }
@@ -357,7 +366,7 @@ class MapCanvasTest {
         c.viewport().set(1, 1024, 1024); // level 0, 7 × 5 tiles visible
         BufferedImage img = paint(c);
         assertThat(c.deferredTiles()).isGreaterThan(0);
-        assertThat(c.tilesColoured()).isLessThanOrEqualTo(MapCanvas.NEW_TILES_PER_FRAME + 10);
+        assertThat(c.tilesColoured()).isLessThanOrEqualTo(TileLayer.NEW_TILES_PER_FRAME + 10);
         assertThat(at(img, 2, 2)).as("stand-in drawn, not background").isNotEqualTo(MapCanvas.BACKGROUND.getRGB()
                 & 0xFFFFFF);
         int frames = 1;
@@ -382,7 +391,7 @@ class MapCanvasTest {
         c.setFlagged(flagged);
         c.viewport().set(40, 4, 4);
         BufferedImage img = paint(c);
-        int flag = MapCanvas.FLAG_COLOUR.getRGB() & 0xFFFFFF;
+        int flag = Overlays.FLAG_COLOUR.getRGB() & 0xFFFFFF;
         // pixel (6, 5) = 46 is flagged and its left neighbour 45 is not: an edge on its left side, none inside
         assertThat(at(img, c.screenX(6) + 0.5, c.screenY(5) + 20)).isEqualTo(flag);
         assertThat(at(img, c.screenX(6) + 20, c.screenY(5) + 20)).isNotEqualTo(flag);
@@ -466,6 +475,18 @@ class MapCanvasTest {
     }
 
     @Test
+    void aZoomAskedForBeforeTheCanvasHasASizeHappensAtTheFirstFrame() {
+        MapCanvas c = new MapCanvas();
+        c.setMap(SyntheticMaps.wafer(400));
+        c.setStyle(LINEAR_0_63);
+        c.awaitPyramid();
+        c.zoomToMm(10, -5, 30, 15);
+        c.setSize(600, 400);
+        paint(c);
+        assertThat(c.viewport().zoom()).isCloseTo(0.9 * 400 / 50, within(1e-9));
+    }
+
+    @Test
     void waferOutlineIsTracedAtTheEdgeAndTheExclusionInside() {
         RoundWafer disk = RoundWafer.disk(150);
         java.awt.geom.PathIterator it = OutlinePath.trace(disk, 0).getPathIterator(null);
@@ -502,10 +523,10 @@ class MapCanvasTest {
 
     @Test
     void scaleBarLengthsAreRound() {
-        assertThat(MapCanvas.niceLength(37)).isEqualTo(20.0);
-        assertThat(MapCanvas.niceLength(7.3)).isEqualTo(5.0);
-        assertThat(MapCanvas.niceLength(0.13)).isCloseTo(0.1, within(1e-12));
-        assertThat(MapCanvas.formatMm(20)).isEqualTo("20 mm");
-        assertThat(MapCanvas.formatMm(0.5)).isEqualTo("500 µm");
+        assertThat(Overlays.niceLength(37)).isEqualTo(20.0);
+        assertThat(Overlays.niceLength(7.3)).isEqualTo(5.0);
+        assertThat(Overlays.niceLength(0.13)).isCloseTo(0.1, within(1e-12));
+        assertThat(Overlays.formatMm(20)).isEqualTo("20 mm");
+        assertThat(Overlays.formatMm(0.5)).isEqualTo("500 µm");
     }
 }
