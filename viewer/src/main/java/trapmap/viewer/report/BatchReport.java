@@ -469,9 +469,11 @@ public final class BatchReport {
                 float tx = x + pic + 14;
                 float tw = cw - pic - 20;
                 p.text(PdfPage.fit(r.name(), PdfPage.BOLD, 10, tw), tx, top + 8, PdfPage.BOLD, 10);
+                p.text(PdfPage.fit(Path.of(r.file()).getFileName().toString(), PdfPage.REGULAR, 7, tw), tx, top + 21,
+                        PdfPage.REGULAR, 7, PdfPage.MUTED);
                 p.text(r.status().toUpperCase(Locale.ROOT) + (r.grade().isEmpty() ? "" : ", grade " + r.grade()), tx,
-                        top + 23, PdfPage.BOLD, 9, r.status().equals("pass") ? PASS : FAIL);
-                float ty = top + 38;
+                        top + 32, PdfPage.BOLD, 9, r.status().equals("pass") ? PASS : FAIL);
+                float ty = top + 46;
                 if (!r.failed().isEmpty()) {
                     ty += p.paragraph("failed: " + String.join(", ", r.failed()), tx, ty, tw, PdfPage.REGULAR, 7.5f);
                 }
