@@ -90,7 +90,7 @@ public class ComparePanel extends JPanel {
         bar.setFloatable(false);
         bar.add(new JLabel("Third view: "));
         view.setToolTipText("Map shown on the right (Ctrl+1 … Ctrl+5)");
-        view.setMaximumSize(new Dimension(320, 28));
+        view.setMaximumSize(new Dimension(290, 28));
         bar.add(view);
         bar.addSeparator();
         register.setToolTipText("Find how the after map lies on the before map (mirror, quarter turns, small turn,"
