@@ -25,7 +25,7 @@ import trapmap.maps.raster.PixelGrid;
 import trapmap.shared.progress.ProgressListener;
 
 /** The batch summary PDF: yield, distributions, worst wafers, recurrence, errors and the caution. */
-class BatchReportTest {
+public class BatchReportTest {
     private static final String RULES = """
             {"edge_exclusion_mm": 2,
              "flag": {"quantity": "lifetime", "threshold": 10, "min_area_mm2": 1},
@@ -39,7 +39,7 @@ class BatchReportTest {
     }
 
     /** A round wafer of radius 50 mm at 0.5 mm, {@code baseUs} everywhere but a 4 µs spot of {@code spotMm} radius. */
-    static Path wafer(Path dir, String id, double baseUs, double spotMm) throws Exception {
+    public static Path wafer(Path dir, String id, double baseUs, double spotMm) throws Exception {
         int n = 201;
         PixelGrid g = PixelGrid.centred(n, n, 0.5);
         float[] s = new float[n * n];
