@@ -20,9 +20,8 @@ import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.PngStyle;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.PixelGrid;
-import trapmap.maps.stats.MapStatistics;
-import trapmap.maps.stats.StatisticsRequest;
 import trapmap.viewer.ui.canvas.DisplayStyle;
+import trapmap.viewer.ui.charts.AutoStyle;
 import trapmap.viewer.ui.charts.ChartStyle;
 import trapmap.viewer.ui.charts.Labels;
 
@@ -44,34 +43,7 @@ final class MapPicture {
      * data (positive ones on the log scale of quantities that span decades).
      */
     static DisplayStyle styleOf(WaferMap map, DisplayStyle given) {
-        if (given != null) {
-            return given;
-        }
-        boolean log = map.quantity().logarithmic();
-        WaferMap m = map;
-        if (log) {
-            float[] s = map.raster().samples();
-            trapmap.maps.raster.Mask positive = trapmap.maps.raster.Mask.of(map.width(), map.height(), i -> s[i] > 0);
-            MapStatistics st = MapStatistics.of(m, positive, StatisticsRequest.of(new double[] {1, 99}));
-            if (st.count() > 0) {
-                double lo = st.percentile(1);
-                double hi = st.percentile(99);
-                if (!(hi > lo)) {
-                    lo /= 2;
-                    hi *= 2;
-                }
-                return new DisplayStyle(ColourMap.BLUE_YELLOW, true, lo, hi);
-            }
-        }
-        MapStatistics st = MapStatistics.of(m, null, StatisticsRequest.of(new double[] {1, 99}));
-        double lo = st.count() == 0 ? 0 : st.percentile(1);
-        double hi = st.count() == 0 ? 1 : st.percentile(99);
-        if (!(hi > lo)) {
-            double pad = lo == 0 ? 0.5 : Math.abs(lo) * 0.05;
-            lo -= pad;
-            hi += pad;
-        }
-        return new DisplayStyle(ColourMap.BLUE_YELLOW, false, lo, hi);
+        return given != null ? given : AutoStyle.of(map);
     }
 
     /**

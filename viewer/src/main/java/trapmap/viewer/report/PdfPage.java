@@ -23,6 +23,13 @@ import org.apache.pdfbox.pdmodel.graphics.image.PDImageXObject;
  * are spelt out ({@link #clean}: Δ → "d", τ → "tau", ⁻³ → "-3", …).
  */
 final class PdfPage implements Closeable {
+    /**
+     * PDFBox reports through java.util.logging that it draws the standard fonts with a system font and builds a font
+     * cache; neither matters for writing, and the command line's stderr is for progress. Held here so the setting
+     * stays (loggers are weakly referenced).
+     */
+    private static final java.util.logging.Logger PDFBOX_LOG = quiet();
+
     static final float WIDTH = PDRectangle.A4.getWidth();
     static final float HEIGHT = PDRectangle.A4.getHeight();
     static final float MARGIN = 36;
@@ -40,13 +47,6 @@ final class PdfPage implements Closeable {
             Map.entry('−', "-"), Map.entry('∞', "inf"), Map.entry('Ω', "Ohm"), Map.entry('≈', "~"),
             Map.entry('\u202F', " "), Map.entry('\u2009', " "), Map.entry('⟨', "<"), Map.entry('⟩', ">"),
             Map.entry('√', "sqrt"), Map.entry('ₜ', "t"), Map.entry('ᵢ', "i"));
-
-    /**
-     * PDFBox reports through java.util.logging that it draws the standard fonts with a system font and builds a font
-     * cache; neither matters for writing, and the command line's stderr is for progress. Held here so the setting
-     * stays (loggers are weakly referenced).
-     */
-    private static final java.util.logging.Logger PDFBOX_LOG = quiet();
 
     private final PDDocument doc;
     private final PDPageContentStream cs;

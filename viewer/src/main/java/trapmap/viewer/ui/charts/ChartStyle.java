@@ -9,6 +9,8 @@ import java.text.ParsePosition;
 import org.jfree.chart.JFreeChart;
 import org.jfree.chart.axis.LogAxis;
 import org.jfree.chart.axis.NumberAxis;
+import org.jfree.chart.axis.NumberTickUnit;
+import org.jfree.chart.axis.TickUnits;
 import org.jfree.chart.axis.ValueAxis;
 import org.jfree.chart.plot.XYPlot;
 
@@ -85,6 +87,13 @@ public final class ChartStyle {
         a.setSmallestValue(1e-300);
         a.setMinorTickMarksVisible(true);
         a.setNumberFormatOverride(TICK_FORMAT);
+        // steps in powers of ten: fine steps for narrow ranges, whole decades for wide ones (no half decades, whose
+        // labels such as 3.16e12 read badly)
+        TickUnits steps = new TickUnits();
+        for (double step : new double[] {0.02, 0.05, 0.1, 0.2, 1, 2, 5, 10, 20, 50}) {
+            steps.add(new NumberTickUnit(step, TICK_FORMAT));
+        }
+        a.setStandardTickUnits(steps);
         return a;
     }
 

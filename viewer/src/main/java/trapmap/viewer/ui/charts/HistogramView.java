@@ -100,11 +100,11 @@ public class HistogramView extends JPanel {
         chartPanel.setMouseWheelEnabled(true);
         JTable table = new JTable(rows);
         table.setFillsViewportHeight(true);
-        table.getColumnModel().getColumn(0).setPreferredWidth(170);
+        table.getColumnModel().getColumn(0).setPreferredWidth(210);
         table.getColumnModel().getColumn(1).setPreferredWidth(110);
         table.getColumnModel().getColumn(2).setPreferredWidth(50);
         JScrollPane side = new JScrollPane(table);
-        side.setPreferredSize(new Dimension(340, 300));
+        side.setPreferredSize(new Dimension(370, 300));
         add(chartPanel, BorderLayout.CENTER);
         add(side, BorderLayout.EAST);
     }
