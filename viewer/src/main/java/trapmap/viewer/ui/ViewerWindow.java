@@ -967,7 +967,13 @@ public final class ViewerWindow extends JFrame {
     }
 
     private void compare(boolean iron) {
-        status.setMessage((iron ? "iron imaging" : "comparison") + " is not available in this build");
+        if (model.size() < 2) {
+            status.setMessage("open two maps of one wafer to " + (iron ? "image iron" : "compare them"));
+            return;
+        }
+        CompareDialog d = new CompareDialog(this, model, iron);
+        d.setVisible(true);
+        d.start();
     }
 
     private void newDefect() {
