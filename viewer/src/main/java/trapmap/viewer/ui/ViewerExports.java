@@ -72,7 +72,7 @@ public final class ViewerExports {
         notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f µs, median %.1f µs over %.0f mm^2 (edge"
                 + " exclusion %s mm)", r.lifetimeStats().harmonicMean(), r.lifetimeStats().median(),
                 r.lifetimeStats().areaMm2(), trapmap.viewer.ui.model.Units.number(a.edgeExclusionMm())));
-        r.warnings().forEach(x -> notes.add("caution: " + x.name().toLowerCase(Locale.ROOT).replace('_', ' ')));
+        r.warnings().forEach(x -> notes.add("caution: " + x.message()));
         return WaferReport.Content.of(r.displayed(), w.path().toString()).withStyle(style)
                 .withStatisticsMask(r.mask()).withFlags(a.threshold().value(), r.flagged(), r.regions())
                 .withOutline(r.shape(), a.edgeExclusionMm()).withConditions(r.lifetime().conditions())

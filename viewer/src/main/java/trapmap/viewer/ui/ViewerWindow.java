@@ -350,8 +350,10 @@ public final class ViewerWindow extends JFrame {
         shownResult = r;
         status.setFrameMillis(canvas.lastFrameMillis());
         if (!r.warnings().isEmpty()) {
-            status.setMessage("caution: " + r.warnings().stream().map(x -> x.name().toLowerCase(Locale.ROOT)
-                    .replace('_', ' ')).sorted().collect(java.util.stream.Collectors.joining(", ")) + " pixels");
+            List<String> notes = r.warnings().stream().map(x -> x.message()).sorted().toList();
+            status.setMessage("caution: " + notes.get(0) + (notes.size() > 1 ? " (+" + (notes.size() - 1)
+                    + " more, see tooltip)" : ""));
+            status.setMessageTooltip("<html>" + String.join("<br>", notes) + "</html>");
         } else if (w.error() == null) {
             status.setMessage(r.pass() ? "pass" : "fail: flagged area above " + String.format(Locale.ROOT, "%.1f %%",
                     a.threshold().maxFlaggedFraction() * 100));

@@ -337,6 +337,9 @@ public final class PhysicsPanel extends JPanel implements javax.swing.Scrollable
                 setIfDifferent(dopingValue, dtext.substring(2, ohm ? dtext.length() - 5 : dtext.length()));
             } else {
                 setIfDifferent(dopingValue, "");
+                if (side.doping() != null) {
+                    dopingType.setSelectedItem(side.doping().type().name().substring(0, 1).toLowerCase(Locale.ROOT));
+                }
             }
             placeholder(dopingValue, side.doping() == null ? "unknown" : side.doping().type().name().substring(0, 1)
                     .toLowerCase(Locale.ROOT) + " " + Units.number(side.doping().resistivityOhmCm()) + " Ω·cm");

@@ -55,6 +55,11 @@ public final class StatusBar extends JPanel {
         message.setToolTipText(text);
     }
 
+    /** A longer text for the message's tooltip. */
+    public void setMessageTooltip(String text) {
+        message.setToolTipText(text);
+    }
+
     public void setFrameMillis(double ms) {
         frame.setText(Double.isNaN(ms) ? "frame – ms" : String.format(java.util.Locale.ROOT, "frame %.1f ms", ms));
     }
