@@ -120,7 +120,7 @@ public final class ViewerWindow extends JFrame {
     private final Timer debounce;
     private SwingWorker<Void, Void> worker;
     private AtomicBoolean cancel = new AtomicBoolean();
-    private boolean restartPending;
+    private volatile boolean restartPending;
     private Path sessionFile;
     private ViewerModel.OpenWafer shownWafer;
     private WaferAnalysis shownResult;
@@ -457,6 +457,9 @@ public final class ViewerWindow extends JFrame {
                     }
                 } catch (CancellationException e) {
                     // a newer change or the cancel button: results so far stay
+                } catch (IndexOutOfBoundsException e) {
+                    // the wafers were closed meanwhile (a session being opened): the next run sees the new list
+                    restartPending = true;
                 }
                 return null;
             }
