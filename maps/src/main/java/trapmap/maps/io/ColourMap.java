@@ -26,8 +26,8 @@ public enum ColourMap {
     BLUE_YELLOW("Blue–yellow", "dark blue to yellow, lightness rising steadily; safe for colour-blind viewers",
             new double[][] {
                 // L*, a*, b*
-                {12, 17, -38},
-                {32, 12, -48},
+                {12, 18, -36},
+                {32, 14, -47},
                 {52, -22, -20},
                 {72, -40, 32},
                 {92, -14, 76},
