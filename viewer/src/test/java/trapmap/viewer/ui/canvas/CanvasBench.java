@@ -16,7 +16,8 @@ import trapmap.maps.model.WaferMap;
 /**
  * Frame times of {@link MapCanvas} painting a synthetic 4096² wafer map, with wafer outline, edge-exclusion line and
  * profile line, into a 1600×1000 off-screen image through its real paint path (run by {@code scripts/bench-viewer}).
- * Prints median, 95th percentile and maximum per scenario:
+ * Prints median, 95th percentile, maximum and minimum per scenario (the minimum is the least disturbed by other
+ * programs on the machine):
  * <ul>
  *   <li>zoom: 24 frames from the fitted view to 64 screen pixels per map pixel about off-centre points, with an
  *       empty tile cache (cold) and then again (warm);</li>
@@ -59,7 +60,7 @@ public final class CanvasBench {
         for (int r = 0; r < rounds; r++) {
             boolean report = r > 0 || rounds == 1;
             if (report) {
-                System.out.println("round " + r + " (ms per frame: median / p95 / max, frames)");
+                System.out.println("round " + r + " (ms per frame: median / p95 / max / min, frames)");
             }
             b.run(report, r);
         }
@@ -194,8 +195,8 @@ public final class CanvasBench {
     private static void print(String what, double[] ms) {
         double[] s = ms.clone();
         Arrays.sort(s);
-        System.out.printf(Locale.ROOT, "  %-46s %7.1f / %7.1f / %7.1f  (%d)%n", what, quantile(s, 0.5),
-                quantile(s, 0.95), s[s.length - 1], s.length);
+        System.out.printf(Locale.ROOT, "  %-46s %6.1f / %6.1f / %6.1f / %6.1f  (%d)%n", what, quantile(s, 0.5),
+                quantile(s, 0.95), s[s.length - 1], s[0], s.length);
     }
 
     /** Nearest-rank quantile of sorted values. */
