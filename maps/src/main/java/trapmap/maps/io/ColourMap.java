@@ -26,8 +26,8 @@ public enum ColourMap {
     BLUE_YELLOW("Blue–yellow", "dark blue to yellow, lightness rising steadily; safe for colour-blind viewers",
             new double[][] {
                 // L*, a*, b*
-                {12, 17, -38},
-                {32, 12, -48},
+                {12, 18, -36},
+                {32, 14, -47},
                 {52, -22, -20},
                 {72, -40, 32},
                 {92, -14, 76},
@@ -64,6 +64,8 @@ public enum ColourMap {
     private final String description;
     private final boolean diverging;
     private final int[] rgb = new int[256];
+    /** Largest amount by which an entry's linear sRGB channel left [0, 1] before clipping (0: none clipped). */
+    private double gamutExcess;
 
     ColourMap(String displayName, String description, double[][] labAnchors, boolean diverging) {
         this.displayName = displayName;
@@ -89,8 +91,17 @@ public enum ColourMap {
             double f = (s - cumulative[k]) / (cumulative[k + 1] - cumulative[k]);
             double[] a = labAnchors[k];
             double[] b = labAnchors[k + 1];
-            rgb[i] = labToRgb(a[0] + f * (b[0] - a[0]), a[1] + f * (b[1] - a[1]), a[2] + f * (b[2] - a[2]));
+            double[] lab = {a[0] + f * (b[0] - a[0]), a[1] + f * (b[1] - a[1]), a[2] + f * (b[2] - a[2])};
+            rgb[i] = labToRgb(lab[0], lab[1], lab[2]);
+            for (double c : labToLinearRgb(lab[0], lab[1], lab[2])) {
+                gamutExcess = Math.max(gamutExcess, Math.max(c - 1, -c));
+            }
         }
+    }
+
+    /** Largest amount by which an entry's linear sRGB channel left [0, 1] before clipping; 0 when none did. */
+    double gamutExcess() {
+        return gamutExcess;
     }
 
     /** Name for menus, e.g. {@code Blue–yellow}. */
@@ -136,6 +147,12 @@ public enum ColourMap {
      * §8.2.1; XYZ to linear sRGB and the sRGB transfer function from IEC 61966-2-1:1999.
      */
     static int labToRgb(double l, double a, double bStar) {
+        double[] c = labToLinearRgb(l, a, bStar);
+        return (encode(c[0]) << 16) | (encode(c[1]) << 8) | encode(c[2]);
+    }
+
+    /** CIELAB (D65 white) to linear sRGB channels, not clipped. */
+    static double[] labToLinearRgb(double l, double a, double bStar) {
         double fy = (l + 16) / 116;
         double fx = fy + a / 500;
         double fz = fy - bStar / 200;
@@ -145,7 +162,7 @@ public enum ColourMap {
         double r = 3.2404542 * x - 1.5371385 * y - 0.4985314 * z;
         double g = -0.9692660 * x + 1.8760108 * y + 0.0415560 * z;
         double b = 0.0556434 * x - 0.2040259 * y + 1.0572252 * z;
-        return (encode(r) << 16) | (encode(g) << 8) | encode(b);
+        return new double[] {r, g, b};
     }
 
     private static double labInverse(double t) {

@@ -123,6 +123,13 @@ class ColourMapTest {
     }
 
     @Test
+    void noEntryIsClippedToTheGamut() {
+        for (ColourMap m : ColourMap.values()) {
+            assertThat(m.gamutExcess()).as("%s", m).isZero();
+        }
+    }
+
+    @Test
     void greyIsLinearInCodeValues() {
         for (int i = 0; i < 256; i++) {
             assertThat(ColourMap.GREY.rgb(i)).isEqualTo(i * 0x010101);

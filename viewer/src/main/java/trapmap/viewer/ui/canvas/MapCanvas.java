@@ -60,9 +60,20 @@ import trapmap.maps.raster.PixelGrid;
  * drawn in a neutral grey unlike any colour of the map ({@link Colouring#noDataRgb}); outside the map is the
  * component background. Flagged pixels show as a translucent tint whose strength is the flagged fraction of each
  * displayed pixel, and from {@value #OUTLINE_ZOOM} screen pixels per map pixel as outlines along the pixel edges.
+ *
+ * <p>Use a canvas on the Event Dispatch Thread; only the static {@link #flag} may run anywhere (it is meant for a
+ * background worker when thresholds change fast).
  */
 public class MapCanvas extends JComponent {
-    /** The pixel under the cursor: indices, centre in mm, and its value in the map's unit (NaN for no data). */
+    /**
+     * The pixel under the cursor.
+     *
+     * @param xPx   column, 0-based
+     * @param yPx   row, 0-based from the top
+     * @param xMm   x of the pixel centre on the wafer, mm (see {@link PixelGrid})
+     * @param yMm   y of the pixel centre on the wafer, mm, upwards
+     * @param value the sample in the map's unit ({@code map().quantity().unit()}); NaN for no data
+     */
     public record Probe(int xPx, int yPx, double xMm, double yMm, double value) {
     }
 

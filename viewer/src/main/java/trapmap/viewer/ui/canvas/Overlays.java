@@ -33,6 +33,8 @@ final class Overlays {
     private Path2D.Double edgeMm;
     private Path2D.Double exclusionMm;
     private OutlineImage outlineImage;
+    /** Scale of the last frame that stroked the outline directly. */
+    private double lastScale = Double.NaN;
 
     private record OutlineImage(BufferedImage image, double scale, double ox, double oy, int x, int y) {
     }
@@ -91,8 +93,9 @@ final class Overlays {
 
     /**
      * Wafer edge and edge-exclusion line through {@code mmToScreen}. Stroking the 1440-point polygons with
-     * antialiasing costs several ms, so while the whole outline fits in about one view it is drawn once per zoom
-     * into an image that panning only moves (by whole pixels); zoomed in, only the visible part is stroked.
+     * antialiasing costs several ms, so while the whole outline fits in about one view and the zoom stays (panning,
+     * repaints) it is drawn once into an image that panning only moves (by whole pixels); while zooming, and zoomed
+     * in, it is stroked directly (clipped to the view).
      */
     void drawOutline(Graphics2D g, AffineTransform mmToScreen, int viewWidth, int viewHeight) {
         if (edgeMm == null) {
@@ -108,6 +111,12 @@ final class Overlays {
         double oy = mmToScreen.getTranslateY();
         OutlineImage c = outlineImage;
         if (c == null || c.scale() != mmToScreen.getScaleX()) {
+            if (mmToScreen.getScaleX() != lastScale) {
+                // zooming: each frame has its own scale, so an image would be used once; stroke directly
+                lastScale = mmToScreen.getScaleX();
+                strokeOutline(g, mmToScreen);
+                return;
+            }
             BufferedImage img = new BufferedImage(b.width, b.height, BufferedImage.TYPE_INT_ARGB);
             Graphics2D ig = img.createGraphics();
             ig.setRenderingHints(g.getRenderingHints());

@@ -15,8 +15,8 @@ import java.util.List;
 final class TileLayer {
     /** Side of a tile, level pixels. */
     static final int TILE = 256;
-    /** Most tiles coloured in one frame (about 6 ms on two cores); the rest follow in the next frames. */
-    static final int NEW_TILES_PER_FRAME = 24;
+    /** Most tiles coloured in one frame (about 10 ms of one core); the rest follow in the next frames. */
+    static final int NEW_TILES_PER_FRAME = 16;
     /** Memory for coloured tiles. */
     static final long TILE_CACHE_BYTES = 96L << 20;
     /** Memory for flagged-fraction tint tiles. */

@@ -16,7 +16,8 @@ import trapmap.maps.model.WaferMap;
 /**
  * Frame times of {@link MapCanvas} painting a synthetic 4096² wafer map, with wafer outline, edge-exclusion line and
  * profile line, into a 1600×1000 off-screen image through its real paint path (run by {@code scripts/bench-viewer}).
- * Prints median, 95th percentile and maximum per scenario:
+ * Prints median, 95th percentile, maximum and minimum per scenario (the minimum is the least disturbed by other
+ * programs on the machine):
  * <ul>
  *   <li>zoom: 24 frames from the fitted view to 64 screen pixels per map pixel about off-centre points, with an
  *       empty tile cache (cold) and then again (warm);</li>
@@ -59,12 +60,26 @@ public final class CanvasBench {
         for (int r = 0; r < rounds; r++) {
             boolean report = r > 0 || rounds == 1;
             if (report) {
-                System.out.println("round " + r + " (ms per frame: median / p95 / max, frames)");
+                System.out.println("round " + r + (CPU ? " (CPU ms of one thread" : " (wall-clock ms")
+                        + " per frame: median / p95 / max / min, frames)");
             }
             b.run(report, r);
         }
         System.out.printf(Locale.ROOT, "load average at the end %.1f (above the core count, other programs share the"
                 + " cores and the times grow accordingly)%n", load());
+    }
+
+    /**
+     * With {@code -Dbench.cpu=true} (and the common fork-join pool at parallelism 0, so that all work runs on the
+     * calling thread) frames are timed by the CPU time of this thread: one core's work per frame, little affected by
+     * other programs on the machine. Otherwise wall-clock time.
+     */
+    private static final boolean CPU = Boolean.getBoolean("bench.cpu");
+    private static final java.lang.management.ThreadMXBean THREADS =
+            java.lang.management.ManagementFactory.getThreadMXBean();
+
+    private static long now() {
+        return CPU ? THREADS.getCurrentThreadCpuTime() : System.nanoTime();
     }
 
     private static double load() {
@@ -144,12 +159,12 @@ public final class CanvasBench {
         double[] t = new double[20];
         for (int i = 0; i < t.length; i++) {
             double threshold = 100 + 30 * i;
-            long s = System.nanoTime();
+            long s = now();
             BitSet bits = MapCanvas.flag(map.raster(), null, threshold, false);
-            long f = System.nanoTime();
+            long f = now();
             canvas.setFlagged(bits);
             paint();
-            t[i] = (System.nanoTime() - s) / 1e6;
+            t[i] = (now() - s) / 1e6;
             if (flagOnly != null) {
                 flagOnly[i] = (f - s) / 1e6;
             }
@@ -184,9 +199,9 @@ public final class CanvasBench {
 
     private double paint() {
         Graphics2D g = frame.createGraphics();
-        long s = System.nanoTime();
+        long s = now();
         canvas.paint(g);
-        double ms = (System.nanoTime() - s) / 1e6;
+        double ms = (now() - s) / 1e6;
         g.dispose();
         return ms;
     }
@@ -194,8 +209,8 @@ public final class CanvasBench {
     private static void print(String what, double[] ms) {
         double[] s = ms.clone();
         Arrays.sort(s);
-        System.out.printf(Locale.ROOT, "  %-46s %7.1f / %7.1f / %7.1f  (%d)%n", what, quantile(s, 0.5),
-                quantile(s, 0.95), s[s.length - 1], s.length);
+        System.out.printf(Locale.ROOT, "  %-46s %6.1f / %6.1f / %6.1f / %6.1f  (%d)%n", what, quantile(s, 0.5),
+                quantile(s, 0.95), s[s.length - 1], s[0], s.length);
     }
 
     /** Nearest-rank quantile of sorted values. */
