@@ -73,7 +73,8 @@ final class MapPicture {
             g.setColor(NO_DATA);
             g.fillRect(ox, oy, dw, dh);
             g.setRenderingHint(RenderingHints.KEY_INTERPOLATION, scale >= 1
-                    ? RenderingHints.VALUE_INTERPOLATION_NEAREST_NEIGHBOR : RenderingHints.VALUE_INTERPOLATION_BILINEAR);
+                    ? RenderingHints.VALUE_INTERPOLATION_NEAREST_NEIGHBOR
+                    : RenderingHints.VALUE_INTERPOLATION_BILINEAR);
             g.drawImage(pic, ox, oy, dw, dh, null);
             if (outline != null) {
                 contours(out, map.grid(), outline, edgeExclusionMm, ox, oy, scale);
