@@ -180,7 +180,7 @@ final class MapPicture {
         legend.setStripWidth(14);
         legend.setSubdivisionCount(256);
         legend.setAxisOffset(2);
-        legend.setPadding(new RectangleInsets(4, 2, 4, 2));
+        legend.setPadding(new RectangleInsets(9, 2, 9, 2)); // room for the end labels
         legend.setBackgroundPaint(Color.WHITE);
         return legend;
     }
