@@ -69,7 +69,7 @@ import trapmap.viewer.ui.charts.Labels;
 public final class BatchReport {
     /** The file name in the batch's output folder. */
     public static final String FILE_NAME = "summary.pdf";
-    /** Default share of the wafers above which a recurrence cell is a hot spot (common practice: one in four). */
+    /** Default share of the wafers above which a recurrence cell is a hot spot: one in four (this program's choice). */
     public static final double DEFAULT_HOT_SPOT_FRACTION = 0.25;
     /** Worst wafers shown. */
     public static final int WORST_WAFERS = 6;

@@ -73,7 +73,8 @@ final class MapPicture {
             g.setColor(NO_DATA);
             g.fillRect(ox, oy, dw, dh);
             g.setRenderingHint(RenderingHints.KEY_INTERPOLATION, scale >= 1
-                    ? RenderingHints.VALUE_INTERPOLATION_NEAREST_NEIGHBOR : RenderingHints.VALUE_INTERPOLATION_BILINEAR);
+                    ? RenderingHints.VALUE_INTERPOLATION_NEAREST_NEIGHBOR
+                    : RenderingHints.VALUE_INTERPOLATION_BILINEAR);
             g.drawImage(pic, ox, oy, dw, dh, null);
             if (outline != null) {
                 contours(out, map.grid(), outline, edgeExclusionMm, ox, oy, scale);
@@ -179,7 +180,7 @@ final class MapPicture {
         legend.setStripWidth(14);
         legend.setSubdivisionCount(256);
         legend.setAxisOffset(2);
-        legend.setPadding(new RectangleInsets(4, 2, 4, 2));
+        legend.setPadding(new RectangleInsets(9, 2, 9, 2)); // room for the end labels
         legend.setBackgroundPaint(Color.WHITE);
         return legend;
     }

@@ -105,6 +105,21 @@ class WaferReportTest {
     }
 
     @Test
+    void aMapWithoutDataStillGivesAPage(@TempDir Path dir) throws IOException {
+        float[] s = new float[16];
+        java.util.Arrays.fill(s, Float.NaN);
+        WaferMap empty = new WaferMap(FloatRaster.wrap(4, 4, s), PixelGrid.centred(4, 4, 1), Quantity.TRAP_DENSITY,
+                "W-EMPTY", MeasurementConditions.UNKNOWN, Provenance.of("test"));
+        Path pdf = dir.resolve("empty.pdf");
+        WaferReport.write(WaferReport.Content.of(empty, ""), pdf);
+        try (PDDocument doc = Loader.loadPDF(pdf.toFile())) {
+            assertThat(doc.getNumberOfPages()).isEqualTo(1);
+            assertThat(new PDFTextStripper().getText(doc)).contains("Wafer W-EMPTY", "pixels counted",
+                    "No region search was made.", "doping", "unknown");
+        }
+    }
+
+    @Test
     void textOutsideTheStandardFontsIsSpeltOut() {
         assertThat(PdfPage.clean("Δn = 1e14 cm⁻³, τ ≤ 5 µs")).isEqualTo("dn = 1e14 cm-³, tau <= 5 µs");
         assertThat(PdfPage.clean("漢")).isEqualTo("?");

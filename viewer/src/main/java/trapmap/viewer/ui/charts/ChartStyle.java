@@ -90,7 +90,7 @@ public final class ChartStyle {
         // steps in powers of ten: fine steps for narrow ranges, whole decades for wide ones (no half decades, whose
         // labels such as 3.16e12 read badly)
         TickUnits steps = new TickUnits();
-        for (double step : new double[] {0.02, 0.05, 0.1, 0.2, 1, 2, 5, 10, 20, 50}) {
+        for (double step : new double[] {0.05, 0.1, 0.2, 1, 2, 5, 10, 20, 50}) {
             steps.add(new NumberTickUnit(step, TICK_FORMAT));
         }
         a.setStandardTickUnits(steps);

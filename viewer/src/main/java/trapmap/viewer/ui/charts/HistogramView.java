@@ -80,9 +80,9 @@ public class HistogramView extends JPanel {
             if (!Double.isNaN(threshold) && !s.areaFractions().isEmpty()) {
                 MapStatistics.AreaFraction a = s.areaFraction(threshold);
                 r.add(new Row("threshold", Labels.number(threshold), u));
-                r.add(new Row("area below threshold (" + Labels.percent(a.fractionBelow()) + ")",
+                r.add(new Row("below threshold (" + Labels.percent(a.fractionBelow()) + ")",
                         Labels.number(a.areaBelowMm2()), "mm²"));
-                r.add(new Row("area above threshold (" + Labels.percent(a.fractionAbove()) + ")",
+                r.add(new Row("above threshold (" + Labels.percent(a.fractionAbove()) + ")",
                         Labels.number(a.areaAboveMm2()), "mm²"));
             }
             return r;

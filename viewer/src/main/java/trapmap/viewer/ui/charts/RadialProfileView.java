@@ -133,10 +133,12 @@ public class RadialProfileView extends JPanel {
         YIntervalSeriesCollection dataset = new YIntervalSeriesCollection();
         dataset.addSeries(s);
         XYPlot plot = new XYPlot(dataset, x, y, r);
-        JFreeChart chart = new JFreeChart("Radial profile of " + Labels.name(q), ChartStyle.TITLE, plot, spread != null);
+        JFreeChart chart = new JFreeChart("Radial profile of " + Labels.name(q), ChartStyle.TITLE, plot,
+                spread != null);
         if (p != null) {
             chart.addSubtitle(new TextTitle("rings " + Labels.number(p.ringWidthMm()) + " mm wide about ("
-                    + Labels.number(p.centreXMm()) + ", " + Labels.number(p.centreYMm()) + ") mm", ChartStyle.SUBTITLE));
+                    + Labels.number(p.centreXMm()) + ", " + Labels.number(p.centreYMm()) + ") mm",
+                    ChartStyle.SUBTITLE));
         }
         ChartStyle.apply(chart);
         return chart;

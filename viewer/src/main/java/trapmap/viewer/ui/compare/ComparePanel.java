@@ -205,6 +205,19 @@ public class ComparePanel extends JPanel {
         this.options = o == null ? CompareModel.Options.defaults() : o;
         register.setSelected(options.register());
         iron.setSelected(options.iron());
+        if (options.iron()) {
+            view.setSelectedItem(CompareModel.View.IRON);
+        }
+    }
+
+    /** Chooses the third view. */
+    public void setView(CompareModel.View v) {
+        view.setSelectedItem(v);
+    }
+
+    /** The third view shown. */
+    public CompareModel.View view() {
+        return (CompareModel.View) view.getSelectedItem();
     }
 
     /** Shows a pair and starts comparing it (null clears). */
