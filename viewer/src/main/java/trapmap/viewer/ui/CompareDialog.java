@@ -115,20 +115,6 @@ final class CompareDialog extends JDialog {
         }
     }
 
-    /** Shows the Fe_i map as the third view (the panel's view chooser is the combo box holding its views). */
-    private static void showIronView(java.awt.Container c) {
-        for (java.awt.Component k : c.getComponents()) {
-            if (k instanceof JComboBox<?> box && box.getItemCount() > 0
-                    && box.getItemAt(0) instanceof CompareModel.View) {
-                box.setSelectedItem(CompareModel.View.IRON);
-                return;
-            }
-            if (k instanceof java.awt.Container kc) {
-                showIronView(kc);
-            }
-        }
-    }
-
     /** Sends the chosen pair, with the main window's conditions applied, to the comparison. */
     void start() {
         if (!ready) {
@@ -148,9 +134,6 @@ final class CompareDialog extends JDialog {
             panel.setOptions(CompareModel.Options.defaults().withDefect(d).withIron(iron));
             problem.setText(" ");
             panel.setMaps(bm, am);
-            if (iron) {
-                showIronView(panel);
-            }
         } catch (RuntimeException e) {
             problem.setText(e.getMessage());
         }
