@@ -64,6 +64,12 @@ public final class GalleryPanel extends JPanel {
         header.setFont(header.getFont().deriveFont(java.awt.Font.BOLD));
         add(header, BorderLayout.NORTH);
         JScrollPane sp = new JScrollPane(list);
+        // PageDown/PageUp step through the wafers (the window's keys) rather than scroll this list
+        for (String k : new String[] {"PAGE_DOWN", "PAGE_UP", "ctrl PAGE_DOWN", "ctrl PAGE_UP"}) {
+            javax.swing.KeyStroke ks = javax.swing.KeyStroke.getKeyStroke(k);
+            list.getInputMap(javax.swing.JComponent.WHEN_FOCUSED).put(ks, "none");
+            sp.getInputMap(javax.swing.JComponent.WHEN_ANCESTOR_OF_FOCUSED_COMPONENT).put(ks, "none");
+        }
         sp.setBorder(BorderFactory.createEmptyBorder());
         add(sp, BorderLayout.CENTER);
         setPreferredSize(new Dimension(285, 400));
