@@ -395,8 +395,11 @@ public final class ViewerModel {
         double lo;
         double hi;
         if (d.autoRange()) {
-            MapStatistics s = MapStatistics.of(r.displayed(), r.mask(), StatisticsRequest.of(
-                    new double[] {d.lowPercent(), d.highPercent()}));
+            MapStatistics s = r.displayedStats();
+            if (!has(s, d.lowPercent()) || !has(s, d.highPercent())) {
+                s = MapStatistics.of(r.displayed(), r.mask(), StatisticsRequest.of(
+                        new double[] {d.lowPercent(), d.highPercent()}));
+            }
             lo = s.percentile(d.lowPercent());
             hi = s.percentile(d.highPercent());
         } else {
@@ -423,6 +426,10 @@ public final class ViewerModel {
             }
         }
         return new double[] {lo, hi};
+    }
+
+    private static boolean has(MapStatistics s, double percent) {
+        return percent == 50 || s.percentiles().stream().anyMatch(p -> p.percent() == percent);
     }
 
     /** Line profile of the selected wafer's displayed map along the current line, or null. */

@@ -43,6 +43,16 @@ public final class GalleryPanel extends JPanel {
     private final DefaultListModel<ViewerModel.OpenWafer> items = new DefaultListModel<>();
     private final JList<ViewerModel.OpenWafer> list = new JList<>(items);
     private final Map<ViewerModel.OpenWafer, Image> thumbs = new ConcurrentHashMap<>();
+    /** Pictures of maps not yet analysed (a PL map before its conversion to lifetime). */
+    private final Map<ViewerModel.OpenWafer, Image> drafts = new ConcurrentHashMap<>();
+    private final java.util.Set<ViewerModel.OpenWafer> pending = java.util.concurrent.ConcurrentHashMap.newKeySet();
+    /** Renders thumbnails off the event thread, one at a time. */
+    private static final java.util.concurrent.ExecutorService THUMBNAILS =
+            java.util.concurrent.Executors.newSingleThreadExecutor(r -> {
+                Thread t = new Thread(r, "trapmap-thumbnails");
+                t.setDaemon(true);
+                return t;
+            });
     private final JLabel header = new JLabel();
     private boolean updating;
 
@@ -117,11 +127,22 @@ public final class GalleryPanel extends JPanel {
         if (cached != null) {
             return cached;
         }
-        Image img = render(w);
-        if (w.result() != null) {
-            thumbs.put(w, img);
+        boolean done = w.result() != null;
+        if (pending.add(w)) {
+            THUMBNAILS.execute(() -> {
+                Image img = render(w);
+                javax.swing.SwingUtilities.invokeLater(() -> {
+                    pending.remove(w);
+                    if (done || w.result() != null) {
+                        thumbs.put(w, img);
+                    } else {
+                        drafts.put(w, img);
+                    }
+                    list.repaint();
+                });
+            });
         }
-        return img;
+        return drafts.get(w);
     }
 
     private static Image render(ViewerModel.OpenWafer k) {
