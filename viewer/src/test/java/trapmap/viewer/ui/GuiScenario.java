@@ -65,6 +65,17 @@ public final class GuiScenario {
                     && m.upToDate(m.selectedIndex()) && m.selected().result().analysis().threshold().value()
                     == threshold);
             int table = onEdt(() -> w.thresholdPanel().regionRows());
+            int colours = onEdt(() -> {
+                java.awt.image.BufferedImage img = w.viewImage();
+                java.util.Set<Integer> seen = new java.util.HashSet<>();
+                for (int y = 0; y < img.getHeight(); y += 4) {
+                    for (int x = 0; x < img.getWidth(); x += 4) {
+                        seen.add(img.getRGB(x, y));
+                    }
+                }
+                return seen.size();
+            });
+            System.out.printf(Locale.ROOT, "GUI-VIEW colours=%d%n", colours);
             String summary = onEdt(() -> ((JLabel) find(w, "flaggedSummary")).getText());
             String title = onEdt(w::getTitle);
             WaferAnalysis r = m.selected().result();

@@ -65,6 +65,9 @@ class ViewerWindowGuiTest {
                     .isEqualTo(Integer.parseInt(m.group(4))).isGreaterThan(1);
             assertThat(Double.parseDouble(m.group(5))).isEqualTo(120.0);
             assertThat(out).contains("title=trapmap — LOT-A01-W05.tif");
+            Matcher v = Pattern.compile("GUI-VIEW colours=(\\d+)").matcher(out);
+            assertThat(v.find()).as("view line in:%n%s", out).isTrue();
+            assertThat(Integer.parseInt(v.group(1))).as("distinct colours in the exported view").isGreaterThan(50);
             Matcher u = Pattern.compile("GUI-UNDO threshold=([0-9.]+) table=(\\d+) model=(\\d+)").matcher(out);
             assertThat(u.find()).as("undo line in:%n%s", out).isTrue();
             assertThat(Double.parseDouble(u.group(1))).as("threshold after Edit ▸ Undo").isEqualTo(20.0);
