@@ -36,7 +36,7 @@ final class ViewCommand implements Callable<Integer> {
             }
         }
         if (!ViewerLaunch.displayAvailable()) {
-            throw new InputException("no display available (DISPLAY is not set or Java runs headless); use"
+            throw new InputException("no display available (DISPLAY is not set or does not answer); use"
                     + " 'trapmap inspect' or 'trapmap stats' for the same figures without a window");
         }
         List<Path> open = files == null || files.isEmpty()

@@ -22,9 +22,19 @@ public final class ViewerApp {
     private ViewerApp() {
     }
 
-    /** True when windows can be shown (a display is there and AWT is not headless). */
+    /**
+     * True when windows can be shown: AWT is not headless and the display answers (a DISPLAY naming a server that
+     * is gone counts as no display).
+     */
     public static boolean displayAvailable() {
-        return !GraphicsEnvironment.isHeadless();
+        if (GraphicsEnvironment.isHeadless()) {
+            return false;
+        }
+        try {
+            return GraphicsEnvironment.getLocalGraphicsEnvironment().getScreenDevices().length > 0;
+        } catch (java.awt.AWTError | java.awt.HeadlessException | UnsatisfiedLinkError e) {
+            return false;
+        }
     }
 
     /**
