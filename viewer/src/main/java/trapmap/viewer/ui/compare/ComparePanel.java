@@ -38,6 +38,7 @@ import javax.swing.table.DefaultTableModel;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.viewer.report.WaferReport;
+import trapmap.viewer.ui.canvas.ColourBar;
 import trapmap.viewer.ui.canvas.MapCanvas;
 import trapmap.viewer.ui.canvas.Viewport;
 import trapmap.viewer.ui.charts.AutoStyle;
@@ -60,6 +61,9 @@ public class ComparePanel extends JPanel {
     private final MapCanvas afterCanvas = new MapCanvas(viewport);
     private final MapCanvas derivedCanvas = new MapCanvas(viewport);
     private final Crosshair crosshair = new Crosshair();
+    /** Colour scale of the before and after maps (one scale for both, so that colours compare). */
+    private final ColourBar pairBar = new ColourBar();
+    private final ColourBar derivedBar = new ColourBar();
     private final JLabel beforeTitle = title("before");
     private final JLabel afterTitle = title("after (registered)");
     private final JLabel derivedTitle = title("");
@@ -113,9 +117,9 @@ public class ComparePanel extends JPanel {
         add(bar, BorderLayout.NORTH);
 
         JPanel maps = new JPanel(new GridLayout(1, 3, 6, 0));
-        maps.add(titled(beforeTitle, beforeCanvas));
-        maps.add(titled(afterTitle, afterCanvas));
-        maps.add(titled(derivedTitle, derivedCanvas));
+        maps.add(titled(beforeTitle, beforeCanvas, null));
+        maps.add(titled(afterTitle, afterCanvas, pairBar));
+        maps.add(titled(derivedTitle, derivedCanvas, derivedBar));
         add(maps, BorderLayout.CENTER);
 
         JTable t = new JTable(table);
@@ -157,10 +161,14 @@ public class ComparePanel extends JPanel {
         return l;
     }
 
-    private JComponent titled(JLabel title, MapCanvas canvas) {
+    private JComponent titled(JLabel title, MapCanvas canvas, ColourBar bar) {
         JPanel p = new JPanel(new BorderLayout());
         p.add(title, BorderLayout.NORTH);
         p.add(new JLayer<>(canvas, crosshair), BorderLayout.CENTER);
+        if (bar != null) {
+            bar.setPreferredSize(new Dimension(80, 300));
+            p.add(bar, BorderLayout.EAST);
+        }
         p.setPreferredSize(new Dimension(300, 320));
         return p;
     }
@@ -229,8 +237,12 @@ public class ComparePanel extends JPanel {
         afterCanvas.setMap(null);
         derivedCanvas.setMap(null);
         table.setRowCount(0);
+        pairBar.setStyle(null);
+        derivedBar.setStyle(null);
         if (beforeMap != null) {
             beforeCanvas.setStyle(AutoStyle.of(beforeMap));
+            pairBar.setStyle(beforeCanvas.style());
+            pairBar.setLabel(Labels.unit(beforeMap.quantity()));
             beforeTitle.setText("before: " + name(beforeMap));
             beforeCanvas.fit();
         }
@@ -324,6 +336,8 @@ public class ComparePanel extends JPanel {
         beforeTitle.setText("before: " + name(r.before()));
         afterCanvas.setMap(r.after());
         afterCanvas.setStyle(beforeCanvas.style()); // one scale for both, so colours compare
+        pairBar.setStyle(beforeCanvas.style());
+        pairBar.setLabel(Labels.unit(r.before().quantity()));
         afterTitle.setText("after, registered: " + name(r.after()));
         table.setRowCount(0);
         for (String[] row : r.statisticsRows()) {
@@ -343,9 +357,11 @@ public class ComparePanel extends JPanel {
         CompareModel.View v = (CompareModel.View) view.getSelectedItem();
         WaferMap m = result == null || v == null ? null : result.derived(v);
         derivedCanvas.setMap(m);
+        derivedBar.setStyle(m == null ? null : AutoStyle.of(m));
         if (m != null) {
-            derivedCanvas.setStyle(AutoStyle.of(m));
+            derivedCanvas.setStyle(derivedBar.style());
             String u = Labels.unit(result.unit(v));
+            derivedBar.setLabel(u.isEmpty() ? "" : u);
             derivedTitle.setText(v + (u.isEmpty() ? "" : " (" + u + ")"));
         } else {
             derivedTitle.setText(v == null ? "" : v + ": " + (result == null ? "not computed yet"
