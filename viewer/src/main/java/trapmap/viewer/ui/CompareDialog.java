@@ -84,7 +84,7 @@ final class CompareDialog extends JDialog {
         getContentPane().add(panel, BorderLayout.CENTER);
         getRootPane().registerKeyboardAction(e -> dispose(), KeyStroke.getKeyStroke("ctrl W"),
                 JComponent.WHEN_IN_FOCUSED_WINDOW);
-        setPreferredSize(new Dimension(1500, 900));
+        setPreferredSize(new Dimension(Math.max(1200, owner.getWidth()), Math.max(800, owner.getHeight())));
         pack();
         setLocationRelativeTo(owner);
     }
