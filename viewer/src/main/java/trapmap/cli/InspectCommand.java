@@ -20,6 +20,7 @@ import trapmap.maps.batch.BatchInspection;
 import trapmap.maps.batch.Rules;
 import trapmap.maps.batch.RulesException;
 import trapmap.shared.progress.ProgressListener;
+import trapmap.viewer.report.BatchReport;
 
 /** {@code trapmap inspect}: pass/fail, grades and flagged regions of many wafer maps against a rules file. */
 @Command(name = "inspect", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
@@ -88,6 +89,11 @@ final class InspectCommand implements Callable<Integer> {
         if (System.console() != null) {
             err.println();
             err.flush();
+        }
+        try {
+            BatchReport.writeFor(out, rules);
+        } catch (IOException | RuntimeException e) {
+            err.println("inspect: " + out.resolve(BatchReport.FILE_NAME) + " not written: " + e.getMessage());
         }
         PrintWriter o = spec.commandLine().getOut();
         if (json) {

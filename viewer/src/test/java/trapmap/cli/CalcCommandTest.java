@@ -194,11 +194,4 @@ class CalcCommandTest {
         assertThat(r.err()).startsWith("trapmap calc: --defect 'bo-lid' has no published absolute capture"
                 + " cross-section").contains("N_t* = 1/tau_degraded - 1/tau_annealed").contains("trapmap calc bo");
     }
-
-    @Test
-    void noCommandIsAOneLineError() {
-        Cli.Run r = Cli.run();
-        assertThat(r.code()).isEqualTo(2);
-        assertThat(r.errLines()).containsExactly("trapmap: missing command: calc, convert, stats, compare, inspect, demo or defects (see 'trapmap --help')");
-    }
 }

@@ -208,7 +208,7 @@ public final class WaferInspection {
     }
 
     /** Pixels of the 8-connected groups of selected pixels whose area reaches the criteria's minimum. */
-    static BitSet flaggedPixels(FloatRaster raster, PixelGrid grid, Mask mask, RegionCriteria criteria) {
+    public static BitSet flaggedPixels(FloatRaster raster, PixelGrid grid, Mask mask, RegionCriteria criteria) {
         int w = raster.width();
         int h = raster.height();
         float[] s = raster.samples();

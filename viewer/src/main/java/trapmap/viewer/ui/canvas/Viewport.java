@@ -10,6 +10,7 @@ import java.util.List;
 public final class Viewport {
     /** Told after every change. */
     public interface Listener {
+        /** Called once per {@link Viewport#set} that changed zoom or centre. */
         void viewportChanged(Viewport v);
     }
 
@@ -18,6 +19,7 @@ public final class Viewport {
     private double centreX;
     private double centreY;
 
+    /** Screen pixels per map pixel. */
     public double zoom() {
         return zoom;
     }
@@ -27,11 +29,16 @@ public final class Viewport {
         return centreX;
     }
 
+    /** Map-pixel y coordinate (0 = top edge of the first row) shown at the view centre. */
     public double centreY() {
         return centreY;
     }
 
-    /** Sets zoom and centre together and tells the listeners once. */
+    /**
+     * Sets zoom and centre together and tells the listeners once (not at all when nothing changes).
+     *
+     * @throws IllegalArgumentException when the zoom is not positive or a value is not finite
+     */
     public void set(double zoom, double centreX, double centreY) {
         if (!(zoom > 0) || !Double.isFinite(zoom) || !Double.isFinite(centreX) || !Double.isFinite(centreY)) {
             throw new IllegalArgumentException("zoom must be > 0 and the centre finite");
@@ -47,10 +54,12 @@ public final class Viewport {
         }
     }
 
+    /** Adds a listener told after every change (on the thread that made it, the Event Dispatch Thread in the UI). */
     public void addListener(Listener l) {
         listeners.add(l);
     }
 
+    /** Removes a listener added with {@link #addListener}. */
     public void removeListener(Listener l) {
         listeners.remove(l);
     }

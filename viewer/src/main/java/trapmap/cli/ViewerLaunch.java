@@ -1,0 +1,133 @@
+package trapmap.cli;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.lang.reflect.InvocationTargetException;
+import java.net.URISyntaxException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import picocli.CommandLine;
+import trapmap.maps.demo.DemoScenario;
+
+/**
+ * Starts the desktop viewer without the command line touching Swing or AWT: the viewer class is looked up by name,
+ * so that the headless commands never load the UI. Also finds (or writes) the bundled demonstration set.
+ */
+final class ViewerLaunch {
+    /** The viewer's entry class. */
+    static final String APP = "trapmap.viewer.ui.ViewerApp";
+    /** Name of the demonstration folder beside the project root. */
+    static final String DEMO_FOLDER = "demo-data";
+    /** The example rules file of the demonstration set. */
+    static final String RULES = "rules-example.json";
+
+    private ViewerLaunch() {
+    }
+
+    /** True when the viewer can show a window here. */
+    static boolean displayAvailable() {
+        return (Boolean) call("displayAvailable", new Class<?>[0]);
+    }
+
+    /** Opens the viewer on {@code files} and returns when it is closed. */
+    static void open(List<Path> files) {
+        call("open", new Class<?>[] {List.class}, files);
+    }
+
+    private static Object call(String method, Class<?>[] types, Object... args) {
+        try {
+            return Class.forName(APP).getMethod(method, types).invoke(null, args);
+        } catch (InvocationTargetException e) {
+            Throwable t = e.getCause();
+            if (t instanceof RuntimeException r) {
+                throw r;
+            }
+            if (t instanceof Error err) {
+                throw err;
+            }
+            if (t instanceof InterruptedException) {
+                Thread.currentThread().interrupt();
+                return null;
+            }
+            throw new IllegalStateException("the viewer failed: " + t, t);
+        } catch (ReflectiveOperationException e) {
+            throw new IllegalStateException("the viewer is missing from this build (" + e + ")", e);
+        }
+    }
+
+    /**
+     * The demonstration set: {@code demo-data/} in the project root of the running jar (or classes folder), else
+     * in the current directory or one of its parents; when there is none, the set is generated into a temporary
+     * folder together with the example rules.
+     */
+    static Path demoFolder(PrintWriter err) throws IOException {
+        List<Path> starts = new ArrayList<>();
+        try {
+            Path code = Path.of(ViewerLaunch.class.getProtectionDomain().getCodeSource().getLocation().toURI());
+            starts.add(code.toAbsolutePath());
+        } catch (URISyntaxException | RuntimeException e) {
+            // no code location: fall back to the current directory
+        }
+        starts.add(Path.of("").toAbsolutePath());
+        for (Path start : starts) {
+            for (Path p = start; p != null; p = p.getParent()) {
+                Path demo = p.resolve(DEMO_FOLDER);
+                if (Files.isRegularFile(demo.resolve(RULES))) {
+                    return demo;
+                }
+            }
+        }
+        Path dir = Files.createTempDirectory("trapmap-demo-");
+        DemoScenario.write(dir);
+        Files.writeString(dir.resolve(RULES), EXAMPLE_RULES, StandardCharsets.UTF_8);
+        err.println("trapmap: no " + DEMO_FOLDER + "/ found; generated the demonstration set in " + dir);
+        return dir;
+    }
+
+    /**
+     * No display: runs {@code trapmap inspect} on the demonstration set with its example rules into a new temporary
+     * folder, after one line saying why.
+     */
+    static int demoBatch(PrintWriter out, PrintWriter err) throws IOException {
+        Path demo = demoFolder(err);
+        Path report = Files.createTempDirectory("trapmap-report-");
+        out.println("trapmap: no display available, so the viewer cannot open; running the demonstration batch"
+                + " instead (trapmap inspect " + demo + " --rules " + demo.resolve(RULES) + " --out " + report + ")");
+        out.flush();
+        CommandLine cl = TrapmapCommand.commandLine(out, err);
+        int code = cl.execute("inspect", demo.toString(), "--rules", demo.resolve(RULES).toString(), "--out",
+                report.toString());
+        out.println("report: " + report.resolve("results.csv") + " (and results.json, recurrence maps)");
+        out.flush();
+        return code == Exit.SOME_WAFERS_NOT_PASSED ? Exit.OK : code;
+    }
+
+    /** The example rules of the demonstration set, for a generated set. */
+    static final String EXAMPLE_RULES = """
+            {
+              "conditions": {"doping": "p:1.5ohmcm", "injection_cm3": 1e14, "temperature_k": 300, "thickness_um": 180,
+                             "srv_cm_s": 10, "override": false},
+              "defect": "fe-i",
+              "edge_exclusion_mm": 2,
+              "wafer": "auto",
+              "edge_band_mm": 10,
+              "flag": {"quantity": "lifetime", "threshold": 20, "min_area_mm2": 4},
+              "limits": {
+                "harmonic_mean_lifetime_us": {"min": 50},
+                "p5_lifetime_us": {"min": 20},
+                "trap_density_p95_cm3": {"max": 3e11},
+                "flagged_area_fraction": {"max": 0.02},
+                "largest_region_mm2": {"max": 100},
+                "edge_to_centre_ratio": {"min": 0.6}
+              },
+              "grades": [
+                {"grade": "A", "when": {"median_lifetime_us": {"min": 200}, "flagged_area_fraction": {"max": 0.001}}},
+                {"grade": "B", "when": {"median_lifetime_us": {"min": 80}}},
+                {"grade": "C"}
+              ]
+            }
+            """;
+}

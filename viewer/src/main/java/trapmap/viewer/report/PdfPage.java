@@ -1,0 +1,283 @@
+package trapmap.viewer.report;
+
+import java.awt.Color;
+import java.awt.image.BufferedImage;
+import java.io.Closeable;
+import java.io.IOException;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import org.apache.pdfbox.pdmodel.PDDocument;
+import org.apache.pdfbox.pdmodel.PDPage;
+import org.apache.pdfbox.pdmodel.PDPageContentStream;
+import org.apache.pdfbox.pdmodel.common.PDRectangle;
+import org.apache.pdfbox.pdmodel.font.PDFont;
+import org.apache.pdfbox.pdmodel.font.PDType1Font;
+import org.apache.pdfbox.pdmodel.font.Standard14Fonts;
+import org.apache.pdfbox.pdmodel.graphics.image.LosslessFactory;
+import org.apache.pdfbox.pdmodel.graphics.image.PDImageXObject;
+
+/**
+ * One A4 page being drawn, with coordinates in points from the top-left corner (PDF's own origin is bottom-left).
+ * Text uses the standard Helvetica fonts, so the file needs no embedded font; characters those fonts cannot encode
+ * are spelt out ({@link #clean}: Δ → "d", τ → "tau", ⁻³ → "-3", …).
+ */
+final class PdfPage implements Closeable {
+    /**
+     * PDFBox reports through java.util.logging that it draws the standard fonts with a system font and builds a font
+     * cache; neither matters for writing, and the command line's stderr is for progress. Held here so the setting
+     * stays (loggers are weakly referenced).
+     */
+    private static final java.util.logging.Logger PDFBOX_LOG = quiet();
+
+    static final float WIDTH = PDRectangle.A4.getWidth();
+    static final float HEIGHT = PDRectangle.A4.getHeight();
+    static final float MARGIN = 36;
+    static final PDFont REGULAR = new PDType1Font(Standard14Fonts.FontName.HELVETICA);
+    static final PDFont BOLD = new PDType1Font(Standard14Fonts.FontName.HELVETICA_BOLD);
+    static final Color INK = new Color(0x222222);
+    static final Color MUTED = new Color(0x666666);
+    static final Color RULE = new Color(0xBBBBBB);
+
+    private static final Map<Character, String> SPELLED = Map.ofEntries(
+            Map.entry('Δ', "d"), Map.entry('τ', "tau"), Map.entry('σ', "sigma"), Map.entry('χ', "chi"),
+            Map.entry('⁻', "-"), Map.entry('⁰', "0"), Map.entry('⁴', "4"), Map.entry('⁵', "5"), Map.entry('⁶', "6"),
+            Map.entry('⁷', "7"), Map.entry('⁸', "8"), Map.entry('⁹', "9"), Map.entry('₀', "0"), Map.entry('₁', "1"),
+            Map.entry('₂', "2"), Map.entry('≤', "<="), Map.entry('≥', ">="), Map.entry('→', "->"),
+            Map.entry('−', "-"), Map.entry('∞', "inf"), Map.entry('Ω', "Ohm"), Map.entry('≈', "~"),
+            Map.entry('\u202F', " "), Map.entry('\u2009', " "), Map.entry('⟨', "<"), Map.entry('⟩', ">"),
+            Map.entry('√', "sqrt"), Map.entry('ₜ', "t"), Map.entry('ᵢ', "i"));
+
+    private final PDDocument doc;
+    private final PDPageContentStream cs;
+
+    private static java.util.logging.Logger quiet() {
+        java.util.logging.Logger l = java.util.logging.Logger.getLogger("org.apache.pdfbox");
+        l.setLevel(java.util.logging.Level.SEVERE);
+        return l;
+    }
+
+    PdfPage(PDDocument doc) throws IOException {
+        this.doc = doc;
+        PDPage page = new PDPage(PDRectangle.A4);
+        doc.addPage(page);
+        this.cs = new PDPageContentStream(doc, page);
+    }
+
+    /** Text the standard fonts can show: unknown characters spelt out or replaced by '?'. */
+    static String clean(String s) {
+        StringBuilder b = new StringBuilder(s.length());
+        for (int i = 0; i < s.length(); i++) {
+            char c = s.charAt(i);
+            String r = SPELLED.get(c);
+            if (r != null) {
+                b.append(r);
+            } else if (c == '\n' || c == '\t') {
+                b.append(' ');
+            } else if (encodable(c)) {
+                b.append(c);
+            } else {
+                b.append('?');
+            }
+        }
+        return b.toString();
+    }
+
+    private static boolean encodable(char c) {
+        if (c < 128) {
+            return c >= 32;
+        }
+        try {
+            REGULAR.encode(String.valueOf(c));
+            return true;
+        } catch (IOException | IllegalArgumentException e) {
+            return false;
+        }
+    }
+
+    static float width(String s, PDFont font, float size) {
+        try {
+            return font.getStringWidth(clean(s)) / 1000 * size;
+        } catch (IOException e) {
+            throw new IllegalStateException("cannot measure text '" + s + "'", e);
+        }
+    }
+
+    /** One line of text whose top is at {@code yTop}. */
+    void text(String s, float x, float yTop, PDFont font, float size, Color colour) throws IOException {
+        cs.beginText();
+        cs.setFont(font, size);
+        cs.setNonStrokingColor(colour);
+        cs.newLineAtOffset(x, HEIGHT - yTop - size * 0.82f);
+        cs.showText(clean(s));
+        cs.endText();
+    }
+
+    void text(String s, float x, float yTop, PDFont font, float size) throws IOException {
+        text(s, x, yTop, font, size, INK);
+    }
+
+    /** Text right-aligned at {@code xRight}. */
+    void textRight(String s, float xRight, float yTop, PDFont font, float size) throws IOException {
+        text(s, xRight - width(s, font, size), yTop, font, size, INK);
+    }
+
+    /** The text cut with "…"-style dots so that it fits {@code maxWidth}. */
+    static String fit(String s, PDFont font, float size, float maxWidth) {
+        if (width(s, font, size) <= maxWidth) {
+            return s;
+        }
+        String t = s;
+        while (t.length() > 1 && width(t + "...", font, size) > maxWidth) {
+            t = t.substring(0, t.length() - 1);
+        }
+        return t + "...";
+    }
+
+    /** The words of {@code s} broken into lines no wider than {@code width}. */
+    static List<String> wrap(String s, PDFont font, float size, float width) {
+        List<String> lines = new ArrayList<>();
+        StringBuilder line = new StringBuilder();
+        for (String word : s.split(" +")) {
+            String candidate = line.length() == 0 ? word : line + " " + word;
+            if (width(candidate, font, size) <= width || line.length() == 0) {
+                line.setLength(0);
+                line.append(candidate);
+            } else {
+                lines.add(line.toString());
+                line.setLength(0);
+                line.append(word);
+            }
+        }
+        if (line.length() > 0) {
+            lines.add(line.toString());
+        }
+        return lines;
+    }
+
+    /** A wrapped paragraph; returns its height. */
+    float paragraph(String s, float x, float yTop, float width, PDFont font, float size) throws IOException {
+        float leading = size * 1.3f;
+        List<String> lines = wrap(s, font, size, width);
+        for (int i = 0; i < lines.size(); i++) {
+            text(lines.get(i), x, yTop + i * leading, font, size);
+        }
+        return lines.size() * leading;
+    }
+
+    /**
+     * A table: the first row in bold with a rule under it when {@code header}; columns of the given widths, those
+     * marked in {@code right} right-aligned; cells cut to fit. Returns its height.
+     */
+    float table(float x, float yTop, float[] widths, boolean[] right, List<String[]> rows, float size, boolean header)
+            throws IOException {
+        float leading = size * 1.35f;
+        float y = yTop;
+        for (int r = 0; r < rows.size(); r++) {
+            PDFont font = header && r == 0 ? BOLD : REGULAR;
+            float cx = x;
+            String[] row = rows.get(r);
+            for (int c = 0; c < widths.length && c < row.length; c++) {
+                String cell = fit(row[c] == null ? "" : row[c], font, size, widths[c] - 4);
+                if (right != null && right[c]) {
+                    textRight(cell, cx + widths[c] - 4, y, font, size);
+                } else {
+                    text(cell, cx, y, font, size);
+                }
+                cx += widths[c];
+            }
+            y += leading;
+            if (header && r == 0) {
+                float total = 0;
+                for (float w : widths) {
+                    total += w;
+                }
+                line(x, y - leading * 0.15f, x + total, y - leading * 0.15f, RULE, 0.6f);
+                y += leading * 0.15f;
+            }
+        }
+        return y - yTop;
+    }
+
+    /** A picture scaled into the box (its own pixels are kept: draw it at 2× for print). */
+    void image(BufferedImage img, float x, float yTop, float w, float h) throws IOException {
+        PDImageXObject xo = LosslessFactory.createFromImage(doc, img);
+        cs.drawImage(xo, x, HEIGHT - yTop - h, w, h);
+    }
+
+    void rect(float x, float yTop, float w, float h, Color stroke, Color fill, float lineWidth) throws IOException {
+        cs.addRect(x, HEIGHT - yTop - h, w, h);
+        if (fill != null) {
+            cs.setNonStrokingColor(fill);
+        }
+        if (stroke != null) {
+            cs.setStrokingColor(stroke);
+            cs.setLineWidth(lineWidth);
+        }
+        if (fill != null && stroke != null) {
+            cs.fillAndStroke();
+        } else if (fill != null) {
+            cs.fill();
+        } else {
+            cs.stroke();
+        }
+    }
+
+    void line(float x0, float y0Top, float x1, float y1Top, Color colour, float lineWidth) throws IOException {
+        cs.setStrokingColor(colour);
+        cs.setLineWidth(lineWidth);
+        cs.moveTo(x0, HEIGHT - y0Top);
+        cs.lineTo(x1, HEIGHT - y1Top);
+        cs.stroke();
+    }
+
+    /** A section heading with a rule; returns its height. */
+    float heading(String s, float x, float yTop, float width) throws IOException {
+        text(s, x, yTop, BOLD, 10.5f);
+        line(x, yTop + 14, x + width, yTop + 14, RULE, 0.6f);
+        return 18;
+    }
+
+    /** The caution in a framed, tinted box; returns its height. */
+    float caution(String s, float x, float yTop, float width) throws IOException {
+        float size = 9;
+        List<String> lines = wrap("Caution: " + s, BOLD, size, width - 16);
+        float h = lines.size() * size * 1.3f + 12;
+        rect(x, yTop, width, h, new Color(0xB26A00), new Color(0xFFF4E0), 1f);
+        for (int i = 0; i < lines.size(); i++) {
+            text(lines.get(i), x + 8, yTop + 6 + i * size * 1.3f, BOLD, size, new Color(0x5A3500));
+        }
+        return h;
+    }
+
+    /** Adds to every page of {@code doc} a footer: {@code left} at the left, "page i of n" at the right. */
+    static void footers(PDDocument doc, String left) throws IOException {
+        int n = doc.getNumberOfPages();
+        for (int i = 0; i < n; i++) {
+            try (PDPageContentStream c = new PDPageContentStream(doc, doc.getPage(i),
+                    PDPageContentStream.AppendMode.APPEND, true, true)) {
+                float size = 7.5f;
+                float base = MARGIN - 18;
+                String l = fit(left, REGULAR, size, 420);
+                String p = "page " + (i + 1) + " of " + n;
+                c.beginText();
+                c.setFont(REGULAR, size);
+                c.setNonStrokingColor(MUTED);
+                c.newLineAtOffset(MARGIN, base);
+                c.showText(clean(l));
+                c.endText();
+                c.beginText();
+                c.setFont(REGULAR, size);
+                c.setNonStrokingColor(MUTED);
+                c.newLineAtOffset(WIDTH - MARGIN - width(p, REGULAR, size), base);
+                c.showText(clean(p));
+                c.endText();
+            }
+        }
+    }
+
+    @Override
+    public void close() throws IOException {
+        cs.close();
+    }
+}

@@ -1,0 +1,311 @@
+package trapmap.viewer.report;
+
+import java.awt.image.BufferedImage;
+import java.io.IOException;
+import java.nio.file.Path;
+import java.time.ZonedDateTime;
+import java.time.format.DateTimeFormatter;
+import java.util.ArrayList;
+import java.util.BitSet;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import org.apache.pdfbox.pdmodel.PDDocument;
+import org.apache.pdfbox.pdmodel.PDDocumentInformation;
+import trapmap.maps.geometry.WaferShape;
+import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.Mask;
+import trapmap.maps.region.Region;
+import trapmap.maps.region.RegionCriteria;
+import trapmap.maps.region.RegionTable;
+import trapmap.physics.defect.Defect;
+import trapmap.physics.material.Doping;
+import trapmap.viewer.ui.canvas.DisplayStyle;
+import trapmap.viewer.ui.charts.ChartExport;
+import trapmap.viewer.ui.charts.HistogramView;
+import trapmap.viewer.ui.charts.Labels;
+
+/**
+ * One A4 page per wafer: title (wafer, file, date), the map with its colour bar, flagged regions outlined and the
+ * wafer edge, its histogram and statistics with units, the measurement settings, the defect with its parameters and
+ * source, the flagged regions, notes and the caution. Works headless ({@code java.awt.headless=true}); charts and the
+ * map are embedded as pictures at {@value #SCALE}× for print.
+ */
+public final class WaferReport {
+    /** Shown in a box on every report whose numbers drive decisions. */
+    public static final String CAUTION = "Equivalent density assumes one dominant defect; verify with an independent"
+            + " method before scrapping material; follow site procedures.";
+    /** Picture pixels per PDF point. */
+    static final double SCALE = 2;
+    private static final DateTimeFormatter DATE = DateTimeFormatter.ofPattern("yyyy-MM-dd HH:mm z", Locale.ROOT);
+
+    /**
+     * What one page shows. Make one with {@link #of(WaferMap, String)} and add what is known with the
+     * {@code with…} methods; everything but the map may stay empty.
+     *
+     * @param map             the map shown and summarised (lifetime, trap density, …), in its own unit
+     * @param file            the file it came from, as shown to the user ("" when none)
+     * @param created         the date printed on the report
+     * @param style           colours and range as shown in the viewer; null: BLUE_YELLOW over the 1st–99th
+     *                        percentile, log scale for quantities that span decades
+     * @param statisticsMask  the pixels the histogram and statistics use (e.g. the wafer less the edge exclusion);
+     *                        null: every pixel with data
+     * @param threshold       the flag threshold in the map's unit, marked on the histogram; NaN for none
+     * @param flagged         pixels to outline (bit y·width + x), null for none
+     * @param outline         the wafer outline to draw, null for none
+     * @param edgeExclusionMm width of the excluded rim, mm (0 for none)
+     * @param conditions      the measurement settings used (usually the map's, after the user's overrides)
+     * @param defect          the defect of an equivalent-density map, null when none was used
+     * @param regions         the flagged regions, null when none were searched
+     * @param notes           further lines (conversion warnings, processing), each printed as a bullet
+     */
+    public record Content(WaferMap map, String file, ZonedDateTime created, DisplayStyle style, Mask statisticsMask,
+                          double threshold, BitSet flagged, WaferShape outline, double edgeExclusionMm,
+                          MeasurementConditions conditions, Defect defect, RegionTable regions, List<String> notes) {
+        public Content {
+            if (map == null) {
+                throw new IllegalArgumentException("a wafer report needs a map");
+            }
+            file = file == null ? "" : file;
+            created = created == null ? ZonedDateTime.now() : created;
+            conditions = conditions == null ? map.conditions() : conditions;
+            notes = notes == null ? List.of() : List.copyOf(notes);
+            if (!(edgeExclusionMm >= 0)) {
+                edgeExclusionMm = 0;
+            }
+        }
+
+        /** A page of {@code map} read from {@code file}, dated now, with nothing else known. */
+        public static Content of(WaferMap map, String file) {
+            return new Content(map, file, ZonedDateTime.now(), null, null, Double.NaN, null, null, 0, null, null,
+                    null, List.of());
+        }
+
+        public Content withCreated(ZonedDateTime t) {
+            return new Content(map, file, t, style, statisticsMask, threshold, flagged, outline, edgeExclusionMm,
+                    conditions, defect, regions, notes);
+        }
+
+        public Content withStyle(DisplayStyle s) {
+            return new Content(map, file, created, s, statisticsMask, threshold, flagged, outline, edgeExclusionMm,
+                    conditions, defect, regions, notes);
+        }
+
+        public Content withStatisticsMask(Mask m) {
+            return new Content(map, file, created, style, m, threshold, flagged, outline, edgeExclusionMm, conditions,
+                    defect, regions, notes);
+        }
+
+        /** The flag threshold (map unit), the flagged pixels and the regions found. */
+        public Content withFlags(double t, BitSet f, RegionTable r) {
+            return new Content(map, file, created, style, statisticsMask, t, f, outline, edgeExclusionMm, conditions,
+                    defect, r, notes);
+        }
+
+        public Content withOutline(WaferShape shape, double exclusionMm) {
+            return new Content(map, file, created, style, statisticsMask, threshold, flagged, shape, exclusionMm,
+                    conditions, defect, regions, notes);
+        }
+
+        public Content withConditions(MeasurementConditions c) {
+            return new Content(map, file, created, style, statisticsMask, threshold, flagged, outline,
+                    edgeExclusionMm, c, defect, regions, notes);
+        }
+
+        public Content withDefect(Defect d) {
+            return new Content(map, file, created, style, statisticsMask, threshold, flagged, outline,
+                    edgeExclusionMm, conditions, d, regions, notes);
+        }
+
+        public Content withNotes(List<String> n) {
+            return new Content(map, file, created, style, statisticsMask, threshold, flagged, outline,
+                    edgeExclusionMm, conditions, defect, regions, n);
+        }
+
+        /** The wafer id, or the file name when the map has none. */
+        public String title() {
+            if (!map.waferId().isEmpty()) {
+                return map.waferId();
+            }
+            return file.isEmpty() ? "unnamed wafer" : Path.of(file).getFileName().toString();
+        }
+    }
+
+    private WaferReport() {
+    }
+
+    /** Writes one page per content into {@code pdf} (atomically). */
+    public static void write(List<Content> pages, Path pdf) throws IOException {
+        if (pages.isEmpty()) {
+            throw new IllegalArgumentException("a wafer report needs at least one wafer");
+        }
+        ChartExport.atomically(pdf, tmp -> {
+            try (PDDocument doc = new PDDocument()) {
+                PDDocumentInformation info = doc.getDocumentInformation();
+                info.setTitle("Wafer report " + PdfPage.clean(pages.get(0).title()) + (pages.size() > 1 ? " and "
+                        + (pages.size() - 1) + " more" : ""));
+                info.setCreator("trapmap");
+                for (Content c : pages) {
+                    page(doc, c);
+                }
+                PdfPage.footers(doc, "trapmap wafer report - " + CAUTION);
+                doc.save(tmp.toFile());
+            }
+        });
+    }
+
+    /** Writes one page into {@code pdf} (atomically). */
+    public static void write(Content page, Path pdf) throws IOException {
+        write(List.of(page), pdf);
+    }
+
+    private static void page(PDDocument doc, Content c) throws IOException {
+        WaferMap map = c.map();
+        HistogramView.Data hist = HistogramView.compute(map, c.statisticsMask(), c.threshold());
+        DisplayStyle style = MapPicture.styleOf(map, c.style());
+        float left = PdfPage.MARGIN;
+        float full = PdfPage.WIDTH - 2 * PdfPage.MARGIN;
+        try (PdfPage p = new PdfPage(doc)) {
+            float y = PdfPage.MARGIN;
+            p.text("Wafer " + c.title(), left, y, PdfPage.BOLD, 16);
+            y += 21;
+            String sub = Labels.name(map.quantity()) + " map" + (c.file().isEmpty() ? "" : " - " + c.file()) + " - "
+                    + DATE.format(c.created());
+            p.text(PdfPage.fit(sub, PdfPage.REGULAR, 9, full), left, y, PdfPage.REGULAR, 9, PdfPage.MUTED);
+            y += 16;
+
+            // map with colour bar (left), statistics (right)
+            float mapSize = 240;
+            float barWidth = 78;
+            BufferedImage pic = MapPicture.render(map, style, c.flagged(), c.outline(), c.edgeExclusionMm(),
+                    (int) Math.round(mapSize * SCALE));
+            p.image(pic, left, y, mapSize, mapSize);
+            p.image(MapPicture.colourBarImage(style, MapPicture.label(map), (int) barWidth, (int) mapSize, SCALE),
+                    left + mapSize + 4, y, barWidth, mapSize);
+            float legendY = y + mapSize + 3;
+            String legend = "grey: no data" + (c.flagged() != null ? "; magenta: flagged pixels" : "")
+                    + (c.outline() != null ? "; dark line: wafer edge" + (c.edgeExclusionMm() > 0 ? ", grey dashes: "
+                    + Labels.number(c.edgeExclusionMm()) + " mm edge exclusion" : "") : "");
+            p.paragraph(legend, left, legendY, mapSize + barWidth, PdfPage.REGULAR, 7.5f);
+
+            float sx = left + mapSize + barWidth + 16;
+            float sw = PdfPage.WIDTH - PdfPage.MARGIN - sx;
+            p.heading("Statistics", sx, y, sw);
+            List<String[]> rows = new ArrayList<>();
+            for (HistogramView.Row r : hist.rows()) {
+                rows.add(new String[] {r.name(), r.value(), r.unit()});
+            }
+            p.table(sx, y + 20, new float[] {sw * 0.58f, sw * 0.29f, sw * 0.13f}, new boolean[] {false, true, false},
+                    rows, 8, false);
+            y = legendY + 22;
+
+            // histogram across the page
+            float histH = 170;
+            p.image(ChartExport.image(HistogramView.createChart(hist), (int) full, (int) histH, SCALE), left, y, full,
+                    histH);
+            y += histH + 8;
+
+            // settings (left) and defect (right)
+            float half = (full - 16) / 2;
+            float top = y;
+            p.heading("Measurement settings", left, y, half);
+            float h1 = p.table(left, y + 20, new float[] {half * 0.42f, half * 0.58f}, null, settings(c.conditions()),
+                    8, false);
+            p.heading("Defect", left + half + 16, top, half);
+            float h2 = p.table(left + half + 16, top + 20, new float[] {half * 0.30f, half * 0.70f}, null,
+                    defect(c.defect()), 8, false);
+            float sourceH = 0;
+            if (c.defect() != null && !c.defect().source().isEmpty()) {
+                sourceH = p.paragraph("Source: " + c.defect().source(), left + half + 16, top + 20 + h2 + 2, half,
+                        PdfPage.REGULAR, 7.5f);
+            }
+            y = top + 20 + Math.max(h1, h2 + sourceH + 2) + 8;
+
+            // regions
+            p.heading("Flagged regions", left, y, full);
+            y += 20;
+            y += regions(p, c, left, y, full);
+
+            if (!c.notes().isEmpty()) {
+                y += 4;
+                for (String n : c.notes()) {
+                    y += p.paragraph("- " + n, left, y, full, PdfPage.REGULAR, 8);
+                }
+            }
+            float cautionY = Math.max(y + 8, PdfPage.HEIGHT - PdfPage.MARGIN - 48);
+            p.caution(CAUTION, left, cautionY, full);
+        }
+    }
+
+    static List<String[]> settings(MeasurementConditions m) {
+        List<String[]> r = new ArrayList<>();
+        Doping d = m.doping();
+        r.add(new String[] {"doping", d == null ? "unknown" : (d.type().name().toLowerCase(Locale.ROOT)
+                + "-type " + Labels.number(d.densityPerCm3()) + " cm⁻³ (" + Labels.number(d.resistivityOhmCm())
+                + " Ω·cm)")});
+        r.add(new String[] {"thickness", m.thicknessUm() == null ? "unknown" : Labels.number(m.thicknessUm()) + " µm"});
+        r.add(new String[] {"temperature", m.temperatureK() == null ? "300 K (default)"
+                : Labels.number(m.temperatureK()) + " K"});
+        if (m.injectionPerCm3() != null) {
+            r.add(new String[] {"injection Δn", Labels.number(m.injectionPerCm3()) + " cm⁻³ (fixed)"});
+        } else if (m.generationPerCm3PerS() != null) {
+            r.add(new String[] {"generation G", Labels.number(m.generationPerCm3PerS()) + " cm⁻³ s⁻¹ (Δn = G·τ)"});
+        } else {
+            r.add(new String[] {"injection", "unknown"});
+        }
+        r.add(new String[] {"surface", m.srvCmPerS() == null ? "ideal (no surface term)"
+                : "S = " + Labels.number(m.srvCmPerS()) + " cm/s on both sides"});
+        for (Map.Entry<String, String> e : m.extra().entrySet()) {
+            if (r.size() >= 8) {
+                break;
+            }
+            r.add(new String[] {e.getKey().replace('_', ' '), e.getValue()});
+        }
+        return r;
+    }
+
+    static List<String[]> defect(Defect d) {
+        List<String[]> r = new ArrayList<>();
+        if (d == null) {
+            r.add(new String[] {"defect", "none (map not converted)"});
+            return r;
+        }
+        r.add(new String[] {"defect", d.id() + " - " + d.name()});
+        r.add(new String[] {"level", d.level().toString()});
+        r.add(new String[] {"σ_n", Labels.number(d.electronCrossSectionCm2()) + " cm²"});
+        r.add(new String[] {"σ_p", Labels.number(d.holeCrossSectionCm2()) + " cm²"});
+        r.add(new String[] {"σ_n/σ_p", Labels.number(d.captureRatio())});
+        r.add(new String[] {"v_th convention", d.velocityConvention().name().toLowerCase(Locale.ROOT)});
+        return r;
+    }
+
+    private static float regions(PdfPage p, Content c, float x, float y, float width) throws IOException {
+        RegionTable t = c.regions();
+        if (t == null) {
+            return p.paragraph("No region search was made.", x, y, width, PdfPage.REGULAR, 8);
+        }
+        RegionCriteria k = t.criteria();
+        String unit = c.map().quantity().unit();
+        String summary = t.size() + " region" + (t.size() == 1 ? "" : "s") + " with values "
+                + (k.side() == RegionCriteria.Side.ABOVE ? "above " : "below ") + Labels.number(k.threshold(), unit)
+                + (k.minAreaMm2() > 0 ? " of at least " + Labels.number(k.minAreaMm2()) + " mm²" : "")
+                + ", " + Labels.number(t.totalAreaMm2()) + " mm² in all" + (t.size() > 5 ? "; the five largest:" : ".");
+        float h = p.paragraph(summary, x, y, width, PdfPage.REGULAR, 8);
+        if (t.size() == 0) {
+            return h;
+        }
+        List<String[]> rows = new ArrayList<>();
+        String u = Labels.unit(unit);
+        rows.add(new String[] {"region", "area (mm²)", "centre x (mm)", "centre y (mm)", "peak" + (u.isEmpty() ? ""
+                : " (" + u + ")"), "mean" + (u.isEmpty() ? "" : " (" + u + ")"), "to edge (mm)"});
+        for (Region r : t.byArea().subList(0, Math.min(5, t.size()))) {
+            rows.add(new String[] {"#" + r.id(), Labels.number(r.areaMm2()), Labels.number(r.centroidXMm()),
+                Labels.number(r.centroidYMm()), Labels.number(r.peakValue()), Labels.number(r.meanValue()),
+                Labels.number(r.edgeDistanceMm())});
+        }
+        float cw = width / 7;
+        return h + 2 + p.table(x, y + h + 2, new float[] {cw, cw, cw, cw, cw, cw, cw},
+                new boolean[] {false, true, true, true, true, true, true}, rows, 8, true);
+    }
+}

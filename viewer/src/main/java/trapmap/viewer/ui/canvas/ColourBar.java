@@ -1,0 +1,220 @@
+package trapmap.viewer.ui.canvas;
+
+import java.awt.Color;
+import java.awt.Dimension;
+import java.awt.Font;
+import java.awt.FontMetrics;
+import java.awt.Graphics;
+import java.awt.Graphics2D;
+import java.awt.RenderingHints;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import javax.swing.JComponent;
+import javax.swing.UIManager;
+
+/**
+ * Vertical colour scale for a {@link DisplayStyle}: the colours from {@code low} (bottom) to {@code high} (top), tick
+ * labels at round values (multiples of 1, 2 or 5 × 10^k on a linear scale, decades on a log scale), and a label
+ * naming the quantity and unit above the bar, e.g. {@code τ (µs)} or {@code N_t (cm⁻³)}. Values outside the range take
+ * the end colours on the map, which the small arrows at the ends recall.
+ */
+public class ColourBar extends JComponent {
+    /** Width of the colour strip, pixels. */
+    static final int BAR_WIDTH = 16;
+    /** At most this many tick labels. */
+    static final int MAX_TICKS = 8;
+
+    private DisplayStyle style;
+    private String label = "";
+
+    /** An empty bar; give it a style with {@link #setStyle}. */
+    public ColourBar() {
+        setPreferredSize(new Dimension(96, 320));
+        setMinimumSize(new Dimension(72, 120));
+    }
+
+    /** A bar for {@code style} with a quantity-and-unit label such as {@code τ (µs)}. */
+    public ColourBar(DisplayStyle style, String label) {
+        this();
+        setStyle(style);
+        setLabel(label);
+    }
+
+    /** The style shown, or null (nothing drawn). */
+    public DisplayStyle style() {
+        return style;
+    }
+
+    /** Shows the colours and range of {@code style}; null shows nothing. */
+    public void setStyle(DisplayStyle style) {
+        this.style = style;
+        setToolTipText(style == null ? null : style.colours().displayName() + ": " + style.colours().description()
+                + (style.logarithmic() ? " (log scale)" : " (linear scale)"));
+        repaint();
+    }
+
+    /** The quantity-and-unit label above the bar. */
+    public String label() {
+        return label;
+    }
+
+    /** Sets the quantity-and-unit text above the bar, e.g. {@code τ (µs)} or {@code N_t (cm⁻³)}; null means none. */
+    public void setLabel(String label) {
+        this.label = label == null ? "" : label;
+        repaint();
+    }
+
+    /** Tick values for a style, ascending, at most {@code maxTicks} (see the class comment). */
+    static double[] ticks(DisplayStyle s, int maxTicks) {
+        return s.logarithmic() ? logTicks(s.low(), s.high(), maxTicks) : linearTicks(s.low(), s.high(), maxTicks);
+    }
+
+    /** Multiples of a 1, 2 or 5 × 10^k step inside [low, high], as many as fit within {@code maxTicks}. */
+    static double[] linearTicks(double low, double high, int maxTicks) {
+        double step = niceStep((high - low) / Math.max(1, maxTicks - 1));
+        while (true) {
+            long first = (long) Math.ceil(low / step - 1e-9);
+            long last = (long) Math.floor(high / step + 1e-9);
+            if (last - first + 1 <= maxTicks) {
+                double[] t = new double[(int) Math.max(0, last - first + 1)];
+                // whole numbers of the step's last decimal, divided once, so 3 × 0.1 gives 0.3
+                double scale = Math.pow(10, Math.max(0, -Math.floor(Math.log10(step) + 1e-9)));
+                for (int i = 0; i < t.length; i++) {
+                    double v = Math.round((first + i) * step * scale) / scale;
+                    t[i] = v == 0 ? 0 : v; // no -0
+                }
+                return t;
+            }
+            step = niceStep(step * 1.5);
+        }
+    }
+
+    /** The smallest 1, 2 or 5 × 10^k not below {@code v}. */
+    static double niceStep(double v) {
+        double p = Math.pow(10, Math.floor(Math.log10(v)));
+        double m = v / p;
+        double n = m <= 1 + 1e-9 ? 1 : m <= 2 + 1e-9 ? 2 : m <= 5 + 1e-9 ? 5 : 10;
+        return n * p;
+    }
+
+    /**
+     * Decades inside [low, high] (every second, third, … decade when there are too many); with fewer than three,
+     * the 2 and 5 multiples inside the range are added.
+     */
+    static double[] logTicks(double low, double high, int maxTicks) {
+        int e0 = (int) Math.ceil(Math.log10(low) - 1e-9);
+        int e1 = (int) Math.floor(Math.log10(high) + 1e-9);
+        List<Double> t = new ArrayList<>();
+        int decades = e1 - e0 + 1;
+        if (decades >= 3) {
+            int every = (decades + maxTicks - 1) / maxTicks;
+            for (int e = e0; e <= e1; e++) {
+                if ((e - e0) % every == 0) {
+                    t.add(Math.pow(10, e));
+                }
+            }
+        } else {
+            for (int e = e0 - 1; e <= e1; e++) {
+                for (int m : new int[] {1, 2, 5}) {
+                    double v = m * Math.pow(10, e);
+                    if (v >= low * (1 - 1e-9) && v <= high * (1 + 1e-9)) {
+                        t.add(v);
+                    }
+                }
+            }
+        }
+        return t.stream().mapToDouble(Double::doubleValue).toArray();
+    }
+
+    /** Text of a tick value: plain for moderate magnitudes, m×10ⁿ with superscript digits otherwise. */
+    static String format(double v, double step) {
+        double a = Math.abs(v);
+        if (v == 0) {
+            return "0";
+        }
+        if (a >= 1e-3 && a < 1e5) {
+            int decimals = Math.max(0, (int) Math.ceil(-Math.log10(step) - 1e-9));
+            if (step <= 0 || !Double.isFinite(step)) {
+                decimals = 3;
+            }
+            return String.format(Locale.ROOT, "%." + Math.min(decimals, 6) + "f", v);
+        }
+        int e = (int) Math.floor(Math.log10(a) + 1e-9);
+        double m = v / Math.pow(10, e);
+        String mant = Math.abs(m - Math.round(m)) < 1e-6 ? Long.toString(Math.round(m))
+                : String.format(Locale.ROOT, "%.2g", m);
+        return ("1".equals(mant) ? "" : "-1".equals(mant) ? "-" : mant + "×") + "10" + superscript(e);
+    }
+
+    static String superscript(int e) {
+        String digits = "⁰¹²³⁴⁵⁶⁷⁸⁹";
+        StringBuilder b = new StringBuilder();
+        for (char c : Integer.toString(e).toCharArray()) {
+            b.append(c == '-' ? '⁻' : digits.charAt(c - '0'));
+        }
+        return b.toString();
+    }
+
+    /** Position of {@code v} on the scale, 0 at {@code low} and 1 at {@code high}. */
+    static double position(DisplayStyle s, double v) {
+        return s.logarithmic() ? Math.log(v / s.low()) / Math.log(s.high() / s.low())
+                : (v - s.low()) / (s.high() - s.low());
+    }
+
+    @Override
+    protected void paintComponent(Graphics g0) {
+        Graphics2D g = (Graphics2D) g0.create();
+        try {
+            if (isOpaque()) {
+                g.setColor(getBackground());
+                g.fillRect(0, 0, getWidth(), getHeight());
+            }
+            if (style == null) {
+                return;
+            }
+            g.setRenderingHint(RenderingHints.KEY_TEXT_ANTIALIASING, RenderingHints.VALUE_TEXT_ANTIALIAS_ON);
+            Font font = getFont() != null ? getFont() : new Font(Font.SANS_SERIF, Font.PLAIN, 12);
+            g.setFont(font);
+            FontMetrics fm = g.getFontMetrics();
+            Color text = getForeground() != null ? getForeground() : UIManager.getColor("Label.foreground");
+            text = text == null ? Color.BLACK : text;
+            int pad = 6;
+            int top = pad + (label.isEmpty() ? 0 : fm.getHeight() + 4) + fm.getAscent() / 2 + 6;
+            int bottom = getHeight() - pad - fm.getAscent() / 2 - 6;
+            int x = pad;
+            int h = bottom - top;
+            if (h < 8) {
+                return;
+            }
+            g.setColor(text);
+            if (!label.isEmpty()) {
+                g.drawString(label, x, pad + fm.getAscent());
+            }
+            for (int y = 0; y <= h; y++) {
+                g.setColor(new Color(style.colours().rgbAt(1 - y / (double) h)));
+                g.fillRect(x, top + y, BAR_WIDTH, 1);
+            }
+            g.setColor(text);
+            g.drawRect(x - 1, top - 1, BAR_WIDTH + 1, h + 2);
+            // end arrows: values beyond the range take the end colours
+            int mid = x + BAR_WIDTH / 2;
+            g.fillPolygon(new int[] {mid - 4, mid + 4, mid}, new int[] {top - 2, top - 2, top - 6}, 3);
+            g.fillPolygon(new int[] {mid - 4, mid + 4, mid}, new int[] {bottom + 2, bottom + 2, bottom + 6}, 3);
+            double[] ticks = ticks(style, MAX_TICKS);
+            double step = ticks.length > 1 ? ticks[1] - ticks[0] : Math.abs(style.high() - style.low());
+            int lastY = Integer.MAX_VALUE;
+            for (double v : ticks) {
+                int y = (int) Math.round(bottom - position(style, v) * h);
+                g.drawLine(x + BAR_WIDTH, y, x + BAR_WIDTH + 4, y);
+                if (Math.abs(lastY - y) >= fm.getAscent()) {
+                    g.drawString(format(v, style.logarithmic() ? v : step), x + BAR_WIDTH + 7,
+                            y + fm.getAscent() / 2 - 1);
+                    lastY = y;
+                }
+            }
+        } finally {
+            g.dispose();
+        }
+    }
+}

@@ -1,0 +1,322 @@
+package trapmap.viewer.ui.compare;
+
+import java.util.ArrayList;
+import java.util.EnumSet;
+import java.util.List;
+import java.util.Set;
+import trapmap.maps.compare.Comparison;
+import trapmap.maps.compare.Improvement;
+import trapmap.maps.compare.MapComparison;
+import trapmap.maps.compare.MapRegistration;
+import trapmap.maps.compare.PairedStatistics;
+import trapmap.maps.compare.Registration;
+import trapmap.maps.compare.RegistrationOptions;
+import trapmap.maps.model.ProcessingStep;
+import trapmap.maps.model.Quantity;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.process.ConversionSettings;
+import trapmap.maps.process.MapConversion;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.stats.MapStatistics;
+import trapmap.maps.stats.StatisticsRequest;
+import trapmap.physics.conversion.Conditions;
+import trapmap.physics.conversion.ConversionWarning;
+import trapmap.physics.conversion.Injection;
+import trapmap.physics.conversion.PixelStatus;
+import trapmap.physics.defect.Defect;
+import trapmap.physics.iron.IronImaging;
+import trapmap.physics.iron.IronResult;
+import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.progress.ProgressListener;
+import trapmap.viewer.ui.charts.Labels;
+
+/**
+ * What the compare view shows, computed without Swing so that it can run on a worker thread and in tests: the
+ * after map registered onto the before map ({@link MapRegistration}), the difference, ratio, relative-change and
+ * (for densities) reduction maps with the paired statistics ({@link MapComparison}), and in iron mode the
+ * interstitial-iron map of a before (FeB paired) / after (FeB dissociated, Fe_i) lifetime pair through
+ * {@link IronImaging} at the maps' fixed injection level (Macdonald, Geerligs &amp; Azzizi, JAP 95, 1021 (2004)).
+ */
+public final class CompareModel {
+    /** The caution of the iron method, shown beside every iron map. */
+    public static final String IRON_CAUTION = "Assumes complete FeB dissociation, all other recombination unchanged"
+            + " and the same injection in both measurements; near the Fe_i/FeB crossover injection the iron signal"
+            + " vanishes.";
+
+    /** The third view. */
+    public enum View {
+        DIFFERENCE("difference after − before"), RATIO("ratio after / before"),
+        RELATIVE_CHANGE("relative change (after − before) / before"), REDUCTION("reduction 1 − after / before"),
+        IRON("interstitial iron [Fe_i]");
+
+        private final String label;
+
+        View(String label) {
+            this.label = label;
+        }
+
+        @Override
+        public String toString() {
+            return label;
+        }
+    }
+
+    /**
+     * How to compare.
+     *
+     * @param register          find the placement from the data; false: the maps lie on one grid already
+     * @param maxRotationDeg    largest small turn searched besides mirrors and quarter turns, degrees
+     * @param relativeTolerance changes within ± this fraction count as unchanged
+     * @param defect            convert both lifetime maps to this defect's trap density first; null: compare as read
+     * @param iron              also compute the Fe_i map (lifetime maps of a FeB-dissociation pair, p-type)
+     * @param settings          model choices of the conversions
+     */
+    public record Options(boolean register, double maxRotationDeg, double relativeTolerance, Defect defect,
+                          boolean iron, ConversionSettings settings) {
+        public Options {
+            settings = settings == null ? ConversionSettings.DEFAULTS : settings;
+        }
+
+        /** Register, ±5° turn, ±5 % tolerance, no conversion, no iron. */
+        public static Options defaults() {
+            return new Options(true, 5, MapComparison.DEFAULT_RELATIVE_TOLERANCE, null, false, null);
+        }
+
+        public Options withIron(boolean on) {
+            return new Options(register, maxRotationDeg, relativeTolerance, defect, on, settings);
+        }
+
+        public Options withRegistration(boolean on) {
+            return new Options(on, maxRotationDeg, relativeTolerance, defect, iron, settings);
+        }
+
+        public Options withDefect(Defect d) {
+            return new Options(register, maxRotationDeg, relativeTolerance, d, iron, settings);
+        }
+    }
+
+    /**
+     * The interstitial-iron map of a FeB-dissociation pair.
+     *
+     * @param map             [Fe_i] per pixel, cm⁻³ (the detection limit where no iron is detectable; NaN where the
+     *                        method has no signal or a lifetime is missing)
+     * @param statistics      statistics over the pixels with a value
+     * @param injectionPerCm3 the Δn of both measurements, cm⁻³
+     * @param crossoverPerCm3 the Fe_i/FeB crossover injection, cm⁻³ (NaN when none)
+     * @param belowLimit      pixels without detectable iron (value = detection limit)
+     * @param noSignal        pixels where the method has no signal (NaN)
+     * @param warnings        cautions of the method at this injection
+     */
+    public record Iron(WaferMap map, MapStatistics statistics, double injectionPerCm3, double crossoverPerCm3,
+                       int belowLimit, int noSignal, Set<ConversionWarning> warnings) {
+        public Iron {
+            warnings = Set.copyOf(warnings);
+        }
+
+        /** True when Δn lies within a factor 2 of the crossover. */
+        public boolean nearCrossover() {
+            return warnings.contains(ConversionWarning.NEAR_IRON_CROSSOVER);
+        }
+    }
+
+    /**
+     * The compared pair.
+     *
+     * @param before       the before map (converted when a defect was chosen)
+     * @param after        the after map registered and resampled onto the before map's grid
+     * @param registration the placement found (or the identity, evaluated)
+     * @param comparison   the per-pixel maps and paired statistics
+     * @param iron         the Fe_i map, null when not asked for
+     */
+    public record Result(WaferMap before, WaferMap after, Registration registration, Comparison comparison,
+                         Iron iron) {
+
+        /** The map of the third view, null when there is none (reduction of a non-density, iron not computed). */
+        public WaferMap derived(View v) {
+            return switch (v) {
+                case DIFFERENCE -> comparison.difference();
+                case RATIO -> comparison.ratio();
+                case RELATIVE_CHANGE -> comparison.relativeChange();
+                case REDUCTION -> comparison.reduction();
+                case IRON -> iron == null ? null : iron.map();
+            };
+        }
+
+        /** The unit of the third view's values ("" for dimensionless). */
+        public String unit(View v) {
+            return switch (v) {
+                case DIFFERENCE -> before.quantity().unit();
+                case IRON -> Quantity.IRON_DENSITY.unit();
+                default -> "";
+            };
+        }
+
+        /** The values of the three maps at a position in the before map's wafer coordinates. */
+        public Probe probe(double xMm, double yMm, View v) {
+            return new Probe(xMm, yMm, sample(before, xMm, yMm), sample(after, xMm, yMm),
+                    derived(v) == null ? Double.NaN : sample(derived(v), xMm, yMm));
+        }
+
+        /** The paired statistics as rows with units, then the registration. */
+        public List<String[]> statisticsRows() {
+            PairedStatistics s = comparison.statistics();
+            String u = Labels.unit(s.unit());
+            List<String[]> r = new ArrayList<>();
+            Registration g = registration;
+            r.add(new String[] {"registration shift x", Labels.number(g.shiftXMm()), "mm"});
+            r.add(new String[] {"registration shift y", Labels.number(g.shiftYMm()), "mm"});
+            r.add(new String[] {"registration rotation", Labels.number(g.rotationDeg()), "°"});
+            r.add(new String[] {"mirrored", g.mirrored() ? "yes" : "no", ""});
+            r.add(new String[] {"registration score (0–1)", Labels.number(g.score()), ""});
+            r.add(new String[] {"overlap", Integer.toString(g.overlapPixels()), "px"});
+            r.add(new String[] {"pixels compared", Integer.toString(s.count()), "px"});
+            r.add(new String[] {"mean difference", Labels.number(s.meanDifference()), u});
+            r.add(new String[] {"median difference", Labels.number(s.medianDifference()), u});
+            r.add(new String[] {"mean ratio", Labels.number(s.meanRatio()), ""});
+            r.add(new String[] {"median ratio", Labels.number(s.medianRatio()), ""});
+            r.add(new String[] {"harmonic mean before", Labels.number(s.harmonicMeanBefore()), u});
+            r.add(new String[] {"harmonic mean after", Labels.number(s.harmonicMeanAfter()), u});
+            String tol = "±" + Labels.number(100 * s.relativeTolerance()) + " %";
+            r.add(new String[] {"improved (beyond " + tol + ")", Labels.percent(s.improvedFraction()), ""});
+            r.add(new String[] {"unchanged (within " + tol + ")", Labels.percent(s.unchangedFraction()), ""});
+            r.add(new String[] {"degraded (beyond " + tol + ")", Labels.percent(s.degradedFraction()), ""});
+            if (!Double.isNaN(s.medianReduction())) {
+                r.add(new String[] {"median reduction", Labels.percent(s.medianReduction()), ""});
+            }
+            if (iron != null) {
+                MapStatistics f = iron.statistics();
+                String cm3 = Labels.unit(Quantity.IRON_DENSITY);
+                r.add(new String[] {"Fe_i at Δn", Labels.number(iron.injectionPerCm3()), "cm⁻³"});
+                r.add(new String[] {"Fe_i/FeB crossover Δn", Labels.number(iron.crossoverPerCm3()), "cm⁻³"});
+                r.add(new String[] {"[Fe_i] median", Labels.number(f.median()), cm3});
+                r.add(new String[] {"[Fe_i] mean", Labels.number(f.mean()), cm3});
+                r.add(new String[] {"[Fe_i] P90", Labels.number(f.percentile(90)), cm3});
+                r.add(new String[] {"[Fe_i] maximum", Labels.number(f.max()), cm3});
+                r.add(new String[] {"no detectable iron (upper bound shown)", Integer.toString(iron.belowLimit()),
+                    "px"});
+                r.add(new String[] {"no iron signal", Integer.toString(iron.noSignal()), "px"});
+            }
+            return r;
+        }
+    }
+
+    /**
+     * Values of the three maps at one position (NaN where a map has no data).
+     *
+     * @param xMm     position x in the before map's wafer coordinates, mm
+     * @param yMm     position y, mm
+     * @param before  before value, in the before map's unit
+     * @param after   after value (registered), same unit
+     * @param derived value of the third view
+     */
+    public record Probe(double xMm, double yMm, double before, double after, double derived) {
+    }
+
+    private CompareModel() {
+    }
+
+    /** The sample of the pixel holding a wafer position (NaN outside the map). */
+    static double sample(WaferMap m, double xMm, double yMm) {
+        int x = (int) Math.round(m.grid().xPx(xMm));
+        int y = (int) Math.round(m.grid().yPx(yMm));
+        return m.raster().contains(x, y) ? m.raster().get(x, y) : Double.NaN;
+    }
+
+    /**
+     * Registers and compares; heavy (seconds for large maps): run it off the Event Dispatch Thread.
+     *
+     * @throws InvalidValueException for maps of different quantities, missing conditions, or an iron pair that is
+     *                               not a p-type lifetime pair at one fixed injection
+     * @throws java.util.concurrent.CancellationException when the thread is interrupted during registration
+     */
+    public static Result compute(WaferMap before, WaferMap after, Options o, ProgressListener progress) {
+        ProgressListener p = progress == null ? ProgressListener.NONE : progress;
+        Iron iron = null;
+        WaferMap b = before;
+        WaferMap a = after;
+        if (o.defect() != null) {
+            b = MapConversion.convert(before, o.defect(), o.settings()).get(Quantity.TRAP_DENSITY);
+            a = MapConversion.convert(after, o.defect(), o.settings()).get(Quantity.TRAP_DENSITY);
+        }
+        if (b.quantity() != a.quantity()) {
+            throw new InvalidValueException("quantity", "", "the before map holds " + b.quantity().key()
+                    + " but the after map " + a.quantity().key() + "; compare maps of one quantity");
+        }
+        Registration reg;
+        WaferMap aligned;
+        if (o.register()) {
+            reg = MapRegistration.register(b, a, RegistrationOptions.DEFAULTS.withMaxRotation(o.maxRotationDeg()), p);
+            aligned = MapRegistration.apply(b, a, reg);
+        } else {
+            if (b.width() != a.width() || b.height() != a.height()) {
+                throw new InvalidValueException("after", "px", "without registration the maps must be of one size,"
+                        + " but they are " + b.width() + "x" + b.height() + " and " + a.width() + "x" + a.height()
+                        + " px");
+            }
+            aligned = a.withGrid(b.grid());
+            reg = MapRegistration.evaluate(b, aligned, Registration.identity());
+        }
+        Comparison c = MapComparison.compare(b, aligned, null, o.relativeTolerance(), Improvement.of(b.quantity()));
+        if (o.iron()) {
+            // iron works on the lifetimes: the pair as read, placed by the registration found
+            WaferMap lifeAfter = o.defect() == null ? aligned : MapRegistration.apply(before, after, reg);
+            iron = iron(before, lifeAfter, o.settings());
+        }
+        return new Result(b, aligned, reg, c, iron);
+    }
+
+    /**
+     * The Fe_i map of a before (FeB) / after (Fe_i) lifetime pair on one grid.
+     *
+     * @throws InvalidValueException when the maps are not lifetimes, the doping is not p-type or unknown, or the
+     *                               injection is not one fixed level
+     */
+    static Iron iron(WaferMap before, WaferMap afterOnBeforeGrid, ConversionSettings settings) {
+        if (before.quantity() != Quantity.EFFECTIVE_LIFETIME || afterOnBeforeGrid.quantity()
+                != Quantity.EFFECTIVE_LIFETIME) {
+            throw new InvalidValueException("quantity", "", "iron imaging needs two effective-lifetime maps (µs), not "
+                    + before.quantity().key() + " and " + afterOnBeforeGrid.quantity().key());
+        }
+        Conditions cond = MapConversion.physicsConditions(before.conditions(), settings);
+        if (!(cond.injection() instanceof Injection.Fixed fixed)) {
+            throw new InvalidValueException("injection", "cm^-3", "iron imaging needs both maps measured at one fixed"
+                    + " injection level (cm^-3); the before map gives a generation rate");
+        }
+        Double afterDn = afterOnBeforeGrid.conditions().injectionPerCm3();
+        if (afterDn != null && Math.abs(afterDn - fixed.excessPerCm3()) > 1e-6 * fixed.excessPerCm3()) {
+            throw new InvalidValueException("injection", "cm^-3", "the before map was measured at "
+                    + Labels.number(fixed.excessPerCm3()) + " cm^-3 but the after map at " + Labels.number(afterDn)
+                    + " cm^-3; iron imaging needs the same injection in both");
+        }
+        double dn = fixed.excessPerCm3();
+        IronImaging imaging = new IronImaging(cond.doping(), cond.silicon());
+        float[] tb = before.raster().samples();
+        float[] ta = afterOnBeforeGrid.raster().samples();
+        float[] fe = new float[tb.length];
+        int below = 0;
+        int none = 0;
+        Set<ConversionWarning> warnings = EnumSet.noneOf(ConversionWarning.class);
+        for (int i = 0; i < fe.length; i++) {
+            if (tb[i] != tb[i] || ta[i] != ta[i]) {
+                fe[i] = Float.NaN;
+                continue;
+            }
+            IronResult r = imaging.evaluate(tb[i], ta[i], dn);
+            warnings.addAll(r.warnings());
+            if (r.status() == PixelStatus.INVALID) {
+                none++;
+                fe[i] = Float.NaN;
+            } else {
+                if (r.status() == PixelStatus.BELOW_LIMIT) {
+                    below++;
+                }
+                fe[i] = (float) r.ironPerCm3();
+            }
+        }
+        WaferMap map = before.derive(FloatRaster.wrap(before.width(), before.height(), fe), Quantity.IRON_DENSITY,
+                ProcessingStep.of("iron", "method", "Macdonald, Geerligs & Azzizi, JAP 95, 1021 (2004)",
+                        "injection_cm3", Double.toString(dn), "after", afterOnBeforeGrid.waferId()));
+        MapStatistics stats = MapStatistics.of(map, null, StatisticsRequest.DEFAULT);
+        return new Iron(map, stats, dn, imaging.crossoverPerCm3(), below, none, warnings);
+    }
+}

@@ -1,0 +1,95 @@
+package trapmap.viewer.ui.model;
+
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.prefs.Preferences;
+
+/**
+ * The most recently opened files and folders, newest first, at most {@link #LIMIT}; kept in a {@link Store}
+ * (the user's preferences in the application).
+ */
+public final class RecentFiles {
+    /** Longest list kept. */
+    public static final int LIMIT = 10;
+    private static final String KEY = "recent.";
+
+    /** Where the list lives. */
+    public interface Store {
+        String get(String key);
+
+        void put(String key, String value);
+
+        void remove(String key);
+    }
+
+    private final Store store;
+
+    public RecentFiles(Store store) {
+        this.store = store;
+    }
+
+    /** A list kept in the user's preferences under {@code node}. */
+    public static RecentFiles inPreferences(String node) {
+        Preferences p = Preferences.userRoot().node(node);
+        return new RecentFiles(new Store() {
+            @Override
+            public String get(String key) {
+                return p.get(key, null);
+            }
+
+            @Override
+            public void put(String key, String value) {
+                p.put(key, value);
+            }
+
+            @Override
+            public void remove(String key) {
+                p.remove(key);
+            }
+        });
+    }
+
+    /** The list, newest first. */
+    public List<Path> list() {
+        List<Path> out = new ArrayList<>();
+        for (int i = 0; i < LIMIT; i++) {
+            String v = store.get(KEY + i);
+            if (v == null) {
+                break;
+            }
+            out.add(Path.of(v));
+        }
+        return out;
+    }
+
+    /** Puts {@code path} first (moving it up if it was listed), dropping the oldest beyond the limit. */
+    public void add(Path path) {
+        Path abs = path.toAbsolutePath().normalize();
+        List<Path> l = list();
+        l.remove(abs);
+        l.add(0, abs);
+        save(l);
+    }
+
+    /** Takes {@code path} off the list (a file that has gone). */
+    public void remove(Path path) {
+        List<Path> l = list();
+        l.remove(path.toAbsolutePath().normalize());
+        save(l);
+    }
+
+    public void clear() {
+        save(List.of());
+    }
+
+    private void save(List<Path> l) {
+        for (int i = 0; i < LIMIT; i++) {
+            if (i < l.size()) {
+                store.put(KEY + i, l.get(i).toString());
+            } else {
+                store.remove(KEY + i);
+            }
+        }
+    }
+}

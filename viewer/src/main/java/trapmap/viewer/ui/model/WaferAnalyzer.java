@@ -1,0 +1,128 @@
+package trapmap.viewer.ui.model;
+
+import java.util.BitSet;
+import java.util.Set;
+import java.util.concurrent.CancellationException;
+import java.util.function.BooleanSupplier;
+import trapmap.maps.batch.WaferInspection;
+import trapmap.maps.geometry.OutlineDetection;
+import trapmap.maps.geometry.WaferShape;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.process.ConversionSettings;
+import trapmap.maps.process.MapConversion;
+import trapmap.maps.raster.Mask;
+import trapmap.maps.region.RegionCriteria;
+import trapmap.maps.region.RegionTable;
+import trapmap.maps.region.ThresholdRegions;
+import trapmap.maps.stats.MapStatistics;
+import trapmap.maps.stats.StatisticsRequest;
+import trapmap.physics.defect.Defect;
+
+/**
+ * Computes a {@link WaferAnalysis} with the same maps-module calls, in the same order, as the batch engine
+ * ({@link WaferInspection#evaluate}): conditions applied, PL converted to lifetime, conversion with
+ * {@link ConversionSettings#DEFAULTS}, outline fitted to the lifetime's valid pixels, mask = valid lifetime ∩
+ * outline less the edge exclusion, regions by {@link ThresholdRegions} over that mask, flagged pixels by
+ * {@link WaferInspection#flaggedPixels}, flagged fraction = region area / evaluated lifetime area. A viewer figure
+ * therefore equals the batch's for the same settings.
+ */
+public final class WaferAnalyzer {
+    /** Percentiles of the lifetime statistics, %. */
+    static final double[] LIFETIME_PERCENTS = {1, 5, 10, 25, 75, 90, 95, 99};
+
+    private WaferAnalyzer() {
+    }
+
+    /**
+     * The effective-lifetime map with the user's conditions applied (PL counts converted).
+     *
+     * @throws IllegalArgumentException when the map is neither a lifetime nor a PL map, or a PL map lacks its calibration
+     */
+    public static WaferMap lifetime(WaferMap read, ConditionOverrides conditions) {
+        WaferMap map = read.withConditions(conditions.applyTo(read.conditions()));
+        return switch (map.quantity()) {
+            case EFFECTIVE_LIFETIME -> map;
+            case PL_COUNTS -> MapConversion.lifetimeFromPl(map);
+            default -> throw new IllegalArgumentException("a " + map.quantity().key() + " map cannot be analysed;"
+                    + " expected an effective-lifetime or PL-counts map");
+        };
+    }
+
+    /** The conversion of {@code lifetime} for {@code defect} (all processors). */
+    public static MapConversion.Result convert(WaferMap lifetime, Defect defect) {
+        return MapConversion.convert(lifetime, defect, ConversionSettings.DEFAULTS);
+    }
+
+    /**
+     * Analyses one wafer.
+     *
+     * @param read       the map as read
+     * @param analysis   settings
+     * @param defect     the defect of {@code analysis.defectId()}, or null
+     * @param previous   earlier results of the same map, or null: its conversion is reused for the same conditions
+     *                   and defect, its outline for the same conditions
+     * @param cancelled  polled between the steps; when it turns true a {@link CancellationException} is thrown
+     */
+    public static WaferAnalysis analyse(WaferMap read, Analysis analysis, Defect defect, WaferAnalysis previous,
+                                        BooleanSupplier cancelled) {
+        boolean sameLifetime = previous != null && previous.analysis().conditions().equals(analysis.conditions());
+        WaferMap lifetime = sameLifetime ? previous.lifetime() : lifetime(read, analysis.conditions());
+        check(cancelled);
+        MapConversion.Result conv = previous != null && previous.analysis().sameConversion(analysis)
+                ? previous.conversion() : null;
+        if (conv == null && defect != null && defect.hasAbsoluteCrossSections()) {
+            conv = convert(lifetime, defect);
+        }
+        check(cancelled);
+        DisplayedQuantity q = analysis.quantity();
+        WaferMap displayed;
+        if (q == DisplayedQuantity.LIFETIME) {
+            displayed = lifetime;
+        } else if (conv == null) {
+            throw new IllegalArgumentException("showing the " + q.label() + " needs a defect with absolute capture"
+                    + " cross-sections");
+        } else {
+            displayed = conv.get(q.quantity());
+        }
+
+        WaferShape shape;
+        if (sameLifetime) {
+            shape = previous.shape();
+        } else {
+            try {
+                shape = OutlineDetection.fit(lifetime.raster(), lifetime.grid()).shape();
+            } catch (RuntimeException e) {
+                shape = null;
+            }
+        }
+        check(cancelled);
+        Mask mask = Mask.valid(lifetime.raster());
+        if (shape != null) {
+            mask = mask.and(shape.mask(lifetime.grid(), analysis.edgeExclusionMm()));
+        }
+        MapStatistics life = MapStatistics.of(lifetime, mask, StatisticsRequest.of(LIFETIME_PERCENTS));
+        MapStatistics shown = displayed == lifetime ? life : MapStatistics.of(displayed, mask.and(
+                Mask.valid(displayed.raster())), StatisticsRequest.of(LIFETIME_PERCENTS));
+        check(cancelled);
+        RegionCriteria criteria = analysis.threshold().criteria();
+        RegionTable regions = ThresholdRegions.find(displayed, mask, criteria, shape);
+        BitSet flagged = WaferInspection.flaggedPixels(displayed.raster(), displayed.grid(), mask, criteria);
+        double fraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
+        WaferAnalysis.KeyFigure key = switch (q) {
+            case LIFETIME, SRH_LIFETIME -> new WaferAnalysis.KeyFigure(q == DisplayedQuantity.LIFETIME ? "τ_hm"
+                    : "τ_SRH,hm", shown.harmonicMean(), "µs");
+            case TRAP_DENSITY -> new WaferAnalysis.KeyFigure("N_t P95", shown.percentile(95), "cm⁻³");
+            case OCCUPANCY -> new WaferAnalysis.KeyFigure("f_t median", shown.median(), "");
+            case STATUS -> new WaferAnalysis.KeyFigure("flagged", fraction * 100, "%");
+        };
+        boolean pass = !Double.isNaN(fraction) && fraction <= analysis.threshold().maxFlaggedFraction();
+        return new WaferAnalysis(analysis, lifetime, conv, displayed, shape, mask, life, shown, regions, flagged,
+                fraction, key, pass, conv == null ? Set.of() : conv.warnings());
+    }
+
+    private static void check(BooleanSupplier cancelled) {
+        if (cancelled != null && cancelled.getAsBoolean()) {
+            throw new CancellationException("analysis cancelled");
+        }
+    }
+}

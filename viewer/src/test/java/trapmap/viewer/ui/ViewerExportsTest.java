@@ -1,0 +1,57 @@
+package trapmap.viewer.ui;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import org.apache.commons.csv.CSVFormat;
+import org.apache.commons.csv.CSVRecord;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import trapmap.maps.io.ColourMap;
+import trapmap.viewer.report.WaferReport;
+import trapmap.viewer.ui.canvas.DisplayStyle;
+import trapmap.viewer.ui.model.DisplayedQuantity;
+import trapmap.viewer.ui.model.ViewerModel;
+import trapmap.viewer.ui.model.WaferAnalysis;
+
+/** The window's exports, built from model results without a display. */
+class ViewerExportsTest {
+    private static final Path W03 = Path.of("..", "demo-data", "LOT-A01-W03.tif").toAbsolutePath().normalize();
+
+    private static ViewerModel analysed(DisplayedQuantity q) {
+        ViewerModel m = new ViewerModel();
+        m.open(List.of(W03));
+        m.setAnalysis(m.analysis().withQuantity(q), "quantity");
+        m.compute(0, () -> false);
+        return m;
+    }
+
+    @Test
+    void regionsCsvListsEveryRegionWithUnitsInTheHeader() throws Exception {
+        ViewerModel m = analysed(DisplayedQuantity.TRAP_DENSITY);
+        WaferAnalysis r = m.wafer(0).result();
+        String csv = ViewerExports.regionsCsv(r);
+        List<CSVRecord> rows = CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).get()
+                .parse(new java.io.StringReader(csv)).getRecords();
+        assertThat(csv).startsWith("id,area_mm2,centroid_x_mm,centroid_y_mm,peak_cm-3,");
+        assertThat(rows).hasSize(r.regions().size()).isNotEmpty();
+        assertThat(Double.parseDouble(rows.get(0).get("area_mm2"))).isEqualTo(r.regions().regions().get(0).areaMm2());
+    }
+
+    @Test
+    void reportOfTheShownResultsIsAPdf(@TempDir Path dir) throws Exception {
+        ViewerModel m = analysed(DisplayedQuantity.TRAP_DENSITY);
+        WaferAnalysis r = m.wafer(0).result();
+        WaferReport.Content page = ViewerExports.reportContent(m.wafer(0), r, new DisplayStyle(ColourMap.HEAT, true,
+                1e10, 1e12), m.defect());
+        assertThat(page.defect().id()).isEqualTo("fe-i");
+        assertThat(page.regions()).isSameAs(r.regions());
+        assertThat(page.notes().get(0)).startsWith(r.pass() ? "PASS" : "FAIL").contains("cm^-3");
+        Path pdf = dir.resolve("w03.pdf");
+        WaferReport.write(page, pdf);
+        assertThat(new String(Files.readAllBytes(pdf), 0, 5, java.nio.charset.StandardCharsets.US_ASCII))
+                .isEqualTo("%PDF-");
+    }
+}

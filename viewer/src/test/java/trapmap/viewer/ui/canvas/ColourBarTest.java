@@ -1,0 +1,71 @@
+package trapmap.viewer.ui.canvas;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+import java.awt.image.BufferedImage;
+import org.junit.jupiter.api.Test;
+import trapmap.maps.io.ColourMap;
+
+class ColourBarTest {
+    @Test
+    void linearTicksAreRoundMultiples() {
+        assertThat(ColourBar.linearTicks(0, 1, 8)).containsExactly(0, 0.2, 0.4, 0.6, 0.8, 1);
+        assertThat(ColourBar.linearTicks(3, 17, 8)).containsExactly(4, 6, 8, 10, 12, 14, 16);
+        assertThat(ColourBar.linearTicks(-0.35, 0.35, 8)).containsExactly(-0.3, -0.2, -0.1, 0, 0.1, 0.2, 0.3);
+        assertThat(ColourBar.linearTicks(0, 1000, 4)).containsExactly(0, 500, 1000);
+    }
+
+    @Test
+    void logTicksAreDecadesOrOneTwoFiveWithinOneDecadeOrTwo() {
+        assertThat(ColourBar.logTicks(1e10, 1e15, 8)).containsExactly(1e10, 1e11, 1e12, 1e13, 1e14, 1e15);
+        assertThat(ColourBar.logTicks(3e9, 2e13, 8)).containsExactly(1e10, 1e11, 1e12, 1e13);
+        assertThat(ColourBar.logTicks(1e0, 1e20, 8)).containsExactly(1e0, 1e3, 1e6, 1e9, 1e12, 1e15, 1e18);
+        double[] t = ColourBar.logTicks(30, 1000, 8);
+        assertThat(t).hasSize(5);
+        assertThat(t[0]).isCloseTo(50, within(1e-9));
+        assertThat(t[4]).isCloseTo(1000, within(1e-9));
+    }
+
+    @Test
+    void tickLabelsUseSuperscriptPowersForLargeAndSmallValues() {
+        assertThat(ColourBar.format(1e15, 1e15)).isEqualTo("10¹⁵");
+        assertThat(ColourBar.format(2e-6, 2e-6)).isEqualTo("2×10⁻⁶");
+        assertThat(ColourBar.format(0.4, 0.2)).isEqualTo("0.4");
+        assertThat(ColourBar.format(500, 100)).isEqualTo("500");
+        assertThat(ColourBar.format(0, 0.1)).isEqualTo("0");
+    }
+
+    @Test
+    void positionsFollowTheScale() {
+        DisplayStyle log = new DisplayStyle(ColourMap.BLUE_YELLOW, true, 1e10, 1e14);
+        assertThat(ColourBar.position(log, 1e12)).isCloseTo(0.5, within(1e-12));
+        DisplayStyle lin = new DisplayStyle(ColourMap.BLUE_YELLOW, false, -1, 3);
+        assertThat(ColourBar.position(lin, 0)).isCloseTo(0.25, within(1e-12));
+    }
+
+    @Test
+    void paintsTheColoursFromLowAtTheBottomToHighAtTheTop() {
+        ColourBar bar = new ColourBar(new DisplayStyle(ColourMap.HEAT, true, 1e10, 1e14), "N_t (cm⁻³)");
+        bar.setSize(100, 300);
+        BufferedImage img = new BufferedImage(100, 300, BufferedImage.TYPE_INT_RGB);
+        var g = img.createGraphics();
+        bar.paint(g);
+        g.dispose();
+        int x = 6 + ColourBar.BAR_WIDTH / 2;
+        int topRgb = -1;
+        int bottomRgb = -1;
+        for (int y = 0; y < 300; y++) {
+            int c = img.getRGB(x, y) & 0xFFFFFF;
+            if (c == ColourMap.HEAT.rgb(255) && topRgb < 0) {
+                topRgb = y;
+            }
+            if (c == ColourMap.HEAT.rgb(0)) {
+                bottomRgb = y;
+            }
+        }
+        assertThat(topRgb).isPositive();
+        assertThat(bottomRgb).isGreaterThan(topRgb + 200);
+        assertThat(bar.label()).isEqualTo("N_t (cm⁻³)");
+    }
+}

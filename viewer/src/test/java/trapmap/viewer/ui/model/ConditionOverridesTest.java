@@ -1,0 +1,68 @@
+package trapmap.viewer.ui.model;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+import java.util.Map;
+import org.junit.jupiter.api.Test;
+import trapmap.maps.model.MeasurementConditions;
+import trapmap.physics.defect.Defect;
+import trapmap.physics.defect.TrapLevel;
+import trapmap.physics.material.Doping;
+import trapmap.physics.material.ThermalVelocityModel;
+
+class ConditionOverridesTest {
+    private static final MeasurementConditions SIDECAR = new MeasurementConditions(Doping.pType(1e16), 180.0, 300.0,
+            null, 1e19, 10.0, null, null, Map.of("lot", "A01"));
+
+    @Test
+    void emptyOverridesKeepTheSidecar() {
+        assertThat(ConditionOverrides.NONE.applyTo(SIDECAR)).isEqualTo(SIDECAR);
+    }
+
+    @Test
+    void anInjectionLevelReplacesTheSidecarsGenerationRate() {
+        MeasurementConditions c = ConditionOverrides.NONE.withInjection(1e14).applyTo(SIDECAR);
+        assertThat(c.injectionPerCm3()).isEqualTo(1e14);
+        assertThat(c.generationPerCm3PerS()).isNull();
+        assertThat(c.thicknessUm()).isEqualTo(180.0);
+        assertThat(c.extra()).containsEntry("lot", "A01");
+    }
+
+    @Test
+    void settingGenerationClearsAnInjectionOverride() {
+        ConditionOverrides o = ConditionOverrides.NONE.withInjection(1e14).withGeneration(2e19);
+        assertThat(o.injectionPerCm3()).isNull();
+        assertThat(o.applyTo(SIDECAR).generationPerCm3PerS()).isEqualTo(2e19);
+    }
+
+    @Test
+    void resistivityIsConvertedAndOverridesTheType() {
+        MeasurementConditions c = ConditionOverrides.NONE.withDoping("n:2ohmcm").applyTo(SIDECAR);
+        assertThat(c.doping().type().name()).isEqualTo("N");
+        // ASTM F723 gives about 2.2e15 cm^-3 for 2 Ω·cm n-type (phosphorus), from memory of the standard's table
+        assertThat(c.doping().densityPerCm3()).isBetween(2.0e15, 2.5e15);
+    }
+
+    @Test
+    void outOfRangeValuesNameFieldAndUnit() {
+        assertThatThrownBy(() -> ConditionOverrides.NONE.withThickness(-5.0)).hasMessageContaining("thickness")
+                .hasMessageContaining("um");
+        assertThatThrownBy(() -> ConditionOverrides.NONE.withDoping("x:1e16")).isInstanceOf(
+                IllegalArgumentException.class);
+    }
+
+    @Test
+    void userDefectsMayNotReuseALibraryId() {
+        DefectChoices choices = new DefectChoices();
+        Defect clash = Defect.of("fe-i", "another iron", TrapLevel.aboveValenceBand(0.38), 1e-14, 1e-16,
+                ThermalVelocityModel.FIXED, "test", null);
+        assertThatThrownBy(() -> choices.add(clash)).hasMessageContaining("library defect");
+        Defect own = Defect.of("my-fe", "another iron", TrapLevel.aboveValenceBand(0.38), 1e-14, 1e-16,
+                ThermalVelocityModel.FIXED, "test", null);
+        choices.add(own);
+        assertThat(choices.byId("my-fe")).isSameAs(own);
+        assertThat(choices.all()).last().isSameAs(own);
+        assertThat(DefectChoices.library()).allMatch(Defect::hasAbsoluteCrossSections);
+    }
+}

@@ -1,0 +1,117 @@
+package trapmap.viewer.ui.model;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.Map;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import trapmap.maps.io.ColourMap;
+import trapmap.maps.region.RegionCriteria;
+import trapmap.physics.defect.Defect;
+import trapmap.physics.defect.TrapLevel;
+import trapmap.physics.material.ThermalVelocityModel;
+
+class SessionFilesTest {
+    @TempDir
+    Path dir;
+
+    private Session sample() {
+        Defect user = Defect.of("my-level", "a mid-gap test level", TrapLevel.fromIntrinsic(0.05), 1e-14, 2e-15,
+                ThermalVelocityModel.FIXED, "own measurement", null);
+        Analysis a = new Analysis(new ConditionOverrides("p:1.5ohmcm", 180.0, 300.0, null, 1e19, 10.0), "my-level",
+                DisplayedQuantity.TRAP_DENSITY, new DisplaySettings(ColourMap.GREY, true, false, 2, 98, 1e10, 1e12),
+                new ThresholdRule(2e11, RegionCriteria.Side.ABOVE, 3.5, 0.01), new ProfileLine(-40, 10, 45, -5, 2.5),
+                1.5);
+        Path w1 = dir.resolve("maps/w1.tif");
+        Path w2 = Path.of("/elsewhere/w2.tif");
+        return new Session(List.of(w1, w2), 1, a, List.of(user), Map.of(w1, new ViewState(2.5, 100, 120.5)));
+    }
+
+    @Test
+    void roundTripKeepsEverything() throws Exception {
+        Session s = sample();
+        Path f = dir.resolve("s.trapmap.json");
+        SessionFiles.write(s, f);
+        Session back = SessionFiles.read(f);
+        assertThat(back.files()).isEqualTo(s.files());
+        assertThat(back.selected()).isEqualTo(1);
+        assertThat(back.analysis()).isEqualTo(s.analysis());
+        assertThat(back.views()).isEqualTo(s.views());
+        assertThat(back.userDefects()).singleElement().satisfies(d -> {
+            assertThat(d.id()).isEqualTo("my-level");
+            assertThat(d.electronCrossSectionCm2()).isEqualTo(1e-14);
+            assertThat(d.level()).isEqualTo(TrapLevel.fromIntrinsic(0.05));
+        });
+        String text = Files.readString(f);
+        assertThat(text).contains("\"version\" : 1").contains("\"maps/w1.tif\"").contains("\"min_area_mm2\"");
+        assertThat(dir).isDirectoryNotContaining("glob:**.tmp");
+    }
+
+    @Test
+    void badNumberNamesFileFieldAndUnit() {
+        assertThatThrownBy(() -> SessionFiles.parse("""
+                {"format": "trapmap-session", "version": 1, "files": [],
+                 "threshold": {"value": 20, "min_area_mm2": "big"}}""", "s.json", dir))
+                .isInstanceOf(SessionFiles.SessionException.class)
+                .hasMessage("s.json: threshold.min_area_mm2 (mm^2) must be a number in mm^2 but was \"big\"");
+    }
+
+    @Test
+    void unknownKeyIsNamed() {
+        assertThatThrownBy(() -> SessionFiles.parse("""
+                {"format": "trapmap-session", "version": 1, "files": [], "display": {"colour": "grey"}}""",
+                "s.json", dir)).hasMessageStartingWith("s.json: display.colour is not a known key");
+    }
+
+    @Test
+    void newerVersionIsRefused() {
+        assertThatThrownBy(() -> SessionFiles.parse("{\"format\": \"trapmap-session\", \"version\": 7, \"files\": []}",
+                "s.json", dir)).hasMessageContaining("version 7 is not supported");
+    }
+
+    @Test
+    void outOfRangeConditionNamesTheFieldAndUnit() {
+        assertThatThrownBy(() -> SessionFiles.parse("""
+                {"format": "trapmap-session", "version": 1, "files": [], "conditions": {"thickness_um": -5}}""",
+                "s.json", dir)).hasMessageContaining("s.json").hasMessageContaining("thickness")
+                .hasMessageContaining("um");
+    }
+
+    @Test
+    void unknownDefectIsRefused() {
+        assertThatThrownBy(() -> SessionFiles.parse("""
+                {"format": "trapmap-session", "version": 1, "files": [], "defect": "unobtainium"}""", "s.json", dir))
+                .hasMessage("s.json: defect 'unobtainium' is neither a library defect with absolute cross-sections"
+                        + " nor one of user_defects");
+    }
+
+    @Test
+    void brokenJsonNamesTheLine() {
+        assertThatThrownBy(() -> SessionFiles.parse("{\n\"format\": ", "s.json", dir))
+                .hasMessageStartingWith("s.json: not valid JSON (line");
+    }
+
+    @Test
+    void sessionRestoresModel() throws Exception {
+        Path demo = Path.of("..", "demo-data").toAbsolutePath().normalize();
+        ViewerModel m = new ViewerModel();
+        m.open(List.of(demo.resolve("LOT-A01-W01.tif"), demo.resolve("LOT-A01-W02.tif")));
+        m.select(1);
+        m.setAnalysis(m.analysis().withThreshold(m.analysis().threshold().withValue(33)), "threshold");
+        m.wafer(1).setView(new ViewState(3, 50, 60));
+        Path f = dir.resolve("s.json");
+        SessionFiles.write(Session.of(m), f);
+
+        ViewerModel restored = new ViewerModel();
+        SessionFiles.read(f).applyTo(restored);
+        assertThat(restored.size()).isEqualTo(2);
+        assertThat(restored.selectedIndex()).isEqualTo(1);
+        assertThat(restored.analysis().threshold().value()).isEqualTo(33);
+        assertThat(restored.wafer(1).view()).isEqualTo(new ViewState(3, 50, 60));
+        assertThat(restored.canUndo()).isFalse();
+    }
+}
