@@ -5,6 +5,7 @@ import java.io.IOException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.BitSet;
+import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -22,14 +23,12 @@ import trapmap.maps.process.MapConversion;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
-import trapmap.maps.region.Region;
 import trapmap.maps.region.RegionCriteria;
-import trapmap.maps.region.RegionTable;
-import trapmap.maps.region.ThresholdRegions;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.defect.DefectLibrary;
+import trapmap.physics.material.Doping;
 
 /**
  * Inspects one wafer map against {@link Rules}: reads it, applies the rules' conditions, converts it to trap density
@@ -53,9 +52,13 @@ public final class WaferInspection {
         WaferMap read(Path file) throws IOException;
     }
 
+    /** Percentiles of the evaluated lifetimes that span a thumbnail's colours. */
+    static final double THUMBNAIL_LOW_PERCENT = 1;
+    static final double THUMBNAIL_HIGH_PERCENT = 99;
+
     private final Rules rules;
     private final MapReader reader;
-    private final Defect defect;
+    private final Map<String, Defect> defects = new HashMap<>();
 
     public WaferInspection(Rules rules) {
         this(rules, MapFiles::readSingle);
@@ -64,7 +67,11 @@ public final class WaferInspection {
     public WaferInspection(Rules rules, MapReader reader) {
         this.rules = rules;
         this.reader = reader;
-        this.defect = rules.defectId() == null ? null : DefectLibrary.byId(rules.defectId());
+        for (Rules.Profile p : rules.allProfiles()) {
+            if (p.defectId() != null) {
+                defects.put(p.defectId(), DefectLibrary.byId(p.defectId()));
+            }
+        }
     }
 
     /** Inspects one file; see {@link #inspect(Path, Path)}. */
@@ -109,10 +116,8 @@ public final class WaferInspection {
             default -> throw new IllegalArgumentException("a " + map.quantity().key()
                     + " map cannot be inspected; expected an effective-lifetime or PL-counts map");
         };
-        WaferMap density = rules.needsTrapDensity()
-                ? MapConversion.convert(lifetime, defect, ConversionSettings.DEFAULTS, 1).get(Quantity.TRAP_DENSITY)
-                : null;
         PixelGrid grid = lifetime.grid();
+        float[] tau = lifetime.raster().samples();
 
         String family;
         WaferShape shape;
@@ -122,7 +127,7 @@ public final class WaferInspection {
         } else {
             OutlineFit fit;
             try {
-                fit = OutlineDetection.fit(lifetime.raster(), grid);
+                fit = fitOutline(tau, grid);
             } catch (RuntimeException e) {
                 fit = null;
                 if (rules.edgeExclusionMm() > 0 || usesEdgeRatio()) {
@@ -135,24 +140,36 @@ public final class WaferInspection {
                     : fit.closestFormat() != null && fit.closestFormat().withinTolerance()
                     ? fit.closestFormat().format().id() : "fitted";
         }
-        Mask mask = Mask.valid(lifetime.raster());
-        if (shape != null) {
-            mask = mask.and(shape.mask(grid, rules.edgeExclusionMm()));
-        }
+        Doping doping = map.conditions().doping();
+        Rules.Profile profile = rules.profileFor(Path.of(name).getFileName().toString(),
+                doping == null ? null : doping.type(), family);
+        WaferMap density = profile.needsTrapDensity()
+                ? MapConversion.convert(lifetime, defects.get(profile.defectId()), ConversionSettings.DEFAULTS, 1)
+                        .get(Quantity.TRAP_DENSITY)
+                : null;
 
-        List<Figure> figures = rules.figures();
-        MapStatistics life = MapStatistics.of(lifetime, mask, StatisticsRequest.of(percents(figures,
-                Figure.Kind.LIFETIME_PERCENTILE)));
-        MapStatistics dens = density == null ? null : MapStatistics.of(density, mask.and(Mask.valid(
-                density.raster())), StatisticsRequest.of(percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE)));
+        List<Figure> figures = profile.figures();
+        boolean edgeRatio = figures.stream().anyMatch(f -> f.kind() == Figure.Kind.EDGE_TO_CENTRE_RATIO);
+        Masks masks = masks(tau, grid, shape, rules.edgeExclusionMm(),
+                edgeRatio ? rules.edgeExclusionMm() + rules.edgeBandMm() : Double.NaN);
+        Mask mask = masks.evaluated();
+        double[] lifePercents = percents(figures, Figure.Kind.LIFETIME_PERCENTILE);
+        double[] withRange = java.util.Arrays.copyOf(lifePercents, lifePercents.length + 2);
+        withRange[lifePercents.length] = THUMBNAIL_LOW_PERCENT;
+        withRange[lifePercents.length + 1] = THUMBNAIL_HIGH_PERCENT;
+        MapStatistics life = MapStatistics.of(lifetime, mask, StatisticsRequest.of(thumbnail == null ? lifePercents
+                : withRange));
+        MapStatistics dens = density == null ? null : MapStatistics.of(density, mask, StatisticsRequest.of(
+                percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE)));
 
-        Rules.Flag flag = rules.flag();
+        Rules.Flag flag = profile.flag();
         WaferMap flagMap = flag.quantity() == Rules.FlagQuantity.LIFETIME ? lifetime : density;
         RegionCriteria criteria = flag.quantity() == Rules.FlagQuantity.LIFETIME
                 ? RegionCriteria.below(flag.threshold(), flag.minAreaMm2())
                 : RegionCriteria.above(flag.threshold(), flag.minAreaMm2());
-        RegionTable regions = ThresholdRegions.find(flagMap, mask, criteria, shape);
-        Region worst = regions.size() == 0 ? null : regions.byArea().get(0);
+        FlaggedRegions regions = FlaggedRegions.find(flagMap.raster(), grid, mask, criteria, shape,
+                density == null ? null : density.raster().samples());
+        FlaggedRegions.FlaggedRegion worst = regions.largest();
         double flaggedFraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
 
         Map<String, Double> values = new LinkedHashMap<>();
@@ -163,90 +180,166 @@ public final class WaferInspection {
                 case LIFETIME_PERCENTILE -> life.percentile(f.percent());
                 case TRAP_DENSITY_PERCENTILE -> dens.percentile(f.percent());
                 case FLAGGED_AREA_FRACTION -> flaggedFraction;
-                case LARGEST_REGION -> worst == null ? 0 : worst.areaMm2();
-                case EDGE_TO_CENTRE_RATIO -> edgeToCentre(lifetime, mask, shape);
+                case LARGEST_REGION -> worst == null ? 0 : worst.region().areaMm2();
+                case LARGEST_INTERIOR_REGION -> largestInterior(regions, shape, grid);
+                case EDGE_TO_CENTRE_RATIO -> edgeToCentre(tau, mask, masks.centre());
             };
             values.put(f.name(), v);
         }
         List<String> failed = new ArrayList<>();
-        for (Rules.Limit l : rules.limits()) {
+        for (Rules.Limit l : profile.limits()) {
             if (!l.holds(values.get(l.figure().name()))) {
                 failed.add(l.figure().name());
             }
         }
-        String grade = "";
-        for (Rules.Grade g : rules.grades()) {
-            if (g.when().stream().allMatch(l -> l.holds(values.get(l.figure().name())))) {
-                grade = g.grade();
-                break;
-            }
-        }
-        BitSet flaggedPixels = flaggedPixels(flagMap.raster(), grid, mask, criteria);
-        Footprint footprint = footprint(family, grid, mask, flaggedPixels);
+        String grade = profile.grade(!failed.isEmpty(), f -> values.get(f.name()));
+        List<String> missed = failed.isEmpty() ? profile.missedBy(grade, f -> values.get(f.name())) : List.of();
+        Footprint footprint = footprint(family, grid, mask, regions.pixels());
         if (thumbnail != null) {
-            writeThumbnail(lifetime, flaggedPixels, thumbnail);
+            writeThumbnail(lifetime, regions.pixels(), life.percentile(THUMBNAIL_LOW_PERCENT),
+                    life.percentile(THUMBNAIL_HIGH_PERCENT), thumbnail);
         }
         return new WaferResult(name, map.waferId(), failed.isEmpty() ? WaferResult.Status.PASS
-                : WaferResult.Status.FAIL, grade, values, failed, worst, "", footprint);
+                : WaferResult.Status.FAIL, grade, profile.name(), profile.defectId(), values, failed,
+                missed, regions.regions(), "", footprint);
+    }
+
+    /** See {@link Figure.Kind#LARGEST_INTERIOR_REGION}; NaN without an outline. */
+    private double largestInterior(FlaggedRegions regions, WaferShape shape, PixelGrid grid) {
+        if (shape == null) {
+            return Double.NaN;
+        }
+        double border = rules.edgeExclusionMm() + Math.max(Figure.INTERIOR_MARGIN_MM, grid.pitchMm());
+        double largest = 0;
+        for (FlaggedRegions.FlaggedRegion r : regions.regions()) {
+            if (r.region().edgeDistanceMm() > border) {
+                largest = Math.max(largest, r.region().areaMm2());
+            }
+        }
+        return largest;
     }
 
     private boolean usesEdgeRatio() {
         return rules.figures().stream().anyMatch(f -> f.kind() == Figure.Kind.EDGE_TO_CENTRE_RATIO);
     }
 
-    private double edgeToCentre(WaferMap lifetime, Mask mask, WaferShape shape) {
-        Mask centre = mask.and(shape.mask(lifetime.grid(), rules.edgeExclusionMm() + rules.edgeBandMm()));
-        Mask edge = mask.and(centre.not());
-        StatisticsRequest none = StatisticsRequest.of(new double[0]);
-        double e = MapStatistics.of(lifetime, edge, none).harmonicMean();
-        double c = MapStatistics.of(lifetime, centre, none).harmonicMean();
+    /** Maps wider or taller than this are fitted on a block-reduced validity mask (see {@link #fitOutline}). */
+    static final int FIT_MAX_PX = 320;
+
+    /**
+     * The outline of the valid pixels. A map of at most {@link #FIT_MAX_PX} pixels a side is fitted as it is; a
+     * larger one on a validity mask reduced by k×k blocks (k the smallest that brings it within the limit; a block is
+     * valid when at least half of its pixels are), whose grid has k times the pitch and the same wafer coordinates.
+     * The outline then rests on edge points spaced k pixels apart: at 1024² (k = 4) it stays within a fraction of a
+     * coarse pixel of the full-resolution fit (checked by the tests), at a sixteenth of the cost.
+     */
+    static OutlineFit fitOutline(float[] tau, PixelGrid grid) {
+        int w = grid.width();
+        int h = grid.height();
+        int k = (Math.max(w, h) + FIT_MAX_PX - 1) / FIT_MAX_PX;
+        if (k <= 1) {
+            return OutlineDetection.fit(Mask.of(w, h, i -> tau[i] == tau[i]), grid);
+        }
+        int cw = w / k;
+        int ch = h / k;
+        int[] counts = new int[cw * ch];
+        for (int y = 0; y < ch * k; y++) {
+            int row = (y / k) * cw;
+            int base = y * w;
+            for (int x = 0; x < cw * k; x++) {
+                float v = tau[base + x];
+                if (v == v) {
+                    counts[row + x / k]++;
+                }
+            }
+        }
+        int half = (k * k + 1) / 2;
+        PixelGrid coarse = new PixelGrid(cw, ch, grid.pitchMm() * k, (grid.centreXPx() - (k - 1) / 2.0) / k,
+                (grid.centreYPx() - (k - 1) / 2.0) / k);
+        return OutlineDetection.fit(Mask.of(cw, ch, i -> counts[i] >= half), coarse);
+    }
+
+    /**
+     * The evaluated pixels (valid and at least {@code exclusionMm} inside the outline) and, when {@code centreMm} is
+     * a number, the centre pixels (at least {@code centreMm} inside).
+     */
+    record Masks(Mask evaluated, Mask centre) {
+    }
+
+    /**
+     * The masks of {@link Masks}, identical to {@code Mask.valid(raster).and(shape.mask(grid, e))}. The distance to the
+     * outline changes by at most the distance moved (it is 1-Lipschitz), so after one exact distance d the next
+     * pixels of the row up to |d − e| away are on the same side of every threshold e and are filled without being
+     * computed; only pixels near a threshold are computed one by one.
+     */
+    static Masks masks(float[] tau, PixelGrid grid, WaferShape shape, double exclusionMm, double centreMm) {
+        int w = grid.width();
+        int h = grid.height();
+        boolean[] in = new boolean[w * h];
+        boolean[] centre = Double.isNaN(centreMm) ? null : new boolean[w * h];
+        if (shape == null) {
+            for (int i = 0; i < in.length; i++) {
+                in[i] = tau[i] == tau[i];
+            }
+            return new Masks(Mask.of(w, h, i -> in[i]), centre == null ? null : Mask.of(w, h, i -> false));
+        }
+        WaferShape.Prepared p = shape.prepared();
+        double pitch = grid.pitchMm();
+        double slack = 1e-7; // mm, far above the rounding of the distance and coordinates
+        for (int y = 0; y < h; y++) {
+            double ym = grid.yMm(y);
+            int row = y * w;
+            int x = 0;
+            while (x < w) {
+                double d = p.distanceToEdgeMm(grid.xMm(x), ym);
+                boolean inside = d >= exclusionMm;
+                boolean central = centre != null && d >= centreMm;
+                double margin = Math.abs(d - exclusionMm);
+                if (centre != null) {
+                    margin = Math.min(margin, Math.abs(d - centreMm));
+                }
+                int run = margin > slack ? 1 + (int) Math.min(w, Math.floor((margin - slack) / pitch)) : 1;
+                int end = Math.min(w, x + run);
+                for (; x < end; x++) {
+                    int i = row + x;
+                    in[i] = inside && tau[i] == tau[i];
+                    if (centre != null) {
+                        centre[i] = central && in[i];
+                    }
+                }
+            }
+        }
+        return new Masks(Mask.of(w, h, i -> in[i]), centre == null ? null : Mask.of(w, h, i -> centre[i]));
+    }
+
+    /**
+     * Harmonic-mean lifetime of the evaluated pixels outside {@code centre} over that of those inside, each over the
+     * positive lifetimes in index order (as {@link MapStatistics#harmonicMean()} sums them).
+     */
+    static double edgeToCentre(float[] tau, Mask evaluated, Mask centre) {
+        double edgeSum = 0;
+        double centreSum = 0;
+        int edgeCount = 0;
+        int centreCount = 0;
+        for (int i = evaluated.nextIndex(0); i >= 0; i = evaluated.nextIndex(i + 1)) {
+            double v = tau[i];
+            if (v > 0) {
+                if (centre.containsIndex(i)) {
+                    centreSum += 1 / v;
+                    centreCount++;
+                } else {
+                    edgeSum += 1 / v;
+                    edgeCount++;
+                }
+            }
+        }
+        double e = edgeCount == 0 ? Double.NaN : edgeCount / edgeSum;
+        double c = centreCount == 0 ? Double.NaN : centreCount / centreSum;
         return e / c;
     }
 
     private static double[] percents(List<Figure> figures, Figure.Kind kind) {
         return figures.stream().filter(f -> f.kind() == kind).mapToDouble(Figure::percent).toArray();
-    }
-
-    /** Pixels of the 8-connected groups of selected pixels whose area reaches the criteria's minimum. */
-    static BitSet flaggedPixels(FloatRaster raster, PixelGrid grid, Mask mask, RegionCriteria criteria) {
-        int w = raster.width();
-        int h = raster.height();
-        float[] s = raster.samples();
-        BitSet open = new BitSet(s.length);
-        for (int i = 0; i < s.length; i++) {
-            if (mask.containsIndex(i) && criteria.selects(s[i])) {
-                open.set(i);
-            }
-        }
-        BitSet kept = new BitSet(s.length);
-        int[] queue = new int[Math.max(16, open.cardinality())];
-        for (int seed = open.nextSetBit(0); seed >= 0; seed = open.nextSetBit(seed + 1)) {
-            open.clear(seed);
-            int head = 0;
-            int tail = 0;
-            queue[tail++] = seed;
-            while (head < tail) {
-                int i = queue[head++];
-                int x = i % w;
-                int y = i / w;
-                for (int dy = -1; dy <= 1; dy++) {
-                    for (int dx = -1; dx <= 1; dx++) {
-                        int nx = x + dx;
-                        int ny = y + dy;
-                        if (nx >= 0 && ny >= 0 && nx < w && ny < h && open.get(ny * w + nx)) {
-                            open.clear(ny * w + nx);
-                            queue[tail++] = ny * w + nx;
-                        }
-                    }
-                }
-            }
-            if (tail * grid.pixelAreaMm2() >= criteria.minAreaMm2()) {
-                for (int k = 0; k < tail; k++) {
-                    kept.set(queue[k]);
-                }
-            }
-        }
-        return kept;
     }
 
     static Footprint footprint(String family, PixelGrid grid, Mask mask, BitSet flagged) {
@@ -259,19 +352,18 @@ public final class WaferInspection {
         int j1 = cell(Math.max(grid.yMm(0), grid.yMm(h - 1)), p);
         int cw = i1 - i0 + 1;
         int ch = j1 - j0 + 1;
+        int[] column = new int[w];
+        for (int x = 0; x < w; x++) {
+            column[x] = cell(grid.xMm(x), p) - i0;
+        }
         BitSet covered = new BitSet(cw * ch);
         BitSet hit = new BitSet(cw * ch);
-        for (int y = 0; y < h; y++) {
-            int j = cell(grid.yMm(y), p) - j0;
-            for (int x = 0; x < w; x++) {
-                int idx = y * w + x;
-                if (mask.containsIndex(idx)) {
-                    int c = j * cw + cell(grid.xMm(x), p) - i0;
-                    covered.set(c);
-                    if (flagged.get(idx)) {
-                        hit.set(c);
-                    }
-                }
+        for (int idx = mask.nextIndex(0); idx >= 0; idx = mask.nextIndex(idx + 1)) {
+            int y = idx / w;
+            int c = (cell(grid.yMm(y), p) - j0) * cw + column[idx - y * w];
+            covered.set(c);
+            if (flagged.get(idx)) {
+                hit.set(c);
             }
         }
         return new Footprint(family, p, i0, j0, cw, ch, covered, hit);
@@ -282,11 +374,11 @@ public final class WaferInspection {
     }
 
     /**
-     * A thumbnail of at most {@link #THUMBNAIL_PX} px a side: the map's picture sampled at the centre of each block
-     * of pixels, with the border of the flagged regions drawn in {@link #OUTLINE_ARGB}.
+     * A thumbnail of at most {@link #THUMBNAIL_PX} px a side: the map sampled at the centre of each block of pixels,
+     * drawn in the default colours over {@code [lowUs, highUs]} (NaN: the picture's own range), with the border of
+     * the flagged regions drawn in {@link #OUTLINE_ARGB}. Only the sampled pixels are drawn.
      */
-    static BufferedImage thumbnail(WaferMap map, BitSet flagged) {
-        BufferedImage full = MapFiles.picture(map, PngStyle.DEFAULT);
+    static BufferedImage thumbnail(WaferMap map, BitSet flagged, double lowUs, double highUs) {
         int w = map.width();
         int h = map.height();
         int k = Math.max(1, (Math.max(w, h) + THUMBNAIL_PX - 1) / THUMBNAIL_PX);
@@ -296,16 +388,28 @@ public final class WaferInspection {
         for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
             block[(i / w / k) * tw + (i % w) / k] = true;
         }
-        BufferedImage out = new BufferedImage(tw, th, BufferedImage.TYPE_INT_ARGB);
+        float[] s = map.raster().samples();
+        float[] small = new float[tw * th];
+        for (int ty = 0; ty < th; ty++) {
+            int sy = Math.min(h - 1, ty * k + k / 2);
+            for (int tx = 0; tx < tw; tx++) {
+                small[ty * tw + tx] = s[sy * w + Math.min(w - 1, tx * k + k / 2)];
+            }
+        }
+        PixelGrid g = map.grid();
+        PixelGrid sg = new PixelGrid(tw, th, g.pitchMm() * k, (g.centreXPx() - k / 2) / k,
+                (g.centreYPx() - k / 2) / k);
+        PngStyle style = PngStyle.DEFAULT;
+        if (lowUs > 0 && highUs > lowUs) {
+            style = style.withRange(lowUs, highUs);
+        }
+        BufferedImage out = MapFiles.picture(new WaferMap(FloatRaster.wrap(tw, th, small), sg, map.quantity(),
+                map.waferId(), map.conditions(), map.provenance()), style);
         for (int ty = 0; ty < th; ty++) {
             for (int tx = 0; tx < tw; tx++) {
-                int sx = Math.min(w - 1, tx * k + k / 2);
-                int sy = Math.min(h - 1, ty * k + k / 2);
-                int argb = full.getRGB(sx, sy);
                 if (block[ty * tw + tx] && border(block, tw, th, tx, ty)) {
-                    argb = OUTLINE_ARGB;
+                    out.setRGB(tx, ty, OUTLINE_ARGB);
                 }
-                out.setRGB(tx, ty, argb);
             }
         }
         return out;
@@ -316,8 +420,8 @@ public final class WaferInspection {
                 || !b[(y - 1) * w + x] || !b[(y + 1) * w + x];
     }
 
-    private static void writeThumbnail(WaferMap map, BitSet flagged, Path file) {
-        BufferedImage img = thumbnail(map, flagged);
+    private static void writeThumbnail(WaferMap map, BitSet flagged, double lowUs, double highUs, Path file) {
+        BufferedImage img = thumbnail(map, flagged, lowUs, highUs);
         Path tmp = file.resolveSibling(file.getFileName() + ".tmp");
         try {
             if (!ImageIO.write(img, "png", tmp.toFile())) {

@@ -92,11 +92,26 @@ class BatchInspectionTest {
     }
 
     @Test
-    void gradesFollowTheFirstMatchingThresholds() throws Exception {
+    void passingWafersTakeTheFirstMatchingGradeAndFailedOnesNone() throws Exception {
         Path in = maps();
         BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES)).run(list(in), dir.resolve("out"),
                 options(1, false));
-        assertThat(csv(s.csv())).extracting(r -> r.get("grade")).containsExactly("A", "A", "B", "C");
+        List<CSVRecord> rows = csv(s.csv());
+        assertThat(rows).extracting(r -> r.get("status")).containsExactly("pass", "fail", "pass", "pass");
+        assertThat(rows).extracting(r -> r.get("grade")).containsExactly("A", "", "B", "C");
+        assertThat(rows).extracting(r -> r.get("graded_down_by")).containsExactly("", "", "median_lifetime_us",
+                "median_lifetime_us");
+        assertThat(rows).extracting(r -> r.get("profile")).containsOnly(Rules.DEFAULT_PROFILE);
+    }
+
+    @Test
+    void aFailedWaferTakesTheFailGradeNeverAPassingOne() throws Exception {
+        Path in = maps();
+        String rules = SPOT_RULES.replace("\"grades\"", "\"fail_grade\": \"R\", \"grades\"");
+        BatchInspection.Summary s = new BatchInspection(rules(rules)).run(list(in), dir.resolve("out"),
+                options(1, false));
+        assertThat(csv(s.csv())).extracting(r -> r.get("status") + "/" + r.get("grade"))
+                .containsExactly("pass/A", "fail/R", "pass/B", "pass/C");
     }
 
     @Test
@@ -303,9 +318,9 @@ class BatchInspectionTest {
     @Test
     void columnsNameEachFigureOfTheRules() throws Exception {
         assertThat(BatchInspection.columns(rules(SPOT_RULES))).containsExactly("file", "wafer_id", "status", "grade",
-                "harmonic_mean_lifetime_us", "median_lifetime_us", "flagged_area_fraction", "p5_lifetime_us",
-                "largest_region_mm2", "failed_rules", "worst_region_area_mm2", "worst_region_x_mm",
-                "worst_region_y_mm", "worst_region_peak", "error");
+                "profile", "defect", "harmonic_mean_lifetime_us", "median_lifetime_us", "flagged_area_fraction",
+                "p5_lifetime_us", "largest_region_mm2", "failed_rules", "graded_down_by", "worst_region_area_mm2",
+                "worst_region_x_mm", "worst_region_y_mm", "worst_region_peak", "error");
         assertThat(Map.of()).isEmpty();
     }
 
