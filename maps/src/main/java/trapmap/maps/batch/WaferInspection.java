@@ -45,6 +45,8 @@ public final class WaferInspection {
     public static final int THUMBNAIL_PX = 256;
     /** Colour of flagged-region outlines in thumbnails (opaque magenta, ARGB). */
     public static final int OUTLINE_ARGB = 0xFFFF00FF;
+    /** Width of the outline around flagged regions in thumbnails, px. */
+    public static final int OUTLINE_PX = 2;
 
     /** Reads one map; {@link MapFiles#readSingle(Path)} unless a test counts the reads. */
     @FunctionalInterface
@@ -374,31 +376,44 @@ public final class WaferInspection {
     }
 
     /**
-     * A thumbnail of at most {@link #THUMBNAIL_PX} px a side: the map sampled at the centre of each block of pixels,
-     * drawn in the default colours over {@code [lowUs, highUs]} (NaN: the picture's own range), with the border of
-     * the flagged regions drawn in {@link #OUTLINE_ARGB}. Only the sampled pixels are drawn.
+     * A thumbnail of {@link #THUMBNAIL_PX} px along its longer side (smaller maps are enlarged): the map sampled at
+     * the centre of each thumbnail pixel (nearest neighbour), drawn in the default colours over
+     * {@code [lowUs, highUs]} (NaN: the picture's own range), with a line {@link #OUTLINE_PX} px wide in
+     * {@link #OUTLINE_ARGB} drawn just outside each flagged region, so that the region itself keeps its colours. A
+     * thumbnail pixel counts as flagged when any map pixel in it is flagged, so no region is too small to be seen.
      */
     static BufferedImage thumbnail(WaferMap map, BitSet flagged, double lowUs, double highUs) {
         int w = map.width();
         int h = map.height();
-        int k = Math.max(1, (Math.max(w, h) + THUMBNAIL_PX - 1) / THUMBNAIL_PX);
-        int tw = (w + k - 1) / k;
-        int th = (h + k - 1) / k;
-        boolean[] block = new boolean[tw * th];
-        for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
-            block[(i / w / k) * tw + (i % w) / k] = true;
+        double scale = (double) Math.max(w, h) / THUMBNAIL_PX; // map pixels per thumbnail pixel
+        int tw = Math.max(1, (int) Math.round(w / scale));
+        int th = Math.max(1, (int) Math.round(h / scale));
+        int[] sx = new int[tw];
+        int[] sy = new int[th];
+        for (int tx = 0; tx < tw; tx++) {
+            sx[tx] = Math.min(w - 1, (int) ((tx + 0.5) * scale));
+        }
+        for (int ty = 0; ty < th; ty++) {
+            sy[ty] = Math.min(h - 1, (int) ((ty + 0.5) * scale));
         }
         float[] s = map.raster().samples();
         float[] small = new float[tw * th];
+        boolean[] hit = new boolean[tw * th];
         for (int ty = 0; ty < th; ty++) {
-            int sy = Math.min(h - 1, ty * k + k / 2);
             for (int tx = 0; tx < tw; tx++) {
-                small[ty * tw + tx] = s[sy * w + Math.min(w - 1, tx * k + k / 2)];
+                int i = sy[ty] * w + sx[tx];
+                small[ty * tw + tx] = s[i];
+                hit[ty * tw + tx] = flagged.get(i);
             }
         }
+        for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
+            int tx = Math.min(tw - 1, (int) ((i % w) / scale));
+            int ty = Math.min(th - 1, (int) ((i / w) / scale));
+            hit[ty * tw + tx] = true;
+        }
         PixelGrid g = map.grid();
-        PixelGrid sg = new PixelGrid(tw, th, g.pitchMm() * k, (g.centreXPx() - k / 2) / k,
-                (g.centreYPx() - k / 2) / k);
+        PixelGrid sg = new PixelGrid(tw, th, g.pitchMm() * scale, (g.centreXPx() + 0.5) / scale - 0.5,
+                (g.centreYPx() + 0.5) / scale - 0.5);
         PngStyle style = PngStyle.DEFAULT;
         if (lowUs > 0 && highUs > lowUs) {
             style = style.withRange(lowUs, highUs);
@@ -407,7 +422,7 @@ public final class WaferInspection {
                 map.waferId(), map.conditions(), map.provenance()), style);
         for (int ty = 0; ty < th; ty++) {
             for (int tx = 0; tx < tw; tx++) {
-                if (block[ty * tw + tx] && border(block, tw, th, tx, ty)) {
+                if (!hit[ty * tw + tx] && near(hit, tw, th, tx, ty, OUTLINE_PX)) {
                     out.setRGB(tx, ty, OUTLINE_ARGB);
                 }
             }
@@ -415,9 +430,16 @@ public final class WaferInspection {
         return out;
     }
 
-    private static boolean border(boolean[] b, int w, int h, int x, int y) {
-        return x == 0 || y == 0 || x == w - 1 || y == h - 1 || !b[y * w + x - 1] || !b[y * w + x + 1]
-                || !b[(y - 1) * w + x] || !b[(y + 1) * w + x];
+    /** True when a flagged pixel lies within {@code r} pixels (Chebyshev distance) of (x, y). */
+    private static boolean near(boolean[] b, int w, int h, int x, int y, int r) {
+        for (int yy = Math.max(0, y - r); yy <= Math.min(h - 1, y + r); yy++) {
+            for (int xx = Math.max(0, x - r); xx <= Math.min(w - 1, x + r); xx++) {
+                if (b[yy * w + xx]) {
+                    return true;
+                }
+            }
+        }
+        return false;
     }
 
     private static void writeThumbnail(WaferMap map, BitSet flagged, double lowUs, double highUs, Path file) {
