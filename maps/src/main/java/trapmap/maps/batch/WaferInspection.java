@@ -111,6 +111,20 @@ public final class WaferInspection {
 
     /** Evaluates a map already read; {@code name} is reported as its file. */
     public WaferResult evaluate(String name, WaferMap read, Path thumbnail) {
+        return evaluation(name, read, thumbnail).result();
+    }
+
+    /**
+     * What an evaluation worked with, besides its result: the lifetime map, the trap-density map (null when the
+     * profile needs none), the wafer outline (null when none was fitted), the evaluated pixels and the flagged
+     * regions with their pixels.
+     */
+    record Evaluation(WaferResult result, WaferMap lifetime, WaferMap density, WaferShape shape, Mask evaluated,
+                      FlaggedRegions regions) {
+    }
+
+    /** As {@link #evaluate}, keeping the intermediate maps. */
+    Evaluation evaluation(String name, WaferMap read, Path thumbnail) {
         WaferMap map = read.withConditions(rules.applyTo(read.conditions()));
         WaferMap lifetime = switch (map.quantity()) {
             case EFFECTIVE_LIFETIME -> map;
@@ -201,9 +215,10 @@ public final class WaferInspection {
             writeThumbnail(lifetime, regions.pixels(), life.percentile(THUMBNAIL_LOW_PERCENT),
                     life.percentile(THUMBNAIL_HIGH_PERCENT), thumbnail);
         }
-        return new WaferResult(name, map.waferId(), failed.isEmpty() ? WaferResult.Status.PASS
+        WaferResult result = new WaferResult(name, map.waferId(), failed.isEmpty() ? WaferResult.Status.PASS
                 : WaferResult.Status.FAIL, grade, profile.name(), profile.defectId(), values, failed,
                 missed, regions.regions(), "", footprint);
+        return new Evaluation(result, lifetime, density, shape, mask, regions);
     }
 
     /** See {@link Figure.Kind#LARGEST_INTERIOR_REGION}; NaN without an outline. */

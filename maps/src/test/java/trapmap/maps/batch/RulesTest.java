@@ -27,8 +27,9 @@ class RulesTest {
         assertThat(r.figures()).extracting(Figure::name).contains("harmonic_mean_lifetime_us",
                 "trap_density_p95_cm3", "flagged_area_fraction", "largest_region_mm2", "largest_interior_region_mm2");
         assertThat(r.profiles()).extracting(Rules.Profile::name).containsExactly("n-type", "ic-monitor",
-                "iron-boron-pairs");
-        assertThat(r.profiles()).extracting(Rules.Profile::defectId).containsExactly("midgap", "fe-i", "fe-b");
+                "after-gettering", "iron-boron-pairs");
+        assertThat(r.profiles()).extracting(Rules.Profile::defectId).containsExactly("midgap", "fe-i", "fe-i",
+                "fe-b");
     }
 
     @Test
