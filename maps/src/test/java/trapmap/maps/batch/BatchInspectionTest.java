@@ -173,9 +173,57 @@ class BatchInspectionTest {
         assertThat(reads.get()).isEqualTo(1);
         assertThat(s.skipped()).isEqualTo(3);
         assertThat(csv(s.csv())).extracting(r -> r.get("wafer_id")).containsExactly("w1", "w2", "w3", "w4");
+        // the region of w2 (read in the first run) is kept in regions.csv
+        assertThat(csv(out.resolve(BatchInspection.REGIONS_NAME))).extracting(r -> r.get("wafer_id"))
+                .containsExactly("w2");
         reads.set(0);
         new BatchInspection(rules(SPOT_RULES), counting).run(list(in), out, options(2, true));
         assertThat(reads.get()).isZero();
+        assertThat(csv(out.resolve(BatchInspection.REGIONS_NAME))).hasSize(1);
+    }
+
+    @Test
+    void regionsTableListsEachFlaggedRegionWithItsPosition() throws Exception {
+        Path in = maps();
+        Path out = dir.resolve("out");
+        new BatchInspection(rules(SPOT_RULES)).run(list(in), out, options(2, false));
+        List<CSVRecord> regions = csv(out.resolve(BatchInspection.REGIONS_NAME));
+        assertThat(regions).hasSize(1);
+        CSVRecord r = regions.get(0);
+        assertThat(r.toMap().keySet()).containsExactlyElementsOf(BatchInspection.REGION_COLUMNS);
+        assertThat(r.get("wafer_id")).isEqualTo("w2");
+        assertThat(Math.hypot(Double.parseDouble(r.get("x_mm")) - 20, Double.parseDouble(r.get("y_mm")) + 10))
+                .isLessThan(0.5);
+        assertThat(Double.parseDouble(r.get("peak"))).isEqualTo(4);
+        assertThat(r.get("peak_density_cm3")).isEmpty(); // a lifetime flag without a defect: no densities
+    }
+
+    @Test
+    void filesThatAreNotMapsOrHaveABrokenSidecarBecomeErrorRows() throws Exception {
+        Path in = maps();
+        Files.writeString(in.resolve("d-text.tif"), "this is not a TIFF\n");
+        Files.write(in.resolve("e-empty.csv"), new byte[0]);
+        Files.writeString(in.resolve("f-cut.csv"), "x_mm,y_mm,value\n0,0,10\n0.5,0,1");
+        byte[] good = Files.readAllBytes(in.resolve("w1.tif"));
+        byte[] flipped = good.clone();
+        for (int i = 8; i < Math.min(flipped.length, 4096); i++) {
+            flipped[i] ^= (byte) 0x5A; // the first IFD and the start of the pixels scrambled
+        }
+        Files.write(in.resolve("g-scrambled.tif"), flipped);
+        Files.write(in.resolve("h-sidecar.tif"), good);
+        Files.writeString(in.resolve("h-sidecar.json"), "{\"format\": \"trapmap-map/1\", \"pixel_pitch_mm\": ");
+        BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES)).run(list(in), dir.resolve("out"),
+                options(2, false));
+        List<CSVRecord> rows = csv(s.csv());
+        assertThat(rows).hasSize(9);
+        for (CSVRecord r : rows.subList(0, 5)) {
+            assertThat(r.get("status")).as(r.get("file")).isEqualTo("error");
+            assertThat(r.get("error")).as(r.get("file")).isNotBlank().doesNotContain("\n").contains(r.get("file")
+                    .replaceAll(".*[/\\\\]", "").replace(".tif", "").replace(".csv", ""));
+            assertThat(r.get("grade")).isEmpty();
+        }
+        assertThat(rows.subList(5, 9)).extracting(r -> r.get("status")).containsExactly("pass", "fail", "pass",
+                "pass");
     }
 
     @Test
