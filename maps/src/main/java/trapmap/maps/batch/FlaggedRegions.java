@@ -5,7 +5,6 @@ import java.util.BitSet;
 import java.util.List;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.raster.FloatRaster;
-import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.maps.region.Region;
 import trapmap.maps.region.RegionCriteria;
@@ -59,17 +58,18 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
     /**
      * Labels the flagged pixels of {@code raster}.
      *
-     * @param mask    pixels that may be flagged
-     * @param shape   wafer outline for the edge distances (not null)
+     * @param indices pixels that may be flagged, ascending: {@code indices[0..count)}
+     * @param shape   wafer outline for the edge distances, or null (edge distances NaN)
      * @param density trap-density samples of the same grid, or null
      */
-    public static FlaggedRegions find(FloatRaster raster, PixelGrid grid, Mask mask, RegionCriteria criteria,
-                                      WaferShape shape, float[] density) {
+    public static FlaggedRegions find(FloatRaster raster, PixelGrid grid, int[] indices, int count,
+                                      RegionCriteria criteria, WaferShape shape, float[] density) {
         int w = raster.width();
         int h = raster.height();
         float[] s = raster.samples();
         BitSet open = new BitSet(s.length);
-        for (int i = mask.nextIndex(0); i >= 0; i = mask.nextIndex(i + 1)) {
+        for (int k = 0; k < count; k++) {
+            int i = indices[k];
             if (criteria.selects(s[i])) {
                 open.set(i);
             }
@@ -134,15 +134,15 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                     }
                 }
             }
-            int count = tail;
-            double area = count * pixelArea;
+            int size = tail;
+            double area = size * pixelArea;
             if (area < criteria.minAreaMm2()) {
                 continue;
             }
             double nearest = Double.POSITIVE_INFINITY;
-            float[] dens = density == null ? null : new float[count];
+            float[] dens = density == null ? null : new float[size];
             double peakDensity = Double.NEGATIVE_INFINITY;
-            for (int k = 0; k < count; k++) {
+            for (int k = 0; k < size; k++) {
                 int i = queue[k];
                 kept.set(i);
                 if (edge != null) {
@@ -157,8 +157,8 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
             }
             double medianDensity = Double.NaN;
             if (dens != null) {
-                MapStatistics st = MapStatistics.of(FloatRaster.wrap(count, 1, dens), null,
-                        PixelGrid.centred(count, 1, grid.pitchMm()), StatisticsRequest.of(new double[0]));
+                MapStatistics st = MapStatistics.of(FloatRaster.wrap(size, 1, dens), null,
+                        PixelGrid.centred(size, 1, grid.pitchMm()), StatisticsRequest.of(new double[0]));
                 medianDensity = st.median();
                 peakDensity = st.count() == 0 ? Double.NaN : peakDensity;
             } else {
@@ -167,9 +167,9 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
             double halfPx = 0.5;
             Region.BoundsMm bounds = new Region.BoundsMm(grid.xMm(minX - halfPx), grid.yMm(maxY + halfPx),
                     grid.xMm(maxX + halfPx), grid.yMm(minY - halfPx));
-            Region r = new Region(regions.size() + 1, count, area, grid.xMm((double) sumX / count),
-                    grid.yMm((double) sumY / count), bounds, peak, grid.xMm(peakIndex % w), grid.yMm(peakIndex / w),
-                    sumValue / count, edge == null ? Double.NaN : nearest);
+            Region r = new Region(regions.size() + 1, size, area, grid.xMm((double) sumX / size),
+                    grid.yMm((double) sumY / size), bounds, peak, grid.xMm(peakIndex % w), grid.yMm(peakIndex / w),
+                    sumValue / size, edge == null ? Double.NaN : nearest);
             regions.add(new FlaggedRegion(r, peakDensity, medianDensity));
         }
         return new FlaggedRegions(regions, kept);

@@ -9,7 +9,11 @@ import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import javax.imageio.IIOImage;
 import javax.imageio.ImageIO;
+import javax.imageio.ImageWriteParam;
+import javax.imageio.ImageWriter;
+import javax.imageio.stream.ImageOutputStream;
 import trapmap.maps.geometry.OutlineDetection;
 import trapmap.maps.geometry.OutlineFit;
 import trapmap.maps.geometry.WaferShape;
@@ -119,8 +123,8 @@ public final class WaferInspection {
      * profile needs none), the wafer outline (null when none was fitted), the evaluated pixels and the flagged
      * regions with their pixels.
      */
-    record Evaluation(WaferResult result, WaferMap lifetime, WaferMap density, WaferShape shape, Mask evaluated,
-                      FlaggedRegions regions) {
+    record Evaluation(WaferResult result, WaferMap lifetime, WaferMap density, WaferShape shape,
+                      boolean[] evaluated, FlaggedRegions regions) {
     }
 
     /** As {@link #evaluate}, keeping the intermediate maps. */
@@ -168,23 +172,21 @@ public final class WaferInspection {
         boolean edgeRatio = figures.stream().anyMatch(f -> f.kind() == Figure.Kind.EDGE_TO_CENTRE_RATIO);
         Masks masks = masks(tau, grid, shape, rules.edgeExclusionMm(),
                 edgeRatio ? rules.edgeExclusionMm() + rules.edgeBandMm() : Double.NaN);
-        Mask mask = masks.evaluated();
         double[] lifePercents = percents(figures, Figure.Kind.LIFETIME_PERCENTILE);
         double[] withRange = java.util.Arrays.copyOf(lifePercents, lifePercents.length + 2);
         withRange[lifePercents.length] = THUMBNAIL_LOW_PERCENT;
         withRange[lifePercents.length + 1] = THUMBNAIL_HIGH_PERCENT;
-        MapStatistics life = MapStatistics.of(lifetime, mask, StatisticsRequest.of(thumbnail == null ? lifePercents
-                : withRange));
-        MapStatistics dens = density == null ? null : MapStatistics.of(density, mask, StatisticsRequest.of(
-                percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE)));
+        Sample life = Sample.of(tau, masks, grid, thumbnail == null ? lifePercents : withRange);
+        Sample dens = density == null ? null : Sample.of(density.raster().samples(), masks, grid,
+                percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE), false);
 
         Rules.Flag flag = profile.flag();
         WaferMap flagMap = flag.quantity() == Rules.FlagQuantity.LIFETIME ? lifetime : density;
         RegionCriteria criteria = flag.quantity() == Rules.FlagQuantity.LIFETIME
                 ? RegionCriteria.below(flag.threshold(), flag.minAreaMm2())
                 : RegionCriteria.above(flag.threshold(), flag.minAreaMm2());
-        FlaggedRegions regions = FlaggedRegions.find(flagMap.raster(), grid, mask, criteria, shape,
-                density == null ? null : density.raster().samples());
+        FlaggedRegions regions = FlaggedRegions.find(flagMap.raster(), grid, masks.indices(), masks.count(), criteria,
+                shape, density == null ? null : density.raster().samples());
         FlaggedRegions.FlaggedRegion worst = regions.largest();
         double flaggedFraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
 
@@ -198,7 +200,7 @@ public final class WaferInspection {
                 case FLAGGED_AREA_FRACTION -> flaggedFraction;
                 case LARGEST_REGION -> worst == null ? 0 : worst.region().areaMm2();
                 case LARGEST_INTERIOR_REGION -> largestInterior(regions, shape, grid);
-                case EDGE_TO_CENTRE_RATIO -> edgeToCentre(tau, mask, masks.centre());
+                case EDGE_TO_CENTRE_RATIO -> edgeToCentre(tau, masks);
             };
             values.put(f.name(), v);
         }
@@ -210,7 +212,7 @@ public final class WaferInspection {
         }
         String grade = profile.grade(!failed.isEmpty(), f -> values.get(f.name()));
         List<String> missed = failed.isEmpty() ? profile.missedBy(grade, f -> values.get(f.name())) : List.of();
-        Footprint footprint = footprint(family, grid, mask, regions.pixels());
+        Footprint footprint = footprint(family, grid, masks.evaluated(), regions.pixels());
         if (thumbnail != null) {
             writeThumbnail(lifetime, regions.pixels(), life.percentile(THUMBNAIL_LOW_PERCENT),
                     life.percentile(THUMBNAIL_HIGH_PERCENT), thumbnail);
@@ -218,7 +220,7 @@ public final class WaferInspection {
         WaferResult result = new WaferResult(name, map.waferId(), failed.isEmpty() ? WaferResult.Status.PASS
                 : WaferResult.Status.FAIL, grade, profile.name(), profile.defectId(), values, failed,
                 missed, regions.regions(), "", footprint);
-        return new Evaluation(result, lifetime, density, shape, mask, regions);
+        return new Evaluation(result, lifetime, density, shape, masks.evaluated(), regions);
     }
 
     /** See {@link Figure.Kind#LARGEST_INTERIOR_REGION}; NaN without an outline. */
@@ -240,25 +242,29 @@ public final class WaferInspection {
         return rules.figures().stream().anyMatch(f -> f.kind() == Figure.Kind.EDGE_TO_CENTRE_RATIO);
     }
 
-    /** Maps wider or taller than this are fitted on a block-reduced validity mask (see {@link #fitOutline}). */
-    static final int FIT_MAX_PX = 320;
+    /** Size, px, that block reduction brings a large map's validity mask down to for the outline fit. */
+    static final int FIT_PX = 160;
 
     /**
-     * The outline of the valid pixels. A map of at most {@link #FIT_MAX_PX} pixels a side is fitted as it is; a
-     * larger one on a validity mask reduced by k×k blocks (k the smallest that brings it within the limit; a block is
-     * valid when at least half of its pixels are), whose grid has k times the pitch and the same wafer coordinates.
-     * The outline then rests on edge points spaced k pixels apart: at 1024² (k = 4) it stays within a fraction of a
-     * coarse pixel of the full-resolution fit (checked by the tests), at a sixteenth of the cost.
+     * The outline of the valid pixels. A map of fewer than 2·{@link #FIT_PX} pixels along its longer side is fitted as
+     * it is; a larger one on its validity mask reduced by k×k blocks, k = ⌊side / FIT_PX⌋ (a block is valid when at
+     * least half of its pixels are), on a grid of k times the pitch with the same wafer coordinates. The outline then
+     * rests on edge points k pixels apart, hundreds of them: at 1024² (k = 6) the fitted centre and size stay within
+     * a small fraction of a pixel of the full-resolution fit (checked by the tests) at a thirtieth of the cost.
      */
     static OutlineFit fitOutline(float[] tau, PixelGrid grid) {
         int w = grid.width();
         int h = grid.height();
-        int k = (Math.max(w, h) + FIT_MAX_PX - 1) / FIT_MAX_PX;
+        int k = Math.max(w, h) / FIT_PX;
         if (k <= 1) {
             return OutlineDetection.fit(Mask.of(w, h, i -> tau[i] == tau[i]), grid);
         }
         int cw = w / k;
         int ch = h / k;
+        int[] block = new int[cw * k];
+        for (int x = 0; x < block.length; x++) {
+            block[x] = x / k;
+        }
         int[] counts = new int[cw * ch];
         for (int y = 0; y < ch * k; y++) {
             int row = (y / k) * cw;
@@ -266,39 +272,95 @@ public final class WaferInspection {
             for (int x = 0; x < cw * k; x++) {
                 float v = tau[base + x];
                 if (v == v) {
-                    counts[row + x / k]++;
+                    counts[row + block[x]]++;
                 }
             }
         }
         int half = (k * k + 1) / 2;
+        boolean[] valid = new boolean[cw * ch];
+        for (int i = 0; i < valid.length; i++) {
+            valid[i] = counts[i] >= half;
+        }
         PixelGrid coarse = new PixelGrid(cw, ch, grid.pitchMm() * k, (grid.centreXPx() - (k - 1) / 2.0) / k,
                 (grid.centreYPx() - (k - 1) / 2.0) / k);
-        return OutlineDetection.fit(Mask.of(cw, ch, i -> counts[i] >= half), coarse);
+        return FIT_CACHE.fit(valid, coarse);
     }
 
+    /** Fitted outlines of the last few validity masks seen (see {@link FitCache}). */
+    private static final FitCache FIT_CACHE = new FitCache(16);
+
     /**
-     * The evaluated pixels (valid and at least {@code exclusionMm} inside the outline) and, when {@code centreMm} is
-     * a number, the centre pixels (at least {@code centreMm} inside).
+     * The outline fit is a pure function of the validity mask and its grid, and the maps of one tool often share
+     * their reduced mask exactly (same stage, same crop): the last {@code capacity} fits are kept, keyed by the mask's
+     * bits and the grid, and a mask equal to one of them reuses its fit. Thread-safe.
      */
-    record Masks(Mask evaluated, Mask centre) {
+    static final class FitCache {
+        private record Key(int hash, boolean[] valid, PixelGrid grid) {
+            @Override
+            public boolean equals(Object o) {
+                return o instanceof Key k && k.hash == hash && k.grid.equals(grid)
+                        && java.util.Arrays.equals(k.valid, valid);
+            }
+
+            @Override
+            public int hashCode() {
+                return hash;
+            }
+        }
+
+        private final Map<Key, OutlineFit> fits;
+
+        FitCache(int capacity) {
+            fits = java.util.Collections.synchronizedMap(new java.util.LinkedHashMap<>(capacity, 0.75f, true) {
+                @Override
+                protected boolean removeEldestEntry(Map.Entry<Key, OutlineFit> eldest) {
+                    return size() > capacity;
+                }
+            });
+        }
+
+        OutlineFit fit(boolean[] valid, PixelGrid grid) {
+            Key key = new Key(31 * java.util.Arrays.hashCode(valid) + grid.hashCode(), valid, grid);
+            OutlineFit fit = fits.get(key);
+            if (fit == null) {
+                fit = OutlineDetection.fit(Mask.of(grid.width(), grid.height(), i -> valid[i]), grid);
+                fits.put(key, fit);
+            }
+            return fit;
+        }
     }
 
     /**
-     * The masks of {@link Masks}, identical to {@code Mask.valid(raster).and(shape.mask(grid, e))}. The distance to the
-     * outline changes by at most the distance moved (it is 1-Lipschitz), so after one exact distance d the next
-     * pixels of the row up to |d − e| away are on the same side of every threshold e and are filled without being
-     * computed; only pixels near a threshold are computed one by one.
+     * The evaluated pixels (valid and at least the edge exclusion inside the outline), also as ascending indices
+     * ({@code indices[0..count)}), and, when asked for, the centre pixels of {@code edge_to_centre_ratio} (null
+     * otherwise).
+     */
+    record Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre) {
+    }
+
+    /**
+     * The masks of {@link Masks}: {@code evaluated} holds exactly the pixels of
+     * {@code Mask.valid(raster).and(shape.mask(grid, exclusionMm))}, {@code centre} those at least {@code centreMm}
+     * inside (NaN: none asked for). The distance to the outline changes by at most the distance moved (it is
+     * 1-Lipschitz), so after one exact distance d the next pixels of the row up to |d − e| away lie on the same side
+     * of every threshold e and are filled without being computed; only pixels near a threshold are computed one by
+     * one.
      */
     static Masks masks(float[] tau, PixelGrid grid, WaferShape shape, double exclusionMm, double centreMm) {
         int w = grid.width();
         int h = grid.height();
         boolean[] in = new boolean[w * h];
         boolean[] centre = Double.isNaN(centreMm) ? null : new boolean[w * h];
+        int[] indices = new int[w * h];
+        int count = 0;
         if (shape == null) {
             for (int i = 0; i < in.length; i++) {
-                in[i] = tau[i] == tau[i];
+                if (tau[i] == tau[i]) {
+                    in[i] = true;
+                    indices[count++] = i;
+                }
             }
-            return new Masks(Mask.of(w, h, i -> in[i]), centre == null ? null : Mask.of(w, h, i -> false));
+            return new Masks(in, indices, count, centre);
         }
         WaferShape.Prepared p = shape.prepared();
         double pitch = grid.pitchMm();
@@ -317,31 +379,46 @@ public final class WaferInspection {
                 }
                 int run = margin > slack ? 1 + (int) Math.min(w, Math.floor((margin - slack) / pitch)) : 1;
                 int end = Math.min(w, x + run);
+                if (!inside) {
+                    x = end;
+                    continue;
+                }
                 for (; x < end; x++) {
                     int i = row + x;
-                    in[i] = inside && tau[i] == tau[i];
-                    if (centre != null) {
-                        centre[i] = central && in[i];
+                    if (tau[i] == tau[i]) {
+                        in[i] = true;
+                        indices[count++] = i;
+                        if (central) {
+                            centre[i] = true;
+                        }
                     }
                 }
             }
         }
-        return new Masks(Mask.of(w, h, i -> in[i]), centre == null ? null : Mask.of(w, h, i -> centre[i]));
+        return new Masks(in, indices, count, centre);
+    }
+
+    /** A Mask of the same pixels as a boolean array. */
+    static Mask mask(boolean[] in, PixelGrid grid) {
+        return Mask.of(grid.width(), grid.height(), i -> in[i]);
     }
 
     /**
-     * Harmonic-mean lifetime of the evaluated pixels outside {@code centre} over that of those inside, each over the
+     * Harmonic-mean lifetime of the evaluated pixels outside the centre over that of those inside, each over the
      * positive lifetimes in index order (as {@link MapStatistics#harmonicMean()} sums them).
      */
-    static double edgeToCentre(float[] tau, Mask evaluated, Mask centre) {
+    static double edgeToCentre(float[] tau, Masks masks) {
         double edgeSum = 0;
         double centreSum = 0;
         int edgeCount = 0;
         int centreCount = 0;
-        for (int i = evaluated.nextIndex(0); i >= 0; i = evaluated.nextIndex(i + 1)) {
+        int[] idx = masks.indices();
+        boolean[] centre = masks.centre();
+        for (int k = 0, n = masks.count(); k < n; k++) {
+            int i = idx[k];
             double v = tau[i];
             if (v > 0) {
-                if (centre.containsIndex(i)) {
+                if (centre[i]) {
                     centreSum += 1 / v;
                     centreCount++;
                 } else {
@@ -355,11 +432,62 @@ public final class WaferInspection {
         return e / c;
     }
 
+    /**
+     * The figures of one map over the evaluated pixels, equal to those of {@link MapStatistics#of} over the same
+     * pixels: the count of valid (not NaN) values, their area, the harmonic mean of the positive values (reciprocals
+     * summed in index order) and type-7 percentiles from the same exact order statistics
+     * ({@link MapStatistics#percentiles}), in one pass without the figures the batch does not use.
+     */
+    record Sample(int count, double areaMm2, double harmonicMean, double median, double[] percents,
+                  double[] values) {
+        static Sample of(float[] s, Masks masks, PixelGrid grid, double[] percents) {
+            return of(s, masks, grid, percents, true);
+        }
+
+        /** As {@link #of(float[], Masks, PixelGrid, double[])}; without the harmonic mean (NaN) unless asked for. */
+        static Sample of(float[] s, Masks masks, PixelGrid grid, double[] percents, boolean harmonic) {
+            int[] idx = masks.indices();
+            int n = masks.count();
+            float[] v = new float[n];
+            int m = 0;
+            int positive = 0;
+            double reciprocalSum = 0;
+            for (int k = 0; k < n; k++) {
+                float f = s[idx[k]];
+                if (f == f) {
+                    v[m++] = f;
+                    if (harmonic && f > 0) {
+                        reciprocalSum += 1 / (double) f;
+                        positive++;
+                    }
+                }
+            }
+            double[] wanted = java.util.Arrays.copyOf(percents, percents.length + 1);
+            wanted[percents.length] = 50;
+            double[] est = MapStatistics.percentiles(v, m, wanted);
+            return new Sample(m, m * grid.pixelAreaMm2(), positive == 0 ? Double.NaN : positive / reciprocalSum,
+                    est[percents.length], percents.clone(), java.util.Arrays.copyOf(est, percents.length));
+        }
+
+        /** The estimate of a requested percentile (or 50). */
+        double percentile(double percent) {
+            if (percent == 50) {
+                return median;
+            }
+            for (int k = 0; k < percents.length; k++) {
+                if (percents[k] == percent) {
+                    return values[k];
+                }
+            }
+            throw new IllegalArgumentException("percentile " + percent + " was not requested");
+        }
+    }
+
     private static double[] percents(List<Figure> figures, Figure.Kind kind) {
         return figures.stream().filter(f -> f.kind() == kind).mapToDouble(Figure::percent).toArray();
     }
 
-    static Footprint footprint(String family, PixelGrid grid, Mask mask, BitSet flagged) {
+    static Footprint footprint(String family, PixelGrid grid, boolean[] evaluated, BitSet flagged) {
         double p = FOOTPRINT_PITCH_MM;
         int w = grid.width();
         int h = grid.height();
@@ -375,13 +503,23 @@ public final class WaferInspection {
         }
         BitSet covered = new BitSet(cw * ch);
         BitSet hit = new BitSet(cw * ch);
-        for (int idx = mask.nextIndex(0); idx >= 0; idx = mask.nextIndex(idx + 1)) {
-            int y = idx / w;
-            int c = (cell(grid.yMm(y), p) - j0) * cw + column[idx - y * w];
-            covered.set(c);
-            if (flagged.get(idx)) {
-                hit.set(c);
+        for (int y = 0; y < h; y++) {
+            int rowCell = (cell(grid.yMm(y), p) - j0) * cw;
+            int row = y * w;
+            int last = -1;
+            for (int x = 0; x < w; x++) {
+                if (evaluated[row + x]) {
+                    int c = rowCell + column[x];
+                    if (c != last) {
+                        covered.set(c);
+                        last = c;
+                    }
+                }
             }
+        }
+        for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
+            int y = i / w;
+            hit.set((cell(grid.yMm(y), p) - j0) * cw + column[i - y * w]); // flagged pixels are evaluated ones
         }
         return new Footprint(family, p, i0, j0, cw, ch, covered, hit);
     }
@@ -435,35 +573,66 @@ public final class WaferInspection {
         }
         BufferedImage out = MapFiles.picture(new WaferMap(FloatRaster.wrap(tw, th, small), sg, map.quantity(),
                 map.waferId(), map.conditions(), map.provenance()), style);
-        for (int ty = 0; ty < th; ty++) {
-            for (int tx = 0; tx < tw; tx++) {
-                if (!hit[ty * tw + tx] && near(hit, tw, th, tx, ty, OUTLINE_PX)) {
-                    out.setRGB(tx, ty, OUTLINE_ARGB);
+        boolean[] near = dilate(hit, tw, th, OUTLINE_PX);
+        for (int i = 0; i < near.length; i++) {
+            if (near[i] && !hit[i]) {
+                out.setRGB(i % tw, i / tw, OUTLINE_ARGB);
+            }
+        }
+        return out;
+    }
+
+    /** The pixels within {@code r} pixels (Chebyshev distance) of a set pixel: a square dilation, rows then columns. */
+    static boolean[] dilate(boolean[] b, int w, int h, int r) {
+        boolean[] rows = new boolean[b.length];
+        for (int y = 0; y < h; y++) {
+            int row = y * w;
+            int last = Integer.MIN_VALUE / 2; // x of the last set pixel seen, scanning right
+            for (int x = 0; x < w + r; x++) {
+                if (x < w && b[row + x]) {
+                    last = x;
+                }
+                int at = x - r; // pixel whose window [at - r, at + r] ends at x
+                if (at >= 0 && at < w) {
+                    rows[row + at] = x - last <= 2 * r;
+                }
+            }
+        }
+        boolean[] out = new boolean[b.length];
+        for (int x = 0; x < w; x++) {
+            int last = Integer.MIN_VALUE / 2;
+            for (int y = 0; y < h + r; y++) {
+                if (y < h && rows[y * w + x]) {
+                    last = y;
+                }
+                int at = y - r;
+                if (at >= 0 && at < h) {
+                    out[at * w + x] = y - last <= 2 * r;
                 }
             }
         }
         return out;
     }
 
-    /** True when a flagged pixel lies within {@code r} pixels (Chebyshev distance) of (x, y). */
-    private static boolean near(boolean[] b, int w, int h, int x, int y, int r) {
-        for (int yy = Math.max(0, y - r); yy <= Math.min(h - 1, y + r); yy++) {
-            for (int xx = Math.max(0, x - r); xx <= Math.min(w - 1, x + r); xx++) {
-                if (b[yy * w + xx]) {
-                    return true;
-                }
-            }
+    /** Writes a PNG with fast (level 1) deflate: a thumbnail is small either way, and this is most of its cost. */
+    private static void writePng(BufferedImage img, Path file) throws IOException {
+        ImageWriter writer = ImageIO.getImageWritersByFormatName("png").next();
+        try (ImageOutputStream out = ImageIO.createImageOutputStream(file.toFile())) {
+            ImageWriteParam param = writer.getDefaultWriteParam();
+            param.setCompressionMode(ImageWriteParam.MODE_EXPLICIT);
+            param.setCompressionQuality(0.85f); // deflate level ⌊9·(1 − q)⌋ = 1
+            writer.setOutput(out);
+            writer.write(null, new IIOImage(img, null, null), param);
+        } finally {
+            writer.dispose();
         }
-        return false;
     }
 
     private static void writeThumbnail(WaferMap map, BitSet flagged, double lowUs, double highUs, Path file) {
         BufferedImage img = thumbnail(map, flagged, lowUs, highUs);
         Path tmp = file.resolveSibling(file.getFileName() + ".tmp");
         try {
-            if (!ImageIO.write(img, "png", tmp.toFile())) {
-                throw new IOException("no PNG writer");
-            }
+            writePng(img, tmp);
             java.nio.file.Files.move(tmp, file, java.nio.file.StandardCopyOption.REPLACE_EXISTING,
                     java.nio.file.StandardCopyOption.ATOMIC_MOVE);
         } catch (IOException e) {
