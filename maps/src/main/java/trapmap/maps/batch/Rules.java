@@ -15,6 +15,7 @@ import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
+import java.util.function.ToDoubleFunction;
 import trapmap.maps.geometry.WaferFormat;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.model.MeasurementConditions;
@@ -120,7 +121,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
          * The grade of a wafer with these figures: {@link #failGrade} when it failed a limit, otherwise the first
          * grade whose limits hold ("" when none does). A failed wafer never gets a passing grade.
          */
-        public String grade(boolean failed, java.util.function.ToDoubleFunction<Figure> value) {
+        public String grade(boolean failed, ToDoubleFunction<Figure> value) {
             if (failed) {
                 return failGrade;
             }
@@ -136,7 +137,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
          * For a passing wafer, the figures that kept it from a better grade than {@code grade}: of each grade listed
          * before it, the figures outside that grade's limits (each named once, in order of appearance).
          */
-        public List<String> missedBy(String grade, java.util.function.ToDoubleFunction<Figure> value) {
+        public List<String> missedBy(String grade, ToDoubleFunction<Figure> value) {
             Set<String> out = new LinkedHashSet<>();
             for (Grade g : grades) {
                 if (g.grade().equals(grade)) {

@@ -4,7 +4,9 @@ import java.awt.image.BufferedImage;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.BitSet;
+import java.util.Collections;
 import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -29,7 +31,6 @@ import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.stats.MapStatistics;
-import trapmap.maps.stats.StatisticsRequest;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.defect.DefectLibrary;
 import trapmap.physics.material.Doping;
@@ -173,7 +174,7 @@ public final class WaferInspection {
         Masks masks = masks(tau, grid, shape, rules.edgeExclusionMm(),
                 edgeRatio ? rules.edgeExclusionMm() + rules.edgeBandMm() : Double.NaN);
         double[] lifePercents = percents(figures, Figure.Kind.LIFETIME_PERCENTILE);
-        double[] withRange = java.util.Arrays.copyOf(lifePercents, lifePercents.length + 2);
+        double[] withRange = Arrays.copyOf(lifePercents, lifePercents.length + 2);
         withRange[lifePercents.length] = THUMBNAIL_LOW_PERCENT;
         withRange[lifePercents.length + 1] = THUMBNAIL_HIGH_PERCENT;
         Sample life = Sample.of(tau, masks, grid, thumbnail == null ? lifePercents : withRange);
@@ -299,7 +300,7 @@ public final class WaferInspection {
             @Override
             public boolean equals(Object o) {
                 return o instanceof Key k && k.hash == hash && k.grid.equals(grid)
-                        && java.util.Arrays.equals(k.valid, valid);
+                        && Arrays.equals(k.valid, valid);
             }
 
             @Override
@@ -311,7 +312,7 @@ public final class WaferInspection {
         private final Map<Key, OutlineFit> fits;
 
         FitCache(int capacity) {
-            fits = java.util.Collections.synchronizedMap(new java.util.LinkedHashMap<>(capacity, 0.75f, true) {
+            fits = Collections.synchronizedMap(new LinkedHashMap<>(capacity, 0.75f, true) {
                 @Override
                 protected boolean removeEldestEntry(Map.Entry<Key, OutlineFit> eldest) {
                     return size() > capacity;
@@ -320,7 +321,7 @@ public final class WaferInspection {
         }
 
         OutlineFit fit(boolean[] valid, PixelGrid grid) {
-            Key key = new Key(31 * java.util.Arrays.hashCode(valid) + grid.hashCode(), valid, grid);
+            Key key = new Key(31 * Arrays.hashCode(valid) + grid.hashCode(), valid, grid);
             OutlineFit fit = fits.get(key);
             if (fit == null) {
                 fit = OutlineDetection.fit(Mask.of(grid.width(), grid.height(), i -> valid[i]), grid);
@@ -462,11 +463,11 @@ public final class WaferInspection {
                     }
                 }
             }
-            double[] wanted = java.util.Arrays.copyOf(percents, percents.length + 1);
+            double[] wanted = Arrays.copyOf(percents, percents.length + 1);
             wanted[percents.length] = 50;
             double[] est = MapStatistics.percentiles(v, m, wanted);
             return new Sample(m, m * grid.pixelAreaMm2(), positive == 0 ? Double.NaN : positive / reciprocalSum,
-                    est[percents.length], percents.clone(), java.util.Arrays.copyOf(est, percents.length));
+                    est[percents.length], percents.clone(), Arrays.copyOf(est, percents.length));
         }
 
         /** The estimate of a requested percentile (or 50). */

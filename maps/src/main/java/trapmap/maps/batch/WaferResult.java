@@ -1,5 +1,6 @@
 package trapmap.maps.batch;
 
+import java.util.BitSet;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
@@ -61,7 +62,7 @@ public record WaferResult(String file, String waferId, Status status, String gra
 
     /** The largest flagged region (the first in scan order among equals), or null when none. */
     public Region worstRegion() {
-        FlaggedRegions.FlaggedRegion r = new FlaggedRegions(regions, new java.util.BitSet()).largest();
+        FlaggedRegions.FlaggedRegion r = new FlaggedRegions(regions, new BitSet()).largest();
         return r == null ? null : r.region();
     }
 
