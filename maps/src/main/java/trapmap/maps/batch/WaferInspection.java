@@ -22,6 +22,7 @@ import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.MapFormatException;
 import trapmap.maps.io.PngStyle;
+import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.ConversionSettings;
@@ -31,6 +32,9 @@ import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.stats.MapStatistics;
+import trapmap.physics.conversion.Conditions;
+import trapmap.physics.conversion.ConversionOutput;
+import trapmap.physics.conversion.TrapDensityConverter;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.defect.DefectLibrary;
 import trapmap.physics.material.Doping;
@@ -164,10 +168,7 @@ public final class WaferInspection {
         Doping doping = map.conditions().doping();
         Rules.Profile profile = rules.profileFor(Path.of(name).getFileName().toString(),
                 doping == null ? null : doping.type(), family);
-        WaferMap density = profile.needsTrapDensity()
-                ? MapConversion.convert(lifetime, defects.get(profile.defectId()), ConversionSettings.DEFAULTS, 1)
-                        .get(Quantity.TRAP_DENSITY)
-                : null;
+        WaferMap density = profile.needsTrapDensity() ? trapDensity(lifetime, defects.get(profile.defectId())) : null;
 
         List<Figure> figures = profile.figures();
         boolean edgeRatio = figures.stream().anyMatch(f -> f.kind() == Figure.Kind.EDGE_TO_CENTRE_RATIO);
@@ -222,6 +223,21 @@ public final class WaferInspection {
                 : WaferResult.Status.FAIL, grade, profile.name(), profile.defectId(), values, failed,
                 missed, regions.regions(), "", footprint);
         return new Evaluation(result, lifetime, density, shape, masks.evaluated(), regions);
+    }
+
+    /**
+     * The trap-density map of {@link MapConversion#convert} with the default settings (same conditions, same
+     * converter, same values), without the other quantities that conversion also stores: the batch needs only this
+     * one, and the other five maps would be allocated and filled for every wafer.
+     */
+    static WaferMap trapDensity(WaferMap lifetime, Defect defect) {
+        Conditions conditions = MapConversion.physicsConditions(lifetime.conditions(), ConversionSettings.DEFAULTS);
+        float[] nt = new float[lifetime.raster().size()];
+        new TrapDensityConverter(conditions, defect).convert(lifetime.raster().samples(), lifetime.width(),
+                new ConversionOutput(nt, null, null, null, null, null, null, null, null), 1);
+        return lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), nt), Quantity.TRAP_DENSITY,
+                ProcessingStep.of("convert", "defect", defect.id(), "doping", conditions.doping().toString(),
+                        "injection", conditions.injection().toString()));
     }
 
     /** See {@link Figure.Kind#LARGEST_INTERIOR_REGION}; NaN without an outline. */

@@ -16,7 +16,10 @@ import trapmap.maps.geometry.SquareWafer;
 import trapmap.maps.geometry.WaferFormat;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.io.MapFiles;
+import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
+import trapmap.maps.process.ConversionSettings;
+import trapmap.maps.process.MapConversion;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
@@ -25,6 +28,8 @@ import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.region.ThresholdRegions;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
+import trapmap.physics.defect.Defect;
+import trapmap.physics.defect.DefectLibrary;
 
 /**
  * The batch's faster paths give what the general classes give: the same masks as {@link WaferShape#mask}, the same
@@ -74,6 +79,19 @@ class WaferInspectionShortcutsTest {
                     .containsExactlyElementsOf(expected);
             assertThat(mine.pixels().cardinality()).isEqualTo(expected.stream().mapToInt(Region::pixelCount).sum());
         }
+    }
+
+    @ParameterizedTest
+    @ValueSource(strings = {"LOT-A01-W02.tif", "LOT-N01-W01.tif", "LOT-A04-W01-pl.tif"})
+    void trapDensityEqualsThatOfTheFullConversion(String file) throws Exception {
+        WaferMap read = demo(file);
+        WaferMap lifetime = read.quantity() == Quantity.PL_COUNTS ? MapConversion.lifetimeFromPl(read) : read;
+        Defect defect = DefectLibrary.byId(file.startsWith("LOT-N") ? "midgap" : "fe-i");
+        float[] expected = MapConversion.convert(lifetime, defect, ConversionSettings.DEFAULTS, 1)
+                .get(Quantity.TRAP_DENSITY).raster().samples();
+        WaferMap mine = WaferInspection.trapDensity(lifetime, defect);
+        assertThat(mine.quantity()).isEqualTo(Quantity.TRAP_DENSITY);
+        assertThat(mine.raster().samples()).containsExactly(expected);
     }
 
     @Test
