@@ -40,9 +40,14 @@ import trapmap.physics.defect.DefectLibrary;
 import trapmap.physics.material.Doping;
 
 /**
- * Inspects one wafer map against {@link Rules}: reads it, applies the rules' conditions, converts it to trap density
- * when the rules need that, evaluates every figure over the wafer less the edge exclusion, finds the flagged regions
- * and decides pass/fail and the grade. Thread-safe; one call holds one map.
+ * Inspects one wafer map against {@link Rules}: reads it, applies the rules' conditions, fits its outline, picks the
+ * rules profile that matches it (conductivity type, wafer family, file name), converts it to trap density of that
+ * profile's defect when needed, evaluates every figure over the wafer less the edge exclusion, finds the flagged
+ * regions and decides pass/fail and the grade. Thread-safe; one call holds one map.
+ *
+ * <p>Per-pixel work is kept to single passes over the evaluated pixels; each shortcut gives what the general class
+ * gives (masks, regions, figures, trap density) or, for the outline of a large map, stays within a tolerance the
+ * tests state.
  *
  * <p>Nothing a file can contain makes {@link #inspect} throw: an unreadable file, a map of the wrong quantity or
  * missing conditions give an {@link WaferResult.Status#ERROR error} result with a one-line reason.
