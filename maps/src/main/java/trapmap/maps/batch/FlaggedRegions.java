@@ -67,11 +67,13 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
         int w = raster.width();
         int h = raster.height();
         float[] s = raster.samples();
-        BitSet open = new BitSet(s.length);
+        boolean[] open = new boolean[s.length];
+        int selected = 0;
         for (int k = 0; k < count; k++) {
             int i = indices[k];
             if (criteria.selects(s[i])) {
-                open.set(i);
+                open[i] = true;
+                selected++;
             }
         }
         WaferShape.Prepared edge = shape == null ? null : shape.prepared();
@@ -82,10 +84,14 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
         }
         List<FlaggedRegion> regions = new ArrayList<>();
         BitSet kept = new BitSet(s.length);
-        int[] queue = new int[Math.max(16, open.cardinality())];
+        int[] queue = new int[Math.max(16, selected)];
         boolean above = criteria.side() == RegionCriteria.Side.ABOVE;
-        for (int seed = open.nextSetBit(0); seed >= 0; seed = open.nextSetBit(seed + 1)) {
-            open.clear(seed);
+        for (int next = 0; next < count; next++) {
+            int seed = indices[next];
+            if (!open[seed]) {
+                continue;
+            }
+            open[seed] = false;
             int head = 0;
             int tail = 0;
             queue[tail++] = seed;
@@ -118,8 +124,8 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                 if (x > 0 && y > 0 && x < w - 1 && y < h - 1) {
                     for (int k = 0; k < 8; k++) {
                         int j = i + offset[k];
-                        if (open.get(j)) {
-                            open.clear(j);
+                        if (open[j]) {
+                            open[j] = false;
                             queue[tail++] = j;
                         }
                     }
@@ -127,8 +133,8 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                     for (int k = 0; k < 8; k++) {
                         int nx = x + DX[k];
                         int ny = y + DY[k];
-                        if (nx >= 0 && ny >= 0 && nx < w && ny < h && open.get(ny * w + nx)) {
-                            open.clear(ny * w + nx);
+                        if (nx >= 0 && ny >= 0 && nx < w && ny < h && open[ny * w + nx]) {
+                            open[ny * w + nx] = false;
                             queue[tail++] = ny * w + nx;
                         }
                     }
