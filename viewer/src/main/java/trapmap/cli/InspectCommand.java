@@ -26,12 +26,12 @@ import trapmap.shared.progress.ProgressListener;
         usageHelpAutoWidth = true,
         header = "Inspects a batch of wafer maps against a rules file.",
         description = {
-            "Evaluates every map (a folder: all .tif, .tiff and .csv files in it, by name) against RULES.json:",
-            "figures over the wafer less the edge exclusion, flagged regions, pass/fail and grade. Writes",
-            "results.csv and results.json (one row per wafer, in input order), regions.csv (one row per flagged",
-            "region), recurrence maps of the flagged positions per wafer format and a small picture per wafer",
-            "with its flagged regions outlined (thumbnails/). A file that cannot be read gives an 'error' row;",
-            "the batch goes on.",
+            "Evaluates every map (a folder: all .tif, .tiff and .csv files in it, by name) against RULES.json:"
+                + " figures over the wafer less the edge exclusion, flagged regions, pass/fail and grade. Writes"
+                + " results.csv and results.json (one row per wafer, in input order), regions.csv (one row per"
+                + " flagged region), recurrence maps of the flagged positions per wafer format and a small picture"
+                + " per wafer with its flagged regions outlined (thumbnails/). A file that cannot be read gives an"
+                + " 'error' row; the batch goes on.",
             ""},
         footer = {"", "Exit codes: 0 all wafers pass; 1 some wafers fail or could not be read; 2 invalid input"
                 + " (rules file, options, no input files); 3 internal error."})
