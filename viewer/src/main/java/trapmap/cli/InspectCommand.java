@@ -27,11 +27,12 @@ import trapmap.viewer.report.BatchReport;
         usageHelpAutoWidth = true,
         header = "Inspects a batch of wafer maps against a rules file.",
         description = {
-            "Evaluates every map (a folder: all .tif, .tiff and .csv files in it, by name) against RULES.json:",
-            "figures over the wafer less the edge exclusion, flagged regions, pass/fail and grade. Writes",
-            "results.csv and results.json (one row per wafer, in input order), recurrence maps of the flagged",
-            "positions per wafer format and, with --thumbnails, a small picture per wafer with its flagged",
-            "regions outlined. A file that cannot be read gives an 'error' row; the batch goes on.",
+            "Evaluates every map (a folder: all .tif, .tiff and .csv files in it, by name) against RULES.json:"
+                + " figures over the wafer less the edge exclusion, flagged regions, pass/fail and grade. Writes"
+                + " results.csv and results.json (one row per wafer, in input order), regions.csv (one row per"
+                + " flagged region), recurrence maps of the flagged positions per wafer format and a small picture"
+                + " per wafer with its flagged regions outlined (thumbnails/). A file that cannot be read gives an"
+                + " 'error' row; the batch goes on.",
             ""},
         footer = {"", "Exit codes: 0 all wafers pass; 1 some wafers fail or could not be read; 2 invalid input"
                 + " (rules file, options, no input files); 3 internal error."})
@@ -57,7 +58,9 @@ final class InspectCommand implements Callable<Integer> {
     @Option(names = "--resume", description = "Skip files already listed in DIR/results.csv and keep their rows.")
     boolean resume;
 
-    @Option(names = "--thumbnails", description = "Write DIR/thumbnails/FILE.png with the flagged regions outlined.")
+    @Option(names = "--thumbnails", negatable = true, defaultValue = "true", fallbackValue = "true",
+            description = "Write DIR/thumbnails/FILE.png with the flagged regions outlined (default; --no-thumbnails"
+                    + " leaves them out).")
     boolean thumbnails;
 
     @Option(names = "--json", description = "Print the summary as one JSON object.")
@@ -144,10 +147,13 @@ final class InspectCommand implements Callable<Integer> {
     }
 
     private static ProgressListener bar(PrintWriter err) {
+        long start = System.nanoTime();
         return (done, total, message) -> {
             int width = 30;
             int filled = total == 0 ? width : (int) (width * done / total);
-            err.print("\r[" + "#".repeat(filled) + " ".repeat(width - filled) + "] " + done + "/" + total);
+            double seconds = (System.nanoTime() - start) / 1e9;
+            err.printf(Locale.ROOT, "\r[%s%s] %d/%d  %.1f maps/s ", "#".repeat(filled), " ".repeat(width - filled),
+                    done, total, seconds > 0 ? done / seconds : 0.0);
             err.flush();
         };
     }

@@ -82,7 +82,7 @@ final class ViewerLaunch {
         }
         Path dir = Files.createTempDirectory("trapmap-demo-");
         DemoScenario.write(dir);
-        Files.writeString(dir.resolve(RULES), EXAMPLE_RULES, StandardCharsets.UTF_8);
+        Files.writeString(dir.resolve(RULES), exampleRules(), StandardCharsets.UTF_8);
         err.println("trapmap: no " + DEMO_FOLDER + "/ found; generated the demonstration set in " + dir);
         return dir;
     }
@@ -105,29 +105,13 @@ final class ViewerLaunch {
         return code == Exit.SOME_WAFERS_NOT_PASSED ? Exit.OK : code;
     }
 
-    /** The example rules of the demonstration set, for a generated set. */
-    static final String EXAMPLE_RULES = """
-            {
-              "conditions": {"doping": "p:1.5ohmcm", "injection_cm3": 1e14, "temperature_k": 300, "thickness_um": 180,
-                             "srv_cm_s": 10, "override": false},
-              "defect": "fe-i",
-              "edge_exclusion_mm": 2,
-              "wafer": "auto",
-              "edge_band_mm": 10,
-              "flag": {"quantity": "lifetime", "threshold": 20, "min_area_mm2": 4},
-              "limits": {
-                "harmonic_mean_lifetime_us": {"min": 50},
-                "p5_lifetime_us": {"min": 20},
-                "trap_density_p95_cm3": {"max": 3e11},
-                "flagged_area_fraction": {"max": 0.02},
-                "largest_region_mm2": {"max": 100},
-                "edge_to_centre_ratio": {"min": 0.6}
-              },
-              "grades": [
-                {"grade": "A", "when": {"median_lifetime_us": {"min": 200}, "flagged_area_fraction": {"max": 0.001}}},
-                {"grade": "B", "when": {"median_lifetime_us": {"min": 80}}},
-                {"grade": "C"}
-              ]
+    /** The example rules of the demonstration set, for a generated set: {@code demo-data/rules-example.json}. */
+    static String exampleRules() throws IOException {
+        try (var in = ViewerLaunch.class.getResourceAsStream("demo/" + RULES)) {
+            if (in == null) {
+                throw new IOException("the example rules are missing from this build (trapmap/cli/demo/" + RULES + ")");
             }
-            """;
+            return new String(in.readAllBytes(), StandardCharsets.UTF_8);
+        }
+    }
 }

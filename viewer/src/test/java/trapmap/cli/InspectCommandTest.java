@@ -81,6 +81,26 @@ class InspectCommandTest {
     }
 
     @Test
+    void thumbnailsAndTheRegionsTableAreWrittenUnlessSwitchedOff() throws Exception {
+        Path in = folder(true);
+        Path out = dir.resolve("out");
+        Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out", out.toString());
+        assertThat(r.code()).isEqualTo(1);
+        assertThat(out.resolve("thumbnails").resolve("w1.tif.png")).isRegularFile();
+        assertThat(out.resolve("thumbnails").resolve("w2.tif.png")).isRegularFile();
+        List<String> regions = Files.readAllLines(out.resolve("regions.csv"));
+        assertThat(regions).hasSize(2);
+        assertThat(regions.get(1)).startsWith(in.resolve("w2.tif") + ",w2,1,");
+
+        Path bare = dir.resolve("bare");
+        Cli.Run r2 = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out", bare.toString(),
+                "--no-thumbnails");
+        assertThat(r2.code()).isEqualTo(1);
+        assertThat(bare.resolve("thumbnails")).doesNotExist();
+        assertThat(bare.resolve("results.csv")).isRegularFile();
+    }
+
+    @Test
     void aFailingWaferExitsOne() throws Exception {
         Path in = folder(true);
         Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out",

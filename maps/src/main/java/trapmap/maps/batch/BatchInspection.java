@@ -39,7 +39,9 @@ import trapmap.shared.progress.ProgressListener;
  *   <li>{@code recurrence-FAMILY.tif} / {@code .png}: the fraction of the wafers of one family flagged at each
  *       position ({@link RecurrenceMap}); wafers kept from a resumed run enter it through their footprints in
  *       {@code footprints.csv} (written like {@code results.csv}), without being read again.</li>
- *   <li>{@code thumbnails/FILE.png} (optional): each map with its flagged regions outlined.</li>
+ *   <li>{@code regions.csv}: one row per flagged region (position, area, peak, trap density), written like
+ *       {@code footprints.csv}; the rows of wafers kept from a resumed run are kept.</li>
+ *   <li>{@code thumbnails/FILE.png} (unless switched off): each map with its flagged regions outlined.</li>
  * </ul>
  *
  * <p>Memory is bounded: a fixed pool of {@code threads} workers each holds one map at a time, and at most
@@ -51,6 +53,10 @@ public final class BatchInspection {
     public static final String PARTIAL_NAME = "results.csv.partial";
     public static final String JSON_NAME = "results.json";
     public static final String FOOTPRINTS_NAME = "footprints.csv";
+    public static final String REGIONS_NAME = "regions.csv";
+    /** Columns of {@value #REGIONS_NAME}: one row per flagged region. */
+    public static final List<String> REGION_COLUMNS = List.of("file", "wafer_id", "region", "area_mm2", "x_mm", "y_mm",
+            "peak", "peak_x_mm", "peak_y_mm", "mean", "edge_distance_mm", "peak_density_cm3", "median_density_cm3");
     public static final String THUMBNAIL_DIR = "thumbnails";
 
     /**
@@ -105,10 +111,10 @@ public final class BatchInspection {
 
     /** The CSV columns for these rules. */
     public static List<String> columns(Rules rules) {
-        List<String> c = new ArrayList<>(List.of("file", "wafer_id", "status", "grade"));
+        List<String> c = new ArrayList<>(List.of("file", "wafer_id", "status", "grade", "profile", "defect"));
         rules.figures().forEach(f -> c.add(f.name()));
-        c.addAll(List.of("failed_rules", "worst_region_area_mm2", "worst_region_x_mm", "worst_region_y_mm",
-                "worst_region_peak", "error"));
+        c.addAll(List.of("failed_rules", "graded_down_by", "worst_region_area_mm2", "worst_region_x_mm",
+                "worst_region_y_mm", "worst_region_peak", "error"));
         return c;
     }
 
@@ -122,9 +128,14 @@ public final class BatchInspection {
         Path footprintsPartial = outDir.resolve(FOOTPRINTS_NAME + ".partial");
         Map<String, Map<String, String>> kept = new LinkedHashMap<>();
         Map<String, Footprint> keptFootprints = new LinkedHashMap<>();
+        Path regionsCsv = outDir.resolve(REGIONS_NAME);
+        Path regionsPartial = outDir.resolve(REGIONS_NAME + ".partial");
+        Map<String, List<Map<String, String>>> keptRegions = new LinkedHashMap<>();
         if (options.resume()) {
             readRows(csv, kept);
             readRows(partial, kept);
+            readRegionRows(regionsCsv, keptRegions);
+            readRegionRows(regionsPartial, keptRegions);
             FootprintStore.read(footprints, keptFootprints, BatchInspection::key);
             FootprintStore.read(footprintsPartial, keptFootprints, BatchInspection::key);
         }
@@ -148,7 +159,11 @@ public final class BatchInspection {
         });
         Path tmpPartial = outDir.resolve(PARTIAL_NAME + ".new");
         Path tmpFootprints = outDir.resolve(FOOTPRINTS_NAME + ".new");
+        Path tmpRegions = outDir.resolve(REGIONS_NAME + ".new");
         try (BufferedWriter w = Files.newBufferedWriter(tmpPartial, StandardCharsets.UTF_8);
+             BufferedWriter rw = Files.newBufferedWriter(tmpRegions, StandardCharsets.UTF_8);
+             CSVPrinter rout = new CSVPrinter(rw, CSVFormat.DEFAULT.builder().setHeader(REGION_COLUMNS.toArray(
+                     String[]::new)).build());
              CSVPrinter out = new CSVPrinter(w, CSVFormat.DEFAULT.builder().setHeader(columns.toArray(
                      String[]::new)).build());
              BufferedWriter fw = Files.newBufferedWriter(tmpFootprints, StandardCharsets.UTF_8);
@@ -156,6 +171,9 @@ public final class BatchInspection {
                      FootprintStore.COLUMNS).build())) {
             for (Map<String, String> row : rows) {
                 print(out, columns, row);
+                for (Map<String, String> region : keptRegions.getOrDefault(key(row.get("file")), List.of())) {
+                    print(rout, REGION_COLUMNS, region);
+                }
                 Footprint f = keptFootprints.get(key(row.get("file")));
                 if (f != null) {
                     recurrence.add(f);
@@ -164,7 +182,10 @@ public final class BatchInspection {
             }
             out.flush();
             fout.flush();
+            rout.flush();
             Files.move(tmpPartial, partial, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+            Files.move(tmpRegions, regionsPartial, StandardCopyOption.REPLACE_EXISTING,
+                    StandardCopyOption.ATOMIC_MOVE);
             Files.move(tmpFootprints, footprintsPartial, StandardCopyOption.REPLACE_EXISTING,
                     StandardCopyOption.ATOMIC_MOVE);
             Deque<Future<WaferResult>> pending = new ArrayDeque<>();
@@ -187,6 +208,10 @@ public final class BatchInspection {
                     fout.printRecord(FootprintStore.record(r.file(), r.footprint()));
                     fout.flush();
                 }
+                for (Map<String, String> region : regionRows(r)) {
+                    print(rout, REGION_COLUMNS, region);
+                }
+                rout.flush();
                 Map<String, String> row = row(r);
                 rows.add(row);
                 print(out, columns, row);
@@ -200,9 +225,11 @@ public final class BatchInspection {
             pool.shutdownNow();
             Files.deleteIfExists(tmpPartial);
             Files.deleteIfExists(tmpFootprints);
+            Files.deleteIfExists(tmpRegions);
         }
         Files.move(footprintsPartial, footprints, StandardCopyOption.REPLACE_EXISTING,
                 StandardCopyOption.ATOMIC_MOVE);
+        Files.move(regionsPartial, regionsCsv, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
         Files.move(partial, csv, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
 
         int pass = 0;
@@ -248,6 +275,48 @@ public final class BatchInspection {
         }
     }
 
+    private static void readRegionRows(Path file, Map<String, List<Map<String, String>>> into) throws IOException {
+        if (!Files.isRegularFile(file)) {
+            return;
+        }
+        Map<String, List<Map<String, String>>> read = new LinkedHashMap<>();
+        try (Reader r = Files.newBufferedReader(file, StandardCharsets.UTF_8);
+             CSVParser p = CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).build().parse(r)) {
+            for (CSVRecord rec : p) {
+                if (!rec.isConsistent() || !rec.isMapped("file") || rec.get("file").isEmpty()) {
+                    continue; // a row cut short by an interruption
+                }
+                read.computeIfAbsent(key(rec.get("file")), k -> new ArrayList<>()).add(new LinkedHashMap<>(
+                        rec.toMap()));
+            }
+        }
+        into.putAll(read); // a later file (the partial one) replaces a file's regions as a whole
+    }
+
+    /** The {@value #REGIONS_NAME} rows of a result: one per flagged region, numbers as in {@link #row}. */
+    static List<Map<String, String>> regionRows(WaferResult r) {
+        List<Map<String, String>> rows = new ArrayList<>();
+        for (FlaggedRegions.FlaggedRegion fr : r.regions()) {
+            trapmap.maps.region.Region g = fr.region();
+            Map<String, String> m = new LinkedHashMap<>();
+            m.put("file", r.file());
+            m.put("wafer_id", r.waferId());
+            m.put("region", Integer.toString(g.id()));
+            m.put("area_mm2", num(g.areaMm2()));
+            m.put("x_mm", num(g.centroidXMm()));
+            m.put("y_mm", num(g.centroidYMm()));
+            m.put("peak", num(g.peakValue()));
+            m.put("peak_x_mm", num(g.peakXMm()));
+            m.put("peak_y_mm", num(g.peakYMm()));
+            m.put("mean", num(g.meanValue()));
+            m.put("edge_distance_mm", num(g.edgeDistanceMm()));
+            m.put("peak_density_cm3", num(fr.peakDensityCm3()));
+            m.put("median_density_cm3", num(fr.medianDensityCm3()));
+            rows.add(m);
+        }
+        return rows;
+    }
+
     private static void print(CSVPrinter out, List<String> columns, Map<String, String> row) throws IOException {
         List<String> values = new ArrayList<>(columns.size());
         for (String c : columns) {
@@ -263,8 +332,11 @@ public final class BatchInspection {
         m.put("wafer_id", r.waferId());
         m.put("status", r.status().key());
         m.put("grade", r.grade());
+        m.put("profile", r.profile());
+        m.put("defect", r.defectId());
         r.figures().forEach((k, v) -> m.put(k, num(v)));
         m.put("failed_rules", String.join(";", r.failed()));
+        m.put("graded_down_by", String.join(";", r.gradedDownBy()));
         if (r.worstRegion() != null) {
             m.put("worst_region_area_mm2", num(r.worstRegion().areaMm2()));
             m.put("worst_region_x_mm", num(r.worstRegion().centroidXMm()));
@@ -305,7 +377,9 @@ public final class BatchInspection {
     }
 
     private static boolean numeric(String column) {
-        return !List.of("file", "wafer_id", "status", "grade", "failed_rules", "error").contains(column);
+        return !List.of("file", "wafer_id", "status", "grade", "profile", "defect", "failed_rules",
+                "graded_down_by", "error")
+                .contains(column);
     }
 
     private static Object number(String v) {

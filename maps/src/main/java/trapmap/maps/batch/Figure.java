@@ -14,6 +14,10 @@ import java.util.regex.Pattern;
  *   <li>{@code flagged_area_fraction}: area of the flagged regions (at least the flag's minimum area) over the
  *       evaluated area</li>
  *   <li>{@code largest_region_mm2}: area of the largest flagged region, 0 when none, mm²</li>
+ *   <li>{@code largest_interior_region_mm2}: area of the largest flagged region that keeps off the border of the
+ *       evaluated area (every pixel centre more than {@link #INTERIOR_MARGIN_MM} or one pixel pitch, whichever is
+ *       larger, inside the edge exclusion), 0 when none, mm²: contamination of the wafer's inside as opposed to edge
+ *       zones</li>
  *   <li>{@code edge_to_centre_ratio}: harmonic-mean lifetime in the band of {@code edge_band_mm} along the inner
  *       border of the evaluated area over the harmonic-mean lifetime inside it</li>
  * </ul>
@@ -24,10 +28,13 @@ import java.util.regex.Pattern;
  */
 public record Figure(String name, Kind kind, double percent) {
 
+    /** How far inside the edge exclusion a region must keep to count as interior, mm (at least one pixel pitch). */
+    public static final double INTERIOR_MARGIN_MM = 1.0;
+
     /** What a figure measures. */
     public enum Kind {
         HARMONIC_MEAN_LIFETIME, MEDIAN_LIFETIME, LIFETIME_PERCENTILE, TRAP_DENSITY_PERCENTILE,
-        FLAGGED_AREA_FRACTION, LARGEST_REGION, EDGE_TO_CENTRE_RATIO
+        FLAGGED_AREA_FRACTION, LARGEST_REGION, LARGEST_INTERIOR_REGION, EDGE_TO_CENTRE_RATIO
     }
 
     private static final Pattern LIFETIME_P = Pattern.compile("p(\\d{1,2}(?:\\.\\d+)?)_lifetime_us");
@@ -40,6 +47,7 @@ public record Figure(String name, Kind kind, double percent) {
             case "median_lifetime_us": return new Figure(name, Kind.MEDIAN_LIFETIME, Double.NaN);
             case "flagged_area_fraction": return new Figure(name, Kind.FLAGGED_AREA_FRACTION, Double.NaN);
             case "largest_region_mm2": return new Figure(name, Kind.LARGEST_REGION, Double.NaN);
+            case "largest_interior_region_mm2": return new Figure(name, Kind.LARGEST_INTERIOR_REGION, Double.NaN);
             case "edge_to_centre_ratio": return new Figure(name, Kind.EDGE_TO_CENTRE_RATIO, Double.NaN);
             default: break;
         }
@@ -52,8 +60,8 @@ public record Figure(String name, Kind kind, double percent) {
             return new Figure(name, Kind.TRAP_DENSITY_PERCENTILE, percent(m.group(1), name));
         }
         throw new IllegalArgumentException("unknown figure; expected harmonic_mean_lifetime_us, median_lifetime_us,"
-                + " pNN_lifetime_us, trap_density_pNN_cm3, flagged_area_fraction, largest_region_mm2 or"
-                + " edge_to_centre_ratio");
+                + " pNN_lifetime_us, trap_density_pNN_cm3, flagged_area_fraction, largest_region_mm2,"
+                + " largest_interior_region_mm2 or edge_to_centre_ratio");
     }
 
     private static double percent(String digits, String name) {
@@ -69,7 +77,7 @@ public record Figure(String name, Kind kind, double percent) {
         return switch (kind) {
             case HARMONIC_MEAN_LIFETIME, MEDIAN_LIFETIME, LIFETIME_PERCENTILE -> "us";
             case TRAP_DENSITY_PERCENTILE -> "cm^-3";
-            case LARGEST_REGION -> "mm²";
+            case LARGEST_REGION, LARGEST_INTERIOR_REGION -> "mm²";
             default -> "";
         };
     }

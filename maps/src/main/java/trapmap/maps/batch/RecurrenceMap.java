@@ -1,6 +1,6 @@
 package trapmap.maps.batch;
 
-import java.util.HashMap;
+import java.util.Arrays;
 import java.util.LinkedHashMap;
 import java.util.Map;
 import java.util.TreeMap;
@@ -18,10 +18,40 @@ import trapmap.maps.raster.PixelGrid;
  * cell over the number of wafers evaluated there. Cells no wafer covers are NaN. Not thread-safe.
  */
 public final class RecurrenceMap {
+    /** Counts of one family on a dense grid of cells that grows to hold every footprint. */
     private static final class Family {
-        final Map<Long, int[]> cells = new HashMap<>();
+        int minI;
+        int minJ;
+        int width;
+        int height;
+        int[] evaluated = new int[0];
+        int[] flagged = new int[0];
         int wafers;
         double pitchMm;
+
+        /** Makes room for cells [i0, i0 + w) × [j0, j0 + h). */
+        void cover(int i0, int j0, int w, int h) {
+            if (width > 0 && i0 >= minI && j0 >= minJ && i0 + w <= minI + width && j0 + h <= minJ + height) {
+                return;
+            }
+            int ni = width == 0 ? i0 : Math.min(minI, i0);
+            int nj = width == 0 ? j0 : Math.min(minJ, j0);
+            int nw = (width == 0 ? i0 + w : Math.max(minI + width, i0 + w)) - ni;
+            int nh = (width == 0 ? j0 + h : Math.max(minJ + height, j0 + h)) - nj;
+            int[] e = new int[nw * nh];
+            int[] f = new int[nw * nh];
+            for (int y = 0; y < height; y++) {
+                int to = (minJ + y - nj) * nw + (minI - ni);
+                System.arraycopy(evaluated, y * width, e, to, width);
+                System.arraycopy(flagged, y * width, f, to, width);
+            }
+            minI = ni;
+            minJ = nj;
+            width = nw;
+            height = nh;
+            evaluated = e;
+            flagged = f;
+        }
     }
 
     private final Map<String, Family> families = new TreeMap<>();
@@ -31,26 +61,23 @@ public final class RecurrenceMap {
         Family fam = families.computeIfAbsent(f.family(), k -> new Family());
         fam.wafers++;
         fam.pitchMm = f.pitchMm();
+        fam.cover(f.minI(), f.minJ(), f.width(), f.height());
+        int di = f.minI() - fam.minI;
+        int dj = f.minJ() - fam.minJ;
         for (int c = f.covered().nextSetBit(0); c >= 0; c = f.covered().nextSetBit(c + 1)) {
-            int i = f.minI() + c % f.width();
-            int j = f.minJ() + c / f.width();
-            int[] n = fam.cells.computeIfAbsent(key(i, j), k -> new int[2]);
-            n[0]++;
+            int at = (dj + c / f.width()) * fam.width + di + c % f.width();
+            fam.evaluated[at]++;
             if (f.flagged().get(c)) {
-                n[1]++;
+                fam.flagged[at]++;
             }
         }
-    }
-
-    private static long key(int i, int j) {
-        return ((long) i << 32) | (j & 0xFFFFFFFFL);
     }
 
     /** One fraction map per family, by family name. */
     public Map<String, WaferMap> maps() {
         Map<String, WaferMap> out = new LinkedHashMap<>();
         families.forEach((name, fam) -> {
-            if (!fam.cells.isEmpty()) {
+            if (Arrays.stream(fam.evaluated).anyMatch(n -> n > 0)) {
                 out.put(name, map(name, fam));
             }
         });
@@ -62,23 +89,28 @@ public final class RecurrenceMap {
         int maxI = Integer.MIN_VALUE;
         int minJ = Integer.MAX_VALUE;
         int maxJ = Integer.MIN_VALUE;
-        for (long k : fam.cells.keySet()) {
-            int i = (int) (k >> 32);
-            int j = (int) k;
-            minI = Math.min(minI, i);
-            maxI = Math.max(maxI, i);
-            minJ = Math.min(minJ, j);
-            maxJ = Math.max(maxJ, j);
+        for (int y = 0; y < fam.height; y++) {
+            for (int x = 0; x < fam.width; x++) {
+                if (fam.evaluated[y * fam.width + x] > 0) {
+                    minI = Math.min(minI, fam.minI + x);
+                    maxI = Math.max(maxI, fam.minI + x);
+                    minJ = Math.min(minJ, fam.minJ + y);
+                    maxJ = Math.max(maxJ, fam.minJ + y);
+                }
+            }
         }
         int w = maxI - minI + 1;
         int h = maxJ - minJ + 1;
         float[] s = new float[w * h];
-        java.util.Arrays.fill(s, Float.NaN);
-        for (Map.Entry<Long, int[]> e : fam.cells.entrySet()) {
-            int i = (int) (e.getKey() >> 32);
-            int j = (int) (long) e.getKey();
-            int[] n = e.getValue();
-            s[(maxJ - j) * w + (i - minI)] = (float) ((double) n[1] / n[0]);
+        Arrays.fill(s, Float.NaN);
+        for (int j = minJ; j <= maxJ; j++) {
+            for (int i = minI; i <= maxI; i++) {
+                int at = (j - fam.minJ) * fam.width + (i - fam.minI);
+                int n = fam.evaluated[at];
+                if (n > 0) {
+                    s[(maxJ - j) * w + (i - minI)] = (float) ((double) fam.flagged[at] / n);
+                }
+            }
         }
         PixelGrid grid = new PixelGrid(w, h, fam.pitchMm, -minI, maxJ);
         return new WaferMap(FloatRaster.wrap(w, h, s), grid, Quantity.FRACTION, "recurrence-" + name,

@@ -6,6 +6,7 @@ import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
+import java.nio.file.FileSystems;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -14,10 +15,12 @@ import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
+import java.util.function.ToDoubleFunction;
 import trapmap.maps.geometry.WaferFormat;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.physics.defect.DefectLibrary;
+import trapmap.physics.material.ConductivityType;
 import trapmap.physics.material.Doping;
 
 /**
@@ -33,17 +36,141 @@ import trapmap.physics.material.Doping;
  * @param edgeBandMm      width of the edge band of {@code edge_to_centre_ratio}, mm (inside the edge exclusion)
  * @param flag            what counts as a flagged pixel and region
  * @param limits          pass/fail limits; a wafer passes when every figure is within its limits
- * @param grades          grades, first matching wins
+ * @param grades          grades of passing wafers, first matching wins
+ * @param failGrade       grade of a wafer that fails a limit ("" for none)
+ * @param profiles        other ways of judging the maps they match (their defect, flag, limits, grades)
  */
 public record Rules(MeasurementConditions conditions, boolean override, String defectId, double edgeExclusionMm,
-                    WaferFormat waferFormat, double edgeBandMm, Flag flag, List<Limit> limits, List<Grade> grades) {
+                    WaferFormat waferFormat, double edgeBandMm, Flag flag, List<Limit> limits, List<Grade> grades,
+                    String failGrade, List<Profile> profiles) {
 
     /** Default width of the edge band of {@code edge_to_centre_ratio}, mm. */
     public static final double DEFAULT_EDGE_BAND_MM = 10;
+    /** Name of the profile made of the top-level defect, flag, limits and grades. */
+    public static final String DEFAULT_PROFILE = "default";
 
     public Rules {
         limits = List.copyOf(limits);
         grades = List.copyOf(grades);
+        failGrade = failGrade == null ? "" : failGrade;
+        profiles = List.copyOf(profiles);
+    }
+
+    /**
+     * Which maps a profile judges: every given condition must hold (none given: never used).
+     *
+     * @param type     conductivity type of the map's doping (after the rules' conditions), or null for any
+     * @param families wafer families (format ids, {@code fitted}, {@code unfitted}), or empty for any
+     * @param file     glob on the file name (not the folder), or null for any
+     */
+    public record Match(ConductivityType type, List<String> families, String file) {
+        public Match {
+            families = List.copyOf(families);
+        }
+
+        /** True when a map of this file name, type and family meets every condition. */
+        public boolean matches(String fileName, ConductivityType mapType, String family) {
+            return (type == null || type == mapType)
+                    && (families.isEmpty() || families.contains(family))
+                    && (file == null || FileSystems.getDefault().getPathMatcher("glob:" + file)
+                            .matches(Path.of(fileName)));
+        }
+    }
+
+    /**
+     * How one kind of wafer is judged: the defect its trap densities are computed for, what is flagged, the
+     * pass/fail limits and the grades. The top level of the rules is the {@value #DEFAULT_PROFILE} profile; entries
+     * of {@code profiles} replace the keys they give for the maps they match.
+     *
+     * @param name      the profile's name, reported per wafer
+     * @param match     the maps it judges (null for the default profile)
+     * @param defectId  defect for trap-density flags and figures, or null
+     * @param flag      flagged pixels and regions
+     * @param limits    pass/fail limits
+     * @param grades    grades of passing wafers, first matching wins
+     * @param failGrade grade of a failed wafer ("" for none)
+     */
+    public record Profile(String name, Match match, String defectId, Flag flag, List<Limit> limits,
+                          List<Grade> grades, String failGrade) {
+        public Profile {
+            limits = List.copyOf(limits);
+            grades = List.copyOf(grades);
+        }
+
+        /** True when a trap-density map is needed: a trap-density flag or figure. */
+        public boolean needsTrapDensity() {
+            return flag.quantity() == FlagQuantity.TRAP_DENSITY
+                    || limits.stream().anyMatch(l -> l.figure().kind() == Figure.Kind.TRAP_DENSITY_PERCENTILE)
+                    || grades.stream().flatMap(g -> g.when().stream())
+                            .anyMatch(l -> l.figure().kind() == Figure.Kind.TRAP_DENSITY_PERCENTILE);
+        }
+
+        /** Every figure this profile uses: the always-reported ones and those its limits and grades name. */
+        public List<Figure> figures() {
+            Set<Figure> s = new LinkedHashSet<>();
+            s.add(Figure.parse("harmonic_mean_lifetime_us"));
+            s.add(Figure.parse("median_lifetime_us"));
+            limits.forEach(l -> s.add(l.figure()));
+            grades.forEach(g -> g.when().forEach(l -> s.add(l.figure())));
+            s.add(Figure.parse("flagged_area_fraction"));
+            s.add(Figure.parse("largest_region_mm2"));
+            return List.copyOf(s);
+        }
+
+        /**
+         * The grade of a wafer with these figures: {@link #failGrade} when it failed a limit, otherwise the first
+         * grade whose limits hold ("" when none does). A failed wafer never gets a passing grade.
+         */
+        public String grade(boolean failed, ToDoubleFunction<Figure> value) {
+            if (failed) {
+                return failGrade;
+            }
+            for (Grade g : grades) {
+                if (g.when().stream().allMatch(l -> l.holds(value.applyAsDouble(l.figure())))) {
+                    return g.grade();
+                }
+            }
+            return "";
+        }
+
+        /**
+         * For a passing wafer, the figures that kept it from a better grade than {@code grade}: of each grade listed
+         * before it, the figures outside that grade's limits (each named once, in order of appearance).
+         */
+        public List<String> missedBy(String grade, ToDoubleFunction<Figure> value) {
+            Set<String> out = new LinkedHashSet<>();
+            for (Grade g : grades) {
+                if (g.grade().equals(grade)) {
+                    break;
+                }
+                g.when().stream().filter(l -> !l.holds(value.applyAsDouble(l.figure())))
+                        .forEach(l -> out.add(l.figure().name()));
+            }
+            return List.copyOf(out);
+        }
+    }
+
+    /** The top-level defect, flag, limits and grades as a profile. */
+    public Profile defaultProfile() {
+        return new Profile(DEFAULT_PROFILE, null, defectId, flag, limits, grades, failGrade);
+    }
+
+    /** The default profile, then the {@code profiles} in file order. */
+    public List<Profile> allProfiles() {
+        List<Profile> all = new ArrayList<>();
+        all.add(defaultProfile());
+        all.addAll(profiles);
+        return all;
+    }
+
+    /** The first profile that matches the map, else the default profile. */
+    public Profile profileFor(String fileName, ConductivityType type, String family) {
+        for (Profile p : profiles) {
+            if (p.match().matches(fileName, type, family)) {
+                return p;
+            }
+        }
+        return defaultProfile();
     }
 
     /** Which side of the threshold is flagged: below for lifetimes, above for trap densities. */
@@ -98,22 +225,19 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         }
     }
 
-    /** Every figure the rules use, in the order they first appear; the CSV columns follow this order. */
+    /**
+     * Every figure of every profile, in the order they first appear (default profile first); the CSV columns follow
+     * this order.
+     */
     public List<Figure> figures() {
         Set<Figure> s = new LinkedHashSet<>();
-        s.add(Figure.parse("harmonic_mean_lifetime_us"));
-        s.add(Figure.parse("median_lifetime_us"));
-        limits.forEach(l -> s.add(l.figure()));
-        grades.forEach(g -> g.when().forEach(l -> s.add(l.figure())));
-        s.add(Figure.parse("flagged_area_fraction"));
-        s.add(Figure.parse("largest_region_mm2"));
+        allProfiles().forEach(p -> s.addAll(p.figures()));
         return List.copyOf(s);
     }
 
-    /** True when a trap-density map is needed: a trap-density flag or figure. */
+    /** True when the default profile needs a trap-density map (a trap-density flag or figure). */
     public boolean needsTrapDensity() {
-        return flag.quantity() == FlagQuantity.TRAP_DENSITY
-                || figures().stream().anyMatch(f -> f.kind() == Figure.Kind.TRAP_DENSITY_PERCENTILE);
+        return defaultProfile().needsTrapDensity();
     }
 
     /** The conditions a map is converted with: the sidecar's, gaps filled from (or, with override, replaced by) these. */
@@ -223,7 +347,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                 throw new RulesException(name + ": the rules must be a JSON object");
             }
             onlyKeys(root, "", new LinkedHashSet<>(List.of("conditions", "defect", "edge_exclusion_mm", "wafer",
-                    "edge_band_mm", "flag", "limits", "grades")));
+                    "edge_band_mm", "flag", "limits", "grades", "fail_grade", "profiles")));
             MeasurementConditions c = MeasurementConditions.UNKNOWN;
             boolean override = false;
             if (root.has("conditions")) {
@@ -258,14 +382,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                 c = new MeasurementConditions(doping, thickness, temperature, injection, generation, srv, null, null,
                         Map.of());
             }
-            String defect = root.has("defect") ? text(root.get("defect"), "defect") : null;
-            if (defect != null) {
-                try {
-                    defect = DefectLibrary.byId(defect).id();
-                } catch (IllegalArgumentException e) {
-                    throw error("defect", e.getMessage(), "");
-                }
-            }
+            String defect = root.has("defect") ? defect(root.get("defect"), "defect") : null;
             double edgeExclusion = root.has("edge_exclusion_mm")
                     ? number(root.get("edge_exclusion_mm"), "edge_exclusion_mm", "mm", 0, 50) : 0;
             double edgeBand = root.has("edge_band_mm")
@@ -286,36 +403,150 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                 throw error("flag", "is required: {\"quantity\": \"lifetime\", \"threshold\": <us>,"
                         + " \"min_area_mm2\": <mm²>}", "");
             }
-            Flag flag = flag(object(root.get("flag"), "flag"));
+            Flag flag = flag(object(root.get("flag"), "flag"), "flag");
             List<Limit> limits = root.has("limits") ? limits(root.get("limits"), "limits") : List.of();
-            List<Grade> grades = root.has("grades") ? grades(root.get("grades")) : List.of();
-            Rules r = new Rules(c, override, defect, edgeExclusion, format, edgeBand, flag, limits, grades);
-            if (defect == null && r.needsTrapDensity()) {
+            List<Grade> grades = root.has("grades") ? grades(root.get("grades"), "grades") : List.of();
+            String failGrade = root.has("fail_grade") ? failGrade(root.get("fail_grade"), "fail_grade", grades)
+                    : "";
+            Profile top = new Profile(DEFAULT_PROFILE, null, defect, flag, limits, grades, failGrade);
+            if (defect == null && top.needsTrapDensity()) {
                 throw error("defect", "is required for trap-density flags and figures (a defect id such as fe-i)",
                         "");
             }
-            return r;
+            List<Profile> profiles = root.has("profiles") ? profiles(root.get("profiles"), top) : List.of();
+            return new Rules(c, override, defect, edgeExclusion, format, edgeBand, flag, limits, grades, failGrade,
+                    profiles);
         }
 
-        Flag flag(JsonNode n) throws RulesException {
-            onlyKeys(n, "flag", new LinkedHashSet<>(List.of("quantity", "threshold", "min_area_mm2")));
-            if (!n.has("quantity")) {
-                throw error("flag.quantity", "is required: lifetime or trap-density", "");
+        String defect(JsonNode node, String path) throws RulesException {
+            String id = text(node, path);
+            try {
+                return DefectLibrary.byId(id).id();
+            } catch (IllegalArgumentException e) {
+                throw error(path, e.getMessage(), "");
             }
-            String q = text(n.get("quantity"), "flag.quantity");
+        }
+
+        String failGrade(JsonNode node, String path, List<Grade> grades) throws RulesException {
+            String g = text(node, path);
+            if (grades.stream().anyMatch(x -> x.grade().equals(g))) {
+                throw error(path, "'" + g + "' is also a grade of passing wafers; a failed wafer needs its own grade",
+                        "");
+            }
+            return g;
+        }
+
+        List<Profile> profiles(JsonNode node, Profile top) throws RulesException {
+            if (!node.isArray()) {
+                throw error("profiles", "must be an array of {\"name\": text, \"match\": {...}, ...}", "");
+            }
+            List<Profile> out = new ArrayList<>();
+            Set<String> names = new LinkedHashSet<>(List.of(DEFAULT_PROFILE));
+            for (int i = 0; i < node.size(); i++) {
+                String p = "profiles[" + i + "]";
+                JsonNode n = object(node.get(i), p);
+                onlyKeys(n, p, new LinkedHashSet<>(List.of("name", "match", "defect", "flag", "limits", "grades",
+                        "fail_grade")));
+                if (!n.has("name")) {
+                    throw error(p + ".name", "is required", "");
+                }
+                String name = text(n.get("name"), p + ".name");
+                if (!names.add(name)) {
+                    throw error(p + ".name", "'" + name + "' is given twice (" + DEFAULT_PROFILE
+                            + " is the top level)", "");
+                }
+                if (!n.has("match")) {
+                    throw error(p + ".match", "is required: {\"type\": \"p\"|\"n\", \"wafer\": [format ids],"
+                            + " \"file\": glob}", "");
+                }
+                Match match = match(object(n.get("match"), p + ".match"), p + ".match");
+                String defect = n.has("defect") ? defect(n.get("defect"), p + ".defect") : top.defectId();
+                Flag flag = n.has("flag") ? flag(object(n.get("flag"), p + ".flag"), p + ".flag") : top.flag();
+                List<Limit> limits = n.has("limits") ? limits(n.get("limits"), p + ".limits") : top.limits();
+                List<Grade> grades = n.has("grades") ? grades(n.get("grades"), p + ".grades") : top.grades();
+                String failGrade = n.has("fail_grade") ? failGrade(n.get("fail_grade"), p + ".fail_grade", grades)
+                        : top.failGrade();
+                if (!n.has("fail_grade") && grades.stream().anyMatch(g -> g.grade().equals(failGrade))) {
+                    throw error(p + ".fail_grade", "the inherited '" + failGrade + "' is also a grade of passing"
+                            + " wafers here", "");
+                }
+                Profile profile = new Profile(name, match, defect, flag, limits, grades, failGrade);
+                if (defect == null && profile.needsTrapDensity()) {
+                    throw error(p + ".defect", "is required for trap-density flags and figures (a defect id such"
+                            + " as midgap)", "");
+                }
+                out.add(profile);
+            }
+            return out;
+        }
+
+        Match match(JsonNode n, String p) throws RulesException {
+            onlyKeys(n, p, new LinkedHashSet<>(List.of("type", "wafer", "file")));
+            if (n.isEmpty()) {
+                throw error(p, "needs type, wafer, file or several", "");
+            }
+            ConductivityType type = null;
+            if (n.has("type")) {
+                String t = text(n.get("type"), p + ".type");
+                type = switch (t) {
+                    case "p" -> ConductivityType.P;
+                    case "n" -> ConductivityType.N;
+                    default -> throw error(p + ".type", "must be p or n but was '" + t + "'", "");
+                };
+            }
+            List<String> families = new ArrayList<>();
+            if (n.has("wafer")) {
+                JsonNode w = n.get("wafer");
+                List<JsonNode> items = new ArrayList<>();
+                if (w.isArray()) {
+                    w.forEach(items::add);
+                } else {
+                    items.add(w);
+                }
+                if (items.isEmpty()) {
+                    throw error(p + ".wafer", "must name at least one format", "");
+                }
+                for (JsonNode item : items) {
+                    String id = text(item, p + ".wafer");
+                    if (!id.equals("fitted") && !id.equals("unfitted") && !WaferFormat.ids().contains(id)) {
+                        throw error(p + ".wafer", "'" + id + "' is not a known format (" + String.join(", ",
+                                WaferFormat.ids()) + ", fitted, unfitted)", "");
+                    }
+                    families.add(id);
+                }
+            }
+            String file = null;
+            if (n.has("file")) {
+                file = text(n.get("file"), p + ".file");
+                try {
+                    FileSystems.getDefault().getPathMatcher("glob:" + file);
+                } catch (RuntimeException e) {
+                    throw error(p + ".file", "not a valid glob: " + e.getMessage(), "");
+                }
+            }
+            return new Match(type, families, file);
+        }
+
+        Flag flag(JsonNode n, String path) throws RulesException {
+            onlyKeys(n, path, new LinkedHashSet<>(List.of("quantity", "threshold", "min_area_mm2")));
+            if (!n.has("quantity")) {
+                throw error(path + ".quantity", "is required: lifetime or trap-density", "");
+            }
+            String q = text(n.get("quantity"), path + ".quantity");
             FlagQuantity quantity = switch (q) {
                 case "lifetime" -> FlagQuantity.LIFETIME;
                 case "trap-density" -> FlagQuantity.TRAP_DENSITY;
-                default -> throw error("flag.quantity", "must be lifetime or trap-density but was '" + q + "'", "");
+                default -> throw error(path + ".quantity", "must be lifetime or trap-density but was '" + q + "'",
+                        "");
             };
             if (!n.has("threshold")) {
-                throw error("flag.threshold", "is required", quantity.unit());
+                throw error(path + ".threshold", "is required", quantity.unit());
             }
             double t = quantity == FlagQuantity.LIFETIME
-                    ? number(n.get("threshold"), "flag.threshold", "us", 1e-6, 1e6)
-                    : number(n.get("threshold"), "flag.threshold", "cm^-3", 1, 1e20);
+                    ? number(n.get("threshold"), path + ".threshold", "us", 1e-6, 1e6)
+                    : number(n.get("threshold"), path + ".threshold", "cm^-3", 1, 1e20);
             double minArea = n.has("min_area_mm2")
-                    ? number(n.get("min_area_mm2"), "flag.min_area_mm2", "mm²", 0, 1e6) : 0;
+                    ? number(n.get("min_area_mm2"), path + ".min_area_mm2", "mm²", 0, 1e6) : 0;
             return new Flag(quantity, t, minArea);
         }
 
@@ -346,14 +577,14 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
             return out;
         }
 
-        List<Grade> grades(JsonNode node) throws RulesException {
+        List<Grade> grades(JsonNode node, String path) throws RulesException {
             if (!node.isArray()) {
-                throw error("grades", "must be an array of {\"grade\": text, \"when\": {limits}}", "");
+                throw error(path, "must be an array of {\"grade\": text, \"when\": {limits}}", "");
             }
             List<Grade> out = new ArrayList<>();
             Set<String> seen = new LinkedHashSet<>();
             for (int i = 0; i < node.size(); i++) {
-                String p = "grades[" + i + "]";
+                String p = path + "[" + i + "]";
                 JsonNode g = object(node.get(i), p);
                 onlyKeys(g, p, new LinkedHashSet<>(List.of("grade", "when")));
                 if (!g.has("grade")) {

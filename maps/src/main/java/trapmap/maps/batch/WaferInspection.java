@@ -4,17 +4,25 @@ import java.awt.image.BufferedImage;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.BitSet;
+import java.util.Collections;
+import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import javax.imageio.IIOImage;
 import javax.imageio.ImageIO;
+import javax.imageio.ImageWriteParam;
+import javax.imageio.ImageWriter;
+import javax.imageio.stream.ImageOutputStream;
 import trapmap.maps.geometry.OutlineDetection;
 import trapmap.maps.geometry.OutlineFit;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.MapFormatException;
 import trapmap.maps.io.PngStyle;
+import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.ConversionSettings;
@@ -22,19 +30,24 @@ import trapmap.maps.process.MapConversion;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
-import trapmap.maps.region.Region;
 import trapmap.maps.region.RegionCriteria;
-import trapmap.maps.region.RegionTable;
-import trapmap.maps.region.ThresholdRegions;
 import trapmap.maps.stats.MapStatistics;
-import trapmap.maps.stats.StatisticsRequest;
+import trapmap.physics.conversion.Conditions;
+import trapmap.physics.conversion.ConversionOutput;
+import trapmap.physics.conversion.TrapDensityConverter;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.defect.DefectLibrary;
+import trapmap.physics.material.Doping;
 
 /**
- * Inspects one wafer map against {@link Rules}: reads it, applies the rules' conditions, converts it to trap density
- * when the rules need that, evaluates every figure over the wafer less the edge exclusion, finds the flagged regions
- * and decides pass/fail and the grade. Thread-safe; one call holds one map.
+ * Inspects one wafer map against {@link Rules}: reads it, applies the rules' conditions, fits its outline, picks the
+ * rules profile that matches it (conductivity type, wafer family, file name), converts it to trap density of that
+ * profile's defect when needed, evaluates every figure over the wafer less the edge exclusion, finds the flagged
+ * regions and decides pass/fail and the grade. Thread-safe; one call holds one map.
+ *
+ * <p>Per-pixel work is kept to single passes over the evaluated pixels; each shortcut gives what the general class
+ * gives (masks, regions, figures, trap density) or, for the outline of a large map, stays within a tolerance the
+ * tests state.
  *
  * <p>Nothing a file can contain makes {@link #inspect} throw: an unreadable file, a map of the wrong quantity or
  * missing conditions give an {@link WaferResult.Status#ERROR error} result with a one-line reason.
@@ -46,6 +59,8 @@ public final class WaferInspection {
     public static final int THUMBNAIL_PX = 256;
     /** Colour of flagged-region outlines in thumbnails (opaque magenta, ARGB). */
     public static final int OUTLINE_ARGB = 0xFFFF00FF;
+    /** Width of the outline around flagged regions in thumbnails, px. */
+    public static final int OUTLINE_PX = 2;
 
     /** Reads one map; {@link MapFiles#readSingle(Path)} unless a test counts the reads. */
     @FunctionalInterface
@@ -53,9 +68,13 @@ public final class WaferInspection {
         WaferMap read(Path file) throws IOException;
     }
 
+    /** Percentiles of the evaluated lifetimes that span a thumbnail's colours. */
+    static final double THUMBNAIL_LOW_PERCENT = 1;
+    static final double THUMBNAIL_HIGH_PERCENT = 99;
+
     private final Rules rules;
     private final MapReader reader;
-    private final Defect defect;
+    private final Map<String, Defect> defects = new HashMap<>();
 
     public WaferInspection(Rules rules) {
         this(rules, MapFiles::readSingle);
@@ -64,7 +83,11 @@ public final class WaferInspection {
     public WaferInspection(Rules rules, MapReader reader) {
         this.rules = rules;
         this.reader = reader;
-        this.defect = rules.defectId() == null ? null : DefectLibrary.byId(rules.defectId());
+        for (Rules.Profile p : rules.allProfiles()) {
+            if (p.defectId() != null) {
+                defects.put(p.defectId(), DefectLibrary.byId(p.defectId()));
+            }
+        }
     }
 
     /** Inspects one file; see {@link #inspect(Path, Path)}. */
@@ -102,6 +125,20 @@ public final class WaferInspection {
 
     /** Evaluates a map already read; {@code name} is reported as its file. */
     public WaferResult evaluate(String name, WaferMap read, Path thumbnail) {
+        return evaluation(name, read, thumbnail).result();
+    }
+
+    /**
+     * What an evaluation worked with, besides its result: the lifetime map, the trap-density map (null when the
+     * profile needs none), the wafer outline (null when none was fitted), the evaluated pixels and the flagged
+     * regions with their pixels.
+     */
+    record Evaluation(WaferResult result, WaferMap lifetime, WaferMap density, WaferShape shape,
+                      boolean[] evaluated, FlaggedRegions regions) {
+    }
+
+    /** As {@link #evaluate}, keeping the intermediate maps. */
+    Evaluation evaluation(String name, WaferMap read, Path thumbnail) {
         WaferMap map = read.withConditions(rules.applyTo(read.conditions()));
         WaferMap lifetime = switch (map.quantity()) {
             case EFFECTIVE_LIFETIME -> map;
@@ -109,10 +146,8 @@ public final class WaferInspection {
             default -> throw new IllegalArgumentException("a " + map.quantity().key()
                     + " map cannot be inspected; expected an effective-lifetime or PL-counts map");
         };
-        WaferMap density = rules.needsTrapDensity()
-                ? MapConversion.convert(lifetime, defect, ConversionSettings.DEFAULTS, 1).get(Quantity.TRAP_DENSITY)
-                : null;
         PixelGrid grid = lifetime.grid();
+        float[] tau = lifetime.raster().samples();
 
         String family;
         WaferShape shape;
@@ -122,7 +157,7 @@ public final class WaferInspection {
         } else {
             OutlineFit fit;
             try {
-                fit = OutlineDetection.fit(lifetime.raster(), grid);
+                fit = fitOutline(tau, grid);
             } catch (RuntimeException e) {
                 fit = null;
                 if (rules.edgeExclusionMm() > 0 || usesEdgeRatio()) {
@@ -135,24 +170,31 @@ public final class WaferInspection {
                     : fit.closestFormat() != null && fit.closestFormat().withinTolerance()
                     ? fit.closestFormat().format().id() : "fitted";
         }
-        Mask mask = Mask.valid(lifetime.raster());
-        if (shape != null) {
-            mask = mask.and(shape.mask(grid, rules.edgeExclusionMm()));
-        }
+        Doping doping = map.conditions().doping();
+        Rules.Profile profile = rules.profileFor(Path.of(name).getFileName().toString(),
+                doping == null ? null : doping.type(), family);
+        WaferMap density = profile.needsTrapDensity() ? trapDensity(lifetime, defects.get(profile.defectId())) : null;
 
-        List<Figure> figures = rules.figures();
-        MapStatistics life = MapStatistics.of(lifetime, mask, StatisticsRequest.of(percents(figures,
-                Figure.Kind.LIFETIME_PERCENTILE)));
-        MapStatistics dens = density == null ? null : MapStatistics.of(density, mask.and(Mask.valid(
-                density.raster())), StatisticsRequest.of(percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE)));
+        List<Figure> figures = profile.figures();
+        boolean edgeRatio = figures.stream().anyMatch(f -> f.kind() == Figure.Kind.EDGE_TO_CENTRE_RATIO);
+        Masks masks = masks(tau, grid, shape, rules.edgeExclusionMm(),
+                edgeRatio ? rules.edgeExclusionMm() + rules.edgeBandMm() : Double.NaN);
+        double[] lifePercents = percents(figures, Figure.Kind.LIFETIME_PERCENTILE);
+        double[] withRange = Arrays.copyOf(lifePercents, lifePercents.length + 2);
+        withRange[lifePercents.length] = THUMBNAIL_LOW_PERCENT;
+        withRange[lifePercents.length + 1] = THUMBNAIL_HIGH_PERCENT;
+        Sample life = Sample.of(tau, masks, grid, thumbnail == null ? lifePercents : withRange);
+        Sample dens = density == null ? null : Sample.of(density.raster().samples(), masks, grid,
+                percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE), false);
 
-        Rules.Flag flag = rules.flag();
+        Rules.Flag flag = profile.flag();
         WaferMap flagMap = flag.quantity() == Rules.FlagQuantity.LIFETIME ? lifetime : density;
         RegionCriteria criteria = flag.quantity() == Rules.FlagQuantity.LIFETIME
                 ? RegionCriteria.below(flag.threshold(), flag.minAreaMm2())
                 : RegionCriteria.above(flag.threshold(), flag.minAreaMm2());
-        RegionTable regions = ThresholdRegions.find(flagMap, mask, criteria, shape);
-        Region worst = regions.size() == 0 ? null : regions.byArea().get(0);
+        FlaggedRegions regions = FlaggedRegions.find(flagMap.raster(), grid, masks.indices(), masks.count(), criteria,
+                shape, density == null ? null : density.raster().samples());
+        FlaggedRegions.FlaggedRegion worst = regions.largest();
         double flaggedFraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
 
         Map<String, Double> values = new LinkedHashMap<>();
@@ -163,93 +205,311 @@ public final class WaferInspection {
                 case LIFETIME_PERCENTILE -> life.percentile(f.percent());
                 case TRAP_DENSITY_PERCENTILE -> dens.percentile(f.percent());
                 case FLAGGED_AREA_FRACTION -> flaggedFraction;
-                case LARGEST_REGION -> worst == null ? 0 : worst.areaMm2();
-                case EDGE_TO_CENTRE_RATIO -> edgeToCentre(lifetime, mask, shape);
+                case LARGEST_REGION -> worst == null ? 0 : worst.region().areaMm2();
+                case LARGEST_INTERIOR_REGION -> largestInterior(regions, shape, grid);
+                case EDGE_TO_CENTRE_RATIO -> edgeToCentre(tau, masks);
             };
             values.put(f.name(), v);
         }
         List<String> failed = new ArrayList<>();
-        for (Rules.Limit l : rules.limits()) {
+        for (Rules.Limit l : profile.limits()) {
             if (!l.holds(values.get(l.figure().name()))) {
                 failed.add(l.figure().name());
             }
         }
-        String grade = "";
-        for (Rules.Grade g : rules.grades()) {
-            if (g.when().stream().allMatch(l -> l.holds(values.get(l.figure().name())))) {
-                grade = g.grade();
-                break;
+        String grade = profile.grade(!failed.isEmpty(), f -> values.get(f.name()));
+        List<String> missed = failed.isEmpty() ? profile.missedBy(grade, f -> values.get(f.name())) : List.of();
+        Footprint footprint = footprint(family, grid, masks.evaluated(), regions.pixels());
+        if (thumbnail != null) {
+            writeThumbnail(lifetime, regions.pixels(), life.percentile(THUMBNAIL_LOW_PERCENT),
+                    life.percentile(THUMBNAIL_HIGH_PERCENT), thumbnail);
+        }
+        WaferResult result = new WaferResult(name, map.waferId(), failed.isEmpty() ? WaferResult.Status.PASS
+                : WaferResult.Status.FAIL, grade, profile.name(), profile.defectId(), values, failed,
+                missed, regions.regions(), "", footprint);
+        return new Evaluation(result, lifetime, density, shape, masks.evaluated(), regions);
+    }
+
+    /**
+     * The trap-density map of {@link MapConversion#convert} with the default settings (same conditions, same
+     * converter, same values), without the other quantities that conversion also stores: the batch needs only this
+     * one, and the other five maps would be allocated and filled for every wafer.
+     */
+    static WaferMap trapDensity(WaferMap lifetime, Defect defect) {
+        Conditions conditions = MapConversion.physicsConditions(lifetime.conditions(), ConversionSettings.DEFAULTS);
+        float[] nt = new float[lifetime.raster().size()];
+        new TrapDensityConverter(conditions, defect).convert(lifetime.raster().samples(), lifetime.width(),
+                new ConversionOutput(nt, null, null, null, null, null, null, null, null), 1);
+        return lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), nt), Quantity.TRAP_DENSITY,
+                ProcessingStep.of("convert", "defect", defect.id(), "doping", conditions.doping().toString(),
+                        "injection", conditions.injection().toString()));
+    }
+
+    /** See {@link Figure.Kind#LARGEST_INTERIOR_REGION}; NaN without an outline. */
+    private double largestInterior(FlaggedRegions regions, WaferShape shape, PixelGrid grid) {
+        if (shape == null) {
+            return Double.NaN;
+        }
+        double border = rules.edgeExclusionMm() + Math.max(Figure.INTERIOR_MARGIN_MM, grid.pitchMm());
+        double largest = 0;
+        for (FlaggedRegions.FlaggedRegion r : regions.regions()) {
+            if (r.region().edgeDistanceMm() > border) {
+                largest = Math.max(largest, r.region().areaMm2());
             }
         }
-        BitSet flaggedPixels = flaggedPixels(flagMap.raster(), grid, mask, criteria);
-        Footprint footprint = footprint(family, grid, mask, flaggedPixels);
-        if (thumbnail != null) {
-            writeThumbnail(lifetime, flaggedPixels, thumbnail);
-        }
-        return new WaferResult(name, map.waferId(), failed.isEmpty() ? WaferResult.Status.PASS
-                : WaferResult.Status.FAIL, grade, values, failed, worst, "", footprint);
+        return largest;
     }
 
     private boolean usesEdgeRatio() {
         return rules.figures().stream().anyMatch(f -> f.kind() == Figure.Kind.EDGE_TO_CENTRE_RATIO);
     }
 
-    private double edgeToCentre(WaferMap lifetime, Mask mask, WaferShape shape) {
-        Mask centre = mask.and(shape.mask(lifetime.grid(), rules.edgeExclusionMm() + rules.edgeBandMm()));
-        Mask edge = mask.and(centre.not());
-        StatisticsRequest none = StatisticsRequest.of(new double[0]);
-        double e = MapStatistics.of(lifetime, edge, none).harmonicMean();
-        double c = MapStatistics.of(lifetime, centre, none).harmonicMean();
+    /** Size, px, that block reduction brings a large map's validity mask down to for the outline fit. */
+    static final int FIT_PX = 160;
+
+    /**
+     * The outline of the valid pixels. A map of fewer than 2·{@link #FIT_PX} pixels along its longer side is fitted as
+     * it is; a larger one on its validity mask reduced by k×k blocks, k = ⌊side / FIT_PX⌋ (a block is valid when at
+     * least half of its pixels are), on a grid of k times the pitch with the same wafer coordinates. The outline then
+     * rests on edge points k pixels apart, hundreds of them: at 1024² (k = 6) the fitted centre and size stay within
+     * a small fraction of a pixel of the full-resolution fit (checked by the tests) at a thirtieth of the cost.
+     */
+    public static OutlineFit fitOutline(float[] tau, PixelGrid grid) {
+        int w = grid.width();
+        int h = grid.height();
+        int k = Math.max(w, h) / FIT_PX;
+        if (k <= 1) {
+            return OutlineDetection.fit(Mask.of(w, h, i -> tau[i] == tau[i]), grid);
+        }
+        int cw = w / k;
+        int ch = h / k;
+        int[] block = new int[cw * k];
+        for (int x = 0; x < block.length; x++) {
+            block[x] = x / k;
+        }
+        int[] counts = new int[cw * ch];
+        for (int y = 0; y < ch * k; y++) {
+            int row = (y / k) * cw;
+            int base = y * w;
+            for (int x = 0; x < cw * k; x++) {
+                float v = tau[base + x];
+                if (v == v) {
+                    counts[row + block[x]]++;
+                }
+            }
+        }
+        int half = (k * k + 1) / 2;
+        boolean[] valid = new boolean[cw * ch];
+        for (int i = 0; i < valid.length; i++) {
+            valid[i] = counts[i] >= half;
+        }
+        PixelGrid coarse = new PixelGrid(cw, ch, grid.pitchMm() * k, (grid.centreXPx() - (k - 1) / 2.0) / k,
+                (grid.centreYPx() - (k - 1) / 2.0) / k);
+        return FIT_CACHE.fit(valid, coarse);
+    }
+
+    /** Fitted outlines of the last few validity masks seen (see {@link FitCache}). */
+    private static final FitCache FIT_CACHE = new FitCache(16);
+
+    /**
+     * The outline fit is a pure function of the validity mask and its grid, and the maps of one tool often share
+     * their reduced mask exactly (same stage, same crop): the last {@code capacity} fits are kept, keyed by the mask's
+     * bits and the grid, and a mask equal to one of them reuses its fit. Thread-safe.
+     */
+    static final class FitCache {
+        private record Key(int hash, boolean[] valid, PixelGrid grid) {
+            @Override
+            public boolean equals(Object o) {
+                return o instanceof Key k && k.hash == hash && k.grid.equals(grid)
+                        && Arrays.equals(k.valid, valid);
+            }
+
+            @Override
+            public int hashCode() {
+                return hash;
+            }
+        }
+
+        private final Map<Key, OutlineFit> fits;
+
+        FitCache(int capacity) {
+            fits = Collections.synchronizedMap(new LinkedHashMap<>(capacity, 0.75f, true) {
+                @Override
+                protected boolean removeEldestEntry(Map.Entry<Key, OutlineFit> eldest) {
+                    return size() > capacity;
+                }
+            });
+        }
+
+        OutlineFit fit(boolean[] valid, PixelGrid grid) {
+            Key key = new Key(31 * Arrays.hashCode(valid) + grid.hashCode(), valid, grid);
+            OutlineFit fit = fits.get(key);
+            if (fit == null) {
+                fit = OutlineDetection.fit(Mask.of(grid.width(), grid.height(), i -> valid[i]), grid);
+                fits.put(key, fit);
+            }
+            return fit;
+        }
+    }
+
+    /**
+     * The evaluated pixels (valid and at least the edge exclusion inside the outline), also as ascending indices
+     * ({@code indices[0..count)}), and, when asked for, the centre pixels of {@code edge_to_centre_ratio} (null
+     * otherwise).
+     */
+    record Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre) {
+    }
+
+    /**
+     * The masks of {@link Masks}: {@code evaluated} holds exactly the pixels of
+     * {@code Mask.valid(raster).and(shape.mask(grid, exclusionMm))}, {@code centre} those at least {@code centreMm}
+     * inside (NaN: none asked for). The distance to the outline changes by at most the distance moved (it is
+     * 1-Lipschitz), so after one exact distance d the next pixels of the row up to |d − e| away lie on the same side
+     * of every threshold e and are filled without being computed; only pixels near a threshold are computed one by
+     * one.
+     */
+    static Masks masks(float[] tau, PixelGrid grid, WaferShape shape, double exclusionMm, double centreMm) {
+        int w = grid.width();
+        int h = grid.height();
+        boolean[] in = new boolean[w * h];
+        boolean[] centre = Double.isNaN(centreMm) ? null : new boolean[w * h];
+        int[] indices = new int[w * h];
+        int count = 0;
+        if (shape == null) {
+            for (int i = 0; i < in.length; i++) {
+                if (tau[i] == tau[i]) {
+                    in[i] = true;
+                    indices[count++] = i;
+                }
+            }
+            return new Masks(in, indices, count, centre);
+        }
+        WaferShape.Prepared p = shape.prepared();
+        double pitch = grid.pitchMm();
+        double slack = 1e-7; // mm, far above the rounding of the distance and coordinates
+        for (int y = 0; y < h; y++) {
+            double ym = grid.yMm(y);
+            int row = y * w;
+            int x = 0;
+            while (x < w) {
+                double d = p.distanceToEdgeMm(grid.xMm(x), ym);
+                boolean inside = d >= exclusionMm;
+                boolean central = centre != null && d >= centreMm;
+                double margin = Math.abs(d - exclusionMm);
+                if (centre != null) {
+                    margin = Math.min(margin, Math.abs(d - centreMm));
+                }
+                int run = margin > slack ? 1 + (int) Math.min(w, Math.floor((margin - slack) / pitch)) : 1;
+                int end = Math.min(w, x + run);
+                if (!inside) {
+                    x = end;
+                    continue;
+                }
+                for (; x < end; x++) {
+                    int i = row + x;
+                    if (tau[i] == tau[i]) {
+                        in[i] = true;
+                        indices[count++] = i;
+                        if (central) {
+                            centre[i] = true;
+                        }
+                    }
+                }
+            }
+        }
+        return new Masks(in, indices, count, centre);
+    }
+
+    /** A Mask of the same pixels as a boolean array. */
+    static Mask mask(boolean[] in, PixelGrid grid) {
+        return Mask.of(grid.width(), grid.height(), i -> in[i]);
+    }
+
+    /**
+     * Harmonic-mean lifetime of the evaluated pixels outside the centre over that of those inside, each over the
+     * positive lifetimes in index order (as {@link MapStatistics#harmonicMean()} sums them).
+     */
+    static double edgeToCentre(float[] tau, Masks masks) {
+        double edgeSum = 0;
+        double centreSum = 0;
+        int edgeCount = 0;
+        int centreCount = 0;
+        int[] idx = masks.indices();
+        boolean[] centre = masks.centre();
+        for (int k = 0, n = masks.count(); k < n; k++) {
+            int i = idx[k];
+            double v = tau[i];
+            if (v > 0) {
+                if (centre[i]) {
+                    centreSum += 1 / v;
+                    centreCount++;
+                } else {
+                    edgeSum += 1 / v;
+                    edgeCount++;
+                }
+            }
+        }
+        double e = edgeCount == 0 ? Double.NaN : edgeCount / edgeSum;
+        double c = centreCount == 0 ? Double.NaN : centreCount / centreSum;
         return e / c;
+    }
+
+    /**
+     * The figures of one map over the evaluated pixels, equal to those of {@link MapStatistics#of} over the same
+     * pixels: the count of valid (not NaN) values, their area, the harmonic mean of the positive values (reciprocals
+     * summed in index order) and type-7 percentiles from the same exact order statistics
+     * ({@link MapStatistics#percentiles}), in one pass without the figures the batch does not use.
+     */
+    record Sample(int count, double areaMm2, double harmonicMean, double median, double[] percents,
+                  double[] values) {
+        static Sample of(float[] s, Masks masks, PixelGrid grid, double[] percents) {
+            return of(s, masks, grid, percents, true);
+        }
+
+        /** As {@link #of(float[], Masks, PixelGrid, double[])}; without the harmonic mean (NaN) unless asked for. */
+        static Sample of(float[] s, Masks masks, PixelGrid grid, double[] percents, boolean harmonic) {
+            int[] idx = masks.indices();
+            int n = masks.count();
+            float[] v = new float[n];
+            int m = 0;
+            int positive = 0;
+            double reciprocalSum = 0;
+            for (int k = 0; k < n; k++) {
+                float f = s[idx[k]];
+                if (f == f) {
+                    v[m++] = f;
+                    if (harmonic && f > 0) {
+                        reciprocalSum += 1 / (double) f;
+                        positive++;
+                    }
+                }
+            }
+            double[] wanted = Arrays.copyOf(percents, percents.length + 1);
+            wanted[percents.length] = 50;
+            double[] est = MapStatistics.percentiles(v, m, wanted);
+            return new Sample(m, m * grid.pixelAreaMm2(), positive == 0 ? Double.NaN : positive / reciprocalSum,
+                    est[percents.length], percents.clone(), Arrays.copyOf(est, percents.length));
+        }
+
+        /** The estimate of a requested percentile (or 50). */
+        double percentile(double percent) {
+            if (percent == 50) {
+                return median;
+            }
+            for (int k = 0; k < percents.length; k++) {
+                if (percents[k] == percent) {
+                    return values[k];
+                }
+            }
+            throw new IllegalArgumentException("percentile " + percent + " was not requested");
+        }
     }
 
     private static double[] percents(List<Figure> figures, Figure.Kind kind) {
         return figures.stream().filter(f -> f.kind() == kind).mapToDouble(Figure::percent).toArray();
     }
 
-    /** Pixels of the 8-connected groups of selected pixels whose area reaches the criteria's minimum. */
-    public static BitSet flaggedPixels(FloatRaster raster, PixelGrid grid, Mask mask, RegionCriteria criteria) {
-        int w = raster.width();
-        int h = raster.height();
-        float[] s = raster.samples();
-        BitSet open = new BitSet(s.length);
-        for (int i = 0; i < s.length; i++) {
-            if (mask.containsIndex(i) && criteria.selects(s[i])) {
-                open.set(i);
-            }
-        }
-        BitSet kept = new BitSet(s.length);
-        int[] queue = new int[Math.max(16, open.cardinality())];
-        for (int seed = open.nextSetBit(0); seed >= 0; seed = open.nextSetBit(seed + 1)) {
-            open.clear(seed);
-            int head = 0;
-            int tail = 0;
-            queue[tail++] = seed;
-            while (head < tail) {
-                int i = queue[head++];
-                int x = i % w;
-                int y = i / w;
-                for (int dy = -1; dy <= 1; dy++) {
-                    for (int dx = -1; dx <= 1; dx++) {
-                        int nx = x + dx;
-                        int ny = y + dy;
-                        if (nx >= 0 && ny >= 0 && nx < w && ny < h && open.get(ny * w + nx)) {
-                            open.clear(ny * w + nx);
-                            queue[tail++] = ny * w + nx;
-                        }
-                    }
-                }
-            }
-            if (tail * grid.pixelAreaMm2() >= criteria.minAreaMm2()) {
-                for (int k = 0; k < tail; k++) {
-                    kept.set(queue[k]);
-                }
-            }
-        }
-        return kept;
-    }
-
-    static Footprint footprint(String family, PixelGrid grid, Mask mask, BitSet flagged) {
+    static Footprint footprint(String family, PixelGrid grid, boolean[] evaluated, BitSet flagged) {
         double p = FOOTPRINT_PITCH_MM;
         int w = grid.width();
         int h = grid.height();
@@ -259,20 +519,29 @@ public final class WaferInspection {
         int j1 = cell(Math.max(grid.yMm(0), grid.yMm(h - 1)), p);
         int cw = i1 - i0 + 1;
         int ch = j1 - j0 + 1;
+        int[] column = new int[w];
+        for (int x = 0; x < w; x++) {
+            column[x] = cell(grid.xMm(x), p) - i0;
+        }
         BitSet covered = new BitSet(cw * ch);
         BitSet hit = new BitSet(cw * ch);
         for (int y = 0; y < h; y++) {
-            int j = cell(grid.yMm(y), p) - j0;
+            int rowCell = (cell(grid.yMm(y), p) - j0) * cw;
+            int row = y * w;
+            int last = -1;
             for (int x = 0; x < w; x++) {
-                int idx = y * w + x;
-                if (mask.containsIndex(idx)) {
-                    int c = j * cw + cell(grid.xMm(x), p) - i0;
-                    covered.set(c);
-                    if (flagged.get(idx)) {
-                        hit.set(c);
+                if (evaluated[row + x]) {
+                    int c = rowCell + column[x];
+                    if (c != last) {
+                        covered.set(c);
+                        last = c;
                     }
                 }
             }
+        }
+        for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
+            int y = i / w;
+            hit.set((cell(grid.yMm(y), p) - j0) * cw + column[i - y * w]); // flagged pixels are evaluated ones
         }
         return new Footprint(family, p, i0, j0, cw, ch, covered, hit);
     }
@@ -282,47 +551,110 @@ public final class WaferInspection {
     }
 
     /**
-     * A thumbnail of at most {@link #THUMBNAIL_PX} px a side: the map's picture sampled at the centre of each block
-     * of pixels, with the border of the flagged regions drawn in {@link #OUTLINE_ARGB}.
+     * A thumbnail of {@link #THUMBNAIL_PX} px along its longer side (smaller maps are enlarged): the map sampled at
+     * the centre of each thumbnail pixel (nearest neighbour), drawn in the default colours over
+     * {@code [lowUs, highUs]} (NaN: the picture's own range), with a line {@link #OUTLINE_PX} px wide in
+     * {@link #OUTLINE_ARGB} drawn just outside each flagged region, so that the region itself keeps its colours. A
+     * thumbnail pixel counts as flagged when any map pixel in it is flagged, so no region is too small to be seen.
      */
-    static BufferedImage thumbnail(WaferMap map, BitSet flagged) {
-        BufferedImage full = MapFiles.picture(map, PngStyle.DEFAULT);
+    static BufferedImage thumbnail(WaferMap map, BitSet flagged, double lowUs, double highUs) {
         int w = map.width();
         int h = map.height();
-        int k = Math.max(1, (Math.max(w, h) + THUMBNAIL_PX - 1) / THUMBNAIL_PX);
-        int tw = (w + k - 1) / k;
-        int th = (h + k - 1) / k;
-        boolean[] block = new boolean[tw * th];
-        for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
-            block[(i / w / k) * tw + (i % w) / k] = true;
+        double scale = (double) Math.max(w, h) / THUMBNAIL_PX; // map pixels per thumbnail pixel
+        int tw = Math.max(1, (int) Math.round(w / scale));
+        int th = Math.max(1, (int) Math.round(h / scale));
+        int[] sx = new int[tw];
+        int[] sy = new int[th];
+        for (int tx = 0; tx < tw; tx++) {
+            sx[tx] = Math.min(w - 1, (int) ((tx + 0.5) * scale));
         }
-        BufferedImage out = new BufferedImage(tw, th, BufferedImage.TYPE_INT_ARGB);
+        for (int ty = 0; ty < th; ty++) {
+            sy[ty] = Math.min(h - 1, (int) ((ty + 0.5) * scale));
+        }
+        float[] s = map.raster().samples();
+        float[] small = new float[tw * th];
+        boolean[] hit = new boolean[tw * th];
         for (int ty = 0; ty < th; ty++) {
             for (int tx = 0; tx < tw; tx++) {
-                int sx = Math.min(w - 1, tx * k + k / 2);
-                int sy = Math.min(h - 1, ty * k + k / 2);
-                int argb = full.getRGB(sx, sy);
-                if (block[ty * tw + tx] && border(block, tw, th, tx, ty)) {
-                    argb = OUTLINE_ARGB;
-                }
-                out.setRGB(tx, ty, argb);
+                int i = sy[ty] * w + sx[tx];
+                small[ty * tw + tx] = s[i];
+                hit[ty * tw + tx] = flagged.get(i);
+            }
+        }
+        for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
+            int tx = Math.min(tw - 1, (int) ((i % w) / scale));
+            int ty = Math.min(th - 1, (int) ((i / w) / scale));
+            hit[ty * tw + tx] = true;
+        }
+        PixelGrid g = map.grid();
+        PixelGrid sg = new PixelGrid(tw, th, g.pitchMm() * scale, (g.centreXPx() + 0.5) / scale - 0.5,
+                (g.centreYPx() + 0.5) / scale - 0.5);
+        PngStyle style = PngStyle.DEFAULT;
+        if (lowUs > 0 && highUs > lowUs) {
+            style = style.withRange(lowUs, highUs);
+        }
+        BufferedImage out = MapFiles.picture(new WaferMap(FloatRaster.wrap(tw, th, small), sg, map.quantity(),
+                map.waferId(), map.conditions(), map.provenance()), style);
+        boolean[] near = dilate(hit, tw, th, OUTLINE_PX);
+        for (int i = 0; i < near.length; i++) {
+            if (near[i] && !hit[i]) {
+                out.setRGB(i % tw, i / tw, OUTLINE_ARGB);
             }
         }
         return out;
     }
 
-    private static boolean border(boolean[] b, int w, int h, int x, int y) {
-        return x == 0 || y == 0 || x == w - 1 || y == h - 1 || !b[y * w + x - 1] || !b[y * w + x + 1]
-                || !b[(y - 1) * w + x] || !b[(y + 1) * w + x];
+    /** The pixels within {@code r} pixels (Chebyshev distance) of a set pixel: a square dilation, rows then columns. */
+    static boolean[] dilate(boolean[] b, int w, int h, int r) {
+        boolean[] rows = new boolean[b.length];
+        for (int y = 0; y < h; y++) {
+            int row = y * w;
+            int last = Integer.MIN_VALUE / 2; // x of the last set pixel seen, scanning right
+            for (int x = 0; x < w + r; x++) {
+                if (x < w && b[row + x]) {
+                    last = x;
+                }
+                int at = x - r; // pixel whose window [at - r, at + r] ends at x
+                if (at >= 0 && at < w) {
+                    rows[row + at] = x - last <= 2 * r;
+                }
+            }
+        }
+        boolean[] out = new boolean[b.length];
+        for (int x = 0; x < w; x++) {
+            int last = Integer.MIN_VALUE / 2;
+            for (int y = 0; y < h + r; y++) {
+                if (y < h && rows[y * w + x]) {
+                    last = y;
+                }
+                int at = y - r;
+                if (at >= 0 && at < h) {
+                    out[at * w + x] = y - last <= 2 * r;
+                }
+            }
+        }
+        return out;
     }
 
-    private static void writeThumbnail(WaferMap map, BitSet flagged, Path file) {
-        BufferedImage img = thumbnail(map, flagged);
+    /** Writes a PNG with fast (level 1) deflate: a thumbnail is small either way, and this is most of its cost. */
+    private static void writePng(BufferedImage img, Path file) throws IOException {
+        ImageWriter writer = ImageIO.getImageWritersByFormatName("png").next();
+        try (ImageOutputStream out = ImageIO.createImageOutputStream(file.toFile())) {
+            ImageWriteParam param = writer.getDefaultWriteParam();
+            param.setCompressionMode(ImageWriteParam.MODE_EXPLICIT);
+            param.setCompressionQuality(0.85f); // deflate level ⌊9·(1 − q)⌋ = 1
+            writer.setOutput(out);
+            writer.write(null, new IIOImage(img, null, null), param);
+        } finally {
+            writer.dispose();
+        }
+    }
+
+    private static void writeThumbnail(WaferMap map, BitSet flagged, double lowUs, double highUs, Path file) {
+        BufferedImage img = thumbnail(map, flagged, lowUs, highUs);
         Path tmp = file.resolveSibling(file.getFileName() + ".tmp");
         try {
-            if (!ImageIO.write(img, "png", tmp.toFile())) {
-                throw new IOException("no PNG writer");
-            }
+            writePng(img, tmp);
             java.nio.file.Files.move(tmp, file, java.nio.file.StandardCopyOption.REPLACE_EXISTING,
                     java.nio.file.StandardCopyOption.ATOMIC_MOVE);
         } catch (IOException e) {

@@ -176,8 +176,11 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
                 n < 2 ? Double.NaN : Math.sqrt(m2 / (n - 1)), pv, fractions);
     }
 
-    /** Type-7 percentiles of values[0..n) (possibly reordered), in the order of {@code percents}. */
-    static double[] percentiles(float[] values, int n, double[] percents) {
+    /**
+     * Type-7 percentiles of values[0..n) (NaN-free; possibly reordered), in the order of {@code percents}: the
+     * estimates {@link #of} gives for the same values.
+     */
+    public static double[] percentiles(float[] values, int n, double[] percents) {
         double[] out = new double[percents.length];
         if (n == 0) {
             Arrays.fill(out, Double.NaN);

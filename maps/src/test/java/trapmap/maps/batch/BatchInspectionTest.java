@@ -92,11 +92,26 @@ class BatchInspectionTest {
     }
 
     @Test
-    void gradesFollowTheFirstMatchingThresholds() throws Exception {
+    void passingWafersTakeTheFirstMatchingGradeAndFailedOnesNone() throws Exception {
         Path in = maps();
         BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES)).run(list(in), dir.resolve("out"),
                 options(1, false));
-        assertThat(csv(s.csv())).extracting(r -> r.get("grade")).containsExactly("A", "A", "B", "C");
+        List<CSVRecord> rows = csv(s.csv());
+        assertThat(rows).extracting(r -> r.get("status")).containsExactly("pass", "fail", "pass", "pass");
+        assertThat(rows).extracting(r -> r.get("grade")).containsExactly("A", "", "B", "C");
+        assertThat(rows).extracting(r -> r.get("graded_down_by")).containsExactly("", "", "median_lifetime_us",
+                "median_lifetime_us");
+        assertThat(rows).extracting(r -> r.get("profile")).containsOnly(Rules.DEFAULT_PROFILE);
+    }
+
+    @Test
+    void aFailedWaferTakesTheFailGradeNeverAPassingOne() throws Exception {
+        Path in = maps();
+        String rules = SPOT_RULES.replace("\"grades\"", "\"fail_grade\": \"R\", \"grades\"");
+        BatchInspection.Summary s = new BatchInspection(rules(rules)).run(list(in), dir.resolve("out"),
+                options(1, false));
+        assertThat(csv(s.csv())).extracting(r -> r.get("status") + "/" + r.get("grade"))
+                .containsExactly("pass/A", "fail/R", "pass/B", "pass/C");
     }
 
     @Test
@@ -158,9 +173,57 @@ class BatchInspectionTest {
         assertThat(reads.get()).isEqualTo(1);
         assertThat(s.skipped()).isEqualTo(3);
         assertThat(csv(s.csv())).extracting(r -> r.get("wafer_id")).containsExactly("w1", "w2", "w3", "w4");
+        // the region of w2 (read in the first run) is kept in regions.csv
+        assertThat(csv(out.resolve(BatchInspection.REGIONS_NAME))).extracting(r -> r.get("wafer_id"))
+                .containsExactly("w2");
         reads.set(0);
         new BatchInspection(rules(SPOT_RULES), counting).run(list(in), out, options(2, true));
         assertThat(reads.get()).isZero();
+        assertThat(csv(out.resolve(BatchInspection.REGIONS_NAME))).hasSize(1);
+    }
+
+    @Test
+    void regionsTableListsEachFlaggedRegionWithItsPosition() throws Exception {
+        Path in = maps();
+        Path out = dir.resolve("out");
+        new BatchInspection(rules(SPOT_RULES)).run(list(in), out, options(2, false));
+        List<CSVRecord> regions = csv(out.resolve(BatchInspection.REGIONS_NAME));
+        assertThat(regions).hasSize(1);
+        CSVRecord r = regions.get(0);
+        assertThat(r.toMap().keySet()).containsExactlyElementsOf(BatchInspection.REGION_COLUMNS);
+        assertThat(r.get("wafer_id")).isEqualTo("w2");
+        assertThat(Math.hypot(Double.parseDouble(r.get("x_mm")) - 20, Double.parseDouble(r.get("y_mm")) + 10))
+                .isLessThan(0.5);
+        assertThat(Double.parseDouble(r.get("peak"))).isEqualTo(4);
+        assertThat(r.get("peak_density_cm3")).isEmpty(); // a lifetime flag without a defect: no densities
+    }
+
+    @Test
+    void filesThatAreNotMapsOrHaveABrokenSidecarBecomeErrorRows() throws Exception {
+        Path in = maps();
+        Files.writeString(in.resolve("d-text.tif"), "this is not a TIFF\n");
+        Files.write(in.resolve("e-empty.csv"), new byte[0]);
+        Files.writeString(in.resolve("f-cut.csv"), "x_mm,y_mm,value\n0,0,10\n0.5,0,1");
+        byte[] good = Files.readAllBytes(in.resolve("w1.tif"));
+        byte[] flipped = good.clone();
+        for (int i = 8; i < Math.min(flipped.length, 4096); i++) {
+            flipped[i] ^= (byte) 0x5A; // the first IFD and the start of the pixels scrambled
+        }
+        Files.write(in.resolve("g-scrambled.tif"), flipped);
+        Files.write(in.resolve("h-sidecar.tif"), good);
+        Files.writeString(in.resolve("h-sidecar.json"), "{\"format\": \"trapmap-map/1\", \"pixel_pitch_mm\": ");
+        BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES)).run(list(in), dir.resolve("out"),
+                options(2, false));
+        List<CSVRecord> rows = csv(s.csv());
+        assertThat(rows).hasSize(9);
+        for (CSVRecord r : rows.subList(0, 5)) {
+            assertThat(r.get("status")).as(r.get("file")).isEqualTo("error");
+            assertThat(r.get("error")).as(r.get("file")).isNotBlank().doesNotContain("\n").contains(r.get("file")
+                    .replaceAll(".*[/\\\\]", "").replace(".tif", "").replace(".csv", ""));
+            assertThat(r.get("grade")).isEmpty();
+        }
+        assertThat(rows.subList(5, 9)).extracting(r -> r.get("status")).containsExactly("pass", "fail", "pass",
+                "pass");
     }
 
     @Test
@@ -247,14 +310,27 @@ class BatchInspectionTest {
                 new BatchInspection.Options(2, false, true, ProgressListener.NONE));
         BufferedImage spot = ImageIO.read(out.resolve("thumbnails").resolve("w2.tif.png").toFile());
         BufferedImage clean = ImageIO.read(out.resolve("thumbnails").resolve("w1.tif.png").toFile());
-        assertThat(spot.getWidth()).isLessThanOrEqualTo(WaferInspection.THUMBNAIL_PX);
+        assertThat(spot.getWidth()).isEqualTo(WaferInspection.THUMBNAIL_PX);
         assertThat(count(spot, WaferInspection.OUTLINE_ARGB)).isPositive();
         assertThat(count(clean, WaferInspection.OUTLINE_ARGB)).isZero();
-        // the outline sits on the circle of radius 5 mm around (20, -10) mm: 0.5 mm pixels, centre (100, 100)
-        int cx = 100 + 40;
-        int cy = 100 + 20;
+        // the spot: radius 5 mm around (20, -10) mm, 0.5 mm pixels, centre (100, 100) of 200 px, drawn 256 px wide
+        double k = 200.0 / WaferInspection.THUMBNAIL_PX;
+        int cx = (int) ((100 + 40 + 0.5) / k);
+        int cy = (int) ((100 + 20 + 0.5) / k);
+        double radius = 10 / k;
+        int first = cx;
+        while (spot.getRGB(first, cy) != WaferInspection.OUTLINE_ARGB) {
+            first++;
+        }
+        int last = first;
+        while (spot.getRGB(last + 1, cy) == WaferInspection.OUTLINE_ARGB) {
+            last++;
+        }
+        // drawn just outside the spot, OUTLINE_PX wide, the spot's own pixels left in their colours
+        assertThat(first - cx).isBetween((int) radius - 1, (int) radius + 2);
+        assertThat(last - first + 1).isBetween(WaferInspection.OUTLINE_PX, WaferInspection.OUTLINE_PX + 1);
         assertThat(spot.getRGB(cx, cy)).isNotEqualTo(WaferInspection.OUTLINE_ARGB);
-        assertThat(spot.getRGB(cx + 10, cy)).isEqualTo(WaferInspection.OUTLINE_ARGB);
+        assertThat(spot.getRGB(first - 2, cy)).isNotEqualTo(WaferInspection.OUTLINE_ARGB);
     }
 
     private static int count(BufferedImage img, int argb) {
@@ -303,9 +379,9 @@ class BatchInspectionTest {
     @Test
     void columnsNameEachFigureOfTheRules() throws Exception {
         assertThat(BatchInspection.columns(rules(SPOT_RULES))).containsExactly("file", "wafer_id", "status", "grade",
-                "harmonic_mean_lifetime_us", "median_lifetime_us", "flagged_area_fraction", "p5_lifetime_us",
-                "largest_region_mm2", "failed_rules", "worst_region_area_mm2", "worst_region_x_mm",
-                "worst_region_y_mm", "worst_region_peak", "error");
+                "profile", "defect", "harmonic_mean_lifetime_us", "median_lifetime_us", "flagged_area_fraction",
+                "p5_lifetime_us", "largest_region_mm2", "failed_rules", "graded_down_by", "worst_region_area_mm2",
+                "worst_region_x_mm", "worst_region_y_mm", "worst_region_peak", "error");
         assertThat(Map.of()).isEmpty();
     }
 

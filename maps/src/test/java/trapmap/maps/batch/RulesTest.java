@@ -8,6 +8,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 import trapmap.maps.model.MeasurementConditions;
+import trapmap.physics.material.ConductivityType;
 import trapmap.physics.material.Doping;
 
 class RulesTest {
@@ -21,10 +22,14 @@ class RulesTest {
     void exampleRulesFileParses() throws Exception {
         Rules r = Rules.read(Path.of("..", "demo-data", "rules-example.json"));
         assertThat(r.defectId()).isEqualTo("fe-i");
-        assertThat(r.grades()).extracting(Rules.Grade::grade).containsExactly("A", "B", "C");
+        assertThat(r.grades()).extracting(Rules.Grade::grade).containsExactly("A", "B");
+        assertThat(r.failGrade()).isEqualTo("R");
         assertThat(r.figures()).extracting(Figure::name).contains("harmonic_mean_lifetime_us",
-                "p5_lifetime_us", "trap_density_p95_cm3", "flagged_area_fraction", "largest_region_mm2",
-                "edge_to_centre_ratio");
+                "trap_density_p95_cm3", "flagged_area_fraction", "largest_region_mm2", "largest_interior_region_mm2");
+        assertThat(r.profiles()).extracting(Rules.Profile::name).containsExactly("n-type", "ic-monitor",
+                "after-gettering", "iron-boron-pairs");
+        assertThat(r.profiles()).extracting(Rules.Profile::defectId).containsExactly("midgap", "fe-i", "fe-i",
+                "fe-b");
     }
 
     @Test
@@ -68,12 +73,68 @@ class RulesTest {
         "{'grades': [{'grade': 'A'}, {'grade': 'A'}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'grades[1].grade'",
         "{'grades': [{'grade': 'A', 'when': {'x': {'min': 1}}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'grades[0].when.x': unknown figure",
         "{'edge_band_mm': 0, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'edge_band_mm'",
+        "{'fail_grade': 'A', 'grades': [{'grade': 'A'}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'fail_grade': 'A' is also a grade of passing wafers",
+        "{'profiles': {'name': 'n'}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles': must be an array",
+        "{'profiles': [{'match': {'type': 'n'}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].name': is required",
+        "{'profiles': [{'name': 'default', 'match': {'type': 'n'}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].name': 'default' is given twice",
+        "{'profiles': [{'name': 'n'}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].match': is required",
+        "{'profiles': [{'name': 'n', 'match': {}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].match': needs type, wafer, file",
+        "{'profiles': [{'name': 'n', 'match': {'type': 'x'}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].match.type': must be p or n",
+        "{'profiles': [{'name': 'n', 'match': {'wafer': ['round-7']}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].match.wafer': 'round-7' is not a known format",
+        "{'profiles': [{'name': 'n', 'match': {'file': '*.{tif'}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].match.file': not a valid glob",
+        "{'profiles': [{'name': 'n', 'match': {'type': 'n'}, 'colour': 1}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].colour': unknown key",
+        "{'profiles': [{'name': 'n', 'match': {'type': 'n'}, 'defect': 'unobtainium'}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].defect': unknown defect",
+        "{'profiles': [{'name': 'n', 'match': {'type': 'n'}, 'flag': {'quantity': 'trap-density', 'threshold': 1e12}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].defect': is required",
+        "{'profiles': [{'name': 'n', 'match': {'type': 'n'}, 'flag': {'quantity': 'lifetime'}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].flag.threshold': is required (us)",
+        "{'profiles': [{'name': 'n', 'match': {'type': 'n'}, 'limits': {'x': {'min': 1}}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].limits.x': unknown figure",
+        "{'fail_grade': 'R', 'profiles': [{'name': 'n', 'match': {'type': 'n'}, 'grades': [{'grade': 'R'}]}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].fail_grade': the inherited 'R'",
     })
     void invalidRulesNameTheField(String json, String expected) {
         assertThatThrownBy(() -> parse(json.replace('\'', '"')))
                 .isInstanceOf(RulesException.class)
                 .hasMessageStartingWith("r.json: ")
                 .hasMessageContaining(expected);
+    }
+
+    @Test
+    void theFirstMatchingProfileJudgesAMapAndInheritsWhatItLeavesOut() throws Exception {
+        Rules r = parse("""
+                {"defect": "fe-i", "flag": {"quantity": "trap-density", "threshold": 3e11},
+                 "limits": {"harmonic_mean_lifetime_us": {"min": 50}}, "fail_grade": "R",
+                 "profiles": [
+                   {"name": "n", "match": {"type": "n"}, "defect": "midgap"},
+                   {"name": "mon", "match": {"type": "p", "wafer": ["round-200-notch"]},
+                    "flag": {"quantity": "lifetime", "threshold": 100}},
+                   {"name": "pairs", "match": {"file": "*-feb-state.*"}, "defect": "fe-b"}]}
+                """);
+        assertThat(r.profileFor("w1.tif", ConductivityType.N, "m10").name()).isEqualTo("n");
+        assertThat(r.profileFor("w1.tif", ConductivityType.N, "m10").defectId()).isEqualTo("midgap");
+        assertThat(r.profileFor("w1.tif", ConductivityType.N, "m10").flag().threshold()).isEqualTo(3e11);
+        assertThat(r.profileFor("w1.tif", ConductivityType.N, "m10").failGrade()).isEqualTo("R");
+        assertThat(r.profileFor("w1.tif", ConductivityType.P, "round-200-notch").name()).isEqualTo("mon");
+        assertThat(r.profileFor("w1.tif", ConductivityType.P, "round-200-notch").defectId()).isEqualTo("fe-i");
+        assertThat(r.profileFor("w1.tif", ConductivityType.P, "m2").name()).isEqualTo(Rules.DEFAULT_PROFILE);
+        assertThat(r.profileFor("x-feb-state.tif", ConductivityType.P, "m2").defectId()).isEqualTo("fe-b");
+        assertThat(r.profileFor("x-feb-state.tif", null, "m2").name()).isEqualTo("pairs");
+        assertThat(r.profileFor("w1.tif", null, "round-200-notch").name()).isEqualTo(Rules.DEFAULT_PROFILE);
+        assertThat(r.figures()).extracting(Figure::name).containsExactly("harmonic_mean_lifetime_us",
+                "median_lifetime_us", "flagged_area_fraction", "largest_region_mm2");
+    }
+
+    @Test
+    void aPassingWaferIsGradedByTheFirstGradeItMeetsAndAFailedOneByTheFailGrade() throws Exception {
+        Rules r = parse("{" + FLAG + ", \"fail_grade\": \"R\", \"grades\": ["
+                + "{\"grade\": \"A\", \"when\": {\"median_lifetime_us\": {\"min\": 100},"
+                + " \"largest_region_mm2\": {\"max\": 0}}},"
+                + "{\"grade\": \"B\", \"when\": {\"median_lifetime_us\": {\"min\": 50}}}, {\"grade\": \"C\"}]}");
+        Rules.Profile p = r.defaultProfile();
+        java.util.function.ToDoubleFunction<Figure> good = f -> f.name().equals("median_lifetime_us") ? 120 : 0;
+        java.util.function.ToDoubleFunction<Figure> fair = f -> f.name().equals("median_lifetime_us") ? 120 : 3;
+        assertThat(p.grade(false, good)).isEqualTo("A");
+        assertThat(p.grade(true, good)).isEqualTo("R");
+        assertThat(p.grade(false, fair)).isEqualTo("B");
+        assertThat(p.missedBy("B", fair)).containsExactly("largest_region_mm2");
+        assertThat(p.missedBy("A", good)).isEmpty();
     }
 
     @Test

@@ -4,8 +4,8 @@ import java.util.BitSet;
 import java.util.Set;
 import java.util.concurrent.CancellationException;
 import java.util.function.BooleanSupplier;
+import trapmap.maps.batch.FlaggedRegions;
 import trapmap.maps.batch.WaferInspection;
-import trapmap.maps.geometry.OutlineDetection;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.ConversionSettings;
@@ -22,9 +22,9 @@ import trapmap.physics.defect.Defect;
  * Computes a {@link WaferAnalysis} with the same maps-module calls, in the same order, as the batch engine
  * ({@link WaferInspection#evaluate}): conditions applied, PL converted to lifetime, conversion with
  * {@link ConversionSettings#DEFAULTS}, outline fitted to the lifetime's valid pixels, mask = valid lifetime ∩
- * outline less the edge exclusion, regions by {@link ThresholdRegions} over that mask, flagged pixels by
- * {@link WaferInspection#flaggedPixels}, flagged fraction = region area / evaluated lifetime area. A viewer figure
- * therefore equals the batch's for the same settings.
+ * outline less the edge exclusion (outline by {@link WaferInspection#fitOutline}), regions by
+ * {@link ThresholdRegions} over that mask, flagged pixels by {@link FlaggedRegions#find}, flagged fraction =
+ * region area / evaluated lifetime area. A viewer figure therefore equals the batch's for the same settings.
  */
 public final class WaferAnalyzer {
     /** Percentiles of the lifetime statistics, %. */
@@ -90,7 +90,7 @@ public final class WaferAnalyzer {
             shape = previous.shape();
         } else {
             try {
-                shape = OutlineDetection.fit(lifetime.raster(), lifetime.grid()).shape();
+                shape = WaferInspection.fitOutline(lifetime.raster().samples(), lifetime.grid()).shape();
             } catch (RuntimeException e) {
                 shape = null;
             }
@@ -106,7 +106,7 @@ public final class WaferAnalyzer {
         check(cancelled);
         RegionCriteria criteria = analysis.threshold().criteria();
         RegionTable regions = ThresholdRegions.find(displayed, mask, criteria, shape);
-        BitSet flagged = WaferInspection.flaggedPixels(displayed.raster(), displayed.grid(), mask, criteria);
+        BitSet flagged = FlaggedRegions.find(displayed.raster(), displayed.grid(), mask, criteria, shape).pixels();
         double fraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
         WaferAnalysis.KeyFigure key = switch (q) {
             case LIFETIME, SRH_LIFETIME -> new WaferAnalysis.KeyFigure(q == DisplayedQuantity.LIFETIME ? "τ_hm"

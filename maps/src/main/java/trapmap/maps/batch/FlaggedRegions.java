@@ -1,0 +1,198 @@
+package trapmap.maps.batch;
+
+import java.util.ArrayList;
+import java.util.BitSet;
+import java.util.List;
+import trapmap.maps.geometry.WaferShape;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.Mask;
+import trapmap.maps.raster.PixelGrid;
+import trapmap.maps.region.Region;
+import trapmap.maps.region.RegionCriteria;
+import trapmap.maps.stats.MapStatistics;
+import trapmap.maps.stats.StatisticsRequest;
+
+/**
+ * The flagged regions of one wafer in a single labelling pass: the same regions, in the same order and with the same
+ * figures, as {@link trapmap.maps.region.ThresholdRegions#find} with a wafer shape (8-connected pixels strictly beyond
+ * the threshold inside the mask, kept from the minimum area on), plus the pixels of the kept regions (for the
+ * footprint and the thumbnail) and each region's trap density (peak and median) when a trap-density map is given.
+ *
+ * @param regions the kept regions, numbered in scan order from the top row
+ * @param pixels  the pixels of the kept regions
+ */
+public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
+
+    /**
+     * One flagged region with its trap density.
+     *
+     * @param region            position, area and the flagged quantity's peak and mean
+     * @param peakDensityCm3    largest trap density in the region, cm^-3 (NaN without a trap-density map)
+     * @param medianDensityCm3  median trap density of the region, cm^-3 (NaN without a trap-density map)
+     */
+    public record FlaggedRegion(Region region, double peakDensityCm3, double medianDensityCm3) {
+    }
+
+    public FlaggedRegions {
+        regions = List.copyOf(regions);
+    }
+
+    /** Total area of the kept regions, mm². */
+    public double totalAreaMm2() {
+        return regions.stream().mapToDouble(r -> r.region().areaMm2()).sum();
+    }
+
+    /** The region of largest area (the first such in scan order), or null when there is none. */
+    public FlaggedRegion largest() {
+        FlaggedRegion best = null;
+        for (FlaggedRegion r : regions) {
+            if (best == null || r.region().areaMm2() > best.region().areaMm2()) {
+                best = r;
+            }
+        }
+        return best;
+    }
+
+    private static final int[] DX = {-1, 0, 1, -1, 1, -1, 0, 1};
+    private static final int[] DY = {-1, -1, -1, 0, 0, 1, 1, 1};
+
+    /**
+     * The flagged regions of {@code raster} among the pixels of {@code mask}, without trap densities: the pixels the
+     * batch flags for the same criteria.
+     */
+    public static FlaggedRegions find(FloatRaster raster, PixelGrid grid, Mask mask, RegionCriteria criteria,
+                                      WaferShape shape) {
+        int[] indices = new int[mask.count()];
+        int n = 0;
+        for (int i = mask.nextIndex(0); i >= 0; i = mask.nextIndex(i + 1)) {
+            indices[n++] = i;
+        }
+        return find(raster, grid, indices, n, criteria, shape, null);
+    }
+
+    /**
+     * Labels the flagged pixels of {@code raster}.
+     *
+     * @param indices pixels that may be flagged, ascending: {@code indices[0..count)}
+     * @param shape   wafer outline for the edge distances, or null (edge distances NaN)
+     * @param density trap-density samples of the same grid, or null
+     */
+    public static FlaggedRegions find(FloatRaster raster, PixelGrid grid, int[] indices, int count,
+                                      RegionCriteria criteria, WaferShape shape, float[] density) {
+        int w = raster.width();
+        int h = raster.height();
+        float[] s = raster.samples();
+        boolean[] open = new boolean[s.length];
+        int selected = 0;
+        for (int k = 0; k < count; k++) {
+            int i = indices[k];
+            if (criteria.selects(s[i])) {
+                open[i] = true;
+                selected++;
+            }
+        }
+        WaferShape.Prepared edge = shape == null ? null : shape.prepared();
+        double pixelArea = grid.pixelAreaMm2();
+        int[] offset = new int[8];
+        for (int k = 0; k < 8; k++) {
+            offset[k] = DY[k] * w + DX[k];
+        }
+        List<FlaggedRegion> regions = new ArrayList<>();
+        BitSet kept = new BitSet(s.length);
+        int[] queue = new int[Math.max(16, selected)];
+        boolean above = criteria.side() == RegionCriteria.Side.ABOVE;
+        for (int next = 0; next < count; next++) {
+            int seed = indices[next];
+            if (!open[seed]) {
+                continue;
+            }
+            open[seed] = false;
+            int head = 0;
+            int tail = 0;
+            queue[tail++] = seed;
+            long sumX = 0;
+            long sumY = 0;
+            double sumValue = 0;
+            int minX = Integer.MAX_VALUE;
+            int maxX = -1;
+            int minY = Integer.MAX_VALUE;
+            int maxY = -1;
+            int peakIndex = seed;
+            double peak = s[seed];
+            // breadth-first, so the pixels are summed in the same order as ThresholdRegions sums them
+            while (head < tail) {
+                int i = queue[head++];
+                int y = i / w;
+                int x = i - y * w;
+                double v = s[i];
+                sumX += x;
+                sumY += y;
+                sumValue += v;
+                minX = Math.min(minX, x);
+                maxX = Math.max(maxX, x);
+                minY = Math.min(minY, y);
+                maxY = Math.max(maxY, y);
+                if ((above ? v > peak : v < peak) || v == peak && i < peakIndex) {
+                    peak = v;
+                    peakIndex = i;
+                }
+                if (x > 0 && y > 0 && x < w - 1 && y < h - 1) {
+                    for (int k = 0; k < 8; k++) {
+                        int j = i + offset[k];
+                        if (open[j]) {
+                            open[j] = false;
+                            queue[tail++] = j;
+                        }
+                    }
+                } else {
+                    for (int k = 0; k < 8; k++) {
+                        int nx = x + DX[k];
+                        int ny = y + DY[k];
+                        if (nx >= 0 && ny >= 0 && nx < w && ny < h && open[ny * w + nx]) {
+                            open[ny * w + nx] = false;
+                            queue[tail++] = ny * w + nx;
+                        }
+                    }
+                }
+            }
+            int size = tail;
+            double area = size * pixelArea;
+            if (area < criteria.minAreaMm2()) {
+                continue;
+            }
+            double nearest = Double.POSITIVE_INFINITY;
+            float[] dens = density == null ? null : new float[size];
+            double peakDensity = Double.NEGATIVE_INFINITY;
+            for (int k = 0; k < size; k++) {
+                int i = queue[k];
+                kept.set(i);
+                if (edge != null) {
+                    nearest = Math.min(nearest, edge.distanceToEdgeMm(grid.xMm(i % w), grid.yMm(i / w)));
+                }
+                if (dens != null) {
+                    dens[k] = density[i];
+                    if (density[i] > peakDensity) {
+                        peakDensity = density[i];
+                    }
+                }
+            }
+            double medianDensity = Double.NaN;
+            if (dens != null) {
+                MapStatistics st = MapStatistics.of(FloatRaster.wrap(size, 1, dens), null,
+                        PixelGrid.centred(size, 1, grid.pitchMm()), StatisticsRequest.of(new double[0]));
+                medianDensity = st.median();
+                peakDensity = st.count() == 0 ? Double.NaN : peakDensity;
+            } else {
+                peakDensity = Double.NaN;
+            }
+            double halfPx = 0.5;
+            Region.BoundsMm bounds = new Region.BoundsMm(grid.xMm(minX - halfPx), grid.yMm(maxY + halfPx),
+                    grid.xMm(maxX + halfPx), grid.yMm(minY - halfPx));
+            Region r = new Region(regions.size() + 1, size, area, grid.xMm((double) sumX / size),
+                    grid.yMm((double) sumY / size), bounds, peak, grid.xMm(peakIndex % w), grid.yMm(peakIndex / w),
+                    sumValue / size, edge == null ? Double.NaN : nearest);
+            regions.add(new FlaggedRegion(r, peakDensity, medianDensity));
+        }
+        return new FlaggedRegions(regions, kept);
+    }
+}

@@ -1,0 +1,44 @@
+package trapmap.maps.batch;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.util.BitSet;
+import org.junit.jupiter.api.Test;
+import trapmap.maps.model.WaferMap;
+
+class RecurrenceMapTest {
+    /** A footprint of w × h cells from (i0, j0) with every cell evaluated and the cells of {@code hits} flagged. */
+    private static Footprint footprint(int i0, int j0, int w, int h, int... hits) {
+        BitSet covered = new BitSet();
+        covered.set(0, w * h);
+        BitSet flagged = new BitSet();
+        for (int c : hits) {
+            flagged.set(c);
+        }
+        return new Footprint("f", 1.0, i0, j0, w, h, covered, flagged);
+    }
+
+    private static float at(WaferMap m, int i, int j) {
+        int x = (int) Math.round(m.grid().xPx(i));
+        int y = (int) Math.round(m.grid().yPx(j));
+        return m.raster().samples()[y * m.width() + x];
+    }
+
+    @Test
+    void footprintsOfDifferentExtentsAddUpCellByCell() {
+        RecurrenceMap r = new RecurrenceMap();
+        r.add(footprint(0, 0, 3, 2, 0));      // flags cell (0, 0)
+        r.add(footprint(-2, 1, 3, 3, 2, 8));  // grows left and up; flags (0, 1) and (0, 3)
+        r.add(footprint(0, 0, 1, 1, 0));      // flags (0, 0) again
+        WaferMap m = r.maps().get("f");
+        assertThat(m.width()).isEqualTo(5);   // i from -2 to 2
+        assertThat(m.height()).isEqualTo(4);  // j from 0 to 3
+        assertThat(at(m, 0, 0)).isEqualTo(1f);        // 2 of 2
+        assertThat(at(m, 1, 0)).isEqualTo(0f);        // 0 of 1
+        assertThat(at(m, 0, 1)).isEqualTo(0.5f);      // 1 of 2
+        assertThat(at(m, -2, 3)).isEqualTo(0f);       // 0 of 1
+        assertThat(at(m, 0, 3)).isEqualTo(1f);        // 1 of 1
+        assertThat(at(m, 2, 3)).isNaN();              // no wafer there
+        assertThat(at(m, -2, 0)).isNaN();
+    }
+}

@@ -1,0 +1,190 @@
+package trapmap.maps.batch;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+import java.nio.file.Path;
+import java.util.BitSet;
+import java.util.List;
+import java.util.Random;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.ValueSource;
+import trapmap.maps.geometry.OutlineDetection;
+import trapmap.maps.geometry.OutlineFit;
+import trapmap.maps.geometry.SquareWafer;
+import trapmap.maps.geometry.WaferFormat;
+import trapmap.maps.geometry.WaferShape;
+import trapmap.maps.io.MapFiles;
+import trapmap.maps.model.Quantity;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.process.ConversionSettings;
+import trapmap.maps.process.MapConversion;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.Mask;
+import trapmap.maps.raster.PixelGrid;
+import trapmap.maps.region.Region;
+import trapmap.maps.region.RegionCriteria;
+import trapmap.maps.region.ThresholdRegions;
+import trapmap.maps.stats.MapStatistics;
+import trapmap.maps.stats.StatisticsRequest;
+import trapmap.physics.defect.Defect;
+import trapmap.physics.defect.DefectLibrary;
+
+/**
+ * The batch's faster paths give what the general classes give: the same masks as {@link WaferShape#mask}, the same
+ * regions as {@link ThresholdRegions}, the same figures as {@link MapStatistics}; the outline fitted on a
+ * block-reduced mask stays within a stated tolerance of the full-resolution fit.
+ */
+class WaferInspectionShortcutsTest {
+    private static final Path DEMO = Path.of("..", "demo-data");
+
+    private static WaferMap demo(String file) throws Exception {
+        return MapFiles.readSingle(DEMO.resolve(file));
+    }
+
+    @ParameterizedTest
+    @ValueSource(strings = {"LOT-A01-W02.tif", "LOT-N01-W03.tif", "MON-200-W01.tif"})
+    void masksEqualTheShapeMaskOfTheValidPixels(String file) throws Exception {
+        WaferMap m = demo(file);
+        WaferShape shape = OutlineDetection.fit(m).shape();
+        for (double e : new double[] {0, 2, 3.7}) {
+            WaferInspection.Masks masks = WaferInspection.masks(m.raster().samples(), m.grid(), shape, e, e + 10);
+            Mask expected = Mask.valid(m.raster()).and(shape.mask(m.grid(), e));
+            Mask centre = Mask.valid(m.raster()).and(shape.mask(m.grid(), e + 10));
+            assertThat(masks.count()).isEqualTo(expected.count());
+            for (int i = 0; i < masks.evaluated().length; i++) {
+                assertThat(masks.evaluated()[i]).as("pixel %d, exclusion %s", i, e).isEqualTo(expected.containsIndex(i));
+                assertThat(masks.centre()[i]).as("centre pixel %d", i).isEqualTo(centre.containsIndex(i));
+            }
+            for (int k = 1; k < masks.count(); k++) {
+                assertThat(masks.indices()[k]).isGreaterThan(masks.indices()[k - 1]);
+            }
+        }
+    }
+
+    @Test
+    void regionsEqualThoseOfThresholdRegions() throws Exception {
+        WaferMap m = demo("LOT-A01-W02.tif");
+        WaferShape shape = OutlineDetection.fit(m).shape();
+        WaferInspection.Masks masks = WaferInspection.masks(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
+        for (RegionCriteria c : List.of(RegionCriteria.below(60, 1), RegionCriteria.below(150, 0),
+                RegionCriteria.above(400, 2))) {
+            FlaggedRegions mine = FlaggedRegions.find(m.raster(), m.grid(), masks.indices(), masks.count(), c, shape,
+                    null);
+            List<Region> expected = ThresholdRegions.find(m, WaferInspection.mask(masks.evaluated(), m.grid()), c,
+                    shape).regions();
+            assertThat(expected).isNotEmpty();
+            assertThat(mine.regions()).extracting(FlaggedRegions.FlaggedRegion::region)
+                    .containsExactlyElementsOf(expected);
+            assertThat(mine.pixels().cardinality()).isEqualTo(expected.stream().mapToInt(Region::pixelCount).sum());
+        }
+    }
+
+    @ParameterizedTest
+    @ValueSource(strings = {"LOT-A01-W02.tif", "LOT-N01-W01.tif", "LOT-A04-W01-pl.tif"})
+    void trapDensityEqualsThatOfTheFullConversion(String file) throws Exception {
+        WaferMap read = demo(file);
+        WaferMap lifetime = read.quantity() == Quantity.PL_COUNTS ? MapConversion.lifetimeFromPl(read) : read;
+        Defect defect = DefectLibrary.byId(file.startsWith("LOT-N") ? "midgap" : "fe-i");
+        float[] expected = MapConversion.convert(lifetime, defect, ConversionSettings.DEFAULTS, 1)
+                .get(Quantity.TRAP_DENSITY).raster().samples();
+        WaferMap mine = WaferInspection.trapDensity(lifetime, defect);
+        assertThat(mine.quantity()).isEqualTo(Quantity.TRAP_DENSITY);
+        assertThat(mine.raster().samples()).containsExactly(expected);
+    }
+
+    @Test
+    void sampleFiguresEqualMapStatistics() throws Exception {
+        WaferMap m = demo("LOT-A02-W05-before-gettering.tif");
+        WaferShape shape = OutlineDetection.fit(m).shape();
+        WaferInspection.Masks masks = WaferInspection.masks(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
+        double[] percents = {1, 5, 95, 99};
+        WaferInspection.Sample s = WaferInspection.Sample.of(m.raster().samples(), masks, m.grid(), percents);
+        MapStatistics st = MapStatistics.of(m, WaferInspection.mask(masks.evaluated(), m.grid()),
+                StatisticsRequest.of(percents));
+        assertThat(s.count()).isEqualTo(st.count());
+        assertThat(s.areaMm2()).isEqualTo(st.areaMm2());
+        assertThat(s.harmonicMean()).isEqualTo(st.harmonicMean());
+        assertThat(s.median()).isEqualTo(st.median());
+        for (double p : percents) {
+            assertThat(s.percentile(p)).isEqualTo(st.percentile(p));
+        }
+    }
+
+    /**
+     * A 1024² M2 map (0.16 mm pixels) off centre by (0.37, −0.61) mm and turned 0.8°: the outline fitted on the
+     * 6×6-block mask (0.98 mm blocks) has its centre within 0.05 mm of the full-resolution fit and its side within
+     * 0.25 mm (a quarter of a block: an edge nearly parallel to the block rows snaps to the same block boundary along
+     * much of its length), matches the same format, and the evaluated areas (2 mm edge exclusion) differ by less
+     * than 0.3 %.
+     */
+    @Test
+    void outlineOfTheReducedMaskStaysWithinAFractionOfAPixel() {
+        int n = 1024;
+        PixelGrid grid = PixelGrid.centred(n, n, (WaferFormat.M2.sizeMm() + 6) / n);
+        SquareWafer truth = new SquareWafer(WaferFormat.M2.sizeMm(), WaferFormat.M2.diagonalMm(), 0.8, 0.37, -0.61);
+        WaferShape.Prepared p = truth.prepared();
+        float[] tau = new float[n * n];
+        Random rnd = new Random(5);
+        for (int i = 0; i < tau.length; i++) {
+            tau[i] = p.contains(grid.xMm(i % n), grid.yMm(i / n)) ? 100 + rnd.nextFloat() : Float.NaN;
+        }
+        OutlineFit full = OutlineDetection.fit(Mask.valid(FloatRaster.wrap(n, n, tau)), grid);
+        OutlineFit reduced = WaferInspection.fitOutline(tau, grid);
+        assertThat(reduced.shape()).isInstanceOf(SquareWafer.class);
+        SquareWafer a = (SquareWafer) full.shape();
+        SquareWafer b = (SquareWafer) reduced.shape();
+        assertThat(b.centreXMm()).isCloseTo(a.centreXMm(), within(0.05));
+        assertThat(b.centreYMm()).isCloseTo(a.centreYMm(), within(0.05));
+        assertThat(b.sideMm()).isCloseTo(a.sideMm(), within(0.25));
+        assertThat(b.rotationDeg()).isCloseTo(a.rotationDeg(), within(0.1));
+        assertThat(reduced.closestFormat().format()).isEqualTo(full.closestFormat().format());
+        int fullCount = WaferInspection.masks(tau, grid, a, 2, Double.NaN).count();
+        int reducedCount = WaferInspection.masks(tau, grid, b, 2, Double.NaN).count();
+        assertThat(Math.abs(reducedCount - fullCount) / (double) fullCount).isLessThan(3e-3);
+        // a second map with the same valid pixels reuses the fit
+        assertThat(WaferInspection.fitOutline(tau.clone(), grid)).isSameAs(reduced);
+    }
+
+    @Test
+    void dilationMarksEveryPixelWithinTheRadius() {
+        Random rnd = new Random(3);
+        int w = 37;
+        int h = 23;
+        boolean[] b = new boolean[w * h];
+        for (int i = 0; i < b.length; i++) {
+            b[i] = rnd.nextInt(40) == 0;
+        }
+        for (int r = 0; r <= 3; r++) {
+            boolean[] d = WaferInspection.dilate(b, w, h, r);
+            for (int y = 0; y < h; y++) {
+                for (int x = 0; x < w; x++) {
+                    boolean expected = false;
+                    for (int yy = Math.max(0, y - r); yy <= Math.min(h - 1, y + r); yy++) {
+                        for (int xx = Math.max(0, x - r); xx <= Math.min(w - 1, x + r); xx++) {
+                            expected |= b[yy * w + xx];
+                        }
+                    }
+                    assertThat(d[y * w + x]).as("(%d, %d) r=%d", x, y, r).isEqualTo(expected);
+                }
+            }
+        }
+    }
+
+    @Test
+    void footprintCellsHoldTheFlaggedPixels() throws Exception {
+        WaferMap m = demo("LOT-A01-W02.tif");
+        WaferShape shape = OutlineDetection.fit(m).shape();
+        WaferInspection.Masks masks = WaferInspection.masks(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
+        BitSet flagged = FlaggedRegions.find(m.raster(), m.grid(), masks.indices(), masks.count(),
+                RegionCriteria.below(60, 1), shape, null).pixels();
+        Footprint f = WaferInspection.footprint("m2", m.grid(), masks.evaluated(), flagged);
+        PixelGrid g = m.grid();
+        for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
+            int cx = WaferInspection.cell(g.xMm(i % g.width()), 1) - f.minI();
+            int cy = WaferInspection.cell(g.yMm(i / g.width()), 1) - f.minJ();
+            assertThat(f.flagged().get(cy * f.width() + cx)).isTrue();
+        }
+    }
+}

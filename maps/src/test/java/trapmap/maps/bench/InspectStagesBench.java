@@ -1,0 +1,73 @@
+package trapmap.maps.bench;
+
+import java.lang.management.ManagementFactory;
+import java.lang.management.ThreadMXBean;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.Locale;
+import java.util.stream.Stream;
+import trapmap.maps.batch.Rules;
+import trapmap.maps.batch.WaferInspection;
+import trapmap.maps.io.MapFiles;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.process.ConversionSettings;
+import trapmap.maps.process.MapConversion;
+import trapmap.physics.defect.DefectLibrary;
+
+/**
+ * CPU time of the stages of one wafer's inspection, in one thread, so that the figures hold on a busy machine:
+ * reading a map, reading + converting it to trap density, and the whole inspection (with a thumbnail). Medians over
+ * the maps after a warm-up over the first quarter. Arguments: {@code MAPS_DIR RULES [maps]}. Not a unit test: run it
+ * from {@code scripts/bench-inspect} ({@code BENCH_STAGES=1}).
+ */
+public final class InspectStagesBench {
+    private InspectStagesBench() {
+    }
+
+    public static void main(String[] args) throws Exception {
+        Path dir = Path.of(args[0]);
+        Rules rules = Rules.read(Path.of(args[1]));
+        int n = args.length > 2 ? Integer.parseInt(args[2]) : 40;
+        List<Path> files;
+        try (Stream<Path> s = Files.list(dir)) {
+            files = s.filter(p -> p.toString().endsWith(".tif")).sorted().limit(n).toList();
+        }
+        Path thumbs = Files.createTempDirectory("trapmap-bench-thumbs");
+        WaferInspection inspection = new WaferInspection(rules);
+        ThreadMXBean bean = ManagementFactory.getThreadMXBean();
+        int warm = files.size() / 4;
+        double[] read = new double[files.size() - warm];
+        double[] convert = new double[read.length];
+        double[] inspect = new double[read.length];
+        for (int i = 0; i < files.size(); i++) {
+            Path f = files.get(i);
+            long t0 = bean.getCurrentThreadCpuTime();
+            WaferMap m = MapFiles.readSingle(f);
+            long t1 = bean.getCurrentThreadCpuTime();
+            MapConversion.convert(m, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS, 1);
+            long t2 = bean.getCurrentThreadCpuTime();
+            inspection.inspect(f, thumbs.resolve(f.getFileName() + ".png"));
+            long t3 = bean.getCurrentThreadCpuTime();
+            if (i >= warm) {
+                read[i - warm] = (t1 - t0) / 1e6;
+                convert[i - warm] = (t2 - t1) / 1e6;
+                inspect[i - warm] = (t3 - t2) / 1e6;
+            }
+        }
+        System.out.printf(Locale.ROOT, "CPU ms per map (median of %d after %d warm-up): read %.1f, convert %.1f,"
+                + " whole inspection %.1f%n", read.length, warm, median(read), median(convert), median(inspect));
+        try (Stream<Path> s = Files.list(thumbs)) {
+            for (Path p : (Iterable<Path>) s::iterator) {
+                Files.delete(p);
+            }
+        }
+        Files.delete(thumbs);
+    }
+
+    private static double median(double[] v) {
+        double[] c = v.clone();
+        java.util.Arrays.sort(c);
+        return c.length == 0 ? Double.NaN : c[c.length / 2];
+    }
+}
