@@ -147,7 +147,9 @@ public final class BatchReport {
         try (Reader r = Files.newBufferedReader(csv, StandardCharsets.UTF_8);
              CSVParser p = CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).build().parse(r)) {
             List<String> header = p.getHeaderNames();
-            int from = header.indexOf("grade") + 1;
+            // figure columns: between the last identifying column (grade, profile, defect) and failed_rules
+            int from = Math.max(header.indexOf("grade"), Math.max(header.indexOf("profile"),
+                    header.indexOf("defect"))) + 1;
             int to = header.indexOf("failed_rules");
             if (from <= 0 || to < from) {
                 throw new IOException(csv + ": not a results table (columns grade … failed_rules missing)");
