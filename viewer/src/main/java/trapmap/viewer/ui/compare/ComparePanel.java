@@ -332,7 +332,7 @@ public class ComparePanel extends JPanel {
     private void show(CompareModel.Result r) {
         this.result = r;
         beforeCanvas.setMap(r.before());
-        beforeCanvas.setStyle(AutoStyle.of(r.before()));
+        beforeCanvas.setStyle(AutoStyle.common(r.before(), r.after()));
         beforeTitle.setText("before: " + name(r.before()));
         afterCanvas.setMap(r.after());
         afterCanvas.setStyle(beforeCanvas.style()); // one scale for both, so colours compare

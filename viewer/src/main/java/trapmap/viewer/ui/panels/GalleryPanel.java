@@ -108,7 +108,10 @@ public final class GalleryPanel extends JPanel {
         }
         long pass = model.wafers().stream().filter(w -> w.result() != null && w.result().pass()).count();
         long fail = model.wafers().stream().filter(w -> w.result() != null && !w.result().pass()).count();
-        header.setText(model.size() + " wafers · " + pass + " pass · " + fail + " fail");
+        header.setText("<html>" + model.size() + " wafers<br><span style='font-weight:normal'>threshold rule: " + pass
+                + " pass · " + fail + " fail</span></html>");
+        header.setToolTipText("Pass: flagged regions cover at most the 'pass up to' share of the evaluated area"
+                + " (threshold panel). Batch grades from a rules file come from trapmap inspect.");
         list.repaint();
     }
 

@@ -1,0 +1,39 @@
+package trapmap.viewer.ui.charts;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+import org.junit.jupiter.api.Test;
+import trapmap.maps.io.ColourMap;
+import trapmap.maps.model.Quantity;
+import trapmap.maps.model.WaferMap;
+import trapmap.viewer.ui.canvas.DisplayStyle;
+
+class AutoStyleTest {
+    @Test
+    void lifetimesUseTheSequentialMapOnALogScale() {
+        DisplayStyle s = AutoStyle.of(ChartsTest.map(Quantity.EFFECTIVE_LIFETIME, 100, 0.3, 1));
+        assertThat(s.colours()).isEqualTo(ColourMap.BLUE_YELLOW);
+        assertThat(s.logarithmic()).isTrue();
+        assertThat(s.low()).isLessThan(100);
+        assertThat(s.high()).isGreaterThan(100);
+    }
+
+    @Test
+    void ratiosUseTheDivergingMapSymmetricAboutOneOnALogScale() {
+        DisplayStyle s = AutoStyle.of(ChartsTest.map(Quantity.RATIO, 2, 0.2, 2));
+        assertThat(s.colours()).isEqualTo(ColourMap.DIVERGING);
+        assertThat(s.logarithmic()).isTrue();
+        assertThat(s.low() * s.high()).isCloseTo(1, within(1e-12));
+        assertThat(s.high()).isGreaterThan(2);
+    }
+
+    @Test
+    void beforeAndAfterShareARangeCoveringBoth() {
+        WaferMap before = ChartsTest.map(Quantity.EFFECTIVE_LIFETIME, 50, 0.1, 3);
+        WaferMap after = ChartsTest.map(Quantity.EFFECTIVE_LIFETIME, 600, 0.1, 4);
+        DisplayStyle s = AutoStyle.common(before, after);
+        assertThat(s.low()).isEqualTo(AutoStyle.of(before).low());
+        assertThat(s.high()).isEqualTo(AutoStyle.of(after).high());
+    }
+}
