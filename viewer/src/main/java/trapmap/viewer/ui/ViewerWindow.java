@@ -70,6 +70,7 @@ import trapmap.viewer.ui.charts.InjectionCurve;
 import trapmap.viewer.ui.charts.InjectionCurveView;
 import trapmap.viewer.ui.charts.LineProfileView;
 import trapmap.viewer.ui.charts.RadialProfileView;
+import trapmap.maps.region.RegionCriteria;
 import trapmap.viewer.ui.canvas.MapCanvas;
 import trapmap.viewer.ui.model.Analysis;
 import trapmap.viewer.ui.model.DisplayedQuantity;
@@ -270,6 +271,7 @@ public final class ViewerWindow extends JFrame {
                 threshold.refresh();
                 logScale.setSelected(model.analysis().display().logarithmic());
                 showSelected();
+                previewThreshold();
                 scheduleAnalysis();
                 updateUndo();
             }
@@ -412,6 +414,22 @@ public final class ViewerWindow extends JFrame {
         } catch (RuntimeException e) {
             status.setMessage("injection curve: " + e.getMessage());
         }
+    }
+
+    /**
+     * A threshold edit shows the pixels beyond the new value at once (every such pixel, before the smallest-region
+     * filter); the regions, the table and the figures follow when the analysis has run.
+     */
+    private void previewThreshold() {
+        ViewerModel.OpenWafer w = model.selected();
+        WaferAnalysis r = w == null ? null : w.result();
+        Analysis a = model.analysis();
+        if (r == null || r.analysis().threshold().equals(a.threshold())
+                || !r.analysis().withThreshold(a.threshold()).equals(a)) {
+            return;
+        }
+        canvas.setFlagged(MapCanvas.flag(r.displayed().raster(), r.mask(), a.threshold().value(),
+                a.threshold().side() == RegionCriteria.Side.ABOVE));
     }
 
     // ---- analysis worker ---------------------------------------------------------------------------------
