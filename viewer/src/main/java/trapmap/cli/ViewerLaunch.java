@@ -100,7 +100,8 @@ final class ViewerLaunch {
         CommandLine cl = TrapmapCommand.commandLine(out, err);
         int code = cl.execute("inspect", demo.toString(), "--rules", demo.resolve(RULES).toString(), "--out",
                 report.toString());
-        out.println("report: " + report.resolve("results.csv") + " (and results.json, recurrence maps)");
+        out.println("report: " + report.resolve("summary.pdf") + " (and results.csv, results.json, regions.csv,"
+                + " thumbnails, recurrence maps in " + report + ")");
         out.flush();
         return code == Exit.SOME_WAFERS_NOT_PASSED ? Exit.OK : code;
     }

@@ -27,10 +27,11 @@ class ViewCommandTest {
         String[] lines = r.out().split("\\R");
         assertThat(lines[0]).startsWith("trapmap: no display available, so the viewer cannot open; running the"
                 + " demonstration batch instead (trapmap inspect ").contains("rules-example.json");
-        Matcher m = Pattern.compile("report: (\\S+results\\.csv)").matcher(r.out());
+        Matcher m = Pattern.compile("report: (\\S+summary\\.pdf)").matcher(r.out());
         assertThat(m.find()).as(r.out()).isTrue();
-        Path csv = Path.of(m.group(1));
+        Path csv = Path.of(m.group(1)).resolveSibling("results.csv");
         try {
+            assertThat(Path.of(m.group(1))).exists();
             assertThat(csv).exists();
             assertThat(Files.readAllLines(csv)).hasSize(1 + 17).first().asString().startsWith("file,wafer_id,status");
         } finally {
