@@ -193,7 +193,7 @@ public final class WaferInspection {
                 ? RegionCriteria.below(flag.threshold(), flag.minAreaMm2())
                 : RegionCriteria.above(flag.threshold(), flag.minAreaMm2());
         FlaggedRegions regions = FlaggedRegions.find(flagMap.raster(), grid, masks.indices(), masks.count(), criteria,
-                shape, density == null ? null : density.raster().samples());
+                shape, density == null ? null : density.raster().samples(), rules.edgeExclusionMm());
         FlaggedRegions.FlaggedRegion worst = regions.largest();
         double flaggedFraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
 
@@ -283,19 +283,29 @@ public final class WaferInspection {
         }
         int cw = w / k;
         int ch = h / k;
-        int[] block = new int[cw * k];
-        for (int x = 0; x < block.length; x++) {
-            block[x] = x / k;
-        }
+        PixelGrid coarse = new PixelGrid(cw, ch, grid.pitchMm() * k, (grid.centreXPx() - (k - 1) / 2.0) / k,
+                (grid.centreYPx() - (k - 1) / 2.0) / k);
+        return FIT_CACHE.fit(reducedValidity(tau, w, h, k), coarse);
+    }
+
+    /**
+     * The validity of the k×k blocks of a w×h map, ⌊w/k⌋ × ⌊h/k⌋ of them in row-major order: a block is valid when
+     * at least half of its pixels are not NaN.
+     */
+    static boolean[] reducedValidity(float[] tau, int w, int h, int k) {
+        int cw = w / k;
+        int ch = h / k;
         int[] counts = new int[cw * ch];
         for (int y = 0; y < ch * k; y++) {
             int row = (y / k) * cw;
-            int base = y * w;
-            for (int x = 0; x < cw * k; x++) {
-                float v = tau[base + x];
-                if (v == v) {
-                    counts[row + block[x]]++;
+            int x = y * w;
+            for (int bx = 0; bx < cw; bx++) {
+                int c = 0;
+                for (int end = x + k; x < end; x++) {
+                    float v = tau[x];
+                    c += v == v ? 1 : 0;
                 }
+                counts[row + bx] += c;
             }
         }
         int half = (k * k + 1) / 2;
@@ -303,9 +313,7 @@ public final class WaferInspection {
         for (int i = 0; i < valid.length; i++) {
             valid[i] = counts[i] >= half;
         }
-        PixelGrid coarse = new PixelGrid(cw, ch, grid.pitchMm() * k, (grid.centreXPx() - (k - 1) / 2.0) / k,
-                (grid.centreYPx() - (k - 1) / 2.0) / k);
-        return FIT_CACHE.fit(valid, coarse);
+        return valid;
     }
 
     /** Fitted outlines of the last few validity masks seen (see {@link FitCache}). */
@@ -523,27 +531,23 @@ public final class WaferInspection {
         for (int x = 0; x < w; x++) {
             column[x] = cell(grid.xMm(x), p) - i0;
         }
-        BitSet covered = new BitSet(cw * ch);
-        BitSet hit = new BitSet(cw * ch);
+        long[] words = new long[(cw * ch + 63) >>> 6]; // the covered cells, as the words of a BitSet
         for (int y = 0; y < h; y++) {
             int rowCell = (cell(grid.yMm(y), p) - j0) * cw;
             int row = y * w;
-            int last = -1;
             for (int x = 0; x < w; x++) {
                 if (evaluated[row + x]) {
                     int c = rowCell + column[x];
-                    if (c != last) {
-                        covered.set(c);
-                        last = c;
-                    }
+                    words[c >>> 6] |= 1L << c;
                 }
             }
         }
+        BitSet hit = new BitSet(cw * ch);
         for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
             int y = i / w;
             hit.set((cell(grid.yMm(y), p) - j0) * cw + column[i - y * w]); // flagged pixels are evaluated ones
         }
-        return new Footprint(family, p, i0, j0, cw, ch, covered, hit);
+        return new Footprint(family, p, i0, j0, cw, ch, BitSet.valueOf(words), hit);
     }
 
     static int cell(double mm, double pitchMm) {

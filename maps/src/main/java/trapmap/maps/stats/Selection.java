@@ -9,6 +9,8 @@ import java.util.Arrays;
 final class Selection {
     private static final int SMALL = 16;
     private static final int BUCKETS = 1 << 16;
+    /** Up to this many values are sorted outright. */
+    static final int SORTED = 1 << 12;
 
     private Selection() {
     }
@@ -16,13 +18,21 @@ final class Selection {
     /**
      * The values of ranks {@code ranks} (0-based, ascending, each &lt; n) among values[0..n), NaN-free.
      *
-     * <p>One pass sorts the values into 65 536 buckets by the top 16 bits of their order-preserving integer key (sign,
+     * <p>Up to {@link #SORTED} values are sorted (reordering {@code values}). Beyond, one pass sorts the values into 65 536 buckets by the top 16 bits of their order-preserving integer key (sign,
      * exponent and seven mantissa bits), a second gathers only the buckets that hold a wanted rank, and those few are
      * sorted. When the wanted buckets hold a large share of the data (a nearly constant map) the ranks are selected in
      * place instead, which reorders {@code values}.
      */
     static double[] ranks(float[] values, int n, int[] ranks) {
         double[] out = new double[ranks.length];
+        if (n <= SORTED) {
+            // a few thousand values: a sort costs less than the bucket tables, and gives the same order
+            Arrays.sort(values, 0, n);
+            for (int r = 0; r < ranks.length; r++) {
+                out[r] = values[ranks[r]];
+            }
+            return out;
+        }
         int[] count = new int[BUCKETS];
         for (int i = 0; i < n; i++) {
             count[bucket(values[i])]++;

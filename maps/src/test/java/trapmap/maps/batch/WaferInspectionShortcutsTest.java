@@ -78,6 +78,12 @@ class WaferInspectionShortcutsTest {
             assertThat(mine.regions()).extracting(FlaggedRegions.FlaggedRegion::region)
                     .containsExactlyElementsOf(expected);
             assertThat(mine.pixels().cardinality()).isEqualTo(expected.stream().mapToInt(Region::pixelCount).sum());
+            // edge distances over the border pixels only: the same regions
+            assertThat(m.grid().pitchMm()).isLessThan(2);
+            FlaggedRegions borders = FlaggedRegions.find(m.raster(), m.grid(), masks.indices(), masks.count(), c,
+                    shape, null, 2);
+            assertThat(borders.regions()).isEqualTo(mine.regions());
+            assertThat(borders.pixels()).isEqualTo(mine.pixels());
         }
     }
 
@@ -185,6 +191,40 @@ class WaferInspectionShortcutsTest {
             int cx = WaferInspection.cell(g.xMm(i % g.width()), 1) - f.minI();
             int cy = WaferInspection.cell(g.yMm(i / g.width()), 1) - f.minJ();
             assertThat(f.flagged().get(cy * f.width() + cx)).isTrue();
+        }
+        BitSet covered = new BitSet();
+        for (int i = 0; i < masks.evaluated().length; i++) {
+            if (masks.evaluated()[i]) {
+                int cx = WaferInspection.cell(g.xMm(i % g.width()), 1) - f.minI();
+                int cy = WaferInspection.cell(g.yMm(i / g.width()), 1) - f.minJ();
+                covered.set(cy * f.width() + cx);
+            }
+        }
+        assertThat(f.covered()).isEqualTo(covered);
+    }
+
+    @Test
+    void reducedValidityCountsTheValidPixelsOfEachBlock() {
+        Random rnd = new Random(11);
+        int w = 61;
+        int h = 47;
+        float[] tau = new float[w * h];
+        for (int i = 0; i < tau.length; i++) {
+            tau[i] = rnd.nextInt(3) == 0 ? Float.NaN : rnd.nextFloat();
+        }
+        for (int k = 2; k <= 7; k++) {
+            boolean[] valid = WaferInspection.reducedValidity(tau, w, h, k);
+            int cw = w / k;
+            assertThat(valid).hasSize(cw * (h / k));
+            for (int b = 0; b < valid.length; b++) {
+                int n = 0;
+                for (int y = (b / cw) * k; y < (b / cw + 1) * k; y++) {
+                    for (int x = (b % cw) * k; x < (b % cw + 1) * k; x++) {
+                        n += Float.isNaN(tau[y * w + x]) ? 0 : 1;
+                    }
+                }
+                assertThat(valid[b]).as("block %d, k=%d", b, k).isEqualTo(2 * n >= k * k);
+            }
         }
     }
 }

@@ -14,6 +14,7 @@ import org.assertj.core.data.Offset;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
+import org.junit.jupiter.params.provider.ValueSource;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
@@ -237,6 +238,24 @@ class MapStatisticsTest {
         double[] got = Selection.ranks(a.clone(), a.length, ranks);
         for (int k = 0; k < ranks.length; k++) {
             assertThat(got[k]).as("rank %d", ranks[k]).isEqualTo((double) sorted[ranks[k]]);
+        }
+    }
+
+    @ParameterizedTest
+    @ValueSource(ints = {1, 2, 3, Selection.SORTED - 1, Selection.SORTED, Selection.SORTED + 1, 3 * Selection.SORTED})
+    void ranksOnEitherSideOfTheSortedSizeAgreeWithASort(int n) {
+        Random rnd = new Random(n);
+        float[] a = new float[n];
+        for (int i = 0; i < n; i++) {
+            a[i] = rnd.nextInt(5) == 0 ? rnd.nextInt(4) - 1.5f : (float) Math.exp(rnd.nextGaussian() * 3);
+        }
+        float[] sorted = a.clone();
+        java.util.Arrays.sort(sorted);
+        int[] ranks = java.util.stream.IntStream.of(0, n / 100, n / 2, n / 2 + 1, n - 2, n - 1)
+                .filter(r -> r >= 0 && r < n).distinct().sorted().toArray();
+        double[] got = Selection.ranks(a.clone(), n, ranks);
+        for (int k = 0; k < ranks.length; k++) {
+            assertThat(got[k]).as("rank %d of %d", ranks[k], n).isEqualTo((double) sorted[ranks[k]]);
         }
     }
 
