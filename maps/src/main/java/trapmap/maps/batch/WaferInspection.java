@@ -170,12 +170,12 @@ public final class WaferInspection {
         Doping doping = map.conditions().doping();
         Rules.Profile profile = rules.profileFor(Path.of(name).getFileName().toString(),
                 doping == null ? null : doping.type(), family);
-        WaferMap density = profile.needsTrapDensity() ? trapDensity(lifetime, defects.get(profile.defectId())) : null;
-
         List<Figure> figures = profile.figures();
         boolean edgeRatio = figures.stream().anyMatch(f -> f.kind() == Figure.Kind.EDGE_TO_CENTRE_RATIO);
         Masks masks = masks(tau, grid, shape, rules.edgeExclusionMm(),
                 edgeRatio ? rules.edgeExclusionMm() + rules.edgeBandMm() : Double.NaN);
+        WaferMap density = profile.needsTrapDensity()
+                ? trapDensity(lifetime, defects.get(profile.defectId()), masks.indices(), masks.count()) : null;
         double[] lifePercents = percents(figures, Figure.Kind.LIFETIME_PERCENTILE);
         double[] withRange = Arrays.copyOf(lifePercents, lifePercents.length + 2);
         withRange[lifePercents.length] = THUMBNAIL_LOW_PERCENT;
@@ -237,6 +237,33 @@ public final class WaferInspection {
         float[] nt = new float[lifetime.raster().size()];
         new TrapDensityConverter(conditions, defect).convert(lifetime.raster().samples(), lifetime.width(),
                 new ConversionOutput(nt, null, null, null, null, null, null, null, null), 1);
+        return lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), nt), Quantity.TRAP_DENSITY,
+                ProcessingStep.of("convert", "defect", defect.id(), "doping", conditions.doping().toString(),
+                        "injection", conditions.injection().toString()));
+    }
+
+    /**
+     * As {@link #trapDensity(WaferMap, Defect)} at the pixels {@code indices[0..count)}, NaN elsewhere: every figure,
+     * region and flag of the batch reads the trap density of evaluated pixels only, and the conversion of a pixel
+     * depends on its lifetime alone, so the evaluated pixels are converted packed into one row.
+     */
+    static WaferMap trapDensity(WaferMap lifetime, Defect defect, int[] indices, int count) {
+        Conditions conditions = MapConversion.physicsConditions(lifetime.conditions(), ConversionSettings.DEFAULTS);
+        float[] tau = lifetime.raster().samples();
+        float[] nt = new float[tau.length];
+        Arrays.fill(nt, Float.NaN);
+        if (count > 0) {
+            float[] packed = new float[count];
+            for (int k = 0; k < count; k++) {
+                packed[k] = tau[indices[k]];
+            }
+            float[] out = new float[count];
+            new TrapDensityConverter(conditions, defect).convert(packed, count,
+                    new ConversionOutput(out, null, null, null, null, null, null, null, null), 1);
+            for (int k = 0; k < count; k++) {
+                nt[indices[k]] = out[k];
+            }
+        }
         return lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), nt), Quantity.TRAP_DENSITY,
                 ProcessingStep.of("convert", "defect", defect.id(), "doping", conditions.doping().toString(),
                         "injection", conditions.injection().toString()));
@@ -528,14 +555,26 @@ public final class WaferInspection {
         for (int x = 0; x < w; x++) {
             column[x] = cell(grid.xMm(x), p) - i0;
         }
+        // runs of columns in the same cell: a cell of a row is covered once any of its pixels is evaluated
+        int[] runStart = new int[w + 1];
+        int runs = 0;
+        for (int x = 0; x < w; x++) {
+            if (x == 0 || column[x] != column[x - 1]) {
+                runStart[runs++] = x;
+            }
+        }
+        runStart[runs] = w;
         long[] words = new long[(cw * ch + 63) >>> 6]; // the covered cells, as the words of a BitSet
         for (int y = 0; y < h; y++) {
             int rowCell = (cell(grid.yMm(y), p) - j0) * cw;
             int row = y * w;
-            for (int x = 0; x < w; x++) {
-                if (evaluated[row + x]) {
-                    int c = rowCell + column[x];
-                    words[c >>> 6] |= 1L << c;
+            for (int r = 0; r < runs; r++) {
+                for (int x = runStart[r], end = runStart[r + 1]; x < end; x++) {
+                    if (evaluated[row + x]) {
+                        int c = rowCell + column[x];
+                        words[c >>> 6] |= 1L << c;
+                        break;
+                    }
                 }
             }
         }

@@ -98,6 +98,18 @@ class WaferInspectionShortcutsTest {
         WaferMap mine = WaferInspection.trapDensity(lifetime, defect);
         assertThat(mine.quantity()).isEqualTo(Quantity.TRAP_DENSITY);
         assertThat(mine.raster().samples()).containsExactly(expected);
+        // converted at the evaluated pixels only: the same values there, NaN elsewhere
+        WaferShape shape = OutlineDetection.fit(lifetime).shape();
+        WaferInspection.Masks masks = WaferInspection.masks(lifetime.raster().samples(), lifetime.grid(), shape, 2,
+                Double.NaN);
+        WaferMap packed = WaferInspection.trapDensity(lifetime, defect, masks.indices(), masks.count());
+        assertThat(packed.provenance()).isEqualTo(mine.provenance());
+        assertThat(masks.count()).isPositive();
+        float[] p = packed.raster().samples();
+        for (int i = 0; i < p.length; i++) {
+            float want = masks.evaluated()[i] ? expected[i] : Float.NaN;
+            assertThat(Float.floatToRawIntBits(p[i])).as("pixel %d", i).isEqualTo(Float.floatToRawIntBits(want));
+        }
     }
 
     @Test
