@@ -19,8 +19,8 @@ final class Selection {
      * The values of ranks {@code ranks} (0-based, ascending, each &lt; n) among values[0..n), NaN-free.
      *
      * <p>Up to {@link #SORTED} values are sorted (reordering {@code values}). Beyond, one pass sorts the values into 65 536 buckets by the top 16 bits of their order-preserving integer key (sign,
-     * exponent and seven mantissa bits), a second gathers only the buckets that hold a wanted rank, and those few are
-     * sorted. When the wanted buckets hold a large share of the data (a nearly constant map) the ranks are selected in
+     * exponent and seven mantissa bits), a second gathers only the buckets that hold a wanted rank, and the ranks are
+     * selected within those few. When the wanted buckets hold a large share of the data (a nearly constant map) the ranks are selected in
      * place instead, which reorders {@code values}.
      */
     static double[] ranks(float[] values, int n, int[] ranks) {
@@ -78,12 +78,17 @@ final class Selection {
                 bins[slot][fill[slot]++] = values[i];
             }
         }
-        for (float[] bin : bins) {
-            Arrays.sort(bin);
-        }
+        // each wanted rank selected within its bucket (ascending ranks, so a later one starts where the last ended);
+        // a bucket never holds both zeros (-0 and +0 have keys on either side of a bucket boundary), so comparing
+        // with < orders it exactly as Arrays.sort would
+        int[] from = new int[slots];
         for (int r = 0; r < ranks.length; r++) {
             int bb = bucketOfRank[r];
-            out[r] = bins[slotOfBucket[bb]][ranks[r] - start[bb]];
+            int slot = slotOfBucket[bb];
+            float[] bin = bins[slot];
+            int k = ranks[r] - start[bb];
+            out[r] = select(bin, from[slot], bin.length - 1, k);
+            from[slot] = k;
         }
         return out;
     }
