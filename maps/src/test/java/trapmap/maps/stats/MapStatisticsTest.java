@@ -260,6 +260,27 @@ class MapStatisticsTest {
     }
 
     @Test
+    void ranksAmongManyTiesAndBothZerosAgreeWithASortBitForBit() {
+        Random rnd = new Random(12);
+        int n = 300_000;
+        float[] a = new float[n];
+        for (int i = 0; i < n; i++) {
+            int k = rnd.nextInt(400);
+            a[i] = k == 0 ? -0f : k == 1 ? 0f : (k - 200) * 0.37f * (1 + rnd.nextInt(3) * 1e-7f);
+        }
+        float[] sorted = a.clone();
+        java.util.Arrays.sort(sorted);
+        int zero = java.util.Arrays.binarySearch(sorted, 0f);
+        int[] ranks = java.util.stream.IntStream.of(0, 3000, zero - 1, zero, zero + 1, n / 2, 297_000, n - 1)
+                .distinct().sorted().toArray();
+        double[] got = Selection.ranks(a.clone(), n, ranks);
+        for (int k = 0; k < ranks.length; k++) {
+            assertThat(Double.doubleToRawLongBits(got[k])).as("rank %d", ranks[k])
+                    .isEqualTo(Double.doubleToRawLongBits(sorted[ranks[k]]));
+        }
+    }
+
+    @Test
     void selectionLeavesTheArrayPartitioned() {
         Random rnd = new Random(3);
         float[] a = new float[1001];
