@@ -174,15 +174,19 @@ public final class WaferInspection {
         boolean edgeRatio = figures.stream().anyMatch(f -> f.kind() == Figure.Kind.EDGE_TO_CENTRE_RATIO);
         Masks masks = masks(tau, grid, shape, rules.edgeExclusionMm(),
                 edgeRatio ? rules.edgeExclusionMm() + rules.edgeBandMm() : Double.NaN);
-        WaferMap density = profile.needsTrapDensity()
-                ? trapDensity(lifetime, defects.get(profile.defectId()), masks.indices(), masks.count()) : null;
+        // the evaluated lifetimes, packed in index order: converted, then summed and ranked (which reorders them)
+        float[] lifeValues = Sample.gather(tau, masks);
+        Density converted = profile.needsTrapDensity()
+                ? trapDensity(lifetime, defects.get(profile.defectId()), lifeValues, masks) : null;
+        WaferMap density = converted == null ? null : converted.map();
+        Sample dens = converted == null ? null : Sample.ofPacked(converted.packed(), masks.count(), grid,
+                percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE), false);
         double[] lifePercents = percents(figures, Figure.Kind.LIFETIME_PERCENTILE);
         double[] withRange = Arrays.copyOf(lifePercents, lifePercents.length + 2);
         withRange[lifePercents.length] = THUMBNAIL_LOW_PERCENT;
         withRange[lifePercents.length + 1] = THUMBNAIL_HIGH_PERCENT;
-        Sample life = Sample.of(tau, masks, grid, thumbnail == null ? lifePercents : withRange);
-        Sample dens = density == null ? null : Sample.of(density.raster().samples(), masks, grid,
-                percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE), false);
+        Sample life = Sample.ofPacked(lifeValues, masks.count(), grid,
+                thumbnail == null ? lifePercents : withRange, true);
 
         Rules.Flag flag = profile.flag();
         WaferMap flagMap = flag.quantity() == Rules.FlagQuantity.LIFETIME ? lifetime : density;
@@ -248,25 +252,33 @@ public final class WaferInspection {
      * depends on its lifetime alone, so the evaluated pixels are converted packed into one row.
      */
     static WaferMap trapDensity(WaferMap lifetime, Defect defect, int[] indices, int count) {
+        Masks masks = new Masks(null, indices, count, null);
+        return trapDensity(lifetime, defect, Sample.gather(lifetime.raster().samples(), masks), masks).map();
+    }
+
+    /** A trap-density map and its values at the evaluated pixels, packed in index order. */
+    record Density(WaferMap map, float[] packed) {
+    }
+
+    /** As {@link #trapDensity(WaferMap, Defect, int[], int)} from the evaluated lifetimes, packed in index order. */
+    static Density trapDensity(WaferMap lifetime, Defect defect, float[] packedTau, Masks masks) {
         Conditions conditions = MapConversion.physicsConditions(lifetime.conditions(), ConversionSettings.DEFAULTS);
-        float[] tau = lifetime.raster().samples();
-        float[] nt = new float[tau.length];
+        int[] indices = masks.indices();
+        int count = masks.count();
+        float[] nt = new float[lifetime.raster().size()];
         Arrays.fill(nt, Float.NaN);
+        float[] out = new float[count];
         if (count > 0) {
-            float[] packed = new float[count];
-            for (int k = 0; k < count; k++) {
-                packed[k] = tau[indices[k]];
-            }
-            float[] out = new float[count];
-            new TrapDensityConverter(conditions, defect).convert(packed, count,
+            new TrapDensityConverter(conditions, defect).convert(packedTau, count,
                     new ConversionOutput(out, null, null, null, null, null, null, null, null), 1);
             for (int k = 0; k < count; k++) {
                 nt[indices[k]] = out[k];
             }
         }
-        return lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), nt), Quantity.TRAP_DENSITY,
-                ProcessingStep.of("convert", "defect", defect.id(), "doping", conditions.doping().toString(),
-                        "injection", conditions.injection().toString()));
+        WaferMap map = lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), nt),
+                Quantity.TRAP_DENSITY, ProcessingStep.of("convert", "defect", defect.id(), "doping",
+                        conditions.doping().toString(), "injection", conditions.injection().toString()));
+        return new Density(map, out);
     }
 
     /** See {@link Figure.Kind#LARGEST_INTERIOR_REGION}; NaN without an outline. */
@@ -500,14 +512,29 @@ public final class WaferInspection {
 
         /** As {@link #of(float[], Masks, PixelGrid, double[])}; without the harmonic mean (NaN) unless asked for. */
         static Sample of(float[] s, Masks masks, PixelGrid grid, double[] percents, boolean harmonic) {
+            return ofPacked(gather(s, masks), masks.count(), grid, percents, harmonic);
+        }
+
+        /** The samples of the evaluated pixels, in index order. */
+        static float[] gather(float[] s, Masks masks) {
             int[] idx = masks.indices();
-            int n = masks.count();
-            float[] v = new float[n];
+            float[] v = new float[masks.count()];
+            for (int k = 0; k < v.length; k++) {
+                v[k] = s[idx[k]];
+            }
+            return v;
+        }
+
+        /**
+         * As {@link #of(float[], Masks, PixelGrid, double[], boolean)} from the evaluated pixels' samples packed in
+         * index order, {@code v[0..n)}, which it reorders.
+         */
+        static Sample ofPacked(float[] v, int n, PixelGrid grid, double[] percents, boolean harmonic) {
             int m = 0;
             int positive = 0;
             double reciprocalSum = 0;
             for (int k = 0; k < n; k++) {
-                float f = s[idx[k]];
+                float f = v[k];
                 if (f == f) {
                     v[m++] = f;
                     if (harmonic && f > 0) {

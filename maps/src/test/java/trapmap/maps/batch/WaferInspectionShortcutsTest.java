@@ -113,6 +113,33 @@ class WaferInspectionShortcutsTest {
     }
 
     @Test
+    void packedTrapDensityFiguresEqualMapStatisticsOfTheFullConversion() throws Exception {
+        WaferMap m = demo("LOT-A02-W05-before-gettering.tif");
+        WaferShape shape = OutlineDetection.fit(m).shape();
+        WaferInspection.Masks masks = WaferInspection.masks(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
+        Defect fe = DefectLibrary.byId("fe-i");
+        float[] packedTau = WaferInspection.Sample.gather(m.raster().samples(), masks);
+        WaferInspection.Density d = WaferInspection.trapDensity(m, fe, packedTau, masks);
+        double[] percents = {5, 95};
+        WaferInspection.Sample s = WaferInspection.Sample.ofPacked(d.packed(), masks.count(), m.grid(), percents,
+                false);
+        MapStatistics st = MapStatistics.of(WaferInspection.trapDensity(m, fe),
+                WaferInspection.mask(masks.evaluated(), m.grid()), StatisticsRequest.of(percents));
+        assertThat(s.count()).isEqualTo(st.count());
+        assertThat(s.median()).isEqualTo(st.median());
+        for (double p : percents) {
+            assertThat(s.percentile(p)).isEqualTo(st.percentile(p));
+        }
+        // and the lifetimes, packed the same way, give the lifetime figures
+        WaferInspection.Sample life = WaferInspection.Sample.ofPacked(packedTau, masks.count(), m.grid(), percents,
+                true);
+        MapStatistics lt = MapStatistics.of(m, WaferInspection.mask(masks.evaluated(), m.grid()),
+                StatisticsRequest.of(percents));
+        assertThat(life.harmonicMean()).isEqualTo(lt.harmonicMean());
+        assertThat(life.percentile(95)).isEqualTo(lt.percentile(95));
+    }
+
+    @Test
     void sampleFiguresEqualMapStatistics() throws Exception {
         WaferMap m = demo("LOT-A02-W05-before-gettering.tif");
         WaferShape shape = OutlineDetection.fit(m).shape();
