@@ -10,7 +10,6 @@ import trapmap.maps.raster.PixelGrid;
 import trapmap.maps.region.Region;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.stats.MapStatistics;
-import trapmap.maps.stats.StatisticsRequest;
 
 /**
  * The flagged regions of one wafer in a single labelling pass: the same regions, in the same order and with the same
@@ -204,10 +203,15 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
             }
             double medianDensity = Double.NaN;
             if (dens != null) {
-                MapStatistics st = MapStatistics.of(FloatRaster.wrap(size, 1, dens), null,
-                        PixelGrid.centred(size, 1, grid.pitchMm()), StatisticsRequest.of(new double[0]));
-                medianDensity = st.median();
-                peakDensity = st.count() == 0 ? Double.NaN : peakDensity;
+                // the median MapStatistics.of gives: the type-7 P50 of the values that are not NaN
+                int m = 0;
+                for (float f : dens) {
+                    if (f == f) {
+                        dens[m++] = f;
+                    }
+                }
+                medianDensity = MapStatistics.percentiles(dens, m, new double[] {50})[0];
+                peakDensity = m == 0 ? Double.NaN : peakDensity;
             } else {
                 peakDensity = Double.NaN;
             }

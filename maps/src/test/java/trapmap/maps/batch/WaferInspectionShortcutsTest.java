@@ -88,6 +88,33 @@ class WaferInspectionShortcutsTest {
     }
 
     @ParameterizedTest
+    @ValueSource(ints = {6, 40})
+    void regionDensityMedianEqualsMapStatisticsOverItsPixels(int radius) {
+        int n = 96;
+        PixelGrid grid = PixelGrid.centred(n, n, 0.5);
+        float[] tau = new float[n * n];
+        float[] density = new float[n * n];
+        Random rnd = new Random(radius);
+        int[] all = new int[n * n];
+        for (int i = 0; i < tau.length; i++) {
+            int dx = i % n - n / 2;
+            int dy = i / n - n / 2;
+            tau[i] = dx * dx + dy * dy <= radius * radius ? 10 : 100;
+            density[i] = rnd.nextInt(10) == 0 ? Float.NaN : rnd.nextInt(50) * 1e10f; // ties and gaps
+            all[i] = i;
+        }
+        FlaggedRegions r = FlaggedRegions.find(FloatRaster.wrap(n, n, tau), grid, all, all.length,
+                RegionCriteria.below(50, 0), null, density);
+        assertThat(r.regions()).hasSize(1);
+        BitSet px = r.pixels();
+        Mask region = Mask.of(n, n, px::get);
+        MapStatistics st = MapStatistics.of(FloatRaster.wrap(n, n, density), region, grid,
+                StatisticsRequest.of(new double[0]));
+        assertThat(r.regions().get(0).medianDensityCm3()).isEqualTo(st.median());
+        assertThat(r.regions().get(0).peakDensityCm3()).isEqualTo(st.max());
+    }
+
+    @ParameterizedTest
     @ValueSource(strings = {"LOT-A01-W02.tif", "LOT-N01-W01.tif", "LOT-A04-W01-pl.tif"})
     void trapDensityEqualsThatOfTheFullConversion(String file) throws Exception {
         WaferMap read = demo(file);
