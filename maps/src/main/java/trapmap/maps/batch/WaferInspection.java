@@ -1,6 +1,7 @@
 package trapmap.maps.batch;
 
 import java.awt.image.BufferedImage;
+import java.awt.image.DataBufferInt;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -11,14 +12,10 @@ import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
-import javax.imageio.IIOImage;
-import javax.imageio.ImageIO;
-import javax.imageio.ImageWriteParam;
-import javax.imageio.ImageWriter;
-import javax.imageio.stream.ImageOutputStream;
 import trapmap.maps.geometry.OutlineDetection;
 import trapmap.maps.geometry.OutlineFit;
 import trapmap.maps.geometry.WaferShape;
+import trapmap.maps.io.FastPngWriter;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.MapFormatException;
 import trapmap.maps.io.PngStyle;
@@ -173,19 +170,23 @@ public final class WaferInspection {
         Doping doping = map.conditions().doping();
         Rules.Profile profile = rules.profileFor(Path.of(name).getFileName().toString(),
                 doping == null ? null : doping.type(), family);
-        WaferMap density = profile.needsTrapDensity() ? trapDensity(lifetime, defects.get(profile.defectId())) : null;
-
         List<Figure> figures = profile.figures();
         boolean edgeRatio = figures.stream().anyMatch(f -> f.kind() == Figure.Kind.EDGE_TO_CENTRE_RATIO);
         Masks masks = masks(tau, grid, shape, rules.edgeExclusionMm(),
                 edgeRatio ? rules.edgeExclusionMm() + rules.edgeBandMm() : Double.NaN);
+        // the evaluated lifetimes, packed in index order: converted, then summed and ranked (which reorders them)
+        float[] lifeValues = Sample.gather(tau, masks);
+        Density converted = profile.needsTrapDensity()
+                ? trapDensity(lifetime, defects.get(profile.defectId()), lifeValues, masks) : null;
+        WaferMap density = converted == null ? null : converted.map();
+        Sample dens = converted == null ? null : Sample.ofPacked(converted.packed(), masks.count(), grid,
+                percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE), false);
         double[] lifePercents = percents(figures, Figure.Kind.LIFETIME_PERCENTILE);
         double[] withRange = Arrays.copyOf(lifePercents, lifePercents.length + 2);
         withRange[lifePercents.length] = THUMBNAIL_LOW_PERCENT;
         withRange[lifePercents.length + 1] = THUMBNAIL_HIGH_PERCENT;
-        Sample life = Sample.of(tau, masks, grid, thumbnail == null ? lifePercents : withRange);
-        Sample dens = density == null ? null : Sample.of(density.raster().samples(), masks, grid,
-                percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE), false);
+        Sample life = Sample.ofPacked(lifeValues, masks.count(), grid,
+                thumbnail == null ? lifePercents : withRange, true);
 
         Rules.Flag flag = profile.flag();
         WaferMap flagMap = flag.quantity() == Rules.FlagQuantity.LIFETIME ? lifetime : density;
@@ -193,7 +194,7 @@ public final class WaferInspection {
                 ? RegionCriteria.below(flag.threshold(), flag.minAreaMm2())
                 : RegionCriteria.above(flag.threshold(), flag.minAreaMm2());
         FlaggedRegions regions = FlaggedRegions.find(flagMap.raster(), grid, masks.indices(), masks.count(), criteria,
-                shape, density == null ? null : density.raster().samples());
+                shape, density == null ? null : density.raster().samples(), rules.edgeExclusionMm());
         FlaggedRegions.FlaggedRegion worst = regions.largest();
         double flaggedFraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
 
@@ -245,6 +246,41 @@ public final class WaferInspection {
                         "injection", conditions.injection().toString()));
     }
 
+    /**
+     * As {@link #trapDensity(WaferMap, Defect)} at the pixels {@code indices[0..count)}, NaN elsewhere: every figure,
+     * region and flag of the batch reads the trap density of evaluated pixels only, and the conversion of a pixel
+     * depends on its lifetime alone, so the evaluated pixels are converted packed into one row.
+     */
+    static WaferMap trapDensity(WaferMap lifetime, Defect defect, int[] indices, int count) {
+        Masks masks = new Masks(null, indices, count, null);
+        return trapDensity(lifetime, defect, Sample.gather(lifetime.raster().samples(), masks), masks).map();
+    }
+
+    /** A trap-density map and its values at the evaluated pixels, packed in index order. */
+    record Density(WaferMap map, float[] packed) {
+    }
+
+    /** As {@link #trapDensity(WaferMap, Defect, int[], int)} from the evaluated lifetimes, packed in index order. */
+    static Density trapDensity(WaferMap lifetime, Defect defect, float[] packedTau, Masks masks) {
+        Conditions conditions = MapConversion.physicsConditions(lifetime.conditions(), ConversionSettings.DEFAULTS);
+        int[] indices = masks.indices();
+        int count = masks.count();
+        float[] nt = new float[lifetime.raster().size()];
+        Arrays.fill(nt, Float.NaN);
+        float[] out = new float[count];
+        if (count > 0) {
+            new TrapDensityConverter(conditions, defect).convert(packedTau, count,
+                    new ConversionOutput(out, null, null, null, null, null, null, null, null), 1);
+            for (int k = 0; k < count; k++) {
+                nt[indices[k]] = out[k];
+            }
+        }
+        WaferMap map = lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), nt),
+                Quantity.TRAP_DENSITY, ProcessingStep.of("convert", "defect", defect.id(), "doping",
+                        conditions.doping().toString(), "injection", conditions.injection().toString()));
+        return new Density(map, out);
+    }
+
     /** See {@link Figure.Kind#LARGEST_INTERIOR_REGION}; NaN without an outline. */
     private double largestInterior(FlaggedRegions regions, WaferShape shape, PixelGrid grid) {
         if (shape == null) {
@@ -283,19 +319,29 @@ public final class WaferInspection {
         }
         int cw = w / k;
         int ch = h / k;
-        int[] block = new int[cw * k];
-        for (int x = 0; x < block.length; x++) {
-            block[x] = x / k;
-        }
+        PixelGrid coarse = new PixelGrid(cw, ch, grid.pitchMm() * k, (grid.centreXPx() - (k - 1) / 2.0) / k,
+                (grid.centreYPx() - (k - 1) / 2.0) / k);
+        return FIT_CACHE.fit(reducedValidity(tau, w, h, k), coarse);
+    }
+
+    /**
+     * The validity of the k×k blocks of a w×h map, ⌊w/k⌋ × ⌊h/k⌋ of them in row-major order: a block is valid when
+     * at least half of its pixels are not NaN.
+     */
+    static boolean[] reducedValidity(float[] tau, int w, int h, int k) {
+        int cw = w / k;
+        int ch = h / k;
         int[] counts = new int[cw * ch];
         for (int y = 0; y < ch * k; y++) {
             int row = (y / k) * cw;
-            int base = y * w;
-            for (int x = 0; x < cw * k; x++) {
-                float v = tau[base + x];
-                if (v == v) {
-                    counts[row + block[x]]++;
+            int x = y * w;
+            for (int bx = 0; bx < cw; bx++) {
+                int c = 0;
+                for (int end = x + k; x < end; x++) {
+                    float v = tau[x];
+                    c += v == v ? 1 : 0;
                 }
+                counts[row + bx] += c;
             }
         }
         int half = (k * k + 1) / 2;
@@ -303,9 +349,7 @@ public final class WaferInspection {
         for (int i = 0; i < valid.length; i++) {
             valid[i] = counts[i] >= half;
         }
-        PixelGrid coarse = new PixelGrid(cw, ch, grid.pitchMm() * k, (grid.centreXPx() - (k - 1) / 2.0) / k,
-                (grid.centreYPx() - (k - 1) / 2.0) / k);
-        return FIT_CACHE.fit(valid, coarse);
+        return valid;
     }
 
     /** Fitted outlines of the last few validity masks seen (see {@link FitCache}). */
@@ -468,14 +512,29 @@ public final class WaferInspection {
 
         /** As {@link #of(float[], Masks, PixelGrid, double[])}; without the harmonic mean (NaN) unless asked for. */
         static Sample of(float[] s, Masks masks, PixelGrid grid, double[] percents, boolean harmonic) {
+            return ofPacked(gather(s, masks), masks.count(), grid, percents, harmonic);
+        }
+
+        /** The samples of the evaluated pixels, in index order. */
+        static float[] gather(float[] s, Masks masks) {
             int[] idx = masks.indices();
-            int n = masks.count();
-            float[] v = new float[n];
+            float[] v = new float[masks.count()];
+            for (int k = 0; k < v.length; k++) {
+                v[k] = s[idx[k]];
+            }
+            return v;
+        }
+
+        /**
+         * As {@link #of(float[], Masks, PixelGrid, double[], boolean)} from the evaluated pixels' samples packed in
+         * index order, {@code v[0..n)}, which it reorders.
+         */
+        static Sample ofPacked(float[] v, int n, PixelGrid grid, double[] percents, boolean harmonic) {
             int m = 0;
             int positive = 0;
             double reciprocalSum = 0;
             for (int k = 0; k < n; k++) {
-                float f = s[idx[k]];
+                float f = v[k];
                 if (f == f) {
                     v[m++] = f;
                     if (harmonic && f > 0) {
@@ -523,27 +582,35 @@ public final class WaferInspection {
         for (int x = 0; x < w; x++) {
             column[x] = cell(grid.xMm(x), p) - i0;
         }
-        BitSet covered = new BitSet(cw * ch);
-        BitSet hit = new BitSet(cw * ch);
+        // runs of columns in the same cell: a cell of a row is covered once any of its pixels is evaluated
+        int[] runStart = new int[w + 1];
+        int runs = 0;
+        for (int x = 0; x < w; x++) {
+            if (x == 0 || column[x] != column[x - 1]) {
+                runStart[runs++] = x;
+            }
+        }
+        runStart[runs] = w;
+        long[] words = new long[(cw * ch + 63) >>> 6]; // the covered cells, as the words of a BitSet
         for (int y = 0; y < h; y++) {
             int rowCell = (cell(grid.yMm(y), p) - j0) * cw;
             int row = y * w;
-            int last = -1;
-            for (int x = 0; x < w; x++) {
-                if (evaluated[row + x]) {
-                    int c = rowCell + column[x];
-                    if (c != last) {
-                        covered.set(c);
-                        last = c;
+            for (int r = 0; r < runs; r++) {
+                for (int x = runStart[r], end = runStart[r + 1]; x < end; x++) {
+                    if (evaluated[row + x]) {
+                        int c = rowCell + column[x];
+                        words[c >>> 6] |= 1L << c;
+                        break;
                     }
                 }
             }
         }
+        BitSet hit = new BitSet(cw * ch);
         for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
             int y = i / w;
             hit.set((cell(grid.yMm(y), p) - j0) * cw + column[i - y * w]); // flagged pixels are evaluated ones
         }
-        return new Footprint(family, p, i0, j0, cw, ch, covered, hit);
+        return new Footprint(family, p, i0, j0, cw, ch, BitSet.valueOf(words), hit);
     }
 
     static int cell(double mm, double pitchMm) {
@@ -596,9 +663,10 @@ public final class WaferInspection {
         BufferedImage out = MapFiles.picture(new WaferMap(FloatRaster.wrap(tw, th, small), sg, map.quantity(),
                 map.waferId(), map.conditions(), map.provenance()), style);
         boolean[] near = dilate(hit, tw, th, OUTLINE_PX);
+        int[] argb = ((DataBufferInt) out.getRaster().getDataBuffer()).getData(); // TYPE_INT_ARGB, no offset
         for (int i = 0; i < near.length; i++) {
             if (near[i] && !hit[i]) {
-                out.setRGB(i % tw, i / tw, OUTLINE_ARGB);
+                argb[i] = OUTLINE_ARGB;
             }
         }
         return out;
@@ -636,25 +704,11 @@ public final class WaferInspection {
         return out;
     }
 
-    /** Writes a PNG with fast (level 1) deflate: a thumbnail is small either way, and this is most of its cost. */
-    private static void writePng(BufferedImage img, Path file) throws IOException {
-        ImageWriter writer = ImageIO.getImageWritersByFormatName("png").next();
-        try (ImageOutputStream out = ImageIO.createImageOutputStream(file.toFile())) {
-            ImageWriteParam param = writer.getDefaultWriteParam();
-            param.setCompressionMode(ImageWriteParam.MODE_EXPLICIT);
-            param.setCompressionQuality(0.85f); // deflate level ⌊9·(1 − q)⌋ = 1
-            writer.setOutput(out);
-            writer.write(null, new IIOImage(img, null, null), param);
-        } finally {
-            writer.dispose();
-        }
-    }
-
     private static void writeThumbnail(WaferMap map, BitSet flagged, double lowUs, double highUs, Path file) {
         BufferedImage img = thumbnail(map, flagged, lowUs, highUs);
         Path tmp = file.resolveSibling(file.getFileName() + ".tmp");
         try {
-            writePng(img, tmp);
+            FastPngWriter.write(img, tmp);
             java.nio.file.Files.move(tmp, file, java.nio.file.StandardCopyOption.REPLACE_EXISTING,
                     java.nio.file.StandardCopyOption.ATOMIC_MOVE);
         } catch (IOException e) {

@@ -1,6 +1,7 @@
 package trapmap.maps.io;
 
 import java.awt.image.BufferedImage;
+import java.awt.image.DataBufferInt;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.Arrays;
@@ -41,7 +42,9 @@ final class PngMaps {
         int w = map.width();
         int h = map.height();
         float[] s = map.raster().samples();
-        int[] argb = new int[w * h];
+        BufferedImage img = new BufferedImage(w, h, BufferedImage.TYPE_INT_ARGB);
+        // drawn straight into the picture's pixels (non-premultiplied ARGB, as setRGB would store them)
+        int[] argb = ((DataBufferInt) img.getRaster().getDataBuffer()).getData();
         for (int i = 0; i < argb.length; i++) {
             float v = s[i];
             if (!valid(v, log)) {
@@ -50,8 +53,6 @@ final class PngMaps {
             double t = span > 0 ? ((log ? Math.log10(v) : v) - lo) / span : 0.5;
             argb[i] = 0xFF000000 | style.colours().rgbAt(t);
         }
-        BufferedImage img = new BufferedImage(w, h, BufferedImage.TYPE_INT_ARGB);
-        img.setRGB(0, 0, w, h, argb, 0, w);
         return img;
     }
 

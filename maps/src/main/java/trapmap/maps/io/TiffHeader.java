@@ -103,7 +103,7 @@ final class TiffHeader {
      */
     record Page(int ifdIndex, long ifdOffset, int width, int height, SampleType type, int compression,
                 int predictor, String description, double xResolution, double yResolution, int resolutionUnit,
-                boolean tiled) {
+                boolean tiled, Strips strips) {
 
         /** 1-based page number for messages. */
         int number() {
@@ -129,6 +129,13 @@ final class TiffHeader {
             return xResolution > 0 && yResolution > 0
                     && Math.abs(xResolution - yResolution) > 1e-6 * Math.max(xResolution, yResolution);
         }
+    }
+
+    /**
+     * Where the samples of an uncompressed 32-bit float page lie, for reading them without a decoder: strip i holds
+     * rows [i·rowsPerStrip, min(h, (i + 1)·rowsPerStrip)) from byte {@code offsets[i]}, in byte order {@code order}.
+     */
+    record Strips(long[] offsets, int rowsPerStrip, ByteOrder order) {
     }
 
     private record Entry(int tag, int type, long count, long valuePos, long entryPos) {
@@ -345,16 +352,21 @@ final class TiffHeader {
         boolean tiled = entries.containsKey(TILE_WIDTH) || entries.containsKey(TILE_OFFSETS);
         int w = (int) width;
         int h = (int) height;
+        Strips strips = null;
         if (tiled) {
             checkTiles(entries, w, h, type, compression, where);
         } else {
-            checkStrips(entries, w, h, type, compression, where);
+            strips = checkStrips(entries, w, h, type, compression, where);
+            if (compression != 1 || type != SampleType.FLOAT32) {
+                strips = null;
+            }
         }
         String description = description(entries.get(IMAGE_DESCRIPTION), where);
         double xr = rational(entries.get(X_RESOLUTION), where);
         double yr = rational(entries.get(Y_RESOLUTION), where);
         int unit = entries.containsKey(RESOLUTION_UNIT) ? (int) single(entries.get(RESOLUTION_UNIT), where) : 0;
-        return new Page(index, ifd, w, h, type, (int) compression, (int) predictor, description, xr, yr, unit, tiled);
+        return new Page(index, ifd, w, h, type, (int) compression, (int) predictor, description, xr, yr, unit, tiled,
+                strips);
     }
 
     private static SampleType sampleType(long bits, long format) {
@@ -370,8 +382,8 @@ final class TiffHeader {
         return null;
     }
 
-    private void checkStrips(Map<Integer, Entry> entries, int w, int h, SampleType type, long compression,
-                             String where) throws MapFormatException {
+    private Strips checkStrips(Map<Integer, Entry> entries, int w, int h, SampleType type, long compression,
+                               String where) throws MapFormatException {
         long rps = Math.min(optional(entries, ROWS_PER_STRIP, 0xFFFFFFFFL, where), h);
         if (rps == 0) {
             throw new MapFormatException(file, at(entries, ROWS_PER_STRIP, where), "rows per strip is 0");
@@ -394,6 +406,7 @@ final class TiffHeader {
             long rows = Math.min(rps, h - i * rps);
             checkBlock("strip", i, off[i], cnt[i], rows * rowBytes, compression, offsets, where);
         }
+        return new Strips(off, (int) rps, order);
     }
 
     private void checkTiles(Map<Integer, Entry> entries, int w, int h, SampleType type, long compression,

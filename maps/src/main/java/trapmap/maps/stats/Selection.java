@@ -9,6 +9,8 @@ import java.util.Arrays;
 final class Selection {
     private static final int SMALL = 16;
     private static final int BUCKETS = 1 << 16;
+    /** Up to this many values are sorted outright. */
+    static final int SORTED = 1 << 12;
 
     private Selection() {
     }
@@ -16,13 +18,21 @@ final class Selection {
     /**
      * The values of ranks {@code ranks} (0-based, ascending, each &lt; n) among values[0..n), NaN-free.
      *
-     * <p>One pass sorts the values into 65 536 buckets by the top 16 bits of their order-preserving integer key (sign,
-     * exponent and seven mantissa bits), a second gathers only the buckets that hold a wanted rank, and those few are
-     * sorted. When the wanted buckets hold a large share of the data (a nearly constant map) the ranks are selected in
+     * <p>Up to {@link #SORTED} values are sorted (reordering {@code values}). Beyond, one pass sorts the values into 65 536 buckets by the top 16 bits of their order-preserving integer key (sign,
+     * exponent and seven mantissa bits), a second gathers only the buckets that hold a wanted rank, and the ranks are
+     * selected within those few. When the wanted buckets hold a large share of the data (a nearly constant map) the ranks are selected in
      * place instead, which reorders {@code values}.
      */
     static double[] ranks(float[] values, int n, int[] ranks) {
         double[] out = new double[ranks.length];
+        if (n <= SORTED) {
+            // a few thousand values: a sort costs less than the bucket tables, and gives the same order
+            Arrays.sort(values, 0, n);
+            for (int r = 0; r < ranks.length; r++) {
+                out[r] = values[ranks[r]];
+            }
+            return out;
+        }
         int[] count = new int[BUCKETS];
         for (int i = 0; i < n; i++) {
             count[bucket(values[i])]++;
@@ -68,12 +78,17 @@ final class Selection {
                 bins[slot][fill[slot]++] = values[i];
             }
         }
-        for (float[] bin : bins) {
-            Arrays.sort(bin);
-        }
+        // each wanted rank selected within its bucket (ascending ranks, so a later one starts where the last ended);
+        // a bucket never holds both zeros (-0 and +0 have keys on either side of a bucket boundary), so comparing
+        // with < orders it exactly as Arrays.sort would
+        int[] from = new int[slots];
         for (int r = 0; r < ranks.length; r++) {
             int bb = bucketOfRank[r];
-            out[r] = bins[slotOfBucket[bb]][ranks[r] - start[bb]];
+            int slot = slotOfBucket[bb];
+            float[] bin = bins[slot];
+            int k = ranks[r] - start[bb];
+            out[r] = select(bin, from[slot], bin.length - 1, k);
+            from[slot] = k;
         }
         return out;
     }

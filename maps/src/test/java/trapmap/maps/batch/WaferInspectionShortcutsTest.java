@@ -78,7 +78,40 @@ class WaferInspectionShortcutsTest {
             assertThat(mine.regions()).extracting(FlaggedRegions.FlaggedRegion::region)
                     .containsExactlyElementsOf(expected);
             assertThat(mine.pixels().cardinality()).isEqualTo(expected.stream().mapToInt(Region::pixelCount).sum());
+            // edge distances over the border pixels only: the same regions
+            assertThat(m.grid().pitchMm()).isLessThan(2);
+            FlaggedRegions borders = FlaggedRegions.find(m.raster(), m.grid(), masks.indices(), masks.count(), c,
+                    shape, null, 2);
+            assertThat(borders.regions()).isEqualTo(mine.regions());
+            assertThat(borders.pixels()).isEqualTo(mine.pixels());
         }
+    }
+
+    @ParameterizedTest
+    @ValueSource(ints = {6, 40})
+    void regionDensityMedianEqualsMapStatisticsOverItsPixels(int radius) {
+        int n = 96;
+        PixelGrid grid = PixelGrid.centred(n, n, 0.5);
+        float[] tau = new float[n * n];
+        float[] density = new float[n * n];
+        Random rnd = new Random(radius);
+        int[] all = new int[n * n];
+        for (int i = 0; i < tau.length; i++) {
+            int dx = i % n - n / 2;
+            int dy = i / n - n / 2;
+            tau[i] = dx * dx + dy * dy <= radius * radius ? 10 : 100;
+            density[i] = rnd.nextInt(10) == 0 ? Float.NaN : rnd.nextInt(50) * 1e10f; // ties and gaps
+            all[i] = i;
+        }
+        FlaggedRegions r = FlaggedRegions.find(FloatRaster.wrap(n, n, tau), grid, all, all.length,
+                RegionCriteria.below(50, 0), null, density);
+        assertThat(r.regions()).hasSize(1);
+        BitSet px = r.pixels();
+        Mask region = Mask.of(n, n, px::get);
+        MapStatistics st = MapStatistics.of(FloatRaster.wrap(n, n, density), region, grid,
+                StatisticsRequest.of(new double[0]));
+        assertThat(r.regions().get(0).medianDensityCm3()).isEqualTo(st.median());
+        assertThat(r.regions().get(0).peakDensityCm3()).isEqualTo(st.max());
     }
 
     @ParameterizedTest
@@ -92,6 +125,45 @@ class WaferInspectionShortcutsTest {
         WaferMap mine = WaferInspection.trapDensity(lifetime, defect);
         assertThat(mine.quantity()).isEqualTo(Quantity.TRAP_DENSITY);
         assertThat(mine.raster().samples()).containsExactly(expected);
+        // converted at the evaluated pixels only: the same values there, NaN elsewhere
+        WaferShape shape = OutlineDetection.fit(lifetime).shape();
+        WaferInspection.Masks masks = WaferInspection.masks(lifetime.raster().samples(), lifetime.grid(), shape, 2,
+                Double.NaN);
+        WaferMap packed = WaferInspection.trapDensity(lifetime, defect, masks.indices(), masks.count());
+        assertThat(packed.provenance()).isEqualTo(mine.provenance());
+        assertThat(masks.count()).isPositive();
+        float[] p = packed.raster().samples();
+        for (int i = 0; i < p.length; i++) {
+            float want = masks.evaluated()[i] ? expected[i] : Float.NaN;
+            assertThat(Float.floatToRawIntBits(p[i])).as("pixel %d", i).isEqualTo(Float.floatToRawIntBits(want));
+        }
+    }
+
+    @Test
+    void packedTrapDensityFiguresEqualMapStatisticsOfTheFullConversion() throws Exception {
+        WaferMap m = demo("LOT-A02-W05-before-gettering.tif");
+        WaferShape shape = OutlineDetection.fit(m).shape();
+        WaferInspection.Masks masks = WaferInspection.masks(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
+        Defect fe = DefectLibrary.byId("fe-i");
+        float[] packedTau = WaferInspection.Sample.gather(m.raster().samples(), masks);
+        WaferInspection.Density d = WaferInspection.trapDensity(m, fe, packedTau, masks);
+        double[] percents = {5, 95};
+        WaferInspection.Sample s = WaferInspection.Sample.ofPacked(d.packed(), masks.count(), m.grid(), percents,
+                false);
+        MapStatistics st = MapStatistics.of(WaferInspection.trapDensity(m, fe),
+                WaferInspection.mask(masks.evaluated(), m.grid()), StatisticsRequest.of(percents));
+        assertThat(s.count()).isEqualTo(st.count());
+        assertThat(s.median()).isEqualTo(st.median());
+        for (double p : percents) {
+            assertThat(s.percentile(p)).isEqualTo(st.percentile(p));
+        }
+        // and the lifetimes, packed the same way, give the lifetime figures
+        WaferInspection.Sample life = WaferInspection.Sample.ofPacked(packedTau, masks.count(), m.grid(), percents,
+                true);
+        MapStatistics lt = MapStatistics.of(m, WaferInspection.mask(masks.evaluated(), m.grid()),
+                StatisticsRequest.of(percents));
+        assertThat(life.harmonicMean()).isEqualTo(lt.harmonicMean());
+        assertThat(life.percentile(95)).isEqualTo(lt.percentile(95));
     }
 
     @Test
@@ -185,6 +257,40 @@ class WaferInspectionShortcutsTest {
             int cx = WaferInspection.cell(g.xMm(i % g.width()), 1) - f.minI();
             int cy = WaferInspection.cell(g.yMm(i / g.width()), 1) - f.minJ();
             assertThat(f.flagged().get(cy * f.width() + cx)).isTrue();
+        }
+        BitSet covered = new BitSet();
+        for (int i = 0; i < masks.evaluated().length; i++) {
+            if (masks.evaluated()[i]) {
+                int cx = WaferInspection.cell(g.xMm(i % g.width()), 1) - f.minI();
+                int cy = WaferInspection.cell(g.yMm(i / g.width()), 1) - f.minJ();
+                covered.set(cy * f.width() + cx);
+            }
+        }
+        assertThat(f.covered()).isEqualTo(covered);
+    }
+
+    @Test
+    void reducedValidityCountsTheValidPixelsOfEachBlock() {
+        Random rnd = new Random(11);
+        int w = 61;
+        int h = 47;
+        float[] tau = new float[w * h];
+        for (int i = 0; i < tau.length; i++) {
+            tau[i] = rnd.nextInt(3) == 0 ? Float.NaN : rnd.nextFloat();
+        }
+        for (int k = 2; k <= 7; k++) {
+            boolean[] valid = WaferInspection.reducedValidity(tau, w, h, k);
+            int cw = w / k;
+            assertThat(valid).hasSize(cw * (h / k));
+            for (int b = 0; b < valid.length; b++) {
+                int n = 0;
+                for (int y = (b / cw) * k; y < (b / cw + 1) * k; y++) {
+                    for (int x = (b % cw) * k; x < (b % cw + 1) * k; x++) {
+                        n += Float.isNaN(tau[y * w + x]) ? 0 : 1;
+                    }
+                }
+                assertThat(valid[b]).as("block %d, k=%d", b, k).isEqualTo(2 * n >= k * k);
+            }
         }
     }
 }

@@ -201,4 +201,25 @@ class ColourMapTest {
         }
         return out;
     }
+
+    @Test
+    void roundingOfTheColourIndexEqualsMathRound() {
+        java.util.Random rnd = new java.util.Random(2);
+        for (int k = 0; k <= 255; k++) {
+            for (double x : new double[] {k, k + 0.5, Math.nextDown(k + 0.5), Math.nextUp(k + 0.5), Math.nextDown(k),
+                    Math.nextUp(k), k + 0.49999999999999994}) {
+                if (x >= 0 && x <= 255) {
+                    assertThat(ColourMap.roundHalfUp(x)).as("x = %s", x).isEqualTo((int) Math.round(x));
+                }
+            }
+        }
+        for (int i = 0; i < 1_000_000; i++) {
+            double x = rnd.nextDouble() * 255;
+            assertThat(ColourMap.roundHalfUp(x)).isEqualTo((int) Math.round(x));
+        }
+        for (int i = 0; i <= 1000; i++) { // the positions rgbAt rounds: t · 255 for t in [0, 1]
+            double x = (i / 1000.0) * 255;
+            assertThat(ColourMap.roundHalfUp(x)).isEqualTo((int) Math.round(x));
+        }
+    }
 }

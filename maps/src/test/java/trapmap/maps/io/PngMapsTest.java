@@ -70,6 +70,29 @@ class PngMapsTest {
     }
 
     @Test
+    void everyPixelHasTheColourOfItsValueOnTheLogScale() {
+        java.util.Random rnd = new java.util.Random(4);
+        int w = 53;
+        int h = 41;
+        float[] s = new float[w * h];
+        for (int i = 0; i < s.length; i++) {
+            s[i] = rnd.nextInt(7) == 0 ? Float.NaN : rnd.nextInt(9) == 0 ? -rnd.nextFloat()
+                    : (float) Math.pow(10, 4 * rnd.nextDouble() - 0.5);
+        }
+        WaferMap m = new WaferMap(FloatRaster.wrap(w, h, s), PixelGrid.centred(w, h, 1),
+                Quantity.EFFECTIVE_LIFETIME, "", MeasurementConditions.UNKNOWN, Provenance.of(""));
+        PngStyle style = PngStyle.DEFAULT.withRange(2, 900);
+        BufferedImage img = PngMaps.render(m, style);
+        double lo = Math.log10(2);
+        double span = Math.log10(900) - lo;
+        for (int i = 0; i < s.length; i++) {
+            int expected = Float.isFinite(s[i]) && s[i] > 0
+                    ? 0xFF000000 | style.colours().rgbAt((Math.log10(s[i]) - lo) / span) : 0;
+            assertThat(img.getRGB(i % w, i / w)).as("pixel %d", i).isEqualTo(expected);
+        }
+    }
+
+    @Test
     void nonPositiveValuesAreTransparentOnALogScale() {
         WaferMap m = new WaferMap(FloatRaster.wrap(3, 1, new float[] {-1, 0, 5}), PixelGrid.centred(3, 1, 1),
                 Quantity.TRAP_DENSITY, "", MeasurementConditions.UNKNOWN, Provenance.of(""));

@@ -175,6 +175,53 @@ class TiffRoundTripTest {
         assertThat(m.provenance().steps().get(0).parameters()).containsEntry("decoder", "twelvemonkeys");
     }
 
+    /** Uncompressed float strips are read without a decoder: the same bits as the JDK plugin decodes. */
+    @org.junit.jupiter.params.ParameterizedTest
+    @org.junit.jupiter.params.provider.ValueSource(booleans = {true, false})
+    void directStripReadingEqualsTheJdkDecoderBitForBit(boolean little) throws Exception {
+        int w = 37;
+        int h = 23;
+        java.util.Random rnd = new java.util.Random(w * h);
+        float[] s = new float[w * h];
+        for (int i = 0; i < s.length; i++) {
+            s[i] = (float) Math.exp(rnd.nextGaussian() * 4);
+        }
+        s[3] = Float.NaN;
+        s[4] = Float.intBitsToFloat(0x7fc12345); // NaN with a payload
+        s[5] = -0f;
+        s[6] = Float.MIN_VALUE;
+        s[7] = Float.NEGATIVE_INFINITY;
+        TiffBytes t = little ? TiffBytes.littleEndian() : TiffBytes.bigEndian();
+        byte[] all = t.floats(s);
+        int rps = 5; // five strips, the last of three rows
+        java.util.List<byte[]> strips = new java.util.ArrayList<>();
+        for (int r = 0; r < h; r += rps) {
+            strips.add(java.util.Arrays.copyOfRange(all, r * w * 4, Math.min(h, r + rps) * w * 4));
+        }
+        t.page(w, h, 32, 3, 1).tag(278, TiffBytes.LONG, rps).strips(strips.toArray(new byte[0][]));
+        Path f = dir.resolve("strips.tif");
+        Files.write(f, t.build());
+
+        WaferMap m = MapFiles.readSingle(f);
+        assertThat(m.provenance().steps().get(0).parameters()).containsEntry("decoder", "direct");
+        assertThat(Fixtures.bits(m.raster().samples())).isEqualTo(Fixtures.bits(s));
+        javax.imageio.ImageReader jdk = null;
+        for (var it = javax.imageio.ImageIO.getImageReadersByFormatName("tiff"); it.hasNext();) {
+            javax.imageio.ImageReader r = it.next();
+            if (r.getClass().getName().startsWith("com.sun.imageio.plugins.tiff")) {
+                jdk = r;
+            }
+        }
+        assertThat(jdk).isNotNull();
+        try (var in = javax.imageio.ImageIO.createImageInputStream(f.toFile())) {
+            jdk.setInput(in);
+            float[] decoded = jdk.read(0).getRaster().getSamples(0, 0, w, h, 0, new float[w * h]);
+            assertThat(Fixtures.bits(m.raster().samples())).isEqualTo(Fixtures.bits(decoded));
+        } finally {
+            jdk.dispose();
+        }
+    }
+
     @Test
     void bigEndianFloatFileIsRead() throws Exception {
         TiffBytes t = TiffBytes.bigEndian();

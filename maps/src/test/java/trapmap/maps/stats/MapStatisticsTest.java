@@ -14,6 +14,7 @@ import org.assertj.core.data.Offset;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
+import org.junit.jupiter.params.provider.ValueSource;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
@@ -237,6 +238,45 @@ class MapStatisticsTest {
         double[] got = Selection.ranks(a.clone(), a.length, ranks);
         for (int k = 0; k < ranks.length; k++) {
             assertThat(got[k]).as("rank %d", ranks[k]).isEqualTo((double) sorted[ranks[k]]);
+        }
+    }
+
+    @ParameterizedTest
+    @ValueSource(ints = {1, 2, 3, Selection.SORTED - 1, Selection.SORTED, Selection.SORTED + 1, 3 * Selection.SORTED})
+    void ranksOnEitherSideOfTheSortedSizeAgreeWithASort(int n) {
+        Random rnd = new Random(n);
+        float[] a = new float[n];
+        for (int i = 0; i < n; i++) {
+            a[i] = rnd.nextInt(5) == 0 ? rnd.nextInt(4) - 1.5f : (float) Math.exp(rnd.nextGaussian() * 3);
+        }
+        float[] sorted = a.clone();
+        java.util.Arrays.sort(sorted);
+        int[] ranks = java.util.stream.IntStream.of(0, n / 100, n / 2, n / 2 + 1, n - 2, n - 1)
+                .filter(r -> r >= 0 && r < n).distinct().sorted().toArray();
+        double[] got = Selection.ranks(a.clone(), n, ranks);
+        for (int k = 0; k < ranks.length; k++) {
+            assertThat(got[k]).as("rank %d of %d", ranks[k], n).isEqualTo((double) sorted[ranks[k]]);
+        }
+    }
+
+    @Test
+    void ranksAmongManyTiesAndBothZerosAgreeWithASortBitForBit() {
+        Random rnd = new Random(12);
+        int n = 300_000;
+        float[] a = new float[n];
+        for (int i = 0; i < n; i++) {
+            int k = rnd.nextInt(400);
+            a[i] = k == 0 ? -0f : k == 1 ? 0f : (k - 200) * 0.37f * (1 + rnd.nextInt(3) * 1e-7f);
+        }
+        float[] sorted = a.clone();
+        java.util.Arrays.sort(sorted);
+        int zero = java.util.Arrays.binarySearch(sorted, 0f);
+        int[] ranks = java.util.stream.IntStream.of(0, 3000, zero - 1, zero, zero + 1, n / 2, 297_000, n - 1)
+                .distinct().sorted().toArray();
+        double[] got = Selection.ranks(a.clone(), n, ranks);
+        for (int k = 0; k < ranks.length; k++) {
+            assertThat(Double.doubleToRawLongBits(got[k])).as("rank %d", ranks[k])
+                    .isEqualTo(Double.doubleToRawLongBits(sorted[ranks[k]]));
         }
     }
 

@@ -1,0 +1,73 @@
+package trapmap.maps.io;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.awt.image.BufferedImage;
+import java.io.ByteArrayInputStream;
+import java.io.ByteArrayOutputStream;
+import java.nio.file.Path;
+import java.util.Random;
+import javax.imageio.ImageIO;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+/** The direct PNG writer's files decode (JDK ImageIO reader as reference) to exactly the pixels drawn. */
+class FastPngWriterTest {
+
+    private static BufferedImage randomPicture(int w, int h, long seed) {
+        Random rnd = new Random(seed);
+        BufferedImage img = new BufferedImage(w, h, BufferedImage.TYPE_INT_ARGB);
+        for (int y = 0; y < h; y++) {
+            for (int x = 0; x < w; x++) {
+                int kind = rnd.nextInt(4);
+                int argb = switch (kind) {
+                    case 0 -> 0; // transparent, as pixels without data
+                    case 1 -> 0xFF000000 | rnd.nextInt(1 << 24);
+                    case 2 -> rnd.nextInt(); // any alpha
+                    default -> 0xFF000000 | (x * 255 / w) << 16 | (y * 255 / h) << 8; // smooth ramp
+                };
+                img.setRGB(x, y, argb);
+            }
+        }
+        return img;
+    }
+
+    private static void assertSamePixels(BufferedImage actual, BufferedImage expected) {
+        assertThat(actual.getWidth()).isEqualTo(expected.getWidth());
+        assertThat(actual.getHeight()).isEqualTo(expected.getHeight());
+        for (int y = 0; y < expected.getHeight(); y++) {
+            for (int x = 0; x < expected.getWidth(); x++) {
+                assertThat(actual.getRGB(x, y)).as("(%d, %d)", x, y).isEqualTo(expected.getRGB(x, y));
+            }
+        }
+    }
+
+    @Test
+    void decodedPixelsEqualTheDrawnOnes() throws Exception {
+        for (int[] size : new int[][] {{1, 1}, {256, 171}, {33, 256}}) {
+            BufferedImage img = randomPicture(size[0], size[1], size[0] * 31L + size[1]);
+            BufferedImage back = ImageIO.read(new ByteArrayInputStream(FastPngWriter.encode(img)));
+            assertSamePixels(back, img);
+        }
+    }
+
+    @Test
+    void decodesAsTheJdkWritersFileDoes(@TempDir Path dir) throws Exception {
+        BufferedImage img = randomPicture(120, 90, 7);
+        ByteArrayOutputStream jdk = new ByteArrayOutputStream();
+        ImageIO.write(img, "png", jdk);
+        Path mine = dir.resolve("p.png");
+        FastPngWriter.write(img, mine);
+        assertSamePixels(ImageIO.read(mine.toFile()), ImageIO.read(new ByteArrayInputStream(jdk.toByteArray())));
+    }
+
+    @Test
+    void otherImageTypesAndSubimagesGoThroughTheirArgbValues() throws Exception {
+        BufferedImage whole = randomPicture(64, 48, 9);
+        BufferedImage sub = whole.getSubimage(5, 7, 40, 30);
+        assertSamePixels(ImageIO.read(new ByteArrayInputStream(FastPngWriter.encode(sub))), sub);
+        BufferedImage rgb = new BufferedImage(20, 10, BufferedImage.TYPE_INT_RGB);
+        rgb.setRGB(3, 4, 0x123456);
+        assertSamePixels(ImageIO.read(new ByteArrayInputStream(FastPngWriter.encode(rgb))), rgb);
+    }
+}
