@@ -15,7 +15,7 @@ import java.util.Map;
 import trapmap.maps.geometry.OutlineDetection;
 import trapmap.maps.geometry.OutlineFit;
 import trapmap.maps.geometry.WaferShape;
-import trapmap.maps.io.FastPngWriter;
+import trapmap.maps.io.PngFiles;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.MapFormatException;
 import trapmap.maps.io.PngStyle;
@@ -708,7 +708,7 @@ public final class WaferInspection {
         BufferedImage img = thumbnail(map, flagged, lowUs, highUs);
         Path tmp = file.resolveSibling(file.getFileName() + ".tmp");
         try {
-            FastPngWriter.write(img, tmp);
+            PngFiles.write(img, tmp);
             java.nio.file.Files.move(tmp, file, java.nio.file.StandardCopyOption.REPLACE_EXISTING,
                     java.nio.file.StandardCopyOption.ATOMIC_MOVE);
         } catch (IOException e) {

@@ -11,8 +11,8 @@ import javax.imageio.ImageIO;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
-/** The direct PNG writer's files decode (JDK ImageIO reader as reference) to exactly the pixels drawn. */
-class FastPngWriterTest {
+/** PNG files written with the fast deflate setting decode (JDK ImageIO reader as reference) to exactly the pixels drawn. */
+class PngFilesTest {
 
     private static BufferedImage randomPicture(int w, int h, long seed) {
         Random rnd = new Random(seed);
@@ -46,7 +46,7 @@ class FastPngWriterTest {
     void decodedPixelsEqualTheDrawnOnes() throws Exception {
         for (int[] size : new int[][] {{1, 1}, {256, 171}, {33, 256}}) {
             BufferedImage img = randomPicture(size[0], size[1], size[0] * 31L + size[1]);
-            BufferedImage back = ImageIO.read(new ByteArrayInputStream(FastPngWriter.encode(img)));
+            BufferedImage back = ImageIO.read(new ByteArrayInputStream(PngFiles.encode(img)));
             assertSamePixels(back, img);
         }
     }
@@ -57,7 +57,7 @@ class FastPngWriterTest {
         ByteArrayOutputStream jdk = new ByteArrayOutputStream();
         ImageIO.write(img, "png", jdk);
         Path mine = dir.resolve("p.png");
-        FastPngWriter.write(img, mine);
+        PngFiles.write(img, mine);
         assertSamePixels(ImageIO.read(mine.toFile()), ImageIO.read(new ByteArrayInputStream(jdk.toByteArray())));
     }
 
@@ -65,9 +65,9 @@ class FastPngWriterTest {
     void otherImageTypesAndSubimagesGoThroughTheirArgbValues() throws Exception {
         BufferedImage whole = randomPicture(64, 48, 9);
         BufferedImage sub = whole.getSubimage(5, 7, 40, 30);
-        assertSamePixels(ImageIO.read(new ByteArrayInputStream(FastPngWriter.encode(sub))), sub);
+        assertSamePixels(ImageIO.read(new ByteArrayInputStream(PngFiles.encode(sub))), sub);
         BufferedImage rgb = new BufferedImage(20, 10, BufferedImage.TYPE_INT_RGB);
         rgb.setRGB(3, 4, 0x123456);
-        assertSamePixels(ImageIO.read(new ByteArrayInputStream(FastPngWriter.encode(rgb))), rgb);
+        assertSamePixels(ImageIO.read(new ByteArrayInputStream(PngFiles.encode(rgb))), rgb);
     }
 }
