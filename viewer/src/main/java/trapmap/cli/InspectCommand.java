@@ -93,8 +93,11 @@ final class InspectCommand implements Callable<Integer> {
             err.println();
             err.flush();
         }
+        Path pdf = out.resolve(BatchReport.FILE_NAME);
+        boolean pdfWritten = false;
         try {
             BatchReport.writeFor(out, rules);
+            pdfWritten = true;
         } catch (IOException | RuntimeException e) {
             err.println("inspect: " + out.resolve(BatchReport.FILE_NAME) + " not written: " + e.getMessage());
         }
@@ -109,12 +112,16 @@ final class InspectCommand implements Callable<Integer> {
             m.put("results_csv", s.csv().toString());
             m.put("results_json", s.json().toString());
             m.put("recurrence", s.recurrence().stream().map(Path::toString).toList());
+            if (pdfWritten) {
+                m.put("summary_pdf", pdf.toString());
+            }
             o.println(Output.json(m));
         } else {
-            o.printf(Locale.ROOT, "%d wafers: %d pass, %d fail, %d error; yield %s%s; results in %s and %s%n",
+            o.printf(Locale.ROOT, "%d wafers: %d pass, %d fail, %d error; yield %s%s; results in %s and %s%s%n",
                     s.total(), s.pass(), s.fail(), s.error(),
                     Double.isNaN(s.yield()) ? "n/a" : String.format(Locale.ROOT, "%.1f %%", 100 * s.yield()),
-                    s.skipped() > 0 ? " (" + s.skipped() + " kept from the previous run)" : "", s.csv(), s.json());
+                    s.skipped() > 0 ? " (" + s.skipped() + " kept from the previous run)" : "", s.csv(), s.json(),
+                    pdfWritten ? "; summary " + pdf : "");
         }
         o.flush();
         return s.pass() == s.total() ? Exit.OK : Exit.SOME_WAFERS_NOT_PASSED;

@@ -27,6 +27,7 @@ class InspectSummaryTest {
                 "--threads", "1");
         assertThat(r.code()).isEqualTo(1);
         assertThat(r.err()).doesNotContain("not written");
+        assertThat(r.out()).contains("; summary " + out.resolve("summary.pdf"));
         try (PDDocument doc = Loader.loadPDF(out.resolve("summary.pdf").toFile())) {
             String text = new PDFTextStripper().getText(doc).replaceAll("\\s+", " ");
             assertThat(text).contains("Batch inspection summary", "2 wafers", "Yield 50.0 %", "W-2");
