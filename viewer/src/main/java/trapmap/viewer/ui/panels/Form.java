@@ -7,11 +7,10 @@ import java.awt.Insets;
 import javax.swing.BorderFactory;
 import javax.swing.JComponent;
 import javax.swing.JLabel;
-import javax.swing.JPanel;
 import javax.swing.JSeparator;
 
 /** A two- or three-column form (label, field, unit) on a grid-bag layout. */
-final class Form extends JPanel implements javax.swing.Scrollable {
+final class Form extends WidthTrackingPanel {
     private static final long serialVersionUID = 1L;
     private int row;
 
@@ -82,31 +81,6 @@ final class Form extends JPanel implements javax.swing.Scrollable {
         add(new JLabel(), c);
     }
 
-    @Override
-    public java.awt.Dimension getPreferredScrollableViewportSize() {
-        return getPreferredSize();
-    }
-
-    @Override
-    public int getScrollableUnitIncrement(java.awt.Rectangle r, int orientation, int direction) {
-        return 16;
-    }
-
-    @Override
-    public int getScrollableBlockIncrement(java.awt.Rectangle r, int orientation, int direction) {
-        return Math.max(16, r.height - 32);
-    }
-
-    /** Follows the viewport's width, so that nothing is cut off on the right. */
-    @Override
-    public boolean getScrollableTracksViewportWidth() {
-        return true;
-    }
-
-    @Override
-    public boolean getScrollableTracksViewportHeight() {
-        return false;
-    }
 
     private GridBagConstraints constraints(int col, int span) {
         GridBagConstraints c = new GridBagConstraints();

@@ -31,7 +31,7 @@ import trapmap.viewer.ui.model.ViewerModel;
  * each map's sidecar value (shown greyed as the placeholder); a typed value replaces it for every open map. Edits
  * apply after a short pause (debounced) and go on the undo history.
  */
-public final class PhysicsPanel extends JPanel implements javax.swing.Scrollable {
+public final class PhysicsPanel extends WidthTrackingPanel {
     private static final long serialVersionUID = 1L;
     private static final String SIDECAR = "empty = the map's sidecar value";
 
@@ -387,30 +387,6 @@ public final class PhysicsPanel extends JPanel implements javax.swing.Scrollable
         }
     }
 
-    @Override
-    public java.awt.Dimension getPreferredScrollableViewportSize() {
-        return getPreferredSize();
-    }
-
-    @Override
-    public int getScrollableUnitIncrement(java.awt.Rectangle r, int orientation, int direction) {
-        return 16;
-    }
-
-    @Override
-    public int getScrollableBlockIncrement(java.awt.Rectangle r, int orientation, int direction) {
-        return Math.max(16, r.height - 32);
-    }
-
-    @Override
-    public boolean getScrollableTracksViewportWidth() {
-        return true;
-    }
-
-    @Override
-    public boolean getScrollableTracksViewportHeight() {
-        return false;
-    }
 
     /** Shows the range actually used (auto range) in the low/high fields. */
     public void showRange(double lo, double hi) {
