@@ -16,21 +16,32 @@ import java.util.Set;
  * temporary file in the target's directory, which is flushed to disk and then renamed over the target in one
  * step. On failure the temporary file is removed and the target is untouched.
  */
-final class AtomicFiles {
+public final class AtomicFiles {
     private static final Set<PosixFilePermission> DEFAULT_PERMISSIONS = PosixFilePermissions.fromString("rw-r--r--");
 
     /** Writes the content of a file at a given path. */
     @FunctionalInterface
-    interface Content {
+    public interface Content {
         void writeTo(Path file) throws IOException;
     }
 
     private AtomicFiles() {
     }
 
-    static void write(Path target, Content content) throws IOException {
+    /** {@link #write(Path, Content)} of the given bytes. */
+    public static void write(Path target, byte[] bytes) throws IOException {
+        write(target, tmp -> Files.write(tmp, bytes));
+    }
+
+    /**
+     * Writes {@code target} (creating its folder) so that readers see either its old content or the complete new one.
+     *
+     * @throws IOException from the content or the move; the target is then unchanged
+     */
+    public static void write(Path target, Content content) throws IOException {
         Path abs = target.toAbsolutePath();
         Path dir = abs.getParent();
+        Files.createDirectories(dir);
         Path tmp = Files.createTempFile(dir, "." + abs.getFileName() + ".", ".tmp");
         boolean done = false;
         try {

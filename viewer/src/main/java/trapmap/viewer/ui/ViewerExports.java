@@ -2,10 +2,8 @@ package trapmap.viewer.ui;
 
 import java.io.IOException;
 import java.io.StringWriter;
-import java.nio.file.AtomicMoveNotSupportedException;
-import java.nio.file.Files;
 import java.nio.file.Path;
-import java.nio.file.StandardCopyOption;
+import trapmap.maps.io.AtomicFiles;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
@@ -27,18 +25,7 @@ public final class ViewerExports {
 
     /** Writes bytes atomically: a temporary file beside the target, then a rename. */
     public static void writeAtomically(Path target, byte[] bytes) throws IOException {
-        Path dir = target.toAbsolutePath().getParent();
-        Path tmp = Files.createTempFile(dir, "." + target.getFileName(), ".tmp");
-        try {
-            Files.write(tmp, bytes);
-            try {
-                Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
-            } catch (AtomicMoveNotSupportedException e) {
-                Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING);
-            }
-        } finally {
-            Files.deleteIfExists(tmp);
-        }
+        AtomicFiles.write(target, bytes);
     }
 
     /** The flagged regions of a result as CSV text (units in the column names). */

@@ -6,11 +6,8 @@ import java.awt.RenderingHints;
 import java.awt.geom.Rectangle2D;
 import java.awt.image.BufferedImage;
 import java.io.IOException;
-import java.nio.file.AtomicMoveNotSupportedException;
-import java.nio.file.Files;
 import java.nio.file.Path;
-import java.nio.file.StandardCopyOption;
-import java.nio.file.attribute.PosixFilePermissions;
+import trapmap.maps.io.AtomicFiles;
 import javax.imageio.ImageIO;
 import org.jfree.chart.JFreeChart;
 
@@ -69,35 +66,12 @@ public final class ChartExport {
     }
 
     /**
-     * Writes {@code target} so that readers see either its old content or the complete new one.
+     * Writes {@code target} so that readers see either its old content or the complete new one
+     * ({@link AtomicFiles#write(Path, AtomicFiles.Content)}).
      *
      * @throws IOException from the content or the move; the target is then unchanged
      */
     public static void atomically(Path target, Content content) throws IOException {
-        Path abs = target.toAbsolutePath();
-        Path dir = abs.getParent();
-        if (dir != null) {
-            Files.createDirectories(dir);
-        }
-        Path tmp = Files.createTempFile(dir, "." + abs.getFileName() + ".", ".tmp");
-        boolean done = false;
-        try {
-            content.writeTo(tmp);
-            try {
-                Files.setPosixFilePermissions(tmp, PosixFilePermissions.fromString("rw-r--r--"));
-            } catch (UnsupportedOperationException e) {
-                // not a POSIX file system: keep the defaults
-            }
-            try {
-                Files.move(tmp, abs, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
-            } catch (AtomicMoveNotSupportedException e) {
-                Files.move(tmp, abs, StandardCopyOption.REPLACE_EXISTING);
-            }
-            done = true;
-        } finally {
-            if (!done) {
-                Files.deleteIfExists(tmp);
-            }
-        }
+        AtomicFiles.write(target, content::writeTo);
     }
 }

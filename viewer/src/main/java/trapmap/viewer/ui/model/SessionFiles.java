@@ -10,10 +10,9 @@ import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.AtomicMoveNotSupportedException;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.nio.file.StandardCopyOption;
+import trapmap.maps.io.AtomicFiles;
 import java.util.ArrayList;
 import java.util.Iterator;
 import java.util.LinkedHashMap;
@@ -25,7 +24,6 @@ import trapmap.maps.io.ColourMap;
 import trapmap.maps.io.DefectFiles;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.physics.defect.Defect;
-import trapmap.physics.defect.EnergyReference;
 
 /**
  * Reads and writes sessions as readable JSON:
@@ -77,17 +75,7 @@ public final class SessionFiles {
     public static void write(Session s, Path file) throws IOException {
         Path dir = file.toAbsolutePath().getParent();
         byte[] bytes = toJson(s, dir).getBytes(StandardCharsets.UTF_8);
-        Path tmp = Files.createTempFile(dir, "." + file.getFileName(), ".tmp");
-        try {
-            Files.write(tmp, bytes);
-            try {
-                Files.move(tmp, file, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
-            } catch (AtomicMoveNotSupportedException e) {
-                Files.move(tmp, file, StandardCopyOption.REPLACE_EXISTING);
-            }
-        } finally {
-            Files.deleteIfExists(tmp);
-        }
+        AtomicFiles.write(file, bytes);
     }
 
     /** The JSON text of a session whose file lies in {@code dir} (paths inside it are written relative). */
