@@ -22,9 +22,9 @@ import trapmap.physics.defect.Defect;
  * Computes a {@link WaferAnalysis} with the same maps-module calls, in the same order, as the batch engine
  * ({@link WaferInspection#evaluate}): conditions applied, PL converted to lifetime, conversion with
  * {@link ConversionSettings#DEFAULTS}, outline fitted to the lifetime's valid pixels, mask = valid lifetime ∩
- * outline less the edge exclusion (outline by {@link WaferInspection#fitOutline}), regions by
- * {@link ThresholdRegions} over that mask, flagged pixels by {@link FlaggedRegions#find}, flagged fraction =
- * region area / evaluated lifetime area. A viewer figure therefore equals the batch's for the same settings.
+ * outline less the edge exclusion (outline by {@link WaferInspection#fitOutline}), regions and their pixels over
+ * that mask in one pass by {@link FlaggedRegions#find} (the regions of {@link ThresholdRegions}), flagged
+ * fraction = region area / evaluated lifetime area. A viewer figure therefore equals the batch's for the same settings.
  */
 public final class WaferAnalyzer {
     /** Percentiles of the lifetime statistics, %. */
@@ -105,8 +105,14 @@ public final class WaferAnalyzer {
                 Mask.valid(displayed.raster())), StatisticsRequest.of(LIFETIME_PERCENTS));
         check(cancelled);
         RegionCriteria criteria = analysis.threshold().criteria();
-        RegionTable regions = ThresholdRegions.find(displayed, mask, criteria, shape);
-        BitSet flagged = FlaggedRegions.find(displayed.raster(), displayed.grid(), mask, criteria, shape).pixels();
+        // one labelling pass gives the regions and their pixels; without a fitted outline the edge distances are
+        // measured to the data outline, which only ThresholdRegions does
+        FlaggedRegions found = FlaggedRegions.find(displayed.raster(), displayed.grid(), mask, criteria, shape);
+        RegionTable regions = shape != null
+                ? new RegionTable(found.regions().stream().map(FlaggedRegions.FlaggedRegion::region).toList(),
+                        criteria, RegionTable.EdgeReference.WAFER_SHAPE)
+                : ThresholdRegions.find(displayed, mask, criteria, null);
+        BitSet flagged = found.pixels();
         double fraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
         WaferAnalysis.KeyFigure key = switch (q) {
             case LIFETIME, SRH_LIFETIME -> new WaferAnalysis.KeyFigure(q == DisplayedQuantity.LIFETIME ? "τ_hm"
