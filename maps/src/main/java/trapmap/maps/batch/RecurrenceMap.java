@@ -14,7 +14,7 @@ import trapmap.maps.raster.PixelGrid;
 
 /**
  * The fraction of wafers flagged at each position: per wafer family (outline format), on cells of
- * {@link WaferInspection#FOOTPRINT_PITCH_MM} in wafer coordinates, the number of wafers with a flagged pixel in the
+ * {@link Footprint#PITCH_MM} in wafer coordinates, the number of wafers with a flagged pixel in the
  * cell over the number of wafers evaluated there. Cells no wafer covers are NaN. Not thread-safe.
  */
 public final class RecurrenceMap {

@@ -310,27 +310,27 @@ class BatchInspectionTest {
                 new BatchInspection.Options(2, false, true, ProgressListener.NONE));
         BufferedImage spot = ImageIO.read(out.resolve("thumbnails").resolve("w2.tif.png").toFile());
         BufferedImage clean = ImageIO.read(out.resolve("thumbnails").resolve("w1.tif.png").toFile());
-        assertThat(spot.getWidth()).isEqualTo(WaferInspection.THUMBNAIL_PX);
-        assertThat(count(spot, WaferInspection.OUTLINE_ARGB)).isPositive();
-        assertThat(count(clean, WaferInspection.OUTLINE_ARGB)).isZero();
+        assertThat(spot.getWidth()).isEqualTo(Thumbnails.THUMBNAIL_PX);
+        assertThat(count(spot, Thumbnails.OUTLINE_ARGB)).isPositive();
+        assertThat(count(clean, Thumbnails.OUTLINE_ARGB)).isZero();
         // the spot: radius 5 mm around (20, -10) mm, 0.5 mm pixels, centre (100, 100) of 200 px, drawn 256 px wide
-        double k = 200.0 / WaferInspection.THUMBNAIL_PX;
+        double k = 200.0 / Thumbnails.THUMBNAIL_PX;
         int cx = (int) ((100 + 40 + 0.5) / k);
         int cy = (int) ((100 + 20 + 0.5) / k);
         double radius = 10 / k;
         int first = cx;
-        while (spot.getRGB(first, cy) != WaferInspection.OUTLINE_ARGB) {
+        while (spot.getRGB(first, cy) != Thumbnails.OUTLINE_ARGB) {
             first++;
         }
         int last = first;
-        while (spot.getRGB(last + 1, cy) == WaferInspection.OUTLINE_ARGB) {
+        while (spot.getRGB(last + 1, cy) == Thumbnails.OUTLINE_ARGB) {
             last++;
         }
         // drawn just outside the spot, OUTLINE_PX wide, the spot's own pixels left in their colours
         assertThat(first - cx).isBetween((int) radius - 1, (int) radius + 2);
-        assertThat(last - first + 1).isBetween(WaferInspection.OUTLINE_PX, WaferInspection.OUTLINE_PX + 1);
-        assertThat(spot.getRGB(cx, cy)).isNotEqualTo(WaferInspection.OUTLINE_ARGB);
-        assertThat(spot.getRGB(first - 2, cy)).isNotEqualTo(WaferInspection.OUTLINE_ARGB);
+        assertThat(last - first + 1).isBetween(Thumbnails.OUTLINE_PX, Thumbnails.OUTLINE_PX + 1);
+        assertThat(spot.getRGB(cx, cy)).isNotEqualTo(Thumbnails.OUTLINE_ARGB);
+        assertThat(spot.getRGB(first - 2, cy)).isNotEqualTo(Thumbnails.OUTLINE_ARGB);
     }
 
     private static int count(BufferedImage img, int argb) {

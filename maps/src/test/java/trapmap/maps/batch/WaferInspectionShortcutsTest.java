@@ -49,7 +49,7 @@ class WaferInspectionShortcutsTest {
         WaferMap m = demo(file);
         WaferShape shape = OutlineDetection.fit(m).shape();
         for (double e : new double[] {0, 2, 3.7}) {
-            WaferInspection.Masks masks = WaferInspection.masks(m.raster().samples(), m.grid(), shape, e, e + 10);
+            Masks masks = Masks.of(m.raster().samples(), m.grid(), shape, e, e + 10);
             Mask expected = Mask.valid(m.raster()).and(shape.mask(m.grid(), e));
             Mask centre = Mask.valid(m.raster()).and(shape.mask(m.grid(), e + 10));
             assertThat(masks.count()).isEqualTo(expected.count());
@@ -67,12 +67,12 @@ class WaferInspectionShortcutsTest {
     void regionsEqualThoseOfThresholdRegions() throws Exception {
         WaferMap m = demo("LOT-A01-W02.tif");
         WaferShape shape = OutlineDetection.fit(m).shape();
-        WaferInspection.Masks masks = WaferInspection.masks(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
+        Masks masks = Masks.of(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
         for (RegionCriteria c : List.of(RegionCriteria.below(60, 1), RegionCriteria.below(150, 0),
                 RegionCriteria.above(400, 2))) {
             FlaggedRegions mine = FlaggedRegions.find(m.raster(), m.grid(), masks.indices(), masks.count(), c, shape,
                     null);
-            List<Region> expected = ThresholdRegions.find(m, WaferInspection.mask(masks.evaluated(), m.grid()), c,
+            List<Region> expected = ThresholdRegions.find(m, Masks.mask(masks.evaluated(), m.grid()), c,
                     shape).regions();
             assertThat(expected).isNotEmpty();
             assertThat(mine.regions()).extracting(FlaggedRegions.FlaggedRegion::region)
@@ -127,7 +127,7 @@ class WaferInspectionShortcutsTest {
         assertThat(mine.raster().samples()).containsExactly(expected);
         // converted at the evaluated pixels only: the same values there, NaN elsewhere
         WaferShape shape = OutlineDetection.fit(lifetime).shape();
-        WaferInspection.Masks masks = WaferInspection.masks(lifetime.raster().samples(), lifetime.grid(), shape, 2,
+        Masks masks = Masks.of(lifetime.raster().samples(), lifetime.grid(), shape, 2,
                 Double.NaN);
         WaferMap packed = WaferInspection.trapDensity(lifetime, defect, masks.indices(), masks.count());
         assertThat(packed.provenance()).isEqualTo(mine.provenance());
@@ -143,24 +143,24 @@ class WaferInspectionShortcutsTest {
     void packedTrapDensityFiguresEqualMapStatisticsOfTheFullConversion() throws Exception {
         WaferMap m = demo("LOT-A02-W05-before-gettering.tif");
         WaferShape shape = OutlineDetection.fit(m).shape();
-        WaferInspection.Masks masks = WaferInspection.masks(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
+        Masks masks = Masks.of(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
         Defect fe = DefectLibrary.byId("fe-i");
-        float[] packedTau = WaferInspection.Sample.gather(m.raster().samples(), masks);
+        float[] packedTau = Sample.gather(m.raster().samples(), masks);
         WaferInspection.Density d = WaferInspection.trapDensity(m, fe, packedTau, masks);
         double[] percents = {5, 95};
-        WaferInspection.Sample s = WaferInspection.Sample.ofPacked(d.packed(), masks.count(), m.grid(), percents,
+        Sample s = Sample.ofPacked(d.packed(), masks.count(), m.grid(), percents,
                 false);
         MapStatistics st = MapStatistics.of(WaferInspection.trapDensity(m, fe),
-                WaferInspection.mask(masks.evaluated(), m.grid()), StatisticsRequest.of(percents));
+                Masks.mask(masks.evaluated(), m.grid()), StatisticsRequest.of(percents));
         assertThat(s.count()).isEqualTo(st.count());
         assertThat(s.median()).isEqualTo(st.median());
         for (double p : percents) {
             assertThat(s.percentile(p)).isEqualTo(st.percentile(p));
         }
         // and the lifetimes, packed the same way, give the lifetime figures
-        WaferInspection.Sample life = WaferInspection.Sample.ofPacked(packedTau, masks.count(), m.grid(), percents,
+        Sample life = Sample.ofPacked(packedTau, masks.count(), m.grid(), percents,
                 true);
-        MapStatistics lt = MapStatistics.of(m, WaferInspection.mask(masks.evaluated(), m.grid()),
+        MapStatistics lt = MapStatistics.of(m, Masks.mask(masks.evaluated(), m.grid()),
                 StatisticsRequest.of(percents));
         assertThat(life.harmonicMean()).isEqualTo(lt.harmonicMean());
         assertThat(life.percentile(95)).isEqualTo(lt.percentile(95));
@@ -170,10 +170,10 @@ class WaferInspectionShortcutsTest {
     void sampleFiguresEqualMapStatistics() throws Exception {
         WaferMap m = demo("LOT-A02-W05-before-gettering.tif");
         WaferShape shape = OutlineDetection.fit(m).shape();
-        WaferInspection.Masks masks = WaferInspection.masks(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
+        Masks masks = Masks.of(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
         double[] percents = {1, 5, 95, 99};
-        WaferInspection.Sample s = WaferInspection.Sample.of(m.raster().samples(), masks, m.grid(), percents);
-        MapStatistics st = MapStatistics.of(m, WaferInspection.mask(masks.evaluated(), m.grid()),
+        Sample s = Sample.of(m.raster().samples(), masks, m.grid(), percents);
+        MapStatistics st = MapStatistics.of(m, Masks.mask(masks.evaluated(), m.grid()),
                 StatisticsRequest.of(percents));
         assertThat(s.count()).isEqualTo(st.count());
         assertThat(s.areaMm2()).isEqualTo(st.areaMm2());
@@ -203,7 +203,7 @@ class WaferInspectionShortcutsTest {
             tau[i] = p.contains(grid.xMm(i % n), grid.yMm(i / n)) ? 100 + rnd.nextFloat() : Float.NaN;
         }
         OutlineFit full = OutlineDetection.fit(Mask.valid(FloatRaster.wrap(n, n, tau)), grid);
-        OutlineFit reduced = WaferInspection.fitOutline(tau, grid);
+        OutlineFit reduced = OutlineFits.fit(tau, grid);
         assertThat(reduced.shape()).isInstanceOf(SquareWafer.class);
         SquareWafer a = (SquareWafer) full.shape();
         SquareWafer b = (SquareWafer) reduced.shape();
@@ -212,11 +212,11 @@ class WaferInspectionShortcutsTest {
         assertThat(b.sideMm()).isCloseTo(a.sideMm(), within(0.25));
         assertThat(b.rotationDeg()).isCloseTo(a.rotationDeg(), within(0.1));
         assertThat(reduced.closestFormat().format()).isEqualTo(full.closestFormat().format());
-        int fullCount = WaferInspection.masks(tau, grid, a, 2, Double.NaN).count();
-        int reducedCount = WaferInspection.masks(tau, grid, b, 2, Double.NaN).count();
+        int fullCount = Masks.of(tau, grid, a, 2, Double.NaN).count();
+        int reducedCount = Masks.of(tau, grid, b, 2, Double.NaN).count();
         assertThat(Math.abs(reducedCount - fullCount) / (double) fullCount).isLessThan(3e-3);
         // a second map with the same valid pixels reuses the fit
-        assertThat(WaferInspection.fitOutline(tau.clone(), grid)).isSameAs(reduced);
+        assertThat(OutlineFits.fit(tau.clone(), grid)).isSameAs(reduced);
     }
 
     @Test
@@ -229,7 +229,7 @@ class WaferInspectionShortcutsTest {
             b[i] = rnd.nextInt(40) == 0;
         }
         for (int r = 0; r <= 3; r++) {
-            boolean[] d = WaferInspection.dilate(b, w, h, r);
+            boolean[] d = Thumbnails.dilate(b, w, h, r);
             for (int y = 0; y < h; y++) {
                 for (int x = 0; x < w; x++) {
                     boolean expected = false;
@@ -248,21 +248,21 @@ class WaferInspectionShortcutsTest {
     void footprintCellsHoldTheFlaggedPixels() throws Exception {
         WaferMap m = demo("LOT-A01-W02.tif");
         WaferShape shape = OutlineDetection.fit(m).shape();
-        WaferInspection.Masks masks = WaferInspection.masks(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
+        Masks masks = Masks.of(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
         BitSet flagged = FlaggedRegions.find(m.raster(), m.grid(), masks.indices(), masks.count(),
                 RegionCriteria.below(60, 1), shape, null).pixels();
-        Footprint f = WaferInspection.footprint("m2", m.grid(), masks.evaluated(), flagged);
+        Footprint f = Footprint.of("m2", m.grid(), masks.evaluated(), flagged);
         PixelGrid g = m.grid();
         for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
-            int cx = WaferInspection.cell(g.xMm(i % g.width()), 1) - f.minI();
-            int cy = WaferInspection.cell(g.yMm(i / g.width()), 1) - f.minJ();
+            int cx = Footprint.cell(g.xMm(i % g.width()), 1) - f.minI();
+            int cy = Footprint.cell(g.yMm(i / g.width()), 1) - f.minJ();
             assertThat(f.flagged().get(cy * f.width() + cx)).isTrue();
         }
         BitSet covered = new BitSet();
         for (int i = 0; i < masks.evaluated().length; i++) {
             if (masks.evaluated()[i]) {
-                int cx = WaferInspection.cell(g.xMm(i % g.width()), 1) - f.minI();
-                int cy = WaferInspection.cell(g.yMm(i / g.width()), 1) - f.minJ();
+                int cx = Footprint.cell(g.xMm(i % g.width()), 1) - f.minI();
+                int cy = Footprint.cell(g.yMm(i / g.width()), 1) - f.minJ();
                 covered.set(cy * f.width() + cx);
             }
         }
@@ -279,7 +279,7 @@ class WaferInspectionShortcutsTest {
             tau[i] = rnd.nextInt(3) == 0 ? Float.NaN : rnd.nextFloat();
         }
         for (int k = 2; k <= 7; k++) {
-            boolean[] valid = WaferInspection.reducedValidity(tau, w, h, k);
+            boolean[] valid = OutlineFits.reducedValidity(tau, w, h, k);
             int cw = w / k;
             assertThat(valid).hasSize(cw * (h / k));
             for (int b = 0; b < valid.length; b++) {

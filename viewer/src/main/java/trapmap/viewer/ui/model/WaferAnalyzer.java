@@ -5,6 +5,7 @@ import java.util.Set;
 import java.util.concurrent.CancellationException;
 import java.util.function.BooleanSupplier;
 import trapmap.maps.batch.FlaggedRegions;
+import trapmap.maps.batch.OutlineFits;
 import trapmap.maps.batch.WaferInspection;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.model.WaferMap;
@@ -22,7 +23,7 @@ import trapmap.physics.defect.Defect;
  * Computes a {@link WaferAnalysis} with the same maps-module calls, in the same order, as the batch engine
  * ({@link WaferInspection#evaluate}): conditions applied, PL converted to lifetime, conversion with
  * {@link ConversionSettings#DEFAULTS}, outline fitted to the lifetime's valid pixels, mask = valid lifetime ∩
- * outline less the edge exclusion (outline by {@link WaferInspection#fitOutline}), regions and their pixels over
+ * outline less the edge exclusion (outline by {@link OutlineFits#fit}), regions and their pixels over
  * that mask in one pass by {@link FlaggedRegions#find} (the regions of {@link ThresholdRegions}), flagged
  * fraction = region area / evaluated lifetime area. A viewer figure therefore equals the batch's for the same settings.
  */
@@ -90,7 +91,7 @@ public final class WaferAnalyzer {
             shape = previous.shape();
         } else {
             try {
-                shape = WaferInspection.fitOutline(lifetime.raster().samples(), lifetime.grid()).shape();
+                shape = OutlineFits.fit(lifetime.raster().samples(), lifetime.grid()).shape();
             } catch (RuntimeException e) {
                 shape = null;
             }

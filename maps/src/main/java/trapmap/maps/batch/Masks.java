@@ -1,0 +1,106 @@
+package trapmap.maps.batch;
+
+import trapmap.maps.geometry.WaferShape;
+import trapmap.maps.raster.Mask;
+import trapmap.maps.raster.PixelGrid;
+
+/**
+ * The evaluated pixels (valid and at least the edge exclusion inside the outline), also as ascending indices
+ * ({@code indices[0..count)}), and, when asked for, the centre pixels of {@code edge_to_centre_ratio} (null
+ * otherwise).
+ */
+record Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre) {
+    /**
+     * The masks of {@link Masks}: {@code evaluated} holds exactly the pixels of
+     * {@code Mask.valid(raster).and(shape.mask(grid, exclusionMm))}, {@code centre} those at least {@code centreMm}
+     * inside (NaN: none asked for). The distance to the outline changes by at most the distance moved (it is
+     * 1-Lipschitz), so after one exact distance d the next pixels of the row up to |d − e| away lie on the same side
+     * of every threshold e and are filled without being computed; only pixels near a threshold are computed one by
+     * one.
+     */
+    static Masks of(float[] tau, PixelGrid grid, WaferShape shape, double exclusionMm, double centreMm) {
+        int w = grid.width();
+        int h = grid.height();
+        boolean[] in = new boolean[w * h];
+        boolean[] centre = Double.isNaN(centreMm) ? null : new boolean[w * h];
+        int[] indices = new int[w * h];
+        int count = 0;
+        if (shape == null) {
+            for (int i = 0; i < in.length; i++) {
+                if (tau[i] == tau[i]) {
+                    in[i] = true;
+                    indices[count++] = i;
+                }
+            }
+            return new Masks(in, indices, count, centre);
+        }
+        WaferShape.Prepared p = shape.prepared();
+        double pitch = grid.pitchMm();
+        double slack = 1e-7; // mm, far above the rounding of the distance and coordinates
+        for (int y = 0; y < h; y++) {
+            double ym = grid.yMm(y);
+            int row = y * w;
+            int x = 0;
+            while (x < w) {
+                double d = p.distanceToEdgeMm(grid.xMm(x), ym);
+                boolean inside = d >= exclusionMm;
+                boolean central = centre != null && d >= centreMm;
+                double margin = Math.abs(d - exclusionMm);
+                if (centre != null) {
+                    margin = Math.min(margin, Math.abs(d - centreMm));
+                }
+                int run = margin > slack ? 1 + (int) Math.min(w, Math.floor((margin - slack) / pitch)) : 1;
+                int end = Math.min(w, x + run);
+                if (!inside) {
+                    x = end;
+                    continue;
+                }
+                for (; x < end; x++) {
+                    int i = row + x;
+                    if (tau[i] == tau[i]) {
+                        in[i] = true;
+                        indices[count++] = i;
+                        if (central) {
+                            centre[i] = true;
+                        }
+                    }
+                }
+            }
+        }
+        return new Masks(in, indices, count, centre);
+    }
+
+    /** A Mask of the same pixels as a boolean array. */
+    static Mask mask(boolean[] in, PixelGrid grid) {
+        return Mask.of(grid.width(), grid.height(), i -> in[i]);
+    }
+
+    /**
+     * Harmonic-mean lifetime of the evaluated pixels outside the centre over that of those inside, each over the
+     * positive lifetimes in index order (as {@link MapStatistics#harmonicMean()} sums them).
+     */
+    static double edgeToCentre(float[] tau, Masks masks) {
+        double edgeSum = 0;
+        double centreSum = 0;
+        int edgeCount = 0;
+        int centreCount = 0;
+        int[] idx = masks.indices();
+        boolean[] centre = masks.centre();
+        for (int k = 0, n = masks.count(); k < n; k++) {
+            int i = idx[k];
+            double v = tau[i];
+            if (v > 0) {
+                if (centre[i]) {
+                    centreSum += 1 / v;
+                    centreCount++;
+                } else {
+                    edgeSum += 1 / v;
+                    edgeCount++;
+                }
+            }
+        }
+        double e = edgeCount == 0 ? Double.NaN : edgeCount / edgeSum;
+        double c = centreCount == 0 ? Double.NaN : centreCount / centreSum;
+        return e / c;
+    }
+}
