@@ -47,10 +47,10 @@ import trapmap.maps.region.Region;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.region.RegionTable;
 import trapmap.maps.region.ThresholdRegions;
-import trapmap.viewer.ui.canvas.DisplayStyle;
-import trapmap.viewer.ui.charts.ChartExport;
-import trapmap.viewer.ui.charts.ChartStyle;
-import trapmap.viewer.ui.charts.Labels;
+import trapmap.viewer.graphics.ChartExport;
+import trapmap.viewer.graphics.ChartStyle;
+import trapmap.viewer.graphics.DisplayStyle;
+import trapmap.viewer.graphics.Labels;
 
 /**
  * The summary PDF of a batch inspection, made from what the batch wrote into its output folder ({@code results.csv},

@@ -4,14 +4,15 @@ import java.awt.Color;
 import java.awt.Dimension;
 import java.awt.Font;
 import java.awt.FontMetrics;
-import java.awt.Graphics;
 import java.awt.Graphics2D;
+import java.awt.Graphics;
 import java.awt.RenderingHints;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import javax.swing.JComponent;
 import javax.swing.UIManager;
+import trapmap.viewer.graphics.DisplayStyle;
 
 /**
  * Vertical colour scale for a {@link DisplayStyle}: the colours from {@code low} (bottom) to {@code high} (top), tick
