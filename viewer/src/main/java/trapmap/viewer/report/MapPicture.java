@@ -20,9 +20,9 @@ import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.PngStyle;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.PixelGrid;
+import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.graphics.AutoStyle;
 import trapmap.viewer.graphics.ChartStyle;
-import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.graphics.Labels;
 
 /**

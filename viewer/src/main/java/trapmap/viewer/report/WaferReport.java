@@ -21,8 +21,8 @@ import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.region.RegionTable;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.material.Doping;
-import trapmap.viewer.graphics.ChartExport;
 import trapmap.viewer.graphics.DisplayStyle;
+import trapmap.viewer.graphics.ChartExport;
 import trapmap.viewer.graphics.HistogramChart;
 import trapmap.viewer.graphics.Labels;
 

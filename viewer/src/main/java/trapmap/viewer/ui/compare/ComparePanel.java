@@ -5,8 +5,8 @@ import java.awt.BorderLayout;
 import java.awt.Color;
 import java.awt.Component;
 import java.awt.Dimension;
-import java.awt.Graphics2D;
 import java.awt.Graphics;
+import java.awt.Graphics2D;
 import java.awt.GridLayout;
 import java.awt.RenderingHints;
 import java.awt.event.ActionEvent;
@@ -37,12 +37,12 @@ import javax.swing.plaf.LayerUI;
 import javax.swing.table.DefaultTableModel;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.PixelGrid;
-import trapmap.viewer.graphics.AutoStyle;
-import trapmap.viewer.graphics.Labels;
 import trapmap.viewer.report.WaferReport;
 import trapmap.viewer.ui.canvas.ColourBar;
 import trapmap.viewer.ui.canvas.MapCanvas;
 import trapmap.viewer.ui.canvas.Viewport;
+import trapmap.viewer.graphics.AutoStyle;
+import trapmap.viewer.graphics.Labels;
 
 /**
  * Before and after maps of one wafer side by side with a third view (difference, ratio, relative change,

@@ -1,12 +1,12 @@
 package trapmap.viewer.ui.canvas;
 
-import com.formdev.flatlaf.FlatLightLaf;
 import java.awt.BorderLayout;
 import java.awt.geom.Line2D;
 import java.util.BitSet;
 import javax.swing.JFrame;
 import javax.swing.JLabel;
 import javax.swing.SwingUtilities;
+import com.formdev.flatlaf.FlatLightLaf;
 import trapmap.maps.geometry.Fiducial;
 import trapmap.maps.geometry.RoundWafer;
 import trapmap.maps.io.ColourMap;
