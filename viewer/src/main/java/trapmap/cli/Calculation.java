@@ -26,8 +26,7 @@ import trapmap.shared.units.Units;
  * text or lists of text; the same map is printed as JSON, as a table, or as one cases-file row.
  */
 final class Calculation {
-    static final String CAUTION = "equivalent density assumes one dominant defect; verify with an independent"
-            + " method before scrapping material; follow site procedures";
+    static final String CAUTION = trapmap.maps.model.Caution.TEXT;
     static final double DEFAULT_TEMPERATURE_K = 300;
 
     /** Every result field, in output order. */

@@ -47,8 +47,7 @@ class CalcCommandTest {
             assertThat(j.has(f)).as(f).isTrue();
         }
         assertThat(j.has("lifetime_at_reference_us")).isFalse();
-        assertThat(j.get("caution").asText()).isEqualTo("equivalent density assumes one dominant defect; verify with"
-                + " an independent method before scrapping material; follow site procedures");
+        assertThat(j.get("caution").asText()).isEqualTo(trapmap.maps.model.Caution.TEXT);
         assertThat(j.get("warnings").isArray()).isTrue();
     }
 
@@ -161,8 +160,7 @@ class CalcCommandTest {
         assertThat(r.code()).isZero();
         assertThat(r.err()).isEmpty();
         assertThat(r.out()).contains("trap density N_t").contains("cm^-3").contains("τ_SRH").contains("µs")
-                .contains("infinite (no surface term)").contains("caution: equivalent density assumes one dominant"
-                        + " defect");
+                .contains("infinite (no surface term)").contains("caution: " + trapmap.maps.model.Caution.TEXT);
         String densityLine = r.out().lines().filter(l -> l.startsWith("trap density N_t")).findFirst().orElseThrow();
         String tauLine = r.out().lines().filter(l -> l.startsWith("effective lifetime")).findFirst().orElseThrow();
         assertThat(densityLine.indexOf("1.587e12")).as("values aligned").isEqualTo(tauLine.indexOf("12.5"));

@@ -25,7 +25,6 @@ import org.apache.commons.csv.CSVParser;
 import org.apache.commons.csv.CSVPrinter;
 import org.apache.commons.csv.CSVRecord;
 import trapmap.maps.io.MapFiles;
-import trapmap.maps.model.WaferMap;
 import trapmap.shared.progress.ProgressListener;
 
 /**
@@ -37,7 +36,8 @@ import trapmap.shared.progress.ProgressListener;
  *       the batch is complete; an interrupted batch leaves the partial file, which a resumed run reads too.</li>
  *   <li>{@code results.json}: the same rows and a summary, written to a temporary file and moved at the end.</li>
  *   <li>{@code recurrence-FAMILY.tif} / {@code .png}: the fraction of the wafers of one family flagged at each
- *       position ({@link RecurrenceMap}); wafers kept from a resumed run enter it through their footprints in
+ *       position ({@link RecurrenceMap}; the picture on a fixed 0–100 % scale with a colour bar and the
+ *       {@link HotSpots} outlined, {@link RecurrencePicture}); wafers kept from a resumed run enter it through their footprints in
  *       {@code footprints.csv} (written like {@code results.csv}), without being read again.</li>
  *   <li>{@code regions.csv}: one row per flagged region (position, area, peak, trap density), written like
  *       {@code footprints.csv}; the rows of wafers kept from a resumed run are kept.</li>
@@ -243,13 +243,14 @@ public final class BatchInspection {
             }
         }
         List<Path> written = new ArrayList<>();
-        for (Map.Entry<String, WaferMap> e : recurrence.maps().entrySet()) {
+        for (Map.Entry<String, Recurrence> e : recurrence.families().entrySet()) {
             String stem = "recurrence-" + e.getKey().replaceAll("[^A-Za-z0-9._-]", "_");
-            for (String ext : List.of(".tif", ".png")) {
-                Path p = outDir.resolve(stem + ext);
-                MapFiles.write(e.getValue(), p);
-                written.add(p);
-            }
+            Path tif = outDir.resolve(stem + ".tif");
+            MapFiles.write(e.getValue().fraction(), tif);
+            Path png = outDir.resolve(stem + ".png");
+            RecurrencePicture.write(e.getValue(), HotSpots.find(e.getValue(), HotSpots.Criteria.DEFAULT), png);
+            written.add(tif);
+            written.add(png);
         }
         Summary summary = new Summary(pass, fail, error, skipped, csv, outDir.resolve(JSON_NAME), written);
         writeJson(summary, columns, rows);

@@ -1,5 +1,7 @@
 package trapmap.maps.batch;
 
+import java.io.IOException;
+import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.LinkedHashMap;
 import java.util.Map;
@@ -73,18 +75,37 @@ public final class RecurrenceMap {
         }
     }
 
+    /**
+     * The recurrence maps of the footprints in a batch's {@code footprints.csv} (every wafer of the batch, including
+     * those kept from a resumed run); empty when the file does not exist. Rows cut short are left out.
+     */
+    public static RecurrenceMap read(Path footprintsCsv) throws IOException {
+        Map<String, Footprint> all = new LinkedHashMap<>();
+        FootprintStore.read(footprintsCsv, all, f -> f);
+        RecurrenceMap r = new RecurrenceMap();
+        all.values().forEach(r::add);
+        return r;
+    }
+
     /** One fraction map per family, by family name. */
     public Map<String, WaferMap> maps() {
         Map<String, WaferMap> out = new LinkedHashMap<>();
+        families().forEach((name, r) -> out.put(name, r.fraction()));
+        return out;
+    }
+
+    /** One recurrence (fraction map and the wafers covering each cell) per family, by family name. */
+    public Map<String, Recurrence> families() {
+        Map<String, Recurrence> out = new LinkedHashMap<>();
         families.forEach((name, fam) -> {
             if (Arrays.stream(fam.evaluated).anyMatch(n -> n > 0)) {
-                out.put(name, map(name, fam));
+                out.put(name, recurrence(name, fam));
             }
         });
         return out;
     }
 
-    private static WaferMap map(String name, Family fam) {
+    private static Recurrence recurrence(String name, Family fam) {
         int minI = Integer.MAX_VALUE;
         int maxI = Integer.MIN_VALUE;
         int minJ = Integer.MAX_VALUE;
@@ -102,6 +123,7 @@ public final class RecurrenceMap {
         int w = maxI - minI + 1;
         int h = maxJ - minJ + 1;
         float[] s = new float[w * h];
+        int[] wafers = new int[w * h];
         Arrays.fill(s, Float.NaN);
         for (int j = minJ; j <= maxJ; j++) {
             for (int i = minI; i <= maxI; i++) {
@@ -109,13 +131,15 @@ public final class RecurrenceMap {
                 int n = fam.evaluated[at];
                 if (n > 0) {
                     s[(maxJ - j) * w + (i - minI)] = (float) ((double) fam.flagged[at] / n);
+                    wafers[(maxJ - j) * w + (i - minI)] = n;
                 }
             }
         }
         PixelGrid grid = new PixelGrid(w, h, fam.pitchMm, -minI, maxJ);
-        return new WaferMap(FloatRaster.wrap(w, h, s), grid, Quantity.FRACTION, "recurrence-" + name,
+        WaferMap fraction = new WaferMap(FloatRaster.wrap(w, h, s), grid, Quantity.FRACTION, "recurrence-" + name,
                 MeasurementConditions.UNKNOWN, Provenance.of("batch inspection").then(ProcessingStep.of(
                         "recurrence", "family", name, "wafers", Integer.toString(fam.wafers), "pitch_mm",
                         Double.toString(fam.pitchMm))));
+        return new Recurrence(name, fraction, wafers, fam.wafers);
     }
 }

@@ -20,10 +20,10 @@ import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.PngStyle;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.PixelGrid;
-import trapmap.viewer.ui.canvas.DisplayStyle;
-import trapmap.viewer.ui.charts.AutoStyle;
-import trapmap.viewer.ui.charts.ChartStyle;
-import trapmap.viewer.ui.charts.Labels;
+import trapmap.viewer.graphics.DisplayStyle;
+import trapmap.viewer.graphics.AutoStyle;
+import trapmap.viewer.graphics.ChartStyle;
+import trapmap.viewer.graphics.Labels;
 
 /**
  * Off-screen pictures of a map for reports: the colours of {@link MapFiles#picture} (the same colour maps and scales

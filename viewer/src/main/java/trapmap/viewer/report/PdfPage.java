@@ -38,6 +38,7 @@ final class PdfPage implements Closeable {
     static final Color INK = new Color(0x222222);
     static final Color MUTED = new Color(0x666666);
     static final Color RULE = new Color(0xBBBBBB);
+    static final Color LIGHT_RULE = new Color(0xE2E2E2);
 
     private static final Map<Character, String> SPELLED = Map.ofEntries(
             Map.entry('Δ', "d"), Map.entry('τ', "tau"), Map.entry('σ', "sigma"), Map.entry('χ', "chi"),
@@ -134,11 +135,18 @@ final class PdfPage implements Closeable {
         return t + "...";
     }
 
-    /** The words of {@code s} broken into lines no wider than {@code width}. */
+    /**
+     * The words of {@code s} broken into lines no wider than {@code width}; a word wider than a line is broken after
+     * an underscore where it can be (figure names), else between letters.
+     */
     static List<String> wrap(String s, PDFont font, float size, float width) {
         List<String> lines = new ArrayList<>();
         StringBuilder line = new StringBuilder();
+        List<String> words = new ArrayList<>();
         for (String word : s.split(" +")) {
+            words.addAll(pieces(word, font, size, width));
+        }
+        for (String word : words) {
             String candidate = line.length() == 0 ? word : line + " " + word;
             if (width(candidate, font, size) <= width || line.length() == 0) {
                 line.setLength(0);
@@ -153,6 +161,26 @@ final class PdfPage implements Closeable {
             lines.add(line.toString());
         }
         return lines;
+    }
+
+    /** A word cut into pieces that each fit {@code width}: after the last underscore that fits, else where it must. */
+    private static List<String> pieces(String word, PDFont font, float size, float width) {
+        List<String> out = new ArrayList<>();
+        String rest = word;
+        while (rest.length() > 1 && width(rest, font, size) > width) {
+            int cut = 1;
+            while (cut < rest.length() && width(rest.substring(0, cut + 1), font, size) <= width) {
+                cut++;
+            }
+            int underscore = rest.lastIndexOf('_', cut - 1);
+            if (underscore > 0) {
+                cut = underscore + 1;
+            }
+            out.add(rest.substring(0, cut));
+            rest = rest.substring(cut);
+        }
+        out.add(rest);
+        return out;
     }
 
     /** A wrapped paragraph; returns its height. */
@@ -236,6 +264,11 @@ final class PdfPage implements Closeable {
         text(s, x, yTop, BOLD, 10.5f);
         line(x, yTop + 14, x + width, yTop + 14, RULE, 0.6f);
         return 18;
+    }
+
+    /** The height of {@link #caution}'s box for this text and width. */
+    static float cautionHeight(String s, float width) {
+        return wrap("Caution: " + s, BOLD, 9, width - 16).size() * 9 * 1.3f + 12;
     }
 
     /** The caution in a framed, tinted box; returns its height. */

@@ -21,10 +21,10 @@ import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.region.RegionTable;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.material.Doping;
-import trapmap.viewer.ui.canvas.DisplayStyle;
-import trapmap.viewer.ui.charts.ChartExport;
-import trapmap.viewer.ui.charts.HistogramView;
-import trapmap.viewer.ui.charts.Labels;
+import trapmap.viewer.graphics.DisplayStyle;
+import trapmap.viewer.graphics.ChartExport;
+import trapmap.viewer.graphics.HistogramChart;
+import trapmap.viewer.graphics.Labels;
 
 /**
  * One A4 page per wafer: title (wafer, file, date), the map with its colour bar, flagged regions outlined and the
@@ -34,8 +34,7 @@ import trapmap.viewer.ui.charts.Labels;
  */
 public final class WaferReport {
     /** Shown in a box on every report whose numbers drive decisions. */
-    public static final String CAUTION = "Equivalent density assumes one dominant defect; verify with an independent"
-            + " method before scrapping material; follow site procedures.";
+    public static final String CAUTION = trapmap.maps.model.Caution.TEXT;
     /** Picture pixels per PDF point. */
     static final double SCALE = 2;
     private static final DateTimeFormatter DATE = DateTimeFormatter.ofPattern("yyyy-MM-dd HH:mm z", Locale.ROOT);
@@ -162,7 +161,7 @@ public final class WaferReport {
 
     private static void page(PDDocument doc, Content c) throws IOException {
         WaferMap map = c.map();
-        HistogramView.Data hist = HistogramView.compute(map, c.statisticsMask(), c.threshold());
+        HistogramChart.Data hist = HistogramChart.compute(map, c.statisticsMask(), c.threshold());
         DisplayStyle style = MapPicture.styleOf(map, c.style());
         float left = PdfPage.MARGIN;
         float full = PdfPage.WIDTH - 2 * PdfPage.MARGIN;
@@ -193,7 +192,7 @@ public final class WaferReport {
             float sw = PdfPage.WIDTH - PdfPage.MARGIN - sx;
             p.heading("Statistics", sx, y, sw);
             List<String[]> rows = new ArrayList<>();
-            for (HistogramView.Row r : hist.rows()) {
+            for (HistogramChart.Row r : hist.rows()) {
                 rows.add(new String[] {r.name(), r.value(), r.unit()});
             }
             p.table(sx, y + 20, new float[] {sw * 0.58f, sw * 0.29f, sw * 0.13f}, new boolean[] {false, true, false},
@@ -202,7 +201,7 @@ public final class WaferReport {
 
             // histogram across the page
             float histH = 170;
-            p.image(ChartExport.image(HistogramView.createChart(hist), (int) full, (int) histH, SCALE), left, y, full,
+            p.image(ChartExport.image(HistogramChart.createChart(hist), (int) full, (int) histH, SCALE), left, y, full,
                     histH);
             y += histH + 8;
 

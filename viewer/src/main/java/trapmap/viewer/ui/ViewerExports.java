@@ -12,7 +12,7 @@ import org.apache.commons.csv.CSVPrinter;
 import trapmap.maps.region.Region;
 import trapmap.physics.defect.Defect;
 import trapmap.viewer.report.WaferReport;
-import trapmap.viewer.ui.canvas.DisplayStyle;
+import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.ui.model.Analysis;
 import trapmap.viewer.ui.model.DisplayedQuantity;
 import trapmap.viewer.ui.model.ViewerModel;

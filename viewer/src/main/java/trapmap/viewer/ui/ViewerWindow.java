@@ -63,8 +63,9 @@ import trapmap.maps.profile.LineProfile;
 import trapmap.maps.profile.RadialProfile;
 import trapmap.viewer.report.WaferReport;
 import trapmap.viewer.ui.canvas.ColourBar;
-import trapmap.viewer.ui.canvas.DisplayStyle;
-import trapmap.viewer.ui.charts.ChartExport;
+import trapmap.viewer.graphics.DisplayStyle;
+import trapmap.viewer.graphics.ChartExport;
+import trapmap.viewer.graphics.HistogramChart;
 import trapmap.viewer.ui.charts.HistogramView;
 import trapmap.viewer.ui.charts.InjectionCurve;
 import trapmap.viewer.ui.charts.InjectionCurveView;
@@ -96,8 +97,7 @@ import trapmap.viewer.ui.panels.ThresholdPanel;
 public final class ViewerWindow extends JFrame {
     private static final long serialVersionUID = 1L;
     /** The caution shown wherever results drive decisions. */
-    public static final String CAUTION = "Equivalent density assumes one dominant defect; verify with an independent"
-            + " method before scrapping material; follow site procedures.";
+    public static final String CAUTION = trapmap.maps.model.Caution.TEXT;
     private static final int MENU = Toolkit.getDefaultToolkit().getMenuShortcutKeyMaskEx();
 
     private final ViewerModel model;
@@ -371,7 +371,7 @@ public final class ViewerWindow extends JFrame {
             new SwingWorker<Object[], Void>() {
                 @Override
                 protected Object[] doInBackground() {
-                    HistogramView.Data h = HistogramView.compute(r.displayed(), r.mask(), t);
+                    HistogramChart.Data h = HistogramChart.compute(r.displayed(), r.mask(), t);
                     RadialProfile rp = RadialProfile.of(r.displayed(), r.mask(), Math.max(1.0,
                             2 * r.displayed().grid().pitchMm()));
                     double[] spread = RadialProfileView.ringStandardDeviations(r.displayed(), r.mask(), rp);
@@ -383,7 +383,7 @@ public final class ViewerWindow extends JFrame {
                     try {
                         Object[] o = get();
                         if (chartedResult == r) {
-                            histogram.show((HistogramView.Data) o[0]);
+                            histogram.show((HistogramChart.Data) o[0]);
                             radialView.show((RadialProfile) o[1], r.displayed().quantity(), (double[]) o[2]);
                         }
                     } catch (Exception e) {

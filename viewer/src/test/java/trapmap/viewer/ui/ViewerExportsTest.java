@@ -11,7 +11,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.io.ColourMap;
 import trapmap.viewer.report.WaferReport;
-import trapmap.viewer.ui.canvas.DisplayStyle;
+import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.ui.model.DisplayedQuantity;
 import trapmap.viewer.ui.model.ViewerModel;
 import trapmap.viewer.ui.model.WaferAnalysis;

@@ -12,6 +12,7 @@ import java.util.List;
 import java.util.Locale;
 import javax.swing.JComponent;
 import javax.swing.UIManager;
+import trapmap.viewer.graphics.DisplayStyle;
 
 /**
  * Vertical colour scale for a {@link DisplayStyle}: the colours from {@code low} (bottom) to {@code high} (top), tick

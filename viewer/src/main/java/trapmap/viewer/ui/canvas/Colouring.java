@@ -1,6 +1,7 @@
 package trapmap.viewer.ui.canvas;
 
 import trapmap.maps.io.ColourMap;
+import trapmap.viewer.graphics.DisplayStyle;
 
 /**
  * Turns samples into opaque colours for one {@link DisplayStyle}: value → position t in [0, 1] on a linear or

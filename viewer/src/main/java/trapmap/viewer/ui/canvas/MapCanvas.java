@@ -31,6 +31,7 @@ import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
+import trapmap.viewer.graphics.DisplayStyle;
 
 /**
  * Interactive view of one wafer map.

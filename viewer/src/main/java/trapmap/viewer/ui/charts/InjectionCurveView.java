@@ -14,6 +14,8 @@ import org.jfree.chart.title.TextTitle;
 import org.jfree.data.xy.XYSeries;
 import org.jfree.data.xy.XYSeriesCollection;
 import trapmap.physics.conversion.PixelStatus;
+import trapmap.viewer.graphics.ChartStyle;
+import trapmap.viewer.graphics.Labels;
 
 /**
  * The injection dependence of the probed pixel ({@link InjectionCurve}) on log–log axes: τ_SRH of the defect at the

@@ -15,6 +15,8 @@ import org.jfree.data.xy.XYSeries;
 import org.jfree.data.xy.XYSeriesCollection;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.profile.LineProfile;
+import trapmap.viewer.graphics.ChartStyle;
+import trapmap.viewer.graphics.Labels;
 
 /**
  * A line profile: value against distance along the line (mm), with the band width averaged across the line in the

@@ -18,6 +18,8 @@ import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.profile.RadialProfile;
 import trapmap.maps.raster.Mask;
+import trapmap.viewer.graphics.ChartStyle;
+import trapmap.viewer.graphics.Labels;
 
 /**
  * A radial profile: the mean of each ring against the ring's middle radius (mm), optionally with a band of ± one

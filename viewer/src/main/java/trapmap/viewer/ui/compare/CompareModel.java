@@ -28,7 +28,7 @@ import trapmap.physics.iron.IronImaging;
 import trapmap.physics.iron.IronResult;
 import trapmap.shared.error.InvalidValueException;
 import trapmap.shared.progress.ProgressListener;
-import trapmap.viewer.ui.charts.Labels;
+import trapmap.viewer.graphics.Labels;
 
 /**
  * What the compare view shows, computed without Swing so that it can run on a worker thread and in tests: the

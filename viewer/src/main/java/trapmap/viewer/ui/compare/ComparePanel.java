@@ -41,8 +41,8 @@ import trapmap.viewer.report.WaferReport;
 import trapmap.viewer.ui.canvas.ColourBar;
 import trapmap.viewer.ui.canvas.MapCanvas;
 import trapmap.viewer.ui.canvas.Viewport;
-import trapmap.viewer.ui.charts.AutoStyle;
-import trapmap.viewer.ui.charts.Labels;
+import trapmap.viewer.graphics.AutoStyle;
+import trapmap.viewer.graphics.Labels;
 
 /**
  * Before and after maps of one wafer side by side with a third view (difference, ratio, relative change,

@@ -12,6 +12,7 @@ import trapmap.maps.geometry.Fiducial;
 import trapmap.maps.geometry.RoundWafer;
 import trapmap.maps.io.ColourMap;
 import trapmap.maps.model.WaferMap;
+import trapmap.viewer.graphics.DisplayStyle;
 
 /**
  * Frame times of {@link MapCanvas} painting a synthetic 4096² wafer map, with wafer outline, edge-exclusion line and

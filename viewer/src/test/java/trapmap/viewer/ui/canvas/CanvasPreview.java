@@ -11,6 +11,7 @@ import trapmap.maps.geometry.Fiducial;
 import trapmap.maps.geometry.RoundWafer;
 import trapmap.maps.io.ColourMap;
 import trapmap.maps.model.WaferMap;
+import trapmap.viewer.graphics.DisplayStyle;
 
 /**
  * A window with one canvas and its colour bar on a synthetic map, for looking at the canvas by eye.

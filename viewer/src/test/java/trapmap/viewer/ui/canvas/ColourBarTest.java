@@ -6,6 +6,7 @@ import static org.assertj.core.api.Assertions.within;
 import java.awt.image.BufferedImage;
 import org.junit.jupiter.api.Test;
 import trapmap.maps.io.ColourMap;
+import trapmap.viewer.graphics.DisplayStyle;
 
 class ColourBarTest {
     @Test

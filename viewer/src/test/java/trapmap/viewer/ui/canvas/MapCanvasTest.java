@@ -19,6 +19,7 @@ import trapmap.maps.io.ColourMap;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
+import trapmap.viewer.graphics.DisplayStyle;
 
 /** Headless checks of the map canvas: view maths, painting into an off-screen image, flags and overlays. */
 class MapCanvasTest {

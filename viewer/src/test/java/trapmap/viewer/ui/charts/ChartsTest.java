@@ -32,16 +32,19 @@ import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.maps.stats.Histogram;
+import trapmap.viewer.graphics.ChartExport;
+import trapmap.viewer.graphics.HistogramChart;
+import trapmap.viewer.graphics.Labels;
 
 /** The charts' data and pictures, headless. */
-class ChartsTest {
+public class ChartsTest {
     @BeforeAll
     static void headless() {
         System.setProperty("java.awt.headless", "true");
     }
 
     /** 60×50 px at 0.5 mm of log-normal values around {@code centre}, with a NaN corner (no data). */
-    static WaferMap map(Quantity q, double centre, double sigmaDecades, long seed) {
+    public static WaferMap map(Quantity q, double centre, double sigmaDecades, long seed) {
         int w = 60;
         int h = 50;
         Random rnd = new Random(seed);
@@ -62,7 +65,7 @@ class ChartsTest {
     void histogramBinCountsEqualABruteForceCountOverTheMask() {
         WaferMap m = map(Quantity.EFFECTIVE_LIFETIME, 80, 0.4, 1);
         Mask mask = Mask.of(m.width(), m.height(), i -> (i / m.width()) % 3 != 0);
-        HistogramView.Data d = HistogramView.compute(m, mask, 50);
+        HistogramChart.Data d = HistogramChart.compute(m, mask, 50);
         Histogram h = d.histogram();
         double[] e = h.edges();
         float[] s = m.raster().samples();
@@ -81,7 +84,7 @@ class ChartsTest {
     @Test
     void logBinsCoverTheDataRangeWithNothingOutside() {
         WaferMap m = map(Quantity.TRAP_DENSITY, 3e11, 0.8, 2);
-        HistogramView.Data d = HistogramView.compute(m, null, Double.NaN);
+        HistogramChart.Data d = HistogramChart.compute(m, null, Double.NaN);
         Histogram h = d.histogram();
         assertThat(h.binning().spacing()).isEqualTo(Histogram.Spacing.LOGARITHMIC);
         assertThat(h.edges()[0]).isLessThanOrEqualTo(d.statistics().min());
@@ -97,17 +100,17 @@ class ChartsTest {
     @Test
     void occupancyGetsLinearBins() {
         WaferMap m = map(Quantity.OCCUPANCY, 0.3, 0.05, 3);
-        HistogramView.Data d = HistogramView.compute(m, null, Double.NaN);
+        HistogramChart.Data d = HistogramChart.compute(m, null, Double.NaN);
         assertThat(d.histogram().binning().spacing()).isEqualTo(Histogram.Spacing.LINEAR);
-        assertThat(d.histogram().binCount()).isEqualTo(HistogramView.LINEAR_BINS);
-        assertThat(HistogramView.createChart(d).getXYPlot().getDomainAxis()).isInstanceOf(NumberAxis.class);
+        assertThat(d.histogram().binCount()).isEqualTo(HistogramChart.LINEAR_BINS);
+        assertThat(HistogramChart.createChart(d).getXYPlot().getDomainAxis()).isInstanceOf(NumberAxis.class);
     }
 
     @Test
     void thresholdIsMarkedAtItsValueAndReportedWithUnits() {
         WaferMap m = map(Quantity.EFFECTIVE_LIFETIME, 80, 0.3, 4);
-        HistogramView.Data d = HistogramView.compute(m, null, 42.5);
-        JFreeChart chart = HistogramView.createChart(d);
+        HistogramChart.Data d = HistogramChart.compute(m, null, 42.5);
+        JFreeChart chart = HistogramChart.createChart(d);
         XYPlot plot = chart.getXYPlot();
         assertThat(plot.getDomainAxis()).isInstanceOf(LogAxis.class);
         List<Marker> markers = new ArrayList<>(plot.getDomainMarkers(Layer.FOREGROUND));
@@ -160,9 +163,9 @@ class ChartsTest {
 
     @Test
     void pngExportWritesADecodableImageOfTheRequestedSize(@TempDir Path dir) throws IOException {
-        HistogramView.Data d = HistogramView.compute(map(Quantity.EFFECTIVE_LIFETIME, 80, 0.3, 7), null, 40);
+        HistogramChart.Data d = HistogramChart.compute(map(Quantity.EFFECTIVE_LIFETIME, 80, 0.3, 7), null, 40);
         Path f = dir.resolve("sub").resolve("histogram.png");
-        ChartExport.writePng(HistogramView.createChart(d), f, 640, 360);
+        ChartExport.writePng(HistogramChart.createChart(d), f, 640, 360);
         BufferedImage img = ImageIO.read(f.toFile());
         assertThat(img.getWidth()).isEqualTo(640);
         assertThat(img.getHeight()).isEqualTo(360);

@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.canvas;
+package trapmap.viewer.graphics;
 
 import trapmap.maps.io.ColourMap;
 

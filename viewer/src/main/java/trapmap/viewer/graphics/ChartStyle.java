@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.charts;
+package trapmap.viewer.graphics;
 
 import java.awt.BasicStroke;
 import java.awt.Color;
@@ -14,17 +14,17 @@ import org.jfree.chart.axis.TickUnits;
 import org.jfree.chart.axis.ValueAxis;
 import org.jfree.chart.plot.XYPlot;
 
-/** The common look of the viewer's charts: white plot, light grid, readable fonts, log axes with decade labels. */
+/** The common look of the charts of the viewer and the reports: white plot, light grid, readable fonts, log axes with decade labels. */
 public final class ChartStyle {
-    static final Color GRID = new Color(0xDDDDDD);
-    static final Color BARS = new Color(0x3A6EA5);
-    static final Color MARKER = new Color(0xC2185B);
-    static final Color[] SERIES = {new Color(0x1F5FA8), new Color(0xD55E00), new Color(0x009E73),
+    public static final Color GRID = new Color(0xDDDDDD);
+    public static final Color BARS = new Color(0x3A6EA5);
+    public static final Color MARKER = new Color(0xC2185B);
+    public static final Color[] SERIES = {new Color(0x1F5FA8), new Color(0xD55E00), new Color(0x009E73),
         new Color(0x6A3D9A), new Color(0x555555)};
-    static final Font TITLE = new Font(Font.SANS_SERIF, Font.BOLD, 13);
-    static final Font SUBTITLE = new Font(Font.SANS_SERIF, Font.PLAIN, 11);
-    static final Font AXIS = new Font(Font.SANS_SERIF, Font.PLAIN, 11);
-    static final Font TICKS = new Font(Font.SANS_SERIF, Font.PLAIN, 10);
+    public static final Font TITLE = new Font(Font.SANS_SERIF, Font.BOLD, 13);
+    public static final Font SUBTITLE = new Font(Font.SANS_SERIF, Font.PLAIN, 11);
+    public static final Font AXIS = new Font(Font.SANS_SERIF, Font.PLAIN, 11);
+    public static final Font TICKS = new Font(Font.SANS_SERIF, Font.PLAIN, 10);
 
     /** Tick labels of three significant digits ({@link Labels#compact}): 150, 2.5e12. */
     public static final NumberFormat TICK_FORMAT = new NumberFormat() {
@@ -48,7 +48,7 @@ public final class ChartStyle {
     }
 
     /** White background, light grid lines, the fonts above on both axes. */
-    static void apply(JFreeChart chart) {
+    public static void apply(JFreeChart chart) {
         chart.setBackgroundPaint(Color.WHITE);
         if (chart.getTitle() != null) {
             chart.getTitle().setFont(TITLE);
@@ -98,7 +98,7 @@ public final class ChartStyle {
     }
 
     /** A linear axis that need not include zero. */
-    static NumberAxis linearAxis(String label) {
+    public static NumberAxis linearAxis(String label) {
         NumberAxis a = new NumberAxis(label);
         a.setAutoRangeIncludesZero(false);
         return a;

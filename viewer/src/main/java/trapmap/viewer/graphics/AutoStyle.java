@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.charts;
+package trapmap.viewer.graphics;
 
 import trapmap.maps.io.ColourMap;
 import trapmap.maps.model.Quantity;
@@ -6,7 +6,6 @@ import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
-import trapmap.viewer.ui.canvas.DisplayStyle;
 
 /**
  * A display style chosen from the data: colour map BLUE_YELLOW over the 1st to 99th percentile of the pixels with

@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.charts;
+package trapmap.viewer.graphics;
 
 import java.math.BigDecimal;
 import java.math.MathContext;

@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.charts;
+package trapmap.viewer.graphics;
 
 import java.awt.Color;
 import java.awt.Graphics2D;
@@ -7,9 +7,9 @@ import java.awt.geom.Rectangle2D;
 import java.awt.image.BufferedImage;
 import java.io.IOException;
 import java.nio.file.Path;
-import trapmap.maps.io.AtomicFiles;
 import javax.imageio.ImageIO;
 import org.jfree.chart.JFreeChart;
+import trapmap.maps.io.AtomicFiles;
 
 /**
  * Pictures of charts: off-screen images at any size and scale (no display needed) and PNG files written atomically

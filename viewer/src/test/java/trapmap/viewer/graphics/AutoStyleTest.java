@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.charts;
+package trapmap.viewer.graphics;
 
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
@@ -7,7 +7,7 @@ import org.junit.jupiter.api.Test;
 import trapmap.maps.io.ColourMap;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
-import trapmap.viewer.ui.canvas.DisplayStyle;
+import trapmap.viewer.ui.charts.ChartsTest;
 
 class AutoStyleTest {
     @Test

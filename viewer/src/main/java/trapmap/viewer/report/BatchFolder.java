@@ -1,0 +1,81 @@
+package trapmap.viewer.report;
+
+import java.io.IOException;
+import java.io.Reader;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.ZonedDateTime;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import org.apache.commons.csv.CSVFormat;
+import org.apache.commons.csv.CSVParser;
+import org.apache.commons.csv.CSVRecord;
+import trapmap.maps.batch.BatchInspection;
+import trapmap.maps.batch.HotSpots;
+import trapmap.maps.batch.RecurrenceMap;
+import trapmap.maps.batch.Rules;
+
+/**
+ * Reads a finished batch's output folder into a {@link BatchContent}: the rows of {@code results.csv} (so that rows
+ * kept from a resumed run are included) and the recurrence per wafer family from {@code footprints.csv} (the same
+ * footprints the batch's recurrence maps were made of, with the wafers evaluated at each cell).
+ */
+final class BatchFolder {
+    private static final List<String> IDENTIFYING = List.of("grade", "profile", "defect");
+
+    private BatchFolder() {
+    }
+
+    static BatchContent read(Path outputDir, Rules rules) throws IOException {
+        Path csv = outputDir.resolve(BatchInspection.CSV_NAME);
+        List<BatchContent.Row> rows = new ArrayList<>();
+        try (Reader r = Files.newBufferedReader(csv, StandardCharsets.UTF_8);
+             CSVParser p = CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).build().parse(r)) {
+            List<String> header = p.getHeaderNames();
+            // figure columns: between the last identifying column (grade, profile, defect) and failed_rules
+            int from = IDENTIFYING.stream().mapToInt(header::indexOf).max().orElse(-1) + 1;
+            int to = header.indexOf("failed_rules");
+            if (from <= 0 || to < from) {
+                throw new IOException(csv + ": not a results table (columns grade … failed_rules missing)");
+            }
+            List<String> figureColumns = header.subList(from, to);
+            for (CSVRecord rec : p) {
+                if (!rec.isConsistent()) {
+                    continue;
+                }
+                Map<String, Double> figures = new LinkedHashMap<>();
+                for (String f : figureColumns) {
+                    figures.put(f, number(rec.get(f)));
+                }
+                String failed = rec.get("failed_rules");
+                rows.add(new BatchContent.Row(rec.get("file"), rec.get("wafer_id"), rec.get("status"),
+                        rec.get("grade"), text(rec, "profile"), text(rec, "defect"), figures,
+                        failed.isEmpty() ? List.of() : List.of(failed.split(";")),
+                        number(rec.get("worst_region_area_mm2")), number(rec.get("worst_region_x_mm")),
+                        number(rec.get("worst_region_y_mm")), number(rec.get("worst_region_peak")),
+                        rec.get("error")));
+            }
+        }
+        RecurrenceMap recurrence = RecurrenceMap.read(outputDir.resolve(BatchInspection.FOOTPRINTS_NAME));
+        return new BatchContent(outputDir, rules, rows, recurrence.families(), ZonedDateTime.now(),
+                HotSpots.Criteria.DEFAULT);
+    }
+
+    private static String text(CSVRecord rec, String column) {
+        return rec.isMapped(column) ? rec.get(column) : "";
+    }
+
+    private static double number(String s) {
+        if (s == null || s.isEmpty()) {
+            return Double.NaN;
+        }
+        try {
+            return Double.parseDouble(s);
+        } catch (NumberFormatException e) {
+            return Double.NaN;
+        }
+    }
+}

@@ -1,0 +1,215 @@
+package trapmap.viewer.report;
+
+import java.awt.image.BufferedImage;
+import java.io.Closeable;
+import java.io.IOException;
+import java.util.ArrayList;
+import java.util.List;
+import org.apache.pdfbox.pdmodel.PDDocument;
+import org.apache.pdfbox.pdmodel.font.PDFont;
+
+/**
+ * Text, tables and pictures laid out down the pages of a document: a cursor moves down the current {@link PdfPage}
+ * and a new page is started (with the part's title and "continued") when the next block does not fit. Tables wrap
+ * their cells and repeat their header on each page, so that no row is cut or left out.
+ */
+final class ReportFlow implements Closeable {
+    static final float LEFT = PdfPage.MARGIN;
+    static final float FULL = PdfPage.WIDTH - 2 * PdfPage.MARGIN;
+    /** Lowest point a block may reach (the footer sits below). */
+    static final float BOTTOM = PdfPage.HEIGHT - PdfPage.MARGIN;
+
+    private final PDDocument doc;
+    private PdfPage page;
+    private float y;
+    private String title = "";
+
+    ReportFlow(PDDocument doc) {
+        this.doc = doc;
+    }
+
+    PdfPage page() throws IOException {
+        if (page == null) {
+            newPage();
+        }
+        return page;
+    }
+
+    float y() {
+        return y;
+    }
+
+    void down(float dy) {
+        y += dy;
+    }
+
+    /** Room left on the current page, points. */
+    float room() {
+        return page == null ? 0 : BOTTOM - y;
+    }
+
+    void newPage() throws IOException {
+        close();
+        page = new PdfPage(doc);
+        y = PdfPage.MARGIN;
+    }
+
+    /** Starts a part on a new page with its title; pages it runs onto repeat the title with "(continued)". */
+    void part(String partTitle) throws IOException {
+        newPage();
+        title = partTitle;
+        page.text(partTitle, LEFT, y, PdfPage.BOLD, 14);
+        y += 22;
+    }
+
+    /**
+     * Starts a part below what is on the page when at least {@code keep} points are left under its title, else on a
+     * new page; pages it runs onto repeat the title with "(continued)".
+     */
+    void section(String partTitle, float keep) throws IOException {
+        if (page == null || y + 30 + keep > BOTTOM) {
+            part(partTitle);
+            return;
+        }
+        y += 10;
+        title = partTitle;
+        page.text(partTitle, LEFT, y, PdfPage.BOLD, 14);
+        y += 22;
+    }
+
+    /** Makes sure {@code h} points fit below the cursor; returns true when a new page was started for it. */
+    boolean need(float h) throws IOException {
+        if (page != null && y + h <= BOTTOM) {
+            return false;
+        }
+        newPage();
+        if (!title.isEmpty()) {
+            page.text(title + " (continued)", LEFT, y, PdfPage.BOLD, 12);
+            y += 20;
+        }
+        return true;
+    }
+
+    /** A section heading with a rule, kept together with at least {@code keep} points of what follows. */
+    void heading(String s, float keep) throws IOException {
+        need(22 + keep);
+        page.heading(s, LEFT, y, FULL);
+        y += 20;
+    }
+
+    /** A wrapped paragraph across the page, broken over pages line by line when long. */
+    void paragraph(String s, PDFont font, float size) throws IOException {
+        paragraph(s, LEFT, FULL, font, size);
+    }
+
+    void paragraph(String s, float x, float width, PDFont font, float size) throws IOException {
+        float leading = size * 1.3f;
+        for (String line : PdfPage.wrap(s, font, size, width)) {
+            need(leading);
+            page.text(line, x, y, font, size);
+            y += leading;
+        }
+        y += 3;
+    }
+
+    /** A picture of {@code w} × {@code h} points at {@code x}, on this page when it fits; the cursor stays. */
+    void image(BufferedImage img, float x, float w, float h) throws IOException {
+        need(h);
+        page.image(img, x, y, w, h);
+    }
+
+    /** The caution box across the page. */
+    void caution(String text) throws IOException {
+        need(PdfPage.cautionHeight(text, FULL) + 4);
+        y += page.caution(text, LEFT, y, FULL) + 8;
+    }
+
+    /**
+     * A table across pages: a bold header with a rule (repeated on each page), cells wrapped within their column
+     * (a word longer than its column is cut with dots), a light rule between rows.
+     */
+    void table(float[] widths, boolean[] right, String[] header, List<String[]> rows, float size) throws IOException {
+        float leading = size * 1.3f;
+        float total = 0;
+        for (float w : widths) {
+            total += w;
+        }
+        List<List<List<String>>> cells = new ArrayList<>();
+        for (String[] row : rows) {
+            cells.add(wrapRow(row, widths, PdfPage.REGULAR, size));
+        }
+        List<List<String>> head = wrapRow(header, widths, PdfPage.BOLD, size);
+        float headH = height(head) * leading + 4;
+        if (cells.isEmpty()) {
+            need(headH);
+            header(head, widths, right, size, leading, total);
+        }
+        for (int r = 0; r < cells.size(); r++) {
+            float rowH = height(cells.get(r)) * leading + 2;
+            if (r == 0) {
+                need(headH + rowH);
+                header(head, widths, right, size, leading, total);
+            } else if (need(rowH)) {
+                header(head, widths, right, size, leading, total);
+            }
+            drawRow(cells.get(r), widths, right, PdfPage.REGULAR, size, leading);
+            y += height(cells.get(r)) * leading;
+            page.line(LEFT, y + 0.5f, LEFT + total, y + 0.5f, PdfPage.LIGHT_RULE, 0.3f);
+            y += 2;
+        }
+        y += 4;
+    }
+
+    private void header(List<List<String>> head, float[] widths, boolean[] right, float size, float leading,
+                        float total) throws IOException {
+        drawRow(head, widths, right, PdfPage.BOLD, size, leading);
+        y += height(head) * leading + 1;
+        page.line(LEFT, y, LEFT + total, y, PdfPage.RULE, 0.6f);
+        y += 3;
+    }
+
+    private static List<List<String>> wrapRow(String[] row, float[] widths, PDFont font, float size) {
+        List<List<String>> out = new ArrayList<>();
+        for (int c = 0; c < widths.length; c++) {
+            String cell = c < row.length && row[c] != null ? row[c] : "";
+            List<String> lines = new ArrayList<>();
+            for (String l : PdfPage.wrap(cell, font, size, widths[c] - 4)) {
+                lines.add(PdfPage.fit(l, font, size, widths[c] - 4));
+            }
+            out.add(lines);
+        }
+        return out;
+    }
+
+    private static int height(List<List<String>> row) {
+        int h = 1;
+        for (List<String> c : row) {
+            h = Math.max(h, c.size());
+        }
+        return h;
+    }
+
+    private void drawRow(List<List<String>> row, float[] widths, boolean[] right, PDFont font, float size,
+                         float leading) throws IOException {
+        float x = LEFT;
+        for (int c = 0; c < widths.length; c++) {
+            List<String> lines = row.get(c);
+            for (int i = 0; i < lines.size(); i++) {
+                if (right != null && right[c]) {
+                    page.textRight(lines.get(i), x + widths[c] - 4, y + i * leading, font, size);
+                } else {
+                    page.text(lines.get(i), x, y + i * leading, font, size);
+                }
+            }
+            x += widths[c];
+        }
+    }
+
+    @Override
+    public void close() throws IOException {
+        if (page != null) {
+            page.close();
+            page = null;
+        }
+    }
+}

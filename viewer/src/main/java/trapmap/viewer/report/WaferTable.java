@@ -1,0 +1,63 @@
+package trapmap.viewer.report;
+
+import java.io.IOException;
+import java.util.ArrayList;
+import java.util.List;
+import trapmap.maps.batch.Rules;
+import trapmap.viewer.graphics.Labels;
+
+/**
+ * Every wafer of the batch, one row each in the order of {@code results.csv}, over as many pages as it takes: id,
+ * profile, verdict, grade, failed rules (or the reason of an error), the key figures and the largest flagged region.
+ */
+final class WaferTable {
+    static final String[] HEADER = {"wafer", "profile", "verdict", "grade", "failed rules", "lifetime, harm. mean",
+        "trap density P95", "flagged area", "largest flagged region"};
+
+    private WaferTable() {
+    }
+
+    static void draw(ReportFlow flow, BatchContent c) throws IOException {
+        flow.part("Every wafer");
+        flow.paragraph("All " + c.rows().size() + " wafers in the order of results.csv. Lifetime in µs; trap density"
+                + " in cm⁻³ of the defect named (the profile's); flagged area as a share of the evaluated area;"
+                + " largest flagged region: area, centroid (wafer mm) and peak in the unit of the profile's flag.",
+                PdfPage.REGULAR, 8);
+        List<String[]> rows = new ArrayList<>();
+        for (BatchContent.Row r : c.rows()) {
+            rows.add(row(c, r));
+        }
+        float[] w = {74, 56, 28, 24, 104, 42, 62, 34, 99};
+        flow.table(w, new boolean[] {false, false, false, false, false, true, true, true, false}, HEADER, rows, 7);
+    }
+
+    /** The wafer id, or the file name when several rows carry that id (two states of one wafer). */
+    static String name(BatchContent c, BatchContent.Row r) {
+        long same = c.rows().stream().filter(o -> o.name().equals(r.name())).count();
+        return same > 1 ? java.nio.file.Path.of(r.file()).getFileName().toString() : r.name();
+    }
+
+    /** The centroid of the largest region, "(x, y)" in mm to 0.1 mm. */
+    static String position(BatchContent.Row r) {
+        return String.format(java.util.Locale.ROOT, "(%.1f, %.1f)", r.worstXMm(), r.worstYMm()).replace("-0.0", "0.0");
+    }
+
+    static String[] row(BatchContent c, BatchContent.Row r) {
+        if (!r.inspected()) {
+            return new String[] {name(c, r), "", "error", "", r.error().isEmpty() ? "no reason given" : r.error(), "",
+                "", "", ""};
+        }
+        double nt = r.figure("trap_density_p95_cm3");
+        String region = "none";
+        if (Double.isFinite(r.worstAreaMm2())) {
+            Rules.Profile p = c.profile(r.profile());
+            String unit = p == null ? "" : p.flag().quantity().unit();
+            region = Labels.number(r.worstAreaMm2()) + " mm² at " + position(r) + ", peak "
+                    + Labels.number(r.worstPeak(), unit);
+        }
+        return new String[] {name(c, r), r.profile(), r.status(), r.grade(), String.join(", ", r.failed()),
+            Labels.number(r.figure("harmonic_mean_lifetime_us")),
+            Double.isNaN(nt) ? "" : Labels.number(nt) + (r.defect().isEmpty() ? "" : " " + r.defect()),
+            Labels.percent(r.figure("flagged_area_fraction")), region};
+    }
+}
