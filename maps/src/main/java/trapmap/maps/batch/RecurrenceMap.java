@@ -73,6 +73,20 @@ public final class RecurrenceMap {
         }
     }
 
+    /**
+     * The number of wafers in each family that has a map in {@link #maps()}, by family name, in the same order: the
+     * denominator a reader needs before trusting a fraction (one wafer of three is 33 %).
+     */
+    public Map<String, Integer> waferCounts() {
+        Map<String, Integer> out = new LinkedHashMap<>();
+        families.forEach((name, fam) -> {
+            if (Arrays.stream(fam.evaluated).anyMatch(n -> n > 0)) {
+                out.put(name, fam.wafers);
+            }
+        });
+        return out;
+    }
+
     /** One fraction map per family, by family name. */
     public Map<String, WaferMap> maps() {
         Map<String, WaferMap> out = new LinkedHashMap<>();

@@ -38,7 +38,10 @@ class OutlineDetectionTest {
         assertThat(r.fiducial()).isEqualTo(Fiducial.NONE);
         assertThat(fit.quality().rmsResidualMm()).isLessThan(grid.pitchMm());
         assertThat(fit.quality().mismatchFraction()).isLessThan(0.005);
-        assertThat(fit.closestFormat().format().sizeMm()).isEqualTo(125);
+        // a plain 125 mm disk: the 125 mm format's flat (3.7 mm deep) would show at 0.25 mm, and it is not there
+        assertThat(fit.closestFormat().format()).isNull();
+        assertThat(fit.closestFormat().family()).isEqualTo("round-125");
+        assertThat(fit.closestFormat().mark()).isEqualTo(FormatMatch.Mark.NOT_FOUND);
         assertThat(fit.centredShape().centreXMm()).isZero();
         assertThat(fit.recentredGrid().xMm(cxPx)).isCloseTo(0, within(0.5 * grid.pitchMm()));
     }
