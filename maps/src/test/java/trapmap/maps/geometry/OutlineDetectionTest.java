@@ -77,6 +77,21 @@ class OutlineDetectionTest {
     }
 
     @Test
+    void aNotchBelowThePitchIsReportedUnresolvedNotGuessedAsAFlat() {
+        PixelGrid grid = PixelGrid.centred(257, 257, 0.8);
+        WaferShape truth = WaferFormat.ROUND_200_NOTCH.shape();
+        OutlineFit fit = OutlineDetection.fit(render(truth, grid), grid);
+
+        assertThat(fit.model()).isEqualTo(OutlineFit.Model.ROUND);
+        FormatMatch m = fit.closestFormat();
+        assertThat(m.format()).isNull();
+        assertThat(m.family()).isEqualTo("round-200");
+        assertThat(m.mark()).isEqualTo(FormatMatch.Mark.NOT_RESOLVED);
+        assertThat(m.pitchMm()).isEqualTo(0.8);
+        assertThat(m.withinTolerance()).isTrue();
+    }
+
+    @Test
     void recoversARotatedPseudoSquare() {
         PixelGrid grid = PixelGrid.centred(1041, 1041, 0.25);
         SquareWafer truth = new SquareWafer(182, 247, 12, 2.1, -1.6);
