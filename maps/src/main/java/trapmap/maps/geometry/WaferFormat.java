@@ -21,6 +21,11 @@ import trapmap.shared.check.Checks;
  *       G12 in the 2020 210 mm proposal) are from memory or common practice; SEMI PV22 itself could not be
  *       consulted.</li>
  * </ul>
+ *
+ * <p>A fitted outline is matched at its map's pixel pitch ({@link #closestTo(WaferShape, double)}): size tolerances
+ * widen by {@link #PITCH_TOLERANCE_FACTOR} × pitch, and a flat or notch shallower than
+ * {@link #MARK_RESOLVABLE_PITCHES} pixels is reported as not resolved (the wafer keeps its size family, e.g.
+ * {@code round-200}), never guessed.
  */
 public enum WaferFormat {
     ROUND_100_FLAT("round-100-flat", Kind.ROUND, 100, sym(0.5), Fiducial.flat(32.5), sym(2.5), null, Src.M1),
