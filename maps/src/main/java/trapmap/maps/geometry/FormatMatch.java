@@ -57,10 +57,13 @@ public record FormatMatch(WaferFormat format, String family, List<WaferFormat> c
         return withinTolerance ? family : FITTED;
     }
 
-    /** One line for people, e.g. {@code round-200 (Ø within ±1.00 mm; mark not resolved at 0.8 mm pitch)}. */
+    /**
+     * One line for people, e.g. {@code round-200: size 0.02 mm off nominal, within ±1.00 mm; mark not resolved at
+     * 0.8 mm pitch}.
+     */
     public String describe() {
-        String size = (withinTolerance ? "within" : "outside") + String.format(java.util.Locale.ROOT,
-                " ±%.2f mm (off by %.2f mm)", toleranceMm, deviationMm);
+        String size = String.format(java.util.Locale.ROOT, "size %.2f mm off nominal, %s ±%.2f mm", deviationMm,
+                withinTolerance ? "within" : "outside", toleranceMm);
         String m = switch (mark) {
             case NONE -> "";
             case RESOLVED -> "; mark resolved";
@@ -68,7 +71,7 @@ public record FormatMatch(WaferFormat format, String family, List<WaferFormat> c
                     trim(pitchMm));
             case NOT_FOUND -> "; mark not found";
         };
-        return family + " (" + size + m + ")";
+        return family + ": " + size + m;
     }
 
     private static String trim(double v) {
