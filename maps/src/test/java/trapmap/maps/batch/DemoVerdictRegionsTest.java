@@ -35,6 +35,7 @@ class DemoVerdictRegionsTest {
     private static Map<String, CSVRecord> results;
     private static List<CSVRecord> regions;
     private static Map<String, List<PlantedDefect>> truth;
+    private static Map<String, com.fasterxml.jackson.databind.JsonNode> json;
 
     @BeforeAll
     static void inspectTheDemoSet() throws Exception {
@@ -50,6 +51,11 @@ class DemoVerdictRegionsTest {
             results.put(Path.of(r.get("file")).getFileName().toString(), r);
         }
         regions = read(out.resolve(BatchInspection.REGIONS_NAME));
+        json = new LinkedHashMap<>();
+        for (com.fasterxml.jackson.databind.JsonNode w : new com.fasterxml.jackson.databind.ObjectMapper()
+                .readTree(out.resolve(BatchInspection.JSON_NAME).toFile()).get("wafers")) {
+            json.putIfAbsent(w.get("wafer_id").asText(), w);
+        }
     }
 
     private static List<CSVRecord> read(Path file) throws Exception {
@@ -105,6 +111,10 @@ class DemoVerdictRegionsTest {
         assertThat(Math.hypot(x - mark.centreXMm(), y - mark.centreYMm()))
                 .isLessThan(PlantedDefect.POSITION_TOLERANCE_MM);
         assertThat(w02.get("worst_region_centroid_inside")).isEqualTo("true");
+        assertThat(json.get("LOT-A01-W02").get("worst_region_centroid_inside").isBoolean()).isTrue();
+        assertThat(json.get("LOT-A01-W02").get("worst_region_rule").asText())
+                .isEqualTo("largest_interior_region_mm2");
+        assertThat(json.get("LOT-A01-W02").get("worst_region_min_x_mm").isNumber()).isTrue();
         double minX = Double.parseDouble(w02.get("worst_region_min_x_mm"));
         double maxX = Double.parseDouble(w02.get("worst_region_max_x_mm"));
         double minY = Double.parseDouble(w02.get("worst_region_min_y_mm"));
