@@ -30,7 +30,8 @@ import trapmap.viewer.report.BatchReport;
             "Evaluates every map (a folder: all .tif, .tiff and .csv files in it, by name) against RULES.json:"
                 + " figures over the wafer less the edge exclusion, flagged regions, pass/fail and grade. Writes"
                 + " results.csv and results.json (one row per wafer, in input order), regions.csv (one row per"
-                + " flagged region), recurrence maps of the flagged positions per wafer format and a small picture"
+                + " flagged region), recurrence maps of the flagged positions per wafer family (with"
+                + " recurrence.csv counting the wafers of each) and a small picture"
                 + " per wafer with its flagged regions outlined (thumbnails/). A file that cannot be read gives an"
                 + " 'error' row; the batch goes on.",
             ""},

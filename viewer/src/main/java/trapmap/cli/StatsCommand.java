@@ -15,6 +15,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import trapmap.maps.compare.Improvement;
+import trapmap.maps.geometry.FormatMatch;
 import trapmap.maps.geometry.OutlineDetection;
 import trapmap.maps.geometry.OutlineFit;
 import trapmap.maps.geometry.WaferFormat;
@@ -162,7 +163,17 @@ final class StatsCommand implements Callable<Integer> {
             outline.put("model", fit.model().name().toLowerCase(Locale.ROOT));
             outline.put("description", fit.shape().describe());
             outline.put("rms_residual_mm", Output.num(fit.quality().rmsResidualMm()));
-            outline.put("closest_format", fit.closestFormat() == null ? null : fit.closestFormat().format().id());
+            FormatMatch match = fit.closestFormat();
+            outline.put("format", match.format() == null ? null : match.format().id());
+            outline.put("family", match.family());
+            outline.put("within_tolerance", match.withinTolerance());
+            outline.put("deviation_mm", Output.num(match.deviationMm()));
+            outline.put("tolerance_mm", Output.num(match.toleranceMm()));
+            outline.put("pitch_mm", Output.num(match.pitchMm()));
+            outline.put("fiducial", match.mark().key());
+            outline.put("fiducial_resolved", match.markResolved());
+            outline.put("format_summary", match.describe());
+            outline.put("format_sources", match.candidates().stream().map(f -> f.id() + ": " + f.source()).toList());
             return fit.shape();
         } catch (RuntimeException e) {
             if (edgeExclusionMm > 0) {
@@ -199,6 +210,9 @@ final class StatsCommand implements Callable<Integer> {
             row.put("pixels", r.pixelCount());
             row.put("centroid_x_mm", r.centroidXMm());
             row.put("centroid_y_mm", r.centroidYMm());
+            row.put("centroid_inside", r.centroidInside());
+            row.put("position_x_mm", r.positionXMm());
+            row.put("position_y_mm", r.positionYMm());
             row.put("min_x_mm", r.bounds().minXMm());
             row.put("min_y_mm", r.bounds().minYMm());
             row.put("max_x_mm", r.bounds().maxXMm());
@@ -227,6 +241,9 @@ final class StatsCommand implements Callable<Integer> {
         Map<String, Object> outline = (Map<String, Object>) m.get("outline");
         t.row("wafer outline", String.valueOf(outline.getOrDefault("description", outline.getOrDefault("format",
                 outline.get("source")))), "");
+        if (outline.containsKey("format_summary")) {
+            t.row("wafer format", String.valueOf(outline.get("format_summary")), "");
+        }
         t.number(m, "count", "pixels", "", null);
         t.number(m, "area_mm2", "area", "mm²", null);
         t.number(m, "mean", "mean", unit, "n/a");
@@ -250,9 +267,12 @@ final class StatsCommand implements Callable<Integer> {
                     t.note("  … " + (regions.size() - 10) + " more (use --json for all)");
                     break;
                 }
-                t.note(String.format(Locale.ROOT, "  #%-3s %9s mm² at (%s, %s) mm, peak %s %s, %s mm from edge",
+                t.note(String.format(Locale.ROOT, "  #%-3s %9s mm² at (%s, %s) mm%s, peak %s %s, %s mm from edge",
                         r.get("id"), Format.number((Double) r.get("area_mm2")),
-                        Format.number((Double) r.get("centroid_x_mm")), Format.number((Double) r.get("centroid_y_mm")),
+                        Format.number((Double) r.get("position_x_mm")), Format.number((Double) r.get("position_y_mm")),
+                        Boolean.TRUE.equals(r.get("centroid_inside")) ? "" : " (a point of the region; its centroid ("
+                                + Format.number((Double) r.get("centroid_x_mm")) + ", "
+                                + Format.number((Double) r.get("centroid_y_mm")) + ") lies outside it)",
                         r.get("peak") == null ? "n/a" : Format.number((Double) r.get("peak")), unit,
                         r.get("edge_distance_mm") == null ? "n/a" : Format.number((Double) r.get("edge_distance_mm"))));
             }

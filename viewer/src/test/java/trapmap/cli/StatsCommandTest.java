@@ -71,6 +71,47 @@ class StatsCommandTest {
     }
 
     @Test
+    void theDemoMonitorsNotchIsReportedUnresolvedAtItsPitchNeverAsAFlat() throws Exception {
+        // MON-200-W01 was generated as a 200 mm notched wafer at 0.8 mm pitch: the 1 mm notch is under two pixels
+        JsonNode o = Cli.json("stats", Path.of("..", "demo-data", "MON-200-W01.tif").toString(), "--json")
+                .get("outline");
+        assertThat(o.get("family").asText()).isEqualTo("round-200");
+        assertThat(o.get("format").isNull()).isTrue();
+        assertThat(o.get("fiducial").asText()).isEqualTo("not-resolved");
+        assertThat(o.get("fiducial_resolved").asBoolean()).isFalse();
+        assertThat(o.get("within_tolerance").asBoolean()).isTrue();
+        assertThat(o.get("pitch_mm").asDouble()).isEqualTo(0.8);
+        assertThat(o.toString()).doesNotContain("\"round-200-flat\"");
+        assertThat(o.get("format_sources").toString()).contains("SEMI M1");
+    }
+
+    @Test
+    void theDemoPseudoSquaresGetTheirFormatWithinThePitchWidenedTolerance() throws Exception {
+        for (String[] c : new String[][] {{"LOT-A01-W01.tif", "m2"}, {"LOT-N01-W01.tif", "m10"},
+                {"LOT-N01-W03.tif", "g12"}}) {
+            JsonNode o = Cli.json("stats", Path.of("..", "demo-data", c[0]).toString(), "--json").get("outline");
+            assertThat(o.get("format").asText()).as(c[0]).isEqualTo(c[1]);
+            assertThat(o.get("within_tolerance").asBoolean()).as(c[0]).isTrue();
+            assertThat(o.get("fiducial").asText()).as(c[0]).isEqualTo("none");
+            assertThat(o.get("deviation_mm").asDouble()).as(c[0]).isLessThanOrEqualTo(
+                    o.get("tolerance_mm").asDouble());
+        }
+    }
+
+    @Test
+    void aRingsRegionSaysItsCentroidLiesOutsideIt() throws Exception {
+        JsonNode j = Cli.json("stats", Path.of("..", "demo-data", "LOT-N01-W01.tif").toString(), "--defect",
+                "midgap", "--threshold", "1e12", "--min-area-mm2", "4", "--edge-exclusion-mm", "2", "--json");
+        JsonNode ring = j.get("regions").get(0); // largest first
+        assertThat(ring.get("centroid_inside").asBoolean()).isFalse();
+        double r = Math.hypot(ring.get("position_x_mm").asDouble(), ring.get("position_y_mm").asDouble());
+        assertThat(r).isBetween(45.0, 65.0); // planted at r = 55 mm
+        assertThat(Math.hypot(ring.get("centroid_x_mm").asDouble(), ring.get("centroid_y_mm").asDouble()))
+                .isLessThan(2.0);
+        assertThat(ring.get("max_x_mm").asDouble() - ring.get("min_x_mm").asDouble()).isGreaterThan(100);
+    }
+
+    @Test
     void edgeExclusionShrinksTheCountedArea() throws Exception {
         Path f = wafer();
         JsonNode all = Cli.json("stats", f.toString(), "--json");

@@ -24,6 +24,7 @@ import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVParser;
 import org.apache.commons.csv.CSVPrinter;
 import org.apache.commons.csv.CSVRecord;
+import trapmap.maps.io.AtomicFiles;
 import trapmap.maps.io.MapFiles;
 import trapmap.shared.progress.ProgressListener;
 
@@ -39,6 +40,7 @@ import trapmap.shared.progress.ProgressListener;
  *       position ({@link RecurrenceMap}; the picture on a fixed 0–100 % scale with a colour bar and the
  *       {@link HotSpots} outlined, {@link RecurrencePicture}); wafers kept from a resumed run enter it through their footprints in
  *       {@code footprints.csv} (written like {@code results.csv}), without being read again.</li>
+ *   <li>{@code recurrence.csv}: per family, the number of wafers in its recurrence map and the map's file.</li>
  *   <li>{@code regions.csv}: one row per flagged region (position, area, peak, trap density), written like
  *       {@code footprints.csv}; the rows of wafers kept from a resumed run are kept.</li>
  *   <li>{@code thumbnails/FILE.png} (unless switched off): each map with its flagged regions outlined.</li>
@@ -56,8 +58,20 @@ public final class BatchInspection {
     public static final String REGIONS_NAME = "regions.csv";
     /** Columns of {@value #REGIONS_NAME}: one row per flagged region. */
     public static final List<String> REGION_COLUMNS = List.of("file", "wafer_id", "region", "area_mm2", "x_mm", "y_mm",
+            "centroid_x_mm", "centroid_y_mm", "centroid_inside", "min_x_mm", "min_y_mm", "max_x_mm", "max_y_mm",
             "peak", "peak_x_mm", "peak_y_mm", "mean", "edge_distance_mm", "peak_density_cm3", "median_density_cm3");
     public static final String THUMBNAIL_DIR = "thumbnails";
+    /** One row per recurrence map: its family, the number of wafers in it and its TIFF file. */
+    public static final String RECURRENCE_NAME = "recurrence.csv";
+    /** Columns of {@value #RECURRENCE_NAME}. */
+    public static final List<String> RECURRENCE_COLUMNS = List.of("family", "wafers", "file");
+    /**
+     * Columns of {@value #CSV_NAME} that describe the worst region besides its area, position and peak: the rule it
+     * belongs to, whether its centroid lies inside it, its peak position and bounding box (mm).
+     */
+    static final List<String> WORST_REGION_EXTRA = List.of("worst_region_rule", "worst_region_centroid_inside",
+            "worst_region_peak_x_mm", "worst_region_peak_y_mm", "worst_region_min_x_mm", "worst_region_min_y_mm",
+            "worst_region_max_x_mm", "worst_region_max_y_mm");
 
     /**
      * @param threads    number of workers (≥ 1)
@@ -114,7 +128,9 @@ public final class BatchInspection {
         List<String> c = new ArrayList<>(List.of("file", "wafer_id", "status", "grade", "profile", "defect"));
         rules.figures().forEach(f -> c.add(f.name()));
         c.addAll(List.of("failed_rules", "graded_down_by", "worst_region_area_mm2", "worst_region_x_mm",
-                "worst_region_y_mm", "worst_region_peak", "error"));
+                "worst_region_y_mm", "worst_region_peak"));
+        c.addAll(WORST_REGION_EXTRA);
+        c.add("error");
         return c;
     }
 
@@ -243,6 +259,8 @@ public final class BatchInspection {
             }
         }
         List<Path> written = new ArrayList<>();
+        Map<String, Integer> wafersPerFamily = recurrence.waferCounts();
+        StringBuilder families = new StringBuilder(String.join(",", RECURRENCE_COLUMNS)).append('\n');
         for (Map.Entry<String, Recurrence> e : recurrence.families().entrySet()) {
             String stem = "recurrence-" + e.getKey().replaceAll("[^A-Za-z0-9._-]", "_");
             Path tif = outDir.resolve(stem + ".tif");
@@ -251,7 +269,10 @@ public final class BatchInspection {
             RecurrencePicture.write(e.getValue(), HotSpots.find(e.getValue(), HotSpots.Criteria.DEFAULT), png);
             written.add(tif);
             written.add(png);
+            families.append(CSVFormat.DEFAULT.format(e.getKey(), wafersPerFamily.get(e.getKey()), stem + ".tif"))
+                    .append('\n');
         }
+        AtomicFiles.write(outDir.resolve(RECURRENCE_NAME), families.toString().getBytes(StandardCharsets.UTF_8));
         Summary summary = new Summary(pass, fail, error, skipped, csv, outDir.resolve(JSON_NAME), written);
         writeJson(summary, columns, rows);
         return summary;
@@ -304,8 +325,15 @@ public final class BatchInspection {
             m.put("wafer_id", r.waferId());
             m.put("region", Integer.toString(g.id()));
             m.put("area_mm2", num(g.areaMm2()));
-            m.put("x_mm", num(g.centroidXMm()));
-            m.put("y_mm", num(g.centroidYMm()));
+            m.put("x_mm", num(g.positionXMm()));
+            m.put("y_mm", num(g.positionYMm()));
+            m.put("centroid_x_mm", num(g.centroidXMm()));
+            m.put("centroid_y_mm", num(g.centroidYMm()));
+            m.put("centroid_inside", Boolean.toString(g.centroidInside()));
+            m.put("min_x_mm", num(g.bounds().minXMm()));
+            m.put("min_y_mm", num(g.bounds().minYMm()));
+            m.put("max_x_mm", num(g.bounds().maxXMm()));
+            m.put("max_y_mm", num(g.bounds().maxYMm()));
             m.put("peak", num(g.peakValue()));
             m.put("peak_x_mm", num(g.peakXMm()));
             m.put("peak_y_mm", num(g.peakYMm()));
@@ -338,11 +366,20 @@ public final class BatchInspection {
         r.figures().forEach((k, v) -> m.put(k, num(v)));
         m.put("failed_rules", String.join(";", r.failed()));
         m.put("graded_down_by", String.join(";", r.gradedDownBy()));
-        if (r.worstRegion() != null) {
-            m.put("worst_region_area_mm2", num(r.worstRegion().areaMm2()));
-            m.put("worst_region_x_mm", num(r.worstRegion().centroidXMm()));
-            m.put("worst_region_y_mm", num(r.worstRegion().centroidYMm()));
-            m.put("worst_region_peak", num(r.worstRegion().peakValue()));
+        trapmap.maps.region.Region worst = r.worstRegion();
+        if (worst != null) {
+            m.put("worst_region_area_mm2", num(worst.areaMm2()));
+            m.put("worst_region_x_mm", num(worst.positionXMm()));
+            m.put("worst_region_y_mm", num(worst.positionYMm()));
+            m.put("worst_region_peak", num(worst.peakValue()));
+            m.put("worst_region_rule", r.worstRegionRule());
+            m.put("worst_region_centroid_inside", Boolean.toString(worst.centroidInside()));
+            m.put("worst_region_peak_x_mm", num(worst.peakXMm()));
+            m.put("worst_region_peak_y_mm", num(worst.peakYMm()));
+            m.put("worst_region_min_x_mm", num(worst.bounds().minXMm()));
+            m.put("worst_region_min_y_mm", num(worst.bounds().minYMm()));
+            m.put("worst_region_max_x_mm", num(worst.bounds().maxXMm()));
+            m.put("worst_region_max_y_mm", num(worst.bounds().maxYMm()));
         }
         m.put("error", r.error());
         return m;
@@ -379,13 +416,16 @@ public final class BatchInspection {
 
     private static boolean numeric(String column) {
         return !List.of("file", "wafer_id", "status", "grade", "profile", "defect", "failed_rules",
-                "graded_down_by", "error")
+                "graded_down_by", "worst_region_rule", "error")
                 .contains(column);
     }
 
     private static Object number(String v) {
         if (v.isEmpty()) {
             return null;
+        }
+        if (v.equals("true") || v.equals("false")) {
+            return Boolean.valueOf(v);
         }
         try {
             return Double.valueOf(v);

@@ -218,9 +218,14 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
             double halfPx = 0.5;
             Region.BoundsMm bounds = new Region.BoundsMm(grid.xMm(minX - halfPx), grid.yMm(maxY + halfPx),
                     grid.xMm(maxX + halfPx), grid.yMm(minY - halfPx));
-            Region r = new Region(regions.size() + 1, size, area, grid.xMm((double) sumX / size),
-                    grid.yMm((double) sumY / size), bounds, peak, grid.xMm(peakIndex % w), grid.yMm(peakIndex / w),
-                    sumValue / size, edge == null ? Double.NaN : nearest);
+            double cx = (double) sumX / size;
+            double cy = (double) sumY / size;
+            Region.CentroidPixel at = Region.CentroidPixel.of(queue, size, w, cx, cy);
+            Region r = new Region(regions.size() + 1, size, area, grid.xMm(cx), grid.yMm(cy), bounds, peak,
+                    grid.xMm(peakIndex % w), grid.yMm(peakIndex / w), sumValue / size,
+                    edge == null ? Double.NaN : nearest, at.inside(),
+                    at.inside() ? grid.xMm(cx) : grid.xMm(at.nearestIndex() % w),
+                    at.inside() ? grid.yMm(cy) : grid.yMm(at.nearestIndex() / w));
             regions.add(new FlaggedRegion(r, peakDensity, medianDensity));
         }
         return new FlaggedRegions(regions, kept);

@@ -87,6 +87,16 @@ public final class RecurrenceMap {
         return r;
     }
 
+    /**
+     * The number of wafers in each family that has a map in {@link #maps()}, by family name, in the same order: the
+     * denominator a reader needs before trusting a fraction (one wafer of three is 33 %).
+     */
+    public Map<String, Integer> waferCounts() {
+        Map<String, Integer> out = new LinkedHashMap<>();
+        families().forEach((name, r) -> out.put(name, r.wafers()));
+        return out;
+    }
+
     /** One fraction map per family, by family name. */
     public Map<String, WaferMap> maps() {
         Map<String, WaferMap> out = new LinkedHashMap<>();

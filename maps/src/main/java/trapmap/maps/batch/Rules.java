@@ -60,7 +60,9 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
      * Which maps a profile judges: every given condition must hold (none given: never used).
      *
      * @param type     conductivity type of the map's doping (after the rules' conditions), or null for any
-     * @param families wafer families (format ids, {@code fitted}, {@code unfitted}), or empty for any
+     * @param families wafer families (format ids, round size families such as {@code round-200} that take both
+     *                 marks, {@code fitted}, {@code unfitted}; see {@link WaferFormat#familyMatches}), or empty for
+     *                 any
      * @param file     glob on the file name (not the folder), or null for any
      */
     public record Match(ConductivityType type, List<String> families, String file) {
@@ -71,7 +73,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         /** True when a map of this file name, type and family meets every condition. */
         public boolean matches(String fileName, ConductivityType mapType, String family) {
             return (type == null || type == mapType)
-                    && (families.isEmpty() || families.contains(family))
+                    && (families.isEmpty() || families.stream().anyMatch(f -> WaferFormat.familyMatches(f, family)))
                     && (file == null || FileSystems.getDefault().getPathMatcher("glob:" + file)
                             .matches(Path.of(fileName)));
         }
@@ -508,9 +510,9 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                 }
                 for (JsonNode item : items) {
                     String id = text(item, p + ".wafer");
-                    if (!id.equals("fitted") && !id.equals("unfitted") && !WaferFormat.ids().contains(id)) {
+                    if (!id.equals("fitted") && !id.equals("unfitted") && !WaferFormat.familyIds().contains(id)) {
                         throw error(p + ".wafer", "'" + id + "' is not a known format (" + String.join(", ",
-                                WaferFormat.ids()) + ", fitted, unfitted)", "");
+                                WaferFormat.familyIds()) + ", fitted, unfitted)", "");
                     }
                     families.add(id);
                 }

@@ -141,9 +141,7 @@ public final class WaferInspection {
                 }
             }
             shape = fit == null ? null : fit.shape();
-            family = fit == null ? "unfitted"
-                    : fit.closestFormat() != null && fit.closestFormat().withinTolerance()
-                    ? fit.closestFormat().format().id() : "fitted";
+            family = fit == null ? "unfitted" : fit.closestFormat().batchFamily();
         }
         Doping doping = map.conditions().doping();
         Rules.Profile profile = rules.profileFor(Path.of(name).getFileName().toString(),
@@ -174,6 +172,7 @@ public final class WaferInspection {
         FlaggedRegions regions = FlaggedRegions.find(flagMap.raster(), grid, masks.indices(), masks.count(), criteria,
                 shape, density == null ? null : density.raster().samples(), rules.edgeExclusionMm());
         FlaggedRegions.FlaggedRegion worst = regions.largest();
+        FlaggedRegions.FlaggedRegion interior = largestInterior(regions, shape, grid);
         double flaggedFraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
 
         Map<String, Double> values = new LinkedHashMap<>();
@@ -185,15 +184,18 @@ public final class WaferInspection {
                 case TRAP_DENSITY_PERCENTILE -> dens.percentile(f.percent());
                 case FLAGGED_AREA_FRACTION -> flaggedFraction;
                 case LARGEST_REGION -> worst == null ? 0 : worst.region().areaMm2();
-                case LARGEST_INTERIOR_REGION -> largestInterior(regions, shape, grid);
+                case LARGEST_INTERIOR_REGION -> shape == null ? Double.NaN
+                        : interior == null ? 0 : interior.region().areaMm2();
                 case EDGE_TO_CENTRE_RATIO -> Masks.edgeToCentre(tau, masks);
             };
             values.put(f.name(), v);
         }
         List<String> failed = new ArrayList<>();
+        List<Figure> failedFigures = new ArrayList<>();
         for (Rules.Limit l : profile.limits()) {
             if (!l.holds(values.get(l.figure().name()))) {
                 failed.add(l.figure().name());
+                failedFigures.add(l.figure());
             }
         }
         String grade = profile.grade(!failed.isEmpty(), f -> values.get(f.name()));
@@ -205,7 +207,7 @@ public final class WaferInspection {
         }
         WaferResult result = new WaferResult(name, map.waferId(), failed.isEmpty() ? WaferResult.Status.PASS
                 : WaferResult.Status.FAIL, grade, profile.name(), profile.defectId(), values, failed,
-                missed, regions.regions(), "", footprint);
+                missed, regions.regions(), "", footprint, WaferResult.Worst.behind(failedFigures, worst, interior));
         return new Evaluation(result, lifetime, density, shape, masks.evaluated(), regions);
     }
 
@@ -259,16 +261,20 @@ public final class WaferInspection {
         return new Density(map, out);
     }
 
-    /** See {@link Figure.Kind#LARGEST_INTERIOR_REGION}; NaN without an outline. */
-    private double largestInterior(FlaggedRegions regions, WaferShape shape, PixelGrid grid) {
+    /**
+     * The largest interior region of {@link Figure.Kind#LARGEST_INTERIOR_REGION} (the first in scan order among
+     * equals); null when there is none or no outline.
+     */
+    private FlaggedRegions.FlaggedRegion largestInterior(FlaggedRegions regions, WaferShape shape, PixelGrid grid) {
         if (shape == null) {
-            return Double.NaN;
+            return null;
         }
         double border = rules.edgeExclusionMm() + Math.max(Figure.INTERIOR_MARGIN_MM, grid.pitchMm());
-        double largest = 0;
+        FlaggedRegions.FlaggedRegion largest = null;
         for (FlaggedRegions.FlaggedRegion r : regions.regions()) {
-            if (r.region().edgeDistanceMm() > border) {
-                largest = Math.max(largest, r.region().areaMm2());
+            if (r.region().edgeDistanceMm() > border
+                    && (largest == null || r.region().areaMm2() > largest.region().areaMm2())) {
+                largest = r;
             }
         }
         return largest;

@@ -109,7 +109,7 @@ public final class OutlineDetection {
         FitQuality chosen = squareWins ? squareQ : roundQ;
         FitQuality other = squareWins ? roundQ : squareQ;
         PixelGrid recentred = grid.withCentre(grid.xPx(shape.centreXMm()), grid.yPx(shape.centreYMm()));
-        return new OutlineFit(shape, chosen, other, WaferFormat.closestTo(shape), recentred);
+        return new OutlineFit(shape, chosen, other, WaferFormat.closestTo(shape, pitch), recentred);
     }
 
     // ---------------------------------------------------------------- round

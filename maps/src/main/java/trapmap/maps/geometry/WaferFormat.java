@@ -21,6 +21,11 @@ import trapmap.shared.check.Checks;
  *       G12 in the 2020 210 mm proposal) are from memory or common practice; SEMI PV22 itself could not be
  *       consulted.</li>
  * </ul>
+ *
+ * <p>A fitted outline is matched at its map's pixel pitch ({@link #closestTo(WaferShape, double)}): size tolerances
+ * widen by {@link #PITCH_TOLERANCE_FACTOR} × pitch, and a flat or notch shallower than
+ * {@link #MARK_RESOLVABLE_PITCHES} pixels is reported as not resolved (the wafer keeps its size family, e.g.
+ * {@code round-200}), never guessed.
  */
 public enum WaferFormat {
     ROUND_100_FLAT("round-100-flat", Kind.ROUND, 100, sym(0.5), Fiducial.flat(32.5), sym(2.5), null, Src.M1),
@@ -219,32 +224,153 @@ public enum WaferFormat {
     }
 
     /**
-     * The standard format closest to {@code shape}: for a round shape the nearest diameter (preferring formats with
-     * the same kind of fiducial when the shape has one), for a square shape the smallest of the larger of the side
-     * and diagonal deviations among the pseudo- and full-square formats.
+     * Widening of every size tolerance per millimetre of pixel pitch when a fitted outline is classified. An edge of
+     * an outline fitted to pixel data is located to within about half a pixel (a straight edge along the pixel
+     * rows, to exactly a whole pixel), so a size measured across two edges is known to about one pitch: the allowed
+     * deviation is the nominal tolerance + 1 × pitch. Common practice for measurements on a sampled grid; the demo's
+     * axis-aligned wafers come out up to 0.94 pitch larger than nominal (whole pixels), which this covers.
      */
+    public static final double PITCH_TOLERANCE_FACTOR = 1.0;
+
+    /**
+     * Depth of the mark, in pixels, from which the outline fit reliably shows it: the fit takes rim points more than
+     * max(3σ, 1.5 pitch) inside the circle as a mark ({@link OutlineDetection}), plus half a pixel for where the
+     * mark's bottom falls on the grid.
+     */
+    public static final double MARK_RESOLVABLE_PITCHES = 2.0;
+
+    /**
+     * How far the mark reaches into the wafer circle, mm: a flat's sagitta R − √(R² − (L/2)²), a notch's depth; 0 for
+     * formats without a mark.
+     */
+    public double markDepthMm() {
+        if (fiducial instanceof Fiducial.Flat f) {
+            double r = sizeMm / 2;
+            double half = f.lengthMm() / 2;
+            return r - Math.sqrt(r * r - half * half);
+        }
+        if (fiducial instanceof Fiducial.Notch n) {
+            return n.depthMm();
+        }
+        return 0;
+    }
+
+    /**
+     * True when a map of this pixel pitch shows this format's mark: its depth is at least
+     * {@link #MARK_RESOLVABLE_PITCHES} pixels (a 1 mm notch needs a pitch of 0.5 mm or finer; the 57.5 mm flat of a
+     * 200 mm wafer, 4.2 mm deep, 2.1 mm). Always true for formats without a mark.
+     */
+    public boolean markResolvable(double pitchMm) {
+        Checks.nonNegative(pitchMm, "pitch", "mm");
+        return fiducial instanceof Fiducial.None || markDepthMm() >= MARK_RESOLVABLE_PITCHES * pitchMm;
+    }
+
+    /**
+     * The family of wafers of this size whatever their mark: {@code round-200} for {@code round-200-flat} and
+     * {@code round-200-notch}; the id itself for square formats.
+     */
+    public String sizeFamily() {
+        return kind == Kind.ROUND ? "round-" + number(sizeMm) : id;
+    }
+
+    private static String number(double mm) {
+        return mm == Math.rint(mm) ? Long.toString((long) mm) : Double.toString(mm);
+    }
+
+    /**
+     * Every family id a wafer can be filed under: the format ids and the round size families ({@code round-100} …
+     * {@code round-300}), in declaration order.
+     */
+    public static List<String> familyIds() {
+        List<String> out = new ArrayList<>();
+        for (WaferFormat f : values()) {
+            if (!out.contains(f.sizeFamily())) {
+                out.add(f.sizeFamily());
+            }
+            out.add(f.id);
+        }
+        return out;
+    }
+
+    /**
+     * True when a wafer of family {@code waferFamily} belongs to {@code wanted}: the same id, or a round size family
+     * ({@code round-200}) that holds the wafer's format ({@code round-200-flat}, {@code round-200-notch}, or
+     * {@code round-200} itself when the mark was not resolved). A format id never takes a wafer whose mark was not
+     * resolved: {@code round-200-notch} does not match {@code round-200}.
+     */
+    public static boolean familyMatches(String wanted, String waferFamily) {
+        if (wanted == null || waferFamily == null) {
+            return false;
+        }
+        if (wanted.equals(waferFamily)) {
+            return true;
+        }
+        for (WaferFormat f : values()) {
+            if (f.id.equals(waferFamily)) {
+                return f.kind == Kind.ROUND && f.sizeFamily().equals(wanted);
+            }
+        }
+        return false;
+    }
+
+    /** The standard format closest to an exact outline; see {@link #closestTo(WaferShape, double)} at pitch 0. */
     public static FormatMatch closestTo(WaferShape shape) {
+        return closestTo(shape, 0);
+    }
+
+    /**
+     * The standard format closest to an outline fitted to a map of pixel pitch {@code pitchMm}.
+     *
+     * <p>Round outline: the formats of the nearest nominal diameter are the candidates; the size is within tolerance
+     * when the diameter lies within the SEMI M1 tolerance + {@link #PITCH_TOLERANCE_FACTOR} × pitch. The mark decides
+     * among the candidates: the one with the fitted mark's kind (flat or notch) is the format. When none has it, the
+     * format is left open and the wafer is filed under its size family ({@code round-200}): the mark is
+     * {@link FormatMatch.Mark#NOT_RESOLVED not resolved} when some candidate's mark is too small for the pitch
+     * ({@link #markResolvable}), else {@link FormatMatch.Mark#NOT_FOUND not found}. A plain disk is never guessed to
+     * carry a flat. The mark's dimensions are not compared: the fit measures a flat's or a notch's depth only to
+     * about a pixel.
+     *
+     * <p>Square outline: among the pseudo- and full-square formats the smallest of the larger of the side and
+     * diagonal deviations; within tolerance when both lie within ±0.25 mm + {@link #PITCH_TOLERANCE_FACTOR} × pitch.
+     */
+    public static FormatMatch closestTo(WaferShape shape, double pitchMm) {
         Checks.notNull(shape, "shape");
-        WaferFormat best = null;
-        double bestDev = Double.POSITIVE_INFINITY;
+        Checks.nonNegative(pitchMm, "pitch", "mm");
+        double widen = PITCH_TOLERANCE_FACTOR * pitchMm;
         if (shape instanceof RoundWafer r) {
-            boolean anySameMark = false;
+            double nearest = Double.NaN;
+            double bestDev = Double.POSITIVE_INFINITY;
             for (WaferFormat f : values()) {
-                anySameMark |= f.kind == Kind.ROUND && f.fiducial.kind().equals(r.fiducial().kind());
-            }
-            for (WaferFormat f : values()) {
-                if (f.kind != Kind.ROUND || anySameMark && !f.fiducial.kind().equals(r.fiducial().kind())) {
-                    continue;
-                }
                 double dev = Math.abs(r.diameterMm() - f.sizeMm);
-                if (dev < bestDev) {
+                if (f.kind == Kind.ROUND && dev < bestDev) {
                     bestDev = dev;
-                    best = f;
+                    nearest = f.sizeMm;
                 }
             }
-            return new FormatMatch(best, bestDev, best.sizeTolerance.accepts(best.sizeMm, r.diameterMm()));
+            List<WaferFormat> candidates = new ArrayList<>();
+            for (WaferFormat f : values()) {
+                if (f.kind == Kind.ROUND && f.sizeMm == nearest) {
+                    candidates.add(f);
+                }
+            }
+            WaferFormat first = candidates.get(0);
+            Tolerance t = widened(first.sizeTolerance, widen);
+            boolean within = t.accepts(nearest, r.diameterMm());
+            double tol = Math.max(t.minus(), t.plus());
+            String mark = r.fiducial().kind();
+            for (WaferFormat f : candidates) {
+                if (f.fiducial.kind().equals(mark)) {
+                    return new FormatMatch(f, f.id, candidates, bestDev, tol, within, FormatMatch.Mark.RESOLVED,
+                            pitchMm);
+                }
+            }
+            boolean unresolvable = candidates.stream().anyMatch(f -> !f.markResolvable(pitchMm));
+            return new FormatMatch(null, first.sizeFamily(), candidates, bestDev, tol, within,
+                    unresolvable ? FormatMatch.Mark.NOT_RESOLVED : FormatMatch.Mark.NOT_FOUND, pitchMm);
         }
         SquareWafer s = (SquareWafer) shape;
+        WaferFormat best = null;
+        double bestDev = Double.POSITIVE_INFINITY;
         for (WaferFormat f : values()) {
             if (f.kind == Kind.ROUND) {
                 continue;
@@ -255,8 +381,14 @@ public enum WaferFormat {
                 best = f;
             }
         }
-        boolean within = best.sizeTolerance.accepts(best.sizeMm, s.sideMm())
-                && best.diagonalTolerance.accepts(best.diagonalMm, s.diagonalMm());
-        return new FormatMatch(best, bestDev, within);
+        Tolerance side = widened(best.sizeTolerance, widen);
+        Tolerance diagonal = widened(best.diagonalTolerance, widen);
+        boolean within = side.accepts(best.sizeMm, s.sideMm()) && diagonal.accepts(best.diagonalMm, s.diagonalMm());
+        return new FormatMatch(best, best.id, List.of(best), bestDev, Math.max(side.plus(), side.minus()), within,
+                FormatMatch.Mark.NONE, pitchMm);
+    }
+
+    private static Tolerance widened(Tolerance t, double mm) {
+        return new Tolerance(t.minus() + mm, t.plus() + mm);
     }
 }

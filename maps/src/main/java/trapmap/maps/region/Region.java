@@ -16,10 +16,50 @@ package trapmap.maps.region;
  * @param meanValue      arithmetic mean of the region's values
  * @param edgeDistanceMm smallest distance from a pixel centre of the region to the wafer edge, mm (0 or less when the
  *                       region reaches the edge)
+ * @param centroidInside true when the centroid lies on a pixel of the region; false for a ring, an arc or an L
+ *                       whose centroid falls in the gap it encloses
+ * @param positionXMm    x of the region's reported position, mm: the centroid when it lies inside the region,
+ *                       otherwise the centre of the region's pixel nearest to the centroid (the lowest pixel index
+ *                       among equally near ones), so that a ring's position is a point of the ring
+ * @param positionYMm    y of the region's reported position, mm
  */
 public record Region(int id, int pixelCount, double areaMm2, double centroidXMm, double centroidYMm,
                      BoundsMm bounds, double peakValue, double peakXMm, double peakYMm, double meanValue,
-                     double edgeDistanceMm) {
+                     double edgeDistanceMm, boolean centroidInside, double positionXMm, double positionYMm) {
+
+    /**
+     * Where a region's centroid falls among its pixels: the region pixel whose centre is nearest to the centroid, and
+     * whether the centroid lies on it (on the pixel's square, edges included). The pixel squares are the Voronoi
+     * cells of the pixel centres, so the centroid lies on some pixel of the region exactly when it lies on the
+     * nearest one.
+     *
+     * @param nearestIndex index (row-major) of the region pixel nearest to the centroid
+     * @param inside       true when the centroid lies on that pixel
+     */
+    public record CentroidPixel(int nearestIndex, boolean inside) {
+        /**
+         * Of the pixels {@code pixels[0..count)} of a raster {@code width} wide, with centroid ({@code cxPx},
+         * {@code cyPx}) in pixel coordinates.
+         */
+        public static CentroidPixel of(int[] pixels, int count, int width, double cxPx, double cyPx) {
+            int best = -1;
+            double bestD = Double.POSITIVE_INFINITY;
+            for (int k = 0; k < count; k++) {
+                int i = pixels[k];
+                int y = i / width;
+                double dx = i - y * width - cxPx;
+                double dy = y - cyPx;
+                double d = dx * dx + dy * dy;
+                if (d < bestD || d == bestD && i < best) {
+                    bestD = d;
+                    best = i;
+                }
+            }
+            int y = best / width;
+            boolean inside = Math.abs(best - y * width - cxPx) <= 0.5 && Math.abs(y - cyPx) <= 0.5;
+            return new CentroidPixel(best, inside);
+        }
+    }
 
     /**
      * An axis-aligned box in wafer coordinates.

@@ -1,6 +1,7 @@
 package trapmap.maps.region;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.BitSet;
 import java.util.List;
 import trapmap.maps.geometry.DataOutline;
@@ -69,6 +70,7 @@ public final class ThresholdRegions {
         }
         List<Region> regions = new ArrayList<>();
         IntQueue queue = new IntQueue(1024);
+        int[] members = new int[1024];
         for (int seed = open.nextSetBit(0); seed >= 0; seed = open.nextSetBit(seed + 1)) {
             open.clear(seed);
             queue.add(seed);
@@ -88,6 +90,10 @@ public final class ThresholdRegions {
                 int y = i / w;
                 int x = i - y * w;
                 double v = s[i];
+                if (count == members.length) {
+                    members = Arrays.copyOf(members, members.length * 2);
+                }
+                members[(int) count] = i;
                 count++;
                 sumX += x;
                 sumY += y;
@@ -130,9 +136,13 @@ public final class ThresholdRegions {
             double halfPx = 0.5;
             Region.BoundsMm bounds = new Region.BoundsMm(grid.xMm(minX - halfPx), grid.yMm(maxY + halfPx),
                     grid.xMm(maxX + halfPx), grid.yMm(minY - halfPx));
-            regions.add(new Region(regions.size() + 1, (int) count, area, grid.xMm((double) sumX / count),
-                    grid.yMm((double) sumY / count), bounds, peak, grid.xMm(peakIndex % w), grid.yMm(peakIndex / w),
-                    sumValue / count, nearest));
+            double cx = (double) sumX / count;
+            double cy = (double) sumY / count;
+            Region.CentroidPixel at = Region.CentroidPixel.of(members, (int) count, w, cx, cy);
+            regions.add(new Region(regions.size() + 1, (int) count, area, grid.xMm(cx), grid.yMm(cy), bounds, peak,
+                    grid.xMm(peakIndex % w), grid.yMm(peakIndex / w), sumValue / count, nearest, at.inside(),
+                    at.inside() ? grid.xMm(cx) : grid.xMm(at.nearestIndex() % w),
+                    at.inside() ? grid.yMm(cy) : grid.yMm(at.nearestIndex() / w)));
         }
         return new RegionTable(regions, criteria, shape != null ? RegionTable.EdgeReference.WAFER_SHAPE
                 : RegionTable.EdgeReference.DATA_OUTLINE);

@@ -41,4 +41,23 @@ class RecurrenceMapTest {
         assertThat(at(m, 2, 3)).isNaN();              // no wafer there
         assertThat(at(m, -2, 0)).isNaN();
     }
+
+    @Test
+    void eachFamilyCountsItsWafersAndAFamilyWithNoEvaluatedCellHasNoMap() {
+        RecurrenceMap r = new RecurrenceMap();
+        r.add(footprint(0, 0, 2, 2, 0));
+        r.add(footprint(0, 0, 2, 2));
+        r.add(new Footprint("g", 1.0, 0, 0, 1, 1, bits(0), new BitSet()));
+        r.add(new Footprint("empty", 1.0, 0, 0, 1, 1, new BitSet(), new BitSet()));
+        assertThat(r.waferCounts()).containsExactly(java.util.Map.entry("f", 2), java.util.Map.entry("g", 1));
+        assertThat(r.waferCounts().keySet()).containsExactlyElementsOf(r.maps().keySet());
+    }
+
+    private static BitSet bits(int... set) {
+        BitSet b = new BitSet();
+        for (int i : set) {
+            b.set(i);
+        }
+        return b;
+    }
 }

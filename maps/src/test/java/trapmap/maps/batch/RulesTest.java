@@ -122,6 +122,23 @@ class RulesTest {
     }
 
     @Test
+    void aSizeFamilyMatchesBothMarksAndTheWafersWhoseMarkWasNotResolved() throws Exception {
+        Rules r = parse("""
+                {"flag": {"quantity": "lifetime", "threshold": 100},
+                 "profiles": [
+                   {"name": "notch", "match": {"wafer": "round-300-notch"}},
+                   {"name": "mon", "match": {"wafer": ["round-200", "round-300"]}}]}
+                """);
+        assertThat(r.profileFor("w.tif", null, "round-200").name()).isEqualTo("mon");
+        assertThat(r.profileFor("w.tif", null, "round-200-flat").name()).isEqualTo("mon");
+        assertThat(r.profileFor("w.tif", null, "round-200-notch").name()).isEqualTo("mon");
+        assertThat(r.profileFor("w.tif", null, "round-300-notch").name()).isEqualTo("notch");
+        assertThat(r.profileFor("w.tif", null, "round-300").name()).isEqualTo("mon");
+        assertThat(r.profileFor("w.tif", null, "round-150-flat").name()).isEqualTo(Rules.DEFAULT_PROFILE);
+        assertThat(r.profileFor("w.tif", null, "fitted").name()).isEqualTo(Rules.DEFAULT_PROFILE);
+    }
+
+    @Test
     void aPassingWaferIsGradedByTheFirstGradeItMeetsAndAFailedOneByTheFailGrade() throws Exception {
         Rules r = parse("{" + FLAG + ", \"fail_grade\": \"R\", \"grades\": ["
                 + "{\"grade\": \"A\", \"when\": {\"median_lifetime_us\": {\"min\": 100},"

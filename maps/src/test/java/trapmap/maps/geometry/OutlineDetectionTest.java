@@ -38,7 +38,10 @@ class OutlineDetectionTest {
         assertThat(r.fiducial()).isEqualTo(Fiducial.NONE);
         assertThat(fit.quality().rmsResidualMm()).isLessThan(grid.pitchMm());
         assertThat(fit.quality().mismatchFraction()).isLessThan(0.005);
-        assertThat(fit.closestFormat().format().sizeMm()).isEqualTo(125);
+        // a plain 125 mm disk: the 125 mm format's flat (3.7 mm deep) would show at 0.25 mm, and it is not there
+        assertThat(fit.closestFormat().format()).isNull();
+        assertThat(fit.closestFormat().family()).isEqualTo("round-125");
+        assertThat(fit.closestFormat().mark()).isEqualTo(FormatMatch.Mark.NOT_FOUND);
         assertThat(fit.centredShape().centreXMm()).isZero();
         assertThat(fit.recentredGrid().xMm(cxPx)).isCloseTo(0, within(0.5 * grid.pitchMm()));
     }
@@ -71,6 +74,21 @@ class OutlineDetectionTest {
         assertThat(((Fiducial.Notch) r.fiducial()).depthMm()).isCloseTo(1.0, within(3 * grid.pitchMm()));
         assertThat(r.fiducialAngleDeg()).isCloseTo(90, within(0.5));
         assertThat(fit.closestFormat().format()).isEqualTo(WaferFormat.ROUND_200_NOTCH);
+    }
+
+    @Test
+    void aNotchBelowThePitchIsReportedUnresolvedNotGuessedAsAFlat() {
+        PixelGrid grid = PixelGrid.centred(257, 257, 0.8);
+        WaferShape truth = WaferFormat.ROUND_200_NOTCH.shape();
+        OutlineFit fit = OutlineDetection.fit(render(truth, grid), grid);
+
+        assertThat(fit.model()).isEqualTo(OutlineFit.Model.ROUND);
+        FormatMatch m = fit.closestFormat();
+        assertThat(m.format()).isNull();
+        assertThat(m.family()).isEqualTo("round-200");
+        assertThat(m.mark()).isEqualTo(FormatMatch.Mark.NOT_RESOLVED);
+        assertThat(m.pitchMm()).isEqualTo(0.8);
+        assertThat(m.withinTolerance()).isTrue();
     }
 
     @Test

@@ -152,4 +152,75 @@ class WaferFormatTest {
         assertThat(WaferFormat.closestTo(SquareWafer.full(156.7)).format()).isEqualTo(WaferFormat.SQUARE_156_75);
         assertThat(WaferFormat.closestTo(SquareWafer.full(150)).withinTolerance()).isFalse();
     }
+
+    @Test
+    void sizeTolerancesWidenByOnePixelPitch() {
+        // the demo's M2 wafers fit as 262 whole 0.6 mm pixels: 157.20 mm, 0.45 mm over the 156.75 mm side
+        SquareWafer m2 = SquareWafer.pseudo(157.2, 210.14);
+        assertThat(WaferFormat.closestTo(m2).withinTolerance()).isFalse(); // ±0.25 mm alone
+        FormatMatch at06 = WaferFormat.closestTo(m2, 0.6);
+        assertThat(at06.format()).isEqualTo(WaferFormat.M2);
+        assertThat(at06.withinTolerance()).isTrue();
+        assertThat(at06.toleranceMm()).isCloseTo(0.25 + 0.6, within(1e-12)); // nominal + 1 × pitch
+        assertThat(at06.batchFamily()).isEqualTo("m2");
+        assertThat(WaferFormat.closestTo(m2, 0.1).withinTolerance()).isFalse(); // 0.45 > 0.35
+        assertThat(WaferFormat.closestTo(m2, 0.1).batchFamily()).isEqualTo(FormatMatch.FITTED);
+        // SEMI M1 200 mm: ±0.2 mm; a 200.9 mm disk passes only on a coarse map
+        assertThat(WaferFormat.closestTo(RoundWafer.of(200.9, Fiducial.notch(1, 90)), 0.2).withinTolerance())
+                .isFalse();
+        assertThat(WaferFormat.closestTo(RoundWafer.of(200.9, Fiducial.notch(1, 90)), 0.8).withinTolerance())
+                .isTrue();
+    }
+
+    @Test
+    void markDepthsAndTheirResolution() {
+        // sagitta of a chord: R − √(R² − (L/2)²), computed from the SEMI M1 flat lengths listed above
+        assertThat(WaferFormat.ROUND_200_FLAT.markDepthMm())
+                .isCloseTo(100 - Math.sqrt(100 * 100 - 28.75 * 28.75), within(1e-12));
+        assertThat(WaferFormat.ROUND_200_FLAT.markDepthMm()).isCloseTo(4.22, within(0.01));
+        assertThat(WaferFormat.ROUND_200_NOTCH.markDepthMm()).isEqualTo(1.0);
+        assertThat(WaferFormat.M10.markDepthMm()).isZero();
+        assertThat(WaferFormat.ROUND_200_NOTCH.markResolvable(0.5)).isTrue();
+        assertThat(WaferFormat.ROUND_200_NOTCH.markResolvable(0.8)).isFalse();
+        assertThat(WaferFormat.ROUND_200_FLAT.markResolvable(0.8)).isTrue();
+        assertThat(WaferFormat.ROUND_200_FLAT.markResolvable(2.2)).isFalse();
+        assertThat(WaferFormat.G12.markResolvable(5)).isTrue();
+    }
+
+    @Test
+    void aDiskWhoseMarkThePitchCannotShowIsFiledUnderItsSize() {
+        FormatMatch coarse = WaferFormat.closestTo(RoundWafer.disk(199.98), 0.8);
+        assertThat(coarse.format()).isNull();
+        assertThat(coarse.family()).isEqualTo("round-200");
+        assertThat(coarse.mark()).isEqualTo(FormatMatch.Mark.NOT_RESOLVED);
+        assertThat(coarse.markResolved()).isFalse();
+        assertThat(coarse.withinTolerance()).isTrue();
+        assertThat(coarse.batchFamily()).isEqualTo("round-200");
+        assertThat(coarse.candidates()).containsExactly(WaferFormat.ROUND_200_FLAT, WaferFormat.ROUND_200_NOTCH);
+        assertThat(coarse.describe()).contains("mark not resolved at 0.8 mm pitch");
+        // fine enough for both marks, and neither is there: not found, still never a flat
+        FormatMatch fine = WaferFormat.closestTo(RoundWafer.disk(199.98), 0.2);
+        assertThat(fine.format()).isNull();
+        assertThat(fine.mark()).isEqualTo(FormatMatch.Mark.NOT_FOUND);
+        // a seen mark decides at any pitch
+        FormatMatch flat = WaferFormat.closestTo(RoundWafer.of(200, Fiducial.flat(57.5)), 0.8);
+        assertThat(flat.format()).isEqualTo(WaferFormat.ROUND_200_FLAT);
+        assertThat(flat.mark()).isEqualTo(FormatMatch.Mark.RESOLVED);
+        assertThat(WaferFormat.closestTo(SquareWafer.pseudo(182, 247), 0.5).mark()).isEqualTo(FormatMatch.Mark.NONE);
+    }
+
+    @Test
+    void sizeFamiliesTakeBothMarksButAFormatIdNeedsItsMark() {
+        assertThat(WaferFormat.familyIds()).contains("round-200", "round-300", "round-150", "m10", "round-200-notch");
+        assertThat(WaferFormat.ROUND_200_NOTCH.sizeFamily()).isEqualTo("round-200");
+        assertThat(WaferFormat.M10.sizeFamily()).isEqualTo("m10");
+        assertThat(WaferFormat.familyMatches("round-200", "round-200")).isTrue();
+        assertThat(WaferFormat.familyMatches("round-200", "round-200-flat")).isTrue();
+        assertThat(WaferFormat.familyMatches("round-200", "round-200-notch")).isTrue();
+        assertThat(WaferFormat.familyMatches("round-200", "round-300-notch")).isFalse();
+        assertThat(WaferFormat.familyMatches("round-200-notch", "round-200")).isFalse();
+        assertThat(WaferFormat.familyMatches("round-200-notch", "round-200-flat")).isFalse();
+        assertThat(WaferFormat.familyMatches("m10", "m10")).isTrue();
+        assertThat(WaferFormat.familyMatches("m10", "fitted")).isFalse();
+    }
 }

@@ -61,6 +61,39 @@ class ThresholdRegionsTest {
         assertThat(d.peakYMm()).isCloseTo(grid.yMm(47), within(1e-12));
         assertThat(d.meanValue()).isCloseTo(sum / count, within(1e-5));
         assertThat(d.equivalentDiameterMm()).isCloseTo(10, within(0.3));
+        assertThat(d.centroidInside()).isTrue();
+        assertThat(d.positionXMm()).isEqualTo(d.centroidXMm());
+        assertThat(d.positionYMm()).isEqualTo(d.centroidYMm());
+    }
+
+    @Test
+    void aRingIsMarkedAndReportedAtItsPixelNearestTheCentroid() {
+        int n = 101;
+        PixelGrid grid = PixelGrid.centred(n, n, 1);
+        FloatRaster r = background(n, n, 0);
+        for (int y = 0; y < n; y++) {
+            for (int x = 0; x < n; x++) {
+                double rad = Math.hypot(grid.xMm(x) - 10, grid.yMm(y) + 5);
+                if (rad >= 20 && rad <= 23) {
+                    set(r, x, y, 1 + (float) (x * 1e-3));
+                }
+            }
+        }
+        RegionTable t = ThresholdRegions.find(r, grid, null, RegionCriteria.above(0.5, 0), null);
+        assertThat(t.size()).isEqualTo(1);
+        Region ring = t.regions().get(0);
+        assertThat(ring.centroidXMm()).isCloseTo(10, within(0.05));
+        assertThat(ring.centroidYMm()).isCloseTo(-5, within(0.05));
+        assertThat(ring.centroidInside()).isFalse();
+        double rad = Math.hypot(ring.positionXMm() - 10, ring.positionYMm() + 5);
+        assertThat(rad).isBetween(20.0, 21.0); // on the ring's inner rim, the part nearest the centroid
+        int px = (int) Math.round(grid.xPx(ring.positionXMm()));
+        int py = (int) Math.round(grid.yPx(ring.positionYMm()));
+        assertThat(r.samples()[py * n + px]).isGreaterThan(0.5f); // a pixel of the ring
+        assertThat(ring.bounds().minXMm()).isCloseTo(10 - 23.5, within(0.6));
+        assertThat(ring.bounds().maxXMm()).isCloseTo(10 + 23.5, within(0.6));
+        assertThat(ring.bounds().minYMm()).isCloseTo(-5 - 23.5, within(0.6));
+        assertThat(ring.peakXMm()).isGreaterThan(30); // the rightmost pixels carry the largest values
     }
 
     @Test
