@@ -18,9 +18,12 @@ import trapmap.maps.compare.MapRegistration;
 import trapmap.maps.compare.PairedStatistics;
 import trapmap.maps.compare.Registration;
 import trapmap.maps.compare.RegistrationOptions;
+import trapmap.maps.compare.RegistrationReport;
+import trapmap.maps.compare.RegistrationWarnings;
 import trapmap.maps.io.MapFormatException;
 import trapmap.maps.model.WaferMap;
 import trapmap.physics.defect.Defect;
+import trapmap.shared.progress.ProgressListener;
 
 /** {@code trapmap compare}: two maps of the same wafer before and after a process step. */
 @Command(name = "compare", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
@@ -31,6 +34,10 @@ import trapmap.physics.defect.Defect;
             "AFTER onto BEFORE's grid, and writes the difference, ratio, relative-change or reduction map. With",
             "--defect both maps are first converted to trap densities (conditions from each sidecar, overridden by",
             "the flags), so the reduction map is the per-pixel gettering efficiency 1 − N_after/N_before.",
+            "The maps as they lie are scored too and kept when the search does not beat them. Different wafer ids,",
+            "fitted sizes differing beyond the format's tolerance, or a score below "
+                    + RegistrationWarnings.SCORE_FLOOR + " give a warning line on",
+            "stderr (and a warnings array with --json); --strict then exits with status 2.",
             ""},
         footer = {"", Help.EXIT_CODES})
 final class CompareCommand implements Callable<Integer> {
@@ -57,8 +64,17 @@ final class CompareCommand implements Callable<Integer> {
     boolean noRegistration;
 
     @Option(names = "--max-rotation-deg", paramLabel = "<deg>", defaultValue = "5",
-            description = "Largest small turn searched besides mirrors and quarter turns, in degrees. Default: 5.")
+            description = "Largest turn away from the nearest mirror/quarter-turn placement, in degrees; no stage"
+                    + " returns a placement beyond it. Default: 5.")
     double maxRotationDeg;
+
+    @Option(names = "--upright", description = "Search no mirrors or quarter turns: AFTER is only shifted and turned"
+            + " within --max-rotation-deg.")
+    boolean upright;
+
+    @Option(names = "--strict", description = "Exit with status 2 when there is a warning (different wafer ids or"
+            + " sizes, or a registration score below " + RegistrationWarnings.SCORE_FLOOR + ").")
+    boolean strict;
 
     @Option(names = "--tolerance", paramLabel = "<fraction>", defaultValue = "0.05",
             description = "Relative change within which a pixel counts as unchanged (0.05 = ±5 %, common"
@@ -97,7 +113,7 @@ final class CompareCommand implements Callable<Integer> {
             throw new InputException(afterFile + " holds " + after.quantity().key() + " but " + beforeFile + " holds "
                     + before.quantity().key() + "; compare maps of one quantity (or use --defect)");
         }
-        Registration registration;
+        RegistrationReport report;
         WaferMap aligned;
         if (noRegistration) {
             if (before.width() != after.width() || before.height() != after.height()) {
@@ -105,14 +121,14 @@ final class CompareCommand implements Callable<Integer> {
                         + before.width() + "x" + before.height() + " px and " + afterFile + " is " + after.width()
                         + "x" + after.height() + " px");
             }
-            registration = MapRegistration.evaluate(before, after, Registration.identity());
+            report = MapRegistration.unregistered(before, after);
             aligned = after.withGrid(before.grid());
         } else {
-            registration = MapRegistration.register(before, after,
-                    RegistrationOptions.DEFAULTS.withMaxRotation(maxRotationDeg), trapmap.shared.progress
-                            .ProgressListener.NONE);
-            aligned = MapRegistration.apply(before, after, registration);
+            report = MapRegistration.registerChecked(before, after, RegistrationOptions.DEFAULTS
+                    .withMaxRotation(maxRotationDeg).withSearchOrientations(!upright), ProgressListener.NONE);
+            aligned = MapRegistration.apply(before, after, report.registration());
         }
+        Registration registration = report.registration();
         Comparison c = MapComparison.compare(before, aligned, null, tolerance,
                 trapmap.maps.compare.Improvement.of(before.quantity()));
         if (output != null) {
@@ -130,19 +146,27 @@ final class CompareCommand implements Callable<Integer> {
             };
             MapInput.write(out, output);
         }
-        print(registration, c.statistics());
-        return Exit.OK;
+        print(report, c.statistics());
+        PrintWriter err = spec.commandLine().getErr();
+        report.warnings().forEach(w -> err.println("warning: " + w));
+        err.flush();
+        return strict && report.hasWarnings() ? Exit.INVALID_INPUT : Exit.OK;
     }
 
-    private void print(Registration r, PairedStatistics s) {
+    private void print(RegistrationReport report, PairedStatistics s) {
+        Registration r = report.registration();
         Map<String, Object> reg = new LinkedHashMap<>();
         reg.put("flip_x", r.flipX());
         reg.put("flip_y", r.flipY());
         reg.put("rotation_deg", Output.num(r.rotationDeg()));
         reg.put("shift_x_mm", Output.num(r.shiftXMm()));
         reg.put("shift_y_mm", Output.num(r.shiftYMm()));
+        reg.put("fine_rotation_deg", Output.num(r.fineRotationDeg()));
         reg.put("score", Output.num(r.score()));
         reg.put("overlap_pixels", r.overlapPixels());
+        reg.put("kept", report.kept().key());
+        reg.put("search_score", Output.num(report.searchScore()));
+        reg.put("identity_score", Output.num(report.identityScore()));
         Map<String, Object> p = new LinkedHashMap<>();
         p.put("quantity", s.quantity().key());
         p.put("unit", s.unit());
@@ -163,6 +187,7 @@ final class CompareCommand implements Callable<Integer> {
         m.put("after", afterFile.toString());
         m.put("registration", reg);
         m.put("paired", p);
+        m.put("warnings", report.warnings());
         if (output != null) {
             m.put("output", output.toString());
         }
@@ -171,9 +196,16 @@ final class CompareCommand implements Callable<Integer> {
             out.println(Output.json(m));
         } else {
             Output.Table t = new Output.Table();
-            t.row("registration", (r.flipX() ? "mirrored, " : "") + Format.number(r.rotationDeg()) + "°, shift ("
-                    + Format.number(r.shiftXMm()) + ", " + Format.number(r.shiftYMm()) + ") mm", "");
+            Registration c = r.canonical();
+            t.row("registration", (c.mirrored() ? "mirrored " + (c.flipX() ? "left-right" : "top-bottom") + ", " : "")
+                    + Format.number(c.rotationDeg()) + "°, shift (" + Format.number(c.shiftXMm()) + ", "
+                    + Format.number(c.shiftYMm()) + ") mm", "");
             t.number(reg, "score", "registration score (0..1)", "", "n/a");
+            t.row("placement kept", switch (report.kept()) {
+                case SEARCH -> "searched (unregistered scores " + Format.number(report.identityScore()) + ")";
+                case IDENTITY -> "unregistered (the search scored " + Format.number(report.searchScore()) + ")";
+                case UNREGISTERED -> "unregistered (--no-registration)";
+            }, "");
             t.number(p, "count", "pixels compared", "", null);
             t.number(p, "median_ratio", "median ratio after/before", "", "n/a");
             t.number(p, "mean_difference", "mean difference after − before", s.unit(), "n/a");

@@ -17,6 +17,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import trapmap.maps.batch.BatchInspection;
+import trapmap.maps.batch.IronPairRules;
 import trapmap.maps.batch.Rules;
 import trapmap.maps.batch.RulesException;
 import trapmap.shared.progress.ProgressListener;
@@ -74,8 +75,10 @@ final class InspectCommand implements Callable<Integer> {
             throw new InputException("--threads must be in [1, 256] (got " + n + ")");
         }
         Rules rules;
+        IronPairRules ironPairs;
         try {
             rules = Rules.read(rulesFile);
+            ironPairs = IronPairRules.read(rulesFile).orElse(null);
         } catch (RulesException e) {
             throw new InputException("--rules " + e.getMessage());
         }
@@ -88,7 +91,7 @@ final class InspectCommand implements Callable<Integer> {
         }
         PrintWriter err = spec.commandLine().getErr();
         ProgressListener progress = System.console() != null ? bar(err) : lines(err);
-        BatchInspection.Summary s = new BatchInspection(rules).run(files, out,
+        BatchInspection.Summary s = new BatchInspection(rules).withIron(ironPairs).run(files, out,
                 new BatchInspection.Options(n, resume, thumbnails, progress));
         if (System.console() != null) {
             err.println();

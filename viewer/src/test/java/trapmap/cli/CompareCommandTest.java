@@ -21,6 +21,7 @@ import trapmap.physics.material.Doping;
 class CompareCommandTest {
     private static final int N = 96;
     private static final double PITCH_MM = 0.5;
+    private static final Path DEMO = Path.of("..", "demo-data");
 
     @TempDir
     Path dir;
@@ -57,7 +58,7 @@ class CompareCommandTest {
 
     private Path write(String name, float[] samples) throws Exception {
         WaferMap m = new WaferMap(FloatRaster.wrap(N, N, samples), PixelGrid.centred(N, N, PITCH_MM),
-                Quantity.EFFECTIVE_LIFETIME, name, new MeasurementConditions(Doping.pType(1e16), null, null, 1e14,
+                Quantity.EFFECTIVE_LIFETIME, "W01", new MeasurementConditions(Doping.pType(1e16), null, null, 1e14,
                         null, null, null, null, Map.of()), Provenance.of("test"));
         Path f = dir.resolve(name + ".tif");
         MapFiles.write(m, f);
@@ -106,6 +107,45 @@ class CompareCommandTest {
         // N_t ∝ 1/τ_SRH; with τ_intr ≫ τ at these lifetimes, four times the lifetime is about 75 % fewer traps.
         assertThat(median).isCloseTo(0.75, within(0.02));
         assertThat(j.get("paired").get("quantity").asText()).isEqualTo("trap-density");
+    }
+
+    @Test
+    void getteringPairNeverScoresBelowItsUnregisteredPlacement() {
+        String b = DEMO.resolve("LOT-A02-W05-before-gettering.tif").toString();
+        String a = DEMO.resolve("LOT-A02-W05-after-gettering.tif").toString();
+        JsonNode registered = Cli.json("compare", b, a, "--json");
+        JsonNode unregistered = Cli.json("compare", b, a, "--json", "--no-registration");
+        double score = registered.get("registration").get("score").asDouble();
+        assertThat(score).isGreaterThanOrEqualTo(unregistered.get("registration").get("score").asDouble());
+        assertThat(registered.get("registration").get("kept").asText()).isIn("search", "identity");
+        assertThat(unregistered.get("registration").get("kept").asText()).isEqualTo("unregistered");
+        assertThat(registered.get("warnings")).isEmpty();
+    }
+
+    @Test
+    void unrelatedWafersWarnOnStderrAndInJson() {
+        Cli.Run r = Cli.run("compare", DEMO.resolve("LOT-A01-W01.tif").toString(),
+                DEMO.resolve("LOT-N01-W03.tif").toString(), "--json");
+        assertThat(r.code()).isZero();
+        assertThat(r.errLines()).hasSize(3).allMatch(l -> l.startsWith("warning: "));
+        JsonNode j = Cli.parse(r.out());
+        assertThat(j.get("warnings")).hasSize(3);
+        assertThat(j.get("warnings").get(0).asText()).contains("LOT-N01-W03");
+        assertThat(Math.abs(j.get("registration").get("fine_rotation_deg").asDouble())).isLessThanOrEqualTo(5);
+    }
+
+    @Test
+    void strictTurnsWarningsIntoExitStatusTwo() {
+        String b = DEMO.resolve("LOT-A01-W01.tif").toString();
+        Cli.Run unrelated = Cli.run("compare", b, DEMO.resolve("LOT-N01-W03.tif").toString(), "--strict",
+                "--max-rotation-deg", "2");
+        assertThat(unrelated.code()).isEqualTo(2);
+        assertThat(unrelated.errLines()).isNotEmpty().allMatch(l -> l.startsWith("warning: "));
+        assertThat(unrelated.out()).contains("registration");
+        Cli.Run same = Cli.run("compare", DEMO.resolve("LOT-A03-W02-feb-state.tif").toString(),
+                DEMO.resolve("LOT-A03-W02-fe-i-state.tif").toString(), "--strict", "--upright");
+        assertThat(same.code()).isZero();
+        assertThat(same.err()).isEmpty();
     }
 
     @Test

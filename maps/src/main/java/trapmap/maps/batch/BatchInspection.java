@@ -112,6 +112,9 @@ public final class BatchInspection {
 
     private final Rules rules;
     private final WaferInspection inspection;
+    private final WaferInspection.MapReader reader;
+    /** The rules' iron section, null when there is none. */
+    private IronPairRules iron;
 
     public BatchInspection(Rules rules) {
         this(rules, MapFiles::readSingle);
@@ -121,6 +124,16 @@ public final class BatchInspection {
     public BatchInspection(Rules rules, WaferInspection.MapReader reader) {
         this.rules = rules;
         this.inspection = new WaferInspection(rules, reader);
+        this.reader = reader;
+    }
+
+    /**
+     * Also maps the iron of the FeB-dissociation pairs found by {@code ironRules} (null: none): their figures and
+     * limits go into extra columns ({@link IronPairs}). Returns this batch.
+     */
+    public BatchInspection withIron(IronPairRules ironRules) {
+        this.iron = ironRules;
+        return this;
     }
 
     /** The CSV columns for these rules. */
@@ -137,7 +150,12 @@ public final class BatchInspection {
     /** Runs the batch over {@code files} and writes the results into {@code outDir}. */
     public Summary run(List<Path> files, Path outDir, Options options) throws IOException, InterruptedException {
         Files.createDirectories(outDir);
-        List<String> columns = columns(rules);
+        List<String> columns = new ArrayList<>(columns(rules));
+        IronPairs pairs = iron == null ? null : new IronPairs(iron, rules, reader, files);
+        Map<String, Map<String, String>> ironColumns = new java.util.concurrent.ConcurrentHashMap<>();
+        if (pairs != null) {
+            columns.addAll(IronPairs.columns(iron));
+        }
         Path csv = outDir.resolve(CSV_NAME);
         Path partial = outDir.resolve(PARTIAL_NAME);
         Path footprints = outDir.resolve(FOOTPRINTS_NAME);
@@ -211,7 +229,13 @@ public final class BatchInspection {
                 while (next.hasNext() && pending.size() < 2 * threads) {
                     Path f = next.next();
                     Path thumb = thumbs == null ? null : thumbs.resolve(f.getFileName() + ".png");
-                    pending.add(pool.submit(() -> inspection.inspect(f, thumb)));
+                    pending.add(pool.submit(() -> {
+                        WaferResult inspected = inspection.inspect(f, thumb);
+                        if (pairs != null) {
+                            ironColumns.put(inspected.file(), pairs.evaluate(f));
+                        }
+                        return inspected;
+                    }));
                 }
                 WaferResult r;
                 try {
@@ -229,6 +253,10 @@ public final class BatchInspection {
                 }
                 rout.flush();
                 Map<String, String> row = row(r);
+                if (pairs != null) {
+                    Map<String, String> ironRow = ironColumns.remove(r.file());
+                    IronPairs.merge(row, ironRow == null ? Map.of() : ironRow, rules);
+                }
                 rows.add(row);
                 print(out, columns, row);
                 out.flush();

@@ -287,7 +287,9 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                     + e.getLocation().getColumnNr() + ": ";
             throw new RulesException(name + ": " + where + "not valid JSON: " + e.getOriginalMessage());
         }
-        return new Reader(name).rules(root);
+        Rules rules = new Reader(name).rules(root);
+        IronPairRules.parse(text, name); // the iron section is checked with the rest, and read by the batch
+        return rules;
     }
 
     /** Walks the JSON tree; each check names the field path and its unit. */
@@ -349,7 +351,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                 throw new RulesException(name + ": the rules must be a JSON object");
             }
             onlyKeys(root, "", new LinkedHashSet<>(List.of("conditions", "defect", "edge_exclusion_mm", "wafer",
-                    "edge_band_mm", "flag", "limits", "grades", "fail_grade", "profiles")));
+                    "edge_band_mm", "flag", "limits", "grades", "fail_grade", "profiles", "iron")));
             MeasurementConditions c = MeasurementConditions.UNKNOWN;
             boolean override = false;
             if (root.has("conditions")) {

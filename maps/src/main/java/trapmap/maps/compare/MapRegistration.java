@@ -1,5 +1,6 @@
 package trapmap.maps.compare;
 
+import java.util.List;
 import java.util.Locale;
 import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.WaferMap;
@@ -25,9 +26,11 @@ import trapmap.shared.progress.ProgressListener;
  *
  * <p>The score is the NCC of the fine structure of the log samples (local mean removed) at the refinement level:
  * in tests on synthetic wafers, same-wafer pairs with a few percent pixel noise score about 0.95–0.99 (about 0.6
- * at 40 % noise, still correctly placed) and maps of different wafers below 0.3. Treat a score below about 0.5 as
- * a failed registration (different wafers, too little texture to lock on to, or a change so strong that the
- * patterns differ).
+ * at 40 % noise, still correctly placed) and maps of different wafers below 0.3. The placement found is only kept
+ * when it scores higher than the maps as they lie (the identity), and no stage turns farther than
+ * {@link RegistrationOptions#maxRotationDeg()} from a mirror/quarter-turn placement. {@link #registerChecked} adds
+ * the {@link RegistrationWarnings} (different wafer ids or sizes, a score below
+ * {@link RegistrationWarnings#SCORE_FLOOR}).
  */
 public final class MapRegistration {
     /** Shortest side a map must have to be registered from its data, pixels. */
@@ -42,7 +45,9 @@ public final class MapRegistration {
     }
 
     /**
-     * Finds the placement of {@code after} on {@code before}. A mirror is reported as {@code flipX} (never
+     * Finds the placement of {@code after} on {@code before}; when the identity placement (the maps as they lie)
+     * scores at least as high, the identity is returned, so the result never scores below the unregistered maps.
+     * The turn stays within {@link RegistrationOptions#maxRotationDeg()} of a mirror/quarter-turn placement. A mirror is reported as {@code flipX} (never
      * {@code flipY}) with the turn in (−180°, 180°]; {@link Registration#canonical()} gives the smallest turn.
      *
      * @throws trapmap.shared.error.InvalidValueException when a map is flat or the maps do not overlap
@@ -50,7 +55,40 @@ public final class MapRegistration {
      */
     public static Registration register(WaferMap before, WaferMap after, RegistrationOptions options,
                                         ProgressListener progress) {
-        return search(before, after, options, progress).search();
+        return choose(search(before, after, options, progress), options).registration();
+    }
+
+    /**
+     * Searches as {@link #register(WaferMap, WaferMap, RegistrationOptions, ProgressListener)}, scores the identity
+     * placement too and keeps the better one (the identity on a tie), so that the placement returned never scores
+     * below the unregistered maps; every candidate keeps within {@link RegistrationOptions#maxRotationDeg()} of a
+     * mirror/quarter-turn placement. The report carries both scores and the {@link RegistrationWarnings}.
+     */
+    public static RegistrationReport registerChecked(WaferMap before, WaferMap after, RegistrationOptions options,
+                                                     ProgressListener progress) {
+        RegistrationReport r = choose(search(before, after, options, progress), options);
+        return new RegistrationReport(r.registration(), r.kept(), r.searchScore(), r.identityScore(),
+                RegistrationWarnings.of(before, after, r.registration()));
+    }
+
+    /** The search's placement or the identity, whichever scores higher (the identity on a tie); no warnings. */
+    private static RegistrationReport choose(RegistrationSearch s, RegistrationOptions options) {
+        Registration found = s.search();
+        Registration identity = s.evaluate(Registration.identity());
+        boolean searchWins = found.score() > identity.score()
+                && RegistrationSearch.withinTurnLimit(found, options.maxRotationDeg());
+        return new RegistrationReport(searchWins ? found : identity, searchWins ? RegistrationReport.Kept.SEARCH
+                : RegistrationReport.Kept.IDENTITY, found.score(), identity.score(), List.of());
+    }
+
+    /**
+     * The maps taken as aligned (no search): the identity placement, scored, with the
+     * {@link RegistrationWarnings}.
+     */
+    public static RegistrationReport unregistered(WaferMap before, WaferMap after) {
+        Registration identity = evaluate(before, after, Registration.identity());
+        return new RegistrationReport(identity, RegistrationReport.Kept.UNREGISTERED, Double.NaN, identity.score(),
+                RegistrationWarnings.of(before, after, identity));
     }
 
     /**

@@ -7,7 +7,8 @@ import trapmap.shared.error.InvalidValueException;
  * How hard {@link MapRegistration} searches.
  *
  * @param searchOrientations try all eight mirror/quarter-turn placements (otherwise B is assumed upright)
- * @param maxRotationDeg     largest fine turn searched on either side of each quarter turn, degrees (0: none)
+ * @param maxRotationDeg     largest fine turn on either side of each mirror/quarter-turn placement, degrees (0:
+ *                           none); every stage, the refinement included, keeps within it
  * @param rotationStepDeg    step of the coarse fine-turn scan, degrees; refined continuously afterwards
  * @param coarseSizePx       side of the square search image for the exhaustive stages, pixels (power of two)
  * @param refineSizePx       largest number of pixels across the wafer used for the final refinement; larger maps

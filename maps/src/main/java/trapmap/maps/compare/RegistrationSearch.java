@@ -89,6 +89,14 @@ final class RegistrationSearch {
         return r;
     }
 
+    /**
+     * True when {@code r} turns at most {@code maxRotationDeg} away from the nearest of the eight mirror/quarter-turn
+     * placements (the limit every stage keeps to).
+     */
+    static boolean withinTurnLimit(Registration r, double maxRotationDeg) {
+        return Math.abs(r.fineRotationDeg()) <= maxRotationDeg + 1e-9;
+    }
+
     private Registration scanRotation(PhaseCorrelation pc, Pyramid.Level a, Pyramid.Level b, Candidate upright) {
         int m = Math.max(1, (int) Math.ceil(options.maxRotationDeg() / options.rotationStepDeg() - 1e-9));
         double step = options.maxRotationDeg() / m;
@@ -121,6 +129,7 @@ final class RegistrationSearch {
 
     /** Local refinement from {@code start} (mirror kept), then score and overlap. */
     Registration refine(Registration start) {
+        double quarterDeg = 90.0 * Math.round(start.rotationDeg() / 90.0);
         int last = before.levelWithin(options.refineSizePx());
         int first = Math.max(last, before.levelNear(canvasPitchMm));
         Registration r = start;
@@ -131,7 +140,7 @@ final class RegistrationSearch {
                 requireTexture(a, "before");
                 requireTexture(b, "after");
             }
-            r = simplex(a, b, r, k == last ? 0.02 : 0.05, k == first ? 1.0 : 0.6);
+            r = simplex(a, b, r, quarterDeg, k == last ? 0.02 : 0.05, k == first ? 1.0 : 0.6);
             checkCancelled();
         }
         return evaluate(r);
@@ -152,17 +161,23 @@ final class RegistrationSearch {
 
     /**
      * Downhill simplex over (turn, shift x, shift y) in units of about one pixel of level {@code a}: a turn unit
-     * moves a point at the data's rms radius by one pixel.
+     * moves a point at the data's rms radius by one pixel. Turns farther than {@code maxRotationDeg} from
+     * {@code quarterDeg} (the mirror/quarter-turn placement being refined) are not allowed.
      */
-    private Registration simplex(Pyramid.Level a, Pyramid.Level b, Registration r0, double tolerance,
-                                 double stepPx) {
+    private Registration simplex(Pyramid.Level a, Pyramid.Level b, Registration r0, double quarterDeg,
+                                 double tolerance, double stepPx) {
         double p = a.grid.pitchMm();
         double degPerUnit = Math.toDegrees(p / Math.max(a.rmsRadiusMm, 4 * p));
         boolean turn = options.maxRotationDeg() > 0;
         double minOverlap = minOverlap(a, b);
+        double limit = options.maxRotationDeg() + 1e-9;
         ToDoubleFunction<double[]> f = u -> {
+            double rotation = r0.rotationDeg() + (turn ? u[2] * degPerUnit : 0);
+            if (Math.abs(Registration.normaliseDeg(rotation - quarterDeg)) > limit) {
+                return Double.NaN; // beyond --max-rotation-deg: never taken
+            }
             Correlation.Result c = Correlation.weighted(a, b, Registration.explicit(r0.flipX(), r0.flipY(),
-                    r0.rotationDeg() + (turn ? u[2] * degPerUnit : 0), u[0] * p, u[1] * p));
+                    rotation, u[0] * p, u[1] * p));
             return c.pixels() >= minOverlap ? -c.ncc() : Double.NaN;
         };
         double[] startPoint = turn ? new double[] {r0.shiftXMm() / p, r0.shiftYMm() / p, 0}

@@ -59,6 +59,7 @@ import trapmap.maps.io.ColourMap;
 import trapmap.maps.region.Region;
 import trapmap.physics.defect.Defect;
 import trapmap.maps.process.ConversionSettings;
+import trapmap.maps.process.PixelInjection;
 import trapmap.maps.profile.LineProfile;
 import trapmap.maps.profile.RadialProfile;
 import trapmap.viewer.report.WaferReport;
@@ -67,7 +68,6 @@ import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.graphics.ChartExport;
 import trapmap.viewer.graphics.HistogramChart;
 import trapmap.viewer.ui.charts.HistogramView;
-import trapmap.viewer.ui.charts.InjectionCurve;
 import trapmap.viewer.ui.charts.InjectionCurveView;
 import trapmap.viewer.ui.charts.LineProfileView;
 import trapmap.viewer.ui.charts.RadialProfileView;
@@ -409,7 +409,7 @@ public final class ViewerWindow extends JFrame {
             return;
         }
         try {
-            injectionView.show(InjectionCurve.at(w.result().lifetime(), p.xPx(), p.yPx(), d,
+            injectionView.show(PixelInjection.sweep(w.result().lifetime(), p.xPx(), p.yPx(), d,
                     ConversionSettings.DEFAULTS));
         } catch (RuntimeException e) {
             status.setMessage("injection curve: " + e.getMessage());

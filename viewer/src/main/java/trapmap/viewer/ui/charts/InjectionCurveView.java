@@ -13,18 +13,19 @@ import org.jfree.chart.renderer.xy.XYLineAndShapeRenderer;
 import org.jfree.chart.title.TextTitle;
 import org.jfree.data.xy.XYSeries;
 import org.jfree.data.xy.XYSeriesCollection;
+import trapmap.physics.conversion.InjectionSweep;
 import trapmap.physics.conversion.PixelStatus;
 import trapmap.viewer.graphics.ChartStyle;
 import trapmap.viewer.graphics.Labels;
 
 /**
- * The injection dependence of the probed pixel ({@link InjectionCurve}) on log–log axes: τ_SRH of the defect at the
+ * The injection dependence of the probed pixel ({@link InjectionSweep}) on log–log axes: τ_SRH of the defect at the
  * pixel's N_t, the intrinsic and surface limits, the effective lifetime they combine to, and the operating point
  * (Δn, τ measured). Methods run on the Event Dispatch Thread.
  */
 public class InjectionCurveView extends JPanel {
     private final ChartPanel chartPanel;
-    private InjectionCurve curve;
+    private InjectionSweep curve;
 
     public InjectionCurveView() {
         super(new BorderLayout());
@@ -35,12 +36,12 @@ public class InjectionCurveView extends JPanel {
     }
 
     /** Shows the curves (null clears). */
-    public void show(InjectionCurve c) {
+    public void show(InjectionSweep c) {
         this.curve = c;
         chartPanel.setChart(createChart(c));
     }
 
-    public InjectionCurve curve() {
+    public InjectionSweep curve() {
         return curve;
     }
 
@@ -50,7 +51,7 @@ public class InjectionCurveView extends JPanel {
     }
 
     /** The chart of {@code c} (empty for null). */
-    public static JFreeChart createChart(InjectionCurve c) {
+    public static JFreeChart createChart(InjectionSweep c) {
         XYSeriesCollection lines = new XYSeriesCollection();
         XYSeriesCollection point = new XYSeriesCollection();
         if (c != null) {
@@ -79,7 +80,7 @@ public class InjectionCurveView extends JPanel {
             point.addSeries(op);
         }
         LogAxis x = ChartStyle.logAxis("injection Δn (cm⁻³)");
-        x.setRange(InjectionCurve.MIN_INJECTION_PER_CM3, InjectionCurve.MAX_INJECTION_PER_CM3);
+        x.setRange(InjectionSweep.MIN_INJECTION_PER_CM3, InjectionSweep.MAX_INJECTION_PER_CM3);
         LogAxis y = ChartStyle.logAxis("lifetime (µs)");
         if (c != null) {
             y.setRange(yRange(c)[0], yRange(c)[1]);
@@ -117,7 +118,7 @@ public class InjectionCurveView extends JPanel {
     }
 
     /** A lifetime range that shows τ_eff, the operating point and the limits near them (at most six decades). */
-    private static double[] yRange(InjectionCurve c) {
+    private static double[] yRange(InjectionSweep c) {
         double lo = c.measuredUs();
         double hi = c.measuredUs();
         for (double v : c.effectiveUs()) {

@@ -1,9 +1,7 @@
 package trapmap.viewer.ui.compare;
 
 import java.util.ArrayList;
-import java.util.EnumSet;
 import java.util.List;
-import java.util.Set;
 import trapmap.maps.compare.Comparison;
 import trapmap.maps.compare.Improvement;
 import trapmap.maps.compare.MapComparison;
@@ -11,21 +9,14 @@ import trapmap.maps.compare.MapRegistration;
 import trapmap.maps.compare.PairedStatistics;
 import trapmap.maps.compare.Registration;
 import trapmap.maps.compare.RegistrationOptions;
-import trapmap.maps.model.ProcessingStep;
+import trapmap.maps.compare.RegistrationReport;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.ConversionSettings;
+import trapmap.maps.process.IronMapping;
 import trapmap.maps.process.MapConversion;
-import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.stats.MapStatistics;
-import trapmap.maps.stats.StatisticsRequest;
-import trapmap.physics.conversion.Conditions;
-import trapmap.physics.conversion.ConversionWarning;
-import trapmap.physics.conversion.Injection;
-import trapmap.physics.conversion.PixelStatus;
 import trapmap.physics.defect.Defect;
-import trapmap.physics.iron.IronImaging;
-import trapmap.physics.iron.IronResult;
 import trapmap.shared.error.InvalidValueException;
 import trapmap.shared.progress.ProgressListener;
 import trapmap.viewer.graphics.Labels;
@@ -34,20 +25,19 @@ import trapmap.viewer.graphics.Labels;
  * What the compare view shows, computed without Swing so that it can run on a worker thread and in tests: the
  * after map registered onto the before map ({@link MapRegistration}), the difference, ratio, relative-change and
  * (for densities) reduction maps with the paired statistics ({@link MapComparison}), and in iron mode the
- * interstitial-iron map of a before (FeB paired) / after (FeB dissociated, Fe_i) lifetime pair through
- * {@link IronImaging} at the maps' fixed injection level (Macdonald, Geerligs &amp; Azzizi, JAP 95, 1021 (2004)).
+ * interstitial-iron map of a before (FeB paired) / after (FeB dissociated, Fe_i) lifetime pair through the maps
+ * module's {@link IronMapping} (Macdonald, Geerligs &amp; Azzizi, JAP 95, 1021 (2004)). The registration keeps the
+ * better of the searched and the unregistered placement and carries its warnings.
  */
 public final class CompareModel {
     /** The caution of the iron method, shown beside every iron map. */
-    public static final String IRON_CAUTION = "Assumes complete FeB dissociation, all other recombination unchanged"
-            + " and the same injection in both measurements; near the Fe_i/FeB crossover injection the iron signal"
-            + " vanishes.";
+    public static final String IRON_CAUTION = IronMapping.CAUTION;
 
     /** The third view. */
     public enum View {
         DIFFERENCE("difference after − before"), RATIO("ratio after / before"),
         RELATIVE_CHANGE("relative change (after − before) / before"), REDUCTION("reduction 1 − after / before"),
-        IRON("interstitial iron [Fe_i]");
+        IRON("interstitial iron [Fe_i]"), IRON_STATUS("iron pixel status");
 
         private final String label;
 
@@ -96,40 +86,27 @@ public final class CompareModel {
     }
 
     /**
-     * The interstitial-iron map of a FeB-dissociation pair.
-     *
-     * @param map             [Fe_i] per pixel, cm⁻³ (the detection limit where no iron is detectable; NaN where the
-     *                        method has no signal or a lifetime is missing)
-     * @param statistics      statistics over the pixels with a value
-     * @param injectionPerCm3 the Δn of both measurements, cm⁻³
-     * @param crossoverPerCm3 the Fe_i/FeB crossover injection, cm⁻³ (NaN when none)
-     * @param belowLimit      pixels without detectable iron (value = detection limit)
-     * @param noSignal        pixels where the method has no signal (NaN)
-     * @param warnings        cautions of the method at this injection
-     */
-    public record Iron(WaferMap map, MapStatistics statistics, double injectionPerCm3, double crossoverPerCm3,
-                       int belowLimit, int noSignal, Set<ConversionWarning> warnings) {
-        public Iron {
-            warnings = Set.copyOf(warnings);
-        }
-
-        /** True when Δn lies within a factor 2 of the crossover. */
-        public boolean nearCrossover() {
-            return warnings.contains(ConversionWarning.NEAR_IRON_CROSSOVER);
-        }
-    }
-
-    /**
      * The compared pair.
      *
      * @param before       the before map (converted when a defect was chosen)
      * @param after        the after map registered and resampled onto the before map's grid
-     * @param registration the placement found (or the identity, evaluated)
+     * @param report       the placement kept (the search's or the identity, whichever scores higher; the identity
+     *                     when not registering) with its warnings
      * @param comparison   the per-pixel maps and paired statistics
-     * @param iron         the Fe_i map, null when not asked for
+     * @param iron         the Fe_i map, its status map and figures ({@link IronMapping}), null when not asked for
      */
-    public record Result(WaferMap before, WaferMap after, Registration registration, Comparison comparison,
-                         Iron iron) {
+    public record Result(WaferMap before, WaferMap after, RegistrationReport report, Comparison comparison,
+                         IronMapping.Result iron) {
+
+        /** The placement kept. */
+        public Registration registration() {
+            return report.registration();
+        }
+
+        /** Registration warnings (different wafer ids or sizes, a low score), one line each. */
+        public List<String> warnings() {
+            return report.warnings();
+        }
 
         /** The map of the third view, null when there is none (reduction of a non-density, iron not computed). */
         public WaferMap derived(View v) {
@@ -138,7 +115,8 @@ public final class CompareModel {
                 case RATIO -> comparison.ratio();
                 case RELATIVE_CHANGE -> comparison.relativeChange();
                 case REDUCTION -> comparison.reduction();
-                case IRON -> iron == null ? null : iron.map();
+                case IRON -> iron == null ? null : iron.iron();
+                case IRON_STATUS -> iron == null ? null : iron.status();
             };
         }
 
@@ -147,6 +125,7 @@ public final class CompareModel {
             return switch (v) {
                 case DIFFERENCE -> before.quantity().unit();
                 case IRON -> Quantity.IRON_DENSITY.unit();
+                case IRON_STATUS -> "";
                 default -> "";
             };
         }
@@ -162,12 +141,17 @@ public final class CompareModel {
             PairedStatistics s = comparison.statistics();
             String u = Labels.unit(s.unit());
             List<String[]> r = new ArrayList<>();
-            Registration g = registration;
+            Registration g = report.registration();
             r.add(new String[] {"registration shift x", Labels.number(g.shiftXMm()), "mm"});
             r.add(new String[] {"registration shift y", Labels.number(g.shiftYMm()), "mm"});
             r.add(new String[] {"registration rotation", Labels.number(g.rotationDeg()), "°"});
             r.add(new String[] {"mirrored", g.mirrored() ? "yes" : "no", ""});
             r.add(new String[] {"registration score (0–1)", Labels.number(g.score()), ""});
+            r.add(new String[] {"placement kept", switch (report.kept()) {
+                case SEARCH -> "searched (unregistered: " + Labels.number(report.identityScore()) + ")";
+                case IDENTITY -> "as the maps lie (search: " + Labels.number(report.searchScore()) + ")";
+                case UNREGISTERED -> "as the maps lie (not registered)";
+            }, ""});
             r.add(new String[] {"overlap", Integer.toString(g.overlapPixels()), "px"});
             r.add(new String[] {"pixels compared", Integer.toString(s.count()), "px"});
             r.add(new String[] {"mean difference", Labels.number(s.meanDifference()), u});
@@ -186,15 +170,19 @@ public final class CompareModel {
             if (iron != null) {
                 MapStatistics f = iron.statistics();
                 String cm3 = Labels.unit(Quantity.IRON_DENSITY);
+                boolean any = f.count() > 0;
                 r.add(new String[] {"Fe_i at Δn", Labels.number(iron.injectionPerCm3()), "cm⁻³"});
                 r.add(new String[] {"Fe_i/FeB crossover Δn", Labels.number(iron.crossoverPerCm3()), "cm⁻³"});
-                r.add(new String[] {"[Fe_i] median", Labels.number(f.median()), cm3});
-                r.add(new String[] {"[Fe_i] mean", Labels.number(f.mean()), cm3});
-                r.add(new String[] {"[Fe_i] P90", Labels.number(f.percentile(90)), cm3});
-                r.add(new String[] {"[Fe_i] maximum", Labels.number(f.max()), cm3});
-                r.add(new String[] {"no detectable iron (upper bound shown)", Integer.toString(iron.belowLimit()),
-                    "px"});
-                r.add(new String[] {"no iron signal", Integer.toString(iron.noSignal()), "px"});
+                r.add(new String[] {"[Fe_i] median", Labels.number(iron.medianPerCm3()), cm3});
+                r.add(new String[] {"[Fe_i] mean", Labels.number(any ? f.mean() : Double.NaN), cm3});
+                r.add(new String[] {"[Fe_i] P95", Labels.number(iron.p95PerCm3()), cm3});
+                r.add(new String[] {"[Fe_i] maximum", Labels.number(any ? f.max() : Double.NaN), cm3});
+                for (IronMapping.IronStatus st : IronMapping.IronStatus.values()) {
+                    r.add(new String[] {"iron pixels " + st.key(), Integer.toString(iron.count(st)), "px"});
+                }
+            }
+            for (String w : report.warnings()) {
+                r.add(new String[] {"warning", w, ""});
             }
             return r;
         }
@@ -231,7 +219,7 @@ public final class CompareModel {
      */
     public static Result compute(WaferMap before, WaferMap after, Options o, ProgressListener progress) {
         ProgressListener p = progress == null ? ProgressListener.NONE : progress;
-        Iron iron = null;
+        IronMapping.Result iron = null;
         WaferMap b = before;
         WaferMap a = after;
         if (o.defect() != null) {
@@ -242,11 +230,12 @@ public final class CompareModel {
             throw new InvalidValueException("quantity", "", "the before map holds " + b.quantity().key()
                     + " but the after map " + a.quantity().key() + "; compare maps of one quantity");
         }
-        Registration reg;
+        RegistrationReport report;
         WaferMap aligned;
         if (o.register()) {
-            reg = MapRegistration.register(b, a, RegistrationOptions.DEFAULTS.withMaxRotation(o.maxRotationDeg()), p);
-            aligned = MapRegistration.apply(b, a, reg);
+            report = MapRegistration.registerChecked(b, a, RegistrationOptions.DEFAULTS
+                    .withMaxRotation(o.maxRotationDeg()), p);
+            aligned = MapRegistration.apply(b, a, report.registration());
         } else {
             if (b.width() != a.width() || b.height() != a.height()) {
                 throw new InvalidValueException("after", "px", "without registration the maps must be of one size,"
@@ -254,69 +243,15 @@ public final class CompareModel {
                         + " px");
             }
             aligned = a.withGrid(b.grid());
-            reg = MapRegistration.evaluate(b, aligned, Registration.identity());
+            report = MapRegistration.unregistered(b, aligned);
         }
         Comparison c = MapComparison.compare(b, aligned, null, o.relativeTolerance(), Improvement.of(b.quantity()));
         if (o.iron()) {
-            // iron works on the lifetimes: the pair as read, placed by the registration found
-            WaferMap lifeAfter = o.defect() == null ? aligned : MapRegistration.apply(before, after, reg);
-            iron = iron(before, lifeAfter, o.settings());
+            // iron works on the lifetimes: the pair as read, placed by the registration kept
+            WaferMap lifeAfter = o.defect() == null ? aligned : MapRegistration.apply(before, after,
+                    report.registration());
+            iron = IronMapping.map(before, lifeAfter, o.settings(), null);
         }
-        return new Result(b, aligned, reg, c, iron);
-    }
-
-    /**
-     * The Fe_i map of a before (FeB) / after (Fe_i) lifetime pair on one grid.
-     *
-     * @throws InvalidValueException when the maps are not lifetimes, the doping is not p-type or unknown, or the
-     *                               injection is not one fixed level
-     */
-    static Iron iron(WaferMap before, WaferMap afterOnBeforeGrid, ConversionSettings settings) {
-        if (before.quantity() != Quantity.EFFECTIVE_LIFETIME || afterOnBeforeGrid.quantity()
-                != Quantity.EFFECTIVE_LIFETIME) {
-            throw new InvalidValueException("quantity", "", "iron imaging needs two effective-lifetime maps (µs), not "
-                    + before.quantity().key() + " and " + afterOnBeforeGrid.quantity().key());
-        }
-        Conditions cond = MapConversion.physicsConditions(before.conditions(), settings);
-        if (!(cond.injection() instanceof Injection.Fixed fixed)) {
-            throw new InvalidValueException("injection", "cm^-3", "iron imaging needs both maps measured at one fixed"
-                    + " injection level (cm^-3); the before map gives a generation rate");
-        }
-        Double afterDn = afterOnBeforeGrid.conditions().injectionPerCm3();
-        if (afterDn != null && Math.abs(afterDn - fixed.excessPerCm3()) > 1e-6 * fixed.excessPerCm3()) {
-            throw new InvalidValueException("injection", "cm^-3", "the before map was measured at "
-                    + Labels.number(fixed.excessPerCm3()) + " cm^-3 but the after map at " + Labels.number(afterDn)
-                    + " cm^-3; iron imaging needs the same injection in both");
-        }
-        double dn = fixed.excessPerCm3();
-        IronImaging imaging = new IronImaging(cond.doping(), cond.silicon());
-        float[] tb = before.raster().samples();
-        float[] ta = afterOnBeforeGrid.raster().samples();
-        float[] fe = new float[tb.length];
-        int below = 0;
-        int none = 0;
-        Set<ConversionWarning> warnings = EnumSet.noneOf(ConversionWarning.class);
-        for (int i = 0; i < fe.length; i++) {
-            if (tb[i] != tb[i] || ta[i] != ta[i]) {
-                fe[i] = Float.NaN;
-                continue;
-            }
-            IronResult r = imaging.evaluate(tb[i], ta[i], dn);
-            warnings.addAll(r.warnings());
-            if (r.status() == PixelStatus.INVALID) {
-                none++;
-                fe[i] = Float.NaN;
-            } else {
-                if (r.status() == PixelStatus.BELOW_LIMIT) {
-                    below++;
-                }
-                fe[i] = (float) r.ironPerCm3();
-            }
-        }
-        WaferMap map = before.derive(FloatRaster.wrap(before.width(), before.height(), fe), Quantity.IRON_DENSITY,
-                ProcessingStep.of("iron", "method", "Macdonald, Geerligs & Azzizi, JAP 95, 1021 (2004)",
-                        "injection_cm3", Double.toString(dn), "after", afterOnBeforeGrid.waferId()));
-        MapStatistics stats = MapStatistics.of(map, null, StatisticsRequest.DEFAULT);
-        return new Iron(map, stats, dn, imaging.crossoverPerCm3(), below, none, warnings);
+        return new Result(b, aligned, report, c, iron);
     }
 }

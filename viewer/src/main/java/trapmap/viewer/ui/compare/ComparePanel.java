@@ -12,6 +12,8 @@ import java.awt.RenderingHints;
 import java.awt.event.ActionEvent;
 import java.awt.event.InputEvent;
 import java.awt.event.KeyEvent;
+import java.io.IOException;
+import java.nio.file.Path;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.CancellationException;
@@ -23,6 +25,7 @@ import javax.swing.JButton;
 import javax.swing.JCheckBox;
 import javax.swing.JComboBox;
 import javax.swing.JComponent;
+import javax.swing.JFileChooser;
 import javax.swing.JLabel;
 import javax.swing.JLayer;
 import javax.swing.JPanel;
@@ -36,6 +39,7 @@ import javax.swing.SwingWorker;
 import javax.swing.plaf.LayerUI;
 import javax.swing.table.DefaultTableModel;
 import trapmap.maps.model.WaferMap;
+import trapmap.maps.process.IronMapping;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.viewer.report.WaferReport;
 import trapmap.viewer.ui.canvas.ColourBar;
@@ -72,6 +76,7 @@ public class ComparePanel extends JPanel {
     private final JCheckBox iron = new JCheckBox("Fe_i from FeB pair");
     private final JButton compareButton = new JButton("Compare");
     private final JButton cancelButton = new JButton("Cancel");
+    private final JButton exportButton = new JButton("Export…");
     private final JProgressBar progress = new JProgressBar(0, 100);
     private final JLabel status = new JLabel(" ");
     private final DefaultTableModel table = new DefaultTableModel(new Object[] {"figure", "value", "unit"}, 0) {
@@ -93,7 +98,7 @@ public class ComparePanel extends JPanel {
         JToolBar bar = new JToolBar();
         bar.setFloatable(false);
         bar.add(new JLabel("Third view: "));
-        view.setToolTipText("Map shown on the right (Ctrl+1 … Ctrl+5)");
+        view.setToolTipText("Map shown on the right (Ctrl+1 … Ctrl+6)");
         view.setMaximumSize(new Dimension(290, 28));
         bar.add(view);
         bar.addSeparator();
@@ -109,6 +114,10 @@ public class ComparePanel extends JPanel {
         cancelButton.setEnabled(false);
         bar.add(compareButton);
         bar.add(cancelButton);
+        exportButton.setToolTipText("Write the maps (TIFF with metadata and CSV) and the statistics table (CSV) into a"
+                + " folder");
+        exportButton.setEnabled(false);
+        bar.add(exportButton);
         bar.addSeparator();
         progress.setMaximumSize(new Dimension(160, 18));
         progress.setStringPainted(true);
@@ -146,6 +155,7 @@ public class ComparePanel extends JPanel {
         view.addActionListener(e -> showDerived());
         compareButton.addActionListener(e -> compare());
         cancelButton.addActionListener(e -> cancel());
+        exportButton.addActionListener(e -> chooseExportFolder());
         iron.addActionListener(e -> {
             if (iron.isSelected()) {
                 view.setSelectedItem(CompareModel.View.IRON);
@@ -233,6 +243,7 @@ public class ComparePanel extends JPanel {
         this.before = beforeMap;
         this.after = afterMap;
         this.result = null;
+        exportButton.setEnabled(false);
         beforeCanvas.setMap(beforeMap);
         afterCanvas.setMap(null);
         derivedCanvas.setMap(null);
@@ -316,6 +327,40 @@ public class ComparePanel extends JPanel {
         w.execute();
     }
 
+    private void chooseExportFolder() {
+        if (result == null) {
+            return;
+        }
+        JFileChooser chooser = new JFileChooser();
+        chooser.setDialogTitle("Export maps and statistics into folder");
+        chooser.setFileSelectionMode(JFileChooser.DIRECTORIES_ONLY);
+        if (chooser.showSaveDialog(this) == JFileChooser.APPROVE_OPTION) {
+            export(chooser.getSelectedFile().toPath());
+        }
+    }
+
+    /**
+     * Writes the shown maps and statistics into {@code folder} ({@link CompareExports}); the status line says what was
+     * written or why not.
+     *
+     * @return the files written (empty when there is no result or writing failed)
+     */
+    public List<Path> export(Path folder) {
+        if (result == null) {
+            return List.of();
+        }
+        try {
+            List<Path> files = CompareExports.write(result, folder, CompareExports.baseName(result));
+            status.setForeground(getForeground());
+            status.setText("Wrote " + files.size() + " files to " + folder + ".");
+            return files;
+        } catch (IOException | RuntimeException e) {
+            status.setForeground(new Color(0xB00020));
+            status.setText("Cannot export to " + folder + ": " + e.getMessage());
+            return List.of();
+        }
+    }
+
     /** Cancels a running comparison. */
     public void cancel() {
         SwingWorker<CompareModel.Result, Void> w = worker;
@@ -346,10 +391,14 @@ public class ComparePanel extends JPanel {
         showDerived();
         showCautions();
         beforeCanvas.fit();
-        status.setText(String.format(Locale.ROOT, "Registered: shift (%s, %s) mm, turn %s°%s, score %s.",
+        status.setText(String.format(Locale.ROOT, "Registered: shift (%s, %s) mm, turn %s°%s, score %s%s.",
                 Labels.number(r.registration().shiftXMm()), Labels.number(r.registration().shiftYMm()),
                 Labels.number(r.registration().rotationDeg()), r.registration().mirrored() ? ", mirrored" : "",
-                Labels.number(r.registration().score())));
+                Labels.number(r.registration().score()), r.warnings().isEmpty() ? ""
+                        : "; " + r.warnings().size() + " warning" + (r.warnings().size() == 1 ? "" : "s") + ": "
+                        + r.warnings().get(0)));
+        status.setForeground(r.warnings().isEmpty() ? getForeground() : new Color(0xB00020));
+        exportButton.setEnabled(true);
         resultListener.accept(r);
     }
 
@@ -365,14 +414,23 @@ public class ComparePanel extends JPanel {
             derivedTitle.setText(v + (u.isEmpty() ? "" : " (" + u + ")"));
         } else {
             derivedTitle.setText(v == null ? "" : v + ": " + (result == null ? "not computed yet"
-                    : v == CompareModel.View.IRON ? "tick 'Fe_i from FeB pair' and compare" : "only for density maps"));
+                    : v == CompareModel.View.IRON || v == CompareModel.View.IRON_STATUS
+                    ? "tick 'Fe_i from FeB pair' and compare" : "only for density maps"));
         }
     }
 
     private void showCautions() {
         StringBuilder s = new StringBuilder();
+        if (result != null) {
+            for (String w : result.warnings()) {
+                s.append("Warning: ").append(w).append("\n");
+            }
+            if (!result.warnings().isEmpty()) {
+                s.append('\n');
+            }
+        }
         if (result != null && result.iron() != null) {
-            CompareModel.Iron fe = result.iron();
+            IronMapping.Result fe = result.iron();
             if (fe.nearCrossover()) {
                 s.append("Iron: the injection ").append(Labels.number(fe.injectionPerCm3())).append(" cm⁻³ lies within"
                         + " a factor 2 of the Fe_i/FeB crossover (").append(Labels.number(fe.crossoverPerCm3()))

@@ -4,12 +4,18 @@ import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 import static org.assertj.core.api.Assertions.within;
 
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.compare.Registration;
+import trapmap.maps.io.MapFiles;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.model.Provenance;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
+import trapmap.maps.process.IronMapping;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.physics.defect.DefectLibrary;
@@ -34,7 +40,7 @@ class CompareModelTest {
             for (int x = 0; x < N; x++) {
                 double xm = g.xMm(x - dxPx);
                 double ym = g.yMm(y - dyPx);
-                double r = Math.hypot(g.xMm(x), g.yMm(y));
+                double r = Math.hypot(xm, ym); // the wafer moves with its pattern
                 double v = 120 + 50 * Math.sin(xm / 6.0) * Math.cos(ym / 9.0) + 30 * Math.exp(
                         -(Math.pow(xm - 10, 2) + Math.pow(ym + 5, 2)) / 40) + 0.8 * xm;
                 s[y * N + x] = r > 28 ? Float.NaN : (float) (factor * v);
@@ -108,9 +114,9 @@ class CompareModelTest {
                 base.provenance());
         CompareModel.Result r = CompareModel.compute(before, after, CompareModel.Options.defaults()
                 .withRegistration(false).withIron(true), ProgressListener.NONE);
-        CompareModel.Iron fe = r.iron();
-        assertThat(fe.map().quantity()).isEqualTo(Quantity.IRON_DENSITY);
-        float[] m = fe.map().raster().samples();
+        IronMapping.Result fe = r.iron();
+        assertThat(fe.iron().quantity()).isEqualTo(Quantity.IRON_DENSITY);
+        float[] m = fe.iron().raster().samples();
         int checked = 0;
         for (int i = 0; i < m.length; i++) {
             if (s[i] == s[i]) {
@@ -121,7 +127,7 @@ class CompareModelTest {
         assertThat(checked).isGreaterThan(2000);
         assertThat(fe.crossoverPerCm3()).isEqualTo(new IronImaging(DOPING, si).crossoverPerCm3());
         assertThat(fe.nearCrossover()).isFalse();
-        assertThat(r.derived(CompareModel.View.IRON)).isSameAs(fe.map());
+        assertThat(r.derived(CompareModel.View.IRON)).isSameAs(fe.iron());
         assertThat(r.statisticsRows()).anySatisfy(row -> assertThat(row[0]).isEqualTo("[Fe_i] median"));
     }
 
@@ -130,14 +136,14 @@ class CompareModelTest {
         double crossover = new IronImaging(DOPING, Silicon.at(300)).crossoverPerCm3();
         WaferMap b = lifetime("B", 1, 0, 0, crossover * 1.5);
         WaferMap a = lifetime("A", 0.9, 0, 0, crossover * 1.5);
-        CompareModel.Iron near = CompareModel.compute(b, a, CompareModel.Options.defaults().withRegistration(false)
+        IronMapping.Result near = CompareModel.compute(b, a, CompareModel.Options.defaults().withRegistration(false)
                 .withIron(true), ProgressListener.NONE).iron();
         assertThat(near.nearCrossover()).isTrue();
         WaferMap b0 = lifetime("B", 1, 0, 0, crossover);
         WaferMap a0 = lifetime("A", 0.9, 0, 0, crossover);
-        CompareModel.Iron at = CompareModel.compute(b0, a0, CompareModel.Options.defaults().withRegistration(false)
+        IronMapping.Result at = CompareModel.compute(b0, a0, CompareModel.Options.defaults().withRegistration(false)
                 .withIron(true), ProgressListener.NONE).iron();
-        assertThat(at.noSignal()).isEqualTo(at.map().raster().samples().length - countNaN(b0));
+        assertThat(at.count(IronMapping.IronStatus.CROSSOVER)).isEqualTo(at.iron().raster().samples().length - countNaN(b0));
         assertThat(at.statistics().count()).isZero();
     }
 
@@ -148,6 +154,37 @@ class CompareModelTest {
         assertThatThrownBy(() -> CompareModel.compute(b, a, CompareModel.Options.defaults().withRegistration(false)
                 .withIron(true), ProgressListener.NONE)).isInstanceOf(InvalidValueException.class)
                 .hasMessageContaining("same injection");
+    }
+
+    @Test
+    void exportsEveryShownMapAndTheStatisticsThroughTheMapsWriters(@TempDir Path dir) throws Exception {
+        WaferMap before = lifetime("B", 1, 0, 0, 1e13);
+        WaferMap after = lifetime("B", 0.6, 0, 0, 1e13);
+        CompareModel.Result r = CompareModel.compute(before, after, CompareModel.Options.defaults()
+                .withRegistration(false).withIron(true), ProgressListener.NONE);
+        List<Path> files = CompareExports.write(r, dir, CompareExports.baseName(r));
+        // before, after, difference, ratio, relative change, iron, iron status: TIFF and CSV each, then statistics
+        assertThat(files).hasSize(2 * 7 + 1);
+        WaferMap iron = MapFiles.readSingle(dir.resolve("B-iron-iron.tif"));
+        assertThat(iron.quantity()).isEqualTo(Quantity.IRON_DENSITY);
+        assertThat(iron.raster().samples()).containsExactly(r.iron().iron().raster().samples());
+        assertThat(iron.provenance().steps()).anyMatch(st -> st.operation().equals("iron"));
+        assertThat(MapFiles.readSingle(dir.resolve("B-iron-iron-status.csv")).raster().samples()[N * N / 2 + N / 2])
+                .isEqualTo((float) IronMapping.IronStatus.OK.code());
+        List<String> stats = Files.readAllLines(dir.resolve("B-iron-statistics.csv"));
+        assertThat(stats.get(0)).isEqualTo("figure,value,unit");
+        assertThat(stats).hasSize(r.statisticsRows().size() + 1)
+                .anyMatch(l -> l.startsWith("[Fe_i] median,")).anyMatch(l -> l.startsWith("placement kept,"));
+    }
+
+    @Test
+    void registrationWarningsReachTheResultAndItsTable() {
+        WaferMap before = lifetime("B", 1, 0, 0, 1e14);
+        WaferMap other = lifetime("OTHER", 1, 0, 0, 1e14);
+        CompareModel.Result r = CompareModel.compute(before, other, CompareModel.Options.defaults()
+                .withRegistration(false), ProgressListener.NONE);
+        assertThat(r.warnings()).anyMatch(w -> w.contains("different wafer ids"));
+        assertThat(r.statisticsRows()).anySatisfy(row -> assertThat(row[0]).isEqualTo("warning"));
     }
 
     private static int countNaN(WaferMap m) {

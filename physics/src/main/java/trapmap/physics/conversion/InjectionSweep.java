@@ -1,17 +1,11 @@
-package trapmap.viewer.ui.charts;
+package trapmap.physics.conversion;
 
-import trapmap.maps.model.Quantity;
-import trapmap.maps.model.WaferMap;
-import trapmap.maps.process.ConversionSettings;
-import trapmap.maps.process.MapConversion;
-import trapmap.physics.conversion.PixelResult;
-import trapmap.physics.conversion.PixelStatus;
-import trapmap.physics.conversion.TrapDensityConverter;
-import trapmap.physics.defect.Defect;
 import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.units.Units;
 
 /**
- * The injection dependence of one pixel's lifetimes for the chosen defect, all from the physics module: the pixel's
+ * The injection dependence of one pixel's lifetimes for the chosen defect (pure numerics; the viewer's injection
+ * chart only draws it): the pixel's
  * measured lifetime is converted ({@link TrapDensityConverter#convert(double)}) into its trap density N_t, and over
  * Δn = {@value #MIN_INJECTION_PER_CM3} … {@value #MAX_INJECTION_PER_CM3} cm⁻³ (log-spaced) the curves are
  * <ul>
@@ -32,7 +26,7 @@ import trapmap.shared.error.InvalidValueException;
  * @param measuredUs        the pixel's measured effective lifetime, µs
  * @param pixel             the conversion of the pixel (Δn used, N_t, status)
  */
-public record InjectionCurve(String defectId, double[] injectionPerCm3, double[] srhUs, double[] intrinsicUs,
+public record InjectionSweep(String defectId, double[] injectionPerCm3, double[] srhUs, double[] intrinsicUs,
                              double surfaceUs, double[] effectiveUs, double measuredUs, PixelResult pixel) {
     /** Lowest Δn of the curve, cm⁻³. */
     public static final double MIN_INJECTION_PER_CM3 = 1e12;
@@ -46,7 +40,7 @@ public record InjectionCurve(String defectId, double[] injectionPerCm3, double[]
      *
      * @throws InvalidValueException when the lifetime is not a positive finite number
      */
-    public static InjectionCurve of(TrapDensityConverter converter, double measuredUs) {
+    public static InjectionSweep of(TrapDensityConverter converter, double measuredUs) {
         PixelResult r = converter.convert(measuredUs);
         if (r.status() == PixelStatus.INVALID || r.status() == PixelStatus.NO_DATA) {
             throw new InvalidValueException("lifetime", "us", "the pixel's lifetime must be > 0 us and finite but was "
@@ -62,42 +56,16 @@ public record InjectionCurve(String defectId, double[] injectionPerCm3, double[]
         for (int i = 0; i < POINTS; i++) {
             double d = Math.pow(10, lo + (hi - lo) * i / (POINTS - 1));
             dn[i] = d;
-            srh[i] = converter.srh().lifetimeS(d, nt) * 1e6;
-            intr[i] = converter.intrinsic().lifetimeS(d) * 1e6;
+            srh[i] = converter.srh().lifetimeS(d, nt) * Units.US_PER_S;
+            intr[i] = converter.intrinsic().lifetimeS(d) * Units.US_PER_S;
             eff[i] = converter.lifetimeAtInjectionUs(nt, d);
         }
-        return new InjectionCurve(converter.defect().id(), dn, srh, intr, converter.surfaceLifetimeUs(), eff,
+        return new InjectionSweep(converter.defect().id(), dn, srh, intr, converter.surfaceLifetimeUs(), eff,
                 measuredUs, r);
-    }
-
-    /**
-     * The curves of pixel ({@code xPx}, {@code yPx}) of an effective-lifetime or PL map, converted with the map's
-     * conditions ({@link MapConversion#physicsConditions}).
-     *
-     * @throws InvalidValueException for missing conditions, a pixel without data, or a map of another quantity
-     */
-    public static InjectionCurve at(WaferMap map, int xPx, int yPx, Defect defect, ConversionSettings settings) {
-        WaferMap lifetime = switch (map.quantity()) {
-            case EFFECTIVE_LIFETIME -> map;
-            case PL_COUNTS -> MapConversion.lifetimeFromPl(map);
-            default -> throw new InvalidValueException("quantity", "", "an injection curve needs an effective-lifetime"
-                    + " or PL map, not " + map.quantity().key());
-        };
-        if (xPx < 0 || yPx < 0 || xPx >= map.width() || yPx >= map.height()) {
-            throw new InvalidValueException("pixel", "px", "pixel (" + xPx + ", " + yPx + ") lies outside the "
-                    + map.width() + "x" + map.height() + " px map");
-        }
-        double tau = lifetime.raster().get(xPx, yPx);
-        if (Double.isNaN(tau)) {
-            throw new InvalidValueException("pixel", "px", "pixel (" + xPx + ", " + yPx + ") has no data");
-        }
-        TrapDensityConverter c = new TrapDensityConverter(MapConversion.physicsConditions(lifetime.conditions(),
-                settings), defect);
-        return of(c, tau);
     }
 
     /** Unit of all lifetimes here. */
     public static String unit() {
-        return Quantity.EFFECTIVE_LIFETIME.unit();
+        return "µs";
     }
 }

@@ -1,0 +1,100 @@
+package trapmap.maps.compare;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import trapmap.maps.geometry.FormatMatch;
+import trapmap.maps.geometry.OutlineDetection;
+import trapmap.maps.geometry.OutlineFit;
+import trapmap.maps.geometry.RoundWafer;
+import trapmap.maps.geometry.SquareWafer;
+import trapmap.maps.geometry.Tolerance;
+import trapmap.maps.geometry.WaferShape;
+import trapmap.maps.model.WaferMap;
+import trapmap.shared.check.Checks;
+
+/**
+ * Signs that a before/after pair is not two maps of one wafer, or that its placement is not to be trusted. Each
+ * warning is one line of text naming what differs, with its unit:
+ * <ul>
+ *   <li>the two maps name different wafer ids (both non-empty);</li>
+ *   <li>the fitted outlines ({@link OutlineDetection}) differ in kind (round / square) or in size (diameter of a
+ *       round wafer, side of a square one) by more than the allowance: the width of the size tolerance of the
+ *       standard format closest to the before outline ({@link trapmap.maps.geometry.WaferFormat#sizeTolerance()},
+ *       both maps may lie anywhere within it) plus the coarser pixel pitch of the two maps (the precision of a
+ *       fitted edge);</li>
+ *   <li>the registration score is below {@link #SCORE_FLOOR}.</li>
+ * </ul>
+ */
+public final class RegistrationWarnings {
+    /**
+     * Least registration score of a trusted placement. On synthetic same-wafer pairs with a few percent pixel noise
+     * the score is 0.95–0.99 and about 0.6 at 40 % noise; the demonstration gettering pair (lifetimes rising
+     * threefold) scores about 0.59 unregistered; maps of different wafers score below 0.3 (tests in
+     * {@code MapRegistrationTest}, {@code RegistrationHonestyTest}).
+     */
+    public static final double SCORE_FLOOR = 0.4;
+
+    private RegistrationWarnings() {
+    }
+
+    /** The warnings of the pair placed by {@code registration} (whose score must have been evaluated). */
+    public static List<String> of(WaferMap before, WaferMap after, Registration registration) {
+        Checks.notNull(before, "before");
+        Checks.notNull(after, "after");
+        Checks.notNull(registration, "registration");
+        List<String> out = new ArrayList<>();
+        if (!before.waferId().isEmpty() && !after.waferId().isEmpty()
+                && !before.waferId().equals(after.waferId())) {
+            out.add("different wafer ids: the before map is of " + before.waferId() + " but the after map of "
+                    + after.waferId());
+        }
+        String size = sizeWarning(before, after);
+        if (size != null) {
+            out.add(size);
+        }
+        if (!(registration.score() >= SCORE_FLOOR)) {
+            out.add(String.format(Locale.ROOT, "registration score %.3f is below %.2f: the placement is not to be"
+                    + " trusted (different wafers, too little texture, or a change so strong that the patterns"
+                    + " differ)", Double.isNaN(registration.score()) ? 0.0 : registration.score(), SCORE_FLOOR));
+        }
+        return List.copyOf(out);
+    }
+
+    /** The size warning, or null when the outlines agree. */
+    static String sizeWarning(WaferMap before, WaferMap after) {
+        OutlineFit fb;
+        OutlineFit fa;
+        try {
+            fb = OutlineDetection.fit(before);
+            fa = OutlineDetection.fit(after);
+        } catch (IllegalArgumentException e) {
+            return "wafer sizes not compared: no outline could be fitted (" + e.getMessage() + ")";
+        }
+        WaferShape b = fb.shape();
+        WaferShape a = fa.shape();
+        double pitch = Math.max(before.grid().pitchMm(), after.grid().pitchMm());
+        FormatMatch format = fb.closestFormat();
+        Tolerance t = format.format().sizeTolerance();
+        double allowance = t.minus() + t.plus() + pitch;
+        if (b instanceof RoundWafer rb && a instanceof RoundWafer ra) {
+            return compare("diameters", rb.diameterMm(), ra.diameterMm(), allowance, format, pitch);
+        }
+        if (b instanceof SquareWafer sb && a instanceof SquareWafer sa) {
+            return compare("sides", sb.sideMm(), sa.sideMm(), allowance, format, pitch);
+        }
+        return "different wafer outlines: the before map fits " + b.describe() + " but the after map "
+                + a.describe();
+    }
+
+    private static String compare(String what, double before, double after, double allowance, FormatMatch format,
+                                  double pitch) {
+        double d = Math.abs(before - after);
+        if (d <= allowance) {
+            return null;
+        }
+        return String.format(Locale.ROOT, "different wafer sizes: fitted %s %.2f mm (before) and %.2f mm (after)"
+                + " differ by %.2f mm, beyond the %.2f mm allowed (size tolerance %s mm of %s plus a %.3f mm pixel)",
+                what, before, after, d, allowance, format.format().sizeTolerance(), format.format().id(), pitch);
+    }
+}

@@ -1,0 +1,82 @@
+package trapmap.cli;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import java.nio.file.Path;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import trapmap.maps.io.MapFiles;
+import trapmap.maps.model.Quantity;
+import trapmap.maps.model.WaferMap;
+
+/** {@code trapmap iron} on the demonstration FeB pair, checked against the planted iron of demo-data/truth.json. */
+class IronMapCommandTest {
+    private static final Path DEMO = Path.of("..", "demo-data");
+    private static final String FEB = DEMO.resolve("LOT-A03-W02-feb-state.tif").toString();
+    private static final String FEI = DEMO.resolve("LOT-A03-W02-fe-i-state.tif").toString();
+
+    @TempDir
+    Path dir;
+
+    @Test
+    void recoversThePlantedIronWithinTenPercent() throws Exception {
+        Path out = dir.resolve("fe.tif");
+        Path status = dir.resolve("fe-status.tif");
+        JsonNode j = Cli.json("iron", FEB, FEI, "-o", out.toString(), "--status-output", status.toString(), "--json");
+        WaferMap fe = MapFiles.readSingle(out);
+        assertThat(fe.quantity()).isEqualTo(Quantity.IRON_DENSITY);
+        assertThat(MapFiles.readSingle(status).quantity()).isEqualTo(Quantity.STATUS);
+        JsonNode truth = new ObjectMapper().readTree(DEMO.resolve("truth.json").toFile());
+        int checked = 0;
+        for (JsonNode f : truth.get("files")) {
+            if (!f.get("file").asText().equals("LOT-A03-W02-fe-i-state.tif")) {
+                continue;
+            }
+            for (JsonNode d : f.get("defects")) {
+                double x = d.get("probe_x_mm").asDouble();
+                double y = d.get("probe_y_mm").asDouble();
+                double planted = d.get("density_cm3").asDouble();
+                int px = (int) Math.round(fe.grid().xPx(x));
+                int py = (int) Math.round(fe.grid().yPx(y));
+                assertThat((double) fe.raster().get(px, py)).as("[Fe_i] at %s (%s, %s) mm", d.get("kind"), x, y)
+                        .isCloseTo(planted, within(0.10 * planted));
+                checked++;
+            }
+        }
+        assertThat(checked).isEqualTo(2);
+        assertThat(j.get("injection_cm3").asDouble()).isEqualTo(1e13);
+        assertThat(j.get("crossover_injection_cm3").asDouble()).isBetween(1e13, 1e15);
+        assertThat(j.get("status_counts").get("ok").asInt()).isEqualTo(j.get("pixels_with_value").asInt());
+        assertThat(j.get("iron_p95_cm3").asDouble()).isGreaterThan(j.get("iron_median_cm3").asDouble());
+        assertThat(j.get("warnings")).isEmpty();
+    }
+
+    @Test
+    void injectionAtTheCrossoverMarksEveryPixel() {
+        JsonNode j = Cli.json("iron", FEB, FEI, "--no-registration", "--injection", "1.1e14", "--json");
+        assertThat(j.get("status_counts").get("crossover").asInt()).isGreaterThan(60000);
+        assertThat(j.get("status_counts").get("ok").asInt()).isZero();
+        assertThat(j.get("pixels_with_value").asInt()).isZero();
+        assertThat(j.get("iron_median_cm3").isNull()).isTrue();
+        JsonNode near = Cli.json("iron", FEB, FEI, "--no-registration", "--injection", "7e13", "--json");
+        assertThat(near.get("status_counts").get("near-crossover").asInt()).isGreaterThan(60000);
+    }
+
+    @Test
+    void aMapOfAnotherWaferWarnsAndStrictFails() {
+        Cli.Run r = Cli.run("iron", FEB, DEMO.resolve("LOT-A01-W01.tif").toString(), "--strict",
+                "--injection", "1e13");
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.errLines()).anyMatch(l -> l.contains("different wafer ids"));
+    }
+
+    @Test
+    void calcIronStillAnswersForOnePair() {
+        JsonNode j = Cli.json("calc", "iron", "--before-us", "20", "--after-us", "8", "--doping", "p:1e16",
+                "--injection", "1e13", "--json");
+        assertThat(j.get("fe_i_cm3").asDouble()).isCloseTo(1.0e12, within(0.01e12)); // as before the map command
+    }
+}
