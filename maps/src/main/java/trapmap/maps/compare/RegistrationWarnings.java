@@ -9,6 +9,7 @@ import trapmap.maps.geometry.OutlineFit;
 import trapmap.maps.geometry.RoundWafer;
 import trapmap.maps.geometry.SquareWafer;
 import trapmap.maps.geometry.Tolerance;
+import trapmap.maps.geometry.WaferFormat;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.model.WaferMap;
 import trapmap.shared.check.Checks;
@@ -74,8 +75,11 @@ public final class RegistrationWarnings {
         WaferShape b = fb.shape();
         WaferShape a = fa.shape();
         double pitch = Math.max(before.grid().pitchMm(), after.grid().pitchMm());
-        FormatMatch format = fb.closestFormat();
-        Tolerance t = format.format().sizeTolerance();
+        FormatMatch match = fb.closestFormat();
+        // a round outline whose mark the pitch cannot resolve matches its size family: every candidate of that
+        // size has the same size tolerance
+        WaferFormat format = match.format() != null ? match.format() : match.candidates().get(0);
+        Tolerance t = format.sizeTolerance();
         double allowance = t.minus() + t.plus() + pitch;
         if (b instanceof RoundWafer rb && a instanceof RoundWafer ra) {
             return compare("diameters", rb.diameterMm(), ra.diameterMm(), allowance, format, pitch);
@@ -87,7 +91,7 @@ public final class RegistrationWarnings {
                 + a.describe();
     }
 
-    private static String compare(String what, double before, double after, double allowance, FormatMatch format,
+    private static String compare(String what, double before, double after, double allowance, WaferFormat format,
                                   double pitch) {
         double d = Math.abs(before - after);
         if (d <= allowance) {
@@ -95,6 +99,6 @@ public final class RegistrationWarnings {
         }
         return String.format(Locale.ROOT, "different wafer sizes: fitted %s %.2f mm (before) and %.2f mm (after)"
                 + " differ by %.2f mm, beyond the %.2f mm allowed (size tolerance %s mm of %s plus a %.3f mm pixel)",
-                what, before, after, d, allowance, format.format().sizeTolerance(), format.format().id(), pitch);
+                what, before, after, d, allowance, format.sizeTolerance(), format.id(), pitch);
     }
 }
