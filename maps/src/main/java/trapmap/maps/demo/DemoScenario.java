@@ -215,8 +215,8 @@ public final class DemoScenario {
         double r = 90;
         for (int clock : new int[] {12, 4, 8}) {
             double angle = StrictMath.toRadians(30.0 * (clock % 12));
-            spots.add(new PlantedField.Spot("boat-contact", round(r * StrictMath.sin(angle)), round(r * StrictMath.cos(angle)),
-                    2.5, 5e11));
+            spots.add(new PlantedField.Spot("boat-contact", round(r * StrictMath.sin(angle)),
+                    round(r * StrictMath.cos(angle)), 2.5, 5e11));
         }
         PlantedField f = new PlantedField(bg, List.of(), spots, null, 1);
         MeasurementConditions c = conditions(Doping.fromResistivity(ConductivityType.P, 10), 725, 1, 1e14, null,

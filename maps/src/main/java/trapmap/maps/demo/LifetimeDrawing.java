@@ -110,7 +110,8 @@ final class LifetimeDrawing {
             double[] centre = e.centre();
             double[] probe = snap(grid, e.probe(2.0));
             out.add(planted(f, forward, defect, generation, "edge-zone", centre[0], centre[1], Double.NaN,
-                    e.decayMm(), e.side(), probe, f.total(probe[0], probe[1]) - e.density(probe[0], probe[1]) / f.divisor()));
+                    e.decayMm(), e.side(), probe,
+                    f.total(probe[0], probe[1]) - e.density(probe[0], probe[1]) / f.divisor()));
         }
         if (f.ring() != null) {
             double[] probe = snap(grid, new double[] {f.ring().radiusMm(), 0});
@@ -119,8 +120,8 @@ final class LifetimeDrawing {
         }
         for (PlantedField.Spot s : f.spots()) {
             double[] probe = snap(grid, new double[] {s.xMm(), s.yMm()});
-            out.add(planted(f, forward, defect, generation, s.kind(), s.xMm(), s.yMm(), s.radiusMm(), Double.NaN, null, probe,
-                    f.base(probe[0], probe[1]) / f.divisor()));
+            out.add(planted(f, forward, defect, generation, s.kind(), s.xMm(), s.yMm(), s.radiusMm(), Double.NaN, null,
+                    probe, f.base(probe[0], probe[1]) / f.divisor()));
         }
         return out;
     }

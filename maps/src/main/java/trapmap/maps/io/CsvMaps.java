@@ -61,7 +61,8 @@ final class CsvMaps {
             List<String> comments = new ArrayList<>();
             String first = null;
             int consumed = 0;
-            for (String line = CsvLines.readLine(in, name, 1); line != null; line = CsvLines.readLine(in, name, consumed + 2)) {
+            for (String line = CsvLines.readLine(in, name, 1); line != null;
+                 line = CsvLines.readLine(in, name, consumed + 2)) {
                 consumed++;
                 String t = CsvLines.stripBom(line, consumed).trim();
                 if (t.isEmpty() || t.startsWith("#")) {
@@ -79,7 +80,8 @@ final class CsvMaps {
             Sidecar meta = sidecar == null ? header.meta() : header.meta().overriddenBy(sidecar);
             char delimiter = CsvLayout.delimiter(first);
             boolean pointList = CsvLayout.isPointList(first);
-            Reader rest = new CsvLines.LineLimitReader(new CsvLines.ConcatReader(new StringReader(first + "\n"), in), offset);
+            Reader rest = new CsvLines.LineLimitReader(
+                    new CsvLines.ConcatReader(new StringReader(first + "\n"), in), offset);
             if (delimiter == ' ') {
                 rest = new CsvLines.WhitespaceReader(rest);
                 delimiter = '\t';
