@@ -11,15 +11,13 @@ import java.math.BigDecimal;
 import java.math.MathContext;
 import java.math.RoundingMode;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.AtomicMoveNotSupportedException;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.nio.file.StandardCopyOption;
-import java.nio.file.attribute.PosixFilePermissions;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.TreeMap;
+import trapmap.maps.io.AtomicFiles;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.Sidecar;
 
@@ -136,21 +134,7 @@ final class DemoSetFiles {
     }
 
     private static void writeText(Path target, String text) throws IOException {
-        Path abs = target.toAbsolutePath();
-        Path tmp = Files.createTempFile(abs.getParent(), "." + abs.getFileName() + ".", ".tmp");
-        try {
-            Files.writeString(tmp, text, StandardCharsets.UTF_8);
-            if (Files.getFileStore(tmp).supportsFileAttributeView("posix")) {
-                Files.setPosixFilePermissions(tmp, PosixFilePermissions.fromString("rw-r--r--"));
-            }
-            try {
-                Files.move(tmp, abs, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
-            } catch (AtomicMoveNotSupportedException e) {
-                Files.move(tmp, abs, StandardCopyOption.REPLACE_EXISTING);
-            }
-        } finally {
-            Files.deleteIfExists(tmp);
-        }
+        AtomicFiles.write(target, text.getBytes(StandardCharsets.UTF_8));
     }
 
     private static String readme(List<DemoFile> files) {
