@@ -227,7 +227,7 @@ public final class DemoScenario {
                 "200 mm monitor p-type 10 Ω·cm, boat-contact spots at 12, 4 and 8 o'clock");
     }
 
-    // ---------------------------------------------------------------- helpers
+    // ---------------------------------------------------------------- grids, conditions, provenance
 
     private static PixelGrid grid(double sizeMm, double pitchMm) {
         int n = (int) StrictMath.ceil(sizeMm / pitchMm) + 6;

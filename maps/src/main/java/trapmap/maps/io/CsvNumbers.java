@@ -14,6 +14,11 @@ final class CsvNumbers {
     private CsvNumbers() {
     }
 
+    /**
+     * A coordinate of a point list, mm.
+     *
+     * @throws MapFormatException naming the line and column when the text is not a number within ±10⁶ mm
+     */
     static double coordinate(String text, String name, int line, String column, char delimiter)
             throws MapFormatException {
         String t = number(text, delimiter);
@@ -45,6 +50,12 @@ final class CsvNumbers {
         }
     }
 
+    /**
+     * A value: NaN for an empty cell or NaN, else the number times {@code factor}.
+     *
+     * @throws MapFormatException naming the line and the unit when the text is not a number or beyond the float
+     *                            range
+     */
     static float value(String text, String name, int line, String unit, char delimiter, double factor)
             throws MapFormatException {
         String t = number(text, delimiter);
@@ -63,17 +74,17 @@ final class CsvNumbers {
         return v;
     }
 
-    static String unitLabel(String unit) {
+    private static String unitLabel(String unit) {
         String u = unit == null ? "" : unit.trim();
         return Sidecar.normaliseUnit(u).equals("us") ? "µs" : u;
     }
 
-    static String number(String text, char delimiter) {
+    private static String number(String text, char delimiter) {
         String t = unquote(text.trim());
         return delimiter == ';' && t.indexOf(',') >= 0 && t.indexOf('.') < 0 ? t.replace(',', '.') : t;
     }
 
-    static boolean isNaN(String t) {
+    private static boolean isNaN(String t) {
         return t.equalsIgnoreCase("nan") || t.equalsIgnoreCase("-nan") || t.equalsIgnoreCase("+nan");
     }
 
@@ -120,10 +131,12 @@ final class CsvNumbers {
         return i == n;
     }
 
+    /** {@code v} for messages: its shortest decimal form. */
     static String num(double v) {
         return Sidecar.fmt(nice(v));
     }
 
+    /** {@code s} cut to 40 characters for messages. */
     static String abbreviate(String s) {
         return s.length() <= 40 ? s : s.substring(0, 37) + "...";
     }
