@@ -2,14 +2,15 @@ package trapmap.maps.compare;
 
 import java.util.ArrayList;
 import java.util.List;
+import trapmap.maps.raster.BlockMeanPyramid;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.PixelGrid;
 
 /**
  * A map prepared for registration at a series of resolutions. Level 0 is the map's own grid, level k averages
- * 2^k × 2^k pixels (in the map's own unit). The levels used for correlation are log-transformed when the map is
- * (almost) all positive, so that a step that multiplies lifetimes changes levels but not contrast; the contrast
- * can be inverted (lifetime against density). Levels are built on demand and a 4096² map is never copied at full
+ * 2^k × 2^k pixels (in the map's own unit; {@link BlockMeanPyramid} with {@link BlockMeanPyramid.Rule#TWO_OF_FOUR}).
+ * The levels used for correlation are log-transformed when the map is (almost) all positive, so that a step that
+ * multiplies lifetimes changes levels but not contrast; the contrast can be inverted (lifetime against density). Levels are built on demand and a 4096² map is never copied at full
  * size. Not thread-safe: one pyramid per registration.
  */
 final class Pyramid {
@@ -20,7 +21,8 @@ final class Pyramid {
     private final PixelGrid grid;
     private final boolean log;
     private final boolean invert;
-    private final List<float[]> raw = new ArrayList<>();
+    /** The block means in the map's unit, built on demand. */
+    private final BlockMeanPyramid means;
     private final List<PixelGrid> grids = new ArrayList<>();
     private final List<Level> prepared = new ArrayList<>();
 
@@ -40,8 +42,8 @@ final class Pyramid {
         }
         this.log = finite > 0 && positive >= LOG_SHARE * finite;
         grids.add(grid);
-        raw.add(null);
         prepared.add(null);
+        this.means = new BlockMeanPyramid(raster, BlockMeanPyramid.Rule.TWO_OF_FOUR, maxLevel() + 1);
     }
 
     /** Source grid. */
@@ -117,69 +119,14 @@ final class Pyramid {
         return invert ? -t : t;
     }
 
-    /** Samples of level k in the map's unit (NaN = no data); level 0 is the map itself. */
-    private float[] rawLevel(int k) {
-        while (raw.size() <= k) {
-            raw.add(null);
-        }
-        if (raw.get(k) != null) {
-            return raw.get(k);
-        }
-        float[] out;
-        if (k == 0) {
-            out = raster.samples();
-        } else {
-            PixelGrid src = gridOf(k - 1);
-            PixelGrid dst = gridOf(k);
-            out = new float[dst.width() * dst.height()];
-            halve(rawLevel(k - 1), src.width(), dst.width(), dst.height(), out);
-        }
-        raw.set(k, out);
-        return out;
-    }
-
     /** Level k transformed (log, inverted) into a new array; non-finite and, on a log scale, non-positive → NaN. */
     private float[] transformed(int k) {
-        float[] s = rawLevel(k);
+        float[] s = means.built(k).samples();
         float[] out = new float[s.length];
         for (int i = 0; i < s.length; i++) {
             out[i] = transform(s[i]);
         }
         return out;
-    }
-
-    /** 2×2 means of the finite samples, NaN unless at least two of the four are finite. */
-    private static void halve(float[] s, int sw, int w, int h, float[] out) {
-        for (int y = 0; y < h; y++) {
-            int r0 = 2 * y * sw;
-            int r1 = r0 + sw;
-            for (int x = 0; x < w; x++) {
-                int c = 2 * x;
-                float a = s[r0 + c];
-                float b = s[r0 + c + 1];
-                float d = s[r1 + c];
-                float e = s[r1 + c + 1];
-                double sum = 0;
-                int n = 0;
-                if (Float.isFinite(a)) {
-                    sum += a;
-                    n++;
-                }
-                if (Float.isFinite(b)) {
-                    sum += b;
-                    n++;
-                }
-                if (Float.isFinite(d)) {
-                    sum += d;
-                    n++;
-                }
-                if (Float.isFinite(e)) {
-                    sum += e;
-                    n++;
-                }
-                out[y * w + x] = n >= 2 ? (float) (sum / n) : Float.NaN;
-            }
-        }
     }
 
     /**

@@ -135,12 +135,13 @@ public final class MapFiles {
 
     /**
      * Parses a doping in the sidecar's notation: {@code p:1e16} (net density, cm^-3) or {@code p:1.5ohmcm}
-     * (resistivity at 23 °C, Ω·cm, ASTM F723).
+     * (resistivity at 23 °C, Ω·cm, ASTM F723); the same as {@link trapmap.physics.material.Doping#parse}.
      *
-     * @throws IllegalArgumentException saying what is expected
+     * @throws trapmap.shared.error.InvalidValueException (an {@link IllegalArgumentException}) with field
+     *                                                    {@code doping}, the unit and the rule broken
      */
     public static trapmap.physics.material.Doping parseDoping(String text) {
-        return Sidecar.parseDoping(text);
+        return trapmap.physics.material.Doping.parse(text);
     }
 
     /** A picture of the map in the colours {@link #write} uses for PNG files (headless {@code java.awt.image}). */

@@ -23,17 +23,15 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
-import java.util.regex.Matcher;
-import java.util.regex.Pattern;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Provenance;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
-import trapmap.physics.material.AstmF723;
 import trapmap.physics.material.ConductivityType;
 import trapmap.physics.material.Doping;
 import trapmap.physics.material.Silicon;
+import trapmap.shared.error.InvalidValueException;
 
 /**
  * The facts about a map that its samples do not carry: a JSON object in a file {@code <name>.json} beside the map
@@ -126,11 +124,6 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
 
     private static final List<String> TOP_KEYS = List.of("format", "wafer_id", "quantity", "unit", "pixel_pitch_mm",
             "centre_x_px", "centre_y_px", "scale", "offset", "no_data", "pages", "conditions", "history");
-
-    private static final Pattern DOPING = Pattern.compile(
-            "([pPnN])\\s*:\\s*([+-]?(?:\\d+\\.?\\d*|\\.\\d+)(?:[eE][+-]?\\d+)?)\\s*(.*)");
-    private static final Pattern OHM_CM = Pattern.compile("(ohm|Ω)\\s*[.*·⋅-]?\\s*cm", Pattern.CASE_INSENSITIVE);
-    private static final Pattern PER_CM3 = Pattern.compile("(cm\\^?-3|/cm\\^?3|cm⁻³)", Pattern.CASE_INSENSITIVE);
 
     public Sidecar {
         conditions = conditions == null ? MeasurementConditions.UNKNOWN : conditions;
@@ -302,51 +295,6 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
         return preferred != null ? preferred : fallback;
     }
 
-    /**
-     * Parses a doping in the command line's notation: {@code p:1e16}, {@code n:5e15 cm^-3} (net density, cm^-3) or
-     * {@code p:1.5ohmcm}, {@code n:2 Ohm.cm} (resistivity at 23 °C, Ω·cm, ASTM F723).
-     *
-     * @throws IllegalArgumentException with a message saying what is expected; see {@link #dopingUnit(String)}
-     */
-    static Doping parseDoping(String text) {
-        String t = text.trim();
-        Matcher m = DOPING.matcher(t);
-        if (!m.matches()) {
-            throw new IllegalArgumentException("'" + t + "' is not a doping; expected p:<density> or n:<density> in"
-                    + " cm^-3 (p:1e16) or a resistivity (p:1.5ohmcm)");
-        }
-        ConductivityType type = m.group(1).equalsIgnoreCase("p") ? ConductivityType.P : ConductivityType.N;
-        String u = m.group(3).trim();
-        double value = Double.parseDouble(m.group(2));
-        if (OHM_CM.matcher(u).matches()) {
-            if (!(value >= AstmF723.MIN_RESISTIVITY_OHM_CM && value <= AstmF723.MAX_RESISTIVITY_OHM_CM)) {
-                throw new IllegalArgumentException("resistivity must be in [" + AstmF723.MIN_RESISTIVITY_OHM_CM + ", "
-                        + AstmF723.MAX_RESISTIVITY_OHM_CM + "] but was " + m.group(2));
-            }
-            double n = type == ConductivityType.P ? AstmF723.boronPerCm3(value) : AstmF723.phosphorusPerCm3(value);
-            if (!(n >= Doping.MIN_DENSITY_PER_CM3 && n <= Doping.MAX_DENSITY_PER_CM3)) {
-                throw new IllegalArgumentException("resistivity " + m.group(2) + " gives " + n
-                        + " cm^-3 by ASTM F723, outside [" + Doping.MIN_DENSITY_PER_CM3 + ", "
-                        + Doping.MAX_DENSITY_PER_CM3 + "] cm^-3");
-            }
-            return new Doping(type, n);
-        }
-        if (!u.isEmpty() && !PER_CM3.matcher(u).matches()) {
-            throw new IllegalArgumentException("unit '" + u + "' is neither cm^-3 nor ohmcm");
-        }
-        if (!(value >= Doping.MIN_DENSITY_PER_CM3 && value <= Doping.MAX_DENSITY_PER_CM3)) {
-            throw new IllegalArgumentException("density must be in [" + Doping.MIN_DENSITY_PER_CM3 + ", "
-                    + Doping.MAX_DENSITY_PER_CM3 + "] but was " + m.group(2));
-        }
-        return new Doping(type, value);
-    }
-
-    /** The unit a doping text is given in: Ω·cm for resistivities, cm^-3 otherwise. */
-    static String dopingUnit(String text) {
-        Matcher m = DOPING.matcher(text.trim());
-        return m.matches() && OHM_CM.matcher(m.group(3).trim()).matches() ? "Ω·cm" : "cm^-3";
-    }
-
     static String kind(JsonNode n) {
         if (n.isArray()) {
             return "an array";
@@ -443,9 +391,9 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
             String d = text(o, "doping", "conditions.doping");
             if (d != null) {
                 try {
-                    doping = parseDoping(d);
-                } catch (IllegalArgumentException e) {
-                    throw fail("conditions.doping", e.getMessage(), dopingUnit(d));
+                    doping = Doping.parse(d);
+                } catch (InvalidValueException e) {
+                    throw fail("conditions.doping", e.getMessage(), e.unit());
                 }
             }
             Map<String, Double> values = new LinkedHashMap<>();

@@ -37,6 +37,16 @@ public record Doping(ConductivityType type, double densityPerCm3) {
         return new Doping(type, n);
     }
 
+    /**
+     * Parses a doping text such as {@code p:1e16} (cm^-3) or {@code n:2ohmcm} (Ω·cm, ASTM F723); see
+     * {@link DopingText} for the notation.
+     *
+     * @throws trapmap.shared.error.InvalidValueException with field {@code doping}, the unit, and the rule broken
+     */
+    public static Doping parse(String text) {
+        return DopingText.parse(text).doping();
+    }
+
     /** Resistivity at 23 °C by ASTM F723, Ω·cm. */
     public double resistivityOhmCm() {
         return type == ConductivityType.P ? AstmF723.boronResistivityOhmCm(densityPerCm3)

@@ -28,6 +28,7 @@ import javax.swing.SwingUtilities;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.io.ColourMap;
 import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.BlockMeanPyramid;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
@@ -86,6 +87,8 @@ public class MapCanvas extends JComponent {
     static final double MAX_ZOOM = 512;
     /** Canvas background outside the map. */
     static final Color BACKGROUND = new Color(0xB4B7BC);
+    /** The pyramid's levels stop once the longer side is at most this many pixels. */
+    static final int PYRAMID_TOP_SIDE = 64;
 
     private static final ExecutorService PYRAMID_BUILDER = Executors.newSingleThreadExecutor(r -> {
         Thread t = new Thread(r, "trapmap-map-pyramid");
@@ -106,7 +109,7 @@ public class MapCanvas extends JComponent {
     private Consumer<Line2D> lineListener = l -> { };
     private double lastFrameMillis;
 
-    private Pyramid pyramid;
+    private BlockMeanPyramid pyramid;
     private CompletableFuture<Void> pyramidDone = CompletableFuture.completedFuture(null);
     private AtomicBoolean pyramidCancel = new AtomicBoolean();
     /** A fit or zoom asked for before the component had a size, done at the first frame. */
@@ -158,7 +161,8 @@ public class MapCanvas extends JComponent {
             pyramid = null;
             pyramidDone = CompletableFuture.completedFuture(null);
         } else {
-            Pyramid p = new Pyramid(map.raster());
+            BlockMeanPyramid p = new BlockMeanPyramid(map.raster(), BlockMeanPyramid.Rule.EXACT_MEAN,
+                    BlockMeanPyramid.levelsUntil(map.width(), map.height(), PYRAMID_TOP_SIDE));
             AtomicBoolean cancel = new AtomicBoolean();
             pyramid = p;
             layer.setPyramid(p, map.width(), map.height());
@@ -423,7 +427,7 @@ public class MapCanvas extends JComponent {
         double z = v.zoom();
         // on a scaled (high-density) screen one component pixel spans several device pixels
         double device = Math.max(1, Math.abs(g.getTransform().getScaleX()));
-        Pyramid.Level lv = pyramid.level(levelFor(z * device, pyramid.levelCount()));
+        BlockMeanPyramid.Level lv = pyramid.level(levelFor(z * device, pyramid.levelCount()));
         if (lv == null) {
             g.setColor(new Color(colouring.noData()));
             g.fillRect(v.edgeX(0), v.edgeY(0), v.edgeX(map.width()) - v.edgeX(0),

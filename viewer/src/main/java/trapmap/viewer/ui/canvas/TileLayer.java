@@ -6,6 +6,7 @@ import java.awt.image.BufferedImage;
 import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
+import trapmap.maps.raster.BlockMeanPyramid;
 
 /**
  * The map picture of a canvas: coloured 256² tiles of one pyramid level and, over them, the translucent tint of
@@ -26,7 +27,7 @@ final class TileLayer {
 
     private final TileCache<BufferedImage> tiles = new TileCache<>(TILE_CACHE_BYTES);
     private final TileCache<BufferedImage> tints = new TileCache<>(TINT_CACHE_BYTES);
-    private Pyramid pyramid;
+    private BlockMeanPyramid pyramid;
     private Colouring colouring;
     private long[] flagWords;
     private int flagRgb;
@@ -36,7 +37,7 @@ final class TileLayer {
     private int deferredTiles;
 
     /** A new map's samples: both caches are emptied. */
-    void setPyramid(Pyramid p, int mapWidth, int mapHeight) {
+    void setPyramid(BlockMeanPyramid p, int mapWidth, int mapHeight) {
         pyramid = p;
         this.mapWidth = mapWidth;
         this.mapHeight = mapHeight;
@@ -79,7 +80,7 @@ final class TileLayer {
      * Draws the visible part of level {@code lv}, with the flag tint when {@code tint}; returns the number of tiles
      * left for later frames (drawn from a coarser level meanwhile).
      */
-    int draw(Graphics2D g, ViewTransform v, Pyramid.Level lv, boolean tint) {
+    int draw(Graphics2D g, ViewTransform v, BlockMeanPyramid.Level lv, boolean tint) {
         deferredTiles = 0;
         int f = lv.scale();
         int lx0 = Math.max(0, (int) Math.floor(v.mapX(0) / f));
@@ -123,8 +124,8 @@ final class TileLayer {
      * Draws the part of tile ({@code tx}, {@code ty}) of {@code lv} inside the visible level-pixel range
      * {x0, y0, x1, y1}, nearest neighbour.
      */
-    private static void drawTile(Graphics2D g, ViewTransform v, BufferedImage img, Pyramid.Level lv, int tx, int ty,
-                                 int[] range) {
+    private static void drawTile(Graphics2D g, ViewTransform v, BufferedImage img, BlockMeanPyramid.Level lv, int tx,
+                                 int ty, int[] range) {
         int f = lv.scale();
         int sx0 = Math.max(range[0], tx * TILE);
         int sy0 = Math.max(range[1], ty * TILE);
@@ -138,7 +139,8 @@ final class TileLayer {
      * The coloured tiles of the range. Missing tiles are coloured in parallel, nearest the view centre first, at
      * most {@link #NEW_TILES_PER_FRAME} per frame; the others stay null and are counted in {@link #deferredTiles}.
      */
-    private BufferedImage[][] colourTiles(ViewTransform v, Pyramid.Level lv, int tx0, int ty0, int tx1, int ty1) {
+    private BufferedImage[][] colourTiles(ViewTransform v, BlockMeanPyramid.Level lv, int tx0, int ty0, int tx1,
+                                          int ty1) {
         BufferedImage[][] out = new BufferedImage[ty1 - ty0 + 1][tx1 - tx0 + 1];
         List<int[]> missing = new ArrayList<>();
         for (int ty = ty0; ty <= ty1; ty++) {
@@ -174,7 +176,7 @@ final class TileLayer {
      * Draws the visible part of tile ({@code tx}, {@code ty}) of {@code lv}, not yet coloured, from the first coarser
      * level whose covering tiles are cached (the coarsest level, one small tile, is coloured when needed).
      */
-    private void drawStandIn(Graphics2D g, ViewTransform v, Pyramid.Level lv, int tx, int ty, int[] range) {
+    private void drawStandIn(Graphics2D g, ViewTransform v, BlockMeanPyramid.Level lv, int tx, int ty, int[] range) {
         int f = lv.scale();
         int sx0 = Math.max(range[0], tx * TILE);
         int sy0 = Math.max(range[1], ty * TILE);
@@ -186,7 +188,7 @@ final class TileLayer {
         g.clipRect(dx0, dy0, v.edgeX((double) sx1 * f) - dx0, v.edgeY((double) sy1 * f) - dy0);
         int top = pyramid.levelCount() - 1;
         for (int k = lv.index() + 1; k <= top && pyramid.level(k) != null; k++) {
-            Pyramid.Level c = pyramid.level(k);
+            BlockMeanPyramid.Level c = pyramid.level(k);
             int d = k - lv.index();
             int[] coarse = {sx0 >> d, sy0 >> d, Math.min(c.width(), ((sx1 - 1) >> d) + 1),
                 Math.min(c.height(), ((sy1 - 1) >> d) + 1)};
@@ -218,7 +220,7 @@ final class TileLayer {
     }
 
     /** Tile ({@code tx}, {@code ty}) of {@code lv} in the colours of {@code c} (opaque). */
-    static BufferedImage colourTile(Colouring c, Pyramid.Level lv, int tx, int ty) {
+    static BufferedImage colourTile(Colouring c, BlockMeanPyramid.Level lv, int tx, int ty) {
         int x0 = tx * TILE;
         int y0 = ty * TILE;
         int w = Math.min(TILE, lv.width() - x0);
@@ -231,7 +233,7 @@ final class TileLayer {
     }
 
     /** The tint tiles of the range ({@link #NO_TINT} where nothing is flagged), computing missing ones in parallel. */
-    private BufferedImage[][] tintTiles(Pyramid.Level lv, int tx0, int ty0, int tx1, int ty1) {
+    private BufferedImage[][] tintTiles(BlockMeanPyramid.Level lv, int tx0, int ty0, int tx1, int ty1) {
         BufferedImage[][] out = new BufferedImage[ty1 - ty0 + 1][tx1 - tx0 + 1];
         List<int[]> missing = new ArrayList<>();
         for (int ty = ty0; ty <= ty1; ty++) {
@@ -259,7 +261,8 @@ final class TileLayer {
     }
 
     /** Tint of one tile: alpha grows with the flagged fraction of each level pixel; any flagged pixel shows. */
-    private static BufferedImage tintTile(long[] words, int mw, int mh, Pyramid.Level lv, int tx, int ty, int rgb) {
+    private static BufferedImage tintTile(long[] words, int mw, int mh, BlockMeanPyramid.Level lv, int tx, int ty,
+                                          int rgb) {
         int x0 = tx * TILE;
         int y0 = ty * TILE;
         int w = Math.min(TILE, lv.width() - x0);

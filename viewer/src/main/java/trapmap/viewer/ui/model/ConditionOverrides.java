@@ -1,9 +1,9 @@
 package trapmap.viewer.ui.model;
 
 import java.util.Map;
-import trapmap.maps.io.MapFiles;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.physics.material.Doping;
+import trapmap.physics.material.DopingText;
 import trapmap.shared.check.Checks;
 
 /**
@@ -29,7 +29,7 @@ public record ConditionOverrides(String doping, Double thicknessUm, Double tempe
             if (doping.isEmpty()) {
                 doping = null;
             } else {
-                MapFiles.parseDoping(doping);
+                Doping.parse(doping);
             }
         }
         if (thicknessUm != null) {
@@ -52,9 +52,14 @@ public record ConditionOverrides(String doping, Double thicknessUm, Double tempe
         }
     }
 
+    /** The doping override parsed (type, density and the resistivity it came from), or null when not set. */
+    public DopingText parsedDoping() {
+        return doping == null ? null : DopingText.parse(doping);
+    }
+
     /** The conditions a map is converted with: the sidecar's, with every set field of these taking precedence. */
     public MeasurementConditions applyTo(MeasurementConditions fromFile) {
-        Doping d = doping == null ? null : MapFiles.parseDoping(doping);
+        Doping d = doping == null ? null : Doping.parse(doping);
         MeasurementConditions mine = new MeasurementConditions(d, thicknessUm, temperatureK, injectionPerCm3,
                 generationPerCm3PerS, srvCmPerS, null, null, Map.of());
         boolean excitation = injectionPerCm3 != null || generationPerCm3PerS != null;

@@ -19,6 +19,7 @@ import javax.swing.event.DocumentListener;
 import trapmap.maps.io.ColourMap;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.physics.defect.Defect;
+import trapmap.physics.material.DopingText;
 import trapmap.viewer.ui.model.Analysis;
 import trapmap.viewer.ui.model.ConditionOverrides;
 import trapmap.viewer.ui.model.DisplaySettings;
@@ -329,12 +330,13 @@ public final class PhysicsPanel extends WidthTrackingPanel {
             excitationValue.setName("excitation");
             srv.setName("surface recombination velocity");
             dopingValue.setName("doping");
-            if (c.doping() != null) {
-                String dtext = c.doping();
-                dopingType.setSelectedItem(dtext.substring(0, 1));
-                boolean ohm = dtext.endsWith("ohmcm");
+            DopingText given = c.parsedDoping();
+            if (given != null) {
+                dopingType.setSelectedItem(given.doping().type().name().toLowerCase(Locale.ROOT));
+                boolean ohm = given.fromResistivity();
                 dopingUnit.setSelectedIndex(ohm ? 0 : 1);
-                setIfDifferent(dopingValue, dtext.substring(2, ohm ? dtext.length() - 5 : dtext.length()));
+                setIfDifferent(dopingValue, Double.toString(ohm ? given.resistivityOhmCm()
+                        : given.doping().densityPerCm3()));
             } else {
                 setIfDifferent(dopingValue, "");
                 if (side.doping() != null) {

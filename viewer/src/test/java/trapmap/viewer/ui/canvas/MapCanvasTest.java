@@ -13,10 +13,12 @@ import java.util.ArrayList;
 import java.util.BitSet;
 import java.util.List;
 import java.util.SplittableRandom;
+import java.util.concurrent.atomic.AtomicBoolean;
 import org.junit.jupiter.api.Test;
 import trapmap.maps.geometry.RoundWafer;
 import trapmap.maps.io.ColourMap;
 import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.BlockMeanPyramid;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.viewer.graphics.DisplayStyle;
@@ -160,9 +162,10 @@ class MapCanvasTest {
             5, 7, n, n, 9,
             2, n, 4, 6, n,
         };
-        Pyramid p = new Pyramid(FloatRaster.wrap(5, 3, s));
+        BlockMeanPyramid p = pyramid(FloatRaster.wrap(5, 3, s));
         int[] counts = new int[6];
-        Pyramid.Level l1 = Pyramid.downsample(p.level(0), null, counts);
+        BlockMeanPyramid.Level l1 = BlockMeanPyramid.halve(p.level(0), BlockMeanPyramid.Rule.EXACT_MEAN, null,
+                counts);
         assertThat(counts).containsExactly(4, 0, 2, 1, 2, 0);
         assertThat(l1.width()).isEqualTo(3);
         assertThat(l1.height()).isEqualTo(2);
@@ -174,7 +177,7 @@ class MapCanvasTest {
         assertThat(m[4]).isEqualTo(5f); // (4 + 6) / 2
         assertThat(m[5]).isNaN();
         // level 2: the mean of the 7 valid map samples of the left 4×4 block, not the mean of the three means
-        Pyramid.Level l2 = Pyramid.downsample(l1, counts, new int[2]);
+        BlockMeanPyramid.Level l2 = BlockMeanPyramid.halve(l1, BlockMeanPyramid.Rule.EXACT_MEAN, counts, new int[2]);
         assertThat(l2.samples()).containsExactly((1 + 3 + 5 + 7 + 2 + 4 + 6) / 7f, 8f);
     }
 
@@ -187,9 +190,9 @@ class MapCanvasTest {
         for (int i = 0; i < s.length; i++) {
             s[i] = rnd.nextInt(4) == 0 ? Float.NaN : (float) rnd.nextDouble(1, 2);
         }
-        Pyramid p = new Pyramid(FloatRaster.wrap(w, h, s));
-        p.build(new java.util.concurrent.atomic.AtomicBoolean());
-        Pyramid.Level l3 = p.level(3);
+        BlockMeanPyramid p = pyramid(FloatRaster.wrap(w, h, s));
+        p.build(new AtomicBoolean());
+        BlockMeanPyramid.Level l3 = p.level(3);
         for (int[] cell : new int[][] {{0, 0}, {17, 9}, {37, 21}}) { // (37, 21) is the partial corner block
             double sum = 0;
             int n = 0;
@@ -203,6 +206,84 @@ class MapCanvasTest {
             }
             assertThat((double) l3.samples()[cell[1] * l3.width() + cell[0]]).isCloseTo(sum / n, within(1e-6));
         }
+    }
+
+    /**
+     * The canvas's levels as it built them before it used the maps module's pyramid: each 2×2 block's mean of the
+     * valid pixels, each weighted by its count of valid map samples. Kept here as the reference for the tiles.
+     */
+    private static List<float[]> formerCanvasLevels(float[] samples, int width, int height, int levels) {
+        List<float[]> out = new ArrayList<>(List.of(samples));
+        int[] counts = null;
+        int fw = width;
+        int fh = height;
+        for (int k = 1; k < levels; k++) {
+            float[] src = out.get(k - 1);
+            int w = (fw + 1) / 2;
+            int h = (fh + 1) / 2;
+            float[] next = new float[w * h];
+            int[] nextCounts = new int[w * h];
+            for (int y = 0; y < h; y++) {
+                for (int x = 0; x < w; x++) {
+                    double sum = 0;
+                    int n = 0;
+                    for (int yy = 2 * y; yy <= Math.min(2 * y + 1, fh - 1); yy++) {
+                        for (int xx = 2 * x; xx <= Math.min(2 * x + 1, fw - 1); xx++) {
+                            float v = src[yy * fw + xx];
+                            if (v == v) {
+                                int c = counts == null ? 1 : counts[yy * fw + xx];
+                                sum += (double) v * c;
+                                n += c;
+                            }
+                        }
+                    }
+                    next[y * w + x] = n == 0 ? Float.NaN : (float) (sum / n);
+                    nextCounts[y * w + x] = n;
+                }
+            }
+            out.add(next);
+            counts = nextCounts;
+            fw = w;
+            fh = h;
+        }
+        return out;
+    }
+
+    @Test
+    void canvasTilesOfEveryLevelAreUnchangedByTheSharedPyramid() {
+        int w = 700;
+        int h = 530; // odd halvings: 700×530 → 350×265 → 175×133 → 88×67 → 44×34
+        SplittableRandom rnd = new SplittableRandom(5);
+        float[] s = new float[w * h];
+        for (int i = 0; i < s.length; i++) {
+            s[i] = rnd.nextInt(5) == 0 ? Float.NaN : (float) rnd.nextDouble(0, 63);
+        }
+        BlockMeanPyramid p = pyramid(FloatRaster.wrap(w, h, s));
+        p.build(new AtomicBoolean());
+        assertThat(p.levelCount()).isEqualTo(5);
+        List<float[]> former = formerCanvasLevels(s, w, h, p.levelCount());
+        Colouring colours = new Colouring(LINEAR_0_63);
+        for (int k = 0; k < p.levelCount(); k++) {
+            BlockMeanPyramid.Level lv = p.level(k);
+            assertThat(lv.samples()).as("level %d", k).containsExactly(former.get(k));
+            BlockMeanPyramid.Level reference = new BlockMeanPyramid.Level(k, lv.width(), lv.height(), former.get(k));
+            for (int ty = 0; ty * TileLayer.TILE < lv.height(); ty++) {
+                for (int tx = 0; tx * TileLayer.TILE < lv.width(); tx++) {
+                    assertThat(pixels(TileLayer.colourTile(colours, lv, tx, ty)))
+                            .as("level %d tile %d,%d", k, tx, ty)
+                            .containsExactly(pixels(TileLayer.colourTile(colours, reference, tx, ty)));
+                }
+            }
+        }
+    }
+
+    private static int[] pixels(BufferedImage img) {
+        return img.getRGB(0, 0, img.getWidth(), img.getHeight(), null, 0, img.getWidth());
+    }
+
+    private static BlockMeanPyramid pyramid(FloatRaster r) {
+        return new BlockMeanPyramid(r, BlockMeanPyramid.Rule.EXACT_MEAN,
+                BlockMeanPyramid.levelsUntil(r.width(), r.height(), MapCanvas.PYRAMID_TOP_SIDE));
     }
 
     @Test
@@ -222,11 +303,11 @@ class MapCanvasTest {
 
     @Test
     void pyramidStopsAtASmallTopLevel() {
-        Pyramid p = new Pyramid(FloatRaster.filled(1000, 300, 1f));
-        p.build(new java.util.concurrent.atomic.AtomicBoolean());
+        BlockMeanPyramid p = pyramid(FloatRaster.filled(1000, 300, 1f));
+        p.build(new AtomicBoolean());
         assertThat(p.complete()).isTrue();
-        Pyramid.Level top = p.level(p.levelCount() - 1);
-        assertThat(Math.max(top.width(), top.height())).isLessThanOrEqualTo(Pyramid.MIN_SIDE);
+        BlockMeanPyramid.Level top = p.level(p.levelCount() - 1);
+        assertThat(Math.max(top.width(), top.height())).isLessThanOrEqualTo(MapCanvas.PYRAMID_TOP_SIDE);
         assertThat(top.width()).isEqualTo(63); // 1000 → 500 → 250 → 125 → 63
     }
 

@@ -65,4 +65,26 @@ class ConditionOverridesTest {
         assertThat(choices.all()).last().isSameAs(own);
         assertThat(DefectChoices.library()).allMatch(Defect::hasAbsoluteCrossSections);
     }
+
+    @Test
+    void dopingTextIsReadByTheOneParserWhateverItsSpelling() {
+        assertThat(ConditionOverrides.NONE.parsedDoping()).isNull();
+        var ohm = ConditionOverrides.NONE.withDoping("n : 2 Ohm.cm").parsedDoping();
+        assertThat(ohm.fromResistivity()).isTrue();
+        assertThat(ohm.resistivityOhmCm()).isEqualTo(2.0);
+        assertThat(ohm.doping()).isEqualTo(Doping.parse("n:2ohmcm"));
+        var density = ConditionOverrides.NONE.withDoping("p:5e15 cm^-3").parsedDoping();
+        assertThat(density.fromResistivity()).isFalse();
+        assertThat(density.doping()).isEqualTo(Doping.pType(5e15));
+    }
+
+    @Test
+    void badDopingNamesTheFieldAndTheUnit() {
+        assertThatThrownBy(() -> ConditionOverrides.NONE.withDoping("p:1e25"))
+                .isInstanceOfSatisfying(trapmap.shared.error.InvalidValueException.class, e -> {
+                    assertThat(e.field()).isEqualTo("doping");
+                    assertThat(e.unit()).isEqualTo("cm^-3");
+                    assertThat(e.getMessage()).isEqualTo("density must be in [1e10, 1e19] cm^-3 (got 1e25)");
+                });
+    }
 }
