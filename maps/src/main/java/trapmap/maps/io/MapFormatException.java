@@ -63,7 +63,8 @@ public class MapFormatException extends IOException {
             s.append(": ").append(oneLine(location));
         }
         s.append(": ").append(oneLine(problem));
-        if (unit != null && !unit.isEmpty()) {
+        // the unit is appended unless the problem already states it (as the doping parser's messages do)
+        if (unit != null && !unit.isEmpty() && !String.valueOf(problem).contains(unit)) {
             s.append(" (").append(unit).append(')');
         }
         return s.toString();
