@@ -12,6 +12,9 @@ import javax.swing.JMenuItem;
 import javax.swing.JOptionPane;
 import javax.swing.SwingWorker;
 import javax.swing.filechooser.FileNameExtensionFilter;
+import trapmap.maps.batch.RulesException;
+import trapmap.physics.defect.Defect;
+import trapmap.viewer.ui.model.LoadedRules;
 import trapmap.viewer.ui.model.RecentFiles;
 import trapmap.viewer.ui.model.Session;
 import trapmap.viewer.ui.model.SessionFiles;
@@ -167,4 +170,84 @@ final class SessionController {
             window.error("Session not saved", e);
         }
     }
+
+    /** Asks for a rules file and judges the open wafers by it. */
+    void chooseRules() {
+        JFileChooser fc = chooser();
+        fc.setFileFilter(new FileNameExtensionFilter("Rules files (.json)", "json"));
+        if (fc.showOpenDialog(window) == JFileChooser.APPROVE_OPTION) {
+            loadRules(fc.getSelectedFile().toPath());
+        }
+    }
+
+    /** Judges the open wafers by the rules of {@code file}; a file that is not valid changes nothing. */
+    void loadRules(Path file) {
+        try {
+            LoadedRules r = model.loadRules(file);
+            status.setMessage("judging by " + r.name() + " (" + r.rules().allProfiles().size() + " profiles)");
+        } catch (RulesException | RuntimeException e) {
+            window.error("Rules not loaded", e);
+        }
+    }
+
+    /** Drops the rules file: the quick threshold check judges again. */
+    void useQuickCheck() {
+        model.setRules(null);
+        status.setMessage("no rules file: " + trapmap.viewer.ui.model.Verdict.QUICK_CHECK + " (not a rules verdict)");
+    }
+
+    /**
+     * Asks for a defect that replaces the rules profile's (or the viewer's) for the shown wafer ({@code all}
+     * false) or for every wafer; "(none)" removes the override.
+     */
+    void chooseDefectOverride(boolean all) {
+        ViewerModel.OpenWafer w = model.selected();
+        if (!all && w == null) {
+            status.setMessage("open a wafer first");
+            return;
+        }
+        List<String> ids = new ArrayList<>();
+        ids.add(NO_OVERRIDE);
+        model.defects().all().stream().filter(Defect::hasAbsoluteCrossSections).forEach(d -> ids.add(d.id()));
+        String current = all ? model.defectOverrideAll() : w.defectOverride();
+        Object choice = JOptionPane.showInputDialog(window, all
+                ? "Defect for every wafer, instead of each rules profile's:"
+                : "Defect for " + w.name() + ", instead of " + (model.rules() != null ? "its rules profile's"
+                : "the one chosen for all wafers") + ":", all ? "Override defect for all wafers"
+                : "Override defect for this wafer", JOptionPane.QUESTION_MESSAGE, null, ids.toArray(),
+                current == null ? NO_OVERRIDE : current);
+        if (choice == null) {
+            return;
+        }
+        String id = NO_OVERRIDE.equals(choice) ? null : choice.toString();
+        try {
+            if (all) {
+                if (model.rules() == null && id != null) {
+                    model.setAnalysis(model.analysis().withDefect(id), "defect");
+                } else {
+                    model.setDefectOverrideAll(id);
+                }
+            } else {
+                model.setDefectOverride(model.selectedIndex(), id);
+            }
+            status.setMessage(id == null ? "defect override removed" : "judged with an overridden defect: " + id);
+        } catch (IllegalArgumentException e) {
+            window.error("Defect not overridden", e);
+        }
+    }
+
+    /** Removes every defect override. */
+    void clearDefectOverrides() {
+        for (int i = 0; i < model.size(); i++) {
+            if (model.wafer(i).defectOverride() != null) {
+                model.setDefectOverride(i, null);
+            }
+        }
+        if (model.defectOverrideAll() != null) {
+            model.setDefectOverrideAll(null);
+        }
+        status.setMessage("defect overrides removed");
+    }
+
+    private static final String NO_OVERRIDE = "(none: the profile's defect)";
 }

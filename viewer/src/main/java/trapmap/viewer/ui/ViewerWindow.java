@@ -292,6 +292,12 @@ public final class ViewerWindow extends JFrame {
                 showSelected();
             }
             case DEFECTS -> physics.refresh();
+            case RULES -> {
+                gallery.refresh();
+                threshold.refresh();
+                updateTitle();
+                scheduleAnalysis();
+            }
         }
         for (Consumer<ViewerModel.Change> l : extraListeners) {
             l.accept(c);
@@ -338,7 +344,7 @@ public final class ViewerWindow extends JFrame {
         if (r != shownResult) {
             canvas.setMap(r.displayed());
             canvas.setFlagged(r.flagged());
-            canvas.setOutline(r.shape(), r.analysis().edgeExclusionMm());
+            canvas.setOutline(r.shape(), r.edgeExclusionMm());
         }
         canvas.setStyle(style);
         DisplayedQuantity q = r.analysis().quantity();
@@ -368,15 +374,15 @@ public final class ViewerWindow extends JFrame {
                     + " more, see tooltip)" : ""));
             status.setMessageTooltip("<html>" + String.join("<br>", notes) + "</html>");
         } else if (w.error() == null) {
-            status.setMessage(r.pass() ? "pass" : "fail: flagged area above " + String.format(Locale.ROOT, "%.1f %%",
-                    a.threshold().maxFlaggedFraction() * 100));
+            status.setMessage(r.verdict().headline() + " — " + r.verdict().basis());
+            status.setMessageTooltip(null);
         }
     }
 
     /** Histogram and radial profile (computed in the background) and the line profile of the shown results. */
     private void showCharts(WaferAnalysis r) {
-        double t = r.analysis().threshold().value();
-        if (r != chartedResult || t != chartedThreshold) {
+        double t = r.flagThreshold();
+        if (r != chartedResult || Double.compare(t, chartedThreshold) != 0) {
             chartedResult = r;
             chartedThreshold = t;
             new SwingWorker<Object[], Void>() {
@@ -435,7 +441,7 @@ public final class ViewerWindow extends JFrame {
         ViewerModel.OpenWafer w = model.selected();
         WaferAnalysis r = w == null ? null : w.result();
         Analysis a = model.analysis();
-        if (r == null || r.analysis().threshold().equals(a.threshold())
+        if (r == null || r.verdict().rulesVerdict() || r.analysis().threshold().equals(a.threshold())
                 || !r.analysis().withThreshold(a.threshold()).equals(a)) {
             return;
         }

@@ -116,6 +116,11 @@ final class WindowMenus {
         file.add(item(action("Save session as…", KeyStroke.getKeyStroke(KeyEvent.VK_S, MENU
                 | InputEvent.SHIFT_DOWN_MASK), e -> sessions.saveSession(true)), "Save the session under a new name"));
         file.addSeparator();
+        file.add(item(action("Load rules…", KeyStroke.getKeyStroke(KeyEvent.VK_R, MENU), e -> sessions.chooseRules()),
+                "Judge every open wafer by a rules file (as trapmap inspect does): profile, defect, verdict, grade"));
+        file.add(item(action("Use quick threshold check", null, e -> sessions.useQuickCheck()),
+                "Drop the rules file: the threshold panel's own rule judges the wafers (not a rules verdict)"));
+        file.addSeparator();
         file.add(item(action("Export view PNG…", KeyStroke.getKeyStroke(KeyEvent.VK_E, MENU), e -> exports.exportView()),
                 "Save the map view as shown (with flags and line) as a PNG picture"));
         file.add(item(action("Export chart PNG…", null, e -> exports.exportChart()), "Save the chart of the open tab as PNG"));
@@ -198,6 +203,13 @@ final class WindowMenus {
                 "Two maps side by side, linked, with a difference or ratio map after registration"));
         analysis.add(item(action("Iron imaging…", KeyStroke.getKeyStroke(KeyEvent.VK_I, MENU), e -> window.compare(true)),
                 "Interstitial iron from a pair of maps before and after FeB-pair dissociation"));
+        analysis.addSeparator();
+        analysis.add(item(action("Override defect for this wafer…", null, e -> sessions.chooseDefectOverride(false)),
+                "Convert and judge the shown wafer with another defect than its rules profile's"));
+        analysis.add(item(action("Override defect for all wafers…", null, e -> sessions.chooseDefectOverride(true)),
+                "Convert and judge every wafer with one defect instead of each rules profile's"));
+        analysis.add(item(action("Clear defect overrides", null, e -> sessions.clearDefectOverrides()),
+                "Each wafer judged with its rules profile's defect again"));
         analysis.addSeparator();
         for (DisplayedQuantity q : DisplayedQuantity.values()) {
             analysis.add(item(action("Show " + q, null, e -> model.setAnalysis(model.analysis().withQuantity(q),
