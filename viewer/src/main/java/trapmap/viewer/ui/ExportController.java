@@ -119,8 +119,7 @@ final class ExportController {
         if (p == null) {
             return;
         }
-        WaferReport.Content page = ViewerExports.reportContent(w, r, canvas.style(), model.defects().byId(r.analysis()
-                .defectId()));
+        WaferReport.Content page = ViewerExports.reportContent(w, r, canvas.style(), model.defectOf(r));
         status.setProgress(0, "report");
         new SwingWorker<Void, Void>() {
             @Override

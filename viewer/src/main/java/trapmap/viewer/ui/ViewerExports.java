@@ -11,6 +11,7 @@ import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVPrinter;
 import trapmap.maps.region.Region;
 import trapmap.physics.defect.Defect;
+import trapmap.viewer.report.WaferPages;
 import trapmap.viewer.report.WaferReport;
 import trapmap.viewer.ui.canvas.DisplayStyle;
 import trapmap.viewer.ui.model.Analysis;
@@ -44,25 +45,9 @@ public final class ViewerExports {
         return sw.toString();
     }
 
-    /** The report page of a wafer's results as shown: style, mask, flags, outline, conditions, defect, notes. */
+    /** The report page of a wafer's results as shown: style, mask, flags, outline, conditions, defect, verdict. */
     public static WaferReport.Content reportContent(ViewerModel.OpenWafer w, WaferAnalysis r, DisplayStyle style,
-                                             Defect defect) {
-        Analysis a = r.analysis();
-        List<String> notes = new ArrayList<>();
-        notes.add(String.format(Locale.ROOT, "%s: flagged regions cover %s of the evaluated area (%d regions; pixels %s"
-                + " %s %s, regions of at least %s mm^2); pass up to %s", r.pass() ? "PASS" : "FAIL",
-                trapmap.viewer.ui.model.Units.percent(r.flaggedFraction()), r.regions().size(),
-                a.threshold().side().name().toLowerCase(Locale.ROOT), trapmap.viewer.ui.model.Units.number(
-                a.threshold().value()), a.quantity().quantity().unit(), trapmap.viewer.ui.model.Units.number(
-                a.threshold().minAreaMm2()), trapmap.viewer.ui.model.Units.percent(a.threshold()
-                .maxFlaggedFraction())));
-        notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f µs, median %.1f µs over %.0f mm^2 (edge"
-                + " exclusion %s mm)", r.lifetimeStats().harmonicMean(), r.lifetimeStats().median(),
-                r.lifetimeStats().areaMm2(), trapmap.viewer.ui.model.Units.number(a.edgeExclusionMm())));
-        r.warnings().forEach(x -> notes.add("caution: " + x.message()));
-        return WaferReport.Content.of(r.displayed(), w.path().toString()).withStyle(style)
-                .withStatisticsMask(r.mask()).withFlags(a.threshold().value(), r.flagged(), r.regions())
-                .withOutline(r.shape(), a.edgeExclusionMm()).withConditions(r.lifetime().conditions())
-                .withDefect(a.quantity() == DisplayedQuantity.LIFETIME ? null : defect).withNotes(notes);
+                                                    Defect defect) {
+        return WaferPages.of(w.path(), r, style, defect);
     }
 }

@@ -48,7 +48,10 @@ class ViewerExportsTest {
                 1e10, 1e12), m.defect());
         assertThat(page.defect().id()).isEqualTo("fe-i");
         assertThat(page.regions()).isSameAs(r.regions());
-        assertThat(page.notes().get(0)).startsWith(r.pass() ? "PASS" : "FAIL").contains("cm^-3");
+        assertThat(page.judgement().pass()).isEqualTo(r.pass());
+        assertThat(page.judgement().headline()).isEqualTo("Quick threshold check: " + (r.pass() ? "PASS" : "FAIL")
+                + " (not a rules verdict)");
+        assertThat(page.judgement().rows()).anySatisfy(row -> assertThat(row[1]).contains("above 3e11 cm⁻³"));
         Path pdf = dir.resolve("w03.pdf");
         WaferReport.write(page, pdf);
         assertThat(new String(Files.readAllBytes(pdf), 0, 5, java.nio.charset.StandardCharsets.US_ASCII))

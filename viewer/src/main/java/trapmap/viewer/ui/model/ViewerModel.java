@@ -335,6 +335,11 @@ public final class ViewerModel {
         return added;
     }
 
+    /** The defect a wafer's results were converted with, or null when they hold no conversion. */
+    public Defect defectOf(WaferAnalysis r) {
+        return r == null || r.conversion() == null ? null : defects.byId(r.conversion().defectId());
+    }
+
     /** The defect of the current analysis, or null. */
     public Defect defect() {
         return defects.byId(analysis.defectId());
