@@ -140,4 +140,53 @@ final class ExportController {
             }
         }.execute();
     }
+
+    /** Saves the shown (converted) map as TIFF with its metadata, or as CSV, by the chosen name's extension. */
+    void exportMap() {
+        ViewerModel.OpenWafer w = model.selected();
+        if (w == null || w.result() == null) {
+            status.setMessage("no results to export yet");
+            return;
+        }
+        WaferAnalysis r = w.result();
+        JFileChooser fc = window.sessions().chooser();
+        fc.setFileFilter(new FileNameExtensionFilter("Maps (.tif with metadata, .csv x_mm,y_mm,value)", "tif", "tiff",
+                "csv"));
+        fc.setSelectedFile(new File(fc.getCurrentDirectory(), w.name() + "-" + r.displayed().quantity().key()
+                + ".tif"));
+        if (fc.showSaveDialog(window) != JFileChooser.APPROVE_OPTION) {
+            return;
+        }
+        Path p = fc.getSelectedFile().toPath();
+        String n = p.getFileName().toString().toLowerCase(Locale.ROOT);
+        if (!n.endsWith(".tif") && !n.endsWith(".tiff") && !n.endsWith(".csv")) {
+            p = p.resolveSibling(p.getFileName() + ".tif");
+        }
+        try {
+            ViewerExports.writeMap(r, p);
+            status.setMessage(r.displayed().quantity().key() + " map saved to " + p);
+        } catch (IOException | RuntimeException e) {
+            window.error("Map not saved", e);
+        }
+    }
+
+    /** Saves the statistics table of the shown wafer, with its verdict, as CSV. */
+    void exportStatistics() {
+        ViewerModel.OpenWafer w = model.selected();
+        if (w == null || w.result() == null) {
+            status.setMessage("no results to export yet");
+            return;
+        }
+        Path p = askSave(w.name() + "-statistics.csv", "csv", "CSV tables");
+        if (p == null) {
+            return;
+        }
+        try {
+            ViewerExports.writeAtomically(p, ViewerExports.statisticsCsv(w.result()).getBytes(
+                    StandardCharsets.UTF_8));
+            status.setMessage("statistics saved to " + p);
+        } catch (IOException e) {
+            window.error("Statistics not saved", e);
+        }
+    }
 }

@@ -7,15 +7,19 @@ import trapmap.maps.io.AtomicFiles;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import java.util.Map;
 import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVPrinter;
+import trapmap.maps.io.MapFiles;
 import trapmap.maps.region.Region;
+import trapmap.maps.stats.MapStatistics;
 import trapmap.physics.defect.Defect;
 import trapmap.viewer.report.WaferPages;
 import trapmap.viewer.report.WaferReport;
 import trapmap.viewer.ui.canvas.DisplayStyle;
 import trapmap.viewer.ui.model.Analysis;
 import trapmap.viewer.ui.model.DisplayedQuantity;
+import trapmap.viewer.ui.model.Verdict;
 import trapmap.viewer.ui.model.ViewerModel;
 import trapmap.viewer.ui.model.WaferAnalysis;
 
@@ -43,6 +47,68 @@ public final class ViewerExports {
             }
         }
         return sw.toString();
+    }
+
+    /**
+     * Writes the shown (converted) map with its metadata and history through the maps module's writers, atomically:
+     * a {@code .tif}/{@code .tiff} file reads back identically, a {@code .csv} file holds {@code x_mm,y_mm,value}.
+     *
+     * @throws trapmap.maps.io.MapFormatException for another extension
+     */
+    public static void writeMap(WaferAnalysis r, Path file) throws IOException {
+        MapFiles.write(r.displayed(), file);
+    }
+
+    /**
+     * The statistics table of a result as CSV ({@code statistic,value,unit}): the shown quantity over the evaluated
+     * pixels (count, area, mean, harmonic and geometric mean, median, standard deviation, extremes, percentiles),
+     * the lifetime's harmonic mean and median, the flagged fraction and regions, then how the wafer was judged
+     * (judged by, verdict, grade, profile, defect, failed rules, graded down by) and the judged figures by name.
+     */
+    public static String statisticsCsv(WaferAnalysis r) throws IOException {
+        String unit = csvUnit(r.displayed().quantity().unit());
+        MapStatistics s = r.displayedStats();
+        StringWriter sw = new StringWriter();
+        try (CSVPrinter csv = new CSVPrinter(sw, CSVFormat.DEFAULT.builder().setRecordSeparator("\n").get())) {
+            csv.printRecord("statistic", "value", "unit");
+            csv.printRecord("quantity", r.displayed().quantity().key(), "");
+            csv.printRecord("evaluated_pixels", s.count(), "");
+            csv.printRecord("evaluated_area", s.areaMm2(), "mm2");
+            csv.printRecord("mean", s.mean(), unit);
+            csv.printRecord("harmonic_mean", s.harmonicMean(), unit);
+            csv.printRecord("geometric_mean", s.geometricMean(), unit);
+            csv.printRecord("median", s.median(), unit);
+            csv.printRecord("standard_deviation", s.standardDeviation(), unit);
+            csv.printRecord("minimum", s.min(), unit);
+            csv.printRecord("maximum", s.max(), unit);
+            for (MapStatistics.PercentileValue p : s.percentiles()) {
+                csv.printRecord("p" + trapmap.viewer.ui.model.Units.number(p.percent()), p.value(), unit);
+            }
+            csv.printRecord("lifetime_harmonic_mean", r.lifetimeStats().harmonicMean(), "us");
+            csv.printRecord("lifetime_median", r.lifetimeStats().median(), "us");
+            csv.printRecord("flagged_area_fraction", r.flaggedFraction(), "");
+            csv.printRecord("flagged_regions", r.regions().size(), "");
+            csv.printRecord("edge_exclusion", r.edgeExclusionMm(), "mm");
+            Verdict v = r.verdict();
+            csv.printRecord("judged_by", v.rulesVerdict() ? "rules " + v.rulesName() : Verdict.QUICK_CHECK, "");
+            csv.printRecord("verdict", v.outcome(), "");
+            csv.printRecord("grade", v.grade(), "");
+            csv.printRecord("profile", v.profile(), "");
+            csv.printRecord("defect", v.defectId() == null ? "" : v.defectId(), "");
+            csv.printRecord("defect_overridden", v.defectOverridden(), "");
+            csv.printRecord("failed_rules", String.join(";", v.failedRules()), "");
+            csv.printRecord("graded_down_by", String.join(";", v.gradedDownBy()), "");
+            if (v.rulesVerdict()) {
+                for (Map.Entry<String, Double> f : v.figures().entrySet()) {
+                    csv.printRecord("figure " + f.getKey(), f.getValue(), "");
+                }
+            }
+        }
+        return sw.toString();
+    }
+
+    private static String csvUnit(String unit) {
+        return unit.replace("µs", "us").replace("^-3", "-3").replace(" ", "");
     }
 
     /** The report page of a wafer's results as shown: style, mask, flags, outline, conditions, defect, verdict. */

@@ -124,6 +124,10 @@ final class WindowMenus {
         file.add(item(action("Export view PNG…", KeyStroke.getKeyStroke(KeyEvent.VK_E, MENU), e -> exports.exportView()),
                 "Save the map view as shown (with flags and line) as a PNG picture"));
         file.add(item(action("Export chart PNG…", null, e -> exports.exportChart()), "Save the chart of the open tab as PNG"));
+        file.add(item(action("Export map TIFF/CSV…", null, e -> exports.exportMap()),
+                "Save the shown (converted) map: TIFF with its metadata and history, or CSV x_mm,y_mm,value"));
+        file.add(item(action("Export statistics CSV…", null, e -> exports.exportStatistics()),
+                "Save the statistics of the shown wafer with its verdict and judged figures as CSV"));
         file.add(item(action("Export regions CSV…", null, e -> exports.exportRegions()),
                 "Save the flagged regions of the shown wafer: id, area mm², centroid mm, peak, mean"));
         file.add(item(action("Wafer report PDF…", KeyStroke.getKeyStroke(KeyEvent.VK_P, MENU), e -> exports.report()),
