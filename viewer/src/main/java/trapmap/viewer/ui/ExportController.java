@@ -108,6 +108,7 @@ final class ExportController {
         }
     }
 
+    /** Asks for a file and writes the shown wafer's report page (Ctrl+P). */
     void report() {
         ViewerModel.OpenWafer w = model.selected();
         WaferAnalysis r = w == null ? null : w.result();
@@ -116,7 +117,17 @@ final class ExportController {
             return;
         }
         Path p = askSave(w.name() + "-report.pdf", "pdf", "PDF documents");
-        if (p == null) {
+        if (p != null) {
+            writeReport(p);
+        }
+    }
+
+    /** Writes the shown wafer's report page to {@code p} in the background (what Ctrl+P does after asking). */
+    void writeReport(Path p) {
+        ViewerModel.OpenWafer w = model.selected();
+        WaferAnalysis r = w == null ? null : w.result();
+        if (r == null || canvas.style() == null) {
+            status.setMessage("no results to report yet");
             return;
         }
         WaferReport.Content page = ViewerExports.reportContent(w, r, canvas.style(), model.defectOf(r));

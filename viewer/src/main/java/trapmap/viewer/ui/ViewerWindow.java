@@ -234,6 +234,10 @@ public final class ViewerWindow extends JFrame {
         sessions.loadSession(f);
     }
 
+    ExportController exports() {
+        return exports;
+    }
+
     SessionController sessions() {
         return sessions;
     }
