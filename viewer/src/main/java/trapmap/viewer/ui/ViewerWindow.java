@@ -293,12 +293,14 @@ public final class ViewerWindow extends JFrame {
             case RESULTS -> {
                 gallery.refresh();
                 threshold.refresh();
+                physics.showDefectInfo();
                 showSelected();
             }
             case DEFECTS -> physics.refresh();
             case RULES -> {
                 gallery.refresh();
                 threshold.refresh();
+                physics.showDefectInfo();
                 updateTitle();
                 scheduleAnalysis();
             }

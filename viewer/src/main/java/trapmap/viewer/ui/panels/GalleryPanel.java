@@ -29,8 +29,9 @@ import trapmap.viewer.ui.model.Verdict;
 import trapmap.viewer.ui.model.WaferAnalysis;
 
 /**
- * The open wafers as cards: thumbnail of the lifetime map, name, key figure with its unit, flagged area, and a
- * border green for pass and red for fail under the threshold rule (grey while not analysed).
+ * The open wafers as cards: thumbnail of the lifetime map, name, verdict (a rules file's outcome, grade and profile, or
+ * the quick threshold check's outcome), key figure with its unit, flagged area, and a border green for pass and red
+ * for fail (grey while not analysed).
  */
 public final class GalleryPanel extends JPanel {
     private static final long serialVersionUID = 1L;
@@ -210,7 +211,8 @@ public final class GalleryPanel extends JPanel {
                         + (r.regions().size() == 1 ? " region" : " regions"));
                 border = r.pass() ? PASS : FAIL;
                 Verdict v = r.verdict();
-                verdict.setText("<html><b><font color='" + (v.pass() ? "#2E8B57" : "#D03030") + "'>"
+                String colour = isSelected ? "#FFFFFF" : v.pass() ? "#2E8B57" : "#D03030";
+                verdict.setText("<html><b><font color='" + colour + "'>"
                         + (v.rulesVerdict() ? v.headline() : "check: " + v.outcome()) + "</font></b>"
                         + (v.rulesVerdict() ? " · " + v.profile() : "") + (v.defectOverridden() ? " · "
                         + v.defectId() + "*" : "") + "</html>");
@@ -220,6 +222,7 @@ public final class GalleryPanel extends JPanel {
             Color fg = isSelected ? UIManager.getColor("List.selectionForeground") : l.getForeground();
             name.setForeground(fg);
             figure.setForeground(fg);
+            verdict.setForeground(fg);
             flagged.setForeground(isSelected ? fg : UIManager.getColor("Label.disabledForeground"));
             setBackground(isSelected ? UIManager.getColor("List.selectionBackground") : l.getBackground());
             setToolTipText(w.path() + (r == null ? "" : " — " + r.key() + ", flagged area "

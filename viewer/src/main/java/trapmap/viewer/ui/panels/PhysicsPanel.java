@@ -366,7 +366,7 @@ public final class PhysicsPanel extends WidthTrackingPanel {
             defect.setModel(dm);
             Defect chosen = model.defect();
             defect.setSelectedItem(chosen);
-            defectInfo.setText(describe(chosen));
+            showDefectInfo();
             quantity.setSelectedItem(a.quantity());
             edge.setValue(a.edgeExclusionMm());
             DisplaySettings d = a.display();
@@ -412,6 +412,30 @@ public final class PhysicsPanel extends WidthTrackingPanel {
     private static String text(Double v) {
         return v == null ? "" : (v == Math.rint(v) && Math.abs(v) < 1e6 ? Long.toString(v.longValue())
                 : Double.toString(v));
+    }
+
+    /**
+     * The info box: the chosen defect, or with a rules file the defect the shown wafer was judged with (its
+     * profile's, or an override), which the choice above does not change.
+     */
+    public void showDefectInfo() {
+        ViewerModel.OpenWafer w = model.selected();
+        if (model.rules() == null) {
+            defectInfo.setText(describe(model.defect()) + (w != null && w.defectOverride() != null
+                    ? "\nthis wafer: " + w.defectOverride() + " (overridden)" : ""));
+            return;
+        }
+        trapmap.viewer.ui.model.WaferAnalysis r = w == null ? null : w.result();
+        if (r == null) {
+            defectInfo.setText("Rules " + model.rules().name() + ": each wafer is converted with its profile's"
+                    + " defect.");
+            return;
+        }
+        Defect judged = model.defectOf(r);
+        defectInfo.setText("Rules " + model.rules().name() + ": this wafer is converted with "
+                + (judged == null ? "no defect" : judged.id()) + " (profile " + r.verdict().profile()
+                + (r.verdict().defectOverridden() ? ", overridden" : "") + "); the choice above applies only where a"
+                + " profile names no defect.\n" + (judged == null ? "" : describe(judged)));
     }
 
     /** Level, cross-sections, ratio and source of a defect, for the info box and the help. */

@@ -222,6 +222,10 @@ public final class ThresholdPanel extends JPanel {
             minArea.setValue(t.minAreaMm2());
             maxFraction.setValue(t.maxFlaggedFraction() * 100);
             boolean byRules = model.rules() != null;
+            if (byRules) {
+                title.setText("<html>set by " + model.rules().name() + " (the fields below are the quick check's)"
+                        + "</html>");
+            }
             for (JComponent c : new JComponent[] {slider, value, side, minArea, maxFraction}) {
                 if (c.getClientProperty(OWN_TIP) == null) {
                     c.putClientProperty(OWN_TIP, c.getToolTipText() == null ? "" : c.getToolTipText());
@@ -238,7 +242,7 @@ public final class ThresholdPanel extends JPanel {
                 Verdict v = r.verdict();
                 summary.setText("<html>flagged <b>" + Units.percent(r.flaggedFraction()) + "</b> of "
                         + String.format(java.util.Locale.ROOT, "%.0f", r.lifetimeStats().areaMm2()) + " mm² · "
-                        + r.regions().size() + " regions</html>");
+                        + r.regions().size() + (r.regions().size() == 1 ? " region" : " regions") + "</html>");
                 verdict.setText(verdictHtml(v));
                 regions.set(r.regions().regions(), r.flagUnit());
             }
