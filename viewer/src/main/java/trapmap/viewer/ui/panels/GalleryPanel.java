@@ -70,8 +70,8 @@ public final class GalleryPanel extends JPanel {
                 model.select(list.getSelectedIndex());
             }
         });
-        list.setToolTipText("Open wafers: key figure with unit and flagged area; green border = pass, red = fail"
-                + " against the threshold rule. PageDown/PageUp step through them.");
+        list.setToolTipText("Open wafers: verdict, key figure with unit and flagged area; green border = pass, red ="
+                + " fail, by the rules file or the quick threshold check. PageDown/PageUp step through them.");
         header.setBorder(BorderFactory.createEmptyBorder(6, 8, 6, 8));
         header.setFont(header.getFont().deriveFont(java.awt.Font.BOLD));
         add(header, BorderLayout.NORTH);
