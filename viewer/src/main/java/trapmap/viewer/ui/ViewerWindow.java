@@ -376,9 +376,10 @@ public final class ViewerWindow extends JFrame {
         status.setFrameMillis(canvas.lastFrameMillis());
         if (!r.warnings().isEmpty()) {
             List<String> notes = r.warnings().stream().map(x -> x.message()).sorted().toList();
-            status.setMessage("caution: " + notes.get(0) + (notes.size() > 1 ? " (+" + (notes.size() - 1)
-                    + " more, see tooltip)" : ""));
-            status.setMessageTooltip("<html>" + String.join("<br>", notes) + "</html>");
+            status.setMessage(r.verdict().headline() + " — caution: " + notes.get(0) + (notes.size() > 1 ? " (+"
+                    + (notes.size() - 1) + " more, see tooltip)" : ""));
+            status.setMessageTooltip("<html>" + r.verdict().basis() + "<br>" + String.join("<br>", notes)
+                    + "</html>");
         } else if (w.error() == null) {
             status.setMessage(r.verdict().headline() + " — " + r.verdict().basis());
             status.setMessageTooltip(null);

@@ -96,7 +96,8 @@ public final class GuiScenario {
             System.out.printf(Locale.ROOT, "GUI-RESULT wafers=%d table=%d expected=%d model=%d threshold=%s"
                     + " fraction=%.6f title=%s summary=%s verdict=%s%n", m.size(), table, expected,
                     r.regions().size(), r.analysis().threshold().value(), r.flaggedFraction(), title,
-                    summary.replaceAll("<[^>]+>", ""), verdict.replaceAll("<[^>]+>", " "));
+                    summary.replaceAll("<[^>]+>", ""),
+                    verdict.replaceAll("<[^>]+>", " ").replaceAll("\\s+", " ").trim());
             System.out.flush();
             SwingUtilities.invokeAndWait(w::dispose);
             System.exit(0);
