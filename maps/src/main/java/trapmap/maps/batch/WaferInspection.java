@@ -113,7 +113,7 @@ public final class WaferInspection {
      * @throws IllegalArgumentException when the map cannot be judged (wrong quantity, missing conditions, no outline
      *                                  where the rules need one), with a one-line reason
      */
-    public Evaluation evaluate(String name, WaferMap read, Defect defectOverride) {
+    public Evaluation judge(String name, WaferMap read, Defect defectOverride) {
         return evaluation(name, read, null, defectOverride);
     }
 

@@ -124,7 +124,7 @@ public final class WaferAnalyzer {
     }
 
     /**
-     * Judges one wafer by a rules file with the batch's own engine ({@link WaferInspection#evaluate(String, WaferMap,
+     * Judges one wafer by a rules file with the batch's own engine ({@link WaferInspection#judge(String, WaferMap,
      * Defect)}): the verdict, grade, figures, evaluated pixels, outline and flagged regions are the batch's. The map
      * is converted for display with the defect that judged it (the profile's, or {@code override}); figures on the
      * screen are computed over the pixels the rules evaluated.
@@ -144,7 +144,7 @@ public final class WaferAnalyzer {
                                       Defect override, Defect fallback, WaferAnalysis previous,
                                       BooleanSupplier cancelled) {
         WaferMap input = read.withConditions(analysis.conditions().applyTo(read.conditions()));
-        WaferInspection.Evaluation ev = rules.inspection().evaluate(fileName, input, override);
+        WaferInspection.Evaluation ev = rules.inspection().judge(fileName, input, override);
         check(cancelled);
         WaferMap lifetime = ev.lifetime();
         Defect defect = ev.defect() != null ? ev.defect() : fallback;

@@ -85,7 +85,7 @@ class ViewerModelRulesTest {
         assertThat(m.upToDate(i)).isFalse();
         computeAll(m);
         Verdict v = m.wafer(i).result().verdict();
-        WaferInspection.Evaluation expected = new WaferInspection(Rules.read(RULES)).evaluate(W01.getFileName()
+        WaferInspection.Evaluation expected = new WaferInspection(Rules.read(RULES)).judge(W01.getFileName()
                 .toString(), m.wafer(i).map(), trapmap.physics.defect.DefectLibrary.byId("cr-i"));
         assertThat(v.defectId()).isEqualTo("cr-i");
         assertThat(v.defectOverridden()).isTrue();
