@@ -59,6 +59,11 @@ class ViewerExportsTest {
         WaferReport.write(page, pdf);
         assertThat(new String(Files.readAllBytes(pdf), 0, 5, java.nio.charset.StandardCharsets.US_ASCII))
                 .isEqualTo("%PDF-");
+        try (org.apache.pdfbox.pdmodel.PDDocument doc = org.apache.pdfbox.Loader.loadPDF(pdf.toFile())) {
+            String text = new org.apache.pdfbox.text.PDFTextStripper().getText(doc);
+            assertThat(text).contains("Quick threshold check: " + (r.pass() ? "PASS" : "FAIL")
+                    + " (not a rules verdict)").doesNotContain("grade");
+        }
     }
 
     @Test

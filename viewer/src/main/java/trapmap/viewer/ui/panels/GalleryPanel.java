@@ -213,7 +213,7 @@ public final class GalleryPanel extends JPanel {
                 Verdict v = r.verdict();
                 String colour = isSelected ? "#FFFFFF" : v.pass() ? "#2E8B57" : "#D03030";
                 verdict.setText("<html><b><font color='" + colour + "'>"
-                        + (v.rulesVerdict() ? v.headline() : "check: " + v.outcome()) + "</font></b>"
+                        + (v.rulesVerdict() ? v.headline() : "quick check: " + v.outcome()) + "</font></b>"
                         + (v.rulesVerdict() ? " · " + v.profile() : "") + (v.defectOverridden() ? " · "
                         + v.defectId() + "*" : "") + "</html>");
             }
