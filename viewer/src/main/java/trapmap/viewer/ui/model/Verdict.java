@@ -25,10 +25,12 @@ import trapmap.maps.batch.WaferResult;
  * @param gradedDownBy     for a passing wafer, the figures that kept it from a better grade
  * @param figures          the judged figures by name (the batch's {@code results.csv} columns), in their units
  * @param rule             one line stating the flag and pass rule that was applied
+ * @param conditionsOverridden true when conditions typed into the viewer replaced the sidecar's before judging (the
+ *                         batch would not see them)
  */
 public record Verdict(boolean rulesVerdict, boolean pass, String grade, String rulesName, String profile,
                       String defectId, boolean defectOverridden, List<String> failedRules, List<String> gradedDownBy,
-                      Map<String, Double> figures, String rule) {
+                      Map<String, Double> figures, String rule, boolean conditionsOverridden) {
     /** The label of the viewer's own rule, wherever it is shown. */
     public static final String QUICK_CHECK = "quick threshold check";
 
@@ -42,7 +44,7 @@ public record Verdict(boolean rulesVerdict, boolean pass, String grade, String r
     }
 
     /** The verdict of a rules evaluation by {@code rules}, read from a file named {@code rulesName}. */
-    static Verdict of(WaferInspection.Evaluation e, Rules rules, String rulesName) {
+    static Verdict of(WaferInspection.Evaluation e, Rules rules, String rulesName, boolean conditionsOverridden) {
         WaferResult r = e.result();
         Rules.Flag f = e.profile().flag();
         String rule = f.quantity().key() + (f.quantity() == Rules.FlagQuantity.LIFETIME ? " below " : " above ")
@@ -50,7 +52,8 @@ public record Verdict(boolean rulesVerdict, boolean pass, String grade, String r
                 + Units.number(f.minAreaMm2()) + " mm², edge exclusion " + Units.number(rules.edgeExclusionMm())
                 + " mm";
         return new Verdict(true, r.status() == WaferResult.Status.PASS, r.grade(), rulesName, r.profile(),
-                r.defectId(), e.defectOverridden(), r.failed(), r.gradedDownBy(), r.figures(), rule);
+                r.defectId(), e.defectOverridden(), r.failed(), r.gradedDownBy(), r.figures(), rule,
+                conditionsOverridden);
     }
 
     /** The quick threshold check of a flagged fraction against the rule's limit. */
@@ -62,13 +65,13 @@ public record Verdict(boolean rulesVerdict, boolean pass, String grade, String r
         Map<String, Double> figures = new LinkedHashMap<>();
         figures.put("flagged_area_fraction", flaggedFraction);
         return new Verdict(false, pass, "", "", "", defectId, false, pass ? List.of() : List.of(
-                "flagged_area_fraction"), List.of(), figures, rule);
+                "flagged_area_fraction"), List.of(), figures, rule, false);
     }
 
     /** The same verdict, stating that its defect replaced the usual one. */
     Verdict withDefectOverridden() {
         return new Verdict(rulesVerdict, pass, grade, rulesName, profile, defectId, true, failedRules, gradedDownBy,
-                figures, rule);
+                figures, rule, conditionsOverridden);
     }
 
     /** "pass" or "fail". */
@@ -93,7 +96,8 @@ public record Verdict(boolean rulesVerdict, boolean pass, String grade, String r
             return QUICK_CHECK + " (not a rules verdict): " + rule;
         }
         return "rules " + rulesName + ", profile " + profile + (defectId == null ? "" : ", defect " + defectId
-                + (defectOverridden ? " (overridden defect, not the profile's)" : ""));
+                + (defectOverridden ? " (overridden defect, not the profile's)" : ""))
+                + (conditionsOverridden ? ", with conditions typed into the viewer" : "");
     }
 
     /** Label–value rows for a report: verdict, grade, profile, defect, failed rules, graded down by, rule. */
@@ -114,6 +118,10 @@ public record Verdict(boolean rulesVerdict, boolean pass, String grade, String r
         rows.add(new String[] {"failed rules", failedRules.isEmpty() ? "none" : String.join(", ", failedRules)});
         rows.add(new String[] {"graded down by", gradedDownBy.isEmpty() ? "none" : String.join(", ", gradedDownBy)});
         rows.add(new String[] {"flag", rule});
+        if (conditionsOverridden) {
+            rows.add(new String[] {"conditions", "typed into the viewer, replacing the sidecar's (not what the batch"
+                    + " sees)"});
+        }
         return rows;
     }
 }

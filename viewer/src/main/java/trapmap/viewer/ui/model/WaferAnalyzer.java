@@ -186,7 +186,8 @@ public final class WaferAnalyzer {
                 : Double.NaN;
         double shownThreshold = (lifetimeFlag && q == DisplayedQuantity.LIFETIME)
                 || (!lifetimeFlag && q == DisplayedQuantity.TRAP_DENSITY) ? flag.threshold() : Double.NaN;
-        Verdict verdict = Verdict.of(ev, rules.rules(), rules.name());
+        Verdict verdict = Verdict.of(ev, rules.rules(), rules.name(),
+                !analysis.conditions().equals(ConditionOverrides.NONE));
         return new WaferAnalysis(analysis, lifetime, conv, displayed, ev.shape(), mask, life, shown, regions,
                 ev.regions().pixels(), fraction, keyFigure(q, shown, fraction), verdict, shownThreshold,
                 lifetimeFlag ? "µs" : "cm⁻³", rules.rules().edgeExclusionMm(),

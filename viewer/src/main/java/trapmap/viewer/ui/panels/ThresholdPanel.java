@@ -267,6 +267,9 @@ public final class ThresholdPanel extends JPanel {
             if (!v.gradedDownBy().isEmpty()) {
                 b.append("<br>graded down by: ").append(String.join(", ", v.gradedDownBy()));
             }
+            if (v.conditionsOverridden()) {
+                b.append("<br>with conditions typed into the viewer (not the batch's)");
+            }
             b.append("<br><font color='gray'>").append(v.rule()).append("</font>");
         } else {
             b.append(" <font color='gray'>(not a rules verdict)</font>");

@@ -57,6 +57,12 @@ class ViewerModelRulesTest {
         }
         assertThat(m.tally()).isEqualTo(new ViewerModel.Tally(4, 13, 0));
         assertThat(m.judgedBy()).isEqualTo("rules rules-example.json");
+        assertThat(m.wafer(0).result().verdict().conditionsOverridden()).isFalse();
+
+        m.setAnalysis(m.analysis().withConditions(new ConditionOverrides(null, null, null, null, null, 100.0)), "c");
+        WaferAnalysis typed = m.compute(0, () -> false);
+        assertThat(typed.verdict().conditionsOverridden()).isTrue();
+        assertThat(typed.verdict().basis()).endsWith("with conditions typed into the viewer");
     }
 
     @Test
