@@ -23,7 +23,8 @@ import trapmap.physics.defect.Defect;
 
 /**
  * The viewer's state without any Swing: the open wafers, which one is selected, the {@link Analysis} with its undo
- * history, the user-defined defects, and the derived results per wafer.
+ * history, the user-defined defects, the rules file that judges the wafers (or none: the quick threshold check), the
+ * defect overrides, and the derived results per wafer with their {@link Verdict}.
  *
  * <p>Threads: {@link #open} and {@link #compute} are heavy and meant to run off the event thread; everything else is
  * cheap. Listeners are told on the thread that made the change (a Swing view re-posts to the event thread).

@@ -21,7 +21,9 @@ import trapmap.maps.stats.StatisticsRequest;
 import trapmap.physics.defect.Defect;
 
 /**
- * Computes a {@link WaferAnalysis} with the same maps-module calls, in the same order, as the batch engine
+ * Computes a {@link WaferAnalysis}. With a rules file, {@link #judge} takes the verdict, grade, evaluated pixels,
+ * outline and flagged regions from the batch's own engine ({@link WaferInspection#judge}). Without one,
+ * {@link #analyse} runs the viewer's quick threshold check with the same maps-module calls, in the same order, as the batch engine
  * ({@link WaferInspection#evaluate}): conditions applied, PL converted to lifetime, conversion with
  * {@link ConversionSettings#DEFAULTS}, outline fitted to the lifetime's valid pixels, mask = valid lifetime ∩
  * outline less the edge exclusion (outline by {@link OutlineFits#fit}), regions and their pixels over
