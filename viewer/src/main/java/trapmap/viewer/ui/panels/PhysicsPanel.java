@@ -420,6 +420,11 @@ public final class PhysicsPanel extends WidthTrackingPanel {
      */
     public void showDefectInfo() {
         ViewerModel.OpenWafer w = model.selected();
+        edge.setEnabled(model.rules() == null);
+        edge.setToolTipText(model.rules() == null
+                ? "Band along the fitted wafer edge left out of statistics and regions, mm"
+                : "The rules file gives the edge exclusion: " + Units.number(model.rules().rules().edgeExclusionMm())
+                + " mm");
         if (model.rules() == null) {
             defectInfo.setText(describe(model.defect()) + (w != null && w.defectOverride() != null
                     ? "\nthis wafer: " + w.defectOverride() + " (overridden)" : ""));
