@@ -16,8 +16,9 @@ import picocli.CommandLine.Spec;
  * runs the demonstration batch.
  */
 @Command(name = "trapmap", mixinStandardHelpOptions = true, version = TrapmapCommand.VERSION, usageHelpAutoWidth = true,
-        subcommands = {CalcCommand.class, DefectsCommand.class, ConvertCommand.class, StatsCommand.class, CompareCommand.class, IronMapCommand.class,
-            InspectCommand.class, DemoCommand.class, ViewCommand.class},
+        subcommands = {CalcCommand.class, DefectsCommand.class, ConvertCommand.class, StatsCommand.class,
+            CompareCommand.class, IronMapCommand.class, InspectCommand.class, ReportCommand.class, DemoCommand.class,
+            ViewCommand.class},
         description = {"Converts minority-carrier lifetimes of silicon wafers into equivalent SRH trap densities.",
             "Without a command: opens the viewer on the demonstration set (no display: runs the demonstration batch).",
             ""},

@@ -7,24 +7,34 @@ import java.util.List;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
+import trapmap.maps.batch.Rules;
+import trapmap.maps.batch.RulesException;
 
 /** {@code trapmap view FILES…}: opens maps and folders in the desktop viewer. */
 @Command(name = "view", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, usageHelpAutoWidth = true,
         header = "Opens wafer maps in the desktop viewer.",
         description = {
             "Opens the given maps (TIFF or CSV with their sidecars) and folders of maps in the viewer window, or",
-            "one saved session (.json); without FILES, the bundled demonstration set. Needs a display. Returns",
+            "one saved session (.json); without FILES, the bundled demonstration set. With --rules, every wafer",
+            "is judged by the rules file exactly as 'trapmap inspect' judges it. Needs a display. Returns",
             "when the window is closed.",
             ""},
-        footer = {"", "Exit codes: 0 closed normally; 2 no display or a file that does not exist."})
+        footer = {"", "Exit codes: 0 closed normally; 2 no display, a file that does not exist or an invalid rules",
+            "file."})
 final class ViewCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
     @Parameters(index = "0..*", arity = "0..*", paramLabel = "FILES", description = "Map files, folders of maps, or one session file.")
     List<Path> files;
+
+    @Option(names = "--rules", paramLabel = "R.json", description = "Judge the wafers by this rules file, as"
+            + " 'trapmap inspect' does: each converted with its profile's defect, with the batch's verdict and grade."
+            + " Without it the viewer's quick threshold check judges them (not a rules verdict).")
+    Path rules;
 
     @Override
     public Integer call() throws IOException {
@@ -35,13 +45,20 @@ final class ViewCommand implements Callable<Integer> {
                 }
             }
         }
+        if (rules != null) {
+            try {
+                Rules.read(rules);
+            } catch (RulesException e) {
+                throw new InputException("--rules " + e.getMessage());
+            }
+        }
         if (!ViewerLaunch.displayAvailable()) {
             throw new InputException("no display available (DISPLAY is not set or does not answer); use"
                     + " 'trapmap inspect' or 'trapmap stats' for the same figures without a window");
         }
         List<Path> open = files == null || files.isEmpty()
                 ? List.of(ViewerLaunch.demoFolder(spec.commandLine().getErr())) : files;
-        ViewerLaunch.open(open);
+        ViewerLaunch.open(open, rules);
         return Exit.OK;
     }
 }

@@ -34,7 +34,12 @@ final class ViewerLaunch {
 
     /** Opens the viewer on {@code files} and returns when it is closed. */
     static void open(List<Path> files) {
-        call("open", new Class<?>[] {List.class}, files);
+        open(files, null);
+    }
+
+    /** Opens the viewer on {@code files}, judging them by the rules file {@code rules} (null: none). */
+    static void open(List<Path> files, Path rules) {
+        call("open", new Class<?>[] {List.class, Path.class}, files, rules);
     }
 
     private static Object call(String method, Class<?>[] types, Object... args) {

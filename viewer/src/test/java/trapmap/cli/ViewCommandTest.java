@@ -11,6 +11,7 @@ import java.util.regex.Pattern;
 import java.util.stream.Stream;
 import org.junit.jupiter.api.Assumptions;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
 
 /** {@code trapmap} without a command and {@code trapmap view} on a machine without a display. */
 class ViewCommandTest {
@@ -54,5 +55,15 @@ class ViewCommandTest {
         Cli.Run r = Cli.run("view", "no-such-wafer.tif");
         assertThat(r.code()).isEqualTo(2);
         assertThat(r.errLines()).containsExactly("trapmap view: no-such-wafer.tif does not exist");
+    }
+
+    @Test
+    void viewWithAnInvalidRulesFileNamesTheOptionAndTheFieldBeforeOpening(@TempDir Path dir) throws Exception {
+        Path rules = dir.resolve("bad-rules.json");
+        Files.writeString(rules, "{\"flag\": {\"quantity\": \"trap-density\", \"threshold\": 3e11}}");
+        Cli.Run r = Cli.run("view", "--rules", rules.toString(), "../demo-data");
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.errLines()).singleElement().asString().startsWith("trapmap view: --rules ")
+                .contains("bad-rules.json").contains("defect");
     }
 }

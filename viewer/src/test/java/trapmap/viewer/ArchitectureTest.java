@@ -50,6 +50,13 @@ class ArchitectureTest {
     }
 
     @Test
+    void viewerModelIsHeadless() throws IOException {
+        assertThat(uses("trapmap.viewer.model", "trapmap.viewer.ui")).isEmpty();
+        assertThat(uses("trapmap.viewer.model", "javax.swing")).isEmpty();
+        assertThat(uses("trapmap.viewer.model", "java.awt")).isEmpty();
+    }
+
+    @Test
     void sharedGraphicsUseNothingOfTheDesktopViewer() throws IOException {
         assertThat(uses("trapmap.viewer.graphics", "trapmap.viewer.ui")).isEmpty();
         assertThat(uses("trapmap.viewer.graphics", "javax.swing")).isEmpty();

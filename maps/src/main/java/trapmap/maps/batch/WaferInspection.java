@@ -104,16 +104,44 @@ public final class WaferInspection {
     }
 
     /**
-     * What an evaluation worked with, besides its result: the lifetime map, the trap-density map (null when the
-     * profile needs none), the wafer outline (null when none was fitted), the evaluated pixels and the flagged
-     * regions with their pixels.
+     * Judges a map already read exactly as {@link #inspect} does and keeps what the judgement worked with, for the
+     * viewer and the wafer report. Unlike {@link #inspect} it throws when the map cannot be judged.
+     *
+     * @param name           the file name the profile's {@code file} glob is matched against and the result names
+     * @param read           the map as read (the rules' conditions are applied here)
+     * @param defectOverride a defect replacing the profile's for trap densities, or null for the profile's own
+     * @throws IllegalArgumentException when the map cannot be judged (wrong quantity, missing conditions, no outline
+     *                                  where the rules need one), with a one-line reason
      */
-    record Evaluation(WaferResult result, WaferMap lifetime, WaferMap density, WaferShape shape,
-                      boolean[] evaluated, FlaggedRegions regions) {
+    public Evaluation judge(String name, WaferMap read, Defect defectOverride) {
+        return evaluation(name, read, null, defectOverride);
+    }
+
+    /** The rules this inspection judges by. */
+    public Rules rules() {
+        return rules;
+    }
+
+    /**
+     * What an evaluation worked with, besides its result: the lifetime map with the rules' conditions, the
+     * trap-density map at the evaluated pixels (NaN elsewhere; null when the profile needs none), the wafer outline
+     * (null when none was fitted), the evaluated pixels (index y·width + x), the flagged regions with their pixels,
+     * the rules profile that judged the wafer and the defect of its trap densities (null when none was used).
+     */
+    public record Evaluation(WaferResult result, WaferMap lifetime, WaferMap density, WaferShape shape,
+                             boolean[] evaluated, FlaggedRegions regions, Rules.Profile profile, Defect defect) {
+        /** True when the defect is not the profile's own (a per-wafer or viewer-wide override). */
+        public boolean defectOverridden() {
+            return defect != null && !defect.id().equals(profile.defectId());
+        }
     }
 
     /** As {@link #evaluate}, keeping the intermediate maps. */
     Evaluation evaluation(String name, WaferMap read, Path thumbnail) {
+        return evaluation(name, read, thumbnail, null);
+    }
+
+    private Evaluation evaluation(String name, WaferMap read, Path thumbnail, Defect defectOverride) {
         WaferMap map = read.withConditions(rules.applyTo(read.conditions()));
         WaferMap lifetime = switch (map.quantity()) {
             case EFFECTIVE_LIFETIME -> map;
@@ -152,8 +180,8 @@ public final class WaferInspection {
                 edgeRatio ? rules.edgeExclusionMm() + rules.edgeBandMm() : Double.NaN);
         // the evaluated lifetimes, packed in index order: converted, then summed and ranked (which reorders them)
         float[] lifeValues = Sample.gather(tau, masks);
-        Density converted = profile.needsTrapDensity()
-                ? trapDensity(lifetime, defects.get(profile.defectId()), lifeValues, masks) : null;
+        Defect defect = defectOverride != null ? defectOverride : defects.get(profile.defectId());
+        Density converted = profile.needsTrapDensity() ? trapDensity(lifetime, defect, lifeValues, masks) : null;
         WaferMap density = converted == null ? null : converted.map();
         Sample dens = converted == null ? null : Sample.ofPacked(converted.packed(), masks.count(), grid,
                 percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE), false);
@@ -206,9 +234,9 @@ public final class WaferInspection {
                     life.percentile(Thumbnails.HIGH_PERCENT), thumbnail);
         }
         WaferResult result = new WaferResult(name, map.waferId(), failed.isEmpty() ? WaferResult.Status.PASS
-                : WaferResult.Status.FAIL, grade, profile.name(), profile.defectId(), values, failed,
+                : WaferResult.Status.FAIL, grade, profile.name(), defect == null ? null : defect.id(), values, failed,
                 missed, regions.regions(), "", footprint, WaferResult.Worst.behind(failedFigures, worst, interior));
-        return new Evaluation(result, lifetime, density, shape, masks.evaluated(), regions);
+        return new Evaluation(result, lifetime, density, shape, masks.evaluated(), regions, profile, defect);
     }
 
     /**

@@ -58,10 +58,14 @@ public final class WaferReport {
      * @param defect          the defect of an equivalent-density map, null when none was used
      * @param regions         the flagged regions, null when none were searched
      * @param notes           further lines (conversion warnings, processing), each printed as a bullet
+     * @param judgement       how the wafer was judged (verdict, grade, rules, defect, failed rules), null for none
+     * @param regionUnit      the unit of the regions' threshold, peak and mean (the flagged quantity's, which may
+     *                        differ from the map's); null: the map's
      */
     public record Content(WaferMap map, String file, ZonedDateTime created, DisplayStyle style, Mask statisticsMask,
                           double threshold, BitSet flagged, WaferShape outline, double edgeExclusionMm,
-                          MeasurementConditions conditions, Defect defect, RegionTable regions, List<String> notes) {
+                          MeasurementConditions conditions, Defect defect, RegionTable regions, List<String> notes,
+                          Judgement judgement, String regionUnit) {
         public Content {
             if (map == null) {
                 throw new IllegalArgumentException("a wafer report needs a map");
@@ -78,48 +82,60 @@ public final class WaferReport {
         /** A page of {@code map} read from {@code file}, dated now, with nothing else known. */
         public static Content of(WaferMap map, String file) {
             return new Content(map, file, ZonedDateTime.now(), null, null, Double.NaN, null, null, 0, null, null,
-                    null, List.of());
+                    null, List.of(), null, null);
         }
 
         public Content withCreated(ZonedDateTime t) {
             return new Content(map, file, t, style, statisticsMask, threshold, flagged, outline, edgeExclusionMm,
-                    conditions, defect, regions, notes);
+                    conditions, defect, regions, notes, judgement, regionUnit);
         }
 
         public Content withStyle(DisplayStyle s) {
             return new Content(map, file, created, s, statisticsMask, threshold, flagged, outline, edgeExclusionMm,
-                    conditions, defect, regions, notes);
+                    conditions, defect, regions, notes, judgement, regionUnit);
         }
 
         public Content withStatisticsMask(Mask m) {
             return new Content(map, file, created, style, m, threshold, flagged, outline, edgeExclusionMm, conditions,
-                    defect, regions, notes);
+                    defect, regions, notes, judgement, regionUnit);
         }
 
         /** The flag threshold (map unit), the flagged pixels and the regions found. */
         public Content withFlags(double t, BitSet f, RegionTable r) {
             return new Content(map, file, created, style, statisticsMask, t, f, outline, edgeExclusionMm, conditions,
-                    defect, r, notes);
+                    defect, r, notes, judgement, regionUnit);
         }
 
         public Content withOutline(WaferShape shape, double exclusionMm) {
             return new Content(map, file, created, style, statisticsMask, threshold, flagged, shape, exclusionMm,
-                    conditions, defect, regions, notes);
+                    conditions, defect, regions, notes, judgement, regionUnit);
         }
 
         public Content withConditions(MeasurementConditions c) {
             return new Content(map, file, created, style, statisticsMask, threshold, flagged, outline,
-                    edgeExclusionMm, c, defect, regions, notes);
+                    edgeExclusionMm, c, defect, regions, notes, judgement, regionUnit);
         }
 
         public Content withDefect(Defect d) {
             return new Content(map, file, created, style, statisticsMask, threshold, flagged, outline,
-                    edgeExclusionMm, conditions, d, regions, notes);
+                    edgeExclusionMm, conditions, d, regions, notes, judgement, regionUnit);
         }
 
         public Content withNotes(List<String> n) {
             return new Content(map, file, created, style, statisticsMask, threshold, flagged, outline,
-                    edgeExclusionMm, conditions, defect, regions, n);
+                    edgeExclusionMm, conditions, defect, regions, n, judgement, regionUnit);
+        }
+
+        /** The flag threshold (in {@code unit}, the flagged quantity's), the flagged pixels and the regions found. */
+        public Content withFlags(double t, BitSet f, RegionTable r, String unit) {
+            return new Content(map, file, created, style, statisticsMask, t, f, outline, edgeExclusionMm, conditions,
+                    defect, r, notes, judgement, unit);
+        }
+
+        /** The judgement stated at the top of the page. */
+        public Content withJudgement(Judgement j) {
+            return new Content(map, file, created, style, statisticsMask, threshold, flagged, outline,
+                    edgeExclusionMm, conditions, defect, regions, notes, j, regionUnit);
         }
 
         /** The wafer id, or the file name when the map has none. */
@@ -130,6 +146,22 @@ public final class WaferReport {
             return file.isEmpty() ? "unnamed wafer" : Path.of(file).getFileName().toString();
         }
     }
+
+    /**
+     * How the wafer was judged, printed under the title.
+     *
+     * @param pass     the outcome (colours the headline)
+     * @param headline one line, e.g. "PASS - grade A" or "Quick threshold check: FAIL (not a rules verdict)"
+     * @param rows     label-value rows: rules and profile, defect, failed rules, graded down by, flag
+     */
+    public record Judgement(boolean pass, String headline, List<String[]> rows) {
+        public Judgement {
+            rows = List.copyOf(rows);
+        }
+    }
+
+    private static final java.awt.Color PASS = new java.awt.Color(0x2E8B57);
+    private static final java.awt.Color FAIL = new java.awt.Color(0xC02020);
 
     private WaferReport() {
     }
@@ -173,6 +205,13 @@ public final class WaferReport {
                     + DATE.format(c.created());
             p.text(PdfPage.fit(sub, PdfPage.REGULAR, 9, full), left, y, PdfPage.REGULAR, 9, PdfPage.MUTED);
             y += 16;
+            Judgement j = c.judgement();
+            if (j != null) {
+                p.text(PdfPage.fit(j.headline(), PdfPage.BOLD, 13, full), left, y, PdfPage.BOLD, 13, j.pass() ? PASS
+                        : FAIL);
+                y += 18;
+                y += p.table(left, y, new float[] {full * 0.16f, full * 0.84f}, null, j.rows(), 8, false) + 8;
+            }
 
             // map with colour bar (left), statistics (right)
             float mapSize = 240;
@@ -200,7 +239,7 @@ public final class WaferReport {
             y = legendY + 22;
 
             // histogram across the page
-            float histH = 170;
+            float histH = c.judgement() == null ? 170 : 120;
             p.image(ChartExport.image(HistogramChart.createChart(hist), (int) full, (int) histH, SCALE), left, y, full,
                     histH);
             y += histH + 8;
@@ -285,7 +324,7 @@ public final class WaferReport {
             return p.paragraph("No region search was made.", x, y, width, PdfPage.REGULAR, 8);
         }
         RegionCriteria k = t.criteria();
-        String unit = c.map().quantity().unit();
+        String unit = c.regionUnit() != null ? c.regionUnit() : c.map().quantity().unit();
         String summary = t.size() + " region" + (t.size() == 1 ? "" : "s") + " with values "
                 + (k.side() == RegionCriteria.Side.ABOVE ? "above " : "below ") + Labels.number(k.threshold(), unit)
                 + (k.minAreaMm2() > 0 ? " of at least " + Labels.number(k.minAreaMm2()) + " mm²" : "")

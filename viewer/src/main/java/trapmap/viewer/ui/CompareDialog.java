@@ -18,10 +18,10 @@ import trapmap.maps.model.WaferMap;
 import trapmap.physics.defect.Defect;
 import trapmap.viewer.ui.compare.CompareModel;
 import trapmap.viewer.ui.compare.ComparePanel;
-import trapmap.viewer.ui.model.Analysis;
-import trapmap.viewer.ui.model.DisplayedQuantity;
-import trapmap.viewer.ui.model.ViewerModel;
-import trapmap.viewer.ui.model.WaferAnalyzer;
+import trapmap.viewer.model.Analysis;
+import trapmap.viewer.model.DisplayedQuantity;
+import trapmap.viewer.model.ViewerModel;
+import trapmap.viewer.model.WaferAnalyzer;
 
 /**
  * Two open wafers side by side: before and after a process step (compare), or in the FeB-paired and the dissociated

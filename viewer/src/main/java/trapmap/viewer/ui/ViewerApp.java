@@ -11,8 +11,9 @@ import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.atomic.AtomicReference;
 import javax.swing.SwingUtilities;
 import javax.swing.ToolTipManager;
-import trapmap.viewer.ui.model.RecentFiles;
-import trapmap.viewer.ui.model.ViewerModel;
+import trapmap.maps.batch.RulesException;
+import trapmap.viewer.model.RecentFiles;
+import trapmap.viewer.model.ViewerModel;
 
 /** Starts the desktop viewer. The command line reaches it through {@link #open} and {@link #displayAvailable}. */
 public final class ViewerApp {
@@ -44,8 +45,17 @@ public final class ViewerApp {
      * @throws java.awt.HeadlessException when there is no display
      */
     public static void open(List<Path> files) throws InterruptedException {
+        open(files, null);
+    }
+
+    /**
+     * As {@link #open(List)}, judging the wafers by the rules file {@code rules} (null: the quick threshold check).
+     *
+     * @throws IllegalArgumentException when the rules file is not valid (the message names the file and the field)
+     */
+    public static void open(List<Path> files, Path rules) throws InterruptedException {
         CountDownLatch closed = new CountDownLatch(1);
-        ViewerWindow w = show(files);
+        ViewerWindow w = show(files, null, rules);
         w.addWindowListener(new WindowAdapter() {
             @Override
             public void windowClosed(WindowEvent e) {
@@ -68,11 +78,29 @@ public final class ViewerApp {
      * preferences) and returns it at once.
      */
     public static ViewerWindow show(List<Path> files, RecentFiles recent) {
+        return show(files, recent, null);
+    }
+
+    /**
+     * As {@link #show(List, RecentFiles)}, judging the wafers by the rules file {@code rules} (null: the quick
+     * threshold check).
+     *
+     * @throws IllegalArgumentException when the rules file is not valid
+     */
+    public static ViewerWindow show(List<Path> files, RecentFiles recent, Path rules) {
+        ViewerModel model = new ViewerModel();
+        if (rules != null) {
+            try {
+                model.loadRules(rules);
+            } catch (RulesException e) {
+                throw new IllegalArgumentException(e.getMessage(), e);
+            }
+        }
         AtomicReference<ViewerWindow> ref = new AtomicReference<>();
         Runnable create = () -> {
             FlatLightLaf.setup();
             ToolTipManager.sharedInstance().setDismissDelay(20_000);
-            ViewerWindow w = new ViewerWindow(new ViewerModel(), recent != null ? recent
+            ViewerWindow w = new ViewerWindow(model, recent != null ? recent
                     : RecentFiles.inPreferences(PREFERENCES));
             w.setLocationByPlatform(true);
             w.setVisible(true);

@@ -7,16 +7,21 @@ import trapmap.maps.io.AtomicFiles;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import java.util.Map;
 import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVPrinter;
+import trapmap.maps.io.MapFiles;
 import trapmap.maps.region.Region;
+import trapmap.maps.stats.MapStatistics;
 import trapmap.physics.defect.Defect;
+import trapmap.viewer.report.WaferPages;
 import trapmap.viewer.report.WaferReport;
 import trapmap.viewer.graphics.DisplayStyle;
-import trapmap.viewer.ui.model.Analysis;
-import trapmap.viewer.ui.model.DisplayedQuantity;
-import trapmap.viewer.ui.model.ViewerModel;
-import trapmap.viewer.ui.model.WaferAnalysis;
+import trapmap.viewer.model.Analysis;
+import trapmap.viewer.model.DisplayedQuantity;
+import trapmap.viewer.model.Verdict;
+import trapmap.viewer.model.ViewerModel;
+import trapmap.viewer.model.WaferAnalysis;
 
 /** What the window exports, built from model results without a display: region tables, report pages, files. */
 public final class ViewerExports {
@@ -44,25 +49,71 @@ public final class ViewerExports {
         return sw.toString();
     }
 
-    /** The report page of a wafer's results as shown: style, mask, flags, outline, conditions, defect, notes. */
+    /**
+     * Writes the shown (converted) map with its metadata and history through the maps module's writers, atomically:
+     * a {@code .tif}/{@code .tiff} file reads back identically, a {@code .csv} file holds {@code x_mm,y_mm,value}.
+     *
+     * @throws trapmap.maps.io.MapFormatException for another extension
+     */
+    public static void writeMap(WaferAnalysis r, Path file) throws IOException {
+        MapFiles.write(r.displayed(), file);
+    }
+
+    /**
+     * The statistics table of a result as CSV ({@code statistic,value,unit}): the shown quantity over the evaluated
+     * pixels (count, area, mean, harmonic and geometric mean, median, standard deviation, extremes, percentiles),
+     * the lifetime's harmonic mean and median, the flagged fraction and regions, then how the wafer was judged
+     * (judged by, verdict, grade, profile, defect, failed rules, graded down by) and the judged figures by name.
+     */
+    public static String statisticsCsv(WaferAnalysis r) throws IOException {
+        String unit = csvUnit(r.displayed().quantity().unit());
+        MapStatistics s = r.displayedStats();
+        StringWriter sw = new StringWriter();
+        try (CSVPrinter csv = new CSVPrinter(sw, CSVFormat.DEFAULT.builder().setRecordSeparator("\n").get())) {
+            csv.printRecord("statistic", "value", "unit");
+            csv.printRecord("quantity", r.displayed().quantity().key(), "");
+            csv.printRecord("evaluated_pixels", s.count(), "");
+            csv.printRecord("evaluated_area", s.areaMm2(), "mm2");
+            csv.printRecord("mean", s.mean(), unit);
+            csv.printRecord("harmonic_mean", s.harmonicMean(), unit);
+            csv.printRecord("geometric_mean", s.geometricMean(), unit);
+            csv.printRecord("median", s.median(), unit);
+            csv.printRecord("standard_deviation", s.standardDeviation(), unit);
+            csv.printRecord("minimum", s.min(), unit);
+            csv.printRecord("maximum", s.max(), unit);
+            for (MapStatistics.PercentileValue p : s.percentiles()) {
+                csv.printRecord("p" + trapmap.viewer.model.Units.number(p.percent()), p.value(), unit);
+            }
+            csv.printRecord("lifetime_harmonic_mean", r.lifetimeStats().harmonicMean(), "us");
+            csv.printRecord("lifetime_median", r.lifetimeStats().median(), "us");
+            csv.printRecord("flagged_area_fraction", r.flaggedFraction(), "");
+            csv.printRecord("flagged_regions", r.regions().size(), "");
+            csv.printRecord("edge_exclusion", r.edgeExclusionMm(), "mm");
+            Verdict v = r.verdict();
+            csv.printRecord("judged_by", v.rulesVerdict() ? "rules " + v.rulesName() : Verdict.QUICK_CHECK, "");
+            csv.printRecord("verdict", v.outcome(), "");
+            csv.printRecord("grade", v.grade(), "");
+            csv.printRecord("profile", v.profile(), "");
+            csv.printRecord("defect", v.defectId() == null ? "" : v.defectId(), "");
+            csv.printRecord("defect_overridden", v.defectOverridden(), "");
+            csv.printRecord("failed_rules", String.join(";", v.failedRules()), "");
+            csv.printRecord("graded_down_by", String.join(";", v.gradedDownBy()), "");
+            if (v.rulesVerdict()) {
+                for (Map.Entry<String, Double> f : v.figures().entrySet()) {
+                    csv.printRecord("figure " + f.getKey(), f.getValue(), "");
+                }
+            }
+        }
+        return sw.toString();
+    }
+
+    private static String csvUnit(String unit) {
+        return unit.replace("µs", "us").replace("^-3", "-3").replace(" ", "");
+    }
+
+    /** The report page of a wafer's results as shown: style, mask, flags, outline, conditions, defect, verdict. */
     public static WaferReport.Content reportContent(ViewerModel.OpenWafer w, WaferAnalysis r, DisplayStyle style,
-                                             Defect defect) {
-        Analysis a = r.analysis();
-        List<String> notes = new ArrayList<>();
-        notes.add(String.format(Locale.ROOT, "%s: flagged regions cover %s of the evaluated area (%d regions; pixels %s"
-                + " %s %s, regions of at least %s mm^2); pass up to %s", r.pass() ? "PASS" : "FAIL",
-                trapmap.viewer.ui.model.Units.percent(r.flaggedFraction()), r.regions().size(),
-                a.threshold().side().name().toLowerCase(Locale.ROOT), trapmap.viewer.ui.model.Units.number(
-                a.threshold().value()), a.quantity().quantity().unit(), trapmap.viewer.ui.model.Units.number(
-                a.threshold().minAreaMm2()), trapmap.viewer.ui.model.Units.percent(a.threshold()
-                .maxFlaggedFraction())));
-        notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f µs, median %.1f µs over %.0f mm^2 (edge"
-                + " exclusion %s mm)", r.lifetimeStats().harmonicMean(), r.lifetimeStats().median(),
-                r.lifetimeStats().areaMm2(), trapmap.viewer.ui.model.Units.number(a.edgeExclusionMm())));
-        r.warnings().forEach(x -> notes.add("caution: " + x.message()));
-        return WaferReport.Content.of(r.displayed(), w.path().toString()).withStyle(style)
-                .withStatisticsMask(r.mask()).withFlags(a.threshold().value(), r.flagged(), r.regions())
-                .withOutline(r.shape(), a.edgeExclusionMm()).withConditions(r.lifetime().conditions())
-                .withDefect(a.quantity() == DisplayedQuantity.LIFETIME ? null : defect).withNotes(notes);
+                                                    Defect defect) {
+        return WaferPages.of(w.path(), r, style, defect);
     }
 }

@@ -14,9 +14,9 @@ import javax.swing.JTextField;
 import javax.swing.SwingUtilities;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.region.ThresholdRegions;
-import trapmap.viewer.ui.model.RecentFiles;
-import trapmap.viewer.ui.model.ViewerModel;
-import trapmap.viewer.ui.model.WaferAnalysis;
+import trapmap.viewer.model.RecentFiles;
+import trapmap.viewer.model.ViewerModel;
+import trapmap.viewer.model.WaferAnalysis;
 
 /**
  * The real window on a display (run in its own JVM by {@link ViewerWindowGuiTest}): opens the demonstration folder,
@@ -77,6 +77,7 @@ public final class GuiScenario {
             });
             System.out.printf(Locale.ROOT, "GUI-VIEW colours=%d%n", colours);
             String summary = onEdt(() -> ((JLabel) find(w, "flaggedSummary")).getText());
+            String verdict = onEdt(() -> w.thresholdPanel().verdictText());
             String title = onEdt(w::getTitle);
             WaferAnalysis r = m.selected().result();
             int expected = ThresholdRegions.find(r.lifetime(), r.mask(), RegionCriteria.below(threshold,
@@ -93,9 +94,10 @@ public final class GuiScenario {
             System.out.printf(Locale.ROOT, "GUI-UNDO threshold=%s table=%d model=%d%n", before, undoneRows,
                     m.selected().result().regions().size());
             System.out.printf(Locale.ROOT, "GUI-RESULT wafers=%d table=%d expected=%d model=%d threshold=%s"
-                    + " fraction=%.6f title=%s summary=%s%n", m.size(), table, expected, r.regions().size(),
-                    r.analysis().threshold().value(), r.flaggedFraction(), title,
-                    summary.replaceAll("<[^>]+>", ""));
+                    + " fraction=%.6f title=%s summary=%s verdict=%s%n", m.size(), table, expected,
+                    r.regions().size(), r.analysis().threshold().value(), r.flaggedFraction(), title,
+                    summary.replaceAll("<[^>]+>", ""),
+                    verdict.replaceAll("<[^>]+>", " ").replaceAll("\\s+", " ").trim());
             System.out.flush();
             SwingUtilities.invokeAndWait(w::dispose);
             System.exit(0);
@@ -152,7 +154,7 @@ public final class GuiScenario {
         return null;
     }
 
-    private static <T> T onEdt(Callable<T> body) throws Exception {
+    static <T> T onEdt(Callable<T> body) throws Exception {
         AtomicReference<T> out = new AtomicReference<>();
         AtomicReference<Exception> fail = new AtomicReference<>();
         SwingUtilities.invokeAndWait(() -> {
@@ -168,7 +170,7 @@ public final class GuiScenario {
         return out.get();
     }
 
-    private static void waitFor(String what, Callable<Boolean> condition) throws Exception {
+    static void waitFor(String what, Callable<Boolean> condition) throws Exception {
         long end = System.nanoTime() + 60_000_000_000L;
         while (System.nanoTime() < end) {
             if (onEdt(condition)) {

@@ -5,16 +5,28 @@ import static org.assertj.core.api.Assertions.assertThat;
 import java.io.BufferedReader;
 import java.io.File;
 import java.io.InputStreamReader;
+import java.io.PrintWriter;
+import java.io.Reader;
+import java.io.StringWriter;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.HashMap;
 import java.util.List;
+import java.util.Map;
 import java.util.concurrent.TimeUnit;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import org.junit.jupiter.api.Assumptions;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.apache.commons.csv.CSVFormat;
+import org.apache.commons.csv.CSVRecord;
+import org.apache.pdfbox.Loader;
+import org.apache.pdfbox.pdmodel.PDDocument;
+import org.apache.pdfbox.text.PDFTextStripper;
+import trapmap.cli.TrapmapCommand;
 
 /**
  * Starts the real window on a display in a child JVM ({@link GuiScenario}): on the machine's display when DISPLAY is
@@ -23,8 +35,8 @@ import org.junit.jupiter.api.Test;
 class ViewerWindowGuiTest {
     private static final Path DEMO = Path.of("..", "demo-data").toAbsolutePath().normalize();
 
-    @Test
-    void thresholdTypedIntoTheWindowFlagsTheRegionsOfThresholdRegions() throws Exception {
+    /** Starts a display when DISPLAY is not set (skipping when there is no Xvfb) and runs a scenario's main class. */
+    private static String runOnDisplay(Class<?> scenario, String... args) throws Exception {
         String display = System.getenv("DISPLAY");
         Process xvfb = null;
         try {
@@ -41,7 +53,8 @@ class ViewerWindowGuiTest {
             }
             String java = Path.of(System.getProperty("java.home"), "bin", "java").toString();
             List<String> cmd = new ArrayList<>(List.of(java, "-cp", System.getProperty("java.class.path"),
-                    "-Djava.awt.headless=false", GuiScenario.class.getName(), DEMO.toString(), "120", "LOT-A01-W05"));
+                    "-Djava.awt.headless=false", scenario.getName()));
+            cmd.addAll(List.of(args));
             ProcessBuilder pb = new ProcessBuilder(cmd).redirectErrorStream(true);
             pb.environment().put("DISPLAY", display);
             Path log = Files.createTempFile("trapmap-gui", ".log");
@@ -55,29 +68,80 @@ class ViewerWindowGuiTest {
             Files.deleteIfExists(log);
             assertThat(finished).as("GUI scenario finished; output:%n%s", out).isTrue();
             assertThat(child.exitValue()).as("exit status; output:%n%s", out).isZero();
-
-            Matcher m = Pattern.compile("GUI-RESULT wafers=(\\d+) table=(\\d+) expected=(\\d+) model=(\\d+)"
-                    + " threshold=([0-9.]+)").matcher(out);
-            assertThat(m.find()).as("result line in:%n%s", out).isTrue();
-            int table = Integer.parseInt(m.group(2));
-            assertThat(Integer.parseInt(m.group(1))).as("demo maps opened").isEqualTo(17);
-            assertThat(table).as("region table rows").isEqualTo(Integer.parseInt(m.group(3)))
-                    .isEqualTo(Integer.parseInt(m.group(4))).isGreaterThan(1);
-            assertThat(Double.parseDouble(m.group(5))).isEqualTo(120.0);
-            assertThat(out).contains("title=trapmap — LOT-A01-W05.tif");
-            Matcher v = Pattern.compile("GUI-VIEW colours=(\\d+)").matcher(out);
-            assertThat(v.find()).as("view line in:%n%s", out).isTrue();
-            assertThat(Integer.parseInt(v.group(1))).as("distinct colours in the exported view").isGreaterThan(50);
-            Matcher u = Pattern.compile("GUI-UNDO threshold=([0-9.]+) table=(\\d+) model=(\\d+)").matcher(out);
-            assertThat(u.find()).as("undo line in:%n%s", out).isTrue();
-            assertThat(Double.parseDouble(u.group(1))).as("threshold after Edit ▸ Undo").isEqualTo(20.0);
-            assertThat(u.group(2)).isEqualTo(u.group(3));
-            assertThat(Integer.parseInt(u.group(2))).as("fewer regions at 20 µs than at 120 µs").isLessThan(table);
+            return out;
         } finally {
             if (xvfb != null) {
                 xvfb.destroy();
                 xvfb.waitFor(5, TimeUnit.SECONDS);
             }
+        }
+    }
+
+    @Test
+    void thresholdTypedIntoTheWindowFlagsTheRegionsOfThresholdRegions() throws Exception {
+        String out = runOnDisplay(GuiScenario.class, DEMO.toString(), "120", "LOT-A01-W05");
+        Matcher m = Pattern.compile("GUI-RESULT wafers=(\\d+) table=(\\d+) expected=(\\d+) model=(\\d+)"
+                + " threshold=([0-9.]+)").matcher(out);
+        assertThat(m.find()).as("result line in:%n%s", out).isTrue();
+        int table = Integer.parseInt(m.group(2));
+        assertThat(Integer.parseInt(m.group(1))).as("demo maps opened").isEqualTo(17);
+        assertThat(table).as("region table rows").isEqualTo(Integer.parseInt(m.group(3)))
+                .isEqualTo(Integer.parseInt(m.group(4))).isGreaterThan(1);
+        assertThat(Double.parseDouble(m.group(5))).isEqualTo(120.0);
+        assertThat(out).contains("title=trapmap — LOT-A01-W05.tif");
+        assertThat(out).as("without rules the verdict is labelled").contains("verdict=quick threshold check: fail")
+                .contains("(not a rules verdict)");
+        Matcher v = Pattern.compile("GUI-VIEW colours=(\\d+)").matcher(out);
+        assertThat(v.find()).as("view line in:%n%s", out).isTrue();
+        assertThat(Integer.parseInt(v.group(1))).as("distinct colours in the exported view").isGreaterThan(50);
+        Matcher u = Pattern.compile("GUI-UNDO threshold=([0-9.]+) table=(\\d+) model=(\\d+)").matcher(out);
+        assertThat(u.find()).as("undo line in:%n%s", out).isTrue();
+        assertThat(Double.parseDouble(u.group(1))).as("threshold after Edit ▸ Undo").isEqualTo(20.0);
+        assertThat(u.group(2)).isEqualTo(u.group(3));
+        assertThat(Integer.parseInt(u.group(2))).as("fewer regions at 20 µs than at 120 µs").isLessThan(table);
+    }
+
+    @Test
+    void withARulesFileEveryWaferShowsTheVerdictAndGradeOfInspect(@TempDir Path dir) throws Exception {
+        Path rules = DEMO.resolve("rules-example.json");
+        Path batch = dir.resolve("batch");
+        StringWriter err = new StringWriter();
+        int code = TrapmapCommand.run(new PrintWriter(new StringWriter()), new PrintWriter(err), "inspect",
+                DEMO.toString(), "--rules", rules.toString(), "--out", batch.toString(), "--no-thumbnails");
+        assertThat(code).as(err.toString()).isEqualTo(1);
+        Map<String, CSVRecord> expected = new HashMap<>();
+        try (Reader in = Files.newBufferedReader(batch.resolve("results.csv"))) {
+            for (CSVRecord row : CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).get().parse(in)) {
+                expected.put(Path.of(row.get("file")).getFileName().toString(), row);
+            }
+        }
+        Path pdf = dir.resolve("w01.pdf");
+        String out = runOnDisplay(RulesGuiScenario.class, DEMO.toString(), rules.toString(), "LOT-A01-W01",
+                pdf.toString());
+
+        Matcher m = Pattern.compile("GUI-VERDICT file=(\\S+) status=(\\S+) grade=(\\S*) profile=(\\S+)"
+                + " defect=(\\S+) rules=(\\S+)").matcher(out);
+        int seen = 0;
+        while (m.find()) {
+            CSVRecord row = expected.get(m.group(1));
+            assertThat(row).as("inspect row of %s", m.group(1)).isNotNull();
+            assertThat(m.group(2)).as("status of %s", m.group(1)).isEqualTo(row.get("status"));
+            assertThat(m.group(3)).as("grade of %s", m.group(1)).isEqualTo(row.get("grade"));
+            assertThat(m.group(4)).as("profile of %s", m.group(1)).isEqualTo(row.get("profile"));
+            assertThat(m.group(5)).as("defect of %s", m.group(1)).isEqualTo(row.get("defect"));
+            assertThat(m.group(6)).isEqualTo("true");
+            seen++;
+        }
+        assertThat(seen).as("verdict lines in:%n%s", out).isEqualTo(expected.size()).isEqualTo(17);
+        long pass = expected.values().stream().filter(r -> r.get("status").equals("pass")).count();
+        assertThat(out).contains("GUI-GALLERY 17 wafers rules rules-example.json: " + pass + " pass · "
+                + (17 - pass) + " fail");
+        CSVRecord w01 = expected.get("LOT-A01-W01.tif");
+        assertThat(out).contains("GUI-PANEL " + w01.get("status") + " · grade " + w01.get("grade")
+                + " rules-example.json · profile " + w01.get("profile"));
+        try (PDDocument doc = Loader.loadPDF(pdf.toFile())) {
+            assertThat(new PDFTextStripper().getText(doc)).contains("Verdict: "
+                    + w01.get("status").toUpperCase(java.util.Locale.ROOT) + " - grade " + w01.get("grade"));
         }
     }
 

@@ -9,7 +9,7 @@ import javax.swing.JSpinner;
 import javax.swing.JTabbedPane;
 import javax.swing.SpinnerNumberModel;
 import javax.swing.SwingConstants;
-import trapmap.viewer.ui.model.ViewerModel;
+import trapmap.viewer.model.ViewerModel;
 
 /**
  * The bottom tabs: histogram, line profile (with its band width), radial profile and the injection curve at the

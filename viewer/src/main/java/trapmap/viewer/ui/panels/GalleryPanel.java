@@ -23,13 +23,15 @@ import javax.swing.ListSelectionModel;
 import javax.swing.UIManager;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.PngStyle;
-import trapmap.viewer.ui.model.Units;
-import trapmap.viewer.ui.model.ViewerModel;
-import trapmap.viewer.ui.model.WaferAnalysis;
+import trapmap.viewer.model.Units;
+import trapmap.viewer.model.ViewerModel;
+import trapmap.viewer.model.Verdict;
+import trapmap.viewer.model.WaferAnalysis;
 
 /**
- * The open wafers as cards: thumbnail of the lifetime map, name, key figure with its unit, flagged area, and a
- * border green for pass and red for fail under the threshold rule (grey while not analysed).
+ * The open wafers as cards: thumbnail of the lifetime map, name, verdict (a rules file's outcome, grade and profile, or
+ * the quick threshold check's outcome), key figure with its unit, flagged area, and a border green for pass and red
+ * for fail (grey while not analysed).
  */
 public final class GalleryPanel extends JPanel {
     private static final long serialVersionUID = 1L;
@@ -68,8 +70,8 @@ public final class GalleryPanel extends JPanel {
                 model.select(list.getSelectedIndex());
             }
         });
-        list.setToolTipText("Open wafers: key figure with unit and flagged area; green border = pass, red = fail"
-                + " against the threshold rule. PageDown/PageUp step through them.");
+        list.setToolTipText("Open wafers: verdict, key figure with unit and flagged area; green border = pass, red ="
+                + " fail, by the rules file or the quick threshold check. PageDown/PageUp step through them.");
         header.setBorder(BorderFactory.createEmptyBorder(6, 8, 6, 8));
         header.setFont(header.getFont().deriveFont(java.awt.Font.BOLD));
         add(header, BorderLayout.NORTH);
@@ -106,12 +108,15 @@ public final class GalleryPanel extends JPanel {
         } finally {
             updating = false;
         }
-        long pass = model.wafers().stream().filter(w -> w.result() != null && w.result().pass()).count();
-        long fail = model.wafers().stream().filter(w -> w.result() != null && !w.result().pass()).count();
-        header.setText("<html>" + model.size() + " wafers<br><span style='font-weight:normal'>threshold rule: " + pass
-                + " pass · " + fail + " fail</span></html>");
-        header.setToolTipText("Pass: flagged regions cover at most the 'pass up to' share of the evaluated area"
-                + " (threshold panel). Batch grades from a rules file come from trapmap inspect.");
+        ViewerModel.Tally t = model.tally();
+        header.setName("galleryHeader");
+        header.setText("<html>" + model.size() + " wafers<br><span style='font-weight:normal'>" + model.judgedBy()
+                + ": " + t.pass() + " pass · " + t.fail() + " fail" + (t.pending() > 0 ? " · " + t.pending()
+                + " open" : "") + "</span></html>");
+        header.setToolTipText(model.rules() != null ? "Verdicts and grades of the rules file, as trapmap inspect"
+                + " gives them (File ▸ Load rules…)" : "Quick threshold check, not a rules verdict: flagged regions"
+                + " cover at most the 'pass up to' share of the evaluated area. File ▸ Load rules… judges by a rules"
+                + " file as trapmap inspect does.");
         list.repaint();
     }
 
@@ -170,6 +175,7 @@ public final class GalleryPanel extends JPanel {
         private final JLabel name = new JLabel();
         private final JLabel figure = new JLabel();
         private final JLabel flagged = new JLabel();
+        private final JLabel verdict = new JLabel();
         private Image image;
         private Color border;
         private boolean selected;
@@ -179,6 +185,7 @@ public final class GalleryPanel extends JPanel {
             add(name);
             add(figure);
             add(flagged);
+            add(verdict);
             name.setFont(name.getFont().deriveFont(java.awt.Font.BOLD));
         }
 
@@ -191,26 +198,36 @@ public final class GalleryPanel extends JPanel {
             if (w.error() != null) {
                 figure.setText("cannot analyse");
                 flagged.setText(w.error());
+                verdict.setText(" ");
                 border = Color.GRAY;
             } else if (r == null) {
                 figure.setText("analysing…");
                 flagged.setText(" ");
+                verdict.setText(" ");
                 border = Color.LIGHT_GRAY;
             } else {
                 figure.setText(r.key().toString());
                 flagged.setText(Units.percent(r.flaggedFraction()) + " flagged · " + r.regions().size()
                         + (r.regions().size() == 1 ? " region" : " regions"));
                 border = r.pass() ? PASS : FAIL;
+                Verdict v = r.verdict();
+                String colour = isSelected ? "#FFFFFF" : v.pass() ? "#2E8B57" : "#D03030";
+                verdict.setText("<html><b><font color='" + colour + "'>"
+                        + (v.rulesVerdict() ? v.headline() : "quick check: " + v.outcome()) + "</font></b>"
+                        + (v.rulesVerdict() ? " · " + v.profile() : "") + (v.defectOverridden() ? " · "
+                        + v.defectId() + "*" : "") + "</html>");
             }
             selected = isSelected;
             image = thumbnail(w);
             Color fg = isSelected ? UIManager.getColor("List.selectionForeground") : l.getForeground();
             name.setForeground(fg);
             figure.setForeground(fg);
+            verdict.setForeground(fg);
             flagged.setForeground(isSelected ? fg : UIManager.getColor("Label.disabledForeground"));
             setBackground(isSelected ? UIManager.getColor("List.selectionBackground") : l.getBackground());
             setToolTipText(w.path() + (r == null ? "" : " — " + r.key() + ", flagged area "
-                    + Units.percent(r.flaggedFraction()) + (r.pass() ? " (pass)" : " (fail)")));
+                    + Units.percent(r.flaggedFraction()) + "; " + r.verdict().headline() + " — "
+                    + r.verdict().basis()));
             return this;
         }
 
@@ -218,9 +235,10 @@ public final class GalleryPanel extends JPanel {
         public void doLayout() {
             int x = THUMB + 18;
             int w = Math.max(10, getWidth() - x - 4);
-            name.setBounds(x, 8, w, 20);
-            figure.setBounds(x, 30, w, 20);
-            flagged.setBounds(x, 52, w, 20);
+            name.setBounds(x, 4, w, 18);
+            verdict.setBounds(x, 22, w, 18);
+            figure.setBounds(x, 40, w, 18);
+            flagged.setBounds(x, 58, w, 18);
         }
 
         @Override

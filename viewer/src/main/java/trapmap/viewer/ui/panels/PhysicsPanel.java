@@ -20,12 +20,12 @@ import trapmap.maps.io.ColourMap;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.material.DopingText;
-import trapmap.viewer.ui.model.Analysis;
-import trapmap.viewer.ui.model.ConditionOverrides;
-import trapmap.viewer.ui.model.DisplaySettings;
-import trapmap.viewer.ui.model.DisplayedQuantity;
-import trapmap.viewer.ui.model.Units;
-import trapmap.viewer.ui.model.ViewerModel;
+import trapmap.viewer.model.Analysis;
+import trapmap.viewer.model.ConditionOverrides;
+import trapmap.viewer.model.DisplaySettings;
+import trapmap.viewer.model.DisplayedQuantity;
+import trapmap.viewer.model.Units;
+import trapmap.viewer.model.ViewerModel;
 
 /**
  * Measurement conditions, defect, displayed quantity, edge exclusion and colour scale. An empty condition field keeps
@@ -368,7 +368,7 @@ public final class PhysicsPanel extends WidthTrackingPanel {
             defect.setModel(dm);
             Defect chosen = model.defect();
             defect.setSelectedItem(chosen);
-            defectInfo.setText(describe(chosen));
+            showDefectInfo();
             quantity.setSelectedItem(a.quantity());
             edge.setValue(a.edgeExclusionMm());
             DisplaySettings d = a.display();
@@ -414,6 +414,35 @@ public final class PhysicsPanel extends WidthTrackingPanel {
     private static String text(Double v) {
         return v == null ? "" : (v == Math.rint(v) && Math.abs(v) < 1e6 ? Long.toString(v.longValue())
                 : Double.toString(v));
+    }
+
+    /**
+     * The info box: the chosen defect, or with a rules file the defect the shown wafer was judged with (its
+     * profile's, or an override), which the choice above does not change.
+     */
+    public void showDefectInfo() {
+        ViewerModel.OpenWafer w = model.selected();
+        edge.setEnabled(model.rules() == null);
+        edge.setToolTipText(model.rules() == null
+                ? "Band along the fitted wafer edge left out of statistics and regions, mm"
+                : "The rules file gives the edge exclusion: " + Units.number(model.rules().rules().edgeExclusionMm())
+                + " mm");
+        if (model.rules() == null) {
+            defectInfo.setText(describe(model.defect()) + (w != null && w.defectOverride() != null
+                    ? "\nthis wafer: " + w.defectOverride() + " (overridden)" : ""));
+            return;
+        }
+        trapmap.viewer.model.WaferAnalysis r = w == null ? null : w.result();
+        if (r == null) {
+            defectInfo.setText("Rules " + model.rules().name() + ": each wafer is converted with its profile's"
+                    + " defect.");
+            return;
+        }
+        Defect judged = model.defectOf(r);
+        defectInfo.setText("Rules " + model.rules().name() + ": this wafer is converted with "
+                + (judged == null ? "no defect" : judged.id()) + " (profile " + r.verdict().profile()
+                + (r.verdict().defectOverridden() ? ", overridden" : "") + "); the choice above applies only where a"
+                + " profile names no defect.\n" + (judged == null ? "" : describe(judged)));
     }
 
     /** Level, cross-sections, ratio and source of a defect, for the info box and the help. */

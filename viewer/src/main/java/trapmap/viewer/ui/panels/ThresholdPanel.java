@@ -6,6 +6,7 @@ import java.util.List;
 import java.util.function.Consumer;
 import javax.swing.BorderFactory;
 import javax.swing.JComboBox;
+import javax.swing.JComponent;
 import javax.swing.JLabel;
 import javax.swing.JPanel;
 import javax.swing.JScrollPane;
@@ -18,12 +19,13 @@ import javax.swing.SpinnerNumberModel;
 import javax.swing.table.AbstractTableModel;
 import trapmap.maps.region.Region;
 import trapmap.maps.region.RegionCriteria;
-import trapmap.viewer.ui.model.Analysis;
-import trapmap.viewer.ui.model.DisplayedQuantity;
-import trapmap.viewer.ui.model.ThresholdRule;
-import trapmap.viewer.ui.model.Units;
-import trapmap.viewer.ui.model.ViewerModel;
-import trapmap.viewer.ui.model.WaferAnalysis;
+import trapmap.viewer.model.Analysis;
+import trapmap.viewer.model.DisplayedQuantity;
+import trapmap.viewer.model.ThresholdRule;
+import trapmap.viewer.model.Units;
+import trapmap.viewer.model.Verdict;
+import trapmap.viewer.model.ViewerModel;
+import trapmap.viewer.model.WaferAnalysis;
 
 /**
  * The threshold rule on the displayed quantity: a slider (logarithmic for quantities that span decades) with a text
@@ -33,6 +35,7 @@ import trapmap.viewer.ui.model.WaferAnalysis;
 public final class ThresholdPanel extends JPanel {
     private static final long serialVersionUID = 1L;
     private static final int STEPS = 1000;
+    private static final String OWN_TIP = "trapmap.ownTooltip";
 
     private final ViewerModel model;
     private final JLabel title = new JLabel();
@@ -43,6 +46,7 @@ public final class ThresholdPanel extends JPanel {
     private final JSpinner minArea = new JSpinner(new SpinnerNumberModel(4.0, 0.0, 1e5, 1.0));
     private final JSpinner maxFraction = new JSpinner(new SpinnerNumberModel(2.0, 0.0, 100.0, 0.5));
     private final JLabel summary = new JLabel(" ");
+    private final JLabel verdict = new JLabel(" ");
     private final RegionModel regions = new RegionModel();
     private final JTable table = new JTable(regions);
     private double lo = 1;
@@ -72,6 +76,10 @@ public final class ThresholdPanel extends JPanel {
         summary.setToolTipText("Flagged area over the evaluated area (inside the edge exclusion) and the number of"
                 + " flagged regions");
         f.wide(summary);
+        verdict.setName("verdict");
+        verdict.setToolTipText("How the shown wafer was judged: a rules file's verdict and grade (as trapmap inspect"
+                + " gives them), or the quick threshold check above, which is not a rules verdict");
+        f.wide(verdict);
         f.section("Flagged regions");
         add(f, BorderLayout.NORTH);
 
@@ -213,19 +221,68 @@ public final class ThresholdPanel extends JPanel {
             side.setSelectedIndex(t.side() == RegionCriteria.Side.BELOW ? 0 : 1);
             minArea.setValue(t.minAreaMm2());
             maxFraction.setValue(t.maxFlaggedFraction() * 100);
+            boolean byRules = model.rules() != null;
+            if (byRules) {
+                title.setText("<html>set by " + model.rules().name() + " (the fields below are the quick check's)"
+                        + "</html>");
+            }
+            for (JComponent c : new JComponent[] {slider, value, side, minArea, maxFraction}) {
+                if (c.getClientProperty(OWN_TIP) == null) {
+                    c.putClientProperty(OWN_TIP, c.getToolTipText() == null ? "" : c.getToolTipText());
+                }
+                c.setEnabled(!byRules);
+                c.setToolTipText(byRules ? "The rules file sets the flag, the smallest region and the limits;"
+                        + " File ▸ Use quick threshold check to set them here" : (String) c.getClientProperty(OWN_TIP));
+            }
             if (r == null) {
                 summary.setText(w == null ? "no wafer open" : w.error() != null ? w.error() : "analysing…");
+                verdict.setText(byRules ? "judged by " + model.judgedBy() : Verdict.QUICK_CHECK);
                 regions.set(List.of(), q.unit());
             } else {
+                Verdict v = r.verdict();
                 summary.setText("<html>flagged <b>" + Units.percent(r.flaggedFraction()) + "</b> of "
                         + String.format(java.util.Locale.ROOT, "%.0f", r.lifetimeStats().areaMm2()) + " mm² · "
-                        + r.regions().size() + " regions · <b>" + (r.pass() ? "<font color='#2E8B57'>pass</font>"
-                        : "<font color='#D03030'>fail</font>") + "</b></html>");
-                regions.set(r.regions().regions(), r.analysis().quantity().unit());
+                        + r.regions().size() + (r.regions().size() == 1 ? " region" : " regions") + "</html>");
+                verdict.setText(verdictHtml(v));
+                regions.set(r.regions().regions(), r.flagUnit());
             }
         } finally {
             updating = false;
         }
+    }
+
+    private static String verdictHtml(Verdict v) {
+        String colour = v.pass() ? "#2E8B57" : "#D03030";
+        StringBuilder b = new StringBuilder("<html><b><font color='").append(colour).append("'>")
+                .append(v.rulesVerdict() ? v.headline() : Verdict.QUICK_CHECK + ": " + v.outcome())
+                .append("</font></b>");
+        if (v.rulesVerdict()) {
+            b.append("<br>").append(v.rulesName()).append(" · profile <b>").append(v.profile()).append("</b>");
+            if (v.defectId() != null) {
+                b.append(" · defect ").append(v.defectId()).append(v.defectOverridden() ? " (overridden)" : "");
+            }
+            if (!v.failedRules().isEmpty()) {
+                b.append("<br>failed: ").append(String.join(", ", v.failedRules()));
+            }
+            if (!v.gradedDownBy().isEmpty()) {
+                b.append("<br>graded down by: ").append(String.join(", ", v.gradedDownBy()));
+            }
+            if (v.conditionsOverridden()) {
+                b.append("<br>with conditions typed into the viewer (not the batch's)");
+            }
+            b.append("<br><font color='gray'>").append(v.rule()).append("</font>");
+        } else {
+            b.append(" <font color='gray'>(not a rules verdict)</font>");
+            if (v.defectOverridden()) {
+                b.append("<br>defect ").append(v.defectId()).append(" (overridden for this wafer)");
+            }
+        }
+        return b.append("</html>").toString();
+    }
+
+    /** The verdict line as shown (HTML). */
+    public String verdictText() {
+        return verdict.getText();
     }
 
     /** Number of rows in the region table. */

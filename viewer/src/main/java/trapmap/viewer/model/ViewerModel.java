@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.model;
+package trapmap.viewer.model;
 
 import java.io.IOException;
 import java.nio.file.Files;
@@ -23,14 +23,15 @@ import trapmap.physics.defect.Defect;
 
 /**
  * The viewer's state without any Swing: the open wafers, which one is selected, the {@link Analysis} with its undo
- * history, the user-defined defects, and the derived results per wafer.
+ * history, the user-defined defects, the rules file that judges the wafers (or none: the quick threshold check), the
+ * defect overrides, and the derived results per wafer with their {@link Verdict}.
  *
  * <p>Threads: {@link #open} and {@link #compute} are heavy and meant to run off the event thread; everything else is
  * cheap. Listeners are told on the thread that made the change (a Swing view re-posts to the event thread).
  */
 public final class ViewerModel {
     /** What changed. */
-    public enum Change { WAFERS, SELECTION, ANALYSIS, RESULTS, DEFECTS }
+    public enum Change { WAFERS, SELECTION, ANALYSIS, RESULTS, DEFECTS, RULES }
 
     /** Told after each change. */
     public interface Listener {
@@ -44,6 +45,8 @@ public final class ViewerModel {
         private volatile WaferAnalysis result;
         private volatile String error;
         private volatile ViewState view;
+        private volatile String defectOverride;
+        private volatile Object resultKey;
 
         OpenWafer(Path path, WaferMap map) {
             this.path = path;
@@ -83,6 +86,11 @@ public final class ViewerModel {
         public void setView(ViewState v) {
             this.view = v;
         }
+
+        /** The defect chosen for this wafer alone, replacing the rules profile's or the viewer's, or null. */
+        public String defectOverride() {
+            return defectOverride;
+        }
     }
 
     /** The outcome of {@link #open}: wafers added and one line per file that could not be read. */
@@ -95,6 +103,8 @@ public final class ViewerModel {
     private final DefectChoices defects = new DefectChoices();
     private volatile int selected = -1;
     private volatile Analysis analysis = Analysis.DEFAULT;
+    private volatile LoadedRules rules;
+    private volatile String defectOverrideAll;
 
     public void addListener(Listener l) {
         listeners.add(l);
@@ -326,17 +336,126 @@ public final class ViewerModel {
         return added;
     }
 
+    /** The defect a wafer's results were converted with, or null when they hold no conversion. */
+    public Defect defectOf(WaferAnalysis r) {
+        return r == null || r.conversion() == null ? null : defects.byId(r.conversion().defectId());
+    }
+
     /** The defect of the current analysis, or null. */
     public Defect defect() {
         return defects.byId(analysis.defectId());
+    }
+
+    // ---- rules and defect overrides ----------------------------------------------------------------------
+
+    /** The rules file that judges the open wafers, or null: then the quick threshold check judges them. */
+    public LoadedRules rules() {
+        return rules;
+    }
+
+    /**
+     * Judges every open wafer by a rules file from now on (each converted with its profile's defect unless
+     * overridden). Checks the whole file first; on error nothing changes.
+     *
+     * @throws trapmap.maps.batch.RulesException naming the file and the field when it is not valid
+     */
+    public LoadedRules loadRules(Path file) throws trapmap.maps.batch.RulesException {
+        setRules(LoadedRules.read(file));
+        return rules;
+    }
+
+    /** Uses {@code r} (null: the quick threshold check) and tells the listeners. */
+    public void setRules(LoadedRules r) {
+        rules = r;
+        fire(Change.RULES);
+    }
+
+    /** The defect that replaces every wafer's (the rules profile's, or the viewer's), or null for none. */
+    public String defectOverrideAll() {
+        return defectOverrideAll;
+    }
+
+    /**
+     * Judges every wafer with defect {@code id} instead of its rules profile's (null: each profile's own again). With
+     * no rules file the viewer's defect choice already applies to all wafers.
+     */
+    public void setDefectOverrideAll(String id) {
+        requireDefect(id);
+        defectOverrideAll = id;
+        fire(Change.RULES);
+    }
+
+    /** Judges wafer {@code i} with defect {@code id} (null: no override for it). */
+    public void setDefectOverride(int i, String id) {
+        requireDefect(id);
+        wafers.get(i).defectOverride = id;
+        fire(Change.RULES);
+    }
+
+    private void requireDefect(String id) {
+        if (id != null && defects.byId(id) == null) {
+            throw new IllegalArgumentException("unknown defect '" + id + "'; choose a library defect with absolute"
+                    + " cross-sections or add one");
+        }
+    }
+
+    /** The defect override in force for a wafer: its own, else (with rules) the one for all wafers; or null. */
+    public String overrideFor(OpenWafer w) {
+        String own = w.defectOverride;
+        return own != null ? own : rules != null ? defectOverrideAll : null;
+    }
+
+    /**
+     * Counts of the open wafers by their latest verdict.
+     *
+     * @param pass    wafers that pass
+     * @param fail    wafers that fail
+     * @param pending wafers not judged yet or that could not be analysed
+     */
+    public record Tally(int pass, int fail, int pending) {
+    }
+
+    /** The open wafers counted by their latest verdict. */
+    public Tally tally() {
+        int pass = 0;
+        int fail = 0;
+        for (OpenWafer w : wafers) {
+            WaferAnalysis r = w.result;
+            if (r == null) {
+                continue;
+            }
+            if (r.pass()) {
+                pass++;
+            } else {
+                fail++;
+            }
+        }
+        return new Tally(pass, fail, wafers.size() - pass - fail);
+    }
+
+    /** What judges the wafers, as shown on screen: the rules file's name, or the quick threshold check. */
+    public String judgedBy() {
+        LoadedRules r = rules;
+        return r == null ? Verdict.QUICK_CHECK + " (no rules file)" : "rules " + r.name();
+    }
+
+    /** What a wafer's results depend on besides the analysis: the rules and the defect override. */
+    private record ResultKey(LoadedRules rules, String override) {
+    }
+
+    private Analysis effectiveAnalysis(OpenWafer w) {
+        String o = overrideFor(w);
+        return rules == null && o != null ? analysis.withDefect(o) : analysis;
     }
 
     // ---- results -----------------------------------------------------------------------------------------
 
     /** True when wafer {@code i} has results for the current settings (display and line aside). */
     public boolean upToDate(int i) {
-        WaferAnalysis r = wafers.get(i).result;
-        return r != null && r.analysis().sameResults(analysis);
+        OpenWafer w = wafers.get(i);
+        WaferAnalysis r = w.result;
+        return r != null && r.analysis().sameResults(effectiveAnalysis(w))
+                && new ResultKey(rules, overrideFor(w)).equals(w.resultKey);
     }
 
     /**
@@ -348,9 +467,12 @@ public final class ViewerModel {
      */
     public WaferAnalysis compute(int i, BooleanSupplier cancelled) {
         OpenWafer w = wafers.get(i);
-        Analysis a = analysis;
+        LoadedRules lr = rules;
+        String override = overrideFor(w);
+        ResultKey key = new ResultKey(lr, override);
+        Analysis a = lr == null && override != null ? analysis.withDefect(override) : analysis;
         WaferAnalysis old = w.result;
-        if (old != null && old.analysis().sameResults(a)) {
+        if (old != null && old.analysis().sameResults(a) && key.equals(w.resultKey)) {
             return old;
         }
         try {
@@ -358,8 +480,18 @@ public final class ViewerModel {
             if (a.defectId() != null && d == null) {
                 throw new IllegalArgumentException("unknown defect '" + a.defectId() + "'");
             }
-            WaferAnalysis r = WaferAnalyzer.analyse(w.map, a, d, old, cancelled);
+            WaferAnalysis r;
+            if (lr != null) {
+                r = WaferAnalyzer.judge(w.path.getFileName().toString(), w.map, a, lr,
+                        override == null ? null : defects.byId(override), d, old, cancelled);
+            } else {
+                r = WaferAnalyzer.analyse(w.map, a, d, old, cancelled);
+                if (override != null) {
+                    r = r.withVerdict(r.verdict().withDefectOverridden());
+                }
+            }
             w.result = r;
+            w.resultKey = key;
             w.error = null;
             fire(Change.RESULTS);
             return r;

@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.model;
+package trapmap.viewer.model;
 
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
@@ -49,6 +49,45 @@ class SessionFilesTest {
         String text = Files.readString(f);
         assertThat(text).contains("\"version\" : 1").contains("\"maps/w1.tif\"").contains("\"min_area_mm2\"");
         assertThat(dir).isDirectoryNotContaining("glob:**.tmp");
+    }
+
+    @Test
+    void rulesFileAndDefectOverridesAreRememberedAndRestored() throws Exception {
+        Path demo = ViewerModelTest.DEMO;
+        ViewerModel m = new ViewerModel();
+        m.open(List.of(demo.resolve("LOT-A01-W01.tif"), demo.resolve("LOT-N01-W01.tif")));
+        m.loadRules(demo.resolve("rules-example.json"));
+        m.setDefectOverride(1, "cr-i");
+        m.setDefectOverrideAll("midgap");
+        Path f = dir.resolve("judged.trapmap.json");
+        SessionFiles.write(Session.of(m), f);
+        assertThat(Files.readString(f)).contains("\"rules\" : \"" + demo.resolve("rules-example.json") + "\"")
+                .contains("\"defect_for_all\" : \"midgap\"");
+
+        ViewerModel back = new ViewerModel();
+        ViewerModel.OpenOutcome o = SessionFiles.read(f).applyTo(back);
+        assertThat(o.errors()).isEmpty();
+        assertThat(back.rules().file()).isEqualTo(demo.resolve("rules-example.json"));
+        assertThat(back.defectOverrideAll()).isEqualTo("midgap");
+        assertThat(back.wafer(back.indexOf(demo.resolve("LOT-N01-W01.tif"))).defectOverride()).isEqualTo("cr-i");
+        assertThat(back.wafer(back.indexOf(demo.resolve("LOT-A01-W01.tif"))).defectOverride()).isNull();
+        assertThat(back.compute(0, () -> false).verdict().rulesVerdict()).isTrue();
+
+        Files.writeString(f, Files.readString(f).replace("\"midgap\"", "\"no-such\""));
+        assertThatThrownBy(() -> SessionFiles.read(f)).hasMessageContaining("defect_for_all")
+                .hasMessageContaining("no-such");
+    }
+
+    @Test
+    void aSessionWhoseRulesFileIsGoneOpensWithTheQuickCheck() throws Exception {
+        Path w01 = ViewerModelTest.DEMO.resolve("LOT-A01-W01.tif");
+        Session s = new Session(List.of(w01), 0, Analysis.DEFAULT, List.of(), Map.of(), dir.resolve("gone.json"),
+                null, Map.of());
+        ViewerModel m = new ViewerModel();
+        ViewerModel.OpenOutcome o = s.applyTo(m);
+        assertThat(o.added()).isEqualTo(1);
+        assertThat(o.errors()).singleElement().asString().contains("gone.json");
+        assertThat(m.rules()).isNull();
     }
 
     @Test

@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.model;
+package trapmap.viewer.model;
 
 /**
  * Zoom and centre of a wafer's map view, kept per wafer and in sessions.

@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.model;
+package trapmap.viewer.model;
 
 import java.util.BitSet;
 import java.util.Set;
@@ -6,6 +6,7 @@ import java.util.concurrent.CancellationException;
 import java.util.function.BooleanSupplier;
 import trapmap.maps.batch.FlaggedRegions;
 import trapmap.maps.batch.OutlineFits;
+import trapmap.maps.batch.Rules;
 import trapmap.maps.batch.WaferInspection;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.model.WaferMap;
@@ -20,7 +21,9 @@ import trapmap.maps.stats.StatisticsRequest;
 import trapmap.physics.defect.Defect;
 
 /**
- * Computes a {@link WaferAnalysis} with the same maps-module calls, in the same order, as the batch engine
+ * Computes a {@link WaferAnalysis}. With a rules file, {@link #judge} takes the verdict, grade, evaluated pixels,
+ * outline and flagged regions from the batch's own engine ({@link WaferInspection#judge}). Without one,
+ * {@link #analyse} runs the viewer's quick threshold check with the same maps-module calls, in the same order, as the batch engine
  * ({@link WaferInspection#evaluate}): conditions applied, PL converted to lifetime, conversion with
  * {@link ConversionSettings#DEFAULTS}, outline fitted to the lifetime's valid pixels, mask = valid lifetime ∩
  * outline less the edge exclusion (outline by {@link OutlineFits#fit}), regions and their pixels over
@@ -115,16 +118,92 @@ public final class WaferAnalyzer {
                 : ThresholdRegions.find(displayed, mask, criteria, null);
         BitSet flagged = found.pixels();
         double fraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
-        WaferAnalysis.KeyFigure key = switch (q) {
+        Verdict verdict = Verdict.quick(fraction, analysis.threshold(), q.unit(), defect == null ? null
+                : defect.id());
+        return new WaferAnalysis(analysis, lifetime, conv, displayed, shape, mask, life, shown, regions, flagged,
+                fraction, keyFigure(q, shown, fraction), verdict, analysis.threshold().value(), q.unit(),
+                analysis.edgeExclusionMm(), conv == null ? Set.of() : conv.warnings());
+    }
+
+    /**
+     * Judges one wafer by a rules file with the batch's own engine ({@link WaferInspection#judge(String, WaferMap,
+     * Defect)}): the verdict, grade, figures, evaluated pixels, outline and flagged regions are the batch's. The map
+     * is converted for display with the defect that judged it (the profile's, or {@code override}); figures on the
+     * screen are computed over the pixels the rules evaluated.
+     *
+     * @param fileName  the file name (the profiles' {@code file} globs match it)
+     * @param read      the map as read
+     * @param analysis  the viewer's settings: its condition overrides apply before the rules' conditions; its
+     *                  threshold and edge exclusion are not used (the rules give them)
+     * @param rules     the loaded rules
+     * @param override  a defect replacing the profile's, or null
+     * @param fallback  the defect for showing trap densities of a wafer whose profile uses none, or null
+     * @param previous  earlier results of the same map, or null: its conversion is reused for the same conditions
+     *                  and defect
+     * @param cancelled polled between the steps
+     */
+    public static WaferAnalysis judge(String fileName, WaferMap read, Analysis analysis, LoadedRules rules,
+                                      Defect override, Defect fallback, WaferAnalysis previous,
+                                      BooleanSupplier cancelled) {
+        WaferMap input = read.withConditions(analysis.conditions().applyTo(read.conditions()));
+        WaferInspection.Evaluation ev = rules.inspection().judge(fileName, input, override);
+        check(cancelled);
+        WaferMap lifetime = ev.lifetime();
+        Defect defect = ev.defect() != null ? ev.defect() : fallback;
+        MapConversion.Result conv = null;
+        if (previous != null && previous.conversion() != null && defect != null
+                && previous.conversion().defectId().equals(defect.id())
+                && previous.lifetime().conditions().equals(lifetime.conditions())) {
+            conv = previous.conversion();
+        }
+        if (conv == null && defect != null && defect.hasAbsoluteCrossSections()) {
+            conv = convert(lifetime, defect);
+        }
+        check(cancelled);
+        DisplayedQuantity q = analysis.quantity();
+        WaferMap displayed;
+        if (q == DisplayedQuantity.LIFETIME) {
+            displayed = lifetime;
+        } else if (conv == null) {
+            throw new IllegalArgumentException("showing the " + q.label() + " needs a defect with absolute capture"
+                    + " cross-sections");
+        } else {
+            displayed = conv.get(q.quantity());
+        }
+        boolean[] evaluated = ev.evaluated();
+        Mask mask = Mask.of(lifetime.width(), lifetime.height(), i -> evaluated[i]);
+        MapStatistics life = MapStatistics.of(lifetime, mask, StatisticsRequest.of(LIFETIME_PERCENTS));
+        MapStatistics shown = displayed == lifetime ? life : MapStatistics.of(displayed, mask.and(
+                Mask.valid(displayed.raster())), StatisticsRequest.of(LIFETIME_PERCENTS));
+        check(cancelled);
+        Rules.Flag flag = ev.profile().flag();
+        boolean lifetimeFlag = flag.quantity() == Rules.FlagQuantity.LIFETIME;
+        RegionCriteria criteria = lifetimeFlag ? RegionCriteria.below(flag.threshold(), flag.minAreaMm2())
+                : RegionCriteria.above(flag.threshold(), flag.minAreaMm2());
+        RegionTable regions = new RegionTable(ev.regions().regions().stream().map(FlaggedRegions.FlaggedRegion::region)
+                .toList(), criteria, ev.shape() != null ? RegionTable.EdgeReference.WAFER_SHAPE
+                : RegionTable.EdgeReference.DATA_OUTLINE);
+        Double judged = ev.result().figures().get("flagged_area_fraction");
+        double fraction = judged != null ? judged : life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2()
+                : Double.NaN;
+        double shownThreshold = (lifetimeFlag && q == DisplayedQuantity.LIFETIME)
+                || (!lifetimeFlag && q == DisplayedQuantity.TRAP_DENSITY) ? flag.threshold() : Double.NaN;
+        Verdict verdict = Verdict.of(ev, rules.rules(), rules.name(),
+                !analysis.conditions().equals(ConditionOverrides.NONE));
+        return new WaferAnalysis(analysis, lifetime, conv, displayed, ev.shape(), mask, life, shown, regions,
+                ev.regions().pixels(), fraction, keyFigure(q, shown, fraction), verdict, shownThreshold,
+                lifetimeFlag ? "µs" : "cm⁻³", rules.rules().edgeExclusionMm(),
+                conv == null ? Set.of() : conv.warnings());
+    }
+
+    private static WaferAnalysis.KeyFigure keyFigure(DisplayedQuantity q, MapStatistics shown, double fraction) {
+        return switch (q) {
             case LIFETIME, SRH_LIFETIME -> new WaferAnalysis.KeyFigure(q == DisplayedQuantity.LIFETIME ? "τ_hm"
                     : "τ_SRH,hm", shown.harmonicMean(), "µs");
             case TRAP_DENSITY -> new WaferAnalysis.KeyFigure("N_t P95", shown.percentile(95), "cm⁻³");
             case OCCUPANCY -> new WaferAnalysis.KeyFigure("f_t median", shown.median(), "");
             case STATUS -> new WaferAnalysis.KeyFigure("flagged", fraction * 100, "%");
         };
-        boolean pass = !Double.isNaN(fraction) && fraction <= analysis.threshold().maxFlaggedFraction();
-        return new WaferAnalysis(analysis, lifetime, conv, displayed, shape, mask, life, shown, regions, flagged,
-                fraction, key, pass, conv == null ? Set.of() : conv.warnings());
     }
 
     private static void check(BooleanSupplier cancelled) {

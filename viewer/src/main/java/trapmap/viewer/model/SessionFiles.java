@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.model;
+package trapmap.viewer.model;
 
 import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.core.JsonProcessingException;
@@ -41,7 +41,10 @@ import trapmap.physics.defect.Defect;
  *  "threshold": {"value": 3e11, "side": "above", "min_area_mm2": 4, "max_flagged_fraction": 0.02},
  *  "line": {"x0_mm": -50, "y0_mm": 0, "x1_mm": 50, "y1_mm": 0, "band_width_mm": 2},   (or null)
  *  "edge_exclusion_mm": 2,
- *  "views": {"wafers/w07.tif": {"zoom": 2, "centre_x_px": 128, "centre_y_px": 128}}}
+ *  "views": {"wafers/w07.tif": {"zoom": 2, "centre_x_px": 128, "centre_y_px": 128}},
+ *  "rules": "rules-example.json",          (or null: the quick threshold check)
+ *  "defect_for_all": null,                  (a defect replacing every rules profile's)
+ *  "defect_overrides": {"wafers/w07.tif": "cr-i"}}   (per file)
  * </pre>
  * Unknown keys are errors; every error names the file and the field (with its unit). Writing is atomic.
  */
@@ -55,7 +58,8 @@ public final class SessionFiles {
             .enable(SerializationFeature.INDENT_OUTPUT);
 
     private static final Set<String> KEYS = Set.of("format", "version", "files", "selected", "conditions", "defect",
-            "user_defects", "quantity", "display", "threshold", "line", "edge_exclusion_mm", "views");
+            "user_defects", "quantity", "display", "threshold", "line", "edge_exclusion_mm", "views", "rules",
+            "defect_for_all", "defect_overrides");
 
     /** A session file that cannot be used; the message names the file and the field. */
     public static final class SessionException extends IOException {
@@ -133,6 +137,15 @@ public final class SessionFiles {
             v.put("centre_x_px", e.getValue().centreXPx());
             v.put("centre_y_px", e.getValue().centreYPx());
         });
+        if (s.rules() == null) {
+            root.putNull("rules");
+        } else {
+            root.put("rules", rel(s.rules(), dir));
+        }
+        root.put("defect_for_all", s.defectForAll());
+        ObjectNode on = root.putObject("defect_overrides");
+        s.defects().entrySet().stream().sorted(Map.Entry.comparingByKey()).forEach(e -> on.put(rel(e.getKey(), dir),
+                e.getValue()));
         try {
             return JSON.writeValueAsString(root) + "\n";
         } catch (JsonProcessingException e) {
@@ -379,7 +392,35 @@ public final class SessionFiles {
                 }
             }
         }
-        return new Session(files, files.isEmpty() ? -1 : selected, analysis, userDefects, views);
+        Path rules = root.has("rules") && !root.get("rules").isNull() ? resolve(r.text(root, "rules", true), dir)
+                : null;
+        String forAll = root.has("defect_for_all") && !root.get("defect_for_all").isNull()
+                ? knownDefect(r, r.text(root, "defect_for_all", true), "defect_for_all", userDefects) : null;
+        Map<Path, String> overrides = new LinkedHashMap<>();
+        JsonNode on = root.get("defect_overrides");
+        if (on != null && !on.isNull()) {
+            r.object(on, "defect_overrides");
+            for (var it = on.fields(); it.hasNext(); ) {
+                var e = it.next();
+                String f = "defect_overrides." + e.getKey();
+                if (!e.getValue().isTextual()) {
+                    throw r.error(f, "", "must be a defect id");
+                }
+                overrides.put(resolve(e.getKey(), dir), knownDefect(r, e.getValue().asText(), f, userDefects));
+            }
+        }
+        return new Session(files, files.isEmpty() ? -1 : selected, analysis, userDefects, views, rules, forAll,
+                overrides);
+    }
+
+    private static String knownDefect(Reader r, String id, String field, List<Defect> userDefects)
+            throws SessionException {
+        if (userDefects.stream().noneMatch(d -> d.id().equals(id))
+                && DefectChoices.library().stream().noneMatch(d -> d.id().equals(id))) {
+            throw r.error(field, "", "'" + id + "' is neither a library defect with absolute cross-sections nor one"
+                    + " of user_defects");
+        }
+        return id;
     }
 
     private static Path resolve(String p, Path dir) {

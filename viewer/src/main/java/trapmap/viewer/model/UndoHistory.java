@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.model;
+package trapmap.viewer.model;
 
 import java.util.ArrayDeque;
 import java.util.Deque;

@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.model;
+package trapmap.viewer.model;
 
 import trapmap.maps.region.RegionCriteria;
 import trapmap.shared.check.Checks;

@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.model;
+package trapmap.viewer.model;
 
 import static org.assertj.core.api.Assertions.assertThat;
 

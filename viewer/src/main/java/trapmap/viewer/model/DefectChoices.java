@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.model;
+package trapmap.viewer.model;
 
 import java.io.IOException;
 import java.nio.file.Path;

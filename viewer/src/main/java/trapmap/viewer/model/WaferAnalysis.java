@@ -1,4 +1,4 @@
-package trapmap.viewer.ui.model;
+package trapmap.viewer.model;
 
 import java.util.BitSet;
 import java.util.Set;
@@ -25,13 +25,23 @@ import trapmap.physics.conversion.ConversionWarning;
  * @param flagged         flagged pixels (bit {@code y·width + x}), the pixels of {@code regions}
  * @param flaggedFraction area of the regions over the evaluated area (the batch's flagged_area_fraction)
  * @param key             the gallery's key figure
- * @param pass            true when the flagged fraction is within the rule's limit
+ * @param verdict         how the wafer was judged: a rules verdict or the quick threshold check
+ * @param flagThreshold   the flag threshold in the displayed quantity's unit, NaN when the flag is on another
+ *                        quantity (a rules flag on trap density while the lifetime is shown)
+ * @param flagUnit        the unit of the regions' peak and mean values (the flagged quantity's)
+ * @param edgeExclusionMm the edge exclusion the evaluated pixels leave out, mm (the rules' with a rules file)
  * @param warnings        cautions of the conversion
  */
 public record WaferAnalysis(Analysis analysis, WaferMap lifetime, MapConversion.Result conversion,
                             WaferMap displayed, WaferShape shape, Mask mask, MapStatistics lifetimeStats,
                             MapStatistics displayedStats, RegionTable regions, BitSet flagged,
-                            double flaggedFraction, KeyFigure key, boolean pass, Set<ConversionWarning> warnings) {
+                            double flaggedFraction, KeyFigure key, Verdict verdict, double flagThreshold,
+                            String flagUnit, double edgeExclusionMm, Set<ConversionWarning> warnings) {
+
+    /** The verdict's outcome. */
+    public boolean pass() {
+        return verdict.pass();
+    }
 
     /**
      * The figure a gallery card shows.
@@ -50,5 +60,11 @@ public record WaferAnalysis(Analysis analysis, WaferMap lifetime, MapConversion.
     /** Largest flagged region's area, mm² (0 when none). */
     public double largestRegionMm2() {
         return regions.size() == 0 ? 0 : regions.byArea().get(0).areaMm2();
+    }
+
+    /** The same results with another verdict. */
+    WaferAnalysis withVerdict(Verdict v) {
+        return new WaferAnalysis(analysis, lifetime, conversion, displayed, shape, mask, lifetimeStats, displayedStats,
+                regions, flagged, flaggedFraction, key, v, flagThreshold, flagUnit, edgeExclusionMm, warnings);
     }
 }

@@ -1,0 +1,119 @@
+package trapmap.viewer.report;
+
+import java.io.IOException;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import trapmap.maps.batch.RulesException;
+import trapmap.physics.defect.Defect;
+import trapmap.shared.error.InvalidValueException;
+import trapmap.viewer.graphics.DisplayStyle;
+import trapmap.viewer.model.DisplayedQuantity;
+import trapmap.viewer.model.Units;
+import trapmap.viewer.model.Verdict;
+import trapmap.viewer.model.ViewerModel;
+import trapmap.viewer.model.WaferAnalysis;
+
+/**
+ * The wafer report page of one wafer's viewer results, the same for the window (Ctrl+P) and for
+ * {@code trapmap report}: the map as shown, its statistics mask, flags and outline, the conditions, the defect, the
+ * notes and the verdict (a rules verdict with grade, profile, defect, failed rules and graded-down-by, or the quick
+ * threshold check stated as not being one). No display needed.
+ */
+public final class WaferPages {
+    private WaferPages() {
+    }
+
+    /**
+     * What {@link #write} judged.
+     *
+     * @param pass         the outcome
+     * @param headline     outcome and grade in one line, e.g. "pass · grade A"
+     * @param basis        rules file, profile and defect (and whether it was overridden)
+     * @param failedRules  figures outside their limits
+     * @param gradedDownBy figures that kept a passing wafer from a better grade
+     */
+    public record Written(boolean pass, String headline, String basis, List<String> failedRules,
+                          List<String> gradedDownBy) {
+    }
+
+    /**
+     * Judges one map by a rules file with the viewer's headless model (the batch's engine underneath) and writes its
+     * report page, atomically; no display needed.
+     *
+     * @param map            the map file
+     * @param rulesFile      the rules file
+     * @param quantityKey    the quantity shown on the page ({@link DisplayedQuantity#key()})
+     * @param defectOverride a defect id replacing the rules profile's, or null
+     * @param pdf            the report to write
+     * @throws RulesException        when the rules file is not valid (naming the file and the field)
+     * @throws InvalidValueException with field {@code quantity}, {@code defect} or {@code map} for a value that
+     *                               cannot be used (an unknown quantity or defect, a map that cannot be read or judged)
+     */
+    public static Written write(Path map, Path rulesFile, String quantityKey, String defectOverride, Path pdf)
+            throws IOException, RulesException {
+        DisplayedQuantity q;
+        try {
+            q = DisplayedQuantity.ofKey(quantityKey);
+        } catch (IllegalArgumentException e) {
+            throw new InvalidValueException("quantity", "", e.getMessage());
+        }
+        ViewerModel model = new ViewerModel();
+        model.loadRules(rulesFile);
+        ViewerModel.OpenOutcome opened = model.open(List.of(map));
+        if (model.size() != 1) {
+            throw new InvalidValueException("map", "", opened.errors().isEmpty() ? map + ": not a map"
+                    : opened.errors().get(0));
+        }
+        if (defectOverride != null) {
+            try {
+                model.setDefectOverride(0, defectOverride);
+            } catch (IllegalArgumentException e) {
+                throw new InvalidValueException("defect", "", e.getMessage());
+            }
+        }
+        model.setAnalysis(model.analysis().withQuantity(q), "quantity");
+        WaferAnalysis r = model.compute(0, () -> false);
+        if (r == null) {
+            throw new InvalidValueException("map", "", model.wafer(0).error());
+        }
+        WaferReport.write(of(model.wafer(0).path(), r, null, model.defectOf(r)), pdf);
+        Verdict v = r.verdict();
+        return new Written(v.pass(), v.headline(), v.basis(), v.failedRules(), v.gradedDownBy());
+    }
+
+    /**
+     * The page.
+     *
+     * @param file   the map's file
+     * @param r      the wafer's results
+     * @param style  colours and range as shown, or null for the report's default
+     * @param defect the defect of {@code r}'s conversion, or null when none was converted
+     */
+    public static WaferReport.Content of(Path file, WaferAnalysis r, DisplayStyle style, Defect defect) {
+        List<String> notes = new ArrayList<>();
+        notes.add(String.format(Locale.ROOT, "flagged regions cover %s of the evaluated area (%d regions)",
+                Units.percent(r.flaggedFraction()), r.regions().size()));
+        notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f µs, median %.1f µs over %.0f mm^2 (edge"
+                + " exclusion %s mm)", r.lifetimeStats().harmonicMean(), r.lifetimeStats().median(),
+                r.lifetimeStats().areaMm2(), Units.number(r.edgeExclusionMm())));
+        r.warnings().forEach(x -> notes.add("caution: " + x.message()));
+        return WaferReport.Content.of(r.displayed(), file.toString()).withStyle(style)
+                .withStatisticsMask(r.mask()).withFlags(r.flagThreshold(), r.flagged(), r.regions(), r.flagUnit())
+                .withOutline(r.shape(), r.edgeExclusionMm()).withConditions(r.lifetime().conditions())
+                .withDefect(r.analysis().quantity() == DisplayedQuantity.LIFETIME && !r.verdict().rulesVerdict()
+                        ? null : defect)
+                .withNotes(notes).withJudgement(judgement(r.verdict()));
+    }
+
+    /** The verdict as the report states it. */
+    public static WaferReport.Judgement judgement(Verdict v) {
+        String headline = v.rulesVerdict()
+                ? "Verdict: " + v.outcome().toUpperCase(Locale.ROOT) + (v.grade().isEmpty() ? "" : " - grade "
+                + v.grade()) + " (profile " + v.profile() + (v.defectId() == null ? "" : ", defect " + v.defectId()
+                + (v.defectOverridden() ? " overridden" : "")) + ")"
+                : "Quick threshold check: " + v.outcome().toUpperCase(Locale.ROOT) + " (not a rules verdict)";
+        return new WaferReport.Judgement(v.pass(), headline, v.rows());
+    }
+}
