@@ -64,7 +64,7 @@ public class MapFormatException extends IOException {
         }
         s.append(": ").append(oneLine(problem));
         // the unit is appended unless the problem already states it (as the doping parser's messages do)
-        if (unit != null && !unit.isEmpty() && !String.valueOf(problem).contains(unit)) {
+        if (unit != null && !unit.isEmpty() && !String.valueOf(problem).contains(" " + unit)) {
             s.append(" (").append(unit).append(')');
         }
         return s.toString();
