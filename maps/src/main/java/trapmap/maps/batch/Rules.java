@@ -19,6 +19,7 @@ import java.util.function.ToDoubleFunction;
 import trapmap.maps.geometry.WaferFormat;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.region.RegionCriteria;
 import trapmap.physics.defect.DefectLibrary;
 import trapmap.physics.material.ConductivityType;
 import trapmap.physics.material.Doping;
@@ -205,6 +206,11 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
      * @param minAreaMm2 smallest region counted, mm²
      */
     public record Flag(FlagQuantity quantity, double threshold, double minAreaMm2) {
+        /** The region criteria of this flag: lifetimes below, or trap densities above, the threshold. */
+        public RegionCriteria criteria() {
+            return quantity == FlagQuantity.LIFETIME ? RegionCriteria.below(threshold, minAreaMm2)
+                    : RegionCriteria.above(threshold, minAreaMm2);
+        }
     }
 
     /**

@@ -194,9 +194,7 @@ public final class WaferInspection {
 
         Rules.Flag flag = profile.flag();
         WaferMap flagMap = flag.quantity() == Rules.FlagQuantity.LIFETIME ? lifetime : density;
-        RegionCriteria criteria = flag.quantity() == Rules.FlagQuantity.LIFETIME
-                ? RegionCriteria.below(flag.threshold(), flag.minAreaMm2())
-                : RegionCriteria.above(flag.threshold(), flag.minAreaMm2());
+        RegionCriteria criteria = flag.criteria();
         FlaggedRegions regions = FlaggedRegions.find(flagMap.raster(), grid, masks.indices(), masks.count(), criteria,
                 shape, density == null ? null : density.raster().samples(), rules.edgeExclusionMm());
         FlaggedRegions.FlaggedRegion worst = regions.largest();

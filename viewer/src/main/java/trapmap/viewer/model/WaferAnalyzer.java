@@ -79,15 +79,7 @@ public final class WaferAnalyzer {
         }
         check(cancelled);
         DisplayedQuantity q = analysis.quantity();
-        WaferMap displayed;
-        if (q == DisplayedQuantity.LIFETIME) {
-            displayed = lifetime;
-        } else if (conv == null) {
-            throw new IllegalArgumentException("showing the " + q.label() + " needs a defect with absolute capture"
-                    + " cross-sections");
-        } else {
-            displayed = conv.get(q.quantity());
-        }
+        WaferMap displayed = displayed(q, lifetime, conv);
 
         WaferShape shape;
         if (sameLifetime) {
@@ -161,15 +153,7 @@ public final class WaferAnalyzer {
         }
         check(cancelled);
         DisplayedQuantity q = analysis.quantity();
-        WaferMap displayed;
-        if (q == DisplayedQuantity.LIFETIME) {
-            displayed = lifetime;
-        } else if (conv == null) {
-            throw new IllegalArgumentException("showing the " + q.label() + " needs a defect with absolute capture"
-                    + " cross-sections");
-        } else {
-            displayed = conv.get(q.quantity());
-        }
+        WaferMap displayed = displayed(q, lifetime, conv);
         boolean[] evaluated = ev.evaluated();
         Mask mask = Mask.of(lifetime.width(), lifetime.height(), i -> evaluated[i]);
         MapStatistics life = MapStatistics.of(lifetime, mask, StatisticsRequest.of(LIFETIME_PERCENTS));
@@ -178,8 +162,7 @@ public final class WaferAnalyzer {
         check(cancelled);
         Rules.Flag flag = ev.profile().flag();
         boolean lifetimeFlag = flag.quantity() == Rules.FlagQuantity.LIFETIME;
-        RegionCriteria criteria = lifetimeFlag ? RegionCriteria.below(flag.threshold(), flag.minAreaMm2())
-                : RegionCriteria.above(flag.threshold(), flag.minAreaMm2());
+        RegionCriteria criteria = flag.criteria();
         RegionTable regions = new RegionTable(ev.regions().regions().stream().map(FlaggedRegions.FlaggedRegion::region)
                 .toList(), criteria, ev.shape() != null ? RegionTable.EdgeReference.WAFER_SHAPE
                 : RegionTable.EdgeReference.DATA_OUTLINE);
@@ -194,6 +177,18 @@ public final class WaferAnalyzer {
                 ev.regions().pixels(), fraction, keyFigure(q, shown, fraction), verdict, shownThreshold,
                 lifetimeFlag ? "µs" : "cm⁻³", rules.rules().edgeExclusionMm(),
                 conv == null ? Set.of() : conv.warnings());
+    }
+
+    /** The map of the shown quantity: the lifetime itself, or one output of the conversion. */
+    private static WaferMap displayed(DisplayedQuantity q, WaferMap lifetime, MapConversion.Result conv) {
+        if (q == DisplayedQuantity.LIFETIME) {
+            return lifetime;
+        }
+        if (conv == null) {
+            throw new IllegalArgumentException("showing the " + q.label() + " needs a defect with absolute capture"
+                    + " cross-sections");
+        }
+        return conv.get(q.quantity());
     }
 
     private static WaferAnalysis.KeyFigure keyFigure(DisplayedQuantity q, MapStatistics shown, double fraction) {
