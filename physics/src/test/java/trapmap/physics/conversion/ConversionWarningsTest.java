@@ -9,7 +9,7 @@ import trapmap.physics.material.Doping;
 import trapmap.physics.material.Silicon;
 import trapmap.physics.material.ThermalVelocityModel;
 
-/** Cautions that must travel with results (physics reference Part 1, "Warnings that travel with results"). */
+/** Cautions that must travel with results (README, Models: warnings that travel with results). */
 class ConversionWarningsTest {
     @Test
     void surfaceTermAtHighInjectionIsFlagged() {

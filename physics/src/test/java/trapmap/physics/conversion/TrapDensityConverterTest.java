@@ -134,10 +134,10 @@ class TrapDensityConverterTest {
         }
     }
 
-    // Statuses (Part 1): OK; BELOW_LIMIT when τ_eff ≥ what intrinsic + surface recombination allow — the density is
+    // Statuses (project rule, README Models): OK; BELOW_LIMIT when τ_eff ≥ what intrinsic + surface recombination allow — the density is
     // then the detection limit (an upper bound: positive, finite); INVALID for NaN, ≤ 0 or infinite input
     @Test
-    @DisplayName("Part 1 — statuses OK / BELOW_LIMIT / INVALID and the detection limit")
+    @DisplayName("statuses OK / BELOW_LIMIT / INVALID and the detection limit")
     void statuses() {
         Doping dop = Doping.pType(1e16);
         double dn = 1e14;
@@ -255,9 +255,9 @@ class TrapDensityConverterTest {
     }
 
     // Rein & Glunz, APL 82, 1054 (2003) / Bothe & Schmidt 2006: no absolute σ for the BO centre, so a single map
-    // cannot give its density — refused with the normalised-density explanation (Part 1)
+    // cannot give its density — refused with the normalised-density explanation (Bothe & Schmidt 2006, R-DEF-12)
     @Test
-    @DisplayName("Part 1 — bo-lid refused, message points to the normalised density N_t*")
+    @DisplayName("bo-lid refused, message points to the normalised density N_t*")
     void boronOxygenRefused() {
         assertThatThrownBy(() -> new TrapDensityConverter(Conditions.of(Doping.pType(1e16), Injection.fixed(1e14)),
                 DefectLibrary.byId("bo-lid"))).isInstanceOf(InvalidValueException.class)
@@ -266,7 +266,7 @@ class TrapDensityConverterTest {
                 Silicon.at(300))).isInstanceOf(InvalidValueException.class);
     }
 
-    // Part 1 warnings that travel with results
+    // Warnings that travel with results (README Models)
     @Test
     void warnings() {
         Doping dop = Doping.pType(1e16);
@@ -297,13 +297,13 @@ class TrapDensityConverterTest {
                 .contains(ConversionWarning.VELOCITY_CONVENTION);
     }
 
-    // Surface lifetime used by the converter: Sproul with the Klaassen minority diffusivity (Part 1)
+    // Surface lifetime used by the converter: Sproul with the Klaassen minority diffusivity (R-SURF-1, R-MOB-3)
     @Test
     void surfaceLifetimeUsesKlaassenDiffusivity() {
         Doping dop = Doping.pType(1e16);
         TrapDensityConverter conv = new TrapDensityConverter(Conditions.of(dop, Injection.fixed(1e14))
                 .withSurface(Surface.sproul(180, 100)), DefectLibrary.byId("midgap"));
-        // D = 0.025852 × 1106.8 = 28.61 cm²/s (Klaassen table §5.2): τ_s = 90 µs + (0.018/π)²/28.61
+        // D = 0.025852 × 1106.8 = 28.61 cm²/s (Klaassen 1992, R-MOB-3): τ_s = 90 µs + (0.018/π)²/28.61
         assertRelative("tau_s", conv.surfaceLifetimeUs(), 90 + Math.pow(0.018 / Math.PI, 2) / 28.61 * 1e6, 0.001);
         assertThat(new TrapDensityConverter(Conditions.of(dop, Injection.fixed(1e14)), DefectLibrary.byId("midgap"))
                 .surfaceLifetimeUs()).isEqualTo(Double.POSITIVE_INFINITY);

@@ -22,8 +22,8 @@ import trapmap.physics.recombination.SrhRecombination;
 import trapmap.shared.error.InvalidValueException;
 
 /**
- * Iron imaging by FeB dissociation (Macdonald, Geerligs &amp; Azzizi, JAP 95, 1021 (2004)) against Part 2 §7 and
- * §11 cases 25–28.
+ * Iron imaging by FeB dissociation (Macdonald, Geerligs &amp; Azzizi, JAP 95, 1021 (2004)) (docs/physics-reference.md
+ * R-FE-1 to R-FE-5).
  */
 class IronImagingReferenceTest {
 
@@ -36,10 +36,10 @@ class IronImagingReferenceTest {
     }
 
     // Macdonald, Geerligs & Azzizi, JAP 95, 1021 (2004) method; C and crossover computed from the SRH formula with
-    // sets A and B (Part 2 §7.2 table, [COMP]); C 1 %, crossover 2 %. §11 cases 25–27 are entries of this table.
+    // sets A and B (computed, R-FE-1); C 1 %, crossover 2 %.
     @ParameterizedTest(name = "set {0}, v_th {1}, N_A {2}")
     @CsvFileSource(resources = "/trapmap/physics/iron-prefactors.csv", numLinesToSkip = 1)
-    @DisplayName("§7.2 table, §11 cases 25–27 — iron prefactor C(dn) and crossover (computed, 1 % / 2 %)")
+    @DisplayName("R-FE-1 — iron prefactor C(dn) and crossover (computed, 1 % / 2 %)")
     void prefactorTable(String set, String vth, double na, double c10, double c12, double c13, double crossover) {
         Silicon si = vth.equals("green") ? greenVelocities() : fixedVelocities();
         IronImaging fe = set.equals("A") ? setA(na, si) : setB(na, si);
@@ -53,8 +53,8 @@ class IronImagingReferenceTest {
     }
 
     // Macdonald, Roth, Deenapanray, Trupke & Bardos, APL 89, 142107 (2006): the crossover moves with doping, which
-    // they used to refine the FeB cross-sections (abstract, [C-abs]). With set B the crossover rises strongly with
-    // N_A — 3.64e13 → 1.17e14 → 9.18e14 for 1e15/1e16/1e17 — while set A stays ~1.3–2.3e14 (computed, §7.2).
+    // they used to refine the FeB cross-sections (abstract). With set B the crossover rises strongly with
+    // N_A — 3.64e13 → 1.17e14 → 9.18e14 for 1e15/1e16/1e17 — while set A stays ~1.3–2.3e14 (computed, R-FE-2).
     @Test
     @DisplayName("Macdonald et al. APL 89, 142107 (2006) — doping dependence of the crossover (set B rises, set A flat)")
     void crossoverDopingDependence() {
@@ -75,10 +75,10 @@ class IronImagingReferenceTest {
         assertThat(a17 / a15).as("set A: nearly doping independent").isLessThan(2);
     }
 
-    // Worked example, Part 2 §7.3 / §11 case 28 (computed): set A, v_th 1.1e7, N_A 1e16, Δn 1e12, [Fe] 1e12,
+    // Worked example R-FE-3 (computed): set A, v_th 1.1e7, N_A 1e16, Δn 1e12, [Fe] 1e12,
     // background 100 µs: τ_before 16.394 µs, τ_after 1.9127 µs, C 2.1654e6 s cm^-3 → [Fe_i] = 1.000e12 (0.5 %)
     @Test
-    @DisplayName("§7.3, §11 case 28 — worked example: 16.394 µs / 1.9127 µs → Fe_i = 1.000e12 (computed, 0.5 %)")
+    @DisplayName("R-FE-3 — worked example: 16.394 µs / 1.9127 µs → Fe_i = 1.000e12 (computed, 0.5 %)")
     void workedExample() {
         Silicon si = fixedVelocities();
         Doping d = Doping.pType(1e16);
@@ -101,17 +101,17 @@ class IronImagingReferenceTest {
         assertThat(published.warnings()).doesNotContain(ConversionWarning.NEAR_IRON_CROSSOVER);
     }
 
-    // §11 case 26: set B, v_th 1.1e7, N_A 1e16, Δn 1e10: C = 1.035e7 s cm^-3 (≈ the often-remembered 1.05e13 µs cm^-3,
+    // R-FE-4: set B, v_th 1.1e7, N_A 1e16, Δn 1e10: C = 1.035e7 s cm^-3 (≈ the often-remembered 1.05e13 µs cm^-3,
     // reproduced only by computation); in µs cm^-3 via IronResult (1 %)
     @Test
-    @DisplayName("§11 case 26 — set B low-injection prefactor 1.035e13 µs cm^-3 (computed, 1 %)")
+    @DisplayName("R-FE-4 — set B low-injection prefactor 1.035e13 µs cm^-3 (computed, 1 %)")
     void lowInjectionPrefactorSetB() {
         IronResult r = setB(1e16, fixedVelocities()).evaluate(100, 50, 1e10);
         assertRelative("C us cm^-3", r.prefactorUsCm3(), 1.035e13, 0.01);
         assertRelative("Fe_i", r.ironPerCm3(), 1.035e13 * (1.0 / 50 - 1.0 / 100), 0.01);
     }
 
-    // Library default (Part 1): fe-i / fe-b are set B; the library-based constructor gives the same crossover within
+    // Library default: fe-i / fe-b are set B (R-FE-5); the library-based constructor gives the same crossover within
     // the few-% difference of band-edge vs mid-gap level conversion
     @Test
     void libraryIronImagingUsesSetB() {

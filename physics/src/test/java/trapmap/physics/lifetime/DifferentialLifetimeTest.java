@@ -9,7 +9,7 @@ import trapmap.shared.error.InvalidValueException;
 
 /**
  * Schmidt, IEEE Trans. Electron Devices 46, 2018 (1999): differential versus actual lifetime. Check values computed
- * from that relation in the physics reference sheet, Part 2 §9 and §11 case 29.
+ * from that relation (docs/physics-reference.md R-DIFF-1).
  */
 class DifferentialLifetimeTest {
     /** τ_act = 50 µs·(Δn/1e14)^0.3: τ_act(1e15) = 99.76 µs. */
@@ -19,7 +19,7 @@ class DifferentialLifetimeTest {
 
     @Test
     void powerLawActualLifetimeGivesDifferentialOverOneMinusExponent() {
-        // §11 case 29: τ_act ∝ Δn^0.3, τ_act = 99.76 µs at 1e15 → τ_diff = 142.5 µs (0.5 %)
+        // R-DIFF-1: τ_act ∝ Δn^0.3, τ_act = 99.76 µs at 1e15 → τ_diff = 142.5 µs (0.5 %)
         double dn = 1e15;
         double slope = 0.3 * actual(dn) / dn;
         double diff = DifferentialLifetime.differentialS(actual(dn), slope, dn);
@@ -29,7 +29,7 @@ class DifferentialLifetimeTest {
 
     @Test
     void integratingTheDifferentialLifetimeRecoversTheActualLifetime() {
-        // §11 case 29: the integral back-conversion returns 99.76 µs (0.5 %)
+        // R-DIFF-1: the integral back-conversion returns 99.76 µs (0.5 %)
         double back = DifferentialLifetime.actualS(dn -> actual(dn) / 0.7, 1e15);
         assertThat(back).isCloseTo(99.76e-6, Percentage.withPercentage(0.5));
         assertThat(back).isCloseTo(actual(1e15), Percentage.withPercentage(1e-3));

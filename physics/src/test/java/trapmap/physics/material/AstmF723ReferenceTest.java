@@ -9,13 +9,13 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvFileSource;
 import org.junit.jupiter.params.provider.CsvSource;
 
-/** Resistivity ↔ dopant density by ASTM F723 (Thurber et al., NBS SP 400-64) against Part 2 §5.1 and §11. */
+/** Resistivity ↔ dopant density by ASTM F723 (Thurber et al., NBS SP 400-64) (docs/physics-reference.md R-ASTM-1 to R-ASTM-4). */
 class AstmF723ReferenceTest {
 
-    // ASTM F723 (Thurber et al., NBS SP 400-64); computed pairs, physics reference Part 2 §5.1 [COMP], 0.1 %
+    // ASTM F723 (Thurber et al., NBS SP 400-64); computed pairs (R-ASTM-1), 0.1 %
     @ParameterizedTest(name = "rho = {0} ohm cm")
     @CsvFileSource(resources = "/trapmap/physics/astm-f723-pairs.csv", numLinesToSkip = 1)
-    @DisplayName("§5.1 table — ASTM F723 forward fits, boron and phosphorus (computed pairs, 0.1 %)")
+    @DisplayName("R-ASTM-1 — ASTM F723 forward fits, boron and phosphorus (computed pairs, 0.1 %)")
     void forwardFits(double rho, double boron, double rhoBackB, double phosphorus, double rhoBackP) {
         assertRelative("N_B(" + rho + ")", AstmF723.boronPerCm3(rho), boron, 0.001);
         assertRelative("N_P(" + rho + ")", AstmF723.phosphorusPerCm3(rho), phosphorus, 0.001);
@@ -25,11 +25,11 @@ class AstmF723ReferenceTest {
                 phosphorus, 0.001);
     }
 
-    // ASTM F723 (Thurber et al., NBS SP 400-64); inverse fits, computed pairs (Part 2 §5.1 [COMP]), 0.1 %.
+    // ASTM F723 (Thurber et al., NBS SP 400-64); inverse fits, computed pairs (R-ASTM-2), 0.1 %.
     // The forward and inverse fits are separate and round-trip only to about 2 %.
     @ParameterizedTest(name = "rho = {0} ohm cm")
     @CsvFileSource(resources = "/trapmap/physics/astm-f723-pairs.csv", numLinesToSkip = 1)
-    @DisplayName("§5.1 table — ASTM F723 inverse fits (rho back) and the ~2 % round trip (computed pairs)")
+    @DisplayName("R-ASTM-2 — ASTM F723 inverse fits (rho back) and the ~2 % round trip (computed pairs)")
     void inverseFits(double rho, double boron, double rhoBackB, double phosphorus, double rhoBackP) {
         assertRelative("rho_B(N_B)", AstmF723.boronResistivityOhmCm(boron), rhoBackB, 0.001);
         assertRelative("rho_P(N_P)", AstmF723.phosphorusResistivityOhmCm(phosphorus), rhoBackP, 0.001);
@@ -38,17 +38,17 @@ class AstmF723ReferenceTest {
         assertRelative("round trip P", Doping.fromResistivity(ConductivityType.N, rho).resistivityOhmCm(), rho, 0.02);
     }
 
-    // §11 cases 15–17: ASTM F723 [C-astm], computed; 0.1 %
+    // ASTM F723 (Thurber et al., NBS SP 400-64) at 1 and 10 Ω·cm, computed from the fits (R-ASTM-1); 0.1 %
     @ParameterizedTest(name = "rho = {0}: N_B = {1}, N_P = {2}")
     @CsvSource({"1, 1.4588e16, 4.8643e15", "10, 1.3402e15, 4.4452e14"})
-    @DisplayName("§11 cases 15–17 — ASTM F723 at 1 and 10 ohm cm (computed, 0.1 %)")
+    @DisplayName("R-ASTM-1 — ASTM F723 at 1 and 10 ohm cm (computed, 0.1 %)")
     void checkCases15to17(double rho, double boron, double phosphorus) {
         assertRelative("N_B", AstmF723.boronPerCm3(rho), boron, 0.001);
         assertRelative("N_P", AstmF723.phosphorusPerCm3(rho), phosphorus, 0.001);
     }
 
-    // Klaassen 1992 resistivity ρ = 1/(q (n0 μ_e + p0 μ_h)) at 300 K vs the ASTM pairs: Part 2 §5.1 table columns
-    // "Klaassen ρ(N_B)", "Klaassen ρ(N_P)" (computed from [C-lib] equations); the table values carry 3–4 digits, 1 %.
+    // Klaassen 1992 resistivity ρ = 1/(q (n0 μ_e + p0 μ_h)) at 300 K vs the ASTM pairs (R-ASTM-3,
+    // computed from the model's equations); the table values carry 3–4 digits, 1 %.
     @ParameterizedTest(name = "N_B = {0}, N_P = {2}")
     @CsvSource({
         "3.2064e16, 0.504, 1.0385e16, 0.510",
@@ -58,7 +58,7 @@ class AstmF723ReferenceTest {
         "1.3402e15, 10.124, 4.4452e14, 10.143",
         "1.3308e14, 100.1, 4.2742e13, 103.7"
     })
-    @DisplayName("§5.1 — Klaassen 1992 resistivity of the ASTM densities (computed, 1 %)")
+    @DisplayName("R-ASTM-3 — Klaassen 1992 resistivity of the ASTM densities (computed, 1 %)")
     void klaassenResistivity(double nb, double rhoB, double np, double rhoP) {
         assertRelative("rho Klaassen(N_B)", klaassenResistivity(Doping.pType(nb)), rhoB, 0.01);
         assertRelative("rho Klaassen(N_P)", klaassenResistivity(Doping.nType(np)), rhoP, 0.01);
@@ -74,9 +74,9 @@ class AstmF723ReferenceTest {
         return 1 / (1.602176634e-19 * (eq.electronsPerCm3() * mue + eq.holesPerCm3() * muh));
     }
 
-    // Validity limits stated with the ASTM F723 fits: ρ 1e-4 … 1e4 Ω·cm (Part 2 §5.1)
+    // Validity limits stated with the ASTM F723 fits: ρ 1e-4 … 1e4 Ω·cm (R-ASTM-4)
     @Test
-    @DisplayName("§5.1 — the fits are offered over rho 1e-4 … 1e4 ohm cm")
+    @DisplayName("R-ASTM-4 — the fits are offered over rho 1e-4 … 1e4 ohm cm")
     void validityRange() {
         assertThat(AstmF723.boronPerCm3(1e-4)).isFinite().isPositive();
         assertThat(AstmF723.phosphorusPerCm3(1e4)).isFinite().isPositive();

@@ -11,14 +11,14 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 import trapmap.shared.error.InvalidValueException;
 
-/** Generation rate and PL calibration against Part 2 §8 and §11 case 30. */
+/** Generation rate and PL calibration (docs/physics-reference.md R-PL-1 to R-PL-4). */
 class PlReferenceTest {
 
-    // §8.2 example / §11 case 30 (computed): Φ 2.5e17 cm^-2 s^-1, bare Si at 800 nm (n = 3.675 → R = 0.327),
-    // W 180 µm, α 850 cm^-1 (Green, Sol. Energy Mater. Sol. Cells 92, 1305 (2008), via [C-lib]):
+    // R-PL-1 (computed): Φ 2.5e17 cm^-2 s^-1, bare Si at 800 nm (n = 3.675 → R = 0.327),
+    // W 180 µm, α 850 cm^-1 (Green, Sol. Energy Mater. Sol. Cells 92, 1305 (2008)):
     // G = 9.342e18 cm^-3 s^-1; with τ = 100 µs, Δn = G·τ = 9.342e14 cm^-3. 0.5 %.
     @Test
-    @DisplayName("§8.2, §11 case 30 — G = 9.342e18 cm^-3 s^-1, dn = 9.342e14 cm^-3 at 100 µs (computed, 0.5 %)")
+    @DisplayName("R-PL-1 — G = 9.342e18 cm^-3 s^-1, dn = 9.342e14 cm^-3 at 100 µs (computed, 0.5 %)")
     void generationExample() {
         double r = Math.pow((3.675 - 1) / (3.675 + 1), 2);
         assertThat(r).isCloseTo(0.327, org.assertj.core.data.Offset.offset(0.0005));
@@ -31,15 +31,15 @@ class PlReferenceTest {
         assertRelative("tau from counts", cal.lifetimeUs(cal.counts(g * 100e-6), g), 100, 1e-9);
     }
 
-    // §8.2 (computed): Φ = P/(h c/λ); 0.1 W/cm² → 4.068e17 (808 nm) and 4.606e17 (915 nm) photons cm^-2 s^-1, 0.5 %
+    // R-PL-2 (computed): Φ = P/(h c/λ); 0.1 W/cm² → 4.068e17 (808 nm) and 4.606e17 (915 nm) photons cm^-2 s^-1, 0.5 %
     @ParameterizedTest(name = "{0} nm: {1}")
     @CsvSource({"808, 4.068e17", "915, 4.606e17"})
-    @DisplayName("§8.2 — photon flux of 0.1 W/cm² at 808 / 915 nm (computed, 0.5 %)")
+    @DisplayName("R-PL-2 — photon flux of 0.1 W/cm² at 808 / 915 nm (computed, 0.5 %)")
     void photonFlux(double nm, double expected) {
         assertRelative("photon flux", GenerationRate.photonFluxPerCm2PerS(0.1, nm), expected, 0.005);
     }
 
-    // f_abs = 1 − exp(−αW), single pass (§8.2): thin/weakly absorbing case where it matters
+    // f_abs = 1 − exp(−αW), single pass (Beer–Lambert, R-PL-3): thin/weakly absorbing case where it matters
     @Test
     void singlePassAbsorption() {
         double g = GenerationRate.perCm3PerS(1e17, 0, 271, 0.018); // 910 nm, Green 2008
@@ -47,9 +47,9 @@ class PlReferenceTest {
         assertThat(GenerationRate.perCm3PerS(0, 0.3, 850, 0.018)).isZero();
     }
 
-    // §8.1: I = A·Δn·(Δn + N_dop); Δn = (−N_dop + sqrt(N_dop² + 4I/A))/2 — round trip exact ([COMP]); seeded grid
+    // Trupke et al., APL 89, 044107 (2006) (from memory), R-PL-4: I = A·Δn·(Δn + N_dop); Δn = (−N_dop + sqrt(N_dop² + 4I/A))/2 — round trip exact; seeded grid
     @Test
-    @DisplayName("§8.1 — PL signal model round trip dn → I → dn (exact)")
+    @DisplayName("R-PL-4 — PL signal model round trip dn → I → dn (exact)")
     void plRoundTrip() {
         SplittableRandom rnd = new SplittableRandom(7);
         for (int i = 0; i < 5000; i++) {

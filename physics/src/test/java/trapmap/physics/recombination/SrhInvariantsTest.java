@@ -23,7 +23,7 @@ class SrhInvariantsTest {
     private static final List<Defect> WITH_SIGMA = DefectLibrary.all().stream()
             .filter(Defect::hasAbsoluteCrossSections).collect(Collectors.toList());
 
-    // n1·p1 = n_i² for every level reference and degeneracy, at several temperatures (Part 1: "holds exactly")
+    // n1·p1 = n_i² for every level reference and degeneracy, at several temperatures (Shockley & Read 1952; exact by detailed balance)
     @Test
     void emissionDensitiesMultiplyToIntrinsicSquared() {
         for (double t : new double[] {250, 300, 350}) {

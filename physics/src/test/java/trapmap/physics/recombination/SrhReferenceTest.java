@@ -24,15 +24,15 @@ import trapmap.physics.material.Silicon;
 import trapmap.physics.material.ThermalVelocityModel;
 
 /**
- * SRH lifetimes, emission densities, occupancy and capture coefficients against the computed values of Part 2 §1,
- * §4.3, §7.1, §7.3 and §11 cases 20–24. Levels are given from the mid-gap E_i (E_g = 1.124 eV) and the thermal
+ * SRH lifetimes, emission densities, occupancy and capture coefficients against values computed from the SRH
+ * equation (docs/physics-reference.md R-SRH-1 to R-SRH-16). Levels are given from the mid-gap E_i (E_g = 1.124 eV) and the thermal
  * velocities explicitly, as those values were computed.
  */
 class SrhReferenceTest {
 
-    // Shockley & Read 1952 / Hall 1952, n1 = n_i exp((E_t − E_i)/kT), p1 = n_i²/n1; computed (§11 case 20), 0.5 %
+    // Shockley & Read 1952 / Hall 1952, n1 = n_i exp((E_t − E_i)/kT), p1 = n_i²/n1; computed (R-SRH-1), 0.5 %
     @Test
-    @DisplayName("§11 case 20 — n1, p1 of Fe_i (E_v+0.38) and FeB (E_c−0.26) (computed, 0.5 %)")
+    @DisplayName("R-SRH-1 — n1, p1 of Fe_i (E_v+0.38) and FeB (E_c−0.26) (computed, 0.5 %)")
     void emissionDensities() {
         Silicon si = fixedVelocities();
         TrapLevel fei = aboveValence(0.38);
@@ -45,10 +45,10 @@ class SrhReferenceTest {
         assertRelative("FeB n1 p1 / n_i²", feb.n1PerCm3(si) * feb.p1PerCm3(si), 9.65e9 * 9.65e9, 1e-12);
     }
 
-    // §1.1: FeB at E_c − 0.26 eV gives n1 = 1.22e15 via N_c (Couderc 2014) but 1.14e15 via n_i = 9.65e9 — the
+    // R-SRH-2: FeB at E_c − 0.26 eV gives n1 = 1.22e15 via N_c (Couderc 2014) but 1.14e15 via n_i = 9.65e9 — the
     // ~7 % shift from mixing N_c and n_i sources (computed). 0.5 %.
     @Test
-    @DisplayName("§1.1 — FeB n1 from N_c (Couderc 2014) 1.22e15 vs from n_i 1.14e15 (computed, 0.5 %)")
+    @DisplayName("R-SRH-2 — FeB n1 from N_c (Couderc 2014) 1.22e15 vs from n_i 1.14e15 (computed, 0.5 %)")
     void emissionDensityFromBandEdgeVersusIntrinsicLevel() {
         Silicon couderc = Silicon.of(300, IntrinsicDensityModel.ALTERMATT_2003, DensityOfStatesModel.COUDERC_2014,
                 ThermalVelocityModel.FIXED);
@@ -57,10 +57,10 @@ class SrhReferenceTest {
     }
 
     // SRH lifetime, Fe_i set B (σ 1.3e-14 / 7e-17, Macdonald, Tan & Trupke, JAP 103, 073710 (2008)), Green v_th,
-    // N_A 1e16, N_t 1e11: Δn 1e12 → 38.490 µs, 1e15 → 807.04 µs (§11 case 21, computed, 0.5 %);
-    // FeB set B (Macdonald et al., APL 89, 142107 (2006)) Δn 1e12 → 120.35 µs (§11 case 22, computed, 0.5 %)
+    // N_A 1e16, N_t 1e11: Δn 1e12 → 38.490 µs, 1e15 → 807.04 µs (R-SRH-3, computed, 0.5 %);
+    // FeB set B (Macdonald et al., APL 89, 142107 (2006)) Δn 1e12 → 120.35 µs (R-SRH-3, computed, 0.5 %)
     @Test
-    @DisplayName("§11 cases 21–22 — tau_SRH Fe_i 38.490 / 807.04 µs, FeB 120.35 µs (set B, Green v_th; 0.5 %)")
+    @DisplayName("R-SRH-3 — tau_SRH Fe_i 38.490 / 807.04 µs, FeB 120.35 µs (set B, Green v_th; 0.5 %)")
     void lifetimesCases21And22() {
         SrhRecombination fei = SrhRecombination.of(interstitialIronSetB(), Doping.pType(1e16), greenVelocities());
         SrhRecombination feb = SrhRecombination.of(ironBoronSetB(), Doping.pType(1e16), greenVelocities());
@@ -69,10 +69,10 @@ class SrhReferenceTest {
         assertRelative("FeB dn 1e12", feb.lifetimeS(1e12, 1e11), 120.35e-6, 0.005);
     }
 
-    // N_t inversion (§1.3, §11 case 23): Fe_i set B, Green v_th, N_A 1e16, Δn 1e13: τ_SRH 10 µs → 4.610e11 cm^-3;
-    // N_t 1e11 ↔ 46.099 µs (computed, 0.5 %; the round trip itself is exact)
+    // N_t inversion (R-SRH-4): Fe_i set B, Green v_th, N_A 1e16, Δn 1e13: τ_SRH 10 µs → 4.610e11 cm^-3;
+    // N_t 1e11 ↔ 46.099 µs (computed, 0.5 %)
     @Test
-    @DisplayName("§11 case 23 — N_t(10 µs) = 4.610e11; 1e11 ↔ 46.099 µs (Fe_i set B, Green v_th; computed, 0.5 %)")
+    @DisplayName("R-SRH-4 — N_t(10 µs) = 4.610e11; 1e11 ↔ 46.099 µs (Fe_i set B, Green v_th; computed, 0.5 %)")
     void inversionCase23() {
         SrhRecombination fei = SrhRecombination.of(interstitialIronSetB(), Doping.pType(1e16), greenVelocities());
         assertRelative("N_t at 10 us", fei.densityPerCm3(10e-6, 1e13), 4.610e11, 0.005);
@@ -80,26 +80,26 @@ class SrhReferenceTest {
         assertRelative("tau at 1e11", tau, 46.099e-6, 0.005);
     }
 
-    // §1.3 low-injection limit, p-type: τ·N_t → 1/(σ_n v_th,n); Fe_i σ_n 1.3e-14 with v_th,n 2.046e7 → 3.760e6 s cm^-3
+    // R-SRH-5, low-injection limit, p-type: τ·N_t → 1/(σ_n v_th,n); Fe_i σ_n 1.3e-14 with v_th,n 2.046e7 → 3.760e6 s cm^-3
     // (computed). p1/p0 = 1.1e-3 at N_A = 1e16, so the product sits within 0.5 %.
     @Test
-    @DisplayName("§1.3 — low-injection Fe_i tau·N_t → 1/(sigma_n v_n) = 3.760e6 s cm^-3 (computed, 0.5 %)")
+    @DisplayName("R-SRH-5 — low-injection Fe_i tau·N_t → 1/(sigma_n v_n) = 3.760e6 s cm^-3 (computed, 0.5 %)")
     void lowInjectionIronProduct() {
         SrhRecombination fei = SrhRecombination.of(interstitialIronSetB(), Doping.pType(1e16), greenVelocities());
         assertRelative("K(dn→0)", fei.lifetimeDensityProductSCm3(1e6), 3.760e6, 0.005);
     }
 
-    // Zoth & Bergholz, JAP 67, 6764 (1990): c_n(Fe_i) = 5.5e-7 cm³/s at 300 K (open defect compilation, [C-db]),
-    // equal to σ_n 5e-14 × v_th 1.1e7; in the p-type low-injection limit τ_SRH·N_t → 1/c_n = 1.818e6 s cm^-3
-    // (computed, §7.1). At N_A = 1e17, p1/p0 = 1.1e-4, so within 0.1 %.
+    // Zoth & Bergholz, JAP 67, 6764 (1990): c_n(Fe_i) = 5.5e-7 cm³/s at 300 K (published), the
+    // capture coefficient of the σ_n 5e-14, v_th 1.1e7 set; in the p-type low-injection limit τ_SRH·N_t → 1/c_n =
+    // 1.818e6 s cm^-3 (computed, R-SRH-6). At N_A = 1e17, p1/p0 = 1.1e-4, so within 0.1 %.
     @Test
-    @DisplayName("§4.3/§7.1 — Zoth & Bergholz 1990: c_n = 5.5e-7 cm³/s; tau·N_t → 1/c_n = 1.818e6 s cm^-3")
+    @DisplayName("R-SRH-6 — Zoth & Bergholz 1990: c_n = 5.5e-7 cm³/s; tau·N_t → 1/c_n = 1.818e6 s cm^-3")
     void zothBergholzCaptureCoefficient() {
         SrhRecombination fei = SrhRecombination.of(interstitialIronSetA(), Doping.pType(1e17), fixedVelocities());
         assertRelative("tau N_t (low injection)", fei.lifetimeDensityProductSCm3(1e6), 1.818e6, 0.001);
     }
 
-    // Single-defect SRH lifetimes at N_t = 1e11, Part 2 §7.3 table (computed, 0.5 %). Set A: Macdonald, Geerligs &
+    // Single-defect SRH lifetimes at N_t = 1e11, computed, 0.5 % (R-SRH-7). Set A: Macdonald, Geerligs &
     // Azzizi, JAP 95, 1021 (2004); set B: Macdonald et al. 2006 / Macdonald, Tan & Trupke 2008.
     @ParameterizedTest(name = "{0} N_A {1} dn {2}")
     @CsvSource({
@@ -108,7 +108,7 @@ class SrhReferenceTest {
         "green, 1e16, 1e12, 3.8490e-5, 1.2035e-4, 1.0634e-5, 1.2433e-4",
         "green, 1e15, 1e14, 8.0738e-4, 3.2085e-4, 7.7927e-4, 1.0252e-3"
     })
-    @DisplayName("§7.3 table — single-defect tau_SRH at N_t = 1e11 for Fe_i/FeB, sets A and B (computed, 0.5 %)")
+    @DisplayName("R-SRH-7 — single-defect tau_SRH at N_t = 1e11 for Fe_i/FeB, sets A and B (computed, 0.5 %)")
     void singleDefectTable(String vth, double na, double dn, double feiB, double febB, double feiA, double febA) {
         Silicon si = vth.equals("green") ? greenVelocities() : Silicon.at(300).withThermalVelocities(1.1e7, 1.1e7);
         Doping d = Doping.pType(na);
@@ -147,19 +147,19 @@ class SrhReferenceTest {
     }
 
     // Occupancy f_t = (c_n n + c_p p1)/[c_n (n + n1) + c_p (p + p1)], Fe_i set B, Green v_th, N_A 1e16
-    // (Part 2 §1.4 table, computed; §11 case 24 is the 1e14 row at 0.6904). 0.5 %.
+    // (computed, R-SRH-8). 0.5 %.
     @ParameterizedTest(name = "dn = {0}: f_t = {1}")
     @CsvSource({"0, 1.1003e-3", "1e12, 2.3062e-2", "1e14, 0.6904", "1e16, 0.99119"})
-    @DisplayName("§1.4 table, §11 case 24 — f_t of Fe_i (set B, Green v_th, N_A 1e16) (computed, 0.5 %)")
+    @DisplayName("R-SRH-8 — f_t of Fe_i (set B, Green v_th, N_A 1e16) (computed, 0.5 %)")
     void occupancyTable(double dn, double expected) {
         SrhRecombination fei = SrhRecombination.of(interstitialIronSetB(), Doping.pType(1e16), greenVelocities());
         assertRelative("f_t", fei.occupancy(dn), expected, 0.005);
     }
 
-    // Library fe-i / fe-b: the Part 1 default set B with the band-edge rule and 1.1e7 cm/s — within 2 % of the
-    // mid-gap-convention values of §7.3 (E_i vs mid-gap differs by ~1 meV and N_v/N_c by a few %)
+    // Library fe-i / fe-b: set B with the band-edge rule and 1.1e7 cm/s — within 2 % of the
+    // mid-gap-convention values of R-SRH-7 (R-SRH-9: E_i vs mid-gap differs by ~1 meV and N_v/N_c by a few %)
     @Test
-    @DisplayName("Part 1 library fe-i/fe-b close to §7.3 set-B values (band-edge rule; 2 %)")
+    @DisplayName("R-SRH-9 — library fe-i/fe-b close to the set-B values of R-SRH-7 (band-edge rule; 2 %)")
     void libraryIronMatchesSetB() {
         Silicon si = Silicon.at(300);
         Doping d = Doping.pType(1e16);

@@ -8,11 +8,11 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 
-/** Surface-limited lifetime (Sproul 1994 approximation and exact eigenvalue) against Part 2 §3 and §11 13–14. */
+/** Surface-limited lifetime (Sproul 1994 approximation and exact eigenvalue) (docs/physics-reference.md R-SURF-1 to R-SURF-3). */
 class SurfaceLifetimeReferenceTest {
 
     // Sproul, JAP 76, 2851 (1994), approximation τ_s = W/(2S) + (W/π)²/D; values computed from the formula
-    // (Part 2 §3 table [COMP]; §11 cases 13 and 14 are rows 3 and 2). 0.1 %.
+    // (computed, R-SURF-1). 0.1 %.
     @ParameterizedTest(name = "W = {0} cm, S = {1} cm/s, D = {2}: {3} s")
     @CsvSource({
         "0.018, 10,  30,   9.0109e-4",
@@ -21,7 +21,7 @@ class SurfaceLifetimeReferenceTest {
         "0.018, 1e7, 30,   1.0952e-6",
         "0.030, 10,  11.6, 1.5079e-3"
     })
-    @DisplayName("§3 table, §11 cases 13–14 — Sproul 1994 approximation (computed from the formula, 0.1 %)")
+    @DisplayName("R-SURF-1 — Sproul 1994 approximation (computed from the formula, 0.1 %)")
     void sproulTable(double w, double s, double d, double expected) {
         assertRelative("tau_s", SurfaceLifetime.sproulS(w, s, d), expected, 0.001);
         assertRelative("tau_s via model", SurfaceLifetime.lifetimeS(SurfaceModel.SPROUL, w, s, d), expected, 0.001);
@@ -33,7 +33,7 @@ class SurfaceLifetimeReferenceTest {
     // checks the exact solver.
     @ParameterizedTest(name = "W = {0} cm, D = {1} cm²/s")
     @CsvSource({"0.018, 30", "0.018, 11.6", "0.05, 5", "0.002, 30"})
-    @DisplayName("§3 — Sproul approximation vs exact eigenvalue within about 5 % for S = 1 … 1e7 cm/s")
+    @DisplayName("R-SURF-2 — Sproul approximation vs exact eigenvalue within about 5 % for S = 1 … 1e7 cm/s")
     void sproulWithinFivePercentOfExact(double w, double d) {
         double worst = 0;
         for (double lg = 0; lg <= 7.0001; lg += 0.005) {
@@ -46,10 +46,10 @@ class SurfaceLifetimeReferenceTest {
         assertThat(worst).isBetween(0.049, 0.051);
     }
 
-    // Limits of the exact fundamental mode (Part 2 §3): small S → W/(2S); S → ∞ → W²/(π² D)
+    // Limits of the exact fundamental mode (R-SURF-3): small S → W/(2S); S → ∞ → W²/(π² D)
     @ParameterizedTest(name = "W = {0} cm, D = {1} cm²/s")
     @CsvSource({"0.018, 30", "0.03, 11.6", "0.05, 5"})
-    @DisplayName("§3 — exact solution limits: W/(2S) for small S, W²/(π²D) for large S")
+    @DisplayName("R-SURF-3 — exact solution limits: W/(2S) for small S, W²/(π²D) for large S")
     void exactLimits(double w, double d) {
         for (double s : new double[] {1e-6, 1e-4}) {
             assertRelative("small-S limit", SurfaceLifetime.exactS(w, s, d), w / (2 * s), 1e-5);
@@ -63,7 +63,7 @@ class SurfaceLifetimeReferenceTest {
                 w * w / (Math.PI * Math.PI * d), 1e-7);
     }
 
-    // Exact eigenvalue solution satisfies tan(α0 W/2) = S/(α0 D) with τ = 1/(α0² D) (Part 2 §3, textbook)
+    // Exact eigenvalue solution satisfies tan(α0 W/2) = S/(α0 D) with τ = 1/(α0² D) (diffusion equation, textbook; R-SURF-3)
     @ParameterizedTest
     @CsvSource({"0.018, 1, 30", "0.018, 100, 30", "0.018, 1e4, 30", "0.018, 1e6, 30", "0.03, 50, 11.6"})
     void exactSatisfiesEigenvalueEquation(double w, double s, double d) {
