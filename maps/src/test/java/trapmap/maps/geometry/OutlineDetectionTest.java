@@ -56,7 +56,7 @@ class OutlineDetectionTest {
         assertThat(r.fiducial()).isInstanceOf(Fiducial.Flat.class);
         assertThat(((Fiducial.Flat) r.fiducial()).lengthMm()).isCloseTo(57.5, within(2.5));
         assertThat(r.fiducialAngleDeg()).isCloseTo(30, within(1.0));
-        assertThat(r.diameterMm()).isCloseTo(150, within(2 * grid.pitchMm()));
+        assertThat(r.diameterMm()).isCloseTo(150, within(matcher(WaferFormat.ROUND_150_FLAT.sizeTolerance(), grid)));
         assertThat(r.centreXMm()).isCloseTo(1.3, within(grid.pitchMm()));
         assertThat(r.centreYMm()).isCloseTo(-0.7, within(grid.pitchMm()));
         assertThat(fit.closestFormat().format()).isEqualTo(WaferFormat.ROUND_150_FLAT);
@@ -103,7 +103,7 @@ class OutlineDetectionTest {
         assertThat(s.centreXMm()).isCloseTo(2.1, within(0.5 * px));
         assertThat(s.centreYMm()).isCloseTo(-1.6, within(0.5 * px));
         assertThat(s.sideMm()).isCloseTo(182, within(px));
-        assertThat(s.diagonalMm()).isCloseTo(247, within(2 * px));
+        assertThat(s.diagonalMm()).isCloseTo(247, within(matcher(WaferFormat.M10.diagonalTolerance(), grid)));
         assertThat(s.rotationDeg()).isCloseTo(12, within(0.1));
         assertThat(fit.closestFormat().format()).isEqualTo(WaferFormat.M10);
         assertThat(fit.alternative().model()).isEqualTo(OutlineFit.Model.ROUND);
@@ -117,7 +117,8 @@ class OutlineDetectionTest {
         OutlineFit fit = OutlineDetection.fit(render(WaferFormat.G12.shape(290), grid), grid);
         SquareWafer s = (SquareWafer) fit.shape();
         assertThat(s.isFullSquare()).isFalse();
-        assertThat(s.diagonalMm()).isCloseTo(295, within(2 * grid.pitchMm()));
+        assertThat(s.diagonalMm()).isCloseTo(295, within(matcher(WaferFormat.G12.diagonalTolerance(), grid)));
+        assertThat(fit.closestFormat().withinTolerance()).isTrue();
         assertThat(s.rotationDeg()).isCloseTo(20, within(0.1));
         assertThat(fit.closestFormat().format()).isEqualTo(WaferFormat.G12);
     }
@@ -159,6 +160,7 @@ class OutlineDetectionTest {
         assertThat(fit.centreXPx()).isCloseTo(220, within(0.5));
         assertThat(fit.centreYPx()).isCloseTo(260, within(0.5));
         assertThat(((RoundWafer) fit.shape()).diameterMm()).isCloseTo(100, within(2 * grid.pitchMm()));
+        assertThat(fit.closestFormat().withinTolerance()).isTrue();
     }
 
     @Test
@@ -198,5 +200,15 @@ class OutlineDetectionTest {
         r.samples()[12] = 1;
         assertThatThrownBy(() -> OutlineDetection.fit(r, grid)).isInstanceOf(IllegalArgumentException.class)
                 .hasMessageContaining("edge points").hasMessageContaining("not visible");
+    }
+
+    /**
+     * The size tolerance the format matcher applies to a fit at this pitch ({@link WaferFormat#closestTo}): the
+     * format's tolerance widened by {@link WaferFormat#PITCH_TOLERANCE_FACTOR} pixels. An outline test is never
+     * looser than that, so a fit that passes it is also matched to its format.
+     */
+    private static double matcher(Tolerance formatTolerance, PixelGrid grid) {
+        return Math.max(formatTolerance.minus(), formatTolerance.plus())
+                + WaferFormat.PITCH_TOLERANCE_FACTOR * grid.pitchMm();
     }
 }
