@@ -12,19 +12,12 @@ import org.junit.jupiter.params.provider.ValueSource;
 /** n_i(T), E_g(T), N_c/N_v and thermal velocities (docs/physics-reference.md R-BAND-1 to R-BAND-11). */
 class BandParametersReferenceTest {
 
-    // Altermatt et al., JAP 93, 1598 (2003): n_i(300 K) = 9.65e9 cm^-3 (from memory; R-BAND-1)
-    @Test
-    @DisplayName("Altermatt 2003: n_i(300 K) = 9.65e9 cm^-3 (from memory, R-BAND-1)")
-    void defaultIntrinsicDensityAt300K() {
-        assertRelative("n_i default", Silicon.at(300).intrinsicPerCm3(), 9.65e9, 1e-12);
-        assertRelative("n_i Altermatt model", IntrinsicDensityModel.ALTERMATT_2003.densityPerCm3(300), 9.65e9, 1e-12);
-    }
-
-    // Default T-form (R-BAND-1): 9.65e9 (T/300)^2 exp(6880/300 − 6880/T) (T-form of Sproul & Green, JAP 70, 846 (1991));
+    // Default (R-BAND-1): n_i(300 K) = 9.65e9 cm^-3 (Altermatt et al., JAP 93, 1598 (2003), from memory) with the
+    // T-form 9.65e9 (T/300)^2 exp(6880/300 − 6880/T) (T-form of Sproul & Green, JAP 70, 846 (1991));
     // values computed from that formula here.
     @ParameterizedTest
-    @ValueSource(doubles = {250, 296.15, 310, 350})
-    @DisplayName("Altermatt 2003 with Sproul & Green 1991 T-form: computed from the formula (R-BAND-1)")
+    @ValueSource(doubles = {250, 296.15, 300, 310, 350})
+    @DisplayName("R-BAND-1 — Altermatt 2003 n_i with the Sproul & Green 1991 T-form (computed from the formula)")
     void defaultIntrinsicDensityTemperatureForm(double t) {
         double expected = 9.65e9 * Math.pow(t / 300, 2) * Math.exp(6880.0 / 300 - 6880.0 / t);
         assertRelative("n_i(" + t + ")", Silicon.at(t).intrinsicPerCm3(), expected, 1e-12);
