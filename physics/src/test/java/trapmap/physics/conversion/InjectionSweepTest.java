@@ -46,7 +46,8 @@ class InjectionSweepTest {
 
     @Test
     void lowInjectionTendsToTheMinorityCarrierCaptureTimeForADeepLevelInPType() {
-        // Textbook SRH (Schroder, Semiconductor Material and Device Characterization, 3rd ed., ch. 7, from memory):
+        // Textbook SRH (Schroder, Semiconductor Material and Device Characterization, 3rd ed., ch. 7, from memory;
+        // R-LIM-1):
         // in p-type at low injection with a deep level (n1, p1 ≪ p0), τ_SRH → τ_n0 = 1/(σ_n v_th N_t).
         double sigmaN = 1e-14;
         Defect deep = Defect.of("deep-test", "mid-gap test level", TrapLevel.fromIntrinsic(0), sigmaN, 1e-15,

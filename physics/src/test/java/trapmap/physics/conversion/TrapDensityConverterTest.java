@@ -271,14 +271,14 @@ class TrapDensityConverterTest {
     void warnings() {
         Doping dop = Doping.pType(1e16);
         Defect fe = DefectLibrary.byId("fe-i");
-        // trap density not ≪ min(Δn, N_dop): Macdonald & Cuevas, PRB 67, 075203 (2003)
+        // trap density not ≪ min(Δn, N_dop): Macdonald & Cuevas, PRB 67, 075203 (2003) (R-LIM-5)
         TrapDensityConverter lowDn = new TrapDensityConverter(Conditions.of(dop, Injection.fixed(1e11)), fe);
         assertThat(lowDn.convert(0.01).warnings()).contains(ConversionWarning.TRAP_DENSITY_NOT_SMALL);
         // 1/c_n ≈ 7e6 s cm^-3: at 3000 µs (τ_intr ≈ 9 ms) N_t ≈ 1.6e9 < 0.1·Δn; at 100 µs N_t ≈ 7e10 > 0.1·Δn
         assertThat(lowDn.convert(3000).status()).isEqualTo(PixelStatus.OK);
         assertThat(lowDn.convert(3000).warnings()).doesNotContain(ConversionWarning.TRAP_DENSITY_NOT_SMALL);
         assertThat(lowDn.convert(100).warnings()).contains(ConversionWarning.TRAP_DENSITY_NOT_SMALL);
-        // surface-limited: τ_surf within 2× of τ_eff
+        // surface-limited: τ_surf within 2× of τ_eff (common practice, R-LIM-6)
         TrapDensityConverter surf = new TrapDensityConverter(Conditions.of(dop, Injection.fixed(1e14))
                 .withSurface(Surface.sproul(180, 100)), fe);
         double tauS = surf.surfaceLifetimeUs();
@@ -297,7 +297,7 @@ class TrapDensityConverterTest {
                 .contains(ConversionWarning.VELOCITY_CONVENTION);
     }
 
-    // Surface lifetime used by the converter: Sproul with the Klaassen minority diffusivity (R-SURF-1, R-MOB-3)
+    // Surface lifetime used by the converter: Sproul with the Klaassen minority diffusivity (R-LIM-4)
     @Test
     void surfaceLifetimeUsesKlaassenDiffusivity() {
         Doping dop = Doping.pType(1e16);

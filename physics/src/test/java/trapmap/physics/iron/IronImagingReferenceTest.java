@@ -121,6 +121,7 @@ class IronImagingReferenceTest {
         assertRelative("C(1e10)", lib.prefactorSCm3(1e10), 1.0296e7, 0.001);
     }
 
+    // Crossover warning within a factor 2; detection limit from a 5 % lifetime change (common practice, R-LIM-7)
     @Test
     void statusesAndWarnings() {
         IronImaging fe = setB(1e16, fixedVelocities());

@@ -63,7 +63,7 @@ class SrhInvariantsTest {
                 TrapLevel.fromIntrinsic(0.1 - kt * Math.log(4)).n1PerCm3(si), 1e-12);
     }
 
-    // Band-edge rules: n1 = N_c exp(−(E_c − E_t)/kT); p1 = N_v exp(−(E_t − E_v)/kT); n1(E_i) = n_i at E_t = E_i
+    // Band-edge rules (R-LIM-3): n1 = N_c exp(−(E_c − E_t)/kT); p1 = N_v exp(−(E_t − E_v)/kT); n1(E_i) = n_i at E_t = E_i
     @Test
     void bandEdgeRules() {
         Silicon si = Silicon.at(300);
@@ -77,7 +77,7 @@ class SrhInvariantsTest {
                 si.intrinsicPerCm3() * Math.exp(0.1 / kt), 1e-12);
     }
 
-    // Limit: p-type low injection, mid-gap level → τ_SRH → τ_n0 = 1/(σ_n v_n N_t). The relative deviation is
+    // Limit (R-LIM-1): p-type low injection, mid-gap level → τ_SRH → τ_n0 = 1/(σ_n v_n N_t). The relative deviation is
     // about (n_i + Δn)/N_dop · max(1, c_n/c_p), so 1e18 doping keeps it below 1e-5 for k up to ~170.
     // Limit: n-type low injection → τ_p0 = 1/(σ_p v_p N_t); high injection (Δn ≫ N_dop, n1, p1) → τ_n0 + τ_p0
     @ParameterizedTest(name = "sigma_n {0}, sigma_p {1}")
@@ -122,7 +122,7 @@ class SrhInvariantsTest {
         }
     }
 
-    // f_t limits: c_n ≫ c_p → n/(n + n1); c_p ≫ c_n → p1/(p + p1); equal c, high injection, shallow-free level → 1/2;
+    // f_t limits (R-LIM-2): c_n ≫ c_p → n/(n + n1); c_p ≫ c_n → p1/(p + p1); equal c, high injection, shallow-free level → 1/2;
     // equilibrium (Δn = 0) → Fermi–Dirac occupancy n0/(n0 + n1)
     @Test
     void occupancyLimits() {
