@@ -134,8 +134,8 @@ class TrapDensityConverterTest {
         }
     }
 
-    // Statuses (project rule, README Models): OK; BELOW_LIMIT when τ_eff ≥ what intrinsic + surface recombination allow — the density is
-    // then the detection limit (an upper bound: positive, finite); INVALID for NaN, ≤ 0 or infinite input
+    // Statuses (project rule, README Models): OK; BELOW_LIMIT when τ_eff ≥ what intrinsic + surface recombination
+    // allow — the density is then the detection limit (an upper bound: positive, finite); INVALID for NaN, ≤ 0 or infinite input
     @Test
     @DisplayName("statuses OK / BELOW_LIMIT / INVALID and the detection limit")
     void statuses() {

@@ -60,7 +60,7 @@ class DefectLibraryTest {
     }
 
     // Published levels with a stated uncertainty: Rein (2005) Ti_i E_v + 0.289 ± 0.005, Mo_i E_v + 0.317 ± 0.005,
-    // Ni_s E_c − 0.40 ± 0.03 eV; DLTS Au_s acceptor E_c − 0.55 ± 0.01 eV (open defect compilation) (R-DEF-10)
+    // Ni_s E_c − 0.40 ± 0.03 eV; DLTS Au_s acceptor E_c − 0.55 ± 0.01 eV (DLTS values, e.g. Graff 2000) (R-DEF-10)
     @ParameterizedTest(name = "{0}")
     @CsvSource({"ti-i, VALENCE_BAND, 0.289, 0.005", "mo-i, VALENCE_BAND, 0.317, 0.005",
         "ni-s, CONDUCTION_BAND, 0.40, 0.03", "au-a, CONDUCTION_BAND, 0.55, 0.01"})

@@ -9,7 +9,10 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvFileSource;
 import org.junit.jupiter.params.provider.CsvSource;
 
-/** Resistivity ↔ dopant density by ASTM F723 (Thurber et al., NBS SP 400-64) (docs/physics-reference.md R-ASTM-1 to R-ASTM-4). */
+/**
+ * Resistivity ↔ dopant density by ASTM F723 (Thurber et al., NBS SP 400-64) (docs/physics-reference.md R-ASTM-1 to
+ * R-ASTM-4).
+ */
 class AstmF723ReferenceTest {
 
     // ASTM F723 (Thurber et al., NBS SP 400-64); computed pairs (R-ASTM-1), 0.1 %

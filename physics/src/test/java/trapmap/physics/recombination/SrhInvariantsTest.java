@@ -23,7 +23,8 @@ class SrhInvariantsTest {
     private static final List<Defect> WITH_SIGMA = DefectLibrary.all().stream()
             .filter(Defect::hasAbsoluteCrossSections).collect(Collectors.toList());
 
-    // n1·p1 = n_i² for every level reference and degeneracy, at several temperatures (Shockley & Read 1952; exact by detailed balance)
+    // n1·p1 = n_i² for every level reference and degeneracy, at several temperatures (Shockley & Read 1952; exact by
+    // detailed balance)
     @Test
     void emissionDensitiesMultiplyToIntrinsicSquared() {
         for (double t : new double[] {250, 300, 350}) {
@@ -63,7 +64,8 @@ class SrhInvariantsTest {
                 TrapLevel.fromIntrinsic(0.1 - kt * Math.log(4)).n1PerCm3(si), 1e-12);
     }
 
-    // Band-edge rules (R-LIM-3): n1 = N_c exp(−(E_c − E_t)/kT); p1 = N_v exp(−(E_t − E_v)/kT); n1(E_i) = n_i at E_t = E_i
+    // Band-edge rules (R-LIM-3): n1 = N_c exp(−(E_c − E_t)/kT); p1 = N_v exp(−(E_t − E_v)/kT); n1(E_i) = n_i at E_t =
+    // E_i
     @Test
     void bandEdgeRules() {
         Silicon si = Silicon.at(300);
@@ -122,7 +124,8 @@ class SrhInvariantsTest {
         }
     }
 
-    // f_t limits (R-LIM-2): c_n ≫ c_p → n/(n + n1); c_p ≫ c_n → p1/(p + p1); equal c, high injection, shallow-free level → 1/2;
+    // f_t limits (R-LIM-2): c_n ≫ c_p → n/(n + n1); c_p ≫ c_n → p1/(p + p1); equal c, high injection, shallow-free
+    // level → 1/2;
     // equilibrium (Δn = 0) → Fermi–Dirac occupancy n0/(n0 + n1)
     @Test
     void occupancyLimits() {

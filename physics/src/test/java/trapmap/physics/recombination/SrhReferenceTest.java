@@ -25,7 +25,8 @@ import trapmap.physics.material.ThermalVelocityModel;
 
 /**
  * SRH lifetimes, emission densities, occupancy and capture coefficients against values computed from the SRH
- * equation (docs/physics-reference.md R-SRH-1 to R-SRH-16). Levels are given from the mid-gap E_i (E_g = 1.124 eV) and the thermal
+ * equation (docs/physics-reference.md R-SRH-1 to R-SRH-16). Levels are given from the mid-gap E_i (E_g = 1.124 eV) and
+ * the thermal
  * velocities explicitly, as those values were computed.
  */
 class SrhReferenceTest {
@@ -80,7 +81,8 @@ class SrhReferenceTest {
         assertRelative("tau at 1e11", tau, 46.099e-6, 0.005);
     }
 
-    // R-SRH-5, low-injection limit, p-type: τ·N_t → 1/(σ_n v_th,n); Fe_i σ_n 1.3e-14 with v_th,n 2.046e7 → 3.760e6 s cm^-3
+    // R-SRH-5, low-injection limit, p-type: τ·N_t → 1/(σ_n v_th,n); Fe_i σ_n 1.3e-14 with v_th,n 2.046e7 → 3.760e6 s
+    // cm^-3
     // (computed). p1/p0 = 1.1e-3 at N_A = 1e16, so the product sits within 0.5 %.
     @Test
     @DisplayName("R-SRH-5 — low-injection Fe_i tau·N_t → 1/(sigma_n v_n) = 3.760e6 s cm^-3 (computed, 0.5 %)")

@@ -8,7 +8,10 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 
-/** Surface-limited lifetime (Sproul 1994 approximation and exact eigenvalue) (docs/physics-reference.md R-SURF-1 to R-SURF-3). */
+/**
+ * Surface-limited lifetime (Sproul 1994 approximation and exact eigenvalue) (docs/physics-reference.md R-SURF-1 to
+ * R-SURF-3).
+ */
 class SurfaceLifetimeReferenceTest {
 
     // Sproul, JAP 76, 2851 (1994), approximation τ_s = W/(2S) + (W/π)²/D; values computed from the formula
@@ -63,7 +66,8 @@ class SurfaceLifetimeReferenceTest {
                 w * w / (Math.PI * Math.PI * d), 1e-7);
     }
 
-    // Exact eigenvalue solution satisfies tan(α0 W/2) = S/(α0 D) with τ = 1/(α0² D) (diffusion equation, textbook; R-SURF-3)
+    // Exact eigenvalue solution satisfies tan(α0 W/2) = S/(α0 D) with τ = 1/(α0² D) (diffusion equation, textbook;
+    // R-SURF-3)
     @ParameterizedTest
     @CsvSource({"0.018, 1, 30", "0.018, 100, 30", "0.018, 1e4, 30", "0.018, 1e6, 30", "0.03, 50, 11.6"})
     void exactSatisfiesEigenvalueEquation(double w, double s, double d) {
