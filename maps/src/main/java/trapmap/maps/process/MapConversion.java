@@ -156,11 +156,12 @@ public final class MapConversion {
         int warningBits = 0;
         for (int i = 0; i < n; i++) {
             status[i] = out.status[i];
-            warningBits |= out.warnings[i];
+            warningBits |= out.warnings[i] & 0xFF;
         }
         maps.put(Quantity.STATUS, lifetime.derive(FloatRaster.wrap(w, h, status), Quantity.STATUS, step));
         Set<ConversionWarning> warnings = EnumSet.noneOf(ConversionWarning.class);
         warnings.addAll(ConversionWarning.fromMask(warningBits));
+        warnings.addAll(converter.conditionWarnings());
         return new Result(maps, warnings, defect.id());
     }
 }
