@@ -92,6 +92,7 @@ final class CompareCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws MapFormatException {
+        conditions.settings(); // a bad --physics file is refused even when nothing is converted
         String kind = quantity.trim().toLowerCase(Locale.ROOT);
         if (!kind.equals("difference") && !kind.equals("ratio") && !kind.equals("relative-change")
                 && !kind.equals("reduction")) {

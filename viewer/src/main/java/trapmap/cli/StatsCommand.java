@@ -85,6 +85,7 @@ final class StatsCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws MapFormatException {
+        conditions.settings(); // a bad --physics file is refused even when nothing is converted
         if (!(edgeExclusionMm >= 0 && edgeExclusionMm <= 50)) {
             throw new InputException("--edge-exclusion-mm must be in [0, 50] mm (got " + edgeExclusionMm + ")");
         }
