@@ -96,6 +96,37 @@ class PhysicsOptionTest {
                 .containsEntry("physics.thermal_velocity", "fixed").containsKey("physics.density_of_states");
     }
 
+    private static String pdfText(Path pdf) throws Exception {
+        try (org.apache.pdfbox.pdmodel.PDDocument doc = org.apache.pdfbox.Loader.loadPDF(pdf.toFile())) {
+            return new org.apache.pdfbox.text.PDFTextStripper().getText(doc).replaceAll("\\s+", " ");
+        }
+    }
+
+    @Test
+    void thePdfsStateTheSettings() throws Exception {
+        Path rules = write("rules.json", RULES);
+        Path green = write("green.json", "{\"thermal_velocity\": \"green\"}");
+        inspect(rules, "--physics", green.toString());
+        assertThat(pdfText(dir.resolve("report-2").resolve("summary.pdf")))
+                .contains("Physics settings of every conversion: thermal_velocity=green");
+        Path pdf = dir.resolve("wafer.pdf");
+        Cli.Run r = Cli.run("report", MAP.toString(), "--rules", rules.toString(), "--physics", green.toString(),
+                "--quantity", "trap-density", "-o", pdf.toString());
+        assertThat(r.code()).as(r.err()).isIn(0, 1);
+        assertThat(pdfText(pdf)).contains("physics settings: thermal_velocity=green");
+    }
+
+    @Test
+    void theIronMapsHistoryRecordsTheSettings() throws Exception {
+        Path out = dir.resolve("fe.tif");
+        Path green = write("green.json", "{\"thermal_velocity\": \"green\"}");
+        Cli.Run r = Cli.run("iron", "../demo-data/LOT-A03-W02-feb-state.tif", "../demo-data/LOT-A03-W02-fe-i-state.tif",
+                "-o", out.toString(), "--physics", green.toString());
+        assertThat(r.code()).as(r.err()).isIn(0, 2);
+        var steps = MapFiles.readSingle(out).provenance().steps();
+        assertThat(steps.get(steps.size() - 1).parameters()).containsEntry("physics.thermal_velocity", "green");
+    }
+
     @Test
     void calcUsesTheFileAndReportsIt() throws Exception {
         Path physics = write("p.json", "{\"thermal_velocity\": \"green\"}");
