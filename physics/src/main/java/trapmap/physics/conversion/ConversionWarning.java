@@ -8,7 +8,8 @@ import trapmap.physics.material.ConductivityType;
 /**
  * Cautions that travel with a converted value. The per-pixel ones have one bit in warning rasters; the ones that
  * depend only on the wafer's conditions and the defect ({@link #isWaferLevel()}) are reported once per conversion
- * (see {@code TrapDensityConverter.conditionWarnings()}) and never set in a mask.
+ * (see {@code TrapDensityConverter.conditionWarnings()}) and never set in a mask. Per-pixel warnings come first:
+ * their bits must fit the byte of a warning raster.
  */
 public enum ConversionWarning {
     /**

@@ -109,6 +109,15 @@ class ValidityRangeWarningsTest {
     }
 
     @Test
+    void perPixelWarningBitsFitTheByteOfAWarningRaster() {
+        for (ConversionWarning w : ConversionWarning.values()) {
+            if (!w.isWaferLevel()) {
+                assertThat(w.bit()).as(w.name()).isLessThan(1 << 7);
+            }
+        }
+    }
+
+    @Test
     void waferLevelWarningsNeverComeFromAMaskAndSkipInvalidPixels() {
         Set<ConversionWarning> fromAll = ConversionWarning.fromMask(-1);
         assertThat(fromAll).noneMatch(ConversionWarning::isWaferLevel);
