@@ -94,6 +94,11 @@ final class CalcCommand implements Callable<Integer> {
                     + " density, intrinsic and surface terms). Default: none.")
     Double referenceInjection;
 
+    @Option(names = "--physics", paramLabel = "<physics.json>", order = 12,
+            description = PhysicsOption.DESCRIPTION + " --vth and --surface-model (and the cases' columns) override"
+                    + " its fields.")
+    java.nio.file.Path physics;
+
     @Option(names = "--json", order = 13, description = Help.JSON)
     boolean json;
 
@@ -114,7 +119,7 @@ final class CalcCommand implements Callable<Integer> {
             return runCases(request, stdout);
         }
         DefectCatalog catalog = DefectCatalog.load(defectFile);
-        Map<String, Object> result = Calculation.run(request, catalog);
+        Map<String, Object> result = Calculation.run(request, catalog, PhysicsOption.load(physics));
         if (json) {
             stdout.println(Output.json(Calculation.forJson(result)));
         } else {
@@ -135,7 +140,7 @@ final class CalcCommand implements Callable<Integer> {
             throw new InputException("--json cannot be combined with --cases: the results go to the --out CSV file");
         }
         DefectCatalog catalog = DefectCatalog.load(defectFile);
-        CasesFile.Summary s = CasesFile.run(cases, out, defaults, catalog);
+        CasesFile.Summary s = CasesFile.run(cases, out, defaults, catalog, PhysicsOption.load(physics));
         stdout.println("wrote " + s.rows() + " cases to " + out + " (" + (s.rows() - s.errors()) + " converted, "
                 + s.errors() + " with errors)");
         stdout.flush();

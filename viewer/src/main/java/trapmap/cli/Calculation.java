@@ -14,7 +14,7 @@ import trapmap.physics.defect.Defect;
 import trapmap.physics.material.Silicon;
 import trapmap.physics.material.ThermalVelocityModel;
 import trapmap.physics.recombination.IntrinsicLifetime;
-import trapmap.physics.recombination.RadiativeCoefficient;
+import trapmap.physics.conversion.PhysicsSettings;
 import trapmap.physics.recombination.SrhRecombination;
 import trapmap.physics.recombination.SurfaceModel;
 import trapmap.shared.error.InvalidValueException;
@@ -35,7 +35,7 @@ final class Calculation {
             "tau_effective_us", "tau_srh_us", "tau_intrinsic_us", "tau_surface_us", "lifetime_at_reference_us",
             "reference_injection_cm3", "injection_cm3", "generation_cm3_s", "n0_cm3", "p0_cm3", "n1_cm3", "p1_cm3",
             "doping_type", "doping_cm3", "resistivity_ohm_cm", "temperature_k", "surface", "vth_model", "defect",
-            "defect_name", "defect_level", "defect_source", "defect_origin", "intrinsic_model", "warnings",
+            "defect_name", "defect_level", "defect_source", "defect_origin", "intrinsic_model", "physics", "warnings",
             "warning_codes", "caution");
 
     /** Fields left out of a JSON answer when they do not apply (null). */
@@ -52,6 +52,14 @@ final class Calculation {
      * @throws InvalidValueException   for values outside the physics' ranges (mapped to flags by the caller)
      */
     static Map<String, Object> run(CalcRequest q, DefectCatalog catalog) {
+        return run(q, catalog, PhysicsSettings.DEFAULTS);
+    }
+
+    /**
+     * Converts one case with the given physics settings ({@code --physics}); the case's own vth and surface model
+     * override theirs.
+     */
+    static Map<String, Object> run(CalcRequest q, DefectCatalog catalog, PhysicsSettings physics) {
         if (q.lifetimeUs() == null) {
             throw Flags.required("--lifetime-us");
         }
@@ -80,9 +88,10 @@ final class Calculation {
             }
         }
         double temperature = q.temperatureK() == null ? DEFAULT_TEMPERATURE_K : q.temperatureK();
-        ThermalVelocityModel vth = q.vth() == null ? ThermalVelocityModel.FIXED : q.vth();
-        SurfaceModel model = q.surfaceModel() == null ? SurfaceModel.SPROUL : q.surfaceModel();
-        Silicon silicon = Silicon.at(temperature, vth);
+        ThermalVelocityModel vth = q.vth() == null ? physics.velocities() : q.vth();
+        SurfaceModel model = q.surfaceModel() == null ? physics.surfaceModel() : q.surfaceModel();
+        PhysicsSettings used = physics.withVelocities(vth).withSurfaceModel(model);
+        Silicon silicon = used.silicon(temperature);
         Surface surface = q.thicknessUm() == null ? Surface.IDEAL
                 : new Surface(q.thicknessUm(), q.srvCmPerS() == null ? 0 : q.srvCmPerS(), model);
         Injection injection = q.injectionCm3() != null ? Injection.fixed(q.injectionCm3())
@@ -92,7 +101,7 @@ final class Calculation {
         }
         double reference = q.referenceInjectionCm3() == null ? Double.NaN : q.referenceInjectionCm3();
         Conditions conditions = new Conditions(q.doping().doping(), silicon, injection, surface,
-                RadiativeCoefficient.TRUPKE_2003_CM3_PER_S, Conditions.DEFAULT_RESOLUTION, reference);
+                used.radiativeCm3PerS(), used.detectionResolution(), reference);
         TrapDensityConverter converter = new TrapDensityConverter(conditions, defect);
         PixelResult r = converter.convert(q.lifetimeUs());
         SrhRecombination srh = converter.srh();
@@ -132,6 +141,7 @@ final class Calculation {
         m.put("defect_source", defect.source());
         m.put("defect_origin", catalog.origin(defect));
         m.put("intrinsic_model", IntrinsicLifetime.SOURCE);
+        m.put("physics", used.oneLine());
         m.put("warnings", List.copyOf(warnings));
         m.put("warning_codes", List.copyOf(codes));
         m.put("caution", CAUTION);
@@ -194,6 +204,7 @@ final class Calculation {
         t.row("thermal velocity", (String) m.get("vth_model"), "");
         t.row("defect source", m.get("defect_source") + " (" + m.get("defect_origin") + ")", "");
         t.row("intrinsic model", (String) m.get("intrinsic_model"), "");
+        t.row("physics settings", (String) m.get("physics"), "");
         @SuppressWarnings("unchecked")
         List<String> warnings = (List<String>) m.get("warnings");
         for (String w : warnings) {

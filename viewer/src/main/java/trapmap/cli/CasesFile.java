@@ -50,6 +50,12 @@ final class CasesFile {
      * @throws InputException when the input cannot be read or parsed as CSV, or the output cannot be written
      */
     static Summary run(Path in, Path out, CalcRequest defaults, DefectCatalog catalog) {
+        return run(in, out, defaults, catalog, trapmap.physics.conversion.PhysicsSettings.DEFAULTS);
+    }
+
+    /** As {@link #run(Path, Path, CalcRequest, DefectCatalog)} with the given physics settings. */
+    static Summary run(Path in, Path out, CalcRequest defaults, DefectCatalog catalog,
+                       trapmap.physics.conversion.PhysicsSettings physics) {
         if (in.toAbsolutePath().normalize().equals(out.toAbsolutePath().normalize())) {
             throw new InputException("--out must differ from --cases (got " + out + " for both)");
         }
@@ -80,7 +86,8 @@ final class CasesFile {
                     try {
                         Map<CalcRequest.Param, String> cells = new EnumMap<>(CalcRequest.Param.class);
                         params.forEach((i, p) -> cells.put(p, i < input.size() ? input.get(i) : ""));
-                        result = Calculation.run(CalcRequest.fromCells(cells).orElse(defaults), catalog);
+                        result = Calculation.run(CalcRequest.fromCells(cells).orElse(defaults), catalog,
+                                physics);
                     } catch (InputException e) {
                         error = InputException.forColumns(e.getMessage());
                     } catch (InvalidValueException e) {

@@ -92,6 +92,7 @@ final class CompareCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws MapFormatException {
+        conditions.settings(); // a bad --physics file is refused even when nothing is converted
         String kind = quantity.trim().toLowerCase(Locale.ROOT);
         if (!kind.equals("difference") && !kind.equals("ratio") && !kind.equals("relative-change")
                 && !kind.equals("reduction")) {
@@ -107,8 +108,8 @@ final class CompareCommand implements Callable<Integer> {
         WaferMap before = MapInput.page(beforeFile, 1);
         WaferMap after = MapInput.page(afterFile, 1);
         Defect d = density.defectOrNull();
-        before = DensityOption.apply(before, d, conditions);
-        after = DensityOption.apply(after, d, conditions);
+        before = DensityOption.apply(before, d, conditions, spec.commandLine().getErr());
+        after = DensityOption.apply(after, d, conditions, spec.commandLine().getErr());
         if (before.quantity() != after.quantity()) {
             throw new InputException(afterFile + " holds " + after.quantity().key() + " but " + beforeFile + " holds "
                     + before.quantity().key() + "; compare maps of one quantity (or use --defect)");

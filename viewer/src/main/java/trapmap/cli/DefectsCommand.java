@@ -12,6 +12,7 @@ import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
 import trapmap.physics.defect.Defect;
+import trapmap.physics.defect.DefectLibrary;
 import trapmap.physics.defect.EnergyReference;
 import trapmap.physics.defect.ParameterSpread;
 import trapmap.physics.defect.Range;
@@ -24,7 +25,8 @@ import trapmap.shared.error.InvalidValueException;
         description = {
             "Lists the defects 'trapmap calc --defect' accepts: level, capture cross-sections σ_n and σ_p (cm²),",
             "k = σ_n/σ_p, the thermal-velocity convention the cross-sections belong to, the published spread used",
-            "for the density bounds, and the source.",
+            "for the density bounds, the conductivity type it suits (a conversion on the other type warns), and the",
+            "source.",
             ""},
         footer = {"", "JSON: {\"defects\": [...]}; numbers that are not published (bo-lid) are null.", "",
             Help.EXIT_CODES})
@@ -102,6 +104,10 @@ final class DefectsCommand implements Callable<Integer> {
             sp.put("note", s.note());
             m.put("spread", sp);
         }
+        DefectLibrary.Suitability suits = DefectLibrary.suitability(d);
+        m.put("suits_types", suits.types().stream().map(t -> t.name().toLowerCase(java.util.Locale.ROOT)).sorted()
+                .toList());
+        m.put("suits_reason", suits.reason());
         m.put("source", d.source());
         m.put("density_supported", d.hasAbsoluteCrossSections());
         m.put("limitation", limitation(d));
@@ -132,6 +138,8 @@ final class DefectsCommand implements Callable<Integer> {
         } else {
             t.row("  spread", "none", "");
         }
+        DefectLibrary.Suitability suits = DefectLibrary.suitability(d);
+        t.row("  suits", suits.label() + " (" + suits.reason() + ")", "");
         t.row("  source", d.source(), "");
         t.row("  origin", origin, "");
         String limit = limitation(d);

@@ -5,6 +5,7 @@ import picocli.CommandLine.Option;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.MapConversion;
+import trapmap.physics.conversion.ConversionWarning;
 import trapmap.physics.defect.Defect;
 
 /**
@@ -27,10 +28,25 @@ final class DensityOption {
 
     /** {@code map} as read when {@code d} is null, else its trap density of {@code d}. */
     static WaferMap apply(WaferMap map, Defect d, MapConditionOptions conditions) {
+        return apply(map, d, conditions, null);
+    }
+
+    /**
+     * As {@link #apply(WaferMap, Defect, MapConditionOptions)}; the conversion's wafer-level warnings (validity
+     * ranges, a defect that does not suit the wafer's conductivity type) go to {@code err} as {@code warning:}
+     * lines (null: not shown).
+     */
+    static WaferMap apply(WaferMap map, Defect d, MapConditionOptions conditions, java.io.PrintWriter err) {
         if (d == null) {
             return map;
         }
         WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
-        return MapConversion.convert(withConditions, d, conditions.settings()).get(Quantity.TRAP_DENSITY);
+        MapConversion.Result r = MapConversion.convert(withConditions, d, conditions.settings());
+        if (err != null) {
+            r.warnings().stream().filter(ConversionWarning::isWaferLevel).sorted()
+                    .forEach(w -> err.println("warning: " + map.waferId() + ": " + w.name() + ": " + w.message()));
+            err.flush();
+        }
+        return r.get(Quantity.TRAP_DENSITY);
     }
 }

@@ -65,6 +65,10 @@ final class InspectCommand implements Callable<Integer> {
                     + " leaves them out).")
     boolean thumbnails;
 
+    @Option(names = "--physics", paramLabel = "<physics.json>", description = PhysicsOption.DESCRIPTION
+            + " Replaces the rules file's physics block.")
+    Path physics;
+
     @Option(names = "--json", description = "Print the summary as one JSON object.")
     boolean json;
 
@@ -81,6 +85,9 @@ final class InspectCommand implements Callable<Integer> {
             ironPairs = IronPairRules.read(rulesFile).orElse(null);
         } catch (RulesException e) {
             throw new InputException("--rules " + e.getMessage());
+        }
+        if (physics != null) {
+            rules = rules.withPhysics(PhysicsOption.load(physics));
         }
         List<Path> files = files(inputs, out);
         if (files.isEmpty()) {

@@ -45,6 +45,10 @@ final class MapConditionOptions {
     @Option(names = "--vth", paramLabel = "fixed|green", converter = Choices.Vth.class, description = Help.VTH)
     ThermalVelocityModel vth;
 
+    @Option(names = "--physics", paramLabel = "<physics.json>", description = PhysicsOption.DESCRIPTION
+            + " --vth and --surface-model override its fields.")
+    java.nio.file.Path physics;
+
     @Option(names = "--reference-injection", paramLabel = "<cm^-3>", converter = Quantity.Density.class,
             description = "Δn in cm^-3 at which the lifetime-at-reference map is computed. Default: none.")
     Double referenceInjection;
@@ -75,7 +79,7 @@ final class MapConditionOptions {
     }
 
     ConversionSettings settings() {
-        ConversionSettings s = ConversionSettings.DEFAULTS;
+        ConversionSettings s = ConversionSettings.of(PhysicsOption.load(physics));
         if (vth != null) {
             s = s.withVelocities(vth);
         }

@@ -44,6 +44,10 @@ final class ReportCommand implements Callable<Integer> {
     @Option(names = {"-o", "--out"}, required = true, paramLabel = "<FILE.pdf>", description = "The report to write.")
     Path out;
 
+    @Option(names = "--physics", paramLabel = "<physics.json>", description = PhysicsOption.DESCRIPTION
+            + " Replaces the rules file's physics block.")
+    Path physics;
+
     @Option(names = "--quantity", paramLabel = "<q>", defaultValue = "lifetime",
             description = "The map shown: lifetime, trap-density, occupancy, srh-lifetime or status (default:"
                     + " ${DEFAULT-VALUE}).")
@@ -63,7 +67,8 @@ final class ReportCommand implements Callable<Integer> {
         }
         WaferPages.Written v;
         try {
-            v = WaferPages.write(map, rulesFile, quantity, defect, out);
+            v = WaferPages.write(map, rulesFile, quantity, defect, out,
+                    physics == null ? null : PhysicsOption.load(physics));
         } catch (RulesException e) {
             throw new InputException("--rules " + e.getMessage());
         } catch (InvalidValueException e) {

@@ -85,6 +85,7 @@ final class StatsCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws MapFormatException {
+        conditions.settings(); // a bad --physics file is refused even when nothing is converted
         if (!(edgeExclusionMm >= 0 && edgeExclusionMm <= 50)) {
             throw new InputException("--edge-exclusion-mm must be in [0, 50] mm (got " + edgeExclusionMm + ")");
         }
@@ -95,7 +96,7 @@ final class StatsCommand implements Callable<Integer> {
             throw new InputException("--threshold must be a finite number in the map's unit");
         }
         WaferMap map = MapInput.page(input, page);
-        map = DensityOption.apply(map, density.defectOrNull(), conditions);
+        map = DensityOption.apply(map, density.defectOrNull(), conditions, spec.commandLine().getErr());
         Map<String, Object> outline = new LinkedHashMap<>();
         WaferShape shape = shape(map, outline);
         Mask valid = Mask.valid(map.raster());

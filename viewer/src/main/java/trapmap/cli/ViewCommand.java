@@ -36,6 +36,10 @@ final class ViewCommand implements Callable<Integer> {
             + " Without it the viewer's quick threshold check judges them (not a rules verdict).")
     Path rules;
 
+    @Option(names = "--physics", paramLabel = "<physics.json>", description = PhysicsOption.DESCRIPTION
+            + " Replaces the rules file's physics block.")
+    Path physics;
+
     @Override
     public Integer call() throws IOException {
         if (files != null) {
@@ -52,13 +56,14 @@ final class ViewCommand implements Callable<Integer> {
                 throw new InputException("--rules " + e.getMessage());
             }
         }
+        PhysicsOption.load(physics); // checked before any window opens
         if (!ViewerLaunch.displayAvailable()) {
             throw new InputException("no display available (DISPLAY is not set or does not answer); use"
                     + " 'trapmap inspect' or 'trapmap stats' for the same figures without a window");
         }
         List<Path> open = files == null || files.isEmpty()
                 ? List.of(ViewerLaunch.demoFolder(spec.commandLine().getErr())) : files;
-        ViewerLaunch.open(open, rules);
+        ViewerLaunch.open(open, rules, physics);
         return Exit.OK;
     }
 }

@@ -39,7 +39,12 @@ final class ViewerLaunch {
 
     /** Opens the viewer on {@code files}, judging them by the rules file {@code rules} (null: none). */
     static void open(List<Path> files, Path rules) {
-        call("open", new Class<?>[] {List.class, Path.class}, files, rules);
+        open(files, rules, null);
+    }
+
+    /** As {@link #open(List, Path)}, converting with the physics settings file {@code physics} (null: none). */
+    static void open(List<Path> files, Path rules, Path physics) {
+        call("open", new Class<?>[] {List.class, Path.class, Path.class}, files, rules, physics);
     }
 
     private static Object call(String method, Class<?>[] types, Object... args) {

@@ -426,6 +426,7 @@ public final class BatchInspection {
         sum.put("skipped", s.skipped());
         sum.put("yield", Double.isNaN(s.yield()) ? null : s.yield());
         root.put("summary", sum);
+        root.put("physics", trapmap.maps.io.PhysicsSettingsFile.toJson(rules.physics()));
         List<Map<String, Object>> wafers = new ArrayList<>();
         for (Map<String, String> row : rows) {
             Map<String, Object> w = new LinkedHashMap<>();

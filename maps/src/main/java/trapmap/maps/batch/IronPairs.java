@@ -84,7 +84,7 @@ final class IronPairs {
     private void judge(Map<String, String> m, WaferMap feb, WaferMap fei) {
         feb = feb.withConditions(base.applyTo(feb.conditions()));
         fei = fei.withConditions(base.applyTo(fei.conditions()));
-        IronMapping.Result r = IronMapping.ofPair(feb, fei, RegistrationOptions.DEFAULTS, ConversionSettings.DEFAULTS,
+        IronMapping.Result r = IronMapping.ofPair(feb, fei, RegistrationOptions.DEFAULTS, ConversionSettings.of(base.physics()),
                 ProgressListener.NONE);
         float[] values = finite(r.iron().raster().samples());
         List<String> failed = new ArrayList<>();

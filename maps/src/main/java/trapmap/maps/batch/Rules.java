@@ -18,11 +18,14 @@ import java.util.Set;
 import java.util.function.ToDoubleFunction;
 import trapmap.maps.geometry.WaferFormat;
 import trapmap.maps.io.MapFiles;
+import trapmap.maps.io.PhysicsSettingsFile;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.region.RegionCriteria;
+import trapmap.physics.conversion.PhysicsSettings;
 import trapmap.physics.defect.DefectLibrary;
 import trapmap.physics.material.ConductivityType;
 import trapmap.physics.material.Doping;
+import trapmap.shared.error.InvalidValueException;
 
 /**
  * The inspection rules of a batch, read from a JSON file and checked completely before any wafer is read. The
@@ -40,10 +43,11 @@ import trapmap.physics.material.Doping;
  * @param grades          grades of passing wafers, first matching wins
  * @param failGrade       grade of a wafer that fails a limit ("" for none)
  * @param profiles        other ways of judging the maps they match (their defect, flag, limits, grades)
+ * @param physics         the physics settings every wafer is converted with (the {@code physics} block)
  */
 public record Rules(MeasurementConditions conditions, boolean override, String defectId, double edgeExclusionMm,
                     WaferFormat waferFormat, double edgeBandMm, Flag flag, List<Limit> limits, List<Grade> grades,
-                    String failGrade, List<Profile> profiles) {
+                    String failGrade, List<Profile> profiles, PhysicsSettings physics) {
 
     /** Default width of the edge band of {@code edge_to_centre_ratio}, mm. */
     public static final double DEFAULT_EDGE_BAND_MM = 10;
@@ -55,6 +59,13 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         grades = List.copyOf(grades);
         failGrade = failGrade == null ? "" : failGrade;
         profiles = List.copyOf(profiles);
+        physics = physics == null ? PhysicsSettings.DEFAULTS : physics;
+    }
+
+    /** The same rules with other physics settings (a {@code --physics} file replaces the rules' block). */
+    public Rules withPhysics(PhysicsSettings p) {
+        return new Rules(conditions, override, defectId, edgeExclusionMm, waferFormat, edgeBandMm, flag, limits,
+                grades, failGrade, profiles, p);
     }
 
     /**
@@ -357,7 +368,15 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                 throw new RulesException(name + ": the rules must be a JSON object");
             }
             onlyKeys(root, "", new LinkedHashSet<>(List.of("conditions", "defect", "edge_exclusion_mm", "wafer",
-                    "edge_band_mm", "flag", "limits", "grades", "fail_grade", "profiles", "iron")));
+                    "edge_band_mm", "flag", "limits", "grades", "fail_grade", "profiles", "iron", "physics")));
+            PhysicsSettings physics = PhysicsSettings.DEFAULTS;
+            if (root.has("physics")) {
+                try {
+                    physics = PhysicsSettingsFile.parse(root.get("physics"), name, "physics");
+                } catch (InvalidValueException e) {
+                    throw new RulesException(e.getMessage());
+                }
+            }
             MeasurementConditions c = MeasurementConditions.UNKNOWN;
             boolean override = false;
             if (root.has("conditions")) {
@@ -425,7 +444,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
             }
             List<Profile> profiles = root.has("profiles") ? profiles(root.get("profiles"), top) : List.of();
             return new Rules(c, override, defect, edgeExclusion, format, edgeBand, flag, limits, grades, failGrade,
-                    profiles);
+                    profiles, physics);
         }
 
         String defect(JsonNode node, String path) throws RulesException {

@@ -12,7 +12,6 @@ import trapmap.maps.geometry.OutlineFit;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.MapFormatException;
-import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.ConversionSettings;
@@ -181,7 +180,8 @@ public final class WaferInspection {
         // the evaluated lifetimes, packed in index order: converted, then summed and ranked (which reorders them)
         float[] lifeValues = Sample.gather(tau, masks);
         Defect defect = defectOverride != null ? defectOverride : defects.get(profile.defectId());
-        Density converted = profile.needsTrapDensity() ? trapDensity(lifetime, defect, lifeValues, masks) : null;
+        Density converted = profile.needsTrapDensity() ? trapDensity(lifetime, defect, lifeValues, masks,
+                ConversionSettings.of(rules.physics())) : null;
         WaferMap density = converted == null ? null : converted.map();
         Sample dens = converted == null ? null : Sample.ofPacked(converted.packed(), masks.count(), grid,
                 percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE), false);
@@ -243,13 +243,17 @@ public final class WaferInspection {
      * one, and the other five maps would be allocated and filled for every wafer.
      */
     static WaferMap trapDensity(WaferMap lifetime, Defect defect) {
-        Conditions conditions = MapConversion.physicsConditions(lifetime.conditions(), ConversionSettings.DEFAULTS);
+        return trapDensity(lifetime, defect, ConversionSettings.DEFAULTS);
+    }
+
+    /** As {@link #trapDensity(WaferMap, Defect)} with the given settings. */
+    static WaferMap trapDensity(WaferMap lifetime, Defect defect, ConversionSettings settings) {
+        Conditions conditions = MapConversion.physicsConditions(lifetime.conditions(), settings);
         float[] nt = new float[lifetime.raster().size()];
         new TrapDensityConverter(conditions, defect).convert(lifetime.raster().samples(), lifetime.width(),
                 new ConversionOutput(nt, null, null, null, null, null, null, null, null), 1);
         return lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), nt), Quantity.TRAP_DENSITY,
-                ProcessingStep.of("convert", "defect", defect.id(), "doping", conditions.doping().toString(),
-                        "injection", conditions.injection().toString()));
+                MapConversion.convertStep(conditions, defect, settings));
     }
 
     /**
@@ -259,16 +263,23 @@ public final class WaferInspection {
      */
     static WaferMap trapDensity(WaferMap lifetime, Defect defect, int[] indices, int count) {
         Masks masks = new Masks(null, indices, count, null);
-        return trapDensity(lifetime, defect, Sample.gather(lifetime.raster().samples(), masks), masks).map();
+        return trapDensity(lifetime, defect, Sample.gather(lifetime.raster().samples(), masks), masks,
+                ConversionSettings.DEFAULTS).map();
     }
 
     /** A trap-density map and its values at the evaluated pixels, packed in index order. */
     record Density(WaferMap map, float[] packed) {
     }
 
-    /** As {@link #trapDensity(WaferMap, Defect, int[], int)} from the evaluated lifetimes, packed in index order. */
+    /** As {@link #trapDensity(WaferMap, Defect, float[], Masks, ConversionSettings)} with the default settings. */
     static Density trapDensity(WaferMap lifetime, Defect defect, float[] packedTau, Masks masks) {
-        Conditions conditions = MapConversion.physicsConditions(lifetime.conditions(), ConversionSettings.DEFAULTS);
+        return trapDensity(lifetime, defect, packedTau, masks, ConversionSettings.DEFAULTS);
+    }
+
+    /** As {@link #trapDensity(WaferMap, Defect, int[], int)} from the evaluated lifetimes, packed in index order. */
+    static Density trapDensity(WaferMap lifetime, Defect defect, float[] packedTau, Masks masks,
+                               ConversionSettings settings) {
+        Conditions conditions = MapConversion.physicsConditions(lifetime.conditions(), settings);
         int[] indices = masks.indices();
         int count = masks.count();
         float[] nt = new float[lifetime.raster().size()];
@@ -282,8 +293,7 @@ public final class WaferInspection {
             }
         }
         WaferMap map = lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), nt),
-                Quantity.TRAP_DENSITY, ProcessingStep.of("convert", "defect", defect.id(), "doping",
-                        conditions.doping().toString(), "injection", conditions.injection().toString()));
+                Quantity.TRAP_DENSITY, MapConversion.convertStep(conditions, defect, settings));
         return new Density(map, out);
     }
 

@@ -1,32 +1,55 @@
 package trapmap.maps.process;
 
-import trapmap.physics.conversion.Conditions;
+import trapmap.physics.conversion.PhysicsSettings;
 import trapmap.physics.material.ThermalVelocityModel;
 import trapmap.physics.recombination.SurfaceModel;
+import trapmap.shared.check.Checks;
 
 /**
- * Model choices of a map conversion that are not measurement conditions.
+ * What a map conversion needs besides the measurement conditions and the defect: the physics settings (one
+ * {@link PhysicsSettings} object shared by every face) and the reference injection of harmonised lifetimes.
  *
- * @param velocities               thermal-velocity model
- * @param surfaceModel             surface-lifetime model
+ * @param physics                  model choices
  * @param referenceInjectionPerCm3 Δn for harmonised lifetimes, cm^-3 (NaN: none)
- * @param detectionResolution      relative lifetime resolution for the detection limit
  */
-public record ConversionSettings(ThermalVelocityModel velocities, SurfaceModel surfaceModel,
-                                 double referenceInjectionPerCm3, double detectionResolution) {
+public record ConversionSettings(PhysicsSettings physics, double referenceInjectionPerCm3) {
     /** The normative defaults. */
-    public static final ConversionSettings DEFAULTS = new ConversionSettings(ThermalVelocityModel.FIXED,
-            SurfaceModel.SPROUL, Double.NaN, Conditions.DEFAULT_RESOLUTION);
+    public static final ConversionSettings DEFAULTS = new ConversionSettings(PhysicsSettings.DEFAULTS, Double.NaN);
+
+    public ConversionSettings {
+        Checks.notNull(physics, "physics");
+    }
+
+    /** The given physics settings, no reference injection. */
+    public static ConversionSettings of(PhysicsSettings physics) {
+        return new ConversionSettings(physics, Double.NaN);
+    }
+
+    public ThermalVelocityModel velocities() {
+        return physics.velocities();
+    }
+
+    public SurfaceModel surfaceModel() {
+        return physics.surfaceModel();
+    }
+
+    public double detectionResolution() {
+        return physics.detectionResolution();
+    }
 
     public ConversionSettings withReferenceInjection(double perCm3) {
-        return new ConversionSettings(velocities, surfaceModel, perCm3, detectionResolution);
+        return new ConversionSettings(physics, perCm3);
+    }
+
+    public ConversionSettings withPhysics(PhysicsSettings p) {
+        return new ConversionSettings(p, referenceInjectionPerCm3);
     }
 
     public ConversionSettings withVelocities(ThermalVelocityModel v) {
-        return new ConversionSettings(v, surfaceModel, referenceInjectionPerCm3, detectionResolution);
+        return withPhysics(physics.withVelocities(v));
     }
 
     public ConversionSettings withSurfaceModel(SurfaceModel m) {
-        return new ConversionSettings(velocities, m, referenceInjectionPerCm3, detectionResolution);
+        return withPhysics(physics.withSurfaceModel(m));
     }
 }

@@ -235,6 +235,9 @@ public final class IronMapping {
                 "injection_cm3", String.format(Locale.ROOT, "%.6g", dn),
                 "crossover_cm3", String.format(Locale.ROOT, "%.6g", imaging.crossoverPerCm3()),
                 "fe_i_state", feiId);
+        java.util.Map<String, String> withPhysics = new java.util.LinkedHashMap<>(step.parameters());
+        s.physics().describe().forEach((k, v) -> withPhysics.put("physics." + k, v));
+        step = new ProcessingStep(step.operation(), withPhysics);
         WaferMap iron = febState.derive(FloatRaster.wrap(febState.width(), febState.height(), fe),
                 Quantity.IRON_DENSITY, step);
         WaferMap statusMap = febState.derive(FloatRaster.wrap(febState.width(), febState.height(), status),

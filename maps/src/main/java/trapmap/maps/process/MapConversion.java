@@ -16,9 +16,7 @@ import trapmap.physics.conversion.Injection;
 import trapmap.physics.conversion.Surface;
 import trapmap.physics.conversion.TrapDensityConverter;
 import trapmap.physics.defect.Defect;
-import trapmap.physics.material.Silicon;
 import trapmap.physics.pl.PlCalibration;
-import trapmap.physics.recombination.RadiativeCoefficient;
 import trapmap.shared.error.InvalidValueException;
 
 /**
@@ -30,8 +28,12 @@ public final class MapConversion {
     private MapConversion() {
     }
 
-    /** The converted maps, one per {@link Quantity}, and the union of the warnings of all pixels. */
-    public record Result(Map<Quantity, WaferMap> maps, Set<ConversionWarning> warnings, String defectId) {
+    /**
+     * The converted maps, one per {@link Quantity}, the union of the warnings of all pixels and the wafer-level ones,
+     * the defect and the physics settings converted with.
+     */
+    public record Result(Map<Quantity, WaferMap> maps, Set<ConversionWarning> warnings, String defectId,
+                         trapmap.physics.conversion.PhysicsSettings physics) {
         public Result {
             maps = Map.copyOf(maps);
             warnings = Set.copyOf(warnings);
@@ -78,8 +80,8 @@ public final class MapConversion {
             surface = new Surface(c.thicknessUm(), c.srvCmPerS(), s.surfaceModel());
         }
         double t = c.temperatureK() == null ? 300 : c.temperatureK();
-        return new Conditions(c.doping(), Silicon.at(t, s.velocities()), injection, surface,
-                RadiativeCoefficient.TRUPKE_2003_CM3_PER_S, s.detectionResolution(), s.referenceInjectionPerCm3());
+        return new Conditions(c.doping(), s.physics().silicon(t), injection, surface, s.physics().radiativeCm3PerS(),
+                s.detectionResolution(), s.referenceInjectionPerCm3());
     }
 
     /**
@@ -103,6 +105,23 @@ public final class MapConversion {
         return pl.derive(tau, Quantity.EFFECTIVE_LIFETIME, ProcessingStep.of("pl-to-lifetime",
                 "calibration_counts_cm6", Double.toString(c.plCalibration()), "generation_cm3_s", Double.toString(g),
                 "doping_cm3", Double.toString(c.doping().densityPerCm3())));
+    }
+
+    /**
+     * The history entry of a conversion: defect, conditions, the reference injection and every physics setting
+     * (under the settings file's keys, see {@link trapmap.physics.conversion.PhysicsSettings#describe()}).
+     */
+    public static ProcessingStep convertStep(Conditions conditions, Defect defect, ConversionSettings settings) {
+        Map<String, String> p = new java.util.LinkedHashMap<>();
+        p.put("defect", defect.id());
+        p.put("doping", conditions.doping().toString());
+        p.put("injection", conditions.injection().toString());
+        p.put("surface", conditions.surface().ideal() ? "ideal" : conditions.surface().toString());
+        p.put("temperature_k", Double.toString(conditions.silicon().temperatureK()));
+        p.put("vth", settings.velocities().name());
+        p.put("reference_injection_cm3", Double.toString(settings.referenceInjectionPerCm3()));
+        settings.physics().describe().forEach((k, v) -> p.put("physics." + k, v));
+        return new ProcessingStep("convert", p);
     }
 
     /** Converts with all available processors. */
@@ -130,11 +149,7 @@ public final class MapConversion {
                 new float[n], new float[n], reference ? new float[n] : null, new byte[n], new byte[n]);
         converter.convert(lifetime.raster().samples(), lifetime.width(), out, threads);
 
-        ProcessingStep step = ProcessingStep.of("convert", "defect", defect.id(), "doping",
-                conditions.doping().toString(), "injection", conditions.injection().toString(), "surface",
-                conditions.surface().ideal() ? "ideal" : conditions.surface().toString(), "temperature_k",
-                Double.toString(conditions.silicon().temperatureK()), "vth", settings.velocities().name(),
-                "reference_injection_cm3", Double.toString(settings.referenceInjectionPerCm3()));
+        ProcessingStep step = convertStep(conditions, defect, settings);
         Map<Quantity, WaferMap> maps = new EnumMap<>(Quantity.class);
         int w = lifetime.width();
         int h = lifetime.height();
@@ -156,11 +171,12 @@ public final class MapConversion {
         int warningBits = 0;
         for (int i = 0; i < n; i++) {
             status[i] = out.status[i];
-            warningBits |= out.warnings[i];
+            warningBits |= out.warnings[i] & 0xFF;
         }
         maps.put(Quantity.STATUS, lifetime.derive(FloatRaster.wrap(w, h, status), Quantity.STATUS, step));
         Set<ConversionWarning> warnings = EnumSet.noneOf(ConversionWarning.class);
         warnings.addAll(ConversionWarning.fromMask(warningBits));
-        return new Result(maps, warnings, defect.id());
+        warnings.addAll(converter.conditionWarnings());
+        return new Result(maps, warnings, defect.id(), settings.physics());
     }
 }

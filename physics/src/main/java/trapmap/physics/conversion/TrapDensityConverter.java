@@ -1,5 +1,7 @@
 package trapmap.physics.conversion;
 
+import java.util.EnumSet;
+import java.util.Set;
 import java.util.concurrent.ForkJoinPool;
 import java.util.stream.IntStream;
 import trapmap.physics.defect.Defect;
@@ -52,6 +54,8 @@ public final class TrapDensityConverter {
     private final double trapDensityLimitFactor;
     private final double dopingPerCm3;
     private final int baseWarnings;
+    /** Warnings that depend only on the conditions and the defect (validity ranges, conductivity type). */
+    private final Set<ConversionWarning> conditionWarnings;
     // Per-wafer coefficients of the SRH terms (see the class comment).
     /** n0 + p0, cm^-3. */
     private final double sumN0P0;
@@ -106,6 +110,7 @@ public final class TrapDensityConverter {
             warn |= ConversionWarning.VELOCITY_CONVENTION.bit();
         }
         baseWarnings = warn;
+        conditionWarnings = validityWarnings(conditions, defect);
 
         sumN0P0 = srh.n0PerCm3() + srh.p0PerCm3();
         kA = kOffset(srh);
@@ -131,6 +136,34 @@ public final class TrapDensityConverter {
         hasReference = !Double.isNaN(ref);
         referenceIntrinsicRate = hasReference ? intrinsic.rateConstantPerS(ref) : Double.NaN;
         inverseReferenceK = hasReference ? 1.0 / lifetimeDensityProduct(ref) : Double.NaN;
+    }
+
+    /**
+     * The wafer-level warnings of {@code conditions} and {@code defect}: temperature outside the n_i model's fitted
+     * range, below the freeze-out limit, doping above the Boltzmann limit ({@link trapmap.physics.material.Doping}),
+     * a defect that does not suit the wafer's conductivity type ({@link trapmap.physics.defect.DefectLibrary}).
+     */
+    public static Set<ConversionWarning> validityWarnings(Conditions conditions, Defect defect) {
+        Set<ConversionWarning> w = EnumSet.noneOf(ConversionWarning.class);
+        if (conditions.silicon().outsideIntrinsicDensityFit()) {
+            w.add(ConversionWarning.TEMPERATURE_OUTSIDE_NI_FIT);
+        }
+        if (conditions.silicon().temperatureK() < trapmap.physics.material.Doping.FULL_IONISATION_MIN_TEMPERATURE_K) {
+            w.add(ConversionWarning.DOPANT_FREEZE_OUT);
+        }
+        if (conditions.doping().densityPerCm3() > trapmap.physics.material.Doping.BOLTZMANN_LIMIT_PER_CM3) {
+            w.add(ConversionWarning.DOPING_ABOVE_BOLTZMANN);
+        }
+        ConversionWarning type = ConversionWarning.forType(defect, conditions.doping().type());
+        if (type != null) {
+            w.add(type);
+        }
+        return Set.copyOf(w);
+    }
+
+    /** The wafer-level warnings of this conversion (the same for every pixel; never in a warning mask). */
+    public Set<ConversionWarning> conditionWarnings() {
+        return conditionWarnings;
     }
 
     /** a = (n0 + n1)/c_p + (p0 + p1)/c_n of K = (a + b·Δn)/(n0 + p0 + Δn), s·cm^-6. */
@@ -167,9 +200,14 @@ public final class TrapDensityConverter {
     public PixelResult convert(double effectiveLifetimeUs) {
         Pixel px = new Pixel();
         evaluate(effectiveLifetimeUs, px);
+        Set<ConversionWarning> warnings = EnumSet.noneOf(ConversionWarning.class);
+        warnings.addAll(ConversionWarning.fromMask(px.warnings));
+        if (px.status != PixelStatus.INVALID.code()) {
+            warnings.addAll(conditionWarnings);
+        }
         return new PixelResult(PixelStatus.ofCode(px.status), px.dn, effectiveLifetimeUs,
                 Units.US_PER_S / px.intrinsicRate, surfaceLifetimeUs(), px.srhLifetimeUs, px.nt, px.ntMin, px.ntMax,
-                px.occupancy, px.lifetimeAtReferenceUs, ConversionWarning.fromMask(px.warnings));
+                px.occupancy, px.lifetimeAtReferenceUs, warnings);
     }
 
     /** Converts a raster with all available processors. */

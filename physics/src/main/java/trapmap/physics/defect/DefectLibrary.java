@@ -2,9 +2,12 @@ package trapmap.physics.defect;
 
 import static trapmap.physics.material.ThermalVelocityModel.FIXED;
 
+import java.util.EnumSet;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.Set;
+import trapmap.physics.material.ConductivityType;
 import trapmap.physics.material.ThermalVelocityModel;
 import trapmap.shared.error.InvalidValueException;
 
@@ -13,11 +16,64 @@ import trapmap.shared.error.InvalidValueException;
  * of each parameter (the alternatives in the literature) for the density bounds. Cross-sections that are published
  * with a temperature dependence are evaluated at 300 K for the spread. All cross-sections belong to the
  * 1.1e7 cm/s thermal-velocity convention unless stated.
+ * <p>
+ * Validity range: the cross-sections are 300 K values; their temperature dependence is ignored, so a conversion
+ * away from 300 K (outside the band of {@code IntrinsicLifetime.TEMPERATURE_TOLERANCE_K}) carries the
+ * temperature warning. Each defect also states the conductivity types it suits ({@link #suitedTypes}): the types
+ * of material its level and cross-sections were measured in and where it forms; converting a map of another type
+ * carries {@code ConversionWarning.P_TYPE_DEFECT_ON_N_TYPE} or {@code N_TYPE_DEFECT_ON_P_TYPE}.
  */
 public final class DefectLibrary {
     private static final double KT300 = 8.617333262e-5 * 300;
 
     private static final Map<String, Defect> BUILT_IN = new LinkedHashMap<>();
+    /** Conductivity types each built-in defect suits, with the reason (see {@link #suitability}). */
+    private static final Map<String, Suitability> SUITED = new LinkedHashMap<>();
+
+    /**
+     * The conductivity types a defect suits and why.
+     *
+     * @param types  the types (both for a defect of unknown or either type)
+     * @param reason one line: where the defect forms and where its parameters were measured
+     */
+    public record Suitability(Set<ConductivityType> types, String reason) {
+        public Suitability {
+            types = Set.copyOf(types);
+        }
+
+        /** True when the defect suits material of type {@code t}. */
+        public boolean suits(ConductivityType t) {
+            return types.contains(t);
+        }
+
+        /** "p-type", "n-type" or "p- and n-type". */
+        public String label() {
+            if (types.size() == 2) {
+                return "p- and n-type";
+            }
+            return types.contains(ConductivityType.P) ? "p-type" : "n-type";
+        }
+    }
+
+    private static final Set<ConductivityType> P = EnumSet.of(ConductivityType.P);
+    private static final Set<ConductivityType> N = EnumSet.of(ConductivityType.N);
+    private static final Set<ConductivityType> BOTH = EnumSet.allOf(ConductivityType.class);
+
+    static {
+        SUITED.put("fe-i", new Suitability(P, "Fe_i+ pairs with boron and its cross-sections were measured in p-type"
+                + " silicon; in n-type Fe_i is neutral and its recombination differs"));
+        SUITED.put("fe-b", new Suitability(P, "iron-boron pairs form only in boron-doped p-type silicon"));
+        SUITED.put("cr-i", new Suitability(BOTH, "interstitial chromium is recombination-active in n- and p-type"
+                + " silicon (Schmidt et al. 2007)"));
+        SUITED.put("cr-b", new Suitability(P, "chromium-boron pairs form only in boron-doped p-type silicon"));
+        SUITED.put("ti-i", new Suitability(P, "parameters from lifetime spectroscopy on p-type silicon (Rein 2005)"));
+        SUITED.put("mo-i", new Suitability(P, "parameters from lifetime spectroscopy on p-type silicon (Rein 2005)"));
+        SUITED.put("au-a", new Suitability(N, "the gold acceptor level governs recombination in n-type silicon"));
+        SUITED.put("au-d", new Suitability(P, "the gold donor level governs recombination in p-type silicon"));
+        SUITED.put("ni-s", new Suitability(P, "parameters from lifetime spectroscopy on p-type silicon (Rein 2005)"));
+        SUITED.put("midgap", new Suitability(BOTH, "a generic reference level for either type"));
+        SUITED.put("bo-lid", new Suitability(P, "the boron-oxygen centre needs boron: p-type silicon"));
+    }
 
     static {
         add(Defect.of("fe-i", "interstitial iron (donor)", TrapLevel.aboveValenceBand(0.38), 1.3e-14, 7e-17, FIXED,
@@ -103,6 +159,29 @@ public final class DefectLibrary {
                     + String.join(", ", BUILT_IN.keySet()) + ")");
         }
         return d;
+    }
+
+    /**
+     * The conductivity types {@code d} suits: the library's statement for a built-in defect (matched by id and
+     * parameters), both types for a defect of the user's.
+     */
+    public static Suitability suitability(Defect d) {
+        Suitability s = d == null ? null : SUITED.get(d.id());
+        if (s == null || !d.equals(BUILT_IN.get(d.id()))) {
+            return new Suitability(BOTH, "user-defined defect: its conductivity type is not known");
+        }
+        return s;
+    }
+
+    /** The conductivity types a built-in defect suits (both for a defect of the user's). */
+    public static Set<ConductivityType> suitedTypes(Defect d) {
+        return suitability(d).types();
+    }
+
+    /** The ids of the built-in defects that suit material of type {@code t} and give a density, in library order. */
+    public static List<String> suitedFor(ConductivityType t) {
+        return BUILT_IN.values().stream().filter(Defect::hasAbsoluteCrossSections)
+                .filter(d -> SUITED.get(d.id()).suits(t)).map(Defect::id).toList();
     }
 
     /** The thermal-velocity convention of the built-in cross-sections. */

@@ -15,10 +15,11 @@ import trapmap.shared.check.Checks;
  * @param electronVthCmPerS     electron thermal velocity, cm/s
  * @param holeVthCmPerS         hole thermal velocity, cm/s
  * @param velocityModel         the thermal-velocity convention the velocities follow (null when overridden)
+ * @param intrinsicModel        the n_i model n_i comes from (null when overridden)
  */
 public record Silicon(double temperatureK, double intrinsicPerCm3, double conductionDosPerCm3,
                       double valenceDosPerCm3, double electronVthCmPerS, double holeVthCmPerS,
-                      ThermalVelocityModel velocityModel) {
+                      ThermalVelocityModel velocityModel, IntrinsicDensityModel intrinsicModel) {
 
     /** Lowest temperature the models are offered for, K. */
     public static final double MIN_TEMPERATURE_K = 77;
@@ -32,6 +33,18 @@ public record Silicon(double temperatureK, double intrinsicPerCm3, double conduc
         Checks.positive(valenceDosPerCm3, "valenceBandDensityOfStates", "cm^-3");
         Checks.positive(electronVthCmPerS, "electronThermalVelocity", "cm/s");
         Checks.positive(holeVthCmPerS, "holeThermalVelocity", "cm/s");
+    }
+
+    /** Silicon with an n_i of unknown origin (no n_i model: no fitted range to check). */
+    public Silicon(double temperatureK, double intrinsicPerCm3, double conductionDosPerCm3, double valenceDosPerCm3,
+                   double electronVthCmPerS, double holeVthCmPerS, ThermalVelocityModel velocityModel) {
+        this(temperatureK, intrinsicPerCm3, conductionDosPerCm3, valenceDosPerCm3, electronVthCmPerS, holeVthCmPerS,
+                velocityModel, null);
+    }
+
+    /** True when the temperature lies outside the fitted range of the n_i model (false when n_i was given). */
+    public boolean outsideIntrinsicDensityFit() {
+        return intrinsicModel != null && !intrinsicModel.covers(temperatureK);
     }
 
     /** Silicon at {@code temperatureK} with the default models. */
@@ -50,7 +63,7 @@ public record Silicon(double temperatureK, double intrinsicPerCm3, double conduc
         Checks.inRange(temperatureK, MIN_TEMPERATURE_K, MAX_TEMPERATURE_K, "temperature", "K");
         return new Silicon(temperatureK, ni.densityPerCm3(temperatureK), dos.conductionPerCm3(temperatureK),
                 dos.valencePerCm3(temperatureK), velocities.electronCmPerS(temperatureK),
-                velocities.holeCmPerS(temperatureK), velocities);
+                velocities.holeCmPerS(temperatureK), velocities, ni);
     }
 
     /** Thermal energy kT, eV. */
@@ -61,18 +74,18 @@ public record Silicon(double temperatureK, double intrinsicPerCm3, double conduc
     /** The same silicon with another intrinsic carrier density. */
     public Silicon withIntrinsicDensity(double perCm3) {
         return new Silicon(temperatureK, perCm3, conductionDosPerCm3, valenceDosPerCm3, electronVthCmPerS,
-                holeVthCmPerS, velocityModel);
+                holeVthCmPerS, velocityModel, null);
     }
 
     /** The same silicon with other thermal velocities (the velocity model is then unknown: null). */
     public Silicon withThermalVelocities(double electronCmPerS, double holeCmPerS) {
         return new Silicon(temperatureK, intrinsicPerCm3, conductionDosPerCm3, valenceDosPerCm3, electronCmPerS,
-                holeCmPerS, null);
+                holeCmPerS, null, intrinsicModel);
     }
 
     /** The same silicon with other effective densities of states. */
     public Silicon withDensitiesOfStates(double conductionPerCm3, double valencePerCm3) {
         return new Silicon(temperatureK, intrinsicPerCm3, conductionPerCm3, valencePerCm3, electronVthCmPerS,
-                holeVthCmPerS, velocityModel);
+                holeVthCmPerS, velocityModel, intrinsicModel);
     }
 }

@@ -8,7 +8,8 @@ import trapmap.shared.check.Checks;
 /**
  * Intrinsic (Auger + radiative) lifetime of Richter et al., PRB 86, 165202 (2012), Table II coefficients, valid at
  * 300 K, with B_low of Trupke et al. (2003) and B_rel of Altermatt et al. (2005); n_i,eff = n_i (no band-gap
- * narrowing):
+ * narrowing). Validity range: 300 K (±{@link #TEMPERATURE_TOLERANCE_K} K is treated as 300 K); the fit covers
+ * doping and injection from about 1e13 to 1e20 cm^-3 (from memory of the paper's data range).
  * <pre>
  * 1/τ_intr = (n p − n_i²)/Δn · [2.5e-31 g_eeh n0 + 8.5e-32 g_ehh p0 + 3.0e-29 Δn^0.92 + B_rel B_low]
  * g_eeh = 1 + 13 [1 − tanh((n0/3.3e17)^0.66)],  g_ehh = 1 + 7.5 [1 − tanh((p0/7.0e17)^0.63)]
@@ -76,9 +77,24 @@ public final class IntrinsicLifetime {
         return sum * (augerDopingCm3PerS + 3.0e-29 * AUGER_INJECTION_POWER.of(dn) + b);
     }
 
-    /** True when the temperature differs from the 300 K at which Richter 2012 was validated. */
+    /** The temperature at which Richter 2012 was measured and validated, K. */
+    public static final double VALIDATED_TEMPERATURE_K = 300;
+    /**
+     * Half-width of the band around 300 K that counts as 300 K for the validity warning, K. 297–303 K holds the usual
+     * room temperatures (25 °C = 298.15 K, temperature-controlled chucks at 300 ± 1 K). Over 3 K the Auger and
+     * radiative coefficients move by well under 1 % (the temperature dependence of B_rel in Altermatt 2005 and the
+     * weak T-dependence of the Auger coefficients reported around room temperature, from memory), and a power-law
+     * capture cross-section σ ∝ T^-2 by 2 % — below the 5 % detection resolution, so a warning inside the band
+     * would change no conclusion (common practice).
+     */
+    public static final double TEMPERATURE_TOLERANCE_K = 3;
+
+    /**
+     * True when the temperature lies outside 300 ± {@link #TEMPERATURE_TOLERANCE_K} K, away from the 300 K at which
+     * Richter 2012 was validated.
+     */
     public boolean outsideValidatedTemperature() {
-        return Math.abs(temperatureK - 300.0) > 0.5;
+        return Math.abs(temperatureK - VALIDATED_TEMPERATURE_K) > TEMPERATURE_TOLERANCE_K;
     }
 
     /**

@@ -25,6 +25,12 @@ public record LoadedRules(Path file, Rules rules, WaferInspection inspection) {
         return new LoadedRules(abs, rules, new WaferInspection(rules));
     }
 
+    /** The same file judged with other physics settings (they replace the file's physics block). */
+    public LoadedRules withPhysics(trapmap.physics.conversion.PhysicsSettings p) {
+        Rules r = rules.withPhysics(p);
+        return new LoadedRules(file, r, new WaferInspection(r));
+    }
+
     /** The file's name, as the verdicts name it. */
     public String name() {
         return file.getFileName().toString();

@@ -1,6 +1,7 @@
 package trapmap.viewer.model;
 
 import java.nio.file.Path;
+import trapmap.physics.conversion.PhysicsSettings;
 import java.util.List;
 import java.util.Map;
 import trapmap.physics.defect.Defect;
@@ -17,9 +18,12 @@ import trapmap.physics.defect.Defect;
  * @param rules       the rules file that judges the wafers, absolute, or null for the quick threshold check
  * @param defectForAll the defect that replaces every rules profile's, or null
  * @param defects     per file (absolute path), the defect that replaces its profile's or the viewer's
+ * @param physics     the physics settings the user chose (the {@code physics} block), or null: the rules file's
+ *                    block, else the defaults
  */
 public record Session(List<Path> files, int selected, Analysis analysis, List<Defect> userDefects,
-                      Map<Path, ViewState> views, Path rules, String defectForAll, Map<Path, String> defects) {
+                      Map<Path, ViewState> views, Path rules, String defectForAll, Map<Path, String> defects,
+                      PhysicsSettings physics) {
     /** Current version of the session file format. */
     public static final int VERSION = 1;
 
@@ -28,6 +32,12 @@ public record Session(List<Path> files, int selected, Analysis analysis, List<De
         userDefects = List.copyOf(userDefects);
         views = Map.copyOf(views);
         defects = Map.copyOf(defects);
+    }
+
+    /** A session without physics settings of its own. */
+    public Session(List<Path> files, int selected, Analysis analysis, List<Defect> userDefects,
+                   Map<Path, ViewState> views, Path rules, String defectForAll, Map<Path, String> defects) {
+        this(files, selected, analysis, userDefects, views, rules, defectForAll, defects, null);
     }
 
     /** A session without a rules file or defect overrides. */
@@ -53,7 +63,7 @@ public record Session(List<Path> files, int selected, Analysis analysis, List<De
         }
         LoadedRules rules = model.rules();
         return new Session(files, model.selectedIndex(), model.analysis(), model.defects().userDefined(), views,
-                rules == null ? null : rules.file(), model.defectOverrideAll(), defects);
+                rules == null ? null : rules.file(), model.defectOverrideAll(), defects, model.physicsOverride());
     }
 
     /**
@@ -68,6 +78,7 @@ public record Session(List<Path> files, int selected, Analysis analysis, List<De
         model.defects().clearUserDefined();
         userDefects.forEach(model::addDefect);
         model.resetAnalysis(analysis);
+        model.setPhysics(physics);
         List<String> errors = new java.util.ArrayList<>();
         try {
             model.setRules(rules == null ? null : LoadedRules.read(rules));

@@ -44,6 +44,7 @@ import trapmap.physics.defect.Defect;
  *  "views": {"wafers/w07.tif": {"zoom": 2, "centre_x_px": 128, "centre_y_px": 128}},
  *  "rules": "rules-example.json",          (or null: the quick threshold check)
  *  "defect_for_all": null,                  (a defect replacing every rules profile's)
+ *  "physics": {"thermal_velocity": "green", …}  (or null: the rules file's physics block, else the defaults)
  *  "defect_overrides": {"wafers/w07.tif": "cr-i"}}   (per file)
  * </pre>
  * Unknown keys are errors; every error names the file and the field (with its unit). Writing is atomic.
@@ -59,7 +60,7 @@ public final class SessionFiles {
 
     private static final Set<String> KEYS = Set.of("format", "version", "files", "selected", "conditions", "defect",
             "user_defects", "quantity", "display", "threshold", "line", "edge_exclusion_mm", "views", "rules",
-            "defect_for_all", "defect_overrides");
+            "defect_for_all", "defect_overrides", "physics");
 
     /** A session file that cannot be used; the message names the file and the field. */
     public static final class SessionException extends IOException {
@@ -143,6 +144,11 @@ public final class SessionFiles {
             root.put("rules", rel(s.rules(), dir));
         }
         root.put("defect_for_all", s.defectForAll());
+        if (s.physics() == null) {
+            root.putNull("physics");
+        } else {
+            root.set("physics", JSON.valueToTree(trapmap.maps.io.PhysicsSettingsFile.toJson(s.physics())));
+        }
         ObjectNode on = root.putObject("defect_overrides");
         s.defects().entrySet().stream().sorted(Map.Entry.comparingByKey()).forEach(e -> on.put(rel(e.getKey(), dir),
                 e.getValue()));
@@ -409,8 +415,17 @@ public final class SessionFiles {
                 overrides.put(resolve(e.getKey(), dir), knownDefect(r, e.getValue().asText(), f, userDefects));
             }
         }
+        trapmap.physics.conversion.PhysicsSettings physics = null;
+        JsonNode pn = root.get("physics");
+        if (pn != null && !pn.isNull()) {
+            try {
+                physics = trapmap.maps.io.PhysicsSettingsFile.parse(pn, name, "physics");
+            } catch (trapmap.shared.error.InvalidValueException e) {
+                throw new SessionException(e.getMessage());
+            }
+        }
         return new Session(files, files.isEmpty() ? -1 : selected, analysis, userDefects, views, rules, forAll,
-                overrides);
+                overrides, physics);
     }
 
     private static String knownDefect(Reader r, String id, String field, List<Defect> userDefects)

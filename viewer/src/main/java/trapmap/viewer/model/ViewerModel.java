@@ -18,6 +18,7 @@ import trapmap.maps.profile.LineProfile;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
+import trapmap.physics.conversion.PhysicsSettings;
 import trapmap.physics.conversion.TrapDensityConverter;
 import trapmap.physics.defect.Defect;
 
@@ -104,6 +105,10 @@ public final class ViewerModel {
     private volatile int selected = -1;
     private volatile Analysis analysis = Analysis.DEFAULT;
     private volatile LoadedRules rules;
+    /** The rules that judge: {@link #rules} with {@link #physicsOverride} applied (null without rules). */
+    private volatile LoadedRules judging;
+    /** Physics settings chosen by the user (view --physics, a session's block), or null: the rules' or defaults. */
+    private volatile PhysicsSettings physicsOverride;
     private volatile String defectOverrideAll;
 
     public void addListener(Listener l) {
@@ -367,6 +372,36 @@ public final class ViewerModel {
     /** Uses {@code r} (null: the quick threshold check) and tells the listeners. */
     public void setRules(LoadedRules r) {
         rules = r;
+        judging = r == null || physicsOverride == null ? r : r.withPhysics(physicsOverride);
+        fire(Change.RULES);
+    }
+
+    /**
+     * The physics settings every wafer is converted with: the user's ({@link #setPhysics}), else the rules file's
+     * physics block, else the defaults.
+     */
+    public PhysicsSettings physics() {
+        PhysicsSettings o = physicsOverride;
+        if (o != null) {
+            return o;
+        }
+        LoadedRules r = rules;
+        return r != null ? r.rules().physics() : PhysicsSettings.DEFAULTS;
+    }
+
+    /** The physics settings the user chose, or null when the rules' block or the defaults apply. */
+    public PhysicsSettings physicsOverride() {
+        return physicsOverride;
+    }
+
+    /**
+     * Converts with {@code p} from now on (null: the rules file's block, else the defaults); with a rules file they
+     * replace its physics block, as {@code trapmap inspect --physics} does.
+     */
+    public void setPhysics(PhysicsSettings p) {
+        physicsOverride = p;
+        LoadedRules r = rules;
+        judging = r == null || p == null ? r : r.withPhysics(p);
         fire(Change.RULES);
     }
 
@@ -440,7 +475,7 @@ public final class ViewerModel {
     }
 
     /** What a wafer's results depend on besides the analysis: the rules and the defect override. */
-    private record ResultKey(LoadedRules rules, String override) {
+    private record ResultKey(LoadedRules rules, String override, PhysicsSettings physics) {
     }
 
     private Analysis effectiveAnalysis(OpenWafer w) {
@@ -455,7 +490,7 @@ public final class ViewerModel {
         OpenWafer w = wafers.get(i);
         WaferAnalysis r = w.result;
         return r != null && r.analysis().sameResults(effectiveAnalysis(w))
-                && new ResultKey(rules, overrideFor(w)).equals(w.resultKey);
+                && new ResultKey(judging, overrideFor(w), physics()).equals(w.resultKey);
     }
 
     /**
@@ -467,9 +502,10 @@ public final class ViewerModel {
      */
     public WaferAnalysis compute(int i, BooleanSupplier cancelled) {
         OpenWafer w = wafers.get(i);
-        LoadedRules lr = rules;
+        LoadedRules lr = judging;
         String override = overrideFor(w);
-        ResultKey key = new ResultKey(lr, override);
+        PhysicsSettings physics = physics();
+        ResultKey key = new ResultKey(lr, override, physics);
         Analysis a = lr == null && override != null ? analysis.withDefect(override) : analysis;
         WaferAnalysis old = w.result;
         if (old != null && old.analysis().sameResults(a) && key.equals(w.resultKey)) {
@@ -485,7 +521,7 @@ public final class ViewerModel {
                 r = WaferAnalyzer.judge(w.path.getFileName().toString(), w.map, a, lr,
                         override == null ? null : defects.byId(override), d, old, cancelled);
             } else {
-                r = WaferAnalyzer.analyse(w.map, a, d, old, cancelled);
+                r = WaferAnalyzer.analyse(w.map, a, d, old, cancelled, physics);
                 if (override != null) {
                     r = r.withVerdict(r.verdict().withDefectOverridden());
                 }
@@ -606,7 +642,7 @@ public final class ViewerModel {
     private synchronized TrapDensityConverter converter(WaferAnalysis r, Defect d) {
         if (convFor != r || converter == null || !converter.defect().equals(d)) {
             converter = new TrapDensityConverter(MapConversion.physicsConditions(r.lifetime().conditions(),
-                    ConversionSettings.DEFAULTS), d);
+                    ConversionSettings.of(r.conversion() != null ? r.conversion().physics() : physics())), d);
             convFor = r;
         }
         return converter;

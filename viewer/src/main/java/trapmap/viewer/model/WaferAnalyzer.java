@@ -18,6 +18,7 @@ import trapmap.maps.region.RegionTable;
 import trapmap.maps.region.ThresholdRegions;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
+import trapmap.physics.conversion.PhysicsSettings;
 import trapmap.physics.defect.Defect;
 
 /**
@@ -25,7 +26,7 @@ import trapmap.physics.defect.Defect;
  * outline and flagged regions from the batch's own engine ({@link WaferInspection#judge}). Without one,
  * {@link #analyse} runs the viewer's quick threshold check with the same maps-module calls, in the same order, as the batch engine
  * ({@link WaferInspection#evaluate}): conditions applied, PL converted to lifetime, conversion with
- * {@link ConversionSettings#DEFAULTS}, outline fitted to the lifetime's valid pixels, mask = valid lifetime ∩
+ * the model's physics settings, outline fitted to the lifetime's valid pixels, mask = valid lifetime ∩
  * outline less the edge exclusion (outline by {@link OutlineFits#fit}), regions and their pixels over
  * that mask in one pass by {@link FlaggedRegions#find} (the regions of {@link ThresholdRegions}), flagged
  * fraction = region area / evaluated lifetime area. A viewer figure therefore equals the batch's for the same settings.
@@ -52,9 +53,20 @@ public final class WaferAnalyzer {
         };
     }
 
-    /** The conversion of {@code lifetime} for {@code defect} (all processors). */
+    /** The conversion of {@code lifetime} for {@code defect} with the default physics (all processors). */
     public static MapConversion.Result convert(WaferMap lifetime, Defect defect) {
-        return MapConversion.convert(lifetime, defect, ConversionSettings.DEFAULTS);
+        return convert(lifetime, defect, PhysicsSettings.DEFAULTS);
+    }
+
+    /** The conversion of {@code lifetime} for {@code defect} with {@code physics} (all processors). */
+    public static MapConversion.Result convert(WaferMap lifetime, Defect defect, PhysicsSettings physics) {
+        return MapConversion.convert(lifetime, defect, ConversionSettings.of(physics));
+    }
+
+    /** As {@link #analyse(WaferMap, Analysis, Defect, WaferAnalysis, BooleanSupplier, PhysicsSettings)} with the defaults. */
+    public static WaferAnalysis analyse(WaferMap read, Analysis analysis, Defect defect, WaferAnalysis previous,
+                                        BooleanSupplier cancelled) {
+        return analyse(read, analysis, defect, previous, cancelled, PhysicsSettings.DEFAULTS);
     }
 
     /**
@@ -66,16 +78,18 @@ public final class WaferAnalyzer {
      * @param previous   earlier results of the same map, or null: its conversion is reused for the same conditions
      *                   and defect, its outline for the same conditions
      * @param cancelled  polled between the steps; when it turns true a {@link CancellationException} is thrown
+     * @param physics    the physics settings of the conversion
      */
     public static WaferAnalysis analyse(WaferMap read, Analysis analysis, Defect defect, WaferAnalysis previous,
-                                        BooleanSupplier cancelled) {
+                                        BooleanSupplier cancelled, PhysicsSettings physics) {
         boolean sameLifetime = previous != null && previous.analysis().conditions().equals(analysis.conditions());
         WaferMap lifetime = sameLifetime ? previous.lifetime() : lifetime(read, analysis.conditions());
         check(cancelled);
         MapConversion.Result conv = previous != null && previous.analysis().sameConversion(analysis)
+                && previous.conversion() != null && previous.conversion().physics().equals(physics)
                 ? previous.conversion() : null;
         if (conv == null && defect != null && defect.hasAbsoluteCrossSections()) {
-            conv = convert(lifetime, defect);
+            conv = convert(lifetime, defect, physics);
         }
         check(cancelled);
         DisplayedQuantity q = analysis.quantity();
@@ -143,13 +157,15 @@ public final class WaferAnalyzer {
         WaferMap lifetime = ev.lifetime();
         Defect defect = ev.defect() != null ? ev.defect() : fallback;
         MapConversion.Result conv = null;
+        PhysicsSettings physics = rules.rules().physics();
         if (previous != null && previous.conversion() != null && defect != null
                 && previous.conversion().defectId().equals(defect.id())
+                && previous.conversion().physics().equals(physics)
                 && previous.lifetime().conditions().equals(lifetime.conditions())) {
             conv = previous.conversion();
         }
         if (conv == null && defect != null && defect.hasAbsoluteCrossSections()) {
-            conv = convert(lifetime, defect);
+            conv = convert(lifetime, defect, physics);
         }
         check(cancelled);
         DisplayedQuantity q = analysis.quantity();

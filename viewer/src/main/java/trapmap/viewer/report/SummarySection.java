@@ -87,6 +87,10 @@ final class SummarySection {
         flow.paragraph("Each wafer is judged by the first profile of the rules that matches it, else by the"
                 + " default profile; each profile has its own defect, flag, limits and grades (a section for each"
                 + " follows).", PdfPage.REGULAR, 8.5f);
+        if (c.rules() != null) {
+            flow.paragraph("Physics settings of every conversion: " + c.rules().physics().oneLine() + ".",
+                    PdfPage.REGULAR, 8.5f);
+        }
         List<String[]> rows = new ArrayList<>();
         for (Map.Entry<String, List<BatchContent.Row>> e : groups.entrySet()) {
             Rules.Profile prof = c.profile(e.getKey());

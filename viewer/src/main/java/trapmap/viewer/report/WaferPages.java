@@ -52,6 +52,16 @@ public final class WaferPages {
      *                               cannot be used (an unknown quantity or defect, a map that cannot be read or judged)
      */
     public static Written write(Path map, Path rulesFile, String quantityKey, String defectOverride, Path pdf)
+            throws java.io.IOException, trapmap.maps.batch.RulesException {
+        return write(map, rulesFile, quantityKey, defectOverride, pdf, null);
+    }
+
+    /**
+     * As {@link #write(Path, Path, String, String, Path)}, converting with {@code physics} (null: the rules
+     * file's physics block), which replaces the rules file's block.
+     */
+    public static Written write(Path map, Path rulesFile, String quantityKey, String defectOverride, Path pdf,
+                                trapmap.physics.conversion.PhysicsSettings physics)
             throws IOException, RulesException {
         DisplayedQuantity q;
         try {
@@ -61,6 +71,9 @@ public final class WaferPages {
         }
         ViewerModel model = new ViewerModel();
         model.loadRules(rulesFile);
+        if (physics != null) {
+            model.setPhysics(physics);
+        }
         ViewerModel.OpenOutcome opened = model.open(List.of(map));
         if (model.size() != 1) {
             throw new InvalidValueException("map", "", opened.errors().isEmpty() ? map + ": not a map"
@@ -98,6 +111,9 @@ public final class WaferPages {
         notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f µs, median %.1f µs over %.0f mm^2 (edge"
                 + " exclusion %s mm)", r.lifetimeStats().harmonicMean(), r.lifetimeStats().median(),
                 r.lifetimeStats().areaMm2(), Units.number(r.edgeExclusionMm())));
+        if (r.conversion() != null) {
+            notes.add("physics settings: " + r.conversion().physics().oneLine());
+        }
         r.warnings().forEach(x -> notes.add("caution: " + x.message()));
         return WaferReport.Content.of(r.displayed(), file.toString()).withStyle(style)
                 .withStatisticsMask(r.mask()).withFlags(r.flagThreshold(), r.flagged(), r.regions(), r.flagUnit())

@@ -131,7 +131,8 @@ final class CompareDialog extends JDialog {
             WaferMap bm = WaferAnalyzer.lifetime(b.map(), an.conditions());
             WaferMap am = WaferAnalyzer.lifetime(a.map(), an.conditions());
             Defect d = !iron && an.quantity() == DisplayedQuantity.TRAP_DENSITY ? model.defect() : null;
-            panel.setOptions(CompareModel.Options.defaults().withDefect(d).withIron(iron));
+            panel.setOptions(CompareModel.Options.defaults().withDefect(d).withIron(iron)
+                    .withSettings(trapmap.maps.process.ConversionSettings.of(model.physics())));
             problem.setText(" ");
             panel.setMaps(bm, am);
         } catch (RuntimeException e) {

@@ -190,6 +190,25 @@ final class SessionController {
         }
     }
 
+    /** Asks for a physics settings file and converts every wafer with it. */
+    void choosePhysics() {
+        JFileChooser fc = chooser();
+        fc.setFileFilter(new FileNameExtensionFilter("Physics settings (.json)", "json"));
+        if (fc.showOpenDialog(window) == JFileChooser.APPROVE_OPTION) {
+            try {
+                usePhysics(trapmap.maps.io.PhysicsSettingsFile.read(fc.getSelectedFile().toPath()));
+            } catch (RuntimeException e) {
+                window.error("Physics settings not loaded", e);
+            }
+        }
+    }
+
+    /** Converts with {@code p} (null: the rules file's block, else the defaults). */
+    void usePhysics(trapmap.physics.conversion.PhysicsSettings p) {
+        model.setPhysics(p);
+        status.setMessage("physics settings: " + model.physics().oneLine());
+    }
+
     /** Drops the rules file: the quick threshold check judges again. */
     void useQuickCheck() {
         model.setRules(null);

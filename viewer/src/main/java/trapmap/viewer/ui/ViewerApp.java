@@ -54,8 +54,18 @@ public final class ViewerApp {
      * @throws IllegalArgumentException when the rules file is not valid (the message names the file and the field)
      */
     public static void open(List<Path> files, Path rules) throws InterruptedException {
+        open(files, rules, null);
+    }
+
+    /**
+     * As {@link #open(List, Path)}, converting with the physics settings file {@code physics} (null: the rules
+     * file's block, else the defaults).
+     *
+     * @throws IllegalArgumentException when the rules or physics file is not valid (the message names the field)
+     */
+    public static void open(List<Path> files, Path rules, Path physics) throws InterruptedException {
         CountDownLatch closed = new CountDownLatch(1);
-        ViewerWindow w = show(files, null, rules);
+        ViewerWindow w = show(files, null, rules, physics);
         w.addWindowListener(new WindowAdapter() {
             @Override
             public void windowClosed(WindowEvent e) {
@@ -88,7 +98,15 @@ public final class ViewerApp {
      * @throws IllegalArgumentException when the rules file is not valid
      */
     public static ViewerWindow show(List<Path> files, RecentFiles recent, Path rules) {
+        return show(files, recent, rules, null);
+    }
+
+    /** As {@link #show(List, RecentFiles, Path)}, converting with the physics settings file {@code physics}. */
+    public static ViewerWindow show(List<Path> files, RecentFiles recent, Path rules, Path physics) {
         ViewerModel model = new ViewerModel();
+        if (physics != null) {
+            model.setPhysics(trapmap.maps.io.PhysicsSettingsFile.read(physics));
+        }
         if (rules != null) {
             try {
                 model.loadRules(rules);

@@ -435,7 +435,7 @@ public final class ViewerWindow extends JFrame {
         }
         try {
             injectionView.show(PixelInjection.sweep(w.result().lifetime(), p.xPx(), p.yPx(), d,
-                    ConversionSettings.DEFAULTS));
+                    ConversionSettings.of(model.physics())));
         } catch (RuntimeException e) {
             status.setMessage("injection curve: " + e.getMessage());
         }

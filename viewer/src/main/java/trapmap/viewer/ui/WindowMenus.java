@@ -120,6 +120,10 @@ final class WindowMenus {
                 "Judge every open wafer by a rules file (as trapmap inspect does): profile, defect, verdict, grade"));
         file.add(item(action("Use quick threshold check", null, e -> sessions.useQuickCheck()),
                 "Drop the rules file: the threshold panel's own rule judges the wafers (not a rules verdict)"));
+        file.add(item(action("Load physics settings…", null, e -> sessions.choosePhysics()),
+                "Convert every wafer with a physics settings file (as --physics does; replaces the rules file's block)"));
+        file.add(item(action("Use default physics settings", null, e -> sessions.usePhysics(null)),
+                "Convert with the rules file's physics block, else the default models"));
         file.addSeparator();
         file.add(item(action("Export view PNG…", KeyStroke.getKeyStroke(KeyEvent.VK_E, MENU), e -> exports.exportView()),
                 "Save the map view as shown (with flags and line) as a PNG picture"));

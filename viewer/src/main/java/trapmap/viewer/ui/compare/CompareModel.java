@@ -83,6 +83,10 @@ public final class CompareModel {
         public Options withDefect(Defect d) {
             return new Options(register, maxRotationDeg, relativeTolerance, d, iron, settings);
         }
+
+        public Options withSettings(ConversionSettings s) {
+            return new Options(register, maxRotationDeg, relativeTolerance, defect, iron, s);
+        }
     }
 
     /**
