@@ -105,6 +105,9 @@ final class ConvertCommand implements Callable<Integer> {
         m.put("defect", result.defectId());
         Map<String, Integer> byStatus = new LinkedHashMap<>();
         for (PixelStatus s : PixelStatus.values()) {
+            if (s == PixelStatus.INCONSISTENT) {
+                continue; // iron pairs only
+            }
             byStatus.put(s.name(), counts[s.code()]);
         }
         m.put("pixels_by_status", byStatus);
