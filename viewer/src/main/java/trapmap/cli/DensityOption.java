@@ -30,7 +30,12 @@ final class DensityOption {
         if (d == null) {
             return map;
         }
+        return convert(map, d, conditions).get(Quantity.TRAP_DENSITY);
+    }
+
+    /** The conversion of {@code map} to the trap density of {@code d} (not null), with its status map. */
+    static MapConversion.Result convert(WaferMap map, Defect d, MapConditionOptions conditions) {
         WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
-        return MapConversion.convert(withConditions, d, conditions.settings()).get(Quantity.TRAP_DENSITY);
+        return MapConversion.convert(withConditions, d, conditions.settings());
     }
 }

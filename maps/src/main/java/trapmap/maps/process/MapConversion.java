@@ -9,10 +9,12 @@ import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.Mask;
 import trapmap.physics.conversion.Conditions;
 import trapmap.physics.conversion.ConversionOutput;
 import trapmap.physics.conversion.ConversionWarning;
 import trapmap.physics.conversion.Injection;
+import trapmap.physics.conversion.PixelStatus;
 import trapmap.physics.conversion.Surface;
 import trapmap.physics.conversion.TrapDensityConverter;
 import trapmap.physics.defect.Defect;
@@ -49,6 +51,33 @@ public final class MapConversion {
                         + (q == Quantity.LIFETIME_AT_REFERENCE ? " (give a reference injection)" : ""));
             }
             return m;
+        }
+
+        /** The pixels whose conversion status is {@code status}. */
+        public Mask statusMask(PixelStatus status) {
+            WaferMap st = get(Quantity.STATUS);
+            float[] codes = st.raster().samples();
+            float code = status.code();
+            return Mask.of(st.width(), st.height(), i -> codes[i] == code);
+        }
+
+        /**
+         * The trap-density map at {@link PixelStatus#OK} pixels only, NaN elsewhere: what statistics, thresholds and
+         * regions use. A {@link PixelStatus#BELOW_LIMIT} pixel holds the detection limit (an upper bound, not a
+         * measured density) in {@link Quantity#TRAP_DENSITY} and is left out here.
+         */
+        public WaferMap okTrapDensity() {
+            WaferMap nt = get(Quantity.TRAP_DENSITY);
+            float[] codes = get(Quantity.STATUS).raster().samples();
+            float[] v = nt.raster().samples();
+            float[] kept = new float[v.length];
+            float ok = PixelStatus.OK.code();
+            for (int i = 0; i < v.length; i++) {
+                kept[i] = codes[i] == ok ? v[i] : Float.NaN;
+            }
+            return nt.derive(FloatRaster.wrap(nt.width(), nt.height(), kept), Quantity.TRAP_DENSITY,
+                    ProcessingStep.of("status-filter", "kept", "OK pixels (below-limit, invalid and no-data pixels are"
+                            + " NaN)"));
         }
     }
 
