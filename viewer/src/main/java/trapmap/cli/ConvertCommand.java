@@ -28,8 +28,9 @@ import trapmap.physics.defect.Defect;
         description = {
             "Reads MAP (TIFF, CSV; conditions from its sidecar <name>.json, overridden by the flags), converts every",
             "pixel through the SRH model for the chosen defect and writes the chosen quantity to -o (.tif, .csv as",
-            "x_mm,y_mm,value, or .png picture). Status codes in status maps: 0 OK, 1 BELOW_LIMIT (density is the",
-            "detection limit), 2 INVALID, 3 NO_DATA.",
+            "x_mm,y_mm,value, or .png picture). Status codes in status maps: 0 OK, 1 BELOW_LIMIT (SRH share of",
+            "1/τ_eff under the 5 % resolution: the density is the detection limit, an upper bound), 2 INVALID (NaN,",
+            "<= 0, infinite or below 1 ns), 3 NO_DATA.",
             ""},
         footer = {"", "Caution: " + Calculation.CAUTION, "", Help.EXIT_CODES})
 final class ConvertCommand implements Callable<Integer> {
