@@ -50,7 +50,10 @@ public final class IronMapping {
     public enum IronStatus {
         /** Iron detected: the value is [Fe_i]. */
         OK(0, "ok"),
-        /** No detectable iron (the lifetime did not drop): the value is the detection limit, an upper bound. */
+        /**
+         * No detectable iron (the lifetime changed by less than the resolution): the value is the detection limit,
+         * an upper bound.
+         */
         BELOW_LIMIT(1, "below-limit"),
         /**
          * Δn within a factor {@value IronImaging#WARNING_FACTOR} of the crossover: a value is given but the

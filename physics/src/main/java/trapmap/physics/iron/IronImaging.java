@@ -96,11 +96,13 @@ public final class IronImaging {
                     : "a lifetime is not a finite positive number");
         }
         double fe = cUs * (1.0 / afterUs - 1.0 / beforeUs);
-        if (fe > 0) {
+        // The detection limit: the density that would change the lifetime by the resolution. As for single maps it
+        // applies on both sides: a change smaller than that is no detectable iron, reported as the limit (an upper
+        // bound), so [Fe_i] is continuous and never falls as the change in the expected direction grows.
+        double limit = Math.abs(cUs) * resolution / Math.min(beforeUs, afterUs);
+        if (fe >= limit) {
             return new IronResult(PixelStatus.OK, fe, cUs, crossoverPerCm3, warnings, "");
         }
-        // No detectable iron: the density that would change the lifetime by the resolution is the upper bound.
-        double limit = Math.abs(cUs) * resolution / Math.min(beforeUs, afterUs);
         if (-fe > limit) {
             // Below the crossover dissociation (FeB -> Fe_i) must lower the lifetime, above it raise it (C < 0
             // there); a change the other way by more than the resolution is not an iron signal.

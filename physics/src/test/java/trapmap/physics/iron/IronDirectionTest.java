@@ -54,6 +54,31 @@ class IronDirectionTest {
     }
 
     @Test
+    void ironIsContinuousAcrossItsDetectionLimit() {
+        // below the crossover: the lifetime falls on dissociation; sweep the fall from 0 to 10 % in steps of 1e-4
+        double previous = 0;
+        int ok = 0;
+        int below = 0;
+        for (double f = 1.0; f >= 0.9; f -= 1e-4) {
+            IronResult r = iron.evaluate(100, 100 * f, 1e12);
+            assertThat(r.status()).isIn(PixelStatus.OK, PixelStatus.BELOW_LIMIT);
+            double fe = r.ironPerCm3();
+            assertThat(fe).as("after = %s·before", f).isGreaterThanOrEqualTo(previous * (1 - 1e-12));
+            if (previous > 0) {
+                assertThat(fe / previous).as("step at %s", f).isLessThan(1.01);
+            }
+            previous = fe;
+            if (r.status() == PixelStatus.OK) {
+                ok++;
+            } else {
+                below++;
+            }
+        }
+        assertThat(ok).isGreaterThan(100);
+        assertThat(below).isGreaterThan(100);
+    }
+
+    @Test
     void warnsWithinAFactorTwoOfTheCrossover() {
         double x = iron.crossoverPerCm3();
         assertThat(iron.evaluate(8, 20, 1.9 * x).warnings()).contains(ConversionWarning.NEAR_IRON_CROSSOVER);
