@@ -86,11 +86,11 @@ final class ConvertCommand implements Callable<Integer> {
         MapConversion.Result result = MapConversion.convert(withConditions, d, conditions.settings());
         WaferMap out = result.get(wanted);
         MapInput.write(out, output);
-        report(result, out);
+        report(result, out, MapConversion.lifetimeFloorNote(withConditions));
         return Exit.OK;
     }
 
-    private void report(MapConversion.Result result, WaferMap out) {
+    private void report(MapConversion.Result result, WaferMap out, String floor) {
         int[] counts = new int[PixelStatus.values().length];
         float[] status = result.get(trapmap.maps.model.Quantity.STATUS).raster().samples();
         for (float s : status) {
@@ -115,6 +115,9 @@ final class ConvertCommand implements Callable<Integer> {
         List<String> warnings = new ArrayList<>();
         for (ConversionWarning w : result.warnings()) {
             warnings.add(w.name() + ": " + w.message());
+        }
+        if (!floor.isEmpty()) {
+            warnings.add("LIFETIME_BELOW_FLOOR: " + floor);
         }
         m.put("warnings", warnings);
         m.put("caution", Calculation.CAUTION);

@@ -99,7 +99,8 @@ final class StatsCommand implements Callable<Integer> {
         if (threshold != null && !Double.isFinite(threshold)) {
             throw new InputException("--threshold must be a finite number in the map's unit");
         }
-        WaferMap map = MapInput.page(input, page);
+        WaferMap read = MapInput.page(input, page);
+        WaferMap map = read;
         Defect defect = density.defectOrNull();
         MapConversion.Result converted = null;
         if (defect != null) {
@@ -111,6 +112,7 @@ final class StatsCommand implements Callable<Integer> {
         Mask valid = Mask.valid(map.raster());
         Mask mask = shape == null ? valid : valid.and(shape.mask(map.grid(), edgeExclusionMm));
         Map<String, Object> belowLimit = null;
+        List<String> warnings = new ArrayList<>();
         if (converted != null) {
             // Statistics, thresholds and regions of a converted map use the OK pixels only; the below-limit ones
             // (whose value is the detection limit, an upper bound) are counted on their own.
@@ -124,6 +126,10 @@ final class StatsCommand implements Callable<Integer> {
             belowLimit.put("note", "below detection limit: the SRH share of 1/τ_eff is under the detection"
                     + " resolution; these pixels are left out of the statistics, the threshold and the regions");
             mask = mask.and(converted.statusMask(PixelStatus.OK));
+            String floor = MapConversion.lifetimeFloorNote(read);
+            if (!floor.isEmpty()) {
+                warnings.add(floor);
+            }
         }
         StatisticsRequest request = threshold == null
                 ? StatisticsRequest.of(new double[] {5, 95})
@@ -150,6 +156,9 @@ final class StatsCommand implements Callable<Integer> {
         m.put("non_positive_count", s.nonPositiveCount());
         if (belowLimit != null) {
             m.put("below_limit", belowLimit);
+        }
+        if (!warnings.isEmpty()) {
+            m.put("warnings", warnings);
         }
         if (threshold != null) {
             RegionCriteria.Side side = side(map.quantity());
@@ -310,6 +319,9 @@ final class StatsCommand implements Callable<Integer> {
                         r.get("peak") == null ? "n/a" : Format.number((Double) r.get("peak")), unit,
                         r.get("edge_distance_mm") == null ? "n/a" : Format.number((Double) r.get("edge_distance_mm"))));
             }
+        }
+        if (m.containsKey("warnings")) {
+            ((List<String>) m.get("warnings")).forEach(w -> t.note("warning: " + w));
         }
         out.print(t.render());
         out.flush();

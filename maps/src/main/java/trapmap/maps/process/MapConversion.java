@@ -134,6 +134,37 @@ public final class MapConversion {
                 "doping_cm3", Double.toString(c.doping().densityPerCm3())));
     }
 
+    /**
+     * A one-line warning when pixels of an effective-lifetime map (µs) lie below the physical floor of
+     * {@link TrapDensityConverter#LIFETIME_FLOOR_US} (1 ns; the conversion makes them INVALID), naming the likely unit
+     * mistake when most of them, read as seconds, are ordinary lifetimes; empty when there are none.
+     */
+    public static String lifetimeFloorNote(WaferMap lifetime) {
+        if (lifetime.quantity() != Quantity.EFFECTIVE_LIFETIME) {
+            return "";
+        }
+        int below = 0;
+        int likeSeconds = 0;
+        for (float v : lifetime.raster().samples()) {
+            if (v > 0 && v < TrapDensityConverter.LIFETIME_FLOOR_US) {
+                below++;
+                double asSeconds = v * 1e6;
+                if (asSeconds >= TrapDensityConverter.LIFETIME_FLOOR_US && asSeconds <= 1e5) {
+                    likeSeconds++;
+                }
+            }
+        }
+        if (below == 0) {
+            return "";
+        }
+        String note = below + " pixel(s) with a lifetime below 1 ns (0.001 µs) are invalid";
+        if (likeSeconds * 2 > below) {
+            note += "; their values look like lifetimes in seconds read as µs: give the map's unit (\"unit\": \"s\" in"
+                    + " the sidecar, or # unit=s in a CSV file)";
+        }
+        return note;
+    }
+
     /** Converts with all available processors. */
     public static Result convert(WaferMap map, Defect defect, ConversionSettings settings) {
         return convert(map, defect, settings, Runtime.getRuntime().availableProcessors());
