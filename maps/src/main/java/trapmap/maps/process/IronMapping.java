@@ -144,6 +144,7 @@ public final class IronMapping {
             }
             boolean above = !Double.isNaN(crossoverPerCm3) && injectionPerCm3 > crossoverPerCm3;
             return n + " pixel(s) inconsistent: at Δn = " + String.format(Locale.ROOT, "%.3g", injectionPerCm3)
+                    .replaceFirst("\\.?0*e\\+?", "e")
                     + " cm^-3, " + (above ? "above" : "below") + " the Fe_i/FeB crossover, dissociation can only "
                     + (above ? "raise" : "lower") + " the lifetime, but there it moved the other way (swapped maps,"
                     + " or other recombination changed)";

@@ -118,8 +118,14 @@ public final class IronImaging {
         return new IronResult(PixelStatus.BELOW_LIMIT, limit, cUs, crossoverPerCm3, warnings, "");
     }
 
-    private static String num(double v) {
-        return String.format(java.util.Locale.ROOT, "%.3g", v);
+    /** Three significant digits without trailing zeros, e.g. 20, 8, 3.84e13. */
+    static String num(double v) {
+        if (!Double.isFinite(v)) {
+            return Double.toString(v);
+        }
+        java.math.BigDecimal b = new java.math.BigDecimal(v).round(new java.math.MathContext(3)).stripTrailingZeros();
+        double a = Math.abs(v);
+        return a >= 1e-3 && a < 1e5 ? b.toPlainString() : b.toString().replace("E+", "e").replace("E", "e");
     }
 
     private double findCrossover() {
