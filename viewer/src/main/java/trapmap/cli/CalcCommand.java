@@ -41,7 +41,8 @@ final class CalcCommand implements Callable<Integer> {
     CommandSpec spec;
 
     @Option(names = "--lifetime-us", paramLabel = "<µs>", converter = Quantity.Lifetime.class, order = 1,
-            description = "Effective lifetime τ_eff in µs (> 0). No default; required.")
+            description = "Effective lifetime τ_eff in µs, at least 0.001 (1 ns: shorter lifetimes are beyond lifetime"
+                    + " tools and the SRH model). No default; required.")
     Double lifetimeUs;
 
     @Option(names = "--doping", paramLabel = "<type:value>", converter = DopingValue.Converter.class, order = 2,

@@ -28,8 +28,9 @@ import trapmap.physics.defect.Defect;
         description = {
             "Reads MAP (TIFF, CSV; conditions from its sidecar <name>.json, overridden by the flags), converts every",
             "pixel through the SRH model for the chosen defect and writes the chosen quantity to -o (.tif, .csv as",
-            "x_mm,y_mm,value, or .png picture). Status codes in status maps: 0 OK, 1 BELOW_LIMIT (density is the",
-            "detection limit), 2 INVALID, 3 NO_DATA.",
+            "x_mm,y_mm,value, or .png picture). Status codes in status maps: 0 OK, 1 BELOW_LIMIT (SRH share of",
+            "1/τ_eff under the 5 % resolution: the density is the detection limit, an upper bound), 2 INVALID (NaN,",
+            "<= 0, infinite or below 1 ns), 3 NO_DATA.",
             ""},
         footer = {"", "Caution: " + Calculation.CAUTION, "", Help.EXIT_CODES})
 final class ConvertCommand implements Callable<Integer> {
@@ -85,11 +86,11 @@ final class ConvertCommand implements Callable<Integer> {
         MapConversion.Result result = MapConversion.convert(withConditions, d, conditions.settings());
         WaferMap out = result.get(wanted);
         MapInput.write(out, output);
-        report(result, out);
+        report(result, out, MapConversion.lifetimeFloorNote(withConditions));
         return Exit.OK;
     }
 
-    private void report(MapConversion.Result result, WaferMap out) {
+    private void report(MapConversion.Result result, WaferMap out, String floor) {
         int[] counts = new int[PixelStatus.values().length];
         float[] status = result.get(trapmap.maps.model.Quantity.STATUS).raster().samples();
         for (float s : status) {
@@ -105,12 +106,18 @@ final class ConvertCommand implements Callable<Integer> {
         m.put("defect", result.defectId());
         Map<String, Integer> byStatus = new LinkedHashMap<>();
         for (PixelStatus s : PixelStatus.values()) {
+            if (s == PixelStatus.INCONSISTENT) {
+                continue; // iron pairs only
+            }
             byStatus.put(s.name(), counts[s.code()]);
         }
         m.put("pixels_by_status", byStatus);
         List<String> warnings = new ArrayList<>();
         for (ConversionWarning w : result.warnings()) {
             warnings.add(w.name() + ": " + w.message());
+        }
+        if (!floor.isEmpty()) {
+            warnings.add("LIFETIME_BELOW_FLOOR: " + floor);
         }
         m.put("warnings", warnings);
         m.put("caution", Calculation.CAUTION);

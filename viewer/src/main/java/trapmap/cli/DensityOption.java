@@ -40,6 +40,15 @@ final class DensityOption {
         if (d == null) {
             return map;
         }
+        return convert(map, d, conditions, err).get(Quantity.TRAP_DENSITY);
+    }
+
+    /**
+     * The conversion of {@code map} to the trap density of {@code d} (not null), with its status map; wafer-level
+     * warnings go to {@code err} as for {@link #apply(WaferMap, Defect, MapConditionOptions, java.io.PrintWriter)}.
+     */
+    static MapConversion.Result convert(WaferMap map, Defect d, MapConditionOptions conditions,
+                                        java.io.PrintWriter err) {
         WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
         MapConversion.Result r = MapConversion.convert(withConditions, d, conditions.settings());
         if (err != null) {
@@ -47,6 +56,6 @@ final class DensityOption {
                     .forEach(w -> err.println("warning: " + map.waferId() + ": " + w.name() + ": " + w.message()));
             err.flush();
         }
-        return r.get(Quantity.TRAP_DENSITY);
+        return r;
     }
 }

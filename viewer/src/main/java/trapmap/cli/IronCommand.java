@@ -28,7 +28,9 @@ import trapmap.physics.material.ThermalVelocityModel;
             "after Macdonald, Geerligs & Azzizi, JAP 95, 1021 (2004), with the built-in fe-i and fe-b parameter sets.",
             ""},
         footer = {"", "JSON: fe_i_cm3 is the detection limit (an upper bound) when status is BELOW_LIMIT, and null"
-                + " when status is INVALID (Δn at the crossover, where the method has no signal); crossover_cm3 is"
+                + " when status is INVALID (Δn at the crossover, where the method has no signal) or INCONSISTENT"
+                + " (the lifetime moved the way dissociation cannot move it at this Δn: a fall above the crossover,"
+                + " a rise below it; reason says which); crossover_cm3 is"
                 + " null when there is no crossover in 1e8-1e19 cm^-3.", "", Help.EXIT_CODES})
 final class IronCommand implements Callable<Integer> {
     static final String METHOD = "Macdonald, Geerligs & Azzizi, JAP 95, 1021 (2004)";
@@ -84,6 +86,7 @@ final class IronCommand implements Callable<Integer> {
         m.put("status", r.status().name());
         m.put("fe_i_cm3", Output.num(r.ironPerCm3()));
         m.put("fe_i_is_upper_bound", r.status() == PixelStatus.BELOW_LIMIT);
+        m.put("reason", r.reason().isEmpty() ? null : r.reason());
         m.put("prefactor_us_cm3", Output.num(r.prefactorUsCm3()));
         m.put("crossover_cm3", Output.num(r.crossoverPerCm3()));
         m.put("tau_before_us", beforeUs);
@@ -119,7 +122,10 @@ final class IronCommand implements Callable<Integer> {
         Output.Table t = new Output.Table();
         boolean bound = r.status() == PixelStatus.BELOW_LIMIT;
         t.row("status", bound ? "BELOW_LIMIT (no iron detectable)" : r.status().name(), "");
-        if (m.get("fe_i_cm3") == null) {
+        if (r.status() == PixelStatus.INCONSISTENT) {
+            t.row("interstitial iron [Fe_i]", "undefined (inconsistent pair)", "");
+            t.note("reason: " + r.reason());
+        } else if (m.get("fe_i_cm3") == null) {
             t.row("interstitial iron [Fe_i]", "undefined (injection at the crossover)", "");
         } else {
             String fe = Format.number(r.ironPerCm3());

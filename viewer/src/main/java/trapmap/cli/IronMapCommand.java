@@ -33,8 +33,9 @@ import trapmap.shared.progress.ProgressListener;
             "pixel gives [Fe_i] = C(Δn)·(1/τ_Fei − 1/τ_FeB), C = 1/(χ_Fei − χ_FeB) (Macdonald, Geerligs & Azzizi,",
             "JAP 95, 1021 (2004)). Pixel statuses: " + "0 ok, 1 below-limit (value = detection limit), 2 near-crossover"
                     + " (Δn within a factor 2 of the",
-            "crossover), 3 crossover (Δn within ±10 %: no signal), 4 invalid lifetime, 5 no data. 'trapmap calc iron'",
-            "does the same for one pair of lifetimes.",
+            "crossover), 3 crossover (Δn within ±10 %: no signal), 4 invalid lifetime, 5 no data,",
+            "6 inconsistent (the lifetime moved the way dissociation cannot move it at this Δn: a fall above the",
+            "crossover, a rise below it; no value). 'trapmap calc iron' does the same for one pair of lifetimes.",
             ""},
         footer = {"", Help.EXIT_CODES})
 final class IronMapCommand implements Callable<Integer> {
@@ -136,6 +137,9 @@ final class IronMapCommand implements Callable<Integer> {
         m.put("registration", reg);
         List<String> warnings = new ArrayList<>(rr.warnings());
         warnings.addAll(Output.warningMessages(r.warnings()));
+        if (!r.inconsistentNote().isEmpty()) {
+            warnings.add(r.inconsistentNote());
+        }
         m.put("warnings", warnings);
         m.put("caution", IronMapping.CAUTION);
         if (output != null) {
@@ -158,6 +162,9 @@ final class IronMapCommand implements Callable<Integer> {
             }
             t.row("registration", rr.kept().key() + ", score " + Format.number(g.score()), "");
             Output.warningMessages(r.warnings()).forEach(w -> t.note("warning: " + w));
+            if (!r.inconsistentNote().isEmpty()) {
+                t.note("warning: " + r.inconsistentNote());
+            }
             t.note("caution: " + IronMapping.CAUTION);
             if (output != null) {
                 t.row("wrote", output.toString(), "");

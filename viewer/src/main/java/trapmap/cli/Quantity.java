@@ -1,8 +1,11 @@
 package trapmap.cli;
 
+import java.util.Locale;
 import java.util.regex.Pattern;
 import picocli.CommandLine.ITypeConverter;
 import picocli.CommandLine.TypeConversionException;
+import trapmap.physics.conversion.TrapDensityConverter;
+import trapmap.shared.units.Units;
 
 /**
  * The numeric kinds of input the commands take, each with its unit and sign rule. Parsing is strict (plain decimal
@@ -45,7 +48,26 @@ enum Quantity {
         if (!strictlyPositive && !(v >= 0)) {
             throw new BadValue("must be >= 0 " + unit + " (got " + text.trim() + ")");
         }
+        if (this == LIFETIME_US && v < TrapDensityConverter.LIFETIME_FLOOR_US) {
+            throw new BadValue(belowLifetimeFloor(v, text.trim()));
+        }
         return v;
+    }
+
+    /**
+     * The rule for a lifetime below the physical floor, naming the likely unit mistake: a value that is a plausible
+     * lifetime (1 ns – 0.1 s) once read as seconds was most likely typed in seconds.
+     */
+    static String belowLifetimeFloor(double us, String text) {
+        double asSeconds = us * Units.US_PER_S;
+        String rule = "must be >= " + TrapDensityConverter.LIFETIME_FLOOR_US + " µs (1 ns, the shortest lifetime"
+                + " converted: below it no lifetime tool measures and the trap density would reach the doping) (got "
+                + text + ")";
+        if (asSeconds >= TrapDensityConverter.LIFETIME_FLOOR_US && asSeconds <= 1e5) {
+            rule += "; " + text + " looks like a lifetime in seconds typed as µs: " + text + " s = "
+                    + String.format(Locale.ROOT, "%.6g", asSeconds).replaceFirst("\\.?0+$", "") + " µs";
+        }
+        return rule;
     }
 
     /** A finite number in {@code unit}. */

@@ -22,6 +22,7 @@ import trapmap.maps.geometry.WaferFormat;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.io.MapFormatException;
 import trapmap.maps.model.Quantity;
+import trapmap.maps.process.MapConversion;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.region.Region;
@@ -30,6 +31,8 @@ import trapmap.maps.region.RegionTable;
 import trapmap.maps.region.ThresholdRegions;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
+import trapmap.physics.conversion.PixelStatus;
+import trapmap.physics.defect.Defect;
 
 /** {@code trapmap stats}: statistics, area fractions and flagged regions of one map. */
 @Command(name = "stats", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
@@ -39,7 +42,9 @@ import trapmap.maps.stats.StatisticsRequest;
             "Summarises MAP over the wafer (less an edge exclusion): count, mean, harmonic mean (the device-relevant",
             "average of a lifetime map), geometric mean, median, percentiles, min, max, standard deviation. With",
             "--threshold it adds the area fractions on each side and the flagged regions (8-connected), largest",
-            "first. With --defect the map is first converted to that defect's trap density.",
+            "first. With --defect the map is first converted to that defect's trap density; then the statistics,",
+            "area fractions and regions are over the OK pixels, and the pixels below the detection limit are",
+            "counted on their own (below_limit: count, area_mm2, area_fraction of the evaluated area).",
             ""},
         footer = {"", Help.EXIT_CODES})
 final class StatsCommand implements Callable<Integer> {
@@ -95,12 +100,38 @@ final class StatsCommand implements Callable<Integer> {
         if (threshold != null && !Double.isFinite(threshold)) {
             throw new InputException("--threshold must be a finite number in the map's unit");
         }
-        WaferMap map = MapInput.page(input, page);
-        map = DensityOption.apply(map, density.defectOrNull(), conditions, spec.commandLine().getErr());
+        WaferMap read = MapInput.page(input, page);
+        WaferMap map = read;
+        Defect defect = density.defectOrNull();
+        MapConversion.Result converted = null;
+        if (defect != null) {
+            converted = DensityOption.convert(map, defect, conditions, spec.commandLine().getErr());
+            map = converted.get(Quantity.TRAP_DENSITY);
+        }
         Map<String, Object> outline = new LinkedHashMap<>();
         WaferShape shape = shape(map, outline);
         Mask valid = Mask.valid(map.raster());
         Mask mask = shape == null ? valid : valid.and(shape.mask(map.grid(), edgeExclusionMm));
+        Map<String, Object> belowLimit = null;
+        List<String> warnings = new ArrayList<>();
+        if (converted != null) {
+            // Statistics, thresholds and regions of a converted map use the OK pixels only; the below-limit ones
+            // (whose value is the detection limit, an upper bound) are counted on their own.
+            Mask below = mask.and(converted.statusMask(PixelStatus.BELOW_LIMIT));
+            int evaluated = mask.count();
+            belowLimit = new LinkedHashMap<>();
+            belowLimit.put("count", below.count());
+            belowLimit.put("area_mm2", below.count() * map.grid().pixelAreaMm2());
+            belowLimit.put("area_fraction", Output.num(evaluated == 0 ? Double.NaN
+                    : (double) below.count() / evaluated));
+            belowLimit.put("note", "below detection limit: the SRH share of 1/τ_eff is under the detection"
+                    + " resolution; these pixels are left out of the statistics, the threshold and the regions");
+            mask = mask.and(converted.statusMask(PixelStatus.OK));
+            String floor = MapConversion.lifetimeFloorNote(read);
+            if (!floor.isEmpty()) {
+                warnings.add(floor);
+            }
+        }
         StatisticsRequest request = threshold == null
                 ? StatisticsRequest.of(new double[] {5, 95})
                 : StatisticsRequest.of(new double[] {5, 95}, threshold);
@@ -124,6 +155,12 @@ final class StatsCommand implements Callable<Integer> {
         m.put("max", Output.num(s.max()));
         m.put("std", Output.num(s.standardDeviation()));
         m.put("non_positive_count", s.nonPositiveCount());
+        if (belowLimit != null) {
+            m.put("below_limit", belowLimit);
+        }
+        if (!warnings.isEmpty()) {
+            m.put("warnings", warnings);
+        }
         if (threshold != null) {
             RegionCriteria.Side side = side(map.quantity());
             MapStatistics.AreaFraction f = s.areaFraction(threshold);
@@ -256,6 +293,12 @@ final class StatsCommand implements Callable<Integer> {
         t.number(m, "min", "min", unit, "n/a");
         t.number(m, "max", "max", unit, "n/a");
         t.number(m, "std", "standard deviation", unit, "n/a");
+        if (m.containsKey("below_limit")) {
+            Map<String, Object> b = (Map<String, Object>) m.get("below_limit");
+            t.row("below detection limit", b.get("count") + " px, " + Format.number((Double) b.get("area_mm2"))
+                    + " mm², fraction " + (b.get("area_fraction") == null ? "n/a"
+                    : Format.number((Double) b.get("area_fraction"))) + " (not in the statistics)", "");
+        }
         if (m.containsKey("threshold")) {
             Map<String, Object> th = (Map<String, Object>) m.get("threshold");
             t.number(th, "flagged_fraction", "flagged fraction (" + th.get("flagged_side") + " "
@@ -277,6 +320,9 @@ final class StatsCommand implements Callable<Integer> {
                         r.get("peak") == null ? "n/a" : Format.number((Double) r.get("peak")), unit,
                         r.get("edge_distance_mm") == null ? "n/a" : Format.number((Double) r.get("edge_distance_mm"))));
             }
+        }
+        if (m.containsKey("warnings")) {
+            ((List<String>) m.get("warnings")).forEach(w -> t.note("warning: " + w));
         }
         out.print(t.render());
         out.flush();

@@ -18,6 +18,9 @@ import java.util.regex.Pattern;
  *       evaluated area (every pixel centre more than {@link #INTERIOR_MARGIN_MM} or one pixel pitch, whichever is
  *       larger, inside the edge exclusion), 0 when none, mm²: contamination of the wafer's inside as opposed to edge
  *       zones</li>
+ *   <li>{@code below_limit_area_fraction}: share of the evaluated area whose trap density is below the detection
+ *       limit (converted pixels whose SRH share of 1/τ_eff is under the resolution); reported whenever trap
+ *       densities are computed</li>
  *   <li>{@code edge_to_centre_ratio}: harmonic-mean lifetime in the band of {@code edge_band_mm} along the inner
  *       border of the evaluated area over the harmonic-mean lifetime inside it</li>
  * </ul>
@@ -34,7 +37,8 @@ public record Figure(String name, Kind kind, double percent) {
     /** What a figure measures. */
     public enum Kind {
         HARMONIC_MEAN_LIFETIME, MEDIAN_LIFETIME, LIFETIME_PERCENTILE, TRAP_DENSITY_PERCENTILE,
-        FLAGGED_AREA_FRACTION, LARGEST_REGION, LARGEST_INTERIOR_REGION, EDGE_TO_CENTRE_RATIO
+        FLAGGED_AREA_FRACTION, LARGEST_REGION, LARGEST_INTERIOR_REGION, EDGE_TO_CENTRE_RATIO,
+        BELOW_LIMIT_AREA_FRACTION
     }
 
     private static final Pattern LIFETIME_P = Pattern.compile("p(\\d{1,2}(?:\\.\\d+)?)_lifetime_us");
@@ -49,6 +53,7 @@ public record Figure(String name, Kind kind, double percent) {
             case "largest_region_mm2": return new Figure(name, Kind.LARGEST_REGION, Double.NaN);
             case "largest_interior_region_mm2": return new Figure(name, Kind.LARGEST_INTERIOR_REGION, Double.NaN);
             case "edge_to_centre_ratio": return new Figure(name, Kind.EDGE_TO_CENTRE_RATIO, Double.NaN);
+            case "below_limit_area_fraction": return new Figure(name, Kind.BELOW_LIMIT_AREA_FRACTION, Double.NaN);
             default: break;
         }
         Matcher m = LIFETIME_P.matcher(name);
@@ -61,7 +66,7 @@ public record Figure(String name, Kind kind, double percent) {
         }
         throw new IllegalArgumentException("unknown figure; expected harmonic_mean_lifetime_us, median_lifetime_us,"
                 + " pNN_lifetime_us, trap_density_pNN_cm3, flagged_area_fraction, largest_region_mm2,"
-                + " largest_interior_region_mm2 or edge_to_centre_ratio");
+                + " largest_interior_region_mm2, edge_to_centre_ratio or below_limit_area_fraction");
     }
 
     private static double percent(String digits, String name) {
@@ -70,6 +75,11 @@ public record Figure(String name, Kind kind, double percent) {
             throw new IllegalArgumentException("percentile of " + name + " must be in (0, 100)");
         }
         return p;
+    }
+
+    /** True when the figure is computed from the trap-density map. */
+    public boolean needsTrapDensity() {
+        return kind == Kind.TRAP_DENSITY_PERCENTILE || kind == Kind.BELOW_LIMIT_AREA_FRACTION;
     }
 
     /** The unit of the figure's values ("" for ratios). */

@@ -103,6 +103,9 @@ final class IronPairs {
         m.put(FAILED, String.join(";", failed));
         List<String> notes = new ArrayList<>(r.registrationWarnings());
         r.warnings().forEach(w -> notes.add(w.message()));
+        if (!r.inconsistentNote().isEmpty()) {
+            notes.add(r.inconsistentNote());
+        }
         if (values.length == 0) {
             notes.add("no pixel with an iron value");
         }

@@ -14,6 +14,7 @@ import java.util.Iterator;
 import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Map;
+import java.util.Objects;
 import java.util.Set;
 import java.util.function.ToDoubleFunction;
 import trapmap.maps.geometry.WaferFormat;
@@ -114,9 +115,8 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         /** True when a trap-density map is needed: a trap-density flag or figure. */
         public boolean needsTrapDensity() {
             return flag.quantity() == FlagQuantity.TRAP_DENSITY
-                    || limits.stream().anyMatch(l -> l.figure().kind() == Figure.Kind.TRAP_DENSITY_PERCENTILE)
-                    || grades.stream().flatMap(g -> g.when().stream())
-                            .anyMatch(l -> l.figure().kind() == Figure.Kind.TRAP_DENSITY_PERCENTILE);
+                    || limits.stream().anyMatch(l -> l.figure().needsTrapDensity())
+                    || grades.stream().flatMap(g -> g.when().stream()).anyMatch(l -> l.figure().needsTrapDensity());
         }
 
         /** Every figure this profile uses: the always-reported ones and those its limits and grades name. */
@@ -128,6 +128,9 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
             grades.forEach(g -> g.when().forEach(l -> s.add(l.figure())));
             s.add(Figure.parse("flagged_area_fraction"));
             s.add(Figure.parse("largest_region_mm2"));
+            if (needsTrapDensity()) {
+                s.add(Figure.parse("below_limit_area_fraction"));
+            }
             return List.copyOf(s);
         }
 
@@ -215,12 +218,45 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
      * @param quantity  the map the threshold applies to
      * @param threshold µs for lifetime, cm^-3 for trap density
      * @param minAreaMm2 smallest region counted, mm²
+     * @param belowLimit what the profile's trap-density flag and figures do with pixels below the detection limit
      */
-    public record Flag(FlagQuantity quantity, double threshold, double minAreaMm2) {
+    public record Flag(FlagQuantity quantity, double threshold, double minAreaMm2, BelowLimit belowLimit) {
+        public Flag {
+            Objects.requireNonNull(belowLimit, "belowLimit");
+        }
+
+        /** A flag that leaves pixels below the detection limit out ({@link BelowLimit#EXCLUDE}). */
+        public Flag(FlagQuantity quantity, double threshold, double minAreaMm2) {
+            this(quantity, threshold, minAreaMm2, BelowLimit.EXCLUDE);
+        }
+
         /** The region criteria of this flag: lifetimes below, or trap densities above, the threshold. */
         public RegionCriteria criteria() {
             return quantity == FlagQuantity.LIFETIME ? RegionCriteria.below(threshold, minAreaMm2)
                     : RegionCriteria.above(threshold, minAreaMm2);
+        }
+    }
+
+    /**
+     * What the trap-density flag and figures of a profile do with pixels below the detection limit (whose value is
+     * the detection limit, an upper bound, not a measured density): the rules {@code flag} key
+     * {@code "below_limit"}.
+     */
+    public enum BelowLimit {
+        /** Left out of trap-density flags, regions and percentiles (default); counted in below_limit_area_fraction. */
+        EXCLUDE("exclude"),
+        /** Counted at their bound, the detection limit (a conservative reading). */
+        AT_BOUND("at_bound");
+
+        private final String key;
+
+        BelowLimit(String key) {
+            this.key = key;
+        }
+
+        /** The value in the rules file. */
+        public String key() {
+            return key;
         }
     }
 
@@ -557,7 +593,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         }
 
         Flag flag(JsonNode n, String path) throws RulesException {
-            onlyKeys(n, path, new LinkedHashSet<>(List.of("quantity", "threshold", "min_area_mm2")));
+            onlyKeys(n, path, new LinkedHashSet<>(List.of("quantity", "threshold", "min_area_mm2", "below_limit")));
             if (!n.has("quantity")) {
                 throw error(path + ".quantity", "is required: lifetime or trap-density", "");
             }
@@ -576,7 +612,17 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                     : number(n.get("threshold"), path + ".threshold", "cm^-3", 1, 1e20);
             double minArea = n.has("min_area_mm2")
                     ? number(n.get("min_area_mm2"), path + ".min_area_mm2", "mm²", 0, 1e6) : 0;
-            return new Flag(quantity, t, minArea);
+            BelowLimit below = BelowLimit.EXCLUDE;
+            if (n.has("below_limit")) {
+                String b = text(n.get("below_limit"), path + ".below_limit");
+                below = switch (b) {
+                    case "exclude" -> BelowLimit.EXCLUDE;
+                    case "at_bound" -> BelowLimit.AT_BOUND;
+                    default -> throw error(path + ".below_limit", "must be exclude or at_bound but was '" + b + "'",
+                            "");
+                };
+            }
+            return new Flag(quantity, t, minArea, below);
         }
 
         List<Limit> limits(JsonNode node, String path) throws RulesException {

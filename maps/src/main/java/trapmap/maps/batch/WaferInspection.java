@@ -12,6 +12,7 @@ import trapmap.maps.geometry.OutlineFit;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.MapFormatException;
+import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.ConversionSettings;
@@ -21,6 +22,7 @@ import trapmap.maps.raster.PixelGrid;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.physics.conversion.Conditions;
 import trapmap.physics.conversion.ConversionOutput;
+import trapmap.physics.conversion.PixelStatus;
 import trapmap.physics.conversion.TrapDensityConverter;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.defect.DefectLibrary;
@@ -183,7 +185,14 @@ public final class WaferInspection {
         Density converted = profile.needsTrapDensity() ? trapDensity(lifetime, defect, lifeValues, masks,
                 ConversionSettings.of(rules.physics())) : null;
         WaferMap density = converted == null ? null : converted.map();
-        Sample dens = converted == null ? null : Sample.ofPacked(converted.packed(), masks.count(), grid,
+        // What the flag, the regions and the trap-density figures read: the OK pixels, or with the rules' opt-in
+        // also the below-limit ones at their bound (the detection limit).
+        Density judged = converted == null ? null
+                : profile.flag().belowLimit() == Rules.BelowLimit.AT_BOUND ? converted : converted.okOnly(masks);
+        WaferMap judgedDensity = judged == null ? null : judged.map();
+        double belowLimitFraction = converted == null || masks.count() == 0 ? Double.NaN
+                : (double) converted.belowLimit() / masks.count();
+        Sample dens = judged == null ? null : Sample.ofPacked(judged.packed().clone(), masks.count(), grid,
                 percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE), false);
         double[] lifePercents = percents(figures, Figure.Kind.LIFETIME_PERCENTILE);
         double[] withRange = Arrays.copyOf(lifePercents, lifePercents.length + 2);
@@ -193,10 +202,10 @@ public final class WaferInspection {
                 thumbnail == null ? lifePercents : withRange, true);
 
         Rules.Flag flag = profile.flag();
-        WaferMap flagMap = flag.quantity() == Rules.FlagQuantity.LIFETIME ? lifetime : density;
+        WaferMap flagMap = flag.quantity() == Rules.FlagQuantity.LIFETIME ? lifetime : judgedDensity;
         RegionCriteria criteria = flag.criteria();
         FlaggedRegions regions = FlaggedRegions.find(flagMap.raster(), grid, masks.indices(), masks.count(), criteria,
-                shape, density == null ? null : density.raster().samples(), rules.edgeExclusionMm());
+                shape, judgedDensity == null ? null : judgedDensity.raster().samples(), rules.edgeExclusionMm());
         FlaggedRegions.FlaggedRegion worst = regions.largest();
         FlaggedRegions.FlaggedRegion interior = largestInterior(regions, shape, grid);
         double flaggedFraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
@@ -213,6 +222,7 @@ public final class WaferInspection {
                 case LARGEST_INTERIOR_REGION -> shape == null ? Double.NaN
                         : interior == null ? 0 : interior.region().areaMm2();
                 case EDGE_TO_CENTRE_RATIO -> Masks.edgeToCentre(tau, masks);
+                case BELOW_LIMIT_AREA_FRACTION -> belowLimitFraction;
             };
             values.put(f.name(), v);
         }
@@ -267,8 +277,27 @@ public final class WaferInspection {
                 ConversionSettings.DEFAULTS).map();
     }
 
-    /** A trap-density map and its values at the evaluated pixels, packed in index order. */
-    record Density(WaferMap map, float[] packed) {
+    /**
+     * A trap-density map and its values at the evaluated pixels, packed in index order, with their conversion
+     * statuses (packed likewise) and the number of them below the detection limit.
+     */
+    record Density(WaferMap map, float[] packed, byte[] status, int belowLimit) {
+        /** The same with every pixel that is not {@link PixelStatus#OK} set to NaN (map and packed values). */
+        Density okOnly(Masks masks) {
+            float[] nt = map.raster().samples().clone();
+            float[] kept = packed.clone();
+            int[] indices = masks.indices();
+            byte ok = PixelStatus.OK.code();
+            for (int k = 0; k < kept.length; k++) {
+                if (status[k] != ok) {
+                    kept[k] = Float.NaN;
+                    nt[indices[k]] = Float.NaN;
+                }
+            }
+            WaferMap m = map.derive(FloatRaster.wrap(map.width(), map.height(), nt), Quantity.TRAP_DENSITY,
+                    ProcessingStep.of("status-filter", "kept", "OK pixels"));
+            return new Density(m, kept, status, belowLimit);
+        }
     }
 
     /** As {@link #trapDensity(WaferMap, Defect, float[], Masks, ConversionSettings)} with the default settings. */
@@ -285,16 +314,22 @@ public final class WaferInspection {
         float[] nt = new float[lifetime.raster().size()];
         Arrays.fill(nt, Float.NaN);
         float[] out = new float[count];
+        byte[] status = new byte[count];
+        int below = 0;
         if (count > 0) {
             new TrapDensityConverter(conditions, defect).convert(packedTau, count,
-                    new ConversionOutput(out, null, null, null, null, null, null, null, null), 1);
+                    new ConversionOutput(out, null, null, null, null, null, null, status, null), 1);
+            byte belowCode = PixelStatus.BELOW_LIMIT.code();
             for (int k = 0; k < count; k++) {
                 nt[indices[k]] = out[k];
+                if (status[k] == belowCode) {
+                    below++;
+                }
             }
         }
         WaferMap map = lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), nt),
                 Quantity.TRAP_DENSITY, MapConversion.convertStep(conditions, defect, settings));
-        return new Density(map, out);
+        return new Density(map, out, status, below);
     }
 
     /**

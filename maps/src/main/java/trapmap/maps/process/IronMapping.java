@@ -50,7 +50,10 @@ public final class IronMapping {
     public enum IronStatus {
         /** Iron detected: the value is [Fe_i]. */
         OK(0, "ok"),
-        /** No detectable iron (the lifetime did not drop): the value is the detection limit, an upper bound. */
+        /**
+         * No detectable iron (the lifetime changed by less than the resolution): the value is the detection limit,
+         * an upper bound.
+         */
         BELOW_LIMIT(1, "below-limit"),
         /**
          * Δn within a factor {@value IronImaging#WARNING_FACTOR} of the crossover: a value is given but the
@@ -62,7 +65,12 @@ public final class IronMapping {
         /** A lifetime is zero, negative or infinite (NaN). */
         INVALID(4, "invalid"),
         /** Either map has no data here (NaN). */
-        NO_DATA(5, "no-data");
+        NO_DATA(5, "no-data"),
+        /**
+         * The lifetime moved the way dissociation cannot move it at this Δn (a fall above the crossover, a rise below
+         * it) by more than the resolution: swapped maps or other recombination changed; no value (NaN).
+         */
+        INCONSISTENT(6, "inconsistent");
 
         private final int code;
         private final String key;
@@ -123,6 +131,23 @@ public final class IronMapping {
         /** True when Δn lies within a factor 2 of the crossover. */
         public boolean nearCrossover() {
             return warnings.contains(ConversionWarning.NEAR_IRON_CROSSOVER);
+        }
+
+        /**
+         * A one-line note when some pixels are {@link IronStatus#INCONSISTENT} (empty otherwise): how many, and what
+         * the lifetime should have done at this Δn.
+         */
+        public String inconsistentNote() {
+            int n = count(IronStatus.INCONSISTENT);
+            if (n == 0) {
+                return "";
+            }
+            boolean above = !Double.isNaN(crossoverPerCm3) && injectionPerCm3 > crossoverPerCm3;
+            return n + " pixel(s) inconsistent: at Δn = " + String.format(Locale.ROOT, "%.3g", injectionPerCm3)
+                    .replaceFirst("\\.?0*e\\+?", "e")
+                    + " cm^-3, " + (above ? "above" : "below") + " the Fe_i/FeB crossover, dissociation can only "
+                    + (above ? "raise" : "lower") + " the lifetime, but there it moved the other way (swapped maps,"
+                    + " or other recombination changed)";
         }
 
         /** The registration warnings, empty when the maps were not registered or raised none. */
@@ -216,7 +241,10 @@ public final class IronMapping {
                 IronResult r = imaging.evaluate(tb[i], ta[i], dn);
                 warnings.addAll(r.warnings());
                 boolean near = r.warnings().contains(ConversionWarning.NEAR_IRON_CROSSOVER);
-                if (r.status() == PixelStatus.INVALID) {
+                if (r.status() == PixelStatus.INCONSISTENT) {
+                    fe[i] = Float.NaN;
+                    st = IronStatus.INCONSISTENT;
+                } else if (r.status() == PixelStatus.INVALID) {
                     fe[i] = Float.NaN;
                     st = near && tb[i] > 0 && ta[i] > 0 && Double.isFinite(tb[i]) && Double.isFinite(ta[i])
                             ? IronStatus.CROSSOVER : IronStatus.INVALID;

@@ -9,10 +9,12 @@ import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.Mask;
 import trapmap.physics.conversion.Conditions;
 import trapmap.physics.conversion.ConversionOutput;
 import trapmap.physics.conversion.ConversionWarning;
 import trapmap.physics.conversion.Injection;
+import trapmap.physics.conversion.PixelStatus;
 import trapmap.physics.conversion.Surface;
 import trapmap.physics.conversion.TrapDensityConverter;
 import trapmap.physics.defect.Defect;
@@ -51,6 +53,33 @@ public final class MapConversion {
                         + (q == Quantity.LIFETIME_AT_REFERENCE ? " (give a reference injection)" : ""));
             }
             return m;
+        }
+
+        /** The pixels whose conversion status is {@code status}. */
+        public Mask statusMask(PixelStatus status) {
+            WaferMap st = get(Quantity.STATUS);
+            float[] codes = st.raster().samples();
+            float code = status.code();
+            return Mask.of(st.width(), st.height(), i -> codes[i] == code);
+        }
+
+        /**
+         * The trap-density map at {@link PixelStatus#OK} pixels only, NaN elsewhere: what statistics, thresholds and
+         * regions use. A {@link PixelStatus#BELOW_LIMIT} pixel holds the detection limit (an upper bound, not a
+         * measured density) in {@link Quantity#TRAP_DENSITY} and is left out here.
+         */
+        public WaferMap okTrapDensity() {
+            WaferMap nt = get(Quantity.TRAP_DENSITY);
+            float[] codes = get(Quantity.STATUS).raster().samples();
+            float[] v = nt.raster().samples();
+            float[] kept = new float[v.length];
+            float ok = PixelStatus.OK.code();
+            for (int i = 0; i < v.length; i++) {
+                kept[i] = codes[i] == ok ? v[i] : Float.NaN;
+            }
+            return nt.derive(FloatRaster.wrap(nt.width(), nt.height(), kept), Quantity.TRAP_DENSITY,
+                    ProcessingStep.of("status-filter", "kept", "OK pixels (below-limit, invalid and no-data pixels are"
+                            + " NaN)"));
         }
     }
 
@@ -122,6 +151,37 @@ public final class MapConversion {
         p.put("reference_injection_cm3", Double.toString(settings.referenceInjectionPerCm3()));
         settings.physics().describe().forEach((k, v) -> p.put("physics." + k, v));
         return new ProcessingStep("convert", p);
+    }
+
+    /**
+     * A one-line warning when pixels of an effective-lifetime map (µs) lie below the physical floor of
+     * {@link TrapDensityConverter#LIFETIME_FLOOR_US} (1 ns; the conversion makes them INVALID), naming the likely unit
+     * mistake when most of them, read as seconds, are ordinary lifetimes; empty when there are none.
+     */
+    public static String lifetimeFloorNote(WaferMap lifetime) {
+        if (lifetime.quantity() != Quantity.EFFECTIVE_LIFETIME) {
+            return "";
+        }
+        int below = 0;
+        int likeSeconds = 0;
+        for (float v : lifetime.raster().samples()) {
+            if (v > 0 && v < TrapDensityConverter.LIFETIME_FLOOR_US) {
+                below++;
+                double asSeconds = v * 1e6;
+                if (asSeconds >= TrapDensityConverter.LIFETIME_FLOOR_US && asSeconds <= 1e5) {
+                    likeSeconds++;
+                }
+            }
+        }
+        if (below == 0) {
+            return "";
+        }
+        String note = below + " pixel(s) with a lifetime below 1 ns (0.001 µs) are invalid";
+        if (likeSeconds * 2 > below) {
+            note += "; their values look like lifetimes in seconds read as µs: give the map's unit (\"unit\": \"s\" in"
+                    + " the sidecar, or # unit=s in a CSV file)";
+        }
+        return note;
     }
 
     /** Converts with all available processors. */

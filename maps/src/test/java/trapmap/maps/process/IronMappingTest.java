@@ -91,6 +91,28 @@ class IronMappingTest {
     }
 
     @Test
+    void swappedStatesAreInconsistentNotNoIron() {
+        // below the crossover dissociation lowers the lifetime; with the maps swapped it rises
+        WaferMap[] p = pair(1e13);
+        IronMapping.Result r = IronMapping.map(p[1], p[0], null, null);
+        int inconsistent = r.count(IronStatus.INCONSISTENT);
+        // every planted density (2e10 cm^-3 and more) changes the lifetime by far more than the 5 % resolution
+        assertThat(inconsistent).isEqualTo(N * N - 1);
+        assertThat(r.count(IronStatus.NO_DATA)).isEqualTo(1);
+        float[] codes = r.status().raster().samples();
+        for (int i = 0; i < codes.length; i++) {
+            if (codes[i] == IronStatus.INCONSISTENT.code()) {
+                assertThat(r.iron().raster().samples()[i]).isNaN();
+            }
+        }
+        assertThat(r.statistics().count()).isZero();
+        assertThat(r.inconsistentNote()).startsWith(inconsistent + " pixel(s) inconsistent").contains("below")
+                .contains("lower");
+        assertThat(IronMapping.codes()).endsWith("6 inconsistent");
+        assertThat(IronMapping.map(p[0], p[1], null, null).inconsistentNote()).isEmpty();
+    }
+
+    @Test
     void noLifetimeDropIsBelowTheDetectionLimit() {
         WaferMap[] p = pair(1e13);
         IronMapping.Result r = IronMapping.map(p[0], p[0], null, null);

@@ -25,9 +25,12 @@ import trapmap.shared.units.Units;
  *         = (c_n n0 + c_p p1 + c_n Δn)/[c_n (n0 + n1) + c_p (p0 + p1) + (c_n + c_p) Δn]
  * </pre>
  * The surface term uses the low-injection minority-carrier diffusivity of Klaassen's mobility at the wafer's doping,
- * so it is one number per wafer. When 1/τ_SRH ≤ 0 the pixel is {@link PixelStatus#BELOW_LIMIT} and the reported
- * density is the detection limit: the density whose SRH rate δ·(1/τ_intr + 1/τ_surf) would lower the lifetime that
- * intrinsic and surface recombination alone allow by the relative resolution δ.
+ * so it is one number per wafer. When 1/τ_SRH is below the detection resolution δ·(1/τ_intr + 1/τ_surf) (δ = 0.05
+ * by default) the pixel is {@link PixelStatus#BELOW_LIMIT} and the reported density is the detection limit
+ * K·δ·(1/τ_intr + 1/τ_surf): the density whose SRH rate is δ times the rate of intrinsic and surface recombination
+ * alone (it lowers the lifetime they allow by δ/(1 + δ), 4.8 % for δ = 0.05). The rule holds on both sides of the
+ * limit lifetime, so the reported density (or bound) is continuous in τ_eff and never decreases as τ_eff decreases.
+ * Lifetimes below {@link #LIFETIME_FLOOR_US} are {@link PixelStatus#INVALID}.
  * <p>
  * Everything that depends only on the wafer is computed once in the constructor, including the coefficients a, b of
  * K for the nominal defect and both bounds, which share the denominator n0 + p0 + Δn. A pixel then costs a few
@@ -38,6 +41,15 @@ import trapmap.shared.units.Units;
  * thread-safe.
  */
 public final class TrapDensityConverter {
+    /**
+     * The shortest effective lifetime converted, µs (1 ns); shorter ones are {@link PixelStatus#INVALID}. Two reasons
+     * give the same order: carrier-lifetime tools for wafers (photoconductance, microwave photoconductance decay,
+     * photoluminescence imaging) do not resolve lifetimes below about a nanosecond; and 1/τ = 1e9 s⁻¹ needs, for the
+     * library's capture coefficients (σ·v_th about 1e-9–1e-7 cm³/s), trap densities of about 1e16–1e18 cm⁻³, which
+     * is the doping of usual wafers and beyond the small-trap-density SRH model (N_t ≪ min(Δn, N_dop): Macdonald &amp;
+     * Cuevas, PRB 67, 075203 (2003)). A smaller value is almost always a lifetime in seconds typed as µs.
+     */
+    public static final double LIFETIME_FLOOR_US = 1e-3;
     /** Δn/N_dop above which low-injection approximations (the surface diffusivity) are flagged. */
     private static final double LOW_INJECTION_LIMIT = 0.1;
     private final Conditions conditions;
@@ -371,9 +383,12 @@ public final class TrapDensityConverter {
         }
     }
 
-    /** Finite and positive: a lifetime the kernel converts ({@link PixelStatus#INVALID} otherwise). */
+    /**
+     * Finite and at least {@link #LIFETIME_FLOOR_US}: a lifetime the kernel converts ({@link PixelStatus#INVALID}
+     * otherwise; NaN fails the comparison).
+     */
     private static boolean valid(double tauUs) {
-        return tauUs > 0 && tauUs != Double.POSITIVE_INFINITY;
+        return tauUs >= LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY;
     }
 
     /** Stage 1: Δn and the terms that depend on it. */
@@ -390,20 +405,24 @@ public final class TrapDensityConverter {
         double tauS = tauUs * Units.S_PER_US;
         double intrinsicRate = px.intrinsicRate;
         double srhRate = 1.0 / tauS - intrinsicRate - surfaceRatePerS;
+        // The smallest SRH rate the conversion resolves: δ·(1/τ_intr + 1/τ_surf). Below it (on either side of the
+        // limit lifetime) the pixel is BELOW_LIMIT and reports the density of that rate, so N_t is continuous and
+        // never decreases as τ_eff decreases.
+        double detectableRate = detectionResolution * (intrinsicRate + surfaceRatePerS);
         int warn = baseWarnings;
         double rate;
-        if (srhRate > 0) {
+        boolean ok = srhRate >= detectableRate;
+        if (ok) {
             px.status = PixelStatus.OK.code();
             px.srhLifetimeUs = Units.US_PER_S / srhRate;
             rate = srhRate;
         } else {
             px.status = PixelStatus.BELOW_LIMIT.code();
             px.srhLifetimeUs = Double.POSITIVE_INFINITY;
-            // The SRH rate that would lower the limit lifetime 1/(1/τ_intr + 1/τ_surf) by the resolution δ.
-            rate = detectionResolution * (intrinsicRate + surfaceRatePerS);
+            rate = detectableRate;
         }
         double nt = px.k * rate;
-        if (srhRate > 0 && nt > trapDensityLimitFactor * Math.min(px.dn, dopingPerCm3)) {
+        if (ok && nt > trapDensityLimitFactor * Math.min(px.dn, dopingPerCm3)) {
             warn |= ConversionWarning.TRAP_DENSITY_NOT_SMALL.bit();
         }
         if (surfaceRatePerS > 0) {
@@ -418,7 +437,7 @@ public final class TrapDensityConverter {
         px.ntMin = px.kMin * rate;
         px.ntMax = px.kMax * rate;
         if (hasReference) {
-            double refSrhRate = srhRate > 0 ? nt * inverseReferenceK : 0;
+            double refSrhRate = ok ? nt * inverseReferenceK : 0;
             px.lifetimeAtReferenceUs = Units.US_PER_S / (refSrhRate + referenceIntrinsicRate + surfaceRatePerS);
         } else {
             px.lifetimeAtReferenceUs = Double.NaN;

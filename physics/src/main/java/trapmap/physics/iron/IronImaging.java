@@ -26,7 +26,9 @@ import trapmap.shared.units.Units;
  * dissociation, all other recombination unchanged, and the same Δn in both measurements. C diverges at the
  * crossover injection where both states give the same lifetime and changes sign above it; results within a factor
  * 2 of the crossover carry {@link ConversionWarning#NEAR_IRON_CROSSOVER}, and within ±10 % of it the method has no
- * usable signal and the result is {@link PixelStatus#INVALID}.
+ * usable signal and the result is {@link PixelStatus#INVALID}. A lifetime change in the direction the sign of C
+ * forbids (a fall above the crossover, a rise below it) larger than the resolution is
+ * {@link PixelStatus#INCONSISTENT}, with the reason.
  */
 public final class IronImaging {
     /** Within this factor of the crossover the method has no signal: the result is INVALID. */
@@ -89,15 +91,41 @@ public final class IronImaging {
         }
         if (!(beforeUs > 0) || !(afterUs > 0) || Double.isInfinite(beforeUs) || Double.isInfinite(afterUs)
                 || !Double.isFinite(c) || distance < Math.log(NO_SIGNAL_FACTOR)) {
-            return new IronResult(PixelStatus.INVALID, Double.NaN, cUs, crossoverPerCm3, warnings);
+            return new IronResult(PixelStatus.INVALID, Double.NaN, cUs, crossoverPerCm3, warnings,
+                    distance < Math.log(NO_SIGNAL_FACTOR) ? "Δn is within ±10 % of the Fe_i/FeB crossover: no signal"
+                    : "a lifetime is not a finite positive number");
         }
         double fe = cUs * (1.0 / afterUs - 1.0 / beforeUs);
-        if (fe > 0) {
-            return new IronResult(PixelStatus.OK, fe, cUs, crossoverPerCm3, warnings);
-        }
-        // No detectable iron: the density that would change the lifetime by the resolution is the upper bound.
+        // The detection limit: the density that would change the lifetime by the resolution. As for single maps it
+        // applies on both sides: a change smaller than that is no detectable iron, reported as the limit (an upper
+        // bound), so [Fe_i] is continuous and never falls as the change in the expected direction grows.
         double limit = Math.abs(cUs) * resolution / Math.min(beforeUs, afterUs);
-        return new IronResult(PixelStatus.BELOW_LIMIT, limit, cUs, crossoverPerCm3, warnings);
+        if (fe >= limit) {
+            return new IronResult(PixelStatus.OK, fe, cUs, crossoverPerCm3, warnings, "");
+        }
+        if (-fe > limit) {
+            // Below the crossover dissociation (FeB -> Fe_i) must lower the lifetime, above it raise it (C < 0
+            // there); a change the other way by more than the resolution is not an iron signal.
+            boolean above = cUs < 0;
+            String reason = "the lifetime " + (afterUs > beforeUs ? "rose" : "fell") + " from "
+                    + num(beforeUs) + " to " + num(afterUs) + " µs on dissociation, but at Δn = "
+                    + num(dn) + " cm^-3, " + (above ? "above" : "below") + " the Fe_i/FeB crossover ("
+                    + num(crossoverPerCm3) + " cm^-3), dissociating FeB pairs can only "
+                    + (above ? "raise" : "lower") + " it: the pair is inconsistent (swapped states, or other"
+                    + " recombination changed between the measurements)";
+            return new IronResult(PixelStatus.INCONSISTENT, Double.NaN, cUs, crossoverPerCm3, warnings, reason);
+        }
+        return new IronResult(PixelStatus.BELOW_LIMIT, limit, cUs, crossoverPerCm3, warnings, "");
+    }
+
+    /** Three significant digits without trailing zeros, e.g. 20, 8, 3.84e13. */
+    static String num(double v) {
+        if (!Double.isFinite(v)) {
+            return Double.toString(v);
+        }
+        java.math.BigDecimal b = new java.math.BigDecimal(v).round(new java.math.MathContext(3)).stripTrailingZeros();
+        double a = Math.abs(v);
+        return a >= 1e-3 && a < 1e5 ? b.toPlainString() : b.toString().replace("E+", "e").replace("E", "e");
     }
 
     private double findCrossover() {

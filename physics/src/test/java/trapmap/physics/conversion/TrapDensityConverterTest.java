@@ -70,7 +70,8 @@ class TrapDensityConverterTest {
             double srhRate = nt / lifetimeDensityProduct(d, dop, si, dn);
             double intrRate = IntrinsicLifetime.richter2012(dop, si).rateConstantPerS(dn);
             double total = srhRate + intrRate + surfaceRate(surface, dop, si);
-            if (srhRate < 1e-3 * total) {
+            // an SRH rate below 5 % of the intrinsic + surface rate is below the detection limit; stay clear of it
+            if (srhRate < 0.06 * (total - srhRate)) {
                 continue;
             }
             Conditions c = Conditions.of(dop, Injection.fixed(dn)).withSurface(surface);
@@ -98,7 +99,7 @@ class TrapDensityConverterTest {
             double srhRate = nt / lifetimeDensityProduct(d, dop, si, dn);
             double total = srhRate + IntrinsicLifetime.richter2012(dop, si).rateConstantPerS(dn);
             double g = dn * total;
-            if (srhRate < 1e-3 * total || g < 1e10 || g > 1e24) {
+            if (srhRate < 0.06 * (total - srhRate) || g < 1e10 || g > 1e24) {
                 continue;
             }
             PixelResult r = new TrapDensityConverter(Conditions.of(dop, Injection.generation(g)), d)

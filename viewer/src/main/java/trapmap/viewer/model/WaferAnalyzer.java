@@ -19,6 +19,7 @@ import trapmap.maps.region.ThresholdRegions;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
 import trapmap.physics.conversion.PhysicsSettings;
+import trapmap.physics.conversion.PixelStatus;
 import trapmap.physics.defect.Defect;
 
 /**
@@ -111,17 +112,19 @@ public final class WaferAnalyzer {
             mask = mask.and(shape.mask(lifetime.grid(), analysis.edgeExclusionMm()));
         }
         MapStatistics life = MapStatistics.of(lifetime, mask, StatisticsRequest.of(LIFETIME_PERCENTS));
-        MapStatistics shown = displayed == lifetime ? life : MapStatistics.of(displayed, mask.and(
+        // trap densities: statistics and the threshold use the OK pixels, never the detection limit of the others
+        Mask judgedMask = okPixels(q, mask, conv);
+        MapStatistics shown = displayed == lifetime ? life : MapStatistics.of(displayed, judgedMask.and(
                 Mask.valid(displayed.raster())), StatisticsRequest.of(LIFETIME_PERCENTS));
         check(cancelled);
         RegionCriteria criteria = analysis.threshold().criteria();
         // one labelling pass gives the regions and their pixels; without a fitted outline the edge distances are
         // measured to the data outline, which only ThresholdRegions does
-        FlaggedRegions found = FlaggedRegions.find(displayed.raster(), displayed.grid(), mask, criteria, shape);
+        FlaggedRegions found = FlaggedRegions.find(displayed.raster(), displayed.grid(), judgedMask, criteria, shape);
         RegionTable regions = shape != null
                 ? new RegionTable(found.regions().stream().map(FlaggedRegions.FlaggedRegion::region).toList(),
                         criteria, RegionTable.EdgeReference.WAFER_SHAPE)
-                : ThresholdRegions.find(displayed, mask, criteria, null);
+                : ThresholdRegions.find(displayed, judgedMask, criteria, null);
         BitSet flagged = found.pixels();
         double fraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
         Verdict verdict = Verdict.quick(fraction, analysis.threshold(), q.unit(), defect == null ? null
@@ -173,7 +176,7 @@ public final class WaferAnalyzer {
         boolean[] evaluated = ev.evaluated();
         Mask mask = Mask.of(lifetime.width(), lifetime.height(), i -> evaluated[i]);
         MapStatistics life = MapStatistics.of(lifetime, mask, StatisticsRequest.of(LIFETIME_PERCENTS));
-        MapStatistics shown = displayed == lifetime ? life : MapStatistics.of(displayed, mask.and(
+        MapStatistics shown = displayed == lifetime ? life : MapStatistics.of(displayed, okPixels(q, mask, conv).and(
                 Mask.valid(displayed.raster())), StatisticsRequest.of(LIFETIME_PERCENTS));
         check(cancelled);
         Rules.Flag flag = ev.profile().flag();
@@ -193,6 +196,14 @@ public final class WaferAnalyzer {
                 ev.regions().pixels(), fraction, keyFigure(q, shown, fraction), verdict, shownThreshold,
                 lifetimeFlag ? "µs" : "cm⁻³", rules.rules().edgeExclusionMm(),
                 conv == null ? Set.of() : conv.warnings());
+    }
+
+    /**
+     * {@code mask} less the pixels that were not converted OK when trap densities are shown (a below-limit pixel
+     * holds the detection limit, an upper bound, not a measured density); {@code mask} itself otherwise.
+     */
+    private static Mask okPixels(DisplayedQuantity q, Mask mask, MapConversion.Result conv) {
+        return q == DisplayedQuantity.TRAP_DENSITY && conv != null ? mask.and(conv.statusMask(PixelStatus.OK)) : mask;
     }
 
     /** The map of the shown quantity: the lifetime itself, or one output of the conversion. */
