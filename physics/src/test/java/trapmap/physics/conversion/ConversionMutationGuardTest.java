@@ -143,6 +143,38 @@ class ConversionMutationGuardTest {
                 .isInstanceOf(InvalidValueException.class).hasMessageContaining("rel-only");
     }
 
+    // Without a surface term there is no surface caution, even far above low injection (Δn = N_dop).
+    @Test
+    void idealSurfacesRaiseNoSurfaceWarnings() {
+        TrapDensityConverter ideal = new TrapDensityConverter(Conditions.of(Doping.pType(1e15),
+                new Injection.Fixed(1e15)), FE_I);
+        for (double tau : new double[] {0.1, 10, 1000}) {
+            assertThat(ideal.convert(tau).warnings()).as("%s us", tau)
+                    .doesNotContain(ConversionWarning.SURFACE_LOW_INJECTION_DIFFUSIVITY, ConversionWarning.SURFACE_LIMITED);
+        }
+    }
+
+    // An output raster reused for a second conversion holds only the second raster's values: pixels without data
+    // get NO_DATA and no warnings, whatever the first conversion left there.
+    @Test
+    void reusedOutputHoldsOnlyTheSecondRastersValues() {
+        Conditions c = Conditions.of(Doping.pType(1e16), new Injection.Fixed(1e15))
+                .withSilicon(Silicon.at(300, trapmap.physics.material.ThermalVelocityModel.GREEN_1990));
+        TrapDensityConverter conv = new TrapDensityConverter(c, FE_I);
+        float[] first = {10, 20, 30, 40};
+        ConversionOutput out = ConversionOutput.allocateAll(4);
+        conv.convert(first, 2, out, 1);
+        assertThat(out.warnings[0]).as("velocity convention differs").isNotZero();
+        float[] none = {Float.NaN, Float.NaN, Float.NaN, Float.NaN};
+        conv.convert(none, 2, out, 1);
+        for (int i = 0; i < 4; i++) {
+            assertThat(out.warnings[i]).isZero();
+            assertThat(out.status[i]).isEqualTo(PixelStatus.NO_DATA.code());
+            assertThat(out.occupancy[i]).isNaN();
+            assertThat(out.lifetimeAtReferenceUs[i]).isNaN();
+        }
+    }
+
     // Cautions travel as ConversionWarnings with a text (DEVELOPERS.md, "No silent defaults in results").
     @Test
     void everyWarningHasATextAndTheSweepNamesItsUnit() {

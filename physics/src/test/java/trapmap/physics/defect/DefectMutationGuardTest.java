@@ -115,6 +115,8 @@ class DefectMutationGuardTest {
         assertThat(d.spread().energyEv().min()).isEqualTo(-0.6);
         assertThat(refused(spec("level.reference", "Ei", "level.energy_ev", -0.1,
                 "spread", Map.of("energy_ev", List.of(-0.61, 0.0)))).getMessage()).contains("must lie within");
+        assertThat(refused(spec("level.reference", "Ei", "level.energy_ev", -0.1,
+                "spread", Map.of("energy_ev", List.of(-0.2, 0.61)))).getMessage()).contains("must lie within [-0.6, 0.6]");
         assertThat(refused(spec("spread", Map.of("energy_ev", List.of(-0.01, 0.4)))).getMessage())
                 .contains("must lie within [0.0, 1.2]");
     }

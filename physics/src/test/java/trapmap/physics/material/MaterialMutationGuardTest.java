@@ -174,4 +174,47 @@ class MaterialMutationGuardTest {
             previous = e;
         }
     }
+
+    // Every model names its published source (DEVELOPERS.md: constants and models carry their source), with a year.
+    @Test
+    void everyMaterialModelNamesItsSource() {
+        for (IntrinsicDensityModel m : IntrinsicDensityModel.values()) {
+            assertThat(m.source()).as(m.name()).containsPattern("\\((19|20)\\d\\d\\)");
+        }
+        for (DensityOfStatesModel m : DensityOfStatesModel.values()) {
+            assertThat(m.source()).as(m.name()).containsPattern("\\((19|20)\\d\\d\\)");
+        }
+        for (ThermalVelocityModel m : ThermalVelocityModel.values()) {
+            assertThat(m.description()).as(m.name()).isNotBlank();
+        }
+    }
+
+    // n_i rises steeply with temperature (about ×25 from 300 to 350 K). For Misiakos & Tsamakis, JAP 74, 3293
+    // (1993), n_i = 5.29e19 (T/300)^2.54 exp(−6726/T): n_i(350)/n_i(300) = (350/300)^2.54 exp(6726/300 − 6726/350)
+    // = 36.7 (computed from the published fit).
+    @Test
+    void intrinsicDensityRisesWithTemperatureAsPublished() {
+        double ratio = IntrinsicDensityModel.MISIAKOS_1993.densityPerCm3(350)
+                / IntrinsicDensityModel.MISIAKOS_1993.densityPerCm3(300);
+        assertThat(ratio).isCloseTo(Math.pow(350 / 300.0, 2.54) * Math.exp(6726 / 300.0 - 6726 / 350.0),
+                within(1e-9 * ratio));
+        for (IntrinsicDensityModel m : IntrinsicDensityModel.values()) {
+            assertThat(m.densityPerCm3(350) / m.densityPerCm3(300)).as(m.name()).isBetween(15.0, 60.0);
+        }
+    }
+
+    // Overrides of n_i and N_c/N_v change only that parameter.
+    @Test
+    void materialOverridesChangeOnlyTheirParameter() {
+        Silicon base = Silicon.at(320);
+        Silicon ni = base.withIntrinsicDensity(2e10);
+        assertThat(ni.intrinsicPerCm3()).isEqualTo(2e10);
+        assertThat(ni.temperatureK()).isEqualTo(320);
+        assertThat(ni.conductionDosPerCm3()).isEqualTo(base.conductionDosPerCm3());
+        Silicon dos = base.withDensitiesOfStates(3e19, 2e19);
+        assertThat(dos.conductionDosPerCm3()).isEqualTo(3e19);
+        assertThat(dos.valenceDosPerCm3()).isEqualTo(2e19);
+        assertThat(dos.intrinsicPerCm3()).isEqualTo(base.intrinsicPerCm3());
+        assertThat(dos.velocityModel()).isEqualTo(base.velocityModel());
+    }
 }

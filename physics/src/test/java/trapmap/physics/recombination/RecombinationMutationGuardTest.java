@@ -7,6 +7,8 @@ import org.junit.jupiter.api.Test;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.defect.DefectLibrary;
 import trapmap.physics.defect.ParameterSpread;
+import trapmap.physics.defect.Range;
+import trapmap.physics.defect.TrapLevel;
 import trapmap.physics.material.Doping;
 import trapmap.physics.material.Silicon;
 
@@ -59,6 +61,32 @@ class RecombinationMutationGuardTest {
             }
         }
         assertThat(checked).isGreaterThan(20);
+    }
+
+    // The same claim for levels whose published energy spread reaches close to a band edge, where one end of the
+    // range gives a huge p1 (near E_v) or n1 (near E_c) and the other a small one: the upper bound must take the
+    // end with the larger n1/c_p + p1/c_n, whichever side it lies on.
+    @Test
+    void upperBoundTakesTheWorseEndOfAWideEnergySpread() {
+        Silicon si = Silicon.at(300);
+        for (TrapLevel level : new TrapLevel[] {TrapLevel.aboveValenceBand(0.3), TrapLevel.belowConductionBand(0.3)}) {
+            ParameterSpread spread = new ParameterSpread(new Range(0.05, 0.6), new Range(1e-15, 1e-14),
+                    new Range(1e-16, 1e-14), "wide, for the test");
+            Defect d = Defect.of("wide", "wide", level, 3e-15, 1e-15, si.velocityModel(), "test", spread);
+            for (Doping doping : new Doping[] {Doping.pType(1e13), Doping.nType(1e13), Doping.pType(1e16)}) {
+                SrhBounds b = SrhBounds.of(d, doping, si);
+                for (double dn : new double[] {1e11, 1e14}) {
+                    double scanMax = 0;
+                    for (int i = 0; i <= 400; i++) {
+                        double e = 0.05 + 0.55 * i / 400;
+                        scanMax = Math.max(scanMax, SrhRecombination.of(d.withParameters(e, 1e-15, 1e-16), doping, si)
+                                .lifetimeDensityProductSCm3(dn));
+                    }
+                    assertThat(b.upper().lifetimeDensityProductSCm3(dn)).as(level + " " + doping + " dn " + dn)
+                            .isCloseTo(scanMax, within(1e-9 * scanMax));
+                }
+            }
+        }
     }
 
     // The exact emission densities of the bounds keep n1 p1 = n_i² (Shockley & Read 1952, eq. for n1, p1).
