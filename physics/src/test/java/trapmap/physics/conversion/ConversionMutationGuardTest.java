@@ -27,7 +27,7 @@ class ConversionMutationGuardTest {
         return new TrapDensityConverter(c, FE_I);
     }
 
-    /** A 37 × 23 raster of lifetimes from 0.5 to 2000 µs with gaps, so that every row differs. */
+    /** A raster of lifetimes spread log-uniformly over 0.5–2000 µs, every 41st pixel without data (NaN). */
     private static float[] raster(int width, int rows) {
         float[] tau = new float[width * rows];
         for (int i = 0; i < tau.length; i++) {
