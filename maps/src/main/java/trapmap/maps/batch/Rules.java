@@ -336,9 +336,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         try {
             root = JSON.readTree(text);
         } catch (JsonProcessingException e) {
-            String where = e.getLocation() == null ? "" : "line " + e.getLocation().getLineNr() + ", column "
-                    + e.getLocation().getColumnNr() + ": ";
-            throw new RulesException(name + ": " + where + "not valid JSON: " + e.getOriginalMessage());
+            throw new RulesException(name + ": " + trapmap.maps.io.JsonErrors.notJson(e));
         }
         Rules rules = new Reader(name).rules(root);
         IronPairRules.parse(text, name); // the iron section is checked with the rest, and read by the batch

@@ -66,10 +66,7 @@ public final class PhysicsSettingsFile {
         try {
             root = JSON.readTree(text);
         } catch (JsonProcessingException e) {
-            String where = e.getLocation() == null ? "" : "line " + e.getLocation().getLineNr() + ", column "
-                    + e.getLocation().getColumnNr() + ": ";
-            throw new InvalidValueException("physics", "", name + ": " + where + "not valid JSON: "
-                    + e.getOriginalMessage());
+            throw new InvalidValueException("physics", "", name + ": " + JsonErrors.notJson(e));
         }
         return parse(root, name, "");
     }
