@@ -8,7 +8,7 @@ import trapmap.physics.material.Silicon;
 import trapmap.physics.material.ThermalVelocityModel;
 
 /**
- * Parameter sets and conventions used by the computed check values of docs/physics-reference.md:
+ * Parameter sets and conventions used by the computed check values of docs/check-values.md:
  * 300 K, n_i = 9.65e9 cm^-3, E_i at mid-gap with E_g = 1.124 eV, so a level quoted from a band edge is given here as
  * its offset from E_i, and the thermal velocities are set explicitly.
  */

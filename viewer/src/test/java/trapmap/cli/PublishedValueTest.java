@@ -14,7 +14,7 @@ import trapmap.physics.material.ThermalVelocityModel;
 import trapmap.physics.recombination.IntrinsicLifetime;
 
 /**
- * A value computed from published parameters (docs/physics-reference.md R-CLI-1) reproduced through the command
+ * A value computed from published parameters (docs/check-values.md R-CLI-1) reproduced through the command
  * line.
  */
 class PublishedValueTest {
@@ -41,7 +41,7 @@ class PublishedValueTest {
         assertThat(j.get("tau_srh_us").asDouble()).isCloseTo(10.0, within(1e-9));
         // Computed value, not a printed one: the closed-form SRH inversion (Shockley & Read / Hall 1952) with the
         // Fe_i set of Macdonald, Tan & Trupke (2008), N_A = 1e16, Δn = 1e13, τ_SRH = 10 µs gives N_t = 4.610e11 cm^-3
-        // (docs/physics-reference.md R-SRH-4 and R-CLI-1); the value carries four digits, so 0.5 %.
+        // (docs/check-values.md R-SRH-4 and R-CLI-1); the value carries four digits, so 0.5 %.
         assertThat(j.get("trap_density_cm3").asDouble()).isCloseTo(4.610e11, within(0.005 * 4.610e11));
         assertThat(j.get("warnings")).as("the defect's own velocity convention is used").isEmpty();
     }

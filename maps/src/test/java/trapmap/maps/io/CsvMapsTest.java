@@ -276,7 +276,7 @@ class CsvMapsTest {
     void conditionsMayBeGivenInComments() throws Exception {
         WaferMap m = MapFiles.readSingle(file("cond.csv", "# doping=p:1.5ohmcm\n# thickness_um=170\n1,2\n"));
         assertThat(m.conditions().thicknessUm()).isEqualTo(170.0);
-        // ASTM F723 boron fit at 1.5 Ω·cm: 9.4175e15 cm^-3 (computed; docs/physics-reference.md R-ASTM-1), 0.1 %
+        // ASTM F723 boron fit at 1.5 Ω·cm: 9.4175e15 cm^-3 (computed; docs/check-values.md R-ASTM-1), 0.1 %
         assertThat(m.conditions().doping().densityPerCm3()).isCloseTo(9.4175e15,
                 org.assertj.core.data.Percentage.withPercentage(0.1));
     }

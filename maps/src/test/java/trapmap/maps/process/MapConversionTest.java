@@ -65,7 +65,7 @@ class MapConversionTest {
     @Test
     void plCountsAreCalibratedIntoLifetimeFirst() {
         // Steady state: τ_eff = Δn/G with Δn from I = A·Δn·(Δn + N_dop) (Trupke et al., APL 89, 044107 (2006);
-        // docs/physics-reference.md R-PL-4).
+        // docs/check-values.md R-PL-4).
         PlCalibration cal = PlCalibration.fromReference(8000, 50, 1e19, 1e16);
         MeasurementConditions c = new MeasurementConditions(Doping.pType(1e16), null, null, null, 1e19, null, null,
                 cal.constant(), Map.of());

@@ -5,7 +5,7 @@ import trapmap.shared.check.Checks;
 
 /**
  * Silicon band parameters at one temperature. Immutable; every value can be overridden with a {@code with…}
- * method. Defaults (README, Models; docs/physics-reference.md): n_i of Altermatt 2003 with the Sproul–Green
+ * method. Defaults (README, Models): n_i of Altermatt 2003 with the Sproul–Green
  * temperature form, N_c/N_v of Green 1990, thermal velocity 1.1e7 cm/s·sqrt(T/300).
  *
  * @param temperatureK          temperature, K

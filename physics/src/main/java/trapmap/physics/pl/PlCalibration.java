@@ -4,8 +4,7 @@ import trapmap.shared.check.Checks;
 import trapmap.shared.units.Units;
 
 /**
- * Photoluminescence signal model I = A·Δn·(Δn + N_dop) (Trupke et al., APL 89, 044107 (2006); docs/physics-reference.md
- * R-PL-4), with
+ * Photoluminescence signal model I = A·Δn·(Δn + N_dop) (Trupke et al., APL 89, 044107 (2006), from memory), with
  * A absorbing optics, camera response and the radiative coefficient. Inverted in closed form:
  * Δn = (−N_dop + sqrt(N_dop² + 4I/A))/2, evaluated as 2(I/A)/(N_dop + sqrt(N_dop² + 4I/A)) to avoid
  * cancellation at low injection. Steady state: τ_eff = Δn/G.

@@ -14,11 +14,11 @@ import trapmap.physics.material.ThermalVelocityModel;
 import trapmap.physics.recombination.SrhRecombination;
 import trapmap.shared.error.InvalidValueException;
 
-/** The built-in defect library against published symmetry factors and levels (docs/physics-reference.md). */
+/** The built-in defect library against published symmetry factors and levels (docs/check-values.md). */
 class DefectLibraryTest {
 
     // Every library entry carries absolute σ (except bo-lid), g = 1 (effective levels of lifetime spectroscopy) and
-    // states its velocity convention and source (docs/physics-reference.md "Defect library")
+    // states its velocity convention and source (docs/check-values.md "Defect library")
     @Test
     void everyEntryStatesItsConventionAndSource() {
         for (Defect d : DefectLibrary.all()) {
@@ -33,7 +33,7 @@ class DefectLibraryTest {
     // level deep in the gap, τ(high injection)/τ(low injection) = 1 + k v_n/v_p in p-type and 1 + v_p/(k v_n) in
     // n-type (Shockley & Read 1952 / Hall 1952 limits). Here that ratio is taken from the conversion's SRH model at
     // N_dop 1e18, Δn 1e8 and 1e22, with the library σ and its 1.1e7 cm/s convention, and compared with the published
-    // k and its published uncertainty (docs/physics-reference.md R-DEF-1 to R-DEF-9 give the source of each row).
+    // k and its published uncertainty (docs/check-values.md R-DEF-1 to R-DEF-9 give the source of each row).
     @ParameterizedTest(name = "{0}: k = {2} ± {3}")
     @CsvSource({
         // id,  type, k published, tolerance (absolute)

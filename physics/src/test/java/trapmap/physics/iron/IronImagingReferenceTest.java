@@ -22,7 +22,7 @@ import trapmap.physics.recombination.SrhRecombination;
 import trapmap.shared.error.InvalidValueException;
 
 /**
- * Iron imaging by FeB dissociation (Macdonald, Geerligs &amp; Azzizi, JAP 95, 1021 (2004)) (docs/physics-reference.md
+ * Iron imaging by FeB dissociation (Macdonald, Geerligs &amp; Azzizi, JAP 95, 1021 (2004)) (docs/check-values.md
  * R-FE-1 to R-FE-5).
  */
 class IronImagingReferenceTest {

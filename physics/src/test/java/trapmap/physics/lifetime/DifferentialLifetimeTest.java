@@ -9,7 +9,7 @@ import trapmap.shared.error.InvalidValueException;
 
 /**
  * Schmidt, IEEE Trans. Electron Devices 46, 2018 (1999): differential versus actual lifetime. Check values computed
- * from that relation (docs/physics-reference.md R-DIFF-1).
+ * from that relation (docs/check-values.md R-DIFF-1).
  */
 class DifferentialLifetimeTest {
     /** τ_act = 50 µs·(Δn/1e14)^0.3: τ_act(1e15) = 99.76 µs. */

@@ -10,7 +10,7 @@ import org.junit.jupiter.params.provider.CsvFileSource;
 import org.junit.jupiter.params.provider.CsvSource;
 
 /**
- * Resistivity ↔ dopant density by ASTM F723 (Thurber et al., NBS SP 400-64) (docs/physics-reference.md R-ASTM-1 to
+ * Resistivity ↔ dopant density by ASTM F723 (Thurber et al., NBS SP 400-64) (docs/check-values.md R-ASTM-1 to
  * R-ASTM-4).
  */
 class AstmF723ReferenceTest {

@@ -9,7 +9,7 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 import org.junit.jupiter.params.provider.ValueSource;
 
-/** n_i(T), E_g(T), N_c/N_v and thermal velocities (docs/physics-reference.md R-BAND-1 to R-BAND-11). */
+/** n_i(T), E_g(T), N_c/N_v and thermal velocities (docs/check-values.md R-BAND-1 to R-BAND-11). */
 class BandParametersReferenceTest {
 
     // Default (R-BAND-1): n_i(300 K) = 9.65e9 cm^-3 (Altermatt et al., JAP 93, 1598 (2003), from memory) with the

@@ -8,7 +8,7 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvFileSource;
 import org.junit.jupiter.params.provider.CsvSource;
 
-/** Klaassen 1992 unified mobility (docs/physics-reference.md R-MOB-1 to R-MOB-3). */
+/** Klaassen 1992 unified mobility (docs/check-values.md R-MOB-1 to R-MOB-3). */
 class KlaassenMobilityReferenceTest {
     private static final double NI = 9.65e9;
 

@@ -11,7 +11,7 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 import trapmap.shared.error.InvalidValueException;
 
-/** Generation rate and PL calibration (docs/physics-reference.md R-PL-1 to R-PL-4). */
+/** Generation rate and PL calibration (docs/check-values.md R-PL-1 to R-PL-4). */
 class PlReferenceTest {
 
     // R-PL-1 (computed): Φ 2.5e17 cm^-2 s^-1, bare Si at 800 nm (n = 3.675, Fresnel R = ((n − 1)/(n + 1))² = 0.327),

@@ -12,7 +12,7 @@ import trapmap.physics.material.ConductivityType;
 import trapmap.physics.material.Doping;
 import trapmap.physics.material.Silicon;
 
-/** Richter 2012 intrinsic lifetime, B_low and B_rel (docs/physics-reference.md R-INTR-1 to R-INTR-5). */
+/** Richter 2012 intrinsic lifetime, B_low and B_rel (docs/check-values.md R-INTR-1 to R-INTR-5). */
 class IntrinsicLifetimeReferenceTest {
 
     private static IntrinsicLifetime richter(Doping d) {

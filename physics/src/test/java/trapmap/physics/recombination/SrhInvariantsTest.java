@@ -149,7 +149,7 @@ class SrhInvariantsTest {
     // The lifetime form used by the conversion against the rate form of Shockley & Read 1952 / Hall 1952,
     // U = (n p − n_i²)/[τ_p0 (n + n1) + τ_n0 (p + p1)], τ_SRH = Δn/U, evaluated here from n1, p1, n0, p0 and N_t,
     // over a seeded random grid of every library defect with absolute σ, p- and n-type 1e12–3e18, Δn 1e8–1e18 and
-    // shallow levels (E_t 0.05–0.3 eV from either band edge), 1e-9 (docs/physics-reference.md R-SRH-18)
+    // shallow levels (E_t 0.05–0.3 eV from either band edge), 1e-9 (docs/check-values.md R-SRH-18)
     @Test
     void lifetimeAgreesWithTheRateFormOverARandomGrid() {
         SplittableRandom rnd = new SplittableRandom(20240611L);

@@ -25,7 +25,7 @@ import trapmap.physics.material.ThermalVelocityModel;
 
 /**
  * SRH lifetimes, emission densities, occupancy and capture coefficients against values computed from the SRH
- * equation (docs/physics-reference.md R-SRH-1 to R-SRH-16). Levels are given from the mid-gap E_i (E_g = 1.124 eV) and
+ * equation (docs/check-values.md R-SRH-1 to R-SRH-16). Levels are given from the mid-gap E_i (E_g = 1.124 eV) and
  * the thermal
  * velocities explicitly, as those values were computed.
  */
@@ -122,7 +122,7 @@ class SrhReferenceTest {
 
     // Beyond deep levels in p-type: n-type, shallow levels and high injection, where n1 or p1 sets the lifetime.
     // Computed from the SRH lifetime of Shockley & Read 1952 / Hall 1952 at 300 K, n_i 9.65e9 cm^-3, E_i at mid-gap
-    // (E_g 1.124 eV), v_th 1.1e7 cm/s, N_t 1e11 cm^-3 (docs/physics-reference.md R-SRH-10 to R-SRH-16, each value
+    // (E_g 1.124 eV), v_th 1.1e7 cm/s, N_t 1e11 cm^-3 (docs/check-values.md R-SRH-10 to R-SRH-16, each value
     // derived there). Each case moves by more than 20 % if the emission density it depends on is dropped. 0.1 %.
     @ParameterizedTest(name = "{0}")
     @CsvSource({

@@ -9,7 +9,7 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 
 /**
- * Surface-limited lifetime (Sproul 1994 approximation and exact eigenvalue) (docs/physics-reference.md R-SURF-1 to
+ * Surface-limited lifetime (Sproul 1994 approximation and exact eigenvalue) (docs/check-values.md R-SURF-1 to
  * R-SURF-3).
  */
 class SurfaceLifetimeReferenceTest {

@@ -41,7 +41,7 @@ class ConditionOverridesTest {
         MeasurementConditions c = ConditionOverrides.NONE.withDoping("n:2ohmcm").applyTo(SIDECAR);
         assertThat(c.doping().type().name()).isEqualTo("N");
         // ASTM F723 (Thurber et al., NBS SP 400-64) phosphorus at 2 Ω·cm: 2.3372e15 cm^-3 (computed from the
-        // standard's fit; docs/physics-reference.md R-ASTM-1), 0.1 %
+        // standard's fit; docs/check-values.md R-ASTM-1), 0.1 %
         assertThat(c.doping().densityPerCm3()).isCloseTo(2.3372e15,
                 org.assertj.core.data.Percentage.withPercentage(0.1));
     }
