@@ -50,6 +50,27 @@ public final class RecentFiles {
         });
     }
 
+    /** A list kept in memory only (sessions that must leave the user's preferences alone, tests). */
+    public static RecentFiles inMemory() {
+        java.util.Map<String, String> m = new java.util.concurrent.ConcurrentHashMap<>();
+        return new RecentFiles(new Store() {
+            @Override
+            public String get(String key) {
+                return m.get(key);
+            }
+
+            @Override
+            public void put(String key, String value) {
+                m.put(key, value);
+            }
+
+            @Override
+            public void remove(String key) {
+                m.remove(key);
+            }
+        });
+    }
+
     /** The list, newest first. */
     public List<Path> list() {
         List<Path> out = new ArrayList<>();

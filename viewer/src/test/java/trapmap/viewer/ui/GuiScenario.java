@@ -3,10 +3,8 @@ package trapmap.viewer.ui;
 import java.awt.Component;
 import java.awt.Container;
 import java.nio.file.Path;
-import java.util.HashMap;
 import java.util.List;
 import java.util.Locale;
-import java.util.Map;
 import java.util.concurrent.Callable;
 import java.util.concurrent.atomic.AtomicReference;
 import javax.swing.JLabel;
@@ -32,23 +30,7 @@ public final class GuiScenario {
         Path demo = Path.of(args[0]);
         double threshold = Double.parseDouble(args[1]);
         String waferName = args[2];
-        Map<String, String> prefs = new HashMap<>();
-        RecentFiles recent = new RecentFiles(new RecentFiles.Store() {
-            @Override
-            public String get(String key) {
-                return prefs.get(key);
-            }
-
-            @Override
-            public void put(String key, String value) {
-                prefs.put(key, value);
-            }
-
-            @Override
-            public void remove(String key) {
-                prefs.remove(key);
-            }
-        });
+        RecentFiles recent = RecentFiles.inMemory();
         try {
             ViewerWindow w = ViewerApp.show(List.of(demo), recent);
             ViewerModel m = w.model();

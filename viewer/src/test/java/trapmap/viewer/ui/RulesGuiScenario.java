@@ -25,23 +25,7 @@ public final class RulesGuiScenario {
         Path rules = Path.of(args[1]);
         String waferName = args[2];
         Path pdf = Path.of(args[3]);
-        java.util.Map<String, String> prefs = new java.util.HashMap<>();
-        RecentFiles recent = new RecentFiles(new RecentFiles.Store() {
-            @Override
-            public String get(String key) {
-                return prefs.get(key);
-            }
-
-            @Override
-            public void put(String key, String value) {
-                prefs.put(key, value);
-            }
-
-            @Override
-            public void remove(String key) {
-                prefs.remove(key);
-            }
-        });
+        RecentFiles recent = RecentFiles.inMemory();
         try {
             ViewerWindow w = ViewerApp.show(List.of(demo), recent, rules);
             ViewerModel m = w.model();
