@@ -123,16 +123,59 @@ final class PdfPage implements Closeable {
         text(s, xRight - width(s, font, size), yTop, font, size, INK);
     }
 
-    /** The text cut with "…"-style dots so that it fits {@code maxWidth}. */
+    /**
+     * The text cut with "…"-style dots so that it fits {@code maxWidth}. Only candidates no longer than about twice
+     * the part that fits are measured (a growing then halving search over the length), so a very long text costs
+     * little more than a short one.
+     */
     static String fit(String s, PDFont font, float size, float maxWidth) {
-        if (width(s, font, size) <= maxWidth) {
+        int n = s.length();
+        int fits = longestPrefix(s, 0, n, font, size, maxWidth, "");
+        if (fits == n) {
             return s;
         }
-        String t = s;
-        while (t.length() > 1 && width(t + "...", font, size) > maxWidth) {
-            t = t.substring(0, t.length() - 1);
+        int keep = Math.max(1, longestPrefix(s, 0, fits, font, size, maxWidth, "..."));
+        return s.substring(0, cutPoint(s, 0, keep)) + "...";
+    }
+
+    /**
+     * The largest k in [0, end - from] such that {@code s[from, from + k) + suffix} is no wider than {@code maxWidth}
+     * (the width grows with the length): doubling k until it no longer fits, then halving the gap. Measures
+     * O(log k) candidates of at most 2k characters.
+     */
+    private static int longestPrefix(String s, int from, int end, PDFont font, float size, float maxWidth,
+                                     String suffix) {
+        int n = end - from;
+        int good = 0;
+        int bad = -1;
+        int step = 1;
+        while (bad < 0) {
+            int k = Math.min(n, good + step);
+            if (width(s.substring(from, from + k) + suffix, font, size) <= maxWidth) {
+                good = k;
+                if (k == n) {
+                    return n;
+                }
+                step *= 2;
+            } else {
+                bad = k;
+            }
         }
-        return t + "...";
+        while (bad - good > 1) {
+            int mid = (good + bad) >>> 1;
+            if (width(s.substring(from, from + mid) + suffix, font, size) <= maxWidth) {
+                good = mid;
+            } else {
+                bad = mid;
+            }
+        }
+        return good;
+    }
+
+    /** {@code k} characters from {@code from}, less one when the cut would split a surrogate pair. */
+    private static int cutPoint(String s, int from, int k) {
+        int at = from + k;
+        return k > 1 && at < s.length() && Character.isHighSurrogate(s.charAt(at - 1)) ? k - 1 : k;
     }
 
     /**
@@ -163,23 +206,46 @@ final class PdfPage implements Closeable {
         return lines;
     }
 
-    /** A word cut into pieces that each fit {@code width}: after the last underscore that fits, else where it must. */
+    /**
+     * {@link #wrap} cut to at most {@code maxLines} lines: the last one kept ends in dots when text was left out
+     * (table cells of overlong names).
+     */
+    static List<String> wrap(String s, PDFont font, float size, float width, int maxLines) {
+        List<String> lines = wrap(s, font, size, width);
+        if (lines.size() <= maxLines) {
+            return lines;
+        }
+        List<String> out = new ArrayList<>(lines.subList(0, maxLines - 1));
+        String last = lines.get(maxLines - 1) + " " + lines.get(maxLines);
+        out.add(fit(last, font, size, width));
+        return out;
+    }
+
+    /**
+     * A word cut into pieces that each fit {@code width}: after the last underscore that fits, else where it must.
+     * Each piece is found by {@link #longestPrefix}, so the work grows with the word's length times the log of a
+     * line's.
+     */
     private static List<String> pieces(String word, PDFont font, float size, float width) {
         List<String> out = new ArrayList<>();
-        String rest = word;
-        while (rest.length() > 1 && width(rest, font, size) > width) {
-            int cut = 1;
-            while (cut < rest.length() && width(rest.substring(0, cut + 1), font, size) <= width) {
-                cut++;
+        int start = 0;
+        int n = word.length();
+        while (n - start > 1) {
+            int fit = longestPrefix(word, start, n, font, size, width, "");
+            if (fit == n - start) {
+                break;
             }
-            int underscore = rest.lastIndexOf('_', cut - 1);
-            if (underscore > 0) {
-                cut = underscore + 1;
+            int cut = cutPoint(word, start, Math.max(1, fit));
+            for (int i = start + cut - 1; i > start; i--) {
+                if (word.charAt(i) == '_') {
+                    cut = i + 1 - start;
+                    break;
+                }
             }
-            out.add(rest.substring(0, cut));
-            rest = rest.substring(cut);
+            out.add(word.substring(start, start + cut));
+            start += cut;
         }
-        out.add(rest);
+        out.add(word.substring(start));
         return out;
     }
 

@@ -15,6 +15,8 @@ import org.apache.pdfbox.pdmodel.font.PDFont;
  */
 final class ReportFlow implements Closeable {
     static final float LEFT = PdfPage.MARGIN;
+    /** Most lines of one table cell; a longer cell ends in dots. */
+    static final int MAX_CELL_LINES = 6;
     static final float FULL = PdfPage.WIDTH - 2 * PdfPage.MARGIN;
     /** Lowest point a block may reach (the footer sits below). */
     static final float BOTTOM = PdfPage.HEIGHT - PdfPage.MARGIN;
@@ -173,7 +175,7 @@ final class ReportFlow implements Closeable {
         for (int c = 0; c < widths.length; c++) {
             String cell = c < row.length && row[c] != null ? row[c] : "";
             List<String> lines = new ArrayList<>();
-            for (String l : PdfPage.wrap(cell, font, size, widths[c] - 4)) {
+            for (String l : PdfPage.wrap(cell, font, size, widths[c] - 4, MAX_CELL_LINES)) {
                 lines.add(PdfPage.fit(l, font, size, widths[c] - 4));
             }
             out.add(lines);

@@ -21,6 +21,7 @@ import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.region.RegionTable;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.material.Doping;
+import trapmap.shared.text.TextLimits;
 import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.graphics.ChartExport;
 import trapmap.viewer.graphics.HistogramChart;
@@ -166,6 +167,11 @@ public final class WaferReport {
     private WaferReport() {
     }
 
+    /** A title for the document's properties: at most {@link TextLimits#MAX_ID_CHARS} characters and dots. */
+    private static String shortTitle(String t) {
+        return t.length() <= TextLimits.MAX_ID_CHARS ? t : t.substring(0, TextLimits.MAX_ID_CHARS) + "...";
+    }
+
     /** Writes one page per content into {@code pdf} (atomically). */
     public static void write(List<Content> pages, Path pdf) throws IOException {
         if (pages.isEmpty()) {
@@ -174,7 +180,7 @@ public final class WaferReport {
         ChartExport.atomically(pdf, tmp -> {
             try (PDDocument doc = new PDDocument()) {
                 PDDocumentInformation info = doc.getDocumentInformation();
-                info.setTitle("Wafer report " + PdfPage.clean(pages.get(0).title()) + (pages.size() > 1 ? " and "
+                info.setTitle("Wafer report " + PdfPage.clean(shortTitle(pages.get(0).title())) + (pages.size() > 1 ? " and "
                         + (pages.size() - 1) + " more" : ""));
                 info.setCreator("trapmap");
                 for (Content c : pages) {
@@ -199,7 +205,7 @@ public final class WaferReport {
         float full = PdfPage.WIDTH - 2 * PdfPage.MARGIN;
         try (PdfPage p = new PdfPage(doc)) {
             float y = PdfPage.MARGIN;
-            p.text("Wafer " + c.title(), left, y, PdfPage.BOLD, 16);
+            p.text(PdfPage.fit("Wafer " + c.title(), PdfPage.BOLD, 16, full), left, y, PdfPage.BOLD, 16);
             y += 21;
             String sub = Labels.name(map.quantity()) + " map" + (c.file().isEmpty() ? "" : " - " + c.file()) + " - "
                     + DATE.format(c.created());

@@ -1,11 +1,13 @@
 package trapmap.viewer.report;
 
 import static org.assertj.core.api.Assertions.assertThat;
+import static org.junit.jupiter.api.Assertions.assertTimeoutPreemptively;
 
 import java.awt.image.BufferedImage;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Duration;
 import java.time.ZoneOffset;
 import java.time.ZonedDateTime;
 import java.util.BitSet;
@@ -123,5 +125,74 @@ class WaferReportTest {
     void textOutsideTheStandardFontsIsSpeltOut() {
         assertThat(PdfPage.clean("Δn = 1e14 cm⁻³, τ ≤ 5 µs")).isEqualTo("dn = 1e14 cm-³, tau <= 5 µs");
         assertThat(PdfPage.clean("漢")).isEqualTo("?");
+    }
+
+    /** A hang guard only: the checks are on the result. */
+    private static final Duration HANG_GUARD = Duration.ofSeconds(10);
+
+    @Test
+    void aVeryLongNameIsCutToTheWidthWithDots() {
+        String id = "W" + "7".repeat(49_999);
+        String cut = assertTimeoutPreemptively(HANG_GUARD, () -> PdfPage.fit(id, PdfPage.BOLD, 10, 120));
+        assertThat(cut).endsWith("...").hasSizeLessThan(60);
+        assertThat(id).startsWith(cut.substring(0, cut.length() - 3));
+        assertThat(PdfPage.width(cut, PdfPage.BOLD, 10)).isLessThanOrEqualTo(120f);
+        // the longest cut that fits: one character more does not
+        String longer = id.substring(0, cut.length() - 2) + "...";
+        assertThat(PdfPage.width(longer, PdfPage.BOLD, 10)).isGreaterThan(120f);
+        String huge = "x".repeat(15 << 20);
+        String hugeCut = assertTimeoutPreemptively(HANG_GUARD, () -> PdfPage.fit(huge, PdfPage.REGULAR, 8, 300));
+        assertThat(hugeCut).endsWith("...");
+        assertThat(PdfPage.width(hugeCut, PdfPage.REGULAR, 8)).isLessThanOrEqualTo(300f);
+    }
+
+    @Test
+    void fitKeepsWhatFitsAndCutsLikeTheCharacterByCharacterRule() {
+        java.util.Random r = new java.util.Random(11);
+        String letters = "iIlmMW._-0 Δτ";
+        for (int t = 0; t < 300; t++) {
+            StringBuilder b = new StringBuilder();
+            int n = r.nextInt(60);
+            for (int i = 0; i < n; i++) {
+                b.append(letters.charAt(r.nextInt(letters.length())));
+            }
+            String s = b.toString();
+            float width = 5 + r.nextInt(150);
+            String expected = s;
+            if (PdfPage.width(s, PdfPage.REGULAR, 9) > width) {
+                String c = s;
+                while (c.length() > 1 && PdfPage.width(c + "...", PdfPage.REGULAR, 9) > width) {
+                    c = c.substring(0, c.length() - 1);
+                }
+                expected = c + "...";
+            }
+            assertThat(PdfPage.fit(s, PdfPage.REGULAR, 9, width)).as("'%s' in %s pt", s, width).isEqualTo(expected);
+        }
+    }
+
+    @Test
+    void aVeryLongWordIsWrappedIntoPiecesThatFitAndATableCellIsCut() {
+        String word = "lot_" + "8".repeat(49_996);
+        List<String> lines = assertTimeoutPreemptively(HANG_GUARD, () -> PdfPage.wrap(word, PdfPage.REGULAR, 8,
+                200));
+        assertThat(String.join("", lines)).isEqualTo(word);
+        assertThat(lines).allSatisfy(l -> assertThat(PdfPage.width(l, PdfPage.REGULAR, 8)).isLessThanOrEqualTo(200f));
+        assertThat(lines.get(0)).isEqualTo("lot_");
+        List<String> cell = PdfPage.wrap(word, PdfPage.REGULAR, 8, 200, ReportFlow.MAX_CELL_LINES);
+        assertThat(cell).hasSize(ReportFlow.MAX_CELL_LINES);
+        assertThat(cell.get(cell.size() - 1)).endsWith("...");
+    }
+
+    @Test
+    void aReportOfAWaferWithA50000CharacterIdHasOnePageWithTheIdCut(@TempDir Path dir) throws IOException {
+        String id = "W" + "5".repeat(49_999);
+        Path pdf = dir.resolve("long.pdf");
+        assertTimeoutPreemptively(HANG_GUARD, () -> WaferReport.write(content(id), pdf));
+        try (PDDocument doc = Loader.loadPDF(pdf.toFile())) {
+            assertThat(doc.getNumberOfPages()).isEqualTo(1);
+            String text = new PDFTextStripper().getText(doc);
+            assertThat(text).contains("Wafer W555").contains("...").doesNotContain(id);
+            assertThat(doc.getDocumentInformation().getTitle()).hasSizeLessThan(300);
+        }
     }
 }
