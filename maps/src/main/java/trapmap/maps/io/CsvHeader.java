@@ -11,6 +11,7 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import trapmap.shared.text.TextLimits;
 
 /**
  * What the comment lines before the first data line of a CSV map said as {@code # key=value}: the sidecar fields
@@ -38,6 +39,7 @@ record CsvHeader(Sidecar meta, Map<String, Integer> lineOf, Long width, Long hei
         Long width = null;
         Long height = null;
         List<String> warnings = new ArrayList<>();
+        int ignored = 0;
         for (int i = 0; i < comments.size(); i++) {
             String c = comments.get(i);
             if (c.isEmpty()) {
@@ -65,9 +67,12 @@ record CsvHeader(Sidecar meta, Map<String, Integer> lineOf, Long width, Long hei
             } else if (Sidecar.topLevelKeys().contains(key) && !key.equals("conditions") && !key.equals("history")
                     && !key.equals("pages") && !key.equals("format")) {
                 putValue(root, key, value, NUMERIC_KEYS.contains(key));
-            } else {
+            } else if (++ignored <= TextLimits.MAX_LISTED_WARNINGS) {
                 warnings.add("line " + line + ": comment field '" + key + "' ignored");
             }
+        }
+        if (ignored > TextLimits.MAX_LISTED_WARNINGS) {
+            warnings.add(TextLimits.andMore(ignored - TextLimits.MAX_LISTED_WARNINGS, "comment fields ignored"));
         }
         if (!conditions.isEmpty()) {
             root.set("conditions", conditions);

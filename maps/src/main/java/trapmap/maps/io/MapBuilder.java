@@ -171,10 +171,7 @@ final class MapBuilder {
                     null, extra));
         }
         String waferId = meta.waferId() != null ? meta.waferId() : stem;
-        Provenance provenance = base;
-        for (ProcessingStep st : steps) {
-            provenance = provenance.then(st);
-        }
+        Provenance provenance = base.then(steps);
         return new WaferMap(FloatRaster.wrap(raw.width(), raw.height(), s), grid, quantity, waferId, conditions,
                 provenance);
     }

@@ -32,6 +32,7 @@ import trapmap.physics.material.ConductivityType;
 import trapmap.physics.material.Doping;
 import trapmap.physics.material.Silicon;
 import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.text.TextLimits;
 
 /**
  * The facts about a map that its samples do not carry: a JSON object in a file {@code <name>.json} beside the map
@@ -70,8 +71,12 @@ import trapmap.shared.error.InvalidValueException;
  * }
  * </pre>
  *
- * Unknown top-level fields are ignored with a warning in the map's provenance. A field of the wrong type or out of
- * its range makes the file unusable: the {@link MapFormatException} names the field and its unit, e.g.
+ * Unknown top-level fields are ignored with a warning in the map's provenance (the first
+ * {@value TextLimits#MAX_LISTED_WARNINGS} by name, the rest counted in one line). Texts are bounded
+ * ({@link TextLimits}): {@code wafer_id}, page labels and every key at most {@value TextLimits#MAX_ID_CHARS}
+ * characters, other texts at most {@value TextLimits#MAX_TEXT_CHARS}, and at most {@value TextLimits#MAX_KEYS} keys
+ * in all. A field of the wrong type or out of its range, or a text or key count over its limit, makes the file
+ * unusable: the {@link MapFormatException} names the field and its unit, e.g.
  * {@code w07.json: field 'conditions.thickness_um': must be in [1, 5000] but was -5 (µm)}. The schema is also
  * described in {@code maps/SIDECAR.md}.
  *
@@ -334,23 +339,31 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
     private static final class Parser {
         private final String origin;
         private final List<String> warnings = new ArrayList<>();
+        private int ignoredFacts;
 
         Parser(String origin) {
             this.origin = origin;
         }
 
         Sidecar object(ObjectNode o) throws MapFormatException {
+            checkKeys(o);
+            int unknown = 0;
             for (Map.Entry<String, JsonNode> e : o.properties()) {
                 String k = e.getKey();
                 if (!TOP_KEYS.contains(k)) {
-                    warnings.add("unknown field '" + k + "' ignored");
+                    if (++unknown <= TextLimits.MAX_LISTED_WARNINGS) {
+                        warnings.add("unknown field '" + k + "' ignored");
+                    }
                 }
+            }
+            if (unknown > TextLimits.MAX_LISTED_WARNINGS) {
+                warnings.add(TextLimits.andMore(unknown - TextLimits.MAX_LISTED_WARNINGS, "unknown fields ignored"));
             }
             String format = text(o, "format", "format");
             if (format != null && !format.startsWith("trapmap-map/")) {
                 warnings.add("field 'format' is '" + format + "', not " + FORMAT + "; read as a sidecar");
             }
-            String waferId = text(o, "wafer_id", "wafer_id");
+            String waferId = text(o, "wafer_id", "wafer_id", TextLimits.MAX_ID_CHARS);
             Quantity quantity = null;
             String q = text(o, "quantity", "quantity");
             if (q != null) {
@@ -421,18 +434,23 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
                 }
                 addExtra(extra, "conditions." + k, k, e.getValue());
             }
+            if (ignoredFacts > TextLimits.MAX_LISTED_WARNINGS) {
+                warnings.add(TextLimits.andMore(ignoredFacts - TextLimits.MAX_LISTED_WARNINGS,
+                        "condition fields that are not a text, number or boolean ignored"));
+            }
             return new MeasurementConditions(doping, values.get("thickness_um"), values.get("temperature_k"),
                     values.get("injection_cm3"), values.get("generation_cm3_s"), values.get("srv_cm_s"),
                     values.get("photon_flux_cm2_s"), values.get("pl_calibration_counts_cm6"), extra);
         }
 
-        private void addExtra(Map<String, String> extra, String path, String key, JsonNode v) {
+        private void addExtra(Map<String, String> extra, String path, String key, JsonNode v)
+                throws MapFormatException {
             if (v.isNull()) {
                 return;
             }
             if (v.isTextual() || v.isNumber() || v.isBoolean()) {
-                extra.put(key, v.asText());
-            } else {
+                extra.put(key, bounded(v.asText(), path, TextLimits.MAX_TEXT_CHARS));
+            } else if (++ignoredFacts <= TextLimits.MAX_LISTED_WARNINGS) {
                 warnings.add("field '" + path + "' is " + kind(v) + ", not a text, number or boolean; ignored");
             }
         }
@@ -450,7 +468,7 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
                 if (!e.isTextual()) {
                     throw fail("pages[" + i + "]", "must be a text but is " + kind(e), "");
                 }
-                labels.add(e.asText());
+                labels.add(bounded(e.asText(), "pages[" + i + "]", TextLimits.MAX_ID_CHARS));
             }
             return labels;
         }
@@ -490,7 +508,8 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
                                 throw fail(where + ".parameters." + e.getKey(), "must be a text but is "
                                         + kind(e.getValue()), "");
                             }
-                            params.put(e.getKey(), e.getValue().asText());
+                            params.put(e.getKey(), bounded(e.getValue().asText(), where + ".parameters."
+                                    + e.getKey(), TextLimits.MAX_TEXT_CHARS));
                         }
                     }
                     list.add(new ProcessingStep(op, params));
@@ -500,6 +519,10 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
         }
 
         private String text(ObjectNode o, String key, String path) throws MapFormatException {
+            return text(o, key, path, TextLimits.MAX_TEXT_CHARS);
+        }
+
+        private String text(ObjectNode o, String key, String path, int maxChars) throws MapFormatException {
             JsonNode n = o.get(key);
             if (n == null || n.isNull()) {
                 return null;
@@ -507,7 +530,44 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
             if (!n.isTextual()) {
                 throw fail(path, "must be a text but is " + kind(n) + " (" + abbreviate(n.toString()) + ")", "");
             }
-            return n.asText();
+            return bounded(n.asText(), path, maxChars);
+        }
+
+        private String bounded(String text, String path, int maxChars) throws MapFormatException {
+            String problem = TextLimits.problem(text, maxChars);
+            if (problem != null) {
+                throw fail(path, problem, "characters");
+            }
+            return text;
+        }
+
+        /**
+         * Refuses more than {@link TextLimits#MAX_KEYS} keys in the whole tree, or a key longer than
+         * {@link TextLimits#MAX_ID_CHARS}, before any field is read (one pass over the tree).
+         */
+        private void checkKeys(JsonNode root) throws MapFormatException {
+            int keys = 0;
+            java.util.ArrayDeque<JsonNode> todo = new java.util.ArrayDeque<>();
+            todo.push(root);
+            while (!todo.isEmpty()) {
+                JsonNode n = todo.pop();
+                if (n.isObject()) {
+                    for (Map.Entry<String, JsonNode> e : n.properties()) {
+                        if (++keys > TextLimits.MAX_KEYS) {
+                            throw new MapFormatException(origin, null, "has more than " + TextLimits.MAX_KEYS
+                                    + " keys; a sidecar may have at most " + TextLimits.MAX_KEYS);
+                        }
+                        String problem = TextLimits.problem(e.getKey(), TextLimits.MAX_ID_CHARS);
+                        if (problem != null) {
+                            throw new MapFormatException(origin, "key '" + abbreviate(e.getKey()) + "'", problem,
+                                    "characters");
+                        }
+                        todo.push(e.getValue());
+                    }
+                } else if (n.isArray()) {
+                    n.forEach(todo::push);
+                }
+            }
         }
 
         private Double number(ObjectNode o, String key, String path, Range r) throws MapFormatException {

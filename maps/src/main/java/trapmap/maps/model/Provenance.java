@@ -20,8 +20,14 @@ public record Provenance(String source, List<ProcessingStep> steps) {
 
     /** This history with one more step. */
     public Provenance then(ProcessingStep step) {
-        List<ProcessingStep> s = new ArrayList<>(steps);
-        s.add(step);
+        return then(List.of(step));
+    }
+
+    /** This history with {@code more} steps appended, in order (one copy, however many steps). */
+    public Provenance then(List<ProcessingStep> more) {
+        List<ProcessingStep> s = new ArrayList<>(steps.size() + more.size());
+        s.addAll(steps);
+        s.addAll(more);
         return new Provenance(source, s);
     }
 }

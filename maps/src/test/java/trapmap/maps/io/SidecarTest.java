@@ -161,6 +161,74 @@ class SidecarTest {
                         + " not a text, number or boolean; ignored"));
     }
 
+    /** A hang guard only: the checks are on the result. */
+    private static final java.time.Duration HANG_GUARD = java.time.Duration.ofSeconds(10);
+
+    private static String unknownKeys(int n) {
+        StringBuilder b = new StringBuilder("{\"unit\": \"us\", \"pixel_pitch_mm\": 1");
+        for (int i = 0; i < n; i++) {
+            b.append(", \"k").append(i).append("\": ").append(i);
+        }
+        return b.append('}').toString();
+    }
+
+    @Test
+    void halfAMillionUnknownKeysAreRefusedNamingTheLimit() throws Exception {
+        Files.write(dir.resolve("big.tif"), plainTiff());
+        Path json = dir.resolve("big.json");
+        Files.writeString(json, unknownKeys(500_000));
+        org.junit.jupiter.api.Assertions.assertTimeoutPreemptively(HANG_GUARD, () ->
+                assertThatThrownBy(() -> MapFiles.read(dir.resolve("big.tif"))).isInstanceOf(MapFormatException.class)
+                        .hasMessage(json + ": has more than 10000 keys; a sidecar may have at most 10000"));
+    }
+
+    @Test
+    void manyUnknownKeysAreListedUpToTheLimitAndCountedAfter() throws Exception {
+        Files.write(dir.resolve("many.tif"), plainTiff());
+        Files.writeString(dir.resolve("many.json"), unknownKeys(9_000));
+        WaferMap m = MapFiles.readSingle(dir.resolve("many.tif"));
+        List<String> messages = m.provenance().steps().stream().filter(s -> s.operation().equals("warning"))
+                .map(s -> s.parameters().get("message")).toList();
+        assertThat(messages).hasSize(trapmap.shared.text.TextLimits.MAX_LISTED_WARNINGS + 1);
+        assertThat(messages.get(0)).isEqualTo("unknown field 'k0' ignored");
+        assertThat(messages.get(19)).isEqualTo("unknown field 'k19' ignored");
+        assertThat(messages.get(20)).isEqualTo("... and 8980 more unknown fields ignored");
+    }
+
+    @ParameterizedTest
+    @CsvSource(delimiter = '|', value = {
+            "wafer_id|257|field 'wafer_id': is 257 characters long; at most 256 are allowed",
+            "unit|4097|field 'unit': is 4097 characters long; at most 4096 are allowed"})
+    void overlongTextsNameTheFieldAndTheLimit(String key, int length, String expected) {
+        String ok = "{\"" + key + "\": \"" + "u".repeat(length - 1) + "\"}";
+        assertThat(catchMessage(ok)).isNull();
+        String json = "{\"" + key + "\": \"" + "u".repeat(length) + "\"}";
+        assertThat(catchMessage(json)).isEqualTo("s.json: " + expected);
+    }
+
+    @Test
+    void overlongFactsAndKeysAreRefused() {
+        assertThat(catchMessage("{\"conditions\": {\"passivation\": \"" + "a".repeat(4097) + "\"}}"))
+                .isEqualTo("s.json: field 'conditions.passivation': is 4097 characters long; at most 4096 are"
+                        + " allowed");
+        assertThat(catchMessage("{\"conditions\": {\"extra\": {\"" + "k".repeat(300) + "\": \"x\"}}}"))
+                .startsWith("s.json: key 'kkkkk").endsWith("': is 300 characters long; at most 256 are allowed");
+        assertThat(catchMessage("{\"a\": {\"b\": [" + "{\"c\": 1},".repeat(10_000) + "{}]}}"))
+                .isEqualTo("s.json: has more than 10000 keys; a sidecar may have at most 10000");
+    }
+
+    /** The message of parsing {@code json} as {@code s.json}; null when it parses (its unit aside). */
+    private static String catchMessage(String json) {
+        try {
+            Sidecar.parse(json, "s.json");
+            return null;
+        } catch (MapFormatException e) {
+            return e.getMessage();
+        } catch (IllegalArgumentException e) {
+            return "quantity: " + e.getMessage();
+        }
+    }
+
     @Test
     void sidecarIsFoundBesideTheMap() {
         assertThat(MapFiles.sidecarOf(Path.of("/data/w07.tif"))).isEqualTo(Path.of("/data/w07.json"));
