@@ -13,6 +13,7 @@ import java.util.Locale;
 import java.util.Optional;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import trapmap.shared.text.TextLimits;
 
 /**
  * The {@code iron} section of a rules file: how the two states of a wafer's FeB-dissociation pair are found among a
@@ -123,40 +124,20 @@ public record IronPairRules(String febState, String feiState, List<IronLimit> li
     }
 
     private static Optional<String> translate(String from, String to, String fileName) {
-        Matcher m = regex(from).matcher(fileName);
-        if (!m.matches()) {
+        List<String> parts = FileGlob.wildcardParts(from, fileName);
+        if (parts == null) {
             return Optional.empty();
         }
         StringBuilder out = new StringBuilder();
-        int group = 1;
+        int part = 0;
         for (char c : to.toCharArray()) {
             if (c == '*' || c == '?') {
-                out.append(m.group(group++));
+                out.append(parts.get(part++));
             } else {
                 out.append(c);
             }
         }
         return Optional.of(out.toString());
-    }
-
-    private static Pattern regex(String glob) {
-        StringBuilder r = new StringBuilder();
-        StringBuilder literal = new StringBuilder();
-        for (char c : glob.toCharArray()) {
-            if (c == '*' || c == '?') {
-                if (literal.length() > 0) {
-                    r.append(Pattern.quote(literal.toString()));
-                    literal.setLength(0);
-                }
-                r.append(c == '*' ? "(.*?)" : "(.)");
-            } else {
-                literal.append(c);
-            }
-        }
-        if (literal.length() > 0) {
-            r.append(Pattern.quote(literal.toString()));
-        }
-        return Pattern.compile(r.toString());
     }
 
     private static String wildcards(String glob) {
@@ -169,6 +150,10 @@ public record IronPairRules(String febState, String feiState, List<IronLimit> li
             throw error(name, "iron." + key, "is required: a glob on the file name such as \"*-feb-state.*\"", "");
         }
         String s = g.asText().trim();
+        String tooLong = TextLimits.problem(s, TextLimits.MAX_GLOB_CHARS);
+        if (tooLong != null) {
+            throw error(name, "iron." + key, tooLong, "");
+        }
         if (s.contains("/") || s.contains("\\") || s.contains("[") || s.contains("{")) {
             throw error(name, "iron." + key, "must be a file-name glob with only * and ? wildcards but was '" + s
                     + "'", "");

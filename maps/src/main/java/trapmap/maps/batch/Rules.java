@@ -6,7 +6,6 @@ import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
-import java.nio.file.FileSystems;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -27,6 +26,7 @@ import trapmap.physics.defect.DefectLibrary;
 import trapmap.physics.material.ConductivityType;
 import trapmap.physics.material.Doping;
 import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.text.TextLimits;
 
 /**
  * The inspection rules of a batch, read from a JSON file and checked completely before any wafer is read. The
@@ -87,8 +87,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         public boolean matches(String fileName, ConductivityType mapType, String family) {
             return (type == null || type == mapType)
                     && (families.isEmpty() || families.stream().anyMatch(f -> WaferFormat.familyMatches(f, family)))
-                    && (file == null || FileSystems.getDefault().getPathMatcher("glob:" + file)
-                            .matches(Path.of(fileName)));
+                    && (file == null || FileGlob.compile(file).matches(fileName));
         }
     }
 
@@ -359,6 +358,10 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         void onlyKeys(JsonNode node, String path, Set<String> allowed) throws RulesException {
             for (Iterator<String> it = node.fieldNames(); it.hasNext(); ) {
                 String k = it.next();
+                String tooLong = TextLimits.problem(k, TextLimits.MAX_ID_CHARS);
+                if (tooLong != null) {
+                    throw error(path.isEmpty() ? "(top level)" : path, "a key " + tooLong, "");
+                }
                 if (!allowed.contains(k)) {
                     throw error(path.isEmpty() ? k : path + "." + k, "unknown key; expected one of "
                             + String.join(", ", allowed), "");
@@ -391,10 +394,20 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         }
 
         String text(JsonNode node, String path) throws RulesException {
+            return text(node, path, path.endsWith(".file") ? TextLimits.MAX_GLOB_CHARS : TextLimits.MAX_TEXT_CHARS);
+        }
+
+        /** A non-empty text of at most {@code maxChars} characters. */
+        String text(JsonNode node, String path, int maxChars) throws RulesException {
             if (!node.isTextual() || node.asText().isBlank()) {
                 throw error(path, "must be a non-empty text but is " + describe(node), "");
             }
-            return node.asText().trim();
+            String t = node.asText().trim();
+            String tooLong = TextLimits.problem(t, maxChars);
+            if (tooLong != null) {
+                throw error(path, tooLong, "");
+            }
+            return t;
         }
 
         Rules rules(JsonNode root) throws RulesException {
@@ -513,7 +526,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                 if (!n.has("name")) {
                     throw error(p + ".name", "is required", "");
                 }
-                String name = text(n.get("name"), p + ".name");
+                String name = text(n.get("name"), p + ".name", TextLimits.MAX_ID_CHARS);
                 if (!names.add(name)) {
                     throw error(p + ".name", "'" + name + "' is given twice (" + DEFAULT_PROFILE
                             + " is the top level)", "");
@@ -582,8 +595,8 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
             if (n.has("file")) {
                 file = text(n.get("file"), p + ".file");
                 try {
-                    FileSystems.getDefault().getPathMatcher("glob:" + file);
-                } catch (RuntimeException e) {
+                    FileGlob.compile(file);
+                } catch (IllegalArgumentException e) {
                     throw error(p + ".file", "not a valid glob: " + e.getMessage(), "");
                 }
             }
@@ -663,7 +676,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                 if (!g.has("grade")) {
                     throw error(p + ".grade", "is required", "");
                 }
-                String grade = text(g.get("grade"), p + ".grade");
+                String grade = text(g.get("grade"), p + ".grade", TextLimits.MAX_ID_CHARS);
                 if (!seen.add(grade)) {
                     throw error(p + ".grade", "'" + grade + "' is given twice", "");
                 }

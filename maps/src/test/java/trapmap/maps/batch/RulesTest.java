@@ -88,12 +88,38 @@ class RulesTest {
         "{'profiles': [{'name': 'n', 'match': {'type': 'n'}, 'flag': {'quantity': 'lifetime'}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].flag.threshold': is required (us)",
         "{'profiles': [{'name': 'n', 'match': {'type': 'n'}, 'limits': {'x': {'min': 1}}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].limits.x': unknown figure",
         "{'fail_grade': 'R', 'profiles': [{'name': 'n', 'match': {'type': 'n'}, 'grades': [{'grade': 'R'}]}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].fail_grade': the inherited 'R'",
+        "{'profiles': [{'name': 'n', 'match': {'file': '[c-a]'}}], 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'profiles[0].match.file': not a valid glob: invalid range at index 1",
     })
     void invalidRulesNameTheField(String json, String expected) {
         assertThatThrownBy(() -> parse(json.replace('\'', '"')))
                 .isInstanceOf(RulesException.class)
                 .hasMessageStartingWith("r.json: ")
                 .hasMessageContaining(expected);
+    }
+
+    @Test
+    void overlongNamesGlobsAndGradesNameTheFieldAndTheLimit() {
+        String flag = ", 'flag': {'quantity': 'lifetime', 'threshold': 10}}";
+        assertThatThrownBy(() -> parse(("{'profiles': [{'name': '" + "n".repeat(257) + "', 'match': {'type': 'n'}}]"
+                + flag).replace('\'', '"'))).hasMessage("r.json: field 'profiles[0].name': is 257 characters long;"
+                + " at most 256 are allowed");
+        assertThatThrownBy(() -> parse(("{'profiles': [{'name': 'n', 'match': {'file': '" + "*".repeat(1025)
+                + "'}}]" + flag).replace('\'', '"'))).hasMessage("r.json: field 'profiles[0].match.file': is 1025"
+                + " characters long; at most 1024 are allowed");
+        assertThatThrownBy(() -> parse(("{'grades': [{'grade': '" + "A".repeat(257) + "'}]" + flag)
+                .replace('\'', '"'))).hasMessage("r.json: field 'grades[0].grade': is 257 characters long; at most"
+                + " 256 are allowed");
+    }
+
+    @Test
+    void aProfileGlobWithTwentyTwoStarsPicksTheProfileOfALongNameAtOnce() throws Exception {
+        Rules r = parse(("{'profiles': [{'name': 'stars', 'match': {'file': '" + "*a".repeat(21) + "*b'}}],"
+                + " 'flag': {'quantity': 'lifetime', 'threshold': 10}}").replace('\'', '"'));
+        String noMatch = "a".repeat(10_000);
+        String match = "a".repeat(9_999) + "b";
+        assertThat(org.junit.jupiter.api.Assertions.assertTimeoutPreemptively(java.time.Duration.ofSeconds(10),
+                () -> r.profileFor(noMatch, null, "m2").name())).isEqualTo(Rules.DEFAULT_PROFILE);
+        assertThat(r.profileFor(match, null, "m2").name()).isEqualTo("stars");
     }
 
     @Test
