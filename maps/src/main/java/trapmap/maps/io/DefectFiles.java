@@ -22,6 +22,7 @@ import trapmap.physics.defect.Defect;
 import trapmap.physics.defect.DefectLibrary;
 import trapmap.physics.defect.DefectSpecs;
 import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.text.TextLimits;
 
 /**
  * Reads user-defined defects from a JSON file. The file holds one defect object, an array of them, or an object
@@ -90,6 +91,12 @@ public final class DefectFiles {
      */
     public static List<Defect> parse(String json, String origin) throws DefectFileException {
         JsonNode root = tree(json, origin);
+        JsonTexts.Overlong overlong = JsonTexts.firstOverlong(root, TextLimits.MAX_ID_CHARS,
+                Map.of("id", TextLimits.MAX_ID_CHARS, "name", TextLimits.MAX_ID_CHARS));
+        if (overlong != null) {
+            throw new DefectFileException(origin, overlong.field(), "", origin + ": field '" + overlong.field()
+                    + "': " + overlong.problem(), null);
+        }
         List<JsonNode> entries = entries(root, origin);
         List<Defect> defects = new ArrayList<>(entries.size());
         Map<String, Integer> seen = new HashMap<>();

@@ -48,6 +48,19 @@ class DefectFilesTest {
     }
 
     @Test
+    void overlongIdsNamesAndNotesAreRefusedNamingTheFieldAndTheLimit() throws IOException {
+        Path idFile = write("id.json", "[" + ALT_IRON + ", " + ALT_IRON.replace("fe-i-alt", "x".repeat(257)) + "]");
+        assertThatThrownBy(() -> DefectFiles.read(idFile)).isInstanceOf(DefectFileException.class)
+                .hasMessage(idFile + ": field '[1].id': is 257 characters long; at most 256 are allowed");
+        Path sourceFile = write("source.json", ALT_IRON.replace("test set", "s".repeat(4097)));
+        assertThatThrownBy(() -> DefectFiles.read(sourceFile))
+                .hasMessage(sourceFile + ": field 'source': is 4097 characters long; at most 4096 are allowed");
+        Path keyFile = write("key.json", "{\"" + "k".repeat(300) + "\": 1}");
+        assertThatThrownBy(() -> DefectFiles.read(keyFile)).hasMessage(keyFile + ": field '" + "k".repeat(40)
+                + "...': the key is 300 characters long; at most 256 are allowed");
+    }
+
+    @Test
     void readsAnArrayInFileOrder() throws Exception {
         List<Defect> defects = DefectFiles.read(write("two.json", "[" + ALT_IRON + ", " + MIDGAP_GREEN + "]"));
         assertThat(defects).extracting(Defect::id).containsExactly("fe-i-alt", "mid-green");

@@ -22,8 +22,10 @@ import java.util.Map;
 import java.util.Set;
 import trapmap.maps.io.ColourMap;
 import trapmap.maps.io.DefectFiles;
+import trapmap.maps.io.JsonTexts;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.physics.defect.Defect;
+import trapmap.shared.text.TextLimits;
 
 /**
  * Reads and writes sessions as readable JSON:
@@ -225,6 +227,12 @@ public final class SessionFiles {
         }
         if (root == null || !root.isObject()) {
             throw new SessionException(name + ": a session file holds one JSON object");
+        }
+        JsonTexts.Overlong overlong = JsonTexts.firstOverlong(root, TextLimits.MAX_TEXT_CHARS, Map.of(
+                "id", TextLimits.MAX_ID_CHARS, "name", TextLimits.MAX_ID_CHARS, "defect", TextLimits.MAX_ID_CHARS,
+                "defect_for_all", TextLimits.MAX_ID_CHARS));
+        if (overlong != null) {
+            throw new SessionException(name + ": " + overlong.field() + " " + overlong.problem());
         }
         Reader r = new Reader(name);
         r.keys(root, KEYS, "");

@@ -121,6 +121,22 @@ class SessionFilesTest {
     }
 
     @Test
+    void overlongTextsNameTheFieldAndTheLimit() {
+        String longPath = "w/" + "p".repeat(4095);
+        assertThatThrownBy(() -> SessionFiles.parse("{\"format\": \"trapmap-session\", \"version\": 1,"
+                + " \"files\": [\"a.tif\", \"" + longPath + "\"]}", "s.json", dir))
+                .isInstanceOf(SessionFiles.SessionException.class)
+                .hasMessage("s.json: files[1] is 4097 characters long; at most 4096 are allowed");
+        assertThatThrownBy(() -> SessionFiles.parse("{\"format\": \"trapmap-session\", \"version\": 1,"
+                + " \"files\": [], \"defect\": \"" + "d".repeat(257) + "\"}", "s.json", dir))
+                .hasMessage("s.json: defect is 257 characters long; at most 256 are allowed");
+        assertThatThrownBy(() -> SessionFiles.parse("{\"format\": \"trapmap-session\", \"version\": 1,"
+                + " \"files\": [], \"user_defects\": [{\"id\": \"u\", \"name\": \"" + "n".repeat(300) + "\"}]}",
+                "s.json", dir)).hasMessage("s.json: user_defects[0].name is 300 characters long; at most 256 are"
+                + " allowed");
+    }
+
+    @Test
     void unknownDefectIsRefused() {
         assertThatThrownBy(() -> SessionFiles.parse("""
                 {"format": "trapmap-session", "version": 1, "files": [], "defect": "unobtainium"}""", "s.json", dir))
