@@ -21,6 +21,7 @@ import java.util.Map;
 import java.util.Set;
 import java.util.UUID;
 import org.apache.commons.csv.CSVFormat;
+import trapmap.maps.io.CsvCells;
 import org.apache.commons.csv.CSVParser;
 import org.apache.commons.csv.CSVPrinter;
 import org.apache.commons.csv.CSVRecord;
@@ -170,7 +171,7 @@ final class CasesFile {
                     StandardOpenOption.WRITE);
                  CSVPrinter printer = new CSVPrinter(w, CSVFormat.DEFAULT.builder().setRecordSeparator('\n').get())) {
                 for (List<String> row : rows) {
-                    printer.printRecord(row);
+                    printer.printRecord(row.stream().map(CsvCells::text).toList());
                 }
             }
             try {

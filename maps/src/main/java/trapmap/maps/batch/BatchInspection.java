@@ -25,6 +25,7 @@ import org.apache.commons.csv.CSVParser;
 import org.apache.commons.csv.CSVPrinter;
 import org.apache.commons.csv.CSVRecord;
 import trapmap.maps.io.AtomicFiles;
+import trapmap.maps.io.CsvCells;
 import trapmap.maps.io.MapFiles;
 import trapmap.shared.progress.ProgressListener;
 
@@ -297,7 +298,8 @@ public final class BatchInspection {
             RecurrencePicture.write(e.getValue(), HotSpots.find(e.getValue(), HotSpots.Criteria.DEFAULT), png);
             written.add(tif);
             written.add(png);
-            families.append(CSVFormat.DEFAULT.format(e.getKey(), wafersPerFamily.get(e.getKey()), stem + ".tif"))
+            families.append(CSVFormat.DEFAULT.format(CsvCells.text(e.getKey()), wafersPerFamily.get(e.getKey()),
+                            CsvCells.text(stem + ".tif")))
                     .append('\n');
         }
         AtomicFiles.write(outDir.resolve(RECURRENCE_NAME), families.toString().getBytes(StandardCharsets.UTF_8));
@@ -320,9 +322,16 @@ public final class BatchInspection {
                 if (!rec.isConsistent() || !rec.isMapped("file") || rec.get("file").isEmpty()) {
                     continue; // a row cut short by an interruption
                 }
-                into.put(key(rec.get("file")), new LinkedHashMap<>(rec.toMap()));
+                into.put(key(CsvCells.raw(rec.get("file"))), rawCells(rec));
             }
         }
+    }
+
+    /** A row of one of our CSV files with each cell as it was before {@link CsvCells#text}. */
+    private static Map<String, String> rawCells(CSVRecord rec) {
+        Map<String, String> m = new LinkedHashMap<>();
+        rec.toMap().forEach((k, v) -> m.put(k, CsvCells.raw(v)));
+        return m;
     }
 
     private static void readRegionRows(Path file, Map<String, List<Map<String, String>>> into) throws IOException {
@@ -336,8 +345,7 @@ public final class BatchInspection {
                 if (!rec.isConsistent() || !rec.isMapped("file") || rec.get("file").isEmpty()) {
                     continue; // a row cut short by an interruption
                 }
-                read.computeIfAbsent(key(rec.get("file")), k -> new ArrayList<>()).add(new LinkedHashMap<>(
-                        rec.toMap()));
+                read.computeIfAbsent(key(CsvCells.raw(rec.get("file"))), k -> new ArrayList<>()).add(rawCells(rec));
             }
         }
         into.putAll(read); // a later file (the partial one) replaces a file's regions as a whole
@@ -377,7 +385,7 @@ public final class BatchInspection {
     private static void print(CSVPrinter out, List<String> columns, Map<String, String> row) throws IOException {
         List<String> values = new ArrayList<>(columns.size());
         for (String c : columns) {
-            values.add(row.getOrDefault(c, ""));
+            values.add(CsvCells.text(row.getOrDefault(c, "")));
         }
         out.printRecord(values);
     }

@@ -12,6 +12,7 @@ import java.util.Map;
 import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVParser;
 import org.apache.commons.csv.CSVRecord;
+import trapmap.maps.io.CsvCells;
 
 /**
  * The footprints of inspected wafers in {@code footprints.csv} beside the results, so that a resumed batch can
@@ -27,7 +28,7 @@ final class FootprintStore {
 
     static List<String> record(String file, Footprint f) {
         Base64.Encoder b64 = Base64.getEncoder();
-        return List.of(file, f.family(), Double.toString(f.pitchMm()), Integer.toString(f.minI()),
+        return List.of(CsvCells.text(file), CsvCells.text(f.family()), Double.toString(f.pitchMm()), Integer.toString(f.minI()),
                 Integer.toString(f.minJ()), Integer.toString(f.width()), Integer.toString(f.height()),
                 b64.encodeToString(f.covered().toByteArray()), b64.encodeToString(f.flagged().toByteArray()));
     }
@@ -43,12 +44,12 @@ final class FootprintStore {
              CSVParser p = CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).build().parse(r)) {
             for (CSVRecord rec : p) {
                 try {
-                    Footprint f = new Footprint(rec.get("family"), Double.parseDouble(rec.get("pitch_mm")),
+                    Footprint f = new Footprint(CsvCells.raw(rec.get("family")), Double.parseDouble(rec.get("pitch_mm")),
                             Integer.parseInt(rec.get("min_i")), Integer.parseInt(rec.get("min_j")),
                             Integer.parseInt(rec.get("width")), Integer.parseInt(rec.get("height")),
                             BitSet.valueOf(b64.decode(rec.get("covered"))),
                             BitSet.valueOf(b64.decode(rec.get("flagged"))));
-                    into.put(key.apply(rec.get("file")), f);
+                    into.put(key.apply(CsvCells.raw(rec.get("file"))), f);
                 } catch (IllegalArgumentException | IllegalStateException e) {
                     // a row cut short by an interruption: that wafer is simply left out of the recurrence map
                 }

@@ -17,7 +17,8 @@ public final class TableFiles {
 
     /**
      * Writes a header row and the rows as UTF-8 CSV (RFC 4180 quoting, {@code \n} line ends); readers see either the
-     * old file or the complete new one.
+     * old file or the complete new one. Text cells that a spreadsheet could take for a formula are written as
+     * {@link CsvCells#text} makes them.
      *
      * @throws IllegalArgumentException when a row's length differs from the header's
      */
@@ -37,7 +38,7 @@ public final class TableFiles {
                  CSVPrinter csv = new CSVPrinter(w, format)) {
                 csv.printRecord(header);
                 for (List<?> r : rows) {
-                    csv.printRecord(r);
+                    csv.printRecord(r.stream().map(CsvCells::cell).toList());
                 }
             }
         });

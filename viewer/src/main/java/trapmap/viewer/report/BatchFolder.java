@@ -14,6 +14,7 @@ import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVParser;
 import org.apache.commons.csv.CSVRecord;
 import trapmap.maps.batch.BatchInspection;
+import trapmap.maps.io.CsvCells;
 import trapmap.maps.batch.HotSpots;
 import trapmap.maps.batch.RecurrenceMap;
 import trapmap.maps.batch.Rules;
@@ -50,13 +51,13 @@ final class BatchFolder {
                 for (String f : figureColumns) {
                     figures.put(f, number(rec.get(f)));
                 }
-                String failed = rec.get("failed_rules");
-                rows.add(new BatchContent.Row(rec.get("file"), rec.get("wafer_id"), rec.get("status"),
-                        rec.get("grade"), text(rec, "profile"), text(rec, "defect"), figures,
+                String failed = text(rec, "failed_rules");
+                rows.add(new BatchContent.Row(text(rec, "file"), text(rec, "wafer_id"), text(rec, "status"),
+                        text(rec, "grade"), text(rec, "profile"), text(rec, "defect"), figures,
                         failed.isEmpty() ? List.of() : List.of(failed.split(";")),
                         number(rec.get("worst_region_area_mm2")), number(rec.get("worst_region_x_mm")),
                         number(rec.get("worst_region_y_mm")), number(rec.get("worst_region_peak")),
-                        rec.get("error")));
+                        text(rec, "error")));
             }
         }
         RecurrenceMap recurrence = RecurrenceMap.read(outputDir.resolve(BatchInspection.FOOTPRINTS_NAME));
@@ -64,8 +65,9 @@ final class BatchFolder {
                 HotSpots.Criteria.DEFAULT);
     }
 
+    /** A text cell as it was before {@link CsvCells#text}; empty when the column is missing. */
     private static String text(CSVRecord rec, String column) {
-        return rec.isMapped(column) ? rec.get(column) : "";
+        return rec.isMapped(column) ? CsvCells.raw(rec.get(column)) : "";
     }
 
     private static double number(String s) {

@@ -9,6 +9,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import org.apache.commons.csv.CSVFormat;
+import trapmap.maps.io.CsvCells;
 import org.apache.commons.csv.CSVPrinter;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.region.Region;
@@ -90,14 +91,15 @@ public final class ViewerExports {
             csv.printRecord("flagged_regions", r.regions().size(), "");
             csv.printRecord("edge_exclusion", r.edgeExclusionMm(), "mm");
             Verdict v = r.verdict();
-            csv.printRecord("judged_by", v.rulesVerdict() ? "rules " + v.rulesName() : Verdict.QUICK_CHECK, "");
-            csv.printRecord("verdict", v.outcome(), "");
-            csv.printRecord("grade", v.grade(), "");
-            csv.printRecord("profile", v.profile(), "");
-            csv.printRecord("defect", v.defectId() == null ? "" : v.defectId(), "");
+            csv.printRecord("judged_by", CsvCells.text(v.rulesVerdict() ? "rules " + v.rulesName()
+                    : Verdict.QUICK_CHECK), "");
+            csv.printRecord("verdict", CsvCells.text(v.outcome()), "");
+            csv.printRecord("grade", CsvCells.text(v.grade()), "");
+            csv.printRecord("profile", CsvCells.text(v.profile()), "");
+            csv.printRecord("defect", v.defectId() == null ? "" : CsvCells.text(v.defectId()), "");
             csv.printRecord("defect_overridden", v.defectOverridden(), "");
-            csv.printRecord("failed_rules", String.join(";", v.failedRules()), "");
-            csv.printRecord("graded_down_by", String.join(";", v.gradedDownBy()), "");
+            csv.printRecord("failed_rules", CsvCells.text(String.join(";", v.failedRules())), "");
+            csv.printRecord("graded_down_by", CsvCells.text(String.join(";", v.gradedDownBy())), "");
             if (v.rulesVerdict()) {
                 for (Map.Entry<String, Double> f : v.figures().entrySet()) {
                     csv.printRecord("figure " + f.getKey(), f.getValue(), "");
