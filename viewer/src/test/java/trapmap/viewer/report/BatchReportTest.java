@@ -148,6 +148,23 @@ public class BatchReportTest {
         }
     }
 
+    @Test
+    void formulaLikeWaferIdsAreShownRawInTheSummary(@TempDir Path dir) throws Exception {
+        Path in = Files.createDirectories(dir.resolve("in"));
+        Path dde = wafer(in, "w-dde", 70, 6);
+        Files.writeString(in.resolve("w-dde.json"), "{\"wafer_id\": \"=cmd|' /C calc'!A0\"}");
+        Rules rules = Rules.parse(RULES, "rules.json");
+        Path out = dir.resolve("out");
+        new BatchInspection(rules).run(List.of(dde, wafer(in, "@two", 80, 0)), out,
+                new BatchInspection.Options(1, false, false, ProgressListener.NONE));
+        assertThat(Files.readString(out.resolve(BatchInspection.CSV_NAME))).contains(",'=cmd|", ",'@two,");
+
+        try (PDDocument doc = Loader.loadPDF(BatchReport.writeFor(out, rules).toFile())) {
+            String all = text(doc);
+            assertThat(all).contains("=cmd|", "@two").doesNotContain("'=cmd", "'@two");
+        }
+    }
+
     private static String text(PDDocument doc) throws Exception {
         return new PDFTextStripper().getText(doc).replaceAll("\\s+", " ");
     }
