@@ -165,7 +165,7 @@ class LimitsAndStructureTest {
         t.page(16, 16, 32, 3, 8).strips(new byte[] {1, 2, 3, 4, 5, 6, 7, 8, 9, 10});
         Path f = write("corrupt.tif", t.build());
         assertThatThrownBy(() -> MapFiles.read(f)).isInstanceOf(MapFormatException.class)
-                .hasMessageContaining(f + ": page 1: the image data (32-bit float, Deflate compression) cannot be"
-                        + " decoded");
+                .hasMessage(f + ": page 1 (directory at byte 8), strip 1 of 1: read error: the Deflate data are"
+                        + " corrupt (incorrect header check) after 0 decoded bytes, expected 1024");
     }
 }
