@@ -181,14 +181,14 @@ final class TiffBlocks {
 
     /**
      * Bytes decoded from TIFF LZW data: 9- to 12-bit codes, most significant bit first, code 256 clears the table,
-     * 257 ends the data, the code width grows one code early (TIFF 6.0, section 13). Data starting with the bytes
-     * 0x00 0x01 are the older bit-reversed variant (least significant bit first, no early change), which some old
-     * writers produce. Only the length of each table entry is kept.
+     * 257 ends the data, the code width grows one code early (TIFF 6.0, section 13). Data starting with a zero byte
+     * and an odd byte are the older bit-reversed variant (least significant bit first, no early change) that some
+     * old writers produce and the TwelveMonkeys plugin reads. Only the length of each table entry is kept.
      */
     private long lzw(long max) throws MapFormatException, Corrupt {
         int b0 = next();
         int b1 = next();
-        boolean reversed = b0 == 0 && b1 == 1;
+        boolean reversed = b0 == 0 && b1 >= 0 && (b1 & 1) == 1; // a clear code written least significant bit first
         in.position(0);
         read = 0;
         in.limit(0);

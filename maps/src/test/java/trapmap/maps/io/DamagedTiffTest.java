@@ -302,6 +302,30 @@ class DamagedTiffTest {
     }
 
     @Test
+    void oldBitReversedLzwIsCheckedToo() throws Exception {
+        // TIFF 5.0 LZW: codes least significant bit first, widths grow at 512, 1024, 2048; the JDK plugin refuses it
+        // and TwelveMonkeys decodes it
+        List<byte[]> s = new ArrayList<>();
+        int rowBytes = 4 * width;
+        for (int y = 0; y < height; y += ROWS_PER_STRIP) {
+            int rows = Math.min(ROWS_PER_STRIP, height - y);
+            s.add(oldLzw(Arrays.copyOfRange(samples, y * rowBytes, (y + rows) * rowBytes)));
+        }
+        assertThat(s.get(0)[0]).isZero();
+        Path intact = write("old-lzw.tif", Codec.LZW, s);
+        WaferMap m = MapFiles.readSingle(intact);
+        assertThat(Fixtures.canonicalBits(m.raster().samples()))
+                .isEqualTo(Fixtures.canonicalBits(original.raster().samples()));
+
+        int first = s.size() / 2;
+        s.set(first, Arrays.copyOf(s.get(first), s.get(first).length / 2));
+        Path f = write("old-lzw-short.tif", Codec.LZW, s);
+        assertThatThrownBy(() -> MapFiles.read(f)).hasMessageMatching(Pattern.quote(f + ": " + firstDamaged())
+                + "got \\d+ bytes after LZW decompression of its " + s.get(first).length + " bytes, expected "
+                + stripBytes());
+    }
+
+    @Test
     void damagedTileIsNamed() throws Exception {
         // a 32 × 32 map in four 16 × 16 tiles, Deflate; tile 2 cut to half
         int w = 32;
@@ -431,6 +455,58 @@ class DamagedTiffTest {
         }
         w.write(257, width);
         return w.finish();
+    }
+
+    /** The TIFF 5.0 variant of {@link #lzw}: codes least significant bit first, no early change of width. */
+    static byte[] oldLzw(byte[] data) {
+        ByteArrayOutputStream out = new ByteArrayOutputStream();
+        long[] acc = {0, 0}; // bits, count
+        java.util.function.BiConsumer<Integer, Integer> emit = (code, bits) -> {
+            acc[0] |= (long) code << acc[1];
+            acc[1] += bits;
+            while (acc[1] >= 8) {
+                out.write((int) (acc[0] & 0xFF));
+                acc[0] >>>= 8;
+                acc[1] -= 8;
+            }
+        };
+        int width = 9;
+        emit.accept(256, width);
+        Map<Integer, Integer> table = new HashMap<>();
+        int next = 258;
+        int prefix = -1;
+        for (byte value : data) {
+            int b = value & 0xFF;
+            if (prefix < 0) {
+                prefix = b;
+                continue;
+            }
+            Integer code = table.get(prefix << 8 | b);
+            if (code != null) {
+                prefix = code;
+                continue;
+            }
+            emit.accept(prefix, width);
+            table.put(prefix << 8 | b, next++);
+            if (next > (1 << width) && width < 12) {
+                width++;
+            }
+            if (next == 4094) {
+                emit.accept(256, width);
+                table.clear();
+                next = 258;
+                width = 9;
+            }
+            prefix = b;
+        }
+        if (prefix >= 0) {
+            emit.accept(prefix, width);
+        }
+        emit.accept(257, width);
+        if (acc[1] > 0) {
+            out.write((int) (acc[0] & 0xFF));
+        }
+        return out.toByteArray();
     }
 
     /** PackBits (section 9): runs of 3 to 128 equal bytes as (1 − n, byte), the rest as literal runs of up to 128. */
