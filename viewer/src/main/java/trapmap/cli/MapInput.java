@@ -1,7 +1,6 @@
 package trapmap.cli;
 
 import java.io.IOException;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import trapmap.maps.io.MapFiles;
@@ -16,12 +15,9 @@ final class MapInput {
     /**
      * Page {@code page} (1-based) of {@code file}.
      *
-     * @throws MapFormatException when the file is missing, unreadable or has no such page
+     * @throws MapFormatException when the file is missing, not a regular file, unreadable or has no such page
      */
     static WaferMap page(Path file, int page) throws MapFormatException {
-        if (!Files.isRegularFile(file)) {
-            throw new MapFormatException(file.toString(), "", "no such file");
-        }
         List<WaferMap> pages = MapFiles.read(file);
         if (page < 1 || page > pages.size()) {
             throw new MapFormatException(file.toString(), "", "has " + pages.size() + " page"

@@ -2,6 +2,7 @@ package trapmap.maps.io;
 
 import java.io.IOException;
 import java.io.InputStream;
+import java.nio.file.AccessDeniedException;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
@@ -60,6 +61,8 @@ public final class MapFiles {
             return readChecked(file, name, options);
         } catch (MapFormatException e) {
             throw e;
+        } catch (AccessDeniedException e) {
+            throw new MapFormatException(name, null, "permission denied", "", e);
         } catch (IOException e) {
             throw new MapFormatException(name, null, "cannot be read (" + e.getMessage() + ")", "", e);
         } catch (RuntimeException e) {
@@ -172,6 +175,14 @@ public final class MapFiles {
         return dot <= 0 ? "" : n.substring(dot).toLowerCase(Locale.ROOT);
     }
 
+    /** What a file that is not a regular file is, for messages. */
+    private static String kind(BasicFileAttributes attrs) {
+        if (attrs.isDirectory()) {
+            return "a directory";
+        }
+        return attrs.isOther() ? "a FIFO, socket or device" : "not a file";
+    }
+
     private static String stem(String fileName) {
         int dot = fileName.lastIndexOf('.');
         return dot <= 0 ? fileName : fileName.substring(0, dot);
@@ -184,11 +195,11 @@ public final class MapFiles {
         } catch (NoSuchFileException e) {
             throw new MapFormatException(name, null, "no such file", "", e);
         }
-        if (attrs.isDirectory()) {
-            throw new MapFormatException(name, null, "is a directory, not a map file");
+        if (!attrs.isRegularFile()) { // checked before opening: opening a FIFO would wait for a writer
+            throw new MapFormatException(name, null, "is " + kind(attrs) + ", not a regular file");
         }
-        if (!attrs.isRegularFile()) {
-            throw new MapFormatException(name, null, "is not a regular file");
+        if (!Files.isReadable(file)) {
+            throw new MapFormatException(name, null, "permission denied");
         }
         long size = attrs.size();
         if (size > options.maxFileBytes()) {
@@ -223,7 +234,16 @@ public final class MapFiles {
         Path sidecarPath = sidecarOf(file);
         Sidecar sidecar = null;
         String sidecarName = sidecarPath.toString();
-        if (!extension(file).equals(".json") && Files.isRegularFile(sidecarPath)) {
+        if (!extension(file).equals(".json") && Files.exists(sidecarPath)) {
+            if (!Files.isRegularFile(sidecarPath)) {
+                BasicFileAttributes sa = Files.readAttributes(sidecarPath, BasicFileAttributes.class);
+                throw new MapFormatException(sidecarName, null, "the sidecar of " + file.getFileName() + " is "
+                        + kind(sa) + ", not a regular file; remove or rename it");
+            }
+            if (!Files.isReadable(sidecarPath)) {
+                throw new MapFormatException(sidecarName, null, "the sidecar of " + file.getFileName()
+                        + " cannot be read: permission denied");
+            }
             sidecar = Sidecar.read(sidecarPath);
         }
         String source = file.getFileName().toString();

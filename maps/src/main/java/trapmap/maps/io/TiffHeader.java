@@ -17,7 +17,9 @@ import java.util.Set;
  * directories (IFDs), the tags that size the image and locate its data, and the few descriptive tags trapmap uses.
  * Everything that a decoder would trust — sizes, counts, offsets — is checked against the file length and the
  * limits of {@link ReadOptions}, so that a truncated, tampered or oversized file is refused with a message naming
- * the page, tag and byte offset instead of making a decoder allocate or read past the end.
+ * the page, tag and byte offset instead of making a decoder allocate or read past the end. Each strip or tile is
+ * then decoded once by {@link TiffBlocks} to check that it yields exactly the bytes of its pixels, since decoders
+ * fill missing data with zeros.
  */
 final class TiffHeader {
     /** Most pages (IFDs) followed. */
@@ -404,7 +406,8 @@ final class TiffHeader {
         long rowBytes = (long) w * type.bytes;
         for (int i = 0; i < strips; i++) {
             long rows = Math.min(rps, h - i * rps);
-            checkBlock("strip", i, off[i], cnt[i], rows * rowBytes, compression, offsets, where);
+            TiffBlocks.check(channel, file, where + ", strip " + (i + 1) + " of " + strips, size, off[i], cnt[i],
+                    rows * rowBytes, rps * rowBytes, (int) compression);
         }
         return new Strips(off, (int) rps, order);
     }
@@ -430,7 +433,8 @@ final class TiffHeader {
         long[] off = values(offsets, tiles, where);
         long[] cnt = values(counts, tiles, where);
         for (int i = 0; i < tiles; i++) {
-            checkBlock("tile", i, off[i], cnt[i], tw * th * type.bytes, compression, offsets, where);
+            TiffBlocks.check(channel, file, where + ", tile " + (i + 1) + " of " + tiles, size, off[i], cnt[i],
+                    tw * th * type.bytes, tw * th * type.bytes, (int) compression);
         }
     }
 
@@ -438,22 +442,6 @@ final class TiffHeader {
         if (n > MAX_BLOCKS) {
             throw new MapFormatException(file, where + ", " + tagName(tag.tag) + " at byte " + tag.entryPos,
                     "the image is split into " + n + " " + what + "; at most " + MAX_BLOCKS + " are supported");
-        }
-    }
-
-    private void checkBlock(String what, int i, long offset, long count, long needed, long compression, Entry tag,
-                            String where) throws MapFormatException {
-        String loc = where + ", " + tagName(tag.tag) + " at byte " + tag.entryPos;
-        if (offset + count > size) {
-            throw new MapFormatException(file, loc, what + " " + (i + 1) + " (" + count + " bytes at byte " + offset
-                    + ") extends past the end of the file (" + size + " bytes); the file is truncated");
-        }
-        if (compression == 1 && count < needed) {
-            throw new MapFormatException(file, loc, what + " " + (i + 1) + " holds " + count + " bytes but needs "
-                    + needed);
-        }
-        if (count == 0) {
-            throw new MapFormatException(file, loc, what + " " + (i + 1) + " is empty");
         }
     }
 

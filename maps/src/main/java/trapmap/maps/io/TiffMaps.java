@@ -188,9 +188,17 @@ final class TiffMaps {
                 + p.height() + " pixels; give Java more memory (-Xmx) or read smaller files", "", e);
     }
 
-    private static String describe(Throwable e) {
+    /**
+     * What a decoder's failure says: the message of an I/O failure; for a runtime exception inside a plugin (a null
+     * pointer, an index out of bounds on invalid data) no JDK text, which would mean nothing to the user — the cause
+     * keeps it for logs.
+     */
+    static String describe(Throwable e) {
         String m = e.getMessage();
-        return m == null || m.isBlank() ? e.getClass().getSimpleName() : MapFormatException.oneLine(m);
+        if (e instanceof RuntimeException || m == null || m.isBlank()) {
+            return "the decoder stopped on invalid data";
+        }
+        return MapFormatException.oneLine(m);
     }
 
     /** The reader of the plugin whose service provider has class {@code spiClass}. */

@@ -78,8 +78,8 @@ class LimitsAndStructureTest {
         t.floatPage(8, 8, new float[64]);
         byte[] full = t.build();
         Path f = write("cut.tif", Arrays.copyOf(full, full.length - 10));
-        assertThatThrownBy(() -> MapFiles.read(f)).hasMessageContaining("strip 1 (256 bytes at byte")
-                .hasMessageContaining("extends past the end of the file");
+        assertThatThrownBy(() -> MapFiles.read(f)).hasMessageContaining("strip 1 of 1: read error: got 246 of its"
+                + " 256 bytes at byte").hasMessageContaining("the file is truncated");
     }
 
     @Test
@@ -87,7 +87,8 @@ class LimitsAndStructureTest {
         TiffBytes t = TiffBytes.littleEndian();
         t.page(4, 4, 32, 3, 1).strips(new byte[60]);
         Path f = write("short.tif", t.build());
-        assertThatThrownBy(() -> MapFiles.read(f)).hasMessageContaining("strip 1 holds 60 bytes but needs 64");
+        assertThatThrownBy(() -> MapFiles.read(f))
+                .hasMessageContaining("strip 1 of 1: read error: got 60 bytes, expected 64");
     }
 
     @Test
@@ -164,7 +165,7 @@ class LimitsAndStructureTest {
         t.page(16, 16, 32, 3, 8).strips(new byte[] {1, 2, 3, 4, 5, 6, 7, 8, 9, 10});
         Path f = write("corrupt.tif", t.build());
         assertThatThrownBy(() -> MapFiles.read(f)).isInstanceOf(MapFormatException.class)
-                .hasMessageContaining(f + ": page 1: the image data (32-bit float, Deflate compression) cannot be"
-                        + " decoded");
+                .hasMessage(f + ": page 1 (directory at byte 8), strip 1 of 1: read error: the Deflate data are"
+                        + " corrupt (incorrect header check) after 0 decoded bytes, expected 1024");
     }
 }

@@ -23,7 +23,7 @@ class MapFilesTest {
         assertThatThrownBy(() -> MapFiles.read(none)).isInstanceOf(MapFormatException.class)
                 .hasMessage(none + ": no such file");
         Path sub = Files.createDirectory(dir.resolve("sub.tif"));
-        assertThatThrownBy(() -> MapFiles.read(sub)).hasMessage(sub + ": is a directory, not a map file");
+        assertThatThrownBy(() -> MapFiles.read(sub)).hasMessage(sub + ": is a directory, not a regular file");
         Path empty = Files.createFile(dir.resolve("empty.csv"));
         assertThatThrownBy(() -> MapFiles.read(empty)).hasMessage(empty + ": is empty");
     }
