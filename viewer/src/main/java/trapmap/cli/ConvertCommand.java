@@ -81,21 +81,29 @@ final class ConvertCommand implements Callable<Integer> {
             throw new InputException("--quantity lifetime-at-reference needs --reference-injection (Δn in cm^-3)");
         }
         Defect d = DefectCatalog.load(defectFile).find(defect);
-        WaferMap map = MapInput.page(input, page);
-        WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
-        MapConversion.Result result = MapConversion.convert(withConditions, d, conditions.settings());
+        String[] floor = new String[1];
+        MapConversion.Result result = convertInput(d, wanted, floor);
         WaferMap out = result.get(wanted);
         MapInput.write(out, output);
-        report(result, out, MapConversion.lifetimeFloorNote(withConditions));
+        report(result, out, floor[0]);
         return Exit.OK;
     }
 
+    /**
+     * Reads the input and converts it to {@code wanted} only (and the status codes); the input map is referenced
+     * from this frame alone, so that its samples can be collected once the conversion is done. The lifetime-floor
+     * note goes to {@code floor[0]}.
+     */
+    private MapConversion.Result convertInput(Defect d, trapmap.maps.model.Quantity wanted, String[] floor)
+            throws MapFormatException {
+        WaferMap map = MapInput.page(input, page);
+        WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
+        floor[0] = MapConversion.lifetimeFloorNote(withConditions);
+        return MapConversion.convert(withConditions, d, conditions.settings(), java.util.EnumSet.of(wanted));
+    }
+
     private void report(MapConversion.Result result, WaferMap out, String floor) {
-        int[] counts = new int[PixelStatus.values().length];
-        float[] status = result.get(trapmap.maps.model.Quantity.STATUS).raster().samples();
-        for (float s : status) {
-            counts[(int) s]++;
-        }
+        int[] counts = result.statusCounts();
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("input", input.toString());
         m.put("output", output.toString());
