@@ -46,7 +46,7 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
             while (last.hasSubcommand()) {
                 last = last.subcommand();
             }
-            return outOfMemory(last.commandSpec().commandLine(), last);
+            return outOfMemory(last.commandSpec().commandLine(), last, e);
         }
     }
 
@@ -61,7 +61,7 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
     public int handleExecutionException(Exception ex, CommandLine cmd, ParseResult parseResult) {
         for (Throwable t = ex; t != null; t = t.getCause()) {
             if (t instanceof OutOfMemoryError) {
-                return outOfMemory(cmd, parseResult);
+                return outOfMemory(cmd, parseResult, ex);
             }
         }
         if (ex instanceof InputException) {
@@ -87,7 +87,7 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
         return Exit.INTERNAL_ERROR;
     }
 
-    private static int outOfMemory(CommandLine cmd, ParseResult parseResult) {
+    private static int outOfMemory(CommandLine cmd, ParseResult parseResult, Throwable error) {
         Path file = MapInput.processing();
         if (file == null) {
             file = firstPathArgument(parseResult);
@@ -96,6 +96,9 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
         long perPixel = cmd.getCommandName().equals("inspect") ? MapMemory.INSPECTION_BYTES_PER_PIXEL
                 : MapMemory.MAP_BYTES_PER_PIXEL;
         print(cmd, MapMemory.outOfMemory(name, file == null ? null : MapMemory.estimate(file), perPixel));
+        if (System.getenv("TRAPMAP_DEBUG") != null) {
+            error.printStackTrace(cmd.getErr());
+        }
         return Exit.INTERNAL_ERROR;
     }
 
