@@ -81,25 +81,27 @@ final class ConvertCommand implements Callable<Integer> {
             throw new InputException("--quantity lifetime-at-reference needs --reference-injection (Δn in cm^-3)");
         }
         Defect d = DefectCatalog.load(defectFile).find(defect);
-        String[] floor = new String[1];
-        MapConversion.Result result = convertInput(d, wanted, floor);
-        WaferMap out = result.get(wanted);
+        Converted converted = convertInput(d, wanted);
+        WaferMap out = converted.result().get(wanted);
         MapInput.write(out, output);
-        report(result, out, floor[0]);
+        report(converted.result(), out, converted.floorNote());
         return Exit.OK;
+    }
+
+    /** A conversion and the input's lifetime-floor note ({@link MapConversion#lifetimeFloorNote}). */
+    private record Converted(MapConversion.Result result, String floorNote) {
     }
 
     /**
      * Reads the input and converts it to {@code wanted} only (and the status codes); the input map is referenced
-     * from this frame alone, so that its samples can be collected once the conversion is done. The lifetime-floor
-     * note goes to {@code floor[0]}.
+     * from this frame alone, so that its samples can be collected once the conversion is done.
      */
-    private MapConversion.Result convertInput(Defect d, trapmap.maps.model.Quantity wanted, String[] floor)
-            throws MapFormatException {
+    private Converted convertInput(Defect d, trapmap.maps.model.Quantity wanted) throws MapFormatException {
         WaferMap map = MapInput.page(input, page);
         WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
-        floor[0] = MapConversion.lifetimeFloorNote(withConditions);
-        return MapConversion.convert(withConditions, d, conditions.settings(), java.util.EnumSet.of(wanted));
+        String floor = MapConversion.lifetimeFloorNote(withConditions);
+        return new Converted(MapConversion.convert(withConditions, d, conditions.settings(),
+                java.util.EnumSet.of(wanted)), floor);
     }
 
     private void report(MapConversion.Result result, WaferMap out, String floor) {

@@ -2,8 +2,8 @@ package trapmap.cli;
 
 import java.io.PrintWriter;
 import java.nio.file.Path;
-import java.util.Collection;
 import java.util.ArrayList;
+import java.util.Collection;
 import java.util.List;
 import java.util.Objects;
 import picocli.CommandLine;

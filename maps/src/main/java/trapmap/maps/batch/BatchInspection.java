@@ -49,7 +49,8 @@ import trapmap.shared.progress.ProgressListener;
  * <p>Memory is bounded: a fixed pool of {@code threads} workers each holds one map at a time, at most
  * {@code 2·threads} finished results wait to be written, and the workers share a {@link MemoryBudget} of the heap,
  * so that big maps are inspected fewer at a time. A file that cannot be read or evaluated, a map too big for the
- * heap and a map whose inspection runs out of memory give an {@code error} row and the batch goes on. Interrupting the calling thread cancels the batch.
+ * heap and a map whose inspection runs out of memory give an {@code error} row and the batch goes on. Interrupting
+ * the calling thread cancels the batch.
  */
 public final class BatchInspection {
     public static final String CSV_NAME = "results.csv";
