@@ -66,7 +66,9 @@ final class CasesFile {
         List<String> header;
         List<List<String>> outRows = new ArrayList<>();
         int errors = 0;
-        try (Reader reader = Files.newBufferedReader(in, StandardCharsets.UTF_8);
+        try (Reader reader = new java.io.BufferedReader(new java.io.InputStreamReader(
+                trapmap.maps.io.InputFiles.open(in, trapmap.maps.io.InputFiles.TABLE_MAX_BYTES),
+                StandardCharsets.UTF_8.newDecoder()));
              CSVParser parser = CSVParser.parse(reader, inFormat)) {
             header = List.copyOf(parser.getHeaderNames());
             if (header.isEmpty()) {
@@ -112,7 +114,15 @@ final class CasesFile {
             }
         } catch (NoSuchFileException e) {
             throw new InputException("--cases " + in + ": no such file", e);
-        } catch (IOException | UncheckedIOException | IllegalArgumentException | IllegalStateException e) {
+        } catch (trapmap.maps.io.InputFiles.Refused e) {
+            throw new InputException("--cases " + in + ": " + e.reason(), e);
+        } catch (UncheckedIOException e) {
+            if (e.getCause() instanceof trapmap.maps.io.InputFiles.Refused r) {
+                throw new InputException("--cases " + in + ": " + r.reason(), e);
+            }
+            throw new InputException("--cases " + in + ": cannot read it as CSV with a header row ("
+                    + Flags.oneLine(e.getMessage()) + ")", e);
+        } catch (IOException | IllegalArgumentException | IllegalStateException e) {
             throw new InputException("--cases " + in + ": cannot read it as CSV with a header row ("
                     + Flags.oneLine(e.getMessage()) + ")", e);
         }

@@ -81,21 +81,31 @@ final class ConvertCommand implements Callable<Integer> {
             throw new InputException("--quantity lifetime-at-reference needs --reference-injection (Δn in cm^-3)");
         }
         Defect d = DefectCatalog.load(defectFile).find(defect);
-        WaferMap map = MapInput.page(input, page);
-        WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
-        MapConversion.Result result = MapConversion.convert(withConditions, d, conditions.settings());
-        WaferMap out = result.get(wanted);
+        Converted converted = convertInput(d, wanted);
+        WaferMap out = converted.result().get(wanted);
         MapInput.write(out, output);
-        report(result, out, MapConversion.lifetimeFloorNote(withConditions));
+        report(converted.result(), out, converted.floorNote());
         return Exit.OK;
     }
 
+    /** A conversion and the input's lifetime-floor note ({@link MapConversion#lifetimeFloorNote}). */
+    private record Converted(MapConversion.Result result, String floorNote) {
+    }
+
+    /**
+     * Reads the input and converts it to {@code wanted} only (and the status codes); the input map is referenced
+     * from this frame alone, so that its samples can be collected once the conversion is done.
+     */
+    private Converted convertInput(Defect d, trapmap.maps.model.Quantity wanted) throws MapFormatException {
+        WaferMap map = MapInput.page(input, page);
+        WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
+        String floor = MapConversion.lifetimeFloorNote(withConditions);
+        return new Converted(MapConversion.convert(withConditions, d, conditions.settings(),
+                java.util.EnumSet.of(wanted)), floor);
+    }
+
     private void report(MapConversion.Result result, WaferMap out, String floor) {
-        int[] counts = new int[PixelStatus.values().length];
-        float[] status = result.get(trapmap.maps.model.Quantity.STATUS).raster().samples();
-        for (float s : status) {
-            counts[(int) s]++;
-        }
+        int[] counts = result.statusCounts();
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("input", input.toString());
         m.put("output", output.toString());

@@ -44,13 +44,14 @@ final class DensityOption {
     }
 
     /**
-     * The conversion of {@code map} to the trap density of {@code d} (not null), with its status map; wafer-level
+     * The conversion of {@code map} to the trap density of {@code d} (not null) only, with its status codes; wafer-level
      * warnings go to {@code err} as for {@link #apply(WaferMap, Defect, MapConditionOptions, java.io.PrintWriter)}.
      */
     static MapConversion.Result convert(WaferMap map, Defect d, MapConditionOptions conditions,
                                         java.io.PrintWriter err) {
         WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
-        MapConversion.Result r = MapConversion.convert(withConditions, d, conditions.settings());
+        MapConversion.Result r = MapConversion.convert(withConditions, d, conditions.settings(),
+                java.util.EnumSet.of(Quantity.TRAP_DENSITY));
         if (err != null) {
             r.warnings().stream().filter(ConversionWarning::isWaferLevel).sorted()
                     .forEach(w -> err.println("warning: " + map.waferId() + ": " + w.name() + ": " + w.message()));

@@ -1,28 +1,54 @@
 package trapmap.cli;
 
 import java.io.PrintWriter;
+import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Collection;
 import java.util.List;
 import java.util.Objects;
 import picocli.CommandLine;
 import picocli.CommandLine.IExecutionExceptionHandler;
+import picocli.CommandLine.IExecutionStrategy;
 import picocli.CommandLine.IParameterExceptionHandler;
 import picocli.CommandLine.Model.ArgSpec;
 import picocli.CommandLine.Model.OptionSpec;
+import picocli.CommandLine.Model.PositionalParamSpec;
 import picocli.CommandLine.MissingParameterException;
 import picocli.CommandLine.ParameterException;
 import picocli.CommandLine.ParseResult;
+import picocli.CommandLine.RunLast;
 import picocli.CommandLine.UnmatchedArgumentException;
 import trapmap.maps.io.MapFormatException;
+import trapmap.maps.io.MapMemory;
 import trapmap.shared.error.InvalidValueException;
 
 /**
  * Turns every failure into exactly one line on stderr, {@code <command>: <message>}, that names the flag and what
  * it expects; never a stack trace, never the usage text. Invalid input exits with {@link Exit#INVALID_INPUT}. An
  * unexpected exception exits with {@link Exit#INTERNAL_ERROR}; its stack trace is printed only when the environment
- * variable {@code TRAPMAP_DEBUG} is set.
+ * variable {@code TRAPMAP_DEBUG} is set. Running out of memory exits with {@link Exit#INTERNAL_ERROR} and one line
+ * naming the file, the memory it needs and the {@code -Xmx} to try.
  */
-final class ErrorHandler implements IParameterExceptionHandler, IExecutionExceptionHandler {
+final class ErrorHandler implements IParameterExceptionHandler, IExecutionExceptionHandler, IExecutionStrategy {
+
+    /**
+     * Runs the command as picocli's {@link RunLast} does. An {@link OutOfMemoryError} (an Error, which picocli passes
+     * through its exception handler) becomes one line naming the file being processed, its size, the memory it needs
+     * and the heap option to try, with {@link Exit#INTERNAL_ERROR}.
+     */
+    @Override
+    public int execute(ParseResult parseResult) {
+        MapInput.processingDone(); // a file read by an earlier command line of this thread
+        try {
+            return new RunLast().execute(parseResult);
+        } catch (OutOfMemoryError e) {
+            ParseResult last = parseResult;
+            while (last.hasSubcommand()) {
+                last = last.subcommand();
+            }
+            return outOfMemory(last.commandSpec().commandLine(), last, e);
+        }
+    }
 
     @Override
     public int handleParseException(ParameterException ex, String[] args) {
@@ -33,6 +59,11 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
 
     @Override
     public int handleExecutionException(Exception ex, CommandLine cmd, ParseResult parseResult) {
+        for (Throwable t = ex; t != null; t = t.getCause()) {
+            if (t instanceof OutOfMemoryError) {
+                return outOfMemory(cmd, parseResult, ex);
+            }
+        }
         if (ex instanceof InputException) {
             print(cmd, ex.getMessage());
             return Exit.INVALID_INPUT;
@@ -54,6 +85,45 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
             ex.printStackTrace(cmd.getErr());
         }
         return Exit.INTERNAL_ERROR;
+    }
+
+    private static int outOfMemory(CommandLine cmd, ParseResult parseResult, Throwable error) {
+        Path file = MapInput.processing();
+        if (file == null) {
+            file = firstPathArgument(parseResult);
+        }
+        String name = file == null ? "the input" : file.toString();
+        long perPixel = cmd.getCommandName().equals("inspect") ? MapMemory.INSPECTION_BYTES_PER_PIXEL
+                : MapMemory.MAP_BYTES_PER_PIXEL;
+        print(cmd, MapMemory.outOfMemory(name, file == null ? null : MapMemory.estimate(file), perPixel));
+        if (System.getenv("TRAPMAP_DEBUG") != null) {
+            error.printStackTrace(cmd.getErr());
+        }
+        return Exit.INTERNAL_ERROR;
+    }
+
+    /** The first file among the positional arguments of the command that ran, or null. */
+    private static Path firstPathArgument(ParseResult parseResult) {
+        if (parseResult == null) {
+            return null;
+        }
+        ParseResult last = parseResult;
+        while (last.hasSubcommand()) {
+            last = last.subcommand();
+        }
+        for (PositionalParamSpec p : last.matchedPositionals()) {
+            Object v = p.getValue();
+            if (v instanceof Path path) {
+                return path;
+            }
+            if (v instanceof Collection<?> c && !c.isEmpty() && c.iterator().next() instanceof Path path) {
+                return path;
+            }
+            if (v instanceof Path[] a && a.length > 0) {
+                return a[0];
+            }
+        }
+        return null;
     }
 
     private static void print(CommandLine cmd, String message) {

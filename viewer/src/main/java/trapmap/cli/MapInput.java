@@ -12,18 +12,32 @@ final class MapInput {
     private MapInput() {
     }
 
+    /** The map file read last by the command running in this thread. */
+    private static final ThreadLocal<Path> PROCESSING = new ThreadLocal<>();
+
     /**
      * Page {@code page} (1-based) of {@code file}.
      *
      * @throws MapFormatException when the file is missing, not a regular file, unreadable or has no such page
      */
     static WaferMap page(Path file, int page) throws MapFormatException {
+        PROCESSING.set(file);
         List<WaferMap> pages = MapFiles.read(file);
         if (page < 1 || page > pages.size()) {
             throw new MapFormatException(file.toString(), "", "has " + pages.size() + " page"
                     + (pages.size() == 1 ? "" : "s") + ", so --page " + page + " does not exist");
         }
         return pages.get(page - 1);
+    }
+
+    /** The map file read last by the command running in this thread (the one being processed), or null. */
+    static Path processing() {
+        return PROCESSING.get();
+    }
+
+    /** Forgets the file read last in this thread (a command has ended). */
+    static void processingDone() {
+        PROCESSING.remove();
     }
 
     /** Writes {@code map} to {@code file} (format from the extension); wraps failures in one-line messages. */

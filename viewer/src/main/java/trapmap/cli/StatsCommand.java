@@ -100,11 +100,12 @@ final class StatsCommand implements Callable<Integer> {
         if (threshold != null && !Double.isFinite(threshold)) {
             throw new InputException("--threshold must be a finite number in the map's unit");
         }
-        WaferMap read = MapInput.page(input, page);
-        WaferMap map = read;
+        WaferMap map = MapInput.page(input, page);
         Defect defect = density.defectOrNull();
         MapConversion.Result converted = null;
+        String floor = "";
         if (defect != null) {
+            floor = MapConversion.lifetimeFloorNote(map);
             converted = DensityOption.convert(map, defect, conditions, spec.commandLine().getErr());
             map = converted.get(Quantity.TRAP_DENSITY);
         }
@@ -127,7 +128,6 @@ final class StatsCommand implements Callable<Integer> {
             belowLimit.put("note", "below detection limit: the SRH share of 1/τ_eff is under the detection"
                     + " resolution; these pixels are left out of the statistics, the threshold and the regions");
             mask = mask.and(converted.statusMask(PixelStatus.OK));
-            String floor = MapConversion.lifetimeFloorNote(read);
             if (!floor.isEmpty()) {
                 warnings.add(floor);
             }

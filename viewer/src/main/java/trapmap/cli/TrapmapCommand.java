@@ -50,6 +50,7 @@ public final class TrapmapCommand implements Callable<Integer> {
         cl.setErr(err);
         cl.setParameterExceptionHandler(errors);
         cl.setExecutionExceptionHandler(errors);
+        cl.setExecutionStrategy(errors);
         return cl;
     }
 

@@ -47,9 +47,11 @@ import trapmap.shared.progress.ProgressListener;
  *   <li>{@code thumbnails/FILE.png} (unless switched off): each map with its flagged regions outlined.</li>
  * </ul>
  *
- * <p>Memory is bounded: a fixed pool of {@code threads} workers each holds one map at a time, and at most
- * {@code 2·threads} finished results wait to be written. A file that cannot be read or evaluated gives an
- * {@code error} row and the batch goes on. Interrupting the calling thread cancels the batch.
+ * <p>Memory is bounded: a fixed pool of {@code threads} workers each holds one map at a time, at most
+ * {@code 2·threads} finished results wait to be written, and the workers share a {@link MemoryBudget} of the heap,
+ * so that big maps are inspected fewer at a time. A file that cannot be read or evaluated, a map too big for the
+ * heap and a map whose inspection runs out of memory give an {@code error} row and the batch goes on. Interrupting
+ * the calling thread cancels the batch.
  */
 public final class BatchInspection {
     public static final String CSV_NAME = "results.csv";
@@ -116,6 +118,8 @@ public final class BatchInspection {
     private final WaferInspection.MapReader reader;
     /** The rules' iron section, null when there is none. */
     private IronPairRules iron;
+    /** Heap the workers may hold at once, bytes; negative: {@link MemoryBudget#ofThisHeap()}. */
+    private long memoryBudgetBytes = -1;
 
     public BatchInspection(Rules rules) {
         this(rules, MapFiles::readSingle);
@@ -134,6 +138,15 @@ public final class BatchInspection {
      */
     public BatchInspection withIron(IronPairRules ironRules) {
         this.iron = ironRules;
+        return this;
+    }
+
+    /**
+     * Budgets the workers' memory at {@code bytes} in all instead of {@value MemoryBudget#HEAP_SHARE} of the maximum
+     * heap (a test of the budget). Returns this batch.
+     */
+    BatchInspection withMemoryBudget(long bytes) {
+        this.memoryBudgetBytes = bytes;
         return this;
     }
 
@@ -225,18 +238,20 @@ public final class BatchInspection {
                     StandardCopyOption.ATOMIC_MOVE);
             Deque<Future<WaferResult>> pending = new ArrayDeque<>();
             Iterator<Path> next = todo.iterator();
+            MemoryBudget memory = memoryBudgetBytes < 0 ? MemoryBudget.ofThisHeap()
+                    : new MemoryBudget(memoryBudgetBytes);
             int done = 0;
             while (next.hasNext() || !pending.isEmpty()) {
                 while (next.hasNext() && pending.size() < 2 * threads) {
                     Path f = next.next();
                     Path thumb = thumbs == null ? null : thumbs.resolve(f.getFileName() + ".png");
-                    pending.add(pool.submit(() -> {
+                    pending.add(pool.submit(() -> memory.run(f, () -> {
                         WaferResult inspected = inspection.inspect(f, thumb);
                         if (pairs != null) {
                             ironColumns.put(inspected.file(), pairs.evaluate(f));
                         }
                         return inspected;
-                    }));
+                    })));
                 }
                 WaferResult r;
                 try {

@@ -4,7 +4,6 @@ import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Iterator;
@@ -61,7 +60,9 @@ public record IronPairRules(String febState, String feiState, List<IronLimit> li
     public static Optional<IronPairRules> read(Path rulesFile) throws RulesException {
         String text;
         try {
-            text = Files.readString(rulesFile);
+            text = trapmap.maps.io.InputFiles.readUtf8(rulesFile, trapmap.maps.io.InputFiles.JSON_MAX_BYTES);
+        } catch (trapmap.maps.io.InputFiles.Refused e) {
+            throw new RulesException(rulesFile + ": rules file " + e.reason());
         } catch (IOException e) {
             throw new RulesException(rulesFile + ": cannot be read: " + e.getMessage());
         }

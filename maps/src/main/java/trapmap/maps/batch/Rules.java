@@ -6,7 +6,6 @@ import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Iterator;
@@ -320,9 +319,11 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         String name = file.toString();
         String text;
         try {
-            text = Files.readString(file);
+            text = trapmap.maps.io.InputFiles.readUtf8(file, trapmap.maps.io.InputFiles.JSON_MAX_BYTES);
         } catch (java.nio.file.NoSuchFileException e) {
             throw new RulesException(name + ": no such rules file");
+        } catch (trapmap.maps.io.InputFiles.Refused e) {
+            throw new RulesException(name + ": rules file " + e.reason());
         } catch (IOException e) {
             throw new RulesException(name + ": cannot read the rules file (" + e + ")");
         }

@@ -105,7 +105,8 @@ final class DemoSetFiles {
 
     /** Reads the planted defects of every file back from a {@code truth.json}. */
     static Map<String, List<PlantedDefect>> readTruth(Path file) throws IOException {
-        JsonNode root = JSON.readTree(Files.readString(file, StandardCharsets.UTF_8));
+        JsonNode root = JSON.readTree(trapmap.maps.io.InputFiles.readUtf8(file,
+                trapmap.maps.io.InputFiles.JSON_MAX_BYTES));
         Map<String, List<PlantedDefect>> out = new TreeMap<>();
         for (JsonNode f : root.get("files")) {
             List<PlantedDefect> ds = new ArrayList<>();

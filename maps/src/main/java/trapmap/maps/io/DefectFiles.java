@@ -67,9 +67,11 @@ public final class DefectFiles {
         }
         byte[] bytes;
         try {
-            bytes = Files.readAllBytes(file);
+            bytes = InputFiles.readBytes(file, InputFiles.JSON_MAX_BYTES);
         } catch (NoSuchFileException e) {
             throw new DefectFileException(name, null, "", name + ": no such defect file", e);
+        } catch (InputFiles.Refused e) {
+            throw new DefectFileException(name, null, "", name + ": defect file " + e.reason(), e);
         } catch (IOException e) {
             throw new DefectFileException(name, null, "", name + ": cannot read the defect file ("
                     + oneLine(String.valueOf(e.getMessage())) + ")", e);

@@ -6,7 +6,6 @@ import com.fasterxml.jackson.databind.DeserializationFeature;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
-import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.Iterator;
@@ -55,9 +54,11 @@ public final class PhysicsSettingsFile {
         String name = file.toString();
         String text;
         try {
-            text = Files.readString(file);
+            text = InputFiles.readUtf8(file, InputFiles.JSON_MAX_BYTES);
         } catch (NoSuchFileException e) {
             throw new InvalidValueException("physics", "", name + ": no such physics settings file");
+        } catch (InputFiles.Refused e) {
+            throw new InvalidValueException("physics", "", name + ": physics settings file " + e.reason());
         } catch (IOException e) {
             throw new InvalidValueException("physics", "", name + ": cannot read the physics settings file (" + e
                     + ")");

@@ -14,7 +14,6 @@ import java.io.IOException;
 import java.nio.ByteBuffer;
 import java.nio.charset.CharacterCodingException;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -101,7 +100,7 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
     /** The value of {@code format} in files trapmap writes. */
     public static final String FORMAT = "trapmap-map/1";
     /** Largest sidecar accepted, bytes. */
-    public static final long MAX_BYTES = 16L << 20;
+    public static final long MAX_BYTES = InputFiles.JSON_MAX_BYTES;
 
     /** Nothing known. */
     public static final Sidecar EMPTY = new Sidecar(null, null, null, null, null, null, null, null, null,
@@ -161,14 +160,11 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
         String name = file.toString();
         byte[] bytes;
         try {
-            long size = Files.size(file);
-            if (size > MAX_BYTES) {
-                throw new MapFormatException(name, null, "is " + size + " bytes; a sidecar may have at most "
-                        + MAX_BYTES + " bytes");
-            }
-            bytes = Files.readAllBytes(file);
+            bytes = InputFiles.readBytes(file, MAX_BYTES);
         } catch (NoSuchFileException e) {
             throw new MapFormatException(name, null, "no such sidecar file", "", e);
+        } catch (InputFiles.Refused e) {
+            throw new MapFormatException(name, null, "sidecar " + e.reason(), "", e);
         } catch (IOException e) {
             if (e instanceof MapFormatException m) {
                 throw m;

@@ -31,11 +31,12 @@ public final class MapConversion {
     }
 
     /**
-     * The converted maps, one per {@link Quantity}, the union of the warnings of all pixels and the wafer-level ones,
-     * the defect and the physics settings converted with.
+     * The converted maps, one per requested {@link Quantity}, the union of the warnings of all pixels and the
+     * wafer-level ones, the defect and the physics settings converted with, and the {@link PixelStatus#code()} of
+     * every pixel (kept as bytes whether or not a {@link Quantity#STATUS} map was requested).
      */
     public record Result(Map<Quantity, WaferMap> maps, Set<ConversionWarning> warnings, String defectId,
-                         trapmap.physics.conversion.PhysicsSettings physics) {
+                         trapmap.physics.conversion.PhysicsSettings physics, byte[] statusCodes) {
         public Result {
             maps = Map.copyOf(maps);
             warnings = Set.copyOf(warnings);
@@ -44,7 +45,7 @@ public final class MapConversion {
         /**
          * The map of {@code q}.
          *
-         * @throws IllegalArgumentException when the conversion made none (e.g. no reference injection)
+         * @throws IllegalArgumentException when the conversion made none (not requested, or no reference injection)
          */
         public WaferMap get(Quantity q) {
             WaferMap m = maps.get(q);
@@ -55,12 +56,20 @@ public final class MapConversion {
             return m;
         }
 
+        /** The number of pixels of each status, indexed by {@link PixelStatus#code()}. */
+        public int[] statusCounts() {
+            int[] counts = new int[PixelStatus.values().length];
+            for (byte c : statusCodes) {
+                counts[c]++;
+            }
+            return counts;
+        }
+
         /** The pixels whose conversion status is {@code status}. */
         public Mask statusMask(PixelStatus status) {
-            WaferMap st = get(Quantity.STATUS);
-            float[] codes = st.raster().samples();
-            float code = status.code();
-            return Mask.of(st.width(), st.height(), i -> codes[i] == code);
+            WaferMap any = maps.values().iterator().next();
+            byte code = status.code();
+            return Mask.of(any.width(), any.height(), i -> statusCodes[i] == code);
         }
 
         /**
@@ -70,12 +79,11 @@ public final class MapConversion {
          */
         public WaferMap okTrapDensity() {
             WaferMap nt = get(Quantity.TRAP_DENSITY);
-            float[] codes = get(Quantity.STATUS).raster().samples();
             float[] v = nt.raster().samples();
             float[] kept = new float[v.length];
-            float ok = PixelStatus.OK.code();
+            byte ok = PixelStatus.OK.code();
             for (int i = 0; i < v.length; i++) {
-                kept[i] = codes[i] == ok ? v[i] : Float.NaN;
+                kept[i] = statusCodes[i] == ok ? v[i] : Float.NaN;
             }
             return nt.derive(FloatRaster.wrap(nt.width(), nt.height(), kept), Quantity.TRAP_DENSITY,
                     ProcessingStep.of("status-filter", "kept", "OK pixels (below-limit, invalid and no-data pixels are"
@@ -184,17 +192,37 @@ public final class MapConversion {
         return note;
     }
 
-    /** Converts with all available processors. */
+    /** Every quantity a conversion can produce (lifetime at reference only with a reference injection). */
+    public static final Set<Quantity> ALL = Set.copyOf(EnumSet.of(Quantity.TRAP_DENSITY, Quantity.TRAP_DENSITY_MIN,
+            Quantity.TRAP_DENSITY_MAX, Quantity.OCCUPANCY, Quantity.SRH_LIFETIME, Quantity.INJECTION,
+            Quantity.LIFETIME_AT_REFERENCE, Quantity.STATUS));
+
+    /** Converts to every quantity with all available processors. */
     public static Result convert(WaferMap map, Defect defect, ConversionSettings settings) {
-        return convert(map, defect, settings, Runtime.getRuntime().availableProcessors());
+        return convert(map, defect, settings, ALL, Runtime.getRuntime().availableProcessors());
+    }
+
+    /** Converts to every quantity. */
+    public static Result convert(WaferMap map, Defect defect, ConversionSettings settings, int threads) {
+        return convert(map, defect, settings, ALL, threads);
+    }
+
+    /** Converts to the {@code wanted} quantities only, with all available processors. */
+    public static Result convert(WaferMap map, Defect defect, ConversionSettings settings, Set<Quantity> wanted) {
+        return convert(map, defect, settings, wanted, Runtime.getRuntime().availableProcessors());
     }
 
     /**
-     * Converts an effective-lifetime (µs) or PL-counts map.
+     * Converts an effective-lifetime (µs) or PL-counts map to the {@code wanted} quantities: only their rasters are
+     * allocated (4 bytes per pixel each), besides one byte per pixel for the status codes and one for the warning
+     * bits, so that an 8192² map converted to one quantity needs about 1.5 times its own size on top of itself.
+     * {@link Quantity#LIFETIME_AT_REFERENCE} is made only when the settings give a reference injection; quantities
+     * a conversion cannot produce are ignored.
      *
      * @throws InvalidValueException for missing conditions, an unsuitable defect or a map of another quantity
      */
-    public static Result convert(WaferMap map, Defect defect, ConversionSettings settings, int threads) {
+    public static Result convert(WaferMap map, Defect defect, ConversionSettings settings, Set<Quantity> wanted,
+                                 int threads) {
         WaferMap lifetime = switch (map.quantity()) {
             case EFFECTIVE_LIFETIME -> map;
             case PL_COUNTS -> lifetimeFromPl(map);
@@ -205,38 +233,52 @@ public final class MapConversion {
         TrapDensityConverter converter = new TrapDensityConverter(conditions, defect);
         int n = lifetime.raster().size();
         boolean reference = !Double.isNaN(settings.referenceInjectionPerCm3());
-        ConversionOutput out = new ConversionOutput(new float[n], new float[n], new float[n], new float[n],
-                new float[n], new float[n], reference ? new float[n] : null, new byte[n], new byte[n]);
+        if (wanted.stream().noneMatch(q -> ALL.contains(q) && (reference || q != Quantity.LIFETIME_AT_REFERENCE))) {
+            throw new IllegalArgumentException("no quantity a conversion produces among " + wanted);
+        }
+        ConversionOutput out = new ConversionOutput(plane(wanted, Quantity.TRAP_DENSITY, n),
+                plane(wanted, Quantity.TRAP_DENSITY_MIN, n), plane(wanted, Quantity.TRAP_DENSITY_MAX, n),
+                plane(wanted, Quantity.OCCUPANCY, n), plane(wanted, Quantity.SRH_LIFETIME, n),
+                plane(wanted, Quantity.INJECTION, n), reference ? plane(wanted, Quantity.LIFETIME_AT_REFERENCE, n) : null,
+                new byte[n], new byte[n]);
         converter.convert(lifetime.raster().samples(), lifetime.width(), out, threads);
 
         ProcessingStep step = convertStep(conditions, defect, settings);
         Map<Quantity, WaferMap> maps = new EnumMap<>(Quantity.class);
         int w = lifetime.width();
         int h = lifetime.height();
-        maps.put(Quantity.TRAP_DENSITY, lifetime.derive(FloatRaster.wrap(w, h, out.trapDensity), Quantity.TRAP_DENSITY,
-                step));
-        maps.put(Quantity.TRAP_DENSITY_MIN, lifetime.derive(FloatRaster.wrap(w, h, out.trapDensityMin),
-                Quantity.TRAP_DENSITY_MIN, step));
-        maps.put(Quantity.TRAP_DENSITY_MAX, lifetime.derive(FloatRaster.wrap(w, h, out.trapDensityMax),
-                Quantity.TRAP_DENSITY_MAX, step));
-        maps.put(Quantity.OCCUPANCY, lifetime.derive(FloatRaster.wrap(w, h, out.occupancy), Quantity.OCCUPANCY, step));
-        maps.put(Quantity.SRH_LIFETIME, lifetime.derive(FloatRaster.wrap(w, h, out.srhLifetimeUs),
-                Quantity.SRH_LIFETIME, step));
-        maps.put(Quantity.INJECTION, lifetime.derive(FloatRaster.wrap(w, h, out.injection), Quantity.INJECTION, step));
-        if (reference) {
-            maps.put(Quantity.LIFETIME_AT_REFERENCE, lifetime.derive(FloatRaster.wrap(w, h, out.lifetimeAtReferenceUs),
-                    Quantity.LIFETIME_AT_REFERENCE, step));
-        }
-        float[] status = new float[n];
+        put(maps, lifetime, Quantity.TRAP_DENSITY, out.trapDensity, step);
+        put(maps, lifetime, Quantity.TRAP_DENSITY_MIN, out.trapDensityMin, step);
+        put(maps, lifetime, Quantity.TRAP_DENSITY_MAX, out.trapDensityMax, step);
+        put(maps, lifetime, Quantity.OCCUPANCY, out.occupancy, step);
+        put(maps, lifetime, Quantity.SRH_LIFETIME, out.srhLifetimeUs, step);
+        put(maps, lifetime, Quantity.INJECTION, out.injection, step);
+        put(maps, lifetime, Quantity.LIFETIME_AT_REFERENCE, out.lifetimeAtReferenceUs, step);
         int warningBits = 0;
         for (int i = 0; i < n; i++) {
-            status[i] = out.status[i];
             warningBits |= out.warnings[i] & 0xFF;
         }
-        maps.put(Quantity.STATUS, lifetime.derive(FloatRaster.wrap(w, h, status), Quantity.STATUS, step));
+        if (wanted.contains(Quantity.STATUS)) {
+            float[] status = new float[n];
+            for (int i = 0; i < n; i++) {
+                status[i] = out.status[i];
+            }
+            maps.put(Quantity.STATUS, lifetime.derive(FloatRaster.wrap(w, h, status), Quantity.STATUS, step));
+        }
         Set<ConversionWarning> warnings = EnumSet.noneOf(ConversionWarning.class);
         warnings.addAll(ConversionWarning.fromMask(warningBits));
         warnings.addAll(converter.conditionWarnings());
-        return new Result(maps, warnings, defect.id(), settings.physics());
+        return new Result(maps, warnings, defect.id(), settings.physics(), out.status);
+    }
+
+    private static float[] plane(Set<Quantity> wanted, Quantity q, int n) {
+        return wanted.contains(q) ? new float[n] : null;
+    }
+
+    private static void put(Map<Quantity, WaferMap> maps, WaferMap lifetime, Quantity q, float[] samples,
+                            ProcessingStep step) {
+        if (samples != null) {
+            maps.put(q, lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), samples), q, step));
+        }
     }
 }

@@ -50,15 +50,15 @@ public final class InspectBenchMaps {
         WaferFormat format = WaferFormat.M2;
         PixelGrid grid = PixelGrid.centred(size, size, (format.sizeMm() + 6) / size);
         WaferShape shape = format.shape();
-        float[][] backgrounds = new float[BACKGROUNDS][];
-        for (int b = 0; b < BACKGROUNDS; b++) {
+        float[][] backgrounds = new float[Math.min(BACKGROUNDS, count)][];
+        for (int b = 0; b < backgrounds.length; b++) {
             backgrounds[b] = background(grid, shape, new Random(1000 + b));
         }
         MeasurementConditions c = new MeasurementConditions(Doping.fromResistivity(ConductivityType.P, 1.5), 180.0,
                 300.0, 1e14, null, 10.0, null, null, Map.of("data", "invented benchmark data"));
         for (int i = 0; i < count; i++) {
             Random rnd = new Random(7_000_003L * i + 11);
-            float[] tau = backgrounds[i % BACKGROUNDS].clone();
+            float[] tau = backgrounds[i % backgrounds.length].clone();
             double sx = (rnd.nextDouble() * 2 - 1) * 60;
             double sy = (rnd.nextDouble() * 2 - 1) * 60;
             double radius = 2 + 3 * rnd.nextDouble();

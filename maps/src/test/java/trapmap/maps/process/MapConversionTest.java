@@ -63,6 +63,34 @@ class MapConversionTest {
     }
 
     @Test
+    void onlyTheRequestedQuantitiesAreMadeAndTheStatusCodesAreKept() {
+        WaferMap map = lifetimeMap(9, 4, 5, CONDITIONS);
+        MapConversion.Result all = MapConversion.convert(map, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS,
+                2);
+        MapConversion.Result one = MapConversion.convert(map, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS,
+                java.util.EnumSet.of(Quantity.TRAP_DENSITY), 2);
+        assertThat(one.maps()).containsOnlyKeys(Quantity.TRAP_DENSITY);
+        assertThat(one.get(Quantity.TRAP_DENSITY).raster().samples())
+                .containsExactly(all.get(Quantity.TRAP_DENSITY).raster().samples());
+        assertThatThrownBy(() -> one.get(Quantity.STATUS)).isInstanceOf(IllegalArgumentException.class)
+                .hasMessageContaining("status");
+        float[] status = all.get(Quantity.STATUS).raster().samples();
+        int[] counts = new int[PixelStatus.values().length];
+        for (int i = 0; i < status.length; i++) {
+            assertThat(one.statusCodes()[i]).isEqualTo((byte) status[i]);
+            counts[(int) status[i]]++;
+        }
+        assertThat(one.statusCounts()).containsExactly(counts);
+        assertThat(one.statusMask(PixelStatus.INVALID).count()).isEqualTo(counts[PixelStatus.INVALID.code()]);
+        assertThat(one.okTrapDensity().raster().samples()).containsExactly(all.okTrapDensity().raster().samples());
+        assertThat(one.warnings()).isEqualTo(all.warnings());
+        // Without a reference injection the lifetime at reference cannot be made: nothing left to convert to.
+        assertThatThrownBy(() -> MapConversion.convert(map, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS,
+                java.util.EnumSet.of(Quantity.LIFETIME_AT_REFERENCE), 1))
+                .isInstanceOf(IllegalArgumentException.class);
+    }
+
+    @Test
     void plCountsAreCalibratedIntoLifetimeFirst() {
         // Steady state: τ_eff = Δn/G with Δn from I = A·Δn·(Δn + N_dop) (Trupke et al., APL 89, 044107 (2006);
         // docs/check-values.md R-PL-4).

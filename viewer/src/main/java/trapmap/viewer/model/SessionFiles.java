@@ -10,7 +10,6 @@ import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import trapmap.maps.io.AtomicFiles;
 import java.util.ArrayList;
@@ -209,7 +208,9 @@ public final class SessionFiles {
     public static Session read(Path file) throws IOException {
         String text;
         try {
-            text = Files.readString(file, StandardCharsets.UTF_8);
+            text = trapmap.maps.io.InputFiles.readUtf8(file, trapmap.maps.io.InputFiles.JSON_MAX_BYTES);
+        } catch (trapmap.maps.io.InputFiles.Refused e) {
+            throw new SessionException(file + ": session file " + e.reason());
         } catch (IOException e) {
             throw new SessionException(file + ": cannot read (" + e.getMessage() + ")");
         }
