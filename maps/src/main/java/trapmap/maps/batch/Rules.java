@@ -144,6 +144,16 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         }
 
         /**
+         * The limit on {@code invalid_area_fraction} the profile is judged by: its own, or the program's default,
+         * at most {@link trapmap.maps.stats.InvalidArea#DEFAULT_LIMIT}.
+         */
+        public Limit invalidAreaLimit() {
+            return limits.stream().filter(l -> l.figure().kind() == Figure.Kind.INVALID_AREA_FRACTION).findFirst()
+                    .orElse(new Limit(Figure.parse(Figure.INVALID_AREA_FRACTION), Double.NaN,
+                            trapmap.maps.stats.InvalidArea.DEFAULT_LIMIT));
+        }
+
+        /**
          * The grade of a wafer with these figures: {@link #failGrade} when it failed a limit, otherwise the first
          * grade whose limits hold ("" when none does). A failed wafer never gets a passing grade.
          */
