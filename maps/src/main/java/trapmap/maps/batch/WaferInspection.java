@@ -240,10 +240,10 @@ public final class WaferInspection {
                 failedFigures.add(l.figure());
             }
         }
-        if (!profile.limitsInvalidArea() && !(invalid.fraction() <= InvalidArea.DEFAULT_LIMIT)) {
-            // the program's default limit, for profiles that set none
-            failed.add(InvalidArea.exceeds(invalid.fraction(), InvalidArea.DEFAULT_LIMIT));
-            failedFigures.add(Figure.parse(Figure.INVALID_AREA_FRACTION));
+        if (!profile.limitsInvalidArea() && !profile.invalidAreaLimit().holds(invalid.fraction())) {
+            // the program's default limit, for profiles that set none; its text says it is the default
+            failed.add(InvalidArea.exceeds(invalid.fraction(), profile.invalidAreaLimit().max()));
+            failedFigures.add(profile.invalidAreaLimit().figure());
         }
         String grade = profile.grade(!failed.isEmpty(), f -> values.get(f.name()));
         List<String> missed = failed.isEmpty() ? profile.missedBy(grade, f -> values.get(f.name())) : List.of();

@@ -215,6 +215,18 @@ class InvalidAreaJudgementTest {
     }
 
     @Test
+    void aProfileStatesTheLimitItIsJudgedBy() throws Exception {
+        Rules.Profile plain = rules(null).defaultProfile();
+        assertThat(plain.limitsInvalidArea()).isFalse();
+        assertThat(plain.invalidAreaLimit().max()).isEqualTo(InvalidArea.DEFAULT_LIMIT).isEqualTo(0.05);
+        assertThat(plain.invalidAreaLimit().min()).isNaN();
+        Rules.Profile own = rules("\"invalid_area_fraction\": {\"min\": 0, \"max\": 0.2}").defaultProfile();
+        assertThat(own.limitsInvalidArea()).isTrue();
+        assertThat(own.invalidAreaLimit().max()).isEqualTo(0.2);
+        assertThat(own.invalidAreaLimit().min()).isZero();
+    }
+
+    @Test
     void theInvalidAreaIsAColumnOfEveryResultsTable() throws Exception {
         assertThat(BatchInspection.columns(rules(null))).contains("invalid_area_fraction");
         assertThat(Figure.parse("invalid_area_fraction").kind()).isEqualTo(Figure.Kind.INVALID_AREA_FRACTION);
