@@ -61,7 +61,7 @@ final class BatchFolder {
         }
         RecurrenceMap recurrence = RecurrenceMap.read(outputDir.resolve(BatchInspection.FOOTPRINTS_NAME));
         return new BatchContent(outputDir, rules, rows, recurrence.families(), ZonedDateTime.now(),
-                HotSpots.Criteria.DEFAULT);
+                HotSpots.Criteria.DEFAULT, recurrence.refused());
     }
 
     private static String text(CSVRecord rec, String column) {
