@@ -29,6 +29,7 @@ import trapmap.maps.region.Region;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.region.RegionTable;
 import trapmap.maps.region.ThresholdRegions;
+import trapmap.maps.stats.InvalidArea;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
 import trapmap.physics.conversion.PixelStatus;
@@ -45,6 +46,10 @@ import trapmap.physics.defect.Defect;
             "first. With --defect the map is first converted to that defect's trap density; then the statistics,",
             "area fractions and regions are over the OK pixels, and the pixels below the detection limit are",
             "counted on their own (below_limit: count, area_mm2, area_fraction of the evaluated area).",
+            "Always: invalid_area, the share of the evaluated area whose measured value cannot be used (non-finite,",
+            "<= 0, or invalid for the conversion), with the count of each cause, and left_out, which pixels each",
+            "statistic leaves out and why (the harmonic and geometric means skip values <= 0). Above the program's",
+            "default limit of 0.05 a warning is printed (as inspect fails a wafer whose rules set no limit).",
             ""},
         footer = {"", Help.EXIT_CODES})
 final class StatsCommand implements Callable<Integer> {
@@ -112,9 +117,16 @@ final class StatsCommand implements Callable<Integer> {
         Map<String, Object> outline = new LinkedHashMap<>();
         WaferShape shape = shape(map, outline);
         Mask valid = Mask.valid(map.raster());
-        Mask mask = shape == null ? valid : valid.and(shape.mask(map.grid(), edgeExclusionMm));
+        Mask area = shape == null ? Mask.valid(read.raster()) : shape.mask(map.grid(), edgeExclusionMm);
+        Mask mask = shape == null ? valid : valid.and(area);
+        InvalidArea invalid = InvalidArea.of(read.raster(), area, converted == null ? null
+                : converted.get(Quantity.STATUS).raster(), read.quantity() == Quantity.EFFECTIVE_LIFETIME, read.grid());
         Map<String, Object> belowLimit = null;
         List<String> warnings = new ArrayList<>();
+        if (invalid.aboveDefaultLimit()) {
+            warnings.add(invalid.defaultLimitWarning() + ": " + invalid.invalidCount() + " of "
+                    + invalid.evaluatedCount() + " px of the evaluated area cannot be used");
+        }
         if (converted != null) {
             // Statistics, thresholds and regions of a converted map use the OK pixels only; the below-limit ones
             // (whose value is the detection limit, an upper bound) are counted on their own.
@@ -155,9 +167,12 @@ final class StatsCommand implements Callable<Integer> {
         m.put("max", Output.num(s.max()));
         m.put("std", Output.num(s.standardDeviation()));
         m.put("non_positive_count", s.nonPositiveCount());
+        m.put("invalid_area", invalidArea(invalid));
         if (belowLimit != null) {
             m.put("below_limit", belowLimit);
         }
+        m.put("left_out", leftOut(invalid, s, belowLimit == null ? 0 : (Integer) belowLimit.get("count"),
+                converted != null));
         if (!warnings.isEmpty()) {
             m.put("warnings", warnings);
         }
@@ -180,6 +195,52 @@ final class StatsCommand implements Callable<Integer> {
         }
         print(m);
         return Exit.OK;
+    }
+
+    private static Map<String, Object> invalidArea(InvalidArea a) {
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("fraction", Output.num(a.fraction()));
+        m.put("count", a.invalidCount());
+        m.put("area_mm2", Output.num(a.areaMm2()));
+        m.put("evaluated_count", a.evaluatedCount());
+        m.put("non_finite_count", a.nonFiniteCount());
+        m.put("non_positive_count", a.nonPositiveCount());
+        m.put("invalid_conversion_count", a.invalidConversionCount());
+        m.put("default_limit", InvalidArea.DEFAULT_LIMIT);
+        m.put("above_default_limit", a.aboveDefaultLimit());
+        return m;
+    }
+
+    /**
+     * Which pixels of the evaluated area each statistic leaves out, and why: those left out of every statistic
+     * (no data, and with a conversion every pixel not converted OK), and those only the harmonic and geometric means
+     * leave out (values <= 0, for which they are not defined).
+     */
+    private static List<Map<String, Object>> leftOut(InvalidArea a, MapStatistics s, int belowLimit,
+                                                     boolean converted) {
+        List<Map<String, Object>> out = new ArrayList<>();
+        int all = a.evaluatedCount() - s.count();
+        if (all > 0) {
+            String why = converted
+                    ? "not converted OK: " + belowLimit + " below the detection limit, the others unusable"
+                            + " (non-finite, <= 0 or invalid for the conversion; see invalid_area)"
+                    : "no data (NaN)";
+            out.add(leftOutRow(all, why, "all"));
+        }
+        if (s.nonPositiveCount() > 0) {
+            out.add(leftOutRow(s.nonPositiveCount(), "value <= 0: the harmonic and geometric means are defined for"
+                    + " positive values only (a map with many such pixels gets a higher harmonic mean)",
+                    "harmonic_mean, geometric_mean"));
+        }
+        return out;
+    }
+
+    private static Map<String, Object> leftOutRow(int count, String reason, String statistics) {
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("count", count);
+        m.put("statistics", statistics);
+        m.put("reason", reason);
+        return m;
     }
 
     private WaferShape shape(WaferMap map, Map<String, Object> outline) {
@@ -285,19 +346,29 @@ final class StatsCommand implements Callable<Integer> {
         t.number(m, "count", "pixels", "", null);
         t.number(m, "area_mm2", "area", "mm²", null);
         t.number(m, "mean", "mean", unit, "n/a");
-        t.number(m, "harmonic_mean", "harmonic mean", unit, "n/a");
-        t.number(m, "geometric_mean", "geometric mean", unit, "n/a");
+        String positiveOnly = ((Integer) m.get("non_positive_count")) == 0 ? "" : " (" + m.get("non_positive_count")
+                + " px <= 0 left out)";
+        t.number(m, "harmonic_mean", "harmonic mean" + positiveOnly, unit, "n/a");
+        t.number(m, "geometric_mean", "geometric mean" + positiveOnly, unit, "n/a");
         t.number(m, "median", "median", unit, "n/a");
         t.number(m, "p5", "5th percentile", unit, "n/a");
         t.number(m, "p95", "95th percentile", unit, "n/a");
         t.number(m, "min", "min", unit, "n/a");
         t.number(m, "max", "max", unit, "n/a");
         t.number(m, "std", "standard deviation", unit, "n/a");
+        Map<String, Object> inv = (Map<String, Object>) m.get("invalid_area");
+        t.row("invalid area", (inv.get("fraction") == null ? "n/a" : Format.number((Double) inv.get("fraction")))
+                + " of the evaluated area (" + inv.get("count") + " of " + inv.get("evaluated_count")
+                + " px: non-finite " + inv.get("non_finite_count") + ", non-positive " + inv.get("non_positive_count")
+                + ", invalid conversion " + inv.get("invalid_conversion_count") + ")", "");
         if (m.containsKey("below_limit")) {
             Map<String, Object> b = (Map<String, Object>) m.get("below_limit");
             t.row("below detection limit", b.get("count") + " px, " + Format.number((Double) b.get("area_mm2"))
                     + " mm², fraction " + (b.get("area_fraction") == null ? "n/a"
                     : Format.number((Double) b.get("area_fraction"))) + " (not in the statistics)", "");
+        }
+        for (Map<String, Object> l : (List<Map<String, Object>>) m.get("left_out")) {
+            t.note("left out of " + l.get("statistics") + ": " + l.get("count") + " px, " + l.get("reason"));
         }
         if (m.containsKey("threshold")) {
             Map<String, Object> th = (Map<String, Object>) m.get("threshold");

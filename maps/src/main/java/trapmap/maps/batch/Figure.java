@@ -21,6 +21,9 @@ import java.util.regex.Pattern;
  *   <li>{@code below_limit_area_fraction}: share of the evaluated area whose trap density is below the detection
  *       limit (converted pixels whose SRH share of 1/τ_eff is under the resolution); reported whenever trap
  *       densities are computed</li>
+ *   <li>{@code invalid_area_fraction}: share of the evaluated area whose measured lifetime cannot be used
+ *       (non-finite, ≤ 0, or invalid for the conversion: {@link trapmap.maps.stats.InvalidArea}); always reported,
+ *       and limited to {@link trapmap.maps.stats.InvalidArea#DEFAULT_LIMIT} when the profile sets no limit on it</li>
  *   <li>{@code edge_to_centre_ratio}: harmonic-mean lifetime in the band of {@code edge_band_mm} along the inner
  *       border of the evaluated area over the harmonic-mean lifetime inside it</li>
  * </ul>
@@ -38,8 +41,11 @@ public record Figure(String name, Kind kind, double percent) {
     public enum Kind {
         HARMONIC_MEAN_LIFETIME, MEDIAN_LIFETIME, LIFETIME_PERCENTILE, TRAP_DENSITY_PERCENTILE,
         FLAGGED_AREA_FRACTION, LARGEST_REGION, LARGEST_INTERIOR_REGION, EDGE_TO_CENTRE_RATIO,
-        BELOW_LIMIT_AREA_FRACTION
+        BELOW_LIMIT_AREA_FRACTION, INVALID_AREA_FRACTION
     }
+
+    /** The name of the figure {@link Kind#INVALID_AREA_FRACTION}. */
+    public static final String INVALID_AREA_FRACTION = "invalid_area_fraction";
 
     private static final Pattern LIFETIME_P = Pattern.compile("p(\\d{1,2}(?:\\.\\d+)?)_lifetime_us");
     private static final Pattern DENSITY_P = Pattern.compile("trap_density_p(\\d{1,2}(?:\\.\\d+)?)_cm3");
@@ -54,6 +60,7 @@ public record Figure(String name, Kind kind, double percent) {
             case "largest_interior_region_mm2": return new Figure(name, Kind.LARGEST_INTERIOR_REGION, Double.NaN);
             case "edge_to_centre_ratio": return new Figure(name, Kind.EDGE_TO_CENTRE_RATIO, Double.NaN);
             case "below_limit_area_fraction": return new Figure(name, Kind.BELOW_LIMIT_AREA_FRACTION, Double.NaN);
+            case INVALID_AREA_FRACTION: return new Figure(name, Kind.INVALID_AREA_FRACTION, Double.NaN);
             default: break;
         }
         Matcher m = LIFETIME_P.matcher(name);
@@ -66,7 +73,8 @@ public record Figure(String name, Kind kind, double percent) {
         }
         throw new IllegalArgumentException("unknown figure; expected harmonic_mean_lifetime_us, median_lifetime_us,"
                 + " pNN_lifetime_us, trap_density_pNN_cm3, flagged_area_fraction, largest_region_mm2,"
-                + " largest_interior_region_mm2, edge_to_centre_ratio or below_limit_area_fraction");
+                + " largest_interior_region_mm2, edge_to_centre_ratio, below_limit_area_fraction or"
+                + " invalid_area_fraction");
     }
 
     private static double percent(String digits, String name) {

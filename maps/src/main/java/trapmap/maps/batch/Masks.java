@@ -7,9 +7,15 @@ import trapmap.maps.raster.PixelGrid;
 /**
  * The evaluated pixels (valid and at least the edge exclusion inside the outline), also as ascending indices
  * ({@code indices[0..count)}), and, when asked for, the centre pixels of {@code edge_to_centre_ratio} (null
- * otherwise).
+ * otherwise); {@code missing} counts the NaN pixels inside the outline less the edge exclusion (no data where the
+ * wafer is: 0 without an outline, where they cannot be told from the background), for
+ * {@code invalid_area_fraction}.
  */
-record Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre) {
+record Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre, int missing) {
+    Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre) {
+        this(evaluated, indices, count, centre, 0);
+    }
+
     /**
      * The masks of {@link Masks}: {@code evaluated} holds exactly the pixels of
      * {@code Mask.valid(raster).and(shape.mask(grid, exclusionMm))}, {@code centre} those at least {@code centreMm}
@@ -25,6 +31,7 @@ record Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre) {
         boolean[] centre = Double.isNaN(centreMm) ? null : new boolean[w * h];
         int[] indices = new int[w * h];
         int count = 0;
+        int missing = 0;
         if (shape == null) {
             for (int i = 0; i < in.length; i++) {
                 if (tau[i] == tau[i]) {
@@ -63,11 +70,13 @@ record Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre) {
                         if (central) {
                             centre[i] = true;
                         }
+                    } else {
+                        missing++;
                     }
                 }
             }
         }
-        return new Masks(in, indices, count, centre);
+        return new Masks(in, indices, count, centre, missing);
     }
 
     /** A Mask of the same pixels as a boolean array. */

@@ -56,10 +56,33 @@ public final class RecurrenceMap {
         }
     }
 
-    private final Map<String, Family> families = new TreeMap<>();
+    /**
+     * The farthest a footprint's cells may lie from the wafer centre, mm: twice the diameter of the largest wafer
+     * (450 mm) with room to spare. A wafer evaluated beyond it has a placement (a centre far outside its data) that no
+     * recurrence map can show: it would stretch its family's map over kilometres of empty cells and give it a centre
+     * that map files cannot hold ({@link trapmap.maps.io.Sidecar#MAX_CENTRE_PX}).
+     */
+    public static final double MAX_OFFSET_MM = 1000;
 
-    /** Adds one wafer. */
-    public void add(Footprint f) {
+    private final Map<String, Family> families = new TreeMap<>();
+    private final java.util.List<String> refused = new java.util.ArrayList<>();
+
+    /**
+     * Adds one wafer, unless its cells lie beyond {@link #MAX_OFFSET_MM} from the wafer centre: such a footprint is
+     * left out and its reason kept in {@link #refused()}.
+     *
+     * @return true when the wafer was added
+     */
+    public boolean add(Footprint f) {
+        double reach = Footprint.PITCH_MM * Math.max(Math.max(Math.abs((double) f.minI()),
+                Math.abs((double) f.minI() + f.width())), Math.max(Math.abs((double) f.minJ()),
+                Math.abs((double) f.minJ() + f.height())));
+        if (!(reach <= MAX_OFFSET_MM)) {
+            refused.add("family " + f.family() + ": a wafer evaluated up to " + reach + " mm from its centre,"
+                    + " beyond the " + MAX_OFFSET_MM + " mm a recurrence map covers (check the map's centre_x_px,"
+                    + " centre_y_px and pixel pitch); left out of the recurrence map");
+            return false;
+        }
         Family fam = families.computeIfAbsent(f.family(), k -> new Family());
         fam.wafers++;
         fam.pitchMm = f.pitchMm();
@@ -73,6 +96,12 @@ public final class RecurrenceMap {
                 fam.flagged[at]++;
             }
         }
+        return true;
+    }
+
+    /** Why footprints were left out ({@link #add}), one line each, in the order they came. */
+    public java.util.List<String> refused() {
+        return java.util.List.copyOf(refused);
     }
 
     /**

@@ -126,10 +126,29 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
             grades.forEach(g -> g.when().forEach(l -> s.add(l.figure())));
             s.add(Figure.parse("flagged_area_fraction"));
             s.add(Figure.parse("largest_region_mm2"));
+            s.add(Figure.parse(Figure.INVALID_AREA_FRACTION));
             if (needsTrapDensity()) {
                 s.add(Figure.parse("below_limit_area_fraction"));
             }
             return List.copyOf(s);
+        }
+
+        /**
+         * True when the profile's limits bound {@code invalid_area_fraction}; otherwise a wafer fails above
+         * {@link trapmap.maps.stats.InvalidArea#DEFAULT_LIMIT} (the program's default limit).
+         */
+        public boolean limitsInvalidArea() {
+            return limits.stream().anyMatch(l -> l.figure().kind() == Figure.Kind.INVALID_AREA_FRACTION);
+        }
+
+        /**
+         * The limit on {@code invalid_area_fraction} the profile is judged by: its own, or the program's default,
+         * at most {@link trapmap.maps.stats.InvalidArea#DEFAULT_LIMIT}.
+         */
+        public Limit invalidAreaLimit() {
+            return limits.stream().filter(l -> l.figure().kind() == Figure.Kind.INVALID_AREA_FRACTION).findFirst()
+                    .orElse(new Limit(Figure.parse(Figure.INVALID_AREA_FRACTION), Double.NaN,
+                            trapmap.maps.stats.InvalidArea.DEFAULT_LIMIT));
         }
 
         /**

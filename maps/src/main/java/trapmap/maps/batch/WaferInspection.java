@@ -20,6 +20,7 @@ import trapmap.maps.process.MapConversion;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.maps.region.RegionCriteria;
+import trapmap.maps.stats.InvalidArea;
 import trapmap.physics.conversion.Conditions;
 import trapmap.physics.conversion.ConversionOutput;
 import trapmap.physics.conversion.PixelStatus;
@@ -127,10 +128,12 @@ public final class WaferInspection {
      * What an evaluation worked with, besides its result: the lifetime map with the rules' conditions, the
      * trap-density map at the evaluated pixels (NaN elsewhere; null when the profile needs none), the wafer outline
      * (null when none was fitted), the evaluated pixels (index y·width + x), the flagged regions with their pixels,
-     * the rules profile that judged the wafer and the defect of its trap densities (null when none was used).
+     * the rules profile that judged the wafer, the defect of its trap densities (null when none was used) and the
+     * unusable share of the evaluated area with its causes (the figure {@code invalid_area_fraction}).
      */
     public record Evaluation(WaferResult result, WaferMap lifetime, WaferMap density, WaferShape shape,
-                             boolean[] evaluated, FlaggedRegions regions, Rules.Profile profile, Defect defect) {
+                             boolean[] evaluated, FlaggedRegions regions, Rules.Profile profile, Defect defect,
+                             InvalidArea invalid) {
         /** True when the defect is not the profile's own (a per-wafer or viewer-wide override). */
         public boolean defectOverridden() {
             return defect != null && !defect.id().equals(profile.defectId());
@@ -192,6 +195,8 @@ public final class WaferInspection {
         WaferMap judgedDensity = judged == null ? null : judged.map();
         double belowLimitFraction = converted == null || masks.count() == 0 ? Double.NaN
                 : (double) converted.belowLimit() / masks.count();
+        InvalidArea invalid = invalidArea(lifeValues, converted == null ? null : converted.status(), masks,
+                grid.pixelAreaMm2());
         Sample dens = judged == null ? null : Sample.ofPacked(judged.packed().clone(), masks.count(), grid,
                 percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE), false);
         double[] lifePercents = percents(figures, Figure.Kind.LIFETIME_PERCENTILE);
@@ -223,6 +228,7 @@ public final class WaferInspection {
                         : interior == null ? 0 : interior.region().areaMm2();
                 case EDGE_TO_CENTRE_RATIO -> Masks.edgeToCentre(tau, masks);
                 case BELOW_LIMIT_AREA_FRACTION -> belowLimitFraction;
+                case INVALID_AREA_FRACTION -> invalid.fraction();
             };
             values.put(f.name(), v);
         }
@@ -234,6 +240,11 @@ public final class WaferInspection {
                 failedFigures.add(l.figure());
             }
         }
+        if (!profile.limitsInvalidArea() && !profile.invalidAreaLimit().holds(invalid.fraction())) {
+            // the program's default limit, for profiles that set none; its text says it is the default
+            failed.add(InvalidArea.exceeds(invalid.fraction(), profile.invalidAreaLimit().max()));
+            failedFigures.add(profile.invalidAreaLimit().figure());
+        }
         String grade = profile.grade(!failed.isEmpty(), f -> values.get(f.name()));
         List<String> missed = failed.isEmpty() ? profile.missedBy(grade, f -> values.get(f.name())) : List.of();
         Footprint footprint = Footprint.of(family, grid, masks.evaluated(), regions.pixels());
@@ -244,7 +255,8 @@ public final class WaferInspection {
         WaferResult result = new WaferResult(name, map.waferId(), failed.isEmpty() ? WaferResult.Status.PASS
                 : WaferResult.Status.FAIL, grade, profile.name(), defect == null ? null : defect.id(), values, failed,
                 missed, regions.regions(), "", footprint, WaferResult.Worst.behind(failedFigures, worst, interior));
-        return new Evaluation(result, lifetime, density, shape, masks.evaluated(), regions, profile, defect);
+        return new Evaluation(result, lifetime, density, shape, masks.evaluated(), regions, profile, defect,
+                invalid);
     }
 
     /**
@@ -330,6 +342,20 @@ public final class WaferInspection {
         WaferMap map = lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), nt),
                 Quantity.TRAP_DENSITY, MapConversion.convertStep(conditions, defect, settings));
         return new Density(map, out, status, below);
+    }
+
+    /**
+     * The {@link InvalidArea} of the evaluated lifetimes (packed in index order, before {@link Sample#ofPacked}
+     * reorders them) with their conversion statuses (packed likewise; null when not converted) and the NaN pixels
+     * inside the outline that {@link Masks} left out.
+     */
+    static InvalidArea invalidArea(float[] packedTau, byte[] status, Masks masks, double pixelAreaMm2) {
+        InvalidArea.Tally tally = new InvalidArea.Tally(true);
+        for (int k = 0, n = masks.count(); k < n; k++) {
+            tally.add(packedTau[k], status == null ? -1 : status[k]);
+        }
+        tally.addMissing(masks.missing());
+        return tally.result(pixelAreaMm2);
     }
 
     /**

@@ -24,6 +24,7 @@ final class CsvMapWriter {
      * quantity, unit, pitch, centre, raster size and conditions, so that the file reads back onto the same grid.
      */
     static void write(WaferMap map, Path target) throws IOException {
+        Sidecar.checkWritable(map.grid());
         List<String> comments = new ArrayList<>();
         comments.add("trapmap map");
         comments.add("wafer_id=" + map.waferId().replaceAll("\\R", " "));

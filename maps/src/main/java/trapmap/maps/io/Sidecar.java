@@ -209,10 +209,35 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
     }
 
     /**
+     * The largest wafer-centre offset a map file may state, px ({@code centre_x_px}, {@code centre_y_px} in
+     * [−1e9, 1e9]): what the readers accept and the writers refuse to exceed.
+     */
+    public static final double MAX_CENTRE_PX = 1e9;
+
+    /**
+     * Refuses a grid the readers would refuse: a wafer centre beyond {@link #MAX_CENTRE_PX}, so that a written map
+     * always reads back.
+     *
+     * @throws IllegalArgumentException naming the field, its value, the range and the unit
+     */
+    public static void checkWritable(trapmap.maps.raster.PixelGrid grid) {
+        double[] centre = {grid.centreXPx(), grid.centreYPx()};
+        String[] field = {"centre_x_px", "centre_y_px"};
+        for (int k = 0; k < 2; k++) {
+            if (!(Math.abs(centre[k]) <= MAX_CENTRE_PX)) {
+                throw new IllegalArgumentException("cannot write the map: " + field[k] + " " + centre[k]
+                        + " px is outside [-1e9, 1e9] px, the range a map file can hold (the wafer centre would lie "
+                        + Math.abs(centre[k] * grid.pitchMm()) + " mm from the data)");
+            }
+        }
+    }
+
+    /**
      * The JSON trapmap embeds in the TIFF files it writes: every fact of the map (all but the samples), so that the
      * file reads back into an equal map. Plain ASCII (other characters escaped).
      */
     public static String toJson(WaferMap map) {
+        checkWritable(map.grid());
         ObjectNode o = JSON.createObjectNode();
         o.put("format", FORMAT);
         o.put("wafer_id", map.waferId());
@@ -371,7 +396,7 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
             }
             String unit = text(o, "unit", "unit");
             Double pitch = number(o, "pixel_pitch_mm", "pixel_pitch_mm", new Range("mm", 0, 1000, true));
-            Range centre = new Range("px", -1e9, 1e9, false);
+            Range centre = new Range("px", -MAX_CENTRE_PX, MAX_CENTRE_PX, false);
             Double cx = number(o, "centre_x_px", "centre_x_px", centre);
             Double cy = number(o, "centre_y_px", "centre_y_px", centre);
             Range any = new Range("", -Double.MAX_VALUE, Double.MAX_VALUE, false);

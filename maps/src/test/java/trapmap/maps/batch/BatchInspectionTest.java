@@ -380,8 +380,8 @@ class BatchInspectionTest {
     void columnsNameEachFigureOfTheRules() throws Exception {
         assertThat(BatchInspection.columns(rules(SPOT_RULES))).containsExactly("file", "wafer_id", "status", "grade",
                 "profile", "defect", "harmonic_mean_lifetime_us", "median_lifetime_us", "flagged_area_fraction",
-                "p5_lifetime_us", "largest_region_mm2", "failed_rules", "graded_down_by", "worst_region_area_mm2",
-                "worst_region_x_mm", "worst_region_y_mm", "worst_region_peak", "worst_region_rule",
+                "p5_lifetime_us", "largest_region_mm2", "invalid_area_fraction", "failed_rules", "graded_down_by",
+                "worst_region_area_mm2", "worst_region_x_mm", "worst_region_y_mm", "worst_region_peak", "worst_region_rule",
                 "worst_region_centroid_inside", "worst_region_peak_x_mm", "worst_region_peak_y_mm",
                 "worst_region_min_x_mm", "worst_region_min_y_mm", "worst_region_max_x_mm", "worst_region_max_y_mm",
                 "error");

@@ -144,10 +144,11 @@ class RulesTest {
         assertThat(r.profileFor("x-feb-state.tif", null, "m2").name()).isEqualTo("pairs");
         assertThat(r.profileFor("w1.tif", null, "round-200-notch").name()).isEqualTo(Rules.DEFAULT_PROFILE);
         assertThat(r.figures()).extracting(Figure::name).containsExactly("harmonic_mean_lifetime_us",
-                "median_lifetime_us", "flagged_area_fraction", "largest_region_mm2", "below_limit_area_fraction");
-        // a profile that computes no trap density reports no below-limit share
+                "median_lifetime_us", "flagged_area_fraction", "largest_region_mm2", "invalid_area_fraction",
+                "below_limit_area_fraction");
+        // a profile that computes no trap density reports no below-limit share, but always its invalid area
         assertThat(r.profileFor("w1.tif", ConductivityType.P, "round-200-notch").figures()).extracting(Figure::name)
-                .doesNotContain("below_limit_area_fraction");
+                .doesNotContain("below_limit_area_fraction").contains("invalid_area_fraction");
     }
 
     @Test

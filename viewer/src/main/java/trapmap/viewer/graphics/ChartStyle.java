@@ -82,7 +82,7 @@ public final class ChartStyle {
 
     /** A base-10 logarithmic axis labelled at decades, e.g. 10¹², 10¹³. */
     public static LogAxis logAxis(String label) {
-        LogAxis a = new LogAxis(label);
+        LogAxis a = new ZeroWidthLogAxis(label);
         a.setBase(10);
         a.setSmallestValue(1e-300);
         a.setMinorTickMarksVisible(true);
@@ -95,6 +95,34 @@ public final class ChartStyle {
         }
         a.setStandardTickUnits(steps);
         return a;
+    }
+
+    /**
+     * A logarithmic axis whose automatic range survives data of one value (a uniform map, a single ring): JFreeChart's
+     * {@link LogAxis} then asks for a range of zero length and throws, where {@link NumberAxis} widens it by its
+     * minimum range size. This one widens such a range by a factor of 1.1 each way.
+     */
+    static final class ZeroWidthLogAxis extends LogAxis {
+        private static final long serialVersionUID = 1L;
+        /** Factor the single value is widened by on either side. */
+        static final double WIDEN = 1.1;
+
+        ZeroWidthLogAxis(String label) {
+            super(label);
+        }
+
+        @Override
+        protected void autoAdjustRange() {
+            if (getPlot() instanceof org.jfree.chart.plot.ValueAxisPlot vap) {
+                org.jfree.data.Range r = vap.getDataRange(this);
+                if (r != null && r.getLength() == 0 && r.getLowerBound() > 0) {
+                    setRange(new org.jfree.data.Range(r.getLowerBound() / WIDEN, r.getUpperBound() * WIDEN), false,
+                            false);
+                    return;
+                }
+            }
+            super.autoAdjustRange();
+        }
     }
 
     /** A linear axis that need not include zero. */

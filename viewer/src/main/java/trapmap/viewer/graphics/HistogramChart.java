@@ -18,6 +18,7 @@ import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.stats.Histogram;
+import trapmap.maps.stats.InvalidArea;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
 
@@ -44,8 +45,22 @@ public final class HistogramChart {
      * @param histogram  the bins (null when no pixel has data)
      * @param statistics the statistics over the same pixels
      * @param threshold  the threshold in the map's unit, NaN for none
+     * @param invalid    the unusable share of the evaluated area (maps module {@link InvalidArea}), or null when not
+     *                   given
+     * @param belowLimitFraction the share of the evaluated area below the detection limit, NaN when not given
      */
-    public record Data(Quantity quantity, Histogram histogram, MapStatistics statistics, double threshold) {
+    public record Data(Quantity quantity, Histogram histogram, MapStatistics statistics, double threshold,
+                       InvalidArea invalid, double belowLimitFraction) {
+
+        /** Data without the invalid and below-limit areas. */
+        public Data(Quantity quantity, Histogram histogram, MapStatistics statistics, double threshold) {
+            this(quantity, histogram, statistics, threshold, null, Double.NaN);
+        }
+
+        /** The same data, reporting the invalid area and the below-limit share (NaN: unknown) beside it. */
+        public Data withAreas(InvalidArea invalidArea, double belowLimit) {
+            return new Data(quantity, histogram, statistics, threshold, invalidArea, belowLimit);
+        }
 
         /** The statistics as table rows, each with its unit. */
         public List<Row> rows() {
@@ -69,6 +84,19 @@ public final class HistogramChart {
             if (s.nonPositiveCount() > 0) {
                 r.add(new Row("pixels ≤ 0 (not in harmonic/geometric mean)", Integer.toString(s.nonPositiveCount()),
                         "px"));
+            }
+            if (invalid != null) {
+                r.add(new Row("invalid area (" + Labels.percent(invalid.fraction()) + " of evaluated)",
+                        Integer.toString(invalid.invalidCount()), "px"));
+                r.add(new Row("  non-finite (no data, ±∞)", Integer.toString(invalid.nonFiniteCount()), "px"));
+                r.add(new Row("  ≤ 0", Integer.toString(invalid.nonPositiveCount()), "px"));
+                r.add(new Row("  invalid conversion", Integer.toString(invalid.invalidConversionCount()), "px"));
+                if (invalid.aboveDefaultLimit()) {
+                    r.add(new Row("  above the default limit", Labels.percent(InvalidArea.DEFAULT_LIMIT), ""));
+                }
+            }
+            if (!Double.isNaN(belowLimitFraction)) {
+                r.add(new Row("below detection limit (of evaluated)", Labels.percent(belowLimitFraction), ""));
             }
             if (!Double.isNaN(threshold) && !s.areaFractions().isEmpty()) {
                 MapStatistics.AreaFraction a = s.areaFraction(threshold);

@@ -243,7 +243,7 @@ public final class SessionFiles {
         }
         double version = r.number(root, "version", "", true);
         if (version != Session.VERSION) {
-            throw r.error("version", "", "version " + fmt(version) + " is not supported (this program reads version "
+            throw r.error("version", "", fmt(version) + " is not supported (this program reads version "
                     + Session.VERSION + ")");
         }
         List<Path> files = new ArrayList<>();
@@ -307,7 +307,8 @@ public final class SessionFiles {
             try {
                 q = DisplayedQuantity.ofKey(r.text(root, "quantity", true));
             } catch (IllegalArgumentException e) {
-                throw r.error("quantity", "", e.getMessage());
+                // the message names the field already ("unknown quantity 'x'; …")
+                throw new SessionException(name + ": " + e.getMessage());
             }
         }
 

@@ -9,6 +9,7 @@ import trapmap.maps.batch.OutlineFits;
 import trapmap.maps.batch.Rules;
 import trapmap.maps.batch.WaferInspection;
 import trapmap.maps.geometry.WaferShape;
+import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.ConversionSettings;
 import trapmap.maps.process.MapConversion;
@@ -16,6 +17,7 @@ import trapmap.maps.raster.Mask;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.region.RegionTable;
 import trapmap.maps.region.ThresholdRegions;
+import trapmap.maps.stats.InvalidArea;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
 import trapmap.physics.conversion.PhysicsSettings;
@@ -30,7 +32,8 @@ import trapmap.physics.defect.Defect;
  * the model's physics settings, outline fitted to the lifetime's valid pixels, mask = valid lifetime ∩
  * outline less the edge exclusion (outline by {@link OutlineFits#fit}), regions and their pixels over
  * that mask in one pass by {@link FlaggedRegions#find} (the regions of {@link ThresholdRegions}), flagged
- * fraction = region area / evaluated lifetime area. A viewer figure therefore equals the batch's for the same settings.
+ * fraction = region area / evaluated lifetime area, invalid area by {@link InvalidArea} over the outline less the
+ * edge exclusion. A viewer figure therefore equals the batch's for the same settings.
  */
 public final class WaferAnalyzer {
     /** Percentiles of the lifetime statistics, %. */
@@ -108,9 +111,15 @@ public final class WaferAnalyzer {
         }
         check(cancelled);
         Mask mask = Mask.valid(lifetime.raster());
+        // the evaluated area, unusable pixels included: the outline less the edge exclusion (no outline: the data)
+        Mask area = shape == null ? mask : shape.mask(lifetime.grid(), analysis.edgeExclusionMm());
         if (shape != null) {
-            mask = mask.and(shape.mask(lifetime.grid(), analysis.edgeExclusionMm()));
+            mask = mask.and(area);
         }
+        InvalidArea invalid = InvalidArea.of(lifetime.raster(), area, conv == null ? null
+                : conv.get(Quantity.STATUS).raster(), true, lifetime.grid());
+        double belowLimit = conv == null || mask.count() == 0 ? Double.NaN
+                : (double) mask.and(conv.statusMask(PixelStatus.BELOW_LIMIT)).count() / mask.count();
         MapStatistics life = MapStatistics.of(lifetime, mask, StatisticsRequest.of(LIFETIME_PERCENTS));
         // trap densities: statistics and the threshold use the OK pixels, never the detection limit of the others
         Mask judgedMask = okPixels(q, mask, conv);
@@ -128,7 +137,7 @@ public final class WaferAnalyzer {
         BitSet flagged = found.pixels();
         double fraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
         Verdict verdict = Verdict.quick(fraction, analysis.threshold(), q.unit(), defect == null ? null
-                : defect.id());
+                : defect.id(), invalid, belowLimit);
         return new WaferAnalysis(analysis, lifetime, conv, displayed, shape, mask, life, shown, regions, flagged,
                 fraction, keyFigure(q, shown, fraction), verdict, analysis.threshold().value(), q.unit(),
                 analysis.edgeExclusionMm(), conv == null ? Set.of() : conv.warnings());

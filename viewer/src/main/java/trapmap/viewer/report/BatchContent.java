@@ -22,9 +22,17 @@ import trapmap.maps.batch.Rules;
  * @param recurrence family → recurrence (share of wafers flagged and wafers evaluated per cell)
  * @param created    the date printed
  * @param hotSpots   when a recurrence cell is a hot spot
+ * @param recurrenceLeftOut why wafers were left out of the recurrence maps ({@code RecurrenceMap.refused()}), one
+ *                   line each
  */
 public record BatchContent(Path outputDir, Rules rules, List<Row> rows, Map<String, Recurrence> recurrence,
-                           ZonedDateTime created, HotSpots.Criteria hotSpots) {
+                           ZonedDateTime created, HotSpots.Criteria hotSpots, List<String> recurrenceLeftOut) {
+
+    /** Content with no wafer left out of the recurrence maps. */
+    public BatchContent(Path outputDir, Rules rules, List<Row> rows, Map<String, Recurrence> recurrence,
+                        ZonedDateTime created, HotSpots.Criteria hotSpots) {
+        this(outputDir, rules, rows, recurrence, created, hotSpots, List.of());
+    }
 
     /**
      * One row of {@code results.csv}.
@@ -71,6 +79,7 @@ public record BatchContent(Path outputDir, Rules rules, List<Row> rows, Map<Stri
         recurrence = Collections.unmodifiableMap(new TreeMap<>(recurrence));
         created = created == null ? ZonedDateTime.now() : created;
         hotSpots = hotSpots == null ? HotSpots.Criteria.DEFAULT : hotSpots;
+        recurrenceLeftOut = recurrenceLeftOut == null ? List.of() : List.copyOf(recurrenceLeftOut);
     }
 
     long count(String status) {

@@ -62,7 +62,7 @@ final class BatchFolder {
         }
         RecurrenceMap recurrence = RecurrenceMap.read(outputDir.resolve(BatchInspection.FOOTPRINTS_NAME));
         return new BatchContent(outputDir, rules, rows, recurrence.families(), ZonedDateTime.now(),
-                HotSpots.Criteria.DEFAULT);
+                HotSpots.Criteria.DEFAULT, recurrence.refused());
     }
 
     /** A text cell as it was before {@link CsvCells#text}; empty when the column is missing. */

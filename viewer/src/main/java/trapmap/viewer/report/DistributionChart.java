@@ -58,7 +58,9 @@ final class DistributionChart {
         if (profile == null) {
             return new double[0];
         }
-        return profile.limits().stream().filter(l -> l.figure().name().equals(figure))
+        List<Rules.Limit> own = figure.equals(Figure.INVALID_AREA_FRACTION) ? List.of(profile.invalidAreaLimit())
+                : profile.limits();
+        return own.stream().filter(l -> l.figure().name().equals(figure))
                 .flatMapToDouble(l -> Arrays.stream(new double[] {l.min(), l.max()})).filter(d -> !Double.isNaN(d))
                 .toArray();
     }
@@ -143,6 +145,9 @@ final class DistributionChart {
             return "";
         }
         List<Rules.Limit> ls = profile.limits().stream().filter(l -> l.figure().name().equals(figure)).toList();
+        if (ls.isEmpty() && figure.equals(Figure.INVALID_AREA_FRACTION)) {
+            return "≤ " + Labels.number(profile.invalidAreaLimit().max()) + " (default)";
+        }
         if (ls.isEmpty()) {
             return "none";
         }

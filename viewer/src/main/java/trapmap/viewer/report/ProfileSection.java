@@ -149,7 +149,8 @@ final class ProfileSection {
             for (int k = 0; k < shown.size(); k++) {
                 BatchContent.Row r = shown.get(k);
                 double v = r.figure(fig);
-                row[2 + k] = Labels.number(v) + (r.failed().contains(fig) ? " (fails)" : "");
+                row[2 + k] = Labels.number(v) + (r.failed().stream().anyMatch(x -> x.equals(fig)
+                        || x.startsWith(fig + " ")) ? " (fails)" : "");
             }
             table.add(row);
         }

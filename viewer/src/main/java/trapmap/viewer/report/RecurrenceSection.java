@@ -30,6 +30,9 @@ final class RecurrenceSection {
         for (Map.Entry<String, Recurrence> e : c.recurrence().entrySet()) {
             draw(flow, c.hotSpots(), e.getValue());
         }
+        for (String leftOut : c.recurrenceLeftOut()) {
+            flow.paragraph("Not in the recurrence maps: " + leftOut + ".", PdfPage.REGULAR, 8.5f);
+        }
     }
 
     static void draw(ReportFlow flow, HotSpots.Criteria criteria, Recurrence r) throws IOException {

@@ -91,6 +91,12 @@ public final class ViewerExports {
             csv.printRecord("flagged_regions", r.regions().size(), "");
             csv.printRecord("edge_exclusion", r.edgeExclusionMm(), "mm");
             Verdict v = r.verdict();
+            if (v.invalid() != null) {
+                csv.printRecord("invalid_area_fraction", v.invalid().fraction(), "");
+                csv.printRecord("invalid_non_finite_pixels", v.invalid().nonFiniteCount(), "");
+                csv.printRecord("invalid_non_positive_pixels", v.invalid().nonPositiveCount(), "");
+                csv.printRecord("invalid_conversion_pixels", v.invalid().invalidConversionCount(), "");
+            }
             csv.printRecord("judged_by", CsvCells.text(v.rulesVerdict() ? "rules " + v.rulesName()
                     : Verdict.QUICK_CHECK), "");
             csv.printRecord("verdict", CsvCells.text(v.outcome()), "");

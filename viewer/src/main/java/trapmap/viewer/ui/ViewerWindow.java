@@ -377,12 +377,12 @@ public final class ViewerWindow extends JFrame {
         status.setFrameMillis(canvas.lastFrameMillis());
         if (!r.warnings().isEmpty()) {
             List<String> notes = r.warnings().stream().map(x -> x.message()).sorted().toList();
-            status.setMessage(r.verdict().headline() + " — caution: " + notes.get(0) + (notes.size() > 1 ? " (+"
+            status.setMessage(r.verdict().headlineWithWarning() + " — caution: " + notes.get(0) + (notes.size() > 1 ? " (+"
                     + (notes.size() - 1) + " more, see tooltip)" : ""));
             status.setMessageTooltip("<html>" + r.verdict().basis() + "<br>" + String.join("<br>", notes)
                     + "</html>");
         } else if (w.error() == null) {
-            status.setMessage(r.verdict().headline() + " — " + r.verdict().basis());
+            status.setMessage(r.verdict().headlineWithWarning() + " — " + r.verdict().basis());
             status.setMessageTooltip(null);
         }
     }
@@ -396,7 +396,9 @@ public final class ViewerWindow extends JFrame {
             new SwingWorker<Object[], Void>() {
                 @Override
                 protected Object[] doInBackground() {
-                    HistogramChart.Data h = HistogramChart.compute(r.displayed(), r.mask(), t);
+                    HistogramChart.Data h = HistogramChart.compute(r.displayed(), r.mask(), t).withAreas(
+                            r.verdict().invalid(), r.verdict().figures().getOrDefault("below_limit_area_fraction",
+                                    Double.NaN));
                     RadialProfile rp = RadialProfile.of(r.displayed(), r.mask(), Math.max(1.0,
                             2 * r.displayed().grid().pitchMm()));
                     double[] spread = RadialProfileView.ringStandardDeviations(r.displayed(), r.mask(), rp);

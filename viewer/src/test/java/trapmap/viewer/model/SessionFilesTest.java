@@ -109,7 +109,14 @@ class SessionFilesTest {
     @Test
     void newerVersionIsRefused() {
         assertThatThrownBy(() -> SessionFiles.parse("{\"format\": \"trapmap-session\", \"version\": 7, \"files\": []}",
-                "s.json", dir)).hasMessageContaining("version 7 is not supported");
+                "s.json", dir)).hasMessage("s.json: version 7 is not supported (this program reads version 1)");
+    }
+
+    @Test
+    void anUnknownQuantityIsNamedOnce() {
+        assertThatThrownBy(() -> SessionFiles.parse("{\"format\": \"trapmap-session\", \"version\": 1, \"files\": [],"
+                + " \"quantity\": \"colour\"}", "s.json", dir))
+                .hasMessageStartingWith("s.json: unknown quantity 'colour'; expected one of");
     }
 
     @Test

@@ -276,6 +276,12 @@ public final class ThresholdPanel extends JPanel {
             if (v.defectOverridden()) {
                 b.append("<br>defect ").append(v.defectId()).append(" (overridden for this wafer)");
             }
+            if (!v.invalidAreaWarning().isEmpty()) {
+                b.append("<br><font color='#D03030'>warning: ").append(v.invalidAreaWarning()).append("</font>");
+            }
+        }
+        if (v.invalid() != null) {
+            b.append("<br><font color='gray'>invalid area ").append(v.invalid().describe()).append("</font>");
         }
         return b.append("</html>").toString();
     }
