@@ -105,7 +105,8 @@ final class StatsCommand implements Callable<Integer> {
         if (threshold != null && !Double.isFinite(threshold)) {
             throw new InputException("--threshold must be a finite number in the map's unit");
         }
-        WaferMap map = MapInput.page(input, page);
+        WaferMap read = MapInput.page(input, page);
+        WaferMap map = read;
         Defect defect = density.defectOrNull();
         MapConversion.Result converted = null;
         String floor = "";
@@ -120,7 +121,7 @@ final class StatsCommand implements Callable<Integer> {
         Mask area = shape == null ? Mask.valid(read.raster()) : shape.mask(map.grid(), edgeExclusionMm);
         Mask mask = shape == null ? valid : valid.and(area);
         InvalidArea invalid = InvalidArea.of(read.raster(), area, converted == null ? null
-                : converted.get(Quantity.STATUS).raster(), read.quantity() == Quantity.EFFECTIVE_LIFETIME, read.grid());
+                : converted.statusCodes(), read.quantity() == Quantity.EFFECTIVE_LIFETIME, read.grid());
         Map<String, Object> belowLimit = null;
         List<String> warnings = new ArrayList<>();
         if (invalid.aboveDefaultLimit()) {

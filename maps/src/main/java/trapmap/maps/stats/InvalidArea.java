@@ -126,23 +126,23 @@ public record InvalidArea(int evaluatedCount, int nonFiniteCount, int nonPositiv
      * @param values        the measured map's samples
      * @param area          the evaluated area: inside the wafer less the edge exclusion, whatever the values (with
      *                      no outline: the non-NaN pixels)
-     * @param status        the conversion's status raster (codes of {@link PixelStatus}) of the same size, or null
-     *                      when the map was not converted
+     * @param status        the conversion's status code of every pixel ({@link PixelStatus#code()}, as
+     *                      {@code MapConversion.Result.statusCodes()} holds them), or null when the map was not converted
      * @param lifetimeFloor true for an effective-lifetime map in µs (see {@link #cause})
      * @param grid          the pixel grid
      */
-    public static InvalidArea of(FloatRaster values, Mask area, FloatRaster status, boolean lifetimeFloor,
+    public static InvalidArea of(FloatRaster values, Mask area, byte[] status, boolean lifetimeFloor,
                                  PixelGrid grid) {
         Checks.notNull(values, "values");
         Checks.notNull(area, "area");
         Checks.notNull(grid, "grid");
         MapStatistics.checkSizes(values, area, grid);
-        if (status != null && (status.width() != values.width() || status.height() != values.height())) {
-            throw new IllegalArgumentException("status raster " + status.width() + "x" + status.height()
-                    + " does not match the map " + values.width() + "x" + values.height());
-        }
         float[] v = values.samples();
-        float[] st = status == null ? null : status.samples();
+        if (status != null && status.length != v.length) {
+            throw new IllegalArgumentException(status.length + " status codes do not match the map "
+                    + values.width() + "x" + values.height());
+        }
+        byte[] st = status;
         Tally t = new Tally(lifetimeFloor);
         for (int i = area.nextIndex(0); i >= 0 && i < v.length; i = area.nextIndex(i + 1)) {
             t.add(v[i], st == null ? -1 : (int) st[i]);

@@ -48,7 +48,7 @@ class InvalidAreaTest {
         WaferMap m = map();
         MapConversion.Result c = MapConversion.convert(m, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS, 1);
         Mask all = Mask.all(TAU.length, 1);
-        InvalidArea byStatus = InvalidArea.of(m.raster(), all, c.get(Quantity.STATUS).raster(), true, m.grid());
+        InvalidArea byStatus = InvalidArea.of(m.raster(), all, c.statusCodes(), true, m.grid());
         InvalidArea byFloor = InvalidArea.of(m.raster(), all, null, true, m.grid());
         assertThat(byStatus).isEqualTo(byFloor);
         assertThat(byFloor.nonFiniteCount()).isEqualTo(3);

@@ -117,7 +117,7 @@ public final class WaferAnalyzer {
             mask = mask.and(area);
         }
         InvalidArea invalid = InvalidArea.of(lifetime.raster(), area, conv == null ? null
-                : conv.get(Quantity.STATUS).raster(), true, lifetime.grid());
+                : conv.statusCodes(), true, lifetime.grid());
         double belowLimit = conv == null || mask.count() == 0 ? Double.NaN
                 : (double) mask.and(conv.statusMask(PixelStatus.BELOW_LIMIT)).count() / mask.count();
         MapStatistics life = MapStatistics.of(lifetime, mask, StatisticsRequest.of(LIFETIME_PERCENTS));
