@@ -134,7 +134,7 @@ final class InspectCommand implements Callable<Integer> {
             if (System.console() != null) {
                 err.println();
             }
-            err.println("inspect: --out " + out + ": output could not be written: " + e.getMessage()
+            err.println(spec.qualifiedName() + ": --out " + out + ": output could not be written: " + e.getMessage()
                     + "; the batch stopped, what was written stays and --resume continues from it");
             err.flush();
             return Exit.OUTPUT_NOT_WRITTEN;
