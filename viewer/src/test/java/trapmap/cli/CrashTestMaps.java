@@ -12,13 +12,13 @@ import trapmap.maps.raster.PixelGrid;
 import trapmap.maps.model.WaferMap;
 
 /**
- * Small generated lifetime maps for the batch's run tests: 80 mm round wafers of 80 µs on a 121 × 121 grid of
- * 0.7 mm, every other one (from the second) with a 4 µs spot of 4 mm radius at one of three places (seeded), so
+ * Small generated lifetime maps for the batch's run tests: 80 mm round wafers of 80 µs on an 81 × 81 grid of
+ * 1.05 mm, every other one (from the second) with a 4 µs spot of 4 mm radius at one of three places (seeded), so
  * that some wafers fail, regions are listed and the recurrence map has a hot spot.
  */
 final class CrashTestMaps {
-    private static final int N = 121;
-    private static final double PITCH_MM = 0.7;
+    private static final int N = 81;
+    private static final double PITCH_MM = 1.05;
     private static final double[][] SPOTS = {{15, 10}, {-20, 5}, {5, -25}};
 
     private CrashTestMaps() {

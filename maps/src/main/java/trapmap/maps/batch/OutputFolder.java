@@ -35,6 +35,8 @@ final class OutputFolder {
     }
 
     static volatile Fault fault;
+    /** Set when the program is being stopped (SIGTERM, Ctrl-C): no new write into an output folder starts. */
+    private static volatile boolean stopping;
 
     /** An action writing one output file. */
     interface Write {
@@ -55,6 +57,9 @@ final class OutputFolder {
     }
 
     static void check(Path file) throws IOException {
+        if (stopping) {
+            throw new IOException("the program is being stopped");
+        }
         Fault f = fault;
         if (f != null) {
             f.check(file);
@@ -210,11 +215,13 @@ final class OutputFolder {
      */
     static Thread cleanOnExit(Path dir) {
         Thread hook = new Thread(() -> {
-            // the batch's threads go on while the hook runs: sweep again after a write in flight has created its file
-            for (int i = 0; i < 3; i++) {
+            // the batch's threads go on while the hook runs: no new write starts, the writes in flight end (and
+            // remove their own temporaries), then what is left is swept
+            stopping = true;
+            for (int i = 0; i < 2; i++) {
                 try {
+                    Thread.sleep(150);
                     removeTemporaries(dir);
-                    Thread.sleep(50);
                 } catch (IOException | InterruptedException | RuntimeException e) {
                     return;
                 }
