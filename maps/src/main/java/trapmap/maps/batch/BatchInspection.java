@@ -227,7 +227,15 @@ public final class BatchInspection {
     private RunManifest prepare(List<Path> files, Path outDir, Options options) throws IOException {
         java.time.Instant now = java.time.Instant.now();
         RunManifest manifest = RunManifest.start(source, rules.physics(), files, options.thumbnails(), now);
-        RunManifest earlier = RunManifest.read(outDir);
+        RunManifest earlier;
+        try {
+            earlier = RunManifest.read(outDir);
+        } catch (IOException e) {
+            if (options.resume()) {
+                throw new RunRefusedException("--resume: " + e.getMessage() + "; use a new --out or --overwrite");
+            }
+            earlier = null; // refused below unless --overwrite, which removes it
+        }
         List<Path> results = OutputFolder.results(outDir);
         if (options.resume()) {
             if (earlier == null && !results.isEmpty()) {

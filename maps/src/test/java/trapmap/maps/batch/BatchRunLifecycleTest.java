@@ -146,6 +146,19 @@ class BatchRunLifecycleTest {
     }
 
     @Test
+    void aBrokenRunRecordRefusesResumeAndOverwriteReplacesIt() throws Exception {
+        List<Path> files = maps();
+        Path out = dir.resolve("out");
+        batch(SOURCE_A).run(files, out, options(false, false));
+        Files.writeString(out.resolve(RunManifest.FILE_NAME), "{\"format\": \"trapmap-run/1\", \"state\": ");
+        assertThatThrownBy(() -> batch(SOURCE_A).run(files, out, options(true, false)))
+                .isInstanceOf(RunRefusedException.class)
+                .hasMessageContaining(out.resolve(RunManifest.FILE_NAME) + ": not a run record");
+        assertThat(batch(SOURCE_A).run(files, out, options(false, true)).total()).isEqualTo(4);
+        assertThat(RunManifest.read(out).state()).isEqualTo(RunManifest.State.COMPLETE);
+    }
+
+    @Test
     void resumeTriesErrorRowsAgain() throws Exception {
         List<Path> files = maps();
         Path out = dir.resolve("out");
