@@ -32,6 +32,9 @@ import trapmap.shared.progress.ProgressListener;
  * Inspects many wafer maps against one set of {@link Rules} and writes the results into an output folder:
  *
  * <ul>
+ *   <li>{@code run.json}: the run record ({@link RunManifest}), written first and recorded complete last; the run
+ *       holds the folder locked ({@link RunLock}) and a failed write into it stops the batch
+ *       ({@link BatchOutputException}).</li>
  *   <li>{@code results.csv}: one row per wafer, in input order (rows kept from a resumed run first). The rows are
  *       written and flushed one by one to {@code results.csv.partial}, which is moved onto {@code results.csv} when
  *       the batch is complete; an interrupted batch leaves the partial file, which a resumed run reads too.</li>
