@@ -134,8 +134,14 @@ final class InspectCommand implements Callable<Integer> {
             if (System.console() != null) {
                 err.println();
             }
-            err.println(spec.qualifiedName() + ": --out " + out + ": output could not be written: " + e.getMessage()
-                    + "; the batch stopped, what was written stays and --resume continues from it");
+            if (e.stopped()) {
+                err.println(spec.qualifiedName() + ": stopped; the run in --out " + out + " is unfinished and"
+                        + " --resume continues it");
+            } else {
+                err.println(spec.qualifiedName() + ": --out " + out + ": output could not be written: "
+                        + e.getMessage() + "; the batch stopped, what was written stays and --resume continues from"
+                        + " it");
+            }
             err.flush();
             return Exit.OUTPUT_NOT_WRITTEN;
         }

@@ -15,6 +15,8 @@ import java.nio.file.Path;
  * a wafer's failure: the batch stops, what was written stays, and a resumed run continues from it.
  */
 public final class BatchOutputException extends IOException {
+    /** The reason of a write refused because the program is being stopped (SIGTERM, Ctrl-C). */
+    static final String STOPPED = "the program is being stopped";
     private final transient Path file;
     private final String reason;
 
@@ -32,6 +34,11 @@ public final class BatchOutputException extends IOException {
     /** Why, in a few words ("No space left on device", "permission denied"). */
     public String reason() {
         return reason;
+    }
+
+    /** Whether the write was refused because the program is being stopped, not because of the folder. */
+    public boolean stopped() {
+        return STOPPED.equals(reason);
     }
 
     /** {@code e} itself when it already is one, else {@code e} as the failure to write {@code file}. */

@@ -58,7 +58,7 @@ final class OutputFolder {
 
     static void check(Path file) throws IOException {
         if (stopping) {
-            throw new IOException("the program is being stopped");
+            throw new IOException(BatchOutputException.STOPPED);
         }
         Fault f = fault;
         if (f != null) {
