@@ -12,6 +12,11 @@ final class Exit {
     static final int INVALID_INPUT = 2;
     /** An unexpected internal error. */
     static final int INTERNAL_ERROR = 3;
+    /**
+     * A batch's output could not be written (disk full, no permission): the batch stopped; what was written stays
+     * and {@code inspect --resume} continues from it.
+     */
+    static final int OUTPUT_NOT_WRITTEN = 4;
 
     private Exit() {
     }

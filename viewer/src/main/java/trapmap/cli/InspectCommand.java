@@ -17,9 +17,12 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import trapmap.maps.batch.BatchInspection;
+import trapmap.maps.batch.BatchOutputException;
 import trapmap.maps.batch.IronPairRules;
 import trapmap.maps.batch.Rules;
 import trapmap.maps.batch.RulesException;
+import trapmap.maps.batch.RunManifest;
+import trapmap.maps.batch.RunRefusedException;
 import trapmap.shared.progress.ProgressListener;
 import trapmap.viewer.report.BatchReport;
 
@@ -36,8 +39,13 @@ import trapmap.viewer.report.BatchReport;
                 + " per wafer with its flagged regions outlined (thumbnails/). A file that cannot be read gives an"
                 + " 'error' row; the batch goes on.",
             ""},
-        footer = {"", "Exit codes: 0 all wafers pass; 1 some wafers fail or could not be read; 2 invalid input"
-                + " (rules file, options, no input files); 3 internal error."})
+        footer = {"", "DIR/run.json records the run (version, rules and physics hashes, inputs, state running,"
+                + " finishing or complete); a run holds DIR locked until it ends.",
+            "", "Exit codes: 0 all wafers pass; 1 some wafers fail or could not be read; 2 invalid input"
+                + " (rules file, options, no input files) or DIR refused (in use by another run, holds other"
+                + " results, or --resume with other rules, physics, inputs or version); 3 internal error;"
+                + " 4 output could not be written to DIR (disk full, no permission): what was written stays,"
+                + " --resume continues."})
 final class InspectCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
@@ -57,8 +65,14 @@ final class InspectCommand implements Callable<Integer> {
             description = "Maps inspected at once (each worker holds one map). Default: the number of processors.")
     Integer threads;
 
-    @Option(names = "--resume", description = "Skip files already listed in DIR/results.csv and keep their rows.")
+    @Option(names = "--resume", description = "Continue the run recorded in DIR/run.json: skip files already listed"
+            + " in DIR/results.csv and keep their rows (error rows are tried again). Refused when the rules, physics"
+            + " settings, input files, thumbnails or program version differ.")
     boolean resume;
+
+    @Option(names = "--overwrite", description = "DIR holds another run's results: remove them (only trapmap's own"
+            + " files) and start anew. Without it (and without --resume) such a DIR is refused.")
+    boolean overwrite;
 
     @Option(names = "--thumbnails", negatable = true, defaultValue = "true", fallbackValue = "true",
             description = "Write DIR/thumbnails/FILE.png with the flagged regions outlined (default; --no-thumbnails"
@@ -77,6 +91,10 @@ final class InspectCommand implements Callable<Integer> {
         int n = threads == null ? Runtime.getRuntime().availableProcessors() : threads;
         if (n < 1 || n > 256) {
             throw new InputException("--threads must be in [1, 256] (got " + n + ")");
+        }
+        if (resume && overwrite) {
+            throw new InputException("--resume and --overwrite exclude each other: --resume continues the run in"
+                    + " --out, --overwrite replaces it");
         }
         Rules rules;
         IronPairRules ironPairs;
@@ -98,20 +116,41 @@ final class InspectCommand implements Callable<Integer> {
         }
         PrintWriter err = spec.commandLine().getErr();
         ProgressListener progress = System.console() != null ? bar(err) : lines(err);
-        BatchInspection.Summary s = new BatchInspection(rules).withIron(ironPairs).run(files, out,
-                new BatchInspection.Options(n, resume, thumbnails, progress));
+        RunManifest.Source source;
+        try {
+            source = RunManifest.Source.of(TrapmapCommand.VERSION, rulesFile);
+        } catch (IOException e) {
+            throw new InputException("--rules " + rulesFile + ": cannot be read (" + e.getMessage() + ")");
+        }
+        Rules judged = rules;
+        BatchInspection.Summary s;
+        try {
+            s = new BatchInspection(rules).withIron(ironPairs).withSource(source)
+                    .finishingWith(dir -> BatchReport.writeFor(dir, judged))
+                    .run(files, out, new BatchInspection.Options(n, resume, thumbnails, progress, overwrite));
+        } catch (RunRefusedException e) {
+            throw new InputException(e.getMessage());
+        } catch (BatchOutputException e) {
+            if (System.console() != null) {
+                err.println();
+            }
+            if (e.stopped()) {
+                err.println(spec.qualifiedName() + ": stopped; the run in --out " + out + " is unfinished and"
+                        + " --resume continues it");
+            } else {
+                err.println(spec.qualifiedName() + ": --out " + out + ": output could not be written: "
+                        + e.getMessage() + "; the batch stopped, what was written stays and --resume continues from"
+                        + " it");
+            }
+            err.flush();
+            return Exit.OUTPUT_NOT_WRITTEN;
+        }
         if (System.console() != null) {
             err.println();
             err.flush();
         }
         Path pdf = out.resolve(BatchReport.FILE_NAME);
-        boolean pdfWritten = false;
-        try {
-            BatchReport.writeFor(out, rules);
-            pdfWritten = true;
-        } catch (IOException | RuntimeException e) {
-            err.println("inspect: " + out.resolve(BatchReport.FILE_NAME) + " not written: " + e.getMessage());
-        }
+        boolean pdfWritten = true;
         PrintWriter o = spec.commandLine().getOut();
         if (json) {
             Map<String, Object> m = new LinkedHashMap<>();

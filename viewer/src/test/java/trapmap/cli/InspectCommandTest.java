@@ -124,16 +124,21 @@ class InspectCommandTest {
     }
 
     @Test
-    void resumeSkipsListedFiles() throws Exception {
+    void resumeSkipsListedFilesAndTriesErrorRowsAgain() throws Exception {
         Path in = folder(false);
         Path out = dir.resolve("out");
-        Cli.run("inspect", in.resolve("w1.tif").toString(), "--rules", rules(RULES).toString(), "--out",
+        Path w3 = in.resolve("w3.tif");
+        Files.write(w3, new byte[] {1, 2, 3});
+        Cli.Run first = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out",
                 out.toString());
+        assertThat(first.out()).contains("3 wafers: 2 pass, 0 fail, 1 error");
+        Files.delete(w3);
+        wafer(in, "w3", false);
         Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out", out.toString(),
                 "--resume");
         assertThat(r.code()).isZero();
-        assertThat(r.out()).contains("2 wafers: 2 pass").contains("(1 kept from the previous run)");
-        assertThat(r.errLines()).containsExactly("inspect: 1/1 " + in.resolve("w2.tif"));
+        assertThat(r.out()).contains("3 wafers: 3 pass").contains("(2 kept from the previous run)");
+        assertThat(r.errLines()).containsExactly("inspect: 1/1 " + w3);
     }
 
     @Test

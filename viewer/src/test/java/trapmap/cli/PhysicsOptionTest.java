@@ -38,10 +38,11 @@ class PhysicsOptionTest {
 
     private JsonNode inspect(Path rules, String... extra) throws Exception {
         Path out = dir.resolve("report-" + extra.length);
-        String[] args = new String[6 + extra.length];
-        String[] base = {"inspect", MAP.toString(), "--rules", rules.toString(), "--out", out.toString()};
-        System.arraycopy(base, 0, args, 0, 6);
-        System.arraycopy(extra, 0, args, 6, extra.length);
+        String[] args = new String[7 + extra.length];
+        String[] base = {"inspect", MAP.toString(), "--rules", rules.toString(), "--out", out.toString(),
+            "--overwrite"};
+        System.arraycopy(base, 0, args, 0, 7);
+        System.arraycopy(extra, 0, args, 7, extra.length);
         Cli.Run r = Cli.run(args);
         assertThat(r.code()).as(r.err()).isIn(0, 1);
         return Cli.parse(Files.readString(out.resolve("results.json")));

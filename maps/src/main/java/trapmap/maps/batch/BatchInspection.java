@@ -2,9 +2,9 @@ package trapmap.maps.batch;
 
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
-import java.io.BufferedWriter;
 import java.io.IOException;
 import java.io.Reader;
+import java.io.Writer;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -33,6 +33,9 @@ import trapmap.shared.progress.ProgressListener;
  * Inspects many wafer maps against one set of {@link Rules} and writes the results into an output folder:
  *
  * <ul>
+ *   <li>{@code run.json}: the run record ({@link RunManifest}), written first and recorded complete last; the run
+ *       holds the folder locked ({@link RunLock}) and a failed write into it stops the batch
+ *       ({@link BatchOutputException}).</li>
  *   <li>{@code results.csv}: one row per wafer, in input order (rows kept from a resumed run first). The rows are
  *       written and flushed one by one to {@code results.csv.partial}, which is moved onto {@code results.csv} when
  *       the batch is complete; an interrupted batch leaves the partial file, which a resumed run reads too.</li>
@@ -81,14 +84,31 @@ public final class BatchInspection {
      * @param resume     skip files already listed in an existing results file and keep their rows
      * @param thumbnails write a thumbnail per wafer
      * @param progress   told after each wafer (done, total, file name)
+     * @param overwrite  a new run (not {@code resume}) into a folder holding another run's results first removes
+     *                   them (only the batch's own files); without it such a folder is refused
      */
-    public record Options(int threads, boolean resume, boolean thumbnails, ProgressListener progress) {
+    public record Options(int threads, boolean resume, boolean thumbnails, ProgressListener progress,
+                         boolean overwrite) {
         public Options {
             if (threads < 1) {
                 throw new IllegalArgumentException("threads must be >= 1 but was " + threads);
             }
+            if (resume && overwrite) {
+                throw new IllegalArgumentException("resume and overwrite exclude each other");
+            }
             progress = progress == null ? ProgressListener.NONE : progress;
         }
+
+        /** Without overwrite. */
+        public Options(int threads, boolean resume, boolean thumbnails, ProgressListener progress) {
+            this(threads, resume, thumbnails, progress, false);
+        }
+    }
+
+    /** The last step of a run, before it is recorded complete: the summary, written from the finished folder. */
+    @FunctionalInterface
+    public interface Finisher {
+        void finish(Path outDir) throws IOException;
     }
 
     /**
@@ -120,6 +140,10 @@ public final class BatchInspection {
     private IronPairRules iron;
     /** Heap the workers may hold at once, bytes; negative: {@link MemoryBudget#ofThisHeap()}. */
     private long memoryBudgetBytes = -1;
+    /** Program version and rules file, for the run record. */
+    private RunManifest.Source source = RunManifest.Source.UNKNOWN;
+    /** The summary step, null for none. */
+    private Finisher finisher;
 
     public BatchInspection(Rules rules) {
         this(rules, MapFiles::readSingle);
@@ -150,6 +174,21 @@ public final class BatchInspection {
         return this;
     }
 
+    /** Records the program version and the rules file in the run record ({@link RunManifest}). Returns this batch. */
+    public BatchInspection withSource(RunManifest.Source s) {
+        this.source = s == null ? RunManifest.Source.UNKNOWN : s;
+        return this;
+    }
+
+    /**
+     * Runs {@code f} (the summary) after the results are complete and before the run is recorded complete, while
+     * the batch still holds its folder. Returns this batch.
+     */
+    public BatchInspection finishingWith(Finisher f) {
+        this.finisher = f;
+        return this;
+    }
+
     /** The CSV columns for these rules. */
     public static List<String> columns(Rules rules) {
         List<String> c = new ArrayList<>(List.of("file", "wafer_id", "status", "grade", "profile", "defect"));
@@ -161,9 +200,92 @@ public final class BatchInspection {
         return c;
     }
 
-    /** Runs the batch over {@code files} and writes the results into {@code outDir}. */
+    /**
+     * Runs the batch over {@code files} and writes the results into {@code outDir}: takes the folder
+     * ({@link RunLock}), checks it (a resumed run only continues a run with the same record, a new run only starts
+     * in a folder without another run's results or with {@code overwrite}), records the run as running
+     * ({@link RunManifest}), inspects, writes the tables, recurrence files and {@code results.json}, records
+     * finishing, runs the {@linkplain #finishingWith finisher}, and records the run complete.
+     *
+     * @throws RunRefusedException  the folder is held by another run, holds another run's results, or its record
+     *                              differs from this run's (resume); nothing was written
+     * @throws BatchOutputException a file of the folder could not be written; what was written stays, the record
+     *                              says running (or finishing), and a resumed run continues
+     * @throws InterruptedException the calling thread was interrupted; as above
+     */
     public Summary run(List<Path> files, Path outDir, Options options) throws IOException, InterruptedException {
-        Files.createDirectories(outDir);
+        OutputFolder.write(outDir, () -> Files.createDirectories(outDir));
+        try (RunLock lock = RunLock.acquire(outDir)) {
+            RunManifest manifest = prepare(files, outDir, options);
+            Thread hook = OutputFolder.cleanOnExit(outDir);
+            try {
+                manifest.write(outDir);
+                Summary s = inspectAll(files, outDir, options);
+                manifest = manifest.with(RunManifest.State.FINISHING, null);
+                manifest.write(outDir);
+                if (finisher != null) {
+                    finisher.finish(outDir);
+                }
+                manifest.with(RunManifest.State.COMPLETE, java.time.Instant.now()).write(outDir);
+                return s;
+            } catch (IOException e) {
+                throw BatchOutputException.of(outDir, e);
+            } finally {
+                OutputFolder.release(hook);
+            }
+        }
+    }
+
+    /**
+     * Checks the folder for this run and returns the run's record: a resumed run's record keeps the first start;
+     * a new run into a folder of another run's results removes them ({@code overwrite}) or is refused. Stale
+     * temporaries of an interrupted write are removed.
+     */
+    private RunManifest prepare(List<Path> files, Path outDir, Options options) throws IOException {
+        java.time.Instant now = java.time.Instant.now();
+        RunManifest manifest = RunManifest.start(source, rules.physics(), files, options.thumbnails(), now);
+        RunManifest earlier;
+        try {
+            earlier = RunManifest.read(outDir);
+        } catch (IOException e) {
+            if (options.resume()) {
+                throw new RunRefusedException("--resume: " + e.getMessage() + "; use a new --out or --overwrite");
+            }
+            earlier = null; // refused below unless --overwrite, which removes it
+        }
+        List<Path> results = OutputFolder.results(outDir);
+        if (options.resume()) {
+            if (earlier == null && !results.isEmpty()) {
+                throw new RunRefusedException("--resume: " + outDir + " holds results without a "
+                        + RunManifest.FILE_NAME + " (made before runs were recorded, or not by inspect), so they"
+                        + " cannot be checked; use a new --out or --overwrite");
+            }
+            if (earlier != null) {
+                List<String> d = earlier.differences(manifest);
+                if (!d.isEmpty()) {
+                    throw new RunRefusedException("--resume: " + outDir + " was run with " + String.join(", ", d)
+                            + "; use a new --out or --overwrite");
+                }
+                manifest = manifest.resumedFrom(earlier, now);
+            }
+            OutputFolder.removeTemporaries(outDir);
+        } else if (!results.isEmpty()) {
+            if (!options.overwrite()) {
+                throw new RunRefusedException(outDir + " already holds the results of "
+                        + (earlier == null ? "an earlier run" : earlier.state() == RunManifest.State.COMPLETE
+                        ? "a run of " + earlier.started() : "an unfinished run of " + earlier.started())
+                        + " (" + results.get(0).getFileName() + (results.size() > 1 ? " and " + (results.size() - 1)
+                        + " more" : "") + "); use --resume to continue it, --overwrite to replace it, or a new --out");
+            }
+            OutputFolder.clean(outDir);
+        } else {
+            OutputFolder.removeTemporaries(outDir);
+        }
+        return manifest;
+    }
+
+    private Summary inspectAll(List<Path> files, Path outDir, Options options) throws IOException,
+            InterruptedException {
         List<String> columns = new ArrayList<>(columns(rules));
         IronPairs pairs = iron == null ? null : new IronPairs(iron, rules, reader, files);
         Map<String, Map<String, String>> ironColumns = new java.util.concurrent.ConcurrentHashMap<>();
@@ -186,6 +308,7 @@ public final class BatchInspection {
             readRegionRows(regionsPartial, keptRegions);
             FootprintStore.read(footprints, keptFootprints, BatchInspection::key);
             FootprintStore.read(footprintsPartial, keptFootprints, BatchInspection::key);
+            kept.values().removeIf(r -> WaferResult.Status.ERROR.key().equals(r.get("status"))); // tried again
         }
         List<Path> todo = new ArrayList<>();
         int skipped = 0;
@@ -196,7 +319,10 @@ public final class BatchInspection {
                 todo.add(f);
             }
         }
-        Path thumbs = options.thumbnails() ? Files.createDirectories(outDir.resolve(THUMBNAIL_DIR)) : null;
+        Path thumbs = options.thumbnails() ? outDir.resolve(THUMBNAIL_DIR) : null;
+        if (thumbs != null) {
+            OutputFolder.write(thumbs, () -> Files.createDirectories(thumbs));
+        }
         List<Map<String, String>> rows = new ArrayList<>(kept.values());
         RecurrenceMap recurrence = new RecurrenceMap();
         int threads = Math.max(1, Math.min(options.threads(), todo.size()));
@@ -208,13 +334,13 @@ public final class BatchInspection {
         Path tmpPartial = outDir.resolve(PARTIAL_NAME + ".new");
         Path tmpFootprints = outDir.resolve(FOOTPRINTS_NAME + ".new");
         Path tmpRegions = outDir.resolve(REGIONS_NAME + ".new");
-        try (BufferedWriter w = Files.newBufferedWriter(tmpPartial, StandardCharsets.UTF_8);
-             BufferedWriter rw = Files.newBufferedWriter(tmpRegions, StandardCharsets.UTF_8);
+        try (Writer w = OutputFolder.writer(tmpPartial);
+             Writer rw = OutputFolder.writer(tmpRegions);
              CSVPrinter rout = new CSVPrinter(rw, CSVFormat.DEFAULT.builder().setHeader(REGION_COLUMNS.toArray(
                      String[]::new)).build());
              CSVPrinter out = new CSVPrinter(w, CSVFormat.DEFAULT.builder().setHeader(columns.toArray(
                      String[]::new)).build());
-             BufferedWriter fw = Files.newBufferedWriter(tmpFootprints, StandardCharsets.UTF_8);
+             Writer fw = OutputFolder.writer(tmpFootprints);
              CSVPrinter fout = new CSVPrinter(fw, CSVFormat.DEFAULT.builder().setHeader(
                      FootprintStore.COLUMNS).build())) {
             for (Map<String, String> row : rows) {
@@ -231,11 +357,9 @@ public final class BatchInspection {
             out.flush();
             fout.flush();
             rout.flush();
-            Files.move(tmpPartial, partial, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
-            Files.move(tmpRegions, regionsPartial, StandardCopyOption.REPLACE_EXISTING,
-                    StandardCopyOption.ATOMIC_MOVE);
-            Files.move(tmpFootprints, footprintsPartial, StandardCopyOption.REPLACE_EXISTING,
-                    StandardCopyOption.ATOMIC_MOVE);
+            move(tmpPartial, partial);
+            move(tmpRegions, regionsPartial);
+            move(tmpFootprints, footprintsPartial);
             Deque<Future<WaferResult>> pending = new ArrayDeque<>();
             Iterator<Path> next = todo.iterator();
             MemoryBudget memory = memoryBudgetBytes < 0 ? MemoryBudget.ofThisHeap()
@@ -257,6 +381,9 @@ public final class BatchInspection {
                 try {
                     r = pending.removeFirst().get();
                 } catch (ExecutionException e) {
+                    if (e.getCause() instanceof BatchOutputException.Unchecked u) {
+                        throw u.getCause(); // a thumbnail that could not be written: the output's failure
+                    }
                     throw new IllegalStateException("inspection failed unexpectedly", e.getCause());
                 }
                 if (r.footprint() != null) {
@@ -287,10 +414,9 @@ public final class BatchInspection {
             Files.deleteIfExists(tmpFootprints);
             Files.deleteIfExists(tmpRegions);
         }
-        Files.move(footprintsPartial, footprints, StandardCopyOption.REPLACE_EXISTING,
-                StandardCopyOption.ATOMIC_MOVE);
-        Files.move(regionsPartial, regionsCsv, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
-        Files.move(partial, csv, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+        move(footprintsPartial, footprints);
+        move(regionsPartial, regionsCsv);
+        move(partial, csv);
 
         int pass = 0;
         int fail = 0;
@@ -308,19 +434,27 @@ public final class BatchInspection {
         for (Map.Entry<String, Recurrence> e : recurrence.families().entrySet()) {
             String stem = "recurrence-" + e.getKey().replaceAll("[^A-Za-z0-9._-]", "_");
             Path tif = outDir.resolve(stem + ".tif");
-            MapFiles.write(e.getValue().fraction(), tif);
+            OutputFolder.write(tif, () -> MapFiles.write(e.getValue().fraction(), tif));
             Path png = outDir.resolve(stem + ".png");
-            RecurrencePicture.write(e.getValue(), HotSpots.find(e.getValue(), HotSpots.Criteria.DEFAULT), png);
+            OutputFolder.write(png, () -> RecurrencePicture.write(e.getValue(),
+                    HotSpots.find(e.getValue(), HotSpots.Criteria.DEFAULT), png));
             written.add(tif);
             written.add(png);
             families.append(CSVFormat.DEFAULT.format(CsvCells.text(e.getKey()), wafersPerFamily.get(e.getKey()),
                             CsvCells.text(stem + ".tif")))
                     .append('\n');
         }
-        AtomicFiles.write(outDir.resolve(RECURRENCE_NAME), families.toString().getBytes(StandardCharsets.UTF_8));
+        Path recurrenceCsv = outDir.resolve(RECURRENCE_NAME);
+        OutputFolder.write(recurrenceCsv, () -> AtomicFiles.write(recurrenceCsv,
+                families.toString().getBytes(StandardCharsets.UTF_8)));
         Summary summary = new Summary(pass, fail, error, skipped, csv, outDir.resolve(JSON_NAME), written);
         writeJson(summary, columns, rows);
         return summary;
+    }
+
+    private static void move(Path from, Path to) throws BatchOutputException {
+        OutputFolder.write(to, () -> Files.move(from, to, StandardCopyOption.REPLACE_EXISTING,
+                StandardCopyOption.ATOMIC_MOVE));
     }
 
     private static String key(String file) {
@@ -462,8 +596,14 @@ public final class BatchInspection {
         root.put("wafers", wafers);
         Path target = s.json();
         Path tmp = target.resolveSibling(JSON_NAME + ".tmp");
-        new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValue(tmp.toFile(), root);
-        Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+        try {
+            OutputFolder.write(target, () -> {
+                new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValue(tmp.toFile(), root);
+                Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+            });
+        } finally {
+            Files.deleteIfExists(tmp);
+        }
     }
 
     private static boolean numeric(String column) {

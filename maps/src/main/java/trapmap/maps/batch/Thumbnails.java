@@ -118,11 +118,17 @@ public final class Thumbnails {
         BufferedImage img = thumbnail(map, flagged, lowUs, highUs);
         Path tmp = file.resolveSibling(file.getFileName() + ".tmp");
         try {
-            PngFiles.write(img, tmp);
-            java.nio.file.Files.move(tmp, file, java.nio.file.StandardCopyOption.REPLACE_EXISTING,
-                    java.nio.file.StandardCopyOption.ATOMIC_MOVE);
-        } catch (IOException e) {
-            throw new java.io.UncheckedIOException("thumbnail " + file + ": " + e.getMessage(), e);
+            OutputFolder.write(file, () -> {
+                try {
+                    PngFiles.write(img, tmp);
+                    java.nio.file.Files.move(tmp, file, java.nio.file.StandardCopyOption.REPLACE_EXISTING,
+                            java.nio.file.StandardCopyOption.ATOMIC_MOVE);
+                } finally {
+                    java.nio.file.Files.deleteIfExists(tmp);
+                }
+            });
+        } catch (BatchOutputException e) {
+            throw new BatchOutputException.Unchecked(e); // the output folder's failure, never the wafer's
         }
     }
 }

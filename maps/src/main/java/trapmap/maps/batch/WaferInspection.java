@@ -91,6 +91,8 @@ public final class WaferInspection {
         }
         try {
             return evaluate(name, map, thumbnail);
+        } catch (BatchOutputException.Unchecked e) {
+            throw e; // the thumbnail could not be written: the output folder's failure, not the wafer's
         } catch (RuntimeException e) {
             return WaferResult.error(name, name + ": " + describe(e));
         }

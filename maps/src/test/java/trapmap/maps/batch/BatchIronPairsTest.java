@@ -33,7 +33,7 @@ class BatchIronPairsTest {
         String text = String.format(RULES, medianMax);
         BatchInspection b = new BatchInspection(Rules.parse(text, "r.json"))
                 .withIron(IronPairRules.parse(text, "r.json").orElseThrow());
-        b.run(files, dir, new BatchInspection.Options(1, false, false, ProgressListener.NONE));
+        b.run(files, dir, new BatchInspection.Options(1, false, false, ProgressListener.NONE, true));
         Map<String, CSVRecord> rows = new HashMap<>();
         try (Reader r = Files.newBufferedReader(dir.resolve(BatchInspection.CSV_NAME))) {
             for (CSVRecord rec : CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).get().parse(r)) {

@@ -18,6 +18,7 @@ import trapmap.maps.io.CsvCells;
 import trapmap.maps.batch.HotSpots;
 import trapmap.maps.batch.RecurrenceMap;
 import trapmap.maps.batch.Rules;
+import trapmap.maps.batch.RunManifest;
 
 /**
  * Reads a finished batch's output folder into a {@link BatchContent}: the rows of {@code results.csv} (so that rows
@@ -30,7 +31,12 @@ final class BatchFolder {
     private BatchFolder() {
     }
 
+    /**
+     * @throws IOException when the folder's run record ({@link RunManifest}) is missing, says the run is unfinished,
+     *                     or names other physics settings than {@code rules}'
+     */
     static BatchContent read(Path outputDir, Rules rules) throws IOException {
+        RunManifest.requireResults(outputDir, rules.physics());
         Path csv = outputDir.resolve(BatchInspection.CSV_NAME);
         List<BatchContent.Row> rows = new ArrayList<>();
         try (Reader r = Files.newBufferedReader(csv, StandardCharsets.UTF_8);

@@ -31,7 +31,10 @@ public final class BatchReport {
     private BatchReport() {
     }
 
-    /** Reads the results of a finished batch from its output folder. */
+    /**
+     * Reads the results of a finished batch from its output folder; refused (an {@code IOException} saying why) when
+     * the folder's {@code run.json} is missing, says the run is unfinished, or names other physics settings.
+     */
     public static BatchContent read(Path outputDir, Rules rules) throws IOException {
         return BatchFolder.read(outputDir, rules);
     }
