@@ -44,15 +44,15 @@ class BatchCsvCellsTest {
         Rules rules = Rules.parse("{\"flag\": {\"quantity\": \"lifetime\", \"threshold\": 10, \"min_area_mm2\": 1},"
                 + " \"limits\": {\"flagged_area_fraction\": {\"max\": 0.001}}}", "rules.json");
         Path out = dir.resolve("out");
-        BatchInspection.Options fresh = new BatchInspection.Options(1, false, false, ProgressListener.NONE);
-        new BatchInspection(rules).run(List.of(evil, minus), out, fresh);
+        // a run stopped after two wafers: its rows are in the partial table, which a resumed run reads back
+        BatchInspectionTest.interruptedAfter(new BatchInspection(rules), List.of(evil, minus, plain), out, 2);
 
-        List<CSVRecord> first = csv(out.resolve(BatchInspection.CSV_NAME));
+        List<CSVRecord> first = csv(out.resolve(BatchInspection.PARTIAL_NAME));
         // the file column holds the whole path: it starts with the folder, so it stays as it is
         assertThat(first.get(0).get("file")).isEqualTo(evil.toString()).startsWith("/");
         assertThat(first.get(0).get("wafer_id")).isEqualTo("'" + DDE);
         assertThat(first.get(1).get("wafer_id")).isEqualTo("'-2+3");
-        List<CSVRecord> regions = csv(out.resolve(BatchInspection.REGIONS_NAME));
+        List<CSVRecord> regions = csv(out.resolve(BatchInspection.REGIONS_NAME + ".partial"));
         assertThat(regions).extracting(r -> r.get("wafer_id")).containsExactly("'" + DDE);
         assertThat(regions.get(0).get("file")).isEqualTo(evil.toString());
 
