@@ -153,4 +153,16 @@ class SessionFilesTest {
         assertThat(restored.wafer(1).view()).isEqualTo(new ViewState(3, 50, 60));
         assertThat(restored.canUndo()).isFalse();
     }
+
+    @Test
+    void theSessionFuzzSeedsAreSessions() throws Exception {
+        Path seeds = Path.of(getClass().getResource("SessionReaderJazzerTestInputs/readSession").toURI());
+        try (var files = Files.list(seeds)) {
+            List<Path> valid = files.filter(p -> !p.getFileName().toString().startsWith("crash-")).toList();
+            assertThat(valid).hasSizeGreaterThanOrEqualTo(2);
+            for (Path seed : valid) {
+                assertThat(SessionFiles.read(seed)).as(seed.toString()).isNotNull();
+            }
+        }
+    }
 }
