@@ -3,6 +3,7 @@ package trapmap.maps.io;
 import java.io.IOException;
 import java.io.InputStream;
 import java.nio.file.Files;
+import java.nio.file.LinkOption;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.nio.file.attribute.BasicFileAttributes;
@@ -33,7 +34,8 @@ import trapmap.maps.model.WaferMap;
  *
  * <p>Reading never changes the input files. Every reading failure — missing, truncated, malformed, unsupported or
  * above the limits of {@link ReadOptions} — is a {@link MapFormatException} naming file, place and unit; limits are
- * checked from headers before memory is allocated. Writing is atomic: a temporary file in the same directory is
+ * checked from headers before memory is allocated. A directory, FIFO, device or dangling link is refused from its attributes,
+ * without being opened (a FIFO would block). Writing is atomic: a temporary file in the same directory is
  * renamed over the target.
  */
 public final class MapFiles {
@@ -182,6 +184,10 @@ public final class MapFiles {
         try {
             attrs = Files.readAttributes(file, BasicFileAttributes.class);
         } catch (NoSuchFileException e) {
+            if (Files.isSymbolicLink(file)) {
+                throw new MapFormatException(name, null, "is a dangling link to " + Files.readSymbolicLink(file)
+                        + " (no such file)", "", e);
+            }
             throw new MapFormatException(name, null, "no such file", "", e);
         }
         if (attrs.isDirectory()) {
@@ -225,6 +231,10 @@ public final class MapFiles {
         String sidecarName = sidecarPath.toString();
         if (!extension(file).equals(".json") && Files.isRegularFile(sidecarPath)) {
             sidecar = Sidecar.read(sidecarPath);
+        } else if (!extension(file).equals(".json") && Files.exists(sidecarPath, LinkOption.NOFOLLOW_LINKS)) {
+            throw new MapFormatException(sidecarName, null, Files.isDirectory(sidecarPath)
+                    ? "is a directory, not a sidecar file" : Files.exists(sidecarPath) ? "is not a regular file"
+                    : "is a dangling link to " + Files.readSymbolicLink(sidecarPath) + " (no such sidecar file)");
         }
         String source = file.getFileName().toString();
         String stem = stem(source);
