@@ -34,9 +34,9 @@ import trapmap.maps.model.WaferMap;
  *
  * <p>Reading never changes the input files. Every reading failure — missing, truncated, malformed, unsupported or
  * above the limits of {@link ReadOptions} — is a {@link MapFormatException} naming file, place and unit; limits are
- * checked from headers before memory is allocated. A directory, FIFO, device or dangling link is refused from its attributes,
- * without being opened (a FIFO would block). Writing is atomic: a temporary file in the same directory is
- * renamed over the target.
+ * checked from headers before memory is allocated. A directory, FIFO, device or dangling link (as the map or as its
+ * sidecar) is refused from its attributes, without being opened (a FIFO would block). Writing is atomic: a temporary
+ * file in the same directory is renamed over the target.
  */
 public final class MapFiles {
 
