@@ -3,6 +3,7 @@ package trapmap.cli;
 import java.io.IOException;
 import java.io.PrintWriter;
 import java.nio.file.Files;
+import java.nio.file.LinkOption;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
@@ -31,13 +32,14 @@ import trapmap.viewer.report.BatchReport;
         usageHelpAutoWidth = true,
         header = "Inspects a batch of wafer maps against a rules file.",
         description = {
-            "Evaluates every map (a folder: all .tif, .tiff and .csv files in it, by name) against RULES.json:"
+            "Evaluates every map (a folder: all .tif, .tiff and .csv files in it, by name, less the --out folder and"
+                + " trapmap's own outputs) against RULES.json:"
                 + " figures over the wafer less the edge exclusion, flagged regions, pass/fail and grade. Writes"
                 + " results.csv and results.json (one row per wafer, in input order), regions.csv (one row per"
                 + " flagged region), recurrence maps of the flagged positions per wafer family (with"
                 + " recurrence.csv counting the wafers of each) and a small picture"
-                + " per wafer with its flagged regions outlined (thumbnails/). A file that cannot be read gives an"
-                + " 'error' row; the batch goes on.",
+                + " per wafer with its flagged regions outlined (thumbnails/). A file that cannot be read (also a"
+                + " folder, FIFO, device or dangling link named like a map) gives an 'error' row; the batch goes on.",
             ""},
         footer = {"", "DIR/run.json records the run (version, rules and physics hashes, inputs, state running,"
                 + " finishing or complete); a run holds DIR locked until it ends.",
@@ -108,9 +110,6 @@ final class InspectCommand implements Callable<Integer> {
             rules = rules.withPhysics(PhysicsOption.load(physics));
         }
         List<Path> files = files(inputs, out);
-        if (files.isEmpty()) {
-            throw new InputException("no map files (.tif, .tiff, .csv) in " + inputs);
-        }
         if (Files.exists(out) && !Files.isDirectory(out)) {
             throw new InputException("--out " + out + " is a file; give a folder");
         }
@@ -177,23 +176,46 @@ final class InspectCommand implements Callable<Integer> {
         return s.pass() == s.total() ? Exit.OK : Exit.SOME_WAFERS_NOT_PASSED;
     }
 
-    /** The map files of the inputs: folders expand to their .tif/.tiff/.csv files by name; DIR's own files never. */
+    /**
+     * The map files of the inputs: folders expand to their entries named .tif/.tiff/.csv, by name, whatever kind of
+     * file they are (a folder, FIFO, device or dangling link among them becomes an error row of the batch, since the
+     * reader refuses it from its attributes without opening it); left out are the output folder {@code outDir} and a
+     * batch's own outputs ({@link BatchInspection#isOutputName}), so that {@code --out} may be the input folder or
+     * lie inside it. A file named as an argument is always taken.
+     *
+     * @throws InputException when an input does not exist, or when nothing is left
+     */
     static List<Path> files(List<Path> inputs, Path outDir) throws IOException {
         Path outAbs = outDir.toAbsolutePath().normalize();
         List<Path> files = new ArrayList<>();
+        int outputs = 0;
         for (Path in : inputs) {
             if (Files.isDirectory(in)) {
+                List<Path> maps = new ArrayList<>();
                 try (Stream<Path> s = Files.list(in)) {
-                    s.filter(Files::isRegularFile).filter(InspectCommand::isMap)
-                            .filter(p -> !p.toAbsolutePath().normalize().startsWith(outAbs))
-                            .sorted((a, b) -> a.getFileName().toString().compareTo(b.getFileName().toString()))
-                            .forEach(files::add);
+                    s.filter(InspectCommand::isMap).forEach(maps::add);
                 }
-            } else if (Files.exists(in)) {
+                maps.sort((a, b) -> a.getFileName().toString().compareTo(b.getFileName().toString()));
+                for (Path p : maps) {
+                    if (p.toAbsolutePath().normalize().equals(outAbs)
+                            || BatchInspection.isOutputName(p.getFileName().toString())) {
+                        outputs++;
+                    } else {
+                        files.add(p);
+                    }
+                }
+            } else if (Files.exists(in, LinkOption.NOFOLLOW_LINKS)) {
                 files.add(in);
             } else {
                 throw new InputException("input " + in + " does not exist");
             }
+        }
+        if (files.isEmpty()) {
+            throw new InputException("no map files (.tif, .tiff, .csv) in " + inputs + (outputs == 0 ? ""
+                    : ": the " + outputs + " found " + (outputs == 1 ? "is" : "are") + " trapmap's own outputs ("
+                    + BatchInspection.CSV_NAME + ", " + BatchInspection.REGIONS_NAME + ", "
+                    + BatchInspection.RECURRENCE_PREFIX + "*.tif, ...) or the --out folder " + outDir
+                    + ", which are never inspected"));
         }
         return files;
     }

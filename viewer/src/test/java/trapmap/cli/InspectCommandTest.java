@@ -182,4 +182,85 @@ class InspectCommandTest {
         assertThat(InspectCommand.files(List.of(in), out)).containsExactly(in.resolve("a.csv"),
                 in.resolve("w1.tif"), in.resolve("w2.tif"));
     }
+
+    @Test
+    void outEqualToTheInputFolderInspectsTheMapsAndNeverReadsItsOwnOutputsBack() throws Exception {
+        Path in = folder(true);
+        for (int run = 1; run <= 2; run++) {
+            Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out", in.toString(),
+                    "--threads", "1");
+            assertThat(r.out()).as("run " + run).contains("2 wafers: 1 pass, 1 fail, 0 error");
+            assertThat(Files.readAllLines(in.resolve("results.csv"))).as("run " + run).hasSize(3);
+        }
+        try (var written = Files.list(in)) {
+            assertThat(written.map(p -> p.getFileName().toString())).contains("results.csv", "regions.csv",
+                    "footprints.csv", "recurrence.csv").anyMatch(n -> n.startsWith("recurrence-")
+                    && n.endsWith(".tif"));
+        }
+    }
+
+    @Test
+    void anOutFolderInsideTheInputFolderIsLeftOutEvenWhenNamedLikeAMap() throws Exception {
+        Path in = folder(false);
+        Path out = in.resolve("report.tif");
+        for (int run = 1; run <= 2; run++) {
+            Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out",
+                    out.toString(), "--threads", "1");
+            assertThat(r.code()).as("run " + run).isZero();
+            assertThat(r.out()).as("run " + run).contains("2 wafers: 2 pass, 0 fail, 0 error");
+        }
+    }
+
+    @Test
+    void aFolderHoldingOnlyTrapmapOutputsSaysSo() throws Exception {
+        Path in = Files.createDirectories(dir.resolve("old-report"));
+        Files.writeString(in.resolve("results.csv"), "file,status\n");
+        Files.writeString(in.resolve("regions.csv"), "file\n");
+        Files.writeString(in.resolve("recurrence-round-80.tif"), "x");
+        Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out",
+                dir.resolve("out").toString());
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.errLines()).singleElement().asString().contains("no map files").contains(in.toString())
+                .contains("the 3 found are trapmap's own outputs").contains("results.csv");
+    }
+
+    @Test
+    void foldersDevicesAndDanglingLinksNamedLikeMapsAreErrorRowsAndTheBatchGoesOn() throws Exception {
+        Path in = folder(false);
+        Files.createDirectories(in.resolve("folder.tif"));
+        Files.createSymbolicLink(in.resolve("gone.tif"), in.resolve("deleted.tif"));
+        Files.createSymbolicLink(in.resolve("device.csv"), Path.of("/dev/null"));
+        Path out = dir.resolve("out");
+        Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out", out.toString(),
+                "--threads", "2");
+        assertThat(r.code()).isEqualTo(1);
+        assertThat(r.out()).contains("5 wafers: 2 pass, 0 fail, 3 error");
+        String csv = Files.readString(out.resolve("results.csv"));
+        assertThat(csv).contains(in.resolve("folder.tif") + ": is a directory")
+                .contains(in.resolve("gone.tif") + ": is a dangling link to " + in.resolve("deleted.tif"))
+                .contains(in.resolve("device.csv") + ": is not a regular file");
+    }
+
+    @Test
+    @org.junit.jupiter.api.Timeout(120)
+    void aFifoNamedLikeAMapIsAnErrorRowAndNeverOpened() throws Exception {
+        Path in = folder(false);
+        org.junit.jupiter.api.Assumptions.assumeTrue(mkfifo(in.resolve("pipe.tif")), "mkfifo is not available");
+        Path out = dir.resolve("out");
+        Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out", out.toString(),
+                "--threads", "1");
+        assertThat(r.out()).contains("3 wafers: 2 pass, 0 fail, 1 error");
+        assertThat(Files.readString(out.resolve("results.csv")))
+                .contains(in.resolve("pipe.tif") + ": is not a regular file");
+    }
+
+    /** Makes a FIFO with mkfifo; false where there is none (the FIFO part of a test is then left out). */
+    static boolean mkfifo(Path p) throws InterruptedException {
+        try {
+            Process proc = new ProcessBuilder("mkfifo", p.toString()).redirectErrorStream(true).start();
+            return proc.waitFor() == 0 && Files.exists(p, java.nio.file.LinkOption.NOFOLLOW_LINKS);
+        } catch (java.io.IOException e) {
+            return false;
+        }
+    }
 }

@@ -69,6 +69,8 @@ public final class BatchInspection {
     public static final String THUMBNAIL_DIR = "thumbnails";
     /** One row per recurrence map: its family, the number of wafers in it and its TIFF file. */
     public static final String RECURRENCE_NAME = "recurrence.csv";
+    /** Start of the recurrence maps' file names: {@code recurrence-FAMILY.tif} and {@code .png}. */
+    public static final String RECURRENCE_PREFIX = "recurrence-";
     /** Columns of {@value #RECURRENCE_NAME}. */
     public static final List<String> RECURRENCE_COLUMNS = List.of("family", "wafers", "file");
     /**
@@ -187,6 +189,17 @@ public final class BatchInspection {
     public BatchInspection finishingWith(Finisher f) {
         this.finisher = f;
         return this;
+    }
+
+    /**
+     * True for the name of a file or folder that a batch writes into its output folder (results, regions,
+     * footprints, recurrence maps and table, thumbnails, partial and temporary files), so that a folder scanned for
+     * maps can leave a batch's own outputs out.
+     */
+    public static boolean isOutputName(String fileName) {
+        return List.of(CSV_NAME, PARTIAL_NAME, JSON_NAME, FOOTPRINTS_NAME, REGIONS_NAME, RECURRENCE_NAME,
+                THUMBNAIL_DIR).contains(fileName) || fileName.startsWith(RECURRENCE_PREFIX)
+                || fileName.endsWith(".partial") || fileName.endsWith(".new") || fileName.endsWith(".tmp");
     }
 
     /** The CSV columns for these rules. */
@@ -432,7 +445,7 @@ public final class BatchInspection {
         Map<String, Integer> wafersPerFamily = recurrence.waferCounts();
         StringBuilder families = new StringBuilder(String.join(",", RECURRENCE_COLUMNS)).append('\n');
         for (Map.Entry<String, Recurrence> e : recurrence.families().entrySet()) {
-            String stem = "recurrence-" + e.getKey().replaceAll("[^A-Za-z0-9._-]", "_");
+            String stem = RECURRENCE_PREFIX + e.getKey().replaceAll("[^A-Za-z0-9._-]", "_");
             Path tif = outDir.resolve(stem + ".tif");
             OutputFolder.write(tif, () -> MapFiles.write(e.getValue().fraction(), tif));
             Path png = outDir.resolve(stem + ".png");

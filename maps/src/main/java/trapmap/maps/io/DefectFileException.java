@@ -18,7 +18,7 @@ public class DefectFileException extends IOException {
     private final String unit;
 
     public DefectFileException(String file, String field, String unit, String message, Throwable cause) {
-        super(message, cause);
+        super(message.replace("\r", "\\r").replace("\n", "\\n"), cause); // one line, whatever a key brings in
         this.file = file;
         this.field = field;
         this.unit = unit == null ? "" : unit;

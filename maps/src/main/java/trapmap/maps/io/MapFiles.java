@@ -4,6 +4,7 @@ import java.io.IOException;
 import java.io.InputStream;
 import java.nio.file.AccessDeniedException;
 import java.nio.file.Files;
+import java.nio.file.LinkOption;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.nio.file.attribute.BasicFileAttributes;
@@ -34,8 +35,9 @@ import trapmap.maps.model.WaferMap;
  *
  * <p>Reading never changes the input files. Every reading failure — missing, truncated, malformed, unsupported or
  * above the limits of {@link ReadOptions} — is a {@link MapFormatException} naming file, place and unit; limits are
- * checked from headers before memory is allocated. Writing is atomic: a temporary file in the same directory is
- * renamed over the target.
+ * checked from headers before memory is allocated. A directory, FIFO, device or dangling link (as the map or as its
+ * sidecar) is refused from its attributes, without being opened (a FIFO would block). Writing is atomic: a temporary
+ * file in the same directory is renamed over the target.
  */
 public final class MapFiles {
 
@@ -193,6 +195,10 @@ public final class MapFiles {
         try {
             attrs = Files.readAttributes(file, BasicFileAttributes.class);
         } catch (NoSuchFileException e) {
+            if (Files.isSymbolicLink(file)) {
+                throw new MapFormatException(name, null, "is a dangling link to " + Files.readSymbolicLink(file)
+                        + " (no such file)", "", e);
+            }
             throw new MapFormatException(name, null, "no such file", "", e);
         }
         if (!attrs.isRegularFile()) { // checked before opening: opening a FIFO would wait for a writer
@@ -245,6 +251,10 @@ public final class MapFiles {
                         + " cannot be read: permission denied");
             }
             sidecar = Sidecar.read(sidecarPath);
+        } else if (!extension(file).equals(".json") && Files.exists(sidecarPath, LinkOption.NOFOLLOW_LINKS)) {
+            throw new MapFormatException(sidecarName, null, Files.isDirectory(sidecarPath)
+                    ? "is a directory, not a sidecar file" : Files.exists(sidecarPath) ? "is not a regular file"
+                    : "is a dangling link to " + Files.readSymbolicLink(sidecarPath) + " (no such sidecar file)");
         }
         String source = file.getFileName().toString();
         String stem = stem(source);

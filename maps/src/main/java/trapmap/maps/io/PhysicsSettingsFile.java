@@ -150,8 +150,12 @@ public final class PhysicsSettingsFile {
         return v;
     }
 
+    /**
+     * The message is one line: a line break that a key or value of the file brings in is shown as {@code \n} or
+     * {@code \r}.
+     */
     private static InvalidValueException error(String name, String field, String problem, String unit) {
-        return new InvalidValueException(field, unit, name + ": field '" + field + "': " + problem
-                + (unit.isEmpty() ? "" : " (" + unit + ")"));
+        return new InvalidValueException(field, unit, (name + ": field '" + field + "': " + problem
+                + (unit.isEmpty() ? "" : " (" + unit + ")")).replace("\r", "\\r").replace("\n", "\\n"));
     }
 }

@@ -214,4 +214,12 @@ class RulesTest {
         assertThat(l.holds(0.5)).isFalse();
         assertThat(l.holds(Double.NaN)).isFalse();
     }
+
+    @Test
+    void aLineBreakInAKeyStaysOnTheMessagesOneLine() {
+        assertThatThrownBy(() -> Rules.parse("{\"conditions\": {\"ov\\rride\": false}}", "r.json"))
+                .isInstanceOf(RulesException.class)
+                .hasMessageStartingWith("r.json: field 'conditions.ov\\rride': unknown key")
+                .satisfies(e -> assertThat(e.getMessage()).doesNotContain("\r").doesNotContain("\n"));
+    }
 }

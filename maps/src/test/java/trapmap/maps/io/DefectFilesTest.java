@@ -170,4 +170,12 @@ class DefectFilesTest {
     void directoryIsNotAFile() {
         assertThatThrownBy(() -> DefectFiles.read(dir)).hasMessageContaining("is a directory");
     }
+
+    @Test
+    void aLineBreakInASpreadKeyStaysOnOneLineNamingTheFileOnce() throws Exception {
+        Path f = write("nl.json", MIDGAP_GREEN.replace("\"energy_ev\": [", "\"e\\nergy_ev\": ["));
+        assertThatThrownBy(() -> DefectFiles.read(f)).isInstanceOf(DefectFileException.class)
+                .hasMessage(f + ": field 'spread.e ergy_ev' is not a known field (known: energy_ev, note,"
+                        + " sigma_n_cm2, sigma_p_cm2)");
+    }
 }

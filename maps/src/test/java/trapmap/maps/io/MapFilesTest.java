@@ -29,6 +29,25 @@ class MapFilesTest {
     }
 
     @Test
+    void danglingLinksAndDevicesAreNamedWithoutBeingOpenedForTheMapAndItsSidecar() throws Exception {
+        Path gone = Files.createSymbolicLink(dir.resolve("gone.tif"), dir.resolve("deleted.tif"));
+        assertThatThrownBy(() -> MapFiles.read(gone)).isInstanceOf(MapFormatException.class)
+                .hasMessage(gone + ": is a dangling link to " + dir.resolve("deleted.tif") + " (no such file)");
+        Path device = Files.createSymbolicLink(dir.resolve("device.csv"), Path.of("/dev/zero"));
+        assertThatThrownBy(() -> MapFiles.read(device)).hasMessage(device + ": is not a regular file");
+        Path map = dir.resolve("w.tif");
+        Files.write(map, SidecarTest.plainTiff());
+        Path sidecar = Files.createSymbolicLink(dir.resolve("w.json"), Path.of("/dev/zero")); // would never end
+        assertThatThrownBy(() -> MapFiles.read(map)).hasMessage(sidecar + ": is not a regular file");
+        Files.delete(sidecar);
+        Files.createSymbolicLink(sidecar, dir.resolve("w-old.json"));
+        assertThatThrownBy(() -> MapFiles.read(map)).hasMessage(sidecar + ": is a dangling link to "
+                + dir.resolve("w-old.json") + " (no such sidecar file)");
+        Files.delete(sidecar);
+        assertThat(MapFiles.readSingle(map).raster().samples()).containsExactly(1, 2, 3, 4);
+    }
+
+    @Test
     void unknownExtensionIsRefusedUnlessTheContentIsTiff() throws Exception {
         Path dat = dir.resolve("w.dat");
         Files.writeString(dat, "1,2\n");

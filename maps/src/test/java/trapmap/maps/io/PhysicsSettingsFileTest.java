@@ -91,4 +91,12 @@ class PhysicsSettingsFileTest {
         Path array = file("[1]");
         assertThatThrownBy(() -> PhysicsSettingsFile.read(array)).hasMessageContaining("must be a JSON object");
     }
+
+    @Test
+    void aLineBreakInAKeyStaysOnTheMessagesOneLine() throws Exception {
+        Path f = file("{\"detection\\nresolution\": 0.1}");
+        assertThatThrownBy(() -> PhysicsSettingsFile.read(f)).isInstanceOf(InvalidValueException.class)
+                .hasMessageStartingWith(f + ": field 'detection\\nresolution': unknown key")
+                .satisfies(e -> assertThat(e.getMessage()).doesNotContain("\n"));
+    }
 }

@@ -60,7 +60,9 @@ public final class DefectSpecs {
         } catch (InvalidValueException e) {
             String field = e.field().equals("energy") || e.field().equals("degeneracy") ? "level." + e.field()
                     + (e.field().equals("energy") ? "_ev" : "") : e.field();
-            throw new InvalidValueException(field, e.unit(), origin + ": " + e.getMessage());
+            String m = e.getMessage();
+            // the spread's own checks already start with the origin
+            throw new InvalidValueException(field, e.unit(), m.startsWith(origin + ": ") ? m : origin + ": " + m);
         }
     }
 

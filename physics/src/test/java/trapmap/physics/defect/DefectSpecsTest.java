@@ -205,4 +205,11 @@ class DefectSpecsTest {
     void crossSectionSpreadOutsideTheValidRangeIsRejected() {
         rejects(with(x -> spread(x).put("sigma_n_cm2", List.of(2.5e-15, 1.0))), "spread.sigma_n_cm2", "cm^2");
     }
+
+    @Test
+    void aSpreadErrorNamesTheOriginOnce() {
+        Map<String, Object> m = with(x -> spread(x).put("energy", List.of(0.2, 0.3)));
+        assertThatThrownBy(() -> DefectSpecs.fromMap(m, ORIGIN)).isInstanceOf(InvalidValueException.class)
+                .hasMessageStartingWith(ORIGIN + ": field 'spread.energy' is not a known field");
+    }
 }

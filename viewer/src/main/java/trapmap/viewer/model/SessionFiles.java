@@ -63,12 +63,15 @@ public final class SessionFiles {
             "user_defects", "quantity", "display", "threshold", "line", "edge_exclusion_mm", "views", "rules",
             "defect_for_all", "defect_overrides", "physics");
 
-    /** A session file that cannot be used; the message names the file and the field. */
+    /**
+     * A session file that cannot be used; the message names the file and the field, on one line (line breaks that
+     * a key or value of the file brings in are shown as {@code \n} and {@code \r}).
+     */
     public static final class SessionException extends IOException {
         private static final long serialVersionUID = 1L;
 
         public SessionException(String message) {
-            super(message);
+            super(message.replace("\r", "\\r").replace("\n", "\\n"));
         }
     }
 
@@ -211,10 +214,34 @@ public final class SessionFiles {
             text = trapmap.maps.io.InputFiles.readUtf8(file, trapmap.maps.io.InputFiles.JSON_MAX_BYTES);
         } catch (trapmap.maps.io.InputFiles.Refused e) {
             throw new SessionException(file + ": session file " + e.reason());
+        } catch (java.nio.file.NoSuchFileException e) {
+            throw new SessionException(file + ": no such session file");
+        } catch (java.nio.charset.CharacterCodingException e) {
+            throw new SessionException(file + ": is not UTF-8 text");
         } catch (IOException e) {
-            throw new SessionException(file + ": cannot read (" + e.getMessage() + ")");
+            throw new SessionException(file + ": cannot read the session file (" + oneLine(e.toString()) + ")");
         }
         return parse(text, file.toString(), file.toAbsolutePath().getParent());
+    }
+
+    /**
+     * Reads a session file and restores it into {@code model} ({@link Session#applyTo}); every failure, also one
+     * while restoring, is a {@link SessionException} whose one line names the file.
+     *
+     * @return the outcome of opening the session's map files (and its rules file)
+     */
+    public static ViewerModel.OpenOutcome open(Path file, ViewerModel model) throws IOException {
+        Session s = read(file);
+        try {
+            return s.applyTo(model);
+        } catch (RuntimeException e) {
+            throw new SessionException(file + ": cannot be restored (" + oneLine(e.getMessage() == null
+                    ? e.toString() : e.getMessage()) + ")");
+        }
+    }
+
+    private static String oneLine(String text) {
+        return text.replaceAll("\\s*[\\r\\n]+\\s*", " ");
     }
 
     /** Parses session text; {@code name} names it in errors, {@code dir} resolves relative paths. */
@@ -223,8 +250,7 @@ public final class SessionFiles {
         try {
             root = JSON.readTree(text);
         } catch (JsonProcessingException e) {
-            throw new SessionException(name + ": not valid JSON (line " + e.getLocation().getLineNr() + ": "
-                    + e.getOriginalMessage() + ")");
+            throw new SessionException(name + ": " + oneLine(trapmap.maps.io.JsonErrors.notJson(e)));
         }
         if (root == null || !root.isObject()) {
             throw new SessionException(name + ": a session file holds one JSON object");
@@ -255,7 +281,7 @@ public final class SessionFiles {
             if (!fn.get(i).isTextual() || fn.get(i).asText().isBlank()) {
                 throw r.error("files[" + i + "]", "", "must be a file path");
             }
-            files.add(resolve(fn.get(i).asText(), dir));
+            files.add(resolve(r, fn.get(i).asText(), "files[" + i + "]", dir));
         }
         int selected = root.has("selected") ? (int) r.number(root, "selected", "", false) : (files.isEmpty() ? -1 : 0);
         if (selected < -1 || selected >= Math.max(1, files.size())) {
@@ -400,7 +426,8 @@ public final class SessionFiles {
                 r.object(e.getValue(), f);
                 r.keys(e.getValue(), Set.of("zoom", "centre_x_px", "centre_y_px"), f + ".");
                 try {
-                    views.put(resolve(e.getKey(), dir), new ViewState(r.number(e.getValue(), f + ".zoom", "", true),
+                    views.put(resolve(r, e.getKey(), f, dir), new ViewState(
+                            r.number(e.getValue(), f + ".zoom", "", true),
                             r.number(e.getValue(), f + ".centre_x_px", "px", true),
                             r.number(e.getValue(), f + ".centre_y_px", "px", true)));
                 } catch (IllegalArgumentException ex) {
@@ -408,8 +435,8 @@ public final class SessionFiles {
                 }
             }
         }
-        Path rules = root.has("rules") && !root.get("rules").isNull() ? resolve(r.text(root, "rules", true), dir)
-                : null;
+        Path rules = root.has("rules") && !root.get("rules").isNull()
+                ? resolve(r, r.text(root, "rules", true), "rules", dir) : null;
         String forAll = root.has("defect_for_all") && !root.get("defect_for_all").isNull()
                 ? knownDefect(r, r.text(root, "defect_for_all", true), "defect_for_all", userDefects) : null;
         Map<Path, String> overrides = new LinkedHashMap<>();
@@ -422,7 +449,8 @@ public final class SessionFiles {
                 if (!e.getValue().isTextual()) {
                     throw r.error(f, "", "must be a defect id");
                 }
-                overrides.put(resolve(e.getKey(), dir), knownDefect(r, e.getValue().asText(), f, userDefects));
+                overrides.put(resolve(r, e.getKey(), f, dir),
+                        knownDefect(r, e.getValue().asText(), f, userDefects));
             }
         }
         trapmap.physics.conversion.PhysicsSettings physics = null;
@@ -448,9 +476,13 @@ public final class SessionFiles {
         return id;
     }
 
-    private static Path resolve(String p, Path dir) {
-        Path path = Path.of(p);
-        return (path.isAbsolute() || dir == null ? path : dir.resolve(path)).toAbsolutePath().normalize();
+    private static Path resolve(Reader r, String p, String field, Path dir) throws SessionException {
+        try {
+            Path path = Path.of(p);
+            return (path.isAbsolute() || dir == null ? path : dir.resolve(path)).toAbsolutePath().normalize();
+        } catch (java.nio.file.InvalidPathException e) {
+            throw r.error(field, "", "is not a valid file path (" + oneLine(e.getReason()) + ")");
+        }
     }
 
     private static String fmt(double v) {

@@ -134,8 +134,7 @@ final class SessionController {
         new SwingWorker<ViewerModel.OpenOutcome, Void>() {
             @Override
             protected ViewerModel.OpenOutcome doInBackground() throws IOException {
-                Session s = SessionFiles.read(f);
-                return s.applyTo(model);
+                return SessionFiles.open(f, model);
             }
 
             @Override

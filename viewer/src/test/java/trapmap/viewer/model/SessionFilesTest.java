@@ -154,7 +154,7 @@ class SessionFilesTest {
     @Test
     void brokenJsonNamesTheLine() {
         assertThatThrownBy(() -> SessionFiles.parse("{\n\"format\": ", "s.json", dir))
-                .hasMessageStartingWith("s.json: not valid JSON (line");
+                .hasMessageStartingWith("s.json: line 2, column 11: not valid JSON: ");
     }
 
     @Test
@@ -175,5 +175,66 @@ class SessionFilesTest {
         assertThat(restored.analysis().threshold().value()).isEqualTo(33);
         assertThat(restored.wafer(1).view()).isEqualTo(new ViewState(3, 50, 60));
         assertThat(restored.canUndo()).isFalse();
+    }
+
+    @Test
+    void theSessionFuzzSeedsAreSessions() throws Exception {
+        Path seeds = Path.of(getClass().getResource("SessionReaderJazzerTestInputs/readSession").toURI());
+        try (var files = Files.list(seeds)) {
+            List<Path> valid = files.filter(p -> !p.getFileName().toString().startsWith("crash-")).toList();
+            assertThat(valid).hasSizeGreaterThanOrEqualTo(2);
+            for (Path seed : valid) {
+                assertThat(SessionFiles.read(seed)).as(seed.toString()).isNotNull();
+            }
+        }
+    }
+
+    @Test
+    void unreadableSessionFilesAreOneLineNamingTheFile() throws Exception {
+        Path none = dir.resolve("none.trapmap.json");
+        assertThatThrownBy(() -> SessionFiles.read(none)).isInstanceOf(SessionFiles.SessionException.class)
+                .hasMessage(none + ": no such session file");
+        Path latin1 = dir.resolve("latin1.trapmap.json");
+        Files.write(latin1, new byte[] {'{', '"', (byte) 0xE9, '"', ':', '1', '}'});
+        assertThatThrownBy(() -> SessionFiles.read(latin1)).hasMessage(latin1 + ": is not UTF-8 text");
+        Path deep = dir.resolve("deep.trapmap.json");
+        Files.writeString(deep, "[".repeat(5000));
+        assertThatThrownBy(() -> SessionFiles.read(deep)).isInstanceOf(SessionFiles.SessionException.class)
+                .hasMessageStartingWith(deep + ": ").hasMessageContaining("not valid JSON")
+                .satisfies(e -> assertThat(e.getMessage()).doesNotContain("\n"));
+    }
+
+    @Test
+    void aPathThatCannotBeAFileNamesTheFieldNotAJavaException() {
+        String nul = "{\"format\": \"trapmap-session\", \"version\": 1, \"files\": [\"a\\u0000b.tif\"]}";
+        assertThatThrownBy(() -> SessionFiles.parse(nul, "s.json", dir))
+                .isInstanceOf(SessionFiles.SessionException.class)
+                .hasMessageStartingWith("s.json: files[0] is not a valid file path (");
+        String view = "{\"format\": \"trapmap-session\", \"version\": 1, \"files\": [],"
+                + " \"views\": {\"x\\u0000\": {\"zoom\": 1, \"centre_x_px\": 0, \"centre_y_px\": 0}}}";
+        assertThatThrownBy(() -> SessionFiles.parse(view, "s.json", dir))
+                .hasMessageStartingWith("s.json: views.x\u0000 is not a valid file path (");
+    }
+
+    @Test
+    void aLineBreakInAKeyStaysOnTheMessagesOneLine() {
+        String json = "{\"format\": \"trapmap-session\", \"version\": 1, \"files\": [], \"a\\nb\": 1}";
+        assertThatThrownBy(() -> SessionFiles.parse(json, "s.json", dir))
+                .hasMessageStartingWith("s.json: a\\nb is not a known key")
+                .satisfies(e -> assertThat(e.getMessage()).doesNotContain("\n"));
+    }
+
+    @Test
+    void openingASessionRestoresItOrNamesTheFile() throws Exception {
+        Path f = dir.resolve("s.trapmap.json");
+        SessionFiles.write(sample(), f);
+        ViewerModel m = new ViewerModel();
+        ViewerModel.OpenOutcome o = SessionFiles.open(f, m);
+        assertThat(o.added()).isZero(); // the sample's maps do not exist
+        assertThat(o.errors()).hasSize(2);
+        assertThat(m.analysis()).isEqualTo(sample().analysis());
+        Files.writeString(f, "{");
+        assertThatThrownBy(() -> SessionFiles.open(f, m)).isInstanceOf(SessionFiles.SessionException.class)
+                .hasMessageStartingWith(f + ": ");
     }
 }
