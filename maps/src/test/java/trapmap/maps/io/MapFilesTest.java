@@ -34,11 +34,11 @@ class MapFilesTest {
         assertThatThrownBy(() -> MapFiles.read(gone)).isInstanceOf(MapFormatException.class)
                 .hasMessage(gone + ": is a dangling link to " + dir.resolve("deleted.tif") + " (no such file)");
         Path device = Files.createSymbolicLink(dir.resolve("device.csv"), Path.of("/dev/zero"));
-        assertThatThrownBy(() -> MapFiles.read(device)).hasMessage(device + ": is not a regular file");
+        assertThatThrownBy(() -> MapFiles.read(device)).hasMessage(device + ": is a FIFO, socket or device, not a regular file");
         Path map = dir.resolve("w.tif");
         Files.write(map, SidecarTest.plainTiff());
         Path sidecar = Files.createSymbolicLink(dir.resolve("w.json"), Path.of("/dev/zero")); // would never end
-        assertThatThrownBy(() -> MapFiles.read(map)).hasMessage(sidecar + ": is not a regular file");
+        assertThatThrownBy(() -> MapFiles.read(map)).hasMessageStartingWith(sidecar + ": ").hasMessageContaining("not a regular file");
         Files.delete(sidecar);
         Files.createSymbolicLink(sidecar, dir.resolve("w-old.json"));
         assertThatThrownBy(() -> MapFiles.read(map)).hasMessage(sidecar + ": is a dangling link to "
