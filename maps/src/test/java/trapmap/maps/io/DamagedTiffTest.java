@@ -386,30 +386,41 @@ class DamagedTiffTest {
 
     /** 9-bit codes, most significant bit first. */
     private static byte[] bits9(int... codes) {
-        BitWriter w = new BitWriter();
+        BitWriter w = new BitWriter(true);
         for (int c : codes) {
             w.write(c, 9);
         }
         return w.finish();
     }
 
+    /** Codes packed into bytes, most significant bit first (TIFF 6.0) or least significant first (TIFF 5.0). */
     private static final class BitWriter {
         private final ByteArrayOutputStream out = new ByteArrayOutputStream();
+        private final boolean msbFirst;
         private long bits;
         private int have;
 
+        BitWriter(boolean msbFirst) {
+            this.msbFirst = msbFirst;
+        }
+
         void write(int code, int width) {
-            bits = bits << width | code;
+            bits = msbFirst ? bits << width | code : bits | (long) code << have;
             have += width;
             while (have >= 8) {
-                out.write((int) (bits >>> (have - 8)));
+                if (msbFirst) {
+                    out.write((int) (bits >>> (have - 8)));
+                } else {
+                    out.write((int) (bits & 0xFF));
+                    bits >>>= 8;
+                }
                 have -= 8;
             }
         }
 
         byte[] finish() {
             if (have > 0) {
-                out.write((int) (bits << (8 - have)));
+                out.write((int) (msbFirst ? bits << (8 - have) : bits & 0xFF));
             }
             return out.toByteArray();
         }
@@ -420,7 +431,17 @@ class DamagedTiffTest {
      * passes 511, 1023 and 2047 (one code early, as libtiff writes), a clear code when the table reaches 4094.
      */
     static byte[] lzw(byte[] data) {
-        BitWriter w = new BitWriter();
+        return lzw(data, true);
+    }
+
+    /** The TIFF 5.0 variant of {@link #lzw}: codes least significant bit first, no early change of width. */
+    static byte[] oldLzw(byte[] data) {
+        return lzw(data, false);
+    }
+
+    private static byte[] lzw(byte[] data, boolean tiff6) {
+        BitWriter w = new BitWriter(tiff6);
+        int early = tiff6 ? 1 : 0;
         int width = 9;
         w.write(256, width);
         Map<Integer, Integer> table = new HashMap<>();
@@ -439,7 +460,7 @@ class DamagedTiffTest {
             }
             w.write(prefix, width);
             table.put(prefix << 8 | b, next++);
-            if (next > (1 << width) - 1 && width < 12) {
+            if (next > (1 << width) - early && width < 12) {
                 width++;
             }
             if (next == 4094) {
@@ -455,58 +476,6 @@ class DamagedTiffTest {
         }
         w.write(257, width);
         return w.finish();
-    }
-
-    /** The TIFF 5.0 variant of {@link #lzw}: codes least significant bit first, no early change of width. */
-    static byte[] oldLzw(byte[] data) {
-        ByteArrayOutputStream out = new ByteArrayOutputStream();
-        long[] acc = {0, 0}; // bits, count
-        java.util.function.BiConsumer<Integer, Integer> emit = (code, bits) -> {
-            acc[0] |= (long) code << acc[1];
-            acc[1] += bits;
-            while (acc[1] >= 8) {
-                out.write((int) (acc[0] & 0xFF));
-                acc[0] >>>= 8;
-                acc[1] -= 8;
-            }
-        };
-        int width = 9;
-        emit.accept(256, width);
-        Map<Integer, Integer> table = new HashMap<>();
-        int next = 258;
-        int prefix = -1;
-        for (byte value : data) {
-            int b = value & 0xFF;
-            if (prefix < 0) {
-                prefix = b;
-                continue;
-            }
-            Integer code = table.get(prefix << 8 | b);
-            if (code != null) {
-                prefix = code;
-                continue;
-            }
-            emit.accept(prefix, width);
-            table.put(prefix << 8 | b, next++);
-            if (next > (1 << width) && width < 12) {
-                width++;
-            }
-            if (next == 4094) {
-                emit.accept(256, width);
-                table.clear();
-                next = 258;
-                width = 9;
-            }
-            prefix = b;
-        }
-        if (prefix >= 0) {
-            emit.accept(prefix, width);
-        }
-        emit.accept(257, width);
-        if (acc[1] > 0) {
-            out.write((int) (acc[0] & 0xFF));
-        }
-        return out.toByteArray();
     }
 
     /** PackBits (section 9): runs of 3 to 128 equal bytes as (1 − n, byte), the rest as literal runs of up to 128. */
