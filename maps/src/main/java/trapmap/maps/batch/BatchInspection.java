@@ -427,6 +427,18 @@ public final class BatchInspection {
             Files.deleteIfExists(tmpFootprints);
             Files.deleteIfExists(tmpRegions);
         }
+        Map<String, Integer> position = new java.util.HashMap<>();
+        for (int i = 0; i < files.size(); i++) {
+            position.putIfAbsent(key(files.get(i).toString()), i);
+        }
+        java.util.Comparator<Map<String, String>> byInput = java.util.Comparator.comparingInt(
+                row -> position.getOrDefault(key(row.get("file")), Integer.MAX_VALUE));
+        if (!isSorted(rows, byInput)) { // a resumed run that tried an error row again: back to input order
+            rows.sort(byInput);
+            inInputOrder(footprintsPartial, tmpFootprints, position);
+            inInputOrder(regionsPartial, tmpRegions, position);
+            inInputOrder(partial, tmpPartial, position);
+        }
         move(footprintsPartial, footprints);
         move(regionsPartial, regionsCsv);
         move(partial, csv);
@@ -463,6 +475,49 @@ public final class BatchInspection {
         Summary summary = new Summary(pass, fail, error, skipped, csv, outDir.resolve(JSON_NAME), written);
         writeJson(summary, columns, rows);
         return summary;
+    }
+
+    private static <T> boolean isSorted(List<T> list, java.util.Comparator<? super T> order) {
+        for (int i = 1; i < list.size(); i++) {
+            if (order.compare(list.get(i - 1), list.get(i)) > 0) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    /**
+     * Rewrites the complete table {@code table} with its rows grouped by wafer in input order (a wafer's rows keep
+     * their order, cells are written back as read), through {@code tmp} and a move: the table holds the same rows
+     * before and after, so a stop at any moment leaves it as a resumed run expects.
+     */
+    private static void inInputOrder(Path table, Path tmp, Map<String, Integer> position) throws IOException {
+        List<String> header;
+        Map<String, List<List<String>>> byWafer = new LinkedHashMap<>();
+        try (Reader r = Files.newBufferedReader(table, StandardCharsets.UTF_8);
+             CSVParser p = CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).build().parse(r)) {
+            header = p.getHeaderNames();
+            for (CSVRecord rec : p) {
+                byWafer.computeIfAbsent(key(CsvCells.raw(rec.get("file"))), k -> new ArrayList<>())
+                        .add(rec.toList());
+            }
+        }
+        List<String> wafers = new ArrayList<>(byWafer.keySet());
+        wafers.sort(java.util.Comparator.comparingInt(k -> position.getOrDefault(k, Integer.MAX_VALUE)));
+        try {
+            try (Writer w = OutputFolder.writer(tmp);
+                 CSVPrinter out = new CSVPrinter(w, CSVFormat.DEFAULT.builder().setHeader(
+                         header.toArray(String[]::new)).build())) {
+                for (String k : wafers) {
+                    for (List<String> rec : byWafer.get(k)) {
+                        out.printRecord(rec);
+                    }
+                }
+            }
+            move(tmp, table);
+        } finally {
+            Files.deleteIfExists(tmp);
+        }
     }
 
     private static void move(Path from, Path to) throws BatchOutputException {

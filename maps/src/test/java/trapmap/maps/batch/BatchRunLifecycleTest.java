@@ -186,6 +186,82 @@ class BatchRunLifecycleTest {
     }
 
     @Test
+    void aResumedRunRetryingAnErrorRowWritesTheTablesInInputOrderLikeAnUninterruptedRun() throws Exception {
+        List<Path> files = maps();
+        Path broken = files.get(1);
+        Rules rules = Rules.parse(RULES, "rules.json");
+        WaferInspection.MapReader unreadable = f -> {
+            if (f.equals(broken)) {
+                throw new IOException("not a map");
+            }
+            return MapFiles.readSingle(f);
+        };
+        Path reference = dir.resolve("reference");
+        new BatchInspection(rules, unreadable).withSource(SOURCE_A).run(files, reference,
+                new BatchInspection.Options(1, false, false, ProgressListener.NONE, false));
+        // stopped after the third wafer: the partial table holds w1, w2 (error), w3; the error row of w2 is
+        // tried again on resume, so it is inspected after the kept w1 and w3
+        Path out = dir.resolve("out");
+        ProgressListener stopAfterThird = (done, total, message) -> {
+            if (done == 3) {
+                throw new IllegalStateException("stopped here");
+            }
+        };
+        assertThatThrownBy(() -> new BatchInspection(rules, unreadable).withSource(SOURCE_A).run(files, out,
+                new BatchInspection.Options(1, false, false, stopAfterThird, false)))
+                .hasMessage("stopped here");
+        assertThat(Files.readAllLines(out.resolve(BatchInspection.PARTIAL_NAME))).hasSize(4);
+        new BatchInspection(rules, unreadable).withSource(SOURCE_A).run(files, out,
+                new BatchInspection.Options(1, true, false, ProgressListener.NONE, false));
+        for (String name : List.of(BatchInspection.CSV_NAME, BatchInspection.REGIONS_NAME,
+                BatchInspection.FOOTPRINTS_NAME, BatchInspection.RECURRENCE_NAME)) {
+            assertThat(Files.readString(out.resolve(name))).as(name)
+                    .isEqualTo(Files.readString(reference.resolve(name)));
+        }
+        // results.json: the same wafers in the same order; only the summary's count of kept wafers differs
+        com.fasterxml.jackson.databind.ObjectMapper json = new com.fasterxml.jackson.databind.ObjectMapper();
+        com.fasterxml.jackson.databind.JsonNode resumed = json.readTree(out.resolve(BatchInspection.JSON_NAME).toFile());
+        com.fasterxml.jackson.databind.JsonNode whole = json.readTree(reference.resolve(BatchInspection.JSON_NAME)
+                .toFile());
+        assertThat(resumed.get("wafers")).isEqualTo(whole.get("wafers"));
+        assertThat(resumed.at("/summary/skipped").asInt()).isEqualTo(2);
+    }
+
+    @Test
+    void aWaferThatFailedOnceAndIsReadOnResumeTakesItsPlaceInAllThreeTables() throws Exception {
+        List<Path> files = maps();
+        Path flaky = files.get(1); // w2, with a flagged spot: a footprint and region rows
+        Rules rules = Rules.parse(RULES, "rules.json");
+        Path reference = dir.resolve("reference");
+        new BatchInspection(rules).withSource(SOURCE_A).run(files, reference,
+                new BatchInspection.Options(1, false, false, ProgressListener.NONE, false));
+        AtomicInteger attempts = new AtomicInteger();
+        WaferInspection.MapReader failingOnce = f -> {
+            if (f.equals(flaky) && attempts.getAndIncrement() == 0) {
+                throw new IOException("device not ready");
+            }
+            return MapFiles.readSingle(f);
+        };
+        Path out = dir.resolve("out");
+        ProgressListener stopAfterThird = (done, total, message) -> {
+            if (done == 3) {
+                throw new IllegalStateException("stopped here");
+            }
+        };
+        assertThatThrownBy(() -> new BatchInspection(rules, failingOnce).withSource(SOURCE_A).run(files, out,
+                new BatchInspection.Options(1, false, false, stopAfterThird, false)))
+                .hasMessage("stopped here");
+        new BatchInspection(rules, failingOnce).withSource(SOURCE_A).run(files, out,
+                new BatchInspection.Options(1, true, false, ProgressListener.NONE, false));
+        assertThat(Files.readString(reference.resolve(BatchInspection.REGIONS_NAME))).contains("w2.tif");
+        for (String name : List.of(BatchInspection.FOOTPRINTS_NAME, BatchInspection.REGIONS_NAME,
+                BatchInspection.CSV_NAME, BatchInspection.RECURRENCE_NAME)) {
+            assertThat(Files.readString(out.resolve(name))).as(name)
+                    .isEqualTo(Files.readString(reference.resolve(name)));
+        }
+    }
+
+    @Test
     void aSecondRunIntoAHeldFolderIsRefusedAtOnceAndTheFirstFinishesIntact() throws Exception {
         List<Path> files = maps();
         Path out = dir.resolve("out");
