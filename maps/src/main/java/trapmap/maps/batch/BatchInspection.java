@@ -36,7 +36,7 @@ import trapmap.shared.progress.ProgressListener;
  *   <li>{@code run.json}: the run record ({@link RunManifest}), written first and recorded complete last; the run
  *       holds the folder locked ({@link RunLock}) and a failed write into it stops the batch
  *       ({@link BatchOutputException}).</li>
- *   <li>{@code results.csv}: one row per wafer, in input order (rows kept from a resumed run first). The rows are
+ *   <li>{@code results.csv}: one row per wafer, in input order (also after a resume). The rows are
  *       written and flushed one by one to {@code results.csv.partial}, which is moved onto {@code results.csv} when
  *       the batch is complete; an interrupted batch leaves the partial file, which a resumed run reads too.</li>
  *   <li>{@code results.json}: the same rows and a summary, written to a temporary file and moved at the end.</li>
@@ -55,6 +55,33 @@ import trapmap.shared.progress.ProgressListener;
  * so that big maps are inspected fewer at a time. A file that cannot be read or evaluated, a map too big for the
  * heap and a map whose inspection runs out of memory give an {@code error} row and the batch goes on. Interrupting
  * the calling thread cancels the batch.
+ *
+ * <p><b>Why a kill at any moment resumes to the uninterrupted run's tables.</b> The three tables are written each
+ * through a {@code .partial} file; per wafer the footprint row, then its region rows, then its results row, each
+ * table flushed before the next is written. So:
+ * <ol>
+ *   <li>A wafer with a complete results row on disk (in {@code results.csv} or its {@code .partial}) has all its
+ *       footprint and region rows complete in the footprint and region tables of the same run; the results row is the
+ *       wafer's commit. A kill (SIGKILL between two writes, SIGTERM refusing the next write through
+ *       {@link OutputFolder#check}) can leave footprint or region rows of wafers without a results row, and a last
+ *       row cut short in any table.</li>
+ *   <li>Resume keeps exactly the wafers with a complete, non-{@code error} results row (a cut row is inconsistent
+ *       and skipped), and rebuilds the three partial tables from that set alone (footprints and regions looked up by
+ *       the same normalised key, cells through {@link CsvCells#raw}/{@link CsvCells#text}), so rows of wafers without
+ *       a results row are dropped, and the wafers inspected again are written once. (A results row reaches the file in
+ *       one write while it is under the writers' 8 KiB buffers; only a longer row could be cut inside its last cell
+ *       and still be complete in form.) A wafer's regions from the later
+ *       file replace the earlier ones as a whole.</li>
+ *   <li>The rebuilt tables are written to {@code .new} temporaries and moved over the partial files one by one; a
+ *       kill between the moves leaves old and new partial files that hold the same kept wafers (the new ones are
+ *       built from the old), so the next resume keeps the same set. A {@code .new} deleted by the shutdown hook
+ *       makes its move fail and leaves the old partial file. The end-of-run reordering (below) and the final moves
+ *       (footprints, regions, results) likewise change no table's set of wafers, and resume reads {@code results.csv}
+ *       and its {@code .partial} (later wins) and the same pairs for the other tables.</li>
+ *   <li>Order: kept rows are written first and inspected wafers after them. When an {@code error} row was dropped
+ *       from the middle to be tried again, that order is not the input order; the three tables and
+ *       {@code results.json} are then put back in input order before the final moves.</li>
+ * </ol>
  */
 public final class BatchInspection {
     public static final String CSV_NAME = "results.csv";
@@ -427,6 +454,18 @@ public final class BatchInspection {
             Files.deleteIfExists(tmpFootprints);
             Files.deleteIfExists(tmpRegions);
         }
+        Map<String, Integer> position = new java.util.HashMap<>();
+        for (int i = 0; i < files.size(); i++) {
+            position.putIfAbsent(key(files.get(i).toString()), i);
+        }
+        java.util.Comparator<Map<String, String>> byInput = java.util.Comparator.comparingInt(
+                row -> position.getOrDefault(key(row.get("file")), Integer.MAX_VALUE));
+        if (!isSorted(rows, byInput)) { // a resumed run that tried an error row again: back to input order
+            rows.sort(byInput);
+            inInputOrder(footprintsPartial, tmpFootprints, position);
+            inInputOrder(regionsPartial, tmpRegions, position);
+            inInputOrder(partial, tmpPartial, position);
+        }
         move(footprintsPartial, footprints);
         move(regionsPartial, regionsCsv);
         move(partial, csv);
@@ -463,6 +502,49 @@ public final class BatchInspection {
         Summary summary = new Summary(pass, fail, error, skipped, csv, outDir.resolve(JSON_NAME), written);
         writeJson(summary, columns, rows);
         return summary;
+    }
+
+    private static <T> boolean isSorted(List<T> list, java.util.Comparator<? super T> order) {
+        for (int i = 1; i < list.size(); i++) {
+            if (order.compare(list.get(i - 1), list.get(i)) > 0) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    /**
+     * Rewrites the complete table {@code table} with its rows grouped by wafer in input order (a wafer's rows keep
+     * their order, cells are written back as read), through {@code tmp} and a move: the table holds the same rows
+     * before and after, so a stop at any moment leaves it as a resumed run expects.
+     */
+    private static void inInputOrder(Path table, Path tmp, Map<String, Integer> position) throws IOException {
+        List<String> header;
+        Map<String, List<List<String>>> byWafer = new LinkedHashMap<>();
+        try (Reader r = Files.newBufferedReader(table, StandardCharsets.UTF_8);
+             CSVParser p = CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).build().parse(r)) {
+            header = p.getHeaderNames();
+            for (CSVRecord rec : p) {
+                byWafer.computeIfAbsent(key(CsvCells.raw(rec.get("file"))), k -> new ArrayList<>())
+                        .add(rec.toList());
+            }
+        }
+        List<String> wafers = new ArrayList<>(byWafer.keySet());
+        wafers.sort(java.util.Comparator.comparingInt(k -> position.getOrDefault(k, Integer.MAX_VALUE)));
+        try {
+            try (Writer w = OutputFolder.writer(tmp);
+                 CSVPrinter out = new CSVPrinter(w, CSVFormat.DEFAULT.builder().setHeader(
+                         header.toArray(String[]::new)).build())) {
+                for (String k : wafers) {
+                    for (List<String> rec : byWafer.get(k)) {
+                        out.printRecord(rec);
+                    }
+                }
+            }
+            move(tmp, table);
+        } finally {
+            Files.deleteIfExists(tmp);
+        }
     }
 
     private static void move(Path from, Path to) throws BatchOutputException {

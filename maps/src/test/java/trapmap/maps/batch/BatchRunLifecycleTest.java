@@ -9,6 +9,7 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.attribute.PosixFilePermissions;
 import java.util.List;
+import java.util.Map;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.concurrent.atomic.AtomicReference;
@@ -183,6 +184,158 @@ class BatchRunLifecycleTest {
         assertThat(again.error()).isZero();
         assertThat(again.total()).isEqualTo(4);
         assertThat(Files.readString(out.resolve(BatchInspection.CSV_NAME))).doesNotContain("device not ready");
+    }
+
+    @Test
+    void aResumedRunRetryingAnErrorRowWritesTheTablesInInputOrderLikeAnUninterruptedRun() throws Exception {
+        List<Path> files = maps();
+        Path broken = files.get(1);
+        Rules rules = Rules.parse(RULES, "rules.json");
+        WaferInspection.MapReader unreadable = f -> {
+            if (f.equals(broken)) {
+                throw new IOException("not a map");
+            }
+            return MapFiles.readSingle(f);
+        };
+        Path reference = dir.resolve("reference");
+        new BatchInspection(rules, unreadable).withSource(SOURCE_A).run(files, reference,
+                new BatchInspection.Options(1, false, false, ProgressListener.NONE, false));
+        // stopped after the third wafer: the partial table holds w1, w2 (error), w3; the error row of w2 is
+        // tried again on resume, so it is inspected after the kept w1 and w3
+        Path out = dir.resolve("out");
+        ProgressListener stopAfterThird = (done, total, message) -> {
+            if (done == 3) {
+                throw new IllegalStateException("stopped here");
+            }
+        };
+        assertThatThrownBy(() -> new BatchInspection(rules, unreadable).withSource(SOURCE_A).run(files, out,
+                new BatchInspection.Options(1, false, false, stopAfterThird, false)))
+                .hasMessage("stopped here");
+        assertThat(Files.readAllLines(out.resolve(BatchInspection.PARTIAL_NAME))).hasSize(4);
+        new BatchInspection(rules, unreadable).withSource(SOURCE_A).run(files, out,
+                new BatchInspection.Options(1, true, false, ProgressListener.NONE, false));
+        for (String name : List.of(BatchInspection.CSV_NAME, BatchInspection.REGIONS_NAME,
+                BatchInspection.FOOTPRINTS_NAME, BatchInspection.RECURRENCE_NAME)) {
+            assertThat(Files.readString(out.resolve(name))).as(name)
+                    .isEqualTo(Files.readString(reference.resolve(name)));
+        }
+        // results.json: the same wafers in the same order; only the summary's count of kept wafers differs
+        com.fasterxml.jackson.databind.ObjectMapper json = new com.fasterxml.jackson.databind.ObjectMapper();
+        com.fasterxml.jackson.databind.JsonNode resumed = json.readTree(out.resolve(BatchInspection.JSON_NAME).toFile());
+        com.fasterxml.jackson.databind.JsonNode whole = json.readTree(reference.resolve(BatchInspection.JSON_NAME)
+                .toFile());
+        assertThat(resumed.get("wafers")).isEqualTo(whole.get("wafers"));
+        assertThat(resumed.at("/summary/skipped").asInt()).isEqualTo(2);
+    }
+
+    @Test
+    void aWaferThatFailedOnceAndIsReadOnResumeTakesItsPlaceInAllThreeTables() throws Exception {
+        List<Path> files = maps();
+        Path flaky = files.get(1); // w2, with a flagged spot: a footprint and region rows
+        Rules rules = Rules.parse(RULES, "rules.json");
+        Path reference = dir.resolve("reference");
+        new BatchInspection(rules).withSource(SOURCE_A).run(files, reference,
+                new BatchInspection.Options(1, false, false, ProgressListener.NONE, false));
+        AtomicInteger attempts = new AtomicInteger();
+        WaferInspection.MapReader failingOnce = f -> {
+            if (f.equals(flaky) && attempts.getAndIncrement() == 0) {
+                throw new IOException("device not ready");
+            }
+            return MapFiles.readSingle(f);
+        };
+        Path out = dir.resolve("out");
+        ProgressListener stopAfterThird = (done, total, message) -> {
+            if (done == 3) {
+                throw new IllegalStateException("stopped here");
+            }
+        };
+        assertThatThrownBy(() -> new BatchInspection(rules, failingOnce).withSource(SOURCE_A).run(files, out,
+                new BatchInspection.Options(1, false, false, stopAfterThird, false)))
+                .hasMessage("stopped here");
+        new BatchInspection(rules, failingOnce).withSource(SOURCE_A).run(files, out,
+                new BatchInspection.Options(1, true, false, ProgressListener.NONE, false));
+        assertThat(Files.readString(reference.resolve(BatchInspection.REGIONS_NAME))).contains("w2.tif");
+        for (String name : List.of(BatchInspection.FOOTPRINTS_NAME, BatchInspection.REGIONS_NAME,
+                BatchInspection.CSV_NAME, BatchInspection.RECURRENCE_NAME)) {
+            assertThat(Files.readString(out.resolve(name))).as(name)
+                    .isEqualTo(Files.readString(reference.resolve(name)));
+        }
+    }
+
+    /** The header and the rows of {@code table} in {@code folder} whose file is one of {@code wafers}. */
+    private static String rowsOf(Path folder, String table, List<Path> wafers) throws IOException {
+        List<String> lines = Files.readAllLines(folder.resolve(table));
+        StringBuilder b = new StringBuilder(lines.get(0)).append("\r\n");
+        for (String line : lines.subList(1, lines.size())) {
+            if (wafers.stream().anyMatch(w -> line.startsWith(w + ","))) {
+                b.append(line).append("\r\n");
+            }
+        }
+        return b.toString();
+    }
+
+    /**
+     * Folders as a kill at some moment leaves them: each table holds complete rows of a prefix of the wafers (a
+     * wafer's footprint and regions are flushed before its results row), the last one may be cut short, and the
+     * three tables may stand in different generations (partial or moved). Resume reads only the wafers missing
+     * from the results and ends with the uninterrupted run's tables.
+     */
+    @Test
+    void resumeFromEachStateAKillCanLeaveEndsWithTheUninterruptedTables() throws Exception {
+        List<Path> files = maps();
+        Rules rules = Rules.parse(RULES, "rules.json");
+        BatchInspection.Options once = new BatchInspection.Options(1, false, false, ProgressListener.NONE, false);
+        BatchInspection.Options resume = new BatchInspection.Options(1, true, false, ProgressListener.NONE, false);
+        Path reference = dir.resolve("reference");
+        new BatchInspection(rules).withSource(SOURCE_A).run(files, reference, once);
+        String fp = BatchInspection.FOOTPRINTS_NAME;
+        String rg = BatchInspection.REGIONS_NAME;
+        String w4Footprint = rowsOf(reference, fp, List.of(files.get(3))).lines().skip(1).findFirst().orElseThrow();
+        String w4Region = rowsOf(reference, rg, List.of(files.get(3))).lines().skip(1).findFirst().orElseThrow();
+        List<Path> two = files.subList(0, 2);
+        List<Path> three = files.subList(0, 3);
+        // state -> {file name -> content}; the wafers to be read again
+        record State(String name, Map<String, String> tables, int reads) { }
+        List<State> states = List.of(
+                // killed while w4's footprint was flushed, w3's results row not yet written
+                new State("footprint ahead", Map.of(
+                        BatchInspection.PARTIAL_NAME, rowsOf(reference, BatchInspection.CSV_NAME, two),
+                        rg + ".partial", rowsOf(reference, rg, two) + w4Region + "\r\n",
+                        fp + ".partial", rowsOf(reference, fp, three) + w4Footprint.substring(0,
+                                w4Footprint.length() / 2),
+                        BatchInspection.PARTIAL_NAME + ".new", "file\r\n"), 2),
+                // killed between the final moves: footprints moved, regions and results still partial
+                new State("between the moves", Map.of(
+                        BatchInspection.PARTIAL_NAME, Files.readString(reference.resolve(BatchInspection.CSV_NAME)),
+                        rg + ".partial", Files.readString(reference.resolve(rg)),
+                        fp, Files.readString(reference.resolve(fp))), 0),
+                // killed while a resumed run rewrote its kept rows: old partial tables beside a stale .new
+                new State("rewriting the kept rows", Map.of(
+                        BatchInspection.PARTIAL_NAME, rowsOf(reference, BatchInspection.CSV_NAME, three),
+                        rg + ".partial", rowsOf(reference, rg, files),
+                        fp + ".partial", rowsOf(reference, fp, files),
+                        fp + ".new", rowsOf(reference, fp, two)), 1));
+        for (State state : states) {
+            Path out = Files.createDirectories(dir.resolve("out-" + state.name().replace(' ', '-')));
+            Files.copy(reference.resolve(RunManifest.FILE_NAME), out.resolve(RunManifest.FILE_NAME));
+            for (Map.Entry<String, String> e : state.tables().entrySet()) {
+                Files.writeString(out.resolve(e.getKey()), e.getValue());
+            }
+            AtomicInteger reads = new AtomicInteger();
+            new BatchInspection(rules, f -> {
+                reads.incrementAndGet();
+                return MapFiles.readSingle(f);
+            }).withSource(SOURCE_A).run(files, out, resume);
+            assertThat(reads.get()).as(state.name()).isEqualTo(state.reads());
+            for (String name : List.of(fp, rg, BatchInspection.CSV_NAME, BatchInspection.RECURRENCE_NAME)) {
+                assertThat(Files.readString(out.resolve(name))).as(state.name() + ": " + name)
+                        .isEqualTo(Files.readString(reference.resolve(name)));
+            }
+            try (Stream<Path> left = Files.list(out)) {
+                assertThat(left.map(p -> p.getFileName().toString()))
+                        .as(state.name()).noneMatch(n -> n.endsWith(".partial") || n.endsWith(".new"));
+            }
+        }
     }
 
     @Test
