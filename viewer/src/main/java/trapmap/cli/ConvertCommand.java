@@ -29,10 +29,10 @@ import trapmap.physics.defect.Defect;
             "Reads MAP (TIFF, CSV; conditions from its sidecar <name>.json, overridden by the flags), converts every",
             "pixel through the SRH model for the chosen defect and writes the chosen quantity to -o (.tif, .csv as",
             "x_mm,y_mm,value, or .png picture). Status codes in status maps: 0 OK, 1 BELOW_LIMIT (SRH share of",
-            "1/τ_eff under the 5 % resolution: the density is the detection limit, an upper bound), 2 INVALID (NaN,",
+            "1/τ_eff under the 5 %% resolution: the density is the detection limit, an upper bound), 2 INVALID (NaN,",
             "<= 0, infinite or below 1 ns), 3 NO_DATA.",
             ""},
-        footer = {"", "Caution: " + Calculation.CAUTION, "", Help.EXIT_CODES})
+        footer = {"", "Caution: " + Calculation.CAUTION, "", Help.EXIT_CODES_OUTPUT})
 final class ConvertCommand implements Callable<Integer> {
     /** Output quantities by their command-line names. */
     static final Map<String, trapmap.maps.model.Quantity> QUANTITIES = quantities();
