@@ -51,6 +51,9 @@ public final class TrapmapCommand implements Callable<Integer> {
         cl.setParameterExceptionHandler(errors);
         cl.setExecutionExceptionHandler(errors);
         cl.setExecutionStrategy(errors);
+        // numbers without a unit converter: plain decimal or scientific notation, finite (no NaN, no hexadecimal)
+        cl.registerConverter(Double.class, Quantity::plainNumber);
+        cl.registerConverter(double.class, Quantity::plainNumber);
         return cl;
     }
 
