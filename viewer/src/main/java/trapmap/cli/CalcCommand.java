@@ -35,7 +35,7 @@ import trapmap.physics.recombination.SurfaceModel;
             "",
             Help.MODELS,
             "",
-            Help.EXIT_CODES})
+            Help.EXIT_CODES_CALC})
 final class CalcCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;

@@ -39,7 +39,7 @@ import trapmap.shared.progress.ProgressListener;
                     + RegistrationWarnings.SCORE_FLOOR + " give a warning line on",
             "stderr (and a warnings array with --json); --strict then exits with status 2.",
             ""},
-        footer = {"", Help.EXIT_CODES})
+        footer = {"", Help.EXIT_CODES_STRICT})
 final class CompareCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
@@ -77,7 +77,7 @@ final class CompareCommand implements Callable<Integer> {
     boolean strict;
 
     @Option(names = "--tolerance", paramLabel = "<fraction>", defaultValue = "0.05",
-            description = "Relative change within which a pixel counts as unchanged (0.05 = ±5 %, common"
+            description = "Relative change within which a pixel counts as unchanged (0.05 = ±5 %%, common"
                     + " practice). Default: 0.05.")
     double tolerance;
 

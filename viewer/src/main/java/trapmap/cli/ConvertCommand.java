@@ -24,15 +24,18 @@ import trapmap.physics.defect.Defect;
 /** {@code trapmap convert}: a lifetime or PL map to a trap-density (or related) map of one defect. */
 @Command(name = "convert", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
         usageHelpAutoWidth = true,
-        header = "Converts a lifetime or PL map into a trap-density, occupancy, SRH-lifetime, bound or status map.",
+        header = "Converts a lifetime or PL map into a trap-density, occupancy, SRH-lifetime, bound, status or"
+                + " lifetime map, or into another file format.",
         description = {
             "Reads MAP (TIFF, CSV; conditions from its sidecar <name>.json, overridden by the flags), converts every",
             "pixel through the SRH model for the chosen defect and writes the chosen quantity to -o (.tif, .csv as",
             "x_mm,y_mm,value, or .png picture). Status codes in status maps: 0 OK, 1 BELOW_LIMIT (SRH share of",
-            "1/τ_eff under the 5 % resolution: the density is the detection limit, an upper bound), 2 INVALID (NaN,",
+            "1/τ_eff under the 5 %% resolution: the density is the detection limit, an upper bound), 2 INVALID (NaN,",
             "<= 0, infinite or below 1 ns), 3 NO_DATA.",
+            "Without --defect and --quantity, writes MAP as it is in the format of -o (TIFF <-> CSV) with its",
+            "metadata; --quantity effective-lifetime writes the lifetime map (from a PL map: by its calibration).",
             ""},
-        footer = {"", "Caution: " + Calculation.CAUTION, "", Help.EXIT_CODES})
+        footer = {"", "Caution: " + Calculation.CAUTION, "", Help.EXIT_CODES_OUTPUT})
 final class ConvertCommand implements Callable<Integer> {
     /** Output quantities by their command-line names. */
     static final Map<String, trapmap.maps.model.Quantity> QUANTITIES = quantities();
@@ -47,17 +50,19 @@ final class ConvertCommand implements Callable<Integer> {
             description = "Output file: .tif/.tiff (float, metadata embedded), .csv (x_mm,y_mm,value) or .png.")
     Path output;
 
-    @Option(names = "--defect", paramLabel = "<id>", required = true,
-            description = "Defect id (list with 'trapmap defects') or one from --defect-file.")
+    @Option(names = "--defect", paramLabel = "<id>",
+            description = "Defect id (list with 'trapmap defects') or one from --defect-file. Needed for every"
+                    + " quantity but effective-lifetime. Default: none.")
     String defect;
 
     @Option(names = "--defect-file", paramLabel = "<file.json>", description = Help.DEFECT_FILE)
     Path defectFile;
 
-    @Option(names = "--quantity", paramLabel = "<name>", defaultValue = "trap-density",
+    @Option(names = "--quantity", paramLabel = "<name>",
             description = "What to write: trap-density (cm^-3), density-min, density-max (cm^-3, over the defect's"
                     + " published parameter spread), occupancy (f_t), srh-lifetime (µs), injection (cm^-3), status,"
-                    + " lifetime-at-reference (µs; needs --reference-injection). Default: trap-density.")
+                    + " lifetime-at-reference (µs; needs --reference-injection), effective-lifetime (µs; needs no"
+                    + " defect). Default: trap-density with --defect; without it, MAP as it is.")
     String quantity;
 
     @Option(names = "--page", paramLabel = "<n>", defaultValue = "1",
@@ -72,10 +77,20 @@ final class ConvertCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws MapFormatException {
-        trapmap.maps.model.Quantity wanted = QUANTITIES.get(quantity.trim().toLowerCase(Locale.ROOT));
+        String name = quantity != null ? quantity.trim().toLowerCase(Locale.ROOT)
+                : defect != null ? trapmap.maps.model.Quantity.TRAP_DENSITY.key() : null;
+        if (name == null || name.equals(LIFETIME.key())) {
+            return copy(name != null);
+        }
+        trapmap.maps.model.Quantity wanted = QUANTITIES.get(name);
         if (wanted == null) {
             throw new InputException("--quantity '" + quantity + "' is not one of " + String.join(", ",
-                    QUANTITIES.keySet()));
+                    QUANTITIES.keySet()) + ", " + LIFETIME.key());
+        }
+        if (defect == null) {
+            throw new InputException("--defect is required for --quantity " + wanted.key() + ": "
+                    + Flags.expected("--defect") + "; only " + LIFETIME.key() + " or a plain format conversion"
+                    + " (no --quantity) needs none");
         }
         if (wanted == trapmap.maps.model.Quantity.LIFETIME_AT_REFERENCE && conditions.referenceInjection == null) {
             throw new InputException("--quantity lifetime-at-reference needs --reference-injection (Δn in cm^-3)");
@@ -85,6 +100,42 @@ final class ConvertCommand implements Callable<Integer> {
         WaferMap out = converted.result().get(wanted);
         MapInput.write(out, output);
         report(converted.result(), out, converted.floorNote());
+        return Exit.OK;
+    }
+
+    private static final trapmap.maps.model.Quantity LIFETIME = trapmap.maps.model.Quantity.EFFECTIVE_LIFETIME;
+
+    /**
+     * Writes the input map (with the flags' conditions) in the format of {@code -o}: as it is, or, when {@code
+     * lifetime}, as an effective-lifetime map (a PL map through its calibration). No defect is involved.
+     */
+    private int copy(boolean lifetime) throws MapFormatException {
+        WaferMap map = MapInput.page(input, page);
+        WaferMap out = map.withConditions(conditions.applyTo(map.conditions()));
+        if (lifetime && out.quantity() == trapmap.maps.model.Quantity.PL_COUNTS) {
+            out = MapConversion.lifetimeFromPl(out);
+        } else if (lifetime && out.quantity() != LIFETIME) {
+            throw new InputException(input + ": a " + out.quantity().key() + " map has no effective lifetime;"
+                    + " --quantity " + LIFETIME.key() + " needs a lifetime or PL-counts map");
+        }
+        MapInput.write(out, output);
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("input", input.toString());
+        m.put("output", output.toString());
+        m.put("quantity", out.quantity().key());
+        m.put("unit", out.quantity().unit());
+        m.put("width", out.width());
+        m.put("height", out.height());
+        m.put("defect", null);
+        PrintWriter stdout = spec.commandLine().getOut();
+        if (json) {
+            stdout.println(Output.json(m));
+        } else {
+            stdout.printf(Locale.ROOT, "wrote %s: %s (%s), %d x %d pixels, %s%n", output, out.quantity().key(),
+                    out.quantity().unit().isEmpty() ? "no unit" : out.quantity().unit(), out.width(), out.height(),
+                    out.quantity() == map.quantity() ? "copied from " + input : "from the PL map " + input);
+        }
+        stdout.flush();
         return Exit.OK;
     }
 

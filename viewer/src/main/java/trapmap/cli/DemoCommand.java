@@ -24,7 +24,7 @@ import trapmap.maps.demo.DemoScenario;
             "an FeB-dissociation pair; a 200 mm monitor wafer with boat-contact spots), each as a TIFF with a JSON",
             "sidecar, plus truth.json (the planted defects) and README.md. Every run writes the same bytes.",
             ""},
-        footer = {"", "Nothing written by this command is measured data.", "", Help.EXIT_CODES})
+        footer = {"", "Nothing written by this command is measured data.", "", Help.EXIT_CODES_OUTPUT})
 final class DemoCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;

@@ -142,6 +142,14 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
         if (flag != null && cause instanceof InvalidValueException ive) {
             return Flags.message(ive);
         }
+        String command = ex.getCommandLine().getCommandSpec().qualifiedName();
+        if (flag != null && ex.getValue() != null && !(cause instanceof Quantity.BadValue)
+                && String.valueOf(ex.getMessage()).startsWith("Invalid value for option")
+                && numeric(ex.getArgSpec().type())) {
+            return flag + ": '" + Flags.oneLine(ex.getValue()) + "' is not a "
+                    + (integral(ex.getArgSpec().type()) ? "whole number" : "number") + "; expected "
+                    + Flags.expected(command, flag);
+        }
         if (ex instanceof MissingParameterException mp) {
             List<String> missing = new ArrayList<>();
             if (mp.getMissing() != null) {
@@ -152,11 +160,11 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
                 String f = missing.get(0);
                 String also = missing.size() == 1 ? ""
                         : " (also missing: " + String.join(", ", missing.subList(1, missing.size())) + ")";
-                return f + " is required: " + Flags.expected(f) + also;
+                return f + " is required: " + Flags.expected(command, f) + also;
             }
             String f = flag != null ? flag : missing.isEmpty() ? null : missing.get(0);
             if (f != null) {
-                return f + " needs a value: " + Flags.expected(f);
+                return f + " needs a value: " + Flags.expected(command, f);
             }
         }
         String help = " (see '" + ex.getCommandLine().getCommandSpec().qualifiedName() + " --help')";
@@ -167,6 +175,17 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
                     : first + "; did you mean " + String.join(" or ", suggestions) + "?" + help;
         }
         return Flags.oneLine(ex.getMessage()) + help;
+    }
+
+    /** Whether options of {@code type} take a number. */
+    static boolean numeric(Class<?> type) {
+        return integral(type) || type == double.class || type == Double.class || type == float.class
+                || type == Float.class;
+    }
+
+    private static boolean integral(Class<?> type) {
+        return type == int.class || type == Integer.class || type == long.class || type == Long.class
+                || type == short.class || type == Short.class;
     }
 
     private static String flagOf(ArgSpec arg) {

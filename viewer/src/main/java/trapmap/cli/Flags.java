@@ -34,7 +34,28 @@ final class Flags {
             entry("--annealed-us", "the annealed (or regenerated) lifetime in µs"),
             entry("--counts", "the PL signal in counts"),
             entry("--reference-counts", "the reference PL signal in counts"),
-            entry("--reference-lifetime-us", "the reference effective lifetime in µs"));
+            entry("--reference-lifetime-us", "the reference effective lifetime in µs"),
+            entry("--rules", "a rules file (.json)"),
+            entry("--physics", "a physics settings file (.json)"),
+            entry("--output", "the output file (.tif, .csv or .png)"),
+            entry("--status-output", "the status map file (.tif, .csv or .png)"),
+            entry("--quantity", "the name of a quantity (see --help)"),
+            entry("--max-rotation-deg", "the largest rotation searched, in degrees"),
+            entry("--tolerance", "a relative change as a fraction (0.05 = ±5 %), no unit"),
+            entry("--page", "a page number of the TIFF, from 1"),
+            entry("--threads", "a number of maps inspected at once, from 1"),
+            entry("--threshold", "a threshold in the unit of the map (µs for lifetimes, cm^-3 for densities)"),
+            entry("--min-area-mm2", "an area in mm²"),
+            entry("--edge-exclusion-mm", "a width in mm"),
+            entry("--wafer", "a wafer format id (round-150-flat, m10, ...)"),
+            entry("--flag", "above or below"));
+
+    /** What a flag expects where one command reads it differently, by command name (without "trapmap "). */
+    private static final Map<String, String> EXPECTED_IN = Map.ofEntries(
+            entry("inspect --out", "the folder for the results"),
+            entry("report --out", "the report to write (.pdf)"),
+            entry("demo --out", "the folder to write the demonstration set into"),
+            entry("calc --out", "the CSV file to write"));
 
     /** Field names used by the physics checks, with the flag the value came from. */
     private static final Map<String, String> PHYSICS_FIELDS = Map.ofEntries(
@@ -62,6 +83,18 @@ final class Flags {
     /** What {@code flag} expects, e.g. {@code a wafer thickness in µm}. */
     static String expected(String flag) {
         return EXPECTED.getOrDefault(flag, "a value");
+    }
+
+    /** What {@code flag} of {@code command} (qualified, e.g. {@code trapmap report}) expects. */
+    static String expected(String command, String flag) {
+        String name = command.startsWith("trapmap ") ? command.substring("trapmap ".length()) : command;
+        String special = EXPECTED_IN.get(name + " " + flag);
+        return special != null ? special : expected(flag);
+    }
+
+    /** Whether {@link #expected(String, String)} knows what {@code flag} of {@code command} expects. */
+    static boolean knows(String command, String flag) {
+        return !expected(command, flag).equals(expected("--no-such-option"));
     }
 
     /** {@code "--x is required: <what it expects>"}. */

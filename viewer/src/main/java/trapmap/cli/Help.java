@@ -14,8 +14,24 @@ final class Help {
     static final String DEFECT_FILE = "JSON file of user-defined defects: one object, an array, or"
             + " {\"defects\": [...]}; fields id, name, source, level {reference Ec|Ev|Ei, energy_ev, degeneracy},"
             + " sigma_n_cm2, sigma_p_cm2, vth_convention fixed|green, spread. Default: none.";
-    static final String EXIT_CODES = "Exit codes: 0 done; 1 some rows of a cases file failed (inspect: some wafers did not pass); 2 invalid input"
-            + " (one line on stderr names the flag); 3 internal error.";
+    /** Exit codes of a command that only computes and prints (no output file, no cases file). */
+    static final String EXIT_CODES = "Exit codes: 0 done; 2 invalid input (one line on stderr names the option);"
+            + " 3 internal error.";
+    /** Exit codes of a command that writes a map or files. */
+    static final String EXIT_CODES_OUTPUT = "Exit codes: 0 done; 2 invalid input (one line on stderr names the"
+            + " option); 3 internal error, or the output could not be written (disk full, no permission).";
+    /** Exit codes of {@code calc}, which also processes cases files. */
+    static final String EXIT_CODES_CALC = "Exit codes: 0 done; 1 some rows of the --cases file failed (the others"
+            + " were written); 2 invalid input (one line on stderr names the option), or --out cannot be written;"
+            + " 3 internal error.";
+    /** Exit codes of {@code compare} and {@code iron-map}: maps with an optional output and {@code --strict}. */
+    static final String EXIT_CODES_STRICT = "Exit codes: 0 done; 2 invalid input (one line on stderr names the"
+            + " option), or a registration warning with --strict; 3 internal error, or the output could not be"
+            + " written (disk full, no permission).";
+    /** Exit codes of {@code trapmap} without a command. */
+    static final String EXIT_CODES_ROOT = "Exit codes without a command: 0 done; 2 invalid input (one line on stderr"
+            + " names the option); 3 internal error; 4 the demonstration batch's output could not be written. Each"
+            + " command lists its own exit codes in its --help.";
     static final String MODELS = "Models (defaults): n_i = 9.65e9 cm^-3 at 300 K (Altermatt et al., JAP 93, 1598"
             + " (2003)) with the Sproul & Green (1991) temperature form; N_c, N_v of Green, JAP 67, 2944 (1990);"
             + " intrinsic recombination of Richter et al., PRB 86, 165202 (2012) with B_low = 4.73e-15 cm^3/s"

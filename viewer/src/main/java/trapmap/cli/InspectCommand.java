@@ -81,6 +81,11 @@ final class InspectCommand implements Callable<Integer> {
                     + " leaves them out).")
     boolean thumbnails;
 
+    @Option(names = "--thumbnail-captions", description = "Give each thumbnail a small caption strip below it: the"
+            + " wafer id and the quantity with its unit (no date: thumbnails stay the same between runs)."
+            + " Default: none.")
+    boolean thumbnailCaptions;
+
     @Option(names = "--physics", paramLabel = "<physics.json>", description = PhysicsOption.DESCRIPTION
             + " Replaces the rules file's physics block.")
     Path physics;
@@ -126,7 +131,8 @@ final class InspectCommand implements Callable<Integer> {
         try {
             s = new BatchInspection(rules).withIron(ironPairs).withSource(source)
                     .finishingWith(dir -> BatchReport.writeFor(dir, judged))
-                    .run(files, out, new BatchInspection.Options(n, resume, thumbnails, progress, overwrite));
+                    .run(files, out, new BatchInspection.Options(n, resume, thumbnails, progress, overwrite)
+                            .withThumbnailCaptions(thumbnailCaptions));
         } catch (RunRefusedException e) {
             throw new InputException(e.getMessage());
         } catch (BatchOutputException e) {

@@ -33,11 +33,11 @@ import trapmap.shared.progress.ProgressListener;
             "pixel gives [Fe_i] = C(Δn)·(1/τ_Fei − 1/τ_FeB), C = 1/(χ_Fei − χ_FeB) (Macdonald, Geerligs & Azzizi,",
             "JAP 95, 1021 (2004)). Pixel statuses: " + "0 ok, 1 below-limit (value = detection limit), 2 near-crossover"
                     + " (Δn within a factor 2 of the",
-            "crossover), 3 crossover (Δn within ±10 %: no signal), 4 invalid lifetime, 5 no data,",
+            "crossover), 3 crossover (Δn within ±10 %%: no signal), 4 invalid lifetime, 5 no data,",
             "6 inconsistent (the lifetime moved the way dissociation cannot move it at this Δn: a fall above the",
             "crossover, a rise below it; no value). 'trapmap calc iron' does the same for one pair of lifetimes.",
             ""},
-        footer = {"", Help.EXIT_CODES})
+        footer = {"", Help.EXIT_CODES_STRICT})
 final class IronMapCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;

@@ -83,6 +83,20 @@ enum Quantity {
         return v;
     }
 
+    /**
+     * A finite number in plain decimal or scientific notation, for options without a unit converter; the caller
+     * names the option and what it expects.
+     *
+     * @throws TypeConversionException when {@code text} is not such a number
+     */
+    static Double plainNumber(String text) {
+        String t = text == null ? "" : text.trim();
+        if (!NUMBER.matcher(t).matches() || !Double.isFinite(Double.parseDouble(t))) {
+            throw new TypeConversionException("'" + t + "' is not a number");
+        }
+        return Double.parseDouble(t);
+    }
+
     /** A value that does not fit its option; the message is the rule, without the flag. */
     static final class BadValue extends TypeConversionException {
         private static final long serialVersionUID = 1L;

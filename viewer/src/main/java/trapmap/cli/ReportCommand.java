@@ -59,8 +59,12 @@ final class ReportCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws IOException {
+        if (Files.isDirectory(map)) {
+            throw new InputException(map + ": is a directory, not a regular file; give a map file");
+        }
         if (!Files.isRegularFile(map)) {
-            throw new InputException(map + " does not exist or is not a file");
+            throw new InputException(map + (Files.exists(map) ? ": is not a regular file (a device, pipe or socket)"
+                    : ": no such file"));
         }
         if (!out.getFileName().toString().toLowerCase(Locale.ROOT).endsWith(".pdf")) {
             throw new InputException("-o " + out + " must name a .pdf file");

@@ -22,7 +22,7 @@ import picocli.CommandLine.Spec;
         description = {"Converts minority-carrier lifetimes of silicon wafers into equivalent SRH trap densities.",
             "Without a command: opens the viewer on the demonstration set (no display: runs the demonstration batch).",
             ""},
-        footer = {"", "Run 'trapmap <command> --help' for the options of a command.", "", Help.EXIT_CODES})
+        footer = {"", "Run 'trapmap <command> --help' for the options of a command.", "", Help.EXIT_CODES_ROOT})
 public final class TrapmapCommand implements Callable<Integer> {
     /** Version line printed by {@code --version}. */
     static final String VERSION = "trapmap 0.1.0";
@@ -51,6 +51,9 @@ public final class TrapmapCommand implements Callable<Integer> {
         cl.setParameterExceptionHandler(errors);
         cl.setExecutionExceptionHandler(errors);
         cl.setExecutionStrategy(errors);
+        // numbers without a unit converter: plain decimal or scientific notation, finite (no NaN, no hexadecimal)
+        cl.registerConverter(Double.class, Quantity::plainNumber);
+        cl.registerConverter(double.class, Quantity::plainNumber);
         return cl;
     }
 

@@ -115,9 +115,11 @@ public final class BatchInspection {
      * @param progress   told after each wafer (done, total, file name)
      * @param overwrite  a new run (not {@code resume}) into a folder holding another run's results first removes
      *                   them (only the batch's own files); without it such a folder is refused
+     * @param thumbnailCaptions give each thumbnail a small caption strip (wafer id, quantity and unit; no date, so
+     *                   thumbnails stay byte-identical between runs)
      */
     public record Options(int threads, boolean resume, boolean thumbnails, ProgressListener progress,
-                         boolean overwrite) {
+                         boolean overwrite, boolean thumbnailCaptions) {
         public Options {
             if (threads < 1) {
                 throw new IllegalArgumentException("threads must be >= 1 but was " + threads);
@@ -128,9 +130,19 @@ public final class BatchInspection {
             progress = progress == null ? ProgressListener.NONE : progress;
         }
 
-        /** Without overwrite. */
+        /** Without thumbnail captions. */
+        public Options(int threads, boolean resume, boolean thumbnails, ProgressListener progress,
+                       boolean overwrite) {
+            this(threads, resume, thumbnails, progress, overwrite, false);
+        }
+
+        /** Without overwrite and thumbnail captions. */
         public Options(int threads, boolean resume, boolean thumbnails, ProgressListener progress) {
-            this(threads, resume, thumbnails, progress, false);
+            this(threads, resume, thumbnails, progress, false, false);
+        }
+
+        public Options withThumbnailCaptions(boolean captions) {
+            return new Options(threads, resume, thumbnails, progress, overwrite, captions);
         }
     }
 
@@ -402,6 +414,7 @@ public final class BatchInspection {
             move(tmpFootprints, footprintsPartial);
             Deque<Future<WaferResult>> pending = new ArrayDeque<>();
             Iterator<Path> next = todo.iterator();
+            WaferInspection inspection = this.inspection.withThumbnailCaptions(options.thumbnailCaptions());
             MemoryBudget memory = memoryBudgetBytes < 0 ? MemoryBudget.ofThisHeap()
                     : new MemoryBudget(memoryBudgetBytes);
             int done = 0;

@@ -5,6 +5,8 @@ import java.awt.image.DataBufferInt;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.BitSet;
+import trapmap.maps.io.Caption;
+import trapmap.maps.io.CaptionedPicture;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.PngFiles;
 import trapmap.maps.io.PngStyle;
@@ -35,6 +37,19 @@ public final class Thumbnails {
      * thumbnail pixel counts as flagged when any map pixel in it is flagged, so no region is too small to be seen.
      */
     static BufferedImage thumbnail(WaferMap map, BitSet flagged, double lowUs, double highUs) {
+        return thumbnail(map, flagged, lowUs, highUs, false);
+    }
+
+    /**
+     * The thumbnail, with {@code caption}: a small caption strip below it ({@link CaptionedPicture#SMALL_STRIP_PX}
+     * px) naming the wafer and the quantity with its unit, no date, so that it is the same in every run.
+     */
+    static BufferedImage thumbnail(WaferMap map, BitSet flagged, double lowUs, double highUs, boolean caption) {
+        BufferedImage img = picture(map, flagged, lowUs, highUs);
+        return caption ? CaptionedPicture.withSmallCaption(img, Caption.of(map)) : img;
+    }
+
+    private static BufferedImage picture(WaferMap map, BitSet flagged, double lowUs, double highUs) {
         int w = map.width();
         int h = map.height();
         double scale = (double) Math.max(w, h) / THUMBNAIL_PX; // map pixels per thumbnail pixel
@@ -114,8 +129,8 @@ public final class Thumbnails {
         return out;
     }
 
-    static void write(WaferMap map, BitSet flagged, double lowUs, double highUs, Path file) {
-        BufferedImage img = thumbnail(map, flagged, lowUs, highUs);
+    static void write(WaferMap map, BitSet flagged, double lowUs, double highUs, boolean caption, Path file) {
+        BufferedImage img = thumbnail(map, flagged, lowUs, highUs, caption);
         Path tmp = file.resolveSibling(file.getFileName() + ".tmp");
         try {
             OutputFolder.write(file, () -> {

@@ -52,14 +52,20 @@ public final class WaferInspection {
     private final Rules rules;
     private final MapReader reader;
     private final Map<String, Defect> defects = new HashMap<>();
+    private final boolean thumbnailCaptions;
 
     public WaferInspection(Rules rules) {
         this(rules, MapFiles::readSingle);
     }
 
     public WaferInspection(Rules rules, MapReader reader) {
+        this(rules, reader, false);
+    }
+
+    private WaferInspection(Rules rules, MapReader reader, boolean thumbnailCaptions) {
         this.rules = rules;
         this.reader = reader;
+        this.thumbnailCaptions = thumbnailCaptions;
         for (Rules.Profile p : rules.allProfiles()) {
             if (p.defectId() != null) {
                 defects.put(p.defectId(), DefectLibrary.byId(p.defectId()));
@@ -68,6 +74,11 @@ public final class WaferInspection {
     }
 
     /** Inspects one file; see {@link #inspect(Path, Path)}. */
+    /** This inspection, writing its thumbnails with a small caption strip (or without). */
+    public WaferInspection withThumbnailCaptions(boolean captions) {
+        return captions == thumbnailCaptions ? this : new WaferInspection(rules, reader, captions);
+    }
+
     public WaferResult inspect(Path file) {
         return inspect(file, null);
     }
@@ -252,7 +263,7 @@ public final class WaferInspection {
         Footprint footprint = Footprint.of(family, grid, masks.evaluated(), regions.pixels());
         if (thumbnail != null) {
             Thumbnails.write(lifetime, regions.pixels(), life.percentile(Thumbnails.LOW_PERCENT),
-                    life.percentile(Thumbnails.HIGH_PERCENT), thumbnail);
+                    life.percentile(Thumbnails.HIGH_PERCENT), thumbnailCaptions, thumbnail);
         }
         WaferResult result = new WaferResult(name, map.waferId(), failed.isEmpty() ? WaferResult.Status.PASS
                 : WaferResult.Status.FAIL, grade, profile.name(), defect == null ? null : defect.id(), values, failed,

@@ -35,7 +35,10 @@ final class PngMaps {
     /** The picture of a map (TYPE_INT_ARGB). */
     static BufferedImage render(WaferMap map, PngStyle style) {
         boolean log = logScale(map, style);
-        double[] range = range(map.raster().samples(), log, style);
+        return render(map, style, log, range(map.raster().samples(), log, style));
+    }
+
+    private static BufferedImage render(WaferMap map, PngStyle style, boolean log, double[] range) {
         double lo = log ? Math.log10(range[0]) : range[0];
         double hi = log ? Math.log10(range[1]) : range[1];
         double span = hi - lo;
@@ -105,8 +108,20 @@ final class PngMaps {
         return new double[] {pick[(int) Math.floor(0.01 * (n - 1))], pick[(int) Math.ceil(0.99 * (n - 1))]};
     }
 
+    /**
+     * The picture written to a {@code .png} file: the map with its colour bar (range and unit) and a caption strip
+     * ({@link Caption#of}), see {@link CaptionedPicture#compose}.
+     */
+    static BufferedImage captioned(WaferMap map, PngStyle style) {
+        boolean log = logScale(map, style);
+        double[] range = range(map.raster().samples(), log, style);
+        Caption caption = Caption.of(map);
+        return CaptionedPicture.compose(render(map, style, log, range), new CaptionedPicture.ColourBar(style.colours(), range[0],
+                range[1], log, caption.quantityWithUnit()), caption);
+    }
+
     static void write(WaferMap map, Path target, PngStyle style) throws IOException {
-        BufferedImage img = render(map, style);
+        BufferedImage img = captioned(map, style);
         ImageWriter writer = null;
         for (Iterator<ImageWriter> it = ImageIO.getImageWritersByFormatName("png"); it.hasNext();) {
             ImageWriter w = it.next();

@@ -37,8 +37,9 @@ class PngMapsTest {
         MapFiles.write(m, f);
 
         BufferedImage img = ImageIO.read(f.toFile());
-        assertThat(img.getWidth()).isEqualTo(101);
-        assertThat(img.getHeight()).isEqualTo(2);
+        // the map at the top left; colour bar and caption strip around it (CaptionedPictureTest)
+        assertThat(img.getWidth()).isEqualTo(CaptionedPicture.MIN_WIDTH_PX);
+        assertThat(img.getHeight()).isEqualTo(CaptionedPicture.MIN_BAR_PX + CaptionedPicture.STRIP_PX);
         assertThat(img.getRGB(0, 1) >>> 24).isZero(); // NaN: transparent
         assertThat(img.getRGB(1, 1) >>> 24).isEqualTo(255);
         // 1st..99th percentile range: the ends take the first and last colours

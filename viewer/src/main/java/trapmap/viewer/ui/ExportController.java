@@ -5,7 +5,6 @@ import java.io.IOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.util.Locale;
-import javax.imageio.ImageIO;
 import javax.swing.JFileChooser;
 import javax.swing.SwingWorker;
 import javax.swing.filechooser.FileNameExtensionFilter;
@@ -61,9 +60,12 @@ final class ExportController {
             return;
         }
         try {
-            java.io.ByteArrayOutputStream out = new java.io.ByteArrayOutputStream();
-            ImageIO.write(window.viewImage(), "png", out);
-            ViewerExports.writeAtomically(p, out.toByteArray());
+            WaferAnalysis r = w.result();
+            String defectId = r != null && r.conversion() != null ? r.conversion().defectId()
+                    : model.analysis().defectId();
+            ViewerExports.writeAtomically(p, ViewerExports.viewPng(window.viewImage(),
+                    ViewerExports.viewCaption(w, model.analysis().quantity(), defectId,
+                            java.time.LocalDate.now(java.time.ZoneOffset.UTC))));
             status.setMessage("view saved to " + p);
         } catch (IOException e) {
             window.error("View not saved", e);

@@ -30,6 +30,22 @@ public final class ViewerExports {
     }
 
     /** Writes bytes atomically: a temporary file beside the target, then a rename. */
+    /**
+     * The caption of an exported view: the wafer (its id, else its file name), the quantity shown with its unit, the
+     * defect it was converted with (none for the measured lifetime) and the export date.
+     */
+    public static trapmap.maps.io.Caption viewCaption(ViewerModel.OpenWafer w, DisplayedQuantity shown,
+                                                      String defectId, java.time.LocalDate date) {
+        String id = w.map().waferId();
+        return new trapmap.maps.io.Caption(id == null || id.isBlank() ? w.name() : id, shown.quantity().key(),
+                shown.unit(), shown.needsDefect() ? defectId : null, date == null ? null : date.toString());
+    }
+
+    /** The PNG bytes of an exported view ({@code view}: map and colour bar) with its caption strip below. */
+    public static byte[] viewPng(java.awt.image.BufferedImage view, trapmap.maps.io.Caption caption) {
+        return trapmap.maps.io.PngFiles.encode(trapmap.maps.io.CaptionedPicture.withCaption(view, caption));
+    }
+
     public static void writeAtomically(Path target, byte[] bytes) throws IOException {
         AtomicFiles.write(target, bytes);
     }
