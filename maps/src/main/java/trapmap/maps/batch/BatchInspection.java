@@ -295,7 +295,8 @@ public final class BatchInspection {
      */
     private RunManifest prepare(List<Path> files, Path outDir, Options options) throws IOException {
         java.time.Instant now = java.time.Instant.now();
-        RunManifest manifest = RunManifest.start(source, rules.physics(), files, options.thumbnails(), now);
+        RunManifest manifest = RunManifest.start(source, rules.physics(), files, options.thumbnails(),
+                options.thumbnailCaptions(), now);
         RunManifest earlier;
         try {
             earlier = RunManifest.read(outDir);

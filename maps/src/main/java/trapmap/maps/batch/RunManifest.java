@@ -42,10 +42,11 @@ import trapmap.physics.conversion.PhysicsSettings;
  * @param inputs       number of input files
  * @param inputsSha256 SHA-256 of the input files' absolute paths, one per line, in input order
  * @param thumbnails   whether thumbnails were written
+ * @param thumbnailCaptions whether the thumbnails carry a caption strip
  */
 public record RunManifest(String version, State state, Instant started, Instant resumed, Instant finished,
                           String rulesFile, String rulesSha256, Map<String, Object> physics, String physicsSha256,
-                          int inputs, String inputsSha256, boolean thumbnails) {
+                          int inputs, String inputsSha256, boolean thumbnails, boolean thumbnailCaptions) {
     /** The file name in the output folder. */
     public static final String FILE_NAME = "run.json";
     static final String FORMAT = "trapmap-run/1";
@@ -83,7 +84,7 @@ public record RunManifest(String version, State state, Instant started, Instant 
 
     /** A new run's record, state {@link State#RUNNING}. */
     static RunManifest start(Source source, PhysicsSettings physics, List<Path> inputs, boolean thumbnails,
-                             Instant now) {
+                             boolean thumbnailCaptions, Instant now) {
         Map<String, Object> p = PhysicsSettingsFile.toJson(physics);
         StringBuilder list = new StringBuilder();
         for (Path f : inputs) {
@@ -91,18 +92,18 @@ public record RunManifest(String version, State state, Instant started, Instant 
         }
         return new RunManifest(source.version(), State.RUNNING, now, null, null, source.rulesFile(),
                 source.rulesSha256(), p, sha256(compact(p).getBytes(StandardCharsets.UTF_8)), inputs.size(),
-                sha256(list.toString().getBytes(StandardCharsets.UTF_8)), thumbnails);
+                sha256(list.toString().getBytes(StandardCharsets.UTF_8)), thumbnails, thumbnails && thumbnailCaptions);
     }
 
     /** This run resumed at {@code now}: the first start time of {@code earlier} is kept. */
     RunManifest resumedFrom(RunManifest earlier, Instant now) {
         return new RunManifest(version, State.RUNNING, earlier.started(), now, null, rulesFile, rulesSha256, physics,
-                physicsSha256, inputs, inputsSha256, thumbnails);
+                physicsSha256, inputs, inputsSha256, thumbnails, thumbnailCaptions);
     }
 
     RunManifest with(State s, Instant finishedAt) {
         return new RunManifest(version, s, started, resumed, finishedAt, rulesFile, rulesSha256, physics,
-                physicsSha256, inputs, inputsSha256, thumbnails);
+                physicsSha256, inputs, inputsSha256, thumbnails, thumbnailCaptions);
     }
 
     /**
@@ -135,6 +136,9 @@ public record RunManifest(String version, State state, Instant started, Instant 
         }
         if (thumbnails != now.thumbnails) {
             d.add("thumbnails " + (thumbnails ? "on" : "off") + " then, " + (now.thumbnails ? "on" : "off") + " now");
+        } else if (thumbnailCaptions != now.thumbnailCaptions) {
+            d.add("thumbnail captions " + (thumbnailCaptions ? "on" : "off") + " then, "
+                    + (now.thumbnailCaptions ? "on" : "off") + " now");
         }
         return d;
     }
@@ -155,6 +159,7 @@ public record RunManifest(String version, State state, Instant started, Instant 
         m.put("inputs", inputs);
         m.put("inputs_sha256", inputsSha256);
         m.put("thumbnails", thumbnails);
+        m.put("thumbnail_captions", thumbnailCaptions);
         byte[] bytes = JSON.writeValueAsBytes(m);
         Path file = dir.resolve(FILE_NAME);
         OutputFolder.write(file, () -> AtomicFiles.write(file, bytes));
@@ -183,7 +188,7 @@ public record RunManifest(String version, State state, Instant started, Instant 
                     Instant.parse(text(m, "started")), instant(m, "resumed"), instant(m, "finished"),
                     text(m, "rules_file"), text(m, "rules_sha256"), physics, text(m, "physics_sha256"),
                     ((Number) m.get("inputs")).intValue(), text(m, "inputs_sha256"),
-                    Boolean.TRUE.equals(m.get("thumbnails")));
+                    Boolean.TRUE.equals(m.get("thumbnails")), Boolean.TRUE.equals(m.get("thumbnail_captions")));
         } catch (RuntimeException e) {
             throw new IOException(file + ": not a run record (" + e.getMessage() + ")", e);
         }

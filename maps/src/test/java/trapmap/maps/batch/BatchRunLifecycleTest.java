@@ -137,6 +137,21 @@ class BatchRunLifecycleTest {
     }
 
     @Test
+    void resumeWithOtherThumbnailCaptionsIsRefused() throws Exception {
+        // thumbnails with captions after plain ones would mix two kinds of picture in one folder
+        List<Path> files = maps();
+        Path out = dir.resolve("out");
+        batch(SOURCE_A).run(files, out, options(false, false));
+        assertThat(RunManifest.read(out).thumbnailCaptions()).isFalse();
+        assertThatThrownBy(() -> batch(SOURCE_A).run(files, out, options(true, false).withThumbnailCaptions(true)))
+                .isInstanceOf(RunRefusedException.class)
+                .hasMessageContaining("thumbnail captions off then, on now");
+        batch(SOURCE_A).run(files, out, options(false, true).withThumbnailCaptions(true));
+        assertThat(RunManifest.read(out).thumbnailCaptions()).isTrue();
+        batch(SOURCE_A).run(files, out, options(true, false).withThumbnailCaptions(true));
+    }
+
+    @Test
     void resumeRefusesResultsWithoutARunRecord() throws Exception {
         List<Path> files = maps();
         Path out = dir.resolve("out");
