@@ -38,12 +38,30 @@ public final class NumberText {
 
     /** The shortest text that reads back to {@code v}; "" when not finite. */
     public static String of(double v) {
-        return Double.isFinite(v) ? trim(NumberOutput.toString(v, true)) : "";
+        if (!Double.isFinite(v)) {
+            return "";
+        }
+        if (v != 0 && Math.abs(v) < Double.MIN_NORMAL) {
+            String one = oneDigit(v, false);
+            if (one != null) {
+                return one;
+            }
+        }
+        return trim(NumberOutput.toString(v, true));
     }
 
     /** The shortest text that reads back to the float {@code v}; "" when not finite. */
     public static String of(float v) {
-        return Float.isFinite(v) ? trim(NumberOutput.toString(v, true)) : "";
+        if (!Float.isFinite(v)) {
+            return "";
+        }
+        if (v != 0 && Math.abs(v) < Float.MIN_NORMAL) {
+            String one = oneDigit(v, true);
+            if (one != null) {
+                return one;
+            }
+        }
+        return trim(NumberOutput.toString(v, true));
     }
 
     /** A value of a map's float samples (a sample, quantile or peak) at float precision: {@code of((float) v)}. */
@@ -96,6 +114,28 @@ public final class NumberText {
      */
     public static ObjectMapper jsonMapper() {
         return JsonMapper.builder().enable(StreamWriteFeature.USE_FAST_DOUBLE_WRITER).build();
+    }
+
+    /**
+     * Schubfach (like Java 19's {@code Double.toString}) writes at least two digits: where one digit reads back, the
+     * two-digit text is the closer one. That happens only for subnormal numbers, whose rounding interval is wide
+     * (4.9E-324 where 5E-324 reads back too); there the one-digit text nearest {@code v} that reads back, or null.
+     */
+    private static String oneDigit(double v, boolean isFloat) {
+        BigDecimal exact = new BigDecimal(v);
+        String best = null;
+        BigDecimal bestDistance = null;
+        for (RoundingMode m : new RoundingMode[] {RoundingMode.FLOOR, RoundingMode.CEILING}) {
+            BigDecimal d = exact.round(new java.math.MathContext(1, m));
+            String text = d.toString();
+            boolean back = isFloat ? Float.parseFloat(text) == (float) v : Double.parseDouble(text) == v;
+            BigDecimal distance = d.subtract(exact).abs();
+            if (back && (bestDistance == null || distance.compareTo(bestDistance) < 0)) {
+                best = text;
+                bestDistance = distance;
+            }
+        }
+        return best;
     }
 
     private static String rounded(double v, int decimals) {
