@@ -174,6 +174,13 @@ final class StatsCommand implements Callable<Integer> {
         }
         m.put("left_out", leftOut(invalid, s, belowLimit == null ? 0 : (Integer) belowLimit.get("count"),
                 converted != null));
+        if (s.nonPositiveCount() > 0) {
+            Map<String, Object> in = new LinkedHashMap<>();
+            in.put("count", s.nonPositiveCount());
+            in.put("statistics", NON_POSITIVE_INCLUDED);
+            in.put("reason", "value <= 0: counted as measured by the statistics that are defined for it");
+            m.put("non_positive_included", in);
+        }
         if (!warnings.isEmpty()) {
             m.put("warnings", warnings);
         }
@@ -197,6 +204,9 @@ final class StatsCommand implements Callable<Integer> {
         print(m);
         return Exit.OK;
     }
+
+    /** The statistics that count values <= 0 as measured (the harmonic and geometric means leave them out). */
+    static final String NON_POSITIVE_INCLUDED = "mean, median, p5, p95, min, max, std";
 
     private static Map<String, Object> invalidArea(InvalidArea a) {
         Map<String, Object> m = new LinkedHashMap<>();
@@ -346,17 +356,18 @@ final class StatsCommand implements Callable<Integer> {
         }
         t.number(m, "count", "pixels", "", null);
         t.number(m, "area_mm2", "area", "mm²", null);
-        t.number(m, "mean", "mean", unit, "n/a");
-        String positiveOnly = ((Integer) m.get("non_positive_count")) == 0 ? "" : " (" + m.get("non_positive_count")
-                + " px <= 0 left out)";
+        int nonPositive = (Integer) m.get("non_positive_count");
+        String positiveOnly = nonPositive == 0 ? "" : " (" + nonPositive + " px <= 0 left out)";
+        String withNonPositive = nonPositive == 0 ? "" : " (" + nonPositive + " px <= 0 included)";
+        t.number(m, "mean", "mean" + withNonPositive, unit, "n/a");
         t.number(m, "harmonic_mean", "harmonic mean" + positiveOnly, unit, "n/a");
         t.number(m, "geometric_mean", "geometric mean" + positiveOnly, unit, "n/a");
-        t.number(m, "median", "median", unit, "n/a");
-        t.number(m, "p5", "5th percentile", unit, "n/a");
-        t.number(m, "p95", "95th percentile", unit, "n/a");
+        t.number(m, "median", "median" + withNonPositive, unit, "n/a");
+        t.number(m, "p5", "5th percentile" + withNonPositive, unit, "n/a");
+        t.number(m, "p95", "95th percentile" + withNonPositive, unit, "n/a");
         t.number(m, "min", "min", unit, "n/a");
         t.number(m, "max", "max", unit, "n/a");
-        t.number(m, "std", "standard deviation", unit, "n/a");
+        t.number(m, "std", "standard deviation" + withNonPositive, unit, "n/a");
         Map<String, Object> inv = (Map<String, Object>) m.get("invalid_area");
         t.row("invalid area", (inv.get("fraction") == null ? "n/a" : Format.number((Double) inv.get("fraction")))
                 + " of the evaluated area (" + inv.get("count") + " of " + inv.get("evaluated_count")

@@ -82,6 +82,8 @@ public final class ViewerExports {
             csv.printRecord("harmonic_mean", NumberText.of(s.harmonicMean()), unit);
             csv.printRecord("geometric_mean", NumberText.of(s.geometricMean()), unit);
             csv.printRecord("median", NumberText.sample(s.median()), unit);
+            csv.printRecord("non_positive_pixels (in mean, median, percentiles; not in harmonic and geometric mean)",
+                    s.nonPositiveCount(), "");
             csv.printRecord("standard_deviation", NumberText.of(s.standardDeviation()), unit);
             csv.printRecord("minimum", NumberText.sample(s.min()), unit);
             csv.printRecord("maximum", NumberText.sample(s.max()), unit);
