@@ -41,7 +41,8 @@ final class CsvMapWriter {
         MeasurementConditions c = map.conditions();
         Sidecar.conditionsJson(c).properties().forEach(e -> {
             if (!e.getKey().equals("extra")) {
-                comments.add(e.getKey() + "=" + e.getValue().asText());
+                comments.add(e.getKey() + "=" + (e.getValue().isNumber() ? NumberText.of(e.getValue().asDouble())
+                        : e.getValue().asText()));
             }
         });
         CSVFormat format = CSVFormat.DEFAULT.builder().setCommentMarker('#').setRecordSeparator('\n')

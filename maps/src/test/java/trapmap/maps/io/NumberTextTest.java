@@ -164,4 +164,35 @@ class NumberTextTest {
         double centre = 1.0 / 3;
         assertThat(Double.parseDouble(NumberText.gridPosition(7, centre, 0.3))).isEqualTo((7 - centre) * 0.3);
     }
+
+    @Test
+    void aCsvMapAtAPitchWithoutAnExactDoubleReadsBackOntoTheSamePixelsWithShortTexts(
+            @org.junit.jupiter.api.io.TempDir java.nio.file.Path dir) throws Exception {
+        int w = 120;
+        int h = 90;
+        float[] samples = new float[w * h];
+        SplittableRandom r = new SplittableRandom(3);
+        for (int i = 0; i < samples.length; i++) {
+            samples[i] = i % 17 == 0 ? Float.NaN : (float) (r.nextDouble() * 300);
+        }
+        trapmap.maps.raster.PixelGrid grid = new trapmap.maps.raster.PixelGrid(w, h, 0.3, 60.5, 44.5);
+        trapmap.maps.model.WaferMap map = new trapmap.maps.model.WaferMap(
+                trapmap.maps.raster.FloatRaster.wrap(w, h, samples), grid,
+                trapmap.maps.model.Quantity.EFFECTIVE_LIFETIME, "w", trapmap.maps.model.MeasurementConditions.UNKNOWN,
+                trapmap.maps.model.Provenance.of("test"));
+        java.nio.file.Path f = dir.resolve("w.csv");
+        MapFiles.write(map, f);
+        for (String line : java.nio.file.Files.readAllLines(f)) {
+            if (line.startsWith("#") || line.startsWith("x_mm")) {
+                continue;
+            }
+            String[] c = line.split(",");
+            assertThat(c[0]).matches("-?\\d+(\\.\\d?[1-9])?");
+            assertThat(c[1]).matches("-?\\d+(\\.\\d?[1-9])?");
+            assertThat(c[2]).isEqualTo(NumberText.of(Float.parseFloat(c[2])));
+        }
+        trapmap.maps.model.WaferMap back = MapFiles.readSingle(f);
+        assertThat(back.grid()).isEqualTo(grid);
+        assertThat(back.raster().samples()).isEqualTo(samples);
+    }
 }
