@@ -166,11 +166,13 @@ final class ConvertCommand implements Callable<Integer> {
         m.put("height", out.height());
         m.put("defect", result.defectId());
         Map<String, Integer> byStatus = new LinkedHashMap<>();
+        List<String> pixels = new ArrayList<>();
         for (PixelStatus s : PixelStatus.values()) {
             if (s == PixelStatus.INCONSISTENT) {
                 continue; // iron pairs only
             }
             byStatus.put(s.name(), counts[s.code()]);
+            pixels.add(counts[s.code()] + " " + statusWords(s));
         }
         m.put("pixels_by_status", byStatus);
         List<String> warnings = new ArrayList<>();
@@ -189,11 +191,22 @@ final class ConvertCommand implements Callable<Integer> {
             stdout.printf(Locale.ROOT, "wrote %s: %s (%s) of %s, %d x %d pixels%n", output,
                     out.quantity().key(), out.quantity().unit().isEmpty() ? "no unit" : out.quantity().unit(),
                     result.defectId(), out.width(), out.height());
-            stdout.println("pixels: " + byStatus);
+            stdout.println("pixels: " + String.join(", ", pixels));
             warnings.forEach(w -> stdout.println("warning: " + w));
             stdout.println("caution: " + Calculation.CAUTION);
         }
         stdout.flush();
+    }
+
+    /** How the text line names the pixels of a status, e.g. "below the detection limit". */
+    static String statusWords(PixelStatus s) {
+        return switch (s) {
+            case OK -> "ok";
+            case BELOW_LIMIT -> "below the detection limit";
+            case INVALID -> "invalid";
+            case NO_DATA -> "no data";
+            case INCONSISTENT -> "inconsistent";
+        };
     }
 
     private static Map<String, trapmap.maps.model.Quantity> quantities() {

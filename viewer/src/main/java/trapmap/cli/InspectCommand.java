@@ -163,7 +163,7 @@ final class InspectCommand implements Callable<Integer> {
             m.put("fail", s.fail());
             m.put("error", s.error());
             m.put("skipped", s.skipped());
-            m.put("yield", Output.num(s.yield()));
+            m.put("yield_fraction", Output.num(s.yield()));
             m.put("results_csv", s.csv().toString());
             m.put("results_json", s.json().toString());
             m.put("recurrence", s.recurrence().stream().map(Path::toString).toList());

@@ -7,11 +7,12 @@ import java.io.UncheckedIOException;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
+import trapmap.maps.io.NumberText;
 import trapmap.physics.conversion.ConversionWarning;
 
 /** JSON and aligned-text output. JSON never holds NaN or infinities: such values are written as {@code null}. */
 final class Output {
-    private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+    private static final ObjectMapper JSON = NumberText.jsonMapper().enable(SerializationFeature.INDENT_OUTPUT);
 
     private Output() {
     }
@@ -43,6 +44,21 @@ final class Output {
         return Double.isFinite(v) ? v : null;
     }
 
+    /** A value of a map's float samples (sample, quantile, peak) at float precision, or null when not finite. */
+    static Float sample(double v) {
+        return Double.isFinite(v) ? (float) v : null;
+    }
+
+    /** A position or length rounded to {@link NumberText#POSITION_RESOLUTION_MM}, or null when not finite. */
+    static Double mm(double v) {
+        return Double.isFinite(v) ? NumberText.roundMm(v) : null;
+    }
+
+    /** An area rounded to {@link NumberText#AREA_RESOLUTION_MM2}, or null when not finite. */
+    static Double mm2(double v) {
+        return Double.isFinite(v) ? NumberText.roundMm2(v) : null;
+    }
+
     /** {@code value} as indented JSON. */
     static String json(Object value) {
         try {
@@ -52,15 +68,24 @@ final class Output {
         }
     }
 
-    /** A result value as one CSV cell: numbers in full precision, lists joined by "; ", null as empty. */
+    /**
+     * A result value as one CSV cell: doubles and floats as the shortest text that reads back to them
+     * ({@link NumberText}), lists joined by "; ", null as empty.
+     */
     static String cell(Object value) {
         if (value == null) {
             return "";
         }
         if (value instanceof List<?> list) {
             List<String> parts = new ArrayList<>();
-            list.forEach(o -> parts.add(String.valueOf(o)));
+            list.forEach(o -> parts.add(cell(o)));
             return String.join("; ", parts);
+        }
+        if (value instanceof Double d) {
+            return NumberText.of(d);
+        }
+        if (value instanceof Float f) {
+            return NumberText.of(f);
         }
         return String.valueOf(value);
     }

@@ -135,7 +135,7 @@ final class StatsCommand implements Callable<Integer> {
             int evaluated = mask.count();
             belowLimit = new LinkedHashMap<>();
             belowLimit.put("count", below.count());
-            belowLimit.put("area_mm2", below.count() * map.grid().pixelAreaMm2());
+            belowLimit.put("area_mm2", Output.mm2(below.count() * map.grid().pixelAreaMm2()));
             belowLimit.put("area_fraction", Output.num(evaluated == 0 ? Double.NaN
                     : (double) below.count() / evaluated));
             belowLimit.put("note", "below detection limit: the SRH share of 1/τ_eff is under the detection"
@@ -157,15 +157,15 @@ final class StatsCommand implements Callable<Integer> {
         m.put("edge_exclusion_mm", edgeExclusionMm);
         m.put("outline", outline);
         m.put("count", s.count());
-        m.put("area_mm2", Output.num(s.areaMm2()));
+        m.put("area_mm2", Output.mm2(s.areaMm2()));
         m.put("mean", Output.num(s.mean()));
         m.put("harmonic_mean", Output.num(s.harmonicMean()));
         m.put("geometric_mean", Output.num(s.geometricMean()));
-        m.put("median", Output.num(s.median()));
-        m.put("p5", Output.num(s.percentiles().get(0).value()));
-        m.put("p95", Output.num(s.percentiles().get(1).value()));
-        m.put("min", Output.num(s.min()));
-        m.put("max", Output.num(s.max()));
+        m.put("median", Output.sample(s.median()));
+        m.put("p5", Output.sample(s.percentiles().get(0).value()));
+        m.put("p95", Output.sample(s.percentiles().get(1).value()));
+        m.put("min", Output.sample(s.min()));
+        m.put("max", Output.sample(s.max()));
         m.put("std", Output.num(s.standardDeviation()));
         m.put("non_positive_count", s.nonPositiveCount());
         m.put("invalid_area", invalidArea(invalid));
@@ -174,6 +174,13 @@ final class StatsCommand implements Callable<Integer> {
         }
         m.put("left_out", leftOut(invalid, s, belowLimit == null ? 0 : (Integer) belowLimit.get("count"),
                 converted != null));
+        if (s.nonPositiveCount() > 0) {
+            Map<String, Object> in = new LinkedHashMap<>();
+            in.put("count", s.nonPositiveCount());
+            in.put("statistics", NON_POSITIVE_INCLUDED);
+            in.put("reason", "value <= 0: counted as measured by the statistics that are defined for it");
+            m.put("non_positive_included", in);
+        }
         if (!warnings.isEmpty()) {
             m.put("warnings", warnings);
         }
@@ -185,8 +192,8 @@ final class StatsCommand implements Callable<Integer> {
             t.put("flagged_side", side.name().toLowerCase(Locale.ROOT));
             t.put("fraction_below", Output.num(f.fractionBelow()));
             t.put("fraction_above", Output.num(f.fractionAbove()));
-            t.put("area_below_mm2", Output.num(f.areaBelowMm2()));
-            t.put("area_above_mm2", Output.num(f.areaAboveMm2()));
+            t.put("area_below_mm2", Output.mm2(f.areaBelowMm2()));
+            t.put("area_above_mm2", Output.mm2(f.areaAboveMm2()));
             t.put("flagged_fraction", Output.num(side == RegionCriteria.Side.ABOVE ? f.fractionAbove()
                     : f.fractionBelow()));
             m.put("threshold", t);
@@ -198,11 +205,14 @@ final class StatsCommand implements Callable<Integer> {
         return Exit.OK;
     }
 
+    /** The statistics that count values <= 0 as measured (the harmonic and geometric means leave them out). */
+    static final String NON_POSITIVE_INCLUDED = "mean, median, p5, p95, min, max, std";
+
     private static Map<String, Object> invalidArea(InvalidArea a) {
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("fraction", Output.num(a.fraction()));
         m.put("count", a.invalidCount());
-        m.put("area_mm2", Output.num(a.areaMm2()));
+        m.put("area_mm2", Output.mm2(a.areaMm2()));
         m.put("evaluated_count", a.evaluatedCount());
         m.put("non_finite_count", a.nonFiniteCount());
         m.put("non_positive_count", a.nonPositiveCount());
@@ -262,12 +272,12 @@ final class StatsCommand implements Callable<Integer> {
             outline.put("source", "fitted");
             outline.put("model", fit.model().name().toLowerCase(Locale.ROOT));
             outline.put("description", fit.shape().describe());
-            outline.put("rms_residual_mm", Output.num(fit.quality().rmsResidualMm()));
+            outline.put("rms_residual_mm", Output.mm(fit.quality().rmsResidualMm()));
             FormatMatch match = fit.closestFormat();
             outline.put("format", match.format() == null ? null : match.format().id());
             outline.put("family", match.family());
             outline.put("within_tolerance", match.withinTolerance());
-            outline.put("deviation_mm", Output.num(match.deviationMm()));
+            outline.put("deviation_mm", Output.mm(match.deviationMm()));
             outline.put("tolerance_mm", Output.num(match.toleranceMm()));
             outline.put("pitch_mm", Output.num(match.pitchMm()));
             outline.put("fiducial", match.mark().key());
@@ -306,22 +316,22 @@ final class StatsCommand implements Callable<Integer> {
         for (Region r : sorted) {
             Map<String, Object> row = new LinkedHashMap<>();
             row.put("id", r.id());
-            row.put("area_mm2", r.areaMm2());
+            row.put("area_mm2", Output.mm2(r.areaMm2()));
             row.put("pixels", r.pixelCount());
-            row.put("centroid_x_mm", r.centroidXMm());
-            row.put("centroid_y_mm", r.centroidYMm());
+            row.put("centroid_x_mm", Output.mm(r.centroidXMm()));
+            row.put("centroid_y_mm", Output.mm(r.centroidYMm()));
             row.put("centroid_inside", r.centroidInside());
-            row.put("position_x_mm", r.positionXMm());
-            row.put("position_y_mm", r.positionYMm());
-            row.put("min_x_mm", r.bounds().minXMm());
-            row.put("min_y_mm", r.bounds().minYMm());
-            row.put("max_x_mm", r.bounds().maxXMm());
-            row.put("max_y_mm", r.bounds().maxYMm());
-            row.put("peak", Output.num(r.peakValue()));
-            row.put("peak_x_mm", r.peakXMm());
-            row.put("peak_y_mm", r.peakYMm());
+            row.put("position_x_mm", Output.mm(r.positionXMm()));
+            row.put("position_y_mm", Output.mm(r.positionYMm()));
+            row.put("min_x_mm", Output.mm(r.bounds().minXMm()));
+            row.put("min_y_mm", Output.mm(r.bounds().minYMm()));
+            row.put("max_x_mm", Output.mm(r.bounds().maxXMm()));
+            row.put("max_y_mm", Output.mm(r.bounds().maxYMm()));
+            row.put("peak", Output.sample(r.peakValue()));
+            row.put("peak_x_mm", Output.mm(r.peakXMm()));
+            row.put("peak_y_mm", Output.mm(r.peakYMm()));
             row.put("mean", Output.num(r.meanValue()));
-            row.put("edge_distance_mm", Output.num(r.edgeDistanceMm()));
+            row.put("edge_distance_mm", Output.mm(r.edgeDistanceMm()));
             rows.add(row);
         }
         return rows;
@@ -346,17 +356,18 @@ final class StatsCommand implements Callable<Integer> {
         }
         t.number(m, "count", "pixels", "", null);
         t.number(m, "area_mm2", "area", "mm²", null);
-        t.number(m, "mean", "mean", unit, "n/a");
-        String positiveOnly = ((Integer) m.get("non_positive_count")) == 0 ? "" : " (" + m.get("non_positive_count")
-                + " px <= 0 left out)";
+        int nonPositive = (Integer) m.get("non_positive_count");
+        String positiveOnly = nonPositive == 0 ? "" : " (" + nonPositive + " px <= 0 left out)";
+        String withNonPositive = nonPositive == 0 ? "" : " (" + nonPositive + " px <= 0 included)";
+        t.number(m, "mean", "mean" + withNonPositive, unit, "n/a");
         t.number(m, "harmonic_mean", "harmonic mean" + positiveOnly, unit, "n/a");
         t.number(m, "geometric_mean", "geometric mean" + positiveOnly, unit, "n/a");
-        t.number(m, "median", "median", unit, "n/a");
-        t.number(m, "p5", "5th percentile", unit, "n/a");
-        t.number(m, "p95", "95th percentile", unit, "n/a");
+        t.number(m, "median", "median" + withNonPositive, unit, "n/a");
+        t.number(m, "p5", "5th percentile" + withNonPositive, unit, "n/a");
+        t.number(m, "p95", "95th percentile" + withNonPositive, unit, "n/a");
         t.number(m, "min", "min", unit, "n/a");
         t.number(m, "max", "max", unit, "n/a");
-        t.number(m, "std", "standard deviation", unit, "n/a");
+        t.number(m, "std", "standard deviation" + withNonPositive, unit, "n/a");
         Map<String, Object> inv = (Map<String, Object>) m.get("invalid_area");
         t.row("invalid area", (inv.get("fraction") == null ? "n/a" : Format.number((Double) inv.get("fraction")))
                 + " of the evaluated area (" + inv.get("count") + " of " + inv.get("evaluated_count")

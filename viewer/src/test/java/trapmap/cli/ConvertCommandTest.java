@@ -44,6 +44,8 @@ class ConvertCommandTest {
         Cli.Run r = Cli.run("convert", in.toString(), "--defect", "fe-i", "-o", out.toString());
         assertThat(r.err()).isEmpty();
         assertThat(r.code()).isZero();
+        assertThat(r.out()).containsPattern("(?m)^pixels: \\d+ ok, \\d+ below the detection limit, \\d+ invalid, 1 no data$")
+                .doesNotContain("OK=").doesNotContain("{");
         WaferMap nt = MapFiles.readSingle(out);
         assertThat(nt.quantity()).isEqualTo(Quantity.TRAP_DENSITY);
         assertThat(nt.raster().get(3, 0)).isNaN();
@@ -71,6 +73,12 @@ class ConvertCommandTest {
                 "--defect", "fe-i", "--json");
         String firstRow = Files.readAllLines(out).stream().filter(l -> !l.startsWith("#")).skip(1).findFirst()
                 .orElseThrow();
+        for (String line : Files.readAllLines(out).stream().filter(l -> !l.startsWith("#")).skip(1).toList()) {
+            String[] cell = line.split(",");
+            assertThat(cell[0]).matches("-?\\d+(\\.[1-9])?"); // pitch 1 mm around a half-pixel centre: no 0.49999…
+            assertThat(cell[1]).matches("-?\\d+(\\.[1-9])?");
+            assertThat(cell[2]).isEqualTo(trapmap.maps.io.NumberText.of(Float.parseFloat(cell[2])));
+        }
         String[] cells = firstRow.split(",");
         assertThat(Double.parseDouble(cells[0])).isEqualTo(-2.5);
         assertThat(Double.parseDouble(cells[1])).isEqualTo(1.5);

@@ -109,7 +109,8 @@ class InspectCommandTest {
         JsonNode j = Cli.parse(r.out());
         assertThat(j.get("pass").asInt()).isEqualTo(1);
         assertThat(j.get("fail").asInt()).isEqualTo(1);
-        assertThat(j.get("yield").asDouble()).isEqualTo(0.5);
+        assertThat(j.get("yield_fraction").asDouble()).isEqualTo(0.5);
+        assertThat(j.has("yield")).isFalse();
         assertThat(j.get("recurrence")).hasSize(2);
     }
 

@@ -57,7 +57,7 @@ class InspectInvalidAreaTest {
         assertThat(r.out()).contains("2 wafers: 1 pass, 1 fail, 0 error");
         List<CSVRecord> rows = CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).get()
                 .parse(Files.newBufferedReader(out.resolve("results.csv"))).getRecords();
-        assertThat(rows.get(0).get("invalid_area_fraction")).isEqualTo("0.0");
+        assertThat(rows.get(0).get("invalid_area_fraction")).isEqualTo("0");
         assertThat(rows.get(0).get("status")).isEqualTo("pass");
         assertThat(rows.get(1).get("status")).isEqualTo("fail");
         assertThat(rows.get(1).get("failed_rules")).isEqualTo("invalid_area_fraction 0.34 > 0.05 (default limit)");

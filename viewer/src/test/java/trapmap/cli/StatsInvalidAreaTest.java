@@ -101,6 +101,31 @@ class StatsInvalidAreaTest {
     }
 
     @Test
+    void aMedianOfZeroBesideAPositiveHarmonicMeanSaysWhichStatisticsCountTheZeros() throws Exception {
+        int zeros = AREA.count() / 2 + 10;
+        Path f = map(0, zeros, 0, 0);
+        Cli.Run r = Cli.run(args(f));
+        assertThat(r.code()).isZero();
+        assertThat(r.out()).containsPattern("median \\(" + zeros + " px <= 0 included\\)\\s+0 µs");
+        assertThat(r.out()).containsPattern("mean \\(" + zeros + " px <= 0 included\\)\\s+2\\d\\.\\d+ µs");
+        assertThat(r.out()).containsPattern("harmonic mean \\(" + zeros + " px <= 0 left out\\)\\s+50 µs");
+        assertThat(r.out()).containsPattern("geometric mean \\(" + zeros + " px <= 0 left out\\)\\s+50 µs");
+        assertThat(r.out()).containsPattern("5th percentile \\(" + zeros + " px <= 0 included\\)\\s+0 µs");
+        JsonNode j = Cli.json(args(f, "--json"));
+        assertThat(j.get("median").asDouble()).isZero();
+        assertThat(j.get("harmonic_mean").asDouble()).isCloseTo(50, within(1e-9));
+        assertThat(j.get("left_out").get(0).get("statistics").asText()).isEqualTo("harmonic_mean, geometric_mean");
+        assertThat(j.get("left_out").get(0).get("count").asInt()).isEqualTo(zeros);
+        JsonNode in = j.get("non_positive_included");
+        assertThat(in.get("count").asInt()).isEqualTo(zeros);
+        assertThat(in.get("statistics").asText()).isEqualTo("mean, median, p5, p95, min, max, std");
+        // a map without values <= 0 says nothing of them
+        Path clean = map(0, 0, 0, 0);
+        assertThat(Cli.run(args(clean)).out()).doesNotContain("<= 0");
+        assertThat(Cli.json(args(clean, "--json")).has("non_positive_included")).isFalse();
+    }
+
+    @Test
     void withADefectTheConversionsStatusesDecide() throws Exception {
         JsonNode j = Cli.json(args(map(2, 3, 4, 5), "--defect", "fe-i", "--doping", "p:1e16", "--injection",
                 "1e15", "--json"));

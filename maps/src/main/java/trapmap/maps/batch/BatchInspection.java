@@ -1,6 +1,5 @@
 package trapmap.maps.batch;
 
-import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import java.io.IOException;
 import java.io.Reader;
@@ -27,6 +26,7 @@ import org.apache.commons.csv.CSVRecord;
 import trapmap.maps.io.AtomicFiles;
 import trapmap.maps.io.CsvCells;
 import trapmap.maps.io.MapFiles;
+import trapmap.maps.io.NumberText;
 import trapmap.shared.progress.ProgressListener;
 
 /**
@@ -618,7 +618,7 @@ public final class BatchInspection {
             m.put("file", r.file());
             m.put("wafer_id", r.waferId());
             m.put("region", Integer.toString(g.id()));
-            m.put("area_mm2", num(g.areaMm2()));
+            m.put("area_mm2", NumberText.mm2(g.areaMm2()));
             m.put("x_mm", num(g.positionXMm()));
             m.put("y_mm", num(g.positionYMm()));
             m.put("centroid_x_mm", num(g.centroidXMm()));
@@ -628,13 +628,13 @@ public final class BatchInspection {
             m.put("min_y_mm", num(g.bounds().minYMm()));
             m.put("max_x_mm", num(g.bounds().maxXMm()));
             m.put("max_y_mm", num(g.bounds().maxYMm()));
-            m.put("peak", num(g.peakValue()));
+            m.put("peak", NumberText.sample(g.peakValue()));
             m.put("peak_x_mm", num(g.peakXMm()));
             m.put("peak_y_mm", num(g.peakYMm()));
-            m.put("mean", num(g.meanValue()));
+            m.put("mean", NumberText.of(g.meanValue()));
             m.put("edge_distance_mm", num(g.edgeDistanceMm()));
-            m.put("peak_density_cm3", num(fr.peakDensityCm3()));
-            m.put("median_density_cm3", num(fr.medianDensityCm3()));
+            m.put("peak_density_cm3", NumberText.sample(fr.peakDensityCm3()));
+            m.put("median_density_cm3", NumberText.sample(fr.medianDensityCm3()));
             rows.add(m);
         }
         return rows;
@@ -648,7 +648,10 @@ public final class BatchInspection {
         out.printRecord(values);
     }
 
-    /** The CSV row of a result; numbers in Java's shortest round-trip notation, NaN as an empty cell. */
+    /**
+     * The CSV row of a result; numbers as {@link NumberText} writes them (figures: {@link Figure#text}), NaN as an
+     * empty cell.
+     */
     static Map<String, String> row(WaferResult r) {
         Map<String, String> m = new LinkedHashMap<>();
         m.put("file", r.file());
@@ -657,15 +660,15 @@ public final class BatchInspection {
         m.put("grade", r.grade());
         m.put("profile", r.profile());
         m.put("defect", r.defectId());
-        r.figures().forEach((k, v) -> m.put(k, num(v)));
+        r.figures().forEach((k, v) -> m.put(k, Figure.parse(k).text(v)));
         m.put("failed_rules", String.join(";", r.failed()));
         m.put("graded_down_by", String.join(";", r.gradedDownBy()));
         trapmap.maps.region.Region worst = r.worstRegion();
         if (worst != null) {
-            m.put("worst_region_area_mm2", num(worst.areaMm2()));
+            m.put("worst_region_area_mm2", NumberText.mm2(worst.areaMm2()));
             m.put("worst_region_x_mm", num(worst.positionXMm()));
             m.put("worst_region_y_mm", num(worst.positionYMm()));
-            m.put("worst_region_peak", num(worst.peakValue()));
+            m.put("worst_region_peak", NumberText.sample(worst.peakValue()));
             m.put("worst_region_rule", r.worstRegionRule());
             m.put("worst_region_centroid_inside", Boolean.toString(worst.centroidInside()));
             m.put("worst_region_peak_x_mm", num(worst.peakXMm()));
@@ -679,8 +682,9 @@ public final class BatchInspection {
         return m;
     }
 
-    private static String num(double v) {
-        return Double.isFinite(v) ? Double.toString(v) : "";
+    /** A position or length in mm as the outputs write it ({@link NumberText#mm}). */
+    private static String num(double mm) {
+        return NumberText.mm(mm);
     }
 
     private void writeJson(Summary s, List<String> columns, List<Map<String, String>> rows) throws IOException {
@@ -690,7 +694,7 @@ public final class BatchInspection {
         sum.put("fail", s.fail());
         sum.put("error", s.error());
         sum.put("skipped", s.skipped());
-        sum.put("yield", Double.isNaN(s.yield()) ? null : s.yield());
+        sum.put("yield_fraction", Double.isNaN(s.yield()) ? null : s.yield());
         root.put("summary", sum);
         root.put("physics", trapmap.maps.io.PhysicsSettingsFile.toJson(rules.physics()));
         List<Map<String, Object>> wafers = new ArrayList<>();
@@ -707,7 +711,7 @@ public final class BatchInspection {
         Path tmp = target.resolveSibling(JSON_NAME + ".tmp");
         try {
             OutputFolder.write(target, () -> {
-                new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValue(tmp.toFile(), root);
+                NumberText.jsonMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValue(tmp.toFile(), root);
                 Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
             });
         } finally {

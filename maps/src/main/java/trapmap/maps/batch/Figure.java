@@ -3,6 +3,7 @@ package trapmap.maps.batch;
 import java.util.Locale;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import trapmap.maps.io.NumberText;
 
 /**
  * A figure of merit of one wafer, named as in the rules file and the results' columns.
@@ -83,6 +84,19 @@ public record Figure(String name, Kind kind, double percent) {
             throw new IllegalArgumentException("percentile of " + name + " must be in (0, 100)");
         }
         return p;
+    }
+
+    /**
+     * The figure's value as the results tables write it ({@link NumberText}): quantiles of the lifetime and
+     * trap-density maps at the maps' float precision, areas rounded to {@link NumberText#AREA_RESOLUTION_MM2}, means,
+     * fractions and ratios as the shortest text of the double; "" when not finite.
+     */
+    public String text(double value) {
+        return switch (kind) {
+            case MEDIAN_LIFETIME, LIFETIME_PERCENTILE, TRAP_DENSITY_PERCENTILE -> NumberText.sample(value);
+            case LARGEST_REGION, LARGEST_INTERIOR_REGION -> NumberText.mm2(value);
+            default -> NumberText.of(value);
+        };
     }
 
     /** True when the figure is computed from the trap-density map. */

@@ -9,6 +9,7 @@ import java.util.Map;
 import java.util.Optional;
 import java.util.Set;
 import trapmap.maps.compare.RegistrationOptions;
+import trapmap.maps.io.NumberText;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.ConversionSettings;
 import trapmap.maps.process.IronMapping;
@@ -88,8 +89,8 @@ final class IronPairs {
                 ProgressListener.NONE);
         float[] values = finite(r.iron().raster().samples());
         List<String> failed = new ArrayList<>();
-        m.put("iron_median_cm3", num(percentile(values, 50)));
-        m.put("iron_p95_cm3", num(percentile(values, 95)));
+        m.put("iron_median_cm3", NumberText.sample(percentile(values, 50)));
+        m.put("iron_p95_cm3", NumberText.sample(percentile(values, 95)));
         for (IronPairRules.IronLimit l : rules.limits()) {
             double v = percentile(values, l.percent());
             m.put(l.figure(), num(v));
@@ -170,6 +171,6 @@ final class IronPairs {
     }
 
     private static String num(double v) {
-        return Double.isFinite(v) ? Double.toString(v) : "";
+        return NumberText.of(v);
     }
 }

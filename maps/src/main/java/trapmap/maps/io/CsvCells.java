@@ -31,8 +31,17 @@ public final class CsvCells {
         return "'" + text;
     }
 
-    /** Any cell value: texts as {@link #text}, numbers and other values unchanged. */
+    /**
+     * Any cell value: texts as {@link #text}, doubles and floats as {@link NumberText#of} writes them (non-finite as
+     * the empty cell), other values unchanged.
+     */
     public static Object cell(Object value) {
+        if (value instanceof Double d) {
+            return NumberText.of(d);
+        }
+        if (value instanceof Float f) {
+            return NumberText.of(f);
+        }
         return value instanceof CharSequence s ? text(s.toString()) : value;
     }
 

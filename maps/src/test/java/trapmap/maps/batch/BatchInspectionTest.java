@@ -19,6 +19,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.geometry.OutlineDetection;
 import trapmap.maps.io.MapFiles;
+import trapmap.maps.io.NumberText;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.Mask;
@@ -117,6 +118,74 @@ class BatchInspectionTest {
         assertThat(rows).extracting(r -> r.get("graded_down_by")).containsExactly("", "", "median_lifetime_us",
                 "median_lifetime_us");
         assertThat(rows).extracting(r -> r.get("profile")).containsOnly(Rules.DEFAULT_PROFILE);
+    }
+
+    /** Columns whose values come from the float samples of a map (written at float precision). */
+    private static final List<String> FLOAT_COLUMNS = List.of("median_lifetime_us", "p5_lifetime_us", "peak",
+            "worst_region_peak", "peak_density_cm3", "median_density_cm3");
+
+    private static void assertShortestOrRounded(String column, String cell) {
+        if (cell.isEmpty() || cell.equals("true") || cell.equals("false") || !cell.matches("-?[0-9].*")) {
+            return;
+        }
+        if (column.endsWith("_mm") || column.endsWith("_mm2")) {
+            assertThat(cell).as(column).matches("-?\\d+(\\.\\d{0,2}[1-9])?");
+            return;
+        }
+        double v = Double.parseDouble(cell);
+        assertThat(cell).as(column + " is the shortest text of its double").isEqualTo(NumberText.of(v));
+        if (FLOAT_COLUMNS.contains(column)) {
+            assertThat(cell).as(column + " is the shortest text of its float")
+                    .isEqualTo(NumberText.of(Float.parseFloat(cell)));
+        }
+    }
+
+    @Test
+    void everyNumberWrittenIsTheShortestTextOfItsValueOrRoundedToItsResolution() throws Exception {
+        Path in = maps();
+        String rules = SPOT_RULES.replace("\"limits\": {", "\"limits\": {\"largest_region_mm2\": {\"max\": 1000},"
+                + " \"harmonic_mean_lifetime_us\": {\"min\": 1}, \"edge_to_centre_ratio\": {\"min\": 0.01},");
+        BatchInspection.Summary s = new BatchInspection(rules(rules)).run(list(in), dir.resolve("out"),
+                options(1, false));
+        List<CSVRecord> results = csv(s.csv());
+        List<CSVRecord> regions = csv(dir.resolve("out").resolve(BatchInspection.REGIONS_NAME));
+        assertThat(regions).isNotEmpty();
+        int numbers = 0;
+        for (CSVRecord r : results) {
+            for (Map.Entry<String, String> e : r.toMap().entrySet()) {
+                assertShortestOrRounded(e.getKey(), e.getValue());
+                numbers += e.getValue().matches("-?[0-9].*") ? 1 : 0;
+            }
+        }
+        for (CSVRecord r : regions) {
+            for (Map.Entry<String, String> e : r.toMap().entrySet()) {
+                assertShortestOrRounded(e.getKey(), e.getValue());
+            }
+        }
+        assertThat(numbers).isGreaterThan(4 * 6);
+        assertThat(results.get(0).get("largest_region_mm2")).isEqualTo("0");
+        // results.json: the same numbers, each token the shortest text of its double
+        String json = Files.readString(s.json());
+        java.util.regex.Matcher m = java.util.regex.Pattern.compile(": (-?[0-9][0-9.eE+-]*)").matcher(json);
+        int tokens = 0;
+        while (m.find()) {
+            String token = m.group(1);
+            assertThat(NumberText.of(Double.parseDouble(token))).as(token)
+                    .isEqualTo(token.replaceFirst("\\.0(?=E|$)", ""));
+            tokens++;
+        }
+        assertThat(tokens).isGreaterThan(numbers);
+        var tree = new com.fasterxml.jackson.databind.ObjectMapper().readTree(json);
+        assertThat(tree.get("summary").get("yield_fraction").asDouble()).isEqualTo(s.yield());
+        assertThat(tree.get("summary").has("yield")).isFalse();
+        for (int i = 0; i < results.size(); i++) {
+            for (Map.Entry<String, String> e : results.get(i).toMap().entrySet()) {
+                if (e.getValue().matches("-?[0-9].*")) {
+                    assertThat(tree.get("wafers").get(i).get(e.getKey()).asDouble()).as(e.getKey())
+                            .isEqualTo(Double.parseDouble(e.getValue()));
+                }
+            }
+        }
     }
 
     @Test
@@ -301,8 +370,9 @@ class BatchInspectionTest {
                 trapmap.maps.process.ConversionSettings.DEFAULTS).get(trapmap.maps.model.Quantity.TRAP_DENSITY);
         Mask mask = Mask.valid(w1.raster()).and(OutlineDetection.fit(w1).shape().mask(w1.grid(), 0))
                 .and(Mask.valid(density.raster()));
-        assertThat(clean).isEqualTo(MapStatistics.of(density, mask, StatisticsRequest.of(new double[] {95}))
-                .percentile(95));
+        // a quantile of the float trap-density map is written at float precision
+        assertThat(Float.parseFloat(rows.get(0).get("trap_density_p95_cm3"))).isEqualTo((float) MapStatistics.of(
+                density, mask, StatisticsRequest.of(new double[] {95})).percentile(95));
         assertThat(rows.get(1).get("status")).isEqualTo("fail");
         assertThat(Math.hypot(Double.parseDouble(rows.get(1).get("worst_region_x_mm")) - 20,
                 Double.parseDouble(rows.get(1).get("worst_region_y_mm")) + 10)).isLessThan(2);

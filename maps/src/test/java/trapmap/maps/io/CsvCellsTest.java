@@ -30,9 +30,13 @@ class CsvCellsTest {
     }
 
     @Test
-    void numberObjectsAreNeverTouched() {
-        assertThat(CsvCells.cell(-1.5)).isEqualTo(-1.5);
+    void numberObjectsAreNeverQuotedAndFloatingPointOnesAreWrittenShortest() {
+        assertThat(CsvCells.cell(-1.5)).isEqualTo("-1.5");
         assertThat(CsvCells.cell(-3)).isEqualTo(-3);
+        assertThat(CsvCells.cell(0.1 + 0.2)).isEqualTo("0.30000000000000004");
+        assertThat(CsvCells.cell(1e23)).isEqualTo("1E23");
+        assertThat(CsvCells.cell(243.05972f)).isEqualTo("243.05972");
+        assertThat(CsvCells.cell(Double.NaN)).isEqualTo("");
         assertThat(CsvCells.cell("=1")).isEqualTo("'=1");
     }
 

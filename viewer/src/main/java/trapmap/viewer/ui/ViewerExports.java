@@ -9,7 +9,9 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import org.apache.commons.csv.CSVFormat;
+import trapmap.maps.batch.Figure;
 import trapmap.maps.io.CsvCells;
+import trapmap.maps.io.NumberText;
 import org.apache.commons.csv.CSVPrinter;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.region.Region;
@@ -59,8 +61,9 @@ public final class ViewerExports {
             csv.printRecord("id", "area_mm2", "centroid_x_mm", "centroid_y_mm", "peak" + suffix, "peak_x_mm",
                     "peak_y_mm", "mean" + suffix, "edge_distance_mm");
             for (Region g : r.regions().regions()) {
-                csv.printRecord(g.id(), g.areaMm2(), g.centroidXMm(), g.centroidYMm(), g.peakValue(), g.peakXMm(),
-                        g.peakYMm(), g.meanValue(), g.edgeDistanceMm());
+                csv.printRecord(g.id(), NumberText.mm2(g.areaMm2()), NumberText.mm(g.centroidXMm()),
+                        NumberText.mm(g.centroidYMm()), NumberText.sample(g.peakValue()), NumberText.mm(g.peakXMm()),
+                        NumberText.mm(g.peakYMm()), NumberText.of(g.meanValue()), NumberText.mm(g.edgeDistanceMm()));
             }
         }
         return sw.toString();
@@ -90,25 +93,27 @@ public final class ViewerExports {
             csv.printRecord("statistic", "value", "unit");
             csv.printRecord("quantity", r.displayed().quantity().key(), "");
             csv.printRecord("evaluated_pixels", s.count(), "");
-            csv.printRecord("evaluated_area", s.areaMm2(), "mm2");
-            csv.printRecord("mean", s.mean(), unit);
-            csv.printRecord("harmonic_mean", s.harmonicMean(), unit);
-            csv.printRecord("geometric_mean", s.geometricMean(), unit);
-            csv.printRecord("median", s.median(), unit);
-            csv.printRecord("standard_deviation", s.standardDeviation(), unit);
-            csv.printRecord("minimum", s.min(), unit);
-            csv.printRecord("maximum", s.max(), unit);
+            csv.printRecord("evaluated_area", NumberText.mm2(s.areaMm2()), "mm2");
+            csv.printRecord("mean", NumberText.of(s.mean()), unit);
+            csv.printRecord("harmonic_mean", NumberText.of(s.harmonicMean()), unit);
+            csv.printRecord("geometric_mean", NumberText.of(s.geometricMean()), unit);
+            csv.printRecord("median", NumberText.sample(s.median()), unit);
+            csv.printRecord("non_positive_pixels (in mean, median, percentiles; not in harmonic and geometric mean)",
+                    s.nonPositiveCount(), "");
+            csv.printRecord("standard_deviation", NumberText.of(s.standardDeviation()), unit);
+            csv.printRecord("minimum", NumberText.sample(s.min()), unit);
+            csv.printRecord("maximum", NumberText.sample(s.max()), unit);
             for (MapStatistics.PercentileValue p : s.percentiles()) {
-                csv.printRecord("p" + trapmap.viewer.model.Units.number(p.percent()), p.value(), unit);
+                csv.printRecord("p" + trapmap.viewer.model.Units.number(p.percent()), NumberText.sample(p.value()), unit);
             }
-            csv.printRecord("lifetime_harmonic_mean", r.lifetimeStats().harmonicMean(), "us");
-            csv.printRecord("lifetime_median", r.lifetimeStats().median(), "us");
-            csv.printRecord("flagged_area_fraction", r.flaggedFraction(), "");
+            csv.printRecord("lifetime_harmonic_mean", NumberText.of(r.lifetimeStats().harmonicMean()), "us");
+            csv.printRecord("lifetime_median", NumberText.sample(r.lifetimeStats().median()), "us");
+            csv.printRecord("flagged_area_fraction", NumberText.of(r.flaggedFraction()), "");
             csv.printRecord("flagged_regions", r.regions().size(), "");
-            csv.printRecord("edge_exclusion", r.edgeExclusionMm(), "mm");
+            csv.printRecord("edge_exclusion", NumberText.mm(r.edgeExclusionMm()), "mm");
             Verdict v = r.verdict();
             if (v.invalid() != null) {
-                csv.printRecord("invalid_area_fraction", v.invalid().fraction(), "");
+                csv.printRecord("invalid_area_fraction", NumberText.of(v.invalid().fraction()), "");
                 csv.printRecord("invalid_non_finite_pixels", v.invalid().nonFiniteCount(), "");
                 csv.printRecord("invalid_non_positive_pixels", v.invalid().nonPositiveCount(), "");
                 csv.printRecord("invalid_conversion_pixels", v.invalid().invalidConversionCount(), "");
@@ -124,7 +129,7 @@ public final class ViewerExports {
             csv.printRecord("graded_down_by", CsvCells.text(String.join(";", v.gradedDownBy())), "");
             if (v.rulesVerdict()) {
                 for (Map.Entry<String, Double> f : v.figures().entrySet()) {
-                    csv.printRecord("figure " + f.getKey(), f.getValue(), "");
+                    csv.printRecord("figure " + f.getKey(), Figure.parse(f.getKey()).text(f.getValue()), "");
                 }
             }
         }

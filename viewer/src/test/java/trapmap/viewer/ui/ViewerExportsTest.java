@@ -40,7 +40,16 @@ class ViewerExportsTest {
                 .parse(new java.io.StringReader(csv)).getRecords();
         assertThat(csv).startsWith("id,area_mm2,centroid_x_mm,centroid_y_mm,peak_cm-3,");
         assertThat(rows).hasSize(r.regions().size()).isNotEmpty();
-        assertThat(Double.parseDouble(rows.get(0).get("area_mm2"))).isEqualTo(r.regions().regions().get(0).areaMm2());
+        assertThat(Double.parseDouble(rows.get(0).get("area_mm2")))
+                .isEqualTo(trapmap.maps.io.NumberText.roundMm2(r.regions().regions().get(0).areaMm2()));
+        for (CSVRecord row : rows) {
+            for (String c : List.of("area_mm2", "centroid_x_mm", "centroid_y_mm", "peak_x_mm", "peak_y_mm",
+                    "edge_distance_mm")) {
+                assertThat(row.get(c)).as(c).matches("-?\\d+(\\.\\d{0,2}[1-9])?");
+            }
+            assertThat(row.get("peak_cm-3")).isEqualTo(trapmap.maps.io.NumberText.of(Float.parseFloat(
+                    row.get("peak_cm-3"))));
+        }
     }
 
     @Test
@@ -97,14 +106,24 @@ class ViewerExportsTest {
                 .parse(new java.io.StringReader(ViewerExports.statisticsCsv(r)))) {
             rows.put(row.get("statistic"), row);
         }
-        assertThat(Double.parseDouble(rows.get("median").get("value"))).isEqualTo(r.displayedStats().median());
+        // quantiles of the float map at float precision, means as the double itself
+        assertThat(Float.parseFloat(rows.get("median").get("value"))).isEqualTo((float) r.displayedStats().median());
+        assertThat(Double.parseDouble(rows.get("harmonic_mean").get("value")))
+                .isEqualTo(r.displayedStats().harmonicMean());
         assertThat(rows.get("median").get("unit")).isEqualTo("cm-3");
-        assertThat(Double.parseDouble(rows.get("p95").get("value"))).isEqualTo(r.displayedStats().percentile(95));
+        assertThat(Float.parseFloat(rows.get("p95").get("value")))
+                .isEqualTo((float) r.displayedStats().percentile(95));
         assertThat(rows.get("judged_by").get("value")).isEqualTo("rules rules-example.json");
         assertThat(rows.get("verdict").get("value")).isEqualTo("pass");
         assertThat(rows.get("grade").get("value")).isEqualTo("B");
         assertThat(rows.get("graded_down_by").get("value")).isEqualTo("trap_density_p95_cm3;flagged_area_fraction");
-        assertThat(Double.parseDouble(rows.get("figure trap_density_p95_cm3").get("value")))
-                .isEqualTo(r.verdict().figures().get("trap_density_p95_cm3"));
+        assertThat(Float.parseFloat(rows.get("figure trap_density_p95_cm3").get("value")))
+                .isEqualTo(r.verdict().figures().get("trap_density_p95_cm3").floatValue());
+        for (CSVRecord row : rows.values()) {
+            String v = row.get("value");
+            if (v.matches("-?[0-9].*")) {
+                assertThat(v).as(row.get("statistic")).isEqualTo(trapmap.maps.io.NumberText.of(Double.parseDouble(v)));
+            }
+        }
     }
 }
