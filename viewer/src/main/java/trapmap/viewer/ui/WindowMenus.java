@@ -184,9 +184,9 @@ final class WindowMenus {
         logScale.setToolTipText("Logarithmic colour scale");
         view.add(logScale);
         view.addSeparator();
-        view.add(item(plainKey("Next wafer", KeyStroke.getKeyStroke(KeyEvent.VK_PAGE_DOWN, 0), model::next),
+        view.add(item(action("Next wafer", KeyStroke.getKeyStroke(KeyEvent.VK_PAGE_DOWN, 0), e -> model.next()),
                 "Show the next open wafer (PageDown or Alt+→)"));
-        view.add(item(plainKey("Previous wafer", KeyStroke.getKeyStroke(KeyEvent.VK_PAGE_UP, 0), model::previous),
+        view.add(item(action("Previous wafer", KeyStroke.getKeyStroke(KeyEvent.VK_PAGE_UP, 0), e -> model.previous()),
                 "Show the previous open wafer (PageUp or Alt+←)"));
         view.addSeparator();
         lineTool.setAccelerator(KeyStroke.getKeyStroke(KeyEvent.VK_L, 0));
@@ -245,10 +245,8 @@ final class WindowMenus {
         bind(root, KeyStroke.getKeyStroke(KeyEvent.VK_SUBTRACT, 0), plainKey("zoom out", null,
                 () -> canvas.zoomBy(0.8)));
         bind(root, KeyStroke.getKeyStroke(KeyEvent.VK_NUMPAD0, 0), plainKey("fit", null, canvas::fit));
-        bind(root, KeyStroke.getKeyStroke(KeyEvent.VK_RIGHT, InputEvent.ALT_DOWN_MASK), action("next", null,
-                e -> model.next()));
-        bind(root, KeyStroke.getKeyStroke(KeyEvent.VK_LEFT, InputEvent.ALT_DOWN_MASK), action("previous", null,
-                e -> model.previous()));
+        // PageDown / PageUp and Alt+→ / Alt+← go to the next / previous wafer whichever component has the focus
+        WaferKeys.install(window, model);
         bind(root, KeyStroke.getKeyStroke(KeyEvent.VK_ESCAPE, 0), action("cancel", null, e -> window.cancelAnalysis()));
     }
 
