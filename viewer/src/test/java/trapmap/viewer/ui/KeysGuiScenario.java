@@ -35,8 +35,24 @@ public final class KeysGuiScenario {
             waitFor("demo maps open", () -> m.size() > 2 && w.idle());
             @SuppressWarnings("unchecked")
             JComboBox<Defect> box = (JComboBox<Defect>) onEdt(() -> find(w, "defect"));
+            Robot robot = new Robot();
+            robot.setAutoDelay(20);
+            // the injection chart of the pixel under the mouse, then a new defect: its title follows at once
             onEdt(() -> {
                 m.select(1);
+                w.charts().setSelectedIndex(3);
+                return null;
+            });
+            waitFor("wafer 2 shown", () -> w.idle() && m.selected().result() != null);
+            java.awt.Point centre = onEdt(() -> {
+                java.awt.Point p = w.canvas().getLocationOnScreen();
+                return new java.awt.Point(p.x + w.canvas().getWidth() / 2, p.y + w.canvas().getHeight() / 2);
+            });
+            robot.mouseMove(centre.x - 3, centre.y);
+            robot.mouseMove(centre.x, centre.y);
+            waitFor("a pixel probed", () -> w.lastProbe() != null && injectionTitle(w).contains("defect"));
+            String before = onEdt(() -> injectionTitle(w));
+            onEdt(() -> {
                 for (int i = 0; i < box.getItemCount(); i++) {
                     if (box.getItemAt(i).id().equals("midgap")) {
                         box.setSelectedIndex(i);
@@ -44,11 +60,11 @@ public final class KeysGuiScenario {
                 }
                 return null;
             });
+            String after = onEdt(() -> injectionTitle(w));
+            System.out.println("GUI-INJECTION before=" + before + " | after=" + after);
             waitFor("midgap chosen and analysed", () -> "midgap".equals(m.analysis().defectId()) && w.idle());
             Analysis picked = onEdt(m::analysis);
             focus(w, box);
-            Robot robot = new Robot();
-            robot.setAutoDelay(20);
             press(robot, w, m, box, picked, "PageDown", KeyEvent.VK_PAGE_DOWN, 0);
             press(robot, w, m, box, picked, "PageUp", KeyEvent.VK_PAGE_UP, 0);
             press(robot, w, m, box, picked, "Alt+Right", KeyEvent.VK_RIGHT, KeyEvent.VK_ALT);
@@ -62,6 +78,19 @@ public final class KeysGuiScenario {
             t.printStackTrace(System.out);
             System.exit(1);
         }
+    }
+
+    /** The subtitle of the injection chart that names the defect. */
+    private static String injectionTitle(ViewerWindow w) {
+        org.jfree.chart.JFreeChart c = w.charts().getSelectedIndex() == 3 ? w.openChart() : null;
+        if (c != null) {
+            for (Object t : c.getSubtitles()) {
+                if (t instanceof org.jfree.chart.title.TextTitle tt && tt.getText().startsWith("defect")) {
+                    return tt.getText();
+                }
+            }
+        }
+        return "";
     }
 
     private static void focus(ViewerWindow w, Component c) throws Exception {

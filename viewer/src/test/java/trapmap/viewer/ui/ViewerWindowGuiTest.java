@@ -146,7 +146,7 @@ class ViewerWindowGuiTest {
     }
 
     @Test
-    void pageKeysAndAltArrowsChangeTheWaferAndNeverTheFocusedDefectList() throws Exception {
+    void pageKeysAndAltArrowsChangeTheWaferAndNeverTheFocusedDefectList_injectionTitleFollowsTheDefect() throws Exception {
         String out = runOnDisplay(KeysGuiScenario.class, DEMO.toString());
         Matcher m = Pattern.compile("GUI-KEY key=(\\S+) from=(\\d+) wafer=(\\d+) defect=(\\S+) box=(\\S+) same=(\\S+)"
                 + " focus=(\\S+)").matcher(out);
@@ -166,6 +166,10 @@ class ViewerWindowGuiTest {
             seen++;
         }
         assertThat(seen).as("key lines in:%n%s", out).isEqualTo(5);
+        Matcher inj = Pattern.compile("GUI-INJECTION before=(.*) \\| after=(.*)").matcher(out);
+        assertThat(inj.find()).as("injection line in:%n%s", out).isTrue();
+        assertThat(inj.group(1)).as("injection chart title before the change").startsWith("defect fe-i,");
+        assertThat(inj.group(2)).as("injection chart title right after choosing midgap").startsWith("defect midgap,");
     }
 
     private static Path onPath(String name) {
