@@ -382,7 +382,9 @@ public final class ViewerWindow extends JFrame {
         shownResult = r;
         status.setFrameMillis(canvas.lastFrameMillis());
         if (!r.warnings().isEmpty()) {
-            List<String> notes = r.warnings().stream().map(x -> x.message()).sorted().toList();
+            // per-pixel cautions name how many pixels they concern (counted by the conversion)
+            List<String> notes = r.conversion() != null ? r.conversion().warningNotes()
+                    : r.warnings().stream().map(x -> x.message()).sorted().toList();
             status.setMessage(r.verdict().headlineWithWarning() + " — caution: " + notes.get(0) + (notes.size() > 1 ? " (+"
                     + (notes.size() - 1) + " more, see tooltip)" : ""));
             status.setMessageTooltip("<html>" + r.verdict().basis() + "<br>" + String.join("<br>", notes)

@@ -258,14 +258,7 @@ final class WindowMenus {
 
 
     void about() {
-        JOptionPane.showMessageDialog(window, "<html><body style='width: 420px'>"
-                + "<b>trapmap</b> converts lifetime and PL maps of silicon wafers into equivalent densities of a chosen"
-                + " recombination-active defect (Shockley–Read–Hall, after removing intrinsic and surface"
-                + " recombination at each pixel's injection level).<br><br>"
-                + "Statuses: OK converted; BELOW_LIMIT SRH share of 1/τ_eff under the detection resolution (the"
-                + " density shown is the detection limit, an upper bound; left out of statistics and flags);"
-                + " INVALID unusable input (or below 1 ns); NO_DATA outside the wafer.<br><br><b>Caution.</b> " + ViewerWindow.CAUTION + "</body></html>", "About trapmap",
-                JOptionPane.INFORMATION_MESSAGE);
+        JOptionPane.showMessageDialog(window, AboutText.html(), "About trapmap", JOptionPane.INFORMATION_MESSAGE);
     }
 
     void shortcuts() {
