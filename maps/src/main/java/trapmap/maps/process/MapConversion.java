@@ -68,8 +68,17 @@ public final class MapConversion {
         public java.util.List<String> warningNotes() {
             int converted = convertedPixels();
             return warnings.stream().map(w -> w.isWaferLevel() ? w.message() : String.format(java.util.Locale.ROOT,
-                    "%s (%d px, %.1f %% of the %d converted pixels)", w.message(), pixelsWith(w),
-                    100.0 * pixelsWith(w) / Math.max(1, converted), converted)).sorted().toList();
+                    "%s (%d px, %s %% of the %d converted pixels)", w.message(), pixelsWith(w),
+                    percent(100.0 * pixelsWith(w) / Math.max(1, converted)), converted)).sorted().toList();
+        }
+
+        /** A percentage with one decimal from 1 % up, two significant digits below (0.032), so that few is not 0.0. */
+        static String percent(double p) {
+            if (p == 0 || p >= 1) {
+                return String.format(java.util.Locale.ROOT, "%.1f", p);
+            }
+            return new java.math.BigDecimal(p).round(new java.math.MathContext(2)).stripTrailingZeros()
+                    .toPlainString();
         }
 
         /**

@@ -118,9 +118,13 @@ class MapConversionTest {
         assertThat(result.pixelsWith(ConversionWarning.SURFACE_LIMITED)).isEqualTo(expected);
         assertThat(result.convertedPixels()).isEqualTo(converted).isEqualTo(tau.length - 2);
         assertThat(result.shareWith(ConversionWarning.SURFACE_LIMITED)).isEqualTo((double) expected / converted);
-        String note = String.format(java.util.Locale.ROOT, "%s (%d px, %.1f %% of the %d converted pixels)",
-                ConversionWarning.SURFACE_LIMITED.message(), expected, 100.0 * expected / converted, converted);
+        String note = String.format(java.util.Locale.ROOT, "%s (%d px, %s %% of the %d converted pixels)",
+                ConversionWarning.SURFACE_LIMITED.message(), expected,
+                MapConversion.Result.percent(100.0 * expected / converted), converted);
         assertThat(result.warningNotes()).contains(note);
+        assertThat(MapConversion.Result.percent(100.0 * 22 / 68224)).isEqualTo("0.032");
+        assertThat(MapConversion.Result.percent(57.25)).isEqualTo("57.3");
+        assertThat(MapConversion.Result.percent(0)).isEqualTo("0.0");
     }
 
     @Test
