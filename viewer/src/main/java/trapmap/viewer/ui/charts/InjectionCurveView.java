@@ -115,6 +115,8 @@ public class InjectionCurveView extends JPanel {
                     c.pixel().trapDensityPerCm3()) + " cm⁻³ (" + status + ")", ChartStyle.SUBTITLE));
         }
         ChartStyle.apply(chart);
+        // room on the right for half of the last decade label (10¹⁷ at the end of the Δn axis)
+        chart.setPadding(new org.jfree.chart.ui.RectangleInsets(2, 2, 2, 16));
         return chart;
     }
 

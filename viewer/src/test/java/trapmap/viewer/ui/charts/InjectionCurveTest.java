@@ -59,6 +59,10 @@ class InjectionCurveTest {
                 double end = domain ? p + half : -(p - half);
                 assertThat(start).as("label %s at %d×%d px starts after the previous label %s", t.getText(), w, h,
                         labels).isGreaterThan(previousEnd);
+                if (domain) {
+                    assertThat(p + half).as("label %s inside the %d px wide picture", t.getText(), w)
+                            .isLessThanOrEqualTo(w);
+                }
                 previousEnd = end;
                 labels.add(t.getText());
             }
