@@ -25,7 +25,7 @@ import picocli.CommandLine.Spec;
         footer = {"", "Run 'trapmap <command> --help' for the options of a command.", "", Help.EXIT_CODES_ROOT})
 public final class TrapmapCommand implements Callable<Integer> {
     /** Version line printed by {@code --version}. */
-    static final String VERSION = "trapmap 0.1.0";
+    static final String VERSION = trapmap.shared.Version.LINE;
 
     @Spec
     CommandSpec spec;

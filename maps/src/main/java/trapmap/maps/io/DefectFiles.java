@@ -125,6 +125,23 @@ public final class DefectFiles {
         return List.copyOf(defects);
     }
 
+    /**
+     * One user-defined defect from the fields of a defect-file object given as a map (what the viewer's New defect
+     * form collects: numbers as {@link Number}s, anything else as typed), checked exactly as an object of a defect
+     * file is, built-in ids refused.
+     *
+     * @param origin what the fields came from, used in messages
+     * @throws DefectFileException naming the field (its defect-file key) and unit of the first invalid value
+     */
+    public static Defect fromFields(Map<String, ?> fields, String origin) throws DefectFileException {
+        Defect d = build(new LinkedHashMap<>(fields), origin, origin);
+        if (isBuiltIn(d.id())) {
+            throw new DefectFileException(origin, "id", "", origin + ": field 'id' '" + d.id()
+                    + "' is a built-in defect id; choose another id for a user-defined parameter set", null);
+        }
+        return d;
+    }
+
     private static JsonNode tree(String json, String origin) throws DefectFileException {
         JsonNode root;
         try {
@@ -168,7 +185,7 @@ public final class DefectFiles {
         return list;
     }
 
-    private static Defect build(Map<String, Object> spec, String where, String file) throws DefectFileException {
+    private static Defect build(Map<String, ?> spec, String where, String file) throws DefectFileException {
         try {
             return DefectSpecs.fromMap(spec, where);
         } catch (InvalidValueException e) {

@@ -36,10 +36,49 @@ public final class MapConversion {
      * every pixel (kept as bytes whether or not a {@link Quantity#STATUS} map was requested).
      */
     public record Result(Map<Quantity, WaferMap> maps, Set<ConversionWarning> warnings, String defectId,
-                         trapmap.physics.conversion.PhysicsSettings physics, byte[] statusCodes) {
+                         trapmap.physics.conversion.PhysicsSettings physics, byte[] statusCodes,
+                         int[] warningPixels) {
         public Result {
             maps = Map.copyOf(maps);
             warnings = Set.copyOf(warnings);
+            warningPixels = warningPixels.clone();
+        }
+
+        /** The number of pixels that carry the per-pixel warning {@code w} (0 for a wafer-level warning). */
+        public int pixelsWith(ConversionWarning w) {
+            return w.isWaferLevel() || w.ordinal() >= warningPixels.length ? 0 : warningPixels[w.ordinal()];
+        }
+
+        /** The pixels converted ({@link PixelStatus#OK} or {@link PixelStatus#BELOW_LIMIT}). */
+        public int convertedPixels() {
+            int[] c = statusCounts();
+            return c[PixelStatus.OK.code()] + c[PixelStatus.BELOW_LIMIT.code()];
+        }
+
+        /** The share of the converted pixels that carry {@code w}, 0…1 (NaN when none was converted). */
+        public double shareWith(ConversionWarning w) {
+            int converted = convertedPixels();
+            return converted == 0 ? Double.NaN : (double) pixelsWith(w) / converted;
+        }
+
+        /**
+         * The warnings as sentences, sorted: a per-pixel warning with the number of pixels it concerns and their share
+         * of the converted pixels ({@code … (1 234 px, 5.6 % of the converted pixels)}), a wafer-level one as it is.
+         */
+        public java.util.List<String> warningNotes() {
+            int converted = convertedPixels();
+            return warnings.stream().map(w -> w.isWaferLevel() ? w.message() : String.format(java.util.Locale.ROOT,
+                    "%s (%d px, %s %% of the %d converted pixels)", w.message(), pixelsWith(w),
+                    percent(100.0 * pixelsWith(w) / Math.max(1, converted)), converted)).sorted().toList();
+        }
+
+        /** A percentage with one decimal from 1 % up, two significant digits below (0.032), so that few is not 0.0. */
+        static String percent(double p) {
+            if (p == 0 || p >= 1) {
+                return String.format(java.util.Locale.ROOT, "%.1f", p);
+            }
+            return new java.math.BigDecimal(p).round(new java.math.MathContext(2)).stripTrailingZeros()
+                    .toPlainString();
         }
 
         /**
@@ -255,8 +294,13 @@ public final class MapConversion {
         put(maps, lifetime, Quantity.INJECTION, out.injection, step);
         put(maps, lifetime, Quantity.LIFETIME_AT_REFERENCE, out.lifetimeAtReferenceUs, step);
         int warningBits = 0;
+        int[] warningPixels = new int[8];
         for (int i = 0; i < n; i++) {
-            warningBits |= out.warnings[i] & 0xFF;
+            int bits = out.warnings[i] & 0xFF;
+            warningBits |= bits;
+            for (int b = 0; bits != 0; b++, bits >>>= 1) {
+                warningPixels[b] += bits & 1;
+            }
         }
         if (wanted.contains(Quantity.STATUS)) {
             float[] status = new float[n];
@@ -268,7 +312,7 @@ public final class MapConversion {
         Set<ConversionWarning> warnings = EnumSet.noneOf(ConversionWarning.class);
         warnings.addAll(ConversionWarning.fromMask(warningBits));
         warnings.addAll(converter.conditionWarnings());
-        return new Result(maps, warnings, defect.id(), settings.physics(), out.status);
+        return new Result(maps, warnings, defect.id(), settings.physics(), out.status, warningPixels);
     }
 
     private static float[] plane(Set<Quantity> wanted, Quantity q, int n) {

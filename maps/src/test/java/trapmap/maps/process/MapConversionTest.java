@@ -13,6 +13,7 @@ import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.PixelGrid;
+import trapmap.physics.conversion.ConversionWarning;
 import trapmap.physics.conversion.PixelResult;
 import trapmap.physics.conversion.PixelStatus;
 import trapmap.physics.conversion.TrapDensityConverter;
@@ -88,6 +89,42 @@ class MapConversionTest {
         assertThatThrownBy(() -> MapConversion.convert(map, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS,
                 java.util.EnumSet.of(Quantity.LIFETIME_AT_REFERENCE), 1))
                 .isInstanceOf(IllegalArgumentException.class);
+    }
+
+    @Test
+    void surfaceLimitedWarningCountsItsPixelsAsTheSinglePixelConversionFlagsThem() {
+        // SRV 1000 cm/s on 180 µm: τ_surf ≈ 9 µs, so the longer lifetimes of the 1–1000 µs map are surface-limited
+        MeasurementConditions c = new MeasurementConditions(Doping.pType(1e16), 180.0, 300.0, 1e14, null, 1000.0,
+                null, null, Map.of());
+        WaferMap map = lifetimeMap(40, 30, 7, c);
+        MapConversion.Result result = MapConversion.convert(map, DefectLibrary.byId("fe-i"),
+                ConversionSettings.DEFAULTS, 2);
+        TrapDensityConverter single = new TrapDensityConverter(
+                MapConversion.physicsConditions(c, ConversionSettings.DEFAULTS), DefectLibrary.byId("fe-i"));
+        int expected = 0;
+        int converted = 0;
+        float[] tau = map.raster().samples();
+        for (int i = 2; i < tau.length; i++) {
+            PixelResult p = single.convert(tau[i]);
+            if (p.status() == PixelStatus.OK || p.status() == PixelStatus.BELOW_LIMIT) {
+                converted++;
+            }
+            if (p.warnings().contains(ConversionWarning.SURFACE_LIMITED)) {
+                expected++;
+            }
+        }
+        assertThat(expected).as("some, not all, pixels surface-limited").isBetween(1, tau.length - 3);
+        assertThat(result.warnings()).contains(ConversionWarning.SURFACE_LIMITED);
+        assertThat(result.pixelsWith(ConversionWarning.SURFACE_LIMITED)).isEqualTo(expected);
+        assertThat(result.convertedPixels()).isEqualTo(converted).isEqualTo(tau.length - 2);
+        assertThat(result.shareWith(ConversionWarning.SURFACE_LIMITED)).isEqualTo((double) expected / converted);
+        String note = String.format(java.util.Locale.ROOT, "%s (%d px, %s %% of the %d converted pixels)",
+                ConversionWarning.SURFACE_LIMITED.message(), expected,
+                MapConversion.Result.percent(100.0 * expected / converted), converted);
+        assertThat(result.warningNotes()).contains(note);
+        assertThat(MapConversion.Result.percent(100.0 * 22 / 68224)).isEqualTo("0.032");
+        assertThat(MapConversion.Result.percent(57.25)).isEqualTo("57.3");
+        assertThat(MapConversion.Result.percent(0)).isEqualTo("0.0");
     }
 
     @Test

@@ -42,11 +42,21 @@ final class AnalysisRunner {
         debounce.restart();
     }
 
-    /** Stops the running analysis; the wafers keep the results computed so far. */
-    void cancel() {
+    /**
+     * Stops the running (or waiting) analysis; the wafers keep the results computed so far. With nothing running or
+     * waiting it does nothing and says nothing.
+     *
+     * @return true when an analysis was stopped
+     */
+    boolean cancel() {
+        if (idle()) {
+            return false;
+        }
+        debounce.stop();
         cancel.set(true);
         restartPending = false;
         status.setMessage("cancelled: some wafers show older results");
+        return true;
     }
 
     private void start() {

@@ -96,6 +96,7 @@ public final class ViewerWindow extends JFrame {
     private ViewerModel.OpenWafer shownWafer;
     private WaferAnalysis shownResult;
     private MapCanvas.Probe lastProbe;
+    private java.util.List<Object> injectionKey;
     private final List<Consumer<ViewerModel.Change>> extraListeners = new ArrayList<>();
 
     private final Action undo = WindowMenus.action("Undo", KeyStroke.getKeyStroke(KeyEvent.VK_Z, WindowMenus.MENU), e -> model().undo());
@@ -359,6 +360,11 @@ public final class ViewerWindow extends JFrame {
         colourBar.setLabel(q.symbol() + (q.unit().isEmpty() ? "" : " (" + q.unit() + ")"));
         physics.showRange(range[0], range[1]);
         showCharts(r);
+        if (lastProbe != null && lastProbe.xPx() < r.lifetime().width() && lastProbe.yPx() < r.lifetime().height()
+                && !injectionCurrent(w)) {
+            // a new defect, wafer or physics redraws the curve (and its title) without waiting for the mouse
+            showInjection(lastProbe);
+        }
         ProfileLine l = a.line();
         canvas.setLine(l == null ? null : new Line2D.Double(l.x0Mm(), l.y0Mm(), l.x1Mm(), l.y1Mm()));
         if (l != null) {
@@ -376,7 +382,9 @@ public final class ViewerWindow extends JFrame {
         shownResult = r;
         status.setFrameMillis(canvas.lastFrameMillis());
         if (!r.warnings().isEmpty()) {
-            List<String> notes = r.warnings().stream().map(x -> x.message()).sorted().toList();
+            // per-pixel cautions name how many pixels they concern (counted by the conversion)
+            List<String> notes = r.conversion() != null ? r.conversion().warningNotes()
+                    : r.warnings().stream().map(x -> x.message()).sorted().toList();
             status.setMessage(r.verdict().headlineWithWarning() + " — caution: " + notes.get(0) + (notes.size() > 1 ? " (+"
                     + (notes.size() - 1) + " more, see tooltip)" : ""));
             status.setMessageTooltip("<html>" + r.verdict().basis() + "<br>" + String.join("<br>", notes)
@@ -428,6 +436,13 @@ public final class ViewerWindow extends JFrame {
         chartedLine = lp;
     }
 
+    /** True when the injection chart shows the probed pixel of {@code w} with the chosen defect and physics. */
+    private boolean injectionCurrent(ViewerModel.OpenWafer w) {
+        Defect d = model.defect();
+        return d != null && java.util.Objects.equals(injectionKey, java.util.List.of(w, lastProbe, d,
+                model.physics()));
+    }
+
     /** The injection curve of the probed pixel, when its tab is shown. */
     private void showInjection(MapCanvas.Probe p) {
         ViewerModel.OpenWafer w = model.selected();
@@ -438,6 +453,7 @@ public final class ViewerWindow extends JFrame {
         try {
             injectionView.show(PixelInjection.sweep(w.result().lifetime(), p.xPx(), p.yPx(), d,
                     ConversionSettings.of(model.physics())));
+            injectionKey = java.util.List.of(w, p, d, model.physics());
         } catch (RuntimeException e) {
             status.setMessage("injection curve: " + e.getMessage());
         }

@@ -184,9 +184,9 @@ final class WindowMenus {
         logScale.setToolTipText("Logarithmic colour scale");
         view.add(logScale);
         view.addSeparator();
-        view.add(item(plainKey("Next wafer", KeyStroke.getKeyStroke(KeyEvent.VK_PAGE_DOWN, 0), model::next),
+        view.add(item(action("Next wafer", KeyStroke.getKeyStroke(KeyEvent.VK_PAGE_DOWN, 0), e -> model.next()),
                 "Show the next open wafer (PageDown or Alt+→)"));
-        view.add(item(plainKey("Previous wafer", KeyStroke.getKeyStroke(KeyEvent.VK_PAGE_UP, 0), model::previous),
+        view.add(item(action("Previous wafer", KeyStroke.getKeyStroke(KeyEvent.VK_PAGE_UP, 0), e -> model.previous()),
                 "Show the previous open wafer (PageUp or Alt+←)"));
         view.addSeparator();
         lineTool.setAccelerator(KeyStroke.getKeyStroke(KeyEvent.VK_L, 0));
@@ -245,10 +245,8 @@ final class WindowMenus {
         bind(root, KeyStroke.getKeyStroke(KeyEvent.VK_SUBTRACT, 0), plainKey("zoom out", null,
                 () -> canvas.zoomBy(0.8)));
         bind(root, KeyStroke.getKeyStroke(KeyEvent.VK_NUMPAD0, 0), plainKey("fit", null, canvas::fit));
-        bind(root, KeyStroke.getKeyStroke(KeyEvent.VK_RIGHT, InputEvent.ALT_DOWN_MASK), action("next", null,
-                e -> model.next()));
-        bind(root, KeyStroke.getKeyStroke(KeyEvent.VK_LEFT, InputEvent.ALT_DOWN_MASK), action("previous", null,
-                e -> model.previous()));
+        // PageDown / PageUp and Alt+→ / Alt+← go to the next / previous wafer whichever component has the focus
+        WaferKeys.install(window, model);
         bind(root, KeyStroke.getKeyStroke(KeyEvent.VK_ESCAPE, 0), action("cancel", null, e -> window.cancelAnalysis()));
     }
 
@@ -260,14 +258,7 @@ final class WindowMenus {
 
 
     void about() {
-        JOptionPane.showMessageDialog(window, "<html><body style='width: 420px'>"
-                + "<b>trapmap</b> converts lifetime and PL maps of silicon wafers into equivalent densities of a chosen"
-                + " recombination-active defect (Shockley–Read–Hall, after removing intrinsic and surface"
-                + " recombination at each pixel's injection level).<br><br>"
-                + "Statuses: OK converted; BELOW_LIMIT SRH share of 1/τ_eff under the detection resolution (the"
-                + " density shown is the detection limit, an upper bound; left out of statistics and flags);"
-                + " INVALID unusable input (or below 1 ns); NO_DATA outside the wafer.<br><br><b>Caution.</b> " + ViewerWindow.CAUTION + "</body></html>", "About trapmap",
-                JOptionPane.INFORMATION_MESSAGE);
+        JOptionPane.showMessageDialog(window, AboutText.html(), "About trapmap", JOptionPane.INFORMATION_MESSAGE);
     }
 
     void shortcuts() {

@@ -145,6 +145,33 @@ class ViewerWindowGuiTest {
         }
     }
 
+    @Test
+    void pageKeysAndAltArrowsChangeTheWaferAndNeverTheFocusedDefectList_injectionTitleFollowsTheDefect() throws Exception {
+        String out = runOnDisplay(KeysGuiScenario.class, DEMO.toString());
+        Matcher m = Pattern.compile("GUI-KEY key=(\\S+) from=(\\d+) wafer=(\\d+) defect=(\\S+) box=(\\S+) same=(\\S+)"
+                + " focus=(\\S+)").matcher(out);
+        Map<String, int[]> steps = Map.of("PageDown", new int[] {1, 2}, "PageUp", new int[] {2, 1},
+                "Alt+Right", new int[] {1, 2}, "Alt+Left", new int[] {2, 1}, "PageDown-in-thickness", new int[] {1, 2});
+        int seen = 0;
+        while (m.find()) {
+            int[] fromTo = steps.get(m.group(1));
+            assertThat(fromTo).as("key %s", m.group(1)).isNotNull();
+            assertThat(Integer.parseInt(m.group(2))).as("wafer before %s", m.group(1)).isEqualTo(fromTo[0]);
+            assertThat(Integer.parseInt(m.group(3))).as("wafer after %s", m.group(1)).isEqualTo(fromTo[1]);
+            assertThat(m.group(4)).as("defect of the analysis after %s", m.group(1)).isEqualTo("midgap");
+            assertThat(m.group(5)).as("choice of the Defect box after %s", m.group(1)).isEqualTo("midgap");
+            assertThat(m.group(6)).as("analysis unchanged (no re-conversion) after %s", m.group(1)).isEqualTo("true");
+            assertThat(m.group(7)).as("focus stays after %s", m.group(1))
+                    .isEqualTo(m.group(1).endsWith("thickness") ? "thickness" : "defect");
+            seen++;
+        }
+        assertThat(seen).as("key lines in:%n%s", out).isEqualTo(5);
+        Matcher inj = Pattern.compile("GUI-INJECTION before=(.*) \\| after=(.*)").matcher(out);
+        assertThat(inj.find()).as("injection line in:%n%s", out).isTrue();
+        assertThat(inj.group(1)).as("injection chart title before the change").startsWith("defect fe-i,");
+        assertThat(inj.group(2)).as("injection chart title right after choosing midgap").startsWith("defect midgap,");
+    }
+
     private static Path onPath(String name) {
         String path = System.getenv("PATH");
         if (path == null) {

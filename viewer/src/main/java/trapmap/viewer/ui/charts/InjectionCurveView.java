@@ -16,6 +16,7 @@ import org.jfree.data.xy.XYSeriesCollection;
 import trapmap.physics.conversion.InjectionSweep;
 import trapmap.physics.conversion.PixelStatus;
 import trapmap.viewer.graphics.ChartStyle;
+import trapmap.viewer.graphics.DecadeAxis;
 import trapmap.viewer.graphics.Labels;
 
 /**
@@ -79,9 +80,9 @@ public class InjectionCurveView extends JPanel {
             op.add(c.pixel().injectionPerCm3(), c.measuredUs());
             point.addSeries(op);
         }
-        LogAxis x = ChartStyle.logAxis("injection Δn (cm⁻³)");
+        LogAxis x = new DecadeAxis("injection Δn (cm⁻³)");
         x.setRange(InjectionSweep.MIN_INJECTION_PER_CM3, InjectionSweep.MAX_INJECTION_PER_CM3);
-        LogAxis y = ChartStyle.logAxis("lifetime (µs)");
+        LogAxis y = new DecadeAxis("lifetime (µs)");
         if (c != null) {
             y.setRange(yRange(c)[0], yRange(c)[1]);
         }
@@ -114,6 +115,8 @@ public class InjectionCurveView extends JPanel {
                     c.pixel().trapDensityPerCm3()) + " cm⁻³ (" + status + ")", ChartStyle.SUBTITLE));
         }
         ChartStyle.apply(chart);
+        // room on the right for half of the last decade label (10¹⁷ at the end of the Δn axis)
+        chart.setPadding(new org.jfree.chart.ui.RectangleInsets(2, 2, 2, 16));
         return chart;
     }
 

@@ -21,6 +21,7 @@ import trapmap.maps.model.MeasurementConditions;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.material.DopingText;
 import trapmap.viewer.model.Analysis;
+import trapmap.viewer.model.ConditionFields;
 import trapmap.viewer.model.ConditionOverrides;
 import trapmap.viewer.model.DisplaySettings;
 import trapmap.viewer.model.DisplayedQuantity;
@@ -58,6 +59,7 @@ public final class PhysicsPanel extends WidthTrackingPanel {
     private final javax.swing.JLabel lowUnit = new javax.swing.JLabel();
     private final javax.swing.JLabel highUnit = new javax.swing.JLabel();
     private final Timer debounce;
+    private final java.util.Map<JTextField, String> plainTips = new java.util.HashMap<>();
     private boolean updating;
 
     /**
@@ -172,6 +174,7 @@ public final class PhysicsPanel extends WidthTrackingPanel {
         };
         for (JTextField t : new JTextField[] {dopingValue, thickness, temperature, excitationValue, srv}) {
             t.getDocument().addDocumentListener(typing);
+            plainTips.put(t, t.getToolTipText());
         }
         dopingType.addActionListener(e -> changed());
         dopingUnit.addActionListener(e -> changed());
@@ -257,60 +260,47 @@ public final class PhysicsPanel extends WidthTrackingPanel {
         }
     }
 
-    /** Reads the condition fields; a bad field gets a red outline and its message as tooltip. */
-    private void commitConditions() {
-        ConditionOverrides c;
-        try {
-            String dv = dopingValue.getText().trim();
-            String d = dv.isEmpty() ? null : dopingType.getSelectedItem() + ":" + Double.parseDouble(dv)
-                    + (dopingUnit.getSelectedIndex() == 0 ? "ohmcm" : "");
-            Double ex = number(excitationValue);
-            c = new ConditionOverrides(d, number(thickness), number(temperature),
-                    excitation.getSelectedIndex() == 0 ? ex : null, excitation.getSelectedIndex() == 1 ? ex : null,
-                    number(srv));
-            for (JTextField t : new JTextField[] {dopingValue, thickness, temperature, excitationValue, srv}) {
-                mark(t, true);
-            }
-        } catch (RuntimeException ex) {
-            JTextField bad = guilty(ex.getMessage());
-            mark(bad, false);
-            bad.setToolTipText(ex.getMessage());
-            return;
-        }
-        model.setAnalysis(model.analysis().withConditions(c), "conditions");
-    }
-
-    private JTextField guilty(String message) {
-        String m = message == null ? "" : message.toLowerCase(Locale.ROOT);
-        if (m.contains("thickness")) {
-            return thickness;
-        }
-        if (m.contains("temperature")) {
-            return temperature;
-        }
-        if (m.contains("injection") || m.contains("generation")) {
-            return excitationValue;
-        }
-        if (m.contains("surface") || m.contains("srv")) {
-            return srv;
-        }
-        return dopingValue;
-    }
-
-    private static Double number(JTextField t) {
-        String s = t.getText().trim();
-        if (s.isEmpty()) {
-            return null;
-        }
-        try {
-            return Double.parseDouble(s);
-        } catch (NumberFormatException e) {
-            throw new IllegalArgumentException(fieldName(t) + ": '" + s + "' is not a number");
+    /**
+     * Reads the condition fields ({@link ConditionFields} checks each one): a bad field gets a red outline and its
+     * message as tooltip; a valid or cleared one gets its plain look and tooltip back, whatever the other fields hold.
+     */
+    void commitConditions() {
+        ConditionFields.Outcome o = fields().check();
+        showMarks(o);
+        if (o.overrides() != null) {
+            model.setAnalysis(model.analysis().withConditions(o.overrides()), "conditions");
         }
     }
 
-    private static String fieldName(JTextField t) {
-        return t.getName() == null ? "value" : t.getName();
+    private void showMarks(ConditionFields.Outcome o) {
+        for (ConditionFields.Field f : ConditionFields.Field.values()) {
+            JTextField t = field(f);
+            String error = o.error(f);
+            mark(t, error == null);
+            t.setToolTipText(error == null ? plainTips.get(t) : error);
+        }
+    }
+
+    /** The condition fields as typed. */
+    ConditionFields fields() {
+        return new ConditionFields(String.valueOf(dopingType.getSelectedItem()), dopingValue.getText(),
+                dopingUnit.getSelectedIndex() == 0, thickness.getText(), temperature.getText(),
+                excitation.getSelectedIndex() == 1, excitationValue.getText(), srv.getText());
+    }
+
+    private JTextField field(ConditionFields.Field f) {
+        return switch (f) {
+            case DOPING -> dopingValue;
+            case THICKNESS -> thickness;
+            case TEMPERATURE -> temperature;
+            case EXCITATION -> excitationValue;
+            case SRV -> srv;
+        };
+    }
+
+    /** True when the field has the error outline (for tests and the status of the form). */
+    static boolean marked(JTextField t) {
+        return "error".equals(t.getClientProperty("JComponent.outline"));
     }
 
     private static void mark(JTextField t, boolean ok) {
@@ -362,6 +352,7 @@ public final class PhysicsPanel extends WidthTrackingPanel {
                     : "unknown");
             setIfDifferent(srv, text(c.srvCmPerS()));
             placeholder(srv, side.srvCmPerS() == null ? "ideal" : Units.number(side.srvCmPerS()));
+            showMarks(fields().check());
 
             DefaultComboBoxModel<Defect> dm = new DefaultComboBoxModel<>();
             model.defects().all().forEach(dm::addElement);

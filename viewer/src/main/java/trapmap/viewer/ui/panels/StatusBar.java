@@ -55,6 +55,11 @@ public final class StatusBar extends JPanel {
         message.setToolTipText(text);
     }
 
+    /** The message shown (a blank when none). */
+    public String message() {
+        return message.getText();
+    }
+
     /** A longer text for the message's tooltip. */
     public void setMessageTooltip(String text) {
         message.setToolTipText(text);
