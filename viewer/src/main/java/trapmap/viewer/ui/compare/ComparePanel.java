@@ -43,6 +43,7 @@ import trapmap.maps.process.IronMapping;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.viewer.report.WaferReport;
 import trapmap.viewer.ui.canvas.ColourBar;
+import trapmap.viewer.ui.panels.TableFit;
 import trapmap.viewer.ui.canvas.MapCanvas;
 import trapmap.viewer.ui.canvas.Viewport;
 import trapmap.viewer.graphics.AutoStyle;
@@ -85,7 +86,13 @@ public class ComparePanel extends JPanel {
             return false;
         }
     };
+    private final JTable statisticsTable = new JTable(table);
     private final JTextArea cautions = new JTextArea();
+    /** The statistics and cautions beside the maps; as wide as the widest row needs, within limits. */
+    private final JPanel side;
+    /** Width of the side panel, pixels: at least this, at most {@link #SIDE_MAX}. */
+    private static final int SIDE_MIN = 350;
+    private static final int SIDE_MAX = 560;
     private WaferMap before;
     private WaferMap after;
     private CompareModel.Options options = CompareModel.Options.defaults();
@@ -131,7 +138,7 @@ public class ComparePanel extends JPanel {
         maps.add(titled(derivedTitle, derivedCanvas, derivedBar));
         add(maps, BorderLayout.CENTER);
 
-        JTable t = new JTable(table);
+        JTable t = statisticsTable;
         t.setFillsViewportHeight(true);
         t.getColumnModel().getColumn(0).setPreferredWidth(190);
         t.getColumnModel().getColumn(1).setPreferredWidth(90);
@@ -142,7 +149,7 @@ public class ComparePanel extends JPanel {
         cautions.setRows(6);
         cautions.setBackground(new Color(0xFFF4E0));
         cautions.setBorder(BorderFactory.createEmptyBorder(4, 6, 4, 6));
-        JPanel side = new JPanel(new BorderLayout(0, 6));
+        side = new JPanel(new BorderLayout(0, 6));
         side.add(new JScrollPane(t), BorderLayout.CENTER);
         side.add(cautions, BorderLayout.SOUTH);
         side.setPreferredSize(new Dimension(350, 400));
@@ -176,7 +183,6 @@ public class ComparePanel extends JPanel {
         p.add(title, BorderLayout.NORTH);
         p.add(new JLayer<>(canvas, crosshair), BorderLayout.CENTER);
         if (bar != null) {
-            bar.setPreferredSize(new Dimension(80, 300));
             p.add(bar, BorderLayout.EAST);
         }
         p.setPreferredSize(new Dimension(300, 320));
@@ -388,6 +394,9 @@ public class ComparePanel extends JPanel {
         for (String[] row : r.statisticsRows()) {
             table.addRow(row);
         }
+        int need = TableFit.fitContent(statisticsTable) + 24; // scroll bar and border
+        side.setPreferredSize(new Dimension(Math.max(SIDE_MIN, Math.min(SIDE_MAX, need)), 400));
+        side.revalidate();
         showDerived();
         showCautions();
         beforeCanvas.fit();
@@ -409,8 +418,9 @@ public class ComparePanel extends JPanel {
         derivedBar.setStyle(m == null ? null : AutoStyle.of(m));
         if (m != null) {
             derivedCanvas.setStyle(derivedBar.style());
-            String u = Labels.unit(result.unit(v));
-            derivedBar.setLabel(u.isEmpty() ? "" : u);
+            String u = m.quantity().isFraction() ? "%" : Labels.unit(result.unit(v));
+            derivedBar.setPercent(m.quantity().isFraction());
+            derivedBar.setLabel(u);
             derivedTitle.setText(v + (u.isEmpty() ? "" : " (" + u + ")"));
         } else {
             derivedTitle.setText(v == null ? "" : v + ": " + (result == null ? "not computed yet"
