@@ -69,9 +69,9 @@ public class ComparePanel extends JPanel {
     /** Colour scale of the before and after maps (one scale for both, so that colours compare). */
     private final ColourBar pairBar = new ColourBar();
     private final ColourBar derivedBar = new ColourBar();
-    private final JLabel beforeTitle = title("before");
-    private final JLabel afterTitle = title("after (registered)");
-    private final JLabel derivedTitle = title("");
+    private final JLabel beforeTitle = title("before", "");
+    private final JLabel afterTitle = title("after (registered)", "");
+    private final JLabel derivedTitle = title("", "");
     private final JComboBox<CompareModel.View> view = new JComboBox<>(CompareModel.View.values());
     private final JCheckBox register = new JCheckBox("Register", true);
     private final JCheckBox iron = new JCheckBox("Fe_i from FeB pair");
@@ -172,10 +172,24 @@ public class ComparePanel extends JPanel {
         showCautions();
     }
 
-    private static JLabel title(String text) {
-        JLabel l = new JLabel(text);
+    private static JLabel title(String head, String detail) {
+        JLabel l = new JLabel();
         l.setBorder(BorderFactory.createEmptyBorder(2, 4, 2, 4));
+        setTitle(l, head, detail);
         return l;
+    }
+
+    /**
+     * A map's title on two lines (what it is; the wafer and quantity, or why there is no map), so that it fits the
+     * narrow column of each map; the tooltip holds it on one line.
+     */
+    private static void setTitle(JLabel l, String head, String detail) {
+        l.setText("<html>" + html(head) + "<br>" + (detail.isEmpty() ? "&nbsp;" : html(detail)) + "</html>");
+        l.setToolTipText(detail.isEmpty() ? head : head + ": " + detail);
+    }
+
+    private static String html(String t) {
+        return t.replace("&", "&amp;").replace("<", "&lt;").replace(">", "&gt;");
     }
 
     private JComponent titled(JLabel title, MapCanvas canvas, ColourBar bar) {
@@ -260,7 +274,7 @@ public class ComparePanel extends JPanel {
             beforeCanvas.setStyle(AutoStyle.of(beforeMap));
             pairBar.setStyle(beforeCanvas.style());
             pairBar.setLabel(Labels.unit(beforeMap.quantity()));
-            beforeTitle.setText("before: " + name(beforeMap));
+            setTitle(beforeTitle, "before", name(beforeMap));
             beforeCanvas.fit();
         }
         if (beforeMap != null && afterMap != null) {
@@ -384,12 +398,12 @@ public class ComparePanel extends JPanel {
         this.result = r;
         beforeCanvas.setMap(r.before());
         beforeCanvas.setStyle(AutoStyle.common(r.before(), r.after()));
-        beforeTitle.setText("before: " + name(r.before()));
+        setTitle(beforeTitle, "before", name(r.before()));
         afterCanvas.setMap(r.after());
         afterCanvas.setStyle(beforeCanvas.style()); // one scale for both, so colours compare
         pairBar.setStyle(beforeCanvas.style());
         pairBar.setLabel(Labels.unit(r.before().quantity()));
-        afterTitle.setText("after, registered: " + name(r.after()));
+        setTitle(afterTitle, "after, registered", name(r.after()));
         table.setRowCount(0);
         for (String[] row : r.statisticsRows()) {
             table.addRow(row);
@@ -421,11 +435,12 @@ public class ComparePanel extends JPanel {
             String u = m.quantity().isFraction() ? "%" : Labels.unit(result.unit(v));
             derivedBar.setPercent(m.quantity().isFraction());
             derivedBar.setLabel(u);
-            derivedTitle.setText(v + (u.isEmpty() ? "" : " (" + u + ")"));
+            setTitle(derivedTitle, v.toString(), u.isEmpty() ? "" : "(" + u + ")");
         } else {
-            derivedTitle.setText(v == null ? "" : v + ": " + (result == null ? "not computed yet"
+            String why = v == null ? "" : result == null ? "not computed yet"
                     : v == CompareModel.View.IRON || v == CompareModel.View.IRON_STATUS
-                    ? "tick 'Fe_i from FeB pair' and compare" : "only for density maps"));
+                    ? "tick 'Fe_i from FeB pair' and compare" : "only for density maps";
+            setTitle(derivedTitle, v == null ? "" : v.toString(), why);
         }
     }
 
