@@ -86,7 +86,15 @@ public class ComparePanel extends JPanel {
             return false;
         }
     };
-    private final JTable statisticsTable = new JTable(table);
+    private final JTable statisticsTable = new JTable(table) {
+        @Override
+        public String getToolTipText(java.awt.event.MouseEvent e) {
+            int r = rowAtPoint(e.getPoint());
+            int c = columnAtPoint(e.getPoint());
+            Object v = r < 0 || c < 0 ? null : getValueAt(r, c);
+            return v == null || v.toString().isEmpty() ? null : v.toString(); // the whole text of a cut cell
+        }
+    };
     private final JTextArea cautions = new JTextArea();
     /** The statistics and cautions beside the maps; as wide as the widest row needs, within limits. */
     private final JPanel side;
