@@ -48,6 +48,23 @@ public enum Quantity {
     }
 
     /**
+     * True for a share from 0 to 1 (a reduction 1 − after/before, a recurrence fraction): shown as a percentage on a
+     * fixed 0–100 % scale ({@link #defaultRange()}) unless the user sets a range, so that maps of such shares compare
+     * by colour.
+     */
+    public boolean isFraction() {
+        return this == FRACTION;
+    }
+
+    /**
+     * The display range a map of this quantity takes before the user sets one: {0, 1} for a fraction, null where the
+     * range follows the data (its percentiles).
+     */
+    public double[] defaultRange() {
+        return isFraction() ? new double[] {0, 1} : null;
+    }
+
+    /**
      * The quantity with this key (case-insensitive).
      *
      * @throws IllegalArgumentException listing the known keys

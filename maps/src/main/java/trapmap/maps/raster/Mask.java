@@ -82,6 +82,36 @@ public final class Mask {
         return new Mask(width, height, b);
     }
 
+    /**
+     * The edge of this mask: its pixels with a 4-neighbour outside it or on the raster's border, so that drawing
+     * them outlines every region (holes included) one pixel wide, inside the region.
+     */
+    public Mask edge() {
+        return new Mask(width, height, edgePixels(bits, width, height));
+    }
+
+    /**
+     * The edge pixels of a pixel set given as bits (index {@code y * width + x}): set pixels with a 4-neighbour not
+     * set, or on the border of the {@code width} × {@code height} raster. Runs in time proportional to the set pixels.
+     */
+    public static BitSet edgePixels(BitSet pixels, int width, int height) {
+        if (width < 1 || height < 1) {
+            throw new IllegalArgumentException("raster size must be at least 1x1 px but was " + width + "x" + height
+                    + " px");
+        }
+        int n = width * height;
+        BitSet e = new BitSet(n);
+        for (int i = pixels.nextSetBit(0); i >= 0 && i < n; i = pixels.nextSetBit(i + 1)) {
+            int x = i % width;
+            int y = i / width;
+            if (x == 0 || y == 0 || x == width - 1 || y == height - 1 || !pixels.get(i - 1) || !pixels.get(i + 1)
+                    || !pixels.get(i - width) || !pixels.get(i + width)) {
+                e.set(i);
+            }
+        }
+        return e;
+    }
+
     /** Index of the next pixel in the mask at or after {@code from}, or -1. */
     public int nextIndex(int from) {
         return bits.nextSetBit(from);

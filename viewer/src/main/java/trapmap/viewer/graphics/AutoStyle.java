@@ -11,7 +11,8 @@ import trapmap.maps.stats.StatisticsRequest;
  * A display style chosen from the data: colour map BLUE_YELLOW over the 1st to 99th percentile of the pixels with
  * data, on a log scale (positive pixels only) for quantities that span decades, linear otherwise. Changes use the
  * DIVERGING map with "no change" mid-scale: differences and relative changes on a linear range symmetric about zero,
- * ratios on a log range symmetric about one.
+ * ratios on a log range symmetric about one. Quantities with a {@link Quantity#defaultRange()} (fractions: 0 to 1)
+ * keep that range whatever the data.
  */
 public final class AutoStyle {
     private AutoStyle() {
@@ -19,6 +20,10 @@ public final class AutoStyle {
 
     /** The style of {@code map}. */
     public static DisplayStyle of(WaferMap map) {
+        double[] fixed = map.quantity().defaultRange();
+        if (fixed != null) {
+            return new DisplayStyle(ColourMap.BLUE_YELLOW, false, fixed[0], fixed[1]);
+        }
         float[] s = map.raster().samples();
         if (map.quantity().logarithmic()) {
             Mask positive = Mask.of(map.width(), map.height(), i -> s[i] > 0);

@@ -9,12 +9,10 @@ import java.text.ParsePosition;
 import org.jfree.chart.JFreeChart;
 import org.jfree.chart.axis.LogAxis;
 import org.jfree.chart.axis.NumberAxis;
-import org.jfree.chart.axis.NumberTickUnit;
-import org.jfree.chart.axis.TickUnits;
 import org.jfree.chart.axis.ValueAxis;
 import org.jfree.chart.plot.XYPlot;
 
-/** The common look of the charts of the viewer and the reports: white plot, light grid, readable fonts, log axes with decade labels. */
+/** The common look of the charts of the viewer and the reports: white plot, light grid, readable fonts, log axes with 1-2-5 ticks. */
 public final class ChartStyle {
     public static final Color GRID = new Color(0xDDDDDD);
     public static final Color BARS = new Color(0x3A6EA5);
@@ -80,21 +78,36 @@ public final class ChartStyle {
         }
     }
 
-    /** A base-10 logarithmic axis labelled at decades, e.g. 10¹², 10¹³. */
+    /**
+     * A base-10 logarithmic axis with ticks at 1, 2 and 5 × 10^k where they fit, else at decades ({@link LogTicks}:
+     * 10, 20, 50, 100 …), labelled by {@link #TICK_FORMAT}.
+     */
     public static LogAxis logAxis(String label) {
         LogAxis a = new ZeroWidthLogAxis(label);
         a.setBase(10);
         a.setSmallestValue(1e-300);
-        a.setMinorTickMarksVisible(true);
+        a.setMinorTickMarksVisible(false);
         a.setNumberFormatOverride(TICK_FORMAT);
-        // steps in powers of ten: fine steps for narrow ranges, whole decades for wide ones (no half decades, whose
-        // labels such as 3.16e12 read badly)
-        TickUnits steps = new TickUnits();
-        for (double step : new double[] {0.05, 0.1, 0.2, 1, 2, 5, 10, 20, 50}) {
-            steps.add(new NumberTickUnit(step, TICK_FORMAT));
-        }
-        a.setStandardTickUnits(steps);
         return a;
+    }
+
+    /**
+     * How many tick labels fit along an axis of {@code lengthPx}: the largest count whose {@link LogTicks} labels,
+     * each {@code labelExtent} wide (horizontal axis: text width; vertical: text height) plus a gap, fit the length.
+     */
+    static double[] fittingLogTicks(double low, double high, double lengthPx,
+                                    java.util.function.ToDoubleFunction<String> labelExtent, double gapPx) {
+        for (int max = Math.max(2, (int) (lengthPx / 12)); max >= 2; max--) {
+            double[] t = LogTicks.ticks(low, high, max);
+            double need = 0;
+            for (double v : t) {
+                need += labelExtent.applyAsDouble(TICK_FORMAT.format(v)) + gapPx;
+            }
+            if (need <= lengthPx) {
+                return t;
+            }
+        }
+        return LogTicks.ticks(low, high, 1);
     }
 
     /**
@@ -122,6 +135,44 @@ public final class ChartStyle {
                 }
             }
             super.autoAdjustRange();
+        }
+
+        @Override
+        protected java.util.List refreshTicksHorizontal(java.awt.Graphics2D g2, java.awt.geom.Rectangle2D dataArea,
+                                                        org.jfree.chart.ui.RectangleEdge edge) {
+            return ticks(g2, dataArea.getWidth(), true, edge);
+        }
+
+        @Override
+        protected java.util.List refreshTicksVertical(java.awt.Graphics2D g2, java.awt.geom.Rectangle2D dataArea,
+                                                      org.jfree.chart.ui.RectangleEdge edge) {
+            return ticks(g2, dataArea.getHeight(), false, edge);
+        }
+
+        private java.util.List<org.jfree.chart.axis.ValueTick> ticks(java.awt.Graphics2D g2, double lengthPx,
+                                                                     boolean horizontal,
+                                                                     org.jfree.chart.ui.RectangleEdge edge) {
+            java.util.List<org.jfree.chart.axis.ValueTick> out = new java.util.ArrayList<>();
+            org.jfree.data.Range r = getRange();
+            if (!(r.getLowerBound() > 0) || !(r.getUpperBound() >= r.getLowerBound())) {
+                return out;
+            }
+            java.awt.FontMetrics fm = g2.getFontMetrics(getTickLabelFont());
+            double[] values = fittingLogTicks(r.getLowerBound(), r.getUpperBound(), lengthPx,
+                    horizontal ? fm::stringWidth : t -> fm.getHeight(), horizontal ? 10 : 6);
+            org.jfree.chart.ui.TextAnchor anchor;
+            if (horizontal) {
+                anchor = edge == org.jfree.chart.ui.RectangleEdge.TOP ? org.jfree.chart.ui.TextAnchor.BOTTOM_CENTER
+                        : org.jfree.chart.ui.TextAnchor.TOP_CENTER;
+            } else {
+                anchor = edge == org.jfree.chart.ui.RectangleEdge.LEFT ? org.jfree.chart.ui.TextAnchor.CENTER_RIGHT
+                        : org.jfree.chart.ui.TextAnchor.CENTER_LEFT;
+            }
+            for (double v : values) {
+                out.add(new org.jfree.chart.axis.NumberTick(org.jfree.chart.axis.TickType.MAJOR, v,
+                        TICK_FORMAT.format(v), anchor, anchor, 0.0));
+            }
+            return out;
         }
     }
 

@@ -29,6 +29,19 @@ public final class RecentFiles {
         this.store = store;
     }
 
+    /** Key of the flagged-pixel overlay preference in the same store. */
+    private static final String OVERLAY_KEY = "flag-overlay";
+
+    /** The flagged-pixel overlay last chosen ({@link FlagOverlay#DEFAULT} when none was). */
+    public FlagOverlay flagOverlay() {
+        return FlagOverlay.parse(store.get(OVERLAY_KEY));
+    }
+
+    /** Remembers the flagged-pixel overlay for the next start. */
+    public void setFlagOverlay(FlagOverlay o) {
+        store.put(OVERLAY_KEY, o.text());
+    }
+
     /** A list kept in the user's preferences under {@code node}. */
     public static RecentFiles inPreferences(String node) {
         Preferences p = Preferences.userRoot().node(node);

@@ -137,7 +137,6 @@ public final class ViewerWindow extends JFrame {
         JPanel centre = new JPanel(new BorderLayout());
         centre.add(mapTitle, BorderLayout.NORTH);
         centre.add(canvas, BorderLayout.CENTER);
-        colourBarHolder.setPreferredSize(new Dimension(90, 100));
         centre.add(colourBarHolder, BorderLayout.EAST);
 
         JSplitPane centreSplit = new JSplitPane(JSplitPane.VERTICAL_SPLIT, centre, charts);
@@ -164,6 +163,7 @@ public final class ViewerWindow extends JFrame {
         outer.setBorder(null);
         getContentPane().add(outer, BorderLayout.CENTER);
         getContentPane().add(status, BorderLayout.SOUTH);
+        canvas.setFlagOverlay(recent.flagOverlay());
         WindowMenus menus = new WindowMenus(this, model, canvas, sessions, exports, undo, redo, lineTool, logScale);
         setJMenuBar(menus.menus());
         menus.keys();
@@ -207,6 +207,14 @@ public final class ViewerWindow extends JFrame {
 
     public ChartTabs charts() {
         return charts;
+    }
+
+    /** Draws flagged pixels as {@code o} says and remembers it for the next start. */
+    void setFlagOverlay(trapmap.viewer.model.FlagOverlay o) {
+        canvas.setFlagOverlay(o);
+        recent.setFlagOverlay(o);
+        statusBar().setMessage("flagged pixels: " + o.mode().label() + ", opacity "
+                + Math.round(100 * o.opacity()) + " %");
     }
 
     /** Puts the colour bar beside the map. */

@@ -25,6 +25,7 @@ import javax.swing.text.JTextComponent;
 import trapmap.maps.io.ColourMap;
 import trapmap.viewer.ui.canvas.MapCanvas;
 import trapmap.viewer.model.DisplayedQuantity;
+import trapmap.viewer.model.FlagOverlay;
 import trapmap.viewer.model.ViewerModel;
 
 /** The window's menu bar, its keyboard shortcuts, and the about and shortcut dialogs. */
@@ -84,6 +85,66 @@ final class WindowMenus {
         JMenuItem i = new JMenuItem(a);
         i.setToolTipText(tooltip);
         return i;
+    }
+
+    /**
+     * View ▸ Flagged pixels: outline, fill or off (O cycles them), and the opacity; the choice is kept in the
+     * preferences by the window.
+     */
+    private JMenu flagOverlayMenu() {
+        JMenu m = new JMenu("Flagged pixels");
+        m.setToolTipText("How flagged pixels are drawn over the map");
+        ButtonGroup modes = new ButtonGroup();
+        java.util.Map<FlagOverlay.Mode, JRadioButtonMenuItem> modeItems = new java.util.EnumMap<>(
+                FlagOverlay.Mode.class);
+        for (FlagOverlay.Mode mode : FlagOverlay.Mode.values()) {
+            JRadioButtonMenuItem r = new JRadioButtonMenuItem(mode.label());
+            r.setToolTipText(switch (mode) {
+                case OUTLINE -> "Draw the edge of the flagged regions; the data inside stays visible";
+                case FILL -> "Cover the flagged pixels with a translucent fill";
+                case OFF -> "Do not mark flagged pixels on the map";
+            });
+            r.addActionListener(e -> window.setFlagOverlay(canvas.flagOverlay().withMode(mode)));
+            modes.add(r);
+            m.add(r);
+            modeItems.put(mode, r);
+        }
+        m.add(item(plainKey("Next overlay mode", KeyStroke.getKeyStroke(KeyEvent.VK_O, 0),
+                () -> window.setFlagOverlay(canvas.flagOverlay().next())), "Outline → fill → off (O)"));
+        m.addSeparator();
+        JMenu opacity = new JMenu("Opacity");
+        ButtonGroup opacities = new ButtonGroup();
+        java.util.Map<Double, JRadioButtonMenuItem> opacityItems = new java.util.HashMap<>();
+        for (double o : FlagOverlay.OPACITIES) {
+            JRadioButtonMenuItem r = new JRadioButtonMenuItem(Math.round(100 * o) + " %");
+            r.addActionListener(e -> window.setFlagOverlay(canvas.flagOverlay().withOpacity(o)));
+            opacities.add(r);
+            opacity.add(r);
+            opacityItems.put(o, r);
+        }
+        m.add(opacity);
+        m.addMenuListener(new MenuListener() {
+            @Override
+            public void menuSelected(MenuEvent e) {
+                FlagOverlay now = canvas.flagOverlay();
+                modeItems.get(now.mode()).setSelected(true);
+                JRadioButtonMenuItem o = opacityItems.get(now.opacity());
+                if (o != null) {
+                    o.setSelected(true);
+                } else {
+                    opacities.clearSelection();
+                }
+            }
+
+            @Override
+            public void menuDeselected(MenuEvent e) {
+            }
+
+            @Override
+            public void menuCanceled(MenuEvent e) {
+            }
+        });
+        return m;
     }
 
     JMenuBar menus() {
@@ -179,6 +240,7 @@ final class WindowMenus {
             });
         }
         view.add(cm);
+        view.add(flagOverlayMenu());
         logScale.addActionListener(e -> model.setAnalysis(model.analysis().withDisplay(model.analysis().display()
                 .withLogarithmic(logScale.isSelected())), "log scale"));
         logScale.setToolTipText("Logarithmic colour scale");

@@ -36,4 +36,15 @@ class AutoStyleTest {
         assertThat(s.low()).isEqualTo(AutoStyle.of(before).low());
         assertThat(s.high()).isEqualTo(AutoStyle.of(after).high());
     }
+
+    @Test
+    void reductionsKeepTheFixedZeroToOneScaleWhateverTheData() {
+        // a reduction map of 0.92–0.96 would auto-scale to its own narrow range; fractions keep 0–1 (0–100 %)
+        WaferMap reduction = ChartsTest.map(Quantity.FRACTION, 0.94, 0.01, 5);
+        DisplayStyle s = AutoStyle.of(reduction);
+        assertThat(s.low()).isZero();
+        assertThat(s.high()).isEqualTo(1);
+        assertThat(s.logarithmic()).isFalse();
+        assertThat(AutoStyle.of(ChartsTest.map(Quantity.DIFFERENCE, 0.94, 0.005, 5)).high()).isLessThan(1);
+    }
 }

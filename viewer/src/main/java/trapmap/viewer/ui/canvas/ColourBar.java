@@ -13,10 +13,11 @@ import java.util.Locale;
 import javax.swing.JComponent;
 import javax.swing.UIManager;
 import trapmap.viewer.graphics.DisplayStyle;
+import trapmap.viewer.graphics.LogTicks;
 
 /**
  * Vertical colour scale for a {@link DisplayStyle}: the colours from {@code low} (bottom) to {@code high} (top), tick
- * labels at round values (multiples of 1, 2 or 5 × 10^k on a linear scale, decades on a log scale), and a label
+ * labels at round values (multiples of 1, 2 or 5 × 10^k on a linear scale, {@link LogTicks} on a log scale), and a label
  * naming the quantity and unit above the bar, e.g. {@code τ (µs)} or {@code N_t (cm⁻³)}. Values outside the range take
  * the end colours on the map, which the small arrows at the ends recall.
  */
@@ -26,13 +27,17 @@ public class ColourBar extends JComponent {
     /** At most this many tick labels. */
     static final int MAX_TICKS = 8;
 
+    /** Space left of the strip and right of the widest label, pixels. */
+    static final int PAD = 6;
+    /** From the strip's right edge to the start of a tick label (tick mark and gap), pixels. */
+    static final int LABEL_GAP = 7;
+
     private DisplayStyle style;
     private String label = "";
+    private boolean percent;
 
-    /** An empty bar; give it a style with {@link #setStyle}. */
+    /** An empty bar; give it a style with {@link #setStyle}. Its preferred width fits its widest label. */
     public ColourBar() {
-        setPreferredSize(new Dimension(96, 320));
-        setMinimumSize(new Dimension(72, 120));
     }
 
     /** A bar for {@code style} with a quantity-and-unit label such as {@code τ (µs)}. */
@@ -52,7 +57,63 @@ public class ColourBar extends JComponent {
         this.style = style;
         setToolTipText(style == null ? null : style.colours().displayName() + ": " + style.colours().description()
                 + (style.logarithmic() ? " (log scale)" : " (linear scale)"));
+        revalidate();
         repaint();
+    }
+
+    /** Shows values of a 0–1 fraction as percentages (0.2 reads "20 %"). */
+    public void setPercent(boolean percent) {
+        this.percent = percent;
+        revalidate();
+        repaint();
+    }
+
+    /** The tick labels of the current style, bottom to top (none without a style). */
+    List<String> tickLabels() {
+        List<String> out = new ArrayList<>();
+        if (style == null) {
+            return out;
+        }
+        double[] ticks = ticks(style, MAX_TICKS);
+        double step = ticks.length > 1 ? ticks[1] - ticks[0] : Math.abs(style.high() - style.low());
+        for (double v : ticks) {
+            out.add(percent ? format(100 * v, 100 * step) + " %" : format(v, style.logarithmic() ? v : step));
+        }
+        return out;
+    }
+
+    /**
+     * The width that shows the strip, every tick label and the label above in full with {@code fm}: the strip,
+     * the tick gap and the widest tick label, or the label above if wider, plus the margins.
+     */
+    int widthFor(FontMetrics fm) {
+        int widest = 0;
+        for (String t : tickLabels()) {
+            widest = Math.max(widest, fm.stringWidth(t));
+        }
+        int ticksWidth = PAD + BAR_WIDTH + LABEL_GAP + widest + PAD;
+        int labelWidth = PAD + fm.stringWidth(label) + PAD;
+        return Math.max(Math.max(ticksWidth, labelWidth), PAD + BAR_WIDTH + LABEL_GAP + PAD);
+    }
+
+    private Font barFont() {
+        return getFont() != null ? getFont() : new Font(Font.SANS_SERIF, Font.PLAIN, 12);
+    }
+
+    @Override
+    public Dimension getPreferredSize() {
+        if (isPreferredSizeSet()) {
+            return super.getPreferredSize();
+        }
+        return new Dimension(widthFor(getFontMetrics(barFont())), 320);
+    }
+
+    @Override
+    public Dimension getMinimumSize() {
+        if (isMinimumSizeSet()) {
+            return super.getMinimumSize();
+        }
+        return new Dimension(getPreferredSize().width, 120);
     }
 
     /** The quantity-and-unit label above the bar. */
@@ -63,6 +124,7 @@ public class ColourBar extends JComponent {
     /** Sets the quantity-and-unit text above the bar, e.g. {@code τ (µs)} or {@code N_t (cm⁻³)}; null means none. */
     public void setLabel(String label) {
         this.label = label == null ? "" : label;
+        revalidate();
         repaint();
     }
 
@@ -99,33 +161,9 @@ public class ColourBar extends JComponent {
         return n * p;
     }
 
-    /**
-     * Decades inside [low, high] (every second, third, … decade when there are too many); with fewer than three,
-     * the 2 and 5 multiples inside the range are added.
-     */
+    /** The log-scale ticks: {@link LogTicks} (1-2-5 values when they fit, else decades). */
     static double[] logTicks(double low, double high, int maxTicks) {
-        int e0 = (int) Math.ceil(Math.log10(low) - 1e-9);
-        int e1 = (int) Math.floor(Math.log10(high) + 1e-9);
-        List<Double> t = new ArrayList<>();
-        int decades = e1 - e0 + 1;
-        if (decades >= 3) {
-            int every = (decades + maxTicks - 1) / maxTicks;
-            for (int e = e0; e <= e1; e++) {
-                if ((e - e0) % every == 0) {
-                    t.add(Math.pow(10, e));
-                }
-            }
-        } else {
-            for (int e = e0 - 1; e <= e1; e++) {
-                for (int m : new int[] {1, 2, 5}) {
-                    double v = m * Math.pow(10, e);
-                    if (v >= low * (1 - 1e-9) && v <= high * (1 + 1e-9)) {
-                        t.add(v);
-                    }
-                }
-            }
-        }
-        return t.stream().mapToDouble(Double::doubleValue).toArray();
+        return LogTicks.ticks(low, high, maxTicks);
     }
 
     /** Text of a tick value: plain for moderate magnitudes, m×10ⁿ with superscript digits otherwise. */
@@ -175,12 +213,11 @@ public class ColourBar extends JComponent {
                 return;
             }
             g.setRenderingHint(RenderingHints.KEY_TEXT_ANTIALIASING, RenderingHints.VALUE_TEXT_ANTIALIAS_ON);
-            Font font = getFont() != null ? getFont() : new Font(Font.SANS_SERIF, Font.PLAIN, 12);
-            g.setFont(font);
+            g.setFont(barFont());
             FontMetrics fm = g.getFontMetrics();
             Color text = getForeground() != null ? getForeground() : UIManager.getColor("Label.foreground");
             text = text == null ? Color.BLACK : text;
-            int pad = 6;
+            int pad = PAD;
             int top = pad + (label.isEmpty() ? 0 : fm.getHeight() + 4) + fm.getAscent() / 2 + 6;
             int bottom = getHeight() - pad - fm.getAscent() / 2 - 6;
             int x = pad;
@@ -203,14 +240,13 @@ public class ColourBar extends JComponent {
             g.fillPolygon(new int[] {mid - 4, mid + 4, mid}, new int[] {top - 2, top - 2, top - 6}, 3);
             g.fillPolygon(new int[] {mid - 4, mid + 4, mid}, new int[] {bottom + 2, bottom + 2, bottom + 6}, 3);
             double[] ticks = ticks(style, MAX_TICKS);
-            double step = ticks.length > 1 ? ticks[1] - ticks[0] : Math.abs(style.high() - style.low());
+            List<String> labels = tickLabels();
             int lastY = Integer.MAX_VALUE;
-            for (double v : ticks) {
-                int y = (int) Math.round(bottom - position(style, v) * h);
+            for (int i = 0; i < ticks.length; i++) {
+                int y = (int) Math.round(bottom - position(style, ticks[i]) * h);
                 g.drawLine(x + BAR_WIDTH, y, x + BAR_WIDTH + 4, y);
                 if (Math.abs(lastY - y) >= fm.getAscent()) {
-                    g.drawString(format(v, style.logarithmic() ? v : step), x + BAR_WIDTH + 7,
-                            y + fm.getAscent() / 2 - 1);
+                    g.drawString(labels.get(i), x + BAR_WIDTH + LABEL_GAP, y + fm.getAscent() / 2 - 1);
                     lastY = y;
                 }
             }

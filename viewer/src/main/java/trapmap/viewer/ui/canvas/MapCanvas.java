@@ -31,6 +31,7 @@ import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.BlockMeanPyramid;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
+import trapmap.viewer.model.FlagOverlay;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.viewer.graphics.DisplayStyle;
 
@@ -103,6 +104,7 @@ public class MapCanvas extends JComponent {
     private DisplayStyle style;
     private Colouring colouring;
     private BitSet flagged;
+    private FlagOverlay flagOverlay = FlagOverlay.DEFAULT;
     private Line2D lineMm;
     private boolean lineTool;
     private Consumer<Probe> probeListener = p -> { };
@@ -175,6 +177,8 @@ public class MapCanvas extends JComponent {
         }
         if (flagged != null && map != null && flagged.length() > map.width() * map.height()) {
             setFlagged(null);
+        } else if (flagged != null) {
+            setFlagged(flagged); // the outline follows the new map's size
         }
         repaint();
     }
@@ -205,8 +209,29 @@ public class MapCanvas extends JComponent {
      */
     public void setFlagged(BitSet flagged) {
         this.flagged = flagged == null || flagged.isEmpty() ? null : flagged;
-        layer.setFlags(this.flagged == null ? null : this.flagged.toLongArray(), flagColour().getRGB() & 0xFFFFFF);
+        long[] words = null;
+        if (this.flagged != null && flagOverlay.mode() != FlagOverlay.Mode.OFF) {
+            // outline: the edge pixels of the flagged set (maps module), tinted like a fill
+            words = flagOverlay.mode() == FlagOverlay.Mode.OUTLINE && map != null
+                    ? Mask.edgePixels(this.flagged, map.width(), map.height()).toLongArray()
+                    : this.flagged.toLongArray();
+        }
+        layer.setFlags(words, flagColour().getRGB() & 0xFFFFFF, flagOverlay);
         repaint();
+    }
+
+    /** How flagged pixels are drawn: outline (default), fill or off, and the opacity. */
+    public FlagOverlay flagOverlay() {
+        return flagOverlay;
+    }
+
+    /** Draws flagged pixels as {@code o} says from the next frame on. */
+    public void setFlagOverlay(FlagOverlay o) {
+        if (o == null || o.equals(flagOverlay)) {
+            return;
+        }
+        flagOverlay = o;
+        setFlagged(flagged);
     }
 
     /**
@@ -437,14 +462,18 @@ public class MapCanvas extends JComponent {
         }
         g.setRenderingHint(RenderingHints.KEY_INTERPOLATION, RenderingHints.VALUE_INTERPOLATION_NEAREST_NEIGHBOR);
         g.setRenderingHint(RenderingHints.KEY_RENDERING, RenderingHints.VALUE_RENDER_SPEED);
-        if (layer.draw(g, v, lv, flagged != null && z < OUTLINE_ZOOM) > 0) {
+        FlagOverlay.Mode mode = flagOverlay.mode();
+        boolean tint = flagged != null && (mode == FlagOverlay.Mode.FILL
+                || mode == FlagOverlay.Mode.OUTLINE && z < OUTLINE_ZOOM);
+        if (layer.draw(g, v, lv, tint) > 0) {
             repaint(); // the tiles left for later frames
         }
         if (z >= GRID_ZOOM) {
             Overlays.drawPixelGrid(g, v, map.width(), map.height());
         }
-        if (flagged != null && z >= OUTLINE_ZOOM) {
-            Overlays.drawFlagOutlines(g, v, flagged, map.width(), map.height(), new Color(layer.flagRgb()));
+        if (flagged != null && mode != FlagOverlay.Mode.OFF && z >= OUTLINE_ZOOM) {
+            Overlays.drawFlagOutlines(g, v, flagged, map.width(), map.height(),
+                    new Color(layer.flagRgb() | flagOverlay.alpha(1) << 24, true));
         }
         g.setRenderingHint(RenderingHints.KEY_ANTIALIASING, RenderingHints.VALUE_ANTIALIAS_ON);
         g.setRenderingHint(RenderingHints.KEY_STROKE_CONTROL, RenderingHints.VALUE_STROKE_PURE);

@@ -7,6 +7,7 @@ import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
 import trapmap.maps.raster.BlockMeanPyramid;
+import trapmap.viewer.model.FlagOverlay;
 
 /**
  * The map picture of a canvas: coloured 256² tiles of one pyramid level and, over them, the translucent tint of
@@ -31,6 +32,7 @@ final class TileLayer {
     private Colouring colouring;
     private long[] flagWords;
     private int flagRgb;
+    private FlagOverlay overlay = FlagOverlay.DEFAULT;
     private int mapWidth;
     private int mapHeight;
     private int tilesColoured;
@@ -51,10 +53,14 @@ final class TileLayer {
         tiles.clear();
     }
 
-    /** Flagged pixels as the words of a bit set (null: none) and the tint colour; the tint tiles are emptied. */
-    void setFlags(long[] words, int rgb) {
+    /**
+     * Pixels to tint as the words of a bit set (null: none; the flagged pixels, or their edge pixels for an outline),
+     * the tint colour and the overlay whose alpha they take; the tint tiles are emptied.
+     */
+    void setFlags(long[] words, int rgb, FlagOverlay overlay) {
         flagWords = words;
         flagRgb = rgb;
+        this.overlay = overlay;
         tints.clear();
     }
 
@@ -250,7 +256,8 @@ final class TileLayer {
         int mw = mapWidth;
         int mh = mapHeight;
         int rgb = flagRgb;
-        BufferedImage[] made = missing.parallelStream().map(t -> tintTile(words, mw, mh, lv, t[0], t[1], rgb))
+        FlagOverlay o = overlay;
+        BufferedImage[] made = missing.parallelStream().map(t -> tintTile(words, mw, mh, lv, t[0], t[1], rgb, o))
                 .toArray(BufferedImage[]::new);
         for (int i = 0; i < made.length; i++) {
             int[] t = missing.get(i);
@@ -260,9 +267,9 @@ final class TileLayer {
         return out;
     }
 
-    /** Tint of one tile: alpha grows with the flagged fraction of each level pixel; any flagged pixel shows. */
+    /** Tint of one tile: alpha from the overlay and the tinted share of each level pixel; any tinted pixel shows. */
     private static BufferedImage tintTile(long[] words, int mw, int mh, BlockMeanPyramid.Level lv, int tx, int ty,
-                                          int rgb) {
+                                          int rgb, FlagOverlay overlay) {
         int x0 = tx * TILE;
         int y0 = ty * TILE;
         int w = Math.min(TILE, lv.width() - x0);
@@ -273,7 +280,7 @@ final class TileLayer {
         }
         int[] px = new int[w * h];
         for (int i = 0; i < px.length; i++) {
-            px[i] = frac[i] == 0 ? 0 : ((int) (90 + 130 * frac[i]) << 24) | rgb;
+            px[i] = frac[i] == 0 ? 0 : (overlay.alpha(frac[i]) << 24) | rgb;
         }
         BufferedImage img = new BufferedImage(w, h, BufferedImage.TYPE_INT_ARGB);
         img.getRaster().setDataElements(0, 0, w, h, px);

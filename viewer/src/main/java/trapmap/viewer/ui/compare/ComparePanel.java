@@ -43,6 +43,7 @@ import trapmap.maps.process.IronMapping;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.viewer.report.WaferReport;
 import trapmap.viewer.ui.canvas.ColourBar;
+import trapmap.viewer.ui.panels.TableFit;
 import trapmap.viewer.ui.canvas.MapCanvas;
 import trapmap.viewer.ui.canvas.Viewport;
 import trapmap.viewer.graphics.AutoStyle;
@@ -68,9 +69,9 @@ public class ComparePanel extends JPanel {
     /** Colour scale of the before and after maps (one scale for both, so that colours compare). */
     private final ColourBar pairBar = new ColourBar();
     private final ColourBar derivedBar = new ColourBar();
-    private final JLabel beforeTitle = title("before");
-    private final JLabel afterTitle = title("after (registered)");
-    private final JLabel derivedTitle = title("");
+    private final JLabel beforeTitle = title("before", "");
+    private final JLabel afterTitle = title("after (registered)", "");
+    private final JLabel derivedTitle = title("", "");
     private final JComboBox<CompareModel.View> view = new JComboBox<>(CompareModel.View.values());
     private final JCheckBox register = new JCheckBox("Register", true);
     private final JCheckBox iron = new JCheckBox("Fe_i from FeB pair");
@@ -85,7 +86,21 @@ public class ComparePanel extends JPanel {
             return false;
         }
     };
+    private final JTable statisticsTable = new JTable(table) {
+        @Override
+        public String getToolTipText(java.awt.event.MouseEvent e) {
+            int r = rowAtPoint(e.getPoint());
+            int c = columnAtPoint(e.getPoint());
+            Object v = r < 0 || c < 0 ? null : getValueAt(r, c);
+            return v == null || v.toString().isEmpty() ? null : v.toString(); // the whole text of a cut cell
+        }
+    };
     private final JTextArea cautions = new JTextArea();
+    /** The statistics and cautions beside the maps; as wide as the widest row needs, within limits. */
+    private final JPanel side;
+    /** Width of the side panel, pixels: at least this, at most {@link #SIDE_MAX}. */
+    private static final int SIDE_MIN = 350;
+    private static final int SIDE_MAX = 560;
     private WaferMap before;
     private WaferMap after;
     private CompareModel.Options options = CompareModel.Options.defaults();
@@ -131,7 +146,7 @@ public class ComparePanel extends JPanel {
         maps.add(titled(derivedTitle, derivedCanvas, derivedBar));
         add(maps, BorderLayout.CENTER);
 
-        JTable t = new JTable(table);
+        JTable t = statisticsTable;
         t.setFillsViewportHeight(true);
         t.getColumnModel().getColumn(0).setPreferredWidth(190);
         t.getColumnModel().getColumn(1).setPreferredWidth(90);
@@ -142,7 +157,7 @@ public class ComparePanel extends JPanel {
         cautions.setRows(6);
         cautions.setBackground(new Color(0xFFF4E0));
         cautions.setBorder(BorderFactory.createEmptyBorder(4, 6, 4, 6));
-        JPanel side = new JPanel(new BorderLayout(0, 6));
+        side = new JPanel(new BorderLayout(0, 6));
         side.add(new JScrollPane(t), BorderLayout.CENTER);
         side.add(cautions, BorderLayout.SOUTH);
         side.setPreferredSize(new Dimension(350, 400));
@@ -165,10 +180,24 @@ public class ComparePanel extends JPanel {
         showCautions();
     }
 
-    private static JLabel title(String text) {
-        JLabel l = new JLabel(text);
+    private static JLabel title(String head, String detail) {
+        JLabel l = new JLabel();
         l.setBorder(BorderFactory.createEmptyBorder(2, 4, 2, 4));
+        setTitle(l, head, detail);
         return l;
+    }
+
+    /**
+     * A map's title on two lines (what it is; the wafer and quantity, or why there is no map), so that it fits the
+     * narrow column of each map; the tooltip holds it on one line.
+     */
+    private static void setTitle(JLabel l, String head, String detail) {
+        l.setText("<html>" + html(head) + "<br>" + (detail.isEmpty() ? "&nbsp;" : html(detail)) + "</html>");
+        l.setToolTipText(detail.isEmpty() ? head : head + ": " + detail);
+    }
+
+    private static String html(String t) {
+        return t.replace("&", "&amp;").replace("<", "&lt;").replace(">", "&gt;");
     }
 
     private JComponent titled(JLabel title, MapCanvas canvas, ColourBar bar) {
@@ -176,7 +205,6 @@ public class ComparePanel extends JPanel {
         p.add(title, BorderLayout.NORTH);
         p.add(new JLayer<>(canvas, crosshair), BorderLayout.CENTER);
         if (bar != null) {
-            bar.setPreferredSize(new Dimension(80, 300));
             p.add(bar, BorderLayout.EAST);
         }
         p.setPreferredSize(new Dimension(300, 320));
@@ -254,7 +282,7 @@ public class ComparePanel extends JPanel {
             beforeCanvas.setStyle(AutoStyle.of(beforeMap));
             pairBar.setStyle(beforeCanvas.style());
             pairBar.setLabel(Labels.unit(beforeMap.quantity()));
-            beforeTitle.setText("before: " + name(beforeMap));
+            setTitle(beforeTitle, "before", name(beforeMap));
             beforeCanvas.fit();
         }
         if (beforeMap != null && afterMap != null) {
@@ -378,16 +406,19 @@ public class ComparePanel extends JPanel {
         this.result = r;
         beforeCanvas.setMap(r.before());
         beforeCanvas.setStyle(AutoStyle.common(r.before(), r.after()));
-        beforeTitle.setText("before: " + name(r.before()));
+        setTitle(beforeTitle, "before", name(r.before()));
         afterCanvas.setMap(r.after());
         afterCanvas.setStyle(beforeCanvas.style()); // one scale for both, so colours compare
         pairBar.setStyle(beforeCanvas.style());
         pairBar.setLabel(Labels.unit(r.before().quantity()));
-        afterTitle.setText("after, registered: " + name(r.after()));
+        setTitle(afterTitle, "after, registered", name(r.after()));
         table.setRowCount(0);
         for (String[] row : r.statisticsRows()) {
             table.addRow(row);
         }
+        int need = TableFit.fitContent(statisticsTable) + 24; // scroll bar and border
+        side.setPreferredSize(new Dimension(Math.max(SIDE_MIN, Math.min(SIDE_MAX, need)), 400));
+        side.revalidate();
         showDerived();
         showCautions();
         beforeCanvas.fit();
@@ -409,13 +440,15 @@ public class ComparePanel extends JPanel {
         derivedBar.setStyle(m == null ? null : AutoStyle.of(m));
         if (m != null) {
             derivedCanvas.setStyle(derivedBar.style());
-            String u = Labels.unit(result.unit(v));
-            derivedBar.setLabel(u.isEmpty() ? "" : u);
-            derivedTitle.setText(v + (u.isEmpty() ? "" : " (" + u + ")"));
+            String u = m.quantity().isFraction() ? "%" : Labels.unit(result.unit(v));
+            derivedBar.setPercent(m.quantity().isFraction());
+            derivedBar.setLabel(u);
+            setTitle(derivedTitle, v.toString(), u.isEmpty() ? "" : "(" + u + ")");
         } else {
-            derivedTitle.setText(v == null ? "" : v + ": " + (result == null ? "not computed yet"
+            String why = v == null ? "" : result == null ? "not computed yet"
                     : v == CompareModel.View.IRON || v == CompareModel.View.IRON_STATUS
-                    ? "tick 'Fe_i from FeB pair' and compare" : "only for density maps"));
+                    ? "tick 'Fe_i from FeB pair' and compare" : "only for density maps";
+            setTitle(derivedTitle, v == null ? "" : v.toString(), why);
         }
     }
 

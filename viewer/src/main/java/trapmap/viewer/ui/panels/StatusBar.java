@@ -10,7 +10,10 @@ import javax.swing.JPanel;
 import javax.swing.JProgressBar;
 import javax.swing.UIManager;
 
-/** The bottom line: cursor readout, messages, last frame time, progress with a cancel button. */
+/**
+ * The bottom line: cursor readout, messages, last frame time, progress with a cancel button. The readout keeps its
+ * full width; a message too long for the rest is cut with "…" (its full text is the tooltip).
+ */
 public final class StatusBar extends JPanel {
     private static final long serialVersionUID = 1L;
     private final JLabel readout = new JLabel(" ");
@@ -28,9 +31,11 @@ public final class StatusBar extends JPanel {
                 + " N_t with its bounds over the published parameter spread (cm⁻³), occupancy f_t and pixel status");
         readout.setName("readout");
         message.setName("message");
-        add(readout, BorderLayout.CENTER);
+        add(readout, BorderLayout.WEST);
+        message.setHorizontalAlignment(JLabel.RIGHT);
+        message.setMinimumSize(new Dimension(0, 0));
+        add(message, BorderLayout.CENTER);
         JPanel right = new JPanel(new FlowLayout(FlowLayout.RIGHT, 8, 0));
-        right.add(message);
         frame.setToolTipText("Paint time of the last map frame, ms");
         right.add(frame);
         progress.setPreferredSize(new Dimension(120, 18));
@@ -48,11 +53,23 @@ public final class StatusBar extends JPanel {
 
     public void setReadout(String text) {
         readout.setText(text == null || text.isEmpty() ? " " : text);
+        revalidate();
     }
 
     public void setMessage(String text) {
         message.setText(text == null || text.isEmpty() ? " " : text);
         message.setToolTipText(text);
+        revalidate();
+    }
+
+    /** The readout label (tests: its width after layout). */
+    JLabel readoutLabel() {
+        return readout;
+    }
+
+    /** The message label (tests). */
+    JLabel messageLabel() {
+        return message;
     }
 
     /** The message shown (a blank when none). */

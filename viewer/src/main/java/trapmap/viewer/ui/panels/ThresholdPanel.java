@@ -97,6 +97,7 @@ public final class ThresholdPanel extends JPanel {
         });
         table.setToolTipText("Flagged regions: area mm², centroid in wafer mm (x right, y up), peak value; click a row"
                 + " to zoom there");
+        TableFit.fitHeaders(table);
         table.getSelectionModel().addListSelectionListener(e -> {
             if (!e.getValueIsAdjusting() && table.getSelectedRow() >= 0) {
                 zoomTo.accept(regions.rows.get(table.convertRowIndexToModel(table.getSelectedRow())));

@@ -69,4 +69,27 @@ class ColourBarTest {
         assertThat(bottomRgb).isGreaterThan(topRgb + 200);
         assertThat(bar.label()).isEqualTo("N_t (cm⁻³)");
     }
+
+    @Test
+    void preferredWidthHoldsTheWidestLabelAndItsMargins() {
+        ColourBar bar = new ColourBar(new DisplayStyle(ColourMap.DIVERGING, false, -5e11, 5e11), "cm⁻³");
+        java.awt.FontMetrics fm = bar.getFontMetrics(bar.getFont() != null ? bar.getFont()
+                : new java.awt.Font(java.awt.Font.SANS_SERIF, java.awt.Font.PLAIN, 12));
+        assertThat(bar.tickLabels()).contains("-4×10¹¹", "4×10¹¹");
+        int widest = bar.tickLabels().stream().mapToInt(fm::stringWidth).max().orElseThrow();
+        int need = ColourBar.PAD + ColourBar.BAR_WIDTH + ColourBar.LABEL_GAP + widest + ColourBar.PAD;
+        assertThat(bar.getPreferredSize().width).isGreaterThanOrEqualTo(need);
+        assertThat(bar.getMinimumSize().width).isEqualTo(bar.getPreferredSize().width);
+        // a longer label above the bar widens it too
+        bar.setLabel("interstitial iron [Fe_i] (cm⁻³)");
+        assertThat(bar.getPreferredSize().width).isGreaterThanOrEqualTo(
+                2 * ColourBar.PAD + fm.stringWidth("interstitial iron [Fe_i] (cm⁻³)"));
+    }
+
+    @Test
+    void fractionsReadAsPercentages() {
+        ColourBar bar = new ColourBar(new DisplayStyle(ColourMap.BLUE_YELLOW, false, 0, 1), "%");
+        bar.setPercent(true);
+        assertThat(bar.tickLabels()).containsExactly("0 %", "20 %", "40 %", "60 %", "80 %", "100 %");
+    }
 }

@@ -22,6 +22,7 @@ import trapmap.maps.raster.BlockMeanPyramid;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.viewer.graphics.DisplayStyle;
+import trapmap.viewer.model.FlagOverlay;
 
 /** Headless checks of the map canvas: view maths, painting into an off-screen image, flags and overlays. */
 class MapCanvasTest {
@@ -473,6 +474,7 @@ class MapCanvasTest {
         WaferMap m = ramp();
         MapCanvas c = canvas(m, 400, 400, LINEAR_0_63);
         BitSet flagged = MapCanvas.flag(m.raster(), null, 45.5, true); // 46..62: rows 5-7, (7,7) has no data
+        c.setFlagOverlay(new FlagOverlay(FlagOverlay.Mode.OUTLINE, 1));
         c.setFlagged(flagged);
         c.viewport().set(40, 4, 4);
         BufferedImage img = paint(c);
@@ -490,6 +492,29 @@ class MapCanvasTest {
         assertThat(tinted).isNotEqualTo(plain);
         assertThat(tinted >> 16 & 0xFF).as("red rises towards the tint").isGreaterThan(plain >> 16 & 0xFF);
         assertThat(at(img, c.screenX(3.5), c.screenY(1.5))).isEqualTo(new Colouring(LINEAR_0_63).rgb(11));
+    }
+
+    @Test
+    void zoomedOutAnOutlineTintsOnlyTheEdgeOfTheFlaggedPixelsAFillAllOfThemAndOffNone() {
+        WaferMap m = ramp();
+        MapCanvas c = canvas(m, 400, 400, LINEAR_0_63);
+        c.setFlagged(MapCanvas.flag(m.raster(), null, 45.5, true)); // 46..62: rows 5-7 from (6, 5) on
+        c.viewport().set(2, 4, 4);
+        Colouring plain = new Colouring(LINEAR_0_63);
+        assertThat(c.flagOverlay()).isEqualTo(FlagOverlay.DEFAULT);
+        BufferedImage img = paint(c);
+        // (6, 6) = 54 has flagged pixels on all four sides: inside the region, so the outline leaves it alone
+        assertThat(at(img, c.screenX(6.5), c.screenY(6.5))).isEqualTo(plain.rgb(54));
+        // (3, 6) = 51 lies below an unflagged pixel: on the edge, tinted
+        assertThat(at(img, c.screenX(3.5), c.screenY(6.5))).isNotEqualTo(plain.rgb(51));
+
+        c.setFlagOverlay(FlagOverlay.DEFAULT.withMode(FlagOverlay.Mode.FILL));
+        img = paint(c);
+        assertThat(at(img, c.screenX(6.5), c.screenY(6.5))).isNotEqualTo(plain.rgb(54));
+
+        c.setFlagOverlay(FlagOverlay.DEFAULT.withMode(FlagOverlay.Mode.OFF));
+        img = paint(c);
+        assertThat(at(img, c.screenX(3.5), c.screenY(6.5))).isEqualTo(plain.rgb(51));
     }
 
     @Test
