@@ -56,7 +56,7 @@ final class Criteria {
             } else {
                 List<String> w = new ArrayList<>();
                 for (Rules.Limit l : g.when()) {
-                    w.add(l.figure().name() + " " + limit(l));
+                    w.add(l.figure().what() + " " + limit(l));
                 }
                 parts.add(g.grade() + " when " + String.join(", ", w));
             }

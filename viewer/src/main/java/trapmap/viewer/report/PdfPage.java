@@ -125,6 +125,19 @@ final class PdfPage implements Closeable {
         this.bold = fonts[1];
     }
 
+    /** A page that draws nothing and measures as a real one: to lay out a part before drawing it. */
+    private PdfPage() {
+        this.doc = null;
+        this.cs = null;
+        this.regular = REGULAR;
+        this.bold = BOLD;
+    }
+
+    /** A page that only measures: every drawing call returns the height a real page's would, drawing nothing. */
+    static PdfPage measuringOnly() {
+        return new PdfPage();
+    }
+
     /**
      * Text the embedded face can show: line breaks and tabs become spaces, a character the face has no glyph for
      * becomes '?' (the bundled face covers Latin, Greek, super- and subscripts and the mathematical signs trapmap
@@ -169,6 +182,9 @@ final class PdfPage implements Closeable {
 
     /** One line of text whose top is at {@code yTop}. */
     void text(String s, float x, float yTop, PDFont font, float size, Color colour) throws IOException {
+        if (cs == null) {
+            return;
+        }
         cs.beginText();
         cs.setFont(font == BOLD ? bold : regular, size);
         cs.setNonStrokingColor(colour);
@@ -358,11 +374,17 @@ final class PdfPage implements Closeable {
 
     /** A picture scaled into the box (its own pixels are kept: draw it at 2× for print). */
     void image(BufferedImage img, float x, float yTop, float w, float h) throws IOException {
+        if (cs == null) {
+            return;
+        }
         PDImageXObject xo = LosslessFactory.createFromImage(doc, img);
         cs.drawImage(xo, x, HEIGHT - yTop - h, w, h);
     }
 
     void rect(float x, float yTop, float w, float h, Color stroke, Color fill, float lineWidth) throws IOException {
+        if (cs == null) {
+            return;
+        }
         cs.addRect(x, HEIGHT - yTop - h, w, h);
         if (fill != null) {
             cs.setNonStrokingColor(fill);
@@ -381,6 +403,9 @@ final class PdfPage implements Closeable {
     }
 
     void line(float x0, float y0Top, float x1, float y1Top, Color colour, float lineWidth) throws IOException {
+        if (cs == null) {
+            return;
+        }
         cs.setStrokingColor(colour);
         cs.setLineWidth(lineWidth);
         cs.moveTo(x0, HEIGHT - y0Top);
@@ -450,6 +475,8 @@ final class PdfPage implements Closeable {
 
     @Override
     public void close() throws IOException {
-        cs.close();
+        if (cs != null) {
+            cs.close();
+        }
     }
 }

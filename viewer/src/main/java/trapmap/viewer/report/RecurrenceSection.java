@@ -9,6 +9,7 @@ import trapmap.maps.batch.Recurrence;
 import trapmap.maps.batch.RecurrencePicture;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.PitchPrecision;
 import trapmap.maps.region.Region;
 import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.graphics.Labels;
@@ -80,9 +81,11 @@ final class RecurrenceSection {
         flow.paragraph(sum, PdfPage.REGULAR, 8.5f);
         if (n > 0) {
             List<String[]> rows = new ArrayList<>();
+            double pitch = percent.grid().pitchMm();
             for (Region reg : hot.regions().byArea().subList(0, Math.min(LISTED, n))) {
-                rows.add(new String[] {"#" + reg.id(), Labels.number(reg.areaMm2()), Labels.number(reg.centroidXMm()),
-                    Labels.number(reg.centroidYMm()), Labels.percent(reg.peakValue()),
+                rows.add(new String[] {"#" + reg.id(), PitchPrecision.areaMm2(reg.areaMm2(), pitch),
+                    PitchPrecision.mm(reg.centroidXMm(), pitch), PitchPrecision.mm(reg.centroidYMm(), pitch),
+                    Labels.percent(reg.peakValue()),
                     Labels.percent(reg.meanValue())});
             }
             float cw = ReportFlow.FULL / 6;

@@ -6,6 +6,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import trapmap.maps.batch.RulesException;
+import trapmap.maps.raster.PitchPrecision;
 import trapmap.physics.defect.Defect;
 import trapmap.shared.error.InvalidValueException;
 import trapmap.viewer.graphics.DisplayStyle;
@@ -106,11 +107,13 @@ public final class WaferPages {
      */
     public static WaferReport.Content of(Path file, WaferAnalysis r, DisplayStyle style, Defect defect) {
         List<String> notes = new ArrayList<>();
-        notes.add(String.format(Locale.ROOT, "flagged regions cover %s of the evaluated area (%d regions)",
-                Units.percent(r.flaggedFraction()), r.regions().size()));
-        notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f µs, median %.1f µs over %.0f mm^2 (edge"
-                + " exclusion %s mm)", r.lifetimeStats().harmonicMean(), r.lifetimeStats().median(),
-                r.lifetimeStats().areaMm2(), Units.number(r.edgeExclusionMm())));
+        notes.add(String.format(Locale.ROOT, "flagged regions cover %s of the evaluated area (%d region%s)",
+                Units.percent(r.flaggedFraction()), r.regions().size(), r.regions().size() == 1 ? "" : "s"));
+        notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f µs, median %.1f µs over the evaluated area,"
+                + " %s mm² (%d pixels × %s mm²; edge exclusion %s mm)", r.lifetimeStats().harmonicMean(),
+                r.lifetimeStats().median(), PitchPrecision.areaOfPixels(r.lifetimeStats().areaMm2(),
+                r.lifetimeStats().count()), r.lifetimeStats().count(),
+                Units.number(r.displayed().grid().pixelAreaMm2()), Units.number(r.edgeExclusionMm())));
         if (r.conversion() != null) {
             notes.add("physics settings: " + r.conversion().physics().oneLine());
         }

@@ -55,7 +55,7 @@ final class WaferTable {
             region = Labels.number(r.worstAreaMm2()) + " mm² at " + position(r) + ", peak "
                     + Labels.number(r.worstPeak(), unit);
         }
-        return new String[] {name(c, r), r.profile(), r.status(), r.grade(), String.join(", ", r.failed()),
+        return new String[] {name(c, r), r.profile(), r.status(), r.grade(), String.join(", ", r.failed().stream().map(trapmap.maps.batch.Figure::readable).toList()),
             Labels.number(r.figure("harmonic_mean_lifetime_us")),
             Double.isNaN(nt) ? "" : Labels.number(nt) + (r.defect().isEmpty() ? "" : " " + r.defect()),
             Labels.percent(r.figure("flagged_area_fraction")), region};
