@@ -33,7 +33,7 @@ final class DistributionChart {
     /** The unit of a results column, from the figure's definition ("" when unknown or dimensionless). */
     static String unitOf(String figure) {
         try {
-            return Labels.unit(Figure.parse(figure).unit());
+            return Typeset.unit(Figure.parse(figure).unit());
         } catch (IllegalArgumentException e) {
             return "";
         }

@@ -84,7 +84,7 @@ final class FailedWafersSection {
         Rules.Profile prof = c.profile(r.profile());
         String flagUnit = prof == null ? "" : prof.flag().quantity().unit();
         if (Double.isFinite(r.worstAreaMm2())) {
-            p.paragraph("largest region " + Labels.number(r.worstAreaMm2()) + " mm² at "
+            p.paragraph("largest region " + Labels.number(r.worstAreaMm2()) + " " + Typeset.MM2 + " at "
                     + WaferTable.position(r) + " mm, peak " + Labels.number(r.worstPeak(), flagUnit), tx, ty, tw,
                     PdfPage.REGULAR, 7.5f);
         } else {

@@ -69,7 +69,7 @@ final class RecurrenceSection {
         flow.heading("Hot spots", 30);
         int n = hot.regions().size();
         String sum = n == 0 ? "No hot spot." : n + " hot spot" + (n == 1 ? "" : "s") + ", "
-                + Labels.number(hot.regions().totalAreaMm2()) + " mm² in all.";
+                + Labels.number(hot.regions().totalAreaMm2()) + " " + Typeset.MM2 + " in all.";
         if (hot.thinCells() > 0) {
             sum += " " + hot.thinCells() + " cell" + (hot.thinCells() == 1 ? " was" : "s were") + " flagged on more"
                     + " than " + Labels.percent(criteria.share()) + " of fewer than " + hot.wafersNeeded() + " wafers"
@@ -90,7 +90,8 @@ final class RecurrenceSection {
             }
             float cw = ReportFlow.FULL / 6;
             flow.table(new float[] {cw, cw, cw, cw, cw, cw}, new boolean[] {false, true, true, true, true, true},
-                    new String[] {"hot spot", "area (mm²)", "centre x (mm)", "centre y (mm)", "highest share",
+                    new String[] {"hot spot", Typeset.headed("area", Typeset.MM2), "centre x (mm)", "centre y (mm)",
+                        "highest share",
                         "mean share"}, rows, 8);
         }
     }

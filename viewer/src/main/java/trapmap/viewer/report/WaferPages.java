@@ -109,11 +109,11 @@ public final class WaferPages {
         List<String> notes = new ArrayList<>();
         notes.add(String.format(Locale.ROOT, "flagged regions cover %s of the evaluated area (%d region%s)",
                 Units.percent(r.flaggedFraction()), r.regions().size(), r.regions().size() == 1 ? "" : "s"));
-        notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f µs, median %.1f µs over the evaluated area,"
-                + " %s mm² (%d pixels × %s mm²; edge exclusion %s mm)", r.lifetimeStats().harmonicMean(),
-                r.lifetimeStats().median(), PitchPrecision.areaOfPixels(r.lifetimeStats().areaMm2(),
-                r.lifetimeStats().count()), r.lifetimeStats().count(),
-                Units.number(r.displayed().grid().pixelAreaMm2()), Units.number(r.edgeExclusionMm())));
+        notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f %s, median %.1f %s over the evaluated area,"
+                + " %s %s (%d pixels × %s %s; edge exclusion %s mm)", r.lifetimeStats().harmonicMean(), Typeset.US,
+                r.lifetimeStats().median(), Typeset.US, PitchPrecision.areaOfPixels(r.lifetimeStats().areaMm2(),
+                r.lifetimeStats().count()), Typeset.MM2, r.lifetimeStats().count(),
+                Units.number(r.displayed().grid().pixelAreaMm2()), Typeset.MM2, Units.number(r.edgeExclusionMm())));
         if (r.conversion() != null) {
             notes.add("physics settings: " + r.conversion().physics().oneLine());
         }

@@ -307,15 +307,18 @@ public final class WaferReport {
         List<String[]> r = new ArrayList<>();
         Doping d = m.doping();
         r.add(new String[] {"doping", d == null ? "unknown" : (d.type().name().toLowerCase(Locale.ROOT)
-                + "-type " + Labels.number(d.densityPerCm3()) + " cm⁻³ (" + Labels.number(d.resistivityOhmCm())
-                + " Ω·cm)")});
+                + "-type " + Labels.number(d.densityPerCm3()) + " " + Typeset.PER_CM3 + " ("
+                + Labels.number(d.resistivityOhmCm())
+                + " " + Typeset.OHM_CM + ")")});
         r.add(new String[] {"thickness", m.thicknessUm() == null ? "unknown" : Labels.number(m.thicknessUm()) + " µm"});
         r.add(new String[] {"temperature", m.temperatureK() == null ? "300 K (default)"
                 : Labels.number(m.temperatureK()) + " K"});
         if (m.injectionPerCm3() != null) {
-            r.add(new String[] {"injection Δn", Labels.number(m.injectionPerCm3()) + " cm⁻³ (fixed)"});
+            r.add(new String[] {"injection " + Typeset.DELTA_N, Labels.number(m.injectionPerCm3()) + " "
+                + Typeset.PER_CM3 + " (fixed)"});
         } else if (m.generationPerCm3PerS() != null) {
-            r.add(new String[] {"generation G", Labels.number(m.generationPerCm3PerS()) + " cm⁻³ s⁻¹ (Δn = G·τ)"});
+            r.add(new String[] {"generation G", Labels.number(m.generationPerCm3PerS()) + " " + Typeset.PER_CM3_S
+                + " (" + Typeset.DELTA_N + " = G·" + Typeset.TAU + ")"});
         } else {
             r.add(new String[] {"injection", "unknown"});
         }
@@ -338,9 +341,9 @@ public final class WaferReport {
         }
         r.add(new String[] {"defect", d.id() + " - " + d.name()});
         r.add(new String[] {"level", d.level().toString()});
-        r.add(new String[] {"σₙ", Labels.number(d.electronCrossSectionCm2()) + " cm²"});
-        r.add(new String[] {"σₚ", Labels.number(d.holeCrossSectionCm2()) + " cm²"});
-        r.add(new String[] {"σₙ/σₚ", Labels.number(d.captureRatio())});
+        r.add(new String[] {Typeset.SIGMA_N, Labels.number(d.electronCrossSectionCm2()) + " " + Typeset.CM2});
+        r.add(new String[] {Typeset.SIGMA_P, Labels.number(d.holeCrossSectionCm2()) + " " + Typeset.CM2});
+        r.add(new String[] {Typeset.SIGMA_N + "/" + Typeset.SIGMA_P, Labels.number(d.captureRatio())});
         r.add(new String[] {"v_th convention", d.velocityConvention().name().toLowerCase(Locale.ROOT)});
         return r;
     }
@@ -354,16 +357,17 @@ public final class WaferReport {
         String unit = c.regionUnit() != null ? c.regionUnit() : c.map().quantity().unit();
         String summary = t.size() + " region" + (t.size() == 1 ? "" : "s") + " with values "
                 + (k.side() == RegionCriteria.Side.ABOVE ? "above " : "below ") + Labels.number(k.threshold(), unit)
-                + (k.minAreaMm2() > 0 ? " of at least " + Labels.number(k.minAreaMm2()) + " mm²" : "")
-                + ", " + Labels.number(t.totalAreaMm2()) + " mm² in all" + (t.size() > 5 ? "; the five largest:" : ".");
+                + (k.minAreaMm2() > 0 ? " of at least " + Labels.number(k.minAreaMm2()) + " " + Typeset.MM2 : "")
+                + ", " + Labels.number(t.totalAreaMm2()) + " " + Typeset.MM2 + " in all"
+                + (t.size() > 5 ? "; the five largest:" : ".");
         float h = p.paragraph(summary, x, y, width, PdfPage.REGULAR, 8);
         if (t.size() == 0) {
             return h;
         }
         List<String[]> rows = new ArrayList<>();
-        String u = Labels.unit(unit);
+        String u = Typeset.unit(unit);
         double pitch = c.map().grid().pitchMm();
-        rows.add(new String[] {"region", "area (mm²)", "centre x (mm)", "centre y (mm)", "peak" + (u.isEmpty() ? ""
+        rows.add(new String[] {"region", Typeset.headed("area", Typeset.MM2), "centre x (mm)", "centre y (mm)", "peak" + (u.isEmpty() ? ""
                 : " (" + u + ")"), "mean" + (u.isEmpty() ? "" : " (" + u + ")"), "to edge (mm)"});
         for (Region r : t.byArea().subList(0, Math.min(5, t.size()))) {
             rows.add(new String[] {"#" + r.id(), PitchPrecision.areaMm2(r.areaMm2(), pitch),
