@@ -47,7 +47,7 @@ final class Typeset {
             case "mm2", "mm^2", "mm²" -> MM2;
             case "cm2", "cm^2", "cm²" -> CM2;
             case "Ohm cm", "Ohm·cm", "ohm cm", "ohmcm", "Ohm.cm", "ohm.cm", "Ω cm", "Ω·cm" -> OHM_CM;
-            default -> Typeset.unit(stored);
+            default -> Labels.unit(stored);
         };
     }
 
