@@ -69,7 +69,8 @@ final class RecurrenceSection {
         flow.heading("Hot spots", 30);
         int n = hot.regions().size();
         String sum = n == 0 ? "No hot spot." : n + " hot spot" + (n == 1 ? "" : "s") + ", "
-                + Labels.number(hot.regions().totalAreaMm2()) + " " + Typeset.MM2 + " in all.";
+                + PitchPrecision.areaMm2(hot.regions().totalAreaMm2(), percent.grid().pitchMm()) + " " + Typeset.MM2
+                + " in all.";
         if (hot.thinCells() > 0) {
             sum += " " + hot.thinCells() + " cell" + (hot.thinCells() == 1 ? " was" : "s were") + " flagged on more"
                     + " than " + Labels.percent(criteria.share()) + " of fewer than " + hot.wafersNeeded() + " wafers"

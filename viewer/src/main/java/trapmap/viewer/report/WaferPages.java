@@ -5,6 +5,7 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import trapmap.maps.batch.Figure;
 import trapmap.maps.batch.RulesException;
 import trapmap.maps.raster.PitchPrecision;
 import trapmap.physics.defect.Defect;
@@ -133,6 +134,20 @@ public final class WaferPages {
                 + v.grade()) + " (profile " + v.profile() + (v.defectId() == null ? "" : ", defect " + v.defectId()
                 + (v.defectOverridden() ? " overridden" : "")) + ")"
                 : "Quick threshold check: " + v.outcome().toUpperCase(Locale.ROOT) + " (not a rules verdict)";
-        return new WaferReport.Judgement(v.pass(), headline, v.rows());
+        List<String[]> rows = new ArrayList<>();
+        for (String[] r : v.rows()) {
+            boolean figures = r.length == 2 && (r[0].equals("failed rules") || r[0].equals("graded down by"));
+            rows.add(figures ? new String[] {r[0], readable(r[1])} : r);
+        }
+        return new WaferReport.Judgement(v.pass(), headline, rows);
+    }
+
+    /** A list of failed rules ("a_b_mm2, c_d") with each figure by its readable name ("largest region, …"). */
+    static String readable(String rules) {
+        List<String> out = new ArrayList<>();
+        for (String rule : rules.split(", ")) {
+            out.add(Figure.readable(rule));
+        }
+        return String.join(", ", out);
     }
 }

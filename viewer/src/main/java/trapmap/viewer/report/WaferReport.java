@@ -358,7 +358,8 @@ public final class WaferReport {
         String summary = t.size() + " region" + (t.size() == 1 ? "" : "s") + " with values "
                 + (k.side() == RegionCriteria.Side.ABOVE ? "above " : "below ") + Labels.number(k.threshold(), unit)
                 + (k.minAreaMm2() > 0 ? " of at least " + Labels.number(k.minAreaMm2()) + " " + Typeset.MM2 : "")
-                + ", " + Labels.number(t.totalAreaMm2()) + " " + Typeset.MM2 + " in all"
+                + ", " + PitchPrecision.areaMm2(t.totalAreaMm2(), c.map().grid().pitchMm()) + " " + Typeset.MM2
+                + " in all"
                 + (t.size() > 5 ? "; the five largest:" : ".");
         float h = p.paragraph(summary, x, y, width, PdfPage.REGULAR, 8);
         if (t.size() == 0) {
