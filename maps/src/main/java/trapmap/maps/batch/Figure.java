@@ -114,6 +114,62 @@ public record Figure(String name, Kind kind, double percent) {
         };
     }
 
+    /**
+     * The figure as a reader names it, with its unit, for reports and charts: "harmonic-mean lifetime (µs)",
+     * "trap density P95 (cm⁻³)", "largest interior region (mm²)", "flagged area fraction". The results' columns
+     * keep {@link #name}.
+     */
+    public String label() {
+        String u = switch (kind) {
+            case HARMONIC_MEAN_LIFETIME, MEDIAN_LIFETIME, LIFETIME_PERCENTILE -> "µs";
+            case TRAP_DENSITY_PERCENTILE -> "cm⁻³";
+            case LARGEST_REGION, LARGEST_INTERIOR_REGION -> "mm²";
+            default -> "";
+        };
+        return u.isEmpty() ? what() : what() + " (" + u + ")";
+    }
+
+    /** {@link #label} without the unit: "largest interior region", for text that gives the unit with the value. */
+    public String what() {
+        String pct = Double.isNaN(percent) ? "" : "P" + new java.math.BigDecimal(Double.toString(percent))
+                .stripTrailingZeros().toPlainString();
+        return switch (kind) {
+            case HARMONIC_MEAN_LIFETIME -> "harmonic-mean lifetime";
+            case MEDIAN_LIFETIME -> "median lifetime";
+            case LIFETIME_PERCENTILE -> "lifetime " + pct;
+            case TRAP_DENSITY_PERCENTILE -> "trap density " + pct;
+            case FLAGGED_AREA_FRACTION -> "flagged area fraction";
+            case LARGEST_REGION -> "largest region";
+            case LARGEST_INTERIOR_REGION -> "largest interior region";
+            case EDGE_TO_CENTRE_RATIO -> "edge-to-centre lifetime ratio";
+            case BELOW_LIMIT_AREA_FRACTION -> "below-limit area fraction";
+            case INVALID_AREA_FRACTION -> "invalid area fraction";
+        };
+    }
+
+    /** {@link #label} of a figure's name; the name itself when it names no figure. */
+    public static String labelOf(String name) {
+        try {
+            return parse(name).label();
+        } catch (IllegalArgumentException e) {
+            return name;
+        }
+    }
+
+    /**
+     * A failed rule as stored in the results ("largest_interior_region_mm2", or the name followed by a reason) with
+     * the figure's name read as {@link #what}: "largest interior region".
+     */
+    public static String readable(String failedRule) {
+        int space = failedRule.indexOf(' ');
+        String head = space < 0 ? failedRule : failedRule.substring(0, space);
+        try {
+            return parse(head).what() + (space < 0 ? "" : failedRule.substring(space));
+        } catch (IllegalArgumentException e) {
+            return failedRule;
+        }
+    }
+
     @Override
     public String toString() {
         return name.toLowerCase(Locale.ROOT);

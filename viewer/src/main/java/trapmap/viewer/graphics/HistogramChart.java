@@ -15,6 +15,7 @@ import org.jfree.chart.ui.TextAnchor;
 import org.jfree.data.xy.XYIntervalSeries;
 import org.jfree.data.xy.XYIntervalSeriesCollection;
 import trapmap.maps.model.Quantity;
+import trapmap.maps.raster.PitchPrecision;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.stats.Histogram;
@@ -68,7 +69,7 @@ public final class HistogramChart {
             String u = Labels.unit(quantity);
             List<Row> r = new ArrayList<>();
             r.add(new Row("pixels counted", Integer.toString(s.count()), "px"));
-            r.add(new Row("area", Labels.number(s.areaMm2()), "mm²"));
+            r.add(new Row("area", PitchPrecision.areaOfPixels(s.areaMm2(), s.count()), "mm²"));
             r.add(new Row("mean", Labels.number(s.mean()), u));
             r.add(new Row("harmonic mean", Labels.number(s.harmonicMean()), u));
             if (quantity.logarithmic()) {
@@ -201,7 +202,8 @@ public final class HistogramChart {
         JFreeChart chart = new JFreeChart(d == null ? "Histogram" : "Histogram of " + Labels.name(q),
                 ChartStyle.TITLE, plot, false);
         if (d != null && d.histogram() != null) {
-            chart.addSubtitle(new TextTitle(d.statistics().count() + " px, " + Labels.number(d.statistics().areaMm2())
+            chart.addSubtitle(new TextTitle(d.statistics().count() + " px, "
+                    + PitchPrecision.areaOfPixels(d.statistics().areaMm2(), d.statistics().count())
                     + " mm², " + d.histogram().binCount() + (log ? " logarithmic" : " linear") + " bins",
                     ChartStyle.SUBTITLE));
             Histogram h = d.histogram();

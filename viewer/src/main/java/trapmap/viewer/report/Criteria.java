@@ -35,7 +35,8 @@ final class Criteria {
         boolean density = f.quantity() == Rules.FlagQuantity.TRAP_DENSITY;
         return (density ? "trap density above " : "lifetime below ") + Labels.number(f.threshold(),
                 f.quantity().unit()) + (density && p.defectId() != null ? " (" + p.defectId() + ")" : "")
-                + (f.minAreaMm2() > 0 ? ", regions of at least " + Labels.number(f.minAreaMm2()) + " mm²" : "");
+                + (f.minAreaMm2() > 0 ? ", regions of at least " + Labels.number(f.minAreaMm2()) + " " + Typeset.MM2
+                : "");
     }
 
     /** One limit with its unit: "≤ 4e11 cm⁻³", "≥ 50 µs", "0.1 to 2". */
@@ -56,7 +57,7 @@ final class Criteria {
             } else {
                 List<String> w = new ArrayList<>();
                 for (Rules.Limit l : g.when()) {
-                    w.add(l.figure().name() + " " + limit(l));
+                    w.add(l.figure().what() + " " + limit(l));
                 }
                 parts.add(g.grade() + " when " + String.join(", ", w));
             }

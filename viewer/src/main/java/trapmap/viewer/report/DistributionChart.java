@@ -33,7 +33,7 @@ final class DistributionChart {
     /** The unit of a results column, from the figure's definition ("" when unknown or dimensionless). */
     static String unitOf(String figure) {
         try {
-            return Labels.unit(Figure.parse(figure).unit());
+            return Typeset.unit(Figure.parse(figure).unit());
         } catch (IllegalArgumentException e) {
             return "";
         }
@@ -43,6 +43,15 @@ final class DistributionChart {
         return figure.startsWith("trap_density_");
     }
 
+    /** The figure's readable name without unit ("largest interior region"); the name itself when unknown. */
+    static String what(String figure) {
+        try {
+            return Figure.parse(figure).what();
+        } catch (IllegalArgumentException e) {
+            return figure;
+        }
+    }
+
     /** "figure (unit)", with the defect for a trap-density figure: the axis label. */
     static String label(String figure, String defect) {
         String unit = unitOf(figure);
@@ -50,7 +59,7 @@ final class DistributionChart {
         if (isTrapDensity(figure) && defect != null && !defect.isEmpty()) {
             u = u.isEmpty() ? defect : u + ", " + defect;
         }
-        return figure + (u.isEmpty() ? "" : " (" + u + ")");
+        return what(figure) + (u.isEmpty() ? "" : " (" + u + ")");
     }
 
     /** The limits of {@code figure} in {@code profile} (min and max where given), empty when none or no profile. */

@@ -14,6 +14,7 @@ import java.util.List;
 import java.util.Locale;
 import javax.imageio.ImageIO;
 import trapmap.maps.batch.BatchInspection;
+import trapmap.maps.batch.Figure;
 import trapmap.maps.batch.Rules;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.model.WaferMap;
@@ -77,12 +78,13 @@ final class FailedWafersSection {
         ty += p.paragraph("profile " + r.profile() + (r.defect().isEmpty() ? "" : ", defect " + r.defect()), tx, ty,
                 tw, PdfPage.REGULAR, 7.5f);
         if (!r.failed().isEmpty()) {
-            ty += p.paragraph("failed: " + String.join(", ", r.failed()), tx, ty, tw, PdfPage.REGULAR, 7.5f);
+            ty += p.paragraph("failed: " + String.join(", ", r.failed().stream().map(Figure::readable).toList()), tx,
+                    ty, tw, PdfPage.REGULAR, 7.5f);
         }
         Rules.Profile prof = c.profile(r.profile());
         String flagUnit = prof == null ? "" : prof.flag().quantity().unit();
         if (Double.isFinite(r.worstAreaMm2())) {
-            p.paragraph("largest region " + Labels.number(r.worstAreaMm2()) + " mm² at "
+            p.paragraph("largest region " + Labels.number(r.worstAreaMm2()) + " " + Typeset.MM2 + " at "
                     + WaferTable.position(r) + " mm, peak " + Labels.number(r.worstPeak(), flagUnit), tx, ty, tw,
                     PdfPage.REGULAR, 7.5f);
         } else {
@@ -93,16 +95,40 @@ final class FailedWafersSection {
             String u = DistributionChart.unitOf(f);
             String v = Labels.number(r.figure(f)) + (u.isEmpty() ? "" : " " + u)
                     + (DistributionChart.isTrapDensity(f) && !r.defect().isEmpty() ? " " + r.defect() : "");
-            figs.add(new String[] {f, v});
+            figs.add(new String[] {DistributionChart.what(f), v});
         }
-        int listed = 7;
-        int all = figs.size();
-        if (all > listed) {
-            figs = new ArrayList<>(figs.subList(0, listed - 1));
-            figs.add(new String[] {"showing " + (listed - 1) + " of " + all + " figures", ""});
+        figures(p, figs, x + 6, top + PICTURE + 12, cw - 12, top + CELL_H - 12);
+    }
+
+    /**
+     * The card's figures: names wrapped onto at most two lines inside the card, values right-aligned; when the
+     * card's bottom ({@code bottom}) comes first, the last line says how many figures are shown.
+     */
+    static void figures(PdfPage p, List<String[]> figs, float x, float y, float width, float bottom)
+            throws IOException {
+        float size = 7;
+        float leading = size * 1.35f;
+        float nameW = width * 0.58f - 4;
+        float valueRight = x + width - 2;
+        int shown = 0;
+        for (String[] f : figs) {
+            List<String> name = PdfPage.wrap(f[0], PdfPage.REGULAR, size, nameW, 2);
+            boolean last = shown == figs.size() - 1;
+            if (y + (name.size() + (last ? 0 : 1)) * leading > bottom) {
+                break;
+            }
+            for (int i = 0; i < name.size(); i++) {
+                p.text(name.get(i), x, y + i * leading, PdfPage.REGULAR, size);
+            }
+            p.textRight(PdfPage.fit(f[1], PdfPage.REGULAR, size, width - nameW - 8), valueRight, y,
+                    PdfPage.REGULAR, size);
+            y += name.size() * leading;
+            shown++;
         }
-        p.table(x + 6, top + PICTURE + 12, new float[] {(cw - 12) * 0.58f, (cw - 12) * 0.42f},
-                new boolean[] {false, true}, figs, 7, false);
+        if (shown < figs.size()) {
+            p.text("showing " + shown + " of " + figs.size() + " figures", x, y, PdfPage.REGULAR, size,
+                    PdfPage.MUTED);
+        }
     }
 
     /** The wafer's thumbnail, or its map drawn with the largest flagged region circled; null when neither exists. */

@@ -4,53 +4,64 @@ import java.awt.Color;
 import java.awt.image.BufferedImage;
 import java.io.Closeable;
 import java.io.IOException;
+import java.io.InputStream;
+import java.io.UncheckedIOException;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
+import java.util.WeakHashMap;
+import java.util.concurrent.ConcurrentHashMap;
+import org.apache.fontbox.ttf.TTFParser;
+import org.apache.fontbox.ttf.TrueTypeFont;
+import org.apache.pdfbox.io.RandomAccessReadBuffer;
 import org.apache.pdfbox.pdmodel.PDDocument;
 import org.apache.pdfbox.pdmodel.PDPage;
 import org.apache.pdfbox.pdmodel.PDPageContentStream;
 import org.apache.pdfbox.pdmodel.common.PDRectangle;
 import org.apache.pdfbox.pdmodel.font.PDFont;
-import org.apache.pdfbox.pdmodel.font.PDType1Font;
-import org.apache.pdfbox.pdmodel.font.Standard14Fonts;
+import org.apache.pdfbox.pdmodel.font.PDType0Font;
 import org.apache.pdfbox.pdmodel.graphics.image.LosslessFactory;
 import org.apache.pdfbox.pdmodel.graphics.image.PDImageXObject;
 
 /**
  * One A4 page being drawn, with coordinates in points from the top-left corner (PDF's own origin is bottom-left).
- * Text uses the standard Helvetica fonts, so the file needs no embedded font; characters those fonts cannot encode
- * are spelt out ({@link #clean}: Δ → "d", τ → "tau", ⁻³ → "-3", …).
+ * Text is set in DejaVu Sans Condensed (regular and bold, bundled under {@code trapmap/viewer/report/fonts} with its
+ * licence), embedded as a subset in every document, so that units and symbols print as written: cm⁻³, Ω·cm, Δn, σₙ,
+ * τ, mm², µs. {@link #REGULAR} and {@link #BOLD} measure text; each document draws with its own loaded copy of the
+ * same face ({@link #fontsOf}).
  */
 final class PdfPage implements Closeable {
     /**
-     * PDFBox reports through java.util.logging that it draws the standard fonts with a system font and builds a font
-     * cache; neither matters for writing, and the command line's stderr is for progress. Held here so the setting
-     * stays (loggers are weakly referenced).
+     * PDFBox reports through java.util.logging that it builds a font cache; that does not matter for writing, and
+     * the command line's stderr is for progress. Held here so the setting stays (loggers are weakly referenced).
      */
     private static final java.util.logging.Logger PDFBOX_LOG = quiet();
 
     static final float WIDTH = PDRectangle.A4.getWidth();
     static final float HEIGHT = PDRectangle.A4.getHeight();
     static final float MARGIN = 36;
-    static final PDFont REGULAR = new PDType1Font(Standard14Fonts.FontName.HELVETICA);
-    static final PDFont BOLD = new PDType1Font(Standard14Fonts.FontName.HELVETICA_BOLD);
+    private static final String REGULAR_FILE = "fonts/DejaVuSansCondensed.ttf";
+    private static final String BOLD_FILE = "fonts/DejaVuSansCondensed-Bold.ttf";
+    private static final byte[] REGULAR_TTF = resource(REGULAR_FILE);
+    private static final byte[] BOLD_TTF = resource(BOLD_FILE);
+    /** Measures regular text (not drawn with: each document embeds its own copy, see {@link #fontsOf}). */
+    static final PDFont REGULAR = measuring(REGULAR_TTF, REGULAR_FILE);
+    /** Measures bold text. */
+    static final PDFont BOLD = measuring(BOLD_TTF, BOLD_FILE);
     static final Color INK = new Color(0x222222);
     static final Color MUTED = new Color(0x666666);
     static final Color RULE = new Color(0xBBBBBB);
     static final Color LIGHT_RULE = new Color(0xE2E2E2);
 
-    private static final Map<Character, String> SPELLED = Map.ofEntries(
-            Map.entry('Δ', "d"), Map.entry('τ', "tau"), Map.entry('σ', "sigma"), Map.entry('χ', "chi"),
-            Map.entry('⁻', "-"), Map.entry('⁰', "0"), Map.entry('⁴', "4"), Map.entry('⁵', "5"), Map.entry('⁶', "6"),
-            Map.entry('⁷', "7"), Map.entry('⁸', "8"), Map.entry('⁹', "9"), Map.entry('₀', "0"), Map.entry('₁', "1"),
-            Map.entry('₂', "2"), Map.entry('≤', "<="), Map.entry('≥', ">="), Map.entry('→', "->"),
-            Map.entry('−', "-"), Map.entry('∞', "inf"), Map.entry('Ω', "Ohm"), Map.entry('≈', "~"),
-            Map.entry('\u202F', " "), Map.entry('\u2009', " "), Map.entry('⟨', "<"), Map.entry('⟩', ">"),
-            Map.entry('√', "sqrt"), Map.entry('ₜ', "t"), Map.entry('ᵢ', "i"));
+    /** The regular and bold face loaded into each open document (subset-embedded when it is saved). */
+    private static final Map<PDDocument, PDFont[]> DOCUMENT_FONTS = new WeakHashMap<>();
+    /** Whether the face has a glyph for a code point, by code point. */
+    private static final Map<Integer, Boolean> HAS_GLYPH = new ConcurrentHashMap<>();
 
     private final PDDocument doc;
     private final PDPageContentStream cs;
+    private final PDFont regular;
+    private final PDFont bold;
 
     private static java.util.logging.Logger quiet() {
         java.util.logging.Logger l = java.util.logging.Logger.getLogger("org.apache.pdfbox");
@@ -58,47 +69,112 @@ final class PdfPage implements Closeable {
         return l;
     }
 
+    private static byte[] resource(String name) {
+        try (InputStream in = PdfPage.class.getResourceAsStream(name)) {
+            if (in == null) {
+                throw new IllegalStateException("font " + name + " missing from the application's resources");
+            }
+            return in.readAllBytes();
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot read font " + name, e);
+        }
+    }
+
+    /**
+     * The face parsed with glyph substitution off: the text is drawn character by character, so "fl" and "fi" stay
+     * two letters (no ligature glyphs) and the file's text reads back exactly as written.
+     */
+    private static TrueTypeFont face(byte[] ttf) throws IOException {
+        TrueTypeFont font = new TTFParser().parse(new RandomAccessReadBuffer(ttf));
+        font.setEnableGsub(false);
+        return font;
+    }
+
+    /** A copy of the face for measuring only: loaded into a document that is never saved, nothing embedded. */
+    private static PDFont measuring(byte[] ttf, String name) {
+        try {
+            return PDType0Font.load(new PDDocument(), face(ttf), false);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot load font " + name, e);
+        }
+    }
+
+    /**
+     * The regular and bold face of {@code doc}, loaded on first use with subset embedding (only the glyphs used go
+     * into the file).
+     */
+    static PDFont[] fontsOf(PDDocument doc) throws IOException {
+        synchronized (DOCUMENT_FONTS) {
+            PDFont[] f = DOCUMENT_FONTS.get(doc);
+            if (f == null) {
+                f = new PDFont[] {PDType0Font.load(doc, face(REGULAR_TTF), true),
+                    PDType0Font.load(doc, face(BOLD_TTF), true)};
+                DOCUMENT_FONTS.put(doc, f);
+            }
+            return f;
+        }
+    }
+
     PdfPage(PDDocument doc) throws IOException {
         this.doc = doc;
         PDPage page = new PDPage(PDRectangle.A4);
         doc.addPage(page);
         this.cs = new PDPageContentStream(doc, page);
+        PDFont[] fonts = fontsOf(doc);
+        this.regular = fonts[0];
+        this.bold = fonts[1];
     }
 
-    /** Text the standard fonts can show: unknown characters spelt out or replaced by '?'. */
+    /** A page that draws nothing and measures as a real one: to lay out a part before drawing it. */
+    private PdfPage() {
+        this.doc = null;
+        this.cs = null;
+        this.regular = REGULAR;
+        this.bold = BOLD;
+    }
+
+    /** A page that only measures: every drawing call returns the height a real page's would, drawing nothing. */
+    static PdfPage measuringOnly() {
+        return new PdfPage();
+    }
+
+    /**
+     * Text the embedded face can show: line breaks and tabs become spaces, a character the face has no glyph for
+     * becomes '?' (the bundled face covers Latin, Greek, super- and subscripts and the mathematical signs trapmap
+     * writes).
+     */
     static String clean(String s) {
         StringBuilder b = new StringBuilder(s.length());
-        for (int i = 0; i < s.length(); i++) {
-            char c = s.charAt(i);
-            String r = SPELLED.get(c);
-            if (r != null) {
-                b.append(r);
-            } else if (c == '\n' || c == '\t') {
+        s.codePoints().forEach(c -> {
+            if (c == '\n' || c == '\t') {
                 b.append(' ');
-            } else if (encodable(c)) {
-                b.append(c);
+            } else if (c >= 32 && HAS_GLYPH.computeIfAbsent(c, PdfPage::hasGlyph)) {
+                b.appendCodePoint(c);
             } else {
                 b.append('?');
             }
-        }
+        });
         return b.toString();
     }
 
-    private static boolean encodable(char c) {
-        if (c < 128) {
-            return c >= 32;
-        }
-        try {
-            REGULAR.encode(String.valueOf(c));
-            return true;
-        } catch (IOException | IllegalArgumentException e) {
-            return false;
+    private static boolean hasGlyph(int codePoint) {
+        synchronized (REGULAR) {
+            String c = new String(Character.toChars(codePoint));
+            try {
+                REGULAR.encode(c);
+                BOLD.encode(c);
+                return true;
+            } catch (IOException | IllegalArgumentException e) {
+                return false;
+            }
         }
     }
 
     static float width(String s, PDFont font, float size) {
         try {
-            return font.getStringWidth(clean(s)) / 1000 * size;
+            synchronized (font) {
+                return font.getStringWidth(clean(s)) / 1000 * size;
+            }
         } catch (IOException e) {
             throw new IllegalStateException("cannot measure text '" + s + "'", e);
         }
@@ -106,8 +182,11 @@ final class PdfPage implements Closeable {
 
     /** One line of text whose top is at {@code yTop}. */
     void text(String s, float x, float yTop, PDFont font, float size, Color colour) throws IOException {
+        if (cs == null) {
+            return;
+        }
         cs.beginText();
-        cs.setFont(font, size);
+        cs.setFont(font == BOLD ? bold : regular, size);
         cs.setNonStrokingColor(colour);
         cs.newLineAtOffset(x, HEIGHT - yTop - size * 0.82f);
         cs.showText(clean(s));
@@ -295,11 +374,17 @@ final class PdfPage implements Closeable {
 
     /** A picture scaled into the box (its own pixels are kept: draw it at 2× for print). */
     void image(BufferedImage img, float x, float yTop, float w, float h) throws IOException {
+        if (cs == null) {
+            return;
+        }
         PDImageXObject xo = LosslessFactory.createFromImage(doc, img);
         cs.drawImage(xo, x, HEIGHT - yTop - h, w, h);
     }
 
     void rect(float x, float yTop, float w, float h, Color stroke, Color fill, float lineWidth) throws IOException {
+        if (cs == null) {
+            return;
+        }
         cs.addRect(x, HEIGHT - yTop - h, w, h);
         if (fill != null) {
             cs.setNonStrokingColor(fill);
@@ -318,6 +403,9 @@ final class PdfPage implements Closeable {
     }
 
     void line(float x0, float y0Top, float x1, float y1Top, Color colour, float lineWidth) throws IOException {
+        if (cs == null) {
+            return;
+        }
         cs.setStrokingColor(colour);
         cs.setLineWidth(lineWidth);
         cs.moveTo(x0, HEIGHT - y0Top);
@@ -349,25 +437,35 @@ final class PdfPage implements Closeable {
         return h;
     }
 
-    /** Adds to every page of {@code doc} a footer: {@code left} at the left, "page i of n" at the right. */
+    /** The widest a footer's left text runs before it wraps, in points (the page number keeps the rest). */
+    static final float FOOTER_TEXT_WIDTH = WIDTH - 2 * MARGIN - 64;
+    static final float FOOTER_SIZE = 7.5f;
+
+    /**
+     * Adds to every page of {@code doc} a footer: {@code left} at the left, wrapped (never cut: it carries the
+     * caution) onto as many lines as it needs above the bottom edge, and "page i of n" at the right.
+     */
     static void footers(PDDocument doc, String left) throws IOException {
         int n = doc.getNumberOfPages();
+        float size = FOOTER_SIZE;
+        float leading = size * 1.25f;
+        float base = MARGIN - 18;
+        List<String> lines = wrap(left, REGULAR, size, FOOTER_TEXT_WIDTH);
+        PDFont face = fontsOf(doc)[0];
         for (int i = 0; i < n; i++) {
             try (PDPageContentStream c = new PDPageContentStream(doc, doc.getPage(i),
                     PDPageContentStream.AppendMode.APPEND, true, true)) {
-                float size = 7.5f;
-                float base = MARGIN - 18;
-                String l = fit(left, REGULAR, size, 420);
                 String p = "page " + (i + 1) + " of " + n;
-                c.beginText();
-                c.setFont(REGULAR, size);
                 c.setNonStrokingColor(MUTED);
-                c.newLineAtOffset(MARGIN, base);
-                c.showText(clean(l));
-                c.endText();
+                for (int k = 0; k < lines.size(); k++) {
+                    c.beginText();
+                    c.setFont(face, size);
+                    c.newLineAtOffset(MARGIN, base + (lines.size() - 1 - k) * leading);
+                    c.showText(clean(lines.get(k)));
+                    c.endText();
+                }
                 c.beginText();
-                c.setFont(REGULAR, size);
-                c.setNonStrokingColor(MUTED);
+                c.setFont(face, size);
                 c.newLineAtOffset(WIDTH - MARGIN - width(p, REGULAR, size), base);
                 c.showText(clean(p));
                 c.endText();
@@ -377,6 +475,8 @@ final class PdfPage implements Closeable {
 
     @Override
     public void close() throws IOException {
-        cs.close();
+        if (cs != null) {
+            cs.close();
+        }
     }
 }

@@ -54,7 +54,7 @@ final class ProfileSection {
                     PdfPage.REGULAR, 8.5f);
             List<String[]> limits = new ArrayList<>();
             for (Rules.Limit l : p.limits()) {
-                limits.add(new String[] {l.figure().name(), Criteria.limit(l)});
+                limits.add(new String[] {l.figure().what(), Criteria.limit(l)});
             }
             if (limits.isEmpty()) {
                 flow.paragraph("Limits: none (every readable wafer passes).", PdfPage.REGULAR, 8.5f);

@@ -9,6 +9,7 @@ import trapmap.maps.batch.Recurrence;
 import trapmap.maps.batch.RecurrencePicture;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.PitchPrecision;
 import trapmap.maps.region.Region;
 import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.graphics.Labels;
@@ -68,7 +69,8 @@ final class RecurrenceSection {
         flow.heading("Hot spots", 30);
         int n = hot.regions().size();
         String sum = n == 0 ? "No hot spot." : n + " hot spot" + (n == 1 ? "" : "s") + ", "
-                + Labels.number(hot.regions().totalAreaMm2()) + " mm² in all.";
+                + PitchPrecision.areaMm2(hot.regions().totalAreaMm2(), percent.grid().pitchMm()) + " " + Typeset.MM2
+                + " in all.";
         if (hot.thinCells() > 0) {
             sum += " " + hot.thinCells() + " cell" + (hot.thinCells() == 1 ? " was" : "s were") + " flagged on more"
                     + " than " + Labels.percent(criteria.share()) + " of fewer than " + hot.wafersNeeded() + " wafers"
@@ -80,14 +82,17 @@ final class RecurrenceSection {
         flow.paragraph(sum, PdfPage.REGULAR, 8.5f);
         if (n > 0) {
             List<String[]> rows = new ArrayList<>();
+            double pitch = percent.grid().pitchMm();
             for (Region reg : hot.regions().byArea().subList(0, Math.min(LISTED, n))) {
-                rows.add(new String[] {"#" + reg.id(), Labels.number(reg.areaMm2()), Labels.number(reg.centroidXMm()),
-                    Labels.number(reg.centroidYMm()), Labels.percent(reg.peakValue()),
+                rows.add(new String[] {"#" + reg.id(), PitchPrecision.areaMm2(reg.areaMm2(), pitch),
+                    PitchPrecision.mm(reg.centroidXMm(), pitch), PitchPrecision.mm(reg.centroidYMm(), pitch),
+                    Labels.percent(reg.peakValue()),
                     Labels.percent(reg.meanValue())});
             }
             float cw = ReportFlow.FULL / 6;
             flow.table(new float[] {cw, cw, cw, cw, cw, cw}, new boolean[] {false, true, true, true, true, true},
-                    new String[] {"hot spot", "area (mm²)", "centre x (mm)", "centre y (mm)", "highest share",
+                    new String[] {"hot spot", Typeset.headed("area", Typeset.MM2), "centre x (mm)", "centre y (mm)",
+                        "highest share",
                         "mean share"}, rows, 8);
         }
     }

@@ -88,8 +88,10 @@ final class SummarySection {
                 + " default profile; each profile has its own defect, flag, limits and grades (a section for each"
                 + " follows).", PdfPage.REGULAR, 8.5f);
         if (c.rules() != null) {
-            flow.paragraph("Physics settings of every conversion: " + c.rules().physics().oneLine() + ".",
-                    PdfPage.REGULAR, 8.5f);
+            flow.paragraph("Each map is converted at its own doping (" + Typeset.PER_CM3 + ", or from the resistivity"
+                    + " in " + Typeset.OHM_CM + "), thickness, temperature and injection level " + Typeset.DELTA_N
+                    + " as its sidecar gives them. Physics settings of every conversion: "
+                    + c.rules().physics().oneLine() + ".", PdfPage.REGULAR, 8.5f);
         }
         List<String[]> rows = new ArrayList<>();
         for (Map.Entry<String, List<BatchContent.Row>> e : groups.entrySet()) {

@@ -5,7 +5,9 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import trapmap.maps.batch.Figure;
 import trapmap.maps.batch.RulesException;
+import trapmap.maps.raster.PitchPrecision;
 import trapmap.physics.defect.Defect;
 import trapmap.shared.error.InvalidValueException;
 import trapmap.viewer.graphics.DisplayStyle;
@@ -106,11 +108,13 @@ public final class WaferPages {
      */
     public static WaferReport.Content of(Path file, WaferAnalysis r, DisplayStyle style, Defect defect) {
         List<String> notes = new ArrayList<>();
-        notes.add(String.format(Locale.ROOT, "flagged regions cover %s of the evaluated area (%d regions)",
-                Units.percent(r.flaggedFraction()), r.regions().size()));
-        notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f µs, median %.1f µs over %.0f mm^2 (edge"
-                + " exclusion %s mm)", r.lifetimeStats().harmonicMean(), r.lifetimeStats().median(),
-                r.lifetimeStats().areaMm2(), Units.number(r.edgeExclusionMm())));
+        notes.add(String.format(Locale.ROOT, "flagged regions cover %s of the evaluated area (%d region%s)",
+                Units.percent(r.flaggedFraction()), r.regions().size(), r.regions().size() == 1 ? "" : "s"));
+        notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f %s, median %.1f %s over the evaluated area,"
+                + " %s %s (%d pixels × %s %s; edge exclusion %s mm)", r.lifetimeStats().harmonicMean(), Typeset.US,
+                r.lifetimeStats().median(), Typeset.US, PitchPrecision.areaOfPixels(r.lifetimeStats().areaMm2(),
+                r.lifetimeStats().count()), Typeset.MM2, r.lifetimeStats().count(),
+                Units.number(r.displayed().grid().pixelAreaMm2()), Typeset.MM2, Units.number(r.edgeExclusionMm())));
         if (r.conversion() != null) {
             notes.add("physics settings: " + r.conversion().physics().oneLine());
         }
@@ -130,6 +134,20 @@ public final class WaferPages {
                 + v.grade()) + " (profile " + v.profile() + (v.defectId() == null ? "" : ", defect " + v.defectId()
                 + (v.defectOverridden() ? " overridden" : "")) + ")"
                 : "Quick threshold check: " + v.outcome().toUpperCase(Locale.ROOT) + " (not a rules verdict)";
-        return new WaferReport.Judgement(v.pass(), headline, v.rows());
+        List<String[]> rows = new ArrayList<>();
+        for (String[] r : v.rows()) {
+            boolean figures = r.length == 2 && (r[0].equals("failed rules") || r[0].equals("graded down by"));
+            rows.add(figures ? new String[] {r[0], readable(r[1])} : r);
+        }
+        return new WaferReport.Judgement(v.pass(), headline, rows);
+    }
+
+    /** A list of failed rules ("a_b_mm2, c_d") with each figure by its readable name ("largest region, …"). */
+    static String readable(String rules) {
+        List<String> out = new ArrayList<>();
+        for (String rule : rules.split(", ")) {
+            out.add(Figure.readable(rule));
+        }
+        return String.join(", ", out);
     }
 }

@@ -16,14 +16,15 @@ import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.Mask;
+import trapmap.maps.raster.PitchPrecision;
 import trapmap.maps.region.Region;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.region.RegionTable;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.material.Doping;
 import trapmap.shared.text.TextLimits;
-import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.graphics.ChartExport;
+import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.graphics.HistogramChart;
 import trapmap.viewer.graphics.Labels;
 
@@ -38,6 +39,10 @@ public final class WaferReport {
     public static final String CAUTION = trapmap.maps.model.Caution.TEXT;
     /** Picture pixels per PDF point. */
     static final double SCALE = 2;
+    /** The lowest histogram worth drawing, points: below it the page leaves the histogram out. */
+    static final float MIN_HISTOGRAM_HEIGHT = 90;
+    /** The smallest map the page draws, points (the statistics beside it are about as tall). */
+    static final float MIN_MAP_SIZE = 190;
     private static final DateTimeFormatter DATE = DateTimeFormatter.ofPattern("yyyy-MM-dd HH:mm z", Locale.ROOT);
 
     /**
@@ -219,8 +224,17 @@ public final class WaferReport {
                 y += p.table(left, y, new float[] {full * 0.16f, full * 0.84f}, null, j.rows(), 8, false) + 8;
             }
 
+            // what follows the histogram, measured first: the map and the histogram take the room it leaves
+            float lowerH;
+            try (PdfPage dry = PdfPage.measuringOnly()) {
+                lowerH = lower(dry, c, 0, left, full);
+            }
+            float cautionH = PdfPage.cautionHeight(CAUTION, full);
+            float end = PdfPage.HEIGHT - PdfPage.MARGIN - cautionH - 8 - lowerH;
+            float histWanted = c.judgement() == null ? 170 : 120;
+
             // map with colour bar (left), statistics (right)
-            float mapSize = 240;
+            float mapSize = Math.max(MIN_MAP_SIZE, Math.min(240, end - y - 30 - histWanted - 8));
             float barWidth = 78;
             BufferedImage pic = MapPicture.render(map, style, c.flagged(), c.outline(), c.edgeExclusionMm(),
                     (int) Math.round(mapSize * SCALE));
@@ -240,61 +254,71 @@ public final class WaferReport {
             for (HistogramChart.Row r : hist.rows()) {
                 rows.add(new String[] {r.name(), r.value(), r.unit()});
             }
-            p.table(sx, y + 20, new float[] {sw * 0.58f, sw * 0.29f, sw * 0.13f}, new boolean[] {false, true, false},
-                    rows, 8, false);
-            y = legendY + 22;
+            float statsH = p.table(sx, y + 20, new float[] {sw * 0.58f, sw * 0.29f, sw * 0.13f},
+                    new boolean[] {false, true, false}, rows, 8, false);
+            y = Math.max(legendY + 22, y + 20 + statsH + 4);
 
-            // histogram across the page
-            float histH = c.judgement() == null ? 170 : 120;
-            p.image(ChartExport.image(HistogramChart.createChart(hist), (int) full, (int) histH, SCALE), left, y, full,
-                    histH);
-            y += histH + 8;
-
-            // settings (left) and defect (right)
-            float half = (full - 16) / 2;
-            float top = y;
-            p.heading("Measurement settings", left, y, half);
-            float h1 = p.table(left, y + 20, new float[] {half * 0.42f, half * 0.58f}, null, settings(c.conditions()),
-                    8, false);
-            p.heading("Defect", left + half + 16, top, half);
-            float h2 = p.table(left + half + 16, top + 20, new float[] {half * 0.30f, half * 0.70f}, null,
-                    defect(c.defect()), 8, false);
-            float sourceH = 0;
-            if (c.defect() != null && !c.defect().source().isEmpty()) {
-                sourceH = p.paragraph("Source: " + c.defect().source(), left + half + 16, top + 20 + h2 + 2, half,
-                        PdfPage.REGULAR, 7.5f);
+            // histogram across the page, as tall as the room left allows (left out when too little is left)
+            float histH = Math.min(histWanted, end - y - 8);
+            if (histH >= MIN_HISTOGRAM_HEIGHT) {
+                p.image(ChartExport.image(HistogramChart.createChart(hist), (int) full, (int) histH, SCALE), left, y,
+                        full, histH);
+                y += histH + 8;
             }
-            y = top + 20 + Math.max(h1, h2 + sourceH + 2) + 8;
-
-            // regions
-            p.heading("Flagged regions", left, y, full);
-            y += 20;
-            y += regions(p, c, left, y, full);
-
-            if (!c.notes().isEmpty()) {
-                y += 4;
-                for (String n : c.notes()) {
-                    y += p.paragraph("- " + n, left, y, full, PdfPage.REGULAR, 8);
-                }
-            }
-            float cautionY = Math.max(y + 8, PdfPage.HEIGHT - PdfPage.MARGIN - 48);
+            y = lower(p, c, y, left, full);
+            float cautionY = Math.max(y + 8, PdfPage.HEIGHT - PdfPage.MARGIN - cautionH);
             p.caution(CAUTION, left, cautionY, full);
         }
+    }
+
+    /** Settings, defect, flagged regions and notes from {@code y} down; returns where they end. */
+    private static float lower(PdfPage p, Content c, float y, float left, float full) throws IOException {
+        // settings (left) and defect (right)
+        float half = (full - 16) / 2;
+        float top = y;
+        p.heading("Measurement settings", left, y, half);
+        float h1 = p.table(left, y + 20, new float[] {half * 0.42f, half * 0.58f}, null, settings(c.conditions()),
+                8, false);
+        p.heading("Defect", left + half + 16, top, half);
+        float h2 = p.table(left + half + 16, top + 20, new float[] {half * 0.30f, half * 0.70f}, null,
+                defect(c.defect()), 8, false);
+        float sourceH = 0;
+        if (c.defect() != null && !c.defect().source().isEmpty()) {
+            sourceH = p.paragraph("Source: " + c.defect().source(), left + half + 16, top + 20 + h2 + 2, half,
+                    PdfPage.REGULAR, 7.5f);
+        }
+        y = top + 20 + Math.max(h1, h2 + sourceH + 2) + 8;
+
+        // regions
+        p.heading("Flagged regions", left, y, full);
+        y += 20;
+        y += regions(p, c, left, y, full);
+
+        if (!c.notes().isEmpty()) {
+            y += 4;
+            for (String n : c.notes()) {
+                y += p.paragraph("- " + n, left, y, full, PdfPage.REGULAR, 8);
+            }
+        }
+        return y;
     }
 
     static List<String[]> settings(MeasurementConditions m) {
         List<String[]> r = new ArrayList<>();
         Doping d = m.doping();
         r.add(new String[] {"doping", d == null ? "unknown" : (d.type().name().toLowerCase(Locale.ROOT)
-                + "-type " + Labels.number(d.densityPerCm3()) + " cm⁻³ (" + Labels.number(d.resistivityOhmCm())
-                + " Ω·cm)")});
+                + "-type " + Labels.number(d.densityPerCm3()) + " " + Typeset.PER_CM3 + " ("
+                + Labels.number(d.resistivityOhmCm())
+                + " " + Typeset.OHM_CM + ")")});
         r.add(new String[] {"thickness", m.thicknessUm() == null ? "unknown" : Labels.number(m.thicknessUm()) + " µm"});
         r.add(new String[] {"temperature", m.temperatureK() == null ? "300 K (default)"
                 : Labels.number(m.temperatureK()) + " K"});
         if (m.injectionPerCm3() != null) {
-            r.add(new String[] {"injection Δn", Labels.number(m.injectionPerCm3()) + " cm⁻³ (fixed)"});
+            r.add(new String[] {"injection " + Typeset.DELTA_N, Labels.number(m.injectionPerCm3()) + " "
+                + Typeset.PER_CM3 + " (fixed)"});
         } else if (m.generationPerCm3PerS() != null) {
-            r.add(new String[] {"generation G", Labels.number(m.generationPerCm3PerS()) + " cm⁻³ s⁻¹ (Δn = G·τ)"});
+            r.add(new String[] {"generation G", Labels.number(m.generationPerCm3PerS()) + " " + Typeset.PER_CM3_S
+                + " (" + Typeset.DELTA_N + " = G·" + Typeset.TAU + ")"});
         } else {
             r.add(new String[] {"injection", "unknown"});
         }
@@ -317,9 +341,9 @@ public final class WaferReport {
         }
         r.add(new String[] {"defect", d.id() + " - " + d.name()});
         r.add(new String[] {"level", d.level().toString()});
-        r.add(new String[] {"σ_n", Labels.number(d.electronCrossSectionCm2()) + " cm²"});
-        r.add(new String[] {"σ_p", Labels.number(d.holeCrossSectionCm2()) + " cm²"});
-        r.add(new String[] {"σ_n/σ_p", Labels.number(d.captureRatio())});
+        r.add(new String[] {Typeset.SIGMA_N, Labels.number(d.electronCrossSectionCm2()) + " " + Typeset.CM2});
+        r.add(new String[] {Typeset.SIGMA_P, Labels.number(d.holeCrossSectionCm2()) + " " + Typeset.CM2});
+        r.add(new String[] {Typeset.SIGMA_N + "/" + Typeset.SIGMA_P, Labels.number(d.captureRatio())});
         r.add(new String[] {"v_th convention", d.velocityConvention().name().toLowerCase(Locale.ROOT)});
         return r;
     }
@@ -333,20 +357,23 @@ public final class WaferReport {
         String unit = c.regionUnit() != null ? c.regionUnit() : c.map().quantity().unit();
         String summary = t.size() + " region" + (t.size() == 1 ? "" : "s") + " with values "
                 + (k.side() == RegionCriteria.Side.ABOVE ? "above " : "below ") + Labels.number(k.threshold(), unit)
-                + (k.minAreaMm2() > 0 ? " of at least " + Labels.number(k.minAreaMm2()) + " mm²" : "")
-                + ", " + Labels.number(t.totalAreaMm2()) + " mm² in all" + (t.size() > 5 ? "; the five largest:" : ".");
+                + (k.minAreaMm2() > 0 ? " of at least " + Labels.number(k.minAreaMm2()) + " " + Typeset.MM2 : "")
+                + ", " + PitchPrecision.areaMm2(t.totalAreaMm2(), c.map().grid().pitchMm()) + " " + Typeset.MM2
+                + " in all"
+                + (t.size() > 5 ? "; the five largest:" : ".");
         float h = p.paragraph(summary, x, y, width, PdfPage.REGULAR, 8);
         if (t.size() == 0) {
             return h;
         }
         List<String[]> rows = new ArrayList<>();
-        String u = Labels.unit(unit);
-        rows.add(new String[] {"region", "area (mm²)", "centre x (mm)", "centre y (mm)", "peak" + (u.isEmpty() ? ""
+        String u = Typeset.unit(unit);
+        double pitch = c.map().grid().pitchMm();
+        rows.add(new String[] {"region", Typeset.headed("area", Typeset.MM2), "centre x (mm)", "centre y (mm)", "peak" + (u.isEmpty() ? ""
                 : " (" + u + ")"), "mean" + (u.isEmpty() ? "" : " (" + u + ")"), "to edge (mm)"});
         for (Region r : t.byArea().subList(0, Math.min(5, t.size()))) {
-            rows.add(new String[] {"#" + r.id(), Labels.number(r.areaMm2()), Labels.number(r.centroidXMm()),
-                Labels.number(r.centroidYMm()), Labels.number(r.peakValue()), Labels.number(r.meanValue()),
-                Labels.number(r.edgeDistanceMm())});
+            rows.add(new String[] {"#" + r.id(), PitchPrecision.areaMm2(r.areaMm2(), pitch),
+                PitchPrecision.mm(r.centroidXMm(), pitch), PitchPrecision.mm(r.centroidYMm(), pitch),
+                Labels.number(r.peakValue()), Labels.number(r.meanValue()), PitchPrecision.mm(r.edgeDistanceMm(), pitch)});
         }
         float cw = width / 7;
         return h + 2 + p.table(x, y + h + 2, new float[] {cw, cw, cw, cw, cw, cw, cw},

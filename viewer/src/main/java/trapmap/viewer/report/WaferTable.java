@@ -19,15 +19,16 @@ final class WaferTable {
 
     static void draw(ReportFlow flow, BatchContent c) throws IOException {
         flow.part("Every wafer");
-        flow.paragraph("All " + c.rows().size() + " wafers in the order of results.csv. Lifetime in µs; trap density"
-                + " in cm⁻³ of the defect named (the profile's); flagged area as a share of the evaluated area;"
+        flow.paragraph("All " + c.rows().size() + " wafers in the order of results.csv. Lifetime in " + Typeset.US
+                + "; trap density in " + Typeset.PER_CM3 + " of the defect named (the profile's); flagged area as a"
+                + " share of the evaluated area;"
                 + " largest flagged region: area, centroid (wafer mm) and peak in the unit of the profile's flag.",
                 PdfPage.REGULAR, 8);
         List<String[]> rows = new ArrayList<>();
         for (BatchContent.Row r : c.rows()) {
             rows.add(row(c, r));
         }
-        float[] w = {74, 56, 28, 24, 104, 42, 62, 34, 99};
+        float[] w = {70, 54, 32, 28, 100, 42, 62, 36, 99};
         flow.table(w, new boolean[] {false, false, false, false, false, true, true, true, false}, HEADER, rows, 7);
     }
 
@@ -52,10 +53,10 @@ final class WaferTable {
         if (Double.isFinite(r.worstAreaMm2())) {
             Rules.Profile p = c.profile(r.profile());
             String unit = p == null ? "" : p.flag().quantity().unit();
-            region = Labels.number(r.worstAreaMm2()) + " mm² at " + position(r) + ", peak "
+            region = Labels.number(r.worstAreaMm2()) + " " + Typeset.MM2 + " at " + position(r) + ", peak "
                     + Labels.number(r.worstPeak(), unit);
         }
-        return new String[] {name(c, r), r.profile(), r.status(), r.grade(), String.join(", ", r.failed()),
+        return new String[] {name(c, r), r.profile(), r.status(), r.grade(), String.join(", ", r.failed().stream().map(trapmap.maps.batch.Figure::readable).toList()),
             Labels.number(r.figure("harmonic_mean_lifetime_us")),
             Double.isNaN(nt) ? "" : Labels.number(nt) + (r.defect().isEmpty() ? "" : " " + r.defect()),
             Labels.percent(r.figure("flagged_area_fraction")), region};

@@ -27,7 +27,7 @@ import trapmap.shared.progress.ProgressListener;
 
 /** The batch summary PDF: yield, profiles, every wafer, failed wafers, recurrence, errors and the caution. */
 public class BatchReportTest {
-    private static final String RULES = """
+    static final String RULES = """
             {"edge_exclusion_mm": 2,
              "flag": {"quantity": "lifetime", "threshold": 10, "min_area_mm2": 1},
              "limits": {"flagged_area_fraction": {"max": 0.001}, "p5_lifetime_us": {"min": 5}},
@@ -82,11 +82,11 @@ public class BatchReportTest {
             assertThat(first).contains(Caution.TEXT);
             String all = text(doc);
             // the default profile's section: its flag and limits, and its 3 wafers' values (too few for histograms)
-            assertThat(all).contains("Profile default: 3 wafers", "lifetime below 10 µs", "p5_lifetime_us",
-                    ">= 5 µs", "flagged_area_fraction", "<= 1e-3", "Outcome: 2 pass, 1 fail",
+            assertThat(all).contains("Profile default: 3 wafers", "lifetime below 10 µs", "lifetime P5",
+                    "≥ 5 µs", "flagged area fraction", "≤ 1e-3", "Outcome: 2 pass, 1 fail",
                     "too few wafers for a distribution");
             assertThat(all).contains("Every wafer", "Failed wafers, worst first: showing 1 of 1", "W-B",
-                    "failed: flagged_area_fraction");
+                    "failed: flagged area fraction");
             // three wafers: fewer than a hot spot needs
             assertThat(all).contains("(3 wafers)", "Too few wafers", "No hot spot.");
             String last = page(doc, doc.getNumberOfPages());
@@ -129,14 +129,14 @@ public class BatchReportTest {
             assertThat(all).contains("Criteria: 2 profiles judged these wafers");
             assertThat(all).contains("Profile default: 7 wafers", "Distributions over the 7 wafers of this profile",
                     "Outcome: 0 pass, 7 fail");
-            assertThat(all).contains("Profile thin: 2 wafers", "lifetime below 3 µs", ">= 20 µs",
+            assertThat(all).contains("Profile thin: 2 wafers", "lifetime below 3 µs", "≥ 20 µs",
                     "Outcome: 2 pass, 0 fail");
             // the wafer table holds every wafer, each with its profile and verdict
             int from = all.indexOf("All 9 wafers in the order of results.csv");
             assertThat(from).isPositive();
             String table = all.substring(from, all.indexOf("Failed wafers, worst first", from));
             for (int i = 1; i <= 7; i++) {
-                assertThat(table).contains("SPOT-" + i + " default fail R flagged_area_fraction");
+                assertThat(table).contains("SPOT-" + i + " default fail R flagged area fraction");
             }
             assertThat(table).contains("T1-thin thin pass A", "T2-thin thin pass A");
             // seven failures, six pictures: the cut is stated

@@ -75,12 +75,12 @@ class ReportFlowTest {
         assertThat(Criteria.judges(rules.defaultProfile())).isEqualTo("every map no other profile matches");
         assertThat(Criteria.flag(n)).isEqualTo("trap density above 1e12 cm⁻³ (midgap), regions of at least 4 mm²");
         assertThat(Criteria.grades(rules.defaultProfile()))
-                .isEqualTo("A when flagged_area_fraction ≤ 0.05; otherwise B. Failed wafers: R.");
+                .isEqualTo("A when flagged area fraction ≤ 0.05; otherwise B. Failed wafers: R.");
         // each profile's histogram carries its own limits and its own defect on the axis
         assertThat(DistributionChart.limits(n, "trap_density_p95_cm3")).containsExactly(1e12);
         assertThat(DistributionChart.limits(rules.defaultProfile(), "trap_density_p95_cm3")).containsExactly(4e11);
         assertThat(DistributionChart.of("trap_density_p95_cm3", "midgap", new double[] {5e11, 8e11},
                 DistributionChart.limits(n, "trap_density_p95_cm3")).getXYPlot().getDomainAxis().getLabel())
-                .isEqualTo("trap_density_p95_cm3 (cm⁻³, midgap)");
+                .isEqualTo("trap density P95 (cm⁻³, midgap)");
     }
 }
