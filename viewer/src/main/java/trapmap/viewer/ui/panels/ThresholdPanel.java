@@ -242,7 +242,8 @@ public final class ThresholdPanel extends JPanel {
             } else {
                 Verdict v = r.verdict();
                 summary.setText("<html>flagged <b>" + Units.percent(r.flaggedFraction()) + "</b> of "
-                        + String.format(java.util.Locale.ROOT, "%.0f", r.lifetimeStats().areaMm2()) + " mm² · "
+                        + trapmap.maps.raster.PitchPrecision.areaOfPixels(r.lifetimeStats().areaMm2(),
+                                r.lifetimeStats().count()) + " mm² · "
                         + r.regions().size() + (r.regions().size() == 1 ? " region" : " regions") + "</html>");
                 verdict.setText(verdictHtml(v));
                 regions.set(r.regions().regions(), r.flagUnit());
