@@ -56,7 +56,7 @@ public final class LogTicks {
     }
 
     /** Multiples of a 1, 2 or 5 × 10^k step inside [low, high], at most {@code maxTicks}. */
-    static double[] linear(double low, double high, int maxTicks) {
+    public static double[] linear(double low, double high, int maxTicks) {
         if (high == low) {
             return new double[] {low};
         }
@@ -68,7 +68,9 @@ public final class LogTicks {
                 double[] t = new double[(int) Math.max(0, last - first + 1)];
                 double scale = Math.pow(10, Math.max(0, -Math.floor(Math.log10(step) + 1e-9)));
                 for (int i = 0; i < t.length; i++) {
-                    t[i] = Math.round((first + i) * step * scale) / scale;
+                    // whole numbers of the step's last decimal, divided once, so 3 × 0.1 gives 0.3; never -0
+                    double v = Math.round((first + i) * step * scale) / scale;
+                    t[i] = v == 0 ? 0 : v;
                 }
                 return t;
             }

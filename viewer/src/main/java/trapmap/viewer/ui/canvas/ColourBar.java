@@ -133,32 +133,9 @@ public class ColourBar extends JComponent {
         return s.logarithmic() ? logTicks(s.low(), s.high(), maxTicks) : linearTicks(s.low(), s.high(), maxTicks);
     }
 
-    /** Multiples of a 1, 2 or 5 × 10^k step inside [low, high], as many as fit within {@code maxTicks}. */
+    /** Multiples of a 1, 2 or 5 × 10^k step inside [low, high], as many as fit ({@link LogTicks#linear}). */
     static double[] linearTicks(double low, double high, int maxTicks) {
-        double step = niceStep((high - low) / Math.max(1, maxTicks - 1));
-        while (true) {
-            long first = (long) Math.ceil(low / step - 1e-9);
-            long last = (long) Math.floor(high / step + 1e-9);
-            if (last - first + 1 <= maxTicks) {
-                double[] t = new double[(int) Math.max(0, last - first + 1)];
-                // whole numbers of the step's last decimal, divided once, so 3 × 0.1 gives 0.3
-                double scale = Math.pow(10, Math.max(0, -Math.floor(Math.log10(step) + 1e-9)));
-                for (int i = 0; i < t.length; i++) {
-                    double v = Math.round((first + i) * step * scale) / scale;
-                    t[i] = v == 0 ? 0 : v; // no -0
-                }
-                return t;
-            }
-            step = niceStep(step * 1.5);
-        }
-    }
-
-    /** The smallest 1, 2 or 5 × 10^k not below {@code v}. */
-    static double niceStep(double v) {
-        double p = Math.pow(10, Math.floor(Math.log10(v)));
-        double m = v / p;
-        double n = m <= 1 + 1e-9 ? 1 : m <= 2 + 1e-9 ? 2 : m <= 5 + 1e-9 ? 5 : 10;
-        return n * p;
+        return LogTicks.linear(low, high, maxTicks);
     }
 
     /** The log-scale ticks: {@link LogTicks} (1-2-5 values when they fit, else decades). */
