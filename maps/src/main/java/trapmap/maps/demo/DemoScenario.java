@@ -113,7 +113,7 @@ public final class DemoScenario {
         }
         PlantedField f = new PlantedField(grains, edges, spots, null, 1);
         MeasurementConditions c = conditions(Doping.fromResistivity(ConductivityType.P, 1.5), 180, 10, MC_INJECTION,
-                null, Map.of("material", "multicrystalline, as cut", "supplier", "Northwind Ingot (invented)",
+                null, Map.of("material", "multicrystalline, as cut", "supplier", "ingot supplier A (invented)",
                         "lot", "LOT-A01", "resistivity", "p:1.5ohmcm"));
         String what = "mc p-type 1.5 Ω·cm, edge zone " + (edges.size() == 2 ? "left and bottom" : "left")
                 + (mark ? ", handling mark near the top edge" : "");
