@@ -1,7 +1,6 @@
 package trapmap.cli;
 
 import static org.assertj.core.api.Assertions.assertThat;
-import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
 import java.nio.ByteBuffer;
 import java.nio.ByteOrder;
@@ -9,6 +8,8 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.condition.DisabledOnOs;
+import org.junit.jupiter.api.condition.OS;
 import org.junit.jupiter.api.Timeout;
 import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.io.MapFiles;
@@ -64,11 +65,10 @@ class DamagedMapInputTest {
     }
 
     @Test
+    @DisabledOnOs(OS.WINDOWS)
     @Timeout(value = 30, unit = TimeUnit.SECONDS)
     void statsOnAFifoSaysNotARegularFile() throws Exception {
-        Path f = dir.resolve("pipe.tif");
-        Process p = new ProcessBuilder("mkfifo", f.toString()).start();
-        assumeTrue(p.waitFor(20, TimeUnit.SECONDS) && p.exitValue() == 0, "mkfifo is not available");
+        Path f = Fifo.make(dir.resolve("pipe.tif"));
         Cli.Run r = Cli.run("stats", f.toString());
         assertThat(r.code()).isEqualTo(2);
         assertThat(r.errLines()).containsExactly("trapmap stats: " + f + ": is a FIFO, socket or device, not a"

@@ -9,8 +9,9 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
-import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.condition.DisabledOnOs;
+import org.junit.jupiter.api.condition.OS;
 import org.junit.jupiter.api.Timeout;
 import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.batch.IronPairRules;
@@ -29,18 +30,9 @@ class InputFilesTest {
         return Files.createSymbolicLink(dir.resolve(name), zero);
     }
 
-    /** A named pipe nobody writes to: opening it for reading would block. Skipped where mkfifo is missing. */
+    /** A named pipe nobody writes to: opening it for reading would block ({@link Fifo}). */
     private Path fifo(String name) throws Exception {
-        Path f = dir.resolve(name);
-        Process p;
-        try {
-            p = new ProcessBuilder("mkfifo", f.toString()).redirectErrorStream(true).start();
-        } catch (java.io.IOException e) {
-            assumeThat(false).as("mkfifo is available").isTrue();
-            return null;
-        }
-        assumeThat(p.waitFor(10, TimeUnit.SECONDS) && p.exitValue() == 0).as("mkfifo worked").isTrue();
-        return f;
+        return Fifo.make(dir.resolve(name));
     }
 
     @Test
@@ -69,6 +61,7 @@ class InputFilesTest {
     }
 
     @Test
+    @DisabledOnOs(OS.WINDOWS)
     @Timeout(20)
     void aPipeIsRefusedBeforeItIsOpenedSoNothingBlocks() throws Exception {
         Path pipe = fifo("settings.json");

@@ -9,6 +9,8 @@ import java.nio.file.Path;
 import java.nio.file.attribute.PosixFilePermissions;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.condition.DisabledOnOs;
+import org.junit.jupiter.api.condition.OS;
 import org.junit.jupiter.api.Timeout;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -20,20 +22,9 @@ class NonRegularFilesTest {
     @TempDir
     Path dir;
 
-    /** A FIFO made with mkfifo; the test is skipped where there is none (Windows). */
+    /** A FIFO in the test folder ({@link Fifo}). */
     private Path fifo(String name) throws Exception {
-        Path f = dir.resolve(name);
-        Process p;
-        try {
-            p = new ProcessBuilder("mkfifo", f.toString()).redirectErrorStream(true).start();
-        } catch (java.io.IOException e) {
-            assumeTrue(false, "mkfifo is not available");
-            throw e;
-        }
-        assumeTrue(p.waitFor(20, TimeUnit.SECONDS) && p.exitValue() == 0, "mkfifo failed");
-        assertThat(Files.exists(f)).isTrue();
-        assertThat(Files.isRegularFile(f)).isFalse();
-        return f;
+        return Fifo.make(dir.resolve(name));
     }
 
     private Path plainTiff(String name) throws Exception {
@@ -43,6 +34,7 @@ class NonRegularFilesTest {
     }
 
     @Test
+    @DisabledOnOs(OS.WINDOWS)
     @Timeout(value = 30, unit = TimeUnit.SECONDS) // opening the FIFO would block here
     void fifoAsMapIsNotARegularFile() throws Exception {
         Path f = fifo("w01.tif");
@@ -65,6 +57,7 @@ class NonRegularFilesTest {
     }
 
     @Test
+    @DisabledOnOs(OS.WINDOWS)
     @Timeout(value = 30, unit = TimeUnit.SECONDS)
     void fifoAsSidecarIsAnErrorNamingTheSidecar() throws Exception {
         Path map = plainTiff("w03.tif");

@@ -1,0 +1,30 @@
+package trapmap.maps.io;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.io.IOException;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.LinkOption;
+import java.nio.file.Path;
+import java.util.concurrent.TimeUnit;
+
+/**
+ * Named pipes for the tests of inputs that must never be opened (opening a FIFO nobody writes to blocks). Made with
+ * POSIX {@code mkfifo}: the tests using them are disabled on Windows only; elsewhere a failing mkfifo fails the test.
+ */
+final class Fifo {
+    private Fifo() {
+    }
+
+    /** Makes the FIFO {@code p} and returns it. */
+    static Path make(Path p) throws IOException, InterruptedException {
+        Process proc = new ProcessBuilder("mkfifo", p.toString()).redirectErrorStream(true).start();
+        String said = new String(proc.getInputStream().readAllBytes(), StandardCharsets.UTF_8);
+        assertThat(proc.waitFor(20, TimeUnit.SECONDS)).as("mkfifo finished").isTrue();
+        assertThat(proc.exitValue()).as("mkfifo " + p + ": " + said).isZero();
+        assertThat(Files.exists(p, LinkOption.NOFOLLOW_LINKS)).isTrue();
+        assertThat(Files.isRegularFile(p)).isFalse();
+        return p;
+    }
+}
