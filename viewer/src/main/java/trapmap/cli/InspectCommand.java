@@ -105,9 +105,12 @@ final class InspectCommand implements Callable<Integer> {
         }
         Rules rules;
         IronPairRules ironPairs;
+        RunManifest.Source source;
         try {
-            rules = Rules.read(rulesFile);
-            ironPairs = IronPairRules.read(rulesFile).orElse(null);
+            String text = Rules.readText(rulesFile); // read once: the rules, their iron section and their hash
+            rules = Rules.parse(text, rulesFile.toString());
+            ironPairs = IronPairRules.parse(text, rulesFile.toString()).orElse(null);
+            source = RunManifest.Source.of(TrapmapCommand.VERSION, rulesFile, text);
         } catch (RulesException e) {
             throw new InputException("--rules " + e.getMessage());
         }
@@ -120,12 +123,6 @@ final class InspectCommand implements Callable<Integer> {
         }
         PrintWriter err = spec.commandLine().getErr();
         ProgressListener progress = System.console() != null ? bar(err) : lines(err);
-        RunManifest.Source source;
-        try {
-            source = RunManifest.Source.of(TrapmapCommand.VERSION, rulesFile);
-        } catch (IOException e) {
-            throw new InputException("--rules " + rulesFile + ": cannot be read (" + e.getMessage() + ")");
-        }
         Rules judged = rules;
         BatchInspection.Summary s;
         try {

@@ -3,7 +3,6 @@ package trapmap.maps.batch;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import java.io.IOException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Iterator;
@@ -58,15 +57,7 @@ public record IronPairRules(String febState, String feiState, List<IronLimit> li
      * @throws RulesException naming the field (and unit) at fault, or when the file cannot be read
      */
     public static Optional<IronPairRules> read(Path rulesFile) throws RulesException {
-        String text;
-        try {
-            text = trapmap.maps.io.InputFiles.readUtf8(rulesFile, trapmap.maps.io.InputFiles.JSON_MAX_BYTES);
-        } catch (trapmap.maps.io.InputFiles.Refused e) {
-            throw new RulesException(rulesFile + ": rules file " + e.reason());
-        } catch (IOException e) {
-            throw new RulesException(rulesFile + ": cannot be read: " + e.getMessage());
-        }
-        return parse(text, rulesFile.toString());
+        return parse(Rules.readText(rulesFile), rulesFile.toString());
     }
 
     /** As {@link #read}, from text; {@code name} names the file in messages. */

@@ -335,10 +335,17 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
 
     /** Reads and checks a rules file. */
     public static Rules read(Path file) throws RulesException {
+        return parse(readText(file), file.toString());
+    }
+
+    /**
+     * The text of a rules file (a regular file within the JSON size limit, UTF-8), read once: a caller that also
+     * needs the iron section ({@link IronPairRules#parse}) or the text's hash parses this same text.
+     */
+    public static String readText(Path file) throws RulesException {
         String name = file.toString();
-        String text;
         try {
-            text = trapmap.maps.io.InputFiles.readUtf8(file, trapmap.maps.io.InputFiles.JSON_MAX_BYTES);
+            return trapmap.maps.io.InputFiles.readUtf8(file, trapmap.maps.io.InputFiles.JSON_MAX_BYTES);
         } catch (java.nio.file.NoSuchFileException e) {
             throw new RulesException(name + ": no such rules file");
         } catch (trapmap.maps.io.InputFiles.Refused e) {
@@ -346,7 +353,6 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         } catch (IOException e) {
             throw new RulesException(name + ": cannot read the rules file (" + e + ")");
         }
-        return parse(text, name);
     }
 
     /** Parses and checks rules given as JSON text; {@code name} prefixes every message. */

@@ -71,9 +71,12 @@ public record RunManifest(String version, State state, Instant started, Instant 
         /** A batch started from code, without a rules file. */
         public static final Source UNKNOWN = new Source("", "", "");
 
-        /** The source of a rules file: its SHA-256 is computed from its bytes now. */
-        public static Source of(String version, Path rulesFile) throws IOException {
-            return new Source(version, rulesFile.toString(), sha256(Files.readAllBytes(rulesFile)));
+        /**
+         * The source of the rules read from {@code rulesFile} as {@code text} (its UTF-8 bytes, which are the
+         * file's: {@link Rules#readText} accepts UTF-8 only), so the hash is of the very rules the batch judges by.
+         */
+        public static Source of(String version, Path rulesFile, String text) {
+            return new Source(version, rulesFile.toString(), sha256(text.getBytes(StandardCharsets.UTF_8)));
         }
     }
 
