@@ -59,12 +59,9 @@ final class ReportCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws IOException {
-        if (Files.isDirectory(map)) {
-            throw new InputException(map + ": is a directory, not a regular file; give a map file");
-        }
-        if (!Files.isRegularFile(map)) {
-            throw new InputException(map + (Files.exists(map) ? ": is not a regular file (a device, pipe or socket)"
-                    : ": no such file"));
+        if (!Files.isRegularFile(map)) { // a FIFO is never opened: it would wait for a writer
+            throw new InputException(map + ": " + (Files.exists(map) ? trapmap.maps.io.InputFiles.notRegular(
+                    Files.readAttributes(map, java.nio.file.attribute.BasicFileAttributes.class)) : "no such file"));
         }
         if (!out.getFileName().toString().toLowerCase(Locale.ROOT).endsWith(".pdf")) {
             throw new InputException("-o " + out + " must name a .pdf file");

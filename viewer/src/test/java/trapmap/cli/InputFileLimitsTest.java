@@ -28,7 +28,7 @@ class InputFileLimitsTest {
                 dir.resolve("out").toString());
         assertThat(r.code()).isEqualTo(Exit.INVALID_INPUT);
         assertThat(r.errLines()).hasSize(1);
-        assertThat(r.err()).contains(link + ": rules file is not a regular file");
+        assertThat(r.err()).contains(link + ": rules file is a FIFO, socket or device, not a regular file");
     }
 
     @Test
@@ -38,7 +38,7 @@ class InputFileLimitsTest {
         Path pipe = Fifo.make(dir.resolve("cases.csv"));
         Cli.Run r = Cli.run("calc", "--cases", pipe.toString(), "--out", dir.resolve("out.csv").toString());
         assertThat(r.code()).isEqualTo(Exit.INVALID_INPUT);
-        assertThat(r.err()).contains("--cases " + pipe + ": is not a regular file");
+        assertThat(r.err()).contains("--cases " + pipe + ": is a FIFO, socket or device, not a regular file");
     }
 
     @Test

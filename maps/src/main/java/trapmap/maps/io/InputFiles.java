@@ -38,10 +38,21 @@ public final class InputFiles {
             this.reason = reason;
         }
 
-        /** The reason without the file name, e.g. {@code is not a regular file (a device, pipe or socket)}. */
+        /** The reason without the file name, e.g. {@code is a FIFO, socket or device, not a regular file}. */
         public String reason() {
             return reason;
         }
+    }
+
+    /**
+     * Why a file with attributes {@code a} (links followed) cannot be read as a file, e.g. {@code is a directory, not
+     * a regular file}; null for a regular file. The one wording of every reader's message.
+     */
+    public static String notRegular(BasicFileAttributes a) {
+        if (a.isRegularFile()) {
+            return null;
+        }
+        return "is " + (a.isDirectory() ? "a directory" : "a FIFO, socket or device") + ", not a regular file";
     }
 
     /**
@@ -54,11 +65,9 @@ public final class InputFiles {
      */
     public static long check(Path file, long maxBytes) throws IOException {
         BasicFileAttributes a = Files.readAttributes(file, BasicFileAttributes.class);
-        if (a.isDirectory()) {
-            throw new Refused(file, "is a directory, not a file");
-        }
-        if (!a.isRegularFile()) {
-            throw new Refused(file, "is not a regular file (a device, pipe or socket); give a file");
+        String notRegular = notRegular(a);
+        if (notRegular != null) {
+            throw new Refused(file, notRegular);
         }
         if (a.size() > maxBytes) {
             throw new Refused(file, "is " + a.size() + " bytes, more than the limit of " + limit(maxBytes));

@@ -177,14 +177,6 @@ public final class MapFiles {
         return dot <= 0 ? "" : n.substring(dot).toLowerCase(Locale.ROOT);
     }
 
-    /** What a file that is not a regular file is, for messages. */
-    private static String kind(BasicFileAttributes attrs) {
-        if (attrs.isDirectory()) {
-            return "a directory";
-        }
-        return attrs.isOther() ? "a FIFO, socket or device" : "not a file";
-    }
-
     private static String stem(String fileName) {
         int dot = fileName.lastIndexOf('.');
         return dot <= 0 ? fileName : fileName.substring(0, dot);
@@ -202,7 +194,7 @@ public final class MapFiles {
             throw new MapFormatException(name, null, "no such file", "", e);
         }
         if (!attrs.isRegularFile()) { // checked before opening: opening a FIFO would wait for a writer
-            throw new MapFormatException(name, null, "is " + kind(attrs) + ", not a regular file");
+            throw new MapFormatException(name, null, InputFiles.notRegular(attrs));
         }
         if (!Files.isReadable(file)) {
             throw new MapFormatException(name, null, "permission denied");
@@ -243,8 +235,8 @@ public final class MapFiles {
         if (!extension(file).equals(".json") && Files.exists(sidecarPath)) {
             if (!Files.isRegularFile(sidecarPath)) {
                 BasicFileAttributes sa = Files.readAttributes(sidecarPath, BasicFileAttributes.class);
-                throw new MapFormatException(sidecarName, null, "the sidecar of " + file.getFileName() + " is "
-                        + kind(sa) + ", not a regular file; remove or rename it");
+                throw new MapFormatException(sidecarName, null, "the sidecar of " + file.getFileName() + " "
+                        + InputFiles.notRegular(sa) + "; remove or rename it");
             }
             if (!Files.isReadable(sidecarPath)) {
                 throw new MapFormatException(sidecarName, null, "the sidecar of " + file.getFileName()
@@ -252,9 +244,9 @@ public final class MapFiles {
             }
             sidecar = Sidecar.read(sidecarPath);
         } else if (!extension(file).equals(".json") && Files.exists(sidecarPath, LinkOption.NOFOLLOW_LINKS)) {
-            throw new MapFormatException(sidecarName, null, Files.isDirectory(sidecarPath)
-                    ? "is a directory, not a sidecar file" : Files.exists(sidecarPath) ? "is not a regular file"
-                    : "is a dangling link to " + Files.readSymbolicLink(sidecarPath) + " (no such sidecar file)");
+            // there, but not when links are followed: a link to nothing
+            throw new MapFormatException(sidecarName, null, "is a dangling link to "
+                    + Files.readSymbolicLink(sidecarPath) + " (no such sidecar file)");
         }
         String source = file.getFileName().toString();
         String stem = stem(source);

@@ -47,17 +47,17 @@ class InputFilesTest {
         Path link = zeroLink("rules.json");
         assertThatThrownBy(() -> InputFiles.readBytes(link, InputFiles.JSON_MAX_BYTES))
                 .isInstanceOf(InputFiles.Refused.class)
-                .hasMessage(link + ": is not a regular file (a device, pipe or socket); give a file");
+                .hasMessage(link + ": is a FIFO, socket or device, not a regular file");
         assertThatThrownBy(() -> Rules.read(link)).isInstanceOf(RulesException.class)
-                .hasMessage(link + ": rules file is not a regular file (a device, pipe or socket); give a file");
+                .hasMessage(link + ": rules file is a FIFO, socket or device, not a regular file");
         assertThatThrownBy(() -> IronPairRules.read(link)).isInstanceOf(RulesException.class)
-                .hasMessageStartingWith(link + ": rules file is not a regular file");
+                .hasMessageStartingWith(link + ": rules file is a FIFO, socket or device, not a regular file");
         assertThatThrownBy(() -> PhysicsSettingsFile.read(link)).isInstanceOf(InvalidValueException.class)
-                .hasMessageContaining(link + ": physics settings file is not a regular file");
+                .hasMessageContaining(link + ": physics settings file is a FIFO, socket or device, not a regular file");
         assertThatThrownBy(() -> DefectFiles.read(link)).isInstanceOf(DefectFileException.class)
-                .hasMessageContaining(link + ": defect file is not a regular file");
+                .hasMessageContaining(link + ": defect file is a FIFO, socket or device, not a regular file");
         assertThatThrownBy(() -> Sidecar.read(link)).isInstanceOf(MapFormatException.class)
-                .hasMessageContaining("sidecar is not a regular file");
+                .hasMessageContaining("not a regular file");
     }
 
     @Test
@@ -99,7 +99,7 @@ class InputFilesTest {
     @Test
     void aDirectoryAndAMissingFileAreToldApart() throws Exception {
         assertThatThrownBy(() -> InputFiles.check(dir, 100)).isInstanceOf(InputFiles.Refused.class)
-                .hasMessage(dir + ": is a directory, not a file");
+                .hasMessage(dir + ": is a directory, not a regular file");
         assertThatThrownBy(() -> InputFiles.check(dir.resolve("none.json"), 100))
                 .isInstanceOf(java.nio.file.NoSuchFileException.class);
     }

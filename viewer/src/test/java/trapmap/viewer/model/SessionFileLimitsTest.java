@@ -21,7 +21,7 @@ class SessionFileLimitsTest {
         assumeThat(Files.exists(Path.of("/dev/zero"))).as("/dev/zero exists (Linux)").isTrue();
         Path link = Files.createSymbolicLink(dir.resolve("s.trapmap-session.json"), Path.of("/dev/zero"));
         assertThatThrownBy(() -> SessionFiles.read(link)).isInstanceOf(SessionFiles.SessionException.class)
-                .hasMessage(link + ": session file is not a regular file (a device, pipe or socket); give a file");
+                .hasMessage(link + ": session file is a FIFO, socket or device, not a regular file");
     }
 
     @Test
