@@ -32,16 +32,33 @@ public final class MapConversion {
 
     /**
      * The converted maps, one per requested {@link Quantity}, the union of the warnings of all pixels and the
-     * wafer-level ones, the defect and the physics settings converted with, and the {@link PixelStatus#code()} of
-     * every pixel (kept as bytes whether or not a {@link Quantity#STATUS} map was requested).
+     * wafer-level ones, the defect and the physics settings converted with, the {@link PixelStatus#code()} of
+     * every pixel (kept as bytes whether or not a {@link Quantity#STATUS} map was requested), the number of pixels with
+     * each per-pixel warning (by {@link ConversionWarning#ordinal()}) and of each status (by code), and the
+     * {@link #lifetimeFloorNote(WaferMap)} of the converted map, counted in the conversion's own pass.
      */
     public record Result(Map<Quantity, WaferMap> maps, Set<ConversionWarning> warnings, String defectId,
                          trapmap.physics.conversion.PhysicsSettings physics, byte[] statusCodes,
-                         int[] warningPixels) {
+                         int[] warningPixels, int[] statusCounts, String lifetimeFloorNote) {
         public Result {
             maps = Map.copyOf(maps);
             warnings = Set.copyOf(warnings);
             warningPixels = warningPixels.clone();
+            statusCounts = statusCounts.clone();
+        }
+
+        /** As the canonical constructor, with the status counts counted from {@code statusCodes} and no note. */
+        public Result(Map<Quantity, WaferMap> maps, Set<ConversionWarning> warnings, String defectId,
+                      trapmap.physics.conversion.PhysicsSettings physics, byte[] statusCodes, int[] warningPixels) {
+            this(maps, warnings, defectId, physics, statusCodes, warningPixels, count(statusCodes), "");
+        }
+
+        private static int[] count(byte[] statusCodes) {
+            int[] counts = new int[PixelStatus.values().length];
+            for (byte c : statusCodes) {
+                counts[c]++;
+            }
+            return counts;
         }
 
         /** The number of pixels that carry the per-pixel warning {@code w} (0 for a wafer-level warning). */
@@ -51,8 +68,7 @@ public final class MapConversion {
 
         /** The pixels converted ({@link PixelStatus#OK} or {@link PixelStatus#BELOW_LIMIT}). */
         public int convertedPixels() {
-            int[] c = statusCounts();
-            return c[PixelStatus.OK.code()] + c[PixelStatus.BELOW_LIMIT.code()];
+            return statusCounts[PixelStatus.OK.code()] + statusCounts[PixelStatus.BELOW_LIMIT.code()];
         }
 
         /** The share of the converted pixels that carry {@code w}, 0…1 (NaN when none was converted). */
@@ -95,13 +111,10 @@ public final class MapConversion {
             return m;
         }
 
-        /** The number of pixels of each status, indexed by {@link PixelStatus#code()}. */
+        /** The number of pixels of each status, indexed by {@link PixelStatus#code()} (a copy). */
+        @Override
         public int[] statusCounts() {
-            int[] counts = new int[PixelStatus.values().length];
-            for (byte c : statusCodes) {
-                counts[c]++;
-            }
-            return counts;
+            return statusCounts.clone();
         }
 
         /** The pixels whose conversion status is {@code status}. */
@@ -220,6 +233,15 @@ public final class MapConversion {
                 }
             }
         }
+        return lifetimeFloorNote(below, likeSeconds);
+    }
+
+    /**
+     * The note of {@link #lifetimeFloorNote(WaferMap)} from its counts: {@code below} pixels with 0 &lt; τ &lt; 1 ns,
+     * {@code likeSeconds} of them between 1 ns and 0.1 s when read as seconds (what a conversion's
+     * {@link TrapDensityConverter.Tally} counts).
+     */
+    public static String lifetimeFloorNote(int below, int likeSeconds) {
         if (below == 0) {
             return "";
         }
@@ -275,12 +297,15 @@ public final class MapConversion {
         if (wanted.stream().noneMatch(q -> ALL.contains(q) && (reference || q != Quantity.LIFETIME_AT_REFERENCE))) {
             throw new IllegalArgumentException("no quantity a conversion produces among " + wanted);
         }
+        byte[] statusCodes = new byte[n];
+        // No warning plane: the kernel counts the pixels of each warning and status in its own pass.
         ConversionOutput out = new ConversionOutput(plane(wanted, Quantity.TRAP_DENSITY, n),
                 plane(wanted, Quantity.TRAP_DENSITY_MIN, n), plane(wanted, Quantity.TRAP_DENSITY_MAX, n),
                 plane(wanted, Quantity.OCCUPANCY, n), plane(wanted, Quantity.SRH_LIFETIME, n),
                 plane(wanted, Quantity.INJECTION, n), reference ? plane(wanted, Quantity.LIFETIME_AT_REFERENCE, n) : null,
-                new byte[n], new byte[n]);
-        converter.convert(lifetime.raster().samples(), lifetime.width(), out, threads);
+                statusCodes, null);
+        TrapDensityConverter.Tally tally = converter.convert(lifetime.raster().samples(), lifetime.width(), out,
+                threads);
 
         ProcessingStep step = convertStep(conditions, defect, settings);
         Map<Quantity, WaferMap> maps = new EnumMap<>(Quantity.class);
@@ -293,26 +318,21 @@ public final class MapConversion {
         put(maps, lifetime, Quantity.SRH_LIFETIME, out.srhLifetimeUs, step);
         put(maps, lifetime, Quantity.INJECTION, out.injection, step);
         put(maps, lifetime, Quantity.LIFETIME_AT_REFERENCE, out.lifetimeAtReferenceUs, step);
-        int warningBits = 0;
-        int[] warningPixels = new int[8];
-        for (int i = 0; i < n; i++) {
-            int bits = out.warnings[i] & 0xFF;
-            warningBits |= bits;
-            for (int b = 0; bits != 0; b++, bits >>>= 1) {
-                warningPixels[b] += bits & 1;
-            }
-        }
         if (wanted.contains(Quantity.STATUS)) {
             float[] status = new float[n];
             for (int i = 0; i < n; i++) {
-                status[i] = out.status[i];
+                status[i] = statusCodes[i];
             }
             maps.put(Quantity.STATUS, lifetime.derive(FloatRaster.wrap(w, h, status), Quantity.STATUS, step));
         }
         Set<ConversionWarning> warnings = EnumSet.noneOf(ConversionWarning.class);
-        warnings.addAll(ConversionWarning.fromMask(warningBits));
+        warnings.addAll(ConversionWarning.fromMask(tally.warningBits()));
         warnings.addAll(converter.conditionWarnings());
-        return new Result(maps, warnings, defect.id(), settings.physics(), out.status, warningPixels);
+        // The floor note concerns an effective-lifetime map as given, not one computed from PL counts.
+        String floorNote = map.quantity() == Quantity.EFFECTIVE_LIFETIME
+                ? lifetimeFloorNote(tally.belowFloor(), tally.belowFloorLikeSeconds()) : "";
+        return new Result(maps, warnings, defect.id(), settings.physics(), statusCodes, tally.warningPixels(),
+                tally.statusCounts(), floorNote);
     }
 
     private static float[] plane(Set<Quantity> wanted, Quantity q, int n) {

@@ -31,6 +31,7 @@ class LifetimeFloorTest {
         assertThat(r.get(Quantity.TRAP_DENSITY).raster().samples()[0]).isNaN();
         assertThat(MapConversion.lifetimeFloorNote(m)).startsWith("3 pixel(s) with a lifetime below 1 ns")
                 .contains("seconds").contains("\"unit\": \"s\"");
+        assertThat(r.lifetimeFloorNote()).isEqualTo(MapConversion.lifetimeFloorNote(m));
         assertThat(r.statusMask(PixelStatus.INVALID).count()).isEqualTo(3);
         assertThat(r.okTrapDensity().raster().samples()).containsExactly(Float.NaN, Float.NaN, Float.NaN,
                 r.get(Quantity.TRAP_DENSITY).raster().samples()[3]);
@@ -41,5 +42,15 @@ class LifetimeFloorTest {
         assertThat(MapConversion.lifetimeFloorNote(map(1e-12f, 1e-13f, 20f))).startsWith("2 pixel(s)")
                 .doesNotContain("seconds");
         assertThat(MapConversion.lifetimeFloorNote(map(0.001f, 20f, Float.NaN))).isEmpty();
+    }
+
+    @Test
+    void theConversionCountsTheNoteInItsOwnPass() {
+        for (WaferMap m : new WaferMap[] {map(1e-12f, 1e-13f, 20f), map(0.001f, 20f, Float.NaN),
+            map(5e-4f, 2e-4f, 1e-9f, -1f, 0f, 300f)}) {
+            MapConversion.Result r = MapConversion.convert(m, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS,
+                    java.util.Set.of(Quantity.TRAP_DENSITY), 2);
+            assertThat(r.lifetimeFloorNote()).isEqualTo(MapConversion.lifetimeFloorNote(m));
+        }
     }
 }

@@ -45,6 +45,22 @@ public final class ConversionOutput {
                 new float[pixels], new float[pixels], new float[pixels], new byte[pixels], new byte[pixels]);
     }
 
+    /** Checks that every non-null plane holds at least {@code n} pixels (a band converted into longer planes). */
+    void checkAtLeast(int n) {
+        Object[] all = {trapDensity, trapDensityMin, trapDensityMax, occupancy, srhLifetimeUs, injection,
+            lifetimeAtReferenceUs};
+        for (Object a : all) {
+            if (a != null && ((float[]) a).length < n) {
+                throw new IllegalArgumentException("output raster has " + ((float[]) a).length
+                        + " pixels but the rows converted reach pixel " + n);
+            }
+        }
+        if ((status != null && status.length < n) || (warnings != null && warnings.length < n)) {
+            throw new IllegalArgumentException("status/warning raster is shorter than the " + n
+                    + " pixels the rows converted reach");
+        }
+    }
+
     void checkLength(int n) {
         Object[] all = {trapDensity, trapDensityMin, trapDensityMax, occupancy, srhLifetimeUs, injection,
             lifetimeAtReferenceUs};

@@ -222,20 +222,23 @@ public final class TrapDensityConverter {
                 px.occupancy, px.lifetimeAtReferenceUs, warnings);
     }
 
-    /** Converts a raster with all available processors. */
-    public void convert(float[] effectiveLifetimeUs, int width, ConversionOutput out) {
-        convert(effectiveLifetimeUs, width, out, Runtime.getRuntime().availableProcessors());
+    /** Converts a raster with all available processors; returns the counts of statuses and warnings. */
+    public Tally convert(float[] effectiveLifetimeUs, int width, ConversionOutput out) {
+        return convert(effectiveLifetimeUs, width, out, Runtime.getRuntime().availableProcessors());
     }
 
     /**
      * Converts a row-major raster of effective lifetimes (µs) in parallel over rows. A NaN sample is a pixel without
      * data (outside the wafer or masked) and gets {@link PixelStatus#NO_DATA}; every other sample gets exactly the
-     * single-pixel result of {@link #convert(double)} (where a NaN lifetime is {@link PixelStatus#INVALID}).
+     * single-pixel result of {@link #convert(double)} (where a NaN lifetime is {@link PixelStatus#INVALID}). Only the
+     * non-null planes of {@code out} are computed. The returned {@link Tally} counts the statuses and per-pixel
+     * warnings of all pixels whether or not {@code out} has status or warning planes; it is the same for any number
+     * of threads, and so are the planes.
      *
      * @param width   raster width in pixels; the length must be a multiple of it
      * @param threads number of threads (1 runs on the calling thread)
      */
-    public void convert(float[] effectiveLifetimeUs, int width, ConversionOutput out, int threads) {
+    public Tally convert(float[] effectiveLifetimeUs, int width, ConversionOutput out, int threads) {
         int n = effectiveLifetimeUs.length;
         if (width <= 0 || n % width != 0) {
             throw new IllegalArgumentException("raster of " + n + " pixels is not a whole number of rows of "
@@ -243,71 +246,268 @@ public final class TrapDensityConverter {
         }
         out.checkLength(n);
         int rows = n / width;
+        Tally total = new Tally();
         if (threads <= 1 || rows < 2) {
-            convertRows(effectiveLifetimeUs, width, out, 0, rows);
-            return;
+            convertRange(effectiveLifetimeUs, 0, n, out, total);
+            return total;
         }
         int blocks = Math.min(rows, threads * 16);
+        Tally[] parts = new Tally[blocks];
         ForkJoinPool pool = new ForkJoinPool(threads);
         try {
-            pool.submit(() -> IntStream.range(0, blocks).parallel().forEach(b -> convertRows(effectiveLifetimeUs,
-                    width, out, (int) ((long) rows * b / blocks), (int) ((long) rows * (b + 1) / blocks)))).join();
+            pool.submit(() -> IntStream.range(0, blocks).parallel().forEach(b -> {
+                Tally t = new Tally();
+                convertRange(effectiveLifetimeUs, (int) ((long) rows * b / blocks) * width,
+                        (int) ((long) rows * (b + 1) / blocks) * width, out, t);
+                parts[b] = t;
+            })).join();
         } finally {
             pool.shutdown();
         }
+        for (Tally t : parts) {
+            total.add(t);
+        }
+        return total;
     }
 
-    private void convertRows(float[] tau, int width, ConversionOutput out, int rowFrom, int rowTo) {
-        Pixel px = new Pixel();
-        for (int i = rowFrom * width, end = rowTo * width; i < end; i++) {
-            float t = tau[i];
-            if (t != t) { // NaN: no data
-                storeNoData(out, i);
+    /**
+     * Converts the rows {@code [rowFrom, rowTo)} of a row-major raster of effective lifetimes (µs) into the same rows
+     * of {@code out}, on the calling thread, and adds their statuses and warnings to {@code tally}: the entry point
+     * for converting a map band by band (strip by strip while it is read, or one band per worker). The planes of
+     * {@code out} are indexed like {@code effectiveLifetimeUs}; they may be as long as the raster or, for a band
+     * converted on its own, as long as the band (then pass the band as its own raster with rows from 0). Each pixel
+     * gets exactly the value {@link #convert(float[], int, ConversionOutput, int)} gives it, so converting a raster
+     * in any bands gives the same planes and, summed, the same tally. Only the non-null planes are computed.
+     *
+     * @throws IllegalArgumentException when the rows do not lie inside the raster or a plane is too short for them
+     */
+    public void convertRows(float[] effectiveLifetimeUs, int width, int rowFrom, int rowTo, ConversionOutput out,
+                            Tally tally) {
+        long from = (long) rowFrom * width;
+        long to = (long) rowTo * width;
+        if (width <= 0 || rowFrom < 0 || rowFrom > rowTo || to > effectiveLifetimeUs.length) {
+            throw new IllegalArgumentException("rows " + rowFrom + " to " + rowTo + " of width " + width
+                    + " do not lie in a raster of " + effectiveLifetimeUs.length + " pixels");
+        }
+        out.checkAtLeast((int) to);
+        convertRange(effectiveLifetimeUs, (int) from, (int) to, out, Checks.notNull(tally, "tally"));
+    }
+
+    /**
+     * Counts of a conversion: pixels by {@link PixelStatus}, pixels by per-pixel {@link ConversionWarning}, and the
+     * pixels whose lifetime is positive but below {@link #LIFETIME_FLOOR_US} (INVALID), with how many of those would
+     * be ordinary lifetimes (1 ns to 0.1 s) if they were seconds read as µs. Mutable, for one thread; add the tallies
+     * of several bands with {@link #add}.
+     */
+    public static final class Tally {
+        private final int[] statusCounts = new int[PixelStatus.values().length];
+        private final int[] warningPixels = new int[Byte.SIZE];
+        private int belowFloor;
+        private int belowFloorLikeSeconds;
+
+        /** Adds the counts of {@code other} to these. */
+        public void add(Tally other) {
+            for (int k = 0; k < statusCounts.length; k++) {
+                statusCounts[k] += other.statusCounts[k];
+            }
+            for (int k = 0; k < warningPixels.length; k++) {
+                warningPixels[k] += other.warningPixels[k];
+            }
+            belowFloor += other.belowFloor;
+            belowFloorLikeSeconds += other.belowFloorLikeSeconds;
+        }
+
+        /** The number of pixels of each status, indexed by {@link PixelStatus#code()} (a copy). */
+        public int[] statusCounts() {
+            return statusCounts.clone();
+        }
+
+        /** The number of pixels of {@code status}. */
+        public int count(PixelStatus status) {
+            return statusCounts[status.code()];
+        }
+
+        /** The number of pixels with each per-pixel warning, indexed by {@link ConversionWarning#ordinal()} (a copy). */
+        public int[] warningPixels() {
+            return warningPixels.clone();
+        }
+
+        /** The union of the per-pixel warnings of all pixels, as a mask of {@link ConversionWarning#bit()}s. */
+        public int warningBits() {
+            int bits = 0;
+            for (int k = 0; k < warningPixels.length; k++) {
+                if (warningPixels[k] > 0) {
+                    bits |= 1 << k;
+                }
+            }
+            return bits;
+        }
+
+        /** Pixels with 0 &lt; τ_eff &lt; {@link #LIFETIME_FLOOR_US} (INVALID). */
+        public int belowFloor() {
+            return belowFloor;
+        }
+
+        /** Of {@link #belowFloor()}, those whose value read as seconds lies in 1 ns … 0.1 s. */
+        public int belowFloorLikeSeconds() {
+            return belowFloorLikeSeconds;
+        }
+    }
+
+    private static final int NOT_SMALL_BIT = ConversionWarning.TRAP_DENSITY_NOT_SMALL.bit();
+    private static final int SURFACE_LIMITED_BIT = ConversionWarning.SURFACE_LIMITED.bit();
+    private static final int LOW_INJECTION_BIT = ConversionWarning.SURFACE_LOW_INJECTION_DIFFUSIVITY.bit();
+    private static final byte OK_CODE = PixelStatus.OK.code();
+    private static final byte BELOW_LIMIT_CODE = PixelStatus.BELOW_LIMIT.code();
+
+    /**
+     * The array kernel over the pixels {@code [from, to)}: the operations of {@link #injectionStage} and
+     * {@link #rateStage} in the same order (so each value is bit-identical to the single-pixel path), with the
+     * per-wafer terms in locals, nothing allocated, the terms of planes that are null not computed, and the statuses
+     * and warnings counted on the way.
+     */
+    private void convertRange(float[] tau, int from, int to, ConversionOutput out, Tally tally) {
+        final float[] ntOut = out.trapDensity;
+        final float[] minOut = out.trapDensityMin;
+        final float[] maxOut = out.trapDensityMax;
+        final float[] occOut = out.occupancy;
+        final float[] srhOut = out.srhLifetimeUs;
+        final float[] dnOut = out.injection;
+        final float[] refOut = out.lifetimeAtReferenceUs;
+        final byte[] statusOut = out.status;
+        final byte[] warnOut = out.warnings;
+        final boolean generation = !fixedInjection;
+        final double g = injectionParameter;
+        final double surface = surfaceRatePerS;
+        final boolean surfaceTerms = surface > 0;
+        final double resolution = detectionResolution;
+        final double limitFactor = trapDensityLimitFactor;
+        final double doping = dopingPerCm3;
+        final double lowInjection = LOW_INJECTION_LIMIT * dopingPerCm3;
+        final boolean reference = hasReference;
+        final double refIntrinsic = referenceIntrinsicRate;
+        final double invRefK = inverseReferenceK;
+        final double sum0 = sumN0P0;
+        final double ka = kA;
+        final double kb = kB;
+        final double kMinAl = kMinA;
+        final double kMinBl = kMinB;
+        final double kMaxAl = kMaxA;
+        final double kMaxBl = kMaxB;
+        final double ftNa = ftNumA;
+        final double ftNb = ftNumB;
+        final double ftDa = ftDenA;
+        final double ftDb = ftDenB;
+        final IntrinsicLifetime intr = intrinsic;
+        final int base = baseWarnings;
+        // The injection terms: constants for fixed injection, per pixel for fixed generation.
+        double dn = generation ? Double.NaN : fixedTerms.dn;
+        double intrinsicRate = generation ? Double.NaN : fixedTerms.intrinsicRate;
+        double k = generation ? Double.NaN : fixedTerms.k;
+        double kMin = generation ? Double.NaN : fixedTerms.kMin;
+        double kMax = generation ? Double.NaN : fixedTerms.kMax;
+        double occupancy = generation ? Double.NaN : fixedTerms.occupancy;
+        int ok = 0;
+        int notSmall = 0;
+        int surfaceLimited = 0;
+        int lowInjectionCount = 0;
+        int skipped = 0;
+        for (int i = from; i < to; i++) {
+            double tauUs = tau[i];
+            if (!(tauUs >= LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY)) {
+                notConverted(tau[i], out, i, tally);
+                skipped++;
                 continue;
             }
-            // evaluate(t, px), with its stages called here: each is small enough for the JIT compiler to inline into
-            // this loop, which it may decline for evaluate as a whole once that is compiled on its own.
-            if (valid(t)) {
-                injectionStage(t, px);
-                rateStage(t, px);
-            } else {
-                invalid(px);
+            double tauS = tauUs * Units.S_PER_US;
+            if (generation) {
+                dn = g * tauS;
+                double inverseSum = 1.0 / (sum0 + dn);
+                intrinsicRate = intr.rateConstantPerS(dn);
+                k = (ka + kb * dn) * inverseSum;
+                if (minOut != null) {
+                    kMin = (kMinAl + kMinBl * dn) * inverseSum;
+                }
+                if (maxOut != null) {
+                    kMax = (kMaxAl + kMaxBl * dn) * inverseSum;
+                }
+                if (occOut != null) {
+                    occupancy = (ftNa + ftNb * dn) / (ftDa + ftDb * dn);
+                }
             }
-            store(out, i, px);
+            double srhRate = 1.0 / tauS - intrinsicRate - surface;
+            double detectableRate = resolution * (intrinsicRate + surface);
+            boolean resolved = srhRate >= detectableRate;
+            double rate = resolved ? srhRate : detectableRate;
+            double nt = k * rate;
+            int isOk = resolved ? 1 : 0;
+            ok += isOk;
+            int small = resolved && nt > limitFactor * Math.min(dn, doping) ? 1 : 0;
+            int limited = surfaceTerms && surface * tauS > 0.5 ? 1 : 0;
+            int lowInj = surfaceTerms && dn > lowInjection ? 1 : 0;
+            notSmall += small;
+            surfaceLimited += limited;
+            lowInjectionCount += lowInj;
+            if (ntOut != null) {
+                ntOut[i] = (float) nt;
+            }
+            if (minOut != null) {
+                minOut[i] = (float) (kMin * rate);
+            }
+            if (maxOut != null) {
+                maxOut[i] = (float) (kMax * rate);
+            }
+            if (occOut != null) {
+                occOut[i] = (float) occupancy;
+            }
+            if (srhOut != null) {
+                srhOut[i] = resolved ? (float) (Units.US_PER_S / srhRate) : Float.POSITIVE_INFINITY;
+            }
+            if (dnOut != null) {
+                dnOut[i] = (float) dn;
+            }
+            if (refOut != null) {
+                refOut[i] = reference ? (float) (Units.US_PER_S / ((resolved ? nt * invRefK : 0) + refIntrinsic
+                        + surface)) : Float.NaN;
+            }
+            if (statusOut != null) {
+                statusOut[i] = resolved ? OK_CODE : BELOW_LIMIT_CODE;
+            }
+            if (warnOut != null) {
+                warnOut[i] = (byte) (base | (small * NOT_SMALL_BIT) | (limited * SURFACE_LIMITED_BIT)
+                        | (lowInj * LOW_INJECTION_BIT));
+            }
         }
+        int converted = to - from - skipped;
+        int below = converted - ok;
+        tally.statusCounts[OK_CODE] += ok;
+        tally.statusCounts[BELOW_LIMIT_CODE] += below;
+        for (int b = 0; b < Byte.SIZE; b++) {
+            if ((base & (1 << b)) != 0) {
+                tally.warningPixels[b] += converted;
+            }
+        }
+        tally.warningPixels[Integer.numberOfTrailingZeros(NOT_SMALL_BIT)] += notSmall;
+        tally.warningPixels[Integer.numberOfTrailingZeros(SURFACE_LIMITED_BIT)] += surfaceLimited;
+        tally.warningPixels[Integer.numberOfTrailingZeros(LOW_INJECTION_BIT)] += lowInjectionCount;
     }
 
-    private static void store(ConversionOutput out, int i, Pixel px) {
-        if (out.trapDensity != null) {
-            out.trapDensity[i] = (float) px.nt;
+    /** A NaN (no data) or invalid sample at {@code i}: NaN in every plane, its status, no warnings, counted. */
+    private static void notConverted(float t, ConversionOutput out, int i, Tally tally) {
+        byte code;
+        if (t != t) {
+            code = PixelStatus.NO_DATA.code();
+        } else {
+            code = PixelStatus.INVALID.code();
+            if (t > 0 && t < LIFETIME_FLOOR_US) {
+                tally.belowFloor++;
+                double asSeconds = t * 1e6;
+                if (asSeconds >= LIFETIME_FLOOR_US && asSeconds <= 1e5) {
+                    tally.belowFloorLikeSeconds++;
+                }
+            }
         }
-        if (out.trapDensityMin != null) {
-            out.trapDensityMin[i] = (float) px.ntMin;
-        }
-        if (out.trapDensityMax != null) {
-            out.trapDensityMax[i] = (float) px.ntMax;
-        }
-        if (out.occupancy != null) {
-            out.occupancy[i] = (float) px.occupancy;
-        }
-        if (out.srhLifetimeUs != null) {
-            out.srhLifetimeUs[i] = (float) px.srhLifetimeUs;
-        }
-        if (out.injection != null) {
-            out.injection[i] = (float) px.dn;
-        }
-        if (out.lifetimeAtReferenceUs != null) {
-            out.lifetimeAtReferenceUs[i] = (float) px.lifetimeAtReferenceUs;
-        }
-        if (out.status != null) {
-            out.status[i] = px.status;
-        }
-        if (out.warnings != null) {
-            out.warnings[i] = px.warnings;
-        }
-    }
-
-    private static void storeNoData(ConversionOutput out, int i) {
+        tally.statusCounts[code]++;
         float nan = Float.NaN;
         if (out.trapDensity != null) {
             out.trapDensity[i] = nan;
@@ -331,7 +531,7 @@ public final class TrapDensityConverter {
             out.lifetimeAtReferenceUs[i] = nan;
         }
         if (out.status != null) {
-            out.status[i] = PixelStatus.NO_DATA.code();
+            out.status[i] = code;
         }
         if (out.warnings != null) {
             out.warnings[i] = 0;
