@@ -379,7 +379,7 @@ public final class TrapDensityConverter {
         final boolean generation = !fixedInjection;
         final double g = injectionParameter;
         final double surface = surfaceRatePerS;
-        final boolean surfaceTerms = surface > 0;
+        final int surfaceFlag = surface > 0 ? 1 : 0;
         final double resolution = detectionResolution;
         final double limitFactor = trapDensityLimitFactor;
         final double doping = dopingPerCm3;
@@ -437,14 +437,17 @@ public final class TrapDensityConverter {
             }
             double srhRate = 1.0 / tauS - intrinsicRate - surface;
             double detectableRate = resolution * (intrinsicRate + surface);
-            boolean resolved = srhRate >= detectableRate;
-            double rate = resolved ? srhRate : detectableRate;
+            // The decisions below are taken without branches, since on a map they fall either way at random and a
+            // mispredicted branch costs more than the whole pixel: for a converted pixel every value compared is
+            // finite (τ_eff < 3.5e32 s, G ≤ 1e24 cm^-3 s^-1) and each right-hand side is > 0, so a > b exactly when
+            // b − a is negative (it is +0 when they are equal), i.e. has its sign bit set.
+            int below = signBit(srhRate - detectableRate); // 1: BELOW_LIMIT, 0: OK (srhRate >= detectableRate)
+            double rate = select(below, srhRate, detectableRate);
             double nt = k * rate;
-            int isOk = resolved ? 1 : 0;
-            ok += isOk;
-            int small = resolved && nt > limitFactor * Math.min(dn, doping) ? 1 : 0;
-            int limited = surfaceTerms && surface * tauS > 0.5 ? 1 : 0;
-            int lowInj = surfaceTerms && dn > lowInjection ? 1 : 0;
+            ok += 1 - below;
+            int small = (1 - below) & signBit(limitFactor * (dn <= doping ? dn : doping) - nt);
+            int limited = signBit(0.5 - surface * tauS);
+            int lowInj = surfaceFlag & signBit(lowInjection - dn);
             notSmall += small;
             surfaceLimited += limited;
             lowInjectionCount += lowInj;
@@ -461,17 +464,17 @@ public final class TrapDensityConverter {
                 occOut[i] = (float) occupancy;
             }
             if (srhOut != null) {
-                srhOut[i] = resolved ? (float) (Units.US_PER_S / srhRate) : Float.POSITIVE_INFINITY;
+                srhOut[i] = (float) select(below, Units.US_PER_S / srhRate, Double.POSITIVE_INFINITY);
             }
             if (dnOut != null) {
                 dnOut[i] = (float) dn;
             }
             if (refOut != null) {
-                refOut[i] = reference ? (float) (Units.US_PER_S / ((resolved ? nt * invRefK : 0) + refIntrinsic
+                refOut[i] = reference ? (float) (Units.US_PER_S / (select(below, nt * invRefK, 0) + refIntrinsic
                         + surface)) : Float.NaN;
             }
             if (statusOut != null) {
-                statusOut[i] = resolved ? OK_CODE : BELOW_LIMIT_CODE;
+                statusOut[i] = (byte) (OK_CODE + below * (BELOW_LIMIT_CODE - OK_CODE));
             }
             if (warnOut != null) {
                 warnOut[i] = (byte) (base | (small * NOT_SMALL_BIT) | (limited * SURFACE_LIMITED_BIT)
@@ -490,6 +493,17 @@ public final class TrapDensityConverter {
         tally.warningPixels[Integer.numberOfTrailingZeros(NOT_SMALL_BIT)] += notSmall;
         tally.warningPixels[Integer.numberOfTrailingZeros(SURFACE_LIMITED_BIT)] += surfaceLimited;
         tally.warningPixels[Integer.numberOfTrailingZeros(LOW_INJECTION_BIT)] += lowInjectionCount;
+    }
+
+    /** 1 when {@code x} is negative (or −0), else 0: the sign bit, read without a branch. */
+    private static int signBit(double x) {
+        return (int) (Double.doubleToRawLongBits(x) >>> 63);
+    }
+
+    /** {@code a} when {@code pickB} is 0, {@code b} when it is 1, exactly and without a branch. */
+    private static double select(int pickB, double a, double b) {
+        long mask = -(long) pickB;
+        return Double.longBitsToDouble((Double.doubleToRawLongBits(a) & ~mask) | (Double.doubleToRawLongBits(b) & mask));
     }
 
     /** A NaN (no data) or invalid sample at {@code i}: NaN in every plane, its status, no warnings, counted. */
