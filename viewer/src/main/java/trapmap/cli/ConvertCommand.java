@@ -139,7 +139,7 @@ final class ConvertCommand implements Callable<Integer> {
         return Exit.OK;
     }
 
-    /** A conversion and the input's lifetime-floor note ({@link MapConversion#lifetimeFloorNote}). */
+    /** A conversion and the input's lifetime-floor note ({@link MapConversion.Result#lifetimeFloorNote()}). */
     private record Converted(MapConversion.Result result, String floorNote) {
     }
 
@@ -150,9 +150,10 @@ final class ConvertCommand implements Callable<Integer> {
     private Converted convertInput(Defect d, trapmap.maps.model.Quantity wanted) throws MapFormatException {
         WaferMap map = MapInput.page(input, page);
         WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
-        String floor = MapConversion.lifetimeFloorNote(withConditions);
-        return new Converted(MapConversion.convert(withConditions, d, conditions.settings(),
-                java.util.EnumSet.of(wanted)), floor);
+        // The note is counted in the conversion's pass over the pixels (no scan of its own).
+        MapConversion.Result result = MapConversion.convert(withConditions, d, conditions.settings(),
+                java.util.EnumSet.of(wanted));
+        return new Converted(result, result.lifetimeFloorNote());
     }
 
     private void report(MapConversion.Result result, WaferMap out, String floor) {
