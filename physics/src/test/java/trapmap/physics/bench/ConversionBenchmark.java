@@ -27,7 +27,7 @@ import trapmap.physics.material.Doping;
 /**
  * Throughput of the array conversion {@link TrapDensityConverter#convert(float[], int, ConversionOutput, int)} on a
  * 4096×4096 lifetime map: interstitial iron in 1e16 cm^-3 p-type silicon, 180 µm thick with S = 10 cm/s, every
- * output raster requested. Lifetimes are log-uniform in 1–1000 µs (fixed seed) with about 1 % NaN pixels.
+ * output raster requested or the trap density and status only. Lifetimes are log-uniform in 1–1000 µs (fixed seed) with about 1 % NaN pixels.
  * <p>
  * One operation is one pixel ({@link OperationsPerInvocation}), so the score is nanoseconds per pixel and the GC
  * profiler's {@code gc.alloc.rate.norm} is bytes allocated per pixel. Run with {@code scripts/bench-physics}.
@@ -51,6 +51,13 @@ public class ConversionBenchmark {
     @Param({"fixed", "generation"})
     public String injection;
 
+    /**
+     * {@code all}: every output plane; {@code density}: the trap density with the status plane only (what
+     * {@code convert} of one quantity and {@code MapConversion} with one wanted quantity ask for).
+     */
+    @Param({"all", "density"})
+    public String outputs;
+
     /** Worker threads of the conversion. */
     @Param({"1", "2"})
     public int threads;
@@ -62,7 +69,13 @@ public class ConversionBenchmark {
     @Setup(Level.Trial)
     public void setUp() {
         lifetimesUs = lifetimes(PIXELS, 20240601L);
-        out = ConversionOutput.allocateAll(PIXELS);
+        ConversionOutput all = ConversionOutput.allocateAll(PIXELS);
+        out = switch (outputs) {
+            case "all" -> all;
+            case "density" -> new ConversionOutput(all.trapDensity, null, null, null, null, null, null, all.status,
+                    null);
+            default -> throw new IllegalArgumentException("outputs must be all or density: " + outputs);
+        };
         Injection inj = switch (injection) {
             case "fixed" -> Injection.fixed(1e14);
             case "generation" -> Injection.generation(1e19);

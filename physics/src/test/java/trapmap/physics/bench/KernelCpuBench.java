@@ -17,7 +17,7 @@ import trapmap.physics.material.Doping;
  * ({@link ThreadMXBean#getCurrentThreadCpuTime()}), so that the figures hold on a loaded machine where JMH's wall
  * clock does not. The map and conditions are those of {@link ConversionBenchmark} (4096² log-uniform 1-1000 µs, 1 %
  * NaN, fe-i, p 1e16 cm^-3, 180 µm, S = 10 cm/s); the cases are fixed injection (1e14 cm^-3) and fixed generation
- * (1e19 cm^-3 s^-1), each writing the trap density with status and warning bytes only ({@code density}, what
+ * (1e19 cm^-3 s^-1), each writing the trap density and the status bytes only ({@code density}, what
  * {@code convert} of one quantity asks for), and every output ({@code all}). Output arrays are allocated once and
  * reused. Prints the median and the minimum of {@code reps} runs after {@code reps} warm-up runs, in ns per pixel of CPU
  * time (the minimum is the figure least disturbed by other work on the machine).
@@ -36,7 +36,7 @@ public final class KernelCpuBench {
         float[] tau = ConversionBenchmark.lifetimes(n, 20240601L);
         ConversionOutput all = ConversionOutput.allocateAll(n);
         ConversionOutput density = new ConversionOutput(all.trapDensity, null, null, null, null, null, null,
-                all.status, all.warnings);
+                all.status, null);
         ThreadMXBean mx = ManagementFactory.getThreadMXBean();
         String[] injections = args.length > 2 ? new String[] {args[2]} : new String[] {"fixed", "generation"};
         String[] planes = args.length > 3 ? new String[] {args[3]} : new String[] {"density", "all"};
