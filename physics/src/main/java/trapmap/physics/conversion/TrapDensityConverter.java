@@ -36,9 +36,11 @@ import trapmap.shared.units.Units;
  * K for the nominal defect and both bounds, which share the denominator n0 + p0 + Δn. A pixel then costs a few
  * arithmetic operations (fixed injection) or, for fixed generation, the intrinsic rate (two powers by table and
  * series, two square roots, see {@link IntrinsicLifetime}) and one division per rational term. The rearranged forms
- * agree with the literal ones to a few units in the last place. The single-pixel and array paths run the same
- * kernel, so their results agree exactly (array results are the single-pixel values rounded to float). Immutable and
- * thread-safe.
+ * agree with the literal ones to a few units in the last place. The array kernel runs the single-pixel path's
+ * operations in the same order, so their results agree exactly (array results are the single-pixel values rounded to
+ * float); it computes only the planes asked for, takes its per-pixel decisions without branches, and counts statuses
+ * and warnings on the way ({@link Tally}). Rasters convert whole ({@link #convert(float[], int, ConversionOutput,
+ * int)}, over threads) or band by band ({@link #convertRows}). Immutable and thread-safe.
  */
 public final class TrapDensityConverter {
     /**
@@ -552,7 +554,7 @@ public final class TrapDensityConverter {
         }
     }
 
-    /** The kernel's working values and results for one pixel; each worker reuses one instance. */
+    /** The working values and results of one pixel on the single-pixel path. */
     private static final class Pixel {
         // Injection terms.
         /** Δn, cm^-3. */
@@ -585,8 +587,8 @@ public final class TrapDensityConverter {
     }
 
     /**
-     * The kernel shared by both paths: fills {@code px} for an effective lifetime of {@code tauUs} µs. The array
-     * loop runs the same stages.
+     * The single-pixel kernel: fills {@code px} for an effective lifetime of {@code tauUs} µs. The array kernel
+     * ({@code convertRange}) runs the same operations in the same order.
      */
     private void evaluate(double tauUs, Pixel px) {
         if (valid(tauUs)) {
