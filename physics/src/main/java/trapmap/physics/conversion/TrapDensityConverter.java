@@ -447,7 +447,8 @@ public final class TrapDensityConverter {
             double rate = select(below, srhRate, detectableRate);
             double nt = k * rate;
             ok += 1 - below;
-            int small = (1 - below) & signBit(limitFactor * (dn <= doping ? dn : doping) - nt);
+            double smaller = select(signBit(doping - dn), dn, doping); // min(Δn, N_dop); Math.min is slow in C2
+            int small = (1 - below) & signBit(limitFactor * smaller - nt);
             int limited = signBit(0.5 - surface * tauS);
             int lowInj = surfaceFlag & signBit(lowInjection - dn);
             notSmall += small;
