@@ -5,6 +5,7 @@ import java.nio.file.Path;
 import java.util.List;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.MapFormatException;
+import trapmap.maps.io.MapStream;
 import trapmap.maps.model.WaferMap;
 
 /** Reading maps for the map commands: one page of a file, with messages that name the file. */
@@ -28,6 +29,18 @@ final class MapInput {
                     + (pages.size() == 1 ? "" : "s") + ", so --page " + page + " does not exist");
         }
         return pages.get(page - 1);
+    }
+
+    /**
+     * Page {@code page} (1-based) of {@code file} band by band: straight from the file where {@link MapStream#open}
+     * can, else read whole ({@link #page}).
+     *
+     * @throws MapFormatException as {@link #page}
+     */
+    static MapStream stream(Path file, int page) throws MapFormatException {
+        PROCESSING.set(file);
+        MapStream s = page == 1 ? MapStream.open(file) : null;
+        return s != null ? s : MapStream.of(page(file, page));
     }
 
     /** The map file read last by the command running in this thread (the one being processed), or null. */
