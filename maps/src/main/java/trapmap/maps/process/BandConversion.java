@@ -117,11 +117,18 @@ public final class BandConversion {
      *                     band)
      */
     public Summary run(MapStream in, Sink sink, int threads) throws IOException {
+        return run(in, sink, threads, MapStream.bandRows(width));
+    }
+
+    /** {@link #run(MapStream, Sink, int)} in bands of {@code rows} rows (the last may be shorter). */
+    public Summary run(MapStream in, Sink sink, int threads, int rows) throws IOException {
+        if (rows < 1) {
+            throw new IllegalArgumentException("bands of " + rows + " rows");
+        }
         if (in.width() != width || in.height() != output.height()) {
             throw new IllegalArgumentException("the stream is " + in.width() + "x" + in.height() + ", the conversion "
                     + width + "x" + output.height());
         }
-        int rows = MapStream.bandRows(width);
         int bands = (in.height() + rows - 1) / rows;
         int n = Math.max(1, Math.min(threads, bands));
         AtomicInteger next = new AtomicInteger();
