@@ -32,15 +32,14 @@ final class MapInput {
     }
 
     /**
-     * Page {@code page} (1-based) of {@code file} band by band: straight from the file where {@link MapStream#open}
-     * can, else read whole ({@link #page}).
+     * Page {@code page} (1-based) of {@code file} band by band: the first page through {@link MapStream#open}
+     * (straight from the file where it can), another one read whole ({@link #page}).
      *
      * @throws MapFormatException as {@link #page}
      */
     static MapStream stream(Path file, int page) throws MapFormatException {
         PROCESSING.set(file);
-        MapStream s = page == 1 ? MapStream.open(file) : null;
-        return s != null ? s : MapStream.of(page(file, page));
+        return page == 1 ? MapStream.open(file) : MapStream.of(page(file, page));
     }
 
     /** The map file read last by the command running in this thread (the one being processed), or null. */

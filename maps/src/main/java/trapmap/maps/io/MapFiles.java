@@ -190,10 +190,19 @@ public final class MapFiles {
     }
 
     private static List<WaferMap> readChecked(Path file, String name, ReadOptions options) throws IOException {
-        Opened o = open(file, name, options);
+        return readOpened(file, name, options, open(file, name, options), null);
+    }
+
+    /**
+     * The maps of a file that passed {@link #open}; {@code scanned} are its TIFF pages when {@link TiffHeader#scan}
+     * has already checked them, else null.
+     */
+    static List<WaferMap> readOpened(Path file, String name, ReadOptions options, Opened o,
+                                     List<TiffHeader.Page> scanned) throws IOException {
         List<WaferMap> maps = new ArrayList<>();
         if (o.format() == Format.TIFF) {
-            List<TiffMaps.Decoded> pages = TiffMaps.read(file, name, o.size(), options);
+            List<TiffMaps.Decoded> pages = scanned != null ? TiffMaps.read(file, name, scanned)
+                    : TiffMaps.read(file, name, o.size(), options);
             for (int i = 0; i < pages.size(); i++) {
                 TiffMaps.Decoded d = pages.get(i);
                 MapBuilder.Raw raw = tiffRaw(d.page(), d.samples(), d.decoder(), d.embedded(), o.source(), i,

@@ -13,8 +13,8 @@ import trapmap.maps.model.WaferMap;
 /**
  * A map read band by band: its header first, then any rows on demand, so that a command that treats pixels one by
  * one (a conversion) holds a few bands instead of the whole map. A single-page TIFF file of uncompressed 32-bit float
- * strips is read straight from the file ({@link #open}); every other map is read whole by {@link MapFiles#read} and
- * handed out in bands ({@link #of}). Both give the samples and header {@link MapFiles#read} gives, bit for bit: the
+ * strips is read straight from the file ({@link #open}); every other map is read whole, as {@link MapFiles#read}
+ * reads it, and handed out in bands ({@link #of}). Both give the samples and header {@link MapFiles#read} gives, bit for bit: the
  * file passes the same checks first, and each band goes through the same per-sample steps (no-data value, unit).
  * Bands may be read from several threads at once, each through its own {@link #reader}.
  */
@@ -42,10 +42,10 @@ public final class MapStream implements AutoCloseable {
     }
 
     /**
-     * The map in {@code file} read band by band, when it is a single-page TIFF file of uncompressed 32-bit float
-     * strips; null for every other map (read those whole with {@link MapFiles#read} and use {@link #of}). The file
-     * passes every check {@link MapFiles#read} makes before its samples are read; a map whose sidecar names a no-data
-     * value is read once more here, to count those pixels for its history.
+     * The map in {@code file} (its first page), read band by band when it is a single-page TIFF file of uncompressed
+     * 32-bit float strips, else read whole as {@link MapFiles#read} reads it (its structure checked once, its blocks
+     * decoded once). The file passes every check {@link MapFiles#read} makes before its samples are read; a map whose
+     * sidecar names a no-data value is read once more here, to count those pixels for its history.
      *
      * @throws MapFormatException for any reason the file cannot be read, naming file, place and unit
      */
@@ -56,13 +56,14 @@ public final class MapStream implements AutoCloseable {
         try {
             MapFiles.Opened o = MapFiles.open(file, name, options);
             if (o.format() != MapFiles.Format.TIFF) {
-                return null;
+                return of(MapFiles.readOpened(file, name, options, o, null).get(0));
             }
             ch = FileChannel.open(file, StandardOpenOption.READ);
             List<TiffHeader.Page> pages = TiffHeader.scan(ch, o.size(), name, options);
             if (pages.size() != 1 || pages.get(0).strips() == null) {
                 ch.close();
-                return null;
+                ch = null;
+                return of(MapFiles.readOpened(file, name, options, o, pages).get(0)); // checked once, decoded once
             }
             TiffHeader.Page p = pages.get(0);
             MapBuilder.Raw raw = MapFiles.tiffRaw(p, null, "direct", TiffMaps.embedded(p, name), o.source(), 0, 1);
@@ -82,6 +83,9 @@ public final class MapStream implements AutoCloseable {
             throw new MapFormatException(name, null, "cannot be read (" + e.getMessage() + ")", "", e);
         } catch (RuntimeException e) {
             throw new MapFormatException(name, null, "unexpected failure while reading (" + e + ")", "", e);
+        } catch (OutOfMemoryError e) {
+            throw new MapFormatException(name, null, "not enough memory to read the file; give Java more memory"
+                    + " (-Xmx) or lower ReadOptions.maxPixels", "", e);
         } finally {
             if (ch != null) {
                 try {

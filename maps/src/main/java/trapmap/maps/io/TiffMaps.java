@@ -73,6 +73,11 @@ final class TiffMaps {
         } catch (IOException e) {
             throw new MapFormatException(name, null, "cannot be read (" + e.getMessage() + ")", "", e);
         }
+        return read(file, name, pages);
+    }
+
+    /** The pages of {@code file}, already scanned and checked by {@link TiffHeader#scan}. */
+    static List<Decoded> read(Path file, String name, List<TiffHeader.Page> pages) throws MapFormatException {
         List<Decoded> out = new ArrayList<>(pages.size());
         ImageReader jdk = null;
         ImageReader fallback = null;

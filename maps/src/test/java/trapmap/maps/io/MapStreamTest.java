@@ -119,8 +119,7 @@ class MapStreamTest {
 
     /** The stream of page 1, as the convert command opens it. */
     private static MapStream stream(Path f) throws IOException {
-        MapStream s = MapStream.open(f);
-        return s != null ? s : MapStream.of(MapFiles.read(f).get(0));
+        return MapStream.open(f);
     }
 
     private static float[] bandByBand(MapStream s, int rows) throws IOException {
@@ -258,6 +257,20 @@ class MapStreamTest {
         }
         assertThat(message).contains("strip 8 of 8").contains("truncated");
         assertThatThrownBy(() -> MapStream.open(cut)).isInstanceOf(MapFormatException.class).hasMessage(message);
+        Path deflated = write("deflate strips");
+        byte[] d = Files.readAllBytes(deflated);
+        java.util.Arrays.fill(d, d.length - 60, d.length - 20, (byte) 0xFF); // scrambles the last strip
+        Files.write(deflated, d);
+        String corrupt;
+        try {
+            MapFiles.read(deflated);
+            throw new AssertionError("read");
+        } catch (MapFormatException e) {
+            corrupt = e.getMessage();
+        }
+        assertThat(corrupt).contains("strip 8 of 8").contains("Deflate");
+        assertThatThrownBy(() -> MapStream.open(deflated)).isInstanceOf(MapFormatException.class)
+                .hasMessage(corrupt);
         Path empty = dir.resolve("empty.tif");
         Files.write(empty, new byte[0]);
         assertThatThrownBy(() -> MapStream.open(empty)).hasMessage(empty + ": is empty");
