@@ -14,8 +14,9 @@ import trapmap.maps.model.WaferMap;
  * A map read band by band: its header first, then any rows on demand, so that a command that treats pixels one by
  * one (a conversion) holds a few bands instead of the whole map. A single-page TIFF file of uncompressed 32-bit float
  * strips is read straight from the file ({@link #open}); every other map is read whole, as {@link MapFiles#read}
- * reads it, and handed out in bands ({@link #of}). Both give the samples and header {@link MapFiles#read} gives, bit for bit: the
- * file passes the same checks first, and each band goes through the same per-sample steps (no-data value, unit).
+ * reads it, and handed out in bands ({@link #of}). Both give the samples and header {@link MapFiles#read} gives, bit
+ * for bit: the file passes the same checks first, and each band goes through the same per-sample steps (no-data
+ * value, unit).
  * Bands may be read from several threads at once, each through its own {@link #reader}.
  */
 public final class MapStream implements AutoCloseable {
