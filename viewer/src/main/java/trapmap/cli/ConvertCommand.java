@@ -14,8 +14,13 @@ import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
+import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.MapFormatException;
+import trapmap.maps.io.MapStream;
+import trapmap.maps.io.TiffRowWriter;
+import trapmap.maps.model.MapHeader;
 import trapmap.maps.model.WaferMap;
+import trapmap.maps.process.BandConversion;
 import trapmap.maps.process.MapConversion;
 import trapmap.physics.conversion.ConversionWarning;
 import trapmap.physics.conversion.PixelStatus;
@@ -96,10 +101,43 @@ final class ConvertCommand implements Callable<Integer> {
             throw new InputException("--quantity lifetime-at-reference needs --reference-injection (Δn in cm^-3)");
         }
         Defect d = DefectCatalog.load(defectFile).find(defect);
+        if (MapFiles.formatOf(output) == MapFiles.Format.TIFF) {
+            return streamed(d, wanted);
+        }
         Converted converted = convertInput(d, wanted);
         WaferMap out = converted.result().get(wanted);
         MapInput.write(out, output);
-        report(converted.result(), out, converted.floorNote());
+        MapConversion.Result r = converted.result();
+        report(r.statusCounts(), r.warnings(), r.defectId(), MapHeader.of(out), converted.floorNote());
+        return Exit.OK;
+    }
+
+    /**
+     * Converts to a TIFF file band by band ({@link BandConversion}): the output is the one the whole-map conversion
+     * writes, byte for byte, while only a few bands of rows are in memory (when the input can be read band by band,
+     * see {@link MapStream#open}; else the input alone is whole).
+     */
+    private int streamed(Defect d, trapmap.maps.model.Quantity wanted) throws MapFormatException {
+        try (MapStream in = MapInput.stream(input, page)) {
+            MapHeader header = in.header().withConditions(conditions.applyTo(in.header().conditions()));
+            BandConversion conversion = BandConversion.of(header, d, conditions.settings(), wanted);
+            BandConversion.Summary[] summary = new BandConversion.Summary[1];
+            try {
+                TiffRowWriter.write(output, conversion.output(), out -> summary[0] = conversion.run(in, out::write,
+                        Runtime.getRuntime().availableProcessors()));
+            } catch (MapFormatException e) {
+                throw e; // the input's fault, found while its bands were read
+            } catch (java.io.IOException e) {
+                throw new MapInput.OutputException(output + ": cannot write: " + Flags.oneLine(e.getMessage()), e);
+            }
+            report(summary[0].statusCounts(), summary[0].warnings(), d.id(), conversion.output(),
+                    summary[0].floorNote());
+        } catch (java.io.IOException e) {
+            if (e instanceof MapFormatException m) {
+                throw m;
+            }
+            throw new MapFormatException(input.toString(), null, "cannot be read (" + e.getMessage() + ")", "", e);
+        }
         return Exit.OK;
     }
 
@@ -156,8 +194,8 @@ final class ConvertCommand implements Callable<Integer> {
         return new Converted(result, result.lifetimeFloorNote());
     }
 
-    private void report(MapConversion.Result result, WaferMap out, String floor) {
-        int[] counts = result.statusCounts();
+    private void report(int[] counts, java.util.Set<ConversionWarning> conversionWarnings, String defectId,
+                        MapHeader out, String floor) {
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("input", input.toString());
         m.put("output", output.toString());
@@ -165,7 +203,7 @@ final class ConvertCommand implements Callable<Integer> {
         m.put("unit", out.quantity().unit());
         m.put("width", out.width());
         m.put("height", out.height());
-        m.put("defect", result.defectId());
+        m.put("defect", defectId);
         Map<String, Integer> byStatus = new LinkedHashMap<>();
         List<String> pixels = new ArrayList<>();
         for (PixelStatus s : PixelStatus.values()) {
@@ -177,7 +215,7 @@ final class ConvertCommand implements Callable<Integer> {
         }
         m.put("pixels_by_status", byStatus);
         List<String> warnings = new ArrayList<>();
-        for (ConversionWarning w : result.warnings()) {
+        for (ConversionWarning w : conversionWarnings) {
             warnings.add(w.name() + ": " + w.message());
         }
         if (!floor.isEmpty()) {
@@ -191,7 +229,7 @@ final class ConvertCommand implements Callable<Integer> {
         } else {
             stdout.printf(Locale.ROOT, "wrote %s: %s (%s) of %s, %d x %d pixels%n", output,
                     out.quantity().key(), out.quantity().unit().isEmpty() ? "no unit" : out.quantity().unit(),
-                    result.defectId(), out.width(), out.height());
+                    defectId, out.width(), out.height());
             stdout.println("pixels: " + String.join(", ", pixels));
             warnings.forEach(w -> stdout.println("warning: " + w));
             stdout.println("caution: " + Calculation.CAUTION);

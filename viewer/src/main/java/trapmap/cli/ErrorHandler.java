@@ -94,12 +94,26 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
         }
         String name = file == null ? "the input" : file.toString();
         long perPixel = cmd.getCommandName().equals("inspect") ? MapMemory.INSPECTION_BYTES_PER_PIXEL
-                : MapMemory.MAP_BYTES_PER_PIXEL;
+                : cmd.getCommandName().equals("convert") && tiffOutput(parseResult)
+                ? MapMemory.STREAMED_CONVERT_BYTES_PER_PIXEL : MapMemory.MAP_BYTES_PER_PIXEL;
         print(cmd, MapMemory.outOfMemory(name, file == null ? null : MapMemory.estimate(file), perPixel));
         if (System.getenv("TRAPMAP_DEBUG") != null) {
             error.printStackTrace(cmd.getErr());
         }
         return Exit.INTERNAL_ERROR;
+    }
+
+    /** True when the command that ran writes a TIFF file with {@code -o} (convert then streams its bands). */
+    private static boolean tiffOutput(ParseResult parseResult) {
+        if (parseResult == null) {
+            return false;
+        }
+        ParseResult last = parseResult;
+        while (last.hasSubcommand()) {
+            last = last.subcommand();
+        }
+        Object o = last.matchedOptionValue("-o", null);
+        return o instanceof Path p && trapmap.maps.io.MapFiles.formatOf(p) == trapmap.maps.io.MapFiles.Format.TIFF;
     }
 
     /** The first file among the positional arguments of the command that ran, or null. */

@@ -5,6 +5,7 @@ import java.nio.file.Path;
 import java.util.List;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.MapFormatException;
+import trapmap.maps.io.MapStream;
 import trapmap.maps.model.WaferMap;
 
 /** Reading maps for the map commands: one page of a file, with messages that name the file. */
@@ -28,6 +29,17 @@ final class MapInput {
                     + (pages.size() == 1 ? "" : "s") + ", so --page " + page + " does not exist");
         }
         return pages.get(page - 1);
+    }
+
+    /**
+     * Page {@code page} (1-based) of {@code file} band by band: the first page through {@link MapStream#open}
+     * (straight from the file where it can), another one read whole ({@link #page}).
+     *
+     * @throws MapFormatException as {@link #page}
+     */
+    static MapStream stream(Path file, int page) throws MapFormatException {
+        PROCESSING.set(file);
+        return page == 1 ? MapStream.open(file) : MapStream.of(page(file, page));
     }
 
     /** The map file read last by the command running in this thread (the one being processed), or null. */

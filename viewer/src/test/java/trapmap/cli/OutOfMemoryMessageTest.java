@@ -29,6 +29,8 @@ class OutOfMemoryMessageTest {
     static final class Hungry implements Callable<Integer> {
         @Parameters(index = "0")
         Path input;
+        @picocli.CommandLine.Option(names = "-o")
+        Path output;
         boolean wrapped;
 
         @Override
@@ -41,7 +43,7 @@ class OutOfMemoryMessageTest {
         }
     }
 
-    private String run(Hungry command, Path map) {
+    private String run(Hungry command, Path map, String... more) {
         StringWriter err = new StringWriter();
         CommandLine cl = new CommandLine(command);
         ErrorHandler errors = new ErrorHandler();
@@ -49,7 +51,10 @@ class OutOfMemoryMessageTest {
         cl.setOut(new PrintWriter(new StringWriter(), true));
         cl.setExecutionExceptionHandler(errors);
         cl.setExecutionStrategy(errors);
-        assertThat(cl.execute(map.toString())).isEqualTo(Exit.INTERNAL_ERROR);
+        String[] args = new String[more.length + 1];
+        args[0] = map.toString();
+        System.arraycopy(more, 0, args, 1, more.length);
+        assertThat(cl.execute(args)).isEqualTo(Exit.INTERNAL_ERROR);
         return err.toString();
     }
 
@@ -77,5 +82,15 @@ class OutOfMemoryMessageTest {
         String err = run(h, f);
         assertThat(err.lines()).hasSize(1);
         assertThat(err).startsWith("convert: out of memory while processing " + f);
+    }
+
+    @Test
+    void aConvertToTiffIsEstimatedByItsInputAloneSinceItStreamsItsBands() throws Exception {
+        Path f = map();
+        // 300 x 200 pixels: 4 bytes each (the input) to a .tif, 24 each (whole-map conversion) to a .csv
+        assertThat(run(new Hungry(), f, "-o", dir.resolve("out.tif").toString()))
+                .contains("300×200 pixels need about 1 MB;");
+        assertThat(run(new Hungry(), f, "-o", dir.resolve("out.csv").toString()))
+                .contains("300×200 pixels need about 2 MB;");
     }
 }

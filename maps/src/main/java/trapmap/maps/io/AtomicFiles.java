@@ -10,11 +10,14 @@ import java.nio.file.StandardOpenOption;
 import java.nio.file.attribute.PosixFilePermission;
 import java.nio.file.attribute.PosixFilePermissions;
 import java.util.Set;
+import java.util.concurrent.ConcurrentHashMap;
+import java.util.concurrent.atomic.AtomicBoolean;
 
 /**
  * Writes a file so that readers see either the old content or the complete new one: the content goes to a
  * temporary file in the target's directory, which is flushed to disk and then renamed over the target in one
- * step. On failure the temporary file is removed and the target is untouched.
+ * step. On failure the temporary file is removed and the target is untouched; when the program is stopped while
+ * writing (Ctrl-C, SIGTERM), a shutdown hook removes the temporary files still being written.
  */
 public final class AtomicFiles {
     private static final Set<PosixFilePermission> DEFAULT_PERMISSIONS = PosixFilePermissions.fromString("rw-r--r--");
@@ -25,7 +28,34 @@ public final class AtomicFiles {
         void writeTo(Path file) throws IOException;
     }
 
+    /** Temporary files being written, removed by {@link #HOOK} when the program stops before they are done. */
+    private static final Set<Path> PENDING = ConcurrentHashMap.newKeySet();
+    private static final Thread HOOK = new Thread(AtomicFiles::removePending, "trapmap-atomic-files-cleanup");
+    private static final AtomicBoolean HOOKED = new AtomicBoolean();
+
     private AtomicFiles() {
+    }
+
+    /** Removes the temporary files still being written (what the shutdown hook does). */
+    static void removePending() {
+        for (Path p : PENDING) {
+            try {
+                Files.deleteIfExists(p);
+            } catch (IOException | RuntimeException e) {
+                // best effort while the program stops
+            }
+        }
+    }
+
+    private static void track(Path tmp) {
+        if (HOOKED.compareAndSet(false, true)) {
+            try {
+                Runtime.getRuntime().addShutdownHook(HOOK);
+            } catch (IllegalStateException e) {
+                // already stopping: the finally block below removes the file if it gets there
+            }
+        }
+        PENDING.add(tmp);
     }
 
     /** {@link #write(Path, Content)} of the given bytes. */
@@ -43,6 +73,7 @@ public final class AtomicFiles {
         Path dir = abs.getParent();
         Files.createDirectories(dir);
         Path tmp = Files.createTempFile(dir, "." + abs.getFileName() + ".", ".tmp");
+        track(tmp);
         boolean done = false;
         try {
             content.writeTo(tmp);
@@ -57,6 +88,7 @@ public final class AtomicFiles {
             }
             done = true;
         } finally {
+            PENDING.remove(tmp);
             if (!done) {
                 Files.deleteIfExists(tmp);
             }

@@ -5,6 +5,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.TreeMap;
 import java.util.function.DoubleUnaryOperator;
+import trapmap.maps.model.MapHeader;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Provenance;
@@ -57,6 +58,119 @@ final class MapBuilder {
      */
     static WaferMap build(Raw raw, String name, String source, String stem, Sidecar sidecar, String sidecarName,
                           int page, int pages, ReadOptions options) throws MapFormatException {
+        float[] s = raw.samples();
+        Plan plan = plan(raw, name, source, stem, sidecar, sidecarName, page, pages, options);
+        int noData = plan.countNoData(s, 0, s.length);
+        plan = plan.withNoDataPixels(noData);
+        plan.apply(s, 0, s.length, 0);
+        MapHeader h = plan.header();
+        return new WaferMap(FloatRaster.wrap(raw.width(), raw.height(), s), h.grid(), h.quantity(), h.waferId(),
+                h.conditions(), h.provenance());
+    }
+
+    /**
+     * What {@link #build} makes of a page, decided before its samples are seen: the header of the map and the
+     * per-sample steps (no-data value to NaN, scale and offset of integer samples, unit conversion to µs). The no-data
+     * step records how many pixels held the no-data value, so a plan with a no-data value needs that count
+     * ({@link #countNoData}, then {@link #withNoDataPixels}) before its {@link #header()} is final.
+     */
+    static final class Plan {
+        private final String name;
+        private final int width;
+        private final Float noData;
+        private final String noDataText;
+        private final DoubleUnaryOperator scale;
+        private final String scaleWhat;
+        private final DoubleUnaryOperator unit;
+        private final String unitWhat;
+        private final MapHeader before;
+        private final List<ProcessingStep> after;
+        private final int noDataPixels;
+
+        private Plan(String name, int width, Float noData, String noDataText, DoubleUnaryOperator scale,
+                     String scaleWhat, DoubleUnaryOperator unit, String unitWhat, MapHeader before,
+                     List<ProcessingStep> after, int noDataPixels) {
+            this.name = name;
+            this.width = width;
+            this.noData = noData;
+            this.noDataText = noDataText;
+            this.scale = scale;
+            this.scaleWhat = scaleWhat;
+            this.unit = unit;
+            this.unitWhat = unitWhat;
+            this.before = before;
+            this.after = after;
+            this.noDataPixels = noDataPixels;
+        }
+
+        /** True when the header records a count of no-data pixels (which {@link #withNoDataPixels} sets). */
+        boolean countsNoData() {
+            return noData != null;
+        }
+
+        /** The pixels among {@code s[from, to)} that hold the raw no-data value (0 without one). */
+        int countNoData(float[] s, int from, int to) {
+            if (noData == null) {
+                return 0;
+            }
+            float nd = noData;
+            int n = 0;
+            for (int i = from; i < to; i++) {
+                if (s[i] == nd) {
+                    n++;
+                }
+            }
+            return n;
+        }
+
+        /** This plan with the number of no-data pixels of the whole page. */
+        Plan withNoDataPixels(int n) {
+            return new Plan(name, width, noData, noDataText, scale, scaleWhat, unit, unitWhat, before, after, n);
+        }
+
+        /**
+         * Applies the per-sample steps to {@code s[from, to)}, raw samples of the page from pixel
+         * {@code firstPixel} on (row and column in messages).
+         *
+         * @throws MapFormatException when scaling or a unit conversion leaves the float range
+         */
+        void apply(float[] s, int from, int to, long firstPixel) throws MapFormatException {
+            if (noData != null) {
+                float nd = noData;
+                for (int i = from; i < to; i++) {
+                    if (s[i] == nd) {
+                        s[i] = Float.NaN;
+                    }
+                }
+            }
+            if (scale != null) {
+                transform(s, from, to, firstPixel, width, name, "scale", scaleWhat, scale);
+            }
+            if (unit != null) {
+                transform(s, from, to, firstPixel, width, name, "unit", unitWhat, unit);
+            }
+        }
+
+        /** The map's header (with the no-data count given to {@link #withNoDataPixels}). */
+        MapHeader header() {
+            if (noData == null) {
+                return withSteps(after);
+            }
+            List<ProcessingStep> steps = new ArrayList<>();
+            steps.add(ProcessingStep.of("no-data", "raw_value", noDataText, "pixels", Integer.toString(noDataPixels)));
+            steps.addAll(after);
+            return withSteps(steps);
+        }
+
+        private MapHeader withSteps(List<ProcessingStep> steps) {
+            return new MapHeader(before.grid(), before.quantity(), before.waferId(), before.conditions(),
+                    before.provenance().then(steps));
+        }
+    }
+
+    /** The {@link Plan} of a page; {@code raw.samples()} is not used (it may be null). */
+    static Plan plan(Raw raw, String name, String source, String stem, Sidecar sidecar, String sidecarName,
+                     int page, int pages, ReadOptions options) throws MapFormatException {
         Sidecar embedded = raw.embedded() == null ? Sidecar.EMPTY : raw.embedded();
         Sidecar meta = sidecar == null ? embedded : embedded.overriddenBy(sidecar);
         List<ProcessingStep> steps = new ArrayList<>();
@@ -76,29 +190,21 @@ final class MapBuilder {
         for (String w : embedded.warnings()) {
             steps.add(ProcessingStep.of("warning", "file", source, "message", w));
         }
-
-        float[] s = raw.samples();
-        if (meta.noData() != null) {
-            float nd = (float) meta.noData().doubleValue();
-            int n = 0;
-            for (int i = 0; i < s.length; i++) {
-                if (s[i] == nd) {
-                    s[i] = Float.NaN;
-                    n++;
-                }
-            }
-            steps.add(ProcessingStep.of("no-data", "raw_value", Sidecar.fmt(meta.noData()), "pixels",
-                    Integer.toString(n)));
-        }
+        // the no-data step comes here, once its pixels are counted (Plan.header)
+        List<ProcessingStep> after = new ArrayList<>();
+        Float noData = meta.noData() == null ? null : (float) meta.noData().doubleValue();
+        String noDataText = meta.noData() == null ? null : Sidecar.fmt(meta.noData());
+        DoubleUnaryOperator scaleOp = null;
+        String scaleWhat = null;
         boolean scaled = meta.scale() != null || meta.offset() != null;
         if (scaled && raw.integer()) {
             double scale = meta.scale() == null ? 1 : meta.scale();
             double offset = meta.offset() == null ? 0 : meta.offset();
-            transform(s, raw.width(), name, "scale", "scaling by " + scale + " and offset " + offset,
-                    v -> offset + scale * v);
-            steps.add(ProcessingStep.of("scale", "scale", Double.toString(scale), "offset", Double.toString(offset)));
+            scaleOp = v -> offset + scale * v;
+            scaleWhat = "scaling by " + scale + " and offset " + offset;
+            after.add(ProcessingStep.of("scale", "scale", Double.toString(scale), "offset", Double.toString(offset)));
         } else if (scaled) {
-            steps.add(ProcessingStep.of("warning", "file", source, "message", "scale and offset apply to integer"
+            after.add(ProcessingStep.of("warning", "file", source, "message", "scale and offset apply to integer"
                     + " samples only; ignored for float samples"));
         }
 
@@ -111,15 +217,17 @@ final class MapBuilder {
         if (quantity == null) {
             if (raw.integer() && !scaled) {
                 quantity = Quantity.PL_COUNTS;
-                steps.add(assume("quantity assumed: " + quantity.key() + " (integer samples without scale)"));
+                after.add(assume("quantity assumed: " + quantity.key() + " (integer samples without scale)"));
             } else {
                 quantity = Quantity.EFFECTIVE_LIFETIME;
-                steps.add(assume("quantity assumed: " + quantity.key()));
+                after.add(assume("quantity assumed: " + quantity.key()));
             }
         }
+        DoubleUnaryOperator unitOp = null;
+        String unitWhat = null;
         if (isLifetime(quantity)) {
             if (unit == null) {
-                steps.add(assume("unit assumed: µs"));
+                after.add(assume("unit assumed: µs"));
             } else {
                 LifetimeUnit lu;
                 try {
@@ -131,10 +239,10 @@ final class MapBuilder {
                 double factor = lu.toMicroseconds(1);
                 if (factor != 1) {
                     if (!raw.inMicroseconds()) {
-                        transform(s, raw.width(), name, "unit", "converting " + lu.symbol() + " to µs",
-                                v -> v * factor);
+                        unitOp = v -> v * factor;
+                        unitWhat = "converting " + lu.symbol() + " to µs";
                     }
-                    steps.add(ProcessingStep.of("convert-unit", "from", lu.symbol(), "to", "µs", "factor",
+                    after.add(ProcessingStep.of("convert-unit", "from", lu.symbol(), "to", "µs", "factor",
                             Sidecar.fmt(factor)));
                 }
             }
@@ -149,7 +257,7 @@ final class MapBuilder {
             Double pitch = meta.pixelPitchMm() != null ? meta.pixelPitchMm() : raw.headerPitchMm();
             if (pitch == null) {
                 pitch = options.defaultPitchMm();
-                steps.add(assume("pixel pitch assumed: " + Sidecar.fmt(pitch) + " mm"));
+                after.add(assume("pixel pitch assumed: " + Sidecar.fmt(pitch) + " mm"));
             }
             double cx = meta.centreXPx() != null ? meta.centreXPx() : (raw.width() - 1) / 2.0;
             double cy = meta.centreYPx() != null ? meta.centreYPx() : (raw.height() - 1) / 2.0;
@@ -171,9 +279,9 @@ final class MapBuilder {
                     null, extra));
         }
         String waferId = meta.waferId() != null ? meta.waferId() : stem;
-        Provenance provenance = base.then(steps);
-        return new WaferMap(FloatRaster.wrap(raw.width(), raw.height(), s), grid, quantity, waferId, conditions,
-                provenance);
+        MapHeader before = new MapHeader(grid, quantity, waferId, conditions, base.then(steps));
+        return new Plan(name, raw.width(), noData, noDataText, scaleOp, scaleWhat, unitOp, unitWhat, before,
+                List.copyOf(after), 0);
     }
 
     static boolean isLifetime(Quantity q) {
@@ -197,15 +305,16 @@ final class MapBuilder {
         return ProcessingStep.of("assume", "note", note);
     }
 
-    /** Applies {@code f} to every sample in place; a finite sample must stay within the float range. */
-    private static void transform(float[] s, int width, String name, String field, String what,
-                                  DoubleUnaryOperator f) throws MapFormatException {
-        for (int i = 0; i < s.length; i++) {
+    /** Applies {@code f} to {@code s[from, to)} in place; a finite sample must stay within the float range. */
+    private static void transform(float[] s, int from, int to, long firstPixel, int width, String name,
+                                  String field, String what, DoubleUnaryOperator f) throws MapFormatException {
+        for (int i = from; i < to; i++) {
             float before = s[i];
             s[i] = (float) f.applyAsDouble(before);
             if (Float.isInfinite(s[i]) && Float.isFinite(before)) {
-                throw new MapFormatException(name, "row " + (i / width + 1) + ", column " + (i % width + 1), what
-                        + " gives a value beyond the 32-bit float range; check field '" + field + "'");
+                long pixel = firstPixel + (i - from);
+                throw new MapFormatException(name, "row " + (pixel / width + 1) + ", column " + (pixel % width + 1),
+                        what + " gives a value beyond the 32-bit float range; check field '" + field + "'");
             }
         }
     }

@@ -182,7 +182,62 @@ public final class MapFiles {
         return dot <= 0 ? fileName : fileName.substring(0, dot);
     }
 
+    /**
+     * A map file that passed the checks made before its content is read: its format, length, sidecar (or null) and
+     * the names recorded as source and default wafer id.
+     */
+    record Opened(Format format, long size, Sidecar sidecar, String sidecarName, String source, String stem) {
+    }
+
     private static List<WaferMap> readChecked(Path file, String name, ReadOptions options) throws IOException {
+        return readOpened(file, name, options, open(file, name, options), null);
+    }
+
+    /**
+     * The maps of a file that passed {@link #open}; {@code scanned} are its TIFF pages when {@link TiffHeader#scan}
+     * has already checked them, else null.
+     */
+    static List<WaferMap> readOpened(Path file, String name, ReadOptions options, Opened o,
+                                     List<TiffHeader.Page> scanned) throws IOException {
+        List<WaferMap> maps = new ArrayList<>();
+        if (o.format() == Format.TIFF) {
+            List<TiffMaps.Decoded> pages = scanned != null ? TiffMaps.read(file, name, scanned)
+                    : TiffMaps.read(file, name, o.size(), options);
+            for (int i = 0; i < pages.size(); i++) {
+                TiffMaps.Decoded d = pages.get(i);
+                MapBuilder.Raw raw = tiffRaw(d.page(), d.samples(), d.decoder(), d.embedded(), o.source(), i,
+                        pages.size());
+                maps.add(MapBuilder.build(raw, name, o.source(), o.stem(), o.sidecar(), o.sidecarName(), i,
+                        pages.size(), options));
+            }
+        } else {
+            MapBuilder.Raw raw = CsvMaps.read(file, name, o.source(), o.sidecar(), options);
+            maps.add(MapBuilder.build(raw, name, o.source(), o.stem(), o.sidecar(), o.sidecarName(), 0, 1,
+                    options));
+        }
+        return List.copyOf(maps);
+    }
+
+    /** What {@link MapBuilder} needs of page {@code i} (0-based) of {@code pages} of a TIFF file. */
+    static MapBuilder.Raw tiffRaw(TiffHeader.Page p, float[] samples, String decoder, Sidecar embedded,
+                                  String source, int i, int pages) {
+        List<ProcessingStep> steps = new ArrayList<>();
+        steps.add(ProcessingStep.of("read", "file", source, "format", "tiff", "page", (i + 1) + " of "
+                + pages, "samples", p.type().label, "compression", p.compressionName(), "decoder", decoder));
+        if (p.nonSquare()) {
+            steps.add(ProcessingStep.of("warning", "file", source, "message", "pixels are not square (X "
+                    + p.xResolution() + ", Y " + p.yResolution() + " per unit); the X resolution is used"));
+        }
+        return new MapBuilder.Raw(samples, p.width(), p.height(), p.type().integer(), embedded, p.pitchMm(), null,
+                steps, false);
+    }
+
+    /**
+     * The checks made before a map file's content is read (kind of file, permission, size, format, sidecar).
+     *
+     * @throws IOException naming the file (a {@link MapFormatException} for a reason of the file)
+     */
+    static Opened open(Path file, String name, ReadOptions options) throws IOException {
         BasicFileAttributes attrs;
         try {
             attrs = Files.readAttributes(file, BasicFileAttributes.class);
@@ -249,29 +304,6 @@ public final class MapFiles {
                     + Files.readSymbolicLink(sidecarPath) + " (no such sidecar file)");
         }
         String source = file.getFileName().toString();
-        String stem = stem(source);
-        List<WaferMap> maps = new ArrayList<>();
-        if (f == Format.TIFF) {
-            List<TiffMaps.Decoded> pages = TiffMaps.read(file, name, size, options);
-            for (int i = 0; i < pages.size(); i++) {
-                TiffMaps.Decoded d = pages.get(i);
-                TiffHeader.Page p = d.page();
-                List<ProcessingStep> steps = new ArrayList<>();
-                steps.add(ProcessingStep.of("read", "file", source, "format", "tiff", "page", (i + 1) + " of "
-                        + pages.size(), "samples", p.type().label, "compression", p.compressionName(), "decoder",
-                        d.decoder()));
-                if (p.nonSquare()) {
-                    steps.add(ProcessingStep.of("warning", "file", source, "message", "pixels are not square (X "
-                            + p.xResolution() + ", Y " + p.yResolution() + " per unit); the X resolution is used"));
-                }
-                MapBuilder.Raw raw = new MapBuilder.Raw(d.samples(), p.width(), p.height(), p.type().integer(),
-                        d.embedded(), p.pitchMm(), null, steps, false);
-                maps.add(MapBuilder.build(raw, name, source, stem, sidecar, sidecarName, i, pages.size(), options));
-            }
-        } else {
-            MapBuilder.Raw raw = CsvMaps.read(file, name, source, sidecar, options);
-            maps.add(MapBuilder.build(raw, name, source, stem, sidecar, sidecarName, 0, 1, options));
-        }
-        return List.copyOf(maps);
+        return new Opened(f, size, sidecar, sidecarName, source, stem(source));
     }
 }

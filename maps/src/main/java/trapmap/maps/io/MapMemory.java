@@ -22,6 +22,12 @@ import java.util.Locale;
 public final class MapMemory {
     /** Working memory of one map being read, converted and summarised, bytes per pixel (all pages together). */
     public static final long MAP_BYTES_PER_PIXEL = 24;
+    /**
+     * Working memory of {@code convert} to a TIFF file, bytes per pixel: it converts and writes bands of rows, so at
+     * most the input is whole (4 bytes a pixel, when it cannot be read band by band: see
+     * {@link MapStream#open}); the bands take a few MB per thread whatever the map's size.
+     */
+    public static final long STREAMED_CONVERT_BYTES_PER_PIXEL = 4;
     /** Working memory of one map in batch inspection, bytes per pixel. */
     public static final long INSPECTION_BYTES_PER_PIXEL = 36;
     /**

@@ -237,6 +237,11 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
      * file reads back into an equal map. Plain ASCII (other characters escaped).
      */
     public static String toJson(WaferMap map) {
+        return toJson(trapmap.maps.model.MapHeader.of(map));
+    }
+
+    /** {@link #toJson(WaferMap)} of a map known by its header alone (its samples streamed). */
+    public static String toJson(trapmap.maps.model.MapHeader map) {
         checkWritable(map.grid());
         ObjectNode o = JSON.createObjectNode();
         o.put("format", FORMAT);

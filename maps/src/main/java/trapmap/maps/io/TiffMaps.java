@@ -73,6 +73,11 @@ final class TiffMaps {
         } catch (IOException e) {
             throw new MapFormatException(name, null, "cannot be read (" + e.getMessage() + ")", "", e);
         }
+        return read(file, name, pages);
+    }
+
+    /** The pages of {@code file}, already scanned and checked by {@link TiffHeader#scan}. */
+    static List<Decoded> read(Path file, String name, List<TiffHeader.Page> pages) throws MapFormatException {
         List<Decoded> out = new ArrayList<>(pages.size());
         ImageReader jdk = null;
         ImageReader fallback = null;
@@ -152,35 +157,53 @@ final class TiffMaps {
      * decodes, bit for bit, without its per-sample copying.
      */
     static float[] direct(Path file, TiffHeader.Page p) throws IOException {
-        int w = p.width();
-        int h = p.height();
-        TiffHeader.Strips strips = p.strips();
-        float[] out = new float[w * h];
-        ByteBuffer buf = ByteBuffer.allocate((int) Math.min(1 << 20, 4L * w * h)).order(strips.order());
+        float[] out = new float[p.width() * p.height()];
+        ByteBuffer buf = directBuffer(p, p.height());
         try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
-            for (int i = 0; i < strips.offsets().length; i++) {
-                int row0 = i * strips.rowsPerStrip();
-                int rows = Math.min(strips.rowsPerStrip(), h - row0);
-                int at = row0 * w;
-                long pos = strips.offsets()[i];
-                long left = 4L * rows * w;
-                while (left > 0) {
-                    int n = (int) Math.min(left, buf.capacity());
-                    buf.clear().limit(n);
-                    while (buf.hasRemaining()) {
-                        if (ch.read(buf, pos + buf.position()) < 0) {
-                            throw new IOException("the file ended at byte " + (pos + buf.position()));
-                        }
-                    }
-                    buf.flip();
-                    buf.asFloatBuffer().get(out, at, n / 4);
-                    at += n / 4;
-                    pos += n;
-                    left -= n;
-                }
-            }
+            directRows(ch, p, 0, p.height(), out, 0, buf);
         }
         return out;
+    }
+
+    /** A buffer for {@link #directRows} of up to {@code rows} rows of page {@code p}: at most 1 MiB, native memory. */
+    static ByteBuffer directBuffer(TiffHeader.Page p, int rows) {
+        return ByteBuffer.allocateDirect((int) Math.min(1 << 20, 4L * p.width() * rows)).order(p.strips().order());
+    }
+
+    /**
+     * Rows {@code [row0, row0 + rows)} of an uncompressed 32-bit float page straight from its strips into
+     * {@code out} from index {@code at}, through {@code buf} ({@link #directBuffer}); safe to call from several
+     * threads at once with their own buffers.
+     */
+    static void directRows(FileChannel ch, TiffHeader.Page p, int row0, int rows, float[] out, int at,
+                           ByteBuffer buf) throws IOException {
+        int w = p.width();
+        TiffHeader.Strips strips = p.strips();
+        int rps = strips.rowsPerStrip();
+        int row = row0;
+        int end = row0 + rows;
+        int to = at;
+        while (row < end) {
+            int strip = row / rps;
+            int inStrip = Math.min(end, (strip + 1) * rps) - row;
+            long pos = strips.offsets()[strip] + 4L * w * (row - (long) strip * rps);
+            long left = 4L * w * inStrip;
+            while (left > 0) {
+                int n = (int) Math.min(left, buf.capacity() & ~3);
+                buf.clear().limit(n);
+                while (buf.hasRemaining()) {
+                    if (ch.read(buf, pos + buf.position()) < 0) {
+                        throw new IOException("the file ended at byte " + (pos + buf.position()));
+                    }
+                }
+                buf.flip();
+                buf.asFloatBuffer().get(out, to, n / 4);
+                to += n / 4;
+                pos += n;
+                left -= n;
+            }
+            row += inStrip;
+        }
     }
 
     private static MapFormatException outOfMemory(String name, TiffHeader.Page p, OutOfMemoryError e) {
@@ -252,7 +275,7 @@ final class TiffMaps {
     }
 
     /** The metadata in the page's ImageDescription when it is JSON in (or close to) the sidecar schema. */
-    private static Sidecar embedded(TiffHeader.Page p, String name) throws MapFormatException {
+    static Sidecar embedded(TiffHeader.Page p, String name) throws MapFormatException {
         String d = p.description();
         if (d == null || !d.trim().startsWith("{")) {
             return null;

@@ -18,7 +18,6 @@ import trapmap.physics.conversion.PixelStatus;
 import trapmap.physics.conversion.Surface;
 import trapmap.physics.conversion.TrapDensityConverter;
 import trapmap.physics.defect.Defect;
-import trapmap.physics.pl.PlCalibration;
 import trapmap.shared.error.InvalidValueException;
 
 /**
@@ -178,22 +177,8 @@ public final class MapConversion {
      * Needs the calibration constant A, the doping and the generation rate in the map's conditions.
      */
     public static WaferMap lifetimeFromPl(WaferMap pl) {
-        MeasurementConditions c = pl.conditions();
-        if (c.plCalibration() == null) {
-            throw new InvalidValueException("plCalibration", "counts*cm^6", "the PL calibration constant is unknown");
-        }
-        if (c.doping() == null) {
-            throw new InvalidValueException("doping", "cm^-3", "doping is unknown");
-        }
-        if (c.generationPerCm3PerS() == null) {
-            throw new InvalidValueException("generation", "cm^-3 s^-1", "a PL map needs its generation rate");
-        }
-        PlCalibration cal = new PlCalibration(c.plCalibration(), c.doping().densityPerCm3());
-        double g = c.generationPerCm3PerS();
-        FloatRaster tau = pl.raster().map(counts -> counts != counts ? Double.NaN : cal.lifetimeUs(counts, g));
-        return pl.derive(tau, Quantity.EFFECTIVE_LIFETIME, ProcessingStep.of("pl-to-lifetime",
-                "calibration_counts_cm6", Double.toString(c.plCalibration()), "generation_cm3_s", Double.toString(g),
-                "doping_cm3", Double.toString(c.doping().densityPerCm3())));
+        PlToLifetime f = PlToLifetime.of(pl.conditions());
+        return pl.derive(pl.raster().map(f::lifetimeUs), Quantity.EFFECTIVE_LIFETIME, f.step());
     }
 
     /**
@@ -222,18 +207,10 @@ public final class MapConversion {
         if (lifetime.quantity() != Quantity.EFFECTIVE_LIFETIME) {
             return "";
         }
-        int below = 0;
-        int likeSeconds = 0;
-        for (float v : lifetime.raster().samples()) {
-            if (v > 0 && v < TrapDensityConverter.LIFETIME_FLOOR_US) {
-                below++;
-                double asSeconds = v * 1e6;
-                if (asSeconds >= TrapDensityConverter.LIFETIME_FLOOR_US && asSeconds <= 1e5) {
-                    likeSeconds++;
-                }
-            }
-        }
-        return lifetimeFloorNote(below, likeSeconds);
+        LifetimeFloor floor = new LifetimeFloor();
+        float[] s = lifetime.raster().samples();
+        floor.add(s, 0, s.length);
+        return floor.note();
     }
 
     /**
@@ -241,16 +218,8 @@ public final class MapConversion {
      * {@code likeSeconds} of them between 1 ns and 0.1 s when read as seconds (what a conversion's
      * {@link TrapDensityConverter.Tally} counts).
      */
-    public static String lifetimeFloorNote(int below, int likeSeconds) {
-        if (below == 0) {
-            return "";
-        }
-        String note = below + " pixel(s) with a lifetime below 1 ns (0.001 µs) are invalid";
-        if (likeSeconds * 2 > below) {
-            note += "; their values look like lifetimes in seconds read as µs: give the map's unit (\"unit\": \"s\" in"
-                    + " the sidecar, or # unit=s in a CSV file)";
-        }
-        return note;
+    public static String lifetimeFloorNote(long below, long likeSeconds) {
+        return LifetimeFloor.note(below, likeSeconds);
     }
 
     /** Every quantity a conversion can produce (lifetime at reference only with a reference injection). */

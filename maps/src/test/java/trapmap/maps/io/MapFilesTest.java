@@ -119,6 +119,19 @@ class MapFilesTest {
     }
 
     @Test
+    void stoppingTheProgramWhileWritingLeavesNeitherTheTemporaryFileNorANewTarget() throws Exception {
+        Path f = dir.resolve("keep.tif");
+        Files.writeString(f, "old content");
+        assertThatThrownBy(() -> AtomicFiles.write(f, tmp -> {
+            Files.writeString(tmp, "half");
+            assertThat(listing()).hasSize(2);
+            AtomicFiles.removePending(); // what the shutdown hook does on Ctrl-C or SIGTERM
+        })).isInstanceOf(IOException.class);
+        assertThat(Files.readString(f)).isEqualTo("old content");
+        assertThat(listing()).containsExactly("keep.tif");
+    }
+
+    @Test
     void replacedFileKeepsItsPermissions() throws Exception {
         Path f = dir.resolve("p.tif");
         Files.writeString(f, "x");

@@ -1,0 +1,272 @@
+package trapmap.maps.process;
+
+import java.io.IOException;
+import java.util.ArrayList;
+import java.util.EnumSet;
+import java.util.List;
+import java.util.Set;
+import java.util.concurrent.atomic.AtomicInteger;
+import java.util.concurrent.atomic.AtomicReference;
+import trapmap.maps.io.MapStream;
+import trapmap.maps.model.MapHeader;
+import trapmap.maps.model.Quantity;
+import trapmap.physics.conversion.Conditions;
+import trapmap.physics.conversion.ConversionOutput;
+import trapmap.physics.conversion.ConversionWarning;
+import trapmap.physics.conversion.PixelStatus;
+import trapmap.physics.conversion.TrapDensityConverter;
+import trapmap.physics.defect.Defect;
+import trapmap.shared.error.InvalidValueException;
+
+/**
+ * {@link MapConversion#convert} to one quantity, band by band: rows are read from a {@link MapStream}, converted and
+ * handed to a sink (a {@link trapmap.maps.io.TiffRowWriter}) without the whole map ever being in memory, and the
+ * whole-map figures a conversion reports (pixels by status, warnings, pixels per warning, the lifetime-floor note)
+ * are summed band by band. Every pixel gets the value the whole-map conversion gives it, bit for bit: the kernel is
+ * the same and works pixel by pixel, and the figures are integer sums, so neither the band size nor the number of
+ * threads changes any result.
+ */
+public final class BandConversion {
+    private final TrapDensityConverter converter;
+    private final Quantity wanted;
+    private final boolean reference;
+    private final PlToLifetime pl;
+    private final boolean countFloor;
+    private final MapHeader output;
+    private final int width;
+
+    private BandConversion(TrapDensityConverter converter, Quantity wanted, boolean reference, PlToLifetime pl,
+                           boolean floor, MapHeader output) {
+        this.converter = converter;
+        this.wanted = wanted;
+        this.reference = reference;
+        this.pl = pl;
+        this.countFloor = floor;
+        this.output = output;
+        this.width = output.width();
+    }
+
+    /**
+     * The conversion of the map of {@code input} (effective lifetime in µs or PL counts, its conditions complete) to
+     * {@code wanted}, checked as {@link MapConversion#convert} checks it.
+     *
+     * @throws InvalidValueException    for missing conditions, an unsuitable defect or a map of another quantity
+     * @throws IllegalArgumentException when a conversion does not produce {@code wanted} (lifetime at reference
+     *                                  without a reference injection)
+     */
+    public static BandConversion of(MapHeader input, Defect defect, ConversionSettings settings, Quantity wanted) {
+        PlToLifetime pl = null;
+        MapHeader lifetime = switch (input.quantity()) {
+            case EFFECTIVE_LIFETIME -> input;
+            case PL_COUNTS -> {
+                pl = PlToLifetime.of(input.conditions());
+                yield input.derive(Quantity.EFFECTIVE_LIFETIME, pl.step());
+            }
+            default -> throw new InvalidValueException("quantity", "", "a " + input.quantity().key()
+                    + " map cannot be converted; expected an effective-lifetime or PL-counts map");
+        };
+        Conditions conditions = MapConversion.physicsConditions(lifetime.conditions(), settings);
+        TrapDensityConverter converter = new TrapDensityConverter(conditions, defect);
+        boolean reference = !Double.isNaN(settings.referenceInjectionPerCm3());
+        if (!MapConversion.ALL.contains(wanted) || (!reference && wanted == Quantity.LIFETIME_AT_REFERENCE)) {
+            throw new IllegalArgumentException("no quantity a conversion produces among " + Set.of(wanted));
+        }
+        MapHeader out = lifetime.derive(wanted, MapConversion.convertStep(conditions, defect, settings));
+        return new BandConversion(converter, wanted, reference, pl,
+                input.quantity() == Quantity.EFFECTIVE_LIFETIME, out);
+    }
+
+    /** The header of the converted map. */
+    public MapHeader output() {
+        return output;
+    }
+
+    /** Where converted rows go. */
+    @FunctionalInterface
+    public interface Sink {
+        /** Takes rows {@code [row0, row0 + rows)}, {@code samples} from index 0; called from several threads. */
+        void write(int row0, int rows, float[] samples) throws IOException;
+    }
+
+    /**
+     * The whole-map figures of a conversion.
+     *
+     * @param statusCounts pixels of each status, indexed by {@link PixelStatus#code()}
+     * @param warnings     the warnings of all pixels and the wafer-level ones
+     * @param floorNote    {@link MapConversion#lifetimeFloorNote} of the input (empty when none)
+     */
+    public record Summary(int[] statusCounts, Set<ConversionWarning> warnings, String floorNote) {
+        public Summary {
+            statusCounts = statusCounts.clone();
+            Set<ConversionWarning> w = EnumSet.noneOf(ConversionWarning.class);
+            w.addAll(warnings);
+            warnings = java.util.Collections.unmodifiableSet(w); // in declaration order
+        }
+
+        @Override
+        public int[] statusCounts() {
+            return statusCounts.clone();
+        }
+    }
+
+    /**
+     * Converts every row of {@code in} in bands of about a million pixels on {@code threads} threads (the calling
+     * one among them) and gives each band to {@code sink}.
+     *
+     * @throws IOException from reading or from the sink (the first failure; the other threads stop at their next
+     *                     band)
+     */
+    public Summary run(MapStream in, Sink sink, int threads) throws IOException {
+        return run(in, sink, threads, MapStream.bandRows(width));
+    }
+
+    /** {@link #run(MapStream, Sink, int)} in bands of {@code rows} rows (the last may be shorter). */
+    public Summary run(MapStream in, Sink sink, int threads, int rows) throws IOException {
+        if (rows < 1) {
+            throw new IllegalArgumentException("bands of " + rows + " rows");
+        }
+        if (in.width() != width || in.height() != output.height()) {
+            throw new IllegalArgumentException("the stream is " + in.width() + "x" + in.height() + ", the conversion "
+                    + width + "x" + output.height());
+        }
+        int bands = (in.height() + rows - 1) / rows;
+        int n = Math.max(1, Math.min(threads, bands));
+        AtomicInteger next = new AtomicInteger();
+        AtomicReference<Throwable> failure = new AtomicReference<>();
+        List<Worker> workers = new ArrayList<>();
+        List<Thread> started = new ArrayList<>();
+        for (int t = 0; t < n; t++) {
+            Worker w = new Worker(in.reader(rows), sink, rows, bands, in.height(), next, failure);
+            workers.add(w);
+            if (t > 0) {
+                Thread th = new Thread(w, "convert-band-" + t);
+                th.setDaemon(true);
+                th.start();
+                started.add(th);
+            }
+        }
+        workers.get(0).run();
+        boolean interrupted = false;
+        for (Thread th : started) {
+            while (true) {
+                try {
+                    th.join();
+                    break;
+                } catch (InterruptedException e) {
+                    interrupted = true;
+                    failure.compareAndSet(null, e);
+                }
+            }
+        }
+        if (interrupted) {
+            Thread.currentThread().interrupt();
+        }
+        Throwable f = failure.get();
+        if (f instanceof IOException e) {
+            throw e;
+        } else if (f instanceof RuntimeException e) {
+            throw e;
+        } else if (f instanceof Error e) {
+            throw e;
+        } else if (f != null) {
+            throw new IOException("the conversion was interrupted", f);
+        }
+        TrapDensityConverter.Tally all = new TrapDensityConverter.Tally();
+        for (Worker w : workers) {
+            all.add(w.tally);
+        }
+        Set<ConversionWarning> warnings = EnumSet.noneOf(ConversionWarning.class);
+        warnings.addAll(ConversionWarning.fromMask(all.warningBits()));
+        warnings.addAll(converter.conditionWarnings());
+        return new Summary(all.statusCounts(), warnings,
+                countFloor ? MapConversion.lifetimeFloorNote(all.belowFloor(), all.belowFloorLikeSeconds()) : "");
+    }
+
+    /** One thread's bands: its buffers and its share of the figures. */
+    private final class Worker implements Runnable {
+        private final MapStream.Reader reader;
+        private final Sink sink;
+        private final int rows;
+        private final int bands;
+        private final int height;
+        private final AtomicInteger next;
+        private final AtomicReference<Throwable> failure;
+        final TrapDensityConverter.Tally tally = new TrapDensityConverter.Tally();
+        private float[] samples;
+        private float[] values;
+        private ConversionOutput out;
+
+        Worker(MapStream.Reader reader, Sink sink, int rows, int bands, int height, AtomicInteger next,
+               AtomicReference<Throwable> failure) {
+            this.reader = reader;
+            this.sink = sink;
+            this.rows = rows;
+            this.bands = bands;
+            this.height = height;
+            this.next = next;
+            this.failure = failure;
+        }
+
+        @Override
+        public void run() {
+            try {
+                for (int b = next.getAndIncrement(); b < bands && failure.get() == null; b = next.getAndIncrement()) {
+                    int row0 = b * rows;
+                    band(row0, Math.min(rows, height - row0));
+                }
+            } catch (Throwable e) {
+                failure.compareAndSet(null, e);
+            }
+        }
+
+        private void band(int row0, int r) throws IOException {
+            int n = r * width;
+            if (samples == null || samples.length != n) { // the kernel takes arrays of exactly the band's pixels
+                samples = new float[n];
+                values = wanted == Quantity.STATUS ? new float[n] : null;
+                out = output(n);
+            }
+            reader.read(row0, r, samples);
+            if (pl != null) {
+                pl.apply(samples, 0, n);
+            }
+            TrapDensityConverter.Tally t = converter.convert(samples, width, out, 1);
+            tally.add(t);
+            byte[] status = out.status;
+            float[] plane;
+            if (wanted == Quantity.STATUS) {
+                for (int i = 0; i < n; i++) {
+                    values[i] = status[i];
+                }
+                plane = values;
+            } else {
+                plane = plane(out);
+            }
+            sink.write(row0, r, plane);
+        }
+
+        private ConversionOutput output(int n) {
+            return new ConversionOutput(wanted == Quantity.TRAP_DENSITY ? new float[n] : null,
+                    wanted == Quantity.TRAP_DENSITY_MIN ? new float[n] : null,
+                    wanted == Quantity.TRAP_DENSITY_MAX ? new float[n] : null,
+                    wanted == Quantity.OCCUPANCY ? new float[n] : null,
+                    wanted == Quantity.SRH_LIFETIME ? new float[n] : null,
+                    wanted == Quantity.INJECTION ? new float[n] : null,
+                    reference && wanted == Quantity.LIFETIME_AT_REFERENCE ? new float[n] : null,
+                    new byte[n], null);
+        }
+
+        private float[] plane(ConversionOutput o) {
+            return switch (wanted) {
+                case TRAP_DENSITY -> o.trapDensity;
+                case TRAP_DENSITY_MIN -> o.trapDensityMin;
+                case TRAP_DENSITY_MAX -> o.trapDensityMax;
+                case OCCUPANCY -> o.occupancy;
+                case SRH_LIFETIME -> o.srhLifetimeUs;
+                case INJECTION -> o.injection;
+                case LIFETIME_AT_REFERENCE -> o.lifetimeAtReferenceUs;
+                default -> throw new IllegalStateException(wanted.key());
+            };
+        }
+    }
+}
