@@ -31,11 +31,11 @@ import trapmap.shared.check.Checks;
  * with the n counted values sorted as x₀ ≤ … ≤ x_{n−1}, h = (n − 1)·p/100 and
  * P(p) = x_⌊h⌋ + (h − ⌊h⌋)·(x_⌊h⌋+1 − x_⌊h⌋). The median is P(50).
  *
- * <p><b>Cost.</b> One pass over the pixels gives count, mean and variance (Welford's update), extremes, the sums for
+ * <p><b>Cost.</b> One pass over the pixels gives count, mean and variance, extremes, the sums for
  * the harmonic and geometric means (Σ ln x as the logarithm of a rescaled running product) and the threshold counts,
  * while copying the counted values into one float array. The pass runs on all cores in fixed blocks of
- * {@link Mask#BLOCK_PX} pixels whose sums are combined in block order (the moments by the pairwise update of Chan,
- * Golub and LeVeque), so the figures do not depend on the number of threads; Σ 1/x is added on one thread in index
+ * {@link Mask#BLOCK_PX} pixels, each with a two-pass mean and sum of squared deviations, combined in block order
+ * (the moments by the pairwise update of Chan, Golub and LeVeque), so the figures do not depend on the number of threads; Σ 1/x is added on one thread in index
  * order, as every face adds it; the percentiles then come from two more passes over that
  * array (a radix count, then gathering the few buckets that hold the wanted ranks), with no full sort. No boxing;
  * a 16-megapixel map needs one extra 64 MB float array.
@@ -218,33 +218,40 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
             double product = 1;
             long binaryExponent = 0;
             int n = 0;
-            int wi = from >>> 6;
-            long word = words == null ? 0 : words[wi];
-            for (int i = from; ; i++) {
-                if (words != null) {
-                    while (word == 0) {
-                        if (++wi << 6 >= end) {
-                            break;
+            if (words == null) {
+                for (int i = from; i < end; i++) {
+                    float f = s[i];
+                    if (f == f) {
+                        out[at + n++] = f;
+                    }
+                }
+            } else {
+                for (int wi = from >>> 6, we = (end + 63) >>> 6; wi < we; wi++) {
+                    long word = words[wi];
+                    int base = wi << 6;
+                    if (word == -1L) {
+                        for (int i = base; i < base + 64; i++) {
+                            float f = s[i];
+                            if (f == f) {
+                                out[at + n++] = f;
+                            }
                         }
-                        word = words[wi];
+                    } else {
+                        for (; word != 0; word &= word - 1) {
+                            float f = s[base + Long.numberOfTrailingZeros(word)];
+                            if (f == f) {
+                                out[at + n++] = f;
+                            }
+                        }
                     }
-                    if (word == 0) {
-                        break;
-                    }
-                    i = (wi << 6) + Long.numberOfTrailingZeros(word);
-                    word &= word - 1;
-                } else if (i >= end) {
-                    break;
                 }
-                float f = s[i];
-                if (f != f) {
-                    continue;
-                }
-                double v = f;
-                out[at + n++] = f;
-                double delta = v - p.mean;
-                p.mean += delta / n;
-                p.m2 += delta * (v - p.mean);
+            }
+            // the block's values, now side by side: sums in index order, then the squared deviations from the
+            // block's mean (two passes: no division per pixel, and more accurate than a running update)
+            double sum = 0;
+            for (int k = at, e = at + n; k < e; k++) {
+                double v = out[k];
+                sum += v;
                 if (v < p.min) {
                     p.min = v;
                 }
@@ -254,21 +261,28 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
                 if (v > 0) {
                     product *= v;
                     if (product > 1e250 || product < 1e-250) {
-                        int e = Math.getExponent(product);
-                        product = Math.scalb(product, -e);
-                        binaryExponent += e;
+                        int exponent = Math.getExponent(product);
+                        product = Math.scalb(product, -exponent);
+                        binaryExponent += exponent;
                     }
                 } else {
                     p.nonPositive++;
                 }
-                for (int k = 0; k < thresholds.length; k++) {
-                    if (v < thresholds[k]) {
-                        p.below[k]++;
-                    } else if (v > thresholds[k]) {
-                        p.above[k]++;
+                for (int t = 0; t < thresholds.length; t++) {
+                    if (v < thresholds[t]) {
+                        p.below[t]++;
+                    } else if (v > thresholds[t]) {
+                        p.above[t]++;
                     }
                 }
             }
+            p.mean = n == 0 ? 0 : sum / n;
+            double m2 = 0;
+            for (int k = at, e = at + n; k < e; k++) {
+                double d = out[k] - p.mean;
+                m2 += d * d;
+            }
+            p.m2 = m2;
             p.n = n;
             p.logSum = n - p.nonPositive == 0 ? 0 : Math.log(product) + binaryExponent * Math.log(2);
             return p;
