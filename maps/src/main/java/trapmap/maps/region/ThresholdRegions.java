@@ -221,7 +221,6 @@ public final class ThresholdRegions {
                         double sum = 0;
                         double peak = s[i];
                         int peakIndex = i;
-                        double near = Double.POSITIVE_INFINITY;
                         for (; x < w; x++) {
                             i = row + x;
                             if (!((words == null || (words[i >>> 6] & 1L << i) != 0) && criteria.selects(s[i]))) {
@@ -233,9 +232,8 @@ public final class ThresholdRegions {
                                 peak = v;
                                 peakIndex = i;
                             }
-                            near = Math.min(near, edge.mm(i, x, y));
                         }
-                        out.add(y, start, x - 1, sum, peak, peakIndex, near);
+                        out.add(y, start, x - 1, sum, peak, peakIndex, edge.leastOnRow(row, start, x - 1, y));
                     }
                 }
                 band[b] = out;
@@ -315,20 +313,47 @@ public final class ThresholdRegions {
 
     /** Distance of a pixel centre from the wafer edge, mm. */
     private interface EdgeDistance {
-        double mm(int index, int x, int y);
+        /** The least distance of the pixels x0..x1 of row y (whose first pixel has index {@code row}). */
+        double leastOnRow(int row, int x0, int x1, int y);
     }
 
+    /**
+     * Distances to a wafer shape's outline, which change by at most one pitch from a pixel to the next: after an
+     * exact distance d, the next ⌊(d − least so far − margin) / pitch⌋ pixels cannot hold a smaller one and are
+     * skipped. The margin of 1e-6 mm keeps rounding from skipping a pixel whose computed distance would be the least.
+     */
     private record ShapeEdge(WaferShape.Prepared shape, PixelGrid grid) implements EdgeDistance {
         @Override
-        public double mm(int index, int x, int y) {
-            return shape.distanceToEdgeMm(grid.xMm(x), grid.yMm(y));
+        public double leastOnRow(int row, int x0, int x1, int y) {
+            double yMm = grid.yMm(y);
+            double pitch = grid.pitchMm();
+            double first = shape.distanceToEdgeMm(grid.xMm(x0), yMm);
+            double least = Math.min(first, shape.distanceToEdgeMm(grid.xMm(x1), yMm));
+            double last = first;
+            int lastX = x0;
+            for (int x = x0 + 1; x < x1; ) {
+                double free = (last - least - 1e-6) / pitch;
+                if (free >= x - lastX) {
+                    x = lastX + (int) Math.min(x1 - lastX, (long) free) + 1;
+                    continue;
+                }
+                last = shape.distanceToEdgeMm(grid.xMm(x), yMm);
+                lastX = x;
+                least = Math.min(least, last);
+                x++;
+            }
+            return least;
         }
     }
 
     private record OutlineEdge(float[] distanceMm) implements EdgeDistance {
         @Override
-        public double mm(int index, int x, int y) {
-            return distanceMm[index];
+        public double leastOnRow(int row, int x0, int x1, int y) {
+            double least = Double.POSITIVE_INFINITY;
+            for (int x = x0; x <= x1; x++) {
+                least = Math.min(least, distanceMm[row + x]);
+            }
+            return least;
         }
     }
 }

@@ -10,6 +10,7 @@ import java.util.Random;
 import java.util.concurrent.ForkJoinPool;
 import org.junit.jupiter.api.Test;
 import trapmap.maps.geometry.RoundWafer;
+import trapmap.maps.geometry.SquareWafer;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
@@ -135,8 +136,15 @@ class RunLabellingTest {
         int h = 401;
         PixelGrid grid = PixelGrid.centred(w, h, 0.25);
         float[] s = blobs(w, h, 7);
-        WaferShape shape = RoundWafer.disk(140);
-        Mask mask = shape.mask(grid, 2).and(Mask.of(w, h, i -> i % 17 != 3));
+        for (WaferShape shape : List.of(RoundWafer.disk(140), new SquareWafer(120, 150, 10, 1, -2))) {
+            Mask mask = shape.mask(grid, 2).and(Mask.of(w, h, i -> i % 17 != 3));
+            compare(s, grid, mask, shape);
+        }
+    }
+
+    private static void compare(float[] s, PixelGrid grid, Mask mask, WaferShape shape) {
+        int w = grid.width();
+        int h = grid.height();
         for (RegionCriteria c : List.of(RegionCriteria.above(1.2, 0), RegionCriteria.below(-1.5, 0),
                 RegionCriteria.above(0.8, 2))) {
             List<Region> expected = reference(s, grid, mask, c, shape);
