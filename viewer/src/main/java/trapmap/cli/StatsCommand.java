@@ -16,8 +16,8 @@ import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import trapmap.maps.compare.Improvement;
 import trapmap.maps.geometry.FormatMatch;
-import trapmap.maps.geometry.OutlineDetection;
 import trapmap.maps.geometry.OutlineFit;
+import trapmap.maps.geometry.ReducedOutline;
 import trapmap.maps.geometry.WaferFormat;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.io.MapFormatException;
@@ -116,7 +116,7 @@ final class StatsCommand implements Callable<Integer> {
             map = converted.get(Quantity.TRAP_DENSITY);
         }
         Map<String, Object> outline = new LinkedHashMap<>();
-        WaferShape shape = shape(map, outline);
+        WaferShape shape = shape(read, outline);
         Mask valid = Mask.valid(map.raster());
         Mask area = shape == null ? Mask.valid(read.raster()) : shape.mask(map.grid(), edgeExclusionMm);
         Mask mask = shape == null ? valid : valid.and(area);
@@ -268,7 +268,7 @@ final class StatsCommand implements Callable<Integer> {
             return f.shape();
         }
         try {
-            OutlineFit fit = OutlineDetection.fit(map.raster(), map.grid());
+            OutlineFit fit = ReducedOutline.fit(map.raster(), map.grid());
             outline.put("source", "fitted");
             outline.put("model", fit.model().name().toLowerCase(Locale.ROOT));
             outline.put("description", fit.shape().describe());

@@ -15,15 +15,51 @@ public final class Mask {
         this.bits = bits;
     }
 
-    /** The pixels whose index satisfies {@code test}. */
+    /** Pixels per block when a large mask is built or read in parallel: a whole number of 64-bit words. */
+    public static final int BLOCK_PX = 1 << 16;
+
+    /**
+     * The pixels whose index satisfies {@code test}. A large mask is built in blocks on all cores, so {@code test}
+     * must be a pure function of the index (it may be called from several threads, in any order).
+     */
     public static Mask of(int width, int height, IntPredicate test) {
-        BitSet b = new BitSet(width * height);
-        for (int i = 0, n = width * height; i < n; i++) {
-            if (test.test(i)) {
-                b.set(i);
+        int n = width * height;
+        long[] words = new long[Blocks.count(n, 64)];
+        Blocks.run(Blocks.count(n, BLOCK_PX), n, b -> {
+            int end = (int) Math.min(n, (long) (b + 1) * BLOCK_PX);
+            for (int i = b * BLOCK_PX; i < end; i += 64) {
+                long word = 0;
+                for (int j = 0, m = Math.min(64, end - i); j < m; j++) {
+                    if (test.test(i + j)) {
+                        word |= 1L << j;
+                    }
+                }
+                words[i >>> 6] = word;
             }
+        });
+        return new Mask(width, height, BitSet.valueOf(words));
+    }
+
+    /**
+     * The mask whose bits are {@code words} (pixel i is bit i % 64 of word i / 64, as {@link #words()} gives them);
+     * bits beyond width × height must be clear.
+     */
+    public static Mask ofWords(int width, int height, long[] words) {
+        if (words.length != Blocks.count((long) width * height, 64)) {
+            throw new IllegalArgumentException(words.length + " words do not hold a " + width + "x" + height
+                    + " mask");
         }
-        return new Mask(width, height, b);
+        return new Mask(width, height, BitSet.valueOf(words));
+    }
+
+    /**
+     * The pixels as 64-bit words, ⌈width·height / 64⌉ of them: pixel i is bit i % 64 of word i / 64. A copy, for
+     * fast passes over large masks.
+     */
+    public long[] words() {
+        long[] w = bits.toLongArray();
+        return w.length == Blocks.count((long) width * height, 64) ? w
+                : java.util.Arrays.copyOf(w, Blocks.count((long) width * height, 64));
     }
 
     /** Every pixel. */
@@ -36,7 +72,20 @@ public final class Mask {
     /** The pixels of {@code raster} that hold data (not NaN). */
     public static Mask valid(FloatRaster raster) {
         float[] s = raster.samples();
-        return of(raster.width(), raster.height(), i -> s[i] == s[i]);
+        int n = s.length;
+        long[] words = new long[Blocks.count(n, 64)];
+        Blocks.run(Blocks.count(n, BLOCK_PX), n, b -> {
+            int end = (int) Math.min(n, (long) (b + 1) * BLOCK_PX);
+            for (int i = b * BLOCK_PX; i < end; i += 64) {
+                long word = 0;
+                for (int j = 0, m = Math.min(64, end - i); j < m; j++) {
+                    float v = s[i + j];
+                    word |= (v == v ? 1L : 0L) << j;
+                }
+                words[i >>> 6] = word;
+            }
+        });
+        return new Mask(raster.width(), raster.height(), BitSet.valueOf(words));
     }
 
     public int width() {

@@ -2,11 +2,11 @@ package trapmap.maps.region;
 
 import java.util.ArrayList;
 import java.util.Arrays;
-import java.util.BitSet;
 import java.util.List;
 import trapmap.maps.geometry.DataOutline;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.Blocks;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
@@ -14,14 +14,13 @@ import trapmap.shared.check.Checks;
 
 /**
  * Connected regions above or below a threshold: the pixels inside a mask whose value lies strictly beyond the
- * threshold, grouped by 8-connectivity (diagonal neighbours join), then filtered by area. The flood fill runs on an
- * explicit queue, so a region of any size (a whole 16-megapixel map) needs no recursion; the pixels are visited once
- * and the per-region sums are gathered on the way, without a label image.
+ * threshold, grouped by 8-connectivity (diagonal neighbours join), then filtered by area. Run-length labelling: bands
+ * of rows are scanned in parallel into runs (horizontal stretches of selected pixels) with their sums, the runs are
+ * joined across rows by union-find, and each region's figures are added up over its runs in raster order. No label
+ * image and no recursion; a region is numbered by its first pixel in raster order, and its figures do not depend on
+ * the number of threads.
  */
 public final class ThresholdRegions {
-    private static final int[] DX = {-1, 0, 1, -1, 1, -1, 0, 1};
-    private static final int[] DY = {-1, -1, -1, 0, 0, 1, 1, 1};
-
     private ThresholdRegions() {
     }
 
@@ -55,151 +54,306 @@ public final class ThresholdRegions {
                     + w + "x" + h);
         }
         float[] s = raster.samples();
-        BitSet open = new BitSet(s.length);
-        for (int i = 0; i < s.length; i++) {
-            if ((mask == null || mask.containsIndex(i)) && criteria.selects(s[i])) {
-                open.set(i);
-            }
-        }
+        long[] words = mask == null ? null : mask.words();
         EdgeDistance edge = shape != null ? new ShapeEdge(shape.prepared(), grid)
                 : new OutlineEdge(DataOutline.edgeDistanceMm(DataOutline.filled(raster), grid));
-        double pixelArea = grid.pixelAreaMm2();
-        int[] offset = new int[8];
-        for (int k = 0; k < 8; k++) {
-            offset[k] = DY[k] * w + DX[k];
+        Runs runs = Runs.of(s, w, h, words, criteria, edge);
+        int[] root = runs.components();
+        int m = runs.size;
+
+        // per component (indexed by its root, the first run in raster order), sums over its runs in raster order
+        long[] count = new long[m];
+        long[] sumX = new long[m];
+        long[] sumY = new long[m];
+        double[] sumValue = new double[m];
+        int[] minX = new int[m];
+        int[] maxX = new int[m];
+        int[] minY = new int[m];
+        int[] maxY = new int[m];
+        int[] peakIndex = new int[m];
+        double[] peak = new double[m];
+        double[] nearest = new double[m];
+        for (int r = 0; r < m; r++) {
+            int c = root[r];
+            int y = runs.y[r];
+            int x0 = runs.x0[r];
+            int x1 = runs.x1[r];
+            long len = x1 - x0 + 1;
+            if (c == r) {
+                minX[c] = x0;
+                maxX[c] = x1;
+                minY[c] = y;
+                peak[c] = runs.peak[r];
+                peakIndex[c] = runs.peakIndex[r];
+                nearest[c] = runs.nearest[r];
+            } else {
+                minX[c] = Math.min(minX[c], x0);
+                maxX[c] = Math.max(maxX[c], x1);
+                double v = runs.peak[r];
+                if (criteria.morePeaked(v, peak[c]) || v == peak[c] && runs.peakIndex[r] < peakIndex[c]) {
+                    peak[c] = v;
+                    peakIndex[c] = runs.peakIndex[r];
+                }
+                nearest[c] = Math.min(nearest[c], runs.nearest[r]);
+            }
+            maxY[c] = y;
+            count[c] += len;
+            sumX[c] += (x0 + x1) * len / 2;
+            sumY[c] += y * len;
+            sumValue[c] += runs.sum[r];
         }
-        List<Region> regions = new ArrayList<>();
-        IntQueue queue = new IntQueue(1024);
-        int[] members = new int[1024];
-        for (int seed = open.nextSetBit(0); seed >= 0; seed = open.nextSetBit(seed + 1)) {
-            open.clear(seed);
-            queue.add(seed);
-            long count = 0;
-            long sumX = 0;
-            long sumY = 0;
-            double sumValue = 0;
-            int minX = Integer.MAX_VALUE;
-            int maxX = -1;
-            int minY = Integer.MAX_VALUE;
-            int maxY = -1;
-            int peakIndex = seed;
-            double peak = s[seed];
-            double nearest = Double.POSITIVE_INFINITY;
-            while (!queue.isEmpty()) {
-                int i = queue.poll();
-                int y = i / w;
-                int x = i - y * w;
-                double v = s[i];
-                if (count == members.length) {
-                    members = Arrays.copyOf(members, members.length * 2);
-                }
-                members[(int) count] = i;
-                count++;
-                sumX += x;
-                sumY += y;
-                sumValue += v;
-                minX = Math.min(minX, x);
-                maxX = Math.max(maxX, x);
-                minY = Math.min(minY, y);
-                maxY = Math.max(maxY, y);
-                if (criteria.morePeaked(v, peak) || v == peak && i < peakIndex) {
-                    peak = v;
-                    peakIndex = i;
-                }
-                nearest = Math.min(nearest, edge.mm(i, x, y));
-                if (x > 0 && y > 0 && x < w - 1 && y < h - 1) {
-                    for (int k = 0; k < 8; k++) {
-                        int j = i + offset[k];
-                        if (open.get(j)) {
-                            open.clear(j);
-                            queue.add(j);
-                        }
-                    }
-                } else {
-                    for (int k = 0; k < 8; k++) {
-                        int nx = x + DX[k];
-                        int ny = y + DY[k];
-                        if (nx >= 0 && ny >= 0 && nx < w && ny < h) {
-                            int j = ny * w + nx;
-                            if (open.get(j)) {
-                                open.clear(j);
-                                queue.add(j);
-                            }
-                        }
-                    }
+        double pixelArea = grid.pixelAreaMm2();
+        // the pixel nearest the centroid of each kept component (ties: the lower index): on a run, the pixel next to
+        // the centroid's column on either side
+        int[] best = new int[m];
+        double[] bestD = new double[m];
+        Arrays.fill(best, -1);
+        for (int r = 0; r < m; r++) {
+            int c = root[r];
+            if (count[c] * pixelArea < criteria.minAreaMm2()) {
+                continue;
+            }
+            double cx = (double) sumX[c] / count[c];
+            double cy = (double) sumY[c] / count[c];
+            double dy = runs.y[r] - cy;
+            int lo = (int) Math.max(runs.x0[r], Math.min(runs.x1[r], Math.floor(cx)));
+            int hi = (int) Math.max(runs.x0[r], Math.min(runs.x1[r], Math.ceil(cx)));
+            for (int x = lo; x <= hi; x++) {
+                double dx = x - cx;
+                double d = dx * dx + dy * dy;
+                int i = runs.y[r] * w + x;
+                if (best[c] < 0 || d < bestD[c] || d == bestD[c] && i < best[c]) {
+                    bestD[c] = d;
+                    best[c] = i;
                 }
             }
-            double area = count * pixelArea;
+        }
+        List<Region> regions = new ArrayList<>();
+        for (int c = 0; c < m; c++) {
+            if (root[c] != c) {
+                continue;
+            }
+            double area = count[c] * pixelArea;
             if (area < criteria.minAreaMm2()) {
                 continue;
             }
             double halfPx = 0.5;
-            Region.BoundsMm bounds = new Region.BoundsMm(grid.xMm(minX - halfPx), grid.yMm(maxY + halfPx),
-                    grid.xMm(maxX + halfPx), grid.yMm(minY - halfPx));
-            double cx = (double) sumX / count;
-            double cy = (double) sumY / count;
-            Region.CentroidPixel at = Region.CentroidPixel.of(members, (int) count, w, cx, cy);
-            regions.add(new Region(regions.size() + 1, (int) count, area, grid.xMm(cx), grid.yMm(cy), bounds, peak,
-                    grid.xMm(peakIndex % w), grid.yMm(peakIndex / w), sumValue / count, nearest, at.inside(),
-                    at.inside() ? grid.xMm(cx) : grid.xMm(at.nearestIndex() % w),
-                    at.inside() ? grid.yMm(cy) : grid.yMm(at.nearestIndex() / w)));
+            Region.BoundsMm bounds = new Region.BoundsMm(grid.xMm(minX[c] - halfPx), grid.yMm(maxY[c] + halfPx),
+                    grid.xMm(maxX[c] + halfPx), grid.yMm(minY[c] - halfPx));
+            double cx = (double) sumX[c] / count[c];
+            double cy = (double) sumY[c] / count[c];
+            int at = best[c];
+            int atY = at / w;
+            boolean inside = Math.abs(at - atY * w - cx) <= 0.5 && Math.abs(atY - cy) <= 0.5;
+            regions.add(new Region(regions.size() + 1, (int) count[c], area, grid.xMm(cx), grid.yMm(cy), bounds,
+                    peak[c], grid.xMm(peakIndex[c] % w), grid.yMm(peakIndex[c] / w), sumValue[c] / count[c],
+                    nearest[c], inside, inside ? grid.xMm(cx) : grid.xMm(at % w),
+                    inside ? grid.yMm(cy) : grid.yMm(atY)));
         }
         return new RegionTable(regions, criteria, shape != null ? RegionTable.EdgeReference.WAFER_SHAPE
                 : RegionTable.EdgeReference.DATA_OUTLINE);
     }
 
-    /** Distance of a pixel centre from the wafer edge, mm. */
-    private interface EdgeDistance {
-        double mm(int index, int x, int y);
+    /**
+     * The runs of selected pixels (horizontal stretches of pixels in the mask beyond the threshold), in raster order,
+     * each with the sum of its values (in index order), its peak and its least edge distance. Bands of rows are
+     * scanned in parallel and joined in order, so the runs and their sums do not depend on the number of threads.
+     */
+    private static final class Runs {
+        int size;
+        int[] y;
+        int[] x0;
+        int[] x1;
+        double[] sum;
+        double[] peak;
+        int[] peakIndex;
+        double[] nearest;
+        /** First run of each row, and of the row after the last. */
+        int[] rowStart;
+
+        Runs(int capacity) {
+            y = new int[capacity];
+            x0 = new int[capacity];
+            x1 = new int[capacity];
+            sum = new double[capacity];
+            peak = new double[capacity];
+            peakIndex = new int[capacity];
+            nearest = new double[capacity];
+        }
+
+        void add(int ry, int a, int b, double s, double p, int pi, double near) {
+            if (size == y.length) {
+                int c = Math.max(16, size * 2);
+                y = Arrays.copyOf(y, c);
+                x0 = Arrays.copyOf(x0, c);
+                x1 = Arrays.copyOf(x1, c);
+                sum = Arrays.copyOf(sum, c);
+                peak = Arrays.copyOf(peak, c);
+                peakIndex = Arrays.copyOf(peakIndex, c);
+                nearest = Arrays.copyOf(nearest, c);
+            }
+            y[size] = ry;
+            x0[size] = a;
+            x1[size] = b;
+            sum[size] = s;
+            peak[size] = p;
+            peakIndex[size] = pi;
+            nearest[size] = near;
+            size++;
+        }
+
+        static Runs of(float[] s, int w, int h, long[] words, RegionCriteria criteria, EdgeDistance edge) {
+            int rowsPerBand = Math.max(1, Mask.BLOCK_PX / w);
+            int bands = Blocks.count(h, rowsPerBand);
+            Runs[] band = new Runs[bands];
+            Blocks.run(bands, (long) w * h, b -> {
+                Runs out = new Runs(64);
+                for (int y = b * rowsPerBand, ye = Math.min(h, (b + 1) * rowsPerBand); y < ye; y++) {
+                    int row = y * w;
+                    int x = 0;
+                    while (x < w) {
+                        int i = row + x;
+                        if (!((words == null || (words[i >>> 6] & 1L << i) != 0) && criteria.selects(s[i]))) {
+                            x++;
+                            continue;
+                        }
+                        int start = x;
+                        double sum = 0;
+                        double peak = s[i];
+                        int peakIndex = i;
+                        for (; x < w; x++) {
+                            i = row + x;
+                            if (!((words == null || (words[i >>> 6] & 1L << i) != 0) && criteria.selects(s[i]))) {
+                                break;
+                            }
+                            double v = s[i];
+                            sum += v;
+                            if (criteria.morePeaked(v, peak)) {
+                                peak = v;
+                                peakIndex = i;
+                            }
+                        }
+                        out.add(y, start, x - 1, sum, peak, peakIndex, edge.leastOnRow(row, start, x - 1, y));
+                    }
+                }
+                band[b] = out;
+            });
+            int total = 0;
+            for (Runs r : band) {
+                total += r.size;
+            }
+            Runs all = new Runs(total);
+            for (Runs r : band) {
+                System.arraycopy(r.y, 0, all.y, all.size, r.size);
+                System.arraycopy(r.x0, 0, all.x0, all.size, r.size);
+                System.arraycopy(r.x1, 0, all.x1, all.size, r.size);
+                System.arraycopy(r.sum, 0, all.sum, all.size, r.size);
+                System.arraycopy(r.peak, 0, all.peak, all.size, r.size);
+                System.arraycopy(r.peakIndex, 0, all.peakIndex, all.size, r.size);
+                System.arraycopy(r.nearest, 0, all.nearest, all.size, r.size);
+                all.size += r.size;
+            }
+            all.rowStart = new int[h + 1];
+            for (int r = 0, row = 0; row <= h; row++) {
+                while (r < all.size && all.y[r] < row) {
+                    r++;
+                }
+                all.rowStart[row] = r;
+            }
+            return all;
+        }
+
+        /**
+         * The component of every run under 8-connectivity (a run touches the runs of the row above whose columns
+         * overlap its own widened by one), as the index of the component's first run in raster order.
+         */
+        int[] components() {
+            int[] parent = new int[size];
+            for (int r = 0; r < size; r++) {
+                parent[r] = r;
+            }
+            for (int row = 1; row < rowStart.length - 1; row++) {
+                int above = rowStart[row - 1];
+                int aboveEnd = rowStart[row];
+                for (int r = rowStart[row], end = rowStart[row + 1]; r < end; r++) {
+                    // runs above that end left of this one's reach can be skipped for the later runs of this row too
+                    while (above < aboveEnd && x1[above] < x0[r] - 1) {
+                        above++;
+                    }
+                    for (int a = above; a < aboveEnd && x0[a] <= x1[r] + 1; a++) {
+                        union(parent, a, r);
+                    }
+                }
+            }
+            for (int r = 0; r < size; r++) {
+                parent[r] = parent[parent[r]];
+            }
+            return parent;
+        }
+
+        /** Joins the components of a and b; the root is the lower run index. */
+        private static void union(int[] parent, int a, int b) {
+            int ra = find(parent, a);
+            int rb = find(parent, b);
+            if (ra < rb) {
+                parent[rb] = ra;
+            } else if (rb < ra) {
+                parent[ra] = rb;
+            }
+        }
+
+        private static int find(int[] parent, int a) {
+            while (parent[a] != a) {
+                parent[a] = parent[parent[a]];
+                a = parent[a];
+            }
+            return a;
+        }
     }
 
+    /** Distance of a pixel centre from the wafer edge, mm. */
+    private interface EdgeDistance {
+        /** The least distance of the pixels x0..x1 of row y (whose first pixel has index {@code row}). */
+        double leastOnRow(int row, int x0, int x1, int y);
+    }
+
+    /**
+     * Distances to a wafer shape's outline, which change by at most one pitch from a pixel to the next: after an
+     * exact distance d, the next ⌊(d − least so far − margin) / pitch⌋ pixels cannot hold a smaller one and are
+     * skipped. The margin of 1e-6 mm keeps rounding from skipping a pixel whose computed distance would be the least.
+     */
     private record ShapeEdge(WaferShape.Prepared shape, PixelGrid grid) implements EdgeDistance {
         @Override
-        public double mm(int index, int x, int y) {
-            return shape.distanceToEdgeMm(grid.xMm(x), grid.yMm(y));
+        public double leastOnRow(int row, int x0, int x1, int y) {
+            double yMm = grid.yMm(y);
+            double pitch = grid.pitchMm();
+            double first = shape.distanceToEdgeMm(grid.xMm(x0), yMm);
+            double least = Math.min(first, shape.distanceToEdgeMm(grid.xMm(x1), yMm));
+            double last = first;
+            int lastX = x0;
+            for (int x = x0 + 1; x < x1; ) {
+                double free = (last - least - 1e-6) / pitch;
+                if (free >= x - lastX) {
+                    x = lastX + (int) Math.min(x1 - lastX, (long) free) + 1;
+                    continue;
+                }
+                last = shape.distanceToEdgeMm(grid.xMm(x), yMm);
+                lastX = x;
+                least = Math.min(least, last);
+                x++;
+            }
+            return least;
         }
     }
 
     private record OutlineEdge(float[] distanceMm) implements EdgeDistance {
         @Override
-        public double mm(int index, int x, int y) {
-            return distanceMm[index];
-        }
-    }
-
-    /** A growable FIFO of ints (ring buffer). */
-    private static final class IntQueue {
-        private int[] items;
-        private int head;
-        private int size;
-
-        IntQueue(int capacity) {
-            items = new int[capacity];
-        }
-
-        void add(int v) {
-            if (size == items.length) {
-                int[] bigger = new int[items.length * 2];
-                int tail = items.length - head;
-                System.arraycopy(items, head, bigger, 0, tail);
-                System.arraycopy(items, 0, bigger, tail, head);
-                items = bigger;
-                head = 0;
+        public double leastOnRow(int row, int x0, int x1, int y) {
+            double least = Double.POSITIVE_INFINITY;
+            for (int x = x0; x <= x1; x++) {
+                least = Math.min(least, distanceMm[row + x]);
             }
-            int at = head + size;
-            items[at < items.length ? at : at - items.length] = v;
-            size++;
-        }
-
-        int poll() {
-            int v = items[head];
-            head = head + 1 == items.length ? 0 : head + 1;
-            size--;
-            return v;
-        }
-
-        boolean isEmpty() {
-            return size == 0;
+            return least;
         }
     }
 }

@@ -1,6 +1,7 @@
 package trapmap.maps.stats;
 
 import java.util.Locale;
+import trapmap.maps.raster.Blocks;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
@@ -143,11 +144,30 @@ public record InvalidArea(int evaluatedCount, int nonFiniteCount, int nonPositiv
                     + values.width() + "x" + values.height());
         }
         byte[] st = status;
-        Tally t = new Tally(lifetimeFloor);
-        for (int i = area.nextIndex(0); i >= 0 && i < v.length; i = area.nextIndex(i + 1)) {
-            t.add(v[i], st == null ? -1 : (int) st[i]);
+        long[] words = area.words();
+        int blocks = Blocks.count(v.length, Mask.BLOCK_PX);
+        Tally[] tallies = new Tally[blocks];
+        // blocks of the area in parallel, each with its own tally; the counts are integers, so their sum is the
+        // one-thread count whatever the split
+        Blocks.run(blocks, v.length, b -> {
+            Tally t = new Tally(lifetimeFloor);
+            int end = Math.min(v.length, (b + 1) * Mask.BLOCK_PX);
+            for (int wi = b * (Mask.BLOCK_PX >>> 6), we = (end + 63) >>> 6; wi < we; wi++) {
+                for (long word = words[wi]; word != 0; word &= word - 1) {
+                    int i = (wi << 6) + Long.numberOfTrailingZeros(word);
+                    t.add(v[i], st == null ? -1 : (int) st[i]);
+                }
+            }
+            tallies[b] = t;
+        });
+        Tally all = new Tally(lifetimeFloor);
+        for (Tally t : tallies) {
+            all.evaluated += t.evaluated;
+            all.nonFinite += t.nonFinite;
+            all.nonPositive += t.nonPositive;
+            all.invalidConversion += t.invalidConversion;
         }
-        return t.result(grid.pixelAreaMm2());
+        return all.result(grid.pixelAreaMm2());
     }
 
     /** Unusable pixels, all causes. */

@@ -4,6 +4,7 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.Blocks;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
@@ -30,9 +31,12 @@ import trapmap.shared.check.Checks;
  * with the n counted values sorted as x₀ ≤ … ≤ x_{n−1}, h = (n − 1)·p/100 and
  * P(p) = x_⌊h⌋ + (h − ⌊h⌋)·(x_⌊h⌋+1 − x_⌊h⌋). The median is P(50).
  *
- * <p><b>Cost.</b> One pass over the pixels gives count, mean and variance (Welford's update), extremes, the sums for
+ * <p><b>Cost.</b> One pass over the pixels gives count, mean and variance, extremes, the sums for
  * the harmonic and geometric means (Σ ln x as the logarithm of a rescaled running product) and the threshold counts,
- * while copying the counted values into one float array; the percentiles then come from two more passes over that
+ * while copying the counted values into one float array. The pass runs on all cores in fixed blocks of
+ * {@link Mask#BLOCK_PX} pixels, each with a two-pass mean and sum of squared deviations, combined in block order
+ * (the moments by the pairwise update of Chan, Golub and LeVeque), so the figures do not depend on the number of threads; Σ 1/x is added on one thread in index
+ * order, as every face adds it; the percentiles then come from two more passes over that
  * array (a radix count, then gathering the few buckets that hold the wanted ranks), with no full sort. No boxing;
  * a 16-megapixel map needs one extra 64 MB float array.
  *
@@ -101,10 +105,22 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
         checkSizes(raster, mask, grid);
         float[] s = raster.samples();
         double[] thresholds = request.thresholds().stream().mapToDouble(Double::doubleValue).toArray();
-        int[] below = new int[thresholds.length];
-        int[] above = new int[thresholds.length];
-        float[] values = new float[mask == null ? s.length : mask.count()];
+        int size = s.length;
+        long[] words = mask == null ? null : mask.words();
+        int blocks = Blocks.count(size, Mask.BLOCK_PX);
+        // each block writes its counted values from the first slot it may need (the mask pixels before it), so the
+        // values stay in index order; blocks with NaN pixels in the mask leave gaps, closed afterwards
+        int[] offset = new int[blocks + 1];
+        for (int b = 0; b < blocks; b++) {
+            offset[b + 1] = offset[b] + (words == null ? Math.min(Mask.BLOCK_PX, size - b * Mask.BLOCK_PX)
+                    : maskCount(words, b, size));
+        }
+        float[] values = new float[offset[blocks]];
+        Part[] parts = new Part[blocks];
+        Blocks.run(blocks, size, b -> parts[b] = Part.of(s, words, b, size, thresholds, values, offset[b]));
 
+        // the blocks' moments combined in block order (Chan, Golub and LeVeque's pairwise update of Welford's sums):
+        // the same figures on any number of threads
         int n = 0;
         int nonPositive = 0;
         double mean = 0;
@@ -112,49 +128,42 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
         double min = Double.POSITIVE_INFINITY;
         double max = Double.NEGATIVE_INFINITY;
         double reciprocalSum = 0;
-        // Σ ln x kept as ln(product) + binaryExponent·ln 2: one multiplication per pixel instead of a logarithm
-        double product = 1;
-        long binaryExponent = 0;
-        int i = mask == null ? 0 : mask.nextIndex(0);
-        while (i >= 0 && i < s.length) {
-            float f = s[i];
-            if (f == f) {
-                double v = f;
-                values[n++] = f;
-                double delta = v - mean;
-                mean += delta / n;
-                m2 += delta * (v - mean);
-                if (v < min) {
-                    min = v;
-                }
-                if (v > max) {
-                    max = v;
-                }
-                if (v > 0) {
-                    reciprocalSum += 1 / v;
-                    product *= v;
-                    if (product > 1e250 || product < 1e-250) {
-                        int e = Math.getExponent(product);
-                        product = Math.scalb(product, -e);
-                        binaryExponent += e;
-                    }
-                } else {
-                    nonPositive++;
-                }
-                for (int k = 0; k < thresholds.length; k++) {
-                    if (v < thresholds[k]) {
-                        below[k]++;
-                    } else if (v > thresholds[k]) {
-                        above[k]++;
-                    }
-                }
+        double logSum = 0;
+        int[] below = new int[thresholds.length];
+        int[] above = new int[thresholds.length];
+        for (int b = 0; b < blocks; b++) {
+            Part p = parts[b];
+            if (p.n == 0) {
+                continue;
             }
-            i = mask == null ? i + 1 : mask.nextIndex(i + 1);
+            if (n != offset[b]) {
+                System.arraycopy(values, offset[b], values, n, p.n);
+            }
+            int total = n + p.n;
+            double delta = p.mean - mean;
+            mean += delta * p.n / total;
+            m2 += p.m2 + delta * delta * ((double) n * p.n / total);
+            n = total;
+            nonPositive += p.nonPositive;
+            min = Math.min(min, p.min);
+            max = Math.max(max, p.max);
+            logSum += p.logSum;
+            for (int k = 0; k < thresholds.length; k++) {
+                below[k] += p.below[k];
+                above[k] += p.above[k];
+            }
         }
 
+        // Σ 1/x in index order on one thread: the harmonic mean, a verdict figure, is then the very number every
+        // other face computes from the same values (the batch adds the reciprocals of its packed values in order)
+        for (int k = 0; k < n; k++) {
+            float f = values[k];
+            if (f > 0) {
+                reciprocalSum += 1 / (double) f;
+            }
+        }
         double pixelArea = grid.pixelAreaMm2();
         int positive = n - nonPositive;
-        double logSum = Math.log(product) + binaryExponent * Math.log(2);
         List<AreaFraction> fractions = new ArrayList<>();
         for (int k = 0; k < thresholds.length; k++) {
             fractions.add(new AreaFraction(thresholds[k], below[k], above[k], n == 0 ? Double.NaN
@@ -174,6 +183,110 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
                 positive == 0 ? Double.NaN : Math.exp(logSum / positive), nonPositive,
                 estimates[asked.length], n == 0 ? Double.NaN : min, n == 0 ? Double.NaN : max,
                 n < 2 ? Double.NaN : Math.sqrt(m2 / (n - 1)), pv, fractions);
+    }
+
+    /** Pixels of block {@code b} in the mask. */
+    private static int maskCount(long[] words, int b, int size) {
+        int c = 0;
+        for (int wi = b * (Mask.BLOCK_PX >>> 6), we = (Math.min(size, (b + 1) * Mask.BLOCK_PX) + 63) >>> 6; wi < we;
+                wi++) {
+            c += Long.bitCount(words[wi]);
+        }
+        return c;
+    }
+
+    /** The sums of one block of pixels, in index order. */
+    private static final class Part {
+        int n;
+        int nonPositive;
+        double mean;
+        double m2;
+        double min = Double.POSITIVE_INFINITY;
+        double max = Double.NEGATIVE_INFINITY;
+        double logSum;
+        int[] below;
+        int[] above;
+
+        /** Block {@code b} of {@code s} over the mask {@code words} (null: all), its values copied to out[at..]. */
+        static Part of(float[] s, long[] words, int b, int size, double[] thresholds, float[] out, int at) {
+            Part p = new Part();
+            p.below = new int[thresholds.length];
+            p.above = new int[thresholds.length];
+            int from = b * Mask.BLOCK_PX;
+            int end = Math.min(size, from + Mask.BLOCK_PX);
+            // Σ ln x kept as ln(product) + binaryExponent·ln 2: one multiplication per pixel instead of a logarithm
+            double product = 1;
+            long binaryExponent = 0;
+            int n = 0;
+            if (words == null) {
+                for (int i = from; i < end; i++) {
+                    float f = s[i];
+                    if (f == f) {
+                        out[at + n++] = f;
+                    }
+                }
+            } else {
+                for (int wi = from >>> 6, we = (end + 63) >>> 6; wi < we; wi++) {
+                    long word = words[wi];
+                    int base = wi << 6;
+                    if (word == -1L) {
+                        for (int i = base; i < base + 64; i++) {
+                            float f = s[i];
+                            if (f == f) {
+                                out[at + n++] = f;
+                            }
+                        }
+                    } else {
+                        for (; word != 0; word &= word - 1) {
+                            float f = s[base + Long.numberOfTrailingZeros(word)];
+                            if (f == f) {
+                                out[at + n++] = f;
+                            }
+                        }
+                    }
+                }
+            }
+            // the block's values, now side by side: sums in index order, then the squared deviations from the
+            // block's mean (two passes: no division per pixel, and more accurate than a running update)
+            double sum = 0;
+            for (int k = at, e = at + n; k < e; k++) {
+                double v = out[k];
+                sum += v;
+                if (v < p.min) {
+                    p.min = v;
+                }
+                if (v > p.max) {
+                    p.max = v;
+                }
+                if (v > 0) {
+                    product *= v;
+                    if (product > 1e250 || product < 1e-250) {
+                        int exponent = Math.getExponent(product);
+                        product = Math.scalb(product, -exponent);
+                        binaryExponent += exponent;
+                    }
+                } else {
+                    p.nonPositive++;
+                }
+                for (int t = 0; t < thresholds.length; t++) {
+                    if (v < thresholds[t]) {
+                        p.below[t]++;
+                    } else if (v > thresholds[t]) {
+                        p.above[t]++;
+                    }
+                }
+            }
+            p.mean = n == 0 ? 0 : sum / n;
+            double m2 = 0;
+            for (int k = at, e = at + n; k < e; k++) {
+                double d = out[k] - p.mean;
+                m2 += d * d;
+            }
+            p.m2 = m2;
+            p.n = n;
+            p.logSum = n - p.nonPositive == 0 ? 0 : Math.log(product) + binaryExponent * Math.log(2);
+            return p;
+        }
     }
 
     /**

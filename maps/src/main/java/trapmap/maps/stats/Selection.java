@@ -1,6 +1,7 @@
 package trapmap.maps.stats;
 
 import java.util.Arrays;
+import trapmap.maps.raster.Blocks;
 
 /**
  * Order statistics of float arrays without a full sort, for percentiles: a radix pre-pass and in-place selection
@@ -11,6 +12,8 @@ final class Selection {
     private static final int BUCKETS = 1 << 16;
     /** Up to this many values are sorted outright. */
     static final int SORTED = 1 << 12;
+    /** Values per chunk of the parallel counting and gathering passes. */
+    private static final int CHUNK = 1 << 20;
 
     private Selection() {
     }
@@ -33,9 +36,22 @@ final class Selection {
             }
             return out;
         }
+        // the bucket counts of fixed chunks on all cores, added up (integers: the same on any number of threads)
+        int chunks = Blocks.count(n, CHUNK);
+        int[][] chunkCount = new int[chunks][];
+        Blocks.run(chunks, n, c -> {
+            int[] cc = new int[BUCKETS];
+            for (int i = c * CHUNK, end = Math.min(n, (c + 1) * CHUNK); i < end; i++) {
+                cc[bucket(values[i])]++;
+            }
+            chunkCount[c] = cc;
+        });
         int[] count = new int[BUCKETS];
-        for (int i = 0; i < n; i++) {
-            count[bucket(values[i])]++;
+        for (int c = 0; c < chunks; c++) {
+            int[] cc = chunkCount[c];
+            for (int bb = 0; bb < BUCKETS; bb++) {
+                count[bb] += cc[bb];
+            }
         }
         int[] start = new int[BUCKETS + 1];
         for (int b = 0; b < BUCKETS; b++) {
@@ -66,18 +82,30 @@ final class Selection {
             return out;
         }
         float[][] bins = new float[slots][];
-        int[] fill = new int[slots];
+        int[] bucketOfSlot = new int[slots];
         for (int bb = 0; bb < BUCKETS; bb++) {
             if (slotOfBucket[bb] >= 0) {
                 bins[slotOfBucket[bb]] = new float[count[bb]];
+                bucketOfSlot[slotOfBucket[bb]] = bb;
             }
         }
-        for (int i = 0; i < n; i++) {
-            int slot = slotOfBucket[bucket(values[i])];
-            if (slot >= 0) {
-                bins[slot][fill[slot]++] = values[i];
+        // each chunk gathers into its own stretch of every bin (the chunks before it fill the stretches before),
+        // so the bins hold their values in index order however the chunks are run
+        int[][] fillOfChunk = new int[chunks][slots];
+        for (int c = 1; c < chunks; c++) {
+            for (int slot = 0; slot < slots; slot++) {
+                fillOfChunk[c][slot] = fillOfChunk[c - 1][slot] + chunkCount[c - 1][bucketOfSlot[slot]];
             }
         }
+        Blocks.run(chunks, n, c -> {
+            int[] fill = fillOfChunk[c];
+            for (int i = c * CHUNK, end = Math.min(n, (c + 1) * CHUNK); i < end; i++) {
+                int slot = slotOfBucket[bucket(values[i])];
+                if (slot >= 0) {
+                    bins[slot][fill[slot]++] = values[i];
+                }
+            }
+        });
         // each wanted rank selected within its bucket (ascending ranks, so a later one starts where the last ended);
         // a bucket never holds both zeros (-0 and +0 have keys on either side of a bucket boundary), so comparing
         // with < orders it exactly as Arrays.sort would
