@@ -183,7 +183,7 @@ final class RegistrationSearch {
         double[] startPoint = turn ? new double[] {r0.shiftXMm() / p, r0.shiftYMm() / p, 0}
                 : new double[] {r0.shiftXMm() / p, r0.shiftYMm() / p};
         double[] steps = turn ? new double[] {stepPx, stepPx, stepPx} : new double[] {stepPx, stepPx};
-        NelderMead.Minimum m = NelderMead.minimise(f, startPoint, steps, tolerance, 400);
+        SimplexSearch.Minimum m = SimplexSearch.minimise(f, startPoint, steps, tolerance, 400);
         if (!Double.isFinite(m.value())) {
             return r0;
         }
