@@ -3,6 +3,10 @@ package trapmap.cli;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.List;
+import java.util.concurrent.CancellationException;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ForkJoinPool;
+import java.util.concurrent.ForkJoinTask;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.MapFormatException;
 import trapmap.maps.model.WaferMap;
@@ -28,6 +32,49 @@ final class MapInput {
                     + (pages.size() == 1 ? "" : "s") + ", so --page " + page + " does not exist");
         }
         return pages.get(page - 1);
+    }
+
+    /**
+     * Page 1 of {@code first} and of {@code second}, read at the same time ({@code second} on the common fork-join
+     * pool). Failures come as reading one after the other gives them: {@code first}'s before {@code second}'s, and
+     * the file being processed is the one that failed (or {@code second}).
+     *
+     * @throws MapFormatException as {@link #page}
+     */
+    static WaferMap[] firstPages(Path first, Path second) throws MapFormatException {
+        ForkJoinTask<WaferMap> other = ForkJoinPool.commonPool().submit(() -> {
+            try {
+                return page(second, 1);
+            } finally {
+                processingDone();
+            }
+        });
+        WaferMap a;
+        try {
+            a = page(first, 1);
+        } catch (MapFormatException | RuntimeException | Error e) {
+            other.cancel(false);
+            throw e;
+        }
+        PROCESSING.set(second);
+        try {
+            return new WaferMap[] {a, other.get()};
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new CancellationException("reading " + second + " was interrupted");
+        } catch (ExecutionException e) {
+            Throwable cause = e.getCause();
+            if (cause instanceof MapFormatException m) {
+                throw m;
+            }
+            if (cause instanceof RuntimeException r) {
+                throw r;
+            }
+            if (cause instanceof Error r) {
+                throw r;
+            }
+            throw new IllegalStateException(cause);
+        }
     }
 
     /** The map file read last by the command running in this thread (the one being processed), or null. */

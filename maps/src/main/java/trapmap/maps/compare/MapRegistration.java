@@ -66,9 +66,25 @@ public final class MapRegistration {
      */
     public static RegistrationReport registerChecked(WaferMap before, WaferMap after, RegistrationOptions options,
                                                      ProgressListener progress) {
-        RegistrationReport r = choose(search(before, after, options, progress), options);
+        RegistrationWarnings.SizeCheck size = RegistrationWarnings.SizeCheck.start(before, after);
+        try {
+            return withWarnings(before, after, registerUnchecked(before, after, options, progress), size);
+        } finally {
+            size.cancel();
+        }
+    }
+
+    /** As {@link #registerChecked} without the warnings: the outline size check is left to the caller. */
+    static RegistrationReport registerUnchecked(WaferMap before, WaferMap after, RegistrationOptions options,
+                                                ProgressListener progress) {
+        return choose(search(before, after, options, progress), options);
+    }
+
+    /** {@code r} with the warnings of the pair, the size check's among them. */
+    static RegistrationReport withWarnings(WaferMap before, WaferMap after, RegistrationReport r,
+                                           RegistrationWarnings.SizeCheck size) {
         return new RegistrationReport(r.registration(), r.kept(), r.searchScore(), r.identityScore(),
-                RegistrationWarnings.of(before, after, r.registration()));
+                RegistrationWarnings.of(before, after, r.registration(), size.warning()));
     }
 
     /** The search's placement or the identity, whichever scores higher (the identity on a tie); no warnings. */
@@ -86,9 +102,19 @@ public final class MapRegistration {
      * {@link RegistrationWarnings}.
      */
     public static RegistrationReport unregistered(WaferMap before, WaferMap after) {
+        RegistrationWarnings.SizeCheck size = RegistrationWarnings.SizeCheck.start(before, after);
+        try {
+            return withWarnings(before, after, unregisteredUnchecked(before, after), size);
+        } finally {
+            size.cancel();
+        }
+    }
+
+    /** As {@link #unregistered} without the warnings. */
+    static RegistrationReport unregisteredUnchecked(WaferMap before, WaferMap after) {
         Registration identity = evaluate(before, after, Registration.identity());
         return new RegistrationReport(identity, RegistrationReport.Kept.UNREGISTERED, Double.NaN, identity.score(),
-                RegistrationWarnings.of(before, after, identity));
+                List.of());
     }
 
     /**
