@@ -68,16 +68,20 @@ public final class MapRegistration {
                                                      ProgressListener progress) {
         RegistrationWarnings.SizeCheck size = RegistrationWarnings.SizeCheck.start(before, after);
         try {
-            return withWarnings(before, after, registerUnchecked(before, after, options, progress), size);
+            return withWarnings(before, after, registerUnchecked(before, after, options, progress, true), size);
         } finally {
             size.cancel();
         }
     }
 
-    /** As {@link #registerChecked} without the warnings: the outline size check is left to the caller. */
+    /**
+     * As {@link #registerChecked} without the warnings: the outline size check is left to the caller; with
+     * {@code countOverlap} false the overlap of the registration is left 0 for the caller to count on the resampled
+     * map ({@link Resampling#paired}).
+     */
     static RegistrationReport registerUnchecked(WaferMap before, WaferMap after, RegistrationOptions options,
-                                                ProgressListener progress) {
-        return choose(search(before, after, options, progress), options);
+                                                ProgressListener progress, boolean countOverlap) {
+        return choose(search(before, after, options, progress, countOverlap), options);
     }
 
     /** {@code r} with the warnings of the pair, the size check's among them. */
@@ -150,8 +154,17 @@ public final class MapRegistration {
         Checks.notNull(before, "before");
         Checks.notNull(after, "after");
         Checks.notNull(r, "registration");
+        return aligned(before, after, r, resampled(before, after, r));
+    }
+
+    /** The samples of {@link #apply}. */
+    static FloatRaster resampled(WaferMap before, WaferMap after, Registration r) {
         PixelMapping m = PixelMapping.of(before.grid(), after.grid(), r);
-        FloatRaster aligned = Resampling.resample(after.raster(), m, before.width(), before.height());
+        return Resampling.resample(after.raster(), m, before.width(), before.height());
+    }
+
+    /** The map of {@link #apply} around its samples {@code aligned}. */
+    static WaferMap aligned(WaferMap before, WaferMap after, Registration r, FloatRaster aligned) {
         ProcessingStep step = ProcessingStep.of("register",
                 "onto", before.waferId().isEmpty() ? before.provenance().source() : before.waferId(),
                 "flip_x", Boolean.toString(r.flipX()),
@@ -169,6 +182,11 @@ public final class MapRegistration {
 
     private static RegistrationSearch search(WaferMap before, WaferMap after, RegistrationOptions options,
                                              ProgressListener progress) {
+        return search(before, after, options, progress, true);
+    }
+
+    private static RegistrationSearch search(WaferMap before, WaferMap after, RegistrationOptions options,
+                                             ProgressListener progress, boolean countOverlap) {
         Checks.notNull(before, "before");
         Checks.notNull(after, "after");
         Checks.notNull(options, "options");
@@ -177,7 +195,7 @@ public final class MapRegistration {
         requireSize(after, "after");
         boolean invert = Improvement.opposite(before.quantity(), after.quantity());
         return new RegistrationSearch(new Pyramid(before.raster(), before.grid(), false),
-                new Pyramid(after.raster(), after.grid(), invert), options, progress);
+                new Pyramid(after.raster(), after.grid(), invert), options, progress, countOverlap);
     }
 
     private static void requireSize(WaferMap m, String which) {

@@ -1,6 +1,8 @@
 package trapmap.maps.compare;
 
+import java.util.List;
 import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.FloatRaster;
 import trapmap.shared.check.Checks;
 import trapmap.shared.error.InvalidValueException;
 import trapmap.shared.progress.ProgressListener;
@@ -51,8 +53,14 @@ public record RegisteredPair(RegistrationReport report, WaferMap aligned, Paired
                 aligned = after.withGrid(before.grid());
                 report = MapRegistration.unregisteredUnchecked(before, after);
             } else {
-                report = MapRegistration.registerUnchecked(before, after, options, progress);
-                aligned = MapRegistration.apply(before, after, report.registration());
+                // the overlap is counted on the resampled map rather than by sampling the after map once more
+                RegistrationReport found = MapRegistration.registerUnchecked(before, after, options, progress, false);
+                Registration r = found.registration();
+                FloatRaster samples = MapRegistration.resampled(before, after, r);
+                Registration counted = r.withQuality(r.score(), Resampling.paired(before.raster(), samples));
+                report = new RegistrationReport(counted, found.kept(), found.searchScore(), found.identityScore(),
+                        List.of());
+                aligned = MapRegistration.aligned(before, after, counted, samples);
             }
             PairedStatistics statistics = MapComparison.statistics(before, aligned, null, relativeTolerance,
                     improvement);

@@ -44,9 +44,21 @@ class RegisteredPairTest {
         assertThat(pair.report()).isEqualTo(report);
         assertThat(pair.aligned().raster().samples()).isEqualTo(aligned.raster().samples());
         assertThat(pair.aligned().grid()).isEqualTo(BEFORE.grid());
+        assertThat(pair.aligned().provenance()).isEqualTo(aligned.provenance());
         assertThat(pair.statistics()).isEqualTo(statistics);
         assertThat(report.registration().mirrored()).isTrue();
         assertThat(report.registration().score()).isGreaterThan(0.9);
+    }
+
+    @Test
+    void theOverlapCountedOnTheResampledMapIsTheSearchCount() {
+        for (Registration r : new Registration[] {Registration.identity(), TRUTH,
+                Registration.explicit(false, true, -33, 5.25, 0.5), Registration.explicit(false, false, 0, 30, -12)}) {
+            PixelMapping m = PixelMapping.of(BEFORE.grid(), AFTER.grid(), r);
+            int direct = Resampling.overlap(BEFORE.raster(), AFTER.raster(), m);
+            int counted = Resampling.paired(BEFORE.raster(), MapRegistration.resampled(BEFORE, AFTER, r));
+            assertThat(counted).as("%s", r).isEqualTo(direct);
+        }
     }
 
     @Test
