@@ -3,8 +3,6 @@ package trapmap.cli;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.List;
-import java.util.concurrent.CancellationException;
-import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ForkJoinPool;
 import java.util.concurrent.ForkJoinTask;
 import trapmap.maps.io.MapFiles;
@@ -42,9 +40,11 @@ final class MapInput {
      * @throws MapFormatException as {@link #page}
      */
     static WaferMap[] firstPages(Path first, Path second) throws MapFormatException {
-        ForkJoinTask<WaferMap> other = ForkJoinPool.commonPool().submit(() -> {
+        ForkJoinTask<Read> other = ForkJoinPool.commonPool().submit(() -> {
             try {
-                return page(second, 1);
+                return new Read(page(second, 1), null);
+            } catch (MapFormatException | RuntimeException | Error e) {
+                return new Read(null, e); // rethrown as it is on the caller's thread
             } finally {
                 processingDone();
             }
@@ -57,24 +57,21 @@ final class MapInput {
             throw e;
         }
         PROCESSING.set(second);
-        try {
-            return new WaferMap[] {a, other.get()};
-        } catch (InterruptedException e) {
-            Thread.currentThread().interrupt();
-            throw new CancellationException("reading " + second + " was interrupted");
-        } catch (ExecutionException e) {
-            Throwable cause = e.getCause();
-            if (cause instanceof MapFormatException m) {
-                throw m;
-            }
-            if (cause instanceof RuntimeException r) {
-                throw r;
-            }
-            if (cause instanceof Error r) {
-                throw r;
-            }
-            throw new IllegalStateException(cause);
+        Read b = other.join();
+        if (b.failure() instanceof MapFormatException m) {
+            throw m;
         }
+        if (b.failure() instanceof RuntimeException r) {
+            throw r;
+        }
+        if (b.failure() instanceof Error r) {
+            throw r;
+        }
+        return new WaferMap[] {a, b.map()};
+    }
+
+    /** A map read on another thread, or why it could not be read. */
+    private record Read(WaferMap map, Throwable failure) {
     }
 
     /** The map file read last by the command running in this thread (the one being processed), or null. */
