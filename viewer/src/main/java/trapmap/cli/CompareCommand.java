@@ -12,11 +12,11 @@ import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
-import trapmap.maps.compare.Comparison;
 import trapmap.maps.compare.MapComparison;
-import trapmap.maps.compare.MapRegistration;
+import trapmap.maps.compare.Improvement;
 import trapmap.maps.compare.PairedStatistics;
 import trapmap.maps.compare.Registration;
+import trapmap.maps.compare.RegisteredPair;
 import trapmap.maps.compare.RegistrationOptions;
 import trapmap.maps.compare.RegistrationReport;
 import trapmap.maps.compare.RegistrationWarnings;
@@ -105,8 +105,9 @@ final class CompareCommand implements Callable<Integer> {
         if (!(maxRotationDeg >= 0 && maxRotationDeg <= 45)) {
             throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + maxRotationDeg + ")");
         }
-        WaferMap before = MapInput.page(beforeFile, 1);
-        WaferMap after = MapInput.page(afterFile, 1);
+        WaferMap[] read = MapInput.firstPages(beforeFile, afterFile);
+        WaferMap before = read[0];
+        WaferMap after = read[1];
         Defect d = density.defectOrNull();
         before = DensityOption.apply(before, d, conditions, spec.commandLine().getErr());
         after = DensityOption.apply(after, d, conditions, spec.commandLine().getErr());
@@ -114,40 +115,34 @@ final class CompareCommand implements Callable<Integer> {
             throw new InputException(afterFile + " holds " + after.quantity().key() + " but " + beforeFile + " holds "
                     + before.quantity().key() + "; compare maps of one quantity (or use --defect)");
         }
-        RegistrationReport report;
-        WaferMap aligned;
-        if (noRegistration) {
-            if (before.width() != after.width() || before.height() != after.height()) {
-                throw new InputException("--no-registration needs maps of one size, but " + beforeFile + " is "
-                        + before.width() + "x" + before.height() + " px and " + afterFile + " is " + after.width()
-                        + "x" + after.height() + " px");
-            }
-            report = MapRegistration.unregistered(before, after);
-            aligned = after.withGrid(before.grid());
-        } else {
-            report = MapRegistration.registerChecked(before, after, RegistrationOptions.DEFAULTS
-                    .withMaxRotation(maxRotationDeg).withSearchOrientations(!upright), ProgressListener.NONE);
-            aligned = MapRegistration.apply(before, after, report.registration());
+        if (noRegistration && (before.width() != after.width() || before.height() != after.height())) {
+            throw new InputException("--no-registration needs maps of one size, but " + beforeFile + " is "
+                    + before.width() + "x" + before.height() + " px and " + afterFile + " is " + after.width()
+                    + "x" + after.height() + " px");
         }
-        Registration registration = report.registration();
-        Comparison c = MapComparison.compare(before, aligned, null, tolerance,
-                trapmap.maps.compare.Improvement.of(before.quantity()));
+        RegisteredPair pair = RegisteredPair.of(before, after, noRegistration ? null : RegistrationOptions.DEFAULTS
+                        .withMaxRotation(maxRotationDeg).withSearchOrientations(!upright), tolerance,
+                Improvement.of(before.quantity()), ProgressListener.NONE);
+        RegistrationReport report = pair.report();
+        WaferMap aligned = pair.aligned();
+        PairedStatistics statistics = pair.statistics();
         if (output != null) {
+            // only the map that is written is made
             WaferMap out = switch (kind) {
-                case "difference" -> c.difference();
-                case "relative-change" -> c.relativeChange();
+                case "difference" -> MapComparison.difference(before, aligned);
+                case "relative-change" -> MapComparison.relativeChange(before, aligned);
                 case "reduction" -> {
-                    if (c.reduction() == null) {
+                    if (!MapComparison.isDensity(before.quantity())) {
                         throw new InputException("--quantity reduction needs density maps (trap or iron density);"
                                 + " these hold " + before.quantity().key() + " (use --defect)");
                     }
-                    yield c.reduction();
+                    yield MapComparison.reduction(before, aligned);
                 }
-                default -> c.ratio();
+                default -> MapComparison.ratio(before, aligned);
             };
             MapInput.write(out, output);
         }
-        print(report, c.statistics());
+        print(report, statistics);
         PrintWriter err = spec.commandLine().getErr();
         report.warnings().forEach(w -> err.println("warning: " + w));
         err.flush();

@@ -3,6 +3,8 @@ package trapmap.cli;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.List;
+import java.util.concurrent.ForkJoinPool;
+import java.util.concurrent.ForkJoinTask;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.MapFormatException;
 import trapmap.maps.io.MapStream;
@@ -40,6 +42,48 @@ final class MapInput {
     static MapStream stream(Path file, int page) throws MapFormatException {
         PROCESSING.set(file);
         return page == 1 ? MapStream.open(file) : MapStream.of(page(file, page));
+    }
+
+    /**
+     * Page 1 of {@code first} and of {@code second}, read at the same time ({@code second} on the common fork-join
+     * pool). Failures come as reading one after the other gives them: {@code first}'s before {@code second}'s, and
+     * the file being processed is the one that failed (or {@code second}).
+     *
+     * @throws MapFormatException as {@link #page}
+     */
+    static WaferMap[] firstPages(Path first, Path second) throws MapFormatException {
+        ForkJoinTask<Read> other = ForkJoinPool.commonPool().submit(() -> {
+            try {
+                return new Read(page(second, 1), null);
+            } catch (MapFormatException | RuntimeException | Error e) {
+                return new Read(null, e); // rethrown as it is on the caller's thread
+            } finally {
+                processingDone();
+            }
+        });
+        WaferMap a;
+        try {
+            a = page(first, 1);
+        } catch (MapFormatException | RuntimeException | Error e) {
+            other.cancel(false);
+            throw e;
+        }
+        PROCESSING.set(second);
+        Read b = other.join();
+        if (b.failure() instanceof MapFormatException m) {
+            throw m;
+        }
+        if (b.failure() instanceof RuntimeException r) {
+            throw r;
+        }
+        if (b.failure() instanceof Error r) {
+            throw r;
+        }
+        return new WaferMap[] {a, b.map()};
+    }
+
+    /** A map read on another thread, or why it could not be read. */
+    private record Read(WaferMap map, Throwable failure) {
     }
 
     /** The map file read last by the command running in this thread (the one being processed), or null. */

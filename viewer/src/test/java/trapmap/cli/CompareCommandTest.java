@@ -159,4 +159,19 @@ class CompareCommandTest {
         assertThat(r.code()).isEqualTo(2);
         assertThat(r.errLines()).hasSize(1).first().asString().contains("trap-density");
     }
+
+    @Test
+    void anUnreadableMapIsNamedWhicheverOfTheTwoItIs() throws Exception {
+        Path good = write("x", texture(1));
+        Path junk = dir.resolve("junk.tif");
+        java.nio.file.Files.write(junk, new byte[] {1, 2, 3, 4});
+        Path missing = dir.resolve("missing.tif");
+        for (String[] pair : new String[][] {{good.toString(), junk.toString()}, {junk.toString(), good.toString()},
+                {good.toString(), missing.toString()}, {missing.toString(), junk.toString()}}) {
+            Cli.Run r = Cli.run("compare", pair[0], pair[1]);
+            String bad = pair[0].equals(good.toString()) ? pair[1] : pair[0];
+            assertThat(r.code()).as("%s %s", pair[0], pair[1]).isEqualTo(2);
+            assertThat(r.errLines()).hasSize(1).first().asString().contains(bad).doesNotContain("internal error");
+        }
+    }
 }

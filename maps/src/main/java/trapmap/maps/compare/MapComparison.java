@@ -3,6 +3,8 @@ package trapmap.maps.compare;
 import java.util.Arrays;
 import java.util.Locale;
 import java.util.function.DoubleBinaryOperator;
+import java.util.stream.IntStream;
+import org.apache.commons.math3.util.KthSelector;
 import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
@@ -21,6 +23,11 @@ import trapmap.shared.error.InvalidValueException;
 public final class MapComparison {
     /** ±5 %: changes within it count as unchanged (common practice for repeat lifetime maps). */
     public static final double DEFAULT_RELATIVE_TOLERANCE = 0.05;
+
+    /** Size of the pivot cache of {@link KthSelector} (as Commons Math's {@code Percentile} uses). */
+    private static final int PIVOTS_HEAP = 0x1FF;
+    /** Pixels per parallel task when a map is derived. */
+    private static final int CHUNK = 1 << 16;
 
     private MapComparison() {
     }
@@ -104,9 +111,6 @@ public final class MapComparison {
         float[] b = before.raster().samples();
         float[] a = after.raster().samples();
         boolean density = isDensity(before.quantity());
-        double[] differences = new double[b.length];
-        double[] ratios = new double[b.length];
-        double[] reductions = density ? new double[b.length] : null;
         int n = 0;
         int np = 0;
         double sumDifference = 0;
@@ -119,18 +123,15 @@ public final class MapComparison {
         for (int i = 0; i < b.length; i++) {
             double vb = b[i];
             double va = a[i];
-            if (!Double.isFinite(vb) || !Double.isFinite(va) || (region != null && !region.containsIndex(i))) {
+            if (!paired(vb, va, region, i)) {
                 continue;
             }
             double d = va - vb;
-            differences[n++] = d;
+            n++;
             sumDifference += d;
             if (vb > 0 && va > 0) {
                 double r = va / vb;
-                if (density) {
-                    reductions[np] = 1 - r;
-                }
-                ratios[np++] = r;
+                np++;
                 sumRatio += r;
                 sumInverseBefore += 1 / vb;
                 sumInverseAfter += 1 / va;
@@ -142,14 +143,46 @@ public final class MapComparison {
                 }
             }
         }
+        // one work array, refilled for each median (differences, ratios, reductions)
+        double[] work = new double[n];
+        fill(work, b, a, region, false, (vb, va) -> va - vb);
+        double medianDifference = median(work, n);
+        fill(work, b, a, region, true, (vb, va) -> va / vb);
+        double medianRatio = median(work, np);
+        double medianReduction = Double.NaN;
+        if (density) {
+            fill(work, b, a, region, true, (vb, va) -> 1 - va / vb);
+            medianReduction = median(work, np);
+        }
         double nan = Double.NaN;
         return new PairedStatistics(before.quantity(), before.quantity().unit(), improvement, relativeTolerance, n,
-                n == 0 ? nan : sumDifference / n, median(differences, n), np,
-                np == 0 ? nan : sumRatio / np, median(ratios, np),
+                n == 0 ? nan : sumDifference / n, medianDifference, np,
+                np == 0 ? nan : sumRatio / np, medianRatio,
                 np == 0 ? nan : np / sumInverseBefore, np == 0 ? nan : np / sumInverseAfter,
                 np == 0 ? nan : improved / (double) np, np == 0 ? nan : unchanged / (double) np,
                 np == 0 ? nan : (np - improved - unchanged) / (double) np,
-                density ? median(reductions, np) : nan);
+                medianReduction);
+    }
+
+    /** True when pixel i has data in both maps and lies in the region (null: everywhere). */
+    private static boolean paired(double vb, double va, Mask region, int i) {
+        return Double.isFinite(vb) && Double.isFinite(va) && (region == null || region.containsIndex(i));
+    }
+
+    /**
+     * Writes f(before, after) of the paired pixels (of those with both samples positive when {@code positive}) to
+     * the start of {@code out}, in pixel order.
+     */
+    private static void fill(double[] out, float[] b, float[] a, Mask region, boolean positive,
+                             DoubleBinaryOperator f) {
+        int k = 0;
+        for (int i = 0; i < b.length; i++) {
+            double vb = b[i];
+            double va = a[i];
+            if (paired(vb, va, region, i) && (!positive || (vb > 0 && va > 0))) {
+                out[k++] = f.applyAsDouble(vb, va);
+            }
+        }
     }
 
     /** True for trap, iron and normalised defect densities (the quantities whose reduction is meaningful). */
@@ -160,13 +193,23 @@ public final class MapComparison {
         };
     }
 
-    /** Median of the first n values (sorts them), NaN for none. */
-    private static double median(double[] v, int n) {
+    /**
+     * Median of the first n values (reorders them; the mean of the two middle values for even n), NaN for none.
+     * The middle values are selected (Commons Math {@link KthSelector}, expected linear time), not sorted.
+     */
+    static double median(double[] v, int n) {
         if (n == 0) {
             return Double.NaN;
         }
-        Arrays.sort(v, 0, n);
-        return n % 2 == 1 ? v[n / 2] : 0.5 * (v[n / 2 - 1] + v[n / 2]);
+        double[] w = n == v.length ? v : Arrays.copyOf(v, n);
+        KthSelector selector = new KthSelector();
+        int[] pivots = new int[PIVOTS_HEAP];
+        Arrays.fill(pivots, -1);
+        double upper = selector.select(w, pivots, n / 2);
+        if (n % 2 == 1) {
+            return upper;
+        }
+        return 0.5 * (selector.select(w, pivots, n / 2 - 1) + upper);
     }
 
     private static WaferMap derive(WaferMap before, WaferMap after, Quantity q, String what, String formula,
@@ -174,11 +217,14 @@ public final class MapComparison {
         float[] b = before.raster().samples();
         float[] a = after.raster().samples();
         float[] out = new float[b.length];
-        for (int i = 0; i < out.length; i++) {
-            double vb = b[i];
-            double va = a[i];
-            out[i] = Double.isFinite(vb) && Double.isFinite(va) ? (float) f.applyAsDouble(vb, va) : Float.NaN;
-        }
+        // each pixel alone, rows of blocks in parallel: the same map on any number of threads
+        IntStream.range(0, (out.length + CHUNK - 1) / CHUNK).parallel().forEach(c -> {
+            for (int i = c * CHUNK, end = Math.min(out.length, i + CHUNK); i < end; i++) {
+                double vb = b[i];
+                double va = a[i];
+                out[i] = Double.isFinite(vb) && Double.isFinite(va) ? (float) f.applyAsDouble(vb, va) : Float.NaN;
+            }
+        });
         String unit = q == Quantity.DIFFERENCE ? before.quantity().unit() : "";
         ProcessingStep step = ProcessingStep.of("compare", "result", what, "formula", formula,
                 "of", before.quantity().key(), "unit", unit,

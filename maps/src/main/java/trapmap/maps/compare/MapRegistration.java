@@ -66,9 +66,29 @@ public final class MapRegistration {
      */
     public static RegistrationReport registerChecked(WaferMap before, WaferMap after, RegistrationOptions options,
                                                      ProgressListener progress) {
-        RegistrationReport r = choose(search(before, after, options, progress), options);
+        RegistrationWarnings.SizeCheck size = RegistrationWarnings.SizeCheck.start(before, after);
+        try {
+            return withWarnings(before, after, registerUnchecked(before, after, options, progress, true), size);
+        } finally {
+            size.cancel();
+        }
+    }
+
+    /**
+     * As {@link #registerChecked} without the warnings: the outline size check is left to the caller; with
+     * {@code countOverlap} false the overlap of the registration is left 0 for the caller to count on the resampled
+     * map ({@link Resampling#paired}).
+     */
+    static RegistrationReport registerUnchecked(WaferMap before, WaferMap after, RegistrationOptions options,
+                                                ProgressListener progress, boolean countOverlap) {
+        return choose(search(before, after, options, progress, countOverlap), options);
+    }
+
+    /** {@code r} with the warnings of the pair, the size check's among them. */
+    static RegistrationReport withWarnings(WaferMap before, WaferMap after, RegistrationReport r,
+                                           RegistrationWarnings.SizeCheck size) {
         return new RegistrationReport(r.registration(), r.kept(), r.searchScore(), r.identityScore(),
-                RegistrationWarnings.of(before, after, r.registration()));
+                RegistrationWarnings.of(before, after, r.registration(), size.warning()));
     }
 
     /** The search's placement or the identity, whichever scores higher (the identity on a tie); no warnings. */
@@ -86,9 +106,19 @@ public final class MapRegistration {
      * {@link RegistrationWarnings}.
      */
     public static RegistrationReport unregistered(WaferMap before, WaferMap after) {
+        RegistrationWarnings.SizeCheck size = RegistrationWarnings.SizeCheck.start(before, after);
+        try {
+            return withWarnings(before, after, unregisteredUnchecked(before, after), size);
+        } finally {
+            size.cancel();
+        }
+    }
+
+    /** As {@link #unregistered} without the warnings. */
+    static RegistrationReport unregisteredUnchecked(WaferMap before, WaferMap after) {
         Registration identity = evaluate(before, after, Registration.identity());
         return new RegistrationReport(identity, RegistrationReport.Kept.UNREGISTERED, Double.NaN, identity.score(),
-                RegistrationWarnings.of(before, after, identity));
+                List.of());
     }
 
     /**
@@ -124,8 +154,17 @@ public final class MapRegistration {
         Checks.notNull(before, "before");
         Checks.notNull(after, "after");
         Checks.notNull(r, "registration");
+        return aligned(before, after, r, resampled(before, after, r));
+    }
+
+    /** The samples of {@link #apply}. */
+    static FloatRaster resampled(WaferMap before, WaferMap after, Registration r) {
         PixelMapping m = PixelMapping.of(before.grid(), after.grid(), r);
-        FloatRaster aligned = Resampling.resample(after.raster(), m, before.width(), before.height());
+        return Resampling.resample(after.raster(), m, before.width(), before.height());
+    }
+
+    /** The map of {@link #apply} around its samples {@code aligned}. */
+    static WaferMap aligned(WaferMap before, WaferMap after, Registration r, FloatRaster aligned) {
         ProcessingStep step = ProcessingStep.of("register",
                 "onto", before.waferId().isEmpty() ? before.provenance().source() : before.waferId(),
                 "flip_x", Boolean.toString(r.flipX()),
@@ -143,6 +182,11 @@ public final class MapRegistration {
 
     private static RegistrationSearch search(WaferMap before, WaferMap after, RegistrationOptions options,
                                              ProgressListener progress) {
+        return search(before, after, options, progress, true);
+    }
+
+    private static RegistrationSearch search(WaferMap before, WaferMap after, RegistrationOptions options,
+                                             ProgressListener progress, boolean countOverlap) {
         Checks.notNull(before, "before");
         Checks.notNull(after, "after");
         Checks.notNull(options, "options");
@@ -151,7 +195,7 @@ public final class MapRegistration {
         requireSize(after, "after");
         boolean invert = Improvement.opposite(before.quantity(), after.quantity());
         return new RegistrationSearch(new Pyramid(before.raster(), before.grid(), false),
-                new Pyramid(after.raster(), after.grid(), invert), options, progress);
+                new Pyramid(after.raster(), after.grid(), invert), options, progress, countOverlap);
     }
 
     private static void requireSize(WaferMap m, String which) {

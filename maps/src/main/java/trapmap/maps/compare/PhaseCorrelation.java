@@ -2,41 +2,29 @@ package trapmap.maps.compare;
 
 import java.util.ArrayList;
 import java.util.List;
+import org.jtransforms.fft.DoubleFFT_2D;
 import trapmap.maps.raster.PixelGrid;
 
 /**
  * Translation candidates by phase correlation (Kuglin & Hines, Proc. IEEE Int. Conf. Cybernetics and Society,
  * 163 (1975)) on a square canvas in wafer coordinates. The before level is drawn on the canvas once; each after
  * placement (mirror and turn, no shift) is drawn and correlated with it. The cross-power spectrum is whitened and
- * damped by a Gaussian so that the peak is a few pixels wide and can be located to a fraction of a pixel.
+ * damped by a Gaussian so that the peak is a few pixels wide and can be located to a fraction of a pixel. The
+ * transforms are JTransforms' complex 2-D FFT (any canvas size; unnormalised forward, scaled inverse).
  */
 final class PhaseCorrelation {
     /** Gaussian damping of the whitened spectrum, e-folding frequency in cycles per pixel. */
-    private static final double DAMPING_CYCLES_PER_PX = 0.2;
+    static final double DAMPING_CYCLES_PER_PX = 0.2;
     private static final int PEAK_EXCLUSION_PX = 3;
 
     private final int n;
     private final PixelGrid canvas;
-    private final Fft fft;
-    private final double[] refRe;
-    private final double[] refIm;
-    private final double[] damping;
+    private final Surface surface;
 
     PhaseCorrelation(Pyramid.Level before, int n, double pitchMm) {
         this.n = n;
         this.canvas = new PixelGrid(n, n, pitchMm, n / 2.0, n / 2.0);
-        this.fft = new Fft(n);
-        this.refRe = draw(before, Registration.identity());
-        this.refIm = new double[n * n];
-        fft.forward2d(refRe, refIm);
-        this.damping = new double[n * n];
-        for (int y = 0; y < n; y++) {
-            double fy = (y < n / 2 ? y : y - n) / (double) n;
-            for (int x = 0; x < n; x++) {
-                double fx = (x < n / 2 ? x : x - n) / (double) n;
-                damping[y * n + x] = Math.exp(-(fx * fx + fy * fy) / (DAMPING_CYCLES_PER_PX * DAMPING_CYCLES_PER_PX));
-            }
-        }
+        this.surface = new Surface(draw(before, Registration.identity()), n);
     }
 
     /**
@@ -46,19 +34,7 @@ final class PhaseCorrelation {
     List<double[]> shiftsMm(Pyramid.Level after, Registration placement, int count) {
         Registration unshifted = Registration.explicit(placement.flipX(), placement.flipY(),
                 placement.rotationDeg(), 0, 0);
-        double[] re = draw(after, unshifted);
-        double[] im = new double[n * n];
-        fft.forward2d(re, im);
-        for (int i = 0; i < re.length; i++) {
-            // reference × conj(after), whitened and damped
-            double cr = refRe[i] * re[i] + refIm[i] * im[i];
-            double ci = refIm[i] * re[i] - refRe[i] * im[i];
-            double mag = Math.hypot(cr, ci);
-            double k = mag > 1e-12 ? damping[i] / mag : 0;
-            re[i] = cr * k;
-            im[i] = ci * k;
-        }
-        fft.inverse2d(re, im);
+        double[] re = surface.of(draw(after, unshifted));
         List<double[]> out = new ArrayList<>();
         boolean[] taken = new boolean[n * n];
         for (int c = 0; c < count; c++) {
@@ -129,98 +105,69 @@ final class PhaseCorrelation {
         return out;
     }
 
-    /** Radix-2 complex FFT of a fixed power-of-two length, with 2-D helpers on row-major n×n arrays. */
-    static final class Fft {
+    /**
+     * The correlation surface of a fixed n×n reference image against moving images: the inverse transform of
+     * reference × conj(moving) in the frequency domain, whitened (unit magnitude) and damped by
+     * exp(−(fx² + fy²)/{@link #DAMPING_CYCLES_PER_PX}²), real part. A moving image that is the reference shifted
+     * by (dx, dy) pixels (circularly) peaks at (−dx, −dy) modulo n. The reference spectrum is taken once.
+     */
+    static final class Surface {
         private final int n;
-        private final double[] cos;
-        private final double[] sin;
-        private final int[] reversed;
+        private final DoubleFFT_2D fft;
+        /** Spectrum of the reference, real and imaginary parts interleaved (JTransforms' layout). */
+        private final double[] reference;
+        private final double[] damping;
 
-        Fft(int n) {
-            if (Integer.bitCount(n) != 1) {
-                throw new IllegalArgumentException("FFT length must be a power of two but was " + n);
-            }
+        Surface(double[] referenceSamples, int n) {
             this.n = n;
-            cos = new double[n / 2];
-            sin = new double[n / 2];
-            for (int i = 0; i < n / 2; i++) {
-                cos[i] = Math.cos(2 * Math.PI * i / n);
-                sin[i] = Math.sin(2 * Math.PI * i / n);
-            }
-            reversed = new int[n];
-            int bits = Integer.numberOfTrailingZeros(n);
-            for (int i = 0; i < n; i++) {
-                reversed[i] = bits == 0 ? 0 : Integer.reverse(i) >>> (32 - bits);
-            }
-        }
-
-        /** In place; sign −1 forward (e^{−2πikn/N}), +1 inverse (unnormalised). */
-        void transform(double[] re, double[] im, int sign) {
-            for (int i = 0; i < n; i++) {
-                int j = reversed[i];
-                if (j > i) {
-                    double t = re[i];
-                    re[i] = re[j];
-                    re[j] = t;
-                    t = im[i];
-                    im[i] = im[j];
-                    im[j] = t;
-                }
-            }
-            for (int size = 2; size <= n; size <<= 1) {
-                int half = size >> 1;
-                int step = n / size;
-                for (int start = 0; start < n; start += size) {
-                    for (int k = 0; k < half; k++) {
-                        double wr = cos[k * step];
-                        double wi = sign * sin[k * step];
-                        int a = start + k;
-                        int b = a + half;
-                        double tr = re[b] * wr - im[b] * wi;
-                        double ti = re[b] * wi + im[b] * wr;
-                        re[b] = re[a] - tr;
-                        im[b] = im[a] - ti;
-                        re[a] += tr;
-                        im[a] += ti;
-                    }
-                }
-            }
-        }
-
-        void forward2d(double[] re, double[] im) {
-            transform2d(re, im, -1);
-        }
-
-        void inverse2d(double[] re, double[] im) {
-            transform2d(re, im, 1);
-            double s = 1.0 / ((double) n * n);
-            for (int i = 0; i < re.length; i++) {
-                re[i] *= s;
-                im[i] *= s;
-            }
-        }
-
-        private void transform2d(double[] re, double[] im, int sign) {
-            double[] r = new double[n];
-            double[] i = new double[n];
+            this.fft = new DoubleFFT_2D(n, n);
+            this.reference = spectrum(referenceSamples);
+            this.damping = new double[n * n];
             for (int y = 0; y < n; y++) {
-                System.arraycopy(re, y * n, r, 0, n);
-                System.arraycopy(im, y * n, i, 0, n);
-                transform(r, i, sign);
-                System.arraycopy(r, 0, re, y * n, n);
-                System.arraycopy(i, 0, im, y * n, n);
-            }
-            for (int x = 0; x < n; x++) {
-                for (int y = 0; y < n; y++) {
-                    r[y] = re[y * n + x];
-                    i[y] = im[y * n + x];
-                }
-                transform(r, i, sign);
-                for (int y = 0; y < n; y++) {
-                    re[y * n + x] = r[y];
-                    im[y * n + x] = i[y];
+                double fy = (y < n / 2 ? y : y - n) / (double) n;
+                for (int x = 0; x < n; x++) {
+                    double fx = (x < n / 2 ? x : x - n) / (double) n;
+                    damping[y * n + x] = Math.exp(-(fx * fx + fy * fy)
+                            / (DAMPING_CYCLES_PER_PX * DAMPING_CYCLES_PER_PX));
                 }
             }
+        }
+
+        /** The surface of {@code moving} (n×n, row-major) against the reference, n×n. */
+        double[] of(double[] moving) {
+            double[] s = spectrum(moving);
+            for (int i = 0; i < damping.length; i++) {
+                // reference × conj(moving), whitened and damped
+                double refRe = reference[2 * i];
+                double refIm = reference[2 * i + 1];
+                double re = s[2 * i];
+                double im = s[2 * i + 1];
+                double cr = refRe * re + refIm * im;
+                double ci = refIm * re - refRe * im;
+                double mag = Math.hypot(cr, ci);
+                double k = mag > 1e-12 ? damping[i] / mag : 0;
+                s[2 * i] = cr * k;
+                s[2 * i + 1] = ci * k;
+            }
+            fft.complexInverse(s, true);
+            double[] out = new double[n * n];
+            for (int i = 0; i < out.length; i++) {
+                out[i] = s[2 * i];
+            }
+            return out;
+        }
+
+        /** The complex 2-D spectrum of the real n×n samples {@code s}, interleaved. */
+        private double[] spectrum(double[] s) {
+            if (s.length != n * n) {
+                throw new IllegalArgumentException("expected " + n + "x" + n + " samples but got " + s.length);
+            }
+            double[] c = new double[2 * s.length];
+            for (int i = 0; i < s.length; i++) {
+                c[2 * i] = s[i];
+            }
+            fft.complexForward(c);
+            return c;
         }
     }
 }

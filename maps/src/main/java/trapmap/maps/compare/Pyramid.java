@@ -2,6 +2,7 @@ package trapmap.maps.compare;
 
 import java.util.ArrayList;
 import java.util.List;
+import java.util.stream.IntStream;
 import trapmap.maps.raster.BlockMeanPyramid;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.PixelGrid;
@@ -16,6 +17,8 @@ import trapmap.maps.raster.PixelGrid;
 final class Pyramid {
     /** Share of positive samples above which a map is compared on a log scale. */
     private static final double LOG_SHARE = 0.99;
+    /** Samples per parallel task when the map is scanned. */
+    private static final int CHUNK = 1 << 16;
 
     private final FloatRaster raster;
     private final PixelGrid grid;
@@ -30,15 +33,30 @@ final class Pyramid {
         this.raster = raster;
         this.grid = grid;
         this.invert = invert;
-        long positive = 0;
-        long finite = 0;
-        for (float v : raster.samples()) {
-            if (Float.isFinite(v)) {
-                finite++;
-                if (v > 0) {
-                    positive++;
+        float[] samples = raster.samples();
+        int chunks = (samples.length + CHUNK - 1) / CHUNK;
+        // finite and positive samples per chunk, counted in parallel and summed: exact in any order
+        long[] counts = new long[2 * chunks];
+        IntStream.range(0, chunks).parallel().forEach(c -> {
+            int finiteHere = 0;
+            int positiveHere = 0;
+            for (int i = c * CHUNK, end = Math.min(samples.length, i + CHUNK); i < end; i++) {
+                float v = samples[i];
+                if (Float.isFinite(v)) {
+                    finiteHere++;
+                    if (v > 0) {
+                        positiveHere++;
+                    }
                 }
             }
+            counts[2 * c] = finiteHere;
+            counts[2 * c + 1] = positiveHere;
+        });
+        long finite = 0;
+        long positive = 0;
+        for (int c = 0; c < chunks; c++) {
+            finite += counts[2 * c];
+            positive += counts[2 * c + 1];
         }
         this.log = finite > 0 && positive >= LOG_SHARE * finite;
         grids.add(grid);

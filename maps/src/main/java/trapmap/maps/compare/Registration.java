@@ -39,6 +39,8 @@ public record Registration(boolean flipX, boolean flipY, double rotationDeg, dou
                     + overlapPixels);
         }
         rotationDeg = normaliseDeg(rotationDeg);
+        shiftXMm += 0.0; // no −0
+        shiftYMm += 0.0;
     }
 
     /** B lies on A as it is: no mirror, no turn, no shift (score not evaluated). */

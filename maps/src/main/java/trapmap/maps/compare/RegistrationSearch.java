@@ -36,8 +36,15 @@ final class RegistrationSearch {
     private final ProgressListener progress;
     private final int canvasPx;
     private final double canvasPitchMm;
+    private final boolean countOverlap;
 
-    RegistrationSearch(Pyramid before, Pyramid after, RegistrationOptions options, ProgressListener progress) {
+    /**
+     * @param countOverlap whether {@link #evaluate} counts the overlap on the before grid (a pass over every pixel);
+     *                     otherwise it is left 0 for a caller that counts it on the resampled map
+     */
+    RegistrationSearch(Pyramid before, Pyramid after, RegistrationOptions options, ProgressListener progress,
+                       boolean countOverlap) {
+        this.countOverlap = countOverlap;
         this.before = before;
         this.after = after;
         this.options = options;
@@ -146,15 +153,18 @@ final class RegistrationSearch {
         return evaluate(r);
     }
 
-    /** {@code r} with its score (plain NCC at the refinement level) and overlap on the before grid. */
+    /**
+     * {@code r} with its score (plain NCC at the refinement level) and overlap on the before grid (0 when the
+     * overlap is not counted here).
+     */
     Registration evaluate(Registration r) {
         int last = before.levelWithin(options.refineSizePx());
         Pyramid.Level a = before.level(last);
         Pyramid.Level b = after.level(after.levelNear(before.pitchMm(last)));
         double ncc = Correlation.plain(a, b, r).ncc();
         double score = Double.isNaN(ncc) ? 0 : Math.max(0, Math.min(1, ncc));
-        int overlap = Resampling.overlap(before.raster(), after.raster(),
-                PixelMapping.of(before.grid(), after.grid(), r));
+        int overlap = countOverlap ? Resampling.overlap(before.raster(), after.raster(),
+                PixelMapping.of(before.grid(), after.grid(), r)) : 0;
         return Registration.explicit(r.flipX(), r.flipY(), r.rotationDeg(), r.shiftXMm(), r.shiftYMm())
                 .withQuality(score, overlap);
     }
@@ -183,7 +193,7 @@ final class RegistrationSearch {
         double[] startPoint = turn ? new double[] {r0.shiftXMm() / p, r0.shiftYMm() / p, 0}
                 : new double[] {r0.shiftXMm() / p, r0.shiftYMm() / p};
         double[] steps = turn ? new double[] {stepPx, stepPx, stepPx} : new double[] {stepPx, stepPx};
-        NelderMead.Minimum m = NelderMead.minimise(f, startPoint, steps, tolerance, 400);
+        SimplexSearch.Minimum m = SimplexSearch.minimise(f, startPoint, steps, tolerance, 400);
         if (!Double.isFinite(m.value())) {
             return r0;
         }

@@ -3,6 +3,8 @@ package trapmap.maps.compare;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import java.util.concurrent.ForkJoinPool;
+import java.util.concurrent.ForkJoinTask;
 import trapmap.maps.geometry.FormatMatch;
 import trapmap.maps.geometry.OutlineDetection;
 import trapmap.maps.geometry.OutlineFit;
@@ -44,15 +46,19 @@ public final class RegistrationWarnings {
         Checks.notNull(before, "before");
         Checks.notNull(after, "after");
         Checks.notNull(registration, "registration");
+        return of(before, after, registration, sizeWarning(before, after));
+    }
+
+    /** The warnings, with the size warning (null: none) already made. */
+    static List<String> of(WaferMap before, WaferMap after, Registration registration, String sizeWarning) {
         List<String> out = new ArrayList<>();
         if (!before.waferId().isEmpty() && !after.waferId().isEmpty()
                 && !before.waferId().equals(after.waferId())) {
             out.add("different wafer ids: the before map is of " + before.waferId() + " but the after map of "
                     + after.waferId());
         }
-        String size = sizeWarning(before, after);
-        if (size != null) {
-            out.add(size);
+        if (sizeWarning != null) {
+            out.add(sizeWarning);
         }
         if (!(registration.score() >= SCORE_FLOOR)) {
             out.add(String.format(Locale.ROOT, "registration score %.3f is below %.2f: the placement is not to be"
@@ -64,13 +70,16 @@ public final class RegistrationWarnings {
 
     /** The size warning, or null when the outlines agree. */
     static String sizeWarning(WaferMap before, WaferMap after) {
-        OutlineFit fb;
-        OutlineFit fa;
-        try {
-            fb = OutlineDetection.fit(before);
-            fa = OutlineDetection.fit(after);
-        } catch (IllegalArgumentException e) {
-            return "wafer sizes not compared: no outline could be fitted (" + e.getMessage() + ")";
+        return sizeWarning(before, after, Outline.of(before), Outline.of(after));
+    }
+
+    /** The size warning from the two fitted outlines, or null when they agree. */
+    private static String sizeWarning(WaferMap before, WaferMap after, Outline outlineBefore, Outline outlineAfter) {
+        OutlineFit fb = outlineBefore.fitOrNull();
+        OutlineFit fa = outlineAfter.fitOrNull();
+        if (fb == null || fa == null) {
+            return "wafer sizes not compared: no outline could be fitted ("
+                    + (fb == null ? outlineBefore : outlineAfter).failure().getMessage() + ")";
         }
         WaferShape b = fb.shape();
         WaferShape a = fa.shape();
@@ -89,6 +98,58 @@ public final class RegistrationWarnings {
         }
         return "different wafer outlines: the before map fits " + b.describe() + " but the after map "
                 + a.describe();
+    }
+
+    /** A fitted outline, or why none could be fitted. */
+    private record Outline(OutlineFit fitOrNull, IllegalArgumentException failure) {
+        static Outline of(WaferMap m) {
+            try {
+                return new Outline(OutlineDetection.fit(m), null);
+            } catch (IllegalArgumentException e) {
+                return new Outline(null, e);
+            }
+        }
+    }
+
+    /**
+     * The size check of a pair running in the background: both outlines are fitted on the common fork-join pool
+     * while the caller registers and compares the maps (the fits need the whole maps and take as long as the
+     * rest of a comparison). {@link #warning()} waits for them; a fit not yet started when it is asked for runs on
+     * the caller's thread.
+     */
+    static final class SizeCheck {
+        private final WaferMap before;
+        private final WaferMap after;
+        private final ForkJoinTask<Outline> outlineBefore;
+        private final ForkJoinTask<Outline> outlineAfter;
+
+        private SizeCheck(WaferMap before, WaferMap after) {
+            this.before = before;
+            this.after = after;
+            this.outlineBefore = ForkJoinPool.commonPool().submit(() -> Outline.of(before));
+            this.outlineAfter = ForkJoinPool.commonPool().submit(() -> Outline.of(after));
+        }
+
+        /** Starts fitting both outlines. */
+        static SizeCheck start(WaferMap before, WaferMap after) {
+            Checks.notNull(before, "before");
+            Checks.notNull(after, "after");
+            return new SizeCheck(before, after);
+        }
+
+        /** The size warning (null: the outlines agree), once both fits are done. */
+        String warning() {
+            // the pool takes the older task first; a task still queued when joined runs on this thread
+            Outline a = outlineAfter.join();
+            Outline b = outlineBefore.join();
+            return sizeWarning(before, after, b, a);
+        }
+
+        /** Drops fits that have not started (when the comparison failed). */
+        void cancel() {
+            outlineBefore.cancel(false);
+            outlineAfter.cancel(false);
+        }
     }
 
     private static String compare(String what, double before, double after, double allowance, WaferFormat format,

@@ -1,5 +1,6 @@
 package trapmap.maps.compare;
 
+import java.util.stream.IntStream;
 import trapmap.maps.raster.FloatRaster;
 
 /**
@@ -94,13 +95,17 @@ final class Resampling {
      */
     private static final int TILE = 64;
 
-    /** {@code source} sampled at every pixel of a {@code width}×{@code height} target through {@code m}. */
+    /**
+     * {@code source} sampled at every pixel of a {@code width}×{@code height} target through {@code m}. Bands of
+     * tiles are resampled in parallel; every pixel is computed alone, so the result does not depend on the threads.
+     */
     static FloatRaster resample(FloatRaster source, PixelMapping m, int width, int height) {
         float[] out = new float[Math.multiplyExact(width, height)];
         float[] s = source.samples();
         int w = source.width();
         int h = source.height();
-        for (int ty = 0; ty < height; ty += TILE) {
+        IntStream.range(0, bands(height)).parallel().forEach(band -> {
+            int ty = band * TILE;
             for (int tx = 0; tx < width; tx += TILE) {
                 for (int y = ty, ye = Math.min(height, ty + TILE); y < ye; y++) {
                     int row = y * width;
@@ -109,8 +114,13 @@ final class Resampling {
                     }
                 }
             }
-        }
+        });
         return FloatRaster.wrap(width, height, out);
+    }
+
+    /** Bands of {@link #TILE} rows covering {@code height} rows. */
+    private static int bands(int height) {
+        return (height + TILE - 1) / TILE;
     }
 
     /** Pixels of {@code target} with data whose counterpart in {@code source} (through {@code m}) has data too. */
@@ -121,8 +131,10 @@ final class Resampling {
         int th = target.height();
         int w = source.width();
         int h = source.height();
-        int n = 0;
-        for (int ty = 0; ty < th; ty += TILE) {
+        // whole counts per band of tiles, summed: exact in any order
+        return IntStream.range(0, bands(th)).parallel().map(band -> {
+            int ty = band * TILE;
+            int n = 0;
             for (int tx = 0; tx < tw; tx += TILE) {
                 for (int y = ty, ye = Math.min(th, ty + TILE); y < ye; y++) {
                     int row = y * tw;
@@ -147,7 +159,27 @@ final class Resampling {
                     }
                 }
             }
-        }
-        return n;
+            return n;
+        }).sum();
+    }
+
+    /**
+     * Pixels with data in {@code target} whose resampled counterpart in {@code resampled} (same size, made by
+     * {@link #resample}) has data: the same count as {@link #overlap} of the mapping that made it, since a
+     * resampled pixel has data exactly when {@link #sample} finds enough neighbours with data.
+     */
+    static int paired(FloatRaster target, FloatRaster resampled) {
+        float[] t = target.samples();
+        float[] r = resampled.samples();
+        int chunk = 1 << 16;
+        return IntStream.range(0, (t.length + chunk - 1) / chunk).parallel().map(c -> {
+            int n = 0;
+            for (int i = c * chunk, end = Math.min(t.length, i + chunk); i < end; i++) {
+                if (Float.isFinite(t[i]) && !Float.isNaN(r[i])) {
+                    n++;
+                }
+            }
+            return n;
+        }).sum();
     }
 }

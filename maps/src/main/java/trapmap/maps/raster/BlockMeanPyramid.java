@@ -155,6 +155,11 @@ public final class BlockMeanPyramid {
         int h = coarseSize(fh, rule);
         float[] src = fine.samples();
         float[] out = new float[w * h];
+        if (rule == Rule.TWO_OF_FOUR && counts == null && outCounts == null) {
+            // whole 2×2 blocks only: the same sums in the same order, without the general case's bookkeeping
+            IntStream.range(0, h).parallel().forEach(y -> halveTwoOfFour(src, fw, out, w, y));
+            return new Level(fine.index() + 1, w, h, out);
+        }
         IntStream.range(0, h).parallel().forEach(y -> {
             int y0 = 2 * y;
             int y1 = Math.min(y0 + 1, fh - 1);
@@ -183,5 +188,37 @@ public final class BlockMeanPyramid {
             }
         });
         return new Level(fine.index() + 1, w, h, out);
+    }
+
+    /** Row {@code y} of a {@link Rule#TWO_OF_FOUR} level from the fine samples {@code src}, {@code fw} wide. */
+    private static void halveTwoOfFour(float[] src, int fw, float[] out, int w, int y) {
+        int top = 2 * y * fw;
+        int bottom = top + fw;
+        int o = y * w;
+        for (int x = 0; x < w; x++) {
+            float a = src[top + 2 * x];
+            float b = src[top + 2 * x + 1];
+            float c = src[bottom + 2 * x];
+            float d = src[bottom + 2 * x + 1];
+            double sum = 0;
+            int valid = 0;
+            if (Float.isFinite(a)) {
+                sum += a;
+                valid++;
+            }
+            if (Float.isFinite(b)) {
+                sum += b;
+                valid++;
+            }
+            if (Float.isFinite(c)) {
+                sum += c;
+                valid++;
+            }
+            if (Float.isFinite(d)) {
+                sum += d;
+                valid++;
+            }
+            out[o + x] = valid < 2 ? Float.NaN : (float) (sum / valid);
+        }
     }
 }

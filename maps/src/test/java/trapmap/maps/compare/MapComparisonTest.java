@@ -5,6 +5,7 @@ import static org.assertj.core.api.Assertions.assertThatThrownBy;
 import static org.assertj.core.api.Assertions.within;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.Random;
 import org.apache.commons.math3.stat.descriptive.moment.Mean;
@@ -274,5 +275,28 @@ class MapComparisonTest {
 
     private static double[] array(List<Double> v) {
         return v.stream().mapToDouble(Double::doubleValue).toArray();
+    }
+
+    @Test
+    void theMedianIsTheMiddleOfTheSortedValues() {
+        Random r = new Random(3);
+        for (int n : new int[] {1, 2, 3, 10, 11, 1000, 1001, 40_000, 40_001}) {
+            double[] v = new double[n];
+            for (int i = 0; i < n; i++) {
+                // many ties, as in maps of quantised samples
+                v[i] = Math.round(r.nextGaussian() * 20) / 4.0;
+            }
+            double[] sorted = v.clone();
+            Arrays.sort(sorted);
+            double expected = n % 2 == 1 ? sorted[n / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
+            assertThat(MapComparison.median(v.clone(), n)).as("n = %d", n).isEqualTo(expected);
+            // only the first n - 1 values
+            double[] head = Arrays.copyOf(v, n - 1);
+            Arrays.sort(head);
+            int m = n - 1;
+            double expectedHead = m == 0 ? Double.NaN
+                    : m % 2 == 1 ? head[m / 2] : 0.5 * (head[m / 2 - 1] + head[m / 2]);
+            assertThat(Double.compare(MapComparison.median(v.clone(), m), expectedHead)).as("first %d", m).isZero();
+        }
     }
 }

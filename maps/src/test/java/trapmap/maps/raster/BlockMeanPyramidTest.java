@@ -3,6 +3,9 @@ package trapmap.maps.raster;
 import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
+import java.util.Arrays;
+import java.util.Random;
+import java.util.concurrent.ForkJoinPool;
 import java.util.concurrent.atomic.AtomicBoolean;
 import org.junit.jupiter.api.Test;
 
@@ -79,5 +82,50 @@ class BlockMeanPyramidTest {
         assertThat(p.level(3).width()).isEqualTo(32);
         assertThat(p.level(3).samples()).containsOnly(2f);
         assertThatThrownBy(() -> p.built(4)).isInstanceOf(IndexOutOfBoundsException.class);
+    }
+
+    @Test
+    void twoOfFourOnRandomDataIsThePlainMeanOfTheFiniteSamplesOnAnyNumberOfThreads() {
+        Random r = new Random(11);
+        int fw = 301;
+        int fh = 198;
+        float[] s = new float[fw * fh];
+        for (int i = 0; i < s.length; i++) {
+            double u = r.nextDouble();
+            s[i] = u < 0.2 ? N : u < 0.25 ? INF : u < 0.27 ? -INF : (float) (100 * r.nextGaussian());
+        }
+        BlockMeanPyramid.Level l0 = new BlockMeanPyramid.Level(0, fw, fh, s);
+        ForkJoinPool one = new ForkJoinPool(1);
+        ForkJoinPool four = new ForkJoinPool(4);
+        try {
+            BlockMeanPyramid.Level a = one.submit(() -> BlockMeanPyramid.halve(l0, BlockMeanPyramid.Rule.TWO_OF_FOUR,
+                    null, null)).join();
+            BlockMeanPyramid.Level b = four.submit(() -> BlockMeanPyramid.halve(l0,
+                    BlockMeanPyramid.Rule.TWO_OF_FOUR, null, null)).join();
+            assertThat(Arrays.equals(a.samples(), b.samples())).isTrue();
+            assertThat(a.width()).isEqualTo(150);
+            assertThat(a.height()).isEqualTo(99);
+            for (int y = 0; y < a.height(); y++) {
+                for (int x = 0; x < a.width(); x++) {
+                    double sum = 0;
+                    int n = 0;
+                    for (int yy = 2 * y; yy < 2 * y + 2; yy++) {
+                        for (int xx = 2 * x; xx < 2 * x + 2; xx++) {
+                            float v = s[yy * fw + xx];
+                            if (Float.isFinite(v)) {
+                                sum += v;
+                                n++;
+                            }
+                        }
+                    }
+                    float expected = n < 2 ? N : (float) (sum / n);
+                    assertThat(Float.compare(a.samples()[y * a.width() + x], expected)).as("(%d, %d)", x, y)
+                            .isZero();
+                }
+            }
+        } finally {
+            one.shutdown();
+            four.shutdown();
+        }
     }
 }
