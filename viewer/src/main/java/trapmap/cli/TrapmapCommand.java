@@ -3,6 +3,8 @@ package trapmap.cli;
 import java.io.OutputStreamWriter;
 import java.io.PrintWriter;
 import java.nio.charset.StandardCharsets;
+import java.util.Arrays;
+import java.util.List;
 import java.util.concurrent.Callable;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
@@ -14,11 +16,13 @@ import picocli.CommandLine.Spec;
  * {@code calc} (with {@code iron}, {@code bo}, {@code pl}), {@code defects}, {@code convert}, {@code stats}, {@code compare}, {@code inspect},
  * {@code demo} and {@code view}. Without a command it opens the viewer on the demonstration set, or, with no display,
  * runs the demonstration batch.
+ *
+ * <p>Building picocli's model of a command (reflection over its options, mixins and types) is most of the start-up
+ * time of a short run, so {@link #run} builds the full model only for the commands named on its command line; every
+ * other command is an outline with just its name, aliases, header and description, which is all the root help and
+ * the "did you mean" suggestions read. {@link #commandLine(PrintWriter, PrintWriter)} builds every command.
  */
 @Command(name = "trapmap", mixinStandardHelpOptions = true, version = TrapmapCommand.VERSION, usageHelpAutoWidth = true,
-        subcommands = {CalcCommand.class, DefectsCommand.class, ConvertCommand.class, StatsCommand.class,
-            CompareCommand.class, IronMapCommand.class, InspectCommand.class, ReportCommand.class, DemoCommand.class,
-            ViewCommand.class},
         description = {"Converts minority-carrier lifetimes of silicon wafers into equivalent SRH trap densities.",
             "Without a command: opens the viewer on the demonstration set (no display: runs the demonstration batch).",
             ""},
@@ -26,6 +30,10 @@ import picocli.CommandLine.Spec;
 public final class TrapmapCommand implements Callable<Integer> {
     /** Version line printed by {@code --version}. */
     static final String VERSION = trapmap.shared.Version.LINE;
+    /** The sub-commands, in the order of the root help. */
+    static final List<Class<?>> SUBCOMMANDS = List.of(CalcCommand.class, DefectsCommand.class, ConvertCommand.class,
+            StatsCommand.class, CompareCommand.class, IronMapCommand.class, InspectCommand.class, ReportCommand.class,
+            DemoCommand.class, ViewCommand.class);
 
     @Spec
     CommandSpec spec;
@@ -42,9 +50,41 @@ public final class TrapmapCommand implements Callable<Integer> {
         return Exit.OK;
     }
 
-    /** A command line for {@code trapmap} that writes to {@code out} and {@code err}, with one-line errors. */
+    /**
+     * A command line for {@code trapmap} that writes to {@code out} and {@code err}, with one-line errors, and the
+     * full model of every sub-command.
+     */
     public static CommandLine commandLine(PrintWriter out, PrintWriter err) {
+        return commandLine(out, err, type -> true);
+    }
+
+    /**
+     * The command line for running {@code args}: the full model of each sub-command whose name or alias is one of
+     * the arguments (only those can be parsed into), an outline of the others. With an argument file ({@code @file},
+     * expanded by picocli) any command may be named, so every one is built.
+     */
+    static CommandLine commandLine(PrintWriter out, PrintWriter err, String... args) {
+        if (Arrays.stream(args).anyMatch(a -> a != null && a.startsWith("@"))) {
+            return commandLine(out, err);
+        }
+        List<String> named = Arrays.asList(args);
+        return commandLine(out, err, type -> {
+            Command c = type.getAnnotation(Command.class);
+            return named.contains(c.name()) || Arrays.stream(c.aliases()).anyMatch(named::contains);
+        });
+    }
+
+    private static CommandLine commandLine(PrintWriter out, PrintWriter err,
+                                           java.util.function.Predicate<Class<?>> full) {
         CommandLine cl = new CommandLine(new TrapmapCommand());
+        for (Class<?> type : SUBCOMMANDS) {
+            if (full.test(type)) {
+                cl.addSubcommand(type);
+            } else {
+                CommandSpec outline = outline(type);
+                cl.addSubcommand(outline.name(), outline);
+            }
+        }
         ErrorHandler errors = new ErrorHandler();
         cl.setOut(out);
         cl.setErr(err);
@@ -57,9 +97,20 @@ public final class TrapmapCommand implements Callable<Integer> {
         return cl;
     }
 
+    /**
+     * What the root help and picocli's suggestions read of a sub-command that is not run: name, aliases, header,
+     * description and whether it is hidden, from its {@link Command} annotation (no reflection over its fields).
+     */
+    static CommandSpec outline(Class<?> type) {
+        Command c = type.getAnnotation(Command.class);
+        CommandSpec spec = CommandSpec.create().name(c.name()).aliases(c.aliases());
+        spec.usageMessage().header(c.header()).description(c.description()).hidden(c.hidden());
+        return spec;
+    }
+
     /** Runs {@code trapmap args} and returns the exit code. */
     public static int run(PrintWriter out, PrintWriter err, String... args) {
-        int code = commandLine(out, err).execute(args);
+        int code = commandLine(out, err, args).execute(args);
         out.flush();
         err.flush();
         return code;

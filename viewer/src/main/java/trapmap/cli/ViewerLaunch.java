@@ -9,7 +9,6 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
-import picocli.CommandLine;
 import trapmap.maps.demo.DemoScenario;
 
 /**
@@ -107,9 +106,9 @@ final class ViewerLaunch {
         out.println("trapmap: no display available, so the viewer cannot open; running the demonstration batch"
                 + " instead (trapmap inspect " + demo + " --rules " + demo.resolve(RULES) + " --out " + report + ")");
         out.flush();
-        CommandLine cl = TrapmapCommand.commandLine(out, err);
-        int code = cl.execute("inspect", demo.toString(), "--rules", demo.resolve(RULES).toString(), "--out",
-                report.toString());
+        String[] args = {"inspect", demo.toString(), "--rules", demo.resolve(RULES).toString(), "--out",
+            report.toString()};
+        int code = TrapmapCommand.commandLine(out, err, args).execute(args);
         out.println("report: " + report.resolve("summary.pdf") + " (and results.csv, results.json, regions.csv,"
                 + " thumbnails, recurrence maps in " + report + ")");
         out.flush();
