@@ -6,7 +6,7 @@ import java.util.Locale;
 import java.util.concurrent.ForkJoinPool;
 import java.util.concurrent.ForkJoinTask;
 import trapmap.maps.geometry.FormatMatch;
-import trapmap.maps.geometry.OutlineDetection;
+import trapmap.maps.geometry.ReducedOutline;
 import trapmap.maps.geometry.OutlineFit;
 import trapmap.maps.geometry.RoundWafer;
 import trapmap.maps.geometry.SquareWafer;
@@ -21,11 +21,11 @@ import trapmap.shared.check.Checks;
  * warning is one line of text naming what differs, with its unit:
  * <ul>
  *   <li>the two maps name different wafer ids (both non-empty);</li>
- *   <li>the fitted outlines ({@link OutlineDetection}) differ in kind (round / square) or in size (diameter of a
- *       round wafer, side of a square one) by more than the allowance: the width of the size tolerance of the
- *       standard format closest to the before outline ({@link trapmap.maps.geometry.WaferFormat#sizeTolerance()},
- *       both maps may lie anywhere within it) plus the coarser pixel pitch of the two maps (the precision of a
- *       fitted edge);</li>
+ *   <li>the fitted outlines ({@link ReducedOutline}, as every face fits them) differ in kind (round / square) or
+ *       in size (diameter of a round wafer, side of a square one) by more than the allowance: the width of the
+ *       size tolerance of the standard format closest to the before outline
+ *       ({@link trapmap.maps.geometry.WaferFormat#sizeTolerance()}, both maps may lie anywhere within it) plus the
+ *       coarser pitch of the two grids the outlines are fitted on (the precision of a fitted edge);</li>
  *   <li>the registration score is below {@link #SCORE_FLOOR}.</li>
  * </ul>
  */
@@ -83,7 +83,7 @@ public final class RegistrationWarnings {
         }
         WaferShape b = fb.shape();
         WaferShape a = fa.shape();
-        double pitch = Math.max(before.grid().pitchMm(), after.grid().pitchMm());
+        double pitch = Math.max(fitPitchMm(before), fitPitchMm(after));
         FormatMatch match = fb.closestFormat();
         // a round outline whose mark the pitch cannot resolve matches its size family: every candidate of that
         // size has the same size tolerance
@@ -100,11 +100,16 @@ public final class RegistrationWarnings {
                 + a.describe();
     }
 
+    /** The pitch, mm, of the grid the outline of {@code m} is fitted on ({@link ReducedOutline}). */
+    private static double fitPitchMm(WaferMap m) {
+        return m.grid().pitchMm() * Math.max(1, ReducedOutline.factor(m.grid()));
+    }
+
     /** A fitted outline, or why none could be fitted. */
     private record Outline(OutlineFit fitOrNull, IllegalArgumentException failure) {
         static Outline of(WaferMap m) {
             try {
-                return new Outline(OutlineDetection.fit(m), null);
+                return new Outline(ReducedOutline.fit(m.raster(), m.grid()), null);
             } catch (IllegalArgumentException e) {
                 return new Outline(null, e);
             }
