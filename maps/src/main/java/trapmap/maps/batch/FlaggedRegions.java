@@ -93,16 +93,17 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                                       RegionCriteria criteria, WaferShape shape, float[] density, double insideMm) {
         float[] s = raster.samples();
         boolean[] open = new boolean[s.length];
+        int[] seeds = new int[count];
         int selected = 0;
         for (int k = 0; k < count; k++) {
             int i = indices[k];
             if (criteria.selects(s[i])) {
                 open[i] = true;
-                selected++;
+                seeds[selected++] = i;
             }
         }
-        return label(s, raster.width(), raster.height(), grid, indices, count, open, selected, criteria, shape,
-                density, insideMm, new int[Math.max(16, selected)]);
+        return label(s, raster.width(), raster.height(), grid, seeds, selected, open, criteria, shape, density,
+                insideMm, new int[Math.max(16, selected)]);
     }
 
     /**
@@ -118,6 +119,7 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
         boolean[] open = buffers.open(n);
         float[] at = buffers.flagAt(n);
         float[] densityAt = density == null ? null : buffers.densityAt(n);
+        int[] seeds = buffers.seeds(n);
         int selected = 0;
         for (int k = 0; k < count; k++) {
             float v = flag[k];
@@ -128,20 +130,21 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                 if (densityAt != null) {
                     densityAt[i] = density[k];
                 }
-                selected++;
+                seeds[selected++] = i;
             }
         }
-        return label(at, grid.width(), grid.height(), grid, indices, count, open, selected, criteria, shape,
-                densityAt, insideMm, buffers.queue(Math.max(16, n)));
+        return label(at, grid.width(), grid.height(), grid, seeds, selected, open, criteria, shape, densityAt,
+                insideMm, buffers.queue(Math.max(16, n)));
     }
 
     /**
-     * Labels the {@code selected} pixels marked in {@code open} (cleared as they are labelled), seeded in the order
-     * of {@code indices[0..count)}; {@code s} and {@code density} are read at those pixels only.
+     * Labels the selected pixels, {@code seeds[0..selected)} in ascending order and marked in {@code open} (cleared as
+     * they are labelled), each region from its first pixel in that order; {@code s} and {@code density} are read at
+     * those pixels only.
      */
-    private static FlaggedRegions label(float[] s, int w, int h, PixelGrid grid, int[] indices, int count,
-                                        boolean[] open, int selected, RegionCriteria criteria, WaferShape shape,
-                                        float[] density, double insideMm, int[] queue) {
+    private static FlaggedRegions label(float[] s, int w, int h, PixelGrid grid, int[] seeds, int selected,
+                                        boolean[] open, RegionCriteria criteria, WaferShape shape, float[] density,
+                                        double insideMm, int[] queue) {
         WaferShape.Prepared edge = shape == null ? null : shape.prepared();
         double pixelArea = grid.pixelAreaMm2();
         int[] offset = new int[8];
@@ -152,8 +155,8 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
         BitSet kept = new BitSet(w * h);
         boolean above = criteria.side() == RegionCriteria.Side.ABOVE;
         boolean bordersOnly = insideMm >= grid.pitchMm();
-        for (int next = 0; next < count; next++) {
-            int seed = indices[next];
+        for (int next = 0; next < selected; next++) {
+            int seed = seeds[next];
             if (!open[seed]) {
                 continue;
             }

@@ -21,6 +21,7 @@ public final class InspectionBuffers {
     private boolean[] open = new boolean[0];
     private int[] indices = new int[0];
     private int[] queue = new int[0];
+    private int[] seeds = new int[0];
     private float[] life = new float[0];
     private float[] density = new float[0];
     private float[] judged = new float[0];
@@ -51,6 +52,13 @@ public final class InspectionBuffers {
     int[] indices(int n) {
         int[] a = indices.length == n ? indices : new int[n];
         indices = keep(n) ? a : indices;
+        return a;
+    }
+
+    /** {@code n} pixel indices of region seeds. */
+    int[] seeds(int n) {
+        int[] a = seeds.length == n ? seeds : new int[n];
+        seeds = keep(n) ? a : seeds;
         return a;
     }
 
