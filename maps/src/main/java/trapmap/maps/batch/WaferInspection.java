@@ -233,34 +233,11 @@ public final class WaferInspection {
         // What the flag, the regions and the trap-density figures read: the OK pixels, or with the rules' opt-in
         // also the below-limit ones at their bound (the detection limit). One pass gives them, the invalid-area
         // tally and the judged densities that are not NaN, in index order, for their percentiles.
-        float[] judged = null;
-        float[] densityValues = null;
-        int densityCount = 0;
-        InvalidArea.Tally tally = new InvalidArea.Tally(true);
-        if (converted == null) {
-            for (int k = 0; k < count; k++) {
-                tally.add(lifeValues[k], -1);
-            }
-        } else {
-            boolean atBound = profile.flag().belowLimit() == Rules.BelowLimit.AT_BOUND;
-            judged = atBound ? converted : buffers.judged(converted.length);
-            densityValues = buffers.densitySample(converted.length);
-            byte ok = PixelStatus.OK.code();
-            for (int k = 0; k < count; k++) {
-                byte st = status[k];
-                tally.add(lifeValues[k], st);
-                float d = converted[k];
-                if (!atBound) {
-                    d = st == ok ? d : Float.NaN;
-                    judged[k] = d;
-                }
-                if (d == d) {
-                    densityValues[densityCount++] = d;
-                }
-            }
-        }
-        tally.addMissing(masks.missing());
-        InvalidArea invalid = tally.result(grid.pixelAreaMm2());
+        Judged j = judged(lifeValues, count, converted, status,
+                profile.flag().belowLimit() == Rules.BelowLimit.AT_BOUND, masks.missing(), grid.pixelAreaMm2(),
+                buffers);
+        float[] judged = j.judged();
+        InvalidArea invalid = j.invalid();
         double belowLimitFraction = converted == null || count == 0 ? Double.NaN : (double) belowLimit / count;
 
         Rules.Flag flag = profile.flag();
@@ -269,7 +246,7 @@ public final class WaferInspection {
         FlaggedRegions regions = FlaggedRegions.findPacked(flagValues, judged, grid, masks.indices(), count, criteria,
                 shape, rules.edgeExclusionMm(), buffers);
 
-        Sample dens = judged == null ? null : Sample.ofValid(densityValues, densityCount, grid,
+        Sample dens = judged == null ? null : Sample.ofValid(j.ranked(), j.rankedCount(), grid,
                 percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE));
         double[] lifePercents = percents(figures, Figure.Kind.LIFETIME_PERCENTILE);
         double[] withRange = Arrays.copyOf(lifePercents, lifePercents.length + 2);
@@ -397,6 +374,52 @@ public final class WaferInspection {
             }
         }
         return below;
+    }
+
+    /**
+     * What the judgement reads of the evaluated pixels: the judged trap densities packed in index order (null without
+     * a conversion), those of them that are not NaN in the same order, {@code ranked[0..rankedCount)}, for their
+     * percentiles, and the invalid area.
+     */
+    record Judged(float[] judged, float[] ranked, int rankedCount, InvalidArea invalid) {
+    }
+
+    /**
+     * One pass over the evaluated pixels, packed in index order: the judged trap densities (the converted ones where
+     * the status is OK, NaN elsewhere; all of them as converted when below-limit pixels count {@code atBound}), those
+     * not NaN, and the {@link InvalidArea} tally of the lifetimes with their statuses (null {@code converted}: not
+     * converted) and {@code missing} NaN pixels left out of the evaluated ones. A method of its own, small enough
+     * for the JIT compiler to compile on its own.
+     */
+    static Judged judged(float[] life, int count, float[] converted, byte[] status, boolean atBound, int missing,
+                         double pixelAreaMm2, InspectionBuffers buffers) {
+        InvalidArea.Tally tally = new InvalidArea.Tally(true);
+        float[] judged = null;
+        float[] ranked = null;
+        int ranks = 0;
+        if (converted == null) {
+            for (int k = 0; k < count; k++) {
+                tally.add(life[k], -1);
+            }
+        } else {
+            judged = atBound ? converted : buffers.judged(converted.length);
+            ranked = buffers.densitySample(converted.length);
+            byte ok = PixelStatus.OK.code();
+            for (int k = 0; k < count; k++) {
+                byte st = status[k];
+                tally.add(life[k], st);
+                float d = converted[k];
+                if (!atBound) {
+                    d = st == ok ? d : Float.NaN;
+                    judged[k] = d;
+                }
+                if (d == d) {
+                    ranked[ranks++] = d;
+                }
+            }
+        }
+        tally.addMissing(missing);
+        return new Judged(judged, ranked, ranks, tally.result(pixelAreaMm2));
     }
 
     /** The trap-density map with the packed densities at the evaluated pixels and NaN elsewhere. */
