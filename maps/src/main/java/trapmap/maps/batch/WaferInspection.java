@@ -170,7 +170,7 @@ public final class WaferInspection {
      * pixels packed in index order (lifetimes gathered while the masks are made, trap densities converted packed,
      * then one pass for the judged densities, the invalid-area tally and the densities to rank), and nothing
      * map-sized is allocated unless {@code keep}: then the evaluation also holds the trap-density map and the
-     * evaluated pixels in arrays of their own (else both are null, and the evaluation only its result is for).
+     * evaluated pixels in arrays of their own (else both are null: only the result is used).
      */
     Evaluation evaluation(String name, WaferMap read, Path thumbnail, Defect defectOverride,
                           InspectionBuffers buffers, boolean keep) {
