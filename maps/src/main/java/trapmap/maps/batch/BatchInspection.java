@@ -419,12 +419,14 @@ public final class BatchInspection {
             MemoryBudget memory = memoryBudgetBytes < 0 ? MemoryBudget.ofThisHeap()
                     : new MemoryBudget(memoryBudgetBytes);
             int done = 0;
+            // one set of working arrays per worker, reused from wafer to wafer and dropped with the pool
+            ThreadLocal<InspectionBuffers> buffers = ThreadLocal.withInitial(InspectionBuffers::new);
             while (next.hasNext() || !pending.isEmpty()) {
                 while (next.hasNext() && pending.size() < 2 * threads) {
                     Path f = next.next();
                     Path thumb = thumbs == null ? null : thumbs.resolve(f.getFileName() + ".png");
                     pending.add(pool.submit(() -> memory.run(f, () -> {
-                        WaferResult inspected = inspection.inspect(f, thumb);
+                        WaferResult inspected = inspection.inspect(f, thumb, buffers.get());
                         if (pairs != null) {
                             ironColumns.put(inspected.file(), pairs.evaluate(f));
                         }

@@ -91,18 +91,60 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
      */
     public static FlaggedRegions find(FloatRaster raster, PixelGrid grid, int[] indices, int count,
                                       RegionCriteria criteria, WaferShape shape, float[] density, double insideMm) {
-        int w = raster.width();
-        int h = raster.height();
         float[] s = raster.samples();
         boolean[] open = new boolean[s.length];
+        int[] seeds = new int[count];
         int selected = 0;
         for (int k = 0; k < count; k++) {
             int i = indices[k];
             if (criteria.selects(s[i])) {
                 open[i] = true;
-                selected++;
+                seeds[selected++] = i;
             }
         }
+        return label(s, raster.width(), raster.height(), grid, seeds, selected, open, criteria, shape, density,
+                insideMm, new int[Math.max(16, selected)]);
+    }
+
+    /**
+     * As {@link #find(FloatRaster, PixelGrid, int[], int, RegionCriteria, WaferShape, float[], double)} from the
+     * flagged quantity and the trap density (null: none) packed in index order, {@code flag[k]} and
+     * {@code density[k]} being the values of pixel {@code indices[k]}, with the working arrays of {@code buffers}:
+     * the values of the selected pixels are placed at their pixels in map-sized buffers, and only those are read.
+     */
+    static FlaggedRegions findPacked(float[] flag, float[] density, PixelGrid grid, int[] indices, int count,
+                                     RegionCriteria criteria, WaferShape shape, double insideMm,
+                                     InspectionBuffers buffers) {
+        int n = grid.width() * grid.height();
+        boolean[] open = buffers.open(n);
+        float[] at = buffers.flagAt(n);
+        float[] densityAt = density == null ? null : buffers.densityAt(n);
+        int[] seeds = buffers.seeds(n);
+        int selected = 0;
+        for (int k = 0; k < count; k++) {
+            float v = flag[k];
+            if (criteria.selects(v)) {
+                int i = indices[k];
+                open[i] = true;
+                at[i] = v;
+                if (densityAt != null) {
+                    densityAt[i] = density[k];
+                }
+                seeds[selected++] = i;
+            }
+        }
+        return label(at, grid.width(), grid.height(), grid, seeds, selected, open, criteria, shape, densityAt,
+                insideMm, buffers.queue(Math.max(16, n)));
+    }
+
+    /**
+     * Labels the selected pixels, {@code seeds[0..selected)} in ascending order and marked in {@code open} (cleared as
+     * they are labelled), each region from its first pixel in that order; {@code s} and {@code density} are read at
+     * those pixels only.
+     */
+    private static FlaggedRegions label(float[] s, int w, int h, PixelGrid grid, int[] seeds, int selected,
+                                        boolean[] open, RegionCriteria criteria, WaferShape shape, float[] density,
+                                        double insideMm, int[] queue) {
         WaferShape.Prepared edge = shape == null ? null : shape.prepared();
         double pixelArea = grid.pixelAreaMm2();
         int[] offset = new int[8];
@@ -110,12 +152,11 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
             offset[k] = DY[k] * w + DX[k];
         }
         List<FlaggedRegion> regions = new ArrayList<>();
-        BitSet kept = new BitSet(s.length);
-        int[] queue = new int[Math.max(16, selected)];
+        BitSet kept = new BitSet(w * h);
         boolean above = criteria.side() == RegionCriteria.Side.ABOVE;
         boolean bordersOnly = insideMm >= grid.pitchMm();
-        for (int next = 0; next < count; next++) {
-            int seed = indices[next];
+        for (int next = 0; next < selected; next++) {
+            int seed = seeds[next];
             if (!open[seed]) {
                 continue;
             }

@@ -25,17 +25,32 @@ record Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre, in
      * one.
      */
     static Masks of(float[] tau, PixelGrid grid, WaferShape shape, double exclusionMm, double centreMm) {
+        return of(tau, grid, shape, exclusionMm, centreMm, new InspectionBuffers(), null);
+    }
+
+    /**
+     * As {@link #of(float[], PixelGrid, WaferShape, double, double)} into the arrays of {@code buffers} (the
+     * evaluated flags and indices), and in the same pass the evaluated samples packed in index
+     * order into {@code packed[0..count)} when it is not null (the gather of {@link Sample#gather}).
+     */
+    static Masks of(float[] tau, PixelGrid grid, WaferShape shape, double exclusionMm, double centreMm,
+                    InspectionBuffers buffers, float[] packed) {
         int w = grid.width();
         int h = grid.height();
-        boolean[] in = new boolean[w * h];
+        boolean[] in = buffers.evaluated(w * h);
         boolean[] centre = Double.isNaN(centreMm) ? null : new boolean[w * h];
-        int[] indices = new int[w * h];
+        int[] indices = buffers.indices(w * h);
+        boolean pack = packed != null;
         int count = 0;
         int missing = 0;
         if (shape == null) {
-            for (int i = 0; i < in.length; i++) {
-                if (tau[i] == tau[i]) {
+            for (int i = 0, n = w * h; i < n; i++) {
+                float v = tau[i];
+                if (v == v) {
                     in[i] = true;
+                    if (pack) {
+                        packed[count] = v;
+                    }
                     indices[count++] = i;
                 }
             }
@@ -64,8 +79,12 @@ record Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre, in
                 }
                 for (; x < end; x++) {
                     int i = row + x;
-                    if (tau[i] == tau[i]) {
+                    float v = tau[i];
+                    if (v == v) {
                         in[i] = true;
+                        if (pack) {
+                            packed[count] = v;
+                        }
                         indices[count++] = i;
                         if (central) {
                             centre[i] = true;

@@ -49,6 +49,19 @@ record Sample(int count, double areaMm2, double harmonicMean, double median, dou
                 }
             }
         }
+        return ranked(v, m, grid, percents, positive, reciprocalSum);
+    }
+
+    /**
+     * As {@link #ofPacked} without the harmonic mean (NaN), from values without NaN, {@code v[0..n)} (reordered): the
+     * same figures as {@link #ofPacked} gives for them, without its pass over them.
+     */
+    static Sample ofValid(float[] v, int n, PixelGrid grid, double[] percents) {
+        return ranked(v, n, grid, percents, 0, 0);
+    }
+
+    private static Sample ranked(float[] v, int m, PixelGrid grid, double[] percents, int positive,
+                                 double reciprocalSum) {
         double[] wanted = Arrays.copyOf(percents, percents.length + 1);
         wanted[percents.length] = 50;
         double[] est = MapStatistics.percentiles(v, m, wanted);

@@ -83,12 +83,19 @@ public final class WaferInspection {
         return inspect(file, null);
     }
 
+    /** Inspects one file with fresh working arrays; see {@link #inspect(Path, Path, InspectionBuffers)}. */
+    public WaferResult inspect(Path file, Path thumbnail) {
+        return inspect(file, thumbnail, new InspectionBuffers());
+    }
+
     /**
      * Inspects one file.
      *
      * @param thumbnail PNG file for a thumbnail with the flagged regions outlined, or null for none
+     * @param buffers   working arrays of this worker, reused from wafer to wafer (the result is the same as with
+     *                  fresh ones)
      */
-    public WaferResult inspect(Path file, Path thumbnail) {
+    public WaferResult inspect(Path file, Path thumbnail, InspectionBuffers buffers) {
         String name = file.toString();
         WaferMap map;
         try {
@@ -101,7 +108,7 @@ public final class WaferInspection {
             return WaferResult.error(name, name + ": " + describe(e));
         }
         try {
-            return evaluate(name, map, thumbnail);
+            return evaluation(name, map, thumbnail, null, buffers, false).result();
         } catch (BatchOutputException.Unchecked e) {
             throw e; // the thumbnail could not be written: the output folder's failure, not the wafer's
         } catch (RuntimeException e) {
@@ -129,7 +136,7 @@ public final class WaferInspection {
      *                                  where the rules need one), with a one-line reason
      */
     public Evaluation judge(String name, WaferMap read, Defect defectOverride) {
-        return evaluation(name, read, null, defectOverride);
+        return evaluation(name, read, null, defectOverride, new InspectionBuffers(), true);
     }
 
     /** The rules this inspection judges by. */
@@ -155,10 +162,18 @@ public final class WaferInspection {
 
     /** As {@link #evaluate}, keeping the intermediate maps. */
     Evaluation evaluation(String name, WaferMap read, Path thumbnail) {
-        return evaluation(name, read, thumbnail, null);
+        return evaluation(name, read, thumbnail, null, new InspectionBuffers(), true);
     }
 
-    private Evaluation evaluation(String name, WaferMap read, Path thumbnail, Defect defectOverride) {
+    /**
+     * The evaluation of a map with the working arrays of {@code buffers}. Every per-pixel step reads the evaluated
+     * pixels packed in index order (lifetimes gathered while the masks are made, trap densities converted packed,
+     * then one pass for the judged densities, the invalid-area tally and the densities to rank), and nothing
+     * map-sized is allocated unless {@code keep}: then the evaluation also holds the trap-density map and the
+     * evaluated pixels in arrays of their own (else both are null: only the result is used).
+     */
+    Evaluation evaluation(String name, WaferMap read, Path thumbnail, Defect defectOverride,
+                          InspectionBuffers buffers, boolean keep) {
         WaferMap map = read.withConditions(rules.applyTo(read.conditions()));
         WaferMap lifetime = switch (map.quantity()) {
             case EFFECTIVE_LIFETIME -> map;
@@ -193,37 +208,51 @@ public final class WaferInspection {
                 doping == null ? null : doping.type(), family);
         List<Figure> figures = profile.figures();
         boolean edgeRatio = figures.stream().anyMatch(f -> f.kind() == Figure.Kind.EDGE_TO_CENTRE_RATIO);
+        // the evaluated lifetimes, packed in index order while the masks are made: converted, tallied and flagged,
+        // then summed and ranked (which reorders them)
+        float[] lifeValues = buffers.life(grid.width() * grid.height());
         Masks masks = Masks.of(tau, grid, shape, rules.edgeExclusionMm(),
-                edgeRatio ? rules.edgeExclusionMm() + rules.edgeBandMm() : Double.NaN);
-        // the evaluated lifetimes, packed in index order: converted, then summed and ranked (which reorders them)
-        float[] lifeValues = Sample.gather(tau, masks);
+                edgeRatio ? rules.edgeExclusionMm() + rules.edgeBandMm() : Double.NaN, buffers, lifeValues);
+        int count = masks.count();
         Defect defect = defectOverride != null ? defectOverride : defects.get(profile.defectId());
-        Density converted = profile.needsTrapDensity() ? trapDensity(lifetime, defect, lifeValues, masks,
-                ConversionSettings.of(rules.physics())) : null;
-        WaferMap density = converted == null ? null : converted.map();
+        ConversionSettings settings = ConversionSettings.of(rules.physics());
+        Conditions conditions = null;
+        float[] converted = null;
+        byte[] status = null;
+        int belowLimit = 0;
+        if (profile.needsTrapDensity()) {
+            conditions = MapConversion.physicsConditions(lifetime.conditions(), settings);
+            // the conversion takes whole arrays: the pixels after the evaluated ones are NaN, which it skips
+            Arrays.fill(lifeValues, count, lifeValues.length, Float.NaN);
+            converted = buffers.density(lifeValues.length);
+            status = buffers.status(lifeValues.length);
+            belowLimit = convertPacked(conditions, defect, lifeValues, count, converted, status);
+        }
+        WaferMap density = converted == null || !keep ? null
+                : densityMap(lifetime, conditions, defect, settings, converted, masks);
         // What the flag, the regions and the trap-density figures read: the OK pixels, or with the rules' opt-in
-        // also the below-limit ones at their bound (the detection limit).
-        Density judged = converted == null ? null
-                : profile.flag().belowLimit() == Rules.BelowLimit.AT_BOUND ? converted : converted.okOnly(masks);
-        WaferMap judgedDensity = judged == null ? null : judged.map();
-        double belowLimitFraction = converted == null || masks.count() == 0 ? Double.NaN
-                : (double) converted.belowLimit() / masks.count();
-        InvalidArea invalid = invalidArea(lifeValues, converted == null ? null : converted.status(), masks,
-                grid.pixelAreaMm2());
-        Sample dens = judged == null ? null : Sample.ofPacked(judged.packed().clone(), masks.count(), grid,
-                percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE), false);
+        // also the below-limit ones at their bound (the detection limit). One pass gives them, the invalid-area
+        // tally and the judged densities that are not NaN, in index order, for their percentiles.
+        Judged j = judged(lifeValues, count, converted, status,
+                profile.flag().belowLimit() == Rules.BelowLimit.AT_BOUND, masks.missing(), grid.pixelAreaMm2(),
+                buffers);
+        float[] judged = j.judged();
+        InvalidArea invalid = j.invalid();
+        double belowLimitFraction = converted == null || count == 0 ? Double.NaN : (double) belowLimit / count;
+
+        Rules.Flag flag = profile.flag();
+        float[] flagValues = flag.quantity() == Rules.FlagQuantity.LIFETIME ? lifeValues : judged;
+        RegionCriteria criteria = flag.criteria();
+        FlaggedRegions regions = FlaggedRegions.findPacked(flagValues, judged, grid, masks.indices(), count, criteria,
+                shape, rules.edgeExclusionMm(), buffers);
+
+        Sample dens = judged == null ? null : Sample.ofValid(j.ranked(), j.rankedCount(), grid,
+                percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE));
         double[] lifePercents = percents(figures, Figure.Kind.LIFETIME_PERCENTILE);
         double[] withRange = Arrays.copyOf(lifePercents, lifePercents.length + 2);
         withRange[lifePercents.length] = Thumbnails.LOW_PERCENT;
         withRange[lifePercents.length + 1] = Thumbnails.HIGH_PERCENT;
-        Sample life = Sample.ofPacked(lifeValues, masks.count(), grid,
-                thumbnail == null ? lifePercents : withRange, true);
-
-        Rules.Flag flag = profile.flag();
-        WaferMap flagMap = flag.quantity() == Rules.FlagQuantity.LIFETIME ? lifetime : judgedDensity;
-        RegionCriteria criteria = flag.criteria();
-        FlaggedRegions regions = FlaggedRegions.find(flagMap.raster(), grid, masks.indices(), masks.count(), criteria,
-                shape, judgedDensity == null ? null : judgedDensity.raster().samples(), rules.edgeExclusionMm());
+        Sample life = Sample.ofPacked(lifeValues, count, grid, thumbnail == null ? lifePercents : withRange, true);
         FlaggedRegions.FlaggedRegion worst = regions.largest();
         FlaggedRegions.FlaggedRegion interior = largestInterior(regions, shape, grid);
         double flaggedFraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
@@ -268,8 +297,8 @@ public final class WaferInspection {
         WaferResult result = new WaferResult(name, map.waferId(), failed.isEmpty() ? WaferResult.Status.PASS
                 : WaferResult.Status.FAIL, grade, profile.name(), defect == null ? null : defect.id(), values, failed,
                 missed, regions.regions(), "", footprint, WaferResult.Worst.behind(failedFigures, worst, interior));
-        return new Evaluation(result, lifetime, density, shape, masks.evaluated(), regions, profile, defect,
-                invalid);
+        boolean[] evaluated = keep ? Arrays.copyOf(masks.evaluated(), grid.width() * grid.height()) : null;
+        return new Evaluation(result, lifetime, density, shape, evaluated, regions, profile, defect, invalid);
     }
 
     /**
@@ -307,22 +336,6 @@ public final class WaferInspection {
      * statuses (packed likewise) and the number of them below the detection limit.
      */
     record Density(WaferMap map, float[] packed, byte[] status, int belowLimit) {
-        /** The same with every pixel that is not {@link PixelStatus#OK} set to NaN (map and packed values). */
-        Density okOnly(Masks masks) {
-            float[] nt = map.raster().samples().clone();
-            float[] kept = packed.clone();
-            int[] indices = masks.indices();
-            byte ok = PixelStatus.OK.code();
-            for (int k = 0; k < kept.length; k++) {
-                if (status[k] != ok) {
-                    kept[k] = Float.NaN;
-                    nt[indices[k]] = Float.NaN;
-                }
-            }
-            WaferMap m = map.derive(FloatRaster.wrap(map.width(), map.height(), nt), Quantity.TRAP_DENSITY,
-                    ProcessingStep.of("status-filter", "kept", "OK pixels"));
-            return new Density(m, kept, status, belowLimit);
-        }
     }
 
     /** As {@link #trapDensity(WaferMap, Defect, float[], Masks, ConversionSettings)} with the default settings. */
@@ -334,41 +347,92 @@ public final class WaferInspection {
     static Density trapDensity(WaferMap lifetime, Defect defect, float[] packedTau, Masks masks,
                                ConversionSettings settings) {
         Conditions conditions = MapConversion.physicsConditions(lifetime.conditions(), settings);
-        int[] indices = masks.indices();
         int count = masks.count();
-        float[] nt = new float[lifetime.raster().size()];
-        Arrays.fill(nt, Float.NaN);
         float[] out = new float[count];
         byte[] status = new byte[count];
-        int below = 0;
-        if (count > 0) {
-            new TrapDensityConverter(conditions, defect).convert(packedTau, count,
-                    new ConversionOutput(out, null, null, null, null, null, null, status, null), 1);
-            byte belowCode = PixelStatus.BELOW_LIMIT.code();
-            for (int k = 0; k < count; k++) {
-                nt[indices[k]] = out[k];
-                if (status[k] == belowCode) {
-                    below++;
-                }
-            }
-        }
-        WaferMap map = lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), nt),
-                Quantity.TRAP_DENSITY, MapConversion.convertStep(conditions, defect, settings));
-        return new Density(map, out, status, below);
+        int below = convertPacked(conditions, defect, packedTau, count, out, status);
+        return new Density(densityMap(lifetime, conditions, defect, settings, out, masks), out, status, below);
     }
 
     /**
-     * The {@link InvalidArea} of the evaluated lifetimes (packed in index order, before {@link Sample#ofPacked}
-     * reorders them) with their conversion statuses (packed likewise; null when not converted) and the NaN pixels
-     * inside the outline that {@link Masks} left out.
+     * Converts the lifetimes {@code packedTau} (NaN after the first {@code count}) to trap density into {@code out}
+     * with their statuses into {@code status} (both as long as {@code packedTau}), and returns how many of the first
+     * {@code count} are below the detection limit.
      */
-    static InvalidArea invalidArea(float[] packedTau, byte[] status, Masks masks, double pixelAreaMm2) {
-        InvalidArea.Tally tally = new InvalidArea.Tally(true);
-        for (int k = 0, n = masks.count(); k < n; k++) {
-            tally.add(packedTau[k], status == null ? -1 : status[k]);
+    static int convertPacked(Conditions conditions, Defect defect, float[] packedTau, int count, float[] out,
+                             byte[] status) {
+        if (count == 0) {
+            return 0;
         }
-        tally.addMissing(masks.missing());
-        return tally.result(pixelAreaMm2);
+        new TrapDensityConverter(conditions, defect).convert(packedTau, packedTau.length,
+                new ConversionOutput(out, null, null, null, null, null, null, status, null), 1);
+        byte belowCode = PixelStatus.BELOW_LIMIT.code();
+        int below = 0;
+        for (int k = 0; k < count; k++) {
+            if (status[k] == belowCode) {
+                below++;
+            }
+        }
+        return below;
+    }
+
+    /**
+     * What the judgement reads of the evaluated pixels: the judged trap densities packed in index order (null without
+     * a conversion), those of them that are not NaN in the same order, {@code ranked[0..rankedCount)}, for their
+     * percentiles, and the invalid area.
+     */
+    record Judged(float[] judged, float[] ranked, int rankedCount, InvalidArea invalid) {
+    }
+
+    /**
+     * One pass over the evaluated pixels, packed in index order: the judged trap densities (the converted ones where
+     * the status is OK, NaN elsewhere; all of them as converted when below-limit pixels count {@code atBound}), those
+     * not NaN, and the {@link InvalidArea} tally of the lifetimes with their statuses (null {@code converted}: not
+     * converted) and {@code missing} NaN pixels left out of the evaluated ones. A method of its own, small enough
+     * for the JIT compiler to compile on its own.
+     */
+    static Judged judged(float[] life, int count, float[] converted, byte[] status, boolean atBound, int missing,
+                         double pixelAreaMm2, InspectionBuffers buffers) {
+        InvalidArea.Tally tally = new InvalidArea.Tally(true);
+        float[] judged = null;
+        float[] ranked = null;
+        int ranks = 0;
+        if (converted == null) {
+            for (int k = 0; k < count; k++) {
+                tally.add(life[k], -1);
+            }
+        } else {
+            judged = atBound ? converted : buffers.judged(converted.length);
+            ranked = buffers.densitySample(converted.length);
+            byte ok = PixelStatus.OK.code();
+            for (int k = 0; k < count; k++) {
+                byte st = status[k];
+                tally.add(life[k], st);
+                float d = converted[k];
+                if (!atBound) {
+                    d = st == ok ? d : Float.NaN;
+                    judged[k] = d;
+                }
+                if (d == d) {
+                    ranked[ranks++] = d;
+                }
+            }
+        }
+        tally.addMissing(missing);
+        return new Judged(judged, ranked, ranks, tally.result(pixelAreaMm2));
+    }
+
+    /** The trap-density map with the packed densities at the evaluated pixels and NaN elsewhere. */
+    private static WaferMap densityMap(WaferMap lifetime, Conditions conditions, Defect defect,
+                                       ConversionSettings settings, float[] packed, Masks masks) {
+        float[] nt = new float[lifetime.raster().size()];
+        Arrays.fill(nt, Float.NaN);
+        int[] indices = masks.indices();
+        for (int k = 0, n = masks.count(); k < n; k++) {
+            nt[indices[k]] = packed[k];
+        }
+        return lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), nt), Quantity.TRAP_DENSITY,
+                MapConversion.convertStep(conditions, defect, settings));
     }
 
     /**

@@ -87,6 +87,45 @@ class WaferInspectionShortcutsTest {
         }
     }
 
+    @Test
+    void regionsOfPackedValuesEqualThoseOfTheFullMaps() throws Exception {
+        WaferMap m = demo("LOT-A01-W02.tif");
+        WaferShape shape = OutlineDetection.fit(m).shape();
+        Masks masks = Masks.of(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
+        float[] tau = Sample.gather(m.raster().samples(), masks);
+        WaferInspection.Density d = WaferInspection.trapDensity(m, DefectLibrary.byId("fe-i"), tau, masks);
+        InspectionBuffers buffers = new InspectionBuffers();
+        for (RegionCriteria c : List.of(RegionCriteria.below(60, 1), RegionCriteria.above(400, 2))) {
+            FlaggedRegions full = FlaggedRegions.find(m.raster(), m.grid(), masks.indices(), masks.count(), c, shape,
+                    d.map().raster().samples(), 2);
+            FlaggedRegions packed = FlaggedRegions.findPacked(tau, d.packed(), m.grid(), masks.indices(),
+                    masks.count(), c, shape, 2, buffers);
+            assertThat(full.regions()).isNotEmpty();
+            assertThat(packed.regions()).isEqualTo(full.regions());
+            assertThat(packed.pixels()).isEqualTo(full.pixels());
+        }
+        // flagged by trap density
+        RegionCriteria high = RegionCriteria.above(percentile(d.packed(), 90), 1);
+        FlaggedRegions full = FlaggedRegions.find(d.map().raster(), m.grid(), masks.indices(), masks.count(), high,
+                shape, d.map().raster().samples(), 2);
+        FlaggedRegions packed = FlaggedRegions.findPacked(d.packed(), d.packed(), m.grid(), masks.indices(),
+                masks.count(), high, shape, 2, buffers);
+        assertThat(full.regions()).isNotEmpty();
+        assertThat(packed.regions()).isEqualTo(full.regions());
+    }
+
+    private static float percentile(float[] v, double percent) {
+        float[] s = new float[v.length];
+        int n = 0;
+        for (float f : v) {
+            if (f == f) {
+                s[n++] = f;
+            }
+        }
+        java.util.Arrays.sort(s, 0, n);
+        return s[(int) (percent / 100 * (n - 1))];
+    }
+
     @ParameterizedTest
     @ValueSource(ints = {6, 40})
     void regionDensityMedianEqualsMapStatisticsOverItsPixels(int radius) {

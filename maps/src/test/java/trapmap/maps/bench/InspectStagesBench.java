@@ -7,6 +7,7 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.Locale;
 import java.util.stream.Stream;
+import trapmap.maps.batch.InspectionBuffers;
 import trapmap.maps.batch.Rules;
 import trapmap.maps.batch.WaferInspection;
 import trapmap.maps.io.MapFiles;
@@ -18,7 +19,8 @@ import trapmap.physics.defect.DefectLibrary;
 /**
  * CPU time of the stages of one wafer's inspection, in one thread, so that the figures hold on a busy machine:
  * reading a map, reading + converting it to trap density, and the whole inspection (with a thumbnail). Medians over
- * the maps after a warm-up over the first quarter. Arguments: {@code MAPS_DIR RULES [maps]}. Not a unit test: run it
+ * the maps after a warm-up over the first quarter; the inspection keeps one worker's arrays from map to map as the batch
+ * does. Arguments: {@code MAPS_DIR RULES [maps]}. Not a unit test: run it
  * from {@code scripts/bench-inspect} ({@code BENCH_STAGES=1}).
  */
 public final class InspectStagesBench {
@@ -35,6 +37,7 @@ public final class InspectStagesBench {
         }
         Path thumbs = Files.createTempDirectory("trapmap-bench-thumbs");
         WaferInspection inspection = new WaferInspection(rules);
+        InspectionBuffers buffers = new InspectionBuffers(); // one worker's arrays, as in the batch
         ThreadMXBean bean = ManagementFactory.getThreadMXBean();
         int warm = files.size() / 4;
         double[] read = new double[files.size() - warm];
@@ -47,7 +50,7 @@ public final class InspectStagesBench {
             long t1 = bean.getCurrentThreadCpuTime();
             MapConversion.convert(m, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS, 1);
             long t2 = bean.getCurrentThreadCpuTime();
-            inspection.inspect(f, thumbs.resolve(f.getFileName() + ".png"));
+            inspection.inspect(f, thumbs.resolve(f.getFileName() + ".png"), buffers);
             long t3 = bean.getCurrentThreadCpuTime();
             if (i >= warm) {
                 read[i - warm] = (t1 - t0) / 1e6;

@@ -61,6 +61,38 @@ class PngFilesTest {
         assertSamePixels(ImageIO.read(mine.toFile()), ImageIO.read(new ByteArrayInputStream(jdk.toByteArray())));
     }
 
+    /** At most {@code colours} ARGB values, transparent and half-transparent ones among them, in smooth runs. */
+    private static BufferedImage fewColours(int w, int h, int colours, long seed) {
+        Random rnd = new Random(seed);
+        int[] palette = new int[colours];
+        for (int k = 0; k < colours; k++) {
+            palette[k] = k == 0 ? 0 : k == 1 ? 0x80123456 : k == 2 ? 0x00FFFFFF : 0xFF000000 | rnd.nextInt(1 << 24);
+        }
+        BufferedImage img = new BufferedImage(w, h, BufferedImage.TYPE_INT_ARGB);
+        for (int y = 0; y < h; y++) {
+            for (int x = 0; x < w; x++) {
+                img.setRGB(x, y, palette[rnd.nextInt(8) == 0 ? rnd.nextInt(colours) : (x + y) % colours]);
+            }
+        }
+        return img;
+    }
+
+    @Test
+    void picturesOfAtMost256ColoursGetAPaletteOfExactlyTheirColours() throws Exception {
+        for (int colours : new int[] {1, 3, 200, 256}) {
+            BufferedImage img = fewColours(256, 190, colours, colours);
+            BufferedImage indexed = PngFiles.indexed(img);
+            assertThat(indexed).as("%d colours", colours).isNotNull();
+            assertSamePixels(indexed, img);
+            BufferedImage back = ImageIO.read(new ByteArrayInputStream(PngFiles.encode(img)));
+            assertSamePixels(back, img);
+        }
+        // one colour more: the four-channel picture, also the same pixels
+        BufferedImage many = fewColours(256, 190, 257, 257);
+        assertThat(PngFiles.indexed(many)).isNull();
+        assertSamePixels(ImageIO.read(new ByteArrayInputStream(PngFiles.encode(many))), many);
+    }
+
     @Test
     void otherImageTypesAndSubimagesGoThroughTheirArgbValues() throws Exception {
         BufferedImage whole = randomPicture(64, 48, 9);

@@ -94,6 +94,63 @@ class PngMapsTest {
     }
 
     @Test
+    void largePicturesTakeTheSameColoursFromTheBoundsOfEachColour() {
+        // 256 x 256 pixels: at least TABLE_PIXELS, so drawn through logBounds; the reference is rgbAt per pixel
+        java.util.Random rnd = new java.util.Random(11);
+        int w = 256;
+        int h = 256;
+        assertThat(w * h).isGreaterThanOrEqualTo(PngMaps.TABLE_PIXELS);
+        double lo = Math.log10(3.7);
+        double span = Math.log10(812.5) - lo;
+        int[] bounds = PngMaps.logBounds(lo, span);
+        float[] s = new float[w * h];
+        for (int i = 0; i < s.length; i++) {
+            int kind = rnd.nextInt(10);
+            s[i] = switch (kind) {
+                case 0 -> Float.NaN;
+                case 1 -> -rnd.nextFloat();
+                case 2 -> Float.intBitsToFloat(rnd.nextInt(0x7F800000)); // any positive float, subnormals included
+                case 3 -> Float.intBitsToFloat(bounds[rnd.nextInt(256)] - rnd.nextInt(2)); // at and below a bound
+                case 4 -> rnd.nextBoolean() ? Float.MIN_VALUE : Float.MAX_VALUE;
+                default -> (float) Math.pow(10, 4 * rnd.nextDouble() - 0.5);
+            };
+        }
+        WaferMap m = new WaferMap(FloatRaster.wrap(w, h, s), PixelGrid.centred(w, h, 1),
+                Quantity.EFFECTIVE_LIFETIME, "", MeasurementConditions.UNKNOWN, Provenance.of(""));
+        PngStyle style = PngStyle.DEFAULT.withRange(3.7, 812.5);
+        BufferedImage img = PngMaps.render(m, style);
+        double styleLo = Math.log10(3.7);
+        double styleSpan = Math.log10(812.5) - styleLo;
+        for (int i = 0; i < s.length; i++) {
+            int expected = Float.isFinite(s[i]) && s[i] > 0
+                    ? 0xFF000000 | style.colours().rgbAt((Math.log10(s[i]) - styleLo) / styleSpan) : 0;
+            assertThat(img.getRGB(i % w, i / w)).as("pixel %d (%s)", i, s[i]).isEqualTo(expected);
+        }
+    }
+
+    @Test
+    void eachColoursBoundIsTheFirstFloatOfThatColour() {
+        for (double[] r : new double[][] {{0, 3}, {Math.log10(2), 2.65}, {-12, 30}, {5, 1e-3}}) {
+            int[] bounds = PngMaps.logBounds(r[0], r[1]);
+            for (int j = 1; j < 256; j++) {
+                assertThat(bounds[j]).isGreaterThanOrEqualTo(bounds[j - 1]);
+                if (bounds[j] < 0x7F800000) {
+                    assertThat(PngMaps.logIndex(Float.intBitsToFloat(bounds[j]), r[0], r[1])).isGreaterThanOrEqualTo(j);
+                }
+                if (bounds[j] > 1 && bounds[j] <= 0x7F800000) {
+                    assertThat(PngMaps.logIndex(Float.intBitsToFloat(bounds[j] - 1), r[0], r[1])).isLessThan(j);
+                }
+            }
+            java.util.Random rnd = new java.util.Random(3);
+            for (int k = 0; k < 20000; k++) {
+                int bits = 1 + rnd.nextInt(0x7F7FFFFF);
+                assertThat(PngMaps.colourIndex(bounds, bits))
+                        .isEqualTo(PngMaps.logIndex(Float.intBitsToFloat(bits), r[0], r[1]));
+            }
+        }
+    }
+
+    @Test
     void nonPositiveValuesAreTransparentOnALogScale() {
         WaferMap m = new WaferMap(FloatRaster.wrap(3, 1, new float[] {-1, 0, 5}), PixelGrid.centred(3, 1, 1),
                 Quantity.TRAP_DENSITY, "", MeasurementConditions.UNKNOWN, Provenance.of(""));
