@@ -155,7 +155,26 @@ final class StatsCommand implements Callable<Integer> {
         StatisticsRequest request = threshold == null
                 ? StatisticsRequest.of(new double[] {5, 95})
                 : StatisticsRequest.of(new double[] {5, 95}, threshold);
-        MapStatistics s = MapStatistics.of(map, mask, request);
+        // The flagged regions need the mask and the threshold only: they are found while the statistics are computed
+        // (whose serial parts then share the machine with them).
+        RegionCriteria.Side side = threshold == null ? null : side(map.quantity());
+        java.util.concurrent.ForkJoinTask<RegionTable> regionSearch = null;
+        if (threshold != null) {
+            WaferMap searched = map;
+            Mask flaggable = mask;
+            RegionCriteria criteria = new RegionCriteria(threshold, side, minAreaMm2);
+            regionSearch = java.util.concurrent.ForkJoinPool.commonPool().submit(
+                    () -> ThresholdRegions.find(searched, flaggable, criteria, shape));
+        }
+        MapStatistics s;
+        try {
+            s = MapStatistics.of(map, mask, request);
+        } catch (RuntimeException | Error e) {
+            if (regionSearch != null) {
+                regionSearch.cancel(false);
+            }
+            throw e;
+        }
 
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("file", input.toString());
@@ -192,7 +211,6 @@ final class StatsCommand implements Callable<Integer> {
             m.put("warnings", warnings);
         }
         if (threshold != null) {
-            RegionCriteria.Side side = side(map.quantity());
             MapStatistics.AreaFraction f = s.areaFraction(threshold);
             Map<String, Object> t = new LinkedHashMap<>();
             t.put("value", threshold);
@@ -204,21 +222,20 @@ final class StatsCommand implements Callable<Integer> {
             t.put("flagged_fraction", Output.num(side == RegionCriteria.Side.ABOVE ? f.fractionAbove()
                     : f.fractionBelow()));
             m.put("threshold", t);
-            RegionTable regions = ThresholdRegions.find(map, mask, new RegionCriteria(threshold, side, minAreaMm2),
-                    shape);
+            RegionTable regions = joined(regionSearch);
             m.put("regions", regionRows(regions));
         }
         print(m);
         return Exit.OK;
     }
 
-    /** The result of {@code task}, or the failure it ended with, rethrown as it was. */
+    /** The result of {@code task} (the outline fit, the region search), or the failure it ended with, as it was. */
     private static <T> T joined(java.util.concurrent.ForkJoinTask<T> task) {
         try {
             return task.get();
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
-            throw new IllegalStateException("interrupted while fitting the wafer outline", e);
+            throw new IllegalStateException("interrupted while waiting for " + task, e);
         } catch (java.util.concurrent.ExecutionException e) {
             if (e.getCause() instanceof RuntimeException r) {
                 throw r;
