@@ -59,6 +59,29 @@ final class Output {
         return Double.isFinite(v) ? NumberText.roundMm2(v) : null;
     }
 
+    /**
+     * Builds the JSON writer and its serializers for the value types of the commands' results (maps, lists, strings,
+     * numbers, booleans, null) on a daemon thread, so that a command that prints JSON at its end finds them ready
+     * instead of building them then (a few hundred milliseconds of class loading in a fresh process); the text
+     * {@link #json} writes does not change.
+     */
+    static void prepareJson() {
+        Thread t = new Thread(() -> {
+            Map<String, Object> sample = new java.util.LinkedHashMap<>();
+            sample.put("text", "x");
+            sample.put("double", 0.5);
+            sample.put("float", 0.5f);
+            sample.put("int", 1);
+            sample.put("bool", true);
+            sample.put("none", null);
+            sample.put("list", List.of("x"));
+            sample.put("rows", new ArrayList<>(List.of(new java.util.LinkedHashMap<>(Map.of("k", 1.5)))));
+            json(sample);
+        }, "trapmap-json-prepare");
+        t.setDaemon(true);
+        t.start();
+    }
+
     /** {@code value} as indented JSON. */
     static String json(Object value) {
         try {

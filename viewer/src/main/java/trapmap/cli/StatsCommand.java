@@ -105,18 +105,25 @@ final class StatsCommand implements Callable<Integer> {
         if (threshold != null && !Double.isFinite(threshold)) {
             throw new InputException("--threshold must be a finite number in the map's unit");
         }
+        if (json) {
+            Output.prepareJson(); // ready by the end, built while the map is read and converted
+        }
         WaferMap read = MapInput.page(input, page);
         WaferMap map = read;
         Defect defect = density.defectOrNull();
         MapConversion.Result converted = null;
         String floor = "";
+        Map<String, Object> outline = new LinkedHashMap<>();
+        // The outline is fitted to the map as read, so it is found while the conversion runs; its failure is given
+        // after the conversion's warnings, as when the two ran one after the other.
+        java.util.concurrent.ForkJoinTask<WaferShape> fitting = defect == null ? null
+                : java.util.concurrent.ForkJoinPool.commonPool().submit(() -> shape(read, outline));
         if (defect != null) {
             floor = MapConversion.lifetimeFloorNote(map);
             converted = DensityOption.convert(map, defect, conditions, spec.commandLine().getErr());
             map = converted.get(Quantity.TRAP_DENSITY);
         }
-        Map<String, Object> outline = new LinkedHashMap<>();
-        WaferShape shape = shape(read, outline);
+        WaferShape shape = fitting == null ? shape(read, outline) : joined(fitting);
         Mask valid = Mask.valid(map.raster());
         Mask area = shape == null ? Mask.valid(read.raster()) : shape.mask(map.grid(), edgeExclusionMm);
         Mask mask = shape == null ? valid : valid.and(area);
@@ -148,7 +155,26 @@ final class StatsCommand implements Callable<Integer> {
         StatisticsRequest request = threshold == null
                 ? StatisticsRequest.of(new double[] {5, 95})
                 : StatisticsRequest.of(new double[] {5, 95}, threshold);
-        MapStatistics s = MapStatistics.of(map, mask, request);
+        // The flagged regions need the mask and the threshold only: they are found while the statistics are computed
+        // (whose serial parts then share the machine with them).
+        RegionCriteria.Side side = threshold == null ? null : side(map.quantity());
+        java.util.concurrent.ForkJoinTask<RegionTable> regionSearch = null;
+        if (threshold != null) {
+            WaferMap searched = map;
+            Mask flaggable = mask;
+            RegionCriteria criteria = new RegionCriteria(threshold, side, minAreaMm2);
+            regionSearch = java.util.concurrent.ForkJoinPool.commonPool().submit(
+                    () -> ThresholdRegions.find(searched, flaggable, criteria, shape));
+        }
+        MapStatistics s;
+        try {
+            s = MapStatistics.of(map, mask, request);
+        } catch (RuntimeException | Error e) {
+            if (regionSearch != null) {
+                regionSearch.cancel(false);
+            }
+            throw e;
+        }
 
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("file", input.toString());
@@ -185,7 +211,6 @@ final class StatsCommand implements Callable<Integer> {
             m.put("warnings", warnings);
         }
         if (threshold != null) {
-            RegionCriteria.Side side = side(map.quantity());
             MapStatistics.AreaFraction f = s.areaFraction(threshold);
             Map<String, Object> t = new LinkedHashMap<>();
             t.put("value", threshold);
@@ -197,12 +222,29 @@ final class StatsCommand implements Callable<Integer> {
             t.put("flagged_fraction", Output.num(side == RegionCriteria.Side.ABOVE ? f.fractionAbove()
                     : f.fractionBelow()));
             m.put("threshold", t);
-            RegionTable regions = ThresholdRegions.find(map, mask, new RegionCriteria(threshold, side, minAreaMm2),
-                    shape);
+            RegionTable regions = joined(regionSearch);
             m.put("regions", regionRows(regions));
         }
         print(m);
         return Exit.OK;
+    }
+
+    /** The result of {@code task} (the outline fit, the region search), or the failure it ended with, as it was. */
+    private static <T> T joined(java.util.concurrent.ForkJoinTask<T> task) {
+        try {
+            return task.get();
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new IllegalStateException("interrupted while waiting for " + task, e);
+        } catch (java.util.concurrent.ExecutionException e) {
+            if (e.getCause() instanceof RuntimeException r) {
+                throw r;
+            }
+            if (e.getCause() instanceof Error r) {
+                throw r;
+            }
+            throw new IllegalStateException(e.getCause());
+        }
     }
 
     /** The statistics that count values <= 0 as measured (the harmonic and geometric means leave them out). */
@@ -312,29 +354,31 @@ final class StatsCommand implements Callable<Integer> {
     private static List<Map<String, Object>> regionRows(RegionTable table) {
         List<Region> sorted = new ArrayList<>(table.regions());
         sorted.sort((a, b) -> Double.compare(b.areaMm2(), a.areaMm2()));
-        List<Map<String, Object>> rows = new ArrayList<>();
-        for (Region r : sorted) {
-            Map<String, Object> row = new LinkedHashMap<>();
-            row.put("id", r.id());
-            row.put("area_mm2", Output.mm2(r.areaMm2()));
-            row.put("pixels", r.pixelCount());
-            row.put("centroid_x_mm", Output.mm(r.centroidXMm()));
-            row.put("centroid_y_mm", Output.mm(r.centroidYMm()));
-            row.put("centroid_inside", r.centroidInside());
-            row.put("position_x_mm", Output.mm(r.positionXMm()));
-            row.put("position_y_mm", Output.mm(r.positionYMm()));
-            row.put("min_x_mm", Output.mm(r.bounds().minXMm()));
-            row.put("min_y_mm", Output.mm(r.bounds().minYMm()));
-            row.put("max_x_mm", Output.mm(r.bounds().maxXMm()));
-            row.put("max_y_mm", Output.mm(r.bounds().maxYMm()));
-            row.put("peak", Output.sample(r.peakValue()));
-            row.put("peak_x_mm", Output.mm(r.peakXMm()));
-            row.put("peak_y_mm", Output.mm(r.peakYMm()));
-            row.put("mean", Output.num(r.meanValue()));
-            row.put("edge_distance_mm", Output.mm(r.edgeDistanceMm()));
-            rows.add(row);
-        }
-        return rows;
+        // one row per region, built on all cores (each row is rounded text work of its own region), in table order
+        return java.util.stream.IntStream.range(0, sorted.size()).parallel().mapToObj(i -> regionRow(sorted.get(i)))
+                .toList();
+    }
+
+    private static Map<String, Object> regionRow(Region r) {
+        Map<String, Object> row = new LinkedHashMap<>();
+        row.put("id", r.id());
+        row.put("area_mm2", Output.mm2(r.areaMm2()));
+        row.put("pixels", r.pixelCount());
+        row.put("centroid_x_mm", Output.mm(r.centroidXMm()));
+        row.put("centroid_y_mm", Output.mm(r.centroidYMm()));
+        row.put("centroid_inside", r.centroidInside());
+        row.put("position_x_mm", Output.mm(r.positionXMm()));
+        row.put("position_y_mm", Output.mm(r.positionYMm()));
+        row.put("min_x_mm", Output.mm(r.bounds().minXMm()));
+        row.put("min_y_mm", Output.mm(r.bounds().minYMm()));
+        row.put("max_x_mm", Output.mm(r.bounds().maxXMm()));
+        row.put("max_y_mm", Output.mm(r.bounds().maxYMm()));
+        row.put("peak", Output.sample(r.peakValue()));
+        row.put("peak_x_mm", Output.mm(r.peakXMm()));
+        row.put("peak_y_mm", Output.mm(r.peakYMm()));
+        row.put("mean", Output.num(r.meanValue()));
+        row.put("edge_distance_mm", Output.mm(r.edgeDistanceMm()));
+        return row;
     }
 
     @SuppressWarnings("unchecked")

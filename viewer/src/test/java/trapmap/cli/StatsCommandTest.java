@@ -112,6 +112,68 @@ class StatsCommandTest {
     }
 
     @Test
+    void withADefectTheOutlineFittedBesideTheConversionIsTheOneFittedToTheMapAsRead() throws Exception {
+        Path f = wafer();
+        JsonNode asRead = Cli.json("stats", f.toString(), "--json").get("outline");
+        Cli.Run r = Cli.run("stats", f.toString(), "--defect", "fe-i", "--doping", "p:1e16", "--generation", "1e19",
+                "--json");
+        assertThat(r.code()).as(r.err()).isZero();
+        assertThat(Cli.parse(r.out()).get("outline")).isEqualTo(asRead);
+        assertThat(asRead.get("source").asText()).isEqualTo("fitted");
+    }
+
+    @Test
+    void withADefectAnOutlineThatCannotBeFittedRefusesTheEdgeExclusion() throws Exception {
+        float[] s = new float[9 * 9];
+        java.util.Arrays.fill(s, Float.NaN);
+        s[40] = 80;
+        WaferMap m = new WaferMap(FloatRaster.wrap(9, 9, s), PixelGrid.centred(9, 9, PITCH_MM),
+                Quantity.EFFECTIVE_LIFETIME, "dot", MeasurementConditions.UNKNOWN, Provenance.of("test"));
+        Path f = dir.resolve("dot.tif");
+        MapFiles.write(m, f);
+        Cli.Run r = Cli.run("stats", f.toString(), "--defect", "fe-i", "--doping", "p:1e16", "--generation", "1e19",
+                "--edge-exclusion-mm", "1", "--json");
+        assertThat(r.code()).isNotZero();
+        assertThat(r.out()).isEmpty();
+        assertThat(r.err()).contains("--edge-exclusion-mm needs the wafer outline, which could not be fitted to "
+                + f);
+    }
+
+    @Test
+    void regionRowsComeLargestFirstWithTheirOwnFigures() throws Exception {
+        // spots of radius 2, 3, ..., 7 mm on a line: each row must hold its own spot's figures, largest first
+        float[] s = new float[N * N];
+        PixelGrid g = PixelGrid.centred(N, N, PITCH_MM);
+        for (int y = 0; y < N; y++) {
+            for (int x = 0; x < N; x++) {
+                double xm = g.xMm(x);
+                double ym = g.yMm(y);
+                double v = Math.hypot(xm, ym) > 50 ? Float.NaN : 80;
+                for (int k = 0; k < 6; k++) {
+                    if (Math.hypot(xm - (-35 + 14 * k), ym) <= 2 + k) {
+                        v = 4;
+                    }
+                }
+                s[y * N + x] = (float) v;
+            }
+        }
+        Path f = dir.resolve("spots.tif");
+        MapFiles.write(new WaferMap(FloatRaster.wrap(N, N, s), g, Quantity.EFFECTIVE_LIFETIME, "spots",
+                MeasurementConditions.UNKNOWN, Provenance.of("test")), f);
+        JsonNode regions = Cli.json("stats", f.toString(), "--threshold", "10", "--json").get("regions");
+        assertThat(regions).hasSize(6);
+        for (int i = 0; i < 6; i++) {
+            int k = 5 - i; // largest first
+            JsonNode row = regions.get(i);
+            assertThat(row.get("centroid_x_mm").asDouble()).isCloseTo(-35 + 14 * k, within(0.25));
+            assertThat(row.get("centroid_y_mm").asDouble()).isCloseTo(0, within(0.25));
+            assertThat(row.get("area_mm2").asDouble()).isCloseTo(row.get("pixels").asInt() * PITCH_MM * PITCH_MM,
+                    within(1e-9));
+            assertThat(row.get("area_mm2").asDouble()).isCloseTo(Math.PI * (2 + k) * (2 + k), within(3.0));
+        }
+    }
+
+    @Test
     void edgeExclusionShrinksTheCountedArea() throws Exception {
         Path f = wafer();
         JsonNode all = Cli.json("stats", f.toString(), "--json");

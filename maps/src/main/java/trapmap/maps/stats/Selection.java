@@ -46,17 +46,10 @@ final class Selection {
             }
             chunkCount[c] = cc;
         });
-        int[] count = new int[BUCKETS];
-        for (int c = 0; c < chunks; c++) {
-            int[] cc = chunkCount[c];
-            for (int bb = 0; bb < BUCKETS; bb++) {
-                count[bb] += cc[bb];
-            }
-        }
-        int[] start = new int[BUCKETS + 1];
-        for (int b = 0; b < BUCKETS; b++) {
-            start[b + 1] = start[b] + count[b];
-        }
+        // (the loops over the buckets are small methods of their own: this method runs once, and the just-in-time
+        // compiler then compiles them quickly instead of compiling all of it on the stack)
+        int[] count = sum(chunkCount);
+        int[] start = starts(count);
         int[] slotOfBucket = new int[BUCKETS];
         java.util.Arrays.fill(slotOfBucket, -1);
         int[] bucketOfRank = new int[ranks.length];
@@ -83,12 +76,7 @@ final class Selection {
         }
         float[][] bins = new float[slots][];
         int[] bucketOfSlot = new int[slots];
-        for (int bb = 0; bb < BUCKETS; bb++) {
-            if (slotOfBucket[bb] >= 0) {
-                bins[slotOfBucket[bb]] = new float[count[bb]];
-                bucketOfSlot[slotOfBucket[bb]] = bb;
-            }
-        }
+        slotsOfBuckets(slotOfBucket, count, bins, bucketOfSlot);
         // each chunk gathers into its own stretch of every bin (the chunks before it fill the stretches before),
         // so the bins hold their values in index order however the chunks are run
         int[][] fillOfChunk = new int[chunks][slots];
@@ -119,6 +107,36 @@ final class Selection {
             from[slot] = k;
         }
         return out;
+    }
+
+    /** The bucket counts of all chunks added up. */
+    private static int[] sum(int[][] chunkCount) {
+        int[] count = new int[BUCKETS];
+        for (int[] cc : chunkCount) {
+            for (int bb = 0; bb < BUCKETS; bb++) {
+                count[bb] += cc[bb];
+            }
+        }
+        return count;
+    }
+
+    /** The first sorted index of each bucket, and n at the end. */
+    private static int[] starts(int[] count) {
+        int[] start = new int[BUCKETS + 1];
+        for (int b = 0; b < BUCKETS; b++) {
+            start[b + 1] = start[b] + count[b];
+        }
+        return start;
+    }
+
+    /** An array of its count for every gathered bucket, in its slot, and the bucket of every slot. */
+    private static void slotsOfBuckets(int[] slotOfBucket, int[] count, float[][] bins, int[] bucketOfSlot) {
+        for (int bb = 0; bb < BUCKETS; bb++) {
+            if (slotOfBucket[bb] >= 0) {
+                bins[slotOfBucket[bb]] = new float[count[bb]];
+                bucketOfSlot[slotOfBucket[bb]] = bb;
+            }
+        }
     }
 
     /** Bucket of a float: the top 16 bits of its order-preserving key (negative values reversed, then offset). */
