@@ -127,7 +127,7 @@ final class InspectCommand implements Callable<Integer> {
         BatchInspection.Summary s;
         try {
             s = new BatchInspection(rules).withIron(ironPairs).withSource(source)
-                    .finishingWith(dir -> BatchReport.writeFor(dir, judged))
+                    .finishingWith((dir, recurrence) -> BatchReport.writeFor(dir, judged, recurrence))
                     .run(files, out, new BatchInspection.Options(n, resume, thumbnails, progress, overwrite)
                             .withThumbnailCaptions(thumbnailCaptions));
         } catch (RunRefusedException e) {

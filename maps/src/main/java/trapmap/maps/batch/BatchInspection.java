@@ -153,6 +153,16 @@ public final class BatchInspection {
     }
 
     /**
+     * The last step of a run given, besides the finished folder, the recurrence the batch built from every footprint
+     * of the run (those kept from a resumed run included): the same counts as {@link RecurrenceMap#read} of the
+     * folder's {@link #FOOTPRINTS_NAME}, without reading it again.
+     */
+    @FunctionalInterface
+    public interface RecurrenceFinisher {
+        void finish(Path outDir, RecurrenceMap recurrence) throws IOException;
+    }
+
+    /**
      * What a batch did.
      *
      * @param pass       wafers that passed (including kept rows)
@@ -184,7 +194,9 @@ public final class BatchInspection {
     /** Program version and rules file, for the run record. */
     private RunManifest.Source source = RunManifest.Source.UNKNOWN;
     /** The summary step, null for none. */
-    private Finisher finisher;
+    private RecurrenceFinisher finisher;
+    /** The recurrence of the last {@link #inspectAll}, handed to the summary step. */
+    private RecurrenceMap builtRecurrence;
 
     public BatchInspection(Rules rules) {
         this(rules, MapFiles::readSingle);
@@ -226,6 +238,12 @@ public final class BatchInspection {
      * the batch still holds its folder. Returns this batch.
      */
     public BatchInspection finishingWith(Finisher f) {
+        this.finisher = f == null ? null : (dir, recurrence) -> f.finish(dir);
+        return this;
+    }
+
+    /** As {@link #finishingWith(Finisher)}, the step also given the recurrence the batch built. */
+    public BatchInspection finishingWith(RecurrenceFinisher f) {
         this.finisher = f;
         return this;
     }
@@ -276,7 +294,7 @@ public final class BatchInspection {
                 manifest = manifest.with(RunManifest.State.FINISHING, null);
                 manifest.write(outDir);
                 if (finisher != null) {
-                    finisher.finish(outDir);
+                    finisher.finish(outDir, builtRecurrence);
                 }
                 manifest.with(RunManifest.State.COMPLETE, java.time.Instant.now()).write(outDir);
                 return s;
@@ -512,6 +530,7 @@ public final class BatchInspection {
                             CsvCells.text(stem + ".tif")))
                     .append('\n');
         }
+        builtRecurrence = recurrence;
         Path recurrenceCsv = outDir.resolve(RECURRENCE_NAME);
         OutputFolder.write(recurrenceCsv, () -> AtomicFiles.write(recurrenceCsv,
                 families.toString().getBytes(StandardCharsets.UTF_8)));

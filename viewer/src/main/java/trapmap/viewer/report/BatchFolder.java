@@ -36,6 +36,11 @@ final class BatchFolder {
      *                     or names other physics settings than {@code rules}'
      */
     static BatchContent read(Path outputDir, Rules rules) throws IOException {
+        return read(outputDir, rules, null);
+    }
+
+    /** As {@link #read(Path, Rules)}, with the batch's recurrence in memory (null: read from footprints.csv). */
+    static BatchContent read(Path outputDir, Rules rules, RecurrenceMap built) throws IOException {
         RunManifest.requireResults(outputDir, rules.physics());
         Path csv = outputDir.resolve(BatchInspection.CSV_NAME);
         List<BatchContent.Row> rows = new ArrayList<>();
@@ -66,7 +71,8 @@ final class BatchFolder {
                         text(rec, "error")));
             }
         }
-        RecurrenceMap recurrence = RecurrenceMap.read(outputDir.resolve(BatchInspection.FOOTPRINTS_NAME));
+        RecurrenceMap recurrence = built != null ? built
+                : RecurrenceMap.read(outputDir.resolve(BatchInspection.FOOTPRINTS_NAME));
         return new BatchContent(outputDir, rules, rows, recurrence.families(), ZonedDateTime.now(),
                 HotSpots.Criteria.DEFAULT, recurrence.refused());
     }

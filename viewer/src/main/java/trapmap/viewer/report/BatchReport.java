@@ -3,6 +3,7 @@ package trapmap.viewer.report;
 import java.io.IOException;
 import java.nio.file.Path;
 import org.apache.pdfbox.pdmodel.PDDocument;
+import trapmap.maps.batch.RecurrenceMap;
 import trapmap.maps.batch.Rules;
 import trapmap.maps.io.AtomicFiles;
 import trapmap.maps.model.Caution;
@@ -37,6 +38,24 @@ public final class BatchReport {
      */
     public static BatchContent read(Path outputDir, Rules rules) throws IOException {
         return BatchFolder.read(outputDir, rules);
+    }
+
+    /**
+     * As {@link #read(Path, Rules)}, with the recurrence the batch built in memory ({@link RecurrenceMap}, the same
+     * counts as the folder's footprints) instead of reading and rebuilding it; null reads it from the folder.
+     */
+    public static BatchContent read(Path outputDir, Rules rules, RecurrenceMap recurrence) throws IOException {
+        return BatchFolder.read(outputDir, rules, recurrence);
+    }
+
+    /**
+     * Writes {@value #FILE_NAME} into a finished batch's output folder from its results table and the recurrence the
+     * batch built in memory (null: read from the folder's footprints); returns the file.
+     */
+    public static Path writeFor(Path outputDir, Rules rules, RecurrenceMap recurrence) throws IOException {
+        Path pdf = outputDir.resolve(FILE_NAME);
+        write(read(outputDir, rules, recurrence), pdf);
+        return pdf;
     }
 
     /** Reads the batch's results and writes {@value #FILE_NAME} into its output folder; returns the file. */

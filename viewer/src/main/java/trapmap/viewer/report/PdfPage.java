@@ -2,6 +2,8 @@ package trapmap.viewer.report;
 
 import java.awt.Color;
 import java.awt.image.BufferedImage;
+import java.io.ByteArrayInputStream;
+import java.io.ByteArrayOutputStream;
 import java.io.Closeable;
 import java.io.IOException;
 import java.io.InputStream;
@@ -11,8 +13,11 @@ import java.util.List;
 import java.util.Map;
 import java.util.WeakHashMap;
 import java.util.concurrent.ConcurrentHashMap;
+import java.util.zip.Deflater;
+import java.util.zip.DeflaterOutputStream;
 import org.apache.fontbox.ttf.TTFParser;
 import org.apache.fontbox.ttf.TrueTypeFont;
+import org.apache.pdfbox.cos.COSName;
 import org.apache.pdfbox.io.RandomAccessReadBuffer;
 import org.apache.pdfbox.pdmodel.PDDocument;
 import org.apache.pdfbox.pdmodel.PDPage;
@@ -20,6 +25,7 @@ import org.apache.pdfbox.pdmodel.PDPageContentStream;
 import org.apache.pdfbox.pdmodel.common.PDRectangle;
 import org.apache.pdfbox.pdmodel.font.PDFont;
 import org.apache.pdfbox.pdmodel.font.PDType0Font;
+import org.apache.pdfbox.pdmodel.graphics.color.PDDeviceRGB;
 import org.apache.pdfbox.pdmodel.graphics.image.LosslessFactory;
 import org.apache.pdfbox.pdmodel.graphics.image.PDImageXObject;
 
@@ -377,8 +383,41 @@ final class PdfPage implements Closeable {
         if (cs == null) {
             return;
         }
-        PDImageXObject xo = LosslessFactory.createFromImage(doc, img);
-        cs.drawImage(xo, x, HEIGHT - yTop - h, w, h);
+        cs.drawImage(embed(doc, img), x, HEIGHT - yTop - h, w, h);
+    }
+
+    /**
+     * The picture as a lossless image of the document: an opaque RGB picture goes in as its 8-bit RGB samples,
+     * Flate-compressed without PNG predictors ({@link LosslessFactory} tries five predictors on every row, which cost
+     * most of a summary's time for no visible change); any other picture through {@link LosslessFactory}. The pixels
+     * shown are the same either way.
+     */
+    static PDImageXObject embed(PDDocument doc, BufferedImage img) throws IOException {
+        if (img.getType() != BufferedImage.TYPE_INT_RGB) {
+            return LosslessFactory.createFromImage(doc, img);
+        }
+        int w = img.getWidth();
+        int h = img.getHeight();
+        int[] row = new int[w];
+        byte[] line = new byte[3 * w];
+        ByteArrayOutputStream packed = new ByteArrayOutputStream(w * h);
+        Deflater deflater = new Deflater(Deflater.DEFAULT_COMPRESSION);
+        try (DeflaterOutputStream z = new DeflaterOutputStream(packed, deflater, 1 << 16)) {
+            for (int y = 0; y < h; y++) {
+                img.getRGB(0, y, w, 1, row, 0, w);
+                for (int i = 0, k = 0; i < w; i++) {
+                    int p = row[i];
+                    line[k++] = (byte) (p >> 16);
+                    line[k++] = (byte) (p >> 8);
+                    line[k++] = (byte) p;
+                }
+                z.write(line);
+            }
+        } finally {
+            deflater.end();
+        }
+        return new PDImageXObject(doc, new ByteArrayInputStream(packed.toByteArray()), COSName.FLATE_DECODE, w, h,
+                8, PDDeviceRGB.INSTANCE);
     }
 
     void rect(float x, float yTop, float w, float h, Color stroke, Color fill, float lineWidth) throws IOException {
