@@ -22,6 +22,14 @@ final class PairedPass {
     private static final int BINS = 1 << BITS;
     /** Values left in range below which they are gathered and sorted rather than narrowed further. */
     private static final int GATHER = 1 << 15;
+    /** Pixels between two of the sample that brackets the medians. */
+    private static final int SAMPLE_STRIDE = 61;
+    /** Least sample that brackets a median; smaller ones are not tried. */
+    private static final int MIN_SAMPLE = 400;
+    /** Half-width of a bracket in standard deviations of the sample's middle rank (√m / 2 for m values). */
+    private static final double MARGIN_SIGMAS = 5;
+    /** Most values one thread gathers for a bracket before the bracket is dropped. */
+    private static final int MAX_GATHERED = 1 << 20;
 
     /** The paired statistics and the overlap (pixels with data before whose after sample is not NaN). */
     record Result(PairedStatistics statistics, int overlap) {
@@ -37,12 +45,24 @@ final class PairedPass {
      */
     static Result run(Quantity quantity, float[] b, float[] a, Mask region, double relativeTolerance,
                       Improvement improvement, boolean density) {
+        return run(quantity, b, a, region, relativeTolerance, improvement, density, true);
+    }
+
+    /**
+     * As {@link #run(Quantity, float[], float[], Mask, double, Improvement, boolean)}; with {@code bracket} false
+     * the medians are narrowed from the whole key range without first trying a bracket from a sample.
+     */
+    static Result run(Quantity quantity, float[] b, float[] a, Mask region, double relativeTolerance,
+                      Improvement improvement, boolean density, boolean bracket) {
         int blocks = (b.length + BLOCK - 1) / BLOCK;
         double[] sums = new double[4 * blocks];
         int[] counts = new int[5 * blocks];
         boolean higherIsBetter = improvement == Improvement.HIGHER_IS_BETTER;
         Target difference = new Target();
         Target ratio = new Target();
+        if (bracket) {
+            sample(b, a, region, difference, ratio);
+        }
         Work first = IntStream.range(0, blocks).parallel().collect(() -> new Work(difference, ratio),
                 (w, block) -> w.sums(b, a, region, block, relativeTolerance, higherIsBetter, sums, counts),
                 Work::add);
@@ -68,13 +88,17 @@ final class PairedPass {
         }
         difference.start(n);
         ratio.start(np);
-        difference.narrow(first.histDifference);
-        ratio.narrow(first.histRatio);
+        difference.after(first.histDifference, trimmed(first.gatheredDifference, first.nDifference),
+                first.belowDifference, first.countBelowDifference, first.overflowDifference);
+        ratio.after(first.histRatio, trimmed(first.gatheredRatio, first.nRatio), first.belowRatio,
+                first.countBelowRatio, first.overflowRatio);
         while (!difference.done() || !ratio.done()) {
             Work w = IntStream.range(0, blocks).parallel().collect(() -> new Work(difference, ratio),
                     (x, block) -> x.values(b, a, region, block), Work::add);
-            difference.after(w.histDifference, trimmed(w.gatheredDifference, w.nDifference), w.belowDifference);
-            ratio.after(w.histRatio, trimmed(w.gatheredRatio, w.nRatio), w.belowRatio);
+            difference.after(w.histDifference, trimmed(w.gatheredDifference, w.nDifference), w.belowDifference,
+                    w.countBelowDifference, w.overflowDifference);
+            ratio.after(w.histRatio, trimmed(w.gatheredRatio, w.nRatio), w.belowRatio, w.countBelowRatio,
+                    w.overflowRatio);
         }
         double medianReduction = Double.NaN;
         if (density && np > 0) {
@@ -90,6 +114,32 @@ final class PairedPass {
                 np == 0 ? nan : (np - improved - unchanged) / (double) np,
                 medianReduction);
         return new Result(s, overlap);
+    }
+
+    /**
+     * Brackets the middle of the differences and of the ratios by the values of a sample of every
+     * {@link #SAMPLE_STRIDE}-th pixel: the sample's middle ± {@link #MARGIN_SIGMAS} standard deviations of a
+     * sample's middle rank. The first pass then gathers the values in the brackets (a bracket that misses the middle
+     * or holds too many values is dropped and the middle narrowed from the whole range).
+     */
+    private static void sample(float[] b, float[] a, Mask region, Target difference, Target ratio) {
+        int m = (b.length + SAMPLE_STRIDE - 1) / SAMPLE_STRIDE;
+        double[] d = new double[m];
+        double[] r = new double[m];
+        int nd = 0;
+        int nr = 0;
+        for (int i = 0; i < b.length; i += SAMPLE_STRIDE) {
+            double vb = b[i];
+            double va = a[i];
+            if (paired(vb, va, region, i)) {
+                d[nd++] = va - vb;
+                if (vb > 0 && va > 0) {
+                    r[nr++] = va / vb;
+                }
+            }
+        }
+        difference.bracket(d, nd);
+        ratio.bracket(r, nr);
     }
 
     private static double[] trimmed(double[] v, int n) {
@@ -115,9 +165,14 @@ final class PairedPass {
         int count;
         /** Rank of the upper middle value, count / 2. */
         int rank;
-        /** Lowest key of the range; the range is [lo, lo + 2^(shift + BITS)). */
+        /** Lowest key of the range. */
         long lo = Long.MIN_VALUE;
+        /** Highest key of the range. */
+        long hi = Long.MAX_VALUE;
+        /** Bins of a histogram are 2^shift keys wide; the range lies within 2^(shift + BITS) keys from lo. */
         int shift = 64 - BITS;
+        /** True while the range is a bracket from a sample, whose values below are counted in the pass. */
+        boolean bracketed;
         /** Values with keys below the range. */
         int below;
         /** Values in the range. */
@@ -130,10 +185,37 @@ final class PairedPass {
         void start(int n) {
             count = n;
             rank = n / 2;
-            inRange = n;
+            if (!bracketed) {
+                inRange = n;
+            }
             if (n == 0) {
                 state = State.DONE;
             }
+        }
+
+        /** Makes the range a bracket around the middle of the first {@code m} values of {@code sample}. */
+        void bracket(double[] sample, int m) {
+            if (m < MIN_SAMPLE) {
+                return;
+            }
+            Arrays.sort(sample, 0, m);
+            int margin = (int) Math.ceil(MARGIN_SIGMAS * Math.sqrt(m) / 2) + 1;
+            lo = key(sample[Math.max(0, m / 2 - margin)]);
+            hi = key(sample[Math.min(m - 1, m / 2 + margin)]);
+            bracketed = true;
+            state = State.GATHER;
+        }
+
+        /** Back to narrowing from the whole key range (a bracket that missed or overflowed). */
+        private void whole() {
+            lo = Long.MIN_VALUE;
+            hi = Long.MAX_VALUE;
+            shift = 64 - BITS;
+            below = 0;
+            inRange = count;
+            bracketed = false;
+            single = false;
+            state = count == 0 ? State.DONE : State.HISTOGRAM;
         }
 
         boolean done() {
@@ -142,13 +224,12 @@ final class PairedPass {
 
         /** The bin of {@code key} in the current range, or −1. */
         int bin(long key) {
-            long k = (key - lo) >>> shift;
-            return k >= 0 && k < BINS ? (int) k : -1;
+            return key >= lo && key <= hi ? (int) ((key - lo) >>> shift) : -1;
         }
 
         /** True when {@code key} lies in the current range. */
         boolean inRange(long key) {
-            return bin(key) >= 0;
+            return key >= lo && key <= hi;
         }
 
         double median() {
@@ -169,6 +250,7 @@ final class PairedPass {
             }
             below += cum;
             lo += (long) bin << shift;
+            hi = lo + ((1L << shift) - 1);
             inRange = hist[bin];
             if (shift == 0) {
                 single = true;
@@ -187,10 +269,17 @@ final class PairedPass {
         }
 
         /** Takes in a pass's histogram, or its gathered values and the largest key below the range. */
-        void after(int[] hist, double[] gathered, long largestBelow) {
+        void after(int[] hist, double[] gathered, long largestBelow, int countedBelow, boolean overflow) {
             if (state == State.HISTOGRAM) {
                 narrow(hist);
             } else if (state == State.GATHER) {
+                if (bracketed) {
+                    below = countedBelow;
+                    if (overflow || rank < below || rank >= below + gathered.length) {
+                        whole();
+                        return;
+                    }
+                }
                 if (!single) {
                     Arrays.sort(gathered);
                     upper = gathered[rank - below];
@@ -215,6 +304,10 @@ final class PairedPass {
         int nRatio;
         long belowDifference = Long.MIN_VALUE;
         long belowRatio = Long.MIN_VALUE;
+        int countBelowDifference;
+        int countBelowRatio;
+        boolean overflowDifference;
+        boolean overflowRatio;
 
         Work(Target difference, Target ratio) {
             this.difference = difference;
@@ -247,8 +340,8 @@ final class PairedPass {
             int improved = 0;
             int unchanged = 0;
             int overlap = 0;
-            int[] hd = histDifference;
-            int[] hr = histRatio;
+            Target.State sd = difference.state;
+            Target.State sr = ratio.state;
             for (int i = from; i < to; i++) {
                 double vb = b[i];
                 double va = a[i];
@@ -261,14 +354,14 @@ final class PairedPass {
                 double d = va - vb;
                 n++;
                 sumDifference += d;
-                hd[(int) ((key(d) - Long.MIN_VALUE) >>> (64 - BITS))]++;
+                take(difference, sd, key(d), true);
                 if (vb > 0 && va > 0) {
                     double r = va / vb;
                     np++;
                     sumRatio += r;
                     sumInverseBefore += 1 / vb;
                     sumInverseAfter += 1 / va;
-                    hr[(int) ((key(r) - Long.MIN_VALUE) >>> (64 - BITS))]++;
+                    take(ratio, sr, key(r), false);
                     double change = d / vb;
                     if (Math.abs(change) <= relativeTolerance) {
                         unchanged++;
@@ -320,16 +413,32 @@ final class PairedPass {
             if (key < t.lo) {
                 if (isDifference) {
                     belowDifference = Math.max(belowDifference, key);
+                    countBelowDifference++;
                 } else {
                     belowRatio = Math.max(belowRatio, key);
+                    countBelowRatio++;
                 }
             } else if (!t.single && t.inRange(key)) {
                 if (isDifference) {
+                    if (overflowDifference) {
+                        return;
+                    }
+                    if (nDifference == MAX_GATHERED) {
+                        overflowDifference = true;
+                        return;
+                    }
                     if (nDifference == gatheredDifference.length) {
                         gatheredDifference = Arrays.copyOf(gatheredDifference, 2 * nDifference);
                     }
                     gatheredDifference[nDifference++] = value(key);
                 } else {
+                    if (overflowRatio) {
+                        return;
+                    }
+                    if (nRatio == MAX_GATHERED) {
+                        overflowRatio = true;
+                        return;
+                    }
                     if (nRatio == gatheredRatio.length) {
                         gatheredRatio = Arrays.copyOf(gatheredRatio, 2 * nRatio);
                     }
@@ -360,6 +469,10 @@ final class PairedPass {
             }
             belowDifference = Math.max(belowDifference, o.belowDifference);
             belowRatio = Math.max(belowRatio, o.belowRatio);
+            countBelowDifference += o.countBelowDifference;
+            countBelowRatio += o.countBelowRatio;
+            overflowDifference |= o.overflowDifference;
+            overflowRatio |= o.overflowRatio;
         }
 
         private static double[] concat(double[] x, int nx, double[] y, int ny) {

@@ -94,6 +94,8 @@ class PairedPassTest {
         PairedStatistics want = reference(q, b, a, region, 0.05, better, density);
         PairedPass.Result got = PairedPass.run(q, b, a, region, 0.05, better, density);
         assertSame(got.statistics(), want);
+        // narrowed from the whole key range, without a bracket from a sample: the same figures
+        assertThat(PairedPass.run(q, b, a, region, 0.05, better, density, false)).isEqualTo(got);
         int overlap = 0;
         for (int i = 0; i < b.length; i++) {
             if (Float.isFinite(b[i]) && !Float.isNaN(a[i]) && (region == null || region.containsIndex(i))) {
@@ -166,6 +168,20 @@ class PairedPassTest {
         same[3] = -0.0f;
         b[3] = 0.0f;
         check(b, same, null, false);
+    }
+
+    @Test
+    void aBracketThatMissesTheMiddleIsDropped() {
+        // the sampled pixels (every 61st) see only small values, the others only large ones: the sample's bracket
+        // lies wholly below the middle
+        float[] b = new float[W * 50];
+        float[] a = new float[b.length];
+        Random r = new Random(2);
+        for (int i = 0; i < b.length; i++) {
+            b[i] = 10;
+            a[i] = i % 61 == 0 ? 5 + r.nextFloat() : 20 + r.nextFloat();
+        }
+        check(b, a, null, true);
     }
 
     @Test
