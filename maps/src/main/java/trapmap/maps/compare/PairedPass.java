@@ -2,34 +2,38 @@ package trapmap.maps.compare;
 
 import java.util.Arrays;
 import java.util.stream.IntStream;
+import org.apache.commons.math3.util.KthSelector;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.raster.Mask;
 
 /**
  * The paired statistics of a before and an after raster on one grid, taken in parallel over fixed blocks of pixels,
  * without a copy of the paired values. Sums are taken per block and added in block order, so the figures do not
- * depend on the number of threads. The medians are exact order statistics: each value is mapped to a 64-bit key
- * that sorts as the value does, a histogram of 2^16 bins over the key range (whole counts, exact in any order)
- * narrows the range that holds the middle rank by 16 bits per pass over the maps, and the few values left in it are
- * gathered and sorted. The first histogram is taken in the pass that adds the sums. The values are those the
- * straightforward way (copy, {@link org.apache.commons.math3.util.KthSelector}) selects; a median of zeros is
- * always +0.0.
+ * depend on the number of threads. The medians are exact order statistics. A sample of every
+ * {@link #SAMPLE_STRIDE}-th pixel brackets each middle; the pass that adds the sums gathers the values inside the
+ * brackets and counts those below, and the middle values are selected among the gathered ones (Commons Math
+ * {@link KthSelector}). Where a bracket misses the middle or holds too many values, each value is mapped to a
+ * 64-bit key that sorts as the value does, and a histogram of 2^16 bins (whole counts, exact in any order) narrows
+ * the key range that holds the middle by 16 bits per further pass until few values are left to gather. The values
+ * are those the straightforward way (copy, {@link KthSelector}) selects; a median of zeros is always +0.0.
  */
 final class PairedPass {
     /** Pixels per block: the unit of work of a thread and of the ordered sums. */
     private static final int BLOCK = 1 << 16;
     private static final int BITS = 16;
     private static final int BINS = 1 << BITS;
-    /** Values left in range below which they are gathered and sorted rather than narrowed further. */
+    /** Values left in range below which they are gathered and selected rather than narrowed further. */
     private static final int GATHER = 1 << 15;
     /** Pixels between two of the sample that brackets the medians. */
-    private static final int SAMPLE_STRIDE = 61;
+    private static final int SAMPLE_STRIDE = 251;
     /** Least sample that brackets a median; smaller ones are not tried. */
     private static final int MIN_SAMPLE = 400;
     /** Half-width of a bracket in standard deviations of the sample's middle rank (√m / 2 for m values). */
     private static final double MARGIN_SIGMAS = 5;
     /** Most values one thread gathers for a bracket before the bracket is dropped. */
     private static final int MAX_GATHERED = 1 << 20;
+    /** Size of the pivot cache of {@link KthSelector} (as Commons Math's {@code Percentile} uses). */
+    private static final int PIVOTS_HEAP = 0x1FF;
 
     /** The paired statistics and the overlap (pixels with data before whose after sample is not NaN). */
     record Result(PairedStatistics statistics, int overlap) {
@@ -142,6 +146,18 @@ final class PairedPass {
         ratio.bracket(r, nr);
     }
 
+    /** Commons Math's selection (expected linear time), as {@code Percentile} uses it. */
+    private static KthSelector selector() {
+        return new KthSelector();
+    }
+
+    /** A fresh pivot cache for {@link #selector()}. */
+    private static int[] pivots() {
+        int[] p = new int[PIVOTS_HEAP];
+        Arrays.fill(p, -1);
+        return p;
+    }
+
     private static double[] trimmed(double[] v, int n) {
         return v == null ? null : Arrays.copyOf(v, n);
     }
@@ -198,10 +214,12 @@ final class PairedPass {
             if (m < MIN_SAMPLE) {
                 return;
             }
-            Arrays.sort(sample, 0, m);
             int margin = (int) Math.ceil(MARGIN_SIGMAS * Math.sqrt(m) / 2) + 1;
-            lo = key(sample[Math.max(0, m / 2 - margin)]);
-            hi = key(sample[Math.min(m - 1, m / 2 + margin)]);
+            double[] w = Arrays.copyOf(sample, m);
+            KthSelector selector = selector();
+            int[] pivots = pivots();
+            lo = key(selector.select(w, pivots, Math.max(0, m / 2 - margin)));
+            hi = key(selector.select(w, pivots, Math.min(m - 1, m / 2 + margin)));
             bracketed = true;
             state = State.GATHER;
         }
@@ -280,12 +298,14 @@ final class PairedPass {
                         return;
                     }
                 }
+                KthSelector selector = selector();
+                int[] pivots = pivots();
                 if (!single) {
-                    Arrays.sort(gathered);
-                    upper = gathered[rank - below];
+                    upper = selector.select(gathered, pivots, rank - below);
                 }
                 if (count % 2 == 0) {
-                    lower = rank - 1 >= below ? (single ? upper : gathered[rank - 1 - below]) : value(largestBelow);
+                    lower = rank - 1 >= below ? (single ? upper : selector.select(gathered, pivots, rank - 1 - below))
+                            : value(largestBelow);
                 }
                 state = State.DONE;
             }
