@@ -108,81 +108,22 @@ public final class MapComparison {
             throw new InvalidValueException("region", "px", "the region is " + region.width() + "x"
                     + region.height() + " px but the maps are " + before.width() + "x" + before.height() + " px");
         }
-        float[] b = before.raster().samples();
-        float[] a = after.raster().samples();
-        boolean density = isDensity(before.quantity());
-        int n = 0;
-        int np = 0;
-        double sumDifference = 0;
-        double sumRatio = 0;
-        double sumInverseBefore = 0;
-        double sumInverseAfter = 0;
-        int improved = 0;
-        int unchanged = 0;
-        boolean higherIsBetter = improvement == Improvement.HIGHER_IS_BETTER;
-        for (int i = 0; i < b.length; i++) {
-            double vb = b[i];
-            double va = a[i];
-            if (!paired(vb, va, region, i)) {
-                continue;
-            }
-            double d = va - vb;
-            n++;
-            sumDifference += d;
-            if (vb > 0 && va > 0) {
-                double r = va / vb;
-                np++;
-                sumRatio += r;
-                sumInverseBefore += 1 / vb;
-                sumInverseAfter += 1 / va;
-                double change = d / vb;
-                if (Math.abs(change) <= relativeTolerance) {
-                    unchanged++;
-                } else if ((change > 0) == higherIsBetter) {
-                    improved++;
-                }
-            }
-        }
-        // one work array, refilled for each median (differences, ratios, reductions)
-        double[] work = new double[n];
-        fill(work, b, a, region, false, (vb, va) -> va - vb);
-        double medianDifference = median(work, n);
-        fill(work, b, a, region, true, (vb, va) -> va / vb);
-        double medianRatio = median(work, np);
-        double medianReduction = Double.NaN;
-        if (density) {
-            fill(work, b, a, region, true, (vb, va) -> 1 - va / vb);
-            medianReduction = median(work, np);
-        }
-        double nan = Double.NaN;
-        return new PairedStatistics(before.quantity(), before.quantity().unit(), improvement, relativeTolerance, n,
-                n == 0 ? nan : sumDifference / n, medianDifference, np,
-                np == 0 ? nan : sumRatio / np, medianRatio,
-                np == 0 ? nan : np / sumInverseBefore, np == 0 ? nan : np / sumInverseAfter,
-                np == 0 ? nan : improved / (double) np, np == 0 ? nan : unchanged / (double) np,
-                np == 0 ? nan : (np - improved - unchanged) / (double) np,
-                medianReduction);
-    }
-
-    /** True when pixel i has data in both maps and lies in the region (null: everywhere). */
-    private static boolean paired(double vb, double va, Mask region, int i) {
-        return Double.isFinite(vb) && Double.isFinite(va) && (region == null || region.containsIndex(i));
+        return PairedPass.run(before.quantity(), before.raster().samples(), after.raster().samples(), region,
+                relativeTolerance, improvement, isDensity(before.quantity())).statistics();
     }
 
     /**
-     * Writes f(before, after) of the paired pixels (of those with both samples positive when {@code positive}) to
-     * the start of {@code out}, in pixel order.
+     * As {@link #statistics(WaferMap, WaferMap, Mask, double, Improvement)} over every pixel, with the overlap: the
+     * pixels with data in {@code before} whose sample in {@code after} is not NaN (all of them finite when
+     * {@code after} was resampled), counted in the same pass.
      */
-    private static void fill(double[] out, float[] b, float[] a, Mask region, boolean positive,
-                             DoubleBinaryOperator f) {
-        int k = 0;
-        for (int i = 0; i < b.length; i++) {
-            double vb = b[i];
-            double va = a[i];
-            if (paired(vb, va, region, i) && (!positive || (vb > 0 && va > 0))) {
-                out[k++] = f.applyAsDouble(vb, va);
-            }
-        }
+    static PairedPass.Result statisticsAndOverlap(WaferMap before, WaferMap after, double relativeTolerance,
+                                                  Improvement improvement) {
+        check(before, after);
+        Checks.inRange(relativeTolerance, 0, 1, "relativeTolerance", "");
+        Checks.notNull(improvement, "improvement");
+        return PairedPass.run(before.quantity(), before.raster().samples(), after.raster().samples(), null,
+                relativeTolerance, improvement, isDensity(before.quantity()));
     }
 
     /** True for trap, iron and normalised defect densities (the quantities whose reduction is meaningful). */
@@ -195,7 +136,8 @@ public final class MapComparison {
 
     /**
      * Median of the first n values (reorders them; the mean of the two middle values for even n), NaN for none.
-     * The middle values are selected (Commons Math {@link KthSelector}, expected linear time), not sorted.
+     * The middle values are selected (Commons Math {@link KthSelector}, expected linear time), not sorted: the
+     * straightforward way that {@link PairedPass}'s medians are tested against.
      */
     static double median(double[] v, int n) {
         if (n == 0) {

@@ -77,7 +77,7 @@ public final class MapRegistration {
     /**
      * As {@link #registerChecked} without the warnings: the outline size check is left to the caller; with
      * {@code countOverlap} false the overlap of the registration is left 0 for the caller to count on the resampled
-     * map ({@link Resampling#paired}).
+     * map (the pass of {@link MapComparison} that takes the paired statistics).
      */
     static RegistrationReport registerUnchecked(WaferMap before, WaferMap after, RegistrationOptions options,
                                                 ProgressListener progress, boolean countOverlap) {

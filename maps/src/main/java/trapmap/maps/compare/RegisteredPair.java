@@ -49,21 +49,24 @@ public record RegisteredPair(RegistrationReport report, WaferMap aligned, Paired
         try {
             RegistrationReport report;
             WaferMap aligned;
+            PairedStatistics statistics;
             if (options == null) {
                 aligned = after.withGrid(before.grid());
                 report = MapRegistration.unregisteredUnchecked(before, after);
+                statistics = MapComparison.statistics(before, aligned, null, relativeTolerance, improvement);
             } else {
-                // the overlap is counted on the resampled map rather than by sampling the after map once more
+                // the overlap is counted on the resampled map, in the pass that takes the statistics
                 RegistrationReport found = MapRegistration.registerUnchecked(before, after, options, progress, false);
                 Registration r = found.registration();
                 FloatRaster samples = MapRegistration.resampled(before, after, r);
-                Registration counted = r.withQuality(r.score(), Resampling.paired(before.raster(), samples));
+                PairedPass.Result paired = MapComparison.statisticsAndOverlap(before,
+                        MapRegistration.aligned(before, after, r, samples), relativeTolerance, improvement);
+                Registration counted = r.withQuality(r.score(), paired.overlap());
                 report = new RegistrationReport(counted, found.kept(), found.searchScore(), found.identityScore(),
                         List.of());
                 aligned = MapRegistration.aligned(before, after, counted, samples);
+                statistics = paired.statistics();
             }
-            PairedStatistics statistics = MapComparison.statistics(before, aligned, null, relativeTolerance,
-                    improvement);
             return new RegisteredPair(MapRegistration.withWarnings(before, after, report, size), aligned, statistics);
         } finally {
             size.cancel();

@@ -162,24 +162,4 @@ final class Resampling {
             return n;
         }).sum();
     }
-
-    /**
-     * Pixels with data in {@code target} whose resampled counterpart in {@code resampled} (same size, made by
-     * {@link #resample}) has data: the same count as {@link #overlap} of the mapping that made it, since a
-     * resampled pixel has data exactly when {@link #sample} finds enough neighbours with data.
-     */
-    static int paired(FloatRaster target, FloatRaster resampled) {
-        float[] t = target.samples();
-        float[] r = resampled.samples();
-        int chunk = 1 << 16;
-        return IntStream.range(0, (t.length + chunk - 1) / chunk).parallel().map(c -> {
-            int n = 0;
-            for (int i = c * chunk, end = Math.min(t.length, i + chunk); i < end; i++) {
-                if (Float.isFinite(t[i]) && !Float.isNaN(r[i])) {
-                    n++;
-                }
-            }
-            return n;
-        }).sum();
-    }
 }

@@ -56,7 +56,8 @@ class RegisteredPairTest {
                 Registration.explicit(false, true, -33, 5.25, 0.5), Registration.explicit(false, false, 0, 30, -12)}) {
             PixelMapping m = PixelMapping.of(BEFORE.grid(), AFTER.grid(), r);
             int direct = Resampling.overlap(BEFORE.raster(), AFTER.raster(), m);
-            int counted = Resampling.paired(BEFORE.raster(), MapRegistration.resampled(BEFORE, AFTER, r));
+            int counted = MapComparison.statisticsAndOverlap(BEFORE, MapRegistration.apply(BEFORE, AFTER, r), 0.05,
+                    Improvement.of(BEFORE.quantity())).overlap();
             assertThat(counted).as("%s", r).isEqualTo(direct);
         }
     }
