@@ -278,7 +278,8 @@ class MapStreamTest {
 
     /**
      * A kernel warm-up running beside the conversion (as convert starts it) changes no byte of the output, stops
-     * when closed, and one whose conditions cannot be converted (no doping) fails quietly on its own thread.
+     * when closed, and one whose conditions cannot be converted (no doping) fails quietly on its own thread;
+     * background flushes while the rows are written change no byte either.
      */
     @Test
     void aWarmUpBesideTheConversionChangesNothingAndStopsWhenClosed() throws Exception {
@@ -289,6 +290,13 @@ class MapStreamTest {
                 ConversionSettings.DEFAULTS, EnumSet.of(Quantity.TRAP_DENSITY), 1);
         Path reference = dir.resolve("whole.tif");
         MapFiles.write(expected.get(Quantity.TRAP_DENSITY), reference);
+        Path flushed = dir.resolve("flushed.tif"); // a background flush after every band: the same bytes
+        try (MapStream s = MapStream.open(f)) {
+            BandConversion b = BandConversion.of(s.header().withConditions(c), FE, ConversionSettings.DEFAULTS,
+                    Quantity.TRAP_DENSITY);
+            TiffRowWriter.write(flushed, b.output(), w -> b.run(s, w::write, 2, 2), 1);
+        }
+        assertThat(Files.readAllBytes(flushed)).isEqualTo(Files.readAllBytes(reference));
         Path out = dir.resolve("warm.tif");
         try (BandConversion.WarmUp unusable = BandConversion.warmUp(MeasurementConditions.UNKNOWN, FE,
                 ConversionSettings.DEFAULTS, Quantity.TRAP_DENSITY);
