@@ -21,6 +21,7 @@ import trapmap.maps.io.TiffRowWriter;
 import trapmap.maps.model.MapHeader;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.BandConversion;
+import trapmap.maps.process.ConversionSettings;
 import trapmap.maps.process.MapConversion;
 import trapmap.physics.conversion.ConversionWarning;
 import trapmap.physics.conversion.PixelStatus;
@@ -118,13 +119,19 @@ final class ConvertCommand implements Callable<Integer> {
      * see {@link MapStream#open}; else the input alone is whole).
      */
     private int streamed(Defect d, trapmap.maps.model.Quantity wanted) throws MapFormatException {
-        try (MapStream in = MapInput.stream(input, page)) {
+        ConversionSettings settings = conditions.settings();
+        // The kernel is compiled on the second core while this thread opens the input (results do not depend on it).
+        BandConversion.WarmUp warmUp = BandConversion.warmUp(conditions.applyTo(BandConversion.WARM_UP_CONDITIONS), d,
+                settings, wanted);
+        try (warmUp; MapStream in = MapInput.stream(input, page)) {
             MapHeader header = in.header().withConditions(conditions.applyTo(in.header().conditions()));
-            BandConversion conversion = BandConversion.of(header, d, conditions.settings(), wanted);
+            BandConversion conversion = BandConversion.of(header, d, settings, wanted);
             BandConversion.Summary[] summary = new BandConversion.Summary[1];
             try {
-                TiffRowWriter.write(output, conversion.output(), out -> summary[0] = conversion.run(in, out::write,
-                        Runtime.getRuntime().availableProcessors()));
+                TiffRowWriter.write(output, conversion.output(), out -> {
+                    warmUp.close();
+                    summary[0] = conversion.run(in, out::write, Runtime.getRuntime().availableProcessors());
+                });
             } catch (MapFormatException e) {
                 throw e; // the input's fault, found while its bands were read
             } catch (java.io.IOException e) {

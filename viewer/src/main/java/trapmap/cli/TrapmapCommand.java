@@ -108,6 +108,25 @@ public final class TrapmapCommand implements Callable<Integer> {
         return spec;
     }
 
+    /**
+     * For {@code convert}, which opens a map and writes one with metadata: builds the JSON mapper on a background
+     * (daemon) thread, so that this overlaps building and parsing the command line ({@link
+     * trapmap.maps.io.Sidecar#prepare}). Nothing for help, version or other commands.
+     */
+    static void prepare(String... args) {
+        if (args.length < 2 || !args[0].equals("convert")) {
+            return;
+        }
+        for (String a : args) {
+            if (a.equals("-h") || a.equals("--help") || a.equals("-V") || a.equals("--version")) {
+                return;
+            }
+        }
+        Thread t = new Thread(trapmap.maps.io.Sidecar::prepare, "metadata-mapper");
+        t.setDaemon(true);
+        t.start();
+    }
+
     /** Runs {@code trapmap args} and returns the exit code. */
     public static int run(PrintWriter out, PrintWriter err, String... args) {
         int code = commandLine(out, err, args).execute(args);
@@ -117,6 +136,7 @@ public final class TrapmapCommand implements Callable<Integer> {
     }
 
     public static void main(String[] args) {
+        prepare(args);
         PrintWriter out = new PrintWriter(new OutputStreamWriter(System.out, StandardCharsets.UTF_8), true);
         PrintWriter err = new PrintWriter(new OutputStreamWriter(System.err, StandardCharsets.UTF_8), true);
         System.exit(run(out, err, args));

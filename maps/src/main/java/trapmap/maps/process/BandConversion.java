@@ -5,10 +5,12 @@ import java.util.ArrayList;
 import java.util.EnumSet;
 import java.util.List;
 import java.util.Set;
+import java.util.concurrent.atomic.AtomicBoolean;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.concurrent.atomic.AtomicReference;
 import trapmap.maps.io.MapStream;
 import trapmap.maps.model.MapHeader;
+import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.model.Quantity;
 import trapmap.physics.conversion.Conditions;
 import trapmap.physics.conversion.ConversionOutput;
@@ -16,6 +18,7 @@ import trapmap.physics.conversion.ConversionWarning;
 import trapmap.physics.conversion.PixelStatus;
 import trapmap.physics.conversion.TrapDensityConverter;
 import trapmap.physics.defect.Defect;
+import trapmap.physics.material.Doping;
 import trapmap.shared.error.InvalidValueException;
 
 /**
@@ -74,6 +77,79 @@ public final class BandConversion {
         MapHeader out = lifetime.derive(wanted, MapConversion.convertStep(conditions, defect, settings));
         return new BandConversion(converter, wanted, reference, pl,
                 input.quantity() == Quantity.EFFECTIVE_LIFETIME, out);
+    }
+
+    /**
+     * Typical conditions of a warm-up ({@link #warmUp}): p-type 1e16 cm^-3, 180 µm, 300 K, generation 1e19 cm^-3 s^-1,
+     * surface recombination velocity 10 cm/s. A command lays the conditions of its flags over them.
+     */
+    public static final MeasurementConditions WARM_UP_CONDITIONS = new MeasurementConditions(Doping.pType(1e16),
+            180.0, 300.0, null, 1e19, 10.0, null, null, java.util.Map.of());
+
+    /** The warm-up raster: 64 rows of 16 pixels, converted one row at a time. */
+    private static final int WARM_UP_WIDTH = 16;
+    private static final int WARM_UP_ROWS = 64;
+    /**
+     * Conversions of one short row in a warm-up: enough calls for HotSpot's tiered policy to queue the kernel for its
+     * top-tier compiler as a whole method (not only its loop, which long rows would compile first, and whose
+     * compiler time the real bands would then wait for), and few enough to leave the core to that compiler.
+     */
+    private static final int WARM_UP_ROUNDS = 1500;
+
+    /**
+     * Starts converting a small made-up raster over and over on a background (daemon) thread, so that the
+     * just-in-time compiler has the kernel compiled before the first band of the real map arrives, while the calling
+     * thread still opens the input: in a fresh process, the first bands otherwise run several times slower in the
+     * interpreter and the lower compiler tiers. {@code guess} are the conditions known so far (e.g. the flags over
+     * {@link #WARM_UP_CONDITIONS}); they only steer which kernel paths are exercised (fixed injection or generation,
+     * the planes of {@code wanted}). The warm-up changes no result, keeps no state the conversion reads, and stops
+     * when the returned handle is closed, after {@value #WARM_UP_ROUNDS} rounds, or at its first failure (which it
+     * ignores: the real conversion checks and reports).
+     */
+    public static WarmUp warmUp(MeasurementConditions guess, Defect defect, ConversionSettings settings,
+                                       Quantity wanted) {
+        AtomicBoolean stop = new AtomicBoolean();
+        Thread t = new Thread(() -> {
+            try {
+                TrapDensityConverter k = new TrapDensityConverter(MapConversion.physicsConditions(guess, settings),
+                        defect);
+                boolean reference = !Double.isNaN(settings.referenceInjectionPerCm3());
+                float[] tau = new float[WARM_UP_ROWS * WARM_UP_WIDTH];
+                for (int i = 0; i < tau.length; i++) { // 0.5 µs to 5 ms, some without data, a few below the floor
+                    tau[i] = i % 13 == 0 ? Float.NaN : i % 101 == 0 ? 5e-4f : (float) (0.5 * Math.pow(1e4,
+                            (i * 0.618034) % 1.0));
+                }
+                ConversionOutput out = planes(wanted, reference, tau.length);
+                TrapDensityConverter.Tally tally = new TrapDensityConverter.Tally();
+                for (int r = 0; r < WARM_UP_ROUNDS && !stop.get(); r++) {
+                    int row = r % WARM_UP_ROWS;
+                    k.convertRows(tau, WARM_UP_WIDTH, row, row + 1, out, tally);
+                }
+            } catch (RuntimeException e) {
+                // a head start only: the conversion itself checks the conditions and reports
+            }
+        }, "convert-warm-up");
+        t.setDaemon(true);
+        t.start();
+        return () -> stop.set(true);
+    }
+
+    /** A running warm-up; closing it stops it (at once, or after the round under way). */
+    public interface WarmUp extends AutoCloseable {
+        @Override
+        void close();
+    }
+
+    /** The planes a band of {@code n} pixels needs for {@code wanted}, with the status plane. */
+    private static ConversionOutput planes(Quantity wanted, boolean reference, int n) {
+        return new ConversionOutput(wanted == Quantity.TRAP_DENSITY ? new float[n] : null,
+                wanted == Quantity.TRAP_DENSITY_MIN ? new float[n] : null,
+                wanted == Quantity.TRAP_DENSITY_MAX ? new float[n] : null,
+                wanted == Quantity.OCCUPANCY ? new float[n] : null,
+                wanted == Quantity.SRH_LIFETIME ? new float[n] : null,
+                wanted == Quantity.INJECTION ? new float[n] : null,
+                reference && wanted == Quantity.LIFETIME_AT_REFERENCE ? new float[n] : null,
+                new byte[n], null);
     }
 
     /** The header of the converted map. */
@@ -224,7 +300,7 @@ public final class BandConversion {
             if (samples == null || samples.length != n) { // the kernel takes arrays of exactly the band's pixels
                 samples = new float[n];
                 values = wanted == Quantity.STATUS ? new float[n] : null;
-                out = output(n);
+                out = planes(wanted, reference, n);
             }
             reader.read(row0, r, samples);
             if (pl != null) {
@@ -243,17 +319,6 @@ public final class BandConversion {
                 plane = plane(out);
             }
             sink.write(row0, r, plane);
-        }
-
-        private ConversionOutput output(int n) {
-            return new ConversionOutput(wanted == Quantity.TRAP_DENSITY ? new float[n] : null,
-                    wanted == Quantity.TRAP_DENSITY_MIN ? new float[n] : null,
-                    wanted == Quantity.TRAP_DENSITY_MAX ? new float[n] : null,
-                    wanted == Quantity.OCCUPANCY ? new float[n] : null,
-                    wanted == Quantity.SRH_LIFETIME ? new float[n] : null,
-                    wanted == Quantity.INJECTION ? new float[n] : null,
-                    reference && wanted == Quantity.LIFETIME_AT_REFERENCE ? new float[n] : null,
-                    new byte[n], null);
         }
 
         private float[] plane(ConversionOutput o) {

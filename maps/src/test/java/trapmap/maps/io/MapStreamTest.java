@@ -276,6 +276,50 @@ class MapStreamTest {
         assertThatThrownBy(() -> MapStream.open(empty)).hasMessage(empty + ": is empty");
     }
 
+    /**
+     * A kernel warm-up running beside the conversion (as convert starts it) changes no byte of the output, stops
+     * when closed, and one whose conditions cannot be converted (no doping) fails quietly on its own thread;
+     * background flushes while the rows are written change no byte either.
+     */
+    @Test
+    void aWarmUpBesideTheConversionChangesNothingAndStopsWhenClosed() throws Exception {
+        Path f = write("little-endian strips");
+        WaferMap whole = MapFiles.read(f).get(0);
+        MeasurementConditions c = conditionsFor(whole.quantity());
+        MapConversion.Result expected = MapConversion.convert(whole.withConditions(c), FE,
+                ConversionSettings.DEFAULTS, EnumSet.of(Quantity.TRAP_DENSITY), 1);
+        Path reference = dir.resolve("whole.tif");
+        MapFiles.write(expected.get(Quantity.TRAP_DENSITY), reference);
+        Path flushed = dir.resolve("flushed.tif"); // a background flush after every band: the same bytes
+        try (MapStream s = MapStream.open(f)) {
+            BandConversion b = BandConversion.of(s.header().withConditions(c), FE, ConversionSettings.DEFAULTS,
+                    Quantity.TRAP_DENSITY);
+            TiffRowWriter.write(flushed, b.output(), w -> b.run(s, w::write, 2, 2), 1);
+        }
+        assertThat(Files.readAllBytes(flushed)).isEqualTo(Files.readAllBytes(reference));
+        Path out = dir.resolve("warm.tif");
+        try (BandConversion.WarmUp unusable = BandConversion.warmUp(MeasurementConditions.UNKNOWN, FE,
+                ConversionSettings.DEFAULTS, Quantity.TRAP_DENSITY);
+             BandConversion.WarmUp warmUp = BandConversion.warmUp(c.overriddenBy(BandConversion.WARM_UP_CONDITIONS),
+                     FE, ConversionSettings.DEFAULTS, Quantity.TRAP_DENSITY);
+             MapStream s = MapStream.open(f)) {
+            BandConversion b = BandConversion.of(s.header().withConditions(c), FE, ConversionSettings.DEFAULTS,
+                    Quantity.TRAP_DENSITY);
+            TiffRowWriter.write(out, b.output(), w -> b.run(s, w::write, 2, 3));
+        }
+        assertThat(Files.readAllBytes(out)).isEqualTo(Files.readAllBytes(reference));
+        long until = System.nanoTime() + 10_000_000_000L;
+        while (warmUpThreads() > 0 && System.nanoTime() < until) {
+            Thread.sleep(10);
+        }
+        assertThat(warmUpThreads()).as("warm-up threads still running").isZero();
+    }
+
+    private static long warmUpThreads() {
+        return Thread.getAllStackTraces().keySet().stream().filter(t -> t.getName().equals("convert-warm-up"))
+                .count();
+    }
+
     @Test
     void aFailureHalfWayLeavesNoOutput() throws Exception {
         Path f = write("little-endian strips");
