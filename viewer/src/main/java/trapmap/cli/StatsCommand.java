@@ -22,6 +22,7 @@ import trapmap.maps.geometry.WaferFormat;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.io.MapFormatException;
 import trapmap.maps.model.Quantity;
+import trapmap.maps.process.BandConversion;
 import trapmap.maps.process.MapConversion;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.Mask;
@@ -108,7 +109,15 @@ final class StatsCommand implements Callable<Integer> {
         if (json) {
             Output.prepareJson(); // ready by the end, built while the map is read and converted
         }
-        WaferMap read = MapInput.page(input, page);
+        // The kernel is compiled on the second core while this thread reads the map (results do not depend on it).
+        BandConversion.WarmUp warmUp = warmUp();
+        WaferMap read;
+        try {
+            read = MapInput.page(input, page);
+        } catch (MapFormatException | RuntimeException e) {
+            warmUp.close();
+            throw e;
+        }
         WaferMap map = read;
         Defect defect = density.defectOrNull();
         MapConversion.Result converted = null;
@@ -119,9 +128,13 @@ final class StatsCommand implements Callable<Integer> {
         java.util.concurrent.ForkJoinTask<WaferShape> fitting = defect == null ? null
                 : java.util.concurrent.ForkJoinPool.commonPool().submit(() -> shape(read, outline));
         if (defect != null) {
-            floor = MapConversion.lifetimeFloorNote(map);
-            converted = DensityOption.convert(map, defect, conditions, spec.commandLine().getErr());
+            try (warmUp) {
+                converted = DensityOption.convert(map, defect, conditions, spec.commandLine().getErr());
+            }
+            floor = converted.lifetimeFloorNote();
             map = converted.get(Quantity.TRAP_DENSITY);
+        } else {
+            warmUp.close();
         }
         WaferShape shape = fitting == null ? shape(read, outline) : joined(fitting);
         Mask valid = Mask.valid(map.raster());
@@ -227,6 +240,23 @@ final class StatsCommand implements Callable<Integer> {
         }
         print(m);
         return Exit.OK;
+    }
+
+    /**
+     * A head start for the conversion's kernel when a defect is asked for ({@link BandConversion#warmUp}); nothing
+     * otherwise, or when the defect or the conditions are refused (the conversion reports that in its turn).
+     */
+    private BandConversion.WarmUp warmUp() {
+        try {
+            Defect d = density.defectOrNull();
+            if (d != null) {
+                return BandConversion.warmUp(conditions.applyTo(BandConversion.WARM_UP_CONDITIONS), d,
+                        conditions.settings(), Quantity.TRAP_DENSITY);
+            }
+        } catch (RuntimeException e) {
+            // reported where the defect is used
+        }
+        return () -> { };
     }
 
     /** The result of {@code task} (the outline fit, the region search), or the failure it ended with, as it was. */
