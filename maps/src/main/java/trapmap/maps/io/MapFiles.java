@@ -61,18 +61,30 @@ public final class MapFiles {
         String name = file.toString();
         try {
             return readChecked(file, name, options);
-        } catch (MapFormatException e) {
-            throw e;
-        } catch (AccessDeniedException e) {
-            throw new MapFormatException(name, null, "permission denied", "", e);
-        } catch (IOException e) {
-            throw new MapFormatException(name, null, "cannot be read (" + e.getMessage() + ")", "", e);
-        } catch (RuntimeException e) {
-            throw new MapFormatException(name, null, "unexpected failure while reading (" + e + ")", "", e);
-        } catch (OutOfMemoryError e) {
-            throw new MapFormatException(name, null, "not enough memory to read the file; give Java more memory"
+        } catch (IOException | RuntimeException | OutOfMemoryError e) {
+            throw readFailure(name, e);
+        }
+    }
+
+    /**
+     * What a failure while reading {@code name} becomes: a {@link MapFormatException} as it is, else one naming the
+     * file and the cause (permission denied, an I/O error, an unexpected failure, or too little memory).
+     */
+    static MapFormatException readFailure(String name, Throwable e) {
+        if (e instanceof MapFormatException m) {
+            return m;
+        }
+        if (e instanceof AccessDeniedException) {
+            return new MapFormatException(name, null, "permission denied", "", e);
+        }
+        if (e instanceof IOException) {
+            return new MapFormatException(name, null, "cannot be read (" + e.getMessage() + ")", "", e);
+        }
+        if (e instanceof OutOfMemoryError) {
+            return new MapFormatException(name, null, "not enough memory to read the file; give Java more memory"
                     + " (-Xmx) or lower ReadOptions.maxPixels", "", e);
         }
+        return new MapFormatException(name, null, "unexpected failure while reading (" + e + ")", "", e);
     }
 
     /** The one map in {@code file}, with the default limits. */

@@ -3,7 +3,6 @@ package trapmap.maps.io;
 import java.io.IOException;
 import java.nio.ByteBuffer;
 import java.nio.channels.FileChannel;
-import java.nio.file.AccessDeniedException;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
 import java.util.List;
@@ -76,17 +75,8 @@ public final class MapStream implements AutoCloseable {
             MapStream s = new MapStream(name, plan.header(), ch, p, plan, null);
             ch = null;
             return s;
-        } catch (MapFormatException e) {
-            throw e;
-        } catch (AccessDeniedException e) {
-            throw new MapFormatException(name, null, "permission denied", "", e);
-        } catch (IOException e) {
-            throw new MapFormatException(name, null, "cannot be read (" + e.getMessage() + ")", "", e);
-        } catch (RuntimeException e) {
-            throw new MapFormatException(name, null, "unexpected failure while reading (" + e + ")", "", e);
-        } catch (OutOfMemoryError e) {
-            throw new MapFormatException(name, null, "not enough memory to read the file; give Java more memory"
-                    + " (-Xmx) or lower ReadOptions.maxPixels", "", e);
+        } catch (IOException | RuntimeException | OutOfMemoryError e) {
+            throw MapFiles.readFailure(name, e);
         } finally {
             if (ch != null) {
                 try {
