@@ -96,6 +96,7 @@ public sealed interface WaferShape permits RoundWafer, SquareWafer {
                         in = false;
                     } else if (d2 < inner2) {
                         in = true;
+                        run = innerRun(grid, x, rowEnd - i, dy2, cx, inner2);
                     } else {
                         double d = p.distanceToEdgeMm(xMm, yMm);
                         in = d >= edgeExclusionMm;
@@ -105,9 +106,7 @@ public sealed interface WaferShape permits RoundWafer, SquareWafer {
                         }
                     }
                     if (in) {
-                        for (int j = i, e = i + run; j < e; j++) {
-                            words[j >>> 6] |= 1L << j;
-                        }
+                        Mask.setRange(words, i, i + run);
                     }
                     i += run;
                     x += run;
@@ -117,6 +116,27 @@ public sealed interface WaferShape permits RoundWafer, SquareWafer {
             }
         });
         return Mask.ofWords(w, grid.height(), words);
+    }
+
+    /**
+     * The number of pixels from column {@code x} of a row (at most {@code max}) whose centres lie strictly inside the
+     * circle {@code (xMm − cx)² + dy2 < inner2}, the first one being inside: the circle's chord on the row, from its
+     * square root, then checked at its last pixel by the exact test of {@link #mask} (a chord of a circle is one
+     * stretch of a row, so the pixels between two inside ones are inside too).
+     */
+    private static int innerRun(PixelGrid grid, int x, int max, double dy2, double cx, double inner2) {
+        double step = Math.abs(grid.xMm(x + 1) - grid.xMm(x));
+        double half = Math.sqrt(Math.max(0, inner2 - dy2));
+        double ahead = grid.xMm(x + 1) > grid.xMm(x) ? cx + half - grid.xMm(x) : grid.xMm(x) - (cx - half);
+        int run = (int) Math.max(1, Math.min(max, 1 + (long) Math.floor(ahead / step)));
+        while (run > 1) {
+            double dx = grid.xMm(x + run - 1) - cx;
+            if (dx * dx + dy2 < inner2) {
+                break;
+            }
+            run--;
+        }
+        return run;
     }
 
     /** Point queries on a shape whose derived constants are already computed (see {@link #prepared()}). */

@@ -40,6 +40,24 @@ public final class Mask {
         return new Mask(width, height, BitSet.valueOf(words));
     }
 
+    /** Sets bits {@code [from, to)} of {@code words} (pixel i is bit i % 64 of word i / 64), whole words at a time. */
+    public static void setRange(long[] words, int from, int to) {
+        if (from >= to) {
+            return;
+        }
+        int first = from >>> 6;
+        int last = (to - 1) >>> 6;
+        long head = -1L << from; // shifts take the bit index modulo 64
+        long tail = -1L >>> -to;
+        if (first == last) {
+            words[first] |= head & tail;
+            return;
+        }
+        words[first] |= head;
+        java.util.Arrays.fill(words, first + 1, last, -1L);
+        words[last] |= tail;
+    }
+
     /**
      * The mask whose bits are {@code words} (pixel i is bit i % 64 of word i / 64, as {@link #words()} gives them);
      * bits beyond width × height must be clear.

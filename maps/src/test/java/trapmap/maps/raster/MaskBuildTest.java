@@ -44,4 +44,25 @@ class MaskBuildTest {
             assertThat(wrong).isZero();
         }
     }
+
+    @Test
+    void setRangeSetsExactlyTheBitsOfTheRange() {
+        Random rnd = new Random(11);
+        for (int k = 0; k < 2000; k++) {
+            int n = 1 + rnd.nextInt(400);
+            long[] words = new long[(n + 63) / 64];
+            long[] expected = new long[words.length];
+            for (int j = 0; j < words.length; j++) { // bits already set stay set
+                words[j] = rnd.nextInt(4) == 0 ? rnd.nextLong() : 0;
+                expected[j] = words[j];
+            }
+            int from = rnd.nextInt(n + 1);
+            int to = from + rnd.nextInt(n - from + 1);
+            for (int b = from; b < to; b++) {
+                expected[b >>> 6] |= 1L << b;
+            }
+            Mask.setRange(words, from, to);
+            assertThat(words).as("bits [%d, %d) of %d", from, to, n).containsExactly(expected);
+        }
+    }
 }
