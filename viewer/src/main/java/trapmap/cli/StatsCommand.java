@@ -30,10 +30,10 @@ import trapmap.maps.region.Region;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.region.RegionTable;
 import trapmap.maps.region.ThresholdRegions;
+import trapmap.maps.stats.EvaluatedArea;
 import trapmap.maps.stats.InvalidArea;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
-import trapmap.physics.conversion.PixelStatus;
 import trapmap.physics.defect.Defect;
 
 /** {@code trapmap stats}: statistics, area fractions and flagged regions of one map. */
@@ -137,11 +137,13 @@ final class StatsCommand implements Callable<Integer> {
             warmUp.close();
         }
         WaferShape shape = fitting == null ? shape(read, outline) : joined(fitting);
-        Mask valid = Mask.valid(map.raster());
-        Mask area = shape == null ? Mask.valid(read.raster()) : shape.mask(map.grid(), edgeExclusionMm);
-        Mask mask = shape == null ? valid : valid.and(area);
-        InvalidArea invalid = InvalidArea.of(read.raster(), area, converted == null ? null
-                : converted.statusCodes(), read.quantity() == Quantity.EFFECTIVE_LIFETIME, read.grid());
+        // One pass gives the pixels the statistics use, the below-limit count and the invalid area.
+        EvaluatedArea evaluatedArea = EvaluatedArea.of(map.raster(), read.raster(),
+                shape == null ? null : shape.mask(map.grid(), edgeExclusionMm),
+                converted == null ? null : converted.statusCodes(), read.quantity() == Quantity.EFFECTIVE_LIFETIME,
+                read.grid());
+        Mask mask = evaluatedArea.mask();
+        InvalidArea invalid = evaluatedArea.invalid();
         Map<String, Object> belowLimit = null;
         List<String> warnings = new ArrayList<>();
         if (invalid.aboveDefaultLimit()) {
@@ -149,18 +151,16 @@ final class StatsCommand implements Callable<Integer> {
                     + invalid.evaluatedCount() + " px of the evaluated area cannot be used");
         }
         if (converted != null) {
-            // Statistics, thresholds and regions of a converted map use the OK pixels only; the below-limit ones
-            // (whose value is the detection limit, an upper bound) are counted on their own.
-            Mask below = mask.and(converted.statusMask(PixelStatus.BELOW_LIMIT));
-            int evaluated = mask.count();
+            // Statistics, thresholds and regions of a converted map use the OK pixels only (the mask above); the
+            // below-limit ones (whose value is the detection limit, an upper bound) are counted on their own.
+            int below = evaluatedArea.belowLimitCount();
+            int evaluated = evaluatedArea.evaluatedCount();
             belowLimit = new LinkedHashMap<>();
-            belowLimit.put("count", below.count());
-            belowLimit.put("area_mm2", Output.mm2(below.count() * map.grid().pixelAreaMm2()));
-            belowLimit.put("area_fraction", Output.num(evaluated == 0 ? Double.NaN
-                    : (double) below.count() / evaluated));
+            belowLimit.put("count", below);
+            belowLimit.put("area_mm2", Output.mm2(below * map.grid().pixelAreaMm2()));
+            belowLimit.put("area_fraction", Output.num(evaluated == 0 ? Double.NaN : (double) below / evaluated));
             belowLimit.put("note", "below detection limit: the SRH share of 1/τ_eff is under the detection"
                     + " resolution; these pixels are left out of the statistics, the threshold and the regions");
-            mask = mask.and(converted.statusMask(PixelStatus.OK));
             if (!floor.isEmpty()) {
                 warnings.add(floor);
             }

@@ -110,6 +110,14 @@ public record InvalidArea(int evaluatedCount, int nonFiniteCount, int nonPositiv
             }
         }
 
+        /** Adds the counts of {@code other} (a tally of other pixels) to this one. */
+        public void add(Tally other) {
+            evaluated += other.evaluated;
+            nonFinite += other.nonFinite;
+            nonPositive += other.nonPositive;
+            invalidConversion += other.invalidConversion;
+        }
+
         /** Adds {@code n} evaluated pixels without data (NaN inside the wafer), which a caller skipped. */
         public void addMissing(int n) {
             evaluated += n;
@@ -162,10 +170,7 @@ public record InvalidArea(int evaluatedCount, int nonFiniteCount, int nonPositiv
         });
         Tally all = new Tally(lifetimeFloor);
         for (Tally t : tallies) {
-            all.evaluated += t.evaluated;
-            all.nonFinite += t.nonFinite;
-            all.nonPositive += t.nonPositive;
-            all.invalidConversion += t.invalidConversion;
+            all.add(t);
         }
         return all.result(grid.pixelAreaMm2());
     }

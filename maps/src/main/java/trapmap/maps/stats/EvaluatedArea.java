@@ -1,0 +1,139 @@
+package trapmap.maps.stats;
+
+import trapmap.maps.raster.Blocks;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.Mask;
+import trapmap.maps.raster.PixelGrid;
+import trapmap.physics.conversion.PixelStatus;
+import trapmap.physics.conversion.TrapDensityConverter;
+import trapmap.shared.check.Checks;
+
+/**
+ * The pixels a map's statistics, thresholds and regions use, with the counts reported beside them, found in one
+ * parallel pass over fixed blocks of the map (instead of one pass per mask and per count).
+ *
+ * <p>With {@code area} the evaluated area (the wafer less the edge exclusion), and {@code valid} the pixels of the
+ * summarised map that hold data (not NaN):
+ * <ul>
+ *   <li>{@link #evaluatedCount}: the pixels of {@code valid ∧ area} (without an outline: of {@code valid});</li>
+ *   <li>{@link #belowLimitCount}: of them, those the conversion marks {@link PixelStatus#BELOW_LIMIT} (0 without a
+ *       conversion);</li>
+ *   <li>{@link #mask}: of them, those the conversion marks {@link PixelStatus#OK} (all of them without a
+ *       conversion);</li>
+ *   <li>{@link #invalid}: {@link InvalidArea#of} of the measured map over {@code area}.</li>
+ * </ul>
+ * Every figure is an integer count or a set of pixels, so it is the same whatever the split into blocks and threads.
+ *
+ * @param mask            the pixels the statistics use
+ * @param evaluatedCount  pixels with data in the evaluated area, before the conversion's statuses are applied
+ * @param belowLimitCount of those, the pixels below the conversion's detection limit
+ * @param invalid         the invalid area of the measured map
+ */
+public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, InvalidArea invalid) {
+
+    /**
+     * The evaluated pixels and counts of one map.
+     *
+     * @param values        the summarised map (the trap density when converted, else the measured map)
+     * @param measured      the measured map as read (the same raster as {@code values} when not converted)
+     * @param area          the evaluated area: inside the wafer less the edge exclusion; null when no outline is
+     *                      known, in which case the measured map's non-NaN pixels are the area for the invalid-area
+     *                      counts and {@code valid} alone decides the mask
+     * @param status        the conversion's status code of every pixel ({@link PixelStatus#code()}), or null when the
+     *                      map was not converted
+     * @param lifetimeFloor true for an effective-lifetime map in µs (see {@link InvalidArea#cause})
+     * @param grid          the pixel grid
+     */
+    public static EvaluatedArea of(FloatRaster values, FloatRaster measured, Mask area, byte[] status,
+                                   boolean lifetimeFloor, PixelGrid grid) {
+        Checks.notNull(values, "values");
+        Checks.notNull(measured, "measured");
+        Checks.notNull(grid, "grid");
+        if (area != null) {
+            MapStatistics.checkSizes(measured, area, grid);
+        }
+        if (values.width() != measured.width() || values.height() != measured.height()
+                || values.width() != grid.width() || values.height() != grid.height()) {
+            throw new IllegalArgumentException("map " + values.width() + "x" + values.height()
+                    + " does not match the measured map " + measured.width() + "x" + measured.height()
+                    + " and the grid " + grid.width() + "x" + grid.height());
+        }
+        float[] v = values.samples();
+        float[] m = measured.samples();
+        int n = v.length;
+        if (status != null && status.length != n) {
+            throw new IllegalArgumentException(status.length + " status codes do not match the map "
+                    + values.width() + "x" + values.height());
+        }
+        long[] areaWords = area == null ? null : area.words();
+        long[] out = new long[Blocks.count(n, 64)];
+        int blocks = Blocks.count(n, Mask.BLOCK_PX);
+        // per block: evaluated, below limit, non-finite, non-positive, invalid conversion, area (integers: the sums
+        // are the same whatever the split)
+        int[][] counts = new int[blocks][];
+        Blocks.run(blocks, n, b -> counts[b] = block(b, n, v, m, areaWords, status, lifetimeFloor, out));
+        int[] sum = new int[6];
+        for (int[] c : counts) {
+            for (int k = 0; k < sum.length; k++) {
+                sum[k] += c[k];
+            }
+        }
+        int areaCount = sum[5];
+        return new EvaluatedArea(Mask.ofWords(values.width(), values.height(), out), sum[0], sum[1],
+                new InvalidArea(areaCount, sum[2], sum[3], sum[4], grid.pixelAreaMm2()));
+    }
+
+    /**
+     * One block of {@link Mask#BLOCK_PX} pixels, 64 at a time as bit words: writes its words of the mask into
+     * {@code out} and returns its counts {evaluated, below limit, non-finite, non-positive, invalid conversion,
+     * area}. Each unusable pixel counts under the first cause of {@link InvalidArea#cause} that applies.
+     */
+    private static int[] block(int b, int n, float[] v, float[] m, long[] areaWords, byte[] status,
+                               boolean lifetimeFloor, long[] out) {
+        byte ok = PixelStatus.OK.code();
+        byte belowLimit = PixelStatus.BELOW_LIMIT.code();
+        byte invalid = PixelStatus.INVALID.code();
+        byte noData = PixelStatus.NO_DATA.code();
+        int[] c = new int[6];
+        int end = (int) Math.min(n, (long) (b + 1) * Mask.BLOCK_PX);
+        for (int i = b * Mask.BLOCK_PX; i < end; i += 64) {
+            int len = Math.min(64, end - i);
+            long valid = 0;      // the summarised map holds data
+            long hasData = 0;    // the measured map is not NaN
+            long finite = 0;     // the measured value is finite
+            long positive = 0;   // ... and > 0
+            long unusable = 0;   // ... and invalid for the conversion (status, or the lifetime floor without one)
+            long okBits = 0;
+            long belowBits = 0;
+            for (int j = 0; j < len; j++) {
+                float x = v[i + j];
+                float y = m[i + j];
+                valid |= (x == x ? 1L : 0L) << j;
+                hasData |= (y == y ? 1L : 0L) << j;
+                finite |= (Float.isFinite(y) ? 1L : 0L) << j;
+                positive |= (y > 0 ? 1L : 0L) << j;
+                if (status != null) {
+                    byte s = status[i + j];
+                    okBits |= (s == ok ? 1L : 0L) << j;
+                    belowBits |= (s == belowLimit ? 1L : 0L) << j;
+                    unusable |= (s == invalid || s == noData ? 1L : 0L) << j;
+                } else {
+                    unusable |= (lifetimeFloor && y < TrapDensityConverter.LIFETIME_FLOOR_US ? 1L : 0L) << j;
+                }
+            }
+            long inArea = areaWords == null ? hasData : areaWords[i >>> 6];
+            long word = areaWords == null ? valid : valid & inArea;
+            c[5] += Long.bitCount(inArea);
+            c[2] += Long.bitCount(inArea & ~finite);
+            c[3] += Long.bitCount(inArea & finite & ~positive);
+            c[4] += Long.bitCount(inArea & finite & positive & unusable);
+            c[0] += Long.bitCount(word);
+            if (status != null) {
+                c[1] += Long.bitCount(word & belowBits);
+                word &= okBits;
+            }
+            out[i >>> 6] = word;
+        }
+        return c;
+    }
+}
