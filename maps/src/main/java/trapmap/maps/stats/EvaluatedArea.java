@@ -98,6 +98,10 @@ public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, 
         int end = (int) Math.min(n, (long) (b + 1) * Mask.BLOCK_PX);
         for (int i = b * Mask.BLOCK_PX; i < end; i += 64) {
             int len = Math.min(64, end - i);
+            if (areaWords != null && areaWords[i >>> 6] == 0) {
+                out[i >>> 6] = 0; // no pixel of the area (outside the wafer): nothing to count
+                continue;
+            }
             long valid = 0;      // the summarised map holds data
             long hasData = 0;    // the measured map is not NaN
             long finite = 0;     // the measured value is finite
