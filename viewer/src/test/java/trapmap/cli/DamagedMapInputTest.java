@@ -8,8 +8,6 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
-import org.junit.jupiter.api.condition.DisabledOnOs;
-import org.junit.jupiter.api.condition.OS;
 import org.junit.jupiter.api.Timeout;
 import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.io.MapFiles;
@@ -65,7 +63,6 @@ class DamagedMapInputTest {
     }
 
     @Test
-    @DisabledOnOs(OS.WINDOWS)
     @Timeout(value = 30, unit = TimeUnit.SECONDS)
     void statsOnAFifoSaysNotARegularFile() throws Exception {
         Path f = Fifo.make(dir.resolve("pipe.tif"));

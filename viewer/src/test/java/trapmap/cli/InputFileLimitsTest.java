@@ -9,8 +9,6 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
 import org.junit.jupiter.api.Test;
-import org.junit.jupiter.api.condition.DisabledOnOs;
-import org.junit.jupiter.api.condition.OS;
 import org.junit.jupiter.api.Timeout;
 import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.io.InputFiles;
@@ -32,7 +30,6 @@ class InputFileLimitsTest {
     }
 
     @Test
-    @DisabledOnOs(OS.WINDOWS)
     @Timeout(30)
     void aCasesPipeIsRefusedWithoutBlocking() throws Exception {
         Path pipe = Fifo.make(dir.resolve("cases.csv"));

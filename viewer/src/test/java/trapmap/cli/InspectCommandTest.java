@@ -7,8 +7,6 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
-import org.junit.jupiter.api.condition.DisabledOnOs;
-import org.junit.jupiter.api.condition.OS;
 import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.model.MeasurementConditions;
@@ -246,7 +244,6 @@ class InspectCommandTest {
     }
 
     @Test
-    @DisabledOnOs(OS.WINDOWS)
     @org.junit.jupiter.api.Timeout(120)
     void aFifoNamedLikeAMapIsAnErrorRowAndNeverOpened() throws Exception {
         Path in = folder(false);

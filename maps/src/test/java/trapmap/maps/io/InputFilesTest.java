@@ -10,8 +10,6 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardOpenOption;
 import org.junit.jupiter.api.Test;
-import org.junit.jupiter.api.condition.DisabledOnOs;
-import org.junit.jupiter.api.condition.OS;
 import org.junit.jupiter.api.Timeout;
 import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.batch.IronPairRules;
@@ -61,7 +59,6 @@ class InputFilesTest {
     }
 
     @Test
-    @DisabledOnOs(OS.WINDOWS)
     @Timeout(20)
     void aPipeIsRefusedBeforeItIsOpenedSoNothingBlocks() throws Exception {
         Path pipe = fifo("settings.json");

@@ -9,8 +9,6 @@ import java.nio.file.Path;
 import java.nio.file.attribute.PosixFilePermissions;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.Test;
-import org.junit.jupiter.api.condition.DisabledOnOs;
-import org.junit.jupiter.api.condition.OS;
 import org.junit.jupiter.api.Timeout;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -34,7 +32,6 @@ class NonRegularFilesTest {
     }
 
     @Test
-    @DisabledOnOs(OS.WINDOWS)
     @Timeout(value = 30, unit = TimeUnit.SECONDS) // opening the FIFO would block here
     void fifoAsMapIsNotARegularFile() throws Exception {
         Path f = fifo("w01.tif");
@@ -57,7 +54,6 @@ class NonRegularFilesTest {
     }
 
     @Test
-    @DisabledOnOs(OS.WINDOWS)
     @Timeout(value = 30, unit = TimeUnit.SECONDS)
     void fifoAsSidecarIsAnErrorNamingTheSidecar() throws Exception {
         Path map = plainTiff("w03.tif");
