@@ -92,17 +92,13 @@ final class PairedPass {
         }
         difference.start(n);
         ratio.start(np);
-        difference.after(first.histDifference, trimmed(first.gatheredDifference, first.nDifference),
-                first.belowDifference, first.countBelowDifference, first.overflowDifference);
-        ratio.after(first.histRatio, trimmed(first.gatheredRatio, first.nRatio), first.belowRatio,
-                first.countBelowRatio, first.overflowRatio);
+        first.differences.handTo(difference);
+        first.ratios.handTo(ratio);
         while (!difference.done() || !ratio.done()) {
             Work w = IntStream.range(0, blocks).parallel().collect(() -> new Work(difference, ratio),
                     (x, block) -> x.values(b, a, region, block), Work::add);
-            difference.after(w.histDifference, trimmed(w.gatheredDifference, w.nDifference), w.belowDifference,
-                    w.countBelowDifference, w.overflowDifference);
-            ratio.after(w.histRatio, trimmed(w.gatheredRatio, w.nRatio), w.belowRatio, w.countBelowRatio,
-                    w.overflowRatio);
+            w.differences.handTo(difference);
+            w.ratios.handTo(ratio);
         }
         double medianReduction = Double.NaN;
         if (density && np > 0) {
@@ -312,41 +308,91 @@ final class PairedPass {
         }
     }
 
-    /** One thread's share of a pass: histograms, gathered values, largest keys below the ranges. */
+    /**
+     * One thread's share of a pass for one target: its histogram, or the values gathered in its range with the
+     * largest key below the range and the count below it.
+     */
+    private static final class Share {
+        final Target target;
+        int[] hist;
+        double[] gathered;
+        int n;
+        long below = Long.MIN_VALUE;
+        int countBelow;
+        boolean overflow;
+
+        Share(Target target) {
+            this.target = target;
+            if (target.state == Target.State.HISTOGRAM) {
+                hist = new int[BINS];
+            }
+            if (target.state == Target.State.GATHER && !target.single) {
+                gathered = new double[64];
+            }
+        }
+
+        void take(Target.State s, long key) {
+            if (s == Target.State.HISTOGRAM) {
+                int bin = target.bin(key);
+                if (bin >= 0) {
+                    hist[bin]++;
+                }
+                return;
+            }
+            if (key < target.lo) {
+                below = Math.max(below, key);
+                countBelow++;
+            } else if (!target.single && target.inRange(key) && !overflow) {
+                if (n == MAX_GATHERED) {
+                    overflow = true;
+                    return;
+                }
+                if (n == gathered.length) {
+                    gathered = Arrays.copyOf(gathered, 2 * n);
+                }
+                gathered[n++] = value(key);
+            }
+        }
+
+        /** Adds another thread's share (whole counts and a set of values: the same in any order). */
+        void add(Share o) {
+            if (hist != null) {
+                for (int i = 0; i < BINS; i++) {
+                    hist[i] += o.hist[i];
+                }
+            }
+            if (gathered != null) {
+                double[] all = Arrays.copyOf(gathered, Math.max(n + o.n, 1));
+                System.arraycopy(o.gathered, 0, all, n, o.n);
+                gathered = all;
+                n += o.n;
+            }
+            below = Math.max(below, o.below);
+            countBelow += o.countBelow;
+            overflow |= o.overflow;
+        }
+
+        /** Gives the pass's findings to the target, which narrows its range or picks its middle values. */
+        void handTo(Target t) {
+            t.after(hist, trimmed(gathered, n), below, countBelow, overflow);
+        }
+    }
+
+    /** One thread's share of a pass: one {@link Share} for the differences, one for the ratios. */
     private static final class Work {
         final Target difference;
         final Target ratio;
-        int[] histDifference;
-        int[] histRatio;
-        double[] gatheredDifference;
-        int nDifference;
-        double[] gatheredRatio;
-        int nRatio;
-        long belowDifference = Long.MIN_VALUE;
-        long belowRatio = Long.MIN_VALUE;
-        int countBelowDifference;
-        int countBelowRatio;
-        boolean overflowDifference;
-        boolean overflowRatio;
+        final Share differences;
+        final Share ratios;
 
         Work(Target difference, Target ratio) {
             this.difference = difference;
             this.ratio = ratio;
-            if (difference.state == Target.State.HISTOGRAM) {
-                histDifference = new int[BINS];
-            }
-            if (ratio.state == Target.State.HISTOGRAM) {
-                histRatio = new int[BINS];
-            }
-            if (difference.state == Target.State.GATHER && !difference.single) {
-                gatheredDifference = new double[64];
-            }
-            if (ratio.state == Target.State.GATHER && !ratio.single) {
-                gatheredRatio = new double[64];
-            }
+            this.differences = new Share(difference);
+            this.ratios = new Share(ratio);
         }
 
-        /** The sums of one block (into the shared arrays at the block's place) and the first histograms. */
+    /** The sums of one block (into the shared arrays at the block's place) and the first histograms. */
         void sums(float[] b, float[] a, Mask region, int block, double relativeTolerance, boolean higherIsBetter,
                   double[] sums, int[] counts) {
             int from = block * BLOCK;
@@ -374,14 +420,14 @@ final class PairedPass {
                 double d = va - vb;
                 n++;
                 sumDifference += d;
-                take(difference, sd, key(d), true);
+                differences.take(sd, key(d));
                 if (vb > 0 && va > 0) {
                     double r = va / vb;
                     np++;
                     sumRatio += r;
                     sumInverseBefore += 1 / vb;
                     sumInverseAfter += 1 / va;
-                    take(ratio, sr, key(r), false);
+                    ratios.take(sr, key(r));
                     double change = d / vb;
                     if (Math.abs(change) <= relativeTolerance) {
                         unchanged++;
@@ -414,91 +460,18 @@ final class PairedPass {
                     continue;
                 }
                 if (sd != Target.State.DONE) {
-                    take(difference, sd, key(va - vb), true);
+                    differences.take(sd, key(va - vb));
                 }
                 if (sr != Target.State.DONE && vb > 0 && va > 0) {
-                    take(ratio, sr, key(va / vb), false);
+                    ratios.take(sr, key(va / vb));
                 }
             }
         }
 
-        private void take(Target t, Target.State s, long key, boolean isDifference) {
-            if (s == Target.State.HISTOGRAM) {
-                int bin = t.bin(key);
-                if (bin >= 0) {
-                    (isDifference ? histDifference : histRatio)[bin]++;
-                }
-                return;
-            }
-            if (key < t.lo) {
-                if (isDifference) {
-                    belowDifference = Math.max(belowDifference, key);
-                    countBelowDifference++;
-                } else {
-                    belowRatio = Math.max(belowRatio, key);
-                    countBelowRatio++;
-                }
-            } else if (!t.single && t.inRange(key)) {
-                if (isDifference) {
-                    if (overflowDifference) {
-                        return;
-                    }
-                    if (nDifference == MAX_GATHERED) {
-                        overflowDifference = true;
-                        return;
-                    }
-                    if (nDifference == gatheredDifference.length) {
-                        gatheredDifference = Arrays.copyOf(gatheredDifference, 2 * nDifference);
-                    }
-                    gatheredDifference[nDifference++] = value(key);
-                } else {
-                    if (overflowRatio) {
-                        return;
-                    }
-                    if (nRatio == MAX_GATHERED) {
-                        overflowRatio = true;
-                        return;
-                    }
-                    if (nRatio == gatheredRatio.length) {
-                        gatheredRatio = Arrays.copyOf(gatheredRatio, 2 * nRatio);
-                    }
-                    gatheredRatio[nRatio++] = value(key);
-                }
-            }
-        }
-
-        /** Adds another thread's share (whole counts and a set of values: the same in any order). */
+        /** Adds another thread's share. */
         void add(Work o) {
-            if (histDifference != null) {
-                for (int i = 0; i < BINS; i++) {
-                    histDifference[i] += o.histDifference[i];
-                }
-            }
-            if (histRatio != null) {
-                for (int i = 0; i < BINS; i++) {
-                    histRatio[i] += o.histRatio[i];
-                }
-            }
-            if (gatheredDifference != null) {
-                gatheredDifference = concat(gatheredDifference, nDifference, o.gatheredDifference, o.nDifference);
-                nDifference += o.nDifference;
-            }
-            if (gatheredRatio != null) {
-                gatheredRatio = concat(gatheredRatio, nRatio, o.gatheredRatio, o.nRatio);
-                nRatio += o.nRatio;
-            }
-            belowDifference = Math.max(belowDifference, o.belowDifference);
-            belowRatio = Math.max(belowRatio, o.belowRatio);
-            countBelowDifference += o.countBelowDifference;
-            countBelowRatio += o.countBelowRatio;
-            overflowDifference |= o.overflowDifference;
-            overflowRatio |= o.overflowRatio;
-        }
-
-        private static double[] concat(double[] x, int nx, double[] y, int ny) {
-            double[] out = Arrays.copyOf(x, Math.max(nx + ny, 1));
-            System.arraycopy(y, 0, out, nx, ny);
-            return out;
+            differences.add(o.differences);
+            ratios.add(o.ratios);
         }
     }
 
