@@ -17,18 +17,18 @@ public final class InspectionBuffers {
     /** Largest map, pixels, whose arrays a worker keeps for the next wafer (about 2 Mpx, some 40 MB). */
     static final int KEPT_PIXELS = 1 << 21;
 
-    private boolean[] evaluated = new boolean[0];
-    private boolean[] open = new boolean[0];
-    private int[] indices = new int[0];
-    private int[] queue = new int[0];
-    private int[] seeds = new int[0];
-    private float[] life = new float[0];
-    private float[] density = new float[0];
-    private float[] judged = new float[0];
-    private float[] densitySample = new float[0];
-    private float[] flagAt = new float[0];
-    private float[] densityAt = new float[0];
-    private byte[] status = new byte[0];
+    private final Slot<boolean[]> evaluated = new Slot<>(boolean[]::new);
+    private final Slot<boolean[]> open = new Slot<>(boolean[]::new);
+    private final Slot<int[]> indices = new Slot<>(int[]::new);
+    private final Slot<int[]> queue = new Slot<>(int[]::new);
+    private final Slot<int[]> seeds = new Slot<>(int[]::new);
+    private final Slot<float[]> life = new Slot<>(float[]::new);
+    private final Slot<float[]> density = new Slot<>(float[]::new);
+    private final Slot<float[]> judged = new Slot<>(float[]::new);
+    private final Slot<float[]> densitySample = new Slot<>(float[]::new);
+    private final Slot<float[]> flagAt = new Slot<>(float[]::new);
+    private final Slot<float[]> densityAt = new Slot<>(float[]::new);
+    private final Slot<byte[]> status = new Slot<>(byte[]::new);
 
     /** Empty buffers; they grow with the first map. */
     public InspectionBuffers() {
@@ -36,102 +36,88 @@ public final class InspectionBuffers {
 
     /** {@code n} per-pixel flags, all false (the evaluated pixels). */
     boolean[] evaluated(int n) {
-        boolean[] a = cleared(evaluated, n);
-        evaluated = keep(n) ? a : evaluated;
-        return a;
+        return cleared(evaluated.get(n));
     }
 
     /** {@code n} per-pixel flags, all false (pixels still to be labelled). */
     boolean[] open(int n) {
-        boolean[] a = cleared(open, n);
-        open = keep(n) ? a : open;
-        return a;
+        return cleared(open.get(n));
     }
 
     /** {@code n} pixel indices. */
     int[] indices(int n) {
-        int[] a = indices.length == n ? indices : new int[n];
-        indices = keep(n) ? a : indices;
-        return a;
+        return indices.get(n);
     }
 
     /** {@code n} pixel indices of region seeds. */
     int[] seeds(int n) {
-        int[] a = seeds.length == n ? seeds : new int[n];
-        seeds = keep(n) ? a : seeds;
-        return a;
+        return seeds.get(n);
     }
 
     /** {@code n} queued pixel indices. */
     int[] queue(int n) {
-        int[] a = queue.length == n ? queue : new int[n];
-        queue = keep(n) ? a : queue;
-        return a;
+        return queue.get(n);
     }
 
     /** {@code n} packed lifetimes. */
     float[] life(int n) {
-        float[] a = sized(life, n);
-        life = keep(n) ? a : life;
-        return a;
+        return life.get(n);
     }
 
     /** {@code n} packed trap densities as converted. */
     float[] density(int n) {
-        float[] a = sized(density, n);
-        density = keep(n) ? a : density;
-        return a;
+        return density.get(n);
     }
 
     /** {@code n} packed trap densities as judged. */
     float[] judged(int n) {
-        float[] a = sized(judged, n);
-        judged = keep(n) ? a : judged;
-        return a;
+        return judged.get(n);
     }
 
     /** {@code n} trap densities to rank. */
     float[] densitySample(int n) {
-        float[] a = sized(densitySample, n);
-        densitySample = keep(n) ? a : densitySample;
-        return a;
+        return densitySample.get(n);
     }
 
     /** The flagged quantity at {@code n} pixels. */
     float[] flagAt(int n) {
-        float[] a = sized(flagAt, n);
-        flagAt = keep(n) ? a : flagAt;
-        return a;
+        return flagAt.get(n);
     }
 
     /** The trap density at {@code n} pixels. */
     float[] densityAt(int n) {
-        float[] a = sized(densityAt, n);
-        densityAt = keep(n) ? a : densityAt;
-        return a;
+        return densityAt.get(n);
     }
 
     /** {@code n} conversion statuses. */
     byte[] status(int n) {
-        byte[] a = status.length == n ? status : new byte[n];
-        status = keep(n) ? a : status;
-        return a;
+        return status.get(n);
     }
 
-    private static boolean keep(int n) {
-        return n <= KEPT_PIXELS;
-    }
-
-    private static float[] sized(float[] a, int n) {
-        return a.length == n ? a : new float[n];
-    }
-
-    /** {@code a} with all its flags false when it has {@code n} of them, else a new array of {@code n}. */
-    private static boolean[] cleared(boolean[] a, int n) {
-        if (a.length != n) {
-            return new boolean[n];
-        }
+    private static boolean[] cleared(boolean[] a) {
         java.util.Arrays.fill(a, false);
         return a;
+    }
+
+    /**
+     * One kept array: the one of the last map when it has {@code n} elements, else a new one, which is kept for the
+     * next wafer when it has at most {@link #KEPT_PIXELS} elements (a larger one is dropped after its map).
+     */
+    private static final class Slot<A> {
+        private final java.util.function.IntFunction<A> make;
+        private A kept;
+
+        Slot(java.util.function.IntFunction<A> make) {
+            this.make = make;
+            this.kept = make.apply(0);
+        }
+
+        A get(int n) {
+            A a = java.lang.reflect.Array.getLength(kept) == n ? kept : make.apply(n);
+            if (n <= KEPT_PIXELS) {
+                kept = a;
+            }
+            return a;
+        }
     }
 }
