@@ -10,12 +10,24 @@ public sealed interface Injection permits Injection.Fixed, Injection.Generation 
         public Fixed {
             Checks.inRange(excessPerCm3, 1e6, 1e19, "injection", "cm^-3");
         }
+
+        /** The generated record text, written out (see {@link Surface#toString()}). */
+        @Override
+        public String toString() {
+            return "Fixed[excessPerCm3=" + excessPerCm3 + "]";
+        }
     }
 
     /** A uniform steady-state generation rate G; each pixel has Δn = G·τ_eff. */
     record Generation(double ratePerCm3PerS) implements Injection {
         public Generation {
             Checks.inRange(ratePerCm3PerS, 1e10, 1e24, "generation", "cm^-3 s^-1");
+        }
+
+        /** The generated record text, written out (see {@link Surface#toString()}). */
+        @Override
+        public String toString() {
+            return "Generation[ratePerCm3PerS=" + ratePerCm3PerS + "]";
         }
     }
 
