@@ -48,6 +48,16 @@ record DopingValue(Doping doping, double resistivityOhmCm) {
         return fromResistivity() ? s + " (from " + Format.number(resistivityOhmCm) + " Ω·cm, ASTM F723)" : s;
     }
 
+    /**
+     * The generated record text, written out: picocli takes the text of every option value it sets, and a record's
+     * generated {@code toString} is linked at its first call through method handles, tens of milliseconds of a
+     * command's start.
+     */
+    @Override
+    public String toString() {
+        return "DopingValue[doping=" + doping + ", resistivityOhmCm=" + resistivityOhmCm + "]";
+    }
+
     static final class Converter implements ITypeConverter<DopingValue> {
         @Override
         public DopingValue convert(String value) {
