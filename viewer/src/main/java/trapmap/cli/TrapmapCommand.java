@@ -136,6 +136,9 @@ public final class TrapmapCommand implements Callable<Integer> {
     }
 
     public static void main(String[] args) {
+        if (QuickHelp.print(args, System.out)) { // the root help or the version, as picocli prints it
+            System.exit(Exit.OK);
+        }
         prepare(args);
         PrintWriter out = new PrintWriter(new OutputStreamWriter(System.out, StandardCharsets.UTF_8), true);
         PrintWriter err = new PrintWriter(new OutputStreamWriter(System.err, StandardCharsets.UTF_8), true);
