@@ -3,6 +3,7 @@ package trapmap.maps.io;
 import java.io.IOException;
 import java.nio.channels.FileChannel;
 import java.nio.file.AtomicMoveNotSupportedException;
+import java.nio.file.FileAlreadyExistsException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
@@ -11,6 +12,7 @@ import java.nio.file.attribute.PosixFilePermission;
 import java.nio.file.attribute.PosixFilePermissions;
 import java.util.Set;
 import java.util.concurrent.ConcurrentHashMap;
+import java.util.concurrent.ThreadLocalRandom;
 import java.util.concurrent.atomic.AtomicBoolean;
 
 /**
@@ -72,7 +74,7 @@ public final class AtomicFiles {
         Path abs = target.toAbsolutePath();
         Path dir = abs.getParent();
         Files.createDirectories(dir);
-        Path tmp = Files.createTempFile(dir, "." + abs.getFileName() + ".", ".tmp");
+        Path tmp = createTemporary(dir, "." + abs.getFileName() + ".", ".tmp");
         track(tmp);
         boolean done = false;
         try {
@@ -91,6 +93,31 @@ public final class AtomicFiles {
             PENDING.remove(tmp);
             if (!done) {
                 Files.deleteIfExists(tmp);
+            }
+        }
+    }
+
+    /** Owner read and write only: the permissions of a temporary file while it is written. */
+    private static final Set<PosixFilePermission> PRIVATE = PosixFilePermissions.fromString("rw-------");
+
+    /**
+     * A new empty file {@code prefix + random number + suffix} in {@code dir}, readable and writable by its owner only
+     * (on POSIX file systems), as {@link Files#createTempFile(Path, String, String, java.nio.file.attribute.FileAttribute[])} makes it, but
+     * named from {@link ThreadLocalRandom}: that method's {@code SecureRandom} is seeded and its security providers
+     * loaded at the first call, tens of milliseconds of a short command. The name needs no secrecy: the file is created
+     * exclusively ({@code O_EXCL}, no link followed), and a name already taken is drawn again.
+     */
+    static Path createTemporary(Path dir, String prefix, String suffix) throws IOException {
+        boolean posix = dir.getFileSystem().supportedFileAttributeViews().contains("posix");
+        for (int attempt = 0; ; attempt++) {
+            Path tmp = dir.resolve(prefix + Long.toUnsignedString(ThreadLocalRandom.current().nextLong()) + suffix);
+            try {
+                return posix ? Files.createFile(tmp, PosixFilePermissions.asFileAttribute(PRIVATE))
+                        : Files.createFile(tmp);
+            } catch (FileAlreadyExistsException e) {
+                if (attempt >= 100) {
+                    throw e;
+                }
             }
         }
     }
