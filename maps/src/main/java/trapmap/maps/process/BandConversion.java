@@ -306,8 +306,13 @@ public final class BandConversion {
             if (pl != null) {
                 pl.apply(samples, 0, n);
             }
-            TrapDensityConverter.Tally t = converter.convert(samples, width, out, 1);
-            tally.add(t);
+            // Row by row: a call of the kernel that starts in the interpreter or the lower compiler tier stays there
+            // to its end, so a band's million pixels in one call would run there, and have the kernel compiled again
+            // on-stack for its loop, until the top tier's code (compiled during the warm-up) comes; rows switch to
+            // it at the next row. The pixels and counts are the same for any split (see the class comment).
+            for (int row = 0; row < r; row++) {
+                converter.convertRows(samples, width, row, row + 1, out, tally);
+            }
             byte[] status = out.status;
             float[] plane;
             if (wanted == Quantity.STATUS) {
