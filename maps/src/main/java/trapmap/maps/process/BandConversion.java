@@ -140,7 +140,10 @@ public final class BandConversion {
         void close();
     }
 
-    /** The planes a band of {@code n} pixels needs for {@code wanted}, with the status plane. */
+    /**
+     * The one plane a band of {@code n} pixels needs for {@code wanted} (the status plane for {@link Quantity#STATUS});
+     * the kernel counts the statuses without a plane.
+     */
     private static ConversionOutput planes(Quantity wanted, boolean reference, int n) {
         return new ConversionOutput(wanted == Quantity.TRAP_DENSITY ? new float[n] : null,
                 wanted == Quantity.TRAP_DENSITY_MIN ? new float[n] : null,
@@ -149,7 +152,7 @@ public final class BandConversion {
                 wanted == Quantity.SRH_LIFETIME ? new float[n] : null,
                 wanted == Quantity.INJECTION ? new float[n] : null,
                 reference && wanted == Quantity.LIFETIME_AT_REFERENCE ? new float[n] : null,
-                new byte[n], null);
+                wanted == Quantity.STATUS ? new byte[n] : null, null);
     }
 
     /** The header of the converted map. */
