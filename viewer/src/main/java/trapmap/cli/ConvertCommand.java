@@ -151,6 +151,54 @@ final class ConvertCommand implements Callable<Integer> {
     private static final trapmap.maps.model.Quantity LIFETIME = trapmap.maps.model.Quantity.EFFECTIVE_LIFETIME;
 
     /**
+     * Starts {@link BandConversion#warmUp} before the command line is parsed (parsing takes a fresh process tens of
+     * milliseconds), so that the kernel's top-tier code is there when the first band is: only for a trap-density
+     * conversion whose arguments name a built-in defect ({@code --defect ID}) and exactly one of {@code
+     * --generation} and {@code --injection}, which choose the kernel's path; the values are the typical ones of {@link
+     * BandConversion#WARM_UP_CONDITIONS}. Nothing else is guessed from the raw arguments: every other conversion is
+     * warmed up once parsed ({@link #streamed}), and a wrong guess costs only time, never a result.
+     */
+    static void warmUpEarly(String... args) {
+        boolean generation = false;
+        boolean injection = false;
+        String defectId = null;
+        for (int i = 1; i < args.length; i++) {
+            String a = args[i];
+            int eq = a.indexOf('=');
+            String name = eq > 0 ? a.substring(0, eq) : a;
+            switch (name) {
+                case "--generation" -> generation = true;
+                case "--injection" -> injection = true;
+                case "--defect" -> defectId = eq > 0 ? a.substring(eq + 1) : i + 1 < args.length ? args[i + 1] : null;
+                case "--quantity", "--defect-file", "--reference-injection", "--physics" -> {
+                    return;
+                }
+                default -> {
+                    if (a.startsWith("@")) {
+                        return; // an argument file: what it holds is not known here
+                    }
+                }
+            }
+        }
+        if (generation == injection || defectId == null) {
+            return;
+        }
+        Defect d;
+        try {
+            d = trapmap.physics.defect.DefectLibrary.byId(defectId);
+        } catch (RuntimeException e) {
+            return; // not a built-in defect: the command reports it
+        }
+        if (!d.hasAbsoluteCrossSections()) {
+            return;
+        }
+        trapmap.maps.model.MeasurementConditions guess = injection
+                ? BandConversion.WARM_UP_CONDITIONS.withGeneration(null).withInjection(1e15)
+                : BandConversion.WARM_UP_CONDITIONS;
+        BandConversion.warmUp(guess, d, ConversionSettings.DEFAULTS, trapmap.maps.model.Quantity.TRAP_DENSITY);
+    }
+
+    /**
      * Writes the input map (with the flags' conditions) in the format of {@code -o}: as it is, or, when {@code
      * lifetime}, as an effective-lifetime map (a PL map through its calibration). No defect is involved.
      */

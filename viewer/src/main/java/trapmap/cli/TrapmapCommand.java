@@ -111,7 +111,8 @@ public final class TrapmapCommand implements Callable<Integer> {
     /**
      * For {@code convert}, which opens a map and writes one with metadata: builds the JSON mapper on a background
      * (daemon) thread, so that this overlaps building and parsing the command line ({@link
-     * trapmap.maps.io.Sidecar#prepare}). Nothing for help, version or other commands.
+     * trapmap.maps.io.Sidecar#prepare}), and starts the kernel's warm-up ({@link ConvertCommand#warmUpEarly}).
+     * Nothing for help, version or other commands.
      */
     static void prepare(String... args) {
         if (args.length < 2 || !args[0].equals("convert")) {
@@ -125,6 +126,7 @@ public final class TrapmapCommand implements Callable<Integer> {
         Thread t = new Thread(trapmap.maps.io.Sidecar::prepare, "metadata-mapper");
         t.setDaemon(true);
         t.start();
+        ConvertCommand.warmUpEarly(args);
     }
 
     /** Runs {@code trapmap args} and returns the exit code. */
