@@ -127,6 +127,16 @@ public final class TrapmapCommand implements Callable<Integer> {
         t.start();
     }
 
+    /**
+     * Every command but the viewer's ({@code view}, or no command) runs Java headless unless told otherwise: its
+     * pictures and PDFs need no display, and a {@code DISPLAY} that does not answer would make them fail.
+     */
+    static void headless(String... args) {
+        if (args.length > 0 && !args[0].equals("view") && System.getProperty("java.awt.headless") == null) {
+            System.setProperty("java.awt.headless", "true");
+        }
+    }
+
     /** Runs {@code trapmap args} and returns the exit code. */
     public static int run(PrintWriter out, PrintWriter err, String... args) {
         int code = commandLine(out, err, args).execute(args);
@@ -136,6 +146,7 @@ public final class TrapmapCommand implements Callable<Integer> {
     }
 
     public static void main(String[] args) {
+        headless(args);
         prepare(args);
         PrintWriter out = new PrintWriter(new OutputStreamWriter(System.out, StandardCharsets.UTF_8), true);
         PrintWriter err = new PrintWriter(new OutputStreamWriter(System.err, StandardCharsets.UTF_8), true);
