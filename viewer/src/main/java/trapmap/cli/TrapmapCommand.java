@@ -132,8 +132,8 @@ public final class TrapmapCommand implements Callable<Integer> {
      * pictures and PDFs need no display, and a {@code DISPLAY} that does not answer would make them fail.
      */
     static void headless(String... args) {
-        if (args.length > 0 && !args[0].equals("view") && System.getProperty("java.awt.headless") == null) {
-            System.setProperty("java.awt.headless", "true");
+        if (args.length > 0 && !args[0].equals("view")) {
+            trapmap.maps.io.Rendering.headlessUnlessSet();
         }
     }
 

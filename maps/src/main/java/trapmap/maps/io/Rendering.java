@@ -80,6 +80,16 @@ public final class Rendering {
     private Rendering() {
     }
 
+    /**
+     * Makes this process run Java's imaging headless (no display is used or needed) unless the
+     * {@code java.awt.headless} property says otherwise; call before anything draws.
+     */
+    public static void headlessUnlessSet() {
+        if (System.getProperty("java.awt.headless") == null) {
+            System.setProperty("java.awt.headless", "true");
+        }
+    }
+
     /** Starts {@link #missing()}'s probe on a daemon thread (once per process); returns at once. */
     public static void probeInBackground() {
         if (STARTED.compareAndSet(false, true)) {
