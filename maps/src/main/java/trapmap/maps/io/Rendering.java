@@ -162,19 +162,22 @@ public final class Rendering {
      * {@code AWTError}), and errors thrown from the font machinery (fontconfig, no fonts).
      */
     public static Optional<Missing> failure(Throwable thrown) {
-        for (Throwable t = thrown; t != null; t = t.getCause() == t ? null : t.getCause()) {
+        Optional<Missing> found = Optional.empty(); // the deepest cause recognised says most
+        int depth = 0;
+        for (Throwable t = thrown; t != null && depth < 32; t = t.getCause() == t ? null : t.getCause(), depth++) {
             Optional<Missing> m = one(t);
             if (m.isPresent()) {
-                return m;
+                found = m;
             }
         }
-        return Optional.empty();
+        return found;
     }
 
     private static Optional<Missing> one(Throwable t) {
         String name = t.getClass().getName();
         String message = String.valueOf(t.getMessage());
-        if (t instanceof UnsatisfiedLinkError) {
+        if (t instanceof UnsatisfiedLinkError
+                || t instanceof LinkageError && message.contains("cannot open shared object file")) {
             List<String> libraries = new ArrayList<>();
             Matcher m = NOT_OPENED.matcher(message);
             while (m.find()) {
@@ -183,7 +186,10 @@ public final class Rendering {
             boolean images = !message.contains("fontmanager") && !libraries.stream().anyMatch(Rendering::fontLibrary);
             return Optional.of(new Missing(images, cause(t), fontRemedy(libraries)));
         }
-        if (name.equals("java.awt.HeadlessException") || name.equals("java.awt.AWTError")) {
+        if (name.equals("java.awt.HeadlessException") || name.equals("java.awt.AWTError")
+                || t instanceof LinkageError && (message.contains("java.awt.AWTError")
+                || message.contains("GraphicsEnvironment$LocalGE") || message.contains("X11GraphicsEnvironment"))) {
+            // no display: also the imaging classes whose start failed for want of one (a DISPLAY that does not answer)
             return Optional.of(new Missing(true, cause(t), "this command needs no display: unset DISPLAY or run Java"
                     + " headless (JAVA_OPTS=-Djava.awt.headless=true)"));
         }

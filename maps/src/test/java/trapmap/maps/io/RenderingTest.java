@@ -56,6 +56,12 @@ class RenderingTest {
         InternalError noFonts = new InternalError("Fontconfig head is null, check your fonts or fonts configuration");
         assertThat(Rendering.failure(noFonts)).hasValueSatisfying(m -> assertThat(m.remedy()).contains("fontconfig"));
         assertThat(Rendering.failure(new RuntimeException("chart", later))).as("along the cause chain").isPresent();
+        NoClassDefFoundError again = new NoClassDefFoundError("Could not initialize class sun.font.SunFontManager");
+        again.initCause(new ExceptionInInitializerError("Exception java.lang.UnsatisfiedLinkError: " + HARFBUZZ
+                + " [in thread \"inspect\"]"));
+        assertThat(Rendering.failure(again)).hasValueSatisfying(m -> assertThat(m.remedy())
+                .as("the library the first failure named").startsWith("install the font libraries and a font"
+                        + " (Debian/Ubuntu: apt-get install libharfbuzz0b "));
     }
 
     @Test
@@ -68,6 +74,14 @@ class RenderingTest {
                 + " using ':99' as the value of the DISPLAY variable.")).orElseThrow();
         assertThat(display.remedy()).contains("-Djava.awt.headless=true");
         assertThat(Rendering.failure(new java.awt.HeadlessException())).isPresent();
+        NoClassDefFoundError later = new NoClassDefFoundError("Could not initialize class"
+                + " java.awt.GraphicsEnvironment$LocalGE");
+        later.initCause(new ExceptionInInitializerError("Exception java.awt.AWTError: Can't connect to X11 window"
+                + " server using ':99' as the value of the DISPLAY variable. [in thread \"main\"]"));
+        assertThat(Rendering.failure(later)).hasValueSatisfying(m -> {
+            assertThat(m.cause()).as("the deepest cause says most").contains("Can't connect to X11");
+            assertThat(m.remedy()).contains("-Djava.awt.headless=true");
+        });
     }
 
     @Test
