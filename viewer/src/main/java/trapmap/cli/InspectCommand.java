@@ -146,7 +146,7 @@ final class InspectCommand implements Callable<Integer> {
         ProgressListener progress = System.console() != null ? bar(err) : lines(err);
         Rules judged = rules;
         Path pdf = out.resolve(BatchReport.FILE_NAME);
-        Pictures pictures = Pictures.start(); // the pictures' text: probed meanwhile, asked when first needed
+        Pictures pictures = Pictures.start(); // the runtime is asked once, when the first picture step is due
         boolean captions = thumbnails && thumbnailCaptions && pictures.allows("the thumbnail captions");
         BatchInspection.Summary s;
         try {

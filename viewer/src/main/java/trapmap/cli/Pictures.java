@@ -30,11 +30,8 @@ final class Pictures {
     private Optional<Rendering.Missing> answer;
     private Rendering.Missing missing;
 
-    /** Starts asking the runtime in the background (only the real runtime is probed so). */
+    /** The picture steps of one command run; the runtime is asked when the first is due. */
     static Pictures start() {
-        if (runtime == RUNTIME) {
-            Rendering.probeInBackground();
-        }
         return new Pictures();
     }
 

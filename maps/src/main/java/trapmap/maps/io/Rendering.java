@@ -10,9 +10,6 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.Optional;
-import java.util.concurrent.ExecutionException;
-import java.util.concurrent.FutureTask;
-import java.util.concurrent.atomic.AtomicBoolean;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 
@@ -27,8 +24,8 @@ import java.util.regex.Pattern;
  * Java is not headless) with an {@code AWTError}.
  *
  * <p>{@link #missing()} tries both once per process (a small picture encoded as PNG, then a line of text drawn and
- * measured with the font the pictures use) and keeps the answer; {@link #probeInBackground()} starts that on a daemon
- * thread so that it overlaps other work. {@link #failure} recognises the same failures thrown by a picture step
+ * measured with the font the pictures use) and keeps the answer, when the first step that draws is due (a runtime
+ * that draws loads its font machinery then, as that step would). {@link #failure} recognises the same failures thrown by a picture step
  * itself, for a step that failed although the probe passed. Each answer is one line: what is missing and the
  * packages to install.
  */
@@ -73,9 +70,8 @@ public final class Rendering {
     /** The file name a dynamic-loader message says cannot be opened ({@code libharfbuzz.so.0}). */
     private static final Pattern NOT_OPENED = Pattern.compile("([\\w.+-]+\\.so[.\\d]*): cannot open shared object file");
 
-    private static final FutureTask<Optional<Missing>> PROBE = new FutureTask<>(
-            () -> probe(Rendering::drawPicture, Rendering::drawText));
-    private static final AtomicBoolean STARTED = new AtomicBoolean();
+    /** The answer of {@link #missing()}, probed once. */
+    private static volatile Optional<Missing> answer;
 
     private Rendering() {
     }
@@ -90,43 +86,19 @@ public final class Rendering {
         }
     }
 
-    /** Starts {@link #missing()}'s probe on a daemon thread (once per process); returns at once. */
-    public static void probeInBackground() {
-        if (STARTED.compareAndSet(false, true)) {
-            Thread t = new Thread(PROBE, "rendering-probe");
-            t.setDaemon(true);
-            t.start();
-        }
-    }
-
-    /**
-     * What this runtime lacks to make pictures with text, or empty when it makes them; probed once per process
-     * (waits for a probe running in the background).
-     */
+    /** What this runtime lacks to make pictures with text, or empty when it makes them; probed once per process. */
     public static Optional<Missing> missing() {
-        if (STARTED.compareAndSet(false, true)) {
-            PROBE.run();
-        }
-        boolean interrupted = false;
-        try {
-            while (true) {
-                try {
-                    return PROBE.get();
-                } catch (InterruptedException e) {
-                    interrupted = true; // the probe is short: finish waiting, keep the interrupt for the caller
+        Optional<Missing> a = answer;
+        if (a == null) {
+            synchronized (Rendering.class) {
+                a = answer;
+                if (a == null) {
+                    a = probe(Rendering::drawPicture, Rendering::drawText);
+                    answer = a;
                 }
             }
-        } catch (ExecutionException e) {
-            Throwable c = e.getCause();
-            if (c instanceof Error err) {
-                throw err; // out of memory or stack while probing: not a missing library
-            }
-            throw new IllegalStateException("rendering probe failed", c);
-        } finally {
-            if (interrupted) {
-                Thread.currentThread().interrupt();
-            }
         }
+        return a;
     }
 
     /**
