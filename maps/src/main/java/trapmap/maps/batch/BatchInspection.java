@@ -548,11 +548,13 @@ public final class BatchInspection {
             Path tif = outDir.resolve(stem + ".tif");
             OutputFolder.write(tif, () -> MapFiles.write(e.getValue().fraction(), tif));
             written.add(tif);
+            Path png = outDir.resolve(stem + ".png");
             if (pictures) {
-                Path png = outDir.resolve(stem + ".png");
                 OutputFolder.write(png, () -> RecurrencePicture.write(e.getValue(),
                         HotSpots.find(e.getValue(), HotSpots.Criteria.DEFAULT), png));
                 written.add(png);
+            } else { // an earlier run's picture would not match this map
+                OutputFolder.write(png, () -> Files.deleteIfExists(png));
             }
             families.append(CSVFormat.DEFAULT.format(CsvCells.text(e.getKey()), wafersPerFamily.get(e.getKey()),
                             CsvCells.text(stem + ".tif")))

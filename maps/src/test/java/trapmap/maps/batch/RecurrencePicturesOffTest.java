@@ -68,5 +68,10 @@ class RecurrencePicturesOffTest {
         assertThat(Files.readString(drawn.resolve(RunManifest.FILE_NAME))).doesNotContain("summary_pdf");
         assertThat(RunManifest.read(off).summaryPdf()).isEqualTo("missing: for the test");
         assertThat(RunManifest.read(off).differences(RunManifest.read(drawn))).as("resume is not refused").isEmpty();
+
+        // resumed without pictures, a folder keeps no picture of an earlier run
+        new BatchInspection(rules).withRecurrencePictures(() -> false)
+                .run(files, drawn, new BatchInspection.Options(2, true, false, ProgressListener.NONE));
+        assertThat(names(drawn)).isEqualTo(without);
     }
 }
