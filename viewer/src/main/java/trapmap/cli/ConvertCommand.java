@@ -41,7 +41,7 @@ import trapmap.physics.defect.Defect;
             "Without --defect and --quantity, writes MAP as it is in the format of -o (TIFF <-> CSV) with its",
             "metadata; --quantity effective-lifetime writes the lifetime map (from a PL map: by its calibration).",
             ""},
-        footer = {"", "Caution: " + Calculation.CAUTION, "", Help.EXIT_CODES_OUTPUT})
+        footer = {"", "Caution: " + Calculation.CAUTION, "", Help.EXIT_CODES_MAP_OUTPUT})
 final class ConvertCommand implements Callable<Integer> {
     /** Output quantities by their command-line names. */
     static final Map<String, trapmap.maps.model.Quantity> QUANTITIES = quantities();

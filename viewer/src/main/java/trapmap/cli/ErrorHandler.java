@@ -6,6 +6,7 @@ import java.util.ArrayList;
 import java.util.Collection;
 import java.util.List;
 import java.util.Objects;
+import java.util.Optional;
 import picocli.CommandLine;
 import picocli.CommandLine.IExecutionExceptionHandler;
 import picocli.CommandLine.IExecutionStrategy;
@@ -20,6 +21,7 @@ import picocli.CommandLine.RunLast;
 import picocli.CommandLine.UnmatchedArgumentException;
 import trapmap.maps.io.MapFormatException;
 import trapmap.maps.io.MapMemory;
+import trapmap.maps.io.Rendering;
 import trapmap.shared.error.InvalidValueException;
 
 /**
@@ -47,6 +49,22 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
                 last = last.subcommand();
             }
             return outOfMemory(last.commandSpec().commandLine(), last, e);
+        } catch (Error e) {
+            // a picture step that failed for want of a library, font or display, where no step caught it
+            Optional<Rendering.Missing> m = Rendering.failure(e);
+            if (m.isEmpty() || e instanceof VirtualMachineError) {
+                throw e;
+            }
+            ParseResult last = parseResult;
+            while (last.hasSubcommand()) {
+                last = last.subcommand();
+            }
+            CommandLine cmd = last.commandSpec().commandLine();
+            print(cmd, "a picture could not be made: " + m.get().text());
+            if (System.getenv("TRAPMAP_DEBUG") != null) {
+                e.printStackTrace(cmd.getErr());
+            }
+            return Exit.INTERNAL_ERROR;
         }
     }
 
@@ -75,6 +93,15 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
         if (ex instanceof MapFormatException) {
             print(cmd, ex.getMessage());
             return Exit.INVALID_INPUT;
+        }
+        if (ex instanceof Pictures.NotMade) {
+            print(cmd, ex.getMessage());
+            return Exit.REPORT_MISSING;
+        }
+        Optional<Rendering.Missing> missing = Rendering.failure(ex);
+        if (missing.isPresent()) { // e.g. a HeadlessException where no step caught it
+            print(cmd, "a picture could not be made: " + missing.get().text());
+            return Exit.INTERNAL_ERROR;
         }
         if (ex instanceof MapInput.OutputException) {
             print(cmd, ex.getMessage());

@@ -17,6 +17,11 @@ final class Exit {
      * and {@code inspect --resume} continues from it.
      */
     static final int OUTPUT_NOT_WRITTEN = 4;
+    /**
+     * The results are complete but a report is missing: a picture or PDF step could not run because the Java runtime
+     * lacks font libraries, fonts or a display; one line on stderr names what and the packages to install.
+     */
+    static final int REPORT_MISSING = 5;
 
     private Exit() {
     }

@@ -20,6 +20,11 @@ final class Help {
     /** Exit codes of a command that writes a map or files. */
     static final String EXIT_CODES_OUTPUT = "Exit codes: 0 done; 2 invalid input (one line on stderr names the"
             + " option); 3 internal error, or the output could not be written (disk full, no permission).";
+    /** Exit codes of {@code convert}, whose output may be a picture. */
+    static final String EXIT_CODES_MAP_OUTPUT = "Exit codes: 0 done; 2 invalid input (one line on stderr names the"
+            + " option); 3 internal error, or the output could not be written (disk full, no permission); 5 a .png"
+            + " picture could not be made: this Java runtime lacks font libraries or fonts (one line names what and"
+            + " the packages to install).";
     /** Exit codes of {@code calc}, which also processes cases files. */
     static final String EXIT_CODES_CALC = "Exit codes: 0 done; 1 some rows of the --cases file failed (the others"
             + " were written); 2 invalid input (one line on stderr names the option), or --out cannot be written;"
@@ -27,10 +32,13 @@ final class Help {
     /** Exit codes of {@code compare} and {@code iron-map}: maps with an optional output and {@code --strict}. */
     static final String EXIT_CODES_STRICT = "Exit codes: 0 done; 2 invalid input (one line on stderr names the"
             + " option), or a registration warning with --strict; 3 internal error, or the output could not be"
-            + " written (disk full, no permission).";
+            + " written (disk full, no permission); 5 a .png picture could not be made: this Java runtime lacks font"
+            + " libraries or fonts (one line names what and the packages to install).";
     /** Exit codes of {@code trapmap} without a command. */
     static final String EXIT_CODES_ROOT = "Exit codes without a command: 0 done; 2 invalid input (one line on stderr"
-            + " names the option); 3 internal error; 4 the demonstration batch's output could not be written. Each"
+            + " names the option); 3 internal error; 4 the demonstration batch's output could not be written; 5 its"
+            + " results are complete but its summary PDF or pictures could not be made (this Java runtime lacks"
+            + " fonts or font libraries; one line names the packages to install). Each"
             + " command lists its own exit codes in its --help.";
     static final String MODELS = "Models (defaults): n_i = 9.65e9 cm^-3 at 300 K (Altermatt et al., JAP 93, 1598"
             + " (2003)) with the Sproul & Green (1991) temperature form; N_c, N_v of Green, JAP 67, 2944 (1990);"

@@ -10,6 +10,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import java.util.Optional;
 import java.util.concurrent.Callable;
 import java.util.stream.Stream;
 import picocli.CommandLine.Command;
@@ -47,8 +48,23 @@ import trapmap.viewer.report.BatchReport;
                 + " (rules file, options, no input files) or DIR refused (in use by another run, holds other"
                 + " results, or --resume with other rules, physics, inputs or version); 3 internal error;"
                 + " 4 output could not be written to DIR (disk full, no permission): what was written stays,"
-                + " --resume continues."})
+                + " --resume continues; 5 the results are complete (pass/fail in results.csv and the last line) but"
+                + " summary.pdf or the recurrence pictures or thumbnail captions could not be made: this Java"
+                + " runtime lacks font libraries, fonts or a display; one line names what and the packages to"
+                + " install (after which --resume makes them; --no-pdf skips the PDF on purpose)."})
 final class InspectCommand implements Callable<Integer> {
+    /** Writes the summary PDF into a finished batch folder. */
+    @FunctionalInterface
+    interface SummaryWriter {
+        Path write(Path dir, Rules rules, trapmap.maps.batch.RecurrenceMap recurrence) throws IOException;
+    }
+
+    /** The summary step ({@link BatchReport#writeFor}); a test puts a failing one here. */
+    static volatile SummaryWriter summaryWriter = BatchReport::writeFor;
+
+    /** How the one line names the recurrence pictures when they are skipped. */
+    private static final String RECURRENCE_PICTURES = "the recurrence pictures";
+
     @Spec
     CommandSpec spec;
 
@@ -80,6 +96,11 @@ final class InspectCommand implements Callable<Integer> {
             description = "Write DIR/thumbnails/FILE.png with the flagged regions outlined (default; --no-thumbnails"
                     + " leaves them out).")
     boolean thumbnails;
+
+    @Option(names = "--pdf", negatable = true, defaultValue = "true", fallbackValue = "true",
+            description = "Write DIR/summary.pdf, the batch summary (default; --no-pdf leaves it out: a server that"
+                    + " only needs the tables). The results are the same either way.")
+    boolean summaryPdf;
 
     @Option(names = "--thumbnail-captions", description = "Give each thumbnail a small caption strip below it: the"
             + " wafer id and the quantity with its unit (no date: thumbnails stay the same between runs)."
@@ -124,12 +145,23 @@ final class InspectCommand implements Callable<Integer> {
         PrintWriter err = spec.commandLine().getErr();
         ProgressListener progress = System.console() != null ? bar(err) : lines(err);
         Rules judged = rules;
+        Path pdf = out.resolve(BatchReport.FILE_NAME);
+        Pictures pictures = Pictures.start(); // the runtime is asked once, when the first picture step is due
+        boolean captions = thumbnails && thumbnailCaptions && pictures.allows("the thumbnail captions");
         BatchInspection.Summary s;
         try {
             s = new BatchInspection(rules).withIron(ironPairs).withSource(source)
-                    .finishingWith((dir, recurrence) -> BatchReport.writeFor(dir, judged, recurrence))
+                    .finishingWith((dir, recurrence) -> {
+                        if (!summaryPdf || !pictures.run(BatchReport.FILE_NAME,
+                                () -> summaryWriter.write(dir, judged, recurrence))) {
+                            Files.deleteIfExists(pdf); // an earlier run's summary would not match these results
+                        }
+                    })
+                    .withRecurrencePictures(() -> pictures.allows(RECURRENCE_PICTURES))
+                    .recordingSummary(() -> !summaryPdf ? "off (--no-pdf)" : pictures.skipped(BatchReport.FILE_NAME)
+                            ? "missing: " + pictures.missingText() : "written")
                     .run(files, out, new BatchInspection.Options(n, resume, thumbnails, progress, overwrite)
-                            .withThumbnailCaptions(thumbnailCaptions));
+                            .withThumbnailCaptions(captions));
         } catch (RunRefusedException e) {
             throw new InputException(e.getMessage());
         } catch (BatchOutputException e) {
@@ -151,8 +183,14 @@ final class InspectCommand implements Callable<Integer> {
             err.println();
             err.flush();
         }
-        Path pdf = out.resolve(BatchReport.FILE_NAME);
-        boolean pdfWritten = true;
+        boolean pdfWritten = summaryPdf && !pictures.skipped(BatchReport.FILE_NAME);
+        Optional<String> notMade = pictures.line();
+        notMade.ifPresent(line -> {
+            err.println(spec.qualifiedName() + ": " + line + "; the results are complete"
+                    + (pictures.skipped(BatchReport.FILE_NAME) || pictures.skipped(RECURRENCE_PICTURES)
+                    ? " (once that is installed, --resume writes the missing files)" : ""));
+            err.flush();
+        });
         PrintWriter o = spec.commandLine().getOut();
         if (json) {
             Map<String, Object> m = new LinkedHashMap<>();
@@ -167,16 +205,19 @@ final class InspectCommand implements Callable<Integer> {
             if (pdfWritten) {
                 m.put("summary_pdf", pdf.toString());
             }
+            notMade.ifPresent(line -> m.put("not_made", line));
             o.println(Output.json(m));
         } else {
             o.printf(Locale.ROOT, "%d wafers: %d pass, %d fail, %d error; yield %s%s; results in %s and %s%s%n",
                     s.total(), s.pass(), s.fail(), s.error(),
                     Double.isNaN(s.yield()) ? "n/a" : String.format(Locale.ROOT, "%.1f %%", 100 * s.yield()),
                     s.skipped() > 0 ? " (" + s.skipped() + " kept from the previous run)" : "", s.csv(), s.json(),
-                    pdfWritten ? "; summary " + pdf : "");
+                    pdfWritten ? "; summary " + pdf : !summaryPdf ? "; no summary PDF (--no-pdf)"
+                            : "; summary PDF missing (see the line above)");
         }
         o.flush();
-        return s.pass() == s.total() ? Exit.OK : Exit.SOME_WAFERS_NOT_PASSED;
+        return notMade.isPresent() ? Exit.REPORT_MISSING
+                : s.pass() == s.total() ? Exit.OK : Exit.SOME_WAFERS_NOT_PASSED;
     }
 
     /**

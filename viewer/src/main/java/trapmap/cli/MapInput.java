@@ -105,6 +105,13 @@ final class MapInput {
             MapFiles.write(map, file);
         } catch (IOException e) {
             throw new OutputException(file + ": cannot write: " + Flags.oneLine(e.getMessage()), e);
+        } catch (RuntimeException | Error e) { // a picture (.png) needs fonts for its colour bar and caption
+            java.util.Optional<trapmap.maps.io.Rendering.Missing> m = e instanceof VirtualMachineError
+                    ? java.util.Optional.empty() : trapmap.maps.io.Rendering.failure(e);
+            if (m.isEmpty()) {
+                throw e;
+            }
+            throw new Pictures.NotMade(file + " was not made: " + m.get().text());
         }
     }
 

@@ -29,7 +29,9 @@ import trapmap.viewer.report.WaferPages;
                 + " verdict and the caution. Needs no display.",
             ""},
         footer = {"", "Exit codes: 0 the wafer passes; 1 it fails; 2 invalid input (map, rules file, options) or a map"
-                + " that cannot be judged; 3 internal error."})
+                + " that cannot be judged; 3 internal error; 5 the wafer was judged (the verdict is printed) but the"
+                + " PDF could not be made: this Java runtime lacks font libraries, fonts or a display (one line names"
+                + " what and the packages to install)."})
 final class ReportCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
@@ -67,9 +69,11 @@ final class ReportCommand implements Callable<Integer> {
             throw new InputException("-o " + out + " must name a .pdf file");
         }
         WaferPages.Written v;
+        Pictures pictures = Pictures.start();
+        String page = out.getFileName().toString();
         try {
             v = WaferPages.write(map, rulesFile, quantity, defect, out,
-                    physics == null ? null : PhysicsOption.load(physics));
+                    physics == null ? null : PhysicsOption.load(physics), step -> pictures.run(page, step::write));
         } catch (RulesException e) {
             throw new InputException("--rules " + e.getMessage());
         } catch (InvalidValueException e) {
@@ -79,12 +83,20 @@ final class ReportCommand implements Callable<Integer> {
                 default -> "";
             } + e.getMessage());
         }
+        if (!v.written()) {
+            PrintWriter err = spec.commandLine().getErr();
+            err.println(spec.qualifiedName() + ": " + pictures.line().orElse(page + " was not made"));
+            err.flush();
+        }
         PrintWriter o = spec.commandLine().getOut();
         o.println(map.getFileName() + ": " + v.headline() + " (" + v.basis() + ")"
                 + (v.failedRules().isEmpty() ? "" : "; failed " + String.join(", ", v.failedRules()))
                 + (v.gradedDownBy().isEmpty() ? "" : "; graded down by " + String.join(", ", v.gradedDownBy()))
-                + "; report: " + out);
+                + (v.written() ? "; report: " + out : "; no report (see the line above)"));
         o.flush();
+        if (!v.written()) {
+            return Exit.REPORT_MISSING;
+        }
         return v.pass() ? Exit.OK : Exit.SOME_WAFERS_NOT_PASSED;
     }
 }

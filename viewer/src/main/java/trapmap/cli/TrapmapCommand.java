@@ -129,6 +129,16 @@ public final class TrapmapCommand implements Callable<Integer> {
         ConvertCommand.warmUpEarly(args);
     }
 
+    /**
+     * Every command but the viewer's ({@code view}, or no command) runs Java headless unless told otherwise: its
+     * pictures and PDFs need no display, and a {@code DISPLAY} that does not answer would make them fail.
+     */
+    static void headless(String... args) {
+        if (args.length > 0 && !args[0].equals("view")) {
+            trapmap.maps.io.Rendering.headlessUnlessSet();
+        }
+    }
+
     /** Runs {@code trapmap args} and returns the exit code. */
     public static int run(PrintWriter out, PrintWriter err, String... args) {
         int code = commandLine(out, err, args).execute(args);
@@ -141,6 +151,7 @@ public final class TrapmapCommand implements Callable<Integer> {
         if (QuickHelp.print(args, System.out)) { // the root help or the version, as picocli prints it
             System.exit(Exit.OK);
         }
+        headless(args);
         prepare(args);
         PrintWriter out = new PrintWriter(new OutputStreamWriter(System.out, StandardCharsets.UTF_8), true);
         PrintWriter err = new PrintWriter(new OutputStreamWriter(System.err, StandardCharsets.UTF_8), true);

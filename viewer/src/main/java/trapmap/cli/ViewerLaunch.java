@@ -109,7 +109,9 @@ final class ViewerLaunch {
         String[] args = {"inspect", demo.toString(), "--rules", demo.resolve(RULES).toString(), "--out",
             report.toString()};
         int code = TrapmapCommand.commandLine(out, err, args).execute(args);
-        out.println("report: " + report.resolve("summary.pdf") + " (and results.csv, results.json, regions.csv,"
+        out.println(code == Exit.REPORT_MISSING ? "results: " + report + " (results.csv, results.json, regions.csv,"
+                + " thumbnails, recurrence maps; no summary.pdf, see above)"
+                : "report: " + report.resolve("summary.pdf") + " (and results.csv, results.json, regions.csv,"
                 + " thumbnails, recurrence maps in " + report + ")");
         out.flush();
         return code == Exit.SOME_WAFERS_NOT_PASSED ? Exit.OK : code;

@@ -197,6 +197,10 @@ public final class BatchInspection {
     private RecurrenceFinisher finisher;
     /** The recurrence of the last {@link #inspectAll}, handed to the summary step. */
     private RecurrenceMap builtRecurrence;
+    /** Whether the recurrence pictures are drawn, asked once when they are due; null: always. */
+    private java.util.function.BooleanSupplier recurrencePictures;
+    /** What {@code run.json} records about the summary once the finisher ran; null: nothing. */
+    private java.util.function.Supplier<String> summaryRecord;
 
     public BatchInspection(Rules rules) {
         this(rules, MapFiles::readSingle);
@@ -249,6 +253,25 @@ public final class BatchInspection {
     }
 
     /**
+     * Draws the recurrence pictures ({@code recurrence-FAMILY.png}) only when {@code draw} says so, asked once when
+     * they are due (a runtime that cannot draw text skips them; the recurrence maps and table are written all the
+     * same). Returns this batch.
+     */
+    public BatchInspection withRecurrencePictures(java.util.function.BooleanSupplier draw) {
+        this.recurrencePictures = draw;
+        return this;
+    }
+
+    /**
+     * Records {@code outcome}'s text as {@code summary_pdf} in the complete {@code run.json}, asked after the
+     * finisher ran ("written", or why it is missing). Returns this batch.
+     */
+    public BatchInspection recordingSummary(java.util.function.Supplier<String> outcome) {
+        this.summaryRecord = outcome;
+        return this;
+    }
+
+    /**
      * True for the name of a file or folder that a batch writes into its output folder (results, regions,
      * footprints, recurrence maps and table, thumbnails, partial and temporary files), so that a folder scanned for
      * maps can leave a batch's own outputs out.
@@ -296,7 +319,8 @@ public final class BatchInspection {
                 if (finisher != null) {
                     finisher.finish(outDir, builtRecurrence);
                 }
-                manifest.with(RunManifest.State.COMPLETE, java.time.Instant.now()).write(outDir);
+                manifest.with(RunManifest.State.COMPLETE, java.time.Instant.now())
+                        .withSummaryPdf(summaryRecord == null ? null : summaryRecord.get()).write(outDir);
                 return s;
             } catch (IOException e) {
                 throw BatchOutputException.of(outDir, e);
@@ -517,15 +541,21 @@ public final class BatchInspection {
         List<Path> written = new ArrayList<>();
         Map<String, Integer> wafersPerFamily = recurrence.waferCounts();
         StringBuilder families = new StringBuilder(String.join(",", RECURRENCE_COLUMNS)).append('\n');
+        boolean pictures = recurrence.families().isEmpty() || recurrencePictures == null
+                || recurrencePictures.getAsBoolean();
         for (Map.Entry<String, Recurrence> e : recurrence.families().entrySet()) {
             String stem = RECURRENCE_PREFIX + e.getKey().replaceAll("[^A-Za-z0-9._-]", "_");
             Path tif = outDir.resolve(stem + ".tif");
             OutputFolder.write(tif, () -> MapFiles.write(e.getValue().fraction(), tif));
-            Path png = outDir.resolve(stem + ".png");
-            OutputFolder.write(png, () -> RecurrencePicture.write(e.getValue(),
-                    HotSpots.find(e.getValue(), HotSpots.Criteria.DEFAULT), png));
             written.add(tif);
-            written.add(png);
+            Path png = outDir.resolve(stem + ".png");
+            if (pictures) {
+                OutputFolder.write(png, () -> RecurrencePicture.write(e.getValue(),
+                        HotSpots.find(e.getValue(), HotSpots.Criteria.DEFAULT), png));
+                written.add(png);
+            } else { // an earlier run's picture would not match this map
+                OutputFolder.write(png, () -> Files.deleteIfExists(png));
+            }
             families.append(CSVFormat.DEFAULT.format(CsvCells.text(e.getKey()), wafersPerFamily.get(e.getKey()),
                             CsvCells.text(stem + ".tif")))
                     .append('\n');

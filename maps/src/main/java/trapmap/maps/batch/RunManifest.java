@@ -43,10 +43,14 @@ import trapmap.physics.conversion.PhysicsSettings;
  * @param inputsSha256 SHA-256 of the input files' absolute paths, one per line, in input order
  * @param thumbnails   whether thumbnails were written
  * @param thumbnailCaptions whether the thumbnails carry a caption strip
+ * @param summaryPdf   what became of the summary PDF once the run was complete ("written", or why it is missing:
+ *                     switched off, or what the Java runtime lacked); null while running and when the program said
+ *                     nothing; never compared by {@link #differences}, so a resumed run may make the PDF
  */
 public record RunManifest(String version, State state, Instant started, Instant resumed, Instant finished,
                           String rulesFile, String rulesSha256, Map<String, Object> physics, String physicsSha256,
-                          int inputs, String inputsSha256, boolean thumbnails, boolean thumbnailCaptions) {
+                          int inputs, String inputsSha256, boolean thumbnails, boolean thumbnailCaptions,
+                          String summaryPdf) {
     /** The file name in the output folder. */
     public static final String FILE_NAME = "run.json";
     static final String FORMAT = "trapmap-run/1";
@@ -95,18 +99,25 @@ public record RunManifest(String version, State state, Instant started, Instant 
         }
         return new RunManifest(source.version(), State.RUNNING, now, null, null, source.rulesFile(),
                 source.rulesSha256(), p, sha256(compact(p).getBytes(StandardCharsets.UTF_8)), inputs.size(),
-                sha256(list.toString().getBytes(StandardCharsets.UTF_8)), thumbnails, thumbnails && thumbnailCaptions);
+                sha256(list.toString().getBytes(StandardCharsets.UTF_8)), thumbnails, thumbnails && thumbnailCaptions,
+                null);
     }
 
     /** This run resumed at {@code now}: the first start time of {@code earlier} is kept. */
     RunManifest resumedFrom(RunManifest earlier, Instant now) {
         return new RunManifest(version, State.RUNNING, earlier.started(), now, null, rulesFile, rulesSha256, physics,
-                physicsSha256, inputs, inputsSha256, thumbnails, thumbnailCaptions);
+                physicsSha256, inputs, inputsSha256, thumbnails, thumbnailCaptions, null);
     }
 
     RunManifest with(State s, Instant finishedAt) {
         return new RunManifest(version, s, started, resumed, finishedAt, rulesFile, rulesSha256, physics,
-                physicsSha256, inputs, inputsSha256, thumbnails, thumbnailCaptions);
+                physicsSha256, inputs, inputsSha256, thumbnails, thumbnailCaptions, summaryPdf);
+    }
+
+    /** This record with {@code summary_pdf} set to {@code text} (null: left out). */
+    RunManifest withSummaryPdf(String text) {
+        return new RunManifest(version, state, started, resumed, finished, rulesFile, rulesSha256, physics,
+                physicsSha256, inputs, inputsSha256, thumbnails, thumbnailCaptions, text);
     }
 
     /**
@@ -163,6 +174,9 @@ public record RunManifest(String version, State state, Instant started, Instant 
         m.put("inputs_sha256", inputsSha256);
         m.put("thumbnails", thumbnails);
         m.put("thumbnail_captions", thumbnailCaptions);
+        if (summaryPdf != null) {
+            m.put("summary_pdf", summaryPdf);
+        }
         byte[] bytes = JSON.writeValueAsBytes(m);
         Path file = dir.resolve(FILE_NAME);
         OutputFolder.write(file, () -> AtomicFiles.write(file, bytes));
@@ -191,7 +205,8 @@ public record RunManifest(String version, State state, Instant started, Instant 
                     Instant.parse(text(m, "started")), instant(m, "resumed"), instant(m, "finished"),
                     text(m, "rules_file"), text(m, "rules_sha256"), physics, text(m, "physics_sha256"),
                     ((Number) m.get("inputs")).intValue(), text(m, "inputs_sha256"),
-                    Boolean.TRUE.equals(m.get("thumbnails")), Boolean.TRUE.equals(m.get("thumbnail_captions")));
+                    Boolean.TRUE.equals(m.get("thumbnails")), Boolean.TRUE.equals(m.get("thumbnail_captions")),
+                    m.get("summary_pdf") instanceof String t ? t : null);
         } catch (RuntimeException e) {
             throw new IOException(file + ": not a run record (" + e.getMessage() + ")", e);
         }

@@ -35,9 +35,28 @@ public final class WaferPages {
      * @param basis        rules file, profile and defect (and whether it was overridden)
      * @param failedRules  figures outside their limits
      * @param gradedDownBy figures that kept a passing wafer from a better grade
+     * @param written      whether the page was written (false: the {@link Drawing} skipped it)
      */
     public record Written(boolean pass, String headline, String basis, List<String> failedRules,
-                          List<String> gradedDownBy) {
+                          List<String> gradedDownBy, boolean written) {
+    }
+
+    /** Runs the step that draws and writes the page, or skips it; says whether it ran to its end. */
+    @FunctionalInterface
+    public interface Drawing {
+        boolean draw(Page page) throws IOException;
+
+        /** Always draws. */
+        Drawing ALWAYS = page -> {
+            page.write();
+            return true;
+        };
+    }
+
+    /** Drawing and writing the page. */
+    @FunctionalInterface
+    public interface Page {
+        void write() throws IOException;
     }
 
     /**
@@ -64,6 +83,17 @@ public final class WaferPages {
      */
     public static Written write(Path map, Path rulesFile, String quantityKey, String defectOverride, Path pdf,
                                 trapmap.physics.conversion.PhysicsSettings physics)
+            throws IOException, RulesException {
+        return write(map, rulesFile, quantityKey, defectOverride, pdf, physics, Drawing.ALWAYS);
+    }
+
+    /**
+     * As {@link #write(Path, Path, String, String, Path, trapmap.physics.conversion.PhysicsSettings)}, the page drawn
+     * through {@code drawing}, which may skip it (a runtime that cannot draw text): the judgement is made and returned
+     * either way.
+     */
+    public static Written write(Path map, Path rulesFile, String quantityKey, String defectOverride, Path pdf,
+                                trapmap.physics.conversion.PhysicsSettings physics, Drawing drawing)
             throws IOException, RulesException {
         DisplayedQuantity q;
         try {
@@ -93,9 +123,10 @@ public final class WaferPages {
         if (r == null) {
             throw new InvalidValueException("map", "", model.wafer(0).error());
         }
-        WaferReport.write(of(model.wafer(0).path(), r, null, model.defectOf(r)), pdf);
+        boolean written = drawing.draw(() -> WaferReport.write(of(model.wafer(0).path(), r, null, model.defectOf(r)),
+                pdf));
         Verdict v = r.verdict();
-        return new Written(v.pass(), v.headline(), v.basis(), v.failedRules(), v.gradedDownBy());
+        return new Written(v.pass(), v.headline(), v.basis(), v.failedRules(), v.gradedDownBy(), written);
     }
 
     /**
