@@ -95,6 +95,8 @@ final class InspectCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws IOException, InterruptedException {
+        long callStart = System.currentTimeMillis();
+        long startCpu = PhaseTimes.wanted() ? BatchInspection.processCpuNanos() : -1;
         int n = threads == null ? Runtime.getRuntime().availableProcessors() : threads;
         if (n < 1 || n > 256) {
             throw new InputException("--threads must be in [1, 256] (got " + n + ")");
@@ -125,9 +127,11 @@ final class InspectCommand implements Callable<Integer> {
         ProgressListener progress = System.console() != null ? bar(err) : lines(err);
         Rules judged = rules;
         BatchInspection.Summary s;
+        BatchInspection batch = new BatchInspection(rules);
         try {
-            s = new BatchInspection(rules).withIron(ironPairs).withSource(source)
+            s = batch.withIron(ironPairs).withSource(source)
                     .finishingWith((dir, recurrence) -> BatchReport.writeFor(dir, judged, recurrence))
+                    .warmingUp(() -> BatchReport.warmUp(judged))
                     .run(files, out, new BatchInspection.Options(n, resume, thumbnails, progress, overwrite)
                             .withThumbnailCaptions(thumbnailCaptions));
         } catch (RunRefusedException e) {
@@ -176,6 +180,7 @@ final class InspectCommand implements Callable<Integer> {
                     pdfWritten ? "; summary " + pdf : "");
         }
         o.flush();
+        PhaseTimes.print(err, callStart, startCpu, batch.lastPhases());
         return s.pass() == s.total() ? Exit.OK : Exit.SOME_WAFERS_NOT_PASSED;
     }
 

@@ -1,8 +1,23 @@
 package trapmap.viewer.report;
 
+import java.awt.image.BufferedImage;
 import java.io.IOException;
+import java.io.OutputStream;
+import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.BitSet;
+import java.util.Comparator;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.stream.Stream;
+import javax.imageio.ImageIO;
 import org.apache.pdfbox.pdmodel.PDDocument;
+import trapmap.maps.batch.BatchInspection;
+import trapmap.maps.batch.Figure;
+import trapmap.maps.batch.Footprint;
+import trapmap.maps.batch.HotSpots;
 import trapmap.maps.batch.RecurrenceMap;
 import trapmap.maps.batch.Rules;
 import trapmap.maps.io.AtomicFiles;
@@ -68,22 +83,79 @@ public final class BatchReport {
     /** Writes the summary into {@code pdf} (atomically). */
     public static void write(BatchContent c, Path pdf) throws IOException {
         AtomicFiles.write(pdf, tmp -> {
-            try (PDDocument doc = new PDDocument(); ReportFlow flow = new ReportFlow(doc)) {
-                doc.getDocumentInformation().setTitle("Batch inspection summary");
-                doc.getDocumentInformation().setCreator("trapmap");
-                SummarySection.draw(flow, c);
-                ProfileSection.drawAll(flow, c);
-                WaferTable.draw(flow, c);
-                FailedWafersSection.draw(flow, c);
-                RecurrenceSection.drawAll(flow, c);
-                ErrorSection.draw(flow, c);
-                flow.down(8);
-                flow.caution(Caution.TEXT);
-                flow.close();
-                PdfPage.footers(doc, "trapmap batch summary - " + PdfPage.clean(c.outputDir().toString()) + " - "
-                        + SummarySection.DATE.format(c.created()));
+            try (PDDocument doc = new PDDocument()) {
+                draw(doc, c);
                 doc.save(tmp.toFile());
             }
         });
+    }
+
+    private static void draw(PDDocument doc, BatchContent c) throws IOException {
+        try (ReportFlow flow = new ReportFlow(doc)) {
+            doc.getDocumentInformation().setTitle("Batch inspection summary");
+            doc.getDocumentInformation().setCreator("trapmap");
+            SummarySection.draw(flow, c);
+            ProfileSection.drawAll(flow, c);
+            WaferTable.draw(flow, c);
+            FailedWafersSection.draw(flow, c);
+            RecurrenceSection.drawAll(flow, c);
+            ErrorSection.draw(flow, c);
+            flow.down(8);
+            flow.caution(Caution.TEXT);
+            flow.close();
+            PdfPage.footers(doc, "trapmap batch summary - " + PdfPage.clean(c.outputDir().toString()) + " - "
+                    + SummarySection.DATE.format(c.created()));
+        }
+    }
+
+    /**
+     * The summary's first-use work (fonts loaded into a document, charts, tables, a thumbnail embedded; the classes
+     * loaded and compiled) done on a made-up batch of three wafers under {@code rules} (a pass, a fail with its
+     * thumbnail, an error) and a small recurrence map, drawn and saved into nothing; its thumbnail lies in a temporary
+     * folder that is removed again. Run beside a batch's workers ({@code BatchInspection.warmingUp}), it leaves the
+     * summary written after the last wafer only its own work. Writes no file of any batch.
+     */
+    public static void warmUp(Rules rules) throws IOException {
+        Path dir = Files.createTempDirectory("trapmap-summary-warm-up");
+        try {
+            Path thumbs = Files.createDirectories(dir.resolve(BatchInspection.THUMBNAIL_DIR));
+            BufferedImage thumb = new BufferedImage(16, 16, BufferedImage.TYPE_INT_RGB);
+            ImageIO.write(thumb, "png", thumbs.resolve("warm-up-2.tif.png").toFile());
+            Map<String, Double> pass = new LinkedHashMap<>();
+            Map<String, Double> fail = new LinkedHashMap<>();
+            List<String> figures = new ArrayList<>();
+            double v = 1;
+            for (Figure f : rules.figures()) {
+                pass.put(f.name(), v);
+                fail.put(f.name(), 3 * v + 0.5);
+                figures.add(f.name());
+                v *= 1.7;
+            }
+            String profile = rules.allProfiles().isEmpty() ? "default" : rules.allProfiles().get(0).name();
+            List<BatchContent.Row> rows = List.of(
+                    new BatchContent.Row(dir.resolve("warm-up-1.tif").toString(), "W-1", "pass", "A", profile, "",
+                            pass, List.of(), Double.NaN, Double.NaN, Double.NaN, Double.NaN, ""),
+                    new BatchContent.Row(dir.resolve("warm-up-2.tif").toString(), "W-2", "fail", "C", profile, "",
+                            fail, figures.isEmpty() ? List.of() : List.of(figures.get(0)), 12.5, 10, -20, 3.5, ""),
+                    new BatchContent.Row(dir.resolve("warm-up-3.tif").toString(), "", "error", "", "", "",
+                            Map.of(), List.of(), Double.NaN, Double.NaN, Double.NaN, Double.NaN, "unreadable"));
+            BitSet covered = new BitSet();
+            covered.set(0, 64);
+            BitSet flagged = new BitSet();
+            flagged.set(18, 22);
+            RecurrenceMap recurrence = new RecurrenceMap();
+            recurrence.add(new Footprint("warm-up", Footprint.PITCH_MM, -4, -4, 8, 8, covered, flagged));
+            BatchContent c = new BatchContent(dir, rules, rows, recurrence.families(), null, HotSpots.Criteria.DEFAULT);
+            try (PDDocument doc = new PDDocument()) {
+                draw(doc, c);
+                doc.save(OutputStream.nullOutputStream());
+            }
+        } finally {
+            try (Stream<Path> all = Files.walk(dir)) {
+                for (Path p : all.sorted(Comparator.reverseOrder()).toList()) {
+                    Files.deleteIfExists(p);
+                }
+            }
+        }
     }
 }

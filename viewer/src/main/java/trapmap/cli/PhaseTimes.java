@@ -1,0 +1,49 @@
+package trapmap.cli;
+
+import java.io.PrintWriter;
+import java.util.Locale;
+import trapmap.maps.batch.BatchInspection;
+
+/**
+ * The times of the parts of an {@code inspect} run, printed to the error stream as one line when the Java system
+ * property {@value #PROPERTY} is {@code true} ({@code JAVA_OPTS=-Dtrapmap.phaseTimes=true}), for
+ * {@code scripts/bench-inspect}: the wall-clock milliseconds since the epoch when the command started and ended
+ * (so that a caller that knows when it started the process gets the start-up and the exit), and the milliseconds
+ * of each part of the batch ({@link BatchInspection.Phases}).
+ */
+final class PhaseTimes {
+    static final String PROPERTY = "trapmap.phaseTimes";
+
+    private PhaseTimes() {
+    }
+
+    static boolean wanted() {
+        return Boolean.getBoolean(PROPERTY);
+    }
+
+    /**
+     * One line: {@code inspect phase times: call_start_ms=… start_cpu_ms=… prepare_ms=… inspection_ms=… tables_ms=…
+     * summary_ms=… writer_busy_ms=… prepare_cpu_ms=… tables_cpu_ms=… summary_cpu_ms=… call_end_ms=…}, where
+     * {@code start_cpu_ms} is the process's CPU time (all threads) when the command started and the {@code _cpu_ms}
+     * figures that of the phase (-1: not known).
+     */
+    static String line(long callStartEpochMs, long startCpuNanos, BatchInspection.Phases p, long callEndEpochMs) {
+        return String.format(Locale.ROOT, "inspect phase times: call_start_ms=%d start_cpu_ms=%.1f prepare_ms=%.1f"
+                        + " inspection_ms=%.1f tables_ms=%.1f summary_ms=%.1f writer_busy_ms=%.1f prepare_cpu_ms=%.1f"
+                        + " tables_cpu_ms=%.1f summary_cpu_ms=%.1f call_end_ms=%d",
+                callStartEpochMs, ms(startCpuNanos), ms(p.prepareNanos()), ms(p.inspectionNanos()),
+                ms(p.tablesNanos()), ms(p.summaryNanos()), ms(p.writerBusyNanos()), ms(p.prepareCpuNanos()),
+                ms(p.tablesCpuNanos()), ms(p.summaryCpuNanos()), callEndEpochMs);
+    }
+
+    private static double ms(long nanos) {
+        return nanos < 0 ? -1 : nanos / 1e6;
+    }
+
+    static void print(PrintWriter err, long callStartEpochMs, long startCpuNanos, BatchInspection.Phases p) {
+        if (wanted()) {
+            err.println(line(callStartEpochMs, startCpuNanos, p, System.currentTimeMillis()));
+            err.flush();
+        }
+    }
+}
