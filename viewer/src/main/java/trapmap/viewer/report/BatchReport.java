@@ -108,37 +108,46 @@ public final class BatchReport {
         }
     }
 
+    /** Made-up wafers of {@link #warmUp}: enough rows for the table and chart code to be compiled. */
+    static final int WARM_UP_WAFERS = 120;
+
     /**
-     * The summary's first-use work (fonts loaded into a document, charts, tables, a thumbnail embedded; the classes
-     * loaded and compiled) done on a made-up batch of three wafers under {@code rules} (a pass, a fail with its
-     * thumbnail, an error) and a small recurrence map, drawn and saved into nothing; its thumbnail lies in a temporary
-     * folder that is removed again. Run beside a batch's workers ({@code BatchInspection.warmingUp}), it leaves the
+     * The summary's first-use work (fonts loaded into a document, charts, tables, thumbnails embedded; the classes
+     * loaded and compiled) done on a made-up batch of {@value #WARM_UP_WAFERS} wafers under {@code rules} (passes,
+     * fails with thumbnails, errors) and a small recurrence map, drawn and saved into nothing; the thumbnails lie in a
+     * temporary folder that is removed again. Run beside a batch's workers ({@code BatchInspection.warmingUp}), it leaves the
      * summary written after the last wafer only its own work. Writes no file of any batch.
      */
     public static void warmUp(Rules rules) throws IOException {
         Path dir = Files.createTempDirectory("trapmap-summary-warm-up");
         try {
             Path thumbs = Files.createDirectories(dir.resolve(BatchInspection.THUMBNAIL_DIR));
-            BufferedImage thumb = new BufferedImage(16, 16, BufferedImage.TYPE_INT_RGB);
-            ImageIO.write(thumb, "png", thumbs.resolve("warm-up-2.tif.png").toFile());
-            Map<String, Double> pass = new LinkedHashMap<>();
-            Map<String, Double> fail = new LinkedHashMap<>();
-            List<String> figures = new ArrayList<>();
-            double v = 1;
-            for (Figure f : rules.figures()) {
-                pass.put(f.name(), v);
-                fail.put(f.name(), 3 * v + 0.5);
-                figures.add(f.name());
-                v *= 1.7;
-            }
+            List<String> figures = rules.figures().stream().map(Figure::name).toList();
             String profile = rules.allProfiles().isEmpty() ? "default" : rules.allProfiles().get(0).name();
-            List<BatchContent.Row> rows = List.of(
-                    new BatchContent.Row(dir.resolve("warm-up-1.tif").toString(), "W-1", "pass", "A", profile, "",
-                            pass, List.of(), Double.NaN, Double.NaN, Double.NaN, Double.NaN, ""),
-                    new BatchContent.Row(dir.resolve("warm-up-2.tif").toString(), "W-2", "fail", "C", profile, "",
-                            fail, figures.isEmpty() ? List.of() : List.of(figures.get(0)), 12.5, 10, -20, 3.5, ""),
-                    new BatchContent.Row(dir.resolve("warm-up-3.tif").toString(), "", "error", "", "", "",
-                            Map.of(), List.of(), Double.NaN, Double.NaN, Double.NaN, Double.NaN, "unreadable"));
+            List<BatchContent.Row> rows = new ArrayList<>();
+            for (int i = 0; i < WARM_UP_WAFERS; i++) {
+                String file = dir.resolve("warm-up-" + i + ".tif").toString();
+                if (i % 10 == 9) {
+                    rows.add(new BatchContent.Row(file, "", "error", "", "", "", Map.of(), List.of(), Double.NaN,
+                            Double.NaN, Double.NaN, Double.NaN, "unreadable"));
+                    continue;
+                }
+                boolean fail = i % 3 == 0;
+                Map<String, Double> values = new LinkedHashMap<>();
+                double v = 1 + 0.37 * i;
+                for (String f : figures) {
+                    values.put(f, fail ? 3 * v + 0.5 : v);
+                    v *= 1.7;
+                }
+                if (fail && i < 3 * FailedWafersSection.SHOWN) {
+                    BufferedImage thumb = new BufferedImage(64, 64, BufferedImage.TYPE_INT_RGB);
+                    ImageIO.write(thumb, "png", thumbs.resolve("warm-up-" + i + ".tif.png").toFile());
+                }
+                rows.add(new BatchContent.Row(file, "W-" + i, fail ? "fail" : "pass", fail ? "C" : "A", profile, "",
+                        values, fail && !figures.isEmpty() ? List.of(figures.get(i % figures.size())) : List.of(),
+                        fail ? 2.5 + i : Double.NaN, fail ? 10 - i % 20 : Double.NaN, fail ? i % 30 - 15 : Double.NaN,
+                        fail ? 3.5 : Double.NaN, ""));
+            }
             BitSet covered = new BitSet();
             covered.set(0, 64);
             BitSet flagged = new BitSet();
