@@ -96,7 +96,7 @@ final class InspectCommand implements Callable<Integer> {
     @Override
     public Integer call() throws IOException, InterruptedException {
         long callStart = System.currentTimeMillis();
-        long startCpu = PhaseTimes.wanted() ? BatchInspection.processCpuNanos() : -1;
+        long[] startCpu = PhaseTimes.startCpu();
         int n = threads == null ? Runtime.getRuntime().availableProcessors() : threads;
         if (n < 1 || n > 256) {
             throw new InputException("--threads must be in [1, 256] (got " + n + ")");

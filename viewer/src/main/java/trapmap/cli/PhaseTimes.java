@@ -22,27 +22,38 @@ final class PhaseTimes {
     }
 
     /**
-     * One line: {@code inspect phase times: call_start_ms=… start_cpu_ms=… prepare_ms=… inspection_ms=… tables_ms=…
-     * summary_ms=… writer_busy_ms=… prepare_cpu_ms=… tables_cpu_ms=… summary_cpu_ms=… call_end_ms=…}, where
-     * {@code start_cpu_ms} is the process's CPU time (all threads) when the command started and the {@code _cpu_ms}
-     * figures that of the phase (-1: not known).
+     * One line: {@code inspect phase times: call_start_ms=… start_process_cpu_ms=… start_cpu_ms=… prepare_ms=…
+     * inspection_ms=… tables_ms=… summary_ms=… writer_busy_ms=… prepare_cpu_ms=… tables_cpu_ms=… summary_cpu_ms=…
+     * worker_cpu_ms=… call_end_ms=…}, where {@code start_process_cpu_ms} is the process's CPU time (all threads) when the command
+     * started, {@code start_cpu_ms} that of the command's thread (which started the JVM) and the other
+     * {@code _cpu_ms} figures that thread's CPU time in the phase, and {@code worker_cpu_ms} the workers' CPU time in
+     * all (-1: not known).
      */
-    static String line(long callStartEpochMs, long startCpuNanos, BatchInspection.Phases p, long callEndEpochMs) {
-        return String.format(Locale.ROOT, "inspect phase times: call_start_ms=%d start_cpu_ms=%.1f prepare_ms=%.1f"
-                        + " inspection_ms=%.1f tables_ms=%.1f summary_ms=%.1f writer_busy_ms=%.1f prepare_cpu_ms=%.1f"
-                        + " tables_cpu_ms=%.1f summary_cpu_ms=%.1f call_end_ms=%d",
-                callStartEpochMs, ms(startCpuNanos), ms(p.prepareNanos()), ms(p.inspectionNanos()),
+    static String line(long callStartEpochMs, long startProcessCpuNanos, long startCpuNanos, BatchInspection.Phases p,
+                       long callEndEpochMs) {
+        return String.format(Locale.ROOT, "inspect phase times: call_start_ms=%d start_process_cpu_ms=%.1f"
+                        + " start_cpu_ms=%.1f prepare_ms=%.1f inspection_ms=%.1f tables_ms=%.1f summary_ms=%.1f"
+                        + " writer_busy_ms=%.1f prepare_cpu_ms=%.1f tables_cpu_ms=%.1f summary_cpu_ms=%.1f"
+                        + " worker_cpu_ms=%.1f call_end_ms=%d",
+                callStartEpochMs, ms(startProcessCpuNanos), ms(startCpuNanos), ms(p.prepareNanos()),
+                ms(p.inspectionNanos()),
                 ms(p.tablesNanos()), ms(p.summaryNanos()), ms(p.writerBusyNanos()), ms(p.prepareCpuNanos()),
-                ms(p.tablesCpuNanos()), ms(p.summaryCpuNanos()), callEndEpochMs);
+                ms(p.tablesCpuNanos()), ms(p.summaryCpuNanos()), ms(p.workerCpuNanos()), callEndEpochMs);
     }
 
     private static double ms(long nanos) {
         return nanos < 0 ? -1 : nanos / 1e6;
     }
 
-    static void print(PrintWriter err, long callStartEpochMs, long startCpuNanos, BatchInspection.Phases p) {
+    /** The process's and this thread's CPU time now, when wanted (else -1s). */
+    static long[] startCpu() {
+        return wanted() ? new long[] {BatchInspection.processCpuNanos(), BatchInspection.threadCpuNanos()}
+                : new long[] {-1, -1};
+    }
+
+    static void print(PrintWriter err, long callStartEpochMs, long[] startCpu, BatchInspection.Phases p) {
         if (wanted()) {
-            err.println(line(callStartEpochMs, startCpuNanos, p, System.currentTimeMillis()));
+            err.println(line(callStartEpochMs, startCpu[0], startCpu[1], p, System.currentTimeMillis()));
             err.flush();
         }
     }

@@ -199,9 +199,10 @@ public final class BatchInspection {
     }
 
     /**
-     * Times of the parts of a run ({@link #lastPhases()}), nanoseconds: wall clock, and the CPU time of the whole
-     * process (all threads, {@link ProcessHandle.Info#totalCpuDuration}; -1 where the system does not tell) in the
-     * parts other than the inspection, which run on the calling thread alone.
+     * Times of the parts of a run ({@link #lastPhases()}), nanoseconds: wall clock, and in the parts other than the
+     * inspection, which run on the calling thread alone, that thread's CPU time ({@link #threadCpuNanos}; -1 where
+     * the system does not tell): on idle cores, what these parts take when no other thread keeps them waiting (the
+     * JIT compiler's and collector's threads run beside them).
      *
      * @param prepareNanos    taking and checking the folder, the run record, rows kept from a resumed run, up to
      *                        the first map handed to a worker
@@ -211,18 +212,34 @@ public final class BatchInspection {
      * @param summaryNanos    the {@linkplain #finishingWith finisher} (the summary) and the run recorded complete
      * @param writerBusyNanos within the inspection: the time the writer of the tables spent writing rows (not waiting
      *                        for results)
-     * @param prepareCpuNanos process CPU time in the preparation
-     * @param tablesCpuNanos  process CPU time in the tables part
-     * @param summaryCpuNanos process CPU time in the summary part
+     * @param prepareCpuNanos the calling thread's CPU time in the preparation
+     * @param tablesCpuNanos  the calling thread's CPU time in the tables part
+     * @param summaryCpuNanos the calling thread's CPU time in the summary part
+     * @param workerCpuNanos  the workers' CPU time in all, inspecting and formatting the wafers (their threads' CPU
+     *                        time from the start to the end of each wafer, summed)
      */
     public record Phases(long prepareNanos, long inspectionNanos, long tablesNanos, long summaryNanos,
-                        long writerBusyNanos, long prepareCpuNanos, long tablesCpuNanos, long summaryCpuNanos) {
-        public static final Phases NONE = new Phases(0, 0, 0, 0, 0, 0, 0, 0);
+                        long writerBusyNanos, long prepareCpuNanos, long tablesCpuNanos, long summaryCpuNanos,
+                        long workerCpuNanos) {
+        public static final Phases NONE = new Phases(0, 0, 0, 0, 0, 0, 0, 0, 0);
     }
 
     /** CPU time of this process so far (all threads), nanoseconds; -1 where the system does not tell. */
     public static long processCpuNanos() {
         return ProcessHandle.current().info().totalCpuDuration().map(java.time.Duration::toNanos).orElse(-1L);
+    }
+
+    /**
+     * CPU time of the calling thread so far, nanoseconds, from Linux's {@code /proc/thread-self/schedstat} (its
+     * first field: time on a CPU, ns); -1 elsewhere.
+     */
+    public static long threadCpuNanos() {
+        try {
+            String s = Files.readString(Path.of("/proc/thread-self/schedstat"), StandardCharsets.US_ASCII);
+            return Long.parseLong(s.substring(0, s.indexOf(' ')));
+        } catch (IOException | RuntimeException e) {
+            return -1;
+        }
     }
 
     private static long cpuBetween(long from, long to) {
@@ -298,11 +315,13 @@ public final class BatchInspection {
     private long startedAt;
     private long inspectingFrom;
     private long inspectedAt;
-    /** {@link #processCpuNanos} at the same marks. */
+    /** {@link #threadCpuNanos} of the calling thread at the same marks. */
     private long startedCpu;
     private long inspectingFromCpu;
     private long inspectedCpu;
     private long writerBusy;
+    /** The workers' CPU time in the running run; a wafer whose CPU time is unknown makes the sum negative (unknown). */
+    private final java.util.concurrent.atomic.LongAdder workerCpu = new java.util.concurrent.atomic.LongAdder();
 
     public BatchInspection(Rules rules) {
         this(rules, MapFiles::readSingle);
@@ -484,10 +503,11 @@ public final class BatchInspection {
      */
     public Summary run(List<Path> files, Path outDir, Options options) throws IOException, InterruptedException {
         startedAt = System.nanoTime();
-        startedCpu = processCpuNanos();
+        startedCpu = threadCpuNanos();
         inspectingFrom = 0;
         inspectedAt = 0;
         writerBusy = 0;
+        workerCpu.reset();
         phases = Phases.NONE;
         OutputFolder.write(outDir, () -> Files.createDirectories(outDir));
         try (RunLock lock = RunLock.acquire(outDir)) {
@@ -499,7 +519,7 @@ public final class BatchInspection {
                 manifest = manifest.with(RunManifest.State.FINISHING, null);
                 manifest.write(outDir);
                 long tablesDone = System.nanoTime();
-                long tablesDoneCpu = processCpuNanos();
+                long tablesDoneCpu = threadCpuNanos();
                 if (finisher != null) {
                     finisher.finish(outDir, builtRecurrence);
                 }
@@ -508,7 +528,8 @@ public final class BatchInspection {
                 long fromCpu = inspectingFrom == 0 ? inspectedCpu : inspectingFromCpu;
                 phases = new Phases(from - startedAt, inspectedAt - from, tablesDone - inspectedAt,
                         System.nanoTime() - tablesDone, writerBusy, cpuBetween(startedCpu, fromCpu),
-                        cpuBetween(inspectedCpu, tablesDoneCpu), cpuBetween(tablesDoneCpu, processCpuNanos()));
+                        cpuBetween(inspectedCpu, tablesDoneCpu), cpuBetween(tablesDoneCpu, threadCpuNanos()),
+                        Math.max(-1, workerCpu.sum()));
                 return s;
             } catch (IOException e) {
                 throw BatchOutputException.of(outDir, e);
@@ -667,13 +688,14 @@ public final class BatchInspection {
             int done = 0;
             // one set of working arrays per worker, reused from wafer to wafer and dropped with the pool
             ThreadLocal<InspectionBuffers> buffers = ThreadLocal.withInitial(InspectionBuffers::new);
-            inspectingFromCpu = processCpuNanos();
+            inspectingFromCpu = threadCpuNanos();
             inspectingFrom = System.nanoTime();
             while (next.hasNext() || !pending.isEmpty()) {
                 while (next.hasNext() && pending.size() < QUEUED_PER_WORKER * threads) {
                     Path f = next.next();
                     Path thumb = thumbs == null ? null : thumbs.resolve(f.getFileName() + ".png");
                     pending.add(pool.submit(() -> {
+                        long cpuFrom = threadCpuNanos();
                         @SuppressWarnings("unchecked")
                         Map<String, String>[] iron = new Map[1];
                         WaferResult r = memory.run(f, () -> {
@@ -687,7 +709,11 @@ public final class BatchInspection {
                         if (fp != null && RecurrenceMap.accepts(fp)) {
                             workerRecurrence.get().add(fp);
                         }
-                        return Inspected.of(r, columns, pairs != null, iron[0], rules, workerFormat.get());
+                        Inspected done = Inspected.of(r, columns, pairs != null, iron[0], rules,
+                                workerFormat.get());
+                        long cpuTo = threadCpuNanos();
+                        workerCpu.add(cpuFrom < 0 || cpuTo < 0 ? Long.MIN_VALUE / 4 : cpuTo - cpuFrom);
+                        return done;
                     }));
                 }
                 Inspected r;
@@ -728,7 +754,7 @@ public final class BatchInspection {
             Files.deleteIfExists(tmpRegions);
         }
         inspectedAt = System.nanoTime();
-        inspectedCpu = processCpuNanos();
+        inspectedCpu = threadCpuNanos();
         awaitWarmUp(warmUp);
         Map<String, Integer> position = new java.util.HashMap<>();
         for (int i = 0; i < files.size(); i++) {
