@@ -709,11 +709,11 @@ public final class BatchInspection {
                         if (fp != null && RecurrenceMap.accepts(fp)) {
                             workerRecurrence.get().add(fp);
                         }
-                        Inspected done = Inspected.of(r, columns, pairs != null, iron[0], rules,
+                        Inspected formatted = Inspected.of(r, columns, pairs != null, iron[0], rules,
                                 workerFormat.get());
                         long cpuTo = threadCpuNanos();
                         workerCpu.add(cpuFrom < 0 || cpuTo < 0 ? Long.MIN_VALUE / 4 : cpuTo - cpuFrom);
-                        return done;
+                        return formatted;
                     }));
                 }
                 Inspected r;
