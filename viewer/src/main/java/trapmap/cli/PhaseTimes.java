@@ -24,21 +24,24 @@ final class PhaseTimes {
     /**
      * One line: {@code inspect phase times: call_start_ms=… start_process_cpu_ms=… start_cpu_ms=… prepare_ms=…
      * inspection_ms=… tables_ms=… summary_ms=… writer_busy_ms=… prepare_cpu_ms=… tables_cpu_ms=… summary_cpu_ms=…
-     * worker_cpu_ms=… call_end_ms=…}, where {@code start_process_cpu_ms} is the process's CPU time (all threads) when the command
+     * worker_cpu_ms=… inspection_cpu_ms=… end_cpu_ms=… call_end_ms=…}, where {@code start_process_cpu_ms} is the process's CPU time (all threads) when the command
      * started, {@code start_cpu_ms} that of the command's thread (which started the JVM) and the other
-     * {@code _cpu_ms} figures that thread's CPU time in the phase, and {@code worker_cpu_ms} the workers' CPU time in
-     * all (-1: not known).
+     * {@code _cpu_ms} figures that thread's CPU time in the phase (in the inspection: writing rows beside the
+     * workers), {@code worker_cpu_ms} the workers' CPU time in all, and {@code end_cpu_ms} the command thread's CPU
+     * time at the end, JVM start included (-1: not known). All the command thread's CPU time but that in the
+     * inspection is serial: {@code end_cpu_ms - inspection_cpu_ms}.
      */
     static String line(long callStartEpochMs, long startProcessCpuNanos, long startCpuNanos, BatchInspection.Phases p,
-                       long callEndEpochMs) {
+                       long endCpuNanos, long callEndEpochMs) {
         return String.format(Locale.ROOT, "inspect phase times: call_start_ms=%d start_process_cpu_ms=%.1f"
                         + " start_cpu_ms=%.1f prepare_ms=%.1f inspection_ms=%.1f tables_ms=%.1f summary_ms=%.1f"
                         + " writer_busy_ms=%.1f prepare_cpu_ms=%.1f tables_cpu_ms=%.1f summary_cpu_ms=%.1f"
-                        + " worker_cpu_ms=%.1f call_end_ms=%d",
+                        + " worker_cpu_ms=%.1f inspection_cpu_ms=%.1f end_cpu_ms=%.1f call_end_ms=%d",
                 callStartEpochMs, ms(startProcessCpuNanos), ms(startCpuNanos), ms(p.prepareNanos()),
                 ms(p.inspectionNanos()),
                 ms(p.tablesNanos()), ms(p.summaryNanos()), ms(p.writerBusyNanos()), ms(p.prepareCpuNanos()),
-                ms(p.tablesCpuNanos()), ms(p.summaryCpuNanos()), ms(p.workerCpuNanos()), callEndEpochMs);
+                ms(p.tablesCpuNanos()), ms(p.summaryCpuNanos()), ms(p.workerCpuNanos()), ms(p.inspectionCpuNanos()),
+                ms(endCpuNanos), callEndEpochMs);
     }
 
     private static double ms(long nanos) {
@@ -53,7 +56,8 @@ final class PhaseTimes {
 
     static void print(PrintWriter err, long callStartEpochMs, long[] startCpu, BatchInspection.Phases p) {
         if (wanted()) {
-            err.println(line(callStartEpochMs, startCpu[0], startCpu[1], p, System.currentTimeMillis()));
+            err.println(line(callStartEpochMs, startCpu[0], startCpu[1], p, BatchInspection.threadCpuNanos(),
+                    System.currentTimeMillis()));
             err.flush();
         }
     }

@@ -217,11 +217,12 @@ public final class BatchInspection {
      * @param summaryCpuNanos the calling thread's CPU time in the summary part
      * @param workerCpuNanos  the workers' CPU time in all, inspecting and formatting the wafers (their threads' CPU
      *                        time from the start to the end of each wafer, summed)
+     * @param inspectionCpuNanos the calling thread's CPU time in the inspection (writing the rows beside the workers)
      */
     public record Phases(long prepareNanos, long inspectionNanos, long tablesNanos, long summaryNanos,
                         long writerBusyNanos, long prepareCpuNanos, long tablesCpuNanos, long summaryCpuNanos,
-                        long workerCpuNanos) {
-        public static final Phases NONE = new Phases(0, 0, 0, 0, 0, 0, 0, 0, 0);
+                        long workerCpuNanos, long inspectionCpuNanos) {
+        public static final Phases NONE = new Phases(0, 0, 0, 0, 0, 0, 0, 0, 0, 0);
     }
 
     /** CPU time of this process so far (all threads), nanoseconds; -1 where the system does not tell. */
@@ -529,7 +530,7 @@ public final class BatchInspection {
                 phases = new Phases(from - startedAt, inspectedAt - from, tablesDone - inspectedAt,
                         System.nanoTime() - tablesDone, writerBusy, cpuBetween(startedCpu, fromCpu),
                         cpuBetween(inspectedCpu, tablesDoneCpu), cpuBetween(tablesDoneCpu, threadCpuNanos()),
-                        Math.max(-1, workerCpu.sum()));
+                        Math.max(-1, workerCpu.sum()), cpuBetween(fromCpu, inspectedCpu));
                 return s;
             } catch (IOException e) {
                 throw BatchOutputException.of(outDir, e);
