@@ -116,6 +116,8 @@ final class InspectCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws IOException, InterruptedException {
+        long callStart = System.currentTimeMillis();
+        long[] startCpu = PhaseTimes.startCpu();
         int n = threads == null ? Runtime.getRuntime().availableProcessors() : threads;
         if (n < 1 || n > 256) {
             throw new InputException("--threads must be in [1, 256] (got " + n + ")");
@@ -149,12 +151,18 @@ final class InspectCommand implements Callable<Integer> {
         Pictures pictures = Pictures.start(); // the runtime is asked once, when the first picture step is due
         boolean captions = thumbnails && thumbnailCaptions && pictures.allows("the thumbnail captions");
         BatchInspection.Summary s;
+        BatchInspection batch = new BatchInspection(rules);
         try {
-            s = new BatchInspection(rules).withIron(ironPairs).withSource(source)
+            s = batch.withIron(ironPairs).withSource(source)
                     .finishingWith((dir, recurrence) -> {
                         if (!summaryPdf || !pictures.run(BatchReport.FILE_NAME,
                                 () -> summaryWriter.write(dir, judged, recurrence))) {
                             Files.deleteIfExists(pdf); // an earlier run's summary would not match these results
+                        }
+                    })
+                    .warmingUp(!summaryPdf ? null : () -> {
+                        if (pictures.missing().isEmpty()) { // a runtime without fonts is told once, by the step
+                            BatchReport.warmUp(judged);
                         }
                     })
                     .withRecurrencePictures(() -> pictures.allows(RECURRENCE_PICTURES))
@@ -216,6 +224,7 @@ final class InspectCommand implements Callable<Integer> {
                             : "; summary PDF missing (see the line above)");
         }
         o.flush();
+        PhaseTimes.print(err, callStart, startCpu, batch.lastPhases());
         return notMade.isPresent() ? Exit.REPORT_MISSING
                 : s.pass() == s.total() ? Exit.OK : Exit.SOME_WAFERS_NOT_PASSED;
     }

@@ -51,10 +51,18 @@ import trapmap.shared.progress.ProgressListener;
  * </ul>
  *
  * <p>Memory is bounded: a fixed pool of {@code threads} workers each holds one map at a time, at most
- * {@code 2·threads} finished results wait to be written, and the workers share a {@link MemoryBudget} of the heap,
+ * {@value #QUEUED_PER_WORKER}{@code ·threads} inspected wafers (their rows as text, no map) wait to be written, and
+ * the workers share a {@link MemoryBudget} of the heap,
  * so that big maps are inspected fewer at a time. A file that cannot be read or evaluated, a map too big for the
  * heap and a map whose inspection runs out of memory give an {@code error} row and the batch goes on. Interrupting
  * the calling thread cancels the batch.
+ *
+ * <p><b>Serial parts kept small.</b> The workers inspect, write the thumbnails, format each wafer's rows of the three
+ * tables and add its footprint to a recurrence of their own (merged once after the last wafer; a footprint left out
+ * is told to the batch's recurrence in input order, so that the result equals adding every footprint in input
+ * order). The calling thread alone writes the rows, in input order, and the workers run ahead of it by up to
+ * {@value #QUEUED_PER_WORKER} wafers each. While they inspect, a thread of its own does the first-use work of what
+ * comes after the last wafer ({@link #warmingUp}). {@link #lastPhases()} tells how long each part took.
  *
  * <p><b>Why a kill at any moment resumes to the uninterrupted run's tables.</b> The three tables are written each
  * through a {@code .partial} file; per wafer the footprint row, then its region rows, then its results row, each
@@ -162,6 +170,12 @@ public final class BatchInspection {
         void finish(Path outDir, RecurrenceMap recurrence) throws IOException;
     }
 
+    /** First-use work of the summary step ({@link #warmingUp}). */
+    @FunctionalInterface
+    public interface WarmUp {
+        void warmUp() throws Exception;
+    }
+
     /**
      * What a batch did.
      *
@@ -184,6 +198,103 @@ public final class BatchInspection {
         }
     }
 
+    /**
+     * Times of the parts of a run ({@link #lastPhases()}), nanoseconds: wall clock, and in the parts other than the
+     * inspection, which run on the calling thread alone, that thread's CPU time ({@link #threadCpuNanos}; -1 where
+     * the system does not tell): on idle cores, what these parts take when no other thread keeps them waiting (the
+     * JIT compiler's and collector's threads run beside them).
+     *
+     * @param prepareNanos    taking and checking the folder, the run record, rows kept from a resumed run, up to
+     *                        the first map handed to a worker
+     * @param inspectionNanos from the first map handed to a worker to the last results row written
+     * @param tablesNanos     after that: the tables put in place, the recurrence maps, {@code recurrence.csv} and
+     *                        {@code results.json} written, the run recorded finishing
+     * @param summaryNanos    the {@linkplain #finishingWith finisher} (the summary) and the run recorded complete
+     * @param writerBusyNanos within the inspection: the time the writer of the tables spent writing rows (not waiting
+     *                        for results)
+     * @param prepareCpuNanos the calling thread's CPU time in the preparation
+     * @param tablesCpuNanos  the calling thread's CPU time in the tables part
+     * @param summaryCpuNanos the calling thread's CPU time in the summary part
+     * @param workerCpuNanos  the workers' CPU time in all, inspecting and formatting the wafers (their threads' CPU
+     *                        time from the start to the end of each wafer, summed)
+     * @param inspectionCpuNanos the calling thread's CPU time in the inspection (writing the rows beside the workers)
+     */
+    public record Phases(long prepareNanos, long inspectionNanos, long tablesNanos, long summaryNanos,
+                        long writerBusyNanos, long prepareCpuNanos, long tablesCpuNanos, long summaryCpuNanos,
+                        long workerCpuNanos, long inspectionCpuNanos) {
+        public static final Phases NONE = new Phases(0, 0, 0, 0, 0, 0, 0, 0, 0, 0);
+    }
+
+    /** CPU time of this process so far (all threads), nanoseconds; -1 where the system does not tell. */
+    public static long processCpuNanos() {
+        return ProcessHandle.current().info().totalCpuDuration().map(java.time.Duration::toNanos).orElse(-1L);
+    }
+
+    /**
+     * CPU time of the calling thread so far, nanoseconds, from Linux's {@code /proc/thread-self/schedstat} (its
+     * first field: time on a CPU, ns); -1 elsewhere.
+     */
+    public static long threadCpuNanos() {
+        try {
+            String s = Files.readString(Path.of("/proc/thread-self/schedstat"), StandardCharsets.US_ASCII);
+            return Long.parseLong(s.substring(0, s.indexOf(' ')));
+        } catch (IOException | RuntimeException e) {
+            return -1;
+        }
+    }
+
+    private static long cpuBetween(long from, long to) {
+        return from < 0 || to < 0 ? -1 : to - from;
+    }
+
+    /**
+     * Inspected wafers that may wait to be written, per worker: the workers run ahead of the writer by this many
+     * wafers each before they wait for it (a slow wafer at the head of the queue holds no worker).
+     */
+    static final int QUEUED_PER_WORKER = 8;
+
+    /**
+     * One wafer inspected and formatted by a worker, for the writer: the results row (kept for {@code results.json})
+     * and the CSV text of its rows in the three tables, with their record separators.
+     *
+     * @param file          the map file as given
+     * @param footprint     where the wafer was evaluated and flagged, null for none
+     * @param row           the results row ({@link #row}, iron columns merged)
+     * @param rowText       the row in {@value #CSV_NAME}
+     * @param regionsText   its rows in {@value #REGIONS_NAME} (empty for none)
+     * @param footprintText its row in {@value #FOOTPRINTS_NAME} (empty when {@code footprint} is null)
+     */
+    record Inspected(String file, Footprint footprint, Map<String, String> row, String rowText, String regionsText,
+                     String footprintText) {
+        /**
+         * Formats {@code r} with {@code format} (one per thread: its printing is synchronized); {@code withIron}:
+         * merges the iron columns {@code iron} (null: none could be evaluated) into the row ({@link IronPairs}).
+         */
+        static Inspected of(WaferResult r, List<String> columns, boolean withIron, Map<String, String> iron,
+                            Rules rules, CSVFormat format) throws IOException {
+            Map<String, String> row = BatchInspection.row(r);
+            if (withIron) {
+                IronPairs.merge(row, iron == null ? Map.of() : iron, rules);
+            }
+            StringBuilder rowText = new StringBuilder();
+            StringBuilder regionsText = new StringBuilder();
+            StringBuilder footprintText = new StringBuilder();
+            try (CSVPrinter rp = new CSVPrinter(rowText, format);
+                 CSVPrinter gp = new CSVPrinter(regionsText, format);
+                 CSVPrinter fp = new CSVPrinter(footprintText, format)) {
+                print(rp, columns, row);
+                for (Map<String, String> region : regionRows(r)) {
+                    print(gp, REGION_COLUMNS, region);
+                }
+                if (r.footprint() != null) {
+                    fp.printRecord(FootprintStore.record(r.file(), r.footprint()));
+                }
+            }
+            return new Inspected(r.file(), r.footprint(), row, rowText.toString(), regionsText.toString(),
+                    footprintText.toString());
+        }
+    }
+
     private final Rules rules;
     private final WaferInspection inspection;
     private final WaferInspection.MapReader reader;
@@ -201,6 +312,21 @@ public final class BatchInspection {
     private java.util.function.BooleanSupplier recurrencePictures;
     /** What {@code run.json} records about the summary once the finisher ran; null: nothing. */
     private java.util.function.Supplier<String> summaryRecord;
+    /** First-use work of the summary step, run beside the workers; null for none. */
+    private WarmUp warmUp;
+    /** Times of the last run's parts. */
+    private volatile Phases phases = Phases.NONE;
+    /** {@link System#nanoTime} marks of the running run: start, first map submitted, last row written. */
+    private long startedAt;
+    private long inspectingFrom;
+    private long inspectedAt;
+    /** {@link #threadCpuNanos} of the calling thread at the same marks. */
+    private long startedCpu;
+    private long inspectingFromCpu;
+    private long inspectedCpu;
+    private long writerBusy;
+    /** The workers' CPU time in the running run; a wafer whose CPU time is unknown makes the sum negative (unknown). */
+    private final java.util.concurrent.atomic.LongAdder workerCpu = new java.util.concurrent.atomic.LongAdder();
 
     public BatchInspection(Rules rules) {
         this(rules, MapFiles::readSingle);
@@ -272,6 +398,99 @@ public final class BatchInspection {
     }
 
     /**
+     * Runs {@code w} on a thread of its own while the workers inspect (after the batch's own first-use work on its
+     * tables, {@link #warmUpTables}), so that the summary step that runs after the last wafer finds its classes
+     * loaded and compiled: e.g. the summary made of a few made-up wafers into nothing. It must write nothing into
+     * the output folder and share no state with the run; its failures are ignored (the step itself reports its own).
+     * The batch waits for it after the last wafer. Returns this batch.
+     */
+    public BatchInspection warmingUp(WarmUp w) {
+        this.warmUp = w;
+        return this;
+    }
+
+    /** Starts {@link #warmUpTables} and the {@linkplain #warmingUp summary's warm-up} on a daemon thread. */
+    private Thread startWarmUp() {
+        WarmUp summary = warmUp;
+        Thread t = new Thread(() -> {
+            ignoringFailures(() -> {
+                warmUpTables();
+                return null;
+            });
+            if (summary != null) {
+                ignoringFailures(() -> {
+                    summary.warmUp();
+                    return null;
+                });
+            }
+        }, "inspect-warm-up");
+        t.setDaemon(true);
+        t.start();
+        return t;
+    }
+
+    private static void ignoringFailures(java.util.concurrent.Callable<Void> work) {
+        try {
+            work.call();
+        } catch (VirtualMachineError e) {
+            throw e;
+        } catch (Exception | Error e) {
+            // only a head start: the step itself runs (and reports its failures) after the last wafer
+        }
+    }
+
+    private static void awaitWarmUp(Thread t) throws InterruptedException {
+        try {
+            t.join();
+        } catch (InterruptedException e) {
+            t.interrupt();
+            throw e;
+        }
+    }
+
+    /**
+     * The first-use work (class loading, compiling; AWT fonts for the colour bar) of what the batch writes after its
+     * last wafer, done on a made-up recurrence of a few cells in a temporary folder that is removed again: the
+     * recurrence TIFF and PNG with its hot spots, and {@code results.json}'s writer.
+     */
+    static void warmUpTables() throws IOException {
+        Path dir = Files.createTempDirectory("trapmap-warm-up");
+        try {
+            java.util.BitSet covered = new java.util.BitSet();
+            covered.set(0, 64);
+            java.util.BitSet flagged = new java.util.BitSet();
+            flagged.set(18, 22);
+            RecurrenceMap m = new RecurrenceMap();
+            m.add(new Footprint("warm-up", Footprint.PITCH_MM, -4, -4, 8, 8, covered, flagged));
+            for (Recurrence r : m.families().values()) {
+                MapFiles.write(r.fraction(), dir.resolve("recurrence.tif"));
+                RecurrencePicture.write(r, HotSpots.find(r, HotSpots.Criteria.DEFAULT),
+                        dir.resolve("recurrence.png"));
+            }
+            Map<String, Object> row = new LinkedHashMap<>();
+            row.put("file", "warm-up.tif");
+            row.put("tau_median_us", 12.5);
+            row.put("error", null);
+            Map<String, Object> root = new LinkedHashMap<>();
+            root.put("summary", Map.of("pass", 1));
+            root.put("wafers", List.of(row));
+            Json.WRITER.writeValue(java.io.OutputStream.nullOutputStream(), root);
+        } finally {
+            try (java.util.stream.Stream<Path> all = Files.walk(dir)) {
+                for (Path p : all.sorted(java.util.Comparator.reverseOrder()).toList()) {
+                    Files.deleteIfExists(p);
+                }
+            }
+        }
+    }
+
+    /** The writer of {@value #JSON_NAME}, one for all runs: its serializers are made on first use. */
+    private static final class Json {
+        static final com.fasterxml.jackson.databind.ObjectWriter WRITER = NumberText.jsonMapper()
+                .writer(SerializationFeature.INDENT_OUTPUT);
+    }
+
+    /**
      * True for the name of a file or folder that a batch writes into its output folder (results, regions,
      * footprints, recurrence maps and table, thumbnails, partial and temporary files), so that a folder scanned for
      * maps can leave a batch's own outputs out.
@@ -307,6 +526,13 @@ public final class BatchInspection {
      * @throws InterruptedException the calling thread was interrupted; as above
      */
     public Summary run(List<Path> files, Path outDir, Options options) throws IOException, InterruptedException {
+        startedAt = System.nanoTime();
+        startedCpu = threadCpuNanos();
+        inspectingFrom = 0;
+        inspectedAt = 0;
+        writerBusy = 0;
+        workerCpu.reset();
+        phases = Phases.NONE;
         OutputFolder.write(outDir, () -> Files.createDirectories(outDir));
         try (RunLock lock = RunLock.acquire(outDir)) {
             RunManifest manifest = prepare(files, outDir, options);
@@ -316,11 +542,19 @@ public final class BatchInspection {
                 Summary s = inspectAll(files, outDir, options);
                 manifest = manifest.with(RunManifest.State.FINISHING, null);
                 manifest.write(outDir);
+                long tablesDone = System.nanoTime();
+                long tablesDoneCpu = threadCpuNanos();
                 if (finisher != null) {
                     finisher.finish(outDir, builtRecurrence);
                 }
                 manifest.with(RunManifest.State.COMPLETE, java.time.Instant.now())
                         .withSummaryPdf(summaryRecord == null ? null : summaryRecord.get()).write(outDir);
+                long from = inspectingFrom == 0 ? inspectedAt : inspectingFrom;
+                long fromCpu = inspectingFrom == 0 ? inspectedCpu : inspectingFromCpu;
+                phases = new Phases(from - startedAt, inspectedAt - from, tablesDone - inspectedAt,
+                        System.nanoTime() - tablesDone, writerBusy, cpuBetween(startedCpu, fromCpu),
+                        cpuBetween(inspectedCpu, tablesDoneCpu), cpuBetween(tablesDoneCpu, threadCpuNanos()),
+                        Math.max(-1, workerCpu.sum()), cpuBetween(fromCpu, inspectedCpu));
                 return s;
             } catch (IOException e) {
                 throw BatchOutputException.of(outDir, e);
@@ -328,6 +562,11 @@ public final class BatchInspection {
                 OutputFolder.release(hook);
             }
         }
+    }
+
+    /** The times of the parts of the last {@link #run} that completed; {@link Phases#NONE} before. */
+    public Phases lastPhases() {
+        return phases;
     }
 
     /**
@@ -383,7 +622,6 @@ public final class BatchInspection {
             InterruptedException {
         List<String> columns = new ArrayList<>(columns(rules));
         IronPairs pairs = iron == null ? null : new IronPairs(iron, rules, reader, files);
-        Map<String, Map<String, String>> ironColumns = new java.util.concurrent.ConcurrentHashMap<>();
         if (pairs != null) {
             columns.addAll(IronPairs.columns(iron));
         }
@@ -426,6 +664,16 @@ public final class BatchInspection {
             t.setDaemon(true);
             return t;
         });
+        // each worker adds the footprints of its wafers to a recurrence of its own; merged once after the last wafer
+        List<RecurrenceMap> workerRecurrences = java.util.Collections.synchronizedList(new ArrayList<>());
+        ThreadLocal<RecurrenceMap> workerRecurrence = ThreadLocal.withInitial(() -> {
+            RecurrenceMap m = new RecurrenceMap();
+            workerRecurrences.add(m);
+            return m;
+        });
+        // CSVFormat prints under a lock on the format object: each worker formats its rows with a format of its own
+        ThreadLocal<CSVFormat> workerFormat = ThreadLocal.withInitial(() -> CSVFormat.DEFAULT.builder().build());
+        Thread warmUp = startWarmUp();
         Path tmpPartial = outDir.resolve(PARTIAL_NAME + ".new");
         Path tmpFootprints = outDir.resolve(FOOTPRINTS_NAME + ".new");
         Path tmpRegions = outDir.resolve(REGIONS_NAME + ".new");
@@ -455,7 +703,9 @@ public final class BatchInspection {
             move(tmpPartial, partial);
             move(tmpRegions, regionsPartial);
             move(tmpFootprints, footprintsPartial);
-            Deque<Future<WaferResult>> pending = new ArrayDeque<>();
+            // The workers inspect and format each wafer's rows; this thread alone writes them, in input order, from a
+            // queue of up to QUEUED_PER_WORKER x threads wafers (small: text and the results row, no map)
+            Deque<Future<Inspected>> pending = new ArrayDeque<>();
             Iterator<Path> next = todo.iterator();
             WaferInspection inspection = this.inspection.withThumbnailCaptions(options.thumbnailCaptions());
             MemoryBudget memory = memoryBudgetBytes < 0 ? MemoryBudget.ofThisHeap()
@@ -463,19 +713,35 @@ public final class BatchInspection {
             int done = 0;
             // one set of working arrays per worker, reused from wafer to wafer and dropped with the pool
             ThreadLocal<InspectionBuffers> buffers = ThreadLocal.withInitial(InspectionBuffers::new);
+            inspectingFromCpu = threadCpuNanos();
+            inspectingFrom = System.nanoTime();
             while (next.hasNext() || !pending.isEmpty()) {
-                while (next.hasNext() && pending.size() < 2 * threads) {
+                while (next.hasNext() && pending.size() < QUEUED_PER_WORKER * threads) {
                     Path f = next.next();
                     Path thumb = thumbs == null ? null : thumbs.resolve(f.getFileName() + ".png");
-                    pending.add(pool.submit(() -> memory.run(f, () -> {
-                        WaferResult inspected = inspection.inspect(f, thumb, buffers.get());
-                        if (pairs != null) {
-                            ironColumns.put(inspected.file(), pairs.evaluate(f));
+                    pending.add(pool.submit(() -> {
+                        long cpuFrom = threadCpuNanos();
+                        @SuppressWarnings("unchecked")
+                        Map<String, String>[] iron = new Map[1];
+                        WaferResult r = memory.run(f, () -> {
+                            WaferResult inspected = inspection.inspect(f, thumb, buffers.get());
+                            if (pairs != null) {
+                                iron[0] = pairs.evaluate(f);
+                            }
+                            return inspected;
+                        });
+                        Footprint fp = r.footprint();
+                        if (fp != null && RecurrenceMap.accepts(fp)) {
+                            workerRecurrence.get().add(fp);
                         }
-                        return inspected;
-                    })));
+                        Inspected formatted = Inspected.of(r, columns, pairs != null, iron[0], rules,
+                                workerFormat.get());
+                        long cpuTo = threadCpuNanos();
+                        workerCpu.add(cpuFrom < 0 || cpuTo < 0 ? Long.MIN_VALUE / 4 : cpuTo - cpuFrom);
+                        return formatted;
+                    }));
                 }
-                WaferResult r;
+                Inspected r;
                 try {
                     r = pending.removeFirst().get();
                 } catch (ExecutionException e) {
@@ -484,27 +750,27 @@ public final class BatchInspection {
                     }
                     throw new IllegalStateException("inspection failed unexpectedly", e.getCause());
                 }
+                long writing = System.nanoTime();
                 if (r.footprint() != null) {
-                    recurrence.add(r.footprint());
-                    fout.printRecord(FootprintStore.record(r.file(), r.footprint()));
-                    fout.flush();
+                    if (!RecurrenceMap.accepts(r.footprint())) {
+                        recurrence.add(r.footprint()); // left out, its reason kept in input order
+                    }
+                    fw.write(r.footprintText());
+                    fw.flush();
                 }
-                for (Map<String, String> region : regionRows(r)) {
-                    print(rout, REGION_COLUMNS, region);
-                }
-                rout.flush();
-                Map<String, String> row = row(r);
-                if (pairs != null) {
-                    Map<String, String> ironRow = ironColumns.remove(r.file());
-                    IronPairs.merge(row, ironRow == null ? Map.of() : ironRow, rules);
-                }
-                rows.add(row);
-                print(out, columns, row);
-                out.flush();
+                rw.write(r.regionsText());
+                rw.flush();
+                rows.add(r.row());
+                w.write(r.rowText());
+                w.flush();
+                writerBusy += System.nanoTime() - writing;
                 options.progress().progress(++done, todo.size(), r.file());
                 if (Thread.currentThread().isInterrupted()) {
                     throw new InterruptedException("batch inspection cancelled");
                 }
+            }
+            synchronized (workerRecurrences) {
+                workerRecurrences.forEach(recurrence::addAll);
             }
         } finally {
             pool.shutdownNow();
@@ -512,6 +778,9 @@ public final class BatchInspection {
             Files.deleteIfExists(tmpFootprints);
             Files.deleteIfExists(tmpRegions);
         }
+        inspectedAt = System.nanoTime();
+        inspectedCpu = threadCpuNanos();
+        awaitWarmUp(warmUp);
         Map<String, Integer> position = new java.util.HashMap<>();
         for (int i = 0; i < files.size(); i++) {
             position.putIfAbsent(key(files.get(i).toString()), i);
@@ -762,7 +1031,7 @@ public final class BatchInspection {
         Path tmp = target.resolveSibling(JSON_NAME + ".tmp");
         try {
             OutputFolder.write(target, () -> {
-                NumberText.jsonMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValue(tmp.toFile(), root);
+                Json.WRITER.writeValue(tmp.toFile(), root);
                 Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
             });
         } finally {

@@ -74,9 +74,7 @@ public final class RecurrenceMap {
      * @return true when the wafer was added
      */
     public boolean add(Footprint f) {
-        double reach = Footprint.PITCH_MM * Math.max(Math.max(Math.abs((double) f.minI()),
-                Math.abs((double) f.minI() + f.width())), Math.max(Math.abs((double) f.minJ()),
-                Math.abs((double) f.minJ() + f.height())));
+        double reach = reachMm(f);
         if (!(reach <= MAX_OFFSET_MM)) {
             refused.add("family " + f.family() + ": a wafer evaluated up to " + reach + " mm from its centre,"
                     + " beyond the " + MAX_OFFSET_MM + " mm a recurrence map covers (check the map's centre_x_px,"
@@ -97,6 +95,48 @@ public final class RecurrenceMap {
             }
         }
         return true;
+    }
+
+    /** How far the footprint's cells reach from the wafer centre, mm. */
+    private static double reachMm(Footprint f) {
+        return Footprint.PITCH_MM * Math.max(Math.max(Math.abs((double) f.minI()),
+                Math.abs((double) f.minI() + f.width())), Math.max(Math.abs((double) f.minJ()),
+                Math.abs((double) f.minJ() + f.height())));
+    }
+
+    /** True when {@link #add} takes the footprint in (its cells lie within {@link #MAX_OFFSET_MM}). */
+    public static boolean accepts(Footprint f) {
+        return reachMm(f) <= MAX_OFFSET_MM;
+    }
+
+    /**
+     * Adds the counts of {@code other} (footprints added to it in another thread, say): afterwards this map holds
+     * what adding all footprints of both to one map gives, in any order, the counts being sums; the reasons of
+     * {@code other}'s left-out footprints follow this map's. A family's cell pitch is that of the map added last
+     * (all footprints of a batch have {@link Footprint#PITCH_MM}).
+     */
+    public void addAll(RecurrenceMap other) {
+        if (other == this) {
+            throw new IllegalArgumentException("a recurrence map cannot be added to itself");
+        }
+        other.families.forEach((name, o) -> {
+            if (o.wafers == 0) {
+                return;
+            }
+            Family fam = families.computeIfAbsent(name, k -> new Family());
+            fam.wafers += o.wafers;
+            fam.pitchMm = o.pitchMm;
+            fam.cover(o.minI, o.minJ, o.width, o.height);
+            for (int y = 0; y < o.height; y++) {
+                int to = (o.minJ + y - fam.minJ) * fam.width + (o.minI - fam.minI);
+                int from = y * o.width;
+                for (int x = 0; x < o.width; x++) {
+                    fam.evaluated[to + x] += o.evaluated[from + x];
+                    fam.flagged[to + x] += o.flagged[from + x];
+                }
+            }
+        });
+        refused.addAll(other.refused);
     }
 
     /** Why footprints were left out ({@link #add}), one line each, in the order they came. */

@@ -4,6 +4,7 @@ import static org.assertj.core.api.Assertions.assertThat;
 import static org.assertj.core.api.Assertions.within;
 
 import java.awt.image.BufferedImage;
+import java.io.IOException;
 import java.io.Reader;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -343,6 +344,54 @@ class BatchInspectionTest {
         assertThat(value(r, 0, 0)).isZero();
         assertThat(value(r, -30, -30)).isZero();
         assertThat(Files.size(s.recurrence().get(1))).isPositive();
+    }
+
+    @Test
+    void tablesAndRecurrenceAreByteForByteTheSameWithOneWorkerAndWithFour() throws Exception {
+        Path in = Files.createDirectories(dir.resolve("in"));
+        for (int k = 0; k < 9; k++) {
+            if (k % 3 == 1) {
+                SyntheticWafers.clean(in, "m" + k, 60);
+            } else {
+                SyntheticWafers.spot(in, "m" + k, 60, 5 * k - 20, 10 - 3 * k, 4, 4);
+            }
+        }
+        Files.writeString(in.resolve("m9.csv"), "not a map\n"); // an error row among them
+        List<Path> files = new ArrayList<>(list(in));
+        BatchInspection one = new BatchInspection(rules(SPOT_RULES));
+        one.run(files, dir.resolve("one"), options(1, false));
+        BatchInspection four = new BatchInspection(rules(SPOT_RULES));
+        four.run(files, dir.resolve("four"), options(4, false));
+        try (var s = Files.list(dir.resolve("one"))) {
+            for (Path p : s.filter(Files::isRegularFile).toList()) {
+                String name = p.getFileName().toString();
+                if (!name.equals(RunManifest.FILE_NAME) && !name.equals(RunLock.FILE_NAME)) {
+                    assertThat(Files.readAllBytes(dir.resolve("four").resolve(name))).as(name)
+                            .isEqualTo(Files.readAllBytes(p));
+                }
+            }
+        }
+        assertThat(csv(dir.resolve("four").resolve(BatchInspection.CSV_NAME))).hasSize(10);
+        BatchInspection.Phases p = four.lastPhases();
+        assertThat(p.inspectionNanos()).isPositive();
+        assertThat(p.writerBusyNanos()).isPositive().isLessThanOrEqualTo(p.inspectionNanos());
+        assertThat(p.prepareNanos()).isPositive();
+        assertThat(p.tablesNanos()).isPositive();
+    }
+
+    @Test
+    void theWarmUpRunsBesideTheWorkersAndWritesNothingIntoTheFolder() throws Exception {
+        Path in = maps();
+        java.util.concurrent.atomic.AtomicReference<String> ranOn = new java.util.concurrent.atomic.AtomicReference<>();
+        new BatchInspection(rules(SPOT_RULES)).warmingUp(() -> {
+            ranOn.set(Thread.currentThread().getName());
+            throw new IOException("a failing warm-up is only a lost head start");
+        }).run(list(in), dir.resolve("out"), options(2, false));
+        assertThat(ranOn.get()).isEqualTo("inspect-warm-up");
+        try (var s = Files.list(dir.resolve("out"))) {
+            assertThat(s.map(p -> p.getFileName().toString())).allMatch(n -> BatchInspection.isOutputName(n)
+                    || n.equals(RunManifest.FILE_NAME) || n.equals(RunLock.FILE_NAME));
+        }
     }
 
     private static float value(WaferMap m, double xMm, double yMm) {

@@ -53,6 +53,54 @@ class RecurrenceMapTest {
         assertThat(r.waferCounts().keySet()).containsExactlyElementsOf(r.maps().keySet());
     }
 
+    @Test
+    void mapsAddedTogetherEqualOneMapOfAllTheirFootprintsInAnyOrder() {
+        java.util.Random random = new java.util.Random(7);
+        java.util.List<Footprint> all = new java.util.ArrayList<>();
+        for (int k = 0; k < 40; k++) {
+            int w = 1 + random.nextInt(6);
+            int h = 1 + random.nextInt(6);
+            BitSet covered = new BitSet();
+            BitSet flagged = new BitSet();
+            for (int c = 0; c < w * h; c++) {
+                if (random.nextInt(5) > 0) {
+                    covered.set(c);
+                    if (random.nextInt(3) == 0) {
+                        flagged.set(c);
+                    }
+                }
+            }
+            all.add(new Footprint(k % 3 == 0 ? "g" : "f", 1.0, random.nextInt(11) - 5, random.nextInt(11) - 5, w, h,
+                    covered, flagged));
+        }
+        all.add(new Footprint("f", 1.0, 2000, 0, 1, 1, bits(0), new BitSet())); // too far out: left out
+        RecurrenceMap one = new RecurrenceMap();
+        all.forEach(one::add);
+        // as a batch does: three workers take footprints in some order, the far one is told in input order
+        RecurrenceMap merged = new RecurrenceMap();
+        RecurrenceMap[] workers = {new RecurrenceMap(), new RecurrenceMap(), new RecurrenceMap()};
+        for (int k = all.size() - 1; k >= 0; k--) {
+            Footprint f = all.get(k);
+            if (RecurrenceMap.accepts(f)) {
+                workers[(k * 7) % 3].add(f);
+            }
+        }
+        all.stream().filter(f -> !RecurrenceMap.accepts(f)).forEach(merged::add);
+        for (RecurrenceMap w : workers) {
+            merged.addAll(w);
+        }
+        assertThat(merged.waferCounts()).isEqualTo(one.waferCounts());
+        assertThat(merged.refused()).isEqualTo(one.refused()).hasSize(1);
+        one.families().forEach((name, r) -> {
+            Recurrence m = merged.families().get(name);
+            assertThat(m.fraction().width()).isEqualTo(r.fraction().width());
+            assertThat(m.fraction().height()).isEqualTo(r.fraction().height());
+            assertThat(m.fraction().grid()).isEqualTo(r.fraction().grid());
+            assertThat(m.fraction().raster().samples()).containsExactly(r.fraction().raster().samples());
+            assertThat(m.wafersPerCell()).containsExactly(r.wafersPerCell());
+        });
+    }
+
     private static BitSet bits(int... set) {
         BitSet b = new BitSet();
         for (int i : set) {

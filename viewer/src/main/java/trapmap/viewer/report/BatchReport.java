@@ -1,8 +1,23 @@
 package trapmap.viewer.report;
 
+import java.awt.image.BufferedImage;
 import java.io.IOException;
+import java.io.OutputStream;
+import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.BitSet;
+import java.util.Comparator;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.stream.Stream;
+import javax.imageio.ImageIO;
 import org.apache.pdfbox.pdmodel.PDDocument;
+import trapmap.maps.batch.BatchInspection;
+import trapmap.maps.batch.Figure;
+import trapmap.maps.batch.Footprint;
+import trapmap.maps.batch.HotSpots;
 import trapmap.maps.batch.RecurrenceMap;
 import trapmap.maps.batch.Rules;
 import trapmap.maps.io.AtomicFiles;
@@ -68,22 +83,88 @@ public final class BatchReport {
     /** Writes the summary into {@code pdf} (atomically). */
     public static void write(BatchContent c, Path pdf) throws IOException {
         AtomicFiles.write(pdf, tmp -> {
-            try (PDDocument doc = new PDDocument(); ReportFlow flow = new ReportFlow(doc)) {
-                doc.getDocumentInformation().setTitle("Batch inspection summary");
-                doc.getDocumentInformation().setCreator("trapmap");
-                SummarySection.draw(flow, c);
-                ProfileSection.drawAll(flow, c);
-                WaferTable.draw(flow, c);
-                FailedWafersSection.draw(flow, c);
-                RecurrenceSection.drawAll(flow, c);
-                ErrorSection.draw(flow, c);
-                flow.down(8);
-                flow.caution(Caution.TEXT);
-                flow.close();
-                PdfPage.footers(doc, "trapmap batch summary - " + PdfPage.clean(c.outputDir().toString()) + " - "
-                        + SummarySection.DATE.format(c.created()));
+            try (PDDocument doc = new PDDocument()) {
+                draw(doc, c);
                 doc.save(tmp.toFile());
             }
         });
+    }
+
+    private static void draw(PDDocument doc, BatchContent c) throws IOException {
+        try (ReportFlow flow = new ReportFlow(doc)) {
+            doc.getDocumentInformation().setTitle("Batch inspection summary");
+            doc.getDocumentInformation().setCreator("trapmap");
+            SummarySection.draw(flow, c);
+            ProfileSection.drawAll(flow, c);
+            WaferTable.draw(flow, c);
+            FailedWafersSection.draw(flow, c);
+            RecurrenceSection.drawAll(flow, c);
+            ErrorSection.draw(flow, c);
+            flow.down(8);
+            flow.caution(Caution.TEXT);
+            flow.close();
+            PdfPage.footers(doc, "trapmap batch summary - " + PdfPage.clean(c.outputDir().toString()) + " - "
+                    + SummarySection.DATE.format(c.created()));
+        }
+    }
+
+    /** Made-up wafers of {@link #warmUp}: enough rows for the table and chart code to be compiled. */
+    static final int WARM_UP_WAFERS = 120;
+
+    /**
+     * The summary's first-use work (fonts loaded into a document, charts, tables, thumbnails embedded; the classes
+     * loaded and compiled) done on a made-up batch of {@value #WARM_UP_WAFERS} wafers under {@code rules} (passes,
+     * fails with thumbnails, errors) and a small recurrence map, drawn and saved into nothing; the thumbnails lie in a
+     * temporary folder that is removed again. Run beside a batch's workers ({@code BatchInspection.warmingUp}), it leaves the
+     * summary written after the last wafer only its own work. Writes no file of any batch.
+     */
+    public static void warmUp(Rules rules) throws IOException {
+        Path dir = Files.createTempDirectory("trapmap-summary-warm-up");
+        try {
+            Path thumbs = Files.createDirectories(dir.resolve(BatchInspection.THUMBNAIL_DIR));
+            List<String> figures = rules.figures().stream().map(Figure::name).toList();
+            String profile = rules.allProfiles().isEmpty() ? "default" : rules.allProfiles().get(0).name();
+            List<BatchContent.Row> rows = new ArrayList<>();
+            for (int i = 0; i < WARM_UP_WAFERS; i++) {
+                String file = dir.resolve("warm-up-" + i + ".tif").toString();
+                if (i % 10 == 9) {
+                    rows.add(new BatchContent.Row(file, "", "error", "", "", "", Map.of(), List.of(), Double.NaN,
+                            Double.NaN, Double.NaN, Double.NaN, "unreadable"));
+                    continue;
+                }
+                boolean fail = i % 3 == 0;
+                Map<String, Double> values = new LinkedHashMap<>();
+                double v = 1 + 0.37 * i;
+                for (String f : figures) {
+                    values.put(f, fail ? 3 * v + 0.5 : v);
+                    v *= 1.7;
+                }
+                if (fail && i < 3 * FailedWafersSection.SHOWN) {
+                    BufferedImage thumb = new BufferedImage(64, 64, BufferedImage.TYPE_INT_RGB);
+                    ImageIO.write(thumb, "png", thumbs.resolve("warm-up-" + i + ".tif.png").toFile());
+                }
+                rows.add(new BatchContent.Row(file, "W-" + i, fail ? "fail" : "pass", fail ? "C" : "A", profile, "",
+                        values, fail && !figures.isEmpty() ? List.of(figures.get(i % figures.size())) : List.of(),
+                        fail ? 2.5 + i : Double.NaN, fail ? 10 - i % 20 : Double.NaN, fail ? i % 30 - 15 : Double.NaN,
+                        fail ? 3.5 : Double.NaN, ""));
+            }
+            BitSet covered = new BitSet();
+            covered.set(0, 64);
+            BitSet flagged = new BitSet();
+            flagged.set(18, 22);
+            RecurrenceMap recurrence = new RecurrenceMap();
+            recurrence.add(new Footprint("warm-up", Footprint.PITCH_MM, -4, -4, 8, 8, covered, flagged));
+            BatchContent c = new BatchContent(dir, rules, rows, recurrence.families(), null, HotSpots.Criteria.DEFAULT);
+            try (PDDocument doc = new PDDocument()) {
+                draw(doc, c);
+                doc.save(OutputStream.nullOutputStream());
+            }
+        } finally {
+            try (Stream<Path> all = Files.walk(dir)) {
+                for (Path p : all.sorted(Comparator.reverseOrder()).toList()) {
+                    Files.deleteIfExists(p);
+                }
+            }
+        }
     }
 }
