@@ -1,5 +1,7 @@
 package trapmap.maps.batch;
 
+import trapmap.maps.stats.RankBuckets;
+
 /**
  * The working arrays of one wafer's inspection, kept by one worker from wafer to wafer so that a batch of equal-sized
  * maps allocates them once instead of several map-sized arrays per wafer (less allocation and garbage collection,
@@ -29,6 +31,8 @@ public final class InspectionBuffers {
     private final Slot<float[]> flagAt = new Slot<>(float[]::new);
     private final Slot<float[]> densityAt = new Slot<>(float[]::new);
     private final Slot<byte[]> status = new Slot<>(byte[]::new);
+    private final RankBuckets lifeBuckets = new RankBuckets();
+    private final RankBuckets densityBuckets = new RankBuckets();
 
     /** Empty buffers; they grow with the first map. */
     public InspectionBuffers() {
@@ -92,6 +96,16 @@ public final class InspectionBuffers {
     /** {@code n} conversion statuses. */
     byte[] status(int n) {
         return status.get(n);
+    }
+
+    /** The radix bucket counts of the evaluated lifetimes (cleared by whoever counts them). */
+    RankBuckets lifeBuckets() {
+        return lifeBuckets;
+    }
+
+    /** The radix bucket counts of the trap densities to rank (cleared by whoever counts them). */
+    RankBuckets densityBuckets() {
+        return densityBuckets;
     }
 
     private static boolean[] cleared(boolean[] a) {
