@@ -11,7 +11,7 @@ import trapmap.maps.stats.RankBuckets;
  * between wafers (the batch's {@link MemoryBudget} plans each map's memory as if nothing were kept).
  *
  * <p>Which parts of an array hold data is tracked by the inspection, never by the array: every array is written
- * before it is read, for each wafer ({@code evaluated} and {@code open} are cleared to false over the map's pixels
+ * before it is read, for each wafer ({@code open} is cleared to false over the map's pixels
  * first), so nothing of one wafer reaches the next; the tests inspect different maps in sequence, a small one after a
  * large one, and compare with fresh buffers.
  */
@@ -19,7 +19,6 @@ public final class InspectionBuffers {
     /** Largest map, pixels, whose arrays a worker keeps for the next wafer (about 2 Mpx, some 40 MB). */
     static final int KEPT_PIXELS = 1 << 21;
 
-    private final Slot<boolean[]> evaluated = new Slot<>(boolean[]::new);
     private final Slot<boolean[]> open = new Slot<>(boolean[]::new);
     private final Slot<int[]> indices = new Slot<>(int[]::new);
     private final Slot<int[]> queue = new Slot<>(int[]::new);
@@ -36,11 +35,6 @@ public final class InspectionBuffers {
 
     /** Empty buffers; they grow with the first map. */
     public InspectionBuffers() {
-    }
-
-    /** {@code n} per-pixel flags, all false (the evaluated pixels). */
-    boolean[] evaluated(int n) {
-        return cleared(evaluated.get(n));
     }
 
     /** {@code n} per-pixel flags, all false (pixels still to be labelled). */

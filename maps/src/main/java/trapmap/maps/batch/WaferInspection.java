@@ -290,7 +290,7 @@ public final class WaferInspection {
         }
         String grade = profile.grade(!failed.isEmpty(), f -> values.get(f.name()));
         List<String> missed = failed.isEmpty() ? profile.missedBy(grade, f -> values.get(f.name())) : List.of();
-        Footprint footprint = Footprint.of(family, grid, masks.evaluated(), regions.pixels());
+        Footprint footprint = Footprint.of(family, grid, masks.indices(), count, regions.pixels());
         if (thumbnail != null) {
             Thumbnails.write(lifetime, regions.pixels(), life.percentile(Thumbnails.LOW_PERCENT),
                     life.percentile(Thumbnails.HIGH_PERCENT), thumbnailCaptions, thumbnail);
@@ -298,7 +298,7 @@ public final class WaferInspection {
         WaferResult result = new WaferResult(name, map.waferId(), failed.isEmpty() ? WaferResult.Status.PASS
                 : WaferResult.Status.FAIL, grade, profile.name(), defect == null ? null : defect.id(), values, failed,
                 missed, regions.regions(), "", footprint, WaferResult.Worst.behind(failedFigures, worst, interior));
-        boolean[] evaluated = keep ? Arrays.copyOf(masks.evaluated(), grid.width() * grid.height()) : null;
+        boolean[] evaluated = keep ? masks.evaluated() : null;
         return new Evaluation(result, lifetime, density, shape, evaluated, regions, profile, defect, invalid);
     }
 
@@ -327,7 +327,7 @@ public final class WaferInspection {
      * depends on its lifetime alone, so the evaluated pixels are converted packed into one row.
      */
     static WaferMap trapDensity(WaferMap lifetime, Defect defect, int[] indices, int count) {
-        Masks masks = new Masks(null, indices, count, null);
+        Masks masks = new Masks(indices, count, null, 0, lifetime.raster().size());
         return trapDensity(lifetime, defect, Sample.gather(lifetime.raster().samples(), masks), masks,
                 ConversionSettings.DEFAULTS).map();
     }

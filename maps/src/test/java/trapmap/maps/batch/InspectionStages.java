@@ -70,7 +70,7 @@ public final class InspectionStages {
         Sample life2 = Sample.ofCounted(life, count, grid, new double[] {Thumbnails.LOW_PERCENT,
             Thumbnails.HIGH_PERCENT}, j.lifePositive(), j.lifeReciprocalSum(), buffers.lifeBuckets());
         t = lap(ns, 6, t);
-        Footprint.of(family, grid, masks.evaluated(), regions.pixels());
+        Footprint.of(family, grid, masks.indices(), count, regions.pixels());
         t = lap(ns, 7, t);
         if (thumbnail != null) {
             Thumbnails.write(lifetime, regions.pixels(), life2.percentile(Thumbnails.LOW_PERCENT),

@@ -290,7 +290,7 @@ class WaferInspectionShortcutsTest {
         Masks masks = Masks.of(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
         BitSet flagged = FlaggedRegions.find(m.raster(), m.grid(), masks.indices(), masks.count(),
                 RegionCriteria.below(60, 1), shape, null).pixels();
-        Footprint f = Footprint.of("m2", m.grid(), masks.evaluated(), flagged);
+        Footprint f = Footprint.of("m2", m.grid(), masks.indices(), masks.count(), flagged);
         PixelGrid g = m.grid();
         for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
             int cx = Footprint.cell(g.xMm(i % g.width()), 1) - f.minI();
@@ -306,6 +306,36 @@ class WaferInspectionShortcutsTest {
             }
         }
         assertThat(f.covered()).isEqualTo(covered);
+    }
+
+    /** Covered cells from the indices (runs skipped) equal those of every evaluated pixel, holes and all. */
+    @ParameterizedTest
+    @ValueSource(doubles = {0.16, 0.3, 1, 2.5})
+    void footprintCoversTheCellsOfEveryEvaluatedPixel(double pitchMm) {
+        Random rnd = new Random(Double.hashCode(pitchMm));
+        int w = 173;
+        int h = 91;
+        PixelGrid g = PixelGrid.centred(w, h, pitchMm);
+        int[] indices = new int[w * h];
+        int count = 0;
+        for (int i = 0; i < w * h; i++) {
+            // long evaluated stretches with holes of one pixel and longer gaps, as around defects and the edge
+            int x = i % w;
+            boolean gap = x < 7 || x > w - 12 || (i / w) % 17 == 3 && x > 40 && x < 90;
+            boolean hole = (i / w) % 3 == 0 && rnd.nextInt(40) == 0; // every third row has holes
+            if (!gap && !hole) {
+                indices[count++] = i;
+            }
+        }
+        Footprint f = Footprint.of("m2", g, indices, count, new BitSet());
+        BitSet covered = new BitSet();
+        for (int k = 0; k < count; k++) {
+            int i = indices[k];
+            covered.set((Footprint.cell(g.yMm(i / w), 1) - f.minJ()) * f.width()
+                    + Footprint.cell(g.xMm(i % w), 1) - f.minI());
+        }
+        assertThat(f.covered()).isEqualTo(covered);
+        assertThat(Footprint.of("m2", g, indices, 0, new BitSet()).covered().isEmpty()).isTrue();
     }
 
     @Test
