@@ -103,13 +103,22 @@ final class Masks {
         }
         WaferShape.Prepared p = shape.prepared();
         double pitch = grid.pitchMm();
-        double slack = 1e-7; // mm, far above the rounding of the distance and coordinates
+        double cx = shape.centreXMm();
+        double cy = shape.centreYMm();
         for (int y = 0; y < h; y++) {
             double ym = grid.yMm(y);
             int row = y * w;
             int x = 0;
             while (x < w) {
-                double d = p.distanceToEdgeMm(grid.xMm(x), ym);
+                // the near distance decides, except within its error bound of a threshold: there the exact one does
+                double xm = grid.xMm(x);
+                double error = p.nearDistanceErrorMm(Math.abs(xm - cx) + Math.abs(ym - cy));
+                double d = p.nearDistanceToEdgeMm(xm, ym);
+                if (Math.abs(d - exclusionMm) <= error || centre != null && Math.abs(d - centreMm) <= error) {
+                    d = p.distanceToEdgeMm(xm, ym);
+                    error = 0;
+                }
+                double slack = 1e-7 + error; // mm, far above the rounding of the distance and coordinates
                 boolean inside = d >= exclusionMm;
                 boolean central = centre != null && d >= centreMm;
                 double margin = Math.abs(d - exclusionMm);
@@ -122,21 +131,32 @@ final class Masks {
                     x = end;
                     continue;
                 }
-                for (; x < end; x++) {
-                    int i = row + x;
-                    float v = tau[i];
-                    if (v == v) {
-                        if (pack) {
-                            packed[count] = v;
-                        }
-                        indices[count++] = i;
-                        if (central) {
-                            centre[i] = true;
-                        }
-                    } else {
-                        missing++;
+                // the stretches without NaN between the NaN pixels (most runs have none), each copied at once
+                int i = row + x;
+                int stop = row + end;
+                while (i < stop) {
+                    int j = i;
+                    while (j < stop && tau[j] == tau[j]) {
+                        j++;
                     }
+                    int len = j - i;
+                    if (pack) {
+                        System.arraycopy(tau, i, packed, count, len);
+                    }
+                    for (int t = 0; t < len; t++) {
+                        indices[count + t] = i + t;
+                    }
+                    if (central) {
+                        java.util.Arrays.fill(centre, i, j, true);
+                    }
+                    count += len;
+                    if (j < stop) { // a NaN pixel
+                        missing++;
+                        j++;
+                    }
+                    i = j;
                 }
+                x = end;
             }
         }
         return new Masks(indices, count, centre, missing, w * h);

@@ -14,6 +14,7 @@ import trapmap.maps.geometry.OutlineDetection;
 import trapmap.maps.geometry.OutlineFit;
 import trapmap.maps.geometry.SquareWafer;
 import trapmap.maps.geometry.WaferFormat;
+import trapmap.maps.geometry.RoundWafer;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.model.Quantity;
@@ -60,6 +61,24 @@ class WaferInspectionShortcutsTest {
             for (int k = 1; k < masks.count(); k++) {
                 assertThat(masks.indices()[k]).isGreaterThan(masks.indices()[k - 1]);
             }
+        }
+    }
+
+    /** Pixels exactly at the exclusion distance (integer coordinates on a disk) are decided by the exact distance. */
+    @ParameterizedTest
+    @ValueSource(doubles = {0, 4, 5, 7})
+    void masksAtExactlyTheExclusionDistanceEqualTheShapeMask(double exclusionMm) {
+        PixelGrid grid = PixelGrid.centred(31, 31, 1);
+        WaferShape disk = RoundWafer.disk(20);
+        float[] tau = new float[31 * 31];
+        java.util.Arrays.fill(tau, 100f);
+        Masks masks = Masks.of(tau, grid, disk, exclusionMm, exclusionMm + 1);
+        Mask expected = disk.mask(grid, exclusionMm);
+        Mask centre = disk.mask(grid, exclusionMm + 1);
+        assertThat(masks.count()).isEqualTo(expected.count());
+        for (int i = 0; i < tau.length; i++) {
+            assertThat(masks.evaluated()[i]).as("pixel %d", i).isEqualTo(expected.containsIndex(i));
+            assertThat(masks.centre()[i]).as("centre pixel %d", i).isEqualTo(centre.containsIndex(i));
         }
     }
 
