@@ -23,10 +23,10 @@ public record Footprint(String family, double pitchMm, int minI, int minJ, int w
     public static final double PITCH_MM = 1.0;
 
     /**
-     * The footprint of one wafer: the {@link #PITCH_MM} cells holding an evaluated pixel, and those holding a flagged
-     * one ({@code flagged}: pixel indices, all of them evaluated).
+     * The footprint of one wafer: the {@link #PITCH_MM} cells holding an evaluated pixel ({@code indices[0..count)},
+     * ascending), and those holding a flagged one ({@code flagged}: pixel indices, all of them evaluated).
      */
-    static Footprint of(String family, PixelGrid grid, boolean[] evaluated, BitSet flagged) {
+    static Footprint of(String family, PixelGrid grid, int[] indices, int count, BitSet flagged) {
         double p = PITCH_MM;
         int w = grid.width();
         int h = grid.height();
@@ -41,34 +41,103 @@ public record Footprint(String family, double pitchMm, int minI, int minJ, int w
             column[x] = cell(grid.xMm(x), p) - i0;
         }
         // runs of columns in the same cell: a cell of a row is covered once any of its pixels is evaluated
+        int[] runOf = new int[w];
         int[] runStart = new int[w + 1];
         int runs = 0;
         for (int x = 0; x < w; x++) {
             if (x == 0 || column[x] != column[x - 1]) {
                 runStart[runs++] = x;
             }
+            runOf[x] = runs - 1;
         }
         runStart[runs] = w;
         long[] words = new long[(cw * ch + 63) >>> 6]; // the covered cells, as the words of a BitSet
-        for (int y = 0; y < h; y++) {
-            int rowCell = (cell(grid.yMm(y), p) - j0) * cw;
+        int k = 0;
+        while (k < count) {
+            int first = indices[k];
+            int y = first / w;
             int row = y * w;
-            for (int r = 0; r < runs; r++) {
-                for (int x = runStart[r], end = runStart[r + 1]; x < end; x++) {
-                    if (evaluated[row + x]) {
-                        int c = rowCell + column[x];
+            int rowCell = (cell(grid.yMm(y), p) - j0) * cw;
+            int end = rowEnd(indices, k, Math.min(count, k + w), row + w);
+            int last = indices[end - 1];
+            if (last - first == end - 1 - k) {
+                // the indices ascend, so the row's pixels from the first to the last evaluated one all are: the
+                // cells of their runs, one stretch of cells when no cell lies between two runs' (pitch <= 1 mm)
+                int firstRun = runOf[first - row];
+                int lastRun = runOf[last - row];
+                int from = column[runStart[firstRun]];
+                int to = column[runStart[lastRun]];
+                if (Math.abs(to - from) == lastRun - firstRun) {
+                    setRange(words, rowCell + Math.min(from, to), rowCell + Math.max(from, to) + 1);
+                } else {
+                    for (int r = firstRun; r <= lastRun; r++) {
+                        int c = rowCell + column[runStart[r]];
                         words[c >>> 6] |= 1L << c;
-                        break;
                     }
+                }
+            } else {
+                for (int j = k; j < end; j++) {
+                    int c = rowCell + column[indices[j] - row];
+                    words[c >>> 6] |= 1L << c;
+                }
+            }
+            k = end;
+        }
+        long[] hit = new long[words.length];
+        int rowStart = 0;
+        int rowEnd = 0;
+        int rowCell = 0;
+        int lastCell = -1;
+        long[] flaggedWords = flagged.toLongArray();
+        for (int wi = 0; wi < flaggedWords.length; wi++) {
+            for (long bits = flaggedWords[wi]; bits != 0; bits &= bits - 1) {
+                int i = (wi << 6) + Long.numberOfTrailingZeros(bits); // ascending
+                if (i >= rowEnd) { // a new row
+                    int y = i / w;
+                    rowStart = y * w;
+                    rowEnd = rowStart + w;
+                    rowCell = (cell(grid.yMm(y), p) - j0) * cw;
+                }
+                int c = rowCell + column[i - rowStart]; // flagged pixels are evaluated ones
+                if (c != lastCell) {
+                    hit[c >>> 6] |= 1L << c;
+                    lastCell = c;
                 }
             }
         }
-        BitSet hit = new BitSet(cw * ch);
-        for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
-            int y = i / w;
-            hit.set((cell(grid.yMm(y), p) - j0) * cw + column[i - y * w]); // flagged pixels are evaluated ones
+        return new Footprint(family, p, i0, j0, cw, ch, BitSet.valueOf(words), BitSet.valueOf(hit));
+    }
+
+    /** Sets the bits [from, to) of a BitSet's words. */
+    private static void setRange(long[] words, int from, int to) {
+        int first = from >>> 6;
+        int last = (to - 1) >>> 6;
+        long firstMask = -1L << from; // the shifts take the bit index modulo 64
+        long lastMask = -1L >>> -to;
+        if (first == last) {
+            words[first] |= firstMask & lastMask;
+            return;
         }
-        return new Footprint(family, p, i0, j0, cw, ch, BitSet.valueOf(words), hit);
+        words[first] |= firstMask;
+        for (int i = first + 1; i < last; i++) {
+            words[i] = -1L;
+        }
+        words[last] |= lastMask;
+    }
+
+    /** The first k in [from, to) with indices[k] ≥ end (to when none): indices ascend. */
+    private static int rowEnd(int[] indices, int from, int to, int end) {
+        int lo = from;
+        int hi = to;
+        while (lo < hi) {
+            int mid = (lo + hi) >>> 1;
+            if (indices[mid] < end) {
+                lo = mid + 1;
+            } else {
+                hi = mid;
+            }
+        }
+        return lo;
     }
 
     static int cell(double mm, double pitchMm) {

@@ -1,5 +1,7 @@
 package trapmap.maps.batch;
 
+import trapmap.maps.stats.RankBuckets;
+
 /**
  * The working arrays of one wafer's inspection, kept by one worker from wafer to wafer so that a batch of equal-sized
  * maps allocates them once instead of several map-sized arrays per wafer (less allocation and garbage collection,
@@ -9,7 +11,7 @@ package trapmap.maps.batch;
  * between wafers (the batch's {@link MemoryBudget} plans each map's memory as if nothing were kept).
  *
  * <p>Which parts of an array hold data is tracked by the inspection, never by the array: every array is written
- * before it is read, for each wafer ({@code evaluated} and {@code open} are cleared to false over the map's pixels
+ * before it is read, for each wafer ({@code open} is cleared to false over the map's pixels
  * first), so nothing of one wafer reaches the next; the tests inspect different maps in sequence, a small one after a
  * large one, and compare with fresh buffers.
  */
@@ -17,7 +19,6 @@ public final class InspectionBuffers {
     /** Largest map, pixels, whose arrays a worker keeps for the next wafer (about 2 Mpx, some 40 MB). */
     static final int KEPT_PIXELS = 1 << 21;
 
-    private final Slot<boolean[]> evaluated = new Slot<>(boolean[]::new);
     private final Slot<boolean[]> open = new Slot<>(boolean[]::new);
     private final Slot<int[]> indices = new Slot<>(int[]::new);
     private final Slot<int[]> queue = new Slot<>(int[]::new);
@@ -29,14 +30,11 @@ public final class InspectionBuffers {
     private final Slot<float[]> flagAt = new Slot<>(float[]::new);
     private final Slot<float[]> densityAt = new Slot<>(float[]::new);
     private final Slot<byte[]> status = new Slot<>(byte[]::new);
+    private final RankBuckets lifeBuckets = new RankBuckets();
+    private final RankBuckets densityBuckets = new RankBuckets();
 
     /** Empty buffers; they grow with the first map. */
     public InspectionBuffers() {
-    }
-
-    /** {@code n} per-pixel flags, all false (the evaluated pixels). */
-    boolean[] evaluated(int n) {
-        return cleared(evaluated.get(n));
     }
 
     /** {@code n} per-pixel flags, all false (pixels still to be labelled). */
@@ -92,6 +90,16 @@ public final class InspectionBuffers {
     /** {@code n} conversion statuses. */
     byte[] status(int n) {
         return status.get(n);
+    }
+
+    /** The radix bucket counts of the evaluated lifetimes (cleared by whoever counts them). */
+    RankBuckets lifeBuckets() {
+        return lifeBuckets;
+    }
+
+    /** The radix bucket counts of the trap densities to rank (cleared by whoever counts them). */
+    RankBuckets densityBuckets() {
+        return densityBuckets;
     }
 
     private static boolean[] cleared(boolean[] a) {

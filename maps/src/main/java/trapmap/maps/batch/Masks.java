@@ -5,19 +5,66 @@ import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
 
 /**
- * The evaluated pixels (valid and at least the edge exclusion inside the outline), also as ascending indices
+ * The evaluated pixels (valid and at least the edge exclusion inside the outline) as ascending indices
  * ({@code indices[0..count)}), and, when asked for, the centre pixels of {@code edge_to_centre_ratio} (null
  * otherwise); {@code missing} counts the NaN pixels inside the outline less the edge exclusion (no data where the
  * wafer is: 0 without an outline, where they cannot be told from the background), for
- * {@code invalid_area_fraction}.
+ * {@code invalid_area_fraction}. The batch reads the indices only; the evaluated pixels as per-pixel flags are made
+ * from them when asked for ({@link #evaluated()}).
  */
-record Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre, int missing) {
-    Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre) {
-        this(evaluated, indices, count, centre, 0);
+final class Masks {
+    private final int[] indices;
+    private final int count;
+    private final boolean[] centre;
+    private final int missing;
+    private final int pixels;
+    private boolean[] evaluated;
+
+    /**
+     * @param pixels the map's number of pixels
+     */
+    Masks(int[] indices, int count, boolean[] centre, int missing, int pixels) {
+        this.indices = indices;
+        this.count = count;
+        this.centre = centre;
+        this.missing = missing;
+        this.pixels = pixels;
+    }
+
+    /** The evaluated pixels' indices, ascending, in {@code [0, count())}; the array may be longer. */
+    int[] indices() {
+        return indices;
+    }
+
+    /** The number of evaluated pixels. */
+    int count() {
+        return count;
+    }
+
+    /** The centre pixels of {@code edge_to_centre_ratio} as per-pixel flags, or null when none were asked for. */
+    boolean[] centre() {
+        return centre;
+    }
+
+    /** NaN pixels inside the outline less the edge exclusion, left out of the evaluated ones. */
+    int missing() {
+        return missing;
+    }
+
+    /** The evaluated pixels as per-pixel flags (made on the first call, then the same array). */
+    boolean[] evaluated() {
+        if (evaluated == null) {
+            boolean[] in = new boolean[pixels];
+            for (int k = 0; k < count; k++) {
+                in[indices[k]] = true;
+            }
+            evaluated = in;
+        }
+        return evaluated;
     }
 
     /**
-     * The masks of {@link Masks}: {@code evaluated} holds exactly the pixels of
+     * The masks of {@link Masks}: the evaluated pixels are exactly those of
      * {@code Mask.valid(raster).and(shape.mask(grid, exclusionMm))}, {@code centre} those at least {@code centreMm}
      * inside (NaN: none asked for). The distance to the outline changes by at most the distance moved (it is
      * 1-Lipschitz), so after one exact distance d the next pixels of the row up to |d − e| away lie on the same side
@@ -29,15 +76,14 @@ record Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre, in
     }
 
     /**
-     * As {@link #of(float[], PixelGrid, WaferShape, double, double)} into the arrays of {@code buffers} (the
-     * evaluated flags and indices), and in the same pass the evaluated samples packed in index
-     * order into {@code packed[0..count)} when it is not null (the gather of {@link Sample#gather}).
+     * As {@link #of(float[], PixelGrid, WaferShape, double, double)} into the index array of {@code buffers}, and in
+     * the same pass the evaluated samples packed in index order into {@code packed[0..count)} when it is not null
+     * (the gather of {@link Sample#gather}).
      */
     static Masks of(float[] tau, PixelGrid grid, WaferShape shape, double exclusionMm, double centreMm,
                     InspectionBuffers buffers, float[] packed) {
         int w = grid.width();
         int h = grid.height();
-        boolean[] in = buffers.evaluated(w * h);
         boolean[] centre = Double.isNaN(centreMm) ? null : new boolean[w * h];
         int[] indices = buffers.indices(w * h);
         boolean pack = packed != null;
@@ -47,24 +93,32 @@ record Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre, in
             for (int i = 0, n = w * h; i < n; i++) {
                 float v = tau[i];
                 if (v == v) {
-                    in[i] = true;
                     if (pack) {
                         packed[count] = v;
                     }
                     indices[count++] = i;
                 }
             }
-            return new Masks(in, indices, count, centre);
+            return new Masks(indices, count, centre, 0, w * h);
         }
         WaferShape.Prepared p = shape.prepared();
         double pitch = grid.pitchMm();
-        double slack = 1e-7; // mm, far above the rounding of the distance and coordinates
+        double cx = shape.centreXMm();
+        double cy = shape.centreYMm();
         for (int y = 0; y < h; y++) {
             double ym = grid.yMm(y);
             int row = y * w;
             int x = 0;
             while (x < w) {
-                double d = p.distanceToEdgeMm(grid.xMm(x), ym);
+                // the near distance decides, except within its error bound of a threshold: there the exact one does
+                double xm = grid.xMm(x);
+                double error = p.nearDistanceErrorMm(Math.abs(xm - cx) + Math.abs(ym - cy));
+                double d = p.nearDistanceToEdgeMm(xm, ym);
+                if (Math.abs(d - exclusionMm) <= error || centre != null && Math.abs(d - centreMm) <= error) {
+                    d = p.distanceToEdgeMm(xm, ym);
+                    error = 0;
+                }
+                double slack = 1e-7 + error; // mm, far above the rounding of the distance and coordinates
                 boolean inside = d >= exclusionMm;
                 boolean central = centre != null && d >= centreMm;
                 double margin = Math.abs(d - exclusionMm);
@@ -77,25 +131,35 @@ record Masks(boolean[] evaluated, int[] indices, int count, boolean[] centre, in
                     x = end;
                     continue;
                 }
-                for (; x < end; x++) {
-                    int i = row + x;
-                    float v = tau[i];
-                    if (v == v) {
-                        in[i] = true;
-                        if (pack) {
-                            packed[count] = v;
-                        }
-                        indices[count++] = i;
-                        if (central) {
-                            centre[i] = true;
-                        }
-                    } else {
-                        missing++;
+                // the stretches without NaN between the NaN pixels (most runs have none), each copied at once
+                int i = row + x;
+                int stop = row + end;
+                while (i < stop) {
+                    int j = i;
+                    while (j < stop && tau[j] == tau[j]) {
+                        j++;
                     }
+                    int len = j - i;
+                    if (pack) {
+                        System.arraycopy(tau, i, packed, count, len);
+                    }
+                    for (int t = 0; t < len; t++) {
+                        indices[count + t] = i + t;
+                    }
+                    if (central) {
+                        java.util.Arrays.fill(centre, i, j, true);
+                    }
+                    count += len;
+                    if (j < stop) { // a NaN pixel
+                        missing++;
+                        j++;
+                    }
+                    i = j;
                 }
+                x = end;
             }
         }
-        return new Masks(in, indices, count, centre, missing);
+        return new Masks(indices, count, centre, missing, w * h);
     }
 
     /** A Mask of the same pixels as a boolean array. */

@@ -36,9 +36,12 @@ public final class OutlineFits {
         return FIT_CACHE.fit(reducedValidity(tau, w, h, k), ReducedOutline.grid(grid, k));
     }
 
-    /** As {@link ReducedOutline#validity}. */
+    /**
+     * As {@link ReducedOutline#validity}, on the calling thread: the batch runs one map per worker, and the rows of
+     * one map handed to the common pool would only add the hand-over to the work.
+     */
     static boolean[] reducedValidity(float[] tau, int w, int h, int k) {
-        return ReducedOutline.validity(tau, w, h, k);
+        return ReducedOutline.validity(tau, w, h, k, false);
     }
 
     /** Fitted outlines of the last few validity masks seen (see {@link FitCache}). */

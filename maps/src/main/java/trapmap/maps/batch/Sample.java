@@ -3,6 +3,7 @@ package trapmap.maps.batch;
 import java.util.Arrays;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.maps.stats.MapStatistics;
+import trapmap.maps.stats.RankBuckets;
 
 /**
  * The figures of one map over the evaluated pixels, equal to those of {@link MapStatistics#of} over the same
@@ -60,11 +61,26 @@ record Sample(int count, double areaMm2, double harmonicMean, double median, dou
         return ranked(v, n, grid, percents, 0, 0);
     }
 
+    /**
+     * As {@link #ofPacked} from values without NaN, {@code v[0..n)} (reordered), whose radix buckets are counted in
+     * {@code counted}, with the count and reciprocal sum of the positive ones already added up in index order (0 and
+     * 0: no harmonic mean): the same figures, from one gathering pass.
+     */
+    static Sample ofCounted(float[] v, int n, PixelGrid grid, double[] percents, int positive, double reciprocalSum,
+                            RankBuckets counted) {
+        return ranked(v, n, grid, percents, positive, reciprocalSum, counted);
+    }
+
     private static Sample ranked(float[] v, int m, PixelGrid grid, double[] percents, int positive,
                                  double reciprocalSum) {
+        return ranked(v, m, grid, percents, positive, reciprocalSum, null);
+    }
+
+    private static Sample ranked(float[] v, int m, PixelGrid grid, double[] percents, int positive,
+                                 double reciprocalSum, RankBuckets counted) {
         double[] wanted = Arrays.copyOf(percents, percents.length + 1);
         wanted[percents.length] = 50;
-        double[] est = MapStatistics.percentiles(v, m, wanted);
+        double[] est = MapStatistics.percentiles(v, m, wanted, counted);
         return new Sample(m, m * grid.pixelAreaMm2(), positive == 0 ? Double.NaN : positive / reciprocalSum,
                 est[percents.length], percents.clone(), Arrays.copyOf(est, percents.length));
     }

@@ -21,6 +21,7 @@ import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.stats.InvalidArea;
+import trapmap.maps.stats.RankBuckets;
 import trapmap.physics.conversion.Conditions;
 import trapmap.physics.conversion.ConversionOutput;
 import trapmap.physics.conversion.PixelStatus;
@@ -222,8 +223,6 @@ public final class WaferInspection {
         int belowLimit = 0;
         if (profile.needsTrapDensity()) {
             conditions = MapConversion.physicsConditions(lifetime.conditions(), settings);
-            // the conversion takes whole arrays: the pixels after the evaluated ones are NaN, which it skips
-            Arrays.fill(lifeValues, count, lifeValues.length, Float.NaN);
             converted = buffers.density(lifeValues.length);
             status = buffers.status(lifeValues.length);
             belowLimit = convertPacked(conditions, defect, lifeValues, count, converted, status);
@@ -232,7 +231,8 @@ public final class WaferInspection {
                 : densityMap(lifetime, conditions, defect, settings, converted, masks);
         // What the flag, the regions and the trap-density figures read: the OK pixels, or with the rules' opt-in
         // also the below-limit ones at their bound (the detection limit). One pass gives them, the invalid-area
-        // tally and the judged densities that are not NaN, in index order, for their percentiles.
+        // tally, the judged densities that are not NaN, in index order, for their percentiles, and what the
+        // lifetime figures need besides their ranks (the reciprocal sum; both samples' radix buckets).
         Judged j = judged(lifeValues, count, converted, status,
                 profile.flag().belowLimit() == Rules.BelowLimit.AT_BOUND, masks.missing(), grid.pixelAreaMm2(),
                 buffers);
@@ -246,13 +246,14 @@ public final class WaferInspection {
         FlaggedRegions regions = FlaggedRegions.findPacked(flagValues, judged, grid, masks.indices(), count, criteria,
                 shape, rules.edgeExclusionMm(), buffers);
 
-        Sample dens = judged == null ? null : Sample.ofValid(j.ranked(), j.rankedCount(), grid,
-                percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE));
+        Sample dens = judged == null ? null : Sample.ofCounted(j.ranked(), j.rankedCount(), grid,
+                percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE), 0, 0, buffers.densityBuckets());
         double[] lifePercents = percents(figures, Figure.Kind.LIFETIME_PERCENTILE);
         double[] withRange = Arrays.copyOf(lifePercents, lifePercents.length + 2);
         withRange[lifePercents.length] = Thumbnails.LOW_PERCENT;
         withRange[lifePercents.length + 1] = Thumbnails.HIGH_PERCENT;
-        Sample life = Sample.ofPacked(lifeValues, count, grid, thumbnail == null ? lifePercents : withRange, true);
+        Sample life = Sample.ofCounted(lifeValues, count, grid, thumbnail == null ? lifePercents : withRange,
+                j.lifePositive(), j.lifeReciprocalSum(), buffers.lifeBuckets());
         FlaggedRegions.FlaggedRegion worst = regions.largest();
         FlaggedRegions.FlaggedRegion interior = largestInterior(regions, shape, grid);
         double flaggedFraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
@@ -289,7 +290,7 @@ public final class WaferInspection {
         }
         String grade = profile.grade(!failed.isEmpty(), f -> values.get(f.name()));
         List<String> missed = failed.isEmpty() ? profile.missedBy(grade, f -> values.get(f.name())) : List.of();
-        Footprint footprint = Footprint.of(family, grid, masks.evaluated(), regions.pixels());
+        Footprint footprint = Footprint.of(family, grid, masks.indices(), count, regions.pixels());
         if (thumbnail != null) {
             Thumbnails.write(lifetime, regions.pixels(), life.percentile(Thumbnails.LOW_PERCENT),
                     life.percentile(Thumbnails.HIGH_PERCENT), thumbnailCaptions, thumbnail);
@@ -297,7 +298,7 @@ public final class WaferInspection {
         WaferResult result = new WaferResult(name, map.waferId(), failed.isEmpty() ? WaferResult.Status.PASS
                 : WaferResult.Status.FAIL, grade, profile.name(), defect == null ? null : defect.id(), values, failed,
                 missed, regions.regions(), "", footprint, WaferResult.Worst.behind(failedFigures, worst, interior));
-        boolean[] evaluated = keep ? Arrays.copyOf(masks.evaluated(), grid.width() * grid.height()) : null;
+        boolean[] evaluated = keep ? masks.evaluated() : null;
         return new Evaluation(result, lifetime, density, shape, evaluated, regions, profile, defect, invalid);
     }
 
@@ -326,7 +327,7 @@ public final class WaferInspection {
      * depends on its lifetime alone, so the evaluated pixels are converted packed into one row.
      */
     static WaferMap trapDensity(WaferMap lifetime, Defect defect, int[] indices, int count) {
-        Masks masks = new Masks(null, indices, count, null);
+        Masks masks = new Masks(indices, count, null, 0, lifetime.raster().size());
         return trapDensity(lifetime, defect, Sample.gather(lifetime.raster().samples(), masks), masks,
                 ConversionSettings.DEFAULTS).map();
     }
@@ -355,71 +356,106 @@ public final class WaferInspection {
     }
 
     /**
-     * Converts the lifetimes {@code packedTau} (NaN after the first {@code count}) to trap density into {@code out}
-     * with their statuses into {@code status} (both as long as {@code packedTau}), and returns how many of the first
-     * {@code count} are below the detection limit.
+     * Converts the lifetimes {@code packedTau[0..count)} to trap density into {@code out[0..count)} with their
+     * statuses into {@code status[0..count)} (the arrays may be longer; the rest is left as it is), and returns how
+     * many are below the detection limit.
      */
     static int convertPacked(Conditions conditions, Defect defect, float[] packedTau, int count, float[] out,
                              byte[] status) {
         if (count == 0) {
             return 0;
         }
-        new TrapDensityConverter(conditions, defect).convert(packedTau, packedTau.length,
-                new ConversionOutput(out, null, null, null, null, null, null, status, null), 1);
-        byte belowCode = PixelStatus.BELOW_LIMIT.code();
-        int below = 0;
-        for (int k = 0; k < count; k++) {
-            if (status[k] == belowCode) {
-                below++;
-            }
-        }
-        return below;
+        // the packed pixels as one row of a raster: the kernel converts only those and counts their statuses
+        TrapDensityConverter.Tally tally = new TrapDensityConverter.Tally();
+        new TrapDensityConverter(conditions, defect).convertRows(packedTau, count, 0, 1,
+                new ConversionOutput(out, null, null, null, null, null, null, status, null), tally);
+        return tally.count(PixelStatus.BELOW_LIMIT);
     }
 
     /**
      * What the judgement reads of the evaluated pixels: the judged trap densities packed in index order (null without
      * a conversion), those of them that are not NaN in the same order, {@code ranked[0..rankedCount)}, for their
-     * percentiles, and the invalid area.
+     * percentiles, the invalid area, and of the lifetimes the positive ones' count and reciprocal sum (in index order,
+     * as {@link Sample#ofPacked} adds them).
      */
-    record Judged(float[] judged, float[] ranked, int rankedCount, InvalidArea invalid) {
+    record Judged(float[] judged, float[] ranked, int rankedCount, InvalidArea invalid, int lifePositive,
+                  double lifeReciprocalSum) {
     }
 
     /**
      * One pass over the evaluated pixels, packed in index order: the judged trap densities (the converted ones where
      * the status is OK, NaN elsewhere; all of them as converted when below-limit pixels count {@code atBound}), those
-     * not NaN, and the {@link InvalidArea} tally of the lifetimes with their statuses (null {@code converted}: not
-     * converted) and {@code missing} NaN pixels left out of the evaluated ones. A method of its own, small enough
-     * for the JIT compiler to compile on its own.
+     * not NaN, and the {@link InvalidArea} tally of the lifetimes {@code life[0..count)} (no NaN) with their statuses
+     * (null {@code converted}: not converted) and {@code missing} NaN pixels left out of the evaluated ones; on the
+     * way it counts the radix buckets of the lifetimes and of the ranked densities into
+     * {@link InspectionBuffers#lifeBuckets()} and {@link InspectionBuffers#densityBuckets()} and adds up the
+     * reciprocals of the positive lifetimes, so that their percentiles and harmonic mean need no pass of their own.
+     * A method of its own, small enough for the JIT compiler to compile on its own.
+     *
+     * <p>A finite lifetime of at least the conversion's floor that is OK or below the limit (as the conversion gives
+     * every such lifetime), or is not converted, is one {@link InvalidArea#cause} counts as usable: those are only
+     * counted, and only the others (rare) go through {@link InvalidArea.Tally#add}.
      */
     static Judged judged(float[] life, int count, float[] converted, byte[] status, boolean atBound, int missing,
                          double pixelAreaMm2, InspectionBuffers buffers) {
         InvalidArea.Tally tally = new InvalidArea.Tally(true);
+        int[] lifeCounts = buffers.lifeBuckets().cleared();
         float[] judged = null;
         float[] ranked = null;
         int ranks = 0;
+        int positive = 0;
+        double reciprocalSum = 0;
+        int usable = 0;
         if (converted == null) {
             for (int k = 0; k < count; k++) {
-                tally.add(life[k], -1);
+                float v = life[k];
+                lifeCounts[RankBuckets.bucket(v)]++;
+                if (v > 0) {
+                    reciprocalSum += 1 / (double) v;
+                    positive++;
+                }
+                if (v >= TrapDensityConverter.LIFETIME_FLOOR_US && v != Float.POSITIVE_INFINITY) {
+                    usable++;
+                } else {
+                    tally.add(v, -1);
+                }
             }
         } else {
+            int[] densityCounts = buffers.densityBuckets().cleared();
             judged = atBound ? converted : buffers.judged(converted.length);
             ranked = buffers.densitySample(converted.length);
             byte ok = PixelStatus.OK.code();
+            byte below = PixelStatus.BELOW_LIMIT.code();
             for (int k = 0; k < count; k++) {
+                float v = life[k];
+                lifeCounts[RankBuckets.bucket(v)]++;
+                if (v > 0) {
+                    reciprocalSum += 1 / (double) v;
+                    positive++;
+                }
                 byte st = status[k];
-                tally.add(life[k], st);
+                if ((st == ok || st == below) && v >= TrapDensityConverter.LIFETIME_FLOOR_US
+                        && v != Float.POSITIVE_INFINITY) {
+                    usable++;
+                } else {
+                    tally.add(v, st);
+                }
                 float d = converted[k];
                 if (!atBound) {
                     d = st == ok ? d : Float.NaN;
                     judged[k] = d;
                 }
-                if (d == d) {
-                    ranked[ranks++] = d;
-                }
+                // without a branch (OK and other pixels alternate at random): a NaN is written past the end and
+                // added as 0 to the count of its bucket
+                int number = d == d ? 1 : 0;
+                ranked[ranks] = d;
+                ranks += number;
+                densityCounts[RankBuckets.bucket(d)] += number;
             }
         }
+        tally.addUsable(usable);
         tally.addMissing(missing);
-        return new Judged(judged, ranked, ranks, tally.result(pixelAreaMm2));
+        return new Judged(judged, ranked, ranks, tally.result(pixelAreaMm2), positive, reciprocalSum);
     }
 
     /** The trap-density map with the packed densities at the evaluated pixels and NaN elsewhere. */

@@ -31,17 +31,42 @@ abstract class LocalFrame implements WaferShape.Prepared {
 
     @Override
     public final double distanceToEdgeMm(double xMm, double yMm) {
+        return distance(xMm, yMm, true);
+    }
+
+    @Override
+    public final double nearDistanceToEdgeMm(double xMm, double yMm) {
+        return distance(xMm, yMm, false);
+    }
+
+    @Override
+    public final double nearDistanceErrorMm(double extentMm) {
+        return 1e-12 * (1 + extentMm + size());
+    }
+
+    private double distance(double xMm, double yMm, boolean exact) {
         double dx = xMm - cx;
         double dy = yMm - cy;
         double u = cos * dx + sin * dy;
         double v = -sin * dx + cos * dy;
-        double d = unsignedDistance(u, v);
+        double d = unsignedDistance(u, v, exact);
         return containsLocal(u, v) ? d : -d;
     }
 
     /** True when the local point (u, v), mm, lies inside the outline or on it. */
     abstract boolean containsLocal(double u, double v);
 
-    /** Distance from the local point (u, v) to the outline, mm, without sign. */
-    abstract double unsignedDistance(double u, double v);
+    /**
+     * Distance from the local point (u, v) to the outline, mm, without sign; with {@link #length} for the lengths of
+     * vectors ({@code exact}: by {@link Math#hypot}, else faster within {@link #nearDistanceErrorMm}).
+     */
+    abstract double unsignedDistance(double u, double v, boolean exact);
+
+    /** A size of the outline, mm, at least its largest distance from its centre. */
+    abstract double size();
+
+    /** The length of (a, b): {@link Math#hypot} when {@code exact}, else the square root of the sum of squares. */
+    static double length(double a, double b, boolean exact) {
+        return exact ? Math.hypot(a, b) : Math.sqrt(a * a + b * b);
+    }
 }

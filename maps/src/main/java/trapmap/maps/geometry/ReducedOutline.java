@@ -65,21 +65,41 @@ public final class ReducedOutline {
      * at least half of its pixels are not NaN. Rows of blocks run in parallel (each writes its own row).
      */
     public static boolean[] validity(float[] samples, int w, int h, int k) {
+        return validity(samples, w, h, k, true);
+    }
+
+    /**
+     * As {@link #validity(float[], int, int, int)}, on the calling thread alone unless {@code parallel} (the same
+     * blocks either way): for callers that already run one map per core, where handing rows to the common pool only
+     * adds the cost of the hand-over.
+     */
+    public static boolean[] validity(float[] samples, int w, int h, int k, boolean parallel) {
         int cw = w / k;
         int ch = h / k;
         boolean[] valid = new boolean[cw * ch];
         int half = (k * k + 1) / 2;
-        Blocks.run(ch, (long) ch * k * w, by -> {
+        Blocks.run(ch, parallel ? (long) ch * k * w : 0, by -> {
             int[] counts = new int[cw];
             for (int y = by * k; y < (by + 1) * k; y++) {
-                int x = y * w;
-                for (int bx = 0; bx < cw; bx++) {
-                    int c = 0;
-                    for (int end = x + k; x < end; x++) {
-                        float v = samples[x];
-                        c += v == v ? 1 : 0;
+                // the row as runs of valid and of NaN pixels (a few per row: the wafer and the background), each
+                // found by a tight scan, the valid ones added to the blocks they cover
+                int rowStart = y * w;
+                int end = rowStart + cw * k;
+                int x = rowStart;
+                while (x < end) {
+                    boolean isValid = samples[x] == samples[x];
+                    int j = x + 1;
+                    if (isValid) {
+                        while (j < end && samples[j] == samples[j]) {
+                            j++;
+                        }
+                        addRun(counts, x - rowStart, j - rowStart, k);
+                    } else {
+                        while (j < end && samples[j] != samples[j]) {
+                            j++;
+                        }
                     }
-                    counts[bx] += c;
+                    x = j;
                 }
             }
             for (int bx = 0; bx < cw; bx++) {
@@ -87,5 +107,20 @@ public final class ReducedOutline {
             }
         });
         return valid;
+    }
+
+    /** Adds the pixels [from, to) of a row to the counts of the k-pixel blocks they lie in. */
+    private static void addRun(int[] counts, int from, int to, int k) {
+        int first = from / k;
+        int last = (to - 1) / k;
+        if (first == last) {
+            counts[first] += to - from;
+            return;
+        }
+        counts[first] += (first + 1) * k - from;
+        for (int b = first + 1; b < last; b++) {
+            counts[b] += k;
+        }
+        counts[last] += to - last * k;
     }
 }

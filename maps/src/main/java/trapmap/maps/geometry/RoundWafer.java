@@ -166,20 +166,25 @@ public record RoundWafer(double diameterMm, Fiducial fiducial, double fiducialAn
         }
 
         @Override
-        double unsignedDistance(double u0, double v) {
+        double size() {
+            return r;
+        }
+
+        @Override
+        double unsignedDistance(double u0, double v, boolean exact) {
             double u = Math.abs(u0); // the outline is mirror-symmetric about the v axis
-            double rho = Math.hypot(u, v);
+            double rho = length(u, v, exact);
             if (kind == 1) {
-                double toFlat = u <= flatHalf ? Math.abs(v + flatD) : Math.hypot(u - flatHalf, v + flatD);
+                double toFlat = u <= flatHalf ? Math.abs(v + flatD) : length(u - flatHalf, v + flatD, exact);
                 // the arc runs counter-clockwise from the flat's end (c, −d) to the top (0, r)
                 double toArc = flatHalf * v + flatD * u >= 0 ? Math.abs(rho - r)
-                        : Math.hypot(u - flatHalf, v + flatD);
+                        : length(u - flatHalf, v + flatD, exact);
                 return Math.min(toFlat, toArc);
             }
             if (kind == 2) {
-                double toSide = segmentDistance(u, v, 0, apexY, cornerX, cornerY);
+                double toSide = segmentDistance(u, v, 0, apexY, cornerX, cornerY, exact);
                 double toArc = cornerX * v - cornerY * u >= 0 ? Math.abs(rho - r)
-                        : Math.hypot(u - cornerX, v - cornerY);
+                        : length(u - cornerX, v - cornerY, exact);
                 return Math.min(toSide, toArc);
             }
             return Math.abs(rho - r);
@@ -191,11 +196,12 @@ public record RoundWafer(double diameterMm, Fiducial fiducial, double fiducialAn
         return r * r * Math.acos(d / r) - d * c;
     }
 
-    static double segmentDistance(double px, double py, double ax, double ay, double bx, double by) {
+    /** Distance from (px, py) to the segment from a to b, mm; lengths by {@link LocalFrame#length}. */
+    static double segmentDistance(double px, double py, double ax, double ay, double bx, double by, boolean exact) {
         double ex = bx - ax;
         double ey = by - ay;
         double t = ((px - ax) * ex + (py - ay) * ey) / (ex * ex + ey * ey);
         t = Math.max(0, Math.min(1, t));
-        return Math.hypot(px - ax - t * ex, py - ay - t * ey);
+        return LocalFrame.length(px - ax - t * ex, py - ay - t * ey, exact);
     }
 }

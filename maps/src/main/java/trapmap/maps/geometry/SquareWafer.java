@@ -134,7 +134,12 @@ public record SquareWafer(double sideMm, double diagonalMm, double rotationDeg, 
         }
 
         @Override
-        double unsignedDistance(double u0, double v0) {
+        double size() {
+            return r + h;
+        }
+
+        @Override
+        double unsignedDistance(double u0, double v0, boolean exact) {
             double u = Math.abs(u0);
             double v = Math.abs(v0);
             if (v > u) {
@@ -142,12 +147,12 @@ public record SquareWafer(double sideMm, double diagonalMm, double rotationDeg, 
                 u = v;
                 v = t;
             }
-            double toSide = v <= yc ? Math.abs(u - h) : Math.hypot(u - h, v - yc);
+            double toSide = v <= yc ? Math.abs(u - h) : length(u - h, v - yc, exact);
             if (full) {
                 return toSide;
             }
             // the corner arc runs counter-clockwise from (h, yc) to the diagonal
-            double toArc = h * v - yc * u >= 0 ? Math.abs(Math.hypot(u, v) - r) : Math.hypot(u - h, v - yc);
+            double toArc = h * v - yc * u >= 0 ? Math.abs(length(u, v, exact) - r) : length(u - h, v - yc, exact);
             return Math.min(toSide, toArc);
         }
     }

@@ -146,5 +146,25 @@ public sealed interface WaferShape permits RoundWafer, SquareWafer {
 
         /** As {@link WaferShape#distanceToEdgeMm(double, double)}. */
         double distanceToEdgeMm(double xMm, double yMm);
+
+        /**
+         * {@link #distanceToEdgeMm} with square roots of sums of squares where it takes {@link Math#hypot} (several
+         * times faster), for deciding which side of a threshold a point lies on: it differs from the exact distance by
+         * less than {@link #nearDistanceErrorMm}, so a point farther than that from the threshold lies on the same side
+         * of it; only nearer ones need the exact distance.
+         */
+        default double nearDistanceToEdgeMm(double xMm, double yMm) {
+            return distanceToEdgeMm(xMm, yMm);
+        }
+
+        /**
+         * A bound, mm, on |{@link #nearDistanceToEdgeMm} − {@link #distanceToEdgeMm}| at a point whose coordinates
+         * relative to the shape centre are at most {@code extentMm} in size: 1e-12 of (1 mm + extent + the shape's
+         * size), far above the few units in the last place that a square root, a square and a sum add to
+         * {@link Math#hypot}'s own rounding (about 1e-16 relative each).
+         */
+        default double nearDistanceErrorMm(double extentMm) {
+            return 0;
+        }
     }
 }

@@ -118,6 +118,11 @@ public record InvalidArea(int evaluatedCount, int nonFiniteCount, int nonPositiv
             invalidConversion += other.invalidConversion;
         }
 
+        /** Adds {@code n} evaluated pixels that a caller found usable ({@link Cause#USABLE}) without adding each. */
+        public void addUsable(int n) {
+            evaluated += n;
+        }
+
         /** Adds {@code n} evaluated pixels without data (NaN inside the wafer), which a caller skipped. */
         public void addMissing(int n) {
             evaluated += n;

@@ -294,6 +294,14 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
      * estimates {@link #of} gives for the same values.
      */
     public static double[] percentiles(float[] values, int n, double[] percents) {
+        return percentiles(values, n, percents, null);
+    }
+
+    /**
+     * As {@link #percentiles(float[], int, double[])} (the same estimates) with the radix buckets of values[0..n)
+     * already counted by the caller into {@code counted} (null: not counted), so that only the gathering pass runs.
+     */
+    public static double[] percentiles(float[] values, int n, double[] percents, RankBuckets counted) {
         double[] out = new double[percents.length];
         if (n == 0) {
             Arrays.fill(out, Double.NaN);
@@ -311,7 +319,7 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
             wanted[2 * k + 1] = Math.min(lower[k] + 1, n - 1);
         }
         int[] ranks = Arrays.stream(wanted).sorted().distinct().toArray();
-        double[] at = Selection.ranks(values, n, ranks);
+        double[] at = counted == null ? Selection.ranks(values, n, ranks) : counted.ranks(values, n, ranks);
         for (int k = 0; k < percents.length; k++) {
             double lo = at[Arrays.binarySearch(ranks, lower[k])];
             double hi = at[Arrays.binarySearch(ranks, Math.min(lower[k] + 1, n - 1))];

@@ -9,7 +9,7 @@ import trapmap.maps.raster.Blocks;
  */
 final class Selection {
     private static final int SMALL = 16;
-    private static final int BUCKETS = 1 << 16;
+    static final int BUCKETS = 1 << 16;
     /** Up to this many values are sorted outright. */
     static final int SORTED = 1 << 12;
     /** Values per chunk of the parallel counting and gathering passes. */
@@ -140,7 +140,7 @@ final class Selection {
     }
 
     /** Bucket of a float: the top 16 bits of its order-preserving key (negative values reversed, then offset). */
-    private static int bucket(float f) {
+    static int bucket(float f) {
         int bits = Float.floatToRawIntBits(f);
         int key = bits ^ ((bits >> 31) & 0x7fffffff);
         return (key >> 16) + (BUCKETS >> 1);

@@ -53,9 +53,8 @@ class RecurrenceCentreTest {
         // a 20 × 20 map at 100 mm pitch whose centre is 1e7 px (1e9 mm) to the left of its first column: the reader
         // accepts it (|centre| <= 1e9 px), but in 1 mm cells its wafer lies 1e9 mm from the centre
         PixelGrid g = new PixelGrid(20, 20, 100, -1e7, 10);
-        boolean[] all = new boolean[400];
-        java.util.Arrays.fill(all, true);
-        Footprint f = Footprint.of("unfitted", g, all, new BitSet());
+        int[] all = java.util.stream.IntStream.range(0, 400).toArray();
+        Footprint f = Footprint.of("unfitted", g, all, all.length, new BitSet());
         RecurrenceMap r = new RecurrenceMap();
         assertThat(r.add(f)).isFalse();
         assertThat(r.maps()).isEmpty();

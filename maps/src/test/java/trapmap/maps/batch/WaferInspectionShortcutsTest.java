@@ -14,6 +14,7 @@ import trapmap.maps.geometry.OutlineDetection;
 import trapmap.maps.geometry.OutlineFit;
 import trapmap.maps.geometry.SquareWafer;
 import trapmap.maps.geometry.WaferFormat;
+import trapmap.maps.geometry.RoundWafer;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.model.Quantity;
@@ -60,6 +61,24 @@ class WaferInspectionShortcutsTest {
             for (int k = 1; k < masks.count(); k++) {
                 assertThat(masks.indices()[k]).isGreaterThan(masks.indices()[k - 1]);
             }
+        }
+    }
+
+    /** Pixels exactly at the exclusion distance (integer coordinates on a disk) are decided by the exact distance. */
+    @ParameterizedTest
+    @ValueSource(doubles = {0, 4, 5, 7})
+    void masksAtExactlyTheExclusionDistanceEqualTheShapeMask(double exclusionMm) {
+        PixelGrid grid = PixelGrid.centred(31, 31, 1);
+        WaferShape disk = RoundWafer.disk(20);
+        float[] tau = new float[31 * 31];
+        java.util.Arrays.fill(tau, 100f);
+        Masks masks = Masks.of(tau, grid, disk, exclusionMm, exclusionMm + 1);
+        Mask expected = disk.mask(grid, exclusionMm);
+        Mask centre = disk.mask(grid, exclusionMm + 1);
+        assertThat(masks.count()).isEqualTo(expected.count());
+        for (int i = 0; i < tau.length; i++) {
+            assertThat(masks.evaluated()[i]).as("pixel %d", i).isEqualTo(expected.containsIndex(i));
+            assertThat(masks.centre()[i]).as("centre pixel %d", i).isEqualTo(centre.containsIndex(i));
         }
     }
 
@@ -290,7 +309,7 @@ class WaferInspectionShortcutsTest {
         Masks masks = Masks.of(m.raster().samples(), m.grid(), shape, 2, Double.NaN);
         BitSet flagged = FlaggedRegions.find(m.raster(), m.grid(), masks.indices(), masks.count(),
                 RegionCriteria.below(60, 1), shape, null).pixels();
-        Footprint f = Footprint.of("m2", m.grid(), masks.evaluated(), flagged);
+        Footprint f = Footprint.of("m2", m.grid(), masks.indices(), masks.count(), flagged);
         PixelGrid g = m.grid();
         for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
             int cx = Footprint.cell(g.xMm(i % g.width()), 1) - f.minI();
@@ -306,6 +325,36 @@ class WaferInspectionShortcutsTest {
             }
         }
         assertThat(f.covered()).isEqualTo(covered);
+    }
+
+    /** Covered cells from the indices (runs skipped) equal those of every evaluated pixel, holes and all. */
+    @ParameterizedTest
+    @ValueSource(doubles = {0.16, 0.3, 1, 2.5})
+    void footprintCoversTheCellsOfEveryEvaluatedPixel(double pitchMm) {
+        Random rnd = new Random(Double.hashCode(pitchMm));
+        int w = 173;
+        int h = 91;
+        PixelGrid g = PixelGrid.centred(w, h, pitchMm);
+        int[] indices = new int[w * h];
+        int count = 0;
+        for (int i = 0; i < w * h; i++) {
+            // long evaluated stretches with holes of one pixel and longer gaps, as around defects and the edge
+            int x = i % w;
+            boolean gap = x < 7 || x > w - 12 || (i / w) % 17 == 3 && x > 40 && x < 90;
+            boolean hole = (i / w) % 3 == 0 && rnd.nextInt(40) == 0; // every third row has holes
+            if (!gap && !hole) {
+                indices[count++] = i;
+            }
+        }
+        Footprint f = Footprint.of("m2", g, indices, count, new BitSet());
+        BitSet covered = new BitSet();
+        for (int k = 0; k < count; k++) {
+            int i = indices[k];
+            covered.set((Footprint.cell(g.yMm(i / w), 1) - f.minJ()) * f.width()
+                    + Footprint.cell(g.xMm(i % w), 1) - f.minI());
+        }
+        assertThat(f.covered()).isEqualTo(covered);
+        assertThat(Footprint.of("m2", g, indices, 0, new BitSet()).covered().isEmpty()).isTrue();
     }
 
     @Test

@@ -49,6 +49,29 @@ class WaferShapeTest {
         return pts;
     }
 
+    /** The near distance (square roots for hypot) stays within its stated bound of the exact one, on both sides. */
+    @ParameterizedTest
+    @MethodSource("shapes")
+    void nearDistanceStaysWithinItsBoundOfTheExactOne(WaferShape s) {
+        WaferShape.Prepared p = s.prepared();
+        Random r = new Random(9);
+        double worst = 0;
+        for (int k = 0; k < 200_000; k++) {
+            double dx = (r.nextDouble() * 2.4 - 1.2) * s.boundingRadiusMm();
+            double dy = (r.nextDouble() * 2.4 - 1.2) * s.boundingRadiusMm();
+            double x = s.centreXMm() + dx;
+            double y = s.centreYMm() + dy;
+            double exact = p.distanceToEdgeMm(x, y);
+            double near = p.nearDistanceToEdgeMm(x, y);
+            double bound = p.nearDistanceErrorMm(Math.abs(dx) + Math.abs(dy));
+            assertThat(Math.abs(near - exact)).as("(%s, %s)", x, y).isLessThanOrEqualTo(bound);
+            assertThat(Math.signum(near)).isEqualTo(Math.signum(exact));
+            worst = Math.max(worst, Math.abs(near - exact) / bound);
+        }
+        // the bound is generous: the differences are rounding, a thousandth of it or less
+        assertThat(worst).isLessThan(1e-3);
+    }
+
     @ParameterizedTest
     @MethodSource("shapes")
     void distanceMatchesADenselySampledOutline(WaferShape s) {
