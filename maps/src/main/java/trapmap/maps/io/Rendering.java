@@ -72,6 +72,12 @@ public final class Rendering {
 
     /** The answer of {@link #missing()}, probed once. */
     private static volatile Optional<Missing> answer;
+    /**
+     * The message of the {@link ExceptionInInitializerError} behind a class whose start failed earlier in the process,
+     * possibly on another thread: {@code Exception java.lang.UnsatisfiedLinkError: ... [in thread "t"]}.
+     */
+    private static final Pattern EARLIER = Pattern.compile("Exception (\\S+(?:: .*?)?)(?: \\[in thread \"[^\"]*\"\\])?",
+            Pattern.DOTALL);
 
     private Rendering() {
     }
@@ -240,9 +246,12 @@ public final class Rendering {
 
     /** The failure in one line, without the {@code java.lang.} of its class. */
     private static String cause(Throwable t) {
-        String s = t.getClass().getName().replaceFirst("^java\\.(lang|awt)\\.", "")
-                + (t.getMessage() == null ? "" : ": " + t.getMessage());
-        return s.replaceAll("\\s*\\R\\s*", " ").strip();
+        String s = t.getClass().getName() + (t.getMessage() == null ? "" : ": " + t.getMessage());
+        Matcher earlier = EARLIER.matcher(String.valueOf(t.getMessage()));
+        if (t instanceof ExceptionInInitializerError && earlier.matches()) {
+            s = earlier.group(1); // the first failure, as it was thrown (here or on another thread)
+        }
+        return s.replaceFirst("^java\\.(lang|awt)\\.", "").replaceAll("\\s*\\R\\s*", " ").strip();
     }
 
     /** A small picture as the thumbnails make it, encoded as PNG. */

@@ -62,6 +62,9 @@ class RenderingTest {
         assertThat(Rendering.failure(again)).hasValueSatisfying(m -> assertThat(m.remedy())
                 .as("the library the first failure named").startsWith("install the font libraries and a font"
                         + " (Debian/Ubuntu: apt-get install libharfbuzz0b "));
+        assertThat(Rendering.failure(again)).hasValueSatisfying(m -> assertThat(m.cause())
+                .as("told as the first failure was thrown, whichever thread met it")
+                .isEqualTo("UnsatisfiedLinkError: " + HARFBUZZ));
     }
 
     @Test
