@@ -53,7 +53,7 @@ final class IndexedPng {
                 }
             }
         }
-        byte[] deflated = deflated(rows(width, height, pixels, position));
+        byte[] deflated = deflated(rows(width, height, pixels, position, colours));
         ByteArrayOutputStream out = new ByteArrayOutputStream(deflated.length + 4 * colours + 128);
         out.writeBytes(SIGNATURE);
         byte[] header = new byte[13];
@@ -84,15 +84,26 @@ final class IndexedPng {
         return out.toByteArray();
     }
 
-    /** The scanlines: each row's filter type byte, then its indices, index k written as {@code position[k]}. */
-    private static byte[] rows(int width, int height, byte[] pixels, int[] position) {
+    /**
+     * The scanlines: each row's filter type byte, then its indices, index k (below {@code colours}) written as {@code position[k]} (copied
+     * as they are when no index moves, as in a thumbnail, whose only colour that is not opaque comes first).
+     */
+    private static byte[] rows(int width, int height, byte[] pixels, int[] position, int colours) {
+        boolean same = true;
+        for (int k = 0; k < colours; k++) {
+            same &= position[k] == k;
+        }
         byte[] raw = new byte[(width + 1) * height];
         for (int y = 0; y < height; y++) {
             int from = y * width;
             int to = y * (width + 1);
             raw[to++] = NO_FILTER;
-            for (int x = 0; x < width; x++) {
-                raw[to + x] = (byte) position[pixels[from + x] & 0xFF];
+            if (same) {
+                System.arraycopy(pixels, from, raw, to, width);
+            } else {
+                for (int x = 0; x < width; x++) {
+                    raw[to + x] = (byte) position[pixels[from + x] & 0xFF];
+                }
             }
         }
         return raw;
