@@ -15,7 +15,7 @@ import javax.imageio.stream.MemoryCacheImageOutputStream;
 
 /**
  * PNG pictures written quickly, for the many small pictures of a batch. A picture of at most 256 colours gets a
- * palette and goes through {@link IndexedPng}; any other through the JDK's PNG writer, encoding in memory (no
+ * palette and goes through {@link PlainPng}, as does an opaque RGB picture; any other through the JDK's PNG writer, encoding in memory (no
  * temporary cache file), with explicit compression quality 0.9, a fast low deflate level (quality 1 would store the
  * data uncompressed), about a quarter larger than with the writer's default setting. Either way the file decodes to
  * the same pixels.
@@ -34,15 +34,22 @@ public final class PngFiles {
 
     /**
      * The PNG bytes of {@code img}. A {@code TYPE_INT_ARGB} picture of at most 256 colours (a thumbnail: the colour
-     * scale, transparency and an outline colour) is written by {@link IndexedPng} with a palette of exactly its
-     * colours, in the order they first appear: one byte per pixel, deflated, and the same pixels when decoded. Any
-     * other picture goes through the JDK's PNG writer.
+     * scale, transparency and an outline colour) is written by {@link PlainPng} with a palette of exactly its
+     * colours, in the order they first appear: one byte per pixel, stored, and the same pixels when decoded. A
+     * {@code TYPE_INT_RGB} picture of more colours (a recurrence picture) is written by {@link PlainPng} as 8-bit RGB,
+     * deflated. Any other picture goes through the JDK's PNG writer.
      */
     public static byte[] encode(BufferedImage img) {
         Indexed indexed = palette(img);
-        return indexed == null ? encode(img, FAST_QUALITY)
-                : IndexedPng.encode(img.getWidth(), img.getHeight(), indexed.pixels(), indexed.argb(),
-                        indexed.colours());
+        if (indexed != null) {
+            return PlainPng.palette(img.getWidth(), img.getHeight(), indexed.pixels(), indexed.argb(),
+                    indexed.colours());
+        }
+        if (img.getType() == BufferedImage.TYPE_INT_RGB) {
+            return PlainPng.rgb(img.getWidth(), img.getHeight(),
+                    (int[]) img.getRaster().getDataElements(0, 0, img.getWidth(), img.getHeight(), null));
+        }
+        return encode(img, FAST_QUALITY);
     }
 
     /** Largest palette of a PNG image with 8-bit indices. */

@@ -140,6 +140,28 @@ class PngFilesTest {
         }
     }
 
+    @Test
+    void rgbPicturesDecodeAsTheJdkWritersFileDoes() throws Exception {
+        Random rnd = new Random(17);
+        for (int[] size : new int[][] {{1, 1}, {1, 40}, {40, 1}, {581, 519}, {97, 63}}) {
+            BufferedImage img = new BufferedImage(size[0], size[1], BufferedImage.TYPE_INT_RGB);
+            for (int y = 0; y < size[1]; y++) {
+                for (int x = 0; x < size[0]; x++) {
+                    // flat areas, a ramp and noise: more than 256 colours
+                    int c = x < size[0] / 3 ? 0xE6E6E6 : x < 2 * size[0] / 3 ? (x * 255 / size[0]) << 8 | y % 256
+                            : rnd.nextInt(1 << 24);
+                    img.setRGB(x, y, c);
+                }
+            }
+            assertThat(PngFiles.palette(img)).isNull();
+            ByteArrayOutputStream jdk = new ByteArrayOutputStream();
+            ImageIO.write(img, "png", jdk);
+            BufferedImage mine = ImageIO.read(new ByteArrayInputStream(PngFiles.encode(img)));
+            assertSamePixels(mine, img);
+            assertSamePixels(mine, ImageIO.read(new ByteArrayInputStream(jdk.toByteArray())));
+        }
+    }
+
     /** Whether some colour of the palette is not grey (the JDK writer keeps a palette only then). */
     private static boolean coloured(PngFiles.Indexed p) {
         for (int k = 0; k < p.colours(); k++) {

@@ -15,7 +15,7 @@ import javax.imageio.stream.ImageOutputStream;
 import javax.imageio.stream.MemoryCacheImageOutputStream;
 
 /**
- * The earlier way of writing a picture of at most 256 colours, as a reference for {@link IndexedPng}: an 8-bit
+ * The earlier way of writing a picture of at most 256 colours, as a reference for {@link PlainPng}: an 8-bit
  * {@link IndexColorModel} picture of {@link PngFiles#palette}'s colours, stored (compression quality 1) by the JDK's
  * PNG writer; and the check that two PNG files decode (JDK reader) to the same palette and pixels.
  */

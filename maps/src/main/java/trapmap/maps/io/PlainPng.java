@@ -6,34 +6,36 @@ import java.util.zip.CRC32;
 import java.util.zip.Deflater;
 
 /**
- * The bytes of an 8-bit palette PNG (PNG specification, 2nd edition, W3C/ISO 15948: signature, IHDR with colour type
- * 3, PLTE, tRNS when a colour is not opaque, one IDAT, IEND), the zlib stream of {@link Deflater} storing the rows
- * without compression, filter type 0 on every row (the filter the specification recommends for palette images). At
- * one byte per pixel a 256² thumbnail stored (66 kB) is about as small as the four-channel picture deflated, and
- * deflating at the fastest level (40 kB on the benchmark maps) would triple the encoding time (1.3 ms instead of
- * 0.4 ms of CPU per picture).
+ * The bytes of a PNG (PNG specification, 2nd edition, W3C/ISO 15948) with filter type 0 on every row, one IDAT
+ * chunk of {@link Deflater}'s zlib stream: 8-bit palette pictures (IHDR with colour type 3, PLTE, tRNS when a colour
+ * is not opaque) with the rows stored without compression, and opaque 8-bit RGB pictures (colour type 2) deflated
+ * at the fastest level. Palette: at one byte per pixel a 256² thumbnail stored (66 kB) is about as small as the
+ * four-channel picture deflated, and deflating at the fastest level (40 kB on the benchmark maps) would triple the
+ * encoding time (1.3 ms instead of 0.4 ms of CPU per picture).
  *
- * <p>Why not the JDK's PNG writer, which {@link PngFiles} uses for every other picture: a batch writes one thumbnail
- * per wafer, and the JDK writer's per-row loop ({@code PNGImageWriter.encodePass}, a 70–85 kB compiled method) was
- * compiled by C2 three to four times in a run, plus its metadata set-up and row filter: about 1.5 s of CPU of a
- * 200-wafer run (a quarter of all compiling), and 3.4–3.8 ms of CPU per picture besides. This writer takes 0.4 ms
- * per picture; the palette, indices and pixels decoded are the same ({@code PngFilesTest}, {@code ThumbnailPngTest}).
+ * <p>Why not the JDK's PNG writer: a batch writes one thumbnail per wafer and a recurrence picture per wafer family,
+ * and the JDK writer's per-row loop ({@code PNGImageWriter.encodePass}, a 70–85 kB compiled method) was compiled by
+ * C2 three to four times in a run, plus its metadata set-up and row filter: about 1.2 s of the compiler threads'
+ * 4.8 s CPU in a 200-wafer run, and 3.4–3.8 ms of CPU per thumbnail besides. This writer takes 0.4 ms per thumbnail;
+ * the palette, indices and pixels decoded are the same ({@code PngFilesTest}, {@code ThumbnailPngTest}).
  */
-final class IndexedPng {
+final class PlainPng {
     private static final byte[] SIGNATURE = {(byte) 0x89, 'P', 'N', 'G', '\r', '\n', 0x1A, '\n'};
     /** Colour type of palette images. */
     private static final int PALETTE = 3;
+    /** Colour type of red, green, blue images. */
+    private static final int TRUECOLOUR = 2;
     /** Filter type "None" before each row. */
     private static final byte NO_FILTER = 0;
 
-    private IndexedPng() {
+    private PlainPng() {
     }
 
     /**
      * The PNG of {@code width} × {@code height} pixels given by their palette indices {@code pixels} (rows from the
      * top, {@code width} bytes each) and the palette's ARGB colours {@code argb[0..colours)}, 1 to 256 of them.
      */
-    static byte[] encode(int width, int height, byte[] pixels, int[] argb, int colours) {
+    static byte[] palette(int width, int height, byte[] pixels, int[] argb, int colours) {
         if (width <= 0 || height <= 0 || colours <= 0 || colours > 256 || pixels.length < (long) width * height) {
             throw new IllegalArgumentException("palette PNG of " + width + " x " + height + " px, " + colours
                     + " colours, " + pixels.length + " index bytes");
@@ -53,16 +55,10 @@ final class IndexedPng {
                 }
             }
         }
-        byte[] deflated = deflated(rows(width, height, pixels, position, colours));
+        byte[] deflated = deflated(rows(width, height, pixels, position, colours), Deflater.NO_COMPRESSION);
         ByteArrayOutputStream out = new ByteArrayOutputStream(deflated.length + 4 * colours + 128);
         out.writeBytes(SIGNATURE);
-        byte[] header = new byte[13];
-        putInt(header, 0, width);
-        putInt(header, 4, height);
-        header[8] = 8; // bits per index
-        header[9] = PALETTE;
-        // compression 0 (deflate), filter method 0, no interlace
-        chunk(out, "IHDR", header, header.length);
+        chunk(out, "IHDR", header(width, height, PALETTE), 13);
         byte[] plte = new byte[3 * colours];
         for (int k = 0; k < colours; k++) {
             int c = argb[order[k]];
@@ -82,6 +78,52 @@ final class IndexedPng {
         chunk(out, "IDAT", deflated, deflated.length);
         chunk(out, "IEND", new byte[0], 0);
         return out.toByteArray();
+    }
+
+    /**
+     * The PNG of an opaque picture of {@code width} × {@code height} pixels, {@code rgb} holding each pixel's red,
+     * green and blue in its low 24 bits (rows from the top), 8 bits a sample, deflated at the fastest level (a
+     * picture drawn of flat areas, such as a recurrence map, shrinks to a few per cent; stored it would be three
+     * bytes a pixel).
+     */
+    static byte[] rgb(int width, int height, int[] rgb) {
+        if (width <= 0 || height <= 0 || rgb.length < (long) width * height) {
+            throw new IllegalArgumentException("RGB PNG of " + width + " x " + height + " px, " + rgb.length
+                    + " pixels");
+        }
+        int rowBytes = 3 * width + 1;
+        byte[] raw = new byte[rowBytes * height];
+        for (int y = 0; y < height; y++) {
+            rgbRow(rgb, y * width, width, raw, y * rowBytes);
+        }
+        byte[] deflated = deflated(raw, Deflater.BEST_SPEED);
+        ByteArrayOutputStream out = new ByteArrayOutputStream(deflated.length + 128);
+        out.writeBytes(SIGNATURE);
+        chunk(out, "IHDR", header(width, height, TRUECOLOUR), 13);
+        chunk(out, "IDAT", deflated, deflated.length);
+        chunk(out, "IEND", new byte[0], 0);
+        return out.toByteArray();
+    }
+
+    /** One scanline of an RGB picture: the filter type byte, then red, green, blue of each pixel. */
+    private static void rgbRow(int[] rgb, int from, int width, byte[] raw, int to) {
+        raw[to++] = NO_FILTER;
+        for (int x = 0; x < width; x++) {
+            int c = rgb[from + x];
+            raw[to++] = (byte) (c >>> 16);
+            raw[to++] = (byte) (c >>> 8);
+            raw[to++] = (byte) c;
+        }
+    }
+
+    /** The 13 bytes of an IHDR chunk: 8 bits a sample, deflate, filter method 0, no interlace. */
+    private static byte[] header(int width, int height, int colourType) {
+        byte[] header = new byte[13];
+        putInt(header, 0, width);
+        putInt(header, 4, height);
+        header[8] = 8;
+        header[9] = (byte) colourType;
+        return header;
     }
 
     /**
@@ -109,9 +151,9 @@ final class IndexedPng {
         return raw;
     }
 
-    /** A zlib stream of {@code raw}, stored. */
-    private static byte[] deflated(byte[] raw) {
-        Deflater deflater = new Deflater(Deflater.NO_COMPRESSION);
+    /** A zlib stream of {@code raw} at deflate {@code level}. */
+    private static byte[] deflated(byte[] raw, int level) {
+        Deflater deflater = new Deflater(level);
         try {
             deflater.setInput(raw);
             deflater.finish();
