@@ -127,8 +127,9 @@ final class PlainPng {
     }
 
     /**
-     * The scanlines: each row's filter type byte, then its indices, index k (below {@code colours}) written as {@code position[k]} (copied
-     * as they are when no index moves, as in a thumbnail, whose only colour that is not opaque comes first).
+     * The scanlines: each row's filter type byte, then its indices, index k (below {@code colours}) written as
+     * {@code position[k]} (copied as they are when no index moves, as in a thumbnail, whose only colour that is not
+     * opaque comes first).
      */
     private static byte[] rows(int width, int height, byte[] pixels, int[] position, int colours) {
         boolean same = true;

@@ -15,10 +15,10 @@ import javax.imageio.stream.MemoryCacheImageOutputStream;
 
 /**
  * PNG pictures written quickly, for the many small pictures of a batch. A picture of at most 256 colours gets a
- * palette and goes through {@link PlainPng}, as does an opaque RGB picture; any other through the JDK's PNG writer, encoding in memory (no
- * temporary cache file), with explicit compression quality 0.9, a fast low deflate level (quality 1 would store the
- * data uncompressed), about a quarter larger than with the writer's default setting. Either way the file decodes to
- * the same pixels.
+ * palette and goes through {@link PlainPng}, as does an opaque RGB picture; any other through the JDK's PNG writer,
+ * encoding in memory (no temporary cache file), with explicit compression quality 0.9, a fast low deflate level
+ * (quality 1 would store the data uncompressed), about a quarter larger than with the writer's default setting.
+ * Either way the file decodes to the same pixels.
  */
 public final class PngFiles {
     /** Compression quality of the JDK PNG writer: lower quality means stronger, slower deflate. */
