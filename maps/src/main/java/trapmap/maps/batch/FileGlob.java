@@ -366,14 +366,7 @@ public final class FileGlob {
         boolean[][] ok = new boolean[m + 1][n + 1];
         ok[m][n] = true;
         for (int i = m - 1; i >= 0; i--) {
-            char g = glob.charAt(i);
-            for (int j = n; j >= 0; j--) {
-                if (g == '*') {
-                    ok[i][j] = ok[i + 1][j] || (j < n && ok[i][j + 1]);
-                } else {
-                    ok[i][j] = j < n && (g == '?' || name.charAt(j) == g) && ok[i + 1][j + 1];
-                }
-            }
+            matches(glob.charAt(i), name, ok[i], ok[i + 1]);
         }
         if (!ok[0][0]) {
             return null;
@@ -397,5 +390,26 @@ public final class FileGlob {
             }
         }
         return parts;
+    }
+
+    /**
+     * Row {@code here} of the table: whether glob character {@code g} and the rest of the glob after it (row
+     * {@code after}) match each end {@code name[j..)}. Loops without tests of the end inside, a method of its own:
+     * called for every file name, the table's loops in one method were deoptimised and compiled again five times a
+     * batch.
+     */
+    private static void matches(char g, String name, boolean[] here, boolean[] after) {
+        int n = name.length();
+        if (g == '*') {
+            here[n] = after[n];
+            for (int j = n - 1; j >= 0; j--) {
+                here[j] = after[j] || here[j + 1];
+            }
+        } else {
+            here[n] = false;
+            for (int j = n - 1; j >= 0; j--) {
+                here[j] = (g == '?' || name.charAt(j) == g) && after[j + 1];
+            }
+        }
     }
 }

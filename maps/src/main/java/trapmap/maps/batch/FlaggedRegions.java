@@ -141,29 +141,132 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
      * Labels the selected pixels, {@code seeds[0..selected)} in ascending order and marked in {@code open} (cleared as
      * they are labelled), each region from its first pixel in that order; {@code s} and {@code density} are read at
      * those pixels only.
+     *
+     * <p>The work is split into small methods, each with one loop: finding the next unlabelled seed, growing a region,
+     * and the figures of a kept region. A batch calls this once per wafer with long loops, so HotSpot compiles what
+     * runs long while it runs (on-stack replacement): one large method of all of it was compiled by C2 five times a
+     * batch (each loop separately, and again when a class first used at a region that is kept was not yet loaded), at
+     * about 0.2 s of compiler CPU each; the small methods are compiled once each, cheaply.
      */
     private static FlaggedRegions label(float[] s, int w, int h, PixelGrid grid, int[] seeds, int selected,
                                         boolean[] open, RegionCriteria criteria, WaferShape shape, float[] density,
                                         double insideMm, int[] queue) {
-        WaferShape.Prepared edge = shape == null ? null : shape.prepared();
-        double pixelArea = grid.pixelAreaMm2();
-        int[] offset = new int[8];
-        for (int k = 0; k < 8; k++) {
-            offset[k] = DY[k] * w + DX[k];
-        }
-        List<FlaggedRegion> regions = new ArrayList<>();
-        BitSet kept = new BitSet(w * h);
-        boolean above = criteria.side() == RegionCriteria.Side.ABOVE;
-        boolean bordersOnly = insideMm >= grid.pitchMm();
-        for (int next = 0; next < selected; next++) {
-            int seed = seeds[next];
-            if (!open[seed]) {
-                continue;
+        Labelling l = new Labelling(s, w, h, grid, open, queue, criteria, shape, density, insideMm);
+        int next = 0;
+        while ((next = nextOpen(seeds, next, selected, open)) < selected) {
+            int size = l.grow(seeds[next++]);
+            if (!(size * l.pixelArea < criteria.minAreaMm2())) {
+                l.keep(size);
             }
+        }
+        return new FlaggedRegions(l.regions, l.kept);
+    }
+
+    /** The first k in [{@code from}, {@code selected}) whose seed is still open, or {@code selected}. */
+    private static int nextOpen(int[] seeds, int from, int selected, boolean[] open) {
+        int k = from;
+        while (k < selected && !open[seeds[k]]) {
+            k++;
+        }
+        return k;
+    }
+
+    /** One labelling: the inputs, the queue of the region being grown, and the regions kept so far. */
+    private static final class Labelling {
+        final float[] s;
+        final int w;
+        final int h;
+        final PixelGrid grid;
+        final boolean[] open;
+        /** The pixels of the region grown last, in the order they were reached (breadth-first). */
+        final int[] queue;
+        final boolean above;
+        final WaferShape.Prepared edge;
+        final float[] density;
+        final boolean bordersOnly;
+        final double pixelArea;
+        final int[] offset = new int[8];
+        final List<FlaggedRegion> regions = new ArrayList<>();
+        final BitSet kept;
+
+        Labelling(float[] s, int w, int h, PixelGrid grid, boolean[] open, int[] queue, RegionCriteria criteria,
+                  WaferShape shape, float[] density, double insideMm) {
+            this.s = s;
+            this.w = w;
+            this.h = h;
+            this.grid = grid;
+            this.open = open;
+            this.queue = queue;
+            this.above = criteria.side() == RegionCriteria.Side.ABOVE;
+            this.edge = shape == null ? null : shape.prepared();
+            this.density = density;
+            this.bordersOnly = insideMm >= grid.pitchMm();
+            this.pixelArea = grid.pixelAreaMm2();
+            this.kept = new BitSet(w * h);
+            for (int k = 0; k < 8; k++) {
+                offset[k] = DY[k] * w + DX[k];
+            }
+        }
+
+        /**
+         * Grows the region of {@code seed} breadth-first over the open pixels (8-connected) into the queue, clearing
+         * them in {@code open}; returns its pixel count. Breadth-first, so that the pixels are summed in the same
+         * order as ThresholdRegions sums them.
+         */
+        int grow(int seed) {
+            boolean[] open = this.open;
+            int[] queue = this.queue;
+            int[] offset = this.offset;
+            int w = this.w;
+            int h = this.h;
             open[seed] = false;
-            int head = 0;
-            int tail = 0;
-            queue[tail++] = seed;
+            queue[0] = seed;
+            int tail = 1;
+            for (int head = 0; head < tail; head++) {
+                int i = queue[head];
+                int y = i / w;
+                int x = i - y * w;
+                if (x > 0 && y > 0 && x < w - 1 && y < h - 1) {
+                    for (int k = 0; k < 8; k++) {
+                        int j = i + offset[k];
+                        if (open[j]) {
+                            open[j] = false;
+                            queue[tail++] = j;
+                        }
+                    }
+                } else {
+                    tail = growAtBorder(x, y, tail);
+                }
+            }
+            return tail;
+        }
+
+        /** The open neighbours of the pixel (x, y) on the raster's border, queued from {@code tail}; the new tail. */
+        private int growAtBorder(int x, int y, int tail) {
+            for (int k = 0; k < 8; k++) {
+                int nx = x + DX[k];
+                int ny = y + DY[k];
+                if (nx >= 0 && ny >= 0 && nx < w && ny < h && open[ny * w + nx]) {
+                    open[ny * w + nx] = false;
+                    queue[tail++] = ny * w + nx;
+                }
+            }
+            return tail;
+        }
+
+        /** Keeps the region in {@code queue[0..size)}: its pixels and its figures. */
+        void keep(int size) {
+            for (int k = 0; k < size; k++) {
+                kept.set(queue[k]);
+            }
+            double nearest = edge == null ? Double.NaN : nearestEdgeMm(size);
+            double[] densities = density == null ? null : densities(size);
+            regions.add(new FlaggedRegion(region(size, nearest), densities == null ? Double.NaN : densities[0],
+                    densities == null ? Double.NaN : densities[1]));
+        }
+
+        /** The region's figures: centroid, bounds, peak (the first pixel in index order of equal peaks) and mean. */
+        private Region region(int size, double nearestEdgeMm) {
             long sumX = 0;
             long sumY = 0;
             double sumValue = 0;
@@ -171,11 +274,10 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
             int maxX = -1;
             int minY = Integer.MAX_VALUE;
             int maxY = -1;
-            int peakIndex = seed;
-            double peak = s[seed];
-            // breadth-first, so the pixels are summed in the same order as ThresholdRegions sums them
-            while (head < tail) {
-                int i = queue[head++];
+            int peakIndex = queue[0];
+            double peak = s[peakIndex];
+            for (int k = 0; k < size; k++) {
+                int i = queue[k];
                 int y = i / w;
                 int x = i - y * w;
                 double v = s[i];
@@ -190,71 +292,6 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                     peak = v;
                     peakIndex = i;
                 }
-                if (x > 0 && y > 0 && x < w - 1 && y < h - 1) {
-                    for (int k = 0; k < 8; k++) {
-                        int j = i + offset[k];
-                        if (open[j]) {
-                            open[j] = false;
-                            queue[tail++] = j;
-                        }
-                    }
-                } else {
-                    for (int k = 0; k < 8; k++) {
-                        int nx = x + DX[k];
-                        int ny = y + DY[k];
-                        if (nx >= 0 && ny >= 0 && nx < w && ny < h && open[ny * w + nx]) {
-                            open[ny * w + nx] = false;
-                            queue[tail++] = ny * w + nx;
-                        }
-                    }
-                }
-            }
-            int size = tail;
-            double area = size * pixelArea;
-            if (area < criteria.minAreaMm2()) {
-                continue;
-            }
-            double nearest = Double.POSITIVE_INFINITY;
-            float[] dens = density == null ? null : new float[size];
-            double peakDensity = Double.NEGATIVE_INFINITY;
-            for (int k = 0; k < size; k++) {
-                kept.set(queue[k]);
-            }
-            if (edge != null) {
-                for (int k = 0; k < size; k++) {
-                    int i = queue[k];
-                    int y = i / w;
-                    int x = i - y * w;
-                    // earlier kept regions never touch this one (they would be the same 8-connected region)
-                    if (bordersOnly && x > 0 && y > 0 && x < w - 1 && y < h - 1 && kept.get(i - 1)
-                            && kept.get(i + 1) && kept.get(i - w) && kept.get(i + w)) {
-                        continue;
-                    }
-                    nearest = Math.min(nearest, edge.distanceToEdgeMm(grid.xMm(x), grid.yMm(y)));
-                }
-            }
-            for (int k = 0; k < size; k++) {
-                int i = queue[k];
-                if (dens != null) {
-                    dens[k] = density[i];
-                    if (density[i] > peakDensity) {
-                        peakDensity = density[i];
-                    }
-                }
-            }
-            double medianDensity = Double.NaN;
-            if (dens != null) {
-                // the median MapStatistics.of gives: the type-7 P50 of the values that are not NaN
-                int m = 0;
-                for (float f : dens) {
-                    if (f == f) {
-                        dens[m++] = f;
-                    }
-                }
-                medianDensity = MapStatistics.percentiles(dens, m, new double[] {50})[0];
-                peakDensity = m == 0 ? Double.NaN : peakDensity;
-            } else {
-                peakDensity = Double.NaN;
             }
             double halfPx = 0.5;
             Region.BoundsMm bounds = new Region.BoundsMm(grid.xMm(minX - halfPx), grid.yMm(maxY + halfPx),
@@ -262,13 +299,54 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
             double cx = (double) sumX / size;
             double cy = (double) sumY / size;
             Region.CentroidPixel at = Region.CentroidPixel.of(queue, size, w, cx, cy);
-            Region r = new Region(regions.size() + 1, size, area, grid.xMm(cx), grid.yMm(cy), bounds, peak,
-                    grid.xMm(peakIndex % w), grid.yMm(peakIndex / w), sumValue / size,
-                    edge == null ? Double.NaN : nearest, at.inside(),
+            return new Region(regions.size() + 1, size, size * pixelArea, grid.xMm(cx), grid.yMm(cy), bounds, peak,
+                    grid.xMm(peakIndex % w), grid.yMm(peakIndex / w), sumValue / size, nearestEdgeMm, at.inside(),
                     at.inside() ? grid.xMm(cx) : grid.xMm(at.nearestIndex() % w),
                     at.inside() ? grid.yMm(cy) : grid.yMm(at.nearestIndex() / w));
-            regions.add(new FlaggedRegion(r, peakDensity, medianDensity));
         }
-        return new FlaggedRegions(regions, kept);
+
+        /**
+         * The region's distance to the wafer's edge, mm: the least over its pixels, or over its border pixels only
+         * when the pixels lie at least a pitch inside (see {@link #find(FloatRaster, PixelGrid, int[], int,
+         * RegionCriteria, WaferShape, float[], double)}). Called after the region's pixels were added to
+         * {@code kept}; earlier kept regions never touch this one (they would be the same 8-connected region).
+         */
+        private double nearestEdgeMm(int size) {
+            double nearest = Double.POSITIVE_INFINITY;
+            for (int k = 0; k < size; k++) {
+                int i = queue[k];
+                int y = i / w;
+                int x = i - y * w;
+                if (bordersOnly && x > 0 && y > 0 && x < w - 1 && y < h - 1 && kept.get(i - 1)
+                        && kept.get(i + 1) && kept.get(i - w) && kept.get(i + w)) {
+                    continue;
+                }
+                nearest = Math.min(nearest, edge.distanceToEdgeMm(grid.xMm(x), grid.yMm(y)));
+            }
+            return nearest;
+        }
+
+        /**
+         * The region's peak and median trap density, cm^-3: the largest value and the median MapStatistics.of gives
+         * (the type-7 P50 of the values that are not NaN); both NaN when every value is NaN.
+         */
+        private double[] densities(int size) {
+            float[] dens = new float[size];
+            int m = 0;
+            double peakDensity = Double.NEGATIVE_INFINITY;
+            for (int k = 0; k < size; k++) {
+                float f = density[queue[k]];
+                if (f == f) {
+                    dens[m++] = f;
+                    if (f > peakDensity) {
+                        peakDensity = f;
+                    }
+                }
+            }
+            if (m == 0) {
+                return new double[] {Double.NaN, Double.NaN};
+            }
+            return new double[] {peakDensity, MapStatistics.percentiles(dens, m, new double[] {50})[0]};
+        }
     }
 }

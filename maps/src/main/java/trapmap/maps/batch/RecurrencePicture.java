@@ -12,9 +12,9 @@ import java.awt.image.BufferedImage;
 import java.io.IOException;
 import java.nio.file.Path;
 import java.util.BitSet;
-import javax.imageio.ImageIO;
 import trapmap.maps.io.AtomicFiles;
 import trapmap.maps.io.ColourMap;
+import trapmap.maps.io.PngFiles;
 
 /**
  * The picture of a {@link Recurrence} ({@code recurrence-FAMILY.png}): the share of wafers flagged per cell on a
@@ -135,10 +135,7 @@ public final class RecurrencePicture {
     /** Writes the picture as a PNG, atomically. */
     public static void write(Recurrence r, HotSpots.Result hot, Path png) throws IOException {
         BufferedImage img = render(r, hot);
-        AtomicFiles.write(png, tmp -> {
-            if (!ImageIO.write(img, "png", tmp.toFile())) {
-                throw new IOException("no PNG writer available for " + png);
-            }
-        });
+        byte[] bytes = PngFiles.encode(img);
+        AtomicFiles.write(png, bytes);
     }
 }

@@ -63,21 +63,10 @@ public final class Thumbnails {
         for (int ty = 0; ty < th; ty++) {
             sy[ty] = Math.min(h - 1, (int) ((ty + 0.5) * scale));
         }
-        float[] s = map.raster().samples();
         float[] small = new float[tw * th];
         boolean[] hit = new boolean[tw * th];
-        for (int ty = 0; ty < th; ty++) {
-            for (int tx = 0; tx < tw; tx++) {
-                int i = sy[ty] * w + sx[tx];
-                small[ty * tw + tx] = s[i];
-                hit[ty * tw + tx] = flagged.get(i);
-            }
-        }
-        for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
-            int tx = Math.min(tw - 1, (int) ((i % w) / scale));
-            int ty = Math.min(th - 1, (int) ((i / w) / scale));
-            hit[ty * tw + tx] = true;
-        }
+        sample(map.raster().samples(), flagged, w, sx, sy, small, hit);
+        markFlagged(flagged, w, scale, tw, th, hit);
         PixelGrid g = map.grid();
         PixelGrid sg = new PixelGrid(tw, th, g.pitchMm() * scale, (g.centreXPx() + 0.5) / scale - 0.5,
                 (g.centreYPx() + 0.5) / scale - 0.5);
@@ -87,46 +76,86 @@ public final class Thumbnails {
         }
         BufferedImage out = MapFiles.picture(new WaferMap(FloatRaster.wrap(tw, th, small), sg, map.quantity(),
                 map.waferId(), map.conditions(), map.provenance()), style);
-        boolean[] near = dilate(hit, tw, th, OUTLINE_PX);
-        int[] argb = ((DataBufferInt) out.getRaster().getDataBuffer()).getData(); // TYPE_INT_ARGB, no offset
+        outline(((DataBufferInt) out.getRaster().getDataBuffer()).getData(), dilate(hit, tw, th, OUTLINE_PX), hit);
+        return out;
+    }
+
+    // The loops of a thumbnail are small methods of their own: each runs long once per wafer, so HotSpot compiles it
+    // while it runs (on-stack replacement), and small methods compile quickly and once.
+
+    /** The map's value and flag at the thumbnail pixels' centres ({@code sx}, {@code sy}: map column and row). */
+    private static void sample(float[] s, BitSet flagged, int w, int[] sx, int[] sy, float[] small, boolean[] hit) {
+        int tw = sx.length;
+        for (int ty = 0; ty < sy.length; ty++) {
+            int row = sy[ty] * w;
+            for (int tx = 0; tx < tw; tx++) {
+                int i = row + sx[tx];
+                small[ty * tw + tx] = s[i];
+                hit[ty * tw + tx] = flagged.get(i);
+            }
+        }
+    }
+
+    /** Marks the thumbnail pixel of every flagged map pixel ({@code scale} map pixels per thumbnail pixel). */
+    private static void markFlagged(BitSet flagged, int w, double scale, int tw, int th, boolean[] hit) {
+        for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
+            int tx = Math.min(tw - 1, (int) ((i % w) / scale));
+            int ty = Math.min(th - 1, (int) ((i / w) / scale));
+            hit[ty * tw + tx] = true;
+        }
+    }
+
+    /**
+     * Paints the outline colour on the pixels near a flagged one ({@code near}) that are not flagged themselves;
+     * {@code argb}: the pixels of the {@code TYPE_INT_ARGB} picture (no offset).
+     */
+    private static void outline(int[] argb, boolean[] near, boolean[] hit) {
         for (int i = 0; i < near.length; i++) {
             if (near[i] && !hit[i]) {
                 argb[i] = OUTLINE_ARGB;
             }
         }
-        return out;
     }
 
-    /** The pixels within {@code r} pixels (Chebyshev distance) of a set pixel: a square dilation, rows then columns. */
+    /**
+     * The pixels within {@code r} pixels (Chebyshev distance) of a set pixel: a square dilation, rows then columns,
+     * each line by {@link #dilateLine} (one small method with loops free of bound tests, which HotSpot compiles once;
+     * the earlier single loop with its bound tests inside was compiled again after each of its deoptimisations).
+     */
     static boolean[] dilate(boolean[] b, int w, int h, int r) {
         boolean[] rows = new boolean[b.length];
         for (int y = 0; y < h; y++) {
-            int row = y * w;
-            int last = Integer.MIN_VALUE / 2; // x of the last set pixel seen, scanning right
-            for (int x = 0; x < w + r; x++) {
-                if (x < w && b[row + x]) {
-                    last = x;
-                }
-                int at = x - r; // pixel whose window [at - r, at + r] ends at x
-                if (at >= 0 && at < w) {
-                    rows[row + at] = x - last <= 2 * r;
-                }
-            }
+            dilateLine(b, rows, y * w, 1, w, r);
         }
         boolean[] out = new boolean[b.length];
         for (int x = 0; x < w; x++) {
-            int last = Integer.MIN_VALUE / 2;
-            for (int y = 0; y < h + r; y++) {
-                if (y < h && rows[y * w + x]) {
-                    last = y;
-                }
-                int at = y - r;
-                if (at >= 0 && at < h) {
-                    out[at * w + x] = y - last <= 2 * r;
-                }
-            }
+            dilateLine(rows, out, x, w, h, r);
         }
         return out;
+    }
+
+    /**
+     * Along the line of {@code n} pixels {@code start + k * stride}: {@code dst} set where a set pixel of {@code src}
+     * lies within {@code r} pixels. Scanning ahead, pixel {@code at} is decided when the scan reaches
+     * {@code at + r}, from the last set pixel seen.
+     */
+    private static void dilateLine(boolean[] src, boolean[] dst, int start, int stride, int n, int r) {
+        int last = Integer.MIN_VALUE / 2; // position of the last set pixel seen
+        int x = 0;
+        for (; x < Math.min(r, n); x++) { // nothing decided yet
+            if (src[start + x * stride]) {
+                last = x;
+            }
+        }
+        for (x = r; x < n; x++) {
+            if (src[start + x * stride]) {
+                last = x;
+            }
+            dst[start + (x - r) * stride] = x - last <= 2 * r;
+        }
+        for (x = Math.max(n, r); x < n + r; x++) { // past the end: the last pixels decided
+            dst[start + (x - r) * stride] = x - last <= 2 * r;
+        }
     }
 
     static void write(WaferMap map, BitSet flagged, double lowUs, double highUs, boolean caption, Path file) {

@@ -1,7 +1,6 @@
 package trapmap.maps.io;
 
 import java.awt.image.BufferedImage;
-import java.awt.image.IndexColorModel;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
 import java.io.UncheckedIOException;
@@ -15,16 +14,15 @@ import javax.imageio.stream.ImageOutputStream;
 import javax.imageio.stream.MemoryCacheImageOutputStream;
 
 /**
- * PNG pictures written quickly, for the many small pictures of a batch: the JDK's PNG writer, encoding in memory (no
- * temporary cache file). A picture of at most 256 colours gets a palette and is stored without deflate; any other
- * with explicit compression quality 0.9, a fast low deflate level (quality 1 would store the data uncompressed),
- * about a quarter larger than with the writer's default setting. Either way the file decodes to the same pixels.
+ * PNG pictures written quickly, for the many small pictures of a batch. A picture of at most 256 colours gets a
+ * palette and goes through {@link PlainPng}, as does an opaque RGB picture; any other through the JDK's PNG writer,
+ * encoding in memory (no temporary cache file), with explicit compression quality 0.9, a fast low deflate level
+ * (quality 1 would store the data uncompressed), about a quarter larger than with the writer's default setting.
+ * Either way the file decodes to the same pixels.
  */
 public final class PngFiles {
     /** Compression quality of the JDK PNG writer: lower quality means stronger, slower deflate. */
     private static final float FAST_QUALITY = 0.9f;
-    /** Compression quality that stores the data without deflate. */
-    private static final float STORED_QUALITY = 1f;
 
     private PngFiles() {
     }
@@ -36,23 +34,42 @@ public final class PngFiles {
 
     /**
      * The PNG bytes of {@code img}. A {@code TYPE_INT_ARGB} picture of at most 256 colours (a thumbnail: the colour
-     * scale, transparency and an outline colour) is written with a palette of exactly its colours, in the order they
-     * first appear, and stored without deflate: one byte per pixel, which at 256² is a little smaller than the
-     * deflated four bytes per pixel and takes less than half the time, and the same pixels when decoded.
+     * scale, transparency and an outline colour) is written by {@link PlainPng} with a palette of exactly its
+     * colours, in the order they first appear: one byte per pixel, stored, and the same pixels when decoded. A
+     * {@code TYPE_INT_RGB} picture of more colours (a recurrence picture) is written by {@link PlainPng} as 8-bit RGB,
+     * deflated. Any other picture goes through the JDK's PNG writer.
      */
     public static byte[] encode(BufferedImage img) {
-        BufferedImage indexed = indexed(img);
-        return indexed == null ? encode(img, FAST_QUALITY) : encode(indexed, STORED_QUALITY);
+        Indexed indexed = palette(img);
+        if (indexed != null) {
+            return PlainPng.palette(img.getWidth(), img.getHeight(), indexed.pixels(), indexed.argb(),
+                    indexed.colours());
+        }
+        if (img.getType() == BufferedImage.TYPE_INT_RGB) {
+            return PlainPng.rgb(img.getWidth(), img.getHeight(),
+                    (int[]) img.getRaster().getDataElements(0, 0, img.getWidth(), img.getHeight(), null));
+        }
+        return encode(img, FAST_QUALITY);
     }
 
     /** Largest palette of a PNG image with 8-bit indices. */
     private static final int PALETTE = 256;
 
     /**
-     * {@code img} as an 8-bit indexed picture whose palette holds its ARGB values exactly (alpha included), or null
+     * A picture as palette indices.
+     *
+     * @param argb    the palette's colours, {@code argb[0..colours)}, in the order they first appear
+     * @param colours number of colours
+     * @param pixels  each pixel's palette index, rows from the top
+     */
+    record Indexed(int[] argb, int colours, byte[] pixels) {
+    }
+
+    /**
+     * {@code img} as 8-bit palette indices whose palette holds its ARGB values exactly (alpha included), or null
      * when it is not {@code TYPE_INT_ARGB} or has more than {@value #PALETTE} colours.
      */
-    static BufferedImage indexed(BufferedImage img) {
+    static Indexed palette(BufferedImage img) {
         if (img.getType() != BufferedImage.TYPE_INT_ARGB) {
             return null;
         }
@@ -88,20 +105,7 @@ public final class PngFiles {
             }
             pixels[i] = (byte) lastIndex;
         }
-        byte[] r = new byte[colours];
-        byte[] g = new byte[colours];
-        byte[] b = new byte[colours];
-        byte[] a = new byte[colours];
-        for (int k = 0; k < colours; k++) {
-            a[k] = (byte) (palette[k] >>> 24);
-            r[k] = (byte) (palette[k] >>> 16);
-            g[k] = (byte) (palette[k] >>> 8);
-            b[k] = (byte) palette[k];
-        }
-        IndexColorModel model = new IndexColorModel(8, colours, r, g, b, a);
-        BufferedImage out = new BufferedImage(w, h, BufferedImage.TYPE_BYTE_INDEXED, model);
-        out.getRaster().setDataElements(0, 0, w, h, pixels);
-        return out;
+        return new Indexed(palette, colours, pixels);
     }
 
     private static byte[] encode(BufferedImage img, float quality) {

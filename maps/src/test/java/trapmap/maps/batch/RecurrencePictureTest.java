@@ -52,6 +52,25 @@ class RecurrencePictureTest {
                 RecurrencePicture.colourOf(1) & 0xFFFFFF);
     }
 
+    @Test
+    void writtenFileDecodesToTheDrawnPixelsAsTheJdkWritersFileDoes(@TempDir Path dir) throws Exception {
+        Recurrence r = zeroOne();
+        HotSpots.Result hot = HotSpots.find(r, HotSpots.Criteria.DEFAULT);
+        Path png = dir.resolve("recurrence-f.png");
+        RecurrencePicture.write(r, hot, png);
+        BufferedImage drawn = RecurrencePicture.render(r, hot);
+        Path jdk = dir.resolve("jdk.png");
+        assertThat(ImageIO.write(drawn, "png", jdk.toFile())).isTrue();
+        BufferedImage mine = ImageIO.read(png.toFile());
+        BufferedImage theirs = ImageIO.read(jdk.toFile());
+        int w = drawn.getWidth();
+        int h = drawn.getHeight();
+        assertThat(mine.getWidth()).isEqualTo(w);
+        assertThat(mine.getHeight()).isEqualTo(h);
+        assertThat(mine.getRGB(0, 0, w, h, null, 0, w)).containsExactly(drawn.getRGB(0, 0, w, h, null, 0, w))
+                .containsExactly(theirs.getRGB(0, 0, w, h, null, 0, w));
+    }
+
     /** The largest difference of the red, green and blue channels. */
     private static int distance(int a, int b) {
         int d = 0;

@@ -11,7 +11,10 @@ import javax.imageio.ImageIO;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
-/** PNG files written with the fast deflate setting decode (JDK ImageIO reader as reference) to exactly the pixels drawn. */
+/**
+ * PNG files decode (JDK ImageIO reader as reference) to exactly the pixels drawn; pictures of at most 256 colours to
+ * the same palette and pixels as the JDK writer's file of the same indexed picture.
+ */
 class PngFilesTest {
 
     private static BufferedImage randomPicture(int w, int h, long seed) {
@@ -81,7 +84,7 @@ class PngFilesTest {
     void picturesOfAtMost256ColoursGetAPaletteOfExactlyTheirColours() throws Exception {
         for (int colours : new int[] {1, 3, 200, 256}) {
             BufferedImage img = fewColours(256, 190, colours, colours);
-            BufferedImage indexed = PngFiles.indexed(img);
+            BufferedImage indexed = PngReference.indexed(img);
             assertThat(indexed).as("%d colours", colours).isNotNull();
             assertSamePixels(indexed, img);
             BufferedImage back = ImageIO.read(new ByteArrayInputStream(PngFiles.encode(img)));
@@ -89,7 +92,7 @@ class PngFilesTest {
         }
         // one colour more: the four-channel picture, also the same pixels
         BufferedImage many = fewColours(256, 190, 257, 257);
-        assertThat(PngFiles.indexed(many)).isNull();
+        assertThat(PngReference.indexed(many)).isNull();
         assertSamePixels(ImageIO.read(new ByteArrayInputStream(PngFiles.encode(many))), many);
     }
 
@@ -101,5 +104,72 @@ class PngFilesTest {
         BufferedImage rgb = new BufferedImage(20, 10, BufferedImage.TYPE_INT_RGB);
         rgb.setRGB(3, 4, 0x123456);
         assertSamePixels(ImageIO.read(new ByteArrayInputStream(PngFiles.encode(rgb))), rgb);
+    }
+
+    @Test
+    void palettePicturesDecodeAsTheJdkWritersStoredFileDoes() throws Exception {
+        int[][] sizes = {{1, 1}, {1, 37}, {37, 1}, {256, 256}, {256, 171}, {17, 256}, {300, 5}};
+        int[] colourCounts = {1, 2, 3, 16, 17, 200, 255, 256};
+        long seed = 1;
+        for (int[] size : sizes) {
+            for (int colours : colourCounts) {
+                BufferedImage img = fewColours(size[0], size[1], colours, seed++);
+                byte[] mine = PngFiles.encode(img);
+                byte[] jdk = PngReference.jdkStored(img);
+                assertSamePixels(PngReference.assertSameDecoded(mine, jdk), img);
+                if (coloured(PngFiles.palette(img))) {
+                    assertThat(ImageIO.read(new ByteArrayInputStream(jdk)).getColorModel())
+                            .isInstanceOf(java.awt.image.IndexColorModel.class);
+                }
+            }
+        }
+        // all opaque (no transparency chunk), and transparent colours after opaque ones
+        Random rnd = new Random(5);
+        for (int variant = 0; variant < 4; variant++) {
+            BufferedImage img = new BufferedImage(64 + variant, 48, BufferedImage.TYPE_INT_ARGB);
+            for (int y = 0; y < img.getHeight(); y++) {
+                for (int x = 0; x < img.getWidth(); x++) {
+                    int c = 0xFF000000 | rnd.nextInt(50) * 0x030507;
+                    if (variant >= 2 && y > 40 && x % 7 == 0) {
+                        c = variant == 2 ? 0 : 0x7F00FF00;
+                    }
+                    img.setRGB(x, y, c);
+                }
+            }
+            assertSamePixels(PngReference.assertSameDecoded(PngFiles.encode(img), PngReference.jdkStored(img)), img);
+        }
+    }
+
+    @Test
+    void rgbPicturesDecodeAsTheJdkWritersFileDoes() throws Exception {
+        Random rnd = new Random(17);
+        for (int[] size : new int[][] {{1, 1}, {1, 40}, {40, 1}, {581, 519}, {97, 63}}) {
+            BufferedImage img = new BufferedImage(size[0], size[1], BufferedImage.TYPE_INT_RGB);
+            for (int y = 0; y < size[1]; y++) {
+                for (int x = 0; x < size[0]; x++) {
+                    // flat areas, a ramp and noise: more than 256 colours
+                    int c = x < size[0] / 3 ? 0xE6E6E6 : x < 2 * size[0] / 3 ? (x * 255 / size[0]) << 8 | y % 256
+                            : rnd.nextInt(1 << 24);
+                    img.setRGB(x, y, c);
+                }
+            }
+            assertThat(PngFiles.palette(img)).isNull();
+            ByteArrayOutputStream jdk = new ByteArrayOutputStream();
+            ImageIO.write(img, "png", jdk);
+            BufferedImage mine = ImageIO.read(new ByteArrayInputStream(PngFiles.encode(img)));
+            assertSamePixels(mine, img);
+            assertSamePixels(mine, ImageIO.read(new ByteArrayInputStream(jdk.toByteArray())));
+        }
+    }
+
+    /** Whether some colour of the palette is not grey (the JDK writer keeps a palette only then). */
+    private static boolean coloured(PngFiles.Indexed p) {
+        for (int k = 0; k < p.colours(); k++) {
+            int c = p.argb()[k];
+            if ((c >>> 16 & 0xFF) != (c >>> 8 & 0xFF) || (c >>> 8 & 0xFF) != (c & 0xFF)) {
+                return true;
+            }
+        }
+        return false;
     }
 }
