@@ -31,7 +31,7 @@ class InspectCommandTest {
             """;
 
     /** An 80 mm round wafer of 80 µs; with a spot, a 4 µs disc of 4 mm radius at (15, 10) mm. */
-    private Path wafer(Path folder, String name, boolean spot) throws Exception {
+    static Path wafer(Path folder, String name, boolean spot) throws Exception {
         float[] s = new float[N * N];
         PixelGrid g = PixelGrid.centred(N, N, PITCH_MM);
         for (int y = 0; y < N; y++) {

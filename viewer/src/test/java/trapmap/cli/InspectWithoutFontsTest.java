@@ -11,14 +11,7 @@ import org.junit.jupiter.api.AfterEach;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.Rendering;
-import trapmap.maps.model.MeasurementConditions;
-import trapmap.maps.model.Provenance;
-import trapmap.maps.model.Quantity;
-import trapmap.maps.model.WaferMap;
-import trapmap.maps.raster.FloatRaster;
-import trapmap.maps.raster.PixelGrid;
 
 /**
  * {@code inspect} and {@code report} on a Java runtime that cannot draw text (its font library did not load): the
@@ -30,8 +23,6 @@ class InspectWithoutFontsTest {
     /** What Java 17 on Debian says when libfontmanager's HarfBuzz library is not installed. */
     static final String HARFBUZZ_MISSING = "/usr/lib/jvm/java-17-openjdk-amd64/lib/libfontmanager.so: libharfbuzz.so.0:"
             + " cannot open shared object file: No such file or directory";
-    private static final int N = 161;
-    private static final double PITCH_MM = 0.5;
     private static final String RULES = """
             {"edge_exclusion_mm": 1,
              "flag": {"quantity": "lifetime", "threshold": 10, "min_area_mm2": 1},
@@ -62,20 +53,9 @@ class InspectWithoutFontsTest {
         InspectCommand.summaryWriter = trapmap.viewer.report.BatchReport::writeFor;
     }
 
-    /** An 80 mm round wafer of 80 µs; with a spot, a 4 µs disc of 4 mm radius at (15, 10) mm. */
+    /** An 80 mm round wafer of 80 µs, with or without a 4 µs spot ({@link InspectCommandTest#wafer}). */
     private void wafer(String name, boolean spot) throws Exception {
-        float[] s = new float[N * N];
-        PixelGrid g = PixelGrid.centred(N, N, PITCH_MM);
-        for (int y = 0; y < N; y++) {
-            for (int x = 0; x < N; x++) {
-                double xm = g.xMm(x);
-                double ym = g.yMm(y);
-                s[y * N + x] = Math.hypot(xm, ym) > 40 ? Float.NaN
-                        : spot && Math.hypot(xm - 15, ym - 10) <= 4 ? 4f : 80f;
-            }
-        }
-        MapFiles.write(new WaferMap(FloatRaster.wrap(N, N, s), g, Quantity.EFFECTIVE_LIFETIME, name,
-                MeasurementConditions.UNKNOWN, Provenance.of("test")), in.resolve(name + ".tif"));
+        InspectCommandTest.wafer(in, name, spot);
     }
 
     private Cli.Run inspect(Path out, String... more) {
