@@ -6,6 +6,7 @@ import trapmap.maps.raster.Blocks;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
+import trapmap.physics.conversion.PixelStatus;
 import trapmap.shared.check.Checks;
 
 /**
@@ -96,6 +97,50 @@ public final class EvaluatedStatistics {
                 request, thresholds, grid.pixelAreaMm2());
     }
 
+    /** Side of the made-up map of {@link #warmUp}: one block, so that it runs on the calling thread alone. */
+    private static final int WARM_UP_SIDE = 256;
+    /** Passes of {@link #warmUp} over its map: enough for the just-in-time compiler to compile every loop. */
+    private static final int WARM_UP_ROUNDS = 12;
+
+    /**
+     * A head start for a large map's passes: runs {@link #of} and {@link #statistics()} a few times on a small
+     * made-up map of one block (trap densities over three decades with pixels of every status, unusable measured
+     * values of every cause, an evaluated area with words of no, some and all pixels), on the calling thread, so that
+     * the just-in-time compiler has compiled their loops, with the branches a real map takes, before the real map
+     * comes; a map that is read and converted meanwhile then starts on compiled code. Changes no result and keeps no
+     * state; stops early when {@code stop} is set.
+     */
+    public static void warmUp(java.util.function.BooleanSupplier stop) {
+        int side = WARM_UP_SIDE;
+        int n = side * side;
+        float[] density = new float[n];
+        float[] lifetime = new float[n];
+        byte[] status = new byte[n];
+        for (int i = 0; i < n; i++) {
+            double u = (i * 0.618034) % 1.0;
+            int cause = i % 97;
+            lifetime[i] = cause == 0 ? Float.NaN : cause == 1 ? Float.POSITIVE_INFINITY : cause == 2 ? -1f
+                    : cause == 3 ? 5e-4f : (float) (1 + 999 * u);
+            boolean below = i % 29 == 0;
+            status[i] = cause == 0 ? PixelStatus.NO_DATA.code() : cause <= 3 ? PixelStatus.INVALID.code()
+                    : below ? PixelStatus.BELOW_LIMIT.code() : PixelStatus.OK.code();
+            density[i] = cause <= 3 ? Float.NaN : (float) Math.pow(10, 9 + 3 * u);
+        }
+        FloatRaster values = FloatRaster.wrap(side, side, density);
+        FloatRaster measured = FloatRaster.wrap(side, side, lifetime);
+        PixelGrid grid = PixelGrid.centred(side, side, 0.5);
+        double radius = 0.45 * side;
+        Mask area = Mask.of(side, side, i -> {
+            double x = i % side - side / 2.0;
+            double y = i / side - side / 2.0;
+            return x * x + y * y <= radius * radius;
+        });
+        StatisticsRequest request = StatisticsRequest.of(new double[] {5, 95}, 1e11);
+        for (int r = 0; r < WARM_UP_ROUNDS && !stop.getAsBoolean(); r++) {
+            of(values, measured, area, status, true, grid, request).statistics();
+        }
+    }
+
     /** Adds the percentile bucket of each of values[0..n) to {@code buckets}. */
     private static void count(float[] values, int n, int[] buckets) {
         for (int k = 0; k < n; k++) {
@@ -182,21 +227,43 @@ public final class EvaluatedStatistics {
 
     /** The counted values of the wanted buckets into their bins, chunk by chunk, each from its own fill positions. */
     private void gather(Selection.Plan plan, float[][] bins, int[][] fill) {
+        // which buckets are gathered, one bit each (8 KB: the test of a value stays in the first-level cache)
+        long[] wanted = new long[Selection.BUCKETS >>> 6];
+        for (int bucket : plan.bucketOfSlot) {
+            wanted[bucket >>> 6] |= 1L << bucket;
+        }
         for (int c = 0; c < chunkCounts.length; c++) {
             int from = c * CHUNK_BLOCKS * Mask.BLOCK_PX;
-            gather(plan.slotOfBucket, bins, fill[c], from, Math.min(values.length, from + CHUNK_BLOCKS * Mask.BLOCK_PX));
+            gather(wanted, plan.slotOfBucket, bins, fill[c], from,
+                    Math.min(values.length, from + CHUNK_BLOCKS * Mask.BLOCK_PX));
         }
     }
 
-    /** The counted values of pixels [from, to) whose bucket has a slot, appended to their bins at {@code fill}. */
-    private void gather(int[] slotOfBucket, float[][] bins, int[] fill, int from, int to) {
+    /**
+     * The counted values of pixels [from, to) (a whole number of words) whose bucket is {@code wanted}, appended to
+     * their bins at {@code fill}, in index order.
+     */
+    private void gather(long[] wanted, int[] slotOfBucket, float[][] bins, int[] fill, int from, int to) {
         for (int wi = from >>> 6, we = (to + 63) >>> 6; wi < we; wi++) {
+            long word = words[wi];
             int base = wi << 6;
-            for (long word = words[wi]; word != 0; word &= word - 1) {
-                float f = values[base + Long.numberOfTrailingZeros(word)];
-                int slot = slotOfBucket[Selection.bucket(f)];
-                if (slot >= 0) {
-                    bins[slot][fill[slot]++] = f;
+            if (word == -1L) {
+                for (int i = base; i < base + 64; i++) {
+                    float f = values[i];
+                    int bucket = Selection.bucket(f);
+                    if ((wanted[bucket >>> 6] & 1L << bucket) != 0) {
+                        int slot = slotOfBucket[bucket];
+                        bins[slot][fill[slot]++] = f;
+                    }
+                }
+            } else {
+                for (; word != 0; word &= word - 1) {
+                    float f = values[base + Long.numberOfTrailingZeros(word)];
+                    int bucket = Selection.bucket(f);
+                    if ((wanted[bucket >>> 6] & 1L << bucket) != 0) {
+                        int slot = slotOfBucket[bucket];
+                        bins[slot][fill[slot]++] = f;
+                    }
                 }
             }
         }

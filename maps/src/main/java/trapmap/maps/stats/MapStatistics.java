@@ -239,6 +239,11 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
 
     /** The sums of one block of pixels, in index order. */
     static final class Part {
+        /** The significand bits of a double. */
+        private static final long SIGNIFICAND_BITS = (1L << 52) - 1;
+        /** The exponent bits of 1.0. */
+        private static final long ONE_EXPONENT_BITS = (long) Double.MAX_EXPONENT << 52;
+
         int n;
         int nonPositive;
         double mean;
@@ -333,8 +338,17 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
                 if (v > 0) {
                     product *= v;
                     if (product > 1e250 || product < 1e-250) {
-                        int exponent = Math.getExponent(product);
-                        product = Math.scalb(product, -exponent);
+                        int exponent;
+                        if (product < Double.POSITIVE_INFINITY) {
+                            // a normal number (a finite value ≥ 1.4e-45 times one in [1e-250, 1e250]): Math.getExponent
+                            // and Math.scalb(product, -exponent), exactly, on its bits
+                            long bits = Double.doubleToRawLongBits(product);
+                            exponent = (int) (bits >>> 52) - Double.MAX_EXPONENT;
+                            product = Double.longBitsToDouble(bits & SIGNIFICAND_BITS | ONE_EXPONENT_BITS);
+                        } else {
+                            exponent = Math.getExponent(product);
+                            product = Math.scalb(product, -exponent);
+                        }
                         binaryExponent += exponent;
                     }
                 } else {
