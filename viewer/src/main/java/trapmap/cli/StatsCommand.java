@@ -238,6 +238,10 @@ final class StatsCommand implements Callable<Integer> {
             t.put("flagged_fraction", Output.num(side == RegionCriteria.Side.ABOVE ? f.fractionAbove()
                     : f.fractionBelow()));
             m.put("threshold", t);
+            if (!regionSearch.isDone()) {
+                // this thread takes part in the search's parallel steps (the band scan, the rows) instead of idling
+                java.util.concurrent.ForkJoinPool.commonPool().awaitQuiescence(1, java.util.concurrent.TimeUnit.SECONDS);
+            }
             m.put("regions", joined(regionSearch));
         }
         print(m);
