@@ -12,7 +12,13 @@ import trapmap.physics.conversion.ConversionWarning;
 
 /** JSON and aligned-text output. JSON never holds NaN or infinities: such values are written as {@code null}. */
 final class Output {
-    private static final ObjectMapper JSON = NumberText.jsonMapper().enable(SerializationFeature.INDENT_OUTPUT);
+    /**
+     * The JSON writer, made when first used: a class of its own, so that {@link #prepareJson} makes it on its thread
+     * (Jackson's classes, some tens of milliseconds) instead of the caller's.
+     */
+    private static final class Json {
+        static final ObjectMapper MAPPER = NumberText.jsonMapper().enable(SerializationFeature.INDENT_OUTPUT);
+    }
 
     private Output() {
     }
@@ -85,7 +91,7 @@ final class Output {
     /** {@code value} as indented JSON. */
     static String json(Object value) {
         try {
-            return JSON.writeValueAsString(value);
+            return Json.MAPPER.writeValueAsString(value);
         } catch (JsonProcessingException e) {
             throw new UncheckedIOException(e);
         }

@@ -31,6 +31,7 @@ import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.region.RegionTable;
 import trapmap.maps.region.ThresholdRegions;
 import trapmap.maps.stats.EvaluatedArea;
+import trapmap.maps.stats.EvaluatedStatistics;
 import trapmap.maps.stats.InvalidArea;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
@@ -123,10 +124,11 @@ final class StatsCommand implements Callable<Integer> {
         MapConversion.Result converted = null;
         String floor = "";
         Map<String, Object> outline = new LinkedHashMap<>();
-        // The outline is fitted to the map as read, so it is found while the conversion runs; its failure is given
-        // after the conversion's warnings, as when the two ran one after the other.
-        java.util.concurrent.ForkJoinTask<WaferShape> fitting = defect == null ? null
-                : java.util.concurrent.ForkJoinPool.commonPool().submit(() -> shape(read, outline));
+        // The outline is fitted to the map as read, so it and the evaluated area it gives are found while the
+        // conversion runs; its failure is given after the conversion's warnings, as when the two ran one after the
+        // other.
+        java.util.concurrent.ForkJoinTask<WaferArea> fitting = defect == null ? null
+                : java.util.concurrent.ForkJoinPool.commonPool().submit(() -> waferArea(read, outline));
         if (defect != null) {
             try (warmUp) {
                 converted = DensityOption.convert(map, defect, conditions, spec.commandLine().getErr());
@@ -136,12 +138,16 @@ final class StatsCommand implements Callable<Integer> {
         } else {
             warmUp.close();
         }
-        WaferShape shape = fitting == null ? shape(read, outline) : joined(fitting);
+        WaferArea waferArea = fitting == null ? waferArea(read, outline) : joined(fitting);
+        WaferShape shape = waferArea.shape();
         // One pass gives the pixels the statistics use, the below-limit count and the invalid area.
-        EvaluatedArea evaluatedArea = EvaluatedArea.of(map.raster(), read.raster(),
-                shape == null ? null : shape.mask(map.grid(), edgeExclusionMm),
+        StatisticsRequest request = threshold == null
+                ? StatisticsRequest.of(new double[] {5, 95})
+                : StatisticsRequest.of(new double[] {5, 95}, threshold);
+        EvaluatedStatistics summary = EvaluatedStatistics.of(map.raster(), read.raster(), waferArea.area(),
                 converted == null ? null : converted.statusCodes(), read.quantity() == Quantity.EFFECTIVE_LIFETIME,
-                read.grid());
+                read.grid(), request);
+        EvaluatedArea evaluatedArea = summary.area();
         Mask mask = evaluatedArea.mask();
         InvalidArea invalid = evaluatedArea.invalid();
         Map<String, Object> belowLimit = null;
@@ -165,23 +171,20 @@ final class StatsCommand implements Callable<Integer> {
                 warnings.add(floor);
             }
         }
-        StatisticsRequest request = threshold == null
-                ? StatisticsRequest.of(new double[] {5, 95})
-                : StatisticsRequest.of(new double[] {5, 95}, threshold);
-        // The flagged regions need the mask and the threshold only: they are found while the statistics are computed
-        // (whose serial parts then share the machine with them).
+        // The flagged regions need the mask and the threshold only: they are found, and their rows made, while the
+        // statistics are computed (whose serial parts then share the machine with them).
         RegionCriteria.Side side = threshold == null ? null : side(map.quantity());
-        java.util.concurrent.ForkJoinTask<RegionTable> regionSearch = null;
+        java.util.concurrent.ForkJoinTask<List<Map<String, Object>>> regionSearch = null;
         if (threshold != null) {
             WaferMap searched = map;
             Mask flaggable = mask;
             RegionCriteria criteria = new RegionCriteria(threshold, side, minAreaMm2);
             regionSearch = java.util.concurrent.ForkJoinPool.commonPool().submit(
-                    () -> ThresholdRegions.find(searched, flaggable, criteria, shape));
+                    () -> regionRows(ThresholdRegions.find(searched, flaggable, criteria, shape)));
         }
         MapStatistics s;
         try {
-            s = MapStatistics.of(map, mask, request);
+            s = summary.statistics();
         } catch (RuntimeException | Error e) {
             if (regionSearch != null) {
                 regionSearch.cancel(false);
@@ -235,8 +238,11 @@ final class StatsCommand implements Callable<Integer> {
             t.put("flagged_fraction", Output.num(side == RegionCriteria.Side.ABOVE ? f.fractionAbove()
                     : f.fractionBelow()));
             m.put("threshold", t);
-            RegionTable regions = joined(regionSearch);
-            m.put("regions", regionRows(regions));
+            if (!regionSearch.isDone()) {
+                // this thread takes part in the search's parallel steps (the band scan, the rows) instead of idling
+                java.util.concurrent.ForkJoinPool.commonPool().awaitQuiescence(1, java.util.concurrent.TimeUnit.SECONDS);
+            }
+            m.put("regions", joined(regionSearch));
         }
         print(m);
         return Exit.OK;
@@ -324,6 +330,16 @@ final class StatsCommand implements Callable<Integer> {
         m.put("statistics", statistics);
         m.put("reason", reason);
         return m;
+    }
+
+    /** A wafer outline (null when none could be fitted) and the evaluated area it gives (null without one). */
+    private record WaferArea(WaferShape shape, Mask area) {
+    }
+
+    /** The outline of {@link #shape} and the evaluated area inside it, less the edge exclusion. */
+    private WaferArea waferArea(WaferMap map, Map<String, Object> outline) {
+        WaferShape shape = shape(map, outline);
+        return new WaferArea(shape, shape == null ? null : shape.mask(map.grid(), edgeExclusionMm));
     }
 
     private WaferShape shape(WaferMap map, Map<String, Object> outline) {

@@ -100,13 +100,35 @@ public final class NumberText {
 
     /** {@code v} rounded to {@link #POSITION_RESOLUTION_MM}, as the double {@link #mm(double)} reads back to. */
     public static double roundMm(double v) {
-        return Double.isFinite(v) ? Double.parseDouble(mm(v)) : v;
+        return Double.isFinite(v) ? roundedValue(v, POSITION_DECIMALS) : v;
     }
 
     /** {@code v} rounded to {@link #AREA_RESOLUTION_MM2}, as the double {@link #mm2(double)} reads back to. */
     public static double roundMm2(double v) {
-        return Double.isFinite(v) ? Double.parseDouble(mm2(v)) : v;
+        return Double.isFinite(v) ? roundedValue(v, AREA_DECIMALS) : v;
     }
+
+    /**
+     * {@code Double.parseDouble(rounded(v, decimals))} for a finite v, mostly without its decimal text: x = v·10^d is
+     * within half an ulp of the exact product, so where x is more than an ulp away from the midpoint between two
+     * integers, the exact product rounds (half to even) to the integer nearest x, r; r / 10^d, one correctly rounded
+     * division of two exact numbers, is then the double nearest the decimal r·10^−d, which is what that decimal text
+     * reads back to. Near a midpoint, and for products of 2^52 or more, the decimal text decides.
+     */
+    private static double roundedValue(double v, int decimals) {
+        double scale = DECIMAL_SCALES[decimals];
+        double x = v * scale;
+        if (Math.abs(x) < 0x1p52) {
+            double r = Math.rint(x);
+            if (Math.abs(Math.abs(x - r) - 0.5) > Math.ulp(x)) {
+                return r == 0 ? 0.0 : r / scale; // "0" (not "-0") where the rounded value is zero
+            }
+        }
+        return Double.parseDouble(rounded(v, decimals));
+    }
+
+    /** 10^d, exact, for the decimals of {@link #roundedValue}. */
+    private static final double[] DECIMAL_SCALES = {1, 10, 100, 1e3, 1e4, 1e5, 1e6};
 
     /**
      * A new JSON mapper that writes doubles and floats with the shortest digits (Jackson's Schubfach writer, as

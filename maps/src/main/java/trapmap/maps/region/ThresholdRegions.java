@@ -181,6 +181,25 @@ public final class ThresholdRegions {
             nearest = new double[capacity];
         }
 
+        /**
+         * Adds the run of the selected pixels x0..x1 of row y (whose first pixel has index {@code row}), with the sum
+         * of its values in index order, its first most extreme value and its least edge distance.
+         */
+        void add(int y, int x0, int x1, int row, float[] s, RegionCriteria criteria, EdgeDistance edge) {
+            double sum = 0;
+            double peak = s[row + x0];
+            int peakIndex = row + x0;
+            for (int i = row + x0, e = row + x1; i <= e; i++) {
+                double v = s[i];
+                sum += v;
+                if (criteria.morePeaked(v, peak)) {
+                    peak = v;
+                    peakIndex = i;
+                }
+            }
+            add(y, x0, x1, sum, peak, peakIndex, edge.leastOnRow(row, x0, x1, y));
+        }
+
         void add(int ry, int a, int b, double s, double p, int pi, double near) {
             if (size == y.length) {
                 int c = Math.max(16, size * 2);
@@ -208,32 +227,16 @@ public final class ThresholdRegions {
             Runs[] band = new Runs[bands];
             Blocks.run(bands, (long) w * h, b -> {
                 Runs out = new Runs(64);
+                long[] selected = new long[Blocks.count(w, 64)];
                 for (int y = b * rowsPerBand, ye = Math.min(h, (b + 1) * rowsPerBand); y < ye; y++) {
                     int row = y * w;
-                    int x = 0;
-                    while (x < w) {
-                        int i = row + x;
-                        if (!((words == null || (words[i >>> 6] & 1L << i) != 0) && criteria.selects(s[i]))) {
-                            x++;
-                            continue;
-                        }
-                        int start = x;
-                        double sum = 0;
-                        double peak = s[i];
-                        int peakIndex = i;
-                        for (; x < w; x++) {
-                            i = row + x;
-                            if (!((words == null || (words[i >>> 6] & 1L << i) != 0) && criteria.selects(s[i]))) {
-                                break;
-                            }
-                            double v = s[i];
-                            sum += v;
-                            if (criteria.morePeaked(v, peak)) {
-                                peak = v;
-                                peakIndex = i;
-                            }
-                        }
-                        out.add(y, start, x - 1, sum, peak, peakIndex, edge.leastOnRow(row, start, x - 1, y));
+                    if (!selectedOnRow(s, row, w, words, criteria, selected)) {
+                        continue;
+                    }
+                    for (int x = nextSet(selected, 0, w); x < w; ) {
+                        int end = nextClear(selected, x, w);
+                        out.add(y, x, end - 1, row, s, criteria, edge);
+                        x = nextSet(selected, end, w);
                     }
                 }
                 band[b] = out;
@@ -261,6 +264,94 @@ public final class ThresholdRegions {
                 all.rowStart[row] = r;
             }
             return all;
+        }
+
+        /**
+         * Sets bit x of {@code selected} (x % 64 of word x / 64) for each pixel x of the row starting at index
+         * {@code row} that is in the mask {@code words} (null: all) and selected by the criteria, 64 pixels at a time
+         * (words of the mask without a pixel of the row are skipped); false when no pixel of the row is selected.
+         */
+        private static boolean selectedOnRow(float[] s, int row, int w, long[] words, RegionCriteria criteria,
+                                             long[] selected) {
+            boolean above = criteria.side() == RegionCriteria.Side.ABOVE;
+            double t = criteria.threshold();
+            long any = 0;
+            for (int k = 0; k < selected.length; k++) {
+                int from = row + (k << 6);
+                int len = Math.min(64, w - (k << 6));
+                long inMask = words == null ? -1L : maskBits(words, from);
+                if (len < 64) {
+                    inMask &= (1L << len) - 1;
+                }
+                long bits = 0;
+                if (inMask != 0) {
+                    bits = (above ? beyondAbove(s, from, len, t) : beyondBelow(s, from, len, t)) & inMask;
+                }
+                selected[k] = bits;
+                any |= bits;
+            }
+            return any != 0;
+        }
+
+        /** The 64 bits of the mask {@code words} from pixel {@code from} on (bits past the last word clear). */
+        private static long maskBits(long[] words, int from) {
+            int wi = from >>> 6;
+            int shift = from & 63;
+            long bits = words[wi] >>> shift;
+            if (shift != 0 && wi + 1 < words.length) {
+                bits |= words[wi + 1] << (64 - shift);
+            }
+            return bits;
+        }
+
+        /** Bit j set for each of s[from..from+len) above t. */
+        private static long beyondAbove(float[] s, int from, int len, double t) {
+            long bits = 0;
+            for (int j = 0; j < len; j++) {
+                bits |= (s[from + j] > t ? 1L : 0L) << j;
+            }
+            return bits;
+        }
+
+        /** Bit j set for each of s[from..from+len) below t. */
+        private static long beyondBelow(float[] s, int from, int len, double t) {
+            long bits = 0;
+            for (int j = 0; j < len; j++) {
+                bits |= (s[from + j] < t ? 1L : 0L) << j;
+            }
+            return bits;
+        }
+
+        /** The first set bit at or after {@code from} below {@code limit}, or {@code limit}. */
+        private static int nextSet(long[] bits, int from, int limit) {
+            int k = from >>> 6;
+            if (k >= bits.length) {
+                return limit;
+            }
+            long word = bits[k] & (-1L << from);
+            while (word == 0) {
+                if (++k == bits.length) {
+                    return limit;
+                }
+                word = bits[k];
+            }
+            return Math.min(limit, (k << 6) + Long.numberOfTrailingZeros(word));
+        }
+
+        /** The first clear bit at or after {@code from} below {@code limit}, or {@code limit}. */
+        private static int nextClear(long[] bits, int from, int limit) {
+            int k = from >>> 6;
+            if (k >= bits.length) {
+                return limit;
+            }
+            long word = ~bits[k] & (-1L << from);
+            while (word == 0) {
+                if (++k == bits.length) {
+                    return limit;
+                }
+                word = ~bits[k];
+            }
+            return Math.min(limit, (k << 6) + Long.numberOfTrailingZeros(word));
         }
 
         /**

@@ -46,25 +46,10 @@ public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, 
      */
     public static EvaluatedArea of(FloatRaster values, FloatRaster measured, Mask area, byte[] status,
                                    boolean lifetimeFloor, PixelGrid grid) {
-        Checks.notNull(values, "values");
-        Checks.notNull(measured, "measured");
-        Checks.notNull(grid, "grid");
-        if (area != null) {
-            MapStatistics.checkSizes(measured, area, grid);
-        }
-        if (values.width() != measured.width() || values.height() != measured.height()
-                || values.width() != grid.width() || values.height() != grid.height()) {
-            throw new IllegalArgumentException("map " + values.width() + "x" + values.height()
-                    + " does not match the measured map " + measured.width() + "x" + measured.height()
-                    + " and the grid " + grid.width() + "x" + grid.height());
-        }
+        check(values, measured, area, status, grid);
         float[] v = values.samples();
         float[] m = measured.samples();
         int n = v.length;
-        if (status != null && status.length != n) {
-            throw new IllegalArgumentException(status.length + " status codes do not match the map "
-                    + values.width() + "x" + values.height());
-        }
         long[] areaWords = area == null ? null : area.words();
         long[] out = new long[Blocks.count(n, 64)];
         int blocks = Blocks.count(n, Mask.BLOCK_PX);
@@ -78,9 +63,34 @@ public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, 
                 sum[k] += c[k];
             }
         }
-        int areaCount = sum[5];
-        return new EvaluatedArea(Mask.ofWords(values.width(), values.height(), out), sum[0], sum[1],
-                new InvalidArea(areaCount, sum[2], sum[3], sum[4], grid.pixelAreaMm2()));
+        return of(values, out, sum, grid);
+    }
+
+    /** The evaluated area from its mask words and the counts of {@link #block} added up. */
+    static EvaluatedArea of(FloatRaster values, long[] words, int[] sum, PixelGrid grid) {
+        return new EvaluatedArea(Mask.ofWords(values.width(), values.height(), words), sum[0], sum[1],
+                new InvalidArea(sum[5], sum[2], sum[3], sum[4], grid.pixelAreaMm2()));
+    }
+
+    /** Refuses inputs of different sizes. */
+    static void check(FloatRaster values, FloatRaster measured, Mask area, byte[] status, PixelGrid grid) {
+        Checks.notNull(values, "values");
+        Checks.notNull(measured, "measured");
+        Checks.notNull(grid, "grid");
+        if (area != null) {
+            MapStatistics.checkSizes(measured, area, grid);
+        }
+        if (values.width() != measured.width() || values.height() != measured.height()
+                || values.width() != grid.width() || values.height() != grid.height()) {
+            throw new IllegalArgumentException("map " + values.width() + "x" + values.height()
+                    + " does not match the measured map " + measured.width() + "x" + measured.height()
+                    + " and the grid " + grid.width() + "x" + grid.height());
+        }
+        int n = values.samples().length;
+        if (status != null && status.length != n) {
+            throw new IllegalArgumentException(status.length + " status codes do not match the map "
+                    + values.width() + "x" + values.height());
+        }
     }
 
     /**
@@ -88,8 +98,8 @@ public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, 
      * {@code out} and returns its counts {evaluated, below limit, non-finite, non-positive, invalid conversion,
      * area}. Each unusable pixel counts under the first cause of {@link InvalidArea#cause} that applies.
      */
-    private static int[] block(int b, int n, float[] v, float[] m, long[] areaWords, byte[] status,
-                               boolean lifetimeFloor, long[] out) {
+    static int[] block(int b, int n, float[] v, float[] m, long[] areaWords, byte[] status, boolean lifetimeFloor,
+                       long[] out) {
         byte ok = PixelStatus.OK.code();
         byte belowLimit = PixelStatus.BELOW_LIMIT.code();
         byte invalid = PixelStatus.INVALID.code();

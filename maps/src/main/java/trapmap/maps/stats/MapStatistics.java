@@ -104,7 +104,7 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
         Checks.notNull(request, "request");
         checkSizes(raster, mask, grid);
         float[] s = raster.samples();
-        double[] thresholds = request.thresholds().stream().mapToDouble(Double::doubleValue).toArray();
+        double[] thresholds = thresholds(request);
         int size = s.length;
         long[] words = mask == null ? null : mask.words();
         int blocks = Blocks.count(size, Mask.BLOCK_PX);
@@ -118,26 +118,98 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
         float[] values = new float[offset[blocks]];
         Part[] parts = new Part[blocks];
         Blocks.run(blocks, size, b -> parts[b] = Part.of(s, words, b, size, thresholds, values, offset[b]));
-
-        // the blocks' moments combined in block order (Chan, Golub and LeVeque's pairwise update of Welford's sums):
-        // the same figures on any number of threads
+        // the blocks' values closed up, in index order
         int n = 0;
-        int nonPositive = 0;
-        double mean = 0;
-        double m2 = 0;
+        for (int b = 0; b < blocks; b++) {
+            if (parts[b].n > 0 && n != offset[b]) {
+                System.arraycopy(values, offset[b], values, n, parts[b].n);
+            }
+            n += parts[b].n;
+        }
+        // Σ 1/x in index order on one thread: the harmonic mean, a verdict figure, is then the very number every
+        // other face computes from the same values (the batch adds the reciprocals of its packed values in order)
+        double reciprocalSum = 0;
+        for (int k = 0; k < n; k++) {
+            float f = values[k];
+            if (f > 0) {
+                reciprocalSum += 1 / (double) f;
+            }
+        }
+        double[] wanted = wantedPercents(request);
+        return of(Sums.of(parts, thresholds.length), reciprocalSum, percentiles(values, n, wanted), request,
+                thresholds, grid.pixelAreaMm2());
+    }
+
+    /** The requested percents, then 50 (the median). */
+    static double[] wantedPercents(StatisticsRequest request) {
+        double[] wanted = new double[request.percents().size() + 1];
+        for (int k = 0; k < wanted.length - 1; k++) {
+            wanted[k] = request.percents().get(k);
+        }
+        wanted[wanted.length - 1] = 50;
+        return wanted;
+    }
+
+    /** The requested thresholds. */
+    static double[] thresholds(StatisticsRequest request) {
+        return request.thresholds().stream().mapToDouble(Double::doubleValue).toArray();
+    }
+
+    /**
+     * The statistics from the blocks' sums, Σ 1/x over the positive values and the estimates of the
+     * {@link #wantedPercents} of {@code request}.
+     */
+    static MapStatistics of(Sums sums, double reciprocalSum, double[] estimates, StatisticsRequest request,
+                            double[] thresholds, double pixelArea) {
+        int n = sums.n;
+        int positive = n - sums.nonPositive;
+        List<AreaFraction> fractions = new ArrayList<>();
+        for (int k = 0; k < thresholds.length; k++) {
+            int below = sums.below[k];
+            int above = sums.above[k];
+            fractions.add(new AreaFraction(thresholds[k], below, above, n == 0 ? Double.NaN : (double) below / n,
+                    n == 0 ? Double.NaN : (double) above / n, below * pixelArea, above * pixelArea));
+        }
+        int asked = request.percents().size();
+        List<PercentileValue> pv = new ArrayList<>();
+        for (int k = 0; k < asked; k++) {
+            pv.add(new PercentileValue(request.percents().get(k), estimates[k]));
+        }
+        return new MapStatistics(n, n * pixelArea, n == 0 ? Double.NaN : sums.mean,
+                positive == 0 ? Double.NaN : positive / reciprocalSum,
+                positive == 0 ? Double.NaN : Math.exp(sums.logSum / positive), sums.nonPositive,
+                estimates[asked], n == 0 ? Double.NaN : sums.min, n == 0 ? Double.NaN : sums.max,
+                n < 2 ? Double.NaN : Math.sqrt(sums.m2 / (n - 1)), pv, fractions);
+    }
+
+    /**
+     * The blocks' sums combined in block order (Chan, Golub and LeVeque's pairwise update of Welford's sums): the same
+     * figures on any number of threads.
+     */
+    static final class Sums {
+        int n;
+        int nonPositive;
+        double mean;
+        double m2;
         double min = Double.POSITIVE_INFINITY;
         double max = Double.NEGATIVE_INFINITY;
-        double reciprocalSum = 0;
-        double logSum = 0;
-        int[] below = new int[thresholds.length];
-        int[] above = new int[thresholds.length];
-        for (int b = 0; b < blocks; b++) {
-            Part p = parts[b];
-            if (p.n == 0) {
-                continue;
+        double logSum;
+        int[] below;
+        int[] above;
+
+        static Sums of(Part[] parts, int thresholds) {
+            Sums sums = new Sums();
+            sums.below = new int[thresholds];
+            sums.above = new int[thresholds];
+            for (Part p : parts) {
+                sums.add(p);
             }
-            if (n != offset[b]) {
-                System.arraycopy(values, offset[b], values, n, p.n);
+            return sums;
+        }
+
+        private void add(Part p) {
+            if (p.n == 0) {
+                return;
             }
             int total = n + p.n;
             double delta = p.mean - mean;
@@ -148,41 +220,11 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
             min = Math.min(min, p.min);
             max = Math.max(max, p.max);
             logSum += p.logSum;
-            for (int k = 0; k < thresholds.length; k++) {
+            for (int k = 0; k < below.length; k++) {
                 below[k] += p.below[k];
                 above[k] += p.above[k];
             }
         }
-
-        // Σ 1/x in index order on one thread: the harmonic mean, a verdict figure, is then the very number every
-        // other face computes from the same values (the batch adds the reciprocals of its packed values in order)
-        for (int k = 0; k < n; k++) {
-            float f = values[k];
-            if (f > 0) {
-                reciprocalSum += 1 / (double) f;
-            }
-        }
-        double pixelArea = grid.pixelAreaMm2();
-        int positive = n - nonPositive;
-        List<AreaFraction> fractions = new ArrayList<>();
-        for (int k = 0; k < thresholds.length; k++) {
-            fractions.add(new AreaFraction(thresholds[k], below[k], above[k], n == 0 ? Double.NaN
-                    : (double) below[k] / n, n == 0 ? Double.NaN : (double) above[k] / n, below[k] * pixelArea,
-                    above[k] * pixelArea));
-        }
-        double[] asked = request.percents().stream().mapToDouble(Double::doubleValue).toArray();
-        double[] wanted = Arrays.copyOf(asked, asked.length + 1);
-        wanted[asked.length] = 50;
-        double[] estimates = percentiles(values, n, wanted);
-        List<PercentileValue> pv = new ArrayList<>();
-        for (int k = 0; k < asked.length; k++) {
-            pv.add(new PercentileValue(asked[k], estimates[k]));
-        }
-        return new MapStatistics(n, n * pixelArea, n == 0 ? Double.NaN : mean,
-                positive == 0 ? Double.NaN : positive / reciprocalSum,
-                positive == 0 ? Double.NaN : Math.exp(logSum / positive), nonPositive,
-                estimates[asked.length], n == 0 ? Double.NaN : min, n == 0 ? Double.NaN : max,
-                n < 2 ? Double.NaN : Math.sqrt(m2 / (n - 1)), pv, fractions);
     }
 
     /** Pixels of block {@code b} in the mask. */
@@ -196,7 +238,12 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
     }
 
     /** The sums of one block of pixels, in index order. */
-    private static final class Part {
+    static final class Part {
+        /** The significand bits of a double. */
+        private static final long SIGNIFICAND_BITS = (1L << 52) - 1;
+        /** The exponent bits of 1.0. */
+        private static final long ONE_EXPONENT_BITS = (long) Double.MAX_EXPONENT << 52;
+
         int n;
         int nonPositive;
         double mean;
@@ -209,14 +256,17 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
 
         /** Block {@code b} of {@code s} over the mask {@code words} (null: all), its values copied to out[at..]. */
         static Part of(float[] s, long[] words, int b, int size, double[] thresholds, float[] out, int at) {
-            Part p = new Part();
-            p.below = new int[thresholds.length];
-            p.above = new int[thresholds.length];
             int from = b * Mask.BLOCK_PX;
             int end = Math.min(size, from + Mask.BLOCK_PX);
-            // Σ ln x kept as ln(product) + binaryExponent·ln 2: one multiplication per pixel instead of a logarithm
-            double product = 1;
-            long binaryExponent = 0;
+            return ofValues(out, at, gather(s, words, from, end, out, at), thresholds);
+        }
+
+        /**
+         * Copies the values of pixels [from, end) in the mask {@code words} (null: all) that are not NaN to
+         * out[at..], in index order, and returns their count. (Each loop of a block is a small method of its own: the
+         * just-in-time compiler then compiles each quickly instead of the whole block's work on the stack.)
+         */
+        static int gather(float[] s, long[] words, int from, int end, float[] out, int at) {
             int n = 0;
             if (words == null) {
                 for (int i = from; i < end; i++) {
@@ -225,67 +275,108 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
                         out[at + n++] = f;
                     }
                 }
-            } else {
-                for (int wi = from >>> 6, we = (end + 63) >>> 6; wi < we; wi++) {
-                    long word = words[wi];
-                    int base = wi << 6;
-                    if (word == -1L) {
-                        for (int i = base; i < base + 64; i++) {
-                            float f = s[i];
-                            if (f == f) {
-                                out[at + n++] = f;
-                            }
+                return n;
+            }
+            for (int wi = from >>> 6, we = (end + 63) >>> 6; wi < we; wi++) {
+                long word = words[wi];
+                int base = wi << 6;
+                if (word == -1L) {
+                    for (int i = base; i < base + 64; i++) {
+                        float f = s[i];
+                        if (f == f) {
+                            out[at + n++] = f;
                         }
-                    } else {
-                        for (; word != 0; word &= word - 1) {
-                            float f = s[base + Long.numberOfTrailingZeros(word)];
-                            if (f == f) {
-                                out[at + n++] = f;
-                            }
+                    }
+                } else {
+                    for (; word != 0; word &= word - 1) {
+                        float f = s[base + Long.numberOfTrailingZeros(word)];
+                        if (f == f) {
+                            out[at + n++] = f;
                         }
                     }
                 }
             }
-            // the block's values, now side by side: sums in index order, then the squared deviations from the
-            // block's mean (two passes: no division per pixel, and more accurate than a running update)
+            return n;
+        }
+
+        /**
+         * The sums of the n values side by side at out[at..]: sums in index order, then the squared deviations from
+         * their mean (two passes: no division per value, and more accurate than a running update).
+         */
+        static Part ofValues(float[] out, int at, int n, double[] thresholds) {
+            Part p = new Part();
+            p.below = new int[thresholds.length];
+            p.above = new int[thresholds.length];
+            double sum = p.sums(out, at, at + n, thresholds);
+            p.mean = n == 0 ? 0 : sum / n;
+            p.m2 = squaredDeviations(out, at, at + n, p.mean);
+            p.n = n;
+            return p;
+        }
+
+        /**
+         * Σ x of out[from..to) in index order; sets the extremes, the count of values ≤ 0, the threshold counts and
+         * Σ ln x of the positive values.
+         */
+        private double sums(float[] out, int from, int to, double[] thresholds) {
+            // Σ ln x kept as ln(product) + binaryExponent·ln 2: one multiplication per value instead of a logarithm
+            double product = 1;
+            long binaryExponent = 0;
             double sum = 0;
-            for (int k = at, e = at + n; k < e; k++) {
+            double lo = Double.POSITIVE_INFINITY;
+            double hi = Double.NEGATIVE_INFINITY;
+            int nonPositiveCount = 0;
+            for (int k = from; k < to; k++) {
                 double v = out[k];
                 sum += v;
-                if (v < p.min) {
-                    p.min = v;
+                if (v < lo) {
+                    lo = v;
                 }
-                if (v > p.max) {
-                    p.max = v;
+                if (v > hi) {
+                    hi = v;
                 }
                 if (v > 0) {
                     product *= v;
                     if (product > 1e250 || product < 1e-250) {
-                        int exponent = Math.getExponent(product);
-                        product = Math.scalb(product, -exponent);
+                        int exponent;
+                        if (product < Double.POSITIVE_INFINITY) {
+                            // a normal number (a finite value ≥ 1.4e-45 times one in [1e-250, 1e250]): Math.getExponent
+                            // and Math.scalb(product, -exponent), exactly, on its bits
+                            long bits = Double.doubleToRawLongBits(product);
+                            exponent = (int) (bits >>> 52) - Double.MAX_EXPONENT;
+                            product = Double.longBitsToDouble(bits & SIGNIFICAND_BITS | ONE_EXPONENT_BITS);
+                        } else {
+                            exponent = Math.getExponent(product);
+                            product = Math.scalb(product, -exponent);
+                        }
                         binaryExponent += exponent;
                     }
                 } else {
-                    p.nonPositive++;
+                    nonPositiveCount++;
                 }
                 for (int t = 0; t < thresholds.length; t++) {
                     if (v < thresholds[t]) {
-                        p.below[t]++;
+                        below[t]++;
                     } else if (v > thresholds[t]) {
-                        p.above[t]++;
+                        above[t]++;
                     }
                 }
             }
-            p.mean = n == 0 ? 0 : sum / n;
+            min = lo;
+            max = hi;
+            nonPositive = nonPositiveCount;
+            logSum = to - from - nonPositiveCount == 0 ? 0 : Math.log(product) + binaryExponent * Math.log(2);
+            return sum;
+        }
+
+        /** Σ (x − mean)² over out[from..to), in index order. */
+        private static double squaredDeviations(float[] out, int from, int to, double mean) {
             double m2 = 0;
-            for (int k = at, e = at + n; k < e; k++) {
-                double d = out[k] - p.mean;
+            for (int k = from; k < to; k++) {
+                double d = out[k] - mean;
                 m2 += d * d;
             }
-            p.m2 = m2;
-            p.n = n;
-            p.logSum = n - p.nonPositive == 0 ? 0 : Math.log(product) + binaryExponent * Math.log(2);
-            return p;
+            return m2;
         }
     }
 
@@ -302,30 +393,63 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
      * already counted by the caller into {@code counted} (null: not counted), so that only the gathering pass runs.
      */
     public static double[] percentiles(float[] values, int n, double[] percents, RankBuckets counted) {
-        double[] out = new double[percents.length];
         if (n == 0) {
+            return Ranks.none(percents);
+        }
+        Ranks r = Ranks.of(n, percents);
+        return r.estimates(counted == null ? Selection.ranks(values, n, r.ranks)
+                : counted.ranks(values, n, r.ranks));
+    }
+
+    /**
+     * The order statistics the type-7 estimates of some percents need: the two around each h = (n − 1)·p/100, as one
+     * ascending list of distinct ranks.
+     */
+    static final class Ranks {
+        final int[] ranks;
+        private final int n;
+        private final int[] lower;
+        private final double[] frac;
+
+        private Ranks(int n, int[] ranks, int[] lower, double[] frac) {
+            this.n = n;
+            this.ranks = ranks;
+            this.lower = lower;
+            this.frac = frac;
+        }
+
+        /** NaN for every percent (no values). */
+        static double[] none(double[] percents) {
+            double[] out = new double[percents.length];
             Arrays.fill(out, Double.NaN);
             return out;
         }
-        // the two order statistics around each h = (n − 1)·p/100, as one ascending list of distinct ranks
-        int[] lower = new int[percents.length];
-        double[] frac = new double[percents.length];
-        int[] wanted = new int[2 * percents.length];
-        for (int k = 0; k < percents.length; k++) {
-            double h = (n - 1) * percents[k] / 100.0;
-            lower[k] = (int) Math.floor(h);
-            frac[k] = h - lower[k];
-            wanted[2 * k] = lower[k];
-            wanted[2 * k + 1] = Math.min(lower[k] + 1, n - 1);
+
+        /** The ranks for {@code percents} among n &gt; 0 values. */
+        static Ranks of(int n, double[] percents) {
+            int[] lower = new int[percents.length];
+            double[] frac = new double[percents.length];
+            int[] wanted = new int[2 * percents.length];
+            for (int k = 0; k < percents.length; k++) {
+                double h = (n - 1) * percents[k] / 100.0;
+                lower[k] = (int) Math.floor(h);
+                frac[k] = h - lower[k];
+                wanted[2 * k] = lower[k];
+                wanted[2 * k + 1] = Math.min(lower[k] + 1, n - 1);
+            }
+            return new Ranks(n, Arrays.stream(wanted).sorted().distinct().toArray(), lower, frac);
         }
-        int[] ranks = Arrays.stream(wanted).sorted().distinct().toArray();
-        double[] at = counted == null ? Selection.ranks(values, n, ranks) : counted.ranks(values, n, ranks);
-        for (int k = 0; k < percents.length; k++) {
-            double lo = at[Arrays.binarySearch(ranks, lower[k])];
-            double hi = at[Arrays.binarySearch(ranks, Math.min(lower[k] + 1, n - 1))];
-            out[k] = frac[k] > 0 ? lo + frac[k] * (hi - lo) : lo;
+
+        /** The estimates, in the order of the percents, from the values at {@link #ranks}. */
+        double[] estimates(double[] at) {
+            double[] out = new double[lower.length];
+            for (int k = 0; k < lower.length; k++) {
+                double lo = at[Arrays.binarySearch(ranks, lower[k])];
+                double hi = at[Arrays.binarySearch(ranks, Math.min(lower[k] + 1, n - 1))];
+                out[k] = frac[k] > 0 ? lo + frac[k] * (hi - lo) : lo;
+            }
+            return out;
         }
-        return out;
     }
 
     /**

@@ -48,25 +48,8 @@ final class Selection {
         });
         // (the loops over the buckets are small methods of their own: this method runs once, and the just-in-time
         // compiler then compiles them quickly instead of compiling all of it on the stack)
-        int[] count = sum(chunkCount);
-        int[] start = starts(count);
-        int[] slotOfBucket = new int[BUCKETS];
-        java.util.Arrays.fill(slotOfBucket, -1);
-        int[] bucketOfRank = new int[ranks.length];
-        int slots = 0;
-        long gathered = 0;
-        int b = 0;
-        for (int r = 0; r < ranks.length; r++) {
-            while (start[b + 1] <= ranks[r]) {
-                b++;
-            }
-            bucketOfRank[r] = b;
-            if (slotOfBucket[b] < 0) {
-                slotOfBucket[b] = slots++;
-                gathered += count[b];
-            }
-        }
-        if (gathered > Math.max(1 << 16, n / 4)) {
+        Plan plan = Plan.of(sum(chunkCount), n, ranks);
+        if (plan.inPlace) {
             int from = 0;
             for (int r = 0; r < ranks.length; r++) {
                 out[r] = select(values, from, n - 1, ranks[r]);
@@ -74,17 +57,11 @@ final class Selection {
             }
             return out;
         }
-        float[][] bins = new float[slots][];
-        int[] bucketOfSlot = new int[slots];
-        slotsOfBuckets(slotOfBucket, count, bins, bucketOfSlot);
+        float[][] bins = plan.bins();
         // each chunk gathers into its own stretch of every bin (the chunks before it fill the stretches before),
         // so the bins hold their values in index order however the chunks are run
-        int[][] fillOfChunk = new int[chunks][slots];
-        for (int c = 1; c < chunks; c++) {
-            for (int slot = 0; slot < slots; slot++) {
-                fillOfChunk[c][slot] = fillOfChunk[c - 1][slot] + chunkCount[c - 1][bucketOfSlot[slot]];
-            }
-        }
+        int[][] fillOfChunk = plan.fills(chunkCount);
+        int[] slotOfBucket = plan.slotOfBucket;
         Blocks.run(chunks, n, c -> {
             int[] fill = fillOfChunk[c];
             for (int i = c * CHUNK, end = Math.min(n, (c + 1) * CHUNK); i < end; i++) {
@@ -94,23 +71,113 @@ final class Selection {
                 }
             }
         });
-        // each wanted rank selected within its bucket (ascending ranks, so a later one starts where the last ended);
-        // a bucket never holds both zeros (-0 and +0 have keys on either side of a bucket boundary), so comparing
-        // with < orders it exactly as Arrays.sort would
-        int[] from = new int[slots];
-        for (int r = 0; r < ranks.length; r++) {
-            int bb = bucketOfRank[r];
-            int slot = slotOfBucket[bb];
-            float[] bin = bins[slot];
-            int k = ranks[r] - start[bb];
-            out[r] = select(bin, from[slot], bin.length - 1, k);
-            from[slot] = k;
+        return plan.select(bins, ranks);
+    }
+
+    /**
+     * Which buckets hold the wanted ranks, and where: made from the bucket counts of all n values. When those buckets
+     * hold a large share of the values ({@link #inPlace}), the ranks are better selected among all values in place.
+     */
+    static final class Plan {
+        /** The first sorted index of each bucket, and n at the end. */
+        final int[] start;
+        /** The slot (index among the gathered buckets) of each bucket, -1 for a bucket not gathered. */
+        final int[] slotOfBucket;
+        /** The bucket of each wanted rank. */
+        final int[] bucketOfRank;
+        /** The bucket of each slot. */
+        final int[] bucketOfSlot;
+        /** The count of each bucket. */
+        final int[] count;
+        /** True when the wanted buckets hold so many values that selecting among all of them in place is cheaper. */
+        final boolean inPlace;
+
+        private Plan(int[] count, int[] start, int[] slotOfBucket, int[] bucketOfRank, int[] bucketOfSlot,
+                     boolean inPlace) {
+            this.count = count;
+            this.start = start;
+            this.slotOfBucket = slotOfBucket;
+            this.bucketOfRank = bucketOfRank;
+            this.bucketOfSlot = bucketOfSlot;
+            this.inPlace = inPlace;
         }
-        return out;
+
+        /** The plan for {@code ranks} (ascending, each &lt; n) from the count of every bucket ({@link #bucket}). */
+        static Plan of(int[] count, int n, int[] ranks) {
+            int[] start = starts(count);
+            int[] slotOfBucket = new int[BUCKETS];
+            java.util.Arrays.fill(slotOfBucket, -1);
+            int[] bucketOfRank = new int[ranks.length];
+            int slots = 0;
+            long gathered = 0;
+            int b = 0;
+            for (int r = 0; r < ranks.length; r++) {
+                while (start[b + 1] <= ranks[r]) {
+                    b++;
+                }
+                bucketOfRank[r] = b;
+                if (slotOfBucket[b] < 0) {
+                    slotOfBucket[b] = slots++;
+                    gathered += count[b];
+                }
+            }
+            int[] bucketOfSlot = new int[slots];
+            for (int bb = 0; bb < BUCKETS; bb++) {
+                if (slotOfBucket[bb] >= 0) {
+                    bucketOfSlot[slotOfBucket[bb]] = bb;
+                }
+            }
+            return new Plan(count, start, slotOfBucket, bucketOfRank, bucketOfSlot,
+                    gathered > Math.max(1 << 16, n / 4));
+        }
+
+        /** An empty array for the values of every gathered bucket, by slot. */
+        float[][] bins() {
+            float[][] bins = new float[bucketOfSlot.length][];
+            for (int slot = 0; slot < bins.length; slot++) {
+                bins[slot] = new float[count[bucketOfSlot[slot]]];
+            }
+            return bins;
+        }
+
+        /**
+         * Where each chunk of values starts writing into every bin, from the bucket counts of the chunks (in index
+         * order): the chunks before it fill the stretches before.
+         */
+        int[][] fills(int[][] chunkCount) {
+            int slots = bucketOfSlot.length;
+            int[][] fillOfChunk = new int[chunkCount.length][slots];
+            for (int c = 1; c < chunkCount.length; c++) {
+                for (int slot = 0; slot < slots; slot++) {
+                    fillOfChunk[c][slot] = fillOfChunk[c - 1][slot] + chunkCount[c - 1][bucketOfSlot[slot]];
+                }
+            }
+            return fillOfChunk;
+        }
+
+        /**
+         * The values of the wanted ranks from the gathered bins (reordered): each rank selected within its bucket
+         * (ascending ranks, so a later one starts where the last ended). A bucket never holds both zeros (-0 and +0
+         * have keys on either side of a bucket boundary), so comparing with &lt; orders it exactly as Arrays.sort
+         * would.
+         */
+        double[] select(float[][] bins, int[] ranks) {
+            double[] out = new double[ranks.length];
+            int[] from = new int[bins.length];
+            for (int r = 0; r < ranks.length; r++) {
+                int bb = bucketOfRank[r];
+                int slot = slotOfBucket[bb];
+                float[] bin = bins[slot];
+                int k = ranks[r] - start[bb];
+                out[r] = Selection.select(bin, from[slot], bin.length - 1, k);
+                from[slot] = k;
+            }
+            return out;
+        }
     }
 
     /** The bucket counts of all chunks added up. */
-    private static int[] sum(int[][] chunkCount) {
+    static int[] sum(int[][] chunkCount) {
         int[] count = new int[BUCKETS];
         for (int[] cc : chunkCount) {
             for (int bb = 0; bb < BUCKETS; bb++) {
@@ -127,16 +194,6 @@ final class Selection {
             start[b + 1] = start[b] + count[b];
         }
         return start;
-    }
-
-    /** An array of its count for every gathered bucket, in its slot, and the bucket of every slot. */
-    private static void slotsOfBuckets(int[] slotOfBucket, int[] count, float[][] bins, int[] bucketOfSlot) {
-        for (int bb = 0; bb < BUCKETS; bb++) {
-            if (slotOfBucket[bb] >= 0) {
-                bins[slotOfBucket[bb]] = new float[count[bb]];
-                bucketOfSlot[slotOfBucket[bb]] = bb;
-            }
-        }
     }
 
     /** Bucket of a float: the top 16 bits of its order-preserving key (negative values reversed, then offset). */

@@ -79,7 +79,7 @@ class NumberTextTest {
     @Test
     void floatsReadBackWithTheFewestDigitsOverRandomBitPatterns() {
         SplittableRandom r = new SplittableRandom(17);
-        for (int i = 0; i < 200_000; i++) {
+        for (int i = 0; i < 40_000; i++) {
             float v = Float.intBitsToFloat(r.nextInt());
             if (Float.isFinite(v)) {
                 assertShortest(v);
@@ -133,6 +133,33 @@ class NumberTextTest {
             assertThat(Math.abs(back - v)).isLessThanOrEqualTo(NumberText.POSITION_RESOLUTION_MM / 2 + 1e-12);
             assertThat(NumberText.mm(v)).matches("-?\\d+(\\.\\d{1,3})?");
         }
+    }
+
+    @Test
+    void roundedValuesAreWhatTheirDecimalTextsReadBackTo() {
+        SplittableRandom r = new SplittableRandom(17);
+        java.util.List<Double> values = new java.util.ArrayList<>(java.util.List.of(0.0, -0.0, 0.0005, -0.0005,
+                0.0625, -0.0625, 0.1875, 2.5e-4, 1e-300, -1e-300, 4503599627370.4965, 9.1e12, -9.1e12, 1e300,
+                Double.MIN_VALUE, Double.MAX_VALUE, -Double.MAX_VALUE));
+        for (int i = 0; i < 40_000; i++) {
+            switch (i % 4) {
+                case 0 -> values.add((r.nextDouble() - 0.5) * 400);
+                // exact midpoints (odd sixteenths) and their neighbours
+                case 1 -> {
+                    double midpoint = (2 * (r.nextInt(20_000) - 10_000) + 1) / 16.0;
+                    int k = r.nextInt(3);
+                    values.add(k == 0 ? midpoint : k == 1 ? Math.nextUp(midpoint) : Math.nextDown(midpoint));
+                }
+                case 2 -> values.add(r.nextInt(2_000_000) / 1000.0 + 0.0005 * (r.nextInt(3) - 1));
+                default -> values.add(Math.scalb(r.nextDouble() - 0.5, r.nextInt(120) - 60));
+            }
+        }
+        for (double v : values) {
+            assertThat(NumberText.roundMm(v)).as("%s", v).isEqualTo(Double.parseDouble(NumberText.mm(v)));
+            assertThat(NumberText.roundMm2(v)).as("%s", v).isEqualTo(Double.parseDouble(NumberText.mm2(v)));
+        }
+        assertThat(1 / NumberText.roundMm(-0.0001)).isPositive(); // "0", not "-0"
+        assertThat(NumberText.roundMm(Double.NaN)).isNaN();
     }
 
     @Test

@@ -89,6 +89,32 @@ class EvaluatedAreaMaskTest {
     }
 
     @Test
+    void givesTheFiguresOfTheSeparatePassesOnMostlyUsableMaps() {
+        // whole words of usable pixels (the quick path) beside words with one pixel of some cause
+        Random r = new Random(77);
+        int w = 611;
+        int h = 203;
+        float[] measured = new float[w * h];
+        float[] density = new float[w * h];
+        byte[] status = new byte[w * h];
+        for (int i = 0; i < measured.length; i++) {
+            boolean odd = r.nextInt(300) == 0;
+            measured[i] = odd ? value(r) : 1 + r.nextFloat() * 500;
+            density[i] = odd ? value(r) : 1e10f + r.nextFloat() * 1e12f;
+            status[i] = odd ? (byte) r.nextInt(PixelStatus.values().length) : PixelStatus.OK.code();
+        }
+        FloatRaster m = FloatRaster.wrap(w, h, measured);
+        FloatRaster d = FloatRaster.wrap(w, h, density);
+        Mask area = Mask.of(w, h, i -> (i / w - h / 2) * (i / w - h / 2) + (i % w - w / 2) * (i % w - w / 2) < 90000);
+        for (boolean floor : new boolean[] {true, false}) {
+            assertSameAsSeparatePasses(d, m, area, status, floor);
+            assertSameAsSeparatePasses(d, m, null, status, floor);
+            assertSameAsSeparatePasses(m, m, area, null, floor);
+            assertSameAsSeparatePasses(m, m, null, null, floor);
+        }
+    }
+
+    @Test
     void countsEachCauseOnceAndKeepsOnlyOkPixels() {
         float[] tau = {Float.NaN, Float.POSITIVE_INFINITY, 0f, -2f, 5e-4f, 50f, 60f, 70f};
         FloatRaster measured = FloatRaster.wrap(tau.length, 1, tau);
