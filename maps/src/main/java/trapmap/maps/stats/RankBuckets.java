@@ -42,75 +42,23 @@ public final class RankBuckets {
         if (total != n) {
             throw new IllegalStateException(total + " values counted in the buckets, " + n + " to rank");
         }
-        // the bucket of every wanted rank, and the sorted index its bucket starts at, by one walk over the counts
-        int[] bucketOfRank = new int[ranks.length];
-        int[] startOfRank = new int[ranks.length];
-        int b = 0;
-        int start = 0;
-        for (int r = 0; r < ranks.length; r++) {
-            while (start + counts[b] <= ranks[r]) {
-                start += counts[b++];
-            }
-            bucketOfRank[r] = b;
-            startOfRank[r] = start;
+        Selection.Plan plan = Selection.Plan.of(counts, n, ranks);
+        if (plan.inPlace) {
+            return Selection.inPlace(values, n, ranks);
         }
-        // the distinct buckets, ascending, each in a slot of its own
-        int lo = bucketOfRank[0];
-        int span = bucketOfRank[ranks.length - 1] - lo + 1;
-        int[] slotOf = new int[span];
-        Arrays.fill(slotOf, -1);
-        int slots = 0;
-        long gathered = 0;
-        for (int r = 0; r < ranks.length; r++) {
-            int d = bucketOfRank[r] - lo;
-            if (slotOf[d] < 0) {
-                slotOf[d] = slots++;
-                gathered += counts[bucketOfRank[r]];
-            }
-        }
-        double[] out = new double[ranks.length];
-        if (gathered > Math.max(1 << 16, n / 4)) {
-            // a nearly constant sample: selecting in place costs less than copying most of it
-            int from = 0;
-            for (int r = 0; r < ranks.length; r++) {
-                out[r] = Selection.select(values, from, n - 1, ranks[r]);
-                from = ranks[r];
-            }
-            return out;
-        }
-        float[][] bins = new float[slots][];
-        for (int r = 0; r < ranks.length; r++) {
-            int slot = slotOf[bucketOfRank[r] - lo];
-            if (bins[slot] == null) {
-                bins[slot] = new float[counts[bucketOfRank[r]]];
-            }
-        }
-        gather(values, n, lo, slotOf, bins);
-        // each wanted rank selected within its bucket, as Selection does (ascending ranks: a later one starts where
-        // the last one ended)
-        int[] from = new int[slots];
-        for (int r = 0; r < ranks.length; r++) {
-            int slot = slotOf[bucketOfRank[r] - lo];
-            float[] bin = bins[slot];
-            int k = ranks[r] - startOfRank[r];
-            out[r] = Selection.select(bin, from[slot], bin.length - 1, k);
-            from[slot] = k;
-        }
-        return out;
+        float[][] bins = plan.bins();
+        gather(values, n, plan.slotOfBucket, bins);
+        return plan.select(bins, ranks);
     }
 
-    /** The values of the buckets lo + d with a slot (slotOf[d] ≥ 0) into the bins of their slots, in index order. */
-    private static void gather(float[] values, int n, int lo, int[] slotOf, float[][] bins) {
-        int span = slotOf.length;
+    /** The values of the buckets with a slot into the bins of their slots, in index order. */
+    private static void gather(float[] values, int n, int[] slotOfBucket, float[][] bins) {
         int[] fill = new int[bins.length];
         for (int i = 0; i < n; i++) {
             float v = values[i];
-            int d = Selection.bucket(v) - lo;
-            if (d >= 0 && d < span) {
-                int slot = slotOf[d];
-                if (slot >= 0) {
-                    bins[slot][fill[slot]++] = v;
-                }
+            int slot = slotOfBucket[Selection.bucket(v)];
+            if (slot >= 0) {
+                bins[slot][fill[slot]++] = v;
             }
         }
     }

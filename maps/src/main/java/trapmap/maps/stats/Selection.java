@@ -50,12 +50,7 @@ final class Selection {
         // compiler then compiles them quickly instead of compiling all of it on the stack)
         Plan plan = Plan.of(sum(chunkCount), n, ranks);
         if (plan.inPlace) {
-            int from = 0;
-            for (int r = 0; r < ranks.length; r++) {
-                out[r] = select(values, from, n - 1, ranks[r]);
-                from = ranks[r];
-            }
-            return out;
+            return inPlace(values, n, ranks);
         }
         float[][] bins = plan.bins();
         // each chunk gathers into its own stretch of every bin (the chunks before it fill the stretches before),
@@ -74,13 +69,24 @@ final class Selection {
         return plan.select(bins, ranks);
     }
 
+    /** The values of ranks {@code ranks} (ascending) selected among all of values[0..n) in place (reordering them). */
+    static double[] inPlace(float[] values, int n, int[] ranks) {
+        double[] out = new double[ranks.length];
+        int from = 0;
+        for (int r = 0; r < ranks.length; r++) {
+            out[r] = select(values, from, n - 1, ranks[r]);
+            from = ranks[r];
+        }
+        return out;
+    }
+
     /**
      * Which buckets hold the wanted ranks, and where: made from the bucket counts of all n values. When those buckets
      * hold a large share of the values ({@link #inPlace}), the ranks are better selected among all values in place.
      */
     static final class Plan {
-        /** The first sorted index of each bucket, and n at the end. */
-        final int[] start;
+        /** The first sorted index of the bucket of each wanted rank. */
+        final int[] startOfRank;
         /** The slot (index among the gathered buckets) of each bucket, -1 for a bucket not gathered. */
         final int[] slotOfBucket;
         /** The bucket of each wanted rank. */
@@ -92,42 +98,43 @@ final class Selection {
         /** True when the wanted buckets hold so many values that selecting among all of them in place is cheaper. */
         final boolean inPlace;
 
-        private Plan(int[] count, int[] start, int[] slotOfBucket, int[] bucketOfRank, int[] bucketOfSlot,
+        private Plan(int[] count, int[] startOfRank, int[] slotOfBucket, int[] bucketOfRank, int[] bucketOfSlot,
                      boolean inPlace) {
             this.count = count;
-            this.start = start;
+            this.startOfRank = startOfRank;
             this.slotOfBucket = slotOfBucket;
             this.bucketOfRank = bucketOfRank;
             this.bucketOfSlot = bucketOfSlot;
             this.inPlace = inPlace;
         }
 
-        /** The plan for {@code ranks} (ascending, each &lt; n) from the count of every bucket ({@link #bucket}). */
+        /**
+         * The plan for {@code ranks} (ascending, each &lt; n) from the count of every bucket ({@link #bucket}): one
+         * walk over the counts up to the highest wanted rank.
+         */
         static Plan of(int[] count, int n, int[] ranks) {
-            int[] start = starts(count);
             int[] slotOfBucket = new int[BUCKETS];
             java.util.Arrays.fill(slotOfBucket, -1);
             int[] bucketOfRank = new int[ranks.length];
+            int[] startOfRank = new int[ranks.length];
+            int[] bucketOfSlot = new int[ranks.length];
             int slots = 0;
             long gathered = 0;
             int b = 0;
+            int start = 0;
             for (int r = 0; r < ranks.length; r++) {
-                while (start[b + 1] <= ranks[r]) {
-                    b++;
+                while (start + count[b] <= ranks[r]) {
+                    start += count[b++];
                 }
                 bucketOfRank[r] = b;
-                if (slotOfBucket[b] < 0) {
+                startOfRank[r] = start;
+                if (slotOfBucket[b] < 0) { // ascending ranks: the slots follow the buckets' order
+                    bucketOfSlot[slots] = b;
                     slotOfBucket[b] = slots++;
                     gathered += count[b];
                 }
             }
-            int[] bucketOfSlot = new int[slots];
-            for (int bb = 0; bb < BUCKETS; bb++) {
-                if (slotOfBucket[bb] >= 0) {
-                    bucketOfSlot[slotOfBucket[bb]] = bb;
-                }
-            }
-            return new Plan(count, start, slotOfBucket, bucketOfRank, bucketOfSlot,
+            return new Plan(count, startOfRank, slotOfBucket, bucketOfRank, Arrays.copyOf(bucketOfSlot, slots),
                     gathered > Math.max(1 << 16, n / 4));
         }
 
@@ -165,10 +172,9 @@ final class Selection {
             double[] out = new double[ranks.length];
             int[] from = new int[bins.length];
             for (int r = 0; r < ranks.length; r++) {
-                int bb = bucketOfRank[r];
-                int slot = slotOfBucket[bb];
+                int slot = slotOfBucket[bucketOfRank[r]];
                 float[] bin = bins[slot];
-                int k = ranks[r] - start[bb];
+                int k = ranks[r] - startOfRank[r];
                 out[r] = Selection.select(bin, from[slot], bin.length - 1, k);
                 from[slot] = k;
             }
@@ -185,15 +191,6 @@ final class Selection {
             }
         }
         return count;
-    }
-
-    /** The first sorted index of each bucket, and n at the end. */
-    private static int[] starts(int[] count) {
-        int[] start = new int[BUCKETS + 1];
-        for (int b = 0; b < BUCKETS; b++) {
-            start[b + 1] = start[b] + count[b];
-        }
-        return start;
     }
 
     /** Bucket of a float: the top 16 bits of its order-preserving key (negative values reversed, then offset). */
