@@ -130,7 +130,7 @@ public final class EvaluatedStatistics {
      */
     public synchronized MapStatistics statistics() {
         if (statistics == null) {
-            MapStatistics.Sums sums = MapStatistics.Sums.of(parts, thresholds.length);
+            MapStatistics.Part sums = MapStatistics.Part.combined(parts, thresholds.length);
             double[] wanted = MapStatistics.wantedPercents(request);
             double[] estimates;
             double reciprocalSum;

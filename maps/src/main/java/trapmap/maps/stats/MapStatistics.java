@@ -136,7 +136,7 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
             }
         }
         double[] wanted = wantedPercents(request);
-        return of(Sums.of(parts, thresholds.length), reciprocalSum, percentiles(values, n, wanted), request,
+        return of(Part.combined(parts, thresholds.length), reciprocalSum, percentiles(values, n, wanted), request,
                 thresholds, grid.pixelAreaMm2());
     }
 
@@ -159,7 +159,7 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
      * The statistics from the blocks' sums, Σ 1/x over the positive values and the estimates of the
      * {@link #wantedPercents} of {@code request}.
      */
-    static MapStatistics of(Sums sums, double reciprocalSum, double[] estimates, StatisticsRequest request,
+    static MapStatistics of(Part sums, double reciprocalSum, double[] estimates, StatisticsRequest request,
                             double[] thresholds, double pixelArea) {
         int n = sums.n;
         int positive = n - sums.nonPositive;
@@ -182,11 +182,23 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
                 n < 2 ? Double.NaN : Math.sqrt(sums.m2 / (n - 1)), pv, fractions);
     }
 
-    /**
-     * The blocks' sums combined in block order (Chan, Golub and LeVeque's pairwise update of Welford's sums): the same
-     * figures on any number of threads.
-     */
-    static final class Sums {
+    /** Pixels of block {@code b} in the mask. */
+    private static int maskCount(long[] words, int b, int size) {
+        int c = 0;
+        for (int wi = b * (Mask.BLOCK_PX >>> 6), we = (Math.min(size, (b + 1) * Mask.BLOCK_PX) + 63) >>> 6; wi < we;
+                wi++) {
+            c += Long.bitCount(words[wi]);
+        }
+        return c;
+    }
+
+    /** The sums of one block of pixels, in index order, or of several blocks ({@link #combined}). */
+    static final class Part {
+        /** The significand bits of a double. */
+        private static final long SIGNIFICAND_BITS = (1L << 52) - 1;
+        /** The exponent bits of 1.0. */
+        private static final long ONE_EXPONENT_BITS = (long) Double.MAX_EXPONENT << 52;
+
         int n;
         int nonPositive;
         double mean;
@@ -197,8 +209,12 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
         int[] below;
         int[] above;
 
-        static Sums of(Part[] parts, int thresholds) {
-            Sums sums = new Sums();
+        /**
+         * The blocks' sums combined in block order (Chan, Golub and LeVeque's pairwise update of Welford's sums): the
+         * same figures on any number of threads.
+         */
+        static Part combined(Part[] parts, int thresholds) {
+            Part sums = new Part();
             sums.below = new int[thresholds];
             sums.above = new int[thresholds];
             for (Part p : parts) {
@@ -225,34 +241,6 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
                 above[k] += p.above[k];
             }
         }
-    }
-
-    /** Pixels of block {@code b} in the mask. */
-    private static int maskCount(long[] words, int b, int size) {
-        int c = 0;
-        for (int wi = b * (Mask.BLOCK_PX >>> 6), we = (Math.min(size, (b + 1) * Mask.BLOCK_PX) + 63) >>> 6; wi < we;
-                wi++) {
-            c += Long.bitCount(words[wi]);
-        }
-        return c;
-    }
-
-    /** The sums of one block of pixels, in index order. */
-    static final class Part {
-        /** The significand bits of a double. */
-        private static final long SIGNIFICAND_BITS = (1L << 52) - 1;
-        /** The exponent bits of 1.0. */
-        private static final long ONE_EXPONENT_BITS = (long) Double.MAX_EXPONENT << 52;
-
-        int n;
-        int nonPositive;
-        double mean;
-        double m2;
-        double min = Double.POSITIVE_INFINITY;
-        double max = Double.NEGATIVE_INFINITY;
-        double logSum;
-        int[] below;
-        int[] above;
 
         /** Block {@code b} of {@code s} over the mask {@code words} (null: all), its values copied to out[at..]. */
         static Part of(float[] s, long[] words, int b, int size, double[] thresholds, float[] out, int at) {
