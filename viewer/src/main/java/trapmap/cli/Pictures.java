@@ -88,11 +88,6 @@ final class Pictures {
         }
     }
 
-    /** Whether a step was skipped for want of something. */
-    synchronized boolean anySkipped() {
-        return !skipped.isEmpty();
-    }
-
     /** Whether {@code step} was skipped. */
     synchronized boolean skipped(String step) {
         return skipped.contains(step);
