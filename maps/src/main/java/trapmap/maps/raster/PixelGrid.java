@@ -60,4 +60,26 @@ public record PixelGrid(int width, int height, double pitchMm, double centreXPx,
     public PixelGrid withCentre(double xPx, double yPx) {
         return new PixelGrid(width, height, pitchMm, xPx, yPx);
     }
+
+    /*
+     * equals and hashCode written out with the generated record semantics (each component in order; doubles compared
+     * with Double.compare, hash = 31 * hash + Integer/Double.hashCode of each): the generated ones are made at run time
+     * by java.lang.runtime.ObjectMethods, a tree of method handles whose classes are spun and compiled in every process
+     * that first hashes a grid (each batch, through the outline-fit cache). RecordMethodsTest checks the sameness.
+     */
+    @Override
+    public boolean equals(Object o) {
+        return o == this || o instanceof PixelGrid g && width == g.width && height == g.height
+                && Double.compare(pitchMm, g.pitchMm) == 0 && Double.compare(centreXPx, g.centreXPx) == 0
+                && Double.compare(centreYPx, g.centreYPx) == 0;
+    }
+
+    @Override
+    public int hashCode() {
+        int h = Integer.hashCode(width);
+        h = 31 * h + Integer.hashCode(height);
+        h = 31 * h + Double.hashCode(pitchMm);
+        h = 31 * h + Double.hashCode(centreXPx);
+        return 31 * h + Double.hashCode(centreYPx);
+    }
 }
