@@ -174,4 +174,34 @@ class LauncherArchiveTest {
         assertThat(off.probeFromArchive()).isFalse();
         assertThat(archive).doesNotExist();
     }
+
+    /** The number of processors this machine gives a process, as the launcher reads it ({@code nproc}). */
+    private static int processors() throws IOException, InterruptedException {
+        Process p = new ProcessBuilder("nproc").redirectErrorStream(true).start();
+        String out = new String(p.getInputStream().readAllBytes(), StandardCharsets.UTF_8).strip();
+        assertThat(p.waitFor(10, TimeUnit.SECONDS)).isTrue();
+        return Integer.parseInt(out);
+    }
+
+    @Test
+    void anInspectRunCollectsSeriallyOnTwoProcessorsUnlessJavaOptsNamesACollector() throws Exception {
+        assumeTrue(Files.isExecutable(Path.of("/usr/bin/nproc")) || Files.isExecutable(Path.of("/bin/nproc")),
+                "nproc");
+        boolean fewCores = processors() <= 2;
+        Map<String, String> flags = Map.of("TRAPMAP_CDS", "0", "JAVA_OPTS", "-XX:+PrintCommandLineFlags");
+        Run inspect = launch(flags, "inspect", "in");
+        assertRanProbe(inspect, "inspect in");
+        assertThat(inspect.output().contains("-XX:+UseSerialGC")).as(inspect.output()).isEqualTo(fewCores);
+        assertThat(inspect.output()).contains("-XX:Tier4InvocationThreshold=20000");
+
+        Run convert = launch(flags, "convert", "in");
+        assertRanProbe(convert, "convert in");
+        assertThat(convert.output()).doesNotContain("-XX:+UseSerialGC").doesNotContain("Tier4InvocationThreshold");
+
+        // a collector of the caller's own: the launcher adds none (two would stop Java at start)
+        Run parallel = launch(Map.of("TRAPMAP_CDS", "0", "JAVA_OPTS", "-XX:+UseParallelGC -XX:+PrintCommandLineFlags"),
+                "inspect", "in");
+        assertRanProbe(parallel, "inspect in");
+        assertThat(parallel.output()).contains("-XX:+UseParallelGC").doesNotContain("-XX:+UseSerialGC");
+    }
 }
