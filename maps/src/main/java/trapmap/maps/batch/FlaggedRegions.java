@@ -182,6 +182,8 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
         final int[] queue;
         final boolean above;
         final WaferShape.Prepared edge;
+        final double centreXMm;
+        final double centreYMm;
         final float[] density;
         final boolean bordersOnly;
         final double pixelArea;
@@ -199,6 +201,8 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
             this.queue = queue;
             this.above = criteria.side() == RegionCriteria.Side.ABOVE;
             this.edge = shape == null ? null : shape.prepared();
+            this.centreXMm = shape == null ? 0 : shape.centreXMm();
+            this.centreYMm = shape == null ? 0 : shape.centreYMm();
             this.density = density;
             this.bordersOnly = insideMm >= grid.pitchMm();
             this.pixelArea = grid.pixelAreaMm2();
@@ -309,7 +313,9 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
          * The region's distance to the wafer's edge, mm: the least over its pixels, or over its border pixels only
          * when the pixels lie at least a pitch inside (see {@link #find(FloatRaster, PixelGrid, int[], int,
          * RegionCriteria, WaferShape, float[], double)}). Called after the region's pixels were added to
-         * {@code kept}; earlier kept regions never touch this one (they would be the same 8-connected region).
+         * {@code kept}; earlier kept regions never touch this one (they would be the same 8-connected region). The
+         * least is that of the exact distances ({@link WaferShape.Prepared#distanceToEdgeMm}); the exact one is
+         * computed only where the near distance, less its error bound, is below the least so far.
          */
         private double nearestEdgeMm(int size) {
             double nearest = Double.POSITIVE_INFINITY;
@@ -321,7 +327,15 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                         && kept.get(i + 1) && kept.get(i - w) && kept.get(i + w)) {
                     continue;
                 }
-                nearest = Math.min(nearest, edge.distanceToEdgeMm(grid.xMm(x), grid.yMm(y)));
+                double xMm = grid.xMm(x);
+                double yMm = grid.yMm(y);
+                // the near distance is within its error bound of the exact one: a pixel whose exact distance cannot
+                // be below the least so far leaves it as it is, without the exact distance (hypot) being computed
+                double error = edge.nearDistanceErrorMm(Math.abs(xMm - centreXMm) + Math.abs(yMm - centreYMm));
+                if (edge.nearDistanceToEdgeMm(xMm, yMm) - error >= nearest) {
+                    continue;
+                }
+                nearest = Math.min(nearest, edge.distanceToEdgeMm(xMm, yMm));
             }
             return nearest;
         }
