@@ -184,6 +184,9 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
         final WaferShape.Prepared edge;
         final double centreXMm;
         final double centreYMm;
+        /** Working arrays of {@link #nearestEdgeMm}: the pixels that may be nearest, and their least distances. */
+        int[] candidates = new int[64];
+        double[] lowest = new double[64];
         final float[] density;
         final boolean bordersOnly;
         final double pixelArea;
@@ -315,10 +318,22 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
          * RegionCriteria, WaferShape, float[], double)}). Called after the region's pixels were added to
          * {@code kept}; earlier kept regions never touch this one (they would be the same 8-connected region). The
          * least is that of the exact distances ({@link WaferShape.Prepared#distanceToEdgeMm}); the exact one is
-         * computed only where the near distance, less its error bound, is below the least so far.
+         * computed only for pixels whose near distance less its error bound is at most the least near distance plus
+         * its error bound.
          */
         private double nearestEdgeMm(int size) {
-            double nearest = Double.POSITIVE_INFINITY;
+            // first the near distances of the pixels that may be nearest, each with the least its exact distance can
+            // be; the least exact distance is at most the least near distance plus its error bound, so only pixels
+            // whose least possible distance is no more than that need the exact distance (hypot)
+            if (candidates.length < size) {
+                candidates = new int[Math.max(size, 2 * candidates.length)];
+                lowest = new double[candidates.length];
+            }
+            int[] candidates = this.candidates;
+            double[] lowest = this.lowest;
+            int m = 0;
+            double upper = Double.POSITIVE_INFINITY;
+            boolean exactly = false;
             for (int k = 0; k < size; k++) {
                 int i = queue[k];
                 int y = i / w;
@@ -329,13 +344,20 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                 }
                 double xMm = grid.xMm(x);
                 double yMm = grid.yMm(y);
-                // the near distance is within its error bound of the exact one: a pixel whose exact distance cannot
-                // be below the least so far leaves it as it is, without the exact distance (hypot) being computed
                 double error = edge.nearDistanceErrorMm(Math.abs(xMm - centreXMm) + Math.abs(yMm - centreYMm));
-                if (edge.nearDistanceToEdgeMm(xMm, yMm) - error >= nearest) {
-                    continue;
+                double near = edge.nearDistanceToEdgeMm(xMm, yMm);
+                exactly |= near != near; // NaN: no bound, every candidate's exact distance is taken
+                upper = Math.min(upper, near + error);
+                candidates[m] = i;
+                lowest[m++] = near - error;
+            }
+            double nearest = Double.POSITIVE_INFINITY;
+            for (int c = 0; c < m; c++) {
+                if (exactly || lowest[c] <= upper) {
+                    int i = candidates[c];
+                    int y = i / w;
+                    nearest = Math.min(nearest, edge.distanceToEdgeMm(grid.xMm(i - y * w), grid.yMm(y)));
                 }
-                nearest = Math.min(nearest, edge.distanceToEdgeMm(xMm, yMm));
             }
             return nearest;
         }
