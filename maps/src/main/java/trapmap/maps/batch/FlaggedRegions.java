@@ -120,21 +120,45 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
         float[] at = buffers.flagAt(n);
         float[] densityAt = density == null ? null : buffers.densityAt(n);
         int[] seeds = buffers.seeds(n);
-        int selected = 0;
-        for (int k = 0; k < count; k++) {
-            float v = flag[k];
-            if (criteria.selects(v)) {
-                int i = indices[k];
-                open[i] = true;
-                at[i] = v;
-                if (densityAt != null) {
-                    densityAt[i] = density[k];
-                }
-                seeds[selected++] = i;
+        int selected = criteria.side() == RegionCriteria.Side.ABOVE
+                ? selectAbove(flag, count, criteria.threshold(), seeds)
+                : selectBelow(flag, count, criteria.threshold(), seeds);
+        for (int q = 0; q < selected; q++) {
+            int k = seeds[q];
+            int i = indices[k];
+            open[i] = true;
+            at[i] = flag[k];
+            if (densityAt != null) {
+                densityAt[i] = density[k];
             }
+            seeds[q] = i;
         }
         return label(at, grid.width(), grid.height(), grid, seeds, selected, open, criteria, shape, densityAt,
                 insideMm, buffers.queue(Math.max(16, n)));
+    }
+
+    /**
+     * The positions k of the values {@code flag[0..count)} strictly above {@code threshold}, ascending, into
+     * {@code positions}; returns how many. Without a branch per value (every position is written, and the count
+     * grows by one where the value is selected); the comparison of {@link RegionCriteria#selects}.
+     */
+    private static int selectAbove(float[] flag, int count, double threshold, int[] positions) {
+        int n = 0;
+        for (int k = 0; k < count; k++) {
+            positions[n] = k;
+            n += (double) flag[k] > threshold ? 1 : 0;
+        }
+        return n;
+    }
+
+    /** As {@link #selectAbove} for the values strictly below {@code threshold}. */
+    private static int selectBelow(float[] flag, int count, double threshold, int[] positions) {
+        int n = 0;
+        for (int k = 0; k < count; k++) {
+            positions[n] = k;
+            n += (double) flag[k] < threshold ? 1 : 0;
+        }
+        return n;
     }
 
     /**

@@ -141,4 +141,34 @@ class FlaggedRegionsSplitTest {
             }
         }
     }
+    @Test
+    void packedSelectionComparesFloatsWithTheThresholdAsDoubles() {
+        // thresholds just below and just above a float (which is then the nearest float to each): compared in
+        // float, that float would lie on the wrong side of one of them
+        float nearest = (float) 3e11;
+        double under = nearest - 1.0;
+        double over = nearest + 1.0;
+        int w = 40;
+        int h = 30;
+        float[] s = new float[w * h];
+        Random rnd = new Random(7);
+        for (int i = 0; i < s.length; i++) {
+            float[] choices = {Math.nextDown(nearest), nearest, Math.nextUp(nearest), Float.NaN, 1e11f, 5e11f};
+            s[i] = choices[rnd.nextInt(choices.length)];
+        }
+        PixelGrid grid = PixelGrid.centred(w, h, 0.5);
+        int[] all = new int[w * h];
+        for (int i = 0; i < all.length; i++) {
+            all[i] = i;
+        }
+        for (RegionCriteria c : List.of(RegionCriteria.above(under, 0), RegionCriteria.below(under, 0),
+                RegionCriteria.above(over, 0), RegionCriteria.below(over, 0), RegionCriteria.above(nearest, 0),
+                RegionCriteria.below(nearest, 0))) {
+            FlaggedRegions expected = FlaggedRegionsReference.findPacked(s, s, grid, all, all.length, c, null, 0,
+                    new InspectionBuffers());
+            assertThat(expected.regions()).isNotEmpty();
+            assertSame(FlaggedRegions.findPacked(s, s, grid, all, all.length, c, null, 0, new InspectionBuffers()),
+                    expected);
+        }
+    }
 }
