@@ -120,21 +120,45 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
         float[] at = buffers.flagAt(n);
         float[] densityAt = density == null ? null : buffers.densityAt(n);
         int[] seeds = buffers.seeds(n);
-        int selected = 0;
-        for (int k = 0; k < count; k++) {
-            float v = flag[k];
-            if (criteria.selects(v)) {
-                int i = indices[k];
-                open[i] = true;
-                at[i] = v;
-                if (densityAt != null) {
-                    densityAt[i] = density[k];
-                }
-                seeds[selected++] = i;
+        int selected = criteria.side() == RegionCriteria.Side.ABOVE
+                ? selectAbove(flag, count, criteria.threshold(), seeds)
+                : selectBelow(flag, count, criteria.threshold(), seeds);
+        for (int q = 0; q < selected; q++) {
+            int k = seeds[q];
+            int i = indices[k];
+            open[i] = true;
+            at[i] = flag[k];
+            if (densityAt != null) {
+                densityAt[i] = density[k];
             }
+            seeds[q] = i;
         }
         return label(at, grid.width(), grid.height(), grid, seeds, selected, open, criteria, shape, densityAt,
                 insideMm, buffers.queue(Math.max(16, n)));
+    }
+
+    /**
+     * The positions k of the values {@code flag[0..count)} strictly above {@code threshold}, ascending, into
+     * {@code positions}; returns how many. Without a branch per value (every position is written, and the count
+     * grows by one where the value is selected); the comparison of {@link RegionCriteria#selects}.
+     */
+    private static int selectAbove(float[] flag, int count, double threshold, int[] positions) {
+        int n = 0;
+        for (int k = 0; k < count; k++) {
+            positions[n] = k;
+            n += (double) flag[k] > threshold ? 1 : 0;
+        }
+        return n;
+    }
+
+    /** As {@link #selectAbove} for the values strictly below {@code threshold}. */
+    private static int selectBelow(float[] flag, int count, double threshold, int[] positions) {
+        int n = 0;
+        for (int k = 0; k < count; k++) {
+            positions[n] = k;
+            n += (double) flag[k] < threshold ? 1 : 0;
+        }
+        return n;
     }
 
     /**
@@ -182,6 +206,11 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
         final int[] queue;
         final boolean above;
         final WaferShape.Prepared edge;
+        final double centreXMm;
+        final double centreYMm;
+        /** Working arrays of {@link #nearestEdgeMm}: the pixels that may be nearest, and their least distances. */
+        int[] candidates = new int[64];
+        double[] lowest = new double[64];
         final float[] density;
         final boolean bordersOnly;
         final double pixelArea;
@@ -199,6 +228,8 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
             this.queue = queue;
             this.above = criteria.side() == RegionCriteria.Side.ABOVE;
             this.edge = shape == null ? null : shape.prepared();
+            this.centreXMm = shape == null ? 0 : shape.centreXMm();
+            this.centreYMm = shape == null ? 0 : shape.centreYMm();
             this.density = density;
             this.bordersOnly = insideMm >= grid.pitchMm();
             this.pixelArea = grid.pixelAreaMm2();
@@ -309,10 +340,24 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
          * The region's distance to the wafer's edge, mm: the least over its pixels, or over its border pixels only
          * when the pixels lie at least a pitch inside (see {@link #find(FloatRaster, PixelGrid, int[], int,
          * RegionCriteria, WaferShape, float[], double)}). Called after the region's pixels were added to
-         * {@code kept}; earlier kept regions never touch this one (they would be the same 8-connected region).
+         * {@code kept}; earlier kept regions never touch this one (they would be the same 8-connected region). The
+         * least is that of the exact distances ({@link WaferShape.Prepared#distanceToEdgeMm}); the exact one is
+         * computed only for pixels whose near distance less its error bound is at most the least near distance plus
+         * its error bound.
          */
         private double nearestEdgeMm(int size) {
-            double nearest = Double.POSITIVE_INFINITY;
+            // first the near distances of the pixels that may be nearest, each with the least its exact distance can
+            // be; the least exact distance is at most the least near distance plus its error bound, so only pixels
+            // whose least possible distance is no more than that need the exact distance (hypot)
+            if (candidates.length < size) {
+                candidates = new int[Math.max(size, 2 * candidates.length)];
+                lowest = new double[candidates.length];
+            }
+            int[] candidates = this.candidates;
+            double[] lowest = this.lowest;
+            int m = 0;
+            double upper = Double.POSITIVE_INFINITY;
+            boolean exactly = false;
             for (int k = 0; k < size; k++) {
                 int i = queue[k];
                 int y = i / w;
@@ -321,7 +366,22 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                         && kept.get(i + 1) && kept.get(i - w) && kept.get(i + w)) {
                     continue;
                 }
-                nearest = Math.min(nearest, edge.distanceToEdgeMm(grid.xMm(x), grid.yMm(y)));
+                double xMm = grid.xMm(x);
+                double yMm = grid.yMm(y);
+                double error = edge.nearDistanceErrorMm(Math.abs(xMm - centreXMm) + Math.abs(yMm - centreYMm));
+                double near = edge.nearDistanceToEdgeMm(xMm, yMm);
+                exactly |= near != near; // NaN: no bound, every candidate's exact distance is taken
+                upper = Math.min(upper, near + error);
+                candidates[m] = i;
+                lowest[m++] = near - error;
+            }
+            double nearest = Double.POSITIVE_INFINITY;
+            for (int c = 0; c < m; c++) {
+                if (exactly || lowest[c] <= upper) {
+                    int i = candidates[c];
+                    int y = i / w;
+                    nearest = Math.min(nearest, edge.distanceToEdgeMm(grid.xMm(i - y * w), grid.yMm(y)));
+                }
             }
             return nearest;
         }

@@ -387,8 +387,8 @@ public final class WaferInspection {
      * the status is OK, NaN elsewhere; all of them as converted when below-limit pixels count {@code atBound}), those
      * not NaN, and the {@link InvalidArea} tally of the lifetimes {@code life[0..count)} (no NaN) with their statuses
      * (null {@code converted}: not converted) and {@code missing} NaN pixels left out of the evaluated ones; on the
-     * way it counts the radix buckets of the lifetimes and of the ranked densities into
-     * {@link InspectionBuffers#lifeBuckets()} and {@link InspectionBuffers#densityBuckets()} and adds up the
+     * way it counts the radix buckets of the lifetimes into {@link InspectionBuffers#lifeBuckets()} (those of the
+     * ranked densities, into {@link InspectionBuffers#densityBuckets()}, right after it) and adds up the
      * reciprocals of the positive lifetimes, so that their percentiles and harmonic mean need no pass of their own.
      * A method of its own, small enough for the JIT compiler to compile on its own.
      *
@@ -445,17 +445,25 @@ public final class WaferInspection {
                     d = st == ok ? d : Float.NaN;
                     judged[k] = d;
                 }
-                // without a branch (OK and other pixels alternate at random): a NaN is written past the end and
-                // added as 0 to the count of its bucket
+                // without a branch (OK and other pixels alternate at random): a NaN is written past the end
                 int number = d == d ? 1 : 0;
                 ranked[ranks] = d;
                 ranks += number;
-                densityCounts[RankBuckets.bucket(d)] += number;
             }
+            // the buckets of the ranked densities in a loop of their own: in the pass above, the increments of two
+            // bucket arrays and the stores of the judged and ranked values held each other up
+            countBuckets(ranked, ranks, densityCounts);
         }
         tally.addUsable(usable);
         tally.addMissing(missing);
         return new Judged(judged, ranked, ranks, tally.result(pixelAreaMm2), positive, reciprocalSum);
+    }
+
+    /** Adds the radix buckets ({@link RankBuckets#bucket}) of {@code values[0..n)} (no NaN) to {@code counts}. */
+    private static void countBuckets(float[] values, int n, int[] counts) {
+        for (int k = 0; k < n; k++) {
+            counts[RankBuckets.bucket(values[k])]++;
+        }
     }
 
     /** The trap-density map with the packed densities at the evaluated pixels and NaN elsewhere. */

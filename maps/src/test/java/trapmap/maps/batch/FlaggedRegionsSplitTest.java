@@ -106,4 +106,69 @@ class FlaggedRegionsSplitTest {
             }
         }
     }
+    @Test
+    void regionsOnShapesOffTheCentreHaveTheEdgeDistancesOfEveryPixel() {
+        // round (notch, flat) and square wafers off the grid's centre and turned: the edge distance of a region is
+        // the least exact distance of its pixels (border pixels only, or all), found with fewer exact distances
+        Random rnd = new Random(29);
+        List<WaferShape> shapes = List.of(new trapmap.maps.geometry.RoundWafer(60, trapmap.maps.geometry.Fiducial
+                .notch(3, 90), 200, 1.3, -0.7), new trapmap.maps.geometry.RoundWafer(56,
+                trapmap.maps.geometry.Fiducial.flat(30), 30, -2, 1), new trapmap.maps.geometry.SquareWafer(50, 62, 17,
+                -1.1, 0.9), trapmap.maps.geometry.SquareWafer.full(52).movedTo(0.4, 0.2));
+        for (WaferShape shape : shapes) {
+            for (int trial = 0; trial < 6; trial++) {
+                int w = 60 + rnd.nextInt(40);
+                int h = 60 + rnd.nextInt(40);
+                PixelGrid grid = PixelGrid.centred(w, h, 64.0 / Math.min(w, h));
+                float[] s = new float[w * h];
+                float[] density = new float[w * h];
+                for (int i = 0; i < s.length; i++) {
+                    s[i] = rnd.nextInt(4) == 0 ? rnd.nextInt(8) : ((i % w) / 9 + (i / w) / 6) % 8;
+                    density[i] = rnd.nextInt(6) == 0 ? Float.NaN : rnd.nextInt(4) * 1e11f;
+                }
+                double exclusion = rnd.nextInt(3);
+                Masks masks = Masks.of(s, grid, shape, exclusion, Double.NaN);
+                FloatRaster raster = FloatRaster.wrap(w, h, s);
+                for (RegionCriteria c : List.of(RegionCriteria.below(3, 0), RegionCriteria.above(5, 0.5))) {
+                    for (double inside : new double[] {Double.NEGATIVE_INFINITY, exclusion}) {
+                        FlaggedRegions expected = FlaggedRegionsReference.find(raster, grid, masks.indices(),
+                                masks.count(), c, shape, density, inside);
+                        assertThat(expected.regions()).isNotEmpty();
+                        assertSame(FlaggedRegions.find(raster, grid, masks.indices(), masks.count(), c, shape,
+                                density, inside), expected);
+                    }
+                }
+            }
+        }
+    }
+    @Test
+    void packedSelectionComparesFloatsWithTheThresholdAsDoubles() {
+        // thresholds just below and just above a float (which is then the nearest float to each): compared in
+        // float, that float would lie on the wrong side of one of them
+        float nearest = (float) 3e11;
+        double under = nearest - 1.0;
+        double over = nearest + 1.0;
+        int w = 40;
+        int h = 30;
+        float[] s = new float[w * h];
+        Random rnd = new Random(7);
+        for (int i = 0; i < s.length; i++) {
+            float[] choices = {Math.nextDown(nearest), nearest, Math.nextUp(nearest), Float.NaN, 1e11f, 5e11f};
+            s[i] = choices[rnd.nextInt(choices.length)];
+        }
+        PixelGrid grid = PixelGrid.centred(w, h, 0.5);
+        int[] all = new int[w * h];
+        for (int i = 0; i < all.length; i++) {
+            all[i] = i;
+        }
+        for (RegionCriteria c : List.of(RegionCriteria.above(under, 0), RegionCriteria.below(under, 0),
+                RegionCriteria.above(over, 0), RegionCriteria.below(over, 0), RegionCriteria.above(nearest, 0),
+                RegionCriteria.below(nearest, 0))) {
+            FlaggedRegions expected = FlaggedRegionsReference.findPacked(s, s, grid, all, all.length, c, null, 0,
+                    new InspectionBuffers());
+            assertThat(expected.regions()).isNotEmpty();
+            assertSame(FlaggedRegions.findPacked(s, s, grid, all, all.length, c, null, 0, new InspectionBuffers()),
+                    expected);
+        }
+    }
 }

@@ -151,6 +151,38 @@ class PngMapsTest {
     }
 
     @Test
+    void theTableOfGroupsGivesTheIndexOfTheBisection() {
+        // narrow, wide, everything-one-colour and nothing-coloured ranges; bits at, just below and just above every
+        // bound, at the edges of the table's groups of 2^16 patterns, and at random over all positive finite floats
+        for (double[] r : new double[][] {{0, 3}, {Math.log10(2), 2.65}, {-12, 30}, {5, 1e-3}, {1, 1e-9}, {-40, 80},
+            {50, 1}, {-60, 1}}) {
+            int[] bounds = PngMaps.logBounds(r[0], r[1]);
+            PngMaps.LogColours table = new PngMaps.LogColours(bounds);
+            java.util.List<Integer> probes = new java.util.ArrayList<>();
+            for (int b : bounds) {
+                for (int d = -2; d <= 2; d++) {
+                    probes.add(b + d);
+                    probes.add(((b >>> 16) << 16) + d);
+                }
+            }
+            java.util.Random rnd = new java.util.Random(5);
+            for (int k = 0; k < 20000; k++) {
+                probes.add(1 + rnd.nextInt(0x7F7FFFFF));
+            }
+            probes.add(1);
+            probes.add(0x7F7FFFFF);
+            for (int bits : probes) {
+                if (bits < 1 || bits > 0x7F7FFFFF) {
+                    continue; // not a positive finite float
+                }
+                assertThat(table.index(bits)).as("bits %x, range %s", bits, java.util.Arrays.toString(r))
+                        .isEqualTo(PngMaps.colourIndex(bounds, bits))
+                        .isEqualTo(PngMaps.logIndex(Float.intBitsToFloat(bits), r[0], r[1]));
+            }
+        }
+    }
+
+    @Test
     void nonPositiveValuesAreTransparentOnALogScale() {
         WaferMap m = new WaferMap(FloatRaster.wrap(3, 1, new float[] {-1, 0, 5}), PixelGrid.centred(3, 1, 1),
                 Quantity.TRAP_DENSITY, "", MeasurementConditions.UNKNOWN, Provenance.of(""));
