@@ -112,6 +112,9 @@ final class StatsCommand implements Callable<Integer> {
         }
         // The kernel is compiled on the second core while this thread reads the map (results do not depend on it).
         BandConversion.WarmUp warmUp = warmUp();
+        // and so are the loops of the statistics' pass
+        EvaluatedStatistics.WarmUp statisticsWarmUp = EvaluatedStatistics.warmUp(density.defect != null, true,
+                threshold == null ? 0 : 1);
         WaferMap read;
         try {
             read = MapInput.page(input, page);
@@ -144,6 +147,7 @@ final class StatsCommand implements Callable<Integer> {
         StatisticsRequest request = threshold == null
                 ? StatisticsRequest.of(new double[] {5, 95})
                 : StatisticsRequest.of(new double[] {5, 95}, threshold);
+        statisticsWarmUp.close();
         EvaluatedStatistics summary = EvaluatedStatistics.of(map.raster(), read.raster(), waferArea.area(),
                 converted == null ? null : converted.statusCodes(), read.quantity() == Quantity.EFFECTIVE_LIFETIME,
                 read.grid(), request);

@@ -273,7 +273,7 @@ public final class MapConversion {
                 plane(wanted, Quantity.OCCUPANCY, n), plane(wanted, Quantity.SRH_LIFETIME, n),
                 plane(wanted, Quantity.INJECTION, n), reference ? plane(wanted, Quantity.LIFETIME_AT_REFERENCE, n) : null,
                 statusCodes, null);
-        TrapDensityConverter.Tally tally = converter.convert(lifetime.raster().samples(), lifetime.width(), out,
+        TrapDensityConverter.Tally tally = byRows(converter, lifetime.raster().samples(), lifetime.width(), out,
                 threads);
 
         ProcessingStep step = convertStep(conditions, defect, settings);
@@ -303,6 +303,82 @@ public final class MapConversion {
         return new Result(maps, warnings, defect.id(), settings.physics(), statusCodes, tally.warningPixels(),
                 tally.statusCounts(), floorNote);
     }
+
+    /**
+     * The kernel over every row of a raster, one row per call, rows handed out in order to {@code threads} threads
+     * (the calling one among them): a call that starts in the interpreter or a lower compiler tier stays there to its
+     * end, so rows switch to the top tier's code as soon as it is compiled, and the kernel's loop is not compiled
+     * again on the stack for long calls. Every pixel and the summed counts are those of one call over the whole
+     * raster ({@link TrapDensityConverter#convertRows}); the counts are integers and flags, added in any order.
+     */
+    static TrapDensityConverter.Tally byRows(TrapDensityConverter converter, float[] tau, int width,
+                                             ConversionOutput out, int threads) {
+        if (width <= 0 || tau.length % width != 0) {
+            throw new IllegalArgumentException("raster of " + tau.length + " pixels is not a whole number of rows of "
+                    + width);
+        }
+        int rows = tau.length / width;
+        int n = Math.max(1, Math.min(threads, rows / ROWS_PER_TASK));
+        java.util.concurrent.atomic.AtomicInteger next = new java.util.concurrent.atomic.AtomicInteger();
+        java.util.concurrent.atomic.AtomicReference<Throwable> failure =
+                new java.util.concurrent.atomic.AtomicReference<>();
+        TrapDensityConverter.Tally[] tallies = new TrapDensityConverter.Tally[n];
+        Runnable[] workers = new Runnable[n];
+        for (int t = 0; t < n; t++) {
+            TrapDensityConverter.Tally tally = new TrapDensityConverter.Tally();
+            tallies[t] = tally;
+            workers[t] = () -> {
+                try {
+                    for (int row0 = next.getAndAdd(ROWS_PER_TASK); row0 < rows && failure.get() == null;
+                            row0 = next.getAndAdd(ROWS_PER_TASK)) {
+                        for (int row = row0, end = Math.min(rows, row0 + ROWS_PER_TASK); row < end; row++) {
+                            converter.convertRows(tau, width, row, row + 1, out, tally);
+                        }
+                    }
+                } catch (RuntimeException | Error e) {
+                    failure.compareAndSet(null, e);
+                }
+            };
+        }
+        Thread[] started = new Thread[n - 1];
+        for (int t = 1; t < n; t++) {
+            started[t - 1] = new Thread(workers[t], "convert-rows-" + t);
+            started[t - 1].setDaemon(true);
+            started[t - 1].start();
+        }
+        workers[0].run();
+        boolean interrupted = false;
+        for (Thread th : started) {
+            while (true) {
+                try {
+                    th.join();
+                    break;
+                } catch (InterruptedException e) {
+                    interrupted = true; // the workers end at their next rows
+                    failure.compareAndSet(null, e);
+                }
+            }
+        }
+        if (interrupted) {
+            Thread.currentThread().interrupt();
+        }
+        Throwable f = failure.get();
+        if (f instanceof RuntimeException e) {
+            throw e;
+        } else if (f instanceof Error e) {
+            throw e;
+        } else if (f != null) {
+            throw new IllegalStateException("the conversion was interrupted", f);
+        }
+        TrapDensityConverter.Tally total = new TrapDensityConverter.Tally();
+        for (TrapDensityConverter.Tally t : tallies) {
+            total.add(t);
+        }
+        return total;
+    }
+
+    /** Rows a thread takes at a time in {@link #byRows}. */
+    private static final int ROWS_PER_TASK = 8;
 
     private static float[] plane(Set<Quantity> wanted, Quantity q, int n) {
         return wanted.contains(q) ? new float[n] : null;

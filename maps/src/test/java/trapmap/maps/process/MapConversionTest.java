@@ -13,6 +13,7 @@ import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.PixelGrid;
+import trapmap.physics.conversion.ConversionOutput;
 import trapmap.physics.conversion.ConversionWarning;
 import trapmap.physics.conversion.PixelResult;
 import trapmap.physics.conversion.PixelStatus;
@@ -61,6 +62,56 @@ class MapConversionTest {
         assertThat(result.get(Quantity.TRAP_DENSITY).provenance().steps()).hasSize(1);
         assertThat(result.get(Quantity.TRAP_DENSITY).provenance().steps().get(0).parameters())
                 .containsEntry("defect", "fe-i");
+    }
+
+    @Test
+    void rowByRowOnSeveralThreadsGivesThePlanesAndCountsOfOneCallOverTheWholeRaster() {
+        // lifetimes of every kind: no data, <= 0, below the floor, infinite, ordinary; 37 rows (not a whole number
+        // of the rows a thread takes at a time)
+        int w = 53;
+        int h = 37;
+        Random r = new Random(3);
+        float[] tau = new float[w * h];
+        for (int i = 0; i < tau.length; i++) {
+            tau[i] = switch (r.nextInt(9)) {
+                case 0 -> Float.NaN;
+                case 1 -> -r.nextFloat();
+                case 2 -> 4e-4f;
+                case 3 -> Float.POSITIVE_INFINITY;
+                default -> (float) Math.pow(10, r.nextDouble() * 4 - 1);
+            };
+        }
+        ConversionSettings settings = ConversionSettings.DEFAULTS.withReferenceInjection(1e15);
+        TrapDensityConverter k = new TrapDensityConverter(MapConversion.physicsConditions(CONDITIONS, settings),
+                DefectLibrary.byId("fe-i"));
+        int n = tau.length;
+        ConversionOutput expected = new ConversionOutput(new float[n], new float[n], new float[n], new float[n],
+                new float[n], new float[n], new float[n], new byte[n], new byte[n]);
+        TrapDensityConverter.Tally whole = k.convert(tau, w, expected, 1);
+        for (int threads : new int[] {1, 2, 5}) {
+            ConversionOutput got = new ConversionOutput(new float[n], new float[n], new float[n], new float[n],
+                    new float[n], new float[n], new float[n], new byte[n], new byte[n]);
+            TrapDensityConverter.Tally t = MapConversion.byRows(k, tau, w, got, threads);
+            assertThat(got.trapDensity).isEqualTo(expected.trapDensity);
+            assertThat(got.trapDensityMin).isEqualTo(expected.trapDensityMin);
+            assertThat(got.trapDensityMax).isEqualTo(expected.trapDensityMax);
+            assertThat(got.occupancy).isEqualTo(expected.occupancy);
+            assertThat(got.srhLifetimeUs).isEqualTo(expected.srhLifetimeUs);
+            assertThat(got.injection).isEqualTo(expected.injection);
+            assertThat(got.lifetimeAtReferenceUs).isEqualTo(expected.lifetimeAtReferenceUs);
+            assertThat(got.status).isEqualTo(expected.status);
+            assertThat(got.warnings).isEqualTo(expected.warnings);
+            assertThat(t.statusCounts()).isEqualTo(whole.statusCounts());
+            assertThat(t.warningPixels()).isEqualTo(whole.warningPixels());
+            assertThat(t.warningBits()).isEqualTo(whole.warningBits());
+            assertThat(t.belowFloor()).isEqualTo(whole.belowFloor());
+            assertThat(t.belowFloorLikeSeconds()).isEqualTo(whole.belowFloorLikeSeconds());
+        }
+        assertThat(whole.statusCounts()[PixelStatus.NO_DATA.code()]).isPositive();
+        assertThat(whole.statusCounts()[PixelStatus.INVALID.code()]).isPositive();
+        assertThat(whole.statusCounts()[PixelStatus.OK.code()]).isPositive();
+        assertThatThrownBy(() -> MapConversion.byRows(k, new float[10], 3, expected, 2))
+                .isInstanceOf(IllegalArgumentException.class).hasMessageContaining("whole number of rows");
     }
 
     @Test

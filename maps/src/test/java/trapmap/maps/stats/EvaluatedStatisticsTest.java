@@ -157,6 +157,51 @@ class EvaluatedStatisticsTest {
     }
 
     @Test
+    void addsTheReciprocalsOfManyChunksInIndexOrderOnAnyNumberOfThreads() throws Exception {
+        // 4.3 million pixels: 66 blocks in 5 chunks, done by threads in any order; the harmonic mean (Σ 1/x added
+        // in index order) and every other figure as the separate passes give them on one thread
+        Random r = new Random(17);
+        int w = 4096;
+        int h = 1050;
+        FloatRaster measured = raster(r, w, h);
+        FloatRaster density = raster(r, w, h);
+        byte[] status = status(r, w * h);
+        Mask area = Mask.of(w, h, i -> (i / w - h / 2) * (i / w - h / 2) + (i % w - w / 2) * (i % w - w / 2) / 16
+                < h * h / 4);
+        MapStatistics one = assertSameAsSeparatePasses(density, measured, area, status, false);
+        ForkJoinPool three = new ForkJoinPool(3);
+        try {
+            PixelGrid grid = PixelGrid.centred(w, h, 0.05);
+            for (int k = 0; k < 3; k++) {
+                EvaluatedStatistics e = three.submit(() -> EvaluatedStatistics.of(density, measured, area, status,
+                        false, grid, REQUEST)).get();
+                assertThat(three.submit(e::statistics).get()).isEqualTo(one);
+            }
+        } finally {
+            three.shutdown();
+        }
+        assertThat(one.harmonicMean()).isFinite().isPositive();
+    }
+
+    @Test
+    void theWarmUpRunsEveryLoopOnEveryKindOfMapAndChangesNoFigure() throws Exception {
+        Random r = new Random(23);
+        FloatRaster measured = raster(r, 300, 200);
+        MapStatistics before = assertSameAsSeparatePasses(measured, measured, null, null, true);
+        for (boolean converted : new boolean[] {true, false}) {
+            for (int thresholds = 0; thresholds <= 2; thresholds++) {
+                assertThat(EvaluatedStatistics.warmUp(converted, !converted, thresholds, 50,
+                        new java.util.concurrent.atomic.AtomicBoolean())).isFinite();
+            }
+        }
+        // a stopped warm-up does no round; a started one ends by itself
+        assertThat(EvaluatedStatistics.warmUp(true, false, 1, 50, new java.util.concurrent.atomic.AtomicBoolean(true)))
+                .isZero();
+        EvaluatedStatistics.warmUp(false, true, 1).close();
+        assertThat(assertSameAsSeparatePasses(measured, measured, null, null, true)).isEqualTo(before);
+    }
+
+    @Test
     void refusesMapsOfOtherSizes() {
         FloatRaster a = FloatRaster.wrap(4, 2, new float[8]);
         FloatRaster b = FloatRaster.wrap(2, 4, new float[8]);
