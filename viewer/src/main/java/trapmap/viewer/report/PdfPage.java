@@ -61,13 +61,30 @@ final class PdfPage implements Closeable {
 
     /** The regular and bold face loaded into each open document (subset-embedded when it is saved). */
     private static final Map<PDDocument, PDFont[]> DOCUMENT_FONTS = new WeakHashMap<>();
-    /** Whether the face has a glyph for a code point, by code point. */
+    /** Whether the face has a glyph for a code point beyond the basic plane, by code point. */
     private static final Map<Integer, Boolean> HAS_GLYPH = new ConcurrentHashMap<>();
+    private static final byte GLYPH_UNKNOWN = 0;
+    private static final byte GLYPH_YES = 1;
+    private static final byte GLYPH_NO = 2;
+    /**
+     * Whether both faces have a glyph for a character of the basic plane, by character: unknown until asked; control
+     * characters and surrogates stay unknown ({@link #clean} replaces them).
+     */
+    private static final byte[] BMP_GLYPH = new byte[Character.MAX_VALUE + 1];
+    /** Advance widths of the basic plane's characters in {@link #REGULAR} and {@link #BOLD}, NaN until measured. */
+    private static final float[] REGULAR_ADVANCE = unmeasured();
+    private static final float[] BOLD_ADVANCE = unmeasured();
 
     private final PDDocument doc;
     private final PDPageContentStream cs;
     private final PDFont regular;
     private final PDFont bold;
+
+    private static float[] unmeasured() {
+        float[] a = new float[Character.MAX_VALUE + 1];
+        java.util.Arrays.fill(a, Float.NaN);
+        return a;
+    }
 
     private static java.util.logging.Logger quiet() {
         java.util.logging.Logger l = java.util.logging.Logger.getLogger("org.apache.pdfbox");
@@ -150,17 +167,40 @@ final class PdfPage implements Closeable {
      * writes).
      */
     static String clean(String s) {
+        for (int i = 0; i < s.length(); i++) {
+            if (BMP_GLYPH[s.charAt(i)] != GLYPH_YES) {
+                return cleanEach(s);
+            }
+        }
+        return s; // every character shows as itself
+    }
+
+    private static String cleanEach(String s) {
         StringBuilder b = new StringBuilder(s.length());
         s.codePoints().forEach(c -> {
             if (c == '\n' || c == '\t') {
                 b.append(' ');
-            } else if (c >= 32 && HAS_GLYPH.computeIfAbsent(c, PdfPage::hasGlyph)) {
+            } else if (c >= 32 && shows(c)) {
                 b.appendCodePoint(c);
             } else {
                 b.append('?');
             }
         });
         return b.toString();
+    }
+
+    /** Whether both faces have a glyph for {@code c} (at least 32), asked of the faces once per code point. */
+    private static boolean shows(int c) {
+        if (c < BMP_GLYPH.length && !Character.isSurrogate((char) c)) {
+            byte known = BMP_GLYPH[c];
+            if (known != GLYPH_UNKNOWN) {
+                return known == GLYPH_YES;
+            }
+            boolean has = hasGlyph(c);
+            BMP_GLYPH[c] = has ? GLYPH_YES : GLYPH_NO; // the same answer from any thread
+            return has;
+        }
+        return HAS_GLYPH.computeIfAbsent(c, PdfPage::hasGlyph);
     }
 
     private static boolean hasGlyph(int codePoint) {
@@ -176,14 +216,49 @@ final class PdfPage implements Closeable {
         }
     }
 
+    /**
+     * The width of {@code s} (after {@link #clean}) in {@code font} at {@code size} points: for the two faces, the sum
+     * of each code point's advance width, taken once from the face: the same float sum in the same order as
+     * {@link PDFont#getStringWidth} (which encodes the text and adds its glyphs' widths one by one) without encoding
+     * the text at every call; any other font through {@code getStringWidth}.
+     */
     static float width(String s, PDFont font, float size) {
+        String text = clean(s);
+        float[] advances = font == REGULAR ? REGULAR_ADVANCE : font == BOLD ? BOLD_ADVANCE : null;
         try {
-            synchronized (font) {
-                return font.getStringWidth(clean(s)) / 1000 * size;
+            if (advances == null) {
+                synchronized (font) {
+                    return font.getStringWidth(text) / 1000 * size;
+                }
             }
+            float w = 0;
+            for (int i = 0; i < text.length(); ) {
+                int c = text.codePointAt(i);
+                i += Character.charCount(c);
+                w += advance(advances, font, c);
+            }
+            return w / 1000 * size;
         } catch (IOException e) {
             throw new IllegalStateException("cannot measure text '" + s + "'", e);
         }
+    }
+
+    /** The advance width of code point {@code c} in {@code font}, thousandths of the size (NaN in the table: not yet). */
+    private static float advance(float[] table, PDFont font, int c) throws IOException {
+        if (c < table.length) {
+            float a = table[c];
+            if (!Float.isNaN(a)) {
+                return a;
+            }
+        }
+        float a;
+        synchronized (font) {
+            a = font.getStringWidth(new String(Character.toChars(c))); // 0 + the glyph's width: that width exactly
+        }
+        if (c < table.length) {
+            table[c] = a; // the same value from any thread
+        }
+        return a;
     }
 
     /** One line of text whose top is at {@code yTop}. */
