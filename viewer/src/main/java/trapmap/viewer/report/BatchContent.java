@@ -106,6 +106,11 @@ public record BatchContent(Path outputDir, Rules rules, List<Row> rows, Map<Stri
 
     /** The profile of that name in the rules, or null (no rules, or a name they do not hold). */
     Rules.Profile profile(String name) {
+        return profile(rules, name);
+    }
+
+    /** The profile of that name in {@code rules}, or null (no rules, or a name they do not hold). */
+    static Rules.Profile profile(Rules rules, String name) {
         if (rules == null) {
             return null;
         }

@@ -76,6 +76,8 @@ final class PdfPage implements Closeable {
     private static final float[] BOLD_ADVANCE = unmeasured();
 
     private final PDDocument doc;
+    /** The page drawn on, null for a page that only measures. */
+    private final PDPage pdPage;
     private final PDPageContentStream cs;
     private final PDFont regular;
     private final PDFont bold;
@@ -139,9 +141,19 @@ final class PdfPage implements Closeable {
     }
 
     PdfPage(PDDocument doc) throws IOException {
+        this(doc, null);
+    }
+
+    /** A new page of {@code doc} placed before {@code before} (null: after the last page). */
+    PdfPage(PDDocument doc, PDPage before) throws IOException {
         this.doc = doc;
         PDPage page = new PDPage(PDRectangle.A4);
-        doc.addPage(page);
+        if (before == null) {
+            doc.addPage(page);
+        } else {
+            doc.getPages().insertBefore(page, before);
+        }
+        this.pdPage = page;
         this.cs = new PDPageContentStream(doc, page);
         PDFont[] fonts = fontsOf(doc);
         this.regular = fonts[0];
@@ -151,9 +163,15 @@ final class PdfPage implements Closeable {
     /** A page that draws nothing and measures as a real one: to lay out a part before drawing it. */
     private PdfPage() {
         this.doc = null;
+        this.pdPage = null;
         this.cs = null;
         this.regular = REGULAR;
         this.bold = BOLD;
+    }
+
+    /** The document's page this draws on. */
+    PDPage pdPage() {
+        return pdPage;
     }
 
     /** A page that only measures: every drawing call returns the height a real page's would, drawing nothing. */
