@@ -159,7 +159,7 @@ final class InspectCommand implements Callable<Integer> {
         SummaryWriter writer = summaryWriter;
         // drawn beside the workers when this runtime draws text (asked on the drawing thread)
         SummaryDraft draft = summaryPdf && writer == null
-                ? SummaryDraft.start(judged, files.size(), () -> pictures.missing().isEmpty()) : null;
+                ? SummaryDraft.start(out, judged, files.size(), () -> pictures.missing().isEmpty()) : null;
         try (draft) {
             s = batch.withIron(ironPairs).withSource(source).tellingRows(draft)
                     .finishingWith((dir, recurrence) -> {

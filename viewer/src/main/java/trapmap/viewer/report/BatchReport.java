@@ -114,7 +114,12 @@ public final class BatchReport {
 
     /** What comes after the wafer table: failed wafers, recurrence, errors and the caution; closes the last page. */
     static void tail(ReportFlow flow, BatchContent c) throws IOException {
-        FailedWafersSection.draw(flow, c);
+        tail(flow, c, r -> null);
+    }
+
+    /** As {@link #tail(ReportFlow, BatchContent)}, with failed wafers' pictures made ahead where there are. */
+    static void tail(ReportFlow flow, BatchContent c, FailedWafersSection.Pictures made) throws IOException {
+        FailedWafersSection.draw(flow, c, made);
         RecurrenceSection.drawAll(flow, c);
         ErrorSection.draw(flow, c);
         flow.down(8);

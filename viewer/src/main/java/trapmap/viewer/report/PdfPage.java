@@ -486,31 +486,75 @@ final class PdfPage implements Closeable {
      * shown are the same either way.
      */
     static PDImageXObject embed(PDDocument doc, BufferedImage img) throws IOException {
-        if (img.getType() != BufferedImage.TYPE_INT_RGB) {
-            return LosslessFactory.createFromImage(doc, img);
+        Packed p = Packed.of(img);
+        return p == null ? LosslessFactory.createFromImage(doc, img) : p.embed(doc);
+    }
+
+    /** A picture as {@link #image} draws it, made without a document: packed RGB samples or the picture itself. */
+    static final class Picture {
+        private final Packed packed;
+        private final BufferedImage image;
+
+        private Picture(Packed packed, BufferedImage image) {
+            this.packed = packed;
+            this.image = image;
         }
-        int w = img.getWidth();
-        int h = img.getHeight();
-        int[] row = new int[w];
-        byte[] line = new byte[3 * w];
-        ByteArrayOutputStream packed = new ByteArrayOutputStream(w * h);
-        Deflater deflater = new Deflater(Deflater.DEFAULT_COMPRESSION);
-        try (DeflaterOutputStream z = new DeflaterOutputStream(packed, deflater, 1 << 16)) {
-            for (int y = 0; y < h; y++) {
-                img.getRGB(0, y, w, 1, row, 0, w);
-                for (int i = 0, k = 0; i < w; i++) {
-                    int p = row[i];
-                    line[k++] = (byte) (p >> 16);
-                    line[k++] = (byte) (p >> 8);
-                    line[k++] = (byte) p;
-                }
-                z.write(line);
+
+        /** {@code img} packed now when it is opaque RGB ({@link Packed}), else kept for {@link LosslessFactory}. */
+        static Picture of(BufferedImage img) {
+            Packed p = Packed.of(img);
+            return new Picture(p, p == null ? img : null);
+        }
+
+        PDImageXObject embed(PDDocument doc) throws IOException {
+            return packed != null ? packed.embed(doc) : LosslessFactory.createFromImage(doc, image);
+        }
+    }
+
+    /** A picture drawn from a {@link Picture} made ahead, as {@link #image(BufferedImage, float, float, float, float)}. */
+    void image(Picture picture, float x, float yTop, float w, float h) throws IOException {
+        if (cs == null) {
+            return;
+        }
+        cs.drawImage(picture.embed(doc), x, HEIGHT - yTop - h, w, h);
+    }
+
+    /** An opaque RGB picture's 8-bit RGB samples, Flate-compressed without predictors ({@link #embed}). */
+    record Packed(int width, int height, byte[] flate) {
+        /** The samples of {@code img}, null when it is not {@code TYPE_INT_RGB}. */
+        static Packed of(BufferedImage img) {
+            if (img.getType() != BufferedImage.TYPE_INT_RGB) {
+                return null;
             }
-        } finally {
-            deflater.end();
+            int w = img.getWidth();
+            int h = img.getHeight();
+            int[] row = new int[w];
+            byte[] line = new byte[3 * w];
+            ByteArrayOutputStream packed = new ByteArrayOutputStream(w * h);
+            Deflater deflater = new Deflater(Deflater.DEFAULT_COMPRESSION);
+            try (DeflaterOutputStream z = new DeflaterOutputStream(packed, deflater, 1 << 16)) {
+                for (int y = 0; y < h; y++) {
+                    img.getRGB(0, y, w, 1, row, 0, w);
+                    for (int i = 0, k = 0; i < w; i++) {
+                        int p = row[i];
+                        line[k++] = (byte) (p >> 16);
+                        line[k++] = (byte) (p >> 8);
+                        line[k++] = (byte) p;
+                    }
+                    z.write(line);
+                }
+            } catch (IOException e) {
+                throw new UncheckedIOException(e); // a stream in memory
+            } finally {
+                deflater.end();
+            }
+            return new Packed(w, h, packed.toByteArray());
         }
-        return new PDImageXObject(doc, new ByteArrayInputStream(packed.toByteArray()), COSName.FLATE_DECODE, w, h,
-                8, PDDeviceRGB.INSTANCE);
+
+        PDImageXObject embed(PDDocument doc) throws IOException {
+            return new PDImageXObject(doc, new ByteArrayInputStream(flate), COSName.FLATE_DECODE, width, height, 8,
+                    PDDeviceRGB.INSTANCE);
+        }
     }
 
     void rect(float x, float yTop, float w, float h, Color stroke, Color fill, float lineWidth) throws IOException {

@@ -4,8 +4,10 @@ import java.io.IOException;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.HashSet;
+import java.util.IdentityHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.Optional;
 import java.util.Set;
 import java.util.concurrent.BlockingQueue;
 import java.util.concurrent.LinkedBlockingQueue;
@@ -35,6 +37,7 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     /** Marks the end of the rows in the queue. */
     private static final Map<String, String> END = Map.of("", "");
 
+    private final Path outDir;
     private final Rules rules;
     private final int expected;
     private final List<String> figureColumns;
@@ -44,6 +47,10 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     // the drawing thread's, read by write() after it ended
     private final List<BatchContent.Row> rows = new ArrayList<>();
     private final Set<String> names = new HashSet<>();
+    /** The worst failed wafers so far ({@link BatchContent#WORST_FIRST}, ties in the table's order), at most shown. */
+    private final List<BatchContent.Row> worst = new ArrayList<>();
+    /** Their cards' pictures, made as they entered {@link #worst}. */
+    private final Map<BatchContent.Row, Optional<PdfPage.Picture>> pictures = new IdentityHashMap<>();
     private PDDocument doc;
     private ReportFlow flow;
     private ReportFlow.Table table;
@@ -54,7 +61,8 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     /** Whether the last {@link #write} used the table drawn ahead (a test's view). */
     private boolean drewAhead;
 
-    private SummaryDraft(Rules rules, int expectedRows, BooleanSupplier drawable) {
+    private SummaryDraft(Path outDir, Rules rules, int expectedRows, BooleanSupplier drawable) {
+        this.outDir = outDir;
         this.rules = rules;
         this.expected = expectedRows;
         this.figureColumns = BatchFolder.figureColumns(rules);
@@ -64,12 +72,13 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     }
 
     /**
-     * Starts drawing the summary of a batch under {@code rules} whose results table will hold {@code expectedRows}
+     * Starts drawing the summary of a batch into {@code outDir} (its thumbnails are read from there as they are
+     * written) under {@code rules} whose results table will hold {@code expectedRows}
      * rows (one per input file); {@code drawable} is asked first on the drawing thread (false: this runtime cannot
      * draw text, and nothing is drawn ahead).
      */
-    public static SummaryDraft start(Rules rules, int expectedRows, BooleanSupplier drawable) {
-        SummaryDraft d = new SummaryDraft(rules, expectedRows, drawable);
+    public static SummaryDraft start(Path outDir, Rules rules, int expectedRows, BooleanSupplier drawable) {
+        SummaryDraft d = new SummaryDraft(outDir, rules, expectedRows, drawable);
         d.thread.start();
         return d;
     }
@@ -103,6 +112,9 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
                     continue;
                 }
                 table.row(WaferTable.row(r.name(), BatchContent.profile(rules, r.profile()), r));
+                if (r.status().equals("fail")) {
+                    rank(r);
+                }
             }
         } catch (InterruptedException e) {
             usable = false;
@@ -111,6 +123,25 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
             throw e;
         } catch (Exception | Error e) {
             usable = false; // the summary step draws it all again and reports its own failure
+        }
+    }
+
+    /**
+     * Keeps {@code r} among the worst failed wafers when it is one of the {@value FailedWafersSection#SHOWN} worst
+     * so far (after those as bad before it: the stable order of the section), and makes its card's picture.
+     */
+    private void rank(BatchContent.Row r) {
+        int at = worst.size();
+        while (at > 0 && BatchContent.WORST_FIRST.compare(worst.get(at - 1), r) > 0) {
+            at--;
+        }
+        if (at >= FailedWafersSection.SHOWN) {
+            return;
+        }
+        worst.add(at, r);
+        pictures.put(r, FailedWafersSection.picture(outDir, r));
+        while (worst.size() > FailedWafersSection.SHOWN) {
+            pictures.remove(worst.remove(worst.size() - 1));
         }
     }
 
@@ -142,7 +173,7 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
             try (ReportFlow head = new ReportFlow(doc, tableStart)) {
                 BatchReport.head(head, c);
             }
-            BatchReport.tail(flow, c);
+            BatchReport.tail(flow, c, pictures::get);
             BatchReport.footers(doc, c);
             AtomicFiles.write(pdf, tmp -> doc.save(tmp.toFile()));
             drewAhead = true;

@@ -62,7 +62,7 @@ class SummaryDraftTest {
     private static SummaryDraft drawn(List<Path> files, Path out, int workers) throws Exception {
         Rules rules = Rules.parse(BatchReportTest.RULES, "rules.json");
         BatchInspection batch = new BatchInspection(rules);
-        try (SummaryDraft draft = SummaryDraft.start(rules, files.size(), () -> true)) {
+        try (SummaryDraft draft = SummaryDraft.start(out, rules, files.size(), () -> true)) {
             batch.tellingRows(draft).finishingWith((d, recurrence) -> {
                 try {
                     draft.write(d, recurrence, batch.rows(), batch.rowsAsTold());
