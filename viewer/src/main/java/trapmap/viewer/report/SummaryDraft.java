@@ -40,7 +40,8 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     private final Path outDir;
     private final Rules rules;
     private final int expected;
-    private final List<String> figureColumns;
+    /** The figure columns of the results table (the drawing thread's). */
+    private List<String> figureColumns;
     private final BooleanSupplier drawable;
     private final BlockingQueue<Map<String, String>> queue = new LinkedBlockingQueue<>();
     private final Thread thread;
@@ -65,7 +66,6 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
         this.outDir = outDir;
         this.rules = rules;
         this.expected = expectedRows;
-        this.figureColumns = BatchFolder.figureColumns(rules);
         this.drawable = drawable;
         this.thread = new Thread(this::draw, "inspect-summary");
         thread.setDaemon(true);
@@ -93,6 +93,7 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
 
     private void draw() {
         try {
+            figureColumns = BatchFolder.figureColumns(rules);
             if (!drawable.getAsBoolean()) {
                 return;
             }
@@ -156,8 +157,9 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
         Path pdf = outDir.resolve(BatchReport.FILE_NAME);
         if (!usable || !asTold || rows.size() != finishedRows.size() || rows.size() != expected) {
             List<BatchContent.Row> all = new ArrayList<>(finishedRows.size());
+            List<String> figures = BatchFolder.figureColumns(rules);
             for (Map<String, String> cells : finishedRows) {
-                all.add(BatchFolder.row(cells, figureColumns));
+                all.add(BatchFolder.row(cells, figures));
             }
             dropDocument();
             drewAhead = false;
