@@ -121,6 +121,7 @@ final class InspectCommand implements Callable<Integer> {
     @Override
     public Integer call() throws IOException, InterruptedException {
         long callStart = System.currentTimeMillis();
+        long callStartNanos = System.nanoTime();
         long[] startCpu = PhaseTimes.startCpu();
         int n = threads == null ? Runtime.getRuntime().availableProcessors() : threads;
         if (n < 1 || n > 256) {
@@ -160,6 +161,8 @@ final class InspectCommand implements Callable<Integer> {
         // drawn beside the workers when this runtime draws text (asked on the drawing thread)
         SummaryDraft draft = summaryPdf && writer == null
                 ? SummaryDraft.start(out, judged, files.size(), () -> pictures.missing().isEmpty()) : null;
+        long batchStart = System.nanoTime();
+        long batchStartCpu = PhaseTimes.wanted() ? BatchInspection.threadCpuNanos() : -1;
         try (draft) {
             s = batch.withIron(ironPairs).withSource(source).tellingRows(draft)
                     .finishingWith((dir, recurrence) -> {
@@ -179,8 +182,14 @@ final class InspectCommand implements Callable<Integer> {
                         }
                     })
                     .warmingUp(!summaryPdf ? null : () -> {
-                        if (pictures.missing().isEmpty()) { // a runtime without fonts is told once, by the step
-                            BatchReport.warmUp(judged);
+                        try {
+                            if (pictures.missing().isEmpty()) { // a runtime without fonts is told once, by the step
+                                BatchReport.warmUp(judged);
+                            }
+                        } finally {
+                            if (draft != null) {
+                                draft.warmedUp(); // draws its rows now, with the drawing code loaded and compiled
+                            }
                         }
                     })
                     .withRecurrencePictures(() -> pictures.allows(RECURRENCE_PICTURES))
@@ -242,7 +251,9 @@ final class InspectCommand implements Callable<Integer> {
                             : "; summary PDF missing (see the line above)");
         }
         o.flush();
-        PhaseTimes.print(err, callStart, startCpu, batch.lastPhases());
+        PhaseTimes.print(err, callStart, startCpu, batch.lastPhases(), new PhaseTimes.Steps(
+                batchStart - callStartNanos, startCpu[1] < 0 || batchStartCpu < 0 ? -1 : batchStartCpu - startCpu[1],
+                draft == null ? -1 : draft.drawingCpuNanos()));
         return notMade.isPresent() ? Exit.REPORT_MISSING
                 : s.pass() == s.total() ? Exit.OK : Exit.SOME_WAFERS_NOT_PASSED;
     }

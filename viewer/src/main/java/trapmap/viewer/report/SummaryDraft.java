@@ -34,6 +34,8 @@ import trapmap.maps.io.AtomicFiles;
  * <p>The drawing thread writes nothing into the output folder; {@link #close} stops it and drops its document.
  */
 public final class SummaryDraft implements BatchInspection.RowListener, AutoCloseable {
+    /** Rows between two rounds of {@link #makePictures}. */
+    private static final int PICTURES_EVERY = 32;
     /** Marks the end of the rows in the queue. */
     private static final Map<String, String> END = Map.of("", "");
 
@@ -45,6 +47,8 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     private final BooleanSupplier drawable;
     private final BlockingQueue<Map<String, String>> queue = new LinkedBlockingQueue<>();
     private final Thread thread;
+    /** Opened by {@link #warmedUp}: the rows wait for the summary's warm-up (drawn cold, they would cost more). */
+    private final java.util.concurrent.CountDownLatch warm = new java.util.concurrent.CountDownLatch(1);
     // the drawing thread's, read by write() after it ended
     private final List<BatchContent.Row> rows = new ArrayList<>();
     private final Set<String> names = new HashSet<>();
@@ -59,6 +63,8 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     /** Whether the document drawn so far holds the told rows' table as {@link BatchReport} draws it. */
     private boolean usable;
     private volatile boolean ended;
+    /** The drawing thread's CPU time when it ended, ns; -1: not known. */
+    private volatile long drawingCpu = -1;
     /** Whether the last {@link #write} used the table drawn ahead (a test's view). */
     private boolean drewAhead;
 
@@ -93,6 +99,23 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
 
     private void draw() {
         try {
+            drawing();
+        } finally {
+            drawingCpu = BatchInspection.threadCpuNanos();
+        }
+    }
+
+    /**
+     * The summary's warm-up ({@link BatchReport#warmUp}) ended, or there is none: the drawing thread starts on the
+     * rows told so far. Without it the rows are drawn by {@link #write} (or when the batch ends).
+     */
+    public void warmedUp() {
+        warm.countDown();
+    }
+
+    private void drawing() {
+        try {
+            warm.await();
             figureColumns = BatchFolder.figureColumns(rules);
             if (!drawable.getAsBoolean()) {
                 return;
@@ -116,20 +139,22 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
                 if (r.status().equals("fail")) {
                     rank(r);
                 }
+                if (rows.size() % PICTURES_EVERY == 0) {
+                    makePictures();
+                }
             }
         } catch (InterruptedException e) {
             usable = false;
-        } catch (VirtualMachineError e) {
-            usable = false;
-            throw e;
         } catch (Exception | Error e) {
-            usable = false; // the summary step draws it all again and reports its own failure
+            // out of memory or a runtime that cannot draw included: the summary step draws it all again after the
+            // last wafer and reports its own failure (an error thrown here would only end this thread)
+            usable = false;
         }
     }
 
     /**
      * Keeps {@code r} among the worst failed wafers when it is one of the {@value FailedWafersSection#SHOWN} worst
-     * so far (after those as bad before it: the stable order of the section), and makes its card's picture.
+     * so far (after those as bad before it: the stable order of the section); a wafer pushed out loses its picture.
      */
     private void rank(BatchContent.Row r) {
         int at = worst.size();
@@ -140,9 +165,19 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
             return;
         }
         worst.add(at, r);
-        pictures.put(r, FailedWafersSection.picture(outDir, r));
         while (worst.size() > FailedWafersSection.SHOWN) {
             pictures.remove(worst.remove(worst.size() - 1));
+        }
+    }
+
+    /**
+     * Makes the card pictures of the worst failed wafers that have none yet: every {@value #PICTURES_EVERY} rows, so
+     * that a wafer pushed out again soon after it came in (frequent early in a batch) costs no picture; those
+     * still missing after the last row are made by {@link #write}.
+     */
+    private void makePictures() {
+        for (BatchContent.Row w : worst) {
+            pictures.computeIfAbsent(w, k -> FailedWafersSection.picture(outDir, k));
         }
     }
 
@@ -185,6 +220,14 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
         return pdf;
     }
 
+    /**
+     * The CPU time of the drawing thread, which ran beside the workers, nanoseconds, once {@link #write} or
+     * {@link #close} ended it; -1 before or where the system does not tell.
+     */
+    public long drawingCpuNanos() {
+        return drawingCpu;
+    }
+
     /** Whether the last {@link #write} used the wafer table drawn while the batch ran. */
     boolean drewAhead() {
         return drewAhead;
@@ -196,6 +239,7 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
             ended = true;
             queue.add(END);
         }
+        warm.countDown();
         thread.join();
     }
 

@@ -63,7 +63,7 @@ class SummaryDraftTest {
         Rules rules = Rules.parse(BatchReportTest.RULES, "rules.json");
         BatchInspection batch = new BatchInspection(rules);
         try (SummaryDraft draft = SummaryDraft.start(out, rules, files.size(), () -> true)) {
-            batch.tellingRows(draft).finishingWith((d, recurrence) -> {
+            batch.tellingRows(draft).warmingUp(draft::warmedUp).finishingWith((d, recurrence) -> {
                 try {
                     draft.write(d, recurrence, batch.rows(), batch.rowsAsTold());
                 } catch (InterruptedException e) {
