@@ -27,6 +27,7 @@ import trapmap.maps.batch.RunManifest;
 import trapmap.maps.batch.RunRefusedException;
 import trapmap.shared.progress.ProgressListener;
 import trapmap.viewer.report.BatchReport;
+import trapmap.viewer.report.SummaryDraft;
 
 /** {@code trapmap inspect}: pass/fail, grades and flagged regions of many wafer maps against a rules file. */
 @Command(name = "inspect", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
@@ -59,8 +60,11 @@ final class InspectCommand implements Callable<Integer> {
         Path write(Path dir, Rules rules, trapmap.maps.batch.RecurrenceMap recurrence) throws IOException;
     }
 
-    /** The summary step ({@link BatchReport#writeFor}); a test puts a failing one here. */
-    static volatile SummaryWriter summaryWriter = BatchReport::writeFor;
+    /**
+     * The summary step; null: the summary drawn while the batch runs ({@link SummaryDraft}, the same document as
+     * {@link BatchReport#writeFor}). A test puts a failing one here.
+     */
+    static volatile SummaryWriter summaryWriter = null;
 
     /** How the one line names the recurrence pictures when they are skipped. */
     private static final String RECURRENCE_PICTURES = "the recurrence pictures";
@@ -117,6 +121,7 @@ final class InspectCommand implements Callable<Integer> {
     @Override
     public Integer call() throws IOException, InterruptedException {
         long callStart = System.currentTimeMillis();
+        long callStartNanos = System.nanoTime();
         long[] startCpu = PhaseTimes.startCpu();
         int n = threads == null ? Runtime.getRuntime().availableProcessors() : threads;
         if (n < 1 || n > 256) {
@@ -152,17 +157,39 @@ final class InspectCommand implements Callable<Integer> {
         boolean captions = thumbnails && thumbnailCaptions && pictures.allows("the thumbnail captions");
         BatchInspection.Summary s;
         BatchInspection batch = new BatchInspection(rules);
-        try {
-            s = batch.withIron(ironPairs).withSource(source)
+        SummaryWriter writer = summaryWriter;
+        // drawn beside the workers when this runtime draws text (asked on the drawing thread)
+        SummaryDraft draft = summaryPdf && writer == null
+                ? SummaryDraft.start(out, judged, files.size(), () -> pictures.missing().isEmpty()) : null;
+        long batchStart = System.nanoTime();
+        long batchStartCpu = PhaseTimes.wanted() ? BatchInspection.threadCpuNanos() : -1;
+        try (draft) {
+            s = batch.withIron(ironPairs).withSource(source).tellingRows(draft)
                     .finishingWith((dir, recurrence) -> {
-                        if (!summaryPdf || !pictures.run(BatchReport.FILE_NAME,
-                                () -> summaryWriter.write(dir, judged, recurrence))) {
+                        if (!summaryPdf || !pictures.run(BatchReport.FILE_NAME, () -> {
+                            if (draft == null) {
+                                writer.write(dir, judged, recurrence);
+                            } else {
+                                try {
+                                    draft.write(dir, recurrence, batch.rows(), batch.rowsAsTold());
+                                } catch (InterruptedException e) {
+                                    Thread.currentThread().interrupt();
+                                    throw new java.io.InterruptedIOException("summary cancelled");
+                                }
+                            }
+                        })) {
                             Files.deleteIfExists(pdf); // an earlier run's summary would not match these results
                         }
                     })
                     .warmingUp(!summaryPdf ? null : () -> {
-                        if (pictures.missing().isEmpty()) { // a runtime without fonts is told once, by the step
-                            BatchReport.warmUp(judged);
+                        try {
+                            if (pictures.missing().isEmpty()) { // a runtime without fonts is told once, by the step
+                                BatchReport.warmUp(judged);
+                            }
+                        } finally {
+                            if (draft != null) {
+                                draft.warmedUp(); // draws its rows now, with the drawing code loaded and compiled
+                            }
                         }
                     })
                     .withRecurrencePictures(() -> pictures.allows(RECURRENCE_PICTURES))
@@ -224,7 +251,9 @@ final class InspectCommand implements Callable<Integer> {
                             : "; summary PDF missing (see the line above)");
         }
         o.flush();
-        PhaseTimes.print(err, callStart, startCpu, batch.lastPhases());
+        PhaseTimes.print(err, callStart, startCpu, batch.lastPhases(), new PhaseTimes.Steps(
+                batchStart - callStartNanos, startCpu[1] < 0 || batchStartCpu < 0 ? -1 : batchStartCpu - startCpu[1],
+                draft == null ? -1 : draft.drawingCpuNanos()));
         return notMade.isPresent() ? Exit.REPORT_MISSING
                 : s.pass() == s.total() ? Exit.OK : Exit.SOME_WAFERS_NOT_PASSED;
     }

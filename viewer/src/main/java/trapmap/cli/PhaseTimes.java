@@ -29,19 +29,32 @@ final class PhaseTimes {
      * {@code _cpu_ms} figures that thread's CPU time in the phase (in the inspection: writing rows beside the
      * workers), {@code worker_cpu_ms} the workers' CPU time in all, and {@code end_cpu_ms} the command thread's CPU
      * time at the end, JVM start included (-1: not known). All the command thread's CPU time but that in the
-     * inspection is serial: {@code end_cpu_ms - inspection_cpu_ms}.
+     * inspection is serial: {@code end_cpu_ms - inspection_cpu_ms}. {@code before_batch_ms} and
+     * {@code before_batch_cpu_ms}: the command's own steps before the batch starts (reading the rules, listing the
+     * inputs), wall and the command thread's CPU time; {@code summary_draft_cpu_ms}: the CPU time of the thread that
+     * draws the summary beside the workers ({@code SummaryDraft}; -1: none).
      */
     static String line(long callStartEpochMs, long startProcessCpuNanos, long startCpuNanos, BatchInspection.Phases p,
-                       long endCpuNanos, long callEndEpochMs) {
+                       Steps steps, long endCpuNanos, long callEndEpochMs) {
         return String.format(Locale.ROOT, "inspect phase times: call_start_ms=%d start_process_cpu_ms=%.1f"
                         + " start_cpu_ms=%.1f prepare_ms=%.1f inspection_ms=%.1f tables_ms=%.1f summary_ms=%.1f"
                         + " writer_busy_ms=%.1f prepare_cpu_ms=%.1f tables_cpu_ms=%.1f summary_cpu_ms=%.1f"
-                        + " worker_cpu_ms=%.1f inspection_cpu_ms=%.1f end_cpu_ms=%.1f call_end_ms=%d",
+                        + " worker_cpu_ms=%.1f inspection_cpu_ms=%.1f before_batch_ms=%.1f before_batch_cpu_ms=%.1f"
+                        + " summary_draft_cpu_ms=%.1f end_cpu_ms=%.1f call_end_ms=%d",
                 callStartEpochMs, ms(startProcessCpuNanos), ms(startCpuNanos), ms(p.prepareNanos()),
                 ms(p.inspectionNanos()),
                 ms(p.tablesNanos()), ms(p.summaryNanos()), ms(p.writerBusyNanos()), ms(p.prepareCpuNanos()),
                 ms(p.tablesCpuNanos()), ms(p.summaryCpuNanos()), ms(p.workerCpuNanos()), ms(p.inspectionCpuNanos()),
+                ms(steps.beforeBatchNanos()), ms(steps.beforeBatchCpuNanos()), ms(steps.summaryDraftCpuNanos()),
                 ms(endCpuNanos), callEndEpochMs);
+    }
+
+    /**
+     * The command's own parts of the line: its steps before the batch (wall and its thread's CPU, ns) and the summary
+     * drawing thread's CPU time (ns, -1: none).
+     */
+    record Steps(long beforeBatchNanos, long beforeBatchCpuNanos, long summaryDraftCpuNanos) {
+        static final Steps NONE = new Steps(-1, -1, -1);
     }
 
     private static double ms(long nanos) {
@@ -54,9 +67,10 @@ final class PhaseTimes {
                 : new long[] {-1, -1};
     }
 
-    static void print(PrintWriter err, long callStartEpochMs, long[] startCpu, BatchInspection.Phases p) {
+    static void print(PrintWriter err, long callStartEpochMs, long[] startCpu, BatchInspection.Phases p,
+                      Steps steps) {
         if (wanted()) {
-            err.println(line(callStartEpochMs, startCpu[0], startCpu[1], p, BatchInspection.threadCpuNanos(),
+            err.println(line(callStartEpochMs, startCpu[0], startCpu[1], p, steps, BatchInspection.threadCpuNanos(),
                     System.currentTimeMillis()));
             err.flush();
         }

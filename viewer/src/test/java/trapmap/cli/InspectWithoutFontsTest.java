@@ -50,7 +50,7 @@ class InspectWithoutFontsTest {
     @AfterEach
     void realRuntime() {
         Pictures.runtime = Pictures.RUNTIME;
-        InspectCommand.summaryWriter = trapmap.viewer.report.BatchReport::writeFor;
+        InspectCommand.summaryWriter = null;
     }
 
     /** An 80 mm round wafer of 80 µs, with or without a 4 µs spot ({@link InspectCommandTest#wafer}). */

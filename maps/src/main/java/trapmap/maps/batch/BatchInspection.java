@@ -170,6 +170,17 @@ public final class BatchInspection {
         void finish(Path outDir, RecurrenceMap recurrence) throws IOException;
     }
 
+    /** Told each results row as the batch writes it ({@link #tellingRows}). */
+    @FunctionalInterface
+    public interface RowListener {
+        /**
+         * A row written to the results table, its cells as made (before {@link CsvCells#text}); called on the
+         * writing thread in the table's order, so it must return at once (hand the row to a thread of its own). The
+         * map is not changed afterwards.
+         */
+        void row(Map<String, String> row);
+    }
+
     /** First-use work of the summary step ({@link #warmingUp}). */
     @FunctionalInterface
     public interface WarmUp {
@@ -312,6 +323,12 @@ public final class BatchInspection {
     private java.util.function.BooleanSupplier recurrencePictures;
     /** What {@code run.json} records about the summary once the finisher ran; null: nothing. */
     private java.util.function.Supplier<String> summaryRecord;
+    /** Told each results row as it is written; null for none. */
+    private RowListener rowListener;
+    /** The rows of the results table of the running run once its tables are complete, in the table's order. */
+    private List<Map<String, String>> finishedRows = List.of();
+    /** Whether {@link #finishedRows} are the rows told to the listener, in the order told. */
+    private boolean finishedAsTold;
     /** First-use work of the summary step, run beside the workers; null for none. */
     private WarmUp warmUp;
     /** Times of the last run's parts. */
@@ -395,6 +412,32 @@ public final class BatchInspection {
     public BatchInspection recordingSummary(java.util.function.Supplier<String> outcome) {
         this.summaryRecord = outcome;
         return this;
+    }
+
+    /**
+     * Tells {@code listener} each row of the results table as it is written (rows kept from a resumed run first),
+     * so that a summary can be made while the batch runs ({@link #rows()}, {@link #rowsAsTold()} after the last
+     * wafer). Returns this batch.
+     */
+    public BatchInspection tellingRows(RowListener listener) {
+        this.rowListener = listener;
+        return this;
+    }
+
+    /**
+     * The rows of the results table, in its order, once the run's tables are complete (for the
+     * {@linkplain #finishingWith finisher}); empty before.
+     */
+    public List<Map<String, String>> rows() {
+        return finishedRows;
+    }
+
+    /**
+     * Whether {@link #rows()} are the rows told to the {@linkplain #tellingRows listener}, in the order told (false
+     * when a resumed run put them back in input order).
+     */
+    public boolean rowsAsTold() {
+        return finishedAsTold;
     }
 
     /**
@@ -532,6 +575,8 @@ public final class BatchInspection {
         inspectedAt = 0;
         writerBusy = 0;
         workerCpu.reset();
+        finishedRows = List.of();
+        finishedAsTold = false;
         phases = Phases.NONE;
         OutputFolder.write(outDir, () -> Files.createDirectories(outDir));
         try (RunLock lock = RunLock.acquire(outDir)) {
@@ -700,6 +745,9 @@ public final class BatchInspection {
             out.flush();
             fout.flush();
             rout.flush();
+            if (rowListener != null) {
+                rows.forEach(rowListener::row);
+            }
             move(tmpPartial, partial);
             move(tmpRegions, regionsPartial);
             move(tmpFootprints, footprintsPartial);
@@ -763,6 +811,9 @@ public final class BatchInspection {
                 rows.add(r.row());
                 w.write(r.rowText());
                 w.flush();
+                if (rowListener != null) {
+                    rowListener.row(r.row());
+                }
                 writerBusy += System.nanoTime() - writing;
                 options.progress().progress(++done, todo.size(), r.file());
                 if (Thread.currentThread().isInterrupted()) {
@@ -787,7 +838,9 @@ public final class BatchInspection {
         }
         java.util.Comparator<Map<String, String>> byInput = java.util.Comparator.comparingInt(
                 row -> position.getOrDefault(key(row.get("file")), Integer.MAX_VALUE));
+        boolean asTold = true;
         if (!isSorted(rows, byInput)) { // a resumed run that tried an error row again: back to input order
+            asTold = false;
             rows.sort(byInput);
             inInputOrder(footprintsPartial, tmpFootprints, position);
             inInputOrder(regionsPartial, tmpRegions, position);
@@ -830,6 +883,8 @@ public final class BatchInspection {
                     .append('\n');
         }
         builtRecurrence = recurrence;
+        finishedRows = java.util.Collections.unmodifiableList(rows);
+        finishedAsTold = asTold;
         Path recurrenceCsv = outDir.resolve(RECURRENCE_NAME);
         OutputFolder.write(recurrenceCsv, () -> AtomicFiles.write(recurrenceCsv,
                 families.toString().getBytes(StandardCharsets.UTF_8)));

@@ -106,6 +106,11 @@ public record BatchContent(Path outputDir, Rules rules, List<Row> rows, Map<Stri
 
     /** The profile of that name in the rules, or null (no rules, or a name they do not hold). */
     Rules.Profile profile(String name) {
+        return profile(rules, name);
+    }
+
+    /** The profile of that name in {@code rules}, or null (no rules, or a name they do not hold). */
+    static Rules.Profile profile(Rules rules, String name) {
         if (rules == null) {
             return null;
         }
@@ -114,11 +119,13 @@ public record BatchContent(Path outputDir, Rules rules, List<Row> rows, Map<Stri
 
     /** The failed wafers, worst first: most failed rules, then the largest flagged area fraction. */
     List<Row> failedWorstFirst() {
-        Comparator<Row> order = Comparator.<Row>comparingInt(r -> r.failed().size()).reversed()
-                .thenComparing(Comparator.<Row>comparingDouble(r -> {
-                    double f = r.figure("flagged_area_fraction");
-                    return Double.isNaN(f) ? -1 : f;
-                }).reversed());
-        return rows.stream().filter(r -> r.status().equals("fail")).sorted(order).toList();
+        return rows.stream().filter(r -> r.status().equals("fail")).sorted(WORST_FIRST).toList();
     }
+
+    /** Most failed rules first, then the largest flagged area fraction (none: last); a stable sort keeps ties. */
+    static final Comparator<Row> WORST_FIRST = Comparator.<Row>comparingInt(r -> r.failed().size()).reversed()
+            .thenComparing(Comparator.<Row>comparingDouble(r -> {
+                double f = r.figure("flagged_area_fraction");
+                return Double.isNaN(f) ? -1 : f;
+            }).reversed());
 }

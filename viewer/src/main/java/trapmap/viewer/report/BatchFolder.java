@@ -7,6 +7,7 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.ZonedDateTime;
 import java.util.ArrayList;
+import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -53,22 +54,14 @@ final class BatchFolder {
             if (from <= 0 || to < from) {
                 throw new IOException(csv + ": not a results table (columns grade … failed_rules missing)");
             }
-            List<String> figureColumns = header.subList(from, to);
+            List<String> figureColumns = List.copyOf(header.subList(from, to));
             for (CSVRecord rec : p) {
                 if (!rec.isConsistent()) {
                     continue;
                 }
-                Map<String, Double> figures = new LinkedHashMap<>();
-                for (String f : figureColumns) {
-                    figures.put(f, number(rec.get(f)));
-                }
-                String failed = text(rec, "failed_rules");
-                rows.add(new BatchContent.Row(text(rec, "file"), text(rec, "wafer_id"), text(rec, "status"),
-                        text(rec, "grade"), text(rec, "profile"), text(rec, "defect"), figures,
-                        failed.isEmpty() ? List.of() : List.of(failed.split(";")),
-                        number(rec.get("worst_region_area_mm2")), number(rec.get("worst_region_x_mm")),
-                        number(rec.get("worst_region_y_mm")), number(rec.get("worst_region_peak")),
-                        text(rec, "error")));
+                Map<String, String> cells = new HashMap<>();
+                rec.toMap().forEach((k, v) -> cells.put(k, CsvCells.raw(v)));
+                rows.add(row(cells, figureColumns));
             }
         }
         RecurrenceMap recurrence = built != null ? built
@@ -77,9 +70,31 @@ final class BatchFolder {
                 HotSpots.Criteria.DEFAULT, recurrence.refused());
     }
 
-    /** A text cell as it was before {@link CsvCells#text}; empty when the column is missing. */
-    private static String text(CSVRecord rec, String column) {
-        return rec.isMapped(column) ? CsvCells.raw(rec.get(column)) : "";
+    /** The figure columns of a results table under {@code rules}: one per figure of the rules, in their order. */
+    static List<String> figureColumns(Rules rules) {
+        return rules.figures().stream().map(trapmap.maps.batch.Figure::name).toList();
+    }
+
+    /**
+     * A row of the results table from its cells as the batch made them (before {@link CsvCells#text}; a missing or
+     * null cell is empty): text as it is, numbers parsed (empty: NaN), {@code figureColumns} the figures.
+     */
+    static BatchContent.Row row(Map<String, String> cells, List<String> figureColumns) {
+        Map<String, Double> figures = new LinkedHashMap<>();
+        for (String f : figureColumns) {
+            figures.put(f, number(text(cells, f)));
+        }
+        String failed = text(cells, "failed_rules");
+        return new BatchContent.Row(text(cells, "file"), text(cells, "wafer_id"), text(cells, "status"),
+                text(cells, "grade"), text(cells, "profile"), text(cells, "defect"), figures,
+                failed.isEmpty() ? List.of() : List.of(failed.split(";")), number(text(cells, "worst_region_area_mm2")),
+                number(text(cells, "worst_region_x_mm")), number(text(cells, "worst_region_y_mm")),
+                number(text(cells, "worst_region_peak")), text(cells, "error"));
+    }
+
+    private static String text(Map<String, String> cells, String column) {
+        String v = cells.get(column);
+        return v == null ? "" : v;
     }
 
     private static double number(String s) {

@@ -92,20 +92,45 @@ public final class BatchReport {
 
     private static void draw(PDDocument doc, BatchContent c) throws IOException {
         try (ReportFlow flow = new ReportFlow(doc)) {
-            doc.getDocumentInformation().setTitle("Batch inspection summary");
-            doc.getDocumentInformation().setCreator("trapmap");
-            SummarySection.draw(flow, c);
-            ProfileSection.drawAll(flow, c);
+            describe(doc);
+            head(flow, c);
             WaferTable.draw(flow, c);
-            FailedWafersSection.draw(flow, c);
-            RecurrenceSection.drawAll(flow, c);
-            ErrorSection.draw(flow, c);
-            flow.down(8);
-            flow.caution(Caution.TEXT);
-            flow.close();
-            PdfPage.footers(doc, "trapmap batch summary - " + PdfPage.clean(c.outputDir().toString()) + " - "
-                    + SummarySection.DATE.format(c.created()));
+            tail(flow, c);
         }
+        footers(doc, c);
+    }
+
+    /** The document's title and creator. */
+    static void describe(PDDocument doc) {
+        doc.getDocumentInformation().setTitle("Batch inspection summary");
+        doc.getDocumentInformation().setCreator("trapmap");
+    }
+
+    /** What comes before the wafer table: the summary page and the sections per profile. */
+    static void head(ReportFlow flow, BatchContent c) throws IOException {
+        SummarySection.draw(flow, c);
+        ProfileSection.drawAll(flow, c);
+    }
+
+    /** What comes after the wafer table: failed wafers, recurrence, errors and the caution; closes the last page. */
+    static void tail(ReportFlow flow, BatchContent c) throws IOException {
+        tail(flow, c, r -> null);
+    }
+
+    /** As {@link #tail(ReportFlow, BatchContent)}, with failed wafers' pictures made ahead where there are. */
+    static void tail(ReportFlow flow, BatchContent c, FailedWafersSection.Pictures made) throws IOException {
+        FailedWafersSection.draw(flow, c, made);
+        RecurrenceSection.drawAll(flow, c);
+        ErrorSection.draw(flow, c);
+        flow.down(8);
+        flow.caution(Caution.TEXT);
+        flow.close();
+    }
+
+    /** Every page's footer: the folder, the date and the page number. */
+    static void footers(PDDocument doc, BatchContent c) throws IOException {
+        PdfPage.footers(doc, "trapmap batch summary - " + PdfPage.clean(c.outputDir().toString()) + " - "
+                + SummarySection.DATE.format(c.created()));
     }
 
     /** Made-up wafers of {@link #warmUp}: enough rows for the table and chart code to be compiled. */

@@ -12,6 +12,7 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import java.util.Optional;
 import javax.imageio.ImageIO;
 import trapmap.maps.batch.BatchInspection;
 import trapmap.maps.batch.Figure;
@@ -36,6 +37,17 @@ final class FailedWafersSection {
     }
 
     static void draw(ReportFlow flow, BatchContent c) throws IOException {
+        draw(flow, c, r -> null);
+    }
+
+    /** The pictures of some wafers' cards made ahead ({@link #picture(Path, BatchContent.Row)}); null: none. */
+    @FunctionalInterface
+    interface Pictures {
+        Optional<PdfPage.Picture> made(BatchContent.Row r);
+    }
+
+    /** As {@link #draw(ReportFlow, BatchContent)}, with the cards' pictures {@code made} ahead where there are. */
+    static void draw(ReportFlow flow, BatchContent c, Pictures made) throws IOException {
         List<BatchContent.Row> failed = c.failedWorstFirst();
         if (failed.isEmpty()) {
             return;
@@ -52,18 +64,28 @@ final class FailedWafersSection {
         for (int i = 0; i < shown.size(); i += 2) {
             flow.need(CELL_H);
             for (int k = i; k < Math.min(i + 2, shown.size()); k++) {
-                card(flow.page(), c, shown.get(k), ReportFlow.LEFT + (k - i) * (cw + 12), flow.y(), cw);
+                BatchContent.Row r = shown.get(k);
+                Optional<PdfPage.Picture> picture = made.made(r);
+                if (picture == null) {
+                    picture = picture(c.outputDir(), r);
+                }
+                card(flow.page(), c, r, picture, ReportFlow.LEFT + (k - i) * (cw + 12), flow.y(), cw);
             }
             flow.down(CELL_H);
         }
     }
 
-    private static void card(PdfPage p, BatchContent c, BatchContent.Row r, float x, float top, float cw)
-            throws IOException {
+    /** The picture of {@code r}'s card in a batch folder {@code outDir}, ready to embed; empty when there is none. */
+    static Optional<PdfPage.Picture> picture(Path outDir, BatchContent.Row r) {
+        BufferedImage img = picture(outDir, r, (int) (PICTURE * BatchReport.SCALE));
+        return img == null ? Optional.empty() : Optional.of(PdfPage.Picture.of(img));
+    }
+
+    private static void card(PdfPage p, BatchContent c, BatchContent.Row r, Optional<PdfPage.Picture> img, float x,
+                             float top, float cw) throws IOException {
         p.rect(x, top, cw, CELL_H - 8, PdfPage.RULE, null, 0.6f);
-        BufferedImage img = picture(c, r, (int) (PICTURE * BatchReport.SCALE));
-        if (img != null) {
-            p.image(img, x + 6, top + 6, PICTURE, PICTURE);
+        if (img.isPresent()) {
+            p.image(img.get(), x + 6, top + 6, PICTURE, PICTURE);
         } else {
             p.paragraph("no picture: the map could not be read again", x + 6, top + 6, PICTURE, PdfPage.REGULAR, 8);
         }
@@ -132,8 +154,8 @@ final class FailedWafersSection {
     }
 
     /** The wafer's thumbnail, or its map drawn with the largest flagged region circled; null when neither exists. */
-    private static BufferedImage picture(BatchContent c, BatchContent.Row r, int size) {
-        Path thumb = c.outputDir().resolve(BatchInspection.THUMBNAIL_DIR).resolve(Path.of(r.file()).getFileName()
+    private static BufferedImage picture(Path outDir, BatchContent.Row r, int size) {
+        Path thumb = outDir.resolve(BatchInspection.THUMBNAIL_DIR).resolve(Path.of(r.file()).getFileName()
                 + ".png");
         try {
             if (Files.isRegularFile(thumb)) {

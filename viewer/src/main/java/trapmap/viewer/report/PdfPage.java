@@ -61,13 +61,32 @@ final class PdfPage implements Closeable {
 
     /** The regular and bold face loaded into each open document (subset-embedded when it is saved). */
     private static final Map<PDDocument, PDFont[]> DOCUMENT_FONTS = new WeakHashMap<>();
-    /** Whether the face has a glyph for a code point, by code point. */
+    /** Whether the face has a glyph for a code point beyond the basic plane, by code point. */
     private static final Map<Integer, Boolean> HAS_GLYPH = new ConcurrentHashMap<>();
+    private static final byte GLYPH_UNKNOWN = 0;
+    private static final byte GLYPH_YES = 1;
+    private static final byte GLYPH_NO = 2;
+    /**
+     * Whether both faces have a glyph for a character of the basic plane, by character: unknown until asked; control
+     * characters and surrogates stay unknown ({@link #clean} replaces them).
+     */
+    private static final byte[] BMP_GLYPH = new byte[Character.MAX_VALUE + 1];
+    /** Advance widths of the basic plane's characters in {@link #REGULAR} and {@link #BOLD}, NaN until measured. */
+    private static final float[] REGULAR_ADVANCE = unmeasured();
+    private static final float[] BOLD_ADVANCE = unmeasured();
 
     private final PDDocument doc;
+    /** The page drawn on, null for a page that only measures. */
+    private final PDPage pdPage;
     private final PDPageContentStream cs;
     private final PDFont regular;
     private final PDFont bold;
+
+    private static float[] unmeasured() {
+        float[] a = new float[Character.MAX_VALUE + 1];
+        java.util.Arrays.fill(a, Float.NaN);
+        return a;
+    }
 
     private static java.util.logging.Logger quiet() {
         java.util.logging.Logger l = java.util.logging.Logger.getLogger("org.apache.pdfbox");
@@ -122,9 +141,19 @@ final class PdfPage implements Closeable {
     }
 
     PdfPage(PDDocument doc) throws IOException {
+        this(doc, null);
+    }
+
+    /** A new page of {@code doc} placed before {@code before} (null: after the last page). */
+    PdfPage(PDDocument doc, PDPage before) throws IOException {
         this.doc = doc;
         PDPage page = new PDPage(PDRectangle.A4);
-        doc.addPage(page);
+        if (before == null) {
+            doc.addPage(page);
+        } else {
+            doc.getPages().insertBefore(page, before);
+        }
+        this.pdPage = page;
         this.cs = new PDPageContentStream(doc, page);
         PDFont[] fonts = fontsOf(doc);
         this.regular = fonts[0];
@@ -134,9 +163,15 @@ final class PdfPage implements Closeable {
     /** A page that draws nothing and measures as a real one: to lay out a part before drawing it. */
     private PdfPage() {
         this.doc = null;
+        this.pdPage = null;
         this.cs = null;
         this.regular = REGULAR;
         this.bold = BOLD;
+    }
+
+    /** The document's page this draws on. */
+    PDPage pdPage() {
+        return pdPage;
     }
 
     /** A page that only measures: every drawing call returns the height a real page's would, drawing nothing. */
@@ -150,17 +185,40 @@ final class PdfPage implements Closeable {
      * writes).
      */
     static String clean(String s) {
+        for (int i = 0; i < s.length(); i++) {
+            if (BMP_GLYPH[s.charAt(i)] != GLYPH_YES) {
+                return cleanEach(s);
+            }
+        }
+        return s; // every character shows as itself
+    }
+
+    private static String cleanEach(String s) {
         StringBuilder b = new StringBuilder(s.length());
         s.codePoints().forEach(c -> {
             if (c == '\n' || c == '\t') {
                 b.append(' ');
-            } else if (c >= 32 && HAS_GLYPH.computeIfAbsent(c, PdfPage::hasGlyph)) {
+            } else if (c >= 32 && shows(c)) {
                 b.appendCodePoint(c);
             } else {
                 b.append('?');
             }
         });
         return b.toString();
+    }
+
+    /** Whether both faces have a glyph for {@code c} (at least 32), asked of the faces once per code point. */
+    private static boolean shows(int c) {
+        if (c < BMP_GLYPH.length && !Character.isSurrogate((char) c)) {
+            byte known = BMP_GLYPH[c];
+            if (known != GLYPH_UNKNOWN) {
+                return known == GLYPH_YES;
+            }
+            boolean has = hasGlyph(c);
+            BMP_GLYPH[c] = has ? GLYPH_YES : GLYPH_NO; // the same answer from any thread
+            return has;
+        }
+        return HAS_GLYPH.computeIfAbsent(c, PdfPage::hasGlyph);
     }
 
     private static boolean hasGlyph(int codePoint) {
@@ -176,14 +234,49 @@ final class PdfPage implements Closeable {
         }
     }
 
+    /**
+     * The width of {@code s} (after {@link #clean}) in {@code font} at {@code size} points: for the two faces, the sum
+     * of each code point's advance width, taken once from the face: the same float sum in the same order as
+     * {@link PDFont#getStringWidth} (which encodes the text and adds its glyphs' widths one by one) without encoding
+     * the text at every call; any other font through {@code getStringWidth}.
+     */
     static float width(String s, PDFont font, float size) {
+        String text = clean(s);
+        float[] advances = font == REGULAR ? REGULAR_ADVANCE : font == BOLD ? BOLD_ADVANCE : null;
         try {
-            synchronized (font) {
-                return font.getStringWidth(clean(s)) / 1000 * size;
+            if (advances == null) {
+                synchronized (font) {
+                    return font.getStringWidth(text) / 1000 * size;
+                }
             }
+            float w = 0;
+            for (int i = 0; i < text.length(); ) {
+                int c = text.codePointAt(i);
+                i += Character.charCount(c);
+                w += advance(advances, font, c);
+            }
+            return w / 1000 * size;
         } catch (IOException e) {
             throw new IllegalStateException("cannot measure text '" + s + "'", e);
         }
+    }
+
+    /** The advance width of code point {@code c} in {@code font}, thousandths of the size (NaN in the table: not yet). */
+    private static float advance(float[] table, PDFont font, int c) throws IOException {
+        if (c < table.length) {
+            float a = table[c];
+            if (!Float.isNaN(a)) {
+                return a;
+            }
+        }
+        float a;
+        synchronized (font) {
+            a = font.getStringWidth(new String(Character.toChars(c))); // 0 + the glyph's width: that width exactly
+        }
+        if (c < table.length) {
+            table[c] = a; // the same value from any thread
+        }
+        return a;
     }
 
     /** One line of text whose top is at {@code yTop}. */
@@ -393,31 +486,75 @@ final class PdfPage implements Closeable {
      * shown are the same either way.
      */
     static PDImageXObject embed(PDDocument doc, BufferedImage img) throws IOException {
-        if (img.getType() != BufferedImage.TYPE_INT_RGB) {
-            return LosslessFactory.createFromImage(doc, img);
+        Packed p = Packed.of(img);
+        return p == null ? LosslessFactory.createFromImage(doc, img) : p.embed(doc);
+    }
+
+    /** A picture as {@link #image} draws it, made without a document: packed RGB samples or the picture itself. */
+    static final class Picture {
+        private final Packed packed;
+        private final BufferedImage image;
+
+        private Picture(Packed packed, BufferedImage image) {
+            this.packed = packed;
+            this.image = image;
         }
-        int w = img.getWidth();
-        int h = img.getHeight();
-        int[] row = new int[w];
-        byte[] line = new byte[3 * w];
-        ByteArrayOutputStream packed = new ByteArrayOutputStream(w * h);
-        Deflater deflater = new Deflater(Deflater.DEFAULT_COMPRESSION);
-        try (DeflaterOutputStream z = new DeflaterOutputStream(packed, deflater, 1 << 16)) {
-            for (int y = 0; y < h; y++) {
-                img.getRGB(0, y, w, 1, row, 0, w);
-                for (int i = 0, k = 0; i < w; i++) {
-                    int p = row[i];
-                    line[k++] = (byte) (p >> 16);
-                    line[k++] = (byte) (p >> 8);
-                    line[k++] = (byte) p;
-                }
-                z.write(line);
+
+        /** {@code img} packed now when it is opaque RGB ({@link Packed}), else kept for {@link LosslessFactory}. */
+        static Picture of(BufferedImage img) {
+            Packed p = Packed.of(img);
+            return new Picture(p, p == null ? img : null);
+        }
+
+        PDImageXObject embed(PDDocument doc) throws IOException {
+            return packed != null ? packed.embed(doc) : LosslessFactory.createFromImage(doc, image);
+        }
+    }
+
+    /** A picture drawn from a {@link Picture} made ahead, as {@link #image(BufferedImage, float, float, float, float)}. */
+    void image(Picture picture, float x, float yTop, float w, float h) throws IOException {
+        if (cs == null) {
+            return;
+        }
+        cs.drawImage(picture.embed(doc), x, HEIGHT - yTop - h, w, h);
+    }
+
+    /** An opaque RGB picture's 8-bit RGB samples, Flate-compressed without predictors ({@link #embed}). */
+    record Packed(int width, int height, byte[] flate) {
+        /** The samples of {@code img}, null when it is not {@code TYPE_INT_RGB}. */
+        static Packed of(BufferedImage img) {
+            if (img.getType() != BufferedImage.TYPE_INT_RGB) {
+                return null;
             }
-        } finally {
-            deflater.end();
+            int w = img.getWidth();
+            int h = img.getHeight();
+            int[] row = new int[w];
+            byte[] line = new byte[3 * w];
+            ByteArrayOutputStream packed = new ByteArrayOutputStream(w * h);
+            Deflater deflater = new Deflater(Deflater.DEFAULT_COMPRESSION);
+            try (DeflaterOutputStream z = new DeflaterOutputStream(packed, deflater, 1 << 16)) {
+                for (int y = 0; y < h; y++) {
+                    img.getRGB(0, y, w, 1, row, 0, w);
+                    for (int i = 0, k = 0; i < w; i++) {
+                        int p = row[i];
+                        line[k++] = (byte) (p >> 16);
+                        line[k++] = (byte) (p >> 8);
+                        line[k++] = (byte) p;
+                    }
+                    z.write(line);
+                }
+            } catch (IOException e) {
+                throw new UncheckedIOException(e); // a stream in memory
+            } finally {
+                deflater.end();
+            }
+            return new Packed(w, h, packed.toByteArray());
         }
-        return new PDImageXObject(doc, new ByteArrayInputStream(packed.toByteArray()), COSName.FLATE_DECODE, w, h,
-                8, PDDeviceRGB.INSTANCE);
+
+        PDImageXObject embed(PDDocument doc) throws IOException {
+            return new PDImageXObject(doc, new ByteArrayInputStream(flate), COSName.FLATE_DECODE, width, height, 8,
+                    PDDeviceRGB.INSTANCE);
+        }
     }
 
     void rect(float x, float yTop, float w, float h, Color stroke, Color fill, float lineWidth) throws IOException {

@@ -22,12 +22,20 @@ final class ReportFlow implements Closeable {
     static final float BOTTOM = PdfPage.HEIGHT - PdfPage.MARGIN;
 
     private final PDDocument doc;
+    /** The page that the flow's pages go before, null: after the last. */
+    private final org.apache.pdfbox.pdmodel.PDPage before;
     private PdfPage page;
     private float y;
     private String title = "";
 
     ReportFlow(PDDocument doc) {
+        this(doc, null);
+    }
+
+    /** A flow whose pages go before {@code before}, a page of {@code doc} (null: after the last page). */
+    ReportFlow(PDDocument doc, org.apache.pdfbox.pdmodel.PDPage before) {
         this.doc = doc;
+        this.before = before;
     }
 
     PdfPage page() throws IOException {
@@ -52,7 +60,7 @@ final class ReportFlow implements Closeable {
 
     void newPage() throws IOException {
         close();
-        page = new PdfPage(doc);
+        page = new PdfPage(doc, before);
         y = PdfPage.MARGIN;
     }
 
@@ -131,35 +139,68 @@ final class ReportFlow implements Closeable {
      * (a word longer than its column is cut with dots), a light rule between rows.
      */
     void table(float[] widths, boolean[] right, String[] header, List<String[]> rows, float size) throws IOException {
-        float leading = size * 1.3f;
-        float total = 0;
-        for (float w : widths) {
-            total += w;
-        }
-        List<List<List<String>>> cells = new ArrayList<>();
+        Table t = table(widths, right, header, size);
         for (String[] row : rows) {
-            cells.add(wrapRow(row, widths, PdfPage.REGULAR, size));
+            t.row(row);
         }
-        List<List<String>> head = wrapRow(header, widths, PdfPage.BOLD, size);
-        float headH = height(head) * leading + 4;
-        if (cells.isEmpty()) {
-            need(headH);
-            header(head, widths, right, size, leading, total);
+        t.end();
+    }
+
+    /** A {@linkplain #table(float[], boolean[], String[], List, float) table} drawn row by row: rows, then the end. */
+    Table table(float[] widths, boolean[] right, String[] header, float size) {
+        return new Table(widths, right, header, size);
+    }
+
+    /** A table being drawn down the flow, one row at a time ({@link #table(float[], boolean[], String[], float)}). */
+    final class Table {
+        private final float[] widths;
+        private final boolean[] right;
+        private final float size;
+        private final float leading;
+        private final float total;
+        private final List<List<String>> head;
+        private final float headH;
+        private int rows;
+
+        private Table(float[] widths, boolean[] right, String[] header, float size) {
+            this.widths = widths.clone();
+            this.right = right == null ? null : right.clone();
+            this.size = size;
+            this.leading = size * 1.3f;
+            float sum = 0;
+            for (float w : widths) {
+                sum += w;
+            }
+            this.total = sum;
+            this.head = wrapRow(header, widths, PdfPage.BOLD, size);
+            this.headH = height(head) * leading + 4;
         }
-        for (int r = 0; r < cells.size(); r++) {
-            float rowH = height(cells.get(r)) * leading + 2;
-            if (r == 0) {
+
+        /** The next row; the header goes above the first row and is repeated on each page the table runs onto. */
+        void row(String[] row) throws IOException {
+            List<List<String>> cells = wrapRow(row, widths, PdfPage.REGULAR, size);
+            float rowH = height(cells) * leading + 2;
+            if (rows == 0) {
                 need(headH + rowH);
                 header(head, widths, right, size, leading, total);
             } else if (need(rowH)) {
                 header(head, widths, right, size, leading, total);
             }
-            drawRow(cells.get(r), widths, right, PdfPage.REGULAR, size, leading);
-            y += height(cells.get(r)) * leading;
+            drawRow(cells, widths, right, PdfPage.REGULAR, size, leading);
+            y += height(cells) * leading;
             page.line(LEFT, y + 0.5f, LEFT + total, y + 0.5f, PdfPage.LIGHT_RULE, 0.3f);
             y += 2;
+            rows++;
         }
-        y += 4;
+
+        /** After the last row (a table without rows is its header alone). */
+        void end() throws IOException {
+            if (rows == 0) {
+                need(headH);
+                header(head, widths, right, size, leading, total);
+            }
+            y += 4;
+        }
     }
 
     private void header(List<List<String>> head, float[] widths, boolean[] right, float size, float leading,

@@ -1,0 +1,101 @@
+package trapmap.viewer.report;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import org.apache.pdfbox.Loader;
+import org.apache.pdfbox.pdmodel.PDDocument;
+import org.apache.pdfbox.text.PDFTextStripper;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import trapmap.maps.batch.BatchInspection;
+import trapmap.maps.batch.Rules;
+import trapmap.shared.progress.ProgressListener;
+
+/**
+ * The summary drawn while the batch runs ({@link SummaryDraft}) is the document {@link BatchReport#writeFor} draws
+ * from the finished folder: the same pages with the same text, on a table of several pages, with failed wafers,
+ * errors and recurrence; where a wafer id recurs it draws the whole document at the end, the same again.
+ */
+class SummaryDraftTest {
+    @BeforeAll
+    static void headless() {
+        System.setProperty("java.awt.headless", "true");
+    }
+
+    @Test
+    void draftEqualsTheSummaryDrawnFromTheFolder(@TempDir Path dir) throws Exception {
+        List<Path> files = new ArrayList<>();
+        Path in = Files.createDirectories(dir.resolve("in"));
+        for (int i = 0; i < 70; i++) { // more than one page of the wafer table
+            files.add(BatchReportTest.wafer(in, String.format("W-%03d", i), i % 7 == 3 ? 40 : 80 + i,
+                    i % 5 == 1 ? 6 : 0));
+        }
+        Path broken = in.resolve("broken.tif");
+        Files.writeString(broken, "not a map");
+        files.add(35, broken);
+        SummaryDraft draft = drawn(files, dir.resolve("out"), 2);
+
+        assertThat(draft.drewAhead()).isTrue();
+        assertSameAsFromFolder(dir.resolve("out"));
+    }
+
+    @Test
+    void aRecurringWaferIdDrawsItAllAtTheEndTheSame(@TempDir Path dir) throws Exception {
+        Path a = Files.createDirectories(dir.resolve("a"));
+        Path b = Files.createDirectories(dir.resolve("b"));
+        List<Path> files = new ArrayList<>();
+        for (int i = 0; i < 8; i++) {
+            files.add(BatchReportTest.wafer(a, "W-" + i, 80, i == 2 ? 6 : 0));
+        }
+        files.add(BatchReportTest.wafer(b, "W-3", 30, 0)); // the id of an earlier wafer, another state of it
+        SummaryDraft draft = drawn(files, dir.resolve("out"), 1);
+
+        assertThat(draft.drewAhead()).isFalse();
+        assertSameAsFromFolder(dir.resolve("out"));
+    }
+
+    private static SummaryDraft drawn(List<Path> files, Path out, int workers) throws Exception {
+        Rules rules = Rules.parse(BatchReportTest.RULES, "rules.json");
+        BatchInspection batch = new BatchInspection(rules);
+        try (SummaryDraft draft = SummaryDraft.start(out, rules, files.size(), () -> true)) {
+            batch.tellingRows(draft).warmingUp(draft::warmedUp).finishingWith((d, recurrence) -> {
+                try {
+                    draft.write(d, recurrence, batch.rows(), batch.rowsAsTold());
+                } catch (InterruptedException e) {
+                    throw new AssertionError(e);
+                }
+            }).run(files, out, new BatchInspection.Options(workers, false, true, ProgressListener.NONE));
+            return draft;
+        }
+    }
+
+    private static void assertSameAsFromFolder(Path out) throws Exception {
+        Rules rules = Rules.parse(BatchReportTest.RULES, "rules.json");
+        Path drafted = Files.move(out.resolve(BatchReport.FILE_NAME), out.resolve("drafted.pdf"));
+        Path folder = BatchReport.writeFor(out, rules);
+        try (PDDocument d = Loader.loadPDF(drafted.toFile()); PDDocument f = Loader.loadPDF(folder.toFile())) {
+            assertThat(d.getNumberOfPages()).isEqualTo(f.getNumberOfPages()).isGreaterThan(3);
+            assertThat(d.getDocumentInformation().getTitle()).isEqualTo(f.getDocumentInformation().getTitle());
+            for (int p = 1; p <= d.getNumberOfPages(); p++) {
+                assertThat(undated(text(d, p))).as("page %d", p).isEqualTo(undated(text(f, p)));
+            }
+        }
+    }
+
+    private static String text(PDDocument doc, int page) throws Exception {
+        PDFTextStripper s = new PDFTextStripper();
+        s.setStartPage(page);
+        s.setEndPage(page);
+        return s.getText(doc);
+    }
+
+    /** The text less the minute it was written at (the two documents may be a minute apart). */
+    private static String undated(String text) {
+        return text.replaceAll("\\d{4}-\\d{2}-\\d{2} \\d{2}:\\d{2} \\S+", "DATE");
+    }
+}
