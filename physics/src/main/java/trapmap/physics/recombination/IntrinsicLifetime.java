@@ -77,6 +77,63 @@ public final class IntrinsicLifetime {
         return sum * (augerDopingCm3PerS + 3.0e-29 * AUGER_INJECTION_POWER.of(dn) + b);
     }
 
+    /**
+     * The Taylor coefficients of the rate {@link #rateConstantPerS} around Δn = {@code x0} (> 0) in the relative
+     * offset t = Δn/x0 − 1: rate(x0·(1 + t)) = Σ_k out[offset + k]·t^k, k = 0 … {@code terms} − 1, in 1/s. Built by
+     * power-series arithmetic from the same formula, each factor exact in t:
+     * <pre>
+     * n0 + p0 + Δn = s + x0 t,  s = n0 + p0 + x0;   n + p = N (1 + r t),  N = s + x0,  r = 2 x0/N
+     * Δn^0.92 = x0^0.92 (1 + t)^0.92,  (n + p)^a = N^a (1 + r t)^a   (binomial series)
+     * B_rel = b_min + (1 − b_min)/D(t),  1/D by the recurrence of a series' reciprocal
+     * </pre>
+     * Every series converges for |t| well beyond 2^-9 (the nearest singularity, at r t = −1 or a zero of D, lies at
+     * |t| of order 1), so for |t| ≤ 2^-9 six terms leave a truncation below 1e-16 of the rate; the coefficients carry
+     * the rounding of their own computation, relative to the rate's size times |t|^k. For tables of the rate over
+     * many injection levels (one per table node, see the conversion kernel).
+     */
+    public void rateSeries(double x0, double[] out, int offset, int terms) {
+        double s = sumN0P0 + x0;
+        double bigN = s + x0;
+        double r = 2 * x0 / bigN;
+        double[] injection = binomialSeries(0.92, 1.0, 3.0e-29 * Math.pow(x0, 0.92), terms);
+        double[] d = binomialSeries(0.54, r, Math.pow(bigN, 0.54) * screening.b1Factor(), terms);
+        double[] d3 = binomialSeries(1.25, r, Math.pow(bigN * screening.inverseB3(), 1.25), terms);
+        for (int k = 0; k < terms; k++) {
+            d[k] += d3[k];
+        }
+        d[0] += 1;
+        double[] q = new double[terms]; // 1/D
+        q[0] = 1 / d[0];
+        for (int k = 1; k < terms; k++) {
+            double acc = 0;
+            for (int i = 1; i <= k; i++) {
+                acc += d[i] * q[k - i];
+            }
+            q[k] = -acc * q[0];
+        }
+        double radiative = bLowCm3PerS * screening.span();
+        double previous = 0;
+        for (int k = 0; k < terms; k++) {
+            double inner = injection[k] + radiative * q[k];
+            if (k == 0) {
+                inner += augerDopingCm3PerS + bLowCm3PerS * screening.minimum();
+            }
+            out[offset + k] = s * inner + x0 * previous;
+            previous = inner;
+        }
+    }
+
+    /** scale·C(a, k)·r^k, k = 0 … terms − 1: the series of scale·(1 + r t)^a in t. */
+    private static double[] binomialSeries(double a, double r, double scale, int terms) {
+        double[] c = new double[terms];
+        double term = scale;
+        for (int k = 0; k < terms; k++) {
+            c[k] = term;
+            term *= (a - k) / (k + 1) * r;
+        }
+        return c;
+    }
+
     /** The temperature at which Richter 2012 was measured and validated, K. */
     public static final double VALIDATED_TEMPERATURE_K = 300;
     /**
