@@ -97,6 +97,15 @@ final class InjectionTables {
         }
     }
 
+    /**
+     * The table of the biased exponent {@code e} (1 … 2046) if it is built, else null (then {@link #table} builds
+     * it): for loops that keep the building out of their body.
+     */
+    double[] built(int e) {
+        Part p = parts[e];
+        return p != null ? p.c : null;
+    }
+
     /** The table of the biased exponent {@code e} (1 … 2046), built on first use. */
     double[] table(int e) {
         Part p = parts[e];

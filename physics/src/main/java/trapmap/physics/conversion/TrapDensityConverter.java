@@ -280,7 +280,7 @@ public final class TrapDensityConverter {
         int rows = n / width;
         Tally total = new Tally();
         if (threads <= 1 || rows < 2) {
-            convertRange(effectiveLifetimeUs, 0, n, out, total);
+            convertInSteps(effectiveLifetimeUs, 0, n, width, out, total);
             return total;
         }
         int blocks = Math.min(rows, threads * 16);
@@ -289,8 +289,8 @@ public final class TrapDensityConverter {
         try {
             pool.submit(() -> IntStream.range(0, blocks).parallel().forEach(b -> {
                 Tally t = new Tally();
-                convertRange(effectiveLifetimeUs, (int) ((long) rows * b / blocks) * width,
-                        (int) ((long) rows * (b + 1) / blocks) * width, out, t);
+                convertInSteps(effectiveLifetimeUs, (int) ((long) rows * b / blocks) * width,
+                        (int) ((long) rows * (b + 1) / blocks) * width, width, out, t);
                 parts[b] = t;
             })).join();
         } finally {
@@ -300,6 +300,23 @@ public final class TrapDensityConverter {
             total.add(t);
         }
         return total;
+    }
+
+    /** Pixels per call of the kernel when a raster is converted whole (rounded to whole rows). */
+    private static final int STEP_PIXELS = 4096;
+
+    /**
+     * {@link #convertRange} over {@code [from, to)} in calls of whole rows of about {@value #STEP_PIXELS} pixels: in a
+     * fresh process a call that starts in the interpreter or the first compiler tier stays there to its end (or is
+     * compiled a second time, on the stack, for its loop), so a block of a million pixels in one call would run
+     * there; with short calls the just-in-time compiler compiles the kernel once, as a whole method, and the next call
+     * runs the compiled code. Same pixels and counts as one call (see {@link #convertRows}).
+     */
+    private void convertInSteps(float[] tau, int from, int to, int width, ConversionOutput out, Tally tally) {
+        int step = Math.max(1, STEP_PIXELS / width) * width;
+        for (int start = from; start < to; start += step) {
+            convertRange(tau, start, Math.min(to, start + step), out, tally);
+        }
     }
 
     /**
@@ -403,8 +420,13 @@ public final class TrapDensityConverter {
                 && out.srhLifetimeUs == null && out.injection == null && out.lifetimeAtReferenceUs == null
                 && out.warnings == null) {
             generationDensityRange(tau, from, to, out, tally);
-            return;
+        } else {
+            generalRange(tau, from, to, out, tally);
         }
+    }
+
+    /** The array kernel for any planes (see {@link #convertRange}). */
+    private void generalRange(float[] tau, int from, int to, ConversionOutput out, Tally tally) {
         final float[] ntOut = out.trapDensity;
         final float[] minOut = out.trapDensityMin;
         final float[] maxOut = out.trapDensityMax;
@@ -452,82 +474,91 @@ public final class TrapDensityConverter {
         int surfaceLimited = 0;
         int lowInjectionCount = 0;
         int skipped = 0;
-        for (int i = from; i < to; i++) {
-            double tauUs = tau[i];
-            if (!(tauUs >= LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY)) {
-                notConverted(tau[i], out, i, tally);
-                skipped++;
-                continue;
-            }
-            double tauS = tauUs * Units.S_PER_US;
-            if (generation) {
-                dn = g * tauS;
-                long bits = Double.doubleToRawLongBits(dn);
-                int e = InjectionTables.exponent(bits);
-                if (e != InjectionTables.NOT_FINITE) { // always, for a float lifetime and G <= 1e24 cm^-3 s^-1
-                    double[] table = tab.table(e);
-                    int at = InjectionTables.nodeOffset(bits);
-                    double t = InjectionTables.offset(bits);
-                    intrinsicRate = InjectionTables.series(table, at, t);
-                    k = InjectionTables.series(table, at + seriesK, t);
-                } else {
-                    intrinsicRate = intr.rateConstantPerS(dn);
-                    k = (ka + kb * dn) * (1.0 / (sum0 + dn));
+        int i = from;
+        while (i < to) { // a second round only after building a table, see the break below
+            for (; i < to; i++) {
+                double tauUs = tau[i];
+                if (!(tauUs >= LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY)) {
+                    notConverted(tau[i], out, i, tally);
+                    skipped++;
+                    continue;
                 }
-                if (minOut != null || maxOut != null) {
-                    double inverseSum = 1.0 / (sum0 + dn);
-                    kMin = (kMinAl + kMinBl * dn) * inverseSum;
-                    kMax = (kMaxAl + kMaxBl * dn) * inverseSum;
+                double tauS = tauUs * Units.S_PER_US;
+                if (generation) {
+                    dn = g * tauS;
+                    long bits = Double.doubleToRawLongBits(dn);
+                    int e = InjectionTables.exponent(bits);
+                    if (e != InjectionTables.NOT_FINITE) { // always, for a float lifetime and G <= 1e24 cm^-3 s^-1
+                        double[] table = tab.built(e);
+                        if (table == null) {
+                            break; // built below, outside the loop, which stays free of the call
+                        }
+                        int at = InjectionTables.nodeOffset(bits);
+                        double t = InjectionTables.offset(bits);
+                        intrinsicRate = InjectionTables.series(table, at, t);
+                        k = InjectionTables.series(table, at + seriesK, t);
+                    } else {
+                        intrinsicRate = intr.rateConstantPerS(dn);
+                        k = (ka + kb * dn) * (1.0 / (sum0 + dn));
+                    }
+                    if (minOut != null || maxOut != null) {
+                        double inverseSum = 1.0 / (sum0 + dn);
+                        kMin = (kMinAl + kMinBl * dn) * inverseSum;
+                        kMax = (kMaxAl + kMaxBl * dn) * inverseSum;
+                    }
+                    if (occOut != null) {
+                        occupancy = (ftNa + ftNb * dn) / (ftDa + ftDb * dn);
+                    }
+                }
+                double srhRate = 1.0 / tauS - intrinsicRate - surface;
+                double detectableRate = resolution * (intrinsicRate + surface);
+                // The decisions below are taken without branches, since on a map they fall either way at random and a
+                // mispredicted branch costs more than the whole pixel: for a converted pixel every value compared is
+                // finite (τ_eff < 3.5e32 s, G ≤ 1e24 cm^-3 s^-1) and each right-hand side is > 0, so a > b exactly when
+                // b − a is negative (it is +0 when they are equal), i.e. has its sign bit set.
+                int below = signBit(srhRate - detectableRate); // 1: BELOW_LIMIT, 0: OK (srhRate >= detectableRate)
+                double rate = select(below, srhRate, detectableRate);
+                double nt = k * rate;
+                ok += 1 - below;
+                double smaller = select(signBit(doping - dn), dn, doping); // min(Δn, N_dop); Math.min is slow in C2
+                int small = (1 - below) & signBit(limitFactor * smaller - nt);
+                int limited = signBit(0.5 - surface * tauS);
+                int lowInj = surfaceFlag & signBit(lowInjection - dn);
+                notSmall += small;
+                surfaceLimited += limited;
+                lowInjectionCount += lowInj;
+                if (ntOut != null) {
+                    ntOut[i] = (float) nt;
+                }
+                if (minOut != null) {
+                    minOut[i] = (float) (kMin * rate);
+                }
+                if (maxOut != null) {
+                    maxOut[i] = (float) (kMax * rate);
                 }
                 if (occOut != null) {
-                    occupancy = (ftNa + ftNb * dn) / (ftDa + ftDb * dn);
+                    occOut[i] = (float) occupancy;
+                }
+                if (srhOut != null) {
+                    srhOut[i] = (float) select(below, Units.US_PER_S / srhRate, Double.POSITIVE_INFINITY);
+                }
+                if (dnOut != null) {
+                    dnOut[i] = (float) dn;
+                }
+                if (refOut != null) {
+                    refOut[i] = reference ? (float) (Units.US_PER_S / (select(below, nt * invRefK, 0) + refIntrinsic
+                            + surface)) : Float.NaN;
+                }
+                if (statusOut != null) {
+                    statusOut[i] = (byte) (OK_CODE + below * (BELOW_LIMIT_CODE - OK_CODE));
+                }
+                if (warnOut != null) {
+                    warnOut[i] = (byte) (base | (small * NOT_SMALL_BIT) | (limited * SURFACE_LIMITED_BIT)
+                            | (lowInj * LOW_INJECTION_BIT));
                 }
             }
-            double srhRate = 1.0 / tauS - intrinsicRate - surface;
-            double detectableRate = resolution * (intrinsicRate + surface);
-            // The decisions below are taken without branches, since on a map they fall either way at random and a
-            // mispredicted branch costs more than the whole pixel: for a converted pixel every value compared is
-            // finite (τ_eff < 3.5e32 s, G ≤ 1e24 cm^-3 s^-1) and each right-hand side is > 0, so a > b exactly when
-            // b − a is negative (it is +0 when they are equal), i.e. has its sign bit set.
-            int below = signBit(srhRate - detectableRate); // 1: BELOW_LIMIT, 0: OK (srhRate >= detectableRate)
-            double rate = select(below, srhRate, detectableRate);
-            double nt = k * rate;
-            ok += 1 - below;
-            double smaller = select(signBit(doping - dn), dn, doping); // min(Δn, N_dop); Math.min is slow in C2
-            int small = (1 - below) & signBit(limitFactor * smaller - nt);
-            int limited = signBit(0.5 - surface * tauS);
-            int lowInj = surfaceFlag & signBit(lowInjection - dn);
-            notSmall += small;
-            surfaceLimited += limited;
-            lowInjectionCount += lowInj;
-            if (ntOut != null) {
-                ntOut[i] = (float) nt;
-            }
-            if (minOut != null) {
-                minOut[i] = (float) (kMin * rate);
-            }
-            if (maxOut != null) {
-                maxOut[i] = (float) (kMax * rate);
-            }
-            if (occOut != null) {
-                occOut[i] = (float) occupancy;
-            }
-            if (srhOut != null) {
-                srhOut[i] = (float) select(below, Units.US_PER_S / srhRate, Double.POSITIVE_INFINITY);
-            }
-            if (dnOut != null) {
-                dnOut[i] = (float) dn;
-            }
-            if (refOut != null) {
-                refOut[i] = reference ? (float) (Units.US_PER_S / (select(below, nt * invRefK, 0) + refIntrinsic
-                        + surface)) : Float.NaN;
-            }
-            if (statusOut != null) {
-                statusOut[i] = (byte) (OK_CODE + below * (BELOW_LIMIT_CODE - OK_CODE));
-            }
-            if (warnOut != null) {
-                warnOut[i] = (byte) (base | (small * NOT_SMALL_BIT) | (limited * SURFACE_LIMITED_BIT)
-                        | (lowInj * LOW_INJECTION_BIT));
+            if (i < to) {
+                tab.table(InjectionTables.exponent(Double.doubleToRawLongBits(g * (tau[i] * Units.S_PER_US))));
             }
         }
         addCounts(tally, to - from - skipped, ok, notSmall, surfaceLimited, lowInjectionCount);
@@ -560,45 +591,54 @@ public final class TrapDensityConverter {
         int surfaceLimited = 0;
         int lowInjectionCount = 0;
         int skipped = 0;
-        for (int i = from; i < to; i++) {
-            double tauUs = tau[i];
-            if (!(tauUs >= LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY)) {
-                notConverted(tau[i], out, i, tally);
-                skipped++;
-                continue;
+        int i = from;
+        while (i < to) { // a second round only after building a table, see the break below
+            for (; i < to; i++) {
+                double tauUs = tau[i];
+                if (!(tauUs >= LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY)) {
+                    notConverted(tau[i], out, i, tally);
+                    skipped++;
+                    continue;
+                }
+                double tauS = tauUs * Units.S_PER_US;
+                double dn = g * tauS;
+                long bits = Double.doubleToRawLongBits(dn);
+                int e = InjectionTables.exponent(bits);
+                double intrinsicRate;
+                double k;
+                if (e != InjectionTables.NOT_FINITE) { // always, for a float lifetime and G <= 1e24 cm^-3 s^-1
+                    double[] table = tab.built(e);
+                    if (table == null) {
+                        break; // built below, outside the loop, which stays free of the call
+                    }
+                    int at = InjectionTables.nodeOffset(bits);
+                    double t = InjectionTables.offset(bits);
+                    intrinsicRate = InjectionTables.series(table, at, t);
+                    k = InjectionTables.series(table, at + seriesK, t);
+                } else {
+                    intrinsicRate = intr.rateConstantPerS(dn);
+                    k = (ka + kb * dn) * (1.0 / (sum0 + dn));
+                }
+                double srhRate = 1.0 / tauS - intrinsicRate - surface;
+                double detectableRate = resolution * (intrinsicRate + surface);
+                // Without branches, as in generalRange (see there).
+                int below = signBit(srhRate - detectableRate);
+                double rate = select(below, srhRate, detectableRate);
+                double nt = k * rate;
+                ok += 1 - below;
+                double smaller = select(signBit(doping - dn), dn, doping);
+                notSmall += (1 - below) & signBit(limitFactor * smaller - nt);
+                surfaceLimited += signBit(0.5 - surface * tauS);
+                lowInjectionCount += surfaceFlag & signBit(lowInjection - dn);
+                if (ntOut != null) {
+                    ntOut[i] = (float) nt;
+                }
+                if (statusOut != null) {
+                    statusOut[i] = (byte) (OK_CODE + below * (BELOW_LIMIT_CODE - OK_CODE));
+                }
             }
-            double tauS = tauUs * Units.S_PER_US;
-            double dn = g * tauS;
-            long bits = Double.doubleToRawLongBits(dn);
-            int e = InjectionTables.exponent(bits);
-            double intrinsicRate;
-            double k;
-            if (e != InjectionTables.NOT_FINITE) { // always, for a float lifetime and G <= 1e24 cm^-3 s^-1
-                double[] table = tab.table(e);
-                int at = InjectionTables.nodeOffset(bits);
-                double t = InjectionTables.offset(bits);
-                intrinsicRate = InjectionTables.series(table, at, t);
-                k = InjectionTables.series(table, at + seriesK, t);
-            } else {
-                intrinsicRate = intr.rateConstantPerS(dn);
-                k = (ka + kb * dn) * (1.0 / (sum0 + dn));
-            }
-            double srhRate = 1.0 / tauS - intrinsicRate - surface;
-            double detectableRate = resolution * (intrinsicRate + surface);
-            // Without branches, as in convertRange's general loop (see there).
-            int below = signBit(srhRate - detectableRate);
-            double rate = select(below, srhRate, detectableRate);
-            double nt = k * rate;
-            ok += 1 - below;
-            double smaller = select(signBit(doping - dn), dn, doping);
-            notSmall += (1 - below) & signBit(limitFactor * smaller - nt);
-            surfaceLimited += signBit(0.5 - surface * tauS);
-            lowInjectionCount += surfaceFlag & signBit(lowInjection - dn);
-            if (ntOut != null) {
-                ntOut[i] = (float) nt;
-            }
-            if (statusOut != null) {
-                statusOut[i] = (byte) (OK_CODE + below * (BELOW_LIMIT_CODE - OK_CODE));
+            if (i < to) {
+                tab.table(InjectionTables.exponent(Double.doubleToRawLongBits(g * (tau[i] * Units.S_PER_US))));
             }
         }
         addCounts(tally, to - from - skipped, ok, notSmall, surfaceLimited, lowInjectionCount);
