@@ -1,6 +1,7 @@
 package trapmap.physics.conversion;
 
 import trapmap.physics.recombination.IntrinsicLifetime;
+import trapmap.shared.units.Units;
 
 /**
  * The two injection-dependent terms of the kernel for fixed generation, 1/τ_intr(Δn) and K(Δn) = (a + b·Δn)/(n0 +
@@ -98,12 +99,40 @@ final class InjectionTables {
     }
 
     /**
-     * The table of the biased exponent {@code e} (1 … 2046) if it is built, else null (then {@link #table} builds
-     * it): for loops that keep the building out of their body.
+     * The table of the biased exponent {@code e}, which must have been built ({@link #prepare}): for loops that keep
+     * the building and its test out of their body.
      */
     double[] built(int e) {
-        Part p = parts[e];
-        return p != null ? p.c : null;
+        return parts[e].c;
+    }
+
+    /**
+     * Builds the tables of every Δn = {@code generation}·τ for the lifetimes τ (µs) of {@code tau[from, to)}
+     * that the kernel converts (τ ≥ {@code floorUs}, finite): those of the exponents from the smallest Δn's to the
+     * largest's, since Δn rounds monotonically with τ.
+     */
+    void prepare(float[] tau, int from, int to, double generation, double floorUs) {
+        float lo = Float.POSITIVE_INFINITY;
+        float hi = 0;
+        for (int i = from; i < to; i++) {
+            float t = tau[i];
+            if (t >= floorUs && t < lo) {
+                lo = t;
+            }
+            if (t > hi && t != Float.POSITIVE_INFINITY) {
+                hi = t;
+            }
+        }
+        if (hi < floorUs) {
+            return; // nothing converted
+        }
+        int first = exponent(Double.doubleToRawLongBits(generation * (lo * Units.S_PER_US)));
+        int last = exponent(Double.doubleToRawLongBits(generation * (hi * Units.S_PER_US)));
+        for (int e = first; e <= last && e < NOT_FINITE; e++) {
+            if (parts[e] == null) {
+                table(e);
+            }
+        }
     }
 
     /** The table of the biased exponent {@code e} (1 … 2046), built on first use. */

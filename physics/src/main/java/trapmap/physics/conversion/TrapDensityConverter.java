@@ -474,91 +474,85 @@ public final class TrapDensityConverter {
         int surfaceLimited = 0;
         int lowInjectionCount = 0;
         int skipped = 0;
-        int i = from;
-        while (i < to) { // a second round only after building a table, see the break below
-            for (; i < to; i++) {
-                double tauUs = tau[i];
-                if (!(tauUs >= LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY)) {
-                    notConverted(tau[i], out, i, tally);
-                    skipped++;
-                    continue;
+        if (tab != null) {
+            tab.prepare(tau, from, to, g, LIFETIME_FLOOR_US); // the loop below finds every table it needs built
+        }
+        for (int i = from; i < to; i++) {
+            double tauUs = tau[i];
+            if (!(tauUs >= LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY)) {
+                notConverted(tau[i], out, i, tally);
+                skipped++;
+                continue;
+            }
+            double tauS = tauUs * Units.S_PER_US;
+            if (generation) {
+                dn = g * tauS;
+                long bits = Double.doubleToRawLongBits(dn);
+                int e = InjectionTables.exponent(bits);
+                if (e != InjectionTables.NOT_FINITE) { // always, for a float lifetime and G <= 1e24 cm^-3 s^-1
+                    double[] table = tab.built(e);
+                    int at = InjectionTables.nodeOffset(bits);
+                    double t = InjectionTables.offset(bits);
+                    intrinsicRate = InjectionTables.series(table, at, t);
+                    k = InjectionTables.series(table, at + seriesK, t);
+                } else {
+                    intrinsicRate = intr.rateConstantPerS(dn);
+                    k = (ka + kb * dn) * (1.0 / (sum0 + dn));
                 }
-                double tauS = tauUs * Units.S_PER_US;
-                if (generation) {
-                    dn = g * tauS;
-                    long bits = Double.doubleToRawLongBits(dn);
-                    int e = InjectionTables.exponent(bits);
-                    if (e != InjectionTables.NOT_FINITE) { // always, for a float lifetime and G <= 1e24 cm^-3 s^-1
-                        double[] table = tab.built(e);
-                        if (table == null) {
-                            break; // built below, outside the loop, which stays free of the call
-                        }
-                        int at = InjectionTables.nodeOffset(bits);
-                        double t = InjectionTables.offset(bits);
-                        intrinsicRate = InjectionTables.series(table, at, t);
-                        k = InjectionTables.series(table, at + seriesK, t);
-                    } else {
-                        intrinsicRate = intr.rateConstantPerS(dn);
-                        k = (ka + kb * dn) * (1.0 / (sum0 + dn));
-                    }
-                    if (minOut != null || maxOut != null) {
-                        double inverseSum = 1.0 / (sum0 + dn);
-                        kMin = (kMinAl + kMinBl * dn) * inverseSum;
-                        kMax = (kMaxAl + kMaxBl * dn) * inverseSum;
-                    }
-                    if (occOut != null) {
-                        occupancy = (ftNa + ftNb * dn) / (ftDa + ftDb * dn);
-                    }
-                }
-                double srhRate = 1.0 / tauS - intrinsicRate - surface;
-                double detectableRate = resolution * (intrinsicRate + surface);
-                // The decisions below are taken without branches, since on a map they fall either way at random and a
-                // mispredicted branch costs more than the whole pixel: for a converted pixel every value compared is
-                // finite (τ_eff < 3.5e32 s, G ≤ 1e24 cm^-3 s^-1) and each right-hand side is > 0, so a > b exactly when
-                // b − a is negative (it is +0 when they are equal), i.e. has its sign bit set.
-                int below = signBit(srhRate - detectableRate); // 1: BELOW_LIMIT, 0: OK (srhRate >= detectableRate)
-                double rate = select(below, srhRate, detectableRate);
-                double nt = k * rate;
-                ok += 1 - below;
-                double smaller = select(signBit(doping - dn), dn, doping); // min(Δn, N_dop); Math.min is slow in C2
-                int small = (1 - below) & signBit(limitFactor * smaller - nt);
-                int limited = signBit(0.5 - surface * tauS);
-                int lowInj = surfaceFlag & signBit(lowInjection - dn);
-                notSmall += small;
-                surfaceLimited += limited;
-                lowInjectionCount += lowInj;
-                if (ntOut != null) {
-                    ntOut[i] = (float) nt;
-                }
-                if (minOut != null) {
-                    minOut[i] = (float) (kMin * rate);
-                }
-                if (maxOut != null) {
-                    maxOut[i] = (float) (kMax * rate);
+                if (minOut != null || maxOut != null) {
+                    double inverseSum = 1.0 / (sum0 + dn);
+                    kMin = (kMinAl + kMinBl * dn) * inverseSum;
+                    kMax = (kMaxAl + kMaxBl * dn) * inverseSum;
                 }
                 if (occOut != null) {
-                    occOut[i] = (float) occupancy;
-                }
-                if (srhOut != null) {
-                    srhOut[i] = (float) select(below, Units.US_PER_S / srhRate, Double.POSITIVE_INFINITY);
-                }
-                if (dnOut != null) {
-                    dnOut[i] = (float) dn;
-                }
-                if (refOut != null) {
-                    refOut[i] = reference ? (float) (Units.US_PER_S / (select(below, nt * invRefK, 0) + refIntrinsic
-                            + surface)) : Float.NaN;
-                }
-                if (statusOut != null) {
-                    statusOut[i] = (byte) (OK_CODE + below * (BELOW_LIMIT_CODE - OK_CODE));
-                }
-                if (warnOut != null) {
-                    warnOut[i] = (byte) (base | (small * NOT_SMALL_BIT) | (limited * SURFACE_LIMITED_BIT)
-                            | (lowInj * LOW_INJECTION_BIT));
+                    occupancy = (ftNa + ftNb * dn) / (ftDa + ftDb * dn);
                 }
             }
-            if (i < to) {
-                tab.table(InjectionTables.exponent(Double.doubleToRawLongBits(g * (tau[i] * Units.S_PER_US))));
+            double srhRate = 1.0 / tauS - intrinsicRate - surface;
+            double detectableRate = resolution * (intrinsicRate + surface);
+            // The decisions below are taken without branches, since on a map they fall either way at random and a
+            // mispredicted branch costs more than the whole pixel: for a converted pixel every value compared is
+            // finite (τ_eff < 3.5e32 s, G ≤ 1e24 cm^-3 s^-1) and each right-hand side is > 0, so a > b exactly when
+            // b − a is negative (it is +0 when they are equal), i.e. has its sign bit set.
+            int below = signBit(srhRate - detectableRate); // 1: BELOW_LIMIT, 0: OK (srhRate >= detectableRate)
+            double rate = select(below, srhRate, detectableRate);
+            double nt = k * rate;
+            ok += 1 - below;
+            double smaller = select(signBit(doping - dn), dn, doping); // min(Δn, N_dop); Math.min is slow in C2
+            int small = (1 - below) & signBit(limitFactor * smaller - nt);
+            int limited = signBit(0.5 - surface * tauS);
+            int lowInj = surfaceFlag & signBit(lowInjection - dn);
+            notSmall += small;
+            surfaceLimited += limited;
+            lowInjectionCount += lowInj;
+            if (ntOut != null) {
+                ntOut[i] = (float) nt;
+            }
+            if (minOut != null) {
+                minOut[i] = (float) (kMin * rate);
+            }
+            if (maxOut != null) {
+                maxOut[i] = (float) (kMax * rate);
+            }
+            if (occOut != null) {
+                occOut[i] = (float) occupancy;
+            }
+            if (srhOut != null) {
+                srhOut[i] = (float) select(below, Units.US_PER_S / srhRate, Double.POSITIVE_INFINITY);
+            }
+            if (dnOut != null) {
+                dnOut[i] = (float) dn;
+            }
+            if (refOut != null) {
+                refOut[i] = reference ? (float) (Units.US_PER_S / (select(below, nt * invRefK, 0) + refIntrinsic
+                        + surface)) : Float.NaN;
+            }
+            if (statusOut != null) {
+                statusOut[i] = (byte) (OK_CODE + below * (BELOW_LIMIT_CODE - OK_CODE));
+            }
+            if (warnOut != null) {
+                warnOut[i] = (byte) (base | (small * NOT_SMALL_BIT) | (limited * SURFACE_LIMITED_BIT)
+                        | (lowInj * LOW_INJECTION_BIT));
             }
         }
         addCounts(tally, to - from - skipped, ok, notSmall, surfaceLimited, lowInjectionCount);
@@ -591,54 +585,46 @@ public final class TrapDensityConverter {
         int surfaceLimited = 0;
         int lowInjectionCount = 0;
         int skipped = 0;
-        int i = from;
-        while (i < to) { // a second round only after building a table, see the break below
-            for (; i < to; i++) {
-                double tauUs = tau[i];
-                if (!(tauUs >= LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY)) {
-                    notConverted(tau[i], out, i, tally);
-                    skipped++;
-                    continue;
-                }
-                double tauS = tauUs * Units.S_PER_US;
-                double dn = g * tauS;
-                long bits = Double.doubleToRawLongBits(dn);
-                int e = InjectionTables.exponent(bits);
-                double intrinsicRate;
-                double k;
-                if (e != InjectionTables.NOT_FINITE) { // always, for a float lifetime and G <= 1e24 cm^-3 s^-1
-                    double[] table = tab.built(e);
-                    if (table == null) {
-                        break; // built below, outside the loop, which stays free of the call
-                    }
-                    int at = InjectionTables.nodeOffset(bits);
-                    double t = InjectionTables.offset(bits);
-                    intrinsicRate = InjectionTables.series(table, at, t);
-                    k = InjectionTables.series(table, at + seriesK, t);
-                } else {
-                    intrinsicRate = intr.rateConstantPerS(dn);
-                    k = (ka + kb * dn) * (1.0 / (sum0 + dn));
-                }
-                double srhRate = 1.0 / tauS - intrinsicRate - surface;
-                double detectableRate = resolution * (intrinsicRate + surface);
-                // Without branches, as in generalRange (see there).
-                int below = signBit(srhRate - detectableRate);
-                double rate = select(below, srhRate, detectableRate);
-                double nt = k * rate;
-                ok += 1 - below;
-                double smaller = select(signBit(doping - dn), dn, doping);
-                notSmall += (1 - below) & signBit(limitFactor * smaller - nt);
-                surfaceLimited += signBit(0.5 - surface * tauS);
-                lowInjectionCount += surfaceFlag & signBit(lowInjection - dn);
-                if (ntOut != null) {
-                    ntOut[i] = (float) nt;
-                }
-                if (statusOut != null) {
-                    statusOut[i] = (byte) (OK_CODE + below * (BELOW_LIMIT_CODE - OK_CODE));
-                }
+        tab.prepare(tau, from, to, g, LIFETIME_FLOOR_US); // the loop below finds every table it needs built
+        for (int i = from; i < to; i++) {
+            double tauUs = tau[i];
+            if (!(tauUs >= LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY)) {
+                notConverted(tau[i], out, i, tally);
+                skipped++;
+                continue;
             }
-            if (i < to) {
-                tab.table(InjectionTables.exponent(Double.doubleToRawLongBits(g * (tau[i] * Units.S_PER_US))));
+            double tauS = tauUs * Units.S_PER_US;
+            double dn = g * tauS;
+            long bits = Double.doubleToRawLongBits(dn);
+            int e = InjectionTables.exponent(bits);
+            double intrinsicRate;
+            double k;
+            if (e != InjectionTables.NOT_FINITE) { // always, for a float lifetime and G <= 1e24 cm^-3 s^-1
+                double[] table = tab.built(e);
+                int at = InjectionTables.nodeOffset(bits);
+                double t = InjectionTables.offset(bits);
+                intrinsicRate = InjectionTables.series(table, at, t);
+                k = InjectionTables.series(table, at + seriesK, t);
+            } else {
+                intrinsicRate = intr.rateConstantPerS(dn);
+                k = (ka + kb * dn) * (1.0 / (sum0 + dn));
+            }
+            double srhRate = 1.0 / tauS - intrinsicRate - surface;
+            double detectableRate = resolution * (intrinsicRate + surface);
+            // Without branches, as in generalRange (see there).
+            int below = signBit(srhRate - detectableRate);
+            double rate = select(below, srhRate, detectableRate);
+            double nt = k * rate;
+            ok += 1 - below;
+            double smaller = select(signBit(doping - dn), dn, doping);
+            notSmall += (1 - below) & signBit(limitFactor * smaller - nt);
+            surfaceLimited += signBit(0.5 - surface * tauS);
+            lowInjectionCount += surfaceFlag & signBit(lowInjection - dn);
+            if (ntOut != null) {
+                ntOut[i] = (float) nt;
+            }
+            if (statusOut != null) {
+                statusOut[i] = (byte) (OK_CODE + below * (BELOW_LIMIT_CODE - OK_CODE));
             }
         }
         addCounts(tally, to - from - skipped, ok, notSmall, surfaceLimited, lowInjectionCount);
