@@ -1,5 +1,7 @@
 package trapmap.physics.conversion;
 
+import java.util.Arrays;
+import java.util.concurrent.atomic.AtomicReference;
 import trapmap.physics.recombination.IntrinsicLifetime;
 import trapmap.shared.units.Units;
 
@@ -53,11 +55,39 @@ final class InjectionTables {
      */
     private final Part[] parts = new Part[NOT_FINITE];
 
+    /** Everything the tables depend on: {@link IntrinsicLifetime#seriesParameters()}, n0 + p0, a and b of K. */
+    private final double[] key;
+    /**
+     * The tables made last, shared by the next converter of the same wafer and defect (a command's warm-up and its
+     * conversion, the bands of a map), so that their parts are built once per process: building is slow before the
+     * compiler has compiled it.
+     */
+    private static final AtomicReference<InjectionTables> LAST = new AtomicReference<>();
+
     InjectionTables(IntrinsicLifetime intrinsic, double sumN0P0, double kA, double kB) {
         this.intrinsic = intrinsic;
         this.sumN0P0 = sumN0P0;
         this.kA = kA;
         this.kB = kB;
+        double[] p = intrinsic.seriesParameters();
+        this.key = Arrays.copyOf(p, p.length + 3);
+        key[p.length] = sumN0P0;
+        key[p.length + 1] = kA;
+        key[p.length + 2] = kB;
+    }
+
+    /**
+     * The tables for these terms: those made last when they depend on the same numbers (bit for bit, so their
+     * coefficients are the same), else new ones.
+     */
+    static InjectionTables of(IntrinsicLifetime intrinsic, double sumN0P0, double kA, double kB) {
+        InjectionTables made = new InjectionTables(intrinsic, sumN0P0, kA, kB);
+        InjectionTables last = LAST.get();
+        if (last != null && Arrays.equals(last.key, made.key)) {
+            return last;
+        }
+        LAST.set(made);
+        return made;
     }
 
     /** The biased binary exponent of a positive double's bits (1 … 2046 for normal finite values). */

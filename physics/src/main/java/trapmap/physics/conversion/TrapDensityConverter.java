@@ -150,7 +150,7 @@ public final class TrapDensityConverter {
             tables = null;
         } else {
             fixedTerms = null;
-            tables = new InjectionTables(intrinsic, sumN0P0, kA, kB);
+            tables = InjectionTables.of(intrinsic, sumN0P0, kA, kB);
         }
         double ref = conditions.referenceInjectionPerCm3();
         hasReference = !Double.isNaN(ref);

@@ -123,6 +123,16 @@ public final class IntrinsicLifetime {
         }
     }
 
+    /**
+     * Every number {@link #rateSeries} depends on (n0 + p0, the doping part of the Auger coefficient, B_low and the
+     * screening constants): two instances with equal parameters give equal series, so tables built from one serve
+     * the other.
+     */
+    public double[] seriesParameters() {
+        return new double[] {sumN0P0, augerDopingCm3PerS, bLowCm3PerS, screening.minimum(), screening.span(),
+            screening.b1Factor(), screening.inverseB3()};
+    }
+
     /** scale·C(a, k)·r^k, k = 0 … terms − 1: the series of scale·(1 + r t)^a in t. */
     private static double[] binomialSeries(double a, double r, double scale, int terms) {
         double[] c = new double[terms];
