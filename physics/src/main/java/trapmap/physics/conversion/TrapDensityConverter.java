@@ -586,11 +586,18 @@ public final class TrapDensityConverter {
         int lowInjectionCount = 0;
         int skipped = 0;
         tab.prepare(tau, from, to, g, LIFETIME_FLOOR_US); // the loop below finds every table it needs built
+        // The samples not converted in a pass of their own, so that the main loop only skips them: with the call in
+        // it, C2 compiled the main loop about twice as slow in about half of the runs (24 instead of 11 ns a pixel).
+        for (int i = from; i < to; i++) {
+            float tauF = tau[i];
+            if (!(tauF >= LIFETIME_FLOOR_US && tauF != Float.POSITIVE_INFINITY)) {
+                notConverted(tauF, out, i, tally);
+                skipped++;
+            }
+        }
         for (int i = from; i < to; i++) {
             double tauUs = tau[i];
             if (!(tauUs >= LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY)) {
-                notConverted(tau[i], out, i, tally);
-                skipped++;
                 continue;
             }
             double tauS = tauUs * Units.S_PER_US;
