@@ -34,14 +34,12 @@ import trapmap.shared.units.Units;
  * <p>
  * Everything that depends only on the wafer is computed once in the constructor, including the coefficients a, b of
  * K for the nominal defect and both bounds, which share the denominator n0 + p0 + Δn. A pixel then costs a few
- * arithmetic operations (fixed injection) or, for fixed generation, a table look-up and two polynomials of degree 5
- * for 1/τ_intr and K ({@link InjectionTables}: Taylor series around 256 nodes per binary exponent of Δn, built on
- * first use) plus one division per bound and f_t when those are asked for. The rearranged and tabulated forms agree
- * with the literal ones to a few units in the last place (tested to 1e-14). The array kernel runs the single-pixel
- * path's operations in the same order, so their results agree exactly (array results are the single-pixel values
- * rounded to float); it computes only the planes asked for (with a loop of its own for the trap density and/or the
- * status alone), takes its per-pixel decisions without branches, and counts statuses and warnings on the way
- * ({@link Tally}). Rasters convert whole ({@link #convert(float[], int, ConversionOutput,
+ * arithmetic operations (fixed injection) or, for fixed generation, the intrinsic rate (two powers by table and
+ * series, two square roots, see {@link IntrinsicLifetime}) and one division per rational term. The rearranged forms
+ * agree with the literal ones to a few units in the last place. The array kernel runs the single-pixel path's
+ * operations in the same order, so their results agree exactly (array results are the single-pixel values rounded to
+ * float); it computes only the planes asked for, takes its per-pixel decisions without branches, and counts statuses
+ * and warnings on the way ({@link Tally}). Rasters convert whole ({@link #convert(float[], int, ConversionOutput,
  * int)}, over threads) or band by band ({@link #convertRows}). Immutable and thread-safe.
  */
 public final class TrapDensityConverter {
@@ -87,8 +85,6 @@ public final class TrapDensityConverter {
     private final double ftDenB;
     /** The injection terms at the fixed injection (null for fixed generation). */
     private final Pixel fixedTerms;
-    /** 1/τ_intr and K by table and series, for fixed generation (null for fixed injection). */
-    private final InjectionTables tables;
     // Reference injection for harmonised lifetimes.
     private final boolean hasReference;
     private final double referenceIntrinsicRate;
@@ -147,10 +143,8 @@ public final class TrapDensityConverter {
         if (fixedInjection) {
             fixedTerms = new Pixel();
             injectionTerms(injectionParameter, fixedTerms);
-            tables = null;
         } else {
             fixedTerms = null;
-            tables = InjectionTables.of(intrinsic, sumN0P0, kA, kB);
         }
         double ref = conditions.referenceInjectionPerCm3();
         hasReference = !Double.isNaN(ref);
@@ -211,30 +205,6 @@ public final class TrapDensityConverter {
         px.occupancy = (ftNumA + ftNumB * dn) / (ftDenA + ftDenB * dn);
     }
 
-    /**
-     * The injection-dependent terms at {@code dn} for fixed generation: as {@link #injectionTerms}, but 1/τ_intr and
-     * K from {@link InjectionTables} (the literal forms for a Δn too large for a table). The array kernel runs the
-     * same operations.
-     */
-    private void generationTerms(double dn, Pixel px) {
-        long bits = Double.doubleToRawLongBits(dn);
-        int e = InjectionTables.exponent(bits);
-        if (e == InjectionTables.NOT_FINITE) {
-            injectionTerms(dn, px);
-            return;
-        }
-        double[] table = tables.table(e);
-        int at = InjectionTables.nodeOffset(bits);
-        double t = InjectionTables.offset(bits);
-        double inverseSum = 1.0 / (sumN0P0 + dn);
-        px.dn = dn;
-        px.intrinsicRate = InjectionTables.series(table, at, t);
-        px.k = InjectionTables.series(table, at + InjectionTables.TERMS, t);
-        px.kMin = (kMinA + kMinB * dn) * inverseSum;
-        px.kMax = (kMaxA + kMaxB * dn) * inverseSum;
-        px.occupancy = (ftNumA + ftNumB * dn) / (ftDenA + ftDenB * dn);
-    }
-
     /** K(Δn) of the nominal defect, s·cm^-3 (N_t = K/τ_SRH), as in {@link #injectionTerms}. */
     private double lifetimeDensityProduct(double dn) {
         return (kA + kB * dn) * (1.0 / (sumN0P0 + dn));
@@ -280,7 +250,7 @@ public final class TrapDensityConverter {
         int rows = n / width;
         Tally total = new Tally();
         if (threads <= 1 || rows < 2) {
-            convertInSteps(effectiveLifetimeUs, 0, n, width, out, total);
+            convertRange(effectiveLifetimeUs, 0, n, out, total);
             return total;
         }
         int blocks = Math.min(rows, threads * 16);
@@ -289,8 +259,8 @@ public final class TrapDensityConverter {
         try {
             pool.submit(() -> IntStream.range(0, blocks).parallel().forEach(b -> {
                 Tally t = new Tally();
-                convertInSteps(effectiveLifetimeUs, (int) ((long) rows * b / blocks) * width,
-                        (int) ((long) rows * (b + 1) / blocks) * width, width, out, t);
+                convertRange(effectiveLifetimeUs, (int) ((long) rows * b / blocks) * width,
+                        (int) ((long) rows * (b + 1) / blocks) * width, out, t);
                 parts[b] = t;
             })).join();
         } finally {
@@ -300,23 +270,6 @@ public final class TrapDensityConverter {
             total.add(t);
         }
         return total;
-    }
-
-    /** Pixels per call of the kernel when a raster is converted whole (rounded to whole rows). */
-    private static final int STEP_PIXELS = 4096;
-
-    /**
-     * {@link #convertRange} over {@code [from, to)} in calls of whole rows of about {@value #STEP_PIXELS} pixels: in a
-     * fresh process a call that starts in the interpreter or the first compiler tier stays there to its end (or is
-     * compiled a second time, on the stack, for its loop), so a block of a million pixels in one call would run
-     * there; with short calls the just-in-time compiler compiles the kernel once, as a whole method, and the next call
-     * runs the compiled code. Same pixels and counts as one call (see {@link #convertRows}).
-     */
-    private void convertInSteps(float[] tau, int from, int to, int width, ConversionOutput out, Tally tally) {
-        int step = Math.max(1, STEP_PIXELS / width) * width;
-        for (int start = from; start < to; start += step) {
-            convertRange(tau, start, Math.min(to, start + step), out, tally);
-        }
     }
 
     /**
@@ -416,17 +369,6 @@ public final class TrapDensityConverter {
      * and warnings counted on the way.
      */
     private void convertRange(float[] tau, int from, int to, ConversionOutput out, Tally tally) {
-        if (!fixedInjection && out.trapDensityMin == null && out.trapDensityMax == null && out.occupancy == null
-                && out.srhLifetimeUs == null && out.injection == null && out.lifetimeAtReferenceUs == null
-                && out.warnings == null) {
-            generationDensityRange(tau, from, to, out, tally);
-        } else {
-            generalRange(tau, from, to, out, tally);
-        }
-    }
-
-    /** The array kernel for any planes (see {@link #convertRange}). */
-    private void generalRange(float[] tau, int from, int to, ConversionOutput out, Tally tally) {
         final float[] ntOut = out.trapDensity;
         final float[] minOut = out.trapDensityMin;
         final float[] maxOut = out.trapDensityMax;
@@ -459,8 +401,6 @@ public final class TrapDensityConverter {
         final double ftDa = ftDenA;
         final double ftDb = ftDenB;
         final IntrinsicLifetime intr = intrinsic;
-        final InjectionTables tab = tables;
-        final int seriesK = InjectionTables.TERMS;
         final int base = baseWarnings;
         // The injection terms: constants for fixed injection, per pixel for fixed generation.
         double dn = generation ? Double.NaN : fixedTerms.dn;
@@ -474,9 +414,6 @@ public final class TrapDensityConverter {
         int surfaceLimited = 0;
         int lowInjectionCount = 0;
         int skipped = 0;
-        if (tab != null) {
-            tab.prepare(tau, from, to, g, LIFETIME_FLOOR_US); // the loop below finds every table it needs built
-        }
         for (int i = from; i < to; i++) {
             double tauUs = tau[i];
             if (!(tauUs >= LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY)) {
@@ -487,21 +424,13 @@ public final class TrapDensityConverter {
             double tauS = tauUs * Units.S_PER_US;
             if (generation) {
                 dn = g * tauS;
-                long bits = Double.doubleToRawLongBits(dn);
-                int e = InjectionTables.exponent(bits);
-                if (e != InjectionTables.NOT_FINITE) { // always, for a float lifetime and G <= 1e24 cm^-3 s^-1
-                    double[] table = tab.built(e);
-                    int at = InjectionTables.nodeOffset(bits);
-                    double t = InjectionTables.offset(bits);
-                    intrinsicRate = InjectionTables.series(table, at, t);
-                    k = InjectionTables.series(table, at + seriesK, t);
-                } else {
-                    intrinsicRate = intr.rateConstantPerS(dn);
-                    k = (ka + kb * dn) * (1.0 / (sum0 + dn));
-                }
-                if (minOut != null || maxOut != null) {
-                    double inverseSum = 1.0 / (sum0 + dn);
+                double inverseSum = 1.0 / (sum0 + dn);
+                intrinsicRate = intr.rateConstantPerS(dn);
+                k = (ka + kb * dn) * inverseSum;
+                if (minOut != null) {
                     kMin = (kMinAl + kMinBl * dn) * inverseSum;
+                }
+                if (maxOut != null) {
                     kMax = (kMaxAl + kMaxBl * dn) * inverseSum;
                 }
                 if (occOut != null) {
@@ -555,96 +484,12 @@ public final class TrapDensityConverter {
                         | (lowInj * LOW_INJECTION_BIT));
             }
         }
-        addCounts(tally, to - from - skipped, ok, notSmall, surfaceLimited, lowInjectionCount);
-    }
-
-    /**
-     * The array kernel for fixed generation and the common request of the trap density and/or the status alone (what
-     * the command line, statistics and inspection ask for): the operations of {@link #convertRange}'s general loop
-     * for those planes, without the tests for the other planes in the loop (about 1.5 ns a pixel less; for fixed
-     * injection the general loop is as fast).
-     */
-    private void generationDensityRange(float[] tau, int from, int to, ConversionOutput out, Tally tally) {
-        final float[] ntOut = out.trapDensity;
-        final byte[] statusOut = out.status;
-        final double g = injectionParameter;
-        final double surface = surfaceRatePerS;
-        final double resolution = detectionResolution;
-        final double limitFactor = trapDensityLimitFactor;
-        final double doping = dopingPerCm3;
-        final double lowInjection = LOW_INJECTION_LIMIT * dopingPerCm3;
-        final int surfaceFlag = surface > 0 ? 1 : 0;
-        final double sum0 = sumN0P0;
-        final double ka = kA;
-        final double kb = kB;
-        final IntrinsicLifetime intr = intrinsic;
-        final InjectionTables tab = tables;
-        final int seriesK = InjectionTables.TERMS;
-        int ok = 0;
-        int notSmall = 0;
-        int surfaceLimited = 0;
-        int lowInjectionCount = 0;
-        int skipped = 0;
-        tab.prepare(tau, from, to, g, LIFETIME_FLOOR_US); // the loop below finds every table it needs built
-        // The samples not converted in a pass of their own, so that the main loop only skips them: with the call in
-        // it, C2 compiled the main loop about twice as slow in about half of the runs (24 instead of 11 ns a pixel).
-        for (int i = from; i < to; i++) {
-            float tauF = tau[i];
-            if (!(tauF >= LIFETIME_FLOOR_US && tauF != Float.POSITIVE_INFINITY)) {
-                notConverted(tauF, out, i, tally);
-                skipped++;
-            }
-        }
-        for (int i = from; i < to; i++) {
-            double tauUs = tau[i];
-            if (!(tauUs >= LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY)) {
-                continue;
-            }
-            double tauS = tauUs * Units.S_PER_US;
-            double dn = g * tauS;
-            long bits = Double.doubleToRawLongBits(dn);
-            int e = InjectionTables.exponent(bits);
-            double intrinsicRate;
-            double k;
-            if (e != InjectionTables.NOT_FINITE) { // always, for a float lifetime and G <= 1e24 cm^-3 s^-1
-                double[] table = tab.built(e);
-                int at = InjectionTables.nodeOffset(bits);
-                double t = InjectionTables.offset(bits);
-                intrinsicRate = InjectionTables.series(table, at, t);
-                k = InjectionTables.series(table, at + seriesK, t);
-            } else {
-                intrinsicRate = intr.rateConstantPerS(dn);
-                k = (ka + kb * dn) * (1.0 / (sum0 + dn));
-            }
-            double srhRate = 1.0 / tauS - intrinsicRate - surface;
-            double detectableRate = resolution * (intrinsicRate + surface);
-            // Without branches, as in generalRange (see there).
-            int below = signBit(srhRate - detectableRate);
-            double rate = select(below, srhRate, detectableRate);
-            double nt = k * rate;
-            ok += 1 - below;
-            double smaller = select(signBit(doping - dn), dn, doping);
-            notSmall += (1 - below) & signBit(limitFactor * smaller - nt);
-            surfaceLimited += signBit(0.5 - surface * tauS);
-            lowInjectionCount += surfaceFlag & signBit(lowInjection - dn);
-            if (ntOut != null) {
-                ntOut[i] = (float) nt;
-            }
-            if (statusOut != null) {
-                statusOut[i] = (byte) (OK_CODE + below * (BELOW_LIMIT_CODE - OK_CODE));
-            }
-        }
-        addCounts(tally, to - from - skipped, ok, notSmall, surfaceLimited, lowInjectionCount);
-    }
-
-    /** Adds a range's counts (of its converted pixels) to {@code tally}. */
-    private void addCounts(Tally tally, int converted, int ok, int notSmall, int surfaceLimited,
-                           int lowInjectionCount) {
+        int converted = to - from - skipped;
         int below = converted - ok;
         tally.statusCounts[OK_CODE] += ok;
         tally.statusCounts[BELOW_LIMIT_CODE] += below;
         for (int b = 0; b < Byte.SIZE; b++) {
-            if ((baseWarnings & (1 << b)) != 0) {
+            if ((base & (1 << b)) != 0) {
                 tally.warningPixels[b] += converted;
             }
         }
@@ -768,7 +613,7 @@ public final class TrapDensityConverter {
         if (fixedInjection) {
             px.copyInjectionTerms(fixedTerms);
         } else {
-            generationTerms(injectionParameter * (tauUs * Units.S_PER_US), px);
+            injectionTerms(injectionParameter * (tauUs * Units.S_PER_US), px);
         }
     }
 

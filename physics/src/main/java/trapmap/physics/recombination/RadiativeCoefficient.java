@@ -63,22 +63,6 @@ public final class RadiativeCoefficient {
             return new Screening(bMin, b1, b3);
         }
 
-        double minimum() {
-            return bMin;
-        }
-
-        double span() {
-            return bSpan;
-        }
-
-        double b1Factor() {
-            return b1Factor;
-        }
-
-        double inverseB3() {
-            return invB3;
-        }
-
         /** B_rel at n + p = {@code np} (> 0). */
         double relative(double np) {
             double x3 = np * invB3;

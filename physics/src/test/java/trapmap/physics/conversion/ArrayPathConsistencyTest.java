@@ -53,12 +53,12 @@ class ArrayPathConsistencyTest {
     }
 
     /**
-     * The kernel's path for the trap density and/or status alone (what the command line, statistics and inspection
-     * ask for) gives the same planes and counts as the general path, for rasters converted whole or row by row.
+     * Asking for the trap density and/or status alone (what the command line, statistics and inspection ask for)
+     * gives the same planes and counts as asking for all planes, for rasters converted whole or row by row.
      */
     @ParameterizedTest(name = "{0}, {1}x{2}, reference={3}")
     @MethodSource("cases")
-    void densityPathEqualsGeneralPath(Injection injection, int width, int height, boolean reference) {
+    void densityAloneEqualsAllPlanes(Injection injection, int width, int height, boolean reference) {
         Conditions c = Conditions.of(Doping.pType(1e16), injection).withSurface(Surface.sproul(180, 10));
         if (reference) {
             c = c.withReferenceInjection(1e15);
