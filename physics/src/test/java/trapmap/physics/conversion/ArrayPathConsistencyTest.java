@@ -52,6 +52,56 @@ class ArrayPathConsistencyTest {
         }
     }
 
+    /**
+     * Asking for the trap density and/or status alone (what the command line, statistics and inspection ask for)
+     * gives the same planes and counts as asking for all planes, for rasters converted whole or row by row.
+     */
+    @ParameterizedTest(name = "{0}, {1}x{2}, reference={3}")
+    @MethodSource("cases")
+    void densityAloneEqualsAllPlanes(Injection injection, int width, int height, boolean reference) {
+        Conditions c = Conditions.of(Doping.pType(1e16), injection).withSurface(Surface.sproul(180, 10));
+        if (reference) {
+            c = c.withReferenceInjection(1e15);
+        }
+        TrapDensityConverter conv = new TrapDensityConverter(c, DefectLibrary.byId("fe-i"));
+        float[] tau = raster(width * height, 7L + height);
+        ConversionOutput all = ConversionOutput.allocateAll(tau.length);
+        TrapDensityConverter.Tally expected = conv.convert(tau, width, all, 1);
+        int n = tau.length;
+        ConversionOutput[] fast = {
+            new ConversionOutput(new float[n], null, null, null, null, null, null, new byte[n], null),
+            new ConversionOutput(new float[n], null, null, null, null, null, null, null, null),
+            new ConversionOutput(null, null, null, null, null, null, null, new byte[n], null)};
+        for (ConversionOutput out : fast) {
+            for (int threads : new int[] {1, 2}) {
+                TrapDensityConverter.Tally t = conv.convert(tau, width, out, threads);
+                assertThat(t.statusCounts()).isEqualTo(expected.statusCounts());
+                assertThat(t.warningPixels()).isEqualTo(expected.warningPixels());
+                assertThat(t.belowFloor()).isEqualTo(expected.belowFloor());
+                check(out, all, "threads=" + threads);
+            }
+            TrapDensityConverter.Tally rows = new TrapDensityConverter.Tally();
+            for (int row = 0; row < height; row++) {
+                conv.convertRows(tau, width, row, row + 1, out, rows);
+            }
+            assertThat(rows.statusCounts()).isEqualTo(expected.statusCounts());
+            assertThat(rows.warningPixels()).isEqualTo(expected.warningPixels());
+            check(out, all, "row by row");
+        }
+    }
+
+    private static void check(ConversionOutput out, ConversionOutput all, String at) {
+        if (out.trapDensity != null) {
+            for (int i = 0; i < all.trapDensity.length; i++) {
+                assertThat(Float.floatToIntBits(out.trapDensity[i])).as(at + " pixel " + i)
+                        .isEqualTo(Float.floatToIntBits(all.trapDensity[i]));
+            }
+        }
+        if (out.status != null) {
+            assertThat(out.status).as(at).isEqualTo(all.status);
+        }
+    }
+
     /** Seeded log-uniform lifetimes over 0.1 µs–100 ms with the special values scattered in. */
     private static float[] raster(int n, long seed) {
         SplittableRandom rnd = new SplittableRandom(seed);
