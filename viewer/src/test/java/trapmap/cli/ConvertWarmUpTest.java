@@ -16,7 +16,8 @@ class ConvertWarmUpTest {
         "convert --defect nonsense --generation 1e19", "convert --defect FE-I --generation", "convert --generation",
         "convert --defect fe-i --generation 1 --injection 1", "convert @args.txt --defect fe-i --generation 1e19",
         "convert --defect fe-i --generation 1e19 --quantity status", "convert = --defect=fe-i --generation=",
-        "convert --defect bo-lid --generation 1e19", "convert --help --defect fe-i --generation 1e19"})
+        "convert --defect bo-lid --generation 1e19", "convert --help --defect fe-i --generation 1e19",
+        "inspect dir --rules r.json --out o", "inspect --help", "inspect"})
     void neverThrows(String line) {
         String[] args = line.split(" ");
         assertThatCode(() -> ConvertCommand.warmUpEarly(args)).doesNotThrowAnyException();

@@ -191,6 +191,18 @@ class RulesTest {
     }
 
     @Test
+    void theHeadStartLeavesReadingAsStrictAsBefore() throws Exception {
+        String example = java.nio.file.Files.readString(java.nio.file.Path.of("..", "demo-data",
+                "rules-example.json"));
+        Rules before = parse(example);
+        Rules.prepare();
+        assertThat(parse(example).toString()).isEqualTo(before.toString());
+        assertThatThrownBy(() -> parse("{\"flag\": {}, \"flag\": {}}")).isInstanceOf(RulesException.class)
+                .hasMessageContaining("flag"); // duplicate keys stay refused
+        assertThatThrownBy(() -> parse("{} {}")).isInstanceOf(RulesException.class); // and trailing tokens
+    }
+
+    @Test
     void sidecarConditionsWinUnlessOverride() throws Exception {
         String c = "\"conditions\": {\"doping\": \"p:1e16\", \"thickness_um\": 180, \"injection_cm3\": 1e14%s}, ";
         Rules fill = parse("{" + c.formatted("") + FLAG + "}");
