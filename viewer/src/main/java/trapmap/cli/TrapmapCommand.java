@@ -112,7 +112,7 @@ public final class TrapmapCommand implements Callable<Integer> {
      * For {@code convert}, which opens a map and writes one with metadata: builds the JSON mapper on a background
      * (daemon) thread, so that this overlaps building and parsing the command line ({@link
      * trapmap.maps.io.Sidecar#prepare}), and starts the kernel's warm-up ({@link ConvertCommand#warmUpEarly}). For
-     * {@code inspect}: builds the rules' and then the metadata's JSON mappers on such a thread ({@link
+     * {@code inspect}: builds the rules' JSON mapper on such a thread ({@link
      * trapmap.maps.batch.Rules#prepare}). Nothing for help, version or other commands.
      */
     static void prepare(String... args) {
@@ -125,10 +125,7 @@ public final class TrapmapCommand implements Callable<Integer> {
             }
         }
         if (args[0].equals("inspect")) { // the rules are read first, then each map's metadata
-            Thread t = new Thread(() -> {
-                trapmap.maps.batch.Rules.prepare();
-                trapmap.maps.io.Sidecar.prepare();
-            }, "rules-mapper");
+            Thread t = new Thread(trapmap.maps.batch.Rules::prepare, "rules-mapper");
             t.setDaemon(true);
             t.start();
             return;
