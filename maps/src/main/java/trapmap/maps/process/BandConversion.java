@@ -213,34 +213,10 @@ public final class BandConversion {
         AtomicInteger next = new AtomicInteger();
         AtomicReference<Throwable> failure = new AtomicReference<>();
         List<Worker> workers = new ArrayList<>();
-        List<Thread> started = new ArrayList<>();
         for (int t = 0; t < n; t++) {
-            Worker w = new Worker(in.reader(rows), sink, rows, bands, in.height(), next, failure);
-            workers.add(w);
-            if (t > 0) {
-                Thread th = new Thread(w, "convert-band-" + t);
-                th.setDaemon(true);
-                th.start();
-                started.add(th);
-            }
+            workers.add(new Worker(in.reader(rows), sink, rows, bands, in.height(), next, failure));
         }
-        workers.get(0).run();
-        boolean interrupted = false;
-        for (Thread th : started) {
-            while (true) {
-                try {
-                    th.join();
-                    break;
-                } catch (InterruptedException e) {
-                    interrupted = true;
-                    failure.compareAndSet(null, e);
-                }
-            }
-        }
-        if (interrupted) {
-            Thread.currentThread().interrupt();
-        }
-        Throwable f = failure.get();
+        Throwable f = Workers.runAll(workers, "convert-band-", failure);
         if (f instanceof IOException e) {
             throw e;
         } else if (f instanceof RuntimeException e) {

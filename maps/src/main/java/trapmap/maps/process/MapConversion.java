@@ -340,29 +340,7 @@ public final class MapConversion {
                 }
             };
         }
-        Thread[] started = new Thread[n - 1];
-        for (int t = 1; t < n; t++) {
-            started[t - 1] = new Thread(workers[t], "convert-rows-" + t);
-            started[t - 1].setDaemon(true);
-            started[t - 1].start();
-        }
-        workers[0].run();
-        boolean interrupted = false;
-        for (Thread th : started) {
-            while (true) {
-                try {
-                    th.join();
-                    break;
-                } catch (InterruptedException e) {
-                    interrupted = true; // the workers end at their next rows
-                    failure.compareAndSet(null, e);
-                }
-            }
-        }
-        if (interrupted) {
-            Thread.currentThread().interrupt();
-        }
-        Throwable f = failure.get();
+        Throwable f = Workers.runAll(java.util.List.of(workers), "convert-rows-", failure);
         if (f instanceof RuntimeException e) {
             throw e;
         } else if (f instanceof Error e) {
