@@ -26,6 +26,7 @@ import trapmap.maps.process.MapConversion;
 import trapmap.physics.conversion.ConversionWarning;
 import trapmap.physics.conversion.PixelStatus;
 import trapmap.physics.defect.Defect;
+import trapmap.shared.progress.HeadStart;
 
 /** {@code trapmap convert}: a lifetime or PL map to a trap-density (or related) map of one defect. */
 @Command(name = "convert", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
@@ -121,7 +122,7 @@ final class ConvertCommand implements Callable<Integer> {
     private int streamed(Defect d, trapmap.maps.model.Quantity wanted) throws MapFormatException {
         ConversionSettings settings = conditions.settings();
         // The kernel is compiled on the second core while this thread opens the input (results do not depend on it).
-        BandConversion.WarmUp warmUp = BandConversion.warmUp(conditions.applyTo(BandConversion.WARM_UP_CONDITIONS), d,
+        HeadStart warmUp = BandConversion.warmUp(conditions.applyTo(BandConversion.WARM_UP_CONDITIONS), d,
                 settings, wanted);
         try (warmUp; MapStream in = MapInput.stream(input, page)) {
             MapHeader header = in.header().withConditions(conditions.applyTo(in.header().conditions()));

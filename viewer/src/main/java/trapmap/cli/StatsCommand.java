@@ -36,6 +36,7 @@ import trapmap.maps.stats.InvalidArea;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.maps.stats.StatisticsRequest;
 import trapmap.physics.defect.Defect;
+import trapmap.shared.progress.HeadStart;
 
 /** {@code trapmap stats}: statistics, area fractions and flagged regions of one map. */
 @Command(name = "stats", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
@@ -111,9 +112,9 @@ final class StatsCommand implements Callable<Integer> {
             Output.prepareJson(); // ready by the end, built while the map is read and converted
         }
         // The kernel is compiled on the second core while this thread reads the map (results do not depend on it).
-        BandConversion.WarmUp warmUp = warmUp();
+        HeadStart warmUp = warmUp();
         // and so are the loops of the statistics' pass
-        EvaluatedStatistics.WarmUp statisticsWarmUp = EvaluatedStatistics.warmUp(density.defect != null, true,
+        HeadStart statisticsWarmUp = EvaluatedStatistics.warmUp(density.defect != null, true,
                 threshold == null ? 0 : 1);
         WaferMap read;
         try {
@@ -256,7 +257,7 @@ final class StatsCommand implements Callable<Integer> {
      * A head start for the conversion's kernel when a defect is asked for ({@link BandConversion#warmUp}); nothing
      * otherwise, or when the defect or the conditions are refused (the conversion reports that in its turn).
      */
-    private BandConversion.WarmUp warmUp() {
+    private HeadStart warmUp() {
         try {
             Defect d = density.defectOrNull();
             if (d != null) {
@@ -266,7 +267,7 @@ final class StatsCommand implements Callable<Integer> {
         } catch (RuntimeException e) {
             // reported where the defect is used
         }
-        return () -> { };
+        return HeadStart.NONE;
     }
 
     /** The result of {@code task} (the outline fit, the region search), or the failure it ended with, as it was. */

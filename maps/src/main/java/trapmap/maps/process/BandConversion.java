@@ -5,7 +5,6 @@ import java.util.ArrayList;
 import java.util.EnumSet;
 import java.util.List;
 import java.util.Set;
-import java.util.concurrent.atomic.AtomicBoolean;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.concurrent.atomic.AtomicReference;
 import trapmap.maps.io.MapStream;
@@ -20,6 +19,7 @@ import trapmap.physics.conversion.TrapDensityConverter;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.material.Doping;
 import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.progress.HeadStart;
 
 /**
  * {@link MapConversion#convert} to one quantity, band by band: rows are read from a {@link MapStream}, converted and
@@ -106,10 +106,9 @@ public final class BandConversion {
      * when the returned handle is closed, after {@value #WARM_UP_ROUNDS} rounds, or at its first failure (which it
      * ignores: the real conversion checks and reports).
      */
-    public static WarmUp warmUp(MeasurementConditions guess, Defect defect, ConversionSettings settings,
-                                       Quantity wanted) {
-        AtomicBoolean stop = new AtomicBoolean();
-        Thread t = new Thread(() -> {
+    public static HeadStart warmUp(MeasurementConditions guess, Defect defect, ConversionSettings settings,
+                                   Quantity wanted) {
+        return HeadStart.start("convert-warm-up", stopped -> {
             try {
                 TrapDensityConverter k = new TrapDensityConverter(MapConversion.physicsConditions(guess, settings),
                         defect);
@@ -121,23 +120,14 @@ public final class BandConversion {
                 }
                 ConversionOutput out = planes(wanted, reference, tau.length);
                 TrapDensityConverter.Tally tally = new TrapDensityConverter.Tally();
-                for (int r = 0; r < WARM_UP_ROUNDS && !stop.get(); r++) {
+                for (int r = 0; r < WARM_UP_ROUNDS && !stopped.getAsBoolean(); r++) {
                     int row = r % WARM_UP_ROWS;
                     k.convertRows(tau, WARM_UP_WIDTH, row, row + 1, out, tally);
                 }
             } catch (RuntimeException e) {
                 // a head start only: the conversion itself checks the conditions and reports
             }
-        }, "convert-warm-up");
-        t.setDaemon(true);
-        t.start();
-        return () -> stop.set(true);
-    }
-
-    /** A running warm-up; closing it stops it (at once, or after the round under way). */
-    public interface WarmUp extends AutoCloseable {
-        @Override
-        void close();
+        });
     }
 
     /**

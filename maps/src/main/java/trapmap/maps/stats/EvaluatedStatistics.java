@@ -11,6 +11,7 @@ import trapmap.maps.raster.Mask;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.physics.conversion.PixelStatus;
 import trapmap.shared.check.Checks;
+import trapmap.shared.progress.HeadStart;
 
 /**
  * The {@link EvaluatedArea} of a map and the {@link MapStatistics} of its values over that area's mask, with fewer
@@ -128,19 +129,9 @@ public final class EvaluatedStatistics {
      * @param lifetimeFloor as for {@link #of}
      * @param thresholds    the number of thresholds of the request
      */
-    public static WarmUp warmUp(boolean converted, boolean lifetimeFloor, int thresholds) {
-        java.util.concurrent.atomic.AtomicBoolean stop = new java.util.concurrent.atomic.AtomicBoolean();
-        Thread t = new Thread(() -> warmUp(converted, lifetimeFloor, thresholds, WARM_UP_ROUNDS, stop),
-                "statistics-warm-up");
-        t.setDaemon(true);
-        t.start();
-        return () -> stop.set(true);
-    }
-
-    /** A running warm-up; closing it stops it (at once, or after the round under way). */
-    public interface WarmUp extends AutoCloseable {
-        @Override
-        void close();
+    public static HeadStart warmUp(boolean converted, boolean lifetimeFloor, int thresholds) {
+        return HeadStart.start("statistics-warm-up",
+                stopped -> warmUp(converted, lifetimeFloor, thresholds, WARM_UP_ROUNDS, stopped));
     }
 
     /**
@@ -150,7 +141,7 @@ public final class EvaluatedStatistics {
      * figure of the last round (so that no loop is left out).
      */
     static double warmUp(boolean converted, boolean lifetimeFloor, int thresholdCount, int rounds,
-                         java.util.concurrent.atomic.AtomicBoolean stop) {
+                         java.util.function.BooleanSupplier stopped) {
         int n = 4 * 64 + 41;
         float[] v = new float[n];
         float[] m = new float[n];
@@ -184,7 +175,7 @@ public final class EvaluatedStatistics {
             }
         }
         double last = 0;
-        for (int round = 0; round < rounds && !stop.get(); round++) {
+        for (int round = 0; round < rounds && !stopped.getAsBoolean(); round++) {
             int[] c = EvaluatedArea.block(0, n, v, m, area, status, lifetimeFloor, out);
             int counted = gather(v, out, 0, n, scratch, buckets);
             MapStatistics.Part p = MapStatistics.Part.ofValues(scratch, 0, counted, thresholds);

@@ -25,6 +25,7 @@ import trapmap.maps.process.MapConversion;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.defect.DefectLibrary;
 import trapmap.physics.material.Doping;
+import trapmap.shared.progress.HeadStart;
 
 /**
  * Band-wise reading ({@link MapStream}), conversion ({@link BandConversion}) and writing ({@link TiffRowWriter})
@@ -298,9 +299,9 @@ class MapStreamTest {
         }
         assertThat(Files.readAllBytes(flushed)).isEqualTo(Files.readAllBytes(reference));
         Path out = dir.resolve("warm.tif");
-        try (BandConversion.WarmUp unusable = BandConversion.warmUp(MeasurementConditions.UNKNOWN, FE,
+        try (HeadStart unusable = BandConversion.warmUp(MeasurementConditions.UNKNOWN, FE,
                 ConversionSettings.DEFAULTS, Quantity.TRAP_DENSITY);
-             BandConversion.WarmUp warmUp = BandConversion.warmUp(c.overriddenBy(BandConversion.WARM_UP_CONDITIONS),
+             HeadStart warmUp = BandConversion.warmUp(c.overriddenBy(BandConversion.WARM_UP_CONDITIONS),
                      FE, ConversionSettings.DEFAULTS, Quantity.TRAP_DENSITY);
              MapStream s = MapStream.open(f)) {
             BandConversion b = BandConversion.of(s.header().withConditions(c), FE, ConversionSettings.DEFAULTS,

@@ -190,12 +190,12 @@ class EvaluatedStatisticsTest {
         MapStatistics before = assertSameAsSeparatePasses(measured, measured, null, null, true);
         for (boolean converted : new boolean[] {true, false}) {
             for (int thresholds = 0; thresholds <= 2; thresholds++) {
-                assertThat(EvaluatedStatistics.warmUp(converted, !converted, thresholds, 50,
-                        new java.util.concurrent.atomic.AtomicBoolean())).isFinite();
+                assertThat(EvaluatedStatistics.warmUp(converted, !converted, thresholds, 50, () -> false))
+                        .isFinite();
             }
         }
         // a stopped warm-up does no round; a started one ends by itself
-        assertThat(EvaluatedStatistics.warmUp(true, false, 1, 50, new java.util.concurrent.atomic.AtomicBoolean(true)))
+        assertThat(EvaluatedStatistics.warmUp(true, false, 1, 50, () -> true))
                 .isZero();
         EvaluatedStatistics.warmUp(false, true, 1).close();
         assertThat(assertSameAsSeparatePasses(measured, measured, null, null, true)).isEqualTo(before);
