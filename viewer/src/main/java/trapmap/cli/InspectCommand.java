@@ -171,7 +171,7 @@ final class InspectCommand implements Callable<Integer> {
                                 writer.write(dir, judged, recurrence);
                             } else {
                                 try {
-                                    draft.write(dir, recurrence, batch.rows(), batch.rowsAsTold());
+                                    draft.write(recurrence, batch.rows(), batch.rowsAsTold());
                                 } catch (InterruptedException e) {
                                     Thread.currentThread().interrupt();
                                     throw new java.io.InterruptedIOException("summary cancelled");

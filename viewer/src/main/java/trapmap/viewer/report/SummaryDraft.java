@@ -42,8 +42,6 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     private final Path outDir;
     private final Rules rules;
     private final int expected;
-    /** The figure columns of the results table (the drawing thread's). */
-    private List<String> figureColumns;
     private final BooleanSupplier drawable;
     private final BlockingQueue<Map<String, String>> queue = new LinkedBlockingQueue<>();
     private final Thread thread;
@@ -116,7 +114,7 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     private void drawing() {
         try {
             warm.await();
-            figureColumns = BatchFolder.figureColumns(rules);
+            List<String> figureColumns = BatchFolder.figureColumns(rules);
             if (!drawable.getAsBoolean()) {
                 return;
             }
@@ -182,11 +180,11 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     }
 
     /**
-     * Writes {@value BatchReport#FILE_NAME} into {@code outDir} once the batch's tables are complete:
+     * Writes {@value BatchReport#FILE_NAME} into the batch's folder once the batch's tables are complete:
      * {@code finishedRows} are the rows of {@code results.csv} in its order, {@code asTold} whether they are the rows
      * told, in the order told; {@code recurrence} the batch's recurrence. Returns the file.
      */
-    public Path write(Path outDir, RecurrenceMap recurrence, List<Map<String, String>> finishedRows, boolean asTold)
+    public Path write(RecurrenceMap recurrence, List<Map<String, String>> finishedRows, boolean asTold)
             throws IOException, InterruptedException {
         end();
         Path pdf = outDir.resolve(BatchReport.FILE_NAME);

@@ -65,7 +65,7 @@ class SummaryDraftTest {
         try (SummaryDraft draft = SummaryDraft.start(out, rules, files.size(), () -> true)) {
             batch.tellingRows(draft).warmingUp(draft::warmedUp).finishingWith((d, recurrence) -> {
                 try {
-                    draft.write(d, recurrence, batch.rows(), batch.rowsAsTold());
+                    draft.write(recurrence, batch.rows(), batch.rowsAsTold());
                 } catch (InterruptedException e) {
                     throw new AssertionError(e);
                 }
