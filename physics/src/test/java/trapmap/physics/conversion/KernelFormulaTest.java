@@ -29,6 +29,11 @@ import trapmap.shared.units.Units;
  * and beyond, and the special samples. Asserted: the worst relative difference of N_t (float) is below 1e-6 (the
  * project's rule), at least 99.9 % of the pixels are bit-identical (measured: all 239 200), and statuses agree
  * except where r lies within 1e-12 of r_min (almost none). A faster kernel must keep this test as it is.
+ *
+ * <p>This is a consistency check of the kernel against the model, not a check of the model: K is the SRH
+ * steady-state relation (Shockley and Read, Phys. Rev. 87, 835 (1952); Hall, Phys. Rev. 87, 387 (1952)) solved for
+ * N_t, and τ_intr the Richter et al. 2012 parameterisation (Phys. Rev. B 86, 165202); their published check values
+ * are asserted by the tests of {@link IntrinsicLifetime} and of the SRH lifetime.
  */
 class KernelFormulaTest {
 
