@@ -2,6 +2,7 @@ package trapmap.viewer.report;
 
 import java.awt.Color;
 import java.awt.image.BufferedImage;
+import java.awt.image.WritableRaster;
 import java.io.ByteArrayInputStream;
 import java.io.ByteArrayOutputStream;
 import java.io.Closeable;
@@ -530,18 +531,15 @@ final class PdfPage implements Closeable {
             int h = img.getHeight();
             int[] row = new int[w];
             byte[] line = new byte[3 * w];
+            WritableRaster raster = img.getRaster();
             ByteArrayOutputStream packed = new ByteArrayOutputStream(w * h);
             Deflater deflater = new Deflater(Deflater.DEFAULT_COMPRESSION);
             try (DeflaterOutputStream z = new DeflaterOutputStream(packed, deflater, 1 << 16)) {
                 for (int y = 0; y < h; y++) {
-                    img.getRGB(0, y, w, 1, row, 0, w);
-                    for (int i = 0, k = 0; i < w; i++) {
-                        int p = row[i];
-                        line[k++] = (byte) (p >> 16);
-                        line[k++] = (byte) (p >> 8);
-                        line[k++] = (byte) p;
-                    }
-                    z.write(line);
+                    // the row's stored pixels (0x00RRGGBB, copied as they are): getRGB would convert each through
+                    // the colour model to the same red, green and blue, a long loop of calls compiled per batch
+                    raster.getDataElements(0, y, w, 1, row);
+                    z.write(rgb(row, line));
                 }
             } catch (IOException e) {
                 throw new UncheckedIOException(e); // a stream in memory
@@ -549,6 +547,17 @@ final class PdfPage implements Closeable {
                 deflater.end();
             }
             return new Packed(w, h, packed.toByteArray());
+        }
+
+        /** The red, green and blue bytes of the pixels {@code 0x··RRGGBB} of {@code row} into {@code line}. */
+        static byte[] rgb(int[] row, byte[] line) {
+            for (int i = 0, k = 0; i < row.length; i++, k += 3) {
+                int p = row[i];
+                line[k] = (byte) (p >> 16);
+                line[k + 1] = (byte) (p >> 8);
+                line[k + 2] = (byte) p;
+            }
+            return line;
         }
 
         PDImageXObject embed(PDDocument doc) throws IOException {

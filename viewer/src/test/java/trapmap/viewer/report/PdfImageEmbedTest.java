@@ -61,4 +61,33 @@ class PdfImageEmbedTest {
         }
         assertThat(pixels(rendered[0])).isEqualTo(pixels(rendered[1]));
     }
+
+    @Test
+    void aPartOfALargerPictureIsEmbeddedWithItsOwnPixels() throws Exception {
+        // a sub-picture shares its parent's pixels: its rows start at an offset and are the parent's width apart
+        BufferedImage part = picture(301, 123).getSubimage(17, 9, 150, 60);
+        try (PDDocument doc = new PDDocument()) {
+            PDImageXObject ours = PdfPage.embed(doc, part);
+            assertThat(ours.getWidth()).isEqualTo(150);
+            assertThat(ours.getHeight()).isEqualTo(60);
+            assertThat(pixels(ours.getImage())).isEqualTo(pixels(part))
+                    .isEqualTo(pixels(LosslessFactory.createFromImage(doc, part).getImage()));
+        }
+    }
+
+    @Test
+    void theRowBytesAreRedGreenBlueOfEachPixelAsGetRgbGivesThem() {
+        BufferedImage img = picture(37, 5);
+        int[] row = new int[37];
+        byte[] line = new byte[3 * 37];
+        for (int y = 0; y < 5; y++) {
+            img.getRaster().getDataElements(0, y, 37, 1, row);
+            PdfPage.Packed.rgb(row, line);
+            for (int x = 0; x < 37; x++) {
+                int argb = img.getRGB(x, y);
+                assertThat(new int[] {line[3 * x] & 0xFF, line[3 * x + 1] & 0xFF, line[3 * x + 2] & 0xFF})
+                        .containsExactly(argb >> 16 & 0xFF, argb >> 8 & 0xFF, argb & 0xFF);
+            }
+        }
+    }
 }
