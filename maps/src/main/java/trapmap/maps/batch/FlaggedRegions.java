@@ -52,6 +52,15 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
         return best;
     }
 
+    /**
+     * Pixels per call of the loops over a region's pixels, which are split into calls of at most this many: a loop
+     * that runs long in one call is compiled while it runs (on-stack replacement) and then again as a whole method;
+     * short calls reach HotSpot's call-count threshold before the loop-count one (the ratio of the two is about 66,
+     * with the JVM's default thresholds and with those the launcher sets for batches), so that the method is compiled
+     * once, at its call.
+     */
+    static final int CHUNK = 64;
+
     private static final int[] DX = {-1, 0, 1, -1, 1, -1, 0, 1};
     private static final int[] DY = {-1, -1, -1, 0, 0, 1, 1, 1};
 
@@ -123,7 +132,21 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
         int selected = criteria.side() == RegionCriteria.Side.ABOVE
                 ? selectAbove(flag, count, criteria.threshold(), seeds)
                 : selectBelow(flag, count, criteria.threshold(), seeds);
-        for (int q = 0; q < selected; q++) {
+        for (int q = 0; q < selected; q += CHUNK) {
+            place(flag, density, indices, seeds, q, Math.min(selected, q + CHUNK), open, at, densityAt);
+        }
+        return label(at, grid.width(), grid.height(), grid, seeds, selected, open, criteria, shape, densityAt,
+                insideMm, buffers.queue(Math.max(16, n)));
+    }
+
+    /**
+     * Places the selected pixels {@code seeds[from..to)} (positions k in the packed values) at their pixels
+     * {@code indices[k]}: opens them, copies their values into the map-sized buffers, and replaces each position by
+     * its pixel index.
+     */
+    private static void place(float[] flag, float[] density, int[] indices, int[] seeds, int from, int to,
+                              boolean[] open, float[] at, float[] densityAt) {
+        for (int q = from; q < to; q++) {
             int k = seeds[q];
             int i = indices[k];
             open[i] = true;
@@ -133,8 +156,6 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
             }
             seeds[q] = i;
         }
-        return label(at, grid.width(), grid.height(), grid, seeds, selected, open, criteria, shape, densityAt,
-                insideMm, buffers.queue(Math.max(16, n)));
     }
 
     /**
@@ -287,8 +308,8 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
 
         /** Keeps the region in {@code queue[0..size)}: its pixels and its figures. */
         void keep(int size) {
-            for (int k = 0; k < size; k++) {
-                kept.set(queue[k]);
+            for (int k = 0; k < size; k += CHUNK) {
+                markKept(k, Math.min(size, k + CHUNK));
             }
             double nearest = edge == null ? Double.NaN : nearestEdgeMm(size);
             double[] densities = density == null ? null : densities(size);
@@ -296,18 +317,29 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                     densities == null ? Double.NaN : densities[1]));
         }
 
-        /** The region's figures: centroid, bounds, peak (the first pixel in index order of equal peaks) and mean. */
-        private Region region(int size, double nearestEdgeMm) {
-            long sumX = 0;
-            long sumY = 0;
-            double sumValue = 0;
-            int minX = Integer.MAX_VALUE;
-            int maxX = -1;
-            int minY = Integer.MAX_VALUE;
-            int maxY = -1;
-            int peakIndex = queue[0];
-            double peak = s[peakIndex];
-            for (int k = 0; k < size; k++) {
+        /** Sums, bounds and peak of {@link #region} so far (the pixels before the current chunk). */
+        private long sumX;
+        private long sumY;
+        private double sumValue;
+        private int minX;
+        private int maxX;
+        private int minY;
+        private int maxY;
+        private int peakIndex;
+        private double peak;
+
+        /** Adds the queued pixels {@code queue[from..to)} to the sums, bounds and peak of {@link #region}. */
+        private void sums(int from, int to) {
+            long sumX = this.sumX;
+            long sumY = this.sumY;
+            double sumValue = this.sumValue;
+            int minX = this.minX;
+            int maxX = this.maxX;
+            int minY = this.minY;
+            int maxY = this.maxY;
+            int peakIndex = this.peakIndex;
+            double peak = this.peak;
+            for (int k = from; k < to; k++) {
                 int i = queue[k];
                 int y = i / w;
                 int x = i - y * w;
@@ -324,6 +356,71 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                     peakIndex = i;
                 }
             }
+            this.sumX = sumX;
+            this.sumY = sumY;
+            this.sumValue = sumValue;
+            this.minX = minX;
+            this.maxX = maxX;
+            this.minY = minY;
+            this.maxY = maxY;
+            this.peakIndex = peakIndex;
+            this.peak = peak;
+        }
+
+        /**
+         * The values of {@code values} at the queued pixels {@code queue[from..to)} that are not NaN, into
+         * {@code into} from {@code n}; returns the new count.
+         */
+        private int valuesOf(float[] values, int from, int to, float[] into, int n) {
+            for (int k = from; k < to; k++) {
+                float f = values[queue[k]];
+                into[n] = f;
+                n += f == f ? 1 : 0;
+            }
+            return n;
+        }
+
+        /** The first largest of {@code values[from..to)} (none NaN), or −∞ when the range is empty. */
+        private static float largest(float[] values, int from, int to) {
+            float top = Float.NEGATIVE_INFINITY;
+            for (int k = from; k < to; k++) {
+                if (values[k] > top) {
+                    top = values[k];
+                }
+            }
+            return top;
+        }
+
+        /** Adds the queued pixels {@code queue[from..to)} to {@link #kept}. */
+        private void markKept(int from, int to) {
+            for (int k = from; k < to; k++) {
+                kept.set(queue[k]);
+            }
+        }
+
+        /** The region's figures: centroid, bounds, peak (the first pixel in index order of equal peaks) and mean. */
+        private Region region(int size, double nearestEdgeMm) {
+            sumX = 0;
+            sumY = 0;
+            sumValue = 0;
+            minX = Integer.MAX_VALUE;
+            maxX = -1;
+            minY = Integer.MAX_VALUE;
+            maxY = -1;
+            peakIndex = queue[0];
+            peak = s[peakIndex];
+            for (int k = 0; k < size; k += CHUNK) {
+                sums(k, Math.min(size, k + CHUNK));
+            }
+            long sumX = this.sumX;
+            long sumY = this.sumY;
+            double sumValue = this.sumValue;
+            int minX = this.minX;
+            int maxX = this.maxX;
+            int minY = this.minY;
+            int maxY = this.maxY;
+            int peakIndex = this.peakIndex;
+            double peak = this.peak;
             double halfPx = 0.5;
             Region.BoundsMm bounds = new Region.BoundsMm(grid.xMm(minX - halfPx), grid.yMm(maxY + halfPx),
                     grid.xMm(maxX + halfPx), grid.yMm(minY - halfPx));
@@ -353,12 +450,32 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                 candidates = new int[Math.max(size, 2 * candidates.length)];
                 lowest = new double[candidates.length];
             }
+            m = 0;
+            upper = Double.POSITIVE_INFINITY;
+            exactly = false;
+            for (int k = 0; k < size; k += CHUNK) {
+                nearDistances(k, Math.min(size, k + CHUNK));
+            }
+            return exactDistance();
+        }
+
+        /** Pixels per call of the loops over a region's pixels (see {@link #CHUNK}). */
+        private static final int CHUNK = FlaggedRegions.CHUNK;
+        /** Candidates of {@link #nearestEdgeMm} so far: {@code candidates[0..m)}. */
+        private int m;
+        /** Least near distance plus its error bound so far, mm. */
+        private double upper;
+        /** True once a near distance was NaN (no bound): every candidate's exact distance is taken. */
+        private boolean exactly;
+
+        /** The candidates among the queued pixels {@code queue[from..to)}, with their least possible distances. */
+        private void nearDistances(int from, int to) {
             int[] candidates = this.candidates;
             double[] lowest = this.lowest;
-            int m = 0;
-            double upper = Double.POSITIVE_INFINITY;
-            boolean exactly = false;
-            for (int k = 0; k < size; k++) {
+            int m = this.m;
+            double upper = this.upper;
+            boolean exactly = this.exactly;
+            for (int k = from; k < to; k++) {
                 int i = queue[k];
                 int y = i / w;
                 int x = i - y * w;
@@ -375,6 +492,13 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                 candidates[m] = i;
                 lowest[m++] = near - error;
             }
+            this.m = m;
+            this.upper = upper;
+            this.exactly = exactly;
+        }
+
+        /** The least exact distance of the candidates that may be nearest, mm. */
+        private double exactDistance() {
             double nearest = Double.POSITIVE_INFINITY;
             for (int c = 0; c < m; c++) {
                 if (exactly || lowest[c] <= upper) {
@@ -393,14 +517,14 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
         private double[] densities(int size) {
             float[] dens = new float[size];
             int m = 0;
+            for (int k = 0; k < size; k += CHUNK) {
+                m = valuesOf(density, k, Math.min(size, k + CHUNK), dens, m);
+            }
             double peakDensity = Double.NEGATIVE_INFINITY;
-            for (int k = 0; k < size; k++) {
-                float f = density[queue[k]];
-                if (f == f) {
-                    dens[m++] = f;
-                    if (f > peakDensity) {
-                        peakDensity = f;
-                    }
+            for (int k = 0; k < m; k += CHUNK) {
+                double top = largest(dens, k, Math.min(m, k + CHUNK));
+                if (top > peakDensity) {
+                    peakDensity = top;
                 }
             }
             if (m == 0) {
