@@ -36,13 +36,35 @@ public record Footprint(String family, double pitchMm, int minI, int minJ, int w
         int j1 = cell(Math.max(grid.yMm(0), grid.yMm(h - 1)), p);
         int cw = i1 - i0 + 1;
         int ch = j1 - j0 + 1;
-        int[] column = new int[w];
-        for (int x = 0; x < w; x++) {
-            column[x] = cell(grid.xMm(x), p) - i0;
-        }
+        // each loop is a small method of its own: a batch calls this once per wafer, and HotSpot compiles a loop that
+        // runs long while it runs (on-stack replacement), a small method quickly and once, a large one again per loop
+        int[] column = columns(grid, p, i0);
         // runs of columns in the same cell: a cell of a row is covered once any of its pixels is evaluated
         int[] runOf = new int[w];
         int[] runStart = new int[w + 1];
+        runs(column, runOf, runStart);
+        long[] words = new long[(cw * ch + 63) >>> 6]; // the covered cells, as the words of a BitSet
+        covered(grid, p, j0, cw, indices, count, column, runOf, runStart, words);
+        long[] hit = new long[words.length];
+        flagged(grid, p, j0, cw, column, flagged.toLongArray(), hit);
+        return new Footprint(family, p, i0, j0, cw, ch, BitSet.valueOf(words), BitSet.valueOf(hit));
+    }
+
+    /** The cell column of each pixel column, from the first cell column {@code i0}. */
+    private static int[] columns(PixelGrid grid, double p, int i0) {
+        int[] column = new int[grid.width()];
+        for (int x = 0; x < column.length; x++) {
+            column[x] = cell(grid.xMm(x), p) - i0;
+        }
+        return column;
+    }
+
+    /**
+     * The runs of pixel columns in the same cell column: each column's run into {@code runOf}, each run's first
+     * column into {@code runStart} (and the width after the last run).
+     */
+    private static void runs(int[] column, int[] runOf, int[] runStart) {
+        int w = column.length;
         int runs = 0;
         for (int x = 0; x < w; x++) {
             if (x == 0 || column[x] != column[x - 1]) {
@@ -51,7 +73,12 @@ public record Footprint(String family, double pitchMm, int minI, int minJ, int w
             runOf[x] = runs - 1;
         }
         runStart[runs] = w;
-        long[] words = new long[(cw * ch + 63) >>> 6]; // the covered cells, as the words of a BitSet
+    }
+
+    /** Sets in {@code words} the cells of the evaluated pixels {@code indices[0..count)} (ascending). */
+    private static void covered(PixelGrid grid, double p, int j0, int cw, int[] indices, int count, int[] column,
+                                int[] runOf, int[] runStart, long[] words) {
+        int w = grid.width();
         int k = 0;
         while (k < count) {
             int first = indices[k];
@@ -83,12 +110,16 @@ public record Footprint(String family, double pitchMm, int minI, int minJ, int w
             }
             k = end;
         }
-        long[] hit = new long[words.length];
+    }
+
+    /** Sets in {@code hit} the cells of the flagged pixels, the set bits of {@code flaggedWords} (BitSet words). */
+    private static void flagged(PixelGrid grid, double p, int j0, int cw, int[] column, long[] flaggedWords,
+                                long[] hit) {
+        int w = grid.width();
         int rowStart = 0;
         int rowEnd = 0;
         int rowCell = 0;
         int lastCell = -1;
-        long[] flaggedWords = flagged.toLongArray();
         for (int wi = 0; wi < flaggedWords.length; wi++) {
             for (long bits = flaggedWords[wi]; bits != 0; bits &= bits - 1) {
                 int i = (wi << 6) + Long.numberOfTrailingZeros(bits); // ascending
@@ -105,7 +136,6 @@ public record Footprint(String family, double pitchMm, int minI, int minJ, int w
                 }
             }
         }
-        return new Footprint(family, p, i0, j0, cw, ch, BitSet.valueOf(words), BitSet.valueOf(hit));
     }
 
     /** Sets the bits [from, to) of a BitSet's words. */

@@ -108,4 +108,58 @@ class RecurrenceMapTest {
         }
         return b;
     }
+
+    @Test
+    void eachCellCountsTheWafersThatEvaluatedItAndThoseThatFlaggedIt() {
+        // partly covered footprints of several extents, some flagged cells not covered (not counted): every cell's
+        // fraction is the one counted cell by cell over all footprints
+        java.util.Random random = new java.util.Random(11);
+        RecurrenceMap r = new RecurrenceMap();
+        java.util.Map<Long, int[]> counts = new java.util.HashMap<>(); // (i, j) -> {evaluated, flagged}
+        for (int k = 0; k < 30; k++) {
+            int w = 1 + random.nextInt(90);
+            int h = 1 + random.nextInt(40);
+            int i0 = random.nextInt(21) - 10;
+            int j0 = random.nextInt(21) - 10;
+            BitSet covered = new BitSet();
+            BitSet flagged = new BitSet();
+            for (int c = 0; c < w * h; c++) {
+                if (random.nextInt(4) != 0) {
+                    covered.set(c);
+                }
+                if (random.nextInt(5) == 0) {
+                    flagged.set(c);
+                }
+            }
+            r.add(new Footprint("f", 1.0, i0, j0, w, h, covered, flagged));
+            for (int c = 0; c < w * h; c++) {
+                if (covered.get(c)) {
+                    int[] n = counts.computeIfAbsent(((long) (i0 + c % w) << 32) ^ (j0 + c / w & 0xFFFFFFFFL),
+                            key -> new int[2]);
+                    n[0]++;
+                    n[1] += flagged.get(c) ? 1 : 0;
+                }
+            }
+        }
+        WaferMap m = r.maps().get("f");
+        int seen = 0;
+        for (int j = -10; j < 50; j++) {
+            for (int i = -10; i < 100; i++) {
+                int[] n = counts.get(((long) i << 32) ^ (j & 0xFFFFFFFFL));
+                double x = m.grid().xPx(i);
+                double y = m.grid().yPx(j);
+                if (x < 0 || y < 0 || x > m.width() - 1 || y > m.height() - 1) {
+                    assertThat(n).isNull();
+                    continue;
+                }
+                if (n == null) {
+                    assertThat(at(m, i, j)).isNaN();
+                } else {
+                    assertThat(at(m, i, j)).isEqualTo((float) ((double) n[1] / n[0]));
+                    seen++;
+                }
+            }
+        }
+        assertThat(seen).isEqualTo(counts.size());
+    }
 }
