@@ -76,29 +76,46 @@ public final class Thumbnails {
         }
         BufferedImage out = MapFiles.picture(new WaferMap(FloatRaster.wrap(tw, th, small), sg, map.quantity(),
                 map.waferId(), map.conditions(), map.provenance()), style);
-        outline(((DataBufferInt) out.getRaster().getDataBuffer()).getData(), dilate(hit, tw, th, OUTLINE_PX), hit);
+        outline(((DataBufferInt) out.getRaster().getDataBuffer()).getData(), dilate(hit, tw, th, OUTLINE_PX), hit,
+                tw);
         return out;
     }
 
-    // The loops of a thumbnail are small methods of their own: each runs long once per wafer, so HotSpot compiles it
-    // while it runs (on-stack replacement), and small methods compile quickly and once.
+    // The loops of a thumbnail are small methods of their own, called per row: a loop over a whole picture runs long
+    // once per wafer, so HotSpot compiles its method while it runs (on-stack replacement) and again at its next call;
+    // a small method called per row is compiled quickly, once.
 
     /** The map's value and flag at the thumbnail pixels' centres ({@code sx}, {@code sy}: map column and row). */
     private static void sample(float[] s, BitSet flagged, int w, int[] sx, int[] sy, float[] small, boolean[] hit) {
-        int tw = sx.length;
         for (int ty = 0; ty < sy.length; ty++) {
-            int row = sy[ty] * w;
-            for (int tx = 0; tx < tw; tx++) {
-                int i = row + sx[tx];
-                small[ty * tw + tx] = s[i];
-                hit[ty * tw + tx] = flagged.get(i);
-            }
+            sampleRow(s, flagged, sy[ty] * w, sx, small, hit, ty * sx.length);
         }
     }
 
+    /** One thumbnail row of {@link #sample}: map row from pixel {@code row}, thumbnail row from pixel {@code at}. */
+    private static void sampleRow(float[] s, BitSet flagged, int row, int[] sx, float[] small, boolean[] hit, int at) {
+        for (int tx = 0; tx < sx.length; tx++) {
+            int i = row + sx[tx];
+            small[at + tx] = s[i];
+            hit[at + tx] = flagged.get(i);
+        }
+    }
+
+    /** Map rows per call of {@link #markFlagged(BitSet, int, double, int, int, boolean[], int, int)}. */
+    private static final int MARK_ROWS = 8;
+
     /** Marks the thumbnail pixel of every flagged map pixel ({@code scale} map pixels per thumbnail pixel). */
     private static void markFlagged(BitSet flagged, int w, double scale, int tw, int th, boolean[] hit) {
-        for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
+        int n = flagged.length();
+        for (int from = 0; from < n; from += MARK_ROWS * w) {
+            markFlagged(flagged, w, scale, tw, th, hit, from, Math.min(n, from + MARK_ROWS * w));
+        }
+    }
+
+    /** {@link #markFlagged(BitSet, int, double, int, int, boolean[])} for the map pixels {@code [from, to)}. */
+    private static void markFlagged(BitSet flagged, int w, double scale, int tw, int th, boolean[] hit, int from,
+                                    int to) {
+        for (int i = flagged.nextSetBit(from); i >= 0 && i < to; i = flagged.nextSetBit(i + 1)) {
             int tx = Math.min(tw - 1, (int) ((i % w) / scale));
             int ty = Math.min(th - 1, (int) ((i / w) / scale));
             hit[ty * tw + tx] = true;
@@ -107,10 +124,17 @@ public final class Thumbnails {
 
     /**
      * Paints the outline colour on the pixels near a flagged one ({@code near}) that are not flagged themselves;
-     * {@code argb}: the pixels of the {@code TYPE_INT_ARGB} picture (no offset).
+     * {@code argb}: the pixels of the {@code TYPE_INT_ARGB} picture (no offset), {@code w} pixels a row.
      */
-    private static void outline(int[] argb, boolean[] near, boolean[] hit) {
-        for (int i = 0; i < near.length; i++) {
+    private static void outline(int[] argb, boolean[] near, boolean[] hit, int w) {
+        for (int from = 0; from < near.length; from += w) {
+            outlineRow(argb, near, hit, from, Math.min(near.length, from + w));
+        }
+    }
+
+    /** {@link #outline} for the pixels {@code [from, to)}. */
+    private static void outlineRow(int[] argb, boolean[] near, boolean[] hit, int from, int to) {
+        for (int i = from; i < to; i++) {
             if (near[i] && !hit[i]) {
                 argb[i] = OUTLINE_ARGB;
             }

@@ -76,36 +76,64 @@ public final class PngFiles {
         int w = img.getWidth();
         int h = img.getHeight();
         int[] argb = (int[]) img.getRaster().getDataElements(0, 0, w, h, null);
-        // open addressing over 4 × PALETTE slots: colour → palette index + 1 (0: empty)
-        int slots = 4 * PALETTE;
-        int[] keys = new int[slots];
-        int[] index = new int[slots];
-        int[] palette = new int[PALETTE];
         byte[] pixels = new byte[w * h];
-        int colours = 0;
-        int lastColour = 0;
-        int lastIndex = -1;
-        for (int i = 0; i < argb.length; i++) {
-            int c = argb[i];
-            if (c != lastColour || lastIndex < 0) {
-                int slot = (c * 0x9E3779B1 >>> 22) & (slots - 1);
-                while (index[slot] != 0 && keys[slot] != c) {
-                    slot = (slot + 1) & (slots - 1);
-                }
-                if (index[slot] == 0) {
-                    if (colours == PALETTE) {
-                        return null;
-                    }
-                    keys[slot] = c;
-                    palette[colours] = c;
-                    index[slot] = ++colours;
-                }
-                lastColour = c;
-                lastIndex = index[slot] - 1;
+        Colours colours = new Colours();
+        // row by row, a small method per row: HotSpot compiles it once, instead of compiling this whole method while
+        // a loop over every pixel of a picture runs (on-stack replacement) and again at its next call
+        for (int y = 0; y < h; y++) {
+            if (!colours.index(argb, y * w, y * w + w, pixels)) {
+                return null;
             }
-            pixels[i] = (byte) lastIndex;
         }
-        return new Indexed(palette, colours, pixels);
+        return new Indexed(colours.palette, colours.count, pixels);
+    }
+
+    /** The colours of a picture met so far, in the order they first appear, and the last one met. */
+    private static final class Colours {
+        /** Slots of the open addressing: colour → palette index + 1 (0: empty). */
+        private static final int SLOTS = 4 * PALETTE;
+        final int[] keys = new int[SLOTS];
+        final int[] index = new int[SLOTS];
+        final int[] palette = new int[PALETTE];
+        int count;
+        int lastColour;
+        int lastIndex = -1;
+
+        /**
+         * The palette indices of the pixels {@code argb[from..to)} into {@code pixels}, new colours added to the
+         * palette; false when there are more than {@value #PALETTE} colours.
+         */
+        boolean index(int[] argb, int from, int to, byte[] pixels) {
+            int[] keys = this.keys;
+            int[] index = this.index;
+            int colours = count;
+            int lastColour = this.lastColour;
+            int lastIndex = this.lastIndex;
+            for (int i = from; i < to; i++) {
+                int c = argb[i];
+                if (c != lastColour || lastIndex < 0) {
+                    int slot = (c * 0x9E3779B1 >>> 22) & (SLOTS - 1);
+                    while (index[slot] != 0 && keys[slot] != c) {
+                        slot = (slot + 1) & (SLOTS - 1);
+                    }
+                    if (index[slot] == 0) {
+                        if (colours == PALETTE) {
+                            return false;
+                        }
+                        keys[slot] = c;
+                        palette[colours] = c;
+                        index[slot] = ++colours;
+                    }
+                    lastColour = c;
+                    lastIndex = index[slot] - 1;
+                }
+                pixels[i] = (byte) lastIndex;
+            }
+            count = colours;
+            this.lastColour = lastColour;
+            this.lastIndex = lastIndex;
+            return true;
+        }
     }
 
     private static byte[] encode(BufferedImage img, float quality) {

@@ -49,17 +49,35 @@ final class PngMaps {
         // drawn straight into the picture's pixels (non-premultiplied ARGB, as setRGB would store them)
         int[] argb = ((DataBufferInt) img.getRaster().getDataBuffer()).getData();
         ColourMap colours = style.colours();
+        // row by row, a small method per row: HotSpot compiles it once, instead of compiling this whole method while
+        // a loop over every pixel runs (on-stack replacement) and again at its next call
         if (log && span > 0 && argb.length >= TABLE_PIXELS) {
             LogColours table = new LogColours(logBounds(lo, span));
-            for (int i = 0; i < argb.length; i++) {
-                float v = s[i];
-                if (valid(v, true)) {
-                    argb[i] = 0xFF000000 | colours.rgb(table.index(Float.floatToRawIntBits(v)));
-                }
+            for (int y = 0; y < h; y++) {
+                logRow(s, argb, y * w, y * w + w, table, colours);
             }
             return img;
         }
-        for (int i = 0; i < argb.length; i++) {
+        for (int y = 0; y < h; y++) {
+            row(s, argb, y * w, y * w + w, log, lo, span, colours);
+        }
+        return img;
+    }
+
+    /** The colours of the pixels {@code s[from..to)} on a log scale, from {@code table}; invalid ones left alone. */
+    private static void logRow(float[] s, int[] argb, int from, int to, LogColours table, ColourMap colours) {
+        for (int i = from; i < to; i++) {
+            float v = s[i];
+            if (valid(v, true)) {
+                argb[i] = 0xFF000000 | colours.rgb(table.index(Float.floatToRawIntBits(v)));
+            }
+        }
+    }
+
+    /** The colours of the pixels {@code s[from..to)} over [lo, lo + span]; invalid ones left alone (transparent). */
+    private static void row(float[] s, int[] argb, int from, int to, boolean log, double lo, double span,
+                            ColourMap colours) {
+        for (int i = from; i < to; i++) {
             float v = s[i];
             if (!valid(v, log)) {
                 continue; // transparent
@@ -67,7 +85,6 @@ final class PngMaps {
             double t = span > 0 ? ((log ? Math.log10(v) : v) - lo) / span : 0.5;
             argb[i] = 0xFF000000 | colours.rgbAt(t);
         }
-        return img;
     }
 
     /** Pictures of at least this many pixels on a log scale take their colours from {@link #logBounds}. */
