@@ -42,22 +42,40 @@ public record Region(int id, int pixelCount, double areaMm2, double centroidXMm,
          * {@code cyPx}) in pixel coordinates.
          */
         public static CentroidPixel of(int[] pixels, int count, int width, double cxPx, double cyPx) {
-            int best = -1;
-            double bestD = Double.POSITIVE_INFINITY;
-            for (int k = 0; k < count; k++) {
-                int i = pixels[k];
-                int y = i / width;
-                double dx = i - y * width - cxPx;
-                double dy = y - cyPx;
-                double d = dx * dx + dy * dy;
-                if (d < bestD || d == bestD && i < best) {
-                    bestD = d;
-                    best = i;
-                }
+            Nearest nearest = new Nearest();
+            // in calls of at most 64 pixels: HotSpot compiles the short loop once, by its calls, instead of on-stack
+            // replacement while a long loop over a large region runs (and again at the next call)
+            for (int k = 0; k < count; k += 64) {
+                nearest.scan(pixels, k, Math.min(count, k + 64), width, cxPx, cyPx);
             }
+            int best = nearest.best;
             int y = best / width;
             boolean inside = Math.abs(best - y * width - cxPx) <= 0.5 && Math.abs(y - cyPx) <= 0.5;
             return new CentroidPixel(best, inside);
+        }
+
+        /** The pixel nearest the centroid so far (the first in index order of equally near ones). */
+        private static final class Nearest {
+            int best = -1;
+            double bestD = Double.POSITIVE_INFINITY;
+
+            void scan(int[] pixels, int from, int to, int width, double cxPx, double cyPx) {
+                int best = this.best;
+                double bestD = this.bestD;
+                for (int k = from; k < to; k++) {
+                    int i = pixels[k];
+                    int y = i / width;
+                    double dx = i - y * width - cxPx;
+                    double dy = y - cyPx;
+                    double d = dx * dx + dy * dy;
+                    if (d < bestD || d == bestD && i < best) {
+                        bestD = d;
+                        best = i;
+                    }
+                }
+                this.best = best;
+                this.bestD = bestD;
+            }
         }
     }
 
