@@ -56,8 +56,8 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
      * Pixels per call of the loops over a region's pixels, which are split into calls of at most this many: a loop
      * that runs long in one call is compiled while it runs (on-stack replacement) and then again as a whole method;
      * short calls reach HotSpot's call-count threshold before the loop-count one (the ratio of the two is about 66,
-     * with the JVM's default thresholds and with those the launcher sets for batches), so that the method is compiled
-     * once, at its call.
+     * with the JVM's default thresholds and with those the launcher sets for batches), so that the method is mostly
+     * compiled once, at its call; either way what is compiled is the small method, not the labelling around it.
      */
     static final int CHUNK = 64;
 
