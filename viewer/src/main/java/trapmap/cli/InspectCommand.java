@@ -253,7 +253,7 @@ final class InspectCommand implements Callable<Integer> {
         o.flush();
         PhaseTimes.print(err, callStart, startCpu, batch.lastPhases(), new PhaseTimes.Steps(
                 batchStart - callStartNanos, startCpu[1] < 0 || batchStartCpu < 0 ? -1 : batchStartCpu - startCpu[1],
-                draft == null ? -1 : draft.drawingCpuNanos()));
+                draft == null ? -1 : draft.drawingCpuNanos(), draft == null ? -1 : draft.finishingCpuNanos()));
         return notMade.isPresent() ? Exit.REPORT_MISSING
                 : s.pass() == s.total() ? Exit.OK : Exit.SOME_WAFERS_NOT_PASSED;
     }

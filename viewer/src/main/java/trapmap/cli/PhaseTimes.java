@@ -32,7 +32,8 @@ final class PhaseTimes {
      * inspection is serial: {@code end_cpu_ms - inspection_cpu_ms}. {@code before_batch_ms} and
      * {@code before_batch_cpu_ms}: the command's own steps before the batch starts (reading the rules, listing the
      * inputs), wall and the command thread's CPU time; {@code summary_draft_cpu_ms}: the CPU time of the thread that
-     * draws the summary beside the workers ({@code SummaryDraft}; -1: none).
+     * draws the summary beside the workers ({@code SummaryDraft}; -1: none), of which {@code summary_finishing_cpu_ms}
+     * after the last row (finishing the summary beside the tables: serial work of the run, on another thread).
      */
     static String line(long callStartEpochMs, long startProcessCpuNanos, long startCpuNanos, BatchInspection.Phases p,
                        Steps steps, long endCpuNanos, long callEndEpochMs) {
@@ -40,21 +41,22 @@ final class PhaseTimes {
                         + " start_cpu_ms=%.1f prepare_ms=%.1f inspection_ms=%.1f tables_ms=%.1f summary_ms=%.1f"
                         + " writer_busy_ms=%.1f prepare_cpu_ms=%.1f tables_cpu_ms=%.1f summary_cpu_ms=%.1f"
                         + " worker_cpu_ms=%.1f inspection_cpu_ms=%.1f before_batch_ms=%.1f before_batch_cpu_ms=%.1f"
-                        + " summary_draft_cpu_ms=%.1f end_cpu_ms=%.1f call_end_ms=%d",
+                        + " summary_draft_cpu_ms=%.1f summary_finishing_cpu_ms=%.1f end_cpu_ms=%.1f call_end_ms=%d",
                 callStartEpochMs, ms(startProcessCpuNanos), ms(startCpuNanos), ms(p.prepareNanos()),
                 ms(p.inspectionNanos()),
                 ms(p.tablesNanos()), ms(p.summaryNanos()), ms(p.writerBusyNanos()), ms(p.prepareCpuNanos()),
                 ms(p.tablesCpuNanos()), ms(p.summaryCpuNanos()), ms(p.workerCpuNanos()), ms(p.inspectionCpuNanos()),
                 ms(steps.beforeBatchNanos()), ms(steps.beforeBatchCpuNanos()), ms(steps.summaryDraftCpuNanos()),
-                ms(endCpuNanos), callEndEpochMs);
+                ms(steps.summaryFinishingCpuNanos()), ms(endCpuNanos), callEndEpochMs);
     }
 
     /**
-     * The command's own parts of the line: its steps before the batch (wall and its thread's CPU, ns) and the summary
-     * drawing thread's CPU time (ns, -1: none).
+     * The command's own parts of the line: its steps before the batch (wall and its thread's CPU, ns), the summary
+     * drawing thread's CPU time and the part of it after the last row (ns, -1: none).
      */
-    record Steps(long beforeBatchNanos, long beforeBatchCpuNanos, long summaryDraftCpuNanos) {
-        static final Steps NONE = new Steps(-1, -1, -1);
+    record Steps(long beforeBatchNanos, long beforeBatchCpuNanos, long summaryDraftCpuNanos,
+                 long summaryFinishingCpuNanos) {
+        static final Steps NONE = new Steps(-1, -1, -1, -1);
     }
 
     private static double ms(long nanos) {

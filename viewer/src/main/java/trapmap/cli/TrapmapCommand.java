@@ -112,8 +112,9 @@ public final class TrapmapCommand implements Callable<Integer> {
      * For {@code convert}, which opens a map and writes one with metadata: builds the JSON mapper on a background
      * (daemon) thread, so that this overlaps building and parsing the command line ({@link
      * trapmap.maps.io.Sidecar#prepare}), and starts the kernel's warm-up ({@link ConvertCommand#warmUpEarly}). For
-     * {@code inspect}: builds the rules' JSON mapper on such a thread ({@link
-     * trapmap.maps.batch.Rules#prepare}). Nothing for help, version or other commands.
+     * {@code inspect}: builds the rules' JSON mapper on such a thread and reads the rules file given with
+     * {@code --rules} once ahead, discarding the result ({@link trapmap.maps.batch.Rules#prepare(Path)}: the command
+     * reads it itself, warm). Nothing for help, version or other commands.
      */
     static void prepare(String... args) {
         if (args.length < 2 || !(args[0].equals("convert") || args[0].equals("inspect"))) {
@@ -125,7 +126,8 @@ public final class TrapmapCommand implements Callable<Integer> {
             }
         }
         if (args[0].equals("inspect")) { // the rules are read first, then each map's metadata
-            Thread t = new Thread(trapmap.maps.batch.Rules::prepare, "rules-mapper");
+            java.nio.file.Path rules = rulesArgument(args);
+            Thread t = new Thread(() -> trapmap.maps.batch.Rules.prepare(rules), "rules-mapper");
             t.setDaemon(true);
             t.start();
             return;
@@ -134,6 +136,25 @@ public final class TrapmapCommand implements Callable<Integer> {
         t.setDaemon(true);
         t.start();
         ConvertCommand.warmUpEarly(args);
+    }
+
+    /**
+     * The file named by {@code --rules FILE} or {@code --rules=FILE} among {@code args} (the first), for a head start
+     * only: picocli parses the command line; null when there is none or it is no path.
+     */
+    static java.nio.file.Path rulesArgument(String... args) {
+        for (int i = 1; i < args.length; i++) {
+            String value = args[i].equals("--rules") && i + 1 < args.length ? args[i + 1]
+                    : args[i].startsWith("--rules=") ? args[i].substring("--rules=".length()) : null;
+            if (value != null) {
+                try {
+                    return java.nio.file.Path.of(value);
+                } catch (java.nio.file.InvalidPathException e) {
+                    return null;
+                }
+            }
+        }
+        return null;
     }
 
     /**

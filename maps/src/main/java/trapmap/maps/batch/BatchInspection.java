@@ -179,6 +179,17 @@ public final class BatchInspection {
          * map is not changed afterwards.
          */
         void row(Map<String, String> row);
+
+        /**
+         * The rows are complete: {@code rows} are those of the results table in its order (as {@link #rows()} tells
+         * the finisher), {@code asTold} whether they are the rows told, in the order told, and {@code recurrence} the
+         * batch's recurrence (as the {@linkplain RecurrenceFinisher finisher} is given it); neither changes
+         * afterwards. Called once, on the writing thread after the last row, before the tables are put in place and
+         * the recurrence maps and {@value #JSON_NAME} are written, so that what is made of them (the summary) can be
+         * made beside that; must return at once. Nothing by default.
+         */
+        default void rowsEnded(List<Map<String, String>> rows, boolean asTold, RecurrenceMap recurrence) {
+        }
     }
 
     /** First-use work of the summary step ({@link #warmingUp}). */
@@ -425,7 +436,7 @@ public final class BatchInspection {
     }
 
     /**
-     * The rows of the results table, in its order, once the run's tables are complete (for the
+     * The rows of the results table, in its order, once the run's rows are complete, after its last wafer (for the
      * {@linkplain #finishingWith finisher}); empty before.
      */
     public List<Map<String, String>> rows() {
@@ -846,6 +857,12 @@ public final class BatchInspection {
             inInputOrder(regionsPartial, tmpRegions, position);
             inInputOrder(partial, tmpPartial, position);
         }
+        builtRecurrence = recurrence;
+        finishedRows = java.util.Collections.unmodifiableList(rows);
+        finishedAsTold = asTold;
+        if (rowListener != null) {
+            rowListener.rowsEnded(finishedRows, asTold, recurrence);
+        }
         move(footprintsPartial, footprints);
         move(regionsPartial, regionsCsv);
         move(partial, csv);
@@ -882,9 +899,6 @@ public final class BatchInspection {
                             CsvCells.text(stem + ".tif")))
                     .append('\n');
         }
-        builtRecurrence = recurrence;
-        finishedRows = java.util.Collections.unmodifiableList(rows);
-        finishedAsTold = asTold;
         Path recurrenceCsv = outDir.resolve(RECURRENCE_NAME);
         OutputFolder.write(recurrenceCsv, () -> AtomicFiles.write(recurrenceCsv,
                 families.toString().getBytes(StandardCharsets.UTF_8)));

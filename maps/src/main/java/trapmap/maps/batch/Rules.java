@@ -346,6 +346,29 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         }
     }
 
+    /**
+     * As {@link #prepare()}, then reads and checks the rules file {@code file} when it is a regular file (not a pipe,
+     * which a second reading would find empty), and makes a SHA-256 digest (the run record's, whose provider is
+     * loaded on first use): the first-use work of the batch's own reading of the same file, done on a background
+     * thread while the command line is parsed. Returns nothing and changes nothing: the batch reads, checks and
+     * hashes the file itself; any failure is ignored (that reading reports its own).
+     */
+    public static void prepare(Path file) {
+        prepare();
+        try {
+            if (file != null && java.nio.file.Files.isRegularFile(file)) {
+                parse(readText(file), file.toString());
+            }
+        } catch (RulesException | RuntimeException e) {
+            // only a head start, as above
+        }
+        try {
+            RunManifest.sha256(new byte[0]);
+        } catch (RuntimeException e) {
+            // as above
+        }
+    }
+
     /** Reads and checks a rules file. */
     public static Rules read(Path file) throws RulesException {
         return parse(readText(file), file.toString());

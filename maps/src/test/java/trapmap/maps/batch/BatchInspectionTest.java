@@ -109,6 +109,43 @@ class BatchInspectionTest {
     }
 
     @Test
+    void theEndOfTheRowsIsToldOnceBeforeTheTablesWithTheRowsAndRecurrenceTheFinisherGets() throws Exception {
+        Path in = maps();
+        Path out = dir.resolve("out");
+        List<Map<String, String>> told = new ArrayList<>();
+        List<Object[]> ended = new ArrayList<>();
+        BatchInspection b = new BatchInspection(rules(SPOT_RULES));
+        b.tellingRows(new BatchInspection.RowListener() {
+            @Override
+            public void row(Map<String, String> row) {
+                told.add(row);
+            }
+
+            @Override
+            public void rowsEnded(List<Map<String, String>> rows, boolean asTold, RecurrenceMap recurrence) {
+                // told before the tables are put in place and results.json and the recurrence maps are written
+                ended.add(new Object[] {rows, asTold, recurrence, Files.exists(out.resolve(BatchInspection.CSV_NAME)),
+                    Files.exists(out.resolve(BatchInspection.JSON_NAME)),
+                    Files.exists(out.resolve(BatchInspection.RECURRENCE_NAME))});
+            }
+        }).finishingWith((d, recurrence) -> {
+            assertThat(ended).hasSize(1);
+            assertThat(ended.get(0)[0]).isSameAs(b.rows());
+            assertThat(ended.get(0)[2]).isSameAs(recurrence);
+        }).run(list(in), out, options(2, false));
+
+        assertThat(ended).hasSize(1);
+        assertThat(ended.get(0)[1]).isEqualTo(true);
+        @SuppressWarnings("unchecked")
+        List<Map<String, String>> rows = (List<Map<String, String>>) ended.get(0)[0];
+        assertThat(rows).containsExactlyElementsOf(told).hasSize(4);
+        assertThat(java.util.Arrays.copyOfRange(ended.get(0), 3, 6)).as("results.csv, results.json, recurrence.csv")
+                .containsExactly(false, false, false); // no table in place yet
+        assertThat(csv(out.resolve(BatchInspection.CSV_NAME))).extracting(r -> r.get("wafer_id"))
+                .containsExactly("w1", "w2", "w3", "w4");
+    }
+
+    @Test
     void passingWafersTakeTheFirstMatchingGradeAndFailedOnesNone() throws Exception {
         Path in = maps();
         BatchInspection.Summary s = new BatchInspection(rules(SPOT_RULES)).run(list(in), dir.resolve("out"),

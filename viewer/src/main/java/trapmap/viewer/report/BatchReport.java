@@ -90,7 +90,7 @@ public final class BatchReport {
         });
     }
 
-    private static void draw(PDDocument doc, BatchContent c) throws IOException {
+    static void draw(PDDocument doc, BatchContent c) throws IOException {
         try (ReportFlow flow = new ReportFlow(doc)) {
             describe(doc);
             head(flow, c);

@@ -24,12 +24,15 @@ import trapmap.maps.io.AtomicFiles;
  * The summary PDF of a batch ({@link BatchReport}) drawn while the batch runs, so that little of it is left for
  * after the last wafer: a thread of its own takes each results row as the batch writes it
  * ({@link BatchInspection#tellingRows}, in the order of {@code results.csv}) and draws its row of the wafer table (the
- * longest part, which starts on a page of its own) into the document. After the last wafer, {@link #write} draws what
- * depends on every wafer (summary page and profile sections, placed before the table; failed wafers, recurrence,
- * errors after it; the footers) and saves the document atomically. The document is the one {@link BatchReport#write}
- * draws from the same rows; where the rows told are not those of the finished table (a resumed run put back in input
- * order, a wafer id that recurs and names its rows by file, a failure of the drawing thread), {@link #write} draws the
- * whole document from the finished rows instead.
+ * longest part, which starts on a page of its own) into the document. Once the rows are complete
+ * ({@link #rowsEnded}, told before the batch writes its tables), the same thread draws what depends on every wafer
+ * (summary page and profile sections, placed before the table; failed wafers, recurrence, errors after it; the
+ * footers) and saves the document into memory, beside the batch writing its tables and {@code results.json};
+ * {@link #write}, after the tables, waits for it and writes the file atomically. The document is the one
+ * {@link BatchReport#write} draws from the same rows; where the rows told are not those of the finished table (a
+ * resumed run put back in input order, a wafer id that recurs and names its rows by file) the thread draws the whole
+ * document from the finished rows instead, and where the thread could not make it (a failure, a runtime that cannot
+ * draw text, rows never told ended), {@link #write} draws it from the finished rows on the calling thread.
  *
  * <p>The drawing thread writes nothing into the output folder; {@link #close} stops it and drops its document.
  */
@@ -61,10 +64,24 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     /** Whether the document drawn so far holds the told rows' table as {@link BatchReport} draws it. */
     private boolean usable;
     private volatile boolean ended;
+    /** What {@link #rowsEnded} was told (set before the end mark is queued, read by the drawing thread after it). */
+    private volatile Ended told;
+    /** The document made by the drawing thread after the rows ended, for {@link #write}; null: none. */
+    private byte[] finished;
     /** The drawing thread's CPU time when it ended, ns; -1: not known. */
     private volatile long drawingCpu = -1;
+    /** The drawing thread's CPU time spent after the rows ended (finishing the document), ns; -1: none or unknown. */
+    private volatile long finishingCpu = -1;
     /** Whether the last {@link #write} used the table drawn ahead (a test's view). */
     private boolean drewAhead;
+    /** Whether the last {@link #write} wrote the document finished by the drawing thread (a test's view). */
+    private boolean finishedAhead;
+    /** Whether {@link #write} ran (else {@link #close} interrupts the drawing thread). */
+    private volatile boolean written;
+
+    /** The complete rows and the recurrence, as {@link #rowsEnded} was told them. */
+    private record Ended(List<Map<String, String>> rows, boolean asTold, RecurrenceMap recurrence) {
+    }
 
     private SummaryDraft(Path outDir, Rules rules, int expectedRows, BooleanSupplier drawable) {
         this.outDir = outDir;
@@ -92,6 +109,20 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     public void row(Map<String, String> row) {
         if (!ended) {
             queue.add(row);
+        }
+    }
+
+    /**
+     * The rows are complete: the drawing thread finishes the document after the rows told so far (from
+     * {@code finishedRows}, the finished table, where they differ from the rows told) and saves it into memory for
+     * {@link #write}; returns at once.
+     */
+    @Override
+    public void rowsEnded(List<Map<String, String>> finishedRows, boolean asTold, RecurrenceMap recurrence) {
+        if (!ended) {
+            told = new Ended(finishedRows, asTold, recurrence);
+            ended = true;
+            queue.add(END);
         }
     }
 
@@ -143,11 +174,76 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
             }
         } catch (InterruptedException e) {
             usable = false;
+            return;
         } catch (Exception | Error e) {
-            // out of memory or a runtime that cannot draw included: the summary step draws it all again after the
-            // last wafer and reports its own failure (an error thrown here would only end this thread)
+            // out of memory or a runtime that cannot draw text included: the summary step draws it all again after
+            // the last wafer and reports its own failure (an error thrown here would only end this thread)
             usable = false;
+            return;
         }
+        Ended e = told;
+        if (e != null) {
+            long from = BatchInspection.threadCpuNanos();
+            try {
+                finished = finish(e);
+            } catch (Exception | Error failure) {
+                finished = null; // drawn again by write(), which reports the failure
+            } finally {
+                usable = false; // the document drawn ahead is finished (or broken) either way
+                dropQuietly();
+                long to = BatchInspection.threadCpuNanos();
+                finishingCpu = from < 0 || to < 0 ? -1 : to - from;
+            }
+        }
+    }
+
+    /**
+     * The whole document in memory, on the drawing thread: the table drawn ahead finished when it holds the rows
+     * {@code e} names, in their order; else drawn anew from them.
+     */
+    private byte[] finish(Ended e) throws IOException {
+        java.io.ByteArrayOutputStream bytes = new java.io.ByteArrayOutputStream(1 << 20);
+        if (!usable || !e.asTold() || rows.size() != e.rows().size() || rows.size() != expected) {
+            dropDocument();
+            drewAhead = false;
+            try (PDDocument d = new PDDocument()) {
+                BatchReport.draw(d, content(e.rows(), e.recurrence()));
+                d.save(bytes);
+            }
+            return bytes.toByteArray();
+        }
+        BatchContent c = new BatchContent(outDir, rules, rows, e.recurrence().families(), null,
+                HotSpots.Criteria.DEFAULT, e.recurrence().refused());
+        table.end();
+        BatchReport.describe(doc);
+        try (ReportFlow head = new ReportFlow(doc, tableStart)) {
+            BatchReport.head(head, c);
+        }
+        stopIfCancelled();
+        BatchReport.tail(flow, c, pictures::get);
+        BatchReport.footers(doc, c);
+        stopIfCancelled();
+        doc.save(bytes);
+        drewAhead = true;
+        return bytes.toByteArray();
+    }
+
+    /** Ends the drawing after a step when {@link #close} interrupted it (a batch that failed or was cancelled). */
+    private static void stopIfCancelled() throws java.io.InterruptedIOException {
+        if (Thread.currentThread().isInterrupted()) {
+            throw new java.io.InterruptedIOException("summary cancelled");
+        }
+    }
+
+    /** The content of the summary of {@code finishedRows} (cells as made) and {@code recurrence}. */
+    private BatchContent content(List<Map<String, String>> finishedRows, RecurrenceMap recurrence) {
+        List<BatchContent.Row> all = new ArrayList<>(finishedRows.size());
+        List<String> figures = BatchFolder.figureColumns(rules);
+        for (Map<String, String> cells : finishedRows) {
+            all.add(BatchFolder.row(cells, figures));
+        }
+        return new BatchContent(outDir, rules, all, recurrence.families(), null, HotSpots.Criteria.DEFAULT,
+                recurrence.refused());
     }
 
     /**
@@ -186,18 +282,24 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
      */
     public Path write(RecurrenceMap recurrence, List<Map<String, String>> finishedRows, boolean asTold)
             throws IOException, InterruptedException {
+        written = true;
         end();
         Path pdf = outDir.resolve(BatchReport.FILE_NAME);
+        Ended e = told;
+        if (finished != null && e != null && e.recurrence() == recurrence && e.rows() == finishedRows
+                && e.asTold() == asTold) {
+            byte[] bytes = finished;
+            finished = null;
+            finishedAhead = true;
+            AtomicFiles.write(pdf, bytes);
+            return pdf;
+        }
+        finished = null;
+        finishedAhead = false;
         if (!usable || !asTold || rows.size() != finishedRows.size() || rows.size() != expected) {
-            List<BatchContent.Row> all = new ArrayList<>(finishedRows.size());
-            List<String> figures = BatchFolder.figureColumns(rules);
-            for (Map<String, String> cells : finishedRows) {
-                all.add(BatchFolder.row(cells, figures));
-            }
             dropDocument();
             drewAhead = false;
-            BatchReport.write(new BatchContent(outDir, rules, all, recurrence.families(), null,
-                    HotSpots.Criteria.DEFAULT, recurrence.refused()), pdf);
+            BatchReport.write(content(finishedRows, recurrence), pdf);
             return pdf;
         }
         BatchContent c = new BatchContent(outDir, rules, rows, recurrence.families(), null, HotSpots.Criteria.DEFAULT,
@@ -226,9 +328,23 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
         return drawingCpu;
     }
 
+    /**
+     * The CPU time the drawing thread spent finishing the document after the rows ended ({@link #rowsEnded}),
+     * nanoseconds, once {@link #write} or {@link #close} ended it: the summary's serial work, done beside the batch's
+     * tables; -1 for none or where the system does not tell.
+     */
+    public long finishingCpuNanos() {
+        return finishingCpu;
+    }
+
     /** Whether the last {@link #write} used the wafer table drawn while the batch ran. */
     boolean drewAhead() {
         return drewAhead;
+    }
+
+    /** Whether the last {@link #write} wrote the document the drawing thread finished beside the tables. */
+    boolean finishedAhead() {
+        return finishedAhead;
     }
 
     /** Ends the drawing thread after the rows told so far. */
@@ -239,6 +355,14 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
         }
         warm.countDown();
         thread.join();
+    }
+
+    private void dropQuietly() {
+        try {
+            dropDocument();
+        } catch (IOException | RuntimeException e) {
+            // only memory: the document is not used again
+        }
     }
 
     private void dropDocument() throws IOException {
@@ -253,8 +377,8 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     /** Stops the drawing thread (when {@link #write} did not run) and drops the document. */
     @Override
     public void close() throws IOException {
-        if (!ended) {
-            ended = true;
+        ended = true;
+        if (!written) {
             thread.interrupt();
         }
         try {
@@ -262,6 +386,7 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt();
         }
+        finished = null;
         dropDocument();
     }
 }

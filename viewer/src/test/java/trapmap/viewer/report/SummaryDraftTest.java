@@ -41,6 +41,7 @@ class SummaryDraftTest {
         SummaryDraft draft = drawn(files, dir.resolve("out"), 2);
 
         assertThat(draft.drewAhead()).isTrue();
+        assertThat(draft.finishedAhead()).as("finished beside the tables").isTrue();
         assertSameAsFromFolder(dir.resolve("out"));
     }
 
@@ -56,6 +57,7 @@ class SummaryDraftTest {
         SummaryDraft draft = drawn(files, dir.resolve("out"), 1);
 
         assertThat(draft.drewAhead()).isFalse();
+        assertThat(draft.finishedAhead()).as("drawn anew beside the tables").isTrue();
         assertSameAsFromFolder(dir.resolve("out"));
     }
 
