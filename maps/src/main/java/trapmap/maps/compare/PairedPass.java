@@ -408,6 +408,7 @@ final class PairedPass {
             int overlap = 0;
             Target.State sd = difference.state;
             Target.State sr = ratio.state;
+            int better = higherIsBetter ? 1 : 0;
             for (int i = from; i < to; i++) {
                 double vb = b[i];
                 double va = a[i];
@@ -429,11 +430,14 @@ final class PairedPass {
                     sumInverseAfter += 1 / va;
                     ratios.take(sr, key(r));
                     double change = d / vb;
-                    if (Math.abs(change) <= relativeTolerance) {
-                        unchanged++;
-                    } else if ((change > 0) == higherIsBetter) {
-                        improved++;
-                    }
+                    // Counted without branches (whether a pixel changed depends on the data, and a branch the
+                    // compiled loop had not seen taken would be a trap that has it compiled again): change is not
+                    // NaN (finite values, vb > 0), so |change| <= tolerance exactly when tolerance - |change| has its
+                    // sign bit clear, and change > 0 exactly when 0 - change has it set.
+                    int same = 1 - signBit(relativeTolerance - Math.abs(change));
+                    int up = signBit(0.0 - change);
+                    unchanged += same;
+                    improved += (1 - same) & (1 - (up ^ better));
                 }
             }
             sums[4 * block] = sumDifference;
@@ -476,6 +480,11 @@ final class PairedPass {
     }
 
     /** True when pixel i has data in both maps and lies in the region (null: everywhere). */
+    /** 1 when {@code x} is negative or −0, else 0: its sign bit. */
+    private static int signBit(double x) {
+        return (int) (Double.doubleToRawLongBits(x) >>> 63);
+    }
+
     private static boolean paired(double vb, double va, Mask region, int i) {
         return Double.isFinite(vb) && Double.isFinite(va) && (region == null || region.containsIndex(i));
     }
