@@ -353,7 +353,7 @@ final class PairedPass {
                 return;
             }
             if (key < target.lo) {
-                below = Math.max(below, key);
+                below = larger(below, key);
                 countBelow++;
             } else if (target.single) {
                 if (key == target.lo) {
@@ -495,6 +495,17 @@ final class PairedPass {
             differences.add(o.differences);
             ratios.add(o.ratios);
         }
+    }
+
+    /**
+     * max(a, b) without a branch (which of the two is larger depends on the data, and a side the compiled pass
+     * had not seen would be a trap): a &lt; b is the sign bit of (a − b) ⊕ ((a ⊕ b) &amp; ((a − b) ⊕ a)), the
+     * difference's sign corrected for overflow (Warren, Hacker's Delight, 2nd ed., section 2-12).
+     */
+    static long larger(long a, long b) {
+        long d = a - b;
+        long aSmaller = (d ^ ((a ^ b) & (d ^ a))) >> 63; // all ones when a < b
+        return a ^ ((a ^ b) & aSmaller);
     }
 
     /** 1 when {@code x} is negative or −0, else 0: its sign bit. */

@@ -225,6 +225,17 @@ class PairedPassTest {
     }
 
     @Test
+    void largerIsTheMaximumAlsoWhereTheDifferenceOverflows() {
+        long[] v = {Long.MIN_VALUE, Long.MIN_VALUE + 1, -5, -1, 0, 1, 7, Long.MAX_VALUE - 1, Long.MAX_VALUE};
+        Random r = new Random(3);
+        for (int k = 0; k < 2000; k++) {
+            long a = k < 81 ? v[k % 9] : r.nextLong();
+            long b = k < 81 ? v[k / 9] : r.nextLong();
+            assertThat(PairedPass.larger(a, b)).as("%d, %d", a, b).isEqualTo(Math.max(a, b));
+        }
+    }
+
+    @Test
     void keysSortAsTheValues() {
         double[] v = {Double.NEGATIVE_INFINITY, -1e300, -1, -Double.MIN_VALUE, 0, Double.MIN_VALUE, 1e-300, 1,
             1 + Math.ulp(1.0), 1e300, Double.POSITIVE_INFINITY};
