@@ -23,7 +23,7 @@ final class Correlation {
      */
     static Result weighted(Pyramid.Level a, Pyramid.Level b, Registration r) {
         int stride = (int) Math.ceil(Math.sqrt(a.validCount / (double) SAMPLES));
-        Result c = correlate(a, a.value, b, b.valueWeight, PixelMapping.of(a.grid, b.grid, r), true,
+        Result c = correlate(a, a.value, b, b.valueWeight, PixelMapping.of(a.grid, b.grid, r), 1.0,
                 Math.max(1, stride));
         return stride <= 1 ? c : new Result(c.ncc(), c.pixels() * stride * stride);
     }
@@ -34,16 +34,20 @@ final class Correlation {
      * chance between unrelated wafers and carry little information about the placement.
      */
     static Result plain(Pyramid.Level a, Pyramid.Level b, Registration r) {
-        return correlate(a, a.detail(), b, b.detailWeight(), PixelMapping.of(a.grid, b.grid, r), false, 1);
+        return correlate(a, a.detail(), b, b.detailWeight(), PixelMapping.of(a.grid, b.grid, r), 0.0, 1);
     }
 
     /**
      * @param va values of A
      * @param vwb values and weights of B, interleaved
+     * @param weighted 1 to weight each pixel by the product of the tapers, 0 for equal weights: a number that
+     *                 enters the sums' weight as w_A·w_B·weighted + (1 − weighted), exactly w_A·w_B or 1 (both
+     *                 tapers are positive there), instead of a test in the loop, which the compiler, having seen one
+     *                 kind of call, would hoist out of the loop as a check that fails at the first call of the other
      * @param stride every stride-th pixel of every stride-th row of A is used
      */
     private static Result correlate(Pyramid.Level a, float[] va, Pyramid.Level b, float[] vwb, PixelMapping m,
-                                    boolean weighted, int stride) {
+                                    double weighted, int stride) {
         float[] wa = a.weight;
         int bw = b.width;
         int bh = b.height;
@@ -83,7 +87,7 @@ final class Correlation {
                 }
                 double vB = (1 - fy) * (gx * vwb[i] + fx * vwb[i + 2]) + fy * (gx * vwb[j] + fx * vwb[j + 2]);
                 double vA = va[row + x];
-                double w = weighted ? wA * wB : 1;
+                double w = wA * wB * weighted + (1 - weighted);
                 double wa1 = w * vA;
                 sw += w;
                 sa += wa1;

@@ -218,6 +218,12 @@ final class PairedPass {
             hi = key(selector.select(w, pivots, Math.min(m - 1, m / 2 + margin)));
             bracketed = true;
             state = State.GATHER;
+            // A bracket of one value (ties, e.g. every difference 0): its values are counted, not gathered (they
+            // would overflow the gathering and cost a pass over the pixels for each 16 bits of the key).
+            single = lo == hi;
+            if (single) {
+                upper = value(lo);
+            }
         }
 
         /** Back to narrowing from the whole key range (a bracket that missed or overflowed). */
@@ -282,14 +288,19 @@ final class PairedPass {
             }
         }
 
-        /** Takes in a pass's histogram, or its gathered values and the largest key below the range. */
-        void after(int[] hist, double[] gathered, long largestBelow, int countedBelow, boolean overflow) {
+        /**
+         * Takes in a pass's histogram, or its gathered values (for a range of one key, the count of that key) and
+         * the largest key below the range.
+         */
+        void after(int[] hist, double[] gathered, int counted, long largestBelow, int countedBelow,
+                   boolean overflow) {
             if (state == State.HISTOGRAM) {
                 narrow(hist);
             } else if (state == State.GATHER) {
                 if (bracketed) {
                     below = countedBelow;
-                    if (overflow || rank < below || rank >= below + gathered.length) {
+                    int inBracket = single ? counted : gathered.length;
+                    if (overflow || rank < below || rank >= below + inBracket) {
                         whole();
                         return;
                     }
@@ -317,6 +328,8 @@ final class PairedPass {
         int[] hist;
         double[] gathered;
         int n;
+        /** Values with the key of a range of one key. */
+        int atKey;
         long below = Long.MIN_VALUE;
         int countBelow;
         boolean overflow;
@@ -340,9 +353,13 @@ final class PairedPass {
                 return;
             }
             if (key < target.lo) {
-                below = Math.max(below, key);
+                below = larger(below, key);
                 countBelow++;
-            } else if (!target.single && target.inRange(key) && !overflow) {
+            } else if (target.single) {
+                if (key == target.lo) {
+                    atKey++;
+                }
+            } else if (target.inRange(key) && !overflow) {
                 if (n == MAX_GATHERED) {
                     overflow = true;
                     return;
@@ -367,6 +384,7 @@ final class PairedPass {
                 gathered = all;
                 n += o.n;
             }
+            atKey += o.atKey;
             below = Math.max(below, o.below);
             countBelow += o.countBelow;
             overflow |= o.overflow;
@@ -374,7 +392,7 @@ final class PairedPass {
 
         /** Gives the pass's findings to the target, which narrows its range or picks its middle values. */
         void handTo(Target t) {
-            t.after(hist, trimmed(gathered, n), below, countBelow, overflow);
+            t.after(hist, trimmed(gathered, n), atKey, below, countBelow, overflow);
         }
     }
 
@@ -408,6 +426,7 @@ final class PairedPass {
             int overlap = 0;
             Target.State sd = difference.state;
             Target.State sr = ratio.state;
+            int better = higherIsBetter ? 1 : 0;
             for (int i = from; i < to; i++) {
                 double vb = b[i];
                 double va = a[i];
@@ -429,11 +448,14 @@ final class PairedPass {
                     sumInverseAfter += 1 / va;
                     ratios.take(sr, key(r));
                     double change = d / vb;
-                    if (Math.abs(change) <= relativeTolerance) {
-                        unchanged++;
-                    } else if ((change > 0) == higherIsBetter) {
-                        improved++;
-                    }
+                    // Counted without branches (whether a pixel changed depends on the data, and a branch the
+                    // compiled loop had not seen taken would be a trap that has it compiled again): change is not
+                    // NaN (finite values, vb > 0), so |change| <= tolerance exactly when tolerance - |change| has its
+                    // sign bit clear, and change > 0 exactly when 0 - change has it set.
+                    int same = 1 - signBit(relativeTolerance - Math.abs(change));
+                    int up = signBit(0.0 - change);
+                    unchanged += same;
+                    improved += (1 - same) & (1 - (up ^ better));
                 }
             }
             sums[4 * block] = sumDifference;
@@ -473,6 +495,22 @@ final class PairedPass {
             differences.add(o.differences);
             ratios.add(o.ratios);
         }
+    }
+
+    /**
+     * max(a, b) without a branch (which of the two is larger depends on the data, and a side the compiled pass
+     * had not seen would be a trap): a &lt; b is the sign bit of (a − b) ⊕ ((a ⊕ b) &amp; ((a − b) ⊕ a)), the
+     * difference's sign corrected for overflow (Warren, Hacker's Delight, 2nd ed., section 2-12).
+     */
+    static long larger(long a, long b) {
+        long d = a - b;
+        long aSmaller = (d ^ ((a ^ b) & (d ^ a))) >> 63; // all ones when a < b
+        return a ^ ((a ^ b) & aSmaller);
+    }
+
+    /** 1 when {@code x} is negative or −0, else 0: its sign bit. */
+    private static int signBit(double x) {
+        return (int) (Double.doubleToRawLongBits(x) >>> 63);
     }
 
     /** True when pixel i has data in both maps and lies in the region (null: everywhere). */

@@ -295,23 +295,57 @@ final class Pyramid {
             return out;
         }
 
-        /** NaN-aware 1-2-1 smoothing in x and y; pixels without data stay without. */
-        private static float[] binomial(float[] s, int w, int h) {
+        /**
+         * NaN-aware 1-2-1 smoothing in x and y; pixels without data stay without. The first and last pixel of a
+         * row, and the first and last row, have their own code instead of a test in the loops: a test that fails
+         * once per row is hoisted out of a compiled loop as a check that holds for the whole loop, which then fails
+         * at the row's end and has the code compiled again.
+         */
+        static float[] binomial(float[] s, int w, int h) {
             float[] t = new float[s.length];
             for (int y = 0; y < h; y++) {
-                for (int x = 0; x < w; x++) {
-                    int i = y * w + x;
-                    t[i] = s[i] == s[i] ? smooth3(s, i, x > 0 ? i - 1 : -1, x < w - 1 ? i + 1 : -1) : Float.NaN;
-                }
+                alongRow(s, t, y * w, w);
             }
             float[] u = new float[s.length];
             for (int y = 0; y < h; y++) {
-                for (int x = 0; x < w; x++) {
-                    int i = y * w + x;
-                    u[i] = t[i] == t[i] ? smooth3(t, i, y > 0 ? i - w : -1, y < h - 1 ? i + w : -1) : Float.NaN;
+                if (y > 0 && y < h - 1) {
+                    acrossRows(t, u, y * w, w);
+                } else {
+                    edgeRow(t, u, y * w, w, y > 0, y < h - 1);
                 }
             }
             return u;
+        }
+
+        /** The x pass over the row starting at {@code row}: neighbours left and right within the row. */
+        private static void alongRow(float[] s, float[] t, int row, int w) {
+            int last = row + w - 1;
+            t[row] = smoothed(s, row, -1, w > 1 ? row + 1 : -1);
+            for (int i = row + 1; i < last; i++) {
+                t[i] = smoothed(s, i, i - 1, i + 1);
+            }
+            if (w > 1) {
+                t[last] = smoothed(s, last, last - 1, -1);
+            }
+        }
+
+        /** The y pass over a row with rows above and below. */
+        private static void acrossRows(float[] t, float[] u, int row, int w) {
+            for (int i = row, end = row + w; i < end; i++) {
+                u[i] = smoothed(t, i, i - w, i + w);
+            }
+        }
+
+        /** The y pass over the first or last row (or the only one). */
+        private static void edgeRow(float[] t, float[] u, int row, int w, boolean above, boolean below) {
+            for (int i = row, end = row + w; i < end; i++) {
+                u[i] = smoothed(t, i, above ? i - w : -1, below ? i + w : -1);
+            }
+        }
+
+        /** {@link #smooth3} at a pixel with data, NaN at one without. */
+        private static float smoothed(float[] s, int i, int before, int after) {
+            return s[i] == s[i] ? smooth3(s, i, before, after) : Float.NaN;
         }
 
         private static float smooth3(float[] s, int i, int before, int after) {

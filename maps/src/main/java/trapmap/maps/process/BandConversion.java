@@ -101,8 +101,9 @@ public final class BandConversion {
      * just-in-time compiler has the kernel compiled before the first band of the real map arrives, while the calling
      * thread still opens the input: in a fresh process, the first bands otherwise run several times slower in the
      * interpreter and the lower compiler tiers. {@code guess} are the conditions known so far (e.g. the flags over
-     * {@link #WARM_UP_CONDITIONS}); they only steer which kernel paths are exercised (fixed injection or generation,
-     * the planes of {@code wanted}). The warm-up changes no result, keeps no state the conversion reads, and stops
+     * {@link #WARM_UP_CONDITIONS}); they only steer which kernel paths are exercised most (fixed injection or
+     * generation, the planes of {@code wanted}; the other way of giving the injection and a status plane
+     * now and then, see {@link #OTHER_EVERY}). The warm-up changes no result, keeps no state the conversion reads, and stops
      * when the returned handle is closed, after {@value #WARM_UP_ROUNDS} rounds, or at its first failure (which it
      * ignores: the real conversion checks and reports).
      */
@@ -118,16 +119,49 @@ public final class BandConversion {
                     tau[i] = i % 13 == 0 ? Float.NaN : i % 101 == 0 ? 5e-4f : (float) (0.5 * Math.pow(1e4,
                             (i * 0.618034) % 1.0));
                 }
+                TrapDensityConverter other = otherInjection(guess, settings, defect);
                 ConversionOutput out = planes(wanted, reference, tau.length);
+                ConversionOutput withStatus = new ConversionOutput(out.trapDensity, out.trapDensityMin,
+                        out.trapDensityMax, out.occupancy, out.srhLifetimeUs, out.injection, out.lifetimeAtReferenceUs,
+                        new byte[tau.length], null);
                 TrapDensityConverter.Tally tally = new TrapDensityConverter.Tally();
                 for (int r = 0; r < WARM_UP_ROUNDS && !stopped.getAsBoolean(); r++) {
                     int row = r % WARM_UP_ROWS;
-                    k.convertRows(tau, WARM_UP_WIDTH, row, row + 1, out, tally);
+                    TrapDensityConverter c = other != null && r % OTHER_EVERY == 0 ? other : k;
+                    c.convertRows(tau, WARM_UP_WIDTH, row, row + 1, r % OTHER_EVERY == 2 ? withStatus : out, tally);
                 }
             } catch (RuntimeException e) {
                 // a head start only: the conversion itself checks the conditions and reports
             }
         });
+    }
+
+    /**
+     * Every this many rounds a warm-up converts its row with the other way of giving the injection (a fixed Δn
+     * instead of a generation rate, or the reverse), and as many rounds (half-way between) with a status plane
+     * besides the wanted one, as {@link MapConversion#convert} (used by {@code stats}) asks for. The kernel's code has
+     * a path for each, and a path its profile never saw is compiled as a trap: a map whose conditions choose the
+     * other way than {@code guess} (conditions from the map's metadata, not from the flags), or a conversion with a
+     * status plane, would throw the compiled kernel away at its first pixels and have it compiled again while the
+     * map waits. Run now and then, those paths are compiled too, at no cost to the others.
+     */
+    private static final int OTHER_EVERY = 4;
+
+    /**
+     * A converter like {@code guess}'s with the other way of giving the injection: Δn = 1e15 cm^-3 for a guess with a
+     * generation rate, else the generation rate of {@link #WARM_UP_CONDITIONS}; null when those conditions are
+     * refused.
+     */
+    private static TrapDensityConverter otherInjection(MeasurementConditions guess, ConversionSettings settings,
+                                                       Defect defect) {
+        MeasurementConditions other = guess.generationPerCm3PerS() != null
+                ? guess.withGeneration(null).withInjection(1e15)
+                : guess.withInjection(null).withGeneration(WARM_UP_CONDITIONS.generationPerCm3PerS());
+        try {
+            return new TrapDensityConverter(MapConversion.physicsConditions(other, settings), defect);
+        } catch (RuntimeException e) {
+            return null;
+        }
     }
 
     /**

@@ -171,6 +171,34 @@ class PairedPassTest {
     }
 
     @Test
+    void aBracketOfOneValueCountsItsTies() {
+        // enough pixels for a bracket from the sample; the middle of the sample is one value (a tie), so the bracket
+        // holds a single key: every difference 0 and every ratio 1 (a map and its copy), most values tied with
+        // some spread on both sides (odd and even counts), and a sample that sees only the tie while the middle lies
+        // elsewhere (the bracket is dropped)
+        Random r = new Random(9);
+        float[] b = new float[W * 400];
+        for (int i = 0; i < b.length; i++) {
+            b[i] = (float) (100 + 20 * r.nextGaussian());
+        }
+        check(b, b.clone(), null, true);
+        check(b, b.clone(), null, false);
+        float[] a = b.clone();
+        for (int i = 0; i < a.length; i++) {
+            int k = r.nextInt(10);
+            a[i] = k < 7 ? b[i] : b[i] * (k < 9 ? 1.5f : 0.5f);
+        }
+        check(b, a, null, true);
+        a[1] = Float.NaN; // an odd count
+        check(b, a, null, false);
+        float[] skewed = b.clone();
+        for (int i = 0; i < skewed.length; i++) {
+            skewed[i] = i % 251 == 0 ? b[i] : b[i] * (2 + r.nextFloat());
+        }
+        check(b, skewed, null, true);
+    }
+
+    @Test
     void aBracketThatMissesTheMiddleIsDropped() {
         // the sampled pixels (every 61st) see only small values, the others only large ones: the sample's bracket
         // lies wholly below the middle
@@ -194,6 +222,17 @@ class PairedPassTest {
         assertThat(s.medianDifference()).isNaN();
         assertThat(s.medianRatio()).isNaN();
         check(new float[] {1, -1}, new float[] {2, 3}, null, true);
+    }
+
+    @Test
+    void largerIsTheMaximumAlsoWhereTheDifferenceOverflows() {
+        long[] v = {Long.MIN_VALUE, Long.MIN_VALUE + 1, -5, -1, 0, 1, 7, Long.MAX_VALUE - 1, Long.MAX_VALUE};
+        Random r = new Random(3);
+        for (int k = 0; k < 2000; k++) {
+            long a = k < 81 ? v[k % 9] : r.nextLong();
+            long b = k < 81 ? v[k / 9] : r.nextLong();
+            assertThat(PairedPass.larger(a, b)).as("%d, %d", a, b).isEqualTo(Math.max(a, b));
+        }
     }
 
     @Test

@@ -53,6 +53,33 @@ class BandConversionTest {
         assertSameTally(sum, t1);
     }
 
+    /**
+     * A raster of several kernel blocks given as one row (as the batch gives a wafer's evaluated pixels) converts like
+     * the same pixels one at a time: same planes bit for bit, same counts, also for a length that is not a whole
+     * number of blocks.
+     */
+    @ParameterizedTest(name = "generation={0}")
+    @ValueSource(booleans = {false, true})
+    void oneLongRowConvertsLikeSinglePixels(boolean generation) {
+        Conditions c = Conditions.of(Doping.pType(1e16), generation ? Injection.generation(1e19)
+                : Injection.fixed(1e14)).withSurface(Surface.sproul(180, 10)).withReferenceInjection(1e15);
+        TrapDensityConverter conv = new TrapDensityConverter(c, DefectLibrary.byId("fe-i"));
+        int n = 3 * TrapDensityConverter.BLOCK_PIXELS + 17;
+        float[] tau = raster(n, 11L);
+        ConversionOutput whole = ConversionOutput.allocateAll(n);
+        TrapDensityConverter.Tally wholeTally = new TrapDensityConverter.Tally();
+        conv.convertRows(tau, n, 0, 1, whole, wholeTally);
+        ConversionOutput single = ConversionOutput.allocateAll(n);
+        TrapDensityConverter.Tally singleTally = new TrapDensityConverter.Tally();
+        for (int i = 0; i < n; i++) {
+            conv.convertRows(tau, 1, i, i + 1, single, singleTally);
+        }
+        assertSamePlanes(whole, 0, single, 0, n, "one row of " + n + " pixels");
+        assertSameTally(wholeTally, singleTally);
+        assertThat(wholeTally.statusCounts()).isEqualTo(countStatus(whole.status));
+        assertThat(wholeTally.warningPixels()).isEqualTo(countWarnings(whole.warnings));
+    }
+
     @ParameterizedTest(name = "rowTo={0}")
     @ValueSource(ints = {-1, 4})
     void rowsOutsideTheRasterAreRefused(int rowTo) {
