@@ -113,22 +113,33 @@ public final class BandConversion {
                 TrapDensityConverter k = new TrapDensityConverter(MapConversion.physicsConditions(guess, settings),
                         defect);
                 boolean reference = !Double.isNaN(settings.referenceInjectionPerCm3());
-                float[] tau = new float[WARM_UP_ROWS * WARM_UP_WIDTH];
-                for (int i = 0; i < tau.length; i++) { // 0.5 µs to 5 ms, some without data, a few below the floor
-                    tau[i] = i % 13 == 0 ? Float.NaN : i % 101 == 0 ? 5e-4f : (float) (0.5 * Math.pow(1e4,
-                            (i * 0.618034) % 1.0));
-                }
-                ConversionOutput out = planes(wanted, reference, tau.length);
-                TrapDensityConverter.Tally tally = new TrapDensityConverter.Tally();
-                for (int r = 0; r < WARM_UP_ROUNDS && !stopped.getAsBoolean(); r++) {
-                    int row = r % WARM_UP_ROWS;
-                    k.convertRows(tau, WARM_UP_WIDTH, row, row + 1, out, tally);
-                }
+                warmUpRounds(List.of(k), planes(wanted, reference, WARM_UP_PIXELS), stopped);
             } catch (RuntimeException e) {
                 // a head start only: the conversion itself checks the conditions and reports
             }
         });
     }
+
+    /**
+     * The rounds of a warm-up: converts the rows of the warm-up raster into {@code out} one at a time, row after row,
+     * by each of {@code kernels} in turn, {@value #WARM_UP_ROUNDS} rows in all or until {@code stopped}.
+     */
+    static void warmUpRounds(List<TrapDensityConverter> kernels, ConversionOutput out,
+                             java.util.function.BooleanSupplier stopped) {
+        float[] tau = new float[WARM_UP_ROWS * WARM_UP_WIDTH];
+        for (int i = 0; i < tau.length; i++) { // 0.5 µs to 5 ms, some without data, a few below the floor
+            tau[i] = i % 13 == 0 ? Float.NaN : i % 101 == 0 ? 5e-4f : (float) (0.5 * Math.pow(1e4,
+                    (i * 0.618034) % 1.0));
+        }
+        TrapDensityConverter.Tally tally = new TrapDensityConverter.Tally();
+        for (int r = 0; r < WARM_UP_ROUNDS && !stopped.getAsBoolean(); r++) {
+            int row = r % WARM_UP_ROWS;
+            kernels.get(r % kernels.size()).convertRows(tau, WARM_UP_WIDTH, row, row + 1, out, tally);
+        }
+    }
+
+    /** Pixels of the warm-up raster. */
+    static final int WARM_UP_PIXELS = WARM_UP_ROWS * WARM_UP_WIDTH;
 
     /**
      * The one plane a band of {@code n} pixels needs for {@code wanted} (the status plane for {@link Quantity#STATUS});
