@@ -56,7 +56,8 @@ public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, 
         // per block: evaluated, below limit, non-finite, non-positive, invalid conversion, area (integers: the sums
         // are the same whatever the split)
         int[][] counts = new int[blocks][];
-        Blocks.run(blocks, n, b -> counts[b] = block(b, n, v, m, areaWords, status, lifetimeFloor, out));
+        Blocks.run(blocks, n, b -> counts[b] = block(b * Mask.BLOCK_PX, (int) Math.min(n, (long) (b + 1) * Mask.BLOCK_PX),
+                v, m, areaWords, status, lifetimeFloor, out));
         int[] sum = new int[6];
         for (int[] c : counts) {
             for (int k = 0; k < sum.length; k++) {
@@ -94,19 +95,20 @@ public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, 
     }
 
     /**
-     * One block of {@link Mask#BLOCK_PX} pixels, 64 at a time as bit words: writes its words of the mask into
-     * {@code out} and returns its counts {evaluated, below limit, non-finite, non-positive, invalid conversion,
-     * area}. Each unusable pixel counts under the first cause of {@link InvalidArea#cause} that applies.
+     * The pixels [from, end) of a map of {@code v.length} pixels, {@code from} a multiple of 64 (a block of
+     * {@link Mask#BLOCK_PX} pixels, or less at the map's end), 64 at a time as bit words: writes their words of the
+     * mask into {@code out} and returns their counts {evaluated, below limit, non-finite, non-positive, invalid
+     * conversion, area}. Each unusable pixel counts under the first cause of {@link InvalidArea#cause} that applies.
+     * (The caller bounds the block, so that the compiled code of a warm-up on a small map takes no other path.)
      */
-    static int[] block(int b, int n, float[] v, float[] m, long[] areaWords, byte[] status, boolean lifetimeFloor,
+    static int[] block(int from, int end, float[] v, float[] m, long[] areaWords, byte[] status, boolean lifetimeFloor,
                        long[] out) {
         byte ok = PixelStatus.OK.code();
         byte belowLimit = PixelStatus.BELOW_LIMIT.code();
         byte invalid = PixelStatus.INVALID.code();
         byte noData = PixelStatus.NO_DATA.code();
         int[] c = new int[6];
-        int end = (int) Math.min(n, (long) (b + 1) * Mask.BLOCK_PX);
-        for (int i = b * Mask.BLOCK_PX; i < end; i += 64) {
+        for (int i = from; i < end; i += 64) {
             int len = Math.min(64, end - i);
             if (areaWords != null && areaWords[i >>> 6] == 0) {
                 out[i >>> 6] = 0; // no pixel of the area (outside the wafer): nothing to count
