@@ -121,20 +121,33 @@ public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, 
             long unusable = 0;   // ... and invalid for the conversion (status, or the lifetime floor without one)
             long okBits = 0;
             long belowBits = 0;
-            for (int j = 0; j < len; j++) {
-                float x = v[i + j];
-                float y = m[i + j];
-                valid |= (x == x ? 1L : 0L) << j;
-                hasData |= (y == y ? 1L : 0L) << j;
-                finite |= (Float.isFinite(y) ? 1L : 0L) << j;
-                positive |= (y > 0 ? 1L : 0L) << j;
-                if (status != null) {
-                    byte s = status[i + j];
-                    okBits |= (s == ok ? 1L : 0L) << j;
-                    belowBits |= (s == belowLimit ? 1L : 0L) << j;
-                    unusable |= (s == invalid || s == noData ? 1L : 0L) << j;
-                } else {
-                    unusable |= (lifetimeFloor && y < TrapDensityConverter.LIFETIME_FLOOR_US ? 1L : 0L) << j;
+            if (status != null && len == 64 && allOk(status, i)) {
+                // the usual word inside the wafer: every status OK, so only the values' bits are to be found
+                for (int j = 0; j < 64; j++) {
+                    float x = v[i + j];
+                    float y = m[i + j];
+                    valid |= (x == x ? 1L : 0L) << j;
+                    hasData |= (y == y ? 1L : 0L) << j;
+                    finite |= (Float.isFinite(y) ? 1L : 0L) << j;
+                    positive |= (y > 0 ? 1L : 0L) << j;
+                }
+                okBits = -1L;
+            } else {
+                for (int j = 0; j < len; j++) {
+                    float x = v[i + j];
+                    float y = m[i + j];
+                    valid |= (x == x ? 1L : 0L) << j;
+                    hasData |= (y == y ? 1L : 0L) << j;
+                    finite |= (Float.isFinite(y) ? 1L : 0L) << j;
+                    positive |= (y > 0 ? 1L : 0L) << j;
+                    if (status != null) {
+                        byte s = status[i + j];
+                        okBits |= (s == ok ? 1L : 0L) << j;
+                        belowBits |= (s == belowLimit ? 1L : 0L) << j;
+                        unusable |= (s == invalid || s == noData ? 1L : 0L) << j;
+                    } else {
+                        unusable |= (lifetimeFloor && y < TrapDensityConverter.LIFETIME_FLOOR_US ? 1L : 0L) << j;
+                    }
                 }
             }
             long inArea = areaWords == null ? hasData : areaWords[i >>> 6];
@@ -151,5 +164,20 @@ public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, 
             out[i >>> 6] = word;
         }
         return c;
+    }
+
+    /** Eight status codes at a time, read as one little-endian long. */
+    private static final java.lang.invoke.VarHandle STATUS_LONGS = java.lang.invoke.MethodHandles.byteArrayViewVarHandle(
+            long[].class, java.nio.ByteOrder.LITTLE_ENDIAN);
+    /** Eight {@link PixelStatus#OK} codes side by side. */
+    private static final long ALL_OK = (PixelStatus.OK.code() & 0xffL) * 0x0101010101010101L;
+
+    /** True when the 64 status codes from {@code i} on are all {@link PixelStatus#OK}. */
+    private static boolean allOk(byte[] status, int i) {
+        long differ = 0;
+        for (int k = 0; k < 64; k += 8) {
+            differ |= (long) STATUS_LONGS.get(status, i + k) ^ ALL_OK;
+        }
+        return differ == 0;
     }
 }
