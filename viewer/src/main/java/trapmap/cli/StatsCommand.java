@@ -254,20 +254,52 @@ final class StatsCommand implements Callable<Integer> {
     }
 
     /**
-     * A head start for the conversion's kernel when a defect is asked for ({@link BandConversion#warmUp}); nothing
-     * otherwise, or when the defect or the conditions are refused (the conversion reports that in its turn).
+     * A head start for the conversion's kernel when a defect is asked for ({@link MapConversion#warmUp}, into the
+     * planes {@link DensityOption#convert} fills); nothing otherwise, or when the defect or the conditions are refused
+     * (the conversion reports that in its turn). The map's own conditions are not known before it is read: where the
+     * flags leave them open, the kernel is warmed up for a fixed injection and for a generation rate, with and without
+     * a surface term, so that its compiled code serves the map whichever it has.
      */
     private HeadStart warmUp() {
         try {
             Defect d = density.defectOrNull();
             if (d != null) {
-                return BandConversion.warmUp(conditions.applyTo(BandConversion.WARM_UP_CONDITIONS), d,
-                        conditions.settings(), Quantity.TRAP_DENSITY);
+                return MapConversion.warmUp(warmUpGuesses(), d, conditions.settings(),
+                        java.util.EnumSet.of(Quantity.TRAP_DENSITY));
             }
         } catch (RuntimeException e) {
             // reported where the defect is used
         }
         return HeadStart.NONE;
+    }
+
+    /** The conditions of the kernel's warm-up: the flags over each case of {@link #warmUpCases} they leave open. */
+    List<trapmap.maps.model.MeasurementConditions> warmUpGuesses() {
+        List<trapmap.maps.model.MeasurementConditions> guesses = new ArrayList<>();
+        for (trapmap.maps.model.MeasurementConditions c : warmUpCases(conditions.injection == null
+                && conditions.generation == null, conditions.srv == null)) {
+            guesses.add(conditions.applyTo(c));
+        }
+        return guesses;
+    }
+
+    /**
+     * {@link BandConversion#WARM_UP_CONDITIONS} (a generation rate and a surface recombination velocity), and when
+     * {@code injectionOpen} the same with a fixed injection instead, and when {@code surfaceOpen} each of those with
+     * ideal surfaces as well.
+     */
+    static List<trapmap.maps.model.MeasurementConditions> warmUpCases(boolean injectionOpen, boolean surfaceOpen) {
+        trapmap.maps.model.MeasurementConditions typical = BandConversion.WARM_UP_CONDITIONS;
+        List<trapmap.maps.model.MeasurementConditions> cases = new ArrayList<>(List.of(typical));
+        if (injectionOpen) {
+            cases.add(typical.withGeneration(null).withInjection(1e15));
+        }
+        if (surfaceOpen) {
+            for (int k = 0, n = cases.size(); k < n; k++) {
+                cases.add(cases.get(k).withSrv(null));
+            }
+        }
+        return cases;
     }
 
     /** The result of {@code task} (the outline fit, the region search), or the failure it ended with, as it was. */

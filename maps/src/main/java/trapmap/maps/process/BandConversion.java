@@ -114,22 +114,14 @@ public final class BandConversion {
                 TrapDensityConverter k = new TrapDensityConverter(MapConversion.physicsConditions(guess, settings),
                         defect);
                 boolean reference = !Double.isNaN(settings.referenceInjectionPerCm3());
-                float[] tau = new float[WARM_UP_ROWS * WARM_UP_WIDTH];
-                for (int i = 0; i < tau.length; i++) { // 0.5 µs to 5 ms, some without data, a few below the floor
-                    tau[i] = i % 13 == 0 ? Float.NaN : i % 101 == 0 ? 5e-4f : (float) (0.5 * Math.pow(1e4,
-                            (i * 0.618034) % 1.0));
-                }
                 TrapDensityConverter other = otherInjection(guess, settings, defect);
-                ConversionOutput out = planes(wanted, reference, tau.length);
+                ConversionOutput out = planes(wanted, reference, WARM_UP_PIXELS);
                 ConversionOutput withStatus = new ConversionOutput(out.trapDensity, out.trapDensityMin,
                         out.trapDensityMax, out.occupancy, out.srhLifetimeUs, out.injection, out.lifetimeAtReferenceUs,
-                        new byte[tau.length], null);
-                TrapDensityConverter.Tally tally = new TrapDensityConverter.Tally();
-                for (int r = 0; r < WARM_UP_ROUNDS && !stopped.getAsBoolean(); r++) {
-                    int row = r % WARM_UP_ROWS;
-                    TrapDensityConverter c = other != null && r % OTHER_EVERY == 0 ? other : k;
-                    c.convertRows(tau, WARM_UP_WIDTH, row, row + 1, r % OTHER_EVERY == 2 ? withStatus : out, tally);
-                }
+                        new byte[WARM_UP_PIXELS], null);
+                // of every OTHER_EVERY rounds: the other injection first, then the wanted planes, then a status plane
+                warmUpRounds(other != null ? List.of(other, k, k, k) : List.of(k),
+                        List.of(out, out, withStatus, out), stopped);
             } catch (RuntimeException e) {
                 // a head start only: the conversion itself checks the conditions and reports
             }
@@ -163,6 +155,29 @@ public final class BandConversion {
             return null;
         }
     }
+
+    /**
+     * The rounds of a warm-up: converts the rows of the warm-up raster one at a time, row after row, round r by
+     * kernel {@code r % kernels.size()} into planes {@code r % outs.size()}, {@value #WARM_UP_ROUNDS} rows in all or
+     * until {@code stopped}.
+     */
+    static void warmUpRounds(List<TrapDensityConverter> kernels, List<ConversionOutput> outs,
+                             java.util.function.BooleanSupplier stopped) {
+        float[] tau = new float[WARM_UP_ROWS * WARM_UP_WIDTH];
+        for (int i = 0; i < tau.length; i++) { // 0.5 µs to 5 ms, some without data, a few below the floor
+            tau[i] = i % 13 == 0 ? Float.NaN : i % 101 == 0 ? 5e-4f : (float) (0.5 * Math.pow(1e4,
+                    (i * 0.618034) % 1.0));
+        }
+        TrapDensityConverter.Tally tally = new TrapDensityConverter.Tally();
+        for (int r = 0; r < WARM_UP_ROUNDS && !stopped.getAsBoolean(); r++) {
+            int row = r % WARM_UP_ROWS;
+            kernels.get(r % kernels.size()).convertRows(tau, WARM_UP_WIDTH, row, row + 1, outs.get(r % outs.size()),
+                    tally);
+        }
+    }
+
+    /** Pixels of the warm-up raster. */
+    static final int WARM_UP_PIXELS = WARM_UP_ROWS * WARM_UP_WIDTH;
 
     /**
      * The one plane a band of {@code n} pixels needs for {@code wanted} (the status plane for {@link Quantity#STATUS});

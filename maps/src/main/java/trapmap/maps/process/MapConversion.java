@@ -1,7 +1,9 @@
 package trapmap.maps.process;
 
+import java.util.ArrayList;
 import java.util.EnumMap;
 import java.util.EnumSet;
+import java.util.List;
 import java.util.Map;
 import java.util.Set;
 import trapmap.maps.model.MeasurementConditions;
@@ -19,6 +21,7 @@ import trapmap.physics.conversion.Surface;
 import trapmap.physics.conversion.TrapDensityConverter;
 import trapmap.physics.defect.Defect;
 import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.progress.HeadStart;
 
 /**
  * Converts a lifetime or PL map into trap-density, bound, occupancy, SRH-lifetime, injection, harmonised-lifetime
@@ -267,12 +270,7 @@ public final class MapConversion {
             throw new IllegalArgumentException("no quantity a conversion produces among " + wanted);
         }
         byte[] statusCodes = new byte[n];
-        // No warning plane: the kernel counts the pixels of each warning and status in its own pass.
-        ConversionOutput out = new ConversionOutput(plane(wanted, Quantity.TRAP_DENSITY, n),
-                plane(wanted, Quantity.TRAP_DENSITY_MIN, n), plane(wanted, Quantity.TRAP_DENSITY_MAX, n),
-                plane(wanted, Quantity.OCCUPANCY, n), plane(wanted, Quantity.SRH_LIFETIME, n),
-                plane(wanted, Quantity.INJECTION, n), reference ? plane(wanted, Quantity.LIFETIME_AT_REFERENCE, n) : null,
-                statusCodes, null);
+        ConversionOutput out = planes(wanted, reference, n, statusCodes);
         TrapDensityConverter.Tally tally = byRows(converter, lifetime.raster().samples(), lifetime.width(), out,
                 threads);
 
@@ -357,6 +355,49 @@ public final class MapConversion {
 
     /** Rows a thread takes at a time in {@link #byRows}. */
     private static final int ROWS_PER_TASK = 8;
+
+    /**
+     * The planes {@link #convert(WaferMap, Defect, ConversionSettings, Set, int)} fills for {@code n} pixels: those
+     * of the wanted quantities and the status codes. No warning plane: the kernel counts the pixels of each warning
+     * and status in its own pass.
+     */
+    private static ConversionOutput planes(Set<Quantity> wanted, boolean reference, int n, byte[] statusCodes) {
+        return new ConversionOutput(plane(wanted, Quantity.TRAP_DENSITY, n),
+                plane(wanted, Quantity.TRAP_DENSITY_MIN, n), plane(wanted, Quantity.TRAP_DENSITY_MAX, n),
+                plane(wanted, Quantity.OCCUPANCY, n), plane(wanted, Quantity.SRH_LIFETIME, n),
+                plane(wanted, Quantity.INJECTION, n), reference ? plane(wanted, Quantity.LIFETIME_AT_REFERENCE, n) : null,
+                statusCodes, null);
+    }
+
+    /**
+     * A head start for {@link #convert(WaferMap, Defect, ConversionSettings, Set, int)} while the map is still being
+     * read: as {@link BandConversion#warmUp}, a small made-up raster converted over and over on a background (daemon)
+     * thread, here into the planes that conversion fills ({@code wanted}'s and the status codes), with its rows taken
+     * in turn by a kernel of each of {@code guesses}. The compiled kernel keeps only the paths its warm-up took (a
+     * fixed injection or a generation rate, a surface term or none): when the map's own conditions, not known yet,
+     * take another, the compiled code is thrown away at the map's first row, which is then converted in the lower
+     * tiers while the kernel is compiled again, on the stack and as a method. A guess for each case the command line
+     * leaves open avoids that. Guesses the conversion refuses are left out; the warm-up changes no result, keeps no
+     * state the conversion reads, and stops when the returned handle is closed or after its rounds.
+     */
+    public static HeadStart warmUp(List<MeasurementConditions> guesses, Defect defect, ConversionSettings settings,
+                                   Set<Quantity> wanted) {
+        return HeadStart.start("convert-warm-up", stopped -> {
+            List<TrapDensityConverter> kernels = new ArrayList<>();
+            for (MeasurementConditions guess : guesses) {
+                try {
+                    kernels.add(new TrapDensityConverter(physicsConditions(guess, settings), defect));
+                } catch (RuntimeException e) {
+                    // a head start only: the conversion itself checks the conditions and reports
+                }
+            }
+            if (!kernels.isEmpty()) {
+                boolean reference = !Double.isNaN(settings.referenceInjectionPerCm3());
+                int n = BandConversion.WARM_UP_PIXELS;
+                BandConversion.warmUpRounds(kernels, List.of(planes(wanted, reference, n, new byte[n])), stopped);
+            }
+        });
+    }
 
     private static float[] plane(Set<Quantity> wanted, Quantity q, int n) {
         return wanted.contains(q) ? new float[n] : null;

@@ -56,7 +56,8 @@ public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, 
         // per block: evaluated, below limit, non-finite, non-positive, invalid conversion, area (integers: the sums
         // are the same whatever the split)
         int[][] counts = new int[blocks][];
-        Blocks.run(blocks, n, b -> counts[b] = block(b, n, v, m, areaWords, status, lifetimeFloor, out));
+        Blocks.run(blocks, n, b -> counts[b] = block(b * Mask.BLOCK_PX, (int) Math.min(n, (long) (b + 1) * Mask.BLOCK_PX),
+                v, m, areaWords, status, lifetimeFloor, out));
         int[] sum = new int[6];
         for (int[] c : counts) {
             for (int k = 0; k < sum.length; k++) {
@@ -94,19 +95,20 @@ public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, 
     }
 
     /**
-     * One block of {@link Mask#BLOCK_PX} pixels, 64 at a time as bit words: writes its words of the mask into
-     * {@code out} and returns its counts {evaluated, below limit, non-finite, non-positive, invalid conversion,
-     * area}. Each unusable pixel counts under the first cause of {@link InvalidArea#cause} that applies.
+     * The pixels [from, end) of a map of {@code v.length} pixels, {@code from} a multiple of 64 (a block of
+     * {@link Mask#BLOCK_PX} pixels, or less at the map's end), 64 at a time as bit words: writes their words of the
+     * mask into {@code out} and returns their counts {evaluated, below limit, non-finite, non-positive, invalid
+     * conversion, area}. Each unusable pixel counts under the first cause of {@link InvalidArea#cause} that applies.
+     * (The caller bounds the block, so that the compiled code of a warm-up on a small map takes no other path.)
      */
-    static int[] block(int b, int n, float[] v, float[] m, long[] areaWords, byte[] status, boolean lifetimeFloor,
+    static int[] block(int from, int end, float[] v, float[] m, long[] areaWords, byte[] status, boolean lifetimeFloor,
                        long[] out) {
         byte ok = PixelStatus.OK.code();
         byte belowLimit = PixelStatus.BELOW_LIMIT.code();
         byte invalid = PixelStatus.INVALID.code();
         byte noData = PixelStatus.NO_DATA.code();
         int[] c = new int[6];
-        int end = (int) Math.min(n, (long) (b + 1) * Mask.BLOCK_PX);
-        for (int i = b * Mask.BLOCK_PX; i < end; i += 64) {
+        for (int i = from; i < end; i += 64) {
             int len = Math.min(64, end - i);
             if (areaWords != null && areaWords[i >>> 6] == 0) {
                 out[i >>> 6] = 0; // no pixel of the area (outside the wafer): nothing to count
@@ -119,20 +121,33 @@ public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, 
             long unusable = 0;   // ... and invalid for the conversion (status, or the lifetime floor without one)
             long okBits = 0;
             long belowBits = 0;
-            for (int j = 0; j < len; j++) {
-                float x = v[i + j];
-                float y = m[i + j];
-                valid |= (x == x ? 1L : 0L) << j;
-                hasData |= (y == y ? 1L : 0L) << j;
-                finite |= (Float.isFinite(y) ? 1L : 0L) << j;
-                positive |= (y > 0 ? 1L : 0L) << j;
-                if (status != null) {
-                    byte s = status[i + j];
-                    okBits |= (s == ok ? 1L : 0L) << j;
-                    belowBits |= (s == belowLimit ? 1L : 0L) << j;
-                    unusable |= (s == invalid || s == noData ? 1L : 0L) << j;
-                } else {
-                    unusable |= (lifetimeFloor && y < TrapDensityConverter.LIFETIME_FLOOR_US ? 1L : 0L) << j;
+            if (status != null && len == 64 && allOk(status, i)) {
+                // the usual word inside the wafer: every status OK, so only the values' bits are to be found
+                for (int j = 0; j < 64; j++) {
+                    float x = v[i + j];
+                    float y = m[i + j];
+                    valid |= (x == x ? 1L : 0L) << j;
+                    hasData |= (y == y ? 1L : 0L) << j;
+                    finite |= (Float.isFinite(y) ? 1L : 0L) << j;
+                    positive |= (y > 0 ? 1L : 0L) << j;
+                }
+                okBits = -1L;
+            } else {
+                for (int j = 0; j < len; j++) {
+                    float x = v[i + j];
+                    float y = m[i + j];
+                    valid |= (x == x ? 1L : 0L) << j;
+                    hasData |= (y == y ? 1L : 0L) << j;
+                    finite |= (Float.isFinite(y) ? 1L : 0L) << j;
+                    positive |= (y > 0 ? 1L : 0L) << j;
+                    if (status != null) {
+                        byte s = status[i + j];
+                        okBits |= (s == ok ? 1L : 0L) << j;
+                        belowBits |= (s == belowLimit ? 1L : 0L) << j;
+                        unusable |= (s == invalid || s == noData ? 1L : 0L) << j;
+                    } else {
+                        unusable |= (lifetimeFloor && y < TrapDensityConverter.LIFETIME_FLOOR_US ? 1L : 0L) << j;
+                    }
                 }
             }
             long inArea = areaWords == null ? hasData : areaWords[i >>> 6];
@@ -149,5 +164,20 @@ public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, 
             out[i >>> 6] = word;
         }
         return c;
+    }
+
+    /** Eight status codes at a time, read as one little-endian long. */
+    private static final java.lang.invoke.VarHandle STATUS_LONGS = java.lang.invoke.MethodHandles.byteArrayViewVarHandle(
+            long[].class, java.nio.ByteOrder.LITTLE_ENDIAN);
+    /** Eight {@link PixelStatus#OK} codes side by side. */
+    private static final long ALL_OK = (PixelStatus.OK.code() & 0xffL) * 0x0101010101010101L;
+
+    /** True when the 64 status codes from {@code i} on are all {@link PixelStatus#OK}. */
+    private static boolean allOk(byte[] status, int i) {
+        long differ = 0;
+        for (int k = 0; k < 64; k += 8) {
+            differ |= (long) STATUS_LONGS.get(status, i + k) ^ ALL_OK;
+        }
+        return differ == 0;
     }
 }

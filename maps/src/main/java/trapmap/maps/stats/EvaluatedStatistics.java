@@ -89,9 +89,10 @@ public final class EvaluatedStatistics {
         ChunkBody body = (c, scratch) -> {
             int[] buckets = new int[Selection.BUCKETS];
             for (int b = c * CHUNK_BLOCKS, e = Math.min(blocks, (c + 1) * CHUNK_BLOCKS); b < e; b++) {
-                counts[b] = EvaluatedArea.block(b, n, v, m, areaWords, status, lifetimeFloor, out);
                 int from = b * Mask.BLOCK_PX;
-                int counted = gather(v, out, from, Math.min(n, from + Mask.BLOCK_PX), scratch, buckets);
+                int end = Math.min(n, from + Mask.BLOCK_PX);
+                counts[b] = EvaluatedArea.block(from, end, v, m, areaWords, status, lifetimeFloor, out);
+                int counted = gather(v, out, from, end, scratch, buckets);
                 parts[b] = MapStatistics.Part.ofValues(scratch, 0, counted, thresholds);
             }
             chunkCounts[c] = buckets;
@@ -137,7 +138,10 @@ public final class EvaluatedStatistics {
     /**
      * The rounds of {@link #warmUp}, each over a map of five words of 64 pixels, one of each kind a real map has:
      * outside the wafer, on its edge, inside with every pixel counted (most of a map), inside with pixels of every
-     * kind (no data, <= 0, below the lifetime floor, each conversion status), and a last, short word. Returns a
+     * kind (no data, <= 0, below the lifetime floor, each conversion status), and a last, short word. Each loop is
+     * run on one word at a time: a call of a method then takes a few dozen turns of its loops, so that HotSpot's
+     * tiered policy compiles the method whole for its top tier (after some hundreds of calls) before its loop
+     * counters ask for an on-stack compilation of a loop (which the real map's long calls would not use). Returns a
      * figure of the last round (so that no loop is left out).
      */
     static double warmUp(boolean converted, boolean lifetimeFloor, int thresholdCount, int rounds,
@@ -176,13 +180,17 @@ public final class EvaluatedStatistics {
         }
         double last = 0;
         for (int round = 0; round < rounds && !stopped.getAsBoolean(); round++) {
-            int[] c = EvaluatedArea.block(0, n, v, m, area, status, lifetimeFloor, out);
-            int counted = gather(v, out, 0, n, scratch, buckets);
-            MapStatistics.Part p = MapStatistics.Part.ofValues(scratch, 0, counted, thresholds);
-            MapStatistics.Part.ofValues(scratch, 0, 0, thresholds); // a block outside the wafer
-            double reciprocal = reciprocalSum(0, v, out, 0, out.length);
-            gatherBins(v, out, 0, out.length, wanted, slotOfBucket, new int[slots], bins);
-            last = c[0] + p.mean + reciprocal + bins[0][0];
+            int[] fill = new int[slots];
+            for (int w = 0; w < area.length; w++) {
+                int from = w << 6;
+                int end = Math.min(n, from + 64);
+                int[] c = EvaluatedArea.block(from, end, v, m, area, status, lifetimeFloor, out);
+                int counted = gather(v, out, from, end, scratch, buckets);
+                MapStatistics.Part p = MapStatistics.Part.ofValues(scratch, 0, counted, thresholds);
+                double reciprocal = reciprocalSum(0, v, out, w, w + 1);
+                gatherBins(v, out, w, w + 1, wanted, slotOfBucket, fill, bins);
+                last = c[0] + p.mean + reciprocal + bins[0][0];
+            }
         }
         return last;
     }

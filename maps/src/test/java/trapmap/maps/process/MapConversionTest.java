@@ -213,4 +213,35 @@ class MapConversionTest {
                 ConversionSettings.DEFAULTS)).isInstanceOf(InvalidValueException.class)
                 .hasMessageContaining("normalised density");
     }
+
+    @Test
+    void aWarmUpWithSeveralGuessesBesideTheConversionChangesNothingAndStops() throws Exception {
+        WaferMap map = lifetimeMap(64, 48, 5, CONDITIONS);
+        java.util.Set<Quantity> wanted = java.util.EnumSet.of(Quantity.TRAP_DENSITY);
+        MapConversion.Result cold = MapConversion.convert(map, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS,
+                wanted, 2);
+        MeasurementConditions generation = CONDITIONS.withInjection(null).withGeneration(1e19);
+        MapConversion.Result warm;
+        // an unusable guess (no doping) is left out; the others are converted in turn
+        try (trapmap.shared.progress.HeadStart h = MapConversion.warmUp(java.util.List.of(MeasurementConditions.UNKNOWN,
+                generation, CONDITIONS, CONDITIONS.withSrv(null)), DefectLibrary.byId("fe-i"),
+                ConversionSettings.DEFAULTS, wanted)) {
+            warm = MapConversion.convert(map, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS, wanted, 2);
+        }
+        assertThat(warm.get(Quantity.TRAP_DENSITY).raster().samples())
+                .isEqualTo(cold.get(Quantity.TRAP_DENSITY).raster().samples());
+        assertThat(warm.statusCodes()).isEqualTo(cold.statusCodes());
+        assertThat(warm.statusCounts()).isEqualTo(cold.statusCounts());
+        assertThat(warm.warningPixels()).isEqualTo(cold.warningPixels());
+        long until = System.nanoTime() + 10_000_000_000L;
+        while (warmUpThreads() > 0 && System.nanoTime() < until) {
+            Thread.sleep(10);
+        }
+        assertThat(warmUpThreads()).as("warm-up threads still running").isZero();
+    }
+
+    private static long warmUpThreads() {
+        return Thread.getAllStackTraces().keySet().stream().filter(t -> t.getName().equals("convert-warm-up"))
+                .count();
+    }
 }

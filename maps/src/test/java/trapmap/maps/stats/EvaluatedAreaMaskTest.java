@@ -115,6 +115,34 @@ class EvaluatedAreaMaskTest {
     }
 
     @Test
+    void wordsOfOkStatusesStillHaveEachValueChecked() {
+        // every status of most 64-pixel words OK (the words read eight statuses at a time), whatever the values hold
+        Random r = new Random(5);
+        int w = 700;
+        int h = 190;
+        float[] measured = new float[w * h];
+        float[] density = new float[w * h];
+        byte[] status = new byte[w * h];
+        for (int i = 0; i < measured.length; i++) {
+            boolean odd = r.nextInt(20) == 0;
+            measured[i] = odd ? value(r) : 1 + r.nextFloat() * 500;
+            density[i] = r.nextInt(20) == 0 ? value(r) : 1e10f + r.nextFloat() * 1e12f;
+            boolean mixedWord = (i >>> 6) % 7 == 3;
+            status[i] = mixedWord && odd ? (byte) r.nextInt(PixelStatus.values().length) : PixelStatus.OK.code();
+        }
+        status[status.length - 1] = PixelStatus.BELOW_LIMIT.code(); // in the short last word
+        status[64 * 9 + 63] = PixelStatus.NO_DATA.code(); // the last status of an otherwise OK word
+        status[64 * 12] = PixelStatus.INCONSISTENT.code(); // the first
+        FloatRaster m = FloatRaster.wrap(w, h, measured);
+        FloatRaster d = FloatRaster.wrap(w, h, density);
+        Mask area = Mask.of(w, h, i -> i % w > 40);
+        for (boolean floor : new boolean[] {true, false}) {
+            assertSameAsSeparatePasses(d, m, area, status, floor);
+            assertSameAsSeparatePasses(d, m, null, status, floor);
+        }
+    }
+
+    @Test
     void countsEachCauseOnceAndKeepsOnlyOkPixels() {
         float[] tau = {Float.NaN, Float.POSITIVE_INFINITY, 0f, -2f, 5e-4f, 50f, 60f, 70f};
         FloatRaster measured = FloatRaster.wrap(tau.length, 1, tau);
