@@ -35,7 +35,10 @@ public final class RankBuckets {
         if (n <= Selection.SORTED) {
             return Selection.ranks(values, n, ranks);
         }
-        long total = Selection.total(counts);
+        long total = 0;
+        for (int c : counts) {
+            total += c;
+        }
         if (total != n) {
             throw new IllegalStateException(total + " values counted in the buckets, " + n + " to rank");
         }
@@ -48,24 +51,10 @@ public final class RankBuckets {
         return plan.select(bins, ranks);
     }
 
-    /**
-     * The values of the buckets with a slot into the bins of their slots, in index order, a strip of values per call
-     * of a small method: one loop over all values in a method called once per sample would be compiled on the stack
-     * before it had ever ended, stop at its end (a deoptimisation) and be compiled again.
-     */
+    /** The values of the buckets with a slot into the bins of their slots, in index order. */
     private static void gather(float[] values, int n, int[] slotOfBucket, float[][] bins) {
         int[] fill = new int[bins.length];
-        for (int from = 0; from < n; from += STRIP) {
-            gather(values, from, Math.min(n, from + STRIP), slotOfBucket, bins, fill);
-        }
-    }
-
-    /** Values per call of {@link #gather(float[], int, int, int[], float[][], int[])}. */
-    private static final int STRIP = 1 << 14;
-
-    /** As {@link #gather(float[], int, int[], float[][])} for values[from..to), the bins filled up to {@code fill}. */
-    private static void gather(float[] values, int from, int to, int[] slotOfBucket, float[][] bins, int[] fill) {
-        for (int i = from; i < to; i++) {
+        for (int i = 0; i < n; i++) {
             float v = values[i];
             int slot = slotOfBucket[Selection.bucket(v)];
             if (slot >= 0) {

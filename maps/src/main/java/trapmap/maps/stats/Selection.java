@@ -99,14 +99,6 @@ final class Selection {
         return rank < below ? -0f : 0f;
     }
 
-    /** The sum of the counts (of all buckets). */
-    static long total(int[] counts) {
-        long total = 0;
-        for (int c : counts) {
-            total += c;
-        }
-        return total;
-    }
 
     /**
      * Which buckets hold the wanted ranks, and where: made from the bucket counts of all n values. When those buckets
