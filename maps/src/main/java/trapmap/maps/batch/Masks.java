@@ -86,26 +86,78 @@ final class Masks {
         int h = grid.height();
         boolean[] centre = Double.isNaN(centreMm) ? null : new boolean[w * h];
         int[] indices = buffers.indices(w * h);
-        boolean pack = packed != null;
-        int count = 0;
-        int missing = 0;
         if (shape == null) {
-            for (int i = 0, n = w * h; i < n; i++) {
-                float v = tau[i];
-                if (v == v) {
-                    if (pack) {
-                        packed[count] = v;
-                    }
-                    indices[count++] = i;
-                }
-            }
-            return new Masks(indices, count, centre, 0, w * h);
+            return new Masks(indices, valid(tau, 0, w * h, indices, 0, packed), centre, 0, w * h);
         }
-        WaferShape.Prepared p = shape.prepared();
-        double pitch = grid.pitchMm();
-        double cx = shape.centreXMm();
-        double cy = shape.centreYMm();
+        // one row per call of a small method: the just-in-time compiler compiles it once for all maps (loops over
+        // the whole map in this method, which runs once per map, would be compiled on the stack, each loop with
+        // all the others)
+        RowScan scan = new RowScan(tau, grid, shape, exclusionMm, centreMm, centre, indices, packed);
         for (int y = 0; y < h; y++) {
+            scan.row(y);
+        }
+        return new Masks(indices, scan.count, centre, scan.missing, w * h);
+    }
+
+    /**
+     * Adds the pixels of {@code tau[from..to)} that are not NaN to {@code indices} (and their values to
+     * {@code packed} when it is not null) from position {@code count}; returns the new count.
+     */
+    private static int valid(float[] tau, int from, int to, int[] indices, int count, float[] packed) {
+        for (int i = from; i < to; i++) {
+            float v = tau[i];
+            if (v == v) {
+                if (packed != null) {
+                    packed[count] = v;
+                }
+                indices[count++] = i;
+            }
+        }
+        return count;
+    }
+
+    /**
+     * The evaluated pixels of a map with an outline, one row at a time ({@link #row}), in index order: their
+     * indices, values and centre flags, and the NaN pixels inside the exclusion ({@code missing}).
+     */
+    private static final class RowScan {
+        private final float[] tau;
+        private final PixelGrid grid;
+        private final WaferShape.Prepared p;
+        private final double exclusionMm;
+        private final double centreMm;
+        private final double pitch;
+        private final double cx;
+        private final double cy;
+        private final boolean[] centre;
+        private final int[] indices;
+        private final float[] packed;
+        private final int w;
+        int count;
+        int missing;
+
+        RowScan(float[] tau, PixelGrid grid, WaferShape shape, double exclusionMm, double centreMm, boolean[] centre,
+                int[] indices, float[] packed) {
+            this.tau = tau;
+            this.grid = grid;
+            this.p = shape.prepared();
+            this.exclusionMm = exclusionMm;
+            this.centreMm = centreMm;
+            this.pitch = grid.pitchMm();
+            this.cx = shape.centreXMm();
+            this.cy = shape.centreYMm();
+            this.centre = centre;
+            this.indices = indices;
+            this.packed = packed;
+            this.w = grid.width();
+        }
+
+        /** Scans row y (rows in ascending order). */
+        void row(int y) {
+            boolean[] centre = this.centre;
+            boolean pack = packed != null;
+            int count = this.count;
+            int missing = this.missing;
             double ym = grid.yMm(y);
             int row = y * w;
             int x = 0;
@@ -135,17 +187,12 @@ final class Masks {
                 int i = row + x;
                 int stop = row + end;
                 while (i < stop) {
-                    int j = i;
-                    while (j < stop && tau[j] == tau[j]) {
-                        j++;
-                    }
+                    int j = validUntil(tau, i, stop);
                     int len = j - i;
                     if (pack) {
                         System.arraycopy(tau, i, packed, count, len);
                     }
-                    for (int t = 0; t < len; t++) {
-                        indices[count + t] = i + t;
-                    }
+                    ascending(indices, count, i, len);
                     if (central) {
                         java.util.Arrays.fill(centre, i, j, true);
                     }
@@ -158,8 +205,29 @@ final class Masks {
                 }
                 x = end;
             }
+            this.count = count;
+            this.missing = missing;
         }
-        return new Masks(indices, count, centre, missing, w * h);
+    }
+
+    // The loops over the pixels of a run are small methods of their own, so that the loop over a row's runs above
+    // turns only a few times a call: the just-in-time compiler then compiles each method once (not the row's method
+    // on the stack for each of its inner loops).
+
+    /** The first index in [from, to) whose value is NaN, or {@code to}. */
+    private static int validUntil(float[] tau, int from, int to) {
+        int j = from;
+        while (j < to && tau[j] == tau[j]) {
+            j++;
+        }
+        return j;
+    }
+
+    /** Writes first, first + 1, … (len of them) into {@code indices} from position {@code at}. */
+    private static void ascending(int[] indices, int at, int first, int len) {
+        for (int t = 0; t < len; t++) {
+            indices[at + t] = first + t;
+        }
     }
 
     /** A Mask of the same pixels as a boolean array. */

@@ -365,10 +365,14 @@ public final class WaferInspection {
         if (count == 0) {
             return 0;
         }
-        // the packed pixels as one row of a raster: the kernel converts only those and counts their statuses
+        // the packed pixels as a raster one pixel wide, converted a strip of rows per call (STRIP): the kernel
+        // converts only those and counts their statuses
         TrapDensityConverter.Tally tally = new TrapDensityConverter.Tally();
-        new TrapDensityConverter(conditions, defect).convertRows(packedTau, count, 0, 1,
-                new ConversionOutput(out, null, null, null, null, null, null, status, null), tally);
+        TrapDensityConverter converter = new TrapDensityConverter(conditions, defect);
+        ConversionOutput output = new ConversionOutput(out, null, null, null, null, null, null, status, null);
+        for (int k = 0; k < count; k += STRIP) {
+            converter.convertRows(packedTau, 1, k, Math.min(count, k + STRIP), output, tally);
+        }
         return tally.count(PixelStatus.BELOW_LIMIT);
     }
 
@@ -398,16 +402,76 @@ public final class WaferInspection {
      */
     static Judged judged(float[] life, int count, float[] converted, byte[] status, boolean atBound, int missing,
                          double pixelAreaMm2, InspectionBuffers buffers) {
-        InvalidArea.Tally tally = new InvalidArea.Tally(true);
-        int[] lifeCounts = buffers.lifeBuckets().cleared();
-        float[] judged = null;
-        float[] ranked = null;
-        int ranks = 0;
-        int positive = 0;
-        double reciprocalSum = 0;
-        int usable = 0;
-        if (converted == null) {
-            for (int k = 0; k < count; k++) {
+        JudgedPass pass = new JudgedPass(life, converted, status, atBound, buffers);
+        for (int k = 0; k < count; k += STRIP) {
+            int to = Math.min(count, k + STRIP);
+            if (converted == null) {
+                pass.lifetimes(k, to);
+            } else {
+                pass.converted(k, to);
+            }
+        }
+        if (converted != null) {
+            // the buckets of the ranked densities in a pass of their own: in the pass above, the increments of two
+            // bucket arrays and the stores of the judged and ranked values held each other up
+            int[] densityCounts = buffers.densityBuckets().cleared();
+            for (int k = 0; k < pass.ranks; k += STRIP) {
+                countBuckets(pass.ranked, k, Math.min(pass.ranks, k + STRIP), densityCounts);
+            }
+        }
+        pass.tally.addUsable(pass.usable);
+        pass.tally.addMissing(missing);
+        return new Judged(pass.judged, pass.ranked, pass.ranks, pass.tally.result(pixelAreaMm2), pass.positive,
+                pass.reciprocalSum);
+    }
+
+    /**
+     * Pixels per call of the loops over a map's evaluated pixels ({@link #judged}, {@link #convertPacked}). A loop
+     * over all of them in a method called once per map would be compiled on the stack during the first map, before
+     * the loop had ever ended: the compiled code then stops at the loop's end (a deoptimisation) and is compiled
+     * again, and its method with every other loop in it. A strip per call of a small method (a few dozen calls a
+     * map) has its loop ended many times before it is compiled, and compiled alone, once for all maps.
+     */
+    static final int STRIP = 1 << 14;
+
+    /**
+     * The state of {@link #judged}'s pass over the pixels in index order: the counts and the reciprocal sum (added
+     * in index order).
+     */
+    private static final class JudgedPass {
+        private static final byte OK = PixelStatus.OK.code();
+        private static final byte BELOW = PixelStatus.BELOW_LIMIT.code();
+        private final float[] life;
+        private final float[] converted;
+        private final byte[] status;
+        private final boolean atBound;
+        private final int[] lifeCounts;
+        final InvalidArea.Tally tally = new InvalidArea.Tally(true);
+        final float[] judged;
+        final float[] ranked;
+        int ranks;
+        int positive;
+        double reciprocalSum;
+        int usable;
+
+        JudgedPass(float[] life, float[] converted, byte[] status, boolean atBound, InspectionBuffers buffers) {
+            this.life = life;
+            this.converted = converted;
+            this.status = status;
+            this.atBound = atBound;
+            this.lifeCounts = buffers.lifeBuckets().cleared();
+            this.judged = converted == null ? null : atBound ? converted : buffers.judged(converted.length);
+            this.ranked = converted == null ? null : buffers.densitySample(converted.length);
+        }
+
+        /** The lifetimes {@code life[from..to)} of a judgement without conversion. */
+        void lifetimes(int from, int to) {
+            float[] life = this.life;
+            int[] lifeCounts = this.lifeCounts;
+            int positive = this.positive;
+            double reciprocalSum = this.reciprocalSum;
+            int usable = this.usable;
+            for (int k = from; k < to; k++) {
                 float v = life[k];
                 lifeCounts[RankBuckets.bucket(v)]++;
                 if (v > 0) {
@@ -420,13 +484,25 @@ public final class WaferInspection {
                     tally.add(v, -1);
                 }
             }
-        } else {
-            int[] densityCounts = buffers.densityBuckets().cleared();
-            judged = atBound ? converted : buffers.judged(converted.length);
-            ranked = buffers.densitySample(converted.length);
-            byte ok = PixelStatus.OK.code();
-            byte below = PixelStatus.BELOW_LIMIT.code();
-            for (int k = 0; k < count; k++) {
+            this.positive = positive;
+            this.reciprocalSum = reciprocalSum;
+            this.usable = usable;
+        }
+
+        /** The pixels {@code [from, to)} of a judgement of converted trap densities. */
+        void converted(int from, int to) {
+            float[] life = this.life;
+            float[] converted = this.converted;
+            byte[] status = this.status;
+            float[] judged = this.judged;
+            float[] ranked = this.ranked;
+            int[] lifeCounts = this.lifeCounts;
+            boolean atBound = this.atBound;
+            int ranks = this.ranks;
+            int positive = this.positive;
+            double reciprocalSum = this.reciprocalSum;
+            int usable = this.usable;
+            for (int k = from; k < to; k++) {
                 float v = life[k];
                 lifeCounts[RankBuckets.bucket(v)]++;
                 if (v > 0) {
@@ -434,7 +510,7 @@ public final class WaferInspection {
                     positive++;
                 }
                 byte st = status[k];
-                if ((st == ok || st == below) && v >= TrapDensityConverter.LIFETIME_FLOOR_US
+                if ((st == OK || st == BELOW) && v >= TrapDensityConverter.LIFETIME_FLOOR_US
                         && v != Float.POSITIVE_INFINITY) {
                     usable++;
                 } else {
@@ -442,7 +518,7 @@ public final class WaferInspection {
                 }
                 float d = converted[k];
                 if (!atBound) {
-                    d = st == ok ? d : Float.NaN;
+                    d = st == OK ? d : Float.NaN;
                     judged[k] = d;
                 }
                 // without a branch (OK and other pixels alternate at random): a NaN is written past the end
@@ -450,18 +526,16 @@ public final class WaferInspection {
                 ranked[ranks] = d;
                 ranks += number;
             }
-            // the buckets of the ranked densities in a loop of their own: in the pass above, the increments of two
-            // bucket arrays and the stores of the judged and ranked values held each other up
-            countBuckets(ranked, ranks, densityCounts);
+            this.ranks = ranks;
+            this.positive = positive;
+            this.reciprocalSum = reciprocalSum;
+            this.usable = usable;
         }
-        tally.addUsable(usable);
-        tally.addMissing(missing);
-        return new Judged(judged, ranked, ranks, tally.result(pixelAreaMm2), positive, reciprocalSum);
     }
 
-    /** Adds the radix buckets ({@link RankBuckets#bucket}) of {@code values[0..n)} (no NaN) to {@code counts}. */
-    private static void countBuckets(float[] values, int n, int[] counts) {
-        for (int k = 0; k < n; k++) {
+    /** Adds the radix buckets ({@link RankBuckets#bucket}) of {@code values[from..to)} (no NaN) to {@code counts}. */
+    private static void countBuckets(float[] values, int from, int to, int[] counts) {
+        for (int k = from; k < to; k++) {
             counts[RankBuckets.bucket(values[k])]++;
         }
     }

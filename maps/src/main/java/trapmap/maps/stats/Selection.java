@@ -10,8 +10,16 @@ import trapmap.maps.raster.Blocks;
 final class Selection {
     private static final int SMALL = 16;
     static final int BUCKETS = 1 << 16;
-    /** Up to this many values are sorted outright. */
+    /**
+     * Up to this many values the callers that count the buckets themselves skip the bucket tables and call
+     * {@link #ranks}.
+     */
     static final int SORTED = 1 << 12;
+    /**
+     * Up to this many values the ranks are selected in place ({@link #inPlace}) without bucket tables: a few passes
+     * over the values cost less than the tables' 65 536 counts (a region's values, a small map).
+     */
+    static final int IN_PLACE = 1 << 16;
     /** Values per chunk of the parallel counting and gathering passes. */
     private static final int CHUNK = 1 << 20;
 
@@ -21,20 +29,17 @@ final class Selection {
     /**
      * The values of ranks {@code ranks} (0-based, ascending, each &lt; n) among values[0..n), NaN-free.
      *
-     * <p>Up to {@link #SORTED} values are sorted (reordering {@code values}). Beyond, one pass sorts the values into 65 536 buckets by the top 16 bits of their order-preserving integer key (sign,
+     * <p>Up to {@link #IN_PLACE} values the ranks are selected in place (reordering {@code values}). Beyond, one
+     * pass sorts the values into 65 536 buckets by the top 16 bits of their order-preserving integer key (sign,
      * exponent and seven mantissa bits), a second gathers only the buckets that hold a wanted rank, and the ranks are
-     * selected within those few. When the wanted buckets hold a large share of the data (a nearly constant map) the ranks are selected in
-     * place instead, which reorders {@code values}.
+     * selected within those few. When the wanted buckets hold a large share of the data (a nearly constant map) the
+     * ranks are selected in place instead, which reorders {@code values}. Every way gives the values a sort
+     * ({@link Arrays#sort(float[])}) would put at those ranks, bit for bit.
      */
     static double[] ranks(float[] values, int n, int[] ranks) {
-        double[] out = new double[ranks.length];
-        if (n <= SORTED) {
-            // a few thousand values: a sort costs less than the bucket tables, and gives the same order
-            Arrays.sort(values, 0, n);
-            for (int r = 0; r < ranks.length; r++) {
-                out[r] = values[ranks[r]];
-            }
-            return out;
+        if (n <= IN_PLACE) {
+            // up to tens of thousands of values: a selection costs less than a sort or the bucket tables
+            return inPlace(values, n, ranks);
         }
         // the bucket counts of fixed chunks on all cores, added up (integers: the same on any number of threads)
         int chunks = Blocks.count(n, CHUNK);
@@ -48,7 +53,7 @@ final class Selection {
         });
         // (the loops over the buckets are small methods of their own: this method runs once, and the just-in-time
         // compiler then compiles them quickly instead of compiling all of it on the stack)
-        Plan plan = Plan.of(sum(chunkCount), n, ranks);
+        Plan plan = Plan.of(chunks == 1 ? chunkCount[0] : sum(chunkCount), n, ranks);
         if (plan.inPlace) {
             return inPlace(values, n, ranks);
         }
@@ -69,16 +74,31 @@ final class Selection {
         return plan.select(bins, ranks);
     }
 
-    /** The values of ranks {@code ranks} (ascending) selected among all of values[0..n) in place (reordering them). */
+    /**
+     * The values of ranks {@code ranks} (ascending) selected among all of values[0..n) in place (reordering them). The
+     * selection compares with &lt;, to which -0 and +0 are equal: a zero at a rank is given the sign a sort gives it
+     * (the negative zeros come first) from a count of the negative values and zeros.
+     */
     static double[] inPlace(float[] values, int n, int[] ranks) {
         double[] out = new double[ranks.length];
         int from = 0;
         for (int r = 0; r < ranks.length; r++) {
-            out[r] = select(values, from, n - 1, ranks[r]);
+            float v = select(values, from, n - 1, ranks[r]);
+            out[r] = v == 0 ? signedZero(values, n, ranks[r]) : v;
             from = ranks[r];
         }
         return out;
     }
+
+    /** The zero a sort of values[0..n) puts at {@code rank}, where the values equal to 0 lie. */
+    private static float signedZero(float[] values, int n, int rank) {
+        int below = 0; // the values a sort puts before +0: the negative ones and -0
+        for (int i = 0; i < n; i++) {
+            below += Float.floatToRawIntBits(values[i]) < 0 ? 1 : 0;
+        }
+        return rank < below ? -0f : 0f;
+    }
+
 
     /**
      * Which buckets hold the wanted ranks, and where: made from the bucket counts of all n values. When those buckets
@@ -123,9 +143,10 @@ final class Selection {
             int b = 0;
             int start = 0;
             for (int r = 0; r < ranks.length; r++) {
-                while (start + count[b] <= ranks[r]) {
-                    start += count[b++];
-                }
+                // (the walk over the buckets is a small method of its own, compiled once for every sample)
+                long at = walk(count, b, start, ranks[r]);
+                b = (int) (at >>> 32);
+                start = (int) at;
                 bucketOfRank[r] = b;
                 startOfRank[r] = start;
                 if (slotOfBucket[b] < 0) { // ascending ranks: the slots follow the buckets' order
@@ -136,6 +157,17 @@ final class Selection {
             }
             return new Plan(count, startOfRank, slotOfBucket, bucketOfRank, Arrays.copyOf(bucketOfSlot, slots),
                     gathered > Math.max(1 << 16, n / 4));
+        }
+
+        /**
+         * The bucket holding sorted index {@code rank}, walking on from bucket b that starts at sorted index
+         * {@code start} (at most rank): that bucket in the upper 32 bits, its first sorted index in the lower.
+         */
+        private static long walk(int[] count, int b, int start, int rank) {
+            while (start + count[b] <= rank) {
+                start += count[b++];
+            }
+            return (long) b << 32 | start;
         }
 
         /** An empty array for the values of every gathered bucket, by slot. */
@@ -206,9 +238,12 @@ final class Selection {
      * if partitioning keeps going badly.
      */
     static float select(float[] a, int lo, int hi, int k) {
+        // (one way out of the loop for every case, and the rare case of k between the two parts without a branch of
+        // its own: the compiled code then has no branch that a later sample might take for the first time, which
+        // would stop it and have it compiled again)
         int rounds = 0;
-        while (hi > lo) {
-            if (hi - lo < SMALL || ++rounds > 64) {
+        while (hi - lo >= SMALL) {
+            if (++rounds > 64) {
                 Arrays.sort(a, lo, hi + 1);
                 return a[k];
             }
@@ -233,13 +268,31 @@ final class Selection {
             } while (i <= j);
             if (k <= j) {
                 hi = j;
-            } else if (k >= i) {
-                lo = i;
             } else {
-                return a[k];
+                // k ≥ i: the part from i on; j < k < i: a[k] already in place (equal to the pivot), lo = hi = k
+                int between = (k - i) >> 31; // -1 when k < i, else 0
+                lo = (k & between) | (i & ~between);
+                hi = (k & between) | (hi & ~between);
             }
         }
+        insertionSort(a, lo, hi);
         return a[k];
+    }
+
+    /**
+     * Sorts a[lo..hi] (inclusive, a few values) by &lt; (equal values, such as -0 and +0, keep their order): the
+     * small ranges of {@link #select}, without the library sort's set-up for NaN and zeros.
+     */
+    private static void insertionSort(float[] a, int lo, int hi) {
+        for (int i = lo + 1; i <= hi; i++) {
+            float v = a[i];
+            int j = i - 1;
+            while (j >= lo && v < a[j]) {
+                a[j + 1] = a[j];
+                j--;
+            }
+            a[j + 1] = v;
+        }
     }
 
     private static float median(float a, float b, float c) {

@@ -21,7 +21,9 @@ class JudgedPassTest {
 
     @ParameterizedTest
     @CsvSource({"1, false, true", "7, true, true", "5000, false, true", "300000, false, true", "300000, true, true",
-        "300000, false, false", "20, false, false"})
+        "300000, false, false", "20, false, false",
+        // the pass runs a strip of WaferInspection.STRIP (16384) pixels per call: counts at and around a strip's end
+        "16384, false, true", "16385, true, true", "32768, false, false", "32769, false, true"})
     void onePassEqualsTheStepsOneByOne(int n, boolean atBound, boolean convert) {
         Random rnd = new Random(n);
         float[] life = new float[n];

@@ -381,4 +381,85 @@ class WaferInspectionShortcutsTest {
             }
         }
     }
+
+    /**
+     * The packed conversion, a strip of pixels per call of the kernel, gives every pixel the value and status of one
+     * call over all of them, and the same count below the detection limit.
+     */
+    @ParameterizedTest
+    @ValueSource(ints = {1, WaferInspection.STRIP - 1, WaferInspection.STRIP, 3 * WaferInspection.STRIP + 5})
+    void packedConversionInStripsEqualsOneCallOverAllPixels(int n) throws Exception {
+        WaferMap lifetime = demo("LOT-A01-W02.tif");
+        trapmap.physics.conversion.Conditions conditions = MapConversion.physicsConditions(lifetime.conditions(),
+                ConversionSettings.DEFAULTS);
+        Defect defect = DefectLibrary.byId("fe-i");
+        Random rnd = new Random(n);
+        float[] tau = new float[n + 2];
+        for (int k = 0; k < n; k++) {
+            int kind = rnd.nextInt(40);
+            tau[k] = kind == 0 ? -1f : kind == 1 ? 0f : kind == 2 ? 2e-4f : kind == 3 ? Float.POSITIVE_INFINITY
+                    : kind == 4 ? 1e7f : (float) (20 * Math.exp(2 * rnd.nextGaussian()));
+        }
+        float[] out = new float[n + 2];
+        byte[] status = new byte[n + 2];
+        int below = WaferInspection.convertPacked(conditions, defect, tau, n, out, status);
+
+        float[] wantOut = new float[n];
+        byte[] wantStatus = new byte[n];
+        trapmap.physics.conversion.TrapDensityConverter.Tally tally =
+                new trapmap.physics.conversion.TrapDensityConverter.Tally();
+        new trapmap.physics.conversion.TrapDensityConverter(conditions, defect).convertRows(
+                java.util.Arrays.copyOf(tau, n), n, 0, 1, new trapmap.physics.conversion.ConversionOutput(wantOut,
+                        null, null, null, null, null, null, wantStatus, null), tally);
+        for (int k = 0; k < n; k++) {
+            assertThat(Float.floatToRawIntBits(out[k])).as("pixel %d", k)
+                    .isEqualTo(Float.floatToRawIntBits(wantOut[k]));
+            assertThat(status[k]).as("status of pixel %d", k).isEqualTo(wantStatus[k]);
+        }
+        assertThat(below).isEqualTo(tally.count(trapmap.physics.conversion.PixelStatus.BELOW_LIMIT));
+        assertThat(out[n]).as("past the pixels: untouched").isZero();
+        assertThat(status[n]).isZero();
+    }
+
+    /**
+     * Without an outline the evaluated pixels are the valid ones, with their values packed in index order; with one,
+     * the packed values are those at the indices, and the NaN pixels inside the exclusion are counted as missing.
+     */
+    @Test
+    void maskIndicesPackedValuesAndMissingPixelsEqualTheirDefinitions() {
+        PixelGrid grid = PixelGrid.centred(157, 143, 0.8);
+        Random rnd = new Random(5);
+        float[] tau = new float[157 * 143];
+        for (int i = 0; i < tau.length; i++) {
+            tau[i] = rnd.nextInt(30) == 0 ? Float.NaN : 10 + 90 * rnd.nextFloat();
+        }
+        Mask valid = Mask.valid(FloatRaster.wrap(157, 143, tau));
+
+        float[] packed = new float[tau.length];
+        Masks none = Masks.of(tau, grid, null, 2, Double.NaN, new InspectionBuffers(), packed);
+        assertThat(none.count()).isEqualTo(valid.count());
+        assertThat(none.missing()).isZero();
+        for (int k = 0, i = -1; k < none.count(); k++) {
+            i = valid.nextIndex(i + 1);
+            assertThat(none.indices()[k]).isEqualTo(i);
+            assertThat(packed[k]).isEqualTo(tau[i]);
+        }
+
+        WaferShape disk = RoundWafer.disk(50);
+        float[] packedIn = new float[tau.length];
+        Masks in = Masks.of(tau, grid, disk, 3, 20, new InspectionBuffers(), packedIn);
+        Mask inside = disk.mask(grid, 3);
+        Mask expected = valid.and(inside);
+        Mask centre = valid.and(disk.mask(grid, 20));
+        assertThat(in.count()).isEqualTo(expected.count());
+        assertThat(in.missing()).isEqualTo(inside.count() - expected.count());
+        for (int k = 0, i = -1; k < in.count(); k++) {
+            i = expected.nextIndex(i + 1);
+            assertThat(in.indices()[k]).isEqualTo(i);
+            assertThat(packedIn[k]).isEqualTo(tau[i]);
+        }
+        for (int i = 0; i < tau.length; i++) {
+            assertThat(in.centre()[i]).as("centre pixel %d", i).isEqualTo(centre.containsIndex(i));
+        }
+    }
 }

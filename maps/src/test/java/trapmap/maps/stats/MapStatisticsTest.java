@@ -242,7 +242,8 @@ class MapStatisticsTest {
     }
 
     @ParameterizedTest
-    @ValueSource(ints = {1, 2, 3, Selection.SORTED - 1, Selection.SORTED, Selection.SORTED + 1, 3 * Selection.SORTED})
+    @ValueSource(ints = {1, 2, 3, Selection.SORTED - 1, Selection.SORTED, Selection.SORTED + 1, 3 * Selection.SORTED,
+        Selection.IN_PLACE, Selection.IN_PLACE + 1})
     void ranksOnEitherSideOfTheSortedSizeAgreeWithASort(int n) {
         Random rnd = new Random(n);
         float[] a = new float[n];
@@ -277,6 +278,33 @@ class MapStatisticsTest {
         for (int k = 0; k < ranks.length; k++) {
             assertThat(Double.doubleToRawLongBits(got[k])).as("rank %d", ranks[k])
                     .isEqualTo(Double.doubleToRawLongBits(sorted[ranks[k]]));
+        }
+    }
+
+    /**
+     * Many values equal to the pivot: a rank that falls among them after a partition is found there. Every rank of
+     * every sample agrees with a sort, and the array is left partitioned around it.
+     */
+    @ParameterizedTest
+    @ValueSource(ints = {1, 2, 15, 16, 17, 40, 1000})
+    void selectionAmongManyEqualValuesAgreesWithASort(int n) {
+        Random rnd = new Random(n);
+        float[] a = new float[n];
+        for (int i = 0; i < n; i++) {
+            a[i] = rnd.nextInt(10) == 0 ? rnd.nextInt(7) : 3f;
+        }
+        float[] sorted = a.clone();
+        java.util.Arrays.sort(sorted);
+        for (int k = 0; k < n; k++) {
+            float[] b = a.clone();
+            assertThat(Selection.select(b, 0, n - 1, k)).as("rank %d of %d", k, n).isEqualTo(sorted[k]);
+            for (int i = 0; i < n; i++) {
+                assertThat(i < k ? b[i] <= b[k] : b[i] >= b[k]).as("rank %d, index %d", k, i).isTrue();
+            }
+            // a later rank from where this one ended, as the ranks of one sample are selected
+            if (k + 1 < n) {
+                assertThat(Selection.select(b, k, n - 1, k + 1)).isEqualTo(sorted[k + 1]);
+            }
         }
     }
 

@@ -49,7 +49,7 @@ class RankBucketsTest {
 
     @ParameterizedTest
     @ValueSource(ints = {1, 2, 3, 17, Selection.SORTED - 1, Selection.SORTED, Selection.SORTED + 1,
-        3 * Selection.SORTED, 250_000})
+        3 * Selection.SORTED, Selection.IN_PLACE, Selection.IN_PLACE + 1, 250_000})
     void equalASortOnSpreadValuesWithTiesAndNonPositives(int n) {
         Random rnd = new Random(n);
         float[] a = new float[n];
@@ -79,6 +79,45 @@ class RankBucketsTest {
         assertSame(counted(buckets, life, PERCENTS), sorted(life, PERCENTS), "lifetimes");
         assertSame(counted(buckets, flat, PERCENTS), sorted(flat, PERCENTS), "nearly constant");
         assertSame(counted(buckets, life, PERCENTS), sorted(life, PERCENTS), "lifetimes again");
+    }
+
+    /**
+     * Values that are nearly all zeros of both signs: the ranks are selected among all of them in place (few values,
+     * or wanted buckets that hold nearly every value), where -0 and +0 compare equal; each zero still has the sign a
+     * sort puts at its rank, on both sides of where the negative zeros end.
+     */
+    @ParameterizedTest
+    @ValueSource(ints = {40, Selection.IN_PLACE - 1, 300_000})
+    void zerosOfBothSignsGetTheSignASortGivesThem(int n) {
+        Random rnd = new Random(n + 1);
+        float[] a = new float[n];
+        for (int i = 0; i < n; i++) {
+            int kind = rnd.nextInt(50);
+            a[i] = kind == 0 ? -2.5f : kind == 1 ? 3.5f : kind < 20 ? -0f : 0f;
+        }
+        float[] sorted = a.clone();
+        java.util.Arrays.sort(sorted);
+        int negativeZerosEnd = 0; // the first rank of +0
+        while (Float.floatToRawIntBits(sorted[negativeZerosEnd]) != 0) {
+            negativeZerosEnd++;
+        }
+        int[] ranks = java.util.stream.IntStream.of(0, n / 10, negativeZerosEnd - 2, negativeZerosEnd - 1,
+                negativeZerosEnd, negativeZerosEnd + 1, n / 2, n - 1)
+                .filter(r -> r >= 0 && r < n).distinct().sorted().toArray();
+        RankBuckets buckets = new RankBuckets();
+        int[] c = buckets.cleared();
+        for (float v : a) {
+            c[RankBuckets.bucket(v)]++;
+        }
+        double[] counted = buckets.ranks(a.clone(), n, ranks);
+        double[] uncounted = Selection.ranks(a.clone(), n, ranks);
+        for (int k = 0; k < ranks.length; k++) {
+            long want = Double.doubleToRawLongBits(sorted[ranks[k]]);
+            assertThat(Double.doubleToRawLongBits(counted[k])).as("rank %d of %d", ranks[k], n).isEqualTo(want);
+            assertThat(Double.doubleToRawLongBits(uncounted[k])).as("rank %d of %d", ranks[k], n).isEqualTo(want);
+        }
+        assertThat(sorted[negativeZerosEnd - 1]).as("a negative zero before the first +0").isZero();
+        assertThat(Float.floatToRawIntBits(sorted[negativeZerosEnd - 1])).isNegative();
     }
 
     @Test
