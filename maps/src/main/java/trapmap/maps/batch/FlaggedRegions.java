@@ -412,15 +412,6 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
             for (int k = 0; k < size; k += CHUNK) {
                 sums(k, Math.min(size, k + CHUNK));
             }
-            long sumX = this.sumX;
-            long sumY = this.sumY;
-            double sumValue = this.sumValue;
-            int minX = this.minX;
-            int maxX = this.maxX;
-            int minY = this.minY;
-            int maxY = this.maxY;
-            int peakIndex = this.peakIndex;
-            double peak = this.peak;
             double halfPx = 0.5;
             Region.BoundsMm bounds = new Region.BoundsMm(grid.xMm(minX - halfPx), grid.yMm(maxY + halfPx),
                     grid.xMm(maxX + halfPx), grid.yMm(minY - halfPx));
