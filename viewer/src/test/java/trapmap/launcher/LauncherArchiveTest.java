@@ -193,19 +193,10 @@ class LauncherArchiveTest {
         assertRanProbe(inspect, "inspect in");
         assertThat(inspect.output().contains("-XX:+UseSerialGC")).as(inspect.output()).isEqualTo(fewCores);
         assertThat(inspect.output()).contains("-XX:Tier4InvocationThreshold=20000");
-        // the heap in transparent huge pages where the kernel gives them on request or always (the flag elsewhere
-        // makes Java warn)
-        Path thp = Path.of("/sys/kernel/mm/transparent_hugepage/enabled");
-        String mode = Files.isReadable(thp) ? Files.readString(thp) : "";
-        boolean hugePages = mode.contains("[madvise]") || mode.contains("[always]");
-        assertThat(inspect.output().contains("-XX:+UseTransparentHugePages")).as(mode + inspect.output())
-                .isEqualTo(hugePages);
-        assertThat(inspect.output()).doesNotContain("warning");
 
         Run convert = launch(flags, "convert", "in");
         assertRanProbe(convert, "convert in");
-        assertThat(convert.output()).doesNotContain("-XX:+UseSerialGC").doesNotContain("Tier4InvocationThreshold")
-                .doesNotContain("TransparentHugePages");
+        assertThat(convert.output()).doesNotContain("-XX:+UseSerialGC").doesNotContain("Tier4InvocationThreshold");
 
         // a collector of the caller's own: the launcher adds none (two would stop Java at start)
         Run parallel = launch(Map.of("TRAPMAP_CDS", "0", "JAVA_OPTS", "-XX:+UseParallelGC -XX:+PrintCommandLineFlags"),
