@@ -109,7 +109,7 @@ public final class BandConversion {
      */
     public static HeadStart warmUp(MeasurementConditions guess, Defect defect, ConversionSettings settings,
                                    Quantity wanted) {
-        return HeadStart.start("convert-warm-up", stopped -> {
+        return HeadStart.start(WARM_UP_THREAD, stopped -> {
             try {
                 TrapDensityConverter k = new TrapDensityConverter(MapConversion.physicsConditions(guess, settings),
                         defect);
@@ -175,6 +175,9 @@ public final class BandConversion {
                     tally);
         }
     }
+
+    /** The name of a warm-up's thread (of this class's and of {@link MapConversion#warmUp}'s). */
+    public static final String WARM_UP_THREAD = "convert-warm-up";
 
     /** Pixels of the warm-up raster. */
     static final int WARM_UP_PIXELS = WARM_UP_ROWS * WARM_UP_WIDTH;

@@ -382,7 +382,7 @@ public final class MapConversion {
      */
     public static HeadStart warmUp(List<MeasurementConditions> guesses, Defect defect, ConversionSettings settings,
                                    Set<Quantity> wanted) {
-        return HeadStart.start("convert-warm-up", stopped -> {
+        return HeadStart.start(BandConversion.WARM_UP_THREAD, stopped -> {
             List<TrapDensityConverter> kernels = new ArrayList<>();
             for (MeasurementConditions guess : guesses) {
                 try {

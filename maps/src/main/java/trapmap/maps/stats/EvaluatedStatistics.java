@@ -362,7 +362,7 @@ public final class EvaluatedStatistics {
                 estimates = MapStatistics.Ranks.none(wanted);
             } else {
                 MapStatistics.Ranks ranks = MapStatistics.Ranks.of(sums.n, wanted);
-                Selection.Plan plan = sums.n <= Selection.SORTED ? null
+                Selection.Plan plan = sums.n <= Selection.DIRECT ? null
                         : Selection.Plan.of(Selection.sum(chunkCounts), sums.n, ranks.ranks);
                 if (plan == null || plan.inPlace) {
                     // as MapStatistics.of: all counted values in index order, sorted or selected among in place

@@ -32,7 +32,7 @@ public final class RankBuckets {
      * @throws IllegalStateException when the counts do not add up to n
      */
     double[] ranks(float[] values, int n, int[] ranks) {
-        if (n <= Selection.SORTED) {
+        if (n <= Selection.DIRECT) {
             return Selection.ranks(values, n, ranks);
         }
         long total = 0;

@@ -14,7 +14,7 @@ final class Selection {
      * Up to this many values the callers that count the buckets themselves skip the bucket tables and call
      * {@link #ranks}.
      */
-    static final int SORTED = 1 << 12;
+    static final int DIRECT = 1 << 12;
     /**
      * Up to this many values the ranks are selected in place ({@link #inPlace}) without bucket tables: a few passes
      * over the values cost less than the tables' 65 536 counts (a region's values, a small map).
@@ -98,7 +98,6 @@ final class Selection {
         }
         return rank < below ? -0f : 0f;
     }
-
 
     /**
      * Which buckets hold the wanted ranks, and where: made from the bucket counts of all n values. When those buckets

@@ -22,6 +22,7 @@ import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.BandConversion;
 import trapmap.maps.process.ConversionSettings;
 import trapmap.maps.process.MapConversion;
+import trapmap.maps.process.WarmUpThreads;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.defect.DefectLibrary;
 import trapmap.physics.material.Doping;
@@ -309,16 +310,7 @@ class MapStreamTest {
             TiffRowWriter.write(out, b.output(), w -> b.run(s, w::write, 2, 3));
         }
         assertThat(Files.readAllBytes(out)).isEqualTo(Files.readAllBytes(reference));
-        long until = System.nanoTime() + 10_000_000_000L;
-        while (warmUpThreads() > 0 && System.nanoTime() < until) {
-            Thread.sleep(10);
-        }
-        assertThat(warmUpThreads()).as("warm-up threads still running").isZero();
-    }
-
-    private static long warmUpThreads() {
-        return Thread.getAllStackTraces().keySet().stream().filter(t -> t.getName().equals("convert-warm-up"))
-                .count();
+        WarmUpThreads.assertAllEnd();
     }
 
     @Test

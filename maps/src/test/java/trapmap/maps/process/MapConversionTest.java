@@ -233,15 +233,6 @@ class MapConversionTest {
         assertThat(warm.statusCodes()).isEqualTo(cold.statusCodes());
         assertThat(warm.statusCounts()).isEqualTo(cold.statusCounts());
         assertThat(warm.warningPixels()).isEqualTo(cold.warningPixels());
-        long until = System.nanoTime() + 10_000_000_000L;
-        while (warmUpThreads() > 0 && System.nanoTime() < until) {
-            Thread.sleep(10);
-        }
-        assertThat(warmUpThreads()).as("warm-up threads still running").isZero();
-    }
-
-    private static long warmUpThreads() {
-        return Thread.getAllStackTraces().keySet().stream().filter(t -> t.getName().equals("convert-warm-up"))
-                .count();
+        WarmUpThreads.assertAllEnd();
     }
 }

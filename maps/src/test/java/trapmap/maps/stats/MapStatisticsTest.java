@@ -242,7 +242,7 @@ class MapStatisticsTest {
     }
 
     @ParameterizedTest
-    @ValueSource(ints = {1, 2, 3, Selection.SORTED - 1, Selection.SORTED, Selection.SORTED + 1, 3 * Selection.SORTED,
+    @ValueSource(ints = {1, 2, 3, Selection.DIRECT - 1, Selection.DIRECT, Selection.DIRECT + 1, 3 * Selection.DIRECT,
         Selection.IN_PLACE, Selection.IN_PLACE + 1})
     void ranksOnEitherSideOfTheSortedSizeAgreeWithASort(int n) {
         Random rnd = new Random(n);

@@ -48,8 +48,8 @@ class RankBucketsTest {
     }
 
     @ParameterizedTest
-    @ValueSource(ints = {1, 2, 3, 17, Selection.SORTED - 1, Selection.SORTED, Selection.SORTED + 1,
-        3 * Selection.SORTED, Selection.IN_PLACE, Selection.IN_PLACE + 1, 250_000})
+    @ValueSource(ints = {1, 2, 3, 17, Selection.DIRECT - 1, Selection.DIRECT, Selection.DIRECT + 1,
+        3 * Selection.DIRECT, Selection.IN_PLACE, Selection.IN_PLACE + 1, 250_000})
     void equalASortOnSpreadValuesWithTiesAndNonPositives(int n) {
         Random rnd = new Random(n);
         float[] a = new float[n];
