@@ -48,36 +48,46 @@ public final class Rendering {
     /** The Debian/Ubuntu packages of the font machinery: libraries, the fontconfig tools and one font family. */
     public static final String FONT_PACKAGES = "libfreetype6 libharfbuzz0b libfontconfig1 fontconfig fonts-dejavu-core";
 
-    /** Debian/Ubuntu package of each shared library the JDK's imaging and font libraries load, by name prefix. */
-    private static final Map<String, String> PACKAGES = new LinkedHashMap<>();
-
-    static {
-        PACKAGES.put("libharfbuzz.so", "libharfbuzz0b");
-        PACKAGES.put("libfreetype.so", "libfreetype6");
-        PACKAGES.put("libfontconfig.so", "libfontconfig1");
-        PACKAGES.put("libpng16.so", "libpng16-16");
-        PACKAGES.put("libgraphite2.so", "libgraphite2-3");
-        PACKAGES.put("libglib-2.0.so", "libglib2.0-0");
-        PACKAGES.put("libbrotlidec.so", "libbrotli1");
-        PACKAGES.put("libbrotlicommon.so", "libbrotli1");
-        PACKAGES.put("libz.so", "zlib1g");
-        PACKAGES.put("libexpat.so", "libexpat1");
-        PACKAGES.put("libstdc++.so", "libstdc++6");
-        PACKAGES.put("liblcms2.so", "liblcms2-2");
-        PACKAGES.put("libjpeg.so", "libjpeg62-turbo");
-    }
-
-    /** The file name a dynamic-loader message says cannot be opened ({@code libharfbuzz.so.0}). */
-    private static final Pattern NOT_OPENED = Pattern.compile("([\\w.+-]+\\.so[.\\d]*): cannot open shared object file");
-
     /** The answer of {@link #missing()}, probed once. */
     private static volatile Optional<Missing> answer;
     /**
-     * The message of the {@link ExceptionInInitializerError} behind a class whose start failed earlier in the process,
-     * possibly on another thread: {@code Exception java.lang.UnsatisfiedLinkError: ... [in thread "t"]}.
+     * What reading a failure's message takes, made on the first failure: {@link #headlessUnlessSet}, which every
+     * command calls first, leaves them unmade.
      */
-    private static final Pattern EARLIER = Pattern.compile("Exception (\\S+(?:: .*?)?)(?: \\[in thread \"[^\"]*\"\\])?",
-            Pattern.DOTALL);
+    private static final class Messages {
+        /** Debian/Ubuntu package of each shared library the JDK's imaging and font libraries load, by name prefix. */
+        private static final Map<String, String> PACKAGES = new LinkedHashMap<>();
+
+        static {
+            PACKAGES.put("libharfbuzz.so", "libharfbuzz0b");
+            PACKAGES.put("libfreetype.so", "libfreetype6");
+            PACKAGES.put("libfontconfig.so", "libfontconfig1");
+            PACKAGES.put("libpng16.so", "libpng16-16");
+            PACKAGES.put("libgraphite2.so", "libgraphite2-3");
+            PACKAGES.put("libglib-2.0.so", "libglib2.0-0");
+            PACKAGES.put("libbrotlidec.so", "libbrotli1");
+            PACKAGES.put("libbrotlicommon.so", "libbrotli1");
+            PACKAGES.put("libz.so", "zlib1g");
+            PACKAGES.put("libexpat.so", "libexpat1");
+            PACKAGES.put("libstdc++.so", "libstdc++6");
+            PACKAGES.put("liblcms2.so", "liblcms2-2");
+            PACKAGES.put("libjpeg.so", "libjpeg62-turbo");
+        }
+
+        /** The file name a dynamic-loader message says cannot be opened ({@code libharfbuzz.so.0}). */
+        private static final Pattern NOT_OPENED =
+                Pattern.compile("([\\w.+-]+\\.so[.\\d]*): cannot open shared object file");
+
+        /**
+         * The message of the {@link ExceptionInInitializerError} behind a class whose start failed earlier in the
+         * process, possibly on another thread: {@code Exception java.lang.UnsatisfiedLinkError: ... [in thread "t"]}.
+         */
+        private static final Pattern EARLIER =
+                Pattern.compile("Exception (\\S+(?:: .*?)?)(?: \\[in thread \"[^\"]*\"\\])?", Pattern.DOTALL);
+
+        private Messages() {
+        }
+    }
 
     private Rendering() {
     }
@@ -157,7 +167,7 @@ public final class Rendering {
         if (t instanceof UnsatisfiedLinkError
                 || t instanceof LinkageError && message.contains("cannot open shared object file")) {
             List<String> libraries = new ArrayList<>();
-            Matcher m = NOT_OPENED.matcher(message);
+            Matcher m = Messages.NOT_OPENED.matcher(message);
             while (m.find()) {
                 libraries.add(m.group(1));
             }
@@ -228,7 +238,7 @@ public final class Rendering {
     private static String fontRemedy(List<String> libraries) {
         List<String> packages = new ArrayList<>();
         for (String lib : libraries) {
-            PACKAGES.forEach((prefix, pkg) -> {
+            Messages.PACKAGES.forEach((prefix, pkg) -> {
                 if (lib.startsWith(prefix) && !packages.contains(pkg)) {
                     packages.add(pkg);
                 }
@@ -247,7 +257,7 @@ public final class Rendering {
     /** The failure in one line, without the {@code java.lang.} of its class. */
     private static String cause(Throwable t) {
         String s = t.getClass().getName() + (t.getMessage() == null ? "" : ": " + t.getMessage());
-        Matcher earlier = EARLIER.matcher(String.valueOf(t.getMessage()));
+        Matcher earlier = Messages.EARLIER.matcher(String.valueOf(t.getMessage()));
         if (t instanceof ExceptionInInitializerError && earlier.matches()) {
             s = earlier.group(1); // the first failure, as it was thrown (here or on another thread)
         }
