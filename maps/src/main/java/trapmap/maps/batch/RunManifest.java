@@ -55,6 +55,8 @@ public record RunManifest(String version, State state, Instant started, Instant 
     public static final String FILE_NAME = "run.json";
     static final String FORMAT = "trapmap-run/1";
     private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+    /** One line, for the physics settings' digest and comparison (a mapper is thread-safe once configured). */
+    private static final ObjectMapper COMPACT = new ObjectMapper();
 
     /** How far a run got. */
     public enum State {
@@ -93,14 +95,55 @@ public record RunManifest(String version, State state, Instant started, Instant 
     static RunManifest start(Source source, PhysicsSettings physics, List<Path> inputs, boolean thumbnails,
                              boolean thumbnailCaptions, Instant now) {
         Map<String, Object> p = PhysicsSettingsFile.toJson(physics);
-        StringBuilder list = new StringBuilder();
-        for (Path f : inputs) {
-            list.append(f.toAbsolutePath().normalize()).append('\n');
-        }
         return new RunManifest(source.version(), State.RUNNING, now, null, null, source.rulesFile(),
                 source.rulesSha256(), p, sha256(compact(p).getBytes(StandardCharsets.UTF_8)), inputs.size(),
-                sha256(list.toString().getBytes(StandardCharsets.UTF_8)), thumbnails, thumbnails && thumbnailCaptions,
-                null);
+                inputsSha256(inputs), thumbnails, thumbnails && thumbnailCaptions, null);
+    }
+
+    /**
+     * The SHA-256 of the list of {@code inputs}: their absolute, normalised paths, one a line. Taken from the digest
+     * made ahead ({@link #prepare}) when that was made of an equal list; else made here.
+     */
+    static String inputsSha256(List<Path> inputs) {
+        InputsDigest a = ahead;
+        if (a != null && a.inputs().equals(inputs)) {
+            return a.sha256();
+        }
+        return InputsDigest.of(inputs).sha256();
+    }
+
+    /** The inputs' digest made ahead by {@link #prepare}; null before. */
+    private static volatile InputsDigest ahead;
+
+    /** A list of inputs and the SHA-256 of its text (see {@link #inputsSha256}). */
+    record InputsDigest(List<Path> inputs, String sha256) {
+        static InputsDigest of(List<Path> inputs) {
+            StringBuilder list = new StringBuilder();
+            for (Path f : inputs) {
+                list.append(f.toAbsolutePath().normalize()).append('\n');
+            }
+            return new InputsDigest(List.copyOf(inputs),
+                    RunManifest.sha256(list.toString().getBytes(StandardCharsets.UTF_8)));
+        }
+    }
+
+    /**
+     * A head start for a run over {@code inputs} (the files a command line most likely names; null: none), done on
+     * a background thread while the command line is parsed: the digest of their list, which {@link #start} takes
+     * when its inputs are an equal list (else it makes its own), and a record like the run's made and encoded once
+     * (Jackson's serializers for it, the digest's provider), then dropped. Changes nothing a run writes; any failure
+     * is ignored (the run reports its own).
+     */
+    public static void prepare(List<Path> inputs) {
+        try {
+            List<Path> files = inputs == null ? List.of() : inputs;
+            if (!files.isEmpty()) {
+                ahead = InputsDigest.of(files);
+            }
+            start(Source.UNKNOWN, PhysicsSettings.DEFAULTS, files, true, false, Instant.now()).json();
+        } catch (RuntimeException | IOException e) {
+            // only a head start
+        }
     }
 
     /** This run resumed at {@code now}: the first start time of {@code earlier} is kept. */
@@ -159,6 +202,13 @@ public record RunManifest(String version, State state, Instant started, Instant 
 
     /** Writes {@value #FILE_NAME} into {@code dir} atomically. */
     void write(Path dir) throws IOException {
+        byte[] bytes = json();
+        Path file = dir.resolve(FILE_NAME);
+        OutputFolder.write(file, () -> AtomicFiles.write(file, bytes));
+    }
+
+    /** The content of {@value #FILE_NAME}. */
+    private byte[] json() throws IOException {
         Map<String, Object> m = new LinkedHashMap<>();
         m.put("format", FORMAT);
         m.put("version", version);
@@ -177,9 +227,7 @@ public record RunManifest(String version, State state, Instant started, Instant 
         if (summaryPdf != null) {
             m.put("summary_pdf", summaryPdf);
         }
-        byte[] bytes = JSON.writeValueAsBytes(m);
-        Path file = dir.resolve(FILE_NAME);
-        OutputFolder.write(file, () -> AtomicFiles.write(file, bytes));
+        return JSON.writeValueAsBytes(m);
     }
 
     /** The record in {@code dir}, or null when there is none. */
@@ -253,7 +301,7 @@ public record RunManifest(String version, State state, Instant started, Instant 
 
     static String compact(Map<String, Object> json) {
         try {
-            return new ObjectMapper().writeValueAsString(json);
+            return COMPACT.writeValueAsString(json);
         } catch (JsonProcessingException e) {
             throw new IllegalStateException(e);
         }
