@@ -153,16 +153,30 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
             last = last.subcommand();
         }
         for (PositionalParamSpec p : last.matchedPositionals()) {
-            Object v = p.getValue();
-            if (v instanceof Path path) {
+            Path path = firstPath(p.getValue());
+            if (path != null) {
                 return path;
             }
-            if (v instanceof Collection<?> c && !c.isEmpty() && c.iterator().next() instanceof Path path) {
+        }
+        // map arguments taken in runs by InspectCommand.Inputs, which picocli does not list as matched
+        for (PositionalParamSpec p : last.commandSpec().positionalParameters()) {
+            Path path = p.parameterConsumer() instanceof InspectCommand.Inputs ? firstPath(p.getValue()) : null;
+            if (path != null) {
                 return path;
             }
-            if (v instanceof Path[] a && a.length > 0) {
-                return a[0];
-            }
+        }
+        return null;
+    }
+
+    private static Path firstPath(Object v) {
+        if (v instanceof Path path) {
+            return path;
+        }
+        if (v instanceof Collection<?> c && !c.isEmpty() && c.iterator().next() instanceof Path path) {
+            return path;
+        }
+        if (v instanceof Path[] a && a.length > 0) {
+            return a[0];
         }
         return null;
     }

@@ -55,7 +55,7 @@ public final class TrapmapCommand implements Callable<Integer> {
      * full model of every sub-command.
      */
     public static CommandLine commandLine(PrintWriter out, PrintWriter err) {
-        return commandLine(out, err, type -> true);
+        return commandLine(out, err, type -> true, null);
     }
 
     /**
@@ -71,15 +71,18 @@ public final class TrapmapCommand implements Callable<Integer> {
         return commandLine(out, err, type -> {
             Command c = type.getAnnotation(Command.class);
             return named.contains(c.name()) || Arrays.stream(c.aliases()).anyMatch(named::contains);
-        });
+        }, args);
     }
 
     private static CommandLine commandLine(PrintWriter out, PrintWriter err,
-                                           java.util.function.Predicate<Class<?>> full) {
+                                           java.util.function.Predicate<Class<?>> full, String[] args) {
         CommandLine cl = new CommandLine(new TrapmapCommand());
         for (Class<?> type : SUBCOMMANDS) {
             if (full.test(type)) {
                 cl.addSubcommand(type);
+                if (type == InspectCommand.class && args != null) {
+                    InspectCommand.takeInputsInRuns(cl.getSubcommands().get("inspect").getCommandSpec(), args);
+                }
             } else {
                 CommandSpec outline = outline(type);
                 cl.addSubcommand(outline.name(), outline);
@@ -94,7 +97,21 @@ public final class TrapmapCommand implements Callable<Integer> {
         // numbers without a unit converter: plain decimal or scientific notation, finite (no NaN, no hexadecimal)
         cl.registerConverter(Double.class, Quantity::plainNumber);
         cl.registerConverter(double.class, Quantity::plainNumber);
+        cl.registerConverter(java.nio.file.Path.class, TrapmapCommand::path);
         return cl;
+    }
+
+    /**
+     * A path argument, as picocli's built-in conversion makes it ({@code Paths.get(text)}, through reflection) and
+     * with its message when that fails, called directly: a batch names hundreds of files, each converted twice.
+     */
+    static java.nio.file.Path path(String text) {
+        try {
+            return java.nio.file.Path.of(text);
+        } catch (RuntimeException e) {
+            throw new CommandLine.TypeConversionException(String.format("cannot convert '%s' to %s (%s)", text,
+                    java.nio.file.Path.class, e));
+        }
     }
 
     /**
@@ -114,7 +131,9 @@ public final class TrapmapCommand implements Callable<Integer> {
      * trapmap.maps.io.Sidecar#prepare}), and starts the kernel's warm-up ({@link ConvertCommand#warmUpEarly}). For
      * {@code inspect}: builds the rules' JSON mapper on such a thread and reads the rules file given with
      * {@code --rules} once ahead, discarding the result ({@link trapmap.maps.batch.Rules#prepare(Path)}: the command
-     * reads it itself, warm). Nothing for help, version or other commands.
+     * reads it itself, warm), then makes the digest of the input files' list and a run record once ahead ({@link
+     * trapmap.maps.batch.RunManifest#prepare}: the run takes that digest when it names the same files). Nothing for
+     * help, version or other commands.
      */
     static void prepare(String... args) {
         if (args.length < 2 || !(args[0].equals("convert") || args[0].equals("inspect"))) {
@@ -127,7 +146,10 @@ public final class TrapmapCommand implements Callable<Integer> {
         }
         if (args[0].equals("inspect")) { // the rules are read first, then each map's metadata
             java.nio.file.Path rules = rulesArgument(args);
-            Thread t = new Thread(() -> trapmap.maps.batch.Rules.prepare(rules), "rules-mapper");
+            Thread t = new Thread(() -> {
+                trapmap.maps.batch.Rules.prepare(rules);
+                trapmap.maps.batch.RunManifest.prepare(inputArguments(args));
+            }, "rules-mapper");
             t.setDaemon(true);
             t.start();
             return;
@@ -136,6 +158,38 @@ public final class TrapmapCommand implements Callable<Integer> {
         t.setDaemon(true);
         t.start();
         ConvertCommand.warmUpEarly(args);
+    }
+
+    /** The options of {@code inspect} that take a value as the next argument. */
+    private static final List<String> INSPECT_VALUED = List.of("--rules", "--out", "--threads", "--physics");
+
+    /**
+     * The files {@code inspect args} most likely names, for a head start only ({@link
+     * trapmap.maps.batch.RunManifest#prepare}, which checks what it is given against what the command names): the
+     * arguments after the command that are no option and no option's value; picocli parses the command line. Empty
+     * with an argument file ({@code @file}) or an argument that is no path.
+     */
+    static List<java.nio.file.Path> inputArguments(String... args) {
+        List<java.nio.file.Path> files = new java.util.ArrayList<>();
+        boolean options = true;
+        for (int i = 1; i < args.length; i++) {
+            String a = args[i];
+            if (a.startsWith("@")) {
+                return List.of();
+            }
+            if (options && INSPECT_VALUED.contains(a)) {
+                i++;
+            } else if (options && a.equals("--")) {
+                options = false;
+            } else if (!options || !a.startsWith("-")) {
+                try {
+                    files.add(java.nio.file.Path.of(a));
+                } catch (java.nio.file.InvalidPathException e) {
+                    return List.of();
+                }
+            }
+        }
+        return files;
     }
 
     /**

@@ -29,6 +29,18 @@ class InspectHeadStartTest {
     }
 
     @Test
+    void theMapsAreGuessedFromTheArgumentsThatAreNoOptionAndNoOptionsValue() {
+        assertThat(TrapmapCommand.inputArguments("inspect", "a.tif", "--rules", "r.json", "b.tif", "--out", "o",
+                "--threads", "2", "--physics", "p.json", "--no-pdf", "--rules=x.json", "c.csv"))
+                .containsExactly(Path.of("a.tif"), Path.of("b.tif"), Path.of("c.csv"));
+        assertThat(TrapmapCommand.inputArguments("inspect", "--out", "o", "a.tif", "--", "--rules", "-b.tif"))
+                .containsExactly(Path.of("a.tif"), Path.of("--rules"), Path.of("-b.tif"));
+        assertThat(TrapmapCommand.inputArguments("inspect", "a.tif", "@more.txt")).isEmpty();
+        assertThat(TrapmapCommand.inputArguments("inspect", "a.tif", "b\0.tif")).isEmpty();
+        assertThat(TrapmapCommand.inputArguments("inspect", "--rules", "r.json")).isEmpty();
+    }
+
+    @Test
     void aPipeIsNotReadAndABadFileFailsNothing(@TempDir Path dir) throws Exception {
         Path bad = Files.writeString(dir.resolve("bad.json"), "{\"limits\": [");
         assertThatCode(() -> Rules.prepare(bad)).doesNotThrowAnyException();
