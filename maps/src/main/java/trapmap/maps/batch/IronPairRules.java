@@ -62,6 +62,10 @@ public record IronPairRules(String febState, String feiState, List<IronLimit> li
 
     /** As {@link #read}, from text; {@code name} names the file in messages. */
     public static Optional<IronPairRules> parse(String text, String name) throws RulesException {
+        Optional<IronPairRules> ahead = Rules.ironAhead(text, name); // the same text read ahead: the same result
+        if (ahead != null) {
+            return ahead;
+        }
         JsonNode root;
         try {
             root = new ObjectMapper().readTree(text);

@@ -13,6 +13,7 @@ import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Objects;
+import java.util.Optional;
 import java.util.Set;
 import java.util.function.ToDoubleFunction;
 import trapmap.maps.geometry.WaferFormat;
@@ -350,14 +351,18 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
      * As {@link #prepare()}, then reads and checks the rules file {@code file} when it is a regular file (not a pipe,
      * which a second reading would find empty), and makes a SHA-256 digest (the run record's, whose provider is
      * loaded on first use): the first-use work of the batch's own reading of the same file, done on a background
-     * thread while the command line is parsed. Returns nothing and changes nothing: the batch reads, checks and
-     * hashes the file itself; any failure is ignored (that reading reports its own).
+     * thread while the command line is parsed. Returns nothing: the batch reads and hashes the file itself, and
+     * {@link #parse} (and {@link IronPairRules#parse}) of that same text under the same name returns what was made
+     * here instead of parsing it again; any failure is ignored (that reading reports its own).
      */
     public static void prepare(Path file) {
         prepare();
         try {
             if (file != null && java.nio.file.Files.isRegularFile(file)) {
-                parse(readText(file), file.toString());
+                String text = readText(file);
+                String name = file.toString();
+                Rules rules = parse(text, name);
+                ahead = new Ahead(text, name, rules, IronPairRules.parse(text, name));
             }
         } catch (RulesException | RuntimeException e) {
             // only a head start, as above
@@ -367,6 +372,25 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         } catch (RuntimeException e) {
             // as above
         }
+    }
+
+    /**
+     * The rules read ahead by {@link #prepare(Path)}: the file's text and name and what {@link #parse} and {@link
+     * IronPairRules#parse} made of them (both immutable), which those return for the same text and name instead of
+     * parsing it again; null before.
+     */
+    private record Ahead(String text, String name, Rules rules, Optional<IronPairRules> iron) {
+        boolean holds(String t, String n) {
+            return name.equals(n) && text.equals(t);
+        }
+    }
+
+    private static volatile Ahead ahead;
+
+    /** The iron section {@link #prepare(Path)} read from this very text and name, or null. */
+    static Optional<IronPairRules> ironAhead(String text, String name) {
+        Ahead a = ahead;
+        return a != null && a.holds(text, name) ? a.iron() : null;
     }
 
     /** Reads and checks a rules file. */
@@ -393,6 +417,10 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
 
     /** Parses and checks rules given as JSON text; {@code name} prefixes every message. */
     public static Rules parse(String text, String name) throws RulesException {
+        Ahead a = ahead;
+        if (a != null && a.holds(text, name)) {
+            return a.rules();
+        }
         JsonNode root;
         try {
             root = JSON.readTree(text);
