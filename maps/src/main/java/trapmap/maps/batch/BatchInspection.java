@@ -806,7 +806,12 @@ public final class BatchInspection {
                 while (next.hasNext() && pending.size() < QUEUED_PER_WORKER * threads) {
                     Path f = next.next();
                     Path thumb = thumbs == null ? null : thumbs.resolve(f.getFileName() + ".png");
-                    java.util.concurrent.Callable<Inspected> work = () -> {
+                    boolean first = !submitted;
+                    submitted = true;
+                    pending.add(pool.submit(() -> {
+                        if (!first) {
+                            firstDone.await(); // counted down by the writer below once the first wafer is in
+                        }
                         long cpuFrom = threadCpuNanos();
                         @SuppressWarnings("unchecked")
                         Map<String, String>[] iron = new Map[1];
@@ -826,19 +831,6 @@ public final class BatchInspection {
                         long cpuTo = threadCpuNanos();
                         workerCpu.add(cpuFrom < 0 || cpuTo < 0 ? Long.MIN_VALUE / 4 : cpuTo - cpuFrom);
                         return formatted;
-                    };
-                    boolean first = !submitted;
-                    submitted = true;
-                    pending.add(pool.submit(() -> {
-                        if (!first) {
-                            firstDone.await();
-                            return work.call();
-                        }
-                        try {
-                            return work.call();
-                        } finally {
-                            firstDone.countDown();
-                        }
                     }));
                 }
                 Inspected r;
@@ -851,6 +843,7 @@ public final class BatchInspection {
                     throw new IllegalStateException("inspection failed unexpectedly", e.getCause());
                 }
                 long writing = System.nanoTime();
+                firstDone.countDown(); // the first wafer is in (a failed one ends the run, the waiting tasks with it)
                 if (r.footprint() != null) {
                     if (!RecurrenceMap.accepts(r.footprint())) {
                         recurrence.add(r.footprint()); // left out, its reason kept in input order
