@@ -276,6 +276,18 @@ public final class BatchInspection {
     static final int QUEUED_PER_WORKER = 8;
 
     /**
+     * Whether the other workers wait for the first wafer of a run before they start theirs: on a machine of at most
+     * two processors that the workers fill ({@code threads} at least 2). The first wafer runs mostly in the
+     * interpreter (its code is not compiled yet, and the compilers and the summary's warm-up want the processors at
+     * the same time); a second worker beside it would run the same cold code at the same cost, about 100 ms of CPU
+     * more, while waiting it leaves its processor to the compilers and starts on compiled code. With more
+     * processors the start-up's other threads leave cores spare, and every worker starts at once.
+     */
+    static boolean firstWaferAlone(int threads, int processors) {
+        return threads >= 2 && processors <= 2;
+    }
+
+    /**
      * One wafer inspected and formatted by a worker, for the writer: the results row (kept for {@code results.json})
      * and the CSV text of its rows in the three tables, with their record separators.
      *
@@ -324,6 +336,8 @@ public final class BatchInspection {
     private IronPairRules iron;
     /** Heap the workers may hold at once, bytes; negative: {@link MemoryBudget#ofThisHeap()}. */
     private long memoryBudgetBytes = -1;
+    /** Whether the first wafer runs alone ({@link #firstWaferAlone}); null: as that decides for this machine. */
+    private Boolean firstAlone;
     /** Program version and rules file, for the run record. */
     private RunManifest.Source source = RunManifest.Source.UNKNOWN;
     /** The summary step, null for none. */
@@ -382,6 +396,15 @@ public final class BatchInspection {
      */
     BatchInspection withMemoryBudget(long bytes) {
         this.memoryBudgetBytes = bytes;
+        return this;
+    }
+
+    /**
+     * Runs the first wafer alone, the other workers waiting for it (true), or every worker at once (false), instead
+     * of as {@link #firstWaferAlone} decides for this machine (a test of either). Returns this batch.
+     */
+    BatchInspection withFirstWaferAlone(boolean alone) {
+        this.firstAlone = alone;
         return this;
     }
 
@@ -774,11 +797,21 @@ public final class BatchInspection {
             ThreadLocal<InspectionBuffers> buffers = ThreadLocal.withInitial(InspectionBuffers::new);
             inspectingFromCpu = threadCpuNanos();
             inspectingFrom = System.nanoTime();
+            // the workers after the first wait for its end, where the first wafer runs alone (firstWaferAlone)
+            boolean alone = firstAlone != null ? firstAlone
+                    : firstWaferAlone(threads, Runtime.getRuntime().availableProcessors());
+            java.util.concurrent.CountDownLatch firstDone = new java.util.concurrent.CountDownLatch(alone ? 1 : 0);
+            boolean submitted = false;
             while (next.hasNext() || !pending.isEmpty()) {
                 while (next.hasNext() && pending.size() < QUEUED_PER_WORKER * threads) {
                     Path f = next.next();
                     Path thumb = thumbs == null ? null : thumbs.resolve(f.getFileName() + ".png");
+                    boolean first = !submitted;
+                    submitted = true;
                     pending.add(pool.submit(() -> {
+                        if (!first) {
+                            firstDone.await(); // counted down by the writer below once the first wafer is in
+                        }
                         long cpuFrom = threadCpuNanos();
                         @SuppressWarnings("unchecked")
                         Map<String, String>[] iron = new Map[1];
@@ -810,6 +843,7 @@ public final class BatchInspection {
                     throw new IllegalStateException("inspection failed unexpectedly", e.getCause());
                 }
                 long writing = System.nanoTime();
+                firstDone.countDown(); // the first wafer is in (a failed one ends the run, the waiting tasks with it)
                 if (r.footprint() != null) {
                     if (!RecurrenceMap.accepts(r.footprint())) {
                         recurrence.add(r.footprint()); // left out, its reason kept in input order

@@ -1,9 +1,11 @@
 package trapmap.maps.batch;
 
 import java.util.Arrays;
-import java.util.Collections;
+import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.Map;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.FutureTask;
 import trapmap.maps.geometry.OutlineDetection;
 import trapmap.maps.geometry.OutlineFit;
 import trapmap.maps.geometry.ReducedOutline;
@@ -50,7 +52,10 @@ public final class OutlineFits {
     /**
      * The outline fit is a pure function of the validity mask and its grid, and the maps of one tool often share
      * their reduced mask exactly (same stage, same crop): the last {@code capacity} fits are kept, keyed by the mask's
-     * bits and the grid, and a mask equal to one of them reuses its fit. Thread-safe.
+     * bits and the grid, and a mask equal to one of them reuses its fit. A mask that is being fitted on another
+     * thread waits for that fit instead of fitting it too (the workers of a batch all start on maps of the same mask,
+     * and their first fit runs in the interpreter: each copy costs tens of milliseconds of CPU); should that fit
+     * fail, the waiting thread fits the mask itself. Thread-safe.
      */
     static final class FitCache {
         private record Key(int hash, boolean[] valid, PixelGrid grid) {
@@ -66,25 +71,87 @@ public final class OutlineFits {
             }
         }
 
+        /** Fits a validity mask on its grid. */
+        @FunctionalInterface
+        interface Fitter {
+            OutlineFit fit(boolean[] valid, PixelGrid grid);
+        }
+
+        /** The kept fits, least recently used first; guards {@link #running}. */
         private final Map<Key, OutlineFit> fits;
+        /** The fits under way, by mask. */
+        private final Map<Key, FutureTask<OutlineFit>> running = new HashMap<>();
+        private final Fitter fitter;
 
         FitCache(int capacity) {
-            fits = Collections.synchronizedMap(new LinkedHashMap<>(capacity, 0.75f, true) {
+            this(capacity, (valid, grid) -> OutlineDetection.fit(Mask.of(grid.width(), grid.height(),
+                    i -> valid[i]), grid));
+        }
+
+        /** With another fitter (a test counting the fits). */
+        FitCache(int capacity, Fitter fitter) {
+            this.fitter = fitter;
+            fits = new LinkedHashMap<>(capacity, 0.75f, true) {
                 @Override
                 protected boolean removeEldestEntry(Map.Entry<Key, OutlineFit> eldest) {
                     return size() > capacity;
                 }
-            });
+            };
         }
 
         OutlineFit fit(boolean[] valid, PixelGrid grid) {
             Key key = new Key(31 * Arrays.hashCode(valid) + grid.hashCode(), valid, grid);
-            OutlineFit fit = fits.get(key);
-            if (fit == null) {
-                fit = OutlineDetection.fit(Mask.of(grid.width(), grid.height(), i -> valid[i]), grid);
-                fits.put(key, fit);
+            FutureTask<OutlineFit> task;
+            boolean mine = false;
+            synchronized (fits) {
+                OutlineFit kept = fits.get(key);
+                if (kept != null) {
+                    return kept;
+                }
+                task = running.get(key);
+                if (task == null) {
+                    task = new FutureTask<>(() -> fitter.fit(valid, grid));
+                    running.put(key, task);
+                    mine = true;
+                }
             }
-            return fit;
+            if (mine) {
+                task.run();
+                synchronized (fits) {
+                    running.remove(key);
+                    if (!task.isCancelled()) {
+                        try {
+                            fits.put(key, task.get());
+                        } catch (ExecutionException | InterruptedException e) {
+                            // not kept: the failure is thrown below
+                        }
+                    }
+                }
+            }
+            try {
+                return task.get();
+            } catch (ExecutionException e) {
+                if (!mine) {
+                    return fitter.fit(valid, grid); // its own failure, on its own thread
+                }
+                if (e.getCause() instanceof RuntimeException r) {
+                    throw r;
+                }
+                if (e.getCause() instanceof Error r) {
+                    throw r;
+                }
+                throw new IllegalStateException(e.getCause());
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt(); // the interruption stays for the caller to see
+                return fitter.fit(valid, grid);
+            }
+        }
+
+        /** How many fits are kept (a test's view). */
+        int kept() {
+            synchronized (fits) {
+                return fits.size();
+            }
         }
     }
 }

@@ -3,10 +3,16 @@ package trapmap.viewer.report;
 import static org.assertj.core.api.Assertions.assertThat;
 
 import java.io.IOException;
+import java.io.InputStream;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Random;
+import org.apache.fontbox.ttf.TTFParser;
+import org.apache.fontbox.ttf.TrueTypeFont;
+import org.apache.pdfbox.io.RandomAccessReadBuffer;
+import org.apache.pdfbox.pdmodel.PDDocument;
 import org.apache.pdfbox.pdmodel.font.PDFont;
+import org.apache.pdfbox.pdmodel.font.PDType0Font;
 import org.junit.jupiter.api.Test;
 import trapmap.maps.model.Caution;
 
@@ -42,6 +48,51 @@ class PdfTextWidthTest {
                     }
                     assertThat(PdfPage.width(t, font, size)).as("'%s' at %s pt", t, size).isEqualTo(expected);
                 }
+            }
+        }
+    }
+
+    /**
+     * The measuring faces are loaded as subsets (nothing embedded, no Unicode map of every glyph built): for every
+     * code point of the Basic Multilingual Plane they give the width and encoding (or refusal) of the same face loaded
+     * for full embedding and of the faces a document draws with.
+     */
+    @Test
+    void measuringFacesMeasureAndEncodeAsFullyLoadedFaces() throws IOException {
+        String[] files = {"fonts/DejaVuSansCondensed.ttf", "fonts/DejaVuSansCondensed-Bold.ttf"};
+        PDFont[] measuring = {PdfPage.REGULAR, PdfPage.BOLD};
+        try (PDDocument full = new PDDocument(); PDDocument drawn = new PDDocument()) {
+            PDFont[] documentFaces = PdfPage.fontsOf(drawn);
+            for (int f = 0; f < files.length; f++) {
+                PDFont reference;
+                try (InputStream in = PdfPage.class.getResourceAsStream(files[f])) {
+                    TrueTypeFont ttf = new TTFParser().parse(new RandomAccessReadBuffer(in.readAllBytes()));
+                    ttf.setEnableGsub(false);
+                    reference = PDType0Font.load(full, ttf, false);
+                }
+                int encoded = 0;
+                for (int c = 0; c <= Character.MAX_VALUE; c++) {
+                    if (Character.isSurrogate((char) c)) {
+                        continue;
+                    }
+                    String s = String.valueOf((char) c);
+                    String expected = measure(reference, s);
+                    assertThat(measure(measuring[f], s)).as("%s U+%04X", files[f], c).isEqualTo(expected);
+                    assertThat(measure(documentFaces[f], s)).as("%s U+%04X drawn", files[f], c).isEqualTo(expected);
+                    encoded += expected.startsWith("refused") ? 0 : 1;
+                }
+                assertThat(encoded).as("code points the face encodes").isGreaterThan(3000);
+            }
+        }
+    }
+
+    /** The encoding and width of {@code s} in {@code font}, or that the font refused it. */
+    private static String measure(PDFont font, String s) {
+        synchronized (font) {
+            try {
+                return java.util.Arrays.toString(font.encode(s)) + " " + font.getStringWidth(s);
+            } catch (IOException | IllegalArgumentException e) {
+                return "refused";
             }
         }
     }
