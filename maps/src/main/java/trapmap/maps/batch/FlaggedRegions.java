@@ -125,25 +125,13 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
                                      RegionCriteria criteria, WaferShape shape, double insideMm,
                                      InspectionBuffers buffers) {
         int n = grid.width() * grid.height();
+        boolean[] open = buffers.open(n);
+        float[] at = buffers.flagAt(n);
+        float[] densityAt = density == null ? null : buffers.densityAt(n);
         int[] seeds = buffers.seeds(n);
         int selected = criteria.side() == RegionCriteria.Side.ABOVE
                 ? selectAbove(flag, count, criteria.threshold(), seeds)
                 : selectBelow(flag, count, criteria.threshold(), seeds);
-        return findSelected(flag, density, grid, indices, seeds, selected, criteria, shape, insideMm, buffers);
-    }
-
-    /**
-     * As {@link #findPacked} with the selected positions already picked: {@code seeds[0..selected)}, ascending, the
-     * positions k of the packed values that {@code criteria} selects (in {@link InspectionBuffers#seeds}, which
-     * this replaces by their pixel indices), as {@link #findPacked} picks them.
-     */
-    static FlaggedRegions findSelected(float[] flag, float[] density, PixelGrid grid, int[] indices, int[] seeds,
-                                       int selected, RegionCriteria criteria, WaferShape shape, double insideMm,
-                                       InspectionBuffers buffers) {
-        int n = grid.width() * grid.height();
-        boolean[] open = buffers.open(n);
-        float[] at = buffers.flagAt(n);
-        float[] densityAt = density == null ? null : buffers.densityAt(n);
         for (int q = 0; q < selected; q += CHUNK) {
             place(flag, density, indices, seeds, q, Math.min(selected, q + CHUNK), open, at, densityAt);
         }

@@ -233,24 +233,18 @@ public final class WaferInspection {
         // also the below-limit ones at their bound (the detection limit). One pass gives them, the invalid-area
         // tally, the judged densities that are not NaN, in index order, for their percentiles, and what the
         // lifetime figures need besides their ranks (the reciprocal sum; both samples' radix buckets).
-        Rules.Flag flag = profile.flag();
-        boolean flagLifetime = flag.quantity() == Rules.FlagQuantity.LIFETIME;
-        RegionCriteria criteria = flag.criteria();
-        // the pixels the flag selects are picked in the same pass (when it has the flagged values at hand)
-        Selecting selecting = flagLifetime || converted != null ? new Selecting(criteria, flagLifetime) : null;
         Judged j = judged(lifeValues, count, converted, status,
                 profile.flag().belowLimit() == Rules.BelowLimit.AT_BOUND, masks.missing(), grid.pixelAreaMm2(),
-                buffers, selecting);
+                buffers);
         float[] judged = j.judged();
         InvalidArea invalid = j.invalid();
         double belowLimitFraction = converted == null || count == 0 ? Double.NaN : (double) belowLimit / count;
 
-        float[] flagValues = flagLifetime ? lifeValues : judged;
-        FlaggedRegions regions = selecting == null
-                ? FlaggedRegions.findPacked(flagValues, judged, grid, masks.indices(), count, criteria, shape,
-                        rules.edgeExclusionMm(), buffers)
-                : FlaggedRegions.findSelected(flagValues, judged, grid, masks.indices(), j.selected(), j.selectedCount(),
-                        criteria, shape, rules.edgeExclusionMm(), buffers);
+        Rules.Flag flag = profile.flag();
+        float[] flagValues = flag.quantity() == Rules.FlagQuantity.LIFETIME ? lifeValues : judged;
+        RegionCriteria criteria = flag.criteria();
+        FlaggedRegions regions = FlaggedRegions.findPacked(flagValues, judged, grid, masks.indices(), count, criteria,
+                shape, rules.edgeExclusionMm(), buffers);
 
         Sample dens = judged == null ? null : Sample.ofCounted(j.ranked(), j.rankedCount(), grid,
                 percents(figures, Figure.Kind.TRAP_DENSITY_PERCENTILE), 0, 0, buffers.densityBuckets());
@@ -389,15 +383,7 @@ public final class WaferInspection {
      * as {@link Sample#ofPacked} adds them).
      */
     record Judged(float[] judged, float[] ranked, int rankedCount, InvalidArea invalid, int lifePositive,
-                  double lifeReciprocalSum, int[] selected, int selectedCount) {
-    }
-
-    /**
-     * What {@link #judged} also picks on its way: the positions k of the packed pixels whose flagged value (the
-     * lifetime, or the judged trap density) the criteria select ({@link RegionCriteria#selects}), ascending, as
-     * {@link FlaggedRegions#findPacked} would pick them from those values.
-     */
-    record Selecting(RegionCriteria criteria, boolean lifetime) {
+                  double lifeReciprocalSum) {
     }
 
     /**
@@ -416,20 +402,7 @@ public final class WaferInspection {
      */
     static Judged judged(float[] life, int count, float[] converted, byte[] status, boolean atBound, int missing,
                          double pixelAreaMm2, InspectionBuffers buffers) {
-        return judged(life, count, converted, status, atBound, missing, pixelAreaMm2, buffers, null);
-    }
-
-    /**
-     * As {@link #judged(float[], int, float[], byte[], boolean, int, double, InspectionBuffers)}, also picking the
-     * pixels {@code selecting} selects (null: none picked; {@link Judged#selected()} then null) into
-     * {@link InspectionBuffers#seeds} of {@code life.length}. A flag on the trap density needs {@code converted}.
-     */
-    static Judged judged(float[] life, int count, float[] converted, byte[] status, boolean atBound, int missing,
-                         double pixelAreaMm2, InspectionBuffers buffers, Selecting selecting) {
-        if (selecting != null && !selecting.lifetime() && converted == null) {
-            throw new IllegalArgumentException("a flag on the trap density needs the converted densities");
-        }
-        JudgedPass pass = new JudgedPass(life, converted, status, atBound, buffers, selecting);
+        JudgedPass pass = new JudgedPass(life, converted, status, atBound, buffers);
         for (int k = 0; k < count; k += STRIP) {
             int to = Math.min(count, k + STRIP);
             if (converted == null) {
@@ -449,7 +422,7 @@ public final class WaferInspection {
         pass.tally.addUsable(pass.usable);
         pass.tally.addMissing(missing);
         return new Judged(pass.judged, pass.ranked, pass.ranks, pass.tally.result(pixelAreaMm2), pass.positive,
-                pass.reciprocalSum, pass.seeds, pass.selected);
+                pass.reciprocalSum);
     }
 
     /**
@@ -476,20 +449,12 @@ public final class WaferInspection {
         final InvalidArea.Tally tally = new InvalidArea.Tally(true);
         final float[] judged;
         final float[] ranked;
-        /** The positions picked ({@link Selecting}), or null. */
-        final int[] seeds;
-        /** Pick the flagged lifetimes (else the judged densities); above the threshold (else below). */
-        private final boolean selectLifetime;
-        private final boolean above;
-        private final double threshold;
         int ranks;
         int positive;
         double reciprocalSum;
         int usable;
-        int selected;
 
-        JudgedPass(float[] life, float[] converted, byte[] status, boolean atBound, InspectionBuffers buffers,
-                   Selecting selecting) {
+        JudgedPass(float[] life, float[] converted, byte[] status, boolean atBound, InspectionBuffers buffers) {
             this.life = life;
             this.converted = converted;
             this.status = status;
@@ -497,10 +462,6 @@ public final class WaferInspection {
             this.lifeCounts = buffers.lifeBuckets().cleared();
             this.judged = converted == null ? null : atBound ? converted : buffers.judged(converted.length);
             this.ranked = converted == null ? null : buffers.densitySample(converted.length);
-            this.seeds = selecting == null ? null : buffers.seeds(life.length);
-            this.selectLifetime = selecting != null && selecting.lifetime();
-            this.above = selecting == null || selecting.criteria().side() == RegionCriteria.Side.ABOVE;
-            this.threshold = selecting == null ? Double.NaN : selecting.criteria().threshold();
         }
 
         /** The lifetimes {@code life[from..to)} of a judgement without conversion. */
@@ -526,10 +487,6 @@ public final class WaferInspection {
             this.positive = positive;
             this.reciprocalSum = reciprocalSum;
             this.usable = usable;
-            if (seeds != null) {
-                selected = above ? selectAbove(life, from, to, threshold, seeds, selected)
-                        : selectBelow(life, from, to, threshold, seeds, selected);
-            }
         }
 
         /** The pixels {@code [from, to)} of a judgement of converted trap densities. */
@@ -545,12 +502,6 @@ public final class WaferInspection {
             int positive = this.positive;
             double reciprocalSum = this.reciprocalSum;
             int usable = this.usable;
-            int[] seeds = this.seeds;
-            boolean select = seeds != null;
-            boolean selectLifetime = this.selectLifetime;
-            boolean above = this.above;
-            double threshold = this.threshold;
-            int selected = this.selected;
             for (int k = from; k < to; k++) {
                 float v = life[k];
                 lifeCounts[RankBuckets.bucket(v)]++;
@@ -574,41 +525,12 @@ public final class WaferInspection {
                 int number = d == d ? 1 : 0;
                 ranked[ranks] = d;
                 ranks += number;
-                if (select) {
-                    // as FlaggedRegions.selectAbove/selectBelow: every position written, the count grows where
-                    // the flagged value (the judged density d or the lifetime v) is selected
-                    double f = selectLifetime ? v : d;
-                    seeds[selected] = k;
-                    selected += (above ? f > threshold : f < threshold) ? 1 : 0;
-                }
             }
             this.ranks = ranks;
             this.positive = positive;
             this.reciprocalSum = reciprocalSum;
             this.usable = usable;
-            this.selected = selected;
         }
-    }
-
-    /**
-     * Appends to {@code positions} from {@code n} on the positions k in [{@code from}, {@code to}) of the values
-     * strictly above {@code threshold} ({@link RegionCriteria#selects}); returns the new count.
-     */
-    private static int selectAbove(float[] values, int from, int to, double threshold, int[] positions, int n) {
-        for (int k = from; k < to; k++) {
-            positions[n] = k;
-            n += (double) values[k] > threshold ? 1 : 0;
-        }
-        return n;
-    }
-
-    /** As {@link #selectAbove} for the values strictly below {@code threshold}. */
-    private static int selectBelow(float[] values, int from, int to, double threshold, int[] positions, int n) {
-        for (int k = from; k < to; k++) {
-            positions[n] = k;
-            n += (double) values[k] < threshold ? 1 : 0;
-        }
-        return n;
     }
 
     /** Adds the radix buckets ({@link RankBuckets#bucket}) of {@code values[from..to)} (no NaN) to {@code counts}. */

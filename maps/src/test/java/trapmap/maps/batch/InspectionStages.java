@@ -18,9 +18,7 @@ import trapmap.physics.defect.DefectLibrary;
 /**
  * The steps of {@link WaferInspection#evaluation} for one lifetime map, one after the other, each timed in CPU of the
  * calling thread, for the benchmark of the stages ({@code trapmap.maps.bench.InspectStagesBench}): the same calls
- * with the same working arrays, with the profile that matches the map, which must be a lifetime map judged by trap
- * density (the flag's pixels picked in the judged pass, as the inspection does). Not used by the program; not
- * thread-safe.
+ * with the same working arrays, with the profile that matches the map, which must be a lifetime map judged by trap density. Not used by the program; not thread-safe.
  */
 public final class InspectionStages {
     /** Stage names, in the order they run. */
@@ -60,12 +58,12 @@ public final class InspectionStages {
         byte[] status = buffers.status(life.length);
         WaferInspection.convertPacked(conditions, defect, life, count, converted, status);
         t = lap(ns, 3, t);
-        Rules.Flag flag = profile.flag();
         WaferInspection.Judged j = WaferInspection.judged(life, count, converted, status, false, masks.missing(),
-                grid.pixelAreaMm2(), buffers, new WaferInspection.Selecting(flag.criteria(), false));
+                grid.pixelAreaMm2(), buffers);
         t = lap(ns, 4, t);
-        FlaggedRegions regions = FlaggedRegions.findSelected(j.judged(), j.judged(), grid, masks.indices(),
-                j.selected(), j.selectedCount(), flag.criteria(), shape, rules.edgeExclusionMm(), buffers);
+        Rules.Flag flag = profile.flag();
+        FlaggedRegions regions = FlaggedRegions.findPacked(j.judged(), j.judged(), grid, masks.indices(), count,
+                flag.criteria(), shape, rules.edgeExclusionMm(), buffers);
         t = lap(ns, 5, t);
         Sample dens = Sample.ofCounted(j.ranked(), j.rankedCount(), grid, new double[] {95}, 0, 0,
                 buffers.densityBuckets());

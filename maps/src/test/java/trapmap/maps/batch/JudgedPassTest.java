@@ -7,7 +7,6 @@ import java.util.Random;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 import trapmap.maps.raster.PixelGrid;
-import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.stats.InvalidArea;
 import trapmap.maps.stats.MapStatistics;
 import trapmap.physics.conversion.PixelStatus;
@@ -15,8 +14,7 @@ import trapmap.physics.conversion.PixelStatus;
 /**
  * The one pass of {@link WaferInspection#judged} gives what the straightforward steps give one by one: the judged
  * densities, the ranked ones, {@link InvalidArea.Tally#add} for every pixel, and lifetime and density figures equal
- * to those of {@link Sample#ofPacked} and {@link MapStatistics#percentiles} (from the radix buckets it counted), and
- * the flag's pixels that {@link RegionCriteria#selects} picks.
+ * to those of {@link Sample#ofPacked} and {@link MapStatistics#percentiles} (from the radix buckets it counted).
  */
 class JudgedPassTest {
     private static final double[] PERCENTS = {0.5, 5, 95, 99.5};
@@ -87,57 +85,6 @@ class JudgedPassTest {
         Sample densWant = Sample.ofValid(ranked, m, grid, PERCENTS);
         Sample densGot = Sample.ofCounted(j.ranked(), m, grid, PERCENTS, 0, 0, buffers.densityBuckets());
         assertSameFigures(densGot, densWant);
-    }
-
-    /**
-     * The pixels the pass picks for the flag are those {@link RegionCriteria#selects} picks from the flagged values
-     * (the lifetimes, or the judged densities), in index order, for both sides, thresholds inside and at the edge of
-     * the values, NaN and infinite values, and counts at and around a strip's end.
-     */
-    @ParameterizedTest
-    @CsvSource({"1, false", "7, true", "16384, false", "16385, true", "300000, false", "300000, true"})
-    void picksTheFlaggedPixelsAsTheCriteriaSelect(int n, boolean atBound) {
-        Random rnd = new Random(31 * n + 7);
-        float[] life = new float[n];
-        float[] converted = new float[n];
-        byte[] status = new byte[n];
-        byte[] codes = {PixelStatus.OK.code(), PixelStatus.OK.code(), PixelStatus.BELOW_LIMIT.code(),
-            PixelStatus.INVALID.code()};
-        for (int k = 0; k < n; k++) {
-            int kind = rnd.nextInt(20);
-            life[k] = kind == 0 ? 0f : kind == 1 ? Float.POSITIVE_INFINITY : kind == 2 ? 100f
-                    : (float) (50 + 400 * rnd.nextDouble());
-            status[k] = codes[rnd.nextInt(codes.length)];
-            converted[k] = status[k] == PixelStatus.INVALID.code() ? Float.NaN
-                    : kind == 3 ? 3e11f : (float) (1e10 * Math.exp(3 * rnd.nextGaussian()));
-        }
-        PixelGrid grid = PixelGrid.centred(n, 1, 0.16);
-        for (boolean lifetime : new boolean[] {true, false}) {
-            for (RegionCriteria criteria : new RegionCriteria[] {
-                RegionCriteria.above(lifetime ? 100 : 3e11, 1), RegionCriteria.below(lifetime ? 100 : 3e11, 1),
-                RegionCriteria.above(lifetime ? 1e9 : 1e30, 1), RegionCriteria.below(lifetime ? -1 : 0, 1)}) {
-                InspectionBuffers buffers = new InspectionBuffers();
-                WaferInspection.Judged j = WaferInspection.judged(life, n, converted.clone(), status, atBound, 0,
-                        0.0256, buffers, new WaferInspection.Selecting(criteria, lifetime));
-                float[] flagged = lifetime ? life : j.judged();
-                int[] want = new int[n];
-                int m = 0;
-                for (int k = 0; k < n; k++) {
-                    if (criteria.selects(flagged[k])) {
-                        want[m++] = k;
-                    }
-                }
-                assertThat(j.selectedCount()).as("%s of %s", criteria, lifetime ? "lifetimes" : "densities")
-                        .isEqualTo(m);
-                assertThat(Arrays.copyOf(j.selected(), m)).isEqualTo(Arrays.copyOf(want, m));
-                if (lifetime) { // without a conversion too
-                    WaferInspection.Judged l = WaferInspection.judged(life, n, null, status, atBound, 0, 0.0256,
-                            new InspectionBuffers(), new WaferInspection.Selecting(criteria, true));
-                    assertThat(l.selectedCount()).isEqualTo(m);
-                    assertThat(Arrays.copyOf(l.selected(), m)).isEqualTo(Arrays.copyOf(want, m));
-                }
-            }
-        }
     }
 
     /** The same figures bit for bit (NaN equal to NaN). */
