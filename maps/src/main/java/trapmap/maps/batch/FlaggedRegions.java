@@ -127,7 +127,8 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
         int n = grid.width() * grid.height();
         boolean[] open = buffers.open(n);
         float[] at = buffers.flagAt(n);
-        float[] densityAt = density == null ? null : buffers.densityAt(n);
+        // the flag on the trap density reads the same values as the densities: one map-sized array for both
+        float[] densityAt = density == null ? null : density == flag ? at : buffers.densityAt(n);
         int[] seeds = buffers.seeds(n);
         int selected = criteria.side() == RegionCriteria.Side.ABOVE
                 ? selectAbove(flag, count, criteria.threshold(), seeds)
@@ -151,7 +152,7 @@ public record FlaggedRegions(List<FlaggedRegion> regions, BitSet pixels) {
             int i = indices[k];
             open[i] = true;
             at[i] = flag[k];
-            if (densityAt != null) {
+            if (densityAt != null && densityAt != at) {
                 densityAt[i] = density[k];
             }
             seeds[q] = i;

@@ -187,12 +187,11 @@ final class Masks {
                 int i = row + x;
                 int stop = row + end;
                 while (i < stop) {
-                    int j = validUntil(tau, i, stop);
+                    int j = pack ? packUntilNaN(tau, i, stop, packed, indices, count) : validUntil(tau, i, stop);
                     int len = j - i;
-                    if (pack) {
-                        System.arraycopy(tau, i, packed, count, len);
+                    if (!pack) {
+                        ascending(indices, count, i, len);
                     }
-                    ascending(indices, count, i, len);
                     if (central) {
                         java.util.Arrays.fill(centre, i, j, true);
                     }
@@ -218,6 +217,26 @@ final class Masks {
     private static int validUntil(float[] tau, int from, int to) {
         int j = from;
         while (j < to && tau[j] == tau[j]) {
+            j++;
+        }
+        return j;
+    }
+
+    /**
+     * {@link #validUntil} that on its way copies the values before the first NaN into {@code packed} and their
+     * indices into {@code indices}, both from position {@code at}: one pass over the values instead of three (the
+     * search, the copy and the indices).
+     */
+    private static int packUntilNaN(float[] tau, int from, int to, float[] packed, int[] indices, int at) {
+        int shift = at - from;
+        int j = from;
+        while (j < to) {
+            float v = tau[j];
+            if (v != v) {
+                break;
+            }
+            packed[j + shift] = v;
+            indices[j + shift] = j;
             j++;
         }
         return j;

@@ -105,20 +105,38 @@ public final class Thumbnails {
     private static final int MARK_ROWS = 8;
 
     /** Marks the thumbnail pixel of every flagged map pixel ({@code scale} map pixels per thumbnail pixel). */
-    private static void markFlagged(BitSet flagged, int w, double scale, int tw, int th, boolean[] hit) {
+    static void markFlagged(BitSet flagged, int w, double scale, int tw, int th, boolean[] hit) {
         int n = flagged.length();
+        // the thumbnail column of every map column and the thumbnail row of every map row, as the pixel's own
+        // (int) (x / scale) would give them: looked up per flagged pixel instead of two divisions each
+        int[] tx = new int[w];
+        for (int x = 0; x < w; x++) {
+            tx[x] = Math.min(tw - 1, (int) (x / scale));
+        }
+        int rows = (n + w - 1) / w;
+        int[] ty = new int[rows];
+        for (int y = 0; y < rows; y++) {
+            ty[y] = Math.min(th - 1, (int) (y / scale));
+        }
         for (int from = 0; from < n; from += MARK_ROWS * w) {
-            markFlagged(flagged, w, scale, tw, th, hit, from, Math.min(n, from + MARK_ROWS * w));
+            markFlagged(flagged, w, tx, ty, tw, hit, from, Math.min(n, from + MARK_ROWS * w));
         }
     }
 
-    /** {@link #markFlagged(BitSet, int, double, int, int, boolean[])} for the map pixels {@code [from, to)}. */
-    private static void markFlagged(BitSet flagged, int w, double scale, int tw, int th, boolean[] hit, int from,
+    /**
+     * {@link #markFlagged(BitSet, int, double, int, int, boolean[])} for the map pixels {@code [from, to)}, from the
+     * first pixel of a row; {@code tx} and {@code ty}: the thumbnail column and row of each map column and row.
+     */
+    private static void markFlagged(BitSet flagged, int w, int[] tx, int[] ty, int tw, boolean[] hit, int from,
                                     int to) {
+        int y = from / w;
+        int rowStart = y * w;
         for (int i = flagged.nextSetBit(from); i >= 0 && i < to; i = flagged.nextSetBit(i + 1)) {
-            int tx = Math.min(tw - 1, (int) ((i % w) / scale));
-            int ty = Math.min(th - 1, (int) ((i / w) / scale));
-            hit[ty * tw + tx] = true;
+            if (i - rowStart >= w) {
+                y = i / w;
+                rowStart = y * w;
+            }
+            hit[ty[y] * tw + tx[i - rowStart]] = true;
         }
     }
 
@@ -142,9 +160,11 @@ public final class Thumbnails {
     }
 
     /**
-     * The pixels within {@code r} pixels (Chebyshev distance) of a set pixel: a square dilation, rows then columns,
-     * each line by {@link #dilateLine} (one small method with loops free of bound tests, which HotSpot compiles once;
-     * the earlier single loop with its bound tests inside was compiled again after each of its deoptimisations).
+     * The pixels within {@code r} pixels (Chebyshev distance) of a set pixel: a square dilation, rows then columns.
+     * Each row by {@link #dilateLine} (one small method with loops free of bound tests, which HotSpot compiles once;
+     * the earlier single loop with its bound tests inside was compiled again after each of its deoptimisations); the
+     * columns as each row of the result being the union of the row-dilated rows up to {@code r} above and below,
+     * whole rows at a time ({@link #orRow}), rather than a walk down every column a row's width apart.
      */
     static boolean[] dilate(boolean[] b, int w, int h, int r) {
         boolean[] rows = new boolean[b.length];
@@ -152,10 +172,19 @@ public final class Thumbnails {
             dilateLine(b, rows, y * w, 1, w, r);
         }
         boolean[] out = new boolean[b.length];
-        for (int x = 0; x < w; x++) {
-            dilateLine(rows, out, x, w, h, r);
+        for (int y = 0; y < h; y++) {
+            for (int yy = Math.max(0, y - r), last = Math.min(h - 1, y + r); yy <= last; yy++) {
+                orRow(rows, yy * w, out, y * w, w);
+            }
         }
         return out;
+    }
+
+    /** {@code dst[to..to + n) |= src[from..from + n)}. */
+    private static void orRow(boolean[] src, int from, boolean[] dst, int to, int n) {
+        for (int k = 0; k < n; k++) {
+            dst[to + k] |= src[from + k];
+        }
     }
 
     /**

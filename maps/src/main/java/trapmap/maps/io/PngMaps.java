@@ -120,12 +120,47 @@ final class PngMaps {
 
     /**
      * The bits of the smallest positive finite float at or above the bits {@code from} whose {@link #logIndex} is at
-     * least {@code j} ({@code 0x7F800000}, +∞, when none is): one bisection of about 31 steps, a method of its own so
-     * that HotSpot compiles it once by its calls instead of {@link #logBounds} while its loops run.
+     * least {@code j} ({@code 0x7F800000}, +∞, when none is): a method of its own so that HotSpot compiles it once by
+     * its calls instead of {@link #logBounds} while its loops run. The index does not decrease with the bits, so that
+     * float is the one a bisection over all bits from {@code from} up finds; it is found the same way within a
+     * bracket around the float where the index reaches j on the scale ({@code 10^(lo + span (j - ½) / 255)}), widened
+     * from there in doubling steps until the index changes across it: a few logarithms instead of about 31.
      */
     private static int logBound(int j, int from, double lo, double span) {
-        int a = from;
-        int b = Float.floatToRawIntBits(Float.POSITIVE_INFINITY);
+        final int inf = Float.floatToRawIntBits(Float.POSITIVE_INFINITY);
+        long guess = Float.floatToRawIntBits((float) Math.pow(10, lo + span * (j - 0.5) / 255));
+        guess = Math.max(from, Math.min(inf - 1L, guess));
+        long a; // every float below a (and at or above from) has an index below j
+        long b; // the index at b is at least j, or b is +∞
+        if (logIndex(Float.intBitsToFloat((int) guess), lo, span) >= j) {
+            b = guess;
+            a = from;
+            for (long step = 1; guess - step > from; step *= 2) {
+                if (logIndex(Float.intBitsToFloat((int) (guess - step)), lo, span) < j) {
+                    a = guess - step + 1;
+                    break;
+                }
+                b = guess - step;
+            }
+        } else {
+            a = guess + 1;
+            b = inf;
+            for (long step = 1; guess + step < inf; step *= 2) {
+                if (logIndex(Float.intBitsToFloat((int) (guess + step)), lo, span) >= j) {
+                    b = guess + step;
+                    break;
+                }
+                a = guess + step + 1;
+            }
+        }
+        return bisect(j, (int) a, (int) b, lo, span);
+    }
+
+    /**
+     * The bits of the smallest float in [a, b) whose {@link #logIndex} is at least j, or b (bits ascending with the
+     * values; the index non-decreasing in them).
+     */
+    static int bisect(int j, int a, int b, double lo, double span) {
         while (a < b) {
             int mid = a + (b - a) / 2;
             if (logIndex(Float.intBitsToFloat(mid), lo, span) >= j) {

@@ -169,6 +169,22 @@ final class Selection {
             return (long) b << 32 | start;
         }
 
+        /**
+         * The slot of each float's top 16 bits as they are ({@link #rawTop}), -1 for those of a bucket not gathered;
+         * null when there are more slots than a byte holds.
+         */
+        byte[] slotOfRawTop() {
+            if (bucketOfSlot.length > Byte.MAX_VALUE) {
+                return null;
+            }
+            byte[] slots = new byte[BUCKETS];
+            Arrays.fill(slots, (byte) -1);
+            for (int slot = 0; slot < bucketOfSlot.length; slot++) {
+                slots[rawTop(bucketOfSlot[slot])] = (byte) slot;
+            }
+            return slots;
+        }
+
         /** An empty array for the values of every gathered bucket, by slot. */
         float[][] bins() {
             float[][] bins = new float[bucketOfSlot.length][];
@@ -222,6 +238,15 @@ final class Selection {
             }
         }
         return count;
+    }
+
+    /**
+     * The top 16 bits as they are (unsigned) of the floats of bucket {@code b}: every float with those top bits is in
+     * that bucket ({@link #bucket} flips the lower 31 bits of a negative float, which maps its top 16 bits one to one).
+     */
+    static int rawTop(int b) {
+        int top = b - (BUCKETS >> 1); // the key's top 16 bits, signed
+        return (top >= 0 ? top : top ^ 0x7fff) & 0xffff;
     }
 
     /** Bucket of a float: the top 16 bits of its order-preserving key (negative values reversed, then offset). */

@@ -64,6 +64,42 @@ class WaferInspectionShortcutsTest {
         }
     }
 
+    /**
+     * The masks with the evaluated lifetimes packed on the way (as the batch makes them): the indices, in order, and
+     * the values of the pixels of the plain mask (not NaN, inside the exclusion), NaN pixels inside counted as
+     * missing, with NaN pixels alone, in runs, and at the starts and ends of rows.
+     */
+    @ParameterizedTest
+    @ValueSource(ints = {0, 1, 7, 40})
+    void packedMasksHoldThePlainMasksPixelsAndValues(int nanPerThousand) {
+        PixelGrid grid = PixelGrid.centred(97, 83, 1);
+        WaferShape disk = RoundWafer.disk(44);
+        java.util.Random rnd = new java.util.Random(nanPerThousand);
+        float[] tau = new float[97 * 83];
+        for (int i = 0; i < tau.length; i++) {
+            int x = i % 97;
+            tau[i] = rnd.nextInt(1000) < nanPerThousand || nanPerThousand > 0 && (x == 0 || x == 96 || i / 97 == 40
+                    && x > 30 && x < 45) ? Float.NaN : (float) (50 + 200 * rnd.nextDouble());
+        }
+        InspectionBuffers buffers = new InspectionBuffers();
+        float[] packed = buffers.life(tau.length);
+        java.util.Arrays.fill(packed, -1f);
+        Masks masks = Masks.of(tau, grid, disk, 3, Double.NaN, buffers, packed);
+        Mask inside = disk.mask(grid, 3);
+        Mask expected = Mask.valid(FloatRaster.wrap(97, 83, tau)).and(inside);
+        assertThat(masks.count()).isEqualTo(expected.count());
+        assertThat(masks.missing()).isEqualTo(inside.count() - expected.count());
+        int k = 0;
+        for (int i = 0; i < tau.length; i++) {
+            if (expected.containsIndex(i)) {
+                assertThat(masks.indices()[k]).as("position %d", k).isEqualTo(i);
+                assertThat(Float.floatToRawIntBits(packed[k])).as("value at %d", i)
+                        .isEqualTo(Float.floatToRawIntBits(tau[i]));
+                k++;
+            }
+        }
+    }
+
     /** Pixels exactly at the exclusion distance (integer coordinates on a disk) are decided by the exact distance. */
     @ParameterizedTest
     @ValueSource(doubles = {0, 4, 5, 7})

@@ -150,6 +150,31 @@ class PngMapsTest {
         }
     }
 
+    /**
+     * The bounds found from an estimate of where each colour starts are those of a bisection over every positive
+     * float (from the previous bound up to +∞), for narrow, wide, far and degenerate ranges.
+     */
+    @Test
+    void boundsFromTheEstimateEqualTheBisectionOverAllFloats() {
+        java.util.Random rnd = new java.util.Random(17);
+        java.util.List<double[]> ranges = new java.util.ArrayList<>(java.util.List.of(new double[] {0, 3},
+                new double[] {Math.log10(2), 2.65}, new double[] {-12, 30}, new double[] {5, 1e-3},
+                new double[] {1, 1e-9}, new double[] {-40, 80}, new double[] {50, 1}, new double[] {-60, 1},
+                new double[] {Math.log10(Float.MIN_VALUE), 1e-6}, new double[] {38.5, 1e-7}));
+        for (int k = 0; k < 40; k++) {
+            ranges.add(new double[] {-50 + 100 * rnd.nextDouble(), Math.pow(10, -8 + 10 * rnd.nextDouble())});
+        }
+        for (double[] r : ranges) {
+            int[] want = new int[256];
+            int from = 1;
+            for (int j = 0; j < 256; j++) {
+                from = PngMaps.bisect(j, from, 0x7F800000, r[0], r[1]);
+                want[j] = from;
+            }
+            assertThat(PngMaps.logBounds(r[0], r[1])).as("range %s", java.util.Arrays.toString(r)).isEqualTo(want);
+        }
+    }
+
     @Test
     void theTableOfGroupsGivesTheIndexOfTheBisection() {
         // narrow, wide, everything-one-colour and nothing-coloured ranges; bits at, just below and just above every

@@ -222,6 +222,35 @@ class TiffRoundTripTest {
         }
     }
 
+    /**
+     * The direct path keeps one read buffer per thread: files of either byte order, each larger than that buffer,
+     * read in turn on one thread give their own values bit for bit.
+     */
+    @Test
+    void filesOfBothByteOrdersReadInTurnOnOneThread() throws Exception {
+        int w = 600;
+        int h = 500; // 1.2 MB of samples: more than one fill of the 1 MiB buffer
+        java.util.Random rnd = new java.util.Random(5);
+        float[] s = new float[w * h];
+        for (int i = 0; i < s.length; i++) {
+            s[i] = i % 997 == 0 ? Float.NaN : (float) Math.exp(rnd.nextGaussian() * 4);
+        }
+        Path little = dir.resolve("little.tif");
+        TiffBytes le = TiffBytes.littleEndian();
+        le.floatPage(w, h, s);
+        Files.write(little, le.build());
+        Path big = dir.resolve("big.tif");
+        TiffBytes be = TiffBytes.bigEndian();
+        be.floatPage(w, h, s);
+        Files.write(big, be.build());
+        for (Path f : new Path[] {little, big, little, big}) {
+            WaferMap m = MapFiles.readSingle(f);
+            assertThat(m.provenance().steps().get(0).parameters()).containsEntry("decoder", "direct");
+            assertThat(Fixtures.bits(m.raster().samples())).as(f.getFileName().toString())
+                    .isEqualTo(Fixtures.bits(s));
+        }
+    }
+
     @Test
     void bigEndianFloatFileIsRead() throws Exception {
         TiffBytes t = TiffBytes.bigEndian();

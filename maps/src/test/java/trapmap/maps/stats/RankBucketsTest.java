@@ -65,6 +65,49 @@ class RankBucketsTest {
         assertSame(got, MapStatistics.percentiles(a.clone(), n, PERCENTS), "uncounted, n " + n);
     }
 
+    /**
+     * The gathering pass looks the slots up by a float's top 16 bits as they are: every pattern of those bits, with
+     * any lower bits (NaN patterns aside), is in the bucket whose {@link Selection#rawTop} they are.
+     */
+    @Test
+    void theTopBitsAsTheyAreNameTheBucket() {
+        for (int top = 0; top < Selection.BUCKETS; top++) {
+            for (int low : new int[] {0, 1, 0x7fff, 0xffff}) {
+                float v = Float.intBitsToFloat(top << 16 | low);
+                if (v != v) {
+                    continue;
+                }
+                assertThat(Selection.rawTop(Selection.bucket(v))).as("bits %x", top << 16 | low).isEqualTo(top);
+            }
+        }
+    }
+
+    /** More wanted ranks in distinct buckets than a byte's table of slots holds: gathered by the keys instead. */
+    @Test
+    void manyPercentilesEqualASort() {
+        Random rnd = new Random(13);
+        int n = 300_000;
+        float[] a = new float[n];
+        for (int i = 0; i < n; i++) {
+            a[i] = (float) (rnd.nextBoolean() ? -1 : 1) * (float) Math.exp(rnd.nextGaussian() * 6);
+        }
+        double[] many = new double[301];
+        for (int k = 0; k < many.length; k++) {
+            many[k] = k / 3.0;
+        }
+        RankBuckets buckets = new RankBuckets();
+        int[] c = buckets.cleared();
+        for (float v : a) {
+            c[RankBuckets.bucket(v)]++;
+        }
+        double[] got = MapStatistics.percentiles(a.clone(), n, many, buckets);
+        double[] want = sorted(a, many);
+        for (int k = 0; k < many.length; k++) {
+            assertThat(Double.doubleToRawLongBits(got[k])).as("P%s", many[k])
+                    .isEqualTo(Double.doubleToRawLongBits(want[k]));
+        }
+    }
+
     @Test
     void equalASortOnANarrowLifetimeMapAndANearlyConstantOne() {
         Random rnd = new Random(7);
