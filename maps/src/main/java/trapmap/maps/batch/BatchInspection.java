@@ -719,6 +719,13 @@ public final class BatchInspection {
             OutputFolder.write(thumbs, () -> Files.createDirectories(thumbs));
         }
         List<Map<String, String>> rows = new ArrayList<>(kept.values());
+        // the rows' files as the inputs are compared (key()), in the rows' order: for the check of that order
+        List<String> rowKeys = new ArrayList<>(rows.size());
+        for (Map<String, String> row : rows) {
+            rowKeys.add(key(row.get("file")));
+        }
+        // each input's place in the input order by its key: made beside the workers once they have their first maps
+        Map<String, Integer> position = new java.util.HashMap<>();
         // each inspected wafer's object in results.json, formatted by its worker (kept rows: when the file is written)
         Map<Map<String, String>, String> wafersJson = new java.util.IdentityHashMap<>();
         RecurrenceMap recurrence = new RecurrenceMap();
@@ -808,6 +815,9 @@ public final class BatchInspection {
                         return formatted;
                     }));
                 }
+                if (position.isEmpty()) {
+                    positions(files, position);
+                }
                 Inspected r;
                 try {
                     r = pending.removeFirst().get();
@@ -828,6 +838,7 @@ public final class BatchInspection {
                 rw.write(r.regionsText());
                 rw.flush();
                 rows.add(r.row());
+                rowKeys.add(key(r.file()));
                 wafersJson.put(r.row(), r.waferJson());
                 w.write(r.rowText());
                 w.flush();
@@ -852,14 +863,13 @@ public final class BatchInspection {
         inspectedAt = System.nanoTime();
         inspectedCpu = threadCpuNanos();
         awaitWarmUp(warmUp);
-        Map<String, Integer> position = new java.util.HashMap<>();
-        for (int i = 0; i < files.size(); i++) {
-            position.putIfAbsent(key(files.get(i).toString()), i);
+        if (position.isEmpty()) { // no map was inspected
+            positions(files, position);
         }
         java.util.Comparator<Map<String, String>> byInput = java.util.Comparator.comparingInt(
                 row -> position.getOrDefault(key(row.get("file")), Integer.MAX_VALUE));
         boolean asTold = true;
-        if (!isSorted(rows, byInput)) { // a resumed run that tried an error row again: back to input order
+        if (!inputOrdered(rowKeys, position)) { // a resumed run that tried an error row again: back to input order
             asTold = false;
             rows.sort(byInput);
             inInputOrder(footprintsPartial, tmpFootprints, position);
@@ -916,11 +926,25 @@ public final class BatchInspection {
         return summary;
     }
 
-    private static <T> boolean isSorted(List<T> list, java.util.Comparator<? super T> order) {
-        for (int i = 1; i < list.size(); i++) {
-            if (order.compare(list.get(i - 1), list.get(i)) > 0) {
+    /** Puts each input's first place in {@code files} into {@code position}, by its {@link #key}. */
+    private static void positions(List<Path> files, Map<String, Integer> position) {
+        for (int i = 0; i < files.size(); i++) {
+            position.putIfAbsent(key(files.get(i).toString()), i);
+        }
+    }
+
+    /**
+     * Whether rows whose files have the keys {@code rowKeys} are in input order: their places in {@code position}
+     * (unknown: last) never decrease.
+     */
+    private static boolean inputOrdered(List<String> rowKeys, Map<String, Integer> position) {
+        int last = Integer.MIN_VALUE;
+        for (String k : rowKeys) {
+            int at = position.getOrDefault(k, Integer.MAX_VALUE);
+            if (at < last) {
                 return false;
             }
+            last = at;
         }
         return true;
     }
