@@ -297,9 +297,10 @@ public final class BatchInspection {
      * @param rowText       the row in {@value #CSV_NAME}
      * @param regionsText   its rows in {@value #REGIONS_NAME} (empty for none)
      * @param footprintText its row in {@value #FOOTPRINTS_NAME} (empty when {@code footprint} is null)
+     * @param waferJson     its object in {@value #JSON_NAME}'s list of wafers ({@link #waferJson})
      */
     record Inspected(String file, Footprint footprint, Map<String, String> row, String rowText, String regionsText,
-                     String footprintText) {
+                     String footprintText, String waferJson) {
         /**
          * Formats {@code r} with {@code format} (one per thread: its printing is synchronized); {@code withIron}:
          * merges the iron columns {@code iron} (null: none could be evaluated) into the row ({@link IronPairs}).
@@ -325,7 +326,7 @@ public final class BatchInspection {
                 }
             }
             return new Inspected(r.file(), r.footprint(), row, rowText.toString(), regionsText.toString(),
-                    footprintText.toString());
+                    footprintText.toString(), BatchInspection.waferJson(row, columns));
         }
     }
 
@@ -565,6 +566,11 @@ public final class BatchInspection {
     private static final class Json {
         static final com.fasterxml.jackson.databind.ObjectWriter WRITER = NumberText.jsonMapper()
                 .writer(SerializationFeature.INDENT_OUTPUT);
+        /** The line break and the indentation of one level of the pretty printer (Jackson's default indenter). */
+        static final String LINE_BREAK = com.fasterxml.jackson.core.util.DefaultIndenter.SYSTEM_LINEFEED_INSTANCE
+                .getEol();
+        static final String INDENT = com.fasterxml.jackson.core.util.DefaultIndenter.SYSTEM_LINEFEED_INSTANCE
+                .getIndent();
     }
 
     /**
@@ -736,6 +742,15 @@ public final class BatchInspection {
             OutputFolder.write(thumbs, () -> Files.createDirectories(thumbs));
         }
         List<Map<String, String>> rows = new ArrayList<>(kept.values());
+        // the rows' files as the inputs are compared (key()), in the rows' order: for the check of that order
+        List<String> rowKeys = new ArrayList<>(rows.size());
+        for (Map<String, String> row : rows) {
+            rowKeys.add(key(row.get("file")));
+        }
+        // each input's place in the input order by its key: made beside the workers once they have their first maps
+        Map<String, Integer> position = new java.util.HashMap<>();
+        // each inspected wafer's object in results.json, formatted by its worker (kept rows: when the file is written)
+        Map<Map<String, String>, String> wafersJson = new java.util.IdentityHashMap<>();
         RecurrenceMap recurrence = new RecurrenceMap();
         int threads = Math.max(1, Math.min(options.threads(), todo.size()));
         ExecutorService pool = Executors.newFixedThreadPool(threads, r -> {
@@ -833,6 +848,9 @@ public final class BatchInspection {
                         return formatted;
                     }));
                 }
+                if (position.isEmpty()) {
+                    positions(files, position);
+                }
                 Inspected r;
                 try {
                     r = pending.removeFirst().get();
@@ -854,6 +872,8 @@ public final class BatchInspection {
                 rw.write(r.regionsText());
                 rw.flush();
                 rows.add(r.row());
+                rowKeys.add(key(r.file()));
+                wafersJson.put(r.row(), r.waferJson());
                 w.write(r.rowText());
                 w.flush();
                 if (rowListener != null) {
@@ -877,14 +897,13 @@ public final class BatchInspection {
         inspectedAt = System.nanoTime();
         inspectedCpu = threadCpuNanos();
         awaitWarmUp(warmUp);
-        Map<String, Integer> position = new java.util.HashMap<>();
-        for (int i = 0; i < files.size(); i++) {
-            position.putIfAbsent(key(files.get(i).toString()), i);
+        if (position.isEmpty()) { // no map was inspected
+            positions(files, position);
         }
         java.util.Comparator<Map<String, String>> byInput = java.util.Comparator.comparingInt(
                 row -> position.getOrDefault(key(row.get("file")), Integer.MAX_VALUE));
         boolean asTold = true;
-        if (!isSorted(rows, byInput)) { // a resumed run that tried an error row again: back to input order
+        if (!inputOrdered(rowKeys, position)) { // a resumed run that tried an error row again: back to input order
             asTold = false;
             rows.sort(byInput);
             inInputOrder(footprintsPartial, tmpFootprints, position);
@@ -937,15 +956,29 @@ public final class BatchInspection {
         OutputFolder.write(recurrenceCsv, () -> AtomicFiles.write(recurrenceCsv,
                 families.toString().getBytes(StandardCharsets.UTF_8)));
         Summary summary = new Summary(pass, fail, error, skipped, csv, outDir.resolve(JSON_NAME), written);
-        writeJson(summary, columns, rows);
+        writeJson(summary, columns, rows, wafersJson);
         return summary;
     }
 
-    private static <T> boolean isSorted(List<T> list, java.util.Comparator<? super T> order) {
-        for (int i = 1; i < list.size(); i++) {
-            if (order.compare(list.get(i - 1), list.get(i)) > 0) {
+    /** Puts each input's first place in {@code files} into {@code position}, by its {@link #key}. */
+    private static void positions(List<Path> files, Map<String, Integer> position) {
+        for (int i = 0; i < files.size(); i++) {
+            position.putIfAbsent(key(files.get(i).toString()), i);
+        }
+    }
+
+    /**
+     * Whether rows whose files have the keys {@code rowKeys} are in input order: their places in {@code position}
+     * (unknown: last) never decrease.
+     */
+    private static boolean inputOrdered(List<String> rowKeys, Map<String, Integer> position) {
+        int last = Integer.MIN_VALUE;
+        for (String k : rowKeys) {
+            int at = position.getOrDefault(k, Integer.MAX_VALUE);
+            if (at < last) {
                 return false;
             }
+            last = at;
         }
         return true;
     }
@@ -1110,26 +1143,14 @@ public final class BatchInspection {
         return NumberText.mm(mm);
     }
 
-    private void writeJson(Summary s, List<String> columns, List<Map<String, String>> rows) throws IOException {
-        Map<String, Object> root = new LinkedHashMap<>();
-        Map<String, Object> sum = new LinkedHashMap<>();
-        sum.put("pass", s.pass());
-        sum.put("fail", s.fail());
-        sum.put("error", s.error());
-        sum.put("skipped", s.skipped());
-        sum.put("yield_fraction", Double.isNaN(s.yield()) ? null : s.yield());
-        root.put("summary", sum);
-        root.put("physics", trapmap.maps.io.PhysicsSettingsFile.toJson(rules.physics()));
-        List<Map<String, Object>> wafers = new ArrayList<>();
-        for (Map<String, String> row : rows) {
-            Map<String, Object> w = new LinkedHashMap<>();
-            for (String c : columns) {
-                String v = row.getOrDefault(c, "");
-                w.put(c, numeric(c) ? number(v) : v);
-            }
-            wafers.add(w);
-        }
-        root.put("wafers", wafers);
+    /**
+     * Writes {@value #JSON_NAME}: the summary, the physics settings and one object per row. The wafers' objects are
+     * taken from {@code wafersJson} (formatted by the workers, {@link #waferJson}) or formatted now; the file is the
+     * one {@link #jsonTree} would give written whole by the same writer ({@code BatchJsonTest} compares them).
+     */
+    private void writeJson(Summary s, List<String> columns, List<Map<String, String>> rows,
+                           Map<Map<String, String>, String> wafersJson) throws IOException {
+        Map<String, Object> root = jsonRoot(s, rules, rawWafers(columns, rows, wafersJson));
         Path target = s.json();
         Path tmp = target.resolveSibling(JSON_NAME + ".tmp");
         try {
@@ -1139,6 +1160,82 @@ public final class BatchInspection {
             });
         } finally {
             Files.deleteIfExists(tmp);
+        }
+    }
+
+    /** The wafers' objects of {@value #JSON_NAME} as text, from {@code wafersJson} where it holds the row. */
+    private static List<com.fasterxml.jackson.databind.util.RawValue> rawWafers(
+            List<String> columns, List<Map<String, String>> rows, Map<Map<String, String>, String> wafersJson) {
+        List<com.fasterxml.jackson.databind.util.RawValue> wafers = new ArrayList<>(rows.size());
+        for (Map<String, String> row : rows) {
+            String text = wafersJson.get(row);
+            wafers.add(new com.fasterxml.jackson.databind.util.RawValue(text != null ? text : waferJson(row, columns)));
+        }
+        return wafers;
+    }
+
+    /** {@value #JSON_NAME} as {@link #writeJson} writes it (a test's view). */
+    static byte[] jsonBytes(Summary s, Rules rules, List<String> columns, List<Map<String, String>> rows,
+                            Map<Map<String, String>, String> wafersJson) throws IOException {
+        return Json.WRITER.writeValueAsBytes(jsonRoot(s, rules, rawWafers(columns, rows, wafersJson)));
+    }
+
+    /** The content of {@value #JSON_NAME} with {@code wafers} as its list of wafers. */
+    private static Map<String, Object> jsonRoot(Summary s, Rules rules, List<?> wafers) {
+        Map<String, Object> root = new LinkedHashMap<>();
+        Map<String, Object> sum = new LinkedHashMap<>();
+        sum.put("pass", s.pass());
+        sum.put("fail", s.fail());
+        sum.put("error", s.error());
+        sum.put("skipped", s.skipped());
+        sum.put("yield_fraction", Double.isNaN(s.yield()) ? null : s.yield());
+        root.put("summary", sum);
+        root.put("physics", trapmap.maps.io.PhysicsSettingsFile.toJson(rules.physics()));
+        root.put("wafers", wafers);
+        return root;
+    }
+
+    /**
+     * The content of {@value #JSON_NAME} as one tree (the wafers as {@link #waferObject}s): the reference that
+     * {@link #writeJson} writes piecewise.
+     */
+    static Map<String, Object> jsonTree(Summary s, Rules rules, List<String> columns, List<Map<String, String>> rows) {
+        List<Map<String, Object>> wafers = new ArrayList<>();
+        for (Map<String, String> row : rows) {
+            wafers.add(waferObject(row, columns));
+        }
+        return jsonRoot(s, rules, wafers);
+    }
+
+    /** {@link #jsonTree} written as {@link #writeJson} writes it (a test's reference). */
+    static byte[] jsonTreeBytes(Summary s, Rules rules, List<String> columns, List<Map<String, String>> rows)
+            throws IOException {
+        return Json.WRITER.writeValueAsBytes(jsonTree(s, rules, columns, rows));
+    }
+
+    /** The object of one row in {@value #JSON_NAME}: its cells by column, numeric columns as numbers. */
+    private static Map<String, Object> waferObject(Map<String, String> row, List<String> columns) {
+        Map<String, Object> w = new LinkedHashMap<>();
+        for (String c : columns) {
+            String v = row.getOrDefault(c, "");
+            w.put(c, numeric(c) ? number(v) : v);
+        }
+        return w;
+    }
+
+    /**
+     * The text of one row's object in {@value #JSON_NAME}'s list of wafers, as the whole file's writer places it
+     * there: the object written alone by the same writer, every line after the first indented by the one level it
+     * lies at (the root object's; the pretty printer keeps a list on one line and indents no level for it). The
+     * pretty printer puts a line break only between the members of an object and before its closing brace; a line
+     * break inside a text is written escaped, {@code \n}, so every line break of the text is one of those.
+     */
+    static String waferJson(Map<String, String> row, List<String> columns) {
+        try {
+            String alone = Json.WRITER.writeValueAsString(waferObject(row, columns));
+            return alone.replace(Json.LINE_BREAK, Json.LINE_BREAK + Json.INDENT);
+        } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
+            throw new IllegalStateException("a results row could not be written as JSON", e);
         }
     }
 

@@ -69,11 +69,26 @@ public final class HotSpots {
         }
     }
 
+    /**
+     * The results found so far, by recurrence (weakly: dropped with it) and criteria: after the last wafer of a batch
+     * its recurrence picture and the summary's recurrence page ask for the same ones on two threads, and the second
+     * takes (or waits for) the first's. A result is immutable; a recurrence equals only itself (its cell counts are
+     * its own copy).
+     */
+    private static final java.util.Map<Recurrence, java.util.Map<Criteria, Result>> FOUND =
+            java.util.Collections.synchronizedMap(new java.util.WeakHashMap<>());
+
     private HotSpots() {
     }
 
-    /** The hot spots of {@code r} under {@code c}. */
+    /** The hot spots of {@code r} under {@code c}; found once per recurrence and criteria. */
     public static Result find(Recurrence r, Criteria c) {
+        return FOUND.computeIfAbsent(r, k -> new java.util.concurrent.ConcurrentHashMap<>())
+                .computeIfAbsent(c, k -> compute(r, k));
+    }
+
+    /** The hot spots of {@code r} under {@code c}, found anew. */
+    static Result compute(Recurrence r, Criteria c) {
         WaferMap m = r.fraction();
         int needed = c.wafersNeeded(r.wafers());
         float[] s = m.raster().samples();

@@ -67,6 +67,8 @@ public final class RecurrenceMap {
 
     private final Map<String, Family> families = new TreeMap<>();
     private final java.util.List<String> refused = new java.util.ArrayList<>();
+    /** {@link #families()} as last made, until a footprint is added; null: to be made. */
+    private Map<String, Recurrence> made;
 
     /**
      * Adds one wafer, unless its cells lie beyond {@link #MAX_OFFSET_MM} from the wafer centre: such a footprint is
@@ -74,7 +76,7 @@ public final class RecurrenceMap {
      *
      * @return true when the wafer was added
      */
-    public boolean add(Footprint f) {
+    public synchronized boolean add(Footprint f) {
         double reach = reachMm(f);
         if (!(reach <= MAX_OFFSET_MM)) {
             refused.add("family " + f.family() + ": a wafer evaluated up to " + reach + " mm from its centre,"
@@ -82,6 +84,7 @@ public final class RecurrenceMap {
                     + " centre_y_px and pixel pitch); left out of the recurrence map");
             return false;
         }
+        made = null;
         Family fam = families.computeIfAbsent(f.family(), k -> new Family());
         fam.wafers++;
         fam.pitchMm = f.pitchMm();
@@ -131,10 +134,11 @@ public final class RecurrenceMap {
      * {@code other}'s left-out footprints follow this map's. A family's cell pitch is that of the map added last
      * (all footprints of a batch have {@link Footprint#PITCH_MM}).
      */
-    public void addAll(RecurrenceMap other) {
+    public synchronized void addAll(RecurrenceMap other) {
         if (other == this) {
             throw new IllegalArgumentException("a recurrence map cannot be added to itself");
         }
+        made = null;
         other.families.forEach((name, o) -> {
             if (o.wafers == 0) {
                 return;
@@ -189,15 +193,22 @@ public final class RecurrenceMap {
         return out;
     }
 
-    /** One recurrence (fraction map and the wafers covering each cell) per family, by family name. */
-    public Map<String, Recurrence> families() {
-        Map<String, Recurrence> out = new LinkedHashMap<>();
-        families.forEach((name, fam) -> {
-            if (Arrays.stream(fam.evaluated).anyMatch(n -> n > 0)) {
-                out.put(name, recurrence(name, fam));
-            }
-        });
-        return out;
+    /**
+     * One recurrence (fraction map and the wafers covering each cell) per family, by family name; unmodifiable. Made
+     * once until the next footprint is added (the batch's tables, its recurrence files and the summary, on another
+     * thread, all ask for them after the last wafer).
+     */
+    public synchronized Map<String, Recurrence> families() {
+        if (made == null) {
+            Map<String, Recurrence> out = new LinkedHashMap<>();
+            families.forEach((name, fam) -> {
+                if (Arrays.stream(fam.evaluated).anyMatch(n -> n > 0)) {
+                    out.put(name, recurrence(name, fam));
+                }
+            });
+            made = java.util.Collections.unmodifiableMap(out);
+        }
+        return made;
     }
 
     private static Recurrence recurrence(String name, Family fam) {

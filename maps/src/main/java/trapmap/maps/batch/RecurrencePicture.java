@@ -58,14 +58,7 @@ public final class RecurrencePicture {
         try {
             g.setColor(Color.WHITE);
             g.fillRect(0, 0, width, height);
-            float[] s = r.fraction().raster().samples();
-            for (int y = 0; y < h; y++) {
-                for (int x = 0; x < w; x++) {
-                    float v = s[y * w + x];
-                    g.setColor(Float.isFinite(v) ? new Color(colourOf(v)) : NO_DATA);
-                    g.fillRect(margin + x * k, top + y * k, k, k);
-                }
-            }
+            cells(img, r.fraction().raster().samples(), w, h, k, margin, top);
             g.setRenderingHint(RenderingHints.KEY_ANTIALIASING, RenderingHints.VALUE_ANTIALIAS_ON);
             g.setRenderingHint(RenderingHints.KEY_TEXT_ANTIALIASING, RenderingHints.VALUE_TEXT_ANTIALIAS_ON);
             outline(g, hot == null ? new BitSet() : hot.cells(), w, h, k, margin, top);
@@ -78,6 +71,31 @@ public final class RecurrencePicture {
             g.dispose();
         }
         return img;
+    }
+
+    /**
+     * Paints the cells ({@code w} × {@code h} shares, row by row) as {@code k} × {@code k} squares from
+     * ({@code ox}, {@code oy}): each cell its share's colour, a cell without one {@link #NO_DATA}. The pixels are
+     * set row by row into the image's raster, as filling each square with its colour would set them (no
+     * antialiasing is on yet), without one fill call per cell.
+     */
+    static void cells(BufferedImage img, float[] s, int w, int h, int k, int ox, int oy) {
+        if (img.getType() != BufferedImage.TYPE_INT_RGB) {
+            throw new IllegalArgumentException("cells are set into an opaque RGB image of one int per pixel");
+        }
+        int[] row = new int[w * k];
+        java.awt.image.WritableRaster raster = img.getRaster();
+        for (int y = 0; y < h; y++) {
+            for (int x = 0; x < w; x++) {
+                float v = s[y * w + x];
+                // the int a fill of this opaque colour stores (its alpha bits included)
+                int pixel = Float.isFinite(v) ? 0xFF000000 | colourOf(v) : NO_DATA.getRGB();
+                java.util.Arrays.fill(row, x * k, x * k + k, pixel);
+            }
+            for (int dy = 0; dy < k; dy++) {
+                raster.setDataElements(ox, oy + y * k + dy, w * k, 1, row);
+            }
+        }
     }
 
     /** The colour of a share in [0, 1] (values outside take the end colours). */

@@ -83,4 +83,46 @@ class HotSpotsTest {
         assertThatThrownBy(() -> new HotSpots.Criteria(0.25, 0, 0.5)).hasMessageContaining("minimum wafers");
         assertThatThrownBy(() -> new HotSpots.Criteria(0.25, 5, 1.5)).hasMessageContaining("family share");
     }
+
+    /**
+     * A recurrence's hot spots are found once per criteria and shared (the batch's picture and the summary's page ask
+     * for the same ones): what is handed out equals what is found anew, other criteria and a recurrence made again
+     * after one more wafer are found anew, and two threads asking at once get the one result.
+     */
+    @Test
+    void foundOncePerRecurrenceAndCriteriaAndEqualToFindingAnew() throws Exception {
+        RecurrenceMap r = new RecurrenceMap();
+        for (int k = 0; k < 8; k++) {
+            r.add(k < 4 ? footprint(0, 4, 1, 0, 1) : footprint(0, 4, 1, 0));
+        }
+        Recurrence rec = only(r);
+        HotSpots.Result first = HotSpots.find(rec, HotSpots.Criteria.DEFAULT);
+        assertThat(HotSpots.find(rec, HotSpots.Criteria.DEFAULT)).isSameAs(first);
+        assertThat(first).isEqualTo(HotSpots.compute(rec, HotSpots.Criteria.DEFAULT));
+        assertThat(first.cells().cardinality()).isEqualTo(2);
+        HotSpots.Criteria strict = new HotSpots.Criteria(0.75, 5, 0.5);
+        HotSpots.Result strictResult = HotSpots.find(rec, strict);
+        assertThat(strictResult.cells().cardinality()).isEqualTo(1); // cell 0 on 8 of 8; cell 1 on 4 of 8
+        assertThat(strictResult).isEqualTo(HotSpots.compute(rec, strict));
+        r.add(footprint(0, 4, 1, 2, 3));
+        Recurrence again = only(r);
+        assertThat(again).isNotSameAs(rec);
+        HotSpots.Result later = HotSpots.find(again, HotSpots.Criteria.DEFAULT);
+        assertThat(later).isNotSameAs(first).isEqualTo(HotSpots.compute(again, HotSpots.Criteria.DEFAULT));
+        RecurrenceMap big = new RecurrenceMap();
+        for (int k = 0; k < 6; k++) {
+            big.add(footprint(0, 64, 64, 5, 6, 70, 71, 4000));
+        }
+        Recurrence shared = only(big);
+        java.util.concurrent.ExecutorService two = java.util.concurrent.Executors.newFixedThreadPool(2);
+        try {
+            java.util.concurrent.Future<HotSpots.Result> a = two.submit(
+                    () -> HotSpots.find(shared, HotSpots.Criteria.DEFAULT));
+            java.util.concurrent.Future<HotSpots.Result> b = two.submit(
+                    () -> HotSpots.find(shared, HotSpots.Criteria.DEFAULT));
+            assertThat(a.get()).isSameAs(b.get()).isEqualTo(HotSpots.compute(shared, HotSpots.Criteria.DEFAULT));
+        } finally {
+            two.shutdownNow();
+        }
+    }
 }

@@ -162,4 +162,28 @@ class RecurrenceMapTest {
         }
         assertThat(seen).isEqualTo(counts.size());
     }
+
+    /** The families are made once until a footprint is added (alone or merged): then made again with it. */
+    @Test
+    void familiesMadeOnceAreMadeAgainAfterEachAddition() {
+        RecurrenceMap r = new RecurrenceMap();
+        r.add(footprint(0, 0, 2, 1, 0));
+        java.util.Map<String, Recurrence> first = r.families();
+        assertThat(r.families()).isSameAs(first);
+        assertThat(first.get("f").wafers()).isEqualTo(1);
+        r.add(footprint(0, 0, 2, 1, 1));
+        java.util.Map<String, Recurrence> second = r.families();
+        assertThat(second).isNotSameAs(first);
+        assertThat(second.get("f").wafers()).isEqualTo(2);
+        assertThat(at(second.get("f").fraction(), 1, 0)).isEqualTo(0.5f);
+        RecurrenceMap other = new RecurrenceMap();
+        other.add(footprint(1, 0, 1, 1, 0));
+        r.addAll(other);
+        java.util.Map<String, Recurrence> third = r.families();
+        assertThat(third.get("f").wafers()).isEqualTo(3);
+        assertThat(at(third.get("f").fraction(), 1, 0)).isEqualTo(2f / 3);
+        assertThat(first.get("f").wafers()).as("what was handed out stays as it was").isEqualTo(1);
+        org.assertj.core.api.Assertions.assertThatThrownBy(() -> third.remove("f"))
+                .isInstanceOf(UnsupportedOperationException.class);
+    }
 }

@@ -107,4 +107,41 @@ class RecurrencePictureTest {
         }
         assertThat(dark).isGreaterThan(100);
     }
+
+    /**
+     * The cells are set into the raster directly: the pixels (and the PNG's bytes) are those of filling each cell's
+     * square with its colour through {@code Graphics2D}, the straightforward way.
+     */
+    @Test
+    void cellsSetDirectlyEqualCellsFilledOneByOne() throws Exception {
+        int w = 23;
+        int h = 17;
+        int k = 3;
+        float[] s = new float[w * h];
+        for (int i = 0; i < s.length; i++) {
+            s[i] = i % 7 == 0 ? Float.NaN : i % 11 == 0 ? 1.5f : i % 13 == 0 ? -0.25f : (float) (i % 101) / 100;
+        }
+        BufferedImage direct = new BufferedImage(w * k + 30, h * k + 40, BufferedImage.TYPE_INT_RGB);
+        BufferedImage filled = new BufferedImage(w * k + 30, h * k + 40, BufferedImage.TYPE_INT_RGB);
+        java.awt.Graphics2D g = filled.createGraphics();
+        try {
+            for (int y = 0; y < h; y++) {
+                for (int x = 0; x < w; x++) {
+                    float v = s[y * w + x];
+                    g.setColor(Float.isFinite(v) ? new java.awt.Color(RecurrencePicture.colourOf(v))
+                            : RecurrencePicture.NO_DATA);
+                    g.fillRect(12 + x * k, 34 + y * k, k, k);
+                }
+            }
+        } finally {
+            g.dispose();
+        }
+        RecurrencePicture.cells(direct, s, w, h, k, 12, 34);
+        int[] a = direct.getRaster().getPixels(0, 0, direct.getWidth(), direct.getHeight(), (int[]) null);
+        int[] b = filled.getRaster().getPixels(0, 0, filled.getWidth(), filled.getHeight(), (int[]) null);
+        assertThat(a).isEqualTo(b);
+        assertThat(((java.awt.image.DataBufferInt) direct.getRaster().getDataBuffer()).getData())
+                .isEqualTo(((java.awt.image.DataBufferInt) filled.getRaster().getDataBuffer()).getData());
+        assertThat(trapmap.maps.io.PngFiles.encode(direct)).isEqualTo(trapmap.maps.io.PngFiles.encode(filled));
+    }
 }
