@@ -1,0 +1,17 @@
+package trapmap.physics.spectroscopy;
+
+import trapmap.physics.defect.Defect;
+
+/**
+ * A library defect compared with a DPSS curve at its own level.
+ *
+ * @param defect                the defect
+ * @param energyFromIntrinsicEv its E_t − E_i (from its n1, degeneracy included), eV
+ * @param libraryRatio          its k = σ_n/σ_p
+ * @param point                 the DPSS fit at exactly that level
+ * @param onCurve               true when the fit there lies in the minimum-residual band and k agrees within the
+ *                              tolerance factor
+ */
+public record DefectOnCurve(Defect defect, double energyFromIntrinsicEv, double libraryRatio, DpssPoint point,
+                            boolean onCurve) {
+}

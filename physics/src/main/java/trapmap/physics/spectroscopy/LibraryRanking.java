@@ -1,0 +1,205 @@
+package trapmap.physics.spectroscopy;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.Comparator;
+import java.util.List;
+import java.util.Locale;
+import org.apache.commons.math3.distribution.ChiSquaredDistribution;
+import trapmap.physics.defect.Defect;
+import trapmap.physics.material.Doping;
+import trapmap.physics.material.Silicon;
+import trapmap.physics.recombination.SrhRecombination;
+import trapmap.shared.check.Checks;
+import trapmap.shared.error.InvalidValueException;
+
+/**
+ * Ranks library defects against one τ_SRH(Δn) curve, prepared once per wafer (doping, temperature, injection
+ * levels) and then called per pixel or per region. Immutable and thread-safe.
+ * <p>
+ * For a library defect (E_t, σ_n, σ_p known) τ_SRH,i = K_i/N_t with K_i = K(Δn_i) of {@link SrhRecombination}
+ * (Shockley &amp; Read 1952; Hall 1952), so N_t is the only free parameter (Rein, Lifetime Spectroscopy, Springer
+ * (2005), ch. 5). The fit is made on the rates y_i = 1/τ_i = N_t c_i with c_i = 1/K_i, which are linear in N_t; the
+ * standard uncertainty of y_i is u_i y_i (u_i the relative uncertainty of τ_i, first order). Weighted least squares
+ * through the origin (Bevington &amp; Robinson, Data Reduction and Error Analysis, 3rd ed. (2003), ch. 6):
+ * <pre>
+ * N_t = Σ w_i c_i y_i / Σ w_i c_i²,  w_i = 1/(u_i y_i)²,  σ(N_t) = 1/sqrt(Σ w_i c_i²),
+ * χ² = Σ [(y_i − N_t c_i)/(u_i y_i)]² = Σ [(1 − N_t c_i τ_i)/u_i]²,  ν = n − 1,
+ * p = 1 − F_χ²(χ²; ν)
+ * </pre>
+ * with n the usable levels (finite positive τ_SRH). Bounds are N_t ± 1.96 σ(N_t) (95 %, normal), the lower one at
+ * least 0. Candidates are ranked by χ² (all share ν, so this is also the order of p). Defects without absolute
+ * cross-sections (bo-lid) are listed unfitted with the reason.
+ */
+public final class LibraryRanking {
+    /** Below this p-value of the best candidate no single defect explains the curve. */
+    public static final double NO_SINGLE_DEFECT_P = 0.01;
+    /** Two-sided 95 % quantile of the standard normal distribution. */
+    public static final double BOUNDS_Z = 1.959963984540054;
+
+    private final double[] injectionPerCm3;
+    private final List<Defect> fitted = new ArrayList<>();
+    /** Per fitted defect and level: c_i = 1/K(Δn_i), cm³/s. */
+    private final double[][] ratePerTrap;
+    private final List<CandidateFit> skipped = new ArrayList<>();
+    /** χ² distributions by degrees of freedom (index ν), made once (they are immutable). */
+    private final ChiSquaredDistribution[] chiSquared;
+
+    /**
+     * @param candidates      the defects to rank, in the order used for ties
+     * @param doping          the wafer's doping
+     * @param silicon         band parameters and thermal velocities (the convention of the defects' σ)
+     * @param injectionPerCm3 the Δn of every level, cm^-3
+     */
+    public LibraryRanking(List<Defect> candidates, Doping doping, Silicon silicon, double[] injectionPerCm3) {
+        Checks.notNull(candidates, "candidates");
+        Checks.notNull(doping, "doping");
+        Checks.notNull(silicon, "silicon");
+        double[] u = new double[injectionPerCm3 == null ? 0 : injectionPerCm3.length];
+        Arrays.fill(u, LifetimeCurve.DEFAULT_RELATIVE_UNCERTAINTY);
+        this.injectionPerCm3 = new LifetimeCurve(injectionPerCm3, u, u).injectionPerCm3();
+        List<double[]> rates = new ArrayList<>();
+        for (Defect d : candidates) {
+            Checks.notNull(d, "candidates");
+            if (!d.hasAbsoluteCrossSections()) {
+                skipped.add(CandidateFit.notFitted(d, "defect '" + d.id() + "' has no published absolute capture"
+                        + " cross-section, so tau_SRH gives no N_t for it (skipped)"));
+                continue;
+            }
+            SrhRecombination srh = SrhRecombination.of(d, doping, silicon);
+            double[] c = new double[this.injectionPerCm3.length];
+            for (int i = 0; i < c.length; i++) {
+                c[i] = srh.ratePerTrapCm3PerS(this.injectionPerCm3[i]);
+            }
+            fitted.add(d);
+            rates.add(c);
+        }
+        if (fitted.isEmpty()) {
+            throw new InvalidValueException("candidates", "", "none of the " + candidates.size() + " candidate"
+                    + " defects has absolute capture cross-sections (cm^2), so none can be ranked");
+        }
+        ratePerTrap = rates.toArray(new double[0][]);
+        chiSquared = new ChiSquaredDistribution[Math.max(2, this.injectionPerCm3.length)];
+        for (int nu = 1; nu < chiSquared.length; nu++) {
+            chiSquared[nu] = new ChiSquaredDistribution(null, nu);
+        }
+    }
+
+    /** Ranks {@code curve} against {@code candidates} in one call (prepares and ranks). */
+    public static Ranking rank(LifetimeCurve curve, List<Defect> candidates, Doping doping, Silicon silicon) {
+        Checks.notNull(curve, "curve");
+        return new LibraryRanking(candidates, doping, silicon, curve.injectionPerCm3())
+                .rank(curve.tauSrhS(), curve.relativeUncertainty());
+    }
+
+    /** The injection levels, cm^-3. */
+    public double[] injectionPerCm3() {
+        return injectionPerCm3.clone();
+    }
+
+    /** Ranks a curve with the default 3 % relative uncertainty at every level ({@code tauSrhS} in s). */
+    public Ranking rank(double[] tauSrhS) {
+        double[] u = new double[injectionPerCm3.length];
+        Arrays.fill(u, LifetimeCurve.DEFAULT_RELATIVE_UNCERTAINTY);
+        return rank(tauSrhS, u);
+    }
+
+    /**
+     * Ranks one curve measured at this ranking's levels.
+     *
+     * @param tauSrhS             τ_SRH per level, s (levels that are not finite and positive are left out)
+     * @param relativeUncertainty relative standard uncertainty per level
+     */
+    public Ranking rank(double[] tauSrhS, double[] relativeUncertainty) {
+        LifetimeCurve curve = new LifetimeCurve(injectionPerCm3, tauSrhS, relativeUncertainty);
+        double[] tau = curve.tauSrhS();
+        double[] u = curve.relativeUncertainty();
+        int n = curve.usableCount();
+        List<CandidateFit> out = new ArrayList<>();
+        if (n < 2) {
+            String why = "only " + n + " of " + tau.length + " levels " + (n == 1 ? "has" : "have")
+                    + " a finite positive tau_SRH (s); at least 2 are needed to see the injection dependence";
+            for (Defect d : fitted) {
+                out.add(CandidateFit.notFitted(d, why));
+            }
+            out.addAll(skipped);
+            return new Ranking(RankingStatus.TOO_FEW_LEVELS, why, n, out, null);
+        }
+        int nu = n - 1;
+        for (int k = 0; k < fitted.size(); k++) {
+            out.add(fit(fitted.get(k), ratePerTrap[k], tau, u, nu));
+        }
+        out.sort(Comparator.comparingDouble(CandidateFit::chiSquared));
+        CandidateFit best = out.get(0);
+        CandidateFit runner = out.size() > 1 ? out.get(1) : null;
+        double ratio = runner == null ? Double.NaN
+                : best.chiSquared() == 0 ? Double.POSITIVE_INFINITY : runner.chiSquared() / best.chiSquared();
+        DefectHint hint = new DefectHint(best, runner, ratio);
+        out.addAll(skipped);
+        RankingStatus status;
+        String reason;
+        if (best.pValue() < NO_SINGLE_DEFECT_P) {
+            status = RankingStatus.NO_SINGLE_DEFECT;
+            reason = String.format(Locale.ROOT, "the best candidate %s has chi2 %.4g with %d degrees of freedom,"
+                    + " p = %.3g < %.2g: no single library defect explains the curve", best.id(), best.chiSquared(),
+                    nu, best.pValue(), NO_SINGLE_DEFECT_P);
+        } else if (n < tau.length) {
+            status = RankingStatus.BELOW_LIMIT;
+            reason = String.format(Locale.ROOT, "tau_SRH is not finite and positive at %s cm^-3 (SRH not"
+                    + " resolvable there); ranked on the other %d levels: %s", unusable(curve), n, verdict(hint));
+        } else {
+            status = RankingStatus.OK;
+            reason = verdict(hint);
+        }
+        return new Ranking(status, reason, n, out, hint);
+    }
+
+    private CandidateFit fit(Defect d, double[] c, double[] tau, double[] u, int nu) {
+        double scc = 0;
+        double scy = 0;
+        for (int i = 0; i < tau.length; i++) {
+            if (!(Double.isFinite(tau[i]) && tau[i] > 0)) {
+                continue;
+            }
+            double y = 1.0 / tau[i];
+            double w = 1.0 / (u[i] * y * u[i] * y);
+            scc += w * c[i] * c[i];
+            scy += w * c[i] * y;
+        }
+        double nt = scy / scc;
+        double chi2 = 0;
+        for (int i = 0; i < tau.length; i++) {
+            if (!(Double.isFinite(tau[i]) && tau[i] > 0)) {
+                continue;
+            }
+            double r = (1.0 - nt * c[i] * tau[i]) / u[i];
+            chi2 += r * r;
+        }
+        double se = 1.0 / Math.sqrt(scc);
+        double p = 1.0 - chiSquared[nu].cumulativeProbability(chi2);
+        return new CandidateFit(d, true, "", nt, se, Math.max(0, nt - BOUNDS_Z * se), nt + BOUNDS_Z * se, chi2, nu,
+                p);
+    }
+
+    private static String unusable(LifetimeCurve curve) {
+        double[] dn = curve.injectionPerCm3();
+        List<String> s = new ArrayList<>();
+        for (int i = 0; i < dn.length; i++) {
+            if (!curve.usable(i)) {
+                s.add(String.format(Locale.ROOT, "%.3g", dn[i]));
+            }
+        }
+        return String.join(", ", s);
+    }
+
+    private static String verdict(DefectHint h) {
+        CandidateFit b = h.best();
+        String s = String.format(Locale.ROOT, "%s fits best (N_t %.3g cm^-3, chi2 %.3g, p = %.3g)", b.id(),
+                b.ntPerCm3(), b.chiSquared(), b.pValue());
+        if (h.runnerUp() != null) {
+            s += String.format(Locale.ROOT, "; runner-up %s (chi2 ratio %.3g)", h.runnerUp().id(),
+                    h.chiSquaredRatio());
+        }
+        return s;
+    }
+}
