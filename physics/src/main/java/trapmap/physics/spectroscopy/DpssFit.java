@@ -109,7 +109,8 @@ public final class DpssFit {
         }
         int n = curve.usableCount();
         if (n < 2) {
-            return new DpssResult(n, List.of(), null, List.of(), null, null, false, List.of(), "only " + n
+            return new DpssResult(n, List.of(), null, List.of(),
+                    new double[] {Double.NaN, Double.NaN}, null, null, false, List.of(), "only " + n
                     + " of " + curve.size() + " levels have a finite positive tau_SRH (s); the DPSS needs at"
                     + " least 2");
         }
@@ -145,8 +146,15 @@ public final class DpssFit {
         double limit = best.chiSquared() + deltaChiSquared;
         List<double[]> band = new ArrayList<>();
         double[] open = null;
+        double kMin = Double.NaN;
+        double kMax = Double.NaN;
         for (DpssPoint p : pts) {
             if (p.chiSquared() <= limit) {
+                double k = p.captureRatio();
+                if (k > 0 && Double.isFinite(k)) {
+                    kMin = Double.isNaN(kMin) ? k : Math.min(kMin, k);
+                    kMax = Double.isNaN(kMax) ? k : Math.max(kMax, k);
+                }
                 if (open == null) {
                     open = new double[] {p.energyFromIntrinsicEv(), p.energyFromIntrinsicEv()};
                     band.add(open);
@@ -178,13 +186,13 @@ public final class DpssFit {
         for (double[] b : band) {
             why.append(String.format(Locale.ROOT, " [%+.3f, %+.3f]", b[0], b[1]));
         }
-        why.append(" eV");
+        why.append(String.format(Locale.ROOT, " eV with k %.3g to %.3g", kMin, kMax));
         if (ambiguous) {
             why.append("; ambiguous half: both halves of the gap fit within delta chi2 ")
                     .append(String.format(Locale.ROOT, "%.3g", deltaChiSquared));
         }
         why.append(on.isEmpty() ? "; no library defect on the curve" : "; on the curve: " + String.join(", ", on));
-        return new DpssResult(n, pts, best, band, bestLo, bestHi, ambiguous, defects, why.toString());
+        return new DpssResult(n, pts, best, band, new double[] {kMin, kMax}, bestLo, bestHi, ambiguous, defects, why.toString());
     }
 
     /** The grid of E_t − E_i, eV. */

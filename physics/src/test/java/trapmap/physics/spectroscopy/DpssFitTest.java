@@ -46,6 +46,9 @@ class DpssFitTest {
         // the band holds the level: the grid point next to it fits within Δχ² = 1
         assertThat(r.band()).anyMatch(b -> b[0] <= 0.38 - ei && 0.38 - ei <= b[1]);
         assertThat(r.reason()).contains("on the curve: ").contains("fe-i");
+        // a deep level in p-type: the band's k is about Fe_i's k (Rein et al. 2002: k is well defined, E_t not)
+        assertThat(r.bandRatioRange()[0]).isLessThanOrEqualTo(186.0).isGreaterThan(50);
+        assertThat(r.bandRatioRange()[1]).isGreaterThanOrEqualTo(185.7);
     }
 
     // R-ID-6: a shallow-ish level in the upper half (Fe-B, E_c − 0.26, k = 1.67) in p-type: the lower half has a
