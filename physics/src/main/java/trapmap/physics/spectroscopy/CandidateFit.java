@@ -8,7 +8,8 @@ import trapmap.physics.defect.Defect;
  *
  * @param defect              the candidate
  * @param fitted              true when the numbers below are a fit
- * @param reason              why the candidate was not fitted; empty when fitted
+ * @param reason              why the candidate was not fitted; for a fitted one a caution (its cross-sections
+ *                            belong to another thermal-velocity convention than the silicon's) or empty
  * @param ntPerCm3            weighted least-squares N_t, cm^-3
  * @param standardErrorPerCm3 standard error of N_t from the stated uncertainties, cm^-3
  * @param lowerPerCm3         lower 95 % bound N_t − 1.96 σ, at least 0, cm^-3

@@ -42,6 +42,8 @@ public final class LibraryRanking {
     /** Per fitted defect and level: c_i = 1/K(Δn_i), cm³/s. */
     private final double[][] ratePerTrap;
     private final List<CandidateFit> skipped = new ArrayList<>();
+    /** Per fitted defect: the caution of its fit, or empty. */
+    private final List<String> cautions = new ArrayList<>();
     /** χ² distributions by degrees of freedom (index ν), made once (they are immutable). */
     private final ChiSquaredDistribution[] chiSquared;
 
@@ -73,6 +75,9 @@ public final class LibraryRanking {
             }
             fitted.add(d);
             rates.add(c);
+            cautions.add(silicon.velocityModel() == d.velocityConvention() ? ""
+                    : "cross-sections of '" + d.id() + "' belong to the " + d.velocityConvention() + " thermal-velocity"
+                    + " convention, fitted with the silicon's " + silicon.velocityModel() + " velocities");
         }
         if (fitted.isEmpty()) {
             throw new InvalidValueException("candidates", "", "none of the " + candidates.size() + " candidate"
@@ -127,7 +132,7 @@ public final class LibraryRanking {
         }
         int nu = n - 1;
         for (int k = 0; k < fitted.size(); k++) {
-            out.add(fit(fitted.get(k), ratePerTrap[k], tau, u, nu));
+            out.add(fit(fitted.get(k), cautions.get(k), ratePerTrap[k], tau, u, nu));
         }
         out.sort(Comparator.comparingDouble(CandidateFit::chiSquared));
         CandidateFit best = out.get(0);
@@ -143,6 +148,9 @@ public final class LibraryRanking {
             reason = String.format(Locale.ROOT, "the best candidate %s has chi2 %.4g with %d degrees of freedom,"
                     + " p = %.3g < %.2g: no single library defect explains the curve", best.id(), best.chiSquared(),
                     nu, best.pValue(), NO_SINGLE_DEFECT_P);
+            if (n < tau.length) {
+                reason += "; tau_SRH is not finite and positive at " + unusable(curve) + " cm^-3 (left out)";
+            }
         } else if (n < tau.length) {
             status = RankingStatus.BELOW_LIMIT;
             reason = String.format(Locale.ROOT, "tau_SRH is not finite and positive at %s cm^-3 (SRH not"
@@ -154,7 +162,7 @@ public final class LibraryRanking {
         return new Ranking(status, reason, n, out, hint);
     }
 
-    private CandidateFit fit(Defect d, double[] c, double[] tau, double[] u, int nu) {
+    private CandidateFit fit(Defect d, String caution, double[] c, double[] tau, double[] u, int nu) {
         double scc = 0;
         double scy = 0;
         for (int i = 0; i < tau.length; i++) {
@@ -177,7 +185,7 @@ public final class LibraryRanking {
         }
         double se = 1.0 / Math.sqrt(scc);
         double p = 1.0 - chiSquared[nu].cumulativeProbability(chi2);
-        return new CandidateFit(d, true, "", nt, se, Math.max(0, nt - BOUNDS_Z * se), nt + BOUNDS_Z * se, chi2, nu,
+        return new CandidateFit(d, true, caution, nt, se, Math.max(0, nt - BOUNDS_Z * se), nt + BOUNDS_Z * se, chi2, nu,
                 p);
     }
 

@@ -173,6 +173,17 @@ class LibraryRankingTest {
     }
 
     @Test
+    void fitsWithAnotherVelocityConventionCarryACaution() {
+        Doping doping = Doping.pType(1e16);
+        Silicon green = Silicon.at(300, trapmap.physics.material.ThermalVelocityModel.GREEN_1990);
+        double[] tau = curve(DefectLibrary.byId("fe-i"), doping, 1e11, LEVELS);
+        Ranking plain = new LibraryRanking(DefectLibrary.all(), doping, SI, LEVELS).rank(tau);
+        Ranking other = new LibraryRanking(DefectLibrary.all(), doping, green, LEVELS).rank(tau);
+        assertThat(plain.hint().best().reason()).isEmpty();
+        assertThat(other.hint().best().reason()).contains("fe-i").contains("thermal-velocity convention");
+    }
+
+    @Test
     void badInputNamesTheFieldAndUnit() {
         Doping doping = Doping.pType(1e16);
         LibraryRanking r = new LibraryRanking(DefectLibrary.all(), doping, SI, LEVELS);
