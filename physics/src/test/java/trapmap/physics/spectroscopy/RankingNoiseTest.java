@@ -10,6 +10,7 @@ import java.util.Map;
 import java.util.Random;
 import java.util.Set;
 import java.util.TreeSet;
+import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
 import trapmap.physics.defect.Defect;
@@ -86,5 +87,31 @@ class RankingNoiseTest {
         System.out.println(table);
         assertThat(failures).as(table.toString()).isEmpty();
         assertThat(confused).as(table.toString()).containsAll(NOT_DISTINGUISHABLE.get(dop));
+    }
+
+    // With the right model and Gaussian noise of the stated size, χ² of the planted defect follows the χ²
+    // distribution with ν = n − 1 (Bevington & Robinson 2003, ch. 11): mean ν, p < 0.01 in about 1 % of trials
+    @Test
+    void plantedChiSquaredFollowsItsDistribution() {
+        Doping doping = Doping.pType(1e16);
+        Defect fei = DefectLibrary.byId("fe-i");
+        LibraryRanking ranking = new LibraryRanking(List.of(fei), doping, Silicon.at(300), LEVELS);
+        double[] exact = LibraryRankingTest.curve(fei, doping, 1e11, LEVELS);
+        Random rnd = new Random(7L);
+        int n = 4000;
+        double sum = 0;
+        int low = 0;
+        for (int t = 0; t < n; t++) {
+            double[] tau = new double[LEVELS.length];
+            for (int i = 0; i < tau.length; i++) {
+                tau[i] = exact[i] * (1 + 0.03 * rnd.nextGaussian());
+            }
+            CandidateFit f = ranking.rank(tau).hint().best();
+            sum += f.chiSquared();
+            low += f.pValue() < 0.01 ? 1 : 0;
+        }
+        // mean of χ²(3) is 3 with standard error sqrt(6/4000) = 0.04; first-order weights add a few per cent
+        assertThat(sum / n).isBetween(2.8, 3.3);
+        assertThat(low / (double) n).isBetween(0.004, 0.02);
     }
 }
