@@ -133,6 +133,34 @@ class DpssFitTest {
         }
     }
 
+    // With 3 % noise the Fe_i curve still passes through Fe_i (Rein et al. 2002: the DPSS band is where χ² is
+    // within Δχ² = 1 of its minimum, Press et al. 2007 §15.6): fe-i on the curve in most seeded trials
+    @Test
+    void noisyIronCurveStillPassesThroughIron() {
+        Doping doping = Doping.pType(1e16);
+        Defect fei = DefectLibrary.byId("fe-i");
+        double[] dn = {1e12, Math.pow(10, 12 + 4.0 / 3), Math.pow(10, 12 + 8.0 / 3), 1e16};
+        double[] exact = LibraryRankingTest.curve(fei, doping, 1e11, dn);
+        DpssFit fit = new DpssFit(doping, SI, dn);
+        java.util.Random rnd = new java.util.Random(11L);
+        Defect cri = DefectLibrary.byId("cr-i"); // k = 5 (Schmidt et al. 2007): not on an Fe_i curve (k = 186)
+        int on = 0;
+        int wrong = 0;
+        int trials = 300;
+        for (int t = 0; t < trials; t++) {
+            double[] tau = new double[dn.length];
+            for (int i = 0; i < tau.length; i++) {
+                tau[i] = exact[i] * (1 + 0.03 * rnd.nextGaussian());
+            }
+            DpssResult r = fit.fit(tau, List.of(fei, cri));
+            on += r.defects().get(0).onCurve() ? 1 : 0;
+            wrong += r.defects().get(1).onCurve() ? 1 : 0;
+        }
+        System.out.println("fe-i on its noisy DPSS curve in " + on + ", cr-i in " + wrong + " of " + trials);
+        assertThat(on).isGreaterThanOrEqualTo((int) (0.8 * trials));
+        assertThat(wrong).isLessThanOrEqualTo(trials / 20);
+    }
+
     @Test
     void gridSpansBothHalvesOfTheGap() {
         double[] g = new DpssFit(Doping.pType(1e16), SI, LEVELS).gridEv();
