@@ -14,7 +14,7 @@ import trapmap.shared.error.InvalidValueException;
 
 /**
  * The defect parameter solution surface (Rein et al., JAP 91, 2059 (2002); linear form of Murphy et al., JAP 111,
- * 113709 (2012)) of exact synthetic curves (docs/check-values.md R-ID-5, R-ID-6).
+ * 113709 (2012)) of exact synthetic curves (docs/check-values.md R-ID-5, R-ID-6, R-ID-8).
  */
 class DpssFitTest {
     static final Silicon SI = Silicon.at(300);
@@ -133,7 +133,7 @@ class DpssFitTest {
         }
     }
 
-    // With 3 % noise the Fe_i curve still passes through Fe_i (Rein et al. 2002: the DPSS band is where χ² is
+    // R-ID-8: with 3 % noise the Fe_i curve still passes through Fe_i (Rein et al. 2002: the DPSS band is where χ² is
     // within Δχ² = 1 of its minimum, Press et al. 2007 §15.6): fe-i on the curve in most seeded trials
     @Test
     void noisyIronCurveStillPassesThroughIron() {

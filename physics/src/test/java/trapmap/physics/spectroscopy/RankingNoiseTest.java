@@ -89,7 +89,7 @@ class RankingNoiseTest {
         assertThat(confused).as(table.toString()).containsAll(NOT_DISTINGUISHABLE.get(dop));
     }
 
-    // With the right model and Gaussian noise of the stated size, χ² of the planted defect follows the χ²
+    // R-ID-7: with the right model and Gaussian noise of the stated size, χ² of the planted defect follows the χ²
     // distribution with ν = n − 1 (Bevington & Robinson 2003, ch. 11): mean ν, p < 0.01 in about 1 % of trials
     @Test
     void plantedChiSquaredFollowsItsDistribution() {
