@@ -31,7 +31,8 @@ import trapmap.shared.error.InvalidValueException;
  * Every sample draws the same nine numbers in the same order (E_t, σ_n, σ_p, temperature, doping, thickness, SRV,
  * Δn, lifetime noise), whether or not a quantity is uncertain, so changing one uncertainty does not reshuffle the
  * others. With a temperature uncertainty the band parameters are recomputed at the drawn temperature with the models
- * of the given {@link PhysicsSettings}; without one the nominal {@link Silicon} is kept as it is. Not thread-safe
+ * of the given {@link PhysicsSettings}; without one the nominal {@link Silicon} is kept as it is (with one, the nominal silicon must be the settings' own at
+the nominal temperature, so that a draw at that temperature changes nothing). Not thread-safe
  * (one sampler per thread).
  */
 public final class UncertaintySampler {
@@ -58,6 +59,13 @@ public final class UncertaintySampler {
         this.uncertainty = Checks.notNull(uncertainty, "uncertainty");
         requireFixedInjection(nominal);
         defect.requireAbsoluteCrossSections();
+        if (uncertainty.temperatureK() > 0
+                && !settings.silicon(nominal.silicon().temperatureK()).equals(nominal.silicon())) {
+            throw new InvalidValueException("temperature_uncertainty", "K", "a temperature uncertainty (K) needs"
+                    + " the band parameters of the physics settings' models, but the conditions' silicon differs"
+                    + " from them at the nominal temperature; set the temperature uncertainty to 0 or use the"
+                    + " settings' silicon");
+        }
         this.random = new Well19937c(seed);
     }
 

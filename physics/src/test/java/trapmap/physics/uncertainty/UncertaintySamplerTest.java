@@ -128,4 +128,16 @@ class UncertaintySamplerTest {
         UncertaintySampler nominal = new UncertaintySampler(WAFER, noSpread, PhysicsSettings.DEFAULTS, U, 11);
         assertThat(nominal.next().defect()).isEqualTo(noSpread);
     }
+
+    @Test
+    void aTemperatureUncertaintyNeedsTheSettingsOwnSilicon() {
+        Conditions green = WAFER.withSilicon(PhysicsSettings.DEFAULTS
+                .withVelocities(trapmap.physics.material.ThermalVelocityModel.GREEN_1990).silicon(300));
+        org.assertj.core.api.Assertions.assertThatThrownBy(() -> new UncertaintySampler(green, FE_I,
+                PhysicsSettings.DEFAULTS, U, 1)).isInstanceOf(trapmap.shared.error.InvalidValueException.class)
+                .hasMessageContaining("temperature uncertainty (K)");
+        UncertaintySampler.Sample s = new UncertaintySampler(green, FE_I, PhysicsSettings.DEFAULTS,
+                new ConditionUncertainty(0.05, 0.02, 0.5, 0.1, 0, 0.03), 1).next();
+        assertThat(s.conditions().silicon()).isEqualTo(green.silicon());
+    }
 }
