@@ -29,7 +29,7 @@ import trapmap.shared.units.Units;
  * The density "exceeds N*" when the conversion would report an OK density above N*: R > max(N* / K_s, δ·r0_s). R
  * decreases with τ, so this holds exactly for τ below one lifetime per sample,
  * <pre>
- * τ*_s = m_s / (r0_s + max(N* / K_s, δ·r0_s))   (in measured lifetime, µs ↔ s)
+ * τ*_s = m_s / (r0_s + max(N* / K_s, δ·r0_s))   (s, in measured lifetime; kept in µs)
  * </pre>
  * and the probability of a pixel measured at τ is the share of samples with τ &lt; τ*_s: the τ*_s are sorted once and
  * each pixel costs one binary search. The lifetime noise is folded in per sample: a pixel's probability is a
