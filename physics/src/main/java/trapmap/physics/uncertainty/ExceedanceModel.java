@@ -1,8 +1,6 @@
 package trapmap.physics.uncertainty;
 
 import java.util.Arrays;
-import org.apache.commons.math3.stat.descriptive.rank.Percentile;
-import org.apache.commons.math3.stat.ranking.NaNStrategy;
 import org.apache.commons.math3.util.KthSelector;
 import trapmap.physics.conversion.Conditions;
 import trapmap.physics.conversion.Injection;
@@ -36,9 +34,11 @@ import trapmap.shared.units.Units;
  * marginal over all uncertain inputs, so one noise draw per sample gives the same per-pixel probability as a fresh
  * draw per pixel (the noise of different pixels is not correlated by this: only each pixel's own probability is
  * computed). The quantile of N_t at τ is the empirical quantile (inverse of the empirical distribution function,
- * Hyndman &amp; Fan, Am. Stat. 50, 361 (1996), definition 1; Commons Math {@link Percentile.EstimationType#R_1}) of
- * the reported N_s(τ/m_s) over the samples; the samples' densities cross one another as τ changes, so this costs
- * one pass over the samples per pixel (O(S)).
+ * Hyndman &amp; Fan, Am. Stat. 50, 361 (1996), definition 1, as Commons Math's {@code Percentile} with
+ * {@code R_1}: the ⌈qS⌉-th smallest) of the reported N_s(τ/m_s) over the samples, picked with Commons Math's
+ * {@link KthSelector}; the samples' densities cross one another as τ changes, so this costs one pass over the samples
+ * per pixel (O(S)). A {@link QuantileTable} for one q and a lifetime range gives the same values from a few per cent
+ * of the samples per pixel.
  * <p>
  * For N* at or above every sample's detection limit K_s·δ·r0_s the two agree exactly: probability(τ) > 1 − q
  * exactly when quantile(τ, q) > N* (up to rounding at ties). Fixed generation (Δn = G·τ_eff, so no single threshold
@@ -134,9 +134,12 @@ public final class ExceedanceModel {
      * lifetime the conversion does not convert.
      */
     public double quantile(float tauEffUs, double q) {
-        checkQuantile(q);
-        double[] work = new double[k.length];
-        return quantile(tauEffUs, q, work, percentile());
+        double tau = tauEffUs;
+        int rank = rankIndex(q);
+        if (!convertible(tau)) {
+            return Double.NaN;
+        }
+        return exactQuantile(tau, rank, new double[k.length]);
     }
 
     /**
@@ -145,35 +148,43 @@ public final class ExceedanceModel {
      */
     public void quantiles(float[] tauEffUs, double q, float[] out) {
         checkLengths(tauEffUs, out);
-        checkQuantile(q);
+        int rank = rankIndex(q);
         double[] work = new double[k.length];
-        Percentile p = percentile();
         for (int i = 0; i < tauEffUs.length; i++) {
-            out[i] = (float) quantile(tauEffUs[i], q, work, p);
+            double tau = tauEffUs[i];
+            out[i] = convertible(tau) ? (float) exactQuantile(tau, rank, work) : Float.NaN;
         }
     }
 
-    private double quantile(float tauEffUs, double q, double[] work, Percentile p) {
-        double tau = tauEffUs;
-        if (!convertible(tau)) {
-            return Double.NaN;
-        }
+    /**
+     * A table that gives {@link #quantile(float, double)} for level {@code q} faster for lifetimes in
+     * [{@code minTauUs}, {@code maxTauUs}] µs, with identical values (outside the range it takes the one-pass path).
+     */
+    public QuantileTable quantileTable(double q, double minTauUs, double maxTauUs) {
+        return new QuantileTable(this, q, minTauUs, maxTauUs);
+    }
+
+    /** The 0-based index of the q quantile among the S ascending densities: ⌈qS⌉ − 1 (definition 1). */
+    int rankIndex(double q) {
+        checkQuantile(q);
+        return Math.max(0, Math.min(k.length - 1, (int) Math.ceil(q * k.length) - 1));
+    }
+
+    private double exactQuantile(double tauUs, int rank, double[] work) {
         for (int s = 0; s < k.length; s++) {
-            work[s] = densityPerCm3(s, tau);
+            work[s] = densityPerCm3(s, tauUs);
         }
-        return p.evaluate(work, 100 * q);
+        return new KthSelector().select(work, null, rank);
     }
 
-    /** The density sample {@code s} reports for a pixel measured at {@code tauUs} µs, cm⁻³. */
-    private double densityPerCm3(int s, double tauUs) {
+    /**
+     * The density sample {@code s} reports for a pixel measured at {@code tauUs} µs, cm⁻³. Every operation is
+     * monotone, so the value never increases as {@code tauUs} increases (as rounded, too).
+     */
+    double densityPerCm3(int s, double tauUs) {
         double trueTauS = tauUs / lifetimeFactor[s] * Units.S_PER_US;
         double rate = 1.0 / trueTauS - baseRate[s];
         return k[s] * Math.max(rate, detectableRate[s]);
-    }
-
-    private static Percentile percentile() {
-        return new Percentile().withEstimationType(Percentile.EstimationType.R_1)
-                .withNaNStrategy(NaNStrategy.FAILED).withKthSelector(new KthSelector());
     }
 
     /** Number of τ*_s strictly above {@code tau}: binary search for the first one above it. */
@@ -191,7 +202,7 @@ public final class ExceedanceModel {
         return sortedThresholdsUs.length - lo;
     }
 
-    private static boolean convertible(double tauUs) {
+    static boolean convertible(double tauUs) {
         return tauUs >= TrapDensityConverter.LIFETIME_FLOOR_US && tauUs != Double.POSITIVE_INFINITY;
     }
 
