@@ -4,6 +4,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import trapmap.physics.defect.Defect;
+import trapmap.physics.defect.TrapLevel;
 import trapmap.physics.material.Carriers;
 import trapmap.physics.material.Doping;
 import trapmap.physics.material.Silicon;
@@ -69,9 +70,7 @@ public final class DpssFit {
         this.deltaChiSquared = Checks.positive(Checks.finite(deltaChiSquared, "deltaChiSquared", ""),
                 "deltaChiSquared", "");
         this.ratioTolerance = Checks.inRange(ratioTolerance, 1.0 + 1e-9, 1e6, "ratioTolerance", "");
-        double[] u = new double[injectionPerCm3 == null ? 0 : injectionPerCm3.length];
-        java.util.Arrays.fill(u, LifetimeCurve.DEFAULT_RELATIVE_UNCERTAINTY);
-        this.dn = new LifetimeCurve(injectionPerCm3, u, u).injectionPerCm3();
+        this.dn = LifetimeCurve.checkedLevels(injectionPerCm3);
         this.ni = silicon.intrinsicPerCm3();
         Carriers eq = doping.equilibrium(ni);
         this.n0 = eq.electronsPerCm3();
@@ -175,7 +174,7 @@ public final class DpssFit {
             double k = def.captureRatio();
             boolean ok = p.chiSquared() <= limit && p.captureRatio() > 0 && Double.isFinite(p.captureRatio())
                     && Math.abs(Math.log(p.captureRatio() / k)) <= Math.log(ratioTolerance);
-            defects.add(new DefectOnCurve(def, e, k, p, ok));
+            defects.add(new DefectOnCurve(def, e, p, ok));
             if (ok) {
                 on.add(def.id());
             }
@@ -202,8 +201,9 @@ public final class DpssFit {
 
     /** The non-negative weighted least-squares (τ_n0, τ_p0) at one level E_t − E_i = {@code e} (eV). */
     DpssPoint solve(double e, double[] d, double[] tau, double[] u) {
-        double n1 = ni * Math.exp(e / kt);
-        double p1 = ni * ni / n1;
+        TrapLevel level = TrapLevel.fromIntrinsic(e);
+        double n1 = level.n1PerCm3(silicon);
+        double p1 = level.p1PerCm3(silicon);
         int n = tau.length;
         double[] a = new double[n];
         double[] b = new double[n];
