@@ -57,9 +57,7 @@ public final class LibraryRanking {
         Checks.notNull(candidates, "candidates");
         Checks.notNull(doping, "doping");
         Checks.notNull(silicon, "silicon");
-        double[] u = new double[injectionPerCm3 == null ? 0 : injectionPerCm3.length];
-        Arrays.fill(u, LifetimeCurve.DEFAULT_RELATIVE_UNCERTAINTY);
-        this.injectionPerCm3 = new LifetimeCurve(injectionPerCm3, u, u).injectionPerCm3();
+        this.injectionPerCm3 = LifetimeCurve.checkedLevels(injectionPerCm3);
         List<double[]> rates = new ArrayList<>();
         for (Defect d : candidates) {
             Checks.notNull(d, "candidates");

@@ -48,6 +48,15 @@ public record LifetimeCurve(double[] injectionPerCm3, double[] tauSrhS, double[]
         return new LifetimeCurve(injectionPerCm3, tauSrhS, u);
     }
 
+    /**
+     * A copy of {@code injectionPerCm3} checked as the levels of a curve (at least one, each finite and positive,
+     * cm^-3), for fits prepared before their curves are known.
+     */
+    static double[] checkedLevels(double[] injectionPerCm3) {
+        return of(injectionPerCm3, new double[injectionPerCm3 == null ? 0 : injectionPerCm3.length])
+                .injectionPerCm3();
+    }
+
     /** Number of levels. */
     public int size() {
         return injectionPerCm3.length;
