@@ -7,8 +7,13 @@ public sealed interface Injection permits Injection.Fixed, Injection.Generation 
 
     /** The same excess carrier density Δn at every pixel, cm^-3. */
     record Fixed(double excessPerCm3) implements Injection {
+        /** Smallest excess carrier density accepted, cm^-3. */
+        public static final double MIN_EXCESS_PER_CM3 = 1e6;
+        /** Largest excess carrier density accepted, cm^-3. */
+        public static final double MAX_EXCESS_PER_CM3 = 1e19;
+
         public Fixed {
-            Checks.inRange(excessPerCm3, 1e6, 1e19, "injection", "cm^-3");
+            Checks.inRange(excessPerCm3, MIN_EXCESS_PER_CM3, MAX_EXCESS_PER_CM3, "injection", "cm^-3");
         }
 
         /** The generated record text, written out (see {@link Surface#toString()}). */

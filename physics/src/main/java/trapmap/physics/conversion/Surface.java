@@ -13,12 +13,18 @@ import trapmap.shared.check.Checks;
 public record Surface(double thicknessUm, double srvCmPerS, SurfaceModel model) {
     /** Ideal surfaces: no surface recombination term. */
     public static final Surface IDEAL = new Surface(Double.NaN, 0, SurfaceModel.SPROUL);
+    /** Thinnest wafer accepted, µm. */
+    public static final double MIN_THICKNESS_UM = 1;
+    /** Thickest wafer accepted, µm. */
+    public static final double MAX_THICKNESS_UM = 5000;
+    /** Largest surface recombination velocity accepted, cm/s. */
+    public static final double MAX_SRV_CM_PER_S = 1e7;
 
     public Surface {
         Checks.notNull(model, "surface model");
         if (srvCmPerS != 0 || !Double.isNaN(thicknessUm)) {
-            Checks.inRange(thicknessUm, 1, 5000, "thickness", "um");
-            Checks.inRange(srvCmPerS, 0, 1e7, "surfaceRecombinationVelocity", "cm/s");
+            Checks.inRange(thicknessUm, MIN_THICKNESS_UM, MAX_THICKNESS_UM, "thickness", "um");
+            Checks.inRange(srvCmPerS, 0, MAX_SRV_CM_PER_S, "surfaceRecombinationVelocity", "cm/s");
         }
     }
 

@@ -25,8 +25,9 @@ import trapmap.shared.error.InvalidValueException;
  * (Jeffreys' scale-invariant prior for a positive scale parameter; Jeffreys, Theory of Probability, 1961).</li>
  * <li>A defect without a spread keeps its nominal parameters.</li>
  * <li>Conditions and lifetime noise: as stated in {@link ConditionUncertainty}. A draw outside a model's accepted
- * range is clamped to it (doping 1e10–1e19 cm⁻³, thickness 1–5000 µm, SRV ≤ 1e7 cm/s, Δn 1e6–1e19 cm⁻³,
- * temperature 77–500 K); this is only reached when the nominal value lies within a few uncertainties of a limit.</li>
+ * range is clamped to it (the limits of {@link Doping}, {@link Surface}, {@link Injection.Fixed} and
+ * {@link Silicon}: doping 1e10–1e19 cm⁻³, thickness 1–5000 µm, SRV ≤ 1e7 cm/s, Δn 1e6–1e19 cm⁻³, temperature
+ * 77–500 K); this is only reached when the nominal value lies within a few uncertainties of a limit.</li>
  * </ul>
  * Every sample draws the same nine numbers in the same order (E_t, σ_n, σ_p, temperature, doping, thickness, SRV,
  * Δn, lifetime noise), whether or not a quantity is uncertain, so changing one uncertainty does not reshuffle the
@@ -111,12 +112,15 @@ public final class UncertaintySampler {
         Surface surface = nominal.surface();
         if (!surface.ideal()) {
             surface = new Surface(
-                    clamp(logNormal(surface.thicknessUm(), uncertainty.thicknessRelative(), zThickness), 1, 5000),
-                    clamp(logNormal(surface.srvCmPerS(), uncertainty.srvRelative(), zSrv), 0, 1e7),
+                    clamp(logNormal(surface.thicknessUm(), uncertainty.thicknessRelative(), zThickness),
+                            Surface.MIN_THICKNESS_UM, Surface.MAX_THICKNESS_UM),
+                    clamp(logNormal(surface.srvCmPerS(), uncertainty.srvRelative(), zSrv), 0,
+                            Surface.MAX_SRV_CM_PER_S),
                     surface.model());
         }
         double dn = ((Injection.Fixed) nominal.injection()).excessPerCm3();
-        dn = clamp(logNormal(dn, uncertainty.injectionRelative(), zInjection), 1e6, 1e19);
+        dn = clamp(logNormal(dn, uncertainty.injectionRelative(), zInjection), Injection.Fixed.MIN_EXCESS_PER_CM3,
+                Injection.Fixed.MAX_EXCESS_PER_CM3);
         Conditions c = new Conditions(doping, silicon, new Injection.Fixed(dn), surface, nominal.radiativeCm3PerS(),
                 nominal.detectionResolution(), nominal.referenceInjectionPerCm3());
         double factor = Math.exp(uncertainty.lifetimeRelative() * zLifetime);
