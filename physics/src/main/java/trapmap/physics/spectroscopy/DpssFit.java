@@ -30,11 +30,14 @@ import trapmap.shared.check.Checks;
  * one standard deviation of one parameter, Press et al., Numerical Recipes, 3rd ed. (2007), §15.6).
  */
 public final class DpssFit {
-    /** Default grid step of E_t, eV. */
+    /** Default grid step of E_t, eV (project choice, check-values R-LIM-10). */
     public static final double DEFAULT_STEP_EV = 0.005;
-    /** Default Δχ² above the minimum that bounds the band. */
+    /** Default Δχ² above the minimum that bounds the band (Press et al. 2007, §15.6: one parameter, 1 σ). */
     public static final double DEFAULT_DELTA_CHI_SQUARED = 1.0;
-    /** Default factor within which a library k must agree with the curve's k. */
+    /**
+     * Default factor within which a library k must agree with the curve's k (project choice, check-values
+     * R-LIM-10).
+     */
     public static final double DEFAULT_RATIO_TOLERANCE = 2.0;
 
     private final double[] dn;

@@ -32,7 +32,10 @@ import trapmap.shared.error.InvalidValueException;
  * cross-sections (bo-lid) are listed unfitted with the reason.
  */
 public final class LibraryRanking {
-    /** Below this p-value of the best candidate no single defect explains the curve. */
+    /**
+     * Below this p-value of the best candidate no single defect explains the curve (the 1 % significance level of a
+     * χ² goodness-of-fit test, Bevington &amp; Robinson 2003, ch. 11; check-values R-LIM-8).
+     */
     public static final double NO_SINGLE_DEFECT_P = 0.01;
     /** Two-sided 95 % quantile of the standard normal distribution. */
     public static final double BOUNDS_Z = 1.959963984540054;

@@ -15,7 +15,7 @@ import trapmap.shared.error.InvalidValueException;
  */
 public record LifetimeCurve(double[] injectionPerCm3, double[] tauSrhS, double[] relativeUncertainty) {
 
-    /** Relative standard uncertainty of τ_SRH used when none is given: 3 %. */
+    /** Relative standard uncertainty of τ_SRH used when none is given: 3 % (project choice, check-values R-LIM-9). */
     public static final double DEFAULT_RELATIVE_UNCERTAINTY = 0.03;
 
     public LifetimeCurve {
