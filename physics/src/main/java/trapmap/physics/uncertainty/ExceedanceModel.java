@@ -134,8 +134,12 @@ public final class ExceedanceModel {
      * lifetime the conversion does not convert.
      */
     public double quantile(float tauEffUs, double q) {
+        return quantileAtRank(tauEffUs, rankIndex(q));
+    }
+
+    /** The density of 0-based rank {@code rank} among the samples' at {@code tauEffUs} µs, cm⁻³ (one pass). */
+    double quantileAtRank(float tauEffUs, int rank) {
         double tau = tauEffUs;
-        int rank = rankIndex(q);
         if (!convertible(tau)) {
             return Double.NaN;
         }
@@ -212,7 +216,7 @@ public final class ExceedanceModel {
         }
     }
 
-    private static void checkLengths(float[] in, float[] out) {
+    static void checkLengths(float[] in, float[] out) {
         Checks.notNull(in, "lifetimes");
         Checks.notNull(out, "out");
         if (in.length != out.length) {

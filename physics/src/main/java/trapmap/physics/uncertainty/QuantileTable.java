@@ -94,7 +94,7 @@ public final class QuantileTable {
             return Double.NaN;
         }
         if (tau < edgesUs[0] || tau > edgesUs[edgesUs.length - 1]) {
-            return model.quantile(tauEffUs, rankLevel());
+            return model.quantileAtRank(tauEffUs, rank);
         }
         int j = Arrays.binarySearch(edgesUs, tau);
         j = j >= 0 ? Math.min(j, above.length - 1) : -j - 2;
@@ -114,20 +114,10 @@ public final class QuantileTable {
 
     /** {@link #quantile(float)} of each pixel of {@code tauEffUs} into {@code out} (same length), cm⁻³. */
     public void quantiles(float[] tauEffUs, float[] out) {
-        Checks.notNull(tauEffUs, "lifetimes");
-        Checks.notNull(out, "out");
-        if (tauEffUs.length != out.length) {
-            throw new IllegalArgumentException("output has " + out.length + " values for " + tauEffUs.length
-                    + " lifetimes");
-        }
+        ExceedanceModel.checkLengths(tauEffUs, out);
         for (int i = 0; i < tauEffUs.length; i++) {
             out[i] = (float) quantile(tauEffUs[i]);
         }
-    }
-
-    /** A q whose rank is this table's (for the one-pass path outside the range). */
-    private double rankLevel() {
-        return (rank + 0.5) / model.samples();
     }
 
     /** Mean number of candidates per cell (what one pixel costs, against S for the one-pass path). */
