@@ -167,7 +167,7 @@ public final class LibraryRanking {
         double scc = 0;
         double scy = 0;
         for (int i = 0; i < tau.length; i++) {
-            if (!(Double.isFinite(tau[i]) && tau[i] > 0)) {
+            if (!LifetimeCurve.usable(tau[i])) {
                 continue;
             }
             double y = 1.0 / tau[i];
@@ -178,7 +178,7 @@ public final class LibraryRanking {
         double nt = scy / scc;
         double chi2 = 0;
         for (int i = 0; i < tau.length; i++) {
-            if (!(Double.isFinite(tau[i]) && tau[i] > 0)) {
+            if (!LifetimeCurve.usable(tau[i])) {
                 continue;
             }
             double r = (1.0 - nt * c[i] * tau[i]) / u[i];

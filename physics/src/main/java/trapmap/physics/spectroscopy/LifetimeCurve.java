@@ -64,8 +64,12 @@ public record LifetimeCurve(double[] injectionPerCm3, double[] tauSrhS, double[]
 
     /** True when level {@code i} can be fitted: its τ_SRH is finite and positive. */
     public boolean usable(int i) {
-        double t = tauSrhS[i];
-        return Double.isFinite(t) && t > 0;
+        return usable(tauSrhS[i]);
+    }
+
+    /** True when a τ_SRH (s) can be fitted: finite and positive. */
+    static boolean usable(double tauSrhS) {
+        return Double.isFinite(tauSrhS) && tauSrhS > 0;
     }
 
     /** Number of usable levels. */
