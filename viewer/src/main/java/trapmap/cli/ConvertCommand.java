@@ -152,6 +152,15 @@ final class ConvertCommand implements Callable<Integer> {
     private static final trapmap.maps.model.Quantity LIFETIME = trapmap.maps.model.Quantity.EFFECTIVE_LIFETIME;
 
     /**
+     * {@link BandConversion#WARM_UP_CONDITIONS} with a fixed injection (1e15 cm⁻³) instead of the generation rate: the
+     * warm-up's guess for a map measured at a fixed injection. Made when asked (a constant would load the kernel's
+     * class with this one's).
+     */
+    static trapmap.maps.model.MeasurementConditions warmUpFixedInjection() {
+        return BandConversion.WARM_UP_CONDITIONS.withGeneration(null).withInjection(1e15);
+    }
+
+    /**
      * Starts {@link BandConversion#warmUp} before the command line is parsed (parsing takes a fresh process tens of
      * milliseconds), so that the kernel's top-tier code is there when the first band is: only for a trap-density
      * conversion whose arguments name a built-in defect ({@code --defect ID}) and exactly one of {@code
@@ -193,8 +202,7 @@ final class ConvertCommand implements Callable<Integer> {
         if (!d.hasAbsoluteCrossSections()) {
             return;
         }
-        trapmap.maps.model.MeasurementConditions guess = injection
-                ? BandConversion.WARM_UP_CONDITIONS.withGeneration(null).withInjection(1e15)
+        trapmap.maps.model.MeasurementConditions guess = injection ? warmUpFixedInjection()
                 : BandConversion.WARM_UP_CONDITIONS;
         BandConversion.warmUp(guess, d, ConversionSettings.DEFAULTS, trapmap.maps.model.Quantity.TRAP_DENSITY);
     }

@@ -303,30 +303,32 @@ final class InspectCommand implements Callable<Integer> {
     static final class Inputs implements IParameterConsumer {
         @Override
         public void consumeParameters(Stack<String> args, ArgSpec argSpec, CommandSpec commandSpec) {
-            boolean first = true;
-            do {
-                String a = args.peek();
-                Path p;
-                try {
-                    p = TrapmapCommand.path(a);
-                } catch (CommandLine.TypeConversionException e) {
-                    if (!first) {
-                        return; // as picocli, which stops taking values at one it cannot convert
-                    }
-                    throw new CommandLine.ParameterException(commandSpec.commandLine(), String.format(
-                            "Invalid value for positional parameter at index %s (%s): %s",
-                            ((PositionalParamSpec) argSpec).index(), argSpec.paramLabel(), e.getMessage()), e, argSpec,
-                            a);
-                }
+            String a = args.peek();
+            Path p;
+            try {
+                p = TrapmapCommand.path(a);
+            } catch (CommandLine.TypeConversionException e) {
+                throw new CommandLine.ParameterException(commandSpec.commandLine(), String.format(
+                        "Invalid value for positional parameter at index %s (%s): %s",
+                        ((PositionalParamSpec) argSpec).index(), argSpec.paramLabel(), e.getMessage()), e, argSpec, a);
+            }
+            List<Path> list = argSpec.getValue(); // once a run: picocli's getter reads the field by reflection
+            if (list == null) {
+                list = new ArrayList<>();
+                argSpec.setValue(list);
+            }
+            while (true) {
                 args.pop();
-                first = false;
-                List<Path> list = argSpec.getValue();
-                if (list == null) {
-                    list = new ArrayList<>();
-                    argSpec.setValue(list);
-                }
                 list.add(p);
-            } while (!args.isEmpty() && !args.peek().startsWith("-"));
+                if (args.isEmpty() || args.peek().startsWith("-")) {
+                    return;
+                }
+                try {
+                    p = TrapmapCommand.path(args.peek());
+                } catch (CommandLine.TypeConversionException e) {
+                    return; // as picocli, which stops taking values at one it cannot convert
+                }
+            }
         }
     }
 

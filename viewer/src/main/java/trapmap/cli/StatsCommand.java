@@ -285,14 +285,14 @@ final class StatsCommand implements Callable<Integer> {
 
     /**
      * {@link BandConversion#WARM_UP_CONDITIONS} (a generation rate and a surface recombination velocity), and when
-     * {@code injectionOpen} the same with a fixed injection instead, and when {@code surfaceOpen} each of those with
-     * ideal surfaces as well.
+     * {@code injectionOpen} the same with a fixed injection instead ({@link ConvertCommand#warmUpFixedInjection}),
+     * and when {@code surfaceOpen} each of those with ideal surfaces as well.
      */
     static List<trapmap.maps.model.MeasurementConditions> warmUpCases(boolean injectionOpen, boolean surfaceOpen) {
         trapmap.maps.model.MeasurementConditions typical = BandConversion.WARM_UP_CONDITIONS;
         List<trapmap.maps.model.MeasurementConditions> cases = new ArrayList<>(List.of(typical));
         if (injectionOpen) {
-            cases.add(typical.withGeneration(null).withInjection(1e15));
+            cases.add(ConvertCommand.warmUpFixedInjection());
         }
         if (surfaceOpen) {
             for (int k = 0, n = cases.size(); k < n; k++) {

@@ -198,8 +198,9 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     }
 
     /**
-     * The whole document in memory, on the drawing thread: the table drawn ahead finished when it holds the rows
-     * {@code e} names, in their order; else drawn anew from them.
+     * The whole document in memory (on the drawing thread, or by {@link #write} where that thread did not make it):
+     * the table drawn ahead finished when it holds the rows {@code e} names, in their order; else drawn anew from
+     * them.
      */
     private byte[] finish(Ended e) throws IOException {
         java.io.ByteArrayOutputStream bytes = new java.io.ByteArrayOutputStream(1 << 20);
@@ -286,37 +287,18 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
         end();
         Path pdf = outDir.resolve(BatchReport.FILE_NAME);
         Ended e = told;
-        if (finished != null && e != null && e.recurrence() == recurrence && e.rows() == finishedRows
-                && e.asTold() == asTold) {
-            byte[] bytes = finished;
-            finished = null;
-            finishedAhead = true;
-            AtomicFiles.write(pdf, bytes);
-            return pdf;
-        }
+        byte[] bytes = finished;
         finished = null;
-        finishedAhead = false;
-        if (!usable || !asTold || rows.size() != finishedRows.size() || rows.size() != expected) {
-            dropDocument();
-            drewAhead = false;
-            BatchReport.write(content(finishedRows, recurrence), pdf);
-            return pdf;
-        }
-        BatchContent c = new BatchContent(outDir, rules, rows, recurrence.families(), null, HotSpots.Criteria.DEFAULT,
-                recurrence.refused());
-        try {
-            table.end();
-            BatchReport.describe(doc);
-            try (ReportFlow head = new ReportFlow(doc, tableStart)) {
-                BatchReport.head(head, c);
+        finishedAhead = bytes != null && e != null && e.recurrence() == recurrence && e.rows() == finishedRows
+                && e.asTold() == asTold;
+        if (!finishedAhead) { // rows never told ended, told otherwise, or the drawing thread failed: finished here
+            try {
+                bytes = finish(new Ended(finishedRows, asTold, recurrence));
+            } finally {
+                dropDocument();
             }
-            BatchReport.tail(flow, c, pictures::get);
-            BatchReport.footers(doc, c);
-            AtomicFiles.write(pdf, tmp -> doc.save(tmp.toFile()));
-            drewAhead = true;
-        } finally {
-            dropDocument();
         }
+        AtomicFiles.write(pdf, bytes);
         return pdf;
     }
 

@@ -61,11 +61,30 @@ class SummaryDraftTest {
         assertSameAsFromFolder(dir.resolve("out"));
     }
 
+    @Test
+    void rowsNeverToldEndedAreFinishedByWriteTheSame(@TempDir Path dir) throws Exception {
+        Path in = Files.createDirectories(dir.resolve("in"));
+        List<Path> files = new ArrayList<>();
+        for (int i = 0; i < 40; i++) {
+            files.add(BatchReportTest.wafer(in, String.format("W-%03d", i), i % 6 == 2 ? 40 : 80 + i, 0));
+        }
+        SummaryDraft draft = drawn(files, dir.resolve("out"), 2, false);
+
+        assertThat(draft.drewAhead()).isTrue();
+        assertThat(draft.finishedAhead()).as("finished by write, from the table drawn ahead").isFalse();
+        assertSameAsFromFolder(dir.resolve("out"));
+    }
+
     private static SummaryDraft drawn(List<Path> files, Path out, int workers) throws Exception {
+        return drawn(files, out, workers, true);
+    }
+
+    /** {@code tellEnd}: whether the draft is told the rows ended (else only each row, and write finishes it). */
+    private static SummaryDraft drawn(List<Path> files, Path out, int workers, boolean tellEnd) throws Exception {
         Rules rules = Rules.parse(BatchReportTest.RULES, "rules.json");
         BatchInspection batch = new BatchInspection(rules);
         try (SummaryDraft draft = SummaryDraft.start(out, rules, files.size(), () -> true)) {
-            batch.tellingRows(draft).warmingUp(draft::warmedUp).finishingWith((d, recurrence) -> {
+            batch.tellingRows(tellEnd ? draft : draft::row).warmingUp(draft::warmedUp).finishingWith((d, recurrence) -> {
                 try {
                     draft.write(recurrence, batch.rows(), batch.rowsAsTold());
                 } catch (InterruptedException e) {
