@@ -169,7 +169,7 @@ public final class Thumbnails {
     static boolean[] dilate(boolean[] b, int w, int h, int r) {
         boolean[] rows = new boolean[b.length];
         for (int y = 0; y < h; y++) {
-            dilateLine(b, rows, y * w, 1, w, r);
+            dilateLine(b, rows, y * w, w, r);
         }
         boolean[] out = new boolean[b.length];
         for (int y = 0; y < h; y++) {
@@ -188,26 +188,26 @@ public final class Thumbnails {
     }
 
     /**
-     * Along the line of {@code n} pixels {@code start + k * stride}: {@code dst} set where a set pixel of {@code src}
+     * Along the row of {@code n} pixels from {@code start}: {@code dst} set where a set pixel of {@code src}
      * lies within {@code r} pixels. Scanning ahead, pixel {@code at} is decided when the scan reaches
      * {@code at + r}, from the last set pixel seen.
      */
-    private static void dilateLine(boolean[] src, boolean[] dst, int start, int stride, int n, int r) {
+    private static void dilateLine(boolean[] src, boolean[] dst, int start, int n, int r) {
         int last = Integer.MIN_VALUE / 2; // position of the last set pixel seen
         int x = 0;
         for (; x < Math.min(r, n); x++) { // nothing decided yet
-            if (src[start + x * stride]) {
+            if (src[start + x]) {
                 last = x;
             }
         }
         for (x = r; x < n; x++) {
-            if (src[start + x * stride]) {
+            if (src[start + x]) {
                 last = x;
             }
-            dst[start + (x - r) * stride] = x - last <= 2 * r;
+            dst[start + x - r] = x - last <= 2 * r;
         }
         for (x = Math.max(n, r); x < n + r; x++) { // past the end: the last pixels decided
-            dst[start + (x - r) * stride] = x - last <= 2 * r;
+            dst[start + x - r] = x - last <= 2 * r;
         }
     }
 

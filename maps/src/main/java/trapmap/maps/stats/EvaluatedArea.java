@@ -121,33 +121,28 @@ public record EvaluatedArea(Mask mask, int evaluatedCount, int belowLimitCount, 
             long unusable = 0;   // ... and invalid for the conversion (status, or the lifetime floor without one)
             long okBits = 0;
             long belowBits = 0;
-            if (status != null && len == 64 && allOk(status, i)) {
-                // the usual word inside the wafer: every status OK, so only the values' bits are to be found
-                for (int j = 0; j < 64; j++) {
-                    float x = v[i + j];
-                    float y = m[i + j];
-                    valid |= (x == x ? 1L : 0L) << j;
-                    hasData |= (y == y ? 1L : 0L) << j;
-                    finite |= (Float.isFinite(y) ? 1L : 0L) << j;
-                    positive |= (y > 0 ? 1L : 0L) << j;
+            for (int j = 0; j < len; j++) {
+                float x = v[i + j];
+                float y = m[i + j];
+                valid |= (x == x ? 1L : 0L) << j;
+                hasData |= (y == y ? 1L : 0L) << j;
+                finite |= (Float.isFinite(y) ? 1L : 0L) << j;
+                positive |= (y > 0 ? 1L : 0L) << j;
+            }
+            if (status == null) {
+                if (lifetimeFloor) {
+                    for (int j = 0; j < len; j++) {
+                        unusable |= (m[i + j] < TrapDensityConverter.LIFETIME_FLOOR_US ? 1L : 0L) << j;
+                    }
                 }
-                okBits = -1L;
+            } else if (len == 64 && allOk(status, i)) {
+                okBits = -1L; // the usual word inside the wafer: every status OK
             } else {
                 for (int j = 0; j < len; j++) {
-                    float x = v[i + j];
-                    float y = m[i + j];
-                    valid |= (x == x ? 1L : 0L) << j;
-                    hasData |= (y == y ? 1L : 0L) << j;
-                    finite |= (Float.isFinite(y) ? 1L : 0L) << j;
-                    positive |= (y > 0 ? 1L : 0L) << j;
-                    if (status != null) {
-                        byte s = status[i + j];
-                        okBits |= (s == ok ? 1L : 0L) << j;
-                        belowBits |= (s == belowLimit ? 1L : 0L) << j;
-                        unusable |= (s == invalid || s == noData ? 1L : 0L) << j;
-                    } else {
-                        unusable |= (lifetimeFloor && y < TrapDensityConverter.LIFETIME_FLOOR_US ? 1L : 0L) << j;
-                    }
+                    byte s = status[i + j];
+                    okBits |= (s == ok ? 1L : 0L) << j;
+                    belowBits |= (s == belowLimit ? 1L : 0L) << j;
+                    unusable |= (s == invalid || s == noData ? 1L : 0L) << j;
                 }
             }
             long inArea = areaWords == null ? hasData : areaWords[i >>> 6];

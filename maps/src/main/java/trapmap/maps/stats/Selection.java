@@ -82,21 +82,28 @@ final class Selection {
     static double[] inPlace(float[] values, int n, int[] ranks) {
         double[] out = new double[ranks.length];
         int from = 0;
+        int below = -1; // the values a sort puts before +0 (counted at the first zero rank)
         for (int r = 0; r < ranks.length; r++) {
             float v = select(values, from, n - 1, ranks[r]);
-            out[r] = v == 0 ? signedZero(values, n, ranks[r]) : v;
+            if (v == 0) {
+                if (below < 0) {
+                    below = signedBelowZero(values, n);
+                }
+                v = ranks[r] < below ? -0f : 0f;
+            }
+            out[r] = v;
             from = ranks[r];
         }
         return out;
     }
 
-    /** The zero a sort of values[0..n) puts at {@code rank}, where the values equal to 0 lie. */
-    private static float signedZero(float[] values, int n, int rank) {
-        int below = 0; // the values a sort puts before +0: the negative ones and -0
+    /** How many of values[0..n) a sort puts before +0: the negative ones and -0 (the zeros' signs by rank). */
+    private static int signedBelowZero(float[] values, int n) {
+        int below = 0;
         for (int i = 0; i < n; i++) {
             below += Float.floatToRawIntBits(values[i]) < 0 ? 1 : 0;
         }
-        return rank < below ? -0f : 0f;
+        return below;
     }
 
     /**
