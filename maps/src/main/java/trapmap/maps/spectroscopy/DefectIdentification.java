@@ -7,6 +7,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.concurrent.atomic.AtomicReference;
+import trapmap.maps.process.ConversionSettings;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.region.Region;
 import trapmap.maps.region.RegionCriteria;
@@ -115,6 +116,22 @@ public final class DefectIdentification {
         public Options withThreads(int n) {
             return new Options(blockPx, relativeNoise, regionThresholdUs, minRegionPixels, n);
         }
+    }
+
+    /**
+     * Converts every level of {@code stack} ({@link StackLifetimes}, with the first candidate that has absolute
+     * cross-sections) and identifies as {@link #identify(StackLifetimes, List, Options)}.
+     *
+     * @throws InvalidValueException for missing conditions or when no candidate has absolute cross-sections
+     */
+    public static IdentificationResult identify(InjectionStack stack, ConversionSettings settings,
+                                                List<Defect> candidates, Options options) {
+        Checks.notNull(candidates, "candidates");
+        Checks.notNull(options, "options");
+        Defect any = candidates.stream().filter(Defect::hasAbsoluteCrossSections).findFirst()
+                .orElseThrow(() -> new InvalidValueException("defects", "", "none of the " + candidates.size()
+                        + " candidate defects has absolute capture cross-sections (cm^2), so none can be ranked"));
+        return identify(StackLifetimes.of(stack, any, settings, options.threads()), candidates, options);
     }
 
     /**
