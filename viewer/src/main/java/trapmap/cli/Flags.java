@@ -41,6 +41,11 @@ final class Flags {
             entry("--status-output", "the status map file (.tif, .csv or .png)"),
             entry("--quantity", "the name of a quantity (see --help)"),
             entry("--max-rotation-deg", "the largest rotation searched, in degrees"),
+            entry("--block", "a block side in pixels, from 1"),
+            entry("--noise", "a relative uncertainty as a fraction (0.03 = 3 %), no unit"),
+            entry("--region-below-us", "a lifetime in µs"),
+            entry("--min-region-px", "a number of pixels, from 1"),
+            entry("--defects", "defect ids separated by commas (list them with 'trapmap defects')"),
             entry("--tolerance", "a relative change as a fraction (0.05 = ±5 %), no unit"),
             entry("--page", "a page number of the TIFF, from 1"),
             entry("--threads", "a number of maps inspected at once, from 1"),
@@ -54,6 +59,7 @@ final class Flags {
     private static final Map<String, String> EXPECTED_IN = Map.ofEntries(
             entry("inspect --out", "the folder for the results"),
             entry("report --out", "the report to write (.pdf)"),
+            entry("identify --output", "the best-defect index map (.tif)"),
             entry("demo --out", "the folder to write the demonstration set into"),
             entry("calc --out", "the CSV file to write"));
 

@@ -32,8 +32,8 @@ public final class TrapmapCommand implements Callable<Integer> {
     static final String VERSION = trapmap.shared.Version.LINE;
     /** The sub-commands, in the order of the root help. */
     static final List<Class<?>> SUBCOMMANDS = List.of(CalcCommand.class, DefectsCommand.class, ConvertCommand.class,
-            StatsCommand.class, CompareCommand.class, IronMapCommand.class, InspectCommand.class, ReportCommand.class,
-            DemoCommand.class, ViewCommand.class);
+            StatsCommand.class, CompareCommand.class, IronMapCommand.class, IdentifyCommand.class, InspectCommand.class,
+            ReportCommand.class, DemoCommand.class, ViewCommand.class);
 
     @Spec
     CommandSpec spec;

@@ -1,0 +1,140 @@
+package trapmap.cli;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.Random;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import trapmap.maps.io.MapFiles;
+import trapmap.maps.io.WriteOptions;
+import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.model.Provenance;
+import trapmap.maps.model.Quantity;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.process.ConversionSettings;
+import trapmap.maps.process.MapConversion;
+import trapmap.maps.raster.FloatRaster;
+import trapmap.maps.raster.PixelGrid;
+import trapmap.physics.conversion.TrapDensityConverter;
+import trapmap.physics.defect.DefectLibrary;
+import trapmap.physics.material.Doping;
+
+/**
+ * {@code trapmap identify} end to end on made-up maps: a round p 1e15 wafer whose lifetime is intrinsic but for a
+ * square of Fe_i (2e11 cm^-3), at Δn 1e13, 1e14 and 1e15 cm^-3 with 3 % seeded noise (the physics' own SRH and
+ * intrinsic models, so the planted defect must come out first).
+ */
+class IdentifyCommandTest {
+    private static final int N = 40;
+    private static final double[] LEVELS = {1e13, 1e14, 1e15};
+    private static final double FE_CM3 = 2e11;
+
+    @TempDir
+    Path dir;
+
+    private static MeasurementConditions conditions(Double dn) {
+        return new MeasurementConditions(Doping.pType(1e15), 180.0, 300.0, dn, null, null, null, null, Map.of());
+    }
+
+    private static WaferMap level(double dn, long seed) {
+        TrapDensityConverter fe = new TrapDensityConverter(MapConversion.physicsConditions(conditions(dn),
+                ConversionSettings.DEFAULTS), DefectLibrary.byId("fe-i"));
+        Random rnd = new Random(seed);
+        float[] tau = new float[N * N];
+        for (int y = 0; y < N; y++) {
+            for (int x = 0; x < N; x++) {
+                boolean iron = x >= 10 && x < 20 && y >= 12 && y < 22;
+                double t = fe.lifetimeAtInjectionUs(iron ? FE_CM3 : 0, dn) * (1 + 0.03 * rnd.nextGaussian());
+                boolean on = Math.hypot(x - (N - 1) / 2.0, y - (N - 1) / 2.0) <= N / 2.0;
+                tau[y * N + x] = on ? (float) t : Float.NaN;
+            }
+        }
+        return new WaferMap(FloatRaster.wrap(N, N, tau), PixelGrid.centred(N, N, 0.5), Quantity.EFFECTIVE_LIFETIME,
+                "W1", conditions(dn), Provenance.of("test"));
+    }
+
+    private List<String> files() throws Exception {
+        List<String> files = new ArrayList<>();
+        for (int i = 0; i < LEVELS.length; i++) {
+            Path p = dir.resolve("W1-dn" + i + ".tif");
+            MapFiles.write(level(LEVELS[i], 11 + i), p);
+            files.add(p.toString());
+        }
+        return files;
+    }
+
+    @Test
+    void plantedIronIsTheBestDefectOfItsRegionAndEveryFileIsWritten() throws Exception {
+        List<String> args = new ArrayList<>(List.of("identify"));
+        args.addAll(files());
+        Path out = dir.resolve("out").resolve("hint.tif");
+        Files.createDirectories(out.getParent());
+        args.addAll(List.of("-o", out.toString(), "--json", "--defects", "fe-i,cr-i,ti-i,mo-i"));
+        JsonNode j = Cli.json(args.toArray(String[]::new));
+        assertThat(j.get("levels")).hasSize(3);
+        assertThat(j.get("levels").get(1).get("registration").get("shift_x_mm").asDouble()).isCloseTo(0,
+                within(0.25));
+        assertThat(j.get("regions")).hasSize(1);
+        JsonNode region = j.get("regions").get(0);
+        assertThat(region.get("pixels").asInt()).isEqualTo(100);
+        assertThat(region.get("status").asText()).isEqualTo("ok");
+        assertThat(region.get("best").asText()).isEqualTo("fe-i");
+        assertThat(region.get("best_nt_cm3").asDouble()).isCloseTo(FE_CM3, within(0.1 * FE_CM3));
+        assertThat(j.get("legend").get(0).get("defect").asText()).isEqualTo("fe-i");
+        for (String suffix : List.of(".tif", "-runner-up.tif", "-chi2.tif", "-chi2-ratio.tif", "-status.tif",
+                "-nt.tif", "-regions.tif", "-legend.csv", "-regions.csv", ".json")) {
+            assertThat(dir.resolve("out").resolve("hint" + suffix)).as(suffix).isRegularFile();
+        }
+        WaferMap best = MapFiles.readSingle(out);
+        assertThat(best.raster().get(15, 17)).isEqualTo(1f);
+        assertThat(Cli.parse(Files.readString(dir.resolve("out").resolve("hint.json"))).get("regions").get(0)
+                .get("best").asText()).isEqualTo("fe-i");
+    }
+
+    @Test
+    void multiPageFileWithPageObjectsIsAStack() throws Exception {
+        List<WaferMap> pages = new ArrayList<>();
+        for (int i = 0; i < LEVELS.length; i++) {
+            pages.add(level(LEVELS[i], 21 + i).withConditions(conditions(null)));
+        }
+        Path tif = dir.resolve("W1-stack.tif");
+        MapFiles.writeAll(pages, tif, WriteOptions.DEFAULTS);
+        Files.writeString(dir.resolve("W1-stack.json"), "{\"pages\": [{\"label\": \"1e13\", \"injection_cm3\":"
+                + " 1e13}, {\"label\": \"1e14\", \"injection_cm3\": 1e14}, {\"label\": \"1e15\", \"injection_cm3\":"
+                + " 1e15}]}");
+        JsonNode j = Cli.json("identify", tif.toString(), "-o", dir.resolve("h.tif").toString(), "--json",
+                "--no-registration", "--block", "2");
+        assertThat(j.get("levels").get(2).get("label").asText()).isEqualTo("1e15");
+        assertThat(j.get("levels").get(2).get("injection_cm3").asDouble()).isEqualTo(1e15);
+        assertThat(j.get("block_px").asInt()).isEqualTo(2);
+        assertThat(j.get("regions").get(0).get("best").asText()).isEqualTo("fe-i");
+    }
+
+    @Test
+    void badStacksAreRefusedWithOneLineNamingTheFile() throws Exception {
+        List<String> f = files();
+        Cli.Run one = Cli.run("identify", f.get(0), "-o", dir.resolve("x.tif").toString());
+        assertThat(one.code()).isEqualTo(2);
+        assertThat(one.errLines()).hasSize(1);
+        assertThat(one.err()).contains("at least 2").contains(f.get(0));
+        Cli.Run same = Cli.run("identify", f.get(0), f.get(1), "--injection", "1e14", "-o",
+                dir.resolve("x.tif").toString());
+        assertThat(same.code()).isEqualTo(2);
+        assertThat(same.err()).contains("injection_cm3").contains("must differ");
+        Cli.Run doping = Cli.run("identify", f.get(0), f.get(1), "-o", dir.resolve("x.png").toString());
+        assertThat(doping.code()).isEqualTo(2);
+        assertThat(doping.err()).contains("--output must be a .tif");
+        Cli.Run unknown = Cli.run("identify", f.get(0), f.get(1), "--defects", "fe-i,xx", "-o",
+                dir.resolve("x.tif").toString());
+        assertThat(unknown.code()).isEqualTo(2);
+        assertThat(unknown.err()).contains("'xx'");
+        assertThat(dir.resolve("x.tif")).doesNotExist();
+    }
+}
