@@ -85,6 +85,10 @@ final class IdentifyCommand implements Callable<Integer> {
     @Option(names = "--no-registration", description = "Take the maps as already aligned (same grid).")
     boolean noRegistration;
 
+    @Option(names = "--any-wafer-id", description = "Take the maps as one wafer even when their wafer ids differ"
+            + " (e.g. files named after their level, without a sidecar wafer_id).")
+    boolean anyWaferId;
+
     @Option(names = "--json", description = "Print the summary as one JSON object and write it to OUT.json.")
     boolean json;
 
@@ -113,7 +117,7 @@ final class IdentifyCommand implements Callable<Integer> {
         List<Defect> candidates = candidates();
         InjectionStack.Loaded loaded = InjectionStack.read(maps, ReadOptions.DEFAULTS, conditions.overrides());
         InjectionStack stack = InjectionStack.of(loaded, new InjectionStack.Options(!noRegistration,
-                RegistrationOptions.DEFAULTS));
+                RegistrationOptions.DEFAULTS, !anyWaferId));
         DefectIdentification.Options o = new DefectIdentification.Options(block, noise,
                 regionBelowUs == null ? Double.NaN : regionBelowUs, minRegionPx,
                 Runtime.getRuntime().availableProcessors());

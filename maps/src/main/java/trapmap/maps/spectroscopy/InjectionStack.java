@@ -37,13 +37,20 @@ public final class InjectionStack {
      * @param register     true: search the placement of every level ({@link MapRegistration#registerChecked});
      *                     false: take the maps as aligned (they must then have the same size)
      * @param registration how hard the search works
+     * @param sameWaferId  true: refuse maps whose wafer ids differ; false: take them as one wafer whatever their ids
+     *                     (e.g. files named after their level without a sidecar {@code wafer_id})
      */
-    public record Options(boolean register, RegistrationOptions registration) {
-        /** Registered with {@link RegistrationOptions#DEFAULTS}. */
-        public static final Options DEFAULTS = new Options(true, RegistrationOptions.DEFAULTS);
+    public record Options(boolean register, RegistrationOptions registration, boolean sameWaferId) {
+        /** Registered with {@link RegistrationOptions#DEFAULTS}, one wafer id. */
+        public static final Options DEFAULTS = new Options(true, RegistrationOptions.DEFAULTS, true);
 
         public Options {
             Checks.notNull(registration, "registration");
+        }
+
+        /** With the wafer ids checked. */
+        public Options(boolean register, RegistrationOptions registration) {
+            this(register, registration, true);
         }
     }
 
@@ -123,10 +130,10 @@ public final class InjectionStack {
             WaferMap m = maps.get(i);
             String n = names.get(i);
             MeasurementConditions c = m.conditions();
-            if (!first.waferId().equals(m.waferId())) {
+            if (options.sameWaferId() && !first.waferId().equals(m.waferId())) {
                 throw new InvalidValueException("wafer_id", "", n + ": wafer id '" + m.waferId() + "' differs from '"
                         + first.waferId() + "' of " + firstName + "; a stack holds maps of one wafer (give the same"
-                        + " wafer_id in the sidecars)");
+                        + " wafer_id in the sidecars, or take them as one wafer on purpose)");
             }
             if (!Objects.equals(c0.doping(), c.doping())) {
                 throw new InvalidValueException("doping", "cm^-3", n + ": field 'doping' is " + c.doping() + " but "
@@ -158,7 +165,13 @@ public final class InjectionStack {
             RegistrationReport report;
             WaferMap placed;
             if (options.register()) {
-                report = MapRegistration.registerChecked(first, m, options.registration(), ProgressListener.NONE);
+                try {
+                    report = MapRegistration.registerChecked(first, m, options.registration(),
+                            ProgressListener.NONE);
+                } catch (InvalidValueException e) {
+                    throw new InvalidValueException(e.field(), e.unit(), n + " cannot be registered onto "
+                            + firstName + ": " + e.getMessage());
+                }
                 placed = MapRegistration.apply(first, m, report.registration());
             } else {
                 if (m.width() != first.width() || m.height() != first.height()) {

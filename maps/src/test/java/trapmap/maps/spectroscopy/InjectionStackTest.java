@@ -61,6 +61,8 @@ class InjectionStackTest {
         maps.set(1, new WaferMap(m.raster(), m.grid(), m.quantity(), "w2", m.conditions(), m.provenance()));
         assertThatThrownBy(() -> InjectionStack.of(maps, SyntheticStack.names(3), ALIGNED))
                 .hasMessageContaining("level1.tif").hasMessageContaining("'w2'").hasMessageContaining("wafer_id");
+        assertThat(InjectionStack.of(maps, SyntheticStack.names(3), new InjectionStack.Options(false,
+                RegistrationOptions.DEFAULTS, false)).waferId()).isEqualTo("w1");
         maps.set(1, m.withConditions(m.conditions().withInjection(null)));
         assertThatThrownBy(() -> InjectionStack.of(maps, SyntheticStack.names(3), ALIGNED))
                 .hasMessageContaining("level1.tif").hasMessageContaining("injection_cm3")
