@@ -264,11 +264,11 @@ public final class IdentificationResult {
         return map(bestDensity, Quantity.TRAP_DENSITY);
     }
 
-    /** The region map ({@link Quantity#REGION_LABEL}: 1-based ids, 0 outside regions). */
+    /** The region map ({@link Quantity#REGION_LABEL}: 1-based ids, 0 outside regions, NaN without data). */
     public WaferMap regionMap() {
         float[] f = new float[regionLabels.length];
         for (int i = 0; i < f.length; i++) {
-            f[i] = regionLabels[i];
+            f[i] = Float.isNaN(status[i]) && regionLabels[i] == 0 ? Float.NaN : regionLabels[i];
         }
         return map(f, Quantity.REGION_LABEL);
     }

@@ -5,10 +5,12 @@ import java.util.EnumSet;
 import java.util.List;
 import java.util.Set;
 import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.ConversionSettings;
 import trapmap.maps.process.MapConversion;
+import trapmap.maps.raster.FloatRaster;
 import trapmap.physics.conversion.Conditions;
 import trapmap.physics.conversion.ConversionWarning;
 import trapmap.physics.defect.Defect;
@@ -134,6 +136,20 @@ public final class StackLifetimes {
     /** The Δn map of level {@code level}, cm^-3 (a copy). */
     public float[] injectionCm3(int level) {
         return injectionCm3[level].clone();
+    }
+
+    /** The τ_SRH map of level {@code level} ({@link Quantity#SRH_LIFETIME}, µs) on the stack's grid. */
+    public WaferMap srhLifetimeMap(int level) {
+        WaferMap m = stack.level(level).map();
+        return m.derive(FloatRaster.wrap(width(), height(), tauSrhUs(level)), Quantity.SRH_LIFETIME,
+                ProcessingStep.of("stack-srh-lifetime", "level", stack.level(level).label()));
+    }
+
+    /** The Δn map of level {@code level} ({@link Quantity#INJECTION}, cm^-3) on the stack's grid. */
+    public WaferMap injectionMap(int level) {
+        WaferMap m = stack.level(level).map();
+        return m.derive(FloatRaster.wrap(width(), height(), injectionCm3(level)), Quantity.INJECTION,
+                ProcessingStep.of("stack-injection", "level", stack.level(level).label()));
     }
 
     /** The warnings of the conversion of level {@code level}. */
