@@ -5,6 +5,7 @@ import java.util.Arrays;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.concurrent.CancellationException;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.concurrent.atomic.AtomicReference;
 import trapmap.maps.process.ConversionSettings;
@@ -23,6 +24,7 @@ import trapmap.physics.spectroscopy.Ranking;
 import trapmap.physics.spectroscopy.RankingStatus;
 import trapmap.shared.check.Checks;
 import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.progress.ProgressListener;
 
 /**
  * Defect identification over a wafer from an injection stack: the library ranking of physics'
@@ -126,12 +128,28 @@ public final class DefectIdentification {
      */
     public static IdentificationResult identify(InjectionStack stack, ConversionSettings settings,
                                                 List<Defect> candidates, Options options) {
+        return identify(stack, settings, candidates, options, ProgressListener.NONE);
+    }
+
+    /**
+     * As {@link #identify(InjectionStack, ConversionSettings, List, Options)}, telling {@code progress} (from the
+     * working threads) after each level's conversion and each row of blocks ranked; ends with a
+     * {@link CancellationException} when the calling thread is interrupted.
+     */
+    public static IdentificationResult identify(InjectionStack stack, ConversionSettings settings,
+                                                List<Defect> candidates, Options options, ProgressListener progress) {
         Checks.notNull(candidates, "candidates");
         Checks.notNull(options, "options");
+        Checks.notNull(progress, "progress");
         Defect any = candidates.stream().filter(Defect::hasAbsoluteCrossSections).findFirst()
                 .orElseThrow(() -> new InvalidValueException("defects", "", "none of the " + candidates.size()
                         + " candidate defects has absolute capture cross-sections (cm^2), so none can be ranked"));
-        return identify(StackLifetimes.of(stack, any, settings, options.threads()), candidates, options);
+        progress.progress(0, 0, "converting " + stack.size() + " levels");
+        StackLifetimes lt = StackLifetimes.of(stack, any, settings, options.threads());
+        if (Thread.currentThread().isInterrupted()) {
+            throw new CancellationException("identification cancelled");
+        }
+        return identify(lt, candidates, options, progress);
     }
 
     /**
@@ -143,6 +161,16 @@ public final class DefectIdentification {
      * @throws InvalidValueException when no candidate has absolute cross-sections
      */
     public static IdentificationResult identify(StackLifetimes lifetimes, List<Defect> candidates, Options options) {
+        return identify(lifetimes, candidates, options, ProgressListener.NONE);
+    }
+
+    /**
+     * As {@link #identify(StackLifetimes, List, Options)}, telling {@code progress} (from the working threads) after
+     * each row of blocks; ends with a {@link CancellationException} when the calling thread is interrupted.
+     */
+    public static IdentificationResult identify(StackLifetimes lifetimes, List<Defect> candidates, Options options,
+                                                ProgressListener progress) {
+        Checks.notNull(progress, "progress");
         Checks.notNull(lifetimes, "lifetimes");
         Checks.notNull(candidates, "candidates");
         Checks.notNull(options, "options");
@@ -160,6 +188,8 @@ public final class DefectIdentification {
         int blockRows = (h + k - 1) / k;
         AtomicInteger next = new AtomicInteger();
         AtomicReference<Throwable> failure = new AtomicReference<>();
+        AtomicInteger doneRows = new AtomicInteger();
+        Thread caller = Thread.currentThread();
         Runnable work = () -> {
             try {
                 int[] pixels = new int[k * k];
@@ -197,6 +227,10 @@ public final class DefectIdentification {
                             status[p] = s;
                             nt[p] = d;
                         }
+                    }
+                    progress.progress(doneRows.incrementAndGet(), blockRows, "ranking the defects");
+                    if (caller.isInterrupted()) {
+                        failure.compareAndSet(null, new CancellationException("identification cancelled"));
                     }
                 }
             } catch (RuntimeException | Error ex) {
@@ -285,8 +319,10 @@ public final class DefectIdentification {
             throw re;
         } else if (f instanceof Error er) {
             throw er;
+        } else if (f instanceof InterruptedException) {
+            throw new CancellationException("identification cancelled");
         } else if (f != null) {
-            throw new IllegalStateException("the identification was interrupted", f);
+            throw new IllegalStateException("the identification failed", f);
         }
     }
 

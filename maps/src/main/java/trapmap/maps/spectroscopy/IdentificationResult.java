@@ -8,6 +8,8 @@ import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.physics.defect.Defect;
+import trapmap.physics.spectroscopy.DpssFit;
+import trapmap.physics.spectroscopy.DpssResult;
 import trapmap.physics.spectroscopy.LifetimeCurve;
 import trapmap.physics.spectroscopy.Ranking;
 import trapmap.physics.spectroscopy.RankingStatus;
@@ -207,6 +209,16 @@ public final class IdentificationResult {
     public Ranking rankingAt(int col, int row) {
         LifetimeCurve c = curveAt(col, row);
         return c == null ? null : engine.rank(c);
+    }
+
+    /**
+     * The DPSS of pixel (col, row)'s curve (its block's) compared with every candidate; null when the pixel has no
+     * data.
+     */
+    public DpssResult dpssAt(int col, int row) {
+        LifetimeCurve c = curveAt(col, row);
+        return c == null ? null : new DpssFit(lifetimes.doping(), lifetimes.silicon(), c.injectionPerCm3())
+                .fit(c, candidates);
     }
 
     private void check(int col, int row) {

@@ -186,4 +186,38 @@ class DefectIdentificationTest {
         int fe = blocks.rankedCandidates().indexOf(DefectLibrary.byId("fe-i")) + 1;
         assertThat(blocks.bestIndex()[13 * 48 + 13]).isEqualTo((float) fe);
     }
+
+    @Test
+    void progressCountsEveryRowOfBlocksAndAnInterruptCancels() {
+        java.util.concurrent.atomic.AtomicLong last = new java.util.concurrent.atomic.AtomicLong();
+        java.util.concurrent.atomic.AtomicLong total = new java.util.concurrent.atomic.AtomicLong();
+        java.util.concurrent.atomic.AtomicInteger calls = new java.util.concurrent.atomic.AtomicInteger();
+        DefectIdentification.identify(lifetimes, DefectLibrary.all(),
+                DefectIdentification.Options.DEFAULTS.withBlock(4).withThreads(2), (done, all, message) -> {
+                    calls.incrementAndGet();
+                    last.accumulateAndGet(done, Math::max);
+                    total.set(all);
+                });
+        assertThat(calls.get()).isEqualTo(12);
+        assertThat(last.get()).isEqualTo(12);
+        assertThat(total.get()).isEqualTo(12);
+        Thread.currentThread().interrupt();
+        try {
+            org.assertj.core.api.Assertions.assertThatThrownBy(() -> DefectIdentification.identify(lifetimes,
+                    DefectLibrary.all(), DefectIdentification.Options.DEFAULTS.withThreads(1),
+                    trapmap.shared.progress.ProgressListener.NONE))
+                    .isInstanceOf(java.util.concurrent.CancellationException.class);
+        } finally {
+            Thread.interrupted();
+        }
+    }
+
+    @Test
+    void dpssOfAnIronPixelHasIronOnItsCurve() {
+        RegionIdentification fe = regionOf(SyntheticStack.FE_BOX);
+        assertThat(result.dpssAt(15, 15)).isNotNull();
+        assertThat(result.dpssAt(15, 15).usableLevels()).isEqualTo(3);
+        assertThat(fe.dpss().onCurve()).extracting(d -> d.defect().id()).contains("fe-i").doesNotContain("cr-i");
+        assertThat(result.dpssAt(0, 0)).isNull();
+    }
 }
