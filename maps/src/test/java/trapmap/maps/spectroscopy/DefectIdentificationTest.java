@@ -13,7 +13,10 @@ import trapmap.physics.spectroscopy.LifetimeCurve;
 import trapmap.physics.spectroscopy.Ranking;
 import trapmap.physics.spectroscopy.RankingStatus;
 
-/** Identification of a synthetic stack with planted fe-i, cr-i and overlapping regions ({@link SyntheticStack}). */
+/**
+ * Identification of a synthetic stack with planted fe-i, cr-i and overlapping regions ({@link SyntheticStack});
+ * check-values R-IDM-1 and R-IDM-2.
+ */
 class DefectIdentificationTest {
     private static final double[] LEVELS = {1e13, 1e14, 1e15};
     private static StackLifetimes lifetimes;
