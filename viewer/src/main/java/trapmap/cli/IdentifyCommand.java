@@ -167,7 +167,8 @@ final class IdentifyCommand implements Callable<Integer> {
         for (StackLevel l : r.stack().levels()) {
             double[] shift = l.shiftMm();
             t.row("level " + l.label(), l.source() + (l.registration() == null ? "" : String.format(Locale.ROOT,
-                    ", shift %.3f, %.3f mm, turn %.2f deg", shift[0], shift[1], l.rotationDeg())), "");
+                    ", shift %.3f, %.3f mm, turn %.2f deg%s", shift[0], shift[1], l.rotationDeg(),
+                    l.resampled() ? ", resampled" : ", within half a pixel: kept as read")), "");
         }
         int[] c = r.statusCounts();
         for (trapmap.physics.spectroscopy.RankingStatus s : trapmap.physics.spectroscopy.RankingStatus.values()) {

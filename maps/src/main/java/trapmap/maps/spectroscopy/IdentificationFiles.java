@@ -207,6 +207,7 @@ public final class IdentificationFiles {
                 reg.put("shift_x_mm", finite(rr.registration().shiftXMm()));
                 reg.put("shift_y_mm", finite(rr.registration().shiftYMm()));
                 reg.put("score", finite(rr.registration().score()));
+                reg.put("resampled", l.resampled());
                 reg.put("warnings", rr.warnings());
                 lv.put("registration", reg);
             }

@@ -7,6 +7,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Objects;
 import trapmap.maps.compare.MapRegistration;
+import trapmap.maps.compare.Registration;
 import trapmap.maps.compare.RegistrationOptions;
 import trapmap.maps.compare.RegistrationReport;
 import trapmap.maps.io.MapFiles;
@@ -23,11 +24,19 @@ import trapmap.shared.progress.ProgressListener;
  * Lifetime or PL maps of one wafer measured at two or more injection levels, each level placed onto the first one's
  * grid. Made by {@link #of}, which checks that the maps belong together (same wafer id, doping, thickness and
  * temperature; one injection level or generation rate each, all distinct) and registers every level onto the first
- * with {@link MapRegistration} (the shifts are kept in each {@link StackLevel#registration()}).
+ * with {@link MapRegistration} (the shifts are kept in each {@link StackLevel#registration()}); a level on the same
+ * grid whose placement moves no pixel by more than {@link #SUBPIXEL_PX} is kept as measured.
  */
 public final class InjectionStack {
     /** Fewest levels a stack has: the injection dependence needs two. */
     public static final int MIN_LEVELS = 2;
+    /**
+     * A level on the first level's grid whose placement moves no pixel by more than this many pixels is kept as
+     * measured, not resampled: bilinear resampling by a fraction of a pixel mixes each pixel with its neighbours
+     * (blurring sharp defect edges into mixed curves), while a placement that small is within what registration of
+     * noisy maps resolves (project choice).
+     */
+    public static final double SUBPIXEL_PX = 0.5;
     /** Relative difference below which two thicknesses or temperatures count as the same. */
     static final double SAME_VALUE_TOLERANCE = 1e-9;
 
@@ -158,12 +167,13 @@ public final class InjectionStack {
             }
         }
         List<StackLevel> levels = new ArrayList<>();
-        levels.add(new StackLevel(label(first, firstName), firstName, first, null));
+        levels.add(new StackLevel(label(first, firstName), firstName, first, null, false));
         for (int i = 1; i < maps.size(); i++) {
             WaferMap m = maps.get(i);
             String n = names.get(i);
             RegistrationReport report;
             WaferMap placed;
+            boolean resampled = false;
             if (options.register()) {
                 try {
                     report = MapRegistration.registerChecked(first, m, options.registration(),
@@ -172,7 +182,9 @@ public final class InjectionStack {
                     throw new InvalidValueException(e.field(), e.unit(), n + " cannot be registered onto "
                             + firstName + ": " + e.getMessage());
                 }
-                placed = MapRegistration.apply(first, m, report.registration());
+                resampled = !m.grid().equals(first.grid())
+                        || largestDisplacementPx(report.registration(), first.grid()) > SUBPIXEL_PX;
+                placed = resampled ? MapRegistration.apply(first, m, report.registration()) : m;
             } else {
                 if (m.width() != first.width() || m.height() != first.height()) {
                     throw new InvalidValueException("size", "px", n + " is " + m.width() + "x" + m.height()
@@ -182,9 +194,26 @@ public final class InjectionStack {
                 report = MapRegistration.unregistered(first, m);
                 placed = m;
             }
-            levels.add(new StackLevel(label(m, n), n, placed, report));
+            levels.add(new StackLevel(label(m, n), n, placed, report, resampled));
         }
         return new InjectionStack(levels);
+    }
+
+    /**
+     * The largest distance, in pixels of {@code grid}, by which {@code r} moves a corner of the grid (the largest
+     * over the raster, the placement being affine).
+     */
+    static double largestDisplacementPx(Registration r, PixelGrid grid) {
+        double most = 0;
+        for (double x : new double[] {0, grid.width() - 1}) {
+            for (double y : new double[] {0, grid.height() - 1}) {
+                double xm = grid.xMm(x);
+                double ym = grid.yMm(y);
+                double[] to = r.toAfterMm(xm, ym);
+                most = Math.max(most, Math.hypot(to[0] - xm, to[1] - ym));
+            }
+        }
+        return most / grid.pitchMm();
     }
 
     private static void checkLevel(WaferMap m, String name) {

@@ -10,8 +10,17 @@ import trapmap.maps.model.WaferMap;
  * @param source       the file (and page) the level was read from
  * @param map          the map placed onto the first level's grid (the first level as given)
  * @param registration how the map was placed (turn, mirror, shift in mm, score); null for the first level
+ * @param resampled    true when {@code map} was resampled through the registration; false when it is the map as
+ *                     read (the first level, maps taken as aligned, or a placement within
+ *                     {@link InjectionStack#SUBPIXEL_PX} pixels on the same grid)
  */
-public record StackLevel(String label, String source, WaferMap map, RegistrationReport registration) {
+public record StackLevel(String label, String source, WaferMap map, RegistrationReport registration,
+                         boolean resampled) {
+    /** A level as read (not resampled). */
+    public StackLevel(String label, String source, WaferMap map, RegistrationReport registration) {
+        this(label, source, map, registration, false);
+    }
+
     /** Shift of this level against the first, x then y, mm (0, 0 for the first level). */
     public double[] shiftMm() {
         return registration == null ? new double[] {0, 0}

@@ -108,6 +108,17 @@ class InjectionStackTest {
     }
 
     @Test
+    void displacementOfAPlacementIsMeasuredAtTheCorners() {
+        trapmap.maps.raster.PixelGrid g = trapmap.maps.raster.PixelGrid.centred(101, 101, 0.5);
+        assertThat(InjectionStack.largestDisplacementPx(trapmap.maps.compare.Registration.explicit(false, false, 0,
+                0.1, 0), g)).isCloseTo(0.2, within(1e-9));
+        // a turn of 0.1 degree moves the corners (35.36 mm from the centre) by the chord 2 r sin(θ/2)
+        double r = Math.hypot(25, 25);
+        assertThat(InjectionStack.largestDisplacementPx(trapmap.maps.compare.Registration.explicit(false, false, 0.1,
+                0, 0), g)).isCloseTo(2 * r * Math.sin(Math.toRadians(0.1) / 2) / 0.5, within(1e-9));
+    }
+
+    @Test
     void shiftedLevelIsRegisteredAndItsShiftReported() {
         List<WaferMap> maps = new ArrayList<>(SyntheticStack.maps(LEVELS, 0.01, 3));
         WaferMap m = maps.get(2);
@@ -127,6 +138,10 @@ class InjectionStackTest {
         assertThat(Math.abs(stack.level(2).shiftMm()[0])).isCloseTo(3 * SyntheticStack.PITCH_MM, within(0.3));
         assertThat(Math.abs(stack.level(2).shiftMm()[1])).isLessThan(0.3);
         assertThat(Math.abs(stack.level(1).shiftMm()[0])).isLessThan(0.3);
+        // the unshifted level is kept as measured; the shifted one is resampled
+        assertThat(stack.level(1).resampled()).isFalse();
+        assertThat(stack.level(1).map()).isSameAs(maps.get(1));
+        assertThat(stack.level(2).resampled()).isTrue();
         // placed back: the shifted level's pixel (24, 24) holds about its original value again
         float back = stack.level(2).map().raster().get(24, 24);
         assertThat((double) back).isCloseTo(s[24 * n + 24], within(0.05 * Math.abs(s[24 * n + 24])));
