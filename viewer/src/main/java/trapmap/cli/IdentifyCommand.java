@@ -114,6 +114,11 @@ final class IdentifyCommand implements Callable<Integer> {
         if (regionBelowUs != null && !(regionBelowUs > 0 && Double.isFinite(regionBelowUs))) {
             throw new InputException("--region-below-us must be a positive lifetime in µs, not " + regionBelowUs);
         }
+        if (conditions.injection != null || conditions.generation != null) {
+            throw new InputException((conditions.injection != null ? "--injection" : "--generation") + " would give"
+                    + " every level the same value; identify reads each level's injection_cm3 (cm^-3) or"
+                    + " generation_cm3_s (cm^-3 s^-1) from its sidecar or its page object of 'pages'");
+        }
         List<Defect> candidates = candidates();
         InjectionStack.Loaded loaded = InjectionStack.read(maps, ReadOptions.DEFAULTS, conditions.overrides());
         InjectionStack stack = InjectionStack.of(loaded, new InjectionStack.Options(!noRegistration,

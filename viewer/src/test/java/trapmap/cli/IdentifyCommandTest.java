@@ -127,7 +127,13 @@ class IdentifyCommandTest {
         Cli.Run same = Cli.run("identify", f.get(0), f.get(1), "--injection", "1e14", "-o",
                 dir.resolve("x.tif").toString());
         assertThat(same.code()).isEqualTo(2);
-        assertThat(same.err()).contains("injection_cm3").contains("must differ");
+        assertThat(same.err()).contains("--injection").contains("every level the same").contains("cm^-3");
+        Files.copy(Path.of(f.get(1)), dir.resolve("copy.tif"));
+        Cli.Run equal = Cli.run("identify", f.get(1), dir.resolve("copy.tif").toString(), "-o",
+                dir.resolve("x.tif").toString());
+        assertThat(equal.code()).isEqualTo(2);
+        assertThat(equal.errLines()).hasSize(1);
+        assertThat(equal.err()).contains("copy.tif").contains("injection_cm3").contains("must differ");
         Cli.Run doping = Cli.run("identify", f.get(0), f.get(1), "-o", dir.resolve("x.png").toString());
         assertThat(doping.code()).isEqualTo(2);
         assertThat(doping.err()).contains("--output must be a .tif");

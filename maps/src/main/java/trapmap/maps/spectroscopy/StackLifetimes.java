@@ -17,6 +17,7 @@ import trapmap.physics.defect.Defect;
 import trapmap.physics.material.Doping;
 import trapmap.physics.material.Silicon;
 import trapmap.shared.check.Checks;
+import trapmap.shared.error.InvalidValueException;
 
 /**
  * τ_SRH and Δn of every pixel at every level of an {@link InjectionStack}, from the map conversion
@@ -71,7 +72,13 @@ public final class StackLifetimes {
         List<Set<ConversionWarning>> warnings = new ArrayList<>();
         Set<Quantity> wanted = EnumSet.of(Quantity.SRH_LIFETIME, Quantity.INJECTION);
         for (int i = 0; i < n; i++) {
-            MapConversion.Result r = MapConversion.convert(stack.level(i).map(), defect, settings, wanted, threads);
+            MapConversion.Result r;
+            try {
+                r = MapConversion.convert(stack.level(i).map(), defect, settings, wanted, threads);
+            } catch (InvalidValueException e) {
+                throw new InvalidValueException(e.field(), e.unit(), stack.level(i).source() + ": "
+                        + e.getMessage());
+            }
             tau[i] = r.get(Quantity.SRH_LIFETIME).raster().samples();
             dn[i] = r.get(Quantity.INJECTION).raster().samples();
             warnings.add(r.warnings());

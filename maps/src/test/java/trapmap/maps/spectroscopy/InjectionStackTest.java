@@ -146,4 +146,16 @@ class InjectionStackTest {
         float back = stack.level(2).map().raster().get(24, 24);
         assertThat((double) back).isCloseTo(s[24 * n + 24], within(0.05 * Math.abs(s[24 * n + 24])));
     }
+
+    @Test
+    void aConditionTheConversionNeedsIsNamedWithTheLevelsFile() {
+        List<WaferMap> maps = new ArrayList<>();
+        for (WaferMap m : SyntheticStack.maps(LEVELS, 0.03, 4)) {
+            maps.add(m.withConditions(m.conditions().withThickness(null).withSrv(10.0)));
+        }
+        InjectionStack stack = InjectionStack.of(maps, SyntheticStack.names(3), ALIGNED);
+        assertThatThrownBy(() -> StackLifetimes.of(stack, trapmap.physics.defect.DefectLibrary.byId("fe-i"),
+                trapmap.maps.process.ConversionSettings.DEFAULTS, 1)).isInstanceOf(InvalidValueException.class)
+                .hasMessageContaining("level0.tif").hasMessageContaining("thickness").hasMessageContaining("um");
+    }
 }
