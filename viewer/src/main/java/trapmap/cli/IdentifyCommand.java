@@ -30,18 +30,22 @@ import trapmap.physics.spectroscopy.LifetimeCurve;
         usageHelpAutoWidth = true,
         header = "Suggests the defect behind each pixel and region from lifetime maps at several injection levels.",
         description = {
-            "MAP1 MAP2 [MAP3 ...] are lifetime (or PL) maps of one wafer at different injection levels, each sidecar",
-            "giving its injection_cm3 (or generation_cm3_s), or one multi-page file whose sidecar 'pages' objects",
-            "give them ({\"label\": \"1e13\", \"injection_cm3\": 1e13}). Every level is registered onto the first",
-            "(unless --no-registration), τ_SRH is taken per pixel with intrinsic and surface recombination removed,",
-            "and the library defects are ranked by the χ² of their one-parameter fit N_t (injection-dependent lifetime",
-            "spectroscopy; Rein, Lifetime Spectroscopy, Springer 2005): per pixel (or --block k), and per region",
-            "(connected areas where SRH dominates the first level and τ_SRH is below half its median), with the",
-            "defect parameter solution surface (DPSS) per region. No single defect: best p < 0.01.",
-            "Writes OUT (best-defect index, see the legend CSV) and beside it OUT-runner-up, -chi2, -chi2-ratio,",
-            "-status (" + IdentificationFiles.STATUS_CODES + "),",
-            "-nt (N_t of the best, cm^-3), -regions (.tif), -legend.csv, -regions.csv and with --json OUT.json.",
-            "A hint, not a proof: the ranking only knows the defects of the library.",
+            "MAP1 MAP2 [MAP3 ...] are lifetime (or PL) maps of one wafer at different injection levels, each sidecar"
+                    + " giving its injection_cm3 (or generation_cm3_s), or one multi-page file whose sidecar 'pages'"
+                    + " objects give them ({\"label\": \"1e13\", \"injection_cm3\": 1e13}). The condition flags"
+                    + " apply to every level; --injection and --generation are refused (each level has its own).",
+            "",
+            "Every level is registered onto the first (unless --no-registration), τ_SRH is taken per pixel with"
+                    + " intrinsic and surface recombination removed, and the library defects are ranked by the χ² of"
+                    + " their one-parameter fit N_t (injection-dependent lifetime spectroscopy; Rein, Lifetime"
+                    + " Spectroscopy, Springer 2005): per pixel (or --block k), and per region (connected areas where"
+                    + " SRH dominates the first level and τ_SRH is below half its median), with the defect parameter"
+                    + " solution surface (DPSS) per region. No single defect: best p < 0.01.",
+            "",
+            "Writes OUT (best-defect index, see the legend CSV) and beside it OUT-runner-up, -chi2, -chi2-ratio,"
+                    + " -status (" + IdentificationFiles.STATUS_CODES + "), -nt (N_t of the best, cm^-3), -regions"
+                    + " (.tif), -legend.csv, -regions.csv and with --json OUT.json. A hint, not a proof: the ranking"
+                    + " only knows the defects of the library.",
             ""},
         footer = {"", Help.EXIT_CODES_OUTPUT})
 final class IdentifyCommand implements Callable<Integer> {
