@@ -27,8 +27,8 @@ import trapmap.shared.error.InvalidValueException;
  * and thread-safe, so that the viewer's readout ({@link #probabilityAt}, {@link #quantileAt}) and the whole-map passes
  * share one instance.
  * <p>
- * Every pixel is computed on its own from the prepared samples (probability: one binary search among the sorted
- * threshold lifetimes; quantile: {@link QuantileTable} over the map's lifetime range, exact), so a map made on any
+ * Every pixel is computed on its own from the prepared samples (probability: the model's count of threshold lifetimes
+ * above the pixel's, found through a bucket table of the float lifetimes, {@code ProbabilityLookup}; quantile: {@link QuantileTable} over the map's lifetime range, exact), so a map made on any
  * number of threads equals the one-thread map, value for value. A PL-counts map is first turned into lifetimes by its
  * calibration ({@link MapConversion#lifetimeFromPl}). Pixels the conversion does not convert (NaN, ≤ 0, infinite,
  * below {@link TrapDensityConverter#LIFETIME_FLOOR_US}) are NaN.
@@ -42,6 +42,7 @@ public final class ExceedanceMaps {
     private static final int ROWS_PER_TASK = 8;
 
     private final ExceedanceModel model;
+    private final ProbabilityLookup lookup;
     private final String defectId;
     private final ConditionUncertainty uncertainty;
     private final long seed;
@@ -50,6 +51,7 @@ public final class ExceedanceMaps {
     private ExceedanceMaps(ExceedanceModel model, String defectId, ConditionUncertainty uncertainty, long seed,
                            ProcessingStep step) {
         this.model = model;
+        this.lookup = new ProbabilityLookup(model.thresholdLifetimesUs());
         this.defectId = defectId;
         this.uncertainty = uncertainty;
         this.seed = seed;
@@ -159,7 +161,7 @@ public final class ExceedanceMaps {
         float[] out = new float[tau.length];
         byRows(tau, lifetime.width(), threads, (from, to) -> {
             for (int i = from; i < to; i++) {
-                out[i] = (float) model.probability(tau[i]);
+                out[i] = lookup.probabilityAsFloat(tau[i]);
             }
         });
         return lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), out),
