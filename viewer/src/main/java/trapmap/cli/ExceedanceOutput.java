@@ -76,14 +76,15 @@ final class ExceedanceOutput {
         ConversionSettings settings = c.conditions.settings();
         // N* of a quantile map only sets each sample's threshold lifetime, which the quantile does not read
         double nStar = probability ? c.threshold : 1;
-        ExceedanceMaps maps;
+        int threads = Runtime.getRuntime().availableProcessors();
+        WaferMap out;
         try {
-            maps = ExceedanceMaps.prepare(map, d, settings, u.uncertainty(), nStar, u.samples(), u.seed());
+            ExceedanceMaps maps = ExceedanceMaps.prepare(map, d, settings, u.uncertainty(), nStar, u.samples(),
+                    u.seed());
+            out = probability ? maps.probabilityMap(map, threads) : maps.quantileMap(map, q, threads);
         } catch (InvalidValueException e) {
             throw new InputException(c.input + ": " + e.getMessage(), e);
         }
-        int threads = Runtime.getRuntime().availableProcessors();
-        WaferMap out = probability ? maps.probabilityMap(map, threads) : maps.quantileMap(map, q, threads);
         MapInput.write(out, c.output);
         report(out, d, u, probability ? Double.NaN : q);
         return Exit.OK;

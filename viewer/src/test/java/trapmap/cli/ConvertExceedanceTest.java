@@ -99,6 +99,24 @@ class ConvertExceedanceTest {
     }
 
     @Test
+    void aFixedGenerationRateGivesProbabilitiesButNoQuantiles() throws Exception {
+        Path in = lifetimeMap(CONDITIONS);
+        Path out = dir.resolve("g.tif");
+        JsonNode s = Cli.json("convert", in.toString(), "--defect", "fe-i", "--quantity", "exceedance-probability",
+                "--threshold", "1e11", "--generation", "1e19", "--samples", "1000", "-o", out.toString(), "--json");
+        assertThat(s.get("pixels_valid").asInt()).isEqualTo(39);
+        MeasurementConditions g = CONDITIONS.withInjection(null).withGeneration(1e19);
+        ExceedanceMaps ref = ExceedanceMaps.prepare(g, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS,
+                ConditionUncertainty.DEFAULTS, 1e11, 1000, 1);
+        assertThat(MapFiles.readSingle(out).raster().samples())
+                .containsExactly(ref.probabilityMap(MapFiles.readSingle(in).withConditions(g), 1).raster().samples());
+        Cli.Run r = Cli.run("convert", in.toString(), "--defect", "fe-i", "--quantity", "density-quantile",
+                "--generation", "1e19", "-o", dir.resolve("q.tif").toString());
+        assertThat(r.code()).isNotZero();
+        assertThat(r.err()).contains("density quantiles under a fixed generation rate are not supported");
+    }
+
+    @Test
     void badRequestsAreRefusedWithTheFlagNamed() throws Exception {
         Path in = lifetimeMap(CONDITIONS);
         String out = dir.resolve("x.tif").toString();

@@ -178,6 +178,25 @@ class ExceedanceMapsTest {
         assertThat(between).as("pixels inside the uncertain band").isGreaterThanOrEqualTo(3);
     }
 
+    /** Under a fixed generation rate the map is the physics model's too; quantile maps are refused with the reason. */
+    @Test
+    void fixedGenerationGivesTheModelsProbabilitiesAndRefusesQuantiles() {
+        MeasurementConditions g = CONDITIONS.withInjection(null).withGeneration(1e19);
+        ExceedanceMaps m = ExceedanceMaps.prepare(g, FE_I, ConversionSettings.DEFAULTS, ConditionUncertainty.DEFAULTS,
+                THRESHOLD, 2000, 4);
+        ExceedanceModel physics = ExceedanceModel.prepare(MapConversion.physicsConditions(g,
+                ConversionSettings.DEFAULTS), FE_I, ConversionSettings.DEFAULTS.physics(), ConditionUncertainty.DEFAULTS,
+                THRESHOLD, 2000, 4);
+        WaferMap map = lifetimeMap(40, 20, 9).withConditions(g);
+        float[] tau = map.raster().samples();
+        float[] p = m.probabilityMap(map, 3).raster().samples();
+        for (int i = 0; i < tau.length; i++) {
+            assertThat(Float.valueOf(p[i])).as("pixel %d", i).isEqualTo(Float.valueOf((float) physics.probability(tau[i])));
+        }
+        assertThatThrownBy(() -> m.quantileMap(map, 0.95, 1)).isInstanceOf(InvalidValueException.class)
+                .hasMessageContaining("fixed generation");
+    }
+
     @Test
     void refusesOtherQuantitiesAndBadLevels() {
         WaferMap map = lifetimeMap(4, 4, 1);
