@@ -241,8 +241,8 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
      * @param belowLimit what the profile's trap-density flag and figures do with pixels below the detection limit
      * @param confidence  for a trap-density flag, flag the pixels whose probability of exceeding the threshold is at
      *                    least this (0 &lt; c ≤ 1), over the uncertainties of {@code uncertainty}
-     *                    ({@link trapmap.maps.process.ExceedanceMaps}); NaN: flag the nominal density (rules key
-     *                    {@code "confidence"})
+     *                    ({@link trapmap.maps.process.ExceedanceMaps}); 0: none, flag the nominal density (rules
+     *                    key {@code "confidence"})
      * @param uncertainty what the probability is drawn with (the rules' {@code physics.uncertainty} block)
      */
     public record Flag(FlagQuantity quantity, double threshold, double minAreaMm2, BelowLimit belowLimit,
@@ -250,15 +250,14 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         public Flag {
             Objects.requireNonNull(belowLimit, "belowLimit");
             Objects.requireNonNull(uncertainty, "uncertainty");
-            if (!Double.isNaN(confidence) && (quantity != FlagQuantity.TRAP_DENSITY
-                    || !(confidence > 0 && confidence <= 1))) {
+            if (confidence != 0 && (quantity != FlagQuantity.TRAP_DENSITY || !(confidence > 0 && confidence <= 1))) {
                 throw new IllegalArgumentException("a flag confidence needs a trap-density flag and lies in (0, 1]");
             }
         }
 
         /** A flag of the nominal value (no confidence). */
         public Flag(FlagQuantity quantity, double threshold, double minAreaMm2, BelowLimit belowLimit) {
-            this(quantity, threshold, minAreaMm2, belowLimit, Double.NaN, UncertaintySettings.DEFAULTS);
+            this(quantity, threshold, minAreaMm2, belowLimit, 0, UncertaintySettings.DEFAULTS);
         }
 
         /** A flag that leaves pixels below the detection limit out ({@link BelowLimit#EXCLUDE}). */
@@ -266,9 +265,17 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
             this(quantity, threshold, minAreaMm2, BelowLimit.EXCLUDE);
         }
 
+        /**
+         * The unit of the values of the flagged regions (their peak and mean): the flag's, or "us" for a flag with a
+         * confidence, whose regions are found on the lifetimes.
+         */
+        public String regionUnit() {
+            return confident() ? FlagQuantity.LIFETIME.unit() : quantity.unit();
+        }
+
         /** True when the flag judges the probability of exceeding its threshold, not the nominal density. */
         public boolean confident() {
-            return !Double.isNaN(confidence);
+            return confidence > 0;
         }
 
         /**
@@ -772,7 +779,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                             "");
                 };
             }
-            double confidence = Double.NaN;
+            double confidence = 0;
             if (n.has("confidence")) {
                 if (quantity != FlagQuantity.TRAP_DENSITY) {
                     throw error(path + ".confidence", "needs a trap-density flag (the probability that the trap"

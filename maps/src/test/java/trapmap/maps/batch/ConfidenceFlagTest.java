@@ -87,7 +87,7 @@ class ConfidenceFlagTest {
         assertThat(r.flag().confident()).isFalse();
         assertThat(r.flag().uncertainty().samples()).isEqualTo(4000);
         assertThat(r.flag()).isEqualTo(new Rules.Flag(Rules.FlagQuantity.TRAP_DENSITY, 1e11, 0,
-                Rules.BelowLimit.EXCLUDE, Double.NaN, r.flag().uncertainty()));
+                Rules.BelowLimit.EXCLUDE, 0, r.flag().uncertainty()));
     }
 
     @Test
