@@ -5,6 +5,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.concurrent.atomic.AtomicReference;
+import trapmap.maps.io.UncertaintySettings;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Quantity;
@@ -34,10 +35,10 @@ import trapmap.shared.error.InvalidValueException;
  * below {@link TrapDensityConverter#LIFETIME_FLOOR_US}) are NaN.
  */
 public final class ExceedanceMaps {
-    /** Samples when none are given: probability steps of 1e-4, quantiles within a few per cent of their limit. */
-    public static final int DEFAULT_SAMPLES = 10_000;
-    /** Seed when none is given. */
-    public static final long DEFAULT_SEED = 1;
+    /** Samples when none are given ({@link UncertaintySettings#DEFAULT_SAMPLES}): probability steps of 1e-4. */
+    public static final int DEFAULT_SAMPLES = UncertaintySettings.DEFAULT_SAMPLES;
+    /** Seed when none is given ({@link UncertaintySettings#DEFAULT_SEED}). */
+    public static final long DEFAULT_SEED = UncertaintySettings.DEFAULT_SEED;
     /** Rows a thread takes at a time. */
     private static final int ROWS_PER_TASK = 8;
 
@@ -95,8 +96,20 @@ public final class ExceedanceMaps {
         return new ExceedanceMaps(model, defect.id(), uncertainty, seed, new ProcessingStep("exceedance", p));
     }
 
-    /** {@link #prepare(MeasurementConditions, Defect, ConversionSettings, ConditionUncertainty, double, int, long)}
-     *  with the conditions of {@code map}. */
+    /**
+     * {@link #prepare(MeasurementConditions, Defect, ConversionSettings, ConditionUncertainty, double, int, long)}
+     * with the uncertainties, samples and seed of {@code u} (a physics settings file's or rules' block).
+     */
+    public static ExceedanceMaps prepare(MeasurementConditions conditions, Defect defect, ConversionSettings settings,
+                                         UncertaintySettings u, double thresholdPerCm3) {
+        Checks.notNull(u, "uncertainty settings");
+        return prepare(conditions, defect, settings, u.uncertainty(), thresholdPerCm3, u.samples(), u.seed());
+    }
+
+    /**
+     * {@link #prepare(MeasurementConditions, Defect, ConversionSettings, ConditionUncertainty, double, int, long)}
+     * with the conditions of {@code map}.
+     */
     public static ExceedanceMaps prepare(WaferMap map, Defect defect, ConversionSettings settings,
                                          ConditionUncertainty uncertainty, double thresholdPerCm3, int samples,
                                          long seed) {

@@ -198,6 +198,15 @@ class ExceedanceMapsTest {
     }
 
     @Test
+    void theUncertaintySettingsOverloadDrawsTheSameSamples() {
+        ExceedanceMaps same = ExceedanceMaps.prepare(CONDITIONS, FE_I, ConversionSettings.DEFAULTS,
+                trapmap.maps.io.UncertaintySettings.DEFAULTS, THRESHOLD);
+        assertThat(same.samples()).isEqualTo(ExceedanceMaps.DEFAULT_SAMPLES).isEqualTo(10_000);
+        assertThat(same.seed()).isEqualTo(1);
+        assertThat(same.model().thresholdLifetimesUs()).containsExactly(maps.model().thresholdLifetimesUs());
+    }
+
+    @Test
     void refusesOtherQuantitiesAndBadLevels() {
         WaferMap map = lifetimeMap(4, 4, 1);
         WaferMap density = map.derive(map.raster(), Quantity.TRAP_DENSITY, trapmap.maps.model.ProcessingStep.of("test"));
