@@ -53,7 +53,10 @@ final class Flags {
             entry("--min-area-mm2", "an area in mm²"),
             entry("--edge-exclusion-mm", "a width in mm"),
             entry("--wafer", "a wafer format id (round-150-flat, m10, ...)"),
-            entry("--flag", "above or below"));
+            entry("--flag", "above or below"),
+            entry("--quantile", "a quantile level q between 0 and 1, no unit"),
+            entry("--samples", "a number of Monte Carlo samples, 16-4194304"),
+            entry("--seed", "a whole number, the seed of the draws"));
 
     /** What a flag expects where one command reads it differently, by command name (without "trapmap "). */
     private static final Map<String, String> EXPECTED_IN = Map.ofEntries(

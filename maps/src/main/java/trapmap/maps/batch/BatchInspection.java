@@ -1144,7 +1144,8 @@ public final class BatchInspection {
     }
 
     /**
-     * Writes {@value #JSON_NAME}: the summary, the physics settings and one object per row. The wafers' objects are
+     * Writes {@value #JSON_NAME}: the summary, the physics settings, the flags with a confidence (by profile: the flag
+     * in words, the confidence, the uncertainty settings; only when some profile has one) and one object per row. The wafers' objects are
      * taken from {@code wafersJson} (formatted by the workers, {@link #waferJson}) or formatted now; the file is the
      * one {@link #jsonTree} would give written whole by the same writer ({@code BatchJsonTest} compares them).
      */
@@ -1191,6 +1192,21 @@ public final class BatchInspection {
         sum.put("yield_fraction", Double.isNaN(s.yield()) ? null : s.yield());
         root.put("summary", sum);
         root.put("physics", trapmap.maps.io.PhysicsSettingsFile.toJson(rules.physics()));
+        Map<String, Object> confident = new LinkedHashMap<>();
+        for (Rules.Profile p : rules.allProfiles()) {
+            Rules.Flag f = p.flag();
+            if (f.confident()) {
+                Map<String, Object> c = new LinkedHashMap<>();
+                c.put("flag", f.describe());
+                c.put("confidence", f.confidence());
+                c.put("uncertainty", f.uncertainty().toJson());
+                confident.put(p.name(), c);
+            }
+        }
+        if (!confident.isEmpty()) {
+            // only with a flag confidence, so that other runs' files stay as they were
+            root.put("flag_confidence", confident);
+        }
         root.put("wafers", wafers);
         return root;
     }

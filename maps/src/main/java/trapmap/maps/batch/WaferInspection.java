@@ -16,6 +16,7 @@ import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.ConversionSettings;
+import trapmap.maps.process.ExceedanceMaps;
 import trapmap.maps.process.MapConversion;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.PixelGrid;
@@ -150,11 +151,21 @@ public final class WaferInspection {
      * trap-density map at the evaluated pixels (NaN elsewhere; null when the profile needs none), the wafer outline
      * (null when none was fitted), the evaluated pixels (index y·width + x), the flagged regions with their pixels,
      * the rules profile that judged the wafer, the defect of its trap densities (null when none was used) and the
-     * unusable share of the evaluated area with its causes (the figure {@code invalid_area_fraction}).
+     * unusable share of the evaluated area with its causes (the figure {@code invalid_area_fraction}) and the criteria
+     * the regions were found with (the flag's, or for a flag with a confidence the lifetime limit of
+     * {@link ConfidenceFlag}).
      */
     public record Evaluation(WaferResult result, WaferMap lifetime, WaferMap density, WaferShape shape,
                              boolean[] evaluated, FlaggedRegions regions, Rules.Profile profile, Defect defect,
-                             InvalidArea invalid) {
+                             InvalidArea invalid, RegionCriteria criteria) {
+        /** As the canonical constructor, the regions found with the profile flag's own criteria. */
+        public Evaluation(WaferResult result, WaferMap lifetime, WaferMap density, WaferShape shape,
+                          boolean[] evaluated, FlaggedRegions regions, Rules.Profile profile, Defect defect,
+                          InvalidArea invalid) {
+            this(result, lifetime, density, shape, evaluated, regions, profile, defect, invalid,
+                    profile.flag().criteria());
+        }
+
         /** True when the defect is not the profile's own (a per-wafer or viewer-wide override). */
         public boolean defectOverridden() {
             return defect != null && !defect.id().equals(profile.defectId());
@@ -243,6 +254,15 @@ public final class WaferInspection {
         Rules.Flag flag = profile.flag();
         float[] flagValues = flag.quantity() == Rules.FlagQuantity.LIFETIME ? lifeValues : judged;
         RegionCriteria criteria = flag.criteria();
+        ExceedanceMaps exceedance = flag.confident() || figures.stream().anyMatch(
+                f -> f.kind() == Figure.Kind.EXCEEDANCE_AREA_FRACTION)
+                ? ConfidenceFlag.prepare(flag, lifetime.conditions(), defect, settings) : null;
+        if (flag.confident()) {
+            // P(N_t > N*) >= c exactly below one lifetime per wafer: the flag reads the lifetimes
+            double limit = exceedance.confidentLifetimeUs(flag.confidence());
+            flagValues = ConfidenceFlag.flaggable(lifeValues, count);
+            criteria = ConfidenceFlag.criteria(flag, limit);
+        }
         FlaggedRegions regions = FlaggedRegions.findPacked(flagValues, judged, grid, masks.indices(), count, criteria,
                 shape, rules.edgeExclusionMm(), buffers);
 
@@ -272,6 +292,8 @@ public final class WaferInspection {
                 case EDGE_TO_CENTRE_RATIO -> Masks.edgeToCentre(tau, masks);
                 case BELOW_LIMIT_AREA_FRACTION -> belowLimitFraction;
                 case INVALID_AREA_FRACTION -> invalid.fraction();
+                case EXCEEDANCE_AREA_FRACTION -> count == 0 ? Double.NaN : (double) ConfidenceFlag.countFlagged(
+                        lifeValues, count, exceedance.confidentLifetimeUs(f.percent() / 100)) / count;
             };
             values.put(f.name(), v);
         }
@@ -299,7 +321,8 @@ public final class WaferInspection {
                 : WaferResult.Status.FAIL, grade, profile.name(), defect == null ? null : defect.id(), values, failed,
                 missed, regions.regions(), "", footprint, WaferResult.Worst.behind(failedFigures, worst, interior));
         boolean[] evaluated = keep ? masks.evaluated() : null;
-        return new Evaluation(result, lifetime, density, shape, evaluated, regions, profile, defect, invalid);
+        return new Evaluation(result, lifetime, density, shape, evaluated, regions, profile, defect, invalid,
+                criteria);
     }
 
     /**

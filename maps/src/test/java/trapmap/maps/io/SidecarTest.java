@@ -109,7 +109,7 @@ class SidecarTest {
         "{\"offset\": [1]}                        | field 'offset': must be a number but is an array ([1])",
         "{\"no_data\": null, \"unit\": 5}         | field 'unit': must be a text but is a number (5)",
         "{\"wafer_id\": {}}                       | field 'wafer_id': must be a text but is an object ({})",
-        "{\"quantity\": \"lifetime\"}             | field 'quantity': unknown quantity 'lifetime' (known: effective-lifetime, pl-counts, injection, trap-density, density-min, density-max, occupancy, srh-lifetime, lifetime-at-reference, defect-index, chi-squared, identification-status, region, iron-density, normalised-density, status, difference, ratio, relative-change, fraction, unknown)",
+        "{\"quantity\": \"lifetime\"}             | field 'quantity': unknown quantity 'lifetime' (known: effective-lifetime, pl-counts, injection, trap-density, density-min, density-max, occupancy, srh-lifetime, lifetime-at-reference, defect-index, chi-squared, identification-status, region, iron-density, normalised-density, status, difference, ratio, relative-change, fraction, exceedance-probability, density-quantile, unknown)",
         "{\"pages\": \"before\"}                  | field 'pages': must be an array of page labels but is a text",
         "{\"pages\": [\"a\", 2]}                  | field 'pages[1]': must be a text (a label) or an object with a label and condition fields but is a number",
         "{\"conditions\": []}                     | field 'conditions': must be an object but is an array",

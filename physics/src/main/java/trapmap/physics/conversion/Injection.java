@@ -25,8 +25,14 @@ public sealed interface Injection permits Injection.Fixed, Injection.Generation 
 
     /** A uniform steady-state generation rate G; each pixel has Δn = G·τ_eff. */
     record Generation(double ratePerCm3PerS) implements Injection {
+        /** Smallest generation rate accepted, cm^-3 s^-1. */
+        public static final double MIN_RATE_PER_CM3_PER_S = 1e10;
+        /** Largest generation rate accepted, cm^-3 s^-1. */
+        public static final double MAX_RATE_PER_CM3_PER_S = 1e24;
+
         public Generation {
-            Checks.inRange(ratePerCm3PerS, 1e10, 1e24, "generation", "cm^-3 s^-1");
+            Checks.inRange(ratePerCm3PerS, MIN_RATE_PER_CM3_PER_S, MAX_RATE_PER_CM3_PER_S, "generation",
+                    "cm^-3 s^-1");
         }
 
         /** The generated record text, written out (see {@link Surface#toString()}). */

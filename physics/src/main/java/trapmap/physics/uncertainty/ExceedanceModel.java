@@ -8,6 +8,7 @@ import trapmap.physics.conversion.PhysicsSettings;
 import trapmap.physics.conversion.TrapDensityConverter;
 import trapmap.physics.defect.Defect;
 import trapmap.shared.check.Checks;
+import trapmap.shared.error.InvalidValueException;
 import trapmap.shared.units.Units;
 
 /**
@@ -41,8 +42,12 @@ import trapmap.shared.units.Units;
  * of the samples per pixel.
  * <p>
  * For N* at or above every sample's detection limit K_s·δ·r0_s the two agree exactly: probability(τ) > 1 − q
- * exactly when quantile(τ, q) > N* (up to rounding at ties). Fixed generation (Δn = G·τ_eff, so no single threshold
- * per sample) is refused. Measured lifetimes that the conversion does not convert (not finite, or below
+ * exactly when quantile(τ, q) > N* (up to rounding at ties).
+ * <p>
+ * Under a fixed generation rate G (Δn = G·τ per pixel) each sample's threshold lifetime τ*_s is the root of
+ * N_s(τ, G_s·τ) = N*, solved and checked for monotony by {@link GenerationThreshold} (the injection uncertainty then
+ * applies to G); probabilities are then the same one binary search per pixel, and density quantiles are refused.
+ * Measured lifetimes that the conversion does not convert (not finite, or below
  * {@link TrapDensityConverter#LIFETIME_FLOOR_US}) give NaN.
  */
 public final class ExceedanceModel {
@@ -59,9 +64,12 @@ public final class ExceedanceModel {
     private final double[] baseRate;
     private final double[] detectableRate;
     private final double[] lifetimeFactor;
+    /** True under a fixed generation rate: thresholds only, no quantiles. */
+    private final boolean generation;
 
-    private ExceedanceModel(double thresholdPerCm3, int samples) {
+    private ExceedanceModel(double thresholdPerCm3, int samples, boolean generation) {
         this.thresholdPerCm3 = thresholdPerCm3;
+        this.generation = generation;
         this.sortedThresholdsUs = new double[samples];
         this.k = new double[samples];
         this.baseRate = new double[samples];
@@ -72,15 +80,16 @@ public final class ExceedanceModel {
     /**
      * Draws {@code samples} wafers from {@code seed} and prepares the sorted threshold lifetimes.
      *
-     * @param nominal         the nominal conditions (fixed injection only)
+     * @param nominal         the nominal conditions (a fixed injection or a fixed generation rate)
      * @param defect          the defect, with its parameter spread (none: nominal parameters)
      * @param settings        the models for band parameters at a drawn temperature
      * @param uncertainty     condition and lifetime uncertainties
      * @param thresholdPerCm3 the threshold N*, cm⁻³ (> 0)
      * @param samples         number of Monte Carlo samples S ({@value #MIN_SAMPLES} – 4194304)
      * @param seed            seed of the draws
-     * @throws trapmap.shared.error.InvalidValueException for a fixed generation rate, a defect without absolute
-     *                                                    cross-sections, or a value out of range
+     * @throws trapmap.shared.error.InvalidValueException for a defect without absolute cross-sections, a value out
+     *                                                    of range, or a generation rate under which a sample's
+     *                                                    exceedance is not one lifetime threshold
      */
     public static ExceedanceModel prepare(Conditions nominal, Defect defect, PhysicsSettings settings,
                                           ConditionUncertainty uncertainty, double thresholdPerCm3, int samples,
@@ -89,10 +98,22 @@ public final class ExceedanceModel {
         Checks.finite(thresholdPerCm3, "threshold", "cm^-3");
         Checks.inRange(samples, MIN_SAMPLES, MAX_SAMPLES, "samples", "");
         UncertaintySampler sampler = new UncertaintySampler(nominal, defect, settings, uncertainty, seed);
-        ExceedanceModel m = new ExceedanceModel(thresholdPerCm3, samples);
+        boolean generation = nominal.injection() instanceof Injection.Generation;
+        ExceedanceModel m = new ExceedanceModel(thresholdPerCm3, samples, generation);
         for (int s = 0; s < samples; s++) {
             UncertaintySampler.Sample draw = sampler.next();
             TrapDensityConverter conv = new TrapDensityConverter(draw.conditions(), draw.defect());
+            if (generation) {
+                m.k[s] = Double.NaN;
+                m.baseRate[s] = Double.NaN;
+                m.detectableRate[s] = Double.NaN;
+                m.lifetimeFactor[s] = draw.lifetimeFactor();
+                m.sortedThresholdsUs[s] = GenerationThreshold.lifetimeUs(conv,
+                        ((Injection.Generation) draw.conditions().injection()).ratePerCm3PerS(),
+                        Units.US_PER_S / conv.surfaceLifetimeUs(), draw.conditions().detectionResolution(),
+                        thresholdPerCm3, draw.lifetimeFactor());
+                continue;
+            }
             double dn = ((Injection.Fixed) draw.conditions().injection()).excessPerCm3();
             double ks = conv.srh().lifetimeDensityProductSCm3(dn);
             double r0 = conv.intrinsic().rateConstantPerS(dn) + Units.US_PER_S / conv.surfaceLifetimeUs();
@@ -171,6 +192,11 @@ public final class ExceedanceModel {
     /** The 0-based index of the q quantile among the S ascending densities: ⌈qS⌉ − 1 (definition 1). */
     int rankIndex(double q) {
         checkQuantile(q);
+        if (generation) {
+            throw new InvalidValueException("generation", "cm^-3 s^-1", "density quantiles under a fixed generation"
+                    + " rate are not supported (each sample's density would need its own conversion per pixel);"
+                    + " the exceedance probability is: give an injection level (cm^-3) for quantiles");
+        }
         return Math.max(0, Math.min(k.length - 1, (int) Math.ceil(q * k.length) - 1));
     }
 
@@ -228,6 +254,11 @@ public final class ExceedanceModel {
     /** The threshold N*, cm⁻³. */
     public double thresholdPerCm3() {
         return thresholdPerCm3;
+    }
+
+    /** True when the model was prepared under a fixed generation rate (probabilities only, no quantiles). */
+    public boolean fixedGeneration() {
+        return generation;
     }
 
     /** Number of samples S. */

@@ -25,12 +25,12 @@ import trapmap.shared.error.InvalidValueException;
  * (Jeffreys' scale-invariant prior for a positive scale parameter; Jeffreys, Theory of Probability, 1961).</li>
  * <li>A defect without a spread keeps its nominal parameters.</li>
  * <li>Conditions and lifetime noise: as stated in {@link ConditionUncertainty}. A draw outside a model's accepted
- * range is clamped to it (the limits of {@link Doping}, {@link Surface}, {@link Injection.Fixed} and
- * {@link Silicon}: doping 1e10–1e19 cm⁻³, thickness 1–5000 µm, SRV ≤ 1e7 cm/s, Δn 1e6–1e19 cm⁻³, temperature
- * 77–500 K); this is only reached when the nominal value lies within a few uncertainties of a limit.</li>
+ * range is clamped to it (the limits of {@link Doping}, {@link Surface}, {@link Injection.Fixed},
+ * {@link Injection.Generation} and {@link Silicon}: doping 1e10–1e19 cm⁻³, thickness 1–5000 µm, SRV ≤ 1e7 cm/s,
+ * Δn 1e6–1e19 cm⁻³, G 1e10–1e24 cm⁻³ s⁻¹, temperature 77–500 K); this is only reached when the nominal value lies within a few uncertainties of a limit.</li>
  * </ul>
  * Every sample draws the same nine numbers in the same order (E_t, σ_n, σ_p, temperature, doping, thickness, SRV,
- * Δn, lifetime noise), whether or not a quantity is uncertain, so changing one uncertainty does not reshuffle the
+ * Δn or G, lifetime noise), whether or not a quantity is uncertain, so changing one uncertainty does not reshuffle the
  * others. With a temperature uncertainty the band parameters are recomputed at the drawn temperature with the models
  * of the given {@link PhysicsSettings}; without one the nominal {@link Silicon} is kept as it is (with one, the nominal silicon must be the settings' own at
 the nominal temperature, so that a draw at that temperature changes nothing). Not thread-safe
@@ -49,8 +49,7 @@ public final class UncertaintySampler {
     }
 
     /**
-     * @throws InvalidValueException when the injection is a fixed generation rate (Δn would depend on τ_eff), or
-     *                               the defect has no absolute cross-sections
+     * @throws InvalidValueException when the defect has no absolute cross-sections
      */
     public UncertaintySampler(Conditions nominal, Defect defect, PhysicsSettings settings,
                               ConditionUncertainty uncertainty, long seed) {
@@ -58,7 +57,6 @@ public final class UncertaintySampler {
         this.defect = Checks.notNull(defect, "defect");
         this.settings = Checks.notNull(settings, "settings");
         this.uncertainty = Checks.notNull(uncertainty, "uncertainty");
-        requireFixedInjection(nominal);
         defect.requireAbsoluteCrossSections();
         if (uncertainty.temperatureK() > 0
                 && !settings.silicon(nominal.silicon().temperatureK()).equals(nominal.silicon())) {
@@ -68,15 +66,6 @@ public final class UncertaintySampler {
                     + " settings' silicon");
         }
         this.random = new Well19937c(seed);
-    }
-
-    /** Refuses a fixed generation rate: with Δn = G·τ_eff the threshold is not one lifetime per sample. */
-    static void requireFixedInjection(Conditions c) {
-        if (!(c.injection() instanceof Injection.Fixed)) {
-            throw new InvalidValueException("injection", "cm^-3", "the exceedance probability needs a fixed excess"
-                    + " carrier density (injection, cm^-3); a fixed generation rate (Delta n = G*tau_eff) is not"
-                    + " supported: convert the lifetimes at a fixed injection level instead");
-        }
     }
 
     /** The next sample. */
@@ -118,10 +107,17 @@ public final class UncertaintySampler {
                             Surface.MAX_SRV_CM_PER_S),
                     surface.model());
         }
-        double dn = ((Injection.Fixed) nominal.injection()).excessPerCm3();
-        dn = clamp(logNormal(dn, uncertainty.injectionRelative(), zInjection), Injection.Fixed.MIN_EXCESS_PER_CM3,
-                Injection.Fixed.MAX_EXCESS_PER_CM3);
-        Conditions c = new Conditions(doping, silicon, new Injection.Fixed(dn), surface, nominal.radiativeCm3PerS(),
+        Injection injection;
+        if (nominal.injection() instanceof Injection.Fixed f) {
+            injection = new Injection.Fixed(clamp(logNormal(f.excessPerCm3(), uncertainty.injectionRelative(),
+                    zInjection), Injection.Fixed.MIN_EXCESS_PER_CM3, Injection.Fixed.MAX_EXCESS_PER_CM3));
+        } else {
+            // a fixed generation rate: the injection uncertainty is that of G (the same photon-flux calibration)
+            injection = new Injection.Generation(clamp(logNormal(((Injection.Generation) nominal.injection())
+                    .ratePerCm3PerS(), uncertainty.injectionRelative(), zInjection),
+                    Injection.Generation.MIN_RATE_PER_CM3_PER_S, Injection.Generation.MAX_RATE_PER_CM3_PER_S));
+        }
+        Conditions c = new Conditions(doping, silicon, injection, surface, nominal.radiativeCm3PerS(),
                 nominal.detectionResolution(), nominal.referenceInjectionPerCm3());
         double factor = Math.exp(uncertainty.lifetimeRelative() * zLifetime);
         return new Sample(c, d, factor);

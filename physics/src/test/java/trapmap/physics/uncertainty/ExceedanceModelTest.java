@@ -304,12 +304,61 @@ class ExceedanceModelTest {
         assertThatThrownBy(() -> feModel.quantile(100f, 1.0)).hasMessageContaining("(0, 1)");
     }
 
+    /**
+     * Fixed generation (Δn = G·τ per pixel): with the model's own samples, converting every pixel with every sample
+     * through {@link TrapDensityConverter} under the drawn G counts the same exceedances as the solved threshold
+     * lifetimes (a tie at the root aside: at most one sample), and a fresh brute force agrees within 0.01.
+     */
     @Test
-    void fixedGenerationIsRefusedWithTheReason() {
+    void fixedGenerationThresholdsCountWhatTheConverterCounts() {
         Conditions generation = WAFER.withInjection(new Injection.Generation(1e19));
-        assertThatThrownBy(() -> ExceedanceModel.prepare(generation, FE_I, SETTINGS, ConditionUncertainty.DEFAULTS,
-                1e11, 100, 1)).isInstanceOf(InvalidValueException.class)
-                .hasMessageContaining("fixed excess carrier density").hasMessageContaining("generation rate");
+        int n = 4000;
+        ExceedanceModel m = ExceedanceModel.prepare(generation, FE_I, SETTINGS, ConditionUncertainty.DEFAULTS,
+                FE_THRESHOLD, n, 5);
+        assertThat(m.fixedGeneration()).isTrue();
+        UncertaintySampler sampler = new UncertaintySampler(generation, FE_I, SETTINGS, ConditionUncertainty.DEFAULTS,
+                5);
+        List<UncertaintySampler.Sample> draws = new ArrayList<>();
+        List<TrapDensityConverter> converters = new ArrayList<>();
+        for (int s = 0; s < n; s++) {
+            UncertaintySampler.Sample d = sampler.next();
+            assertThat(d.conditions().injection()).isInstanceOf(Injection.Generation.class);
+            draws.add(d);
+            converters.add(new TrapDensityConverter(d.conditions(), d.defect()));
+        }
+        float[] taus = new float[25];
+        List<Integer> band = new ArrayList<>();
+        for (int i = 0; i < taus.length; i++) {
+            taus[i] = (float) (20 * Math.pow(10, 2.0 * i / (taus.length - 1)));  // 20 µs … 2 ms
+            int count = 0;
+            for (int s = 0; s < n; s++) {
+                count += exceeds(converters.get(s), draws.get(s), taus[i], FE_THRESHOLD) ? 1 : 0;
+            }
+            assertThat(Math.abs(count - m.probability(taus[i]) * n)).as("tau %s us", taus[i])
+                    .isLessThanOrEqualTo(1);
+            if (count > 0.05 * n && count < 0.95 * n) {
+                band.add(i);
+            }
+        }
+        assertThat(band).as("pixels inside the uncertain band").hasSizeGreaterThanOrEqualTo(3);
+        assertThat(m.probability(taus[0])).isEqualTo(1.0);
+        assertThat(m.probability(taus[taus.length - 1])).isEqualTo(0.0);
+        // independent draws, three pixels of the band
+        for (int i : new int[] {band.get(0), band.get(band.size() / 2), band.get(band.size() - 1)}) {
+            UncertaintySampler fresh = new UncertaintySampler(generation, FE_I, SETTINGS,
+                    ConditionUncertainty.DEFAULTS, 7000 + i);
+            int count = 0;
+            int samples = 10_000;
+            for (int s = 0; s < samples; s++) {
+                UncertaintySampler.Sample d = fresh.next();
+                count += exceeds(new TrapDensityConverter(d.conditions(), d.defect()), d, taus[i], FE_THRESHOLD)
+                        ? 1 : 0;
+            }
+            assertThat(m.probability(taus[i])).isCloseTo((double) count / samples,
+                    org.assertj.core.data.Offset.offset(0.01 + 4 * Math.sqrt(0.25 / n)));
+        }
+        assertThatThrownBy(() -> m.quantile(100f, 0.95)).isInstanceOf(InvalidValueException.class)
+                .hasMessageContaining("fixed generation").hasMessageContaining("injection level");
     }
 
     @Test

@@ -190,7 +190,7 @@ public final class WaferAnalyzer {
         check(cancelled);
         Rules.Flag flag = ev.profile().flag();
         boolean lifetimeFlag = flag.quantity() == Rules.FlagQuantity.LIFETIME;
-        RegionCriteria criteria = flag.criteria();
+        RegionCriteria criteria = ev.criteria();
         RegionTable regions = new RegionTable(ev.regions().regions().stream().map(FlaggedRegions.FlaggedRegion::region)
                 .toList(), criteria, ev.shape() != null ? RegionTable.EdgeReference.WAFER_SHAPE
                 : RegionTable.EdgeReference.DATA_OUTLINE);

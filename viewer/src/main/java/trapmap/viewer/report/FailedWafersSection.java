@@ -104,7 +104,7 @@ final class FailedWafersSection {
                     ty, tw, PdfPage.REGULAR, 7.5f);
         }
         Rules.Profile prof = c.profile(r.profile());
-        String flagUnit = prof == null ? "" : prof.flag().quantity().unit();
+        String flagUnit = prof == null ? "" : prof.flag().regionUnit();
         if (Double.isFinite(r.worstAreaMm2())) {
             p.paragraph("largest region " + Labels.number(r.worstAreaMm2()) + " " + Typeset.MM2 + " at "
                     + WaferTable.position(r) + " mm, peak " + Labels.number(r.worstPeak(), flagUnit), tx, ty, tw,

@@ -72,7 +72,7 @@ final class WaferTable {
         double nt = r.figure("trap_density_p95_cm3");
         String region = "none";
         if (Double.isFinite(r.worstAreaMm2())) {
-            String unit = p == null ? "" : p.flag().quantity().unit();
+            String unit = p == null ? "" : p.flag().regionUnit();
             region = Labels.number(r.worstAreaMm2()) + " " + Typeset.MM2 + " at " + position(r) + ", peak "
                     + Labels.number(r.worstPeak(), unit);
         }
