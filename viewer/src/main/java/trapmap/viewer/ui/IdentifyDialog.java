@@ -461,6 +461,16 @@ final class IdentifyDialog extends JDialog {
         }
     }
 
+    /** The lifetime chart shown, for tests. */
+    org.jfree.chart.JFreeChart fitChartForTest() {
+        return charts.fitChart();
+    }
+
+    /** The pixel under the cursor (null when none), for tests. */
+    MapCanvas.Probe hoveredForTest() {
+        return hovered;
+    }
+
     /** The curve the charts show (null before the first probe), for tests. */
     StackIdentification.Probe shown() {
         return shown;
