@@ -216,6 +216,37 @@ public final class StackIdentification {
         return new Probe(title, c, ranking, fits, surface, statusText(ranking.status()) + ": " + ranking.reason());
     }
 
+    /**
+     * What the values of a layer mean, in one line beside the layer choice (so that no layer is read by colour
+     * alone).
+     */
+    public static String layerKey(Layer layer, IdentificationResult r) {
+        return switch (layer) {
+            case BEST, RUNNER_UP -> "value = legend index: " + legendKey(r);
+            case STATUS -> {
+                StringBuilder b = new StringBuilder("value = status: ");
+                for (RankingStatus s : RankingStatus.values()) {
+                    b.append(s.ordinal() == 0 ? "" : ", ").append(s.ordinal()).append(' ').append(statusText(s));
+                }
+                yield b.toString();
+            }
+            case CHI_SQUARED -> "χ² of the best candidate's fit (ν = usable levels − 1); grey: no fit";
+            case CHI_SQUARED_RATIO -> "χ²(runner-up)/χ²(best): the larger, the clearer the best defect";
+            case DENSITY -> "N_t of the best candidate, cm⁻³";
+            case REGIONS -> String.format(Locale.ROOT, "value = region number (0: in none); regions are where the"
+                    + " first level's τ_SRH is below %s µs", trapmap.viewer.graphics.Labels.number(
+                    r.regionThresholdUs()));
+        };
+    }
+
+    private static String legendKey(IdentificationResult r) {
+        List<String> parts = new ArrayList<>();
+        for (IdentificationResult.LegendEntry e : r.legend()) {
+            parts.add(e.index() + " " + e.defectId());
+        }
+        return String.join(", ", parts);
+    }
+
     /** The status as shown in tables and readouts. */
     public static String statusText(RankingStatus s) {
         return switch (s) {

@@ -83,7 +83,8 @@ final class IdentifyDialog extends JDialog {
     private final JComboBox<Layer> layer = new JComboBox<>(Layer.values());
     private final MapCanvas canvas = new MapCanvas();
     private final ColourBar bar = new ColourBar();
-    private final JLabel readout = new JLabel(" ");
+    private final JLabel readout = new JLabel("<html> <br> </html>");
+    private final JLabel layerKey = new JLabel(" ");
     private final DefaultTableModel legend = table("index", "colour", "defect", "name", "pixels (single defect)");
     private final DefaultTableModel regions = table("region", "pixels", "usable px", "area (mm²)", "best", "N_t (cm⁻³)",
             "95 % bounds (cm⁻³)", "χ²", "p", "status", "DPSS");
@@ -175,7 +176,12 @@ final class IdentifyDialog extends JDialog {
         JPanel layerRow = new JPanel(new FlowLayout(FlowLayout.LEFT, 6, 2));
         layerRow.add(new JLabel("Layer"));
         layerRow.add(layer);
-        mapPanel.add(layerRow, BorderLayout.NORTH);
+        layerKey.setName("layerKey");
+        layerKey.setBorder(BorderFactory.createEmptyBorder(0, 6, 2, 6));
+        JPanel layerHead = new JPanel(new BorderLayout());
+        layerHead.add(layerRow, BorderLayout.NORTH);
+        layerHead.add(layerKey, BorderLayout.SOUTH);
+        mapPanel.add(layerHead, BorderLayout.NORTH);
         mapPanel.add(canvas, BorderLayout.CENTER);
         mapPanel.add(bar, BorderLayout.EAST);
         mapPanel.add(readout, BorderLayout.SOUTH);
@@ -400,6 +406,8 @@ final class IdentifyDialog extends JDialog {
                     + 0.5);
             default -> style = styleOrNull(m);
         }
+        layerKey.setText(StackIdentification.layerKey(l, result));
+        layerKey.setToolTipText(layerKey.getText());
         canvas.setMap(m);
         canvas.setStyle(style);
         bar.setStyle(style);
@@ -416,17 +424,17 @@ final class IdentifyDialog extends JDialog {
 
     private String readout(MapCanvas.Probe p) {
         if (p == null || result == null) {
-            return " ";
+            return "<html> <br> </html>";
         }
         int i = p.yPx() * result.width() + p.xPx();
         String s = String.format(Locale.ROOT, "(%d, %d) px, x %.2f mm, y %.2f mm: ", p.xPx(), p.yPx(), p.xMm(),
                 p.yMm());
         s += "best " + StackIdentification.defectText(result, result.bestIndex()[i]) + ", runner-up "
-                + StackIdentification.defectText(result, result.runnerUpIndex()[i]) + ", χ² "
+                + StackIdentification.defectText(result, result.runnerUpIndex()[i]) + "<br>χ² "
                 + Labels.compact(result.chiSquared()[i]) + ", N_t " + Labels.number(result.bestDensityCm3()[i])
                 + " cm⁻³, " + StackIdentification.statusText(result.status()[i]);
         int region = result.regionAt(p.xPx(), p.yPx());
-        return region > 0 ? s + ", region " + region : s;
+        return "<html>" + (region > 0 ? s + ", region " + region : s) + " (click: its curves)</html>";
     }
 
     private void probePixel(int col, int row) {

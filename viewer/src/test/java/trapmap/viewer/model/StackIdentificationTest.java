@@ -112,6 +112,12 @@ class StackIdentificationTest {
             assertThat(m.width()).isEqualTo(SyntheticLevels.SIZE);
             assertThat(m.height()).isEqualTo(SyntheticLevels.SIZE);
         }
+        assertThat(StackIdentification.layerKey(StackIdentification.Layer.BEST, result)).contains("1 fe-i",
+                result.legend().size() + " " + result.legend().get(result.legend().size() - 1).defectId());
+        assertThat(StackIdentification.layerKey(StackIdentification.Layer.STATUS, result)).contains("0 OK",
+                RankingStatus.NO_SINGLE_DEFECT.ordinal() + " no single defect");
+        assertThat(StackIdentification.layerKey(StackIdentification.Layer.REGIONS, result)).contains(
+                trapmap.viewer.graphics.Labels.number(result.regionThresholdUs()) + " µs");
         assertThat(StackIdentification.Layer.BEST.categorical()).isTrue();
         assertThat(StackIdentification.Layer.CHI_SQUARED.categorical()).isFalse();
         assertThat(StackIdentification.Layer.DENSITY.label()).contains("cm⁻³");
