@@ -256,10 +256,11 @@ public final class IdentificationCharts {
                 + (r.best().energyFromIntrinsicEv() < 0 ? "lower" : "upper") + " half of the gap reaches the band";
     }
 
-    static String status(RankingStatus s) {
+    /** A ranking status as shown in charts, tables and readouts. */
+    public static String status(RankingStatus s) {
         return switch (s) {
             case OK -> "OK";
-            case BELOW_LIMIT -> "some levels below the limit";
+            case BELOW_LIMIT -> "below limit at some levels";
             case TOO_FEW_LEVELS -> "too few levels";
             case NO_SINGLE_DEFECT -> "no single defect";
         };

@@ -249,12 +249,7 @@ public final class StackIdentification {
 
     /** The status as shown in tables and readouts. */
     public static String statusText(RankingStatus s) {
-        return switch (s) {
-            case OK -> "OK";
-            case BELOW_LIMIT -> "below limit at some levels";
-            case TOO_FEW_LEVELS -> "too few levels";
-            case NO_SINGLE_DEFECT -> "no single defect";
-        };
+        return trapmap.viewer.graphics.IdentificationCharts.status(s);
     }
 
     /** The status of an identification-status map value (RankingStatus ordinal; NaN: no data). */
