@@ -96,6 +96,7 @@ public final class ViewerWindow extends JFrame {
     private ViewerModel.OpenWafer shownWafer;
     private WaferAnalysis shownResult;
     private MapCanvas.Probe lastProbe;
+    private IdentifyDialog identifyDialog;
     private java.util.List<Object> injectionKey;
     private final List<Consumer<ViewerModel.Change>> extraListeners = new ArrayList<>();
 
@@ -550,6 +551,24 @@ public final class ViewerWindow extends JFrame {
         CompareDialog d = new CompareDialog(this, model, iron);
         d.setVisible(true);
         d.start();
+    }
+
+    /** Opens the defect identification from injection levels for the shown wafer (and its other levels). */
+    void identify() {
+        if (model.selected() == null) {
+            status.setMessage("open the maps of one wafer at two or more injection levels to identify the defect");
+            return;
+        }
+        identifyDialog = new IdentifyDialog(this, model);
+        identifyDialog.setVisible(true);
+        if (identifyDialog.levels() >= 2) {
+            identifyDialog.start();
+        }
+    }
+
+    /** The last identification dialog opened (null before), for tests. */
+    IdentifyDialog identifyDialog() {
+        return identifyDialog;
     }
 
     private void newDefect() {

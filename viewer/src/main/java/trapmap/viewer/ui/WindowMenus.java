@@ -273,6 +273,9 @@ final class WindowMenus {
                 "Two maps side by side, linked, with a difference or ratio map after registration"));
         analysis.add(item(action("Iron imaging…", KeyStroke.getKeyStroke(KeyEvent.VK_I, MENU), e -> window.compare(true)),
                 "Interstitial iron from a pair of maps before and after FeB-pair dissociation"));
+        analysis.add(item(action("Identify defect from injection levels…", KeyStroke.getKeyStroke(KeyEvent.VK_D,
+                MENU), e -> window.identify()), "Rank the library defects per pixel and region from maps of one wafer"
+                + " at several injection levels, with the lifetime fits and the DPSS"));
         analysis.addSeparator();
         analysis.add(item(action("Override defect for this wafer…", null, e -> sessions.chooseDefectOverride(false)),
                 "Convert and judge the shown wafer with another defect than its rules profile's"));
@@ -334,6 +337,7 @@ final class WindowMenus {
                 + "<tr><td>PageDown / PageUp, Alt+→ / Alt+←</td><td>next / previous wafer</td></tr>"
                 + "<tr><td>L</td><td>line tool</td></tr>"
                 + "<tr><td>Ctrl+K / Ctrl+I</td><td>compare / iron imaging</td></tr>"
+                + "<tr><td>Ctrl+D</td><td>identify the defect from injection levels</td></tr>"
                 + "<tr><td>Esc</td><td>cancel the running analysis</td></tr>"
                 + "</table></html>", "Keyboard shortcuts", JOptionPane.INFORMATION_MESSAGE);
     }

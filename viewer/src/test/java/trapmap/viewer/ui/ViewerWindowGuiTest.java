@@ -172,6 +172,39 @@ class ViewerWindowGuiTest {
         assertThat(inj.group(2)).as("injection chart title right after choosing midgap").startsWith("defect midgap,");
     }
 
+    @Test
+    void identificationDialogRunsOnTheOpenLevelsAndShowsTheClickedPixel(@org.junit.jupiter.api.io.TempDir Path dir)
+            throws Exception {
+        List<trapmap.maps.model.WaferMap> maps = trapmap.viewer.model.SyntheticLevels.maps(
+                new double[] {1e13, 1e14, 1e15}, 0.02, 11, "SYN-W01", true);
+        String[] names = {"dn1e13", "dn1e14", "dn1e15"};
+        for (int i = 0; i < maps.size(); i++) {
+            trapmap.maps.io.MapFiles.write(maps.get(i), dir.resolve("SYN-W01-" + names[i] + ".tif"));
+        }
+        String out = runOnDisplay(IdentifyGuiScenario.class, dir.toString());
+        Matcher head = Pattern.compile("GUI-IDENTIFY levels=(\\d+) legend=(\\d+) first=(\\S+) regions=(\\d+)"
+                + " shown=(.*) fitSeries=(\\d+) rows=(.*)").matcher(out);
+        assertThat(head.find()).as("identify line in:%n%s", out).isTrue();
+        assertThat(head.group(1)).isEqualTo("3");
+        assertThat(Integer.parseInt(head.group(2))).isEqualTo((int) trapmap.physics.defect.DefectLibrary.all().stream()
+                .filter(trapmap.physics.defect.Defect::hasAbsoluteCrossSections).count());
+        assertThat(head.group(3)).isEqualTo("fe-i");
+        assertThat(head.group(4)).isEqualTo("3");
+        assertThat(head.group(5)).startsWith("region 1 (");
+        assertThat(head.group(6)).isEqualTo("3");
+        // the planted squares are found by themselves; where both overlap no single defect explains the curve
+        assertThat(head.group(7).split(";")).contains("fe-i/OK", "cr-i/OK").anyMatch(r -> r.endsWith(
+                "/no single defect"));
+        Matcher click = Pattern.compile("GUI-CLICK px=(\\d+),(\\d+) shown=(.*)").matcher(out);
+        assertThat(click.find()).as("click line in:%n%s", out).isTrue();
+        assertThat(click.group(3)).isEqualTo("pixel (" + click.group(1) + ", " + click.group(2) + ")");
+        for (trapmap.viewer.model.StackIdentification.Layer l : trapmap.viewer.model.StackIdentification.Layer.values()) {
+            assertThat(out).contains("GUI-LAYER " + l.name() + " quantity=");
+        }
+        assertThat(out).contains("GUI-LAYER BEST quantity=defect-index", "GUI-LAYER STATUS quantity="
+                + "identification-status", "GUI-LAYER CHI_SQUARED quantity=chi-squared");
+    }
+
     private static Path onPath(String name) {
         String path = System.getenv("PATH");
         if (path == null) {

@@ -1,0 +1,152 @@
+package trapmap.viewer.model;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
+
+import java.util.ArrayList;
+import java.util.List;
+import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.Test;
+import trapmap.maps.model.WaferMap;
+import trapmap.maps.process.ConversionSettings;
+import trapmap.maps.spectroscopy.DefectIdentification;
+import trapmap.maps.spectroscopy.IdentificationResult;
+import trapmap.physics.defect.Defect;
+import trapmap.physics.defect.DefectLibrary;
+import trapmap.physics.spectroscopy.RankingStatus;
+import trapmap.shared.error.InvalidValueException;
+
+/** The viewer's identification runs the maps module's engine and finds the planted defects. */
+class StackIdentificationTest {
+    private static final double[] LEVELS = {1e13, 1e14, 1e15};
+    private static IdentificationResult result;
+    private static final List<String> phases = new ArrayList<>();
+
+    private static StackIdentification.Request request(List<WaferMap> maps, int block) {
+        return request(maps, block, false);
+    }
+
+    private static StackIdentification.Request request(List<WaferMap> maps, int block, boolean register) {
+        List<StackIdentification.Input> in = new ArrayList<>();
+        for (int i = 0; i < maps.size(); i++) {
+            in.add(StackIdentification.open("level" + i + ".tif", maps.get(i), ConditionOverrides.NONE));
+        }
+        List<Defect> cands = DefectLibrary.all();
+        return new StackIdentification.Request(in, ConversionSettings.DEFAULTS, cands,
+                DefectIdentification.Options.DEFAULTS.withBlock(block).withNoise(0.01).withThreads(2), register);
+    }
+
+    @BeforeAll
+    static void run() {
+        result = StackIdentification.run(request(SyntheticLevels.maps(LEVELS, 0.01, 7, "w1"), 1), phases::add);
+    }
+
+    @Test
+    void phasesAreReportedAndEveryLevelIsListedWithItsPlacement() {
+        assertThat(phases).hasSize(2);
+        assertThat(phases.get(0)).isEqualTo("checking 3 levels");
+        List<String> reg = StackIdentification.registrationLines(result).stream()
+                .filter(l -> !l.startsWith("  ")).toList();
+        assertThat(reg).hasSize(3);
+        assertThat(reg.get(0)).contains("reference");
+        assertThat(reg.get(1)).contains("shifted 0.000, 0.000 mm", "unregistered kept");
+        List<String> seen = new ArrayList<>();
+        // a round wafer's levels measured in place: the registration finds nothing to move
+        IdentificationResult registered = StackIdentification.run(request(SyntheticLevels.maps(LEVELS, 0.02, 11, "w1",
+                true), 1, true), seen::add);
+        assertThat(seen.get(0)).isEqualTo("checking and registering 3 levels");
+        assertThat(StackIdentification.registrationLines(registered)).filteredOn(l -> l.contains("level2.tif"))
+                .singleElement().asString().contains("shifted 0.000, 0.000 mm", "turned 0.0°", "identity kept");
+        assertThat(StackIdentification.pixel(registered, 10, 10).ranking().hint().best().id()).isEqualTo("fe-i");
+    }
+
+    @Test
+    void aPixelInsideEachBoxNamesItsDefectAndTheChartsShowIt() {
+        StackIdentification.Probe fe = StackIdentification.pixel(result, 8, 8);
+        assertThat(fe.ranking().hint().best().id()).isEqualTo("fe-i");
+        assertThat(fe.fits().candidates().get(0).fit().id()).isEqualTo("fe-i");
+        assertThat(fe.fits().points()).hasSize(3);
+        assertThat(fe.dpss().points()).isNotEmpty();
+        assertThat(fe.title()).isEqualTo("pixel (8, 8)");
+        assertThat(fe.summary()).contains("fe-i fits best");
+        StackIdentification.Probe cr = StackIdentification.pixel(result, 30, 8);
+        assertThat(cr.ranking().hint().best().id()).isEqualTo("cr-i");
+        assertThat(cr.dpss().defects()).hasSize(DefectLibrary.all().size());
+        // the N_t of the best fit is the planted one within the noise
+        assertThat(fe.ranking().hint().best().ntPerCm3()).isBetween(0.8 * SyntheticLevels.NT_CM3,
+                1.2 * SyntheticLevels.NT_CM3);
+        // readout texts agree with the maps
+        int i = 8 * result.width() + 8;
+        assertThat(StackIdentification.defectText(result, result.bestIndex()[i])).startsWith("fe-i (");
+        assertThat(StackIdentification.statusText(result.status()[i])).isEqualTo("OK");
+        assertThat(StackIdentification.statusText(Double.NaN)).isEqualTo("no data");
+        assertThat(StackIdentification.defectText(result, Double.NaN)).isEqualTo("none");
+    }
+
+    @Test
+    void regionsGetTheirOwnCurveRankingAndDpss() {
+        List<StackIdentification.RegionRow> rows = StackIdentification.regionRows(result);
+        assertThat(rows).hasSize(result.regions().size()).hasSizeGreaterThanOrEqualTo(3);
+        List<String> best = new ArrayList<>();
+        for (StackIdentification.RegionRow r : rows) {
+            best.add(r.best() + "/" + r.status());
+            assertThat(r.areaMm2()).isEqualTo(r.pixels() * 1.0);
+            assertThat(r.dpss()).isNotBlank();
+            StackIdentification.Probe p = StackIdentification.region(result, r.id());
+            assertThat(p.title()).startsWith("region " + r.id() + " (");
+            assertThat(p.dpss()).isSameAs(result.region(r.id()).dpss());
+            assertThat(p.ranking()).isSameAs(result.region(r.id()).ranking());
+            if (!r.best().equals("none")) {
+                assertThat(r.ntPerCm3()).isBetween(r.lowerPerCm3(), r.upperPerCm3());
+            }
+        }
+        assertThat(best).contains("fe-i/OK", "cr-i/OK");
+        assertThat(best).anyMatch(s -> s.endsWith("/" + StackIdentification.statusText(
+                RankingStatus.NO_SINGLE_DEFECT)));
+    }
+
+    @Test
+    void everyLayerIsAMapOfTheStacksSize() {
+        for (StackIdentification.Layer l : StackIdentification.Layer.values()) {
+            WaferMap m = l.of(result);
+            assertThat(m.width()).isEqualTo(SyntheticLevels.SIZE);
+            assertThat(m.height()).isEqualTo(SyntheticLevels.SIZE);
+        }
+        assertThat(StackIdentification.layerKey(StackIdentification.Layer.BEST, result)).contains("1 fe-i",
+                result.legend().size() + " " + result.legend().get(result.legend().size() - 1).defectId());
+        assertThat(StackIdentification.layerKey(StackIdentification.Layer.STATUS, result)).contains("0 OK",
+                RankingStatus.NO_SINGLE_DEFECT.ordinal() + " no single defect");
+        assertThat(StackIdentification.layerKey(StackIdentification.Layer.REGIONS, result)).contains(
+                trapmap.viewer.graphics.Labels.number(result.regionThresholdUs()) + " µs");
+        assertThat(StackIdentification.Layer.BEST.categorical()).isTrue();
+        assertThat(StackIdentification.Layer.CHI_SQUARED.categorical()).isFalse();
+        assertThat(StackIdentification.Layer.DENSITY.label()).contains("cm⁻³");
+    }
+
+    @Test
+    void blocksAreNamedInTheProbe() {
+        IdentificationResult b = StackIdentification.run(request(SyntheticLevels.maps(LEVELS, 0.01, 7, "w1"), 4),
+                s -> { });
+        StackIdentification.Probe p = StackIdentification.pixel(b, 9, 9);
+        assertThat(p.title()).startsWith("block of 4×4 px");
+        assertThat(p.ranking().hint().best().id()).isEqualTo("fe-i");
+    }
+
+    @Test
+    void windowOverridesKeepEachMapsOwnInjectionLevel() {
+        WaferMap m = SyntheticLevels.maps(new double[] {1e14}, 0.01, 1, "w1").get(0);
+        ConditionOverrides window = ConditionOverrides.NONE.withInjection(3e15).withDoping("p:2e15")
+                .withThickness(170.0);
+        StackIdentification.Input in = StackIdentification.open("a.tif", m, window);
+        assertThat(in.map().conditions().injectionPerCm3()).isEqualTo(1e14);
+        assertThat(in.map().conditions().thicknessUm()).isEqualTo(170.0);
+        assertThat(in.map().conditions().doping().acceptorsPerCm3()).isEqualTo(2e15);
+    }
+
+    @Test
+    void oneLevelIsRefusedWithTheEnginesMessage() {
+        List<WaferMap> one = SyntheticLevels.maps(new double[] {1e14}, 0.01, 1, "w1");
+        assertThatThrownBy(() -> StackIdentification.run(request(one, 1), s -> { }))
+                .isInstanceOf(InvalidValueException.class).hasMessageContaining("level0.tif");
+    }
+}
