@@ -46,6 +46,10 @@ import trapmap.shared.text.TextLimits;
  *  "rules": "rules-example.json",          (or null: the quick threshold check)
  *  "defect_for_all": null,                  (a defect replacing every rules profile's)
  *  "physics": {"thermal_velocity": "green", …}  (or null: the rules file's physics block, else the defaults)
+ *  "exceedance": {"threshold_cm3": 3e11, "samples": 10000, "seed": 1,
+ *                 "uncertainty": {"doping_relative": 0.05, "thickness_relative": 0.02, "srv_relative": 0.5,
+ *                                 "injection_relative": 0.1, "temperature_k": 1, "lifetime_relative": 0.03}},
+ *                 (missing: the defaults of {@link ExceedanceSettings#DEFAULT}; a missing field: its default)
  *  "defect_overrides": {"wafers/w07.tif": "cr-i"}}   (per file)
  * </pre>
  * Unknown keys are errors; every error names the file and the field (with its unit). Writing is atomic.
@@ -61,7 +65,10 @@ public final class SessionFiles {
 
     private static final Set<String> KEYS = Set.of("format", "version", "files", "selected", "conditions", "defect",
             "user_defects", "quantity", "display", "threshold", "line", "edge_exclusion_mm", "views", "rules",
-            "defect_for_all", "defect_overrides", "physics");
+            "defect_for_all", "defect_overrides", "physics", "exceedance");
+    private static final Set<String> EXCEEDANCE_KEYS = Set.of("threshold_cm3", "samples", "seed", "uncertainty");
+    private static final Set<String> UNCERTAINTY_KEYS = Set.of("doping_relative", "thickness_relative",
+            "srv_relative", "injection_relative", "temperature_k", "lifetime_relative");
 
     /**
      * A session file that cannot be used; the message names the file and the field, on one line (line breaks that
@@ -135,6 +142,19 @@ public final class SessionFiles {
             ln.put("band_width_mm", l.bandWidthMm());
         }
         root.put("edge_exclusion_mm", a.edgeExclusionMm());
+        ExceedanceSettings ex = a.exceedance();
+        ObjectNode en = root.putObject("exceedance");
+        en.put("threshold_cm3", ex.thresholdPerCm3());
+        en.put("samples", ex.samples());
+        en.put("seed", ex.seed());
+        var u = ex.uncertainty();
+        ObjectNode un = en.putObject("uncertainty");
+        un.put("doping_relative", u.dopingRelative());
+        un.put("thickness_relative", u.thicknessRelative());
+        un.put("srv_relative", u.srvRelative());
+        un.put("injection_relative", u.injectionRelative());
+        un.put("temperature_k", u.temperatureK());
+        un.put("lifetime_relative", u.lifetimeRelative());
         ObjectNode vn = root.putObject("views");
         s.views().entrySet().stream().sorted(Map.Entry.comparingByKey()).forEach(e -> {
             ObjectNode v = vn.putObject(rel(e.getKey(), dir));
@@ -408,10 +428,11 @@ public final class SessionFiles {
             }
         }
         double edge = r.num(root, "edge_exclusion_mm", "mm", Analysis.DEFAULT.edgeExclusionMm());
+        ExceedanceSettings exceedance = exceedance(r, root.get("exceedance"), name);
 
         Analysis analysis;
         try {
-            analysis = new Analysis(cond, defect, q, display, threshold, line, edge);
+            analysis = new Analysis(cond, defect, q, display, threshold, line, edge, exceedance);
         } catch (IllegalArgumentException e) {
             throw new SessionException(name + ": " + e.getMessage());
         }
@@ -464,6 +485,48 @@ public final class SessionFiles {
         }
         return new Session(files, files.isEmpty() ? -1 : selected, analysis, userDefects, views, rules, forAll,
                 overrides, physics);
+    }
+
+    /** The {@code exceedance} block; missing fields take {@link ExceedanceSettings#DEFAULT}'s values. */
+    private static ExceedanceSettings exceedance(Reader r, JsonNode en, String name) throws SessionException {
+        ExceedanceSettings d = ExceedanceSettings.DEFAULT;
+        if (en == null || en.isNull()) {
+            return d;
+        }
+        r.object(en, "exceedance");
+        r.keys(en, EXCEEDANCE_KEYS, "exceedance.");
+        double samples = r.num(en, "exceedance.samples", "", d.samples());
+        double seed = r.num(en, "exceedance.seed", "", d.seed());
+        if (samples != Math.rint(samples) || Math.abs(samples) > Integer.MAX_VALUE) {
+            throw r.error("exceedance.samples", "", "must be a whole number but was " + fmt(samples));
+        }
+        if (seed != Math.rint(seed) || Math.abs(seed) > 1L << 53) {
+            throw r.error("exceedance.seed", "", "must be a whole number of at most 2^53 but was " + fmt(seed));
+        }
+        var u = d.uncertainty();
+        JsonNode un = en.get("uncertainty");
+        if (un != null && !un.isNull()) {
+            r.object(un, "exceedance.uncertainty");
+            r.keys(un, UNCERTAINTY_KEYS, "exceedance.uncertainty.");
+            String p = "exceedance.uncertainty.";
+            try {
+                u = new trapmap.physics.uncertainty.ConditionUncertainty(
+                        r.num(un, p + "doping_relative", "relative", u.dopingRelative()),
+                        r.num(un, p + "thickness_relative", "relative", u.thicknessRelative()),
+                        r.num(un, p + "srv_relative", "relative", u.srvRelative()),
+                        r.num(un, p + "injection_relative", "relative", u.injectionRelative()),
+                        r.num(un, p + "temperature_k", "K", u.temperatureK()),
+                        r.num(un, p + "lifetime_relative", "relative", u.lifetimeRelative()));
+            } catch (IllegalArgumentException e) {
+                throw new SessionException(name + ": exceedance.uncertainty: " + e.getMessage());
+            }
+        }
+        try {
+            return new ExceedanceSettings(u, r.num(en, "exceedance.threshold_cm3", "cm^-3", d.thresholdPerCm3()),
+                    (int) samples, (long) seed);
+        } catch (IllegalArgumentException e) {
+            throw new SessionException(name + ": exceedance: " + e.getMessage());
+        }
     }
 
     private static String knownDefect(Reader r, String id, String field, List<Defect> userDefects)

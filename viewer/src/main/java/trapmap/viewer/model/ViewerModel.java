@@ -562,7 +562,11 @@ public final class ViewerModel {
     public static double[] range(WaferAnalysis r, DisplaySettings d) {
         double lo;
         double hi;
-        if (d.autoRange()) {
+        if (d.autoRange() && r.analysis().quantity().isProbability()) {
+            // a probability is coloured on its whole scale, so that wafers compare by colour
+            lo = 0;
+            hi = 1;
+        } else if (d.autoRange()) {
             MapStatistics s = r.displayedStats();
             if (!has(s, d.lowPercent()) || !has(s, d.highPercent())) {
                 s = MapStatistics.of(r.displayed(), r.mask(), StatisticsRequest.of(
@@ -633,7 +637,23 @@ public final class ViewerModel {
         if (d != null && d.hasAbsoluteCrossSections() && !Double.isNaN(tau)) {
             px = converter(r, d).convert(tau);
         }
-        return new PixelReadout(g.xMm(xPx), g.yMm(yPx), r.analysis().quantity(), shown, tau, px);
+        return new PixelReadout(g.xMm(xPx), g.yMm(yPx), r.analysis().quantity(), shown, tau, px,
+                exceedanceAt(r.exceedance(), tau));
+    }
+
+    /** The probability and quantiles of a pixel measured at {@code tau} µs, or null without a prepared layer. */
+    static PixelReadout.Exceedance exceedanceAt(ExceedanceLayer layer, double tau) {
+        if (layer == null) {
+            return null;
+        }
+        double threshold = layer.settings().thresholdPerCm3();
+        if (!layer.available()) {
+            return new PixelReadout.Exceedance(threshold, Double.NaN, Double.NaN, Double.NaN,
+                    layer.unavailableReason());
+        }
+        return new PixelReadout.Exceedance(threshold, layer.probabilityAt(tau),
+                layer.quantileAt(tau, ExceedanceSettings.LOW_QUANTILE),
+                layer.quantileAt(tau, ExceedanceSettings.HIGH_QUANTILE), null);
     }
 
     private WaferAnalysis convFor;

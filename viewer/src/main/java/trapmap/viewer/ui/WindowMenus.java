@@ -274,6 +274,10 @@ final class WindowMenus {
         analysis.add(item(action("Iron imaging…", KeyStroke.getKeyStroke(KeyEvent.VK_I, MENU), e -> window.compare(true)),
                 "Interstitial iron from a pair of maps before and after FeB-pair dissociation"));
         analysis.addSeparator();
+        analysis.add(item(action("Exceedance settings…", KeyStroke.getKeyStroke(KeyEvent.VK_U, MENU),
+                e -> window.editExceedance()), "Threshold N* (cm⁻³), samples, seed and the uncertainties of the"
+                + " probability of exceeding N*"));
+        analysis.addSeparator();
         analysis.add(item(action("Override defect for this wafer…", null, e -> sessions.chooseDefectOverride(false)),
                 "Convert and judge the shown wafer with another defect than its rules profile's"));
         analysis.add(item(action("Override defect for all wafers…", null, e -> sessions.chooseDefectOverride(true)),
@@ -334,6 +338,7 @@ final class WindowMenus {
                 + "<tr><td>PageDown / PageUp, Alt+→ / Alt+←</td><td>next / previous wafer</td></tr>"
                 + "<tr><td>L</td><td>line tool</td></tr>"
                 + "<tr><td>Ctrl+K / Ctrl+I</td><td>compare / iron imaging</td></tr>"
+                + "<tr><td>Ctrl+U</td><td>exceedance settings (N*, samples, uncertainties)</td></tr>"
                 + "<tr><td>Esc</td><td>cancel the running analysis</td></tr>"
                 + "</table></html>", "Keyboard shortcuts", JOptionPane.INFORMATION_MESSAGE);
     }
