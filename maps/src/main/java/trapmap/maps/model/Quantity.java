@@ -20,6 +20,10 @@ public enum Quantity {
     RATIO("ratio", "", true),
     RELATIVE_CHANGE("relative-change", "", false),
     FRACTION("fraction", "", false),
+    /** P(N_t &gt; N*) of a pixel over the uncertainties, 0 to 1 ({@code trapmap.maps.process.ExceedanceMaps}). */
+    EXCEEDANCE_PROBABILITY("exceedance-probability", "", false),
+    /** A confidence quantile of the equivalent trap density (its level in the map's history), cm⁻³. */
+    DENSITY_QUANTILE("density-quantile", "cm^-3", true),
     UNKNOWN("unknown", "", false);
 
     private final String key;
@@ -48,12 +52,12 @@ public enum Quantity {
     }
 
     /**
-     * True for a share from 0 to 1 (a reduction 1 − after/before, a recurrence fraction): shown as a percentage on a
+     * True for a share from 0 to 1 (a reduction 1 − after/before, a recurrence fraction, an exceedance probability): shown as a percentage on a
      * fixed 0–100 % scale ({@link #defaultRange()}) unless the user sets a range, so that maps of such shares compare
      * by colour.
      */
     public boolean isFraction() {
-        return this == FRACTION;
+        return this == FRACTION || this == EXCEEDANCE_PROBABILITY;
     }
 
     /**

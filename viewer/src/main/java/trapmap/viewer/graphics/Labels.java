@@ -29,6 +29,8 @@ public final class Labels {
             case RATIO -> "ratio after / before";
             case RELATIVE_CHANGE -> "relative change";
             case FRACTION -> "fraction";
+            case EXCEEDANCE_PROBABILITY -> "probability of exceeding N*";
+            case DENSITY_QUANTILE -> "trap density (confidence quantile)";
             case UNKNOWN -> "value";
         };
     }
