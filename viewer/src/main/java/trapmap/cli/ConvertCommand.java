@@ -69,8 +69,29 @@ final class ConvertCommand implements Callable<Integer> {
             description = "What to write: trap-density (cm^-3), density-min, density-max (cm^-3, over the defect's"
                     + " published parameter spread), occupancy (f_t), srh-lifetime (µs), injection (cm^-3), status,"
                     + " lifetime-at-reference (µs; needs --reference-injection), effective-lifetime (µs; needs no"
-                    + " defect). Default: trap-density with --defect; without it, MAP as it is.")
+                    + " defect), exceedance-probability (P(N_t > N*), 0-1; needs --threshold), density-quantile"
+                    + " (cm^-3, the --quantile of N_t over the uncertainties). Default: trap-density with --defect;"
+                    + " without it, MAP as it is.")
     String quantity;
+
+    @Option(names = "--threshold", paramLabel = "<cm^-3>", converter = Quantity.Density.class,
+            description = "Threshold N* in cm^-3 of --quantity exceedance-probability. Default: none.")
+    Double threshold;
+
+    @Option(names = "--quantile", paramLabel = "<q>",
+            description = "Level q, 0 < q < 1, of --quantity density-quantile (0.05 and 0.95 bound a 90 %% interval)."
+                    + " Default: 0.95.")
+    Double quantileLevel;
+
+    @Option(names = "--samples", paramLabel = "<n>",
+            description = "Monte Carlo samples of exceedance-probability and density-quantile, 16-4194304. Default:"
+                    + " the --physics file's uncertainty block, else 10000.")
+    Integer samples;
+
+    @Option(names = "--seed", paramLabel = "<n>",
+            description = "Seed of their draws (same seed, same map). Default: the --physics file's uncertainty"
+                    + " block, else 1.")
+    Long seed;
 
     @Option(names = "--page", paramLabel = "<n>", defaultValue = "1",
             description = "Page of a multi-page TIFF to convert, from 1. Default: 1.")
@@ -94,6 +115,12 @@ final class ConvertCommand implements Callable<Integer> {
             throw new InputException("--quantity '" + quantity + "' is not one of " + String.join(", ",
                     QUANTITIES.keySet()) + ", " + LIFETIME.key());
         }
+        boolean exceedance = wanted == trapmap.maps.model.Quantity.EXCEEDANCE_PROBABILITY
+                || wanted == trapmap.maps.model.Quantity.DENSITY_QUANTILE;
+        if (!exceedance && (threshold != null || quantileLevel != null || samples != null || seed != null)) {
+            throw new InputException("--threshold, --quantile, --samples and --seed belong to --quantity"
+                    + " exceedance-probability or density-quantile, not " + wanted.key());
+        }
         if (defect == null) {
             throw new InputException("--defect is required for --quantity " + wanted.key() + ": "
                     + Flags.expected("--defect") + "; only " + LIFETIME.key() + " or a plain format conversion"
@@ -103,6 +130,9 @@ final class ConvertCommand implements Callable<Integer> {
             throw new InputException("--quantity lifetime-at-reference needs --reference-injection (Δn in cm^-3)");
         }
         Defect d = DefectCatalog.load(defectFile).find(defect);
+        if (exceedance) {
+            return new ExceedanceOutput(this).write(d, wanted);
+        }
         if (MapFiles.formatOf(output) == MapFiles.Format.TIFF) {
             return streamed(d, wanted);
         }
@@ -318,7 +348,8 @@ final class ConvertCommand implements Callable<Integer> {
                 trapmap.maps.model.Quantity.TRAP_DENSITY_MIN, trapmap.maps.model.Quantity.TRAP_DENSITY_MAX,
                 trapmap.maps.model.Quantity.OCCUPANCY, trapmap.maps.model.Quantity.SRH_LIFETIME,
                 trapmap.maps.model.Quantity.INJECTION, trapmap.maps.model.Quantity.STATUS,
-                trapmap.maps.model.Quantity.LIFETIME_AT_REFERENCE)) {
+                trapmap.maps.model.Quantity.LIFETIME_AT_REFERENCE,
+                trapmap.maps.model.Quantity.EXCEEDANCE_PROBABILITY, trapmap.maps.model.Quantity.DENSITY_QUANTILE)) {
             m.put(q.key(), q);
         }
         return java.util.Collections.unmodifiableMap(m);

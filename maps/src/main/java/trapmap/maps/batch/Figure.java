@@ -26,13 +26,18 @@ import trapmap.maps.io.NumberText;
  *   <li>{@code invalid_area_fraction}: share of the evaluated area whose measured lifetime cannot be used
  *       (non-finite, ≤ 0, or invalid for the conversion: {@link trapmap.maps.stats.InvalidArea}); always reported,
  *       and limited to {@link trapmap.maps.stats.InvalidArea#DEFAULT_LIMIT} when the profile sets no limit on it</li>
+ *   <li>{@code exceedance_area_fraction_cNN}: share of the evaluated area where the probability that the trap
+ *       density exceeds the profile's trap-density flag threshold is at least NN % (over the uncertainties of the
+ *       rules' {@code physics.uncertainty} block, {@link ConfidenceFlag}); e.g. {@code exceedance_area_fraction_c95}
+ *       </li>
  *   <li>{@code edge_to_centre_ratio}: harmonic-mean lifetime in the band of {@code edge_band_mm} along the inner
  *       border of the evaluated area over the harmonic-mean lifetime inside it</li>
  * </ul>
  *
  * @param name    the figure's name
  * @param kind    what it measures
- * @param percent the percentile for percentile kinds, NaN otherwise
+ * @param percent the percentile for percentile kinds, the confidence in per cent for
+ *                {@link Kind#EXCEEDANCE_AREA_FRACTION}, NaN otherwise
  */
 public record Figure(String name, Kind kind, double percent) {
 
@@ -43,7 +48,7 @@ public record Figure(String name, Kind kind, double percent) {
     public enum Kind {
         HARMONIC_MEAN_LIFETIME, MEDIAN_LIFETIME, LIFETIME_PERCENTILE, TRAP_DENSITY_PERCENTILE,
         FLAGGED_AREA_FRACTION, LARGEST_REGION, LARGEST_INTERIOR_REGION, EDGE_TO_CENTRE_RATIO,
-        BELOW_LIMIT_AREA_FRACTION, INVALID_AREA_FRACTION
+        BELOW_LIMIT_AREA_FRACTION, INVALID_AREA_FRACTION, EXCEEDANCE_AREA_FRACTION
     }
 
     /** The name of the figure {@link Kind#INVALID_AREA_FRACTION}. */
@@ -51,6 +56,7 @@ public record Figure(String name, Kind kind, double percent) {
 
     private static final Pattern LIFETIME_P = Pattern.compile("p(\\d{1,2}(?:\\.\\d+)?)_lifetime_us");
     private static final Pattern DENSITY_P = Pattern.compile("trap_density_p(\\d{1,2}(?:\\.\\d+)?)_cm3");
+    private static final Pattern EXCEEDANCE_C = Pattern.compile("exceedance_area_fraction_c(\\d{1,3}(?:\\.\\d+)?)");
 
     /** The figure of a name; IllegalArgumentException listing the names when unknown. */
     public static Figure parse(String name) {
@@ -73,10 +79,18 @@ public record Figure(String name, Kind kind, double percent) {
         if (m.matches()) {
             return new Figure(name, Kind.TRAP_DENSITY_PERCENTILE, percent(m.group(1), name));
         }
+        m = EXCEEDANCE_C.matcher(name);
+        if (m.matches()) {
+            double c = Double.parseDouble(m.group(1));
+            if (!(c > 0 && c <= 100)) {
+                throw new IllegalArgumentException("confidence of " + name + " must be in (0, 100] per cent");
+            }
+            return new Figure(name, Kind.EXCEEDANCE_AREA_FRACTION, c);
+        }
         throw new IllegalArgumentException("unknown figure; expected harmonic_mean_lifetime_us, median_lifetime_us,"
                 + " pNN_lifetime_us, trap_density_pNN_cm3, flagged_area_fraction, largest_region_mm2,"
-                + " largest_interior_region_mm2, edge_to_centre_ratio, below_limit_area_fraction or"
-                + " invalid_area_fraction");
+                + " largest_interior_region_mm2, edge_to_centre_ratio, below_limit_area_fraction,"
+                + " exceedance_area_fraction_cNN or invalid_area_fraction");
     }
 
     private static double percent(String digits, String name) {
@@ -102,7 +116,8 @@ public record Figure(String name, Kind kind, double percent) {
 
     /** True when the figure is computed from the trap-density map. */
     public boolean needsTrapDensity() {
-        return kind == Kind.TRAP_DENSITY_PERCENTILE || kind == Kind.BELOW_LIMIT_AREA_FRACTION;
+        return kind == Kind.TRAP_DENSITY_PERCENTILE || kind == Kind.BELOW_LIMIT_AREA_FRACTION
+                || kind == Kind.EXCEEDANCE_AREA_FRACTION;
     }
 
     /** The unit of the figure's values ("" for ratios). */
@@ -145,6 +160,9 @@ public record Figure(String name, Kind kind, double percent) {
             case EDGE_TO_CENTRE_RATIO -> "edge-to-centre lifetime ratio";
             case BELOW_LIMIT_AREA_FRACTION -> "below-limit area fraction";
             case INVALID_AREA_FRACTION -> "invalid area fraction";
+            case EXCEEDANCE_AREA_FRACTION -> "area fraction exceeding the flag threshold with "
+                    + new java.math.BigDecimal(Double.toString(percent)).stripTrailingZeros().toPlainString()
+                    + " % confidence";
         };
     }
 

@@ -18,7 +18,9 @@ import java.util.Set;
 import java.util.function.ToDoubleFunction;
 import trapmap.maps.geometry.WaferFormat;
 import trapmap.maps.io.MapFiles;
+import trapmap.maps.io.NumberText;
 import trapmap.maps.io.PhysicsSettingsFile;
+import trapmap.maps.io.UncertaintySettings;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.physics.conversion.PhysicsSettings;
@@ -237,15 +239,46 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
      * @param threshold µs for lifetime, cm^-3 for trap density
      * @param minAreaMm2 smallest region counted, mm²
      * @param belowLimit what the profile's trap-density flag and figures do with pixels below the detection limit
+     * @param confidence  for a trap-density flag, flag the pixels whose probability of exceeding the threshold is at
+     *                    least this (0 &lt; c ≤ 1), over the uncertainties of {@code uncertainty}
+     *                    ({@link trapmap.maps.process.ExceedanceMaps}); NaN: flag the nominal density (rules key
+     *                    {@code "confidence"})
+     * @param uncertainty what the probability is drawn with (the rules' {@code physics.uncertainty} block)
      */
-    public record Flag(FlagQuantity quantity, double threshold, double minAreaMm2, BelowLimit belowLimit) {
+    public record Flag(FlagQuantity quantity, double threshold, double minAreaMm2, BelowLimit belowLimit,
+                       double confidence, UncertaintySettings uncertainty) {
         public Flag {
             Objects.requireNonNull(belowLimit, "belowLimit");
+            Objects.requireNonNull(uncertainty, "uncertainty");
+            if (!Double.isNaN(confidence) && (quantity != FlagQuantity.TRAP_DENSITY
+                    || !(confidence > 0 && confidence <= 1))) {
+                throw new IllegalArgumentException("a flag confidence needs a trap-density flag and lies in (0, 1]");
+            }
+        }
+
+        /** A flag of the nominal value (no confidence). */
+        public Flag(FlagQuantity quantity, double threshold, double minAreaMm2, BelowLimit belowLimit) {
+            this(quantity, threshold, minAreaMm2, belowLimit, Double.NaN, UncertaintySettings.DEFAULTS);
         }
 
         /** A flag that leaves pixels below the detection limit out ({@link BelowLimit#EXCLUDE}). */
         public Flag(FlagQuantity quantity, double threshold, double minAreaMm2) {
             this(quantity, threshold, minAreaMm2, BelowLimit.EXCLUDE);
+        }
+
+        /** True when the flag judges the probability of exceeding its threshold, not the nominal density. */
+        public boolean confident() {
+            return !Double.isNaN(confidence);
+        }
+
+        /**
+         * The flag in words, e.g. "trap density above 1e12 cm^-3" or "P(trap density above 1e12 cm^-3) at least
+         * 0.95": what the results and reports name.
+         */
+        public String describe() {
+            String t = (quantity == FlagQuantity.LIFETIME ? "lifetime below " : "trap density above ")
+                    + NumberText.of(threshold) + " " + quantity.unit();
+            return confident() ? "P(" + t + ") at least " + NumberText.of(confidence) : t;
         }
 
         /** The region criteria of this flag: lifetimes below, or trap densities above, the threshold. */
@@ -435,6 +468,8 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
     /** Walks the JSON tree; each check names the field path and its unit. */
     private static final class Reader {
         private final String name;
+        /** The rules' {@code physics.uncertainty} block: what flags with a confidence are drawn with. */
+        private UncertaintySettings uncertainty = UncertaintySettings.DEFAULTS;
 
         Reader(String name) {
             this.name = name;
@@ -510,6 +545,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
             if (root.has("physics")) {
                 try {
                     physics = PhysicsSettingsFile.parse(root.get("physics"), name, "physics");
+                    uncertainty = PhysicsSettingsFile.uncertainty(root.get("physics"), name, "physics");
                 } catch (InvalidValueException e) {
                     throw new RulesException(e.getMessage());
                 }
@@ -579,9 +615,20 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                 throw error("defect", "is required for trap-density flags and figures (a defect id such as fe-i)",
                         "");
             }
+            exceedanceNeedsDensityFlag(top, "");
             List<Profile> profiles = root.has("profiles") ? profiles(root.get("profiles"), top) : List.of();
             return new Rules(c, override, defect, edgeExclusion, format, edgeBand, flag, limits, grades, failGrade,
                     profiles, physics);
+        }
+
+        /** An exceedance figure is measured against the profile's trap-density flag threshold. */
+        void exceedanceNeedsDensityFlag(Profile p, String prefix) throws RulesException {
+            for (Figure f : p.figures()) {
+                if (f.kind() == Figure.Kind.EXCEEDANCE_AREA_FRACTION && p.flag().quantity() != FlagQuantity.TRAP_DENSITY) {
+                    throw error(prefix + "flag.quantity", f.name() + " is the share of the area whose trap density"
+                            + " exceeds the flag threshold with that confidence: it needs a trap-density flag", "");
+                }
+            }
         }
 
         String defect(JsonNode node, String path) throws RulesException {
@@ -641,6 +688,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                     throw error(p + ".defect", "is required for trap-density flags and figures (a defect id such"
                             + " as midgap)", "");
                 }
+                exceedanceNeedsDensityFlag(profile, p + ".");
                 out.add(profile);
             }
             return out;
@@ -694,7 +742,8 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         }
 
         Flag flag(JsonNode n, String path) throws RulesException {
-            onlyKeys(n, path, new LinkedHashSet<>(List.of("quantity", "threshold", "min_area_mm2", "below_limit")));
+            onlyKeys(n, path, new LinkedHashSet<>(List.of("quantity", "threshold", "min_area_mm2", "below_limit",
+                    "confidence")));
             if (!n.has("quantity")) {
                 throw error(path + ".quantity", "is required: lifetime or trap-density", "");
             }
@@ -723,7 +772,15 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                             "");
                 };
             }
-            return new Flag(quantity, t, minArea, below);
+            double confidence = Double.NaN;
+            if (n.has("confidence")) {
+                if (quantity != FlagQuantity.TRAP_DENSITY) {
+                    throw error(path + ".confidence", "needs a trap-density flag (the probability that the trap"
+                            + " density exceeds the threshold); a lifetime flag has no confidence", "");
+                }
+                confidence = number(n.get("confidence"), path + ".confidence", "probability, 0.95 = 95 %", 1e-6, 1);
+            }
+            return new Flag(quantity, t, minArea, below, confidence, uncertainty);
         }
 
         List<Limit> limits(JsonNode node, String path) throws RulesException {

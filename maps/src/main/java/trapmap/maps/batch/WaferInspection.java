@@ -16,6 +16,7 @@ import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.ConversionSettings;
+import trapmap.maps.process.ExceedanceMaps;
 import trapmap.maps.process.MapConversion;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.PixelGrid;
@@ -243,6 +244,15 @@ public final class WaferInspection {
         Rules.Flag flag = profile.flag();
         float[] flagValues = flag.quantity() == Rules.FlagQuantity.LIFETIME ? lifeValues : judged;
         RegionCriteria criteria = flag.criteria();
+        ExceedanceMaps exceedance = flag.confident() || figures.stream().anyMatch(
+                f -> f.kind() == Figure.Kind.EXCEEDANCE_AREA_FRACTION)
+                ? ConfidenceFlag.prepare(flag, lifetime.conditions(), defect, settings) : null;
+        if (flag.confident()) {
+            // P(N_t > N*) >= c exactly below one lifetime per wafer: the flag reads the lifetimes
+            double limit = exceedance.confidentLifetimeUs(flag.confidence());
+            flagValues = ConfidenceFlag.flaggable(lifeValues, count);
+            criteria = ConfidenceFlag.criteria(flag, limit);
+        }
         FlaggedRegions regions = FlaggedRegions.findPacked(flagValues, judged, grid, masks.indices(), count, criteria,
                 shape, rules.edgeExclusionMm(), buffers);
 
@@ -272,6 +282,8 @@ public final class WaferInspection {
                 case EDGE_TO_CENTRE_RATIO -> Masks.edgeToCentre(tau, masks);
                 case BELOW_LIMIT_AREA_FRACTION -> belowLimitFraction;
                 case INVALID_AREA_FRACTION -> invalid.fraction();
+                case EXCEEDANCE_AREA_FRACTION -> count == 0 ? Double.NaN : (double) ConfidenceFlag.countFlagged(
+                        lifeValues, count, exceedance.confidentLifetimeUs(f.percent() / 100)) / count;
             };
             values.put(f.name(), v);
         }

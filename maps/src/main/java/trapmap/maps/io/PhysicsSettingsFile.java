@@ -29,9 +29,12 @@ import trapmap.shared.error.InvalidValueException;
  *  "intrinsic_density": "altermatt-2003" | "sproul-green-1991" | "misiakos-1993" | "couderc-2014",
  *  "density_of_states": "green-1990" | "couderc-2014",
  *  "radiative_coefficient_cm3_s": 4.73e-15,
- *  "detection_resolution": 0.05}
+ *  "detection_resolution": 0.05,
+ *  "uncertainty": {...}}
  * </pre>
- * A bad value is refused with one message naming the file, the field and its unit.
+ * The {@code uncertainty} block (what exceedance probabilities and density quantiles are drawn with) is read by
+ * {@link #uncertainty(JsonNode, String, String)} and {@link #readUncertainty(Path)}; its keys are those of
+ * {@link UncertaintySettings}. A bad value is refused with one message naming the file, the field and its unit.
  */
 public final class PhysicsSettingsFile {
     /** The keys of the JSON form, in the order they are written. */
@@ -51,6 +54,37 @@ public final class PhysicsSettingsFile {
      * @throws InvalidValueException with a message that starts with the file name and names the field and unit
      */
     public static PhysicsSettings read(Path file) {
+        return parse(tree(file), file.toString(), "");
+    }
+
+    /**
+     * The {@code uncertainty} block of a physics settings file ({@link UncertaintySettings#DEFAULTS} without one);
+     * the rest of the file is checked as by {@link #read}.
+     *
+     * @throws InvalidValueException with a message that starts with the file name and names the field and unit
+     */
+    public static UncertaintySettings readUncertainty(Path file) {
+        JsonNode root = tree(file);
+        parse(root, file.toString(), "");
+        return uncertainty(root, file.toString(), "");
+    }
+
+    /**
+     * The {@code uncertainty} block of a physics settings object ({@link UncertaintySettings#DEFAULTS} without one).
+     *
+     * @param name prefix of every message (the file's name)
+     * @param path the physics object's path in its file ("" for a settings file, "physics" for a block)
+     */
+    public static UncertaintySettings uncertainty(JsonNode node, String name, String path) {
+        JsonNode u = node == null ? null : node.get(UNCERTAINTY);
+        return u == null ? UncertaintySettings.DEFAULTS
+                : UncertaintySettings.parse(u, name, path.isEmpty() ? UNCERTAINTY : path + "." + UNCERTAINTY);
+    }
+
+    /** The key of the uncertainty block. */
+    public static final String UNCERTAINTY = "uncertainty";
+
+    private static JsonNode tree(Path file) {
         String name = file.toString();
         String text;
         try {
@@ -69,7 +103,7 @@ public final class PhysicsSettingsFile {
         } catch (JsonProcessingException e) {
             throw new InvalidValueException("physics", "", name + ": " + JsonErrors.notJson(e));
         }
-        return parse(root, name, "");
+        return root;
     }
 
     /**
@@ -87,8 +121,9 @@ public final class PhysicsSettingsFile {
         }
         for (Iterator<String> it = node.fieldNames(); it.hasNext(); ) {
             String k = it.next();
-            if (!KEYS.contains(k)) {
-                throw error(name, prefix + k, "unknown key; expected one of " + String.join(", ", KEYS), "");
+            if (!KEYS.contains(k) && !k.equals(UNCERTAINTY)) {
+                throw error(name, prefix + k, "unknown key; expected one of " + String.join(", ", KEYS) + ", "
+                        + UNCERTAINTY, "");
             }
         }
         PhysicsSettings d = PhysicsSettings.DEFAULTS;
@@ -103,6 +138,9 @@ public final class PhysicsSettingsFile {
                 PhysicsSettings.MAX_RADIATIVE_CM3_PER_S, d.radiativeCm3PerS(), name, prefix);
         double res = number(node, "detection_resolution", "relative, 0.05 = 5 %", 1e-6, 1, d.detectionResolution(),
                 name, prefix);
+        if (node.has(UNCERTAINTY)) {
+            uncertainty(node, name, path); // checked here too, so that every reader of the block refuses it alike
+        }
         return new PhysicsSettings(v, s, ni, dos, b, res);
     }
 

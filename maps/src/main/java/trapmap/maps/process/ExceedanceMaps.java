@@ -198,6 +198,7 @@ public final class ExceedanceMaps {
             }
         });
         Map<String, String> p = new LinkedHashMap<>(step.parameters());
+        p.remove("threshold_cm3"); // a quantile does not depend on N*
         p.put("quantile", Double.toString(q));
         return lifetime.derive(FloatRaster.wrap(lifetime.width(), lifetime.height(), out), Quantity.DENSITY_QUANTILE,
                 new ProcessingStep(step.operation(), p));

@@ -52,7 +52,9 @@ public record Verdict(boolean rulesVerdict, boolean pass, String grade, String r
         WaferResult r = e.result();
         Rules.Flag f = e.profile().flag();
         String rule = f.quantity().key() + (f.quantity() == Rules.FlagQuantity.LIFETIME ? " below " : " above ")
-                + Units.withUnit(f.threshold(), f.quantity().unit()) + ", regions of at least "
+                + Units.withUnit(f.threshold(), f.quantity().unit())
+                + (f.confident() ? " with probability at least " + Units.number(f.confidence()) : "")
+                + ", regions of at least "
                 + Units.number(f.minAreaMm2()) + " mm², edge exclusion " + Units.number(rules.edgeExclusionMm())
                 + " mm";
         return new Verdict(true, r.status() == WaferResult.Status.PASS, r.grade(), rulesName, r.profile(),

@@ -35,6 +35,8 @@ final class Criteria {
         boolean density = f.quantity() == Rules.FlagQuantity.TRAP_DENSITY;
         return (density ? "trap density above " : "lifetime below ") + Labels.number(f.threshold(),
                 f.quantity().unit()) + (density && p.defectId() != null ? " (" + p.defectId() + ")" : "")
+                + (f.confident() ? " with probability at least " + Labels.number(f.confidence()) + " ("
+                + Labels.number(f.uncertainty().samples()) + " samples, seed " + f.uncertainty().seed() + ")" : "")
                 + (f.minAreaMm2() > 0 ? ", regions of at least " + Labels.number(f.minAreaMm2()) + " " + Typeset.MM2
                 : "");
     }
