@@ -18,7 +18,7 @@ public enum DisplayedQuantity {
      * {@link ExceedanceSettings}, by Monte Carlo over the defect's parameter spread and the condition and lifetime
      * uncertainties; flagged by default where it is at least 0.5.
      */
-    EXCEEDANCE_PROBABILITY("probability of exceeding N*", Quantity.FRACTION, "P(N_t > N*)", 0.5,
+    EXCEEDANCE_PROBABILITY("probability of exceeding N*", Quantity.EXCEEDANCE_PROBABILITY, "P(N_t > N*)", 0.5,
             RegionCriteria.Side.ABOVE);
 
     private final String label;

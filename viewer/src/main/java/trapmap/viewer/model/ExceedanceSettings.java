@@ -1,5 +1,6 @@
 package trapmap.viewer.model;
 
+import trapmap.maps.io.UncertaintySettings;
 import trapmap.physics.uncertainty.ConditionUncertainty;
 import trapmap.physics.uncertainty.ExceedanceModel;
 import trapmap.shared.check.Checks;
@@ -17,16 +18,16 @@ import trapmap.shared.check.Checks;
  */
 public record ExceedanceSettings(ConditionUncertainty uncertainty, double thresholdPerCm3, int samples, long seed) {
     /**
-     * Most samples the viewer accepts: each wafer draws them when it is analysed, and the readout's two quantiles
-     * cost one pass over them per pixel under the cursor (about 1 ms at 10⁵).
+     * Most samples accepted, the physics model's; each wafer draws them when it is analysed, and the readout's two
+     * quantiles cost one pass over them per pixel under the cursor (about 0.1 ms per 10⁴).
      */
-    public static final int MAX_SAMPLES = 100_000;
+    public static final int MAX_SAMPLES = ExceedanceModel.MAX_SAMPLES;
     /** Default N*: the viewer's default trap-density threshold, cm⁻³. */
     public static final double DEFAULT_THRESHOLD_CM3 = 3e11;
-    /** Default number of samples: a probability then has a Monte Carlo standard error of at most 0.5/√10⁴ = 0.005. */
-    public static final int DEFAULT_SAMPLES = 10_000;
-    /** Default seed. */
-    public static final long DEFAULT_SEED = 1;
+    /** Default number of samples, as for {@code convert} and rules: a probability's Monte Carlo standard error is at most 0.5/√10⁴ = 0.005. */
+    public static final int DEFAULT_SAMPLES = UncertaintySettings.DEFAULT_SAMPLES;
+    /** Default seed, as for {@code convert} and rules. */
+    public static final long DEFAULT_SEED = UncertaintySettings.DEFAULT_SEED;
     /** Lower quantile level shown in the readout. */
     public static final double LOW_QUANTILE = 0.05;
     /** Upper quantile level shown in the readout. */
@@ -57,6 +58,16 @@ public record ExceedanceSettings(ConditionUncertainty uncertainty, double thresh
 
     public ExceedanceSettings withSeed(long s) {
         return new ExceedanceSettings(uncertainty, thresholdPerCm3, samples, s);
+    }
+
+    /** The same N* with the uncertainties, samples and seed of a physics settings file's {@code uncertainty} block. */
+    public ExceedanceSettings withDrawn(UncertaintySettings u) {
+        return new ExceedanceSettings(u.uncertainty(), thresholdPerCm3, u.samples(), u.seed());
+    }
+
+    /** The uncertainties, samples and seed as the {@code uncertainty} block of physics settings and rules. */
+    public UncertaintySettings drawn() {
+        return new UncertaintySettings(uncertainty, samples, seed);
     }
 
     /** One line for the panel and the legend, e.g. {@code N* 3e11 cm⁻³, 10000 samples, seed 1}. */

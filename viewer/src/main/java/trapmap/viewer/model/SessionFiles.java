@@ -46,10 +46,11 @@ import trapmap.shared.text.TextLimits;
  *  "rules": "rules-example.json",          (or null: the quick threshold check)
  *  "defect_for_all": null,                  (a defect replacing every rules profile's)
  *  "physics": {"thermal_velocity": "green", …}  (or null: the rules file's physics block, else the defaults)
- *  "exceedance": {"threshold_cm3": 3e11, "samples": 10000, "seed": 1,
- *                 "uncertainty": {"doping_relative": 0.05, "thickness_relative": 0.02, "srv_relative": 0.5,
- *                                 "injection_relative": 0.1, "temperature_k": 1, "lifetime_relative": 0.03}},
- *                 (missing: the defaults of {@link ExceedanceSettings#DEFAULT}; a missing field: its default)
+ *  "exceedance": {"threshold_cm3": 3e11,
+ *                 "uncertainty": {"doping_relative": 0.05, …, "samples": 10000, "seed": 1}},
+ *                 (the uncertainty block of physics settings files, read by the same parser,
+ *                  {@link trapmap.maps.io.UncertaintySettings}; missing: the defaults of
+ *                  {@link ExceedanceSettings#DEFAULT})
  *  "defect_overrides": {"wafers/w07.tif": "cr-i"}}   (per file)
  * </pre>
  * Unknown keys are errors; every error names the file and the field (with its unit). Writing is atomic.
@@ -66,9 +67,7 @@ public final class SessionFiles {
     private static final Set<String> KEYS = Set.of("format", "version", "files", "selected", "conditions", "defect",
             "user_defects", "quantity", "display", "threshold", "line", "edge_exclusion_mm", "views", "rules",
             "defect_for_all", "defect_overrides", "physics", "exceedance");
-    private static final Set<String> EXCEEDANCE_KEYS = Set.of("threshold_cm3", "samples", "seed", "uncertainty");
-    private static final Set<String> UNCERTAINTY_KEYS = Set.of("doping_relative", "thickness_relative",
-            "srv_relative", "injection_relative", "temperature_k", "lifetime_relative");
+    private static final Set<String> EXCEEDANCE_KEYS = Set.of("threshold_cm3", "uncertainty");
 
     /**
      * A session file that cannot be used; the message names the file and the field, on one line (line breaks that
@@ -145,16 +144,7 @@ public final class SessionFiles {
         ExceedanceSettings ex = a.exceedance();
         ObjectNode en = root.putObject("exceedance");
         en.put("threshold_cm3", ex.thresholdPerCm3());
-        en.put("samples", ex.samples());
-        en.put("seed", ex.seed());
-        var u = ex.uncertainty();
-        ObjectNode un = en.putObject("uncertainty");
-        un.put("doping_relative", u.dopingRelative());
-        un.put("thickness_relative", u.thicknessRelative());
-        un.put("srv_relative", u.srvRelative());
-        un.put("injection_relative", u.injectionRelative());
-        un.put("temperature_k", u.temperatureK());
-        un.put("lifetime_relative", u.lifetimeRelative());
+        en.set("uncertainty", JSON.valueToTree(ex.drawn().toJson()));
         ObjectNode vn = root.putObject("views");
         s.views().entrySet().stream().sorted(Map.Entry.comparingByKey()).forEach(e -> {
             ObjectNode v = vn.putObject(rel(e.getKey(), dir));
@@ -495,35 +485,16 @@ public final class SessionFiles {
         }
         r.object(en, "exceedance");
         r.keys(en, EXCEEDANCE_KEYS, "exceedance.");
-        double samples = r.num(en, "exceedance.samples", "", d.samples());
-        double seed = r.num(en, "exceedance.seed", "", d.seed());
-        if (samples != Math.rint(samples) || Math.abs(samples) > Integer.MAX_VALUE) {
-            throw r.error("exceedance.samples", "", "must be a whole number but was " + fmt(samples));
-        }
-        if (seed != Math.rint(seed) || Math.abs(seed) > 1L << 53) {
-            throw r.error("exceedance.seed", "", "must be a whole number of at most 2^53 but was " + fmt(seed));
-        }
-        var u = d.uncertainty();
-        JsonNode un = en.get("uncertainty");
-        if (un != null && !un.isNull()) {
-            r.object(un, "exceedance.uncertainty");
-            r.keys(un, UNCERTAINTY_KEYS, "exceedance.uncertainty.");
-            String p = "exceedance.uncertainty.";
-            try {
-                u = new trapmap.physics.uncertainty.ConditionUncertainty(
-                        r.num(un, p + "doping_relative", "relative", u.dopingRelative()),
-                        r.num(un, p + "thickness_relative", "relative", u.thicknessRelative()),
-                        r.num(un, p + "srv_relative", "relative", u.srvRelative()),
-                        r.num(un, p + "injection_relative", "relative", u.injectionRelative()),
-                        r.num(un, p + "temperature_k", "K", u.temperatureK()),
-                        r.num(un, p + "lifetime_relative", "relative", u.lifetimeRelative()));
-            } catch (IllegalArgumentException e) {
-                throw new SessionException(name + ": exceedance.uncertainty: " + e.getMessage());
+        try {
+            if (en.has("uncertainty")) {
+                d = d.withDrawn(trapmap.maps.io.UncertaintySettings.parse(en.get("uncertainty"), name,
+                        "exceedance.uncertainty"));
             }
+        } catch (trapmap.shared.error.InvalidValueException e) {
+            throw new SessionException(e.getMessage());
         }
         try {
-            return new ExceedanceSettings(u, r.num(en, "exceedance.threshold_cm3", "cm^-3", d.thresholdPerCm3()),
-                    (int) samples, (long) seed);
+            return d.withThreshold(r.num(en, "exceedance.threshold_cm3", "cm^-3", d.thresholdPerCm3()));
         } catch (IllegalArgumentException e) {
             throw new SessionException(name + ": exceedance: " + e.getMessage());
         }

@@ -405,6 +405,28 @@ public final class ViewerModel {
         fire(Change.RULES);
     }
 
+    /**
+     * Converts with a physics settings file from now on ({@link #setPhysics}) and draws the probability of exceeding
+     * N* with its {@code uncertainty} block (uncertainties, samples, seed; without the block the documented
+     * defaults), as {@code convert --physics} does. Checks the whole file first; on error nothing changes.
+     *
+     * @param undoable true: the new uncertainties are one undo step of the analysis (a file the user loads); false:
+     *                 they replace the analysis's without one (the file the viewer starts with)
+     * @throws trapmap.shared.error.InvalidValueException naming the file, the field and its unit
+     */
+    public PhysicsSettings loadPhysics(Path file, boolean undoable) {
+        PhysicsSettings p = trapmap.maps.io.PhysicsSettingsFile.read(file);
+        trapmap.maps.io.UncertaintySettings u = trapmap.maps.io.PhysicsSettingsFile.readUncertainty(file);
+        setPhysics(p);
+        Analysis a = analysis.withExceedance(analysis.exceedance().withDrawn(u));
+        if (undoable) {
+            setAnalysis(a, "uncertainty of physics settings");
+        } else {
+            resetAnalysis(a);
+        }
+        return p;
+    }
+
     /** The defect that replaces every wafer's (the rules profile's, or the viewer's), or null for none. */
     public String defectOverrideAll() {
         return defectOverrideAll;

@@ -182,7 +182,11 @@ public final class WaferAnalyzer {
             conv = convert(lifetime, defect, physics);
         }
         check(cancelled);
-        ExceedanceLayer exceedance = exceedance(lifetime, conv, defect, physics, analysis, previous);
+        Rules.Flag flag = ev.profile().flag();
+        // a flag with a confidence shows the probability it judged (its N*, the rules' uncertainties)
+        ExceedanceLayer exceedance = flag.confident() && conv != null
+                ? ExceedanceLayer.ofFlag(flag, lifetime, defect, physics)
+                : exceedance(lifetime, conv, defect, physics, analysis, previous);
         check(cancelled);
         DisplayedQuantity q = analysis.quantity();
         WaferMap displayed = displayed(q, lifetime, conv, exceedance);
@@ -192,23 +196,43 @@ public final class WaferAnalyzer {
         MapStatistics shown = displayed == lifetime ? life : MapStatistics.of(displayed, okPixels(q, mask, conv).and(
                 Mask.valid(displayed.raster())), StatisticsRequest.of(LIFETIME_PERCENTS));
         check(cancelled);
-        Rules.Flag flag = ev.profile().flag();
         boolean lifetimeFlag = flag.quantity() == Rules.FlagQuantity.LIFETIME;
-        RegionCriteria criteria = flag.criteria();
+        // a flag with a confidence is a lifetime limit per wafer (the batch's regions are found on the lifetimes)
+        RegionCriteria criteria = flag.confident() && exceedance != null && exceedance.available()
+                ? trapmap.maps.batch.ConfidenceFlag.criteria(flag, exceedance.confidentLifetimeUs(flag.confidence()))
+                : flag.criteria();
         RegionTable regions = new RegionTable(ev.regions().regions().stream().map(FlaggedRegions.FlaggedRegion::region)
                 .toList(), criteria, ev.shape() != null ? RegionTable.EdgeReference.WAFER_SHAPE
                 : RegionTable.EdgeReference.DATA_OUTLINE);
         Double judged = ev.result().figures().get("flagged_area_fraction");
         double fraction = judged != null ? judged : life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2()
                 : Double.NaN;
-        double shownThreshold = (lifetimeFlag && q == DisplayedQuantity.LIFETIME)
-                || (!lifetimeFlag && q == DisplayedQuantity.TRAP_DENSITY) ? flag.threshold() : Double.NaN;
+        double shownThreshold = shownThreshold(flag, q, exceedance);
         Verdict verdict = Verdict.of(ev, rules.rules(), rules.name(),
                 !analysis.conditions().equals(ConditionOverrides.NONE));
         return new WaferAnalysis(analysis, lifetime, conv, displayed, ev.shape(), mask, life, shown, regions,
                 ev.regions().pixels(), fraction, keyFigure(q, shown, fraction), verdict, shownThreshold,
-                lifetimeFlag ? "µs" : "cm⁻³", rules.rules().edgeExclusionMm(),
+                lifetimeFlag || flag.confident() ? "µs" : "cm⁻³", rules.rules().edgeExclusionMm(),
                 conv == null ? Set.of() : conv.warnings(), exceedance);
+    }
+
+    /**
+     * The rules flag's threshold in the shown quantity's unit, NaN where the flag is on another quantity. A flag with
+     * a confidence c (pixels with P(N_t &gt; N*) ≥ c) is its confidence on the probability and its lifetime limit
+     * τ_c on the lifetime (both bound exactly the flagged pixels); on the trap density it has none (the nominal
+     * density above N* is not what it flags).
+     */
+    static double shownThreshold(Rules.Flag flag, DisplayedQuantity q, ExceedanceLayer exceedance) {
+        if (flag.confident()) {
+            return switch (q) {
+                case EXCEEDANCE_PROBABILITY -> flag.confidence();
+                case LIFETIME -> exceedance == null ? Double.NaN : exceedance.confidentLifetimeUs(flag.confidence());
+                default -> Double.NaN;
+            };
+        }
+        boolean lifetimeFlag = flag.quantity() == Rules.FlagQuantity.LIFETIME;
+        return (lifetimeFlag && q == DisplayedQuantity.LIFETIME)
+                || (!lifetimeFlag && q == DisplayedQuantity.TRAP_DENSITY) ? flag.threshold() : Double.NaN;
     }
 
     /**

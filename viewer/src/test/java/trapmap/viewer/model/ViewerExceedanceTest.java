@@ -143,13 +143,89 @@ class ViewerExceedanceTest {
         String base = "{\"format\": \"trapmap-session\", \"version\": 1, \"files\": [], \"exceedance\": %s}";
         assertThatThrownBy(() -> SessionFiles.parse(base.formatted("{\"threshold_cm3\": -1}"), "s.json", dir))
                 .hasMessageContaining("s.json").hasMessageContaining("threshold N*").hasMessageContaining("cm^-3");
-        assertThatThrownBy(() -> SessionFiles.parse(base.formatted("{\"samples\": 2.5}"), "s.json", dir))
-                .hasMessageContaining("exceedance.samples").hasMessageContaining("whole number");
+        // the uncertainty block is read by the physics settings files' parser
+        assertThatThrownBy(() -> SessionFiles.parse(base.formatted("{\"uncertainty\": {\"samples\": 2.5}}"),
+                "s.json", dir)).hasMessageStartingWith("s.json: field 'exceedance.uncertainty.samples'")
+                .hasMessageContaining("whole number");
         assertThatThrownBy(() -> SessionFiles.parse(base.formatted("{\"uncertainty\": {\"srv_relative\": 3}}"),
-                "s.json", dir)).hasMessageContaining("s.json: exceedance.uncertainty")
-                .hasMessageContaining("srv_uncertainty");
+                "s.json", dir)).hasMessageContaining("s.json: field 'exceedance.uncertainty.srv_relative'")
+                .hasMessageContaining("relative");
         assertThatThrownBy(() -> SessionFiles.parse(base.formatted("{\"uncertainty\": {\"doping\": 0.1}}"),
-                "s.json", dir)).hasMessageContaining("exceedance.uncertainty.doping is not a known key");
+                "s.json", dir)).hasMessageContaining("exceedance.uncertainty.doping").hasMessageContaining("unknown key");
+        assertThatThrownBy(() -> SessionFiles.parse(base.formatted("{\"samples\": 100}"), "s.json", dir))
+                .hasMessageContaining("exceedance.samples is not a known key");
+    }
+
+    @Test
+    void physicsSettingsFileGivesTheUncertainties() throws Exception {
+        Path file = dir.resolve("physics.json");
+        java.nio.file.Files.writeString(file, "{\"thermal_velocity\": \"green\", \"uncertainty\":"
+                + " {\"srv_relative\": 0.2, \"samples\": 3000, \"seed\": 9}}");
+        ViewerModel m = opened();
+        m.setAnalysis(m.analysis().withExceedance(SMALL), "exceedance settings");
+        m.loadPhysics(file, true);
+        ExceedanceSettings s = m.analysis().exceedance();
+        assertThat(s.uncertainty().srvRelative()).isEqualTo(0.2);
+        assertThat(s.uncertainty().dopingRelative()).isEqualTo(ConditionUncertainty.DEFAULTS.dopingRelative());
+        assertThat(s.samples()).isEqualTo(3000);
+        assertThat(s.seed()).isEqualTo(9);
+        assertThat(s.thresholdPerCm3()).isEqualTo(SMALL.thresholdPerCm3());
+        assertThat(m.physicsOverride()).isNotNull();
+        m.undo();
+        assertThat(m.analysis().exceedance()).isEqualTo(SMALL);
+        java.nio.file.Files.writeString(file, "{\"uncertainty\": {\"temperature_k\": 99}}");
+        assertThatThrownBy(() -> m.loadPhysics(file, true)).hasMessageContaining("uncertainty.temperature_k")
+                .hasMessageContaining("K");
+        assertThat(m.analysis().exceedance()).isEqualTo(SMALL);
+    }
+
+    @Test
+    void rulesFlagWithConfidenceIsTheBatchVerdictOnEveryLayer() throws Exception {
+        String text = """
+                {"defect": "fe-i",
+                 "flag": {"quantity": "trap-density", "threshold": 2e11, "min_area_mm2": 2, "confidence": 0.9},
+                 "limits": {"flagged_area_fraction": {"max": 0.05}},
+                 "physics": {"uncertainty": {"samples": 2000, "seed": 3}}}""";
+        Path rules = dir.resolve("rules.json");
+        java.nio.file.Files.writeString(rules, text);
+        trapmap.maps.batch.Rules parsed = trapmap.maps.batch.Rules.parse(text, "r");
+        trapmap.maps.batch.WaferResult batch = new trapmap.maps.batch.WaferInspection(parsed)
+                .inspect(ViewerModelTest.W03);
+        ViewerModel m = opened();
+        m.loadRules(rules);
+        m.setAnalysis(m.analysis().withQuantity(DisplayedQuantity.EXCEEDANCE_PROBABILITY), "quantity");
+        WaferAnalysis r = m.compute(0, () -> false);
+        assertThat(r.verdict().rulesVerdict()).isTrue();
+        assertThat(r.flaggedFraction()).isEqualTo(batch.figures().get("flagged_area_fraction"));
+        assertThat(r.flaggedFraction()).isPositive();
+        // the layer is the flag's: its N*, the rules' samples and seed
+        assertThat(r.exceedance().settings().thresholdPerCm3()).isEqualTo(2e11);
+        assertThat(r.exceedance().settings().samples()).isEqualTo(2000);
+        assertThat(r.flagThreshold()).isEqualTo(0.9);
+        float[] p = r.displayed().raster().samples();
+        float[] tau = r.lifetime().raster().samples();
+        double limit = r.exceedance().confidentLifetimeUs(0.9);
+        int w = r.lifetime().width();
+        int atLeast = 0;
+        for (int i = 0; i < p.length; i++) {
+            boolean confident = p[i] >= 0.9;
+            // P >= c exactly below the lifetime limit
+            if (tau[i] >= 0.001) {
+                assertThat(confident).as("pixel %d", i).isEqualTo(tau[i] < limit);
+            }
+            if (r.flagged().get(i)) {
+                assertThat(confident).as("flagged pixel %d, %d", i % w, i / w).isTrue();
+            }
+            atLeast += confident && r.mask().contains(i % w, i / w) ? 1 : 0;
+        }
+        assertThat(r.flagged().cardinality()).isPositive().isLessThanOrEqualTo(atLeast);
+        // on the lifetime the flag is its lifetime limit; on the nominal density it has none
+        m.setAnalysis(m.analysis().withQuantity(DisplayedQuantity.LIFETIME), "quantity");
+        assertThat(m.compute(0, () -> false).flagThreshold()).isEqualTo(limit);
+        m.setAnalysis(m.analysis().withQuantity(DisplayedQuantity.TRAP_DENSITY), "quantity");
+        WaferAnalysis density = m.compute(0, () -> false);
+        assertThat(density.flagThreshold()).isNaN();
+        assertThat(density.flagged()).isEqualTo(r.flagged());
     }
 
     @Test
@@ -171,6 +247,6 @@ class ViewerExceedanceTest {
         assertThat(o.error(ExceedanceForm.Field.THRESHOLD)).startsWith("threshold N* (cm⁻³): '0'");
         assertThat(o.error(ExceedanceForm.Field.LIFETIME)).isEqualTo("lifetime noise (%): 'x' is not a number");
         assertThat(o.error(ExceedanceForm.Field.TEMPERATURE)).contains("(K)").contains("from 0 to 50 K");
-        assertThat(o.error(ExceedanceForm.Field.SAMPLES)).contains("from 16 to 100000");
+        assertThat(o.error(ExceedanceForm.Field.SAMPLES)).contains("from 16 to 4194304");
     }
 }
