@@ -60,6 +60,14 @@ public record WaferAnalysis(Analysis analysis, WaferMap lifetime, MapConversion.
         }
     }
 
+    /**
+     * What the probability of exceeding N* was drawn with: the prepared layer's settings (a rules flag's with a
+     * confidence, or the analysis's), else the analysis's.
+     */
+    public ExceedanceSettings exceedanceSettings() {
+        return exceedance != null ? exceedance.settings() : analysis.exceedance();
+    }
+
     /** Largest flagged region's area, mm² (0 when none). */
     public double largestRegionMm2() {
         return regions.size() == 0 ? 0 : regions.byArea().get(0).areaMm2();

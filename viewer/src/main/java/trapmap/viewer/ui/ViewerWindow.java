@@ -366,7 +366,7 @@ public final class ViewerWindow extends JFrame {
         canvas.setStyle(style);
         DisplayedQuantity q = r.analysis().quantity();
         colourBar.setStyle(style);
-        colourBar.setLabel(q.isProbability() ? ExceedanceLayer.legend(r.analysis().exceedance())
+        colourBar.setLabel(q.isProbability() ? ExceedanceLayer.legend(r.exceedanceSettings())
                 : q.symbol() + (q.unit().isEmpty() ? "" : " (" + q.unit() + ")"));
         physics.showRange(range[0], range[1]);
         showCharts(r);

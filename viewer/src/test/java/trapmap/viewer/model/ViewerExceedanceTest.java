@@ -201,6 +201,8 @@ class ViewerExceedanceTest {
         // the layer is the flag's: its N*, the rules' samples and seed
         assertThat(r.exceedance().settings().thresholdPerCm3()).isEqualTo(2e11);
         assertThat(r.exceedance().settings().samples()).isEqualTo(2000);
+        // whatever the user's own N* (the default 3e11 cm⁻³), the legend names the flag's
+        assertThat(ExceedanceLayer.legend(r.exceedanceSettings())).isEqualTo("P(N_t > 2e11 cm⁻³)");
         assertThat(r.flagThreshold()).isEqualTo(0.9);
         float[] p = r.displayed().raster().samples();
         float[] tau = r.lifetime().raster().samples();

@@ -389,7 +389,6 @@ public final class PhysicsPanel extends WidthTrackingPanel {
             showDefectInfo();
             quantity.setSelectedItem(a.quantity());
             edge.setValue(a.edgeExclusionMm());
-            exceedanceInfo.setText(describe(a.exceedance()));
             DisplaySettings d = a.display();
             colours.setSelectedItem(d.colours());
             log.setSelected(d.logarithmic());
@@ -446,6 +445,11 @@ public final class PhysicsPanel extends WidthTrackingPanel {
                 ? "Band along the fitted wafer edge left out of statistics and regions, mm"
                 : "The rules file gives the edge exclusion: " + Units.number(model.rules().rules().edgeExclusionMm())
                 + " mm");
+        trapmap.viewer.model.WaferAnalysis shown = w == null ? null : w.result();
+        trapmap.viewer.model.ExceedanceSettings own = model.analysis().exceedance();
+        trapmap.viewer.model.ExceedanceSettings used = shown == null ? own : shown.exceedanceSettings();
+        exceedanceInfo.setText(used.equals(own) ? describe(own) : "this wafer: the rules flag's, " + describe(used)
+                + "\n(yours: " + own.describe() + ")");
         if (model.rules() == null) {
             defectInfo.setText(describe(model.defect()) + (w != null && w.defectOverride() != null
                     ? "\nthis wafer: " + w.defectOverride() + " (overridden)" : ""));
