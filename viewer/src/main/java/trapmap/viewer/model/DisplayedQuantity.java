@@ -16,7 +16,7 @@ public enum DisplayedQuantity {
     /**
      * The probability (0–1) that the pixel's equivalent trap density exceeds the threshold N* of the analysis's
      * {@link ExceedanceSettings}, by Monte Carlo over the defect's parameter spread and the condition and lifetime
-     * uncertainties; flagged by default where it is at least 0.5.
+     * uncertainties; flagged by default where it is above 0.5.
      */
     EXCEEDANCE_PROBABILITY("probability of exceeding N*", Quantity.EXCEEDANCE_PROBABILITY, "P(N_t > N*)", 0.5,
             RegionCriteria.Side.ABOVE);
