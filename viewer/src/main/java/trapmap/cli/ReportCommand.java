@@ -51,8 +51,9 @@ final class ReportCommand implements Callable<Integer> {
     Path physics;
 
     @Option(names = "--quantity", paramLabel = "<q>", defaultValue = "lifetime",
-            description = "The map shown: lifetime, trap-density, occupancy, srh-lifetime or status (default:"
-                    + " ${DEFAULT-VALUE}).")
+            description = "The map shown: lifetime, trap-density, occupancy, srh-lifetime, status or"
+                    + " exceedance-probability (P(N_t > N*), 0-1: a rules flag with a confidence gives N* and the"
+                    + " uncertainties, else N* = 3e11 cm^-3 and the defaults) (default: ${DEFAULT-VALUE}).")
     String quantity;
 
     @Option(names = "--defect", paramLabel = "<id>",

@@ -12,7 +12,14 @@ public enum DisplayedQuantity {
     TRAP_DENSITY("trap density", Quantity.TRAP_DENSITY, "N_t", 3e11, RegionCriteria.Side.ABOVE),
     OCCUPANCY("occupancy", Quantity.OCCUPANCY, "f_t", 0.5, RegionCriteria.Side.ABOVE),
     SRH_LIFETIME("SRH lifetime", Quantity.SRH_LIFETIME, "τ_SRH", 20, RegionCriteria.Side.BELOW),
-    STATUS("pixel status", Quantity.STATUS, "status", 0.5, RegionCriteria.Side.ABOVE);
+    STATUS("pixel status", Quantity.STATUS, "status", 0.5, RegionCriteria.Side.ABOVE),
+    /**
+     * The probability (0–1) that the pixel's equivalent trap density exceeds the threshold N* of the analysis's
+     * {@link ExceedanceSettings}, by Monte Carlo over the defect's parameter spread and the condition and lifetime
+     * uncertainties; flagged by default where it is above 0.5.
+     */
+    EXCEEDANCE_PROBABILITY("probability of exceeding N*", Quantity.EXCEEDANCE_PROBABILITY, "P(N_t > N*)", 0.5,
+            RegionCriteria.Side.ABOVE);
 
     private final String label;
     private final Quantity quantity;
@@ -52,6 +59,11 @@ public enum DisplayedQuantity {
         return this != LIFETIME;
     }
 
+    /** True for a probability from 0 to 1, coloured on a fixed 0–1 scale unless the user sets a range. */
+    public boolean isProbability() {
+        return this == EXCEEDANCE_PROBABILITY;
+    }
+
     /** True when values span decades (log slider, log colour scale by default). */
     public boolean logarithmic() {
         return quantity.logarithmic();
@@ -79,7 +91,7 @@ public enum DisplayedQuantity {
             }
         }
         throw new IllegalArgumentException("unknown quantity '" + key + "'; expected one of lifetime, trap-density,"
-                + " occupancy, srh-lifetime, status");
+                + " occupancy, srh-lifetime, status, exceedance-probability");
     }
 
     @Override

@@ -46,6 +46,11 @@ import trapmap.shared.text.TextLimits;
  *  "rules": "rules-example.json",          (or null: the quick threshold check)
  *  "defect_for_all": null,                  (a defect replacing every rules profile's)
  *  "physics": {"thermal_velocity": "green", …}  (or null: the rules file's physics block, else the defaults)
+ *  "exceedance": {"threshold_cm3": 3e11,
+ *                 "uncertainty": {"doping_relative": 0.05, …, "samples": 10000, "seed": 1}},
+ *                 (the uncertainty block of physics settings files, read by the same parser,
+ *                  {@link trapmap.maps.io.UncertaintySettings}; missing: the defaults of
+ *                  {@link ExceedanceSettings#DEFAULT})
  *  "defect_overrides": {"wafers/w07.tif": "cr-i"}}   (per file)
  * </pre>
  * Unknown keys are errors; every error names the file and the field (with its unit). Writing is atomic.
@@ -61,7 +66,8 @@ public final class SessionFiles {
 
     private static final Set<String> KEYS = Set.of("format", "version", "files", "selected", "conditions", "defect",
             "user_defects", "quantity", "display", "threshold", "line", "edge_exclusion_mm", "views", "rules",
-            "defect_for_all", "defect_overrides", "physics");
+            "defect_for_all", "defect_overrides", "physics", "exceedance");
+    private static final Set<String> EXCEEDANCE_KEYS = Set.of("threshold_cm3", "uncertainty");
 
     /**
      * A session file that cannot be used; the message names the file and the field, on one line (line breaks that
@@ -135,6 +141,10 @@ public final class SessionFiles {
             ln.put("band_width_mm", l.bandWidthMm());
         }
         root.put("edge_exclusion_mm", a.edgeExclusionMm());
+        ExceedanceSettings ex = a.exceedance();
+        ObjectNode en = root.putObject("exceedance");
+        en.put("threshold_cm3", ex.thresholdPerCm3());
+        en.set("uncertainty", JSON.valueToTree(ex.drawn().toJson()));
         ObjectNode vn = root.putObject("views");
         s.views().entrySet().stream().sorted(Map.Entry.comparingByKey()).forEach(e -> {
             ObjectNode v = vn.putObject(rel(e.getKey(), dir));
@@ -408,10 +418,11 @@ public final class SessionFiles {
             }
         }
         double edge = r.num(root, "edge_exclusion_mm", "mm", Analysis.DEFAULT.edgeExclusionMm());
+        ExceedanceSettings exceedance = exceedance(r, root.get("exceedance"), name);
 
         Analysis analysis;
         try {
-            analysis = new Analysis(cond, defect, q, display, threshold, line, edge);
+            analysis = new Analysis(cond, defect, q, display, threshold, line, edge, exceedance);
         } catch (IllegalArgumentException e) {
             throw new SessionException(name + ": " + e.getMessage());
         }
@@ -464,6 +475,29 @@ public final class SessionFiles {
         }
         return new Session(files, files.isEmpty() ? -1 : selected, analysis, userDefects, views, rules, forAll,
                 overrides, physics);
+    }
+
+    /** The {@code exceedance} block; missing fields take {@link ExceedanceSettings#DEFAULT}'s values. */
+    private static ExceedanceSettings exceedance(Reader r, JsonNode en, String name) throws SessionException {
+        ExceedanceSettings d = ExceedanceSettings.DEFAULT;
+        if (en == null || en.isNull()) {
+            return d;
+        }
+        r.object(en, "exceedance");
+        r.keys(en, EXCEEDANCE_KEYS, "exceedance.");
+        try {
+            if (en.has("uncertainty")) {
+                d = d.withDrawn(trapmap.maps.io.UncertaintySettings.parse(en.get("uncertainty"), name,
+                        "exceedance.uncertainty"));
+            }
+        } catch (trapmap.shared.error.InvalidValueException e) {
+            throw new SessionException(e.getMessage());
+        }
+        try {
+            return d.withThreshold(r.num(en, "exceedance.threshold_cm3", "cm^-3", d.thresholdPerCm3()));
+        } catch (IllegalArgumentException e) {
+            throw new SessionException(name + ": exceedance: " + e.getMessage());
+        }
     }
 
     private static String knownDefect(Reader r, String id, String field, List<Defect> userDefects)

@@ -405,6 +405,28 @@ public final class ViewerModel {
         fire(Change.RULES);
     }
 
+    /**
+     * Converts with a physics settings file from now on ({@link #setPhysics}) and draws the probability of exceeding
+     * N* with its {@code uncertainty} block (uncertainties, samples, seed; without the block the documented
+     * defaults), as {@code convert --physics} does. Checks the whole file first; on error nothing changes.
+     *
+     * @param undoable true: the new uncertainties are one undo step of the analysis (a file the user loads); false:
+     *                 they replace the analysis's without one (the file the viewer starts with)
+     * @throws trapmap.shared.error.InvalidValueException naming the file, the field and its unit
+     */
+    public PhysicsSettings loadPhysics(Path file, boolean undoable) {
+        PhysicsSettings p = trapmap.maps.io.PhysicsSettingsFile.read(file);
+        trapmap.maps.io.UncertaintySettings u = trapmap.maps.io.PhysicsSettingsFile.readUncertainty(file);
+        setPhysics(p);
+        Analysis a = analysis.withExceedance(analysis.exceedance().withDrawn(u));
+        if (undoable) {
+            setAnalysis(a, "uncertainty of physics settings");
+        } else {
+            resetAnalysis(a);
+        }
+        return p;
+    }
+
     /** The defect that replaces every wafer's (the rules profile's, or the viewer's), or null for none. */
     public String defectOverrideAll() {
         return defectOverrideAll;
@@ -562,7 +584,11 @@ public final class ViewerModel {
     public static double[] range(WaferAnalysis r, DisplaySettings d) {
         double lo;
         double hi;
-        if (d.autoRange()) {
+        if (d.autoRange() && r.analysis().quantity().isProbability()) {
+            // a probability is coloured on its whole scale, so that wafers compare by colour
+            lo = 0;
+            hi = 1;
+        } else if (d.autoRange()) {
             MapStatistics s = r.displayedStats();
             if (!has(s, d.lowPercent()) || !has(s, d.highPercent())) {
                 s = MapStatistics.of(r.displayed(), r.mask(), StatisticsRequest.of(
@@ -633,7 +659,23 @@ public final class ViewerModel {
         if (d != null && d.hasAbsoluteCrossSections() && !Double.isNaN(tau)) {
             px = converter(r, d).convert(tau);
         }
-        return new PixelReadout(g.xMm(xPx), g.yMm(yPx), r.analysis().quantity(), shown, tau, px);
+        return new PixelReadout(g.xMm(xPx), g.yMm(yPx), r.analysis().quantity(), shown, tau, px,
+                exceedanceAt(r.exceedance(), tau));
+    }
+
+    /** The probability and quantiles of a pixel measured at {@code tau} µs, or null without a prepared layer. */
+    static PixelReadout.Exceedance exceedanceAt(ExceedanceLayer layer, double tau) {
+        if (layer == null) {
+            return null;
+        }
+        double threshold = layer.settings().thresholdPerCm3();
+        if (!layer.available()) {
+            return new PixelReadout.Exceedance(threshold, Double.NaN, Double.NaN, Double.NaN,
+                    layer.unavailableReason());
+        }
+        return new PixelReadout.Exceedance(threshold, layer.probabilityAt(tau),
+                layer.quantileAt(tau, ExceedanceSettings.LOW_QUANTILE),
+                layer.quantileAt(tau, ExceedanceSettings.HIGH_QUANTILE), null);
     }
 
     private WaferAnalysis convFor;

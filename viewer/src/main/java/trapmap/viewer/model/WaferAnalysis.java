@@ -31,12 +31,15 @@ import trapmap.physics.conversion.ConversionWarning;
  * @param flagUnit        the unit of the regions' peak and mean values (the flagged quantity's)
  * @param edgeExclusionMm the edge exclusion the evaluated pixels leave out, mm (the rules' with a rules file)
  * @param warnings        cautions of the conversion
+ * @param exceedance      the probability of exceeding N* prepared for this wafer (with the reason when it cannot
+ *                        be), or null when no defect converts it
  */
 public record WaferAnalysis(Analysis analysis, WaferMap lifetime, MapConversion.Result conversion,
                             WaferMap displayed, WaferShape shape, Mask mask, MapStatistics lifetimeStats,
                             MapStatistics displayedStats, RegionTable regions, BitSet flagged,
                             double flaggedFraction, KeyFigure key, Verdict verdict, double flagThreshold,
-                            String flagUnit, double edgeExclusionMm, Set<ConversionWarning> warnings) {
+                            String flagUnit, double edgeExclusionMm, Set<ConversionWarning> warnings,
+                            ExceedanceLayer exceedance) {
 
     /** The verdict's outcome. */
     public boolean pass() {
@@ -57,6 +60,14 @@ public record WaferAnalysis(Analysis analysis, WaferMap lifetime, MapConversion.
         }
     }
 
+    /**
+     * What the probability of exceeding N* was drawn with: the prepared layer's settings (a rules flag's with a
+     * confidence, or the analysis's), else the analysis's.
+     */
+    public ExceedanceSettings exceedanceSettings() {
+        return exceedance != null ? exceedance.settings() : analysis.exceedance();
+    }
+
     /** Largest flagged region's area, mm² (0 when none). */
     public double largestRegionMm2() {
         return regions.size() == 0 ? 0 : regions.byArea().get(0).areaMm2();
@@ -65,6 +76,7 @@ public record WaferAnalysis(Analysis analysis, WaferMap lifetime, MapConversion.
     /** The same results with another verdict. */
     WaferAnalysis withVerdict(Verdict v) {
         return new WaferAnalysis(analysis, lifetime, conversion, displayed, shape, mask, lifetimeStats, displayedStats,
-                regions, flagged, flaggedFraction, key, v, flagThreshold, flagUnit, edgeExclusionMm, warnings);
+                regions, flagged, flaggedFraction, key, v, flagThreshold, flagUnit, edgeExclusionMm, warnings,
+                exceedance);
     }
 }

@@ -96,8 +96,10 @@ public final class WaferAnalyzer {
             conv = convert(lifetime, defect, physics);
         }
         check(cancelled);
+        ExceedanceLayer exceedance = exceedance(lifetime, conv, defect, physics, analysis, previous);
+        check(cancelled);
         DisplayedQuantity q = analysis.quantity();
-        WaferMap displayed = displayed(q, lifetime, conv);
+        WaferMap displayed = displayed(q, lifetime, conv, exceedance);
 
         WaferShape shape;
         if (sameLifetime) {
@@ -140,7 +142,7 @@ public final class WaferAnalyzer {
                 : defect.id(), invalid, belowLimit);
         return new WaferAnalysis(analysis, lifetime, conv, displayed, shape, mask, life, shown, regions, flagged,
                 fraction, keyFigure(q, shown, fraction), verdict, analysis.threshold().value(), q.unit(),
-                analysis.edgeExclusionMm(), conv == null ? Set.of() : conv.warnings());
+                analysis.edgeExclusionMm(), conv == null ? Set.of() : conv.warnings(), exceedance);
     }
 
     /**
@@ -180,15 +182,20 @@ public final class WaferAnalyzer {
             conv = convert(lifetime, defect, physics);
         }
         check(cancelled);
+        Rules.Flag flag = ev.profile().flag();
+        // a flag with a confidence shows the probability it judged (its N*, the rules' uncertainties)
+        ExceedanceLayer exceedance = flag.confident() && conv != null
+                ? ExceedanceLayer.ofFlag(flag, lifetime, defect, physics)
+                : exceedance(lifetime, conv, defect, physics, analysis, previous);
+        check(cancelled);
         DisplayedQuantity q = analysis.quantity();
-        WaferMap displayed = displayed(q, lifetime, conv);
+        WaferMap displayed = displayed(q, lifetime, conv, exceedance);
         boolean[] evaluated = ev.evaluated();
         Mask mask = Mask.of(lifetime.width(), lifetime.height(), i -> evaluated[i]);
         MapStatistics life = MapStatistics.of(lifetime, mask, StatisticsRequest.of(LIFETIME_PERCENTS));
         MapStatistics shown = displayed == lifetime ? life : MapStatistics.of(displayed, okPixels(q, mask, conv).and(
                 Mask.valid(displayed.raster())), StatisticsRequest.of(LIFETIME_PERCENTS));
         check(cancelled);
-        Rules.Flag flag = ev.profile().flag();
         boolean lifetimeFlag = flag.quantity() == Rules.FlagQuantity.LIFETIME;
         RegionCriteria criteria = ev.criteria();
         RegionTable regions = new RegionTable(ev.regions().regions().stream().map(FlaggedRegions.FlaggedRegion::region)
@@ -197,14 +204,32 @@ public final class WaferAnalyzer {
         Double judged = ev.result().figures().get("flagged_area_fraction");
         double fraction = judged != null ? judged : life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2()
                 : Double.NaN;
-        double shownThreshold = (lifetimeFlag && q == DisplayedQuantity.LIFETIME)
-                || (!lifetimeFlag && q == DisplayedQuantity.TRAP_DENSITY) ? flag.threshold() : Double.NaN;
+        double shownThreshold = shownThreshold(flag, q, exceedance);
         Verdict verdict = Verdict.of(ev, rules.rules(), rules.name(),
                 !analysis.conditions().equals(ConditionOverrides.NONE));
         return new WaferAnalysis(analysis, lifetime, conv, displayed, ev.shape(), mask, life, shown, regions,
                 ev.regions().pixels(), fraction, keyFigure(q, shown, fraction), verdict, shownThreshold,
-                lifetimeFlag ? "µs" : "cm⁻³", rules.rules().edgeExclusionMm(),
-                conv == null ? Set.of() : conv.warnings());
+                lifetimeFlag || flag.confident() ? "µs" : "cm⁻³", rules.rules().edgeExclusionMm(),
+                conv == null ? Set.of() : conv.warnings(), exceedance);
+    }
+
+    /**
+     * The rules flag's threshold in the shown quantity's unit, NaN where the flag is on another quantity. A flag with
+     * a confidence c (pixels with P(N_t &gt; N*) ≥ c) is its confidence on the probability and its lifetime limit
+     * τ_c on the lifetime (both bound exactly the flagged pixels); on the trap density it has none (the nominal
+     * density above N* is not what it flags).
+     */
+    static double shownThreshold(Rules.Flag flag, DisplayedQuantity q, ExceedanceLayer exceedance) {
+        if (flag.confident()) {
+            return switch (q) {
+                case EXCEEDANCE_PROBABILITY -> flag.confidence();
+                case LIFETIME -> exceedance == null ? Double.NaN : exceedance.confidentLifetimeUs(flag.confidence());
+                default -> Double.NaN;
+            };
+        }
+        boolean lifetimeFlag = flag.quantity() == Rules.FlagQuantity.LIFETIME;
+        return (lifetimeFlag && q == DisplayedQuantity.LIFETIME)
+                || (!lifetimeFlag && q == DisplayedQuantity.TRAP_DENSITY) ? flag.threshold() : Double.NaN;
     }
 
     /**
@@ -215,10 +240,33 @@ public final class WaferAnalyzer {
         return q == DisplayedQuantity.TRAP_DENSITY && conv != null ? mask.and(conv.statusMask(PixelStatus.OK)) : mask;
     }
 
-    /** The map of the shown quantity: the lifetime itself, or one output of the conversion. */
-    private static WaferMap displayed(DisplayedQuantity q, WaferMap lifetime, MapConversion.Result conv) {
+    /**
+     * The probability of exceeding N* of a converted wafer: the previous results' when the lifetime's conditions,
+     * defect, physics and exceedance settings are the same, else prepared anew; null without a conversion.
+     */
+    private static ExceedanceLayer exceedance(WaferMap lifetime, MapConversion.Result conv, Defect defect,
+                                              PhysicsSettings physics, Analysis analysis, WaferAnalysis previous) {
+        if (conv == null || defect == null) {
+            return null;
+        }
+        ExceedanceLayer old = previous == null ? null : previous.exceedance();
+        if (old != null && old.settings().equals(analysis.exceedance()) && previous.conversion() != null
+                && previous.conversion().defectId().equals(defect.id())
+                && previous.conversion().physics().equals(physics)
+                && previous.lifetime().conditions().equals(lifetime.conditions())) {
+            return old;
+        }
+        return ExceedanceLayer.prepare(lifetime, defect, physics, analysis.exceedance());
+    }
+
+    /** The map of the shown quantity: the lifetime itself, one output of the conversion, or the probability map. */
+    private static WaferMap displayed(DisplayedQuantity q, WaferMap lifetime, MapConversion.Result conv,
+                                      ExceedanceLayer exceedance) {
         if (q == DisplayedQuantity.LIFETIME) {
             return lifetime;
+        }
+        if (q == DisplayedQuantity.EXCEEDANCE_PROBABILITY && exceedance != null) {
+            return exceedance.probabilityMap(lifetime);
         }
         if (conv == null) {
             throw new IllegalArgumentException("showing the " + q.label() + " needs a defect with absolute capture"
@@ -234,6 +282,7 @@ public final class WaferAnalyzer {
             case TRAP_DENSITY -> new WaferAnalysis.KeyFigure("N_t P95", shown.percentile(95), "cm⁻³");
             case OCCUPANCY -> new WaferAnalysis.KeyFigure("f_t median", shown.median(), "");
             case STATUS -> new WaferAnalysis.KeyFigure("flagged", fraction * 100, "%");
+            case EXCEEDANCE_PROBABILITY -> new WaferAnalysis.KeyFigure("P(N_t > N*) P95", shown.percentile(95), "");
         };
     }
 

@@ -195,7 +195,8 @@ final class SessionController {
         fc.setFileFilter(new FileNameExtensionFilter("Physics settings (.json)", "json"));
         if (fc.showOpenDialog(window) == JFileChooser.APPROVE_OPTION) {
             try {
-                usePhysics(trapmap.maps.io.PhysicsSettingsFile.read(fc.getSelectedFile().toPath()));
+                model.loadPhysics(fc.getSelectedFile().toPath(), true);
+                status.setMessage("physics settings: " + model.physics().oneLine());
             } catch (RuntimeException e) {
                 window.error("Physics settings not loaded", e);
             }

@@ -105,7 +105,7 @@ public final class ViewerApp {
     public static ViewerWindow show(List<Path> files, RecentFiles recent, Path rules, Path physics) {
         ViewerModel model = new ViewerModel();
         if (physics != null) {
-            model.setPhysics(trapmap.maps.io.PhysicsSettingsFile.read(physics));
+            model.loadPhysics(physics, false);
         }
         if (rules != null) {
             try {

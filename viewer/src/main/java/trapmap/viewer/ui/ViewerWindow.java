@@ -58,6 +58,7 @@ import trapmap.viewer.ui.panels.ChartTabs;
 import trapmap.viewer.ui.panels.DefectDialog;
 import trapmap.viewer.ui.panels.GalleryPanel;
 import trapmap.viewer.ui.panels.PhysicsPanel;
+import trapmap.viewer.model.ExceedanceLayer;
 import trapmap.viewer.ui.panels.StatusBar;
 import trapmap.viewer.ui.panels.ThresholdPanel;
 
@@ -366,7 +367,8 @@ public final class ViewerWindow extends JFrame {
         canvas.setStyle(style);
         DisplayedQuantity q = r.analysis().quantity();
         colourBar.setStyle(style);
-        colourBar.setLabel(q.symbol() + (q.unit().isEmpty() ? "" : " (" + q.unit() + ")"));
+        colourBar.setLabel(q.isProbability() ? ExceedanceLayer.legend(r.exceedanceSettings())
+                : q.symbol() + (q.unit().isEmpty() ? "" : " (" + q.unit() + ")"));
         physics.showRange(range[0], range[1]);
         showCharts(r);
         if (lastProbe != null && lastProbe.xPx() < r.lifetime().width() && lastProbe.yPx() < r.lifetime().height()
@@ -541,6 +543,11 @@ public final class ViewerWindow extends JFrame {
         }
         g.dispose();
         return img;
+    }
+
+    /** Edits the settings of the probability of exceeding N* (Analysis ▸ Exceedance settings…). */
+    void editExceedance() {
+        physics.editExceedance();
     }
 
     void compare(boolean iron) {

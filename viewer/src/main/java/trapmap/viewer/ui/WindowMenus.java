@@ -277,6 +277,10 @@ final class WindowMenus {
                 MENU), e -> window.identify()), "Rank the library defects per pixel and region from maps of one wafer"
                 + " at several injection levels, with the lifetime fits and the DPSS"));
         analysis.addSeparator();
+        analysis.add(item(action("Exceedance settings…", KeyStroke.getKeyStroke(KeyEvent.VK_U, MENU),
+                e -> window.editExceedance()), "Threshold N* (cm⁻³), samples, seed and the uncertainties of the"
+                + " probability of exceeding N*"));
+        analysis.addSeparator();
         analysis.add(item(action("Override defect for this wafer…", null, e -> sessions.chooseDefectOverride(false)),
                 "Convert and judge the shown wafer with another defect than its rules profile's"));
         analysis.add(item(action("Override defect for all wafers…", null, e -> sessions.chooseDefectOverride(true)),
@@ -338,6 +342,7 @@ final class WindowMenus {
                 + "<tr><td>L</td><td>line tool</td></tr>"
                 + "<tr><td>Ctrl+K / Ctrl+I</td><td>compare / iron imaging</td></tr>"
                 + "<tr><td>Ctrl+D</td><td>identify the defect from injection levels</td></tr>"
+                + "<tr><td>Ctrl+U</td><td>exceedance settings (N*, samples, uncertainties)</td></tr>"
                 + "<tr><td>Esc</td><td>cancel the running analysis</td></tr>"
                 + "</table></html>", "Keyboard shortcuts", JOptionPane.INFORMATION_MESSAGE);
     }

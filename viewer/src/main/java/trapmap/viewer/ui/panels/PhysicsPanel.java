@@ -58,6 +58,7 @@ public final class PhysicsPanel extends WidthTrackingPanel {
     private final JTextField high = new JTextField(7);
     private final javax.swing.JLabel lowUnit = new javax.swing.JLabel();
     private final javax.swing.JLabel highUnit = new javax.swing.JLabel();
+    private final JTextArea exceedanceInfo = new JTextArea(3, 20);
     private final Timer debounce;
     private final java.util.Map<JTextField, String> plainTips = new java.util.HashMap<>();
     private boolean updating;
@@ -126,8 +127,25 @@ public final class PhysicsPanel extends WidthTrackingPanel {
         f.wide(buttons);
         quantity.setName("quantity");
         f.row("Show", quantity, null, "Displayed quantity: effective lifetime (µs), trap density (cm⁻³), occupancy"
-                + " f_t, SRH lifetime (µs) or pixel status");
+                + " f_t, SRH lifetime (µs), pixel status or the probability (0–1) that N_t exceeds N*");
         f.row("Edge exclusion", edge, "mm", "Band along the fitted wafer edge left out of statistics and regions, mm");
+
+        f.section("Probability of exceeding N*");
+        exceedanceInfo.setName("exceedanceInfo");
+        exceedanceInfo.setEditable(false);
+        exceedanceInfo.setLineWrap(true);
+        exceedanceInfo.setWrapStyleWord(true);
+        exceedanceInfo.setOpaque(false);
+        exceedanceInfo.setFont(UIManager.getFont("Label.font").deriveFont(11f));
+        exceedanceInfo.setToolTipText("Threshold N* (cm⁻³), Monte Carlo samples and seed, and the standard"
+                + " uncertainties the probability map and the readout's P(N_t > N*) and 5–95 % range of N_t use");
+        f.wide(exceedanceInfo);
+        JButton exceedance = new JButton("Exceedance settings…");
+        exceedance.setName("exceedanceSettings");
+        exceedance.setToolTipText("Edit N* (cm⁻³), samples, seed and the uncertainties of doping, thickness, SRV, Δn (%),"
+                + " temperature (K) and lifetime (%)");
+        exceedance.addActionListener(e -> editExceedance());
+        f.wide(exceedance);
 
         f.section("Colour scale");
         colours.setRenderer(new DefaultListCellRenderer() {
@@ -211,6 +229,15 @@ public final class PhysicsPanel extends WidthTrackingPanel {
         low.addActionListener(e -> commitRange());
         high.addActionListener(e -> commitRange());
         refresh();
+    }
+
+    /** Asks for the exceedance settings and applies them (one undo step). */
+    public void editExceedance() {
+        trapmap.viewer.model.ExceedanceSettings s = ExceedanceDialog.ask(
+                javax.swing.SwingUtilities.getWindowAncestor(this), model.analysis().exceedance());
+        if (s != null) {
+            apply(a -> a.withExceedance(s), "exceedance settings");
+        }
     }
 
     private void apply(java.util.function.UnaryOperator<Analysis> change, String name) {
@@ -418,6 +445,11 @@ public final class PhysicsPanel extends WidthTrackingPanel {
                 ? "Band along the fitted wafer edge left out of statistics and regions, mm"
                 : "The rules file gives the edge exclusion: " + Units.number(model.rules().rules().edgeExclusionMm())
                 + " mm");
+        trapmap.viewer.model.WaferAnalysis shown = w == null ? null : w.result();
+        trapmap.viewer.model.ExceedanceSettings own = model.analysis().exceedance();
+        trapmap.viewer.model.ExceedanceSettings used = shown == null ? own : shown.exceedanceSettings();
+        exceedanceInfo.setText(used.equals(own) ? describe(own) : "this wafer: the rules flag's, " + describe(used)
+                + "\n(yours: " + own.describe() + ")");
         if (model.rules() == null) {
             defectInfo.setText(describe(model.defect()) + (w != null && w.defectOverride() != null
                     ? "\nthis wafer: " + w.defectOverride() + " (overridden)" : ""));
@@ -434,6 +466,16 @@ public final class PhysicsPanel extends WidthTrackingPanel {
                 + (judged == null ? "no defect" : judged.id()) + " (profile " + r.verdict().profile()
                 + (r.verdict().defectOverridden() ? ", overridden" : "") + "); the choice above applies only where a"
                 + " profile names no defect.\n" + (judged == null ? "" : describe(judged)));
+    }
+
+    /** N*, samples, seed and the uncertainties, for the info box. */
+    public static String describe(trapmap.viewer.model.ExceedanceSettings s) {
+        var u = s.uncertainty();
+        return String.format(Locale.ROOT, "%s%nuncertainty: doping %s %%, thickness %s %%, SRV %s %%, Δn %s %%,"
+                + " T %s K, lifetime %s %%", s.describe(), Units.number(u.dopingRelative() * 100),
+                Units.number(u.thicknessRelative() * 100), Units.number(u.srvRelative() * 100),
+                Units.number(u.injectionRelative() * 100), Units.number(u.temperatureK()),
+                Units.number(u.lifetimeRelative() * 100));
     }
 
     /** Level, cross-sections, ratio and source of a defect, for the info box and the help. */

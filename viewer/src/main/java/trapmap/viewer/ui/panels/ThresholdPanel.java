@@ -198,7 +198,11 @@ public final class ThresholdPanel extends JPanel {
             ViewerModel.OpenWafer w = model.selected();
             WaferAnalysis r = w == null ? null : w.result();
             log = q.logarithmic();
-            if (r != null && r.analysis().quantity() == q) {
+            if (q.isProbability()) {
+                // a probability's slider spans its whole scale
+                lo = 0;
+                hi = 1;
+            } else if (r != null && r.analysis().quantity() == q) {
                 double min = r.displayedStats().min();
                 double max = r.displayedStats().max();
                 if (log) {

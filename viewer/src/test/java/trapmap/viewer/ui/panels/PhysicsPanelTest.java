@@ -56,4 +56,40 @@ class PhysicsPanelTest {
         assertThat(model.analysis().conditions().thicknessUm()).isEqualTo(175.0);
         assertThat(PhysicsPanel.marked(thickness)).isFalse();
     }
+
+    private static javax.swing.JTextArea area(java.awt.Container c, String name) {
+        for (java.awt.Component k : c.getComponents()) {
+            if (k instanceof javax.swing.JTextArea t && name.equals(t.getName())) {
+                return t;
+            }
+            if (k instanceof java.awt.Container kc) {
+                javax.swing.JTextArea f = area(kc, name);
+                if (f != null) {
+                    return f;
+                }
+            }
+        }
+        return null;
+    }
+
+    @Test
+    void exceedanceBoxShowsTheSettingsInUseWithUnits(@org.junit.jupiter.api.io.TempDir java.nio.file.Path dir)
+            throws Exception {
+        ViewerModel model = new ViewerModel();
+        PhysicsPanel p = new PhysicsPanel(model, () -> { }, () -> { });
+        javax.swing.JTextArea info = area(p, "exceedanceInfo");
+        p.showDefectInfo();
+        assertThat(info.getText()).isEqualTo("N* 3e11 cm⁻³, 10000 samples, seed 1\nuncertainty: doping 5 %,"
+                + " thickness 2 %, SRV 50 %, Δn 10 %, T 1 K, lifetime 3 %");
+        // a rules flag with a confidence draws with its own N* and the rules' uncertainties: the box says so
+        java.nio.file.Path rules = dir.resolve("r.json");
+        java.nio.file.Files.writeString(rules, "{\"defect\": \"fe-i\", \"flag\": {\"quantity\": \"trap-density\","
+                + " \"threshold\": 2e11, \"confidence\": 0.9}, \"physics\": {\"uncertainty\": {\"samples\": 500}}}");
+        model.open(java.util.List.of(java.nio.file.Path.of("..", "demo-data", "LOT-A01-W03.tif")));
+        model.loadRules(rules);
+        model.compute(0, () -> false);
+        p.showDefectInfo();
+        assertThat(info.getText()).startsWith("this wafer: the rules flag's, N* 2e11 cm⁻³, 500 samples, seed 1")
+                .endsWith("(yours: N* 3e11 cm⁻³, 10000 samples, seed 1)");
+    }
 }
