@@ -275,8 +275,8 @@ final class MapBuilder {
             }
             Map<String, String> extra = new TreeMap<>(conditions.extra());
             extra.put(PAGE_LABEL, labels.get(page));
-            conditions = conditions.overriddenBy(new MeasurementConditions(null, null, null, null, null, null, null,
-                    null, extra));
+            conditions = Sidecar.withPage(conditions, meta.pageConditions().get(page)).overriddenBy(
+                    new MeasurementConditions(null, null, null, null, null, null, null, null, extra));
         }
         String waferId = meta.waferId() != null ? meta.waferId() : stem;
         MapHeader before = new MapHeader(grid, quantity, waferId, conditions, base.then(steps));

@@ -50,7 +50,10 @@ import trapmap.shared.text.TextLimits;
  *   "centre_y_px": 255.5,                   row of the wafer centre, px (row 0 at the top); default: raster centre
  *   "scale": 0.01, "offset": 0,             integer samples (8/16-bit) hold raw values: value = offset + scale·raw
  *   "no_data": 0,                           raw sample value that means "no data" (becomes NaN)
- *   "pages": ["before", "after"],           labels of the pages of a multi-page file, in page order
+ *   "pages": ["before", "after"],           labels of the pages of a multi-page file, in page order; an entry may
+ *                                           also be an object {"label": "1e13", "injection_cm3": 1e13} whose
+ *                                           condition fields (doping and the numeric fields of "conditions", same
+ *                                           units and ranges) hold for that page only, over the top-level ones
  *   "conditions": {
  *     "doping": "p:1e16",                   p:/n: and a net density in cm^-3, or a resistivity at 23 °C in Ω·cm
  *                                           ("p:1.5ohmcm", "n:2ohmcm"; ASTM F723)
@@ -89,13 +92,17 @@ import trapmap.shared.text.TextLimits;
  * @param offset       offset of integer samples, or null
  * @param noData       raw sample value meaning "no data", or null
  * @param conditions   measurement conditions (never null; unknown fields null)
- * @param pages        page labels, or null
- * @param history      earlier provenance, or null
- * @param warnings     what was ignored, one line each
+ * @param pages          page labels, or null
+ * @param history        earlier provenance, or null
+ * @param warnings       what was ignored, one line each
+ * @param pageConditions per page, the condition fields given for that page alone
+ *                       ({@link MeasurementConditions#UNKNOWN} for a plain label); null when {@code pages} is null,
+ *                       otherwise as long as it
  */
 public record Sidecar(String waferId, Quantity quantity, String unit, Double pixelPitchMm, Double centreXPx,
                       Double centreYPx, Double scale, Double offset, Double noData, MeasurementConditions conditions,
-                      List<String> pages, Provenance history, List<String> warnings) {
+                      List<String> pages, Provenance history, List<String> warnings,
+                      List<MeasurementConditions> pageConditions) {
 
     /** The value of {@code format} in files trapmap writes. */
     public static final String FORMAT = "trapmap-map/1";
@@ -153,6 +160,43 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
         conditions = conditions == null ? MeasurementConditions.UNKNOWN : conditions;
         pages = pages == null ? null : List.copyOf(pages);
         warnings = List.copyOf(warnings == null ? List.of() : warnings);
+        if (pages == null) {
+            pageConditions = null;
+        } else if (pageConditions == null) {
+            pageConditions = java.util.Collections.nCopies(pages.size(), MeasurementConditions.UNKNOWN);
+        } else if (pageConditions.size() != pages.size()) {
+            throw new IllegalArgumentException(pageConditions.size() + " page conditions for " + pages.size()
+                    + " pages");
+        } else {
+            pageConditions = List.copyOf(pageConditions);
+        }
+    }
+
+    /** A sidecar whose pages (if any) are plain labels without conditions of their own. */
+    public Sidecar(String waferId, Quantity quantity, String unit, Double pixelPitchMm, Double centreXPx,
+                   Double centreYPx, Double scale, Double offset, Double noData, MeasurementConditions conditions,
+                   List<String> pages, Provenance history, List<String> warnings) {
+        this(waferId, quantity, unit, pixelPitchMm, centreXPx, centreYPx, scale, offset, noData, conditions, pages,
+                history, warnings, null);
+    }
+
+    /**
+     * The conditions of page {@code page} (0-based): the top-level ones with the page's own fields over them. A page
+     * that gives an injection level or a generation rate replaces both of the top level's (one sets the other aside).
+     */
+    public MeasurementConditions conditionsOfPage(int page) {
+        if (pageConditions == null) {
+            return conditions;
+        }
+        return withPage(conditions, pageConditions.get(page));
+    }
+
+    /** {@code base} with the fields of {@code page} over it (see {@link #conditionsOfPage}). */
+    static MeasurementConditions withPage(MeasurementConditions base, MeasurementConditions page) {
+        if (page.injectionPerCm3() != null || page.generationPerCm3PerS() != null) {
+            base = base.withInjection(null).withGeneration(null);
+        }
+        return base.overriddenBy(page);
     }
 
     /** The keys the schema knows at the top level. */
@@ -339,7 +383,8 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
                 pick(override.centreXPx, centreXPx), pick(override.centreYPx, centreYPx),
                 pick(override.scale, scale), pick(override.offset, offset), pick(override.noData, noData),
                 conditions.overriddenBy(override.conditions), pick(override.pages, pages),
-                pick(override.history, history), w);
+                pick(override.history, history), w,
+                override.pages != null ? override.pageConditions : pageConditions);
     }
 
     private static <T> T pick(T preferred, T fallback) {
@@ -431,11 +476,12 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
             }
             Double offset = number(o, "offset", "offset", any);
             Double noData = number(o, "no_data", "no_data", any);
-            List<String> pages = pages(o.get("pages"));
+            List<MeasurementConditions> pageConditions = new ArrayList<>();
+            List<String> pages = pages(o.get("pages"), pageConditions);
             MeasurementConditions c = conditions(o.get("conditions"));
             Provenance history = history(o.get("history"));
             return new Sidecar(waferId, quantity, unit, pitch, cx, cy, scale, offset, noData, c, pages, history,
-                    warnings);
+                    warnings, pages == null ? null : pageConditions);
         }
 
         private MeasurementConditions conditions(JsonNode n) throws MapFormatException {
@@ -501,7 +547,12 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
             }
         }
 
-        private List<String> pages(JsonNode n) throws MapFormatException {
+        /**
+         * The page labels; each page's own condition fields are added to {@code pageConditions}
+         * ({@link MeasurementConditions#UNKNOWN} for a plain label).
+         */
+        private List<String> pages(JsonNode n, List<MeasurementConditions> pageConditions)
+                throws MapFormatException {
             if (n == null || n.isNull()) {
                 return null;
             }
@@ -511,12 +562,56 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
             List<String> labels = new ArrayList<>();
             for (int i = 0; i < n.size(); i++) {
                 JsonNode e = n.get(i);
-                if (!e.isTextual()) {
-                    throw fail("pages[" + i + "]", "must be a text but is " + kind(e), "");
+                String where = "pages[" + i + "]";
+                if (e.isTextual()) {
+                    labels.add(bounded(e.asText(), where, TextLimits.MAX_ID_CHARS));
+                    pageConditions.add(MeasurementConditions.UNKNOWN);
+                } else if (e.isObject()) {
+                    ObjectNode po = (ObjectNode) e;
+                    String label = text(po, "label", where + ".label", TextLimits.MAX_ID_CHARS);
+                    if (label == null) {
+                        throw fail(where + ".label", "is missing; a page object needs a label, e.g. {\"label\":"
+                                + " \"1e13\", \"injection_cm3\": 1e13}", "");
+                    }
+                    labels.add(label);
+                    pageConditions.add(pageConditions(po, where));
+                } else {
+                    throw fail(where, "must be a text (a label) or an object with a label and condition fields but"
+                            + " is " + kind(e), "");
                 }
-                labels.add(bounded(e.asText(), "pages[" + i + "]", TextLimits.MAX_ID_CHARS));
             }
             return labels;
+        }
+
+        /** The condition fields of one page object (every other field but {@code label} is refused). */
+        private MeasurementConditions pageConditions(ObjectNode po, String where) throws MapFormatException {
+            for (Map.Entry<String, JsonNode> f : po.properties()) {
+                String k = f.getKey();
+                if (!k.equals("label") && !isConditionKey(k)) {
+                    throw fail(where + "." + k, "is not a page field; a page object takes label, doping, "
+                            + String.join(", ", CONDITION_RANGES.keySet()), "");
+                }
+            }
+            Doping doping = null;
+            String d = text(po, "doping", where + ".doping");
+            if (d != null) {
+                try {
+                    doping = Doping.parse(d);
+                } catch (InvalidValueException ex) {
+                    throw fail(where + ".doping", ex.getMessage(), ex.unit());
+                }
+            }
+            Map<String, Double> v = new LinkedHashMap<>();
+            for (Map.Entry<String, Range> r : CONDITION_RANGES.entrySet()) {
+                v.put(r.getKey(), number(po, r.getKey(), where + "." + r.getKey(), r.getValue()));
+            }
+            if (v.get("injection_cm3") != null && v.get("generation_cm3_s") != null) {
+                throw fail(where, "gives both injection_cm3 (cm^-3) and generation_cm3_s (cm^-3 s^-1); a page has"
+                        + " one of them", "");
+            }
+            return new MeasurementConditions(doping, v.get("thickness_um"), v.get("temperature_k"),
+                    v.get("injection_cm3"), v.get("generation_cm3_s"), v.get("srv_cm_s"), v.get("photon_flux_cm2_s"),
+                    v.get("pl_calibration_counts_cm6"), Map.of());
         }
 
         private Provenance history(JsonNode n) throws MapFormatException {

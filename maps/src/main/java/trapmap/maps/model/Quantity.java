@@ -13,6 +13,14 @@ public enum Quantity {
     OCCUPANCY("occupancy", "", false),
     SRH_LIFETIME("srh-lifetime", "µs", true),
     LIFETIME_AT_REFERENCE("lifetime-at-reference", "µs", true),
+    /** 1-based index into the legend of a defect identification (best or runner-up defect); NaN: none. */
+    DEFECT_INDEX("defect-index", "", false),
+    /** χ² of a fit (dimensionless). */
+    CHI_SQUARED("chi-squared", "", true),
+    /** Outcome code of a defect identification (RankingStatus ordinal); NaN: no data. */
+    IDENTIFICATION_STATUS("identification-status", "", false),
+    /** 1-based region number of a region map; 0: in no region, NaN: no data. */
+    REGION_LABEL("region", "", false),
     IRON_DENSITY("iron-density", "cm^-3", true),
     NORMALISED_DENSITY("normalised-density", "1/µs", false),
     STATUS("status", "", false),

@@ -109,9 +109,9 @@ class SidecarTest {
         "{\"offset\": [1]}                        | field 'offset': must be a number but is an array ([1])",
         "{\"no_data\": null, \"unit\": 5}         | field 'unit': must be a text but is a number (5)",
         "{\"wafer_id\": {}}                       | field 'wafer_id': must be a text but is an object ({})",
-        "{\"quantity\": \"lifetime\"}             | field 'quantity': unknown quantity 'lifetime' (known: effective-lifetime, pl-counts, injection, trap-density, density-min, density-max, occupancy, srh-lifetime, lifetime-at-reference, iron-density, normalised-density, status, difference, ratio, relative-change, fraction, unknown)",
+        "{\"quantity\": \"lifetime\"}             | field 'quantity': unknown quantity 'lifetime' (known: effective-lifetime, pl-counts, injection, trap-density, density-min, density-max, occupancy, srh-lifetime, lifetime-at-reference, defect-index, chi-squared, identification-status, region, iron-density, normalised-density, status, difference, ratio, relative-change, fraction, unknown)",
         "{\"pages\": \"before\"}                  | field 'pages': must be an array of page labels but is a text",
-        "{\"pages\": [\"a\", 2]}                  | field 'pages[1]': must be a text but is a number",
+        "{\"pages\": [\"a\", 2]}                  | field 'pages[1]': must be a text (a label) or an object with a label and condition fields but is a number",
         "{\"conditions\": []}                     | field 'conditions': must be an object but is an array",
         "{\"conditions\": {\"doping\": \"x:1e16\"}}        | field 'conditions.doping': must be <type>:<value> with type p or n and a density in cm^-3 (p:1e16) or a resistivity in Ω·cm (p:1.5ohmcm) (got 'x:1e16')",
         "{\"conditions\": {\"doping\": \"p:1e25\"}}        | field 'conditions.doping': density must be in [1e10, 1e19] cm^-3 (got 1e25)",
@@ -285,5 +285,37 @@ class SidecarTest {
         TiffBytes t = TiffBytes.littleEndian();
         t.floatPage(2, 2, new float[] {1, 2, 3, 4});
         return t.build();
+    }
+
+    @Test
+    void pageObjectsGiveConditionsOfTheirPageOnly() throws Exception {
+        Sidecar s = Sidecar.parse("""
+                {"conditions": {"doping": "p:1e15", "generation_cm3_s": 1e19},
+                 "pages": ["plain", {"label": "1e13", "injection_cm3": 1e13}, {"label": "g", "generation_cm3_s": 1e18,
+                           "temperature_k": 310}]}
+                """, "s.json");
+        assertThat(s.pages()).containsExactly("plain", "1e13", "g");
+        assertThat(s.conditionsOfPage(0).generationPerCm3PerS()).isEqualTo(1e19);
+        assertThat(s.conditionsOfPage(1).injectionPerCm3()).isEqualTo(1e13);
+        assertThat(s.conditionsOfPage(1).generationPerCm3PerS()).isNull();
+        assertThat(s.conditionsOfPage(1).doping()).isEqualTo(Doping.pType(1e15));
+        assertThat(s.conditionsOfPage(2).generationPerCm3PerS()).isEqualTo(1e18);
+        assertThat(s.conditionsOfPage(2).temperatureK()).isEqualTo(310.0);
+    }
+
+    @Test
+    void badPageObjectsNameTheFieldAndUnit() {
+        assertThatThrownBy(() -> Sidecar.parse("{\"pages\": [{\"label\": \"a\", \"injection_cm3\": -1}]}",
+                "s.json")).isInstanceOf(MapFormatException.class).hasMessageContaining("s.json")
+                .hasMessageContaining("pages[0].injection_cm3").hasMessageContaining("cm^-3");
+        assertThatThrownBy(() -> Sidecar.parse("{\"pages\": [{\"injection_cm3\": 1e13}]}", "s.json"))
+                .hasMessageContaining("pages[0].label").hasMessageContaining("missing");
+        assertThatThrownBy(() -> Sidecar.parse("{\"pages\": [{\"label\": \"a\", \"dn\": 1e13}]}", "s.json"))
+                .hasMessageContaining("pages[0].dn").hasMessageContaining("injection_cm3");
+        assertThatThrownBy(() -> Sidecar.parse("{\"pages\": [{\"label\": \"a\", \"injection_cm3\": 1e13,"
+                + " \"generation_cm3_s\": 1e19}]}", "s.json")).hasMessageContaining("pages[0]")
+                .hasMessageContaining("both");
+        assertThatThrownBy(() -> Sidecar.parse("{\"pages\": [3]}", "s.json"))
+                .hasMessageContaining("pages[0]").hasMessageContaining("a number");
     }
 }

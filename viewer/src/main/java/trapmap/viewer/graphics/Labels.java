@@ -22,6 +22,10 @@ public final class Labels {
             case OCCUPANCY -> "trap occupancy";
             case SRH_LIFETIME -> "SRH lifetime";
             case LIFETIME_AT_REFERENCE -> "lifetime at reference injection";
+            case DEFECT_INDEX -> "defect (legend index)";
+            case CHI_SQUARED -> "χ² of the fit";
+            case IDENTIFICATION_STATUS -> "identification status";
+            case REGION_LABEL -> "region";
             case IRON_DENSITY -> "interstitial iron [Fe_i]";
             case NORMALISED_DENSITY -> "normalised defect density";
             case STATUS -> "conversion status";
