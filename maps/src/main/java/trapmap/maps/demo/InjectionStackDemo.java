@@ -45,7 +45,7 @@ import trapmap.physics.material.Doping;
  * <p>The wafer: boron-doped p-type, N_A = 1e15 cm^-3 (about 13 Ω·cm), 180 µm thick, both surfaces well passivated
  * (SRV 2 cm/s). The background has no SRH defect planted: its lifetime is limited by surface recombination
  * (Sproul, JAP 76, 2851 (1994): about 4.5 ms) and intrinsic recombination (Richter et al., PRB 86, 165202 (2012)).
- * Three flat-topped discs (soft edge 2 mm wide) carry the defects: interstitial iron alone, interstitial chromium
+ * Three flat-topped discs with sharp edges carry the defects: interstitial iron alone, interstitial chromium
  * alone, and both together (the overlap, where no single library defect explains the curve). The densities are
  * chosen so that SRH carries most of 1/τ_eff at every level (at least about 70 %) while N_t stays at or below
  * 0.05·Δn at the lowest level, inside the small-trap-density SRH model (Macdonald &amp; Cuevas, PRB 67, 075203
@@ -79,7 +79,8 @@ public final class InjectionStackDemo {
     public static final String NO_SINGLE_DEFECT = "no-single-defect";
 
     private static final long SEED = DemoScenario.SEED * 67;
-    private static final double EDGE_MM = 1.0;
+    /** Margin inside a disc's edge that the tests take as its core, mm (one pixel pitch). */
+    private static final double CORE_MARGIN_MM = PITCH_MM;
     private static final ObjectMapper JSON = new ObjectMapper();
 
     /** One defect planted in a region. */
@@ -87,8 +88,10 @@ public final class InjectionStackDemo {
     }
 
     /**
-     * One planted region: a flat-topped disc (full density within {@code radiusMm − 1 mm}, falling linearly to 0 at
-     * {@code radiusMm + 1 mm}).
+     * One planted region: a flat-topped disc with a sharp edge (full density at the pixel centres within
+     * {@code radiusMm}, none outside). The edge is sharp so that a region's mean τ_SRH is that of its density: a
+     * soft edge would add pixels of a small fraction of the density, whose long τ_SRH weighs heavily in a level-wise
+     * mean of lifetimes.
      *
      * @param name       short name ({@code fe-i}, {@code cr-i}, {@code overlap})
      * @param expected   the library id that must come out best, or {@value #NO_SINGLE_DEFECT}
@@ -101,13 +104,12 @@ public final class InjectionStackDemo {
         }
 
         double weight(double x, double y) {
-            double r = StrictMath.hypot(x - centreXMm, y - centreYMm);
-            return StrictMath.max(0, StrictMath.min(1, (radiusMm + EDGE_MM - r) / (2 * EDGE_MM)));
+            return StrictMath.hypot(x - centreXMm, y - centreYMm) <= radiusMm ? 1 : 0;
         }
 
-        /** True when (x, y) mm lies where the region has its full density. */
+        /** True when (x, y) mm lies at least one pixel pitch inside the disc's edge. */
         public boolean core(double x, double y) {
-            return StrictMath.hypot(x - centreXMm, y - centreYMm) <= radiusMm - EDGE_MM;
+            return StrictMath.hypot(x - centreXMm, y - centreYMm) <= radiusMm - CORE_MARGIN_MM;
         }
     }
 
@@ -131,9 +133,11 @@ public final class InjectionStackDemo {
     /** The planted regions (lifetimes filled in). */
     static List<Region> regions() {
         List<Region> r = new ArrayList<>();
-        r.add(region("fe-i", -38, 30, 16, List.of(new Planted("fe-i", 5e11)), "fe-i"));
-        r.add(region("cr-i", 38, 30, 16, List.of(new Planted("cr-i", 3e11)), "cr-i"));
-        r.add(region("overlap", 0, -38, 16, List.of(new Planted("fe-i", 5e11), new Planted("cr-i", 3e11)),
+        // no two discs alike and no symmetry of the wafer maps the layout onto itself, so that registering a level
+        // onto the first has one answer (an x-mirror of a symmetric layout would fit as well as the identity)
+        r.add(region("fe-i", -35, 35, 18, List.of(new Planted("fe-i", 5e11)), "fe-i"));
+        r.add(region("cr-i", 40, 10, 14, List.of(new Planted("cr-i", 3e11)), "cr-i"));
+        r.add(region("overlap", -5, -40, 16, List.of(new Planted("fe-i", 5e11), new Planted("cr-i", 3e11)),
                 NO_SINGLE_DEFECT));
         return r;
     }
@@ -276,7 +280,8 @@ public final class InjectionStackDemo {
                     r.lifetimeUs()[1], r.lifetimeUs()[2], r.expected().equals(NO_SINGLE_DEFECT)
                             ? "no single defect" : r.expected() + " best"));
         }
-        sb.append("\nThe regions are flat-topped discs with an edge 2 mm wide. N_A = 1e15 cm⁻³ lets the levels"
+        sb.append("\nThe regions are flat-topped discs with sharp edges, laid out without symmetry (so that registering a"
+                + "\nlevel onto the first has one answer). N_A = 1e15 cm⁻³ lets the levels"
                 + " span Δn/p0 = 0.01 … 1, where\nFe_i's τ_SRH rises about thirty-fold and Cr_i's falls (its level"
                 + " lies near E_c), so their shapes differ plainly; the\ndensities keep SRH at 70 % or more of"
                 + " 1/τ_eff at every level and N_t ≤ 0.05·Δn. Ranked on the level-wise mean τ_SRH of\neach region's"
@@ -285,7 +290,7 @@ public final class InjectionStackDemo {
                 + " (p < 0.01; a test\nchecks all three on the files as written).\n\n"
                 + "`truth.json` fields: `wafer_id`, `noise_relative`, `levels` (`file`, `injection_cm3`),"
                 + " `background` (`density_cm3`,\n`limited_by`, `lifetime_us` per level), `regions` (`name`,"
-                + " `centre_x_mm`, `centre_y_mm`, `radius_mm`, `edge_mm`, `defects` with\n`defect` and"
+                + " `centre_x_mm`, `centre_y_mm`, `radius_mm`, `defects` with\n`defect` and"
                 + " `density_cm3`, `expected`: the library id that must fit best or `no-single-defect`,"
                 + " `lifetime_us`: noiseless\nτ_eff at the centre per level).\n");
         return sb.toString();
@@ -347,7 +352,6 @@ public final class InjectionStackDemo {
             o.put("centre_x_mm", r.centreXMm());
             o.put("centre_y_mm", r.centreYMm());
             o.put("radius_mm", r.radiusMm());
-            o.put("edge_mm", EDGE_MM);
             ArrayNode ds = o.putArray("defects");
             for (Planted p : r.defects()) {
                 ds.addObject().put("defect", p.defect()).put("density_cm3", p.densityPerCm3());

@@ -99,7 +99,7 @@ class InjectionStackDemoTest {
             for (int y = 0; y < m.grid().height(); y++) {
                 for (int x = 0; x < m.grid().width(); x++) {
                     double v = m.raster().get(x, y);
-                    if (Double.isNaN(v) || nearARegion(m, x, y)) {
+                    if (Double.isNaN(v) || nearARegion(truth, m, x, y)) {
                         continue;
                     }
                     n++;
@@ -184,8 +184,8 @@ class InjectionStackDemoTest {
         return new double[] {mean, Math.sqrt((sum2 - n * mean * mean) / (n - 1)), n};
     }
 
-    static boolean nearARegion(WaferMap m, int x, int y) {
-        for (InjectionStackDemo.Region r : truth.regions()) {
+    static boolean nearARegion(InjectionStackDemo.Truth t, WaferMap m, int x, int y) {
+        for (InjectionStackDemo.Region r : t.regions()) {
             if (Math.hypot(m.grid().xMm(x) - r.centreXMm(), m.grid().yMm(y) - r.centreYMm()) < r.radiusMm() + 2) {
                 return true;
             }
