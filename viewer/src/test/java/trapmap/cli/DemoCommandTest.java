@@ -21,7 +21,7 @@ class DemoCommandTest {
         assertThat(r.code()).isZero();
         assertThat(r.out()).contains("truth.json").contains("README.md").contains("LOT-A01-W01.tif")
                 .contains("injection-stack/LOT-S01-W01-dn1e15.tif")
-                .contains("injection-stack/truth.json").contains("wrote 43 files");
+                .contains("injection-stack/truth.json").contains("wrote 44 files");
         assertThat(Files.exists(out.resolve(DemoScenario.TRUTH))).isTrue();
         assertThat(MapFiles.readSingle(out.resolve("MON-200-W01.tif")).waferId()).isEqualTo("MON-200-W01");
         try (Stream<Path> s = Files.walk(out)) {
@@ -39,7 +39,7 @@ class DemoCommandTest {
         try (Stream<Path> s = Files.walk(a)) {
             files = s.filter(Files::isRegularFile).sorted().toList();
         }
-        assertThat(files).hasSize(43);
+        assertThat(files).hasSize(44);
         for (Path p : files) {
             assertThat(Files.readAllBytes(b.resolve(a.relativize(p)))).isEqualTo(Files.readAllBytes(p));
         }

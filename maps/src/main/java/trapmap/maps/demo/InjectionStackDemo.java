@@ -75,6 +75,8 @@ public final class InjectionStackDemo {
     public static final double SRV_CM_S = 2;
     /** Pixel pitch, mm. */
     public static final double PITCH_MM = 1.0;
+    /** Name of the example rules file of the stack. */
+    public static final String RULES = "rules-identify.json";
     /** Expected outcome of a region that no single defect explains. */
     public static final String NO_SINGLE_DEFECT = "no-single-defect";
 
@@ -304,7 +306,8 @@ public final class InjectionStackDemo {
 
     /**
      * Writes the stack into {@code dir} (created when missing): per level a TIFF and its JSON sidecar, then
-     * {@code truth.json}. Every file is written atomically.
+     * {@code truth.json} and an example rules file ({@value #RULES}) that judges the wafer by its stack. Every file
+     * is written atomically.
      *
      * @return the files written, in order
      */
@@ -322,7 +325,29 @@ public final class InjectionStackDemo {
         Path truth = dir.resolve(DemoScenario.TRUTH);
         AtomicFiles.write(truth, truthJson(truth()).getBytes(StandardCharsets.UTF_8));
         written.add(truth);
+        Path rules = dir.resolve(RULES);
+        AtomicFiles.write(rules, rulesJson().getBytes(StandardCharsets.UTF_8));
+        written.add(rules);
         return written;
+    }
+
+    /**
+     * Example rules for {@code inspect} on the stack's folder: the first level is judged by a profile with the
+     * stack (its share of area best explained by Fe_i, and the share no single defect explains, as limits); the
+     * other levels by the default profile (lifetime flag only). The levels are taken as lying on one grid.
+     */
+    static String rulesJson() {
+        return "{\n"
+                + "  \"flag\": {\"quantity\": \"lifetime\", \"threshold\": 500, \"min_area_mm2\": 4},\n"
+                + "  \"profiles\": [\n"
+                + "    {\"name\": \"injection-stack\", \"match\": {\"type\": \"p\", \"file\": \"*-dn1e13.*\"},"
+                + " \"defect\": \"fe-i\",\n"
+                + "     \"stack\": {\"levels\": [\"*-dn1e13.*\", \"*-dn1e14.*\", \"*-dn1e15.*\"], \"noise\": 0.03,"
+                + " \"register\": false},\n"
+                + "     \"limits\": {\"best_defect_area_fraction\": {\"max\": 0.01},"
+                + " \"no_single_defect_area_fraction\": {\"max\": 0.05}}}\n"
+                + "  ]\n"
+                + "}\n";
     }
 
     static String truthJson(Truth t) throws IOException {

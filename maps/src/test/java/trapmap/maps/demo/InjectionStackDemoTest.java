@@ -79,7 +79,7 @@ class InjectionStackDemoTest {
                     .isEqualTo(Files.readAllBytes(stack.resolve(p.getFileName())));
             total += Files.size(p);
         }
-        assertThat(again).hasSize(7);
+        assertThat(again).hasSize(8);
         assertThat(total).isLessThan(1L << 20);
     }
 
