@@ -56,7 +56,8 @@ import trapmap.physics.material.Doping;
  * inverts, {@link TrapDensityConverter#lifetimeAtInjectionUs}), times an independent 3 % Gaussian measurement noise
  * (cut at ±3σ, seeded per level). The three maps lie on one pixel grid (no shift between levels).
  *
- * <p>All names are invented. Nothing here is measured data.
+ * <p>Besides the maps and {@code truth.json}, the folder holds example rules ({@value #RULES}) that judge the wafer
+ * by its stack. All names are invented. Nothing here is measured data.
  */
 public final class InjectionStackDemo {
     /** The subfolder of the demonstration set that holds the stack. */
@@ -294,7 +295,14 @@ public final class InjectionStackDemo {
                 + " `background` (`density_cm3`,\n`limited_by`, `lifetime_us` per level), `regions` (`name`,"
                 + " `centre_x_mm`, `centre_y_mm`, `radius_mm`, `defects` with\n`defect` and"
                 + " `density_cm3`, `expected`: the library id that must fit best or `no-single-defect`,"
-                + " `lifetime_us`: noiseless\nτ_eff at the centre per level).\n");
+                + " `lifetime_us`: noiseless\nτ_eff at the centre per level).\n\n");
+        sb.append("Identify the defects, and judge the wafer by them with the example rules `" + RULES + "` (a"
+                + " profile whose `stack`\nnames the three levels; its limits fail a wafer with more than 1 % of its"
+                + " area best explained by Fe_i):\n\n"
+                + "    ./trapmap identify " + FOLDER + "/" + WAFER_ID + "-dn1e1{3,4,5}.tif --no-registration -o hint.tif"
+                + " --json\n"
+                + "    ./trapmap inspect " + FOLDER + " --rules " + FOLDER + "/" + RULES + " --out stack-report\n\n"
+                + "The levels lie on one grid, hence `--no-registration` (and `\"register\": false` in the rules).\n");
         return sb.toString();
     }
 
