@@ -283,13 +283,15 @@ public final class InjectionStackDemo {
                     r.lifetimeUs()[1], r.lifetimeUs()[2], r.expected().equals(NO_SINGLE_DEFECT)
                             ? "no single defect" : r.expected() + " best"));
         }
-        sb.append("\nThe regions are flat-topped discs with sharp edges, laid out without symmetry (so that registering a"
-                + "\nlevel onto the first has one answer). N_A = 1e15 cm⁻³ lets the levels"
+        sb.append("\nThe regions are flat-topped discs with sharp edges, laid out without symmetry (so that"
+                + " registering a\nlevel onto the first has one answer). N_A = 1e15 cm⁻³ lets the levels"
                 + " span Δn/p0 = 0.01 … 1, where\nFe_i's τ_SRH rises about thirty-fold and Cr_i's falls (its level"
                 + " lies near E_c), so their shapes differ plainly; the\ndensities keep SRH at 70 % or more of"
-                + " 1/τ_eff at every level and N_t ≤ 0.05·Δn. Ranked on the level-wise mean τ_SRH of\neach region's"
+                + " 1/τ_eff at every level and N_t ≤ 0.05·Δn. Ranked on the level-wise mean τ_SRH of\neach"
+                + " region's"
                 + " core (standard error of the mean as its uncertainty), the planted defect comes first with a"
-                + " χ² ratio\nto the runner-up above 10 and N_t within 10 %, and the overlap region is `NO_SINGLE_DEFECT`"
+                + " χ² ratio\nto the runner-up above 10 and N_t within 10 %, and the overlap region is"
+                + " `NO_SINGLE_DEFECT`"
                 + " (p < 0.01; a test\nchecks all three on the files as written).\n\n"
                 + "`truth.json` fields: `wafer_id`, `noise_relative`, `levels` (`file`, `injection_cm3`),"
                 + " `background` (`density_cm3`,\n`limited_by`, `lifetime_us` per level), `regions` (`name`,"
@@ -299,7 +301,8 @@ public final class InjectionStackDemo {
         sb.append("Identify the defects, and judge the wafer by them with the example rules `" + RULES + "` (a"
                 + " profile whose `stack`\nnames the three levels; its limits fail a wafer with more than 1 % of its"
                 + " area best explained by Fe_i):\n\n"
-                + "    ./trapmap identify " + FOLDER + "/" + WAFER_ID + "-dn1e1{3,4,5}.tif --no-registration -o hint.tif"
+                + "    ./trapmap identify " + FOLDER + "/" + WAFER_ID + "-dn1e1{3,4,5}.tif --no-registration"
+                + " -o hint.tif"
                 + " --json\n"
                 + "    ./trapmap inspect " + FOLDER + " --rules " + FOLDER + "/" + RULES + " --out stack-report\n\n"
                 + "The levels lie on one grid, hence `--no-registration` (and `\"register\": false` in the rules).\n");
