@@ -47,10 +47,11 @@ import trapmap.physics.material.Doping;
  * (Sproul, JAP 76, 2851 (1994): about 4.5 ms) and intrinsic recombination (Richter et al., PRB 86, 165202 (2012)).
  * Three flat-topped discs with sharp edges carry the defects: interstitial iron alone, interstitial chromium
  * alone, and both together (the overlap, where no single library defect explains the curve). The densities are
- * chosen so that SRH carries most of 1/τ_eff at every level (at least about 70 %) while N_t stays at or below
- * 0.05·Δn at the lowest level, inside the small-trap-density SRH model (Macdonald &amp; Cuevas, PRB 67, 075203
- * (2003)). The p-type doping of 1e15 cm^-3 lets the levels span Δn/p0 = 0.01 … 1, where Fe_i's τ_SRH rises about
- * thirty-fold and Cr_i's falls (its level near E_c, k = σ_n/σ_p = 5), so the shapes differ plainly.
+ * chosen so that SRH carries most of 1/τ_eff at every level (at least about 70 %) while each defect's N_t stays at
+ * or below 0.05·Δn of the lowest level (0.08·Δn both together), inside the small-trap-density SRH model
+ * (Macdonald &amp; Cuevas, PRB 67, 075203 (2003)). The p-type doping of 1e15 cm^-3 lets the levels span
+ * Δn/p0 = 0.01 … 1, where Fe_i's τ_SRH rises about thirty-fold and Cr_i's falls (its level near E_c,
+ * k = σ_n/σ_p = 5), so the shapes differ plainly.
  *
  * <p>Per pixel and level, 1/τ_eff = Σ_j N_j/K_j(Δn) + 1/τ_intr(Δn) + 1/τ_surf (the forward model the conversion
  * inverts, {@link TrapDensityConverter#lifetimeAtInjectionUs}), times an independent 3 % Gaussian measurement noise
@@ -287,7 +288,7 @@ public final class InjectionStackDemo {
                 + " registering a\nlevel onto the first has one answer). N_A = 1e15 cm⁻³ lets the levels"
                 + " span Δn/p0 = 0.01 … 1, where\nFe_i's τ_SRH rises about thirty-fold and Cr_i's falls (its level"
                 + " lies near E_c), so their shapes differ plainly; the\ndensities keep SRH at 70 % or more of"
-                + " 1/τ_eff at every level and N_t ≤ 0.05·Δn. Ranked on the level-wise mean τ_SRH of\neach"
+                + " 1/τ_eff at every level and each N_t ≤ 0.05·Δn. Ranked on the level-wise mean τ_SRH of\neach"
                 + " region's"
                 + " core (standard error of the mean as its uncertainty), the planted defect comes first with a"
                 + " χ² ratio\nto the runner-up above 10 and N_t within 10 %, and the overlap region is"
