@@ -325,6 +325,20 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         return List.copyOf(s);
     }
 
+    /**
+     * The maps a file of this name may be judged with: the most levels of a profile stack whose first level it
+     * matches (its profile may still not match the map), else 1. The batch reserves memory for that many maps.
+     */
+    public int stackLevels(String fileName) {
+        int most = 1;
+        for (Profile p : profiles) {
+            if (p.stack() != null && p.stack().judges(fileName)) {
+                most = Math.max(most, p.stack().levels().size());
+            }
+        }
+        return most;
+    }
+
     /** True when the default profile needs a trap-density map (a trap-density flag or figure). */
     public boolean needsTrapDensity() {
         return defaultProfile().needsTrapDensity();

@@ -100,6 +100,25 @@ class StackInspectionTest {
     }
 
     @Test
+    void theBatchReservesTheMemoryOfEveryLevel(@TempDir Path dir) throws Exception {
+        assertThat(rules.stackLevels("LOT-S01-W01-dn1e13.tif")).isEqualTo(3);
+        assertThat(rules.stackLevels("LOT-S01-W01-dn1e14.tif")).isEqualTo(1);
+        long one = MemoryBudget.needMib(trapmap.maps.io.MapMemory.estimate(FIRST));
+        Path second = STACK.resolve("LOT-S01-W01-dn1e14.tif");
+        BatchInspection.Summary s = new BatchInspection(rules).withMemoryBudget((3 * one - 1) << 20).run(
+                java.util.List.of(FIRST, second), dir.resolve("out"), new BatchInspection.Options(1, false, false,
+                        trapmap.shared.progress.ProgressListener.NONE));
+        java.util.List<org.apache.commons.csv.CSVRecord> rows;
+        try (java.io.Reader r = Files.newBufferedReader(s.csv())) {
+            rows = org.apache.commons.csv.CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).build()
+                    .parse(r).getRecords();
+        }
+        assertThat(rows.get(0).get("status")).isEqualTo("error");
+        assertThat(rows.get(0).get("error")).contains("(with the 3 levels of its injection stack) need about");
+        assertThat(rows.get(1).get("status")).isEqualTo("pass");
+    }
+
+    @Test
     void aMissingLevelIsAnErrorNamingItsFile(@TempDir Path dir) throws IOException {
         for (String f : new String[] {"LOT-S01-W01-dn1e13", "LOT-S01-W01-dn1e14"}) {
             Files.copy(STACK.resolve(f + ".tif"), dir.resolve(f + ".tif"));
