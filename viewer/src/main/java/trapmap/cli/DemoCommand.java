@@ -22,7 +22,9 @@ import trapmap.maps.demo.DemoScenario;
             "Generates, from a fixed seed, lifetime maps and one PL image of invented wafers (multicrystalline",
             "p-type with grains, iron-rich edge zones and handling marks; n-type mono with rings; a gettering pair;",
             "an FeB-dissociation pair; a 200 mm monitor wafer with boat-contact spots), each as a TIFF with a JSON",
-            "sidecar, plus truth.json (the planted defects) and README.md. Every run writes the same bytes.",
+            "sidecar, plus truth.json (the planted defects) and README.md; and, in the subfolder injection-stack/,",
+            "one wafer measured at three injection levels (1e13, 1e14, 1e15 cm^-3) with its own truth.json, for",
+            "defect identification. Every run writes the same bytes.",
             ""},
         footer = {"", "Nothing written by this command is measured data.", "", Help.EXIT_CODES_OUTPUT})
 final class DemoCommand implements Callable<Integer> {
@@ -57,7 +59,8 @@ final class DemoCommand implements Callable<Integer> {
         for (Path p : written) {
             long size = size(p);
             total += size;
-            pw.println(String.format(Locale.ROOT, "%-40s %9d bytes", p.getFileName(), size));
+            pw.println(String.format(Locale.ROOT, "%-40s %9d bytes", out.relativize(p).toString()
+                    .replace('\\', '/'), size));
         }
         pw.println(String.format(Locale.ROOT, "wrote %d files (%.2f MB) to %s", written.size(), total / 1e6, out));
         pw.flush();

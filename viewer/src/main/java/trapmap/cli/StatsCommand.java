@@ -527,7 +527,7 @@ final class StatsCommand implements Callable<Integer> {
                         Boolean.TRUE.equals(r.get("centroid_inside")) ? "" : " (a point of the region; its centroid ("
                                 + Format.number((Double) r.get("centroid_x_mm")) + ", "
                                 + Format.number((Double) r.get("centroid_y_mm")) + ") lies outside it)",
-                        r.get("peak") == null ? "n/a" : Format.number((Double) r.get("peak")), unit,
+                        r.get("peak") == null ? "n/a" : Format.number(((Number) r.get("peak")).doubleValue()), unit,
                         r.get("edge_distance_mm") == null ? "n/a" : Format.number((Double) r.get("edge_distance_mm"))));
             }
         }

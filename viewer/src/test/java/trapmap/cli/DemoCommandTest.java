@@ -20,10 +20,11 @@ class DemoCommandTest {
         assertThat(r.err()).isEmpty();
         assertThat(r.code()).isZero();
         assertThat(r.out()).contains("truth.json").contains("README.md").contains("LOT-A01-W01.tif")
-                .contains("wrote 36 files");
+                .contains("injection-stack/LOT-S01-W01-dn1e15.tif")
+                .contains("injection-stack/truth.json").contains("wrote 44 files");
         assertThat(Files.exists(out.resolve(DemoScenario.TRUTH))).isTrue();
         assertThat(MapFiles.readSingle(out.resolve("MON-200-W01.tif")).waferId()).isEqualTo("MON-200-W01");
-        try (Stream<Path> s = Files.list(out)) {
+        try (Stream<Path> s = Files.walk(out)) {
             assertThat(s.filter(p -> p.getFileName().toString().endsWith(".tmp")).count()).isZero();
         }
     }
@@ -35,12 +36,12 @@ class DemoCommandTest {
         assertThat(Cli.run("demo", "--out", a.toString()).code()).isZero();
         assertThat(Cli.run("demo", "--out", b.toString()).code()).isZero();
         List<Path> files;
-        try (Stream<Path> s = Files.list(a)) {
-            files = s.sorted().toList();
+        try (Stream<Path> s = Files.walk(a)) {
+            files = s.filter(Files::isRegularFile).sorted().toList();
         }
-        assertThat(files).hasSize(36);
+        assertThat(files).hasSize(44);
         for (Path p : files) {
-            assertThat(Files.readAllBytes(b.resolve(p.getFileName()))).isEqualTo(Files.readAllBytes(p));
+            assertThat(Files.readAllBytes(b.resolve(a.relativize(p)))).isEqualTo(Files.readAllBytes(p));
         }
     }
 

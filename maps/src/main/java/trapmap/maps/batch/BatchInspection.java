@@ -830,7 +830,7 @@ public final class BatchInspection {
                         long cpuFrom = threadCpuNanos();
                         @SuppressWarnings("unchecked")
                         Map<String, String>[] iron = new Map[1];
-                        WaferResult r = memory.run(f, () -> {
+                        WaferResult r = memory.run(f, rules.stackLevels(f.getFileName().toString()), () -> {
                             WaferResult inspected = inspection.inspect(f, thumb, buffers.get());
                             if (pairs != null) {
                                 iron[0] = pairs.evaluate(f);

@@ -30,6 +30,10 @@ import trapmap.maps.io.NumberText;
  *       density exceeds the profile's trap-density flag threshold is at least NN % (over the uncertainties of the
  *       rules' {@code physics.uncertainty} block, {@link ConfidenceFlag}); e.g. {@code exceedance_area_fraction_c95}
  *       </li>
+ *   <li>{@code best_defect_area_fraction}: share of the evaluated area whose τ_SRH(Δn) curve over the profile's
+ *       injection stack ({@link StackRules}) is explained best by the profile's defect (ranking status OK);
+ *       {@code no_single_defect_area_fraction}: share whose best candidate still fails the χ² test
+ *       ({@code NO_SINGLE_DEFECT}); both reported whenever the profile has a stack</li>
  *   <li>{@code edge_to_centre_ratio}: harmonic-mean lifetime in the band of {@code edge_band_mm} along the inner
  *       border of the evaluated area over the harmonic-mean lifetime inside it</li>
  * </ul>
@@ -48,8 +52,14 @@ public record Figure(String name, Kind kind, double percent) {
     public enum Kind {
         HARMONIC_MEAN_LIFETIME, MEDIAN_LIFETIME, LIFETIME_PERCENTILE, TRAP_DENSITY_PERCENTILE,
         FLAGGED_AREA_FRACTION, LARGEST_REGION, LARGEST_INTERIOR_REGION, EDGE_TO_CENTRE_RATIO,
-        BELOW_LIMIT_AREA_FRACTION, INVALID_AREA_FRACTION, EXCEEDANCE_AREA_FRACTION
+        BELOW_LIMIT_AREA_FRACTION, INVALID_AREA_FRACTION, EXCEEDANCE_AREA_FRACTION, BEST_DEFECT_AREA_FRACTION,
+        NO_SINGLE_DEFECT_AREA_FRACTION
     }
+
+    /** The name of the figure {@link Kind#BEST_DEFECT_AREA_FRACTION}. */
+    public static final String BEST_DEFECT_AREA_FRACTION = "best_defect_area_fraction";
+    /** The name of the figure {@link Kind#NO_SINGLE_DEFECT_AREA_FRACTION}. */
+    public static final String NO_SINGLE_DEFECT_AREA_FRACTION = "no_single_defect_area_fraction";
 
     /** The name of the figure {@link Kind#INVALID_AREA_FRACTION}. */
     public static final String INVALID_AREA_FRACTION = "invalid_area_fraction";
@@ -69,6 +79,9 @@ public record Figure(String name, Kind kind, double percent) {
             case "edge_to_centre_ratio": return new Figure(name, Kind.EDGE_TO_CENTRE_RATIO, Double.NaN);
             case "below_limit_area_fraction": return new Figure(name, Kind.BELOW_LIMIT_AREA_FRACTION, Double.NaN);
             case INVALID_AREA_FRACTION: return new Figure(name, Kind.INVALID_AREA_FRACTION, Double.NaN);
+            case BEST_DEFECT_AREA_FRACTION: return new Figure(name, Kind.BEST_DEFECT_AREA_FRACTION, Double.NaN);
+            case NO_SINGLE_DEFECT_AREA_FRACTION:
+                return new Figure(name, Kind.NO_SINGLE_DEFECT_AREA_FRACTION, Double.NaN);
             default: break;
         }
         Matcher m = LIFETIME_P.matcher(name);
@@ -90,7 +103,8 @@ public record Figure(String name, Kind kind, double percent) {
         throw new IllegalArgumentException("unknown figure; expected harmonic_mean_lifetime_us, median_lifetime_us,"
                 + " pNN_lifetime_us, trap_density_pNN_cm3, flagged_area_fraction, largest_region_mm2,"
                 + " largest_interior_region_mm2, edge_to_centre_ratio, below_limit_area_fraction,"
-                + " exceedance_area_fraction_cNN or invalid_area_fraction");
+                + " exceedance_area_fraction_cNN, invalid_area_fraction, best_defect_area_fraction or"
+                + " no_single_defect_area_fraction (the last two with a profile's stack)");
     }
 
     private static double percent(String digits, String name) {
@@ -118,6 +132,11 @@ public record Figure(String name, Kind kind, double percent) {
     public boolean needsTrapDensity() {
         return kind == Kind.TRAP_DENSITY_PERCENTILE || kind == Kind.BELOW_LIMIT_AREA_FRACTION
                 || kind == Kind.EXCEEDANCE_AREA_FRACTION;
+    }
+
+    /** True when the figure comes from the defect identification of an injection stack (a profile's stack). */
+    public boolean needsStack() {
+        return kind == Kind.BEST_DEFECT_AREA_FRACTION || kind == Kind.NO_SINGLE_DEFECT_AREA_FRACTION;
     }
 
     /** The unit of the figure's values ("" for ratios). */
@@ -163,6 +182,8 @@ public record Figure(String name, Kind kind, double percent) {
             case EXCEEDANCE_AREA_FRACTION -> "area fraction exceeding the flag threshold with "
                     + new java.math.BigDecimal(Double.toString(percent)).stripTrailingZeros().toPlainString()
                     + " % confidence";
+            case BEST_DEFECT_AREA_FRACTION -> "best-defect area fraction";
+            case NO_SINGLE_DEFECT_AREA_FRACTION -> "no-single-defect area fraction";
         };
     }
 

@@ -59,11 +59,20 @@ final class MemoryBudget {
      * gives an error result for the file instead.
      */
     WaferResult run(Path file, Callable<WaferResult> work) throws Exception {
+        return run(file, 1, work);
+    }
+
+    /**
+     * As {@link #run(Path, Callable)} for a map judged with {@code maps} maps of its size at once (the levels of a
+     * profile's injection stack): it takes that many maps' working memory.
+     */
+    WaferResult run(Path file, int maps, Callable<WaferResult> work) throws Exception {
         String name = file.toString();
         MapMemory.Size size = MapMemory.estimate(file);
-        long need = needMib(size);
+        long need = needMib(size) * Math.max(1, maps);
         if (need > totalMib) {
-            return WaferResult.error(name, name + ": " + (size == null ? "the map" : size.describe()) + " need about "
+            return WaferResult.error(name, name + ": " + (size == null ? "the map" : size.describe())
+                    + (maps > 1 ? " (with the " + maps + " levels of its injection stack)" : "") + " need about "
                     + MapMemory.describeBytes(need * MIB) + " of memory, more than the batch can give one map ("
                     + MapMemory.describeBytes(totalMib * MIB) + ", " + Math.round(100 * HEAP_SHARE)
                     + " % of the maximum heap " + MapMemory.describeBytes(Runtime.getRuntime().maxMemory())

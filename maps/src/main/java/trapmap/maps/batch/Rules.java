@@ -105,12 +105,25 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
      * @param limits    pass/fail limits
      * @param grades    grades of passing wafers, first matching wins
      * @param failGrade grade of a failed wafer ("" for none)
+     * @param stack     the injection stack its wafers are measured as (defect identification), or null for none
      */
     public record Profile(String name, Match match, String defectId, Flag flag, List<Limit> limits,
-                          List<Grade> grades, String failGrade) {
+                          List<Grade> grades, String failGrade, StackRules stack) {
         public Profile {
             limits = List.copyOf(limits);
             grades = List.copyOf(grades);
+        }
+
+        /** A profile without an injection stack. */
+        public Profile(String name, Match match, String defectId, Flag flag, List<Limit> limits, List<Grade> grades,
+                       String failGrade) {
+            this(name, match, defectId, flag, limits, grades, failGrade, null);
+        }
+
+        /** True when a limit or grade names a figure of an injection stack. */
+        boolean usesStackFigures() {
+            return limits.stream().anyMatch(l -> l.figure().needsStack())
+                    || grades.stream().flatMap(g -> g.when().stream()).anyMatch(l -> l.figure().needsStack());
         }
 
         /** True when a trap-density map is needed: a trap-density flag or figure. */
@@ -132,6 +145,10 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
             s.add(Figure.parse(Figure.INVALID_AREA_FRACTION));
             if (needsTrapDensity()) {
                 s.add(Figure.parse("below_limit_area_fraction"));
+            }
+            if (stack != null) {
+                s.add(Figure.parse(Figure.BEST_DEFECT_AREA_FRACTION));
+                s.add(Figure.parse(Figure.NO_SINGLE_DEFECT_AREA_FRACTION));
             }
             return List.copyOf(s);
         }
@@ -346,6 +363,20 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         Set<Figure> s = new LinkedHashSet<>();
         allProfiles().forEach(p -> s.addAll(p.figures()));
         return List.copyOf(s);
+    }
+
+    /**
+     * The maps a file of this name may be judged with: the most levels of a profile stack whose first level it
+     * matches (its profile may still not match the map), else 1. The batch reserves memory for that many maps.
+     */
+    public int stackLevels(String fileName) {
+        int most = 1;
+        for (Profile p : profiles) {
+            if (p.stack() != null && p.stack().judges(fileName)) {
+                most = Math.max(most, p.stack().levels().size());
+            }
+        }
+        return most;
     }
 
     /** True when the default profile needs a trap-density map (a trap-density flag or figure). */
@@ -623,6 +654,10 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                         "");
             }
             exceedanceNeedsDensityFlag(top, "");
+            if (top.usesStackFigures()) {
+                throw error("limits", Figure.BEST_DEFECT_AREA_FRACTION + " and " + Figure.NO_SINGLE_DEFECT_AREA_FRACTION
+                        + " need an injection stack: give them in a profile with a \"stack\"", "");
+            }
             List<Profile> profiles = root.has("profiles") ? profiles(root.get("profiles"), top) : List.of();
             return new Rules(c, override, defect, edgeExclusion, format, edgeBand, flag, limits, grades, failGrade,
                     profiles, physics);
@@ -666,7 +701,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                 String p = "profiles[" + i + "]";
                 JsonNode n = object(node.get(i), p);
                 onlyKeys(n, p, new LinkedHashSet<>(List.of("name", "match", "defect", "flag", "limits", "grades",
-                        "fail_grade")));
+                        "fail_grade", "stack")));
                 if (!n.has("name")) {
                     throw error(p + ".name", "is required", "");
                 }
@@ -690,12 +725,28 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                     throw error(p + ".fail_grade", "the inherited '" + failGrade + "' is also a grade of passing"
                             + " wafers here", "");
                 }
-                Profile profile = new Profile(name, match, defect, flag, limits, grades, failGrade);
+                StackRules stack = null;
+                if (n.has("stack")) {
+                    if (defect == null) {
+                        throw error(p + ".defect", "is required with a stack: the defect whose share of the area"
+                                + " best_defect_area_fraction gives (a defect id such as fe-i)", "");
+                    }
+                    stack = StackRules.parse(n.get("stack"), p + ".stack", this.name, defect);
+                }
+                Profile profile = new Profile(name, match, defect, flag, limits, grades, failGrade, stack);
                 if (defect == null && profile.needsTrapDensity()) {
                     throw error(p + ".defect", "is required for trap-density flags and figures (a defect id such"
                             + " as midgap)", "");
                 }
                 exceedanceNeedsDensityFlag(profile, p + ".");
+                if (stack == null && profile.usesStackFigures()) {
+                    throw error(p + ".stack", "is required for " + Figure.BEST_DEFECT_AREA_FRACTION + " and "
+                            + Figure.NO_SINGLE_DEFECT_AREA_FRACTION + ": {\"levels\": [glob, glob, …]}", "");
+                }
+                if (stack != null && match.file() == null) {
+                    throw error(p + ".match.file", "is required with a stack: a glob that picks the first level's"
+                            + " maps (e.g. the stack's levels[0])", "");
+                }
                 out.add(profile);
             }
             return out;

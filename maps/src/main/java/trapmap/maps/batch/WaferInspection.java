@@ -278,6 +278,9 @@ public final class WaferInspection {
         FlaggedRegions.FlaggedRegion interior = largestInterior(regions, shape, grid);
         double flaggedFraction = life.areaMm2() > 0 ? regions.totalAreaMm2() / life.areaMm2() : Double.NaN;
 
+        // a profile's injection stack: its other levels beside this map, identified with the engine of `identify`
+        StackFigures.Shares stack = profile.stack() == null ? null
+                : StackFigures.of(name, map, profile.stack(), rules, defect, reader, masks.indices(), count);
         Map<String, Double> values = new LinkedHashMap<>();
         for (Figure f : figures) {
             double v = switch (f.kind()) {
@@ -294,6 +297,8 @@ public final class WaferInspection {
                 case INVALID_AREA_FRACTION -> invalid.fraction();
                 case EXCEEDANCE_AREA_FRACTION -> count == 0 ? Double.NaN : (double) ConfidenceFlag.countFlagged(
                         lifeValues, count, exceedance.confidentLifetimeUs(f.percent() / 100)) / count;
+                case BEST_DEFECT_AREA_FRACTION -> stack == null ? Double.NaN : stack.bestDefect();
+                case NO_SINGLE_DEFECT_AREA_FRACTION -> stack == null ? Double.NaN : stack.noSingleDefect();
             };
             values.put(f.name(), v);
         }

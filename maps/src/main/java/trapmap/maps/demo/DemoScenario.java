@@ -78,13 +78,16 @@ public final class DemoScenario {
 
     /**
      * Writes the set into {@code dir} (created when missing): per map a TIFF with embedded metadata and a JSON
-     * sidecar, then {@code truth.json} and {@code README.md}. Every file is written atomically; files of the same
-     * names are replaced. Two runs give byte-identical files.
+     * sidecar, then {@code truth.json} and {@code README.md}, then the injection stack of {@link InjectionStackDemo}
+     * in the subfolder {@value InjectionStackDemo#FOLDER}. Every file is written atomically; files of the same names
+     * are replaced. Two runs give byte-identical files.
      *
      * @return the files written, in order
      */
     public static List<Path> write(Path dir) throws IOException {
-        return DemoSetFiles.write(dir, build());
+        List<Path> written = new ArrayList<>(DemoSetFiles.write(dir, build()));
+        written.addAll(InjectionStackDemo.write(dir.resolve(InjectionStackDemo.FOLDER)));
+        return written;
     }
 
     /** Reads the planted defects of every file back from a {@code truth.json}. */
@@ -229,7 +232,7 @@ public final class DemoScenario {
 
     // ---------------------------------------------------------------- grids, conditions, provenance
 
-    private static PixelGrid grid(double sizeMm, double pitchMm) {
+    static PixelGrid grid(double sizeMm, double pitchMm) {
         int n = (int) StrictMath.ceil(sizeMm / pitchMm) + 6;
         return PixelGrid.centred(n, n, pitchMm);
     }
@@ -238,7 +241,7 @@ public final class DemoScenario {
         return StrictMath.rint(v * 10) / 10;
     }
 
-    private static MeasurementConditions conditions(Doping doping, double thicknessUm, double srv, Double injection,
+    static MeasurementConditions conditions(Doping doping, double thicknessUm, double srv, Double injection,
                                                     Double generation, Map<String, String> extra) {
         Map<String, String> facts = new TreeMap<>(extra);
         facts.put("data", "invented demonstration data, not a measurement");

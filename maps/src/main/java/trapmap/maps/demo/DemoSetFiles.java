@@ -193,6 +193,7 @@ final class DemoSetFiles {
                 + "`trapmap calc iron`\nwith the two lifetimes of a pixel at Δn = 1e13 cm⁻³ gives the planted [Fe]."
                 + " The PL image converts to lifetime with\nits own `pl_calibration_counts_cm6`,"
                 + " `generation_cm3_s` and `doping`.\n");
+        sb.append(InjectionStackDemo.readme());
         return sb.toString();
     }
 }

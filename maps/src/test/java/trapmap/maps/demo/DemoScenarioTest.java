@@ -52,8 +52,8 @@ class DemoScenarioTest {
         List<Path> second = DemoScenario.write(other);
         assertThat(second).hasSameSizeAs(written);
         for (Path p : written) {
-            assertThat(Files.readAllBytes(other.resolve(p.getFileName()))).as(p.getFileName().toString())
-                    .isEqualTo(Files.readAllBytes(p));
+            Path rel = dir.relativize(p);
+            assertThat(Files.readAllBytes(other.resolve(rel))).as(rel.toString()).isEqualTo(Files.readAllBytes(p));
         }
     }
 
@@ -65,9 +65,10 @@ class DemoScenarioTest {
         }
         assertThat(total).isLessThan(8L << 20);
         assertThat(written).allSatisfy(p -> assertThat(p.getFileName().toString()).doesNotEndWith(".tmp"));
-        try (Stream<Path> s = Files.list(dir)) {
-            assertThat(s.count()).isEqualTo(written.size());
+        try (Stream<Path> s = Files.walk(dir)) {
+            assertThat(s.filter(Files::isRegularFile).count()).isEqualTo(written.size());
         }
+        assertThat(written).contains(dir.resolve(InjectionStackDemo.FOLDER).resolve(DemoScenario.TRUTH));
     }
 
     @Test
@@ -196,15 +197,16 @@ class DemoScenarioTest {
     void committedDemoDataEqualsAFreshGeneration() throws IOException {
         Path committed = Path.of("..", "demo-data");
         List<String> names = new ArrayList<>();
-        try (Stream<Path> s = Files.list(committed)) {
-            s.forEach(p -> names.add(p.getFileName().toString()));
+        try (Stream<Path> s = Files.walk(committed)) {
+            s.filter(Files::isRegularFile).forEach(p -> names.add(committed.relativize(p).toString()));
         }
         // The example rules file for batch inspection is written by hand and lives beside the generated set.
         names.remove(HAND_WRITTEN_RULES);
-        assertThat(names).containsExactlyInAnyOrderElementsOf(written.stream().map(p -> p.getFileName().toString())
+        assertThat(names).containsExactlyInAnyOrderElementsOf(written.stream().map(p -> dir.relativize(p).toString())
                 .toList());
         for (Path p : written) {
-            assertThat(Files.readAllBytes(committed.resolve(p.getFileName()))).as(p.getFileName().toString())
+            Path rel = dir.relativize(p);
+            assertThat(Files.readAllBytes(committed.resolve(rel))).as(rel.toString())
                     .isEqualTo(Files.readAllBytes(p));
         }
     }

@@ -540,7 +540,7 @@ public final class ViewerModel {
             }
             WaferAnalysis r;
             if (lr != null) {
-                r = WaferAnalyzer.judge(w.path.getFileName().toString(), w.map, a, lr,
+                r = WaferAnalyzer.judge(w.path.toString(), w.map, a, lr,
                         override == null ? null : defects.byId(override), d, old, cancelled);
             } else {
                 r = WaferAnalyzer.analyse(w.map, a, d, old, cancelled, physics);

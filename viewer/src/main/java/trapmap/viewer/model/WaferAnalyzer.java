@@ -151,7 +151,8 @@ public final class WaferAnalyzer {
      * is converted for display with the defect that judged it (the profile's, or {@code override}); figures on the
      * screen are computed over the pixels the rules evaluated.
      *
-     * @param fileName  the file name (the profiles' {@code file} globs match it)
+     * @param fileName  the map's file (the profiles' {@code file} globs match its name; a profile's injection stack
+     *                  reads its other levels from beside it)
      * @param read      the map as read
      * @param analysis  the viewer's settings: its condition overrides apply before the rules' conditions; its
      *                  threshold and edge exclusion are not used (the rules give them)

@@ -26,6 +26,14 @@ final class Criteria {
         if (m.file() != null) {
             parts.add("files named " + m.file());
         }
+        if (p.stack() != null) {
+            trapmap.maps.batch.StackRules s = p.stack();
+            parts.add("with their injection stack (" + s.levels().size() + " levels: " + String.join(", ", s.levels())
+                    + "; candidates " + (s.defects().isEmpty() ? "the library defects suited to the type"
+                    : String.join(", ", s.defects())) + "; pixel noise " + Labels.number(s.noise() * 100) + " %"
+                    + (s.blockPx() > 1 ? "; blocks of " + s.blockPx() + " px" : "")
+                    + (s.register() ? "" : "; levels taken as aligned") + ")");
+        }
         return String.join(", ", parts);
     }
 
