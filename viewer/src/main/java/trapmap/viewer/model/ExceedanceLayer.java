@@ -87,9 +87,20 @@ public final class ExceedanceLayer {
         return maps == null ? Double.NaN : maps.probabilityAt(tauUs);
     }
 
-    /** The {@code q} quantile of N_t at {@code tauUs} µs, cm⁻³; NaN when unavailable or not convertible. */
+    /**
+     * True when density quantiles can be given: the model is prepared at a fixed injection level (under a fixed
+     * generation rate it gives probabilities only).
+     */
+    public boolean quantilesAvailable() {
+        return maps != null && !maps.model().fixedGeneration();
+    }
+
+    /**
+     * The {@code q} quantile of N_t at {@code tauUs} µs, cm⁻³; NaN when unavailable (see {@link
+     * #quantilesAvailable}) or not convertible.
+     */
     public double quantileAt(double tauUs, double q) {
-        return maps == null ? Double.NaN : maps.quantileAt(tauUs, q);
+        return quantilesAvailable() ? maps.quantileAt(tauUs, q) : Double.NaN;
     }
 
     /**

@@ -108,18 +108,26 @@ class ViewerExceedanceTest {
     }
 
     @Test
-    void fixedGenerationGivesTheReasonInsteadOfNumbers() {
+    void fixedGenerationGivesTheProbabilityAndSaysWhyNoQuantiles() {
         ViewerModel m = opened();
         m.setAnalysis(Analysis.DEFAULT.withDefect("fe-i").withConditions(ConditionOverrides.NONE
                 .withGeneration(1e19)), "conditions");
         WaferAnalysis r = m.compute(0, () -> false);
-        assertThat(r.exceedance().available()).isFalse();
-        PixelReadout p = m.probe(r.lifetime().width() / 2, r.lifetime().height() / 2);
-        assertThat(p.exceedance().describe()).startsWith("probability of exceeding N* not available:")
-                .containsIgnoringCase("generation");
+        // a fixed generation rate gives probabilities (each sample's threshold lifetime solved), no quantiles
+        assertThat(r.exceedance().available()).isTrue();
+        assertThat(r.exceedance().quantilesAvailable()).isFalse();
+        int x = r.lifetime().width() / 2;
+        int y = r.lifetime().height() / 2;
+        PixelReadout p = m.probe(x, y);
+        double tau = r.lifetime().raster().get(x, y);
+        assertThat(p.exceedance().probability()).isEqualTo(r.exceedance().probabilityAt(tau));
+        assertThat(p.exceedance().probability()).isBetween(0.0, 1.0);
+        assertThat(p.exceedance().lowPerCm3()).isNaN();
+        assertThat(p.exceedance().describe()).startsWith("P(N_t > ").contains("quantiles need a fixed injection");
         m.setAnalysis(m.analysis().withQuantity(DisplayedQuantity.EXCEEDANCE_PROBABILITY), "quantity");
-        assertThat(m.compute(0, () -> false)).isNull();
-        assertThat(m.wafer(0).error()).containsIgnoringCase("generation");
+        WaferAnalysis shown = m.compute(0, () -> false);
+        assertThat(shown).isNotNull();
+        assertThat(shown.displayed().raster().get(x, y)).isEqualTo((float) r.exceedance().probabilityAt(tau));
     }
 
     @Test
