@@ -188,7 +188,7 @@ final class IdentifyCommand implements Callable<Integer> {
                 t.row("best " + e.index() + " " + e.defectId(), Integer.toString(e.pixelCount()), "px");
             }
         }
-        t.row("region threshold", Format.number(r.regionThresholdUs()), "µs");
+        t.row("regions", r.regionRule(), "");
         for (RegionIdentification g : r.regions()) {
             String v;
             if (g.ranking() == null) {

@@ -347,8 +347,8 @@ public final class DefectIdentification {
             sorted = Arrays.copyOf(sorted, m);
             Arrays.sort(sorted);
             double median = median(sorted);
-            threshold = Double.isNaN(median) ? Float.MAX_VALUE
-                    : Double.isInfinite(median) ? Float.MAX_VALUE : DEFAULT_REGION_FRACTION * median;
+            // an SRH-free background (median below the limit, or no data): no threshold, dominance alone decides
+            threshold = Double.isFinite(median) ? DEFAULT_REGION_FRACTION * median : Double.POSITIVE_INFINITY;
         }
         float[] dominant = new float[first.length];
         for (int p = 0; p < first.length; p++) {
@@ -358,7 +358,9 @@ public final class DefectIdentification {
         }
         first = dominant;
         double pixelArea = lifetimes.stack().grid().pixelAreaMm2();
-        RegionCriteria criteria = RegionCriteria.below(threshold, (options.minRegionPixels() - 0.5) * pixelArea);
+        // no threshold (+∞): every finite τ_SRH of an SRH-dominated pixel is below the largest float
+        RegionCriteria criteria = RegionCriteria.below(Math.min(threshold, Float.MAX_VALUE),
+                (options.minRegionPixels() - 0.5) * pixelArea);
         RegionTable table = ThresholdRegions.find(FloatRaster.wrap(w, h, first), lifetimes.stack().grid(), null,
                 criteria, null);
         int[] labels = new int[w * h];

@@ -166,9 +166,21 @@ public final class IdentificationResult {
         return regionLabels.clone();
     }
 
-    /** The region threshold used: regions are where the first level's τ_SRH is below it, µs. */
+    /**
+     * The region threshold used: regions are where the first level's τ_SRH is below it, µs; +∞ when the default rule
+     * found no finite median (an SRH-free background), so that SRH dominance alone decides.
+     */
     public double regionThresholdUs() {
         return regionThresholdUs;
+    }
+
+    /** The region rule in words, with its threshold and unit, for every face (command line, viewer). */
+    public String regionRule() {
+        String dominance = "SRH at least " + Math.round(DefectIdentification.SRH_DOMINANT_SHARE * 100)
+                + " % of the recombination at the first level";
+        return Double.isFinite(regionThresholdUs)
+                ? "τ_SRH below " + String.format(Locale.ROOT, "%.4g", regionThresholdUs) + " µs and " + dominance
+                : dominance + " (no τ_SRH threshold: most pixels show no resolvable SRH)";
     }
 
     /** The regions with their curves, rankings and DPSS, by id. */

@@ -91,6 +91,14 @@ class DemoStackIdentificationTest {
     }
 
     @Test
+    void anSrhFreeBackgroundLeavesTheRegionsToSrhDominanceAlone() {
+        // most pixels of the demo wafer show no resolvable SRH: half the median τ_SRH is not finite
+        assertThat(result.regionThresholdUs()).isInfinite();
+        assertThat(result.regionRule()).startsWith("SRH at least 50 % of the recombination at the first level")
+                .contains("no τ_SRH threshold");
+    }
+
+    @Test
     void regionRankingsFindThePlantedDefectsAndTheOverlap() {
         for (InjectionStackDemo.Region r : truth.regions()) {
             Ranking ranking = regionAt(r).ranking();

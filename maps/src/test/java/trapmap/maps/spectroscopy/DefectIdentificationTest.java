@@ -39,6 +39,15 @@ class DefectIdentificationTest {
     }
 
     @Test
+    void aGivenRegionThresholdIsStatedWithItsUnit() {
+        IdentificationResult given = DefectIdentification.identify(lifetimes, DefectLibrary.all(),
+                DefectIdentification.Options.DEFAULTS.withThreads(1).withRegionThreshold(250));
+        assertThat(given.regionThresholdUs()).isEqualTo(250);
+        assertThat(given.regionRule()).isEqualTo("τ_SRH below 250 µs and SRH at least 50 % of the recombination"
+                + " at the first level");
+    }
+
+    @Test
     void eachPlantedAreaIsOneRegion() {
         assertThat(result.regions()).hasSize(3);
         assertThat(regionOf(SyntheticStack.FE_BOX).region().pixelCount()).isEqualTo(10 * 10);

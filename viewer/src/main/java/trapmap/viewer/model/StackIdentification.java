@@ -233,9 +233,7 @@ public final class StackIdentification {
             case CHI_SQUARED -> "χ² of the best candidate's fit (ν = usable levels − 1); grey: no fit";
             case CHI_SQUARED_RATIO -> "χ²(runner-up)/χ²(best): the larger, the clearer the best defect";
             case DENSITY -> "N_t of the best candidate, cm⁻³";
-            case REGIONS -> String.format(Locale.ROOT, "value = region number (0: in none); regions are where the"
-                    + " first level's τ_SRH is below %s µs", trapmap.viewer.graphics.Labels.number(
-                    r.regionThresholdUs()));
+            case REGIONS -> "value = region number (0: in none); regions: " + r.regionRule();
         };
     }
 

@@ -116,8 +116,8 @@ class StackIdentificationTest {
                 result.legend().size() + " " + result.legend().get(result.legend().size() - 1).defectId());
         assertThat(StackIdentification.layerKey(StackIdentification.Layer.STATUS, result)).contains("0 OK",
                 RankingStatus.NO_SINGLE_DEFECT.ordinal() + " no single defect");
-        assertThat(StackIdentification.layerKey(StackIdentification.Layer.REGIONS, result)).contains(
-                trapmap.viewer.graphics.Labels.number(result.regionThresholdUs()) + " µs");
+        assertThat(StackIdentification.layerKey(StackIdentification.Layer.REGIONS, result)).endsWith(
+                result.regionRule());
         assertThat(StackIdentification.Layer.BEST.categorical()).isTrue();
         assertThat(StackIdentification.Layer.CHI_SQUARED.categorical()).isFalse();
         assertThat(StackIdentification.Layer.DENSITY.label()).contains("cm⁻³");
