@@ -179,7 +179,7 @@ public final class IdentificationResult {
         String dominance = "SRH at least " + Math.round(DefectIdentification.SRH_DOMINANT_SHARE * 100)
                 + " % of the recombination at the first level";
         return Double.isFinite(regionThresholdUs)
-                ? "τ_SRH below " + String.format(Locale.ROOT, "%.4g", regionThresholdUs) + " µs and " + dominance
+                ? "τ_SRH below " + trapmap.maps.io.NumberText.of((float) regionThresholdUs) + " µs and " + dominance
                 : dominance + " (no τ_SRH threshold: most pixels show no resolvable SRH)";
     }
 
