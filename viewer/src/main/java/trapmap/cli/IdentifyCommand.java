@@ -14,7 +14,6 @@ import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
-import trapmap.maps.compare.RegistrationOptions;
 import trapmap.maps.io.ReadOptions;
 import trapmap.maps.spectroscopy.DefectIdentification;
 import trapmap.maps.spectroscopy.IdentificationFiles;
@@ -35,8 +34,9 @@ import trapmap.physics.spectroscopy.LifetimeCurve;
                     + " objects give them ({\"label\": \"1e13\", \"injection_cm3\": 1e13}). The condition flags"
                     + " apply to every level; --injection and --generation are refused (each level has its own).",
             "",
-            "Every level is registered onto the first (unless --no-registration), τ_SRH is taken per pixel with"
-                    + " intrinsic and surface recombination removed, and the library defects are ranked by the χ² of"
+            "Every level is registered onto the first (unless --no-registration): upright, turned at most 2°,"
+                    + " and kept as measured unless a shift (or shift and turn) scores clearly better; τ_SRH is"
+                    + " taken per pixel with intrinsic and surface recombination removed, and the library defects are ranked by the χ² of"
                     + " their one-parameter fit N_t (injection-dependent lifetime spectroscopy; Rein, Lifetime"
                     + " Spectroscopy, Springer 2005): per pixel (or --block k), and per region (connected areas where"
                     + " SRH dominates the first level and τ_SRH is below half its median), with the defect parameter"
@@ -126,7 +126,7 @@ final class IdentifyCommand implements Callable<Integer> {
         List<Defect> candidates = candidates();
         InjectionStack.Loaded loaded = InjectionStack.read(maps, ReadOptions.DEFAULTS, conditions.overrides());
         InjectionStack stack = InjectionStack.of(loaded, new InjectionStack.Options(!noRegistration,
-                RegistrationOptions.DEFAULTS, !anyWaferId));
+                InjectionStack.REGISTRATION, !anyWaferId));
         DefectIdentification.Options o = new DefectIdentification.Options(block, noise,
                 regionBelowUs == null ? Double.NaN : regionBelowUs, minRegionPx,
                 Runtime.getRuntime().availableProcessors());

@@ -79,8 +79,13 @@ class IdentifyCommandTest {
         args.addAll(List.of("-o", out.toString(), "--json", "--defects", "fe-i,cr-i,ti-i,mo-i"));
         JsonNode j = Cli.json(args.toArray(String[]::new));
         assertThat(j.get("levels")).hasSize(3);
-        assertThat(j.get("levels").get(1).get("registration").get("shift_x_mm").asDouble()).isCloseTo(0,
-                within(0.25));
+        JsonNode reg = j.get("levels").get(1).get("registration");
+        // levels measured in place: kept as they lie, the search's score beside the identity's
+        assertThat(reg.get("kept").asText()).isEqualTo("identity");
+        assertThat(reg.get("shift_x_mm").asDouble()).isZero();
+        assertThat(reg.get("score").asDouble()).isEqualTo(reg.get("identity_score").asDouble());
+        assertThat(reg.get("search_score").asDouble()).isLessThan(reg.get("identity_score").asDouble()
+                + trapmap.maps.spectroscopy.InjectionStack.IDENTITY_MARGIN);
         assertThat(j.get("regions")).hasSize(1);
         JsonNode region = j.get("regions").get(0);
         assertThat(region.get("pixels").asInt()).isEqualTo(100);

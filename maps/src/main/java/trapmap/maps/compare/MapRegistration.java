@@ -75,6 +75,53 @@ public final class MapRegistration {
     }
 
     /**
+     * Registers a map known to lie almost as the before map does (another measurement of the same wafer in the same
+     * tool), translation first: no mirror or quarter turn is searched whatever {@code options} says, and a placement
+     * is kept only when it beats every simpler one by more than {@code marginScore} (score units, 0–1): a shift must
+     * score above the maps as they lie (the identity) by more than the margin, and a shift with a fine turn within
+     * {@link RegistrationOptions#maxRotationDeg()} above both the identity and the best shift alone by more than the
+     * margin. Maps whose contrast differs (e.g. one wafer at different injection levels) can correlate better in a
+     * wrong placement than in the right one; confining the search to near-identity placements and demanding a clear
+     * win keeps them as measured unless they really moved. The report's {@code searchScore} is the higher of the two
+     * searched placements' scores.
+     *
+     * @throws trapmap.shared.error.InvalidValueException when a map is flat or the maps do not overlap
+     * @throws java.util.concurrent.CancellationException when the thread is interrupted
+     */
+    public static RegistrationReport registerNearIdentity(WaferMap before, WaferMap after,
+                                                          RegistrationOptions options, double marginScore,
+                                                          ProgressListener progress) {
+        Checks.inRange(marginScore, 0, 1, "margin", "");
+        Checks.notNull(options, "options");
+        RegistrationOptions upright = options.withSearchOrientations(false);
+        RegistrationWarnings.SizeCheck size = RegistrationWarnings.SizeCheck.start(before, after);
+        try {
+            RegistrationSearch shiftSearch = search(before, after, upright.withMaxRotation(0), progress, true);
+            Registration identity = shiftSearch.evaluate(Registration.identity());
+            Registration shifted = shiftSearch.search();
+            Registration kept = identity;
+            if (shifted.score() > identity.score() + marginScore) {
+                kept = shifted;
+            }
+            double searchScore = shifted.score();
+            if (upright.maxRotationDeg() > 0) {
+                Registration turned = new RegistrationSearch(shiftSearch.beforePyramid(),
+                        shiftSearch.afterPyramid(), upright, progress, true).search();
+                searchScore = Math.max(searchScore, turned.score());
+                if (RegistrationSearch.withinTurnLimit(turned, upright.maxRotationDeg())
+                        && turned.score() > Math.max(identity.score(), shifted.score()) + marginScore) {
+                    kept = turned;
+                }
+            }
+            RegistrationReport r = new RegistrationReport(kept, kept == identity ? RegistrationReport.Kept.IDENTITY
+                    : RegistrationReport.Kept.SEARCH, searchScore, identity.score(), List.of());
+            return withWarnings(before, after, r, size);
+        } finally {
+            size.cancel();
+        }
+    }
+
+    /**
      * As {@link #registerChecked} without the warnings: the outline size check is left to the caller; with
      * {@code countOverlap} false the overlap of the registration is left 0 for the caller to count on the resampled
      * map (the pass of {@link MapComparison} that takes the paired statistics).

@@ -59,6 +59,16 @@ final class RegistrationSearch {
         this.canvasPitchMm = CANVAS_SPAN * extent / n;
     }
 
+    /** The before map's pyramid (to search again with other options without rebuilding it). */
+    Pyramid beforePyramid() {
+        return before;
+    }
+
+    /** The after map's pyramid. */
+    Pyramid afterPyramid() {
+        return after;
+    }
+
     /** The full search. */
     Registration search() {
         progress.progress(0, STAGES, "preparing maps");

@@ -302,11 +302,12 @@ public final class InjectionStackDemo {
         sb.append("Identify the defects, and judge the wafer by them with the example rules `" + RULES + "` (a"
                 + " profile whose `stack`\nnames the three levels; its limits fail a wafer with more than 1 % of its"
                 + " area best explained by Fe_i):\n\n"
-                + "    ./trapmap identify " + FOLDER + "/" + WAFER_ID + "-dn1e1{3,4,5}.tif --no-registration"
-                + " -o hint.tif"
-                + " --json\n"
+                + "    ./trapmap identify " + FOLDER + "/" + WAFER_ID + "-dn1e1{3,4,5}.tif -o hint.tif --json\n"
                 + "    ./trapmap inspect " + FOLDER + " --rules " + FOLDER + "/" + RULES + " --out stack-report\n\n"
-                + "The levels lie on one grid, hence `--no-registration` (and `\"register\": false` in the rules).\n");
+                + "Both register every level onto the first (the default): the levels lie on one grid, no"
+                + " placement beats them as\nthey lie by the stack's margin, so each is kept as measured"
+                + " (`\"kept\": \"identity\"` in `hint.json`) and the sharp disc\nedges are not blurred by"
+                + " resampling.\n");
         return sb.toString();
     }
 
@@ -346,7 +347,7 @@ public final class InjectionStackDemo {
     /**
      * Example rules for {@code inspect} on the stack's folder: the first level is judged by a profile with the
      * stack (its share of area best explained by Fe_i, and the share no single defect explains, as limits); the
-     * other levels by the default profile (lifetime flag only). The levels are taken as lying on one grid.
+     * other levels by the default profile (lifetime flag only). The levels are registered as by default.
      */
     static String rulesJson() {
         return "{\n"
@@ -354,8 +355,7 @@ public final class InjectionStackDemo {
                 + "  \"profiles\": [\n"
                 + "    {\"name\": \"injection-stack\", \"match\": {\"type\": \"p\", \"file\": \"*-dn1e13.*\"},"
                 + " \"defect\": \"fe-i\",\n"
-                + "     \"stack\": {\"levels\": [\"*-dn1e13.*\", \"*-dn1e14.*\", \"*-dn1e15.*\"], \"noise\": 0.03,"
-                + " \"register\": false},\n"
+                + "     \"stack\": {\"levels\": [\"*-dn1e13.*\", \"*-dn1e14.*\", \"*-dn1e15.*\"], \"noise\": 0.03},\n"
                 + "     \"limits\": {\"best_defect_area_fraction\": {\"max\": 0.01},"
                 + " \"no_single_defect_area_fraction\": {\"max\": 0.05}}}\n"
                 + "  ]\n"

@@ -207,6 +207,8 @@ public final class IdentificationFiles {
                 reg.put("shift_x_mm", finite(rr.registration().shiftXMm()));
                 reg.put("shift_y_mm", finite(rr.registration().shiftYMm()));
                 reg.put("score", finite(rr.registration().score()));
+                reg.put("search_score", finite(rr.searchScore()));
+                reg.put("identity_score", finite(rr.identityScore()));
                 reg.put("resampled", l.resampled());
                 reg.put("warnings", rr.warnings());
                 lv.put("registration", reg);

@@ -24,8 +24,13 @@ import trapmap.shared.progress.ProgressListener;
  * Lifetime or PL maps of one wafer measured at two or more injection levels, each level placed onto the first one's
  * grid. Made by {@link #of}, which checks that the maps belong together (same wafer id, doping, thickness and
  * temperature; one injection level or generation rate each, all distinct) and registers every level onto the first
- * with {@link MapRegistration} (the shifts are kept in each {@link StackLevel#registration()}); a level on the same
- * grid whose placement moves no pixel by more than {@link #SUBPIXEL_PX} is kept as measured.
+ * with {@link MapRegistration#registerNearIdentity} (the shifts are kept in each {@link StackLevel#registration()});
+ * a level on the same grid whose placement moves no pixel by more than {@link #SUBPIXEL_PX} is kept as measured.
+ *
+ * <p>The levels of a stack are measurements of one wafer in one tool, so their registration is restricted (see
+ * {@link #REGISTRATION}, {@link #IDENTITY_MARGIN}): the levels differ in contrast (a defect dark at one injection
+ * level can vanish or turn bright at another), and an unrestricted search as in {@code compare} may then prefer a
+ * mirrored or half-turned placement that lays one defect's spot onto another's.
  */
 public final class InjectionStack {
     /** Fewest levels a stack has: the injection dependence needs two. */
@@ -37,21 +42,38 @@ public final class InjectionStack {
      * noisy maps resolves (project choice).
      */
     public static final double SUBPIXEL_PX = 0.5;
+    /**
+     * How the levels of a stack are searched: upright only (no mirror or quarter turn), fine turns within ±2° in 1°
+     * steps, the search and refinement resolutions of {@link RegistrationOptions#DEFAULTS} (project choice: one tool
+     * puts one wafer back within a few mm and a degree or two; anything else is not a stack of one measurement).
+     */
+    public static final RegistrationOptions REGISTRATION = RegistrationOptions.DEFAULTS.withSearchOrientations(false)
+            .withMaxRotation(2);
+    /**
+     * How much higher (in registration score, 0–1) a shift must score than the levels as they lie, and a turn than
+     * both the levels as they lie and the best shift, to be kept
+     * (project choice: on the demonstration stack, whose levels did not move, the search gains less than 0.001 over
+     * the levels as they lie; on square test levels with only two defect discs for texture a spurious fine turn
+     * gained 0.025 over the correct shift; a real shift of a few pixels raises the score by 0.3 or more).
+     */
+    public static final double IDENTITY_MARGIN = 0.05;
     /** Relative difference below which two thicknesses or temperatures count as the same. */
     static final double SAME_VALUE_TOLERANCE = 1e-9;
 
     /**
      * How the levels are placed onto the first one.
      *
-     * @param register     true: search the placement of every level ({@link MapRegistration#registerChecked});
-     *                     false: take the maps as aligned (they must then have the same size)
-     * @param registration how hard the search works
+     * @param register     true: search the placement of every level
+     *                     ({@link MapRegistration#registerNearIdentity} with {@link #IDENTITY_MARGIN}); false: take
+     *                     the maps as aligned (they must then have the same size)
+     * @param registration how hard the search works and how far it may turn (mirrors and quarter turns are never
+     *                     searched for a stack)
      * @param sameWaferId  true: refuse maps whose wafer ids differ; false: take them as one wafer whatever their ids
      *                     (e.g. files named after their level without a sidecar {@code wafer_id})
      */
     public record Options(boolean register, RegistrationOptions registration, boolean sameWaferId) {
-        /** Registered with {@link RegistrationOptions#DEFAULTS}, one wafer id. */
-        public static final Options DEFAULTS = new Options(true, RegistrationOptions.DEFAULTS, true);
+        /** Registered with {@link #REGISTRATION}, one wafer id. */
+        public static final Options DEFAULTS = new Options(true, REGISTRATION, true);
 
         public Options {
             Checks.notNull(registration, "registration");
@@ -176,8 +198,8 @@ public final class InjectionStack {
             boolean resampled = false;
             if (options.register()) {
                 try {
-                    report = MapRegistration.registerChecked(first, m, options.registration(),
-                            ProgressListener.NONE);
+                    report = MapRegistration.registerNearIdentity(first, m, options.registration(),
+                            IDENTITY_MARGIN, ProgressListener.NONE);
                 } catch (InvalidValueException e) {
                     throw new InvalidValueException(e.field(), e.unit(), n + " cannot be registered onto "
                             + firstName + ": " + e.getMessage());
