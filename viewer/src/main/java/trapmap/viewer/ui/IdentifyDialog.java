@@ -69,7 +69,7 @@ import trapmap.viewer.ui.charts.IdentificationChartsView;
 final class IdentifyDialog extends JDialog {
     private static final long serialVersionUID = 1L;
     /** The style of the categorical layers: required by the canvas, unused by its colours (the categories give them). */
-    private static final DisplayStyle CATEGORY_SCALE = new DisplayStyle(ColourMap.GREY, false, 0, 1);
+    private static final DisplayStyle CATEGORY_SCALE = new DisplayStyle(ColourMap.BLUE_YELLOW, false, 0, 1);
 
     private final ViewerWindow window;
     private final ViewerModel model;
@@ -140,6 +140,8 @@ final class IdentifyDialog extends JDialog {
         run.setName("identify");
         run.addActionListener(e -> start());
         cancel.setName("cancelIdentify");
+        phase.setName("identifyPhase");
+        progress.setName("identifyProgress");
         cancel.setToolTipText("Stop the running identification (its partial result is dropped)");
         cancel.addActionListener(e -> cancelRun());
         cancel.setEnabled(false);
@@ -201,6 +203,10 @@ final class IdentifyDialog extends JDialog {
         JTable legendTable = new JTable(legend);
         legendTable.setName("legendTable");
         legendTable.getColumnModel().getColumn(1).setCellRenderer(new Swatch());
+        int[] widths = {50, 60, 110, 300, 80};
+        for (int c = 0; c < widths.length; c++) {
+            legendTable.getColumnModel().getColumn(c).setPreferredWidth(widths[c]);
+        }
         regionTable.setName("regionTable");
         regionTable.setSelectionMode(ListSelectionModel.SINGLE_SELECTION);
         regionTable.getSelectionModel().addListSelectionListener(e -> {

@@ -34,6 +34,9 @@ public class ColourBar extends JComponent {
     /** From the strip's right edge to the start of a tick label (tick mark and gap), pixels. */
     static final int LABEL_GAP = 7;
 
+    /** The last row of a list of categories: the canvas's colour of pixels without data. */
+    static final String NO_DATA = "no data";
+
     private DisplayStyle style;
     private String label = "";
     private boolean percent;
@@ -70,6 +73,12 @@ public class ColourBar extends JComponent {
      */
     public void setCategories(Categories categories) {
         this.categories = categories;
+        if (categories != null) {
+            setToolTipText("Categories: each colour names one value (listed with its number); " + NO_DATA
+                    + ": pixels without data");
+        } else {
+            setStyle(style);
+        }
         revalidate();
         repaint();
     }
@@ -91,6 +100,7 @@ public class ColourBar extends JComponent {
         List<String> out = new ArrayList<>();
         if (categories != null) {
             categories.entries().forEach(c -> out.add(c.label()));
+            out.add(NO_DATA);
             return out;
         }
         if (style == null) {
@@ -128,7 +138,7 @@ public class ColourBar extends JComponent {
             return super.getPreferredSize();
         }
         FontMetrics fm = getFontMetrics(barFont());
-        int rows = categories == null ? 0 : categories.entries().size() + 1;
+        int rows = categories == null ? 0 : categories.entries().size() + 2;
         return new Dimension(widthFor(fm), Math.max(320, rows * (fm.getHeight() + 2) + 2 * PAD));
     }
 
@@ -270,7 +280,11 @@ public class ColourBar extends JComponent {
             y += fm.getHeight() + 4;
         }
         int row = fm.getHeight() + 2;
-        for (Categories.Category c : categories.entries()) {
+        List<Categories.Category> rows = new ArrayList<>(categories.entries());
+        if (style != null) {
+            rows.add(new Categories.Category(Integer.MIN_VALUE, NO_DATA, Colouring.noDataRgb(style.colours())));
+        }
+        for (Categories.Category c : rows) {
             g.setColor(new Color(c.rgb()));
             g.fillRect(x, y + 1, BAR_WIDTH, row - 3);
             g.setColor(text);

@@ -101,7 +101,7 @@ class ColourBarTest {
                         Categories.UNDECIDED_RGB)));
         ColourBar bar = new ColourBar(new DisplayStyle(ColourMap.GREY, false, 0, 1), "best defect");
         bar.setCategories(cats);
-        assertThat(bar.tickLabels()).containsExactly("1 fe-i", "2 cr-i", "no single defect");
+        assertThat(bar.tickLabels()).containsExactly("1 fe-i", "2 cr-i", "no single defect", "no data");
         bar.setSize(200, 300);
         BufferedImage img = new BufferedImage(200, 300, BufferedImage.TYPE_INT_RGB);
         var g = img.createGraphics();
@@ -116,7 +116,8 @@ class ColourBarTest {
             }
         }
         // the swatches top to bottom in the categories' order, and no grey-scale ramp of the style
-        assertThat(seen).containsSubsequence(0xE69F00, 0x56B4E9, Categories.UNDECIDED_RGB);
+        assertThat(seen).containsSubsequence(0xE69F00, 0x56B4E9, Categories.UNDECIDED_RGB,
+                Colouring.noDataRgb(ColourMap.GREY));
         assertThat(seen).doesNotContain(ColourMap.GREY.rgb(128));
         bar.setCategories(null);
         assertThat(bar.tickLabels()).contains("0", "1.0");
