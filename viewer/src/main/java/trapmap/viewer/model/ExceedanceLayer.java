@@ -87,9 +87,17 @@ public final class ExceedanceLayer {
         return maps == null ? Double.NaN : maps.probabilityAt(tauUs);
     }
 
-    /** The {@code q} quantile of N_t at {@code tauUs} µs, cm⁻³; NaN when unavailable or not convertible. */
+    /**
+     * The {@code q} quantile of N_t at {@code tauUs} µs, cm⁻³; NaN when unavailable, not convertible, or under a fixed
+     * generation rate (the model draws probabilities only there, {@link #fixedGeneration}).
+     */
     public double quantileAt(double tauUs, double q) {
-        return maps == null ? Double.NaN : maps.quantileAt(tauUs, q);
+        return maps == null || fixedGeneration() ? Double.NaN : maps.quantileAt(tauUs, q);
+    }
+
+    /** True when the layer was prepared under a fixed generation rate: probabilities, but no N_t quantiles. */
+    public boolean fixedGeneration() {
+        return maps != null && maps.model().fixedGeneration();
     }
 
     /**

@@ -42,6 +42,10 @@ public record PixelReadout(double xMm, double yMm, DisplayedQuantity quantity, d
             if (Double.isNaN(probability)) {
                 return p + "–";
             }
+            if (Double.isNaN(lowPerCm3) && Double.isNaN(highPerCm3)) {
+                return p + String.format(java.util.Locale.ROOT, "%.3f", probability) + "   N_t quantiles: none under a"
+                        + " fixed generation rate (give Δn in cm⁻³ for them)";
+            }
             return p + String.format(java.util.Locale.ROOT, "%.3f", probability) + "   N_t "
                     + Math.round(ExceedanceSettings.LOW_QUANTILE * 100) + "–"
                     + Math.round(ExceedanceSettings.HIGH_QUANTILE * 100) + " % [" + Units.number(lowPerCm3) + " – "

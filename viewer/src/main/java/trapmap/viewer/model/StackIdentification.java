@@ -324,10 +324,23 @@ public final class StackIdentification {
             case CHI_SQUARED -> "χ² of the best candidate's fit (ν = usable levels − 1); grey: no fit";
             case CHI_SQUARED_RATIO -> "χ²(runner-up)/χ²(best): the larger, the clearer the best defect";
             case DENSITY -> "N_t of the best candidate, cm⁻³";
-            case REGIONS -> String.format(Locale.ROOT, "value = region number (0: in none); regions are where the"
-                    + " first level's τ_SRH is below %s µs", trapmap.viewer.graphics.Labels.number(
-                    r.regionThresholdUs()));
+            case REGIONS -> "value = region number (0: in none); " + regionRule(r);
         };
+    }
+
+    /**
+     * The engine's region rule in words: below its τ_SRH threshold, or, when the first level's median τ_SRH is
+     * unbounded (most of the wafer shows no SRH recombination, and the engine's threshold is the largest float),
+     * wherever τ_SRH is finite.
+     */
+    static String regionRule(IdentificationResult r) {
+        double t = r.regionThresholdUs();
+        if (!(t < Float.MAX_VALUE)) {
+            return "regions are where the first level's τ_SRH is finite and dominates τ_eff (most of the wafer has"
+                    + " no resolvable τ_SRH, so no τ threshold applies)";
+        }
+        return "regions are where the first level's τ_SRH is below " + trapmap.viewer.graphics.Labels.number(t)
+                + " µs and dominates τ_eff";
     }
 
     private static String legendKey(IdentificationResult r) {

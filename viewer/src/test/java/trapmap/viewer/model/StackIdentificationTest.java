@@ -135,8 +135,8 @@ class StackIdentificationTest {
                 result.legend().size() + " " + result.legend().get(result.legend().size() - 1).defectId());
         assertThat(StackIdentification.layerKey(StackIdentification.Layer.STATUS, result)).contains("0 OK",
                 RankingStatus.NO_SINGLE_DEFECT.ordinal() + " no single defect");
-        assertThat(StackIdentification.layerKey(StackIdentification.Layer.REGIONS, result)).contains(
-                trapmap.viewer.graphics.Labels.number(result.regionThresholdUs()) + " µs");
+        assertThat(StackIdentification.layerKey(StackIdentification.Layer.REGIONS, result)).startsWith(
+                "value = region number (0: in none); ").endsWith(StackIdentification.regionRule(result));
         assertThat(StackIdentification.Layer.BEST.categorical()).isTrue();
         assertThat(StackIdentification.Layer.CHI_SQUARED.categorical()).isFalse();
         assertThat(StackIdentification.Layer.DENSITY.label()).contains("cm⁻³");
@@ -249,5 +249,19 @@ class StackIdentificationTest {
         for (StackIdentification.Layer l : StackIdentification.Layer.values()) {
             assertThat(StackIdentification.categories(l, result) != null).as(l.name()).isEqualTo(l.categorical());
         }
+    }
+
+    @Test
+    void anUnboundedRegionThresholdIsExplainedInsteadOfPrintedAsTheLargestFloat() {
+        // the synthetic wafer is clean outside its squares: the median τ_SRH is unbounded, the engine's threshold
+        // the largest float
+        assertThat(result.regionThresholdUs()).isEqualTo(Float.MAX_VALUE);
+        String key = StackIdentification.layerKey(StackIdentification.Layer.REGIONS, result);
+        assertThat(key).contains("τ_SRH is finite", "no τ threshold applies").doesNotContain("e38", "E38");
+        StackIdentification.Request base = request(SyntheticLevels.maps(LEVELS, 0.01, 7, "w1"), 1);
+        StackIdentification.Request bounded = new StackIdentification.Request(base.inputs(), base.settings(),
+                base.candidates(), base.options().withRegionThreshold(50), false);
+        IdentificationResult r = StackIdentification.run(bounded, ProgressListener.NONE);
+        assertThat(StackIdentification.layerKey(StackIdentification.Layer.REGIONS, r)).contains("below 50 µs");
     }
 }

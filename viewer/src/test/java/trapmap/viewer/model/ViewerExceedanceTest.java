@@ -108,18 +108,26 @@ class ViewerExceedanceTest {
     }
 
     @Test
-    void fixedGenerationGivesTheReasonInsteadOfNumbers() {
+    void fixedGenerationGivesProbabilitiesButNoQuantiles() {
         ViewerModel m = opened();
         m.setAnalysis(Analysis.DEFAULT.withDefect("fe-i").withConditions(ConditionOverrides.NONE
                 .withGeneration(1e19)), "conditions");
         WaferAnalysis r = m.compute(0, () -> false);
-        assertThat(r.exceedance().available()).isFalse();
-        PixelReadout p = m.probe(r.lifetime().width() / 2, r.lifetime().height() / 2);
-        assertThat(p.exceedance().describe()).startsWith("probability of exceeding N* not available:")
-                .containsIgnoringCase("generation");
+        // the maps module draws the probability under a fixed generation rate, but refuses density quantiles there
+        assertThat(r.exceedance().available()).isTrue();
+        assertThat(r.exceedance().fixedGeneration()).isTrue();
+        int x = r.lifetime().width() / 2;
+        int y = r.lifetime().height() / 2;
+        double tau = r.lifetime().raster().get(x, y);
+        assertThat(r.exceedance().probabilityAt(tau)).isBetween(0.0, 1.0);
+        assertThat(r.exceedance().quantileAt(tau, ExceedanceSettings.LOW_QUANTILE)).isNaN();
+        // the readout (on every mouse move) gives the probability and says why there are no quantiles
+        PixelReadout p = m.probe(x, y);
+        assertThat(p.exceedance().describe()).startsWith("P(N_t > ").contains("N_t quantiles: none under a fixed"
+                + " generation rate");
         m.setAnalysis(m.analysis().withQuantity(DisplayedQuantity.EXCEEDANCE_PROBABILITY), "quantity");
-        assertThat(m.compute(0, () -> false)).isNull();
-        assertThat(m.wafer(0).error()).containsIgnoringCase("generation");
+        WaferAnalysis shown = m.compute(0, () -> false);
+        assertThat(shown.displayed().quantity()).isEqualTo(trapmap.maps.model.Quantity.EXCEEDANCE_PROBABILITY);
     }
 
     @Test
