@@ -10,7 +10,10 @@ import org.jfree.chart.JFreeChart;
 import org.jfree.chart.axis.LogAxis;
 import org.jfree.chart.axis.NumberAxis;
 import org.jfree.chart.axis.ValueAxis;
+import org.jfree.chart.plot.ValueMarker;
 import org.jfree.chart.plot.XYPlot;
+import org.jfree.chart.ui.RectangleAnchor;
+import org.jfree.chart.ui.TextAnchor;
 
 /** The common look of the charts of the viewer and the reports: white plot, light grid, readable fonts, log axes with 1-2-5 ticks. */
 public final class ChartStyle {
@@ -162,11 +165,11 @@ public final class ChartStyle {
                     horizontal ? fm::stringWidth : t -> fm.getHeight(), horizontal ? 10 : 6);
             org.jfree.chart.ui.TextAnchor anchor;
             if (horizontal) {
-                anchor = edge == org.jfree.chart.ui.RectangleEdge.TOP ? org.jfree.chart.ui.TextAnchor.BOTTOM_CENTER
-                        : org.jfree.chart.ui.TextAnchor.TOP_CENTER;
+                anchor = edge == org.jfree.chart.ui.RectangleEdge.TOP ? TextAnchor.BOTTOM_CENTER
+                        : TextAnchor.TOP_CENTER;
             } else {
-                anchor = edge == org.jfree.chart.ui.RectangleEdge.LEFT ? org.jfree.chart.ui.TextAnchor.CENTER_RIGHT
-                        : org.jfree.chart.ui.TextAnchor.CENTER_LEFT;
+                anchor = edge == org.jfree.chart.ui.RectangleEdge.LEFT ? TextAnchor.CENTER_RIGHT
+                        : TextAnchor.CENTER_LEFT;
             }
             for (double v : values) {
                 out.add(new org.jfree.chart.axis.NumberTick(org.jfree.chart.axis.TickType.MAJOR, v,
@@ -181,5 +184,24 @@ public final class ChartStyle {
         NumberAxis a = new NumberAxis(label);
         a.setAutoRangeIncludesZero(false);
         return a;
+    }
+
+    /**
+     * Puts the label of a vertical marker on the side of its line that faces the middle of {@code axis}: right of the
+     * line in the left half, left of it in the right half, so that no label near the right edge is cut off.
+     */
+    public static void labelInside(ValueMarker m, ValueAxis axis) {
+        double lo = axis.getLowerBound();
+        double hi = axis.getUpperBound();
+        double v = m.getValue();
+        boolean log = axis instanceof LogAxis;
+        double position = log && lo > 0 && v > 0 ? Math.log(v / lo) / Math.log(hi / lo) : (v - lo) / (hi - lo);
+        if (position > 0.5) {
+            m.setLabelAnchor(RectangleAnchor.TOP_LEFT);
+            m.setLabelTextAnchor(TextAnchor.TOP_RIGHT);
+        } else {
+            m.setLabelAnchor(RectangleAnchor.TOP_RIGHT);
+            m.setLabelTextAnchor(TextAnchor.TOP_LEFT);
+        }
     }
 }

@@ -10,8 +10,7 @@ import org.jfree.chart.plot.XYPlot;
 import org.jfree.chart.renderer.xy.StandardXYBarPainter;
 import org.jfree.chart.renderer.xy.XYBarRenderer;
 import org.jfree.chart.title.TextTitle;
-import org.jfree.chart.ui.RectangleAnchor;
-import org.jfree.chart.ui.TextAnchor;
+import org.jfree.chart.ui.Layer;
 import org.jfree.data.xy.XYIntervalSeries;
 import org.jfree.data.xy.XYIntervalSeriesCollection;
 import trapmap.maps.model.Quantity;
@@ -70,21 +69,27 @@ public final class HistogramChart {
             List<Row> r = new ArrayList<>();
             r.add(new Row("pixels counted", Integer.toString(s.count()), "px"));
             r.add(new Row("area", PitchPrecision.areaOfPixels(s.areaMm2(), s.count()), "mm²"));
-            r.add(new Row("mean", Labels.number(s.mean()), u));
-            r.add(new Row("harmonic mean", Labels.number(s.harmonicMean()), u));
-            if (quantity.logarithmic()) {
-                r.add(new Row("geometric mean", Labels.number(s.geometricMean()), u));
-            }
-            r.add(new Row("median", Labels.number(s.median()), u));
-            r.add(new Row("standard deviation", Labels.number(s.standardDeviation()), u));
-            r.add(new Row("minimum", Labels.number(s.min()), u));
-            for (MapStatistics.PercentileValue p : s.percentiles()) {
-                r.add(new Row("P" + Labels.number(p.percent()), Labels.number(p.value()), u));
-            }
-            r.add(new Row("maximum", Labels.number(s.max()), u));
-            if (s.nonPositiveCount() > 0) {
-                r.add(new Row("pixels ≤ 0 (not in harmonic/geometric mean)", Integer.toString(s.nonPositiveCount()),
-                        "px"));
+            if (!categorical(quantity)) {
+                r.add(new Row("mean", Labels.number(s.mean()), u));
+                boolean harmonic = harmonicMeanSuits(quantity);
+                if (harmonic) {
+                    r.add(new Row("harmonic mean", Labels.number(s.harmonicMean()), u));
+                }
+                if (quantity.logarithmic()) {
+                    r.add(new Row("geometric mean", Labels.number(s.geometricMean()), u));
+                }
+                r.add(new Row("median", Labels.number(s.median()), u));
+                r.add(new Row("standard deviation", Labels.number(s.standardDeviation()), u));
+                r.add(new Row("minimum", Labels.number(s.min()), u));
+                for (MapStatistics.PercentileValue p : s.percentiles()) {
+                    r.add(new Row("P" + Labels.number(p.percent()), Labels.number(p.value()), u));
+                }
+                r.add(new Row("maximum", Labels.number(s.max()), u));
+                if (s.nonPositiveCount() > 0 && (harmonic || quantity.logarithmic())) {
+                    r.add(new Row("pixels ≤ 0 (not in " + (harmonic && quantity.logarithmic() ? "harmonic/geometric"
+                            : harmonic ? "harmonic" : "geometric") + " mean)", Integer.toString(s.nonPositiveCount()),
+                            "px"));
+                }
             }
             if (invalid != null) {
                 r.add(new Row("invalid area (" + Labels.percent(invalid.fraction()) + " of evaluated)",
@@ -112,6 +117,23 @@ public final class HistogramChart {
     }
 
     private HistogramChart() {
+    }
+
+    /**
+     * True for the lifetimes (effective, SRH, at the reference injection), the quantities whose harmonic mean means
+     * something: the lifetime of the mean recombination rate. A probability, a density or an index has none.
+     */
+    public static boolean harmonicMeanSuits(Quantity q) {
+        return q == Quantity.EFFECTIVE_LIFETIME || q == Quantity.SRH_LIFETIME || q == Quantity.LIFETIME_AT_REFERENCE;
+    }
+
+    /**
+     * True for maps whose values are categories (defect legend indices, identification and pixel statuses, region
+     * numbers): their mean, median, spread and percentiles mean nothing, so the table lists only counts and areas.
+     */
+    public static boolean categorical(Quantity q) {
+        return q == Quantity.DEFECT_INDEX || q == Quantity.IDENTIFICATION_STATUS || q == Quantity.REGION_LABEL
+                || q == Quantity.STATUS;
     }
 
     /**
@@ -214,8 +236,6 @@ public final class HistogramChart {
                 m.setLabel("threshold " + Labels.number(d.threshold(), q.unit()));
                 m.setLabelFont(ChartStyle.TICKS);
                 m.setLabelPaint(ChartStyle.MARKER);
-                m.setLabelAnchor(RectangleAnchor.TOP_RIGHT);
-                m.setLabelTextAnchor(TextAnchor.TOP_LEFT);
                 plot.addDomainMarker(m);
                 if (!log || d.threshold() > 0) {
                     lo = Math.min(lo, d.threshold());
@@ -227,6 +247,13 @@ public final class HistogramChart {
             } else {
                 double pad = 0.03 * (hi - lo);
                 x.setRange(lo - pad, hi + pad);
+            }
+            if (plot.getDomainMarkers(Layer.FOREGROUND) != null) {
+                for (Object o : plot.getDomainMarkers(Layer.FOREGROUND)) {
+                    if (o instanceof ValueMarker m) {
+                        ChartStyle.labelInside(m, x);
+                    }
+                }
             }
         }
         ChartStyle.apply(chart);

@@ -173,9 +173,14 @@ public final class IdentificationCharts {
                 (d.onCurve() ? on : lib).add(d.energyFromIntrinsicEv(), k);
                 kLo = Math.min(kLo, k);
                 kHi = Math.max(kHi, k);
-                XYTextAnnotation a = new XYTextAnnotation(" " + d.defect().id(), d.energyFromIntrinsicEv(), k);
+                // names in the right fifth of the axis stand left of their point, so the edge does not cut them
+                double e0 = r.points().get(0).energyFromIntrinsicEv();
+                double e1 = r.points().get(r.points().size() - 1).energyFromIntrinsicEv();
+                boolean nearRight = (d.energyFromIntrinsicEv() - e0) / (e1 - e0) > 0.8;
+                XYTextAnnotation a = new XYTextAnnotation(nearRight ? d.defect().id() + " " : " " + d.defect().id(),
+                        d.energyFromIntrinsicEv(), k);
                 a.setFont(ChartStyle.TICKS.deriveFont(d.onCurve() ? Font.BOLD : Font.PLAIN));
-                a.setTextAnchor(TextAnchor.BOTTOM_LEFT);
+                a.setTextAnchor(nearRight ? TextAnchor.BOTTOM_RIGHT : TextAnchor.BOTTOM_LEFT);
                 a.setPaint(d.onCurve() ? ChartStyle.MARKER : Color.DARK_GRAY);
                 plot.addAnnotation(a);
             }
@@ -198,11 +203,10 @@ public final class IdentificationCharts {
                     BasicStroke.JOIN_MITER, 10f, new float[] {3f, 3f}, 0f));
             mid.setLabel("E_i");
             mid.setLabelFont(ChartStyle.TICKS);
-            mid.setLabelAnchor(RectangleAnchor.TOP_RIGHT);
-            mid.setLabelTextAnchor(TextAnchor.TOP_LEFT);
             plot.addDomainMarker(mid);
             List<DpssPoint> pts = r.points();
             x.setRange(pts.get(0).energyFromIntrinsicEv(), pts.get(pts.size() - 1).energyFromIntrinsicEv());
+            ChartStyle.labelInside(mid, x);
             if (kHi > 0 && kLo < Double.POSITIVE_INFINITY) {
                 y.setRange(kLo / K_MARGIN, kHi * K_MARGIN);
             }

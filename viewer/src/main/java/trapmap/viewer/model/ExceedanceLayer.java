@@ -88,19 +88,16 @@ public final class ExceedanceLayer {
     }
 
     /**
-     * True when density quantiles can be given: the model is prepared at a fixed injection level (under a fixed
-     * generation rate it gives probabilities only).
-     */
-    public boolean quantilesAvailable() {
-        return maps != null && !maps.model().fixedGeneration();
-    }
-
-    /**
-     * The {@code q} quantile of N_t at {@code tauUs} µs, cm⁻³; NaN when unavailable (see {@link
-     * #quantilesAvailable}) or not convertible.
+     * The {@code q} quantile of N_t at {@code tauUs} µs, cm⁻³; NaN when unavailable, not convertible, or under a fixed
+     * generation rate (the model draws probabilities only there, {@link #fixedGeneration}).
      */
     public double quantileAt(double tauUs, double q) {
-        return quantilesAvailable() ? maps.quantileAt(tauUs, q) : Double.NaN;
+        return maps == null || fixedGeneration() ? Double.NaN : maps.quantileAt(tauUs, q);
+    }
+
+    /** True when the layer was prepared under a fixed generation rate: probabilities, but no N_t quantiles. */
+    public boolean fixedGeneration() {
+        return maps != null && maps.model().fixedGeneration();
     }
 
     /**

@@ -35,14 +35,16 @@ public record PixelReadout(double xMm, double yMm, DisplayedQuantity quantity, d
                              String note) {
         /** One line, e.g. {@code P(N_t > 3e11 cm⁻³) 0.82   N_t 5–95 % [2.1e11 – 6.3e11] cm⁻³}. */
         public String describe() {
-            String p = "P(N_t > " + Units.number(thresholdPerCm3) + " cm⁻³) ";
             if (note != null) {
-                // no model at all, or a probability without quantiles (fixed generation rate)
-                return Double.isNaN(probability) ? note
-                        : p + String.format(java.util.Locale.ROOT, "%.3f", probability) + "   (" + note + ")";
+                return note;
             }
+            String p = "P(N_t > " + Units.number(thresholdPerCm3) + " cm⁻³) ";
             if (Double.isNaN(probability)) {
                 return p + "–";
+            }
+            if (Double.isNaN(lowPerCm3) && Double.isNaN(highPerCm3)) {
+                return p + String.format(java.util.Locale.ROOT, "%.3f", probability) + "   N_t quantiles: none under a"
+                        + " fixed generation rate (give Δn in cm⁻³ for them)";
             }
             return p + String.format(java.util.Locale.ROOT, "%.3f", probability) + "   N_t "
                     + Math.round(ExceedanceSettings.LOW_QUANTILE * 100) + "–"

@@ -5,11 +5,12 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
-import java.util.function.Consumer;
+import java.util.concurrent.CancellationException;
 import java.util.function.Function;
 import trapmap.maps.io.ReadOptions;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.model.WaferMap;
+import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.process.ConversionSettings;
 import trapmap.maps.spectroscopy.DefectIdentification;
 import trapmap.maps.spectroscopy.IdentificationResult;
@@ -18,12 +19,13 @@ import trapmap.maps.spectroscopy.RegionIdentification;
 import trapmap.maps.spectroscopy.StackLifetimes;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.spectroscopy.CandidateFit;
-import trapmap.physics.spectroscopy.DpssFit;
 import trapmap.physics.spectroscopy.DpssResult;
 import trapmap.physics.spectroscopy.LifetimeCurve;
 import trapmap.physics.spectroscopy.Ranking;
 import trapmap.physics.spectroscopy.RankingStatus;
 import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.progress.ProgressListener;
+import trapmap.viewer.graphics.Categories;
 import trapmap.viewer.graphics.FitCurves;
 
 /**
@@ -145,25 +147,29 @@ public final class StackIdentification {
     }
 
     /**
-     * Builds the stack (checks and registration), converts every level to τ_SRH and identifies.
+     * Builds the stack (checks and registration), converts every level to τ_SRH and identifies, telling
+     * {@code progress} what is being done (the engine's rows of blocks ranked, from its working threads). Stops with
+     * a {@link CancellationException} when the calling thread is interrupted (the dialog's Cancel).
      *
-     * @param phase told what is being done, for a progress line
      * @throws InvalidValueException naming the map, the field and its unit when the maps do not form a stack
      */
-    public static IdentificationResult run(Request request, Consumer<String> phase) {
+    public static IdentificationResult run(Request request, ProgressListener progress) {
         List<WaferMap> maps = new ArrayList<>();
         List<String> names = new ArrayList<>();
         for (Input in : request.inputs()) {
             maps.add(in.map());
             names.add(in.name());
         }
-        phase.accept("checking " + (request.register() ? "and registering " : "") + maps.size() + " levels");
+        progress.progress(0, 0, "checking " + (request.register() ? "and registering " : "") + maps.size()
+                + " levels");
         InjectionStack.Options placing = request.register() ? InjectionStack.Options.DEFAULTS
                 : new InjectionStack.Options(false, InjectionStack.Options.DEFAULTS.registration());
         InjectionStack stack = InjectionStack.of(maps, names, placing);
-        phase.accept("converting " + stack.size() + " levels to τ_SRH and ranking " + request.candidates().size()
-                + " candidate defects");
-        return DefectIdentification.identify(stack, request.settings(), request.candidates(), request.options());
+        if (Thread.currentThread().isInterrupted()) {
+            throw new CancellationException("identification cancelled");
+        }
+        return DefectIdentification.identify(stack, request.settings(), request.candidates(), request.options(),
+                progress);
     }
 
     /** How each level was placed onto the first: one line per level (shift in mm, rotation). */
@@ -194,10 +200,14 @@ public final class StackIdentification {
         int block = r.options().blockPx();
         String title = block > 1 ? String.format(Locale.ROOT, "block of %d×%d px at pixel (%d, %d)", block, block,
                 col, row) : String.format(Locale.ROOT, "pixel (%d, %d)", col, row);
-        return probe(r, title, c, r.rankingAt(col, row), null);
+        return probe(r, title, c, r.rankingAt(col, row), r.dpssAt(col, row));
     }
 
-    /** The probe of region {@code id} (1-based); null when it has no pixel with data. */
+    /**
+     * The probe of region {@code id} (1-based) with the engine's DPSS of the region's mean curve (null, and no DPSS
+     * chart, when the engine could not make one: the region table gives its reason); null when it has no pixel with
+     * data.
+     */
     public static Probe region(IdentificationResult r, int id) {
         RegionIdentification ri = r.region(id);
         if (ri.curve() == null || ri.ranking() == null) {
@@ -211,9 +221,90 @@ public final class StackIdentification {
                                DpssResult dpss) {
         StackLifetimes lt = r.lifetimes();
         FitCurves fits = FitCurves.of(c, ranking, lt.doping(), lt.silicon());
-        DpssResult surface = dpss != null ? dpss
-                : new DpssFit(lt.doping(), lt.silicon(), c.injectionPerCm3()).fit(c, r.candidates());
-        return new Probe(title, c, ranking, fits, surface, statusText(ranking.status()) + ": " + ranking.reason());
+        return new Probe(title, c, ranking, fits, dpss, statusText(ranking.status()) + ": " + ranking.reason());
+    }
+
+    /**
+     * The categories a categorical layer is drawn in (null for the continuous layers), shared by the map, its colour
+     * bar and the legend table: for the defect index layers one qualitative colour per legend index
+     * ({@link Categories#qualitative}), then "no single defect" and "too few levels" in their own greys; for the
+     * status layer one colour per status (the same greys for those two); for the region layer one colour per region
+     * and "in no region".
+     */
+    public static Categories categories(Layer layer, IdentificationResult r) {
+        List<Categories.Category> out = new ArrayList<>();
+        switch (layer) {
+            case BEST, RUNNER_UP -> {
+                for (IdentificationResult.LegendEntry e : r.legend()) {
+                    out.add(new Categories.Category(e.index(), e.index() + " " + e.defectId(),
+                            Categories.qualitative(e.index() - 1)));
+                }
+                out.add(new Categories.Category(NO_SINGLE_DEFECT_VALUE, statusText(RankingStatus.NO_SINGLE_DEFECT),
+                        Categories.UNDECIDED_RGB));
+                out.add(new Categories.Category(TOO_FEW_LEVELS_VALUE, statusText(RankingStatus.TOO_FEW_LEVELS),
+                        Categories.TOO_FEW_RGB));
+            }
+            case STATUS -> {
+                for (RankingStatus s : RankingStatus.values()) {
+                    out.add(new Categories.Category(s.ordinal(), s.ordinal() + " " + statusText(s), statusRgb(s)));
+                }
+            }
+            case REGIONS -> {
+                out.add(new Categories.Category(0, "0 in no region", NO_REGION_RGB));
+                for (RegionIdentification ri : r.regions()) {
+                    out.add(new Categories.Category(ri.id(), "region " + ri.id(), Categories.qualitative(ri.id() - 1)));
+                }
+            }
+            default -> {
+                return null;
+            }
+        }
+        return new Categories(out);
+    }
+
+    /** Value of the defect index layers' display for pixels ranked without a single defect. */
+    public static final int NO_SINGLE_DEFECT_VALUE = -1;
+    /** Value of the defect index layers' display for pixels with too few usable levels. */
+    public static final int TOO_FEW_LEVELS_VALUE = -2;
+    /** Colour of the pixels in no region (near white). */
+    static final int NO_REGION_RGB = 0xF7F7F7;
+
+    /** The colour of a status on the status layer: OK green, below limit sky blue, the other two greys. */
+    static int statusRgb(RankingStatus s) {
+        return switch (s) {
+            case OK -> Categories.QUALITATIVE[2];
+            case BELOW_LIMIT -> Categories.QUALITATIVE[1];
+            case NO_SINGLE_DEFECT -> Categories.UNDECIDED_RGB;
+            case TOO_FEW_LEVELS -> Categories.TOO_FEW_RGB;
+        };
+    }
+
+    /**
+     * The map drawn for a layer: the layer's own map, except that the defect index layers show
+     * {@link #NO_SINGLE_DEFECT_VALUE} and {@link #TOO_FEW_LEVELS_VALUE} where the status says so (the legend index
+     * only where a defect was identified, OK or below limit), so that such pixels are visibly not a defect's colour.
+     * The readout keeps using the result's own maps.
+     */
+    public static WaferMap displayMap(Layer layer, IdentificationResult r) {
+        WaferMap m = layer.of(r);
+        if (layer != Layer.BEST && layer != Layer.RUNNER_UP) {
+            return m;
+        }
+        float[] v = m.raster().samples().clone();
+        float[] status = r.status();
+        for (int i = 0; i < v.length; i++) {
+            if (Float.isNaN(status[i])) {
+                continue;
+            }
+            int s = (int) status[i];
+            if (s == RankingStatus.NO_SINGLE_DEFECT.ordinal()) {
+                v[i] = NO_SINGLE_DEFECT_VALUE;
+            } else if (s == RankingStatus.TOO_FEW_LEVELS.ordinal()) {
+                v[i] = TOO_FEW_LEVELS_VALUE;
+            }
+        }
+        return new WaferMap(FloatRaster.wrap(m.width(), m.height(), v), m.grid(), m.quantity(), m.waferId(),
+                m.conditions(), m.provenance());
     }
 
     /**

@@ -673,11 +673,6 @@ public final class ViewerModel {
             return new PixelReadout.Exceedance(threshold, Double.NaN, Double.NaN, Double.NaN,
                     layer.unavailableReason());
         }
-        if (!layer.quantilesAvailable()) {
-            // a fixed generation rate gives probabilities only (no density quantiles: see ExceedanceModel)
-            return new PixelReadout.Exceedance(threshold, layer.probabilityAt(tau), Double.NaN, Double.NaN,
-                    "N_t quantiles need a fixed injection level");
-        }
         return new PixelReadout.Exceedance(threshold, layer.probabilityAt(tau),
                 layer.quantileAt(tau, ExceedanceSettings.LOW_QUANTILE),
                 layer.quantileAt(tau, ExceedanceSettings.HIGH_QUANTILE), null);

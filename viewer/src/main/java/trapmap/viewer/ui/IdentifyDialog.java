@@ -48,6 +48,7 @@ import trapmap.physics.defect.DefectLibrary;
 import trapmap.physics.spectroscopy.CandidateFit;
 import trapmap.physics.spectroscopy.RankingStatus;
 import trapmap.viewer.graphics.AutoStyle;
+import trapmap.viewer.graphics.Categories;
 import trapmap.viewer.graphics.ChartExport;
 import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.graphics.Labels;
@@ -67,8 +68,8 @@ import trapmap.viewer.ui.charts.IdentificationChartsView;
  */
 final class IdentifyDialog extends JDialog {
     private static final long serialVersionUID = 1L;
-    /** Colour map of the categorical layers (legend index, status, region). */
-    static final ColourMap CATEGORIES = ColourMap.BLUE_YELLOW;
+    /** The style of the categorical layers: required by the canvas, unused by its colours (the categories give them). */
+    private static final DisplayStyle CATEGORY_SCALE = new DisplayStyle(ColourMap.BLUE_YELLOW, false, 0, 1);
 
     private final ViewerWindow window;
     private final ViewerModel model;
@@ -78,6 +79,7 @@ final class IdentifyDialog extends JDialog {
     private final JSpinner noise = new JSpinner(new SpinnerNumberModel(3.0, 0.1, 50.0, 0.5));
     private final JCheckBox register = new JCheckBox("Register levels", true);
     private final JButton run = new JButton("Identify");
+    private final JButton cancel = new JButton("Cancel");
     private final JProgressBar progress = new JProgressBar();
     private final JLabel phase = new JLabel(" ");
     private final JComboBox<Layer> layer = new JComboBox<>(Layer.values());
@@ -85,7 +87,7 @@ final class IdentifyDialog extends JDialog {
     private final ColourBar bar = new ColourBar();
     private final JLabel readout = new JLabel("<html> <br> </html>");
     private final JLabel layerKey = new JLabel(" ");
-    private final DefaultTableModel legend = table("index", "colour", "defect", "name", "pixels (single defect)");
+    private final DefaultTableModel legend = table("index", "colour", "defect", "name", "pixels");
     private final DefaultTableModel regions = table("region", "pixels", "usable px", "area (mm²)", "best", "N_t (cm⁻³)",
             "95 % bounds (cm⁻³)", "χ²", "p", "status", "DPSS");
     private final DefaultTableModel candidates = table("rank", "defect", "N_t (cm⁻³)", "95 % bounds (cm⁻³)", "χ²",
@@ -97,7 +99,11 @@ final class IdentifyDialog extends JDialog {
     private IdentificationResult result;
     private StackIdentification.Probe shown;
     private MapCanvas.Probe hovered;
-    private SwingWorker<IdentificationResult, String> worker;
+    private SwingWorker<IdentificationResult, Step> worker;
+
+    /** One progress report of the engine: rows of blocks done of all (total 0: a phase without a count). */
+    private record Step(long done, long total, String message) {
+    }
 
     IdentifyDialog(ViewerWindow owner, ViewerModel model) {
         super(owner, "Identify defect from injection levels — trapmap", false);
@@ -133,7 +139,14 @@ final class IdentifyDialog extends JDialog {
         noise.setName("noisePercent");
         run.setName("identify");
         run.addActionListener(e -> start());
+        cancel.setName("cancelIdentify");
+        phase.setName("identifyPhase");
+        progress.setName("identifyProgress");
+        cancel.setToolTipText("Stop the running identification (its partial result is dropped)");
+        cancel.addActionListener(e -> cancelRun());
+        cancel.setEnabled(false);
         progress.setIndeterminate(false);
+        progress.setStringPainted(true);
         progress.setVisible(false);
 
         JPanel buttons = new JPanel(new FlowLayout(FlowLayout.LEFT, 6, 2));
@@ -149,6 +162,7 @@ final class IdentifyDialog extends JDialog {
         register.setName("register");
         buttons.add(register);
         buttons.add(run);
+        buttons.add(cancel);
         buttons.add(progress);
         buttons.add(phase);
         JPanel top = new JPanel(new BorderLayout(6, 2));
@@ -189,6 +203,10 @@ final class IdentifyDialog extends JDialog {
         JTable legendTable = new JTable(legend);
         legendTable.setName("legendTable");
         legendTable.getColumnModel().getColumn(1).setCellRenderer(new Swatch());
+        int[] widths = {50, 60, 110, 300, 80};
+        for (int c = 0; c < widths.length; c++) {
+            legendTable.getColumnModel().getColumn(c).setPreferredWidth(widths[c]);
+        }
         regionTable.setName("regionTable");
         regionTable.setSelectionMode(ListSelectionModel.SINGLE_SELECTION);
         regionTable.getSelectionModel().addListSelectionListener(e -> {
@@ -316,35 +334,69 @@ final class IdentifyDialog extends JDialog {
             return;
         }
         run.setEnabled(false);
+        cancel.setEnabled(true);
         progress.setVisible(true);
         progress.setIndeterminate(true);
+        progress.setString("");
         phase.setForeground(Color.DARK_GRAY);
         worker = new SwingWorker<>() {
             @Override
             protected IdentificationResult doInBackground() {
-                return StackIdentification.run(req, this::publish);
+                return StackIdentification.run(req, (done, total, message) -> publish(new Step(done, total,
+                        message)));
             }
 
             @Override
-            protected void process(List<String> chunks) {
-                phase.setText(chunks.get(chunks.size() - 1) + "…");
+            protected void process(List<Step> chunks) {
+                if (isCancelled()) {
+                    return;
+                }
+                Step s = chunks.get(chunks.size() - 1);
+                phase.setText(s.message() + "…");
+                if (s.total() > 0) {
+                    progress.setIndeterminate(false);
+                    progress.setMaximum((int) Math.min(Integer.MAX_VALUE, s.total()));
+                    progress.setValue((int) Math.min(Integer.MAX_VALUE, s.done()));
+                    progress.setString(s.done() + " / " + s.total() + " rows");
+                } else {
+                    progress.setIndeterminate(true);
+                    progress.setString("");
+                }
             }
 
             @Override
             protected void done() {
                 run.setEnabled(true);
+                cancel.setEnabled(false);
                 progress.setIndeterminate(false);
                 progress.setVisible(false);
+                if (isCancelled()) {
+                    phase.setForeground(Color.DARK_GRAY);
+                    phase.setText("identification cancelled");
+                    return;
+                }
                 try {
                     show(get());
                 } catch (java.util.concurrent.ExecutionException e) {
-                    fail(e.getCause() instanceof Exception x ? x : e);
+                    if (e.getCause() instanceof java.util.concurrent.CancellationException) {
+                        phase.setForeground(Color.DARK_GRAY);
+                        phase.setText("identification cancelled");
+                    } else {
+                        fail(e.getCause() instanceof Exception x ? x : e);
+                    }
                 } catch (InterruptedException | java.util.concurrent.CancellationException e) {
-                    phase.setText("stopped");
+                    phase.setText("identification cancelled");
                 }
             }
         };
         worker.execute();
+    }
+
+    /** Stops the running identification: interrupts its thread, which the engine checks after every row. */
+    void cancelRun() {
+        if (worker != null && !worker.isDone()) {
+            worker.cancel(true);
+        }
     }
 
     private void fail(Exception e) {
@@ -353,7 +405,7 @@ final class IdentifyDialog extends JDialog {
     }
 
     /** The worker that runs (or ran) the identification, for tests. */
-    SwingWorker<IdentificationResult, String> worker() {
+    SwingWorker<IdentificationResult, ?> worker() {
         return worker;
     }
 
@@ -366,11 +418,18 @@ final class IdentifyDialog extends JDialog {
                 counts[RankingStatus.BELOW_LIMIT.ordinal()], counts[RankingStatus.NO_SINGLE_DEFECT.ordinal()],
                 counts[RankingStatus.TOO_FEW_LEVELS.ordinal()], r.regions().size()));
         legend.setRowCount(0);
-        int n = r.legend().size();
+        Categories indexColours = StackIdentification.categories(Layer.BEST, r);
         for (IdentificationResult.LegendEntry e : r.legend()) {
-            legend.addRow(new Object[] {e.index(), categoryColour(e.index(), 1, n), e.defectId(), e.name(),
-                e.pixelCount()});
+            legend.addRow(new Object[] {e.index(), new Color(indexColours.of(e.index()).rgb()), e.defectId(),
+                e.name(), e.pixelCount()});
         }
+        // the two greys of pixels without an identified defect, with their pixel counts
+        Categories.Category undecided = indexColours.of(StackIdentification.NO_SINGLE_DEFECT_VALUE);
+        Categories.Category tooFew = indexColours.of(StackIdentification.TOO_FEW_LEVELS_VALUE);
+        legend.addRow(new Object[] {"–", new Color(undecided.rgb()), undecided.label(), "no library defect fits alone",
+            counts[RankingStatus.NO_SINGLE_DEFECT.ordinal()]});
+        legend.addRow(new Object[] {"–", new Color(tooFew.rgb()), tooFew.label(), "fewer than two usable levels",
+            counts[RankingStatus.TOO_FEW_LEVELS.ordinal()]});
         regions.setRowCount(0);
         for (StackIdentification.RegionRow row : StackIdentification.regionRows(r)) {
             regions.addRow(new Object[] {row.id(), row.pixels(), row.pixelsUsed(), Labels.number(row.areaMm2()),
@@ -386,31 +445,20 @@ final class IdentifyDialog extends JDialog {
         }
     }
 
-    /** The colour of category {@code value} among {@code low..high} on the categorical layers' scale. */
-    static Color categoryColour(int value, int low, int high) {
-        double t = high > low ? (value - low) / (double) (high - low) : 0.5;
-        return new Color(CATEGORIES.rgb((int) Math.round(Math.max(0, Math.min(1, t)) * 255)));
-    }
-
     private void showLayer() {
         if (result == null) {
             return;
         }
         Layer l = (Layer) layer.getSelectedItem();
-        WaferMap m = l.of(result);
-        DisplayStyle style;
-        switch (l) {
-            case BEST, RUNNER_UP -> style = new DisplayStyle(CATEGORIES, false, 0.5, result.legend().size() + 0.5);
-            case STATUS -> style = new DisplayStyle(CATEGORIES, false, -0.5, RankingStatus.values().length - 0.5);
-            case REGIONS -> style = new DisplayStyle(CATEGORIES, false, -0.5, Math.max(1, result.regions().size())
-                    + 0.5);
-            default -> style = styleOrNull(m);
-        }
+        WaferMap m = StackIdentification.displayMap(l, result);
+        Categories cats = StackIdentification.categories(l, result);
+        DisplayStyle style = cats != null ? CATEGORY_SCALE : styleOrNull(m);
         layerKey.setText(StackIdentification.layerKey(l, result));
         layerKey.setToolTipText(layerKey.getText());
         canvas.setMap(m);
-        canvas.setStyle(style);
+        canvas.setStyle(style, cats);
         bar.setStyle(style);
+        bar.setCategories(cats);
         bar.setLabel(l.label());
     }
 
@@ -418,7 +466,7 @@ final class IdentifyDialog extends JDialog {
         try {
             return AutoStyle.of(m);
         } catch (RuntimeException e) {
-            return new DisplayStyle(CATEGORIES, false, 0, 1);
+            return CATEGORY_SCALE;
         }
     }
 
@@ -526,9 +574,7 @@ final class IdentifyDialog extends JDialog {
 
     @Override
     public void dispose() {
-        if (worker != null) {
-            worker.cancel(false);
-        }
+        cancelRun();
         super.dispose();
     }
 }

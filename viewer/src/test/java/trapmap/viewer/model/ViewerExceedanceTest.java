@@ -108,26 +108,26 @@ class ViewerExceedanceTest {
     }
 
     @Test
-    void fixedGenerationGivesTheProbabilityAndSaysWhyNoQuantiles() {
+    void fixedGenerationGivesProbabilitiesButNoQuantiles() {
         ViewerModel m = opened();
         m.setAnalysis(Analysis.DEFAULT.withDefect("fe-i").withConditions(ConditionOverrides.NONE
                 .withGeneration(1e19)), "conditions");
         WaferAnalysis r = m.compute(0, () -> false);
-        // a fixed generation rate gives probabilities (each sample's threshold lifetime solved), no quantiles
+        // the maps module draws the probability under a fixed generation rate, but refuses density quantiles there
         assertThat(r.exceedance().available()).isTrue();
-        assertThat(r.exceedance().quantilesAvailable()).isFalse();
+        assertThat(r.exceedance().fixedGeneration()).isTrue();
         int x = r.lifetime().width() / 2;
         int y = r.lifetime().height() / 2;
-        PixelReadout p = m.probe(x, y);
         double tau = r.lifetime().raster().get(x, y);
-        assertThat(p.exceedance().probability()).isEqualTo(r.exceedance().probabilityAt(tau));
-        assertThat(p.exceedance().probability()).isBetween(0.0, 1.0);
-        assertThat(p.exceedance().lowPerCm3()).isNaN();
-        assertThat(p.exceedance().describe()).startsWith("P(N_t > ").contains("quantiles need a fixed injection");
+        assertThat(r.exceedance().probabilityAt(tau)).isBetween(0.0, 1.0);
+        assertThat(r.exceedance().quantileAt(tau, ExceedanceSettings.LOW_QUANTILE)).isNaN();
+        // the readout (on every mouse move) gives the probability and says why there are no quantiles
+        PixelReadout p = m.probe(x, y);
+        assertThat(p.exceedance().describe()).startsWith("P(N_t > ").contains("N_t quantiles: none under a fixed"
+                + " generation rate");
         m.setAnalysis(m.analysis().withQuantity(DisplayedQuantity.EXCEEDANCE_PROBABILITY), "quantity");
         WaferAnalysis shown = m.compute(0, () -> false);
-        assertThat(shown).isNotNull();
-        assertThat(shown.displayed().raster().get(x, y)).isEqualTo((float) r.exceedance().probabilityAt(tau));
+        assertThat(shown.displayed().quantity()).isEqualTo(trapmap.maps.model.Quantity.EXCEEDANCE_PROBABILITY);
     }
 
     @Test

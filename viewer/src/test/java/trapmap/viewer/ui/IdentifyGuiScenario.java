@@ -77,6 +77,20 @@ public final class IdentifyGuiScenario {
                 });
                 System.out.println(line);
             }
+            // a second run, cancelled at once: the dialog says so, Identify is offered again, the result stays
+            GuiScenario.onEdt(() -> {
+                ((javax.swing.JButton) GuiScenario.find(d.getContentPane(), "identify")).doClick();
+                ((javax.swing.JButton) GuiScenario.find(d.getContentPane(), "cancelIdentify")).doClick();
+                return null;
+            });
+            GuiScenario.waitFor("the cancelled run ended", () -> d.worker().isDone());
+            Thread.sleep(300);
+            String cancelled = GuiScenario.onEdt(() -> String.format(Locale.ROOT, "GUI-CANCEL phase=%s identify=%s"
+                    + " cancel=%s progress=%s", ((javax.swing.JLabel) GuiScenario.find(d.getContentPane(),
+                    "identifyPhase")).getText(), GuiScenario.find(d.getContentPane(), "identify").isEnabled(),
+                    GuiScenario.find(d.getContentPane(), "cancelIdentify").isEnabled(),
+                    GuiScenario.find(d.getContentPane(), "identifyProgress").isVisible()));
+            System.out.println(cancelled);
             System.out.flush();
             SwingUtilities.invokeAndWait(() -> {
                 d.dispose();

@@ -186,8 +186,9 @@ class ViewerWindowGuiTest {
                 + " shown=(.*) fitSeries=(\\d+) rows=(.*)").matcher(out);
         assertThat(head.find()).as("identify line in:%n%s", out).isTrue();
         assertThat(head.group(1)).isEqualTo("3");
+        // one row per ranked defect, then the two greys of "no single defect" and "too few levels"
         assertThat(Integer.parseInt(head.group(2))).isEqualTo((int) trapmap.physics.defect.DefectLibrary.all().stream()
-                .filter(trapmap.physics.defect.Defect::hasAbsoluteCrossSections).count());
+                .filter(trapmap.physics.defect.Defect::hasAbsoluteCrossSections).count() + 2);
         assertThat(head.group(3)).isEqualTo("fe-i");
         assertThat(head.group(4)).isEqualTo("3");
         assertThat(head.group(5)).startsWith("region 1 (");
@@ -203,6 +204,8 @@ class ViewerWindowGuiTest {
         }
         assertThat(out).contains("GUI-LAYER BEST quantity=defect-index", "GUI-LAYER STATUS quantity="
                 + "identification-status", "GUI-LAYER CHI_SQUARED quantity=chi-squared");
+        assertThat(out).contains("GUI-CANCEL phase=identification cancelled identify=true cancel=false"
+                + " progress=false");
     }
 
     private static Path onPath(String name) {

@@ -12,6 +12,7 @@ import java.util.List;
 import java.util.Locale;
 import javax.swing.JComponent;
 import javax.swing.UIManager;
+import trapmap.viewer.graphics.Categories;
 import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.graphics.LogTicks;
 
@@ -19,7 +20,8 @@ import trapmap.viewer.graphics.LogTicks;
  * Vertical colour scale for a {@link DisplayStyle}: the colours from {@code low} (bottom) to {@code high} (top), tick
  * labels at round values (multiples of 1, 2 or 5 × 10^k on a linear scale, {@link LogTicks} on a log scale), and a label
  * naming the quantity and unit above the bar, e.g. {@code τ (µs)} or {@code N_t (cm⁻³)}. Values outside the range take
- * the end colours on the map, which the small arrows at the ends recall.
+ * the end colours on the map, which the small arrows at the ends recall. A map of categories
+ * ({@link #setCategories}) shows instead one swatch per category with its name, top to bottom, and no scale.
  */
 public class ColourBar extends JComponent {
     /** Width of the colour strip, pixels. */
@@ -32,9 +34,13 @@ public class ColourBar extends JComponent {
     /** From the strip's right edge to the start of a tick label (tick mark and gap), pixels. */
     static final int LABEL_GAP = 7;
 
+    /** The last row of a list of categories: the canvas's colour of pixels without data. */
+    static final String NO_DATA = "no data";
+
     private DisplayStyle style;
     private String label = "";
     private boolean percent;
+    private Categories categories;
 
     /** An empty bar; give it a style with {@link #setStyle}. Its preferred width fits its widest label. */
     public ColourBar() {
@@ -61,6 +67,27 @@ public class ColourBar extends JComponent {
         repaint();
     }
 
+    /**
+     * Lists {@code categories} (one swatch and name each) instead of a continuous scale; null returns to the scale of
+     * the style.
+     */
+    public void setCategories(Categories categories) {
+        this.categories = categories;
+        if (categories != null) {
+            setToolTipText("Categories: each colour names one value (listed with its number); " + NO_DATA
+                    + ": pixels without data");
+        } else {
+            setStyle(style);
+        }
+        revalidate();
+        repaint();
+    }
+
+    /** The categories listed, or null when a continuous scale is shown. */
+    public Categories categories() {
+        return categories;
+    }
+
     /** Shows values of a 0–1 fraction as percentages (0.2 reads "20 %"). */
     public void setPercent(boolean percent) {
         this.percent = percent;
@@ -71,6 +98,11 @@ public class ColourBar extends JComponent {
     /** The tick labels of the current style, bottom to top (none without a style). */
     List<String> tickLabels() {
         List<String> out = new ArrayList<>();
+        if (categories != null) {
+            categories.entries().forEach(c -> out.add(c.label()));
+            out.add(NO_DATA);
+            return out;
+        }
         if (style == null) {
             return out;
         }
@@ -105,7 +137,9 @@ public class ColourBar extends JComponent {
         if (isPreferredSizeSet()) {
             return super.getPreferredSize();
         }
-        return new Dimension(widthFor(getFontMetrics(barFont())), 320);
+        FontMetrics fm = getFontMetrics(barFont());
+        int rows = categories == null ? 0 : categories.entries().size() + 2;
+        return new Dimension(widthFor(fm), Math.max(320, rows * (fm.getHeight() + 2) + 2 * PAD));
     }
 
     @Override
@@ -186,7 +220,7 @@ public class ColourBar extends JComponent {
                 g.setColor(getBackground());
                 g.fillRect(0, 0, getWidth(), getHeight());
             }
-            if (style == null) {
+            if (style == null && categories == null) {
                 return;
             }
             g.setRenderingHint(RenderingHints.KEY_TEXT_ANTIALIASING, RenderingHints.VALUE_TEXT_ANTIALIAS_ON);
@@ -194,6 +228,10 @@ public class ColourBar extends JComponent {
             FontMetrics fm = g.getFontMetrics();
             Color text = getForeground() != null ? getForeground() : UIManager.getColor("Label.foreground");
             text = text == null ? Color.BLACK : text;
+            if (categories != null) {
+                paintCategories(g, fm, text);
+                return;
+            }
             int pad = PAD;
             int top = pad + (label.isEmpty() ? 0 : fm.getHeight() + 4) + fm.getAscent() / 2 + 6;
             int bottom = getHeight() - pad - fm.getAscent() / 2 - 6;
@@ -229,6 +267,30 @@ public class ColourBar extends JComponent {
             }
         } finally {
             g.dispose();
+        }
+    }
+
+    /** The label, then one row per category: a framed swatch of its colour and its name. */
+    private void paintCategories(Graphics2D g, FontMetrics fm, Color text) {
+        int x = PAD;
+        int y = PAD;
+        g.setColor(text);
+        if (!label.isEmpty()) {
+            g.drawString(label, x, y + fm.getAscent());
+            y += fm.getHeight() + 4;
+        }
+        int row = fm.getHeight() + 2;
+        List<Categories.Category> rows = new ArrayList<>(categories.entries());
+        if (style != null) {
+            rows.add(new Categories.Category(Integer.MIN_VALUE, NO_DATA, Colouring.noDataRgb(style.colours())));
+        }
+        for (Categories.Category c : rows) {
+            g.setColor(new Color(c.rgb()));
+            g.fillRect(x, y + 1, BAR_WIDTH, row - 3);
+            g.setColor(text);
+            g.drawRect(x, y + 1, BAR_WIDTH, row - 3);
+            g.drawString(c.label(), x + BAR_WIDTH + LABEL_GAP, y + fm.getAscent());
+            y += row;
         }
     }
 }

@@ -1,12 +1,14 @@
 package trapmap.viewer.ui.canvas;
 
 import trapmap.maps.io.ColourMap;
+import trapmap.viewer.graphics.Categories;
 import trapmap.viewer.graphics.DisplayStyle;
 
 /**
  * Turns samples into opaque colours for one {@link DisplayStyle}: value → position t in [0, 1] on a linear or
- * logarithmic scale between {@code low} and {@code high} (clamped), t → one of the 256 colour-map entries. Samples
- * without data (NaN, and values ≤ 0 on a log scale) take {@link #noDataRgb}.
+ * logarithmic scale between {@code low} and {@code high} (clamped), t → one of the 256 colour-map entries; or, for a
+ * map of categories, value → its category's colour ({@link Categories}). Samples without data (NaN, and values ≤ 0 on
+ * a log scale) take {@link #noDataRgb}.
  */
 final class Colouring {
     private final int[] lut = new int[256];
@@ -23,10 +25,18 @@ final class Colouring {
      */
     private final int[] bucketEntry;
     private final int firstBucket;
+    /** The categories' colours, or null for a continuous scale. */
+    private final Categories categories;
     static final int BUCKET_BITS = 10;
     private static final int BUCKET_SHIFT = 23 - BUCKET_BITS;
 
     Colouring(DisplayStyle style) {
+        this(style, null);
+    }
+
+    /** A colouring by {@code categories} (null: by {@code style}'s continuous scale). */
+    Colouring(DisplayStyle style, Categories categories) {
+        this.categories = categories;
         ColourMap cm = style.colours();
         for (int i = 0; i < 256; i++) {
             lut[i] = cm.rgb(i);
@@ -75,6 +85,9 @@ final class Colouring {
 
     /** The colour of one value (0xRRGGBB). */
     int rgb(double v) {
+        if (categories != null) {
+            return categories.rgb(v, noData);
+        }
         if (log) {
             if (!(v > 0)) {
                 return noData; // also NaN
@@ -110,7 +123,7 @@ final class Colouring {
         for (int y = 0; y < h; y++) {
             int s = (y0 + y) * srcWidth + x0;
             int o = y * w;
-            if (log) {
+            if (log && categories == null) {
                 for (int x = 0; x < w; x++) {
                     float v = src[s + x];
                     out[o + x] = v > 0 ? lut[logEntry(v)] : noData;

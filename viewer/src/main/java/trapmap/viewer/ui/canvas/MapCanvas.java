@@ -33,6 +33,7 @@ import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.raster.Mask;
 import trapmap.viewer.model.FlagOverlay;
 import trapmap.maps.raster.PixelGrid;
+import trapmap.viewer.graphics.Categories;
 import trapmap.viewer.graphics.DisplayStyle;
 
 /**
@@ -102,6 +103,7 @@ public class MapCanvas extends JComponent {
     private final Overlays overlays = new Overlays();
     private WaferMap map;
     private DisplayStyle style;
+    private Categories categories;
     private Colouring colouring;
     private BitSet flagged;
     private FlagOverlay flagOverlay = FlagOverlay.DEFAULT;
@@ -188,13 +190,27 @@ public class MapCanvas extends JComponent {
         return style;
     }
 
+    /** The categories the map is coloured by, or null for a continuous scale. */
+    public Categories categories() {
+        return categories;
+    }
+
     /** Sets colours, scale and range; coloured tiles are rebuilt. Without a style nothing is drawn. */
     public void setStyle(DisplayStyle style) {
-        if (style != null && style.equals(this.style)) {
+        setStyle(style, null);
+    }
+
+    /**
+     * Colours a map of categories by {@code categories} (null: by {@code style}'s continuous scale, as
+     * {@link #setStyle(DisplayStyle)}); {@code style} is still required (nothing is drawn without one).
+     */
+    public void setStyle(DisplayStyle style, Categories categories) {
+        if (style != null && style.equals(this.style) && java.util.Objects.equals(categories, this.categories)) {
             return;
         }
         this.style = style;
-        colouring = style == null ? null : new Colouring(style);
+        this.categories = categories;
+        colouring = style == null ? null : new Colouring(style, categories);
         layer.setColouring(colouring);
         int rgb = flagColour().getRGB() & 0xFFFFFF;
         if (rgb != layer.flagRgb()) {

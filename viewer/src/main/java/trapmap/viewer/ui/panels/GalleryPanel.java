@@ -110,7 +110,7 @@ public final class GalleryPanel extends JPanel {
         }
         ViewerModel.Tally t = model.tally();
         header.setName("galleryHeader");
-        header.setText("<html>" + model.size() + " wafers<br><span style='font-weight:normal'>" + model.judgedBy()
+        header.setText("<html>" + waferCount(model.size()) + "<br><span style='font-weight:normal'>" + model.judgedBy()
                 + ": " + t.pass() + " pass · " + t.fail() + " fail" + (t.pending() > 0 ? " · " + t.pending()
                 + " open" : "") + "</span></html>");
         header.setToolTipText(model.rules() != null ? "Verdicts and grades of the rules file, as trapmap inspect"
@@ -269,5 +269,10 @@ public final class GalleryPanel extends JPanel {
     /** Forgets cached thumbnails (after new results). */
     public void clearThumbnails() {
         thumbs.clear();
+    }
+
+    /** "1 wafer", "3 wafers". */
+    static String waferCount(int n) {
+        return n + (n == 1 ? " wafer" : " wafers");
     }
 }

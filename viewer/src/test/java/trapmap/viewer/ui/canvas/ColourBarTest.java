@@ -6,6 +6,7 @@ import static org.assertj.core.api.Assertions.within;
 import java.awt.image.BufferedImage;
 import org.junit.jupiter.api.Test;
 import trapmap.maps.io.ColourMap;
+import trapmap.viewer.graphics.Categories;
 import trapmap.viewer.graphics.DisplayStyle;
 
 class ColourBarTest {
@@ -91,5 +92,34 @@ class ColourBarTest {
         ColourBar bar = new ColourBar(new DisplayStyle(ColourMap.BLUE_YELLOW, false, 0, 1), "%");
         bar.setPercent(true);
         assertThat(bar.tickLabels()).containsExactly("0 %", "20 %", "40 %", "60 %", "80 %", "100 %");
+    }
+
+    @Test
+    void aMapOfCategoriesListsOneSwatchPerCategoryInsteadOfAScale() {
+        Categories cats = new Categories(java.util.List.of(new Categories.Category(1, "1 fe-i", 0xE69F00),
+                new Categories.Category(2, "2 cr-i", 0x56B4E9), new Categories.Category(-1, "no single defect",
+                        Categories.UNDECIDED_RGB)));
+        ColourBar bar = new ColourBar(new DisplayStyle(ColourMap.GREY, false, 0, 1), "best defect");
+        bar.setCategories(cats);
+        assertThat(bar.tickLabels()).containsExactly("1 fe-i", "2 cr-i", "no single defect", "no data");
+        bar.setSize(200, 300);
+        BufferedImage img = new BufferedImage(200, 300, BufferedImage.TYPE_INT_RGB);
+        var g = img.createGraphics();
+        bar.paint(g);
+        g.dispose();
+        int x = ColourBar.PAD + ColourBar.BAR_WIDTH / 2;
+        java.util.List<Integer> seen = new java.util.ArrayList<>();
+        for (int y = 0; y < 300; y++) {
+            int c = img.getRGB(x, y) & 0xFFFFFF;
+            if (seen.isEmpty() || seen.get(seen.size() - 1) != c) {
+                seen.add(c);
+            }
+        }
+        // the swatches top to bottom in the categories' order, and no grey-scale ramp of the style
+        assertThat(seen).containsSubsequence(0xE69F00, 0x56B4E9, Categories.UNDECIDED_RGB,
+                Colouring.noDataRgb(ColourMap.GREY));
+        assertThat(seen).doesNotContain(ColourMap.GREY.rgb(128));
+        bar.setCategories(null);
+        assertThat(bar.tickLabels()).contains("0", "1.0");
     }
 }

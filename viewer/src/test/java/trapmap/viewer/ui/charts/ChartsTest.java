@@ -107,6 +107,44 @@ public class ChartsTest {
     }
 
     @Test
+    void aThresholdNearTheRightEdgeHasItsLabelLeftOfTheLine() {
+        WaferMap m = map(Quantity.EXCEEDANCE_PROBABILITY, 0.3, 0.2, 5);
+        HistogramChart.Data d = HistogramChart.compute(m, null, d0(m) * 0.98);
+        ValueMarker right = (ValueMarker) HistogramChart.createChart(d).getXYPlot().getDomainMarkers(Layer.FOREGROUND)
+                .iterator().next();
+        assertThat(right.getLabelTextAnchor()).isEqualTo(org.jfree.chart.ui.TextAnchor.TOP_RIGHT);
+        assertThat(right.getLabelAnchor()).isEqualTo(org.jfree.chart.ui.RectangleAnchor.TOP_LEFT);
+        HistogramChart.Data low = HistogramChart.compute(m, null, 0.01);
+        ValueMarker left = (ValueMarker) HistogramChart.createChart(low).getXYPlot().getDomainMarkers(
+                Layer.FOREGROUND).iterator().next();
+        assertThat(left.getLabelTextAnchor()).isEqualTo(org.jfree.chart.ui.TextAnchor.TOP_LEFT);
+    }
+
+    private static double d0(WaferMap m) {
+        return HistogramChart.compute(m, null, Double.NaN).statistics().max();
+    }
+
+    @Test
+    void onlyLifetimesGetAHarmonicMeanAndCategoriesNoValueStatistics() {
+        List<String> probability = names(HistogramChart.compute(map(Quantity.EXCEEDANCE_PROBABILITY, 0.3, 0.2, 6),
+                null, 0.5));
+        assertThat(probability).contains("mean", "median", "P95").doesNotContain("harmonic mean", "geometric mean");
+        assertThat(probability).noneMatch(n -> n.contains("harmonic"));
+        List<String> density = names(HistogramChart.compute(map(Quantity.TRAP_DENSITY, 1e11, 0.3, 6), null,
+                Double.NaN));
+        assertThat(density).contains("geometric mean").doesNotContain("harmonic mean");
+        assertThat(names(HistogramChart.compute(map(Quantity.SRH_LIFETIME, 80, 0.3, 6), null, Double.NaN)))
+                .contains("harmonic mean", "geometric mean");
+        List<String> index = names(HistogramChart.compute(map(Quantity.DEFECT_INDEX, 3, 0.1, 6), null, Double.NaN));
+        assertThat(index).contains("pixels counted", "area").doesNotContain("mean", "harmonic mean", "median",
+                "standard deviation", "P50");
+    }
+
+    private static List<String> names(HistogramChart.Data d) {
+        return d.rows().stream().map(HistogramChart.Row::name).toList();
+    }
+
+    @Test
     void thresholdIsMarkedAtItsValueAndReportedWithUnits() {
         WaferMap m = map(Quantity.EFFECTIVE_LIFETIME, 80, 0.3, 4);
         HistogramChart.Data d = HistogramChart.compute(m, null, 42.5);
