@@ -16,6 +16,7 @@ import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import trapmap.maps.compare.RegistrationOptions;
 import trapmap.maps.io.ReadOptions;
+import trapmap.maps.io.NumberText;
 import trapmap.maps.spectroscopy.DefectIdentification;
 import trapmap.maps.spectroscopy.IdentificationFiles;
 import trapmap.maps.spectroscopy.IdentificationResult;
@@ -105,8 +106,9 @@ final class IdentifyCommand implements Callable<Integer> {
         if (!name.endsWith(".tif") && !name.endsWith(".tiff")) {
             throw new InputException("--output must be a .tif file (the best-defect index map), not " + output);
         }
-        if (!(noise > 0 && noise <= 1)) {
-            throw new InputException("--noise must be a relative uncertainty in (0, 1] (0.03 = 3 %), not " + noise);
+        if (!(noise >= DefectIdentification.MIN_RELATIVE_NOISE && noise <= 1)) {
+            throw new InputException("--noise must be a relative uncertainty in ["
+                    + NumberText.of(DefectIdentification.MIN_RELATIVE_NOISE) + ", 1] (0.03 = 3 %), not " + noise);
         }
         if (block < 1 || block > DefectIdentification.MAX_BLOCK_PX) {
             throw new InputException("--block must be in [1, " + DefectIdentification.MAX_BLOCK_PX + "] px, not "

@@ -141,6 +141,12 @@ class IdentifyCommandTest {
                 dir.resolve("x.tif").toString());
         assertThat(unknown.code()).isEqualTo(2);
         assertThat(unknown.err()).contains("'xx'");
+        // a noise the engine refuses is refused as the option, before any map is read
+        Cli.Run tiny = Cli.run("identify", f.get(0), f.get(1), "--noise", "1e-9", "-o",
+                dir.resolve("x.tif").toString());
+        assertThat(tiny.code()).isEqualTo(2);
+        assertThat(tiny.errLines()).hasSize(1);
+        assertThat(tiny.err()).contains("--noise must be a relative uncertainty in [1E-6, 1]").contains("1.0E-9");
         assertThat(dir.resolve("x.tif")).doesNotExist();
     }
 }

@@ -62,6 +62,8 @@ public final class DefectIdentification {
     public static final double SRH_DOMINANT_SHARE = 0.5;
     /** Largest block side, pixels. */
     public static final int MAX_BLOCK_PX = 1024;
+    /** Smallest relative noise of a pixel's τ_SRH accepted (1e-6; the largest is 1). */
+    public static final double MIN_RELATIVE_NOISE = 1e-6;
 
     private DefectIdentification() {
     }
@@ -86,7 +88,7 @@ public final class DefectIdentification {
                 throw new InvalidValueException("block", "px", "the block side must be in [1, " + MAX_BLOCK_PX
                         + "] px but was " + blockPx);
             }
-            Checks.inRange(relativeNoise, 1e-6, 1, "noise", "");
+            Checks.inRange(relativeNoise, MIN_RELATIVE_NOISE, 1, "noise", "relative");
             if (!Double.isNaN(regionThresholdUs)) {
                 Checks.positive(Checks.finite(regionThresholdUs, "regionThreshold", "us"), "regionThreshold", "us");
             }
