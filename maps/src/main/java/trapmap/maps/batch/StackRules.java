@@ -197,8 +197,7 @@ public record StackRules(List<String> levels, List<String> defects, double noise
     }
 
     private static RulesException error(String name, String field, String problem, String unit) {
-        return new RulesException(name + ": field '" + field + "': " + problem
-                + (unit.isEmpty() ? "" : " (" + unit + ")"));
+        return RulesException.field(name, field, problem, unit);
     }
 
     @Override
