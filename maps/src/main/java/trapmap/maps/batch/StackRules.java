@@ -151,7 +151,8 @@ public record StackRules(List<String> levels, List<String> defects, double noise
             if (!v.isNumber() || !(v.doubleValue() >= DefectIdentification.MIN_RELATIVE_NOISE
                     && v.doubleValue() <= 1)) {
                 throw error(name, path + ".noise", "must be a relative uncertainty in ["
-                        + NumberText.of(DefectIdentification.MIN_RELATIVE_NOISE) + ", 1] (0.03 is 3 %) but was " + v, "relative");
+                        + NumberText.of(DefectIdentification.MIN_RELATIVE_NOISE) + ", 1] (0.03 is 3 %) but was " + v,
+                        "relative");
             }
             noise = v.doubleValue();
         }
