@@ -141,6 +141,16 @@ class IdentifyCommandTest {
                 dir.resolve("x.tif").toString());
         assertThat(unknown.code()).isEqualTo(2);
         assertThat(unknown.err()).contains("'xx'");
+        // a level whose sidecar gives another doping: the message names the files and the field, not --doping
+        WaferMap other = level(LEVELS[2], 31).withConditions(new MeasurementConditions(Doping.pType(2e15), 180.0,
+                300.0, LEVELS[2], null, null, null, null, Map.of()));
+        Path otherFile = dir.resolve("W1-other.tif");
+        MapFiles.write(other, otherFile);
+        Cli.Run doped = Cli.run("identify", f.get(0), otherFile.toString(), "-o", dir.resolve("x.tif").toString());
+        assertThat(doped.code()).isEqualTo(2);
+        assertThat(doped.errLines()).hasSize(1);
+        assertThat(doped.err()).startsWith("trapmap identify: " + otherFile + ": field 'doping' is p:2e15")
+                .contains(f.get(0)).contains("(cm^-3)").doesNotContain("--doping");
         // a noise the engine refuses is refused as the option, before any map is read
         Cli.Run tiny = Cli.run("identify", f.get(0), f.get(1), "--noise", "1e-9", "-o",
                 dir.resolve("x.tif").toString());
