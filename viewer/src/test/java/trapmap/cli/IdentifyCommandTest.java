@@ -151,6 +151,25 @@ class IdentifyCommandTest {
         assertThat(doped.errLines()).hasSize(1);
         assertThat(doped.err()).startsWith("trapmap identify: " + otherFile + ": field 'doping' is p:2e15")
                 .contains(f.get(0)).contains("(cm^-3)").doesNotContain("--doping");
+        // an output that would replace an input map or its sidecar is refused before anything is written
+        Path firstLevel = Path.of(f.get(0));
+        byte[] before = Files.readAllBytes(firstLevel);
+        Cli.Run onInput = Cli.run("identify", f.get(0), f.get(1), "-o", f.get(0));
+        assertThat(onInput.code()).isEqualTo(2);
+        assertThat(onInput.errLines()).hasSize(1);
+        assertThat(onInput.err()).contains("--output " + f.get(0) + " would overwrite " + f.get(0));
+        assertThat(Files.readAllBytes(firstLevel)).isEqualTo(before);
+        Path sidecar = dir.resolve("W1-dn0.json");
+        Files.writeString(sidecar, "{\"injection_cm3\": 1e13}");
+        Cli.Run onSidecar = Cli.run("identify", f.get(0), f.get(1), "-o", dir.resolve("W1-dn0.tiff").toString(),
+                "--json");
+        assertThat(onSidecar.code()).isEqualTo(2);
+        assertThat(onSidecar.err()).contains("would overwrite " + sidecar).contains("W1-dn0.json");
+        assertThat(Files.readString(sidecar)).isEqualTo("{\"injection_cm3\": 1e13}");
+        Files.delete(sidecar);
+        Cli.Run besideInput = Cli.run("identify", f.get(0), f.get(1), "-o", dir.resolve("W1.tif").toString(),
+                "--defects", "fe-i", "--block", "4");
+        assertThat(besideInput.code()).as(besideInput.err()).isZero();
         // a noise the engine refuses is refused as the option, before any map is read
         Cli.Run tiny = Cli.run("identify", f.get(0), f.get(1), "--noise", "1e-9", "-o",
                 dir.resolve("x.tif").toString());
