@@ -205,29 +205,19 @@ public final class InjectionStackDemo {
                 }
             }
             Random rnd = new Random(SEED + l);
-            float[] tau = new float[grid.width() * grid.height()];
-            for (int y = 0; y < grid.height(); y++) {
-                for (int x = 0; x < grid.width(); x++) {
-                    double xm = grid.xMm(x);
-                    double ym = grid.yMm(y);
-                    int i = y * grid.width() + x;
-                    if (!shape.contains(xm, ym)) {
-                        tau[i] = Float.NaN;
-                        continue;
-                    }
-                    double rate = otherRate;
-                    for (Region r : regions) {
-                        double w = r.weight(xm, ym);
-                        if (w > 0) {
-                            for (Planted p : r.defects()) {
-                                rate += w * p.densityPerCm3() * perTrap.get(p.defect());
-                            }
+            float[] tau = LifetimeDrawing.overWafer(grid, shape, (xm, ym) -> {
+                double rate = otherRate;
+                for (Region r : regions) {
+                    double w = r.weight(xm, ym);
+                    if (w > 0) {
+                        for (Planted p : r.defects()) {
+                            rate += w * p.densityPerCm3() * perTrap.get(p.defect());
                         }
                     }
-                    double noise = 1 + NOISE * StrictMath.max(-3, StrictMath.min(3, rnd.nextGaussian()));
-                    tau[i] = (float) (noise / rate);
                 }
-            }
+                double noise = 1 + NOISE * StrictMath.max(-3, StrictMath.min(3, rnd.nextGaussian()));
+                return noise / rate;
+            });
             Provenance prov = Provenance.of("trapmap demo generator (invented data, seed " + DemoScenario.SEED + ")")
                     .then(ProcessingStep.of("demo-generate", "wafer", WAFER_ID, "defect", "fe-i+cr-i", "noise",
                             Double.toString(NOISE), "injection_cm3", Double.toString(dn)));
