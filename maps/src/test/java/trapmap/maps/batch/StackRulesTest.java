@@ -86,7 +86,8 @@ class StackRulesTest {
         assertThatThrownBy(() -> rules(stack(LEVELS + ", \"noise\": 0")))
                 .hasMessage("r.json: field 'profiles[0].stack.noise': must be a relative uncertainty in [1E-6, 1]"
                         + " (0.03 is 3 %) but was 0 (relative)");
-        // below the identification's smallest noise: refused here, naming the field, not later per wafer
+        // below the identification's smallest noise (check-values R-LIM-11): refused here, naming the field, not
+        // later per wafer
         assertThatThrownBy(() -> rules(stack(LEVELS + ", \"noise\": 1e-9")))
                 .hasMessageContaining("field 'profiles[0].stack.noise'").hasMessageContaining("(relative)");
         assertThat(rules(stack(LEVELS + ", \"noise\": 1e-6")).profiles().get(0).stack().noise()).isEqualTo(1e-6);
