@@ -42,6 +42,10 @@ public record PixelReadout(double xMm, double yMm, DisplayedQuantity quantity, d
             if (Double.isNaN(probability)) {
                 return p + "–";
             }
+            if (Double.isNaN(lowPerCm3) && Double.isNaN(highPerCm3)) {
+                return p + String.format(java.util.Locale.ROOT, "%.3f", probability)
+                        + "   (N_t quantiles need a fixed injection level)";
+            }
             return p + String.format(java.util.Locale.ROOT, "%.3f", probability) + "   N_t "
                     + Math.round(ExceedanceSettings.LOW_QUANTILE * 100) + "–"
                     + Math.round(ExceedanceSettings.HIGH_QUANTILE * 100) + " % [" + Units.number(lowPerCm3) + " – "

@@ -108,18 +108,38 @@ class ViewerExceedanceTest {
     }
 
     @Test
-    void fixedGenerationGivesTheReasonInsteadOfNumbers() {
+    void fixedGenerationGivesTheProbabilityOfTheModelAndNoQuantiles() {
         ViewerModel m = opened();
-        m.setAnalysis(Analysis.DEFAULT.withDefect("fe-i").withConditions(ConditionOverrides.NONE
+        m.setAnalysis(Analysis.DEFAULT.withDefect("fe-i").withExceedance(SMALL).withConditions(ConditionOverrides.NONE
                 .withGeneration(1e19)), "conditions");
         WaferAnalysis r = m.compute(0, () -> false);
-        assertThat(r.exceedance().available()).isFalse();
-        PixelReadout p = m.probe(r.lifetime().width() / 2, r.lifetime().height() / 2);
-        assertThat(p.exceedance().describe()).startsWith("probability of exceeding N* not available:")
-                .containsIgnoringCase("generation");
+        assertThat(r.exceedance().available()).as(r.exceedance().unavailableReason()).isTrue();
+        ExceedanceModel ref = reference(r, SMALL);
+        assertThat(ref.fixedGeneration()).isTrue();
+        int x = r.lifetime().width() / 2;
+        int y = r.lifetime().height() / 2;
+        double tau = r.lifetime().raster().get(x, y);
+        // the cursor readout: the model's probability; quantiles (fixed injection only) are NaN, not an exception
+        assertThat(r.exceedance().probabilityAt(tau)).isEqualTo(ref.probability((float) tau)).isBetween(0.0, 1.0);
+        assertThat(r.exceedance().quantileAt(tau, ExceedanceSettings.HIGH_QUANTILE)).isNaN();
+        PixelReadout p = m.probe(x, y);
+        assertThat(p.exceedance().describe()).startsWith("P(N_t > ").contains("need a fixed injection level")
+                .doesNotContain("NaN");
+        // the probability layer is the model's pixel by pixel
         m.setAnalysis(m.analysis().withQuantity(DisplayedQuantity.EXCEEDANCE_PROBABILITY), "quantity");
-        assertThat(m.compute(0, () -> false)).isNull();
-        assertThat(m.wafer(0).error()).containsIgnoringCase("generation");
+        WaferAnalysis shown = m.compute(0, () -> false);
+        assertThat(m.wafer(0).error()).isNull();
+        float[] taus = shown.lifetime().raster().samples();
+        float[] probability = shown.displayed().raster().samples();
+        int compared = 0;
+        for (int i = 0; i < taus.length; i += 97) {
+            double expected = ref.probability(taus[i]);
+            if (!Double.isNaN(expected)) {
+                assertThat((double) probability[i]).isEqualTo((float) expected);
+                compared++;
+            }
+        }
+        assertThat(compared).isGreaterThan(100);
     }
 
     @Test
