@@ -113,7 +113,8 @@ final class Flags {
 
     /**
      * A one-line message for a physics range error, in terms of the flag: {@code thickness must be in [1.0, 5000.0]
-     * um but was 0.5} becomes {@code --thickness-um must be in [1, 5000] µm (got 0.5)}.
+     * um but was 0.5} becomes {@code --thickness-um must be in [1, 5000] µm (got 0.5)}. A message that names a file's
+     * field ({@code FILE: field 'doping' is …}) gets no flag: the value came from the file.
      */
     static String message(InvalidValueException e) {
         String field = e.field() == null ? "" : e.field();
@@ -127,7 +128,8 @@ final class Flags {
         }
         m.appendTail(sb);
         msg = sb.toString().replaceAll("\\bum\\b", "µm").replaceAll("\\bus\\b", "µs").replace("ohm*cm", "Ω·cm");
-        if (flag == null) {
+        if (flag == null || msg.contains(": field '")) {
+            // a message that names a file's field (a sidecar's doping, say) is about the file, not the flag
             return msg;
         }
         if (!field.isEmpty() && msg.startsWith(field + " ")) {

@@ -2,6 +2,7 @@ package trapmap.cli;
 
 import java.io.IOException;
 import java.io.PrintWriter;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -14,6 +15,8 @@ import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
+import trapmap.maps.io.MapFiles;
+import trapmap.maps.io.NumberText;
 import trapmap.maps.io.ReadOptions;
 import trapmap.maps.spectroscopy.DefectIdentification;
 import trapmap.maps.spectroscopy.IdentificationFiles;
@@ -105,8 +108,10 @@ final class IdentifyCommand implements Callable<Integer> {
         if (!name.endsWith(".tif") && !name.endsWith(".tiff")) {
             throw new InputException("--output must be a .tif file (the best-defect index map), not " + output);
         }
-        if (!(noise > 0 && noise <= 1)) {
-            throw new InputException("--noise must be a relative uncertainty in (0, 1] (0.03 = 3 %), not " + noise);
+        refuseOverwritingAnInput();
+        if (!(noise >= DefectIdentification.MIN_RELATIVE_NOISE && noise <= 1)) {
+            throw new InputException("--noise must be a relative uncertainty in ["
+                    + NumberText.of(DefectIdentification.MIN_RELATIVE_NOISE) + ", 1] (0.03 = 3 %), not " + noise);
         }
         if (block < 1 || block > DefectIdentification.MAX_BLOCK_PX) {
             throw new InputException("--block must be in [1, " + DefectIdentification.MAX_BLOCK_PX + "] px, not "
@@ -139,6 +144,31 @@ final class IdentifyCommand implements Callable<Integer> {
         }
         print(r, written);
         return Exit.OK;
+    }
+
+    /** Refuses an --output whose files would replace an input map or its sidecar. */
+    private void refuseOverwritingAnInput() {
+        for (Path written : IdentificationFiles.files(output, json)) {
+            for (Path in : maps) {
+                for (Path read : List.of(in, MapFiles.sidecarOf(in))) {
+                    if (same(written, read)) {
+                        throw new InputException("--output " + output + " would overwrite " + read + " (the"
+                                + " identification writes " + written.getFileName() + "); choose another name");
+                    }
+                }
+            }
+        }
+    }
+
+    private static boolean same(Path a, Path b) {
+        if (a.toAbsolutePath().normalize().equals(b.toAbsolutePath().normalize())) {
+            return true;
+        }
+        try {
+            return Files.exists(a) && Files.exists(b) && Files.isSameFile(a, b);
+        } catch (IOException e) {
+            return false;
+        }
     }
 
     private List<Defect> candidates() {

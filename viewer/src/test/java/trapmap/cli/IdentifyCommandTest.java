@@ -146,6 +146,41 @@ class IdentifyCommandTest {
                 dir.resolve("x.tif").toString());
         assertThat(unknown.code()).isEqualTo(2);
         assertThat(unknown.err()).contains("'xx'");
+        // a level whose sidecar gives another doping: the message names the files and the field, not --doping
+        WaferMap other = level(LEVELS[2], 31).withConditions(new MeasurementConditions(Doping.pType(2e15), 180.0,
+                300.0, LEVELS[2], null, null, null, null, Map.of()));
+        Path otherFile = dir.resolve("W1-other.tif");
+        MapFiles.write(other, otherFile);
+        Cli.Run doped = Cli.run("identify", f.get(0), otherFile.toString(), "-o", dir.resolve("x.tif").toString());
+        assertThat(doped.code()).isEqualTo(2);
+        assertThat(doped.errLines()).hasSize(1);
+        assertThat(doped.err()).startsWith("trapmap identify: " + otherFile + ": field 'doping' is p:2e15")
+                .contains(f.get(0)).contains("(cm^-3)").doesNotContain("--doping");
+        // an output that would replace an input map or its sidecar is refused before anything is written
+        Path firstLevel = Path.of(f.get(0));
+        byte[] before = Files.readAllBytes(firstLevel);
+        Cli.Run onInput = Cli.run("identify", f.get(0), f.get(1), "-o", f.get(0));
+        assertThat(onInput.code()).isEqualTo(2);
+        assertThat(onInput.errLines()).hasSize(1);
+        assertThat(onInput.err()).contains("--output " + f.get(0) + " would overwrite " + f.get(0));
+        assertThat(Files.readAllBytes(firstLevel)).isEqualTo(before);
+        Path sidecar = dir.resolve("W1-dn0.json");
+        Files.writeString(sidecar, "{\"injection_cm3\": 1e13}");
+        Cli.Run onSidecar = Cli.run("identify", f.get(0), f.get(1), "-o", dir.resolve("W1-dn0.tiff").toString(),
+                "--json");
+        assertThat(onSidecar.code()).isEqualTo(2);
+        assertThat(onSidecar.err()).contains("would overwrite " + sidecar).contains("W1-dn0.json");
+        assertThat(Files.readString(sidecar)).isEqualTo("{\"injection_cm3\": 1e13}");
+        Files.delete(sidecar);
+        Cli.Run besideInput = Cli.run("identify", f.get(0), f.get(1), "-o", dir.resolve("W1.tif").toString(),
+                "--defects", "fe-i", "--block", "4");
+        assertThat(besideInput.code()).as(besideInput.err()).isZero();
+        // a noise the engine refuses is refused as the option, before any map is read
+        Cli.Run tiny = Cli.run("identify", f.get(0), f.get(1), "--noise", "1e-9", "-o",
+                dir.resolve("x.tif").toString());
+        assertThat(tiny.code()).isEqualTo(2);
+        assertThat(tiny.errLines()).hasSize(1);
+        assertThat(tiny.err()).contains("--noise must be a relative uncertainty in [1E-6, 1]").contains("1.0E-9");
         assertThat(dir.resolve("x.tif")).doesNotExist();
     }
 }

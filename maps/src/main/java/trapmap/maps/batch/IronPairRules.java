@@ -199,7 +199,6 @@ public record IronPairRules(String febState, String feiState, List<IronLimit> li
     }
 
     private static RulesException error(String name, String field, String problem, String unit) {
-        return new RulesException(name + ": field '" + field + "': " + problem
-                + (unit.isEmpty() ? "" : " (" + unit + ")"));
+        return RulesException.field(name, field, problem, unit);
     }
 }

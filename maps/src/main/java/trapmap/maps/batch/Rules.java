@@ -514,8 +514,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         }
 
         RulesException error(String field, String problem, String unit) {
-            return new RulesException(name + ": field '" + field + "': " + problem
-                    + (unit.isEmpty() ? "" : " (" + unit + ")"));
+            return RulesException.field(name, field, problem, unit);
         }
 
         void onlyKeys(JsonNode node, String path, Set<String> allowed) throws RulesException {

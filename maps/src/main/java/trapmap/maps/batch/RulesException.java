@@ -10,4 +10,15 @@ public class RulesException extends Exception {
     public RulesException(String message) {
         super(message.replace("\r", "\\r").replace("\n", "\\n"));
     }
+
+    /**
+     * The refusal of one field: {@code NAME: field 'FIELD': PROBLEM (UNIT)}, the unit left out when empty.
+     *
+     * @param name  the rules file's name
+     * @param field the field's path, e.g. {@code profiles[0].stack.noise}
+     */
+    static RulesException field(String name, String field, String problem, String unit) {
+        return new RulesException(name + ": field '" + field + "': " + problem
+                + (unit.isEmpty() ? "" : " (" + unit + ")"));
+    }
 }

@@ -8,6 +8,8 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Optional;
 import java.util.Set;
+import trapmap.maps.io.NumberText;
+import trapmap.maps.spectroscopy.DefectIdentification;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.defect.DefectLibrary;
 import trapmap.shared.text.TextLimits;
@@ -27,7 +29,7 @@ import trapmap.shared.text.TextLimits;
  * @param levels   file-name globs of the levels, the judged map's first (at least 2, all different)
  * @param defects  candidate defect ids, or empty for every library defect with absolute cross-sections that suits
  *                 the wafer's conductivity type
- * @param noise    relative standard uncertainty of each pixel's τ_SRH at every level, (0, 1]
+ * @param noise    relative standard uncertainty of each pixel's τ_SRH at every level, [1e-6, 1]
  * @param blockPx  side of the square blocks of pixels ranked together (1: every pixel on its own)
  * @param register true: every level is registered onto the first (as {@code trapmap identify}); false: the levels
  *                 are taken as lying on one grid (as {@code identify --no-registration})
@@ -146,9 +148,11 @@ public record StackRules(List<String> levels, List<String> defects, double noise
         double noise = DEFAULT_NOISE;
         if (n.has("noise")) {
             JsonNode v = n.get("noise");
-            if (!v.isNumber() || !(v.doubleValue() > 0 && v.doubleValue() <= 1)) {
-                throw error(name, path + ".noise", "must be a relative uncertainty in (0, 1] (0.03 is 3 %) but was "
-                        + v, "relative");
+            if (!v.isNumber() || !(v.doubleValue() >= DefectIdentification.MIN_RELATIVE_NOISE
+                    && v.doubleValue() <= 1)) {
+                throw error(name, path + ".noise", "must be a relative uncertainty in ["
+                        + NumberText.of(DefectIdentification.MIN_RELATIVE_NOISE) + ", 1] (0.03 is 3 %) but was " + v,
+                        "relative");
             }
             noise = v.doubleValue();
         }
@@ -194,8 +198,7 @@ public record StackRules(List<String> levels, List<String> defects, double noise
     }
 
     private static RulesException error(String name, String field, String problem, String unit) {
-        return new RulesException(name + ": field '" + field + "': " + problem
-                + (unit.isEmpty() ? "" : " (" + unit + ")"));
+        return RulesException.field(name, field, problem, unit);
     }
 
     @Override

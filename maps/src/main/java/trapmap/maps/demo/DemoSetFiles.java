@@ -98,7 +98,7 @@ final class DemoSetFiles {
     }
 
     /** {@code v} rounded to {@code n} significant digits, so that the truth file reads plainly. */
-    private static double digits(double v, int n) {
+    static double digits(double v, int n) {
         return v == 0 || !Double.isFinite(v) ? v
                 : new BigDecimal(v).round(new MathContext(n, RoundingMode.HALF_EVEN)).doubleValue();
     }
@@ -126,7 +126,8 @@ final class DemoSetFiles {
         return out;
     }
 
-    private static String pretty(JsonNode node) throws IOException {
+    /** {@code node} as the demonstration files write JSON: two-space indents, one key or element a line. */
+    static String pretty(JsonNode node) throws IOException {
         DefaultPrettyPrinter p = new DefaultPrettyPrinter();
         DefaultIndenter indent = new DefaultIndenter("  ", "\n");
         p.indentObjectsWith(indent);

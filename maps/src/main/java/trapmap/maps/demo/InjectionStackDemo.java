@@ -1,15 +1,10 @@
 package trapmap.maps.demo;
 
-import com.fasterxml.jackson.core.util.DefaultIndenter;
-import com.fasterxml.jackson.core.util.DefaultPrettyPrinter;
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
 import java.io.IOException;
-import java.math.BigDecimal;
-import java.math.MathContext;
-import java.math.RoundingMode;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -205,29 +200,19 @@ public final class InjectionStackDemo {
                 }
             }
             Random rnd = new Random(SEED + l);
-            float[] tau = new float[grid.width() * grid.height()];
-            for (int y = 0; y < grid.height(); y++) {
-                for (int x = 0; x < grid.width(); x++) {
-                    double xm = grid.xMm(x);
-                    double ym = grid.yMm(y);
-                    int i = y * grid.width() + x;
-                    if (!shape.contains(xm, ym)) {
-                        tau[i] = Float.NaN;
-                        continue;
-                    }
-                    double rate = otherRate;
-                    for (Region r : regions) {
-                        double w = r.weight(xm, ym);
-                        if (w > 0) {
-                            for (Planted p : r.defects()) {
-                                rate += w * p.densityPerCm3() * perTrap.get(p.defect());
-                            }
+            float[] tau = LifetimeDrawing.overWafer(grid, shape, (xm, ym) -> {
+                double rate = otherRate;
+                for (Region r : regions) {
+                    double w = r.weight(xm, ym);
+                    if (w > 0) {
+                        for (Planted p : r.defects()) {
+                            rate += w * p.densityPerCm3() * perTrap.get(p.defect());
                         }
                     }
-                    double noise = 1 + NOISE * StrictMath.max(-3, StrictMath.min(3, rnd.nextGaussian()));
-                    tau[i] = (float) (noise / rate);
                 }
-            }
+                double noise = 1 + NOISE * StrictMath.max(-3, StrictMath.min(3, rnd.nextGaussian()));
+                return noise / rate;
+            });
             Provenance prov = Provenance.of("trapmap demo generator (invented data, seed " + DemoScenario.SEED + ")")
                     .then(ProcessingStep.of("demo-generate", "wafer", WAFER_ID, "defect", "fe-i+cr-i", "noise",
                             Double.toString(NOISE), "injection_cm3", Double.toString(dn)));
@@ -332,7 +317,7 @@ public final class InjectionStackDemo {
             MapFiles.write(f.map(), tif);
             written.add(tif);
             Path json = dir.resolve(f.stem() + ".json");
-            AtomicFiles.write(json, pretty(JSON.readTree(Sidecar.toJson(f.map()))).getBytes(StandardCharsets.UTF_8));
+            AtomicFiles.write(json, DemoSetFiles.pretty(JSON.readTree(Sidecar.toJson(f.map()))).getBytes(StandardCharsets.UTF_8));
             written.add(json);
         }
         Path truth = dir.resolve(DemoScenario.TRUTH);
@@ -380,7 +365,7 @@ public final class InjectionStackDemo {
         bg.put("limited_by", t.backgroundLimitedBy());
         ArrayNode bgTau = bg.putArray("lifetime_us");
         for (double v : t.backgroundLifetimeUs()) {
-            bgTau.add(digits(v));
+            bgTau.add(DemoSetFiles.digits(v, 6));
         }
         ArrayNode regions = root.putArray("regions");
         for (Region r : t.regions()) {
@@ -396,14 +381,10 @@ public final class InjectionStackDemo {
             o.put("expected", r.expected());
             ArrayNode tau = o.putArray("lifetime_us");
             for (double v : r.lifetimeUs()) {
-                tau.add(digits(v));
+                tau.add(DemoSetFiles.digits(v, 6));
             }
         }
-        DefaultPrettyPrinter p = new DefaultPrettyPrinter();
-        DefaultIndenter indent = new DefaultIndenter("  ", "\n");
-        p.indentObjectsWith(indent);
-        p.indentArraysWith(indent);
-        return JSON.writer(p).writeValueAsString(root) + "\n";
+        return DemoSetFiles.pretty(root);
     }
 
     /** Reads a stack's {@code truth.json} back. */
@@ -437,17 +418,5 @@ public final class InjectionStackDemo {
             v[i] = a.get(i).asDouble();
         }
         return v;
-    }
-
-    private static double digits(double v) {
-        return new BigDecimal(v).round(new MathContext(6, RoundingMode.HALF_EVEN)).doubleValue();
-    }
-
-    private static String pretty(JsonNode node) throws IOException {
-        DefaultPrettyPrinter p = new DefaultPrettyPrinter();
-        DefaultIndenter indent = new DefaultIndenter("  ", "\n");
-        p.indentObjectsWith(indent);
-        p.indentArraysWith(indent);
-        return JSON.writer(p).writeValueAsString(node) + "\n";
     }
 }

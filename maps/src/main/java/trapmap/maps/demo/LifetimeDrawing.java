@@ -28,21 +28,35 @@ final class LifetimeDrawing {
     private LifetimeDrawing() {
     }
 
+    /** A value at a position on the wafer, mm from its centre. */
+    @FunctionalInterface
+    interface Drawn {
+        double at(double xMm, double yMm);
+    }
+
+    /**
+     * A map's samples: {@code value} at the centre of every pixel inside {@code shape}, taken row by row (so a
+     * seeded noise inside it is drawn in the same order every time), NaN outside.
+     */
+    static float[] overWafer(PixelGrid grid, WaferShape shape, Drawn value) {
+        float[] out = new float[grid.width() * grid.height()];
+        for (int y = 0; y < grid.height(); y++) {
+            for (int x = 0; x < grid.width(); x++) {
+                double xm = grid.xMm(x);
+                double ym = grid.yMm(y);
+                out[y * grid.width() + x] = shape.contains(xm, ym) ? (float) value.at(xm, ym) : Float.NaN;
+            }
+        }
+        return out;
+    }
+
     static DemoFile lifetimeFile(String name, String id, WaferFormat format, PixelGrid grid,
                                  MeasurementConditions c, PlantedField f, String defect, Random rnd, String what) {
         TrapDensityConverter forward = forward(c, defect);
         double dn = c.injectionPerCm3();
         WaferShape shape = format.shape();
-        float[] tau = new float[grid.width() * grid.height()];
-        for (int y = 0; y < grid.height(); y++) {
-            for (int x = 0; x < grid.width(); x++) {
-                double xm = grid.xMm(x);
-                double ym = grid.yMm(y);
-                int i = y * grid.width() + x;
-                tau[i] = shape.contains(xm, ym)
-                        ? (float) (forward.lifetimeAtInjectionUs(f.total(xm, ym), dn) * noise(rnd)) : Float.NaN;
-            }
-        }
+        float[] tau = overWafer(grid, shape, (xm, ym) -> forward.lifetimeAtInjectionUs(f.total(xm, ym), dn)
+                * noise(rnd));
         WaferMap map = new WaferMap(FloatRaster.wrap(grid.width(), grid.height(), tau), grid,
                 Quantity.EFFECTIVE_LIFETIME, id, c, DemoScenario.provenance(defect, id));
         return new DemoFile(name, map, what, truth(f, grid, forward, defect, Double.NaN));
@@ -83,21 +97,8 @@ final class LifetimeDrawing {
      */
     static float[] plCounts(PixelGrid grid, WaferShape shape, PlantedField f, TrapDensityConverter forward,
                             PlCalibration cal, double g, Random rnd) {
-        float[] counts = new float[grid.width() * grid.height()];
-        for (int y = 0; y < grid.height(); y++) {
-            for (int x = 0; x < grid.width(); x++) {
-                double xm = grid.xMm(x);
-                double ym = grid.yMm(y);
-                int i = y * grid.width() + x;
-                if (!shape.contains(xm, ym)) {
-                    counts[i] = Float.NaN;
-                    continue;
-                }
-                double dn = steadyStateInjection(forward, f.total(xm, ym), g);
-                counts[i] = (float) (cal.counts(dn) * noise(rnd));
-            }
-        }
-        return counts;
+        return overWafer(grid, shape, (xm, ym) -> cal.counts(steadyStateInjection(forward, f.total(xm, ym), g))
+                * noise(rnd));
     }
 
     // ---------------------------------------------------------------- truth

@@ -1,5 +1,8 @@
 package trapmap.maps.io;
 
+import static trapmap.maps.io.JsonFields.error;
+import static trapmap.maps.io.JsonFields.number;
+
 import com.fasterxml.jackson.databind.JsonNode;
 import java.util.Iterator;
 import java.util.LinkedHashMap;
@@ -123,26 +126,5 @@ public record UncertaintySettings(ConditionUncertainty uncertainty, int samples,
         m.put("samples", samples);
         m.put("seed", seed);
         return m;
-    }
-
-    private static double number(JsonNode node, String key, String unit, double lo, double hi, double fallback,
-                                 String name, String prefix) {
-        JsonNode n = node.get(key);
-        if (n == null) {
-            return fallback;
-        }
-        if (!n.isNumber()) {
-            throw error(name, prefix + key, "must be a number but is " + n, unit);
-        }
-        double v = n.doubleValue();
-        if (!(v >= lo && v <= hi)) {
-            throw error(name, prefix + key, "must be in [" + lo + ", " + hi + "] but was " + n.asText(), unit);
-        }
-        return v;
-    }
-
-    private static InvalidValueException error(String name, String field, String problem, String unit) {
-        return new InvalidValueException(field, unit, (name + ": field '" + field + "': " + problem
-                + (unit.isEmpty() ? "" : " (" + unit + ")")).replace("\r", "\\r").replace("\n", "\\n"));
     }
 }

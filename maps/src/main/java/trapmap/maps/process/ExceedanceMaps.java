@@ -260,14 +260,8 @@ public final class ExceedanceMaps {
                 }
             };
         }
-        Throwable f = Workers.runAll(List.of(workers), "exceedance-rows-", failure);
-        if (f instanceof RuntimeException e) {
-            throw e;
-        } else if (f instanceof Error e) {
-            throw e;
-        } else if (f != null) {
-            throw new IllegalStateException("the exceedance map was interrupted", f);
-        }
+        Workers.rethrow(Workers.runAll(List.of(workers), "exceedance-rows-", failure),
+                "the exceedance map was interrupted");
     }
 
     /** The physics model the maps are computed with. */

@@ -338,14 +338,8 @@ public final class MapConversion {
                 }
             };
         }
-        Throwable f = Workers.runAll(java.util.List.of(workers), "convert-rows-", failure);
-        if (f instanceof RuntimeException e) {
-            throw e;
-        } else if (f instanceof Error e) {
-            throw e;
-        } else if (f != null) {
-            throw new IllegalStateException("the conversion was interrupted", f);
-        }
+        Workers.rethrow(Workers.runAll(java.util.List.of(workers), "convert-rows-", failure),
+                "the conversion was interrupted");
         TrapDensityConverter.Tally total = new TrapDensityConverter.Tally();
         for (TrapDensityConverter.Tally t : tallies) {
             total.add(t);

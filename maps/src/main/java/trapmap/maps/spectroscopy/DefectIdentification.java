@@ -2,6 +2,7 @@ package trapmap.maps.spectroscopy;
 
 import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.Collections;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
@@ -9,6 +10,7 @@ import java.util.concurrent.CancellationException;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.concurrent.atomic.AtomicReference;
 import trapmap.maps.process.ConversionSettings;
+import trapmap.maps.process.Workers;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.region.Region;
 import trapmap.maps.region.RegionCriteria;
@@ -62,6 +64,8 @@ public final class DefectIdentification {
     public static final double SRH_DOMINANT_SHARE = 0.5;
     /** Largest block side, pixels. */
     public static final int MAX_BLOCK_PX = 1024;
+    /** Smallest relative noise of a pixel's τ_SRH accepted (1e-6; the largest is 1). */
+    public static final double MIN_RELATIVE_NOISE = 1e-6;
 
     private DefectIdentification() {
     }
@@ -86,7 +90,7 @@ public final class DefectIdentification {
                 throw new InvalidValueException("block", "px", "the block side must be in [1, " + MAX_BLOCK_PX
                         + "] px but was " + blockPx);
             }
-            Checks.inRange(relativeNoise, 1e-6, 1, "noise", "");
+            Checks.inRange(relativeNoise, MIN_RELATIVE_NOISE, 1, "noise", "relative");
             if (!Double.isNaN(regionThresholdUs)) {
                 Checks.positive(Checks.finite(regionThresholdUs, "regionThreshold", "us"), "regionThreshold", "us");
             }
@@ -291,39 +295,11 @@ public final class DefectIdentification {
 
     /** Runs {@code work} on {@code threads} threads (this one among them) and rethrows the first failure. */
     private static void runAll(Runnable work, int threads, AtomicReference<Throwable> failure) {
-        List<Thread> started = new ArrayList<>();
-        for (int t = 1; t < threads; t++) {
-            Thread th = new Thread(work, "identify-" + t);
-            th.setDaemon(true);
-            th.start();
-            started.add(th);
-        }
-        work.run();
-        boolean interrupted = false;
-        for (Thread th : started) {
-            while (true) {
-                try {
-                    th.join();
-                    break;
-                } catch (InterruptedException ex) {
-                    interrupted = true;
-                    failure.compareAndSet(null, ex);
-                }
-            }
-        }
-        if (interrupted) {
-            Thread.currentThread().interrupt();
-        }
-        Throwable f = failure.get();
-        if (f instanceof RuntimeException re) {
-            throw re;
-        } else if (f instanceof Error er) {
-            throw er;
-        } else if (f instanceof InterruptedException) {
+        Throwable f = Workers.runAll(Collections.nCopies(threads, work), "identify-", failure);
+        if (f instanceof InterruptedException) {
             throw new CancellationException("identification cancelled");
-        } else if (f != null) {
-            throw new IllegalStateException("the identification failed", f);
         }
+        Workers.rethrow(f, "the identification failed");
     }
 
     /** The region labels and pixels of a stack, with the threshold used. */

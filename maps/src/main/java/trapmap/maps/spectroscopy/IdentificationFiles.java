@@ -52,28 +52,42 @@ public final class IdentificationFiles {
     }
 
     /**
-     * Writes every file.
+     * The files {@link #write} writes, in its order: the index map, the six other maps, the two tables and, with
+     * {@code json}, the summary.
+     */
+    public static List<Path> files(Path indexTif, boolean json) {
+        List<Path> out = new ArrayList<>(List.of(indexTif));
+        for (String suffix : List.of("-runner-up.tif", "-chi2.tif", "-chi2-ratio.tif", "-status.tif", "-nt.tif",
+                "-regions.tif", "-legend.csv", "-regions.csv")) {
+            out.add(beside(indexTif, suffix));
+        }
+        if (json) {
+            out.add(beside(indexTif, ".json"));
+        }
+        return List.copyOf(out);
+    }
+
+    /**
+     * Writes every file ({@link #files}).
      *
      * @return the files written, the index map first
      */
     public static List<Path> write(IdentificationResult r, Path indexTif, boolean json) throws IOException {
+        List<Path> f = files(indexTif, json);
         List<Path> out = new ArrayList<>();
-        MapFiles.write(r.bestIndexMap(), indexTif);
-        out.add(indexTif);
-        out.add(map(r.runnerUpIndexMap(), beside(indexTif, "-runner-up.tif")));
-        out.add(map(r.chiSquaredMap(), beside(indexTif, "-chi2.tif")));
-        out.add(map(r.chiSquaredRatioMap(), beside(indexTif, "-chi2-ratio.tif")));
-        out.add(map(r.statusMap(), beside(indexTif, "-status.tif")));
-        out.add(map(r.bestDensityMap(), beside(indexTif, "-nt.tif")));
-        out.add(map(r.regionMap(), beside(indexTif, "-regions.tif")));
-        Path legend = beside(indexTif, "-legend.csv");
-        TableFiles.writeCsv(legend, LEGEND_HEADER, legendRows(r));
-        out.add(legend);
-        Path regions = beside(indexTif, "-regions.csv");
-        TableFiles.writeCsv(regions, REGION_HEADER, regionRows(r));
-        out.add(regions);
+        out.add(map(r.bestIndexMap(), f.get(0)));
+        out.add(map(r.runnerUpIndexMap(), f.get(1)));
+        out.add(map(r.chiSquaredMap(), f.get(2)));
+        out.add(map(r.chiSquaredRatioMap(), f.get(3)));
+        out.add(map(r.statusMap(), f.get(4)));
+        out.add(map(r.bestDensityMap(), f.get(5)));
+        out.add(map(r.regionMap(), f.get(6)));
+        TableFiles.writeCsv(f.get(7), LEGEND_HEADER, legendRows(r));
+        out.add(f.get(7));
+        TableFiles.writeCsv(f.get(8), REGION_HEADER, regionRows(r));
+        out.add(f.get(8));
         if (json) {
-            Path j = beside(indexTif, ".json");
+            Path j = f.get(9);
             Map<String, Object> s = summary(r);
             List<String> files = new ArrayList<>();
             out.forEach(p -> files.add(p.toString()));

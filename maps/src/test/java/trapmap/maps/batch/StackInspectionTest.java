@@ -63,6 +63,7 @@ class StackInspectionTest {
         assertThat(result.profile()).isEqualTo("injection-stack");
         double fe = result.figures().get(Figure.BEST_DEFECT_AREA_FRACTION);
         double none = result.figures().get(Figure.NO_SINGLE_DEFECT_AREA_FRACTION);
+        // check-values R-IDM-3 (area shares of the planted discs, demo-data/injection-stack/truth.json):
         // the iron disc (about 4 % of the wafer) is identified as fe-i pixel by pixel, the overlap disc as no
         // single defect; the background adds less than 1 % of the area to either (its pixels whose noise leaves
         // τ_SRH above the detection limit at two levels are ranked on those two, and often fail the χ² test)

@@ -70,7 +70,7 @@ class StackRulesTest {
     }
 
     @Test
-    void badStacksAreRefusedNamingTheField() {
+    void badStacksAreRefusedNamingTheField() throws RulesException {
         assertThatThrownBy(() -> rules(stack("\"levels\": [\"*-dn1e13.*\"]")))
                 .hasMessage("r.json: field 'profiles[0].stack.levels': is required: an array of at least 2 file-name"
                         + " globs, one per injection level, the judged map's first (e.g. [\"*-dn1e13.*\","
@@ -84,8 +84,13 @@ class StackRulesTest {
         assertThatThrownBy(() -> rules(stack("\"levels\": [\"a-dn1e13.tif\", \"a-dn1e14.tif\"]")))
                 .hasMessageContaining("needs a * or ?");
         assertThatThrownBy(() -> rules(stack(LEVELS + ", \"noise\": 0")))
-                .hasMessage("r.json: field 'profiles[0].stack.noise': must be a relative uncertainty in (0, 1] (0.03 is"
-                        + " 3 %) but was 0 (relative)");
+                .hasMessage("r.json: field 'profiles[0].stack.noise': must be a relative uncertainty in [1E-6, 1]"
+                        + " (0.03 is 3 %) but was 0 (relative)");
+        // below the identification's smallest noise (check-values R-LIM-11): refused here, naming the field, not
+        // later per wafer
+        assertThatThrownBy(() -> rules(stack(LEVELS + ", \"noise\": 1e-9")))
+                .hasMessageContaining("field 'profiles[0].stack.noise'").hasMessageContaining("(relative)");
+        assertThat(rules(stack(LEVELS + ", \"noise\": 1e-6")).profiles().get(0).stack().noise()).isEqualTo(1e-6);
         assertThatThrownBy(() -> rules(stack(LEVELS + ", \"noise\": \"3%\"")))
                 .hasMessageContaining("field 'profiles[0].stack.noise'");
         assertThatThrownBy(() -> rules(stack(LEVELS + ", \"block_px\": 2.5")))

@@ -30,7 +30,12 @@ class IdentificationFilesTest {
                 DefectIdentification.Options.DEFAULTS.withThreads(2));
         Path hint = dir.resolve("hint.tif");
         List<Path> files = IdentificationFiles.write(r, hint, true);
-        assertThat(files).hasSize(10).allMatch(Files::isRegularFile);
+        assertThat(files).hasSize(10).allMatch(Files::isRegularFile)
+                .isEqualTo(IdentificationFiles.files(hint, true));
+        try (var listed = Files.list(dir)) {
+            assertThat(listed.toList()).containsExactlyInAnyOrderElementsOf(files);
+        }
+        assertThat(IdentificationFiles.files(hint, false)).isEqualTo(files.subList(0, 9));
         WaferMap back = MapFiles.readSingle(hint);
         assertThat(back.quantity()).isEqualTo(Quantity.DEFECT_INDEX);
         assertThat(back.raster().samples()).containsExactly(r.bestIndex());

@@ -18,10 +18,12 @@ import trapmap.shared.units.Units;
  * φ is continuous; Δn now grows with τ, so φ need not fall monotonically with τ as it does at a fixed Δn. The
  * threshold τ*_s is its root: φ is evaluated upwards from the conversion's floor (1 ns) on a grid of
  * {@value #PER_DECADE} points per decade to its first sign change, the root is solved in that bracket with Commons
- * Math's {@link BracketingNthOrderBrentSolver} (to a relative 1e-14), and φ is checked to stay ≤ 0 on the same grid
- * for {@value #CHECKED_DECADES} decades above it: exceedance must hold exactly below τ*_s, else the sample is refused
- * with the reason (the probability would not be one binary search per pixel). Cost: about 60–100 evaluations of
- * φ per sample (each one intrinsic rate and one SRH factor), some 0.1 s for 10⁴ samples, once per wafer.
+ * Math's {@link BracketingNthOrderBrentSolver} (Brent's bracketed root finding: R. P. Brent, Algorithms for
+ * Minimization without Derivatives, Prentice-Hall 1973, ch. 4; to a relative 1e-14), and φ is checked to stay ≤ 0
+ * on the same grid for {@value #CHECKED_DECADES} decades above it: exceedance must hold exactly below τ*_s, else the
+ * sample is refused with the reason (the probability would not be one binary search per pixel). Cost: about 60–100
+ * evaluations of φ per sample (each one intrinsic rate and one SRH factor), some 0.1 s for 10⁴ samples, once per
+ * wafer.
  */
 final class GenerationThreshold {
     /** Grid points per decade of the bracketing scan and the monotonicity check. */

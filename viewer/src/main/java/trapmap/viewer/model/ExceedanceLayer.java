@@ -10,8 +10,9 @@ import trapmap.physics.defect.Defect;
  * The probability of exceeding N* for one wafer: the maps module's {@link ExceedanceMaps} (the batch's and
  * {@code convert}'s code) prepared once from the wafer's conditions, the defect, the physics settings and the
  * {@link ExceedanceSettings}, giving the probability map and the cursor readout's probability and quantiles. When it
- * cannot be prepared (a fixed generation rate, a defect without absolute cross-sections) it holds the reason instead,
- * and every value is NaN.
+ * cannot be prepared (a defect without absolute cross-sections, a generation rate under which a sample's exceedance is
+ * not one lifetime threshold) it holds the reason instead, and every value is NaN. Under a fixed generation rate the
+ * probability is drawn as by {@code convert}; the density quantiles, which need a fixed injection level, are NaN.
  */
 public final class ExceedanceLayer {
     private final ExceedanceSettings settings;

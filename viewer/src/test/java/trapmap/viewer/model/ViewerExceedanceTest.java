@@ -110,7 +110,7 @@ class ViewerExceedanceTest {
     @Test
     void fixedGenerationGivesProbabilitiesButNoQuantiles() {
         ViewerModel m = opened();
-        m.setAnalysis(Analysis.DEFAULT.withDefect("fe-i").withConditions(ConditionOverrides.NONE
+        m.setAnalysis(Analysis.DEFAULT.withDefect("fe-i").withExceedance(SMALL).withConditions(ConditionOverrides.NONE
                 .withGeneration(1e19)), "conditions");
         WaferAnalysis r = m.compute(0, () -> false);
         // the maps module draws the probability under a fixed generation rate, but refuses density quantiles there
