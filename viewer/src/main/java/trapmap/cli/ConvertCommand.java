@@ -105,6 +105,7 @@ final class ConvertCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws MapFormatException {
+        MapInput.refuseOverwriting(output, List.of(output), List.of(input));
         String name = quantity != null ? quantity.trim().toLowerCase(Locale.ROOT)
                 : defect != null ? trapmap.maps.model.Quantity.TRAP_DENSITY.key() : null;
         if (name == null || name.equals(LIFETIME.key())) {

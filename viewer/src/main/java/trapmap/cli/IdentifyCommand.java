@@ -108,7 +108,7 @@ final class IdentifyCommand implements Callable<Integer> {
         if (!name.endsWith(".tif") && !name.endsWith(".tiff")) {
             throw new InputException("--output must be a .tif file (the best-defect index map), not " + output);
         }
-        refuseOverwritingAnInput();
+        MapInput.refuseOverwriting(output, IdentificationFiles.files(output, json), maps);
         if (!(noise >= DefectIdentification.MIN_RELATIVE_NOISE && noise <= 1)) {
             throw new InputException("--noise must be a relative uncertainty in ["
                     + NumberText.of(DefectIdentification.MIN_RELATIVE_NOISE) + ", 1] (0.03 = 3 %), not " + noise);
@@ -144,31 +144,6 @@ final class IdentifyCommand implements Callable<Integer> {
         }
         print(r, written);
         return Exit.OK;
-    }
-
-    /** Refuses an --output whose files would replace an input map or its sidecar. */
-    private void refuseOverwritingAnInput() {
-        for (Path written : IdentificationFiles.files(output, json)) {
-            for (Path in : maps) {
-                for (Path read : List.of(in, MapFiles.sidecarOf(in))) {
-                    if (same(written, read)) {
-                        throw new InputException("--output " + output + " would overwrite " + read + " (the"
-                                + " identification writes " + written.getFileName() + "); choose another name");
-                    }
-                }
-            }
-        }
-    }
-
-    private static boolean same(Path a, Path b) {
-        if (a.toAbsolutePath().normalize().equals(b.toAbsolutePath().normalize())) {
-            return true;
-        }
-        try {
-            return Files.exists(a) && Files.exists(b) && Files.isSameFile(a, b);
-        } catch (IOException e) {
-            return false;
-        }
     }
 
     private List<Defect> candidates() {

@@ -96,6 +96,41 @@ final class MapInput {
         PROCESSING.remove();
     }
 
+    /**
+     * Refuses an {@code --output} that would replace one of the {@code inputs} or its sidecar: input files are never
+     * modified.
+     *
+     * @param output  the file given to {@code --output}
+     * @param written every file the command writes for it (the output itself first)
+     * @param inputs  the map files the command reads
+     * @throws InputException naming the output, the input it would replace and the file written there
+     */
+    static void refuseOverwriting(Path output, List<Path> written, List<Path> inputs) {
+        for (Path w : written) {
+            for (Path in : inputs) {
+                for (Path read : List.of(in, MapFiles.sidecarOf(in))) {
+                    if (same(w, read)) {
+                        throw new InputException("--output " + output + " would overwrite " + read
+                                + (w.equals(output) ? "" : " (the command writes " + w.getFileName() + ")")
+                                + "; input files are never modified: choose another name");
+                    }
+                }
+            }
+        }
+    }
+
+    private static boolean same(Path a, Path b) {
+        if (a.toAbsolutePath().normalize().equals(b.toAbsolutePath().normalize())) {
+            return true;
+        }
+        try {
+            return java.nio.file.Files.exists(a) && java.nio.file.Files.exists(b)
+                    && java.nio.file.Files.isSameFile(a, b);
+        } catch (IOException e) {
+            return false;
+        }
+    }
+
     /** Writes {@code map} to {@code file} (format from the extension); wraps failures in one-line messages. */
     static void write(WaferMap map, Path file) {
         if (MapFiles.formatOf(file) == null) {

@@ -36,6 +36,26 @@ class ConvertCommandTest {
     }
 
     @Test
+    void anOutputOntoTheInputIsRefusedAndTheInputKept() throws Exception {
+        MeasurementConditions c = new MeasurementConditions(Doping.pType(1e16), 180.0, null, 1e14, null, 10.0, null,
+                null, Map.of());
+        Path in = lifetimeMap(c);
+        byte[] before = java.nio.file.Files.readAllBytes(in);
+        for (String[] args : new String[][] {{"--defect", "fe-i"}, {}, {"--defect", "fe-i", "--quantity",
+                "exceedance-probability", "--threshold", "1e11"}}) {
+            java.util.List<String> line = new java.util.ArrayList<>(java.util.List.of("convert", in.toString(), "-o",
+                    in.toString()));
+            line.addAll(java.util.List.of(args));
+            Cli.Run r = Cli.run(line.toArray(String[]::new));
+            assertThat(r.code()).as(String.join(" ", args)).isEqualTo(2);
+            assertThat(r.errLines()).hasSize(1);
+            assertThat(r.err()).startsWith("trapmap convert: --output " + in + " would overwrite " + in)
+                    .contains("input files are never modified");
+            assertThat(java.nio.file.Files.readAllBytes(in)).isEqualTo(before);
+        }
+    }
+
+    @Test
     void everyPixelOfTheWrittenMapEqualsThePointCalculator() throws Exception {
         MeasurementConditions c = new MeasurementConditions(Doping.pType(1e16), 180.0, null, 1e14, null, 10.0, null,
                 null, Map.of());

@@ -94,12 +94,14 @@ class IdentifyCommandTest {
         assertThat(region.get("best_nt_cm3").asDouble()).isCloseTo(FE_CM3, within(0.1 * FE_CM3));
         assertThat(j.get("legend").get(0).get("defect").asText()).isEqualTo("fe-i");
         for (String suffix : List.of(".tif", "-runner-up.tif", "-chi2.tif", "-chi2-ratio.tif", "-status.tif",
-                "-nt.tif", "-regions.tif", "-legend.csv", "-regions.csv", ".json")) {
+                "-nt.tif", "-regions.tif", "-legend.csv", "-regions.csv", "-summary.json")) {
             assertThat(dir.resolve("out").resolve("hint" + suffix)).as(suffix).isRegularFile();
         }
+        assertThat(dir.resolve("out").resolve("hint.json")).as("nothing at the index map's sidecar name")
+                .doesNotExist();
         WaferMap best = MapFiles.readSingle(out);
         assertThat(best.raster().get(15, 17)).isEqualTo(1f);
-        assertThat(Cli.parse(Files.readString(dir.resolve("out").resolve("hint.json"))).get("regions").get(0)
+        assertThat(Cli.parse(Files.readString(dir.resolve("out").resolve("hint-summary.json"))).get("regions").get(0)
                 .get("best").asText()).isEqualTo("fe-i");
     }
 
@@ -164,14 +166,18 @@ class IdentifyCommandTest {
         assertThat(onInput.errLines()).hasSize(1);
         assertThat(onInput.err()).contains("--output " + f.get(0) + " would overwrite " + f.get(0));
         assertThat(Files.readAllBytes(firstLevel)).isEqualTo(before);
-        Path sidecar = dir.resolve("W1-dn0.json");
+        // the summary Q-summary.json of -o Q.tif would replace the sidecar of an input map Q-summary.tif
+        Path summaryNamed = dir.resolve("Q-summary.tif");
+        Files.copy(firstLevel, summaryNamed);
+        Path sidecar = dir.resolve("Q-summary.json");
         Files.writeString(sidecar, "{\"injection_cm3\": 1e13}");
-        Cli.Run onSidecar = Cli.run("identify", f.get(0), f.get(1), "-o", dir.resolve("W1-dn0.tiff").toString(),
-                "--json");
+        Cli.Run onSidecar = Cli.run("identify", summaryNamed.toString(), f.get(1), "-o",
+                dir.resolve("Q.tif").toString(), "--json");
         assertThat(onSidecar.code()).isEqualTo(2);
-        assertThat(onSidecar.err()).contains("would overwrite " + sidecar).contains("W1-dn0.json");
+        assertThat(onSidecar.err()).contains("would overwrite " + sidecar).contains("Q-summary.json");
         assertThat(Files.readString(sidecar)).isEqualTo("{\"injection_cm3\": 1e13}");
         Files.delete(sidecar);
+        Files.delete(summaryNamed);
         Cli.Run besideInput = Cli.run("identify", f.get(0), f.get(1), "-o", dir.resolve("W1.tif").toString(),
                 "--defects", "fe-i", "--block", "4");
         assertThat(besideInput.code()).as(besideInput.err()).isZero();

@@ -291,7 +291,7 @@ public final class InjectionStackDemo {
                 + "    ./trapmap inspect " + FOLDER + " --rules " + FOLDER + "/" + RULES + " --out stack-report\n\n"
                 + "Both register every level onto the first (the default): the levels lie on one grid, no"
                 + " placement beats them as\nthey lie by the stack's margin, so each is kept as measured"
-                + " (`\"kept\": \"identity\"` in `hint.json`) and the sharp disc\nedges are not blurred by"
+                + " (`\"kept\": \"identity\"` in `hint-summary.json`) and the sharp disc\nedges are not blurred by"
                 + " resampling.\n");
         return sb.toString();
     }

@@ -26,7 +26,7 @@ import trapmap.physics.spectroscopy.RankingStatus;
  * {@code STEM-runner-up.tif}, {@code STEM-chi2.tif}, {@code STEM-chi2-ratio.tif}, {@code STEM-status.tif},
  * {@code STEM-nt.tif} (N_t of the best defect, cm^-3), {@code STEM-regions.tif} (region ids), the legend
  * {@code STEM-legend.csv}, the region table {@code STEM-regions.csv} and, when asked, the summary
- * {@code STEM.json}. The same summary object ({@link #summary}) is what a command prints.
+ * {@code STEM-summary.json} (not {@code STEM.json}, the sidecar name of the index map). The same summary object ({@link #summary}) is what a command prints.
  */
 public final class IdentificationFiles {
     /** Header of the legend CSV. */
@@ -62,7 +62,8 @@ public final class IdentificationFiles {
             out.add(beside(indexTif, suffix));
         }
         if (json) {
-            out.add(beside(indexTif, ".json"));
+            // not STEM.json: that name is the sidecar a reader of STEM.tif looks for
+            out.add(beside(indexTif, "-summary.json"));
         }
         return List.copyOf(out);
     }

@@ -47,7 +47,7 @@ class IdentificationFilesTest {
         assertThat(legend.get(1)).startsWith("1,fe-i,").endsWith("," + r.legendOf(1).pixelCount());
         List<String> regions = Files.readAllLines(dir.resolve("hint-regions.csv"));
         assertThat(regions).hasSize(1 + 3 * 3); // 3 regions x 3 candidates
-        JsonNode j = new ObjectMapper().readTree(dir.resolve("hint.json").toFile());
+        JsonNode j = new ObjectMapper().readTree(dir.resolve("hint-summary.json").toFile());
         assertThat(j.get("regions")).hasSize(3);
         assertThat(j.get("levels")).hasSize(3);
         assertThat(j.get("legend").get(0).get("defect").asText()).isEqualTo("fe-i");
