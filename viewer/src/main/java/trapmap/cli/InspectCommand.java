@@ -198,7 +198,7 @@ final class InspectCommand implements Callable<Integer> {
                 if (results != null) {
                     results.close();
                 }
-                throw new InputException("--store " + e.getMessage());
+                throw new InputException("--" + e.getMessage()); // "--store NAME: ..."
             }
         }
         SummaryWriter writer = summaryWriter;
@@ -384,7 +384,7 @@ final class InspectCommand implements Callable<Integer> {
             storing.close();
             return true;
         } catch (StoreException e) {
-            err.println(spec.qualifiedName() + ": --store " + e.getMessage() + "; the results in --out are complete,"
+            err.println(spec.qualifiedName() + ": --" + e.getMessage() + "; the results in --out are complete,"
                     + " and inspecting the wafers again with --store writes them (a stored wafer is replaced, not"
                     + " doubled)");
             err.flush();
