@@ -83,13 +83,13 @@ final class TrendCommand implements Callable<Integer> {
     String profile;
 
     @Option(names = "--baseline", paramLabel = "<n>",
-            description = "The baseline: the first n wafers (individuals chart) and the first n groups (subgroup"
-                    + " chart); default " + Baseline.DEFAULT_COUNT + ".")
+            description = "The baseline: the first n wafers with a measured time and a value (a group belongs to it"
+                    + " when all its wafers do); default " + Baseline.DEFAULT_COUNT + ".")
     Integer baselineCount;
 
     @Option(names = "--baseline-until", paramLabel = "<date>",
-            description = "The baseline: the wafers measured (the groups starting) before this UTC date or time;"
-                    + " instead of --baseline.")
+            description = "The baseline: the wafers measured before this UTC date or time (a group belongs to it"
+                    + " when all its wafers do); instead of --baseline.")
     String baselineUntil;
 
     @Option(names = {"-o", "--out"}, required = true, paramLabel = "<FILE>",

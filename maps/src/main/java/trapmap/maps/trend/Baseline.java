@@ -6,8 +6,9 @@ import trapmap.shared.check.Checks;
 
 /**
  * The period the centre line and limits are computed from (Montgomery, §6.2: limits from a phase-I period, then
- * applied to later data): either the first {@code count} points (subgroups on the X̄/R chart), or every point (every
- * subgroup starting) before {@code until}.
+ * applied to later data): either the first {@code count} charted wafers in time order, or every wafer measured before
+ * {@code until}. The period is one for all charts: a subgroup belongs to it when all its wafers do, so no limit is
+ * computed from a wafer after it.
  */
 public record Baseline(int count, Instant until) {
     /** Montgomery's rule of thumb for phase I: 20 to 25 subgroups; 20 is the default here. */
@@ -19,12 +20,12 @@ public record Baseline(int count, Instant until) {
         }
     }
 
-    /** The first {@code count} points or subgroups. */
+    /** The first {@code count} charted wafers. */
     public static Baseline first(int count) {
         return new Baseline(count, null);
     }
 
-    /** The points (subgroups) measured (starting) before {@code until}. */
+    /** The wafers measured before {@code until}. */
     public static Baseline before(Instant until) {
         return new Baseline(0, Objects.requireNonNull(until, "until"));
     }
@@ -35,6 +36,6 @@ public record Baseline(int count, Instant until) {
 
     /** The baseline in words, for a chart's caption. */
     public String describe() {
-        return until == null ? "first " + count : "before " + until;
+        return until == null ? "first " + count + " wafers" : "wafers measured before " + until;
     }
 }

@@ -19,8 +19,8 @@ import trapmap.shared.error.InvalidValueException;
  * the charted wafers in time order; centre x̄ of the baseline values, σ̂ = MR̄/d2(2) with MR̄ the mean of the
  * baseline's moving ranges |x<sub>i</sub> − x<sub>i−1</sub>|, limits x̄ ± 3σ̂; the mR chart has centre MR̄ and
  * limits [D3(2) MR̄, D4(2) MR̄] = [0, 3.267 MR̄].</li>
- * <li><b>X̄ and R by subgroup</b> (Montgomery §6.2): one subgroup per group, placed at its first measured time. x̿ is
- * the mean of all baseline values; σ̂ the mean of R<sub>i</sub>/d2(n<sub>i</sub>) over the baseline subgroups of at
+ * <li><b>X̄ and R by subgroup</b> (Montgomery §6.2): one subgroup per group, placed at its first measured time; a
+ * subgroup is in the baseline when all its wafers are ({@link Baseline}). x̿ is the mean of all baseline values; σ̂ the mean of R<sub>i</sub>/d2(n<sub>i</sub>) over the baseline subgroups of at
  * least two wafers (unbiased since E[R] = d2 σ; for equal sizes it is R̄/d2). Subgroup i has limits
  * x̿ ± 3σ̂/√n<sub>i</sub> (= x̿ ± A2 R̄ for equal sizes) and, when n<sub>i</sub> ≥ 2, an R point with centre
  * d2(n<sub>i</sub>) σ̂ and limits [D3, D4] · d2(n<sub>i</sub>) σ̂ (= D3 R̄, D4 R̄). Constants: {@link ControlConstants}.</li>
@@ -107,8 +107,11 @@ public final class TrendAnalysis {
 
     private static Optional<ControlChart[]> subgroups(List<TrendPoint> charted, Baseline baseline) {
         Map<String, List<TrendPoint>> groups = new LinkedHashMap<>(); // in order of first time
-        for (TrendPoint p : charted) {
+        Map<String, Boolean> allInBaseline = new java.util.HashMap<>();
+        for (int i = 0; i < charted.size(); i++) {
+            TrendPoint p = charted.get(i);
             groups.computeIfAbsent(p.group(), g -> new ArrayList<>()).add(p);
+            allInBaseline.merge(p.group(), baseline.contains(i, p.time()), Boolean::logicalAnd);
         }
         List<String> names = new ArrayList<>(groups.keySet());
         int m = names.size();
@@ -135,7 +138,7 @@ public final class TrendAnalysis {
             mean[g] = s / size[g];
             range[g] = size[g] >= 2 ? hi - lo : Double.NaN;
             start[g] = members.get(0).time();
-            base[g] = baseline.contains(g, start[g]);
+            base[g] = allInBaseline.get(names.get(g));
             if (size[g] > ControlConstants.MAX_N) {
                 throw new InvalidValueException("by", "wafers", "group " + names.get(g) + " holds " + size[g]
                         + " wafers; the range chart takes at most " + ControlConstants.MAX_N

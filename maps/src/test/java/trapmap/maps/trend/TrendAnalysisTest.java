@@ -58,7 +58,7 @@ class TrendAnalysisTest {
                 pts.add(at(g * 5 + k, String.format("LOT-%02d", g), values[k]));
             }
         }
-        TrendResult r = TrendAnalysis.analyse(pts, Baseline.first(25));
+        TrendResult r = TrendAnalysis.analyse(pts, Baseline.first(125));
         ControlChart xbar = r.subgroupMean().orElseThrow();
         ControlChart range = r.subgroupRange().orElseThrow();
         assertThat(xbar.points()).hasSize(25);
@@ -81,7 +81,7 @@ class TrendAnalysisTest {
         // the pair's X̄ limits are then ±3/√2, the triple's ±3/√3, around the mean of all five values.
         List<TrendPoint> pts = List.of(at(0, "A", 0.0), at(1, "A", 1.128), at(2, "B", 0.0), at(3, "B", 1.0),
                 at(4, "B", 1.693));
-        TrendResult r = TrendAnalysis.analyse(pts, Baseline.first(2));
+        TrendResult r = TrendAnalysis.analyse(pts, Baseline.first(5));
         ControlChart xbar = r.subgroupMean().orElseThrow();
         assertThat(xbar.sigmaHat()).isCloseTo(1.0, within(5e-4));
         double grand = (1.128 + 1.0 + 1.693) / 5;
@@ -91,6 +91,20 @@ class TrendAnalysisTest {
         ControlChart range = r.subgroupRange().orElseThrow();
         assertThat(range.points().get(0).upper()).isCloseTo(3.267 * 1.128, within(5e-3));
         assertThat(range.points().get(1).upper()).isCloseTo(2.574 * 1.693, within(5e-3));
+    }
+
+    @Test
+    void aSubgroupIsInTheBaselineOnlyWhenAllItsWafersAre() {
+        // baseline: the first 3 wafers; group A (wafers 0, 1) is in it, B (2, 3) straddles its end and is not,
+        // so σ̂ comes from A alone: |1 − 3|/d2(2) = 2/1.128 and x̿ from A's values only (2.0).
+        List<TrendPoint> pts = List.of(at(0, "A", 1.0), at(1, "A", 3.0), at(2, "B", 5.0), at(3, "B", 9.0));
+        ControlChart xbar = TrendAnalysis.analyse(pts, Baseline.first(3)).subgroupMean().orElseThrow();
+        assertThat(xbar.points()).extracting(ChartPoint::baseline).containsExactly(true, false);
+        assertThat(xbar.points().get(0).centre()).isEqualTo(2.0);
+        assertThat(xbar.sigmaHat()).isCloseTo(2 / 1.128, within(2e-3));
+        // B's mean 7 lies 5 above the centre, beyond 3σ̂/√2 = 3.76: one point beyond 3σ
+        assertThat(xbar.signals()).extracting(Signal::rule, Signal::index)
+                .containsExactly(org.assertj.core.groups.Tuple.tuple(RunRule.BEYOND_3_SIGMA, 1));
     }
 
     @Test
