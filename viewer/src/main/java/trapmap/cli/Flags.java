@@ -58,7 +58,7 @@ final class Flags {
             entry("--samples", "a number of Monte Carlo samples, 16-4194304"),
             entry("--seed", "a whole number, the seed of the draws"),
             entry("--store", "a results store: a SQLite file or postgresql://host[:port]/database"),
-            entry("--figure", "a figure name, a column of results.csv (e.g. median_density_cm3)"),
+            entry("--figure", "a figure name, a column of results.csv (e.g. trap_density_p50_cm3)"),
             entry("--by", "lot, day, week, none or a sidecar fact's name"),
             entry("--since", "a UTC date (2026-11-02) or time (2026-11-02T08:00:00Z)"),
             entry("--profile", "a rules profile's name"),

@@ -67,7 +67,7 @@ final class TrendCommand implements Callable<Integer> {
     String store;
 
     @Option(names = "--figure", required = true, paramLabel = "<figure>",
-            description = "The figure charted, a column of results.csv, e.g. median_density_cm3.")
+            description = "The figure charted, a column of results.csv, e.g. trap_density_p50_cm3.")
     String figure;
 
     @Option(names = "--by", paramLabel = "<grouping>", defaultValue = "lot",

@@ -30,7 +30,7 @@ import trapmap.store.WaferRecord;
  * lie at 2.0e11, beyond the UCL; one more wafer has no measured time and one no value.
  */
 class TrendCommandTest {
-    static final String FIGURE = "median_density_cm3";
+    static final String FIGURE = "trap_density_p50_cm3";
     static final Instant T0 = Instant.parse("2026-11-02T00:00:00Z");
 
     @TempDir

@@ -204,14 +204,18 @@ public final class TrendReport {
         return chart;
     }
 
-    /** The signals in words, one line each: "2026-11-03T08:15:00Z individuals, group T2: 2 of 3 beyond 2 sigma …". */
+    /**
+     * The signals in words, one line each: "2026-11-03T08:15:00Z  individuals (X), L5: 2 of 3 beyond 2 sigma, same
+     * side (up), value 2e11", with "[in the baseline]" for a signal inside the baseline period.
+     */
     public static List<String> signalLines(TrendResult r) {
         List<String> out = new ArrayList<>();
         for (ControlChart c : r.charts()) {
             for (Signal s : c.signals()) {
                 ChartPoint p = c.points().get(s.index());
                 out.add(p.time() + "  " + c.kind().title() + ", " + p.label() + ": " + s.rule().description()
-                        + (s.upward() ? " (up)" : " (down)") + ", value " + Labels.compact(p.value()));
+                        + (s.upward() ? " (up)" : " (down)") + ", value " + Labels.compact(p.value())
+                        + (p.baseline() ? " [in the baseline]" : ""));
             }
         }
         return out;
