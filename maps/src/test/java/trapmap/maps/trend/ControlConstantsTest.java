@@ -8,9 +8,10 @@ import org.junit.jupiter.api.Test;
 import trapmap.shared.error.InvalidValueException;
 
 /**
- * The computed constants against closed forms and the published tables. Table values: ASTM E2587, "Standard Practice
- * for Use of Control Charts in Statistical Process Control", table of factors, identical to Montgomery,
- * <i>Introduction to Statistical Quality Control</i>, Appendix Table VI (three decimals; quoted from memory).
+ * The computed constants against closed forms and the published tables (check values R-SPC-1 to R-SPC-3). Table
+ * values: ASTM E2587, "Standard Practice for Use of Control Charts in Statistical Process Control", table of factors,
+ * identical to Montgomery, <i>Introduction to Statistical Quality Control</i>, Appendix Table VI (three decimals;
+ * quoted from memory).
  */
 class ControlConstantsTest {
     // n = 2 … 10

@@ -20,7 +20,7 @@ class TrendAnalysisTest {
 
     @Test
     void individualsLimitsFromTheMovingRange() {
-        // Hand-computed: values 10, 12, 11, 13, 12 → mean 11.6, moving ranges 2, 1, 2, 1 → MR̄ = 1.5,
+        // R-SPC-5, hand-computed: values 10, 12, 11, 13, 12 → mean 11.6, moving ranges 2, 1, 2, 1 → MR̄ = 1.5,
         // σ̂ = 1.5/1.128 = 1.3298 (Montgomery §6.4), limits 11.6 ± 3.9894; mR chart UCL = 3.267 · 1.5 = 4.9005.
         double[] v = {10, 12, 11, 13, 12};
         List<TrendPoint> pts = new ArrayList<>();
@@ -47,7 +47,7 @@ class TrendAnalysisTest {
 
     @Test
     void subgroupLimitsReproduceThePistonRingExample() {
-        // Montgomery, Introduction to Statistical Quality Control, Example 6.1 (piston-ring inside diameter, 25
+        // R-SPC-4: Montgomery, Introduction to Statistical Quality Control, Example 6.1 (piston-ring inside diameter, 25
         // subgroups of 5; values from memory): x̿ = 74.001 mm, R̄ = 0.023 mm give X̄ limits 73.988 and 74.014 mm and
         // an R-chart UCL of 0.049 mm (LCL 0). Subgroups built here with exactly that grand mean and range.
         List<TrendPoint> pts = new ArrayList<>();
