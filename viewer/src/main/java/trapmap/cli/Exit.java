@@ -8,6 +8,8 @@ final class Exit {
     static final int SOME_CASES_FAILED = 1;
     /** A batch inspection finished but some wafers failed their rules or could not be read. */
     static final int SOME_WAFERS_NOT_PASSED = 1;
+    /** A trend was drawn and at least one run rule fires after its baseline. */
+    static final int TREND_SIGNALS = 1;
     /** Invalid input: bad or missing flag values, unusable input files. Nothing was computed. */
     static final int INVALID_INPUT = 2;
     /** An unexpected internal error. */

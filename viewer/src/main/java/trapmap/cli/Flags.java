@@ -56,12 +56,20 @@ final class Flags {
             entry("--flag", "above or below"),
             entry("--quantile", "a quantile level q between 0 and 1, no unit"),
             entry("--samples", "a number of Monte Carlo samples, 16-4194304"),
-            entry("--seed", "a whole number, the seed of the draws"));
+            entry("--seed", "a whole number, the seed of the draws"),
+            entry("--store", "a results store: a SQLite file or postgresql://host[:port]/database"),
+            entry("--figure", "a figure name, a column of results.csv (e.g. trap_density_p50_cm3)"),
+            entry("--by", "lot, day, week, none or a sidecar fact's name"),
+            entry("--since", "a UTC date (2026-11-02) or time (2026-11-02T08:00:00Z)"),
+            entry("--profile", "a rules profile's name"),
+            entry("--baseline", "a number of wafers (groups), from 2"),
+            entry("--baseline-until", "a UTC date (2026-11-02) or time (2026-11-02T08:00:00Z)"));
 
     /** What a flag expects where one command reads it differently, by command name (without "trapmap "). */
     private static final Map<String, String> EXPECTED_IN = Map.ofEntries(
             entry("inspect --out", "the folder for the results"),
             entry("report --out", "the report to write (.pdf)"),
+            entry("trend --out", "the output file (.pdf, .png or .csv)"),
             entry("identify --output", "the best-defect index map (.tif)"),
             entry("demo --out", "the folder to write the demonstration set into"),
             entry("calc --out", "the CSV file to write"));
