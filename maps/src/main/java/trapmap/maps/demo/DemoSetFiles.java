@@ -126,7 +126,7 @@ final class DemoSetFiles {
         return out;
     }
 
-    private static String pretty(JsonNode node) throws IOException {
+    static String pretty(JsonNode node) throws IOException {
         DefaultPrettyPrinter p = new DefaultPrettyPrinter();
         DefaultIndenter indent = new DefaultIndenter("  ", "\n");
         p.indentObjectsWith(indent);
@@ -134,7 +134,7 @@ final class DemoSetFiles {
         return JSON.writer(p).writeValueAsString(node) + "\n";
     }
 
-    private static void writeText(Path target, String text) throws IOException {
+    static void writeText(Path target, String text) throws IOException {
         AtomicFiles.write(target, text.getBytes(StandardCharsets.UTF_8));
     }
 

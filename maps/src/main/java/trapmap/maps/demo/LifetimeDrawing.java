@@ -30,9 +30,15 @@ final class LifetimeDrawing {
 
     static DemoFile lifetimeFile(String name, String id, WaferFormat format, PixelGrid grid,
                                  MeasurementConditions c, PlantedField f, String defect, Random rnd, String what) {
+        return lifetimeFile(name, id, format.shape(), grid, c, f, defect, rnd, what);
+    }
+
+    /** As {@link #lifetimeFile(String, String, WaferFormat, PixelGrid, MeasurementConditions, PlantedField, String,
+     * Random, String)} for any wafer outline. */
+    static DemoFile lifetimeFile(String name, String id, WaferShape shape, PixelGrid grid,
+                                 MeasurementConditions c, PlantedField f, String defect, Random rnd, String what) {
         TrapDensityConverter forward = forward(c, defect);
         double dn = c.injectionPerCm3();
-        WaferShape shape = format.shape();
         float[] tau = new float[grid.width() * grid.height()];
         for (int y = 0; y < grid.height(); y++) {
             for (int x = 0; x < grid.width(); x++) {
