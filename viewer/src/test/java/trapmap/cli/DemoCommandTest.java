@@ -114,6 +114,12 @@ class DemoCommandTest {
         assertThat(both.code()).isEqualTo(Exit.INVALID_INPUT);
         assertThat(both.err()).contains("--out").contains("--history");
         assertThat(Files.exists(dir.resolve("a"))).isFalse();
+
+        Cli.Run none = Cli.run("demo", "--force");
+        assertThat(none.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(none.errLines()).containsExactly("trapmap demo: --out or --history is required (--out: the folder"
+                + " to write the demonstration set into; --history: the folder to write the invented production"
+                + " history into)");
         assertThat(Files.exists(dir.resolve("b"))).isFalse();
     }
 }

@@ -13,6 +13,8 @@ import java.util.TreeMap;
 import java.util.function.DoubleBinaryOperator;
 import trapmap.maps.geometry.RoundWafer;
 import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.model.ProcessingStep;
+import trapmap.maps.model.Provenance;
 import trapmap.maps.raster.PixelGrid;
 import trapmap.physics.material.ConductivityType;
 import trapmap.physics.material.Doping;
@@ -85,6 +87,8 @@ public final class HistoryScenario {
     public static final String DEFECT = "fe-i";
     /** Excess carrier density of the lifetime maps, cm^-3. */
     public static final double INJECTION_CM3 = 1e14;
+    private static final String SOURCE = "trapmap demo --history generator (invented data, seed " + SEED + ")";
+
     /** Name of the rules file written with the history. */
     public static final String RULES = "rules-history.json";
 
@@ -166,7 +170,10 @@ public final class HistoryScenario {
         MeasurementConditions c = DemoScenario.conditions(doping, 180, 5, INJECTION_CM3, null, facts);
         String what = String.format(Locale.ROOT, "lot %s, tube %s, slot %d%s", lot, tube, slot,
                 slot == BAD_SLOT ? ", contamination spot" : "");
-        DemoFile file = LifetimeDrawing.lifetimeFile(id + ".tif", id, shape, grid, c, f, DEFECT, rnd, what);
+        Provenance provenance = Provenance.of(SOURCE).then(ProcessingStep.of("demo-generate", "wafer", id,
+                "defect", DEFECT, "noise", Double.toString(DemoScenario.NOISE)));
+        DemoFile file = LifetimeDrawing.lifetimeFile(id + ".tif", id, shape, grid, c, f, DEFECT, rnd, what,
+                provenance);
         return new Wafer(file, lot, tube, slot, processed, measured, drift, centre);
     }
 

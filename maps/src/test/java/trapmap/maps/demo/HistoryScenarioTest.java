@@ -94,6 +94,7 @@ class HistoryScenarioTest {
             WaferMap map = MapFiles.readSingle(dir.resolve(w.file()));
             assertThat(map.conditions().extra()).isEqualTo(side.conditions().extra());
             assertThat(map.grid().width()).isEqualTo(64);
+            assertThat(map.provenance().source()).contains("--history").contains(Long.toString(HistoryScenario.SEED));
 
             assertThat(w.measuredAt()).isAfter(w.processedAt()).isAfterOrEqualTo(previous);
             previous = w.measuredAt();
