@@ -4,6 +4,7 @@ import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Collection;
+import java.util.Collections;
 import java.util.List;
 import java.util.Objects;
 import java.util.Optional;
@@ -11,6 +12,7 @@ import picocli.CommandLine;
 import picocli.CommandLine.IExecutionExceptionHandler;
 import picocli.CommandLine.IExecutionStrategy;
 import picocli.CommandLine.IParameterExceptionHandler;
+import picocli.CommandLine.Model.ArgGroupSpec;
 import picocli.CommandLine.Model.ArgSpec;
 import picocli.CommandLine.Model.OptionSpec;
 import picocli.CommandLine.Model.PositionalParamSpec;
@@ -216,6 +218,19 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
                 String also = missing.size() == 1 ? ""
                         : " (also missing: " + String.join(", ", missing.subList(1, missing.size())) + ")";
                 return f + " is required: " + Flags.expected(command, f) + also;
+            }
+            if (String.valueOf(ex.getMessage()).contains("specify one of these")) {
+                // an exclusive group none of whose options was given: one of them is needed
+                for (ArgGroupSpec g : ex.getCommandLine().getCommandSpec().argGroups()) {
+                    List<String> names = new ArrayList<>();
+                    g.options().forEach(o -> names.add(o.longestName()));
+                    if (g.exclusive() && names.size() > 1
+                            && (names.contains(flag) || !Collections.disjoint(names, missing))) {
+                        List<String> each = new ArrayList<>();
+                        names.forEach(m -> each.add(m + ": " + Flags.expected(command, m)));
+                        return String.join(" or ", names) + " is required (" + String.join("; ", each) + ")";
+                    }
+                }
             }
             String f = flag != null ? flag : missing.isEmpty() ? null : missing.get(0);
             if (f != null) {

@@ -72,6 +72,7 @@ final class Flags {
             entry("trend --out", "the output file (.pdf, .png or .csv)"),
             entry("identify --output", "the best-defect index map (.tif)"),
             entry("demo --out", "the folder to write the demonstration set into"),
+            entry("demo --history", "the folder to write the invented production history into"),
             entry("calc --out", "the CSV file to write"));
 
     /** Field names used by the physics checks, with the flag the value came from. */

@@ -10,6 +10,8 @@ import java.util.stream.Stream;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.demo.DemoScenario;
+import trapmap.maps.demo.HistoryScenario;
+import trapmap.maps.demo.HistoryTruth;
 import trapmap.maps.io.MapFiles;
 
 class DemoCommandTest {
@@ -79,5 +81,45 @@ class DemoCommandTest {
         assertThat(r.code()).isEqualTo(Exit.INVALID_INPUT);
         assertThat(r.errLines()).hasSize(1);
         assertThat(r.err()).contains("--out");
+    }
+
+    @Test
+    void historyWritesTheProductionHistoryAndSummarisesIt(@TempDir Path dir) throws IOException {
+        Path out = dir.resolve("history");
+        Cli.Run r = Cli.run("demo", "--history", out.toString());
+        assertThat(r.err()).isEmpty();
+        assertThat(r.code()).isZero();
+        int wafers = HistoryScenario.DAYS * HistoryScenario.LOTS_PER_DAY * HistoryScenario.SLOTS.size();
+        assertThat(r.out()).contains("truth.json").contains("rules-history.json").contains("README.md")
+                .contains(wafers + " wafer maps").contains("wrote " + (2 * wafers + 3) + " files")
+                .doesNotContain("L0001-S02.tif");
+        HistoryTruth truth = HistoryScenario.readTruth(out.resolve(DemoScenario.TRUTH));
+        assertThat(truth.driftTube()).isEqualTo(HistoryScenario.DRIFT_TUBE);
+        assertThat(truth.badSlot()).isEqualTo(HistoryScenario.BAD_SLOT);
+        assertThat(MapFiles.readSingle(out.resolve("L0001-S07.tif")).conditions().extra())
+                .containsEntry("boat_slot", "7").containsEntry("lot", "L0001");
+        assertThat(r.out().lines().count()).isLessThan(10);
+    }
+
+    @Test
+    void historyRefusesANonEmptyFolderAndTheTwoTargetsTogether(@TempDir Path dir) throws IOException {
+        Files.writeString(dir.resolve("notes.txt"), "mine");
+        Cli.Run r = Cli.run("demo", "--history", dir.toString());
+        assertThat(r.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(r.errLines()).hasSize(1);
+        assertThat(r.err()).contains("--history").contains("not empty").contains("--force");
+
+        Cli.Run both = Cli.run("demo", "--out", dir.resolve("a").toString(), "--history",
+                dir.resolve("b").toString());
+        assertThat(both.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(both.err()).contains("--out").contains("--history");
+        assertThat(Files.exists(dir.resolve("a"))).isFalse();
+
+        Cli.Run none = Cli.run("demo", "--force");
+        assertThat(none.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(none.errLines()).containsExactly("trapmap demo: --out or --history is required (--out: the folder"
+                + " to write the demonstration set into; --history: the folder to write the invented production"
+                + " history into)");
+        assertThat(Files.exists(dir.resolve("b"))).isFalse();
     }
 }

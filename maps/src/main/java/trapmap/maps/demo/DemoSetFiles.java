@@ -135,7 +135,7 @@ final class DemoSetFiles {
         return JSON.writer(p).writeValueAsString(node) + "\n";
     }
 
-    private static void writeText(Path target, String text) throws IOException {
+    static void writeText(Path target, String text) throws IOException {
         AtomicFiles.write(target, text.getBytes(StandardCharsets.UTF_8));
     }
 

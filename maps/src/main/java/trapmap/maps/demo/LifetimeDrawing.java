@@ -6,6 +6,7 @@ import java.util.Random;
 import trapmap.maps.geometry.WaferFormat;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.model.Provenance;
 import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.ConversionSettings;
@@ -52,13 +53,23 @@ final class LifetimeDrawing {
 
     static DemoFile lifetimeFile(String name, String id, WaferFormat format, PixelGrid grid,
                                  MeasurementConditions c, PlantedField f, String defect, Random rnd, String what) {
+        return lifetimeFile(name, id, format.shape(), grid, c, f, defect, rnd, what,
+                DemoScenario.provenance(defect, id));
+    }
+
+    /**
+     * As {@link #lifetimeFile(String, String, WaferFormat, PixelGrid, MeasurementConditions, PlantedField, String,
+     * Random, String)} for any wafer outline, with the map's provenance given.
+     */
+    static DemoFile lifetimeFile(String name, String id, WaferShape shape, PixelGrid grid,
+                                 MeasurementConditions c, PlantedField f, String defect, Random rnd, String what,
+                                 Provenance provenance) {
         TrapDensityConverter forward = forward(c, defect);
         double dn = c.injectionPerCm3();
-        WaferShape shape = format.shape();
         float[] tau = overWafer(grid, shape, (xm, ym) -> forward.lifetimeAtInjectionUs(f.total(xm, ym), dn)
                 * noise(rnd));
         WaferMap map = new WaferMap(FloatRaster.wrap(grid.width(), grid.height(), tau), grid,
-                Quantity.EFFECTIVE_LIFETIME, id, c, DemoScenario.provenance(defect, id));
+                Quantity.EFFECTIVE_LIFETIME, id, c, provenance);
         return new DemoFile(name, map, what, truth(f, grid, forward, defect, Double.NaN));
     }
 
