@@ -170,7 +170,7 @@ final class WatchCommand implements Callable<Integer> {
                         o.flush();
                     }
                     if (!status.equals("pass")) {
-                        alarm.raise(now, row.getOrDefault("wafer_id", ""), status, row.getOrDefault("file", ""));
+                        alarm.raise(now, waferId(row), status, row.getOrDefault("file", ""));
                     }
                 });
         CountDownLatch ended = new CountDownLatch(1);
@@ -215,7 +215,7 @@ final class WatchCommand implements Callable<Integer> {
     /** The log line of one wafer: time, wafer id, verdict, grade, file, and the failed rules or the error. */
     static String line(Instant time, Map<String, String> row) {
         String status = row.getOrDefault("status", "");
-        StringBuilder b = new StringBuilder(time.toString()).append(' ').append(row.getOrDefault("wafer_id", ""))
+        StringBuilder b = new StringBuilder(time.toString()).append(' ').append(waferId(row))
                 .append(' ').append(status);
         String grade = row.getOrDefault("grade", "");
         if (!grade.isEmpty()) {
@@ -230,6 +230,17 @@ final class WatchCommand implements Callable<Integer> {
             b.append(": ").append(failed);
         }
         return b.toString();
+    }
+
+    /** The wafer id of a row, or for a map that could not be read (no id) its file name without extension. */
+    static String waferId(Map<String, String> row) {
+        String id = row.getOrDefault("wafer_id", "");
+        if (!id.isEmpty()) {
+            return id;
+        }
+        String name = Path.of(row.getOrDefault("file", "")).getFileName().toString();
+        int dot = name.lastIndexOf('.');
+        return dot > 0 ? name.substring(0, dot) : name;
     }
 
     private static long seconds(String option, double s, boolean zeroAllowed) {
