@@ -56,11 +56,15 @@ final class Flags {
             entry("--flag", "above or below"),
             entry("--quantile", "a quantile level q between 0 and 1, no unit"),
             entry("--samples", "a number of Monte Carlo samples, 16-4194304"),
-            entry("--seed", "a whole number, the seed of the draws"));
+            entry("--seed", "a whole number, the seed of the draws"),
+            entry("--settle-s", "a time in s, from 0"),
+            entry("--scan-s", "a time in s, above 0"),
+            entry("--exit-idle-s", "a time in s, from 0 (0: never)"));
 
     /** What a flag expects where one command reads it differently, by command name (without "trapmap "). */
     private static final Map<String, String> EXPECTED_IN = Map.ofEntries(
             entry("inspect --out", "the folder for the results"),
+            entry("watch --out", "the folder for the results"),
             entry("report --out", "the report to write (.pdf)"),
             entry("identify --output", "the best-defect index map (.tif)"),
             entry("demo --out", "the folder to write the demonstration set into"),
