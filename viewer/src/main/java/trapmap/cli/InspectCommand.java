@@ -6,6 +6,7 @@ import java.nio.file.Files;
 import java.nio.file.LinkOption;
 import java.nio.file.Path;
 import java.nio.file.attribute.BasicFileAttributes;
+import java.time.Instant;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -14,6 +15,7 @@ import java.util.Map;
 import java.util.Optional;
 import java.util.Stack;
 import java.util.concurrent.Callable;
+import java.util.regex.Pattern;
 import java.util.stream.Stream;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
@@ -25,6 +27,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import trapmap.maps.batch.BatchInspection;
+import trapmap.maps.batch.LotPattern;
 import trapmap.maps.batch.BatchOutputException;
 import trapmap.maps.batch.IronPairRules;
 import trapmap.maps.batch.Rules;
@@ -32,6 +35,10 @@ import trapmap.maps.batch.RulesException;
 import trapmap.maps.batch.RunManifest;
 import trapmap.maps.batch.RunRefusedException;
 import trapmap.shared.progress.ProgressListener;
+import trapmap.store.ResultsStore;
+import trapmap.store.RunInfo;
+import trapmap.store.StoreException;
+import trapmap.store.StoreWriter;
 import trapmap.viewer.report.BatchReport;
 import trapmap.viewer.report.SummaryDraft;
 
@@ -124,6 +131,12 @@ final class InspectCommand implements Callable<Integer> {
             + " Replaces the rules file's physics block.")
     Path physics;
 
+    @Option(names = "--store", paramLabel = "<STORE>", description = "Also write each wafer's results into a results"
+            + " store as it finishes: a SQLite file (made when missing) or postgresql://host[:port]/database (user"
+            + " and password from PGUSER/PGPASSWORD or ~/.pgpass, never the command line). See README, \"Results"
+            + " store\".")
+    String store;
+
     @Option(names = "--json", description = "Print the summary as one JSON object.")
     boolean json;
 
@@ -143,11 +156,13 @@ final class InspectCommand implements Callable<Integer> {
         Rules rules;
         IronPairRules ironPairs;
         RunManifest.Source source;
+        Pattern lots;
         try {
             String text = Rules.readText(rulesFile); // read once: the rules, their iron section and their hash
             rules = Rules.parse(text, rulesFile.toString());
             ironPairs = IronPairRules.parse(text, rulesFile.toString()).orElse(null);
             source = RunManifest.Source.of(TrapmapCommand.VERSION, rulesFile, text);
+            lots = LotPattern.parse(text, rulesFile.toString()).orElse(null);
         } catch (RulesException e) {
             throw new InputException("--rules " + e.getMessage());
         }
@@ -166,6 +181,26 @@ final class InspectCommand implements Callable<Integer> {
         boolean captions = thumbnails && thumbnailCaptions && pictures.allows("the thumbnail captions");
         BatchInspection.Summary s;
         BatchInspection batch = new BatchInspection(rules);
+        ResultsStore results = null;
+        StoreWriter storing = null;
+        if (store != null) {
+            try {
+                results = ResultsStore.open(store);
+                String run = results.startRun(RunInfo.of(source, rules.physics(), Instant.now()));
+                storing = new StoreWriter(results, run, lots, line -> {
+                    synchronized (err) {
+                        err.println(spec.qualifiedName() + ": warning: " + line);
+                        err.flush();
+                    }
+                });
+                batch.tellingWafers(storing);
+            } catch (StoreException e) {
+                if (results != null) {
+                    results.close();
+                }
+                throw new InputException("--" + e.getMessage()); // "--store NAME: ..."
+            }
+        }
         SummaryWriter writer = summaryWriter;
         // drawn beside the workers when this runtime draws text (asked on the drawing thread)
         SummaryDraft draft = summaryPdf && writer == null
@@ -207,8 +242,10 @@ final class InspectCommand implements Callable<Integer> {
                     .run(files, out, new BatchInspection.Options(n, resume, thumbnails, progress, overwrite)
                             .withThumbnailCaptions(captions));
         } catch (RunRefusedException e) {
+            closeStore(storing, results, err);
             throw new InputException(e.getMessage());
         } catch (BatchOutputException e) {
+            closeStore(storing, results, err);
             if (System.console() != null) {
                 err.println();
             }
@@ -226,6 +263,9 @@ final class InspectCommand implements Callable<Integer> {
         if (System.console() != null) {
             err.println();
             err.flush();
+        }
+        if (!closeStore(storing, results, err)) {
+            return Exit.OUTPUT_NOT_WRITTEN;
         }
         boolean pdfWritten = summaryPdf && !pictures.skipped(BatchReport.FILE_NAME);
         Optional<String> notMade = pictures.line();
@@ -329,6 +369,26 @@ final class InspectCommand implements Callable<Integer> {
                     return; // as picocli, which stops taking values at one it cannot convert
                 }
             }
+        }
+    }
+
+    /**
+     * Waits for the wafers still to be stored and closes the store (nothing when there is none); false, with one
+     * line on {@code err}, when some wafer could not be stored.
+     */
+    private boolean closeStore(StoreWriter storing, ResultsStore results, PrintWriter err) {
+        if (results == null) {
+            return true;
+        }
+        try (results) {
+            storing.close();
+            return true;
+        } catch (StoreException e) {
+            err.println(spec.qualifiedName() + ": --" + e.getMessage() + "; the results in --out are complete,"
+                    + " and inspecting the wafers again with --store writes them (a stored wafer is replaced, not"
+                    + " doubled)");
+            err.flush();
+            return false;
         }
     }
 

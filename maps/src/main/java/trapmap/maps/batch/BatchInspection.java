@@ -192,6 +192,18 @@ public final class BatchInspection {
         }
     }
 
+    /** Told each wafer the batch has written ({@link #tellingWafers}), e.g. to keep it in a results store. */
+    @FunctionalInterface
+    public interface WaferListener {
+        /**
+         * A wafer inspected in this run whose results row was just written (its rows in the three tables are
+         * complete): its result (figures, failed rules, regions, footprint) and its results row as made. Called on the
+         * writing thread in the table's order, so it must return soon (hand the work to a thread of its own); rows
+         * kept from a resumed run are not told. Neither argument changes afterwards.
+         */
+        void wafer(WaferResult result, Map<String, String> row);
+    }
+
     /** First-use work of the summary step ({@link #warmingUp}). */
     @FunctionalInterface
     public interface WarmUp {
@@ -300,13 +312,19 @@ public final class BatchInspection {
      * @param waferJson     its object in {@value #JSON_NAME}'s list of wafers ({@link #waferJson})
      */
     record Inspected(String file, Footprint footprint, Map<String, String> row, String rowText, String regionsText,
-                     String footprintText, String waferJson) {
+                     String footprintText, String waferJson, WaferResult result) {
         /**
          * Formats {@code r} with {@code format} (one per thread: its printing is synchronized); {@code withIron}:
          * merges the iron columns {@code iron} (null: none could be evaluated) into the row ({@link IronPairs}).
          */
         static Inspected of(WaferResult r, List<String> columns, boolean withIron, Map<String, String> iron,
                             Rules rules, CSVFormat format) throws IOException {
+            return of(r, columns, withIron, iron, rules, format, false);
+        }
+
+        /** As above; {@code keepResult}: the result is kept for a {@link WaferListener} (null otherwise). */
+        static Inspected of(WaferResult r, List<String> columns, boolean withIron, Map<String, String> iron,
+                            Rules rules, CSVFormat format, boolean keepResult) throws IOException {
             Map<String, String> row = BatchInspection.row(r);
             if (withIron) {
                 IronPairs.merge(row, iron == null ? Map.of() : iron, rules);
@@ -326,7 +344,7 @@ public final class BatchInspection {
                 }
             }
             return new Inspected(r.file(), r.footprint(), row, rowText.toString(), regionsText.toString(),
-                    footprintText.toString(), BatchInspection.waferJson(row, columns));
+                    footprintText.toString(), BatchInspection.waferJson(row, columns), keepResult ? r : null);
         }
     }
 
@@ -351,6 +369,8 @@ public final class BatchInspection {
     private java.util.function.Supplier<String> summaryRecord;
     /** Told each results row as it is written; null for none. */
     private RowListener rowListener;
+    /** Told each wafer inspected in this run once its rows are written; null for none. */
+    private WaferListener waferListener;
     /** The rows of the results table of the running run once its tables are complete, in the table's order. */
     private List<Map<String, String>> finishedRows = List.of();
     /** Whether {@link #finishedRows} are the rows told to the listener, in the order told. */
@@ -491,6 +511,15 @@ public final class BatchInspection {
      */
     public BatchInspection tellingRows(RowListener listener) {
         this.rowListener = listener;
+        return this;
+    }
+
+    /**
+     * Tells {@code listener} each wafer inspected in this run, with its result, once its rows are written (in the
+     * table's order; wafers kept from a resumed run are not told). Returns this batch.
+     */
+    public BatchInspection tellingWafers(WaferListener listener) {
+        this.waferListener = listener;
         return this;
     }
 
@@ -879,7 +908,7 @@ public final class BatchInspection {
                             workerRecurrence.get().add(fp);
                         }
                         Inspected formatted = Inspected.of(r, columns, pairs != null, iron[0], rules,
-                                workerFormat.get());
+                                workerFormat.get(), waferListener != null);
                         long cpuTo = threadCpuNanos();
                         workerCpu.add(cpuFrom < 0 || cpuTo < 0 ? Long.MIN_VALUE / 4 : cpuTo - cpuFrom);
                         return formatted;
@@ -915,6 +944,9 @@ public final class BatchInspection {
                 w.flush();
                 if (rowListener != null) {
                     rowListener.row(r.row());
+                }
+                if (waferListener != null) {
+                    waferListener.wafer(r.result(), r.row());
                 }
                 writerBusy += System.nanoTime() - writing;
                 options.progress().progress(++done, todo.size(), r.file());
@@ -1102,8 +1134,11 @@ public final class BatchInspection {
         into.putAll(read); // a later file (the partial one) replaces a file's regions as a whole
     }
 
-    /** The {@value #REGIONS_NAME} rows of a result: one per flagged region, numbers as in {@link #row}. */
-    static List<Map<String, String>> regionRows(WaferResult r) {
+    /**
+     * The {@value #REGIONS_NAME} rows of a result: one per flagged region ({@link #REGION_COLUMNS}), numbers as in
+     * {@link #row}.
+     */
+    public static List<Map<String, String>> regionRows(WaferResult r) {
         List<Map<String, String>> rows = new ArrayList<>();
         for (FlaggedRegions.FlaggedRegion fr : r.regions()) {
             trapmap.maps.region.Region g = fr.region();

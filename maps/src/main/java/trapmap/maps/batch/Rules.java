@@ -500,6 +500,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         }
         Rules rules = new Reader(name).rules(root);
         IronPairRules.parse(text, name); // the iron section is checked with the rest, and read by the batch
+        LotPattern.parse(text, name); // so is the lot pattern, read by the results store
         return rules;
     }
 
@@ -578,7 +579,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                 throw new RulesException(name + ": the rules must be a JSON object");
             }
             onlyKeys(root, "", new LinkedHashSet<>(List.of("conditions", "defect", "edge_exclusion_mm", "wafer",
-                    "edge_band_mm", "flag", "limits", "grades", "fail_grade", "profiles", "iron", "physics")));
+                    "edge_band_mm", "flag", "limits", "grades", "fail_grade", "profiles", "iron", "physics", LotPattern.KEY)));
             PhysicsSettings physics = PhysicsSettings.DEFAULTS;
             if (root.has("physics")) {
                 try {

@@ -54,8 +54,8 @@ class MapsArchitectureTest {
             .because("pictures need images and 2D drawing, never AWT widgets, windows or events");
 
     static final ArchRule NOTHING_OF_THE_VIEWER = noClasses().that().resideInAPackage("trapmap.maps..")
-            .should().dependOnClassesThat().resideInAnyPackage("trapmap.viewer..", "trapmap.cli..")
-            .because("dependencies point viewer -> maps -> physics -> shared");
+            .should().dependOnClassesThat().resideInAnyPackage("trapmap.viewer..", "trapmap.cli..", "trapmap.store..")
+            .because("dependencies point viewer -> store -> maps -> physics -> shared");
 
     private static JavaClasses maps;
 
@@ -81,7 +81,7 @@ class MapsArchitectureTest {
     }
 
     @Test
-    void mapsKnowNothingOfTheViewerOrTheCommandLine() {
+    void mapsKnowNothingOfTheViewerTheCommandLineOrTheStore() {
         NOTHING_OF_THE_VIEWER.check(maps);
     }
 

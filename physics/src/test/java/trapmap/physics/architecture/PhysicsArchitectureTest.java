@@ -40,8 +40,9 @@ class PhysicsArchitectureTest {
             .because("the physics module draws nothing");
 
     static final ArchRule NOTHING_ABOVE = noClasses().that().resideInAPackage("trapmap.physics..")
-            .should().dependOnClassesThat().resideInAnyPackage("trapmap.maps..", "trapmap.viewer..", "trapmap.cli..")
-            .because("dependencies point viewer -> maps -> physics -> shared");
+            .should().dependOnClassesThat().resideInAnyPackage("trapmap.maps..", "trapmap.store..", "trapmap.viewer..",
+                    "trapmap.cli..")
+            .because("dependencies point viewer -> store -> maps -> physics -> shared");
 
     @BeforeAll
     static void importPhysics() {
