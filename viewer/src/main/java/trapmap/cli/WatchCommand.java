@@ -26,6 +26,10 @@ import trapmap.maps.batch.RunRefusedException;
 import trapmap.maps.watch.Alarm;
 import trapmap.maps.watch.FolderWatch;
 import trapmap.shared.progress.ProgressListener;
+import trapmap.store.ResultsStore;
+import trapmap.store.RunInfo;
+import trapmap.store.StoreException;
+import trapmap.store.StoreWriter;
 import trapmap.viewer.report.BatchReport;
 
 /** {@code trapmap watch}: inspects the maps of a folder as they arrive, as {@code inspect} would. */
@@ -101,6 +105,12 @@ final class WatchCommand implements Callable<Integer> {
             + " drawn anew from every wafer each time).")
     boolean summaryPdf;
 
+    @Option(names = "--store", paramLabel = "<STORE>", description = "Also write each wafer's results into a results"
+            + " store as it finishes: a SQLite file (made when missing) or postgresql://host[:port]/database (user"
+            + " and password from PGUSER/PGPASSWORD or ~/.pgpass, never the command line); one store run per watch"
+            + " start. See README, \"Results store\".")
+    String store;
+
     @Option(names = "--physics", paramLabel = "<physics.json>", description = PhysicsOption.DESCRIPTION
             + " Replaces the rules file's physics block.")
     Path physics;
@@ -128,11 +138,13 @@ final class WatchCommand implements Callable<Integer> {
         Rules parsed;
         IronPairRules ironPairs;
         RunManifest.Source source;
+        java.util.regex.Pattern lots;
         try {
             String text = Rules.readText(rulesFile);
             parsed = Rules.parse(text, rulesFile.toString());
             ironPairs = IronPairRules.parse(text, rulesFile.toString()).orElse(null);
             source = RunManifest.Source.of(TrapmapCommand.VERSION, rulesFile, text);
+            lots = trapmap.maps.batch.LotPattern.parse(text, rulesFile.toString()).orElse(null);
         } catch (RulesException e) {
             throw new InputException("--rules " + e.getMessage());
         }
@@ -140,6 +152,26 @@ final class WatchCommand implements Callable<Integer> {
         PrintWriter o = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
         Pictures pictures = Pictures.start();
+        ResultsStore results = null;
+        StoreWriter storing = null;
+        if (store != null) {
+            try {
+                results = ResultsStore.open(store);
+                String run = results.startRun(RunInfo.of(source, rules.physics(), Instant.now()));
+                storing = new StoreWriter(results, run, lots, line -> {
+                    synchronized (err) {
+                        err.println(spec.qualifiedName() + ": warning: " + line);
+                        err.flush();
+                    }
+                });
+            } catch (StoreException e) {
+                if (results != null) {
+                    results.close();
+                }
+                throw new InputException("--" + e.getMessage()); // "--store NAME: ..."
+            }
+        }
+        StoreWriter stored = storing;
         Alarm alarm = new Alarm(onFail, alarmFile, line -> {
             synchronized (err) {
                 err.println("watch: " + line);
@@ -150,7 +182,8 @@ final class WatchCommand implements Callable<Integer> {
                 idle, new BatchInspection.Options(n, true, thumbnails, ProgressListener.NONE)),
                 () -> {
                     BatchInspection b = new BatchInspection(rules).withIron(ironPairs).withSource(source)
-                            .withRecurrencePictures(() -> pictures.allows("the recurrence pictures"));
+                            .withRecurrencePictures(() -> pictures.allows("the recurrence pictures"))
+                            .tellingWafers(stored);
                     if (summaryPdf) {
                         b.finishingWith((dir, recurrence) -> {
                             if (!pictures.run(BatchReport.FILE_NAME,
@@ -183,14 +216,24 @@ final class WatchCommand implements Callable<Integer> {
             }
         }, "trapmap-watch-stop");
         Runtime.getRuntime().addShutdownHook(hook);
-        err.println("watch: watching " + incoming + " into " + out + " (settle " + trapmap.maps.io.NumberText.of(settleS)
-                + " s" + (withoutSidecar ? ", sidecars not required" : "") + "); Ctrl-C or SIGTERM stops");
+        err.println("watch: watching " + incoming + " into " + out + " (settle "
+                + trapmap.maps.io.NumberText.of(settleS) + " s" + (withoutSidecar ? ", sidecars not required" : "")
+                + (store != null ? ", store " + store : "") + "); Ctrl-C or SIGTERM stops");
         err.flush();
         try {
-            FolderWatch.Outcome outcome = watch.run();
-            alarm.close();
-            err.println("watch: " + (outcome.end() == FolderWatch.End.IDLE ? "idle for " + trapmap.maps.io.NumberText.of(exitIdleS)
-                    + " s" : "stopped") + "; " + outcome.inspected() + " wafers inspected by this watch; results in "
+            FolderWatch.Outcome outcome;
+            boolean storeClosed;
+            try {
+                outcome = watch.run();
+            } finally {
+                alarm.close();
+                storeClosed = closeStore(storing, results, err);
+            }
+            if (!storeClosed) {
+                return Exit.OUTPUT_NOT_WRITTEN;
+            }
+            err.println("watch: " + (outcome.end() == FolderWatch.End.IDLE
+                    ? "idle for " + trapmap.maps.io.NumberText.of(exitIdleS) + " s" : "stopped") + "; " + outcome.inspected() + " wafers inspected by this watch; results in "
                     + out + (outcome.end() == FolderWatch.End.STOPPED ? " (a new start continues)" : ""));
             pictures.line().ifPresent(line -> err.println("watch: " + line));
             err.flush();
@@ -209,6 +252,26 @@ final class WatchCommand implements Callable<Integer> {
             } catch (IllegalStateException e) {
                 // shutting down: the hook is running
             }
+        }
+    }
+
+    /**
+     * Waits for the wafers still to be stored and closes the store (nothing when there is none); false, with one
+     * line on {@code err}, when some wafer could not be stored.
+     */
+    private boolean closeStore(StoreWriter storing, ResultsStore results, PrintWriter err) {
+        if (results == null) {
+            return true;
+        }
+        try (results) {
+            storing.close();
+            return true;
+        } catch (StoreException e) {
+            err.println(spec.qualifiedName() + ": --" + e.getMessage() + "; the results in --out are complete,"
+                    + " and inspecting the wafers again with inspect --store writes them (a stored wafer is replaced,"
+                    + " not doubled)");
+            err.flush();
+            return false;
         }
     }
 

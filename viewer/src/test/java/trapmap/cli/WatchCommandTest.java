@@ -71,6 +71,28 @@ class WatchCommandTest {
     }
 
     @Test
+    void withAStoreEachWaferIsStoredOnceAcrossARestart(@TempDir Path dir) throws IOException {
+        Path in = Files.createDirectories(dir.resolve("in"));
+        copyWafer("LOT-A01-W01", in);
+        copyWafer("LOT-A01-W02", in);
+        Path db = dir.resolve("results.db");
+        String[] args = {"watch", in.toString(), "--rules", RULES, "--out", dir.resolve("report").toString(),
+            "--settle-s", "0", "--exit-idle-s", "1", "--threads", "1", "--no-thumbnails", "--store", db.toString()};
+        Cli.Run first = Cli.run(args);
+        assertThat(first.code()).as(first.err()).isZero();
+        copyWafer("LOT-A01-W03", in);
+        Cli.Run second = Cli.run(args);
+        assertThat(second.code()).as(second.err()).isZero();
+        assertThat(second.out().lines().count()).isOne();
+        try (trapmap.store.ResultsStore s = trapmap.store.ResultsStore.open(db.toString())) {
+            List<trapmap.store.StoredPoint> points = s.points("harmonic_mean_lifetime_us", "lot", null, null);
+            assertThat(points).extracting(trapmap.store.StoredPoint::waferId)
+                    .containsExactlyInAnyOrder("LOT-A01-W01", "LOT-A01-W02", "LOT-A01-W03");
+            assertThat(points).allSatisfy(p -> assertThat(p.lot()).isEqualTo("LOT-A01"));
+        }
+    }
+
+    @Test
     void badOptionsAreRefusedWithOneLine(@TempDir Path dir) {
         Cli.Run r = Cli.run("watch", dir.resolve("nowhere").toString(), "--rules", RULES, "--out",
                 dir.resolve("o").toString());
