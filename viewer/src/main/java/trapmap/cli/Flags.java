@@ -63,11 +63,15 @@ final class Flags {
             entry("--since", "a UTC date (2026-11-02) or time (2026-11-02T08:00:00Z)"),
             entry("--profile", "a rules profile's name"),
             entry("--baseline", "a number of wafers (groups), from 2"),
-            entry("--baseline-until", "a UTC date (2026-11-02) or time (2026-11-02T08:00:00Z)"));
+            entry("--baseline-until", "a UTC date (2026-11-02) or time (2026-11-02T08:00:00Z)"),
+            entry("--settle-s", "a time in s, from 0"),
+            entry("--scan-s", "a time in s, above 0"),
+            entry("--exit-idle-s", "a time in s, from 0 (0: never)"));
 
     /** What a flag expects where one command reads it differently, by command name (without "trapmap "). */
     private static final Map<String, String> EXPECTED_IN = Map.ofEntries(
             entry("inspect --out", "the folder for the results"),
+            entry("watch --out", "the folder for the results"),
             entry("report --out", "the report to write (.pdf)"),
             entry("trend --out", "the output file (.pdf, .png or .csv)"),
             entry("identify --output", "the best-defect index map (.tif)"),

@@ -377,6 +377,10 @@ public final class BatchInspection {
     private boolean finishedAsTold;
     /** First-use work of the summary step, run beside the workers; null for none. */
     private WarmUp warmUp;
+    /** Whether a resumed run keeps the {@code error} rows instead of trying their files again ({@link #keepingErrors}). */
+    private boolean keepErrors;
+    /** Whether a resumed run may have more input files than the recorded run ({@link #growingInputs}). */
+    private boolean growingInputs;
     /** Times of the last run's parts. */
     private volatile Phases phases = Phases.NONE;
     /** {@link System#nanoTime} marks of the running run: start, first map submitted, last row written. */
@@ -427,6 +431,37 @@ public final class BatchInspection {
     BatchInspection withFirstWaferAlone(boolean alone) {
         this.firstAlone = alone;
         return this;
+    }
+
+    /**
+     * A resumed run keeps the {@code error} rows of the earlier run as they are instead of trying their files again
+     * (the watch inspects each arriving file once). Returns this batch.
+     */
+    public BatchInspection keepingErrors(boolean keep) {
+        this.keepErrors = keep;
+        return this;
+    }
+
+    /**
+     * A resumed run accepts another list of input files than the recorded one (the watch's list grows as maps
+     * arrive); the rules, physics, thumbnails and program version must still be the same. Returns this batch.
+     */
+    public BatchInspection growingInputs(boolean growing) {
+        this.growingInputs = growing;
+        return this;
+    }
+
+    /**
+     * The files listed in the results table of {@code outDir} ({@value #CSV_NAME} and its {@code .partial}, the
+     * later winning), in the table's order, as written in its {@code file} column; rows cut short are left out.
+     */
+    public static List<String> listedFiles(Path outDir) throws IOException {
+        Map<String, Map<String, String>> rows = new LinkedHashMap<>();
+        readRows(outDir.resolve(CSV_NAME), rows);
+        readRows(outDir.resolve(PARTIAL_NAME), rows);
+        List<String> files = new ArrayList<>(rows.size());
+        rows.values().forEach(r -> files.add(r.get("file")));
+        return files;
     }
 
     /** Records the program version and the rules file in the run record ({@link RunManifest}). Returns this batch. */
@@ -709,7 +744,7 @@ public final class BatchInspection {
                         + " cannot be checked; use a new --out or --overwrite");
             }
             if (earlier != null) {
-                List<String> d = earlier.differences(manifest);
+                List<String> d = earlier.differences(manifest, !growingInputs);
                 if (!d.isEmpty()) {
                     throw new RunRefusedException("--resume: " + outDir + " was run with " + String.join(", ", d)
                             + "; use a new --out or --overwrite");
@@ -755,7 +790,9 @@ public final class BatchInspection {
             readRegionRows(regionsPartial, keptRegions);
             FootprintStore.read(footprints, keptFootprints, BatchInspection::key);
             FootprintStore.read(footprintsPartial, keptFootprints, BatchInspection::key);
-            kept.values().removeIf(r -> WaferResult.Status.ERROR.key().equals(r.get("status"))); // tried again
+            if (!keepErrors) {
+                kept.values().removeIf(r -> WaferResult.Status.ERROR.key().equals(r.get("status"))); // tried again
+            }
         }
         List<Path> todo = new ArrayList<>();
         int skipped = 0;

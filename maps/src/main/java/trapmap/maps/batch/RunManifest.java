@@ -168,6 +168,11 @@ public record RunManifest(String version, State state, Instant started, Instant 
      * ab12… then, cd34… now)"); empty when {@code now} may resume this run.
      */
     public List<String> differences(RunManifest now) {
+        return differences(now, true);
+    }
+
+    /** As {@link #differences(RunManifest)}, the input files compared only when {@code compareInputs} is true. */
+    public List<String> differences(RunManifest now, boolean compareInputs) {
         List<String> d = new ArrayList<>();
         if (!version.equals(now.version)) {
             d.add("another program version (" + version + " then, " + now.version + " now)");
@@ -187,7 +192,7 @@ public record RunManifest(String version, State state, Instant started, Instant 
             d.add("other physics settings (" + (keys.isEmpty() ? "sha256 " + shortHash(physicsSha256) + " then, "
                     + shortHash(now.physicsSha256) + " now" : String.join("; ", keys)) + ")");
         }
-        if (!inputsSha256.equals(now.inputsSha256)) {
+        if (compareInputs && !inputsSha256.equals(now.inputsSha256)) {
             d.add("other input files (" + inputs + " files, list sha256 " + shortHash(inputsSha256) + " then; "
                     + now.inputs + " files, " + shortHash(now.inputsSha256) + " now)");
         }

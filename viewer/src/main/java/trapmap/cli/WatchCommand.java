@@ -1,0 +1,316 @@
+package trapmap.cli;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Instant;
+import java.time.temporal.ChronoUnit;
+import java.util.Locale;
+import java.util.Map;
+import java.util.concurrent.Callable;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.TimeUnit;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import picocli.CommandLine.Model.CommandSpec;
+import trapmap.maps.batch.BatchInspection;
+import trapmap.maps.batch.BatchOutputException;
+import trapmap.maps.batch.IronPairRules;
+import trapmap.maps.batch.Rules;
+import trapmap.maps.batch.RulesException;
+import trapmap.maps.batch.RunManifest;
+import trapmap.maps.batch.RunRefusedException;
+import trapmap.maps.watch.Alarm;
+import trapmap.maps.watch.FolderWatch;
+import trapmap.shared.progress.ProgressListener;
+import trapmap.store.ResultsStore;
+import trapmap.store.RunInfo;
+import trapmap.store.StoreException;
+import trapmap.store.StoreWriter;
+import trapmap.viewer.report.BatchReport;
+
+/** {@code trapmap watch}: inspects the maps of a folder as they arrive, as {@code inspect} would. */
+@Command(name = "watch", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
+        usageHelpAutoWidth = true,
+        header = "Inspects the maps arriving in a folder, as inspect does, until stopped.",
+        description = {
+            "Watches FOLDER for maps (.tif, .tiff, .csv) and inspects each once it is complete: when a marker"
+                + " NAME.done or STEM.done lies beside it (e.g. W07.tif.done), or when its sidecar STEM.json is"
+                + " present and the sizes and times of map and sidecar have stayed the same for --settle-s. Partial"
+                + " files are never read. DIR holds the results of one batch of every map inspected so far"
+                + " (results.csv, results.json, regions.csv, recurrence maps, run.json; as inspect writes them),"
+                + " each wafer's rows written as it finishes and the tables brought up to date after each round."
+                + " One line per wafer on stdout: time, wafer id, verdict, grade, file.",
+            "A restart continues: the maps DIR lists are not inspected again, the others are. SIGTERM or Ctrl-C"
+                + " stops cleanly (the round in progress is continued by the next start).",
+            ""},
+        footer = {"", "Exit codes: 0 stopped (or idle for --exit-idle-s); 2 invalid input or DIR refused (watched"
+                + " by another watch, or holding a run with other rules, physics, thumbnails or version); 3 internal"
+                + " error; 4 output could not be written to DIR. A stop by SIGTERM ends with the signal's status"
+                + " (143)."})
+final class WatchCommand implements Callable<Integer> {
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "FOLDER", description = "The folder the maps arrive in.")
+    Path incoming;
+
+    @Option(names = "--rules", required = true, paramLabel = "<RULES.json>",
+            description = "Inspection rules (schema in the README, 'Batch inspection').")
+    Path rulesFile;
+
+    @Option(names = "--out", required = true, paramLabel = "<DIR>", description = "Folder for the results.")
+    Path out;
+
+    @Option(names = "--settle-s", paramLabel = "<s>", defaultValue = "2",
+            description = "How long, in s, a map and its sidecar must keep their size and time before the map is"
+                    + " read (default ${DEFAULT-VALUE} s; a done marker completes a map at once).")
+    double settleS;
+
+    @Option(names = "--scan-s", paramLabel = "<s>", defaultValue = "1",
+            description = "Longest time, in s, between two looks at FOLDER besides the changes the system tells"
+                    + " (default ${DEFAULT-VALUE} s; some network file systems tell none).")
+    double scanS;
+
+    @Option(names = "--without-sidecar", description = "Maps may complete without a sidecar (their conditions"
+            + " embedded or in the rules): by settling alone.")
+    boolean withoutSidecar;
+
+    @Option(names = "--on-fail", paramLabel = "<CMD>", description = "Program run for each wafer that fails or"
+            + " cannot be inspected, with the wafer id and the verdict (fail or error) as its two arguments; started"
+            + " directly, never through a shell.")
+    Path onFail;
+
+    @Option(names = "--alarm-file", paramLabel = "<FILE>", description = "File to which one line is appended for"
+            + " each wafer that fails or cannot be inspected: time (UTC), wafer id, verdict, file, separated by"
+            + " tabs.")
+    Path alarmFile;
+
+    @Option(names = "--exit-idle-s", paramLabel = "<s>", defaultValue = "0",
+            description = "End after this many s without a new map (default 0: never; for scripts).")
+    double exitIdleS;
+
+    @Option(names = "--threads", paramLabel = "<n>",
+            description = "Maps inspected at once. Default: the number of processors.")
+    Integer threads;
+
+    @Option(names = "--thumbnails", negatable = true, defaultValue = "true", fallbackValue = "true",
+            description = "Write DIR/thumbnails/FILE.png (default; --no-thumbnails leaves them out).")
+    boolean thumbnails;
+
+    @Option(names = "--pdf", description = "Also write DIR/summary.pdf after each round (default: none; it is"
+            + " drawn anew from every wafer each time).")
+    boolean summaryPdf;
+
+    @Option(names = "--store", paramLabel = "<STORE>", description = "Also write each wafer's results into a results"
+            + " store as it finishes: a SQLite file (made when missing) or postgresql://host[:port]/database (user"
+            + " and password from PGUSER/PGPASSWORD or ~/.pgpass, never the command line); one store run per watch"
+            + " start. See README, \"Results store\".")
+    String store;
+
+    @Option(names = "--physics", paramLabel = "<physics.json>", description = PhysicsOption.DESCRIPTION
+            + " Replaces the rules file's physics block.")
+    Path physics;
+
+    @Override
+    public Integer call() throws IOException, InterruptedException {
+        int n = threads == null ? Runtime.getRuntime().availableProcessors() : threads;
+        if (n < 1 || n > 256) {
+            throw new InputException("--threads must be in [1, 256] (got " + n + ")");
+        }
+        long settle = seconds("--settle-s", settleS, true);
+        long scan = seconds("--scan-s", scanS, false);
+        long idle = seconds("--exit-idle-s", exitIdleS, true);
+        if (!Files.isDirectory(incoming)) {
+            throw new InputException("FOLDER " + incoming + (Files.exists(incoming) ? " is not a folder"
+                    : " does not exist") + "; give the folder the maps arrive in");
+        }
+        if (Files.exists(out) && !Files.isDirectory(out)) {
+            throw new InputException("--out " + out + " is a file; give a folder");
+        }
+        if (onFail != null && !Files.isExecutable(onFail)) {
+            throw new InputException("--on-fail " + onFail + " is not an executable program; give the program's"
+                    + " path (it is run with the wafer id and verdict as arguments, without a shell)");
+        }
+        Rules parsed;
+        IronPairRules ironPairs;
+        RunManifest.Source source;
+        java.util.regex.Pattern lots;
+        try {
+            String text = Rules.readText(rulesFile);
+            parsed = Rules.parse(text, rulesFile.toString());
+            ironPairs = IronPairRules.parse(text, rulesFile.toString()).orElse(null);
+            source = RunManifest.Source.of(TrapmapCommand.VERSION, rulesFile, text);
+            lots = trapmap.maps.batch.LotPattern.parse(text, rulesFile.toString()).orElse(null);
+        } catch (RulesException e) {
+            throw new InputException("--rules " + e.getMessage());
+        }
+        Rules rules = physics == null ? parsed : parsed.withPhysics(PhysicsOption.load(physics));
+        PrintWriter o = spec.commandLine().getOut();
+        PrintWriter err = spec.commandLine().getErr();
+        Pictures pictures = Pictures.start();
+        ResultsStore results = null;
+        StoreWriter storing = null;
+        if (store != null) {
+            try {
+                results = ResultsStore.open(store);
+                String run = results.startRun(RunInfo.of(source, rules.physics(), Instant.now()));
+                storing = new StoreWriter(results, run, lots, line -> {
+                    synchronized (err) {
+                        err.println(spec.qualifiedName() + ": warning: " + line);
+                        err.flush();
+                    }
+                });
+            } catch (StoreException e) {
+                if (results != null) {
+                    results.close();
+                }
+                throw new InputException("--" + e.getMessage()); // "--store NAME: ..."
+            }
+        }
+        StoreWriter stored = storing;
+        Alarm alarm = new Alarm(onFail, alarmFile, line -> {
+            synchronized (err) {
+                err.println("watch: " + line);
+                err.flush();
+            }
+        });
+        FolderWatch watch = new FolderWatch(new FolderWatch.Settings(incoming, out, settle, scan, !withoutSidecar,
+                idle, new BatchInspection.Options(n, true, thumbnails, ProgressListener.NONE)),
+                () -> {
+                    BatchInspection b = new BatchInspection(rules).withIron(ironPairs).withSource(source)
+                            .withRecurrencePictures(() -> pictures.allows("the recurrence pictures"))
+                            .tellingWafers(stored);
+                    if (summaryPdf) {
+                        b.finishingWith((dir, recurrence) -> {
+                            if (!pictures.run(BatchReport.FILE_NAME,
+                                    () -> BatchReport.writeFor(dir, rules, recurrence))) {
+                                Files.deleteIfExists(dir.resolve(BatchReport.FILE_NAME));
+                            }
+                        });
+                    }
+                    return b;
+                },
+                row -> {
+                    Instant now = Instant.now().truncatedTo(ChronoUnit.SECONDS);
+                    String status = row.getOrDefault("status", "");
+                    String line = line(now, row);
+                    synchronized (o) {
+                        o.println(line);
+                        o.flush();
+                    }
+                    if (!status.equals("pass")) {
+                        alarm.raise(now, waferId(row), status, row.getOrDefault("file", ""));
+                    }
+                });
+        CountDownLatch ended = new CountDownLatch(1);
+        Thread hook = new Thread(() -> {
+            watch.stop();
+            try {
+                ended.await(30, TimeUnit.SECONDS); // the watch stops its round and says so
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+            }
+        }, "trapmap-watch-stop");
+        Runtime.getRuntime().addShutdownHook(hook);
+        err.println("watch: watching " + incoming + " into " + out + " (settle "
+                + trapmap.maps.io.NumberText.of(settleS) + " s" + (withoutSidecar ? ", sidecars not required" : "")
+                + (store != null ? ", store " + store : "") + "); Ctrl-C or SIGTERM stops");
+        err.flush();
+        try {
+            FolderWatch.Outcome outcome;
+            boolean storeClosed;
+            try {
+                outcome = watch.run();
+            } finally {
+                alarm.close();
+                storeClosed = closeStore(storing, results, err);
+            }
+            if (!storeClosed) {
+                return Exit.OUTPUT_NOT_WRITTEN;
+            }
+            err.println("watch: " + (outcome.end() == FolderWatch.End.IDLE
+                    ? "idle for " + trapmap.maps.io.NumberText.of(exitIdleS) + " s" : "stopped") + "; " + outcome.inspected() + " wafers inspected by this watch; results in "
+                    + out + (outcome.end() == FolderWatch.End.STOPPED ? " (a new start continues)" : ""));
+            pictures.line().ifPresent(line -> err.println("watch: " + line));
+            err.flush();
+            return Exit.OK;
+        } catch (RunRefusedException e) {
+            throw new InputException(e.getMessage());
+        } catch (BatchOutputException e) {
+            err.println(spec.qualifiedName() + ": --out " + out + ": output could not be written: " + e.getMessage()
+                    + "; the watch stopped, what was written stays and a new start continues from it");
+            err.flush();
+            return Exit.OUTPUT_NOT_WRITTEN;
+        } finally {
+            ended.countDown();
+            try {
+                Runtime.getRuntime().removeShutdownHook(hook);
+            } catch (IllegalStateException e) {
+                // shutting down: the hook is running
+            }
+        }
+    }
+
+    /**
+     * Waits for the wafers still to be stored and closes the store (nothing when there is none); false, with one
+     * line on {@code err}, when some wafer could not be stored.
+     */
+    private boolean closeStore(StoreWriter storing, ResultsStore results, PrintWriter err) {
+        if (results == null) {
+            return true;
+        }
+        try (results) {
+            storing.close();
+            return true;
+        } catch (StoreException e) {
+            err.println(spec.qualifiedName() + ": --" + e.getMessage() + "; the results in --out are complete,"
+                    + " and inspecting the wafers again with inspect --store writes them (a stored wafer is replaced,"
+                    + " not doubled)");
+            err.flush();
+            return false;
+        }
+    }
+
+    /** The log line of one wafer: time, wafer id, verdict, grade, file, and the failed rules or the error. */
+    static String line(Instant time, Map<String, String> row) {
+        String status = row.getOrDefault("status", "");
+        StringBuilder b = new StringBuilder(time.toString()).append(' ').append(waferId(row))
+                .append(' ').append(status);
+        String grade = row.getOrDefault("grade", "");
+        if (!grade.isEmpty()) {
+            b.append(' ').append(grade);
+        }
+        b.append(' ').append(Path.of(row.getOrDefault("file", "")).getFileName());
+        String failed = row.getOrDefault("failed_rules", "");
+        String error = row.getOrDefault("error", "");
+        if (!error.isEmpty()) {
+            b.append(": ").append(error);
+        } else if (!failed.isEmpty()) {
+            b.append(": ").append(failed);
+        }
+        return b.toString();
+    }
+
+    /** The wafer id of a row, or for a map that could not be read (no id) its file name without extension. */
+    static String waferId(Map<String, String> row) {
+        String id = row.getOrDefault("wafer_id", "");
+        if (!id.isEmpty()) {
+            return id;
+        }
+        String name = Path.of(row.getOrDefault("file", "")).getFileName().toString();
+        int dot = name.lastIndexOf('.');
+        return dot > 0 ? name.substring(0, dot) : name;
+    }
+
+    private static long seconds(String option, double s, boolean zeroAllowed) {
+        if (!Double.isFinite(s) || s < 0 || !zeroAllowed && s == 0 || s > 86_400) {
+            throw new InputException(option + " must be " + (zeroAllowed ? "in [0, 86400]" : "in (0, 86400]")
+                    + " s (got " + s + ")");
+        }
+        return Math.round(s * 1e9);
+    }
+}
