@@ -77,7 +77,11 @@ public final class IdentifyGuiScenario {
                 });
                 System.out.println(line);
             }
-            // a second run, cancelled at once: the dialog says so, Identify is offered again, the result stays
+            // a second run, cancelled at once: the dialog says so, Identify is offered again, the result stays.
+            // The first run's done() reaches the event thread through SwingWorker's coalescing timer, after its
+            // isDone(): wait until it has offered Identify again (a disabled button ignores doClick).
+            GuiScenario.waitFor("Identify offered again", () -> GuiScenario.find(d.getContentPane(), "identify")
+                    .isEnabled());
             GuiScenario.onEdt(() -> {
                 ((javax.swing.JButton) GuiScenario.find(d.getContentPane(), "identify")).doClick();
                 ((javax.swing.JButton) GuiScenario.find(d.getContentPane(), "cancelIdentify")).doClick();
