@@ -77,14 +77,15 @@ public final class IdentifyGuiScenario {
                 });
                 System.out.println(line);
             }
-            // a second run, cancelled at once: the dialog says so, Identify is offered again, the result stays.
-            // The first run's done() reaches the event thread through SwingWorker's coalescing timer, after its
-            // isDone(): wait until it has offered Identify again (a disabled button ignores doClick).
+            // a second run, cancelled at once: the dialog says so, Identify is offered again, the result stays
+            // (a disabled button ignores doClick: wait until the first run has offered Identify again)
             GuiScenario.waitFor("Identify offered again", () -> GuiScenario.find(d.getContentPane(), "identify")
                     .isEnabled());
             GuiScenario.onEdt(() -> {
-                ((javax.swing.JButton) GuiScenario.find(d.getContentPane(), "identify")).doClick();
-                ((javax.swing.JButton) GuiScenario.find(d.getContentPane(), "cancelIdentify")).doClick();
+                // doClick(0): the plain doClick() holds the button down for 68 ms, time enough for a small run
+                // to finish before Cancel is pressed
+                ((javax.swing.JButton) GuiScenario.find(d.getContentPane(), "identify")).doClick(0);
+                ((javax.swing.JButton) GuiScenario.find(d.getContentPane(), "cancelIdentify")).doClick(0);
                 return null;
             });
             GuiScenario.waitFor("the cancelled run ended", () -> d.worker().isDone());
