@@ -6,7 +6,6 @@ import java.nio.file.Files;
 import java.nio.file.LinkOption;
 import java.nio.file.Path;
 import java.nio.file.attribute.BasicFileAttributes;
-import java.time.Instant;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -35,9 +34,6 @@ import trapmap.maps.batch.RulesException;
 import trapmap.maps.batch.RunManifest;
 import trapmap.maps.batch.RunRefusedException;
 import trapmap.shared.progress.ProgressListener;
-import trapmap.store.ResultsStore;
-import trapmap.store.RunInfo;
-import trapmap.store.StoreException;
 import trapmap.store.StoreWriter;
 import trapmap.viewer.report.BatchReport;
 import trapmap.viewer.report.SummaryDraft;
@@ -67,6 +63,9 @@ import trapmap.viewer.report.SummaryDraft;
                 + " runtime lacks font libraries, fonts or a display; one line names what and the packages to"
                 + " install (after which --resume makes them; --no-pdf skips the PDF on purpose)."})
 final class InspectCommand implements Callable<Integer> {
+    /** How a wafer that could not be stored is stored later (the store's failure line). */
+    private static final String STORE_AGAIN = "inspecting the wafers again with --store";
+
     /** Writes the summary PDF into a finished batch folder. */
     @FunctionalInterface
     interface SummaryWriter {
@@ -181,25 +180,11 @@ final class InspectCommand implements Callable<Integer> {
         boolean captions = thumbnails && thumbnailCaptions && pictures.allows("the thumbnail captions");
         BatchInspection.Summary s;
         BatchInspection batch = new BatchInspection(rules);
-        ResultsStore results = null;
-        StoreWriter storing = null;
-        if (store != null) {
-            try {
-                results = ResultsStore.open(store);
-                String run = results.startRun(RunInfo.of(source, rules.physics(), Instant.now()));
-                storing = new StoreWriter(results, run, lots, line -> {
-                    synchronized (err) {
-                        err.println(spec.qualifiedName() + ": warning: " + line);
-                        err.flush();
-                    }
-                });
-                batch.tellingWafers(storing);
-            } catch (StoreException e) {
-                if (results != null) {
-                    results.close();
-                }
-                throw new InputException("--" + e.getMessage()); // "--store NAME: ..."
-            }
+        StoreOutput storeOutput = store == null ? null : StoreOutput.open(store, source, rules.physics(), lots,
+                spec.qualifiedName(), err);
+        StoreWriter storing = storeOutput == null ? null : storeOutput.writer();
+        if (storing != null) {
+            batch.tellingWafers(storing);
         }
         SummaryWriter writer = summaryWriter;
         // drawn beside the workers when this runtime draws text (asked on the drawing thread)
@@ -242,10 +227,10 @@ final class InspectCommand implements Callable<Integer> {
                     .run(files, out, new BatchInspection.Options(n, resume, thumbnails, progress, overwrite)
                             .withThumbnailCaptions(captions));
         } catch (RunRefusedException e) {
-            closeStore(storing, results, err);
+            StoreOutput.close(storeOutput, spec.qualifiedName(), STORE_AGAIN, err);
             throw new InputException(e.getMessage());
         } catch (BatchOutputException e) {
-            closeStore(storing, results, err);
+            StoreOutput.close(storeOutput, spec.qualifiedName(), STORE_AGAIN, err);
             if (System.console() != null) {
                 err.println();
             }
@@ -264,7 +249,7 @@ final class InspectCommand implements Callable<Integer> {
             err.println();
             err.flush();
         }
-        if (!closeStore(storing, results, err)) {
+        if (!StoreOutput.close(storeOutput, spec.qualifiedName(), STORE_AGAIN, err)) {
             return Exit.OUTPUT_NOT_WRITTEN;
         }
         boolean pdfWritten = summaryPdf && !pictures.skipped(BatchReport.FILE_NAME);
@@ -369,26 +354,6 @@ final class InspectCommand implements Callable<Integer> {
                     return; // as picocli, which stops taking values at one it cannot convert
                 }
             }
-        }
-    }
-
-    /**
-     * Waits for the wafers still to be stored and closes the store (nothing when there is none); false, with one
-     * line on {@code err}, when some wafer could not be stored.
-     */
-    private boolean closeStore(StoreWriter storing, ResultsStore results, PrintWriter err) {
-        if (results == null) {
-            return true;
-        }
-        try (results) {
-            storing.close();
-            return true;
-        } catch (StoreException e) {
-            err.println(spec.qualifiedName() + ": --" + e.getMessage() + "; the results in --out are complete,"
-                    + " and inspecting the wafers again with --store writes them (a stored wafer is replaced, not"
-                    + " doubled)");
-            err.flush();
-            return false;
         }
     }
 

@@ -26,9 +26,6 @@ import trapmap.maps.batch.RunRefusedException;
 import trapmap.maps.watch.Alarm;
 import trapmap.maps.watch.FolderWatch;
 import trapmap.shared.progress.ProgressListener;
-import trapmap.store.ResultsStore;
-import trapmap.store.RunInfo;
-import trapmap.store.StoreException;
 import trapmap.store.StoreWriter;
 import trapmap.viewer.report.BatchReport;
 
@@ -52,6 +49,9 @@ import trapmap.viewer.report.BatchReport;
                 + " error; 4 output could not be written to DIR. A stop by SIGTERM ends with the signal's status"
                 + " (143)."})
 final class WatchCommand implements Callable<Integer> {
+    /** How a wafer that could not be stored is stored later (the store's failure line). */
+    private static final String STORE_AGAIN = "inspecting the wafers again with inspect --store";
+
     @Spec
     CommandSpec spec;
 
@@ -152,25 +152,9 @@ final class WatchCommand implements Callable<Integer> {
         PrintWriter o = spec.commandLine().getOut();
         PrintWriter err = spec.commandLine().getErr();
         Pictures pictures = Pictures.start();
-        ResultsStore results = null;
-        StoreWriter storing = null;
-        if (store != null) {
-            try {
-                results = ResultsStore.open(store);
-                String run = results.startRun(RunInfo.of(source, rules.physics(), Instant.now()));
-                storing = new StoreWriter(results, run, lots, line -> {
-                    synchronized (err) {
-                        err.println(spec.qualifiedName() + ": warning: " + line);
-                        err.flush();
-                    }
-                });
-            } catch (StoreException e) {
-                if (results != null) {
-                    results.close();
-                }
-                throw new InputException("--" + e.getMessage()); // "--store NAME: ..."
-            }
-        }
+        StoreOutput storeOutput = store == null ? null : StoreOutput.open(store, source, rules.physics(), lots,
+                spec.qualifiedName(), err);
+        StoreWriter storing = storeOutput == null ? null : storeOutput.writer();
         StoreWriter stored = storing;
         Alarm alarm = new Alarm(onFail, alarmFile, line -> {
             synchronized (err) {
@@ -227,7 +211,7 @@ final class WatchCommand implements Callable<Integer> {
                 outcome = watch.run();
             } finally {
                 alarm.close();
-                storeClosed = closeStore(storing, results, err);
+                storeClosed = StoreOutput.close(storeOutput, spec.qualifiedName(), STORE_AGAIN, err);
             }
             if (!storeClosed) {
                 return Exit.OUTPUT_NOT_WRITTEN;
@@ -252,26 +236,6 @@ final class WatchCommand implements Callable<Integer> {
             } catch (IllegalStateException e) {
                 // shutting down: the hook is running
             }
-        }
-    }
-
-    /**
-     * Waits for the wafers still to be stored and closes the store (nothing when there is none); false, with one
-     * line on {@code err}, when some wafer could not be stored.
-     */
-    private boolean closeStore(StoreWriter storing, ResultsStore results, PrintWriter err) {
-        if (results == null) {
-            return true;
-        }
-        try (results) {
-            storing.close();
-            return true;
-        } catch (StoreException e) {
-            err.println(spec.qualifiedName() + ": --" + e.getMessage() + "; the results in --out are complete,"
-                    + " and inspecting the wafers again with inspect --store writes them (a stored wafer is replaced,"
-                    + " not doubled)");
-            err.flush();
-            return false;
         }
     }
 

@@ -1,0 +1,78 @@
+package trapmap.cli;
+
+import java.io.PrintWriter;
+import java.time.Instant;
+import java.util.regex.Pattern;
+import trapmap.maps.batch.RunManifest;
+import trapmap.physics.conversion.PhysicsSettings;
+import trapmap.store.ResultsStore;
+import trapmap.store.RunInfo;
+import trapmap.store.StoreException;
+import trapmap.store.StoreWriter;
+
+/**
+ * The results store of a batch command's {@code --store} ({@code inspect}, {@code watch}): opened with one run
+ * before the first wafer, told each wafer through its {@link StoreWriter}, and closed with one line on failure.
+ */
+final class StoreOutput {
+    private final ResultsStore results;
+    private final StoreWriter writer;
+
+    private StoreOutput(ResultsStore results, StoreWriter writer) {
+        this.results = results;
+        this.writer = writer;
+    }
+
+    /**
+     * Opens {@code store} and starts a run in it; warnings (a sidecar's bad {@code measured_at}) go to {@code err} as
+     * {@code COMMAND: warning: ...} lines.
+     *
+     * @throws InputException {@code --store NAME: ...} when the store cannot be opened or the run not started
+     */
+    static StoreOutput open(String store, RunManifest.Source source, PhysicsSettings physics, Pattern lots,
+                            String command, PrintWriter err) {
+        ResultsStore results = null;
+        try {
+            results = ResultsStore.open(store);
+            String run = results.startRun(RunInfo.of(source, physics, Instant.now()));
+            StoreWriter writer = new StoreWriter(results, run, lots, line -> {
+                synchronized (err) {
+                    err.println(command + ": warning: " + line);
+                    err.flush();
+                }
+            });
+            return new StoreOutput(results, writer);
+        } catch (StoreException e) {
+            if (results != null) {
+                results.close();
+            }
+            throw new InputException("--" + e.getMessage()); // "--store NAME: ..."
+        }
+    }
+
+    /** The writer the batch tells each finished wafer. */
+    StoreWriter writer() {
+        return writer;
+    }
+
+    /**
+     * Waits for the wafers still to be stored and closes the store (nothing when {@code output} is null); false,
+     * with one line on {@code err}, when some wafer could not be stored.
+     *
+     * @param again how the user stores the wafers again, e.g. {@code "inspecting the wafers again with --store"}
+     */
+    static boolean close(StoreOutput output, String command, String again, PrintWriter err) {
+        if (output == null) {
+            return true;
+        }
+        try (ResultsStore r = output.results) {
+            output.writer.close();
+            return true;
+        } catch (StoreException e) {
+            err.println(command + ": --" + e.getMessage() + "; the results in --out are complete, and " + again
+                    + " writes them (a stored wafer is replaced, not doubled)");
+            err.flush();
+            return false;
+        }
+    }
+}
