@@ -403,6 +403,11 @@ public final class ResultsStore implements AutoCloseable {
         }
     }
 
+    /** Whether {@code groupBy} names a sidecar fact rather than {@code none}, {@code lot}, {@code day} or {@code week}. */
+    public static boolean groupsByAttribute(String groupBy) {
+        return groupBy != null && !List.of("none", "lot", "day", "week").contains(groupBy.trim());
+    }
+
     /**
      * The wafers' values of {@code figure} for a trend, oldest first (by {@link StoredPoint#time}, then wafer id and
      * file). Every stored wafer is a point (NaN value where it has none of the figure), so that yields count errors.
@@ -416,7 +421,7 @@ public final class ResultsStore implements AutoCloseable {
      */
     public synchronized List<StoredPoint> points(String figure, String groupBy, Instant since, String profile) {
         String g = groupBy == null ? "none" : groupBy.trim();
-        boolean byAttribute = !List.of("none", "lot", "day", "week").contains(g);
+        boolean byAttribute = groupsByAttribute(g);
         StringBuilder where = new StringBuilder(" WHERE 1 = 1");
         List<Object> args = new ArrayList<>();
         if (since != null) {

@@ -19,6 +19,7 @@ import picocli.CommandLine.Spec;
 import trapmap.maps.trend.Baseline;
 import trapmap.maps.trend.ChartPoint;
 import trapmap.maps.trend.ControlChart;
+import trapmap.maps.trend.GroupCharts;
 import trapmap.maps.trend.GroupYield;
 import trapmap.maps.trend.ParetoEntry;
 import trapmap.maps.trend.Signal;
@@ -43,7 +44,8 @@ import trapmap.viewer.report.TrendReport;
         description = {
             "Reads every wafer of the store (written by 'inspect --store') with its value of FIGURE and draws, in"
                 + " order of the measured time (the sidecar's measured_at), the individuals and moving-range chart"
-                + " and, by the groups of --by, the subgroup mean and range chart; centre line and 3-sigma limits"
+                + " and, by the groups of --by, the subgroup mean and range chart (lot, day, week) or, for a sidecar"
+                + " fact, an individuals and moving-range chart per value with its own baseline; centre line and 3-sigma limits"
                 + " come from a baseline period (Montgomery, Introduction to Statistical Quality Control, ch. 6)."
                 + " Signals: 1 point beyond 3 sigma, 2 of 3 beyond 2 sigma, 4 of 5 beyond 1 sigma (same side),"
                 + " 8 in a row on one side (Western Electric handbook, 1956), 6 in a row rising or falling"
@@ -71,8 +73,9 @@ final class TrendCommand implements Callable<Integer> {
     String figure;
 
     @Option(names = "--by", paramLabel = "<grouping>", defaultValue = "lot",
-            description = "The subgroups: lot, day (UTC), week (ISO), none, or the name of a sidecar fact such as"
-                    + " furnace_tube or boat_slot (default: ${DEFAULT-VALUE}).")
+            description = "The subgroups: lot, day (UTC), week (ISO), none (X-bar/R charts by subgroup), or the name"
+                    + " of a sidecar fact such as furnace_tube or boat_slot (one individuals/moving-range chart per"
+                    + " value, each with its own baseline) (default: ${DEFAULT-VALUE}).")
     String by;
 
     @Option(names = "--since", paramLabel = "<date>",
@@ -129,7 +132,8 @@ final class TrendCommand implements Callable<Integer> {
         }
         TrendResult r;
         try {
-            r = TrendAnalysis.analyse(points, baseline);
+            r = TrendAnalysis.analyse(points, baseline, ResultsStore.groupsByAttribute(by)
+                    ? GroupCharts.PER_GROUP_INDIVIDUALS : GroupCharts.SUBGROUP_MEANS);
         } catch (InvalidValueException e) {
             String flag = baselineUntil != null ? "--baseline-until" : "--baseline";
             throw new InputException(("by".equals(e.field()) ? "--by" : flag) + ": " + e.getMessage()
@@ -220,6 +224,9 @@ final class TrendCommand implements Callable<Integer> {
         for (ControlChart c : r.charts()) {
             Map<String, Object> cm = new LinkedHashMap<>();
             cm.put("chart", c.kind().name().toLowerCase(java.util.Locale.ROOT));
+            if (c.kind().perGroup()) {
+                cm.put("group", c.points().get(0).label());
+            }
             cm.put("sigma_hat", Output.num(c.sigmaHat()));
             List<Map<String, Object>> pts = new ArrayList<>();
             for (ChartPoint p : c.points()) {

@@ -111,8 +111,16 @@ class TrendCommandTest {
         JsonNode charts = j.get("charts");
         assertThat(charts.get(0).get("chart").asText()).isEqualTo("individuals");
         assertThat(charts.get(0).get("signals").get(0).get("after_baseline").asBoolean()).isTrue();
-        // both tubes have wafers after the baseline: no subgroup lies in it, so there is no X-bar/R chart
-        assertThat(charts).hasSize(2);
+        // by a sidecar fact: no X-bar/R chart, but an individuals and mR chart per tube with the tube's own
+        // baseline (T1: the even wafers, all 1.0e11; T2: the odd ones, all 1.2e11)
+        assertThat(charts).extracting(c -> c.get("chart").asText()).containsExactly("individuals", "moving_range",
+                "group_individuals", "group_moving_range", "group_individuals", "group_moving_range");
+        assertThat(charts.get(2).get("group").asText()).isEqualTo("T1");
+        assertThat(charts.get(2).get("points")).hasSize(15).allMatch(p -> p.get("group").asText().equals("T1"));
+        assertThat(charts.get(2).get("points").get(0).get("centre").asDouble()).isEqualTo(1.0e11);
+        assertThat(charts.get(4).get("group").asText()).isEqualTo("T2");
+        assertThat(charts.get(4).get("points")).hasSize(15);
+        assertThat(charts.get(4).get("points").get(0).get("centre").asDouble()).isEqualTo(1.2e11);
         assertThat(j.get("yield")).extracting(n -> n.get("group").asText()).containsExactly("T1", "T2");
     }
 

@@ -9,7 +9,11 @@ public enum ChartKind {
     /** Subgroup means, limits x̿ ± 3σ̂/√n. */
     SUBGROUP_MEAN("subgroup mean (X-bar)"),
     /** Subgroup ranges, limits [D3 d2 σ̂, D4 d2 σ̂] for the subgroup's n. */
-    SUBGROUP_RANGE("subgroup range (R)");
+    SUBGROUP_RANGE("subgroup range (R)"),
+    /** Individual values of the wafers of one group only, with that group's own baseline and limits. */
+    GROUP_INDIVIDUALS("individuals (X)"),
+    /** Moving ranges within one group, beside {@link #GROUP_INDIVIDUALS}. */
+    GROUP_MOVING_RANGE("moving range (mR)");
 
     private final String title;
 
@@ -19,5 +23,10 @@ public enum ChartKind {
 
     public String title() {
         return title;
+    }
+
+    /** Whether the chart holds the wafers of one group only. */
+    public boolean perGroup() {
+        return this == GROUP_INDIVIDUALS || this == GROUP_MOVING_RANGE;
     }
 }

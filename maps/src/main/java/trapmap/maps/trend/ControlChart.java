@@ -15,4 +15,9 @@ public record ControlChart(ChartKind kind, List<ChartPoint> points, double sigma
         points = List.copyOf(points);
         signals = List.copyOf(signals);
     }
+
+    /** The chart's title: its kind, and for a chart of one group, the group ("individuals (X) of T2"). */
+    public String title() {
+        return kind.perGroup() && !points.isEmpty() ? kind.title() + " of " + points.get(0).label() : kind.title();
+    }
 }

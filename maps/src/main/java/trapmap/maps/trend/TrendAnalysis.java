@@ -24,6 +24,10 @@ import trapmap.shared.error.InvalidValueException;
  * least two wafers (unbiased since E[R] = d2 σ; for equal sizes it is R̄/d2). Subgroup i has limits
  * x̿ ± 3σ̂/√n<sub>i</sub> (= x̿ ± A2 R̄ for equal sizes) and, when n<sub>i</sub> ≥ 2, an R point with centre
  * d2(n<sub>i</sub>) σ̂ and limits [D3, D4] · d2(n<sub>i</sub>) σ̂ (= D3 R̄, D4 R̄). Constants: {@link ControlConstants}.</li>
+ * <li><b>Per group</b> ({@link GroupCharts#PER_GROUP_INDIVIDUALS}, instead of X̄ and R): an individuals and
+ * moving-range chart as above over the wafers of each group alone, its baseline the group's wafers in the baseline
+ * period (for a count, the group's first {@code count} wafers). A group with fewer than two wafers in its baseline has
+ * no chart of its own.</li>
  * <li><b>Signals</b>: all {@link RunRule}s on the individuals and X̄ charts; on the range charts only a point beyond
  * its limits (their points are skewed and, for moving ranges, correlated, which the zone rules do not assume).</li>
  * </ul>
@@ -42,6 +46,15 @@ public final class TrendAnalysis {
      * @throws InvalidValueException when the baseline holds fewer than two charted wafers
      */
     public static TrendResult analyse(List<TrendPoint> points, Baseline baseline) {
+        return analyse(points, baseline, GroupCharts.SUBGROUP_MEANS);
+    }
+
+    /**
+     * Analyses {@code points}, charting the groups as {@code groupCharts} says.
+     *
+     * @throws InvalidValueException when the baseline holds fewer than two charted wafers
+     */
+    public static TrendResult analyse(List<TrendPoint> points, Baseline baseline, GroupCharts groupCharts) {
         List<TrendPoint> charted = new ArrayList<>();
         int withoutTime = 0;
         int withoutValue = 0;
@@ -55,13 +68,39 @@ public final class TrendAnalysis {
             }
         }
         charted.sort(Comparator.comparing(TrendPoint::time)); // stable: ties keep the order given
-        ControlChart[] xmr = individuals(charted, baseline);
+        ControlChart[] xmr = individuals(charted, baseline, ChartKind.INDIVIDUALS, ChartKind.MOVING_RANGE);
+        if (groupCharts == GroupCharts.PER_GROUP_INDIVIDUALS) {
+            return new TrendResult(xmr[0], xmr[1], Optional.empty(), Optional.empty(), yields(points),
+                    pareto(points), points.size(), withoutTime, withoutValue, perGroup(charted, baseline));
+        }
         Optional<ControlChart[]> xr = subgroups(charted, baseline);
         return new TrendResult(xmr[0], xmr[1], xr.map(c -> c[0]), xr.map(c -> c[1]), yields(points),
                 pareto(points), points.size(), withoutTime, withoutValue);
     }
 
-    private static ControlChart[] individuals(List<TrendPoint> charted, Baseline baseline) {
+    private static List<ControlChart> perGroup(List<TrendPoint> charted, Baseline baseline) {
+        Map<String, List<TrendPoint>> groups = new LinkedHashMap<>(); // in order of first time
+        for (TrendPoint p : charted) {
+            groups.computeIfAbsent(p.group(), g -> new ArrayList<>()).add(p);
+        }
+        List<ControlChart> out = new ArrayList<>();
+        for (List<TrendPoint> members : groups.values()) {
+            int inBaseline = 0;
+            for (int i = 0; i < members.size(); i++) {
+                if (baseline.contains(i, members.get(i).time())) {
+                    inBaseline++;
+                }
+            }
+            if (inBaseline >= 2) {
+                out.addAll(List.of(individuals(members, baseline, ChartKind.GROUP_INDIVIDUALS,
+                        ChartKind.GROUP_MOVING_RANGE)));
+            }
+        }
+        return out;
+    }
+
+    private static ControlChart[] individuals(List<TrendPoint> charted, Baseline baseline, ChartKind xKind,
+            ChartKind mrKind) {
         int n = charted.size();
         int inBaseline = 0;
         double sum = 0.0;
@@ -100,8 +139,8 @@ public final class TrendAnalysis {
                     mrBase, 2));
         }
         return new ControlChart[] {
-            new ControlChart(ChartKind.INDIVIDUALS, x, sigma, RunRules.evaluate(standardised(x), ZONE_RULES)),
-            new ControlChart(ChartKind.MOVING_RANGE, mr, sigma, RunRules.evaluate(standardised(mr), LIMITS_ONLY))
+            new ControlChart(xKind, x, sigma, RunRules.evaluate(standardised(x), ZONE_RULES)),
+            new ControlChart(mrKind, mr, sigma, RunRules.evaluate(standardised(mr), LIMITS_ONLY))
         };
     }
 

@@ -16,19 +16,32 @@ import java.util.Optional;
  * @param wafers       the wafers given
  * @param withoutTime  wafers left out of the charts for want of a measured time
  * @param withoutValue wafers left out of the charts for want of a finite value of the figure
+ * @param perGroup     the individuals and moving-range charts of each group on its own (X, mR, X, mR, … in order of
+ *                     the groups' first measured time); empty unless asked for ({@link GroupCharts#PER_GROUP_INDIVIDUALS})
  */
 public record TrendResult(ControlChart individuals, ControlChart movingRange, Optional<ControlChart> subgroupMean,
         Optional<ControlChart> subgroupRange, List<GroupYield> yields, List<ParetoEntry> pareto, int wafers,
-        int withoutTime, int withoutValue) {
+        int withoutTime, int withoutValue, List<ControlChart> perGroup) {
     public TrendResult {
         yields = List.copyOf(yields);
         pareto = List.copyOf(pareto);
+        perGroup = List.copyOf(perGroup);
+    }
+
+    /** A result without charts per group. */
+    public TrendResult(ControlChart individuals, ControlChart movingRange, Optional<ControlChart> subgroupMean,
+            Optional<ControlChart> subgroupRange, List<GroupYield> yields, List<ParetoEntry> pareto, int wafers,
+            int withoutTime, int withoutValue) {
+        this(individuals, movingRange, subgroupMean, subgroupRange, yields, pareto, wafers, withoutTime,
+                withoutValue, List.of());
     }
 
     /** The charts there are, in the order they are drawn. */
     public List<ControlChart> charts() {
-        return subgroupMean.isPresent()
-                ? List.of(individuals, movingRange, subgroupMean.get(), subgroupRange.get())
-                : List.of(individuals, movingRange);
+        List<ControlChart> out = new java.util.ArrayList<>(List.of(individuals, movingRange));
+        subgroupMean.ifPresent(out::add);
+        subgroupRange.ifPresent(out::add);
+        out.addAll(perGroup);
+        return List.copyOf(out);
     }
 }

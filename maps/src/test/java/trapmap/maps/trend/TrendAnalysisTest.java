@@ -46,6 +46,43 @@ class TrendAnalysisTest {
     }
 
     @Test
+    void perGroupChartsHaveTheirOwnBaselineAndShowAShiftThePooledChartHides() {
+        // Two interleaved streams: A = 10, 12, 11, 13, 12, 12, 11 (baseline centre 11.6, σ̂ = 1.5/1.128, UCL 15.589 as
+        // hand-computed above) and B = the same + 10, then 30 (B's UCL 25.589). Pooled, the first 5 wafers are
+        // 10, 20, 12, 22, 11: centre 15, MR̄ = 9.75, σ̂ = 8.644, UCL 40.93, so B's 30 stays inside there.
+        double[] a = {10, 12, 11, 13, 12, 12, 11};
+        double[] b = {20, 22, 21, 23, 22, 30};
+        List<TrendPoint> pts = new ArrayList<>();
+        for (int i = 0; i < a.length; i++) {
+            pts.add(at(2 * i, "A", a[i]));
+            if (i < b.length) {
+                pts.add(at(2 * i + 1, "B", b[i]));
+            }
+        }
+        pts.add(at(20, "C", 15)); // one wafer: no chart of its own
+        TrendResult r = TrendAnalysis.analyse(pts, Baseline.first(5), GroupCharts.PER_GROUP_INDIVIDUALS);
+        assertThat(r.subgroupMean()).isEmpty();
+        assertThat(r.perGroup()).extracting(ControlChart::kind).containsExactly(ChartKind.GROUP_INDIVIDUALS,
+                ChartKind.GROUP_MOVING_RANGE, ChartKind.GROUP_INDIVIDUALS, ChartKind.GROUP_MOVING_RANGE);
+        assertThat(r.charts()).hasSize(6);
+        ControlChart ax = r.perGroup().get(0);
+        ControlChart bx = r.perGroup().get(2);
+        assertThat(ax.title()).isEqualTo("individuals (X) of A");
+        assertThat(ax.points()).hasSize(7).allMatch(p -> p.label().equals("A"));
+        assertThat(ax.points().get(0).centre()).isCloseTo(11.6, within(1e-12));
+        assertThat(ax.points().get(0).upper()).isCloseTo(15.589, within(2e-3));
+        assertThat(ax.points()).extracting(ChartPoint::baseline).containsExactly(true, true, true, true, true, false,
+                false);
+        assertThat(ax.signals()).isEmpty();
+        assertThat(bx.points().get(0).centre()).isCloseTo(21.6, within(1e-12));
+        assertThat(bx.signals()).anyMatch(s -> s.rule() == RunRule.BEYOND_3_SIGMA && s.index() == 5);
+        int pooledIndex = 11; // B's 30 in time order: A0 B0 A1 B1 … B5
+        assertThat(r.individuals().points().get(pooledIndex).value()).isEqualTo(30.0);
+        assertThat(r.individuals().points().get(pooledIndex).upper()).isCloseTo(15 + 3 * 9.75 / 1.128, within(0.01));
+        assertThat(r.individuals().signals()).noneMatch(s -> s.rule() == RunRule.BEYOND_3_SIGMA);
+    }
+
+    @Test
     void subgroupLimitsReproduceThePistonRingExample() {
         // R-SPC-4: Montgomery, Introduction to Statistical Quality Control, Example 6.1 (piston-ring inside diameter, 25
         // subgroups of 5; values from memory): x̿ = 74.001 mm, R̄ = 0.023 mm give X̄ limits 73.988 and 74.014 mm and

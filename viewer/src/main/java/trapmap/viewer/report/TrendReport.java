@@ -142,7 +142,7 @@ public final class TrendReport {
             m.setLabelTextAnchor(org.jfree.chart.ui.TextAnchor.TOP_LEFT);
             plot.addDomainMarker(m, org.jfree.chart.ui.Layer.BACKGROUND);
         }
-        JFreeChart chart = new JFreeChart(c.kind().title() + ": " + figure, ChartStyle.TITLE, plot, true);
+        JFreeChart chart = new JFreeChart(c.title() + ": " + figure, ChartStyle.TITLE, plot, true);
         chart.addSubtitle(new TextTitle(c.points().size() + " points, σ̂ = " + Labels.compact(c.sigmaHat())
                 + (unit.isEmpty() ? "" : " " + unit) + ", " + c.signals().size() + " signal(s)", ChartStyle.SUBTITLE));
         ChartStyle.apply(chart);
@@ -213,7 +213,7 @@ public final class TrendReport {
         for (ControlChart c : r.charts()) {
             for (Signal s : c.signals()) {
                 ChartPoint p = c.points().get(s.index());
-                out.add(p.time() + "  " + c.kind().title() + ", " + p.label() + ": " + s.rule().description()
+                out.add(p.time() + "  " + c.title() + ", " + p.label() + ": " + s.rule().description()
                         + (s.upward() ? " (up)" : " (down)") + ", value " + Labels.compact(p.value())
                         + (p.baseline() ? " [in the baseline]" : ""));
             }
