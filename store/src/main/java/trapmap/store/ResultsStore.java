@@ -1,5 +1,6 @@
 package trapmap.store;
 
+import java.io.IOException;
 import java.net.URI;
 import java.net.URISyntaxException;
 import java.nio.file.Files;
@@ -238,6 +239,32 @@ public final class ResultsStore implements AutoCloseable {
             throw new StoreException("store " + name + ": wafer " + r.file() + " not written: " + oneLine(e), e);
         }
         return key;
+    }
+
+    /**
+     * Whether the store holds the result of map {@code file} (its content as it is now) under the rules and settings
+     * of run {@code runId}, i.e. a wafer of that {@link #resultKey}.
+     *
+     * @throws StoreException naming the store and the file
+     */
+    public synchronized boolean holds(String runId, String file) {
+        String sha = "";
+        try {
+            sha = WaferRecord.sha256(Path.of(file));
+        } catch (IOException | RuntimeException e) {
+            // an unreadable file is keyed by its name, as write keys its error result
+        }
+        try {
+            String[] hashes = runHashes(runId);
+            try (PreparedStatement p = connection.prepareStatement("SELECT 1 FROM wafers WHERE result_key = ?")) {
+                p.setString(1, resultKey(sha, file, hashes[0], hashes[1]));
+                try (ResultSet rs = p.executeQuery()) {
+                    return rs.next();
+                }
+            }
+        } catch (SQLException e) {
+            throw new StoreException("store " + name + ": wafer " + file + " not looked up: " + oneLine(e), e);
+        }
     }
 
     /** The rules' and settings' SHA-256 of a run. */

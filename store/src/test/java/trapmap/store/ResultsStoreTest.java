@@ -276,4 +276,19 @@ class ResultsStoreTest {
             assertThat(s.count("runs")).isEqualTo(1);
         }
     }
+
+    @Test
+    void holdsAMapOnlyAfterItsWaferIsWrittenAndOnlyForItsContentAndRules() throws Exception {
+        Path f = map("w1", "map one", null);
+        try (ResultsStore s = open()) {
+            String run = s.startRun(run("r1"));
+            String otherRules = s.startRun(run("r2"));
+            assertThat(s.holds(run, f.toString())).isFalse();
+            s.write(run, WaferRecord.of(result(f, "w1", WaferResult.Status.PASS, 1e11, List.of(), null), null));
+            assertThat(s.holds(run, f.toString())).isTrue();
+            assertThat(s.holds(otherRules, f.toString())).as("other rules").isFalse();
+            Files.writeString(f, "map one, measured again");
+            assertThat(s.holds(run, f.toString())).as("changed content").isFalse();
+        }
+    }
 }

@@ -185,6 +185,9 @@ final class InspectCommand implements Callable<Integer> {
         StoreWriter storing = storeOutput == null ? null : storeOutput.writer();
         if (storing != null) {
             batch.tellingWafers(storing);
+            if (resume) {
+                batch.inspectingAgain(storeOutput::misses); // kept wafers the interrupted run did not store
+            }
         }
         SummaryWriter writer = summaryWriter;
         // drawn beside the workers when this runtime draws text (asked on the drawing thread)

@@ -16,10 +16,12 @@ import trapmap.store.StoreWriter;
  */
 final class StoreOutput {
     private final ResultsStore results;
+    private final String runId;
     private final StoreWriter writer;
 
-    private StoreOutput(ResultsStore results, StoreWriter writer) {
+    private StoreOutput(ResultsStore results, String runId, StoreWriter writer) {
         this.results = results;
+        this.runId = runId;
         this.writer = writer;
     }
 
@@ -41,7 +43,7 @@ final class StoreOutput {
                     err.flush();
                 }
             });
-            return new StoreOutput(results, writer);
+            return new StoreOutput(results, run, writer);
         } catch (StoreException e) {
             if (results != null) {
                 results.close();
@@ -53,6 +55,19 @@ final class StoreOutput {
     /** The writer the batch tells each finished wafer. */
     StoreWriter writer() {
         return writer;
+    }
+
+    /**
+     * Whether map {@code file} is not yet in the store under this run's rules and settings: a resumed run inspects
+     * such a kept wafer again (its rows may have reached the folder while its store write still waited when the
+     * earlier run was killed). A store that cannot be asked counts as missing it, so that the wafer's write tells.
+     */
+    boolean misses(String file) {
+        try {
+            return !results.holds(runId, file);
+        } catch (StoreException e) {
+            return true;
+        }
     }
 
     /**

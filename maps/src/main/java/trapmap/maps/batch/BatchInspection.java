@@ -199,7 +199,7 @@ public final class BatchInspection {
          * A wafer inspected in this run whose results row was just written (its rows in the three tables are
          * complete): its result (figures, failed rules, regions, footprint) and its results row as made. Called on the
          * writing thread in the table's order, so it must return soon (hand the work to a thread of its own); rows
-         * kept from a resumed run are not told. Neither argument changes afterwards.
+         * kept from a resumed run are not told (those it inspects again are: {@link #inspectingAgain}). Neither argument changes afterwards.
          */
         void wafer(WaferResult result, Map<String, String> row);
     }
@@ -379,6 +379,8 @@ public final class BatchInspection {
     private WarmUp warmUp;
     /** Whether a resumed run keeps the {@code error} rows instead of trying their files again ({@link #keepingErrors}). */
     private boolean keepErrors;
+    /** Files of kept rows that a resumed run inspects again ({@link #inspectingAgain}); null for none. */
+    private java.util.function.Predicate<String> inspectAgain;
     /** Whether a resumed run may have more input files than the recorded run ({@link #growingInputs}). */
     private boolean growingInputs;
     /** Times of the last run's parts. */
@@ -439,6 +441,17 @@ public final class BatchInspection {
      */
     public BatchInspection keepingErrors(boolean keep) {
         this.keepErrors = keep;
+        return this;
+    }
+
+    /**
+     * A resumed run inspects again the wafers of the earlier run whose file (as written in the {@code file} column)
+     * {@code again} accepts, as it does {@code error} rows, instead of keeping their rows; they are told to the
+     * {@linkplain #tellingWafers wafer listener} like every inspected wafer (e.g. the wafers a killed run wrote into
+     * the folder but not yet into a results store). Null for none. Returns this batch.
+     */
+    public BatchInspection inspectingAgain(java.util.function.Predicate<String> again) {
+        this.inspectAgain = again;
         return this;
     }
 
@@ -792,6 +805,9 @@ public final class BatchInspection {
             FootprintStore.read(footprintsPartial, keptFootprints, BatchInspection::key);
             if (!keepErrors) {
                 kept.values().removeIf(r -> WaferResult.Status.ERROR.key().equals(r.get("status"))); // tried again
+            }
+            if (inspectAgain != null) {
+                kept.values().removeIf(r -> inspectAgain.test(r.get("file")));
             }
         }
         List<Path> todo = new ArrayList<>();
