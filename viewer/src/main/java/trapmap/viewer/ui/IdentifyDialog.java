@@ -52,6 +52,7 @@ import trapmap.viewer.graphics.Categories;
 import trapmap.viewer.graphics.ChartExport;
 import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.graphics.Labels;
+import trapmap.viewer.model.ConditionOverrides;
 import trapmap.viewer.model.StackIdentification;
 import trapmap.viewer.model.StackIdentification.Layer;
 import trapmap.viewer.model.ViewerModel;
@@ -301,15 +302,31 @@ final class IdentifyDialog extends JDialog {
         for (File f : fc.getSelectedFiles()) {
             files.add(f.toPath());
         }
-        try {
-            for (StackIdentification.Input in : StackIdentification.read(files, model.analysis().conditions())) {
-                inputs.addElement(in);
+        // the maps are read off the event thread (a large TIFF takes a while); the list grows when they are read
+        ConditionOverrides window = model.analysis().conditions();
+        phase.setForeground(Color.DARK_GRAY);
+        phase.setText("reading " + files.size() + (files.size() == 1 ? " map…" : " maps…"));
+        new SwingWorker<List<StackIdentification.Input>, Void>() {
+            @Override
+            protected List<StackIdentification.Input> doInBackground() throws IOException {
+                return StackIdentification.read(files, window);
             }
-            phase.setText(" ");
-        } catch (IOException | RuntimeException e) {
-            phase.setText(e.getMessage());
-            phase.setForeground(new Color(0xD03030));
-        }
+
+            @Override
+            protected void done() {
+                try {
+                    for (StackIdentification.Input in : get()) {
+                        inputs.addElement(in);
+                    }
+                    phase.setText(" ");
+                } catch (java.util.concurrent.ExecutionException e) {
+                    phase.setText(e.getCause().getMessage());
+                    phase.setForeground(new Color(0xD03030));
+                } catch (InterruptedException e) {
+                    Thread.currentThread().interrupt();
+                }
+            }
+        }.execute();
     }
 
     /** Runs the identification off the Event Dispatch Thread. */

@@ -90,7 +90,8 @@ public final class GuiScenario {
         }
     }
 
-    private static javax.swing.JMenuItem findMenuItem(javax.swing.JMenuBar bar, String text) {
+    /** The menu item of {@code bar} with the text {@code text}. */
+    static javax.swing.JMenuItem findMenuItem(javax.swing.JMenuBar bar, String text) {
         for (int i = 0; i < bar.getMenuCount(); i++) {
             javax.swing.JMenu menu = bar.getMenu(i);
             for (int k = 0; k < menu.getItemCount(); k++) {

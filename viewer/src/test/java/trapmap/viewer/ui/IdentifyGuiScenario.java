@@ -30,7 +30,7 @@ public final class IdentifyGuiScenario {
             ViewerModel m = w.model();
             GuiScenario.waitFor("the maps opened", () -> m.size() == 3 && w.idle());
             GuiScenario.onEdt(() -> {
-                findMenuItem(w.getJMenuBar(), "Identify defect from injection levels…").doClick();
+                GuiScenario.findMenuItem(w.getJMenuBar(), "Identify defect from injection levels…").doClick();
                 return null;
             });
             GuiScenario.waitFor("the identification finished", () -> w.identifyDialog() != null
@@ -107,18 +107,5 @@ public final class IdentifyGuiScenario {
             t.printStackTrace(System.out);
             System.exit(1);
         }
-    }
-
-    private static javax.swing.JMenuItem findMenuItem(javax.swing.JMenuBar bar, String text) {
-        for (int i = 0; i < bar.getMenuCount(); i++) {
-            javax.swing.JMenu menu = bar.getMenu(i);
-            for (int k = 0; k < menu.getItemCount(); k++) {
-                javax.swing.JMenuItem item = menu.getItem(k);
-                if (item != null && text.equals(item.getText())) {
-                    return item;
-                }
-            }
-        }
-        throw new IllegalStateException("no menu item '" + text + "'");
     }
 }
