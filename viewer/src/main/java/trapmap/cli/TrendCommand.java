@@ -19,24 +19,21 @@ import picocli.CommandLine.Spec;
 import trapmap.maps.trend.Baseline;
 import trapmap.maps.trend.ChartPoint;
 import trapmap.maps.trend.ControlChart;
-import trapmap.maps.trend.GroupCharts;
 import trapmap.maps.trend.GroupYield;
 import trapmap.maps.trend.ParetoEntry;
 import trapmap.maps.trend.Signal;
-import trapmap.maps.trend.TrendAnalysis;
-import trapmap.maps.trend.TrendPoint;
 import trapmap.maps.trend.TrendResult;
 import trapmap.maps.trend.TrendTables;
 import trapmap.shared.error.InvalidValueException;
 import trapmap.store.ResultsStore;
 import trapmap.store.StoreException;
-import trapmap.store.StoredPoint;
+import trapmap.store.StoreTrend;
 import trapmap.viewer.report.TrendReport;
 
 /**
  * {@code trapmap trend --store S --figure F -o trend.pdf|png|csv}: control charts of one figure over time from a
  * results store, with the run-rule signals, the yield per group and the Pareto of failed rules. The computation is
- * {@link TrendAnalysis}; this class reads the store, converts the options and writes.
+ * {@link StoreTrend} (over {@code trapmap.maps.trend}); this class converts the options and writes.
  */
 @Command(name = "trend", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, sortOptions = false,
         usageHelpAutoWidth = true,
@@ -115,35 +112,22 @@ final class TrendCommand implements Callable<Integer> {
         Baseline baseline = baselineUntil != null ? Baseline.before(time("--baseline-until", baselineUntil))
                 : Baseline.first(baselineCount == null ? Baseline.DEFAULT_COUNT : baselineCount);
         Instant from = since == null ? null : time("--since", since);
-        List<StoredPoint> stored;
+        StoreTrend.Request request = new StoreTrend.Request(figure, by, from, profile, baseline);
+        StoreTrend.Outcome outcome;
         try (ResultsStore s = ResultsStore.open(store)) {
-            stored = s.points(figure, by, from, profile);
+            outcome = StoreTrend.analyse(s, request);
         } catch (StoreException e) {
             throw new InputException("--store " + Flags.oneLine(e.getMessage()));
-        }
-        if (stored.isEmpty()) {
-            throw new InputException("--store " + store + " holds no wafer" + (from == null ? "" : " since " + from)
-                    + (profile == null ? "" : " of profile " + profile));
-        }
-        List<TrendPoint> points = new ArrayList<>(stored.size());
-        for (StoredPoint p : stored) {
-            points.add(new TrendPoint(p.measured() ? p.time() : null, p.group(), p.value(), p.pass(),
-                    p.failedRules()));
-        }
-        TrendResult r;
-        try {
-            r = TrendAnalysis.analyse(points, baseline, ResultsStore.groupsByAttribute(by)
-                    ? GroupCharts.PER_GROUP_INDIVIDUALS : GroupCharts.SUBGROUP_MEANS);
         } catch (InvalidValueException e) {
-            String flag = baselineUntil != null ? "--baseline-until" : "--baseline";
-            throw new InputException(("by".equals(e.field()) ? "--by" : flag) + ": " + e.getMessage()
-                    + " (" + figure + " in " + store + ": " + stored.size() + " wafers, "
-                    + r0(points) + " with a measured time and a value)");
+            String flag = switch (e.field()) {
+                case "store" -> "--store";
+                case "by" -> "--by";
+                default -> baselineUntil != null ? "--baseline-until" : "--baseline";
+            };
+            throw new InputException(flag + ("--store".equals(flag) ? " " : ": ") + e.getMessage());
         }
-        String subtitle = "store " + store + "; figure " + figure + "; by " + by + "; baseline " + baseline.describe()
-                + (from == null ? "" : "; since " + from) + (profile == null ? "" : "; profile " + profile) + "; "
-                + r.wafers() + " wafers, " + r.withoutTime() + " without a measured time, " + r.withoutValue()
-                + " without a value (left out of the charts)";
+        TrendResult r = outcome.result();
+        String subtitle = "store " + store + "; " + outcome.describe();
         TrendReport.Caption caption = new TrendReport.Caption(figure, subtitle);
         boolean drawn = true;
         if (ext.equals("csv")) {
@@ -164,7 +148,7 @@ final class TrendCommand implements Callable<Integer> {
                 err.flush();
             }
         }
-        long late = lateSignals(r);
+        long late = outcome.lateSignals();
         PrintWriter o = spec.commandLine().getOut();
         if (json) {
             o.println(Output.json(json(r, subtitle, baseline)));
@@ -180,23 +164,6 @@ final class TrendCommand implements Callable<Integer> {
             return Exit.REPORT_MISSING;
         }
         return late > 0 ? Exit.TREND_SIGNALS : Exit.OK;
-    }
-
-    private static long r0(List<TrendPoint> points) {
-        return points.stream().filter(TrendPoint::charted).count();
-    }
-
-    /** Signals at points outside the baseline. */
-    static long lateSignals(TrendResult r) {
-        long n = 0;
-        for (ControlChart c : r.charts()) {
-            for (Signal s : c.signals()) {
-                if (!c.points().get(s.index()).baseline()) {
-                    n++;
-                }
-            }
-        }
-        return n;
     }
 
     /** A UTC date (its start) or an ISO-8601 instant. */
