@@ -267,6 +267,33 @@ public final class ResultsStore implements AutoCloseable {
         }
     }
 
+    /**
+     * The runs that judge as run {@code runId} does: the same rules and physics settings (by their SHA-256), itself
+     * included; a map inspected by any of them gets the same {@link #resultKey}.
+     *
+     * @throws StoreException naming the store and the run
+     */
+    public synchronized java.util.Set<String> runsJudgingAs(String runId) {
+        try {
+            String[] hashes = runHashes(runId);
+            java.util.Set<String> out = new java.util.TreeSet<>();
+            try (PreparedStatement p = connection.prepareStatement(
+                    "SELECT run_id FROM runs WHERE rules_sha256 = ? AND settings_sha256 = ?")) {
+                p.setString(1, hashes[0]);
+                p.setString(2, hashes[1]);
+                try (ResultSet rs = p.executeQuery()) {
+                    while (rs.next()) {
+                        out.add(rs.getString(1));
+                    }
+                }
+            }
+            return out;
+        } catch (SQLException e) {
+            throw new StoreException("store " + name + ": the runs like " + runId + " could not be read: "
+                    + oneLine(e), e);
+        }
+    }
+
     /** The rules' and settings' SHA-256 of a run. */
     private String[] runHashes(String runId) throws SQLException {
         try (PreparedStatement p = connection.prepareStatement(
@@ -460,7 +487,7 @@ public final class ResultsStore implements AutoCloseable {
             args.add(profile);
         }
         String sql = "SELECT w.result_key, w.measured_at_ms, w.inspected_at_ms, w.lot, w.verdict, w.wafer_id,"
-                + " w.file, w.profile, f.value, " + (byAttribute ? "a.value" : "NULL")
+                + " w.file, w.profile, f.value, " + (byAttribute ? "a.value" : "NULL") + ", w.run_id"
                 + " FROM wafers w LEFT JOIN wafer_figures f ON f.result_key = w.result_key AND f.figure = ?"
                 + (byAttribute ? " LEFT JOIN wafer_attributes a ON a.result_key = w.result_key AND a.name = ?" : "")
                 + where + " ORDER BY COALESCE(w.measured_at_ms, w.inspected_at_ms), w.wafer_id, w.file";
@@ -496,7 +523,7 @@ public final class ResultsStore implements AutoCloseable {
                         };
                         points.add(new StoredPoint(time, isMeasured, group == null ? NO_GROUP : group, value,
                                 "pass".equals(verdict), verdict, failed.getOrDefault(key, List.of()), rs.getString(6),
-                                lot, rs.getString(7), rs.getString(8)));
+                                lot, rs.getString(7), rs.getString(8), rs.getString(11)));
                     }
                 }
             }

@@ -28,6 +28,9 @@ public final class StoreWriter implements BatchInspection.WaferListener, AutoClo
     private final Thread thread;
     private volatile StoreException failure;
     private volatile int stored;
+    /** Wafers handed to the writer's thread, and those it has dealt with (stored, or passed over after a failure). */
+    private long handed;
+    private long done;
 
     /**
      * Starts the writer of run {@code runId} ({@link ResultsStore#startRun}); {@code lotPattern}: the rules' lot
@@ -49,6 +52,9 @@ public final class StoreWriter implements BatchInspection.WaferListener, AutoClo
             return;
         }
         try {
+            synchronized (this) {
+                handed++;
+            }
             queue.put(result);
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt(); // the batch sees it and stops
@@ -66,10 +72,10 @@ public final class StoreWriter implements BatchInspection.WaferListener, AutoClo
             if (r == END) {
                 return;
             }
-            if (failure != null) {
-                continue; // keep taking so that the batch never waits for a stopped writer
-            }
             try {
+                if (failure != null) {
+                    continue; // keep taking so that the batch never waits for a stopped writer
+                }
                 WaferRecord rec = WaferRecord.of(r, lotPattern);
                 rec.warnings().forEach(warnings);
                 store.write(runId, rec);
@@ -78,7 +84,29 @@ public final class StoreWriter implements BatchInspection.WaferListener, AutoClo
                 failure = e;
             } catch (RuntimeException e) {
                 failure = new StoreException("store " + store.name() + ": wafer " + r.file() + " not written: " + e, e);
+            } finally {
+                synchronized (this) {
+                    done++;
+                    notifyAll();
+                }
             }
+        }
+    }
+
+    /**
+     * Waits until every wafer handed over so far has been stored (the store then holds them, e.g. for a trend over
+     * it), and keeps the writer open for more; throws the first failure.
+     *
+     * @throws InterruptedException when interrupted while waiting
+     */
+    public void awaitStored() throws InterruptedException {
+        synchronized (this) {
+            while (done < handed && thread.isAlive()) {
+                wait(1000);
+            }
+        }
+        if (failure != null) {
+            throw failure;
         }
     }
 

@@ -20,10 +20,18 @@ import java.util.List;
  * @param lot         lot, or null
  * @param file        the map file as given to the run
  * @param profile     the rules profile that judged it
+ * @param runId       the store run that wrote the wafer's result last ({@link ResultsStore#startRun}), or null
  */
 public record StoredPoint(Instant time, boolean measured, String group, double value, boolean pass, String verdict,
-                          List<String> failedRules, String waferId, String lot, String file, String profile) {
+                          List<String> failedRules, String waferId, String lot, String file, String profile,
+                          String runId) {
     public StoredPoint {
         failedRules = List.copyOf(failedRules);
+    }
+
+    /** A point without its run. */
+    public StoredPoint(Instant time, boolean measured, String group, double value, boolean pass, String verdict,
+                       List<String> failedRules, String waferId, String lot, String file, String profile) {
+        this(time, measured, group, value, pass, verdict, failedRules, waferId, lot, file, profile, null);
     }
 }
