@@ -2,9 +2,12 @@ package trapmap.cli;
 
 import java.io.PrintWriter;
 import java.time.Instant;
+import java.util.List;
 import java.util.regex.Pattern;
 import trapmap.maps.batch.RunManifest;
+import trapmap.maps.trend.TrendSettings;
 import trapmap.physics.conversion.PhysicsSettings;
+import trapmap.store.BatchTrend;
 import trapmap.store.ResultsStore;
 import trapmap.store.RunInfo;
 import trapmap.store.StoreException;
@@ -68,6 +71,25 @@ final class StoreOutput {
         } catch (StoreException e) {
             return true;
         }
+    }
+
+    /**
+     * The trend of {@code settings} over the store once every wafer told so far is stored ({@link BatchTrend#of}),
+     * the batch's wafers being the results of {@code files} under this run's rules; a wafer that could not be stored
+     * or a trend that cannot be charted gives the trend's reason instead (the store's failure is also told when it
+     * closes).
+     */
+    BatchTrend trend(TrendSettings settings, List<String> files) throws java.io.InterruptedIOException {
+        try {
+            writer.awaitStored();
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new java.io.InterruptedIOException("trend cancelled");
+        } catch (StoreException e) {
+            return BatchTrend.failed(settings, results.name(), "not every wafer of this run was stored: "
+                    + e.getMessage());
+        }
+        return BatchTrend.of(results, settings, runId, files);
     }
 
     /**

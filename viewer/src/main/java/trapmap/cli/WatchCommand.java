@@ -156,6 +156,8 @@ final class WatchCommand implements Callable<Integer> {
                 spec.qualifiedName(), err);
         StoreWriter storing = storeOutput == null ? null : storeOutput.writer();
         StoreWriter stored = storing;
+        BatchReport.TrendSource trend = storeOutput == null ? null : rules.trend()
+                .<BatchReport.TrendSource>map(t -> rowFiles -> storeOutput.trend(t, rowFiles)).orElse(null);
         Alarm alarm = new Alarm(onFail, alarmFile, line -> {
             synchronized (err) {
                 err.println("watch: " + line);
@@ -171,7 +173,7 @@ final class WatchCommand implements Callable<Integer> {
                     if (summaryPdf) {
                         b.finishingWith((dir, recurrence) -> {
                             if (!pictures.run(BatchReport.FILE_NAME,
-                                    () -> BatchReport.writeFor(dir, rules, recurrence))) {
+                                    () -> BatchReport.writeFor(dir, rules, recurrence, trend))) {
                                 Files.deleteIfExists(dir.resolve(BatchReport.FILE_NAME));
                             }
                         });

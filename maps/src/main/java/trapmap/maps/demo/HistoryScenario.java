@@ -91,6 +91,11 @@ public final class HistoryScenario {
 
     /** Name of the rules file written with the history. */
     public static final String RULES = "rules-history.json";
+    /**
+     * The end of the baseline of the rules' {@code trend} block: the first 7 days, well before {@link #CHANGE_AT}, so
+     * that each tube's limits come from its steady wafers only.
+     */
+    public static final Instant TREND_BASELINE_UNTIL = START.plus(Duration.ofDays(7));
 
     private HistoryScenario() {
     }

@@ -144,9 +144,12 @@ final class HistorySetFiles {
 
     /**
      * Rules for the history: interstitial iron, a median limit that the drifting tube crosses about a week after
-     * the change, and a limit on interior regions that the bad slot's spot fails.
+     * the change, a limit on interior regions that the bad slot's spot fails, and a trend block that follows the
+     * median per furnace tube against the first week ({@link HistoryScenario#TREND_BASELINE_UNTIL}), so that a batch
+     * stored with {@code --store} gets its trend page and a watch its alarm on a point beyond 3σ.
      */
     static String rules() {
+        String day = HistoryScenario.TREND_BASELINE_UNTIL.toString().substring(0, 10);
         return """
                 {
                   "defect": "fe-i",
@@ -161,9 +164,15 @@ final class HistorySetFiles {
                     {"grade": "A", "when": {"trap_density_p50_cm3": {"max": 4e10}}},
                     {"grade": "B"}
                   ],
-                  "fail_grade": "R"
+                  "fail_grade": "R",
+                  "trend": {
+                    "figure": "trap_density_p50_cm3",
+                    "by": "furnace_tube",
+                    "baseline_until": "DAY",
+                    "alarm_rules": ["beyond_3_sigma"]
+                  }
                 }
-                """;
+                """.replace("DAY", day);
     }
 
     /** A round number in plain scientific form: 3e10. */

@@ -28,6 +28,9 @@ import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.process.ConversionSettings;
 import trapmap.maps.process.MapConversion;
+import trapmap.maps.trend.Baseline;
+import trapmap.maps.trend.RunRule;
+import trapmap.maps.trend.TrendSettings;
 import trapmap.physics.defect.DefectLibrary;
 
 class HistoryScenarioTest {
@@ -48,6 +51,19 @@ class HistoryScenarioTest {
         for (HistoryTruth.Wafer w : truth.wafers()) {
             results.put(w.file(), inspection.inspect(dir.resolve(w.file())));
         }
+    }
+
+    @Test
+    void theRulesFollowTheMedianPerTubeAgainstAWeekBeforeTheChange() throws Exception {
+        TrendSettings t = Rules.read(dir.resolve(HistoryScenario.RULES)).trend().orElseThrow();
+        assertThat(t.figure()).isEqualTo("trap_density_p50_cm3");
+        assertThat(t.by()).isEqualTo("furnace_tube");
+        assertThat(t.baseline()).isEqualTo(Baseline.before(Instant.parse("2026-10-12T00:00:00Z")));
+        assertThat(t.baseline().until()).isBefore(HistoryScenario.CHANGE_AT).isAfter(HistoryScenario.START);
+        assertThat(t.alarmRules()).containsExactly(RunRule.BEYOND_3_SIGMA);
+        // every wafer measured in the first week is in the baseline: each tube has lots of its own there
+        assertThat(truth.wafers().stream().filter(w -> w.measuredAt().isBefore(t.baseline().until()))
+                .map(HistoryTruth.Wafer::furnaceTube).distinct()).containsExactlyInAnyOrder("T1", "T2");
     }
 
     @Test

@@ -12,6 +12,7 @@ import java.util.TreeMap;
 import trapmap.maps.batch.HotSpots;
 import trapmap.maps.batch.Recurrence;
 import trapmap.maps.batch.Rules;
+import trapmap.store.BatchTrend;
 
 /**
  * What the batch summary shows, read from a batch's output folder ({@link BatchFolder}).
@@ -24,9 +25,23 @@ import trapmap.maps.batch.Rules;
  * @param hotSpots   when a recurrence cell is a hot spot
  * @param recurrenceLeftOut why wafers were left out of the recurrence maps ({@code RecurrenceMap.refused()}), one
  *                   line each
+ * @param trend      the trend of the rules' {@code trend} block over the batch's results store, after its wafers;
+ *                   null when the batch stored nothing or the rules have no such block (then no trend page)
  */
 public record BatchContent(Path outputDir, Rules rules, List<Row> rows, Map<String, Recurrence> recurrence,
-                           ZonedDateTime created, HotSpots.Criteria hotSpots, List<String> recurrenceLeftOut) {
+                           ZonedDateTime created, HotSpots.Criteria hotSpots, List<String> recurrenceLeftOut,
+                           BatchTrend trend) {
+
+    /** Content without a trend page. */
+    public BatchContent(Path outputDir, Rules rules, List<Row> rows, Map<String, Recurrence> recurrence,
+                        ZonedDateTime created, HotSpots.Criteria hotSpots, List<String> recurrenceLeftOut) {
+        this(outputDir, rules, rows, recurrence, created, hotSpots, recurrenceLeftOut, null);
+    }
+
+    /** The same content with the trend page of {@code t} (null: none). */
+    public BatchContent withTrend(BatchTrend t) {
+        return new BatchContent(outputDir, rules, rows, recurrence, created, hotSpots, recurrenceLeftOut, t);
+    }
 
     /** Content with no wafer left out of the recurrence maps. */
     public BatchContent(Path outputDir, Rules rules, List<Row> rows, Map<String, Recurrence> recurrence,

@@ -22,6 +22,7 @@ import trapmap.maps.batch.RecurrenceMap;
 import trapmap.maps.batch.Rules;
 import trapmap.maps.io.AtomicFiles;
 import trapmap.maps.model.Caution;
+import trapmap.store.BatchTrend;
 
 /**
  * The summary PDF of a batch inspection, made from what the batch wrote into its output folder
@@ -34,7 +35,9 @@ import trapmap.maps.model.Caution;
  *   <li>every wafer in a table ({@link WaferTable});</li>
  *   <li>the failed wafers, worst first, with pictures ({@link FailedWafersSection});</li>
  *   <li>the recurrence map of each wafer family with its hot spots ({@link RecurrenceSection});</li>
- *   <li>the files that could not be inspected ({@link ErrorSection}), and the caution.</li>
+ *   <li>the files that could not be inspected ({@link ErrorSection}), and the caution;</li>
+ *   <li>with a results store and the rules' {@code trend} block, the trend over the store on pages of its own
+ *       ({@link TrendSection}).</li>
  * </ol>
  * Works headless; pictures are embedded at {@value #SCALE}×; a list cut short says how much of it is shown.
  */
@@ -71,6 +74,33 @@ public final class BatchReport {
         Path pdf = outputDir.resolve(FILE_NAME);
         write(read(outputDir, rules, recurrence), pdf);
         return pdf;
+    }
+
+    /**
+     * As {@link #writeFor(Path, Rules, RecurrenceMap)}, with the trend page of {@code trend} (given the files of the
+     * batch's results rows; null: no trend page).
+     */
+    public static Path writeFor(Path outputDir, Rules rules, RecurrenceMap recurrence, TrendSource trend)
+            throws IOException {
+        Path pdf = outputDir.resolve(FILE_NAME);
+        BatchContent c = read(outputDir, rules, recurrence);
+        write(trend == null ? c : c.withTrend(trend.trend(files(c))), pdf);
+        return pdf;
+    }
+
+    /**
+     * The trend of a batch over its results store ({@link BatchTrend#of}), computed once the batch's wafers are
+     * stored.
+     */
+    @FunctionalInterface
+    public interface TrendSource {
+        /** The trend, {@code files} being the files of the batch's results rows. */
+        BatchTrend trend(List<String> files) throws IOException;
+    }
+
+    /** The files of the content's rows, in order. */
+    static List<String> files(BatchContent c) {
+        return c.rows().stream().map(BatchContent.Row::file).toList();
     }
 
     /** Reads the batch's results and writes {@value #FILE_NAME} into its output folder; returns the file. */
@@ -112,7 +142,10 @@ public final class BatchReport {
         ProfileSection.drawAll(flow, c);
     }
 
-    /** What comes after the wafer table: failed wafers, recurrence, errors and the caution; closes the last page. */
+    /**
+     * What comes after the wafer table: failed wafers, recurrence, errors and the caution, then the trend page when
+     * there is one; closes the last page.
+     */
     static void tail(ReportFlow flow, BatchContent c) throws IOException {
         tail(flow, c, r -> null);
     }
@@ -124,6 +157,9 @@ public final class BatchReport {
         ErrorSection.draw(flow, c);
         flow.down(8);
         flow.caution(Caution.TEXT);
+        if (c.trend() != null) { // last, on pages of its own: the pages before are those of a summary without it
+            TrendSection.draw(flow, c.trend());
+        }
         flow.close();
     }
 

@@ -78,6 +78,8 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
     private boolean finishedAhead;
     /** Whether {@link #write} ran (else {@link #close} interrupts the drawing thread). */
     private volatile boolean written;
+    /** The trend page's source, asked once the rows ended (after the batch's wafers were told); null: no page. */
+    private volatile BatchReport.TrendSource trend;
 
     /** The complete rows and the recurrence, as {@link #rowsEnded} was told them. */
     private record Ended(List<Map<String, String>> rows, boolean asTold, RecurrenceMap recurrence) {
@@ -102,6 +104,22 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
         SummaryDraft d = new SummaryDraft(outDir, rules, expectedRows, drawable);
         d.thread.start();
         return d;
+    }
+
+    /**
+     * Adds the trend page ({@link TrendSection}) of {@code source}, asked when the rows are complete (on the drawing
+     * thread, beside the batch's tables, or by {@link #write}); null: none. Call before the batch starts. Returns
+     * this draft.
+     */
+    public SummaryDraft withTrend(BatchReport.TrendSource source) {
+        this.trend = source;
+        return this;
+    }
+
+    /** The content with the trend page, when there is one. */
+    private BatchContent trended(BatchContent c) throws IOException {
+        BatchReport.TrendSource t = trend;
+        return t == null ? c : c.withTrend(t.trend(BatchReport.files(c)));
     }
 
     /** A results row the batch wrote (its cells as made, before {@code CsvCells.text}); returns at once. */
@@ -208,13 +226,13 @@ public final class SummaryDraft implements BatchInspection.RowListener, AutoClos
             dropDocument();
             drewAhead = false;
             try (PDDocument d = new PDDocument()) {
-                BatchReport.draw(d, content(e.rows(), e.recurrence()));
+                BatchReport.draw(d, trended(content(e.rows(), e.recurrence())));
                 d.save(bytes);
             }
             return bytes.toByteArray();
         }
-        BatchContent c = new BatchContent(outDir, rules, rows, e.recurrence().families(), null,
-                HotSpots.Criteria.DEFAULT, e.recurrence().refused());
+        BatchContent c = trended(new BatchContent(outDir, rules, rows, e.recurrence().families(), null,
+                HotSpots.Criteria.DEFAULT, e.recurrence().refused()));
         table.end();
         BatchReport.describe(doc);
         try (ReportFlow head = new ReportFlow(doc, tableStart)) {
