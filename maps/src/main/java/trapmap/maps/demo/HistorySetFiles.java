@@ -224,8 +224,10 @@ final class HistorySetFiles {
                 + " tube, slot, furnace and measuring times,\n  `drift_factor`, `centre_fe_i_cm3` (planted Fe_i at"
                 + " the centre, cm⁻³) and the spot with its probe pixel.\n");
         sb.append("- `" + HistoryScenario.RULES + "`: rules that judge the wafers: Fe_i median at most 6e10 cm⁻³"
-                + " and no interior\n  region above 3e11 cm⁻³ larger than 25 mm²; for example\n\n");
+                + " and no interior\n  region above 3e11 cm⁻³ larger than 25 mm², and follow that median per furnace tube"
+                + " (its `trend` block:\n  baseline the first week, alarm on a point beyond 3 sigma); for example\n\n");
         sb.append("      ./trapmap inspect DIR --rules DIR/" + HistoryScenario.RULES + " --out report\n");
+        sb.append("\n  and with `--store results.db` the summary ends with the trend of that median per tube.\n");
         return sb.toString();
     }
 }
