@@ -52,10 +52,10 @@ public final class StoreWriter implements BatchInspection.WaferListener, AutoClo
             return;
         }
         try {
-            synchronized (this) {
-                handed++;
-            }
             queue.put(result);
+            synchronized (this) {
+                handed++; // after the put: a wafer never queued is never waited for
+            }
         } catch (InterruptedException e) {
             Thread.currentThread().interrupt(); // the batch sees it and stops
         }

@@ -89,7 +89,11 @@ final class StoreOutput {
             return BatchTrend.failed(settings, results.name(), "not every wafer of this run was stored: "
                     + e.getMessage());
         }
-        return BatchTrend.of(results, settings, runId, files);
+        try {
+            return BatchTrend.of(results, settings, runId, files);
+        } catch (RuntimeException e) { // the page says why; the summary and the results stay as they are
+            return BatchTrend.failed(settings, results.name(), "the trend could not be computed: " + e);
+        }
     }
 
     /**
