@@ -64,16 +64,16 @@ final class ViewCommand implements Callable<Integer> {
             }
         }
         PhysicsOption.load(physics); // checked before any window opens
-        if (!ViewerLaunch.displayAvailable()) {
-            throw new InputException("no display available (DISPLAY is not set or does not answer); use"
-                    + " 'trapmap inspect' or 'trapmap stats' for the same figures without a window");
-        }
         if (store != null) {
             try {
                 StoreHistory.address(store);
             } catch (IllegalArgumentException e) {
                 throw new InputException("--store: " + e.getMessage());
             }
+        }
+        if (!ViewerLaunch.displayAvailable()) {
+            throw new InputException("no display available (DISPLAY is not set or does not answer); use"
+                    + " 'trapmap inspect' or 'trapmap stats' for the same figures without a window");
         }
         boolean none = files == null || files.isEmpty();
         List<Path> open = none && store == null ? List.of(ViewerLaunch.demoFolder(spec.commandLine().getErr()))
