@@ -224,7 +224,7 @@ final class HistoryDialog extends JDialog {
                 }
             }
         });
-        int[] widths = {110, 150, 50, 250, 60, 55};
+        int[] widths = {130, 110, 50, 240, 80, 65};
         for (int c = 0; c < widths.length; c++) {
             signalTable.getColumnModel().getColumn(c).setPreferredWidth(widths[c]);
         }
@@ -252,6 +252,12 @@ final class HistoryDialog extends JDialog {
         stack.setTransferHandler(drop);
         getRootPane().registerKeyboardAction(e -> dispose(), KeyStroke.getKeyStroke("ctrl W"),
                 JComponent.WHEN_IN_FOCUSED_WINDOW);
+        // the menu's Ctrl+H pressed here again brings this window forward; in a text field it is not a backspace
+        KeyStroke again = KeyStroke.getKeyStroke(java.awt.event.KeyEvent.VK_H, WindowMenus.MENU);
+        for (JTextField f : new JTextField[] {storeField, until}) {
+            f.getInputMap(JComponent.WHEN_FOCUSED).put(again, "none");
+        }
+        getRootPane().registerKeyboardAction(e -> toFront(), again, JComponent.WHEN_IN_FOCUSED_WINDOW);
         addWindowListener(new WindowAdapter() {
             @Override
             public void windowClosed(WindowEvent e) {
@@ -484,8 +490,8 @@ final class HistoryDialog extends JDialog {
         signalRows = StoreHistory.signals(r);
         signals.setRowCount(0);
         for (StoreHistory.SignalRow s : signalRows) {
-            signals.addRow(new Object[] {TIME.format(s.time()), s.title(), s.group(), s.rule() + (s.upward() ? " (up)"
-                    : " (down)"), Labels.compact(s.value()), s.inBaseline() ? "in" : "after"});
+            signals.addRow(new Object[] {TIME.format(s.time()), s.title(), s.group(), (s.upward() ? "↑ " : "↓ ")
+                    + s.rule(), Labels.compact(s.value()), s.inBaseline() ? "in" : "after"});
         }
         signalTable.getColumnModel().getColumn(4).setHeaderValue(unit.isEmpty() ? "value" : "value (" + unit + ")");
         signalTable.getTableHeader().repaint();
