@@ -23,8 +23,8 @@ import javax.swing.ButtonGroup;
 import javax.swing.JButton;
 import javax.swing.JComboBox;
 import javax.swing.JComponent;
-import javax.swing.JDialog;
 import javax.swing.JFileChooser;
+import javax.swing.JFrame;
 import javax.swing.JLabel;
 import javax.swing.JMenuItem;
 import javax.swing.JPanel;
@@ -70,9 +70,9 @@ import trapmap.viewer.report.TrendReport;
  * address typed), the figure, the grouping and the baseline; the control charts, signals and yield of
  * {@link StoreTrend} are read off the event thread and drawn by {@link TrendReport}'s charts (the same as {@code trapmap
  * trend}'s PDF and PNG); a click on a point opens the wafer behind it in the viewer (a menu of its wafers for a point
- * of several). The queries are {@link StoreHistory} and {@link StoreTrend}; this class only shows them.
+ * of several), and the viewer window comes to the front. The queries are {@link StoreHistory} and {@link StoreTrend}; this class only shows them.
  */
-final class HistoryDialog extends JDialog {
+final class HistoryDialog extends JFrame {
     private static final long serialVersionUID = 1L;
     private static final int CHART_HEIGHT = 300;
     private static final Color ERROR = new Color(0xB00020);
@@ -118,7 +118,8 @@ final class HistoryDialog extends JDialog {
     private boolean filling;
 
     HistoryDialog(ViewerWindow owner) {
-        super(owner, "History from a results store — trapmap", false);
+        // a window of its own (not owned by the viewer's): the viewer comes in front of it to show a clicked wafer
+        super("History from a results store — trapmap");
         this.window = owner;
         setName("historyDialog");
         setDefaultCloseOperation(DISPOSE_ON_CLOSE);
@@ -262,6 +263,12 @@ final class HistoryDialog extends JDialog {
             @Override
             public void windowClosed(WindowEvent e) {
                 closeStore();
+            }
+        });
+        owner.addWindowListener(new WindowAdapter() {
+            @Override
+            public void windowClosed(WindowEvent e) {
+                dispose(); // the viewer closed: its history window goes with it
             }
         });
         setQueryEnabled(false);
