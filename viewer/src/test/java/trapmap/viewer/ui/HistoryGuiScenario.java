@@ -47,6 +47,15 @@ public final class HistoryGuiScenario {
                 return null;
             });
             HistoryDialog d = GuiScenario.onEdt(w::historyDialog);
+            // a store that is not there: told at once, in red, and not made
+            String missingStore = store + ".missing";
+            System.out.println(GuiScenario.onEdt(() -> {
+                JTextField field = (JTextField) GuiScenario.find(d.getContentPane(), "historyStore");
+                field.setText(missingStore);
+                field.postActionEvent();
+                return "GUI-NOSTORE error=" + d.statusIsError() + " made=" + java.nio.file.Files.exists(
+                        Path.of(missingStore)) + " status=" + d.statusText();
+            }));
             GuiScenario.onEdt(() -> {
                 JTextField field = (JTextField) GuiScenario.find(d.getContentPane(), "historyStore");
                 field.setText(store);

@@ -239,6 +239,7 @@ class ViewerWindowGuiTest {
         Path png = dir.resolve("history.png");
         String out = runOnDisplay(HistoryGuiScenario.class, store.toString(), "4", "2", "2", "11", png.toString());
         assertThat(out).as("scenario output").doesNotContain("GUI-ERROR");
+        assertThat(out).contains("GUI-NOSTORE error=true made=false status=store " + store + ".missing does not exist");
         assertThat(out).contains("GUI-HISTORY figures=flagged_area_fraction,trap_density_p50_cm3"
                 + " figure=trap_density_p50_cm3 by=lot groupings=none,lot,day,week,furnace_tube charts=6");
         // charts by lot: X, mR, X-bar, R, yield, Pareto (three wafers failed); one yield row per lot
