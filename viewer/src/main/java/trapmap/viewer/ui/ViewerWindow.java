@@ -98,7 +98,7 @@ public final class ViewerWindow extends JFrame {
     private WaferAnalysis shownResult;
     private MapCanvas.Probe lastProbe;
     private IdentifyDialog identifyDialog;
-    private HistoryDialog historyDialog;
+    private HistoryWindow historyWindow;
     private java.util.List<Object> injectionKey;
     private final List<Consumer<ViewerModel.Change>> extraListeners = new ArrayList<>();
 
@@ -579,19 +579,19 @@ public final class ViewerWindow extends JFrame {
      * store in it.
      */
     void history(String store) {
-        if (historyDialog == null || !historyDialog.isDisplayable()) {
-            historyDialog = new HistoryDialog(this);
+        if (historyWindow == null || !historyWindow.isDisplayable()) {
+            historyWindow = new HistoryWindow(this);
         }
-        historyDialog.setVisible(true);
-        historyDialog.toFront();
+        historyWindow.setVisible(true);
+        historyWindow.toFront();
         if (store != null) {
-            historyDialog.openStore(store);
+            historyWindow.openStore(store);
         }
     }
 
     /** The last history window opened (null before), for tests. */
-    HistoryDialog historyDialog() {
-        return historyDialog;
+    HistoryWindow historyWindow() {
+        return historyWindow;
     }
 
     /** Opens the map {@code file} (when not open yet) and shows it, bringing this window forward. */

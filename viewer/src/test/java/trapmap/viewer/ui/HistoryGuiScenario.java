@@ -46,7 +46,7 @@ public final class HistoryGuiScenario {
                 GuiScenario.findMenuItem(w.getJMenuBar(), "History from a results store…").doClick();
                 return null;
             });
-            HistoryDialog d = GuiScenario.onEdt(w::historyDialog);
+            HistoryWindow d = GuiScenario.onEdt(w::historyWindow);
             // a store that is not there: told at once, in red, and not made
             String missingStore = store + ".missing";
             System.out.println(GuiScenario.onEdt(() -> {
@@ -161,7 +161,7 @@ public final class HistoryGuiScenario {
         return String.join(",", out);
     }
 
-    private static int chartIndex(HistoryDialog d, String title) {
+    private static int chartIndex(HistoryWindow d, String title) {
         List<ChartPanel> panels = d.chartPanels();
         for (int i = 0; i < panels.size(); i++) {
             if (panels.get(i).getChart().getTitle().getText().startsWith(title + ":")) {
@@ -172,7 +172,7 @@ public final class HistoryGuiScenario {
     }
 
     /** Whether chart {@code i} has been drawn (its points are entities to click). */
-    private static boolean painted(HistoryDialog d, int i) {
+    private static boolean painted(HistoryWindow d, int i) {
         List<ChartPanel> panels = d.chartPanels();
         if (panels.size() <= i) {
             return false;
@@ -182,7 +182,7 @@ public final class HistoryGuiScenario {
     }
 
     /** Scrolls chart {@code chart} into view, waits until it is drawn and clicks its point {@code point}. */
-    private static void click(HistoryDialog d, int chart, int point) throws Exception {
+    private static void click(HistoryWindow d, int chart, int point) throws Exception {
         GuiScenario.onEdt(() -> {
             ChartPanel p = d.chartPanels().get(chart);
             p.scrollRectToVisible(new java.awt.Rectangle(0, 0, p.getWidth(), p.getHeight()));
@@ -207,7 +207,7 @@ public final class HistoryGuiScenario {
     }
 
     /** The drawn point {@code point} (series of the values) of chart {@code chart}, or null. */
-    private static ChartEntity entity(HistoryDialog d, int chart, int point) {
+    private static ChartEntity entity(HistoryWindow d, int chart, int point) {
         EntityCollection all = d.chartPanels().get(chart).getChartRenderingInfo().getEntityCollection();
         for (int i = 0; i < all.getEntityCount(); i++) {
             if (all.getEntity(i) instanceof XYItemEntity e && e.getSeriesIndex() == 0 && e.getItem() == point) {

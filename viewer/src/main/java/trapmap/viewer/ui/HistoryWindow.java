@@ -72,7 +72,7 @@ import trapmap.viewer.report.TrendReport;
  * trend}'s PDF and PNG); a click on a point opens the wafer behind it in the viewer (a menu of its wafers for a point
  * of several), and the viewer window comes to the front. The queries are {@link StoreHistory} and {@link StoreTrend}; this class only shows them.
  */
-final class HistoryDialog extends JFrame {
+final class HistoryWindow extends JFrame {
     private static final long serialVersionUID = 1L;
     private static final int CHART_HEIGHT = 300;
     private static final Color ERROR = new Color(0xB00020);
@@ -113,15 +113,16 @@ final class HistoryDialog extends JFrame {
     private StoreTrend.Outcome outcome;
     private JPopupMenu lastMenu;
     private StoreHistory.MapFile lastOpened;
-    private int generation;
+    private int opening;
+    private int charting;
     private int running;
     private boolean filling;
 
-    HistoryDialog(ViewerWindow owner) {
+    HistoryWindow(ViewerWindow owner) {
         // a window of its own (not owned by the viewer's): the viewer comes in front of it to show a clicked wafer
         super("History from a results store — trapmap");
         this.window = owner;
-        setName("historyDialog");
+        setName("historyWindow");
         setDefaultCloseOperation(DISPOSE_ON_CLOSE);
         storeField.setName("historyStore");
         storeField.setToolTipText("A SQLite file written by 'trapmap inspect --store' (choose it or drop it here),"
@@ -321,7 +322,7 @@ final class HistoryDialog extends JFrame {
             showStatus(e.getMessage(), true);
             return;
         }
-        int g = ++generation;
+        int g = ++opening;
         busy(true, "opening " + a + " …");
         new SwingWorker<ResultsStore, Void>() {
             private StoreHistory.Choices choices;
@@ -345,13 +346,13 @@ final class HistoryDialog extends JFrame {
                 try {
                     opened = get();
                 } catch (InterruptedException | ExecutionException e) {
-                    if (g == generation) {
+                    if (g == opening) {
                         failed("store not opened", e);
                     }
                     return;
                 }
-                if (g != generation) {
-                    opened.close();
+                if (g != opening) {
+                    closeLater(opened); // another store was asked for meanwhile
                     return;
                 }
                 closeStore();
@@ -385,13 +386,22 @@ final class HistoryDialog extends JFrame {
 
     private void closeStore() {
         if (store != null) {
-            try {
-                store.close();
-            } catch (StoreException e) {
-                // closing a store that was read only: nothing is lost
-            }
+            closeLater(store);
             store = null;
         }
+    }
+
+    /** Closes {@code s} off the event thread: a query of it may still run, and closing waits for it. */
+    private static void closeLater(ResultsStore s) {
+        Thread t = new Thread(() -> {
+            try {
+                s.close();
+            } catch (StoreException e) {
+                // a store that was only read: nothing is lost
+            }
+        }, "trapmap-store-close");
+        t.setDaemon(true);
+        t.start();
     }
 
     // ---- chart ----------------------------------------------------------------------------------------------
@@ -419,7 +429,7 @@ final class HistoryDialog extends JFrame {
             return;
         }
         ResultsStore s = store;
-        int g = ++generation;
+        int g = ++charting;
         busy(true, "reading " + request.figure() + " by " + request.by() + " …");
         new SwingWorker<StoreTrend.Outcome, Void>() {
             @Override
@@ -430,8 +440,8 @@ final class HistoryDialog extends JFrame {
             @Override
             protected void done() {
                 busy(false, null);
-                if (g != generation) {
-                    return;
+                if (g != charting) {
+                    return; // a newer request (or another store) replaces this one
                 }
                 try {
                     show(get());
@@ -677,18 +687,6 @@ final class HistoryDialog extends JFrame {
     /** The last wafer asked to be opened, found or not; null before. */
     StoreHistory.MapFile lastOpened() {
         return lastOpened;
-    }
-
-    /** Selects a grouping (and charts), for tests and the command line. */
-    void choose(String figureName, String grouping) {
-        filling = true;
-        try {
-            figure.setSelectedItem(figureName);
-            by.setSelectedItem(grouping);
-        } finally {
-            filling = false;
-        }
-        chart();
     }
 
     /** The charts stacked one below the other, as wide as the view. */
