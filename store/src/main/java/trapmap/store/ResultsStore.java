@@ -566,6 +566,36 @@ public final class ResultsStore implements AutoCloseable {
         }
     }
 
+    /**
+     * The names of the figures the stored wafers have (a column of results.csv each, e.g.
+     * {@code trap_density_p50_cm3}), sorted by {@link String#compareTo} (the same order from SQLite and PostgreSQL,
+     * whatever the server's collation). A figure is listed when any wafer has a row for it, with or without a value.
+     */
+    public synchronized List<String> figures() {
+        return distinct("SELECT DISTINCT figure FROM wafer_figures", "figure names");
+    }
+
+    /**
+     * The names of the sidecar facts the stored wafers have ({@code boat_slot}, {@code furnace_tube}, {@code lot},
+     * {@code measured_at}, ...), sorted as {@link #figures}.
+     */
+    public synchronized List<String> attributeNames() {
+        return distinct("SELECT DISTINCT name FROM wafer_attributes", "fact names");
+    }
+
+    private List<String> distinct(String sql, String what) {
+        List<String> out = new ArrayList<>();
+        try (Statement s = connection.createStatement(); ResultSet rs = s.executeQuery(sql)) {
+            while (rs.next()) {
+                out.add(rs.getString(1));
+            }
+        } catch (SQLException e) {
+            throw new StoreException("store " + name + ": the " + what + " could not be read: " + oneLine(e), e);
+        }
+        out.sort(null);
+        return List.copyOf(out);
+    }
+
     /** Number of rows of a table (tests and checks). */
     synchronized long count(String table) {
         try (Statement s = connection.createStatement();

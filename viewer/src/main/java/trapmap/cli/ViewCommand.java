@@ -12,6 +12,7 @@ import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
 import trapmap.maps.batch.Rules;
 import trapmap.maps.batch.RulesException;
+import trapmap.viewer.model.StoreHistory;
 
 /** {@code trapmap view FILES…}: opens maps and folders in the desktop viewer. */
 @Command(name = "view", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, usageHelpAutoWidth = true,
@@ -20,7 +21,8 @@ import trapmap.maps.batch.RulesException;
             "Opens the given maps (TIFF or CSV with their sidecars) and folders of maps in the viewer window, or",
             "one saved session (.json); without FILES, the bundled demonstration set. With --rules, every wafer",
             "is judged by the rules file exactly as 'trapmap inspect' judges it. Needs a display. Returns",
-            "when the window is closed.",
+            "when the window is closed. With --store, the history window shows the control charts of that",
+            "results store (as 'trapmap trend'); without FILES the viewer then starts empty.",
             ""},
         footer = {"", "Exit codes: 0 closed normally; 2 no display, a file that does not exist or an invalid rules",
             "file."})
@@ -40,6 +42,11 @@ final class ViewCommand implements Callable<Integer> {
             + " Replaces the rules file's physics block.")
     Path physics;
 
+    @Option(names = "--store", paramLabel = "<store>", description = "Open the history window on this results store:"
+            + " a SQLite file written by 'inspect --store', or postgresql://host[:port]/database (user and password"
+            + " from PGUSER/PGPASSWORD or ~/.pgpass).")
+    String store;
+
     @Override
     public Integer call() throws IOException {
         if (files != null) {
@@ -57,13 +64,25 @@ final class ViewCommand implements Callable<Integer> {
             }
         }
         PhysicsOption.load(physics); // checked before any window opens
+        if (store != null) {
+            try {
+                StoreHistory.address(store);
+            } catch (IllegalArgumentException e) {
+                throw new InputException("--store: " + e.getMessage());
+            }
+        }
         if (!ViewerLaunch.displayAvailable()) {
             throw new InputException("no display available (DISPLAY is not set or does not answer); use"
                     + " 'trapmap inspect' or 'trapmap stats' for the same figures without a window");
         }
-        List<Path> open = files == null || files.isEmpty()
-                ? List.of(ViewerLaunch.demoFolder(spec.commandLine().getErr())) : files;
-        ViewerLaunch.open(open, rules, physics);
+        boolean none = files == null || files.isEmpty();
+        List<Path> open = none && store == null ? List.of(ViewerLaunch.demoFolder(spec.commandLine().getErr()))
+                : none ? List.of() : files;
+        if (store == null) {
+            ViewerLaunch.open(open, rules, physics);
+        } else {
+            ViewerLaunch.open(open, rules, physics, store);
+        }
         return Exit.OK;
     }
 }

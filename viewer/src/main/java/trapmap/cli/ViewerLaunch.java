@@ -46,6 +46,11 @@ final class ViewerLaunch {
         call("open", new Class<?>[] {List.class, Path.class, Path.class}, files, rules, physics);
     }
 
+    /** As {@link #open(List, Path, Path)}, with the history window open on the results store {@code store}. */
+    static void open(List<Path> files, Path rules, Path physics, String store) {
+        call("open", new Class<?>[] {List.class, Path.class, Path.class, String.class}, files, rules, physics, store);
+    }
+
     private static Object call(String method, Class<?>[] types, Object... args) {
         try {
             return Class.forName(APP).getMethod(method, types).invoke(null, args);

@@ -66,4 +66,14 @@ class ViewCommandTest {
         assertThat(r.errLines()).singleElement().asString().startsWith("trapmap view: --rules ")
                 .contains("bad-rules.json").contains("defect");
     }
+
+    @Test
+    void viewWithAStoreThatDoesNotExistNamesItAndMakesNone(@TempDir Path dir) {
+        Path store = dir.resolve("no-such-store.db");
+        Cli.Run r = Cli.run("view", "--store", store.toString());
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.errLines()).singleElement().asString().startsWith("trapmap view: --store: store ")
+                .contains("no-such-store.db does not exist");
+        assertThat(store).as("looking at a store never makes one").doesNotExist();
+    }
 }

@@ -52,6 +52,10 @@ public final class TrendReport {
     static final Color CENTRE = new Color(0x2E7D32);
     static final Color SIGNAL = new Color(0xD50000);
     static final Color BASELINE = new Color(0xEEF3FA);
+    /** The series of a control chart's points: item {@code i} is point {@code i} ({@link #controlChart}). */
+    public static final int VALUES_SERIES = 0;
+    /** The series of a control chart's signals: item {@code k} is signal {@code k} ({@link #controlChart}). */
+    public static final int SIGNALS_SERIES = 4;
     private static final int CHART_W = 1000;
     private static final int CHART_H = 380;
     /** Signals listed in the PDF; the rest are counted (all are in the CSV and JSON). */
@@ -69,8 +73,11 @@ public final class TrendReport {
     private TrendReport() {
     }
 
-    /** The charts in drawing order: the control charts, then yield and Pareto (when any wafer failed a rule). */
-    static List<JFreeChart> charts(TrendResult r, Caption caption) {
+    /**
+     * The charts in drawing order: the control charts (chart {@code i} draws {@code r.charts().get(i)}), then yield
+     * and Pareto (when any wafer failed a rule). The PDF, the PNG and the viewer's history window all draw these.
+     */
+    public static List<JFreeChart> charts(TrendResult r, Caption caption) {
         List<JFreeChart> out = new ArrayList<>();
         for (ControlChart c : r.charts()) {
             out.add(controlChart(c, caption.figure()));
@@ -82,7 +89,12 @@ public final class TrendReport {
         return out;
     }
 
-    static JFreeChart controlChart(ControlChart c, String figure) {
+    /**
+     * One control chart: series 0 the values (item {@code i} is point {@code i}), 1 the centre line, 2 and 3 the
+     * limits, 4 the points where a rule fires (item {@code k} is signal {@code k} of {@code c.signals()}); the
+     * baseline period shaded.
+     */
+    public static JFreeChart controlChart(ControlChart c, String figure) {
         XYSeries values = new XYSeries("values", false, true);
         XYSeries centre = new XYSeries("centre line", false, true);
         XYSeries upper = new XYSeries("upper limit (3σ)", false, true);
@@ -96,7 +108,7 @@ public final class TrendReport {
             if (p.baseline()) {
                 baselineEnd = Math.max(baselineEnd, t);
             }
-            values.add(t, Double.isNaN(p.value()) ? null : p.value());
+            values.add(t, Double.isNaN(p.value()) ? null : p.value()); // item i is point i (VALUES_SERIES)
             centre.add(t, p.centre());
             upper.add(t, p.upper());
             lower.add(t, p.lower());
@@ -149,7 +161,8 @@ public final class TrendReport {
         return chart;
     }
 
-    static JFreeChart yieldChart(List<GroupYield> yields) {
+    /** The yield per group as bars, %. */
+    public static JFreeChart yieldChart(List<GroupYield> yields) {
         DefaultCategoryDataset ds = new DefaultCategoryDataset();
         for (GroupYield y : yields) {
             ds.addValue(100.0 * y.yield(), "yield", y.group());
@@ -171,7 +184,8 @@ public final class TrendReport {
         return chart;
     }
 
-    static JFreeChart paretoChart(List<ParetoEntry> pareto) {
+    /** The failed rules as bars, most frequent first, with the cumulative share (%). */
+    public static JFreeChart paretoChart(List<ParetoEntry> pareto) {
         DefaultCategoryDataset bars = new DefaultCategoryDataset();
         DefaultCategoryDataset cumulative = new DefaultCategoryDataset();
         for (ParetoEntry p : pareto) {
@@ -312,6 +326,11 @@ public final class TrendReport {
     /** The chart drawn at twice its size for print. */
     private static BufferedImage picture(JFreeChart chart) {
         return chart.createBufferedImage(CHART_W * 2, CHART_H * 2, CHART_W, CHART_H, null);
+    }
+
+    /** The unit of a figure named as in results.csv, typeset as on the charts' axes ("cm⁻³"); "" when none. */
+    public static String unitOf(String figure) {
+        return DistributionChart.unitOf(figure);
     }
 
     /** Lower-case file extension of {@code p} ("" when none). */

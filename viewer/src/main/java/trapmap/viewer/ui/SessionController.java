@@ -41,6 +41,11 @@ final class SessionController {
 
     /** Opens files or folders in the background; the first becomes a recent entry. */
     void open(List<Path> paths) {
+        open(paths, null);
+    }
+
+    /** As {@link #open(List)}, then runs {@code then} on the event thread when the files are read (null: nothing). */
+    void open(List<Path> paths, Runnable then) {
         if (paths.isEmpty()) {
             return;
         }
@@ -67,6 +72,9 @@ final class SessionController {
                     }
                 } catch (Exception e) {
                     window.error("Opening failed", e);
+                }
+                if (then != null) {
+                    then.run();
                 }
             }
         }.execute();

@@ -64,8 +64,19 @@ public final class ViewerApp {
      * @throws IllegalArgumentException when the rules or physics file is not valid (the message names the field)
      */
     public static void open(List<Path> files, Path rules, Path physics) throws InterruptedException {
+        open(files, rules, physics, null);
+    }
+
+    /**
+     * As {@link #open(List, Path, Path)}, with the history window open on the results store {@code store} (a SQLite
+     * file or {@code postgresql://…}; null: none).
+     */
+    public static void open(List<Path> files, Path rules, Path physics, String store) throws InterruptedException {
         CountDownLatch closed = new CountDownLatch(1);
         ViewerWindow w = show(files, null, rules, physics);
+        if (store != null) {
+            SwingUtilities.invokeLater(() -> w.history(store));
+        }
         w.addWindowListener(new WindowAdapter() {
             @Override
             public void windowClosed(WindowEvent e) {

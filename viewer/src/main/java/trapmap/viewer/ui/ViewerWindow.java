@@ -98,6 +98,7 @@ public final class ViewerWindow extends JFrame {
     private WaferAnalysis shownResult;
     private MapCanvas.Probe lastProbe;
     private IdentifyDialog identifyDialog;
+    private HistoryWindow historyWindow;
     private java.util.List<Object> injectionKey;
     private final List<Consumer<ViewerModel.Change>> extraListeners = new ArrayList<>();
 
@@ -571,6 +572,38 @@ public final class ViewerWindow extends JFrame {
         if (identifyDialog.levels() >= 2) {
             identifyDialog.start();
         }
+    }
+
+    /**
+     * Opens (or brings forward) the history window over a results store; with {@code store} not null, opens that
+     * store in it.
+     */
+    void history(String store) {
+        if (historyWindow == null || !historyWindow.isDisplayable()) {
+            historyWindow = new HistoryWindow(this);
+        }
+        historyWindow.setVisible(true);
+        historyWindow.toFront();
+        if (store != null) {
+            historyWindow.openStore(store);
+        }
+    }
+
+    /** The last history window opened (null before), for tests. */
+    HistoryWindow historyWindow() {
+        return historyWindow;
+    }
+
+    /** Opens the map {@code file} (when not open yet) and shows it, bringing this window forward. */
+    void openAndShow(Path file) {
+        sessions.open(List.of(file), () -> {
+            int i = model.indexOf(file);
+            if (i >= 0) {
+                model.select(i);
+                status.setMessage("showing " + model.wafer(i).name() + " from the results store");
+            }
+            toFront();
+        });
     }
 
     /** The last identification dialog opened (null before), for tests. */

@@ -276,6 +276,9 @@ final class WindowMenus {
         analysis.add(item(action("Identify defect from injection levels…", KeyStroke.getKeyStroke(KeyEvent.VK_D,
                 MENU), e -> window.identify()), "Rank the library defects per pixel and region from maps of one wafer"
                 + " at several injection levels, with the lifetime fits and the DPSS"));
+        analysis.add(item(action("History from a results store…", KeyStroke.getKeyStroke(KeyEvent.VK_H, MENU),
+                e -> window.history(null)), "Control charts of a figure over the wafers of a results store (as"
+                + " trapmap trend), with the signals and the yield; click a point to open its wafer's map"));
         analysis.addSeparator();
         analysis.add(item(action("Exceedance settings…", KeyStroke.getKeyStroke(KeyEvent.VK_U, MENU),
                 e -> window.editExceedance()), "Threshold N* (cm⁻³), samples, seed and the uncertainties of the"
@@ -342,6 +345,7 @@ final class WindowMenus {
                 + "<tr><td>L</td><td>line tool</td></tr>"
                 + "<tr><td>Ctrl+K / Ctrl+I</td><td>compare / iron imaging</td></tr>"
                 + "<tr><td>Ctrl+D</td><td>identify the defect from injection levels</td></tr>"
+                + "<tr><td>Ctrl+H</td><td>history from a results store: control charts, signals, yield</td></tr>"
                 + "<tr><td>Ctrl+U</td><td>exceedance settings (N*, samples, uncertainties)</td></tr>"
                 + "<tr><td>Esc</td><td>cancel the running analysis</td></tr>"
                 + "</table></html>", "Keyboard shortcuts", JOptionPane.INFORMATION_MESSAGE);

@@ -208,6 +208,59 @@ class ViewerWindowGuiTest {
                 + " progress=false");
     }
 
+    @Test
+    void historyWindowChartsAStoreAndAClickedPointOpensItsWafer(@TempDir Path dir) throws Exception {
+        // twelve stored wafers, one an hour, lots L1..L4 of three, tubes T1 (L1, L3) and T2 (L2, L4); the maps are
+        // the demonstration set's, but the last wafer's map has been removed since it was stored
+        String[] maps = {"LOT-A01-W01", "LOT-A01-W02", "LOT-A01-W03", "LOT-A01-W04", "LOT-A01-W05", "LOT-A01-W06",
+            "LOT-A01-W07", "LOT-A01-W08", "LOT-N01-W01", "LOT-N01-W02", "LOT-N01-W03"};
+        Path store = dir.resolve("history.db");
+        java.time.Instant start = java.time.Instant.parse("2026-10-05T06:00:00Z");
+        try (trapmap.store.ResultsStore s = trapmap.store.ResultsStore.open(store.toString())) {
+            String run = s.startRun(new trapmap.store.RunInfo(start, "rules.json", "r", "{}", "s", "test"));
+            for (int i = 0; i < 12; i++) {
+                Path file = i < maps.length ? DEMO.resolve(maps[i] + ".tif") : dir.resolve("gone").resolve("H-W12.tif");
+                String lot = "L" + (i / 3 + 1);
+                double value = 3e10 * (1 + 0.05 * ((i * 7) % 5)) + (i >= 9 ? 3e10 : 0);
+                Map<String, Double> figures = new java.util.LinkedHashMap<>();
+                figures.put("trap_density_p50_cm3", value);
+                figures.put("flagged_area_fraction", 0.001 * i);
+                boolean pass = value < 5e10;
+                trapmap.maps.batch.WaferResult r = new trapmap.maps.batch.WaferResult(file.toString(),
+                        String.format(java.util.Locale.ROOT, "H-W%02d", i + 1), pass
+                        ? trapmap.maps.batch.WaferResult.Status.PASS : trapmap.maps.batch.WaferResult.Status.FAIL,
+                        pass ? "A" : "C", "default", "fe-i", figures, pass ? List.of() : List.of("trap_density_p50_cm3"),
+                        List.of(), List.of(), "", null);
+                java.time.Instant t = start.plusSeconds(3600L * i);
+                s.write(run, new trapmap.store.WaferRecord(r, "sha" + i, Map.of("lot", lot, "measured_at",
+                        t.toString(), "furnace_tube", (i / 3) % 2 == 0 ? "T1" : "T2"), lot, t, List.of()));
+            }
+        }
+        Path png = dir.resolve("history.png");
+        String out = runOnDisplay(HistoryGuiScenario.class, store.toString(), "4", "2", "2", "11", png.toString());
+        assertThat(out).as("scenario output").doesNotContain("GUI-ERROR");
+        assertThat(out).contains("GUI-NOSTORE error=true made=false status=store " + store + ".missing does not exist");
+        assertThat(out).contains("GUI-HISTORY figures=flagged_area_fraction,trap_density_p50_cm3"
+                + " figure=trap_density_p50_cm3 by=lot groupings=none,lot,day,week,furnace_tube charts=6");
+        // charts by lot: X, mR, X-bar, R, yield, Pareto (three wafers failed); one yield row per lot
+        assertThat(out).containsPattern("yields=4 status=12 wafers; \\d+ signal\\(s\\) after the baseline");
+        // the 5th wafer in time is the 5th map; opened and shown in the viewer
+        assertThat(out).contains("GUI-OPENED point=4 shown=LOT-A01-W05.tif open=1");
+        // lot L3 (wafers 7-9) offers its three wafers; the third is LOT-N01-W01's map
+        assertThat(out).contains("GUI-MENU point=2 wafers=H-W07,H-W08,H-W09");
+        assertThat(out).contains("GUI-CHOSEN wafer=H-W09 shown=LOT-N01-W01.tif open=2");
+        Matcher missing = Pattern.compile("GUI-MISSING point=11 error=true opened=0 status=(.*)").matcher(out);
+        assertThat(missing.find()).as("missing line in:%n%s", out).isTrue();
+        assertThat(missing.group(1)).contains("wafer H-W12", "H-W12.tif", "is no longer there");
+        assertThat(out).contains("GUI-TUBES charts=individuals (X);moving range (mR);individuals (X) of T1;"
+                + "moving range (mR) of T1;individuals (X) of T2;moving range (mR) of T2;Yield per group;"
+                + "Pareto of failed rules");
+        assertThat(out).contains("GUI-EXPORT status=written: " + png);
+        java.awt.image.BufferedImage img = javax.imageio.ImageIO.read(png.toFile());
+        assertThat(img.getWidth()).isEqualTo(1000);
+        assertThat(img.getHeight()).as("8 charts of 380 px, as trend -o .png draws them").isEqualTo(8 * 380);
+    }
+
     private static Path onPath(String name) {
         String path = System.getenv("PATH");
         if (path == null) {
