@@ -7,7 +7,13 @@ import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
 import java.io.IOException;
 import java.nio.file.Path;
+import java.time.Instant;
+import java.time.LocalDate;
+import java.time.ZoneOffset;
+import java.time.format.DateTimeParseException;
 import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.EnumSet;
 import java.util.Iterator;
 import java.util.LinkedHashSet;
 import java.util.List;
@@ -23,6 +29,9 @@ import trapmap.maps.io.PhysicsSettingsFile;
 import trapmap.maps.io.UncertaintySettings;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.region.RegionCriteria;
+import trapmap.maps.trend.Baseline;
+import trapmap.maps.trend.RunRule;
+import trapmap.maps.trend.TrendSettings;
 import trapmap.physics.conversion.PhysicsSettings;
 import trapmap.physics.defect.DefectLibrary;
 import trapmap.physics.material.ConductivityType;
@@ -47,11 +56,16 @@ import trapmap.shared.text.TextLimits;
  * @param failGrade       grade of a wafer that fails a limit ("" for none)
  * @param profiles        other ways of judging the maps they match (their defect, flag, limits, grades)
  * @param physics         the physics settings every wafer is converted with (the {@code physics} block)
+ * @param trend           the trend followed over a results store (the {@code trend} block), empty when none: then
+ *                        no trend page and no signal alarm
  */
 public record Rules(MeasurementConditions conditions, boolean override, String defectId, double edgeExclusionMm,
                     WaferFormat waferFormat, double edgeBandMm, Flag flag, List<Limit> limits, List<Grade> grades,
-                    String failGrade, List<Profile> profiles, PhysicsSettings physics) {
+                    String failGrade, List<Profile> profiles, PhysicsSettings physics,
+                    Optional<TrendSettings> trend) {
 
+    /** The rules' top-level key of the {@link TrendSettings} block. */
+    public static final String TREND_KEY = "trend";
     /** Default width of the edge band of {@code edge_to_centre_ratio}, mm. */
     public static final double DEFAULT_EDGE_BAND_MM = 10;
     /** Name of the profile made of the top-level defect, flag, limits and grades. */
@@ -63,12 +77,21 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         failGrade = failGrade == null ? "" : failGrade;
         profiles = List.copyOf(profiles);
         physics = physics == null ? PhysicsSettings.DEFAULTS : physics;
+        trend = trend == null ? Optional.empty() : trend;
+    }
+
+    /** Rules without a {@code trend} block. */
+    public Rules(MeasurementConditions conditions, boolean override, String defectId, double edgeExclusionMm,
+                 WaferFormat waferFormat, double edgeBandMm, Flag flag, List<Limit> limits, List<Grade> grades,
+                 String failGrade, List<Profile> profiles, PhysicsSettings physics) {
+        this(conditions, override, defectId, edgeExclusionMm, waferFormat, edgeBandMm, flag, limits, grades,
+                failGrade, profiles, physics, Optional.empty());
     }
 
     /** The same rules with other physics settings (a {@code --physics} file replaces the rules' block). */
     public Rules withPhysics(PhysicsSettings p) {
         return new Rules(conditions, override, defectId, edgeExclusionMm, waferFormat, edgeBandMm, flag, limits,
-                grades, failGrade, profiles, p);
+                grades, failGrade, profiles, p, trend);
     }
 
     /**
@@ -578,7 +601,8 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                 throw new RulesException(name + ": the rules must be a JSON object");
             }
             onlyKeys(root, "", new LinkedHashSet<>(List.of("conditions", "defect", "edge_exclusion_mm", "wafer",
-                    "edge_band_mm", "flag", "limits", "grades", "fail_grade", "profiles", "iron", "physics", LotPattern.KEY)));
+                    "edge_band_mm", "flag", "limits", "grades", "fail_grade", "profiles", "iron", "physics", LotPattern.KEY,
+                    TREND_KEY)));
             PhysicsSettings physics = PhysicsSettings.DEFAULTS;
             if (root.has("physics")) {
                 try {
@@ -659,8 +683,88 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                         + " need an injection stack: give them in a profile with a \"stack\"", "");
             }
             List<Profile> profiles = root.has("profiles") ? profiles(root.get("profiles"), top) : List.of();
+            Rules rules = new Rules(c, override, defect, edgeExclusion, format, edgeBand, flag, limits, grades,
+                    failGrade, profiles, physics);
+            if (!root.has(TREND_KEY) || root.get(TREND_KEY).isNull()) {
+                return rules;
+            }
+            TrendSettings trend = trend(object(root.get(TREND_KEY), TREND_KEY), rules.figures());
             return new Rules(c, override, defect, edgeExclusion, format, edgeBand, flag, limits, grades, failGrade,
-                    profiles, physics);
+                    profiles, physics, Optional.of(trend));
+        }
+
+        /**
+         * The {@code trend} block: {@code figure} (required, one the rules report), {@code by} (default
+         * {@value TrendSettings#DEFAULT_BY}), {@code baseline} (a count of charted wafers) or {@code baseline_until}
+         * (a UTC date or ISO-8601 time), {@code alarm_rules} (names of {@link RunRule}s in lower case; default
+         * {@code ["beyond_3_sigma"]}).
+         */
+        TrendSettings trend(JsonNode n, List<Figure> reported) throws RulesException {
+            String p = TREND_KEY;
+            onlyKeys(n, p, new LinkedHashSet<>(List.of("figure", "by", "baseline", "baseline_until",
+                    "alarm_rules")));
+            if (!n.has("figure")) {
+                throw error(p + ".figure", "is required: the figure charted, e.g. trap_density_p50_cm3", "");
+            }
+            String figure = text(n.get("figure"), p + ".figure", TextLimits.MAX_ID_CHARS);
+            try {
+                Figure.parse(figure);
+            } catch (IllegalArgumentException e) {
+                throw error(p + ".figure", e.getMessage(), "");
+            }
+            if (reported.stream().noneMatch(f -> f.name().equals(figure))) {
+                throw error(p + ".figure", "'" + figure + "' is not reported by these rules (they report "
+                        + String.join(", ", reported.stream().map(Figure::name).toList())
+                        + "); name it in a limit or grade to have it stored", "");
+            }
+            TrendSettings defaults = TrendSettings.defaults(figure);
+            String by = n.has("by") ? text(n.get("by"), p + ".by", TextLimits.MAX_ID_CHARS) : defaults.by();
+            if (n.has("baseline") && n.has("baseline_until")) {
+                throw error(p + ".baseline_until", "excludes " + p + ".baseline; give one", "");
+            }
+            Baseline baseline = defaults.baseline();
+            if (n.has("baseline")) {
+                JsonNode b = n.get("baseline");
+                double count = number(b, p + ".baseline", "charted wafers", 2, 1_000_000);
+                if (count != Math.rint(count)) {
+                    throw error(p + ".baseline", "must be a whole number but was " + b.asText(), "charted wafers");
+                }
+                baseline = Baseline.first((int) count);
+            } else if (n.has("baseline_until")) {
+                String t = text(n.get("baseline_until"), p + ".baseline_until");
+                try {
+                    baseline = Baseline.before(t.length() == 10
+                            ? LocalDate.parse(t).atStartOfDay(ZoneOffset.UTC).toInstant() : Instant.parse(t));
+                } catch (DateTimeParseException e) {
+                    throw error(p + ".baseline_until", "must be a UTC date (2026-10-12) or time"
+                            + " (2026-10-12T08:00:00Z) but was '" + t + "'", "");
+                }
+            }
+            Set<RunRule> alarm = defaults.alarmRules();
+            if (n.has("alarm_rules")) {
+                JsonNode a = n.get("alarm_rules");
+                if (!a.isArray()) {
+                    throw error(p + ".alarm_rules", "must be an array of run rules (" + runRuleKeys() + ") but is "
+                            + describe(a), "");
+                }
+                Set<RunRule> given = EnumSet.noneOf(RunRule.class);
+                for (int i = 0; i < a.size(); i++) {
+                    String q = p + ".alarm_rules[" + i + "]";
+                    String k = text(a.get(i), q, TextLimits.MAX_ID_CHARS);
+                    RunRule rule = Arrays.stream(RunRule.values()).filter(r -> TrendSettings.key(r).equals(k))
+                            .findFirst().orElseThrow(() -> error(q, "'" + k + "' is not a run rule; expected one of "
+                                    + runRuleKeys(), ""));
+                    if (!given.add(rule)) {
+                        throw error(q, "'" + k + "' is given twice", "");
+                    }
+                }
+                alarm = given;
+            }
+            return new TrendSettings(figure, by, baseline, alarm);
+        }
+
+        private static String runRuleKeys() {
+            return String.join(", ", Arrays.stream(RunRule.values()).map(TrendSettings::key).toList());
         }
 
         /** An exceedance figure is measured against the profile's trap-density flag threshold. */
