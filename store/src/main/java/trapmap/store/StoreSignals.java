@@ -12,6 +12,7 @@ import trapmap.maps.trend.ControlChart;
 import trapmap.maps.trend.RunRule;
 import trapmap.maps.trend.Signal;
 import trapmap.maps.trend.TrendResult;
+import trapmap.maps.trend.TrendSettings;
 import trapmap.shared.error.InvalidValueException;
 
 /**
@@ -48,7 +49,7 @@ public final class StoreSignals {
                          ChartPoint point, boolean upward) {
         /** The rule's name as the rules file writes it, e.g. {@code beyond_3_sigma}. */
         public String ruleName() {
-            return rule.name().toLowerCase(Locale.ROOT);
+            return TrendSettings.key(rule);
         }
 
         /** The signal in words: chart, rule, the point's time, value and limits. */
@@ -61,6 +62,16 @@ public final class StoreSignals {
         private static String number(double v) {
             return String.format(Locale.ROOT, "%.4g", v);
         }
+    }
+
+    /**
+     * The signals of the rules' {@code trend} block ({@link TrendSettings}: figure, grouping, baseline, alarm rules)
+     * that the wafers of {@code newFiles} bring, over every wafer of the store; see
+     * {@link #brought(ResultsStore, StoreTrend.Request, Set, Collection)}.
+     */
+    public static List<Raised> brought(ResultsStore store, TrendSettings settings, Collection<String> newFiles) {
+        return brought(store, new StoreTrend.Request(settings.figure(), settings.by(), null, null,
+                settings.baseline()), settings.alarmRules(), newFiles);
     }
 
     /**

@@ -6,6 +6,8 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Instant;
 import java.time.temporal.ChronoUnit;
+import java.util.ArrayList;
+import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.Callable;
@@ -26,6 +28,10 @@ import trapmap.maps.batch.RunRefusedException;
 import trapmap.maps.watch.Alarm;
 import trapmap.maps.watch.FolderWatch;
 import trapmap.shared.progress.ProgressListener;
+import trapmap.maps.trend.TrendSettings;
+import trapmap.shared.error.InvalidValueException;
+import trapmap.store.StoreException;
+import trapmap.store.StoreSignals;
 import trapmap.store.StoreWriter;
 import trapmap.viewer.report.BatchReport;
 
@@ -155,13 +161,19 @@ final class WatchCommand implements Callable<Integer> {
         StoreOutput storeOutput = store == null ? null : StoreOutput.open(store, source, rules.physics(), lots,
                 spec.qualifiedName(), err);
         StoreWriter storing = storeOutput == null ? null : storeOutput.writer();
-        StoreWriter stored = storing;
         Alarm alarm = new Alarm(onFail, alarmFile, line -> {
             synchronized (err) {
                 err.println("watch: " + line);
                 err.flush();
             }
         });
+        // the signal alarm: with a store and the rules' trend block, the wafers stored since the last look
+        SignalAlarm signals = storeOutput == null ? null
+                : rules.trend().map(t -> new SignalAlarm(storeOutput, t, alarm, o, err)).orElse(null);
+        BatchInspection.WaferListener stored = signals == null ? storing : (result, row) -> {
+            storing.wafer(result, row);
+            signals.stored(result.file());
+        };
         FolderWatch watch = new FolderWatch(new FolderWatch.Settings(incoming, out, settle, scan, !withoutSidecar,
                 idle, new BatchInspection.Options(n, true, thumbnails, ProgressListener.NONE)),
                 () -> {
@@ -178,18 +190,31 @@ final class WatchCommand implements Callable<Integer> {
                     }
                     return b;
                 },
-                row -> {
-                    Instant now = Instant.now().truncatedTo(ChronoUnit.SECONDS);
-                    String status = row.getOrDefault("status", "");
-                    String line = line(now, row);
-                    synchronized (o) {
-                        o.println(line);
-                        o.flush();
+                new FolderWatch.Listener() {
+                    @Override
+                    public void wafer(Map<String, String> row) {
+                        Instant now = Instant.now().truncatedTo(ChronoUnit.SECONDS);
+                        String status = row.getOrDefault("status", "");
+                        String line = line(now, row);
+                        synchronized (o) {
+                            o.println(line);
+                            o.flush();
+                        }
+                        if (!status.equals("pass")) {
+                            alarm.raise(now, waferId(row), status, row.getOrDefault("file", ""));
+                        }
                     }
-                    if (!status.equals("pass")) {
-                        alarm.raise(now, waferId(row), status, row.getOrDefault("file", ""));
+
+                    @Override
+                    public void round(BatchInspection.Summary summary) {
+                        if (signals != null) {
+                            signals.look();
+                        }
                     }
                 });
+        if (storeOutput != null) {
+            watch.inspectingAgain(storeOutput::missing); // kept wafers a killed watch did not store
+        }
         CountDownLatch ended = new CountDownLatch(1);
         Thread hook = new Thread(() -> {
             watch.stop();
@@ -210,6 +235,9 @@ final class WatchCommand implements Callable<Integer> {
             try {
                 outcome = watch.run();
             } finally {
+                if (signals != null) {
+                    signals.look(); // the wafers of a round that a stop cut short
+                }
                 alarm.close();
                 storeClosed = StoreOutput.close(storeOutput, spec.qualifiedName(), STORE_AGAIN, err);
             }
@@ -235,6 +263,78 @@ final class WatchCommand implements Callable<Integer> {
                 Runtime.getRuntime().removeShutdownHook(hook);
             } catch (IllegalStateException e) {
                 // shutting down: the hook is running
+            }
+        }
+    }
+
+    /**
+     * The watch's alarm on a control-chart signal: after each round, the signals of the rules' trend block that the
+     * wafers stored in it bring ({@link StoreSignals}), each told as one line on stdout and raised through the
+     * {@link Alarm}. The computation is the store's; this only hands it the round's wafers.
+     */
+    private static final class SignalAlarm {
+        private final StoreOutput store;
+        private final TrendSettings settings;
+        private final Alarm alarm;
+        private final PrintWriter out;
+        private final PrintWriter err;
+        private final List<String> files = new ArrayList<>();
+        private String waiting;
+
+        SignalAlarm(StoreOutput store, TrendSettings settings, Alarm alarm, PrintWriter out, PrintWriter err) {
+            this.store = store;
+            this.settings = settings;
+            this.alarm = alarm;
+            this.out = out;
+            this.err = err;
+        }
+
+        /** A wafer handed to the store (on the batch's writing thread). */
+        synchronized void stored(String file) {
+            files.add(file);
+        }
+
+        /** Waits for the wafers handed over so far to be stored, then raises the signals they bring. */
+        void look() {
+            List<String> round;
+            synchronized (this) {
+                round = List.copyOf(files);
+                files.clear();
+            }
+            if (round.isEmpty()) {
+                return;
+            }
+            try {
+                if (!store.writer().awaitStored()) {
+                    return; // the failed write is told when the store is closed
+                }
+                List<StoreSignals.Raised> raised = StoreSignals.brought(store.results(), settings, round);
+                waiting = null;
+                for (StoreSignals.Raised r : raised) {
+                    Instant now = Instant.now().truncatedTo(ChronoUnit.SECONDS);
+                    synchronized (out) {
+                        out.println(now + " " + r.waferId() + " " + Alarm.SIGNAL + " " + r.ruleName() + " "
+                                + r.group() + " " + r.figure() + ": " + r.describe());
+                        out.flush();
+                    }
+                    alarm.signal(now, r.waferId(), r.ruleName(), r.group(), r.figure());
+                }
+            } catch (InvalidValueException e) {
+                if (!e.getMessage().equals(waiting)) { // said once until it changes
+                    waiting = e.getMessage();
+                    tell("signal alarm waits: the trend cannot be charted yet: " + e.getMessage());
+                }
+            } catch (StoreException e) {
+                tell("signal alarm: " + e.getMessage() + "; the wafers' signals are not raised");
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+            }
+        }
+
+        private void tell(String line) {
+            synchronized (err) {
+                err.println("watch: " + line);
+                err.flush();
             }
         }
     }
