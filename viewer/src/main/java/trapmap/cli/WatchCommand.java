@@ -86,13 +86,14 @@ final class WatchCommand implements Callable<Integer> {
     boolean withoutSidecar;
 
     @Option(names = "--on-fail", paramLabel = "<CMD>", description = "Program run for each wafer that fails or"
-            + " cannot be inspected, with the wafer id and the verdict (fail or error) as its two arguments; started"
-            + " directly, never through a shell.")
+            + " cannot be inspected, with the wafer id and the verdict (fail or error) as its two arguments; with"
+            + " --store and a rules trend block also for each control-chart signal, with the five arguments WAFER_ID"
+            + " signal RULE GROUP FIGURE; started directly, never through a shell.")
     Path onFail;
 
     @Option(names = "--alarm-file", paramLabel = "<FILE>", description = "File to which one line is appended for"
             + " each wafer that fails or cannot be inspected: time (UTC), wafer id, verdict, file, separated by"
-            + " tabs.")
+            + " tabs; for a control-chart signal: time, wafer id, signal, 'RULE GROUP FIGURE'.")
     Path alarmFile;
 
     @Option(names = "--exit-idle-s", paramLabel = "<s>", defaultValue = "0",
@@ -114,7 +115,9 @@ final class WatchCommand implements Callable<Integer> {
     @Option(names = "--store", paramLabel = "<STORE>", description = "Also write each wafer's results into a results"
             + " store as it finishes: a SQLite file (made when missing) or postgresql://host[:port]/database (user"
             + " and password from PGUSER/PGPASSWORD or ~/.pgpass, never the command line); one store run per watch"
-            + " start. See README, \"Results store\".")
+            + " start. With a trend block in the rules, each control-chart signal that a round's wafers bring after"
+            + " the baseline raises the alarm (one line on stdout). A restart also inspects again the maps DIR lists"
+            + " but the store lacks. See README, \"Results store\" and \"Watching a folder\".")
     String store;
 
     @Option(names = "--physics", paramLabel = "<physics.json>", description = PhysicsOption.DESCRIPTION
@@ -170,6 +173,9 @@ final class WatchCommand implements Callable<Integer> {
         // the signal alarm: with a store and the rules' trend block, the wafers stored since the last look
         SignalAlarm signals = storeOutput == null ? null
                 : rules.trend().map(t -> new SignalAlarm(storeOutput, t, alarm, o, err)).orElse(null);
+        if (storeOutput == null && rules.trend().isPresent()) {
+            err.println("watch: the rules' trend block needs --store: no signal alarm");
+        }
         BatchInspection.WaferListener stored = signals == null ? storing : (result, row) -> {
             storing.wafer(result, row);
             signals.stored(result.file());
