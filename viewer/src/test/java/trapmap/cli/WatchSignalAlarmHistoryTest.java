@@ -152,6 +152,34 @@ class WatchSignalAlarmHistoryTest {
                 .satisfies(l -> assertThat(l).endsWith("\t" + lost + "\tsignal\tbeyond_3_sigma T2 " + FIGURE));
     }
 
+    @Test
+    void aTrendBlockWithoutAStoreSaysSoAndAStoreThatCannotBeChartedYetSaysOnceThatTheAlarmWaits() throws Exception {
+        Path demo = Path.of("..", "demo-data");
+        ObjectMapper json = new ObjectMapper();
+        ObjectNode rules = (ObjectNode) json.readTree(demo.resolve("rules-example.json").toFile());
+        rules.putObject("trend").put("figure", "harmonic_mean_lifetime_us");
+        Path rulesFile = dir.resolve("rules-trend.json");
+        json.writeValue(rulesFile.toFile(), rules);
+        Path in = Files.createDirectories(dir.resolve("in"));
+        for (String stem : List.of("LOT-A01-W01", "LOT-A01-W02")) {
+            Files.copy(demo.resolve(stem + ".json"), in.resolve(stem + ".json"));
+            Files.copy(demo.resolve(stem + ".tif"), in.resolve(stem + ".tif"));
+        }
+        Cli.Run plain = Cli.run("watch", in.toString(), "--rules", rulesFile.toString(), "--out",
+                dir.resolve("plain").toString(), "--settle-s", "0", "--exit-idle-s", "1", "--threads", "1",
+                "--no-thumbnails");
+        assertThat(plain.code()).as(plain.err()).isZero();
+        assertThat(plain.err()).contains("watch: the rules' trend block needs --store: no signal alarm");
+
+        Cli.Run stored = Cli.run("watch", in.toString(), "--rules", rulesFile.toString(), "--out",
+                dir.resolve("stored").toString(), "--store", dir.resolve("r.db").toString(), "--settle-s", "0",
+                "--exit-idle-s", "1", "--threads", "1", "--no-thumbnails");
+        assertThat(stored.code()).as(stored.err()).isZero();
+        assertThat(stored.errLines().stream().filter(l -> l.startsWith("watch: signal alarm waits: the trend"
+                + " cannot be charted yet: ")).count()).as(stored.err()).isOne();
+        assertThat(stored.out().lines().filter(l -> l.contains(" signal "))).isEmpty();
+    }
+
     /** The signal lines of the alarm file, split at tabs. */
     private static List<String[]> signalLines(Path alarms) throws Exception {
         List<String[]> out = new ArrayList<>();
