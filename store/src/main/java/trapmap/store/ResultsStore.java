@@ -242,32 +242,6 @@ public final class ResultsStore implements AutoCloseable {
     }
 
     /**
-     * Whether the store holds the result of map {@code file} (its content as it is now) under the rules and settings
-     * of run {@code runId}, i.e. a wafer of that {@link #resultKey}.
-     *
-     * @throws StoreException naming the store and the file
-     */
-    public synchronized boolean holds(String runId, String file) {
-        String sha = "";
-        try {
-            sha = WaferRecord.sha256(Path.of(file));
-        } catch (IOException | RuntimeException e) {
-            // an unreadable file is keyed by its name, as write keys its error result
-        }
-        try {
-            String[] hashes = runHashes(runId);
-            try (PreparedStatement p = connection.prepareStatement("SELECT 1 FROM wafers WHERE result_key = ?")) {
-                p.setString(1, resultKey(sha, file, hashes[0], hashes[1]));
-                try (ResultSet rs = p.executeQuery()) {
-                    return rs.next();
-                }
-            }
-        } catch (SQLException e) {
-            throw new StoreException("store " + name + ": wafer " + file + " not looked up: " + oneLine(e), e);
-        }
-    }
-
-    /**
      * Which of {@code files} (map files as given to a run) the store holds a wafer of under the rules and settings of
      * run {@code runId}, by file name alone (no map is read): the cheap check a restarted watch makes over every map
      * of its folder.
@@ -293,6 +267,32 @@ public final class ResultsStore implements AutoCloseable {
         }
         held.retainAll(new java.util.HashSet<>(files));
         return held;
+    }
+
+    /**
+     * Whether the store holds the result of map {@code file} (its content as it is now) under the rules and settings
+     * of run {@code runId}, i.e. a wafer of that {@link #resultKey}.
+     *
+     * @throws StoreException naming the store and the file
+     */
+    public synchronized boolean holds(String runId, String file) {
+        String sha = "";
+        try {
+            sha = WaferRecord.sha256(Path.of(file));
+        } catch (IOException | RuntimeException e) {
+            // an unreadable file is keyed by its name, as write keys its error result
+        }
+        try {
+            String[] hashes = runHashes(runId);
+            try (PreparedStatement p = connection.prepareStatement("SELECT 1 FROM wafers WHERE result_key = ?")) {
+                p.setString(1, resultKey(sha, file, hashes[0], hashes[1]));
+                try (ResultSet rs = p.executeQuery()) {
+                    return rs.next();
+                }
+            }
+        } catch (SQLException e) {
+            throw new StoreException("store " + name + ": wafer " + file + " not looked up: " + oneLine(e), e);
+        }
     }
 
     /** The rules' and settings' SHA-256 of a run. */

@@ -28,10 +28,9 @@ public final class StoreWriter implements BatchInspection.WaferListener, AutoClo
     private final Thread thread;
     private volatile StoreException failure;
     private volatile int stored;
-    /** Guards {@link #told} and {@link #handled}: wafers handed over and wafers taken off the queue. */
-    private final Object progress = new Object();
-    private long told;
-    private long handled;
+    /** Wafers handed to the writer's thread, and those it has dealt with (stored, or passed over after a failure). */
+    private long handed;
+    private long done;
 
     /**
      * Starts the writer of run {@code runId} ({@link ResultsStore#startRun}); {@code lotPattern}: the rules' lot
@@ -52,31 +51,14 @@ public final class StoreWriter implements BatchInspection.WaferListener, AutoClo
         if (failure != null) {
             return;
         }
-        synchronized (progress) {
-            told++;
-        }
         try {
+            synchronized (this) {
+                handed++;
+            }
             queue.put(result);
         } catch (InterruptedException e) {
-            synchronized (progress) {
-                told--;
-            }
             Thread.currentThread().interrupt(); // the batch sees it and stops
         }
-    }
-
-    /**
-     * Waits until every wafer told so far has been written (or the storing has stopped); whether all were written,
-     * i.e. no write has failed. The watch calls it after a round, before it charts the store.
-     */
-    public boolean awaitStored() throws InterruptedException {
-        synchronized (progress) {
-            long target = told;
-            while (handled < target && thread.isAlive()) {
-                progress.wait(1000);
-            }
-        }
-        return failure == null;
     }
 
     private void drain() {
@@ -91,22 +73,40 @@ public final class StoreWriter implements BatchInspection.WaferListener, AutoClo
                 return;
             }
             try {
-                if (failure == null) { // else keep taking so that the batch never waits for a stopped writer
-                    WaferRecord rec = WaferRecord.of(r, lotPattern);
-                    rec.warnings().forEach(warnings);
-                    store.write(runId, rec);
-                    stored++;
+                if (failure != null) {
+                    continue; // keep taking so that the batch never waits for a stopped writer
                 }
+                WaferRecord rec = WaferRecord.of(r, lotPattern);
+                rec.warnings().forEach(warnings);
+                store.write(runId, rec);
+                stored++;
             } catch (StoreException e) {
                 failure = e;
             } catch (RuntimeException e) {
                 failure = new StoreException("store " + store.name() + ": wafer " + r.file() + " not written: " + e, e);
             } finally {
-                synchronized (progress) {
-                    handled++;
-                    progress.notifyAll();
+                synchronized (this) {
+                    done++;
+                    notifyAll();
                 }
             }
+        }
+    }
+
+    /**
+     * Waits until every wafer handed over so far has been stored (the store then holds them, e.g. for a trend over
+     * it), and keeps the writer open for more; throws the first failure.
+     *
+     * @throws InterruptedException when interrupted while waiting
+     */
+    public void awaitStored() throws InterruptedException {
+        synchronized (this) {
+            while (done < handed && thread.isAlive()) {
+                wait(1000);
+            }
+        }
+        if (failure != null) {
+            throw failure;
         }
     }
 

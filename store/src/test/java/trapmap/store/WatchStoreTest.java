@@ -163,7 +163,7 @@ class WatchStoreTest {
                 w.wafer(new WaferResult(f.toString(), "W" + i, WaferResult.Status.PASS, "A", "default", "fe-i",
                         Map.of(FIGURE, 1.0 + i), List.of(), List.of(), List.of(), "", null), Map.of());
             }
-            assertThat(w.awaitStored()).isTrue();
+            w.awaitStored();
             assertThat(store.count("wafers")).isEqualTo(20);
             assertThat(w.stored()).isEqualTo(20);
         }

@@ -58,19 +58,6 @@ final class StoreOutput {
     }
 
     /**
-     * Whether map {@code file} is not yet in the store under this run's rules and settings: a resumed run inspects
-     * such a kept wafer again (its rows may have reached the folder while its store write still waited when the
-     * earlier run was killed). A store that cannot be asked counts as missing it, so that the wafer's write tells.
-     */
-    boolean misses(String file) {
-        try {
-            return !results.holds(runId, file);
-        } catch (StoreException e) {
-            return true;
-        }
-    }
-
-    /**
      * The maps of {@code listed} (as the results table writes them) that the store does not hold under this run's
      * rules and settings, by file name: a restarted watch inspects them again (a killed watch may have written their
      * rows into the folder but not into the store). A store that cannot be asked counts as missing them all, so that
@@ -89,6 +76,19 @@ final class StoreOutput {
     /** The store (for reading it, e.g. its trend; the writer keeps writing into it). */
     ResultsStore results() {
         return results;
+    }
+
+    /**
+     * Whether map {@code file} is not yet in the store under this run's rules and settings: a resumed run inspects
+     * such a kept wafer again (its rows may have reached the folder while its store write still waited when the
+     * earlier run was killed). A store that cannot be asked counts as missing it, so that the wafer's write tells.
+     */
+    boolean misses(String file) {
+        try {
+            return !results.holds(runId, file);
+        } catch (StoreException e) {
+            return true;
+        }
     }
 
     /**

@@ -164,6 +164,7 @@ final class WatchCommand implements Callable<Integer> {
         StoreOutput storeOutput = store == null ? null : StoreOutput.open(store, source, rules.physics(), lots,
                 spec.qualifiedName(), err);
         StoreWriter storing = storeOutput == null ? null : storeOutput.writer();
+        StoreWriter stored = storing;
         Alarm alarm = new Alarm(onFail, alarmFile, line -> {
             synchronized (err) {
                 err.println("watch: " + line);
@@ -176,8 +177,8 @@ final class WatchCommand implements Callable<Integer> {
         if (storeOutput == null && rules.trend().isPresent()) {
             err.println("watch: the rules' trend block needs --store: no signal alarm");
         }
-        BatchInspection.WaferListener stored = signals == null ? storing : (result, row) -> {
-            storing.wafer(result, row);
+        BatchInspection.WaferListener told = signals == null ? stored : (result, row) -> {
+            stored.wafer(result, row);
             signals.stored(result.file());
         };
         FolderWatch watch = new FolderWatch(new FolderWatch.Settings(incoming, out, settle, scan, !withoutSidecar,
@@ -185,7 +186,7 @@ final class WatchCommand implements Callable<Integer> {
                 () -> {
                     BatchInspection b = new BatchInspection(rules).withIron(ironPairs).withSource(source)
                             .withRecurrencePictures(() -> pictures.allows("the recurrence pictures"))
-                            .tellingWafers(stored);
+                            .tellingWafers(told);
                     if (summaryPdf) {
                         b.finishingWith((dir, recurrence) -> {
                             if (!pictures.run(BatchReport.FILE_NAME,
@@ -311,7 +312,9 @@ final class WatchCommand implements Callable<Integer> {
                 return;
             }
             try {
-                if (!store.writer().awaitStored()) {
+                try {
+                    store.writer().awaitStored();
+                } catch (StoreException e) {
                     return; // the failed write is told when the store is closed
                 }
                 List<StoreSignals.Raised> raised = StoreSignals.brought(store.results(), settings, round);
