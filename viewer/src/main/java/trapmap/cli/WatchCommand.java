@@ -27,9 +27,10 @@ import trapmap.maps.batch.RunManifest;
 import trapmap.maps.batch.RunRefusedException;
 import trapmap.maps.watch.Alarm;
 import trapmap.maps.watch.FolderWatch;
-import trapmap.shared.progress.ProgressListener;
+import trapmap.maps.watch.SignalLedger;
 import trapmap.maps.trend.TrendSettings;
 import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.progress.ProgressListener;
 import trapmap.store.StoreException;
 import trapmap.store.StoreSignals;
 import trapmap.store.StoreWriter;
@@ -213,6 +214,13 @@ final class WatchCommand implements Callable<Integer> {
                     }
 
                     @Override
+                    public void started(List<String> listed, java.util.Set<String> again) throws IOException {
+                        if (signals != null) {
+                            signals.start(out, listed, again);
+                        }
+                    }
+
+                    @Override
                     public void round(BatchInspection.Summary summary) {
                         if (signals != null) {
                             signals.look();
@@ -287,6 +295,7 @@ final class WatchCommand implements Callable<Integer> {
         private final PrintWriter err;
         private final List<String> files = new ArrayList<>();
         private String waiting;
+        private SignalLedger ledger;
 
         SignalAlarm(StoreOutput store, TrendSettings settings, Alarm alarm, PrintWriter out, PrintWriter err) {
             this.store = store;
@@ -301,11 +310,30 @@ final class WatchCommand implements Callable<Integer> {
             files.add(file);
         }
 
-        /** Waits for the wafers handed over so far to be stored, then raises the signals they bring. */
+        /**
+         * The watch holds {@code out}: opens its ledger and looks at once at the stored wafers of {@code listed} that
+         * a killed watch stored but did not look at (those inspected {@code again} are looked at after their round).
+         */
+        void start(Path out, List<String> listed, java.util.Set<String> again) throws IOException {
+            SignalLedger l = SignalLedger.open(out, listed);
+            List<String> pending = l.pending(listed).stream().filter(f -> !again.contains(f)).toList();
+            synchronized (this) {
+                ledger = l;
+                files.addAll(pending);
+            }
+            look();
+        }
+
+        /**
+         * Waits for the wafers handed over so far to be stored, records them in the ledger as looked at (the ones
+         * not looked at before), then raises the signals they bring.
+         */
         void look() {
             List<String> round;
+            SignalLedger l;
             synchronized (this) {
-                round = List.copyOf(files);
+                l = ledger;
+                round = l == null ? List.copyOf(files) : l.pending(files);
                 files.clear();
             }
             if (round.isEmpty()) {
@@ -317,7 +345,18 @@ final class WatchCommand implements Callable<Integer> {
                 } catch (StoreException e) {
                     return; // the failed write is told when the store is closed
                 }
-                List<StoreSignals.Raised> raised = StoreSignals.brought(store.results(), settings, round);
+                List<StoreSignals.Raised> raised;
+                try {
+                    raised = StoreSignals.brought(store.results(), settings, round);
+                } catch (InvalidValueException e) {
+                    if (l != null) {
+                        l.add(round); // nothing to raise for them
+                    }
+                    throw e;
+                }
+                if (l != null) {
+                    l.add(round); // before raising: a kill now loses these alarms rather than doubling them
+                }
                 waiting = null;
                 for (StoreSignals.Raised r : raised) {
                     Instant now = Instant.now().truncatedTo(ChronoUnit.SECONDS);
@@ -334,7 +373,11 @@ final class WatchCommand implements Callable<Integer> {
                     tell("signal alarm waits: the trend cannot be charted yet: " + e.getMessage());
                 }
             } catch (StoreException e) {
-                tell("signal alarm: " + e.getMessage() + "; the wafers' signals are not raised");
+                tell("signal alarm: " + e.getMessage() + "; the wafers' signals are not raised (a new start looks"
+                        + " at them again)");
+            } catch (IOException e) {
+                tell("signal alarm: " + SignalLedger.FILE_NAME + " in --out could not be written: " + e
+                        + "; the wafers' signals are not raised");
             } catch (InterruptedException e) {
                 Thread.currentThread().interrupt();
             }

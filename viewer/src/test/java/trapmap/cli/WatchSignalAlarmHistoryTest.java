@@ -37,8 +37,8 @@ import trapmap.store.StoredPoint;
  * watched by a new start of {@code watch --store} with a rules {@code trend} block (Fe_i median by furnace tube,
  * baseline before 2026-10-12, alarm on a point beyond 3σ): T2's drift raises the alarm within a few T2 lots of the
  * change, T1 never; every alarm is raised once, and the alarms are exactly the signals of the final store's T2 chart
- * after its baseline; a restart with nothing new raises nothing, and a wafer lost from the store (as by a kill between
- * its rows and its store write) is stored again and brings its own signal once.
+ * after its baseline; a restart with nothing new raises nothing, and a start after a kill raises the signals of the
+ * wafers the killed watch did not store or did not look at, once each, and no other.
  *
  * <p>Measured on this history (this test's rules): 43 alarms, all on T2's chart, one of them before the change
  * (2026-10-14, a point of the baseline spread beyond its limit, as {@code trend} shows too); the first after the change
@@ -137,19 +137,42 @@ class WatchSignalAlarmHistoryTest {
         assertThat(again.out()).isEmpty();
         assertThat(Files.readString(alarms)).isEqualTo(before);
 
-        // a signalled wafer lost from the store (killed before its store write) is stored again and raises its own
-        // signal once; no other alarm, no fail alarm again
-        String lost = ids.get(ids.size() / 2);
+        // a wafer whose signal was raised, lost from the store afterwards: stored again, its signal not raised again
+        Path ledger = dir.resolve("report").resolve(trapmap.maps.watch.SignalLedger.FILE_NAME);
         int storedBefore = storedWafers(db);
-        forget(db, lost);
+        forget(db, ids.get(0));
         Cli.Run restored = Cli.run(args);
         assertThat(restored.code()).as(restored.err()).isZero();
         assertThat(storedWafers(db)).isEqualTo(storedBefore);
-        assertThat(restored.out().lines().toList()).singleElement().satisfies(l -> assertThat(l)
-                .contains(" " + lost + " signal beyond_3_sigma T2 " + FIGURE + ": individuals (X) of T2: "));
+        assertThat(restored.out()).isEmpty();
+        assertThat(Files.readString(alarms)).isEqualTo(before);
+
+        // killed before a wafer's store write (its rows in the folder, not in the store, not looked at), and killed
+        // between another's store write and the look at its signals: the next start raises each of them once
+        String unstored = ids.get(ids.size() / 2);
+        String unlooked = ids.get(ids.size() - 1);
+        forget(db, unstored);
+        List<String> looked = new ArrayList<>(Files.readAllLines(ledger));
+        assertThat(looked.removeIf(f -> f.endsWith(unstored + ".tif") || f.endsWith(unlooked + ".tif"))).isTrue();
+        Files.write(ledger, looked);
+        Cli.Run killed = Cli.run(args);
+        assertThat(killed.code()).as(killed.err()).isZero();
+        assertThat(storedWafers(db)).isEqualTo(storedBefore);
+        assertThat(killed.out().lines().toList()).hasSize(2)
+                .anySatisfy(l -> assertThat(l).contains(" " + unstored + " signal beyond_3_sigma T2 " + FIGURE
+                        + ": individuals (X) of T2: "))
+                .anySatisfy(l -> assertThat(l).contains(" " + unlooked + " signal beyond_3_sigma T2 " + FIGURE));
         String added = Files.readString(alarms).substring(before.length());
-        assertThat(added.lines().toList()).singleElement()
-                .satisfies(l -> assertThat(l).endsWith("\t" + lost + "\tsignal\tbeyond_3_sigma T2 " + FIGURE));
+        assertThat(added.lines().map(l -> l.split("\t")[1])).containsExactlyInAnyOrder(unstored, unlooked);
+
+        // a folder watched without the ledger (before the alarm existed) does not raise its history
+        String withBoth = Files.readString(alarms);
+        Files.delete(ledger);
+        Cli.Run upgraded = Cli.run(args);
+        assertThat(upgraded.code()).as(upgraded.err()).isZero();
+        assertThat(upgraded.out()).isEmpty();
+        assertThat(Files.readString(alarms)).isEqualTo(withBoth);
+        assertThat(ledger).exists();
     }
 
     @Test

@@ -56,6 +56,13 @@ public final class FolderWatch {
         /** A wafer of this watch was inspected: its results row (on the writing thread; return at once). */
         void wafer(Map<String, String> row);
 
+        /**
+         * The watch holds the output folder and starts: {@code listed} are the maps its results table lists, of which
+         * {@code again} are inspected again ({@link #inspectingAgain}) in the first round.
+         */
+        default void started(List<String> listed, Set<String> again) throws IOException {
+        }
+
         /** A round ended: the batch's summary over every wafer of the folder. */
         default void round(BatchInspection.Summary summary) {
         }
@@ -152,6 +159,7 @@ public final class FolderWatch {
             arrivals.take(p);
         }
         Set<String> redo = again == null || listed.isEmpty() ? Set.of() : Set.copyOf(again.apply(listed));
+        listener.started(listed, redo);
         boolean unfinished;
         try {
             unfinished = Files.exists(out.resolve(RunManifest.FILE_NAME))
