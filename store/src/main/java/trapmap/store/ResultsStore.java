@@ -242,6 +242,34 @@ public final class ResultsStore implements AutoCloseable {
     }
 
     /**
+     * Which of {@code files} (map files as given to a run) the store holds a wafer of under the rules and settings of
+     * run {@code runId}, by file name alone (no map is read): the cheap check a restarted watch makes over every map
+     * of its folder.
+     *
+     * @throws StoreException naming the store
+     */
+    public synchronized java.util.Set<String> storedOf(String runId, java.util.Collection<String> files) {
+        java.util.Set<String> held = new java.util.HashSet<>();
+        try {
+            String[] hashes = runHashes(runId);
+            try (PreparedStatement p = connection.prepareStatement(
+                    "SELECT file FROM wafers WHERE rules_sha256 = ? AND settings_sha256 = ?")) {
+                p.setString(1, hashes[0]);
+                p.setString(2, hashes[1]);
+                try (ResultSet rs = p.executeQuery()) {
+                    while (rs.next()) {
+                        held.add(rs.getString(1));
+                    }
+                }
+            }
+        } catch (SQLException e) {
+            throw new StoreException("store " + name + ": the stored files could not be read: " + oneLine(e), e);
+        }
+        held.retainAll(new java.util.HashSet<>(files));
+        return held;
+    }
+
+    /**
      * Whether the store holds the result of map {@code file} (its content as it is now) under the rules and settings
      * of run {@code runId}, i.e. a wafer of that {@link #resultKey}.
      *

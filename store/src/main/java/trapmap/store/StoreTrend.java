@@ -129,6 +129,17 @@ public final class StoreTrend {
                     + (request.since() == null ? "" : " since " + request.since())
                     + (request.profile() == null ? "" : " of profile " + request.profile()));
         }
+        return analyse(request, stored, store.name());
+    }
+
+    /**
+     * Charts wafers already read from a store ({@link ResultsStore#points} with the request's figure and grouping,
+     * or a part of them, oldest first), e.g. the store as it was before some wafers were added.
+     *
+     * @param storeName the store's name, for messages
+     * @throws InvalidValueException as {@link #analyse(ResultsStore, Request)}
+     */
+    public static Outcome analyse(Request request, List<StoredPoint> stored, String storeName) {
         List<TrendPoint> points = new ArrayList<>(stored.size());
         long charted = 0;
         for (StoredPoint p : stored) {
@@ -142,7 +153,7 @@ public final class StoreTrend {
                     request.perGroup() ? GroupCharts.PER_GROUP_INDIVIDUALS : GroupCharts.SUBGROUP_MEANS));
         } catch (InvalidValueException e) {
             throw new InvalidValueException(e.field(), e.unit(), e.getMessage() + " (" + request.figure() + " in "
-                    + store.name() + ": " + stored.size() + " wafers, " + charted
+                    + storeName + ": " + stored.size() + " wafers, " + charted
                     + " with a measured time and a value)");
         }
     }

@@ -52,6 +52,9 @@ public final class StoreWriter implements BatchInspection.WaferListener, AutoClo
             return;
         }
         try {
+            synchronized (this) {
+                handed++;
+            }
             queue.put(result);
             synchronized (this) {
                 handed++; // after the put: a wafer never queued is never waited for

@@ -61,6 +61,27 @@ final class StoreOutput {
     }
 
     /**
+     * The maps of {@code listed} (as the results table writes them) that the store does not hold under this run's
+     * rules and settings, by file name: a restarted watch inspects them again (a killed watch may have written their
+     * rows into the folder but not into the store). A store that cannot be asked counts as missing them all, so that
+     * their writes tell.
+     */
+    java.util.Set<String> missing(java.util.List<String> listed) {
+        java.util.Set<String> out = new java.util.LinkedHashSet<>(listed);
+        try {
+            out.removeAll(results.storedOf(runId, listed));
+        } catch (StoreException e) {
+            // all of them
+        }
+        return out;
+    }
+
+    /** The store (for reading it, e.g. its trend; the writer keeps writing into it). */
+    ResultsStore results() {
+        return results;
+    }
+
+    /**
      * Whether map {@code file} is not yet in the store under this run's rules and settings: a resumed run inspects
      * such a kept wafer again (its rows may have reached the folder while its store write still waited when the
      * earlier run was killed). A store that cannot be asked counts as missing it, so that the wafer's write tells.

@@ -6,6 +6,8 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Instant;
 import java.time.temporal.ChronoUnit;
+import java.util.ArrayList;
+import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.Callable;
@@ -25,7 +27,12 @@ import trapmap.maps.batch.RunManifest;
 import trapmap.maps.batch.RunRefusedException;
 import trapmap.maps.watch.Alarm;
 import trapmap.maps.watch.FolderWatch;
+import trapmap.maps.watch.SignalLedger;
+import trapmap.maps.trend.TrendSettings;
+import trapmap.shared.error.InvalidValueException;
 import trapmap.shared.progress.ProgressListener;
+import trapmap.store.StoreException;
+import trapmap.store.StoreSignals;
 import trapmap.store.StoreWriter;
 import trapmap.viewer.report.BatchReport;
 
@@ -80,13 +87,14 @@ final class WatchCommand implements Callable<Integer> {
     boolean withoutSidecar;
 
     @Option(names = "--on-fail", paramLabel = "<CMD>", description = "Program run for each wafer that fails or"
-            + " cannot be inspected, with the wafer id and the verdict (fail or error) as its two arguments; started"
-            + " directly, never through a shell.")
+            + " cannot be inspected, with the wafer id and the verdict (fail or error) as its two arguments; with"
+            + " --store and a rules trend block also for each control-chart signal, with the five arguments WAFER_ID"
+            + " signal RULE GROUP FIGURE; started directly, never through a shell.")
     Path onFail;
 
     @Option(names = "--alarm-file", paramLabel = "<FILE>", description = "File to which one line is appended for"
             + " each wafer that fails or cannot be inspected: time (UTC), wafer id, verdict, file, separated by"
-            + " tabs.")
+            + " tabs; for a control-chart signal: time, wafer id, signal, 'RULE GROUP FIGURE'.")
     Path alarmFile;
 
     @Option(names = "--exit-idle-s", paramLabel = "<s>", defaultValue = "0",
@@ -108,7 +116,9 @@ final class WatchCommand implements Callable<Integer> {
     @Option(names = "--store", paramLabel = "<STORE>", description = "Also write each wafer's results into a results"
             + " store as it finishes: a SQLite file (made when missing) or postgresql://host[:port]/database (user"
             + " and password from PGUSER/PGPASSWORD or ~/.pgpass, never the command line); one store run per watch"
-            + " start. See README, \"Results store\".")
+            + " start. With a trend block in the rules, each control-chart signal that a round's wafers bring after"
+            + " the baseline raises the alarm (one line on stdout). A restart also inspects again the maps DIR lists"
+            + " but the store lacks. See README, \"Results store\" and \"Watching a folder\".")
     String store;
 
     @Option(names = "--physics", paramLabel = "<physics.json>", description = PhysicsOption.DESCRIPTION
@@ -164,12 +174,22 @@ final class WatchCommand implements Callable<Integer> {
                 err.flush();
             }
         });
+        // the signal alarm: with a store and the rules' trend block, the wafers stored since the last look
+        SignalAlarm signals = storeOutput == null ? null
+                : rules.trend().map(t -> new SignalAlarm(storeOutput, t, alarm, o, err)).orElse(null);
+        if (storeOutput == null && rules.trend().isPresent()) {
+            err.println("watch: the rules' trend block needs --store: no signal alarm");
+        }
+        BatchInspection.WaferListener told = signals == null ? stored : (result, row) -> {
+            stored.wafer(result, row);
+            signals.stored(result.file());
+        };
         FolderWatch watch = new FolderWatch(new FolderWatch.Settings(incoming, out, settle, scan, !withoutSidecar,
                 idle, new BatchInspection.Options(n, true, thumbnails, ProgressListener.NONE)),
                 () -> {
                     BatchInspection b = new BatchInspection(rules).withIron(ironPairs).withSource(source)
                             .withRecurrencePictures(() -> pictures.allows("the recurrence pictures"))
-                            .tellingWafers(stored);
+                            .tellingWafers(told);
                     if (summaryPdf) {
                         b.finishingWith((dir, recurrence) -> {
                             if (!pictures.run(BatchReport.FILE_NAME,
@@ -180,18 +200,38 @@ final class WatchCommand implements Callable<Integer> {
                     }
                     return b;
                 },
-                row -> {
-                    Instant now = Instant.now().truncatedTo(ChronoUnit.SECONDS);
-                    String status = row.getOrDefault("status", "");
-                    String line = line(now, row);
-                    synchronized (o) {
-                        o.println(line);
-                        o.flush();
+                new FolderWatch.Listener() {
+                    @Override
+                    public void wafer(Map<String, String> row) {
+                        Instant now = Instant.now().truncatedTo(ChronoUnit.SECONDS);
+                        String status = row.getOrDefault("status", "");
+                        String line = line(now, row);
+                        synchronized (o) {
+                            o.println(line);
+                            o.flush();
+                        }
+                        if (!status.equals("pass")) {
+                            alarm.raise(now, waferId(row), status, row.getOrDefault("file", ""));
+                        }
                     }
-                    if (!status.equals("pass")) {
-                        alarm.raise(now, waferId(row), status, row.getOrDefault("file", ""));
+
+                    @Override
+                    public void started(List<String> listed, java.util.Set<String> again) throws IOException {
+                        if (signals != null) {
+                            signals.start(out, listed, again);
+                        }
+                    }
+
+                    @Override
+                    public void round(BatchInspection.Summary summary) {
+                        if (signals != null) {
+                            signals.look();
+                        }
                     }
                 });
+        if (storeOutput != null) {
+            watch.inspectingAgain(storeOutput::missing); // kept wafers a killed watch did not store
+        }
         CountDownLatch ended = new CountDownLatch(1);
         Thread hook = new Thread(() -> {
             watch.stop();
@@ -212,6 +252,9 @@ final class WatchCommand implements Callable<Integer> {
             try {
                 outcome = watch.run();
             } finally {
+                if (signals != null) {
+                    signals.look(); // the wafers of a round that a stop cut short
+                }
                 alarm.close();
                 storeClosed = StoreOutput.close(storeOutput, spec.qualifiedName(), STORE_AGAIN, err);
             }
@@ -237,6 +280,115 @@ final class WatchCommand implements Callable<Integer> {
                 Runtime.getRuntime().removeShutdownHook(hook);
             } catch (IllegalStateException e) {
                 // shutting down: the hook is running
+            }
+        }
+    }
+
+    /**
+     * The watch's alarm on a control-chart signal: after each round, the signals of the rules' trend block that the
+     * wafers stored in it bring ({@link StoreSignals}), each told as one line on stdout and raised through the
+     * {@link Alarm}. The computation is the store's; this only hands it the round's wafers.
+     */
+    private static final class SignalAlarm {
+        private final StoreOutput store;
+        private final TrendSettings settings;
+        private final Alarm alarm;
+        private final PrintWriter out;
+        private final PrintWriter err;
+        private final List<String> files = new ArrayList<>();
+        private String waiting;
+        private SignalLedger ledger;
+
+        SignalAlarm(StoreOutput store, TrendSettings settings, Alarm alarm, PrintWriter out, PrintWriter err) {
+            this.store = store;
+            this.settings = settings;
+            this.alarm = alarm;
+            this.out = out;
+            this.err = err;
+        }
+
+        /** A wafer handed to the store (on the batch's writing thread). */
+        synchronized void stored(String file) {
+            files.add(file);
+        }
+
+        /**
+         * The watch holds {@code out}: opens its ledger and looks at once at the stored wafers of {@code listed} that
+         * a killed watch stored but did not look at (those inspected {@code again} are looked at after their round).
+         */
+        void start(Path out, List<String> listed, java.util.Set<String> again) throws IOException {
+            SignalLedger l = SignalLedger.open(out, listed);
+            List<String> pending = l.pending(listed).stream().filter(f -> !again.contains(f)).toList();
+            synchronized (this) {
+                ledger = l;
+                files.addAll(pending);
+            }
+            look();
+        }
+
+        /**
+         * Waits for the wafers handed over so far to be stored, records them in the ledger as looked at (the ones
+         * not looked at before), then raises the signals they bring.
+         */
+        void look() {
+            List<String> round;
+            SignalLedger l;
+            synchronized (this) {
+                l = ledger;
+                round = l == null ? List.copyOf(files) : l.pending(files);
+                files.clear();
+            }
+            if (round.isEmpty()) {
+                return;
+            }
+            try {
+                try {
+                    store.writer().awaitStored();
+                } catch (StoreException e) {
+                    return; // the failed write is told when the store is closed
+                }
+                List<StoreSignals.Raised> raised;
+                try {
+                    raised = StoreSignals.brought(store.results(), settings, round);
+                } catch (InvalidValueException e) {
+                    if (l != null) {
+                        l.add(round); // nothing to raise for them
+                    }
+                    throw e;
+                }
+                if (l != null) {
+                    l.add(round); // before raising: a kill now loses these alarms rather than doubling them
+                }
+                waiting = null;
+                for (StoreSignals.Raised r : raised) {
+                    Instant now = Instant.now().truncatedTo(ChronoUnit.SECONDS);
+                    synchronized (out) {
+                        out.println(now + " " + r.waferId() + " " + Alarm.SIGNAL + " " + r.ruleName() + " "
+                                + r.group() + " " + r.figure() + ": " + r.describe());
+                        out.flush();
+                    }
+                    alarm.signal(now, r.waferId(), r.ruleName(), r.group(), r.figure());
+                }
+            } catch (InvalidValueException e) {
+                if (!e.getMessage().equals(waiting)) { // said once until it changes
+                    waiting = e.getMessage();
+                    tell("signal alarm waits: the trend cannot be charted yet: " + e.getMessage());
+                }
+            } catch (StoreException e) {
+                tell("signal alarm: " + e.getMessage() + "; the wafers' signals are not raised (a new start looks"
+                        + " at them again)");
+            } catch (IOException e) {
+                tell("signal alarm: " + SignalLedger.FILE_NAME + " in --out could not be written: " + e
+                        + "; the wafers' signals are not raised");
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+            }
+        }
+
+        private void tell(String line) {
+            synchronized (err) {
+                err.println("watch: " + line);
+                err.flush();
             }
         }
     }

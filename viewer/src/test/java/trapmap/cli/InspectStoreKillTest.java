@@ -104,7 +104,7 @@ class InspectStoreKillTest {
     }
 
     /** Each stored wafer by file: wafer id, verdict, grade, failed rules and every figure (run ids and times left out). */
-    private static Map<String, String> wafers(Path db) throws SQLException {
+    static Map<String, String> wafers(Path db) throws SQLException {
         Map<String, String> rows = new TreeMap<>();
         try (Connection c = DriverManager.getConnection("jdbc:sqlite:" + db);
              Statement s = c.createStatement()) {

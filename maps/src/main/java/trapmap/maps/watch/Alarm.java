@@ -16,7 +16,8 @@ import java.util.function.Consumer;
  * What the watch does for a wafer that did not pass ({@code fail} or {@code error}): runs a program with the wafer's
  * id and verdict as its two arguments (started directly, never through a shell, so nothing in an id is ever run as a
  * command) and/or appends one line to an alarm file: {@code TIME<TAB>WAFER_ID<TAB>VERDICT<TAB>FILE} (time ISO-8601
- * UTC; tabs and line breaks inside a field written as spaces). Both run on a thread of their own, one alarm after the
+ * UTC; tabs and line breaks inside a field written as spaces). A control-chart signal ({@link #signal}) is raised the
+ * same way with the verdict {@code signal}. Both run on a thread of their own, one alarm after the
  * other in the wafers' order, so that a slow program never holds the inspection; a program that fails to start, exits
  * with a status other than 0 or runs longer than {@value #PROGRAM_LIMIT_S} s (then ended) is told as one line.
  */
@@ -51,12 +52,33 @@ public final class Alarm implements AutoCloseable {
 
     /** Raises the alarm of one wafer (on the alarm thread; returns at once). */
     public void raise(java.time.Instant time, String waferId, String verdict, String mapFile) {
+        enqueue(time, waferId, List.of(verdict), mapFile);
+    }
+
+    /**
+     * Raises the alarm of a control-chart signal that wafer {@code waferId} brought (on the alarm thread; returns at
+     * once): the alarm file gets {@code TIME<TAB>WAFER_ID<TAB>signal<TAB>RULE GROUP FIGURE}, the program is run with
+     * the five arguments {@code WAFER_ID signal RULE GROUP FIGURE}.
+     *
+     * @param rule   the rule's name as in the rules file, e.g. {@code beyond_3_sigma}
+     * @param group  the chart point's group, e.g. a furnace tube or a lot
+     * @param figure the figure charted
+     */
+    public void signal(java.time.Instant time, String waferId, String rule, String group, String figure) {
+        enqueue(time, waferId, List.of(SIGNAL, rule, group, figure),
+                String.join(" ", field(rule), field(group), field(figure)));
+    }
+
+    /** The verdict word of a signal's alarm. */
+    public static final String SIGNAL = "signal";
+
+    private void enqueue(java.time.Instant time, String waferId, List<String> args, String last) {
         if (!active()) {
             return;
         }
         thread.execute(() -> {
             if (file != null) {
-                String line = String.join("\t", time.toString(), field(waferId), field(verdict), field(mapFile))
+                String line = String.join("\t", time.toString(), field(waferId), field(args.get(0)), field(last))
                         + "\n";
                 try {
                     Files.write(file, line.getBytes(StandardCharsets.UTF_8), StandardOpenOption.CREATE,
@@ -66,24 +88,24 @@ public final class Alarm implements AutoCloseable {
                 }
             }
             if (program != null) {
-                run(waferId, verdict);
+                run(waferId, args);
             }
         });
     }
 
-    private void run(String waferId, String verdict) {
-        List<String> cmd = new ArrayList<>(List.of(program.toString(), waferId, verdict));
+    private void run(String waferId, List<String> args) {
+        List<String> cmd = new ArrayList<>(List.of(program.toString(), waferId));
+        cmd.addAll(args);
+        String named = "--on-fail " + String.join(" ", cmd);
         try {
             Process p = new ProcessBuilder(cmd).redirectInput(ProcessBuilder.Redirect.from(nullFile()))
                     .redirectOutput(ProcessBuilder.Redirect.INHERIT).redirectError(ProcessBuilder.Redirect.INHERIT)
                     .start();
             if (!p.waitFor(PROGRAM_LIMIT_S, TimeUnit.SECONDS)) {
                 p.destroyForcibly();
-                problems.accept("--on-fail " + program + " " + waferId + " " + verdict + ": still running after "
-                        + PROGRAM_LIMIT_S + " s; ended");
+                problems.accept(named + ": still running after " + PROGRAM_LIMIT_S + " s; ended");
             } else if (p.exitValue() != 0) {
-                problems.accept("--on-fail " + program + " " + waferId + " " + verdict + ": exit status "
-                        + p.exitValue());
+                problems.accept(named + ": exit status " + p.exitValue());
             }
         } catch (IOException e) {
             problems.accept("--on-fail " + program + ": could not be started: " + e.getMessage());

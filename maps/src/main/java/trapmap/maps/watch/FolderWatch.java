@@ -56,6 +56,13 @@ public final class FolderWatch {
         /** A wafer of this watch was inspected: its results row (on the writing thread; return at once). */
         void wafer(Map<String, String> row);
 
+        /**
+         * The watch holds the output folder and starts: {@code listed} are the maps its results table lists, of which
+         * {@code again} are inspected again ({@link #inspectingAgain}) in the first round.
+         */
+        default void started(List<String> listed, Set<String> again) throws IOException {
+        }
+
         /** A round ended: the batch's summary over every wafer of the folder. */
         default void round(BatchInspection.Summary summary) {
         }
@@ -78,6 +85,7 @@ public final class FolderWatch {
     private final Listener listener;
     private volatile boolean stopped;
     private volatile Thread running;
+    private java.util.function.Function<List<String>, Set<String>> again;
 
     /**
      * @param batches makes each round's batch (rules, source, iron pairs, summary step); the watch sets how it
@@ -87,6 +95,17 @@ public final class FolderWatch {
         this.settings = settings;
         this.batches = batches;
         this.listener = listener;
+    }
+
+    /**
+     * Chooses, once at the start, which of the maps the output folder already lists are inspected again (e.g. those
+     * that a killed watch wrote into the folder but not yet into a results store): given the listed files as the
+     * results table writes them, it returns those to inspect again; then the first round does, even when no map is
+     * new. Null (the default) for none. Returns this watch.
+     */
+    public FolderWatch inspectingAgain(java.util.function.Function<List<String>, Set<String>> chooser) {
+        this.again = chooser;
+        return this;
     }
 
     /** Ends the watch: the running round stops after its current wafers (as an interrupted batch). */
@@ -133,11 +152,14 @@ public final class FolderWatch {
         Path out = settings.out();
         Arrivals arrivals = new Arrivals(settings.settleNanos(), settings.sidecarRequired());
         List<Path> all = new ArrayList<>();
-        for (String f : BatchInspection.listedFiles(out)) {
+        List<String> listed = BatchInspection.listedFiles(out);
+        for (String f : listed) {
             Path p = Path.of(f).toAbsolutePath().normalize();
             all.add(p);
             arrivals.take(p);
         }
+        Set<String> redo = again == null || listed.isEmpty() ? Set.of() : Set.copyOf(again.apply(listed));
+        listener.started(listed, redo);
         boolean unfinished;
         try {
             unfinished = Files.exists(out.resolve(RunManifest.FILE_NAME))
@@ -163,10 +185,10 @@ public final class FolderWatch {
             long lastNew = System.nanoTime();
             while (!stopped) {
                 List<Path> fresh = arrivals.scan(incoming, out, System.nanoTime());
-                if (!fresh.isEmpty() || unfinished) {
+                if (!fresh.isEmpty() || unfinished || !redo.isEmpty()) {
                     all.addAll(fresh);
                     try {
-                        last = round(all, fresh);
+                        last = round(all, fresh, redo);
                     } catch (InterruptedException e) {
                         break; // stopped: the run says running, the next start finishes it
                     } catch (trapmap.maps.batch.BatchOutputException e) {
@@ -177,6 +199,7 @@ public final class FolderWatch {
                     }
                     inspected += fresh.size();
                     unfinished = false;
+                    redo = Set.of();
                     lastNew = System.nanoTime();
                     listener.round(last);
                     continue; // look again at once: maps may have arrived during the round
@@ -216,12 +239,16 @@ public final class FolderWatch {
         }
     }
 
-    /** One round: a resumed batch over {@code all}, of which {@code fresh} are new. */
-    private BatchInspection.Summary round(List<Path> all, List<Path> fresh) throws IOException,
+    /**
+     * One round: a resumed batch over {@code all}, of which {@code fresh} are new and the kept maps of {@code redo}
+     * (as listed) are inspected again.
+     */
+    private BatchInspection.Summary round(List<Path> all, List<Path> fresh, Set<String> redo) throws IOException,
             InterruptedException {
         Set<Path> news = new HashSet<>(fresh);
         BatchInspection.Options o = settings.options();
         BatchInspection batch = batches.get().keepingErrors(true).growingInputs(true)
+                .inspectingAgain(redo.isEmpty() ? null : redo::contains)
                 .tellingRows(row -> {
                     if (news.contains(Path.of(row.get("file")).toAbsolutePath().normalize())) {
                         listener.wafer(row);
