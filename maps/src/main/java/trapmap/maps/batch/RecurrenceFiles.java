@@ -37,10 +37,17 @@ public final class RecurrenceFiles {
      *
      * @param group      the group it belongs to (a value of a grouping fact), null when the maps are not grouped
      * @param recurrence the recurrence of one family
+     * @param caption    what the picture's title names, e.g. {@code round-156, boat_slot 7}
      */
-    public record Entry(String group, Recurrence recurrence) {
+    public record Entry(String group, Recurrence recurrence, String caption) {
         public Entry {
             Objects.requireNonNull(recurrence, "recurrence");
+            caption = caption == null ? recurrence.family() : caption;
+        }
+
+        /** An entry whose picture names the family only. */
+        public Entry(String group, Recurrence recurrence) {
+            this(group, recurrence, null);
         }
     }
 
@@ -76,8 +83,10 @@ public final class RecurrenceFiles {
             written.add(tif);
             Path png = outDir.resolve(stem + ".png");
             if (pictures) {
-                OutputFolder.write(png, () -> RecurrencePicture.write(r, HotSpots.find(r, HotSpots.Criteria.DEFAULT),
-                        png));
+                Recurrence titled = e.caption().equals(r.family()) ? r
+                        : new Recurrence(e.caption(), r.fraction(), r.wafersPerCell(), r.wafers());
+                OutputFolder.write(png, () -> RecurrencePicture.write(titled,
+                        HotSpots.find(r, HotSpots.Criteria.DEFAULT), png));
                 written.add(png);
             } else {
                 OutputFolder.write(png, () -> Files.deleteIfExists(png));
