@@ -11,6 +11,7 @@ import trapmap.maps.batch.HotSpots;
 import trapmap.maps.batch.Recurrence;
 import trapmap.maps.batch.RecurrenceFiles;
 import trapmap.maps.batch.RecurrenceMap;
+import trapmap.maps.io.NumberText;
 import trapmap.shared.error.InvalidValueException;
 
 /**
@@ -31,12 +32,14 @@ public final class StoreRecurrence {
      * @param wafers  the stored wafers with a footprint that the query gave
      * @param entries one recurrence per group and family, groups in {@link #GROUP_ORDER}, then families by name
      * @param refused footprints left out of the maps and why ({@link RecurrenceMap#refused})
+     * @param notes   what the reader should know, e.g. that the cells are finer than the wafers' pixels
      */
     public record Outcome(StoreFilter filter, String by, int wafers, List<RecurrenceFiles.Entry> entries,
-                          List<String> refused) {
+                          List<String> refused, List<String> notes) {
         public Outcome {
             entries = List.copyOf(entries);
             refused = List.copyOf(refused);
+            notes = List.copyOf(notes);
         }
 
         /** Whether the maps are grouped (one per group and family). */
@@ -72,10 +75,11 @@ public final class StoreRecurrence {
                             : " hot spots:");
                     String sep = " ";
                     for (var g : hot.regions().byArea()) {
-                        s.append(sep).append('#').append(g.id()).append(' ').append(g.pixelCount()).append(" cells,")
+                        s.append(sep).append('#').append(g.id()).append(' ').append(g.pixelCount())
+                                .append(g.pixelCount() == 1 ? " cell," : " cells,")
                                 .append(" peak ").append(Math.round(g.peakValue() * 100)).append(" % of wafers,")
-                                .append(" centroid (").append(trapmap.maps.io.NumberText.mm(g.centroidXMm()))
-                                .append(", ").append(trapmap.maps.io.NumberText.mm(g.centroidYMm())).append(") mm");
+                                .append(" centroid (").append(NumberText.mm(g.centroidXMm()))
+                                .append(", ").append(NumberText.mm(g.centroidYMm())).append(") mm");
                         sep = "; ";
                     }
                 }
@@ -83,6 +87,37 @@ public final class StoreRecurrence {
             }
             return out;
         }
+    }
+
+    /**
+     * The smallest odd cell factor at least the usual distance between the covered cells of a row (the 90th
+     * percentile over the footprints' rows): 1 where neighbouring cells are covered, 3 for pixels of 2 to 3 mm.
+     */
+    static int suggestedFactor(List<StoredFootprint> stored) {
+        int[] gaps = new int[8]; // gaps 1..7, and longer ones (holes) in the last
+        long n = 0;
+        for (StoredFootprint sf : stored) {
+            Footprint f = sf.footprint();
+            java.util.BitSet c = f.covered();
+            for (int j = 0; j < f.height(); j++) {
+                int last = -1;
+                for (int b = c.nextSetBit(j * f.width()); b >= 0 && b < (j + 1) * f.width(); b = c.nextSetBit(b + 1)) {
+                    if (last >= 0) {
+                        gaps[Math.min(b - last, 8) - 1]++;
+                        n++;
+                    }
+                    last = b;
+                }
+            }
+        }
+        long seen = 0;
+        for (int g = 1; g <= gaps.length; g++) {
+            seen += gaps[g - 1];
+            if (seen >= 0.9 * n) {
+                return g % 2 == 1 ? g : g + 1;
+            }
+        }
+        return 1;
     }
 
     /**
@@ -152,6 +187,14 @@ public final class StoreRecurrence {
         }
         List<RecurrenceFiles.Entry> entries = new ArrayList<>();
         List<String> refused = new ArrayList<>();
+        List<String> notes = new ArrayList<>();
+        int suggested = cellFactor == 1 ? suggestedFactor(stored) : 1;
+        if (suggested > 1) {
+            notes.add("the wafers' pixels are larger than the " + NumberText.mm(Footprint.PITCH_MM) + " mm cells:"
+                    + " they cover about one cell in " + suggested + " along a row, so that one spot shows as"
+                    + " scattered single cells; cells " + suggested + " times as large (--cell " + suggested
+                    + ") join them");
+        }
         groups.forEach((group, m) -> {
             for (Recurrence r : m.families().values()) {
                 entries.add(g == null ? new RecurrenceFiles.Entry(null, r)
@@ -161,6 +204,6 @@ public final class StoreRecurrence {
                 refused.add(g == null ? why : by + " " + group + ": " + why);
             }
         });
-        return new Outcome(filter, g, stored.size(), entries, refused);
+        return new Outcome(filter, g, stored.size(), entries, refused, notes);
     }
 }

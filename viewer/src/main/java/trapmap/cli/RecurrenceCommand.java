@@ -153,6 +153,9 @@ final class RecurrenceCommand implements Callable<Integer> {
         for (String why : outcome.refused()) {
             err.println(spec.qualifiedName() + ": warning: " + why);
         }
+        for (String note : outcome.notes()) {
+            err.println(spec.qualifiedName() + ": note: " + note);
+        }
         if (json) {
             o.println(Output.json(json(outcome)));
         } else {
@@ -244,6 +247,7 @@ final class RecurrenceCommand implements Callable<Integer> {
         }
         m.put("maps", maps);
         m.put("left_out", outcome.refused());
+        m.put("notes", outcome.notes());
         return m;
     }
 }
