@@ -530,7 +530,10 @@ public final class ResultsStore implements AutoCloseable {
         return where.toString();
     }
 
-    /** The footprints of the wafers {@code filter} takes, in one group {@value #ALL}; see {@link #footprints(StoreFilter, String)}. */
+    /**
+     * The footprints of the wafers {@code filter} takes, in one group {@value #ALL}; see
+     * {@link #footprints(StoreFilter, String)}.
+     */
     public List<StoredFootprint> footprints(StoreFilter filter) {
         return footprints(filter, null);
     }

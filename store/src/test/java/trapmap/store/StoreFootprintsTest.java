@@ -17,7 +17,7 @@ import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.batch.Footprint;
 import trapmap.maps.batch.WaferResult;
 
-/** {@link ResultsStore#footprints}: the footprints come back as written, filtered by {@link StoreFilter} and grouped. */
+/** {@link ResultsStore#footprints}: the footprints come back as written, filtered ({@link StoreFilter}) and grouped. */
 class StoreFootprintsTest {
     @TempDir
     Path dir;

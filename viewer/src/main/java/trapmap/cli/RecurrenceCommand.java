@@ -42,13 +42,13 @@ import trapmap.store.StoreRecurrence;
                 + " and where it was flagged) over the wafers of the query: per wafer family, or with --by per value"
                 + " of a sidecar fact (boat_slot, furnace_tube, ...) or lot, day or week and family. Each cell shows"
                 + " the share of the wafers evaluated there that were flagged there.",
-            "Hot spots: cells flagged on more than 25 % of their wafers, covered by at least 5 wafers and half of"
+            "Hot spots: cells flagged on more than 25 %% of their wafers, covered by at least 5 wafers and half of"
                 + " the group's wafers of the family; 8-connected cells form one spot.",
             ""},
         footer = {"", "Output in DIR: recurrence-[GROUP-]FAMILY.tif (share of wafers flagged, 0 to 1, 1 mm cells),"
-                + " recurrence-[GROUP-]FAMILY.png (0-100 % with the hot spots outlined), recurrence.csv (group, family,"
-                + " wafers, file) and hotspots.csv (group, family, wafers, spot, cells, peak_share 0 to 1, centroid_x_mm,"
-                + " centroid_y_mm, wafer coordinates); on stdout one line per map.",
+                + " recurrence-[GROUP-]FAMILY.png (0-100 %% with the hot spots outlined), recurrence.csv (group, family,"
+                + " wafers, file) and hotspots.csv (group, family, wafers, spot, cells, peak_share 0 to 1,"
+                + " centroid_x_mm, centroid_y_mm, wafer coordinates); on stdout one line per map.",
             "Exit codes: 0 done; 2 invalid input (one line on stderr names the option), or the store cannot be read"
                 + " or holds no wafer for the query; 3 internal error; 4 an output could not be written (disk full,"
                 + " no permission); 5 the pictures could not be drawn: this Java runtime lacks font libraries or fonts"

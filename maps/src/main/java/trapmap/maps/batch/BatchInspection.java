@@ -23,7 +23,6 @@ import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVParser;
 import org.apache.commons.csv.CSVPrinter;
 import org.apache.commons.csv.CSVRecord;
-import trapmap.maps.io.AtomicFiles;
 import trapmap.maps.io.CsvCells;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.NumberText;
