@@ -40,6 +40,18 @@ class FootprintCoarsenedTest {
     }
 
     @Test
+    void aRecurrenceMapTakesOrRefusesACoarsenedFootprintByItsReachInMm() {
+        BitSet covered = new BitSet();
+        covered.set(0, 25);
+        Footprint near = new Footprint("x", 1.0, 900, -2, 5, 5, covered, new BitSet()); // reaches 905 mm
+        Footprint far = new Footprint("x", 1.0, 1100, -2, 5, 5, covered, new BitSet()); // reaches 1105 mm
+        assertThat(RecurrenceMap.accepts(near)).isTrue();
+        assertThat(RecurrenceMap.accepts(near.coarsened(3))).isTrue();
+        assertThat(RecurrenceMap.accepts(far)).isFalse();
+        assertThat(RecurrenceMap.accepts(far.coarsened(3))).as("cells 367 and 368 of 3 mm reach 1107 mm").isFalse();
+    }
+
+    @Test
     void onlyPositiveOddFactorsNest() {
         Footprint f = new Footprint("x", 1.0, -2, -2, 4, 4, new BitSet(), new BitSet());
         assertThatThrownBy(() -> f.coarsened(2)).isInstanceOf(IllegalArgumentException.class)
