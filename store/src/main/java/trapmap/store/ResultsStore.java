@@ -504,16 +504,8 @@ public final class ResultsStore implements AutoCloseable {
     public synchronized List<StoredPoint> points(String figure, String groupBy, Instant since, String profile) {
         String g = groupBy == null ? "none" : groupBy.trim();
         boolean byAttribute = groupsByAttribute(g);
-        StringBuilder where = new StringBuilder(" WHERE 1 = 1");
         List<Object> args = new ArrayList<>();
-        if (since != null) {
-            where.append(" AND COALESCE(w.measured_at_ms, w.inspected_at_ms) >= ?");
-            args.add(since.toEpochMilli());
-        }
-        if (profile != null) {
-            where.append(" AND w.profile = ?");
-            args.add(profile);
-        }
+        String where = where(new StoreFilter(since, null, profile, List.of(), Map.of()), args);
         String sql = "SELECT w.result_key, w.measured_at_ms, w.inspected_at_ms, w.lot, w.verdict, w.wafer_id,"
                 + " w.file, w.profile, f.value, " + (byAttribute ? "a.value" : "NULL") + ", w.run_id"
                 + " FROM wafers w LEFT JOIN wafer_figures f ON f.result_key = w.result_key AND f.figure = ?"
@@ -526,7 +518,7 @@ public final class ResultsStore implements AutoCloseable {
         }
         all.addAll(args);
         try {
-            Map<String, List<String>> failed = failedRules(where.toString(), args);
+            Map<String, List<String>> failed = failedRules(where, args);
             List<StoredPoint> points = new ArrayList<>();
             try (PreparedStatement p = connection.prepareStatement(sql)) {
                 bind(p, all);
@@ -559,6 +551,129 @@ public final class ResultsStore implements AutoCloseable {
         } catch (SQLException e) {
             throw new StoreException("store " + name + ": the points of " + figure + " could not be read: "
                     + oneLine(e), e);
+        }
+    }
+
+    /**
+     * The condition {@code " WHERE ..."} on the wafers {@code w} that {@code filter} takes, its arguments added to
+     * {@code args} in order.
+     */
+    private static String where(StoreFilter filter, List<Object> args) {
+        StringBuilder where = new StringBuilder(" WHERE 1 = 1");
+        if (filter.since() != null) {
+            where.append(" AND COALESCE(w.measured_at_ms, w.inspected_at_ms) >= ?");
+            args.add(filter.since().toEpochMilli());
+        }
+        if (filter.until() != null) {
+            where.append(" AND COALESCE(w.measured_at_ms, w.inspected_at_ms) < ?");
+            args.add(filter.until().toEpochMilli());
+        }
+        if (filter.profile() != null) {
+            where.append(" AND w.profile = ?");
+            args.add(filter.profile());
+        }
+        if (!filter.lots().isEmpty()) {
+            where.append(" AND w.lot IN (?").append(", ?".repeat(filter.lots().size() - 1)).append(')');
+            args.addAll(filter.lots());
+        }
+        for (Map.Entry<String, String> e : filter.attributes().entrySet()) {
+            where.append(" AND EXISTS (SELECT 1 FROM wafer_attributes fa WHERE fa.result_key = w.result_key"
+                    + " AND fa.name = ? AND fa.value = ?)");
+            args.add(e.getKey());
+            args.add(e.getValue());
+        }
+        return where.toString();
+    }
+
+    /**
+     * The footprints of the wafers {@code filter} takes, in one group {@value #ALL}; see
+     * {@link #footprints(StoreFilter, String)}.
+     */
+    public List<StoredFootprint> footprints(StoreFilter filter) {
+        return footprints(filter, null);
+    }
+
+    /**
+     * The footprints (where each wafer was evaluated and where flagged, {@link Footprint}) of the stored wafers that
+     * {@code filter} takes, oldest first (by time, then wafer id and file); wafers without a footprint (errors) are
+     * left out. The cells are those the batch wrote: the covered set as stored, the flagged cells from
+     * {@code footprint_cells}.
+     *
+     * @param groupBy as for {@link #points}: {@code lot}, {@code day}, {@code week}, a sidecar fact, or null/{@code
+     *                none} for one group {@value #ALL}; a wafer without a value is in {@value #NO_GROUP}
+     * @throws StoreException naming the store when it cannot be read
+     */
+    public synchronized List<StoredFootprint> footprints(StoreFilter filter, String groupBy) {
+        String g = groupBy == null || groupBy.isBlank() ? "none" : groupBy.trim();
+        boolean byAttribute = groupsByAttribute(g);
+        List<Object> args = new ArrayList<>();
+        String where = where(filter, args);
+        String sql = "SELECT w.result_key, w.measured_at_ms, w.inspected_at_ms, w.lot, w.wafer_id, w.file, w.profile,"
+                + " p.family, p.pitch_mm, p.min_i, p.min_j, p.width, p.height, p.covered, "
+                + (byAttribute ? "a.value" : "NULL")
+                + " FROM wafers w JOIN wafer_footprints p ON p.result_key = w.result_key"
+                + (byAttribute ? " LEFT JOIN wafer_attributes a ON a.result_key = w.result_key AND a.name = ?" : "")
+                + where + " ORDER BY COALESCE(w.measured_at_ms, w.inspected_at_ms), w.wafer_id, w.file";
+        List<Object> all = new ArrayList<>();
+        if (byAttribute) {
+            all.add(g);
+        }
+        all.addAll(args);
+        try {
+            Map<String, List<int[]>> cells = new HashMap<>();
+            try (PreparedStatement p = connection.prepareStatement("SELECT c.result_key, c.cell_i, c.cell_j"
+                    + " FROM footprint_cells c WHERE c.result_key IN (SELECT w.result_key FROM wafers w" + where
+                    + ")")) {
+                bind(p, args);
+                try (ResultSet rs = p.executeQuery()) {
+                    while (rs.next()) {
+                        cells.computeIfAbsent(rs.getString(1), k -> new ArrayList<>())
+                                .add(new int[] {rs.getInt(2), rs.getInt(3)});
+                    }
+                }
+            }
+            List<StoredFootprint> out = new ArrayList<>();
+            Base64.Decoder b64 = Base64.getDecoder();
+            try (PreparedStatement p = connection.prepareStatement(sql)) {
+                bind(p, all);
+                try (ResultSet rs = p.executeQuery()) {
+                    while (rs.next()) {
+                        String key = rs.getString(1);
+                        long measured = rs.getLong(2);
+                        boolean isMeasured = !rs.wasNull();
+                        Instant time = Instant.ofEpochMilli(isMeasured ? measured : rs.getLong(3));
+                        String lot = rs.getString(4);
+                        int minI = rs.getInt(10);
+                        int minJ = rs.getInt(11);
+                        int width = rs.getInt(12);
+                        int height = rs.getInt(13);
+                        BitSet flagged = new BitSet(width * height);
+                        for (int[] c : cells.getOrDefault(key, List.of())) {
+                            int i = c[0] - minI;
+                            int j = c[1] - minJ;
+                            if (i < 0 || j < 0 || i >= width || j >= height) {
+                                throw new StoreException("store " + name + ": wafer " + rs.getString(6)
+                                        + ": flagged cell (" + c[0] + ", " + c[1] + ") outside its footprint");
+                            }
+                            flagged.set(j * width + i); // row by row from (minI, minJ), as written
+                        }
+                        Footprint f = new Footprint(rs.getString(8), rs.getDouble(9), minI, minJ, width, height,
+                                BitSet.valueOf(b64.decode(rs.getString(14))), flagged);
+                        String group = switch (g) {
+                            case "none" -> ALL;
+                            case "lot" -> lot;
+                            case "day" -> LocalDate.ofInstant(time, ZoneOffset.UTC).toString();
+                            case "week" -> isoWeek(LocalDate.ofInstant(time, ZoneOffset.UTC));
+                            default -> rs.getString(15);
+                        };
+                        out.add(new StoredFootprint(rs.getString(5), lot, time, isMeasured, rs.getString(6),
+                                rs.getString(7), group == null ? NO_GROUP : group, f));
+                    }
+                }
+            }
+            return out;
+        } catch (SQLException | IllegalArgumentException e) {
+            throw new StoreException("store " + name + ": the footprints could not be read: " + oneLine(e), e);
         }
     }
 

@@ -64,6 +64,10 @@ final class Flags {
             entry("--profile", "a rules profile's name"),
             entry("--baseline", "a number of wafers (groups), from 2"),
             entry("--baseline-until", "a UTC date (2026-11-02) or time (2026-11-02T08:00:00Z)"),
+            entry("--until", "a UTC date (2026-11-02, the whole day) or time (2026-11-02T08:00:00Z)"),
+            entry("--lot", "a lot's name"),
+            entry("--where", "NAME=VALUE: a sidecar fact and its value (furnace_tube=T2)"),
+            entry("--cell", "a cell size in mm: 1 or an odd number (3, 5, ...)"),
             entry("--settle-s", "a time in s, from 0"),
             entry("--scan-s", "a time in s, above 0"),
             entry("--exit-idle-s", "a time in s, from 0 (0: never)"));
@@ -74,6 +78,7 @@ final class Flags {
             entry("watch --out", "the folder for the results"),
             entry("report --out", "the report to write (.pdf)"),
             entry("trend --out", "the output file (.pdf, .png or .csv)"),
+            entry("recurrence --out", "the folder for the recurrence maps and tables"),
             entry("identify --output", "the best-defect index map (.tif)"),
             entry("demo --out", "the folder to write the demonstration set into"),
             entry("demo --history", "the folder to write the invented production history into"),

@@ -33,7 +33,8 @@ public final class TrapmapCommand implements Callable<Integer> {
     /** The sub-commands, in the order of the root help. */
     static final List<Class<?>> SUBCOMMANDS = List.of(CalcCommand.class, DefectsCommand.class, ConvertCommand.class,
             StatsCommand.class, CompareCommand.class, IronMapCommand.class, IdentifyCommand.class, InspectCommand.class,
-            WatchCommand.class, ReportCommand.class, TrendCommand.class, DemoCommand.class, ViewCommand.class);
+            WatchCommand.class, ReportCommand.class, TrendCommand.class, RecurrenceCommand.class, DemoCommand.class,
+            ViewCommand.class);
 
     @Spec
     CommandSpec spec;

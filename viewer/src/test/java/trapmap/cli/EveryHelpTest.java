@@ -40,6 +40,7 @@ class EveryHelpTest {
             Map.entry("trapmap watch", Set.of(0, 2, 3, 4)),
             Map.entry("trapmap report", Set.of(0, 1, 2, 3, 5)),
             Map.entry("trapmap trend", Set.of(0, 1, 2, 3, 5)),
+            Map.entry("trapmap recurrence", Set.of(0, 2, 3, 4, 5)),
             Map.entry("trapmap demo", Set.of(0, 2, 3)),
             Map.entry("trapmap view", Set.of(0, 2)));
 

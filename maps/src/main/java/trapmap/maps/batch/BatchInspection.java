@@ -23,7 +23,6 @@ import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVParser;
 import org.apache.commons.csv.CSVPrinter;
 import org.apache.commons.csv.CSVRecord;
-import trapmap.maps.io.AtomicFiles;
 import trapmap.maps.io.CsvCells;
 import trapmap.maps.io.MapFiles;
 import trapmap.maps.io.NumberText;
@@ -1015,31 +1014,9 @@ public final class BatchInspection {
                 default -> error++;
             }
         }
-        List<Path> written = new ArrayList<>();
-        Map<String, Integer> wafersPerFamily = recurrence.waferCounts();
-        StringBuilder families = new StringBuilder(String.join(",", RECURRENCE_COLUMNS)).append('\n');
         boolean pictures = recurrence.families().isEmpty() || recurrencePictures == null
                 || recurrencePictures.getAsBoolean();
-        for (Map.Entry<String, Recurrence> e : recurrence.families().entrySet()) {
-            String stem = RECURRENCE_PREFIX + e.getKey().replaceAll("[^A-Za-z0-9._-]", "_");
-            Path tif = outDir.resolve(stem + ".tif");
-            OutputFolder.write(tif, () -> MapFiles.write(e.getValue().fraction(), tif));
-            written.add(tif);
-            Path png = outDir.resolve(stem + ".png");
-            if (pictures) {
-                OutputFolder.write(png, () -> RecurrencePicture.write(e.getValue(),
-                        HotSpots.find(e.getValue(), HotSpots.Criteria.DEFAULT), png));
-                written.add(png);
-            } else { // an earlier run's picture would not match this map
-                OutputFolder.write(png, () -> Files.deleteIfExists(png));
-            }
-            families.append(CSVFormat.DEFAULT.format(CsvCells.text(e.getKey()), wafersPerFamily.get(e.getKey()),
-                            CsvCells.text(stem + ".tif")))
-                    .append('\n');
-        }
-        Path recurrenceCsv = outDir.resolve(RECURRENCE_NAME);
-        OutputFolder.write(recurrenceCsv, () -> AtomicFiles.write(recurrenceCsv,
-                families.toString().getBytes(StandardCharsets.UTF_8)));
+        List<Path> written = RecurrenceFiles.write(outDir, RecurrenceFiles.of(recurrence), false, pictures);
         Summary summary = new Summary(pass, fail, error, skipped, csv, outDir.resolve(JSON_NAME), written);
         writeJson(summary, columns, rows, wafersJson);
         return summary;

@@ -27,7 +27,11 @@ public record Footprint(String family, double pitchMm, int minI, int minJ, int w
      * ascending), and those holding a flagged one ({@code flagged}: pixel indices, all of them evaluated).
      */
     static Footprint of(String family, PixelGrid grid, int[] indices, int count, BitSet flagged) {
-        double p = PITCH_MM;
+        return of(family, grid, indices, count, flagged, PITCH_MM);
+    }
+
+    /** As {@link #of(String, PixelGrid, int[], int, BitSet)} on cells of {@code p} mm. */
+    static Footprint of(String family, PixelGrid grid, int[] indices, int count, BitSet flagged, double p) {
         int w = grid.width();
         int h = grid.height();
         int i0 = cell(Math.min(grid.xMm(0), grid.xMm(w - 1)), p);
@@ -48,6 +52,46 @@ public record Footprint(String family, double pitchMm, int minI, int minJ, int w
         long[] hit = new long[words.length];
         flagged(grid, p, j0, cw, column, flagged.toLongArray(), hit);
         return new Footprint(family, p, i0, j0, cw, ch, BitSet.valueOf(words), BitSet.valueOf(hit));
+    }
+
+    /**
+     * This footprint on cells {@code factor} times as large (odd, so that each cell lies in exactly one larger cell:
+     * cell i in larger cell floor(i/factor + ½)): a larger cell is covered, or flagged, when one of its cells is. The
+     * result equals the footprint made from the wafer's pixels on the larger cells directly, since a pixel lies in a
+     * larger cell exactly when its cell does. For maps whose pixels are larger than the cells, whose footprints
+     * cover only every second or third cell, so that neighbouring flagged positions do not touch.
+     *
+     * @throws IllegalArgumentException when {@code factor} is not a positive odd number
+     */
+    public Footprint coarsened(int factor) {
+        if (factor < 1 || factor % 2 == 0) {
+            throw new IllegalArgumentException("the cell factor must be a positive odd number (1, 3, 5, ...) so that"
+                    + " cells nest, but was " + factor);
+        }
+        if (factor == 1) {
+            return this;
+        }
+        int i0 = coarse(minI, factor);
+        int j0 = coarse(minJ, factor);
+        int cw = coarse(minI + width - 1, factor) - i0 + 1;
+        int ch = coarse(minJ + height - 1, factor) - j0 + 1;
+        return new Footprint(family, pitchMm * factor, i0, j0, cw, ch, coarse(covered, factor, i0, j0, cw),
+                coarse(flagged, factor, i0, j0, cw));
+    }
+
+    private BitSet coarse(BitSet cells, int factor, int i0, int j0, int cw) {
+        BitSet out = new BitSet();
+        for (int b = cells.nextSetBit(0); b >= 0; b = cells.nextSetBit(b + 1)) {
+            int i = coarse(minI + b % width, factor) - i0;
+            int j = coarse(minJ + b / width, factor) - j0;
+            out.set(j * cw + i);
+        }
+        return out;
+    }
+
+    /** The larger cell floor(i/factor + ½) of cell i, factor odd. */
+    private static int coarse(int i, int factor) {
+        return Math.floorDiv(2 * i + factor, 2 * factor);
     }
 
     /** The cell column of each pixel column, from the first cell column {@code i0}. */

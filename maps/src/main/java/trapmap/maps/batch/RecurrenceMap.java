@@ -118,7 +118,7 @@ public final class RecurrenceMap {
 
     /** How far the footprint's cells reach from the wafer centre, mm. */
     private static double reachMm(Footprint f) {
-        return Footprint.PITCH_MM * Math.max(Math.max(Math.abs((double) f.minI()),
+        return f.pitchMm() * Math.max(Math.max(Math.abs((double) f.minI()),
                 Math.abs((double) f.minI() + f.width())), Math.max(Math.abs((double) f.minJ()),
                 Math.abs((double) f.minJ() + f.height())));
     }
