@@ -52,9 +52,6 @@ public final class StoreWriter implements BatchInspection.WaferListener, AutoClo
             return;
         }
         try {
-            synchronized (this) {
-                handed++;
-            }
             queue.put(result);
             synchronized (this) {
                 handed++; // after the put: a wafer never queued is never waited for

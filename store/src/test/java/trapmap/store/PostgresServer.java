@@ -21,12 +21,19 @@ import java.util.stream.Stream;
  * {@code runuser}. When no server can be started here ({@code initdb}/{@code pg_ctl} missing, or root without such a
  * user, or the start fails) {@link #skipped()} gives the reason, for {@code assumeTrue}. Shared with other modules'
  * tests through this module's test jar.
+ * <p>
+ * When the environment names a running server in {@value #ENV} ({@code postgresql://localhost:PORT/postgres}, with this
+ * class's user and password; {@code scripts/pg-test-server start} makes one, and {@code .ci/run} does so before the
+ * tests), that server is used instead and left running, each test in databases of its own, and a server that cannot be
+ * reached is a failure, never a skip.
  */
 public final class PostgresServer implements AutoCloseable {
     /** The user the server knows. */
     public static final String USER = "trapmap";
     /** Its password (a throw-away server's). */
     public static final String PASSWORD = "test-only-password";
+    /** The environment variable naming a running server to use instead of starting one. */
+    public static final String ENV = "TRAPMAP_TEST_PG";
 
     private Path base;
     private Path data;
@@ -35,6 +42,8 @@ public final class PostgresServer implements AutoCloseable {
     private int port;
     private String skipped;
     private int databases;
+    /** A server this class did not start (named by {@value #ENV}): used, never stopped. */
+    private boolean external;
 
     private PostgresServer() {
     }
@@ -42,8 +51,33 @@ public final class PostgresServer implements AutoCloseable {
     /** Starts a server; never throws for a server that cannot run here ({@link #skipped()} says why). */
     public static PostgresServer start() throws IOException, InterruptedException {
         PostgresServer s = new PostgresServer();
-        s.skipped = s.startServer();
+        String given = System.getenv(ENV);
+        if (given != null && !given.isBlank()) {
+            s.useRunning(given.trim());
+        } else {
+            s.skipped = s.startServer();
+        }
         return s;
+    }
+
+    /** Uses the running server at {@code url}; throws when it cannot be reached (a test must then fail). */
+    private void useRunning(String url) throws IOException {
+        java.util.regex.Matcher m = java.util.regex.Pattern.compile("postgresql://localhost:(\\d+)/postgres")
+                .matcher(url);
+        if (!m.matches()) {
+            throw new IllegalStateException(ENV + " must be postgresql://localhost:PORT/postgres but was " + url);
+        }
+        external = true;
+        port = Integer.parseInt(m.group(1));
+        base = Files.createTempDirectory("trapmap-pg");
+        Files.setPosixFilePermissions(base, PosixFilePermissions.fromString("rwxr-xr-x"));
+        try (java.sql.Connection c = ResultsStore.postgres(url(), env()).getConnection()) {
+            if (!c.isValid(10)) {
+                throw new IllegalStateException(ENV + "=" + url + ": the server does not answer");
+            }
+        } catch (java.sql.SQLException e) {
+            throw new IllegalStateException(ENV + "=" + url + ": the server cannot be reached: " + e.getMessage(), e);
+        }
     }
 
     private String startServer() throws IOException, InterruptedException {
@@ -131,7 +165,8 @@ public final class PostgresServer implements AutoCloseable {
      * not see each other's rows.
      */
     public synchronized String newDatabase() throws java.sql.SQLException {
-        String db = "trapmap_test_" + (++databases);
+        // unique across the test processes that may share one server
+        String db = "trapmap_test_" + ProcessHandle.current().pid() + "_" + (++databases);
         try (java.sql.Connection c = ResultsStore.postgres(url(), env()).getConnection();
              java.sql.Statement st = c.createStatement()) {
             st.execute("CREATE DATABASE " + db);
@@ -146,7 +181,7 @@ public final class PostgresServer implements AutoCloseable {
 
     @Override
     public void close() throws IOException, InterruptedException {
-        if (port != 0) {
+        if (port != 0 && !external) {
             run(cmd(pgCtl.toString(), "-D", data.toString(), "-m", "immediate", "-w", "stop"), 60);
             port = 0;
         }

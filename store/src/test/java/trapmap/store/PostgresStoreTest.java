@@ -19,14 +19,19 @@ import trapmap.maps.batch.WaferResult;
 
 /**
  * The same schema and store on a real PostgreSQL server ({@link PostgresServer}: started by the test on a temporary
- * data directory, password authentication). Skipped, with the reason, only when no server can be started here.
+ * data directory, or the one {@code .ci/run} started; password authentication), in a database of its own. Skipped, with the reason, only when no server can be started here.
  */
 class PostgresStoreTest {
     private static PostgresServer server;
+    /** A database of this test's own on the server. */
+    private static String url;
 
     @BeforeAll
     static void startServer() throws Exception {
         server = PostgresServer.start();
+        if (server.skipped() == null) {
+            url = server.newDatabase();
+        }
     }
 
     @AfterAll
@@ -35,7 +40,7 @@ class PostgresStoreTest {
     }
 
     private static ResultsStore open(Map<String, String> env) {
-        return ResultsStore.open(server.url(), env,
+        return ResultsStore.open(url, env,
                 Clock.fixed(Instant.parse("2026-12-01T00:00:00Z"), ZoneOffset.UTC));
     }
 
@@ -71,7 +76,7 @@ class PostgresStoreTest {
             assertThat(s.count("wafers")).isEqualTo(1);
         }
         assertThatThrownBy(() -> open(Map.of("PGUSER", PostgresServer.USER, "PGPASSWORD", "wrong")))
-                .isInstanceOf(StoreException.class).hasMessageContaining(server.url())
+                .isInstanceOf(StoreException.class).hasMessageContaining(url)
                 .hasMessageNotContaining("wrong");
     }
 }
