@@ -13,9 +13,10 @@ import trapmap.maps.batch.RulesException;
 
 /**
  * {@code spark-submit --class trapmap.cluster.ArchiveInspect trapmap-cluster.jar --input PATH --rules R.json
- * --output PATH [--partition-by day|lot]}: judges an archive of maps as {@code inspect} judges a folder, on Spark
- * ({@link ArchiveJob}). Exit status 0 when every map was judged or turned into an error row, 2 for invalid
- * arguments or rules (one line naming the option or file), 3 when the job failed.
+ * --output PATH [--partition-by day|lot] [--store S]}: judges an archive of maps as {@code inspect} judges a folder,
+ * on Spark ({@link ArchiveJob}), and loads the tables into a results store ({@link StoreLoad}). Exit status 0 when
+ * every map was judged or turned into an error row, 2 for invalid arguments or rules (one line naming the option or
+ * file), 3 when the job failed, 4 when the store could not be written.
  */
 @Command(name = "trapmap-cluster", mixinStandardHelpOptions = true, sortOptions = false,
         description = {"Judges an archive of wafer maps (local, HDFS or object-storage paths) with the rules of"
@@ -24,7 +25,7 @@ import trapmap.maps.batch.RulesException;
                 "Caution: equivalent density assumes one dominant defect; verify with an independent method before"
                 + " scrapping material; follow site procedures."},
         footer = {"", "Exit codes: 0 every map judged (bad files become error rows); 2 invalid arguments or rules;"
-                + " 3 the job failed."})
+                + " 3 the job failed; 4 the tables were written but could not be loaded into the store."})
 public final class ArchiveInspect implements Callable<Integer> {
     @Option(names = "--input", required = true, paramLabel = "PATH",
             description = "a map file or a folder of maps (.tif, .tiff, .csv with their .json sidecars); repeatable;"
@@ -49,6 +50,11 @@ public final class ArchiveInspect implements Callable<Integer> {
             description = "the Spark master, e.g. local[*] to run on this machine without a cluster (default: what"
                     + " spark-submit sets, else local[*])")
     String master;
+
+    @Option(names = "--store", paramLabel = "STORE",
+            description = "also load the output's tables into a results store (a SQLite file, or"
+                    + " postgresql://host[:port]/db with PGUSER/PGPASSWORD), as inspect --store stores wafers")
+    String store;
 
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
@@ -98,12 +104,19 @@ public final class ArchiveInspect implements Callable<Integer> {
             out.println(o.total() + " maps: " + o.pass() + " pass, " + o.fail() + " fail, " + o.error() + " error;"
                     + " Parquet tables partitioned by " + key.column() + ": " + o.results() + ", " + o.regions()
                     + ", " + o.footprints());
+            if (store != null) {
+                long n = StoreLoad.load(spark, output, rules, store);
+                out.println(n + " wafers loaded into the results store " + store);
+            }
             out.println("Caution: equivalent density assumes one dominant defect; verify with an independent method"
                     + " before scrapping material; follow site procedures.");
             return 0;
         } catch (RulesException e) {
             err.println("trapmap-cluster: --rules " + e.getMessage());
             return 2;
+        } catch (trapmap.store.StoreException e) {
+            err.println("trapmap-cluster: --store " + oneLine(e));
+            return 4;
         } catch (IOException e) {
             err.println("trapmap-cluster: " + oneLine(e));
             return 2;

@@ -34,9 +34,10 @@ import trapmap.maps.region.Region;
 final class WaferRows implements java.io.Serializable {
     private static final long serialVersionUID = 1L;
 
-    /** The fixed columns of {@code regions.csv} after file and wafer id, with their types. */
+    /** The columns of {@code regions.csv} after file and wafer id (and the region's pixels), with their types. */
     static final StructType REGION = new StructType(new StructField[] {
-        field("region", DataTypes.IntegerType), field("area_mm2", DataTypes.DoubleType),
+        field("region", DataTypes.IntegerType), field("pixel_count", DataTypes.IntegerType),
+        field("area_mm2", DataTypes.DoubleType),
         field("x_mm", DataTypes.DoubleType), field("y_mm", DataTypes.DoubleType),
         field("centroid_x_mm", DataTypes.DoubleType), field("centroid_y_mm", DataTypes.DoubleType),
         field("centroid_inside", DataTypes.BooleanType), field("min_x_mm", DataTypes.DoubleType),
@@ -151,7 +152,7 @@ final class WaferRows implements java.io.Serializable {
         List<Row> regions = new ArrayList<>(r.regions().size());
         for (FlaggedRegions.FlaggedRegion fr : r.regions()) {
             Region g = fr.region();
-            regions.add(RowFactory.create(g.id(), g.areaMm2(), g.positionXMm(), g.positionYMm(), g.centroidXMm(),
+            regions.add(RowFactory.create(g.id(), g.pixelCount(), g.areaMm2(), g.positionXMm(), g.positionYMm(), g.centroidXMm(),
                     g.centroidYMm(), g.centroidInside(), g.bounds().minXMm(), g.bounds().minYMm(),
                     g.bounds().maxXMm(), g.bounds().maxYMm(), number(g.peakValue()), g.peakXMm(), g.peakYMm(),
                     number(g.meanValue()), number(g.edgeDistanceMm()), number(fr.peakDensityCm3()),
