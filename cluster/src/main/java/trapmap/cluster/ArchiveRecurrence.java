@@ -52,6 +52,9 @@ public final class ArchiveRecurrence {
         DataTypes.createStructField("centroid_x_mm", DataTypes.DoubleType, false),
         DataTypes.createStructField("centroid_y_mm", DataTypes.DoubleType, false)});
 
+    /** Cells of the recurrence table per task when it is written. */
+    private static final int CELLS_PER_TASK = 20_000;
+
     /** The recurrence of each family and its hot spots (default criteria), by family name. */
     public record Outcome(Map<String, Recurrence> families, Map<String, HotSpots.Result> hotSpots) {
     }
@@ -113,7 +116,12 @@ public final class ArchiveRecurrence {
                         spot.peakValue(), spot.centroidXMm(), spot.centroidYMm()));
             }
         });
-        spark.createDataFrame(cells, CELLS).coalesce(1).write().mode(SaveMode.Overwrite).parquet(out + RECURRENCE);
+        // the cells in slices of at most CELLS_PER_TASK (a 300 mm family has about 70,000), so that no task carries
+        // them all (a file per slice)
+        org.apache.spark.api.java.JavaSparkContext jsc = org.apache.spark.api.java.JavaSparkContext.fromSparkContext(
+                spark.sparkContext());
+        spark.createDataFrame(jsc.parallelize(cells, Math.max(1, (cells.size() + CELLS_PER_TASK - 1) / CELLS_PER_TASK)),
+                CELLS).write().mode(SaveMode.Overwrite).parquet(out + RECURRENCE);
         spark.createDataFrame(spots, SPOTS).coalesce(1).write().mode(SaveMode.Overwrite).parquet(out + HOTSPOTS);
     }
 }
