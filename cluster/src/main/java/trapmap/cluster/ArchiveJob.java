@@ -238,6 +238,12 @@ public final class ArchiveJob {
         }
     }
 
+    /**
+     * Told each map's name before an executor judges it, in local mode only (a test's way to fail a task attempt and
+     * see Spark run it again); null: nothing.
+     */
+    static volatile java.util.function.Consumer<String> beforeEachMap;
+
     /** The executors' work: each map of a partition judged, one row each. */
     static final class Inspect implements FlatMapFunction<Iterator<Row>, Row> {
         private static final long serialVersionUID = 1L;
@@ -266,6 +272,10 @@ public final class ArchiveJob {
                 public Row next() {
                     Row f = files.next();
                     String name = f.getString(0);
+                    java.util.function.Consumer<String> hook = beforeEachMap;
+                    if (hook != null) {
+                        hook.accept(name);
+                    }
                     byte[] content = (byte[]) f.get(1);
                     SidecarBytes sidecar = sidecar(name, c);
                     WaferResult r = judge.inspection().inspect(name, () -> {

@@ -8,7 +8,12 @@ final class LocalSpark {
     }
 
     static SparkSession start() {
-        return SparkSession.builder().appName("trapmap cluster test").master("local[2]")
+        return start("local[2]");
+    }
+
+    /** As {@link #start()} with another master, e.g. {@code local[2,3]}: two cores, a task tried up to 3 times. */
+    static SparkSession start(String master) {
+        return SparkSession.builder().appName("trapmap cluster test").master(master)
                 .config("spark.ui.enabled", "false")
                 .config("spark.sql.shuffle.partitions", "2")
                 .config("spark.driver.host", "localhost")
