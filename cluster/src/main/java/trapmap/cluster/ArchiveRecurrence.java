@@ -53,7 +53,7 @@ public final class ArchiveRecurrence {
         DataTypes.createStructField("centroid_y_mm", DataTypes.DoubleType, false)});
 
     /** Cells of the recurrence table per task when it is written. */
-    private static final int CELLS_PER_TASK = 20_000;
+    private static final int CELLS_PER_TASK = 10_000;
 
     /** The recurrence of each family and its hot spots (default criteria), by family name. */
     public record Outcome(Map<String, Recurrence> families, Map<String, HotSpots.Result> hotSpots) {
