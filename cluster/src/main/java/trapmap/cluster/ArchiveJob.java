@@ -179,8 +179,17 @@ public final class ArchiveJob {
             } catch (FileNotFoundException e) {
                 throw new IOException("input " + in + " does not exist", e);
             }
-            paths.add(st.isDirectory() && !request.recursive() ? new org.apache.hadoop.fs.Path(p, MAP_GLOB).toString()
-                    : in);
+            if (st.isDirectory() && !request.recursive()) {
+                org.apache.hadoop.fs.Path glob = new org.apache.hadoop.fs.Path(p, MAP_GLOB);
+                FileStatus[] found = p.getFileSystem(conf).globStatus(glob);
+                if (found == null || found.length == 0) {
+                    throw new IOException("no map files (.tif, .tiff, .csv) in " + in
+                            + "; use --recursive for the folders below it");
+                }
+                paths.add(glob.toString());
+            } else {
+                paths.add(in);
+            }
         }
         DataFrameReader reader = spark.read().format("binaryFile");
         if (request.recursive()) {
