@@ -211,6 +211,65 @@ public final class RecurrenceMap {
         return made;
     }
 
+    /**
+     * One family's counts, for moving a recurrence map between processes (a cluster job's partitions): the wafers
+     * added, and per cell of {@code [minI, minI + width) × [minJ, minJ + height)} (row by row) the wafers evaluated
+     * there and those flagged there.
+     */
+    public record Counts(String family, double pitchMm, int wafers, int minI, int minJ, int width, int height,
+                         int[] evaluated, int[] flagged) implements java.io.Serializable {
+        private static final long serialVersionUID = 1L;
+
+        public Counts {
+            if (evaluated.length != width * height || flagged.length != width * height) {
+                throw new IllegalArgumentException("counts must have one entry per cell (" + width * height + ")");
+            }
+            evaluated = evaluated.clone();
+            flagged = flagged.clone();
+        }
+
+        @Override
+        public int[] evaluated() {
+            return evaluated.clone();
+        }
+
+        @Override
+        public int[] flagged() {
+            return flagged.clone();
+        }
+    }
+
+    /** The counts of every family that holds a wafer, by family name ({@link #addCounts} adds them elsewhere). */
+    public synchronized java.util.List<Counts> counts() {
+        java.util.List<Counts> out = new java.util.ArrayList<>();
+        families.forEach((name, f) -> {
+            if (f.wafers > 0) {
+                out.add(new Counts(name, f.pitchMm, f.wafers, f.minI, f.minJ, f.width, f.height, f.evaluated,
+                        f.flagged));
+            }
+        });
+        return out;
+    }
+
+    /**
+     * Adds one family's counts ({@link #counts} of another map): afterwards this map holds what {@link #addAll} of
+     * that map gives for the family.
+     */
+    public synchronized void addCounts(Counts c) {
+        RecurrenceMap other = new RecurrenceMap();
+        Family f = new Family();
+        f.minI = c.minI();
+        f.minJ = c.minJ();
+        f.width = c.width();
+        f.height = c.height();
+        f.evaluated = c.evaluated();
+        f.flagged = c.flagged();
+        f.wafers = c.wafers();
+        f.pitchMm = c.pitchMm();
+        other.families.put(c.family(), f);
+        addAll(other);
+    }
+
     private static Recurrence recurrence(String name, Family fam) {
         int minI = Integer.MAX_VALUE;
         int maxI = Integer.MIN_VALUE;

@@ -98,10 +98,30 @@ public final class WaferInspection {
      *                  fresh ones)
      */
     public WaferResult inspect(Path file, Path thumbnail, InspectionBuffers buffers) {
-        String name = file.toString();
+        return inspect(file.toString(), () -> reader.read(file), thumbnail, buffers);
+    }
+
+    /** Gives the map of one wafer, e.g. from bytes fetched from another file system. */
+    @FunctionalInterface
+    public interface MapSupplier {
+        WaferMap read() throws IOException;
+    }
+
+    /**
+     * Inspects the map that {@code read} gives, reported under {@code name} (the path or URI of its file), exactly as
+     * {@link #inspect(Path, Path, InspectionBuffers)} inspects a file (the same judgement; a map that cannot be read
+     * or judged gives the same error result), without a thumbnail. For maps whose bytes come from elsewhere, e.g.
+     * {@link MapFiles#readSingle(String, byte[], String, byte[], trapmap.maps.io.ReadOptions)}; the profile's
+     * {@code file} glob is matched against the last part of {@code name}.
+     */
+    public WaferResult inspect(String name, MapSupplier read, InspectionBuffers buffers) {
+        return inspect(name, read, null, buffers);
+    }
+
+    private WaferResult inspect(String name, MapSupplier read, Path thumbnail, InspectionBuffers buffers) {
         WaferMap map;
         try {
-            map = reader.read(file);
+            map = read.read();
         } catch (MapFormatException e) {
             return WaferResult.error(name, e.getMessage());
         } catch (IOException e) {

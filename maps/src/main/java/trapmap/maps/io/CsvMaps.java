@@ -9,7 +9,6 @@ import java.io.UncheckedIOException;
 import java.nio.charset.CharacterCodingException;
 import java.nio.charset.CodingErrorAction;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -52,11 +51,11 @@ final class CsvMaps {
     private CsvMaps() {
     }
 
-    static MapBuilder.Raw read(Path file, String name, String source, Sidecar sidecar, ReadOptions options)
+    static MapBuilder.Raw read(MapSource file, String name, String source, Sidecar sidecar, ReadOptions options)
             throws MapFormatException {
         var decoder = StandardCharsets.UTF_8.newDecoder().onMalformedInput(CodingErrorAction.REPORT)
                 .onUnmappableCharacter(CodingErrorAction.REPORT);
-        try (BufferedReader in = new BufferedReader(new InputStreamReader(Files.newInputStream(file), decoder),
+        try (BufferedReader in = new BufferedReader(new InputStreamReader(file.stream(), decoder),
                 1 << 16)) {
             List<String> comments = new ArrayList<>();
             String first = null;

@@ -70,9 +70,14 @@ public final class InputFiles {
             throw new Refused(file, notRegular);
         }
         if (a.size() > maxBytes) {
-            throw new Refused(file, "is " + a.size() + " bytes, more than the limit of " + limit(maxBytes));
+            throw new Refused(file, tooLarge(a.size(), maxBytes));
         }
         return a.size();
+    }
+
+    /** Why an input of {@code size} bytes is refused under the limit {@code maxBytes}, as {@link #check} says it. */
+    public static String tooLarge(long size, long maxBytes) {
+        return "is " + size + " bytes, more than the limit of " + limit(maxBytes);
     }
 
     /**

@@ -174,7 +174,11 @@ public final class MapFiles {
 
     /** The format of a file name's extension, or null when trapmap has none for it. */
     public static Format formatOf(Path file) {
-        switch (extension(file)) {
+        return formatOf(extension(file));
+    }
+
+    private static Format formatOf(String extension) {
+        switch (extension) {
             case ".tif": case ".tiff": return Format.TIFF;
             case ".csv": case ".txt": case ".tsv": return Format.CSV;
             case ".png": return Format.PNG;
@@ -184,7 +188,10 @@ public final class MapFiles {
 
     private static String extension(Path file) {
         Path fn = file.getFileName();
-        String n = fn == null ? "" : fn.toString();
+        return extension(fn == null ? "" : fn.toString());
+    }
+
+    private static String extension(String n) {
         int dot = n.lastIndexOf('.');
         return dot <= 0 ? "" : n.substring(dot).toLowerCase(Locale.ROOT);
     }
@@ -202,14 +209,14 @@ public final class MapFiles {
     }
 
     private static List<WaferMap> readChecked(Path file, String name, ReadOptions options) throws IOException {
-        return readOpened(file, name, options, open(file, name, options), null);
+        return readOpened(MapSource.of(file), name, options, open(file, name, options), null);
     }
 
     /**
      * The maps of a file that passed {@link #open}; {@code scanned} are its TIFF pages when {@link TiffHeader#scan}
      * has already checked them, else null.
      */
-    static List<WaferMap> readOpened(Path file, String name, ReadOptions options, Opened o,
+    static List<WaferMap> readOpened(MapSource file, String name, ReadOptions options, Opened o,
                                      List<TiffHeader.Page> scanned) throws IOException {
         List<WaferMap> maps = new ArrayList<>();
         if (o.format() == Format.TIFF) {
@@ -267,6 +274,77 @@ public final class MapFiles {
             throw new MapFormatException(name, null, "permission denied");
         }
         long size = attrs.size();
+        byte[] head = new byte[8];
+        int got;
+        try (InputStream in = Files.newInputStream(file)) {
+            got = in.readNBytes(head, 0, head.length);
+        }
+        String source = file.getFileName().toString();
+        Path sidecarPath = sidecarOf(file);
+        return opened(name, source, size, java.util.Arrays.copyOf(head, got), sidecarPath.toString(), () -> {
+            if (Files.exists(sidecarPath)) {
+                if (!Files.isRegularFile(sidecarPath)) {
+                    BasicFileAttributes sa = Files.readAttributes(sidecarPath, BasicFileAttributes.class);
+                    throw new MapFormatException(sidecarPath.toString(), null, "the sidecar of " + file.getFileName()
+                            + " " + InputFiles.notRegular(sa) + "; remove or rename it");
+                }
+                if (!Files.isReadable(sidecarPath)) {
+                    throw new MapFormatException(sidecarPath.toString(), null, "the sidecar of " + file.getFileName()
+                            + " cannot be read: permission denied");
+                }
+                return Sidecar.read(sidecarPath);
+            } else if (Files.exists(sidecarPath, LinkOption.NOFOLLOW_LINKS)) {
+                // there, but not when links are followed: a link to nothing
+                throw new MapFormatException(sidecarPath.toString(), null, "is a dangling link to "
+                        + Files.readSymbolicLink(sidecarPath) + " (no such sidecar file)");
+            }
+            return null;
+        }, options);
+    }
+
+    /**
+     * The one map of a file whose bytes were fetched from elsewhere (another file system, e.g. by a cluster job),
+     * with the bytes of its sidecar: read exactly as {@link #readSingle(Path, ReadOptions)} reads a file of these
+     * bytes with a sidecar of those beside it (the same checks, messages and map), {@code name} standing for the
+     * file's path in messages and history.
+     *
+     * @param name        the file's path or URI; its last part ({@code /}-separated) gives format, source and
+     *                    default wafer id
+     * @param content     the file's bytes (read, never changed or kept)
+     * @param sidecarName the sidecar's path or URI, for messages
+     * @param sidecar     the sidecar's bytes, or null when the file has no sidecar
+     * @throws MapFormatException for any reason the map cannot be read, naming file (or sidecar), place and unit
+     */
+    public static WaferMap readSingle(String name, byte[] content, String sidecarName, byte[] sidecar,
+                                      ReadOptions options) throws MapFormatException {
+        try {
+            String source = name.substring(name.lastIndexOf('/') + 1);
+            Opened o = opened(name, source, content.length,
+                    java.util.Arrays.copyOf(content, Math.min(8, content.length)), sidecarName,
+                    () -> sidecar == null ? null : Sidecar.parse(sidecar, sidecarName), options);
+            List<WaferMap> maps = readOpened(MapSource.of(content), name, options, o, null);
+            if (maps.size() != 1) {
+                throw new MapFormatException(name, null, "holds " + maps.size() + " maps (pages) where one"
+                        + " is expected");
+            }
+            return maps.get(0);
+        } catch (IOException | RuntimeException | OutOfMemoryError e) {
+            throw readFailure(name, e);
+        }
+    }
+
+    /** The sidecar of a map being opened, read when the map's own checks have passed; null when there is none. */
+    @FunctionalInterface
+    private interface SidecarSource {
+        Sidecar read() throws IOException;
+    }
+
+    /**
+     * The checks of {@link #open} after the file's kind and permission (size, format from the name and the first
+     * bytes {@code head}, sidecar), for a file of {@code size} bytes named {@code source} (its last part).
+     */
+    private static Opened opened(String name, String source, long size, byte[] head, String sidecarName,
+                                 SidecarSource sidecarSource, ReadOptions options) throws IOException {
         if (size > options.maxFileBytes()) {
             throw new MapFormatException(name, null, "is " + size + " bytes, more than the limit of "
                     + options.maxFileBytes() + " bytes (ReadOptions.maxFileBytes)");
@@ -274,13 +352,10 @@ public final class MapFiles {
         if (size == 0) {
             throw new MapFormatException(name, null, "is empty");
         }
-        byte[] head = new byte[8];
-        int got;
-        try (InputStream in = Files.newInputStream(file)) {
-            got = in.readNBytes(head, 0, head.length);
-        }
-        Format f = formatOf(file);
-        boolean tiffMagic = TiffHeader.looksLikeTiff(java.util.Arrays.copyOf(head, got));
+        int got = head.length;
+        String ext = extension(source);
+        Format f = formatOf(ext);
+        boolean tiffMagic = TiffHeader.looksLikeTiff(head);
         if (f == Format.PNG || (got >= 4 && (head[0] & 0xFF) == 0x89 && head[1] == 'P' && head[2] == 'N'
                 && head[3] == 'G')) {
             throw new MapFormatException(name, null, "is a PNG picture; pictures are not quantitative, so maps are"
@@ -288,7 +363,7 @@ public final class MapFiles {
         }
         if (f == null) {
             if (!tiffMagic) {
-                throw new MapFormatException(name, null, "unsupported file type '" + extension(file) + "'; maps are"
+                throw new MapFormatException(name, null, "unsupported file type '" + ext + "'; maps are"
                         + " read from .tif, .tiff and .csv files");
             }
             f = Format.TIFF;
@@ -296,26 +371,7 @@ public final class MapFiles {
         if (f == Format.CSV && tiffMagic) {
             f = Format.TIFF;
         }
-        Path sidecarPath = sidecarOf(file);
-        Sidecar sidecar = null;
-        String sidecarName = sidecarPath.toString();
-        if (!extension(file).equals(".json") && Files.exists(sidecarPath)) {
-            if (!Files.isRegularFile(sidecarPath)) {
-                BasicFileAttributes sa = Files.readAttributes(sidecarPath, BasicFileAttributes.class);
-                throw new MapFormatException(sidecarName, null, "the sidecar of " + file.getFileName() + " "
-                        + InputFiles.notRegular(sa) + "; remove or rename it");
-            }
-            if (!Files.isReadable(sidecarPath)) {
-                throw new MapFormatException(sidecarName, null, "the sidecar of " + file.getFileName()
-                        + " cannot be read: permission denied");
-            }
-            sidecar = Sidecar.read(sidecarPath);
-        } else if (!extension(file).equals(".json") && Files.exists(sidecarPath, LinkOption.NOFOLLOW_LINKS)) {
-            // there, but not when links are followed: a link to nothing
-            throw new MapFormatException(sidecarName, null, "is a dangling link to "
-                    + Files.readSymbolicLink(sidecarPath) + " (no such sidecar file)");
-        }
-        String source = file.getFileName().toString();
+        Sidecar sidecar = ext.equals(".json") ? null : sidecarSource.read();
         return new Opened(f, size, sidecar, sidecarName, source, stem(source));
     }
 }

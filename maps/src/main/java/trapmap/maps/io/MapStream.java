@@ -56,14 +56,14 @@ public final class MapStream implements AutoCloseable {
         try {
             MapFiles.Opened o = MapFiles.open(file, name, options);
             if (o.format() != MapFiles.Format.TIFF) {
-                return of(MapFiles.readOpened(file, name, options, o, null).get(0));
+                return of(MapFiles.readOpened(MapSource.of(file), name, options, o, null).get(0));
             }
             ch = FileChannel.open(file, StandardOpenOption.READ);
             List<TiffHeader.Page> pages = TiffHeader.scan(ch, o.size(), name, options);
             if (pages.size() != 1 || pages.get(0).strips() == null) {
                 ch.close();
                 ch = null;
-                return of(MapFiles.readOpened(file, name, options, o, pages).get(0)); // checked once, decoded once
+                return of(MapFiles.readOpened(MapSource.of(file), name, options, o, pages).get(0)); // checked once, decoded once
             }
             TiffHeader.Page p = pages.get(0);
             MapBuilder.Raw raw = MapFiles.tiffRaw(p, null, "direct", TiffMaps.embedded(p, name), o.source(), 0, 1);

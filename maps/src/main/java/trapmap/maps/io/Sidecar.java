@@ -235,6 +235,24 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
             }
             throw new MapFormatException(name, null, "cannot read the sidecar (" + e.getMessage() + ")", "", e);
         }
+        return decoded(bytes, name);
+    }
+
+    /**
+     * Parses the bytes of a sidecar fetched from elsewhere (another file system), as {@link #read} parses a file of
+     * those bytes; {@code name} (the sidecar's path or URI) is used in messages.
+     *
+     * @throws MapFormatException when there are more than {@link #MAX_BYTES}, they are not UTF-8 JSON, or a field
+     *                            is of the wrong type or out of range
+     */
+    public static Sidecar parse(byte[] bytes, String name) throws MapFormatException {
+        if (bytes.length > MAX_BYTES) {
+            throw new MapFormatException(name, null, "sidecar " + InputFiles.tooLarge(bytes.length, MAX_BYTES));
+        }
+        return decoded(bytes, name);
+    }
+
+    private static Sidecar decoded(byte[] bytes, String name) throws MapFormatException {
         String text;
         try {
             text = StandardCharsets.UTF_8.newDecoder().decode(ByteBuffer.wrap(bytes)).toString();

@@ -17,7 +17,6 @@ import java.io.IOException;
 import java.nio.ByteBuffer;
 import java.nio.channels.FileChannel;
 import java.nio.file.Path;
-import java.nio.file.StandardOpenOption;
 import java.util.ArrayList;
 import java.util.Iterator;
 import java.util.List;
@@ -34,7 +33,6 @@ import javax.imageio.plugins.tiff.TIFFField;
 import javax.imageio.plugins.tiff.TIFFTag;
 import javax.imageio.spi.IIORegistry;
 import javax.imageio.spi.ImageReaderSpi;
-import javax.imageio.stream.FileImageInputStream;
 import javax.imageio.stream.FileImageOutputStream;
 import javax.imageio.stream.ImageInputStream;
 import javax.imageio.stream.ImageOutputStream;
@@ -64,9 +62,9 @@ final class TiffMaps {
     record Decoded(TiffHeader.Page page, float[] samples, String decoder, Sidecar embedded) {
     }
 
-    static List<Decoded> read(Path file, String name, long size, ReadOptions options) throws MapFormatException {
+    static List<Decoded> read(MapSource file, String name, long size, ReadOptions options) throws MapFormatException {
         List<TiffHeader.Page> pages;
-        try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
+        try (FileChannel ch = file.channel()) {
             pages = TiffHeader.scan(ch, size, name, options);
         } catch (MapFormatException e) {
             throw e;
@@ -77,7 +75,7 @@ final class TiffMaps {
     }
 
     /** The pages of {@code file}, already scanned and checked by {@link TiffHeader#scan}. */
-    static List<Decoded> read(Path file, String name, List<TiffHeader.Page> pages) throws MapFormatException {
+    static List<Decoded> read(MapSource file, String name, List<TiffHeader.Page> pages) throws MapFormatException {
         List<Decoded> out = new ArrayList<>(pages.size());
         ImageReader jdk = null;
         ImageReader fallback = null;
@@ -99,7 +97,7 @@ final class TiffMaps {
                 Exception jdkFailure = null;
                 if (!jdkCannot) {
                     if (jdk == null) {
-                        in = new FileImageInputStream(file.toFile());
+                        in = file.images();
                         jdk = reader(JDK_READER);
                         jdk.setInput(in, false, true);
                     }
@@ -120,7 +118,7 @@ final class TiffMaps {
                                 .createReaderInstance();
                     }
                     decoder = "twelvemonkeys";
-                    try (ImageInputStream in2 = new FileImageInputStream(file.toFile())) {
+                    try (ImageInputStream in2 = file.images()) {
                         fallback.setInput(in2, false, true);
                         samples = samples(fallback.readRaster(p.ifdIndex(), null), p, name);
                     } catch (MapFormatException e) {
@@ -163,10 +161,10 @@ final class TiffMaps {
      * lies inside the file and holds its rows), in large blocks with the file's byte order: the values the JDK plugin
      * decodes, bit for bit, without its per-sample copying.
      */
-    static float[] direct(Path file, TiffHeader.Page p) throws IOException {
+    static float[] direct(MapSource file, TiffHeader.Page p) throws IOException {
         float[] out = new float[p.width() * p.height()];
         ByteBuffer buf = READ_BUFFER.get().order(p.strips().order());
-        try (FileChannel ch = FileChannel.open(file, StandardOpenOption.READ)) {
+        try (FileChannel ch = file.channel()) {
             directRows(ch, p, 0, p.height(), out, 0, buf);
         }
         return out;

@@ -1,0 +1,135 @@
+package trapmap.cluster;
+
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.Iterator;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.TreeMap;
+import java.util.regex.Pattern;
+import org.apache.spark.sql.Dataset;
+import org.apache.spark.sql.Row;
+import org.apache.spark.sql.SparkSession;
+import org.apache.spark.sql.functions;
+import trapmap.maps.batch.FlaggedRegions;
+import trapmap.maps.batch.LotPattern;
+import trapmap.maps.batch.Rules;
+import trapmap.maps.batch.RulesException;
+import trapmap.maps.batch.RunManifest;
+import trapmap.maps.batch.WaferResult;
+import trapmap.maps.region.Region;
+import trapmap.store.ResultsStore;
+import trapmap.store.RunInfo;
+import trapmap.store.WaferRecord;
+
+/**
+ * Loads the Parquet tables of an archive inspection ({@link ArchiveJob}) into a results store ({@link ResultsStore}:
+ * SQLite file or PostgreSQL), one wafer per transaction through the store's own {@link ResultsStore#write}, as
+ * {@code inspect --store} stores them: the same result keys (map content, rules and physics settings hashed), so that
+ * loading again, or inspecting the same maps with the same rules with {@code inspect --store}, replaces the wafers
+ * instead of adding them. The wafers' rows are gathered in Spark (results with their regions and footprint by file)
+ * and streamed to the driver, which writes them (one writer: a store takes one transaction at a time).
+ */
+public final class StoreLoad {
+    private StoreLoad() {
+    }
+
+    /**
+     * Loads every wafer of the tables under {@code tables} (the job's output folder), judged by the rules file
+     * {@code rulesPath} (its text hashed into the result keys; its physics settings recorded with the run).
+     *
+     * @return the wafers written
+     * @throws RulesException when the rules cannot be read (one line naming the file)
+     */
+    public static long load(SparkSession spark, String tables, String rulesPath, String store) throws RulesException {
+        String out = tables.endsWith("/") ? tables : tables + "/";
+        String text = ArchiveJob.readRules(rulesPath, spark.sparkContext().hadoopConfiguration());
+        Rules rules = Rules.parse(text, rulesPath);
+        Pattern lots = LotPattern.parse(text, rulesPath).orElse(null);
+        RunManifest.Source source = new RunManifest.Source(trapmap.shared.Version.LINE, rulesPath,
+                RunManifest.sha256(text.getBytes(java.nio.charset.StandardCharsets.UTF_8)));
+        Map<String, List<String>> figures = new LinkedHashMap<>();
+        for (Rules.Profile p : rules.allProfiles()) {
+            figures.put(p.name(), p.figures().stream().map(f -> f.name()).toList());
+        }
+
+        Dataset<Row> results = spark.read().parquet(out + ArchiveJob.RESULTS);
+        Dataset<Row> regions = spark.read().parquet(out + ArchiveJob.REGIONS);
+        Dataset<Row> footprints = spark.read().parquet(out + ArchiveJob.FOOTPRINTS);
+        Dataset<Row> regionLists = regions.groupBy("file").agg(functions.collect_list(functions.struct(
+                java.util.Arrays.stream(WaferRows.REGION.fieldNames()).map(functions::col)
+                        .toArray(org.apache.spark.sql.Column[]::new))).as("region_list"));
+        Dataset<Row> footprintRows = footprints.select(functions.col("file"), functions.struct(
+                java.util.Arrays.stream(WaferRows.FOOTPRINT.fieldNames()).map(functions::col)
+                        .toArray(org.apache.spark.sql.Column[]::new)).as("fp"));
+        Dataset<Row> wafers = results.join(regionLists, "file", "left").join(footprintRows, "file", "left");
+
+        long written = 0;
+        try (ResultsStore s = ResultsStore.open(store)) {
+            String runId = s.startRun(RunInfo.of(source, rules.physics(), Instant.now()));
+            Iterator<Row> it = wafers.toLocalIterator();
+            while (it.hasNext()) {
+                s.write(runId, record(it.next(), figures, lots));
+                written++;
+            }
+        }
+        return written;
+    }
+
+    /**
+     * The store's record of one wafer's joined row; {@code figures}: the figures of each profile by name, in the
+     * profile's order (a judged wafer has exactly its profile's, NaN where a figure could not be computed: null in
+     * the table).
+     */
+    static WaferRecord record(Row r, Map<String, List<String>> figures, Pattern lots) {
+        Map<String, Double> values = new LinkedHashMap<>();
+        if (!"error".equals(r.getAs("status"))) {
+            for (String f : figures.getOrDefault(r.<String>getAs("profile"), List.of())) {
+                Object v = r.getAs(f);
+                values.put(f, v == null ? Double.NaN : (Double) v);
+            }
+        }
+        List<FlaggedRegions.FlaggedRegion> regions = new ArrayList<>();
+        int listAt = r.fieldIndex("region_list");
+        if (!r.isNullAt(listAt)) {
+            List<Row> list = new ArrayList<>(r.getList(listAt));
+            list.sort((a, b) -> Integer.compare(a.getInt(0), b.getInt(0)));
+            for (Row g : list) {
+                regions.add(new FlaggedRegions.FlaggedRegion(new Region(g.getInt(0), g.getInt(1), d(g, "area_mm2"),
+                        d(g, "centroid_x_mm"), d(g, "centroid_y_mm"), new Region.BoundsMm(d(g, "min_x_mm"),
+                        d(g, "min_y_mm"), d(g, "max_x_mm"), d(g, "max_y_mm")), d(g, "peak"), d(g, "peak_x_mm"),
+                        d(g, "peak_y_mm"), d(g, "mean"), d(g, "edge_distance_mm"), g.getAs("centroid_inside"),
+                        d(g, "x_mm"), d(g, "y_mm")), d(g, "peak_density_cm3"), d(g, "median_density_cm3")));
+            }
+        }
+        int fpAt = r.fieldIndex("fp");
+        WaferResult result = new WaferResult(r.getAs("file"), r.getAs("wafer_id"),
+                WaferResult.Status.valueOf(r.<String>getAs("status").toUpperCase(java.util.Locale.ROOT)),
+                r.getAs("grade"), r.getAs("profile"), r.getAs("defect"), values, strings(r, "failed_rules"),
+                strings(r, "graded_down_by"), regions, r.getAs("error"),
+                r.isNullAt(fpAt) ? null : WaferRows.footprint(r.getStruct(fpAt)));
+        Map<String, String> attributes = new TreeMap<>();
+        int attrAt = r.fieldIndex("attributes");
+        if (!r.isNullAt(attrAt)) {
+            attributes.putAll(r.getJavaMap(attrAt));
+        }
+        java.sql.Timestamp measured = r.getAs("measured_at");
+        String lot = attributes.get(WaferRecord.LOT);
+        if (lot == null || lot.isBlank()) {
+            lot = LotPattern.lotOf(lots, result.waferId());
+        }
+        return new WaferRecord(result, r.getAs("content_sha256"), attributes, lot,
+                measured == null ? null : measured.toInstant(), List.of());
+    }
+
+    private static double d(Row g, String column) {
+        Object v = g.getAs(column);
+        return v == null ? Double.NaN : (Double) v;
+    }
+
+    private static List<String> strings(Row r, String column) {
+        int at = r.fieldIndex(column);
+        return r.isNullAt(at) ? List.of() : List.copyOf(r.<String>getList(at));
+    }
+}

@@ -1,0 +1,198 @@
+package trapmap.cluster;
+
+import java.sql.Timestamp;
+import java.time.Instant;
+import java.time.OffsetDateTime;
+import java.time.ZoneOffset;
+import java.time.format.DateTimeParseException;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.TreeMap;
+import java.util.regex.Pattern;
+import org.apache.spark.sql.Row;
+import org.apache.spark.sql.RowFactory;
+import org.apache.spark.sql.types.DataType;
+import org.apache.spark.sql.types.DataTypes;
+import org.apache.spark.sql.types.StructField;
+import org.apache.spark.sql.types.StructType;
+import trapmap.maps.batch.FlaggedRegions;
+import trapmap.maps.batch.Footprint;
+import trapmap.maps.batch.LotPattern;
+import trapmap.maps.batch.Rules;
+import trapmap.maps.batch.WaferResult;
+import trapmap.maps.region.Region;
+
+/**
+ * One inspected wafer as a Spark row: the columns of {@code inspect}'s {@code results.csv} (the figures of every
+ * profile as doubles, NaN/absent as null; the failed and graded-down rules as arrays; the worst region's numbers as
+ * doubles, unrounded), then what the results store keeps (the map's SHA-256, its sidecar's facts, lot and measured
+ * time) and the partition columns {@code day} and {@code lot}; besides them, for the two other tables, the flagged
+ * regions (the columns of {@code regions.csv}) and the footprint. Units are in the column names as in
+ * {@code results.csv}.
+ */
+final class WaferRows implements java.io.Serializable {
+    private static final long serialVersionUID = 1L;
+
+    /** The columns of {@code regions.csv} after file and wafer id (and the region's pixels), with their types. */
+    static final StructType REGION = new StructType(new StructField[] {
+        field("region", DataTypes.IntegerType), field("pixel_count", DataTypes.IntegerType),
+        field("area_mm2", DataTypes.DoubleType),
+        field("x_mm", DataTypes.DoubleType), field("y_mm", DataTypes.DoubleType),
+        field("centroid_x_mm", DataTypes.DoubleType), field("centroid_y_mm", DataTypes.DoubleType),
+        field("centroid_inside", DataTypes.BooleanType), field("min_x_mm", DataTypes.DoubleType),
+        field("min_y_mm", DataTypes.DoubleType), field("max_x_mm", DataTypes.DoubleType),
+        field("max_y_mm", DataTypes.DoubleType), field("peak", DataTypes.DoubleType),
+        field("peak_x_mm", DataTypes.DoubleType), field("peak_y_mm", DataTypes.DoubleType),
+        field("mean", DataTypes.DoubleType), field("edge_distance_mm", DataTypes.DoubleType),
+        field("peak_density_cm3", DataTypes.DoubleType), field("median_density_cm3", DataTypes.DoubleType)});
+
+    /** A footprint ({@link Footprint}): cells of {@code pitch_mm}; the cell sets as {@code BitSet.toByteArray}. */
+    static final StructType FOOTPRINT = new StructType(new StructField[] {
+        field("family", DataTypes.StringType), field("pitch_mm", DataTypes.DoubleType),
+        field("min_i", DataTypes.IntegerType), field("min_j", DataTypes.IntegerType),
+        field("width", DataTypes.IntegerType), field("height", DataTypes.IntegerType),
+        field("covered", DataTypes.BinaryType), field("flagged", DataTypes.BinaryType)});
+
+    /** The worst region's columns of {@code results.csv}, in order, all doubles but the two named. */
+    static final List<String> WORST = List.of("worst_region_area_mm2", "worst_region_x_mm", "worst_region_y_mm",
+            "worst_region_peak", "worst_region_rule", "worst_region_centroid_inside", "worst_region_peak_x_mm",
+            "worst_region_peak_y_mm", "worst_region_min_x_mm", "worst_region_min_y_mm", "worst_region_max_x_mm",
+            "worst_region_max_y_mm");
+
+    /** Column names of the nested regions and footprint (not in the results table). */
+    static final String REGIONS = "regions";
+    static final String FOOTPRINT_COLUMN = "footprint";
+
+    private final List<String> figures;
+    private final StructType schema;
+
+    /** The rows of wafers judged by {@code rules} (their figures are the columns). */
+    WaferRows(Rules rules) {
+        figures = rules.figures().stream().map(f -> f.name()).toList();
+        List<StructField> f = new ArrayList<>();
+        for (String c : List.of("file", "wafer_id", "status", "grade", "profile", "defect")) {
+            f.add(field(c, DataTypes.StringType));
+        }
+        figures.forEach(n -> f.add(field(n, DataTypes.DoubleType)));
+        f.add(field("failed_rules", DataTypes.createArrayType(DataTypes.StringType, false)));
+        f.add(field("graded_down_by", DataTypes.createArrayType(DataTypes.StringType, false)));
+        for (String w : WORST) {
+            f.add(field(w, w.equals("worst_region_rule") ? DataTypes.StringType
+                    : w.equals("worst_region_centroid_inside") ? DataTypes.BooleanType : DataTypes.DoubleType));
+        }
+        f.add(field("error", DataTypes.StringType));
+        f.add(field("content_sha256", DataTypes.StringType));
+        f.add(field("measured_at", DataTypes.TimestampType));
+        f.add(field("attributes", DataTypes.createMapType(DataTypes.StringType, DataTypes.StringType, false)));
+        f.add(field(PartitionKey.LOT.column(), DataTypes.StringType));
+        f.add(field(PartitionKey.DAY.column(), DataTypes.StringType));
+        f.add(field(REGIONS, DataTypes.createArrayType(REGION, false)));
+        f.add(field(FOOTPRINT_COLUMN, FOOTPRINT));
+        schema = new StructType(f.toArray(StructField[]::new));
+    }
+
+    private static StructField field(String name, DataType type) {
+        return DataTypes.createStructField(name, type, true);
+    }
+
+    /** Every column, the nested regions and footprint included. */
+    StructType schema() {
+        return schema;
+    }
+
+    /** The facts of a wafer's sidecar that the row keeps besides its result. */
+    record Facts(String contentSha256, Map<String, String> attributes) {
+    }
+
+    /** The row of one result; {@code lotPattern} (null: none) gives the lot without a {@code lot} fact. */
+    Row row(WaferResult r, Facts facts, Pattern lotPattern) {
+        List<Object> v = new ArrayList<>(schema.size());
+        v.add(r.file());
+        v.add(r.waferId());
+        v.add(r.status().key());
+        v.add(r.grade());
+        v.add(r.profile());
+        v.add(r.defectId());
+        for (String n : figures) {
+            Double d = r.figures().get(n);
+            v.add(d == null || Double.isNaN(d) ? null : d);
+        }
+        v.add(seq(r.failed()));
+        v.add(seq(r.gradedDownBy()));
+        Region w = r.worstRegion();
+        if (w == null) {
+            WORST.forEach(c -> v.add(null));
+        } else {
+            v.add(w.areaMm2());
+            v.add(w.positionXMm());
+            v.add(w.positionYMm());
+            v.add(number(w.peakValue()));
+            v.add(r.worstRegionRule());
+            v.add(w.centroidInside());
+            v.add(w.peakXMm());
+            v.add(w.peakYMm());
+            v.add(w.bounds().minXMm());
+            v.add(w.bounds().minYMm());
+            v.add(w.bounds().maxXMm());
+            v.add(w.bounds().maxYMm());
+        }
+        v.add(r.error());
+        v.add(facts.contentSha256());
+        Map<String, String> attributes = new TreeMap<>(facts.attributes());
+        Instant measured = measuredAt(attributes.get("measured_at"));
+        String lot = attributes.get("lot");
+        if (lot == null || lot.isBlank()) {
+            lot = LotPattern.lotOf(lotPattern, r.waferId());
+        }
+        v.add(measured == null ? null : Timestamp.from(measured));
+        v.add(scala.jdk.javaapi.CollectionConverters.asScala(attributes));
+        v.add(lot == null || lot.isBlank() ? null : lot);
+        v.add(measured == null ? null : measured.atOffset(ZoneOffset.UTC).toLocalDate().toString());
+        List<Row> regions = new ArrayList<>(r.regions().size());
+        for (FlaggedRegions.FlaggedRegion fr : r.regions()) {
+            Region g = fr.region();
+            regions.add(RowFactory.create(g.id(), g.pixelCount(), g.areaMm2(), g.positionXMm(), g.positionYMm(), g.centroidXMm(),
+                    g.centroidYMm(), g.centroidInside(), g.bounds().minXMm(), g.bounds().minYMm(),
+                    g.bounds().maxXMm(), g.bounds().maxYMm(), number(g.peakValue()), g.peakXMm(), g.peakYMm(),
+                    number(g.meanValue()), number(g.edgeDistanceMm()), number(fr.peakDensityCm3()),
+                    number(fr.medianDensityCm3())));
+        }
+        v.add(seq(regions));
+        Footprint fp = r.footprint();
+        v.add(fp == null ? null : RowFactory.create(fp.family(), fp.pitchMm(), fp.minI(), fp.minJ(), fp.width(),
+                fp.height(), fp.covered().toByteArray(), fp.flagged().toByteArray()));
+        return RowFactory.create(v.toArray());
+    }
+
+    /** A list as the Scala sequence a Spark row holds for an array column. */
+    private static scala.collection.Seq<?> seq(List<?> list) {
+        return scala.jdk.javaapi.CollectionConverters.asScala(list);
+    }
+
+    /** NaN (a value that could not be computed) as null, as {@code results.csv} leaves its cell empty. */
+    private static Double number(double d) {
+        return Double.isNaN(d) ? null : d;
+    }
+
+    /**
+     * The {@code measured_at} fact as an instant: ISO-8601 with an offset or Z (as the results store reads it); null
+     * when absent or not such a time (the wafer is kept without a day).
+     */
+    static Instant measuredAt(String text) {
+        if (text == null) {
+            return null;
+        }
+        try {
+            return OffsetDateTime.parse(text.trim()).toInstant();
+        } catch (DateTimeParseException e) {
+            return null;
+        }
+    }
+
+    /** The footprint of a footprint row ({@link #FOOTPRINT}). */
+    static Footprint footprint(Row f) {
+        return new Footprint(f.getString(0), f.getDouble(1), f.getInt(2), f.getInt(3), f.getInt(4), f.getInt(5),
+                java.util.BitSet.valueOf((byte[]) f.get(6)), java.util.BitSet.valueOf((byte[]) f.get(7)));
+    }
+}
