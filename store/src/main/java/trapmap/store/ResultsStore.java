@@ -502,10 +502,18 @@ public final class ResultsStore implements AutoCloseable {
      * @param profile only wafers judged by this rules profile; null for all
      */
     public synchronized List<StoredPoint> points(String figure, String groupBy, Instant since, String profile) {
+        return points(figure, groupBy, new StoreFilter(since, null, profile, List.of(), Map.of()));
+    }
+
+    /**
+     * The wafers' values of {@code figure} for a trend, as {@link #points(String, String, Instant, String)} gives
+     * them, of the wafers {@code filter} takes (a period, a profile, lots, sidecar facts).
+     */
+    public synchronized List<StoredPoint> points(String figure, String groupBy, StoreFilter filter) {
         String g = groupBy == null ? "none" : groupBy.trim();
         boolean byAttribute = groupsByAttribute(g);
         List<Object> args = new ArrayList<>();
-        String where = where(new StoreFilter(since, null, profile, List.of(), Map.of()), args);
+        String where = where(filter, args);
         String sql = "SELECT w.result_key, w.measured_at_ms, w.inspected_at_ms, w.lot, w.verdict, w.wafer_id,"
                 + " w.file, w.profile, f.value, " + (byAttribute ? "a.value" : "NULL") + ", w.run_id"
                 + " FROM wafers w LEFT JOIN wafer_figures f ON f.result_key = w.result_key AND f.figure = ?"

@@ -31,15 +31,23 @@ public final class StoreTrend {
      * @param figure   a figure name as in results.csv, e.g. {@code trap_density_p50_cm3}
      * @param by       {@code lot}, {@code day}, {@code week}, {@code none} (X̄/R charts by subgroup) or the name of a
      *                 sidecar fact such as {@code furnace_tube} (one individuals chart per value)
-     * @param since    only wafers at or after this time; null for all
-     * @param profile  only wafers of this rules profile; null for all
+     * @param filter   the wafers charted (a period, a profile, lots, sidecar facts); {@link StoreFilter#ALL} for all
      * @param baseline where centre lines and limits come from
      */
-    public record Request(String figure, String by, Instant since, String profile, Baseline baseline) {
+    public record Request(String figure, String by, StoreFilter filter, Baseline baseline) {
         public Request {
             Objects.requireNonNull(figure, "figure");
             by = by == null || by.isBlank() ? "none" : by.trim();
+            filter = filter == null ? StoreFilter.ALL : filter;
             Objects.requireNonNull(baseline, "baseline");
+        }
+
+        /**
+         * @param since   only wafers at or after this time; null for all
+         * @param profile only wafers of this rules profile; null for all
+         */
+        public Request(String figure, String by, Instant since, String profile, Baseline baseline) {
+            this(figure, by, new StoreFilter(since, null, profile, List.of(), java.util.Map.of()), baseline);
         }
 
         /** Whether the groups are the values of a sidecar fact (one individuals chart each). */
@@ -50,7 +58,7 @@ public final class StoreTrend {
         /** The request in words, for captions: figure, grouping, baseline and filters. */
         public String describe() {
             return "figure " + figure + "; by " + by + "; baseline " + baseline.describe()
-                    + (since == null ? "" : "; since " + since) + (profile == null ? "" : "; profile " + profile);
+                    + (filter.equals(StoreFilter.ALL) ? "" : "; " + filter.describe());
         }
     }
 
@@ -123,11 +131,10 @@ public final class StoreTrend {
      *                               gives the counts)
      */
     public static Outcome analyse(ResultsStore store, Request request) {
-        List<StoredPoint> stored = store.points(request.figure(), request.by(), request.since(), request.profile());
+        List<StoredPoint> stored = store.points(request.figure(), request.by(), request.filter());
         if (stored.isEmpty()) {
             throw new InvalidValueException("store", "", store.name() + " holds no wafer"
-                    + (request.since() == null ? "" : " since " + request.since())
-                    + (request.profile() == null ? "" : " of profile " + request.profile()));
+                    + (request.filter().equals(StoreFilter.ALL) ? "" : " for " + request.filter().describe()));
         }
         return analyse(request, stored, store.name());
     }

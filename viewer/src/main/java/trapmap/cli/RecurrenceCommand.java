@@ -13,6 +13,7 @@ import java.util.Set;
 import java.util.concurrent.Callable;
 import java.util.stream.Stream;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
@@ -60,29 +61,8 @@ final class RecurrenceCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
-    @Option(names = "--store", required = true, paramLabel = "<store>",
-            description = "The results store: a SQLite file, or postgresql://host[:port]/database (user and password"
-                    + " from PGUSER/PGPASSWORD or ~/.pgpass, never on the command line).")
-    String store;
-
-    @Option(names = "--since", paramLabel = "<date>",
-            description = "Only wafers measured at or after this UTC date (2026-11-02) or time (2026-11-02T08:00:00Z).")
-    String since;
-
-    @Option(names = "--until", paramLabel = "<date>",
-            description = "Only wafers measured on or before this UTC date (the whole day), or before this time.")
-    String until;
-
-    @Option(names = "--profile", paramLabel = "<name>", description = "Only wafers judged by this rules profile.")
-    String profile;
-
-    @Option(names = "--lot", paramLabel = "<lot>", description = "Only wafers of this lot; repeat for several.")
-    List<String> lots = new ArrayList<>();
-
-    @Option(names = "--where", paramLabel = "<NAME=VALUE>",
-            description = "Only wafers whose sidecar fact NAME has this VALUE (e.g. furnace_tube=T2); repeat: all must"
-                    + " hold.")
-    List<String> where = new ArrayList<>();
+    @Mixin
+    StoreQueryOptions query = new StoreQueryOptions();
 
     @Option(names = "--by", paramLabel = "<grouping>",
             description = "One map per value of a sidecar fact (boat_slot, furnace_tube, ...), or per lot, day (UTC)"
@@ -121,7 +101,7 @@ final class RecurrenceCommand implements Callable<Integer> {
                     + RunManifest.FILE_NAME + " or " + BatchInspection.CSV_NAME + "); give another folder");
         }
         StoreRecurrence.Outcome outcome;
-        try (ResultsStore s = ResultsStore.open(store)) {
+        try (ResultsStore s = ResultsStore.open(query.store)) {
             outcome = StoreRecurrence.analyse(s, filter, by, cellMm);
         } catch (StoreException e) {
             throw new InputException("--store " + Flags.oneLine(e.getMessage()));
@@ -159,7 +139,7 @@ final class RecurrenceCommand implements Callable<Integer> {
         if (json) {
             o.println(Output.json(json(outcome)));
         } else {
-            o.println("store " + store + "; " + outcome.describe());
+            o.println("store " + query.store + "; " + outcome.describe());
             for (String line : outcome.lines(HotSpots.Criteria.DEFAULT)) {
                 o.println("  " + line);
             }
@@ -178,29 +158,7 @@ final class RecurrenceCommand implements Callable<Integer> {
 
     /** The query of the options. */
     StoreFilter filter() {
-        Instant from = since == null ? null : TrendCommand.time("--since", since);
-        Instant to = null;
-        if (until != null) {
-            to = TrendCommand.time("--until", until);
-            if (until.trim().length() == 10) {
-                to = to.plus(java.time.Duration.ofDays(1)); // a date: the whole day
-            }
-        }
-        if (from != null && to != null && !from.isBefore(to)) {
-            throw new InputException("--until " + until + " must be after --since " + since);
-        }
-        Map<String, String> facts = new LinkedHashMap<>();
-        for (String w : where) {
-            int eq = w.indexOf('=');
-            if (eq <= 0 || w.substring(0, eq).isBlank()) {
-                throw new InputException("--where must be NAME=VALUE (e.g. furnace_tube=T2) but was " + w);
-            }
-            String name = w.substring(0, eq).trim();
-            if (facts.put(name, w.substring(eq + 1).trim()) != null) {
-                throw new InputException("--where names " + name + " twice; a wafer has one value of each fact");
-            }
-        }
-        return new StoreFilter(from, to, profile, lots, facts);
+        return query.filter();
     }
 
     /** Removes recurrence maps and pictures of an earlier query in the folder that this one did not write. */

@@ -13,6 +13,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
@@ -60,10 +61,8 @@ final class TrendCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
-    @Option(names = "--store", required = true, paramLabel = "<store>",
-            description = "The results store: a SQLite file, or postgresql://host[:port]/database (user and password"
-                    + " from PGUSER/PGPASSWORD or ~/.pgpass, never on the command line).")
-    String store;
+    @Mixin
+    StoreQueryOptions query = new StoreQueryOptions();
 
     @Option(names = "--figure", required = true, paramLabel = "<figure>",
             description = "The figure charted, a column of results.csv, e.g. trap_density_p50_cm3.")
@@ -74,13 +73,6 @@ final class TrendCommand implements Callable<Integer> {
                     + " of a sidecar fact such as furnace_tube or boat_slot (one individuals/moving-range chart per"
                     + " value, each with its own baseline) (default: ${DEFAULT-VALUE}).")
     String by;
-
-    @Option(names = "--since", paramLabel = "<date>",
-            description = "Only wafers measured at or after this UTC date (2026-11-02) or time (2026-11-02T08:00:00Z).")
-    String since;
-
-    @Option(names = "--profile", paramLabel = "<name>", description = "Only wafers judged by this rules profile.")
-    String profile;
 
     @Option(names = "--baseline", paramLabel = "<n>",
             description = "The baseline: the first n wafers with a measured time and a value (a group belongs to it"
@@ -111,10 +103,9 @@ final class TrendCommand implements Callable<Integer> {
         }
         Baseline baseline = baselineUntil != null ? Baseline.before(time("--baseline-until", baselineUntil))
                 : Baseline.first(baselineCount == null ? Baseline.DEFAULT_COUNT : baselineCount);
-        Instant from = since == null ? null : time("--since", since);
-        StoreTrend.Request request = new StoreTrend.Request(figure, by, from, profile, baseline);
+        StoreTrend.Request request = new StoreTrend.Request(figure, by, query.filter(), baseline);
         StoreTrend.Outcome outcome;
-        try (ResultsStore s = ResultsStore.open(store)) {
+        try (ResultsStore s = ResultsStore.open(query.store)) {
             outcome = StoreTrend.analyse(s, request);
         } catch (StoreException e) {
             throw new InputException("--store " + Flags.oneLine(e.getMessage()));
@@ -127,7 +118,7 @@ final class TrendCommand implements Callable<Integer> {
             throw new InputException(flag + ("--store".equals(flag) ? " " : ": ") + e.getMessage());
         }
         TrendResult r = outcome.result();
-        String subtitle = "store " + store + "; " + outcome.describe();
+        String subtitle = "store " + query.store + "; " + outcome.describe();
         TrendReport.Caption caption = new TrendReport.Caption(figure, subtitle);
         boolean drawn = true;
         if (ext.equals("csv")) {

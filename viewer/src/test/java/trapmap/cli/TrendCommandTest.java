@@ -99,6 +99,31 @@ class TrendCommandTest {
     }
 
     @Test
+    void theQueryTakesAPeriodLotsAndFactsAsRecurrenceDoes() {
+        // T2 wafers (the odd ones) of lots L1-L4 measured before 2026-11-02T16:00Z: W1, W3, ..., W15 = 8 wafers
+        Path csv = dir.resolve("query.csv");
+        Cli.Run run = Cli.run("trend", "--store", store.toString(), "--figure", FIGURE, "--where", "furnace_tube=T2",
+                "--lot", "L1", "--lot", "L2", "--lot", "L3", "--lot", "L4", "--until", "2026-11-02T16:00:00Z",
+                "--baseline", "4", "-o", csv.toString(), "--json");
+        assertThat(run.code()).as(run.err()).isEqualTo(Exit.OK);
+        JsonNode j = Cli.parse(run.out());
+        assertThat(j.get("wafers").asInt()).isEqualTo(8);
+        assertThat(j.get("source").asText()).contains("furnace_tube=T2").contains("lot L1, L2, L3, L4")
+                .contains("until 2026-11-02T16:00:00Z");
+        JsonNode x = j.get("charts").get(0).get("points");
+        assertThat(x).hasSize(8).allMatch(p -> p.get("value").asDouble() == 1.2e11);
+
+        Cli.Run none = Cli.run("trend", "--store", store.toString(), "--figure", FIGURE, "--where",
+                "furnace_tube=T9", "-o", csv.toString());
+        assertThat(none.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(none.err()).contains("--store").contains("holds no wafer for furnace_tube=T9");
+        Cli.Run bad = Cli.run("trend", "--store", store.toString(), "--figure", FIGURE, "--where", "T2",
+                "-o", csv.toString());
+        assertThat(bad.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(bad.err()).contains("--where must be NAME=VALUE");
+    }
+
+    @Test
     void jsonByAnAttributeWithABaselineDate() {
         Path csv = dir.resolve("tube.csv");
         Cli.Run run = Cli.run("trend", "--store", store.toString(), "--figure", FIGURE, "--by", "furnace_tube",
