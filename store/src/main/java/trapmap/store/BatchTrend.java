@@ -20,7 +20,13 @@ import trapmap.shared.error.InvalidValueException;
  * a trend that cannot be computed (the store unreadable, too few baseline wafers) is kept with its reason instead.
  */
 public final class BatchTrend {
+    /** Where the settings of a trend from a rules {@code trend} block come from, in words. */
+    public static final String FROM_BLOCK = "the rules' trend block";
+    /** Where the settings come from when the rules have no {@code trend} block. */
+    public static final String FROM_DEFAULTS = "the rules have no trend block: these are the defaults; no alarm";
+
     private final TrendSettings settings;
+    private String origin = FROM_BLOCK;
     private final String storeName;
     private final StoreTrend.Outcome outcome;
     private final String problem;
@@ -64,6 +70,18 @@ public final class BatchTrend {
 
     public TrendSettings settings() {
         return settings;
+    }
+
+    /** Where the settings come from, in words ({@link #FROM_BLOCK} unless told otherwise). */
+    public String origin() {
+        return origin;
+    }
+
+    /** This trend, its settings told as coming from {@code where} (e.g. {@link #FROM_DEFAULTS}). */
+    public BatchTrend from(String where) {
+        BatchTrend t = new BatchTrend(settings, storeName, outcome, problem, files, runs);
+        t.origin = Objects.requireNonNull(where, "where");
+        return t;
     }
 
     /** The store's name as it was opened. */

@@ -191,8 +191,9 @@ final class InspectCommand implements Callable<Integer> {
         }
         SummaryWriter writer = summaryWriter;
         // drawn beside the workers when this runtime draws text (asked on the drawing thread)
-        BatchReport.TrendSource trend = storeOutput == null ? null : rules.trend()
-                .<BatchReport.TrendSource>map(t -> rowFiles -> storeOutput.trend(t, rowFiles)).orElse(null);
+        Rules judgedBy = rules;
+        BatchReport.TrendSource trend = storeOutput == null ? null
+                : rowFiles -> storeOutput.summaryTrend(judgedBy, rowFiles);
         SummaryDraft draft = summaryPdf && writer == null
                 ? SummaryDraft.start(out, judged, files.size(), () -> pictures.missing().isEmpty()).withTrend(trend)
                 : null;

@@ -95,6 +95,15 @@ final class StoreOutput {
     }
 
     /**
+     * The trend page's trend of a batch judged by {@code rules}: {@link Rules#summaryTrend()} (the rules' block, else
+     * its defaults, said so) over the store once every wafer told so far is stored.
+     */
+    BatchTrend summaryTrend(trapmap.maps.batch.Rules rules, List<String> files) throws java.io.InterruptedIOException {
+        BatchTrend t = trend(rules.summaryTrend(), files);
+        return rules.trend().isPresent() ? t : t.from(BatchTrend.FROM_DEFAULTS);
+    }
+
+    /**
      * The trend of {@code settings} over the store once every wafer told so far is stored ({@link BatchTrend#of}),
      * the batch's wafers being the results of {@code files} under this run's rules; a wafer that could not be stored
      * or a trend that cannot be charted gives the trend's reason instead (the store's failure is also told when it

@@ -166,8 +166,8 @@ final class WatchCommand implements Callable<Integer> {
                 spec.qualifiedName(), err);
         StoreWriter storing = storeOutput == null ? null : storeOutput.writer();
         StoreWriter stored = storing;
-        BatchReport.TrendSource trend = storeOutput == null ? null : rules.trend()
-                .<BatchReport.TrendSource>map(t -> rowFiles -> storeOutput.trend(t, rowFiles)).orElse(null);
+        BatchReport.TrendSource trend = storeOutput == null ? null
+                : rowFiles -> storeOutput.summaryTrend(rules, rowFiles);
         Alarm alarm = new Alarm(onFail, alarmFile, line -> {
             synchronized (err) {
                 err.println("watch: " + line);

@@ -20,8 +20,8 @@ import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.demo.HistoryScenario;
 
 /**
- * The batch summary's trend page: present only with {@code --store} and the rules' {@code trend} block, on pages of
- * its own after the summary's, which stay as they are without it; on the invented history (tube T2 drifts from
+ * The batch summary's trend page: present only with {@code --store} (the rules' {@code trend} block, else their default
+ * trend, said so), on pages of its own after the summary's, which stay as they are without it; on the invented history (tube T2 drifts from
  * {@link HistoryScenario#CHANGE_AT}) the second run's page shows the drift on T2's chart at its own wafers and no
  * point beyond 3σ on T1's.
  */
@@ -85,14 +85,21 @@ class InspectTrendPageTest {
     }
 
     @Test
-    void withoutAStoreOrWithoutTheBlockTheSummaryIsUnchangedAndWithBothItGainsTheTrendPages() throws Exception {
+    void withoutAStoreTheSummaryIsUnchangedAndWithOneItGainsTheTrendPagesOfTheBlockOrTheDefaults() throws Exception {
         List<String> maps = lots(1, 6);
         inspect(maps, withBlock, dir.resolve("no-store"), null);
         inspect(maps, withoutBlock, dir.resolve("no-block"), dir.resolve("no-block.db"));
         inspect(maps, withBlock, dir.resolve("both"), dir.resolve("both.db"));
         List<String> plain = pages(dir.resolve("no-store"));
-        assertThat(pages(dir.resolve("no-block"))).isEqualTo(plain);
         assertThat(String.join("", plain)).doesNotContain("Trend over");
+        // a store without the block: the same pages, then the trend of the rules' defaults, said so
+        List<String> noBlock = pages(dir.resolve("no-block"));
+        assertThat(noBlock.size()).isGreaterThan(plain.size());
+        assertThat(noBlock.subList(0, plain.size())).isEqualTo(plain);
+        String fallback = trapmap.maps.batch.Rules.read(withoutBlock).defaultTrend().figure();
+        assertThat(noBlock.get(plain.size())).startsWith("Trend over the results store: " + fallback);
+        assertThat(noBlock.get(plain.size()).replace("\n", " ")).contains("by lot", "first 20 wafers",
+                "the rules have no trend block", "18 stored wafers");
 
         List<String> both = pages(dir.resolve("both"));
         assertThat(both.size()).isGreaterThan(plain.size());

@@ -379,6 +379,26 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
     }
 
     /**
+     * The trend a batch summary charts when the batch writes into a results store: the rules' {@code trend} block,
+     * else {@link #defaultTrend()}. The watch's signal alarm uses the block only ({@link #trend()}).
+     */
+    public TrendSettings summaryTrend() {
+        return trend.orElseGet(this::defaultTrend);
+    }
+
+    /**
+     * The trend of rules without a {@code trend} block: the first figure the default profile limits (else its first
+     * figure), by lot, the first {@value trapmap.maps.trend.Baseline#DEFAULT_COUNT} charted wafers as the baseline, no
+     * alarm rule.
+     */
+    public TrendSettings defaultTrend() {
+        String figure = limits.isEmpty() ? defaultProfile().figures().get(0).name()
+                : limits.get(0).figure().name();
+        return new TrendSettings(figure, TrendSettings.DEFAULT_BY,
+                trapmap.maps.trend.Baseline.first(trapmap.maps.trend.Baseline.DEFAULT_COUNT), java.util.Set.of());
+    }
+
+    /**
      * Every figure of every profile, in the order they first appear (default profile first); the CSV columns follow
      * this order.
      */

@@ -31,6 +31,23 @@ class RulesTrendTest {
     }
 
     @Test
+    void theSummaryChartsTheBlockElseTheFirstLimitedFigureByLotWithoutAlarm() throws Exception {
+        Rules withBlock = parse(", 'trend': {'figure': 'median_lifetime_us', 'by': 'furnace_tube'}");
+        assertThat(withBlock.summaryTrend()).isEqualTo(withBlock.trend().orElseThrow());
+
+        TrendSettings fallback = parse("").summaryTrend();
+        assertThat(fallback).isEqualTo(parse("").defaultTrend());
+        assertThat(fallback.figure()).isEqualTo("trap_density_p50_cm3"); // the default profile's first limit
+        assertThat(fallback.by()).isEqualTo("lot");
+        assertThat(fallback.baseline()).isEqualTo(Baseline.first(Baseline.DEFAULT_COUNT));
+        assertThat(fallback.alarmRules()).isEmpty();
+
+        Rules noLimits = Rules.parse("{\"defect\": \"fe-i\", \"flag\": {\"quantity\": \"lifetime\", \"threshold\": 20}}",
+                "r.json");
+        assertThat(noLimits.summaryTrend().figure()).isEqualTo("harmonic_mean_lifetime_us"); // always reported
+    }
+
+    @Test
     void aBlockWithOnlyTheFigureTakesTheDefaults() throws Exception {
         TrendSettings t = parse(", 'trend': {'figure': 'trap_density_p50_cm3'}").trend().orElseThrow();
         assertThat(t).isEqualTo(TrendSettings.defaults("trap_density_p50_cm3"));

@@ -53,7 +53,7 @@ final class TrendSection {
         TrendSettings s = t.settings();
         flow.part("Trend over the results store: " + s.figure());
         flow.paragraph("Store " + PdfPage.clean(t.storeName()) + ", after this run's wafers; " + s.describe()
-                + " (the rules' trend block).", PdfPage.REGULAR, 8.5f);
+                + " (" + t.origin() + ").", PdfPage.REGULAR, 8.5f);
         if (t.problem().isPresent()) {
             flow.paragraph("No trend: " + PdfPage.clean(t.problem().get()), PdfPage.BOLD, 9);
             flow.down(4);
