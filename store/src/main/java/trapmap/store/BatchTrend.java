@@ -23,7 +23,7 @@ public final class BatchTrend {
     /** Where the settings of a trend from a rules {@code trend} block come from, in words. */
     public static final String FROM_BLOCK = "the rules' trend block";
     /** Where the settings come from when the rules have no {@code trend} block. */
-    public static final String FROM_DEFAULTS = "the rules have no trend block: these are the defaults; no alarm";
+    public static final String FROM_DEFAULTS = "the rules have no trend block: these are the defaults";
 
     private final TrendSettings settings;
     private String origin = FROM_BLOCK;
