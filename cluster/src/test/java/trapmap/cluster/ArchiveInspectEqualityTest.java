@@ -279,6 +279,29 @@ class ArchiveInspectEqualityTest {
     }
 
     @Test
+    void aFebStateMapWithoutItsPartnerFailsAsInInspect() throws Exception {
+        Path alone = dir.resolve("alone");
+        Files.createDirectories(alone);
+        for (String f : List.of("LOT-A03-W02-feb-state", "LOT-A01-W01")) {
+            Files.copy(DEMO.resolve(f + ".tif"), alone.resolve(f + ".tif"));
+            Files.copy(DEMO.resolve(f + ".json"), alone.resolve(f + ".json"));
+        }
+        Path rulesFile = DEMO.resolve("rules-example.json");
+        Rules rules = Rules.read(rulesFile);
+        Map<String, WaferResult> expected = inspect(alone, rules, IronPairRules.read(rulesFile).orElseThrow(),
+                dir.resolve("inspect"));
+        String output = dir.resolve("archive").toString();
+        ArchiveJob.run(spark, new ArchiveJob.Request(List.of(alone.toString()), rulesFile.toString(), output,
+                PartitionKey.DAY, false));
+        Map<String, Row> rows = sameCsvColumns(output, 2);
+        Row feb = rows.get(alone.resolve("LOT-A03-W02-feb-state.tif").toString());
+        assertThat((String) feb.getAs("status")).isEqualTo("fail");
+        assertThat(feb.getList(feb.fieldIndex("failed_rules"))).contains("iron");
+        assertThat((String) feb.getAs(IronPairs.NOTE)).contains("no Fe_i-state partner LOT-A03-W02-fe-i-state.tif");
+        assertThat(expected).hasSize(2);
+    }
+
+    @Test
     void injectionStackGivesInspectsStackFigures() throws Exception {
         Path stack = DEMO.resolve(InjectionStackDemo.FOLDER);
         Path rulesFile = stack.resolve(InjectionStackDemo.RULES);
