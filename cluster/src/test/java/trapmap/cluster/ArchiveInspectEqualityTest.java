@@ -78,6 +78,12 @@ class ArchiveInspectEqualityTest {
                     .filter(p -> !BatchInspection.isOutputName(p.getFileName().toString()))
                     .sorted().toList();
         }
+        return inspect(files, rules, iron, out);
+    }
+
+    /** The batch over {@code files} in this order (as inspect takes several input folders, one after the other). */
+    private static Map<String, WaferResult> inspect(List<Path> files, Rules rules, IronPairRules iron, Path out)
+            throws Exception {
         Map<String, WaferResult> told = new HashMap<>();
         new BatchInspection(rules).withIron(iron).tellingWafers((r, row) -> {
             told.put(r.file(), r);
@@ -299,6 +305,27 @@ class ArchiveInspectEqualityTest {
         assertThat(feb.getList(feb.fieldIndex("failed_rules"))).contains("iron");
         assertThat((String) feb.getAs(IronPairs.NOTE)).contains("no Fe_i-state partner LOT-A03-W02-fe-i-state.tif");
         assertThat(expected).hasSize(2);
+    }
+
+    @Test
+    void aPartnerInAnotherInputFolderIsTheFirstOfItsName() throws Exception {
+        List<Path> files = new ArrayList<>();
+        for (String folder : List.of("a", "b", "c")) {
+            Path f = Files.createDirectories(dir.resolve(folder));
+            String wafer = folder.equals("a") ? "LOT-A03-W02-feb-state" : "LOT-A03-W02-fe-i-state";
+            Files.copy(DEMO.resolve(wafer + ".tif"), f.resolve(wafer + ".tif"));
+            Files.copy(DEMO.resolve(wafer + ".json"), f.resolve(wafer + ".json"));
+            files.add(f.resolve(wafer + ".tif"));
+        }
+        Path rulesFile = DEMO.resolve("rules-example.json");
+        inspect(files, Rules.read(rulesFile), IronPairRules.read(rulesFile).orElseThrow(), dir.resolve("inspect"));
+        String output = dir.resolve("archive").toString();
+        ArchiveJob.run(spark, new ArchiveJob.Request(List.of(dir.resolve("a").toString(), dir.resolve("b").toString(),
+                dir.resolve("c").toString()), rulesFile.toString(), output, PartitionKey.DAY, false));
+        Map<String, Row> rows = sameCsvColumns(output, 3);
+        assertThat(local(rows.get(files.get(0).toString()).getAs(IronPairs.PARTNER))).isEqualTo(files.get(1).toString());
+        assertThat((String) rows.get(files.get(0).toString()).getAs(IronPairs.STATUS)).isIn("pass", "fail");
+        assertThat(local(rows.get(files.get(2).toString()).getAs(IronPairs.PARTNER))).isEqualTo(files.get(0).toString());
     }
 
     @Test
