@@ -51,7 +51,10 @@ import trapmap.maps.io.InputFiles;
  * ({@link Shipment}, a broadcast) by the very {@code WaferInspection} that {@code inspect} runs, and writes three
  * Parquet tables under the output, partitioned by {@link PartitionKey}: {@code results} (one row per map, the
  * columns of {@code results.csv}), {@code regions} (one row per flagged region) and {@code footprints} (one row per
- * judged wafer). A map that cannot be read or judged is an {@code error} row, as in {@code inspect}.
+ * judged wafer). A map that cannot be read or judged is an {@code error} row, as in {@code inspect}. Maps judged
+ * together are judged together: a stack's other levels are fetched beside its first level's map ({@link #levels}); the
+ * FeB/Fe_i pairs of an {@code iron} section are matched on the listed paths ({@link #partners}), judged in the
+ * executors by the batch's iron step ({@link Iron}) and merged into the rows ({@link MergeIron}).
  *
  * <p>Writes are idempotent: each table is written with Spark's file commit protocol (a retried or speculative task's
  * files are never committed twice) in dynamic partition-overwrite mode, so a run replaces the partitions it writes
@@ -85,15 +88,11 @@ public final class ArchiveJob {
     }
 
     /**
-     * What a run did: wafers by status, the tables written, what of the rules it left out (one line each), and the
-     * recurrence of the wafers of the footprints table (also written as {@code recurrence} and {@code hotspots}).
+     * What a run did: wafers by status, the tables written, and the recurrence of the wafers of the footprints table
+     * (also written as {@code recurrence} and {@code hotspots}).
      */
     public record Outcome(long pass, long fail, long error, String results, String regions, String footprints,
-                          List<String> warnings, ArchiveRecurrence.Outcome recurrence) {
-        public Outcome {
-            warnings = List.copyOf(warnings);
-        }
-
+                          ArchiveRecurrence.Outcome recurrence) {
         public long total() {
             return pass + fail + error;
         }
@@ -163,8 +162,7 @@ public final class ArchiveJob {
                     case ERROR -> error = r.getLong(1);
                 }
             }
-            return new Outcome(pass, fail, error, out + RESULTS, out + REGIONS, out + FOOTPRINTS,
-                    List.of(), recurrence);
+            return new Outcome(pass, fail, error, out + RESULTS, out + REGIONS, out + FOOTPRINTS, recurrence);
         } finally {
             wafers.unpersist();
             alone.unpersist();
