@@ -95,6 +95,9 @@ final class WaferRows implements java.io.Serializable {
             f.add(field(c, c.equals(IronPairs.FAILED) ? DataTypes.createArrayType(DataTypes.StringType, false)
                     : IRON_TEXT.contains(c) ? DataTypes.StringType : DataTypes.DoubleType));
         }
+        if (!ironColumns.isEmpty()) {
+            f.add(field(MAP_VERDICT, VERDICT));
+        }
         f.add(field("content_sha256", DataTypes.StringType));
         f.add(field("measured_at", DataTypes.TimestampType));
         f.add(field("attributes", DataTypes.createMapType(DataTypes.StringType, DataTypes.StringType, false)));
@@ -104,6 +107,16 @@ final class WaferRows implements java.io.Serializable {
         f.add(field(FOOTPRINT_COLUMN, FOOTPRINT));
         schema = new StructType(f.toArray(StructField[]::new));
     }
+
+    /**
+     * With an iron section: the verdict of the map alone, before its pair's is merged ({@code status}, {@code grade},
+     * {@code failed_rules}, {@code graded_down_by}), which {@code inspect --store} keeps and {@link StoreLoad} loads.
+     */
+    static final String MAP_VERDICT = "map_verdict";
+    static final StructType VERDICT = new StructType(new StructField[] {
+        field("status", DataTypes.StringType), field("grade", DataTypes.StringType),
+        field("failed_rules", DataTypes.createArrayType(DataTypes.StringType, false)),
+        field("graded_down_by", DataTypes.createArrayType(DataTypes.StringType, false))});
 
     /** The iron columns that are text. */
     private static final List<String> IRON_TEXT = List.of(IronPairs.PARTNER, IronPairs.STATUS, IronPairs.NOTE);
@@ -160,6 +173,9 @@ final class WaferRows implements java.io.Serializable {
         }
         v.add(r.error());
         ironColumns.forEach(c -> v.add(null)); // filled by withIron once the pairs are judged
+        if (!ironColumns.isEmpty()) {
+            v.add(RowFactory.create(r.status().key(), r.grade(), seq(r.failed()), seq(r.gradedDownBy())));
+        }
         v.add(facts.contentSha256());
         Map<String, String> attributes = new TreeMap<>(facts.attributes());
         Instant measured = measuredAt(attributes.get("measured_at"));
