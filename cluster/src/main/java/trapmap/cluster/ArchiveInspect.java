@@ -100,7 +100,6 @@ public final class ArchiveInspect implements Callable<Integer> {
         try {
             ArchiveJob.Outcome o = ArchiveJob.run(spark, new ArchiveJob.Request(inputs, rules, output, key,
                     recursive));
-            o.warnings().forEach(w -> err.println("trapmap-cluster: warning: " + w));
             out.println(o.total() + " maps: " + o.pass() + " pass, " + o.fail() + " fail, " + o.error() + " error;"
                     + " Parquet tables partitioned by " + key.column() + ": " + o.results() + ", " + o.regions()
                     + ", " + o.footprints());

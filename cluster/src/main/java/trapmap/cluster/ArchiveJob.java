@@ -30,6 +30,13 @@ import org.apache.spark.sql.functions;
 import org.apache.spark.storage.StorageLevel;
 import trapmap.maps.batch.BatchInspection;
 import trapmap.maps.batch.InspectionBuffers;
+import trapmap.maps.batch.IronPairs;
+import trapmap.maps.batch.Rules;
+import trapmap.maps.batch.WaferInspection;
+import trapmap.maps.model.WaferMap;
+import org.apache.spark.sql.types.DataTypes;
+import org.apache.spark.sql.types.StructField;
+import org.apache.spark.sql.types.StructType;
 import trapmap.maps.batch.RulesException;
 import trapmap.maps.batch.WaferResult;
 import trapmap.maps.io.MapFiles;
@@ -44,7 +51,10 @@ import trapmap.maps.io.InputFiles;
  * ({@link Shipment}, a broadcast) by the very {@code WaferInspection} that {@code inspect} runs, and writes three
  * Parquet tables under the output, partitioned by {@link PartitionKey}: {@code results} (one row per map, the
  * columns of {@code results.csv}), {@code regions} (one row per flagged region) and {@code footprints} (one row per
- * judged wafer). A map that cannot be read or judged is an {@code error} row, as in {@code inspect}.
+ * judged wafer). A map that cannot be read or judged is an {@code error} row, as in {@code inspect}. Maps judged
+ * together are judged together: a stack's other levels are fetched beside its first level's map ({@link #levels}); the
+ * FeB/Fe_i pairs of an {@code iron} section are matched on the listed paths ({@link #partners}), judged in the
+ * executors by the batch's iron step ({@link Iron}) and merged into the rows ({@link MergeIron}).
  *
  * <p>Writes are idempotent: each table is written with Spark's file commit protocol (a retried or speculative task's
  * files are never committed twice) in dynamic partition-overwrite mode, so a run replaces the partitions it writes
@@ -78,15 +88,11 @@ public final class ArchiveJob {
     }
 
     /**
-     * What a run did: wafers by status, the tables written, what of the rules it left out (one line each), and the
-     * recurrence of the wafers of the footprints table (also written as {@code recurrence} and {@code hotspots}).
+     * What a run did: wafers by status, the tables written, and the recurrence of the wafers of the footprints table
+     * (also written as {@code recurrence} and {@code hotspots}).
      */
     public record Outcome(long pass, long fail, long error, String results, String regions, String footprints,
-                          List<String> warnings, ArchiveRecurrence.Outcome recurrence) {
-        public Outcome {
-            warnings = List.copyOf(warnings);
-        }
-
+                          ArchiveRecurrence.Outcome recurrence) {
         public long total() {
             return pass + fail + error;
         }
@@ -105,7 +111,7 @@ public final class ArchiveJob {
         Configuration conf = spark.sparkContext().hadoopConfiguration();
         Shipment shipment = new Shipment(readRules(request.rules(), conf), request.rules());
         Shipment.Judge judge = shipment.parse(); // checked here, once, before any executor starts
-        WaferRows rows = new WaferRows(judge.rules());
+        WaferRows rows = new WaferRows(judge.rules(), judge.iron());
         JavaSparkContext jsc = JavaSparkContext.fromSparkContext(spark.sparkContext());
         Broadcast<Shipment> rulesShipped = jsc.broadcast(shipment);
         Broadcast<SerializableWritable<Configuration>> confShipped = jsc.broadcast(new SerializableWritable<>(conf));
@@ -113,7 +119,23 @@ public final class ArchiveJob {
         Dataset<Row> files = listing(spark, request, conf);
         JavaRDD<Row> inspected = files.select("path", "content").javaRDD()
                 .mapPartitions(new Inspect(rulesShipped, confShipped, rows));
-        Dataset<Row> wafers = spark.createDataFrame(inspected, rows.schema()).persist(StorageLevel.MEMORY_AND_DISK());
+        Dataset<Row> alone = spark.createDataFrame(inspected, rows.schema()).persist(StorageLevel.MEMORY_AND_DISK());
+        Dataset<Row> wafers = alone;
+        if (judge.iron() != null) {
+            // the FeB/Fe_i pairs: matched on the listed paths, judged in the executors, merged into the rows
+            Dataset<Row> pairs = partners(spark, files.select("path"), rulesShipped);
+            Dataset<Row> iron = spark.createDataFrame(pairs.javaRDD().mapPartitions(new Iron(rulesShipped,
+                    confShipped)), IRON);
+            Column[] both = new Column[rows.schema().size() + 2];
+            for (int i = 0; i < rows.schema().size(); i++) {
+                both[i] = alone.col(rows.schema().fieldNames()[i]);
+            }
+            both[both.length - 2] = iron.col("pair_text");
+            both[both.length - 1] = iron.col("pair_values");
+            JavaRDD<Row> merged = alone.join(iron, alone.col("file").equalTo(iron.col("pair_file")), "left_outer")
+                    .select(both).javaRDD().mapPartitions(new MergeIron(rulesShipped, rows));
+            wafers = spark.createDataFrame(merged, rows.schema()).persist(StorageLevel.MEMORY_AND_DISK());
+        }
         try {
             String key = request.key().column();
             String out = request.output().endsWith("/") ? request.output() : request.output() + "/";
@@ -140,10 +162,10 @@ public final class ArchiveJob {
                     case ERROR -> error = r.getLong(1);
                 }
             }
-            return new Outcome(pass, fail, error, out + RESULTS, out + REGIONS, out + FOOTPRINTS,
-                    shipment.leftOut(), recurrence);
+            return new Outcome(pass, fail, error, out + RESULTS, out + REGIONS, out + FOOTPRINTS, recurrence);
         } finally {
             wafers.unpersist();
+            alone.unpersist();
             rulesShipped.destroy();
             confShipped.destroy();
         }
@@ -270,6 +292,7 @@ public final class ArchiveJob {
         public Iterator<Row> call(Iterator<Row> files) {
             Shipment.Judge judge = rules.value().judge();
             Configuration c = conf.value().value();
+            boolean stacks = judge.hasStacks();
             InspectionBuffers buffers = new InspectionBuffers(); // reused from map to map, as a batch worker does
             return new Iterator<>() {
                 @Override
@@ -287,7 +310,10 @@ public final class ArchiveJob {
                     }
                     byte[] content = (byte[]) f.get(1);
                     SidecarBytes sidecar = sidecar(name, c);
-                    WaferResult r = judge.inspection().inspect(name, () -> {
+                    // a stack's other levels are read from beside the map, as inspect reads them
+                    WaferInspection inspection = stacks ? new WaferInspection(judge.rules(), levels(name, c))
+                            : judge.inspection();
+                    WaferResult r = inspection.inspect(name, () -> {
                         if (sidecar.failure() != null) {
                             throw sidecar.failure();
                         }
@@ -295,6 +321,162 @@ public final class ArchiveJob {
                                 ReadOptions.DEFAULTS);
                     }, buffers);
                     return rows.row(r, new WaferRows.Facts(sha256(content), facts(sidecar)), judge.lotPattern());
+                }
+            };
+        }
+    }
+
+    /**
+     * The reader of the levels of an injection stack whose first level is the map {@code name}: each level (named
+     * by {@code StackFigures} beside the map) fetched from the map's folder through its file system with its sidecar,
+     * read by {@link MapFiles#readSingle(String, byte[], String, byte[], ReadOptions)}.
+     */
+    static WaferInspection.MapReader levels(String name, Configuration conf) {
+        org.apache.hadoop.fs.Path folder = new org.apache.hadoop.fs.Path(name).getParent();
+        return level -> readMap(new org.apache.hadoop.fs.Path(folder, level.getFileName().toString()), conf);
+    }
+
+    /**
+     * The map in {@code file} with its sidecar, fetched through the file's file system; a file that is not there or
+     * not a regular file gives the reason {@code MapFiles.readSingle(Path)} gives.
+     */
+    static WaferMap readMap(org.apache.hadoop.fs.Path file, Configuration conf) throws IOException {
+        String name = file.toString();
+        byte[] content;
+        try {
+            FileSystem fs = file.getFileSystem(conf);
+            FileStatus st = fs.getFileStatus(file);
+            if (!st.isFile()) {
+                throw new MapFormatException(name, null, "is " + (st.isDirectory() ? "a directory"
+                        : "a FIFO, socket or device") + ", not a regular file");
+            }
+            try (InputStream in = fs.open(file)) {
+                content = in.readAllBytes();
+            }
+        } catch (FileNotFoundException e) {
+            throw new MapFormatException(name, null, "no such file", "", e);
+        }
+        SidecarBytes sidecar = sidecar(name, conf);
+        if (sidecar.failure() != null) {
+            throw sidecar.failure();
+        }
+        return MapFiles.readSingle(name, content, sidecar.name(), sidecar.bytes(), ReadOptions.DEFAULTS);
+    }
+
+    /** The rows of the iron step: a listed file's iron columns as text and their numbers. */
+    static final StructType IRON = new StructType(new StructField[] {
+        DataTypes.createStructField("pair_file", DataTypes.StringType, false),
+        DataTypes.createStructField("pair_text", DataTypes.createMapType(DataTypes.StringType,
+                DataTypes.StringType, false), false),
+        DataTypes.createStructField("pair_values", DataTypes.createMapType(DataTypes.StringType,
+                DataTypes.DoubleType, false), false)});
+
+    /** Path expressions on a path column: its file name and its folder. */
+    private static Column nameOf(Column path) {
+        return functions.regexp_extract(path, "([^/]*)$", 1);
+    }
+
+    private static Column folderOf(Column path) {
+        return functions.regexp_replace(path, "/[^/]*$", "");
+    }
+
+    /**
+     * The members of FeB/Fe_i pairs among the listed {@code paths} ({@code path, name, partner}): each file whose
+     * name matches a state's glob with the partner the batch's {@code IronPairs} would take: the listed file of the
+     * partner's name in the same folder, else the first by path of that name in another; null when none is listed.
+     */
+    static Dataset<Row> partners(SparkSession spark, Dataset<Row> paths, Broadcast<Shipment> rules) {
+        StructType wanted = new StructType(new StructField[] {
+            DataTypes.createStructField("path", DataTypes.StringType, false),
+            DataTypes.createStructField("want", DataTypes.StringType, false)});
+        Dataset<Row> members = spark.createDataFrame(paths.javaRDD().mapPartitions(
+                (FlatMapFunction<Iterator<Row>, Row>) it -> {
+                    trapmap.maps.batch.IronPairRules iron = rules.value().judge().iron();
+                    List<Row> out = new ArrayList<>();
+                    while (it.hasNext()) {
+                        String path = it.next().getString(0);
+                        String name = path.substring(path.lastIndexOf('/') + 1);
+                        // the FeB-state glob first, as IronPairs looks
+                        java.util.Optional<String> want = iron.feiNameFor(name).or(() -> iron.febNameFor(name));
+                        want.ifPresent(w -> out.add(org.apache.spark.sql.RowFactory.create(path, w)));
+                    }
+                    return out.iterator();
+                }), wanted);
+        Dataset<Row> listed = paths.select(functions.col("path").as("p_path"),
+                nameOf(functions.col("path")).as("p_name"), folderOf(functions.col("path")).as("p_folder"));
+        Column rank = functions.when(functions.col("p_folder").equalTo(folderOf(functions.col("path"))), 0)
+                .otherwise(1);
+        return members.join(listed, members.col("want").equalTo(listed.col("p_name")), "left_outer")
+                .groupBy(functions.col("path"))
+                .agg(functions.min(functions.struct(rank.as("rank"), functions.col("p_path").as("partner")))
+                        .as("best"))
+                .select(functions.col("path"), nameOf(functions.col("path")).as("name"),
+                        functions.col("best.partner").as("partner"));
+    }
+
+    /** The executors' iron step: each pair member's columns by the batch's {@link IronPairs#evaluate}. */
+    static final class Iron implements FlatMapFunction<Iterator<Row>, Row> {
+        private static final long serialVersionUID = 1L;
+        private final Broadcast<Shipment> rules;
+        private final Broadcast<SerializableWritable<Configuration>> conf;
+
+        Iron(Broadcast<Shipment> rules, Broadcast<SerializableWritable<Configuration>> conf) {
+            this.rules = rules;
+            this.conf = conf;
+        }
+
+        @Override
+        public Iterator<Row> call(Iterator<Row> members) {
+            Shipment.Judge judge = rules.value().judge();
+            Configuration c = conf.value().value();
+            return new Iterator<>() {
+                @Override
+                public boolean hasNext() {
+                    return members.hasNext();
+                }
+
+                @Override
+                public Row next() {
+                    Row m = members.next();
+                    String path = m.getString(0);
+                    String partner = m.isNullAt(2) ? null : m.getString(2);
+                    IronPairs.Evaluation e = IronPairs.evaluate(judge.iron(), judge.rules(), m.getString(1), path,
+                            wanted -> partner, file -> readMap(new org.apache.hadoop.fs.Path(file), c));
+                    return org.apache.spark.sql.RowFactory.create(path,
+                            scala.jdk.javaapi.CollectionConverters.asScala(e.columns()),
+                            scala.jdk.javaapi.CollectionConverters.asScala(e.values()));
+                }
+            };
+        }
+    }
+
+    /** Merges each row's iron columns ({@link WaferRows#withIron}); a row without any keeps its verdict. */
+    static final class MergeIron implements FlatMapFunction<Iterator<Row>, Row> {
+        private static final long serialVersionUID = 1L;
+        private final Broadcast<Shipment> rules;
+        private final WaferRows rows;
+
+        MergeIron(Broadcast<Shipment> rules, WaferRows rows) {
+            this.rules = rules;
+            this.rows = rows;
+        }
+
+        @Override
+        public Iterator<Row> call(Iterator<Row> joined) {
+            Rules r = rules.value().judge().rules();
+            return new Iterator<>() {
+                @Override
+                public boolean hasNext() {
+                    return joined.hasNext();
+                }
+
+                @Override
+                public Row next() {
+                    Row j = joined.next();
+                    int at = j.size() - 2;
+                    IronPairs.Evaluation e = j.isNullAt(at) ? null
+                            : new IronPairs.Evaluation(j.getJavaMap(at), j.getJavaMap(at + 1));
+                    return rows.withIron(j, e, r);
                 }
             };
         }

@@ -1,7 +1,6 @@
 package trapmap.cluster;
 
 import java.io.Serializable;
-import java.util.List;
 import java.util.Map;
 import java.util.Optional;
 import java.util.concurrent.ConcurrentHashMap;
@@ -26,39 +25,27 @@ public record Shipment(String rulesText, String rulesName) implements Serializab
     /** Parsed once per JVM: the rules' judgement and lot pattern, by shipment. */
     private static final Map<Shipment, Judge> JUDGES = new ConcurrentHashMap<>();
 
-    /** The judgement of these rules (the rules parsed as {@code inspect} parses them) and the lot pattern. */
-    public record Judge(Rules rules, WaferInspection inspection, Pattern lotPattern) {
+    /**
+     * The judgement of these rules (the rules parsed as {@code inspect} parses them), the lot pattern (null: none) and
+     * the iron section (null: none).
+     */
+    public record Judge(Rules rules, WaferInspection inspection, Pattern lotPattern, IronPairRules iron) {
+        /** Whether a profile judges its maps with the other levels of an injection stack beside them. */
+        public boolean hasStacks() {
+            return rules.allProfiles().stream().anyMatch(p -> p.stack() != null);
+        }
     }
 
     /**
-     * Parses and checks the rules as {@code inspect} does, and refuses what a wafer judged alone cannot have: a
-     * profile's injection stack (the other levels' maps beside it).
+     * Parses and checks the rules as {@code inspect} does (their iron section too).
      *
      * @throws RulesException with a one-line message naming the rules file and field
      */
     public Judge parse() throws RulesException {
         Rules rules = Rules.parse(rulesText, rulesName);
-        for (Rules.Profile p : rules.allProfiles()) {
-            if (p.stack() != null) {
-                throw new RulesException(rulesName + ": profile '" + p.name() + "' has a 'stack' (maps of several"
-                        + " injection levels judged together); the cluster job judges each map alone, so use inspect"
-                        + " for injection stacks");
-            }
-        }
         Optional<Pattern> lots = LotPattern.parse(rulesText, rulesName);
-        return new Judge(rules, new WaferInspection(rules), lots.orElse(null));
-    }
-
-    /**
-     * What the cluster job leaves out of these rules, one line each: the {@code iron} section (its pairs need two maps
-     * of a wafer together; each map is judged alone, and the FeB-state map's row has no iron columns).
-     */
-    public List<String> leftOut() throws RulesException {
-        if (IronPairRules.parse(rulesText, rulesName).isPresent()) {
-            return List.of(rulesName + ": the 'iron' section is left out: its FeB/Fe_i pairs need two maps of a wafer"
-                    + " together, and the cluster job judges each map alone (inspect evaluates the pairs)");
-        }
-        return List.of();
+        IronPairRules iron = IronPairRules.parse(rulesText, rulesName).orElse(null);
+        return new Judge(rules, new WaferInspection(rules), lots.orElse(null), iron);
     }
 
     /** The judgement of this shipment in this JVM, parsed on first use. */

@@ -104,10 +104,16 @@ public final class StoreLoad {
             }
         }
         int fpAt = r.fieldIndex("fp");
+        // the map's own verdict, as inspect --store keeps it: before an iron pair's is merged into the row
+        Row verdict = r;
+        if (java.util.Arrays.asList(r.schema().fieldNames()).contains(WaferRows.MAP_VERDICT)
+                && !r.isNullAt(r.fieldIndex(WaferRows.MAP_VERDICT))) {
+            verdict = r.getStruct(r.fieldIndex(WaferRows.MAP_VERDICT));
+        }
         WaferResult result = new WaferResult(r.getAs("file"), r.getAs("wafer_id"),
-                WaferResult.Status.valueOf(r.<String>getAs("status").toUpperCase(java.util.Locale.ROOT)),
-                r.getAs("grade"), r.getAs("profile"), r.getAs("defect"), values, strings(r, "failed_rules"),
-                strings(r, "graded_down_by"), regions, r.getAs("error"),
+                WaferResult.Status.valueOf(verdict.<String>getAs("status").toUpperCase(java.util.Locale.ROOT)),
+                verdict.getAs("grade"), r.getAs("profile"), r.getAs("defect"), values,
+                strings(verdict, "failed_rules"), strings(verdict, "graded_down_by"), regions, r.getAs("error"),
                 r.isNullAt(fpAt) ? null : WaferRows.footprint(r.getStruct(fpAt)));
         Map<String, String> attributes = new TreeMap<>();
         int attrAt = r.fieldIndex("attributes");

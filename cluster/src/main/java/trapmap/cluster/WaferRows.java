@@ -18,6 +18,8 @@ import org.apache.spark.sql.types.StructField;
 import org.apache.spark.sql.types.StructType;
 import trapmap.maps.batch.FlaggedRegions;
 import trapmap.maps.batch.Footprint;
+import trapmap.maps.batch.IronPairRules;
+import trapmap.maps.batch.IronPairs;
 import trapmap.maps.batch.LotPattern;
 import trapmap.maps.batch.Rules;
 import trapmap.maps.batch.WaferResult;
@@ -65,11 +67,18 @@ final class WaferRows implements java.io.Serializable {
     static final String FOOTPRINT_COLUMN = "footprint";
 
     private final List<String> figures;
+    /** The iron columns ({@link IronPairs#columns}), empty without an iron section. */
+    private final List<String> ironColumns;
     private final StructType schema;
 
-    /** The rows of wafers judged by {@code rules} (their figures are the columns). */
-    WaferRows(Rules rules) {
+    /**
+     * The rows of wafers judged by {@code rules} (their figures are the columns), with the iron columns of
+     * {@code iron} (null: none) after {@code error}: partner, status and notes as text, the failed iron limits as an
+     * array, the figures as doubles (cm⁻³; the registration score without unit).
+     */
+    WaferRows(Rules rules, IronPairRules iron) {
         figures = rules.figures().stream().map(f -> f.name()).toList();
+        ironColumns = iron == null ? List.of() : IronPairs.columns(iron);
         List<StructField> f = new ArrayList<>();
         for (String c : List.of("file", "wafer_id", "status", "grade", "profile", "defect")) {
             f.add(field(c, DataTypes.StringType));
@@ -82,6 +91,13 @@ final class WaferRows implements java.io.Serializable {
                     : w.equals("worst_region_centroid_inside") ? DataTypes.BooleanType : DataTypes.DoubleType));
         }
         f.add(field("error", DataTypes.StringType));
+        for (String c : ironColumns) {
+            f.add(field(c, c.equals(IronPairs.FAILED) ? DataTypes.createArrayType(DataTypes.StringType, false)
+                    : IRON_TEXT.contains(c) ? DataTypes.StringType : DataTypes.DoubleType));
+        }
+        if (!ironColumns.isEmpty()) {
+            f.add(field(MAP_VERDICT, VERDICT));
+        }
         f.add(field("content_sha256", DataTypes.StringType));
         f.add(field("measured_at", DataTypes.TimestampType));
         f.add(field("attributes", DataTypes.createMapType(DataTypes.StringType, DataTypes.StringType, false)));
@@ -90,6 +106,24 @@ final class WaferRows implements java.io.Serializable {
         f.add(field(REGIONS, DataTypes.createArrayType(REGION, false)));
         f.add(field(FOOTPRINT_COLUMN, FOOTPRINT));
         schema = new StructType(f.toArray(StructField[]::new));
+    }
+
+    /**
+     * With an iron section: the verdict of the map alone, before its pair's is merged ({@code status}, {@code grade},
+     * {@code failed_rules}, {@code graded_down_by}), which {@code inspect --store} keeps and {@link StoreLoad} loads.
+     */
+    static final String MAP_VERDICT = "map_verdict";
+    static final StructType VERDICT = new StructType(new StructField[] {
+        field("status", DataTypes.StringType), field("grade", DataTypes.StringType),
+        field("failed_rules", DataTypes.createArrayType(DataTypes.StringType, false)),
+        field("graded_down_by", DataTypes.createArrayType(DataTypes.StringType, false))});
+
+    /** The iron columns that are text. */
+    private static final List<String> IRON_TEXT = List.of(IronPairs.PARTNER, IronPairs.STATUS, IronPairs.NOTE);
+
+    /** Whether the rows have the iron columns. */
+    boolean withIron() {
+        return !ironColumns.isEmpty();
     }
 
     private static StructField field(String name, DataType type) {
@@ -138,6 +172,10 @@ final class WaferRows implements java.io.Serializable {
             v.add(w.bounds().maxYMm());
         }
         v.add(r.error());
+        ironColumns.forEach(c -> v.add(null)); // filled by withIron once the pairs are judged
+        if (!ironColumns.isEmpty()) {
+            v.add(RowFactory.create(r.status().key(), r.grade(), seq(r.failed()), seq(r.gradedDownBy())));
+        }
         v.add(facts.contentSha256());
         Map<String, String> attributes = new TreeMap<>(facts.attributes());
         Instant measured = measuredAt(attributes.get("measured_at"));
@@ -163,6 +201,52 @@ final class WaferRows implements java.io.Serializable {
         v.add(fp == null ? null : RowFactory.create(fp.family(), fp.pitchMm(), fp.minI(), fp.minJ(), fp.width(),
                 fp.height(), fp.covered().toByteArray(), fp.flagged().toByteArray()));
         return RowFactory.create(v.toArray());
+    }
+
+    /**
+     * The row {@code row} of this schema with the iron columns of its file ({@code iron}; empty or null: its name
+     * matches neither state's glob) and its verdict as {@code inspect}'s results row has it: merged by the batch's
+     * own {@link IronPairs#merge} (a wafer whose pair fails or is in error fails, its fail grade and failed iron
+     * limits added).
+     */
+    Row withIron(Row row, IronPairs.Evaluation iron, Rules rules) {
+        Object[] v = new Object[schema.size()]; // the row's first fields are this schema's
+        for (int i = 0; i < v.length; i++) {
+            v[i] = row.get(i);
+        }
+        if (iron == null || iron.columns().isEmpty()) {
+            return RowFactory.create(v);
+        }
+        Map<String, String> verdict = new java.util.LinkedHashMap<>();
+        for (String c : List.of("status", "grade", "profile")) {
+            verdict.put(c, row.getString(schema.fieldIndex(c)));
+        }
+        verdict.put("failed_rules", String.join(";", row.<String>getList(schema.fieldIndex("failed_rules"))));
+        verdict.put("graded_down_by", String.join(";", row.<String>getList(schema.fieldIndex("graded_down_by"))));
+        IronPairs.merge(verdict, iron.columns(), rules);
+        v[schema.fieldIndex("status")] = verdict.get("status");
+        v[schema.fieldIndex("grade")] = verdict.get("grade");
+        v[schema.fieldIndex("failed_rules")] = seq(names(verdict.get("failed_rules")));
+        v[schema.fieldIndex("graded_down_by")] = seq(names(verdict.get("graded_down_by")));
+        for (String c : ironColumns) {
+            String text = iron.columns().get(c);
+            Object value;
+            if (c.equals(IronPairs.FAILED)) {
+                value = text == null ? null : seq(names(text));
+            } else if (IRON_TEXT.contains(c)) {
+                value = text;
+            } else {
+                Double d = iron.values().get(c);
+                value = d == null || d.isNaN() ? null : d;
+            }
+            v[schema.fieldIndex(c)] = value;
+        }
+        return RowFactory.create(v);
+    }
+
+    /** The names of a {@code ;}-separated list as the batch's row holds it (none for ""). */
+    private static List<String> names(String list) {
+        return list == null || list.isEmpty() ? List.of() : List.of(list.split(";"));
     }
 
     /** A list as the Scala sequence a Spark row holds for an array column. */

@@ -13,8 +13,8 @@ import picocli.CommandLine;
 import trapmap.maps.batch.RulesException;
 
 /**
- * The command line's refusals before any Spark work (one line naming the option, exit status 2) and the rules the
- * cluster job cannot judge map by map: an injection stack is refused, the iron section is named as left out.
+ * The command line's refusals before any Spark work (one line naming the option, exit status 2) and the rules that
+ * judge maps together, shipped whole: a profile's injection stack, the iron section (a bad one refused in one line).
  */
 class ArchiveInspectCommandTest {
     private static final Path DEMO = Path.of("..", "demo-data");
@@ -45,23 +45,27 @@ class ArchiveInspectCommandTest {
     }
 
     @Test
-    void rulesWithAnInjectionStackAreRefusedNamingTheProfile() throws Exception {
+    void rulesWithAnInjectionStackAreTakenWithTheirStack() throws Exception {
         Path rules = DEMO.resolve("injection-stack").resolve("rules-identify.json");
-        Shipment s = new Shipment(Files.readString(rules), rules.toString());
-        assertThatThrownBy(s::parse).isInstanceOf(RulesException.class)
-                .hasMessageStartingWith(rules + ": profile '").hasMessageContaining("'stack'")
-                .hasMessageContaining("use inspect");
+        Shipment.Judge judge = new Shipment(Files.readString(rules), rules.toString()).parse();
+        assertThat(judge.hasStacks()).isTrue();
+        assertThat(judge.iron()).isNull();
     }
 
     @Test
-    void theIronSectionIsNamedAsLeftOut() throws Exception {
+    void theIronSectionIsShippedWithTheRulesAndABadOneRefusedNamingItsField() throws Exception {
         Path rules = DEMO.resolve("rules-example.json");
-        Shipment s = new Shipment(Files.readString(rules), rules.toString());
-        assertThat(s.parse().rules().allProfiles()).isNotEmpty();
-        assertThat(s.leftOut()).singleElement().asString().startsWith(rules + ": the 'iron' section is left out");
-        Path plain = Files.writeString(dir.resolve("plain.json"), Files.readString(rules)
+        String text = Files.readString(rules);
+        Shipment.Judge judge = new Shipment(text, rules.toString()).parse();
+        assertThat(judge.hasStacks()).isFalse();
+        assertThat(judge.iron().febState()).isEqualTo("*-feb-state.*");
+        assertThat(judge.iron().feiNameFor("LOT-A03-W02-feb-state.tif")).contains("LOT-A03-W02-fe-i-state.tif");
+        String bad = text.replace("\"fei_state\": \"*-fe-i-state.*\"", "\"fei_state\": 7");
+        assertThat(bad).isNotEqualTo(text);
+        assertThatThrownBy(new Shipment(bad, rules.toString())::parse).isInstanceOf(RulesException.class)
+                .hasMessageStartingWith(rules + ": ").hasMessageContaining("iron.fei_state");
+        Path plain = Files.writeString(dir.resolve("plain.json"), text
                 .replaceAll("(?s),\\s*\"iron\":\\s*\\{.*?\\}\\}\\}", ""));
-        assertThat(new Shipment(Files.readString(plain), plain.toString()).parse().rules().allProfiles()).isNotEmpty();
-        assertThat(new Shipment(Files.readString(plain), plain.toString()).leftOut()).isEmpty();
+        assertThat(new Shipment(Files.readString(plain), plain.toString()).parse().iron()).isNull();
     }
 }

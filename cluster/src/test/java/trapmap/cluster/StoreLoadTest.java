@@ -14,6 +14,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Set;
 import java.util.stream.Stream;
+import org.apache.spark.sql.Row;
 import org.apache.spark.sql.SparkSession;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -111,5 +112,51 @@ class StoreLoadTest {
         }
         assertThat(rows(loaded, "wafers")).hasSize(18);
         assertThat(rows(loaded, "wafers")).allMatch(r -> r.contains("lot=L000") && r.contains("measured_at=2026-10-0"));
+    }
+
+    @Test
+    void aWaferFailedByItsIronPairIsStoredWithItsOwnVerdictAsInspectStoresIt() throws Exception {
+        Path demo = Path.of("..", "demo-data").toAbsolutePath().normalize();
+        Path maps = Files.createDirectories(dir.resolve("pair"));
+        for (String f : List.of("LOT-A03-W02-feb-state", "LOT-A01-W01")) { // the Fe_i-state partner left out
+            Files.copy(demo.resolve(f + ".tif"), maps.resolve(f + ".tif"));
+            Files.copy(demo.resolve(f + ".json"), maps.resolve(f + ".json"));
+        }
+        Path rulesFile = demo.resolve("rules-example.json");
+        String text = Files.readString(rulesFile);
+        Rules rules = Rules.parse(text, rulesFile.toString());
+        List<Path> files = List.of(maps.resolve("LOT-A01-W01.tif"), maps.resolve("LOT-A03-W02-feb-state.tif"));
+        Path inspected = dir.resolve("inspect.db");
+        try (ResultsStore store = ResultsStore.open(inspected.toString())) {
+            String run = store.startRun(RunInfo.of(RunManifest.Source.of(trapmap.shared.Version.LINE, rulesFile,
+                    text), rules.physics(), Instant.now()));
+            try (StoreWriter w = new StoreWriter(store, run, LotPattern.parse(text, rulesFile.toString())
+                    .orElse(null), null)) {
+                new BatchInspection(rules).withIron(trapmap.maps.batch.IronPairRules.parse(text,
+                        rulesFile.toString()).orElseThrow()).tellingWafers(w).run(files, dir.resolve("report"),
+                        new BatchInspection.Options(1, false, false, ProgressListener.NONE));
+            }
+        }
+        Path loaded = dir.resolve("loaded.db");
+        SparkSession spark = LocalSpark.start();
+        try {
+            String output = dir.resolve("archive").toString();
+            ArchiveJob.run(spark, new ArchiveJob.Request(List.of(maps.toString()), rulesFile.toString(), output,
+                    PartitionKey.DAY, false));
+            Row feb = spark.read().parquet(output + "/" + ArchiveJob.RESULTS)
+                    .where("file like '%feb-state.tif'").first();
+            // the results row has its missing pair merged (the iron rule failed), the map's own verdict has not
+            assertThat((String) feb.getAs("status")).isEqualTo("fail");
+            assertThat(feb.<String>getList(feb.fieldIndex("failed_rules"))).contains("iron");
+            Row own = feb.getStruct(feb.fieldIndex(WaferRows.MAP_VERDICT));
+            assertThat(own.<String>getList(own.fieldIndex("failed_rules"))).doesNotContain("iron");
+            assertThat(StoreLoad.load(spark, output, rulesFile.toString(), loaded.toString())).isEqualTo(2);
+        } finally {
+            spark.stop();
+        }
+        for (String table : List.of("wafers", "wafer_figures", "wafer_failed_rules", "wafer_attributes")) {
+            assertThat(rows(loaded, table)).as(table).isEqualTo(rows(inspected, table));
+        }
+        assertThat(rows(loaded, "wafers")).hasSize(2);
     }
 }
