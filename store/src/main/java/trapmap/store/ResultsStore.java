@@ -542,14 +542,8 @@ public final class ResultsStore implements AutoCloseable {
                         if (rs.wasNull()) {
                             value = Double.NaN;
                         }
-                        String group = switch (g) {
-                            case "none" -> ALL;
-                            case "lot" -> lot;
-                            case "day" -> LocalDate.ofInstant(time, ZoneOffset.UTC).toString();
-                            case "week" -> isoWeek(LocalDate.ofInstant(time, ZoneOffset.UTC));
-                            default -> rs.getString(10);
-                        };
-                        points.add(new StoredPoint(time, isMeasured, group == null ? NO_GROUP : group, value,
+                        String group = groupOf(g, time, lot, byAttribute ? rs.getString(10) : null);
+                        points.add(new StoredPoint(time, isMeasured, group, value,
                                 "pass".equals(verdict), verdict, failed.getOrDefault(key, List.of()), rs.getString(6),
                                 lot, rs.getString(7), rs.getString(8), rs.getString(11)));
                     }
@@ -667,15 +661,8 @@ public final class ResultsStore implements AutoCloseable {
                         }
                         Footprint f = new Footprint(rs.getString(8), rs.getDouble(9), minI, minJ, width, height,
                                 BitSet.valueOf(b64.decode(rs.getString(14))), flagged);
-                        String group = switch (g) {
-                            case "none" -> ALL;
-                            case "lot" -> lot;
-                            case "day" -> LocalDate.ofInstant(time, ZoneOffset.UTC).toString();
-                            case "week" -> isoWeek(LocalDate.ofInstant(time, ZoneOffset.UTC));
-                            default -> rs.getString(15);
-                        };
                         out.add(new StoredFootprint(rs.getString(5), lot, time, isMeasured, rs.getString(6),
-                                rs.getString(7), group == null ? NO_GROUP : group, f));
+                                rs.getString(7), groupOf(g, time, lot, byAttribute ? rs.getString(15) : null), f));
                     }
                 }
             }
@@ -683,6 +670,21 @@ public final class ResultsStore implements AutoCloseable {
         } catch (SQLException | IllegalArgumentException e) {
             throw new StoreException("store " + name + ": the footprints could not be read: " + oneLine(e), e);
         }
+    }
+
+    /**
+     * A wafer's group for the grouping {@code g} (see {@link #points}): {@value #ALL}, its lot, its UTC day, its ISO
+     * week or {@code fact} (the value of the sidecar fact grouped by); {@value #NO_GROUP} when it has none.
+     */
+    private static String groupOf(String g, Instant time, String lot, String fact) {
+        String group = switch (g) {
+            case "none" -> ALL;
+            case "lot" -> lot;
+            case "day" -> LocalDate.ofInstant(time, ZoneOffset.UTC).toString();
+            case "week" -> isoWeek(LocalDate.ofInstant(time, ZoneOffset.UTC));
+            default -> fact;
+        };
+        return group == null ? NO_GROUP : group;
     }
 
     /** ISO-8601 week of {@code d}, e.g. {@code 2026-W45} (its week-based year). */
