@@ -1,10 +1,16 @@
 package trapmap.store;
 
+import java.time.Duration;
 import java.time.Instant;
+import java.time.LocalDate;
+import java.time.ZoneOffset;
+import java.time.format.DateTimeParseException;
+import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Objects;
+import trapmap.shared.error.InvalidValueException;
 
 /**
  * Which stored wafers a query takes. A wafer's time is its measured time (the sidecar's {@code measured_at}) where it
@@ -32,6 +38,78 @@ public record StoreFilter(Instant since, Instant until, String profile, List<Str
         if (since != null && until != null && !since.isBefore(until)) {
             throw new IllegalArgumentException("since (" + since + ") must be before until (" + until + ")");
         }
+    }
+
+    /**
+     * The filter of a query as a user types it, the one reading of {@code trapmap trend --since/--until/--profile/--lot
+     * /--where} and of the viewer's history window. {@code since} and {@code until} are a UTC date ({@code 2026-11-02})
+     * or time ({@code 2026-11-02T08:00:00Z}); an {@code until} date takes that whole day; {@code where} holds
+     * {@code NAME=VALUE} facts that must all hold. Blank texts, lots and profile mean no bound.
+     *
+     * @param prefix how the caller writes a field name before it in messages: {@code "--"} for the command line,
+     *               {@code ""} for the window
+     * @throws InvalidValueException one line naming the field ({@code since}, {@code until} or {@code where}): a date
+     *                               that is none, an until not after the since, a fact not {@code NAME=VALUE}, a fact
+     *                               named twice
+     */
+    public static StoreFilter parse(String since, String until, String profile, List<String> lots,
+                                    List<String> where, String prefix) {
+        String p = prefix == null ? "" : prefix;
+        Instant from = blank(since) ? null : time(p + "since", since);
+        Instant to = null;
+        if (!blank(until)) {
+            to = time(p + "until", until);
+            if (until.trim().length() == 10) {
+                to = to.plus(Duration.ofDays(1)); // a date: the whole day
+            }
+        }
+        if (from != null && to != null && !from.isBefore(to)) {
+            throw new InvalidValueException("until", "UTC date", p + "until " + until.trim() + " must be after " + p
+                    + "since " + since.trim());
+        }
+        List<String> lotList = new ArrayList<>();
+        for (String l : lots == null ? List.<String>of() : lots) {
+            if (!blank(l)) {
+                lotList.add(l.trim());
+            }
+        }
+        Map<String, String> facts = new LinkedHashMap<>();
+        for (String w : where == null ? List.<String>of() : where) {
+            int eq = w.indexOf('=');
+            if (eq <= 0 || w.substring(0, eq).isBlank()) {
+                throw new InvalidValueException("where", "", p + "where must be NAME=VALUE (e.g. furnace_tube=T2)"
+                        + " but was " + w.trim());
+            }
+            String name = w.substring(0, eq).trim();
+            if (facts.put(name, w.substring(eq + 1).trim()) != null) {
+                throw new InvalidValueException("where", "", p + "where names " + name + " twice; a wafer has one"
+                        + " value of each fact");
+            }
+        }
+        return new StoreFilter(from, to, blank(profile) ? null : profile.trim(), lotList, facts);
+    }
+
+    /**
+     * The start of a UTC date ({@code 2026-11-02}) or a UTC time ({@code 2026-11-02T08:00:00Z}).
+     *
+     * @param name the field as the caller writes it, for the message ({@code --since}, {@code baseline})
+     * @throws InvalidValueException (unit {@code UTC date}) naming {@code name} and the text when it is neither
+     */
+    public static Instant time(String name, String text) {
+        String t = text.trim();
+        try {
+            if (t.length() == 10) {
+                return LocalDate.parse(t).atStartOfDay(ZoneOffset.UTC).toInstant();
+            }
+            return Instant.parse(t);
+        } catch (DateTimeParseException e) {
+            throw new InvalidValueException(name.replaceFirst("^-+", ""), "UTC date", name + " must be a UTC date"
+                    + " (2026-11-02) or time (2026-11-02T08:00:00Z) but was " + t);
+        }
+    }
+
+    private static boolean blank(String s) {
+        return s == null || s.isBlank();
     }
 
     /** This filter with only wafers at or after {@code t}. */

@@ -1,12 +1,9 @@
 package trapmap.cli;
 
-import java.time.Duration;
-import java.time.Instant;
 import java.util.ArrayList;
-import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Map;
 import picocli.CommandLine.Option;
+import trapmap.shared.error.InvalidValueException;
 import trapmap.store.StoreFilter;
 
 /**
@@ -38,30 +35,12 @@ final class StoreQueryOptions {
                     + " hold.")
     List<String> where = new ArrayList<>();
 
-    /** The query of the options. */
+    /** The query of the options ({@link StoreFilter#parse}, the reading the history window shares). */
     StoreFilter filter() {
-        Instant from = since == null ? null : TrendCommand.time("--since", since);
-        Instant to = null;
-        if (until != null) {
-            to = TrendCommand.time("--until", until);
-            if (until.trim().length() == 10) {
-                to = to.plus(Duration.ofDays(1)); // a date: the whole day
-            }
+        try {
+            return StoreFilter.parse(since, until, profile, lots, where, "--");
+        } catch (InvalidValueException e) {
+            throw new InputException(e.getMessage(), e);
         }
-        if (from != null && to != null && !from.isBefore(to)) {
-            throw new InputException("--until " + until + " must be after --since " + since);
-        }
-        Map<String, String> facts = new LinkedHashMap<>();
-        for (String w : where) {
-            int eq = w.indexOf('=');
-            if (eq <= 0 || w.substring(0, eq).isBlank()) {
-                throw new InputException("--where must be NAME=VALUE (e.g. furnace_tube=T2) but was " + w);
-            }
-            String name = w.substring(0, eq).trim();
-            if (facts.put(name, w.substring(eq + 1).trim()) != null) {
-                throw new InputException("--where names " + name + " twice; a wafer has one value of each fact");
-            }
-        }
-        return new StoreFilter(from, to, profile, lots, facts);
     }
 }

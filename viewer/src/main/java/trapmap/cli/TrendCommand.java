@@ -4,9 +4,6 @@ import java.io.IOException;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.time.Instant;
-import java.time.LocalDate;
-import java.time.ZoneOffset;
-import java.time.format.DateTimeParseException;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -159,15 +156,10 @@ final class TrendCommand implements Callable<Integer> {
 
     /** A UTC date (its start) or an ISO-8601 instant. */
     static Instant time(String flag, String text) {
-        String t = text.trim();
         try {
-            if (t.length() == 10) {
-                return LocalDate.parse(t).atStartOfDay(ZoneOffset.UTC).toInstant();
-            }
-            return Instant.parse(t);
-        } catch (DateTimeParseException e) {
-            throw new InputException(flag + " must be a UTC date (2026-11-02) or time (2026-11-02T08:00:00Z) but was "
-                    + text);
+            return trapmap.store.StoreFilter.time(flag, text);
+        } catch (InvalidValueException e) {
+            throw new InputException(e.getMessage(), e);
         }
     }
 

@@ -3,9 +3,6 @@ package trapmap.viewer.model;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Instant;
-import java.time.LocalDate;
-import java.time.ZoneOffset;
-import java.time.format.DateTimeParseException;
 import java.util.ArrayList;
 import java.util.LinkedHashSet;
 import java.util.List;
@@ -18,6 +15,7 @@ import trapmap.maps.trend.Signal;
 import trapmap.maps.trend.TrendResult;
 import trapmap.shared.error.InvalidValueException;
 import trapmap.store.ResultsStore;
+import trapmap.store.StoreFilter;
 import trapmap.store.StoreTrend;
 import trapmap.store.StoredPoint;
 
@@ -111,14 +109,32 @@ public final class StoreHistory {
         if (untilText == null || untilText.isBlank()) {
             return Baseline.first(count);
         }
-        String t = untilText.trim();
-        try {
-            return Baseline.before(t.length() == 10 ? LocalDate.parse(t).atStartOfDay(ZoneOffset.UTC).toInstant()
-                    : Instant.parse(t));
-        } catch (DateTimeParseException e) {
-            throw new InvalidValueException("baseline", "UTC date", "baseline: '" + t + "' is not a UTC date"
-                    + " (2026-10-12) or time (2026-10-12T06:00:00Z)");
+        return Baseline.before(StoreFilter.time("baseline", untilText));
+    }
+
+    /**
+     * The wafers to chart, from the window's compact fields, read by {@link StoreFilter#parse} as {@code trapmap trend
+     * --since/--until/--profile/--lot/--where} reads its options (the same rules and messages, without the dashes):
+     * {@code since} and {@code until} a UTC date or time (an until date takes that whole day), {@code lots} separated
+     * by commas, {@code facts} {@code NAME=VALUE} separated by commas, all of which must hold. Blank fields take all.
+     *
+     * @throws InvalidValueException (field {@code since}, {@code until} or {@code where}) in one line naming the field
+     */
+    public static StoreFilter filter(String since, String until, String profile, String lots, String facts) {
+        return StoreFilter.parse(since, until, profile, split(lots), split(facts), "");
+    }
+
+    /** The non-blank parts of {@code text} between commas, trimmed. */
+    static List<String> split(String text) {
+        List<String> out = new ArrayList<>();
+        if (text != null) {
+            for (String part : text.split(",")) {
+                if (!part.isBlank()) {
+                    out.add(part.trim());
+                }
+            }
         }
+        return out;
     }
 
     /**

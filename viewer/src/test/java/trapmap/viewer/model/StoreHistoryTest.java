@@ -18,6 +18,7 @@ import trapmap.shared.error.InvalidValueException;
 import trapmap.store.ResultsStore;
 import trapmap.store.RunInfo;
 import trapmap.store.StoreException;
+import trapmap.store.StoreFilter;
 import trapmap.store.StoreTrend;
 import trapmap.store.StoredPoint;
 import trapmap.store.WaferRecord;
@@ -92,8 +93,60 @@ class StoreHistoryTest {
         assertThat(StoreHistory.baseline(12, " 2026-10-12T06:30:00Z "))
                 .isEqualTo(Baseline.before(Instant.parse("2026-10-12T06:30:00Z")));
         assertThatThrownBy(() -> StoreHistory.baseline(12, "12.10.2026")).isInstanceOf(InvalidValueException.class)
-                .hasMessageContaining("'12.10.2026' is not a UTC date");
+                .hasMessage("baseline must be a UTC date (2026-11-02) or time (2026-11-02T08:00:00Z) but was 12.10.2026");
         assertThatThrownBy(() -> StoreHistory.baseline(1, null)).isInstanceOf(IllegalArgumentException.class);
+    }
+
+    @Test
+    void theFilterFieldsReadDatesLotsAndFactsAsTheTrendCommandDoes() {
+        StoreFilter f = StoreHistory.filter(" 2026-10-05 ", "2026-10-06", " default ", "L1, L2,, ",
+                "boat_slot=1 , furnace_tube = T2");
+        assertThat(f.since()).isEqualTo(Instant.parse("2026-10-05T00:00:00Z"));
+        // an until date takes that whole UTC day: up to the start of the next one
+        assertThat(f.until()).isEqualTo(Instant.parse("2026-10-07T00:00:00Z"));
+        assertThat(f.profile()).isEqualTo("default");
+        assertThat(f.lots()).containsExactly("L1", "L2");
+        assertThat(f.attributes()).containsExactly(Map.entry("boat_slot", "1"), Map.entry("furnace_tube", "T2"));
+        // an until time is taken as it is
+        assertThat(StoreHistory.filter("", "2026-10-06T08:00:00Z", "", "", "").until())
+                .isEqualTo(Instant.parse("2026-10-06T08:00:00Z"));
+        assertThat(StoreHistory.filter(null, " ", "", " , ", "")).isEqualTo(StoreFilter.ALL);
+        // the window's messages are the command's without the dashes
+        assertThatThrownBy(() -> StoreHistory.filter("5.10.2026", "", "", "", ""))
+                .isInstanceOf(InvalidValueException.class)
+                .hasMessage("since must be a UTC date (2026-11-02) or time (2026-11-02T08:00:00Z) but was 5.10.2026")
+                .extracting(e -> ((InvalidValueException) e).field()).isEqualTo("since");
+        assertThatThrownBy(() -> StoreHistory.filter("2026-10-06", "2026-10-05", "", "", ""))
+                .hasMessage("until 2026-10-05 must be after since 2026-10-06");
+        assertThatThrownBy(() -> StoreHistory.filter("", "", "", "", "boat_slot=1, furnace_tube"))
+                .isInstanceOf(InvalidValueException.class)
+                .hasMessage("where must be NAME=VALUE (e.g. furnace_tube=T2) but was furnace_tube");
+        assertThatThrownBy(() -> StoreHistory.filter("", "", "", "", "=T2")).hasMessageContaining("but was =T2");
+        assertThatThrownBy(() -> StoreHistory.filter("", "", "", "", "boat_slot=1, boat_slot=2"))
+                .isInstanceOf(InvalidValueException.class)
+                .hasMessage("where names boat_slot twice; a wafer has one value of each fact");
+        // the command line reads the same text with its flags' names
+        assertThatThrownBy(() -> StoreFilter.parse(null, null, null, List.of(), List.of("slot"), "--"))
+                .hasMessage("--where must be NAME=VALUE (e.g. furnace_tube=T2) but was slot");
+    }
+
+    @Test
+    void theFilterChoosesTheWafersCharted() {
+        // 30 wafers an hour apart from 2026-10-05T06:00Z: 18 on that day, lots of three, slots 1..3 in turn
+        try (ResultsStore s = ResultsStore.open(store(30, 99).toString())) {
+            int all = wafers(s, StoreHistory.filter("", "", "", "", ""));
+            assertThat(all).isEqualTo(30);
+            assertThat(wafers(s, StoreHistory.filter("", "2026-10-05", "", "", ""))).isEqualTo(18);
+            assertThat(wafers(s, StoreHistory.filter("2026-10-06", "", "", "", ""))).isEqualTo(12);
+            assertThat(wafers(s, StoreHistory.filter("", "", "", "L1,L3", ""))).isEqualTo(6);
+            assertThat(wafers(s, StoreHistory.filter("", "", "", "", "boat_slot=1"))).isEqualTo(10);
+            assertThat(wafers(s, StoreHistory.filter("", "2026-10-05", "", "", "boat_slot=2"))).isEqualTo(6);
+        }
+    }
+
+    private static int wafers(ResultsStore s, StoreFilter f) {
+        return StoreTrend.analyse(s, new StoreTrend.Request("trap_density_p50_cm3", "lot", f, Baseline.first(3)))
+                .result().wafers();
     }
 
     @Test
