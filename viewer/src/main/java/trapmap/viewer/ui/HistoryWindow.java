@@ -59,6 +59,7 @@ import trapmap.maps.trend.TrendResult;
 import trapmap.shared.error.InvalidValueException;
 import trapmap.store.ResultsStore;
 import trapmap.store.StoreException;
+import trapmap.store.StoreFilter;
 import trapmap.store.StoreTrend;
 import trapmap.store.StoredPoint;
 import trapmap.viewer.graphics.Labels;
@@ -87,7 +88,13 @@ final class HistoryWindow extends JFrame {
     private final JSpinner count = new JSpinner(new SpinnerNumberModel(Baseline.DEFAULT_COUNT, 2, 100_000, 1));
     private final JRadioButton before = new JRadioButton("measured before");
     private final JTextField until = new JTextField(10);
+    private final JTextField sinceField = new JTextField(9);
+    private final JTextField untilField = new JTextField(9);
+    private final JTextField profileField = new JTextField(8);
+    private final JTextField lotsField = new JTextField(12);
+    private final JTextField factsField = new JTextField(16);
     private final JButton chartButton = new JButton("Chart");
+    private final JButton cancel = new JButton("Cancel");
     private final JButton export = new JButton("Export PNG…");
     private final JProgressBar progress = new JProgressBar();
     private final JLabel status = new JLabel(" ");
@@ -115,6 +122,7 @@ final class HistoryWindow extends JFrame {
     private StoreHistory.MapFile lastOpened;
     private int opening;
     private int charting;
+    private SwingWorker<StoreTrend.Outcome, Void> chartWorker;
     private int running;
     private boolean filling;
 
@@ -167,6 +175,20 @@ final class HistoryWindow extends JFrame {
             before.setSelected(true);
             chartIfReady();
         });
+        query(sinceField, "historySince", "Only wafers measured at or after this UTC date (2026-11-02) or time"
+                + " (2026-11-02T08:00:00Z), as 'trapmap trend --since'; Enter charts");
+        query(untilField, "historyUntil", "Only wafers measured on or before this UTC date (the whole day), or"
+                + " before this time, as 'trapmap trend --until'; Enter charts");
+        query(profileField, "historyProfile", "Only wafers judged by this rules profile, as 'trapmap trend"
+                + " --profile'; Enter charts");
+        query(lotsField, "historyLots", "Only wafers of these lots, separated by commas (L1, L2), as 'trapmap trend"
+                + " --lot'; Enter charts");
+        query(factsField, "historyFacts", "Only wafers whose sidecar facts have these values, NAME=VALUE separated"
+                + " by commas (furnace_tube=T2, boat_slot=4); all must hold, as 'trapmap trend --where'; Enter charts");
+        cancel.setName("historyCancel");
+        cancel.setToolTipText("Stop waiting for the chart being read; the charts shown stay");
+        cancel.addActionListener(e -> cancelChart());
+        cancel.setVisible(false);
         chartButton.setName("historyChart");
         chartButton.addActionListener(e -> chart());
         export.setName("historyExport");
@@ -186,6 +208,7 @@ final class HistoryWindow extends JFrame {
         storeRow.add(choose);
         storeRow.add(open);
         storeRow.add(progress);
+        storeRow.add(cancel);
         storeRow.add(status);
         JPanel queryRow = new JPanel(new FlowLayout(FlowLayout.LEFT, 6, 2));
         queryRow.add(new JLabel("Figure"));
@@ -200,9 +223,21 @@ final class HistoryWindow extends JFrame {
         queryRow.add(until);
         queryRow.add(chartButton);
         queryRow.add(export);
-        JPanel top = new JPanel(new GridLayout(2, 1));
+        JPanel filterRow = new JPanel(new FlowLayout(FlowLayout.LEFT, 6, 2));
+        filterRow.add(new JLabel("Wafers: since"));
+        filterRow.add(sinceField);
+        filterRow.add(new JLabel("until"));
+        filterRow.add(untilField);
+        filterRow.add(new JLabel("  profile"));
+        filterRow.add(profileField);
+        filterRow.add(new JLabel("  lots"));
+        filterRow.add(lotsField);
+        filterRow.add(new JLabel("  facts"));
+        filterRow.add(factsField);
+        JPanel top = new JPanel(new GridLayout(3, 1));
         top.add(storeRow);
         top.add(queryRow);
+        top.add(filterRow);
         top.setBorder(BorderFactory.createEmptyBorder(4, 4, 2, 4));
 
         JScrollPane chartScroll = new JScrollPane(stack);
@@ -256,7 +291,8 @@ final class HistoryWindow extends JFrame {
                 JComponent.WHEN_IN_FOCUSED_WINDOW);
         // the menu's Ctrl+H pressed here again brings this window forward; in a text field it is not a backspace
         KeyStroke again = KeyStroke.getKeyStroke(java.awt.event.KeyEvent.VK_H, WindowMenus.MENU);
-        for (JTextField f : new JTextField[] {storeField, until}) {
+        for (JTextField f : new JTextField[] {storeField, until, sinceField, untilField, profileField, lotsField,
+                factsField}) {
             f.getInputMap(JComponent.WHEN_FOCUSED).put(again, "none");
         }
         getRootPane().registerKeyboardAction(e -> toFront(), again, JComponent.WHEN_IN_FOCUSED_WINDOW);
@@ -277,6 +313,12 @@ final class HistoryWindow extends JFrame {
         pack();
         setLocationRelativeTo(owner);
         showStatus("choose a results store: a SQLite file (drop it here) or postgresql://host/database", false);
+    }
+
+    private void query(JTextField f, String name, String tip) {
+        f.setName(name);
+        f.setToolTipText(tip);
+        f.addActionListener(e -> chartIfReady());
     }
 
     private static JPanel titled(String title, JComponent body) {
@@ -422,16 +464,28 @@ final class HistoryWindow extends JFrame {
         try {
             Baseline b = StoreHistory.baseline((Integer) count.getValue(), before.isSelected() ? until.getText()
                     : null);
-            request = new StoreTrend.Request((String) figure.getSelectedItem(), (String) by.getSelectedItem(), null,
-                    null, b);
+            StoreFilter f = StoreHistory.filter(sinceField.getText(), untilField.getText(), profileField.getText(),
+                    lotsField.getText(), factsField.getText());
+            request = new StoreTrend.Request((String) figure.getSelectedItem(), (String) by.getSelectedItem(), f, b);
         } catch (InvalidValueException e) {
             showStatus(e.getMessage(), true);
+            JTextField bad = switch (e.field()) {
+                case "since" -> sinceField;
+                case "until" -> untilField;
+                case "where" -> factsField;
+                default -> until;
+            };
+            bad.requestFocusInWindow();
             return;
         }
         ResultsStore s = store;
         int g = ++charting;
+        if (chartWorker != null) {
+            chartWorker.cancel(false); // replaced by this request (not interrupted: the store stays usable)
+        }
         busy(true, "reading " + request.figure() + " by " + request.by() + " …");
-        new SwingWorker<StoreTrend.Outcome, Void>() {
+        cancel.setVisible(true);
+        chartWorker = new SwingWorker<StoreTrend.Outcome, Void>() {
             @Override
             protected StoreTrend.Outcome doInBackground() {
                 return StoreTrend.analyse(s, request);
@@ -441,8 +495,10 @@ final class HistoryWindow extends JFrame {
             protected void done() {
                 busy(false, null);
                 if (g != charting) {
-                    return; // a newer request (or another store) replaces this one
+                    return; // a newer request (or another store), or Cancel, replaces this one
                 }
+                chartWorker = null;
+                cancel.setVisible(false);
                 try {
                     show(get());
                 } catch (InterruptedException | ExecutionException e) {
@@ -450,7 +506,22 @@ final class HistoryWindow extends JFrame {
                     failed("no chart", e);
                 }
             }
-        }.execute();
+        };
+        chartWorker.execute();
+    }
+
+    /** Stops waiting for the chart being read: its answer is dropped, the charts shown stay. */
+    void cancelChart() {
+        if (chartWorker == null) {
+            return;
+        }
+        ++charting;
+        SwingWorker<StoreTrend.Outcome, Void> w = chartWorker;
+        chartWorker = null;
+        cancel.setVisible(false);
+        w.cancel(false); // done() follows at once; the read ends in the background, its store untouched
+        showStatus("chart request cancelled" + (outcome == null ? "" : "; the charts shown are the last ones read"),
+                false);
     }
 
     private void show(StoreTrend.Outcome o) {
@@ -649,7 +720,8 @@ final class HistoryWindow extends JFrame {
     }
 
     private void setQueryEnabled(boolean on) {
-        for (JComponent c : new JComponent[] {figure, by, firstN, count, before, until, chartButton}) {
+        for (JComponent c : new JComponent[] {figure, by, firstN, count, before, until, sinceField, untilField,
+                profileField, lotsField, factsField, chartButton}) {
             c.setEnabled(on);
         }
     }

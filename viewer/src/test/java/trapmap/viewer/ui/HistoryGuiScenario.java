@@ -140,6 +140,43 @@ public final class HistoryGuiScenario {
                 return null;
             });
             System.out.println(GuiScenario.onEdt(() -> "GUI-EXPORT status=" + d.statusText()));
+
+            // a fact typed in the query fields: only those wafers are charted
+            int allWafers = GuiScenario.onEdt(() -> d.outcome().result().wafers());
+            GuiScenario.onEdt(() -> {
+                JTextField facts = (JTextField) GuiScenario.find(d.getContentPane(), "historyFacts");
+                facts.setText("furnace_tube=T2");
+                facts.postActionEvent();
+                return null;
+            });
+            GuiScenario.waitFor("the charts of tube T2", () -> d.idle() && d.outcome() != null
+                    && !d.outcome().request().filter().attributes().isEmpty() && painted(d, 0));
+            System.out.println(GuiScenario.onEdt(() -> "GUI-FILTER wafers=" + allWafers + "->"
+                    + d.outcome().result().wafers() + " charts=" + d.chartPanels().size() + " status="
+                    + d.statusText()));
+            // a fact that is no NAME=VALUE: the command's message, the charts shown stay
+            System.out.println(GuiScenario.onEdt(() -> {
+                JTextField facts = (JTextField) GuiScenario.find(d.getContentPane(), "historyFacts");
+                facts.setText("furnace_tube=T2, boat_slot");
+                facts.postActionEvent();
+                return "GUI-BADFILTER error=" + d.statusIsError() + " idle=" + d.idle() + " wafers="
+                        + d.outcome().result().wafers() + " status=" + d.statusText();
+            }));
+            // Cancel beside the progress bar drops a running request; the charts shown stay
+            System.out.println(GuiScenario.onEdt(() -> {
+                JTextField facts = (JTextField) GuiScenario.find(d.getContentPane(), "historyFacts");
+                facts.setText("");
+                d.chart();
+                java.awt.Component cancel = GuiScenario.find(d.getContentPane(), "historyCancel");
+                boolean shown = cancel.isVisible();
+                ((javax.swing.JButton) cancel).doClick();
+                return "GUI-CANCELCHART shown=" + shown + " after=" + cancel.isVisible() + " status="
+                        + d.statusText();
+            }));
+            GuiScenario.waitFor("the request dropped", d::idle);
+            Thread.sleep(500);
+            System.out.println(GuiScenario.onEdt(() -> "GUI-AFTERCANCEL idle=" + d.idle() + " wafers="
+                    + d.outcome().result().wafers() + " filter=" + d.outcome().request().filter().describe()));
             System.out.flush();
             javax.swing.SwingUtilities.invokeAndWait(() -> {
                 d.dispose();

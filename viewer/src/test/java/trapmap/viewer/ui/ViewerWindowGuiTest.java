@@ -259,6 +259,13 @@ class ViewerWindowGuiTest {
         java.awt.image.BufferedImage img = javax.imageio.ImageIO.read(png.toFile());
         assertThat(img.getWidth()).isEqualTo(1000);
         assertThat(img.getHeight()).as("8 charts of 380 px, as trend -o .png draws them").isEqualTo(8 * 380);
+        // facts furnace_tube=T2 typed: lots L2 and L4 only, one chart pair (of T2) less
+        assertThat(out).contains("GUI-FILTER wafers=12->6 charts=6 status=6 wafers;");
+        assertThat(out).contains("GUI-BADFILTER error=true idle=true wafers=6 status=where must be NAME=VALUE"
+                + " (e.g. furnace_tube=T2) but was boat_slot");
+        assertThat(out).contains("GUI-CANCELCHART shown=true after=false status=chart request cancelled; the charts"
+                + " shown are the last ones read");
+        assertThat(out).contains("GUI-AFTERCANCEL idle=true wafers=6 filter=furnace_tube=T2");
     }
 
     private static Path onPath(String name) {
