@@ -154,6 +154,8 @@ final class HistoryWindow extends JFrame {
         baseline.add(firstN);
         baseline.add(before);
         count.setName("historyBaselineCount");
+        // as wide as a count of wafers needs, not as its largest allowed value
+        ((JSpinner.DefaultEditor) count.getEditor()).getTextField().setColumns(4);
         count.setToolTipText("The baseline: the first n wafers with a measured time and a value");
         until.setName("historyBaselineUntil");
         until.setToolTipText("The baseline: the wafers measured before this UTC date (2026-10-12) or time"
@@ -224,7 +226,7 @@ final class HistoryWindow extends JFrame {
         queryRow.add(chartButton);
         queryRow.add(export);
         JPanel filterRow = new JPanel(new FlowLayout(FlowLayout.LEFT, 6, 2));
-        filterRow.add(new JLabel("Wafers: since"));
+        filterRow.add(new JLabel("Wafers measured since"));
         filterRow.add(sinceField);
         filterRow.add(new JLabel("until"));
         filterRow.add(untilField);
@@ -261,7 +263,7 @@ final class HistoryWindow extends JFrame {
                 }
             }
         });
-        int[] widths = {130, 110, 50, 240, 80, 65};
+        int[] widths = {130, 110, 50, 240, 95, 65};
         for (int c = 0; c < widths.length; c++) {
             signalTable.getColumnModel().getColumn(c).setPreferredWidth(widths[c]);
         }
