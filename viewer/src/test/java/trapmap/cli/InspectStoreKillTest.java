@@ -34,20 +34,30 @@ class InspectStoreKillTest {
     @TempDir
     Path dir;
 
+    /** The first {@code n} demonstration maps (by name). */
+    static List<Path> demoMaps(int n) throws java.io.IOException {
+        List<Path> maps;
+        try (Stream<Path> s = Files.list(DEMO)) {
+            maps = s.filter(p -> p.getFileName().toString().endsWith(".tif")).sorted().limit(n).toList();
+        }
+        assertThat(maps).hasSize(n);
+        return maps;
+    }
+
+    /** Copies the sidecar of {@code map}, when it has one, into {@code folder}. */
+    static void copySidecar(Path map, Path folder) throws java.io.IOException {
+        Path sidecar = map.resolveSibling(map.getFileName().toString().replace(".tif", ".json"));
+        if (Files.exists(sidecar)) {
+            Files.copy(sidecar, folder.resolve(sidecar.getFileName()));
+        }
+    }
+
     @Test
     void killedAndResumedRunsStoreWhatAnUninterruptedRunStores() throws Exception {
         Path in = Files.createDirectories(dir.resolve("in"));
-        List<Path> maps;
-        try (Stream<Path> s = Files.list(DEMO)) {
-            maps = s.filter(p -> p.getFileName().toString().endsWith(".tif")).sorted().limit(MAPS).toList();
-        }
-        assertThat(maps).hasSize(MAPS);
-        for (Path m : maps) {
+        for (Path m : demoMaps(MAPS)) {
             Files.copy(m, in.resolve(m.getFileName()));
-            Path sidecar = m.resolveSibling(m.getFileName().toString().replace(".tif", ".json"));
-            if (Files.exists(sidecar)) {
-                Files.copy(sidecar, in.resolve(sidecar.getFileName()));
-            }
+            copySidecar(m, in);
         }
         Path a = dir.resolve("a.db");
         Cli.Run ref = Cli.run(args(in, dir.resolve("a"), a).toArray(String[]::new));

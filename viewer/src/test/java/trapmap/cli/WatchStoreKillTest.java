@@ -15,7 +15,6 @@ import java.util.List;
 import java.util.Map;
 import java.util.Random;
 import java.util.concurrent.TimeUnit;
-import java.util.stream.Stream;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.batch.BatchInspection;
@@ -38,16 +37,8 @@ class WatchStoreKillTest {
     @Test
     void killedAndRestartedWatchesStoreWhatAnUninterruptedWatchStores() throws Exception {
         Path in = Files.createDirectories(dir.resolve("in"));
-        List<Path> maps;
-        try (Stream<Path> s = Files.list(DEMO)) {
-            maps = s.filter(p -> p.getFileName().toString().endsWith(".tif")).sorted().limit(MAPS).toList();
-        }
-        assertThat(maps).hasSize(MAPS);
-        for (Path m : maps) {
-            Path sidecar = m.resolveSibling(m.getFileName().toString().replace(".tif", ".json"));
-            if (Files.exists(sidecar)) {
-                Files.copy(sidecar, in.resolve(sidecar.getFileName()));
-            }
+        for (Path m : InspectStoreKillTest.demoMaps(MAPS)) {
+            InspectStoreKillTest.copySidecar(m, in); // the sidecar first: a map counts once it has one
             Files.copy(m, in.resolve(m.getFileName()));
             Files.write(in.resolve(m.getFileName() + ".done"), new byte[0]); // complete without settling
         }
