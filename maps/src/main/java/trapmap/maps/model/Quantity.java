@@ -60,6 +60,16 @@ public enum Quantity {
     }
 
     /**
+     * True for maps whose values are category codes rather than amounts (defect legend indices, identification and
+     * pixel statuses, region numbers): a mean, median or spread of them means nothing, and a zoomed-out picture
+     * shows each block's most common code rather than its mean, which would be another category or none. The one
+     * place that says which quantities these are.
+     */
+    public boolean categorical() {
+        return this == DEFECT_INDEX || this == IDENTIFICATION_STATUS || this == REGION_LABEL || this == STATUS;
+    }
+
+    /**
      * True for a share from 0 to 1 (a reduction 1 − after/before, a recurrence fraction, an exceedance probability): shown as a percentage on a
      * fixed 0–100 % scale ({@link #defaultRange()}) unless the user sets a range, so that maps of such shares compare
      * by colour.

@@ -6,11 +6,12 @@ import java.util.concurrent.atomic.AtomicBoolean;
 import java.util.stream.IntStream;
 
 /**
- * Samples of one raster at halving resolutions: level 0 is the raster itself, each pixel of level k ≥ 1 averages the
+ * Samples of one raster at halving resolutions: level 0 is the raster itself, each pixel of level k ≥ 1 reduces the
  * 2×2 block of level k − 1 below it, ignoring samples without data, so level k pixel (x, y) covers raster pixels
- * [x·2^k, (x+1)·2^k) × [y·2^k, (y+1)·2^k). How a block is averaged is the {@link Rule}. Levels are built in order,
- * rows in parallel, and added as they are built, so a reader on another thread sees a growing, never changing,
- * list; building is synchronised.
+ * [x·2^k, (x+1)·2^k) × [y·2^k, (y+1)·2^k). How a block is reduced is the {@link Rule}: a mean for maps of a
+ * quantity, the most common value for maps of category codes ({@link Rule#MOST_COMMON}), where a mean would be
+ * another category or none. Levels are built in order, rows in parallel, and added as they are built, so a reader
+ * on another thread sees a growing, never changing, list; building is synchronised.
  */
 public final class BlockMeanPyramid {
     /** How a coarser pixel is formed from its 2×2 block. */
@@ -26,7 +27,16 @@ public final class BlockMeanPyramid {
          * are finite; an odd last row or column is dropped, so level k + 1 is ⌊w/2⌋ × ⌊h/2⌋. For registration,
          * where a lone sample on the border of the data would add noise to a correlation.
          */
-        TWO_OF_FOUR(false, true, 2);
+        TWO_OF_FOUR(false, true, 2),
+        /**
+         * For maps of category codes: the value that occurs most often among the valid (non-NaN) raster samples of
+         * the whole 2^k × 2^k block, the lowest of them (in {@link Float#compare} order) when several occur equally
+         * often; NaN only when the block has no valid sample, as {@link #EXACT_MEAN}. Every value of every level is
+         * thus one of the raster's values. Blocks on an odd edge are smaller, so the sizes are those of
+         * {@link #EXACT_MEAN}. Built from per-pixel value counts of the level below ({@link BlockModes}), so it is
+         * only built by the pyramid, not by {@link #halve}.
+         */
+        MOST_COMMON(true, false, 1);
 
         private final boolean partialEdges;
         private final boolean finiteOnly;
@@ -56,11 +66,19 @@ public final class BlockMeanPyramid {
         }
     }
 
+    /**
+     * Forms the next coarser level from the last one built; one per pyramid, called with the levels in order (under
+     * the pyramid's lock), so it may keep what it needs of the last level (counts, value histograms).
+     */
+    interface Reducer {
+        Level next(Level fine);
+    }
+
     private final Rule rule;
     private final int levelCount;
     private volatile List<Level> levels;
-    /** {@link Rule#EXACT_MEAN}: valid raster samples behind each pixel of the last level (null: level 0, one each). */
-    private int[] counts;
+    /** Forms the next level; dropped (with what it keeps) once the pyramid is complete. */
+    private Reducer reducer;
 
     /**
      * A pyramid of {@code levelCount} levels (level 0 included) whose levels are built by {@link #build} or
@@ -73,10 +91,11 @@ public final class BlockMeanPyramid {
         this.rule = rule;
         this.levelCount = levelCount;
         this.levels = List.of(new Level(0, raster.width(), raster.height(), raster.samples()));
+        this.reducer = rule == Rule.MOST_COMMON ? new BlockModes() : new Means(rule);
     }
 
     /**
-     * The number of {@link Rule#EXACT_MEAN} levels of a {@code width}×{@code height} raster until the longer side
+     * The number of {@link Rule#EXACT_MEAN} (or {@link Rule#MOST_COMMON}) levels of a {@code width}×{@code height} raster until the longer side
      * is at most {@code topSide} pixels.
      */
     public static int levelsUntil(int width, int height, int topSide) {
@@ -126,14 +145,33 @@ public final class BlockMeanPyramid {
     }
 
     private void addNext() {
-        Level fine = levels.get(levels.size() - 1);
-        int[] coarseCounts = rule.weighted() ? new int[coarseSize(fine.width(), rule) * coarseSize(fine.height(), rule)]
-                : null;
-        Level next = halve(fine, rule, counts, coarseCounts);
-        counts = coarseCounts;
+        Level next = reducer.next(levels.get(levels.size() - 1));
         List<Level> grown = new ArrayList<>(levels);
         grown.add(next);
         levels = List.copyOf(grown);
+        if (complete()) {
+            reducer = null;
+        }
+    }
+
+    /** The mean rules: {@link #halve}, keeping the counts of valid raster samples where the rule weighs by them. */
+    private static final class Means implements Reducer {
+        private final Rule rule;
+        /** Valid raster samples behind each pixel of the last level (null: level 0, one each; or unweighted). */
+        private int[] counts;
+
+        Means(Rule rule) {
+            this.rule = rule;
+        }
+
+        @Override
+        public Level next(Level fine) {
+            int[] coarseCounts = rule.weighted()
+                    ? new int[coarseSize(fine.width(), rule) * coarseSize(fine.height(), rule)] : null;
+            Level next = halve(fine, rule, counts, coarseCounts);
+            counts = coarseCounts;
+            return next;
+        }
     }
 
     private static int coarseSize(int fine, Rule rule) {
@@ -147,8 +185,13 @@ public final class BlockMeanPyramid {
      *
      * @param counts    valid raster samples behind each fine pixel; null for level 0 or an unweighted rule (one each)
      * @param outCounts receives the counts of the coarse pixels (valid samples behind each); may be null
+     * @throws IllegalArgumentException for {@link Rule#MOST_COMMON}, which needs more than the level's samples
      */
     public static Level halve(Level fine, Rule rule, int[] counts, int[] outCounts) {
+        if (rule == Rule.MOST_COMMON) {
+            throw new IllegalArgumentException("the most common value of a block is built by the pyramid, not"
+                    + " from a level's samples alone");
+        }
         int fw = fine.width();
         int fh = fine.height();
         int w = coarseSize(fw, rule);
