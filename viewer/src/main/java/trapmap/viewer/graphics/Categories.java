@@ -29,7 +29,11 @@ public record Categories(List<Category> entries) {
     public static final int UNDECIDED_RGB = 0xB4B4B4;
     /** Pale grey: too few usable levels to rank. */
     public static final int TOO_FEW_RGB = 0xE6E6E6;
-    /** Colour of blocks that mix several categories when the canvas shows a zoomed-out mean (a light violet). */
+    /**
+     * Colour of a finite value between categories, e.g. the mean of a block mixing several (a light violet). The
+     * canvas shows a zoomed-out map of a categorical quantity by each block's most common code, so such a map never
+     * shows it.
+     */
     public static final int MIXED_RGB = 0xD8C8E8;
     /** How far from a whole number a value may lie and still be that category. */
     static final double TOLERANCE = 1e-3;

@@ -129,11 +129,11 @@ public final class HistogramChart {
 
     /**
      * True for maps whose values are categories (defect legend indices, identification and pixel statuses, region
-     * numbers): their mean, median, spread and percentiles mean nothing, so the table lists only counts and areas.
+     * numbers; {@link Quantity#categorical}): their mean, median, spread and percentiles mean nothing, so the table
+     * lists only counts and areas.
      */
     public static boolean categorical(Quantity q) {
-        return q == Quantity.DEFECT_INDEX || q == Quantity.IDENTIFICATION_STATUS || q == Quantity.REGION_LABEL
-                || q == Quantity.STATUS;
+        return q.categorical();
     }
 
     /**

@@ -9,6 +9,7 @@ import java.util.concurrent.CancellationException;
 import java.util.function.Function;
 import trapmap.maps.io.ReadOptions;
 import trapmap.maps.model.MeasurementConditions;
+import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.maps.raster.FloatRaster;
 import trapmap.maps.process.ConversionSettings;
@@ -57,19 +58,21 @@ public final class StackIdentification {
 
     /** A displayable map of the result. */
     public enum Layer {
-        BEST("best defect (legend index)", IdentificationResult::bestIndexMap),
-        RUNNER_UP("runner-up defect (legend index)", IdentificationResult::runnerUpIndexMap),
-        CHI_SQUARED("χ² of the best defect", IdentificationResult::chiSquaredMap),
-        CHI_SQUARED_RATIO("χ² ratio runner-up/best", IdentificationResult::chiSquaredRatioMap),
-        STATUS("identification status", IdentificationResult::statusMap),
-        DENSITY("N_t of the best defect (cm⁻³)", IdentificationResult::bestDensityMap),
-        REGIONS("regions", IdentificationResult::regionMap);
+        BEST("best defect (legend index)", Quantity.DEFECT_INDEX, IdentificationResult::bestIndexMap),
+        RUNNER_UP("runner-up defect (legend index)", Quantity.DEFECT_INDEX, IdentificationResult::runnerUpIndexMap),
+        CHI_SQUARED("χ² of the best defect", Quantity.CHI_SQUARED, IdentificationResult::chiSquaredMap),
+        CHI_SQUARED_RATIO("χ² ratio runner-up/best", Quantity.RATIO, IdentificationResult::chiSquaredRatioMap),
+        STATUS("identification status", Quantity.IDENTIFICATION_STATUS, IdentificationResult::statusMap),
+        DENSITY("N_t of the best defect (cm⁻³)", Quantity.TRAP_DENSITY, IdentificationResult::bestDensityMap),
+        REGIONS("regions", Quantity.REGION_LABEL, IdentificationResult::regionMap);
 
         private final String label;
+        private final Quantity quantity;
         private final Function<IdentificationResult, WaferMap> map;
 
-        Layer(String label, Function<IdentificationResult, WaferMap> map) {
+        Layer(String label, Quantity quantity, Function<IdentificationResult, WaferMap> map) {
             this.label = label;
+            this.quantity = quantity;
             this.map = map;
         }
 
@@ -83,9 +86,18 @@ public final class StackIdentification {
             return map.apply(r);
         }
 
-        /** True for the maps whose values are categories (legend indices, statuses, region numbers). */
+        /** The quantity of the layer's map. */
+        public Quantity quantity() {
+            return quantity;
+        }
+
+        /**
+         * True for the maps whose values are categories (legend indices, statuses, region numbers): as their
+         * quantity says ({@link Quantity#categorical}), which also makes the canvas show a zoomed-out block's most
+         * common value rather than its mean.
+         */
         public boolean categorical() {
-            return this == BEST || this == RUNNER_UP || this == STATUS || this == REGIONS;
+            return quantity.categorical();
         }
 
         @Override

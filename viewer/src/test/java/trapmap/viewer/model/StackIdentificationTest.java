@@ -248,6 +248,7 @@ class StackIdentificationTest {
                 .containsExactly(result.status());
         for (StackIdentification.Layer l : StackIdentification.Layer.values()) {
             assertThat(StackIdentification.categories(l, result) != null).as(l.name()).isEqualTo(l.categorical());
+            assertThat(l.of(result).quantity()).as(l.name()).isEqualTo(l.quantity());
         }
     }
 

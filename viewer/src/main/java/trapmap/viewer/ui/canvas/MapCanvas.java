@@ -56,8 +56,9 @@ import trapmap.viewer.graphics.DisplayStyle;
  * <p>Keys when focused: {@code +}/{@code -} zoom, {@code 0} fits, arrows pan, Escape cancels a line being drawn.
  * With the line tool on, the left button draws and the middle or right button pans.
  *
- * <p>Rendering: when a map is set, a pyramid of halving resolutions (mean of the valid samples of each 2×2 block)
- * is built on a background thread. A frame uses the coarsest level whose pixels are still no larger than a screen
+ * <p>Rendering: when a map is set, a pyramid of halving resolutions (mean of the valid samples of each 2×2 block;
+ * for a map of category codes the most common code of the block, {@link #pyramidRule}) is built on a background
+ * thread. A frame uses the coarsest level whose pixels are still no larger than a screen
  * pixel, colours only the 256² tiles of it that are visible, and keeps coloured tiles in a memory-bounded cache
  * that a style change empties. Above one screen pixel per map pixel every map pixel is a crisp square (nearest
  * neighbour), with a faint pixel grid from {@value #GRID_ZOOM} screen pixels per map pixel. Pixels without data are
@@ -165,7 +166,7 @@ public class MapCanvas extends JComponent {
             pyramid = null;
             pyramidDone = CompletableFuture.completedFuture(null);
         } else {
-            BlockMeanPyramid p = new BlockMeanPyramid(map.raster(), BlockMeanPyramid.Rule.EXACT_MEAN,
+            BlockMeanPyramid p = new BlockMeanPyramid(map.raster(), pyramidRule(map),
                     BlockMeanPyramid.levelsUntil(map.width(), map.height(), PYRAMID_TOP_SIDE));
             AtomicBoolean cancel = new AtomicBoolean();
             pyramid = p;
@@ -183,6 +184,20 @@ public class MapCanvas extends JComponent {
             setFlagged(flagged); // the outline follows the new map's size
         }
         repaint();
+    }
+
+    /**
+     * How the pyramid of {@code map} reduces a block: the most common value for a map of category codes (as its
+     * quantity says, {@link trapmap.maps.model.Quantity#categorical}), so that a zoomed-out block shows one of the
+     * categories under it; the mean of the valid samples otherwise.
+     */
+    static BlockMeanPyramid.Rule pyramidRule(WaferMap map) {
+        return map.quantity().categorical() ? BlockMeanPyramid.Rule.MOST_COMMON : BlockMeanPyramid.Rule.EXACT_MEAN;
+    }
+
+    /** The resolution pyramid of the map shown (null without a map), for tests. */
+    BlockMeanPyramid pyramid() {
+        return pyramid;
     }
 
     /** The colours and range in use, or null before the first {@link #setStyle}. */
