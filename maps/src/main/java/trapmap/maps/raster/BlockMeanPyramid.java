@@ -95,8 +95,8 @@ public final class BlockMeanPyramid {
     }
 
     /**
-     * The number of {@link Rule#EXACT_MEAN} (or {@link Rule#MOST_COMMON}) levels of a {@code width}×{@code height} raster until the longer side
-     * is at most {@code topSide} pixels.
+     * The number of {@link Rule#EXACT_MEAN} (or {@link Rule#MOST_COMMON}) levels of a {@code width}×{@code height}
+     * raster until the longer side is at most {@code topSide} pixels.
      */
     public static int levelsUntil(int width, int height, int topSide) {
         int n = 1;
