@@ -433,7 +433,7 @@ final class HistoryWindow extends JFrame {
     }
 
     private void closeStore() {
-        stopQuery(); // its close would wait for the read
+        dropChart(); // its read is of this store, whose close would wait for it
         if (store != null) {
             closeLater(store);
             store = null;
@@ -530,14 +530,20 @@ final class HistoryWindow extends JFrame {
         if (chartWorker == null) {
             return;
         }
-        ++charting;
-        SwingWorker<StoreTrend.Outcome, Void> w = chartWorker;
-        chartWorker = null;
-        cancel.setVisible(false);
-        stopQuery();
-        w.cancel(false); // done() follows at once; the read ends with the cancel
+        dropChart();
         showStatus("chart request cancelled" + (outcome == null ? "" : "; the charts shown are the last ones read"),
                 false);
+    }
+
+    /** Drops the chart request running, if any: its answer is not shown, its read is cancelled. */
+    private void dropChart() {
+        if (chartWorker != null) {
+            ++charting;
+            chartWorker.cancel(false); // done() follows at once; the read ends with the cancel
+            chartWorker = null;
+            cancel.setVisible(false);
+        }
+        stopQuery();
     }
 
     /**
