@@ -94,7 +94,9 @@ final class WatchCommand implements Callable<Integer> {
 
     @Option(names = "--alarm-file", paramLabel = "<FILE>", description = "File to which one line is appended for"
             + " each wafer that fails or cannot be inspected: time (UTC), wafer id, verdict, file, separated by"
-            + " tabs; for a control-chart signal: time, wafer id, signal, 'RULE GROUP FIGURE'.")
+            + " tabs; for a control-chart signal: time, wafer id, signal, 'RULE GROUP FIGURE'. Alarms are raised at least"
+            + " once: one a kill interrupted is raised again by the next start (recorded in DIR/.watch-alarms and"
+            + " .watch-signals).")
     Path alarmFile;
 
     @Option(names = "--exit-idle-s", paramLabel = "<s>", defaultValue = "0",
