@@ -509,7 +509,16 @@ public final class ResultsStore implements AutoCloseable {
      * The wafers' values of {@code figure} for a trend, as {@link #points(String, String, Instant, String)} gives
      * them, of the wafers {@code filter} takes (a period, a profile, lots, sidecar facts).
      */
-    public synchronized List<StoredPoint> points(String figure, String groupBy, StoreFilter filter) {
+    public List<StoredPoint> points(String figure, String groupBy, StoreFilter filter) {
+        return points(null, figure, groupBy, filter);
+    }
+
+    /**
+     * {@link #points(String, String, StoreFilter)} that another thread may stop through {@code query} (null: none):
+     * then the statement running is cancelled and this throws {@link StoreQuery.Cancelled}.
+     */
+    public synchronized List<StoredPoint> points(StoreQuery query, String figure, String groupBy,
+                                                 StoreFilter filter) {
         String g = groupBy == null ? "none" : groupBy.trim();
         boolean byAttribute = groupsByAttribute(g);
         List<Object> args = new ArrayList<>();
@@ -525,13 +534,20 @@ public final class ResultsStore implements AutoCloseable {
             all.add(g);
         }
         all.addAll(args);
+        String what = "store " + name + ": the points of " + figure;
         try {
-            Map<String, List<String>> failed = failedRules(where, args);
+            Map<String, List<String>> failed = failedRules(where, args, query, what);
             List<StoredPoint> points = new ArrayList<>();
             try (PreparedStatement p = connection.prepareStatement(sql)) {
                 bind(p, all);
+                if (query != null) {
+                    query.start(p, what);
+                }
                 try (ResultSet rs = p.executeQuery()) {
                     while (rs.next()) {
+                        if (query != null && (points.size() & 1023) == 0) {
+                            query.check(what);
+                        }
                         String key = rs.getString(1);
                         long measured = rs.getLong(2);
                         boolean isMeasured = !rs.wasNull();
@@ -548,9 +564,16 @@ public final class ResultsStore implements AutoCloseable {
                                 lot, rs.getString(7), rs.getString(8), rs.getString(11)));
                     }
                 }
+            } finally {
+                if (query != null) {
+                    query.end();
+                }
             }
             return points;
         } catch (SQLException e) {
+            if (query != null) {
+                query.check(what); // the cancel's own failure (SQLite: interrupted; PostgreSQL: canceling statement)
+            }
             throw new StoreException("store " + name + ": the points of " + figure + " could not be read: "
                     + oneLine(e), e);
         }
@@ -693,16 +716,24 @@ public final class ResultsStore implements AutoCloseable {
                 d.get(IsoFields.WEEK_OF_WEEK_BASED_YEAR));
     }
 
-    private Map<String, List<String>> failedRules(String where, List<Object> args) throws SQLException {
+    private Map<String, List<String>> failedRules(String where, List<Object> args, StoreQuery query, String what)
+            throws SQLException {
         Map<String, List<String>> m = new HashMap<>();
         try (PreparedStatement p = connection.prepareStatement("SELECT r.result_key, r.rule FROM wafer_failed_rules r"
                 + " WHERE r.result_key IN (SELECT w.result_key FROM wafers w" + where + ")"
                 + " ORDER BY r.result_key, r.position")) {
             bind(p, args);
+            if (query != null) {
+                query.start(p, what);
+            }
             try (ResultSet rs = p.executeQuery()) {
                 while (rs.next()) {
                     m.computeIfAbsent(rs.getString(1), k -> new ArrayList<>()).add(rs.getString(2));
                 }
+            }
+        } finally {
+            if (query != null) {
+                query.end();
             }
         }
         return m;

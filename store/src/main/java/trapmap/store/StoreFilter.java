@@ -1,5 +1,8 @@
 package trapmap.store;
 
+import java.io.IOException;
+import java.io.StringReader;
+import java.io.UncheckedIOException;
 import java.time.Duration;
 import java.time.Instant;
 import java.time.LocalDate;
@@ -10,6 +13,9 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Objects;
+import org.apache.commons.csv.CSVFormat;
+import org.apache.commons.csv.CSVParser;
+import org.apache.commons.csv.CSVRecord;
 import trapmap.shared.error.InvalidValueException;
 
 /**
@@ -44,13 +50,15 @@ public record StoreFilter(Instant since, Instant until, String profile, List<Str
      * The filter of a query as a user types it, the one reading of {@code trapmap trend --since/--until/--profile/--lot
      * /--where} and of the viewer's history window. {@code since} and {@code until} are a UTC date ({@code 2026-11-02})
      * or time ({@code 2026-11-02T08:00:00Z}); an {@code until} date takes that whole day; {@code where} holds
-     * {@code NAME=VALUE} facts that must all hold. Blank texts, lots and profile mean no bound.
+     * {@code NAME=VALUE} facts that must all hold. Each text of {@code lots} and {@code where} is a list
+     * ({@link #items}: separated by commas, an item holding a comma in double quotes). Blank texts, lots and profile
+     * mean no bound.
      *
      * @param prefix how the caller writes a field name before it in messages: {@code "--"} for the command line,
      *               {@code ""} for the window
-     * @throws InvalidValueException one line naming the field ({@code since}, {@code until} or {@code where}): a date
-     *                               that is none, an until not after the since, a fact not {@code NAME=VALUE}, a fact
-     *                               named twice
+     * @throws InvalidValueException one line naming the field ({@code since}, {@code until}, {@code lot} or
+     *                               {@code where}): a date that is none, an until not after the since, a quote not
+     *                               closed, a fact not {@code NAME=VALUE}, a fact named twice
      */
     public static StoreFilter parse(String since, String until, String profile, List<String> lots,
                                     List<String> where, String prefix) {
@@ -69,12 +77,14 @@ public record StoreFilter(Instant since, Instant until, String profile, List<Str
         }
         List<String> lotList = new ArrayList<>();
         for (String l : lots == null ? List.<String>of() : lots) {
-            if (!blank(l)) {
-                lotList.add(l.trim());
-            }
+            lotList.addAll(items(l, "lot", p));
+        }
+        List<String> whereItems = new ArrayList<>();
+        for (String w : where == null ? List.<String>of() : where) {
+            whereItems.addAll(items(w, "where", p));
         }
         Map<String, String> facts = new LinkedHashMap<>();
-        for (String w : where == null ? List.<String>of() : where) {
+        for (String w : whereItems) {
             int eq = w.indexOf('=');
             if (eq <= 0 || w.substring(0, eq).isBlank()) {
                 throw new InvalidValueException("where", "", p + "where must be NAME=VALUE (e.g. furnace_tube=T2)"
@@ -106,6 +116,42 @@ public record StoreFilter(Instant since, Instant until, String profile, List<Str
             throw new InvalidValueException(name.replaceFirst("^-+", ""), "UTC date", name + " must be a UTC date"
                     + " (2026-11-02) or time (2026-11-02T08:00:00Z) but was " + t);
         }
+    }
+
+    /** How a list is read: CSV (RFC 4180) without header, blanks around items and quotes ignored. */
+    private static final CSVFormat LIST = CSVFormat.DEFAULT.builder().setIgnoreSurroundingSpaces(true)
+            .setIgnoreEmptyLines(true).build();
+
+    /**
+     * The items of a list as the query's lot and fact fields are typed (the window's fields, each {@code --lot} and
+     * {@code --where} value of the commands): separated by commas, each trimmed, blank ones left out; an item that
+     * holds a comma or a double quote is written in double quotes, a double quote inside it doubled, as in a CSV file
+     * (RFC 4180): {@code L1, "A,1"} is the lots {@code L1} and {@code A,1}; {@code "furnace_tube=T2,new"} one fact.
+     * Text without quotes reads as before: split at its commas.
+     *
+     * @param field  the field's name for the message ({@code lot}, {@code where})
+     * @param prefix how the caller writes a field name ({@code "--"} or {@code ""})
+     * @throws InvalidValueException naming the field when a quote is not closed or text follows a closing quote
+     */
+    public static List<String> items(String text, String field, String prefix) {
+        List<String> out = new ArrayList<>();
+        if (blank(text)) {
+            return out;
+        }
+        try (CSVParser parser = LIST.parse(new StringReader(text))) {
+            for (CSVRecord r : parser) {
+                for (String item : r) {
+                    if (!item.isBlank()) {
+                        out.add(item.strip());
+                    }
+                }
+            }
+        } catch (IOException | UncheckedIOException | IllegalStateException e) {
+            throw new InvalidValueException(field, "", (prefix == null ? "" : prefix) + field + " has a quote that"
+                    + " does not close its item: write an item holding a comma in double quotes, a quote inside it"
+                    + " doubled (\"A,1\", L2), but was " + text.strip());
+        }
+        return out;
     }
 
     private static boolean blank(String s) {

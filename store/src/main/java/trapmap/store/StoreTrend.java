@@ -131,7 +131,18 @@ public final class StoreTrend {
      *                               gives the counts)
      */
     public static Outcome analyse(ResultsStore store, Request request) {
-        List<StoredPoint> stored = store.points(request.figure(), request.by(), request.filter());
+        return analyse(store, request, null);
+    }
+
+    /**
+     * {@link #analyse(ResultsStore, Request)} that another thread may stop through {@code query} (null: none): the
+     * store's read is cancelled, or the charting is not begun, and this throws {@link StoreQuery.Cancelled}.
+     */
+    public static Outcome analyse(ResultsStore store, Request request, StoreQuery query) {
+        List<StoredPoint> stored = store.points(query, request.figure(), request.by(), request.filter());
+        if (query != null) {
+            query.check("store " + store.name() + ": the trend of " + request.figure());
+        }
         if (stored.isEmpty()) {
             throw new InvalidValueException("store", "", store.name() + " holds no wafer"
                     + (request.filter().equals(StoreFilter.ALL) ? "" : " for " + request.filter().describe()));

@@ -27,12 +27,14 @@ final class StoreQueryOptions {
     @Option(names = "--profile", paramLabel = "<name>", description = "Only wafers judged by this rules profile.")
     String profile;
 
-    @Option(names = "--lot", paramLabel = "<lot>", description = "Only wafers of this lot; repeat for several.")
+    @Option(names = "--lot", paramLabel = "<lot>", description = "Only wafers of this lot; repeat for several, or"
+            + " separate them by commas (L1,L2); a lot holding a comma in double quotes ('\"A,1\"').")
     List<String> lots = new ArrayList<>();
 
     @Option(names = "--where", paramLabel = "<NAME=VALUE>",
-            description = "Only wafers whose sidecar fact NAME has this VALUE (e.g. furnace_tube=T2); repeat: all must"
-                    + " hold.")
+            description = "Only wafers whose sidecar fact NAME has this VALUE (e.g. furnace_tube=T2); repeat, or"
+                    + " separate them by commas: all must hold; one holding a comma in double quotes"
+                    + " ('\"recipe=B,2\"').")
     List<String> where = new ArrayList<>();
 
     /** The query of the options ({@link StoreFilter#parse}, the reading the history window shares). */

@@ -27,7 +27,7 @@ import trapmap.maps.batch.RunManifest;
 import trapmap.maps.batch.RunRefusedException;
 import trapmap.maps.watch.Alarm;
 import trapmap.maps.watch.FolderWatch;
-import trapmap.maps.watch.SignalLedger;
+import trapmap.maps.watch.AlarmLedger;
 import trapmap.maps.trend.TrendSettings;
 import trapmap.shared.error.InvalidValueException;
 import trapmap.shared.progress.ProgressListener;
@@ -94,7 +94,9 @@ final class WatchCommand implements Callable<Integer> {
 
     @Option(names = "--alarm-file", paramLabel = "<FILE>", description = "File to which one line is appended for"
             + " each wafer that fails or cannot be inspected: time (UTC), wafer id, verdict, file, separated by"
-            + " tabs; for a control-chart signal: time, wafer id, signal, 'RULE GROUP FIGURE'.")
+            + " tabs; for a control-chart signal: time, wafer id, signal, 'RULE GROUP FIGURE'. Alarms are raised at least"
+            + " once: one a kill interrupted is raised again by the next start (recorded in DIR/.watch-alarms and"
+            + " .watch-signals).")
     Path alarmFile;
 
     @Option(names = "--exit-idle-s", paramLabel = "<s>", defaultValue = "0",
@@ -168,15 +170,18 @@ final class WatchCommand implements Callable<Integer> {
         StoreWriter stored = storing;
         BatchReport.TrendSource trend = storeOutput == null ? null
                 : rowFiles -> storeOutput.summaryTrend(rules, rowFiles);
-        Alarm alarm = new Alarm(onFail, alarmFile, line -> {
+        java.util.function.Consumer<String> problems = line -> {
             synchronized (err) {
                 err.println("watch: " + line);
                 err.flush();
             }
-        });
+        };
+        Alarm alarm = new Alarm(onFail, alarmFile, problems);
+        // the failed wafers' alarm, recorded in the output folder so that a kill never loses one
+        FailAlarm failures = new FailAlarm(alarm, problems);
         // the signal alarm: with a store and the rules' trend block, the wafers stored since the last look
         SignalAlarm signals = storeOutput == null ? null
-                : rules.trend().map(t -> new SignalAlarm(storeOutput, t, alarm, o, err)).orElse(null);
+                : rules.trend().map(t -> new SignalAlarm(storeOutput, t, alarm, o, problems)).orElse(null);
         if (storeOutput == null && rules.trend().isPresent()) {
             err.println("watch: the rules' trend block needs --store: no signal alarm");
         }
@@ -211,12 +216,13 @@ final class WatchCommand implements Callable<Integer> {
                             o.flush();
                         }
                         if (!status.equals("pass")) {
-                            alarm.raise(now, waferId(row), status, row.getOrDefault("file", ""));
+                            failures.raise(now, row);
                         }
                     }
 
                     @Override
                     public void started(List<String> listed, java.util.Set<String> again) throws IOException {
+                        failures.start(out);
                         if (signals != null) {
                             signals.start(out, listed, again);
                         }
@@ -294,17 +300,18 @@ final class WatchCommand implements Callable<Integer> {
         private final TrendSettings settings;
         private final Alarm alarm;
         private final PrintWriter out;
-        private final PrintWriter err;
+        private final java.util.function.Consumer<String> tell;
         private final List<String> files = new ArrayList<>();
         private String waiting;
-        private SignalLedger ledger;
+        private AlarmLedger ledger;
 
-        SignalAlarm(StoreOutput store, TrendSettings settings, Alarm alarm, PrintWriter out, PrintWriter err) {
+        SignalAlarm(StoreOutput store, TrendSettings settings, Alarm alarm, PrintWriter out,
+                    java.util.function.Consumer<String> tell) {
             this.store = store;
             this.settings = settings;
             this.alarm = alarm;
             this.out = out;
-            this.err = err;
+            this.tell = tell;
         }
 
         /** A wafer handed to the store (on the batch's writing thread). */
@@ -313,26 +320,29 @@ final class WatchCommand implements Callable<Integer> {
         }
 
         /**
-         * The watch holds {@code out}: opens its ledger and looks at once at the stored wafers of {@code listed} that
-         * a killed watch stored but did not look at (those inspected {@code again} are looked at after their round).
+         * The watch holds {@code out}: opens its ledger, raises the signal alarms a killed watch recorded but had not
+         * finished raising, and looks at once at the stored wafers of {@code listed} that a killed watch stored but
+         * did not look at (those inspected {@code again} are looked at after their round).
          */
         void start(Path out, List<String> listed, java.util.Set<String> again) throws IOException {
-            SignalLedger l = SignalLedger.open(out, listed);
+            AlarmLedger l = AlarmLedger.open(out, AlarmLedger.SIGNALS, listed);
             List<String> pending = l.pending(listed).stream().filter(f -> !again.contains(f)).toList();
             synchronized (this) {
                 ledger = l;
                 files.addAll(pending);
             }
+            raiseAgain(alarm, l, "signal", tell);
             look();
         }
 
         /**
          * Waits for the wafers handed over so far to be stored, records them in the ledger as looked at (the ones
-         * not looked at before), then raises the signals they bring.
+         * not looked at before) together with the signal alarms they bring as pending, then raises those, each taken
+         * off the pending list once raised.
          */
         void look() {
             List<String> round;
-            SignalLedger l;
+            AlarmLedger l;
             synchronized (this) {
                 l = ledger;
                 round = l == null ? List.copyOf(files) : l.pending(files);
@@ -356,18 +366,23 @@ final class WatchCommand implements Callable<Integer> {
                     }
                     throw e;
                 }
+                Instant now = Instant.now().truncatedTo(ChronoUnit.SECONDS);
+                List<Alarm.Raising> alarms = raised.stream().map(r -> Alarm.Raising.signal(now, r.waferId(),
+                        r.ruleName(), r.group(), r.figure())).toList();
                 if (l != null) {
-                    l.add(round); // before raising: a kill now loses these alarms rather than doubling them
+                    // the wafers and their alarms in one write, the alarms pending until raised: a kill at any
+                    // moment leaves each alarm to be raised (again) by the next start, never lost
+                    l.add(round, alarm.active() ? alarms : List.of());
                 }
                 waiting = null;
-                for (StoreSignals.Raised r : raised) {
-                    Instant now = Instant.now().truncatedTo(ChronoUnit.SECONDS);
+                for (int i = 0; i < raised.size(); i++) {
+                    StoreSignals.Raised r = raised.get(i);
                     synchronized (out) {
                         out.println(now + " " + r.waferId() + " " + Alarm.SIGNAL + " " + r.ruleName() + " "
                                 + r.group() + " " + r.figure() + ": " + r.describe());
                         out.flush();
                     }
-                    alarm.signal(now, r.waferId(), r.ruleName(), r.group(), r.figure());
+                    raise(alarm, l, alarms.get(i), tell);
                 }
             } catch (InvalidValueException e) {
                 if (!e.getMessage().equals(waiting)) { // said once until it changes
@@ -378,7 +393,7 @@ final class WatchCommand implements Callable<Integer> {
                 tell("signal alarm: " + e.getMessage() + "; the wafers' signals are not raised (a new start looks"
                         + " at them again)");
             } catch (IOException e) {
-                tell("signal alarm: " + SignalLedger.FILE_NAME + " in --out could not be written: " + e
+                tell("signal alarm: " + AlarmLedger.SIGNALS + " in --out could not be written: " + e
                         + "; the wafers' signals are not raised");
             } catch (InterruptedException e) {
                 Thread.currentThread().interrupt();
@@ -386,10 +401,87 @@ final class WatchCommand implements Callable<Integer> {
         }
 
         private void tell(String line) {
-            synchronized (err) {
-                err.println("watch: " + line);
-                err.flush();
+            tell.accept(line);
+        }
+    }
+
+    /**
+     * The alarm of the wafers that do not pass, at least once each: a failed wafer's alarm is recorded as pending in
+     * {@link AlarmLedger#FAILURES} before it is raised and taken off once raised; a start raises the pending alarms
+     * of a killed watch, and those of the failed wafers its results table lists but the ledger does not (a kill
+     * between a wafer's row and its record).
+     */
+    private static final class FailAlarm {
+        private final Alarm alarm;
+        private final java.util.function.Consumer<String> tell;
+        private volatile AlarmLedger ledger;
+
+        FailAlarm(Alarm alarm, java.util.function.Consumer<String> tell) {
+            this.alarm = alarm;
+            this.tell = tell;
+        }
+
+        /** The watch holds {@code out}: opens the ledger (with an alarm to raise) and raises what a kill left. */
+        void start(Path out) throws IOException {
+            if (!alarm.active()) {
+                return;
             }
+            List<Map<String, String>> failed = BatchInspection.listedRows(out).stream()
+                    .filter(r -> !r.getOrDefault("status", "").equals("pass")).toList();
+            AlarmLedger l = AlarmLedger.open(out, AlarmLedger.FAILURES,
+                    failed.stream().map(r -> r.get("file")).toList());
+            ledger = l;
+            raiseAgain(alarm, l, "wafer", tell);
+            java.util.Set<String> unrecorded = java.util.Set.copyOf(l.pending(failed.stream()
+                    .map(r -> r.get("file")).toList()));
+            Instant now = Instant.now().truncatedTo(ChronoUnit.SECONDS);
+            for (Map<String, String> row : failed) {
+                if (unrecorded.contains(row.get("file"))) {
+                    raise(now, row);
+                }
+            }
+        }
+
+        /** Raises the alarm of a wafer that did not pass, recorded first. */
+        void raise(Instant now, Map<String, String> row) {
+            String file = row.getOrDefault("file", "");
+            Alarm.Raising a = Alarm.Raising.wafer(now, waferId(row), row.getOrDefault("status", ""), file);
+            AlarmLedger l = ledger;
+            if (l != null) {
+                try {
+                    l.add(List.of(file), List.of(a));
+                } catch (IOException e) {
+                    tell.accept(AlarmLedger.FAILURES + " in --out could not be written: " + e + "; the alarm of "
+                            + a.waferId() + " is raised but a kill before it ends would lose it");
+                }
+            }
+            WatchCommand.raise(alarm, l, a, tell);
+        }
+    }
+
+    /** Raises {@code a} and then takes it off the pending alarms of {@code l} (null: none). */
+    private static void raise(Alarm alarm, AlarmLedger l, Alarm.Raising a, java.util.function.Consumer<String> tell) {
+        alarm.raise(a, l == null ? null : () -> {
+            try {
+                l.raised(a);
+            } catch (IOException e) {
+                tell.accept("the record of the raised alarm of " + a.waferId() + " could not be written: " + e
+                        + "; a new start raises it again");
+            }
+        });
+    }
+
+    /** Raises the pending alarms of {@code l}: those a stopped or killed watch recorded but had not raised. */
+    private static void raiseAgain(Alarm alarm, AlarmLedger l, String kind,
+                                   java.util.function.Consumer<String> tell) {
+        List<Alarm.Raising> left = l.pendingAlarms();
+        if (left.isEmpty() || !alarm.active()) { // kept for a start with an alarm
+            return;
+        }
+        tell.accept("raising " + left.size() + " " + kind + " alarm" + (left.size() == 1 ? "" : "s")
+                + " that the last watch recorded but had not finished raising (it was stopped or killed)");
+        for (Alarm.Raising a : left) {
+            raise(alarm, l, a, tell);
         }
     }
 

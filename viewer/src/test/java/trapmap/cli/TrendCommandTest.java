@@ -99,6 +99,41 @@ class TrendCommandTest {
     }
 
     @Test
+    void aLotOrAFactHoldingACommaIsGivenInDoubleQuotesAsInTheHistoryWindow() {
+        Path commas = dir.resolve("commas.sqlite");
+        try (ResultsStore s = ResultsStore.open(commas.toString())) {
+            String run = s.startRun(new RunInfo(T0, "rules.json", "r".repeat(64), "{}", "s".repeat(64), "test"));
+            for (int i = 0; i < 12; i++) {
+                String lot = i < 4 ? "A,1" : i < 8 ? "A" : "1";
+                write(s, run, "C" + i, lot, T0.plus(Duration.ofHours(i)), i % 2 == 0 ? 1.0e11 : 1.2e11, true,
+                        i % 3 == 0 ? "T1,new" : "T2");
+            }
+        }
+        Path csv = dir.resolve("commas.csv");
+        // the lot A,1 quoted: its four wafers, none of lots A and 1
+        JsonNode quoted = trendJson(commas, csv, "--lot", "\"A,1\"");
+        assertThat(quoted.get("wafers").asInt()).isEqualTo(4);
+        assertThat(quoted.get("source").asText()).contains("lot A,1");
+        // unquoted, the commas separate lots, as the window's field reads them: lots A and 1
+        assertThat(trendJson(commas, csv, "--lot", "A,1").get("wafers").asInt()).isEqualTo(8);
+        // a fact value holding a comma: C0, C3, C6, C9
+        assertThat(trendJson(commas, csv, "--where", "\"furnace_tube=T1,new\"").get("wafers").asInt()).isEqualTo(4);
+        Cli.Run bad = Cli.run("trend", "--store", commas.toString(), "--figure", FIGURE, "--lot", "\"A,1", "-o",
+                csv.toString());
+        assertThat(bad.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(bad.err()).contains("--lot has a quote that does not close its item");
+    }
+
+    private static JsonNode trendJson(Path store, Path csv, String... query) {
+        List<String> args = new java.util.ArrayList<>(List.of("trend", "--store", store.toString(), "--figure",
+                FIGURE, "--baseline", "2", "-o", csv.toString(), "--json"));
+        args.addAll(List.of(query));
+        Cli.Run run = Cli.run(args.toArray(String[]::new));
+        assertThat(run.code()).as(run.err()).isIn(Exit.OK, Exit.TREND_SIGNALS);
+        return Cli.parse(run.out());
+    }
+
+    @Test
     void theQueryTakesAPeriodLotsAndFactsAsRecurrenceDoes() {
         // T2 wafers (the odd ones) of lots L1-L4 measured before 2026-11-02T16:00Z: W1, W3, ..., W15 = 8 wafers
         Path csv = dir.resolve("query.csv");

@@ -138,7 +138,7 @@ class WatchSignalAlarmHistoryTest {
         assertThat(Files.readString(alarms)).isEqualTo(before);
 
         // a wafer whose signal was raised, lost from the store afterwards: stored again, its signal not raised again
-        Path ledger = dir.resolve("report").resolve(trapmap.maps.watch.SignalLedger.FILE_NAME);
+        Path ledger = dir.resolve("report").resolve(trapmap.maps.watch.AlarmLedger.SIGNALS);
         int storedBefore = storedWafers(db);
         forget(db, ids.get(0));
         Cli.Run restored = Cli.run(args);

@@ -468,12 +468,18 @@ public final class BatchInspection {
      * later winning), in the table's order, as written in its {@code file} column; rows cut short are left out.
      */
     public static List<String> listedFiles(Path outDir) throws IOException {
+        List<Map<String, String>> rows = listedRows(outDir);
+        List<String> files = new ArrayList<>(rows.size());
+        rows.forEach(r -> files.add(r.get("file")));
+        return files;
+    }
+
+    /** The rows of the results table of {@code outDir} as {@link #listedFiles} takes them, in the table's order. */
+    public static List<Map<String, String>> listedRows(Path outDir) throws IOException {
         Map<String, Map<String, String>> rows = new LinkedHashMap<>();
         readRows(outDir.resolve(CSV_NAME), rows);
         readRows(outDir.resolve(PARTIAL_NAME), rows);
-        List<String> files = new ArrayList<>(rows.size());
-        rows.values().forEach(r -> files.add(r.get("file")));
-        return files;
+        return List.copyOf(rows.values());
     }
 
     /** Records the program version and the rules file in the run record ({@link RunManifest}). Returns this batch. */

@@ -50,9 +50,54 @@ public final class Alarm implements AutoCloseable {
         return program != null || file != null;
     }
 
+    /**
+     * One alarm to raise: the alarm file gets {@code TIME<TAB>WAFER_ID<TAB>ARGS[0]<TAB>LAST}, the program is run with
+     * {@code WAFER_ID ARGS...}.
+     *
+     * @param args the verdict ({@code fail}, {@code error}) or {@code signal RULE GROUP FIGURE}
+     * @param last the alarm file's last field: the map file, or {@code RULE GROUP FIGURE}
+     */
+    public record Raising(java.time.Instant time, String waferId, List<String> args, String last) {
+        public Raising {
+            args = List.copyOf(args);
+            if (args.isEmpty()) {
+                throw new IllegalArgumentException("an alarm needs its verdict");
+            }
+        }
+
+        /** The alarm of a wafer that did not pass ({@code verdict} {@code fail} or {@code error}). */
+        public static Raising wafer(java.time.Instant time, String waferId, String verdict, String mapFile) {
+            return new Raising(time, waferId, List.of(verdict), mapFile == null ? "" : mapFile);
+        }
+
+        /** The alarm of a control-chart signal ({@link Alarm#signal}). */
+        public static Raising signal(java.time.Instant time, String waferId, String rule, String group,
+                                     String figure) {
+            return new Raising(time, waferId, List.of(SIGNAL, rule, group, figure),
+                    String.join(" ", field(rule), field(group), field(figure)));
+        }
+    }
+
     /** Raises the alarm of one wafer (on the alarm thread; returns at once). */
     public void raise(java.time.Instant time, String waferId, String verdict, String mapFile) {
-        enqueue(time, waferId, List.of(verdict), mapFile);
+        raise(Raising.wafer(time, waferId, verdict, mapFile), null);
+    }
+
+    /**
+     * Raises {@code alarm} on the alarm thread (returns at once), then runs {@code raised} there (null: nothing):
+     * after the alarm file's line is appended and the program has ended, whether they succeeded or were told as a
+     * problem. Nothing is run when the alarm is not {@linkplain #active active}.
+     */
+    public void raise(Raising alarm, Runnable raised) {
+        if (!active()) {
+            return;
+        }
+        thread.execute(() -> {
+            deliver(alarm);
+            if (raised != null) {
+                raised.run();
+            }
+        });
     }
 
     /**
@@ -65,32 +110,27 @@ public final class Alarm implements AutoCloseable {
      * @param figure the figure charted
      */
     public void signal(java.time.Instant time, String waferId, String rule, String group, String figure) {
-        enqueue(time, waferId, List.of(SIGNAL, rule, group, figure),
-                String.join(" ", field(rule), field(group), field(figure)));
+        raise(Raising.signal(time, waferId, rule, group, figure), null);
     }
 
     /** The verdict word of a signal's alarm. */
     public static final String SIGNAL = "signal";
 
-    private void enqueue(java.time.Instant time, String waferId, List<String> args, String last) {
-        if (!active()) {
-            return;
+    private void deliver(Raising a) {
+        if (file != null) {
+            String line = String.join("\t", a.time().toString(), field(a.waferId()), field(a.args().get(0)),
+                    field(a.last())) + "\n";
+            try {
+                Files.write(file, line.getBytes(StandardCharsets.UTF_8), StandardOpenOption.CREATE,
+                        StandardOpenOption.APPEND, StandardOpenOption.WRITE);
+            } catch (IOException e) {
+                problems.accept("--alarm-file " + file + ": could not append the alarm of " + a.waferId() + ": "
+                        + e);
+            }
         }
-        thread.execute(() -> {
-            if (file != null) {
-                String line = String.join("\t", time.toString(), field(waferId), field(args.get(0)), field(last))
-                        + "\n";
-                try {
-                    Files.write(file, line.getBytes(StandardCharsets.UTF_8), StandardOpenOption.CREATE,
-                            StandardOpenOption.APPEND, StandardOpenOption.WRITE);
-                } catch (IOException e) {
-                    problems.accept("--alarm-file " + file + ": could not append the alarm of " + waferId + ": " + e);
-                }
-            }
-            if (program != null) {
-                run(waferId, args);
-            }
-        });
+        if (program != null) {
+            run(a.waferId(), a.args());
+        }
     }
 
     private void run(String waferId, List<String> args) {

@@ -116,25 +116,15 @@ public final class StoreHistory {
      * The wafers to chart, from the window's compact fields, read by {@link StoreFilter#parse} as {@code trapmap trend
      * --since/--until/--profile/--lot/--where} reads its options (the same rules and messages, without the dashes):
      * {@code since} and {@code until} a UTC date or time (an until date takes that whole day), {@code lots} separated
-     * by commas, {@code facts} {@code NAME=VALUE} separated by commas, all of which must hold. Blank fields take all.
+     * by commas, {@code facts} {@code NAME=VALUE} separated by commas, all of which must hold; an item holding a comma
+     * in double quotes ({@link StoreFilter#items}: {@code L1, "A,1"}). Blank fields take all.
      *
-     * @throws InvalidValueException (field {@code since}, {@code until} or {@code where}) in one line naming the field
+     * @throws InvalidValueException (field {@code since}, {@code until}, {@code lot} or {@code where}) in one line
+     *                               naming the field
      */
     public static StoreFilter filter(String since, String until, String profile, String lots, String facts) {
-        return StoreFilter.parse(since, until, profile, split(lots), split(facts), "");
-    }
-
-    /** The non-blank parts of {@code text} between commas, trimmed. */
-    static List<String> split(String text) {
-        List<String> out = new ArrayList<>();
-        if (text != null) {
-            for (String part : text.split(",")) {
-                if (!part.isBlank()) {
-                    out.add(part.trim());
-                }
-            }
-        }
-        return out;
+        return StoreFilter.parse(since, until, profile, lots == null ? List.of() : List.of(lots),
+                facts == null ? List.of() : List.of(facts), "");
     }
 
     /**

@@ -60,6 +60,7 @@ import trapmap.shared.error.InvalidValueException;
 import trapmap.store.ResultsStore;
 import trapmap.store.StoreException;
 import trapmap.store.StoreFilter;
+import trapmap.store.StoreQuery;
 import trapmap.store.StoreTrend;
 import trapmap.store.StoredPoint;
 import trapmap.viewer.graphics.Labels;
@@ -123,6 +124,8 @@ final class HistoryWindow extends JFrame {
     private int opening;
     private int charting;
     private SwingWorker<StoreTrend.Outcome, Void> chartWorker;
+    /** The store read of {@link #chartWorker}, stopped by Cancel, a newer request or another store. */
+    private StoreQuery chartQuery;
     private int running;
     private boolean filling;
 
@@ -183,10 +186,11 @@ final class HistoryWindow extends JFrame {
                 + " before this time, as 'trapmap trend --until'; Enter charts");
         query(profileField, "historyProfile", "Only wafers judged by this rules profile, as 'trapmap trend"
                 + " --profile'; Enter charts");
-        query(lotsField, "historyLots", "Only wafers of these lots, separated by commas (L1, L2), as 'trapmap trend"
-                + " --lot'; Enter charts");
+        query(lotsField, "historyLots", "Only wafers of these lots, separated by commas (L1, L2; a lot holding a"
+                + " comma in double quotes: \"A,1\"), as 'trapmap trend --lot'; Enter charts");
         query(factsField, "historyFacts", "Only wafers whose sidecar facts have these values, NAME=VALUE separated"
-                + " by commas (furnace_tube=T2, boat_slot=4); all must hold, as 'trapmap trend --where'; Enter charts");
+                + " by commas (furnace_tube=T2, boat_slot=4; one holding a comma in double quotes:"
+                + " \"recipe=B,2\"); all must hold, as 'trapmap trend --where'; Enter charts");
         cancel.setName("historyCancel");
         cancel.setToolTipText("Stop waiting for the chart being read; the charts shown stay");
         cancel.addActionListener(e -> cancelChart());
@@ -429,6 +433,7 @@ final class HistoryWindow extends JFrame {
     }
 
     private void closeStore() {
+        dropChart(); // its read is of this store, whose close would wait for it
         if (store != null) {
             closeLater(store);
             store = null;
@@ -474,6 +479,7 @@ final class HistoryWindow extends JFrame {
             JTextField bad = switch (e.field()) {
                 case "since" -> sinceField;
                 case "until" -> untilField;
+                case "lot" -> lotsField;
                 case "where" -> factsField;
                 default -> until;
             };
@@ -485,12 +491,15 @@ final class HistoryWindow extends JFrame {
         if (chartWorker != null) {
             chartWorker.cancel(false); // replaced by this request (not interrupted: the store stays usable)
         }
+        stopQuery(); // its read stops, so this one does not wait behind it for the store
+        StoreQuery q = new StoreQuery();
+        chartQuery = q;
         busy(true, "reading " + request.figure() + " by " + request.by() + " …");
         cancel.setVisible(true);
         chartWorker = new SwingWorker<StoreTrend.Outcome, Void>() {
             @Override
             protected StoreTrend.Outcome doInBackground() {
-                return StoreTrend.analyse(s, request);
+                return StoreTrend.analyse(s, request, q);
             }
 
             @Override
@@ -500,6 +509,7 @@ final class HistoryWindow extends JFrame {
                     return; // a newer request (or another store), or Cancel, replaces this one
                 }
                 chartWorker = null;
+                chartQuery = null;
                 cancel.setVisible(false);
                 try {
                     show(get());
@@ -512,18 +522,47 @@ final class HistoryWindow extends JFrame {
         chartWorker.execute();
     }
 
-    /** Stops waiting for the chart being read: its answer is dropped, the charts shown stay. */
+    /**
+     * Stops the chart being read: its store read is cancelled (the store only read, so nothing is left half done),
+     * its answer dropped, the charts shown stay, and a new request may follow at once.
+     */
     void cancelChart() {
         if (chartWorker == null) {
             return;
         }
-        ++charting;
-        SwingWorker<StoreTrend.Outcome, Void> w = chartWorker;
-        chartWorker = null;
-        cancel.setVisible(false);
-        w.cancel(false); // done() follows at once; the read ends in the background, its store untouched
+        dropChart();
         showStatus("chart request cancelled" + (outcome == null ? "" : "; the charts shown are the last ones read"),
                 false);
+    }
+
+    /** Drops the chart request running, if any: its answer is not shown, its read is cancelled. */
+    private void dropChart() {
+        if (chartWorker != null) {
+            ++charting;
+            chartWorker.cancel(false); // done() follows at once; the read ends with the cancel
+            chartWorker = null;
+            cancel.setVisible(false);
+        }
+        stopQuery();
+    }
+
+    /**
+     * Cancels the running chart read, if any, off the event thread (a PostgreSQL cancel asks the server over the
+     * network).
+     */
+    private void stopQuery() {
+        StoreQuery q = chartQuery;
+        chartQuery = null;
+        if (q != null) {
+            Thread t = new Thread(q::cancel, "trapmap-store-cancel");
+            t.setDaemon(true);
+            t.start();
+        }
+    }
+
+    /** The running chart read (tests). */
+    StoreQuery chartQuery() {
+        return chartQuery;
     }
 
     private void show(StoreTrend.Outcome o) {

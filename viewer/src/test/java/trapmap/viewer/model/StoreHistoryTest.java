@@ -111,6 +111,13 @@ class StoreHistoryTest {
         assertThat(StoreHistory.filter("", "2026-10-06T08:00:00Z", "", "", "").until())
                 .isEqualTo(Instant.parse("2026-10-06T08:00:00Z"));
         assertThat(StoreHistory.filter(null, " ", "", " , ", "")).isEqualTo(StoreFilter.ALL);
+        // a lot or a fact holding a comma in double quotes, as in a CSV file; the message names the field
+        StoreFilter quoted = StoreHistory.filter("", "", "", "L1, \"A,1\"", "\"recipe=B,2\", furnace_tube=T2");
+        assertThat(quoted.lots()).containsExactly("L1", "A,1");
+        assertThat(quoted.attributes()).containsExactly(Map.entry("recipe", "B,2"), Map.entry("furnace_tube", "T2"));
+        assertThatThrownBy(() -> StoreHistory.filter("", "", "", "\"A,1", ""))
+                .isInstanceOf(InvalidValueException.class).hasMessageStartingWith("lot has a quote that does not"
+                        + " close its item").extracting(e -> ((InvalidValueException) e).field()).isEqualTo("lot");
         // the window's messages are the command's without the dashes
         assertThatThrownBy(() -> StoreHistory.filter("5.10.2026", "", "", "", ""))
                 .isInstanceOf(InvalidValueException.class)

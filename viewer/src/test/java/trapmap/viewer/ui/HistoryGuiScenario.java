@@ -162,11 +162,13 @@ public final class HistoryGuiScenario {
                 return "GUI-BADFILTER error=" + d.statusIsError() + " idle=" + d.idle() + " wafers="
                         + d.outcome().result().wafers() + " status=" + d.statusText();
             }));
-            // Cancel beside the progress bar drops a running request; the charts shown stay
+            // Cancel beside the progress bar stops a running request's store read; the charts shown stay
+            trapmap.store.StoreQuery[] read = new trapmap.store.StoreQuery[1];
             System.out.println(GuiScenario.onEdt(() -> {
                 JTextField facts = (JTextField) GuiScenario.find(d.getContentPane(), "historyFacts");
                 facts.setText("");
                 d.chart();
+                read[0] = d.chartQuery();
                 java.awt.Component cancel = GuiScenario.find(d.getContentPane(), "historyCancel");
                 boolean shown = cancel.isVisible();
                 ((javax.swing.JButton) cancel).doClick();
@@ -174,9 +176,22 @@ public final class HistoryGuiScenario {
                         + d.statusText();
             }));
             GuiScenario.waitFor("the request dropped", d::idle);
+            GuiScenario.waitFor("the read cancelled", read[0]::cancelled);
             Thread.sleep(500);
             System.out.println(GuiScenario.onEdt(() -> "GUI-AFTERCANCEL idle=" + d.idle() + " wafers="
-                    + d.outcome().result().wafers() + " filter=" + d.outcome().request().filter().describe()));
+                    + d.outcome().result().wafers() + " filter=" + d.outcome().request().filter().describe()
+                    + " readCancelled=" + read[0].cancelled() + " running=" + (d.chartQuery() != null)));
+            // a new request at once after the cancel: read and shown in full
+            GuiScenario.onEdt(() -> {
+                JTextField lots = (JTextField) GuiScenario.find(d.getContentPane(), "historyLots");
+                lots.setText("L1, \"L3\"");
+                lots.postActionEvent();
+                return null;
+            });
+            GuiScenario.waitFor("the charts of lots L1 and L3", () -> d.idle() && d.outcome() != null
+                    && !d.outcome().request().filter().lots().isEmpty());
+            System.out.println(GuiScenario.onEdt(() -> "GUI-NEWAFTERCANCEL wafers=" + d.outcome().result().wafers()
+                    + " filter=" + d.outcome().request().filter().describe() + " running=" + (d.chartQuery() != null)));
             System.out.flush();
             javax.swing.SwingUtilities.invokeAndWait(() -> {
                 d.dispose();

@@ -265,7 +265,10 @@ class ViewerWindowGuiTest {
                 + " (e.g. furnace_tube=T2) but was boat_slot");
         assertThat(out).contains("GUI-CANCELCHART shown=true after=false status=chart request cancelled; the charts"
                 + " shown are the last ones read");
-        assertThat(out).contains("GUI-AFTERCANCEL idle=true wafers=6 filter=furnace_tube=T2");
+        assertThat(out).contains("GUI-AFTERCANCEL idle=true wafers=6 filter=furnace_tube=T2 readCancelled=true"
+                + " running=false");
+        // lots typed with a quoted one: L1 and L3, six wafers, read at once after the cancel
+        assertThat(out).contains("GUI-NEWAFTERCANCEL wafers=6 filter=lot L1, L3 running=false");
     }
 
     private static Path onPath(String name) {
