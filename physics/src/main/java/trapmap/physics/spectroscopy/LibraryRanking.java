@@ -5,6 +5,7 @@ import java.util.Arrays;
 import java.util.Comparator;
 import java.util.List;
 import java.util.Locale;
+import java.util.function.Supplier;
 import org.apache.commons.math3.distribution.ChiSquaredDistribution;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.material.Doping;
@@ -143,24 +144,36 @@ public final class LibraryRanking {
         DefectHint hint = new DefectHint(best, runner, ratio);
         out.addAll(skipped);
         RankingStatus status;
-        String reason;
+        Supplier<String> reason;
         if (best.pValue() < NO_SINGLE_DEFECT_P) {
             status = RankingStatus.NO_SINGLE_DEFECT;
-            reason = String.format(Locale.ROOT, "the best candidate %s has chi2 %.4g with %d degrees of freedom,"
-                    + " p = %.3g < %.2g: no single library defect explains the curve", best.id(), best.chiSquared(),
-                    nu, best.pValue(), NO_SINGLE_DEFECT_P);
-            if (n < tau.length) {
-                reason += "; tau_SRH is not finite and positive at " + unusable(curve) + " cm^-3 (left out)";
-            }
+            reason = () -> noSingleDefect(best, nu, curve);
         } else if (n < tau.length) {
             status = RankingStatus.BELOW_LIMIT;
-            reason = String.format(Locale.ROOT, "tau_SRH is not finite and positive at %s cm^-3 (SRH not"
-                    + " resolvable there); ranked on the other %d levels: %s", unusable(curve), n, verdict(hint));
+            reason = () -> belowLimit(hint, curve);
         } else {
             status = RankingStatus.OK;
-            reason = verdict(hint);
+            reason = () -> verdict(hint);
         }
-        return new Ranking(status, reason, n, out, hint);
+        return new Ranking(status, n, out, hint, reason);
+    }
+
+    /** The reason of {@link RankingStatus#NO_SINGLE_DEFECT}; {@code nu} the degrees of freedom. */
+    private static String noSingleDefect(CandidateFit best, int nu, LifetimeCurve curve) {
+        String reason = String.format(Locale.ROOT, "the best candidate %s has chi2 %.4g with %d degrees of freedom,"
+                + " p = %.3g < %.2g: no single library defect explains the curve", best.id(), best.chiSquared(),
+                nu, best.pValue(), NO_SINGLE_DEFECT_P);
+        if (curve.usableCount() < curve.size()) {
+            reason += "; tau_SRH is not finite and positive at " + unusable(curve) + " cm^-3 (left out)";
+        }
+        return reason;
+    }
+
+    /** The reason of {@link RankingStatus#BELOW_LIMIT}. */
+    private static String belowLimit(DefectHint hint, LifetimeCurve curve) {
+        return String.format(Locale.ROOT, "tau_SRH is not finite and positive at %s cm^-3 (SRH not"
+                + " resolvable there); ranked on the other %d levels: %s", unusable(curve), curve.usableCount(),
+                verdict(hint));
     }
 
     private CandidateFit fit(Defect d, String caution, double[] c, double[] tau, double[] u, int nu) {
