@@ -198,9 +198,8 @@ public final class LibraryRanking {
             chi2 += r * r;
         }
         double se = 1.0 / Math.sqrt(scc);
-        double p = 1.0 - chiSquared[nu].cumulativeProbability(chi2);
         return new CandidateFit(d, true, caution, nt, se, Math.max(0, nt - BOUNDS_Z * se), nt + BOUNDS_Z * se, chi2, nu,
-                p);
+                chiSquared[nu]);
     }
 
     private static String unusable(LifetimeCurve curve) {
