@@ -122,8 +122,8 @@ public final class LibraryRanking {
         double[] tau = curve.tauSrhS();
         double[] u = curve.relativeUncertainty();
         int n = curve.usableCount();
-        List<CandidateFit> out = new ArrayList<>();
         if (n < 2) {
+            List<CandidateFit> out = new ArrayList<>();
             String why = "only " + n + " of " + tau.length + " levels " + (n == 1 ? "has" : "have")
                     + " a finite positive tau_SRH (s); at least 2 are needed to see the injection dependence";
             for (Defect d : fitted) {
@@ -133,16 +133,36 @@ public final class LibraryRanking {
             return new Ranking(RankingStatus.TOO_FEW_LEVELS, why, n, out, null);
         }
         int nu = n - 1;
-        for (int k = 0; k < fitted.size(); k++) {
-            out.add(fit(fitted.get(k), cautions.get(k), ratePerTrap[k], tau, u, nu));
+        CandidateFit[] fits = new CandidateFit[fitted.size()];
+        for (int k = 0; k < fits.length; k++) {
+            fits[k] = fit(fitted.get(k), cautions.get(k), ratePerTrap[k], tau, u, nu);
         }
-        out.sort(Comparator.comparingDouble(CandidateFit::chiSquared));
-        CandidateFit best = out.get(0);
-        CandidateFit runner = out.size() > 1 ? out.get(1) : null;
+        // best and runner-up as the first two of the candidates sorted by rising χ², ties in library order (a stable
+        // sort by Double.compare, which candidates() makes only when it is read)
+        int b = 0;
+        for (int k = 1; k < fits.length; k++) {
+            if (Double.compare(fits[k].chiSquared(), fits[b].chiSquared()) < 0) {
+                b = k;
+            }
+        }
+        int ru = -1;
+        for (int k = 0; k < fits.length; k++) {
+            if (k != b && (ru < 0 || Double.compare(fits[k].chiSquared(), fits[ru].chiSquared()) < 0)) {
+                ru = k;
+            }
+        }
+        CandidateFit best = fits[b];
+        CandidateFit runner = ru < 0 ? null : fits[ru];
         double ratio = runner == null ? Double.NaN
                 : best.chiSquared() == 0 ? Double.POSITIVE_INFINITY : runner.chiSquared() / best.chiSquared();
         DefectHint hint = new DefectHint(best, runner, ratio);
-        out.addAll(skipped);
+        Supplier<List<CandidateFit>> candidates = () -> {
+            List<CandidateFit> out = new ArrayList<>(fits.length + skipped.size());
+            out.addAll(Arrays.asList(fits));
+            out.sort(Comparator.comparingDouble(CandidateFit::chiSquared));
+            out.addAll(skipped);
+            return out;
+        };
         RankingStatus status;
         Supplier<String> reason;
         if (best.pValue() < NO_SINGLE_DEFECT_P) {
@@ -155,7 +175,7 @@ public final class LibraryRanking {
             status = RankingStatus.OK;
             reason = () -> verdict(hint);
         }
-        return new Ranking(status, n, out, hint, reason);
+        return new Ranking(status, n, candidates, hint, reason);
     }
 
     /** The reason of {@link RankingStatus#NO_SINGLE_DEFECT}; {@code nu} the degrees of freedom. */
