@@ -50,6 +50,25 @@ public final class LibraryRanking {
     private final List<String> cautions = new ArrayList<>();
     /** χ² distributions by degrees of freedom (index ν), made once (they are immutable). */
     private final ChiSquaredDistribution[] chiSquared;
+    /**
+     * By ν: a χ² below which the p-value is surely at least {@link #NO_SINGLE_DEFECT_P}, and one above which it is
+     * surely below ({@link #STATUS_BRACKET} around the critical value), so the status needs no p-value outside.
+     */
+    private final double[] surelyFits;
+    private final double[] surelyFails;
+
+    /**
+     * The status decides p &lt; {@link #NO_SINGLE_DEFECT_P} from χ² alone when χ² is more than this factor away from
+     * the critical value χ²_0.99(ν): there the p-value differs from 0.01 by far more than the error of its
+     * computation (about 1e-14; at ν = 1 it is 0.0145 at 0.9 χ²_0.99 and 0.0069 at 1.1 χ²_0.99, and the gap grows
+     * with ν); in between the p-value is computed, so the status is the one of p &lt; 0.01 everywhere.
+     */
+    static final double STATUS_BRACKET = 0.1;
+    /**
+     * Above this χ² the p-value is computed even so (Commons Math's χ² distribution function fails to converge at
+     * an infinite χ², and the status follows it there as everywhere).
+     */
+    static final double SURELY_FAILS_UP_TO = 1e300;
 
     /**
      * @param candidates      the defects to rank, in the order used for ties
@@ -87,8 +106,13 @@ public final class LibraryRanking {
         }
         ratePerTrap = rates.toArray(new double[0][]);
         chiSquared = new ChiSquaredDistribution[Math.max(2, this.injectionPerCm3.length)];
+        surelyFits = new double[chiSquared.length];
+        surelyFails = new double[chiSquared.length];
         for (int nu = 1; nu < chiSquared.length; nu++) {
             chiSquared[nu] = new ChiSquaredDistribution(null, nu);
+            double critical = chiSquared[nu].inverseCumulativeProbability(1 - NO_SINGLE_DEFECT_P);
+            surelyFits[nu] = (1 - STATUS_BRACKET) * critical;
+            surelyFails[nu] = (1 + STATUS_BRACKET) * critical;
         }
     }
 
@@ -165,7 +189,7 @@ public final class LibraryRanking {
         };
         RankingStatus status;
         Supplier<String> reason;
-        if (best.pValue() < NO_SINGLE_DEFECT_P) {
+        if (noSingleDefect(best, nu)) {
             status = RankingStatus.NO_SINGLE_DEFECT;
             reason = () -> noSingleDefect(best, nu, curve);
         } else if (n < tau.length) {
@@ -176,6 +200,21 @@ public final class LibraryRanking {
             reason = () -> verdict(hint);
         }
         return new Ranking(status, n, candidates, hint, reason);
+    }
+
+    /**
+     * True when the best candidate's p-value is below {@link #NO_SINGLE_DEFECT_P}: from its χ² alone away from the
+     * critical value, else from the p-value ({@link #STATUS_BRACKET}; a NaN or huge χ² takes the p-value).
+     */
+    boolean noSingleDefect(CandidateFit best, int nu) {
+        double c = best.chiSquared();
+        if (c < surelyFits[nu]) {
+            return false;
+        }
+        if (c > surelyFails[nu] && c < SURELY_FAILS_UP_TO) {
+            return true;
+        }
+        return best.pValue() < NO_SINGLE_DEFECT_P;
     }
 
     /** The reason of {@link RankingStatus#NO_SINGLE_DEFECT}; {@code nu} the degrees of freedom. */

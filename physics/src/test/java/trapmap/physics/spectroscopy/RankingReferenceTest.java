@@ -1,6 +1,7 @@
 package trapmap.physics.spectroscopy;
 
 import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.assertThatThrownBy;
 
 import java.util.ArrayList;
 import java.util.Comparator;
@@ -237,6 +238,48 @@ class RankingReferenceTest {
         }
         assertThat(fe).isGreaterThan(20);
         assertThat(cr).isGreaterThan(20);
+    }
+
+    @Test
+    void theStatusFromChiSquaredAloneIsTheOneOfThePValueAtEveryChiSquared() {
+        int levels = 13;
+        double[] dn = new double[levels];
+        for (int i = 0; i < levels; i++) {
+            dn[i] = Math.pow(10, 11 + 0.5 * i);
+        }
+        LibraryRanking ranking = new LibraryRanking(DefectLibrary.all(), Doping.parse("p:1e16"), Silicon.at(300), dn);
+        Defect fei = DefectLibrary.byId("fe-i");
+        int checked = 0;
+        for (int nu = 1; nu < levels; nu++) {
+            ChiSquaredDistribution chi = new ChiSquaredDistribution(null, nu);
+            double critical = chi.inverseCumulativeProbability(0.99);
+            List<Double> grid = new ArrayList<>(List.of(0.0, Double.MIN_VALUE, Double.NaN, Double.POSITIVE_INFINITY,
+                    Double.MAX_VALUE, critical, Math.nextUp(critical), Math.nextDown(critical)));
+            for (double f = 1e-4; f < 1e4; f *= 1.01) {
+                grid.add(f * critical);
+            }
+            for (double f = 0.85; f < 1.15; f += 1e-4) {
+                grid.add(f * critical);
+            }
+            for (double c : grid) {
+                Boolean expected;
+                try {
+                    expected = 1.0 - chi.cumulativeProbability(c) < LibraryRanking.NO_SINGLE_DEFECT_P;
+                } catch (RuntimeException e) {
+                    expected = null; // the distribution function fails here (an infinite χ²): so must the status
+                }
+                CandidateFit fit = new CandidateFit(fei, true, "", 1e11, 1e9, 0, 2e11, c, nu, chi);
+                int dof = nu;
+                if (expected == null) {
+                    assertThatThrownBy(() -> ranking.noSingleDefect(fit, dof)).as("nu " + nu + ", chi2 " + c)
+                            .isInstanceOf(RuntimeException.class);
+                } else {
+                    assertThat(ranking.noSingleDefect(fit, nu)).as("nu " + nu + ", chi2 " + c).isEqualTo(expected);
+                }
+                checked++;
+            }
+        }
+        assertThat(checked).isGreaterThan(12 * 1000);
     }
 
     @Test
