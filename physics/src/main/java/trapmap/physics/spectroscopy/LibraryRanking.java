@@ -69,6 +69,17 @@ public final class LibraryRanking {
      * an infinite χ², and the status follows it there as everywhere).
      */
     static final double SURELY_FAILS_UP_TO = 1e300;
+    /**
+     * χ²_0.99(ν) for ν below its length, made once (a ranking is also prepared per curve, under a generation rate;
+     * larger ν are worked out by the ranking that needs them).
+     */
+    private static final double[] CRITICAL = new double[32];
+
+    static {
+        for (int nu = 1; nu < CRITICAL.length; nu++) {
+            CRITICAL[nu] = critical(nu);
+        }
+    }
 
     /**
      * @param candidates      the defects to rank, in the order used for ties
@@ -110,10 +121,15 @@ public final class LibraryRanking {
         surelyFails = new double[chiSquared.length];
         for (int nu = 1; nu < chiSquared.length; nu++) {
             chiSquared[nu] = new ChiSquaredDistribution(null, nu);
-            double critical = chiSquared[nu].inverseCumulativeProbability(1 - NO_SINGLE_DEFECT_P);
+            double critical = nu < CRITICAL.length ? CRITICAL[nu] : critical(nu);
             surelyFits[nu] = (1 - STATUS_BRACKET) * critical;
             surelyFails[nu] = (1 + STATUS_BRACKET) * critical;
         }
+    }
+
+    /** The χ² whose p-value at ν degrees of freedom is {@link #NO_SINGLE_DEFECT_P}. */
+    private static double critical(int nu) {
+        return new ChiSquaredDistribution(null, nu).inverseCumulativeProbability(1 - NO_SINGLE_DEFECT_P);
     }
 
     /** Ranks {@code curve} against {@code candidates} in one call (prepares and ranks). */
