@@ -60,10 +60,11 @@ public final class LibraryRanking {
     /**
      * The status decides p &lt; {@link #NO_SINGLE_DEFECT_P} from χ² alone when χ² is more than this factor away from
      * the critical value χ²_0.99(ν): there the p-value differs from 0.01 by far more than the error of its
-     * computation (about 1e-14; at ν = 1 it is 0.0145 at 0.9 χ²_0.99 and 0.0069 at 1.1 χ²_0.99, and the gap grows
-     * with ν); in between the p-value is computed, so the status is the one of p &lt; 0.01 everywhere.
+     * computation (about 1e-14) and than the error of χ²_0.99 (1e-9 absolute): at ν = 1 it is 0.01038 at
+     * 0.99 χ²_0.99 and 0.00963 at 1.01 χ²_0.99, and the gap grows with ν; in between the p-value is computed, so
+     * the status is the one of p &lt; 0.01 everywhere.
      */
-    static final double STATUS_BRACKET = 0.1;
+    static final double STATUS_BRACKET = 0.01;
     /**
      * Above this χ² the p-value is computed even so (Commons Math's χ² distribution function fails to converge at
      * an infinite χ², and the status follows it there as everywhere).
