@@ -16,6 +16,7 @@ import trapmap.maps.region.Region;
 import trapmap.maps.region.RegionCriteria;
 import trapmap.maps.region.RegionTable;
 import trapmap.maps.region.ThresholdRegions;
+import trapmap.maps.stats.MapStatistics;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.spectroscopy.CandidateFit;
 import trapmap.physics.spectroscopy.DpssFit;
@@ -313,16 +314,14 @@ public final class DefectIdentification {
         int h = lifetimes.height();
         double threshold = options.regionThresholdUs();
         if (Double.isNaN(threshold)) {
-            float[] sorted = new float[first.length];
+            float[] values = new float[first.length];
             int m = 0;
             for (float v : first) {
                 if (!Float.isNaN(v)) {
-                    sorted[m++] = v;
+                    values[m++] = v;
                 }
             }
-            sorted = Arrays.copyOf(sorted, m);
-            Arrays.sort(sorted);
-            double median = median(sorted);
+            double median = median(values, m);
             // an SRH-free background (median below the limit, or no data): no threshold, dominance alone decides
             threshold = Double.isFinite(median) ? DEFAULT_REGION_FRACTION * median : Double.POSITIVE_INFINITY;
         }
@@ -395,13 +394,20 @@ public final class DefectIdentification {
         return new Regions(table, labels, pixels, threshold);
     }
 
-    /** Median of sorted values (mean of the two middle ones for an even count; NaN for none). */
-    static double median(float[] sorted) {
-        int n = sorted.length;
+    /**
+     * Median of values[0..n) (NaN-free, reordered here): the middle one of the sorted values, or the mean of the two
+     * middle ones for an even count; NaN for none. From the one or two middle order statistics
+     * ({@link MapStatistics#orderStatistics}, bit for bit those of a sort) instead of a full sort.
+     */
+    static double median(float[] values, int n) {
         if (n == 0) {
             return Double.NaN;
         }
-        return n % 2 == 1 ? sorted[n / 2] : 0.5 * ((double) sorted[n / 2 - 1] + sorted[n / 2]);
+        if (n % 2 == 1) {
+            return MapStatistics.orderStatistics(values, n, new int[] {n / 2})[0];
+        }
+        double[] mid = MapStatistics.orderStatistics(values, n, new int[] {n / 2 - 1, n / 2});
+        return 0.5 * (mid[0] + mid[1]);
     }
 
     /** What every pixel, block and region shares: the candidates, the shared ranking, the curves' rule. */

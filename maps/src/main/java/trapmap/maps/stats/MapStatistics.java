@@ -390,6 +390,14 @@ public record MapStatistics(int count, double areaMm2, double mean, double harmo
     }
 
     /**
+     * The values at {@code ranks} (0-based, ascending, distinct, each &lt; n) among values[0..n) (NaN-free; possibly
+     * reordered): those {@link Arrays#sort(float[])} would put there, bit for bit, without a full sort.
+     */
+    public static double[] orderStatistics(float[] values, int n, int[] ranks) {
+        return Selection.ranks(values, n, ranks.clone());
+    }
+
+    /**
      * The order statistics the type-7 estimates of some percents need: the two around each h = (n − 1)·p/100, as one
      * ascending list of distinct ranks.
      */

@@ -5,6 +5,7 @@ import java.util.Arrays;
 import java.util.Comparator;
 import java.util.List;
 import java.util.Locale;
+import java.util.function.Supplier;
 import org.apache.commons.math3.distribution.ChiSquaredDistribution;
 import trapmap.physics.defect.Defect;
 import trapmap.physics.material.Doping;
@@ -49,6 +50,37 @@ public final class LibraryRanking {
     private final List<String> cautions = new ArrayList<>();
     /** χ² distributions by degrees of freedom (index ν), made once (they are immutable). */
     private final ChiSquaredDistribution[] chiSquared;
+    /**
+     * By ν: a χ² below which the p-value is surely at least {@link #NO_SINGLE_DEFECT_P}, and one above which it is
+     * surely below ({@link #STATUS_BRACKET} around the critical value), so the status needs no p-value outside.
+     */
+    private final double[] surelyFits;
+    private final double[] surelyFails;
+
+    /**
+     * The status decides p &lt; {@link #NO_SINGLE_DEFECT_P} from χ² alone when χ² is more than this factor away from
+     * the critical value χ²_0.99(ν): there the p-value differs from 0.01 by far more than the error of its
+     * computation (about 1e-14) and than the error of χ²_0.99 (1e-9 absolute): at ν = 1 it is 0.01038 at
+     * 0.99 χ²_0.99 and 0.00963 at 1.01 χ²_0.99, and the gap grows with ν; in between the p-value is computed, so
+     * the status is the one of p &lt; 0.01 everywhere.
+     */
+    static final double STATUS_BRACKET = 0.01;
+    /**
+     * Above this χ² the p-value is computed even so (Commons Math's χ² distribution function fails to converge at
+     * an infinite χ², and the status follows it there as everywhere).
+     */
+    static final double SURELY_FAILS_UP_TO = 1e300;
+    /**
+     * χ²_0.99(ν) for ν below its length, made once (a ranking is also prepared per curve, under a generation rate;
+     * larger ν are worked out by the ranking that needs them).
+     */
+    private static final double[] CRITICAL = new double[32];
+
+    static {
+        for (int nu = 1; nu < CRITICAL.length; nu++) {
+            CRITICAL[nu] = critical(nu);
+        }
+    }
 
     /**
      * @param candidates      the defects to rank, in the order used for ties
@@ -86,9 +118,19 @@ public final class LibraryRanking {
         }
         ratePerTrap = rates.toArray(new double[0][]);
         chiSquared = new ChiSquaredDistribution[Math.max(2, this.injectionPerCm3.length)];
+        surelyFits = new double[chiSquared.length];
+        surelyFails = new double[chiSquared.length];
         for (int nu = 1; nu < chiSquared.length; nu++) {
             chiSquared[nu] = new ChiSquaredDistribution(null, nu);
+            double critical = nu < CRITICAL.length ? CRITICAL[nu] : critical(nu);
+            surelyFits[nu] = (1 - STATUS_BRACKET) * critical;
+            surelyFails[nu] = (1 + STATUS_BRACKET) * critical;
         }
+    }
+
+    /** The χ² whose p-value at ν degrees of freedom is {@link #NO_SINGLE_DEFECT_P}. */
+    private static double critical(int nu) {
+        return new ChiSquaredDistribution(null, nu).inverseCumulativeProbability(1 - NO_SINGLE_DEFECT_P);
     }
 
     /** Ranks {@code curve} against {@code candidates} in one call (prepares and ranks). */
@@ -121,8 +163,8 @@ public final class LibraryRanking {
         double[] tau = curve.tauSrhS();
         double[] u = curve.relativeUncertainty();
         int n = curve.usableCount();
-        List<CandidateFit> out = new ArrayList<>();
         if (n < 2) {
+            List<CandidateFit> out = new ArrayList<>();
             String why = "only " + n + " of " + tau.length + " levels " + (n == 1 ? "has" : "have")
                     + " a finite positive tau_SRH (s); at least 2 are needed to see the injection dependence";
             for (Defect d : fitted) {
@@ -132,35 +174,82 @@ public final class LibraryRanking {
             return new Ranking(RankingStatus.TOO_FEW_LEVELS, why, n, out, null);
         }
         int nu = n - 1;
-        for (int k = 0; k < fitted.size(); k++) {
-            out.add(fit(fitted.get(k), cautions.get(k), ratePerTrap[k], tau, u, nu));
+        CandidateFit[] fits = new CandidateFit[fitted.size()];
+        for (int k = 0; k < fits.length; k++) {
+            fits[k] = fit(fitted.get(k), cautions.get(k), ratePerTrap[k], tau, u, nu);
         }
-        out.sort(Comparator.comparingDouble(CandidateFit::chiSquared));
-        CandidateFit best = out.get(0);
-        CandidateFit runner = out.size() > 1 ? out.get(1) : null;
+        // best and runner-up as the first two of the candidates sorted by rising χ², ties in library order (a stable
+        // sort by Double.compare, which candidates() makes only when it is read)
+        int b = 0;
+        for (int k = 1; k < fits.length; k++) {
+            if (Double.compare(fits[k].chiSquared(), fits[b].chiSquared()) < 0) {
+                b = k;
+            }
+        }
+        int ru = -1;
+        for (int k = 0; k < fits.length; k++) {
+            if (k != b && (ru < 0 || Double.compare(fits[k].chiSquared(), fits[ru].chiSquared()) < 0)) {
+                ru = k;
+            }
+        }
+        CandidateFit best = fits[b];
+        CandidateFit runner = ru < 0 ? null : fits[ru];
         double ratio = runner == null ? Double.NaN
                 : best.chiSquared() == 0 ? Double.POSITIVE_INFINITY : runner.chiSquared() / best.chiSquared();
         DefectHint hint = new DefectHint(best, runner, ratio);
-        out.addAll(skipped);
+        Supplier<List<CandidateFit>> candidates = () -> {
+            List<CandidateFit> out = new ArrayList<>(fits.length + skipped.size());
+            out.addAll(Arrays.asList(fits));
+            out.sort(Comparator.comparingDouble(CandidateFit::chiSquared));
+            out.addAll(skipped);
+            return out;
+        };
         RankingStatus status;
-        String reason;
-        if (best.pValue() < NO_SINGLE_DEFECT_P) {
+        Supplier<String> reason;
+        if (noSingleDefect(best, nu)) {
             status = RankingStatus.NO_SINGLE_DEFECT;
-            reason = String.format(Locale.ROOT, "the best candidate %s has chi2 %.4g with %d degrees of freedom,"
-                    + " p = %.3g < %.2g: no single library defect explains the curve", best.id(), best.chiSquared(),
-                    nu, best.pValue(), NO_SINGLE_DEFECT_P);
-            if (n < tau.length) {
-                reason += "; tau_SRH is not finite and positive at " + unusable(curve) + " cm^-3 (left out)";
-            }
+            reason = () -> noSingleDefect(best, nu, curve);
         } else if (n < tau.length) {
             status = RankingStatus.BELOW_LIMIT;
-            reason = String.format(Locale.ROOT, "tau_SRH is not finite and positive at %s cm^-3 (SRH not"
-                    + " resolvable there); ranked on the other %d levels: %s", unusable(curve), n, verdict(hint));
+            reason = () -> belowLimit(hint, curve);
         } else {
             status = RankingStatus.OK;
-            reason = verdict(hint);
+            reason = () -> verdict(hint);
         }
-        return new Ranking(status, reason, n, out, hint);
+        return new Ranking(status, n, candidates, hint, reason);
+    }
+
+    /**
+     * True when the best candidate's p-value is below {@link #NO_SINGLE_DEFECT_P}: from its χ² alone away from the
+     * critical value, else from the p-value ({@link #STATUS_BRACKET}; a NaN or huge χ² takes the p-value).
+     */
+    boolean noSingleDefect(CandidateFit best, int nu) {
+        double c = best.chiSquared();
+        if (c < surelyFits[nu]) {
+            return false;
+        }
+        if (c > surelyFails[nu] && c < SURELY_FAILS_UP_TO) {
+            return true;
+        }
+        return best.pValue() < NO_SINGLE_DEFECT_P;
+    }
+
+    /** The reason of {@link RankingStatus#NO_SINGLE_DEFECT}; {@code nu} the degrees of freedom. */
+    private static String noSingleDefect(CandidateFit best, int nu, LifetimeCurve curve) {
+        String reason = String.format(Locale.ROOT, "the best candidate %s has chi2 %.4g with %d degrees of freedom,"
+                + " p = %.3g < %.2g: no single library defect explains the curve", best.id(), best.chiSquared(),
+                nu, best.pValue(), NO_SINGLE_DEFECT_P);
+        if (curve.usableCount() < curve.size()) {
+            reason += "; tau_SRH is not finite and positive at " + unusable(curve) + " cm^-3 (left out)";
+        }
+        return reason;
+    }
+
+    /** The reason of {@link RankingStatus#BELOW_LIMIT}. */
+    private static String belowLimit(DefectHint hint, LifetimeCurve curve) {
+        return String.format(Locale.ROOT, "tau_SRH is not finite and positive at %s cm^-3 (SRH not"
+                + " resolvable there); ranked on the other %d levels: %s", unusable(curve), curve.usableCount(),
+                verdict(hint));
     }
 
     private CandidateFit fit(Defect d, String caution, double[] c, double[] tau, double[] u, int nu) {
@@ -185,9 +274,8 @@ public final class LibraryRanking {
             chi2 += r * r;
         }
         double se = 1.0 / Math.sqrt(scc);
-        double p = 1.0 - chiSquared[nu].cumulativeProbability(chi2);
         return new CandidateFit(d, true, caution, nt, se, Math.max(0, nt - BOUNDS_Z * se), nt + BOUNDS_Z * se, chi2, nu,
-                p);
+                chiSquared[nu]);
     }
 
     private static String unusable(LifetimeCurve curve) {

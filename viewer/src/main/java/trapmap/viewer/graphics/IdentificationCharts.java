@@ -118,7 +118,7 @@ public final class IdentificationCharts {
         plot.setRenderer(1, lr);
         JFreeChart chart = new JFreeChart(FIT_TITLE, ChartStyle.TITLE, plot, true);
         if (c != null) {
-            String line = "ranking: " + status(c.ranking().status()) + " — " + c.ranking().reason();
+            String line = "ranking: " + status(c.ranking().status()) + " — " + Labels.prose(c.ranking().reason());
             if (!c.unusable().isEmpty()) {
                 line += " (" + c.unusable().size() + " level(s) without a finite positive τ_SRH not drawn)";
             }
@@ -235,7 +235,7 @@ public final class IdentificationCharts {
             TextTitle half = new TextTitle(note(r), ChartStyle.SUBTITLE.deriveFont(Font.BOLD));
             half.setPaint(r.ambiguousHalf() ? ChartStyle.MARKER : Color.DARK_GRAY);
             chart.addSubtitle(half);
-            TextTitle sub = new TextTitle(r.reason(), ChartStyle.SUBTITLE);
+            TextTitle sub = new TextTitle(Labels.prose(r.reason()), ChartStyle.SUBTITLE);
             sub.setMaximumLinesToDisplay(3);
             chart.addSubtitle(sub);
         }

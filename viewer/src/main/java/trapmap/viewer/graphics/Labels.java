@@ -3,10 +3,18 @@ package trapmap.viewer.graphics;
 import java.math.BigDecimal;
 import java.math.MathContext;
 import java.util.Locale;
+import java.util.regex.Pattern;
 import trapmap.maps.model.Quantity;
 
 /** How quantities, units and numbers read on charts, tables and reports. */
 public final class Labels {
+    /** "delta chi2" as a word pair. */
+    private static final Pattern DELTA_CHI2 = Pattern.compile("(?<![\\w/.-])delta chi2\\b");
+    /** "chi2" as a word (not inside a name such as "hint-chi2"). */
+    private static final Pattern CHI2 = Pattern.compile("(?<![\\w/.-])chi2\\b");
+    /** "tau_SRH" as a word. */
+    private static final Pattern TAU_SRH = Pattern.compile("(?<![\\w/.-])tau_SRH\\b");
+
     private Labels() {
     }
 
@@ -56,6 +64,22 @@ public final class Labels {
             case "cm^-3 s^-1" -> "cm⁻³ s⁻¹";
             default -> stored;
         };
+    }
+
+    /**
+     * A text of the identification engine (a ranking's or DPSS's reason, a candidate's caution), which is written in
+     * ASCII for the files and logs that carry it, as it reads on screen: "cm^-3" → "cm⁻³", "cm^2" → "cm²",
+     * "chi2" → "χ²", "delta chi2" → "Δχ²", "tau_SRH" → "τ_SRH", "E_t - E_i" → "E_t − E_i". Everything else is kept
+     * as it is; null reads as "".
+     */
+    public static String prose(String ascii) {
+        if (ascii == null) {
+            return "";
+        }
+        String s = ascii.replace("cm^-3", "cm⁻³").replace("cm^2", "cm²").replace("E_t - E_i", "E_t − E_i");
+        s = DELTA_CHI2.matcher(s).replaceAll("Δχ²");
+        s = CHI2.matcher(s).replaceAll("χ²");
+        return TAU_SRH.matcher(s).replaceAll("τ_SRH");
     }
 
     /** "name (unit)" or just the name for a dimensionless quantity: an axis label. */

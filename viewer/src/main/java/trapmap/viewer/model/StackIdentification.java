@@ -28,6 +28,7 @@ import trapmap.shared.error.InvalidValueException;
 import trapmap.shared.progress.ProgressListener;
 import trapmap.viewer.graphics.Categories;
 import trapmap.viewer.graphics.FitCurves;
+import trapmap.viewer.graphics.Labels;
 
 /**
  * The viewer's defect identification from maps of one wafer at several injection levels: it gathers the maps (open
@@ -114,7 +115,7 @@ public final class StackIdentification {
      * @param ranking its library ranking
      * @param fits    the measured points and fitted curves of the best three candidates
      * @param dpss    its DPSS
-     * @param summary one line: status and the ranking's reason
+     * @param summary one line: status and the ranking's reason, as it reads on screen ({@link Labels#prose})
      */
     public record Probe(String title, LifetimeCurve curve, Ranking ranking, FitCurves fits, DpssResult dpss,
                         String summary) {
@@ -233,7 +234,8 @@ public final class StackIdentification {
                                DpssResult dpss) {
         StackLifetimes lt = r.lifetimes();
         FitCurves fits = FitCurves.of(c, ranking, lt.doping(), lt.silicon());
-        return new Probe(title, c, ranking, fits, dpss, statusText(ranking.status()) + ": " + ranking.reason());
+        return new Probe(title, c, ranking, fits, dpss,
+                statusText(ranking.status()) + ": " + Labels.prose(ranking.reason()));
     }
 
     /**
@@ -377,7 +379,7 @@ public final class StackIdentification {
             Ranking k = ri.ranking();
             CandidateFit b = k == null || k.hint() == null ? null : k.hint().best();
             String status = k == null ? "no data" : statusText(k.status());
-            String dpss = ri.dpss() != null ? ri.dpss().reason() : ri.note();
+            String dpss = Labels.prose(ri.dpss() != null ? ri.dpss().reason() : ri.note());
             out.add(new RegionRow(ri.id(), ri.region().pixelCount(), ri.pixelsUsed(), ri.region().areaMm2(),
                     b == null ? "none" : b.id(), b == null ? Double.NaN : b.ntPerCm3(),
                     b == null ? Double.NaN : b.lowerPerCm3(), b == null ? Double.NaN : b.upperPerCm3(),

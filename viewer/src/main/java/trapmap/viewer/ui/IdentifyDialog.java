@@ -530,7 +530,7 @@ final class IdentifyDialog extends JDialog {
             candidates.addRow(new Object[] {f.fitted() ? ++rank : "–", f.id(), Labels.number(f.ntPerCm3()),
                 f.fitted() ? Labels.number(f.lowerPerCm3()) + " – " + Labels.number(f.upperPerCm3()) : "",
                 Labels.compact(f.chiSquared()), f.fitted() ? f.degreesOfFreedom() : "", Labels.compact(f.pValue()),
-                f.reason()});
+                Labels.prose(f.reason())});
         }
     }
 

@@ -166,7 +166,7 @@ class IdentificationChartsTest {
         for (int i = 0; i < curves.getItemCount(1); i++) {
             assertThat(curves.getXValue(1, i)).isNotNegative();
         }
-        assertThat(subtitles(chart)).contains(IdentificationCharts.note(d), d.reason());
+        assertThat(subtitles(chart)).contains(IdentificationCharts.note(d), Labels.prose(d.reason()));
         assertThat(IdentificationCharts.note(d).startsWith("Ambiguous half")).isEqualTo(d.ambiguousHalf());
     }
 
@@ -184,7 +184,7 @@ class IdentificationChartsTest {
         assertThat(IdentificationCharts.note(none)).contains("too few usable levels");
         JFreeChart chart = IdentificationCharts.dpss(none);
         assertThat(chart.getXYPlot().getDataset(0).getSeriesCount()).isZero();
-        assertThat(subtitles(chart)).contains(none.reason());
+        assertThat(subtitles(chart)).contains(Labels.prose(none.reason()));
     }
 
     @Test
@@ -207,6 +207,20 @@ class IdentificationChartsTest {
         assertThat(ImageIO.read(fit.toFile()).getWidth()).isEqualTo(900);
         assertThat(ImageIO.read(dpss.toFile()).getHeight()).isEqualTo(600);
         assertThat(Files.list(dir)).hasSize(2);
+    }
+
+    @Test
+    void subtitlesShowTheEnginesReasonsWithUnitsAndSymbolsWhileTheReasonsStayAscii() {
+        LifetimeCurve c = planted("fe-i");
+        Ranking r = rank(c);
+        assertThat(r.reason()).contains("cm^-3").contains("chi2");
+        String fit = subtitles(IdentificationCharts.lifetimeFit(FitCurves.of(c, r, DOPING, SI)));
+        assertThat(fit).contains("fe-i fits best (N_t ").contains(" cm⁻³, χ² ").contains("; runner-up ")
+                .contains("(χ² ratio ").doesNotContain("cm^-3").doesNotContain("chi2");
+        DpssResult d = new DpssFit(DOPING, SI, LEVELS).fit(c, DefectLibrary.all());
+        assertThat(d.reason()).contains("least chi2 ").contains("E_t - E_i");
+        String dpss = subtitles(IdentificationCharts.dpss(d));
+        assertThat(dpss).contains("least χ² ").contains("E_t − E_i = ").doesNotContain("chi2");
     }
 
     private static String subtitles(JFreeChart chart) {
