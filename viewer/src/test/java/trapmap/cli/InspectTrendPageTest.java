@@ -70,7 +70,7 @@ class InspectTrendPageTest {
         return r;
     }
 
-    /** The text of each page of the folder's summary, its folder and page numbers put in words of their own. */
+    /** The text of each page of the folder's summary, its folder, page numbers and time in words of their own. */
     private static List<String> pages(Path out) throws Exception {
         List<String> pages = new ArrayList<>();
         try (PDDocument d = Loader.loadPDF(out.resolve("summary.pdf").toFile())) {
@@ -78,7 +78,8 @@ class InspectTrendPageTest {
             for (int p = 1; p <= d.getNumberOfPages(); p++) {
                 s.setStartPage(p);
                 s.setEndPage(p);
-                pages.add(s.getText(d).replace(out.toString(), "OUT").replaceAll("page \\d+ of \\d+", "page N"));
+                pages.add(s.getText(d).replace(out.toString(), "OUT").replaceAll("page \\d+ of \\d+", "page N")
+                        .replaceAll("\\d{4}-\\d{2}-\\d{2} \\d{2}:\\d{2} UTC", "TIME UTC"));
             }
         }
         return pages;
