@@ -273,8 +273,16 @@ public final class ResultsStore implements AutoCloseable {
                 }
                 connection.commit();
             } catch (SQLException | RuntimeException e) {
-                st.clear();
-                connection.rollback();
+                try {
+                    st.clear(); // rows gathered but not sent must not go with the next transaction
+                } catch (SQLException f) {
+                    e.addSuppressed(f);
+                }
+                try {
+                    connection.rollback();
+                } catch (SQLException f) {
+                    e.addSuppressed(f);
+                }
                 throw e;
             } finally {
                 connection.setAutoCommit(true);
