@@ -13,8 +13,8 @@ import trapmap.maps.batch.RulesException;
 
 /**
  * {@code spark-submit --class trapmap.cluster.ArchiveInspect trapmap-cluster.jar --input PATH --rules R.json
- * --output PATH [--partition-by day|lot] [--store S]}: judges an archive of maps as {@code inspect} judges a folder,
- * on Spark ({@link ArchiveJob}), and loads the tables into a results store ({@link StoreLoad}). Exit status 0 when
+ * --output PATH [--partition-by day|lot] [--store S [--store-batch N]]}: judges an archive of maps as
+ * {@code inspect} judges a folder, on Spark ({@link ArchiveJob}), and loads the tables into a results store ({@link StoreLoad}). Exit status 0 when
  * every map was judged or turned into an error row, 2 for invalid arguments or rules (one line naming the option or
  * file), 3 when the job failed, 4 when the store could not be written.
  */
@@ -56,6 +56,11 @@ public final class ArchiveInspect implements Callable<Integer> {
                     + " postgresql://host[:port]/db with PGUSER/PGPASSWORD), as inspect --store stores wafers")
     String store;
 
+    @Option(names = "--store-batch", paramLabel = "N", defaultValue = "" + StoreLoad.DEFAULT_BATCH,
+            description = "wafers per store transaction when loading (default: ${DEFAULT-VALUE}); a batch lands whole or"
+                    + " not at all, and loading again completes it; 0: one transaction per wafer")
+    int storeBatch;
+
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
 
@@ -90,6 +95,10 @@ public final class ArchiveInspect implements Callable<Integer> {
                     + " day or lot");
             return 2;
         }
+        if (storeBatch < 0) {
+            err.println("trapmap-cluster: --store-batch: " + storeBatch + " wafers; give 0 or more");
+            return 2;
+        }
         SparkSession.Builder builder = SparkSession.builder().appName("trapmap archive inspection");
         if (master != null) {
             builder.master(master);
@@ -104,7 +113,7 @@ public final class ArchiveInspect implements Callable<Integer> {
                     + " Parquet tables partitioned by " + key.column() + ": " + o.results() + ", " + o.regions()
                     + ", " + o.footprints());
             if (store != null) {
-                long n = StoreLoad.load(spark, output, rules, store);
+                long n = StoreLoad.load(spark, output, rules, store, storeBatch);
                 out.println(n + " wafers loaded into the results store " + store);
             }
             out.println("Caution: equivalent density assumes one dominant defect; verify with an independent method"

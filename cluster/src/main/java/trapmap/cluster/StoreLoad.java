@@ -25,13 +25,18 @@ import trapmap.store.WaferRecord;
 
 /**
  * Loads the Parquet tables of an archive inspection ({@link ArchiveJob}) into a results store ({@link ResultsStore}:
- * SQLite file or PostgreSQL), one wafer per transaction through the store's own {@link ResultsStore#write}, as
- * {@code inspect --store} stores them: the same result keys (map content, rules and physics settings hashed), so that
- * loading again, or inspecting the same maps with the same rules with {@code inspect --store}, replaces the wafers
- * instead of adding them. The wafers' rows are gathered in Spark (results with their regions and footprint by file)
- * and streamed to the driver, which writes them (one writer: a store takes one transaction at a time).
+ * SQLite file or PostgreSQL) through the store's bulk path {@link ResultsStore#writeAll}, a batch of wafers
+ * ({@value #DEFAULT_BATCH} by default) per transaction, stored as {@code inspect --store} stores them one by one: the
+ * same result keys (map content, rules and physics settings hashed) and rows, so that loading again, or inspecting the
+ * same maps with the same rules with {@code inspect --store}, replaces the wafers instead of adding them. A batch lands
+ * whole or not at all; after a failure loading again completes the store. The wafers' rows are gathered in Spark
+ * (results with their regions and footprint by file) and streamed to the driver, which writes them (one writer: a
+ * store takes one transaction at a time).
  */
 public final class StoreLoad {
+    /** Wafers per transaction by default: few commits, and a rerun after a failure redoes little. */
+    public static final int DEFAULT_BATCH = 500;
+
     private StoreLoad() {
     }
 
@@ -43,7 +48,62 @@ public final class StoreLoad {
      * @throws RulesException when the rules cannot be read (one line naming the file)
      */
     public static long load(SparkSession spark, String tables, String rulesPath, String store) throws RulesException {
-        String out = tables.endsWith("/") ? tables : tables + "/";
+        return load(spark, tables, rulesPath, store, DEFAULT_BATCH);
+    }
+
+    /**
+     * As {@link #load(SparkSession, String, String, String)}, {@code batch} wafers per transaction (0: one wafer per
+     * transaction through {@link ResultsStore#write}, as {@code inspect --store} writes).
+     */
+    public static long load(SparkSession spark, String tables, String rulesPath, String store, int batch)
+            throws RulesException {
+        if (batch < 0) {
+            throw new IllegalArgumentException("batch " + batch + " wafers: must be 0 or more");
+        }
+        Loading l = prepare(spark, rulesPath);
+        try (ResultsStore s = ResultsStore.open(store)) {
+            return load(spark, tables, s, l, batch);
+        }
+    }
+
+    /** Loads the wafers of the tables under {@code tables} into the open store {@code s}; see {@link #load}. */
+    static long load(SparkSession spark, String tables, ResultsStore s, Loading l, int batch) {
+        String runId = s.startRun(l.run());
+        Iterator<WaferRecord> it = records(spark, tables, l);
+        long written = 0;
+        List<WaferRecord> pending = new ArrayList<>();
+        while (it.hasNext()) {
+            WaferRecord w = it.next();
+            if (batch == 0) {
+                s.write(runId, w);
+            } else {
+                pending.add(w);
+                if (pending.size() == batch) {
+                    s.writeAll(runId, pending);
+                    pending.clear();
+                }
+            }
+            written++;
+        }
+        if (!pending.isEmpty()) {
+            s.writeAll(runId, pending);
+        }
+        return written;
+    }
+
+    /**
+     * What a load needs of the rules file {@code rulesPath}: the run to record, the figures of each profile by name
+     * (in the profile's order) and the lot pattern (null for none).
+     */
+    record Loading(RunInfo run, Map<String, List<String>> figures, Pattern lots) {
+    }
+
+    /**
+     * Reads the rules file {@code rulesPath} for a load.
+     *
+     * @throws RulesException when the rules cannot be read (one line naming the file)
+     */
+    static Loading prepare(SparkSession spark, String rulesPath) throws RulesException {
         String text = ArchiveJob.readRules(rulesPath, spark.sparkContext().hadoopConfiguration());
         Rules rules = Rules.parse(text, rulesPath);
         Pattern lots = LotPattern.parse(text, rulesPath).orElse(null);
@@ -53,7 +113,15 @@ public final class StoreLoad {
         for (Rules.Profile p : rules.allProfiles()) {
             figures.put(p.name(), p.figures().stream().map(f -> f.name()).toList());
         }
+        return new Loading(RunInfo.of(source, rules.physics(), Instant.now()), figures, lots);
+    }
 
+    /**
+     * The store's records of every wafer of the tables under {@code tables}, joined in Spark (results with their
+     * regions and footprint by file) and streamed to the driver one partition at a time.
+     */
+    static Iterator<WaferRecord> records(SparkSession spark, String tables, Loading l) {
+        String out = tables.endsWith("/") ? tables : tables + "/";
         Dataset<Row> results = spark.read().parquet(out + ArchiveJob.RESULTS);
         Dataset<Row> regions = spark.read().parquet(out + ArchiveJob.REGIONS);
         Dataset<Row> footprints = spark.read().parquet(out + ArchiveJob.FOOTPRINTS);
@@ -64,17 +132,18 @@ public final class StoreLoad {
                 java.util.Arrays.stream(WaferRows.FOOTPRINT.fieldNames()).map(functions::col)
                         .toArray(org.apache.spark.sql.Column[]::new)).as("fp"));
         Dataset<Row> wafers = results.join(regionLists, "file", "left").join(footprintRows, "file", "left");
-
-        long written = 0;
-        try (ResultsStore s = ResultsStore.open(store)) {
-            String runId = s.startRun(RunInfo.of(source, rules.physics(), Instant.now()));
-            Iterator<Row> it = wafers.toLocalIterator();
-            while (it.hasNext()) {
-                s.write(runId, record(it.next(), figures, lots));
-                written++;
+        Iterator<Row> rows = wafers.toLocalIterator();
+        return new Iterator<>() {
+            @Override
+            public boolean hasNext() {
+                return rows.hasNext();
             }
-        }
-        return written;
+
+            @Override
+            public WaferRecord next() {
+                return record(rows.next(), l.figures(), l.lots());
+            }
+        };
     }
 
     /**

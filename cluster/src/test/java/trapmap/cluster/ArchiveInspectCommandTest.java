@@ -38,6 +38,15 @@ class ArchiveInspectCommandTest {
     }
 
     @Test
+    void aNegativeStoreBatchIsRefusedInOneLine() {
+        StringWriter err = new StringWriter();
+        int status = run(err, "--input", "maps", "--rules", "r.json", "--output", "out", "--store", "s.db",
+                "--store-batch", "-1");
+        assertThat(status).isEqualTo(2);
+        assertThat(err.toString().strip()).isEqualTo("trapmap-cluster: --store-batch: -1 wafers; give 0 or more");
+    }
+
+    @Test
     void aMissingRequiredOptionIsAUsageError() {
         StringWriter err = new StringWriter();
         assertThat(run(err, "--input", "maps", "--output", "out")).isEqualTo(2);

@@ -1,6 +1,7 @@
 package trapmap.store;
 
 import java.io.IOException;
+import java.io.StringReader;
 import java.net.URI;
 import java.net.URISyntaxException;
 import java.nio.file.Files;
@@ -20,6 +21,7 @@ import java.util.ArrayList;
 import java.util.Base64;
 import java.util.BitSet;
 import java.util.HashMap;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
@@ -31,6 +33,7 @@ import org.flywaydb.core.Flyway;
 import org.flywaydb.core.api.MigrationInfo;
 import org.flywaydb.core.api.MigrationVersion;
 import org.flywaydb.core.api.FlywayException;
+import org.postgresql.PGConnection;
 import org.postgresql.ds.PGSimpleDataSource;
 import org.sqlite.SQLiteConfig;
 import org.sqlite.SQLiteDataSource;
@@ -43,7 +46,8 @@ import trapmap.maps.batch.WaferResult;
  * Flyway's versioned migrations ({@code db/migration/V*__*.sql}, one script for both databases); Flyway records the
  * version in its table {@code flyway_schema_history} ({@link #schemaVersion}).
  *
- * <p>Each wafer is written in one transaction ({@link #write}): all its rows or none. A wafer is keyed by the SHA-256
+ * <p>Each wafer is written in one transaction ({@link #write}): all its rows or none; the bulk path
+ * ({@link #writeAll}) writes many wafers in one transaction, all or none. A wafer is keyed by the SHA-256
  * of its map's content, the rules' and the physics settings' ({@link #resultKey}): writing it again replaces its rows.
  * The methods are synchronized: one store may be shared by threads; several processes may share a SQLite file (its
  * writers wait for each other up to {@value #BUSY_TIMEOUT_MS} ms).
@@ -69,6 +73,10 @@ public final class ResultsStore implements AutoCloseable {
     private final Connection connection;
     private final String schemaVersion;
     private final Clock clock;
+    /** The rules' and settings' SHA-256 of the runs written to ({@link #runHashes}). */
+    private final Map<String, String[]> runs = new HashMap<>();
+    /** The statements of writing wafers, prepared on first use; null before. */
+    private Statements statements;
 
     private ResultsStore(String name, DataSource source, Clock clock) {
         this.name = name;
@@ -164,6 +172,8 @@ public final class ResultsStore implements AutoCloseable {
             ds.setPassword(password);
         }
         ds.setApplicationName("trapmap");
+        // a batch of inserts goes as multi-row INSERTs (the bulk path, writeAll): fewer statements for the server
+        ds.setReWriteBatchedInserts(true);
         return ds;
     }
 
@@ -219,26 +229,74 @@ public final class ResultsStore implements AutoCloseable {
      * @throws StoreException naming the store and the file
      */
     public synchronized String write(String runId, WaferRecord wafer) {
-        WaferResult r = wafer.result();
-        String key;
+        return writeAll(runId, List.of(wafer)).get(0);
+    }
+
+    /**
+     * Writes the wafers of run {@code runId} in one transaction, the bulk path: each replaces the rows of its result
+     * key as {@link #write} does, and the store ends as it would after writing them one by one in this order (of
+     * wafers with the same key the last stays). The rows go to the database in batches of one statement per table,
+     * prepared once for the store. On failure nothing of these wafers is written (the rows they would have replaced
+     * stay), so writing them again completes the load. Returns the wafers' keys in order.
+     *
+     * @throws StoreException naming the store and the file (of a failed batch the first and last file and the count)
+     */
+    public synchronized List<String> writeAll(String runId, List<WaferRecord> wafers) {
+        if (wafers.isEmpty()) {
+            return List.of();
+        }
+        List<String> keys = new ArrayList<>(wafers.size());
         try {
             String[] hashes = runHashes(runId);
-            key = resultKey(wafer.contentSha256(), r.file(), hashes[0], hashes[1]);
+            Map<String, WaferRecord> byKey = new LinkedHashMap<>();
+            for (WaferRecord w : wafers) {
+                String key = resultKey(w.contentSha256(), w.result().file(), hashes[0], hashes[1]);
+                keys.add(key);
+                byKey.remove(key); // a later wafer of the same key replaces it, and is written where it comes
+                byKey.put(key, w);
+            }
+            Statements st = statements();
             connection.setAutoCommit(false);
             try {
-                delete(key);
-                insertWafer(key, runId, wafer, hashes);
+                for (String key : byKey.keySet()) {
+                    for (PreparedStatement d : st.deletes) {
+                        d.setString(1, key);
+                        d.addBatch();
+                    }
+                }
+                for (PreparedStatement d : st.deletes) {
+                    d.executeBatch();
+                }
+                for (Map.Entry<String, WaferRecord> e : byKey.entrySet()) {
+                    addWafer(st, e.getKey(), runId, e.getValue(), hashes);
+                }
+                for (PreparedStatement i : st.inserts()) {
+                    i.executeBatch();
+                }
+                st.copyCells(connection);
                 connection.commit();
             } catch (SQLException | RuntimeException e) {
-                connection.rollback();
+                try {
+                    st.clear(); // rows gathered but not sent must not go with the next transaction
+                } catch (SQLException f) {
+                    e.addSuppressed(f);
+                }
+                try {
+                    connection.rollback();
+                } catch (SQLException f) {
+                    e.addSuppressed(f);
+                }
                 throw e;
             } finally {
                 connection.setAutoCommit(true);
             }
         } catch (SQLException e) {
-            throw new StoreException("store " + name + ": wafer " + r.file() + " not written: " + oneLine(e), e);
+            String what = wafers.size() == 1 ? "wafer " + wafers.get(0).result().file()
+                    : wafers.size() + " wafers (" + wafers.get(0).result().file() + " to "
+                    + wafers.get(wafers.size() - 1).result().file() + ", none of them)";
+            throw new StoreException("store " + name + ": " + what + " not written: " + oneLine(e), e);
         }
-        return key;
+        return keys;
     }
 
     /**
@@ -322,8 +380,12 @@ public final class ResultsStore implements AutoCloseable {
         }
     }
 
-    /** The rules' and settings' SHA-256 of a run. */
+    /** The rules' and settings' SHA-256 of a run (a run's never change: kept once read). */
     private String[] runHashes(String runId) throws SQLException {
+        String[] known = runs.get(runId);
+        if (known != null) {
+            return known;
+        }
         try (PreparedStatement p = connection.prepareStatement(
                 "SELECT rules_sha256, settings_sha256 FROM runs WHERE run_id = ?")) {
             p.setString(1, runId);
@@ -331,7 +393,9 @@ public final class ResultsStore implements AutoCloseable {
                 if (!rs.next()) {
                     throw new StoreException("store " + name + ": no run " + runId + " (start it with startRun)");
                 }
-                return new String[] {rs.getString(1), rs.getString(2)};
+                String[] hashes = {rs.getString(1), rs.getString(2)};
+                runs.put(runId, hashes);
+                return hashes;
             }
         }
     }
@@ -339,128 +403,194 @@ public final class ResultsStore implements AutoCloseable {
     private static final String[] CHILD_TABLES = {"footprint_cells", "wafer_footprints", "wafer_regions",
         "wafer_attributes", "wafer_failed_rules", "wafer_figures"};
 
-    private void delete(String key) throws SQLException {
-        for (String t : CHILD_TABLES) {
-            try (PreparedStatement p = connection.prepareStatement("DELETE FROM " + t + " WHERE result_key = ?")) {
-                p.setString(1, key);
-                p.executeUpdate();
-            }
-        }
-        try (PreparedStatement p = connection.prepareStatement("DELETE FROM wafers WHERE result_key = ?")) {
-            p.setString(1, key);
-            p.executeUpdate();
-        }
-    }
-
     /** Columns of {@code wafer_regions} after {@code result_key, region}, as named in regions.csv. */
     private static final List<String> REGION_VALUES = List.of("area_mm2", "x_mm", "y_mm", "centroid_x_mm",
             "centroid_y_mm", "centroid_inside", "min_x_mm", "min_y_mm", "max_x_mm", "max_y_mm", "peak", "peak_x_mm",
             "peak_y_mm", "mean", "edge_distance_mm", "peak_density_cm3", "median_density_cm3");
 
-    private void insertWafer(String key, String runId, WaferRecord w, String[] hashes) throws SQLException {
+    /**
+     * The statements that write wafers, prepared once on the store's connection and reused by every transaction: the
+     * deletes of a result key's rows (the child tables first) and the inserts of each table (the wafer first), each
+     * gathering a batch of rows.
+     */
+    private static final class Statements {
+        final List<PreparedStatement> deletes = new ArrayList<>();
+        final PreparedStatement wafer;
+        final PreparedStatement figure;
+        final PreparedStatement failedRule;
+        final PreparedStatement attribute;
+        final PreparedStatement region;
+        final PreparedStatement footprint;
+        final PreparedStatement cell;
+        /**
+         * On PostgreSQL the flagged cells in COPY's text format (result key, tab, column, tab, row, newline: hex keys
+         * and integers need no escaping), sent by {@link #copyCells}; null elsewhere (the {@link #cell} batch).
+         */
+        final StringBuilder cells;
+
+        Statements(Connection c) throws SQLException {
+            for (String t : CHILD_TABLES) {
+                deletes.add(c.prepareStatement("DELETE FROM " + t + " WHERE result_key = ?"));
+            }
+            deletes.add(c.prepareStatement("DELETE FROM wafers WHERE result_key = ?"));
+            wafer = c.prepareStatement("INSERT INTO wafers (result_key, run_id, file, content_sha256, rules_sha256,"
+                    + " settings_sha256, wafer_id, lot, measured_at_ms, measured_at, inspected_at_ms, profile, verdict,"
+                    + " grade, defect, error) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)");
+            figure = c.prepareStatement("INSERT INTO wafer_figures (result_key, figure, value) VALUES (?, ?, ?)");
+            failedRule = c.prepareStatement(
+                    "INSERT INTO wafer_failed_rules (result_key, position, rule) VALUES (?, ?, ?)");
+            attribute = c.prepareStatement("INSERT INTO wafer_attributes (result_key, name, value) VALUES (?, ?, ?)");
+            region = c.prepareStatement("INSERT INTO wafer_regions (result_key, region, "
+                    + String.join(", ", REGION_VALUES) + ") VALUES (?, ?" + ", ?".repeat(REGION_VALUES.size()) + ")");
+            footprint = c.prepareStatement("INSERT INTO wafer_footprints (result_key, family, pitch_mm, min_i, min_j,"
+                    + " width, height, covered_cells, covered, flagged_cells) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)");
+            cell = c.prepareStatement("INSERT INTO footprint_cells (result_key, cell_i, cell_j) VALUES (?, ?, ?)");
+            cells = c.isWrapperFor(PGConnection.class) ? new StringBuilder() : null;
+        }
+
+        /**
+         * Sends the flagged cells gathered in {@link #cells} by PostgreSQL's COPY (most of a flagged wafer's rows: COPY
+         * takes them at a fraction of the server's work for INSERTs), after the wafers' rows they refer to.
+         */
+        void copyCells(Connection c) throws SQLException {
+            if (cells == null || cells.length() == 0) {
+                return;
+            }
+            try {
+                c.unwrap(PGConnection.class).getCopyAPI().copyIn("COPY footprint_cells (result_key, cell_i, cell_j)"
+                        + " FROM STDIN", new StringReader(cells.toString()));
+            } catch (java.io.IOException e) {
+                throw new SQLException("COPY of the flagged cells: " + e.getMessage(), e);
+            } finally {
+                cells.setLength(0);
+            }
+        }
+
+        /** The inserts in the order they run: a wafer's row before the rows that refer to it. */
+        List<PreparedStatement> inserts() {
+            return List.of(wafer, figure, failedRule, attribute, region, footprint, cell);
+        }
+
+        /** Drops the rows gathered but not sent (after a failure). */
+        void clear() throws SQLException {
+            if (cells != null) {
+                cells.setLength(0);
+            }
+            for (PreparedStatement p : deletes) {
+                p.clearBatch();
+            }
+            for (PreparedStatement p : inserts()) {
+                p.clearBatch();
+            }
+        }
+
+        void close() throws SQLException {
+            for (PreparedStatement p : deletes) {
+                p.close();
+            }
+            for (PreparedStatement p : inserts()) {
+                p.close();
+            }
+        }
+    }
+
+    private Statements statements() throws SQLException {
+        if (statements == null) {
+            statements = new Statements(connection);
+        }
+        return statements;
+    }
+
+    /** Adds the rows of wafer {@code w} under {@code key} to the batches of {@code st}. */
+    private void addWafer(Statements st, String key, String runId, WaferRecord w, String[] hashes)
+            throws SQLException {
         WaferResult r = w.result();
-        try (PreparedStatement p = connection.prepareStatement("INSERT INTO wafers (result_key, run_id, file,"
-                + " content_sha256, rules_sha256, settings_sha256, wafer_id, lot, measured_at_ms, measured_at,"
-                + " inspected_at_ms, profile, verdict, grade, defect, error)"
-                + " VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
+        PreparedStatement p = st.wafer;
+        p.setString(1, key);
+        p.setString(2, runId);
+        p.setString(3, r.file());
+        p.setString(4, w.contentSha256());
+        p.setString(5, hashes[0]);
+        p.setString(6, hashes[1]);
+        p.setString(7, r.waferId());
+        p.setString(8, w.lot());
+        if (w.measuredAt() == null) {
+            p.setNull(9, Types.BIGINT);
+            p.setNull(10, Types.VARCHAR);
+        } else {
+            p.setLong(9, w.measuredAt().toEpochMilli());
+            p.setString(10, w.measuredAt().toString());
+        }
+        p.setLong(11, clock.instant().toEpochMilli());
+        p.setString(12, r.profile());
+        p.setString(13, r.status().key());
+        p.setString(14, r.grade());
+        p.setString(15, r.defectId());
+        p.setString(16, r.error());
+        p.addBatch();
+        p = st.figure;
+        for (Map.Entry<String, Double> e : r.figures().entrySet()) {
             p.setString(1, key);
-            p.setString(2, runId);
-            p.setString(3, r.file());
-            p.setString(4, w.contentSha256());
-            p.setString(5, hashes[0]);
-            p.setString(6, hashes[1]);
-            p.setString(7, r.waferId());
-            p.setString(8, w.lot());
-            if (w.measuredAt() == null) {
-                p.setNull(9, Types.BIGINT);
-                p.setNull(10, Types.VARCHAR);
-            } else {
-                p.setLong(9, w.measuredAt().toEpochMilli());
-                p.setString(10, w.measuredAt().toString());
-            }
-            p.setLong(11, clock.instant().toEpochMilli());
-            p.setString(12, r.profile());
-            p.setString(13, r.status().key());
-            p.setString(14, r.grade());
-            p.setString(15, r.defectId());
-            p.setString(16, r.error());
-            p.executeUpdate();
+            p.setString(2, e.getKey());
+            setDouble(p, 3, e.getValue() == null ? Double.NaN : e.getValue());
+            p.addBatch();
         }
-        try (PreparedStatement p = connection.prepareStatement(
-                "INSERT INTO wafer_figures (result_key, figure, value) VALUES (?, ?, ?)")) {
-            for (Map.Entry<String, Double> e : r.figures().entrySet()) {
-                p.setString(1, key);
-                p.setString(2, e.getKey());
-                setDouble(p, 3, e.getValue() == null ? Double.NaN : e.getValue());
-                p.addBatch();
-            }
-            p.executeBatch();
+        p = st.failedRule;
+        for (int i = 0; i < r.failed().size(); i++) {
+            p.setString(1, key);
+            p.setInt(2, i);
+            p.setString(3, r.failed().get(i));
+            p.addBatch();
         }
-        try (PreparedStatement p = connection.prepareStatement(
-                "INSERT INTO wafer_failed_rules (result_key, position, rule) VALUES (?, ?, ?)")) {
-            for (int i = 0; i < r.failed().size(); i++) {
-                p.setString(1, key);
-                p.setInt(2, i);
-                p.setString(3, r.failed().get(i));
-                p.addBatch();
-            }
-            p.executeBatch();
+        p = st.attribute;
+        for (Map.Entry<String, String> e : w.attributes().entrySet()) {
+            p.setString(1, key);
+            p.setString(2, e.getKey());
+            p.setString(3, e.getValue());
+            p.addBatch();
         }
-        try (PreparedStatement p = connection.prepareStatement(
-                "INSERT INTO wafer_attributes (result_key, name, value) VALUES (?, ?, ?)")) {
-            for (Map.Entry<String, String> e : w.attributes().entrySet()) {
-                p.setString(1, key);
-                p.setString(2, e.getKey());
-                p.setString(3, e.getValue());
-                p.addBatch();
-            }
-            p.executeBatch();
-        }
-        try (PreparedStatement p = connection.prepareStatement("INSERT INTO wafer_regions (result_key, region, "
-                + String.join(", ", REGION_VALUES) + ") VALUES (?, ?" + ", ?".repeat(REGION_VALUES.size()) + ")")) {
-            for (Map<String, String> row : w.regionRows()) {
-                p.setString(1, key);
-                p.setInt(2, Integer.parseInt(row.get("region")));
-                for (int i = 0; i < REGION_VALUES.size(); i++) {
-                    String c = REGION_VALUES.get(i);
-                    String v = row.getOrDefault(c, "");
-                    if (c.equals("centroid_inside")) {
-                        p.setInt(3 + i, Boolean.parseBoolean(v) ? 1 : 0);
-                    } else {
-                        setDouble(p, 3 + i, number(v));
-                    }
+        p = st.region;
+        for (Map<String, String> row : w.regionRows()) {
+            p.setString(1, key);
+            p.setInt(2, Integer.parseInt(row.get("region")));
+            for (int i = 0; i < REGION_VALUES.size(); i++) {
+                String c = REGION_VALUES.get(i);
+                String v = row.getOrDefault(c, "");
+                if (c.equals("centroid_inside")) {
+                    p.setInt(3 + i, Boolean.parseBoolean(v) ? 1 : 0);
+                } else {
+                    setDouble(p, 3 + i, number(v));
                 }
-                p.addBatch();
             }
-            p.executeBatch();
+            p.addBatch();
         }
         Footprint f = w.footprint();
         if (f != null) {
-            try (PreparedStatement p = connection.prepareStatement("INSERT INTO wafer_footprints (result_key, family,"
-                    + " pitch_mm, min_i, min_j, width, height, covered_cells, covered, flagged_cells)"
-                    + " VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)")) {
-                p.setString(1, key);
-                p.setString(2, f.family());
-                p.setDouble(3, f.pitchMm());
-                p.setInt(4, f.minI());
-                p.setInt(5, f.minJ());
-                p.setInt(6, f.width());
-                p.setInt(7, f.height());
-                p.setInt(8, f.covered().cardinality());
-                p.setString(9, Base64.getEncoder().encodeToString(f.covered().toByteArray()));
-                p.setInt(10, f.flagged().cardinality());
-                p.executeUpdate();
-            }
-            try (PreparedStatement p = connection.prepareStatement(
-                    "INSERT INTO footprint_cells (result_key, cell_i, cell_j) VALUES (?, ?, ?)")) {
-                BitSet flagged = f.flagged();
-                for (int b = flagged.nextSetBit(0); b >= 0; b = flagged.nextSetBit(b + 1)) {
+            p = st.footprint;
+            p.setString(1, key);
+            p.setString(2, f.family());
+            p.setDouble(3, f.pitchMm());
+            p.setInt(4, f.minI());
+            p.setInt(5, f.minJ());
+            p.setInt(6, f.width());
+            p.setInt(7, f.height());
+            p.setInt(8, f.covered().cardinality());
+            p.setString(9, Base64.getEncoder().encodeToString(f.covered().toByteArray()));
+            p.setInt(10, f.flagged().cardinality());
+            p.addBatch();
+            p = st.cell;
+            BitSet flagged = f.flagged();
+            for (int b = flagged.nextSetBit(0); b >= 0; b = flagged.nextSetBit(b + 1)) {
+                int i = f.minI() + b % f.width(); // cells are stored row by row from (minI, minJ)
+                int j = f.minJ() + b / f.width();
+                if (st.cells != null) {
+                    st.cells.append(key).append('\t').append(i).append('\t').append(j).append('\n');
+                } else {
                     p.setString(1, key);
-                    p.setInt(2, f.minI() + b % f.width()); // cells are stored row by row from (minI, minJ)
-                    p.setInt(3, f.minJ() + b / f.width());
+                    p.setInt(2, i);
+                    p.setInt(3, j);
                     p.addBatch();
                 }
-                p.executeBatch();
             }
         }
     }
@@ -804,8 +934,15 @@ public final class ResultsStore implements AutoCloseable {
     @Override
     public synchronized void close() {
         try {
-            if (connection != null) {
-                connection.close();
+            try {
+                if (statements != null) {
+                    statements.close();
+                    statements = null;
+                }
+            } finally {
+                if (connection != null) {
+                    connection.close();
+                }
             }
         } catch (SQLException e) {
             throw new StoreException("store " + name + ": could not be closed: " + oneLine(e), e);
