@@ -3,6 +3,7 @@ package trapmap.cli;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.Callable;
@@ -104,6 +105,9 @@ final class CompareCommand implements Callable<Integer> {
         }
         if (!(maxRotationDeg >= 0 && maxRotationDeg <= 45)) {
             throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + maxRotationDeg + ")");
+        }
+        if (output != null) {
+            MapInput.refuseOverwriting(output, List.of(output), List.of(beforeFile, afterFile));
         }
         WaferMap[] read = MapInput.firstPages(beforeFile, afterFile);
         WaferMap before = read[0];

@@ -174,4 +174,22 @@ class CompareCommandTest {
             assertThat(r.errLines()).hasSize(1).first().asString().contains(bad).doesNotContain("internal error");
         }
     }
+
+    @Test
+    void anOutputOntoEitherInputOrItsSidecarIsRefusedAndTheInputsKept() throws Exception {
+        Path before = write("before", texture(5));
+        Path after = write("after", texture(6));
+        java.nio.file.Files.writeString(dir.resolve("after.json"), "{\"wafer_id\": \"W01\"}");
+        byte[] beforeBytes = java.nio.file.Files.readAllBytes(before);
+        byte[] afterBytes = java.nio.file.Files.readAllBytes(after);
+        for (Path target : new Path[] {before, after, dir.resolve("after.json")}) {
+            Cli.Run r = Cli.run("compare", before.toString(), after.toString(), "-o", target.toString());
+            assertThat(r.code()).as("%s", target).isEqualTo(2);
+            assertThat(r.errLines()).hasSize(1);
+            assertThat(r.err()).startsWith("trapmap compare: --output " + target + " would overwrite " + target)
+                    .contains("input files are never modified");
+        }
+        assertThat(java.nio.file.Files.readAllBytes(before)).isEqualTo(beforeBytes);
+        assertThat(java.nio.file.Files.readAllBytes(after)).isEqualTo(afterBytes);
+    }
 }
