@@ -80,6 +80,13 @@ final class IronMapCommand implements Callable<Integer> {
         if (!(maxRotationDeg >= 0 && maxRotationDeg <= 45)) {
             throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + maxRotationDeg + ")");
         }
+        List<Path> inputs = List.of(febFile, feiFile);
+        if (output != null) {
+            MapInput.refuseOverwriting("--output", output, List.of(output), inputs);
+        }
+        if (statusOutput != null) {
+            MapInput.refuseOverwriting("--status-output", statusOutput, List.of(statusOutput), inputs);
+        }
         WaferMap feb = MapInput.page(febFile, 1);
         WaferMap fei = MapInput.page(feiFile, 1);
         feb = feb.withConditions(conditions.applyTo(feb.conditions()));

@@ -106,11 +106,16 @@ final class MapInput {
      * @throws InputException naming the output, the input it would replace and the file written there
      */
     static void refuseOverwriting(Path output, List<Path> written, List<Path> inputs) {
+        refuseOverwriting("--output", output, written, inputs);
+    }
+
+    /** {@link #refuseOverwriting(Path, List, List)} for the output of the option {@code option}. */
+    static void refuseOverwriting(String option, Path output, List<Path> written, List<Path> inputs) {
         for (Path w : written) {
             for (Path in : inputs) {
                 for (Path read : List.of(in, MapFiles.sidecarOf(in))) {
                     if (same(w, read)) {
-                        throw new InputException("--output " + output + " would overwrite " + read
+                        throw new InputException(option + " " + output + " would overwrite " + read
                                 + (w.equals(output) ? "" : " (the command writes " + w.getFileName() + ")")
                                 + "; input files are never modified: choose another name");
                     }
