@@ -87,6 +87,14 @@ final class IronMapCommand implements Callable<Integer> {
         if (statusOutput != null) {
             MapInput.refuseOverwriting("--status-output", statusOutput, List.of(statusOutput), inputs);
         }
+        // both outputs are checked before the work, so that a bad second one leaves no first one behind
+        MapInput.requireOutputType("--output", output);
+        MapInput.requireOutputType("--status-output", statusOutput);
+        if (output != null && statusOutput != null
+                && output.toAbsolutePath().normalize().equals(statusOutput.toAbsolutePath().normalize())) {
+            throw new InputException("--status-output " + statusOutput + " is also --output: the status map would"
+                    + " replace the iron map; give the two maps different names");
+        }
         WaferMap feb = MapInput.page(febFile, 1);
         WaferMap fei = MapInput.page(feiFile, 1);
         feb = feb.withConditions(conditions.applyTo(feb.conditions()));

@@ -136,6 +136,17 @@ final class MapInput {
         }
     }
 
+    /**
+     * Refuses an output {@code file} of {@code option} whose extension names no map format (null: none given).
+     *
+     * @throws InputException naming the option, the file and the formats
+     */
+    static void requireOutputType(String option, Path file) {
+        if (file != null && MapFiles.formatOf(file) == null) {
+            throw new InputException(option + " " + file + ": unsupported output type; use .tif, .tiff, .csv or .png");
+        }
+    }
+
     /** Writes {@code map} to {@code file} (format from the extension); wraps failures in one-line messages. */
     static void write(WaferMap map, Path file) {
         if (MapFiles.formatOf(file) == null) {

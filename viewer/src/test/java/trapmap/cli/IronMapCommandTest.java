@@ -103,4 +103,22 @@ class IronMapCommandTest {
         assertThat(java.nio.file.Files.readAllBytes(feb)).isEqualTo(febBytes);
         assertThat(java.nio.file.Files.readAllBytes(fei)).isEqualTo(feiBytes);
     }
+
+    @Test
+    void badOutputsAreRefusedBeforeAnyFileIsWritten() throws Exception {
+        Path iron = dir.resolve("fe.tif");
+        Cli.Run r = Cli.run("iron", FEB, FEI, "-o", iron.toString(), "--status-output",
+                dir.resolve("status.json").toString());
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.errLines()).hasSize(1);
+        assertThat(r.err()).startsWith("trapmap iron: --status-output " + dir.resolve("status.json")
+                + ": unsupported output type");
+        assertThat(iron).doesNotExist();
+
+        r = Cli.run("iron", FEB, FEI, "-o", iron.toString(), "--status-output", iron.toString());
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.errLines()).hasSize(1);
+        assertThat(r.err()).startsWith("trapmap iron: --status-output " + iron + " is also --output");
+        assertThat(iron).doesNotExist();
+    }
 }
