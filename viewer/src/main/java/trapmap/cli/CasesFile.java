@@ -191,8 +191,7 @@ final class CasesFile {
             }
             tmp = null;
         } catch (IOException e) {
-            throw new InputException("--out " + out + ": cannot write it (" + Flags.oneLine(String.valueOf(
-                    e.getMessage())) + ")", e);
+            throw new InputException("--out " + out + ": cannot write it (" + MapInput.writeFailure(e) + ")", e);
         } finally {
             if (tmp != null) {
                 try {

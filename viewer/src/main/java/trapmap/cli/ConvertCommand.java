@@ -167,7 +167,7 @@ final class ConvertCommand implements Callable<Integer> {
             } catch (MapFormatException e) {
                 throw e; // the input's fault, found while its bands were read
             } catch (java.io.IOException e) {
-                throw new MapInput.OutputException(output + ": cannot write: " + Flags.oneLine(e.getMessage()), e);
+                throw MapInput.cannotWrite(output, e);
             }
             report(summary[0].statusCounts(), summary[0].warnings(), d.id(), conversion.output(),
                     summary[0].floorNote());

@@ -76,7 +76,7 @@ final class DemoCommand implements Callable<Integer> {
             written = history ? HistoryScenario.write(out) : DemoScenario.write(out);
         } catch (IOException e) {
             throw new MapInput.OutputException("cannot write the demonstration " + (history ? "history" : "set")
-                    + " to " + out + ": " + e.getMessage(), e);
+                    + " to " + out + ": " + MapInput.writeFailure(e), e);
         }
         PrintWriter pw = spec.commandLine().getOut();
         long total = 0;
