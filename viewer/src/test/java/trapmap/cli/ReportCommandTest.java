@@ -97,4 +97,16 @@ class ReportCommandTest {
         assertThat(d.err()).contains("--rules");
         assertThat(pdf).doesNotExist();
     }
+
+    @Test
+    void aReportThatCannotBeWrittenSaysWhyWithoutAnInternalError() throws Exception {
+        Path blocked = dir.resolve("not-a-folder");
+        java.nio.file.Files.writeString(blocked, "x");
+        Path pdf = blocked.resolve("w01.pdf");
+        Cli.Run r = Cli.run("report", DEMO.resolve("LOT-A01-W01.tif").toString(), "--rules", RULES.toString(),
+                "-o", pdf.toString());
+        assertThat(r.code()).isEqualTo(Exit.INTERNAL_ERROR);
+        assertThat(r.errLines()).containsExactly("trapmap report: " + pdf + ": cannot write: " + blocked
+                + " is a file, not a folder");
+    }
 }
