@@ -101,7 +101,7 @@ final class RecurrenceCommand implements Callable<Integer> {
                     + RunManifest.FILE_NAME + " or " + BatchInspection.CSV_NAME + "); give another folder");
         }
         StoreRecurrence.Outcome outcome;
-        try (ResultsStore s = ResultsStore.open(query.store)) {
+        try (ResultsStore s = ResultsStore.open(query.existingStore())) {
             outcome = StoreRecurrence.analyse(s, filter, by, cellMm);
         } catch (StoreException e) {
             throw new InputException("--store " + Flags.oneLine(e.getMessage()));

@@ -35,6 +35,28 @@ final class StoreQueryOptions {
                     + " hold.")
     List<String> where = new ArrayList<>();
 
+    /**
+     * The store to read, refused when it is a SQLite file that does not exist: opening one would make an empty store
+     * there (a mistyped name would leave a new file behind and answer "holds no wafer").
+     */
+    String existingStore() {
+        String s = store.trim();
+        if (s.startsWith("jdbc:")) {
+            s = s.substring("jdbc:".length());
+        }
+        if (s.startsWith("postgresql://")) {
+            return store;
+        }
+        if (s.startsWith("sqlite:")) {
+            s = s.substring("sqlite:".length());
+        }
+        if (!s.isEmpty() && !java.nio.file.Files.exists(java.nio.file.Path.of(s))) {
+            throw new InputException("--store " + store + ": no such results store file (a SQLite file that"
+                    + " 'trapmap inspect --store' writes)");
+        }
+        return store;
+    }
+
     /** The query of the options ({@link StoreFilter#parse}, the reading the history window shares). */
     StoreFilter filter() {
         try {

@@ -102,7 +102,7 @@ final class TrendCommand implements Callable<Integer> {
                 : Baseline.first(baselineCount == null ? Baseline.DEFAULT_COUNT : baselineCount);
         StoreTrend.Request request = new StoreTrend.Request(figure, by, query.filter(), baseline);
         StoreTrend.Outcome outcome;
-        try (ResultsStore s = ResultsStore.open(query.store)) {
+        try (ResultsStore s = ResultsStore.open(query.existingStore())) {
             outcome = StoreTrend.analyse(s, request);
         } catch (StoreException e) {
             throw new InputException("--store " + Flags.oneLine(e.getMessage()));

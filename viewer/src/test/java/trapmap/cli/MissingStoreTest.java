@@ -1,0 +1,35 @@
+package trapmap.cli;
+
+import static org.assertj.core.api.Assertions.assertThat;
+
+import java.nio.file.Path;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+/** The commands that read a results store refuse a SQLite file that does not exist and make none there. */
+class MissingStoreTest {
+    @TempDir
+    Path dir;
+
+    @Test
+    void trendRefusesAMissingStoreAndMakesNoFile() {
+        Path store = dir.resolve("typo.sqlite");
+        Cli.Run r = Cli.run("trend", "--store", store.toString(), "--figure", "trap_density_p95_cm3", "-o",
+                dir.resolve("t.csv").toString());
+        assertThat(r.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(r.errLines()).containsExactly("trapmap trend: --store " + store
+                + ": no such results store file (a SQLite file that 'trapmap inspect --store' writes)");
+        assertThat(store).doesNotExist();
+        assertThat(dir.resolve("t.csv")).doesNotExist();
+    }
+
+    @Test
+    void recurrenceRefusesAMissingStoreAndMakesNoFile() {
+        Path store = dir.resolve("typo.sqlite");
+        Cli.Run r = Cli.run("recurrence", "--store", "sqlite:" + store, "-o", dir.resolve("maps").toString());
+        assertThat(r.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(r.errLines()).hasSize(1).first().asString().startsWith("trapmap recurrence: --store sqlite:"
+                + store + ": no such results store file");
+        assertThat(store).doesNotExist();
+    }
+}
