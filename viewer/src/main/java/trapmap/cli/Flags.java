@@ -156,6 +156,20 @@ final class Flags {
         return flag + ": " + msg;
     }
 
+    /**
+     * A results store's refusal as the one line after {@code --store}: {@code NAME: problem}, without the leading
+     * "store " of the store's own message (which would read "--store store NAME") and without the database driver's
+     * appended block of dashes, SQL state and error code, which repeats the problem.
+     */
+    static String storeProblem(String message) {
+        String m = oneLine(message);
+        if (m.startsWith("store ")) {
+            m = m.substring("store ".length());
+        }
+        int dashes = m.indexOf(" -----");
+        return dashes > 0 ? m.substring(0, dashes) : m;
+    }
+
     /** {@code s} on one line. */
     static String oneLine(String s) {
         return s == null ? "" : s.replaceAll("\\s*\\R\\s*", " ").trim();

@@ -104,7 +104,7 @@ final class RecurrenceCommand implements Callable<Integer> {
         try (ResultsStore s = ResultsStore.open(query.existingStore())) {
             outcome = StoreRecurrence.analyse(s, filter, by, cellMm);
         } catch (StoreException e) {
-            throw new InputException("--store " + Flags.oneLine(e.getMessage()));
+            throw new InputException("--store " + Flags.storeProblem(e.getMessage()));
         } catch (InvalidValueException e) {
             throw new InputException("--store " + Flags.oneLine(e.getMessage()));
         }

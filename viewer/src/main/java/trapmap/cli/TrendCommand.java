@@ -105,7 +105,7 @@ final class TrendCommand implements Callable<Integer> {
         try (ResultsStore s = ResultsStore.open(query.existingStore())) {
             outcome = StoreTrend.analyse(s, request);
         } catch (StoreException e) {
-            throw new InputException("--store " + Flags.oneLine(e.getMessage()));
+            throw new InputException("--store " + Flags.storeProblem(e.getMessage()));
         } catch (InvalidValueException e) {
             String flag = switch (e.field()) {
                 case "store" -> "--store";

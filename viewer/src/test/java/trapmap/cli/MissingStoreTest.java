@@ -32,4 +32,29 @@ class MissingStoreTest {
                 + store + ": no such results store file");
         assertThat(store).doesNotExist();
     }
+
+    @Test
+    void aFileThatIsNoStoreIsNamedOnceInOneShortLine() throws Exception {
+        Path notAStore = dir.resolve("results.csv");
+        java.nio.file.Files.writeString(notAStore, "file,wafer_id\nw.tif,W1\n".repeat(200));
+        for (String command : new String[] {"trend", "recurrence"}) {
+            Cli.Run r = command.equals("trend")
+                    ? Cli.run("trend", "--store", notAStore.toString(), "--figure", "trap_density_p95_cm3", "-o",
+                    dir.resolve("t.csv").toString())
+                    : Cli.run("recurrence", "--store", notAStore.toString(), "-o", dir.resolve("maps").toString());
+            assertThat(r.code()).as(command).isEqualTo(Exit.INVALID_INPUT);
+            assertThat(r.errLines()).as(command).hasSize(1);
+            assertThat(r.err()).as(command).startsWith("trapmap " + command + ": --store " + notAStore + ": ")
+                    .doesNotContain("--store store").doesNotContain("-----").doesNotContain("Error Code");
+        }
+    }
+
+    @Test
+    void theDriversAppendedBlockIsLeftOut() {
+        assertThat(Flags.storeProblem("store a.db: cannot be opened or its schema made: Unable to obtain connection"
+                + " from database: [SQLITE_NOTADB] not a database\n-------\nSQL State  : null\nError Code : 26"))
+                .isEqualTo("a.db: cannot be opened or its schema made: Unable to obtain connection from database:"
+                        + " [SQLITE_NOTADB] not a database");
+        assertThat(Flags.storeProblem("holds no wafer")).isEqualTo("holds no wafer");
+    }
 }
