@@ -119,15 +119,23 @@ final class TrendCommand implements Callable<Integer> {
         TrendReport.Caption caption = new TrendReport.Caption(figure, subtitle);
         boolean drawn = true;
         if (ext.equals("csv")) {
-            TrendTables.write(out, r);
+            try {
+                TrendTables.write(out, r);
+            } catch (IOException e) {
+                throw MapInput.cannotWrite(out, e);
+            }
         } else {
             Pictures pictures = Pictures.start();
             String name = out.getFileName().toString();
             drawn = pictures.run(name, () -> {
-                if (ext.equals("pdf")) {
-                    TrendReport.writePdf(out, r, caption);
-                } else {
-                    TrendReport.writePng(out, r, caption);
+                try {
+                    if (ext.equals("pdf")) {
+                        TrendReport.writePdf(out, r, caption);
+                    } else {
+                        TrendReport.writePng(out, r, caption);
+                    }
+                } catch (IOException e) { // drawn: only the file could not be written
+                    throw MapInput.cannotWrite(out, e);
                 }
             });
             if (!drawn) {

@@ -204,4 +204,17 @@ class TrendCommandTest {
                     .getRecords());
         }
     }
+
+    @Test
+    void anOutputThatCannotBeWrittenSaysWhyWithoutAnInternalError() throws Exception {
+        Path blocked = dir.resolve("not-a-folder");
+        java.nio.file.Files.writeString(blocked, "x");
+        for (String name : new String[] {"trend.csv", "trend.png"}) {
+            Path out = blocked.resolve(name);
+            Cli.Run run = Cli.run("trend", "--store", store.toString(), "--figure", FIGURE, "-o", out.toString());
+            assertThat(run.code()).as(name).isEqualTo(Exit.INTERNAL_ERROR);
+            assertThat(run.errLines()).as(name).containsExactly("trapmap trend: " + out + ": cannot write: " + blocked
+                    + " is a file, not a folder");
+        }
+    }
 }
