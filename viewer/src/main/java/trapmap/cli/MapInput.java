@@ -168,7 +168,7 @@ final class MapInput {
 
     /**
      * Why writing failed, in a few words for the one-line message: "permission denied", "Read-only file system",
-     * "/x/y is a file, not a folder", the system's reason, or the message; the hidden temporary file that an atomic
+     * "/x/y exists and is not a folder", the system's reason, or the message; the hidden temporary file that an atomic
      * write was making is never named, since the user did not choose it.
      */
     static String writeFailure(IOException e) {
@@ -178,7 +178,7 @@ final class MapInput {
                 return "permission denied" + (file.isEmpty() ? "" : " (" + file + ")");
             }
             if (e instanceof java.nio.file.FileAlreadyExistsException && !file.isEmpty()) {
-                return file + " is a file, not a folder";
+                return file + " exists and is not a folder";
             }
             if (e instanceof java.nio.file.NoSuchFileException) {
                 return "no such file or folder" + (file.isEmpty() ? "" : " (" + file + ")");

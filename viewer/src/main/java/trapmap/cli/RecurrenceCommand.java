@@ -123,8 +123,7 @@ final class RecurrenceCommand implements Callable<Integer> {
             return Exit.OUTPUT_NOT_WRITTEN;
         } catch (IOException e) {
             PrintWriter err = spec.commandLine().getErr();
-            err.println(spec.qualifiedName() + ": -o " + out + ": cannot be made: " + Flags.oneLine(String.valueOf(
-                    e.getMessage())));
+            err.println(spec.qualifiedName() + ": -o " + out + ": cannot be made: " + MapInput.writeFailure(e));
             err.flush();
             return Exit.OUTPUT_NOT_WRITTEN;
         }

@@ -32,7 +32,7 @@ class OutputFailureMessagesTest {
         assertThat(MapInput.writeFailure(new FileSystemException("/ro/.a.tif.77.tmp", null, "Read-only file system")))
                 .isEqualTo("Read-only file system");
         assertThat(MapInput.writeFailure(new java.nio.file.FileAlreadyExistsException("/data/x")))
-                .isEqualTo("/data/x is a file, not a folder");
+                .isEqualTo("/data/x exists and is not a folder");
         assertThat(MapInput.writeFailure(new java.io.IOException("No space left on device")))
                 .isEqualTo("No space left on device");
     }
@@ -47,7 +47,7 @@ class OutputFailureMessagesTest {
         Cli.Run r = Cli.run("convert", in.toString(), "--defect", "fe-i", "-o", out.toString());
         assertThat(r.code()).isEqualTo(3);
         assertThat(r.errLines()).containsExactly("trapmap convert: " + out + ": cannot write: " + blocked
-                + " is a file, not a folder");
+                + " exists and is not a folder");
     }
 
     @Test
@@ -70,6 +70,6 @@ class OutputFailureMessagesTest {
         assertThat(r.code()).isEqualTo(3);
         assertThat(r.errLines()).hasSize(1);
         assertThat(r.err()).startsWith("trapmap demo: cannot write the demonstration set to " + out + ": ")
-                .containsPattern("Not a directory|is a file, not a folder").doesNotContain(".tmp");
+                .containsPattern("Not a directory|exists and is not a folder").doesNotContain(".tmp");
     }
 }

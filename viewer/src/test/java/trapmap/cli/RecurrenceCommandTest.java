@@ -145,4 +145,15 @@ class RecurrenceCommandTest {
         assertThat(r.errLines()).hasSize(1);
         return r.errLines().get(0);
     }
+
+    @Test
+    void anOutputFolderThatCannotBeMadeSaysWhy() throws Exception {
+        Path dangling = dir.resolve("dangling");
+        java.nio.file.Files.createSymbolicLink(dangling, dir.resolve("removed-folder"));
+        Path out = dangling.resolve("maps");
+        Cli.Run r = Cli.run("recurrence", "--store", store.toString(), "-o", out.toString());
+        assertThat(r.code()).isEqualTo(Exit.OUTPUT_NOT_WRITTEN);
+        assertThat(r.errLines()).containsExactly("trapmap recurrence: -o " + out + ": cannot be made: " + dangling
+                + " exists and is not a folder");
+    }
 }

@@ -107,6 +107,6 @@ class ReportCommandTest {
                 "-o", pdf.toString());
         assertThat(r.code()).isEqualTo(Exit.INTERNAL_ERROR);
         assertThat(r.errLines()).containsExactly("trapmap report: " + pdf + ": cannot write: " + blocked
-                + " is a file, not a folder");
+                + " exists and is not a folder");
     }
 }

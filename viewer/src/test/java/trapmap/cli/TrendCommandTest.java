@@ -214,7 +214,7 @@ class TrendCommandTest {
             Cli.Run run = Cli.run("trend", "--store", store.toString(), "--figure", FIGURE, "-o", out.toString());
             assertThat(run.code()).as(name).isEqualTo(Exit.INTERNAL_ERROR);
             assertThat(run.errLines()).as(name).containsExactly("trapmap trend: " + out + ": cannot write: " + blocked
-                    + " is a file, not a folder");
+                    + " exists and is not a folder");
         }
     }
 }
