@@ -36,23 +36,15 @@ final class StoreQueryOptions {
     List<String> where = new ArrayList<>();
 
     /**
-     * The store to read, refused when it is a SQLite file that does not exist: opening one would make an empty store
-     * there (a mistyped name would leave a new file behind and answer "holds no wafer").
+     * The store to read, refused ({@link trapmap.viewer.model.StoreHistory#address}, as the history window refuses it)
+     * when it is a SQLite file that does not exist or a folder: opening one would make an empty store there (a
+     * mistyped name would leave a new file behind and answer "holds no wafer").
      */
     String existingStore() {
-        String s = store.trim();
-        if (s.startsWith("jdbc:")) {
-            s = s.substring("jdbc:".length());
-        }
-        if (s.startsWith("postgresql://")) {
-            return store;
-        }
-        if (s.startsWith("sqlite:")) {
-            s = s.substring("sqlite:".length());
-        }
-        if (!s.isEmpty() && !java.nio.file.Files.exists(java.nio.file.Path.of(s))) {
-            throw new InputException("--store " + store + ": no such results store file (a SQLite file that"
-                    + " 'trapmap inspect --store' writes)");
+        try {
+            trapmap.viewer.model.StoreHistory.address(store);
+        } catch (InvalidValueException e) {
+            throw new InputException("--store " + Flags.storeProblem(e.getMessage()), e);
         }
         return store;
     }

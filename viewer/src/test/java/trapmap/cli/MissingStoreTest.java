@@ -17,8 +17,9 @@ class MissingStoreTest {
         Cli.Run r = Cli.run("trend", "--store", store.toString(), "--figure", "trap_density_p95_cm3", "-o",
                 dir.resolve("t.csv").toString());
         assertThat(r.code()).isEqualTo(Exit.INVALID_INPUT);
-        assertThat(r.errLines()).containsExactly("trapmap trend: --store " + store
-                + ": no such results store file (a SQLite file that 'trapmap inspect --store' writes)");
+        assertThat(r.errLines()).containsExactly("trapmap trend: --store " + store.toAbsolutePath().normalize()
+                + " does not exist; give a SQLite file made by 'trapmap inspect --store' or"
+                + " postgresql://host[:port]/database");
         assertThat(store).doesNotExist();
         assertThat(dir.resolve("t.csv")).doesNotExist();
     }
@@ -28,8 +29,8 @@ class MissingStoreTest {
         Path store = dir.resolve("typo.sqlite");
         Cli.Run r = Cli.run("recurrence", "--store", "sqlite:" + store, "-o", dir.resolve("maps").toString());
         assertThat(r.code()).isEqualTo(Exit.INVALID_INPUT);
-        assertThat(r.errLines()).hasSize(1).first().asString().startsWith("trapmap recurrence: --store sqlite:"
-                + store + ": no such results store file");
+        assertThat(r.errLines()).hasSize(1).first().asString().startsWith("trapmap recurrence: --store "
+                + store.toAbsolutePath().normalize() + " does not exist");
         assertThat(store).doesNotExist();
     }
 
