@@ -103,6 +103,11 @@ final class TrendCommand implements Callable<Integer> {
         StoreTrend.Request request = new StoreTrend.Request(figure, by, query.filter(), baseline);
         StoreTrend.Outcome outcome;
         try (ResultsStore s = ResultsStore.open(query.existingStore())) {
+            List<String> figures = s.figures();
+            if (!figures.isEmpty() && !figures.contains(figure)) {
+                throw new InputException("--figure " + figure + " is not a figure of the store; it holds "
+                        + String.join(", ", figures));
+            }
             outcome = StoreTrend.analyse(s, request);
         } catch (StoreException e) {
             throw new InputException("--store " + Flags.storeProblem(e.getMessage()));

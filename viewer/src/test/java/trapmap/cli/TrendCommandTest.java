@@ -217,4 +217,16 @@ class TrendCommandTest {
                     + " exists and is not a folder");
         }
     }
+
+    @Test
+    void aFigureTheStoreDoesNotHoldIsNamedWithTheFiguresItHolds() {
+        Path csv = dir.resolve("typo.csv");
+        Cli.Run run = Cli.run("trend", "--store", store.toString(), "--figure", "trap_density_p5O_cm3", "-o",
+                csv.toString());
+        assertThat(run.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(run.errLines()).hasSize(1);
+        assertThat(run.err()).startsWith("trapmap trend: --figure trap_density_p5O_cm3 is not a figure of the store;"
+                + " it holds ").contains(FIGURE).doesNotContain("baseline");
+        assertThat(csv).doesNotExist();
+    }
 }
