@@ -98,6 +98,10 @@ final class TrendCommand implements Callable<Integer> {
         if (baselineCount != null && baselineUntil != null) {
             throw new InputException("--baseline and --baseline-until exclude each other: give one");
         }
+        if (baselineCount != null && baselineCount < 2) {
+            throw new InputException("--baseline must be at least 2 wafers, the fewest that give a spread (got "
+                    + baselineCount + ")");
+        }
         Baseline baseline = baselineUntil != null ? Baseline.before(time("--baseline-until", baselineUntil))
                 : Baseline.first(baselineCount == null ? Baseline.DEFAULT_COUNT : baselineCount);
         StoreTrend.Request request = new StoreTrend.Request(figure, by, query.filter(), baseline);

@@ -229,4 +229,15 @@ class TrendCommandTest {
                 + " it holds ").contains(FIGURE).doesNotContain("baseline");
         assertThat(csv).doesNotExist();
     }
+
+    @Test
+    void aBaselineOfFewerThanTwoWafersNamesTheOption() {
+        for (String n : new String[] {"0", "1", "-3"}) {
+            Cli.Run run = Cli.run("trend", "--store", store.toString(), "--figure", FIGURE, "--baseline", n, "-o",
+                    dir.resolve("b.csv").toString());
+            assertThat(run.code()).as(n).isEqualTo(Exit.INVALID_INPUT);
+            assertThat(run.errLines()).as(n).containsExactly("trapmap trend: --baseline must be at least 2 wafers,"
+                    + " the fewest that give a spread (got " + n + ")");
+        }
+    }
 }
