@@ -102,6 +102,7 @@ final class RecurrenceCommand implements Callable<Integer> {
         }
         StoreRecurrence.Outcome outcome;
         try (ResultsStore s = ResultsStore.open(query.existingStore())) {
+            StoreQueryOptions.requireKnownGrouping(s, by);
             outcome = StoreRecurrence.analyse(s, filter, by, cellMm);
         } catch (StoreException e) {
             throw new InputException("--store " + Flags.storeProblem(e.getMessage()));

@@ -49,6 +49,25 @@ final class StoreQueryOptions {
         return store;
     }
 
+    /**
+     * Refuses a {@code --by} that names a sidecar fact none of the stored wafers has: every wafer would fall into the
+     * one group of wafers without it, charted or mapped as if asked for.
+     *
+     * @param by the grouping given (null: none)
+     */
+    static void requireKnownGrouping(trapmap.store.ResultsStore store, String by) {
+        if (by == null || !trapmap.store.ResultsStore.groupsByAttribute(by)) {
+            return;
+        }
+        List<String> facts = new ArrayList<>(store.attributeNames());
+        facts.removeAll(List.of("lot", "measured_at")); // the lot is a grouping of its own, the time the axis
+        if (!facts.contains(by.trim())) {
+            throw new InputException("--by " + by + " is neither lot, day, week, none nor a sidecar fact of the stored"
+                    + " wafers" + (facts.isEmpty() ? " (they have none)" : " (their facts: " + String.join(", ", facts)
+                    + ")"));
+        }
+    }
+
     /** The query of the options ({@link StoreFilter#parse}, the reading the history window shares). */
     StoreFilter filter() {
         try {

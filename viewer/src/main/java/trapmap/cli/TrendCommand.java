@@ -112,6 +112,7 @@ final class TrendCommand implements Callable<Integer> {
                 throw new InputException("--figure " + figure + " is not a figure of the store; it holds "
                         + String.join(", ", figures));
             }
+            StoreQueryOptions.requireKnownGrouping(s, by);
             outcome = StoreTrend.analyse(s, request);
         } catch (StoreException e) {
             throw new InputException("--store " + Flags.storeProblem(e.getMessage()));

@@ -240,4 +240,15 @@ class TrendCommandTest {
                     + " the fewest that give a spread (got " + n + ")");
         }
     }
+
+    @Test
+    void aGroupingByAFactNoWaferHasIsRefusedNamingTheFacts() {
+        Path csv = dir.resolve("by-typo.csv");
+        Cli.Run run = Cli.run("trend", "--store", store.toString(), "--figure", FIGURE, "--by", "furnace_tub", "-o",
+                csv.toString());
+        assertThat(run.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(run.errLines()).containsExactly("trapmap trend: --by furnace_tub is neither lot, day, week, none nor"
+                + " a sidecar fact of the stored wafers (their facts: furnace_tube)");
+        assertThat(csv).doesNotExist();
+    }
 }
