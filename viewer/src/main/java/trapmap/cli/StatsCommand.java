@@ -70,12 +70,12 @@ final class StatsCommand implements Callable<Integer> {
     Double threshold;
 
     @Option(names = "--flag", paramLabel = "above|below",
-            description = "Which side of the threshold is flagged. Default: below for lifetimes, above for"
-                    + " densities.")
+            description = "Which side of the threshold is flagged; needs --threshold. Default: below for lifetimes,"
+                    + " above for densities.")
     String flag;
 
     @Option(names = "--min-area-mm2", paramLabel = "<mm²>", defaultValue = "0",
-            description = "Smallest flagged region reported, mm². Default: 0.")
+            description = "Smallest flagged region reported, mm²; needs --threshold. Default: 0.")
     double minAreaMm2;
 
     @Option(names = "--edge-exclusion-mm", paramLabel = "<mm>", defaultValue = "0",
@@ -107,6 +107,14 @@ final class StatsCommand implements Callable<Integer> {
         }
         if (threshold != null && !Double.isFinite(threshold)) {
             throw new InputException("--threshold must be a finite number in the map's unit");
+        }
+        if (threshold == null) { // without a threshold there are no flagged regions for them to shape
+            for (String option : new String[] {"--flag", "--min-area-mm2"}) {
+                if (spec.commandLine().getParseResult().hasMatchedOption(option)) {
+                    throw new InputException(option + " belongs to --threshold (the flagged regions): give"
+                            + " --threshold in the map's unit (µs for lifetimes, cm^-3 for densities)");
+                }
+            }
         }
         if (json) {
             Output.prepareJson(); // ready by the end, built while the map is read and converted
