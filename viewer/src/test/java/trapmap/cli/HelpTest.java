@@ -53,4 +53,14 @@ class HelpTest {
             }
         }
     }
+
+    @ParameterizedTest
+    @ValueSource(strings = {"convert", "stats", "compare", "iron", "identify"})
+    void mapConditionsDefaultToTheSidecarNotToARequiredValueOrAFixedOne(String name) {
+        CommandLine cl = command(name);
+        for (String option : new String[] {"--doping", "--temperature", "--thickness-um"}) {
+            String text = String.join(" ", cl.getCommandSpec().findOption(option).description());
+            assertThat(text).as(name + " " + option).contains("Default: the sidecar's").doesNotContain("required");
+        }
+    }
 }
