@@ -31,14 +31,16 @@ import trapmap.shared.progress.ProgressListener;
         usageHelpAutoWidth = true,
         header = "Registers two maps of one wafer (before/after a process step) and compares them pixel by pixel.",
         description = {
-            "Finds how AFTER lies on BEFORE (mirror, quarter turns, a small turn and a shift, from the data), resamples",
-            "AFTER onto BEFORE's grid, and writes the difference, ratio, relative-change or reduction map. With",
-            "--defect both maps are first converted to trap densities (conditions from each sidecar, overridden by",
-            "the flags), so the reduction map is the per-pixel gettering efficiency 1 − N_after/N_before.",
-            "The maps as they lie are scored too and kept when the search does not beat them. Different wafer ids,",
-            "fitted sizes differing beyond the format's tolerance, or a score below "
-                    + RegistrationWarnings.SCORE_FLOOR + " give a warning line on",
-            "stderr (and a warnings array with --json); --strict then exits with status 2.",
+            "Finds how AFTER lies on BEFORE (mirror, quarter turns, a small turn and a shift, from the data),"
+                    + " resamples AFTER onto BEFORE's grid, and writes the difference, ratio, relative-change or"
+                    + " reduction map. With --defect both maps are first converted to trap densities (conditions"
+                    + " from each sidecar, overridden by the flags), so the reduction map is the per-pixel gettering"
+                    + " efficiency 1 − N_after/N_before.",
+            "",
+            "The maps as they lie are scored too and kept when the search does not beat them. Different wafer ids,"
+                    + " fitted sizes differing beyond the format's tolerance, or a score below "
+                    + RegistrationWarnings.SCORE_FLOOR + " give a warning line on stderr (and a warnings array with --json); --strict then exits with"
+                    + " status 2.",
             ""},
         footer = {"", Help.EXIT_CODES_STRICT})
 final class CompareCommand implements Callable<Integer> {

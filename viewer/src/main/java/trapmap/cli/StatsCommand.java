@@ -43,16 +43,19 @@ import trapmap.shared.progress.HeadStart;
         usageHelpAutoWidth = true,
         header = "Statistics, threshold area fractions and the table of flagged regions of a map.",
         description = {
-            "Summarises MAP over the wafer (less an edge exclusion): count, mean, harmonic mean (the device-relevant",
-            "average of a lifetime map), geometric mean, median, percentiles, min, max, standard deviation. With",
-            "--threshold it adds the area fractions on each side and the flagged regions (8-connected), largest",
-            "first. With --defect the map is first converted to that defect's trap density; then the statistics,",
-            "area fractions and regions are over the OK pixels, and the pixels below the detection limit are",
-            "counted on their own (below_limit: count, area_mm2, area_fraction of the evaluated area).",
-            "Always: invalid_area, the share of the evaluated area whose measured value cannot be used (non-finite,",
-            "<= 0, or invalid for the conversion), with the count of each cause, and left_out, which pixels each",
-            "statistic leaves out and why (the harmonic and geometric means skip values <= 0). Above the program's",
-            "default limit of 0.05 a warning is printed (as inspect fails a wafer whose rules set no limit).",
+            "Summarises MAP over the wafer (less an edge exclusion): count, mean, harmonic mean (the device-relevant"
+                    + " average of a lifetime map), geometric mean, median, percentiles, min, max, standard"
+                    + " deviation. With --threshold it adds the area fractions on each side and the flagged regions"
+                    + " (8-connected), largest first. With --defect the map is first converted to that defect's trap"
+                    + " density; then the statistics, area fractions and regions are over the OK pixels, and the"
+                    + " pixels below the detection limit are counted on their own (below_limit: count, area_mm2,"
+                    + " area_fraction of the evaluated area).",
+            "",
+            "Always: invalid_area, the share of the evaluated area whose measured value cannot be used (non-finite,"
+                    + " <= 0, or invalid for the conversion), with the count of each cause, and left_out, which"
+                    + " pixels each statistic leaves out and why (the harmonic and geometric means skip values <="
+                    + " 0). Above the program's default limit of 0.05 a warning is printed (as inspect fails a wafer"
+                    + " whose rules set no limit).",
             ""},
         footer = {"", Help.EXIT_CODES})
 final class StatsCommand implements Callable<Integer> {
