@@ -65,7 +65,8 @@ final class StatsCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "MAP", description = "Map file (TIFF or CSV, with optional sidecar).")
     Path input;
 
-    @Option(names = "--page", paramLabel = "<n>", defaultValue = "1", description = "Page of a multi-page TIFF.")
+    @Option(names = "--page", paramLabel = "<n>", defaultValue = "1",
+            description = "Page of a multi-page TIFF to summarise, from 1. Default: 1.")
     int page;
 
     @Option(names = "--threshold", paramLabel = "<value>",

@@ -94,4 +94,11 @@ class HelpTest {
                     .isGreaterThanOrEqualTo(width); // picocli keeps a line below the width
         }
     }
+
+    @ParameterizedTest
+    @ValueSource(strings = {"convert", "stats"})
+    void thePageOptionSaysWhereCountingStartsAndItsDefault(String name) {
+        String text = String.join(" ", command(name).getCommandSpec().findOption("--page").description());
+        assertThat(text).contains("from 1").contains("Default: 1.");
+    }
 }
