@@ -105,6 +105,7 @@ final class CompareCommand implements Callable<Integer> {
         if (!(tolerance >= 0 && tolerance <= 1)) {
             throw new InputException("--tolerance must be a fraction in [0, 1] (got " + tolerance + ")");
         }
+        Flags.refuseWithoutRegistration(spec, noRegistration, "--max-rotation-deg", "--upright");
         if (!(maxRotationDeg >= 0 && maxRotationDeg <= 45)) {
             throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + maxRotationDeg + ")");
         }

@@ -170,6 +170,23 @@ final class Flags {
         return dashes > 0 ? m.substring(0, dashes) : m;
     }
 
+    /**
+     * Refuses, with {@code --no-registration}, the options among {@code registrationOptions} that were given: they
+     * shape a registration that is then not made, and would be ignored.
+     */
+    static void refuseWithoutRegistration(picocli.CommandLine.Model.CommandSpec spec, boolean noRegistration,
+                                          String... registrationOptions) {
+        if (!noRegistration) {
+            return;
+        }
+        for (String option : registrationOptions) {
+            if (spec.commandLine().getParseResult().hasMatchedOption(option)) {
+                throw new InputException(option + " shapes the registration, which --no-registration leaves out:"
+                        + " give one or the other");
+            }
+        }
+    }
+
     /** {@code s} on one line. */
     static String oneLine(String s) {
         return s == null ? "" : s.replaceAll("\\s*\\R\\s*", " ").trim();

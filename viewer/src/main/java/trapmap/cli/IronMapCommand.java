@@ -78,6 +78,7 @@ final class IronMapCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws MapFormatException {
+        Flags.refuseWithoutRegistration(spec, noRegistration, "--max-rotation-deg");
         if (!(maxRotationDeg >= 0 && maxRotationDeg <= 45)) {
             throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + maxRotationDeg + ")");
         }

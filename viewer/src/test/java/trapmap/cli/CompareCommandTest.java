@@ -192,4 +192,20 @@ class CompareCommandTest {
         assertThat(java.nio.file.Files.readAllBytes(before)).isEqualTo(beforeBytes);
         assertThat(java.nio.file.Files.readAllBytes(after)).isEqualTo(afterBytes);
     }
+
+    @Test
+    void registrationOptionsWithNoRegistrationAreRefusedNotIgnored() throws Exception {
+        Path before = write("b", texture(5));
+        Path after = write("a", texture(5));
+        for (String[] extra : new String[][] {{"--upright"}, {"--max-rotation-deg", "3"}}) {
+            java.util.List<String> line = new java.util.ArrayList<>(java.util.List.of("compare", before.toString(),
+                    after.toString(), "--no-registration"));
+            line.addAll(java.util.List.of(extra));
+            Cli.Run r = Cli.run(line.toArray(String[]::new));
+            assertThat(r.code()).as(extra[0]).isEqualTo(2);
+            assertThat(r.errLines()).as(extra[0]).containsExactly("trapmap compare: " + extra[0] + " shapes the"
+                    + " registration, which --no-registration leaves out: give one or the other");
+        }
+        assertThat(Cli.run("compare", before.toString(), after.toString(), "--no-registration").code()).isZero();
+    }
 }

@@ -121,4 +121,12 @@ class IronMapCommandTest {
         assertThat(r.err()).startsWith("trapmap iron: --status-output " + iron + " is also --output");
         assertThat(iron).doesNotExist();
     }
+
+    @Test
+    void aMaximumTurnWithNoRegistrationIsRefusedNotIgnored() {
+        Cli.Run r = Cli.run("iron", FEB, FEI, "--no-registration", "--max-rotation-deg", "2");
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.errLines()).containsExactly("trapmap iron: --max-rotation-deg shapes the registration, which"
+                + " --no-registration leaves out: give one or the other");
+    }
 }
