@@ -109,4 +109,18 @@ class ReportCommandTest {
         assertThat(r.errLines()).containsExactly("trapmap report: " + pdf + ": cannot write: " + blocked
                 + " exists and is not a folder");
     }
+
+    @Test
+    void anUnknownDefectIsRefusedWithTheIdsThatCanJudge() {
+        Path pdf = dir.resolve("none2.pdf");
+        for (String id : new String[] {"fe-x", "bo-lid"}) {
+            Cli.Run r = Cli.run("report", DEMO.resolve("LOT-A01-W01.tif").toString(), "--rules", RULES.toString(),
+                    "-o", pdf.toString(), "--defect", id);
+            assertThat(r.code()).as(id).isEqualTo(Exit.INVALID_INPUT);
+            assertThat(r.errLines()).as(id).hasSize(1);
+            assertThat(r.err()).as(id).startsWith("trapmap report: --defect unknown defect '" + id + "'")
+                    .contains("(these have them: fe-i, fe-b, ").doesNotContain("bo-lid,");
+            assertThat(pdf).doesNotExist();
+        }
+    }
 }
