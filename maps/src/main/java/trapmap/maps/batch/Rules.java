@@ -644,7 +644,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                     try {
                         doping = MapFiles.parseDoping(t);
                     } catch (IllegalArgumentException e) {
-                        throw error("conditions.doping", e.getMessage(), "cm^-3 or ohm·cm");
+                        throw error("conditions.doping", e.getMessage(), ""); // the message names its unit
                     }
                 }
                 Double injection = optionalNumber(n, "injection_cm3", "conditions", "cm^-3", 1e6, 1e19);
