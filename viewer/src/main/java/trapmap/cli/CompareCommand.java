@@ -103,11 +103,11 @@ final class CompareCommand implements Callable<Integer> {
                     + " reduction");
         }
         if (!(tolerance >= 0 && tolerance <= 1)) {
-            throw new InputException("--tolerance must be a fraction in [0, 1] (got " + tolerance + ")");
+            throw new InputException("--tolerance must be a fraction in [0, 1] (got " + Format.exact(tolerance) + ")");
         }
         Flags.refuseWithoutRegistration(spec, noRegistration, "--max-rotation-deg", "--upright");
         if (!(maxRotationDeg >= 0 && maxRotationDeg <= 45)) {
-            throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + maxRotationDeg + ")");
+            throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + Format.exact(maxRotationDeg) + ")");
         }
         if (output != null) {
             MapInput.refuseOverwriting(output, List.of(output), List.of(beforeFile, afterFile));

@@ -80,7 +80,7 @@ final class IronMapCommand implements Callable<Integer> {
     public Integer call() throws MapFormatException {
         Flags.refuseWithoutRegistration(spec, noRegistration, "--max-rotation-deg");
         if (!(maxRotationDeg >= 0 && maxRotationDeg <= 45)) {
-            throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + maxRotationDeg + ")");
+            throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + Format.exact(maxRotationDeg) + ")");
         }
         List<Path> inputs = List.of(febFile, feiFile);
         if (output != null) {

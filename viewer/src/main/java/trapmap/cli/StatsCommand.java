@@ -104,10 +104,10 @@ final class StatsCommand implements Callable<Integer> {
     public Integer call() throws MapFormatException {
         conditions.settings(); // a bad --physics file is refused even when nothing is converted
         if (!(edgeExclusionMm >= 0 && edgeExclusionMm <= 50)) {
-            throw new InputException("--edge-exclusion-mm must be in [0, 50] mm (got " + edgeExclusionMm + ")");
+            throw new InputException("--edge-exclusion-mm must be in [0, 50] mm (got " + Format.exact(edgeExclusionMm) + ")");
         }
         if (!(minAreaMm2 >= 0) || Double.isInfinite(minAreaMm2)) {
-            throw new InputException("--min-area-mm2 must be >= 0 mm² (got " + minAreaMm2 + ")");
+            throw new InputException("--min-area-mm2 must be >= 0 mm² (got " + Format.exact(minAreaMm2) + ")");
         }
         if (threshold != null && !Double.isFinite(threshold)) {
             throw new InputException("--threshold must be a finite number in the map's unit");
