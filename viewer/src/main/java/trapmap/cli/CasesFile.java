@@ -120,11 +120,9 @@ final class CasesFile {
             if (e.getCause() instanceof trapmap.maps.io.InputFiles.Refused r) {
                 throw new InputException("--cases " + in + ": " + r.reason(), e);
             }
-            throw new InputException("--cases " + in + ": cannot read it as CSV with a header row ("
-                    + Flags.oneLine(e.getMessage()) + ")", e);
+            throw notCsv(in, e);
         } catch (IOException | IllegalArgumentException | IllegalStateException e) {
-            throw new InputException("--cases " + in + ": cannot read it as CSV with a header row ("
-                    + Flags.oneLine(e.getMessage()) + ")", e);
+            throw notCsv(in, e);
         }
         write(out, outRows);
         return new Summary(outRows.size() - 1, errors);
@@ -158,6 +156,18 @@ final class CasesFile {
         }
         cols.add(taken.contains("error") ? "result_error" : "error");
         return cols;
+    }
+
+    /** The refusal of a cases file that could not be read as CSV; a binary file (a map, say) is said to be one. */
+    private static InputException notCsv(Path in, Exception e) {
+        for (Throwable t = e; t != null; t = t.getCause()) {
+            if (t instanceof java.nio.charset.CharacterCodingException) {
+                return new InputException("--cases " + in + ": is not UTF-8 text (a binary file?); a CSV table of"
+                        + " cases with a header row was expected", e);
+            }
+        }
+        return new InputException("--cases " + in + ": cannot read it as CSV with a header row ("
+                + Flags.oneLine(e.getMessage()) + ")", e);
     }
 
     private static String normalise(String column) {
