@@ -58,4 +58,17 @@ class MissingStoreTest {
                         + " [SQLITE_NOTADB] not a database");
         assertThat(Flags.storeProblem("holds no wafer")).isEqualTo("holds no wafer");
     }
+
+    @Test
+    void inspectNamesAStoreThatCannotBeOpenedInOneShortLine() throws Exception {
+        Path notAStore = dir.resolve("results.csv");
+        java.nio.file.Files.writeString(notAStore, "file,wafer_id\nw.tif,W1\n".repeat(200));
+        Cli.Run r = Cli.run("inspect", Path.of("..", "demo-data", "LOT-A01-W01.tif").toString(), "--rules",
+                Path.of("..", "demo-data", "rules-example.json").toString(), "--out", dir.resolve("out").toString(),
+                "--no-pdf", "--no-thumbnails", "--store", notAStore.toString());
+        assertThat(r.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(r.errLines()).hasSize(1);
+        assertThat(r.err()).startsWith("trapmap inspect: --store " + notAStore + ": cannot be opened")
+                .doesNotContain("-----").doesNotContain("Error Code");
+    }
 }
