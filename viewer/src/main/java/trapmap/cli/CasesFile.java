@@ -120,11 +120,9 @@ final class CasesFile {
             if (e.getCause() instanceof trapmap.maps.io.InputFiles.Refused r) {
                 throw new InputException("--cases " + in + ": " + r.reason(), e);
             }
-            throw new InputException("--cases " + in + ": cannot read it as CSV with a header row ("
-                    + Flags.oneLine(e.getMessage()) + ")", e);
+            throw notCsv(in, e);
         } catch (IOException | IllegalArgumentException | IllegalStateException e) {
-            throw new InputException("--cases " + in + ": cannot read it as CSV with a header row ("
-                    + Flags.oneLine(e.getMessage()) + ")", e);
+            throw notCsv(in, e);
         }
         write(out, outRows);
         return new Summary(outRows.size() - 1, errors);
@@ -160,6 +158,18 @@ final class CasesFile {
         return cols;
     }
 
+    /** The refusal of a cases file that could not be read as CSV; a binary file (a map, say) is said to be one. */
+    private static InputException notCsv(Path in, Exception e) {
+        for (Throwable t = e; t != null; t = t.getCause()) {
+            if (t instanceof java.nio.charset.CharacterCodingException) {
+                return new InputException("--cases " + in + ": is not UTF-8 text (a binary file?); a CSV table of"
+                        + " cases with a header row was expected", e);
+            }
+        }
+        return new InputException("--cases " + in + ": cannot read it as CSV with a header row ("
+                + Flags.oneLine(e.getMessage()) + ")", e);
+    }
+
     private static String normalise(String column) {
         return column.trim().toLowerCase(Locale.ROOT).replace('-', '_');
     }
@@ -191,8 +201,7 @@ final class CasesFile {
             }
             tmp = null;
         } catch (IOException e) {
-            throw new InputException("--out " + out + ": cannot write it (" + Flags.oneLine(String.valueOf(
-                    e.getMessage())) + ")", e);
+            throw new InputException("--out " + out + ": cannot write it (" + MapInput.writeFailure(e) + ")", e);
         } finally {
             if (tmp != null) {
                 try {

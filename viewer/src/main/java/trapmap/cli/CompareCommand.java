@@ -3,6 +3,7 @@ package trapmap.cli;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.Callable;
@@ -30,14 +31,16 @@ import trapmap.shared.progress.ProgressListener;
         usageHelpAutoWidth = true,
         header = "Registers two maps of one wafer (before/after a process step) and compares them pixel by pixel.",
         description = {
-            "Finds how AFTER lies on BEFORE (mirror, quarter turns, a small turn and a shift, from the data), resamples",
-            "AFTER onto BEFORE's grid, and writes the difference, ratio, relative-change or reduction map. With",
-            "--defect both maps are first converted to trap densities (conditions from each sidecar, overridden by",
-            "the flags), so the reduction map is the per-pixel gettering efficiency 1 − N_after/N_before.",
-            "The maps as they lie are scored too and kept when the search does not beat them. Different wafer ids,",
-            "fitted sizes differing beyond the format's tolerance, or a score below "
-                    + RegistrationWarnings.SCORE_FLOOR + " give a warning line on",
-            "stderr (and a warnings array with --json); --strict then exits with status 2.",
+            "Finds how AFTER lies on BEFORE (mirror, quarter turns, a small turn and a shift, from the data),"
+                    + " resamples AFTER onto BEFORE's grid, and writes the difference, ratio, relative-change or"
+                    + " reduction map. With --defect both maps are first converted to trap densities (conditions"
+                    + " from each sidecar, overridden by the flags), so the reduction map is the per-pixel gettering"
+                    + " efficiency 1 − N_after/N_before.",
+            "",
+            "The maps as they lie are scored too and kept when the search does not beat them. Different wafer ids,"
+                    + " fitted sizes differing beyond the format's tolerance, or a score below "
+                    + RegistrationWarnings.SCORE_FLOOR + " give a warning line on stderr (and a warnings array with --json); --strict then exits with"
+                    + " status 2.",
             ""},
         footer = {"", Help.EXIT_CODES_STRICT})
 final class CompareCommand implements Callable<Integer> {
@@ -100,10 +103,14 @@ final class CompareCommand implements Callable<Integer> {
                     + " reduction");
         }
         if (!(tolerance >= 0 && tolerance <= 1)) {
-            throw new InputException("--tolerance must be a fraction in [0, 1] (got " + tolerance + ")");
+            throw new InputException("--tolerance must be a fraction in [0, 1] (got " + Format.exact(tolerance) + ")");
         }
+        Flags.refuseWithoutRegistration(spec, noRegistration, "--max-rotation-deg", "--upright");
         if (!(maxRotationDeg >= 0 && maxRotationDeg <= 45)) {
-            throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + maxRotationDeg + ")");
+            throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + Format.exact(maxRotationDeg) + ")");
+        }
+        if (output != null) {
+            MapInput.refuseOverwriting(output, List.of(output), List.of(beforeFile, afterFile));
         }
         WaferMap[] read = MapInput.firstPages(beforeFile, afterFile);
         WaferMap before = read[0];

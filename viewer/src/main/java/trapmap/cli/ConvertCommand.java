@@ -34,13 +34,15 @@ import trapmap.shared.progress.HeadStart;
         header = "Converts a lifetime or PL map into a trap-density, occupancy, SRH-lifetime, bound, status or"
                 + " lifetime map, or into another file format.",
         description = {
-            "Reads MAP (TIFF, CSV; conditions from its sidecar <name>.json, overridden by the flags), converts every",
-            "pixel through the SRH model for the chosen defect and writes the chosen quantity to -o (.tif, .csv as",
-            "x_mm,y_mm,value, or .png picture). Status codes in status maps: 0 OK, 1 BELOW_LIMIT (SRH share of",
-            "1/τ_eff under the 5 %% resolution: the density is the detection limit, an upper bound), 2 INVALID (NaN,",
-            "<= 0, infinite or below 1 ns), 3 NO_DATA.",
-            "Without --defect and --quantity, writes MAP as it is in the format of -o (TIFF <-> CSV) with its",
-            "metadata; --quantity effective-lifetime writes the lifetime map (from a PL map: by its calibration).",
+            "Reads MAP (TIFF, CSV; conditions from its sidecar <name>.json, overridden by the flags), converts every"
+                    + " pixel through the SRH model for the chosen defect and writes the chosen quantity to -o"
+                    + " (.tif, .csv as x_mm,y_mm,value, or .png picture). Status codes in status maps: 0 OK, 1"
+                    + " BELOW_LIMIT (SRH share of 1/τ_eff under the 5 %% resolution: the density is the detection"
+                    + " limit, an upper bound), 2 INVALID (NaN, <= 0, infinite or below 1 ns), 3 NO_DATA.",
+            "",
+            "Without --defect and --quantity, writes MAP as it is in the format of -o (TIFF <-> CSV) with its"
+                    + " metadata; --quantity effective-lifetime writes the lifetime map (from a PL map: by its"
+                    + " calibration).",
             ""},
         footer = {"", "Caution: " + Calculation.CAUTION, "", Help.EXIT_CODES_MAP_OUTPUT})
 final class ConvertCommand implements Callable<Integer> {
@@ -167,7 +169,7 @@ final class ConvertCommand implements Callable<Integer> {
             } catch (MapFormatException e) {
                 throw e; // the input's fault, found while its bands were read
             } catch (java.io.IOException e) {
-                throw new MapInput.OutputException(output + ": cannot write: " + Flags.oneLine(e.getMessage()), e);
+                throw MapInput.cannotWrite(output, e);
             }
             report(summary[0].statusCounts(), summary[0].warnings(), d.id(), conversion.output(),
                     summary[0].floorNote());

@@ -23,10 +23,10 @@ import trapmap.shared.error.InvalidValueException;
         header = "Lists the built-in and user-defined defects with their parameters and sources.",
         mixinStandardHelpOptions = true, sortOptions = false, usageHelpAutoWidth = true,
         description = {
-            "Lists the defects 'trapmap calc --defect' accepts: level, capture cross-sections σ_n and σ_p (cm²),",
-            "k = σ_n/σ_p, the thermal-velocity convention the cross-sections belong to, the published spread used",
-            "for the density bounds, the conductivity type it suits (a conversion on the other type warns), and the",
-            "source.",
+            "Lists the defects 'trapmap calc --defect' accepts: level, capture cross-sections σ_n and σ_p (cm²), k ="
+                    + " σ_n/σ_p, the thermal-velocity convention the cross-sections belong to, the published spread"
+                    + " used for the density bounds, the conductivity type it suits (a conversion on the other type"
+                    + " warns), and the source.",
             ""},
         footer = {"", "JSON: {\"defects\": [...]}; numbers that are not published (bo-lid) are null.", "",
             Help.EXIT_CODES})

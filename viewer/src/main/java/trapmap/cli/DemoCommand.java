@@ -23,17 +23,19 @@ import trapmap.maps.demo.HistoryScenario;
         usageHelpAutoWidth = true,
         header = "Writes an invented batch of wafer maps with planted defects, their sidecars and truth.json.",
         description = {
-            "Generates, from a fixed seed, lifetime maps and one PL image of invented wafers (multicrystalline",
-            "p-type with grains, iron-rich edge zones and handling marks; n-type mono with rings; a gettering pair;",
-            "an FeB-dissociation pair; a 200 mm monitor wafer with boat-contact spots), each as a TIFF with a JSON",
-            "sidecar, plus truth.json (the planted defects) and README.md; and, in the subfolder injection-stack/,",
-            "one wafer measured at three injection levels (1e13, 1e14, 1e15 cm^-3) with its own truth.json, for",
-            "defect identification. Every run writes the same bytes.",
-            "With --history instead: an invented production history for trend charts (three weeks, three lots a",
-            "day in two furnace tubes, one of which drifts upward in interstitial iron after a planted date; the",
-            "wafer of boat slot 7 carries a contamination spot at the same place), 64 x 64 px lifetime maps with",
-            "sidecars holding lot, measured_at, furnace_tube and boat_slot, truth.json, rules-history.json and",
-            "README.md.",
+            "Generates, from a fixed seed, lifetime maps and one PL image of invented wafers (multicrystalline"
+                    + " p-type with grains, iron-rich edge zones and handling marks; n-type mono with rings; a"
+                    + " gettering pair; an FeB-dissociation pair; a 200 mm monitor wafer with boat-contact spots),"
+                    + " each as a TIFF with a JSON sidecar, plus truth.json (the planted defects) and README.md;"
+                    + " and, in the subfolder injection-stack/, one wafer measured at three injection levels (1e13,"
+                    + " 1e14, 1e15 cm^-3) with its own truth.json, for defect identification. Every run writes the"
+                    + " same bytes.",
+            "",
+            "With --history instead: an invented production history for trend charts (three weeks, three lots a day"
+                    + " in two furnace tubes, one of which drifts upward in interstitial iron after a planted date;"
+                    + " the wafer of boat slot 7 carries a contamination spot at the same place), 64 x 64 px"
+                    + " lifetime maps with sidecars holding lot, measured_at, furnace_tube and boat_slot,"
+                    + " truth.json, rules-history.json and README.md.",
             ""},
         footer = {"", "Nothing written by this command is measured data.", "", Help.EXIT_CODES_OUTPUT})
 final class DemoCommand implements Callable<Integer> {
@@ -76,7 +78,7 @@ final class DemoCommand implements Callable<Integer> {
             written = history ? HistoryScenario.write(out) : DemoScenario.write(out);
         } catch (IOException e) {
             throw new MapInput.OutputException("cannot write the demonstration " + (history ? "history" : "set")
-                    + " to " + out + ": " + e.getMessage(), e);
+                    + " to " + out + ": " + MapInput.writeFailure(e), e);
         }
         PrintWriter pw = spec.commandLine().getOut();
         long total = 0;

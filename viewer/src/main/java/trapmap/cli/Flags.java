@@ -156,6 +156,37 @@ final class Flags {
         return flag + ": " + msg;
     }
 
+    /**
+     * A results store's refusal as the one line after {@code --store}: {@code NAME: problem}, without the leading
+     * "store " of the store's own message (which would read "--store store NAME") and without the database driver's
+     * appended block of dashes, SQL state and error code, which repeats the problem.
+     */
+    static String storeProblem(String message) {
+        String m = oneLine(message);
+        if (m.startsWith("store ")) {
+            m = m.substring("store ".length());
+        }
+        int dashes = m.indexOf(" -----");
+        return dashes > 0 ? m.substring(0, dashes) : m;
+    }
+
+    /**
+     * Refuses, with {@code --no-registration}, the options among {@code registrationOptions} that were given: they
+     * shape a registration that is then not made, and would be ignored.
+     */
+    static void refuseWithoutRegistration(picocli.CommandLine.Model.CommandSpec spec, boolean noRegistration,
+                                          String... registrationOptions) {
+        if (!noRegistration) {
+            return;
+        }
+        for (String option : registrationOptions) {
+            if (spec.commandLine().getParseResult().hasMatchedOption(option)) {
+                throw new InputException(option + " shapes the registration, which --no-registration leaves out:"
+                        + " give one or the other");
+            }
+        }
+    }
+
     /** {@code s} on one line. */
     static String oneLine(String s) {
         return s == null ? "" : s.replaceAll("\\s*\\R\\s*", " ").trim();

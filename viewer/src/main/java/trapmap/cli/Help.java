@@ -2,9 +2,11 @@ package trapmap.cli;
 
 /** Help texts shared by several commands (annotation values must be constants). */
 final class Help {
-    static final String DOPING = "Net doping: p:<cm^-3> or n:<cm^-3> (e.g. p:1e16), or a resistivity at 23 °C"
+    /** The doping's forms, without a default. */
+    static final String DOPING_FORMS = "Net doping: p:<cm^-3> or n:<cm^-3> (e.g. p:1e16), or a resistivity at 23 °C"
             + " p:<Ω·cm> / n:<Ω·cm> written as 1.5ohmcm, 1.5Ohm.cm or 1.5ohm*cm, converted by ASTM F723 (boron for p,"
-            + " phosphorus for n). No default; required.";
+            + " phosphorus for n).";
+    static final String DOPING = DOPING_FORMS + " No default; required.";
     static final String TEMPERATURE = "Wafer temperature in K, 77-500. Default: 300 K.";
     static final String VTH = "Thermal velocities: fixed = 1.1e7 cm/s for electrons and holes at 300 K, scaled by"
             + " sqrt(T/300) (the convention of the built-in cross-sections), or green = Green, JAP 67, 2944 (1990)"

@@ -27,15 +27,16 @@ import trapmap.shared.progress.ProgressListener;
         usageHelpAutoWidth = true,
         header = "Maps interstitial iron [Fe_i] (cm^-3) from lifetime maps before and after FeB-pair dissociation.",
         description = {
-            "FEB is the effective-lifetime map with the iron paired to boron (e.g. after 24 h in the dark), FEI the map",
-            "right after dissociating the pairs (e.g. after strong illumination), both of one p-type wafer at one fixed",
-            "injection level. FEI is registered onto FEB as in 'trapmap compare' (unless --no-registration), then each",
-            "pixel gives [Fe_i] = C(Δn)·(1/τ_Fei − 1/τ_FeB), C = 1/(χ_Fei − χ_FeB) (Macdonald, Geerligs & Azzizi,",
-            "JAP 95, 1021 (2004)). Pixel statuses: " + "0 ok, 1 below-limit (value = detection limit), 2 near-crossover"
-                    + " (Δn within a factor 2 of the",
-            "crossover), 3 crossover (Δn within ±10 %%: no signal), 4 invalid lifetime, 5 no data,",
-            "6 inconsistent (the lifetime moved the way dissociation cannot move it at this Δn: a fall above the",
-            "crossover, a rise below it; no value). 'trapmap calc iron' does the same for one pair of lifetimes.",
+            "FEB is the effective-lifetime map with the iron paired to boron (e.g. after 24 h in the dark), FEI the"
+                    + " map right after dissociating the pairs (e.g. after strong illumination), both of one p-type"
+                    + " wafer at one fixed injection level. FEI is registered onto FEB as in 'trapmap compare'"
+                    + " (unless --no-registration), then each pixel gives [Fe_i] = C(Δn)·(1/τ_Fei − 1/τ_FeB), C ="
+                    + " 1/(χ_Fei − χ_FeB) (Macdonald, Geerligs & Azzizi, JAP 95, 1021 (2004)). Pixel statuses: 0 ok,"
+                    + " 1 below-limit (value = detection limit), 2 near-crossover (Δn within a factor 2 of the"
+                    + " crossover), 3 crossover (Δn within ±10 %%: no signal), 4 invalid lifetime, 5 no data, 6"
+                    + " inconsistent (the lifetime moved the way dissociation cannot move it at this Δn: a fall"
+                    + " above the crossover, a rise below it; no value). 'trapmap calc iron' does the same for one"
+                    + " pair of lifetimes.",
             ""},
         footer = {"", Help.EXIT_CODES_STRICT})
 final class IronMapCommand implements Callable<Integer> {
@@ -77,8 +78,24 @@ final class IronMapCommand implements Callable<Integer> {
 
     @Override
     public Integer call() throws MapFormatException {
+        Flags.refuseWithoutRegistration(spec, noRegistration, "--max-rotation-deg");
         if (!(maxRotationDeg >= 0 && maxRotationDeg <= 45)) {
-            throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + maxRotationDeg + ")");
+            throw new InputException("--max-rotation-deg must be in [0, 45] degrees (got " + Format.exact(maxRotationDeg) + ")");
+        }
+        List<Path> inputs = List.of(febFile, feiFile);
+        if (output != null) {
+            MapInput.refuseOverwriting("--output", output, List.of(output), inputs);
+        }
+        if (statusOutput != null) {
+            MapInput.refuseOverwriting("--status-output", statusOutput, List.of(statusOutput), inputs);
+        }
+        // both outputs are checked before the work, so that a bad second one leaves no first one behind
+        MapInput.requireOutputType("--output", output);
+        MapInput.requireOutputType("--status-output", statusOutput);
+        if (output != null && statusOutput != null
+                && output.toAbsolutePath().normalize().equals(statusOutput.toAbsolutePath().normalize())) {
+            throw new InputException("--status-output " + statusOutput + " is also --output: the status map would"
+                    + " replace the iron map; give the two maps different names");
         }
         WaferMap feb = MapInput.page(febFile, 1);
         WaferMap fei = MapInput.page(feiFile, 1);

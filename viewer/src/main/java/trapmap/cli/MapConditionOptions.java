@@ -13,7 +13,8 @@ import trapmap.physics.recombination.SurfaceModel;
  */
 final class MapConditionOptions {
     @Option(names = "--doping", paramLabel = "<type:value>", converter = DopingValue.Converter.class,
-            description = Help.DOPING + " Overrides the sidecar.")
+            description = Help.DOPING_FORMS + " Overrides the sidecar. Default: the sidecar's; needed when the map"
+                    + " has none.")
     DopingValue doping;
 
     @Option(names = "--injection", paramLabel = "<cm^-3>", converter = Quantity.Density.class,
@@ -26,11 +27,13 @@ final class MapConditionOptions {
     Double generation;
 
     @Option(names = "--temperature", paramLabel = "<K>", converter = Quantity.Temperature.class,
-            description = Help.TEMPERATURE)
+            description = "Wafer temperature in K, 77-500 (overrides the sidecar). Default: the sidecar's, else"
+                    + " 300 K.")
     Double temperature;
 
     @Option(names = "--thickness-um", paramLabel = "<µm>", converter = Quantity.Thickness.class,
-            description = "Wafer thickness W in µm (overrides the sidecar).")
+            description = "Wafer thickness W in µm, 1-5000 (overrides the sidecar). Default: the sidecar's, else"
+                    + " none (no surface term).")
     Double thicknessUm;
 
     @Option(names = "--srv", paramLabel = "<cm/s>", converter = Quantity.Srv.class,

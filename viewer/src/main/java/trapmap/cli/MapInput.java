@@ -106,11 +106,16 @@ final class MapInput {
      * @throws InputException naming the output, the input it would replace and the file written there
      */
     static void refuseOverwriting(Path output, List<Path> written, List<Path> inputs) {
+        refuseOverwriting("--output", output, written, inputs);
+    }
+
+    /** {@link #refuseOverwriting(Path, List, List)} for the output of the option {@code option}. */
+    static void refuseOverwriting(String option, Path output, List<Path> written, List<Path> inputs) {
         for (Path w : written) {
             for (Path in : inputs) {
                 for (Path read : List.of(in, MapFiles.sidecarOf(in))) {
                     if (same(w, read)) {
-                        throw new InputException("--output " + output + " would overwrite " + read
+                        throw new InputException(option + " " + output + " would overwrite " + read
                                 + (w.equals(output) ? "" : " (the command writes " + w.getFileName() + ")")
                                 + "; input files are never modified: choose another name");
                     }
@@ -131,6 +136,17 @@ final class MapInput {
         }
     }
 
+    /**
+     * Refuses an output {@code file} of {@code option} whose extension names no map format (null: none given).
+     *
+     * @throws InputException naming the option, the file and the formats
+     */
+    static void requireOutputType(String option, Path file) {
+        if (file != null && MapFiles.formatOf(file) == null) {
+            throw new InputException(option + " " + file + ": unsupported output type; use .tif, .tiff, .csv or .png");
+        }
+    }
+
     /** Writes {@code map} to {@code file} (format from the extension); wraps failures in one-line messages. */
     static void write(WaferMap map, Path file) {
         if (MapFiles.formatOf(file) == null) {
@@ -139,7 +155,7 @@ final class MapInput {
         try {
             MapFiles.write(map, file);
         } catch (IOException e) {
-            throw new OutputException(file + ": cannot write: " + Flags.oneLine(e.getMessage()), e);
+            throw cannotWrite(file, e);
         } catch (RuntimeException | Error e) { // a picture (.png) needs fonts for its colour bar and caption
             java.util.Optional<trapmap.maps.io.Rendering.Missing> m = e instanceof VirtualMachineError
                     ? java.util.Optional.empty() : trapmap.maps.io.Rendering.failure(e);
@@ -148,6 +164,41 @@ final class MapInput {
             }
             throw new Pictures.NotMade(file + " was not made: " + m.get().text());
         }
+    }
+
+    /**
+     * Why writing failed, in a few words for the one-line message: "permission denied", "Read-only file system",
+     * "/x/y exists and is not a folder", the system's reason, or the message; the hidden temporary file that an atomic
+     * write was making is never named, since the user did not choose it.
+     */
+    static String writeFailure(IOException e) {
+        if (e instanceof java.nio.file.FileSystemException f) {
+            String file = f.getFile() == null || hidden(f.getFile()) ? "" : f.getFile();
+            if (e instanceof java.nio.file.AccessDeniedException) {
+                return "permission denied" + (file.isEmpty() ? "" : " (" + file + ")");
+            }
+            if (e instanceof java.nio.file.FileAlreadyExistsException && !file.isEmpty()) {
+                return file + " exists and is not a folder";
+            }
+            if (e instanceof java.nio.file.NoSuchFileException) {
+                return "no such file or folder" + (file.isEmpty() ? "" : " (" + file + ")");
+            }
+            if (f.getReason() != null) {
+                return Flags.oneLine(f.getReason()) + (file.isEmpty() ? "" : " (" + file + ")");
+            }
+        }
+        return e.getMessage() == null ? e.getClass().getSimpleName() : Flags.oneLine(e.getMessage());
+    }
+
+    /** Whether {@code path} is an atomic write's temporary file ({@code .NAME.RANDOM.tmp}). */
+    private static boolean hidden(String path) {
+        Path name = Path.of(path).getFileName();
+        return name != null && name.toString().startsWith(".") && name.toString().endsWith(".tmp");
+    }
+
+    /** The failure to write {@code file}, with {@link #writeFailure why}: exit code 3. */
+    static OutputException cannotWrite(Path file, IOException e) {
+        return new OutputException(file + ": cannot write: " + writeFailure(e), e);
     }
 
     /** Writing an output failed (disk full, no permission): not the user's input, exit code 3. */

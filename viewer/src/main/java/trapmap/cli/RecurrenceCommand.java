@@ -101,10 +101,11 @@ final class RecurrenceCommand implements Callable<Integer> {
                     + RunManifest.FILE_NAME + " or " + BatchInspection.CSV_NAME + "); give another folder");
         }
         StoreRecurrence.Outcome outcome;
-        try (ResultsStore s = ResultsStore.open(query.store)) {
+        try (ResultsStore s = ResultsStore.open(query.existingStore())) {
+            StoreQueryOptions.requireKnownGrouping(s, by);
             outcome = StoreRecurrence.analyse(s, filter, by, cellMm);
         } catch (StoreException e) {
-            throw new InputException("--store " + Flags.oneLine(e.getMessage()));
+            throw new InputException("--store " + Flags.storeProblem(e.getMessage()));
         } catch (InvalidValueException e) {
             throw new InputException("--store " + Flags.oneLine(e.getMessage()));
         }
@@ -123,8 +124,7 @@ final class RecurrenceCommand implements Callable<Integer> {
             return Exit.OUTPUT_NOT_WRITTEN;
         } catch (IOException e) {
             PrintWriter err = spec.commandLine().getErr();
-            err.println(spec.qualifiedName() + ": -o " + out + ": cannot be made: " + Flags.oneLine(String.valueOf(
-                    e.getMessage())));
+            err.println(spec.qualifiedName() + ": -o " + out + ": cannot be made: " + MapInput.writeFailure(e));
             err.flush();
             return Exit.OUTPUT_NOT_WRITTEN;
         }

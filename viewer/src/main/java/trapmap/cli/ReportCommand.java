@@ -29,7 +29,8 @@ import trapmap.viewer.report.WaferPages;
                 + " verdict and the caution. Needs no display.",
             ""},
         footer = {"", "Exit codes: 0 the wafer passes; 1 it fails; 2 invalid input (map, rules file, options) or a map"
-                + " that cannot be judged; 3 internal error; 5 the wafer was judged (the verdict is printed) but the"
+                + " that cannot be judged; 3 internal error, or the report could not be written (disk full, no"
+                + " permission); 5 the wafer was judged (the verdict is printed) but the"
                 + " PDF could not be made: this Java runtime lacks font libraries, fonts or a display (one line names"
                 + " what and the packages to install)."})
 final class ReportCommand implements Callable<Integer> {
@@ -74,7 +75,13 @@ final class ReportCommand implements Callable<Integer> {
         String page = out.getFileName().toString();
         try {
             v = WaferPages.write(map, rulesFile, quantity, defect, out,
-                    physics == null ? null : PhysicsOption.load(physics), step -> pictures.run(page, step::write));
+                    physics == null ? null : PhysicsOption.load(physics), step -> pictures.run(page, () -> {
+                        try {
+                            step.write();
+                        } catch (IOException e) { // judged and drawn: only the file could not be written
+                            throw MapInput.cannotWrite(out, e);
+                        }
+                    }));
         } catch (RulesException e) {
             throw new InputException("--rules " + e.getMessage());
         } catch (InvalidValueException e) {

@@ -43,16 +43,19 @@ import trapmap.shared.progress.HeadStart;
         usageHelpAutoWidth = true,
         header = "Statistics, threshold area fractions and the table of flagged regions of a map.",
         description = {
-            "Summarises MAP over the wafer (less an edge exclusion): count, mean, harmonic mean (the device-relevant",
-            "average of a lifetime map), geometric mean, median, percentiles, min, max, standard deviation. With",
-            "--threshold it adds the area fractions on each side and the flagged regions (8-connected), largest",
-            "first. With --defect the map is first converted to that defect's trap density; then the statistics,",
-            "area fractions and regions are over the OK pixels, and the pixels below the detection limit are",
-            "counted on their own (below_limit: count, area_mm2, area_fraction of the evaluated area).",
-            "Always: invalid_area, the share of the evaluated area whose measured value cannot be used (non-finite,",
-            "<= 0, or invalid for the conversion), with the count of each cause, and left_out, which pixels each",
-            "statistic leaves out and why (the harmonic and geometric means skip values <= 0). Above the program's",
-            "default limit of 0.05 a warning is printed (as inspect fails a wafer whose rules set no limit).",
+            "Summarises MAP over the wafer (less an edge exclusion): count, mean, harmonic mean (the device-relevant"
+                    + " average of a lifetime map), geometric mean, median, percentiles, min, max, standard"
+                    + " deviation. With --threshold it adds the area fractions on each side and the flagged regions"
+                    + " (8-connected), largest first. With --defect the map is first converted to that defect's trap"
+                    + " density; then the statistics, area fractions and regions are over the OK pixels, and the"
+                    + " pixels below the detection limit are counted on their own (below_limit: count, area_mm2,"
+                    + " area_fraction of the evaluated area).",
+            "",
+            "Always: invalid_area, the share of the evaluated area whose measured value cannot be used (non-finite,"
+                    + " <= 0, or invalid for the conversion), with the count of each cause, and left_out, which"
+                    + " pixels each statistic leaves out and why (the harmonic and geometric means skip values <="
+                    + " 0). Above the program's default limit of 0.05 a warning is printed (as inspect fails a wafer"
+                    + " whose rules set no limit).",
             ""},
         footer = {"", Help.EXIT_CODES})
 final class StatsCommand implements Callable<Integer> {
@@ -62,7 +65,8 @@ final class StatsCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "MAP", description = "Map file (TIFF or CSV, with optional sidecar).")
     Path input;
 
-    @Option(names = "--page", paramLabel = "<n>", defaultValue = "1", description = "Page of a multi-page TIFF.")
+    @Option(names = "--page", paramLabel = "<n>", defaultValue = "1",
+            description = "Page of a multi-page TIFF to summarise, from 1. Default: 1.")
     int page;
 
     @Option(names = "--threshold", paramLabel = "<value>",
@@ -70,12 +74,12 @@ final class StatsCommand implements Callable<Integer> {
     Double threshold;
 
     @Option(names = "--flag", paramLabel = "above|below",
-            description = "Which side of the threshold is flagged. Default: below for lifetimes, above for"
-                    + " densities.")
+            description = "Which side of the threshold is flagged; needs --threshold. Default: below for lifetimes,"
+                    + " above for densities.")
     String flag;
 
     @Option(names = "--min-area-mm2", paramLabel = "<mm²>", defaultValue = "0",
-            description = "Smallest flagged region reported, mm². Default: 0.")
+            description = "Smallest flagged region reported, mm²; needs --threshold. Default: 0.")
     double minAreaMm2;
 
     @Option(names = "--edge-exclusion-mm", paramLabel = "<mm>", defaultValue = "0",
@@ -100,13 +104,21 @@ final class StatsCommand implements Callable<Integer> {
     public Integer call() throws MapFormatException {
         conditions.settings(); // a bad --physics file is refused even when nothing is converted
         if (!(edgeExclusionMm >= 0 && edgeExclusionMm <= 50)) {
-            throw new InputException("--edge-exclusion-mm must be in [0, 50] mm (got " + edgeExclusionMm + ")");
+            throw new InputException("--edge-exclusion-mm must be in [0, 50] mm (got " + Format.exact(edgeExclusionMm) + ")");
         }
         if (!(minAreaMm2 >= 0) || Double.isInfinite(minAreaMm2)) {
-            throw new InputException("--min-area-mm2 must be >= 0 mm² (got " + minAreaMm2 + ")");
+            throw new InputException("--min-area-mm2 must be >= 0 mm² (got " + Format.exact(minAreaMm2) + ")");
         }
         if (threshold != null && !Double.isFinite(threshold)) {
             throw new InputException("--threshold must be a finite number in the map's unit");
+        }
+        if (threshold == null) { // without a threshold there are no flagged regions for them to shape
+            for (String option : new String[] {"--flag", "--min-area-mm2"}) {
+                if (spec.commandLine().getParseResult().hasMatchedOption(option)) {
+                    throw new InputException(option + " belongs to --threshold (the flagged regions): give"
+                            + " --threshold in the map's unit (µs for lifetimes, cm^-3 for densities)");
+                }
+            }
         }
         if (json) {
             Output.prepareJson(); // ready by the end, built while the map is read and converted

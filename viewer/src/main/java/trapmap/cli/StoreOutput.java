@@ -51,7 +51,7 @@ final class StoreOutput {
             if (results != null) {
                 results.close();
             }
-            throw new InputException("--" + e.getMessage()); // "--store NAME: ..."
+            throw new InputException("--store " + Flags.storeProblem(e.getMessage())); // "--store NAME: ..."
         }
     }
 

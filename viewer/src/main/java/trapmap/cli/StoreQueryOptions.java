@@ -37,6 +37,39 @@ final class StoreQueryOptions {
                     + " ('\"recipe=B,2\"').")
     List<String> where = new ArrayList<>();
 
+    /**
+     * The store to read, refused ({@link trapmap.viewer.model.StoreHistory#address}, as the history window refuses it)
+     * when it is a SQLite file that does not exist or a folder: opening one would make an empty store there (a
+     * mistyped name would leave a new file behind and answer "holds no wafer").
+     */
+    String existingStore() {
+        try {
+            trapmap.viewer.model.StoreHistory.address(store);
+        } catch (InvalidValueException e) {
+            throw new InputException("--store " + Flags.storeProblem(e.getMessage()), e);
+        }
+        return store;
+    }
+
+    /**
+     * Refuses a {@code --by} that names a sidecar fact none of the stored wafers has: every wafer would fall into the
+     * one group of wafers without it, charted or mapped as if asked for.
+     *
+     * @param by the grouping given (null: none)
+     */
+    static void requireKnownGrouping(trapmap.store.ResultsStore store, String by) {
+        if (by == null || !trapmap.store.ResultsStore.groupsByAttribute(by)) {
+            return;
+        }
+        List<String> facts = new ArrayList<>(store.attributeNames());
+        facts.removeAll(List.of("lot", "measured_at")); // the lot is a grouping of its own, the time the axis
+        if (!facts.contains(by.trim())) {
+            throw new InputException("--by " + by + " is neither lot, day, week, none nor a sidecar fact of the stored"
+                    + " wafers" + (facts.isEmpty() ? " (they have none)" : " (their facts: " + String.join(", ", facts)
+                    + ")"));
+        }
+    }
+
     /** The query of the options ({@link StoreFilter#parse}, the reading the history window shares). */
     StoreFilter filter() {
         try {

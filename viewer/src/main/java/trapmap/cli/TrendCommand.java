@@ -98,14 +98,24 @@ final class TrendCommand implements Callable<Integer> {
         if (baselineCount != null && baselineUntil != null) {
             throw new InputException("--baseline and --baseline-until exclude each other: give one");
         }
+        if (baselineCount != null && baselineCount < 2) {
+            throw new InputException("--baseline must be at least 2 wafers, the fewest that give a spread (got "
+                    + baselineCount + ")");
+        }
         Baseline baseline = baselineUntil != null ? Baseline.before(time("--baseline-until", baselineUntil))
                 : Baseline.first(baselineCount == null ? Baseline.DEFAULT_COUNT : baselineCount);
         StoreTrend.Request request = new StoreTrend.Request(figure, by, query.filter(), baseline);
         StoreTrend.Outcome outcome;
-        try (ResultsStore s = ResultsStore.open(query.store)) {
+        try (ResultsStore s = ResultsStore.open(query.existingStore())) {
+            List<String> figures = s.figures();
+            if (!figures.isEmpty() && !figures.contains(figure)) {
+                throw new InputException("--figure " + figure + " is not a figure of the store; it holds "
+                        + String.join(", ", figures));
+            }
+            StoreQueryOptions.requireKnownGrouping(s, by);
             outcome = StoreTrend.analyse(s, request);
         } catch (StoreException e) {
-            throw new InputException("--store " + Flags.oneLine(e.getMessage()));
+            throw new InputException("--store " + Flags.storeProblem(e.getMessage()));
         } catch (InvalidValueException e) {
             String flag = switch (e.field()) {
                 case "store" -> "--store";
@@ -119,15 +129,23 @@ final class TrendCommand implements Callable<Integer> {
         TrendReport.Caption caption = new TrendReport.Caption(figure, subtitle);
         boolean drawn = true;
         if (ext.equals("csv")) {
-            TrendTables.write(out, r);
+            try {
+                TrendTables.write(out, r);
+            } catch (IOException e) {
+                throw MapInput.cannotWrite(out, e);
+            }
         } else {
             Pictures pictures = Pictures.start();
             String name = out.getFileName().toString();
             drawn = pictures.run(name, () -> {
-                if (ext.equals("pdf")) {
-                    TrendReport.writePdf(out, r, caption);
-                } else {
-                    TrendReport.writePng(out, r, caption);
+                try {
+                    if (ext.equals("pdf")) {
+                        TrendReport.writePdf(out, r, caption);
+                    } else {
+                        TrendReport.writePng(out, r, caption);
+                    }
+                } catch (IOException e) { // drawn: only the file could not be written
+                    throw MapInput.cannotWrite(out, e);
                 }
             });
             if (!drawn) {

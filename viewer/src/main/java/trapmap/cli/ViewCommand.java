@@ -18,14 +18,14 @@ import trapmap.viewer.model.StoreHistory;
 @Command(name = "view", version = TrapmapCommand.VERSION, mixinStandardHelpOptions = true, usageHelpAutoWidth = true,
         header = "Opens wafer maps in the desktop viewer.",
         description = {
-            "Opens the given maps (TIFF or CSV with their sidecars) and folders of maps in the viewer window, or",
-            "one saved session (.json); without FILES, the bundled demonstration set. With --rules, every wafer",
-            "is judged by the rules file exactly as 'trapmap inspect' judges it. Needs a display. Returns",
-            "when the window is closed. With --store, the history window shows the control charts of that",
-            "results store (as 'trapmap trend'); without FILES the viewer then starts empty.",
+            "Opens the given maps (TIFF or CSV with their sidecars) and folders of maps in the viewer window, or one"
+                    + " saved session (.json); without FILES, the bundled demonstration set. With --rules, every"
+                    + " wafer is judged by the rules file exactly as 'trapmap inspect' judges it. Needs a display."
+                    + " Returns when the window is closed. With --store, the history window shows the control charts"
+                    + " of that results store (as 'trapmap trend'); without FILES the viewer then starts empty.",
             ""},
-        footer = {"", "Exit codes: 0 closed normally; 2 no display, a file that does not exist or an invalid rules",
-            "file."})
+        footer = {"", "Exit codes: 0 closed normally; 2 no display, a file that does not exist or an invalid rules"
+                + " file."})
 final class ViewCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;

@@ -153,4 +153,16 @@ class CasesFileTest {
         assertThat(r.err()).contains("--out must differ from --cases");
         assertThat(Files.readString(in)).isEqualTo("lifetime_us\n1\n");
     }
+
+    @Test
+    void aBinaryCasesFileIsSaidToBeNoText() throws Exception {
+        Path in = dir.resolve("map.csv");
+        Files.write(in, new byte[] {'I', 'I', 42, 0, 8, 0, 0, 0, (byte) 0xfe, (byte) 0xff, (byte) 0x80, 10});
+        Path out = dir.resolve("out.csv");
+        Cli.Run r = Cli.run("calc", "--cases", in.toString(), "--out", out.toString());
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.errLines()).containsExactly("trapmap calc: --cases " + in + ": is not UTF-8 text (a binary"
+                + " file?); a CSV table of cases with a header row was expected");
+        assertThat(out).doesNotExist();
+    }
 }

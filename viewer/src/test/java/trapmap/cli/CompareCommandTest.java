@@ -174,4 +174,38 @@ class CompareCommandTest {
             assertThat(r.errLines()).hasSize(1).first().asString().contains(bad).doesNotContain("internal error");
         }
     }
+
+    @Test
+    void anOutputOntoEitherInputOrItsSidecarIsRefusedAndTheInputsKept() throws Exception {
+        Path before = write("before", texture(5));
+        Path after = write("after", texture(6));
+        java.nio.file.Files.writeString(dir.resolve("after.json"), "{\"wafer_id\": \"W01\"}");
+        byte[] beforeBytes = java.nio.file.Files.readAllBytes(before);
+        byte[] afterBytes = java.nio.file.Files.readAllBytes(after);
+        for (Path target : new Path[] {before, after, dir.resolve("after.json")}) {
+            Cli.Run r = Cli.run("compare", before.toString(), after.toString(), "-o", target.toString());
+            assertThat(r.code()).as("%s", target).isEqualTo(2);
+            assertThat(r.errLines()).hasSize(1);
+            assertThat(r.err()).startsWith("trapmap compare: --output " + target + " would overwrite " + target)
+                    .contains("input files are never modified");
+        }
+        assertThat(java.nio.file.Files.readAllBytes(before)).isEqualTo(beforeBytes);
+        assertThat(java.nio.file.Files.readAllBytes(after)).isEqualTo(afterBytes);
+    }
+
+    @Test
+    void registrationOptionsWithNoRegistrationAreRefusedNotIgnored() throws Exception {
+        Path before = write("b", texture(5));
+        Path after = write("a", texture(5));
+        for (String[] extra : new String[][] {{"--upright"}, {"--max-rotation-deg", "3"}}) {
+            java.util.List<String> line = new java.util.ArrayList<>(java.util.List.of("compare", before.toString(),
+                    after.toString(), "--no-registration"));
+            line.addAll(java.util.List.of(extra));
+            Cli.Run r = Cli.run(line.toArray(String[]::new));
+            assertThat(r.code()).as(extra[0]).isEqualTo(2);
+            assertThat(r.errLines()).as(extra[0]).containsExactly("trapmap compare: " + extra[0] + " shapes the"
+                    + " registration, which --no-registration leaves out: give one or the other");
+        }
+        assertThat(Cli.run("compare", before.toString(), after.toString(), "--no-registration").code()).isZero();
+    }
 }

@@ -53,4 +53,52 @@ class HelpTest {
             }
         }
     }
+
+    @ParameterizedTest
+    @ValueSource(strings = {"convert", "stats", "compare", "iron", "identify"})
+    void mapConditionsDefaultToTheSidecarNotToARequiredValueOrAFixedOne(String name) {
+        CommandLine cl = command(name);
+        for (String option : new String[] {"--doping", "--temperature", "--thickness-um"}) {
+            String text = String.join(" ", cl.getCommandSpec().findOption(option).description());
+            assertThat(text).as(name + " " + option).contains("Default: the sidecar's").doesNotContain("required");
+        }
+    }
+
+    /**
+     * The text between the usage lines and the options (the description) is wrapped by picocli at the help's width: no
+     * line ends where the next line's first word would still have fitted on it (as text broken by hand for a wider
+     * screen would), within a paragraph.
+     */
+    @ParameterizedTest
+    @ValueSource(strings = {"convert", "stats", "compare", "iron", "defects", "demo", "view"})
+    void theDescriptionIsWrappedAtTheHelpsWidthNotBrokenByHand(String name) {
+        String help = Cli.run(name, "--help").out();
+        List<String> lines = List.of(help.split("\\R"));
+        int i = 0;
+        while (!lines.get(i).startsWith("Usage:")) {
+            i++;
+        }
+        i++;
+        while (lines.get(i).startsWith(" ")) { // the rest of the usage synopsis
+            i++;
+        }
+        int width = 80;
+        for (; i + 1 < lines.size() && !lines.get(i + 1).startsWith(" "); i++) {
+            String line = lines.get(i);
+            String next = lines.get(i + 1);
+            if (line.isBlank() || next.isBlank()) {
+                continue;
+            }
+            String firstWord = next.split(" ")[0];
+            assertThat(line.length() + 1 + firstWord.length()).as(name + ": '" + line + "' then '" + next + "'")
+                    .isGreaterThanOrEqualTo(width); // picocli keeps a line below the width
+        }
+    }
+
+    @ParameterizedTest
+    @ValueSource(strings = {"convert", "stats"})
+    void thePageOptionSaysWhereCountingStartsAndItsDefault(String name) {
+        String text = String.join(" ", command(name).getCommandSpec().findOption("--page").description());
+        assertThat(text).contains("from 1").contains("Default: 1.");
+    }
 }

@@ -79,4 +79,54 @@ class IronMapCommandTest {
                 "--injection", "1e13", "--json");
         assertThat(j.get("fe_i_cm3").asDouble()).isCloseTo(1.0e12, within(0.01e12)); // as before the map command
     }
+
+    @Test
+    void anOutputOrStatusOutputOntoAnInputIsRefusedAndTheInputsKept() throws Exception {
+        Path feb = dir.resolve("w-feb.tif");
+        Path fei = dir.resolve("w-fei.tif");
+        java.nio.file.Files.copy(Path.of(FEB), feb);
+        java.nio.file.Files.copy(Path.of(FEI), fei);
+        java.nio.file.Files.copy(DEMO.resolve("LOT-A03-W02-fe-i-state.json"), dir.resolve("w-fei.json"));
+        byte[] febBytes = java.nio.file.Files.readAllBytes(feb);
+        byte[] feiBytes = java.nio.file.Files.readAllBytes(fei);
+        for (String option : new String[] {"-o", "--status-output"}) {
+            for (Path target : new Path[] {feb, fei}) {
+                Cli.Run r = Cli.run("iron", feb.toString(), fei.toString(), "--no-registration", option,
+                        target.toString());
+                String named = option.equals("-o") ? "--output" : option;
+                assertThat(r.code()).as("%s %s", option, target).isEqualTo(2);
+                assertThat(r.errLines()).hasSize(1);
+                assertThat(r.err()).startsWith("trapmap iron: " + named + " " + target + " would overwrite " + target)
+                        .contains("input files are never modified");
+            }
+        }
+        assertThat(java.nio.file.Files.readAllBytes(feb)).isEqualTo(febBytes);
+        assertThat(java.nio.file.Files.readAllBytes(fei)).isEqualTo(feiBytes);
+    }
+
+    @Test
+    void badOutputsAreRefusedBeforeAnyFileIsWritten() throws Exception {
+        Path iron = dir.resolve("fe.tif");
+        Cli.Run r = Cli.run("iron", FEB, FEI, "-o", iron.toString(), "--status-output",
+                dir.resolve("status.json").toString());
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.errLines()).hasSize(1);
+        assertThat(r.err()).startsWith("trapmap iron: --status-output " + dir.resolve("status.json")
+                + ": unsupported output type");
+        assertThat(iron).doesNotExist();
+
+        r = Cli.run("iron", FEB, FEI, "-o", iron.toString(), "--status-output", iron.toString());
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.errLines()).hasSize(1);
+        assertThat(r.err()).startsWith("trapmap iron: --status-output " + iron + " is also --output");
+        assertThat(iron).doesNotExist();
+    }
+
+    @Test
+    void aMaximumTurnWithNoRegistrationIsRefusedNotIgnored() {
+        Cli.Run r = Cli.run("iron", FEB, FEI, "--no-registration", "--max-rotation-deg", "2");
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.errLines()).containsExactly("trapmap iron: --max-rotation-deg shapes the registration, which"
+                + " --no-registration leaves out: give one or the other");
+    }
 }

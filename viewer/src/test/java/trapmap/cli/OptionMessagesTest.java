@@ -128,4 +128,26 @@ class OptionMessagesTest {
             assertThat(r.err()).as(String.join(" ", args)).contains(f).contains("is a directory, not a regular file");
         }
     }
+
+    @org.junit.jupiter.api.Test
+    void aRefusedWholeNumberIsShownAsTypedWithoutADecimalPoint() {
+        String map = Path.of("..", "demo-data", "LOT-A01-W01.tif").toString();
+        String other = Path.of("..", "demo-data", "LOT-A01-W02.tif").toString();
+        Map<String[], String> cases = new LinkedHashMap<>();
+        cases.put(new String[] {"stats", map, "--edge-exclusion-mm", "-2"},
+                "trapmap stats: --edge-exclusion-mm must be in [0, 50] mm (got -2)");
+        cases.put(new String[] {"stats", map, "--threshold", "50", "--min-area-mm2", "-3"},
+                "trapmap stats: --min-area-mm2 must be >= 0 mm² (got -3)");
+        cases.put(new String[] {"compare", map, other, "--tolerance", "2"},
+                "trapmap compare: --tolerance must be a fraction in [0, 1] (got 2)");
+        cases.put(new String[] {"compare", map, other, "--max-rotation-deg", "90"},
+                "trapmap compare: --max-rotation-deg must be in [0, 45] degrees (got 90)");
+        cases.put(new String[] {"iron", map, other, "--max-rotation-deg", "-1"},
+                "trapmap iron: --max-rotation-deg must be in [0, 45] degrees (got -1)");
+        cases.forEach((args, expected) -> {
+            Cli.Run r = Cli.run(args);
+            assertThat(r.code()).as(expected).isEqualTo(2);
+            assertThat(r.errLines()).containsExactly(expected);
+        });
+    }
 }

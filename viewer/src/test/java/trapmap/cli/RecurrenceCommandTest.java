@@ -145,4 +145,26 @@ class RecurrenceCommandTest {
         assertThat(r.errLines()).hasSize(1);
         return r.errLines().get(0);
     }
+
+    @Test
+    void anOutputFolderThatCannotBeMadeSaysWhy() throws Exception {
+        Path dangling = dir.resolve("dangling");
+        java.nio.file.Files.createSymbolicLink(dangling, dir.resolve("removed-folder"));
+        Path out = dangling.resolve("maps");
+        Cli.Run r = Cli.run("recurrence", "--store", store.toString(), "-o", out.toString());
+        assertThat(r.code()).isEqualTo(Exit.OUTPUT_NOT_WRITTEN);
+        assertThat(r.errLines()).containsExactly("trapmap recurrence: -o " + out + ": cannot be made: " + dangling
+                + " exists and is not a folder");
+    }
+
+    @Test
+    void aGroupingByAFactNoWaferHasIsRefusedNamingTheFacts() {
+        Path out = dir.resolve("by-typo");
+        Cli.Run r = Cli.run("recurrence", "--store", store.toString(), "--by", "boat_slt", "-o", out.toString());
+        assertThat(r.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(r.errLines()).hasSize(1).first().asString().startsWith("trapmap recurrence: --by boat_slt is"
+                + " neither lot, day, week, none nor a sidecar fact of the stored wafers (their facts: ")
+                .contains("boat_slot");
+        assertThat(out).doesNotExist();
+    }
 }

@@ -97,4 +97,30 @@ class ReportCommandTest {
         assertThat(d.err()).contains("--rules");
         assertThat(pdf).doesNotExist();
     }
+
+    @Test
+    void aReportThatCannotBeWrittenSaysWhyWithoutAnInternalError() throws Exception {
+        Path blocked = dir.resolve("not-a-folder");
+        java.nio.file.Files.writeString(blocked, "x");
+        Path pdf = blocked.resolve("w01.pdf");
+        Cli.Run r = Cli.run("report", DEMO.resolve("LOT-A01-W01.tif").toString(), "--rules", RULES.toString(),
+                "-o", pdf.toString());
+        assertThat(r.code()).isEqualTo(Exit.INTERNAL_ERROR);
+        assertThat(r.errLines()).containsExactly("trapmap report: " + pdf + ": cannot write: " + blocked
+                + " exists and is not a folder");
+    }
+
+    @Test
+    void anUnknownDefectIsRefusedWithTheIdsThatCanJudge() {
+        Path pdf = dir.resolve("none2.pdf");
+        for (String id : new String[] {"fe-x", "bo-lid"}) {
+            Cli.Run r = Cli.run("report", DEMO.resolve("LOT-A01-W01.tif").toString(), "--rules", RULES.toString(),
+                    "-o", pdf.toString(), "--defect", id);
+            assertThat(r.code()).as(id).isEqualTo(Exit.INVALID_INPUT);
+            assertThat(r.errLines()).as(id).hasSize(1);
+            assertThat(r.err()).as(id).startsWith("trapmap report: --defect unknown defect '" + id + "'")
+                    .contains("(these have them: fe-i, fe-b, ").doesNotContain("bo-lid,");
+            assertThat(pdf).doesNotExist();
+        }
+    }
 }

@@ -193,4 +193,19 @@ class StatsCommandTest {
         assertThat(w.code()).isEqualTo(2);
         assertThat(w.errLines()).hasSize(1).first().asString().contains("--wafer");
     }
+
+    @Test
+    void regionOptionsWithoutAThresholdAreRefusedNotIgnored() {
+        String map = Path.of("..", "demo-data", "LOT-A01-W01.tif").toString();
+        for (String[] extra : new String[][] {{"--flag", "above"}, {"--flag", "sideways"}, {"--min-area-mm2", "4"}}) {
+            Cli.Run r = Cli.run("stats", map, extra[0], extra[1]);
+            assertThat(r.code()).as(extra[0]).isEqualTo(2);
+            assertThat(r.errLines()).as(extra[0]).containsExactly("trapmap stats: " + extra[0] + " belongs to"
+                    + " --threshold (the flagged regions): give --threshold in the map's unit (µs for lifetimes,"
+                    + " cm^-3 for densities)");
+            assertThat(r.out()).isEmpty();
+        }
+        assertThat(Cli.run("stats", map, "--threshold", "50", "--flag", "below", "--min-area-mm2", "4").code())
+                .isZero();
+    }
 }

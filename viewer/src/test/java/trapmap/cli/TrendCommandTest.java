@@ -239,4 +239,51 @@ class TrendCommandTest {
                     .getRecords());
         }
     }
+
+    @Test
+    void anOutputThatCannotBeWrittenSaysWhyWithoutAnInternalError() throws Exception {
+        Path blocked = dir.resolve("not-a-folder");
+        java.nio.file.Files.writeString(blocked, "x");
+        for (String name : new String[] {"trend.csv", "trend.png"}) {
+            Path out = blocked.resolve(name);
+            Cli.Run run = Cli.run("trend", "--store", store.toString(), "--figure", FIGURE, "-o", out.toString());
+            assertThat(run.code()).as(name).isEqualTo(Exit.INTERNAL_ERROR);
+            assertThat(run.errLines()).as(name).containsExactly("trapmap trend: " + out + ": cannot write: " + blocked
+                    + " exists and is not a folder");
+        }
+    }
+
+    @Test
+    void aFigureTheStoreDoesNotHoldIsNamedWithTheFiguresItHolds() {
+        Path csv = dir.resolve("typo.csv");
+        Cli.Run run = Cli.run("trend", "--store", store.toString(), "--figure", "trap_density_p5O_cm3", "-o",
+                csv.toString());
+        assertThat(run.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(run.errLines()).hasSize(1);
+        assertThat(run.err()).startsWith("trapmap trend: --figure trap_density_p5O_cm3 is not a figure of the store;"
+                + " it holds ").contains(FIGURE).doesNotContain("baseline");
+        assertThat(csv).doesNotExist();
+    }
+
+    @Test
+    void aBaselineOfFewerThanTwoWafersNamesTheOption() {
+        for (String n : new String[] {"0", "1", "-3"}) {
+            Cli.Run run = Cli.run("trend", "--store", store.toString(), "--figure", FIGURE, "--baseline", n, "-o",
+                    dir.resolve("b.csv").toString());
+            assertThat(run.code()).as(n).isEqualTo(Exit.INVALID_INPUT);
+            assertThat(run.errLines()).as(n).containsExactly("trapmap trend: --baseline must be at least 2 wafers,"
+                    + " the fewest that give a spread (got " + n + ")");
+        }
+    }
+
+    @Test
+    void aGroupingByAFactNoWaferHasIsRefusedNamingTheFacts() {
+        Path csv = dir.resolve("by-typo.csv");
+        Cli.Run run = Cli.run("trend", "--store", store.toString(), "--figure", FIGURE, "--by", "furnace_tub", "-o",
+                csv.toString());
+        assertThat(run.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(run.errLines()).containsExactly("trapmap trend: --by furnace_tub is neither lot, day, week, none nor"
+                + " a sidecar fact of the stored wafers (their facts: furnace_tube)");
+        assertThat(csv).doesNotExist();
+    }
 }

@@ -70,7 +70,7 @@ public record IronPairRules(String febState, String feiState, List<IronLimit> li
         try {
             root = new ObjectMapper().readTree(text);
         } catch (JsonProcessingException e) {
-            throw new RulesException(name + ": not valid JSON: " + e.getOriginalMessage());
+            throw new RulesException(name + ": not valid JSON: " + trapmap.maps.io.JsonErrors.reason(e));
         }
         if (root == null || !root.has("iron")) {
             return Optional.empty();

@@ -524,6 +524,8 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
             throw new RulesException(name + ": no such rules file");
         } catch (trapmap.maps.io.InputFiles.Refused e) {
             throw new RulesException(name + ": rules file " + e.reason());
+        } catch (java.nio.charset.CharacterCodingException e) {
+            throw new RulesException(name + ": rules file is not UTF-8 text");
         } catch (IOException e) {
             throw new RulesException(name + ": cannot read the rules file (" + e + ")");
         }
@@ -644,7 +646,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
                     try {
                         doping = MapFiles.parseDoping(t);
                     } catch (IllegalArgumentException e) {
-                        throw error("conditions.doping", e.getMessage(), "cm^-3 or ohm·cm");
+                        throw error("conditions.doping", e.getMessage(), ""); // the message names its unit
                     }
                 }
                 Double injection = optionalNumber(n, "injection_cm3", "conditions", "cm^-3", 1e6, 1e19);

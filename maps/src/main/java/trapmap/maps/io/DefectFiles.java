@@ -150,7 +150,7 @@ public final class DefectFiles {
             JsonLocation at = e.getLocation();
             String place = at == null ? "" : " at line " + at.getLineNr() + ", column " + at.getColumnNr();
             throw new DefectFileException(origin, null, "", origin + ": not valid JSON" + place + ": "
-                    + oneLine(e.getOriginalMessage()), e);
+                    + oneLine(JsonErrors.reason(e)), e);
         }
         if (root == null || root.isMissingNode()) {
             throw new DefectFileException(origin, null, "", origin + ": is empty; " + SHAPE, null);

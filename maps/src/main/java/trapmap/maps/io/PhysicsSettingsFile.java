@@ -96,6 +96,8 @@ public final class PhysicsSettingsFile {
             throw new InvalidValueException("physics", "", name + ": no such physics settings file");
         } catch (InputFiles.Refused e) {
             throw new InvalidValueException("physics", "", name + ": physics settings file " + e.reason());
+        } catch (java.nio.charset.CharacterCodingException e) {
+            throw new InvalidValueException("physics", "", name + ": physics settings file is not UTF-8 text");
         } catch (IOException e) {
             throw new InvalidValueException("physics", "", name + ": cannot read the physics settings file (" + e
                     + ")");

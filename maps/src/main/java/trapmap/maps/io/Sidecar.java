@@ -277,7 +277,7 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
             JsonLocation at = e.getLocation();
             String place = at == null || at.getLineNr() < 0 ? null : "line " + at.getLineNr() + ", column "
                     + at.getColumnNr();
-            throw new MapFormatException(origin, place, "not valid JSON: " + e.getOriginalMessage(), "", e);
+            throw new MapFormatException(origin, place, "not valid JSON: " + JsonErrors.reason(e), "", e);
         } catch (RuntimeException e) {
             throw new MapFormatException(origin, null, "not valid JSON: " + e.getMessage(), "", e);
         }

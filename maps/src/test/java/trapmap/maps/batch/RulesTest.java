@@ -234,4 +234,13 @@ class RulesTest {
                 .hasMessageStartingWith("r.json: field 'conditions.ov\\rride': unknown key")
                 .satisfies(e -> assertThat(e.getMessage()).doesNotContain("\r").doesNotContain("\n"));
     }
+
+    @Test
+    void aBadDopingNamesItsUnitOnce() {
+        assertThatThrownBy(() -> parse(("{'conditions': {'doping': 'p:-1e16'}" + ", " + FLAG.replace('"', '\'')
+                + "}").replace('\'', '"'))).hasMessage("r.json: field 'conditions.doping': density must be in [1e10,"
+                + " 1e19] cm^-3 (got -1e16)");
+        assertThatThrownBy(() -> parse(("{'conditions': {'doping': 'p:0ohmcm'}" + ", " + FLAG.replace('"', '\'')
+                + "}").replace('\'', '"'))).hasMessageEndingWith("Ω·cm (got 0)");
+    }
 }

@@ -452,7 +452,8 @@ public final class ViewerModel {
     private void requireDefect(String id) {
         if (id != null && defects.byId(id) == null) {
             throw new IllegalArgumentException("unknown defect '" + id + "'; choose a library defect with absolute"
-                    + " cross-sections or add one");
+                    + " cross-sections or add one (these have them: " + String.join(", ", defects.all().stream()
+                    .map(Defect::id).toList()) + ")");
         }
     }
 
