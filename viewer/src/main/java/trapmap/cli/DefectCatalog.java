@@ -52,11 +52,20 @@ final class DefectCatalog {
     }
 
     /**
-     * The defect with this id (case-insensitive).
+     * The defect with this id (case-insensitive), given by {@code --defect}.
      *
      * @throws InputException listing the known ids when there is none
      */
     Defect find(String id) {
+        return find("--defect", id);
+    }
+
+    /**
+     * The defect with this id (case-insensitive), given by {@code option}.
+     *
+     * @throws InputException naming {@code option} and listing the known ids when there is none
+     */
+    Defect find(String option, String id) {
         String key = id.trim().toLowerCase(Locale.ROOT);
         List<Defect> all = new ArrayList<>(builtIn);
         all.addAll(user);
@@ -66,7 +75,7 @@ final class DefectCatalog {
             }
         }
         String known = "built-in: " + ids(builtIn) + (user.isEmpty() ? "" : "; from " + userFile + ": " + ids(user));
-        throw new InputException("--defect '" + id.trim() + "' is not a known defect id (" + known + ")");
+        throw new InputException(option + " '" + id.trim() + "' is not a known defect id (" + known + ")");
     }
 
     private static String ids(List<Defect> defects) {

@@ -154,7 +154,7 @@ final class IdentifyCommand implements Callable<Integer> {
             out.addAll(catalog.user());
         } else {
             for (String id : defects) {
-                Defect d = catalog.find(id);
+                Defect d = catalog.find("--defects", id);
                 if (!out.contains(d)) {
                     out.add(d);
                 }
