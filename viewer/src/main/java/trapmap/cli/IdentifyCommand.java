@@ -140,7 +140,7 @@ final class IdentifyCommand implements Callable<Integer> {
         try {
             written = IdentificationFiles.write(r, output, json);
         } catch (IOException e) {
-            throw new MapInput.OutputException(output + ": cannot write: " + Flags.oneLine(e.getMessage()), e);
+            throw MapInput.cannotWrite(output, e);
         }
         print(r, written);
         return Exit.OK;

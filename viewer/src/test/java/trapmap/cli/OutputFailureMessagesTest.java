@@ -72,4 +72,17 @@ class OutputFailureMessagesTest {
         assertThat(r.err()).startsWith("trapmap demo: cannot write the demonstration set to " + out + ": ")
                 .containsPattern("Not a directory|exists and is not a folder").doesNotContain(".tmp");
     }
+
+    @Test
+    void identifySaysThatTheOutputFolderIsAFile() throws Exception {
+        Path stack = DEMO.resolve("injection-stack");
+        Path blocked = fileInTheWay();
+        Path out = blocked.resolve("hint.tif");
+        Cli.Run r = Cli.run("identify", stack.resolve("LOT-S01-W01-dn1e13.tif").toString(),
+                stack.resolve("LOT-S01-W01-dn1e14.tif").toString(), "--defects", "fe-i", "--block", "8",
+                "-o", out.toString());
+        assertThat(r.code()).isEqualTo(3);
+        assertThat(r.errLines()).containsExactly("trapmap identify: " + out + ": cannot write: " + blocked
+                + " exists and is not a folder");
+    }
 }
