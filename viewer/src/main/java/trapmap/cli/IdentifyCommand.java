@@ -35,7 +35,7 @@ import trapmap.physics.spectroscopy.LifetimeCurve;
             "MAP1 MAP2 [MAP3 ...] are lifetime (or PL) maps of one wafer at different injection levels, each sidecar"
                     + " giving its injection_cm3 (or generation_cm3_s), or one multi-page file whose sidecar 'pages'"
                     + " objects give them ({\"label\": \"1e13\", \"injection_cm3\": 1e13}). The condition flags"
-                    + " apply to every level; --injection and --generation are refused (each level has its own).",
+                    + " apply to every level; there is no --injection or --generation (each level has its own).",
             "",
             "Every level is registered onto the first (unless --no-registration): upright, turned at most 2°,"
                     + " and kept as measured unless a shift (or shift and turn) scores clearly better; τ_SRH is"

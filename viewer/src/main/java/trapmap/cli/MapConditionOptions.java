@@ -56,6 +56,18 @@ final class MapConditionOptions {
             description = "Δn in cm^-3 at which the lifetime-at-reference map is computed. Default: none.")
     Double referenceInjection;
 
+    /**
+     * Takes the options {@code names} of this mixin out of {@code command}'s help while still parsing them, so that
+     * the command can refuse them with a line saying why instead of offering them.
+     */
+    static void hide(picocli.CommandLine.Model.CommandSpec command, String... names) {
+        for (String name : names) {
+            picocli.CommandLine.Model.OptionSpec shown = command.findOption(name);
+            command.remove(shown);
+            command.addOption(shown.toBuilder().hidden(true).build());
+        }
+    }
+
     /** The flags as conditions that override the sidecar's. */
     MeasurementConditions overrides() {
         if (injection != null && generation != null) {

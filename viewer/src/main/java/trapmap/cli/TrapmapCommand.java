@@ -84,6 +84,10 @@ public final class TrapmapCommand implements Callable<Integer> {
                 if (type == InspectCommand.class && args != null) {
                     InspectCommand.takeInputsInRuns(cl.getSubcommands().get("inspect").getCommandSpec(), args);
                 }
+                if (type == IdentifyCommand.class) { // each level has its own injection: refused, not offered
+                    MapConditionOptions.hide(cl.getSubcommands().get("identify").getCommandSpec(), "--injection",
+                            "--generation");
+                }
             } else {
                 CommandSpec outline = outline(type);
                 cl.addSubcommand(outline.name(), outline);

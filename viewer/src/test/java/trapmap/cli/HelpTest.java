@@ -101,4 +101,17 @@ class HelpTest {
         String text = String.join(" ", command(name).getCommandSpec().findOption("--page").description());
         assertThat(text).contains("from 1").contains("Default: 1.");
     }
+
+    /** identify reads each level's injection from its sidecar: its help offers no --injection or --generation. */
+    @org.junit.jupiter.api.Test
+    void identifyOffersNoInjectionOrGeneration() {
+        Cli.Run help = Cli.run("identify", "--help");
+        assertThat(help.code()).isZero();
+        assertThat(help.out()).contains("--doping=").contains("there is no --injection or --generation")
+                .doesNotContain("--injection=").doesNotContain("--generation=");
+        Cli.Run refused = Cli.run("identify", "a.tif", "b.tif", "-o", "x.tif", "--generation", "1e19");
+        assertThat(refused.code()).isEqualTo(2);
+        assertThat(refused.errLines()).hasSize(1);
+        assertThat(refused.err()).contains("--generation would give every level the same value");
+    }
 }
