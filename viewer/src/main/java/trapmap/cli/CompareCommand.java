@@ -122,6 +122,11 @@ final class CompareCommand implements Callable<Integer> {
             throw new InputException(afterFile + " holds " + after.quantity().key() + " but " + beforeFile + " holds "
                     + before.quantity().key() + "; compare maps of one quantity (or use --defect)");
         }
+        if (kind.equals("reduction") && !MapComparison.isDensity(before.quantity())) {
+            // 1 − after/before is a share of defects removed only for densities, with or without -o
+            throw new InputException("--quantity reduction needs density maps (trap or iron density); these hold "
+                    + before.quantity().key() + " (use --defect)");
+        }
         if (noRegistration && (before.width() != after.width() || before.height() != after.height())) {
             throw new InputException("--no-registration needs maps of one size, but " + beforeFile + " is "
                     + before.width() + "x" + before.height() + " px and " + afterFile + " is " + after.width()
@@ -138,13 +143,7 @@ final class CompareCommand implements Callable<Integer> {
             WaferMap out = switch (kind) {
                 case "difference" -> MapComparison.difference(before, aligned);
                 case "relative-change" -> MapComparison.relativeChange(before, aligned);
-                case "reduction" -> {
-                    if (!MapComparison.isDensity(before.quantity())) {
-                        throw new InputException("--quantity reduction needs density maps (trap or iron density);"
-                                + " these hold " + before.quantity().key() + " (use --defect)");
-                    }
-                    yield MapComparison.reduction(before, aligned);
-                }
+                case "reduction" -> MapComparison.reduction(before, aligned);
                 default -> MapComparison.ratio(before, aligned);
             };
             MapInput.write(out, output);

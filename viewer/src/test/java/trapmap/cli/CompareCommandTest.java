@@ -5,6 +5,7 @@ import static org.assertj.core.api.Assertions.within;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import java.nio.file.Path;
+import java.util.List;
 import java.util.Map;
 import java.util.Random;
 import org.junit.jupiter.api.Test;
@@ -107,6 +108,23 @@ class CompareCommandTest {
         // N_t ∝ 1/τ_SRH; with τ_intr ≫ τ at these lifetimes, four times the lifetime is about 75 % fewer traps.
         assertThat(median).isCloseTo(0.75, within(0.02));
         assertThat(j.get("paired").get("quantity").asText()).isEqualTo("trap-density");
+    }
+
+    /** 1 − after/before is a share of defects removed only for densities: refused on lifetimes, -o or not. */
+    @Test
+    void reductionOfLifetimeMapsIsRefusedWithOrWithoutAnOutput() {
+        String b = DEMO.resolve("LOT-A02-W05-before-gettering.tif").toString();
+        String a = DEMO.resolve("LOT-A02-W05-after-gettering.tif").toString();
+        for (List<String> out : List.of(List.<String>of(), List.of("-o", dir.resolve("red.tif").toString()))) {
+            List<String> args = new java.util.ArrayList<>(List.of("compare", b, a, "--quantity", "reduction"));
+            args.addAll(out);
+            Cli.Run r = Cli.run(args.toArray(String[]::new));
+            assertThat(r.code()).as("%s", args).isEqualTo(2);
+            assertThat(r.out()).isEmpty();
+            assertThat(r.errLines()).containsExactly("trapmap compare: --quantity reduction needs density maps (trap"
+                    + " or iron density); these hold effective-lifetime (use --defect)");
+        }
+        assertThat(dir.resolve("red.tif")).doesNotExist();
     }
 
     @Test
