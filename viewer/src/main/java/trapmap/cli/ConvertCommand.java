@@ -105,11 +105,21 @@ final class ConvertCommand implements Callable<Integer> {
     @Mixin
     MapConditionOptions conditions;
 
+    /** Convert's own: the other map commands make no lifetime-at-reference map, so they do not offer it. */
+    @Option(names = "--reference-injection", paramLabel = "<cm^-3>", converter = Quantity.Density.class,
+            description = "Δn in cm^-3 at which the lifetime-at-reference map is computed; only with --quantity"
+                    + " lifetime-at-reference. Default: none.")
+    Double referenceInjection;
+
     @Override
     public Integer call() throws MapFormatException {
         MapInput.refuseOverwriting(output, List.of(output), List.of(input));
         String name = quantity != null ? quantity.trim().toLowerCase(Locale.ROOT)
                 : defect != null ? trapmap.maps.model.Quantity.TRAP_DENSITY.key() : null;
+        if (referenceInjection != null && !trapmap.maps.model.Quantity.LIFETIME_AT_REFERENCE.key().equals(name)) {
+            throw new InputException("--reference-injection applies only to --quantity lifetime-at-reference, not to "
+                    + (name == null ? "a plain format conversion" : "--quantity " + name));
+        }
         if (name == null || name.equals(LIFETIME.key())) {
             return copy(name != null);
         }
@@ -129,7 +139,7 @@ final class ConvertCommand implements Callable<Integer> {
                     + Flags.expected("--defect") + "; only " + LIFETIME.key() + " or a plain format conversion"
                     + " (no --quantity) needs none");
         }
-        if (wanted == trapmap.maps.model.Quantity.LIFETIME_AT_REFERENCE && conditions.referenceInjection == null) {
+        if (wanted == trapmap.maps.model.Quantity.LIFETIME_AT_REFERENCE && referenceInjection == null) {
             throw new InputException("--quantity lifetime-at-reference needs --reference-injection (Δn in cm^-3)");
         }
         Defect d = DefectCatalog.load(defectFile).find(defect);
@@ -153,7 +163,7 @@ final class ConvertCommand implements Callable<Integer> {
      * see {@link MapStream#open}; else the input alone is whole).
      */
     private int streamed(Defect d, trapmap.maps.model.Quantity wanted) throws MapFormatException {
-        ConversionSettings settings = conditions.settings();
+        ConversionSettings settings = settings();
         // The kernel is compiled on the second core while this thread opens the input (results do not depend on it).
         HeadStart warmUp = BandConversion.warmUp(conditions.applyTo(BandConversion.WARM_UP_CONDITIONS), d,
                 settings, wanted);
@@ -244,6 +254,12 @@ final class ConvertCommand implements Callable<Integer> {
      * Writes the input map (with the flags' conditions) in the format of {@code -o}: as it is, or, when {@code
      * lifetime}, as an effective-lifetime map (a PL map through its calibration). No defect is involved.
      */
+    /** The conversion settings of the condition flags, with the reference injection when one is given. */
+    ConversionSettings settings() {
+        ConversionSettings s = conditions.settings();
+        return referenceInjection == null ? s : s.withReferenceInjection(referenceInjection);
+    }
+
     private int copy(boolean lifetime) throws MapFormatException {
         WaferMap map = MapInput.page(input, page);
         WaferMap out = map.withConditions(conditions.applyTo(map.conditions()));
@@ -286,7 +302,7 @@ final class ConvertCommand implements Callable<Integer> {
         WaferMap map = MapInput.page(input, page);
         WaferMap withConditions = map.withConditions(conditions.applyTo(map.conditions()));
         // The note is counted in the conversion's pass over the pixels (no scan of its own).
-        MapConversion.Result result = MapConversion.convert(withConditions, d, conditions.settings(),
+        MapConversion.Result result = MapConversion.convert(withConditions, d, settings(),
                 java.util.EnumSet.of(wanted));
         return new Converted(result, result.lifetimeFloorNote());
     }

@@ -239,6 +239,11 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
         }
         String help = " (see '" + ex.getCommandLine().getCommandSpec().qualifiedName() + " --help')";
         if (ex instanceof UnmatchedArgumentException u) {
+            for (String a : u.getUnmatched()) {
+                if (a.equals("--reference-injection") || a.startsWith("--reference-injection=")) {
+                    return "--reference-injection applies only to convert --quantity lifetime-at-reference" + help;
+                }
+            }
             List<String> suggestions = u.getSuggestions();
             String first = Flags.oneLine(u.getMessage());
             return suggestions.isEmpty() ? first + help

@@ -73,7 +73,7 @@ final class ExceedanceOutput {
         UncertaintySettings u = uncertainty();
         WaferMap map = MapInput.page(c.input, c.page);
         map = map.withConditions(c.conditions.applyTo(map.conditions()));
-        ConversionSettings settings = c.conditions.settings();
+        ConversionSettings settings = c.settings();
         // N* of a quantile map only sets each sample's threshold lifetime, which the quantile does not read
         double nStar = probability ? c.threshold : 1;
         int threads = Runtime.getRuntime().availableProcessors();

@@ -52,10 +52,6 @@ final class MapConditionOptions {
             + " --vth and --surface-model override its fields.")
     java.nio.file.Path physics;
 
-    @Option(names = "--reference-injection", paramLabel = "<cm^-3>", converter = Quantity.Density.class,
-            description = "Δn in cm^-3 at which the lifetime-at-reference map is computed. Default: none.")
-    Double referenceInjection;
-
     /**
      * Takes the options {@code names} of this mixin out of {@code command}'s help while still parsing them, so that
      * the command can refuse them with a line saying why instead of offering them.
@@ -100,9 +96,6 @@ final class MapConditionOptions {
         }
         if (surfaceModel != null) {
             s = s.withSurfaceModel(surfaceModel);
-        }
-        if (referenceInjection != null) {
-            s = s.withReferenceInjection(referenceInjection);
         }
         return s;
     }
