@@ -108,7 +108,8 @@ final class CalcCommand implements Callable<Integer> {
     Path cases;
 
     @Option(names = {"-o", "--out", "--output"}, paramLabel = "<out.csv>", order = 15,
-            description = "CSV file to write the converted cases to; replaced atomically. Default: none.")
+            description = "CSV file to write the converted cases to (folders created when missing); replaced"
+                    + " atomically. Default: none.")
     Path out;
 
     @Override
