@@ -107,8 +107,9 @@ final class CalcCommand implements Callable<Integer> {
             description = "CSV table of cases to convert (columns below); needs --out. Default: none.")
     Path cases;
 
-    @Option(names = "--out", paramLabel = "<out.csv>", order = 15,
-            description = "CSV file to write the converted cases to; replaced atomically. Default: none.")
+    @Option(names = {"-o", "--out", "--output"}, paramLabel = "<out.csv>", order = 15,
+            description = "CSV file to write the converted cases to (folders created when missing); replaced"
+                    + " atomically. Default: none.")
     Path out;
 
     @Override

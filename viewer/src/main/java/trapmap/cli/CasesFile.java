@@ -5,12 +5,9 @@ import java.io.IOException;
 import java.io.Reader;
 import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.AtomicMoveNotSupportedException;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
-import java.nio.file.StandardCopyOption;
-import java.nio.file.StandardOpenOption;
 import java.util.ArrayList;
 import java.util.EnumMap;
 import java.util.HashSet;
@@ -19,7 +16,6 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.Set;
-import java.util.UUID;
 import org.apache.commons.csv.CSVFormat;
 import trapmap.maps.io.CsvCells;
 import org.apache.commons.csv.CSVParser;
@@ -35,7 +31,8 @@ import trapmap.shared.error.InvalidValueException;
  * other columns are carried through. The output has the input columns, then every result field (a field whose name
  * is already an input column is written as {@code result_<name>}), then {@code error}. A row that cannot be
  * converted gets {@code status=ERROR} and its message in {@code error}; the other rows go on. The output is written
- * to a temporary file beside the target and then moved over it, so that a reader never sees half a file.
+ * through {@link trapmap.maps.io.AtomicFiles} (its folder created when missing), so that a reader never sees half a
+ * file.
  */
 final class CasesFile {
     /** Outcome of a run. */
@@ -181,35 +178,19 @@ final class CasesFile {
     }
 
     private static void write(Path out, List<List<String>> rows) {
-        Path target = out.toAbsolutePath();
-        Path dir = target.getParent();
-        Path tmp = null;
         try {
-            // Created like any new file (permissions from the umask), under a name no one else uses.
-            tmp = dir.resolve("." + target.getFileName() + "." + UUID.randomUUID() + ".tmp");
-            try (BufferedWriter w = Files.newBufferedWriter(tmp, StandardCharsets.UTF_8, StandardOpenOption.CREATE_NEW,
-                    StandardOpenOption.WRITE);
-                 CSVPrinter printer = new CSVPrinter(w, CSVFormat.DEFAULT.builder().setRecordSeparator('\n').get())) {
-                for (List<String> row : rows) {
-                    printer.printRecord(row.stream().map(CsvCells::text).toList());
+            // the folder is created when missing; readers see the old file or the complete new one
+            trapmap.maps.io.AtomicFiles.write(out, tmp -> {
+                try (BufferedWriter w = Files.newBufferedWriter(tmp, StandardCharsets.UTF_8);
+                     CSVPrinter printer = new CSVPrinter(w,
+                             CSVFormat.DEFAULT.builder().setRecordSeparator('\n').get())) {
+                    for (List<String> row : rows) {
+                        printer.printRecord(row.stream().map(CsvCells::text).toList());
+                    }
                 }
-            }
-            try {
-                Files.move(tmp, target, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);
-            } catch (AtomicMoveNotSupportedException e) {
-                Files.move(tmp, target, StandardCopyOption.REPLACE_EXISTING);
-            }
-            tmp = null;
+            });
         } catch (IOException e) {
             throw new InputException("--out " + out + ": cannot write it (" + MapInput.writeFailure(e) + ")", e);
-        } finally {
-            if (tmp != null) {
-                try {
-                    Files.deleteIfExists(tmp);
-                } catch (IOException ignored) {
-                    // best effort: the temporary file is hidden and named after the target
-                }
-            }
         }
     }
 }

@@ -59,7 +59,7 @@ final class CompareCommand implements Callable<Integer> {
                     + " Default: ratio.")
     String quantity;
 
-    @Option(names = {"-o", "--output"}, paramLabel = "<file>",
+    @Option(names = {"-o", "--output", "--out"}, paramLabel = "<file>",
             description = "Output map: .tif, .csv (x_mm,y_mm,value) or .png. Default: none (statistics only).")
     Path output;
 

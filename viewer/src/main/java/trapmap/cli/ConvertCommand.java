@@ -55,7 +55,7 @@ final class ConvertCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "MAP", description = "Effective-lifetime (µs) or PL-counts map file.")
     Path input;
 
-    @Option(names = {"-o", "--output"}, paramLabel = "<file>", required = true,
+    @Option(names = {"-o", "--output", "--out"}, paramLabel = "<file>", required = true,
             description = "Output file: .tif/.tiff (float, metadata embedded), .csv (x_mm,y_mm,value) or .png.")
     Path output;
 

@@ -47,7 +47,7 @@ final class DemoCommand implements Callable<Integer> {
 
     /** Where to write, and which set: exactly one of the two. */
     static final class Target {
-        @Option(names = "--out", paramLabel = "<dir>", required = true, order = 1,
+        @Option(names = {"-o", "--out", "--output"}, paramLabel = "<dir>", required = true, order = 1,
                 description = "Folder to write the demonstration set into (created when missing; must be empty"
                         + " unless --force).")
         Path out;

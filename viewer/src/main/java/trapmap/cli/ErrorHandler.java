@@ -223,7 +223,7 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
                 // an exclusive group none of whose options was given: one of them is needed
                 for (ArgGroupSpec g : ex.getCommandLine().getCommandSpec().argGroups()) {
                     List<String> names = new ArrayList<>();
-                    g.options().forEach(o -> names.add(o.longestName()));
+                    g.options().forEach(o -> names.add(Flags.name(o)));
                     if (g.exclusive() && names.size() > 1
                             && (names.contains(flag) || !Collections.disjoint(names, missing))) {
                         List<String> each = new ArrayList<>();
@@ -264,6 +264,6 @@ final class ErrorHandler implements IParameterExceptionHandler, IExecutionExcept
     }
 
     private static String flagOf(ArgSpec arg) {
-        return arg instanceof OptionSpec o ? o.longestName() : null;
+        return arg instanceof OptionSpec o ? Flags.name(o) : null;
     }
 }

@@ -107,6 +107,19 @@ final class Flags {
     private Flags() {
     }
 
+    /**
+     * The name messages use for {@code option}: its first declared long name, so that an option with several
+     * spellings ({@code -o, --out, --output}) keeps the name its command documents; the longest name otherwise.
+     */
+    static String name(picocli.CommandLine.Model.OptionSpec option) {
+        for (String n : option.names()) {
+            if (n.startsWith("--")) {
+                return n;
+            }
+        }
+        return option.longestName();
+    }
+
     /** What {@code flag} expects, e.g. {@code a wafer thickness in µm}. */
     static String expected(String flag) {
         return EXPECTED.getOrDefault(flag, "a value");

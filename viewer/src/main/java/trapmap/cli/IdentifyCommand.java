@@ -59,7 +59,7 @@ final class IdentifyCommand implements Callable<Integer> {
             description = "Lifetime or PL maps of one wafer at two or more injection levels, or one multi-page file.")
     List<Path> maps;
 
-    @Option(names = {"-o", "--output"}, paramLabel = "<file.tif>", required = true,
+    @Option(names = {"-o", "--output", "--out"}, paramLabel = "<file.tif>", required = true,
             description = "Best-defect index map (.tif); the other files are written beside it.")
     Path output;
 

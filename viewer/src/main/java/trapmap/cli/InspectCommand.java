@@ -95,7 +95,7 @@ final class InspectCommand implements Callable<Integer> {
             description = "Inspection rules (schema in the README, 'Batch inspection').")
     Path rulesFile;
 
-    @Option(names = "--out", required = true, paramLabel = "<DIR>", description = "Folder for the results.")
+    @Option(names = {"-o", "--out", "--output"}, required = true, paramLabel = "<DIR>", description = "Folder for the results.")
     Path out;
 
     @Option(names = "--threads", paramLabel = "<n>",

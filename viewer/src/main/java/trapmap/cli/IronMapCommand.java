@@ -49,7 +49,7 @@ final class IronMapCommand implements Callable<Integer> {
     @Parameters(index = "1", paramLabel = "FEI", description = "Lifetime map after FeB dissociation (µs).")
     Path feiFile;
 
-    @Option(names = {"-o", "--output"}, paramLabel = "<file>",
+    @Option(names = {"-o", "--output", "--out"}, paramLabel = "<file>",
             description = "Iron map: .tif (with metadata), .csv (x_mm,y_mm,value in cm^-3) or .png. Default: none"
                     + " (statistics only).")
     Path output;

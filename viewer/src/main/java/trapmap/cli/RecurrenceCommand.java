@@ -75,7 +75,7 @@ final class RecurrenceCommand implements Callable<Integer> {
                     + " scattered single cells (default: ${DEFAULT-VALUE}).")
     int cellMm;
 
-    @Option(names = {"-o", "--out"}, required = true, paramLabel = "<DIR>",
+    @Option(names = {"-o", "--out", "--output"}, required = true, paramLabel = "<DIR>",
             description = "The output folder (made when missing; not a batch's own output folder).")
     Path out;
 

@@ -44,7 +44,7 @@ final class ReportCommand implements Callable<Integer> {
             description = "Inspection rules (schema in the README, 'Batch inspection').")
     Path rulesFile;
 
-    @Option(names = {"-o", "--out"}, required = true, paramLabel = "<FILE.pdf>", description = "The report to write.")
+    @Option(names = {"-o", "--out", "--output"}, required = true, paramLabel = "<FILE.pdf>", description = "The report to write.")
     Path out;
 
     @Option(names = "--physics", paramLabel = "<physics.json>", description = PhysicsOption.DESCRIPTION

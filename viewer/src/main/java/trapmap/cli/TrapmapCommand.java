@@ -166,7 +166,7 @@ public final class TrapmapCommand implements Callable<Integer> {
     }
 
     /** The options of {@code inspect} that take a value as the next argument. */
-    private static final List<String> INSPECT_VALUED = List.of("--rules", "--out", "--threads", "--physics");
+    private static final List<String> INSPECT_VALUED = List.of("--rules", "-o", "--out", "--output", "--threads", "--physics");
 
     /**
      * The files {@code inspect args} most likely names, for a head start only ({@link

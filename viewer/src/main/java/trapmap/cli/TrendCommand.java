@@ -81,7 +81,7 @@ final class TrendCommand implements Callable<Integer> {
                     + " when all its wafers do); instead of --baseline.")
     String baselineUntil;
 
-    @Option(names = {"-o", "--out"}, required = true, paramLabel = "<FILE>",
+    @Option(names = {"-o", "--out", "--output"}, required = true, paramLabel = "<FILE>",
             description = "The output: trend.pdf, trend.png or trend.csv.")
     Path out;
 

@@ -69,7 +69,7 @@ final class WatchCommand implements Callable<Integer> {
             description = "Inspection rules (schema in the README, 'Batch inspection').")
     Path rulesFile;
 
-    @Option(names = "--out", required = true, paramLabel = "<DIR>", description = "Folder for the results.")
+    @Option(names = {"-o", "--out", "--output"}, required = true, paramLabel = "<DIR>", description = "Folder for the results.")
     Path out;
 
     @Option(names = "--settle-s", paramLabel = "<s>", defaultValue = "2",

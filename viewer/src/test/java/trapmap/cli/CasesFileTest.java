@@ -134,14 +134,34 @@ class CasesFileTest {
     }
 
     @Test
+    void missingFoldersOfTheOutputAreCreatedAndTheFileIsTheSame() throws Exception {
+        Path in = dir.resolve("in.csv");
+        Files.writeString(in, "lifetime_us,doping,injection,defect,note\n12.5,p:1e16,1e14,fe-i,\"a, b\"\n"
+                + "x,p:1e16,1e14,fe-i,bad\n");
+        Path beside = dir.resolve("beside.csv");
+        Path out = dir.resolve("missing-dir").resolve("deeper").resolve("out.csv");
+        Cli.Run r = Cli.run("calc", "--cases", in.toString(), "--out", beside.toString());
+        Cli.Run created = Cli.run("calc", "--cases", in.toString(), "--out", out.toString());
+        assertThat(created.code()).isEqualTo(r.code()).isEqualTo(1);
+        assertThat(created.err()).doesNotContain("cannot write");
+        assertThat(Files.readAllBytes(out)).isEqualTo(Files.readAllBytes(beside));
+        try (var files = Files.list(out.getParent())) {
+            assertThat(files).as("no temporary file left").containsExactly(out);
+        }
+    }
+
+    @Test
     void unwritableOutputIsInvalidInput() throws Exception {
         Path in = dir.resolve("in.csv");
         Files.writeString(in, "lifetime_us,doping,injection,defect\n12.5,p:1e16,1e14,fe-i\n");
-        Path out = dir.resolve("missing-dir").resolve("out.csv");
+        Path file = dir.resolve("a-file");
+        Files.writeString(file, "not a folder\n");
+        Path out = file.resolve("out.csv");
         Cli.Run r = Cli.run("calc", "--cases", in.toString(), "--out", out.toString());
         assertThat(r.code()).isEqualTo(2);
         assertThat(r.errLines()).hasSize(1);
         assertThat(r.err()).startsWith("trapmap calc: --out " + out + ": cannot write it");
+        assertThat(Files.readString(file)).isEqualTo("not a folder\n");
     }
 
     @Test
