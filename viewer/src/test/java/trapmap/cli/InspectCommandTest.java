@@ -150,7 +150,7 @@ class InspectCommandTest {
                 + " \"lifetime\", \"threshold\": -1}}").toString(), "--out", out);
         assertThat(badRules.code()).isEqualTo(2);
         assertThat(badRules.errLines()).hasSize(1);
-        assertThat(badRules.err()).contains("flag.threshold").contains("(us)");
+        assertThat(badRules.err()).contains("flag.threshold").contains("(µs)");
 
         Cli.Run noOut = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString());
         assertThat(noOut.code()).isEqualTo(2);

@@ -2,6 +2,7 @@ package trapmap.maps.io;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.units.Units;
 
 /**
  * Fields of the JSON settings objects (physics settings and their {@code uncertainty} block): one message form,
@@ -44,6 +45,6 @@ final class JsonFields {
      */
     static InvalidValueException error(String name, String field, String problem, String unit) {
         return new InvalidValueException(field, unit, (name + ": field '" + field + "': " + problem
-                + (unit.isEmpty() ? "" : " (" + unit + ")")).replace("\r", "\\r").replace("\n", "\\n"));
+                + (unit.isEmpty() ? "" : " (" + Units.label(unit) + ")")).replace("\r", "\\r").replace("\n", "\\n"));
     }
 }

@@ -1,6 +1,7 @@
 package trapmap.shared.check;
 
 import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.units.Units;
 
 /**
  * Argument checks with uniform messages that name the field, the expected range and the unit:
@@ -51,7 +52,7 @@ public final class Checks {
     }
 
     private static String suffix(String unit) {
-        return unit == null || unit.isEmpty() ? "" : " " + unit;
+        return unit == null || unit.isEmpty() ? "" : " " + Units.label(unit);
     }
 
     private static InvalidValueException fail(String field, String unit, String rule, double value) {
