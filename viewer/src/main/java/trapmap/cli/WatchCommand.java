@@ -519,7 +519,7 @@ final class WatchCommand implements Callable<Integer> {
     private static long seconds(String option, double s, boolean zeroAllowed) {
         if (!Double.isFinite(s) || s < 0 || !zeroAllowed && s == 0 || s > 86_400) {
             throw new InputException(option + " must be " + (zeroAllowed ? "in [0, 86400]" : "in (0, 86400]")
-                    + " s (got " + s + ")");
+                    + " s (got " + Format.exact(s) + ")");
         }
         return Math.round(s * 1e9);
     }

@@ -101,7 +101,7 @@ class WatchCommandTest {
         Cli.Run s = Cli.run("watch", dir.toString(), "--rules", RULES, "--out", dir.resolve("o").toString(),
                 "--settle-s", "-1");
         assertThat(s.code()).isEqualTo(Exit.INVALID_INPUT);
-        assertThat(s.err()).contains("--settle-s must be in [0, 86400] s (got -1.0)");
+        assertThat(s.err()).contains("--settle-s must be in [0, 86400] s (got -1)");
     }
 
     @Test

@@ -1,6 +1,7 @@
 package trapmap.maps.io;
 
 import com.fasterxml.jackson.databind.JsonNode;
+import trapmap.shared.check.Checks;
 import trapmap.shared.error.InvalidValueException;
 import trapmap.shared.units.Units;
 
@@ -34,7 +35,8 @@ final class JsonFields {
         }
         double v = n.doubleValue();
         if (!(v >= lo && v <= hi)) {
-            throw error(name, prefix + key, "must be in [" + lo + ", " + hi + "] but was " + n.asText(), unit);
+            throw error(name, prefix + key, "must be in [" + Checks.exact(lo) + ", " + Checks.exact(hi) + "] but was "
+                    + Checks.exact(v), unit);
         }
         return v;
     }

@@ -58,6 +58,7 @@ class RulesTest {
         "{'conditions': {'doping': 'x:3'}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.doping'",
         "{'conditions': {'thickness_um': 0}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.thickness_um': must be in [1, 5000] but was 0 (µm)",
         "{'conditions': {'srv_cm_s': -1}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.srv_cm_s'",
+        "{'conditions': {'injection_cm3': 1e20}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.injection_cm3': must be in [1e6, 1e19] but was 1e20 (cm^-3)",
         "{'conditions': {'temperature_k': 1000}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.temperature_k'",
         "{'conditions': {'injection_cm3': 1e14, 'generation_cm3_s': 1e19}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.generation_cm3_s'",
         "{'conditions': {'override': 'yes'}, 'flag': {'quantity': 'lifetime', 'threshold': 10}}|field 'conditions.override'",
