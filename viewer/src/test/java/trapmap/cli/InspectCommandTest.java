@@ -101,6 +101,17 @@ class InspectCommandTest {
     }
 
     @Test
+    void anOutFolderThatCannotBeMadeAtTheStartIsNotTakenForOneRemovedDuringTheRun() throws Exception {
+        Path proc = Path.of("/proc");
+        org.junit.jupiter.api.Assumptions.assumeTrue(Files.isDirectory(proc.resolve("self")), "needs Linux /proc");
+        Path in = folder(false);
+        Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out",
+                proc.resolve("trapmap-out").toString());
+        assertThat(r.code()).isEqualTo(4);
+        assertThat(r.err()).contains("/proc/trapmap-out: ").doesNotContain("removed while the batch ran");
+    }
+
+    @Test
     void aFailingWaferExitsOne() throws Exception {
         Path in = folder(true);
         Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out",
