@@ -147,6 +147,10 @@ final class WatchCommand implements Callable<Integer> {
             throw new InputException("--on-fail " + onFail + " is not an executable program; give the program's"
                     + " path (it is run with the wafer id and verdict as arguments, without a shell)");
         }
+        String alarmProblem = alarmFile == null ? null : Alarm.unusableFile(alarmFile);
+        if (alarmProblem != null) {
+            throw new InputException("--alarm-file " + alarmFile + " cannot take alarm lines: " + alarmProblem);
+        }
         Rules parsed;
         IronPairRules ironPairs;
         RunManifest.Source source;
