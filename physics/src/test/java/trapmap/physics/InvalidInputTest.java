@@ -180,7 +180,7 @@ class InvalidInputTest {
     void rejectedWithFieldAndUnit(String label, String field, String unit, ThrowingCallable call) {
         assertThatThrownBy(call).as(label).isInstanceOf(InvalidValueException.class)
                 .hasMessageContaining(field)
-                .hasMessageContaining(unit)
+                .hasMessageContaining(trapmap.shared.units.Units.label(unit)) // shown as µm, µs
                 .satisfies(e -> assertThat(((InvalidValueException) e).field()).as(label).isEqualTo(field))
                 .satisfies(e -> assertThat(((InvalidValueException) e).unit()).as(label).isEqualTo(unit));
     }

@@ -344,10 +344,13 @@ final class ConvertCommand implements Callable<Integer> {
                     out.quantity().key(), out.quantity().unit().isEmpty() ? "no unit" : out.quantity().unit(),
                     defectId, out.width(), out.height());
             stdout.println("pixels: " + String.join(", ", pixels));
-            warnings.forEach(w -> stdout.println("warning: " + w));
             stdout.println("caution: " + Calculation.CAUTION);
         }
         stdout.flush();
+        // warnings go to stderr (the JSON object also lists them), so stdout stays the result alone
+        PrintWriter stderr = spec.commandLine().getErr();
+        warnings.forEach(w -> stderr.println("warning: " + w));
+        stderr.flush();
     }
 
     /** How the text line names the pixels of a status, e.g. "below the detection limit". */

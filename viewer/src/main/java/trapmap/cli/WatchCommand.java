@@ -147,6 +147,10 @@ final class WatchCommand implements Callable<Integer> {
             throw new InputException("--on-fail " + onFail + " is not an executable program; give the program's"
                     + " path (it is run with the wafer id and verdict as arguments, without a shell)");
         }
+        String alarmProblem = alarmFile == null ? null : Alarm.unusableFile(alarmFile);
+        if (alarmProblem != null) {
+            throw new InputException("--alarm-file " + alarmFile + " cannot take alarm lines: " + alarmProblem);
+        }
         Rules parsed;
         IronPairRules ironPairs;
         RunManifest.Source source;
@@ -519,7 +523,7 @@ final class WatchCommand implements Callable<Integer> {
     private static long seconds(String option, double s, boolean zeroAllowed) {
         if (!Double.isFinite(s) || s < 0 || !zeroAllowed && s == 0 || s > 86_400) {
             throw new InputException(option + " must be " + (zeroAllowed ? "in [0, 86400]" : "in (0, 86400]")
-                    + " s (got " + s + ")");
+                    + " s (got " + Format.exact(s) + ")");
         }
         return Math.round(s * 1e9);
     }

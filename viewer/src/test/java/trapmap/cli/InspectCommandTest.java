@@ -101,6 +101,17 @@ class InspectCommandTest {
     }
 
     @Test
+    void anOutFolderThatCannotBeMadeAtTheStartIsNotTakenForOneRemovedDuringTheRun() throws Exception {
+        Path proc = Path.of("/proc");
+        org.junit.jupiter.api.Assumptions.assumeTrue(Files.isDirectory(proc.resolve("self")), "needs Linux /proc");
+        Path in = folder(false);
+        Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out",
+                proc.resolve("trapmap-out").toString());
+        assertThat(r.code()).isEqualTo(4);
+        assertThat(r.err()).contains("/proc/trapmap-out: ").doesNotContain("removed while the batch ran");
+    }
+
+    @Test
     void aFailingWaferExitsOne() throws Exception {
         Path in = folder(true);
         Cli.Run r = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString(), "--out",
@@ -150,7 +161,7 @@ class InspectCommandTest {
                 + " \"lifetime\", \"threshold\": -1}}").toString(), "--out", out);
         assertThat(badRules.code()).isEqualTo(2);
         assertThat(badRules.errLines()).hasSize(1);
-        assertThat(badRules.err()).contains("flag.threshold").contains("(us)");
+        assertThat(badRules.err()).contains("flag.threshold").contains("(µs)");
 
         Cli.Run noOut = Cli.run("inspect", in.toString(), "--rules", rules(RULES).toString());
         assertThat(noOut.code()).isEqualTo(2);

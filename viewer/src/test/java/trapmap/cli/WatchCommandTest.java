@@ -101,7 +101,15 @@ class WatchCommandTest {
         Cli.Run s = Cli.run("watch", dir.toString(), "--rules", RULES, "--out", dir.resolve("o").toString(),
                 "--settle-s", "-1");
         assertThat(s.code()).isEqualTo(Exit.INVALID_INPUT);
-        assertThat(s.err()).contains("--settle-s must be in [0, 86400] s (got -1.0)");
+        assertThat(s.err()).contains("--settle-s must be in [0, 86400] s (got -1)");
+        // an alarm file that could never take a line is refused at the start, not at the first alarm
+        Path alarms = dir.resolve("no-such-folder").resolve("a.txt");
+        Cli.Run a = Cli.run("watch", dir.toString(), "--rules", RULES, "--out", dir.resolve("o").toString(),
+                "--alarm-file", alarms.toString(), "--exit-idle-s", "1");
+        assertThat(a.code()).isEqualTo(Exit.INVALID_INPUT);
+        assertThat(a.err().strip()).isEqualTo("trapmap watch: --alarm-file " + alarms + " cannot take alarm lines:"
+                + " its folder " + alarms.getParent() + " does not exist");
+        assertThat(dir.resolve("o")).doesNotExist();
     }
 
     @Test

@@ -700,7 +700,12 @@ public final class BatchInspection {
         finishedRows = List.of();
         finishedAsTold = false;
         phases = Phases.NONE;
-        OutputFolder.write(outDir, () -> Files.createDirectories(outDir));
+        try {
+            OutputFolder.check(outDir);
+            Files.createDirectories(outDir);
+        } catch (IOException e) { // before the run: a missing parent was never there, not removed meanwhile
+            throw BatchOutputException.atStart(outDir, e);
+        }
         try (RunLock lock = RunLock.acquire(outDir)) {
             RunManifest manifest = prepare(files, outDir, options);
             Thread hook = OutputFolder.cleanOnExit(outDir);

@@ -21,9 +21,13 @@ public final class BatchOutputException extends IOException {
     private final String reason;
 
     public BatchOutputException(Path file, IOException cause) {
-        super(fileOf(file, cause) + ": " + reasonOf(cause), cause);
+        this(file, cause, true);
+    }
+
+    private BatchOutputException(Path file, IOException cause, boolean running) {
+        super(fileOf(file, cause) + ": " + reasonOf(cause, running), cause);
         this.file = fileOf(file, cause);
-        this.reason = reasonOf(cause);
+        this.reason = reasonOf(cause, running);
     }
 
     /** The output file (or folder) that could not be written. */
@@ -46,6 +50,14 @@ public final class BatchOutputException extends IOException {
         return e instanceof BatchOutputException b ? b : new BatchOutputException(file, e);
     }
 
+    /**
+     * The failure to make the output folder {@code file} before the batch began: a missing folder is not taken for
+     * one removed during the run.
+     */
+    static BatchOutputException atStart(Path file, IOException e) {
+        return e instanceof BatchOutputException b ? b : new BatchOutputException(file, e, false);
+    }
+
     private static Path fileOf(Path file, IOException e) {
         if (e instanceof FileSystemException fse && fse.getFile() != null && !(e instanceof BatchOutputException)) {
             return Path.of(fse.getFile());
@@ -53,7 +65,7 @@ public final class BatchOutputException extends IOException {
         return file;
     }
 
-    private static String reasonOf(IOException e) {
+    private static String reasonOf(IOException e, boolean running) {
         if (e instanceof BatchOutputException b) {
             return b.reason();
         }
@@ -67,7 +79,7 @@ public final class BatchOutputException extends IOException {
             return "a file of that name is in the way";
         }
         if (e instanceof NoSuchFileException) {
-            return "no such file or folder (removed while the batch ran?)";
+            return running ? "no such file or folder (removed while the batch ran?)" : "no such file or folder";
         }
         if (e instanceof NotDirectoryException) {
             return "not a folder";

@@ -590,7 +590,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
             }
             double v = node.doubleValue();
             if (!(v >= lo && v <= hi)) {
-                throw error(path, "must be in [" + fmt(lo) + ", " + fmt(hi) + "] but was " + node.asText(), unit);
+                throw error(path, "must be in [" + fmt(lo) + ", " + fmt(hi) + "] but was " + fmt(v), unit);
             }
             return v;
         }
@@ -1030,7 +1030,7 @@ public record Rules(MeasurementConditions conditions, boolean override, String d
         }
 
         private static String fmt(double v) {
-            return v == Math.rint(v) && Math.abs(v) < 1e15 ? Long.toString((long) v) : Double.toString(v);
+            return trapmap.shared.check.Checks.exact(v);
         }
     }
 }

@@ -1,5 +1,7 @@
 package trapmap.maps.batch;
 
+import trapmap.shared.units.Units;
+
 /**
  * A rules file that cannot be used; the one-line message names the file, the field and its unit (a line break that a
  * key or value of the file brings in is shown as {@code \n} or {@code \r}).
@@ -12,13 +14,13 @@ public class RulesException extends Exception {
     }
 
     /**
-     * The refusal of one field: {@code NAME: field 'FIELD': PROBLEM (UNIT)}, the unit left out when empty.
+     * The refusal of one field: {@code NAME: field 'FIELD': PROBLEM (UNIT)}, the unit shown as {@link Units#label} writes it, left out when empty.
      *
      * @param name  the rules file's name
      * @param field the field's path, e.g. {@code profiles[0].stack.noise}
      */
     static RulesException field(String name, String field, String problem, String unit) {
         return new RulesException(name + ": field '" + field + "': " + problem
-                + (unit.isEmpty() ? "" : " (" + unit + ")"));
+                + (unit.isEmpty() ? "" : " (" + Units.label(unit) + ")"));
     }
 }

@@ -4,6 +4,7 @@ import static trapmap.maps.io.CsvLayout.unquote;
 
 import java.util.Locale;
 import trapmap.shared.units.LifetimeUnit;
+import trapmap.shared.units.Units;
 
 /**
  * Numbers in CSV maps: decimal text (a decimal comma when the delimiter is a semicolon), NaN for no data,
@@ -76,7 +77,7 @@ final class CsvNumbers {
 
     private static String unitLabel(String unit) {
         String u = unit == null ? "" : unit.trim();
-        return Sidecar.normaliseUnit(u).equals("us") ? "µs" : u;
+        return Sidecar.normaliseUnit(u).equals("us") ? "µs" : Units.label(u);
     }
 
     private static String number(String text, char delimiter) {

@@ -1,7 +1,9 @@
 package trapmap.maps.io;
 
 import com.fasterxml.jackson.databind.JsonNode;
+import trapmap.shared.check.Checks;
 import trapmap.shared.error.InvalidValueException;
+import trapmap.shared.units.Units;
 
 /**
  * Fields of the JSON settings objects (physics settings and their {@code uncertainty} block): one message form,
@@ -33,7 +35,8 @@ final class JsonFields {
         }
         double v = n.doubleValue();
         if (!(v >= lo && v <= hi)) {
-            throw error(name, prefix + key, "must be in [" + lo + ", " + hi + "] but was " + n.asText(), unit);
+            throw error(name, prefix + key, "must be in [" + Checks.exact(lo) + ", " + Checks.exact(hi) + "] but was "
+                    + Checks.exact(v), unit);
         }
         return v;
     }
@@ -44,6 +47,6 @@ final class JsonFields {
      */
     static InvalidValueException error(String name, String field, String problem, String unit) {
         return new InvalidValueException(field, unit, (name + ": field '" + field + "': " + problem
-                + (unit.isEmpty() ? "" : " (" + unit + ")")).replace("\r", "\\r").replace("\n", "\\n"));
+                + (unit.isEmpty() ? "" : " (" + Units.label(unit) + ")")).replace("\r", "\\r").replace("\n", "\\n"));
     }
 }

@@ -1,5 +1,7 @@
 package trapmap.maps.io;
 
+import trapmap.shared.units.Units;
+
 import java.io.IOException;
 
 /**
@@ -64,8 +66,10 @@ public class MapFormatException extends IOException {
         }
         s.append(": ").append(oneLine(problem));
         // the unit is appended unless the problem already states it (as the doping parser's messages do)
-        if (unit != null && !unit.isEmpty() && !String.valueOf(problem).contains(" " + unit)) {
-            s.append(" (").append(unit).append(')');
+        String label = Units.label(unit);
+        if (!label.isEmpty() && !String.valueOf(problem).contains(" " + unit)
+                && !String.valueOf(problem).contains(" " + label)) {
+            s.append(" (").append(label).append(')');
         }
         return s.toString();
     }

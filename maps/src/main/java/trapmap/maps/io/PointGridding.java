@@ -55,19 +55,22 @@ final class PointGridding {
         boolean sparse = place.offGrid < 0 && !pitchGiven && pts.n > 1 && fill < MIN_FILL;
         if (place.offGrid >= 0 || sparse) {
             if (options.csvResampling() == ReadOptions.Resampling.OFF) {
-                String advice = "; the points look scattered — read them with CSV resampling on (ReadOptions"
-                        + ".withCsvResampling) to interpolate them onto a grid, or give pixel_pitch_mm";
+                // no command turns resampling on: say what the user can change in the file itself
+                String rule = "; the points of a CSV map must lie on a regular grid (no trapmap command resamples"
+                        + " scattered points)";
                 if (sparse) {
                     throw new MapFormatException(name, null, "the " + pts.n + " points do not form a regular grid:"
                             + " their most common spacing, " + num(pitch) + " mm, makes a " + place.width + " × "
                             + place.height + " grid of which only " + String.format(Locale.ROOT, "%.2g", 100 * fill)
-                            + " % holds points" + advice);
+                            + " % holds points" + rule + ": give pixel_pitch_mm in the sidecar if the pitch is not "
+                            + num(pitch) + " mm");
                 }
                 int i = place.offGrid;
                 throw new MapFormatException(name, "line " + pts.line[i], "point (" + num(pts.x[i]) + ", "
                         + num(pts.y[i]) + ") mm is not on the regular grid of pitch " + num(pitch) + " mm "
                         + (pitchGiven ? "given in the metadata" : "inferred from the most common spacing")
-                        + advice);
+                        + offGrid(pts, i, pitch, meta) + rule + ": correct or remove line " + pts.line[i]
+                        + (pitchGiven ? ", or correct pixel_pitch_mm" : ", or give pixel_pitch_mm in the sidecar"));
             }
             double p = Double.isNaN(options.resamplePitchMm()) ? (pitchGiven ? pitch : estimatePitch(pts, options))
                     : options.resamplePitchMm();
@@ -98,6 +101,38 @@ final class PointGridding {
         grid = new PixelGrid(place.width, place.height, pitch, place.cx, place.cy);
         return new MapBuilder.Raw(samples, place.width, place.height, false, embedded, null, grid, steps,
                 converted);
+    }
+
+    /**
+     * Where point {@code i} lies off the grid {@link #place} lays: {@code "; its x lies between the grid columns at
+     * x = 3 and 4 mm"}, for each axis it is off ("" when none is).
+     */
+    private static String offGrid(Points p, int i, double pitch, Sidecar meta) {
+        boolean centreGiven = meta.centreXPx() != null && meta.centreYPx() != null;
+        double xmin = Double.POSITIVE_INFINITY;
+        double ymax = Double.NEGATIVE_INFINITY;
+        for (int k = 0; k < p.n; k++) {
+            xmin = Math.min(xmin, p.x[k]);
+            ymax = Math.max(ymax, p.y[k]);
+        }
+        // grid lines: x = x0 + k·pitch, y = y0 + k·pitch (as place() counts columns and rows)
+        double x0 = centreGiven ? -meta.centreXPx() * pitch : xmin;
+        double y0 = centreGiven ? meta.centreYPx() * pitch : ymax;
+        StringBuilder s = new StringBuilder();
+        String[] axis = {"x", "y"};
+        String[] lines = {"columns", "rows"};
+        double[] value = {p.x[i], p.y[i]};
+        double[] origin = {x0, y0};
+        for (int a = 0; a < 2; a++) {
+            double u = (value[a] - origin[a]) / pitch;
+            if (Math.abs(u - Math.rint(u)) > 1e-6 * Math.max(1, Math.abs(value[a]) / pitch)) {
+                double below = origin[a] + Math.floor(u) * pitch;
+                s.append(s.length() == 0 ? "; its " : " and its ").append(axis[a]).append(" lies between the grid ")
+                        .append(lines[a]).append(" at ").append(axis[a]).append(" = ").append(num(nice(below)))
+                        .append(" and ").append(num(nice(below + pitch))).append(" mm");
+            }
+        }
+        return s.toString();
     }
 
     /** Growable arrays of points. */

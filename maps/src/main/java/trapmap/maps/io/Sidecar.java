@@ -22,6 +22,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
+import trapmap.shared.check.Checks;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.model.ProcessingStep;
 import trapmap.maps.model.Provenance;
@@ -435,8 +436,8 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
         }
 
         String describe() {
-            return openLow && max == Double.MAX_VALUE ? "must be > " + fmt(min) : "must be in " + (openLow ? "(" : "[")
-                    + fmt(min) + ", " + fmt(max) + "]";
+            return openLow && max == Double.MAX_VALUE ? "must be > " + Checks.exact(min)
+                    : "must be in " + (openLow ? "(" : "[") + Checks.exact(min) + ", " + Checks.exact(max) + "]";
         }
     }
 
@@ -743,7 +744,7 @@ public record Sidecar(String waferId, Quantity quantity, String unit, Double pix
                 if (!Double.isFinite(v)) {
                     throw fail(path, "must be a finite number but is beyond the range of numbers", r.unit());
                 }
-                throw fail(path, r.describe() + " but was " + fmt(v), r.unit());
+                throw fail(path, r.describe() + " but was " + Checks.exact(v), r.unit());
             }
             return v;
         }

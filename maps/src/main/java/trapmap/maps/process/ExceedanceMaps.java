@@ -144,7 +144,7 @@ public final class ExceedanceMaps {
      */
     public double confidentLifetimeUs(double confidence) {
         if (!(confidence > 0 && confidence <= 1)) {
-            throw new InvalidValueException("confidence", "", "the confidence must lie in (0, 1] (got " + confidence + ")");
+            throw new InvalidValueException("confidence", "", "the confidence must lie in (0, 1] (got " + trapmap.shared.check.Checks.exact(confidence) + ")");
         }
         double[] sorted = model.thresholdLifetimesUs();
         int s = sorted.length;
@@ -193,7 +193,7 @@ public final class ExceedanceMaps {
      */
     public WaferMap quantileMap(WaferMap map, double q, int threads) {
         if (!(q > 0 && q < 1)) {
-            throw new InvalidValueException("quantile", "", "the quantile level q must lie in (0, 1) (got " + q + ")");
+            throw new InvalidValueException("quantile", "", "the quantile level q must lie in (0, 1) (got " + trapmap.shared.check.Checks.exact(q) + ")");
         }
         WaferMap lifetime = lifetimeOf(map);
         float[] tau = lifetime.raster().samples();

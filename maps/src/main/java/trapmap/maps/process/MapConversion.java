@@ -166,7 +166,7 @@ public final class MapConversion {
         if (c.srvCmPerS() != null) {
             if (c.thicknessUm() == null) {
                 throw new InvalidValueException("thickness", "um", "a surface recombination velocity needs the"
-                        + " wafer thickness (um)");
+                        + " wafer thickness (µm)");
             }
             surface = new Surface(c.thicknessUm(), c.srvCmPerS(), s.surfaceModel());
         }

@@ -45,6 +45,41 @@ public final class Alarm implements AutoCloseable {
         this.problems = problems;
     }
 
+    /**
+     * Why {@code file} cannot take alarm lines, checked before a watch starts without writing to it; null when it
+     * can: its folder exists, and the file either exists and opens for appending or can be made there.
+     */
+    public static String unusableFile(Path file) {
+        Path abs = file.toAbsolutePath();
+        Path folder = abs.getParent();
+        if (folder == null || !Files.isDirectory(folder)) {
+            return "its folder " + folder + " does not exist";
+        }
+        if (Files.isDirectory(abs)) {
+            return "it is a folder; give a file";
+        }
+        boolean existed = Files.exists(abs);
+        // opened for appending (made when missing, then removed again), nothing written: as the first alarm opens it
+        try (var c = java.nio.channels.FileChannel.open(abs, StandardOpenOption.CREATE, StandardOpenOption.WRITE,
+                StandardOpenOption.APPEND)) {
+            c.size();
+        } catch (java.io.IOException | RuntimeException e) {
+            String why = e instanceof java.nio.file.AccessDeniedException ? "permission denied"
+                    : e instanceof java.nio.file.NoSuchFileException ? "the folder does not take new files"
+                    : e instanceof java.nio.file.FileSystemException f && f.getReason() != null ? f.getReason()
+                    : e.getMessage() == null ? e.getClass().getSimpleName() : e.getMessage();
+            return "it cannot be " + (existed ? "appended to" : "made in " + folder) + " (" + why + ")";
+        }
+        if (!existed) {
+            try {
+                Files.deleteIfExists(abs);
+            } catch (java.io.IOException e) {
+                return null; // an empty alarm file stays: it takes lines all the same
+            }
+        }
+        return null;
+    }
+
     /** Whether there is anything to do. */
     public boolean active() {
         return program != null || file != null;

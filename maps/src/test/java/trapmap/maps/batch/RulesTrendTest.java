@@ -119,7 +119,7 @@ class RulesTrendTest {
         "'trend': {'figure': 'median_lifetime_us', 'colour': 'red'}|field 'trend.colour': unknown key",
         "'trend': {'figure': 'median_lifetime_us', 'by': ''}|field 'trend.by': must be a non-empty text",
         "'trend': {'figure': 'median_lifetime_us', 'by': 4}|field 'trend.by': must be a non-empty text",
-        "'trend': {'figure': 'median_lifetime_us', 'baseline': 1}|field 'trend.baseline': must be in [2, 1000000] but was 1 (charted wafers)",
+        "'trend': {'figure': 'median_lifetime_us', 'baseline': 1}|field 'trend.baseline': must be in [2, 1e6] but was 1 (charted wafers)",
         "'trend': {'figure': 'median_lifetime_us', 'baseline': 12.5}|field 'trend.baseline': must be a whole number but was 12.5 (charted wafers)",
         "'trend': {'figure': 'median_lifetime_us', 'baseline': '20'}|field 'trend.baseline': must be a number",
         "'trend': {'figure': 'median_lifetime_us', 'baseline_until': '12.10.2026'}|field 'trend.baseline_until': must be a UTC date (2026-10-12) or time",

@@ -103,15 +103,19 @@ class CsvMapsTest {
 
         assertThatThrownBy(() -> MapFiles.read(f)).isInstanceOf(MapFormatException.class)
                 .hasMessageStartingWith(f + ": line 102: point (3.37, 4.5) mm is not on the regular grid of pitch 1"
-                        + " mm inferred from the most common spacing; the points look scattered")
-                .hasMessageContaining("resampling");
+                        + " mm inferred from the most common spacing; its x lies between the grid columns at x = 3"
+                        + " and 4 mm and its y lies between the grid rows at y = 4 and 5 mm; the points of a CSV map"
+                        + " must lie on a regular grid")
+                .hasMessageContaining("correct or remove line 102")
+                .hasMessageNotContaining("ReadOptions");
     }
 
     @Test
     void sparsePointsWithDecimalCoordinatesAreTakenAsScattered() throws Exception {
         Path f = file("few.csv", "x,y,value\n0,0,1\n1.3,0.2,2\n0.1,0.9,3\n");
         assertThatThrownBy(() -> MapFiles.read(f)).isInstanceOf(MapFormatException.class)
-                .hasMessageContaining("the 3 points do not form a regular grid");
+                .hasMessageContaining("the 3 points do not form a regular grid")
+                .hasMessageContaining("give pixel_pitch_mm").hasMessageNotContaining("ReadOptions");
     }
 
     private Path scattered(int n, long seed) throws Exception {

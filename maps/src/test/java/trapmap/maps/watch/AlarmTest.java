@@ -14,6 +14,22 @@ import org.junit.jupiter.api.io.TempDir;
 /** {@link Alarm}: a wafer's verdict and a control-chart signal, in the alarm file and as the program's arguments. */
 class AlarmTest {
     @Test
+    void anAlarmFileIsCheckedWithoutWritingToIt(@TempDir Path dir) throws Exception {
+        Path fresh = dir.resolve("alarms.txt");
+        assertThat(Alarm.unusableFile(fresh)).isNull();
+        assertThat(fresh).doesNotExist(); // made to try, removed again
+        Path kept = Files.writeString(dir.resolve("kept.txt"), "earlier line\n");
+        assertThat(Alarm.unusableFile(kept)).isNull();
+        assertThat(kept).hasContent("earlier line");
+        assertThat(Alarm.unusableFile(dir.resolve("none").resolve("a.txt")))
+                .isEqualTo("its folder " + dir.resolve("none") + " does not exist");
+        assertThat(Alarm.unusableFile(dir)).isEqualTo("it is a folder; give a file");
+        if (Files.isDirectory(Path.of("/proc/self"))) { // a folder that takes no new files
+            assertThat(Alarm.unusableFile(Path.of("/proc/trapmap-alarms.txt"))).startsWith("it cannot be made in /proc");
+        }
+    }
+
+    @Test
     void aSignalWritesItsLineAndRunsTheProgramWithFiveArgumentsAfterTheVerdictBefore(@TempDir Path dir)
             throws Exception {
         Path log = dir.resolve("args.log");

@@ -87,16 +87,7 @@ public record DopingText(Doping doping, double resistivityOhmCm) {
 
     /** The shortest exact form: {@code 10000}, {@code 1e19}, {@code 1e-4}, {@code 0.5}. */
     static String exact(double v) {
-        if (v == Math.rint(v) && Math.abs(v) < 1e6) {
-            return Long.toString((long) v);
-        }
-        double a = Math.abs(v);
-        if (a >= 1e-3 && a < 1e6) {
-            return Double.toString(v);
-        }
-        BigDecimal d = BigDecimal.valueOf(v).stripTrailingZeros();
-        int exponent = d.precision() - d.scale() - 1;
-        return d.movePointLeft(exponent).toPlainString() + "e" + exponent;
+        return trapmap.shared.check.Checks.exact(v);
     }
 
     /** Four significant digits: {@code 4.61e11}, {@code 1.5e20}. */

@@ -13,4 +13,13 @@ public final class Units {
 
     private Units() {
     }
+
+    /**
+     * A unit as messages and screens show it: the ASCII micro prefix of settings and rules keys becomes the micro
+     * sign ({@code um} → {@code µm}, {@code us} → {@code µs}, {@code 1/us} → {@code 1/µs}); other units are
+     * returned as they are ({@code ms}, {@code mm}, {@code cm^-3}). Null becomes "".
+     */
+    public static String label(String unit) {
+        return unit == null ? "" : unit.replaceAll("(?<![A-Za-z])u(?=[ms](?![A-Za-z]))", "\u00b5");
+    }
 }
