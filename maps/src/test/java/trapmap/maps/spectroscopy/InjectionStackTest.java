@@ -156,6 +156,6 @@ class InjectionStackTest {
         InjectionStack stack = InjectionStack.of(maps, SyntheticStack.names(3), ALIGNED);
         assertThatThrownBy(() -> StackLifetimes.of(stack, trapmap.physics.defect.DefectLibrary.byId("fe-i"),
                 trapmap.maps.process.ConversionSettings.DEFAULTS, 1)).isInstanceOf(InvalidValueException.class)
-                .hasMessageContaining("level0.tif").hasMessageContaining("thickness").hasMessageContaining("um");
+                .hasMessageContaining("level0.tif").hasMessageContaining("thickness").hasMessageContaining("µm");
     }
 }

@@ -21,7 +21,7 @@ class ConditionFieldsTest {
     void eachBadFieldHasItsOwnMessageNamingFieldAndUnit() {
         ConditionFields.Outcome o = typed("0", "x").check();
         assertThat(o.overrides()).isNull();
-        assertThat(o.error(Field.THICKNESS)).contains("thickness").contains("um").contains("0");
+        assertThat(o.error(Field.THICKNESS)).contains("thickness").contains("µm").contains("0");
         assertThat(o.error(Field.TEMPERATURE)).isEqualTo("temperature: 'x' is not a number (K)");
         assertThat(o.error(Field.DOPING)).isNull();
     }

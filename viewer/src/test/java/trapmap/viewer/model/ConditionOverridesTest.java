@@ -49,7 +49,7 @@ class ConditionOverridesTest {
     @Test
     void outOfRangeValuesNameFieldAndUnit() {
         assertThatThrownBy(() -> ConditionOverrides.NONE.withThickness(-5.0)).hasMessageContaining("thickness")
-                .hasMessageContaining("um");
+                .hasMessageContaining("µm");
         assertThatThrownBy(() -> ConditionOverrides.NONE.withDoping("x:1e16")).isInstanceOf(
                 IllegalArgumentException.class);
     }

@@ -124,7 +124,7 @@ class SessionFilesTest {
         assertThatThrownBy(() -> SessionFiles.parse("""
                 {"format": "trapmap-session", "version": 1, "files": [], "conditions": {"thickness_um": -5}}""",
                 "s.json", dir)).hasMessageContaining("s.json").hasMessageContaining("thickness")
-                .hasMessageContaining("um");
+                .hasMessageContaining("µm");
     }
 
     @Test
