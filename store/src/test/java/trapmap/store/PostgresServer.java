@@ -12,6 +12,7 @@ import java.util.Comparator;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.TimeUnit;
+import java.util.concurrent.atomic.AtomicInteger;
 import java.util.stream.Stream;
 
 /**
@@ -41,7 +42,8 @@ public final class PostgresServer implements AutoCloseable {
     private Path pgCtl;
     private int port;
     private String skipped;
-    private int databases;
+    /** Databases made by this test process, over every instance: several tests may share one external server. */
+    private static final AtomicInteger DATABASES = new AtomicInteger();
     /** A server this class did not start (named by {@value #ENV}): used, never stopped. */
     private boolean external;
 
@@ -166,7 +168,7 @@ public final class PostgresServer implements AutoCloseable {
      */
     public synchronized String newDatabase() throws java.sql.SQLException {
         // unique across the test processes that may share one server
-        String db = "trapmap_test_" + ProcessHandle.current().pid() + "_" + (++databases);
+        String db = "trapmap_test_" + ProcessHandle.current().pid() + "_" + DATABASES.incrementAndGet();
         try (java.sql.Connection c = ResultsStore.postgres(url(), env()).getConnection();
              java.sql.Statement st = c.createStatement()) {
             st.execute("CREATE DATABASE " + db);
