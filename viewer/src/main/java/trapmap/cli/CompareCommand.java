@@ -55,8 +55,8 @@ final class CompareCommand implements Callable<Integer> {
 
     @Option(names = "--quantity", paramLabel = "<name>", defaultValue = "ratio",
             description = "Map to write: difference (after − before, in the maps' unit), ratio (after/before),"
-                    + " relative-change ((after − before)/before) or reduction (1 − after/before; density maps)."
-                    + " Default: ratio.")
+                    + " relative-change ((after − before)/before) or reduction (1 − after/before; density maps);"
+                    + " needs -o. Default: ratio.")
     String quantity;
 
     @Option(names = {"-o", "--output", "--out"}, paramLabel = "<file>",
@@ -102,6 +102,11 @@ final class CompareCommand implements Callable<Integer> {
             throw new InputException("--quantity '" + quantity + "' is not one of difference, ratio, relative-change,"
                     + " reduction");
         }
+        if (output == null && spec.commandLine().getParseResult().hasMatchedOption("--quantity")) {
+            // without an output map the statistics are the same for every quantity
+            throw new InputException("--quantity belongs to -o (the map written): give -o FILE (.tif, .csv or .png)"
+                    + " or leave --quantity out");
+        }
         if (!(tolerance >= 0 && tolerance <= 1)) {
             throw new InputException("--tolerance must be a fraction in [0, 1] (got " + Format.exact(tolerance) + ")");
         }
@@ -123,7 +128,7 @@ final class CompareCommand implements Callable<Integer> {
                     + before.quantity().key() + "; compare maps of one quantity (or use --defect)");
         }
         if (kind.equals("reduction") && !MapComparison.isDensity(before.quantity())) {
-            // 1 − after/before is a share of defects removed only for densities, with or without -o
+            // 1 − after/before is a share of defects removed only for densities
             throw new InputException("--quantity reduction needs density maps (trap or iron density); these hold "
                     + before.quantity().key() + " (use --defect)");
         }

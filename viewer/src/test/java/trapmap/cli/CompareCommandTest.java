@@ -110,21 +110,33 @@ class CompareCommandTest {
         assertThat(j.get("paired").get("quantity").asText()).isEqualTo("trap-density");
     }
 
-    /** 1 − after/before is a share of defects removed only for densities: refused on lifetimes, -o or not. */
+    /** 1 − after/before is a share of defects removed only for densities: refused on lifetimes. */
     @Test
-    void reductionOfLifetimeMapsIsRefusedWithOrWithoutAnOutput() {
+    void reductionOfLifetimeMapsIsRefused() {
         String b = DEMO.resolve("LOT-A02-W05-before-gettering.tif").toString();
         String a = DEMO.resolve("LOT-A02-W05-after-gettering.tif").toString();
-        for (List<String> out : List.of(List.<String>of(), List.of("-o", dir.resolve("red.tif").toString()))) {
-            List<String> args = new java.util.ArrayList<>(List.of("compare", b, a, "--quantity", "reduction"));
-            args.addAll(out);
-            Cli.Run r = Cli.run(args.toArray(String[]::new));
-            assertThat(r.code()).as("%s", args).isEqualTo(2);
-            assertThat(r.out()).isEmpty();
-            assertThat(r.errLines()).containsExactly("trapmap compare: --quantity reduction needs density maps (trap"
-                    + " or iron density); these hold effective-lifetime (use --defect)");
-        }
+        Cli.Run r = Cli.run("compare", b, a, "--quantity", "reduction", "-o", dir.resolve("red.tif").toString());
+        assertThat(r.code()).isEqualTo(2);
+        assertThat(r.out()).isEmpty();
+        assertThat(r.errLines()).containsExactly("trapmap compare: --quantity reduction needs density maps (trap"
+                + " or iron density); these hold effective-lifetime (use --defect)");
         assertThat(dir.resolve("red.tif")).doesNotExist();
+    }
+
+    /** Without -o only the statistics are printed, the same for every quantity: --quantity alone is refused. */
+    @Test
+    void quantityWithoutAnOutputIsRefused() {
+        String b = DEMO.resolve("LOT-A02-W05-before-gettering.tif").toString();
+        String a = DEMO.resolve("LOT-A02-W05-after-gettering.tif").toString();
+        for (String quantity : List.of("ratio", "difference", "relative-change", "reduction")) {
+            Cli.Run r = Cli.run("compare", b, a, "--quantity", quantity, "--json");
+            assertThat(r.code()).as(quantity).isEqualTo(2);
+            assertThat(r.out()).as(quantity).isEmpty();
+            assertThat(r.errLines()).as(quantity).containsExactly("trapmap compare: --quantity belongs to -o (the map"
+                    + " written): give -o FILE (.tif, .csv or .png) or leave --quantity out");
+        }
+        // the statistics themselves need no --quantity
+        assertThat(Cli.run("compare", b, a, "--json").code()).isZero();
     }
 
     @Test
