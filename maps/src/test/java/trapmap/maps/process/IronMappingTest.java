@@ -20,9 +20,9 @@ import trapmap.physics.recombination.SrhRecombination;
 import trapmap.shared.error.InvalidValueException;
 
 /**
- * Iron maps of synthetic FeB/Fe_i pairs: a pair drawn with the computed prefactor of check value R-FE-5 gives back the
- * planted iron, and pairs drawn with the SRH rates of the library's fe-b and fe-i levels give the statuses and counts of
- * their pixels; bad pairs are refused.
+ * Iron maps of synthetic FeB/Fe_i pairs: a pair drawn with the computed prefactor of check value R-FE-5 gives back
+ * the planted iron, and pairs drawn with the SRH rates of the library's fe-b and fe-i levels give the statuses and
+ * counts of their pixels; bad pairs are refused.
  */
 class IronMappingTest {
     private static final int N = 8;
@@ -83,7 +83,8 @@ class IronMappingTest {
         IronMapping.Result r = IronMapping.map(p[0], p[1], null, null);
         for (int i = 1; i < N * N; i++) {
             // R-FE-5 holds C to 0.1 %; float lifetimes add about 1e-6 relative on the difference of two rates
-            assertThat((double) r.iron().raster().samples()[i]).isCloseTo(1e10 * (i + 1), within(1e-3 * 1e10 * (i + 1)));
+            assertThat((double) r.iron().raster().samples()[i]).isCloseTo(1e10 * (i + 1),
+                    within(1e-3 * 1e10 * (i + 1)));
             assertThat(r.status().raster().samples()[i]).isEqualTo((float) IronStatus.OK.code());
         }
         assertThat(r.iron().raster().samples()[0]).isNaN();
