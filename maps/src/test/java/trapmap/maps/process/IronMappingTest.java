@@ -145,7 +145,7 @@ class IronMappingTest {
         IronMapping.Result r = IronMapping.map(p[0], p[0], null, null);
         assertThat(r.count(IronStatus.BELOW_LIMIT)).isEqualTo(N * N);
         // the detection limit, an upper bound: the iron of a 5 % lifetime change (common practice, R-LIM-7),
-        // C·0.05/τ = 1.0296e7 s cm^-3 (R-FE-5) · 0.05 / 300e-6 s = 1.7160e9 cm^-3
+        // C·0.05/τ = 1.0296e7 s cm^-3 (R-FE-5) · 0.05 / 300e-6 s = 1.7160e9 cm^-3 (computed, R-FE-6)
         assertThat((double) r.iron().raster().samples()[3]).isCloseTo(1.7160e9, within(1e-3 * 1.7160e9));
     }
 

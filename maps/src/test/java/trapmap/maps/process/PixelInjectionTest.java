@@ -29,7 +29,7 @@ class PixelInjectionTest {
         assertThat(c.measuredUs()).isEqualTo(60.0);
         // the map's W 180 µm and S 10 cm/s in Sproul's τ_s = W/(2S) + (W/π)²/D (JAP 76, 2851 (1994)): 900 µs plus
         // (0.018 cm/π)²/28.61 cm²/s = 1.147 µs with the Klaassen minority diffusivity at p 1e16 (computed; check values
-        // R-SURF-1, R-LIM-4), 901.15 µs; the diffusivity term is 0.13 % of it, so 0.05 % holds for any injection here
+        // R-LIM-13), 901.15 µs; the diffusivity term is 0.13 % of it, so 0.05 % holds for any injection here
         assertThat(c.surfaceUs()).isCloseTo(901.15, within(0.0005 * 901.15));
         assertThatThrownBy(() -> PixelInjection.sweep(m, 1, 0, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS))
                 .isInstanceOf(InvalidValueException.class).hasMessageContaining("no data");
