@@ -135,10 +135,52 @@ class HistoryScenarioTest {
                 drifted++;
             }
             assertThat(w.driftFactor()).as(w.file()).isCloseTo(expected, within(1e-8));
-            assertThat(w.centreFeCm3() / (truth.baselineFeCm3() * w.driftFactor())).as(w.file()).isBetween(0.6, 1.6);
         }
         // about half the lots of the eleven days after the change
         assertThat(drifted).isBetween(45, 55);
+    }
+
+    /**
+     * ln(centre iron / (baseline · drift)) = LOT_SIGMA·z_lot + WAFER_SIGMA·z_wafer with standard normal z: the spread
+     * within the lots estimates WAFER_SIGMA², the spread of the lot means LOT_SIGMA² + WAFER_SIGMA²/3; each scaled
+     * sum of squares must lie inside the central 99.9 % of its chi-squared distribution (Apache Commons Math), and
+     * the mean of the lot means within 3.3 standard errors of 0.
+     */
+    @Test
+    void plantedIronSpreadsByTheLotAndWaferSigmas() {
+        Map<String, List<Double>> byLot = new java.util.TreeMap<>();
+        for (HistoryTruth.Wafer w : truth.wafers()) {
+            byLot.computeIfAbsent(w.lot(), k -> new ArrayList<>())
+                    .add(Math.log(w.centreFeCm3() / (truth.baselineFeCm3() * w.driftFactor())));
+        }
+        int perLot = HistoryScenario.SLOTS.size();
+        double withinSquares = 0;
+        int withinDf = 0;
+        double[] lotMeans = new double[byLot.size()];
+        int k = 0;
+        for (List<Double> v : byLot.values()) {
+            assertThat(v).hasSize(perLot);
+            double[] x = v.stream().mapToDouble(Double::doubleValue).toArray();
+            lotMeans[k++] = new org.apache.commons.math3.stat.descriptive.moment.Mean().evaluate(x);
+            withinSquares += new org.apache.commons.math3.stat.descriptive.moment.Variance().evaluate(x)
+                    * (x.length - 1);
+            withinDf += x.length - 1;
+        }
+        assertThat(byLot).hasSize(HistoryScenario.DAYS * HistoryScenario.LOTS_PER_DAY);
+        double wafer2 = HistoryScenario.WAFER_SIGMA * HistoryScenario.WAFER_SIGMA;
+        double lotMean2 = HistoryScenario.LOT_SIGMA * HistoryScenario.LOT_SIGMA + wafer2 / perLot;
+        assertCentralChiSquared("within lots", withinSquares / wafer2, withinDf);
+        double betweenSquares = new org.apache.commons.math3.stat.descriptive.moment.Variance().evaluate(lotMeans)
+                * (lotMeans.length - 1);
+        assertCentralChiSquared("between lots", betweenSquares / lotMean2, lotMeans.length - 1);
+        assertThat(new org.apache.commons.math3.stat.descriptive.moment.Mean().evaluate(lotMeans))
+                .isCloseTo(0, within(3.3 * Math.sqrt(lotMean2 / lotMeans.length)));
+    }
+
+    private static void assertCentralChiSquared(String what, double scaled, int df) {
+        var chi2 = new org.apache.commons.math3.distribution.ChiSquaredDistribution(df);
+        assertThat(scaled).as("%s: scaled sum of squares, %d degrees of freedom", what, df)
+                .isBetween(chi2.inverseCumulativeProbability(0.0005), chi2.inverseCumulativeProbability(0.9995));
     }
 
     @Test

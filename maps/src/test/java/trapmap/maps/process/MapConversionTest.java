@@ -190,8 +190,10 @@ class MapConversionTest {
                 "pl", c, Provenance.of("test"));
         WaferMap tau = MapConversion.lifetimeFromPl(pl);
         assertThat((double) tau.raster().get(0, 0)).isCloseTo(50, Percentage.withPercentage(1e-4));
-        assertThat((double) tau.raster().get(1, 0)).isCloseTo(cal.lifetimeUs(12000, 1e19),
-                Percentage.withPercentage(1e-5));
+        // by hand: the reference gives Δn = G·τ = 5e14 cm^-3 and A = 8000/(5e14·1.05e16) = 1.5238e-27; 12000 counts
+        // give Δn(Δn + 1e16) = 7.875e30, Δn = (−1e16 + sqrt(1e32 + 3.15e31))/2 = 7.33672e14 cm^-3, τ = Δn/G
+        // (computed, docs/check-values.md R-PL-5)
+        assertThat((double) tau.raster().get(1, 0)).isCloseTo(73.3672, Percentage.withPercentage(1e-4));
         assertThat(tau.raster().get(1, 1)).isNaN();
         MapConversion.Result r = MapConversion.convert(pl, DefectLibrary.byId("fe-i"), ConversionSettings.DEFAULTS, 1);
         assertThat(r.get(Quantity.INJECTION).raster().get(0, 0)).isCloseTo(5e14f, Percentage.withPercentage(1e-4));

@@ -52,9 +52,18 @@ class InvalidAreaVerdictTest {
         Verdict v = r.verdict();
         assertThat(v.pass()).isTrue();
         assertThat(v.invalid()).isNotNull();
-        assertThat(v.invalid().nonPositiveCount()).isPositive();
+        // counted here: the zeros inside the fitted outline less 5 mm; every other pixel there holds 100 µs
+        Mask area = r.shape().mask(GRID, 5);
+        float[] s = map().raster().samples();
+        int zeros = 0;
+        for (int i = area.nextIndex(0); i >= 0; i = area.nextIndex(i + 1)) {
+            zeros += s[i] == 0 ? 1 : 0;
+        }
+        assertThat(v.invalid().evaluatedCount()).isEqualTo(area.count());
+        assertThat(v.invalid().nonPositiveCount()).isEqualTo(zeros);
+        assertThat(v.invalid().nonFiniteCount() + v.invalid().invalidConversionCount()).isZero();
         assertThat(v.figures().get("invalid_area_fraction")).isEqualTo(v.invalid().fraction());
-        assertThat(v.invalid().fraction()).isBetween(0.30, 0.38);
+        assertThat(v.invalid().fraction()).isEqualTo((double) zeros / area.count()).isBetween(0.30, 0.38);
         assertThat(v.invalidAreaWarning()).matches("invalid_area_fraction 0\\.3\\d* > 0\\.05 \\(default limit\\)");
         assertThat(v.headlineWithWarning()).contains("quick threshold check: pass — warning: invalid_area_fraction");
         assertThat(v.rows()).anySatisfy(row -> assertThat(row[0]).isEqualTo("invalid area"));

@@ -119,7 +119,11 @@ class ViewerExceedanceTest {
         int x = r.lifetime().width() / 2;
         int y = r.lifetime().height() / 2;
         double tau = r.lifetime().raster().get(x, y);
-        assertThat(r.exceedance().probabilityAt(tau)).isBetween(0.0, 1.0);
+        // the physics model prepared apart from the viewer, under the wafer's conditions with the generation rate
+        assertThat(r.lifetime().conditions().generationPerCm3PerS()).isEqualTo(1e19);
+        double expected = reference(r, SMALL).probability((float) tau);
+        assertThat(expected).isBetween(0.0, 1.0);
+        assertThat(r.exceedance().probabilityAt(tau)).isEqualTo(expected);
         assertThat(r.exceedance().quantileAt(tau, ExceedanceSettings.LOW_QUANTILE)).isNaN();
         // the readout (on every mouse move) gives the probability and says why there are no quantiles
         PixelReadout p = m.probe(x, y);

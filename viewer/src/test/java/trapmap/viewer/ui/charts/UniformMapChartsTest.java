@@ -68,7 +68,10 @@ class UniformMapChartsTest {
             assertThat(ChartExport.image(c, 400, 200, 1).getWidth()).isEqualTo(400);
             RadialProfile rp = RadialProfile.of(m, mask, 2.0);
             double[] spread = RadialProfileView.ringStandardDeviations(m, mask, rp);
-            assertThat(spread).isNotNull();
+            // every pixel equals v: each ring of two or more pixels spreads by nothing
+            assertThat(spread).hasSize(rp.ringCount());
+            assertThat(java.util.Arrays.stream(spread).filter(sd -> !Double.isNaN(sd)).boxed().toList()).isNotEmpty()
+                    .allSatisfy(sd -> assertThat(sd).isCloseTo(0, org.assertj.core.api.Assertions.within(1e-6 * v)));
             RadialProfileView view = new RadialProfileView();
             view.show(rp, m.quantity(), spread);
         }
