@@ -213,4 +213,12 @@ class WaferReportTest {
                     .contains("Histogram of effective lifetime: ");
         }
     }
+
+    @Test
+    void aWaferIdTooLongForItsCellIsBrokenAfterAHyphen() {
+        // the wafer table's first column (70 pt, 7 pt text)
+        assertThat(PdfPage.wrap("LOT-A02-W05-before-gettering.tif", PdfPage.REGULAR, 7, 70))
+                .containsExactly("LOT-A02-W05-before-", "gettering.tif");
+        assertThat(PdfPage.wrap("iron-boron-pairs", PdfPage.REGULAR, 7, 48)).containsExactly("iron-boron-", "pairs");
+    }
 }
