@@ -146,7 +146,9 @@ public final class CaptionedPicture {
         g.drawRect(x, y, BAR_PX, h);
         g.setFont(new Font(Font.SANS_SERIF, Font.PLAIN, 10));
         FontMetrics fm = g.getFontMetrics();
-        double[] at = {0, 0.5, 1};
+        // a range narrower than its labels tell apart (a uniform map) gets one label, in the middle: every pixel
+        // then has the middle colour
+        double[] at = number(bar.min()).equals(number(bar.max())) ? new double[] {0.5} : new double[] {0, 0.5, 1};
         for (double t : at) {
             int ty = y + (int) Math.round(h * (1 - t));
             double v = bar.log() && bar.min() > 0 && bar.max() > 0
@@ -166,7 +168,7 @@ public final class CaptionedPicture {
         g.setTransform(keep);
     }
 
-    /** A tick label: three significant digits, scientific outside 0.01–99 999. */
+    /** A tick label: three significant digits, scientific outside 0.01–99 999 (49400, not 4.94e+04). */
     static String number(double v) {
         if (!Double.isFinite(v)) {
             return "–";
@@ -175,6 +177,9 @@ public final class CaptionedPicture {
         if (a != 0 && (a < 0.01 || a >= 1e5)) {
             String s = String.format(java.util.Locale.ROOT, "%.2e", v);
             return s.replace("e+0", "e").replace("e-0", "e-").replace("e+", "e");
+        }
+        if (a >= 999.5) {
+            return new java.math.BigDecimal(v).round(new java.math.MathContext(3)).toPlainString();
         }
         String s = String.format(java.util.Locale.ROOT, "%.3g", v);
         return s.contains(".") && !s.contains("e") ? s.replaceFirst("0+$", "").replaceFirst("\\.$", "") : s;
