@@ -105,6 +105,29 @@ class CaptionedPictureTest {
         assertThat(uniform).isEqualTo(1);
     }
 
+    @Test
+    void aStatusMapsBarIsLabelledAtEachCodeAndNotHalfway() {
+        BufferedImage map = new BufferedImage(200, 200, BufferedImage.TYPE_INT_ARGB);
+        Caption c = new Caption("W", "status", "", null, null);
+        assertThat(ticks(CaptionedPicture.compose(map, new CaptionedPicture.ColourBar(ColourMap.BLUE_YELLOW, 0, 5,
+                false, "status", true), c))).isEqualTo(6);
+        assertThat(ticks(CaptionedPicture.compose(map, new CaptionedPicture.ColourBar(ColourMap.BLUE_YELLOW, 0, 3,
+                false, "status", true), c))).isEqualTo(4);
+    }
+
+    @Test
+    void aComparisonsPictureNamesWhatItMadeAndADifferenceItsUnit() {
+        float[] s = {1, 2, 3, 4};
+        WaferMap before = new WaferMap(FloatRaster.wrap(2, 2, s), PixelGrid.centred(2, 2, 1),
+                Quantity.EFFECTIVE_LIFETIME, "W", MeasurementConditions.UNKNOWN, Provenance.of("test"));
+        assertThat(Caption.of(trapmap.maps.compare.MapComparison.difference(before, before)).quantityWithUnit())
+                .isEqualTo("difference (µs)");
+        WaferMap density = new WaferMap(FloatRaster.wrap(2, 2, s), PixelGrid.centred(2, 2, 1), Quantity.TRAP_DENSITY,
+                "W", MeasurementConditions.UNKNOWN, Provenance.of("test"));
+        assertThat(Caption.of(trapmap.maps.compare.MapComparison.reduction(density, density)).quantityWithUnit())
+                .isEqualTo("reduction");
+    }
+
     /** The tick marks right of the colour bar: runs of inked pixels in the column just right of the bar. */
     private static int ticks(BufferedImage img) {
         int x = img.getWidth() - CaptionedPicture.BAR_AREA_PX + 8 + CaptionedPicture.BAR_PX + 2;
