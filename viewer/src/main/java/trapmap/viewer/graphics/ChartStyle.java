@@ -102,17 +102,32 @@ public final class ChartStyle {
      */
     static double[] fittingLogTicks(double low, double high, double lengthPx,
                                     java.util.function.ToDoubleFunction<String> labelExtent, double gapPx) {
-        for (int max = Math.max(2, (int) (lengthPx / 12)); max >= 2; max--) {
-            double[] t = apart(LogTicks.ticks(low, high, max), low, high, lengthPx, labelExtent, gapPx);
-            double need = 0;
-            for (double v : t) {
-                need += labelExtent.applyAsDouble(TICK_FORMAT.format(v)) + gapPx;
+        // evenly stepped ticks where at least two fit as they are; else the most that fit once crowded ones are out
+        int most = Math.max(2, (int) (lengthPx / 12));
+        for (int max = most; max >= 2; max--) {
+            double[] t = LogTicks.ticks(low, high, max);
+            if (t.length >= 2 && fits(t, lengthPx, labelExtent, gapPx)
+                    && apart(t, low, high, lengthPx, labelExtent, gapPx).length == t.length) {
+                return t;
             }
-            if (need <= lengthPx) {
+        }
+        for (int max = most; max >= 2; max--) {
+            double[] t = apart(LogTicks.ticks(low, high, max), low, high, lengthPx, labelExtent, gapPx);
+            if (fits(t, lengthPx, labelExtent, gapPx)) {
                 return t;
             }
         }
         return apart(LogTicks.ticks(low, high, 1), low, high, lengthPx, labelExtent, gapPx);
+    }
+
+    /** Whether the labels of {@code ticks}, each with a gap, add up to no more than the axis length. */
+    private static boolean fits(double[] ticks, double lengthPx, java.util.function.ToDoubleFunction<String> labelExtent,
+                                double gapPx) {
+        double need = 0;
+        for (double v : ticks) {
+            need += labelExtent.applyAsDouble(TICK_FORMAT.format(v)) + gapPx;
+        }
+        return need <= lengthPx;
     }
 
     /** {@code ticks} less each one whose label, centred on its log-scale place, comes too near the last one kept. */

@@ -72,6 +72,12 @@ class LogTicksTest {
         FontMetrics fm = img.createGraphics().getFontMetrics(ChartStyle.TICKS);
         double low = 2.5e10;
         double high = 9e10;
+        // where room allows, the ticks keep one step (4e10, 6e10, 8e10), not 3e10, 4e10, 5e10, 6.5e10, 8.5e10
+        double[] even = ChartStyle.fittingLogTicks(low, high, 215, fm::stringWidth, 10);
+        assertThat(even.length).isGreaterThanOrEqualTo(3);
+        for (int i = 2; i < even.length; i++) {
+            assertThat(even[i] - even[i - 1]).isCloseTo(even[1] - even[0], org.assertj.core.data.Offset.offset(1e6));
+        }
         for (double length = 120; length <= 600; length += 10) {
             double[] t = ChartStyle.fittingLogTicks(low, high, length, fm::stringWidth, 10);
             assertThat(t.length).as("ticks along %s px", length).isGreaterThanOrEqualTo(2);
