@@ -233,7 +233,9 @@ public final class WaferReport {
             }
             float cautionH = PdfPage.cautionHeight(CAUTION, full);
             float end = PdfPage.HEIGHT - PdfPage.MARGIN - cautionH - 8 - lowerH;
-            float histWanted = c.judgement() == null ? 170 : 120;
+            // a map of codes (statuses) has no histogram: its values are names, not amounts
+            boolean codes = HistogramChart.categorical(map.quantity());
+            float histWanted = codes ? 0 : c.judgement() == null ? 170 : 120;
 
             // map with colour bar (left), statistics (right)
             float mapSize = Math.max(MIN_MAP_SIZE, Math.min(240, end - y - 30 - histWanted - 8));
@@ -241,7 +243,8 @@ public final class WaferReport {
             BufferedImage pic = MapPicture.render(map, style, c.flagged(), c.outline(), c.edgeExclusionMm(),
                     (int) Math.round(mapSize * SCALE));
             p.image(pic, left, y, mapSize, mapSize);
-            p.image(MapPicture.colourBarImage(style, MapPicture.label(map), (int) barWidth, (int) mapSize, SCALE),
+            p.image(MapPicture.colourBarImage(style, MapPicture.label(map), (int) barWidth, (int) mapSize, SCALE,
+                    codes),
                     left + mapSize + 4, y, barWidth, mapSize);
             float legendY = y + mapSize + 3;
             String legend = "grey: no data" + (c.flagged() != null ? "; magenta: flagged pixels" : "")
@@ -262,7 +265,7 @@ public final class WaferReport {
 
             // histogram across the page, as tall as the room left allows (left out when too little is left)
             float histH = Math.min(histWanted, end - y - 8);
-            if (histH >= MIN_HISTOGRAM_HEIGHT) {
+            if (!codes && histH >= MIN_HISTOGRAM_HEIGHT) {
                 histogram(p, hist, left, y, full, histH);
                 y += histH + 8;
             }

@@ -221,4 +221,20 @@ class WaferReportTest {
                 .containsExactly("LOT-A02-W05-before-", "gettering.tif");
         assertThat(PdfPage.wrap("iron-boron-pairs", PdfPage.REGULAR, 7, 48)).containsExactly("iron-boron-", "pairs");
     }
+
+    @Test
+    void aStatusMapHasNoHistogramOfItsCodes(@TempDir Path dir) throws IOException {
+        int n = 20;
+        float[] s = new float[n * n];
+        for (int i = 0; i < s.length; i++) {
+            s[i] = i % 4;
+        }
+        WaferMap status = new WaferMap(FloatRaster.wrap(n, n, s), PixelGrid.centred(n, n, 1), Quantity.STATUS,
+                "W-STATUS", MeasurementConditions.UNKNOWN, Provenance.of("test"));
+        Path pdf = dir.resolve("status.pdf");
+        WaferReport.write(WaferReport.Content.of(status, ""), pdf);
+        try (PDDocument doc = Loader.loadPDF(pdf.toFile())) {
+            assertThat(new PDFTextStripper().getText(doc)).contains("Wafer W-STATUS").doesNotContain("Histogram");
+        }
+    }
 }
