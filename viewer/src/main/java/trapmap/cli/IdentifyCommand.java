@@ -213,6 +213,7 @@ final class IdentifyCommand implements Callable<Integer> {
         t.note("a hint, not a proof: the ranking knows only the library's defects (relative uncertainty "
                 + Format.number(r.options().relativeNoise()) + " per pixel, default "
                 + Format.number(LifetimeCurve.DEFAULT_RELATIVE_UNCERTAINTY) + ")");
+        t.note("caution: " + Calculation.CAUTION);
         out.print(t.render());
         out.flush();
     }

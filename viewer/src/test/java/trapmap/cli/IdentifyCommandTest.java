@@ -93,6 +93,8 @@ class IdentifyCommandTest {
         assertThat(region.get("best").asText()).isEqualTo("fe-i");
         assertThat(region.get("best_nt_cm3").asDouble()).isCloseTo(FE_CM3, within(0.1 * FE_CM3));
         assertThat(j.get("legend").get(0).get("defect").asText()).isEqualTo("fe-i");
+        // it gives densities N_t: the caution goes with them
+        assertThat(j.get("caution").asText()).isEqualTo(trapmap.maps.model.Caution.TEXT);
         for (String suffix : List.of(".tif", "-runner-up.tif", "-chi2.tif", "-chi2-ratio.tif", "-status.tif",
                 "-nt.tif", "-regions.tif", "-legend.csv", "-regions.csv", "-summary.json")) {
             assertThat(dir.resolve("out").resolve("hint" + suffix)).as(suffix).isRegularFile();
@@ -103,6 +105,16 @@ class IdentifyCommandTest {
         assertThat(best.raster().get(15, 17)).isEqualTo(1f);
         assertThat(Cli.parse(Files.readString(dir.resolve("out").resolve("hint-summary.json"))).get("regions").get(0)
                 .get("best").asText()).isEqualTo("fe-i");
+    }
+
+    @Test
+    void theLinesEndWithTheCaution() throws Exception {
+        List<String> args = new ArrayList<>(List.of("identify"));
+        args.addAll(files());
+        args.addAll(List.of("-o", dir.resolve("lines.tif").toString(), "--defects", "fe-i,cr-i"));
+        Cli.Run r = Cli.run(args.toArray(String[]::new));
+        assertThat(r.err()).isEmpty();
+        assertThat(r.out().strip()).endsWith("caution: " + trapmap.maps.model.Caution.TEXT);
     }
 
     @Test

@@ -85,6 +85,16 @@ class ReportCommandTest {
     }
 
     @Test
+    void aProbabilityMapStatesItsThresholdAndSamples() throws Exception {
+        Path pdf = dir.resolve("w01-p.pdf");
+        Cli.Run r = Cli.run("report", DEMO.resolve("LOT-A01-W01.tif").toString(), "--rules", RULES.toString(),
+                "--quantity", "exceedance-probability", "-o", pdf.toString());
+        assertThat(r.err()).isEmpty();
+        assertThat(text(pdf).replaceAll("\\s+", " ")).contains("map: P(N_t > 3e11 cm⁻³), over the uncertainties"
+                + " of the conditions and the defect (10000 samples, seed 1)");
+    }
+
+    @Test
     void badInputNamesTheOptionAndWritesNothing() {
         Path pdf = dir.resolve("none.pdf");
         Cli.Run r = Cli.run("report", DEMO.resolve("LOT-A01-W01.tif").toString(), "--rules", RULES.toString(),

@@ -3,6 +3,7 @@ package trapmap.maps.io;
 import java.util.ArrayList;
 import java.util.List;
 import trapmap.maps.model.ProcessingStep;
+import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 
 /**
@@ -25,13 +26,28 @@ public record Caption(String waferId, String quantity, String unit, String defec
      */
     public static Caption of(WaferMap map) {
         String defect = null;
+        ProcessingStep compared = null;
         for (ProcessingStep s : map.provenance().steps()) {
             if (s.operation().equals("convert") && s.parameters().containsKey("defect")) {
                 defect = s.parameters().get("defect");
             }
+            if (s.operation().equals("compare") && s.parameters().containsKey("result")) {
+                compared = s;
+            }
         }
-        return new Caption(map.waferId(), map.quantity().key(), map.quantity().unit(), defect, null);
+        String quantity = map.quantity().key();
+        String unit = map.quantity().unit();
+        if (compared != null && COMPARED.contains(map.quantity())) {
+            // what the comparison made (a reduction is stored as a fraction) and, for a difference, the maps' unit
+            quantity = compared.parameters().get("result");
+            unit = compared.parameters().getOrDefault("unit", unit);
+        }
+        return new Caption(map.waferId(), quantity, unit, defect, null);
     }
+
+    /** The quantities a comparison of two maps gives. */
+    private static final java.util.Set<Quantity> COMPARED = java.util.EnumSet.of(Quantity.DIFFERENCE, Quantity.RATIO,
+            Quantity.RELATIVE_CHANGE, Quantity.FRACTION);
 
     public Caption withDefect(String id) {
         return new Caption(waferId, quantity, unit, id, date);

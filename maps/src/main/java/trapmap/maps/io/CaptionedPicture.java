@@ -41,13 +41,22 @@ public final class CaptionedPicture {
      * @param max     the value of the last colour, in {@code unit}
      * @param log     whether the colours follow log10 of the value
      * @param label   what the bar shows, e.g. {@code trap-density (cm^-3)}
+     * @param codes   whether the values are whole-number codes (a status map): labelled at each code in the range
      */
-    public record ColourBar(ColourMap colours, double min, double max, boolean log, String label) {
+    public record ColourBar(ColourMap colours, double min, double max, boolean log, String label, boolean codes) {
         public ColourBar {
             Checks.notNull(colours, "colours");
             label = label == null ? "" : label;
         }
+
+        /** A bar of measured values (not codes). */
+        public ColourBar(ColourMap colours, double min, double max, boolean log, String label) {
+            this(colours, min, max, log, label, false);
+        }
     }
+
+    /** Most whole-number codes a bar of codes labels one by one. */
+    static final int MAX_CODES = 12;
 
     private CaptionedPicture() {
     }
@@ -146,7 +155,20 @@ public final class CaptionedPicture {
         g.drawRect(x, y, BAR_PX, h);
         g.setFont(new Font(Font.SANS_SERIF, Font.PLAIN, 10));
         FontMetrics fm = g.getFontMetrics();
-        double[] at = {0, 0.5, 1};
+        // a range narrower than its labels tell apart (a uniform map) gets one label, in the middle: every pixel
+        // then has the middle colour
+        double[] at = number(bar.min()).equals(number(bar.max())) ? new double[] {0.5} : new double[] {0, 0.5, 1};
+        if (bar.codes() && !bar.log() && bar.max() > bar.min()) {
+            // codes have no values between them: each one in the range is labelled, none halfway
+            long first = (long) Math.ceil(bar.min());
+            long last = (long) Math.floor(bar.max());
+            if (last >= first && last - first < MAX_CODES && h / (bar.max() - bar.min()) >= fm.getHeight()) {
+                at = new double[(int) (last - first + 1)];
+                for (int i = 0; i < at.length; i++) {
+                    at[i] = (first + i - bar.min()) / (bar.max() - bar.min());
+                }
+            }
+        }
         for (double t : at) {
             int ty = y + (int) Math.round(h * (1 - t));
             double v = bar.log() && bar.min() > 0 && bar.max() > 0
@@ -166,7 +188,7 @@ public final class CaptionedPicture {
         g.setTransform(keep);
     }
 
-    /** A tick label: three significant digits, scientific outside 0.01–99 999. */
+    /** A tick label: three significant digits, scientific outside 0.01–99 999 (49400, not 4.94e+04). */
     static String number(double v) {
         if (!Double.isFinite(v)) {
             return "–";
@@ -175,6 +197,9 @@ public final class CaptionedPicture {
         if (a != 0 && (a < 0.01 || a >= 1e5)) {
             String s = String.format(java.util.Locale.ROOT, "%.2e", v);
             return s.replace("e+0", "e").replace("e-0", "e-").replace("e+", "e");
+        }
+        if (a >= 999.5) {
+            return new java.math.BigDecimal(v).round(new java.math.MathContext(3)).toPlainString();
         }
         String s = String.format(java.util.Locale.ROOT, "%.3g", v);
         return s.contains(".") && !s.contains("e") ? s.replaceFirst("0+$", "").replaceFirst("\\.$", "") : s;

@@ -11,6 +11,7 @@ import javax.imageio.ImageIO;
 import javax.imageio.ImageWriter;
 import javax.imageio.stream.FileImageOutputStream;
 import javax.imageio.stream.ImageOutputStream;
+import trapmap.maps.model.Quantity;
 import trapmap.maps.model.WaferMap;
 import trapmap.shared.error.InvalidValueException;
 
@@ -285,8 +286,9 @@ final class PngMaps {
         boolean log = logScale(map, style);
         double[] range = range(map.raster().samples(), log, style);
         Caption caption = Caption.of(map);
+        boolean codes = map.quantity() == Quantity.STATUS || map.quantity() == Quantity.IDENTIFICATION_STATUS;
         return CaptionedPicture.compose(render(map, style, log, range), new CaptionedPicture.ColourBar(style.colours(), range[0],
-                range[1], log, caption.quantityWithUnit()), caption);
+                range[1], log, caption.quantityWithUnit(), codes), caption);
     }
 
     static void write(WaferMap map, Path target, PngStyle style) throws IOException {

@@ -293,6 +293,7 @@ public final class IdentificationFiles {
             regions.add(rg);
         }
         m.put("regions", regions);
+        m.put("caution", trapmap.maps.model.Caution.TEXT);
         return m;
     }
 }

@@ -87,6 +87,59 @@ class CaptionedPictureTest {
         assertThat(CaptionedPicture.number(120)).isEqualTo("120");
         assertThat(CaptionedPicture.number(0.5)).isEqualTo("0.5");
         assertThat(CaptionedPicture.number(0)).isEqualTo("0");
+        // between 1000 and 99 999 plain digits, not 4.94e+04
+        assertThat(CaptionedPicture.number(49_400)).isEqualTo("49400");
+        assertThat(CaptionedPicture.number(1459.4)).isEqualTo("1460");
+        assertThat(CaptionedPicture.number(-2_048)).isEqualTo("-2050");
+        assertThat(CaptionedPicture.number(999.6)).isEqualTo("1000");
+    }
+
+    @Test
+    void aUniformMapsBarHasOneLabelNotThreeEqualOnes() {
+        BufferedImage map = new BufferedImage(200, 200, BufferedImage.TYPE_INT_ARGB);
+        int uniform = ticks(CaptionedPicture.compose(map, new CaptionedPicture.ColourBar(ColourMap.BLUE_YELLOW, 1e14,
+                1e14, true, "injection (cm^-3)"), new Caption("W", "injection", "cm^-3", null, null)));
+        int ranged = ticks(CaptionedPicture.compose(map, new CaptionedPicture.ColourBar(ColourMap.BLUE_YELLOW, 1e13,
+                1e14, true, "injection (cm^-3)"), new Caption("W", "injection", "cm^-3", null, null)));
+        assertThat(ranged).isEqualTo(3);
+        assertThat(uniform).isEqualTo(1);
+    }
+
+    @Test
+    void aStatusMapsBarIsLabelledAtEachCodeAndNotHalfway() {
+        BufferedImage map = new BufferedImage(200, 200, BufferedImage.TYPE_INT_ARGB);
+        Caption c = new Caption("W", "status", "", null, null);
+        assertThat(ticks(CaptionedPicture.compose(map, new CaptionedPicture.ColourBar(ColourMap.BLUE_YELLOW, 0, 5,
+                false, "status", true), c))).isEqualTo(6);
+        assertThat(ticks(CaptionedPicture.compose(map, new CaptionedPicture.ColourBar(ColourMap.BLUE_YELLOW, 0, 3,
+                false, "status", true), c))).isEqualTo(4);
+    }
+
+    @Test
+    void aComparisonsPictureNamesWhatItMadeAndADifferenceItsUnit() {
+        float[] s = {1, 2, 3, 4};
+        WaferMap before = new WaferMap(FloatRaster.wrap(2, 2, s), PixelGrid.centred(2, 2, 1),
+                Quantity.EFFECTIVE_LIFETIME, "W", MeasurementConditions.UNKNOWN, Provenance.of("test"));
+        assertThat(Caption.of(trapmap.maps.compare.MapComparison.difference(before, before)).quantityWithUnit())
+                .isEqualTo("difference (µs)");
+        WaferMap density = new WaferMap(FloatRaster.wrap(2, 2, s), PixelGrid.centred(2, 2, 1), Quantity.TRAP_DENSITY,
+                "W", MeasurementConditions.UNKNOWN, Provenance.of("test"));
+        assertThat(Caption.of(trapmap.maps.compare.MapComparison.reduction(density, density)).quantityWithUnit())
+                .isEqualTo("reduction");
+    }
+
+    /** The tick marks right of the colour bar: runs of inked pixels in the column just right of the bar. */
+    private static int ticks(BufferedImage img) {
+        int x = img.getWidth() - CaptionedPicture.BAR_AREA_PX + 8 + CaptionedPicture.BAR_PX + 2;
+        int runs = 0;
+        boolean inked = false;
+        for (int y = 0; y < img.getHeight() - CaptionedPicture.STRIP_PX; y++) {
+            int argb = img.getRGB(x, y);
+            boolean ink = (argb >>> 24) != 0 && (argb & 0xFFFFFF) != CaptionedPicture.BACKGROUND_RGB;
+            runs += ink && !inked ? 1 : 0;
+            inked = ink;
+        }
+        return runs;
     }
 
     private static int nonBackground(BufferedImage img, int x0, int y0, int x1, int y1) {

@@ -97,20 +97,60 @@ public final class ChartStyle {
     /**
      * How many tick labels fit along an axis of {@code lengthPx}: the largest count whose {@link LogTicks} labels,
      * each {@code labelExtent} wide (horizontal axis: text width; vertical: text height) plus a gap, fit the length.
+     * A label that would stand closer than the gap to the one kept before it, both centred on their places on the
+     * log scale, is left out: round linear steps on a log scale crowd towards its high end (6e10, 7e10, 8e10).
      */
     static double[] fittingLogTicks(double low, double high, double lengthPx,
                                     java.util.function.ToDoubleFunction<String> labelExtent, double gapPx) {
-        for (int max = Math.max(2, (int) (lengthPx / 12)); max >= 2; max--) {
+        // evenly stepped ticks where at least two fit as they are; else the most that fit once crowded ones are out
+        int most = Math.max(2, (int) (lengthPx / 12));
+        for (int max = most; max >= 2; max--) {
             double[] t = LogTicks.ticks(low, high, max);
-            double need = 0;
-            for (double v : t) {
-                need += labelExtent.applyAsDouble(TICK_FORMAT.format(v)) + gapPx;
-            }
-            if (need <= lengthPx) {
+            if (t.length >= 2 && fits(t, lengthPx, labelExtent, gapPx)
+                    && apart(t, low, high, lengthPx, labelExtent, gapPx).length == t.length) {
                 return t;
             }
         }
-        return LogTicks.ticks(low, high, 1);
+        for (int max = most; max >= 2; max--) {
+            double[] t = apart(LogTicks.ticks(low, high, max), low, high, lengthPx, labelExtent, gapPx);
+            if (fits(t, lengthPx, labelExtent, gapPx)) {
+                return t;
+            }
+        }
+        return apart(LogTicks.ticks(low, high, 1), low, high, lengthPx, labelExtent, gapPx);
+    }
+
+    /** Whether the labels of {@code ticks}, each with a gap, add up to no more than the axis length. */
+    private static boolean fits(double[] ticks, double lengthPx, java.util.function.ToDoubleFunction<String> labelExtent,
+                                double gapPx) {
+        double need = 0;
+        for (double v : ticks) {
+            need += labelExtent.applyAsDouble(TICK_FORMAT.format(v)) + gapPx;
+        }
+        return need <= lengthPx;
+    }
+
+    /** {@code ticks} less each one whose label, centred on its log-scale place, comes too near the last one kept. */
+    private static double[] apart(double[] ticks, double low, double high, double lengthPx,
+                                  java.util.function.ToDoubleFunction<String> labelExtent, double gapPx) {
+        if (!(high > low) || ticks.length < 2) {
+            return ticks;
+        }
+        double decades = Math.log10(high / low);
+        double[] kept = new double[ticks.length];
+        int n = 0;
+        for (double v : ticks) {
+            if (n > 0) {
+                double distance = lengthPx * Math.log10(v / kept[n - 1]) / decades;
+                double half = (labelExtent.applyAsDouble(TICK_FORMAT.format(kept[n - 1]))
+                        + labelExtent.applyAsDouble(TICK_FORMAT.format(v))) / 2;
+                if (distance < half + gapPx) {
+                    continue;
+                }
+            }
+            kept[n++] = v;
+        }
+        return java.util.Arrays.copyOf(kept, n);
     }
 
     /**

@@ -191,6 +191,9 @@ public final class HistogramChart {
         return min;
     }
 
+    /** Share of the value axis kept free above the tallest bar for the threshold's label. */
+    static final double LABEL_BAND = 0.3;
+
     /** The histogram chart of {@code d} (an empty chart for null), also for reports. */
     public static JFreeChart createChart(Data d) {
         XYIntervalSeriesCollection dataset = new XYIntervalSeriesCollection();
@@ -236,6 +239,9 @@ public final class HistogramChart {
                 m.setLabel("threshold " + Labels.number(d.threshold(), q.unit()));
                 m.setLabelFont(ChartStyle.TICKS);
                 m.setLabelPaint(ChartStyle.MARKER);
+                // the label stands in a band above the tallest bar, on no box of its own: it hides no bar
+                m.setLabelBackgroundColor(new java.awt.Color(255, 255, 255, 0));
+                y.setUpperMargin(LABEL_BAND);
                 plot.addDomainMarker(m);
                 if (!log || d.threshold() > 0) {
                     lo = Math.min(lo, d.threshold());

@@ -88,8 +88,11 @@ final class DistributionChart {
             }
         }
         log &= lo > 0;
-        if (!(hi > lo)) {
-            double pad = lo == 0 ? 0.5 : Math.abs(lo) * 0.1;
+        if (!(hi > lo) && lo == 0) {
+            // every wafer at 0 (no area below the limit): the figures are never negative, so the axis starts there
+            hi = 1;
+        } else if (!(hi > lo)) {
+            double pad = Math.abs(lo) * 0.1;
             lo -= pad;
             hi += pad;
         }

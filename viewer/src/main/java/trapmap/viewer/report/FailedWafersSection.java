@@ -24,8 +24,8 @@ import trapmap.viewer.graphics.Labels;
 
 /**
  * The failed wafers, worst first (most failed rules, then the largest flagged area fraction), at most
- * {@value #SHOWN} of them, each with its thumbnail (or its map with the largest flagged region circled), its profile,
- * failed rules, largest region and the figures its profile uses. Says how many of the failed wafers it shows.
+ * {@value #SHOWN} of them, each with its thumbnail (or its map with the worst region circled), its profile, failed
+ * rules, worst region and the figures its profile uses. Says how many of the failed wafers it shows.
  */
 final class FailedWafersSection {
     /** Failed wafers shown with pictures. */
@@ -57,8 +57,8 @@ final class FailedWafersSection {
         flow.paragraph("Most failed rules first, then the largest flagged area fraction"
                 + (failed.size() - shown.size() == 1 ? "; the other failed wafer is in the wafer table"
                 : shown.size() < failed.size() ? "; the other " + (failed.size() - shown.size()) + " failed wafers"
-                + " are in the wafer table" : "") + ". Magenta: flagged regions; circle: the largest region.",
-                PdfPage.REGULAR, 8.5f);
+                + " are in the wafer table" : "") + ". " + pictures(c.outputDir(), shown) + " Worst region: as in the"
+                + " wafer table.", PdfPage.REGULAR, 8.5f);
         float full = ReportFlow.FULL;
         float cw = (full - 12) / 2;
         for (int i = 0; i < shown.size(); i += 2) {
@@ -73,6 +73,24 @@ final class FailedWafersSection {
             }
             flow.down(CELL_H);
         }
+    }
+
+    /** What the cards' pictures of {@code shown} are: thumbnails, maps drawn from their files, or both. */
+    static String pictures(Path outDir, List<BatchContent.Row> shown) {
+        long thumbnails = shown.stream().filter(r -> Files.isRegularFile(thumbnail(outDir, r))).count();
+        String thumbnail = "thumbnails (lifetime over its 1st-99th percentile, dark: short; magenta: flagged regions)";
+        String map = "the map as read, with a magenta circle around the worst region";
+        if (thumbnails == shown.size()) {
+            return "Pictures: " + thumbnail + ".";
+        }
+        if (thumbnails == 0) {
+            return "Pictures: " + map + ".";
+        }
+        return "Pictures: " + thumbnail + "; without a thumbnail, " + map + ".";
+    }
+
+    private static Path thumbnail(Path outDir, BatchContent.Row r) {
+        return outDir.resolve(BatchInspection.THUMBNAIL_DIR).resolve(Path.of(r.file()).getFileName() + ".png");
     }
 
     /** The picture of {@code r}'s card in a batch folder {@code outDir}, ready to embed; empty when there is none. */
@@ -106,7 +124,7 @@ final class FailedWafersSection {
         Rules.Profile prof = c.profile(r.profile());
         String flagUnit = prof == null ? "" : prof.flag().regionUnit();
         if (Double.isFinite(r.worstAreaMm2())) {
-            p.paragraph("largest region " + Labels.number(r.worstAreaMm2()) + " " + Typeset.MM2 + " at "
+            p.paragraph("worst region " + Labels.number(r.worstAreaMm2()) + " " + Typeset.MM2 + " at "
                     + WaferTable.position(r) + " mm, peak " + Labels.number(r.worstPeak(), flagUnit), tx, ty, tw,
                     PdfPage.REGULAR, 7.5f);
         } else {
@@ -153,10 +171,9 @@ final class FailedWafersSection {
         }
     }
 
-    /** The wafer's thumbnail, or its map drawn with the largest flagged region circled; null when neither exists. */
+    /** The wafer's thumbnail, or its map drawn with the worst region circled; null when neither exists. */
     private static BufferedImage picture(Path outDir, BatchContent.Row r, int size) {
-        Path thumb = outDir.resolve(BatchInspection.THUMBNAIL_DIR).resolve(Path.of(r.file()).getFileName()
-                + ".png");
+        Path thumb = thumbnail(outDir, r);
         try {
             if (Files.isRegularFile(thumb)) {
                 BufferedImage t = ImageIO.read(thumb.toFile());

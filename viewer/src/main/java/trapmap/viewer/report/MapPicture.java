@@ -187,7 +187,16 @@ final class MapPicture {
 
     /** The colour bar drawn into a picture of {@code wPt} × {@code hPt} at {@code scale} pixels per point. */
     static BufferedImage colourBarImage(DisplayStyle style, String label, int wPt, int hPt, double scale) {
+        return colourBarImage(style, label, wPt, hPt, scale, false);
+    }
+
+    /** As above; {@code codes}: the values are whole-number codes (a status map), ticked at whole numbers only. */
+    static BufferedImage colourBarImage(DisplayStyle style, String label, int wPt, int hPt, double scale,
+                                        boolean codes) {
         PaintScaleLegend legend = colourBar(style, label);
+        if (codes && legend.getAxis() instanceof NumberAxis n) {
+            n.setStandardTickUnits(NumberAxis.createIntegerTickUnits());
+        }
         BufferedImage img = new BufferedImage((int) Math.round(wPt * scale), (int) Math.round(hPt * scale),
                 BufferedImage.TYPE_INT_RGB);
         Graphics2D g = img.createGraphics();

@@ -364,7 +364,7 @@ final class PdfPage implements Closeable {
 
     /**
      * The words of {@code s} broken into lines no wider than {@code width}; a word wider than a line is broken after
-     * an underscore where it can be (figure names), else between letters.
+     * an underscore, hyphen or slash where it can be (figure names, wafer ids, file names), else between letters.
      */
     static List<String> wrap(String s, PDFont font, float size, float width) {
         List<String> lines = new ArrayList<>();
@@ -406,10 +406,14 @@ final class PdfPage implements Closeable {
     }
 
     /**
-     * A word cut into pieces that each fit {@code width}: after the last underscore that fits, else where it must.
+     * A word cut into pieces that each fit {@code width}: after the last underscore, hyphen or slash that fits (figure
+     * names, wafer ids, file names), else where it must.
      * Each piece is found by {@link #longestPrefix}, so the work grows with the word's length times the log of a
      * line's.
      */
+    /** The characters a word too long for its line is broken after, where one fits. */
+    private static final String BREAKS = "_-/";
+
     private static List<String> pieces(String word, PDFont font, float size, float width) {
         List<String> out = new ArrayList<>();
         int start = 0;
@@ -421,7 +425,7 @@ final class PdfPage implements Closeable {
             }
             int cut = cutPoint(word, start, Math.max(1, fit));
             for (int i = start + cut - 1; i > start; i--) {
-                if (word.charAt(i) == '_') {
+                if (BREAKS.indexOf(word.charAt(i)) >= 0) {
                     cut = i + 1 - start;
                     break;
                 }

@@ -72,7 +72,7 @@ final class ProfileSection {
         grades.forEach((k, v) -> g.add(k + " " + v));
         flow.paragraph("Outcome: " + pass + " pass, " + (rows.size() - pass) + " fail; grades " + String.join(", ", g)
                 + ".", PdfPage.BOLD, 8.5f);
-        List<String> names = rows.stream().map(BatchContent.Row::name).toList();
+        List<String> names = rows.stream().map(WaferTable.names(c)).toList();
         String list = String.join(", ", names.subList(0, Math.min(NAMES_SHOWN, names.size())));
         flow.paragraph("Wafers: " + list + (names.size() > NAMES_SHOWN ? "; showing " + NAMES_SHOWN + " of "
                 + names.size() + " (every wafer is in the wafer table)." : "."), PdfPage.REGULAR, 8);

@@ -161,6 +161,9 @@ public final class TrendReport {
         return chart;
     }
 
+    /** Most categories whose labels are written across the axis. */
+    static final int FEW_CATEGORIES = 6;
+
     /** The yield per group as bars, %. */
     public static JFreeChart yieldChart(List<GroupYield> yields) {
         DefaultCategoryDataset ds = new DefaultCategoryDataset();
@@ -168,7 +171,9 @@ public final class TrendReport {
             ds.addValue(100.0 * y.yield(), "yield", y.group());
         }
         CategoryAxis x = new CategoryAxis("group");
-        x.setCategoryLabelPositions(CategoryLabelPositions.UP_90);
+        // a few groups (furnace tubes, slots) read across; many (days, lots) stand upright
+        x.setCategoryLabelPositions(yields.size() <= FEW_CATEGORIES ? CategoryLabelPositions.STANDARD
+                : CategoryLabelPositions.UP_90);
         x.setTickLabelFont(ChartStyle.TICKS);
         NumberAxis y = new NumberAxis("yield (%)");
         y.setRange(0, 100);
@@ -189,11 +194,15 @@ public final class TrendReport {
         DefaultCategoryDataset bars = new DefaultCategoryDataset();
         DefaultCategoryDataset cumulative = new DefaultCategoryDataset();
         for (ParetoEntry p : pareto) {
-            bars.addValue(p.failures(), "wafers failing", p.rule());
-            cumulative.addValue(100.0 * p.cumulativeShare(), "cumulative share (%)", p.rule());
+            // the figure's name as the summary writes it ("largest interior region"), not its column name
+            String rule = trapmap.maps.batch.Figure.readable(p.rule());
+            bars.addValue(p.failures(), "wafers failing", rule);
+            cumulative.addValue(100.0 * p.cumulativeShare(), "cumulative share (%)", rule);
         }
         CategoryAxis x = new CategoryAxis("failed rule");
-        x.setCategoryLabelPositions(CategoryLabelPositions.UP_45);
+        x.setCategoryLabelPositions(pareto.size() <= FEW_CATEGORIES ? CategoryLabelPositions.STANDARD
+                : CategoryLabelPositions.UP_45);
+        x.setMaximumCategoryLabelLines(3);
         x.setTickLabelFont(ChartStyle.TICKS);
         NumberAxis y = new NumberAxis("wafers failing");
         y.setStandardTickUnits(NumberAxis.createIntegerTickUnits());
@@ -203,7 +212,8 @@ public final class TrendReport {
         r.setSeriesPaint(0, ChartStyle.BARS);
         CategoryPlot plot = new CategoryPlot(bars, x, y, r);
         NumberAxis share = new NumberAxis("cumulative share (%)");
-        share.setRange(0, 100);
+        // room above 100 % for the last point's marker
+        share.setRange(0, 105);
         plot.setRangeAxis(1, share);
         plot.setDataset(1, cumulative);
         plot.mapDatasetToRangeAxis(1, 1);

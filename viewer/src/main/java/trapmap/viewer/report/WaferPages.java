@@ -12,6 +12,8 @@ import trapmap.physics.defect.Defect;
 import trapmap.shared.error.InvalidValueException;
 import trapmap.viewer.graphics.DisplayStyle;
 import trapmap.viewer.model.DisplayedQuantity;
+import trapmap.viewer.model.ExceedanceLayer;
+import trapmap.viewer.model.ExceedanceSettings;
 import trapmap.viewer.model.Units;
 import trapmap.viewer.model.Verdict;
 import trapmap.viewer.model.ViewerModel;
@@ -139,6 +141,12 @@ public final class WaferPages {
      */
     public static WaferReport.Content of(Path file, WaferAnalysis r, DisplayStyle style, Defect defect) {
         List<String> notes = new ArrayList<>();
+        if (r.analysis().quantity().isProbability() && r.exceedanceSettings() != null) {
+            // the map's own label says N*; its value is here
+            ExceedanceSettings x = r.exceedanceSettings();
+            notes.add(String.format(Locale.ROOT, "map: %s, over the uncertainties of the conditions and the defect"
+                    + " (%d samples, seed %d)", ExceedanceLayer.legend(x), x.samples(), x.seed()));
+        }
         notes.add(String.format(Locale.ROOT, "flagged regions cover %s of the evaluated area (%d region%s)",
                 Units.percent(r.flaggedFraction()), r.regions().size(), r.regions().size() == 1 ? "" : "s"));
         notes.add(String.format(Locale.ROOT, "harmonic-mean lifetime %.1f %s, median %.1f %s over the evaluated area,"

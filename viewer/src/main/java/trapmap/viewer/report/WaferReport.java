@@ -12,6 +12,8 @@ import java.util.Locale;
 import java.util.Map;
 import org.apache.pdfbox.pdmodel.PDDocument;
 import org.apache.pdfbox.pdmodel.PDDocumentInformation;
+import org.jfree.chart.JFreeChart;
+import org.jfree.chart.title.TextTitle;
 import trapmap.maps.geometry.WaferShape;
 import trapmap.maps.model.MeasurementConditions;
 import trapmap.maps.model.WaferMap;
@@ -231,7 +233,9 @@ public final class WaferReport {
             }
             float cautionH = PdfPage.cautionHeight(CAUTION, full);
             float end = PdfPage.HEIGHT - PdfPage.MARGIN - cautionH - 8 - lowerH;
-            float histWanted = c.judgement() == null ? 170 : 120;
+            // a map of codes (statuses) has no histogram: its values are names, not amounts
+            boolean codes = HistogramChart.categorical(map.quantity());
+            float histWanted = codes ? 0 : c.judgement() == null ? 170 : 120;
 
             // map with colour bar (left), statistics (right)
             float mapSize = Math.max(MIN_MAP_SIZE, Math.min(240, end - y - 30 - histWanted - 8));
@@ -239,7 +243,8 @@ public final class WaferReport {
             BufferedImage pic = MapPicture.render(map, style, c.flagged(), c.outline(), c.edgeExclusionMm(),
                     (int) Math.round(mapSize * SCALE));
             p.image(pic, left, y, mapSize, mapSize);
-            p.image(MapPicture.colourBarImage(style, MapPicture.label(map), (int) barWidth, (int) mapSize, SCALE),
+            p.image(MapPicture.colourBarImage(style, MapPicture.label(map), (int) barWidth, (int) mapSize, SCALE,
+                    codes),
                     left + mapSize + 4, y, barWidth, mapSize);
             float legendY = y + mapSize + 3;
             String legend = "grey: no data" + (c.flagged() != null ? "; magenta: flagged pixels" : "")
@@ -260,9 +265,8 @@ public final class WaferReport {
 
             // histogram across the page, as tall as the room left allows (left out when too little is left)
             float histH = Math.min(histWanted, end - y - 8);
-            if (histH >= MIN_HISTOGRAM_HEIGHT) {
-                p.image(ChartExport.image(HistogramChart.createChart(hist), (int) full, (int) histH, SCALE), left, y,
-                        full, histH);
+            if (!codes && histH >= MIN_HISTOGRAM_HEIGHT) {
+                histogram(p, hist, left, y, full, histH);
                 y += histH + 8;
             }
             y = lower(p, c, y, left, full);
@@ -270,6 +274,34 @@ public final class WaferReport {
             p.caution(CAUTION, left, cautionY, full);
         }
     }
+
+    /**
+     * The histogram in {@code width} × {@code height} points: its title and subtitle as a line of text, the chart
+     * below without them, drawn {@value #CHART_ENLARGED}× as large and shrunk to fit, so that its fonts match the
+     * page's and its plot keeps the height the titles would take.
+     */
+    private static void histogram(PdfPage p, HistogramChart.Data hist, float x, float y, float width, float height)
+            throws IOException {
+        JFreeChart chart = HistogramChart.createChart(hist);
+        StringBuilder title = new StringBuilder(chart.getTitle() == null ? "" : chart.getTitle().getText());
+        for (int i = 0; i < chart.getSubtitleCount(); i++) {
+            if (chart.getSubtitle(i) instanceof TextTitle t) {
+                title.append(title.length() == 0 ? "" : ": ").append(t.getText());
+            }
+        }
+        chart.setTitle((TextTitle) null);
+        chart.clearSubtitles();
+        // the plot is lower than "share of area (%)" is long
+        chart.getXYPlot().getRangeAxis().setLabel("area (%)");
+        float titleH = 12;
+        p.text(PdfPage.fit(title.toString(), PdfPage.BOLD, 8.5f, width), x, y, PdfPage.BOLD, 8.5f);
+        float chartH = height - titleH;
+        p.image(ChartExport.image(chart, Math.round(width * CHART_ENLARGED), Math.round(chartH * CHART_ENLARGED),
+                SCALE / CHART_ENLARGED), x, y + titleH, width, chartH);
+    }
+
+    /** How much larger than its place on the page the histogram is drawn (its fonts are for screens). */
+    static final float CHART_ENLARGED = 1.45f;
 
     /** Settings, defect, flagged regions and notes from {@code y} down; returns where they end. */
     private static float lower(PdfPage p, Content c, float y, float left, float full) throws IOException {
@@ -303,6 +335,9 @@ public final class WaferReport {
         return y;
     }
 
+    /** Rows of the measurement settings table, the sidecar's facts included. */
+    static final int SETTINGS_ROWS = 8;
+
     static List<String[]> settings(MeasurementConditions m) {
         List<String[]> r = new ArrayList<>();
         Doping d = m.doping();
@@ -324,11 +359,17 @@ public final class WaferReport {
         }
         r.add(new String[] {"surface", m.srvCmPerS() == null ? "ideal (no surface term)"
                 : "S = " + Labels.number(m.srvCmPerS()) + " cm/s on both sides"});
-        for (Map.Entry<String, String> e : m.extra().entrySet()) {
-            if (r.size() >= 8) {
-                break;
-            }
+        // the facts by name (the conditions keep them in no order), as many as the table has rows for; the last
+        // row says how many more there are
+        List<Map.Entry<String, String>> facts = new ArrayList<>(new java.util.TreeMap<>(m.extra()).entrySet());
+        int room = SETTINGS_ROWS - r.size();
+        int shown = facts.size() <= room ? facts.size() : Math.max(0, room - 1);
+        for (Map.Entry<String, String> e : facts.subList(0, shown)) {
             r.add(new String[] {e.getKey().replace('_', ' '), e.getValue()});
+        }
+        if (shown < facts.size()) {
+            int more = facts.size() - shown;
+            r.add(new String[] {"more facts", more + (more == 1 ? " more fact" : " more facts") + " in the sidecar"});
         }
         return r;
     }

@@ -10,11 +10,16 @@ import trapmap.viewer.graphics.Labels;
 
 /**
  * Every wafer of the batch, one row each in the order of {@code results.csv}, over as many pages as it takes: id,
- * profile, verdict, grade, failed rules (or the reason of an error), the key figures and the largest flagged region.
+ * profile, verdict, grade, failed rules (or the reason of an error), the key figures and the worst region (the flagged
+ * region behind the verdict, {@code worst_region_…} of {@code results.csv}).
  */
 final class WaferTable {
     static final String[] HEADER = {"wafer", "profile", "verdict", "grade", "failed rules", "lifetime, harm. mean",
-        "trap density P95", "flagged area", "largest flagged region"};
+        "trap density P95", "flagged area", "worst region"};
+
+    /** What the worst region is and what is given of it. */
+    static final String WORST_REGION = "the flagged region behind the verdict (else the largest): area, position"
+            + " (wafer mm: the centroid, or the region's pixel nearest it, as for a ring) and peak in the flag's unit";
 
     private WaferTable() {
     }
@@ -38,7 +43,7 @@ final class WaferTable {
         flow.paragraph("All " + wafers + " wafers in the order of results.csv. Lifetime in " + Typeset.US
                 + "; trap density in " + Typeset.PER_CM3 + " of the defect named (the profile's); flagged area as a"
                 + " share of the evaluated area;"
-                + " largest flagged region: area, centroid (wafer mm) and peak in the unit of the profile's flag.",
+                + " worst region: " + WORST_REGION + ".",
                 PdfPage.REGULAR, 8);
         float[] w = {70, 54, 32, 28, 100, 42, 62, 36, 99};
         return flow.table(w, new boolean[] {false, false, false, false, false, true, true, true, false}, HEADER, 7);
@@ -50,11 +55,20 @@ final class WaferTable {
         return same > 1 ? fileName(r) : r.name();
     }
 
+    /** {@link #name(BatchContent, BatchContent.Row)} of any row of {@code c}, its ids counted once. */
+    static java.util.function.Function<BatchContent.Row, String> names(BatchContent c) {
+        Map<String, Integer> named = new HashMap<>();
+        for (BatchContent.Row r : c.rows()) {
+            named.merge(r.name(), 1, Integer::sum);
+        }
+        return r -> named.getOrDefault(r.name(), 0) > 1 ? fileName(r) : r.name();
+    }
+
     private static String fileName(BatchContent.Row r) {
         return java.nio.file.Path.of(r.file()).getFileName().toString();
     }
 
-    /** The centroid of the largest region, "(x, y)" in mm to 0.1 mm. */
+    /** The position of the worst region, "(x, y)" in mm to 0.1 mm. */
     static String position(BatchContent.Row r) {
         return String.format(java.util.Locale.ROOT, "(%.1f, %.1f)", r.worstXMm(), r.worstYMm()).replace("-0.0", "0.0");
     }

@@ -55,7 +55,7 @@ class LogTicksTest {
         double[] wide = ChartStyle.fittingLogTicks(15.8, 501, 420, fm::stringWidth, 10);
         assertThat(wide).containsExactly(20, 50, 100, 200, 500);
         double[] narrow = ChartStyle.fittingLogTicks(15.8, 501, 60, fm::stringWidth, 10);
-        assertThat(narrow).containsExactly(100);
+        assertThat(narrow).containsExactly(20, 100);
         double[] decades = ChartStyle.fittingLogTicks(1e10, 1e16, 300, fm::stringWidth, 10);
         double need = 0;
         for (double v : decades) {
@@ -63,5 +63,31 @@ class LogTicksTest {
         }
         assertThat(need).isLessThanOrEqualTo(300);
         assertThat(decades.length).isGreaterThanOrEqualTo(3);
+    }
+
+    @Test
+    void neighbouringLabelsOfANarrowLogRangeDoNotTouch() {
+        // a batch's P50 densities 2.5e10-9e10: round steps of 1e10 crowd towards 9e10 on the log scale
+        BufferedImage img = new BufferedImage(1, 1, BufferedImage.TYPE_INT_RGB);
+        FontMetrics fm = img.createGraphics().getFontMetrics(ChartStyle.TICKS);
+        double low = 2.5e10;
+        double high = 9e10;
+        // where room allows, the ticks keep one step (4e10, 6e10, 8e10), not 3e10, 4e10, 5e10, 6.5e10, 8.5e10
+        double[] even = ChartStyle.fittingLogTicks(low, high, 215, fm::stringWidth, 10);
+        assertThat(even.length).isGreaterThanOrEqualTo(3);
+        for (int i = 2; i < even.length; i++) {
+            assertThat(even[i] - even[i - 1]).isCloseTo(even[1] - even[0], org.assertj.core.data.Offset.offset(1e6));
+        }
+        for (double length = 120; length <= 600; length += 10) {
+            double[] t = ChartStyle.fittingLogTicks(low, high, length, fm::stringWidth, 10);
+            assertThat(t.length).as("ticks along %s px", length).isGreaterThanOrEqualTo(2);
+            for (int i = 1; i < t.length; i++) {
+                double distance = length * Math.log10(t[i] / t[i - 1]) / Math.log10(high / low);
+                double half = (fm.stringWidth(ChartStyle.TICK_FORMAT.format(t[i - 1]))
+                        + fm.stringWidth(ChartStyle.TICK_FORMAT.format(t[i]))) / 2.0;
+                assertThat(distance).as("%s and %s along %s px", t[i - 1], t[i], length)
+                        .isGreaterThanOrEqualTo(half + 10);
+            }
+        }
     }
 }

@@ -165,6 +165,30 @@ public class BatchReportTest {
         }
     }
 
+    @Test
+    void theFailedWafersSayWhatTheirPicturesShowAndNameTheWorstRegionAsResultsCsvDoes(@TempDir Path dir)
+            throws Exception {
+        Path in = Files.createDirectories(dir.resolve("in"));
+        List<Path> files = List.of(wafer(in, "W-A", 80, 0), wafer(in, "W-B", 70, 6));
+        Rules rules = Rules.parse(RULES, "rules.json");
+        for (boolean thumbnails : new boolean[] {true, false}) {
+            Path out = dir.resolve("out-" + thumbnails);
+            new BatchInspection(rules).run(files, out, new BatchInspection.Options(1, false, thumbnails,
+                    ProgressListener.NONE));
+            try (PDDocument doc = Loader.loadPDF(BatchReport.writeFor(out, rules).toFile())) {
+                String all = text(doc);
+                assertThat(all).contains("worst region: the flagged region behind the verdict", "worst region 109.3 mm² at (20.0, -10.0)");
+                assertThat(all).doesNotContain("largest flagged region", "circle: the largest region");
+                if (thumbnails) {
+                    assertThat(all).contains("Pictures: thumbnails (lifetime").doesNotContain("circle");
+                } else {
+                    assertThat(all).contains("Pictures: the map as read, with a magenta circle around the worst"
+                            + " region");
+                }
+            }
+        }
+    }
+
     private static String text(PDDocument doc) throws Exception {
         return new PDFTextStripper().getText(doc).replaceAll("\\s+", " ");
     }

@@ -189,4 +189,52 @@ class WaferReportTest {
             assertThat(doc.getDocumentInformation().getTitle()).hasSizeLessThan(300);
         }
     }
+
+    @Test
+    void theSidecarFactsAreListedByNameAndThoseLeftOutAreCounted() {
+        java.util.Map<String, String> facts = new java.util.HashMap<>();
+        for (String k : new String[] {"supplier", "lot", "material", "data", "resistivity"}) {
+            facts.put(k, k + " value");
+        }
+        MeasurementConditions m = new MeasurementConditions(Doping.pType(1e16), 180.0, 300.0, 1e14, null, 10.0,
+                null, null, facts);
+        List<String[]> rows = WaferReport.settings(m);
+        assertThat(rows).hasSize(WaferReport.SETTINGS_ROWS);
+        assertThat(rows.subList(5, 8).stream().map(r -> r[0] + ": " + r[1]).toList())
+                .containsExactly("data: data value", "lot: lot value", "more facts: 3 more facts in the sidecar");
+    }
+
+    @Test
+    void theHistogramTitleIsTextOnThePageSoThatThePictureIsAllPlot(@TempDir Path dir) throws IOException {
+        Path pdf = dir.resolve("report.pdf");
+        WaferReport.write(content("W-0003"), pdf);
+        try (PDDocument doc = Loader.loadPDF(pdf.toFile())) {
+            assertThat(new PDFTextStripper().getText(doc).replaceAll("\\s+", " "))
+                    .contains("Histogram of effective lifetime: ");
+        }
+    }
+
+    @Test
+    void aWaferIdTooLongForItsCellIsBrokenAfterAHyphen() {
+        // the wafer table's first column (70 pt, 7 pt text)
+        assertThat(PdfPage.wrap("LOT-A02-W05-before-gettering.tif", PdfPage.REGULAR, 7, 70))
+                .containsExactly("LOT-A02-W05-before-", "gettering.tif");
+        assertThat(PdfPage.wrap("iron-boron-pairs", PdfPage.REGULAR, 7, 48)).containsExactly("iron-boron-", "pairs");
+    }
+
+    @Test
+    void aStatusMapHasNoHistogramOfItsCodes(@TempDir Path dir) throws IOException {
+        int n = 20;
+        float[] s = new float[n * n];
+        for (int i = 0; i < s.length; i++) {
+            s[i] = i % 4;
+        }
+        WaferMap status = new WaferMap(FloatRaster.wrap(n, n, s), PixelGrid.centred(n, n, 1), Quantity.STATUS,
+                "W-STATUS", MeasurementConditions.UNKNOWN, Provenance.of("test"));
+        Path pdf = dir.resolve("status.pdf");
+        WaferReport.write(WaferReport.Content.of(status, ""), pdf);
+        try (PDDocument doc = Loader.loadPDF(pdf.toFile())) {
+            assertThat(new PDFTextStripper().getText(doc)).contains("Wafer W-STATUS").doesNotContain("Histogram");
+        }
+    }
 }
