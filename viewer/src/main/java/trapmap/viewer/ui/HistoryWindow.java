@@ -318,6 +318,7 @@ final class HistoryWindow extends JFrame {
         setPreferredSize(new Dimension(Math.max(1300, owner.getWidth()), Math.max(880, owner.getHeight())));
         pack();
         setLocationRelativeTo(owner);
+        ScreenFit.fit(this);
         showStatus("choose a results store: a SQLite file (drop it here) or postgresql://host/database", false);
     }
 

@@ -249,6 +249,7 @@ final class IdentifyDialog extends JDialog {
         setPreferredSize(new Dimension(Math.max(1280, owner.getWidth()), Math.max(900, owner.getHeight())));
         pack();
         setLocationRelativeTo(owner);
+        ScreenFit.fit(this);
     }
 
     /** Number of levels listed. */

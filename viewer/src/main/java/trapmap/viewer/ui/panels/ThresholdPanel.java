@@ -30,9 +30,11 @@ import trapmap.viewer.model.WaferAnalysis;
 /**
  * The threshold rule on the displayed quantity: a slider (logarithmic for quantities that span decades) with a text
  * field in the quantity's unit, above/below, smallest region, the pass limit on the flagged area, the flagged
- * fraction and the table of flagged regions (a click zooms there).
+ * fraction and the table of flagged regions (a click zooms there). In a scroll pane it follows the viewport's width and
+ * fills its height where there is room (the region table takes the rest), else keeps its own height and scrolls, so
+ * that on a low screen the verdict stays reachable rather than cut off.
  */
-public final class ThresholdPanel extends JPanel {
+public final class ThresholdPanel extends WidthTrackingPanel {
     private static final long serialVersionUID = 1L;
     private static final int STEPS = 1000;
     private static final String OWN_TIP = "trapmap.ownTooltip";
@@ -290,6 +292,11 @@ public final class ThresholdPanel extends JPanel {
             b.append("<br><font color='gray'>invalid area ").append(v.invalid().describe()).append("</font>");
         }
         return b.append("</html>").toString();
+    }
+
+    @Override
+    public boolean getScrollableTracksViewportHeight() {
+        return getParent() instanceof javax.swing.JViewport v && v.getHeight() > getPreferredSize().height;
     }
 
     /** The verdict line as shown (HTML). */
