@@ -49,6 +49,7 @@ public final class ThresholdPanel extends WidthTrackingPanel {
     private final JSpinner maxFraction = new JSpinner(new SpinnerNumberModel(2.0, 0.0, 100.0, 0.5));
     private final JLabel summary = new JLabel(" ");
     private final JLabel verdict = new JLabel(" ");
+    private final JLabel caution = new JLabel("<html>Caution: " + trapmap.maps.model.Caution.TEXT + "</html>");
     private final RegionModel regions = new RegionModel();
     private final JTable table = new JTable(regions);
     private double lo = 1;
@@ -82,6 +83,12 @@ public final class ThresholdPanel extends WidthTrackingPanel {
         verdict.setToolTipText("How the shown wafer was judged: a rules file's verdict and grade (as trapmap inspect"
                 + " gives them), or the quick threshold check above, which is not a rules verdict");
         f.wide(verdict);
+        // every verdict carries the caution, here as in the reports and on the command line
+        caution.setName("verdictCaution");
+        caution.setFont(caution.getFont().deriveFont(caution.getFont().getSize2D() - 1f));
+        caution.setForeground(new java.awt.Color(0x8A5A00));
+        caution.setBorder(BorderFactory.createEmptyBorder(3, 0, 0, 0));
+        f.wide(caution);
         f.section("Flagged regions");
         add(f, BorderLayout.NORTH);
 
@@ -245,6 +252,7 @@ public final class ThresholdPanel extends WidthTrackingPanel {
                 summary.setText(w == null ? "no wafer open" : w.error() != null ? w.error() : "analysing…");
                 verdict.setText(byRules ? "judged by " + model.judgedBy() : Verdict.QUICK_CHECK);
                 regions.set(List.of(), q.unit());
+                caution.setVisible(false);
             } else {
                 Verdict v = r.verdict();
                 summary.setText("<html>flagged <b>" + Units.percent(r.flaggedFraction()) + "</b> of "
@@ -253,6 +261,7 @@ public final class ThresholdPanel extends WidthTrackingPanel {
                         + r.regions().size() + (r.regions().size() == 1 ? " region" : " regions") + "</html>");
                 verdict.setText(verdictHtml(v));
                 regions.set(r.regions().regions(), r.flagUnit());
+                caution.setVisible(true);
             }
         } finally {
             updating = false;
@@ -302,6 +311,11 @@ public final class ThresholdPanel extends WidthTrackingPanel {
     /** The verdict line as shown (HTML). */
     public String verdictText() {
         return verdict.getText();
+    }
+
+    /** The caution under the verdict, or null while no verdict is shown. */
+    public String cautionText() {
+        return caution.isVisible() ? caution.getText().replaceAll("<[^>]+>", "") : null;
     }
 
     /** Number of rows in the region table. */
