@@ -95,6 +95,7 @@ final class IdentifyDialog extends JDialog {
             "ν", "p", "note");
     private final JTable regionTable = new JTable(regions);
     private final JTextArea registration = new JTextArea(4, 40);
+    private final JLabel caution = new JLabel(cautionText());
     private final JLabel probeTitle = new JLabel("click the map or choose a region to see its curves");
     private final IdentificationChartsView charts = new IdentificationChartsView();
     private IdentificationResult result;
@@ -244,12 +245,24 @@ final class IdentifyDialog extends JDialog {
         split.setResizeWeight(0.5);
         getContentPane().add(top, BorderLayout.NORTH);
         getContentPane().add(split, BorderLayout.CENTER);
+        // the ranking names a defect and its N_t: it carries the command line's note and the caution
+        caution.setName("identifyCaution");
+        caution.setForeground(new java.awt.Color(0x8A5A00));
+        caution.setBorder(BorderFactory.createEmptyBorder(3, 8, 3, 8));
+        getContentPane().add(caution, BorderLayout.SOUTH);
         getRootPane().registerKeyboardAction(e -> dispose(), KeyStroke.getKeyStroke("ctrl W"),
                 JComponent.WHEN_IN_FOCUSED_WINDOW);
         setPreferredSize(new Dimension(Math.max(1280, owner.getWidth()), Math.max(900, owner.getHeight())));
         pack();
         setLocationRelativeTo(owner);
         ScreenFit.fit(this);
+    }
+
+    /** The line under the dialog: the identification is a hint, and the densities carry the caution. */
+    static String cautionText() {
+        String hint = trapmap.maps.spectroscopy.DefectIdentification.HINT;
+        return Character.toUpperCase(hint.charAt(0)) + hint.substring(1) + ". Caution: "
+                + trapmap.maps.model.Caution.TEXT;
     }
 
     /** Number of levels listed. */
