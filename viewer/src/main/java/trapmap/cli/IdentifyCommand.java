@@ -210,7 +210,7 @@ final class IdentifyCommand implements Callable<Integer> {
         for (Path p : written) {
             t.row("wrote", p.toString(), "");
         }
-        t.note("a hint, not a proof: the ranking knows only the library's defects (relative uncertainty "
+        t.note(trapmap.maps.spectroscopy.DefectIdentification.HINT + " (relative uncertainty "
                 + Format.number(r.options().relativeNoise()) + " per pixel, default "
                 + Format.number(LifetimeCurve.DEFAULT_RELATIVE_UNCERTAINTY) + ")");
         t.note("caution: " + Calculation.CAUTION);

@@ -183,6 +183,7 @@ final class IronMapCommand implements Callable<Integer> {
                 t.note("warning: " + r.inconsistentNote());
             }
             t.note("caution: " + IronMapping.CAUTION);
+            t.note("caution: " + trapmap.maps.model.Caution.TEXT); // a density map: as the viewer's iron view says
             if (output != null) {
                 t.row("wrote", output.toString(), "");
             }

@@ -132,7 +132,10 @@ final class Output {
             return this;
         }
 
-        /** A numeric row from a result map (skipped when the key is absent); null shown as {@code nullText}. */
+        /**
+         * A numeric row from a result map (skipped when the key is absent); null shown as {@code nullText}; a whole
+         * number (a count) in full, any other number with {@link Format#number}.
+         */
         Table number(Map<String, Object> result, String key, String label, String unit, String nullText) {
             if (!result.containsKey(key)) {
                 return this;
@@ -140,6 +143,9 @@ final class Output {
             Object v = result.get(key);
             if (v == null) {
                 return nullText == null ? this : row(label, nullText, "");
+            }
+            if (v instanceof Integer || v instanceof Long) {
+                return row(label, v.toString(), unit); // a count is exact: 68644 px, not 68640
             }
             return row(label, Format.number(((Number) v).doubleValue()), unit);
         }

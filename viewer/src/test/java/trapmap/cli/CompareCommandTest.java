@@ -238,4 +238,19 @@ class CompareCommandTest {
         }
         assertThat(Cli.run("compare", before.toString(), after.toString(), "--no-registration").code()).isZero();
     }
+
+    @Test
+    void pixelCountsAreWrittenWholeAsTheViewerAndTheJsonGiveThem() {
+        String b = DEMO.resolve("LOT-A02-W05-before-gettering.tif").toString();
+        String a = DEMO.resolve("LOT-A02-W05-after-gettering.tif").toString();
+        int count = Cli.json("compare", b, a, "--json").get("paired").get("count").asInt();
+        assertThat(count).as("a count that four significant digits would round").isGreaterThan(9999)
+                .matches(c -> c % 10 != 0);
+        Cli.Run text = Cli.run("compare", b, a);
+        assertThat(text.code()).isZero();
+        assertThat(text.out()).containsPattern("pixels compared +" + count + "\\R");
+        Cli.Run stats = Cli.run("stats", b);
+        int pixels = Cli.json("stats", b, "--json").get("count").asInt();
+        assertThat(stats.out()).containsPattern("pixels +" + pixels + "\\R");
+    }
 }

@@ -129,4 +129,12 @@ class IronMapCommandTest {
         assertThat(r.errLines()).containsExactly("trapmap iron: --max-rotation-deg shapes the registration, which"
                 + " --no-registration leaves out: give one or the other");
     }
+
+    @Test
+    void theTextOutputCarriesTheCautionOfDensitiesBesideTheIronOne() {
+        Cli.Run r = Cli.run("iron", FEB, FEI);
+        assertThat(r.code()).isZero();
+        assertThat(r.out()).contains("caution: " + trapmap.maps.process.IronMapping.CAUTION)
+                .contains("caution: " + trapmap.maps.model.Caution.TEXT);
+    }
 }

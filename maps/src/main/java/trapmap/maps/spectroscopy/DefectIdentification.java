@@ -59,6 +59,8 @@ import trapmap.shared.progress.ProgressListener;
 public final class DefectIdentification {
     /** Smallest region kept, pixels, unless the options say otherwise. */
     public static final int DEFAULT_MIN_REGION_PIXELS = 16;
+    /** What every face of an identification says of it: the command line's note and the viewer's dialog. */
+    public static final String HINT = "a hint, not a proof: the ranking knows only the library's defects";
     /** Default region threshold as a share of the median τ_SRH of the first level (project choice). */
     public static final double DEFAULT_REGION_FRACTION = 0.5;
     /** Least SRH share τ_eff/τ_SRH of the first level's recombination rate in a region pixel (project choice). */

@@ -87,6 +87,7 @@ final class CompareDialog extends JDialog {
         setPreferredSize(new Dimension(Math.max(1200, owner.getWidth()), Math.max(800, owner.getHeight())));
         pack();
         setLocationRelativeTo(owner);
+        ScreenFit.fit(this);
     }
 
     /** Picks a likely pair from the names: before/after, FeB/Fe_i state, or the selected and the next wafer. */

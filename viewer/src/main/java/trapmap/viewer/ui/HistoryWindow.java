@@ -3,7 +3,6 @@ package trapmap.viewer.ui;
 import java.awt.BorderLayout;
 import java.awt.Color;
 import java.awt.Dimension;
-import java.awt.FlowLayout;
 import java.awt.GridLayout;
 import java.awt.Rectangle;
 import java.awt.datatransfer.DataFlavor;
@@ -208,7 +207,7 @@ final class HistoryWindow extends JFrame {
         status.setName("historyStatus");
         caption.setName("historyCaption");
 
-        JPanel storeRow = new JPanel(new FlowLayout(FlowLayout.LEFT, 6, 2));
+        JPanel storeRow = new JPanel(new WrapLayout(6, 2));
         storeRow.add(new JLabel("Store"));
         storeRow.add(storeField);
         storeRow.add(choose);
@@ -216,7 +215,7 @@ final class HistoryWindow extends JFrame {
         storeRow.add(progress);
         storeRow.add(cancel);
         storeRow.add(status);
-        JPanel queryRow = new JPanel(new FlowLayout(FlowLayout.LEFT, 6, 2));
+        JPanel queryRow = new JPanel(new WrapLayout(6, 2));
         queryRow.add(new JLabel("Figure"));
         queryRow.add(figure);
         queryRow.add(new JLabel("  By"));
@@ -229,7 +228,7 @@ final class HistoryWindow extends JFrame {
         queryRow.add(until);
         queryRow.add(chartButton);
         queryRow.add(export);
-        JPanel filterRow = new JPanel(new FlowLayout(FlowLayout.LEFT, 6, 2));
+        JPanel filterRow = new JPanel(new WrapLayout(6, 2));
         filterRow.add(new JLabel("Wafers measured since"));
         filterRow.add(sinceField);
         filterRow.add(new JLabel("until"));
@@ -240,7 +239,8 @@ final class HistoryWindow extends JFrame {
         filterRow.add(lotsField);
         filterRow.add(new JLabel("  facts"));
         filterRow.add(factsField);
-        JPanel top = new JPanel(new GridLayout(3, 1));
+        JPanel top = new JPanel();
+        top.setLayout(new javax.swing.BoxLayout(top, javax.swing.BoxLayout.Y_AXIS));
         top.add(storeRow);
         top.add(queryRow);
         top.add(filterRow);
@@ -281,10 +281,17 @@ final class HistoryWindow extends JFrame {
         JSplitPane split = new JSplitPane(JSplitPane.HORIZONTAL_SPLIT, left, right);
         split.setResizeWeight(0.6);
         getContentPane().add(top, BorderLayout.NORTH);
+        // the rows wrap at the window's width: laid out again when it changes, they ask for their new height
+        getContentPane().addComponentListener(new java.awt.event.ComponentAdapter() {
+            @Override
+            public void componentResized(java.awt.event.ComponentEvent e) {
+                top.revalidate();
+            }
+        });
         getContentPane().add(split, BorderLayout.CENTER);
-        JLabel hint = new JLabel("Click a point to open its wafer's map in the viewer (a point of several wafers"
-                + " offers them in a menu). Equivalent densities assume one dominant defect; verify with an"
-                + " independent method before scrapping material.");
+        JLabel hint = new JLabel("<html>Click a point to open its wafer's map in the viewer (a point of several"
+                + " wafers offers them in a menu).<br>Caution: " + trapmap.maps.model.Caution.TEXT + "</html>");
+        hint.setName("historyCaution");
         hint.setBorder(BorderFactory.createEmptyBorder(2, 6, 4, 6));
         hint.setForeground(Color.DARK_GRAY);
         getContentPane().add(hint, BorderLayout.SOUTH);
@@ -318,6 +325,7 @@ final class HistoryWindow extends JFrame {
         setPreferredSize(new Dimension(Math.max(1300, owner.getWidth()), Math.max(880, owner.getHeight())));
         pack();
         setLocationRelativeTo(owner);
+        ScreenFit.fit(this);
         showStatus("choose a results store: a SQLite file (drop it here) or postgresql://host/database", false);
     }
 

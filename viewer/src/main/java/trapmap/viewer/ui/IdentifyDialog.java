@@ -95,6 +95,8 @@ final class IdentifyDialog extends JDialog {
             "ν", "p", "note");
     private final JTable regionTable = new JTable(regions);
     private final JTextArea registration = new JTextArea(4, 40);
+    private final JLabel caution = new JLabel("<html>" + cautionText().replace(". Caution: ", ".<br>Caution: ")
+            + "</html>"); // two lines: one would be cut off on a laptop screen
     private final JLabel probeTitle = new JLabel("click the map or choose a region to see its curves");
     private final IdentificationChartsView charts = new IdentificationChartsView();
     private IdentificationResult result;
@@ -244,11 +246,37 @@ final class IdentifyDialog extends JDialog {
         split.setResizeWeight(0.5);
         getContentPane().add(top, BorderLayout.NORTH);
         getContentPane().add(split, BorderLayout.CENTER);
+        // the ranking names a defect and its N_t: it carries the command line's note and the caution
+        caution.setName("identifyCaution");
+        caution.setForeground(new java.awt.Color(0x8A5A00));
+        caution.setBorder(BorderFactory.createEmptyBorder(3, 8, 3, 8));
+        getContentPane().add(caution, BorderLayout.SOUTH);
         getRootPane().registerKeyboardAction(e -> dispose(), KeyStroke.getKeyStroke("ctrl W"),
                 JComponent.WHEN_IN_FOCUSED_WINDOW);
         setPreferredSize(new Dimension(Math.max(1280, owner.getWidth()), Math.max(900, owner.getHeight())));
         pack();
         setLocationRelativeTo(owner);
+        if (ScreenFit.fit(this)) {
+            // a low screen: the charts keep room enough to be read, the map and tables above give it up
+            javax.swing.SwingUtilities.invokeLater(() -> split.setDividerLocation(chartDivider(split.getHeight(),
+                    split.getDividerLocation())));
+        }
+    }
+
+    /**
+     * Where the divider between the map and tables (above) and the charts (below) goes in a split pane {@code height}
+     * px high whose divider lies at {@code at}: where it is when the charts keep 320 px, else as low as leaves them
+     * 320 px, but no higher than 40 % of the height.
+     */
+    static int chartDivider(int height, int at) {
+        return height - at >= 320 ? at : Math.max((int) (0.4 * height), height - 320);
+    }
+
+    /** The line under the dialog: the identification is a hint, and the densities carry the caution. */
+    static String cautionText() {
+        String hint = trapmap.maps.spectroscopy.DefectIdentification.HINT;
+        return Character.toUpperCase(hint.charAt(0)) + hint.substring(1) + ". Caution: "
+                + trapmap.maps.model.Caution.TEXT;
     }
 
     /** Number of levels listed. */

@@ -131,7 +131,12 @@ public final class ViewerApp {
             ToolTipManager.sharedInstance().setDismissDelay(20_000);
             ViewerWindow w = new ViewerWindow(model, recent != null ? recent
                     : RecentFiles.inPreferences(PREFERENCES));
-            w.setLocationByPlatform(true);
+            if (ScreenFit.fit(w)) {
+                // a laptop screen: the whole screen rather than a window that reaches past its edges
+                w.setExtendedState(java.awt.Frame.MAXIMIZED_BOTH);
+            } else {
+                w.setLocationByPlatform(true);
+            }
             w.setVisible(true);
             w.toFront();
             w.canvas().setFocusable(true);

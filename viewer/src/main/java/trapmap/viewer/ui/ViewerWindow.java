@@ -137,6 +137,8 @@ public final class ViewerWindow extends JFrame {
         });
         mapTitle.setBorder(BorderFactory.createEmptyBorder(4, 8, 4, 8));
         mapTitle.setFont(mapTitle.getFont().deriveFont(java.awt.Font.BOLD));
+        // a label's minimum width is its text's: a long title would hold the side panel narrower than it is asked to be
+        mapTitle.setMinimumSize(new Dimension(0, mapTitle.getPreferredSize().height));
         JPanel centre = new JPanel(new BorderLayout());
         centre.add(mapTitle, BorderLayout.NORTH);
         centre.add(canvas, BorderLayout.CENTER);
@@ -152,7 +154,11 @@ public final class ViewerWindow extends JFrame {
         physicsScroll.setBorder(BorderFactory.createEmptyBorder());
         physicsScroll.getVerticalScrollBar().setUnitIncrement(16);
         physicsScroll.setHorizontalScrollBarPolicy(JScrollPane.HORIZONTAL_SCROLLBAR_NEVER);
-        JSplitPane right = new JSplitPane(JSplitPane.VERTICAL_SPLIT, physicsScroll, threshold);
+        JScrollPane thresholdScroll = new JScrollPane(threshold);
+        thresholdScroll.setBorder(BorderFactory.createEmptyBorder());
+        thresholdScroll.getVerticalScrollBar().setUnitIncrement(16);
+        thresholdScroll.setHorizontalScrollBarPolicy(JScrollPane.HORIZONTAL_SCROLLBAR_NEVER);
+        JSplitPane right = new JSplitPane(JSplitPane.VERTICAL_SPLIT, physicsScroll, thresholdScroll);
         right.setResizeWeight(0.55);
         right.setBorder(null);
         right.setPreferredSize(new Dimension(400, 600));
@@ -177,7 +183,13 @@ public final class ViewerWindow extends JFrame {
         model.addListener(c -> SwingUtilities.invokeLater(() -> changed(c)));
         setPreferredSize(new Dimension(1600, 1000));
         pack();
+        gallery.setMinimumSize(new Dimension(180, 100));
         SwingUtilities.invokeLater(() -> {
+            // on a narrow screen the side columns give up some of their width so that the map keeps room
+            int[] sides = ScreenFit.sideWidths(outer.getWidth());
+            outer.setDividerLocation(sides[0]);
+            outer.validate(); // the inner pane takes its width before its divider is placed
+            inner.setDividerLocation(Math.max(0, inner.getWidth() - sides[1] - inner.getDividerSize()));
             centreSplit.setDividerLocation(0.72);
             right.setDividerLocation(0.6);
         });

@@ -48,8 +48,20 @@ public class HistogramView extends JPanel {
         table.getColumnModel().getColumn(0).setPreferredWidth(210);
         table.getColumnModel().getColumn(1).setPreferredWidth(110);
         table.getColumnModel().getColumn(2).setPreferredWidth(50);
-        JScrollPane side = new JScrollPane(table);
-        side.setPreferredSize(new Dimension(370, 300));
+        // in a narrow table the names give way: a value or a unit cut to "…" cannot be read at all
+        table.getColumnModel().getColumn(1).setMinWidth(70);
+        table.getColumnModel().getColumn(2).setMinWidth(40);
+        JScrollPane side = new JScrollPane(table) {
+            private static final long serialVersionUID = 1L;
+
+            /** 370 px, or less in a narrow tab: the chart keeps at least half the width, drawn unscaled. */
+            @Override
+            public Dimension getPreferredSize() {
+                int room = HistogramView.this.getWidth();
+                return new Dimension(room > 0 ? Math.min(370, room / 2) : 370, 300);
+            }
+        };
+        chartPanel.setMinimumDrawWidth(200); // a narrower chart is drawn shrunk, its labels too small to read
         add(chartPanel, BorderLayout.CENTER);
         add(side, BorderLayout.EAST);
     }

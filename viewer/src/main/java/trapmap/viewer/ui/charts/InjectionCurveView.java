@@ -108,7 +108,9 @@ public class InjectionCurveView extends JPanel {
         plot.setDataset(1, point);
         plot.setRenderer(1, pr);
         JFreeChart chart = new JFreeChart("Lifetime against injection", ChartStyle.TITLE, plot, true);
-        if (c != null) {
+        if (c == null) {
+            chart.addSubtitle(new TextTitle(EMPTY, ChartStyle.SUBTITLE));
+        } else {
             String status = c.pixel().status() == PixelStatus.BELOW_LIMIT
                     ? "below the detection limit: N_t is an upper bound" : "status " + c.pixel().status().name();
             chart.addSubtitle(new TextTitle("defect " + c.defectId() + ", N_t = " + Labels.number(
@@ -119,6 +121,10 @@ public class InjectionCurveView extends JPanel {
         chart.setPadding(new org.jfree.chart.ui.RectangleInsets(2, 2, 2, 16));
         return chart;
     }
+
+    /** What the empty chart says: how to get a curve. */
+    public static final String EMPTY = "no pixel yet: point at the map with this tab open; the curve is the pixel's"
+            + " under the cursor, for the chosen defect";
 
     /** A lifetime range that shows τ_eff, the operating point and the limits near them (at most six decades). */
     private static double[] yRange(InjectionSweep c) {

@@ -44,7 +44,10 @@ public class LineProfileView extends JPanel {
         return chartPanel.getChart();
     }
 
-    /** The profile chart (empty for a null profile). */
+    /** What the chart without a line says: how to draw one. */
+    public static final String EMPTY = "no line drawn: press L (View ▸ Line tool) and drag across the map";
+
+    /** The profile chart (empty for a null profile, saying how to draw a line). */
     public static JFreeChart createChart(LineProfile p, Quantity q) {
         XYSeries s = new XYSeries(Labels.name(q), false, true);
         boolean allPositive = true;
@@ -70,8 +73,11 @@ public class LineProfileView extends JPanel {
         r.setDefaultToolTipGenerator((ds, si, i) -> Labels.number(ds.getXValue(si, i)) + " mm: "
                 + Labels.number(ds.getYValue(si, i)) + (unit.isEmpty() ? "" : " " + unit));
         XYPlot plot = new XYPlot(new XYSeriesCollection(s), x, y, r);
-        JFreeChart chart = new JFreeChart("Line profile of " + Labels.name(q), ChartStyle.TITLE, plot, false);
-        if (p != null) {
+        JFreeChart chart = new JFreeChart(p == null ? "Line profile" : "Line profile of " + Labels.name(q),
+                ChartStyle.TITLE, plot, false);
+        if (p == null) {
+            chart.addSubtitle(new TextTitle(EMPTY, ChartStyle.SUBTITLE));
+        } else {
             String band = p.bandWidthMm() > 0 ? "averaged across a band " + Labels.number(p.bandWidthMm()) + " mm wide"
                     : "single line (no band)";
             chart.addSubtitle(new TextTitle(String.format(java.util.Locale.ROOT,

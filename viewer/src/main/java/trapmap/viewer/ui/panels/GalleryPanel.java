@@ -212,10 +212,11 @@ public final class GalleryPanel extends JPanel {
                 border = r.pass() ? PASS : FAIL;
                 Verdict v = r.verdict();
                 String colour = isSelected ? "#FFFFFF" : v.pass() ? "#2E8B57" : "#D03030";
-                verdict.setText("<html><b><font color='" + colour + "'>"
+                // one line, cut at the card's edge: a wrapped second line would be drawn over the key figure
+                verdict.setText("<html><nobr><b><font color='" + colour + "'>"
                         + (v.rulesVerdict() ? v.headline() : "quick check: " + v.outcome()) + "</font></b>"
                         + (v.rulesVerdict() ? " · " + v.profile() : "") + (v.defectOverridden() ? " · "
-                        + v.defectId() + "*" : "") + "</html>");
+                        + v.defectId() + "*" : "") + "</nobr></html>");
             }
             selected = isSelected;
             image = thumbnail(w);

@@ -77,6 +77,9 @@ public final class PhysicsPanel extends WidthTrackingPanel {
         f.section("Measurement conditions");
         JPanel doping = new JPanel(new java.awt.BorderLayout(4, 0));
         doping.add(dopingType, java.awt.BorderLayout.WEST);
+        // a narrow side panel lays the form out at its minimum sizes: the value must stay wide enough to read
+        dopingValue.setMinimumSize(new java.awt.Dimension(64, dopingValue.getPreferredSize().height));
+        dopingType.putClientProperty("JComponent.minimumWidth", 0); // "p" or "n": no wider than it needs
         doping.add(dopingValue, java.awt.BorderLayout.CENTER);
         doping.add(dopingUnit, java.awt.BorderLayout.EAST);
         String dopingTip = "Type and net doping: a resistivity in Ω·cm (converted by ASTM F723 at 23 °C) or a density"
@@ -108,6 +111,7 @@ public final class PhysicsPanel extends WidthTrackingPanel {
         f.row("Defect", defect, null, "Defect whose equivalent density each pixel is converted to; its level,"
                 + " capture cross-sections (cm²) and source are shown below");
         defectInfo.setEditable(false);
+        stayPut(defectInfo);
         defectInfo.setLineWrap(true);
         defectInfo.setWrapStyleWord(true);
         defectInfo.setOpaque(false);
@@ -133,6 +137,7 @@ public final class PhysicsPanel extends WidthTrackingPanel {
         f.section("Probability of exceeding N*");
         exceedanceInfo.setName("exceedanceInfo");
         exceedanceInfo.setEditable(false);
+        stayPut(exceedanceInfo);
         exceedanceInfo.setLineWrap(true);
         exceedanceInfo.setWrapStyleWord(true);
         exceedanceInfo.setOpaque(false);
@@ -488,4 +493,13 @@ public final class PhysicsPanel extends WidthTrackingPanel {
                 Units.number(d.captureRatio()), d.source());
     }
 
+
+    /**
+     * Keeps a read-only text's caret where it is when the text is replaced: a caret that follows the new text to its
+     * end scrolls the side panel down to it, so the panel would open, and jump at every wafer, scrolled past the
+     * doping and thickness fields.
+     */
+    private static void stayPut(JTextArea t) {
+        ((javax.swing.text.DefaultCaret) t.getCaret()).setUpdatePolicy(javax.swing.text.DefaultCaret.NEVER_UPDATE);
+    }
 }

@@ -30,9 +30,11 @@ import trapmap.viewer.model.WaferAnalysis;
 /**
  * The threshold rule on the displayed quantity: a slider (logarithmic for quantities that span decades) with a text
  * field in the quantity's unit, above/below, smallest region, the pass limit on the flagged area, the flagged
- * fraction and the table of flagged regions (a click zooms there).
+ * fraction and the table of flagged regions (a click zooms there). In a scroll pane it follows the viewport's width and
+ * fills its height where there is room (the region table takes the rest), else keeps its own height and scrolls, so
+ * that on a low screen the verdict stays reachable rather than cut off.
  */
-public final class ThresholdPanel extends JPanel {
+public final class ThresholdPanel extends WidthTrackingPanel {
     private static final long serialVersionUID = 1L;
     private static final int STEPS = 1000;
     private static final String OWN_TIP = "trapmap.ownTooltip";
@@ -47,6 +49,7 @@ public final class ThresholdPanel extends JPanel {
     private final JSpinner maxFraction = new JSpinner(new SpinnerNumberModel(2.0, 0.0, 100.0, 0.5));
     private final JLabel summary = new JLabel(" ");
     private final JLabel verdict = new JLabel(" ");
+    private final JLabel caution = new JLabel("<html>Caution: " + trapmap.maps.model.Caution.TEXT + "</html>");
     private final RegionModel regions = new RegionModel();
     private final JTable table = new JTable(regions);
     private double lo = 1;
@@ -80,6 +83,12 @@ public final class ThresholdPanel extends JPanel {
         verdict.setToolTipText("How the shown wafer was judged: a rules file's verdict and grade (as trapmap inspect"
                 + " gives them), or the quick threshold check above, which is not a rules verdict");
         f.wide(verdict);
+        // every verdict carries the caution, here as in the reports and on the command line
+        caution.setName("verdictCaution");
+        caution.setFont(caution.getFont().deriveFont(caution.getFont().getSize2D() - 1f));
+        caution.setForeground(new java.awt.Color(0x8A5A00));
+        caution.setBorder(BorderFactory.createEmptyBorder(3, 0, 0, 0));
+        f.wide(caution);
         f.section("Flagged regions");
         add(f, BorderLayout.NORTH);
 
@@ -243,6 +252,7 @@ public final class ThresholdPanel extends JPanel {
                 summary.setText(w == null ? "no wafer open" : w.error() != null ? w.error() : "analysing…");
                 verdict.setText(byRules ? "judged by " + model.judgedBy() : Verdict.QUICK_CHECK);
                 regions.set(List.of(), q.unit());
+                caution.setVisible(false);
             } else {
                 Verdict v = r.verdict();
                 summary.setText("<html>flagged <b>" + Units.percent(r.flaggedFraction()) + "</b> of "
@@ -251,6 +261,7 @@ public final class ThresholdPanel extends JPanel {
                         + r.regions().size() + (r.regions().size() == 1 ? " region" : " regions") + "</html>");
                 verdict.setText(verdictHtml(v));
                 regions.set(r.regions().regions(), r.flagUnit());
+                caution.setVisible(true);
             }
         } finally {
             updating = false;
@@ -292,9 +303,19 @@ public final class ThresholdPanel extends JPanel {
         return b.append("</html>").toString();
     }
 
+    @Override
+    public boolean getScrollableTracksViewportHeight() {
+        return getParent() instanceof javax.swing.JViewport v && v.getHeight() > getPreferredSize().height;
+    }
+
     /** The verdict line as shown (HTML). */
     public String verdictText() {
         return verdict.getText();
+    }
+
+    /** The caution under the verdict, or null while no verdict is shown. */
+    public String cautionText() {
+        return caution.isVisible() ? caution.getText().replaceAll("<[^>]+>", "") : null;
     }
 
     /** Number of rows in the region table. */

@@ -229,4 +229,31 @@ public class ChartsTest {
         assertThat(Labels.number(Double.NaN)).isEqualTo("n/a");
         assertThat(Labels.number(3e11, "cm^-3")).isEqualTo("3e11 cm⁻³");
     }
+
+    @Test
+    void inANarrowTabTheHistogramKeepsHalfTheWidthForTheChart() {
+        HistogramView v = new HistogramView();
+        v.setSize(480, 250); // the chart tab of a 1024 px wide window
+        v.doLayout();
+        v.doLayout(); // the table's width follows the tab's
+        java.awt.Component chart = v.getComponent(0);
+        assertThat(chart).isInstanceOf(org.jfree.chart.ChartPanel.class);
+        assertThat(chart.getWidth()).as("chart width of 480 px").isGreaterThanOrEqualTo(480 / 2 - 6);
+        assertThat(((org.jfree.chart.ChartPanel) chart).getMinimumDrawWidth()).as("drawn unscaled")
+                .isLessThanOrEqualTo(chart.getWidth());
+        v.setSize(1200, 250); // a desktop window: the table at its full width
+        v.doLayout();
+        assertThat(v.getComponent(1).getWidth()).isEqualTo(370);
+    }
+
+    @Test
+    void anEmptyProfileOrInjectionChartSaysHowToFillIt() {
+        JFreeChart line = LineProfileView.createChart(null, Quantity.UNKNOWN);
+        assertThat(line.getTitle().getText()).isEqualTo("Line profile");
+        assertThat(((org.jfree.chart.title.TextTitle) line.getSubtitle(0)).getText()).contains("press L")
+                .contains("drag across the map");
+        JFreeChart injection = InjectionCurveView.createChart(null);
+        assertThat(injection.getSubtitles()).filteredOn(t -> t instanceof org.jfree.chart.title.TextTitle tt
+                && tt.getText().contains("point at the map")).hasSize(1);
+    }
 }

@@ -92,4 +92,31 @@ class PhysicsPanelTest {
         assertThat(info.getText()).startsWith("this wafer: the rules flag's, N* 2e11 cm⁻³, 500 samples, seed 1")
                 .endsWith("(yours: N* 3e11 cm⁻³, 10000 samples, seed 1)");
     }
+
+    private static void layOut(java.awt.Component c) {
+        if (c instanceof java.awt.Container k) {
+            k.doLayout();
+            for (java.awt.Component child : k.getComponents()) {
+                layOut(child);
+            }
+        }
+    }
+
+    @Test
+    void newDefectAndExceedanceTextsLeaveTheScrolledPanelAtItsTop() throws Exception {
+        ViewerModel model = new ViewerModel();
+        PhysicsPanel p = new PhysicsPanel(model, () -> { }, () -> { });
+        javax.swing.JScrollPane sp = new javax.swing.JScrollPane(p);
+        sp.setSize(400, 300); // shorter than the panel, as in the window's side panel
+        layOut(sp);
+        layOut(sp);
+        assertThat(p.getHeight()).as("panel taller than its viewport").isGreaterThan(300);
+        javax.swing.SwingUtilities.invokeAndWait(() -> {
+            model.open(java.util.List.of(java.nio.file.Path.of("..", "demo-data", "LOT-A01-W03.tif")));
+            p.refresh();
+            p.showDefectInfo();
+        });
+        javax.swing.SwingUtilities.invokeAndWait(() -> { }); // carets move on the event thread, later
+        assertThat(sp.getViewport().getViewPosition().y).as("scrolled down by").isZero();
+    }
 }
