@@ -10,6 +10,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.TreeMap;
 import trapmap.maps.batch.HotSpots;
+import trapmap.maps.batch.IronPairs;
 import trapmap.maps.batch.Recurrence;
 import trapmap.maps.batch.Rules;
 import trapmap.store.BatchTrend;
@@ -65,13 +66,30 @@ public record BatchContent(Path outputDir, Rules rules, List<Row> rows, Map<Stri
      * @param worstYMm      its centroid y, mm
      * @param worstPeak     its peak value in the unit of the profile's flag
      * @param error         the reason of an error row
+     * @param iron          the row's iron columns ({@code iron_…} of {@code results.csv}, text as written; empty
+     *                      when the batch mapped no iron), in column order
      */
     public record Row(String file, String waferId, String status, String grade, String profile, String defect,
                       Map<String, Double> figures, List<String> failed, double worstAreaMm2, double worstXMm,
-                      double worstYMm, double worstPeak, String error) {
+                      double worstYMm, double worstPeak, String error, Map<String, String> iron) {
         public Row {
             figures = Collections.unmodifiableMap(new LinkedHashMap<>(figures));
             failed = List.copyOf(failed);
+            iron = iron == null ? Map.of() : Collections.unmodifiableMap(new LinkedHashMap<>(iron));
+        }
+
+        /** A row without iron columns. */
+        public Row(String file, String waferId, String status, String grade, String profile, String defect,
+                   Map<String, Double> figures, List<String> failed, double worstAreaMm2, double worstXMm,
+                   double worstYMm, double worstPeak, String error) {
+            this(file, waferId, status, grade, profile, defect, figures, failed, worstAreaMm2, worstXMm, worstYMm,
+                    worstPeak, error, Map.of());
+        }
+
+        /** Whether the row carries an iron pair's figures (its FeB-state map's row: status pass, fail or error). */
+        public boolean ironPair() {
+            String st = iron.getOrDefault(IronPairs.STATUS, "");
+            return st.equals("pass") || st.equals("fail") || st.equals("error");
         }
 
         /** The wafer id, or the file name when there is none. */

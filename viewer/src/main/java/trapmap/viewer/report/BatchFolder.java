@@ -17,6 +17,7 @@ import org.apache.commons.csv.CSVRecord;
 import trapmap.maps.batch.BatchInspection;
 import trapmap.maps.io.CsvCells;
 import trapmap.maps.batch.HotSpots;
+import trapmap.maps.batch.IronPairs;
 import trapmap.maps.batch.RecurrenceMap;
 import trapmap.maps.batch.Rules;
 import trapmap.maps.batch.RunManifest;
@@ -89,8 +90,56 @@ final class BatchFolder {
                 text(cells, "grade"), text(cells, "profile"), text(cells, "defect"), figures,
                 failed.isEmpty() ? List.of() : List.of(failed.split(";")), number(text(cells, "worst_region_area_mm2")),
                 number(text(cells, "worst_region_x_mm")), number(text(cells, "worst_region_y_mm")),
-                number(text(cells, "worst_region_peak")), text(cells, "error"));
+                number(text(cells, "worst_region_peak")), text(cells, "error"), iron(cells));
     }
+
+    /**
+     * The iron columns of a row ({@code iron_…}, as {@code IronPairs} names them), text as the batch made it: partner,
+     * status, the figures (median, then the percentiles in rising order), crossover, registration, failed, note;
+     * empty cells left out.
+     */
+    static Map<String, String> iron(Map<String, String> cells) {
+        List<String> names = new ArrayList<>();
+        for (String k : cells.keySet()) {
+            if (k != null && k.startsWith("iron_") && cells.get(k) != null && !cells.get(k).isEmpty()) {
+                names.add(k);
+            }
+        }
+        names.sort(java.util.Comparator.comparingInt(BatchFolder::ironRank).thenComparingDouble(BatchFolder::ironPercent)
+                .thenComparing(java.util.Comparator.naturalOrder()));
+        Map<String, String> out = new LinkedHashMap<>();
+        names.forEach(k -> out.put(k, cells.get(k)));
+        return out;
+    }
+
+    private static int ironRank(String column) {
+        return switch (column) {
+            case IronPairs.PARTNER -> 0;
+            case IronPairs.STATUS -> 1;
+            case "iron_crossover_cm3" -> 3;
+            case "iron_registration_score" -> 4;
+            case IronPairs.FAILED -> 5;
+            case IronPairs.NOTE -> 6;
+            default -> 2; // the figures
+        };
+    }
+
+    /** The percentile an iron figure column gives (50: the median), +∞ for other columns. */
+    static double ironPercent(String column) {
+        if (column.equals("iron_median_cm3")) {
+            return 50;
+        }
+        java.util.regex.Matcher m = IRON_PERCENTILE.matcher(column);
+        return m.matches() ? Double.parseDouble(m.group(1)) : Double.POSITIVE_INFINITY;
+    }
+
+    /** Whether a column is an iron figure ({@code iron_median_cm3}, {@code iron_pNN_cm3}). */
+    static boolean ironFigure(String column) {
+        return column.equals("iron_median_cm3") || IRON_PERCENTILE.matcher(column).matches();
+    }
+
+    private static final java.util.regex.Pattern IRON_PERCENTILE =
+            java.util.regex.Pattern.compile("iron_p(\\d{1,2}(?:\\.\\d+)?)_cm3");
 
     private static String text(Map<String, String> cells, String column) {
         String v = cells.get(column);

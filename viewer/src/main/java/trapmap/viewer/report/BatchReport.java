@@ -32,6 +32,8 @@ import trapmap.store.BatchTrend;
  *   <li>yield, grades, and the profiles that judged the wafers ({@link SummarySection});</li>
  *   <li>one section per profile: its wafers, defect, flag, limits and grades, and the distribution of each figure
  *       with that profile's limits ({@link ProfileSection});</li>
+ *   <li>when the batch has FeB-dissociation pairs, their interstitial iron as {@code results.csv} gives it
+ *       ({@link IronSection});</li>
  *   <li>every wafer in a table ({@link WaferTable});</li>
  *   <li>the failed wafers, worst first, with pictures ({@link FailedWafersSection});</li>
  *   <li>the recurrence map of each wafer family with its hot spots ({@link RecurrenceSection});</li>
@@ -136,10 +138,14 @@ public final class BatchReport {
         doc.getDocumentInformation().setCreator("trapmap");
     }
 
-    /** What comes before the wafer table: the summary page and the sections per profile. */
+    /**
+     * What comes before the wafer table: the summary page, the sections per profile and, when the batch has
+     * FeB-dissociation pairs, their interstitial iron.
+     */
     static void head(ReportFlow flow, BatchContent c) throws IOException {
         SummarySection.draw(flow, c);
         ProfileSection.drawAll(flow, c);
+        IronSection.draw(flow, c);
     }
 
     /**

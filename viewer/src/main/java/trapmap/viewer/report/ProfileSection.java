@@ -121,10 +121,9 @@ final class ProfileSection {
     private static void values(ReportFlow flow, Rules.Profile p, String defect, List<String> figures,
                                List<BatchContent.Row> rows) throws IOException {
         List<BatchContent.Row> shown = rows.subList(0, Math.min(VALUE_COLUMNS, rows.size()));
-        flow.paragraph("Figures of the " + (rows.size() == 1 ? "wafer" : rows.size() + " wafers") + " of this"
+        String lead = "Figures of the " + (rows.size() == 1 ? "wafer" : rows.size() + " wafers") + " of this"
                 + " profile with its limits (too few wafers for a distribution)"
-                + (rows.size() > shown.size() ? "; showing " + shown.size() + " of " + rows.size() : "") + ".",
-                PdfPage.REGULAR, 8.5f);
+                + (rows.size() > shown.size() ? "; showing " + shown.size() + " of " + rows.size() : "") + ".";
         float f = ReportFlow.FULL;
         float first = f * 0.36f;
         float lim = f * 0.16f;
@@ -154,6 +153,10 @@ final class ProfileSection {
             }
             table.add(row);
         }
+        // the sentence stays with its table, the table on one page where it fits one
+        flow.keep(flow.paragraphHeight(lead, PdfPage.REGULAR, 8.5f) + ReportFlow.tableHeight(widths, header, table,
+                7.5f));
+        flow.paragraph(lead, PdfPage.REGULAR, 8.5f);
         flow.table(widths, right, header, table, 7.5f);
     }
 }

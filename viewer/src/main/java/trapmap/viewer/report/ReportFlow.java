@@ -100,6 +100,34 @@ final class ReportFlow implements Closeable {
         return true;
     }
 
+    /** Room of a page the flow runs onto, below its "(continued)" title, points. */
+    float pageRoom() {
+        return BOTTOM - PdfPage.MARGIN - (title.isEmpty() ? 0 : 20);
+    }
+
+    /**
+     * Keeps a block of {@code h} points together: starts a new page for it when it does not fit the rest of this one
+     * but fits a page; a block taller than a page starts where it is. Returns true when a new page was started.
+     */
+    boolean keep(float h) throws IOException {
+        return h <= pageRoom() && need(h);
+    }
+
+    /** The height {@link #paragraph(String, PDFont, float)} of {@code s} takes, points. */
+    float paragraphHeight(String s, PDFont font, float size) {
+        return PdfPage.wrap(s, font, size, FULL).size() * size * 1.3f + 3;
+    }
+
+    /** The height {@link #table(float[], boolean[], String[], List, float)} of these rows takes on one page, points. */
+    static float tableHeight(float[] widths, String[] header, List<String[]> rows, float size) {
+        float leading = size * 1.3f;
+        float h = height(wrapRow(header, widths, PdfPage.BOLD, size)) * leading + 4;
+        for (String[] row : rows) {
+            h += height(wrapRow(row, widths, PdfPage.REGULAR, size)) * leading + 2;
+        }
+        return h + 4;
+    }
+
     /** A section heading with a rule, kept together with at least {@code keep} points of what follows. */
     void heading(String s, float keep) throws IOException {
         need(22 + keep);
@@ -136,9 +164,11 @@ final class ReportFlow implements Closeable {
 
     /**
      * A table across pages: a bold header with a rule (repeated on each page), cells wrapped within their column
-     * (a word longer than its column is cut with dots), a light rule between rows.
+     * (a word longer than its column is cut with dots), a light rule between rows. A table that fits on one page is
+     * kept on one ({@link #keep}): it starts on a new page when it does not fit the rest of this one.
      */
     void table(float[] widths, boolean[] right, String[] header, List<String[]> rows, float size) throws IOException {
+        keep(tableHeight(widths, header, rows, size));
         Table t = table(widths, right, header, size);
         for (String[] row : rows) {
             t.row(row);

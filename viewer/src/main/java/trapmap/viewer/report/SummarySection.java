@@ -126,10 +126,12 @@ final class SummarySection {
         long failed = c.count("fail");
         int shown = Math.min(FailedWafersSection.SHOWN, (int) failed);
         long errors = c.rows().stream().filter(r -> !r.inspected()).count();
+        int iron = IronSection.pairs(c).size();
         flow.heading("In this document", 40);
         flow.paragraph("Per profile: its criteria, wafers and the distribution of each figure with the profile's"
                 + " limits. Every wafer: one row each (" + c.rows().size() + "). Failed wafers, worst first: "
                 + (failed == 0 ? "none failed." : "showing " + shown + " of " + failed + " failed wafers.")
+                + (iron == 0 ? "" : " Interstitial iron: " + iron + " FeB pair" + (iron == 1 ? "" : "s") + ".")
                 + " Recurrence: " + c.recurrence().size() + " wafer famil" + (c.recurrence().size() == 1 ? "y"
                 : "ies") + " with their hot spots." + (errors == 0 ? "" : " Files not inspected: " + errors + "."),
                 PdfPage.REGULAR, 8.5f);

@@ -51,6 +51,32 @@ class ReportFlowTest {
     }
 
     @Test
+    void aShortTableThatDoesNotFitTheRestOfThePageStartsOnTheNextWhole() throws Exception {
+        List<String[]> rows = new ArrayList<>();
+        for (int i = 1; i <= 6; i++) {
+            rows.add(new String[] {"row-" + i, "value " + i});
+        }
+        ByteArrayOutputStream bytes = new ByteArrayOutputStream();
+        try (PDDocument doc = new PDDocument(); ReportFlow flow = new ReportFlow(doc)) {
+            flow.part("Table");
+            flow.down(ReportFlow.BOTTOM - flow.y() - 60); // 60 points left: the header and about two rows
+            flow.paragraph("filler", PdfPage.REGULAR, 8);
+            flow.table(new float[] {80, 120}, null, new String[] {"name", "note"}, rows, 8);
+            flow.close();
+            doc.save(bytes);
+        }
+        try (PDDocument doc = Loader.loadPDF(bytes.toByteArray())) {
+            assertThat(doc.getNumberOfPages()).isEqualTo(2);
+            assertThat(page(doc, 1)).contains("filler").doesNotContain("name", "row-");
+            String second = page(doc, 2);
+            assertThat(second).contains("Table (continued)", "name note");
+            for (int i = 1; i <= 6; i++) {
+                assertThat(second).contains("row-" + i + " value " + i);
+            }
+        }
+    }
+
+    @Test
     void overlongWordsBreakAfterAnUnderscore() {
         List<String> lines = PdfPage.wrap("failed: largest_interior_region_mm2", PdfPage.REGULAR, 8, 60);
         assertThat(lines).allSatisfy(l -> assertThat(PdfPage.width(l, PdfPage.REGULAR, 8)).isLessThanOrEqualTo(60));

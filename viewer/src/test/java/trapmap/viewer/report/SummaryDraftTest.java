@@ -2,10 +2,14 @@ package trapmap.viewer.report;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import java.io.Reader;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Map;
+import org.apache.commons.csv.CSVFormat;
+import org.apache.commons.csv.CSVParser;
 import org.apache.pdfbox.Loader;
 import org.apache.pdfbox.pdmodel.PDDocument;
 import org.apache.pdfbox.text.PDFTextStripper;
@@ -13,8 +17,10 @@ import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import trapmap.maps.batch.BatchInspection;
+import trapmap.maps.batch.IronPairRules;
 import trapmap.maps.batch.Rules;
 import trapmap.shared.progress.ProgressListener;
+import trapmap.viewer.graphics.Labels;
 
 /**
  * The summary drawn while the batch runs ({@link SummaryDraft}) is the document {@link BatchReport#writeFor} draws
@@ -42,7 +48,38 @@ class SummaryDraftTest {
 
         assertThat(draft.drewAhead()).isTrue();
         assertThat(draft.finishedAhead()).as("finished beside the tables").isTrue();
-        assertSameAsFromFolder(dir.resolve("out"));
+        String all = assertSameAsFromFolder(dir.resolve("out"));
+        assertThat(all).as("no iron pairs: no iron section").doesNotContain(IronSection.TITLE, "Interstitial iron");
+    }
+
+    @Test
+    void theIronOfTheDemonstrationPairIsShownAsResultsCsvGivesItOnBothPaths(@TempDir Path dir) throws Exception {
+        Path demo = Path.of("..", "demo-data").toAbsolutePath().normalize();
+        Path rulesFile = demo.resolve("rules-example.json");
+        List<Path> files = List.of(demo.resolve("LOT-A01-W01.tif"), demo.resolve("LOT-A03-W02-fe-i-state.tif"),
+                demo.resolve("LOT-A03-W02-feb-state.tif"));
+        Rules rules = Rules.read(rulesFile);
+        Path out = dir.resolve("out");
+        drawn(files, out, 2, true, rules, IronPairRules.read(rulesFile).orElseThrow());
+
+        Map<String, String> feb;
+        try (Reader r = Files.newBufferedReader(out.resolve(BatchInspection.CSV_NAME));
+             CSVParser p = CSVFormat.DEFAULT.builder().setHeader().setSkipHeaderRecord(true).build().parse(r)) {
+            feb = p.getRecords().stream().filter(rec -> rec.get("file").endsWith("-feb-state.tif")).findFirst()
+                    .orElseThrow().toMap();
+        }
+        assertThat(feb.get("iron_status")).isEqualTo("pass");
+        String median = Labels.number(Double.parseDouble(feb.get("iron_median_cm3")));
+        String p95 = Labels.number(Double.parseDouble(feb.get("iron_p95_cm3")));
+        assertThat(median).isEqualTo("4.917e10"); // README: median about 4.9e10 cm⁻³, P95 about 3.3e11 cm⁻³
+        assertThat(p95).isEqualTo("3.303e11");
+
+        String all = assertSameAsFromFolder(out, rules);
+        assertThat(all).contains(IronSection.TITLE, "median", "P95 (cm⁻³)", "LOT-A03-W02-feb-state.tif /",
+                "Interstitial iron: 1 FeB pair.");
+        assertThat(all).contains("LOT-A03-W02 LOT-A03-W02-feb-state.tif / LOT-A03-W02-fe-i-state.tif pass "
+                + median + " " + p95);
+        assertThat(all.indexOf(IronSection.TITLE)).as("one section").isEqualTo(all.lastIndexOf(IronSection.TITLE));
     }
 
     @Test
@@ -81,8 +118,13 @@ class SummaryDraftTest {
 
     /** {@code tellEnd}: whether the draft is told the rows ended (else only each row, and write finishes it). */
     private static SummaryDraft drawn(List<Path> files, Path out, int workers, boolean tellEnd) throws Exception {
-        Rules rules = Rules.parse(BatchReportTest.RULES, "rules.json");
-        BatchInspection batch = new BatchInspection(rules);
+        return drawn(files, out, workers, tellEnd, Rules.parse(BatchReportTest.RULES, "rules.json"), null);
+    }
+
+    /** As {@link #drawn(List, Path, int, boolean)} under {@code rules}, with the iron pairs of {@code iron} (null: none). */
+    private static SummaryDraft drawn(List<Path> files, Path out, int workers, boolean tellEnd, Rules rules,
+                                      IronPairRules iron) throws Exception {
+        BatchInspection batch = new BatchInspection(rules).withIron(iron);
         try (SummaryDraft draft = SummaryDraft.start(out, rules, files.size(), () -> true)) {
             batch.tellingRows(tellEnd ? draft : draft::row).warmingUp(draft::warmedUp).finishingWith((d, recurrence) -> {
                 try {
@@ -95,16 +137,23 @@ class SummaryDraftTest {
         }
     }
 
-    private static void assertSameAsFromFolder(Path out) throws Exception {
-        Rules rules = Rules.parse(BatchReportTest.RULES, "rules.json");
+    private static String assertSameAsFromFolder(Path out) throws Exception {
+        return assertSameAsFromFolder(out, Rules.parse(BatchReportTest.RULES, "rules.json"));
+    }
+
+    /** Asserts that the summary drawn ahead is the one drawn from the folder; returns its text. */
+    private static String assertSameAsFromFolder(Path out, Rules rules) throws Exception {
         Path drafted = Files.move(out.resolve(BatchReport.FILE_NAME), out.resolve("drafted.pdf"));
         Path folder = BatchReport.writeFor(out, rules);
         try (PDDocument d = Loader.loadPDF(drafted.toFile()); PDDocument f = Loader.loadPDF(folder.toFile())) {
             assertThat(d.getNumberOfPages()).isEqualTo(f.getNumberOfPages()).isGreaterThan(3);
             assertThat(d.getDocumentInformation().getTitle()).isEqualTo(f.getDocumentInformation().getTitle());
+            StringBuilder all = new StringBuilder();
             for (int p = 1; p <= d.getNumberOfPages(); p++) {
                 assertThat(undated(text(d, p))).as("page %d", p).isEqualTo(undated(text(f, p)));
+                all.append(text(d, p));
             }
+            return all.toString().replaceAll("\\s+", " ");
         }
     }
 
