@@ -91,7 +91,7 @@ public final class StoreRecurrence {
 
     /**
      * The smallest odd cell factor at least the usual distance between the covered cells of a row (the 90th
-     * percentile over the footprints' rows): 1 where neighbouring cells are covered, 3 for pixels of 2 to 3 mm.
+     * percentile over the footprints' rows): 1 where neighbouring cells are covered, 3 for footprints of one cell per pixel of 2 to 3 mm.
      */
     static int suggestedFactor(List<StoredFootprint> stored) {
         int[] gaps = new int[8]; // gaps 1..7, and longer ones (holes) in the last
@@ -164,8 +164,10 @@ public final class StoreRecurrence {
 
     /**
      * As {@link #analyse(ResultsStore, StoreFilter, String)} on cells {@code cellFactor} times the stored ones
-     * ({@link Footprint#coarsened}: odd, 1 for the stored cells): for maps whose pixels are larger than the stored
-     * 1 mm cells, which cover only some of the cells, so that one spot would fall apart into single cells.
+     * ({@link Footprint#coarsened}: odd, 1 for the stored cells): coarser maps, and a remedy for footprints that cover
+     * only some of the stored cells, one cell per pixel of a map coarser than the cells, so that one spot falls apart
+     * into single cells (the batch's footprints mark every cell whose centre a pixel's square holds, so that only
+     * footprints made otherwise need it; {@link #suggestedFactor} tells them).
      *
      * @throws InvalidValueException (field {@code cell}) when the factor is not a positive odd number
      */
