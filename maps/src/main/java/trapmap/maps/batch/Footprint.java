@@ -36,7 +36,10 @@ public record Footprint(String family, double pitchMm, int minI, int minJ, int w
     /** As {@link #of(String, PixelGrid, int[], int, BitSet)} on cells of {@code p} mm. */
     static Footprint of(String family, PixelGrid grid, int[] indices, int count, BitSet flagged, double p) {
         if (grid.pitchMm() > p) {
-            return ofCoarsePixels(family, grid, indices, count, flagged, p);
+            Footprint f = ofCoarsePixels(family, grid, indices, count, flagged, p);
+            if (f != null) {
+                return f;
+            }
         }
         int w = grid.width();
         int h = grid.height();
@@ -64,7 +67,9 @@ public record Footprint(String family, double pitchMm, int minI, int minJ, int w
      * The footprint of a map whose pixels are larger than the cells: each pixel marks every cell whose centre lies in
      * its square, (x − pitch/2, x + pitch/2] along each axis (the cell under the pixel's centre among them), so that
      * the cells of neighbouring pixels touch. Each edge between two pixels is computed once for both, so that rounding
-     * leaves no cell between them.
+     * leaves no cell between them. Null when the cells would reach beyond {@link RecurrenceMap#MAX_OFFSET_MM}: such a
+     * wafer is left out of the recurrence map whatever its cells, which are then those under the pixels' centres (as
+     * many as pixels, not the pixel's area in cells each).
      */
     private static Footprint ofCoarsePixels(String family, PixelGrid grid, int[] indices, int count, BitSet flagged,
                                             double p) {
@@ -80,6 +85,11 @@ public record Footprint(String family, double pitchMm, int minI, int minJ, int w
         int i1 = Math.max(colHi[0], colHi[w - 1]);
         int j0 = Math.min(rowLo[0], rowLo[h - 1]);
         int j1 = Math.max(rowHi[0], rowHi[h - 1]);
+        double reach = p * Math.max(Math.max(Math.abs((double) i0), Math.abs(i1 + 1.0)),
+                Math.max(Math.abs((double) j0), Math.abs(j1 + 1.0)));
+        if (!(reach <= RecurrenceMap.MAX_OFFSET_MM)) {
+            return null;
+        }
         int cw = i1 - i0 + 1;
         int ch = j1 - j0 + 1;
         BitSet covered = new BitSet(cw * ch);

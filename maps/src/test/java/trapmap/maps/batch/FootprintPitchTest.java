@@ -104,6 +104,19 @@ class FootprintPitchTest {
     }
 
     @Test
+    void coarsePixelsOfAWaferBeyondTheRecurrenceMapsReachKeepOneCellEach() {
+        // the wafer centre 2000 mm off the map: left out of the recurrence map, its cells those under the pixels'
+        // centres rather than the 6 to 9 cells of each pixel's square
+        Wafer far = Wafer.of(2.6, -2000 / 2.6, 31.5, 1e6, 0, 0);
+        Footprint f = far.footprint();
+        assertThat(RecurrenceMap.accepts(f)).isFalse();
+        assertThat(f.covered().cardinality()).isEqualTo(N * N);
+        Wafer near = Wafer.of(2.6, 31.5, 31.5, 1e6, 0, 0);
+        assertThat(near.footprint().covered().cardinality()).as("every cell of the map's area")
+                .isGreaterThan(6 * N * N);
+    }
+
+    @Test
     void atOrBelowTheCellSizeEachPixelMarksTheCellUnderItsCentre() {
         for (double pitch : new double[] {0.25, 0.5, 0.8, 1.0}) {
             for (double[] c : new double[][] {{31.5, 31.5}, {20.25, 40.7}, {-3, 70}}) {
