@@ -12,6 +12,7 @@ import trapmap.maps.batch.Recurrence;
 import trapmap.maps.batch.RecurrenceFiles;
 import trapmap.maps.batch.RecurrenceMap;
 import trapmap.maps.io.NumberText;
+import trapmap.maps.raster.PitchPrecision;
 import trapmap.shared.error.InvalidValueException;
 
 /**
@@ -54,7 +55,8 @@ public final class StoreRecurrence {
 
         /**
          * One line per map: its group, family and wafers and its hot spots under {@code criteria} (each with cells,
-         * highest share and centroid), or why there is none.
+         * highest share and centroid, with the decimals its cell size resolves, as the batch summary gives it:
+         * {@link PitchPrecision#mm}), or why there is none.
          */
         public List<String> lines(HotSpots.Criteria criteria) {
             List<String> out = new ArrayList<>();
@@ -74,12 +76,13 @@ public final class StoreRecurrence {
                     s.append(", ").append(hot.regions().size()).append(hot.regions().size() == 1 ? " hot spot:"
                             : " hot spots:");
                     String sep = " ";
+                    double cell = r.fraction().grid().pitchMm();
                     for (var g : hot.regions().byArea()) {
                         s.append(sep).append('#').append(g.id()).append(' ').append(g.pixelCount())
                                 .append(g.pixelCount() == 1 ? " cell," : " cells,")
                                 .append(" peak ").append(Math.round(g.peakValue() * 100)).append(" % of wafers,")
-                                .append(" centroid (").append(NumberText.mm(g.centroidXMm()))
-                                .append(", ").append(NumberText.mm(g.centroidYMm())).append(") mm");
+                                .append(" centroid (").append(PitchPrecision.mm(g.centroidXMm(), cell))
+                                .append(", ").append(PitchPrecision.mm(g.centroidYMm(), cell)).append(") mm");
                         sep = "; ";
                     }
                 }
@@ -91,7 +94,8 @@ public final class StoreRecurrence {
 
     /**
      * The smallest odd cell factor at least the usual distance between the covered cells of a row (the 90th
-     * percentile over the footprints' rows): 1 where neighbouring cells are covered, 3 for pixels of 2 to 3 mm.
+     * percentile over the footprints' rows): 1 where neighbouring cells are covered, 3 for footprints of one cell
+     * per pixel of 2 to 3 mm.
      */
     static int suggestedFactor(List<StoredFootprint> stored) {
         int[] gaps = new int[8]; // gaps 1..7, and longer ones (holes) in the last
@@ -164,8 +168,10 @@ public final class StoreRecurrence {
 
     /**
      * As {@link #analyse(ResultsStore, StoreFilter, String)} on cells {@code cellFactor} times the stored ones
-     * ({@link Footprint#coarsened}: odd, 1 for the stored cells): for maps whose pixels are larger than the stored
-     * 1 mm cells, which cover only some of the cells, so that one spot would fall apart into single cells.
+     * ({@link Footprint#coarsened}: odd, 1 for the stored cells): coarser maps, and a remedy for footprints that cover
+     * only some of the stored cells, one cell per pixel of a map coarser than the cells, so that one spot falls apart
+     * into single cells (the batch's footprints mark every cell whose centre a pixel's square holds, so that only
+     * footprints made otherwise need it; {@link #suggestedFactor} tells them).
      *
      * @throws InvalidValueException (field {@code cell}) when the factor is not a positive odd number
      */

@@ -70,9 +70,9 @@ final class RecurrenceCommand implements Callable<Integer> {
     String by;
 
     @Option(names = "--cell", paramLabel = "<mm>", defaultValue = "1",
-            description = "The cell size, mm: 1 (the stored cells) or an odd number (3, 5, ...) for maps whose pixels"
-                    + " are larger than 1 mm, whose wafers cover only some 1 mm cells, so that one spot would show as"
-                    + " scattered single cells (default: ${DEFAULT-VALUE}).")
+            description = "The cell size, mm: 1 (the stored cells) or an odd number (3, 5, ...) for coarser maps, or"
+                    + " for footprints stored with only the cell under each pixel's centre, which on pixels larger"
+                    + " than 1 mm show one spot as scattered single cells (default: ${DEFAULT-VALUE}).")
     int cellMm;
 
     @Option(names = {"-o", "--out", "--output"}, required = true, paramLabel = "<DIR>",

@@ -37,10 +37,14 @@ class HistoryStoreRecurrenceTest {
     static final String FIGURE = "trap_density_p50_cm3";
     /** The first T2 lot after the change with a point beyond 3σ must be at most this one (measured: the 3rd). */
     static final int MAX_T2_LOTS_TO_DETECT = 4;
-    /** The hot spot's centroid must lie this close to the planted spot, mm (measured with 3 mm cells: 0.63 mm). */
+    /** The hot spot's centroid must lie this close to the planted spot, mm (measured: 0.27 mm). */
     static final double SPOT_TOLERANCE_MM = 3;
-    /** The cell of the grouped maps, mm: the maps' 2.6 mm pixels cover only every second or third 1 mm cell. */
-    static final String CELL_MM = "3";
+    /**
+     * The hot spot's cells, 1 mm: the planted spot of radius 6 mm, about 113 mm², flagged on the maps' 2.6 mm pixels
+     * (measured: 129 cells, the 19 flagged pixels' 128 mm²).
+     */
+    static final int MIN_SPOT_CELLS = 90;
+    static final int MAX_SPOT_CELLS = 160;
 
     @TempDir
     static Path dir;
@@ -78,7 +82,7 @@ class HistoryStoreRecurrenceTest {
         return List.of(
                 List.of("trend", "--store", store, "--figure", FIGURE, "--by", "furnace_tube", "--baseline-until",
                         "2026-10-12", "-o", dir.resolve("trend-" + tag + ".csv").toString()),
-                List.of("recurrence", "--store", store, "--by", "boat_slot", "--cell", CELL_MM, "-o",
+                List.of("recurrence", "--store", store, "--by", "boat_slot", "-o",
                         dir.resolve("slots-" + tag).toString()),
                 List.of("recurrence", "--store", store, "-o", dir.resolve("all-" + tag).toString()),
                 List.of("recurrence", "--store", store, "--where", "boat_slot=7", "--lot", "L0020", "--lot", "L0030",
@@ -124,6 +128,8 @@ class HistoryStoreRecurrenceTest {
             double dy = Double.parseDouble(s.get("centroid_y_mm")) - HistoryScenario.SPOT_Y_MM;
             assertThat(Math.hypot(dx, dy)).as("hot spot centroid to the planted spot, mm")
                     .isLessThanOrEqualTo(SPOT_TOLERANCE_MM);
+            // the spot is one set of touching cells on 1 mm cells, though the pixels are 2.6 mm
+            assertThat(Integer.parseInt(s.get("cells"))).isBetween(MIN_SPOT_CELLS, MAX_SPOT_CELLS);
             // every slot-7 wafer carries the spot: its cells are flagged on all of them
             assertThat(Double.parseDouble(s.get("peak_share"))).isEqualTo(1.0);
         });

@@ -78,8 +78,9 @@ class RecurrenceCommandTest {
         assertThat(r.out().lines().toList()).containsExactly(
                 "store " + store + "; all wafers; by boat_slot; 18 wafers with a footprint",
                 "  boat_slot 1, round-156: 6 wafers, no hot spot",
-                "  boat_slot 2, round-156: 6 wafers, 1 hot spot: #1 4 cells, peak 100 % of wafers, centroid (4.5,"
-                        + " -5.5) mm",
+                // the centroid (4.5, -5.5) mm to the 1 mm of the cells
+                "  boat_slot 2, round-156: 6 wafers, 1 hot spot: #1 4 cells, peak 100 % of wafers, centroid (5,"
+                        + " -6) mm",
                 "  boat_slot 3, round-156: 6 wafers, no hot spot",
                 "written: " + out.resolve("recurrence.csv") + ", " + out.resolve("hotspots.csv") + " and 6 map files");
         for (int slot = 1; slot <= 3; slot++) {

@@ -1,12 +1,15 @@
 package trapmap.maps.batch;
 
 import java.util.BitSet;
+import java.util.function.DoubleUnaryOperator;
 import trapmap.maps.raster.PixelGrid;
 
 /**
  * Where one wafer was evaluated and where it was flagged, on cells of {@code pitchMm} in wafer coordinates (mm,
  * origin at the wafer centre, y up). Cell (i, j) covers x in [(i − ½)·pitch, (i + ½)·pitch), likewise y; cells are
- * stored row by row from (minI, minJ).
+ * stored row by row from (minI, minJ). A cell holds a pixel whose centre lies in it; where the pixels are larger than
+ * the cells, a pixel is held also by every cell whose centre lies in the pixel's square, so that the cells of a
+ * region touch whatever the pitch (at or below the cell size this adds no cell).
  *
  * @param family  wafers of one family (outline format) share a recurrence map
  * @param pitchMm cell size, mm
@@ -32,6 +35,12 @@ public record Footprint(String family, double pitchMm, int minI, int minJ, int w
 
     /** As {@link #of(String, PixelGrid, int[], int, BitSet)} on cells of {@code p} mm. */
     static Footprint of(String family, PixelGrid grid, int[] indices, int count, BitSet flagged, double p) {
+        if (grid.pitchMm() > p) {
+            Footprint f = ofCoarsePixels(family, grid, indices, count, flagged, p);
+            if (f != null) {
+                return f;
+            }
+        }
         int w = grid.width();
         int h = grid.height();
         int i0 = cell(Math.min(grid.xMm(0), grid.xMm(w - 1)), p);
@@ -55,11 +64,80 @@ public record Footprint(String family, double pitchMm, int minI, int minJ, int w
     }
 
     /**
+     * The footprint of a map whose pixels are larger than the cells: each pixel marks every cell whose centre lies in
+     * its square, (x − pitch/2, x + pitch/2] along each axis (the cell under the pixel's centre among them), so that
+     * the cells of neighbouring pixels touch. Each edge between two pixels is computed once for both, so that rounding
+     * leaves no cell between them. Null when the cells would reach beyond {@link RecurrenceMap#MAX_OFFSET_MM}: such a
+     * wafer is left out of the recurrence map whatever its cells, which are then those under the pixels' centres (as
+     * many as pixels, not the pixel's area in cells each).
+     */
+    private static Footprint ofCoarsePixels(String family, PixelGrid grid, int[] indices, int count, BitSet flagged,
+                                            double p) {
+        int w = grid.width();
+        int h = grid.height();
+        int[] colLo = new int[w];
+        int[] colHi = new int[w];
+        spans(w, p, grid::xMm, colLo, colHi);
+        int[] rowLo = new int[h];
+        int[] rowHi = new int[h];
+        spans(h, p, grid::yMm, rowLo, rowHi);
+        int i0 = Math.min(colLo[0], colLo[w - 1]);
+        int i1 = Math.max(colHi[0], colHi[w - 1]);
+        int j0 = Math.min(rowLo[0], rowLo[h - 1]);
+        int j1 = Math.max(rowHi[0], rowHi[h - 1]);
+        double reach = p * Math.max(Math.max(Math.abs((double) i0), Math.abs(i1 + 1.0)),
+                Math.max(Math.abs((double) j0), Math.abs(j1 + 1.0)));
+        if (!(reach <= RecurrenceMap.MAX_OFFSET_MM)) {
+            return null;
+        }
+        int cw = i1 - i0 + 1;
+        int ch = j1 - j0 + 1;
+        BitSet covered = new BitSet(cw * ch);
+        for (int k = 0; k < count; k++) {
+            mark(covered, indices[k], w, i0, j0, cw, colLo, colHi, rowLo, rowHi);
+        }
+        BitSet hit = new BitSet(cw * ch);
+        for (int i = flagged.nextSetBit(0); i >= 0; i = flagged.nextSetBit(i + 1)) {
+            mark(hit, i, w, i0, j0, cw, colLo, colHi, rowLo, rowHi);
+        }
+        return new Footprint(family, p, i0, j0, cw, ch, covered, hit);
+    }
+
+    /**
+     * For each of {@code n} pixels along one axis ({@code mm}: the position of a pixel coordinate, mm), the first and
+     * last cell whose centre lies in the pixel's extent, widened to the cell under the pixel's centre.
+     */
+    private static void spans(int n, double p, DoubleUnaryOperator mm, int[] lo, int[] hi) {
+        double before = mm.applyAsDouble(-0.5);
+        for (int x = 0; x < n; x++) {
+            double after = mm.applyAsDouble(x + 0.5);
+            double low = Math.min(before, after);
+            double high = Math.max(before, after);
+            int centre = cell(mm.applyAsDouble(x), p);
+            lo[x] = Math.min(centre, (int) Math.floor(low / p) + 1); // cell centres i·p in (low, high]
+            hi[x] = Math.max(centre, (int) Math.floor(high / p));
+            before = after;
+        }
+    }
+
+    /** Sets in {@code cells} the cells of pixel {@code index}. */
+    private static void mark(BitSet cells, int index, int w, int i0, int j0, int cw, int[] colLo, int[] colHi,
+                             int[] rowLo, int[] rowHi) {
+        int x = index % w;
+        int y = index / w;
+        int from = colLo[x] - i0;
+        int to = colHi[x] - i0 + 1;
+        for (int j = rowLo[y] - j0; j <= rowHi[y] - j0; j++) {
+            cells.set(j * cw + from, j * cw + to);
+        }
+    }
+
+    /**
      * This footprint on cells {@code factor} times as large (odd, so that each cell lies in exactly one larger cell:
      * cell i in larger cell floor(i/factor + ½)): a larger cell is covered, or flagged, when one of its cells is. The
      * result equals the footprint made from the wafer's pixels on the larger cells directly, since a pixel lies in a
-     * larger cell exactly when its cell does. For maps whose pixels are larger than the cells, whose footprints
-     * cover only every second or third cell, so that neighbouring flagged positions do not touch.
+     * larger cell exactly when its cell does, for maps whose pixels are no larger than the cells; for coarser pixels it
+     * holds every larger cell of the direct footprint, and also those that a pixel's square reaches beyond them.
      *
      * @throws IllegalArgumentException when {@code factor} is not a positive odd number
      */

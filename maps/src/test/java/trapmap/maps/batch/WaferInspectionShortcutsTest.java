@@ -386,8 +386,18 @@ class WaferInspectionShortcutsTest {
         BitSet covered = new BitSet();
         for (int k = 0; k < count; k++) {
             int i = indices[k];
-            covered.set((Footprint.cell(g.yMm(i / w), 1) - f.minJ()) * f.width()
-                    + Footprint.cell(g.xMm(i % w), 1) - f.minI());
+            if (pitchMm <= 1) { // the cell under the pixel's centre
+                covered.set((Footprint.cell(g.yMm(i / w), 1) - f.minJ()) * f.width()
+                        + Footprint.cell(g.xMm(i % w), 1) - f.minI());
+            } else { // pixels larger than the cells: the cells whose centres lie in the pixel's square
+                double x = g.xMm(i % w);
+                double y = g.yMm(i / w);
+                for (int cy = (int) Math.floor(y - pitchMm / 2) + 1; cy <= Math.floor(y + pitchMm / 2); cy++) {
+                    for (int cx = (int) Math.floor(x - pitchMm / 2) + 1; cx <= Math.floor(x + pitchMm / 2); cx++) {
+                        covered.set((cy - f.minJ()) * f.width() + cx - f.minI());
+                    }
+                }
+            }
         }
         assertThat(f.covered()).isEqualTo(covered);
         assertThat(Footprint.of("m2", g, indices, 0, new BitSet()).covered().isEmpty()).isTrue();
