@@ -107,6 +107,24 @@ public final class CompareModel {
             return report.registration();
         }
 
+        /**
+         * How the after map was placed, for the window's status line: registered by the search, kept as the maps lie
+         * because the search scored no higher, or taken as aligned without a search ("unregistered" in compare's
+         * output).
+         */
+        public String placementLine() {
+            Registration g = report.registration();
+            String placed = String.format(java.util.Locale.ROOT, "shift (%s, %s) mm, turn %s°%s, score %s",
+                    Labels.number(g.shiftXMm()), Labels.number(g.shiftYMm()), Labels.number(g.rotationDeg()),
+                    g.mirrored() ? ", mirrored" : "", Labels.number(g.score()));
+            return switch (report.kept()) {
+                case SEARCH -> "Registered: " + placed;
+                case IDENTITY -> "Kept as the maps lie (the search scored " + Labels.number(report.searchScore())
+                        + "): " + placed;
+                case UNREGISTERED -> "Not registered (taken as aligned): " + placed;
+            };
+        }
+
         /** Registration warnings (different wafer ids or sizes, a low score), one line each. */
         public List<String> warnings() {
             return report.warnings();

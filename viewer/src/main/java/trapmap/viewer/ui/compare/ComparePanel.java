@@ -422,12 +422,9 @@ public class ComparePanel extends JPanel {
         showDerived();
         showCautions();
         beforeCanvas.fit();
-        status.setText(String.format(Locale.ROOT, "Registered: shift (%s, %s) mm, turn %s°%s, score %s%s.",
-                Labels.number(r.registration().shiftXMm()), Labels.number(r.registration().shiftYMm()),
-                Labels.number(r.registration().rotationDeg()), r.registration().mirrored() ? ", mirrored" : "",
-                Labels.number(r.registration().score()), r.warnings().isEmpty() ? ""
-                        : "; " + r.warnings().size() + " warning" + (r.warnings().size() == 1 ? "" : "s") + ": "
-                        + r.warnings().get(0)));
+        status.setText(r.placementLine() + (r.warnings().isEmpty() ? ""
+                : "; " + r.warnings().size() + " warning" + (r.warnings().size() == 1 ? "" : "s") + ": "
+                        + r.warnings().get(0)) + ".");
         status.setForeground(r.warnings().isEmpty() ? getForeground() : new Color(0xB00020));
         exportButton.setEnabled(true);
         resultListener.accept(r);

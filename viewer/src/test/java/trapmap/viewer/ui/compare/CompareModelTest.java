@@ -189,6 +189,19 @@ class CompareModelTest {
         assertThat(r.statisticsRows()).anySatisfy(row -> assertThat(row[0]).isEqualTo("warning"));
     }
 
+    /** The status line says how the after map was placed, as compare's "kept" does. */
+    @Test
+    void placementLineNamesThePlacementKept() {
+        WaferMap before = lifetime("B", 1, 0, 0, 1e14);
+        WaferMap moved = lifetime("A", 0.8, 4, -2, 1e14);
+        assertThat(CompareModel.compute(before, moved, CompareModel.Options.defaults(), ProgressListener.NONE)
+                .placementLine()).startsWith("Registered: shift (");
+        CompareModel.Result aligned = CompareModel.compute(before, lifetime("A", 0.8, 0, 0, 1e14),
+                CompareModel.Options.defaults().withRegistration(false), ProgressListener.NONE);
+        assertThat(aligned.report().kept()).isEqualTo(trapmap.maps.compare.RegistrationReport.Kept.UNREGISTERED);
+        assertThat(aligned.placementLine()).startsWith("Not registered (taken as aligned): shift (0, 0) mm, turn 0°");
+    }
+
     private static int countNaN(WaferMap m) {
         int n = 0;
         for (float v : m.raster().samples()) {
