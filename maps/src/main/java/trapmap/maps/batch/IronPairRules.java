@@ -161,14 +161,25 @@ public record IronPairRules(String febState, String feiState, List<IronLimit> li
         return s;
     }
 
-    private static IronLimit limit(String name, String figure, JsonNode spec) throws RulesException {
-        String path = "iron.limits." + figure;
+    /**
+     * The percentile an iron figure's column gives: 50 for {@code iron_median_cm3}, NN for {@code iron_pNN_cm3}; NaN
+     * for a column that is no iron figure.
+     */
+    public static double percentOf(String figure) {
         Matcher m = FIGURE.matcher(figure);
         if (!m.matches()) {
+            return Double.NaN;
+        }
+        return m.group(2) == null ? 50 : Double.parseDouble(m.group(2));
+    }
+
+    private static IronLimit limit(String name, String figure, JsonNode spec) throws RulesException {
+        String path = "iron.limits." + figure;
+        double percent = percentOf(figure);
+        if (Double.isNaN(percent)) {
             throw error(name, path, "unknown iron figure; expected iron_median_cm3 or iron_pNN_cm3 (e.g."
                     + " iron_p95_cm3)", "cm^-3");
         }
-        double percent = m.group(2) == null ? 50 : Double.parseDouble(m.group(2));
         if (!(percent >= 0 && percent <= 100)) {
             throw error(name, path, "percentile must be in [0, 100]", "");
         }

@@ -65,4 +65,13 @@ class IronPairRulesTest {
                 .isInstanceOf(RulesException.class).hasMessageContaining("iron.fei_state");
         assertThat(IronPairRules.read(Path.of("..", "demo-data", "rules-example.json"))).isPresent();
     }
+
+    @Test
+    void theFigureColumnsNameTheirPercentile() {
+        assertThat(IronPairRules.percentOf("iron_median_cm3")).isEqualTo(50);
+        assertThat(IronPairRules.percentOf("iron_p95_cm3")).isEqualTo(95);
+        assertThat(IronPairRules.percentOf("iron_p99.5_cm3")).isEqualTo(99.5);
+        assertThat(IronPairRules.percentOf("iron_note")).isNaN();
+        assertThat(IronPairRules.percentOf("iron_crossover_cm3")).isNaN();
+    }
 }

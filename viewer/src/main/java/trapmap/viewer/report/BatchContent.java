@@ -67,7 +67,7 @@ public record BatchContent(Path outputDir, Rules rules, List<Row> rows, Map<Stri
      * @param worstPeak     its peak value in the unit of the profile's flag
      * @param error         the reason of an error row
      * @param iron          the row's iron columns ({@code iron_…} of {@code results.csv}, text as written; empty
-     *                      when the batch mapped no iron), in column order
+     *                      when the batch mapped no iron), by column name
      */
     public record Row(String file, String waferId, String status, String grade, String profile, String defect,
                       Map<String, Double> figures, List<String> failed, double worstAreaMm2, double worstXMm,

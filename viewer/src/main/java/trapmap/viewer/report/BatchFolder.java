@@ -94,52 +94,18 @@ final class BatchFolder {
     }
 
     /**
-     * The iron columns of a row ({@code iron_…}, as {@code IronPairs} names them), text as the batch made it: partner,
-     * status, the figures (median, then the percentiles in rising order), crossover, registration, failed, note;
-     * empty cells left out.
+     * The iron columns of a row ({@code iron_…}, as {@code IronPairs} names them), text as the batch made it; empty
+     * cells left out.
      */
     static Map<String, String> iron(Map<String, String> cells) {
-        List<String> names = new ArrayList<>();
-        for (String k : cells.keySet()) {
-            if (k != null && k.startsWith("iron_") && cells.get(k) != null && !cells.get(k).isEmpty()) {
-                names.add(k);
+        Map<String, String> out = new java.util.TreeMap<>();
+        cells.forEach((k, v) -> {
+            if (k != null && k.startsWith("iron_") && v != null && !v.isEmpty()) {
+                out.put(k, v);
             }
-        }
-        names.sort(java.util.Comparator.comparingInt(BatchFolder::ironRank).thenComparingDouble(BatchFolder::ironPercent)
-                .thenComparing(java.util.Comparator.naturalOrder()));
-        Map<String, String> out = new LinkedHashMap<>();
-        names.forEach(k -> out.put(k, cells.get(k)));
+        });
         return out;
     }
-
-    private static int ironRank(String column) {
-        return switch (column) {
-            case IronPairs.PARTNER -> 0;
-            case IronPairs.STATUS -> 1;
-            case "iron_crossover_cm3" -> 3;
-            case "iron_registration_score" -> 4;
-            case IronPairs.FAILED -> 5;
-            case IronPairs.NOTE -> 6;
-            default -> 2; // the figures
-        };
-    }
-
-    /** The percentile an iron figure column gives (50: the median), +∞ for other columns. */
-    static double ironPercent(String column) {
-        if (column.equals("iron_median_cm3")) {
-            return 50;
-        }
-        java.util.regex.Matcher m = IRON_PERCENTILE.matcher(column);
-        return m.matches() ? Double.parseDouble(m.group(1)) : Double.POSITIVE_INFINITY;
-    }
-
-    /** Whether a column is an iron figure ({@code iron_median_cm3}, {@code iron_pNN_cm3}). */
-    static boolean ironFigure(String column) {
-        return column.equals("iron_median_cm3") || IRON_PERCENTILE.matcher(column).matches();
-    }
-
-    private static final java.util.regex.Pattern IRON_PERCENTILE =
-            java.util.regex.Pattern.compile("iron_p(\\d{1,2}(?:\\.\\d+)?)_cm3");
 
     private static String text(Map<String, String> cells, String column) {
         String v = cells.get(column);

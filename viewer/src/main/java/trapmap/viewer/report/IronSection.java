@@ -7,6 +7,7 @@ import java.util.Comparator;
 import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Set;
+import trapmap.maps.batch.IronPairRules;
 import trapmap.maps.batch.IronPairs;
 import trapmap.viewer.graphics.Labels;
 
@@ -32,9 +33,10 @@ final class IronSection {
             return;
         }
         Set<String> figureSet = new LinkedHashSet<>();
-        pairs.forEach(r -> r.iron().keySet().stream().filter(BatchFolder::ironFigure).forEach(figureSet::add));
+        pairs.forEach(r -> r.iron().keySet().stream().filter(k -> !Double.isNaN(IronPairRules.percentOf(k)))
+                .forEach(figureSet::add));
         List<String> figures = new ArrayList<>(figureSet);
-        figures.sort(Comparator.comparingDouble(BatchFolder::ironPercent));
+        figures.sort(Comparator.comparingDouble(IronPairRules::percentOf));
         float f = ReportFlow.FULL;
         float fig = f * 0.11f;
         float[] widths = new float[4 + figures.size()];
