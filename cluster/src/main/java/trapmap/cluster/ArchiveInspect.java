@@ -10,6 +10,7 @@ import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import trapmap.maps.batch.RulesException;
+import trapmap.maps.model.Caution;
 
 /**
  * {@code spark-submit --class trapmap.cluster.ArchiveInspect trapmap-cluster.jar --input PATH --rules R.json
@@ -22,8 +23,7 @@ import trapmap.maps.batch.RulesException;
         description = {"Judges an archive of wafer maps (local, HDFS or object-storage paths) with the rules of"
                 + " inspect on Apache Spark, and writes the results, flagged regions and footprints as Parquet tables"
                 + " (OUTPUT/results, OUTPUT/regions, OUTPUT/footprints) partitioned by day or lot.",
-                "Caution: equivalent density assumes one dominant defect; verify with an independent method before"
-                + " scrapping material; follow site procedures."},
+                "Caution: " + Caution.TEXT},
         footer = {"", "Exit codes: 0 every map judged (bad files become error rows); 2 invalid arguments or rules;"
                 + " 3 the job failed; 4 the tables were written but could not be loaded into the store."})
 public final class ArchiveInspect implements Callable<Integer> {
@@ -116,8 +116,7 @@ public final class ArchiveInspect implements Callable<Integer> {
                 long n = StoreLoad.load(spark, output, rules, store, storeBatch);
                 out.println(n + " wafers loaded into the results store " + store);
             }
-            out.println("Caution: equivalent density assumes one dominant defect; verify with an independent method"
-                    + " before scrapping material; follow site procedures.");
+            out.println("Caution: " + Caution.TEXT);
             return 0;
         } catch (RulesException e) {
             err.println("trapmap-cluster: --rules " + e.getMessage());
